@@ -1,0 +1,74 @@
+import { T25_K, thermalVoltageV } from "./constants.js";
+import { wrightOmega } from "./lambert-w.js";
+
+/**
+ * Shockley diode with ideality factor and series resistance, and the SPICE level-1 temperature
+ * law of the saturation current.
+ *
+ *   I = Is(T)·(exp((V − I·Rs)/(n·Vt)) − 1),  Vt = kT/q
+ *   Is(T) = Is(T0)·(T/T0)^(XTI/n)·exp((Eg/(n·Vt(T)))·(T/T0 − 1))
+ *
+ * The second line is the saturation-current law of the SPICE level-1 diode (as in ngspice's
+ * diode model, with Eg held constant and no Rs temperature coefficient).
+ */
+export interface DiodeParams {
+  /** Saturation current at the nominal temperature, A. */
+  readonly saturationCurrentA: number;
+  /** Ideality (emission) coefficient n, dimensionless. */
+  readonly ideality: number;
+  /** Series resistance, ohm. */
+  readonly seriesResistanceOhm: number;
+  /** Activation energy Eg, eV (silicon 1.11, Schottky about 0.69). */
+  readonly energyGapEv: number;
+  /** Saturation-current temperature exponent XTI (PN 3, Schottky 2). */
+  readonly saturationTempExponent: number;
+  /** Temperature at which saturationCurrentA holds, K. */
+  readonly nominalTempK: number;
+}
+
+/** Saturation current at the absolute temperature tK, A. */
+export function saturationCurrentAt(p: DiodeParams, tK: number): number {
+  const ratio = tK / p.nominalTempK;
+  const vt = thermalVoltageV(tK);
+  return (
+    p.saturationCurrentA *
+    ratio ** (p.saturationTempExponent / p.ideality) *
+    Math.exp((p.energyGapEv / (p.ideality * vt)) * (ratio - 1))
+  );
+}
+
+/** Forward voltage at forward current currentA (≥ 0) and temperature tK: explicit. */
+export function diodeVoltageV(p: DiodeParams, currentA: number, tK: number): number {
+  const is = saturationCurrentAt(p, tK);
+  const nvt = p.ideality * thermalVoltageV(tK);
+  return nvt * Math.log1p(currentA / is) + currentA * p.seriesResistanceOhm;
+}
+
+/**
+ * Forward current at terminal voltage voltageV and temperature tK, exact through the Lambert W
+ * function (T. C. Banwell and A. Jayakumar, Electronics Letters 36(4), 2000):
+ *   I = (n·Vt/Rs)·W0((Is·Rs/(n·Vt))·exp((V + Is·Rs)/(n·Vt))) − Is,
+ * evaluated as (n·Vt/Rs)·ω(x) − Is with x the log of W's argument, so large V cannot overflow.
+ */
+export function diodeCurrentA(p: DiodeParams, voltageV: number, tK: number): number {
+  const is = saturationCurrentAt(p, tK);
+  const nvt = p.ideality * thermalVoltageV(tK);
+  const rs = p.seriesResistanceOhm;
+  if (rs <= 0) return is * Math.expm1(voltageV / nvt);
+  const x = Math.log((is * rs) / nvt) + (voltageV + is * rs) / nvt;
+  return (nvt / rs) * wrightOmega(x) - is;
+}
+
+/** Small-signal slope dV/dI of the diode at current currentA, ohm. */
+export function diodeSlopeOhm(p: DiodeParams, currentA: number, tK: number): number {
+  const is = saturationCurrentAt(p, tK);
+  return (p.ideality * thermalVoltageV(tK)) / (currentA + is) + p.seriesResistanceOhm;
+}
+
+/** Defaults of the SPICE level-1 law by junction type [common practice]. */
+export const JUNCTION_DEFAULTS = {
+  pn: { energyGapEv: 1.11, saturationTempExponent: 3 },
+  schottky: { energyGapEv: 0.69, saturationTempExponent: 2 },
+} as const;
+
+export const DEFAULT_NOMINAL_TEMP_K = T25_K;

@@ -1,0 +1,71 @@
+import { T25_K } from "./constants.js";
+
+/** On-resistance of a MOSFET channel against gate-source voltage and junction temperature. */
+export interface ChannelParams {
+  /** Datasheet Rds(on) at 25 °C against Vgs, sorted by gateSourceV ascending, at least one. */
+  readonly rdsOnPoints: readonly { readonly gateSourceV: number; readonly rdsOnOhm: number }[];
+  /** Gate threshold voltage, V (magnitude for a P-channel part). */
+  readonly thresholdV: number;
+  readonly tempLaw: RdsTempLaw;
+}
+
+/**
+ * Temperature law of Rds(on): a power law R(T) = R25·(T/298.15 K)^α (common practice, α ≈ 2.3,
+ * after the mobility exponents of Arora et al. 1982), or a factor R(T)/R25 against Tj as points,
+ * interpolated linearly and held flat outside them.
+ */
+export type RdsTempLaw =
+  | { readonly law: "power"; readonly exponent: number }
+  | { readonly law: "points"; readonly points: readonly { readonly tempK: number; readonly factor: number }[] };
+
+/** R(T)/R(25 °C). */
+export function rdsTempFactor(law: RdsTempLaw, tK: number): number {
+  if (law.law === "power") return (tK / T25_K) ** law.exponent;
+  return interpolate(law.points.map((p) => [p.tempK, p.factor] as const), tK);
+}
+
+/**
+ * Channel conductance at 25 °C against Vgs: piecewise linear through (Vth, 0) and the datasheet
+ * points, flat above the highest point. Below the lowest point this is the square-law triode
+ * scaling R ∝ 1/(Vgs − Vth) (textbook MOSFET triode region), which is why it is linear in G.
+ */
+export function channelConductance25S(p: ChannelParams, gateSourceV: number): number {
+  if (gateSourceV <= p.thresholdV) return 0;
+  const nodes: (readonly [number, number])[] = [[p.thresholdV, 0]];
+  for (const pt of p.rdsOnPoints) {
+    if (pt.gateSourceV > p.thresholdV) nodes.push([pt.gateSourceV, 1 / pt.rdsOnOhm]);
+  }
+  return interpolate(nodes, gateSourceV);
+}
+
+/** Channel resistance at a gate drive and temperature; Infinity-free: undefined when off. */
+export function channelResistanceOhm(p: ChannelParams, gateSourceV: number, tK: number): number | undefined {
+  const g = channelConductance25S(p, gateSourceV);
+  if (!(g > 0)) return undefined;
+  return rdsTempFactor(p.tempLaw, tK) / g;
+}
+
+/** The lowest gate drive at which the datasheet characterises Rds(on): "fully enhanced" from here. */
+export function fullEnhancementV(p: ChannelParams): number {
+  let lowest = Number.POSITIVE_INFINITY;
+  for (const pt of p.rdsOnPoints) lowest = Math.min(lowest, pt.gateSourceV);
+  return lowest;
+}
+
+/** Linear interpolation through sorted (x, y) nodes, flat outside them. */
+export function interpolate(nodes: readonly (readonly [number, number])[], x: number): number {
+  const first = nodes[0];
+  const last = nodes[nodes.length - 1];
+  if (first === undefined || last === undefined) throw new Error("interpolate: no nodes");
+  if (x <= first[0]) return first[1];
+  if (x >= last[0]) return last[1];
+  for (let i = 1; i < nodes.length; i += 1) {
+    const a = nodes[i - 1];
+    const b = nodes[i];
+    if (a && b && x <= b[0]) {
+      const span = b[0] - a[0];
+      return span > 0 ? a[1] + ((b[1] - a[1]) * (x - a[0])) / span : b[1];
+    }
+  }
+  return last[1];
+}

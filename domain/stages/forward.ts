@@ -1,0 +1,79 @@
+import { interpolate, rdsTempFactor } from "../physics/mosfet-channel.js";
+import { type ForwardState, junctionState } from "./conduction.js";
+import { blendWithBodyDiode, mosfetForward } from "./mosfet-forward.js";
+import type { StageModel } from "./stage-model.js";
+
+/**
+ * Forward state of any stage carrying currentA ≥ 0 at junction temperature tK, with inputV the
+ * voltage at the stage's input terminal (it sets the gate drive and whether a controller runs).
+ */
+export function stageForward(stage: StageModel, currentA: number, tK: number, inputV: number): ForwardState {
+  switch (stage.kind) {
+    case "pn-diode":
+    case "schottky-diode":
+      return junctionState(stage.diode, currentA, tK, "junction");
+    case "nfet-low-side": {
+      const vgs = clamp(inputV, stage.gateClampV);
+      return mosfetForward(stage.mosfet.channel, stage.mosfet.bodyDiode, vgs, currentA, tK, 0);
+    }
+    case "pfet-high-side": {
+      // The source sits at the output: |Vgs| = Vin − drop, found by a few substitutions (the
+      // drop is small against Vin, so this contracts quickly).
+      let vgs = clamp(inputV, stage.gateClampV);
+      let state = mosfetForward(stage.mosfet.channel, stage.mosfet.bodyDiode, vgs, currentA, tK, 0);
+      for (let i = 0; i < 30; i += 1) {
+        const next = clamp(Math.max(0, inputV - state.dropV), stage.gateClampV);
+        if (Math.abs(next - vgs) < 1e-12) break;
+        vgs = next;
+        state = mosfetForward(stage.mosfet.channel, stage.mosfet.bodyDiode, vgs, currentA, tK, 0);
+      }
+      return state;
+    }
+    case "nfet-ideal-diode": {
+      const c = stage.controller;
+      const body = junctionState(stage.mosfet.bodyDiode, currentA, tK, "body-diode");
+      if (inputV < c.startV) return body;
+      const vgs = interpolate(c.gateDrive.map((p) => [p.inputV, p.gateSourceV] as const), inputV);
+      const on = mosfetForward(stage.mosfet.channel, stage.mosfet.bodyDiode, vgs, currentA, tK, c.regulatedDropV);
+      return blendWithBodyDiode(on, body, c.gateReleaseFraction);
+    }
+    case "integrated-switch": {
+      if (inputV < stage.startV) {
+        if (stage.belowStart.mode === "blocks") {
+          return { mode: "off", dropV: 0, lossW: 0, channelCurrentA: 0, bodyDiodeCurrentA: 0, bodyDiodeTimeFraction: 0 };
+        }
+        return junctionState(stage.belowStart.bodyDiode, currentA, tK, "body-diode");
+      }
+      const noBody = stage.belowStart.mode === "body-diode" ? stage.belowStart.bodyDiode : undefined;
+      if (noBody) return mosfetForward(stage.channel, noBody, stage.internalGateV, currentA, tK, stage.regulatedDropV);
+      return integratedWithoutBodyDiode(stage, currentA, tK);
+    }
+  }
+}
+
+function integratedWithoutBodyDiode(
+  stage: Extract<StageModel, { kind: "integrated-switch" }>,
+  currentA: number,
+  tK: number,
+): ForwardState {
+  // Back-to-back integrated FETs: no body-diode path, the channel alone carries the current.
+  const point = stage.channel.rdsOnPoints[0];
+  if (point === undefined) throw new Error("integrated switch without an on-resistance point");
+  const rOhm = point.rdsOnOhm * rdsTempFactor(stage.channel.tempLaw, tK);
+  const regulated = stage.regulatedDropV > 0 && currentA * rOhm < stage.regulatedDropV;
+  const dropV = regulated ? stage.regulatedDropV : currentA * rOhm;
+  return {
+    mode: regulated ? "regulated-drop" : "fully-enhanced",
+    dropV,
+    lossW: dropV * currentA,
+    channelCurrentA: currentA,
+    bodyDiodeCurrentA: 0,
+    gateSourceV: stage.internalGateV,
+    channelResistanceOhm: rOhm,
+    bodyDiodeTimeFraction: 0,
+  };
+}
+
+function clamp(v: number, limit: number | undefined): number {
+  return limit === undefined ? v : Math.min(v, limit);
+}

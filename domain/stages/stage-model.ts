@@ -1,0 +1,108 @@
+import type { DiodeParams } from "../physics/diode.js";
+import type { ChannelParams } from "../physics/mosfet-channel.js";
+import type { ThermalPath } from "../physics/thermal-path.js";
+
+/**
+ * The series protection stages, in domain terms: plain SI numbers, temperatures named by unit.
+ * One discriminated union on `kind`; each kind's forward model lives in a file of its own.
+ */
+export type StageModel = DiodeStage | PFetStage | NFetLowSideStage | IdealDiodeStage | IntegratedSwitchStage;
+export type StageKind = StageModel["kind"];
+
+export interface DiodeStage {
+  readonly kind: "pn-diode" | "schottky-diode";
+  readonly diode: DiodeParams;
+  readonly reverseRatingV: number;
+  readonly tjMaxC: number;
+  readonly thermal: ThermalPath;
+}
+
+export interface MosfetModel {
+  readonly channel: ChannelParams;
+  readonly bodyDiode: DiodeParams;
+  readonly vdsMaxV: number;
+  readonly vgsMaxV: number;
+  readonly tjMaxC: number;
+}
+
+/** P-channel MOSFET in the supply line, gate pulled to ground: |Vgs| = min(Vout, clamp). */
+export interface PFetStage {
+  readonly kind: "pfet-high-side";
+  readonly mosfet: MosfetModel;
+  /** Zener clamp on the gate-source, V; absent: no clamp. */
+  readonly gateClampV?: number;
+  readonly thermal: ThermalPath;
+}
+
+/** N-channel MOSFET in the ground return, gate tied to the supply: Vgs = min(Vin, clamp). */
+export interface NFetLowSideStage {
+  readonly kind: "nfet-low-side";
+  readonly mosfet: MosfetModel;
+  readonly gateClampV?: number;
+  readonly thermal: ThermalPath;
+}
+
+export interface ControllerModel {
+  /** Input voltage from which the controller runs, V. */
+  readonly startV: number;
+  /** Gate-source drive available against input voltage (charge-pump output), sorted by inputV. */
+  readonly gateDrive: readonly { readonly inputV: number; readonly gateSourceV: number }[];
+  /** Forward drop the controller regulates to at light load, V (0: no regulation). */
+  readonly regulatedDropV: number;
+  readonly quiescentA: number;
+  /** Fraction of time a duty-cycled charge pump releases the gate (body diode conducts), 0..1. */
+  readonly gateReleaseFraction: number;
+  readonly maxInputV?: number;
+}
+
+/** N-channel MOSFET in the supply line driven by an ideal-diode controller. */
+export interface IdealDiodeStage {
+  readonly kind: "nfet-ideal-diode";
+  readonly mosfet: MosfetModel;
+  readonly controller: ControllerModel;
+  readonly thermal: ThermalPath;
+}
+
+/** Integrated switch: the MOSFET and its control on one die. */
+export interface IntegratedSwitchStage {
+  readonly kind: "integrated-switch";
+  /** On-resistance at 25 °C, ohm, and its temperature law (channel with one point). */
+  readonly channel: ChannelParams;
+  /** Internal gate drive once running, V (above every Rds(on) point: fully enhanced). */
+  readonly internalGateV: number;
+  readonly startV: number;
+  /** Below start: conducts through the body diode, or blocks. */
+  readonly belowStart: { readonly mode: "body-diode"; readonly bodyDiode: DiodeParams } | { readonly mode: "blocks" };
+  readonly regulatedDropV: number;
+  readonly quiescentA: number;
+  readonly maxVoltageV: number;
+  readonly currentLimitA?: number;
+  readonly tjMaxC: number;
+  readonly thermal: ThermalPath;
+}
+
+/** Junction limit of the die that carries the load current. */
+export function stageTjMaxC(stage: StageModel): number {
+  switch (stage.kind) {
+    case "pn-diode":
+    case "schottky-diode":
+    case "integrated-switch":
+      return stage.tjMaxC;
+    case "pfet-high-side":
+    case "nfet-low-side":
+    case "nfet-ideal-diode":
+      return stage.mosfet.tjMaxC;
+  }
+}
+
+/** Quiescent current drawn from the input to ground by the stage's control, A. */
+export function stageQuiescentA(stage: StageModel): number {
+  switch (stage.kind) {
+    case "nfet-ideal-diode":
+      return stage.controller.quiescentA;
+    case "integrated-switch":
+      return stage.quiescentA;
+    default:
+      return 0;
+  }
+}
