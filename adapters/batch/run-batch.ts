@@ -1,0 +1,87 @@
+import { createInterface } from "node:readline";
+import type { Readable, Writable } from "node:stream";
+import { z } from "zod";
+import type { Context } from "../../api/context.js";
+import { errorBodyOf } from "../../api/error-body.js";
+import { appRouter } from "../../api/router.js";
+import { createCallerFactory } from "../../api/trpc.js";
+import type { ErrorBody } from "../../contracts/outcome.js";
+
+/** One input line: `{ "id"?: string|number, "procedure": "<router path>", "input": {...} }`. */
+export const batchLine = z.object({
+  id: z.union([z.string().max(200), z.number()]).optional(),
+  procedure: z.string().min(1).max(200),
+  input: z.unknown(),
+});
+
+export type BatchOutputLine =
+  | { readonly id: string | number | null; readonly line: number; readonly ok: true; readonly result: unknown }
+  | { readonly id: string | number | null; readonly line: number; readonly ok: false; readonly error: ErrorBody };
+
+export interface BatchCounts {
+  lines: number;
+  ok: number;
+  failed: number;
+}
+
+const MAX_LINE_CHARS = 1_000_000;
+type Invoke = (input: unknown) => Promise<unknown>;
+
+/** Resolve a router path to a callable procedure of an in-process caller (same router as HTTP). */
+export function procedureInvoker(ctx: Context): (path: string) => Invoke | undefined {
+  const caller = createCallerFactory(appRouter)(ctx) as unknown as Record<string, unknown>;
+  const known = new Set(Object.keys(appRouter._def.procedures));
+  return (path) => {
+    if (!known.has(path)) return undefined;
+    let node: unknown = caller;
+    for (const part of path.split(".")) node = (node as Record<string, unknown>)[part];
+    return node as Invoke;
+  };
+}
+
+/** Process one raw line into exactly one output record; never throws. */
+export async function processLine(raw: string, lineNo: number, invoker: (path: string) => Invoke | undefined): Promise<BatchOutputLine> {
+  let parsedJson: unknown;
+  const fail = (id: string | number | null, error: ErrorBody): BatchOutputLine => ({ id, line: lineNo, ok: false, error });
+  if (raw.trim() === "") return fail(null, { code: "malformed-line", message: "empty line", issues: [] });
+  if (raw.length > MAX_LINE_CHARS) return fail(null, { code: "malformed-line", message: `line longer than ${MAX_LINE_CHARS} characters`, issues: [] });
+  try {
+    parsedJson = JSON.parse(raw);
+  } catch (e) {
+    return fail(null, { code: "malformed-line", message: `not JSON: ${(e as Error).message}`, issues: [] });
+  }
+  const line = batchLine.safeParse(parsedJson);
+  if (!line.success) {
+    const id = typeof parsedJson === "object" && parsedJson !== null && "id" in parsedJson ? idOf((parsedJson as { id: unknown }).id) : null;
+    return fail(id, errorBodyOf(line.error));
+  }
+  const id = line.data.id ?? null;
+  const invoke = invoker(line.data.procedure);
+  if (invoke === undefined) {
+    return fail(id, { code: "unknown-procedure", message: `no procedure "${line.data.procedure}"`, issues: [{ path: ["procedure"], message: "unknown procedure" }] });
+  }
+  try {
+    return { id, line: lineNo, ok: true, result: await invoke(line.data.input) };
+  } catch (e) {
+    return fail(id, errorBodyOf(e));
+  }
+}
+
+function idOf(v: unknown): string | number | null {
+  return typeof v === "string" || typeof v === "number" ? v : null;
+}
+
+/** Stream JSON Lines in → one result or error line out per input line, in order, same id. */
+export async function runBatch(input: Readable, output: Writable, ctx: Context): Promise<BatchCounts> {
+  const invoker = procedureInvoker(ctx);
+  const counts: BatchCounts = { lines: 0, ok: 0, failed: 0 };
+  const rl = createInterface({ input, crlfDelay: Number.POSITIVE_INFINITY });
+  for await (const raw of rl) {
+    counts.lines += 1;
+    const out = await processLine(raw, counts.lines, invoker);
+    if (out.ok) counts.ok += 1;
+    else counts.failed += 1;
+    if (!output.write(`${JSON.stringify(out)}\n`)) await new Promise<void>((r) => output.once("drain", () => r()));
+  }
+  return counts;
+}

@@ -1,0 +1,18 @@
+import type { StageSpec } from "../contracts/stage.js";
+
+/** A part of the approved-parts catalog: a stage with an id. */
+export interface CatalogPart {
+  readonly id: string;
+  readonly description: string;
+  readonly stage: StageSpec;
+}
+
+/** Port: where parts come from (a file in the demo; a PLM export in production). */
+export interface PartsCatalog {
+  find(id: string): CatalogPart | undefined;
+  list(): readonly CatalogPart[];
+}
+
+export interface Context {
+  readonly catalog: PartsCatalog;
+}

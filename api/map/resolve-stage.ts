@@ -1,0 +1,32 @@
+import type { StageInput, StageSpec } from "../../contracts/stage.js";
+import type { ThermalPath } from "../../domain/physics/thermal-path.js";
+import type { StageModel } from "../../domain/stages/stage-model.js";
+import type { PartsCatalog } from "../context.js";
+import { inputProblem } from "../input-problem.js";
+import { toStageModel } from "./stage-model.js";
+
+export interface ResolvedStage {
+  readonly spec: StageSpec;
+  readonly model: StageModel;
+  readonly partId?: string;
+}
+
+/**
+ * A stage input (inline, or a catalog part by id) → its contract spec and domain model. The thermal
+ * path is, in order: the request's override, the catalog reference's, the stage's own.
+ */
+export function resolveStage(
+  input: StageInput,
+  catalog: PartsCatalog,
+  path: (string | number)[],
+  assumptions: string[],
+  thermalOverride?: ThermalPath,
+): ResolvedStage {
+  if (input.kind === "catalog-part") {
+    const part = catalog.find(input.partId);
+    if (part === undefined) throw inputProblem("unknown-part", [...path, "partId"], `no part "${input.partId}" in the parts catalog`);
+    const thermal = thermalOverride ?? input.thermal ?? part.stage.thermal;
+    return { spec: part.stage, model: toStageModel(part.stage, thermal, [...path], assumptions), partId: part.id };
+  }
+  return { spec: input, model: toStageModel(input, thermalOverride ?? input.thermal, path, assumptions) };
+}

@@ -1,0 +1,95 @@
+import type { StageSpec } from "../../contracts/stage.js";
+import { cToK } from "../../domain/physics/constants.js";
+import type { RdsTempLaw } from "../../domain/physics/mosfet-channel.js";
+import type { ThermalPath } from "../../domain/physics/thermal-path.js";
+import type { MosfetModel, StageModel } from "../../domain/stages/stage-model.js";
+import { toDiodeParams } from "./diode-params.js";
+
+type MosfetSpec = Extract<StageSpec, { mosfet: unknown }>["mosfet"];
+type TempLawSpec = NonNullable<MosfetSpec["rdsOnTemp"]>;
+
+/** Default Rds(on) temperature exponent [common practice; REFERENCES.md, mobility exponents 2.2-2.33]. */
+export const DEFAULT_RDS_EXPONENT = 2.3;
+
+/** Contract stage → domain stage model; records every default it applies in `assumptions`. */
+export function toStageModel(spec: StageSpec, thermal: ThermalPath, path: (string | number)[], assumptions: string[]): StageModel {
+  switch (spec.kind) {
+    case "pn-diode":
+    case "schottky-diode":
+      return {
+        kind: spec.kind,
+        diode: toDiodeParams(spec.diode, spec.kind === "pn-diode" ? "pn" : "schottky", [...path, "diode"], assumptions),
+        reverseRatingV: spec.reverseRatingV,
+        tjMaxC: spec.tjMaxC,
+        thermal,
+      };
+    case "pfet-high-side":
+    case "nfet-low-side":
+      return {
+        kind: spec.kind,
+        mosfet: toMosfet(spec.mosfet, [...path, "mosfet"], assumptions),
+        ...(spec.gateClampV === undefined ? {} : { gateClampV: spec.gateClampV }),
+        thermal,
+      };
+    case "nfet-ideal-diode": {
+      const c = spec.controller;
+      return {
+        kind: spec.kind,
+        mosfet: toMosfet(spec.mosfet, [...path, "mosfet"], assumptions),
+        controller: {
+          startV: c.startV,
+          gateDrive: c.gateDrive,
+          regulatedDropV: c.regulatedDropV,
+          quiescentA: c.quiescentA,
+          gateReleaseFraction: c.gateReleaseFraction ?? 0,
+          ...(c.maxInputV === undefined ? {} : { maxInputV: c.maxInputV }),
+        },
+        thermal,
+      };
+    }
+    case "integrated-switch":
+      return {
+        kind: spec.kind,
+        channel: {
+          rdsOnPoints: [{ gateSourceV: 10, rdsOnOhm: spec.onResistanceOhm }],
+          thresholdV: 1,
+          tempLaw: toTempLaw(spec.onResistanceTemp, [...path, "onResistanceTemp"], assumptions),
+        },
+        internalGateV: 10,
+        startV: spec.startV,
+        belowStart:
+          spec.belowStart === "body-diode" && spec.bodyDiode !== undefined
+            ? { mode: "body-diode", bodyDiode: toDiodeParams(spec.bodyDiode, "pn", [...path, "bodyDiode"], assumptions) }
+            : { mode: "blocks" },
+        regulatedDropV: spec.regulatedDropV,
+        quiescentA: spec.quiescentA,
+        maxVoltageV: spec.maxVoltageV,
+        ...(spec.currentLimitA === undefined ? {} : { currentLimitA: spec.currentLimitA }),
+        tjMaxC: spec.tjMaxC,
+        thermal,
+      };
+  }
+}
+
+function toMosfet(m: MosfetSpec, path: (string | number)[], assumptions: string[]): MosfetModel {
+  return {
+    channel: {
+      rdsOnPoints: [...m.rdsOn].sort((a, b) => a.gateSourceV - b.gateSourceV),
+      thresholdV: m.thresholdV,
+      tempLaw: toTempLaw(m.rdsOnTemp, [...path, "rdsOnTemp"], assumptions),
+    },
+    bodyDiode: toDiodeParams(m.bodyDiode, "pn", [...path, "bodyDiode"], assumptions),
+    vdsMaxV: m.vdsMaxV,
+    vgsMaxV: m.vgsMaxV,
+    tjMaxC: m.tjMaxC,
+  };
+}
+
+function toTempLaw(law: TempLawSpec | undefined, path: (string | number)[], assumptions: string[]): RdsTempLaw {
+  if (law === undefined) {
+    assumptions.push(`${path.join(".")}: Rds(on) ∝ (T/298.15 K)^${DEFAULT_RDS_EXPONENT} (default exponent, common practice)`);
+    return { law: "power", exponent: DEFAULT_RDS_EXPONENT };
+  }
+  if (law.law === "power") return { law: "power", exponent: law.exponent };
+  return { law: "points", points: law.points.map((p) => ({ tempK: cToK(p.tjC), factor: p.factor })) };
+}

@@ -1,0 +1,35 @@
+import { z } from "zod";
+import { quantity, ratio, temperatureC } from "./quantity.js";
+
+const energyGapEv = z.number().gt(0.1).lte(5).meta({ description: "activation energy Eg of the Is(T) law, eV (default: 1.11 PN, 0.69 Schottky)", unit: "eV" });
+const saturationTempExponent = z.number().gte(0).lte(10).meta({ description: "Is temperature exponent XTI (default: 3 PN, 2 Schottky)", unit: "1" });
+
+export const diodeShockley = z.object({
+  model: z.literal("shockley"),
+  saturationCurrentA: quantity("A", "saturation current Is at the nominal temperature", { gt: 0, le: 1 }),
+  ideality: ratio("ideality (emission) factor n", { ge: 0.5, le: 10 }),
+  seriesResistanceOhm: quantity("ohm", "series resistance Rs", { ge: 0, le: 1e3 }),
+  energyGapEv: energyGapEv.optional(),
+  saturationTempExponent: saturationTempExponent.optional(),
+  nominalTempC: temperatureC("temperature at which Is holds (default 25 °C)").optional(),
+});
+
+export const forwardPoint = z.object({
+  currentA: quantity("A", "forward current of the datasheet point", { gt: 0, le: 1e5 }),
+  voltageV: quantity("V", "forward voltage of the datasheet point", { gt: 0, le: 100 }),
+  tempC: temperatureC("junction temperature of the point (default 25 °C)").optional(),
+});
+
+export const diodePoints = z.object({
+  model: z.literal("points"),
+  points: z.array(forwardPoint).min(2).max(3).meta({ description: "two or three (I, Vf, T) points; two fit Is and n, three also Rs" }),
+  seriesResistanceOhm: quantity("ohm", "series resistance to hold with two points (default 0)", { ge: 0, le: 1e3 }).optional(),
+  energyGapEv: energyGapEv.optional(),
+  saturationTempExponent: saturationTempExponent.optional(),
+});
+
+export const diode = z
+  .discriminatedUnion("model", [diodeShockley, diodePoints])
+  .meta({ description: "a junction: Shockley parameters, or two or three datasheet points that backstop fits" });
+export type DiodeInput = z.input<typeof diode>;
+export type DiodeSpec = z.output<typeof diode>;

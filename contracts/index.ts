@@ -1,0 +1,10 @@
+/** The public contracts: zod schemas and the types inferred from them, for clients to import. */
+export * from "./diode.js";
+export * from "./load.js";
+export * from "./mosfet.js";
+export * from "./operating-point.js";
+export * from "./outcome.js";
+export * from "./quantity.js";
+export * from "./stage.js";
+export * from "./thermal.js";
+export * from "./catalog.js";

@@ -1,0 +1,47 @@
+import { z } from "zod";
+import { diode } from "./diode.js";
+import { quantity, temperatureC } from "./quantity.js";
+
+const volts = (d: string) => quantity("V", d, { gt: 0, le: 10_000 });
+
+export const rdsTempLaw = z
+  .discriminatedUnion("law", [
+    z.object({ law: z.literal("power"), exponent: z.number().gte(0).lte(5).meta({ description: "α in Rds(T) = Rds(25 °C)·(T/298.15 K)^α", unit: "1" }) }),
+    z.object({
+      law: z.literal("points"),
+      points: z
+        .array(z.object({ tjC: temperatureC("junction temperature"), factor: z.number().gt(0).lte(100).meta({ description: "Rds(on)(Tj)/Rds(on)(25 °C)", unit: "1" }) }))
+        .min(2)
+        .meta({ description: "normalised on-resistance against junction temperature, increasing Tj" }),
+    }),
+  ])
+  .meta({ description: "temperature law of Rds(on) (default: power law, α = 2.3, common practice)" });
+
+export const mosfet = z
+  .object({
+    rdsOn: z
+      .array(z.object({ gateSourceV: volts("gate-source drive (magnitude)"), rdsOnOhm: quantity("ohm", "on-resistance at 25 °C", { gt: 0, le: 1e3 }) }))
+      .min(1)
+      .meta({ description: "datasheet Rds(on) at 25 °C against gate drive, one point or more" }),
+    rdsOnTemp: rdsTempLaw.optional(),
+    thresholdV: volts("gate threshold voltage (magnitude)"),
+    vgsMaxV: volts("absolute maximum gate-source voltage"),
+    vdsMaxV: volts("drain-source voltage rating"),
+    tjMaxC: temperatureC("maximum junction temperature"),
+    bodyDiode: diode,
+  })
+  .superRefine((m, ctx) => {
+    m.rdsOn.forEach((p, i) => {
+      if (p.gateSourceV <= m.thresholdV) {
+        ctx.addIssue({ code: "custom", path: ["rdsOn", i, "gateSourceV"], message: `must be above the threshold voltage (${m.thresholdV} V)` });
+      }
+    });
+    const law = m.rdsOnTemp;
+    if (law?.law === "points") {
+      law.points.forEach((p, i) => {
+        const prev = law.points[i - 1];
+        if (prev && !(p.tjC > prev.tjC)) ctx.addIssue({ code: "custom", path: ["rdsOnTemp", "points", i, "tjC"], message: "temperatures must increase" });
+      });
+    }
+  });
+export type MosfetInput = z.input<typeof mosfet>;

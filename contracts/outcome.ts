@@ -1,0 +1,24 @@
+import { z } from "zod";
+
+/** Error codes of the service edge, one closed list. */
+export const ERROR_CODES = ["invalid-input", "unknown-part", "unknown-procedure", "fit-failed", "malformed-line", "internal"] as const;
+export type ErrorCode = (typeof ERROR_CODES)[number];
+
+export const issue = z.object({
+  path: z.array(z.union([z.string(), z.number()])).meta({ description: "where in the input the problem is" }),
+  message: z.string(),
+});
+export type Issue = z.infer<typeof issue>;
+
+export const errorBody = z.object({
+  code: z.enum(ERROR_CODES),
+  message: z.string(),
+  issues: z.array(issue),
+});
+export type ErrorBody = z.infer<typeof errorBody>;
+
+/** Stamped on every analysis result. */
+export const provenance = {
+  modelVersion: z.string().meta({ description: "version of backstop's models" }),
+  caution: z.string(),
+};

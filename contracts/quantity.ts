@@ -1,0 +1,95 @@
+import { unit as parseUnit, type Unit } from "mathjs";
+import { z } from "zod";
+
+/**
+ * A physical quantity in a request: a number in the unit its field name states, or a string with
+ * a value and a unit ("2.5 mOhm", "2.5 mΩ", "85 degC", "85 °C", "3 A", "10 uA"), parsed by
+ * mathjs's unit parser (values and units only, never an expression), dimension-checked against
+ * the field's unit and converted to it. This is the only place in backstop where units convert.
+ */
+export interface Bounds {
+  /** exclusive lower bound, in the field's unit */
+  readonly gt?: number;
+  readonly ge?: number;
+  readonly lt?: number;
+  readonly le?: number;
+}
+
+const MAX_QUANTITY_STRING = 64;
+
+/** Unit spellings of the trade that mathjs does not know, mapped to its names. */
+function normaliseUnitText(text: string): string {
+  return text
+    .replace(/Ω|Ohms?|ohms/g, "ohm")
+    .replace(/°\s*C\b/g, "degC")
+    .replace(/°\s*F\b/g, "degF")
+    .replace(/µ|μ/g, "u")
+    .trim();
+}
+
+function toFieldUnit(raw: string, fieldUnit: string): { ok: true; value: number } | { ok: false; message: string } {
+  const text = normaliseUnitText(raw);
+  let parsed: Unit;
+  try {
+    parsed = parseUnit(text);
+  } catch {
+    return { ok: false, message: `cannot read "${raw}" as a value with a unit (expected something like "1.5 ${fieldUnit}")` };
+  }
+  if (parsed.units.length === 0) {
+    return { ok: false, message: `"${raw}" has no unit: give a number in ${fieldUnit} or a value with a unit` };
+  }
+  if (!parsed.equalBase(parseUnit(fieldUnit))) {
+    return { ok: false, message: `"${raw}" is not a quantity of the kind ${fieldUnit} measures (wrong dimension)` };
+  }
+  return { ok: true, value: parsed.toNumber(fieldUnit) };
+}
+
+function checkBounds(value: number, unitName: string, b: Bounds): string | undefined {
+  if (!Number.isFinite(value)) return "must be a finite number";
+  if (b.gt !== undefined && !(value > b.gt)) return `must be greater than ${b.gt} ${unitName}`;
+  if (b.ge !== undefined && !(value >= b.ge)) return `must be at least ${b.ge} ${unitName}`;
+  if (b.lt !== undefined && !(value < b.lt)) return `must be less than ${b.lt} ${unitName}`;
+  if (b.le !== undefined && !(value <= b.le)) return `must be at most ${b.le} ${unitName}`;
+  return undefined;
+}
+
+/** A quantity field in unit `unitName` (a mathjs unit: "V", "A", "ohm", "degC", "K/W", "s", "F", "H", "W", "J"). */
+export function quantity(unitName: string, description: string, bounds: Bounds = {}) {
+  return z
+    .union([z.number(), z.string().max(MAX_QUANTITY_STRING)], {
+      error: (iss) => (iss.input === undefined ? "required" : `expected a number in ${unitName} or a string with a unit`),
+    })
+    .transform((raw, ctx) => {
+      let value: number;
+      if (typeof raw === "number") value = raw;
+      else {
+        const r = toFieldUnit(raw, unitName);
+        if (!r.ok) {
+          ctx.addIssue({ code: "custom", message: r.message, input: raw });
+          return z.NEVER;
+        }
+        value = r.value;
+      }
+      const problem = checkBounds(value, unitName, bounds);
+      if (problem !== undefined) {
+        ctx.addIssue({ code: "custom", message: problem, input: raw });
+        return z.NEVER;
+      }
+      return value;
+    })
+    .meta({ description, unit: unitName, ...bounds });
+}
+
+/** A dimensionless number with bounds. */
+export function ratio(description: string, bounds: Bounds = {}) {
+  let s = z.number({ error: (iss) => (iss.input === undefined ? "required" : "expected a number") });
+  if (bounds.gt !== undefined) s = s.gt(bounds.gt);
+  if (bounds.ge !== undefined) s = s.gte(bounds.ge);
+  if (bounds.lt !== undefined) s = s.lt(bounds.lt);
+  if (bounds.le !== undefined) s = s.lte(bounds.le);
+  return s.meta({ description, unit: "1" });
+}
+
+/** Absolute zero in °C, the bound of every temperature field. */
+export const ABSOLUTE_ZERO_C = -273.15;
+export const temperatureC = (description: string) => quantity("degC", description, { gt: ABSOLUTE_ZERO_C, le: 1000 });

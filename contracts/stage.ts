@@ -1,0 +1,89 @@
+import { z } from "zod";
+import { diode } from "./diode.js";
+import { mosfet, rdsTempLaw } from "./mosfet.js";
+import { quantity, ratio, temperatureC } from "./quantity.js";
+import { thermalPath } from "./thermal.js";
+
+const volts = (d: string) => quantity("V", d, { gt: 0, le: 10_000 });
+const name = z.string().min(1).max(200).optional().meta({ description: "a label for reports" });
+const costEach = z.number().gte(0).lte(1e6).optional().meta({ description: "unit cost in the caller's currency, for ranking", unit: "currency" });
+
+const diodeStage = (kind: "pn-diode" | "schottky-diode") =>
+  z.object({
+    kind: z.literal(kind),
+    name,
+    costEach,
+    diode,
+    reverseRatingV: volts("repetitive peak reverse voltage rating VRRM"),
+    tjMaxC: temperatureC("maximum junction temperature"),
+    thermal: thermalPath,
+  });
+
+export const controller = z
+  .object({
+    startV: quantity("V", "input voltage from which the controller runs and drives the gate", { ge: 0, le: 10_000 }),
+    gateDrive: z
+      .array(z.object({ inputV: quantity("V", "input voltage", { ge: 0, le: 10_000 }), gateSourceV: quantity("V", "gate-source drive the charge pump delivers", { ge: 0, le: 100 }) }))
+      .min(1)
+      .meta({ description: "gate drive against input voltage, increasing inputV; held flat outside" }),
+    regulatedDropV: quantity("V", "forward drop the controller regulates to at light load (0: none)", { ge: 0, le: 1 }),
+    quiescentA: quantity("A", "quiescent current from the input to ground", { ge: 0, le: 1 }),
+    gateReleaseFraction: ratio("share of time a duty-cycled charge pump releases the gate (0 for a continuous pump)", { ge: 0, le: 1 }).optional(),
+    maxInputV: volts("absolute maximum input voltage of the controller").optional(),
+    reverseThresholdV: quantity("V", "reverse drop at which the controller turns the MOSFET off", { ge: 0, le: 10 }).optional(),
+    turnOffDelayS: quantity("s", "delay from reverse threshold to gate off", { ge: 0, le: 1 }).optional(),
+  })
+  .superRefine((c, ctx) => {
+    c.gateDrive.forEach((p, i) => {
+      const prev = c.gateDrive[i - 1];
+      if (prev && !(p.inputV > prev.inputV)) ctx.addIssue({ code: "custom", path: ["gateDrive", i, "inputV"], message: "input voltages must increase" });
+    });
+  });
+
+export const stageSpec = z
+  .discriminatedUnion("kind", [
+    diodeStage("pn-diode"),
+    diodeStage("schottky-diode"),
+    z.object({ kind: z.literal("pfet-high-side"), name, costEach, mosfet, gateClampV: volts("gate-source zener clamp").optional(), thermal: thermalPath }),
+    z.object({ kind: z.literal("nfet-low-side"), name, costEach, mosfet, gateClampV: volts("gate-source zener clamp").optional(), thermal: thermalPath }),
+    z.object({ kind: z.literal("nfet-ideal-diode"), name, costEach, mosfet, controller, thermal: thermalPath }),
+    z
+      .object({
+        kind: z.literal("integrated-switch"),
+        name,
+        costEach,
+        onResistanceOhm: quantity("ohm", "on-resistance at 25 °C", { gt: 0, le: 1e3 }),
+        onResistanceTemp: rdsTempLaw.optional(),
+        startV: quantity("V", "input voltage from which the switch turns on (UVLO)", { ge: 0, le: 10_000 }),
+        belowStart: z.enum(["body-diode", "blocks"]).meta({ description: "below start: the body diode conducts, or the switch blocks" }),
+        bodyDiode: diode.optional(),
+        regulatedDropV: quantity("V", "regulated forward drop (ideal-diode type; 0: plain switch)", { ge: 0, le: 1 }),
+        quiescentA: quantity("A", "quiescent current", { ge: 0, le: 1 }),
+        maxVoltageV: volts("absolute maximum input voltage"),
+        currentLimitA: quantity("A", "current limit", { gt: 0, le: 1e4 }).optional(),
+        tjMaxC: temperatureC("maximum junction temperature"),
+        thermal: thermalPath,
+      })
+      .superRefine((s, ctx) => {
+        if (s.belowStart === "body-diode" && s.bodyDiode === undefined) {
+          ctx.addIssue({ code: "custom", path: ["bodyDiode"], message: "required when belowStart is body-diode" });
+        }
+      }),
+  ])
+  .meta({ description: "a series protection stage, by kind" });
+export type StageSpecInput = z.input<typeof stageSpec>;
+export type StageSpec = z.output<typeof stageSpec>;
+
+/** A stage named by its id in the parts catalog; the thermal path may be given for this board. */
+export const catalogPartRef = z.object({
+  kind: z.literal("catalog-part"),
+  partId: z.string().min(1).max(200).meta({ description: "id of a part in the parts catalog" }),
+  thermal: thermalPath.optional(),
+});
+
+export const stageInput = z
+  .discriminatedUnion("kind", [...stageSpec.options, catalogPartRef])
+  .meta({ description: "a stage given inline, or a catalog part by id" });
+export type StageInput = z.output<typeof stageInput>;
+
+export const STAGE_KINDS = ["pn-diode", "schottky-diode", "pfet-high-side", "nfet-low-side", "nfet-ideal-diode", "integrated-switch"] as const;
