@@ -1,7 +1,7 @@
-import { cToK, kToC } from "../physics/constants.js";
+import { kToC } from "../physics/constants.js";
 import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
 import { type CircuitModel, type ElectricalPoint, fmt, solveElectrical } from "./electrical-point.js";
-import { bracketedRoot } from "./root-find.js";
+import { thermalFixedPoint } from "./thermal-fixed-point.js";
 
 export interface OperatingPointModel extends CircuitModel {
   readonly ambientC: number;
@@ -34,89 +34,34 @@ export type OperatingPointOutcome =
 export const SEARCH_ABOVE_LIMIT_K = 150;
 
 /**
- * Steady-state electrothermal operating point: the lowest solution of Tj = Ta + Rth·P(Tj), where
- * P(Tj) comes from the circuit solved at Tj. A fixed point is stable where Rth·dP/dTj < 1
- * (h(T) = Ta + Rth·P(T) − T crosses zero from above). Starting at Ta, where h ≥ 0, the search
- * takes fixed-point and secant steps upward until h changes sign, then closes the bracket by
- * regula falsi; if h stays positive up to the limit + SEARCH_ABOVE_LIMIT_K, the loss grows faster
- * than the thermal path can shed it: thermal runaway.
+ * Steady-state electrothermal operating point: the lowest stable solution of Tj = Ta + Rth·P(Tj)
+ * (domain/solve/thermal-fixed-point.ts), with P(Tj) from the circuit solved at Tj. A stable point
+ * above the junction limit is "over-temperature"; none up to the limit + SEARCH_ABOVE_LIMIT_K is
+ * thermal runaway.
  */
 export function solveOperatingPoint(m: OperatingPointModel): OperatingPointOutcome {
-  const taK = cToK(m.ambientC);
   const tjMaxC = stageTjMaxC(m.stage);
-  const ceilingK = cToK(tjMaxC + SEARCH_ABOVE_LIMIT_K);
-  let failure: OperatingPointOutcome | undefined;
-  let evaluations = 0;
-
-  const lossAt = (tK: number): { lossW: number; point: ElectricalPoint } | undefined => {
-    evaluations += 1;
+  const r = thermalFixedPoint(m.ambientC, m.rthKPerW, tjMaxC + SEARCH_ABOVE_LIMIT_K, (tK) => {
     const e = solveElectrical(m, tK);
-    if (!e.ok) {
-      if (failure === undefined) {
-        failure =
-          e.code === "stage-off"
-            ? { outcome: "stage-off", reason: e.reason, stageInputV: e.stageInputV }
-            : {
-                outcome: "load-collapse",
-                reason: e.reason,
-                atJunctionC: kToC(tK),
-                ...(e.maxDeliverablePowerW === undefined ? {} : { maxDeliverablePowerW: e.maxDeliverablePowerW }),
-              };
-      }
-      return undefined;
-    }
-    return { lossW: dieLossW(m.stage, e.point), point: e.point };
-  };
-  const h = (tK: number): number => {
-    const r = lossAt(tK);
-    return r === undefined ? Number.NaN : taK + m.rthKPerW * r.lossW - tK;
-  };
-
-  let t = taK;
-  let ht = h(t);
-  if (failure) return failure;
-  let rootK: number | undefined;
-  if (ht <= 0) rootK = t;
-  for (let step = 0; rootK === undefined && step < 200; step += 1) {
-    let next = Math.min(t + ht, ceilingK);
-    let hn = h(next);
-    if (failure) return failure;
-    if (hn > 0) {
-      const slope = (hn - ht) / (next - t);
-      if (slope < 0) {
-        const secant = Math.min(next - hn / slope, ceilingK);
-        if (secant > next) {
-          t = next;
-          ht = hn;
-          next = secant;
-          hn = h(next);
-          if (failure) return failure;
-        }
-      }
-    }
-    if (hn <= 0) {
-      rootK = bracketedRoot(h, t, next, ht, hn, 1e-9).x;
-      if (failure) return failure;
-      break;
-    }
-    if (next >= ceilingK) break;
-    t = next;
-    ht = hn;
+    return e.ok ? { ok: true, lossW: dieLossW(m.stage, e.point) } : { ok: false, failure: e };
+  });
+  if (r.kind === "failed") {
+    const e = r.failure;
+    if (e.ok) throw new Error("unreachable: a failure that is ok");
+    return e.code === "stage-off"
+      ? { outcome: "stage-off", reason: e.reason, stageInputV: e.stageInputV }
+      : { outcome: "load-collapse", reason: e.reason, atJunctionC: kToC(r.atK), ...(e.maxDeliverablePowerW === undefined ? {} : { maxDeliverablePowerW: e.maxDeliverablePowerW }) };
   }
-
-  if (rootK === undefined) {
-    const end = lossAt(ceilingK);
-    if (failure || end === undefined) return failure ?? runawayUnknown(ceilingK);
+  if (r.kind === "runaway") {
     return {
       outcome: "thermal-runaway",
-      reason: `no stable operating point up to ${fmt(kToC(ceilingK))} °C: with ${fmt(m.rthKPerW)} K/W the loss rises faster with temperature than the thermal path can shed it`,
-      evidence: { searchedToC: kToC(ceilingK), lossAtSearchEndW: end.lossW, thermalLoopGainAtSearchEnd: loopGain(m, lossAt, ceilingK) },
+      reason: `no stable operating point up to ${fmt(kToC(r.searchedToK))} °C: with ${fmt(m.rthKPerW)} K/W the loss rises faster with temperature than the thermal path can shed it`,
+      evidence: { searchedToC: kToC(r.searchedToK), lossAtSearchEndW: r.lossAtEndW, thermalLoopGainAtSearchEnd: r.loopGainAtEnd },
     };
   }
-  const sol = lossAt(rootK);
-  if (failure || sol === undefined) return failure ?? runawayUnknown(rootK);
-  const gain = loopGain(m, lossAt, rootK);
-  const point: SolvedPoint = { ...sol.point, tjC: kToC(rootK), dieLossW: sol.lossW, thermalLoopGain: gain, iterations: evaluations };
+  const e = solveElectrical(m, r.tjK);
+  if (!e.ok) throw new Error("unreachable: the circuit solved during the search but not at its root");
+  const point: SolvedPoint = { ...e.point, tjC: kToC(r.tjK), dieLossW: r.lossW, thermalLoopGain: r.loopGain, iterations: r.evaluations };
   if (point.tjC > tjMaxC) {
     return { outcome: "over-temperature", point, tjMaxC, reason: `the stable operating point, ${fmt(point.tjC)} °C, lies above the ${fmt(tjMaxC)} °C junction limit` };
   }
@@ -132,23 +77,7 @@ export function solveOperatingPoint(m: OperatingPointModel): OperatingPointOutco
 }
 
 /** Heat in the die carrying the load: conduction loss, plus an integrated switch's own supply. */
-function dieLossW(stage: StageModel, p: ElectricalPoint): number {
+export function dieLossW(stage: StageModel, p: ElectricalPoint): number {
   if (stage.kind === "integrated-switch") return p.forward.lossW + stage.quiescentA * Math.max(p.stageInputV, 0);
   return p.forward.lossW;
-}
-
-function loopGain(
-  m: OperatingPointModel,
-  lossAt: (tK: number) => { lossW: number } | undefined,
-  tK: number,
-): number {
-  const d = 0.01;
-  const a = lossAt(tK - d);
-  const b = lossAt(tK + d);
-  if (a === undefined || b === undefined) return 0;
-  return (m.rthKPerW * (b.lossW - a.lossW)) / (2 * d);
-}
-
-function runawayUnknown(tK: number): OperatingPointOutcome {
-  throw new Error(`unreachable: circuit solve vanished at ${tK} K without a recorded failure`);
 }

@@ -1,0 +1,100 @@
+import { cToK, kToC } from "../physics/constants.js";
+import { bracketedRoot } from "./root-find.js";
+
+/** The loss at a junction temperature, or a failure the caller records (e.g. the circuit collapsed). */
+export type LossAt<F> = (tK: number) => { readonly ok: true; readonly lossW: number } | { readonly ok: false; readonly failure: F };
+
+export type FixedPointResult<F> =
+  | { readonly kind: "root"; readonly tjK: number; readonly lossW: number; readonly loopGain: number; readonly evaluations: number }
+  | { readonly kind: "runaway"; readonly searchedToK: number; readonly lossAtEndW: number; readonly loopGainAtEnd: number }
+  | { readonly kind: "failed"; readonly failure: F; readonly atK: number };
+
+/**
+ * The lowest solution of Tj = Ta + Rth·P(Tj) (the stable operating point where Rth·dP/dTj < 1).
+ * h(T) = Ta + Rth·P(T) − T is ≥ 0 at T = Ta; the search takes fixed-point and secant steps upward
+ * until h changes sign and then closes the bracket by regula falsi (Illinois). If h stays
+ * positive up to ceilingC the loss rises faster than the thermal path sheds it: runaway.
+ */
+export function thermalFixedPoint<F>(ambientC: number, rthKPerW: number, ceilingC: number, lossAt: LossAt<F>): FixedPointResult<F> {
+  const taK = cToK(ambientC);
+  const ceilingK = Math.max(cToK(ceilingC), taK);
+  const state: { failure?: { failure: F; atK: number } } = {};
+  let evaluations = 0;
+  const loss = (tK: number): number => {
+    evaluations += 1;
+    const r = lossAt(tK);
+    if (!r.ok) {
+      state.failure ??= { failure: r.failure, atK: tK };
+      return Number.NaN;
+    }
+    return r.lossW;
+  };
+  const failed = (): FixedPointResult<F> | undefined =>
+    state.failure === undefined ? undefined : { kind: "failed", failure: state.failure.failure, atK: state.failure.atK };
+  const h = (tK: number): number => taK + rthKPerW * loss(tK) - tK;
+  const gain = (tK: number): number => {
+    const d = 0.01;
+    const a = loss(tK - d);
+    const b = loss(tK + d);
+    return Number.isFinite(a) && Number.isFinite(b) ? (rthKPerW * (b - a)) / (2 * d) : 0;
+  };
+  const done = (tjK: number): FixedPointResult<F> => {
+    const lossW = loss(tjK);
+    {
+    const f = failed();
+    if (f) return f;
+  }
+    return { kind: "root", tjK, lossW, loopGain: gain(tjK), evaluations };
+  };
+
+  let t = taK;
+  let ht = h(t);
+  {
+    const f = failed();
+    if (f) return f;
+  }
+  if (ht <= 0 || rthKPerW === 0) return done(t);
+  for (let step = 0; step < 200; step += 1) {
+    let next = Math.min(t + ht, ceilingK);
+    let hn = h(next);
+    {
+    const f = failed();
+    if (f) return f;
+  }
+    if (hn > 0) {
+      const slope = (hn - ht) / (next - t);
+      if (slope < 0) {
+        const secant = Math.min(next - hn / slope, ceilingK);
+        if (secant > next) {
+          t = next;
+          ht = hn;
+          next = secant;
+          hn = h(next);
+          {
+    const f = failed();
+    if (f) return f;
+  }
+        }
+      }
+    }
+    if (hn <= 0) {
+      const root = bracketedRoot(h, t, next, ht, hn, 1e-9).x;
+      {
+    const f = failed();
+    if (f) return f;
+  }
+      return done(root);
+    }
+    if (next >= ceilingK) break;
+    t = next;
+    ht = hn;
+  }
+  const lossAtEndW = loss(ceilingK);
+  {
+    const f = failed();
+    if (f) return f;
+  }
+  return { kind: "runaway", searchedToK: ceilingK, lossAtEndW, loopGainAtEnd: gain(ceilingK) };
+}
+
+
