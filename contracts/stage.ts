@@ -15,6 +15,10 @@ const diodeStage = (kind: "pn-diode" | "schottky-diode") =>
     costEach,
     diode,
     reverseRatingV: volts("repetitive peak reverse voltage rating VRRM"),
+    reverseLeakage: z
+      .object({ currentA: quantity("A", "datasheet reverse current", { gt: 0, le: 10 }), tempC: temperatureC("junction temperature of that figure") })
+      .optional()
+      .meta({ description: "datasheet reverse leakage at the rated voltage; scaled in temperature by the junction's Is(T) law (default: Is(T) of the diode model)" }),
     tjMaxC: temperatureC("maximum junction temperature"),
     thermal: thermalPath,
   });
@@ -30,6 +34,7 @@ export const controller = z
     quiescentA: quantity("A", "quiescent current from the input to ground", { ge: 0, le: 1 }),
     gateReleaseFraction: ratio("share of time a duty-cycled charge pump releases the gate (0 for a continuous pump)", { ge: 0, le: 1 }).optional(),
     maxInputV: volts("absolute maximum input voltage of the controller").optional(),
+    reverseRatingV: volts("reverse voltage the controller's input withstands (magnitude)").optional(),
     reverseThresholdV: quantity("V", "reverse drop at which the controller turns the MOSFET off", { ge: 0, le: 10 }).optional(),
     turnOffDelayS: quantity("s", "delay from reverse threshold to gate off", { ge: 0, le: 1 }).optional(),
   })
@@ -60,6 +65,8 @@ export const stageSpec = z
         regulatedDropV: quantity("V", "regulated forward drop (ideal-diode type; 0: plain switch)", { ge: 0, le: 1 }),
         quiescentA: quantity("A", "quiescent current", { ge: 0, le: 1 }),
         maxVoltageV: volts("absolute maximum input voltage"),
+        reverseRatingV: volts("reverse voltage the switch blocks (absent: not rated for reverse)").optional(),
+        blocksReverseCurrent: z.boolean().optional().meta({ description: "turns off on reverse current (default: true when regulatedDropV > 0, i.e. an ideal-diode type)" }),
         currentLimitA: quantity("A", "current limit", { gt: 0, le: 1e4 }).optional(),
         tjMaxC: temperatureC("maximum junction temperature"),
         thermal: thermalPath,

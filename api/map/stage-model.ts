@@ -20,6 +20,7 @@ export function toStageModel(spec: StageSpec, thermal: ThermalPath, path: (strin
         kind: spec.kind,
         diode: toDiodeParams(spec.diode, spec.kind === "pn-diode" ? "pn" : "schottky", [...path, "diode"], assumptions),
         reverseRatingV: spec.reverseRatingV,
+        ...(spec.reverseLeakage === undefined ? {} : { reverseLeakage: { currentA: spec.reverseLeakage.currentA, tempK: cToK(spec.reverseLeakage.tempC) } }),
         tjMaxC: spec.tjMaxC,
         thermal,
       };
@@ -43,6 +44,7 @@ export function toStageModel(spec: StageSpec, thermal: ThermalPath, path: (strin
           quiescentA: c.quiescentA,
           gateReleaseFraction: c.gateReleaseFraction ?? 0,
           ...(c.maxInputV === undefined ? {} : { maxInputV: c.maxInputV }),
+          ...(c.reverseRatingV === undefined ? {} : { reverseRatingV: c.reverseRatingV }),
         },
         thermal,
       };
@@ -64,6 +66,8 @@ export function toStageModel(spec: StageSpec, thermal: ThermalPath, path: (strin
         regulatedDropV: spec.regulatedDropV,
         quiescentA: spec.quiescentA,
         maxVoltageV: spec.maxVoltageV,
+        ...(spec.reverseRatingV === undefined ? {} : { reverseRatingV: spec.reverseRatingV }),
+        blocksReverseCurrent: blocksReverse(spec, path, assumptions),
         ...(spec.currentLimitA === undefined ? {} : { currentLimitA: spec.currentLimitA }),
         tjMaxC: spec.tjMaxC,
         thermal,
@@ -92,4 +96,11 @@ function toTempLaw(law: TempLawSpec | undefined, path: (string | number)[], assu
   }
   if (law.law === "power") return { law: "power", exponent: law.exponent };
   return { law: "points", points: law.points.map((p) => ({ tempK: cToK(p.tjC), factor: p.factor })) };
+}
+
+function blocksReverse(spec: Extract<StageSpec, { kind: "integrated-switch" }>, path: (string | number)[], assumptions: string[]): boolean {
+  if (spec.blocksReverseCurrent !== undefined) return spec.blocksReverseCurrent;
+  const blocks = spec.regulatedDropV > 0;
+  assumptions.push(`${path.join(".")}: ${blocks ? "blocks" : "does not block"} reverse current (default from regulatedDropV ${blocks ? "> 0: an ideal-diode type" : "= 0: a plain switch"})`);
+  return blocks;
 }

@@ -12,6 +12,8 @@ export type StageKind = StageModel["kind"];
 export interface DiodeStage {
   readonly kind: "pn-diode" | "schottky-diode";
   readonly diode: DiodeParams;
+  /** A datasheet reverse-leakage point (at the rated reverse voltage); absent: Is(T) of the fit. */
+  readonly reverseLeakage?: { readonly currentA: number; readonly tempK: number };
   readonly reverseRatingV: number;
   readonly tjMaxC: number;
   readonly thermal: ThermalPath;
@@ -53,6 +55,8 @@ export interface ControllerModel {
   /** Fraction of time a duty-cycled charge pump releases the gate (body diode conducts), 0..1. */
   readonly gateReleaseFraction: number;
   readonly maxInputV?: number;
+  /** Reverse voltage the controller's input pin withstands, V (magnitude). */
+  readonly reverseRatingV?: number;
 }
 
 /** N-channel MOSFET in the supply line driven by an ideal-diode controller. */
@@ -76,6 +80,10 @@ export interface IntegratedSwitchStage {
   readonly regulatedDropV: number;
   readonly quiescentA: number;
   readonly maxVoltageV: number;
+  /** Reverse voltage the switch blocks, V; absent: not rated for reverse. */
+  readonly reverseRatingV?: number;
+  /** Whether the switch turns off on reverse current (ideal-diode type) or conducts both ways. */
+  readonly blocksReverseCurrent: boolean;
   readonly currentLimitA?: number;
   readonly tjMaxC: number;
   readonly thermal: ThermalPath;

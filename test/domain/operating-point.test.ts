@@ -146,6 +146,7 @@ describe("loads", () => {
       regulatedDropV: 0,
       quiescentA: 1e-3,
       maxVoltageV: 36,
+      blocksReverseCurrent: false,
       tjMaxC: 150,
       thermal: { kind: "junction-ambient", rthJaKPerW: 50 },
     };

@@ -1,0 +1,120 @@
+import { cToK, kToC } from "../physics/constants.js";
+import { type DiodeParams, saturationCurrentAt } from "../physics/diode.js";
+import { thermalVoltageV } from "../physics/constants.js";
+import { totalRthKPerW } from "../physics/thermal-path.js";
+import { thermalFixedPoint } from "../solve/thermal-fixed-point.js";
+import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
+
+/** A datasheet reverse-leakage point; scaled in temperature by the junction's own Is(T) law. */
+export interface LeakagePoint {
+  readonly currentA: number;
+  readonly tempK: number;
+}
+
+export interface ReverseStress {
+  /** Which element blocks the reversed supply. */
+  readonly blockingElement: "diode" | "body-diode" | "integrated-switch";
+  readonly partVoltageV: number;
+  /** The element's reverse (or drain-source) rating, V; undefined when the part states none. */
+  readonly ratingV: number | undefined;
+  /** Reverse voltage on a controller's input pin and its rating, where there is a controller. */
+  readonly controllerReverseV?: number;
+  readonly controllerRatingV?: number;
+  /** Gate-source voltage of a MOSFET stage while reversed, V. */
+  readonly gateSourceV?: number;
+  readonly note: string;
+}
+
+export type ReverseSteadyResult =
+  | {
+      readonly outcome: "blocks";
+      readonly stress: ReverseStress;
+      readonly leakageA: number;
+      readonly leakagePowerW: number;
+      readonly tjC: number;
+      readonly ambientC: number;
+    }
+  | { readonly outcome: "leakage-runaway"; readonly stress: ReverseStress; readonly reason: string; readonly leakageAtLimitA: number };
+
+/** Reverse current of a junction at reverse voltage vR: Is(T)·(1 − e^(−vR/(n·Vt))), Shockley. */
+export function junctionLeakageA(d: DiodeParams, reverseV: number, tK: number, point?: LeakagePoint): number {
+  const shape = -Math.expm1(-reverseV / (d.ideality * thermalVoltageV(tK)));
+  if (point) return (point.currentA * saturationCurrentAt(d, tK)) / saturationCurrentAt(d, point.tempK);
+  return saturationCurrentAt(d, tK) * shape;
+}
+
+/** The element that blocks a steady reversed supply, and what it sees. */
+export function reverseStress(stage: StageModel, reverseV: number): { stress: ReverseStress; junction?: DiodeParams } {
+  switch (stage.kind) {
+    case "pn-diode":
+    case "schottky-diode":
+      return {
+        stress: { blockingElement: "diode", partVoltageV: reverseV, ratingV: stage.reverseRatingV, note: "the series diode is reverse-biased and carries its leakage" },
+        junction: stage.diode,
+      };
+    case "pfet-high-side":
+      return {
+        stress: {
+          blockingElement: "body-diode",
+          partVoltageV: reverseV,
+          ratingV: stage.mosfet.vdsMaxV,
+          gateSourceV: 0,
+          note: "the gate and source both sit near 0 V (gate to ground, output discharged): the channel is off and the body diode blocks",
+        },
+        junction: stage.mosfet.bodyDiode,
+      };
+    case "nfet-low-side":
+      return {
+        stress: { blockingElement: "body-diode", partVoltageV: reverseV, ratingV: stage.mosfet.vdsMaxV, gateSourceV: 0, note: "the gate is pulled to the source side: the channel is off and the body diode in the return blocks" },
+        junction: stage.mosfet.bodyDiode,
+      };
+    case "nfet-ideal-diode":
+      return {
+        stress: {
+          blockingElement: "body-diode",
+          partVoltageV: reverseV,
+          ratingV: stage.mosfet.vdsMaxV,
+          controllerReverseV: reverseV,
+          ...(stage.controller.reverseRatingV === undefined ? {} : { controllerRatingV: stage.controller.reverseRatingV }),
+          gateSourceV: 0,
+          note: "the controller holds the gate off; the body diode blocks and the controller's input pin sees the reversed supply",
+        },
+        junction: stage.mosfet.bodyDiode,
+      };
+    case "integrated-switch":
+      return {
+        stress: {
+          blockingElement: "integrated-switch",
+          partVoltageV: reverseV,
+          ratingV: stage.reverseRatingV,
+          note: stage.reverseRatingV === undefined ? "the switch states no reverse rating: its reverse blocking is unproven" : "the integrated switch blocks the reversed supply",
+        },
+        ...(stage.belowStart.mode === "body-diode" ? { junction: stage.belowStart.bodyDiode } : {}),
+      };
+  }
+}
+
+/**
+ * Steady reverse polarity at reverseV (magnitude) and ambientC: which element blocks, the voltage
+ * it sees against its rating, and its leakage current and power at the self-consistent junction
+ * temperature (leakage grows steeply with temperature: a Schottky can run away in reverse).
+ * Steady state: conservative for a reversal shorter than the thermal time constants.
+ */
+export function reverseSteady(stage: StageModel, reverseV: number, ambientC: number, leakagePoint?: LeakagePoint): ReverseSteadyResult {
+  const { stress, junction } = reverseStress(stage, reverseV);
+  if (junction === undefined) return { outcome: "blocks", stress, leakageA: 0, leakagePowerW: 0, tjC: ambientC, ambientC };
+  const rth = totalRthKPerW(stage.thermal);
+  const tjMaxC = stageTjMaxC(stage);
+  const leakAt = (tK: number) => junctionLeakageA(junction, reverseV, tK, leakagePoint);
+  const r = thermalFixedPoint<never>(ambientC, rth, tjMaxC + 150, (tK) => ({ ok: true, lossW: reverseV * leakAt(tK) }));
+  if (r.kind === "root") {
+    const leakageA = leakAt(r.tjK);
+    return { outcome: "blocks", stress, leakageA, leakagePowerW: leakageA * reverseV, tjC: kToC(r.tjK), ambientC };
+  }
+  return {
+    outcome: "leakage-runaway",
+    stress,
+    reason: `reverse leakage heats the junction faster than ${rth} K/W can shed it: no stable point up to ${Math.round(tjMaxC + 150)} °C`,
+    leakageAtLimitA: leakAt(cToK(tjMaxC)),
+  };
+}

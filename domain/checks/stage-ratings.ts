@@ -1,0 +1,46 @@
+import type { StageModel } from "../stages/stage-model.js";
+
+/** Forward-side ratings that a supply overvoltage or transient at the stage input meets. */
+export interface ForwardLimit {
+  readonly element: "controller-input" | "switch-input" | "gate-source" | "none";
+  readonly ratingV: number;
+  /** The voltage this element sees for an input peak of inputV. */
+  readonly seenV: (inputV: number) => number;
+}
+
+/**
+ * Which part of each stage kind a positive input peak stresses: a controller's input pin, an
+ * integrated switch's input, a P-/N-FET's gate-source (driven from the input, clamped), or none
+ * (a conducting diode passes the overvoltage on to the load).
+ */
+export function forwardLimits(stage: StageModel): ForwardLimit[] {
+  switch (stage.kind) {
+    case "pn-diode":
+    case "schottky-diode":
+      return [];
+    case "pfet-high-side":
+    case "nfet-low-side": {
+      const clamp = stage.gateClampV;
+      return [{ element: "gate-source", ratingV: stage.mosfet.vgsMaxV, seenV: (v) => (clamp === undefined ? v : Math.min(v, clamp)) }];
+    }
+    case "nfet-ideal-diode":
+      return stage.controller.maxInputV === undefined ? [] : [{ element: "controller-input", ratingV: stage.controller.maxInputV, seenV: (v) => v }];
+    case "integrated-switch":
+      return [{ element: "switch-input", ratingV: stage.maxVoltageV, seenV: (v) => v }];
+  }
+}
+
+/** Whether the stage blocks current flowing from its output back to its input. */
+export function blocksReverseCurrent(stage: StageModel): boolean {
+  switch (stage.kind) {
+    case "pn-diode":
+    case "schottky-diode":
+    case "nfet-ideal-diode":
+      return true;
+    case "pfet-high-side":
+    case "nfet-low-side":
+      return false;
+    case "integrated-switch":
+      return stage.blocksReverseCurrent;
+  }
+}

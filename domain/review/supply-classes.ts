@@ -1,0 +1,102 @@
+/**
+ * Built-in supply classes. Each value says where it comes from: a standard's clause ("S"), or
+ * "memory" where it was written from general knowledge and must be confirmed before it is relied
+ * on (REFERENCES.md). Every value can be overridden in the requirement.
+ */
+export interface SupplyClass {
+  readonly id: string;
+  readonly title: string;
+  readonly minV: number;
+  readonly nominalV: number;
+  readonly maxV: number;
+  /** Steady reverse polarity to withstand (magnitude), V, and for how long, s. */
+  readonly reverseV: number;
+  readonly reverseDurationS: number;
+  /** Transients of the built-in library that apply to this class by default. */
+  readonly transients: readonly string[];
+  readonly source: string;
+}
+
+const iso = "ISO 16750-2, supply voltage codes (REFERENCES.md [S])";
+const isoRev12 = "reversed voltage −14 V for 60 s, ISO 16750-2 clause 4.7 (memory)";
+const isoRev24 = "reversed voltage −28 V for 60 s, ISO 16750-2 clause 4.7 (memory)";
+const nominal12 = "nominal 13.5 V with the generator running (memory)";
+const nominal24 = "nominal 27 V with the generator running (memory)";
+
+const vehicle12 = (code: string, minV: number): SupplyClass => ({
+  id: `vehicle-12v-${code.toLowerCase()}`,
+  title: `12 V vehicle system, supply code ${code} (${minV}–16 V)`,
+  minV,
+  nominalV: 13.5,
+  maxV: 16,
+  reverseV: 14,
+  reverseDurationS: 60,
+  transients: ["iso7637-2-pulse-1-12v", "iso7637-2-pulse-2a", "iso16750-2-load-dump-b-12v"],
+  source: `${iso}; ${nominal12}; ${isoRev12}`,
+});
+const vehicle24 = (code: string, minV: number): SupplyClass => ({
+  id: `vehicle-24v-${code.toLowerCase()}`,
+  title: `24 V vehicle system, supply code ${code} (${minV}–32 V)`,
+  minV,
+  nominalV: 27,
+  maxV: 32,
+  reverseV: 28,
+  reverseDurationS: 60,
+  transients: ["iso7637-2-pulse-1-24v", "iso7637-2-pulse-2a", "iso16750-2-load-dump-b-24v"],
+  source: `${iso}; ${nominal24}; ${isoRev24}`,
+});
+
+export const SUPPLY_CLASSES: readonly SupplyClass[] = [
+  vehicle12("A", 6),
+  vehicle12("B", 8),
+  vehicle12("C", 9),
+  vehicle12("D", 10.5),
+  vehicle24("E", 10),
+  vehicle24("F", 16),
+  vehicle24("G", 22),
+  vehicle24("H", 18),
+  {
+    id: "industrial-24v",
+    title: "24 V DC industrial control supply (19.2–30 V)",
+    minV: 19.2,
+    nominalV: 24,
+    maxV: 30,
+    reverseV: 30,
+    reverseDurationS: 3600,
+    transients: [],
+    source: "IEC 61131-2 24 V DC range −15 %/+20 % (memory); reverse: the full maximum reversed by miswiring (common practice)",
+  },
+  {
+    id: "telecom-48v",
+    title: "−48 V telecom feed, normal service 40.5–57 V (magnitude)",
+    minV: 40.5,
+    nominalV: 54,
+    maxV: 57,
+    reverseV: 60,
+    reverseDurationS: 3600,
+    transients: [],
+    source: "ETSI EN 300 132-2 normal service range −40.5 to −57.0 V [S]; abnormal to −60 V (memory); nominal −54 V float (memory); reverse: feed wires swapped at the abnormal limit (common practice)",
+  },
+  ...[
+    ["poe-pd-type-1", "Type 1", 37, 12.95],
+    ["poe-pd-type-2", "Type 2", 42.5, 25.5],
+    ["poe-pd-type-3", "Type 3", 42.5, 51],
+    ["poe-pd-type-4", "Type 4", 41.1, 71.3],
+  ].map(
+    ([id, type, minV, powerW]): SupplyClass => ({
+      id: String(id),
+      title: `PoE powered device ${type}: ${minV}–57 V at the PD input, ${powerW} W`,
+      minV: Number(minV),
+      nominalV: 50,
+      maxV: 57,
+      reverseV: 57,
+      reverseDurationS: 3600,
+      transients: [],
+      source: "IEEE 802.3 PD input ranges (REFERENCES.md, secondary tables [S]); nominal 50 V (memory); the PD must accept either polarity (clause 33.3.1), so reverse = the full range reversed",
+    }),
+  ),
+];
+
+export function findSupplyClass(id: string): SupplyClass | undefined {
+  return SUPPLY_CLASSES.find((c) => c.id === id);
+}
