@@ -1,0 +1,114 @@
+import { totalRthKPerW } from "../physics/thermal-path.js";
+import { type OperatingPointOutcome, solveOperatingPoint } from "../solve/electrothermal-point.js";
+import type { LoadModel } from "../solve/load-model.js";
+import { scaleLoad } from "../solve/load-scale.js";
+import { type StageScale, scaleStage } from "../stages/scale-stage.js";
+import type { StageModel } from "../stages/stage-model.js";
+
+export interface CornerConditions {
+  readonly supply: "min" | "nominal" | "max";
+  readonly supplyV: number;
+  readonly ambient: "min" | "max";
+  readonly ambientC: number;
+  readonly loadScale: number;
+  readonly tolerance: "typical" | "datasheet-max";
+}
+
+export interface CornerResult {
+  readonly conditions: CornerConditions;
+  readonly result: OperatingPointOutcome;
+}
+
+export interface CornerSpace {
+  readonly supplyMinV: number;
+  readonly supplyNominalV: number;
+  readonly supplyMaxV: number;
+  readonly ambientMinC: number;
+  readonly ambientMaxC: number;
+  readonly loadScales: readonly number[];
+  /** The datasheet-maximum tolerance corner; absent: typical values only. */
+  readonly datasheetMax?: StageScale;
+  readonly sourceResistanceOhm: number;
+  readonly load: LoadModel;
+}
+
+/** Every combination of supply (min, nominal, max) × ambient (min, max) × load level × tolerance. */
+export function cornerConditions(space: CornerSpace): CornerConditions[] {
+  const out: CornerConditions[] = [];
+  const supplies = [
+    ["min", space.supplyMinV],
+    ["nominal", space.supplyNominalV],
+    ["max", space.supplyMaxV],
+  ] as const;
+  const ambients = [
+    ["min", space.ambientMinC],
+    ["max", space.ambientMaxC],
+  ] as const;
+  const tolerances = space.datasheetMax ? (["typical", "datasheet-max"] as const) : (["typical"] as const);
+  for (const [supply, supplyV] of supplies)
+    for (const [ambient, ambientC] of ambients)
+      for (const loadScale of space.loadScales) for (const tolerance of tolerances) out.push({ supply, supplyV, ambient, ambientC, loadScale, tolerance });
+  return out;
+}
+
+/** Solve the stage at every corner. */
+export function solveCorners(stage: StageModel, space: CornerSpace): CornerResult[] {
+  const maxStage = space.datasheetMax ? scaleStage(stage, space.datasheetMax) : stage;
+  return cornerConditions(space).map((c) => {
+    const s = c.tolerance === "typical" ? stage : maxStage;
+    return {
+      conditions: c,
+      result: solveOperatingPoint({
+        stage: s,
+        supplyV: c.supplyV,
+        sourceResistanceOhm: space.sourceResistanceOhm,
+        load: scaleLoad(space.load, c.loadScale),
+        ambientC: c.ambientC,
+        rthKPerW: totalRthKPerW(s.thermal),
+      }),
+    };
+  });
+}
+
+export interface WorstOf {
+  readonly value: number;
+  readonly cornerIndex: number;
+}
+
+export interface WorstCase {
+  readonly tjC?: WorstOf;
+  readonly lossW?: WorstOf;
+  readonly dropV?: WorstOf;
+  readonly loadMinV?: WorstOf;
+  /** Corners without an operating point (runaway, collapse, stage off), by index. */
+  readonly unsolvedCornerIndexes: readonly number[];
+}
+
+/** The worst corner per metric, among the corners that have an operating point. */
+export function worstCase(corners: readonly CornerResult[]): WorstCase {
+  let tjC: WorstOf | undefined;
+  let lossW: WorstOf | undefined;
+  let dropV: WorstOf | undefined;
+  let loadMinV: WorstOf | undefined;
+  const unsolved: number[] = [];
+  corners.forEach((c, i) => {
+    const r = c.result;
+    if (!("point" in r)) {
+      unsolved.push(i);
+      return;
+    }
+    const p = r.point;
+    if (tjC === undefined || p.tjC > tjC.value) tjC = { value: p.tjC, cornerIndex: i };
+    if (lossW === undefined || p.dieLossW > lossW.value) lossW = { value: p.dieLossW, cornerIndex: i };
+    if (dropV === undefined || p.forward.dropV > dropV.value) dropV = { value: p.forward.dropV, cornerIndex: i };
+    if (loadMinV === undefined || p.loadV < loadMinV.value) loadMinV = { value: p.loadV, cornerIndex: i };
+  });
+  return {
+    ...(tjC ? { tjC } : {}),
+    ...(lossW ? { lossW } : {}),
+    ...(dropV ? { dropV } : {}),
+    ...(loadMinV ? { loadMinV } : {}),
+    unsolvedCornerIndexes: unsolved,
+  };
+}
+

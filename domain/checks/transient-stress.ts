@@ -1,0 +1,129 @@
+import type { TransientPulse } from "../review/transient-library.js";
+import type { StageModel } from "../stages/stage-model.js";
+import { type ClampResult, clampExponential, tauFromDecay } from "./clamp-energy.js";
+import { reverseStress } from "./reverse-steady.js";
+import { blocksReverseCurrent, forwardLimits } from "./stage-ratings.js";
+
+export interface TransientContext {
+  /** Nominal supply, V: the base of pulses that ride on the supply. */
+  readonly supplyNominalV: number;
+  /** Highest steady supply, V: a clamp must not conduct at it. */
+  readonly supplyMaxV: number;
+  /** Steady reverse polarity to withstand (magnitude), V: a clamp must not conduct at it either. */
+  readonly reverseV: number;
+  /** Voltage held at the output by the hold-up capacitor during a negative pulse, V. */
+  readonly outputHeldV: number;
+  /** Share of a rating the design may use (e.g. 0.8), 0..1. */
+  readonly deratingFactor: number;
+  /** Smallest ratio of a clamp's clamping voltage to its standoff voltage (common practice, ~1.3). */
+  readonly clampToStandoffRatio: number;
+}
+
+export interface ElementStress {
+  readonly element: string;
+  readonly seenV: number;
+  readonly ratingV: number | undefined;
+  readonly allowedV: number | undefined;
+  readonly exceeds: boolean;
+}
+
+export interface ClampRequirement {
+  /** The clamp must not conduct below this (steady supply or steady reverse), V. */
+  readonly standoffMinV: number;
+  /** The clamp must hold the input at or below this for every element to stay within its allowance, V. */
+  readonly clampMaxV: number;
+  readonly feasible: boolean;
+  /** The clamp's duty at clampMaxV (the least-current clamp inside the window). */
+  readonly atClampMax: ClampResult;
+  readonly note: string;
+}
+
+export interface TransientResult {
+  readonly pulseId: string;
+  readonly polarity: "negative" | "positive";
+  /** Peak open-circuit voltage of the pulse, signed, V. */
+  readonly peakOpenCircuitV: number;
+  readonly tauS: number;
+  readonly stresses: readonly ElementStress[];
+  /** Whether the pulse (or its reverse current) reaches the load side. */
+  readonly reachesLoad: boolean;
+  readonly clamp: { readonly needed: false } | ({ readonly needed: true } & ClampRequirement) | { readonly needed: "unmodelled"; readonly note: string };
+}
+
+/**
+ * The peak voltage each part of a stage sees in a transient and, where an allowance (rating ×
+ * derating) is exceeded, the input clamp it needs: working window, peak current (|Us| − Vc)/Ri,
+ * energy and conduction time (clamp-energy.ts). Negative pulses stress the blocking element with
+ * |Us| + the held output voltage; positive pulses stress the input-side ratings (controller
+ * input, switch input, gate-source). A centrally suppressed pulse is held at its level.
+ */
+export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: TransientContext): TransientResult {
+  const baseV = pulse.baseV === "supply" ? ctx.supplyNominalV : pulse.baseV;
+  const peak = pulse.clampedAtV ?? baseV + pulse.amplitudeV;
+  const tauS = tauFromDecay(pulse.decayS, pulse.decayConvention);
+  const allowance = (ratingV: number | undefined) => (ratingV === undefined ? undefined : ratingV * ctx.deratingFactor);
+  const stress = (element: string, seenV: number, ratingV: number | undefined): ElementStress => {
+    const allowedV = allowance(ratingV);
+    return { element, seenV, ratingV, allowedV, exceeds: allowedV === undefined || seenV > allowedV };
+  };
+
+  if (peak < 0) {
+    const magnitude = -peak;
+    const blocks = blocksReverseCurrent(stage);
+    const { stress: rs } = reverseStress(stage, magnitude);
+    const held = blocks ? ctx.outputHeldV : 0;
+    const stresses = [stress(rs.blockingElement, magnitude + held, rs.ratingV)];
+    if (rs.controllerReverseV !== undefined) stresses.push(stress("controller-input", magnitude, rs.controllerRatingV));
+    // Budget at the input: each element's allowance less what the held output adds to it.
+    const budgets = stresses.map((s, i) => (s.allowedV === undefined ? Number.NEGATIVE_INFINITY : s.allowedV - (i === 0 ? held : 0)));
+    const clampMaxV = Math.min(...budgets);
+    return {
+      pulseId: pulse.id,
+      polarity: "negative",
+      peakOpenCircuitV: peak,
+      tauS,
+      stresses,
+      reachesLoad: !blocks,
+      clamp: stresses.some((s) => s.exceeds)
+        ? clampFor({ baseV: -baseV, amplitudeV: -pulse.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, ctx.reverseV, clampMaxV, ctx)
+        : { needed: false },
+    };
+  }
+
+  const stresses = forwardLimits(stage).map((l) => stress(l.element, l.seenV(peak), l.ratingV));
+  const exceeds = stresses.some((s) => s.exceeds);
+  let clamp: TransientResult["clamp"] = { needed: false };
+  if (exceeds && pulse.clampedAtV !== undefined) {
+    clamp = { needed: "unmodelled", note: `the pulse is suppressed centrally at ${pulse.clampedAtV} V: choose parts rated above it (a local clamp below the central one is not modelled)` };
+  } else if (exceeds) {
+    const clampMaxV = Math.min(...stresses.filter((s) => s.exceeds).map((s) => s.allowedV ?? Number.NEGATIVE_INFINITY));
+    clamp = clampFor({ baseV, amplitudeV: pulse.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, ctx.supplyMaxV, clampMaxV, ctx);
+  }
+  return { pulseId: pulse.id, polarity: "positive", peakOpenCircuitV: peak, tauS, stresses, reachesLoad: true, clamp };
+}
+
+function clampFor(
+  pulse: { baseV: number; amplitudeV: number; tauS: number; sourceResistanceOhm: number },
+  standoffMinV: number,
+  clampMaxV: number,
+  ctx: TransientContext,
+): TransientResult["clamp"] {
+  if (!Number.isFinite(clampMaxV) || clampMaxV <= 0) {
+    return { needed: "unmodelled", note: "a part in the path states no rating for this polarity: no clamp window can be given" };
+  }
+  const feasible = clampMaxV >= standoffMinV * ctx.clampToStandoffRatio;
+  return {
+    needed: true,
+    standoffMinV,
+    clampMaxV,
+    feasible,
+    atClampMax: clampExponential(pulse, clampMaxV),
+    note: feasible
+      ? `a clamp with standoff ≥ ${round(standoffMinV)} V clamping at ≤ ${round(clampMaxV)} V keeps every part within its allowance`
+      : `no clamp fits: it must stand off ${round(standoffMinV)} V yet clamp at ${round(clampMaxV)} V (clamping/standoff ratio ≥ ${ctx.clampToStandoffRatio}): choose parts with higher ratings`,
+  };
+}
+
+function round(v: number): number {
+  return Math.round(v * 100) / 100;
+}

@@ -1,0 +1,117 @@
+import { type ReverseSteadyResult, reverseSteady } from "../checks/reverse-steady.js";
+import { type CornerResult, type CornerSpace, solveCorners, type WorstCase, worstCase } from "../checks/corners.js";
+import { type MissionEnergy, type MissionRow, missionEnergy, type StandbyDrain, standbyDrain } from "../checks/energy.js";
+import { alongProfile, type DriveAtInput, driveAtInput, type ProfileResult, type TransientThermal } from "../checks/start-up.js";
+import { blocksReverseCurrent } from "../checks/stage-ratings.js";
+import { thermalSizing, type ThermalSizing } from "../checks/thermal-sizing.js";
+import { type TransientContext, type TransientResult, transientStress } from "../checks/transient-stress.js";
+import { totalRthKPerW } from "../physics/thermal-path.js";
+import type { LoadModel } from "../solve/load-model.js";
+import { scaleLoad } from "../solve/load-scale.js";
+import { type StageScale, scaleStage } from "../stages/scale-stage.js";
+import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
+import type { TransientPulse } from "./transient-library.js";
+
+export interface ReviewRequirement {
+  readonly supplyMinV: number;
+  readonly supplyNominalV: number;
+  readonly supplyMaxV: number;
+  readonly ambientMinC: number;
+  readonly ambientMaxC: number;
+  readonly sourceResistanceOhm: number;
+  readonly load: LoadModel;
+  readonly loadScales: readonly number[];
+  readonly loadStandbyA: number;
+  /** Lowest voltage at which the load works, V (a constant-power load's own minimum otherwise). */
+  readonly loadMinV?: number;
+  readonly reverseV: number;
+  readonly reverseDurationS: number;
+  readonly transients: readonly TransientPulse[];
+  readonly transientContext: Omit<TransientContext, "supplyNominalV" | "supplyMaxV" | "reverseV">;
+  readonly startProfile?: readonly { readonly timeS: number; readonly voltageV: number }[];
+  readonly mission?: readonly MissionRow[];
+  readonly pricePerKWh?: number;
+  readonly battery?: { readonly capacityAh: number; readonly usableFraction: number };
+  /** Margin below the junction limit that thermal sizing holds, K. */
+  readonly tjMarginK: number;
+}
+
+export interface ReviewCandidate {
+  readonly stage: StageModel;
+  readonly datasheetMax?: StageScale;
+  readonly transientThermal: TransientThermal;
+}
+
+export interface CandidateReview {
+  readonly corners: readonly CornerResult[];
+  readonly worst: WorstCase;
+  readonly startUp: { readonly atMinSupply: DriveAtInput; readonly profiles: readonly { readonly ambientC: number; readonly result: ProfileResult }[] };
+  readonly reverse: ReverseSteadyResult;
+  readonly transients: readonly TransientResult[];
+  readonly thermalSizing: ThermalSizing;
+  readonly energy?: MissionEnergy;
+  readonly standby: StandbyDrain;
+  readonly blocksReverseCurrent: boolean;
+}
+
+/** Every check of one candidate against the requirement. Pure; deterministic. */
+export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): CandidateReview {
+  const space: CornerSpace = {
+    supplyMinV: req.supplyMinV,
+    supplyNominalV: req.supplyNominalV,
+    supplyMaxV: req.supplyMaxV,
+    ambientMinC: req.ambientMinC,
+    ambientMaxC: req.ambientMaxC,
+    loadScales: req.loadScales,
+    sourceResistanceOhm: req.sourceResistanceOhm,
+    load: req.load,
+    ...(cand.datasheetMax ? { datasheetMax: cand.datasheetMax } : {}),
+  };
+  const corners = solveCorners(cand.stage, space);
+  const worst = worstCase(corners);
+  const fullScale = Math.max(...req.loadScales);
+
+  // Start-up at the lowest supply, full load: the stage input after the source drop.
+  const minCorner = corners.find((c) => c.conditions.supply === "min" && c.conditions.loadScale === fullScale && "point" in c.result);
+  const minPoint = minCorner && "point" in minCorner.result ? minCorner.result.point : undefined;
+  const atMinSupply = driveAtInput(cand.stage, minPoint?.stageInputV ?? req.supplyMinV, minPoint?.forward.dropV ?? 0);
+  const profiles = req.startProfile
+    ? [req.ambientMinC, req.ambientMaxC].map((ambientC) => ({
+        ambientC,
+        result: alongProfile(cand.stage, req.startProfile ?? [], req.load, req.sourceResistanceOhm, ambientC, cand.transientThermal),
+      }))
+    : [];
+
+  const reverse = reverseSteady(cand.stage, req.reverseV, req.ambientMaxC, cand.stage.kind === "pn-diode" || cand.stage.kind === "schottky-diode" ? cand.stage.reverseLeakage : undefined);
+  const tctx: TransientContext = { ...req.transientContext, supplyNominalV: req.supplyNominalV, supplyMaxV: req.supplyMaxV, reverseV: req.reverseV };
+  const transients = req.transients.map((p) => transientStress(cand.stage, p, tctx));
+
+  // Thermal sizing at the hot, full-load corners with the datasheet-maximum part.
+  const sizingStage = cand.datasheetMax ? scaleStage(cand.stage, cand.datasheetMax) : cand.stage;
+  const sizing = thermalSizing(
+    [req.supplyMinV, req.supplyNominalV, req.supplyMaxV].map((supplyV) => ({
+      supplyV,
+      ambientC: req.ambientMaxC,
+      load: scaleLoad(req.load, fullScale),
+      sourceResistanceOhm: req.sourceResistanceOhm,
+      stage: sizingStage,
+    })),
+    cand.stage.thermal,
+    totalRthKPerW(cand.stage.thermal),
+    stageTjMaxC(cand.stage) - req.tjMarginK,
+  );
+
+  const energy = req.mission ? missionEnergy(cand.stage, req.mission, req.supplyNominalV, req.sourceResistanceOhm, req.load, req.pricePerKWh) : undefined;
+  return {
+    corners,
+    worst,
+    startUp: { atMinSupply, profiles },
+    reverse,
+    transients,
+    thermalSizing: sizing,
+    ...(energy ? { energy } : {}),
+    standby: standbyDrain(cand.stage, req.loadStandbyA, req.battery),
+    blocksReverseCurrent: blocksReverseCurrent(cand.stage),
+  };
+}
+
