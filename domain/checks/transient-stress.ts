@@ -17,6 +17,24 @@ export interface TransientContext {
   readonly deratingFactor: number;
   /** Smallest ratio of a clamp's clamping voltage to its standoff voltage (common practice, ~1.3). */
   readonly clampToStandoffRatio: number;
+  /** A clamp the design already has at its input (bidirectional: it limits either polarity). */
+  readonly inputClamp?: InputClamp;
+}
+
+export interface InputClamp {
+  readonly standoffV: number;
+  readonly clampV: number;
+  readonly peakCurrentA?: number | undefined;
+  readonly energyJ?: number | undefined;
+}
+
+/** What the design's own clamp does in a pulse, against its ratings. */
+export interface ClampDuty {
+  readonly duty: ClampResult;
+  readonly withinPeakCurrent: boolean | undefined;
+  readonly withinEnergy: boolean | undefined;
+  /** Its standoff must clear the steady supply and steady reverse voltage, or it conducts them. */
+  readonly standoffClearsSteady: boolean;
 }
 
 export interface ElementStress {
@@ -48,6 +66,8 @@ export interface TransientResult {
   /** Whether the pulse (or its reverse current) reaches the load side. */
   readonly reachesLoad: boolean;
   readonly clamp: { readonly needed: false } | ({ readonly needed: true } & ClampRequirement) | { readonly needed: "unmodelled"; readonly note: string };
+  /** With a clamp in the design: its duty in this pulse and whether it is within its ratings. */
+  readonly designClamp?: ClampDuty;
 }
 
 /**
@@ -67,8 +87,22 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
     return { element, seenV, ratingV, allowedV, exceeds: allowedV === undefined || seenV > allowedV };
   };
 
+  const own = ctx.inputClamp;
+  const designClamp = (p: { baseV: number; amplitudeV: number }): ClampDuty | undefined => {
+    if (own === undefined) return undefined;
+    const duty = clampExponential({ ...p, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, own.clampV);
+    const conducts = duty.conducts === true;
+    return {
+      duty,
+      withinPeakCurrent: own.peakCurrentA === undefined ? undefined : !conducts || (duty.conducts === true && duty.peakCurrentA <= own.peakCurrentA),
+      withinEnergy: own.energyJ === undefined ? undefined : !conducts || (duty.conducts === true && duty.energyJ <= own.energyJ),
+      standoffClearsSteady: own.standoffV >= Math.max(ctx.supplyMaxV, ctx.reverseV),
+    };
+  };
+  const limitByClamp = (v: number) => (own === undefined || pulse.clampedAtV !== undefined ? v : Math.min(v, own.clampV));
+
   if (peak < 0) {
-    const magnitude = -peak;
+    const magnitude = limitByClamp(-peak);
     const blocks = blocksReverseCurrent(stage);
     const { stress: rs } = reverseStress(stage, magnitude);
     const held = blocks ? ctx.outputHeldV : 0;
@@ -77,6 +111,8 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
     // Budget at the input: each element's allowance less what the held output adds to it.
     const budgets = stresses.map((s, i) => (s.allowedV === undefined ? Number.NEGATIVE_INFINITY : s.allowedV - (i === 0 ? held : 0)));
     const clampMaxV = Math.min(...budgets);
+    const mirrored = { baseV: -baseV, amplitudeV: -pulse.amplitudeV };
+    const dc = designClamp(mirrored);
     return {
       pulseId: pulse.id,
       polarity: "negative",
@@ -84,13 +120,13 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
       tauS,
       stresses,
       reachesLoad: !blocks,
-      clamp: stresses.some((s) => s.exceeds)
-        ? clampFor({ baseV: -baseV, amplitudeV: -pulse.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, ctx.reverseV, clampMaxV, ctx)
-        : { needed: false },
+      clamp: stresses.some((s) => s.exceeds) ? clampFor({ ...mirrored, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, ctx.reverseV, clampMaxV, ctx) : { needed: false },
+      ...(dc ? { designClamp: dc } : {}),
     };
   }
 
-  const stresses = forwardLimits(stage).map((l) => stress(l.element, l.seenV(peak), l.ratingV));
+  const inputPeak = limitByClamp(peak);
+  const stresses = forwardLimits(stage).map((l) => stress(l.element, l.seenV(inputPeak), l.ratingV));
   const exceeds = stresses.some((s) => s.exceeds);
   let clamp: TransientResult["clamp"] = { needed: false };
   if (exceeds && pulse.clampedAtV !== undefined) {
@@ -99,7 +135,8 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
     const clampMaxV = Math.min(...stresses.filter((s) => s.exceeds).map((s) => s.allowedV ?? Number.NEGATIVE_INFINITY));
     clamp = clampFor({ baseV, amplitudeV: pulse.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, ctx.supplyMaxV, clampMaxV, ctx);
   }
-  return { pulseId: pulse.id, polarity: "positive", peakOpenCircuitV: peak, tauS, stresses, reachesLoad: true, clamp };
+  const dc = pulse.clampedAtV === undefined ? designClamp({ baseV, amplitudeV: pulse.amplitudeV }) : undefined;
+  return { pulseId: pulse.id, polarity: "positive", peakOpenCircuitV: peak, tauS, stresses, reachesLoad: true, clamp, ...(dc ? { designClamp: dc } : {}) };
 }
 
 function clampFor(

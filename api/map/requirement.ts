@@ -1,0 +1,101 @@
+import type { Requirement } from "../../contracts/requirement.js";
+import type { ReviewRequirement } from "../../domain/review/candidate-review.js";
+import { findSupplyClass, type SupplyClass } from "../../domain/review/supply-classes.js";
+import { findTransient, type TransientPulse } from "../../domain/review/transient-library.js";
+import { inputProblem } from "../input-problem.js";
+
+/** Defaults of the design review [common practice], each recorded in `assumptions` when used. */
+export const REVIEW_DEFAULTS = {
+  loadLevels: [1, 0.1],
+  deratingFactor: 0.8,
+  clampToStandoffRatio: 1.3,
+  tjMarginK: 25,
+} as const;
+
+export interface MappedRequirement {
+  readonly model: ReviewRequirement;
+  readonly supplyClass: string;
+  readonly sources: string[];
+}
+
+/** Contract requirement → domain requirement: resolves the supply class and transients. */
+export function toReviewRequirement(r: Requirement, assumptions: string[]): MappedRequirement {
+  let cls: SupplyClass | undefined;
+  if (r.supply.class !== "custom") {
+    cls = findSupplyClass(r.supply.class);
+    if (cls === undefined) throw inputProblem("invalid-input", ["requirement", "supply", "class"], `no supply class "${r.supply.class}"`);
+  }
+  const minV = r.supply.minV ?? cls?.minV ?? 0;
+  const nominalV = r.supply.nominalV ?? cls?.nominalV ?? 0;
+  const maxV = r.supply.maxV ?? cls?.maxV ?? 0;
+  if (!(minV <= nominalV && nominalV <= maxV)) {
+    throw inputProblem("invalid-input", ["requirement", "supply"], `supply must satisfy min ≤ nominal ≤ max (got ${minV}, ${nominalV}, ${maxV})`);
+  }
+  const sources: string[] = [];
+  if (cls) sources.push(`${cls.id}: ${cls.source}`);
+  const reverseV = r.reverse?.voltageV ?? cls?.reverseV ?? maxV;
+  const reverseDurationS = r.reverse?.durationS ?? cls?.reverseDurationS ?? 60;
+  if (r.reverse === undefined) assumptions.push(cls ? `reverse polarity ${reverseV} V for ${reverseDurationS} s from the supply class` : `reverse polarity: the custom maximum ${maxV} V reversed (common practice)`);
+
+  const pulses: TransientPulse[] = [];
+  const wanted = r.transients ?? cls?.transients ?? [];
+  wanted.forEach((t, i) => {
+    if (typeof t === "string") {
+      const p = findTransient(t);
+      if (p === undefined) throw inputProblem("invalid-input", ["requirement", "transients", i], `no built-in transient "${t}"`);
+      pulses.push(p);
+      sources.push(`${p.id}: ${p.source}`);
+    } else {
+      pulses.push({
+        id: t.id,
+        title: t.title ?? t.id,
+        baseV: t.baseV,
+        amplitudeV: t.amplitudeV,
+        sourceResistanceOhm: t.sourceResistanceOhm,
+        riseS: t.riseS ?? 0,
+        decayS: t.decayS,
+        decayConvention: t.decayConvention ?? "to-10-percent",
+        ...(t.clampedAtV === undefined ? {} : { clampedAtV: t.clampedAtV }),
+        source: "given by the caller",
+      });
+    }
+  });
+  const loadLevels = r.loadLevels ?? [...REVIEW_DEFAULTS.loadLevels];
+  if (r.loadLevels === undefined) assumptions.push("load levels 100 % and 10 % of full load (default)");
+  const deratingFactor = r.deratingFactor ?? REVIEW_DEFAULTS.deratingFactor;
+  if (r.deratingFactor === undefined) assumptions.push("clamp sizing keeps every part at ≤ 80 % of its voltage rating (common practice)");
+  const tjMarginK = r.tjMarginK ?? REVIEW_DEFAULTS.tjMarginK;
+  if (r.tjMarginK === undefined) assumptions.push("thermal sizing holds Tj(max) − 25 K (common practice)");
+  const loadMinV = r.loadMinV ?? (r.load.kind === "constant-power" ? r.load.minVoltageV : undefined);
+
+  return {
+    supplyClass: cls?.id ?? "custom",
+    sources,
+    model: {
+      supplyMinV: minV,
+      supplyNominalV: nominalV,
+      supplyMaxV: maxV,
+      ambientMinC: r.ambient.minC,
+      ambientMaxC: r.ambient.maxC,
+      sourceResistanceOhm: r.sourceResistanceOhm ?? 0,
+      load: r.load,
+      loadScales: loadLevels,
+      loadStandbyA: r.loadStandbyA ?? 0,
+      ...(loadMinV === undefined ? {} : { loadMinV }),
+      reverseV,
+      reverseDurationS,
+      transients: pulses,
+      transientContext: {
+        outputHeldV: r.outputHeldV ?? nominalV,
+        deratingFactor,
+        clampToStandoffRatio: REVIEW_DEFAULTS.clampToStandoffRatio,
+        ...(r.inputClamp ? { inputClamp: r.inputClamp } : {}),
+      },
+      ...(r.startProfile ? { startProfile: r.startProfile } : {}),
+      ...(r.mission ? { mission: r.mission.map((m) => ({ hoursPerYear: m.hoursPerYear, loadScale: m.loadLevel, ambientC: m.ambientC })) } : {}),
+      ...(r.energyPricePerKWh === undefined ? {} : { pricePerKWh: r.energyPricePerKWh }),
+      ...(r.battery ? { battery: r.battery } : {}),
+      tjMarginK,
+    },
+  };
+}

@@ -1,0 +1,94 @@
+import { z } from "zod";
+import { load } from "./load.js";
+import { quantity, ratio, temperatureC } from "./quantity.js";
+
+const volts = (d: string) => quantity("V", d, { gt: 0, le: 10_000 });
+
+export const supplySpec = z
+  .object({
+    class: z.string().min(1).max(64).meta({ description: "a built-in supply class id (see GET of review.supplyClasses), or 'custom'" }),
+    minV: volts("lowest supply (overrides the class)").optional(),
+    nominalV: volts("nominal supply (overrides the class)").optional(),
+    maxV: volts("highest steady supply (overrides the class)").optional(),
+  })
+  .meta({ description: "the supply: a built-in class, with any value overridden, or 'custom' with all three given" });
+
+export const customPulse = z.object({
+  id: z.string().min(1).max(64),
+  title: z.string().max(200).optional(),
+  baseV: quantity("V", "supply the pulse rides on (0: supply disconnected)", { ge: -10_000, le: 10_000 }),
+  amplitudeV: quantity("V", "signed amplitude of the exponential above the base", { ge: -10_000, le: 10_000 }),
+  sourceResistanceOhm: quantity("ohm", "internal resistance Ri of the pulse source", { gt: 0, le: 1e6 }),
+  riseS: quantity("s", "rise time (not used by the energy integral)", { ge: 0, le: 10 }).optional(),
+  decayS: quantity("s", "decay time td", { gt: 0, le: 100 }),
+  decayConvention: z.enum(["to-10-percent", "time-constant"]).optional().meta({ description: "td to 10 % of the peak (τ = td/ln 10, default) or τ itself" }),
+  clampedAtV: volts("a centrally suppressed pulse: the input is held at this level").optional(),
+});
+
+export const requirement = z
+  .object({
+    supply: supplySpec,
+    sourceResistanceOhm: quantity("ohm", "source and wiring resistance (default 0)", { ge: 0, le: 1e6 }).optional(),
+    load,
+    loadLevels: z.array(z.number().gt(0).lte(10)).min(1).max(8).optional().meta({ description: "load levels as shares of the full load for the corners (default [1, 0.1])" }),
+    loadStandbyA: quantity("A", "the load's standby current (default 0)", { ge: 0, le: 100 }).optional(),
+    loadMinV: quantity("V", "lowest voltage at which the load works (default: a constant-power load's own minimum)", { ge: 0, le: 10_000 }).optional(),
+    ambient: z.object({ minC: temperatureC("lowest ambient"), maxC: temperatureC("highest ambient") }),
+    reverse: z
+      .object({ voltageV: quantity("V", "steady reverse polarity to withstand (magnitude)", { ge: 0, le: 10_000 }), durationS: quantity("s", "how long", { gt: 0, le: 1e7 }) })
+      .optional()
+      .meta({ description: "steady reverse polarity (default: the supply class's)" }),
+    transients: z
+      .array(z.union([z.string().min(1).max(64), customPulse]))
+      .max(32)
+      .optional()
+      .meta({ description: "pulses to check: built-in ids or custom pulses (default: the supply class's set)" }),
+    inputClamp: z
+      .object({
+        standoffV: volts("clamp working (standoff) voltage"),
+        clampV: volts("clamping voltage at its peak current"),
+        peakCurrentA: quantity("A", "rated peak pulse current", { gt: 0, le: 1e5 }).optional(),
+        energyJ: quantity("J", "rated pulse energy", { gt: 0, le: 1e6 }).optional(),
+      })
+      .optional()
+      .meta({ description: "a clamp (TVS) at the input, if the design has one" }),
+    outputHeldV: quantity("V", "voltage the hold-up capacitor keeps at the output during a negative pulse (default: nominal supply)", { ge: 0, le: 10_000 }).optional(),
+    deratingFactor: ratio("share of a voltage rating the clamp sizing may use (default 0.8, common practice)", { gt: 0, le: 1 }).optional(),
+    startProfile: z
+      .array(z.object({ timeS: quantity("s", "time", { ge: 0, le: 1e5 }), voltageV: quantity("V", "supply", { ge: 0, le: 10_000 }) }))
+      .min(2)
+      .max(1000)
+      .optional()
+      .meta({ description: "a start-up (cold-crank) profile: supply against time, time increasing" }),
+    mission: z
+      .array(
+        z.object({
+          hoursPerYear: quantity("h", "hours a year in this state", { ge: 0, le: 8784 }),
+          loadLevel: z.number().gt(0).lte(10).meta({ description: "share of the full load" }),
+          ambientC: temperatureC("ambient in this state"),
+        }),
+      )
+      .max(64)
+      .optional(),
+    energyPricePerKWh: z.number().gte(0).lte(1e4).optional().meta({ description: "price of a kWh in the caller's currency" }),
+    battery: z.object({ capacityAh: quantity("A*h", "battery capacity", { gt: 0, le: 1e6 }), usableFraction: ratio("usable share of the capacity", { gt: 0, le: 1 }) }).optional(),
+    standbyBudgetA: quantity("A", "standby current budget for the input stage", { ge: 0, le: 100 }).optional(),
+    parallelSources: z.boolean().optional().meta({ description: "the input is paralleled with another source (default false)" }),
+    holdUpRequired: z.boolean().optional().meta({ description: "the load must ride through an input dropout (default false)" }),
+    tjMarginK: quantity("K", "margin below Tj(max) that thermal sizing holds (default 25 K, common practice)", { ge: 0, le: 200 }).optional(),
+  })
+  .superRefine((r, ctx) => {
+    if (r.ambient.minC > r.ambient.maxC) ctx.addIssue({ code: "custom", path: ["ambient", "minC"], message: "must not be above ambient.maxC" });
+    const s = r.supply;
+    if (s.minV !== undefined && s.maxV !== undefined && s.minV > s.maxV) ctx.addIssue({ code: "custom", path: ["supply", "minV"], message: "must not be above supply.maxV" });
+    if (s.class === "custom" && (s.minV === undefined || s.nominalV === undefined || s.maxV === undefined)) {
+      ctx.addIssue({ code: "custom", path: ["supply"], message: "a custom supply needs minV, nominalV and maxV" });
+    }
+    r.startProfile?.forEach((p, i) => {
+      const prev = r.startProfile?.[i - 1];
+      if (prev && !(p.timeS > prev.timeS)) ctx.addIssue({ code: "custom", path: ["startProfile", i, "timeS"], message: "times must increase" });
+    });
+    if (r.inputClamp && r.inputClamp.clampV <= r.inputClamp.standoffV) ctx.addIssue({ code: "custom", path: ["inputClamp", "clampV"], message: "must be above standoffV" });
+  });
+export type RequirementInput = z.input<typeof requirement>;
+export type Requirement = z.output<typeof requirement>;

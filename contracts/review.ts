@@ -1,0 +1,133 @@
+import { z } from "zod";
+import { provenance } from "./outcome.js";
+import { quantity, temperatureC } from "./quantity.js";
+import { requirement } from "./requirement.js";
+import { stageInput } from "./stage.js";
+import { thermalPath } from "./thermal.js";
+
+export const transientThermal = z
+  .discriminatedUnion("kind", [
+    z.object({
+      kind: z.literal("foster"),
+      terms: z
+        .array(z.object({ rKPerW: quantity("K/W", "thermal resistance of the term", { gt: 0, le: 10_000 }), tauS: quantity("s", "time constant τ = R·C", { gt: 0, le: 1e6 }) }))
+        .min(1)
+        .max(12),
+    }),
+    z.object({ kind: z.literal("single-pole"), heatCapacityJPerK: quantity("J/K", "heat capacity of the junction-to-ambient path", { gt: 0, le: 1e6 }) }),
+  ])
+  .meta({ description: "transient thermal model for start-up profiles: a Foster network, or one pole from RthJA and a heat capacity (absent: quasi-static steady state, an upper bound)" });
+
+export const candidate = z.object({
+  label: z.string().min(1).max(200).optional(),
+  stage: stageInput,
+  thermal: thermalPath.optional().meta({ description: "overrides the stage's thermal path on this board" }),
+  datasheetMax: z
+    .object({
+      rdsOnFactor: z.number().gte(1).lte(5).meta({ description: "datasheet maximum ÷ typical Rds(on)", unit: "1" }),
+      forwardVoltageFactor: z.number().gte(1).lte(5).meta({ description: "datasheet maximum ÷ typical forward voltage", unit: "1" }),
+    })
+    .optional()
+    .meta({ description: "the datasheet-maximum tolerance corner (absent: typical values only)" }),
+  transientThermal: transientThermal.optional(),
+  heatsinkCost: z.number().gte(0).lte(1e6).optional().meta({ description: "cost of a heatsink if one is needed, for ranking", unit: "currency" }),
+});
+
+const mcParameter = z.enum(["rdsOn", "forwardVoltage", "rth", "supplyV", "ambientC", "load"]);
+export const monteCarloSpec = z.object({
+  samples: z.number().int().min(1).max(100_000),
+  seed: z.number().int().min(0).max(2 ** 32 - 1),
+  candidate: z.number().int().min(0).max(63).optional().meta({ description: "index of the candidate to sample (default 0)" }),
+  supplyV: quantity("V", "supply for the samples (default: lowest supply)", { gt: 0, le: 10_000 }).optional(),
+  ambientC: temperatureC("ambient for the samples (default: highest ambient)").optional(),
+  tolerances: z
+    .array(
+      z.discriminatedUnion("distribution", [
+        z.object({ parameter: mcParameter, distribution: z.literal("normal"), sigma: z.number().gte(0).lte(1000).meta({ description: "standard deviation: relative for rdsOn, forwardVoltage, rth, load (≤ 0.2); V or K for supplyV, ambientC" }) }),
+        z.object({ parameter: mcParameter, distribution: z.literal("uniform"), halfWidth: z.number().gte(0).lte(1000).meta({ description: "± half width: relative (≤ 0.9) or V / K" }) }),
+      ]),
+    )
+    .min(1)
+    .max(16),
+});
+
+export const reviewInput = z
+  .object({
+    requirement,
+    candidates: z.array(candidate).min(1).max(64),
+    ruleSet: z.string().min(1).max(100).optional().meta({ description: "id of a rule set (default: default)" }),
+    monteCarlo: monteCarloSpec.optional(),
+  })
+  .superRefine((r, ctx) => {
+    const mc = r.monteCarlo;
+    if (mc?.candidate !== undefined && mc.candidate >= r.candidates.length) ctx.addIssue({ code: "custom", path: ["monteCarlo", "candidate"], message: "no candidate at that index" });
+    mc?.tolerances.forEach((t, i) => {
+      const relative = t.parameter !== "supplyV" && t.parameter !== "ambientC";
+      const spread = t.distribution === "normal" ? t.sigma : t.halfWidth;
+      const cap = t.distribution === "normal" ? 0.2 : 0.9;
+      if (relative && spread > cap) ctx.addIssue({ code: "custom", path: ["monteCarlo", "tolerances", i], message: `a relative ${t.distribution} spread must be at most ${cap}` });
+    });
+  })
+  .meta({ description: "design review: a requirement and candidate stages" });
+export type ReviewInput = z.input<typeof reviewInput>;
+
+export const cornerConditions = z.object({
+  supply: z.enum(["min", "nominal", "max"]),
+  supplyV: z.number(),
+  ambient: z.enum(["min", "max"]),
+  ambientC: z.number(),
+  loadScale: z.number(),
+  tolerance: z.enum(["typical", "datasheet-max"]),
+});
+
+export const cornerRow = z.object({
+  conditions: cornerConditions,
+  outcome: z.string(),
+  mode: z.string().optional(),
+  currentA: z.number().optional(),
+  dropV: z.number().optional(),
+  lossW: z.number().optional(),
+  tjC: z.number().optional(),
+  loadV: z.number().optional(),
+  reason: z.string().optional(),
+});
+
+const worstOf = z.object({ value: z.number(), corner: z.number().int() });
+
+export const candidateResult = z.object({
+  index: z.number().int(),
+  label: z.string(),
+  stage: z.object({ kind: z.string(), name: z.string().optional(), partId: z.string().optional() }),
+  rank: z.number().int(),
+  verdict: z.string(),
+  rankReason: z.string(),
+  worst: z.object({ tjC: worstOf.optional(), lossW: worstOf.optional(), dropV: worstOf.optional(), loadMinV: worstOf.optional(), unsolvedCorners: z.array(z.number().int()) }),
+  corners: z.array(cornerRow),
+  startUp: z.unknown().meta({ description: "drive at the lowest supply; the start-up profile samples per ambient" }),
+  reverse: z.unknown().meta({ description: "steady reverse polarity: blocking element, voltage vs rating, leakage, junction temperature" }),
+  transients: z.unknown().meta({ description: "per pulse: peak, element stresses, clamp requirement" }),
+  thermalSizing: z.unknown(),
+  energy: z.unknown().optional(),
+  standby: z.unknown(),
+  metrics: z.record(z.string(), z.union([z.number(), z.boolean()])),
+  rules: z.unknown().optional(),
+  costTotal: z.number().optional(),
+});
+
+export const reviewOutput = z.object({
+  ...provenance,
+  requirement: z.object({
+    supplyClass: z.string(),
+    supplyMinV: z.number(),
+    supplyNominalV: z.number(),
+    supplyMaxV: z.number(),
+    reverseV: z.number(),
+    transients: z.array(z.string()),
+    sources: z.array(z.string()),
+  }),
+  ranking: z.array(z.object({ rank: z.number().int(), index: z.number().int(), label: z.string(), verdict: z.string(), reason: z.string() })),
+  candidates: z.array(candidateResult),
+  monteCarlo: z.unknown().optional(),
+  assumptions: z.array(z.string()),
+});
+export type ReviewOutput = z.infer<typeof reviewOutput>;
