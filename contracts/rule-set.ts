@@ -83,12 +83,13 @@ export const verdictSchema = z.object({
   source: z.string(),
   rationale: z.string(),
   reason: z.string().nullable(),
+  notApplicableCode: z.enum(["stage-kind", "precondition", "missing-value", "not-finite"]).nullable().meta({ description: "why not applicable: out of scope, or a gap in the evidence" }),
   ruleSet: ruleSetStamp,
 });
 
 export const ruleSetResultSchema = z.object({
   ruleSet: ruleSetStamp,
-  outcome: z.enum(["pass", "warn", "fail", "not-applicable"]),
+  outcome: z.enum(["pass", "warn", "fail", "incomplete", "not-applicable"]).meta({ description: "fail > warn > incomplete (a rule could not be evaluated) > pass; not-applicable: no rule in scope" }),
   counts: z.object({ pass: z.number(), warn: z.number(), fail: z.number(), notApplicable: z.number() }),
-  verdicts: z.array(verdictSchema),
+  verdicts: z.array(verdictSchema).readonly(),
 });

@@ -1,12 +1,13 @@
 import { readdirSync, readFileSync } from "node:fs";
 import { join } from "node:path";
 import type { CompiledRuleSet } from "../../domain/rules/compile-rule-set.js";
-import { ruleSetFromText, type RuleSetProblem } from "./parse-rule-set.js";
+import type { RefusedRuleSet, RuleSetProblem } from "../../domain/rules/rule-set-store.js";
+import { ruleSetFromText } from "./parse-rule-set.js";
 
 export interface FolderLoad {
   readonly sets: readonly CompiledRuleSet[];
   /** Files that were refused, each with every problem found in it. */
-  readonly refused: readonly { readonly file: string; readonly setId?: string; readonly problems: readonly RuleSetProblem[] }[];
+  readonly refused: readonly RefusedRuleSet[];
 }
 
 const RULE_FILE = /\.(json|ya?ml)$/i;

@@ -1,15 +1,8 @@
 import { parse as parseYaml } from "yaml";
 import { ruleSetSchema, toRuleSet } from "../../contracts/rule-set.js";
 import { type CompiledRuleSet, compileRuleSet, formatRuleLoadError } from "../../domain/rules/compile-rule-set.js";
+import type { RuleSetProblem } from "../../domain/rules/rule-set-store.js";
 
-/** One problem with one rule-set source: where (file, rule, field path, column) and what. */
-export interface RuleSetProblem {
-  readonly source: string;
-  readonly ruleId?: string;
-  readonly path: readonly (string | number)[];
-  readonly column?: number;
-  readonly message: string;
-}
 
 export type ParsedRuleSet = { readonly ok: true; readonly compiled: CompiledRuleSet } | { readonly ok: false; readonly problems: readonly RuleSetProblem[] };
 

@@ -1,6 +1,6 @@
 import type { CompiledRule, CompiledRuleSet } from "./compile-rule-set.js";
 import { metricDef, partParameterDef } from "./metric-vocabulary.js";
-import type { RuleInput, RuleSetResult, Verdict, VerdictOutcome } from "./rule-model.js";
+import type { NotApplicableCode, RuleInput, RuleSetOutcome, RuleSetResult, Verdict, VerdictOutcome } from "./rule-model.js";
 import { NON_FINITE } from "./sandbox.js";
 
 type Lookup = { readonly ok: true; readonly v: number; readonly boolean: boolean } | { readonly ok: false; readonly why: string };
@@ -10,7 +10,10 @@ function lookup(input: RuleInput, name: string): Lookup {
   const isPart = name.startsWith("part.");
   const key = isPart ? name.slice(5) : name;
   const src: Readonly<Record<string, number | boolean>> = isPart ? input.part : input.metrics;
-  if (!Object.hasOwn(src, key)) return { ok: false, why: `${name} is not given` };
+  if (!Object.hasOwn(src, key)) {
+    const u = input.unavailable !== undefined && Object.hasOwn(input.unavailable, name) ? input.unavailable[name] : undefined;
+    return { ok: false, why: u === undefined ? `${name} is not given` : `${name} is not available: ${u}` };
+  }
   const raw = src[key];
   const def = isPart ? partParameterDef(key) : metricDef(key);
   if (def?.type === "boolean") {
@@ -52,23 +55,23 @@ export function evaluateRule(c: CompiledRule, input: RuleInput, stamp: CompiledR
   });
   const base = { ruleId: r.id, title: r.title, severity: r.severity, expression: r.expression, values: vals, source: r.source, rationale: r.rationale };
   const none = { comparison: null, threshold: null, margin: null, relativeMargin: null };
-  const na = (reason: string): Verdict => ({ ...base, outcome: "not-applicable", ...none, reason, ruleSet: stamp });
+  const na = (code: NotApplicableCode, reason: string): Verdict => ({ ...base, outcome: "not-applicable", ...none, reason, notApplicableCode: code, ruleSet: stamp });
   if (r.appliesTo !== "all") {
-    if (input.stageKind === undefined) return na(`the rule covers ${r.appliesTo.join(", ")} and no stage kind was given`);
-    if (!r.appliesTo.includes(input.stageKind)) return na(`the rule covers ${r.appliesTo.join(", ")}, not ${input.stageKind}`);
+    if (input.stageKind === undefined) return na("missing-value", `the rule covers ${r.appliesTo.join(", ")} and no stage kind was given`);
+    if (!r.appliesTo.includes(input.stageKind)) return na("stage-kind", `the rule covers ${r.appliesTo.join(", ")}, not ${input.stageKind}`);
   }
   try {
     if (c.when !== null) {
       const w = gather(looked, c.whenSlots);
-      if (w.missing.length > 0) return na(`precondition '${r.when}' cannot be evaluated: ${w.missing.join("; ")}`);
-      if (!c.when.test(w.slots)) return na(`precondition '${r.when}' is false`);
+      if (w.missing.length > 0) return na("missing-value", `precondition '${r.when}' cannot be evaluated: ${w.missing.join("; ")}`);
+      if (!c.when.test(w.slots)) return na("precondition", `precondition '${r.when}' is false`);
     }
     const e = gather(looked, c.expressionSlots);
-    if (e.missing.length > 0) return na(`cannot be evaluated: ${e.missing.join("; ")}`);
+    if (e.missing.length > 0) return na("missing-value", `cannot be evaluated: ${e.missing.join("; ")}`);
     const holds = c.expression.test(e.slots);
     const outcome: VerdictOutcome = holds ? "pass" : r.severity;
     const cmp = c.expression.comparison;
-    if (cmp === null) return { ...base, outcome, ...none, reason: holds ? null : `'${r.expression}' is false`, ruleSet: stamp };
+    if (cmp === null) return { ...base, outcome, ...none, reason: holds ? null : `'${r.expression}' is false`, notApplicableCode: null, ruleSet: stamp };
     const lhs = cmp.lhs(e.slots);
     const rhs = cmp.rhs(e.slots);
     const margin = cmp.bound === "upper" ? rhs - lhs : lhs - rhs;
@@ -80,23 +83,31 @@ export function evaluateRule(c: CompiledRule, input: RuleInput, stamp: CompiledR
       margin,
       relativeMargin: rhs === 0 ? null : margin / Math.abs(rhs),
       reason: holds ? null : `${fmt(lhs)} ${cmp.op} ${fmt(rhs)} does not hold (margin ${fmt(margin)})`,
+      notApplicableCode: null,
       ruleSet: stamp,
     };
   } catch (err) {
-    if (err === NON_FINITE) return na("an intermediate value is not finite (division by zero, log of zero or a negative number, overflow)");
+    if (err === NON_FINITE) return na("not-finite", "an intermediate value is not finite (division by zero, log of zero or a negative number, overflow)");
     throw err;
   }
 }
 
-/** Evaluate every rule of a set, in the set's order; the summary counts each outcome. */
+/**
+ * Evaluate every rule of a set, in the set's order. The set's outcome: fail if any rule failed,
+ * else warn if any warned, else incomplete if any rule could not be evaluated (a missing or
+ * non-finite value), else pass; not-applicable when no rule was in scope at all.
+ */
 export function evaluateRuleSet(set: CompiledRuleSet, input: RuleInput): RuleSetResult {
   const verdicts = set.rules.map((c) => evaluateRule(c, input, set.stamp));
   const counts = { pass: 0, warn: 0, fail: 0, notApplicable: 0 };
+  let gaps = 0;
   for (const v of verdicts) {
-    if (v.outcome === "not-applicable") counts.notApplicable += 1;
-    else counts[v.outcome] += 1;
+    if (v.outcome === "not-applicable") {
+      counts.notApplicable += 1;
+      if (v.notApplicableCode === "missing-value" || v.notApplicableCode === "not-finite") gaps += 1;
+    } else counts[v.outcome] += 1;
   }
-  const outcome: VerdictOutcome = counts.fail > 0 ? "fail" : counts.warn > 0 ? "warn" : counts.pass > 0 ? "pass" : "not-applicable";
+  const outcome: RuleSetOutcome = counts.fail > 0 ? "fail" : counts.warn > 0 ? "warn" : gaps > 0 ? "incomplete" : counts.pass > 0 ? "pass" : "not-applicable";
   return { ruleSet: set.stamp, outcome, counts, verdicts };
 }
 

@@ -7,6 +7,14 @@
  */
 export type Severity = "fail" | "warn";
 export type VerdictOutcome = "pass" | "warn" | "fail" | "not-applicable";
+/**
+ * Why a rule was not applicable: out of scope ("stage-kind", "precondition" false) or a gap in
+ * the evidence ("missing-value": a name it needs is absent or ill-typed; "not-finite": an
+ * intermediate value overflowed or divided by zero). A gap makes the set's outcome "incomplete".
+ */
+export type NotApplicableCode = "stage-kind" | "precondition" | "missing-value" | "not-finite";
+/** fail > warn > incomplete (a rule could not be evaluated) > pass; not-applicable: no rule was in scope. */
+export type RuleSetOutcome = "pass" | "warn" | "fail" | "incomplete" | "not-applicable";
 
 export interface Rule {
   readonly id: string;
@@ -58,13 +66,13 @@ export interface Verdict {
   readonly rationale: string;
   /** Why the rule did not pass or was not applicable; null on pass. */
   readonly reason: string | null;
+  readonly notApplicableCode: NotApplicableCode | null;
   readonly ruleSet: RuleSetStamp;
 }
 
 export interface RuleSetResult {
   readonly ruleSet: RuleSetStamp;
-  /** fail if any rule failed, else warn if any warned, else pass; not-applicable if no rule was evaluated. */
-  readonly outcome: VerdictOutcome;
+  readonly outcome: RuleSetOutcome;
   readonly counts: { readonly pass: number; readonly warn: number; readonly fail: number; readonly notApplicable: number };
   readonly verdicts: readonly Verdict[];
 }
@@ -74,4 +82,6 @@ export interface RuleInput {
   readonly stageKind?: string;
   readonly metrics: Readonly<Record<string, number | boolean>>;
   readonly part: Readonly<Record<string, number>>;
+  /** Names known to be unavailable, with why (e.g. no operating point exists); cited in the reason. */
+  readonly unavailable?: Readonly<Record<string, string>>;
 }

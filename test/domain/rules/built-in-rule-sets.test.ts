@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { builtInRuleSets } from "../../../adapters/rulesets/built-in.js";
+import { builtInRuleSets } from "../../../domain/rules/built-in-sets.js";
 import type { CompiledRuleSet } from "../../../domain/rules/compile-rule-set.js";
 import { evaluateRule } from "../../../domain/rules/evaluate-rules.js";
 import type { VerdictOutcome } from "../../../domain/rules/rule-model.js";

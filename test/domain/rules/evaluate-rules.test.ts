@@ -32,7 +32,8 @@ describe("rule evaluation", () => {
     const res = evaluateRuleSet(compiled(setOf(rule("div", "tjWorstC / lossWorstW <= 100"), rule("log", "log(lossWorstW) <= 1"))), { metrics: { tjWorstC: 50, lossWorstW: 0 }, part: {} });
     expect(res.verdicts.map((v) => v.outcome)).toEqual(["not-applicable", "not-applicable"]);
     expect(res.verdicts[0]?.reason).toContain("not finite");
-    expect(res.outcome).toBe("not-applicable");
+    expect(res.outcome).toBe("incomplete");
+    expect(res.verdicts[0]?.notApplicableCode).toBe("not-finite");
     expect(JSON.stringify(res)).not.toMatch(/NaN|Infinity|null,"margin":NaN/);
   });
   it("a boolean metric given as 0.5 or a number metric given as a boolean is not applicable with the reason", () => {
@@ -49,6 +50,14 @@ describe("rule evaluation", () => {
     const s = compiled(setOf(rule("a", "tjWorstC <= 100"), rule("b", "tjWorstC <= 50", { severity: "warn" }), rule("c", "lossWorstW <= 1")));
     expect(evaluateRuleSet(s, { metrics: { tjWorstC: 60 }, part: {} })).toMatchObject({ outcome: "warn", counts: { pass: 1, warn: 1, fail: 0, notApplicable: 1 } });
     expect(evaluateRuleSet(s, { metrics: { tjWorstC: 160, lossWorstW: 0.5 }, part: {} })).toMatchObject({ outcome: "fail", counts: { pass: 1, warn: 1, fail: 1, notApplicable: 0 } });
+    expect(evaluateRuleSet(s, { metrics: { tjWorstC: 10 }, part: {} })).toMatchObject({ outcome: "incomplete", counts: { pass: 2, notApplicable: 1 } });
+    const scoped = compiled(setOf(rule("d", "tjWorstC <= 1", { appliesTo: ["pn-diode"] })));
+    expect(evaluateRuleSet(scoped, { stageKind: "pfet-high-side", metrics: {}, part: {} }).outcome).toBe("not-applicable");
+  });
+  it("a name marked unavailable says why in the reason", () => {
+    const [v] = evaluateRuleSet(compiled(setOf(rule("u", "tjWorstC <= 100"))), { metrics: {}, part: {}, unavailable: { tjWorstC: "no stable operating point (thermal runaway)" } }).verdicts;
+    expect(v?.reason).toBe("cannot be evaluated: tjWorstC is not available: no stable operating point (thermal runaway)");
+    expect(v?.notApplicableCode).toBe("missing-value");
   });
 });
 

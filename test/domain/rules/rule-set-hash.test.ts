@@ -2,7 +2,7 @@ import { createHash } from "node:crypto";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import defaultSet from "../../../rulesets/default.json" with { type: "json" };
-import { builtInRuleSets } from "../../../adapters/rulesets/built-in.js";
+import { builtInRuleSets } from "../../../domain/rules/built-in-sets.js";
 import { compileRuleSet } from "../../../domain/rules/compile-rule-set.js";
 import { evaluateRuleSet } from "../../../domain/rules/evaluate-rules.js";
 import type { RuleSet } from "../../../domain/rules/rule-model.js";
