@@ -1,4 +1,5 @@
 import type { StageSpec } from "../contracts/stage.js";
+import type { RuleSetStore } from "../domain/rules/rule-set-store.js";
 
 /** A part of the approved-parts catalog: a stage with an id. */
 export interface CatalogPart {
@@ -15,4 +16,6 @@ export interface PartsCatalog {
 
 export interface Context {
   readonly catalog: PartsCatalog;
+  /** Rule sets requests may name; absent: the built-in sets only. */
+  readonly ruleSets?: RuleSetStore | undefined;
 }

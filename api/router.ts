@@ -1,9 +1,11 @@
 import { operatingPoint } from "./procedures/operating-point.js";
+import { rules } from "./procedures/rules.js";
 import { router } from "./trpc.js";
 
 /** Every analysis of backstop; adapters (HTTP, batch) all enter here. */
 export const appRouter = router({
   operatingPoint,
+  rules,
 });
 
 /** Clients import only this type (`import type { AppRouter } from "backstop/api/router"`). */

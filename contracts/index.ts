@@ -8,3 +8,5 @@ export * from "./quantity.js";
 export * from "./stage.js";
 export * from "./thermal.js";
 export * from "./catalog.js";
+export * from "./rule-set.js";
+export * from "./rules.js";

@@ -1,6 +1,8 @@
 import { z } from "zod";
 import { load } from "./load.js";
 import { provenance } from "./outcome.js";
+import { metricRecord, ruleSetResultSchema } from "./rule-set.js";
+import { ruleSetRef } from "./rules.js";
 import { quantity, temperatureC } from "./quantity.js";
 import { stageInput } from "./stage.js";
 import { thermalPath } from "./thermal.js";
@@ -13,6 +15,10 @@ export const operatingPointInput = z
     load,
     ambientC: temperatureC("ambient temperature"),
     thermal: thermalPath.optional().meta({ description: "overrides the stage's thermal path for this board" }),
+    ruleSet: ruleSetRef.optional().meta({ description: "when given, the result carries this rule set's verdicts on the point" }),
+    ruleMetrics: metricRecord
+      .optional()
+      .meta({ description: "requirement metrics for the rules that the point does not compute (supplyMinV, reverseVMaxV, standbyBudgetA, parallelSources, ...)" }),
   })
   .meta({ description: "steady-state electrothermal operating point of one stage" });
 export type OperatingPointInput = z.input<typeof operatingPointInput>;
@@ -45,6 +51,7 @@ const base = {
   ...provenance,
   stage: z.object({ kind: z.string(), name: z.string().optional(), partId: z.string().optional() }),
   assumptions: z.array(z.string()).meta({ description: "defaults applied and where they come from" }),
+  rules: ruleSetResultSchema.optional().meta({ description: "verdicts of the named rule set on this point (present when ruleSet was given)" }),
 };
 
 export const operatingPointOutput = z.discriminatedUnion("outcome", [

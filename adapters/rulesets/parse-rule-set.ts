@@ -1,0 +1,50 @@
+import { parse as parseYaml } from "yaml";
+import { ruleSetSchema, toRuleSet } from "../../contracts/rule-set.js";
+import { type CompiledRuleSet, compileRuleSet, formatRuleLoadError } from "../../domain/rules/compile-rule-set.js";
+import type { RuleSetProblem } from "../../domain/rules/rule-set-store.js";
+
+
+export type ParsedRuleSet = { readonly ok: true; readonly compiled: CompiledRuleSet } | { readonly ok: false; readonly problems: readonly RuleSetProblem[] };
+
+/** Validate a rule set given as data (inline in a request, or a parsed file) and compile it. */
+export function ruleSetFromData(data: unknown, source: string): ParsedRuleSet {
+  const shape = ruleSetSchema.safeParse(data);
+  if (!shape.success) {
+    return {
+      ok: false,
+      problems: shape.error.issues.map((i) => {
+        const path = i.path.map((p) => (typeof p === "symbol" ? String(p) : p));
+        const ruleId = ruleIdAt(data, path);
+        return { source, path, message: `${ruleId === undefined ? "" : `rule ${ruleId}: `}${path.join(".") || "(set)"}: ${i.message}`, ...(ruleId === undefined ? {} : { ruleId }) };
+      }),
+    };
+  }
+  const set = toRuleSet(shape.data);
+  const out = compileRuleSet(set);
+  if (out.ok) return out;
+  return {
+    ok: false,
+    problems: out.errors.map((e) => {
+      const idx = set.rules.findIndex((r) => r.id === e.ruleId);
+      return { source, ruleId: e.ruleId, path: ["rules", idx, e.field], column: e.column, message: formatRuleLoadError(e) };
+    }),
+  };
+}
+
+/** Parse a rule-set file's text: JSON for `.json`, YAML for `.yaml`/`.yml`. */
+export function ruleSetFromText(text: string, fileName: string): ParsedRuleSet {
+  let data: unknown;
+  try {
+    data = /\.ya?ml$/i.test(fileName) ? parseYaml(text, { maxAliasCount: 50 }) : JSON.parse(text);
+  } catch (e) {
+    return { ok: false, problems: [{ source: fileName, path: [], message: `not valid ${/\.ya?ml$/i.test(fileName) ? "YAML" : "JSON"}: ${e instanceof Error ? e.message : String(e)}` }] };
+  }
+  return ruleSetFromData(data, fileName);
+}
+
+function ruleIdAt(data: unknown, path: readonly (string | number)[]): string | undefined {
+  if (path[0] !== "rules" || typeof path[1] !== "number") return undefined;
+  const rules = (data as { rules?: unknown } | null)?.rules;
+  const r = Array.isArray(rules) ? (rules[path[1]] as { id?: unknown } | undefined) : undefined;
+  return typeof r?.id === "string" ? r.id : `#${path[1]}`;
+}

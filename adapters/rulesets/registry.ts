@@ -1,0 +1,11 @@
+import { builtInRuleSets } from "../../domain/rules/built-in-sets.js";
+import { createRuleSetStore, type RuleSetStore } from "../../domain/rules/rule-set-store.js";
+import { loadRuleSetFolder } from "./folder.js";
+
+/** Built-in sets, plus the company sets of `dir` when given (see folder.ts for the policy). */
+export function loadRuleSetStore(dir?: string): RuleSetStore {
+  const builtIn = builtInRuleSets();
+  if (dir === undefined) return createRuleSetStore(builtIn);
+  const folder = loadRuleSetFolder(dir, new Set(builtIn.map((s) => s.stamp.id)));
+  return createRuleSetStore([...builtIn, ...folder.sets], folder.refused);
+}

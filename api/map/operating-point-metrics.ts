@@ -1,0 +1,78 @@
+import type { RuleInput } from "../../domain/rules/rule-model.js";
+import type { OperatingPointOutcome } from "../../domain/solve/electrothermal-point.js";
+import type { LoadModel } from "../../domain/solve/load-model.js";
+import { type StageModel, stageQuiescentA, stageTjMaxC } from "../../domain/stages/stage-model.js";
+
+/** Metrics the operating point computes; a caller may not supply them alongside it. */
+export const OPERATING_POINT_METRICS = ["tjWorstC", "lossWorstW", "dropWorstV", "loadVMinV", "gateDriveMinV"] as const;
+
+/**
+ * Map an operating point, its stage and its load to rule metrics. The point is taken as the worst
+ * corner the caller chose (lowest supply, highest current and ambient): tjWorstC = Tj,
+ * lossWorstW = heat in the die, dropWorstV = forward drop, loadVMinV = load voltage,
+ * gateDriveMinV = gate-source drive at this supply. Without a point (runaway, collapse, stage
+ * off) those names are marked unavailable with the outcome, so their rules are not applicable
+ * and the set's outcome is at best "incomplete", never "pass".
+ */
+export function operatingPointRuleInput(stage: StageModel, load: LoadModel, o: OperatingPointOutcome, callerMetrics: Readonly<Record<string, number | boolean>>): RuleInput {
+  const metrics: Record<string, number | boolean> = { ...callerMetrics, ...stageMetrics(stage) };
+  if (load.kind === "constant-power") metrics["loadMinV"] = load.minVoltageV;
+  const unavailable: Record<string, string> = {};
+  if (o.outcome === "solved" || o.outcome === "over-temperature" || o.outcome === "load-undervoltage") {
+    const p = o.point;
+    metrics["tjWorstC"] = p.tjC;
+    metrics["lossWorstW"] = p.dieLossW;
+    metrics["dropWorstV"] = p.forward.dropV;
+    metrics["loadVMinV"] = p.loadV;
+    if (p.forward.gateSourceV !== undefined && stage.kind !== "pn-diode" && stage.kind !== "schottky-diode" && stage.kind !== "integrated-switch") {
+      metrics["gateDriveMinV"] = p.forward.gateSourceV;
+    }
+  } else {
+    for (const n of OPERATING_POINT_METRICS) unavailable[n] = `no operating point (${o.outcome}: ${o.reason})`;
+  }
+  if (stage.kind === "integrated-switch" && !Object.hasOwn(metrics, "blocksReverseCurrent")) {
+    unavailable["blocksReverseCurrent"] = "the integrated-switch model does not say whether it blocks reverse current; give it in ruleMetrics";
+  }
+  return { stageKind: stage.kind, metrics, part: partParameters(stage), unavailable };
+}
+
+function stageMetrics(stage: StageModel): Record<string, number | boolean> {
+  const m: Record<string, number | boolean> = { quiescentA: stageQuiescentA(stage) };
+  switch (stage.kind) {
+    case "pn-diode":
+    case "schottky-diode":
+      return { ...m, blocksReverseCurrent: true };
+    case "pfet-high-side":
+    case "nfet-low-side":
+      // Both conduct backwards once on: neither turns off when the output rises above the input.
+      return { ...m, blocksReverseCurrent: false };
+    case "nfet-ideal-diode":
+      return { ...m, blocksReverseCurrent: true, startVoltageV: stage.controller.startV };
+    case "integrated-switch":
+      return { ...m, startVoltageV: stage.startV };
+  }
+}
+
+function partParameters(stage: StageModel): Record<string, number> {
+  const part: Record<string, number> = { tjMaxC: stageTjMaxC(stage) };
+  switch (stage.kind) {
+    case "pn-diode":
+    case "schottky-diode":
+      part["vrrmV"] = stage.reverseRatingV;
+      break;
+    case "pfet-high-side":
+    case "nfet-low-side":
+    case "nfet-ideal-diode": {
+      part["vdsMaxV"] = stage.mosfet.vdsMaxV;
+      part["vgsMaxV"] = stage.mosfet.vgsMaxV;
+      const top = stage.mosfet.channel.rdsOnPoints.at(-1);
+      if (top !== undefined) part["vgsOnV"] = top.gateSourceV;
+      if (stage.kind === "nfet-ideal-diode" && stage.controller.maxInputV !== undefined) part["maxInputV"] = stage.controller.maxInputV;
+      break;
+    }
+    case "integrated-switch":
+      part["maxInputV"] = stage.maxVoltageV;
+      break;
+  }
+  return part;
+}

@@ -1,0 +1,95 @@
+import { z } from "zod";
+import { METRICS, PART_PARAMETERS } from "../domain/rules/metric-vocabulary.js";
+import type { Rule, RuleSet } from "../domain/rules/rule-model.js";
+
+/**
+ * Rule sets as files and requests carry them. The shape is checked here; the expressions, the
+ * stage kinds and the ids are checked by the domain (compileRuleSet), whose errors name the rule
+ * and the column in the expression.
+ */
+export const ruleSchema = z.strictObject({
+  id: z.string().regex(/^[A-Za-z0-9][A-Za-z0-9._-]{0,79}$/, "a rule id is 1-80 letters, digits, '.', '_' or '-'"),
+  title: z.string().min(1).max(200),
+  appliesTo: z.union([z.literal("all"), z.array(z.string()).min(1)]).meta({ description: 'stage kinds the rule covers, or "all"' }),
+  when: z.string().optional().meta({ description: "precondition; false makes the rule not applicable" }),
+  expression: z.string().meta({ description: "condition over the metric vocabulary, mathjs syntax, e.g. tjWorstC <= part.tjMaxC - 25 K" }),
+  severity: z.enum(["fail", "warn"]).meta({ description: "outcome when the condition is false" }),
+  source: z.string().min(1).max(500).meta({ description: 'a standard clause, "common practice", "memory", or the company policy' }),
+  rationale: z.string().min(1).max(1000),
+});
+
+export const ruleSetSchema = z.strictObject({
+  id: z.string().regex(/^[A-Za-z0-9][A-Za-z0-9._-]{0,79}$/, "a rule-set id is 1-80 letters, digits, '.', '_' or '-'"),
+  version: z.string().min(1).max(40),
+  description: z.string().min(1).max(4000),
+  basedOn: z.string().max(80).optional(),
+  differences: z.array(z.string().max(2000)).optional(),
+  rules: z.array(ruleSchema).min(1).max(500),
+});
+export type RuleSetSpec = z.infer<typeof ruleSetSchema>;
+
+/** The zod output to the domain record (optional members absent rather than undefined). */
+export function toRuleSet(s: RuleSetSpec): RuleSet {
+  const rules: Rule[] = s.rules.map((r) => ({
+    id: r.id,
+    title: r.title,
+    appliesTo: r.appliesTo,
+    ...(r.when === undefined ? {} : { when: r.when }),
+    expression: r.expression,
+    severity: r.severity,
+    source: r.source,
+    rationale: r.rationale,
+  }));
+  return {
+    id: s.id,
+    version: s.version,
+    description: s.description,
+    ...(s.basedOn === undefined ? {} : { basedOn: s.basedOn }),
+    ...(s.differences === undefined ? {} : { differences: s.differences }),
+    rules,
+  };
+}
+
+const metricNames = new Set(METRICS.map((m) => m.name));
+const partNames = new Set(PART_PARAMETERS.map((m) => m.name));
+
+/** Metric values by name; a name outside the vocabulary is refused (a typo would leave a rule not applicable). */
+export const metricRecord = z.record(z.string(), z.union([z.number(), z.boolean()])).superRefine((rec, ctx) => {
+  for (const [k, v] of Object.entries(rec)) {
+    if (!metricNames.has(k)) ctx.addIssue({ code: "custom", path: [k], message: `unknown metric '${k}' (see docs/metrics.md)` });
+    else if (typeof v === "number" && !Number.isFinite(v)) ctx.addIssue({ code: "custom", path: [k], message: "must be a finite number" });
+  }
+});
+export const partRecord = z.record(z.string(), z.number()).superRefine((rec, ctx) => {
+  for (const [k, v] of Object.entries(rec)) {
+    if (!partNames.has(k)) ctx.addIssue({ code: "custom", path: [k], message: `unknown part parameter '${k}' (see docs/metrics.md)` });
+    else if (!Number.isFinite(v)) ctx.addIssue({ code: "custom", path: [k], message: "must be a finite number" });
+  }
+});
+
+export const ruleSetStamp = z.object({ id: z.string(), version: z.string(), hash: z.string().meta({ description: "sha256 of the set's canonical JSON" }) });
+
+export const verdictSchema = z.object({
+  ruleId: z.string(),
+  title: z.string(),
+  outcome: z.enum(["pass", "warn", "fail", "not-applicable"]),
+  severity: z.enum(["fail", "warn"]),
+  expression: z.string(),
+  values: z.record(z.string(), z.union([z.number(), z.boolean()])).meta({ description: "every name the rule read, part parameters as part.<name>" }),
+  comparison: z.string().nullable(),
+  threshold: z.number().nullable(),
+  margin: z.number().nullable().meta({ description: "distance to the threshold on the safe side; negative when violated" }),
+  relativeMargin: z.number().nullable(),
+  source: z.string(),
+  rationale: z.string(),
+  reason: z.string().nullable(),
+  notApplicableCode: z.enum(["stage-kind", "precondition", "missing-value", "not-finite"]).nullable().meta({ description: "why not applicable: out of scope, or a gap in the evidence" }),
+  ruleSet: ruleSetStamp,
+});
+
+export const ruleSetResultSchema = z.object({
+  ruleSet: ruleSetStamp,
+  outcome: z.enum(["pass", "warn", "fail", "incomplete", "not-applicable"]).meta({ description: "fail > warn > incomplete (a rule could not be evaluated) > pass; not-applicable: no rule in scope" }),
+  counts: z.object({ pass: z.number(), warn: z.number(), fail: z.number(), notApplicable: z.number() }),
+  verdicts: z.array(verdictSchema).readonly(),
+});

@@ -1,0 +1,75 @@
+import type { Rule, RuleSet, RuleSetStamp } from "./rule-model.js";
+import { ruleSetHash } from "./rule-set-hash.js";
+import { type CompiledExpression, compileExpression, type ExpressionErrorCode } from "./sandbox.js";
+import { STAGE_KINDS } from "./metric-vocabulary.js";
+
+export interface CompiledRule {
+  readonly rule: Rule;
+  readonly when: CompiledExpression | null;
+  readonly expression: CompiledExpression;
+  /** Every name read by `when` and `expression`, sorted: the keys of the verdict's values. */
+  readonly names: readonly string[];
+  /** Positions in `names` of the names `when` and `expression` read, in their slot order. */
+  readonly whenSlots: readonly number[];
+  readonly expressionSlots: readonly number[];
+}
+
+export interface CompiledRuleSet {
+  readonly set: RuleSet;
+  readonly stamp: RuleSetStamp;
+  readonly rules: readonly CompiledRule[];
+}
+
+/** A rule that cannot be loaded: which rule, which field, where in the expression and why. */
+export interface RuleLoadError {
+  readonly ruleId: string;
+  readonly field: "id" | "appliesTo" | "when" | "expression";
+  readonly code: ExpressionErrorCode | "duplicate-id" | "unknown-stage-kind";
+  /** 1-based column in the field's text (1 for fields that are not expressions). */
+  readonly column: number;
+  readonly message: string;
+}
+
+export type CompileRuleSetOutcome =
+  | { readonly ok: true; readonly compiled: CompiledRuleSet }
+  | { readonly ok: false; readonly errors: readonly RuleLoadError[] };
+
+/**
+ * Validate and compile every rule of a set: expressions against the sandbox, stage kinds against
+ * the known kinds, ids unique. All errors are collected; a set with any error is refused whole
+ * (a partly loaded set would give verdicts nobody reviewed). The stamp's hash is sha256 of the
+ * set's canonical JSON (rule-set-hash.ts).
+ */
+export function compileRuleSet(set: RuleSet): CompileRuleSetOutcome {
+  const errors: RuleLoadError[] = [];
+  const seen = new Set<string>();
+  const rules: CompiledRule[] = [];
+  for (const rule of set.rules) {
+    if (seen.has(rule.id)) errors.push({ ruleId: rule.id, field: "id", code: "duplicate-id", column: 1, message: `rule id '${rule.id}' appears more than once` });
+    seen.add(rule.id);
+    if (rule.appliesTo !== "all") {
+      for (const k of rule.appliesTo) {
+        if (!Object.hasOwn(STAGE_KINDS, k)) {
+          errors.push({ ruleId: rule.id, field: "appliesTo", code: "unknown-stage-kind", column: 1, message: `unknown stage kind '${k}'; known: ${Object.keys(STAGE_KINDS).join(", ")}` });
+        }
+      }
+    }
+    const when = rule.when === undefined ? null : compileExpression(rule.when);
+    if (when !== null && !when.ok) errors.push({ ruleId: rule.id, field: "when", ...when.error });
+    const expr = compileExpression(rule.expression);
+    if (!expr.ok) errors.push({ ruleId: rule.id, field: "expression", ...expr.error });
+    if (expr.ok && (when === null || when.ok)) {
+      const w = when === null ? null : when.compiled;
+      const names = [...new Set([...(w?.names ?? []), ...expr.compiled.names])].sort();
+      const at = (n: string): number => names.indexOf(n);
+      rules.push({ rule, when: w, expression: expr.compiled, names, whenSlots: (w?.names ?? []).map(at), expressionSlots: expr.compiled.names.map(at) });
+    }
+  }
+  if (errors.length > 0) return { ok: false, errors };
+  return { ok: true, compiled: { set, stamp: { id: set.id, version: set.version, hash: ruleSetHash(set) }, rules } };
+}
+
+/** One line per error: `rule <id>, <field> column <n>: <message>`. */
+export function formatRuleLoadError(e: RuleLoadError): string {
+  return `rule ${e.ruleId}, ${e.field}${e.field === "when" || e.field === "expression" ? ` column ${e.column}` : ""}: ${e.message}`;
+}

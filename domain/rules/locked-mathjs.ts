@@ -1,0 +1,26 @@
+import { all, create, type MathNode } from "mathjs";
+
+/**
+ * A dedicated mathjs instance, used only to parse. Its parse function is taken first, then the
+ * instance is locked: every function that could reach the parser, the evaluator or the unit system
+ * is replaced by one that refuses (the lock recommended by mathjs's security notes). Rule
+ * expressions are never evaluated by mathjs: the walked, whitelisted tree is compiled to closures
+ * over numbers (sandbox.ts), so the lock is a second wall behind the whitelist.
+ */
+if (all === undefined) throw new Error("mathjs: the full factory set is missing");
+const instance = create(all);
+const parseOnce: (text: string) => MathNode = instance.parse;
+
+const refuse = (name: string) => () => {
+  throw new Error(`${name} is disabled in the rules sandbox`);
+};
+instance.import(
+  Object.fromEntries(
+    ["import", "createUnit", "evaluate", "parse", "compile", "simplify", "derivative", "resolve", "reviver"].map((n) => [n, refuse(n)]),
+  ),
+  { override: true },
+);
+
+export function parseExpression(text: string): MathNode {
+  return parseOnce(text);
+}

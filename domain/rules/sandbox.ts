@@ -1,0 +1,100 @@
+import type { MathNode } from "mathjs";
+import { parseExpression } from "./locked-mathjs.js";
+import { type BoolFn, build, type Ctx, type ExpressionError, type ExpressionErrorCode, type Loose, type NumFn } from "./sandbox-build.js";
+import { COMPARISONS, EXPRESSION_LIMITS } from "./sandbox-whitelist.js";
+
+export { NON_FINITE } from "./sandbox-build.js";
+export type { BoolFn, ExpressionError, ExpressionErrorCode, NumFn } from "./sandbox-build.js";
+
+/** A top-level comparison `lhs op rhs`, kept apart to report threshold and margin. */
+export interface TopComparison {
+  readonly op: string;
+  /** "upper": lhs must stay below rhs (<, <=); "lower": lhs must stay above rhs (>, >=). */
+  readonly bound: "upper" | "lower";
+  readonly lhs: NumFn;
+  readonly rhs: NumFn;
+}
+
+/**
+ * A checked, compiled condition. `names` lists the vocabulary names it reads in order of first
+ * use (part parameters as `part.<name>`); evaluation takes their values in that order, booleans
+ * as 0/1. Evaluation runs a fixed closure tree of at most maxNodes nodes with no loops, calls or
+ * allocation of user data, so its time is bounded by the node limit.
+ */
+export interface CompiledExpression {
+  readonly text: string;
+  readonly names: readonly string[];
+  readonly test: BoolFn;
+  readonly comparison: TopComparison | null;
+}
+
+export type CompileOutcome = { readonly ok: true; readonly compiled: CompiledExpression } | { readonly ok: false; readonly error: ExpressionError };
+
+const cache = new Map<string, CompileOutcome>();
+const CACHE_MAX = 10_000;
+
+/**
+ * Check an expression against the whitelist and the vocabulary, type it (numbers vs booleans; a
+ * rule must be a condition), and compile it. Results are cached by the expression text.
+ */
+export function compileExpression(text: string): CompileOutcome {
+  const hit = cache.get(text);
+  if (hit !== undefined) return hit;
+  const out = compileUncached(text);
+  if (cache.size >= CACHE_MAX) cache.clear();
+  cache.set(text, out);
+  return out;
+}
+
+function compileUncached(text: string): CompileOutcome {
+  const L = EXPRESSION_LIMITS;
+  if (text.length > L.maxLength) return fail("too-long", `expression is ${text.length} characters; the limit is ${L.maxLength}`, L.maxLength + 1);
+  const deep = bracketOverflow(text);
+  if (deep > 0) return fail("too-deep", `brackets nest deeper than ${L.maxBracketDepth}`, deep);
+  if (text.trim() === "") return fail("syntax", "expression is empty", 1);
+  let root: MathNode;
+  try {
+    root = parseExpression(text);
+  } catch (e) {
+    const col = typeof (e as { char?: unknown }).char === "number" ? (e as { char: number }).char : 1;
+    return fail("syntax", e instanceof Error ? e.message : "syntax error", col);
+  }
+  const ctx: Ctx = { text, names: [], index: new Map(), nodes: 0 };
+  try {
+    const top = build(root as unknown as Loose, ctx, 0);
+    if (top.type !== "boolean") return fail("type", "a rule expression must be a condition (a comparison or a logical combination), not a number", 1);
+    return { ok: true, compiled: { text, names: ctx.names, test: top.f, comparison: topComparison(root as unknown as Loose, ctx) } };
+  } catch (e) {
+    if (typeof e === "object" && e !== null && "refusal" in e) return { ok: false, error: (e as { refusal: ExpressionError }).refusal };
+    throw e;
+  }
+}
+
+function fail(code: ExpressionErrorCode, message: string, column: number): CompileOutcome {
+  return { ok: false, error: { code, message, column } };
+}
+
+function bracketOverflow(text: string): number {
+  let depth = 0;
+  for (let i = 0; i < text.length; i += 1) {
+    const c = text[i];
+    if (c === "(" || c === "[" || c === "{") depth += 1;
+    else if (c === ")" || c === "]" || c === "}") depth -= 1;
+    if (depth > EXPRESSION_LIMITS.maxBracketDepth) return i + 1;
+  }
+  return 0;
+}
+
+function topComparison(root: Loose, ctx: Ctx): TopComparison | null {
+  let n = root;
+  while (n.type === "ParenthesisNode" && n.content) n = n.content;
+  const cmp = n.type === "OperatorNode" && typeof n.fn === "string" ? COMPARISONS.get(n.fn) : undefined;
+  const [a, b] = n.args ?? [];
+  if (cmp === undefined || a === undefined || b === undefined) return null;
+  const sub: Ctx = { ...ctx, nodes: 0 };
+  const lhs = build(a, sub, 1);
+  const rhs = build(b, sub, 1);
+  if (lhs.type !== "number" || rhs.type !== "number") return null;
+  return { op: cmp.op, bound: cmp.op.startsWith("<") ? "upper" : "lower", lhs: lhs.f, rhs: rhs.f };
+}
+

@@ -1,0 +1,175 @@
+import { describe, expect, it } from "vitest";
+import { builtInRuleSets } from "../../../domain/rules/built-in-sets.js";
+import type { CompiledRuleSet } from "../../../domain/rules/compile-rule-set.js";
+import { evaluateRule } from "../../../domain/rules/evaluate-rules.js";
+import type { VerdictOutcome } from "../../../domain/rules/rule-model.js";
+
+// Every built-in rule on hand-computed metrics. Each expected threshold and margin below is
+// worked by hand from the rule's expression (a closed form: threshold = the right-hand side,
+// margin = rhs − lhs for <=, lhs − rhs for >=); the numbers are invented test inputs, not data.
+type Vals = Record<string, number | boolean>;
+interface Case {
+  readonly kind: string;
+  readonly metrics: Vals;
+  readonly part?: Vals;
+  readonly threshold?: number;
+  readonly margin?: number;
+}
+interface RuleCases {
+  readonly pass: Case;
+  readonly violate: Case & { readonly outcome: VerdictOutcome };
+}
+
+const p = (kind: string, metrics: Vals, part: Vals, threshold?: number, margin?: number): Case => ({ kind, metrics, part, ...(threshold === undefined ? {} : { threshold }), ...(margin === undefined ? {} : { margin }) });
+const v = (outcome: VerdictOutcome, c: Case) => ({ ...c, outcome });
+
+const DEFAULT: Record<string, RuleCases> = {
+  "tj-limit": { pass: p("schottky-diode", { tjWorstC: 140 }, { tjMaxC: 150 }, 150, 10), violate: v("fail", p("schottky-diode", { tjWorstC: 151 }, { tjMaxC: 150 }, 150, -1)) },
+  "tj-margin": { pass: p("pfet-high-side", { tjWorstC: 120 }, { tjMaxC: 150 }, 125, 5), violate: v("warn", p("pfet-high-side", { tjWorstC: 130 }, { tjMaxC: 150 }, 125, -5)) },
+  "load-voltage-min": { pass: p("pn-diode", { loadVMinV: 11, loadMinV: 10 }, {}, 10, 1), violate: v("fail", p("pn-diode", { loadVMinV: 9.5, loadMinV: 10 }, {}, 10, -0.5)) },
+  "load-voltage-headroom": { pass: p("pn-diode", { loadVMinV: 11, loadMinV: 10 }, {}, 10.5, 0.5), violate: v("warn", p("pn-diode", { loadVMinV: 10.2, loadMinV: 10 }, {}, 10.5, -0.3)) },
+  "diode-reverse-steady": { pass: p("schottky-diode", { reverseVMaxV: 14 }, { vrrmV: 40 }, 32, 18), violate: v("fail", p("schottky-diode", { reverseVMaxV: 35 }, { vrrmV: 40 }, 32, -3)) },
+  "diode-reverse-transient": { pass: p("pn-diode", { reverseTransientVMaxV: 36 }, { vrrmV: 40 }, 40, 4), violate: v("fail", p("pn-diode", { reverseTransientVMaxV: 45 }, { vrrmV: 40 }, 40, -5)) },
+  "fet-vds-reverse-steady": { pass: p("pfet-high-side", { reverseVMaxV: 14 }, { vdsMaxV: 40 }, 32, 18), violate: v("fail", p("pfet-high-side", { reverseVMaxV: 33 }, { vdsMaxV: 40 }, 32, -1)) },
+  "fet-vds-reverse-transient": { pass: p("nfet-ideal-diode", { reverseTransientVMaxV: 38 }, { vdsMaxV: 40 }, 40, 2), violate: v("fail", p("nfet-ideal-diode", { reverseTransientVMaxV: 50 }, { vdsMaxV: 40 }, 40, -10)) },
+  "fet-vgs-limit": { pass: p("pfet-high-side", { gateSourceVMaxV: 16 }, { vgsMaxV: 20 }, 20, 4), violate: v("fail", p("pfet-high-side", { gateSourceVMaxV: 24 }, { vgsMaxV: 20 }, 20, -4)) },
+  "fet-vgs-derated": { pass: p("nfet-low-side", { gateSourceVMaxV: 15 }, { vgsMaxV: 20 }, 16, 1), violate: v("warn", p("nfet-low-side", { gateSourceVMaxV: 18 }, { vgsMaxV: 20 }, 16, -2)) },
+  "controller-input-max": {
+    pass: p("nfet-ideal-diode", { supplyMaxV: 16, transientVMaxV: 35 }, { maxInputV: 60 }, 60, 25),
+    violate: v("fail", p("nfet-ideal-diode", { supplyMaxV: 16, transientVMaxV: 65 }, { maxInputV: 60 }, 60, -5)),
+  },
+  "controller-input-derated": { pass: p("integrated-switch", { supplyMaxV: 16 }, { maxInputV: 60 }, 48, 32), violate: v("warn", p("integrated-switch", { supplyMaxV: 50 }, { maxInputV: 60 }, 48, -2)) },
+  "start-at-min-supply": { pass: p("nfet-ideal-diode", { startVoltageV: 2.5, supplyMinV: 6 }, {}, 6, 3.5), violate: v("fail", p("nfet-ideal-diode", { startVoltageV: 9, supplyMinV: 6 }, {}, 6, -3)) },
+  "gate-drive-at-min-supply": { pass: p("pfet-high-side", { gateDriveMinV: 6 }, { vgsOnV: 4.5 }, 4.5, 1.5), violate: v("warn", p("pfet-high-side", { gateDriveMinV: 3.5 }, { vgsOnV: 4.5 }, 4.5, -1)) },
+  "reverse-current-blocking": {
+    pass: p("nfet-ideal-diode", { parallelSources: true, holdUpRequired: false, blocksReverseCurrent: true }, {}),
+    violate: v("fail", p("pfet-high-side", { parallelSources: 0, holdUpRequired: 1, blocksReverseCurrent: 0 }, {})),
+  },
+  "standby-quiescent": { pass: p("integrated-switch", { quiescentA: 50e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, 50e-6), violate: v("fail", p("integrated-switch", { quiescentA: 150e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, -50e-6)) },
+};
+
+const VEHICLE: Record<string, RuleCases> = {
+  ...DEFAULT,
+  "tj-limit": { pass: p("schottky-diode", { tjWorstC: 135 }, { tjMaxC: 150 }, 140, 5), violate: v("fail", p("schottky-diode", { tjWorstC: 145 }, { tjMaxC: 150 }, 140, -5)) },
+  "tj-margin": { pass: p("pfet-high-side", { tjWorstC: 115 }, { tjMaxC: 150 }, 120, 5), violate: v("warn", p("pfet-high-side", { tjWorstC: 125 }, { tjMaxC: 150 }, 120, -5)) },
+  "load-voltage-headroom": { pass: p("pn-diode", { loadVMinV: 11.5, loadMinV: 10 }, {}, 11, 0.5), violate: v("warn", p("pn-diode", { loadVMinV: 10.8, loadMinV: 10 }, {}, 11, -0.2)) },
+  "diode-reverse-steady": { pass: p("schottky-diode", { reverseVMaxV: 14 }, { vrrmV: 40 }, 28, 14), violate: v("fail", p("schottky-diode", { reverseVMaxV: 30 }, { vrrmV: 40 }, 28, -2)) },
+  "diode-reverse-transient": { pass: p("pn-diode", { reverseTransientVMaxV: 35 }, { vrrmV: 40 }, 36, 1), violate: v("fail", p("pn-diode", { reverseTransientVMaxV: 38 }, { vrrmV: 40 }, 36, -2)) },
+  "fet-vds-reverse-steady": { pass: p("nfet-low-side", { reverseVMaxV: 14 }, { vdsMaxV: 40 }, 28, 14), violate: v("fail", p("nfet-low-side", { reverseVMaxV: 30 }, { vdsMaxV: 40 }, 28, -2)) },
+  "fet-vds-reverse-transient": { pass: p("nfet-ideal-diode", { reverseTransientVMaxV: 35 }, { vdsMaxV: 40 }, 36, 1), violate: v("fail", p("nfet-ideal-diode", { reverseTransientVMaxV: 38 }, { vdsMaxV: 40 }, 36, -2)) },
+  "fet-vgs-derated": { pass: p("nfet-low-side", { gateSourceVMaxV: 13 }, { vgsMaxV: 20 }, 14, 1), violate: v("warn", p("nfet-low-side", { gateSourceVMaxV: 15 }, { vgsMaxV: 20 }, 14, -1)) },
+  "controller-input-max": {
+    pass: p("nfet-ideal-diode", { supplyMaxV: 16, transientVMaxV: 35 }, { maxInputV: 60 }, 54, 19),
+    violate: v("fail", p("nfet-ideal-diode", { supplyMaxV: 16, transientVMaxV: 58 }, { maxInputV: 60 }, 54, -4)),
+  },
+  "controller-input-derated": { pass: p("integrated-switch", { supplyMaxV: 16 }, { maxInputV: 60 }, 42, 26), violate: v("warn", p("integrated-switch", { supplyMaxV: 45 }, { maxInputV: 60 }, 42, -3)) },
+  "start-margin": { pass: p("nfet-ideal-diode", { startVoltageV: 2.5, supplyMinV: 6 }, {}, 5.4, 2.9), violate: v("warn", p("nfet-ideal-diode", { startVoltageV: 5.7, supplyMinV: 6 }, {}, 5.4, -0.3)) },
+  "gate-drive-at-min-supply": { pass: p("nfet-low-side", { gateDriveMinV: 6 }, { vgsOnV: 4.5 }, 4.5, 1.5), violate: v("fail", p("nfet-low-side", { gateDriveMinV: 3.5 }, { vgsOnV: 4.5 }, 4.5, -1)) },
+};
+
+const CONSUMER: Record<string, RuleCases> = {
+  ...DEFAULT,
+  "tj-margin": { pass: p("schottky-diode", { tjWorstC: 135 }, { tjMaxC: 150 }, 140, 5), violate: v("warn", p("schottky-diode", { tjWorstC: 145 }, { tjMaxC: 150 }, 140, -5)) },
+  "load-voltage-headroom": { pass: p("pn-diode", { loadVMinV: 10.5, loadMinV: 10 }, {}, 10.2, 0.3), violate: v("warn", p("pn-diode", { loadVMinV: 10.1, loadMinV: 10 }, {}, 10.2, -0.1)) },
+  "diode-reverse-steady": { pass: p("schottky-diode", { reverseVMaxV: 14 }, { vrrmV: 40 }, 36, 22), violate: v("fail", p("schottky-diode", { reverseVMaxV: 37 }, { vrrmV: 40 }, 36, -1)) },
+  "fet-vds-reverse-steady": { pass: p("pfet-high-side", { reverseVMaxV: 14 }, { vdsMaxV: 40 }, 36, 22), violate: v("fail", p("pfet-high-side", { reverseVMaxV: 37 }, { vdsMaxV: 40 }, 36, -1)) },
+  "fet-vgs-derated": { pass: p("pfet-high-side", { gateSourceVMaxV: 17 }, { vgsMaxV: 20 }, 18, 1), violate: v("warn", p("pfet-high-side", { gateSourceVMaxV: 19 }, { vgsMaxV: 20 }, 18, -1)) },
+  "controller-input-derated": { pass: p("integrated-switch", { supplyMaxV: 16 }, { maxInputV: 60 }, 54, 38), violate: v("warn", p("integrated-switch", { supplyMaxV: 56 }, { maxInputV: 60 }, 54, -2)) },
+  "standby-quiescent": { pass: p("nfet-ideal-diode", { quiescentA: 50e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, 50e-6), violate: v("warn", p("nfet-ideal-diode", { quiescentA: 150e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, -50e-6)) },
+};
+
+const TABLES: Record<string, Record<string, RuleCases>> = { default: DEFAULT, vehicle: VEHICLE, consumer: CONSUMER };
+const sets = builtInRuleSets();
+
+function run(set: CompiledRuleSet, ruleId: string, c: Case) {
+  const rule = set.rules.find((r) => r.rule.id === ruleId);
+  if (rule === undefined) throw new Error(`no rule ${ruleId} in ${set.stamp.id}`);
+  return evaluateRule(rule, { stageKind: c.kind, metrics: c.metrics, part: (c.part ?? {}) as Record<string, number> }, set.stamp);
+}
+
+describe.each(sets.map((s) => [s.stamp.id, s] as const))("built-in rule set %s", (id, set) => {
+  const table = TABLES[id] ?? {};
+  it("has a hand-computed case for every rule and no case for a rule it lacks", () => {
+    expect(Object.keys(table).sort()).toEqual(set.rules.map((r) => r.rule.id).sort());
+  });
+  describe.each(set.rules.map((r) => [r.rule.id, r] as const))("%s", (ruleId, compiled) => {
+    const cases = table[ruleId];
+    it("passes on the pass case, with the hand-computed threshold and margin", () => {
+      if (!cases) throw new Error("missing cases");
+      const out = run(set, ruleId, cases.pass);
+      expect(out.outcome).toBe("pass");
+      expect(out.reason).toBeNull();
+      if (cases.pass.threshold !== undefined) expect(out.threshold).toBeCloseTo(cases.pass.threshold, 12);
+      if (cases.pass.margin !== undefined) expect(out.margin).toBeCloseTo(cases.pass.margin, 12);
+      expect(out.ruleSet).toEqual(set.stamp);
+    });
+    it("gives its severity (warn or fail) on the violating case", () => {
+      if (!cases) throw new Error("missing cases");
+      const out = run(set, ruleId, cases.violate);
+      expect(out.outcome).toBe(cases.violate.outcome);
+      expect(out.reason).toMatch(/does not hold|is false/);
+      if (cases.violate.threshold !== undefined) expect(out.threshold).toBeCloseTo(cases.violate.threshold, 12);
+      if (cases.violate.margin !== undefined) expect(out.margin).toBeCloseTo(cases.violate.margin, 12);
+    });
+    it("is not applicable when a metric it needs is absent", () => {
+      if (!cases) throw new Error("missing cases");
+      const [first, ...rest] = Object.keys(cases.pass.metrics).filter((k) => compiled.expression.names.includes(k));
+      if (first === undefined) throw new Error("pass case names no metric of the expression");
+      const metrics = Object.fromEntries(Object.entries(cases.pass.metrics).filter(([k]) => k !== first));
+      const out = run(set, ruleId, { ...cases.pass, metrics });
+      expect(out.outcome).toBe("not-applicable");
+      expect(out.reason).toContain(`${first} is not given`);
+      expect(out.threshold).toBeNull();
+      expect(rest.every((k) => k in out.values)).toBe(true);
+    });
+    it("is not applicable on a stage kind it does not cover, or without a precondition", () => {
+      const r = compiled.rule;
+      if (r.appliesTo !== "all") {
+        const other = ["pn-diode", "pfet-high-side", "integrated-switch"].find((k) => !r.appliesTo.includes(k)) ?? "";
+        const out = run(set, ruleId, { ...(cases?.pass ?? p("", {}, {})), kind: other });
+        expect(out.outcome).toBe("not-applicable");
+        expect(out.reason).toContain(`not ${other}`);
+      } else if (r.when !== undefined) {
+        const out = run(set, ruleId, p("pn-diode", { parallelSources: false, holdUpRequired: false, blocksReverseCurrent: false }, {}));
+        expect(out.outcome).toBe("not-applicable");
+        expect(out.reason).toContain("is false");
+      } else {
+        const out = run(set, ruleId, p("pn-diode", {}, {}));
+        expect(out.outcome).toBe("not-applicable");
+        expect(out.reason).toContain("is not given");
+      }
+    });
+  });
+});
+
+describe("built-in rule sets: identity and documentation", () => {
+  it("each has an id, a version, a description; derived sets say what differs", () => {
+    expect(sets.map((s) => s.stamp.id)).toEqual(["default", "vehicle", "consumer"]);
+    for (const s of sets) {
+      expect(s.stamp.version).toMatch(/^\d+\.\d+\.\d+$/);
+      expect(s.stamp.hash).toMatch(/^sha256:[0-9a-f]{64}$/);
+      expect(s.set.description.length).toBeGreaterThan(40);
+      for (const r of s.set.rules) {
+        expect(r.source.length).toBeGreaterThan(5);
+        expect(r.rationale.length).toBeGreaterThan(20);
+      }
+      if (s.stamp.id !== "default") {
+        expect(s.set.basedOn).toBe("default");
+        expect((s.set.differences ?? []).length).toBeGreaterThan(2);
+      }
+    }
+  });
+  it("the vehicle set is at least as strict as the default on the same metrics (tj margin, reverse derating)", () => {
+    const [def, veh, con] = sets;
+    if (!def || !veh || !con) throw new Error("missing set");
+    const m = { tjWorstC: 128, reverseVMaxV: 30 };
+    const part = { tjMaxC: 150, vrrmV: 40 };
+    const outcomes = (s: CompiledRuleSet) => s.rules.filter((r) => ["tj-limit", "tj-margin", "diode-reverse-steady"].includes(r.rule.id)).map((r) => evaluateRule(r, { stageKind: "pn-diode", metrics: m, part }, s.stamp).outcome);
+    // Tj 128 °C on a 150 °C part: limits (fail / warn) are default 150 / 125, vehicle 140 / 120,
+    // consumer 150 / 140. Reverse 30 V on a 40 V part: default 0.8·40 = 32 passes, vehicle
+    // 0.7·40 = 28 fails, consumer 0.9·40 = 36 passes.
+    expect(outcomes(def)).toEqual(["pass", "warn", "pass"]);
+    expect(outcomes(veh)).toEqual(["pass", "warn", "fail"]);
+    expect(outcomes(con)).toEqual(["pass", "pass", "pass"]);
+  });
+});
