@@ -36,7 +36,7 @@ export function operatingPointRuleInput(stage: StageModel, load: LoadModel, o: O
   return { stageKind: stage.kind, metrics, part: partParameters(stage), unavailable };
 }
 
-function stageMetrics(stage: StageModel): Record<string, number | boolean> {
+export function stageMetrics(stage: StageModel): Record<string, number | boolean> {
   const m: Record<string, number | boolean> = { quiescentA: stageQuiescentA(stage) };
   switch (stage.kind) {
     case "pn-diode":
@@ -53,7 +53,7 @@ function stageMetrics(stage: StageModel): Record<string, number | boolean> {
   }
 }
 
-function partParameters(stage: StageModel): Record<string, number> {
+export function partParameters(stage: StageModel): Record<string, number> {
   const part: Record<string, number> = { tjMaxC: stageTjMaxC(stage) };
   switch (stage.kind) {
     case "pn-diode":

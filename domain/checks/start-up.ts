@@ -6,6 +6,7 @@ import { solveElectrical } from "../solve/electrical-point.js";
 import { solveOperatingPoint, dieLossW } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
 import type { ConductionMode } from "../stages/conduction.js";
+import { gateDriveAt } from "../stages/forward.js";
 import type { StageModel } from "../stages/stage-model.js";
 
 /** How the stage gets its drive at a given input voltage: the start and gate-drive margins. */
@@ -32,7 +33,7 @@ export function driveAtInput(stage: StageModel, inputV: number, dropV = 0): Driv
     case "nfet-ideal-diode": {
       const c = stage.controller;
       const running = inputV >= c.startV;
-      const vgs = running ? interpolate(c.gateDrive.map((p) => [p.inputV, p.gateSourceV] as const), inputV) : 0;
+      const vgs = running ? gateDriveAt(c, inputV) : 0;
       return { inputV, startMarginV: inputV - c.startV, gateSourceV: vgs, gateDriveMarginV: vgs - fullEnhancementV(stage.mosfet.channel) };
     }
     case "integrated-switch":

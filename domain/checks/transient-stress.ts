@@ -61,6 +61,8 @@ export interface TransientResult {
   readonly polarity: "negative" | "positive";
   /** Peak open-circuit voltage of the pulse, signed, V. */
   readonly peakOpenCircuitV: number;
+  /** Peak at the stage input after the design's own clamp (if any), signed, V. */
+  readonly inputPeakV: number;
   readonly tauS: number;
   readonly stresses: readonly ElementStress[];
   /** Whether the pulse (or its reverse current) reaches the load side. */
@@ -117,6 +119,7 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
       pulseId: pulse.id,
       polarity: "negative",
       peakOpenCircuitV: peak,
+      inputPeakV: -magnitude,
       tauS,
       stresses,
       reachesLoad: !blocks,
@@ -136,7 +139,7 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
     clamp = clampFor({ baseV, amplitudeV: pulse.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, ctx.supplyMaxV, clampMaxV, ctx);
   }
   const dc = pulse.clampedAtV === undefined ? designClamp({ baseV, amplitudeV: pulse.amplitudeV }) : undefined;
-  return { pulseId: pulse.id, polarity: "positive", peakOpenCircuitV: peak, tauS, stresses, reachesLoad: true, clamp, ...(dc ? { designClamp: dc } : {}) };
+  return { pulseId: pulse.id, polarity: "positive", peakOpenCircuitV: peak, inputPeakV: inputPeak, tauS, stresses, reachesLoad: true, clamp, ...(dc ? { designClamp: dc } : {}) };
 }
 
 function clampFor(

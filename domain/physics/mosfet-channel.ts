@@ -21,7 +21,17 @@ export type RdsTempLaw =
 /** R(T)/R(25 °C). */
 export function rdsTempFactor(law: RdsTempLaw, tK: number): number {
   if (law.law === "power") return (tK / T25_K) ** law.exponent;
-  return interpolate(law.points.map((p) => [p.tempK, p.factor] as const), tK);
+  const pts = law.points;
+  const first = pts[0];
+  const last = pts[pts.length - 1];
+  if (first === undefined || last === undefined) return 1;
+  if (tK <= first.tempK) return first.factor;
+  for (let i = 1; i < pts.length; i += 1) {
+    const a = pts[i - 1];
+    const b = pts[i];
+    if (a && b && tK <= b.tempK) return a.factor + ((b.factor - a.factor) * (tK - a.tempK)) / (b.tempK - a.tempK);
+  }
+  return last.factor;
 }
 
 /**
@@ -31,11 +41,20 @@ export function rdsTempFactor(law: RdsTempLaw, tK: number): number {
  */
 export function channelConductance25S(p: ChannelParams, gateSourceV: number): number {
   if (gateSourceV <= p.thresholdV) return 0;
-  const nodes: (readonly [number, number])[] = [[p.thresholdV, 0]];
+  // Walk the nodes (Vth, 0), then the points above threshold, without allocating (hot path).
+  let x0 = p.thresholdV;
+  let g0 = 0;
   for (const pt of p.rdsOnPoints) {
-    if (pt.gateSourceV > p.thresholdV) nodes.push([pt.gateSourceV, 1 / pt.rdsOnOhm]);
+    if (pt.gateSourceV <= p.thresholdV) continue;
+    const g1 = 1 / pt.rdsOnOhm;
+    if (gateSourceV <= pt.gateSourceV) {
+      const span = pt.gateSourceV - x0;
+      return span > 0 ? g0 + ((g1 - g0) * (gateSourceV - x0)) / span : g1;
+    }
+    x0 = pt.gateSourceV;
+    g0 = g1;
   }
-  return interpolate(nodes, gateSourceV);
+  return g0;
 }
 
 /** Channel resistance at a gate drive and temperature; Infinity-free: undefined when off. */

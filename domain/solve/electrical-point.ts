@@ -42,6 +42,15 @@ export function solveElectrical(c: CircuitModel, tK: number): ElectricalOutcome 
     const forward = stageForward(c.stage, currentA, tK, stageInputV);
     return { currentA, sourceCurrentA: currentA + iq, stageInputV, loadV: stageInputV - forward.dropV, forward };
   };
+  const load = c.load;
+  if (load.kind === "constant-current") {
+    const p = at(load.currentA);
+    if (p.forward.mode === "off") return stageOff(p);
+    if (!(p.loadV > 0)) {
+      return { ok: false, code: "load-collapse", reason: `the supply cannot drive ${fmt(load.currentA)} A: the load voltage would be ${fmt(p.loadV)} V` };
+    }
+    return { ok: true, point: p };
+  }
   const idle = at(0);
   if (idle.forward.mode === "off") {
     return { ok: false, code: "stage-off", reason: `the stage blocks at an input of ${fmt(idle.stageInputV)} V (below its start voltage): the load is unpowered`, stageInputV: idle.stageInputV };
@@ -49,47 +58,62 @@ export function solveElectrical(c: CircuitModel, tK: number): ElectricalOutcome 
   if (!(idle.loadV > 0)) {
     return { ok: false, code: "load-collapse", reason: "the supply cannot even carry the stage's quiescent current" };
   }
-  const load = c.load;
-  switch (load.kind) {
-    case "constant-current": {
-      const p = at(load.currentA);
-      if (p.forward.mode === "off") return stageOff(p);
-      if (!(p.loadV > 0)) {
-        return { ok: false, code: "load-collapse", reason: `the supply cannot drive ${fmt(load.currentA)} A: the load voltage would be ${fmt(p.loadV)} V` };
-      }
-      return { ok: true, point: p };
-    }
-    case "resistive": {
-      const f = (i: number): number => at(i).loadV - i * load.resistanceOhm;
-      const hi = c.supplyV / load.resistanceOhm;
-      const root = bracketedRoot(f, 0, hi, f(0), f(hi), 1e-13 * hi);
-      const p = at(root.x);
-      if (p.forward.mode === "off") return stageOff(p);
-      return { ok: true, point: p };
-    }
-    case "constant-power": {
-      // The current at which the load voltage reaches zero bounds the search.
-      let zeroA = Math.max(load.powerW / idle.loadV, 1e-6);
-      for (let k = 0; k < 400 && at(zeroA).loadV > 0; k += 1) zeroA *= 2;
-      const g = (i: number): number => i * at(i).loadV;
-      const peak = goldenMax(g, 0, zeroA, 1e-10 * zeroA);
-      if (peak.fx < load.powerW) {
-        return {
-          ok: false,
-          code: "load-collapse",
-          reason: `the supply path can deliver at most ${fmt(peak.fx)} W to the load, less than its ${fmt(load.powerW)} W`,
-          maxDeliverablePowerW: peak.fx,
-          requestedPowerW: load.powerW,
-        };
-      }
-      // The stable (high-voltage) branch: the smaller current that delivers the power.
-      const h = (i: number): number => g(i) - load.powerW;
-      const root = bracketedRoot(h, 0, peak.x, h(0), h(peak.x), 1e-13 * zeroA);
-      const p = at(root.x);
-      if (p.forward.mode === "off") return stageOff(p);
-      return { ok: true, point: p };
-    }
+  if (load.kind === "resistive") {
+    // Fixed point I ← V(I)/R: contracts with ratio (source + stage slope)/R, fast for a real load;
+    // a bracketed regula falsi on V(I) − I·R (decreasing in I) takes over otherwise.
+    const fast = fixedPoint((i) => Math.max(at(i).loadV, 0) / load.resistanceOhm, idle.loadV / load.resistanceOhm);
+    if (fast !== undefined) return finish(at(fast));
+    const f = (i: number): number => at(i).loadV - i * load.resistanceOhm;
+    const hi = c.supplyV / load.resistanceOhm;
+    return finish(at(bracketedRoot(f, 0, hi, f(0), f(hi), 1e-13 * hi).x));
   }
+  // Constant power: the stable (high-voltage) branch is the fixed point of I ← P/V(I) reached
+  // from below; it exists iff the power the path can deliver, max I·V(I), reaches P.
+  const fast = fixedPoint((i) => {
+    const v = at(i).loadV;
+    return v > 0 ? load.powerW / v : Number.NaN;
+  }, load.powerW / idle.loadV);
+  // Accept it only on the rising side of I·V(I): the stable branch, not the far root.
+  if (fast !== undefined && (fast * (1 + 1e-6)) * at(fast * (1 + 1e-6)).loadV > fast * at(fast).loadV) return finish(at(fast));
+  let zeroA = Math.max(load.powerW / idle.loadV, 1e-6);
+  for (let k = 0; k < 400 && at(zeroA).loadV > 0; k += 1) zeroA *= 2;
+  const g = (i: number): number => i * at(i).loadV;
+  const peak = goldenMax(g, 0, zeroA, 1e-10 * zeroA);
+  if (peak.fx < load.powerW) {
+    return {
+      ok: false,
+      code: "load-collapse",
+      reason: `the supply path can deliver at most ${fmt(peak.fx)} W to the load, less than its ${fmt(load.powerW)} W`,
+      maxDeliverablePowerW: peak.fx,
+      requestedPowerW: load.powerW,
+    };
+  }
+  const h = (i: number): number => g(i) - load.powerW;
+  return finish(at(bracketedRoot(h, 0, peak.x, h(0), h(peak.x), 1e-13 * zeroA).x));
+}
+
+function finish(p: ElectricalPoint): ElectricalOutcome {
+  return p.forward.mode === "off" ? stageOff(p) : { ok: true, point: p };
+}
+
+/**
+ * Iterate x ← f(x) from x0 with Aitken's Δ² acceleration every third step; the result when it
+ * settles to 1e-12 relative within 60 steps, undefined when it diverges or stalls.
+ */
+function fixedPoint(f: (x: number) => number, x0: number): number | undefined {
+  let x = x0;
+  for (let k = 0; k < 60; k += 1) {
+    const x1 = f(x);
+    if (!Number.isFinite(x1) || x1 < 0) return undefined;
+    if (Math.abs(x1 - x) <= 1e-12 * Math.max(x1, 1e-12)) return x1;
+    const x2 = f(x1);
+    if (!Number.isFinite(x2) || x2 < 0) return undefined;
+    if (Math.abs(x2 - x1) <= 1e-12 * Math.max(x2, 1e-12)) return x2;
+    const d = x2 - 2 * x1 + x;
+    const accel = d !== 0 ? x - ((x1 - x) * (x1 - x)) / d : x2;
+    x = Number.isFinite(accel) && accel >= 0 ? accel : x2;
+  }
+  return undefined;
 }
 
 function stageOff(p: ElectricalPoint): ElectricalOutcome {

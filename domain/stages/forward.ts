@@ -1,4 +1,4 @@
-import { interpolate, rdsTempFactor } from "../physics/mosfet-channel.js";
+import { rdsTempFactor } from "../physics/mosfet-channel.js";
 import { type ForwardState, junctionState } from "./conduction.js";
 import { blendWithBodyDiode, mosfetForward } from "./mosfet-forward.js";
 import type { StageModel } from "./stage-model.js";
@@ -31,11 +31,10 @@ export function stageForward(stage: StageModel, currentA: number, tK: number, in
     }
     case "nfet-ideal-diode": {
       const c = stage.controller;
-      const body = junctionState(stage.mosfet.bodyDiode, currentA, tK, "body-diode");
-      if (inputV < c.startV) return body;
-      const vgs = interpolate(c.gateDrive.map((p) => [p.inputV, p.gateSourceV] as const), inputV);
-      const on = mosfetForward(stage.mosfet.channel, stage.mosfet.bodyDiode, vgs, currentA, tK, c.regulatedDropV);
-      return blendWithBodyDiode(on, body, c.gateReleaseFraction);
+      if (inputV < c.startV) return junctionState(stage.mosfet.bodyDiode, currentA, tK, "body-diode");
+      const on = mosfetForward(stage.mosfet.channel, stage.mosfet.bodyDiode, gateDriveAt(c, inputV), currentA, tK, c.regulatedDropV);
+      if (c.gateReleaseFraction <= 0) return on;
+      return blendWithBodyDiode(on, junctionState(stage.mosfet.bodyDiode, currentA, tK, "body-diode"), c.gateReleaseFraction);
     }
     case "integrated-switch": {
       if (inputV < stage.startV) {
@@ -72,6 +71,20 @@ function integratedWithoutBodyDiode(
     channelResistanceOhm: rOhm,
     bodyDiodeTimeFraction: 0,
   };
+}
+
+/** Charge-pump gate drive at an input voltage: linear between the points, flat outside (no allocation). */
+export function gateDriveAt(c: { readonly gateDrive: readonly { readonly inputV: number; readonly gateSourceV: number }[] }, inputV: number): number {
+  const pts = c.gateDrive;
+  const first = pts[0];
+  if (first === undefined) return 0;
+  if (inputV <= first.inputV) return first.gateSourceV;
+  for (let i = 1; i < pts.length; i += 1) {
+    const a = pts[i - 1];
+    const b = pts[i];
+    if (a && b && inputV <= b.inputV) return a.gateSourceV + ((b.gateSourceV - a.gateSourceV) * (inputV - a.inputV)) / (b.inputV - a.inputV);
+  }
+  return pts[pts.length - 1]?.gateSourceV ?? 0;
 }
 
 function clamp(v: number, limit: number | undefined): number {

@@ -1,0 +1,61 @@
+import type { CandidateReview, ReviewRequirement } from "../../domain/review/candidate-review.js";
+import type { RuleInput } from "../../domain/rules/rule-model.js";
+import type { StageModel } from "../../domain/stages/stage-model.js";
+import { partParameters, stageMetrics } from "./operating-point-metrics.js";
+
+export interface RequirementFlags {
+  readonly standbyBudgetA?: number;
+  readonly parallelSources: boolean;
+  readonly holdUpRequired: boolean;
+}
+
+/**
+ * A candidate's review → the rule vocabulary. The worst-corner figures come from the corners that
+ * have an operating point; when any corner has none, they are marked unavailable (with the
+ * corner's outcome), so their rules cannot pass.
+ */
+export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags: RequirementFlags, r: CandidateReview): RuleInput {
+  const metrics: Record<string, number | boolean> = {
+    ...stageMetrics(stage),
+    supplyMinV: req.supplyMinV,
+    supplyMaxV: req.supplyMaxV,
+    reverseVMaxV: req.reverseV,
+    parallelSources: flags.parallelSources,
+    holdUpRequired: flags.holdUpRequired,
+    blocksReverseCurrent: r.blocksReverseCurrent,
+  };
+  const unavailable: Record<string, string> = {};
+  if (req.loadMinV !== undefined) metrics["loadMinV"] = req.loadMinV;
+  if (flags.standbyBudgetA !== undefined) metrics["standbyBudgetA"] = flags.standbyBudgetA;
+
+  const unsolved = r.worst.unsolvedCornerIndexes;
+  const firstUnsolved = unsolved[0] === undefined ? undefined : r.corners[unsolved[0]];
+  const why = firstUnsolved && !("point" in firstUnsolved.result) ? `corner ${unsolved[0]} has no operating point (${firstUnsolved.result.outcome}: ${firstUnsolved.result.reason})` : undefined;
+  const put = (name: string, v: number | undefined) => {
+    if (why !== undefined) unavailable[name] = why;
+    else if (v !== undefined) metrics[name] = v;
+  };
+  put("tjWorstC", r.worst.tjC?.value);
+  put("lossWorstW", r.worst.lossW?.value);
+  put("dropWorstV", r.worst.dropV?.value);
+  put("loadVMinV", r.worst.loadMinV?.value);
+  for (const p of r.startUp.profiles) {
+    // A start-up profile lowers the load voltage and raises the junction: the worst of both counts.
+    if (why === undefined && typeof metrics["loadVMinV"] === "number") metrics["loadVMinV"] = Math.min(metrics["loadVMinV"], p.result.minLoadV);
+    if (why === undefined && typeof metrics["tjWorstC"] === "number") metrics["tjWorstC"] = Math.max(metrics["tjWorstC"], p.result.maxTjC);
+  }
+
+  if (stage.kind === "pfet-high-side" || stage.kind === "nfet-low-side" || stage.kind === "nfet-ideal-diode") {
+    if (r.startUp.atMinSupply.gateSourceV !== undefined) metrics["gateDriveMinV"] = r.startUp.atMinSupply.gateSourceV;
+  }
+  if (stage.kind === "pfet-high-side" || stage.kind === "nfet-low-side") {
+    const clamp = stage.gateClampV;
+    const peaks = [req.supplyMaxV, ...r.transients.filter((t) => t.polarity === "positive").map((t) => t.inputPeakV)];
+    metrics["gateSourceVMaxV"] = Math.max(...peaks.map((v) => (clamp === undefined ? v : Math.min(v, clamp))));
+  }
+  const negative = r.transients.filter((t) => t.polarity === "negative").map((t) => t.stresses[0]?.seenV ?? 0);
+  metrics["reverseTransientVMaxV"] = Math.max(req.reverseV, ...negative);
+  const positive = r.transients.filter((t) => t.polarity === "positive").map((t) => t.inputPeakV);
+  metrics["transientVMaxV"] = Math.max(req.supplyMaxV, ...positive);
+  return { stageKind: stage.kind, metrics, part: partParameters(stage), unavailable };
+}

@@ -1,0 +1,56 @@
+import type { z } from "zod";
+import type { monteCarloSpec } from "../../contracts/review.js";
+import { distributionOf, monteCarlo } from "../../domain/checks/monte-carlo.js";
+import type { ReviewRequirement } from "../../domain/review/candidate-review.js";
+import type { CompiledRuleSet } from "../../domain/rules/compile-rule-set.js";
+import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
+import type { RuleInput } from "../../domain/rules/rule-model.js";
+import type { StageModel } from "../../domain/stages/stage-model.js";
+
+/**
+ * Monte Carlo of one candidate at one condition (default: lowest supply, highest ambient, full
+ * load): percentiles of junction temperature, loss, drop and load voltage, and the share of
+ * samples each rule fails or warns on, with the sample's point standing in for the worst corner.
+ */
+export function reviewMonteCarlo(spec: z.output<typeof monteCarloSpec>, stage: StageModel, req: ReviewRequirement, base: RuleInput, set: CompiledRuleSet) {
+  const tj: number[] = [];
+  const loss: number[] = [];
+  const drop: number[] = [];
+  const loadV: number[] = [];
+  const fails = new Map<string, number>();
+  const warns = new Map<string, number>();
+  let unsolved = 0;
+  const supplyV = spec.supplyV ?? req.supplyMinV;
+  const ambientC = spec.ambientC ?? req.ambientMaxC;
+  monteCarlo({ stage, supplyV, ambientC, sourceResistanceOhm: req.sourceResistanceOhm, load: req.load, tolerances: spec.tolerances, samples: spec.samples, seed: spec.seed }, (s) => {
+    if (!("point" in s.result)) {
+      unsolved += 1;
+      return;
+    }
+    const p = s.result.point;
+    tj.push(p.tjC);
+    loss.push(p.dieLossW);
+    drop.push(p.forward.dropV);
+    loadV.push(p.loadV);
+    const metrics = { ...base.metrics, tjWorstC: p.tjC, lossWorstW: p.dieLossW, dropWorstV: p.forward.dropV, loadVMinV: p.loadV };
+    for (const v of evaluateRuleSet(set, { ...base, metrics, unavailable: {} }).verdicts) {
+      if (v.outcome === "fail") fails.set(v.ruleId, (fails.get(v.ruleId) ?? 0) + 1);
+      if (v.outcome === "warn") warns.set(v.ruleId, (warns.get(v.ruleId) ?? 0) + 1);
+    }
+  });
+  const share = (m: Map<string, number>) => Object.fromEntries([...m.entries()].sort(([a], [b]) => (a < b ? -1 : 1)).map(([k, v]) => [k, v / spec.samples]));
+  return {
+    candidate: spec.candidate ?? 0,
+    samples: spec.samples,
+    seed: spec.seed,
+    supplyV,
+    ambientC,
+    shareWithoutOperatingPoint: unsolved / spec.samples,
+    tjC: distributionOf(tj),
+    lossW: distributionOf(loss),
+    dropV: distributionOf(drop),
+    loadV: distributionOf(loadV),
+    shareFailingByRule: share(fails),
+    shareWarningByRule: share(warns),
+  };
+}

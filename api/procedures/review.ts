@@ -1,0 +1,137 @@
+import type { ReviewOutput } from "../../contracts/review.js";
+import { reviewInput } from "../../contracts/review.js";
+import type { CornerResult } from "../../domain/checks/corners.js";
+import type { TransientThermal } from "../../domain/checks/start-up.js";
+import { totalRthKPerW } from "../../domain/physics/thermal-path.js";
+import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
+import { type CandidateReview, reviewCandidate } from "../../domain/review/candidate-review.js";
+import { type CandidateVerdict, rankCandidates } from "../../domain/review/ranking.js";
+import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
+import type { RuleSetResult } from "../../domain/rules/rule-model.js";
+import { UNSCALED } from "../../domain/stages/scale-stage.js";
+import { resolveStage } from "../map/resolve-stage.js";
+import { toReviewRequirement } from "../map/requirement.js";
+import { reviewRuleInput } from "../map/review-metrics.js";
+import { reviewMonteCarlo } from "../map/review-monte-carlo.js";
+import { resolveRuleSet } from "../map/rule-set.js";
+import { publicProcedure } from "../trpc.js";
+
+export const review = publicProcedure.input(reviewInput).query(({ input, ctx }): ReviewOutput => {
+  const assumptions: string[] = [];
+  const req = toReviewRequirement(input.requirement, assumptions);
+  const set = resolveRuleSet(input.ruleSet ?? "default", ctx, ["ruleSet"]);
+  if (input.ruleSet === undefined) assumptions.push("rule set: the built-in default (common practice)");
+  const flags = {
+    parallelSources: input.requirement.parallelSources ?? false,
+    holdUpRequired: input.requirement.holdUpRequired ?? false,
+    ...(input.requirement.standbyBudgetA === undefined ? {} : { standbyBudgetA: input.requirement.standbyBudgetA }),
+  };
+
+  const evaluated = input.candidates.map((c, index) => {
+    const path = ["candidates", index, "stage"];
+    const stage = resolveStage(c.stage, ctx.catalog, path, assumptions, c.thermal);
+    const transientThermal: TransientThermal = c.transientThermal
+      ? c.transientThermal.kind === "foster"
+        ? { kind: "foster", terms: c.transientThermal.terms }
+        : { kind: "foster", terms: [{ rKPerW: totalRthKPerW(stage.model.thermal), tauS: totalRthKPerW(stage.model.thermal) * c.transientThermal.heatCapacityJPerK }] }
+      : { kind: "quasi-static" };
+    const datasheetMax = c.datasheetMax ? { ...UNSCALED, ...c.datasheetMax } : undefined;
+    const r = reviewCandidate(req.model, { stage: stage.model, transientThermal, ...(datasheetMax ? { datasheetMax } : {}) });
+    const ruleInput = reviewRuleInput(stage.model, req.model, flags, r);
+    const rules = evaluateRuleSet(set, ruleInput);
+    const { verdict, reason } = verdictOf(r, rules);
+    const heatsink = r.thermalSizing.outcome === "heatsink-needed" || r.thermalSizing.outcome === "better-path-needed";
+    const cost = stage.spec.costEach === undefined ? undefined : stage.spec.costEach + (heatsink ? (c.heatsinkCost ?? 0) : 0);
+    const worstLossW = r.worst.unsolvedCornerIndexes.length === 0 ? r.worst.lossW?.value : undefined;
+    return { index, c, stage, r, ruleInput, rules, verdict, reason, cost, worstLossW };
+  });
+
+  const ranked = rankCandidates(evaluated.map((e) => ({ index: e.index, verdict: e.verdict, ...(e.worstLossW === undefined ? {} : { worstLossW: e.worstLossW }), ...(e.cost === undefined ? {} : { cost: e.cost }) })));
+  const rankOf = new Map(ranked.map((e, i) => [e.index, i + 1]));
+  const label = (e: (typeof evaluated)[number]) => e.c.label ?? e.stage.spec.name ?? e.stage.partId ?? `candidate ${e.index}`;
+  const rankReason = (e: (typeof evaluated)[number]) =>
+    `${e.reason}; worst-case loss ${e.worstLossW === undefined ? "undefined (a corner has no operating point)" : `${e.worstLossW.toPrecision(3)} W`}${e.cost === undefined ? "" : `; cost ${e.cost}`}`;
+
+  const mc = input.monteCarlo;
+  const mcTarget = mc ? evaluated[mc.candidate ?? 0] : undefined;
+  return {
+    modelVersion: MODEL_VERSION,
+    caution: CAUTION,
+    requirement: {
+      supplyClass: req.supplyClass,
+      supplyMinV: req.model.supplyMinV,
+      supplyNominalV: req.model.supplyNominalV,
+      supplyMaxV: req.model.supplyMaxV,
+      reverseV: req.model.reverseV,
+      transients: req.model.transients.map((t) => t.id),
+      sources: req.sources,
+    },
+    ranking: ranked.map((r, i) => {
+      const e = evaluated[r.index];
+      if (e === undefined) throw new Error("unreachable: ranked index out of range");
+      return { rank: i + 1, index: e.index, label: label(e), verdict: e.verdict, reason: rankReason(e) };
+    }),
+    candidates: evaluated.map((e) => ({
+      index: e.index,
+      label: label(e),
+      stage: { kind: e.stage.model.kind, ...(e.stage.spec.name === undefined ? {} : { name: e.stage.spec.name }), ...(e.stage.partId === undefined ? {} : { partId: e.stage.partId }) },
+      rank: rankOf.get(e.index) ?? 0,
+      verdict: e.verdict,
+      rankReason: rankReason(e),
+      worst: {
+        ...(e.r.worst.tjC ? { tjC: { value: e.r.worst.tjC.value, corner: e.r.worst.tjC.cornerIndex } } : {}),
+        ...(e.r.worst.lossW ? { lossW: { value: e.r.worst.lossW.value, corner: e.r.worst.lossW.cornerIndex } } : {}),
+        ...(e.r.worst.dropV ? { dropV: { value: e.r.worst.dropV.value, corner: e.r.worst.dropV.cornerIndex } } : {}),
+        ...(e.r.worst.loadMinV ? { loadMinV: { value: e.r.worst.loadMinV.value, corner: e.r.worst.loadMinV.cornerIndex } } : {}),
+        unsolvedCorners: [...e.r.worst.unsolvedCornerIndexes],
+      },
+      corners: e.r.corners.map(cornerRow),
+      startUp: e.r.startUp,
+      reverse: e.r.reverse,
+      transients: e.r.transients,
+      thermalSizing: e.r.thermalSizing,
+      ...(e.r.energy ? { energy: e.r.energy } : {}),
+      standby: e.r.standby,
+      metrics: e.ruleInput.metrics,
+      rules: e.rules,
+      ...(e.cost === undefined ? {} : { costTotal: e.cost }),
+    })),
+    ...(mc && mcTarget ? { monteCarlo: reviewMonteCarlo(mc, mcTarget.stage.model, req.model, mcTarget.ruleInput, set) } : {}),
+    assumptions,
+  };
+});
+
+/** A corner without an operating point fails outright; otherwise the rule set decides. */
+function verdictOf(r: CandidateReview, rules: RuleSetResult): { verdict: CandidateVerdict; reason: string } {
+  const first = r.worst.unsolvedCornerIndexes[0];
+  const corner = first === undefined ? undefined : r.corners[first];
+  if (corner && !("point" in corner.result)) {
+    return { verdict: "fail", reason: `fail: corner ${first} (${describe(corner)}) has no operating point: ${corner.result.reason}` };
+  }
+  const failing = rules.verdicts.find((v) => v.outcome === "fail") ?? rules.verdicts.find((v) => v.outcome === "warn");
+  switch (rules.outcome) {
+    case "pass":
+      return { verdict: "pass", reason: `pass: ${rules.counts.pass} rules passed` };
+    case "fail":
+    case "warn":
+      return { verdict: rules.outcome, reason: `${rules.outcome}: ${failing?.ruleId ?? "?"} (${failing?.reason ?? failing?.title ?? ""})` };
+    default: {
+      const gap = rules.verdicts.find((v) => v.notApplicableCode === "missing-value" || v.notApplicableCode === "not-finite");
+      return { verdict: "incomplete", reason: `incomplete: ${gap ? `${gap.ruleId} could not be evaluated (${gap.reason ?? ""})` : "no rule applied"}` };
+    }
+  }
+}
+
+function describe(c: CornerResult): string {
+  const k = c.conditions;
+  return `supply ${k.supply} ${k.supplyV} V, ambient ${k.ambient} ${k.ambientC} °C, load ×${k.loadScale}, ${k.tolerance}`;
+}
+
+function cornerRow(c: CornerResult) {
+  const r = c.result;
+  if ("point" in r) {
+    const p = r.point;
+    return { conditions: c.conditions, outcome: r.outcome, mode: p.forward.mode, currentA: p.currentA, dropV: p.forward.dropV, lossW: p.dieLossW, tjC: p.tjC, loadV: p.loadV };
+  }
+  return { conditions: c.conditions, outcome: r.outcome, reason: r.reason };
+}
