@@ -67,7 +67,9 @@ describe("ORing network", () => {
     if (r.outcome !== "solved") throw new Error(r.outcome);
     const ref = bisectDiodeNode([12.3, 12], 0.05, 3);
     expect(Math.abs(r.nodeV - ref.v)).toBeLessThan(1e-9);
-    r.branches.forEach((b, k) => expect(relativeError(b.currentA, ref.currents[k] ?? 0)).toBeLessThan(1e-6));
+    r.branches.forEach((b, k) => {
+      expect(relativeError(b.currentA, ref.currents[k] ?? 0)).toBeLessThan(1e-6);
+    });
     expect(r.branches[1]?.currentA).toBeGreaterThan(0);
     const shares = [0.1, 0.3, 0.5].map((dv) => {
       const s = solveOring({ ...m, sources: [src(12 + dv, isothermal(schottkyStage)), src(12, isothermal(schottkyStage))] });
