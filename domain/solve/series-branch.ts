@@ -20,6 +20,8 @@ export interface BranchState {
   readonly stageV: number;
   readonly stageLossW: number;
   readonly resistanceLossW: number;
+  /** Heat in the current limiter: I·(excess voltage it drops) when the limit holds, W. */
+  readonly limiterLossW: number;
   readonly mode: BranchMode;
   readonly forwardMode?: string;
   /** A reverse current is stopped by a junction or a controller (not a conducting channel). */
@@ -48,6 +50,7 @@ export function branchCurrent(stage: StageModel, leftV: number, leftOhm: number,
     stageV: v,
     stageLossW: Math.abs(i * v),
     resistanceLossW: i * i * rt,
+    limiterLossW: limited ? Math.max(0, i * (dv - i * rt - v)) : 0,
     mode,
     blocks,
     currentLimited: limited,
