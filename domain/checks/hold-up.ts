@@ -1,5 +1,6 @@
 import { cToK } from "../physics/constants.js";
-import { type DiodeParams, diodeCurrentA } from "../physics/diode.js";
+import type { DiodeParams } from "../physics/diode.js";
+import { reverseJunctionA } from "../solve/series-branch.js";
 import type { LoadModel } from "../solve/load-model.js";
 import type { StageModel } from "../stages/stage-model.js";
 import { type DischargeOutcome, dischargeTime } from "./hold-up-discharge.js";
@@ -89,7 +90,8 @@ export function holdUp(m: HoldUpModel): HoldUpOutcome {
       const after = ev.clamp?.after ?? ev.end;
       const reverseV = Math.max(after.capacitorV - inp.inputAfterV, 0);
       const diode = blockingJunction(m.stage);
-      const leakageA = diode === undefined ? 0 : Math.max(0, -diodeCurrentA(diode, -reverseV, tK));
+      const point = m.stage.kind === "pn-diode" || m.stage.kind === "schottky-diode" ? m.stage.reverseLeakage : undefined;
+      const leakageA = diode === undefined ? 0 : Math.max(0, -reverseJunctionA(diode, -reverseV, tK, point));
       return fromDischarge(dischargeTime({ ...m, capacitorV: after.capacitorV, leakageA }), after.timeS, leakageA, after.capacitorV);
     }
   }

@@ -22,14 +22,15 @@ export interface ControllerTurnOff {
  *   above threshold does the same;
  * - "gate-falls": a low-side N-FET whose input (its gate drive) fell below threshold turns off
  *   after the gate discharge; its body diode then blocks.
- * The channel resistance is taken at the pre-event gate drive and junction temperature.
+ * A MOSFET whose channel is already off before the event conducts through its body diode and
+ * is treated as a diode. The channel resistance is taken at the pre-event gate drive and
+ * junction temperature.
  */
 export type ReversePath =
   | { readonly kind: "controller"; readonly channelOhm: number; readonly tripCurrentA: number; readonly offDelayS: number }
   | { readonly kind: "diode"; readonly seriesOhm: number }
   | { readonly kind: "channel-stays-on"; readonly channelOhm: number; readonly thresholdV: number; readonly reason: string }
-  | { readonly kind: "gate-falls"; readonly channelOhm: number; readonly offDelayS: number }
-  | { readonly kind: "no-channel"; readonly reason: string };
+  | { readonly kind: "gate-falls"; readonly channelOhm: number; readonly offDelayS: number };
 
 export function gateDischargeS(c: ControllerTurnOff | undefined): number {
   if (c?.gateChargeC === undefined || c.gateSinkCurrentA === undefined || !(c.gateSinkCurrentA > 0)) return 0;
@@ -53,7 +54,7 @@ export function reversePath(
       return { kind: "diode", seriesOhm: stage.diode.seriesResistanceOhm };
     case "pfet-high-side": {
       const r = onOhm(stage.mosfet.channel, clamp(outputV, stage.gateClampV));
-      if (r === undefined) return { kind: "no-channel", reason: "the gate drive is below threshold before the event" };
+      if (r === undefined) return { kind: "diode", seriesOhm: stage.mosfet.bodyDiode.seriesResistanceOhm };
       return {
         kind: "channel-stays-on",
         channelOhm: r,
@@ -63,7 +64,7 @@ export function reversePath(
     }
     case "nfet-low-side": {
       const r = onOhm(stage.mosfet.channel, clamp(inputBeforeV, stage.gateClampV));
-      if (r === undefined) return { kind: "no-channel", reason: "the gate drive is below threshold before the event" };
+      if (r === undefined) return { kind: "diode", seriesOhm: stage.mosfet.bodyDiode.seriesResistanceOhm };
       if (inputAfterV > stage.mosfet.channel.thresholdV) {
         return {
           kind: "channel-stays-on",
@@ -83,12 +84,21 @@ export function reversePath(
       return { kind: "controller", channelOhm: r, tripCurrentA: timing.reverseThresholdV / r, offDelayS: timing.turnOffDelayS + gateDischargeS(timing) };
     }
     case "integrated-switch": {
+      if (!stage.blocksReverseCurrent) {
+        const r = inputBeforeV >= stage.startV ? onOhm(stage.channel, stage.internalGateV) : undefined;
+        if (r === undefined) return offSwitch(stage);
+        return { kind: "channel-stays-on", channelOhm: r, thresholdV: 0, reason: "a plain integrated switch does not turn off on reverse current: it conducts backwards" };
+      }
       if (timing === undefined) throw new Error("reversePath: an integrated switch needs its turn-off timing");
       const r = inputBeforeV >= stage.startV ? onOhm(stage.channel, stage.internalGateV) : undefined;
-      if (r === undefined) return { kind: "no-channel", reason: "the switch is off before the event (input below its start voltage)" };
+      if (r === undefined) return offSwitch(stage);
       return { kind: "controller", channelOhm: r, tripCurrentA: timing.reverseThresholdV / r, offDelayS: timing.turnOffDelayS + gateDischargeS(timing) };
     }
   }
+}
+
+function offSwitch(stage: Extract<StageModel, { kind: "integrated-switch" }>): ReversePath {
+  return { kind: "diode", seriesOhm: stage.belowStart.mode === "body-diode" ? stage.belowStart.bodyDiode.seriesResistanceOhm : 0 };
 }
 
 /** The voltage at which the blocking element breaks down: the clamp for the inductive energy. */

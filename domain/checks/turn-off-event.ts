@@ -90,7 +90,7 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   const i0 = line.currentA + line.conductanceS * m.outputV;
   const vinBefore = m.outputV + i0 * m.loopResistanceOhm;
   const path = reversePath(m.stage, tK, vinBefore, m.inputAfterV, m.outputV, m.controller);
-  const stageOhm = path.kind === "diode" ? path.seriesOhm : path.kind === "no-channel" ? 0 : path.channelOhm;
+  const stageOhm = path.kind === "diode" ? path.seriesOhm : path.channelOhm;
   const loop: RlcLoop = {
     sourceV: m.inputAfterV,
     loopResistanceOhm: m.loopResistanceOhm + stageOhm,
@@ -124,8 +124,7 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   let turnOffS: number;
   let detectS: number | undefined;
   switch (path.kind) {
-    case "channel-stays-on":
-    case "no-channel": {
+    case "channel-stays-on": {
       const k = 1 / (1 + m.esrOhm * line.conductanceS);
       const level = m.loadMinV + k * m.esrOhm * line.currentA;
       const fall = firstCrossing(s, x0, [k * m.esrOhm, k], level, horizon);

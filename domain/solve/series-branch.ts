@@ -1,5 +1,7 @@
+import { thermalVoltageV } from "../physics/constants.js";
 import { type DiodeParams, diodeCurrentA, diodeVoltageV } from "../physics/diode.js";
 import { channelResistanceOhm } from "../physics/mosfet-channel.js";
+import { junctionLeakageA, type LeakagePoint } from "../checks/reverse-steady.js";
 import { stageForward } from "../stages/forward.js";
 import type { StageModel } from "../stages/stage-model.js";
 import { bracketedRoot } from "./root-find.js";
@@ -40,7 +42,8 @@ export interface BranchState {
  *   P-FET: the channel at |Vgs| = rightV (gate at ground, source on the output side) conducts;
  *   low-side N-FET: the channel at Vgs = leftV (gate held by the source side) conducts if on;
  *   ideal-diode controller: in steady state its gate is off in reverse: body-diode leakage;
- *   integrated switch: body-diode leakage, or none for back-to-back FETs.
+ *   integrated switch: a plain switch (blocksReverseCurrent false) conducts through its channel;
+ *   a blocking one leaks through its body diode, or not at all for back-to-back FETs.
  */
 export function branchCurrent(stage: StageModel, leftV: number, leftOhm: number, rightV: number, rightOhm: number, tK: number, limitA?: number): BranchState {
   const rt = leftOhm + rightOhm;
@@ -93,12 +96,12 @@ export function branchCurrent(stage: StageModel, leftV: number, leftOhm: number,
 type ReverseLaw = { readonly kind: "channel" | "junction"; readonly currentA: (v: number) => number } | { readonly kind: "ideal-block" };
 
 function reverseLaw(stage: StageModel, leftV: number, rightV: number, tK: number): ReverseLaw {
-  const junction = (d: DiodeParams): ReverseLaw => ({ kind: "junction", currentA: (v) => diodeCurrentA(d, v, tK) });
+  const junction = (d: DiodeParams, point?: LeakagePoint): ReverseLaw => ({ kind: "junction", currentA: (v) => reverseJunctionA(d, v, tK, point) });
   const clampV = (v: number, lim: number | undefined): number => (lim === undefined ? v : Math.min(v, lim));
   switch (stage.kind) {
     case "pn-diode":
     case "schottky-diode":
-      return junction(stage.diode);
+      return junction(stage.diode, stage.reverseLeakage);
     case "pfet-high-side":
     case "nfet-low-side": {
       const gate = stage.kind === "pfet-high-side" ? rightV : leftV;
@@ -109,9 +112,25 @@ function reverseLaw(stage: StageModel, leftV: number, rightV: number, tK: number
     }
     case "nfet-ideal-diode":
       return junction(stage.mosfet.bodyDiode);
-    case "integrated-switch":
+    case "integrated-switch": {
+      if (!stage.blocksReverseCurrent) {
+        const r = channelResistanceOhm(stage.channel, stage.internalGateV, tK);
+        if (r !== undefined) return { kind: "channel", currentA: (v) => v / r };
+      }
       return stage.belowStart.mode === "body-diode" ? junction(stage.belowStart.bodyDiode) : { kind: "ideal-block" };
+    }
   }
+}
+
+/**
+ * Junction current at stage voltage v ≤ 0: the Shockley equation, or — with a datasheet leakage
+ * point — that point scaled by Is(T)/Is(T_point) (reverse-steady.ts) and shaped by
+ * (1 − e^(−|v|/(n·Vt))) so it falls continuously to zero at zero bias.
+ */
+export function reverseJunctionA(d: DiodeParams, v: number, tK: number, point?: LeakagePoint): number {
+  if (point === undefined || v >= 0) return diodeCurrentA(d, v, tK);
+  const shape = -Math.expm1(v / (d.ideality * thermalVoltageV(tK)));
+  return -junctionLeakageA(d, -v, tK, point) * shape;
 }
 
 /** The diode that conducts when a regulating controller releases the gate. */
