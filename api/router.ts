@@ -1,11 +1,19 @@
+import { batteryCharge } from "./procedures/battery-charge.js";
+import { holdUp } from "./procedures/hold-up.js";
 import { operatingPoint } from "./procedures/operating-point.js";
 import { rules } from "./procedures/rules.js";
+import { oring } from "./procedures/oring.js";
+import { turnOff } from "./procedures/turn-off.js";
 import { router } from "./trpc.js";
 
 /** Every analysis of backstop; adapters (HTTP, batch) all enter here. */
 export const appRouter = router({
   operatingPoint,
   rules,
+  turnOff,
+  holdUp,
+  oring,
+  batteryCharge,
 });
 
 /** Clients import only this type (`import type { AppRouter } from "backstop/api/router"`). */

@@ -54,15 +54,25 @@ export type ChargingOutcome =
   | { readonly outcome: "integration-failed"; readonly reason: string }
   | { readonly outcome: "thermal-runaway"; readonly reason: string };
 
-/** Quasi-static stage temperature: Tj = Ta + Rth·P(Tj) by Picard iteration (thermal τ ≪ charge time). */
-function branchAt(m: ChargingModel, socS: number, socT: number, limitA: number | undefined): { b: BranchState; tK: number } | undefined {
+/**
+ * Quasi-static stage temperature: Tj = Ta + Rth·P(Tj) by Picard iteration (thermal τ ≪ charge
+ * time), warm-started from startK. Returns the (limited) branch and the current the loop would
+ * carry without the limit, whose crossing of the limit is a kink of the charge curve.
+ */
+function branchAt(m: ChargingModel, socS: number, socT: number, startK: number): { b: BranchState; unlimitedA: number; tK: number } | undefined {
   const taK = cToK(m.ambientC);
   const rth = totalRthKPerW(m.stage.thermal);
-  let tK = taK;
+  const vs = ocvV(m.source, socS);
+  const vt = ocvV(m.target, socT);
+  const rs = m.source.internalResistanceOhm;
+  const rt = m.target.internalResistanceOhm;
+  const lim = m.currentLimitA;
+  let tK = rth === 0 ? taK : startK;
   for (let k = 0; k < 200; k += 1) {
-    const b = branchCurrent(m.stage, ocvV(m.source, socS), m.source.internalResistanceOhm, ocvV(m.target, socT), m.target.internalResistanceOhm, tK, limitA);
+    const free = branchCurrent(m.stage, vs, rs, vt, rt, tK);
+    const b = lim !== undefined && free.currentA > lim ? branchCurrent(m.stage, vs, rs, vt, rt, tK, lim) : free;
     const next = taK + rth * b.stageLossW;
-    if (Math.abs(next - tK) < 1e-9 || rth === 0) return { b, tK: next };
+    if (Math.abs(next - tK) < 1e-9 || rth === 0) return { b, unlimitedA: free.currentA, tK: next };
     if (next > cToK(1000)) return undefined;
     tK = next;
   }
@@ -81,7 +91,10 @@ interface RawRun {
   readonly peakTK: number;
 }
 
-function integrateCharge(m: ChargingModel, rtol: number, at: (q: number) => { b: BranchState; tK: number }, unlimitedA: (q: number) => number): RawRun | string {
+type At = (q: number) => { b: BranchState; unlimitedA: number; tK: number };
+
+function integrateCharge(m: ChargingModel, rtol: number, at: At): RawRun | string {
+  const unlimitedA = (q: number): number => at(q).unlimitedA;
   const socS = (q: number): number => m.source.initialSoc - q / m.source.capacityC;
   const socT = (q: number): number => m.target.initialSoc + q / m.target.capacityC;
   let peakTK = cToK(m.ambientC);
@@ -143,12 +156,20 @@ export function chargeBattery(m: ChargingModel): ChargingOutcome {
   const socS = (q: number): number => m.source.initialSoc - q / m.source.capacityC;
   const socT = (q: number): number => m.target.initialSoc + q / m.target.capacityC;
   let failed: string | undefined;
-  const at = (q: number): { b: BranchState; tK: number } => {
-    const r = branchAt(m, socS(q), socT(q), m.currentLimitA);
+  // The event function and the next step's first stage ask for the same q: a small memo.
+  const memo = new Map<number, { b: BranchState; unlimitedA: number; tK: number }>();
+  let lastK = cToK(m.ambientC);
+  const at: At = (q) => {
+    const hit = memo.get(q);
+    if (hit !== undefined) return hit;
+    const r = branchAt(m, socS(q), socT(q), lastK);
     if (r === undefined) {
       failed = "the stage junction has no stable temperature (thermal runaway) at this current";
-      return { b: { currentA: 0, stageV: 0, stageLossW: 0, resistanceLossW: 0, limiterLossW: 0, mode: "idle", blocks: false, currentLimited: false }, tK: cToK(m.ambientC) };
+      return { b: { currentA: 0, stageV: 0, stageLossW: 0, resistanceLossW: 0, limiterLossW: 0, mode: "idle", blocks: false, currentLimited: false }, unlimitedA: 0, tK: cToK(m.ambientC) };
     }
+    lastK = r.tK;
+    if (memo.size > 64) memo.clear();
+    memo.set(q, r);
     return r;
   };
   const i0 = at(0).b.currentA;
@@ -161,9 +182,8 @@ export function chargeBattery(m: ChargingModel): ChargingOutcome {
       reverse: reverseCheck(m, socT(0)),
     };
   }
-  const unlimitedA = (q: number): number => branchAt(m, socS(q), socT(q), undefined)?.b.currentA ?? 0;
-  const run = integrateCharge(m, m.rtol, at, unlimitedA);
-  const fine = integrateCharge(m, m.rtol / 10, at, unlimitedA);
+  const run = integrateCharge(m, m.rtol, at);
+  const fine = integrateCharge(m, m.rtol / 10, at);
   if (failed !== undefined) return { outcome: "thermal-runaway", reason: failed };
   if (typeof run === "string") return { outcome: "integration-failed", reason: run };
   if (typeof fine === "string") return { outcome: "integration-failed", reason: fine };
