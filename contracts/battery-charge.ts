@@ -50,6 +50,8 @@ export const chargeMetrics = z.object({
   finalTargetSoc: z.number().optional(),
   chargeTimeS: z.number().optional(),
   stageLossJ: z.number().optional(),
+  peakStageTjC: z.number().optional(),
+  overTemperature: z.boolean().optional(),
 });
 
 const reverse = z.object({ sourceOcvV: z.number(), targetOcvV: z.number(), backCurrentA: z.number(), blocks: z.boolean(), mode: z.string() });
@@ -72,6 +74,8 @@ const result = z.discriminatedUnion("outcome", [
     }),
     errorBound: z.object({ chargeC: z.number(), targetSoc: z.number(), timeS: z.number(), stageLossJ: z.number() }),
     peakStageTjC: z.number(),
+    stageTjMaxC: z.number(),
+    overTemperature: z.boolean().meta({ description: "the stage's junction passes its limit during the charge" }),
     steps: z.number(),
     reverse,
   }),

@@ -37,6 +37,7 @@ export const oringBranch = z.object({
   limiterLossW: z.number(),
   currentLimited: z.boolean(),
   tjC: z.number(),
+  tjMaxC: z.number(),
   share: z.number().meta({ description: "share of the total forward current, 0..1" }),
 });
 
@@ -45,6 +46,7 @@ export const oringMetrics = z.object({
   maxReverseCurrentA: z.number(),
   allReverseBlocked: z.boolean(),
   maxStageTjC: z.number(),
+  anyOverTemperature: z.boolean().meta({ description: "a stage's junction lies above its limit" }),
   minShare: z.number().meta({ description: "smallest share among the sources that conduct forward" }),
 });
 

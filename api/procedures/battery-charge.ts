@@ -46,7 +46,13 @@ export const batteryCharge = publicProcedure.input(batteryChargeInput).query(({ 
     const metrics = {
       targetCanDrainSource: rev === undefined ? false : !rev.blocks,
       backCurrentA: rev?.backCurrentA ?? 0,
-      ...(result.outcome === "charged" ? { finalTargetSoc: result.finalTargetSoc, chargeTimeS: result.timeS, stageLossJ: result.energy.stageLossJ } : {}),
+      ...(result.outcome === "charged" ? {
+            finalTargetSoc: result.finalTargetSoc,
+            chargeTimeS: result.timeS,
+            stageLossJ: result.energy.stageLossJ,
+            peakStageTjC: result.peakStageTjC,
+            overTemperature: result.overTemperature,
+          } : {}),
     };
     return { stage: stageLabel(stage.spec, stage.partId), result, metrics };
   });

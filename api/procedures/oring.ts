@@ -1,6 +1,7 @@
 import { type OringOutput, oringInput } from "../../contracts/oring.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { solveOring } from "../../domain/solve/oring-network.js";
+import { stageTjMaxC } from "../../domain/stages/stage-model.js";
 import { stageLabel } from "../map/reverse-inputs.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { inputProblem } from "../input-problem.js";
@@ -45,6 +46,7 @@ export const oring = publicProcedure.input(oringInput).query(({ input, ctx }): O
           limiterLossW: b.limiterLossW,
           currentLimited: b.currentLimited,
           tjC: b.tjC,
+          tjMaxC: stageTjMaxC(st.model),
           share: b.share,
         };
       });
@@ -63,6 +65,7 @@ export const oring = publicProcedure.input(oringInput).query(({ input, ctx }): O
           maxReverseCurrentA: Math.max(0, ...branches.map((b) => b.reverseCurrentA)),
           allReverseBlocked: branches.every((b) => b.currentA >= 0 || b.blocks),
           maxStageTjC: Math.max(...branches.map((b) => b.tjC)),
+          anyOverTemperature: branches.some((b) => b.tjC > b.tjMaxC),
           minShare: forward.length === 0 ? 0 : Math.min(...forward.map((b) => b.share)),
         },
       };

@@ -3,7 +3,7 @@ import { cToK, kToC } from "../physics/constants.js";
 import { totalRthKPerW } from "../physics/thermal-path.js";
 import { integrateRk45 } from "../solve/ode-rk45.js";
 import { type BranchState, branchCurrent } from "../solve/series-branch.js";
-import type { StageModel } from "../stages/stage-model.js";
+import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
 
 export interface ChargingModel {
   readonly source: BatteryModel;
@@ -47,6 +47,9 @@ export type ChargingOutcome =
       };
       readonly errorBound: { readonly chargeC: number; readonly targetSoc: number; readonly timeS: number; readonly stageLossJ: number };
       readonly peakStageTjC: number;
+      readonly stageTjMaxC: number;
+      /** The stage's junction passes its limit at some point of the charge. */
+      readonly overTemperature: boolean;
       readonly steps: number;
       readonly reverse: ReverseCheck;
     }
@@ -219,6 +222,8 @@ export function chargeBattery(m: ChargingModel): ChargingOutcome {
       stageLossJ: Math.max(run.localErrorSum[1] ?? 0, 2 * Math.abs(fine.stageLossJ - run.stageLossJ)),
     },
     peakStageTjC: kToC(run.peakTK),
+    stageTjMaxC: stageTjMaxC(m.stage),
+    overTemperature: kToC(run.peakTK) > stageTjMaxC(m.stage),
     steps: run.steps,
     reverse: reverseCheck(m, socT(q)),
   };
