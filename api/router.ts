@@ -1,8 +1,8 @@
 import { batteryCharge } from "./procedures/battery-charge.js";
 import { holdUp } from "./procedures/hold-up.js";
 import { operatingPoint } from "./procedures/operating-point.js";
-import { rules } from "./procedures/rules.js";
 import { oring } from "./procedures/oring.js";
+import { rules } from "./procedures/rules.js";
 import { turnOff } from "./procedures/turn-off.js";
 import { router } from "./trpc.js";
 
