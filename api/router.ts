@@ -1,6 +1,10 @@
+import { batteryCharge } from "./procedures/battery-charge.js";
+import { holdUp } from "./procedures/hold-up.js";
 import { operatingPoint } from "./procedures/operating-point.js";
+import { oring } from "./procedures/oring.js";
 import { review } from "./procedures/review.js";
 import { rules } from "./procedures/rules.js";
+import { turnOff } from "./procedures/turn-off.js";
 import { router } from "./trpc.js";
 
 /** Every analysis of backstop; adapters (HTTP, batch) all enter here. */
@@ -8,6 +12,10 @@ export const appRouter = router({
   operatingPoint,
   review,
   rules,
+  turnOff,
+  holdUp,
+  oring,
+  batteryCharge,
 });
 
 /** Clients import only this type (`import type { AppRouter } from "backstop/api/router"`). */

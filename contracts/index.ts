@@ -10,3 +10,7 @@ export * from "./thermal.js";
 export * from "./catalog.js";
 export * from "./rule-set.js";
 export * from "./rules.js";
+export * from "./turn-off.js";
+export * from "./hold-up.js";
+export * from "./oring.js";
+export * from "./battery-charge.js";

@@ -1,0 +1,46 @@
+import type { StageSpec } from "../../contracts/stage.js";
+import type { ControllerTurnOff } from "../../domain/checks/reverse-path.js";
+import type { LoadModel } from "../../domain/solve/load-model.js";
+import type { StageModel } from "../../domain/stages/stage-model.js";
+import { inputProblem } from "../input-problem.js";
+
+type Timing = { reverseThresholdV: number; turnOffDelayS: number; gateChargeC?: number | undefined; gateSinkCurrentA?: number | undefined };
+
+/**
+ * The controller's reverse turn-off timing: the request's `turnOff`, else the stage controller's
+ * own reverseThresholdV and turnOffDelayS. Required for stages that turn off on reverse current.
+ */
+export function controllerTiming(
+  spec: StageSpec,
+  model: StageModel,
+  given: Timing | undefined,
+  path: (string | number)[],
+  assumptions: string[],
+): ControllerTurnOff | undefined {
+  const needs = model.kind === "nfet-ideal-diode" || (model.kind === "integrated-switch" && model.blocksReverseCurrent);
+  if (!needs) return undefined;
+  if (given !== undefined) {
+    return {
+      reverseThresholdV: given.reverseThresholdV,
+      turnOffDelayS: given.turnOffDelayS,
+      ...(given.gateChargeC === undefined ? {} : { gateChargeC: given.gateChargeC }),
+      ...(given.gateSinkCurrentA === undefined ? {} : { gateSinkCurrentA: given.gateSinkCurrentA }),
+    };
+  }
+  if (spec.kind === "nfet-ideal-diode" && spec.controller.reverseThresholdV !== undefined && spec.controller.turnOffDelayS !== undefined) {
+    assumptions.push(`${path.join(".")}: reverse turn-off timing from the stage controller (threshold ${spec.controller.reverseThresholdV} V, delay ${spec.controller.turnOffDelayS} s, no gate-discharge time)`);
+    return { reverseThresholdV: spec.controller.reverseThresholdV, turnOffDelayS: spec.controller.turnOffDelayS };
+  }
+  throw inputProblem("invalid-input", path, "required: this stage turns off on reverse current, give its reverseThresholdV and turnOffDelayS");
+}
+
+/** The load's minimum voltage: given, or a constant-power load's own minVoltageV. */
+export function loadMinimumV(load: LoadModel, given: number | undefined, path: (string | number)[]): number {
+  if (given !== undefined) return given;
+  if (load.kind === "constant-power") return load.minVoltageV;
+  throw inputProblem("invalid-input", path, "required: the load's minimum operating voltage");
+}
+
+export function stageLabel(spec: StageSpec, partId: string | undefined): { kind: string; name?: string; partId?: string } {
+  return { kind: spec.kind, ...(spec.name === undefined ? {} : { name: spec.name }), ...(partId === undefined ? {} : { partId }) };
+}

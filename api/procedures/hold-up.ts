@@ -1,0 +1,49 @@
+import { type HoldUpOutput, holdUpInput } from "../../contracts/hold-up.js";
+import { type HoldUpModel, holdUp as holdUpCheck } from "../../domain/checks/hold-up.js";
+import { blocksReverseCurrent } from "../../domain/checks/stage-ratings.js";
+import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
+import { controllerTiming, loadMinimumV, stageLabel } from "../map/reverse-inputs.js";
+import { resolveStage } from "../map/resolve-stage.js";
+import { publicProcedure } from "../trpc.js";
+
+export const holdUp = publicProcedure.input(holdUpInput).query(({ input, ctx }): HoldUpOutput => {
+  const assumptions: string[] = [];
+  const loadMinV = loadMinimumV(input.load, input.loadMinV, ["loadMinV"]);
+  const stages = input.stages.map((s, k) => {
+    const stage = resolveStage(s, ctx.catalog, ["stages", k], assumptions);
+    const inp = input.input;
+    let modelInput: HoldUpModel["input"];
+    if (inp.kind === "open") modelInput = { kind: "open" };
+    else {
+      const controller = controllerTiming(stage.spec, stage.model, inp.turnOff, ["input", "turnOff"], assumptions);
+      modelInput = {
+        kind: "falls",
+        inputAfterV: inp.inputAfterV,
+        loopResistanceOhm: inp.loop.resistanceOhm,
+        loopInductanceH: inp.loop.inductanceH,
+        ...(controller === undefined ? {} : { controller }),
+        ...(inp.reverseRecoveryChargeC === undefined ? {} : { reverseRecoveryChargeC: inp.reverseRecoveryChargeC }),
+        ...(inp.clampV === undefined ? {} : { clampV: inp.clampV }),
+      };
+    }
+    const result = holdUpCheck({
+      stage: stage.model,
+      outputV: input.outputV,
+      capacitanceF: input.capacitor.capacitanceF,
+      esrOhm: input.capacitor.esrOhm,
+      load: input.load,
+      loadMinV,
+      tjC: input.tjC,
+      input: modelInput,
+    });
+    const holdUpS = result.outcome === "holds" || result.outcome === "drains-back" ? result.holdUpS : result.outcome === "no-hold-up" ? 0 : undefined;
+    const metrics = {
+      blocksReverseCurrent: blocksReverseCurrent(stage.model),
+      ...(holdUpS === undefined ? {} : { holdUpS }),
+      ...(holdUpS === undefined || input.requiredHoldUpS === undefined ? {} : { holdUpMarginS: holdUpS - input.requiredHoldUpS }),
+      ...(result.outcome === "holds" ? { reverseLeakageA: result.reverseLeakageA } : {}),
+    };
+    return { stage: stageLabel(stage.spec, stage.partId), result, metrics };
+  });
+  return { modelVersion: MODEL_VERSION, caution: CAUTION, assumptions, stages };
+});

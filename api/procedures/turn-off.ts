@@ -1,0 +1,75 @@
+import { type TurnOffOutput, turnOffInput } from "../../contracts/turn-off.js";
+import { type TurnOffOutcome, turnOffEvent } from "../../domain/checks/turn-off-event.js";
+import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
+import { controllerTiming, loadMinimumV, stageLabel } from "../map/reverse-inputs.js";
+import { resolveStage } from "../map/resolve-stage.js";
+import { publicProcedure } from "../trpc.js";
+
+export const turnOff = publicProcedure.input(turnOffInput).query(({ input, ctx }): TurnOffOutput => {
+  const assumptions: string[] = [];
+  const stage = resolveStage(input.stage, ctx.catalog, ["stage"], assumptions);
+  const controller = controllerTiming(stage.spec, stage.model, input.turnOff, ["turnOff"], assumptions);
+  if (input.clampV === undefined) assumptions.push("clampV: the blocking element's rated voltage (a lower bound of its breakdown: the energy estimate is conservative)");
+  if (stage.model.kind === "pn-diode" || stage.model.kind === "schottky-diode") {
+    if (input.reverseRecoveryChargeC === undefined) assumptions.push("reverseRecoveryChargeC: 0 (an ideal diode without stored charge)");
+  }
+  const r = turnOffEvent({
+    stage: stage.model,
+    outputV: input.outputV,
+    inputAfterV: input.inputAfterV,
+    loopResistanceOhm: input.loop.resistanceOhm,
+    loopInductanceH: input.loop.inductanceH,
+    capacitanceF: input.capacitor.capacitanceF,
+    esrOhm: input.capacitor.esrOhm,
+    load: input.load,
+    loadMinV: loadMinimumV(input.load, input.loadMinV, ["loadMinV"]),
+    tjC: input.tjC,
+    ...(controller === undefined ? {} : { controller }),
+    ...(input.reverseRecoveryChargeC === undefined ? {} : { reverseRecoveryChargeC: input.reverseRecoveryChargeC }),
+    ...(input.clampV === undefined ? {} : { clampV: input.clampV }),
+    ...(input.avalancheRatingJ === undefined ? {} : { avalancheRatingJ: input.avalancheRatingJ }),
+  });
+  const head = { modelVersion: MODEL_VERSION, caution: CAUTION, stage: stageLabel(stage.spec, stage.partId), assumptions };
+  return toOutput(head, r, input.outputV);
+});
+
+type Head = { modelVersion: string; caution: string; stage: { kind: string; name?: string; partId?: string }; assumptions: string[] };
+
+function toOutput(head: Head, r: TurnOffOutcome, v0: number): TurnOffOutput {
+  switch (r.outcome) {
+    case "clamp-below-drive":
+    case "invalid-load-line":
+      return { ...head, ...r };
+    case "blocks": {
+      const c = r.clamp;
+      const absorbed = c?.absorbedJ ?? 0;
+      const rating = c?.avalancheRatingJ;
+      const after = c?.after ?? r.end;
+      return {
+        ...head,
+        ...r,
+        metrics: {
+          blocksReverseCurrent: true,
+          peakReverseCurrentA: r.peakReverseCurrentA,
+          turnOffS: r.turnOffS,
+          absorbedEnergyJ: absorbed,
+          ...(rating === undefined ? {} : { avalancheRatingJ: rating, avalancheEnergyRatio: absorbed / rating }),
+          outputVoltageLostV: v0 - after.capacitorV,
+        },
+      };
+    }
+    case "does-not-block":
+      return {
+        ...head,
+        ...r,
+        metrics: {
+          blocksReverseCurrent: false,
+          peakReverseCurrentA: r.peakReverseCurrentA,
+          outputVoltageLostV: r.end.voltageLostV,
+          ...(r.fallsBelowMinS === undefined ? {} : { fallsBelowLoadMinimumS: r.fallsBelowMinS }),
+        },
+      };
+    case "stays-on":
+      return { ...head, ...r, metrics: { blocksReverseCurrent: true, peakReverseCurrentA: r.peakReverseCurrentA, outputVoltageLostV: r.end.voltageLostV } };
+  }
+}

@@ -1,0 +1,62 @@
+import { z } from "zod";
+import { load } from "./load.js";
+import { provenance } from "./outcome.js";
+import { quantity, temperatureC } from "./quantity.js";
+import { stageInput } from "./stage.js";
+import { fallingInputFields, holdUpCapacitor } from "./turn-off.js";
+
+const { stage: _s, outputV: _o, capacitor: _c, load: _l, loadMinV: _m, tjC: _t, ...fallFields } = fallingInputFields;
+
+export const holdUpInput = z
+  .object({
+    stages: z.array(stageInput).min(1).max(20).meta({ description: "the stage kinds to compare, each on the same output" }),
+    outputV: quantity("V", "output voltage when the input is lost", { gt: 0, le: 10_000 }),
+    capacitor: holdUpCapacitor,
+    load,
+    loadMinV: quantity("V", "the load's minimum operating voltage (default: a constant-power load's minVoltageV)", { ge: 0, le: 10_000 }).optional(),
+    tjC: temperatureC("junction temperature of the stages (sets the reverse leakage)"),
+    requiredHoldUpS: quantity("s", "hold-up the design must achieve (for the metric holdUpMarginS)", { ge: 0, le: 1e6 }).optional(),
+    input: z
+      .discriminatedUnion("kind", [
+        z.object({ kind: z.literal("open") }).meta({ description: "the input is disconnected: nothing flows back" }),
+        z.object({ kind: z.literal("falls"), ...fallFields }).meta({ description: "the input is shorted or steps lower through a loop" }),
+      ])
+      .meta({ description: "how the input is lost" }),
+  })
+  .meta({ description: "time the output stays above the load's minimum after the input is lost, per stage" });
+export type HoldUpInput = z.input<typeof holdUpInput>;
+
+export const holdUpMetrics = z.object({
+  holdUpS: z.number().optional().meta({ description: "absent when the output is never interrupted" }),
+  holdUpMarginS: z.number().optional(),
+  blocksReverseCurrent: z.boolean(),
+  reverseLeakageA: z.number().optional(),
+});
+
+const row = z.discriminatedUnion("outcome", [
+  z.object({
+    outcome: z.literal("holds"),
+    holdUpS: z.number(),
+    eventS: z.number(),
+    dischargeS: z.number(),
+    method: z.string(),
+    reverseLeakageA: z.number(),
+    startCapacitorV: z.number(),
+  }),
+  z.object({ outcome: z.literal("drains-back"), holdUpS: z.number(), reason: z.string(), peakReverseCurrentA: z.number() }),
+  z.object({ outcome: z.literal("not-interrupted"), reason: z.string(), settlesAtV: z.number().optional() }),
+  z.object({ outcome: z.literal("no-hold-up"), reason: z.string(), startOutputV: z.number().optional() }),
+]);
+
+export const holdUpOutput = z.object({
+  ...provenance,
+  assumptions: z.array(z.string()),
+  stages: z.array(
+    z.object({
+      stage: z.object({ kind: z.string(), name: z.string().optional(), partId: z.string().optional() }),
+      result: row,
+      metrics: holdUpMetrics,
+    }),
+  ),
+});
+export type HoldUpOutput = z.infer<typeof holdUpOutput>;

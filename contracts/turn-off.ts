@@ -1,0 +1,135 @@
+import { z } from "zod";
+import { load } from "./load.js";
+import { provenance } from "./outcome.js";
+import { quantity, temperatureC } from "./quantity.js";
+import { stageInput } from "./stage.js";
+
+/** The loop from the input to the stage: source and wiring resistance (without the stage) and inductance. */
+export const reverseLoop = z
+  .object({
+    resistanceOhm: quantity("ohm", "source and wiring resistance of the loop, without the stage", { ge: 0, le: 1e6 }),
+    inductanceH: quantity("H", "loop inductance (wiring, connector, input filter)", { gt: 0, le: 10 }),
+  })
+  .meta({ description: "the input loop through which the reverse current flows" });
+
+export const holdUpCapacitor = z
+  .object({
+    capacitanceF: quantity("F", "output (hold-up) capacitance", { gt: 0, le: 1e3 }),
+    esrOhm: quantity("ohm", "its equivalent series resistance", { ge: 0, le: 1e3 }),
+  })
+  .meta({ description: "the capacitor that holds the output" });
+
+export const turnOffTiming = z
+  .object({
+    reverseThresholdV: quantity("V", "reverse drain-source voltage at which the controller trips (magnitude)", { ge: 0, le: 10 }),
+    turnOffDelayS: quantity("s", "delay from the trip to the start of the gate discharge", { ge: 0, le: 1 }),
+    gateChargeC: quantity("C", "gate charge to remove at turn-off", { gt: 0, le: 1 }).optional(),
+    gateSinkCurrentA: quantity("A", "the driver's gate sink current", { gt: 0, le: 100 }).optional(),
+  })
+  .meta({ description: "reverse-current turn-off of a controller; default: the stage controller's reverseThresholdV and turnOffDelayS" });
+
+/** The fields the turn-off event and the hold-up of a falling input share. */
+export const fallingInputFields = {
+  stage: stageInput,
+  outputV: quantity("V", "output voltage before the event (steady state)", { gt: 0, le: 10_000 }),
+  inputAfterV: quantity("V", "input voltage from t = 0 on: 0 for a short, or the lower voltage it steps to", { ge: 0, le: 10_000 }),
+  loop: reverseLoop,
+  capacitor: holdUpCapacitor,
+  load,
+  loadMinV: quantity("V", "the load's minimum operating voltage (default: a constant-power load's minVoltageV)", { ge: 0, le: 10_000 }).optional(),
+  tjC: temperatureC("junction temperature of the stage at the event"),
+  turnOff: turnOffTiming.optional(),
+  reverseRecoveryChargeC: quantity("C", "a diode stage's reverse-recovery charge Qrr (default 0: ideal)", { ge: 0, le: 1 }).optional(),
+  clampV: quantity("V", "voltage the blocking element clamps the inductive energy at (default: its rated voltage)", { gt: 0, le: 10_000 }).optional(),
+};
+
+export const turnOffInput = z
+  .object({
+    ...fallingInputFields,
+    avalancheRatingJ: quantity("J", "single-pulse avalanche energy rating of the blocking element", { gt: 0, le: 1e6 }).optional(),
+  })
+  .superRefine((v, ctx) => {
+    if (!(v.inputAfterV < v.outputV)) ctx.addIssue({ code: "custom", path: ["inputAfterV"], message: "must be below outputV: the input falls at t = 0" });
+  })
+  .meta({ description: "reverse current when the input falls: peak current, charge lost, turn-off energy" });
+export type TurnOffInput = z.input<typeof turnOffInput>;
+
+const windowState = z.object({
+  timeS: z.number(),
+  currentA: z.number().meta({ description: "loop current, positive forward" }),
+  outputV: z.number(),
+  capacitorV: z.number(),
+  chargeLostC: z.number(),
+  voltageLostV: z.number(),
+});
+const energies = z.object({
+  capacitorLostJ: z.number(),
+  inductorLostJ: z.number(),
+  sourceDeliveredJ: z.number(),
+  loopResistanceJ: z.number(),
+  esrJ: z.number(),
+  loadJ: z.number(),
+  clampJ: z.number(),
+  balanceResidual: z.number().meta({ description: "relative energy-balance residual of the phase (a self-check)" }),
+});
+
+/** Metrics for rules: reverse-current blocking, absorbed energy against the avalanche rating. */
+export const turnOffMetrics = z.object({
+  blocksReverseCurrent: z.boolean(),
+  peakReverseCurrentA: z.number(),
+  turnOffS: z.number().optional(),
+  absorbedEnergyJ: z.number().optional(),
+  avalancheRatingJ: z.number().optional(),
+  avalancheEnergyRatio: z.number().optional().meta({ description: "absorbed energy / avalanche rating; above 1 exceeds it" }),
+  outputVoltageLostV: z.number(),
+  fallsBelowLoadMinimumS: z.number().optional(),
+});
+
+const head = { ...provenance, stage: z.object({ kind: z.string(), name: z.string().optional(), partId: z.string().optional() }), assumptions: z.array(z.string()) };
+const common = {
+  ...head,
+  loop: z.object({
+    regime: z.enum(["under-damped", "critically-damped", "over-damped"]),
+    dampingRatio: z.number(),
+    naturalRadPerS: z.number(),
+    decayPerS: z.number(),
+    totalResistanceOhm: z.number(),
+    stageResistanceOhm: z.number(),
+  }),
+  loadMethod: z.string(),
+  initialCurrentA: z.number(),
+  initialSlopeAPerS: z.number(),
+  peakReverseCurrentA: z.number(),
+  peakReverseTimeS: z.number(),
+  end: windowState,
+  energies,
+  metrics: turnOffMetrics,
+};
+
+export const turnOffOutput = z.discriminatedUnion("outcome", [
+  z.object({
+    outcome: z.literal("blocks"),
+    ...common,
+    turnOffS: z.number(),
+    detectS: z.number().optional(),
+    clamp: z
+      .object({
+        clampV: z.number(),
+        currentAtTurnOffA: z.number(),
+        inductiveEnergyJ: z.number().meta({ description: "½·L·I² at turn-off" }),
+        clampedFormulaJ: z.number().meta({ description: "½·L·I²·Vcl/(Vcl − Vs), Vs = output − input at turn-off" }),
+        absorbedJ: z.number().meta({ description: "Vcl·∫|i|dt over the clamp phase, exact loop response" }),
+        durationS: z.number(),
+        avalancheRatingJ: z.number().optional(),
+        withinAvalancheRating: z.boolean().optional(),
+        after: windowState,
+        energies,
+      })
+      .optional(),
+  }),
+  z.object({ outcome: z.literal("does-not-block"), ...common, reason: z.string(), fallsBelowMinS: z.number().optional(), settlesAtV: z.number() }),
+  z.object({ outcome: z.literal("stays-on"), ...common, reason: z.string() }),
+  z.object({ outcome: z.literal("clamp-below-drive"), ...head, reason: z.string(), clampV: z.number(), driveV: z.number(), currentAtTurnOffA: z.number() }),
+  z.object({ outcome: z.literal("invalid-load-line"), ...head, reason: z.string(), path: z.string() }),
+]);
+export type TurnOffOutput = z.infer<typeof turnOffOutput>;

@@ -1,0 +1,224 @@
+import { cToK } from "../physics/constants.js";
+import { det2, firstCrossing, extremaTimes, loopSystem, outputV, type RlcLoop, stateAt, stateIntegral, type Vec2 } from "../physics/rlc-series.js";
+import type { LoadModel } from "../solve/load-model.js";
+import type { StageModel } from "../stages/stage-model.js";
+import { type ControllerTurnOff, reversePath, stageBreakdownV } from "./reverse-path.js";
+import { type LoopCharacter, loadLine, loopCharacter, type PhaseEnergies, phaseEnergies } from "./turn-off-loop.js";
+
+export interface TurnOffModel {
+  readonly stage: StageModel;
+  /** Output (capacitor) voltage before the event, in steady state (no capacitor current), V. */
+  readonly outputV: number;
+  /** Input voltage from t = 0 on: 0 for a short, or the lower voltage it steps to, V. */
+  readonly inputAfterV: number;
+  /** Source and wiring resistance of the loop, without the stage, ohm. */
+  readonly loopResistanceOhm: number;
+  readonly loopInductanceH: number;
+  readonly capacitanceF: number;
+  readonly esrOhm: number;
+  readonly load: LoadModel;
+  /** The load's minimum operating voltage, V. */
+  readonly loadMinV: number;
+  readonly tjC: number;
+  readonly controller?: ControllerTurnOff;
+  /** A diode stage's reverse-recovery charge, C (0: ideal). */
+  readonly reverseRecoveryChargeC?: number;
+  /** Voltage the blocking element clamps at (avalanche or TVS), V; default its rated voltage. */
+  readonly clampV?: number;
+  /** Single-pulse avalanche energy rating, J. */
+  readonly avalancheRatingJ?: number;
+}
+
+export interface WindowState {
+  readonly timeS: number;
+  readonly currentA: number;
+  readonly outputV: number;
+  readonly capacitorV: number;
+  readonly chargeLostC: number;
+  readonly voltageLostV: number;
+}
+
+export interface TurnOffCommon {
+  readonly loop: LoopCharacter & { readonly totalResistanceOhm: number; readonly stageResistanceOhm: number };
+  readonly loadMethod: string;
+  readonly initialCurrentA: number;
+  /** di/dt at t = 0+, A/s: (inputAfter − inputBefore)/L. */
+  readonly initialSlopeAPerS: number;
+  readonly peakReverseCurrentA: number;
+  readonly peakReverseTimeS: number;
+  readonly end: WindowState;
+  readonly energies: PhaseEnergies;
+}
+
+export interface ClampPhase {
+  readonly clampV: number;
+  readonly currentAtTurnOffA: number;
+  /** ½·L·I² at turn-off, J. */
+  readonly inductiveEnergyJ: number;
+  /** ½·L·I²·Vcl/(Vcl − Vs), Vs = output − input at turn-off (unclamped inductive switching). */
+  readonly clampedFormulaJ: number;
+  /** Vcl·∫|i|dt over the clamp phase from the exact loop response, J. */
+  readonly absorbedJ: number;
+  readonly durationS: number;
+  readonly avalancheRatingJ?: number;
+  readonly withinAvalancheRating?: boolean;
+  readonly after: WindowState;
+  readonly energies: PhaseEnergies;
+}
+
+export type TurnOffOutcome =
+  | ({ readonly outcome: "blocks"; readonly turnOffS: number; readonly detectS?: number; readonly clamp?: ClampPhase } & TurnOffCommon)
+  | ({ readonly outcome: "does-not-block"; readonly reason: string; readonly fallsBelowMinS?: number; readonly settlesAtV: number } & TurnOffCommon)
+  | ({ readonly outcome: "stays-on"; readonly reason: string } & TurnOffCommon)
+  | { readonly outcome: "clamp-below-drive"; readonly reason: string; readonly clampV: number; readonly driveV: number; readonly currentAtTurnOffA: number }
+  | { readonly outcome: "invalid-load-line"; readonly reason: string; readonly path: string };
+
+/**
+ * Reverse-current event at an input that falls at t = 0, on the closed-form R-L-C response
+ * (domain/physics/rlc-series.ts): the stage's channel (or a diode's series resistance) in the
+ * loop until it turns off, then — for a blocking stage with reverse current — a clamp phase in
+ * which the blocking element holds Vcl until the loop current returns to zero (the same closed
+ * form with Vs + Vcl as source). A diode's junction drop is not in the loop (it shifts the
+ * pre-event input only); the channel resistance is held at its pre-event value.
+ */
+export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
+  const tK = cToK(m.tjC);
+  const line = loadLine(m.load, m.outputV);
+  if (!(1 + m.esrOhm * line.conductanceS > 0)) {
+    return { outcome: "invalid-load-line", reason: "the capacitor ESR exceeds V²/P of the constant-power load: the linearised loop has no meaning", path: "esrOhm" };
+  }
+  const i0 = line.currentA + line.conductanceS * m.outputV;
+  const vinBefore = m.outputV + i0 * m.loopResistanceOhm;
+  const path = reversePath(m.stage, tK, vinBefore, m.inputAfterV, m.outputV, m.controller);
+  const stageOhm = path.kind === "diode" ? path.seriesOhm : path.channelOhm;
+  const loop: RlcLoop = {
+    sourceV: m.inputAfterV,
+    loopResistanceOhm: m.loopResistanceOhm + stageOhm,
+    inductanceH: m.loopInductanceH,
+    capacitanceF: m.capacitanceF,
+    esrOhm: m.esrOhm,
+    loadCurrentA: line.currentA,
+    loadConductanceS: line.conductanceS,
+  };
+  const s = loopSystem(loop);
+  if (!(det2(s) > 0)) {
+    return { outcome: "invalid-load-line", reason: "the constant-power load's tangent makes the loop unstable (R·P/V² ≥ 1): the output collapses", path: "load" };
+  }
+  const x0: Vec2 = [i0, m.outputV];
+  const ch = loopCharacter(s);
+  const horizon = ch.decayPerS > 0 ? 60 / ch.decayPerS : (400 * Math.PI) / Math.max(ch.naturalRadPerS, 1e-300);
+  const common = (tEnd: number): TurnOffCommon => {
+    const peak = peakReverse(s, x0, tEnd);
+    return {
+      loop: { ...ch, totalResistanceOhm: loop.loopResistanceOhm, stageResistanceOhm: stageOhm },
+      loadMethod: line.method,
+      initialCurrentA: i0,
+      initialSlopeAPerS: (m.inputAfterV - vinBefore - i0 * stageOhm) / m.loopInductanceH,
+      peakReverseCurrentA: peak.currentA,
+      peakReverseTimeS: peak.timeS,
+      end: windowState(loop, x0, tEnd, m.outputV),
+      energies: phaseEnergies(loop, x0, tEnd, 0),
+    };
+  };
+
+  let turnOffS: number;
+  let detectS: number | undefined;
+  switch (path.kind) {
+    case "channel-stays-on": {
+      const k = 1 / (1 + m.esrOhm * line.conductanceS);
+      const level = m.loadMinV + k * m.esrOhm * line.currentA;
+      const fall = firstCrossing(s, x0, [k * m.esrOhm, k], level, horizon);
+      const settles = outputV(loop, stateAt(s, x0, horizon));
+      const c = common(fall ?? horizon);
+      const reason = path.reason;
+      return fall === undefined ? { outcome: "does-not-block", reason, settlesAtV: settles, ...c } : { outcome: "does-not-block", reason, fallsBelowMinS: fall, settlesAtV: settles, ...c };
+    }
+    case "controller": {
+      const t = firstCrossing(s, x0, [1, 0], -path.tripCurrentA, horizon);
+      if (t === undefined) {
+        return { outcome: "stays-on", reason: `the reverse current never reaches the trip level ${path.tripCurrentA.toPrecision(4)} A (threshold / Rds(on)): the controller keeps the channel on`, ...common(horizon) };
+      }
+      detectS = t;
+      turnOffS = t + path.offDelayS;
+      break;
+    }
+    case "gate-falls":
+      turnOffS = path.offDelayS;
+      break;
+    case "diode": {
+      const t0 = firstCrossing(s, x0, [1, 0], 0, horizon);
+      if (t0 === undefined) return { outcome: "stays-on", reason: "the diode current never reverses: it stays forward biased", ...common(horizon) };
+      turnOffS = recoveryEnd(s, x0, t0, m.reverseRecoveryChargeC ?? 0, horizon);
+      detectS = t0;
+      break;
+    }
+  }
+  const c = common(turnOffS);
+  const base = { outcome: "blocks" as const, turnOffS, ...(detectS === undefined ? {} : { detectS }), ...c };
+  const xOff = stateAt(s, x0, turnOffS);
+  if (!(xOff[0] < 0)) return base;
+  const clampV = m.clampV ?? stageBreakdownV(m.stage);
+  const driveV = outputV(loop, xOff) - m.inputAfterV;
+  if (!(clampV > driveV)) {
+    return { outcome: "clamp-below-drive", reason: `the clamp voltage ${clampV} V does not exceed the output-to-input voltage ${driveV.toPrecision(4)} V: the reverse current cannot be turned off`, clampV, driveV, currentAtTurnOffA: -xOff[0] };
+  }
+  const clampLoop: RlcLoop = { ...loop, sourceV: m.inputAfterV + clampV, loopResistanceOhm: m.loopResistanceOhm };
+  const sc = loopSystem(clampLoop);
+  const cch = loopCharacter(sc);
+  const ramp = (m.loopInductanceH * -xOff[0]) / (clampV - driveV);
+  const end = firstCrossing(sc, xOff, [1, 0], 0, Math.max(50 * ramp, cch.decayPerS > 0 ? 60 / cch.decayPerS : 50 * ramp)) ?? 0;
+  const energies = phaseEnergies(clampLoop, xOff, end, clampV);
+  const inductiveEnergyJ = 0.5 * m.loopInductanceH * xOff[0] * xOff[0];
+  const absorbedJ = energies.clampJ;
+  const clamp: ClampPhase = {
+    clampV,
+    currentAtTurnOffA: -xOff[0],
+    inductiveEnergyJ,
+    clampedFormulaJ: (inductiveEnergyJ * clampV) / (clampV - driveV),
+    absorbedJ,
+    durationS: end,
+    ...(m.avalancheRatingJ === undefined ? {} : { avalancheRatingJ: m.avalancheRatingJ, withinAvalancheRating: absorbedJ <= m.avalancheRatingJ }),
+    after: windowState(clampLoop, xOff, end, m.outputV, turnOffS),
+    energies,
+  };
+  return { ...base, clamp };
+}
+
+function windowState(p: RlcLoop, x0: Vec2, t: number, v0: number, offsetS = 0): WindowState {
+  const x = stateAt(loopSystem(p), x0, t);
+  return { timeS: offsetS + t, currentA: x[0], outputV: outputV(p, x), capacitorV: x[1], chargeLostC: p.capacitanceF * (v0 - x[1]), voltageLostV: v0 - x[1] };
+}
+
+/** Largest −i(t) on [0, tEnd]: the end points and the first two extrema of i. */
+function peakReverse(s: ReturnType<typeof loopSystem>, x0: Vec2, tEnd: number): { currentA: number; timeS: number } {
+  let best = { currentA: 0, timeS: 0 };
+  for (const t of [0, ...extremaTimes(s, x0, [1, 0], tEnd, 2), tEnd]) {
+    const rev = -stateAt(s, x0, t)[0];
+    if (rev > best.currentA) best = { currentA: rev, timeS: t };
+  }
+  return best;
+}
+
+/**
+ * Charge-control view of reverse recovery: after the current crosses zero at t0 the diode
+ * conducts in reverse until the charge Qrr has been drawn out (∫ from t0 of −i = Qrr), then it
+ * snaps off. If the first reverse lobe ends first, the diode recovers there at zero current.
+ */
+function recoveryEnd(s: ReturnType<typeof loopSystem>, x0: Vec2, t0: number, qrrC: number, horizon: number): number {
+  if (!(qrrC > 0)) return t0;
+  const x1 = stateAt(s, x0, t0);
+  // The lobe ends where i returns to zero after its (first) extremum.
+  const tMin = extremaTimes(s, x1, [1, 0], horizon, 1)[0];
+  const back = tMin === undefined ? undefined : firstCrossing(s, stateAt(s, x1, tMin), [1, 0], 0, horizon);
+  const lobeEnd = tMin === undefined || back === undefined ? horizon : tMin + back;
+  const drawn = (t: number): number => -stateIntegral(s, x1, t)[0] - qrrC;
+  if (drawn(lobeEnd) < 0) return t0 + lobeEnd;
+  let lo = 0;
+  let hi = lobeEnd;
+  for (let i = 0; i < 200 && hi - lo > 1e-15 * hi; i += 1) {
+    const mid = 0.5 * (lo + hi);
+    if (drawn(mid) < 0) lo = mid;
+    else hi = mid;
+  }
+  return t0 + 0.5 * (lo + hi);
+}

@@ -1,0 +1,96 @@
+import {
+  det2,
+  gaussLegendre,
+  type Linear2,
+  loopSystem,
+  outputV,
+  type RlcLoop,
+  slowestDecayPerS,
+  stateAt,
+  stateIntegral,
+  type Vec2,
+} from "../physics/rlc-series.js";
+import type { LoadModel } from "../solve/load-model.js";
+
+/**
+ * How each load enters the loop: i_load = I + G·v_out.
+ * constant-current: exact (I = load current, G = 0); resistive: exact (I = 0, G = 1/R);
+ * constant-power: linearised on its tangent at the pre-event output V0 (I = 2P/V0, G = −P/V0²),
+ * exact at V0 and accurate while the output stays near V0 (error ≈ P·(ΔV/V0)²/V0 in current).
+ */
+export function loadLine(load: LoadModel, v0: number): { currentA: number; conductanceS: number; method: string } {
+  switch (load.kind) {
+    case "constant-current":
+      return { currentA: load.currentA, conductanceS: 0, method: "constant-current source term (exact)" };
+    case "resistive":
+      return { currentA: 0, conductanceS: 1 / load.resistanceOhm, method: "resistor in the second-order system (exact)" };
+    case "constant-power":
+      return {
+        currentA: (2 * load.powerW) / v0,
+        conductanceS: -load.powerW / (v0 * v0),
+        method: "constant power linearised on its tangent at the pre-event output voltage",
+      };
+  }
+}
+
+export type DampingRegime = "under-damped" | "critically-damped" | "over-damped";
+
+export interface LoopCharacter {
+  readonly regime: DampingRegime;
+  /** ζ = −m/√det(A); 1 for critical damping (a series R-L-C: ζ = (R/2)·√(C/L)). */
+  readonly dampingRatio: number;
+  /** Undamped natural frequency √det(A), rad/s. */
+  readonly naturalRadPerS: number;
+  /** Slowest decay rate of the natural response, 1/s. */
+  readonly decayPerS: number;
+}
+
+export function loopCharacter(s: Linear2): LoopCharacter {
+  const m = (s.a11 + s.a22) / 2;
+  const d = det2(s);
+  const q = m * m - d;
+  const regime: DampingRegime = Math.abs(q) <= 1e-12 * Math.max(m * m, Math.abs(d)) ? "critically-damped" : q < 0 ? "under-damped" : "over-damped";
+  const wn = Math.sqrt(Math.max(d, 0));
+  return { regime, dampingRatio: wn > 0 ? -m / wn : 0, naturalRadPerS: wn, decayPerS: slowestDecayPerS(s) };
+}
+
+/** Energies over [0, t] of a loop phase, J. Dissipations by Gauss-Legendre on the closed form. */
+export interface PhaseEnergies {
+  readonly capacitorLostJ: number;
+  readonly inductorLostJ: number;
+  /** Energy the input source delivered into the loop: Vs·∫i dt (negative: it absorbed it). */
+  readonly sourceDeliveredJ: number;
+  readonly loopResistanceJ: number;
+  readonly esrJ: number;
+  readonly loadJ: number;
+  /** Energy absorbed by a clamp voltage in the loop: Vcl·|∫i dt| (0 without a clamp). */
+  readonly clampJ: number;
+  /** (lost + delivered − dissipated − clamp) / lost: the energy-balance residual. */
+  readonly balanceResidual: number;
+}
+
+export function phaseEnergies(p: RlcLoop, x0: Vec2, t: number, clampV: number): PhaseEnergies {
+  const s = loopSystem(p);
+  const x = stateAt(s, x0, t);
+  const q = stateIntegral(s, x0, t);
+  const rate = Math.abs(s.a11) + Math.abs(s.a22) + Math.sqrt(Math.abs(det2(s)));
+  const panels = Math.min(50_000, Math.ceil(200 + 4 * t * rate));
+  const rLoop = p.loopResistanceOhm;
+  const dissip = (f: (xs: Vec2) => number): number => gaussLegendre((tt) => f(stateAt(s, x0, tt)), 0, t, panels);
+  const loadA = (xs: Vec2): number => p.loadCurrentA + p.loadConductanceS * outputV(p, xs);
+  const loopResistanceJ = dissip((xs) => rLoop * xs[0] * xs[0]);
+  const esrJ = dissip((xs) => {
+    const ic = xs[0] - loadA(xs);
+    return p.esrOhm * ic * ic;
+  });
+  const loadJ = dissip((xs) => outputV(p, xs) * loadA(xs));
+  const capacitorLostJ = 0.5 * p.capacitanceF * (x0[1] * x0[1] - x[1] * x[1]);
+  const inductorLostJ = 0.5 * p.inductanceH * (x0[0] * x0[0] - x[0] * x[0]);
+  // The clamp is part of sourceV in the loop equations; split it out of the source term.
+  const sourceDeliveredJ = (p.sourceV - clampV) * q[0];
+  const clampJ = -clampV * q[0];
+  const lost = capacitorLostJ + inductorLostJ + sourceDeliveredJ;
+  const used = loopResistanceJ + esrJ + loadJ + clampJ;
+  const scale = Math.max(Math.abs(capacitorLostJ) + Math.abs(inductorLostJ) + Math.abs(sourceDeliveredJ), 1e-300);
+  return { capacitorLostJ, inductorLostJ, sourceDeliveredJ, loopResistanceJ, esrJ, loadJ, clampJ, balanceResidual: (lost - used) / scale };
+}

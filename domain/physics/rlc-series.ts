@@ -1,0 +1,222 @@
+/**
+ * Closed-form response of a series R-L-C loop: a source Vs behind a loop resistance R and
+ * inductance L feeds an output node held by a capacitor C (with series ESR) and a load whose
+ * current is affine in the output voltage, i_load = I + G·v_out (a constant-current load: G = 0;
+ * a resistor: I = 0, G = 1/R; a constant-power load linearised at V0: I = 2P/V0, G = −P/V0²).
+ *
+ * State x = (i, v_C), loop current i positive from source to output, capacitor voltage v_C:
+ *   v_out = k·(v_C + ESR·(i − I)),  k = 1/(1 + ESR·G)
+ *   L·di/dt  = Vs − R·i − v_out
+ *   C·dvC/dt = i − I − G·v_out
+ * which is x' = A·x + b with constant A, b. Its exact solution (textbook linear circuit theory)
+ * is x(t) = xp + e^(At)·(x0 − xp), xp = −A⁻¹·b, and for a 2×2 matrix (Cayley-Hamilton / Putzer)
+ *   e^(At) = e^(m·t)·[c(t)·I + s(t)·(A − m·I)],  m = tr(A)/2,  q = m² − det(A),
+ * with c = cos(ωt), s = sin(ωt)/ω, ω = √−q (under-damped); c = cosh(βt), s = sinh(βt)/β, β = √q
+ * (over-damped); c = 1, s = t (critically damped). The three regimes are one formula.
+ */
+export interface Linear2 {
+  readonly a11: number;
+  readonly a12: number;
+  readonly a21: number;
+  readonly a22: number;
+  readonly b1: number;
+  readonly b2: number;
+}
+export type Vec2 = readonly [number, number];
+
+export interface RlcLoop {
+  readonly sourceV: number;
+  readonly loopResistanceOhm: number;
+  readonly inductanceH: number;
+  readonly capacitanceF: number;
+  readonly esrOhm: number;
+  /** Load current at zero output voltage, A, and its slope dI/dV, S: i_load = I + G·v_out. */
+  readonly loadCurrentA: number;
+  readonly loadConductanceS: number;
+}
+
+/** The loop as x' = A·x + b; k = 1/(1 + ESR·G) must be positive (checked by the caller). */
+export function loopSystem(p: RlcLoop): Linear2 {
+  const k = 1 / (1 + p.esrOhm * p.loadConductanceS);
+  const l = p.inductanceH;
+  const c = p.capacitanceF;
+  return {
+    a11: -(p.loopResistanceOhm + k * p.esrOhm) / l,
+    a12: -k / l,
+    b1: (p.sourceV + k * p.esrOhm * p.loadCurrentA) / l,
+    a21: k / c,
+    a22: (-p.loadConductanceS * k) / c,
+    b2: (-k * p.loadCurrentA) / c,
+  };
+}
+
+/** Output voltage and load current from the state. */
+export function outputV(p: RlcLoop, x: Vec2): number {
+  const k = 1 / (1 + p.esrOhm * p.loadConductanceS);
+  return k * (x[1] + p.esrOhm * (x[0] - p.loadCurrentA));
+}
+
+export function det2(s: Linear2): number {
+  return s.a11 * s.a22 - s.a12 * s.a21;
+}
+
+/** e^(m·t)·c(t) and e^(m·t)·s(t), overflow-free in every regime. */
+export function dampedPair(s: Linear2, t: number): { ec: number; es: number } {
+  const m = (s.a11 + s.a22) / 2;
+  const q = m * m - det2(s);
+  const scale = Math.max(m * m, Math.abs(det2(s)), 1e-300);
+  const e = Math.exp(m * t);
+  if (Math.abs(q) <= 1e-12 * scale) {
+    return { ec: e, es: e * t };
+  }
+  if (q < 0) {
+    const w = Math.sqrt(-q);
+    const wt = w * t;
+    return { ec: e * Math.cos(wt), es: wt < 1e-6 ? e * t * (1 - (wt * wt) / 6) : (e * Math.sin(wt)) / w };
+  }
+  const b = Math.sqrt(q);
+  const bt = b * t;
+  if (bt < 1e-4) return { ec: e * (1 + (bt * bt) / 2), es: e * t * (1 + (bt * bt) / 6) };
+  // m ± β; the root nearer zero through the product of the eigenvalues, without cancellation.
+  const fast = m - b;
+  const slow = m < 0 ? det2(s) / fast : m + b;
+  const eSlow = Math.exp(slow * t);
+  const eFast = Math.exp(fast * t);
+  return { ec: (eSlow + eFast) / 2, es: (eSlow - eFast) / (2 * b) };
+}
+
+/** e^(At)·v. */
+export function expApply(s: Linear2, t: number, v: Vec2): Vec2 {
+  const m = (s.a11 + s.a22) / 2;
+  const { ec, es } = dampedPair(s, t);
+  return [ec * v[0] + es * ((s.a11 - m) * v[0] + s.a12 * v[1]), ec * v[1] + es * (s.a21 * v[0] + (s.a22 - m) * v[1])];
+}
+
+/** A⁻¹·v; the caller guarantees det(A) ≠ 0. */
+export function inverseApply(s: Linear2, v: Vec2): Vec2 {
+  const d = det2(s);
+  return [(s.a22 * v[0] - s.a12 * v[1]) / d, (-s.a21 * v[0] + s.a11 * v[1]) / d];
+}
+
+export function particular(s: Linear2): Vec2 {
+  const p = inverseApply(s, [s.b1, s.b2]);
+  return [-p[0], -p[1]];
+}
+
+/** Exact state x(t). */
+export function stateAt(s: Linear2, x0: Vec2, t: number): Vec2 {
+  const xp = particular(s);
+  const y = expApply(s, t, [x0[0] - xp[0], x0[1] - xp[1]]);
+  return [xp[0] + y[0], xp[1] + y[1]];
+}
+
+/** Exact derivative x'(t) = e^(At)·(A·x0 + b). */
+export function rateAt(s: Linear2, x0: Vec2, t: number): Vec2 {
+  return expApply(s, t, [s.a11 * x0[0] + s.a12 * x0[1] + s.b1, s.a21 * x0[0] + s.a22 * x0[1] + s.b2]);
+}
+
+/** Exact ∫₀ᵗ x dt = xp·t + A⁻¹·(e^(At) − I)·(x0 − xp). */
+export function stateIntegral(s: Linear2, x0: Vec2, t: number): Vec2 {
+  const xp = particular(s);
+  const y0: Vec2 = [x0[0] - xp[0], x0[1] - xp[1]];
+  const y = expApply(s, t, y0);
+  const r = inverseApply(s, [y[0] - y0[0], y[1] - y0[1]]);
+  return [xp[0] * t + r[0], xp[1] * t + r[1]];
+}
+
+/**
+ * Times in (0, tMax] where w·x'(t) = 0, i.e. the extrema of the output w·x, ascending, at most
+ * maxCount. w·x'(t) = e^(mt)·(d·c(t) + g·s(t)) with d = w·x'(0), g = w·(A − mI)·x'(0): zeros at
+ * (kπ − ψ)/ω, ψ = atan2(d, g/ω) when under-damped; at most one, atanh(β·τ)/β with τ = −d/g,
+ * otherwise.
+ */
+export function extremaTimes(s: Linear2, x0: Vec2, w: Vec2, tMax: number, maxCount: number): number[] {
+  const m = (s.a11 + s.a22) / 2;
+  const q = m * m - det2(s);
+  const r0 = rateAt(s, x0, 0);
+  const d = w[0] * r0[0] + w[1] * r0[1];
+  const g = w[0] * ((s.a11 - m) * r0[0] + s.a12 * r0[1]) + w[1] * (s.a21 * r0[0] + (s.a22 - m) * r0[1]);
+  const scale = Math.max(m * m, Math.abs(det2(s)), 1e-300);
+  const out: number[] = [];
+  if (q < -1e-12 * scale) {
+    const om = Math.sqrt(-q);
+    const psi = Math.atan2(d, g / om);
+    for (let k = psi > 0 ? 1 : 0; out.length < maxCount; k += 1) {
+      const t = (k * Math.PI - psi) / om;
+      if (t > tMax) break;
+      if (t > 0) out.push(t);
+    }
+    return out;
+  }
+  if (g === 0) return out;
+  const tau = -d / g;
+  if (!(tau > 0)) return out;
+  const beta = Math.sqrt(Math.max(q, 0));
+  const x = beta * tau;
+  if (x >= 1) return out;
+  const t = x < 1e-6 ? tau * (1 + (x * x) / 3) : Math.atanh(x) / beta;
+  if (t <= tMax) out.push(t);
+  return out;
+}
+
+/**
+ * First time in [0, tMax] at which y(t) = w·x(t) reaches `level`, or undefined. Between
+ * consecutive extrema y is monotone, so each segment holds at most one crossing, which is then
+ * closed by bisection to 1e-15 of the segment (the closed form is cheap).
+ */
+export function firstCrossing(s: Linear2, x0: Vec2, w: Vec2, level: number, tMax: number): number | undefined {
+  const y = (t: number): number => {
+    const x = stateAt(s, x0, t);
+    return w[0] * x[0] + w[1] * x[1] - level;
+  };
+  const y0 = y(0);
+  if (y0 === 0) return 0;
+  const ends = [...extremaTimes(s, x0, w, tMax, 4000), tMax];
+  let a = 0;
+  let fa = y0;
+  for (const b of ends) {
+    const fb = y(b);
+    if (fb === 0) return b;
+    if (fa * fb < 0) {
+      let lo = a;
+      let hi = b;
+      let flo = fa;
+      for (let i = 0; i < 200 && hi - lo > 1e-15 * Math.max(hi, 1e-300); i += 1) {
+        const mid = 0.5 * (lo + hi);
+        const fm = y(mid);
+        if (fm === 0) return mid;
+        if (fm * flo < 0) hi = mid;
+        else {
+          lo = mid;
+          flo = fm;
+        }
+      }
+      return 0.5 * (lo + hi);
+    }
+    a = b;
+    fa = fb;
+  }
+  return undefined;
+}
+
+/** The slowest decay rate of the loop's natural response, 1/s (> 0 when it decays). */
+export function slowestDecayPerS(s: Linear2): number {
+  const m = (s.a11 + s.a22) / 2;
+  const q = m * m - det2(s);
+  if (q <= 0) return -m;
+  const b = Math.sqrt(q);
+  return m < 0 ? -det2(s) / (m - b) : -(m + b);
+}
+
+/** Composite 5-point Gauss-Legendre quadrature of f on [a, b] with n panels. */
+export function gaussLegendre(f: (t: number) => number, a: number, b: number, n: number): number {
+  const xs = [0, -0.5384693101056831, 0.5384693101056831, -0.906179845938664, 0.906179845938664];
+  const ws = [0.5688888888888889, 0.4786286704993665, 0.4786286704993665, 0.2369268850561891, 0.2369268850561891];
+  const h = (b - a) / n;
+  let sum = 0;
+  for (let i = 0; i < n; i += 1) {
+    const mid = a + (i + 0.5) * h;
+    for (let j = 0; j < 5; j += 1) sum += (ws[j] ?? 0) * f(mid + 0.5 * h * (xs[j] ?? 0));
+  }
+  return 0.5 * h * sum;
+}

@@ -1,0 +1,163 @@
+import { describe, expect, it } from "vitest";
+import { type TurnOffModel, turnOffEvent } from "../../../domain/checks/turn-off-event.js";
+import { extremaTimes, loopSystem, type RlcLoop, stateAt } from "../../../domain/physics/rlc-series.js";
+import { toolAvailable } from "../../helpers/external-tool.js";
+import { runNgspice } from "../../helpers/ngspice.js";
+import { relativeError } from "../../helpers/tolerance.js";
+import { idealDiodeStage, lowSideStage, pfetStage, schottkyStage } from "../../fixtures/reverse-stages.js";
+
+/**
+ * Independent oracle: classical RK4 on the raw circuit (KCL at the output node solved for v_out
+ * each step: i = (v_out − v_C)/ESR + I + G·v_out), fixed step, no use of the closed form.
+ */
+function rk4Loop(p: RlcLoop, x0: readonly [number, number], tEnd: number, steps: number): { t: number; i: number; vc: number }[] {
+  const f = (i: number, vc: number): [number, number] => {
+    const v = (i - p.loadCurrentA + vc / p.esrOhm) / (1 / p.esrOhm + p.loadConductanceS);
+    return [(p.sourceV - p.loopResistanceOhm * i - v) / p.inductanceH, (v - vc) / p.esrOhm / p.capacitanceF];
+  };
+  const h = tEnd / steps;
+  let [i, vc] = x0;
+  const out = [{ t: 0, i, vc }];
+  for (let k = 1; k <= steps; k += 1) {
+    const k1 = f(i, vc);
+    const k2 = f(i + (h / 2) * k1[0], vc + (h / 2) * k1[1]);
+    const k3 = f(i + (h / 2) * k2[0], vc + (h / 2) * k2[1]);
+    const k4 = f(i + h * k3[0], vc + h * k3[1]);
+    i += (h / 6) * (k1[0] + 2 * k2[0] + 2 * k3[0] + k4[0]);
+    vc += (h / 6) * (k1[1] + 2 * k2[1] + 2 * k3[1] + k4[1]);
+    out.push({ t: k * h, i, vc });
+  }
+  return out;
+}
+
+const base: RlcLoop = { sourceV: 0, loopResistanceOhm: 0.01, inductanceH: 1e-6, capacitanceF: 100e-6, esrOhm: 0.005, loadCurrentA: 2, loadConductanceS: 0 };
+// Series R-L-C: ζ = (Rt/2)·√(C/L); Rt = 0.2 ohm is critical for L = 1 µH, C = 100 µF (textbook).
+const cases: [string, RlcLoop][] = [
+  ["under-damped, constant-current load", base],
+  ["critically damped", { ...base, loopResistanceOhm: 0.195 }],
+  ["over-damped", { ...base, loopResistanceOhm: 1.5 }],
+  ["under-damped, resistive load", { ...base, loadCurrentA: 0, loadConductanceS: 1 / 6 }],
+  ["over-damped, resistive load", { ...base, loopResistanceOhm: 0.8, loadCurrentA: 0, loadConductanceS: 1 / 6 }],
+];
+
+describe("series R-L-C closed form", () => {
+  // Source: independent numerical integration (RK4) of the same circuit; peak within 0.5 %.
+  it.each(cases)("%s: state and peak reverse current agree with RK4", (_name, p) => {
+    const s = loopSystem(p);
+    const x0: [number, number] = [p.loadCurrentA + p.loadConductanceS * 12, 12];
+    const tEnd = 200e-6;
+    const rows = rk4Loop(p, x0, tEnd, 40_000);
+    let peakRk = 0;
+    let maxErr = 0;
+    for (const r of rows) {
+      const x = stateAt(s, x0, r.t);
+      peakRk = Math.max(peakRk, -r.i);
+      maxErr = Math.max(maxErr, Math.abs(x[0] - r.i));
+    }
+    let peakCf = 0;
+    for (const t of [0, ...extremaTimes(s, x0, [1, 0], tEnd, 2), tEnd]) peakCf = Math.max(peakCf, -stateAt(s, x0, t)[0]);
+    expect(relativeError(peakCf, peakRk)).toBeLessThan(0.005);
+    expect(maxErr).toBeLessThan(1e-6 * Math.max(peakRk, 1));
+  });
+
+  // Source: continuity of the one formula across the regimes (c, s → 1, t at q = 0).
+  it("is continuous through critical damping", () => {
+    const at = (r: number): number => stateAt(loopSystem({ ...base, loopResistanceOhm: r }), [2, 12], 7e-6)[0];
+    const crit = at(0.195);
+    expect(relativeError(at(0.195 * (1 + 1e-9)), crit)).toBeLessThan(1e-6);
+    expect(relativeError(at(0.195 * (1 - 1e-9)), crit)).toBeLessThan(1e-6);
+  });
+
+  const hasSpice = toolAvailable("ngspice");
+  // Source: ngspice 39 transient of the same loop (UIC, inductor and capacitor initial conditions).
+  it.skipIf(!hasSpice)("peak reverse current matches ngspice within 0.5 %", () => {
+    const rows = runNgspice(`loop
+V1 in 0 DC 0
+R1 in a 0.01
+L1 a out 1u IC=2
+Resr out c 5m
+C1 c 0 100u IC=12
+I1 out 0 DC 2
+.tran 1n 100u UIC
+.control
+set wr_singlescale
+run
+wrdata out.txt l1#branch
+quit
+.endc
+.end
+`);
+    const spicePeak = Math.max(...rows.map((r) => -(r[1] ?? 0)));
+    const s = loopSystem(base);
+    const t = extremaTimes(s, [2, 12], [1, 0], 100e-6, 1)[0] ?? 0;
+    expect(relativeError(-stateAt(s, [2, 12], t)[0], spicePeak)).toBeLessThan(0.005);
+  });
+});
+
+const event: TurnOffModel = {
+  stage: idealDiodeStage,
+  outputV: 12,
+  inputAfterV: 0,
+  loopResistanceOhm: 0.01,
+  loopInductanceH: 1e-6,
+  capacitanceF: 100e-6,
+  esrOhm: 0.005,
+  load: { kind: "constant-current", currentA: 2 },
+  loadMinV: 9,
+  tjC: 25,
+  controller: { reverseThresholdV: 0.03, turnOffDelayS: 1e-6, gateChargeC: 30e-9, gateSinkCurrentA: 0.03 },
+  avalancheRatingJ: 0.05,
+};
+
+describe("turn-off event", () => {
+  it("controller: trips at threshold/Rds, turns off after the delay, clamp energy balances", () => {
+    const r = turnOffEvent(event);
+    expect(r.outcome).toBe("blocks");
+    if (r.outcome !== "blocks" || r.clamp === undefined) return;
+    // Source: the controller model itself: Rds(on) 5 mΩ at 10 V → trip at 0.03/0.005 = 6 A.
+    const detect = r.detectS ?? 0;
+    expect(r.turnOffS - detect).toBeCloseTo(2e-6, 12);
+    // Source: di/dt = ΔV/L at the start (REFERENCES.md, turn-off): −(12 + 2·0.015)/1 µH.
+    expect(relativeError(r.initialSlopeAPerS, -(12 + 2 * 0.015) / 1e-6)).toBeLessThan(1e-9);
+    // Source: energy conservation over the conduction phase and over the clamp phase, 0.1 %.
+    expect(Math.abs(r.energies.balanceResidual)).toBeLessThan(1e-3);
+    expect(Math.abs(r.clamp.energies.balanceResidual)).toBeLessThan(1e-3);
+    expect(r.peakReverseCurrentA).toBeCloseTo(r.clamp.currentAtTurnOffA, 9);
+    expect(r.clamp.withinAvalancheRating).toBe(r.clamp.absorbedJ <= 0.05);
+  });
+
+  // Source: REFERENCES.md, E = ½·L·I²·Vcl/(Vcl − Vs) (unclamped inductive switching), which the
+  // exact clamp phase approaches when R → 0 and C is large (the drive voltage stays constant).
+  it("exact clamp energy approaches the clamped-inductance formula for a stiff output", () => {
+    const r = turnOffEvent({ ...event, loopResistanceOhm: 1e-6, esrOhm: 1e-6, capacitanceF: 1 });
+    if (r.outcome !== "blocks" || r.clamp === undefined) throw new Error(r.outcome);
+    expect(relativeError(r.clamp.absorbedJ, r.clamp.clampedFormulaJ)).toBeLessThan(2e-3);
+    expect(r.clamp.absorbedJ).toBeGreaterThan(r.clamp.inductiveEnergyJ);
+  });
+
+  it("P-FET does not block: the output drains into the short and falls below the minimum", () => {
+    const r = turnOffEvent({ ...event, stage: pfetStage, load: { kind: "resistive", resistanceOhm: 6 } });
+    expect(r.outcome).toBe("does-not-block");
+    if (r.outcome !== "does-not-block") return;
+    expect(r.fallsBelowMinS).toBeGreaterThan(0);
+    // Source: energy conservation (0.1 %) up to the time the output reaches its minimum.
+    expect(Math.abs(r.energies.balanceResidual)).toBeLessThan(1e-3);
+    expect(r.end.outputV).toBeCloseTo(9, 6);
+  });
+
+  it("low-side N-FET: a hard short removes its gate drive (blocks); a lower input keeps it on", () => {
+    expect(turnOffEvent({ ...event, stage: lowSideStage }).outcome).toBe("blocks");
+    expect(turnOffEvent({ ...event, stage: lowSideStage, inputAfterV: 10 }).outcome).toBe("does-not-block");
+  });
+
+  // Source: charge-control recovery: the reverse charge drawn after the zero crossing equals Qrr.
+  it("diode: reverse current flows until Qrr is drawn", () => {
+    const qrr = 50e-9;
+    const r = turnOffEvent({ ...event, stage: schottkyStage, reverseRecoveryChargeC: qrr });
+    if (r.outcome !== "blocks") throw new Error(r.outcome);
+    const zero = r.detectS ?? 0;
+    // with di/dt ≈ −ΔV/L near the zero crossing, Q = ½·(dI/dt)·t² → t = √(2Q/|di/dt|)
+    const slope = Math.abs(r.initialSlopeAPerS);
+    expect(relativeError(r.turnOffS - zero, Math.sqrt((2 * qrr) / slope))).toBeLessThan(0.01);
+  });
+});
