@@ -73,6 +73,7 @@ export const requirement = z
     energyPricePerKWh: z.number().gte(0).lte(1e4).optional().meta({ description: "price of a kWh in the caller's currency" }),
     battery: z.object({ capacityAh: quantity("A*h", "battery capacity", { gt: 0, le: 1e6 }), usableFraction: ratio("usable share of the capacity", { gt: 0, le: 1 }) }).optional(),
     standbyBudgetA: quantity("A", "standby current budget for the input stage", { ge: 0, le: 100 }).optional(),
+    lossBudgetW: quantity("W", "largest loss the input stage may dissipate at the worst corner", { gt: 0, le: 1e5 }).optional(),
     parallelSources: z.boolean().optional().meta({ description: "the input is paralleled with another source (default false)" }),
     holdUpRequired: z.boolean().optional().meta({ description: "the load must ride through an input dropout (default false)" }),
     tjMarginK: quantity("K", "margin below Tj(max) that thermal sizing holds (default 25 K, common practice)", { ge: 0, le: 200 }).optional(),

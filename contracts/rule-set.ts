@@ -83,7 +83,7 @@ export const verdictSchema = z.object({
   source: z.string(),
   rationale: z.string(),
   reason: z.string().nullable(),
-  notApplicableCode: z.enum(["stage-kind", "precondition", "missing-value", "not-finite"]).nullable().meta({ description: "why not applicable: out of scope, or a gap in the evidence" }),
+  notApplicableCode: z.enum(["stage-kind", "precondition", "not-required", "missing-value", "not-finite"]).nullable().meta({ description: "why not applicable: out of scope, or a gap in the evidence" }),
   ruleSet: ruleSetStamp,
 });
 

@@ -5,6 +5,7 @@ import { partParameters, stageMetrics } from "./operating-point-metrics.js";
 
 export interface RequirementFlags {
   readonly standbyBudgetA?: number;
+  readonly lossBudgetW?: number;
   readonly parallelSources: boolean;
   readonly holdUpRequired: boolean;
 }
@@ -25,8 +26,13 @@ export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags
     blocksReverseCurrent: r.blocksReverseCurrent,
   };
   const unavailable: Record<string, string> = {};
+  const notRequired: Record<string, string> = {};
   if (req.loadMinV !== undefined) metrics["loadMinV"] = req.loadMinV;
+  else notRequired["loadMinV"] = "the requirement states no minimum load voltage";
   if (flags.standbyBudgetA !== undefined) metrics["standbyBudgetA"] = flags.standbyBudgetA;
+  else notRequired["standbyBudgetA"] = "the requirement sets no standby budget";
+  if (flags.lossBudgetW !== undefined) metrics["lossBudgetW"] = flags.lossBudgetW;
+  else notRequired["lossBudgetW"] = "the requirement sets no loss budget";
 
   const unsolved = r.worst.unsolvedCornerIndexes;
   const firstUnsolved = unsolved[0] === undefined ? undefined : r.corners[unsolved[0]];
@@ -57,5 +63,5 @@ export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags
   metrics["reverseTransientVMaxV"] = Math.max(req.reverseV, ...negative);
   const positive = r.transients.filter((t) => t.polarity === "positive").map((t) => t.inputPeakV);
   metrics["transientVMaxV"] = Math.max(req.supplyMaxV, ...positive);
-  return { stageKind: stage.kind, metrics, part: partParameters(stage), unavailable };
+  return { stageKind: stage.kind, metrics, part: partParameters(stage), unavailable, notRequired };
 }

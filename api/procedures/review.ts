@@ -25,6 +25,7 @@ export const review = publicProcedure.input(reviewInput).query(({ input, ctx }):
     parallelSources: input.requirement.parallelSources ?? false,
     holdUpRequired: input.requirement.holdUpRequired ?? false,
     ...(input.requirement.standbyBudgetA === undefined ? {} : { standbyBudgetA: input.requirement.standbyBudgetA }),
+    ...(input.requirement.lossBudgetW === undefined ? {} : { lossBudgetW: input.requirement.lossBudgetW }),
   };
 
   const evaluated = input.candidates.map((c, index) => {

@@ -67,6 +67,9 @@ export function evaluateRule(c: CompiledRule, input: RuleInput, stamp: CompiledR
       if (!c.when.test(w.slots)) return na("precondition", `precondition '${r.when}' is false`);
     }
     const e = gather(looked, c.expressionSlots);
+    const optional = input.notRequired;
+    const skipped = optional === undefined ? [] : c.names.filter((n) => Object.hasOwn(optional, n) && !looked[c.names.indexOf(n)]?.ok);
+    if (skipped.length > 0) return na("not-required", `not required: ${skipped.map((n) => `${n} (${optional?.[n] ?? ""})`).join("; ")}`);
     if (e.missing.length > 0) return na("missing-value", `cannot be evaluated: ${e.missing.join("; ")}`);
     const holds = c.expression.test(e.slots);
     const outcome: VerdictOutcome = holds ? "pass" : r.severity;

@@ -51,6 +51,7 @@ export const METRICS: readonly MetricDef[] = [
   { name: "gateDriveMinV", type: "number", unit: "V", meaning: "gate-source drive available at the lowest supply", stageKinds: FETS, providedBy: REVIEW },
   { name: "startVoltageV", type: "number", unit: "V", meaning: "input voltage from which the controller (or integrated switch) runs", stageKinds: CONTROLLED, providedBy: STAGE },
   { name: "quiescentA", type: "number", unit: "A", meaning: "current the stage's control draws from the input to ground (0 for passive stages)", stageKinds: "all", providedBy: STAGE },
+  { name: "lossBudgetW", type: "number", unit: "W", meaning: "the product's budget for the input stage's loss at the worst corner", stageKinds: "all", providedBy: REQ },
   { name: "standbyBudgetA", type: "number", unit: "A", meaning: "the product's standby current budget allotted to the input stage", stageKinds: "all", providedBy: REQ },
   { name: "blocksReverseCurrent", type: "boolean", unit: "-", meaning: "the stage turns off when the output rises above the input", stageKinds: "all", providedBy: STAGE },
   { name: "parallelSources", type: "boolean", unit: "-", meaning: "the input is paralleled with another source (ORing, redundant feeds, a second battery)", stageKinds: "all", providedBy: REQ },

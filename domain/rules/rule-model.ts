@@ -12,7 +12,7 @@ export type VerdictOutcome = "pass" | "warn" | "fail" | "not-applicable";
  * the evidence ("missing-value": a name it needs is absent or ill-typed; "not-finite": an
  * intermediate value overflowed or divided by zero). A gap makes the set's outcome "incomplete".
  */
-export type NotApplicableCode = "stage-kind" | "precondition" | "missing-value" | "not-finite";
+export type NotApplicableCode = "stage-kind" | "precondition" | "not-required" | "missing-value" | "not-finite";
 /** fail > warn > incomplete (a rule could not be evaluated) > pass; not-applicable: no rule was in scope. */
 export type RuleSetOutcome = "pass" | "warn" | "fail" | "incomplete" | "not-applicable";
 
@@ -84,4 +84,9 @@ export interface RuleInput {
   readonly part: Readonly<Record<string, number>>;
   /** Names known to be unavailable, with why (e.g. no operating point exists); cited in the reason. */
   readonly unavailable?: Readonly<Record<string, string>>;
+  /**
+   * Requirement inputs the caller left out on purpose (a budget not set), with why: a rule that
+   * needs one is out of scope ("not-required"), not a gap in the evidence.
+   */
+  readonly notRequired?: Readonly<Record<string, string>>;
 }

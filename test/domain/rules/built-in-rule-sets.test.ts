@@ -46,6 +46,7 @@ const DEFAULT: Record<string, RuleCases> = {
     violate: v("fail", p("pfet-high-side", { parallelSources: 0, holdUpRequired: 1, blocksReverseCurrent: 0 }, {})),
   },
   "standby-quiescent": { pass: p("integrated-switch", { quiescentA: 50e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, 50e-6), violate: v("fail", p("integrated-switch", { quiescentA: 150e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, -50e-6)) },
+  "loss-budget": { pass: p("schottky-diode", { lossWorstW: 0.75, lossBudgetW: 1 }, {}, 1, 0.25), violate: v("fail", p("schottky-diode", { lossWorstW: 1.5, lossBudgetW: 1 }, {}, 1, -0.5)) },
 };
 
 const VEHICLE: Record<string, RuleCases> = {

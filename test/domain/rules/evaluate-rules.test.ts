@@ -75,3 +75,20 @@ describe("compileRuleSet: load errors name the rule, the field and the column", 
     ]);
   });
 });
+
+describe("requirement inputs left out on purpose", () => {
+  it("puts a rule that needs one out of scope (not-required), without making the set incomplete", async () => {
+    const { builtInRuleSets } = await import("../../../domain/rules/built-in-sets.js");
+    const set = builtInRuleSets().find((s) => s.stamp.id === "default");
+    if (set === undefined) throw new Error("default set");
+    const metrics = { quiescentA: 1e-4, tjWorstC: 80, lossWorstW: 0.1, dropWorstV: 0.02, loadVMinV: 11, supplyMinV: 9, supplyMaxV: 16, reverseVMaxV: 14, reverseTransientVMaxV: 20, transientVMaxV: 30, gateDriveMinV: 10, startVoltageV: 3, blocksReverseCurrent: true, parallelSources: false, holdUpRequired: false };
+    const part = { tjMaxC: 175, vdsMaxV: 60, vgsMaxV: 20, vgsOnV: 10, maxInputV: 65 };
+    const r = evaluateRuleSet(set, { stageKind: "nfet-ideal-diode", metrics, part, notRequired: { standbyBudgetA: "no budget set", lossBudgetW: "no budget set", loadMinV: "no minimum given" } });
+    const standby = r.verdicts.find((v) => v.ruleId === "standby-quiescent");
+    expect(standby?.notApplicableCode).toBe("not-required");
+    expect(r.outcome).toBe("pass");
+    // The same gap without the declaration is a gap in the evidence.
+    const gap = evaluateRuleSet(set, { stageKind: "nfet-ideal-diode", metrics, part });
+    expect(gap.outcome).toBe("incomplete");
+  });
+});
