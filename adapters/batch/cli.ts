@@ -2,6 +2,7 @@ import { createReadStream, createWriteStream, renameSync, rmSync } from "node:fs
 import { finished } from "node:stream/promises";
 import { parseArgs } from "node:util";
 import { loadCatalogFile } from "../catalog/file-catalog.js";
+import { loadRuleSetStore } from "../rulesets/registry.js";
 import { DEMO_CATALOG } from "../project-root.js";
 import { runBatch } from "./run-batch.js";
 
@@ -31,7 +32,9 @@ export async function main(argv: string[]): Promise<number> {
     const catalog = loadCatalogFile(values.catalog ?? process.env.BACKSTOP_CATALOG ?? DEMO_CATALOG());
     const input = createReadStream(values.in);
     const output = createWriteStream(partial);
-    const counts = await runBatch(input, output, { catalog });
+    const ruleSets = loadRuleSetStore(process.env.BACKSTOP_RULES_DIR);
+    for (const r of ruleSets.refused()) process.stderr.write(`backstop batch: rule set file ${r.file} refused: ${r.problems.map((p) => p.message).join("; ")}\n`);
+    const counts = await runBatch(input, output, { catalog, ruleSets });
     output.end();
     await finished(output);
     renameSync(partial, outPath);

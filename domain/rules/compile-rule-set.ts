@@ -1,7 +1,15 @@
 import type { Rule, RuleSet, RuleSetStamp } from "./rule-model.js";
 import { ruleSetHash } from "./rule-set-hash.js";
 import { type CompiledExpression, compileExpression, type ExpressionErrorCode } from "./sandbox.js";
-import { STAGE_KINDS } from "./metric-vocabulary.js";
+import { metricDef, partParameterDef, STAGE_KINDS } from "./metric-vocabulary.js";
+
+/** A vocabulary name resolved at compile time: where to read it and whether it is a boolean. */
+export interface NameRef {
+  readonly name: string;
+  readonly isPart: boolean;
+  readonly key: string;
+  readonly boolean: boolean;
+}
 
 export interface CompiledRule {
   readonly rule: Rule;
@@ -12,12 +20,25 @@ export interface CompiledRule {
   /** Positions in `names` of the names `when` and `expression` read, in their slot order. */
   readonly whenSlots: readonly number[];
   readonly expressionSlots: readonly number[];
+  readonly refs: readonly NameRef[];
+  /** names[i] is the set's refs[setIndex[i]]. */
+  readonly setIndex: readonly number[];
+  readonly ownIndex: readonly number[];
 }
 
 export interface CompiledRuleSet {
   readonly set: RuleSet;
   readonly stamp: RuleSetStamp;
   readonly rules: readonly CompiledRule[];
+  /** Every name any rule reads, sorted: resolved once per record. */
+  readonly refs: readonly NameRef[];
+}
+
+function nameRef(name: string): NameRef {
+  const isPart = name.startsWith("part.");
+  const key = isPart ? name.slice(5) : name;
+  const def = isPart ? partParameterDef(key) : metricDef(key);
+  return { name, isPart, key, boolean: def?.type === "boolean" };
 }
 
 /** A rule that cannot be loaded: which rule, which field, where in the expression and why. */
@@ -43,7 +64,7 @@ export type CompileRuleSetOutcome =
 export function compileRuleSet(set: RuleSet): CompileRuleSetOutcome {
   const errors: RuleLoadError[] = [];
   const seen = new Set<string>();
-  const rules: CompiledRule[] = [];
+  const pending: Omit<CompiledRule, "setIndex">[] = [];
   for (const rule of set.rules) {
     if (seen.has(rule.id)) errors.push({ ruleId: rule.id, field: "id", code: "duplicate-id", column: 1, message: `rule id '${rule.id}' appears more than once` });
     seen.add(rule.id);
@@ -62,11 +83,13 @@ export function compileRuleSet(set: RuleSet): CompileRuleSetOutcome {
       const w = when === null ? null : when.compiled;
       const names = [...new Set([...(w?.names ?? []), ...expr.compiled.names])].sort();
       const at = (n: string): number => names.indexOf(n);
-      rules.push({ rule, when: w, expression: expr.compiled, names, whenSlots: (w?.names ?? []).map(at), expressionSlots: expr.compiled.names.map(at) });
+      pending.push({ rule, when: w, expression: expr.compiled, names, whenSlots: (w?.names ?? []).map(at), expressionSlots: expr.compiled.names.map(at), refs: names.map(nameRef), ownIndex: names.map((_, i) => i) });
     }
   }
   if (errors.length > 0) return { ok: false, errors };
-  return { ok: true, compiled: { set, stamp: { id: set.id, version: set.version, hash: ruleSetHash(set) }, rules } };
+  const all = [...new Set(pending.flatMap((r) => r.names))].sort();
+  const rules: CompiledRule[] = pending.map((r) => ({ ...r, setIndex: r.names.map((n) => all.indexOf(n)) }));
+  return { ok: true, compiled: { set, stamp: { id: set.id, version: set.version, hash: ruleSetHash(set) }, rules, refs: all.map(nameRef) } };
 }
 
 /** One line per error: `rule <id>, <field> column <n>: <message>`. */

@@ -1,41 +1,50 @@
-import type { CompiledRule, CompiledRuleSet } from "./compile-rule-set.js";
-import { metricDef, partParameterDef } from "./metric-vocabulary.js";
+import type { CompiledRule, CompiledRuleSet, NameRef } from "./compile-rule-set.js";
 import type { NotApplicableCode, RuleInput, RuleSetOutcome, RuleSetResult, Verdict, VerdictOutcome } from "./rule-model.js";
 import { NON_FINITE } from "./sandbox.js";
 
-type Lookup = { readonly ok: true; readonly v: number; readonly boolean: boolean } | { readonly ok: false; readonly why: string };
-
-/** Value of one vocabulary name in the input, booleans as 0/1; absent or ill-typed is data. */
-function lookup(input: RuleInput, name: string): Lookup {
-  const isPart = name.startsWith("part.");
-  const key = isPart ? name.slice(5) : name;
-  const src: Readonly<Record<string, number | boolean>> = isPart ? input.part : input.metrics;
-  if (!Object.hasOwn(src, key)) {
-    const u = input.unavailable !== undefined && Object.hasOwn(input.unavailable, name) ? input.unavailable[name] : undefined;
-    return { ok: false, why: u === undefined ? `${name} is not given` : `${name} is not available: ${u}` };
-  }
-  const raw = src[key];
-  const def = isPart ? partParameterDef(key) : metricDef(key);
-  if (def?.type === "boolean") {
-    if (raw === true || raw === 1) return { ok: true, v: 1, boolean: true };
-    if (raw === false || raw === 0) return { ok: true, v: 0, boolean: true };
-    return { ok: false, why: `${name} is ${String(raw)}; a boolean metric takes true/false or 0/1` };
-  }
-  if (typeof raw !== "number" || !Number.isFinite(raw)) return { ok: false, why: `${name} is ${String(raw)}; a finite number is required` };
-  return { ok: true, v: raw, boolean: false };
+/** The values of a list of names in one input: present (as 0/1 for booleans) or why not. */
+interface Resolved {
+  readonly ok: boolean[];
+  readonly v: number[];
+  readonly out: (number | boolean)[];
+  readonly why: string[];
 }
 
-/** Slot values for one expression; the reasons for the names that are absent or ill-typed. */
-function gather(looked: readonly Lookup[], idx: readonly number[]): { slots: number[]; missing: string[] } {
+/** Look each name up once; absent or ill-typed is data (the reason), never a throw. */
+function resolve(refs: readonly NameRef[], input: RuleInput): Resolved {
+  const R: Resolved = { ok: [], v: [], out: [], why: [] };
+  for (const ref of refs) {
+    const src: Readonly<Record<string, number | boolean>> = ref.isPart ? input.part : input.metrics;
+    let why = "";
+    let v = Number.NaN;
+    if (!Object.hasOwn(src, ref.key)) {
+      const u = input.unavailable !== undefined && Object.hasOwn(input.unavailable, ref.name) ? input.unavailable[ref.name] : undefined;
+      why = u === undefined ? `${ref.name} is not given` : `${ref.name} is not available: ${u}`;
+    } else {
+      const raw = src[ref.key];
+      if (ref.boolean) {
+        if (raw === true || raw === 1) v = 1;
+        else if (raw === false || raw === 0) v = 0;
+        else why = `${ref.name} is ${String(raw)}; a boolean metric takes true/false or 0/1`;
+      } else if (typeof raw === "number" && Number.isFinite(raw)) v = raw;
+      else why = `${ref.name} is ${String(raw)}; a finite number is required`;
+    }
+    R.ok.push(why === "");
+    R.v.push(v);
+    R.out.push(ref.boolean ? v === 1 : v);
+    R.why.push(why);
+  }
+  return R;
+}
+
+/** Slot values for one expression (idx: positions in the rule's names, map: rule name → R). */
+function gather(R: Resolved, map: readonly number[], idx: readonly number[]): { slots: number[]; missing: string[] } {
   const slots: number[] = [];
   const missing: string[] = [];
   for (const i of idx) {
-    const l = looked[i];
-    if (l?.ok) slots.push(l.v);
-    else {
-      slots.push(Number.NaN);
-      missing.push(l?.why ?? "internal: slot out of range");
-    }
+    const j = map[i] ?? -1;
+    slots.push(R.v[j] ?? Number.NaN);
+    if (R.ok[j] !== true) missing.push(R.why[j] ?? "internal: slot out of range");
   }
   return { slots, missing };
 }
@@ -46,53 +55,85 @@ function gather(looked: readonly Lookup[], idx: readonly number[]): { slots: num
  * the margin is rhs − lhs for `<`/`<=` (lhs − rhs for `>`/`>=`), relative to |threshold|.
  */
 export function evaluateRule(c: CompiledRule, input: RuleInput, stamp: CompiledRuleSet["stamp"]): Verdict {
+  return evaluateResolved(c, input, resolve(c.refs, input), c.ownIndex, stamp);
+}
+
+function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: readonly number[], stamp: CompiledRuleSet["stamp"]): Verdict {
   const r = c.rule;
-  const looked = c.names.map((n) => lookup(input, n));
   const vals: Record<string, number | boolean> = {};
-  c.names.forEach((n, i) => {
-    const l = looked[i];
-    if (l?.ok) vals[n] = l.boolean ? l.v === 1 : l.v;
-  });
-  const base = { ruleId: r.id, title: r.title, severity: r.severity, expression: r.expression, values: vals, source: r.source, rationale: r.rationale };
-  const none = { comparison: null, threshold: null, margin: null, relativeMargin: null };
-  const na = (code: NotApplicableCode, reason: string): Verdict => ({ ...base, outcome: "not-applicable", ...none, reason, notApplicableCode: code, ruleSet: stamp });
+  for (let i = 0; i < c.names.length; i += 1) {
+    const j = map[i] ?? -1;
+    const name = c.names[i];
+    if (R.ok[j] === true && name !== undefined) vals[name] = R.out[j] ?? Number.NaN;
+  }
+  const make = (outcome: VerdictOutcome, cmp: Cmp | null, reason: string | null, code: NotApplicableCode | null): Verdict => verdict(c, vals, outcome, cmp, reason, code, stamp);
+  const na = (code: NotApplicableCode, reason: string): Verdict => make("not-applicable", null, reason, code);
   if (r.appliesTo !== "all") {
     if (input.stageKind === undefined) return na("missing-value", `the rule covers ${r.appliesTo.join(", ")} and no stage kind was given`);
     if (!r.appliesTo.includes(input.stageKind)) return na("stage-kind", `the rule covers ${r.appliesTo.join(", ")}, not ${input.stageKind}`);
   }
   try {
     if (c.when !== null) {
-      const w = gather(looked, c.whenSlots);
+      const w = gather(R, map, c.whenSlots);
       if (w.missing.length > 0) return na("missing-value", `precondition '${r.when}' cannot be evaluated: ${w.missing.join("; ")}`);
       if (!c.when.test(w.slots)) return na("precondition", `precondition '${r.when}' is false`);
     }
-    const e = gather(looked, c.expressionSlots);
+    const e = gather(R, map, c.expressionSlots);
     const optional = input.notRequired;
-    const skipped = optional === undefined ? [] : c.names.filter((n) => Object.hasOwn(optional, n) && !looked[c.names.indexOf(n)]?.ok);
-    if (skipped.length > 0) return na("not-required", `not required: ${skipped.map((n) => `${n} (${optional?.[n] ?? ""})`).join("; ")}`);
+    if (optional !== undefined && e.missing.length > 0) {
+      const skipped = c.names.filter((n, i) => Object.hasOwn(optional, n) && R.ok[map[i] ?? -1] !== true);
+      if (skipped.length > 0) return na("not-required", `not required: ${skipped.map((n) => `${n} (${optional[n] ?? ""})`).join("; ")}`);
+    }
     if (e.missing.length > 0) return na("missing-value", `cannot be evaluated: ${e.missing.join("; ")}`);
     const holds = c.expression.test(e.slots);
     const outcome: VerdictOutcome = holds ? "pass" : r.severity;
     const cmp = c.expression.comparison;
-    if (cmp === null) return { ...base, outcome, ...none, reason: holds ? null : `'${r.expression}' is false`, notApplicableCode: null, ruleSet: stamp };
+    if (cmp === null) return make(outcome, null, holds ? null : `'${r.expression}' is false`, null);
     const lhs = cmp.lhs(e.slots);
     const rhs = cmp.rhs(e.slots);
     const margin = cmp.bound === "upper" ? rhs - lhs : lhs - rhs;
-    return {
-      ...base,
-      outcome,
-      comparison: cmp.op,
-      threshold: rhs,
-      margin,
-      relativeMargin: rhs === 0 ? null : margin / Math.abs(rhs),
-      reason: holds ? null : `${fmt(lhs)} ${cmp.op} ${fmt(rhs)} does not hold (margin ${fmt(margin)})`,
-      notApplicableCode: null,
-      ruleSet: stamp,
-    };
+    const reason = holds ? null : `${fmt(lhs)} ${cmp.op} ${fmt(rhs)} does not hold (margin ${fmt(margin)})`;
+    return make(outcome, { op: cmp.op, threshold: rhs, margin }, reason, null);
   } catch (err) {
     if (err === NON_FINITE) return na("not-finite", "an intermediate value is not finite (division by zero, log of zero or a negative number, overflow)");
     throw err;
   }
+}
+
+interface Cmp {
+  readonly op: string;
+  readonly threshold: number;
+  readonly margin: number;
+}
+
+/** One literal with a fixed key order (stable JSON, and one object shape for the engine). */
+function verdict(
+  c: CompiledRule,
+  values: Readonly<Record<string, number | boolean>>,
+  outcome: VerdictOutcome,
+  cmp: Cmp | null,
+  reason: string | null,
+  notApplicableCode: NotApplicableCode | null,
+  ruleSet: CompiledRuleSet["stamp"],
+): Verdict {
+  const r = c.rule;
+  return {
+    ruleId: r.id,
+    title: r.title,
+    outcome,
+    severity: r.severity,
+    expression: r.expression,
+    values,
+    comparison: cmp === null ? null : cmp.op,
+    threshold: cmp === null ? null : cmp.threshold,
+    margin: cmp === null ? null : cmp.margin,
+    relativeMargin: cmp === null || cmp.threshold === 0 ? null : cmp.margin / Math.abs(cmp.threshold),
+    source: r.source,
+    rationale: r.rationale,
+    reason,
+    notApplicableCode,
+    ruleSet,
+  };
 }
 
 /**
@@ -101,7 +142,8 @@ export function evaluateRule(c: CompiledRule, input: RuleInput, stamp: CompiledR
  * non-finite value), else pass; not-applicable when no rule was in scope at all.
  */
 export function evaluateRuleSet(set: CompiledRuleSet, input: RuleInput): RuleSetResult {
-  const verdicts = set.rules.map((c) => evaluateRule(c, input, set.stamp));
+  const R = resolve(set.refs, input);
+  const verdicts = set.rules.map((c) => evaluateResolved(c, input, R, c.setIndex, set.stamp));
   const counts = { pass: 0, warn: 0, fail: 0, notApplicable: 0 };
   let gaps = 0;
   for (const v of verdicts) {

@@ -48,7 +48,7 @@ export const METRICS: readonly MetricDef[] = [
   { name: "reverseTransientVMaxV", type: "number", unit: "V", meaning: "magnitude of the worst negative transient peak the blocking element sees, after any clamp", stageKinds: "all", providedBy: REVIEW },
   { name: "transientVMaxV", type: "number", unit: "V", meaning: "worst positive transient peak at the stage input, after any clamp (load dump, surge)", stageKinds: "all", providedBy: REVIEW },
   { name: "gateSourceVMaxV", type: "number", unit: "V", meaning: "magnitude of the highest gate-source voltage over the steady and transient input range", stageKinds: ["pfet-high-side", "nfet-low-side"], providedBy: REVIEW },
-  { name: "gateDriveMinV", type: "number", unit: "V", meaning: "gate-source drive available at the lowest supply", stageKinds: FETS, providedBy: REVIEW },
+  { name: "gateDriveMinV", type: "number", unit: "V", meaning: "gate-source drive available at the lowest supply", stageKinds: FETS, providedBy: `${OP} (the drive at its supply)` },
   { name: "startVoltageV", type: "number", unit: "V", meaning: "input voltage from which the controller (or integrated switch) runs", stageKinds: CONTROLLED, providedBy: STAGE },
   { name: "quiescentA", type: "number", unit: "A", meaning: "current the stage's control draws from the input to ground (0 for passive stages)", stageKinds: "all", providedBy: STAGE },
   { name: "lossBudgetW", type: "number", unit: "W", meaning: "the product's budget for the input stage's loss at the worst corner", stageKinds: "all", providedBy: REQ },
