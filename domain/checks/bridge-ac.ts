@@ -53,7 +53,7 @@ export type BridgeAcOutcome =
   | { readonly outcome: "invalid-input"; readonly path: string; readonly reason: string };
 
 /** Relative tolerance of the integrator's local error and of the shooting residual. */
-export const AC_RTOL = 2e-7;
+export const AC_RTOL = 1e-6;
 const THERMAL_TOL_K = 1e-3;
 const THERMAL_MAX_ITER = 100;
 
