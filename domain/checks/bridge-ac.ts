@@ -79,16 +79,20 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
   const peakV = Math.SQRT2 * m.sourceRmsV;
   const inductive = m.leakageInductanceH > 0;
   const currentScaleA = loadScaleA(m.load, peakV);
+  // The ripple is the smallest voltage the results resolve: the textbook I/(2fC) sets the scale
+  // of the periodicity residual, and (within 10x) of the integrator's voltage error.
+  const rippleV = Math.min(peakV, currentScaleA / (2 * m.frequencyHz * m.capacitanceF));
+  const voltageScaleV = Math.min(peakV, 10 * rippleV);
   const x0 = warm ?? (inductive ? [0.9 * peakV, 0] : [0.9 * peakV]);
   let last: { integrals: PeriodIntegrals; trace: readonly Snapshot[]; steps: number } | undefined;
   const shot = shootPeriodic(
     (x) => {
-      const r = integratePeriod(circuit, x, { rtol: AC_RTOL, currentScaleA, record: true });
+      const r = integratePeriod(circuit, x, { rtol: AC_RTOL, voltageScaleV, currentScaleA, record: true });
       if (!r.ok) return { ok: false, reason: r.reason };
       return { ok: true, end: r.end, value: { integrals: r.integrals, trace: r.trace ?? [], steps: r.steps } };
     },
     x0,
-    inductive ? [peakV, currentScaleA] : [peakV],
+    inductive ? [rippleV, currentScaleA] : [rippleV],
     10 * AC_RTOL,
   );
   if (!shot.ok) return { ok: false, outcome: shot.code, reason: shot.reason };

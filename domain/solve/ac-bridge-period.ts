@@ -31,8 +31,9 @@ export type PeriodOutcome =
   | { readonly ok: false; readonly code: "load-collapse"; readonly atS: number; readonly reason: string };
 
 export interface PeriodOptions {
-  /** Relative tolerance of the local error against the peak source voltage and a current scale. */
+  /** Relative tolerance of the local error against a voltage scale and a current scale. */
   readonly rtol: number;
+  readonly voltageScaleV: number;
   readonly currentScaleA: number;
   readonly record: boolean;
 }
@@ -51,8 +52,7 @@ export function integratePeriod(
   opt: PeriodOptions,
 ): PeriodOutcome {
   const period = 1 / c.frequencyHz;
-  const peakV = Math.SQRT2 * c.sourceRmsV;
-  const scale = [opt.rtol * peakV, opt.rtol * opt.currentScaleA];
+  const scale = [opt.rtol * opt.voltageScaleV, opt.rtol * opt.currentScaleA];
   const hMax = period / 100;
   const hMin = period * 1e-12;
   const acc = newAccumulators();
