@@ -84,7 +84,6 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
   const rippleV = Math.min(peakV, currentScaleA / (2 * m.frequencyHz * m.capacitanceF));
   const voltageScaleV = Math.min(peakV, 10 * rippleV);
   const x0 = warm ?? (inductive ? [0.9 * peakV, 0] : [0.9 * peakV]);
-  let last: { integrals: PeriodIntegrals; trace: readonly Snapshot[]; steps: number } | undefined;
   const shot = shootPeriodic(
     (x) => {
       const r = integratePeriod(circuit, x, { rtol: AC_RTOL, voltageScaleV, currentScaleA, record: true });
@@ -96,7 +95,7 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
     10 * AC_RTOL,
   );
   if (!shot.ok) return { ok: false, outcome: shot.code, reason: shot.reason };
-  last = shot.value;
+  const last = shot.value;
   const end = shot.x.map((v, j) => v + (shot.residual[j] ?? 0));
   return { ok: true, x: shot.x, end, integrals: last.integrals, trace: last.trace, iterations: shot.iterations, periods: shot.periods, steps: last.steps };
 }
