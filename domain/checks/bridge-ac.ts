@@ -12,6 +12,7 @@ import {
   BRIDGE_POSITIONS,
   type BridgeElements,
   type BridgePosition,
+  controllerGateV,
   elementLaw,
   elementReverseRatingV,
   elementRthKPerW,
@@ -53,7 +54,7 @@ export type BridgeAcOutcome =
   | { readonly outcome: "invalid-input"; readonly path: string; readonly reason: string };
 
 /** Relative tolerance of the integrator's local error and of the shooting residual. */
-export const AC_RTOL = 1e-6;
+export const AC_RTOL = 1e-5;
 const THERMAL_TOL_K = 1e-3;
 const THERMAL_MAX_ITER = 100;
 
@@ -79,8 +80,8 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
   const peakV = Math.SQRT2 * m.sourceRmsV;
   const inductive = m.leakageInductanceH > 0;
   const currentScaleA = loadScaleA(m.load, peakV);
-  // The ripple is the smallest voltage the results resolve: the textbook I/(2fC) sets the scale
-  // of the periodicity residual, and (within 10x) of the integrator's voltage error.
+  // The ripple is the smallest voltage the results resolve: ten times the textbook I/(2fC) (or
+  // the peak, if smaller) scales the integrator's voltage error and the periodicity residual.
   const rippleV = Math.min(peakV, currentScaleA / (2 * m.frequencyHz * m.capacitanceF));
   const voltageScaleV = Math.min(peakV, 10 * rippleV);
   const x0 = warm ?? (inductive ? [0.9 * peakV, 0] : [0.9 * peakV]);
@@ -91,7 +92,7 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
       return { ok: true, end: r.end, value: { integrals: r.integrals, trace: r.trace ?? [], steps: r.steps } };
     },
     x0,
-    inductive ? [rippleV, currentScaleA] : [rippleV],
+    inductive ? [voltageScaleV, currentScaleA] : [voltageScaleV],
     10 * AC_RTOL,
   );
   if (!shot.ok) return { ok: false, outcome: shot.code, reason: shot.reason };
@@ -200,7 +201,19 @@ function buildCircuit(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, num
     const e = m.elements[p];
     if (e.kind !== "nfet-ideal-diode") fixed.set(p, elementLaw(e, tjK[p], 0).law);
   }
-  const lawOf = (p: BridgePosition, supplyV: number): ForwardLaw => fixed.get(p) ?? elementLaw(m.elements[p], tjK[p], supplyV).law;
+  // MOSFET laws depend on the supply only through the gate drive: rebuild when that changes.
+  const cache = new Map<BridgePosition, { gateV: number | undefined; law: ForwardLaw }>();
+  const lawOf = (p: BridgePosition, supplyV: number): ForwardLaw => {
+    const f = fixed.get(p);
+    if (f !== undefined) return f;
+    const e = m.elements[p];
+    const gateV = e.kind === "nfet-ideal-diode" ? controllerGateV(e, supplyV) : undefined;
+    const hit = cache.get(p);
+    if (hit !== undefined && hit.gateV === gateV) return hit.law;
+    const law = elementLaw(e, tjK[p], supplyV).law;
+    cache.set(p, { gateV, law });
+    return law;
+  };
   const allFixed = fixed.size === 4;
   const pairs = (supplyV: number): PairLaws => ({
     positive: [lawOf("line1High", supplyV), lawOf("line2Low", supplyV)],

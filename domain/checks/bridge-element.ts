@@ -81,14 +81,21 @@ export function elementLaw(e: BridgeElement, tK: number, controllerSupplyV: numb
   if (e.kind !== "nfet-ideal-diode") return { mode: "junction", law: junctionLaw(e.diode, tK) };
   const body = e.mosfet.bodyDiode;
   const c = e.controller;
-  if (controllerSupplyV < c.startV) return { mode: "body-diode", law: junctionLaw(body, tK) };
-  const vgs = interpolate(
-    c.gateDrive.map((p) => [p.inputV, p.gateSourceV] as const),
-    controllerSupplyV,
-  );
+  const vgs = controllerGateV(e, controllerSupplyV);
+  if (vgs === undefined) return { mode: "body-diode", law: junctionLaw(body, tK) };
   const rOhm = channelResistanceOhm(e.mosfet.channel, vgs, tK);
   if (rOhm === undefined) return { mode: "body-diode", law: junctionLaw(body, tK) };
   return { mode: "channel", channelResistanceOhm: rOhm, law: channelLaw(rOhm, body, tK, c.regulatedDropV) };
+}
+
+/** Gate drive the element's controller delivers at its supply, V; undefined below its start voltage. */
+export function controllerGateV(e: IdealDiodeStage, controllerSupplyV: number): number | undefined {
+  const c = e.controller;
+  if (controllerSupplyV < c.startV) return undefined;
+  return interpolate(
+    c.gateDrive.map((p) => [p.inputV, p.gateSourceV] as const),
+    controllerSupplyV,
+  );
 }
 
 /** Shockley with series resistance, Is(T) and n·Vt evaluated once for the temperature. */

@@ -42,7 +42,8 @@ export interface PeriodOptions {
  * Integrate the AC bridge over one period from state x0 at t = 0 (the rising zero of the source)
  * by TR-BDF2 with local-error step control: the error estimate is LTE_COEFF·h³·|x‴|, with x‴ from
  * the second divided difference of f on the step's three nodes. The controllers' supply is the
- * reservoir voltage at the start of each step. Integrals use the quadrature on the same nodes, so
+ * reservoir voltage at the start of each step. Steps end on the source's peaks and zero
+ * crossings. Integrals use the quadrature on the same nodes, so
  * the pointwise power balance e·i = R·i² + Σ v·i + ESR·iC² + vC·iC + vout·iload + L·i·di/dt
  * carries over to the period integrals.
  */
@@ -53,7 +54,7 @@ export function integratePeriod(
 ): PeriodOutcome {
   const period = 1 / c.frequencyHz;
   const scale = [opt.rtol * opt.voltageScaleV, opt.rtol * opt.currentScaleA];
-  const hMax = period / 100;
+  const hMax = period / 25;
   const hMin = period * 1e-12;
   const acc = newAccumulators();
   const trace: Snapshot[] = [];
@@ -66,9 +67,15 @@ export function integratePeriod(
   if (opt.record) trace.push(s0);
   let h = period / 2000;
   let steps = 0;
+  // Breakpoints at the source's peaks and zero crossings: a short conduction pulse around a
+  // peak always contains a node, so a long step cannot jump over it unseen.
+  const breaks = [0.25, 0.5, 0.75, 1].map((q) => q * period);
+  let nextBreak = 0;
   while (t < period) {
-    const last = t + h >= period * (1 - 1e-12);
-    if (last) h = period - t;
+    while ((breaks[nextBreak] ?? period) <= t * (1 + 1e-12)) nextBreak += 1;
+    const target = breaks[nextBreak] ?? period;
+    const last = t + h >= target - period * 1e-12;
+    if (last) h = target - t;
     laws = c.pairLaws(x[0] ?? 0);
     const a1 = TR_COEFF * h;
     const b1 = x.map((v, j) => v + a1 * (s0.f[j] ?? 0));
@@ -102,7 +109,7 @@ export function integratePeriod(
     if (errNorm <= 1 || h <= hMin * 4) {
       accumulate(acc, c, s0, sg, s1, h);
       if (opt.record) trace.push(sg, s1);
-      t = last ? period : t + h;
+      t = last ? target : t + h;
       x = stateOf(s1, x.length);
       s0 = s1;
       steps += 1;

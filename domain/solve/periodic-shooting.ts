@@ -9,8 +9,11 @@ export type ShootingOutcome<T> =
  * Periodic steady state by shooting: the root of F(x) = P(x) − x, P the map over one period
  * (T. J. Aprille and T. N. Trick, "Steady-state analysis of nonlinear circuits with periodic
  * inputs", Proc. IEEE 60(1), 1972). Newton with a finite-difference Jacobian, then Broyden's
- * rank-one updates (one period per iteration); a step into a state where the map fails (the load
- * collapses) or the reservoir voltage x[0] would turn non-positive is halved. Converged when
+ * rank-one updates (one period per iteration). A step is accepted when it lowers max|F_j|/scale_j;
+ * otherwise (also where the map fails or x[0] would turn non-positive) it is halved, and after
+ * four halvings one period of the plain transient is taken instead, with a fresh Jacobian. The
+ * fallback matters where F has a kink: a reservoir so large that a slightly higher start voltage
+ * skips conduction altogether (F = −I·T/C above the fixed point, slope −1 below it). Converged when
  * |F_j| ≤ tol·scale_j for every component. For n ≤ 2 state variables.
  */
 export function shootPeriodic<T>(map: PeriodMap<T>, x0: readonly number[], scale: readonly number[], tol: number, maxIter = 40): ShootingOutcome<T> {
@@ -21,8 +24,9 @@ export function shootPeriodic<T>(map: PeriodMap<T>, x0: readonly number[], scale
     return map(x);
   };
   let x = [...x0];
-  let p = run(x);
-  if (!p.ok) return { ok: false, code: "load-collapse", reason: p.reason, periods };
+  const first = run(x);
+  if (!first.ok) return { ok: false, code: "load-collapse", reason: first.reason, periods };
+  let p: { readonly end: readonly number[]; readonly value: T } = first;
   let f = p.end.map((v, j) => v - (x[j] ?? 0));
   let jac: number[][] | undefined;
   for (let iter = 0; iter < maxIter; iter += 1) {
@@ -43,16 +47,17 @@ export function shootPeriodic<T>(map: PeriodMap<T>, x0: readonly number[], scale
         }
       }
     }
-    const step = solveSmall(jac, f.map((v) => -v));
-    if (step === undefined) return { ok: false, code: "no-periodic-steady-state", reason: "the period map has a singular Jacobian", periods };
+    // A singular Jacobian (a period without conduction maps x to x − I·T/C) falls back below.
+    const step = solveSmall(jac, f.map((v) => -v)) ?? [];
     let lambda = 1;
     let accepted = false;
-    for (let k = 0; k < 12; k += 1) {
+    const norm = (g: readonly number[]): number => Math.max(...g.map((v, j) => Math.abs(v) / (scale[j] ?? 1)));
+    for (let k = 0; k < 4 && step.length === n; k += 1) {
       const xn = x.map((v, j) => v + lambda * (step[j] ?? 0));
       if ((xn[0] ?? 0) > 0) {
         const q = run(xn);
-        if (q.ok) {
-          const fn = q.end.map((v, j) => v - (xn[j] ?? 0));
+        const fn = q.ok ? q.end.map((v, j) => v - (xn[j] ?? 0)) : [];
+        if (q.ok && norm(fn) < norm(f)) {
           const dx = xn.map((v, j) => v - (x[j] ?? 0));
           const df = fn.map((v, j) => v - (f[j] ?? 0));
           broyden(jac, dx, df);
@@ -66,12 +71,21 @@ export function shootPeriodic<T>(map: PeriodMap<T>, x0: readonly number[], scale
       lambda /= 2;
     }
     if (!accepted) {
-      return {
-        ok: false,
-        code: "load-collapse",
-        reason: "no periodic state with a positive reservoir voltage: the load draws more than the source can feed through the bridge",
-        periods,
-      };
+      // Fall back to one period of the plain transient (always physical) and a fresh Jacobian.
+      const xn: number[] = [...p.end];
+      const q = (xn[0] ?? 0) > 0 ? run(xn) : undefined;
+      if (q === undefined || !q.ok) {
+        return {
+          ok: false,
+          code: "load-collapse",
+          reason: "no periodic state with a positive reservoir voltage: the load draws more than the source can feed through the bridge",
+          periods,
+        };
+      }
+      x = xn;
+      f = q.end.map((v: number, j: number) => v - (xn[j] ?? 0));
+      p = q;
+      jac = undefined;
     }
   }
   return { ok: false, code: "no-periodic-steady-state", reason: `the shooting iteration did not converge in ${maxIter} iterations`, periods };
