@@ -1,5 +1,7 @@
 import { batteryCharge } from "./procedures/battery-charge.js";
 import { holdUp } from "./procedures/hold-up.js";
+import { bridgeAc } from "./procedures/bridge-ac.js";
+import { bridgeDc } from "./procedures/bridge-dc.js";
 import { operatingPoint } from "./procedures/operating-point.js";
 import { oring } from "./procedures/oring.js";
 import { review } from "./procedures/review.js";
@@ -16,6 +18,8 @@ export const appRouter = router({
   holdUp,
   oring,
   batteryCharge,
+  bridgeDc,
+  bridgeAc,
 });
 
 /** Clients import only this type (`import type { AppRouter } from "backstop/api/router"`). */

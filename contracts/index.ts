@@ -14,3 +14,4 @@ export * from "./turn-off.js";
 export * from "./hold-up.js";
 export * from "./oring.js";
 export * from "./battery-charge.js";
+export * from "./bridge.js";

@@ -1,0 +1,70 @@
+import { type BridgeAcOutput, type BridgeElementsInput, bridgeAcInput } from "../../contracts/bridge.js";
+import { analyseBridgeAc, type BridgeAcOutcome } from "../../domain/checks/bridge-ac.js";
+import { acSaving } from "../../domain/checks/bridge-saving.js";
+import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
+import { toBridgeElements } from "../map/bridge-elements.js";
+import { publicProcedure } from "../trpc.js";
+
+export const bridgeAc = publicProcedure.input(bridgeAcInput).query(({ input, ctx }): BridgeAcOutput => {
+  const assumptions: string[] = [];
+  const orZero = (v: number | undefined, name: string): number => {
+    if (v === undefined) assumptions.push(`${name}: 0 (default)`);
+    return v ?? 0;
+  };
+  const sourceResistanceOhm = orZero(input.sourceResistanceOhm, "sourceResistanceOhm");
+  const leakageInductanceH = orZero(input.leakageInductanceH, "leakageInductanceH");
+  const esrOhm = orZero(input.esrOhm, "esrOhm");
+  assumptions.push("MOSFET controllers run from the reservoir voltage and switch quasi-statically (turn-on/off delays neglected against the period)");
+  assumptions.push("junction temperatures from the period-average loss (thermal time constants long against the period)");
+  const run = (elements: BridgeElementsInput, path: string): BridgeAcOutcome =>
+    analyseBridgeAc({
+      elements: toBridgeElements(elements, ctx.catalog, [path], assumptions),
+      sourceRmsV: input.sourceRmsV,
+      frequencyHz: input.frequencyHz,
+      sourceResistanceOhm,
+      leakageInductanceH,
+      capacitanceF: input.capacitanceF,
+      esrOhm,
+      load: input.load,
+      ambientC: input.ambientC,
+    });
+  const bridge = run(input.bridge, "bridge");
+  const compareTo = input.compareTo === undefined ? undefined : run(input.compareTo, "compareTo");
+  const metrics: Record<string, number> = {};
+  addMetrics(metrics, "", bridge, input.capacitorRippleRatingA);
+  if (compareTo !== undefined) addMetrics(metrics, "compareTo.", compareTo, input.capacitorRippleRatingA);
+  const saving = compareTo === undefined ? undefined : acSaving(bridge, compareTo);
+  return {
+    modelVersion: MODEL_VERSION,
+    caution: CAUTION,
+    assumptions,
+    metrics,
+    bridge,
+    ...(compareTo === undefined ? {} : { compareTo }),
+    ...(saving === undefined ? {} : { saving }),
+  };
+});
+
+/**
+ * Rule metrics: per element the peak repetitive current, RMS current, reverse voltage and its
+ * rating, loss, Tj and its limit; the capacitor's RMS ripple current (and rating when given).
+ */
+function addMetrics(out: Record<string, number>, prefix: string, r: BridgeAcOutcome, rippleRatingA: number | undefined): void {
+  if (!("steadyState" in r)) return;
+  const s = r.steadyState;
+  out[`${prefix}dcOutputV`] = s.dcOutputV;
+  out[`${prefix}rippleVpp`] = s.rippleVpp;
+  out[`${prefix}totalElementLossW`] = s.totalElementLossW;
+  out[`${prefix}capacitor.rippleCurrentRmsA`] = s.capacitorRippleCurrentRmsA;
+  if (rippleRatingA !== undefined) out[`${prefix}capacitor.rippleRatingA`] = rippleRatingA;
+  for (const e of s.elements) {
+    const base = `${prefix}element.${e.position}.`;
+    out[`${base}peakRepetitiveCurrentA`] = e.peakCurrentA;
+    out[`${base}rmsCurrentA`] = e.rmsCurrentA;
+    out[`${base}reverseV`] = e.maxReverseV;
+    out[`${base}reverseRatingV`] = e.reverseRatingV;
+    out[`${base}lossW`] = e.lossW;
+    out[`${base}tjC`] = e.tjC;
+    out[`${base}tjMaxC`] = e.tjMaxC;
+  }
+}

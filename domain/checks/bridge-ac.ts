@@ -1,0 +1,245 @@
+import { cToK, kToC } from "../physics/constants.js";
+import type { AcBridgeCircuit, ForwardLaw, PairLaws } from "../solve/ac-bridge-circuit.js";
+import { integratePeriod, type PeriodIntegrals } from "../solve/ac-bridge-period.js";
+import type { Snapshot } from "../solve/ac-bridge-circuit.js";
+import { fmt } from "../solve/electrical-point.js";
+import { SEARCH_ABOVE_LIMIT_K } from "../solve/electrothermal-point.js";
+import type { LoadModel } from "../solve/load-model.js";
+import { shootPeriodic } from "../solve/periodic-shooting.js";
+import { type AcCircuitMetrics, type AcElementMetrics, SLOT, circuitMetrics, elementMetrics } from "./bridge-ac-metrics.js";
+import { validateAcModel } from "./bridge-ac-validate.js";
+import {
+  BRIDGE_POSITIONS,
+  type BridgeElements,
+  type BridgePosition,
+  controllerGateV,
+  elementLaw,
+  elementReverseRatingV,
+  elementRthKPerW,
+  elementTjMaxC,
+} from "./bridge-element.js";
+
+export interface BridgeAcModel {
+  readonly elements: BridgeElements;
+  readonly sourceRmsV: number;
+  readonly frequencyHz: number;
+  readonly sourceResistanceOhm: number;
+  /** Leakage inductance of the source (transformer), H; 0 for none. */
+  readonly leakageInductanceH: number;
+  readonly capacitanceF: number;
+  readonly esrOhm: number;
+  readonly load: LoadModel;
+  readonly ambientC: number;
+}
+
+export interface AcElementResult extends AcElementMetrics {
+  readonly position: BridgePosition;
+  readonly mode: "junction" | "body-diode" | "channel";
+  readonly tjC: number;
+  readonly tjMaxC: number;
+  readonly reverseRatingV: number;
+}
+
+export interface AcSteadyState extends AcCircuitMetrics {
+  readonly elements: readonly AcElementResult[];
+  readonly totalElementLossW: number;
+  readonly solver: { readonly shootingIterations: number; readonly periodsIntegrated: number; readonly stepsLastPeriod: number; readonly thermalIterations: number };
+}
+
+export type BridgeAcOutcome =
+  | { readonly outcome: "solved"; readonly steadyState: AcSteadyState }
+  | { readonly outcome: "over-temperature" | "load-undervoltage"; readonly steadyState: AcSteadyState; readonly reason: string }
+  | { readonly outcome: "thermal-runaway"; readonly position: BridgePosition; readonly reason: string; readonly searchedToC: number; readonly lossAtSearchEndW: number }
+  | { readonly outcome: "load-collapse" | "no-periodic-steady-state" | "no-thermal-convergence"; readonly reason: string }
+  | { readonly outcome: "invalid-input"; readonly path: string; readonly reason: string };
+
+/** Relative tolerance of the integrator's local error and of the shooting residual. */
+export const AC_RTOL = 1e-5;
+const THERMAL_TOL_K = 1e-3;
+const THERMAL_MAX_ITER = 100;
+
+interface Isothermal {
+  readonly ok: true;
+  readonly x: readonly number[];
+  readonly integrals: PeriodIntegrals;
+  readonly trace: readonly Snapshot[];
+  readonly end: readonly number[];
+  readonly iterations: number;
+  readonly periods: number;
+  readonly steps: number;
+}
+type IsoOutcome = Isothermal | { readonly ok: false; readonly outcome: "load-collapse" | "no-periodic-steady-state"; readonly reason: string };
+
+/**
+ * Periodic steady state of the AC bridge with every junction held at the given temperature, K
+ * (what a circuit simulator computes at a fixed temperature). Shooting (periodic-shooting.ts) on
+ * the one-period map of the TR-BDF2 integrator (ac-bridge-period.ts).
+ */
+export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, number>>, warm?: readonly number[]): IsoOutcome {
+  const circuit = buildCircuit(m, tjK);
+  const peakV = Math.SQRT2 * m.sourceRmsV;
+  const inductive = m.leakageInductanceH > 0;
+  const currentScaleA = loadScaleA(m.load, peakV);
+  // The ripple is the smallest voltage the results resolve: ten times the textbook I/(2fC) (or
+  // the peak, if smaller) scales the integrator's voltage error and the periodicity residual.
+  const rippleV = Math.min(peakV, currentScaleA / (2 * m.frequencyHz * m.capacitanceF));
+  const voltageScaleV = Math.min(peakV, 10 * rippleV);
+  const x0 = warm ?? (inductive ? [0.9 * peakV, 0] : [0.9 * peakV]);
+  const shot = shootPeriodic(
+    (x) => {
+      const r = integratePeriod(circuit, x, { rtol: AC_RTOL, voltageScaleV, currentScaleA, record: true });
+      if (!r.ok) return { ok: false, reason: r.reason };
+      return { ok: true, end: r.end, value: { integrals: r.integrals, trace: r.trace ?? [], steps: r.steps } };
+    },
+    x0,
+    inductive ? [voltageScaleV, currentScaleA] : [voltageScaleV],
+    10 * AC_RTOL,
+  );
+  if (!shot.ok) return { ok: false, outcome: shot.code, reason: shot.reason };
+  const last = shot.value;
+  const end = shot.x.map((v, j) => v + (shot.residual[j] ?? 0));
+  return { ok: true, x: shot.x, end, integrals: last.integrals, trace: last.trace, iterations: shot.iterations, periods: shot.periods, steps: last.steps };
+}
+
+/**
+ * AC bridge with a reservoir capacitor, electrothermally: the periodic steady state at the
+ * junction temperatures, each element's Tj = Ta + RthJA·P̄ from its period-average loss (the
+ * thermal time constants are long against a mains period, so the average sets Tj; the ripple of
+ * Tj within a period is not computed), repeated by fixed-point iteration until the temperatures
+ * settle. A loss that keeps rising with temperature past the junction limit + 150 K is thermal
+ * runaway. Zero frequency, non-positive capacitance and the like are reported as invalid input; a
+ * load the source cannot feed is load-collapse.
+ */
+export function analyseBridgeAc(m: BridgeAcModel): BridgeAcOutcome {
+  const invalid = validateAcModel(m);
+  if (invalid !== undefined) return { outcome: "invalid-input", ...invalid };
+  const taK = cToK(m.ambientC);
+  const temps: Record<BridgePosition, number> = { line1High: taK, line2High: taK, line1Low: taK, line2Low: taK };
+  let warm: readonly number[] | undefined;
+  let periods = 0;
+  for (let iter = 1; iter <= THERMAL_MAX_ITER; iter += 1) {
+    const iso = solveBridgeAcAt(m, temps, warm);
+    if (!iso.ok) return { outcome: iso.outcome, reason: iso.reason };
+    periods += iso.periods;
+    warm = iso.x;
+    const period = 1 / m.frequencyHz;
+    let maxDelta = 0;
+    const next: Record<BridgePosition, number> = { ...temps };
+    for (const p of BRIDGE_POSITIONS) {
+      const e = m.elements[p];
+      const lossW = (iso.integrals.elementEnergyJ[SLOT[p]] ?? 0) / period;
+      const t = taK + elementRthKPerW(e) * lossW;
+      const ceilingK = cToK(elementTjMaxC(e) + SEARCH_ABOVE_LIMIT_K);
+      if (t > ceilingK) {
+        return {
+          outcome: "thermal-runaway",
+          position: p,
+          reason: `${p}: no stable junction temperature up to ${fmt(kToC(ceilingK))} °C; the loss (${fmt(lossW)} W) keeps the junction climbing`,
+          searchedToC: kToC(ceilingK),
+          lossAtSearchEndW: lossW,
+        };
+      }
+      maxDelta = Math.max(maxDelta, Math.abs(t - temps[p]));
+      next[p] = t;
+    }
+    if (maxDelta <= THERMAL_TOL_K) return finish(m, iso, temps, iter, periods);
+    Object.assign(temps, next);
+  }
+  return { outcome: "no-thermal-convergence", reason: `the junction temperatures did not settle within ${THERMAL_MAX_ITER} iterations (thermal loop gain close to 1)` };
+}
+
+function finish(m: BridgeAcModel, iso: Isothermal, temps: Readonly<Record<BridgePosition, number>>, thermalIterations: number, periods: number): BridgeAcOutcome {
+  const steadyState = steadyStateOf(m, iso, temps, { thermalIterations, periods });
+  const hot = steadyState.elements.find((e) => e.tjC > e.tjMaxC);
+  if (hot !== undefined) {
+    return { outcome: "over-temperature", steadyState, reason: `${hot.position} runs at ${fmt(hot.tjC)} °C, above its ${fmt(hot.tjMaxC)} °C junction limit` };
+  }
+  if (m.load.kind === "constant-power" && steadyState.outputMinV < m.load.minVoltageV) {
+    return { outcome: "load-undervoltage", steadyState, reason: `the output dips to ${fmt(steadyState.outputMinV)} V, below the load's ${fmt(m.load.minVoltageV)} V minimum operating voltage` };
+  }
+  return { outcome: "solved", steadyState };
+}
+
+/** Assemble the reported steady state from an isothermal solution. */
+export function steadyStateOf(
+  m: BridgeAcModel,
+  iso: Isothermal,
+  temps: Readonly<Record<BridgePosition, number>>,
+  counts: { readonly thermalIterations: number; readonly periods: number },
+): AcSteadyState {
+  const period = 1 / m.frequencyHz;
+  const x0 = iso.x;
+  const x1 = iso.end;
+  const stored = {
+    capacitorJ: 0.5 * m.capacitanceF * ((x1[0] ?? 0) ** 2 - (x0[0] ?? 0) ** 2),
+    inductorJ: 0.5 * m.leakageInductanceH * ((x1[1] ?? 0) ** 2 - (x0[1] ?? 0) ** 2),
+  };
+  const circuit = circuitMetrics(iso.integrals, period, m.sourceRmsV, stored);
+  const elements = BRIDGE_POSITIONS.map((position): AcElementResult => {
+    const e = m.elements[position];
+    return {
+      position,
+      mode: elementLaw(e, temps[position], circuit.dcOutputV).mode,
+      ...elementMetrics(iso.integrals, SLOT[position], period, iso.trace),
+      tjC: kToC(temps[position]),
+      tjMaxC: elementTjMaxC(e),
+      reverseRatingV: elementReverseRatingV(e),
+    };
+  });
+  return {
+    ...circuit,
+    elements,
+    totalElementLossW: elements.reduce((s, e) => s + e.lossW, 0),
+    solver: { shootingIterations: iso.iterations, periodsIntegrated: counts.periods, stepsLastPeriod: iso.steps, thermalIterations: counts.thermalIterations },
+  };
+}
+
+function buildCircuit(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, number>>): AcBridgeCircuit {
+  // Diode laws do not depend on the controller supply: build them once.
+  const fixed = new Map<BridgePosition, ForwardLaw>();
+  for (const p of BRIDGE_POSITIONS) {
+    const e = m.elements[p];
+    if (e.kind !== "nfet-ideal-diode") fixed.set(p, elementLaw(e, tjK[p], 0).law);
+  }
+  // MOSFET laws depend on the supply only through the gate drive: rebuild when that changes.
+  const cache = new Map<BridgePosition, { gateV: number | undefined; law: ForwardLaw }>();
+  const lawOf = (p: BridgePosition, supplyV: number): ForwardLaw => {
+    const f = fixed.get(p);
+    if (f !== undefined) return f;
+    const e = m.elements[p];
+    const gateV = e.kind === "nfet-ideal-diode" ? controllerGateV(e, supplyV) : undefined;
+    const hit = cache.get(p);
+    if (hit !== undefined && hit.gateV === gateV) return hit.law;
+    const law = elementLaw(e, tjK[p], supplyV).law;
+    cache.set(p, { gateV, law });
+    return law;
+  };
+  const allFixed = fixed.size === 4;
+  const pairs = (supplyV: number): PairLaws => ({
+    positive: [lawOf("line1High", supplyV), lawOf("line2Low", supplyV)],
+    negative: [lawOf("line2High", supplyV), lawOf("line1Low", supplyV)],
+  });
+  const constant = allFixed ? pairs(0) : undefined;
+  return {
+    sourceRmsV: m.sourceRmsV,
+    frequencyHz: m.frequencyHz,
+    sourceResistanceOhm: m.sourceResistanceOhm,
+    leakageInductanceH: m.leakageInductanceH,
+    capacitanceF: m.capacitanceF,
+    esrOhm: m.esrOhm,
+    load: m.load,
+    pairLaws: constant !== undefined ? () => constant : pairs,
+  };
+}
+
+/** A current scale for the error control: the load current at the source peak voltage. */
+function loadScaleA(load: LoadModel, peakV: number): number {
+  switch (load.kind) {
+    case "resistive":
+      return peakV / load.resistanceOhm;
+    case "constant-current":
+      return load.currentA;
+    case "constant-power":
+      return load.powerW / peakV;
+  }
+}

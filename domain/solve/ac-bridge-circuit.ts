@@ -1,0 +1,191 @@
+import type { LoadModel } from "./load-model.js";
+import { safeNewton } from "./safe-newton.js";
+
+/** Forward law of one bridge element at a fixed temperature: [drop V, dV/dI ohm] at I ≥ 0. */
+export type ForwardLaw = (currentA: number) => readonly [number, number];
+
+/** The two laws of the pair that conducts when the source current is positive / negative. */
+export interface PairLaws {
+  readonly positive: readonly [ForwardLaw, ForwardLaw];
+  readonly negative: readonly [ForwardLaw, ForwardLaw];
+}
+
+/**
+ * Sine source e(t) = √2·Vrms·sin(2πft) in series with R and L, a full bridge, and a reservoir
+ * capacitor C with series ESR across which the load sits. pairLaws gives the element laws for the
+ * voltage the controllers run from (the reservoir voltage).
+ */
+export interface AcBridgeCircuit {
+  readonly sourceRmsV: number;
+  readonly frequencyHz: number;
+  readonly sourceResistanceOhm: number;
+  readonly leakageInductanceH: number;
+  readonly capacitanceF: number;
+  readonly esrOhm: number;
+  readonly load: LoadModel;
+  readonly pairLaws: (controllerSupplyV: number) => PairLaws;
+}
+
+/** Everything at one instant: the state, the algebraic variables and the state derivatives. */
+export interface Snapshot {
+  readonly t: number;
+  readonly sourceV: number;
+  readonly capV: number;
+  /** Source (line 1) current, A; positive flows through the positive pair. */
+  readonly lineA: number;
+  readonly outV: number;
+  readonly loadA: number;
+  readonly capA: number;
+  /** Which pair conducts: 1 positive, −1 negative, 0 none. */
+  readonly pair: 1 | -1 | 0;
+  /** Drops of the conducting pair's two elements, V. */
+  readonly dropAV: number;
+  readonly dropBV: number;
+  /** Voltage across the leakage inductance, V. */
+  readonly inductorV: number;
+  /** dx/dt of the state [capV, lineA] (lineA only with inductance). */
+  readonly f: readonly number[];
+}
+
+export function loadCurrentA(load: LoadModel, v: number): number {
+  switch (load.kind) {
+    case "resistive":
+      return v / load.resistanceOhm;
+    case "constant-current":
+      return load.currentA;
+    case "constant-power":
+      return load.powerW / v;
+  }
+}
+
+function loadSlopeS(load: LoadModel, v: number): number {
+  switch (load.kind) {
+    case "resistive":
+      return 1 / load.resistanceOhm;
+    case "constant-current":
+      return 0;
+    case "constant-power":
+      return -load.powerW / (v * v);
+  }
+}
+
+/** v + k·ℓ(v) = b for the output voltage v > 0 (high-voltage root for constant power). */
+export function solveOutputV(load: LoadModel, b: number, k: number): number | undefined {
+  let v: number;
+  switch (load.kind) {
+    case "resistive":
+      v = b / (1 + k / load.resistanceOhm);
+      break;
+    case "constant-current":
+      v = b - k * load.currentA;
+      break;
+    case "constant-power": {
+      const disc = b * b - 4 * k * load.powerW;
+      if (!(disc >= 0)) return undefined;
+      v = 0.5 * (b + Math.sqrt(disc));
+      break;
+    }
+  }
+  return v > 0 ? v : undefined;
+}
+
+/**
+ * One implicit stage x − a·f(t, x) = b of a one-step method (a = 0: the algebraic state at x = b).
+ * Without inductance x = [capV]: with source current of magnitude i through the pair picked by
+ * the sign of e(t), outV = |e| − R·i − VA(i) − VB(i), and capV − a·iC/C = b reduces to
+ * outV + k·ℓ(outV) − k·i = b with k = ESR + a/C, strictly decreasing in i: no conduction when it
+ * is ≤ 0 at i = 0, else one root. With inductance x = [capV, i]: the capacitor equation gives outV
+ * from |i| in closed form, and the inductor equation i − (a/L)·(e − R·i − sign(i)·(VA + VB + outV))
+ * = b₁ is increasing in i with a jump at i = 0 (the blocking bridge): zero current inside the jump.
+ * Undefined when the load cannot be held (outV would fall to zero): the caller shrinks the step.
+ */
+export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: number, b: readonly number[], hintA: number): Snapshot | undefined {
+  const w = 2 * Math.PI * c.frequencyHz;
+  const e = Math.SQRT2 * c.sourceRmsV * Math.sin(w * t);
+  const r = c.sourceResistanceOhm;
+  const cap = c.capacitanceF;
+  const k = c.esrOhm + a / cap;
+  const bv = b[0] ?? 0;
+  const lh = c.leakageInductanceH;
+  const finish = (i: number, s: 1 | -1 | 0, outV: number, dA: number, dB: number, inductorV: number): Snapshot => {
+    const loadA = loadCurrentA(c.load, outV);
+    const capA = Math.abs(i) - loadA;
+    const f = lh > 0 ? [capA / cap, inductorV / lh] : [capA / cap];
+    return { t, sourceV: e, capV: outV - c.esrOhm * capA, lineA: i, outV, loadA, capA, pair: s, dropAV: dA, dropBV: dB, inductorV, f };
+  };
+
+  if (!(lh > 0)) {
+    const off = solveOutputV(c.load, bv, k);
+    if (off === undefined) return undefined;
+    const m = Math.abs(e);
+    const s: 1 | -1 = e >= 0 ? 1 : -1;
+    const [la, lb] = s > 0 ? laws.positive : laws.negative;
+    // Laws give the right-hand limit at zero current (a regulated drop starts at its setpoint).
+    if (off >= m - la(0)[0] - lb(0)[0]) return finish(0, 0, off, 0, 0, 0);
+    // g(i) = outV + k·ℓ(outV) − k·i − b: g(0) > 0, decreasing.
+    const g = (i: number): readonly [number, number] => {
+      const [va, sa] = la(i);
+      const [vb, sb] = lb(i);
+      const out = m - r * i - va - vb;
+      if (!(out > 0)) return [out - k * i - bv, -(r + sa + sb) - k];
+      return [out + k * loadCurrentA(c.load, out) - k * i - bv, -(r + sa + sb) * (1 + k * loadSlopeS(c.load, out)) - k];
+    };
+    let hi = Math.max(Math.abs(hintA) * 2, (m - off) / Math.max(r + k, 1e-3), 1e-9);
+    for (let n = 0; n < 200 && g(hi)[0] > 0; n += 1) hi *= 2;
+    const i = safeNewton(g, 0, hi, g(0)[0], Math.abs(hintA), 1e-13 * hi);
+    const [va] = la(i);
+    const [vb] = lb(i);
+    const outV = m - r * i - va - vb;
+    if (!(outV > 0)) return undefined;
+    return finish(s * i, s, outV, va, vb, 0);
+  }
+
+  const bi = b[1] ?? 0;
+  if (a === 0) {
+    // Algebraic state: the current is the state itself.
+    const i = bi;
+    const outV = solveOutputV(c.load, bv + c.esrOhm * Math.abs(i), c.esrOhm);
+    if (outV === undefined) return undefined;
+    if (i === 0) {
+      const s: 1 | -1 = e >= 0 ? 1 : -1;
+      const [la, lb] = s > 0 ? laws.positive : laws.negative;
+      const drive = Math.abs(e) - outV - la(0)[0] - lb(0)[0];
+      return finish(0, 0, outV, 0, 0, drive > 0 ? s * drive : 0);
+    }
+    const s: 1 | -1 = i > 0 ? 1 : -1;
+    const [la, lb] = s > 0 ? laws.positive : laws.negative;
+    const va = la(Math.abs(i))[0];
+    const vb = lb(Math.abs(i))[0];
+    return finish(i, s, outV, va, vb, e - r * i - s * (va + vb + outV));
+  }
+  const al = a / lh;
+  const out0 = solveOutputV(c.load, bv, k);
+  if (out0 === undefined) return undefined;
+  const q = al * e + bi;
+  const onset = (p: readonly [ForwardLaw, ForwardLaw]): number => al * (out0 + p[0](0)[0] + p[1](0)[0]);
+  let s: 1 | -1 | 0 = 0;
+  if (q > onset(laws.positive)) s = 1;
+  else if (-q > onset(laws.negative)) s = -1;
+  if (s === 0) return finish(0, 0, out0, 0, 0, -bi / al);
+  const sq = s * q;
+  const [la, lb] = s > 0 ? laws.positive : laws.negative;
+  const dk = (out: number): number => k / (1 + k * loadSlopeS(c.load, out));
+  // h(x) = x + (a/L)·(R·x + VA + VB + outV(x)) − s·q for x = |i| > 0: increasing, h(0) < 0 ≤ h(sq).
+  let failed = false;
+  const h = (x: number): readonly [number, number] => {
+    const out = solveOutputV(c.load, bv + k * x, k);
+    if (out === undefined) {
+      failed = true;
+      return [1, 1];
+    }
+    const [va, sa] = la(x);
+    const [vb, sb] = lb(x);
+    return [x + al * (r * x + va + vb + out) - sq, 1 + al * (r + sa + sb + dk(out))];
+  };
+  const x = safeNewton(h, 0, sq, onset(s > 0 ? laws.positive : laws.negative) - sq, Math.abs(hintA), 1e-14 * sq);
+  const outV = solveOutputV(c.load, bv + k * x, k);
+  if (failed || outV === undefined) return undefined;
+  const va = la(x)[0];
+  const vb = lb(x)[0];
+  return finish(s * x, s, outV, va, vb, (s * x - bi) / al);
+}

@@ -1,0 +1,227 @@
+import { type AcBridgeCircuit, type Snapshot, solveStage } from "./ac-bridge-circuit.js";
+import { BDF_COEFF, BDF_W_GAMMA, BDF_W_N, GAMMA, LTE_COEFF, QUAD_W0, QUAD_W1, QUAD_WG, TR_COEFF } from "./tr-bdf2.js";
+
+/** Index of an element in the accumulators: positive pair [0, 1], negative pair [2, 3]. */
+export type ElementSlot = 0 | 1 | 2 | 3;
+
+/** Integrals over one period (J, A·s, A²·s, V·s) and extremes. */
+export interface PeriodIntegrals {
+  readonly sourceEnergyJ: number;
+  readonly lineA2s: number;
+  readonly sourceResistanceEnergyJ: number;
+  readonly inductorEnergyJ: number;
+  readonly esrEnergyJ: number;
+  readonly capEnergyJ: number;
+  readonly capA2s: number;
+  readonly loadEnergyJ: number;
+  readonly loadAs: number;
+  readonly outVs: number;
+  readonly elementAs: readonly number[];
+  readonly elementA2s: readonly number[];
+  readonly elementEnergyJ: readonly number[];
+  readonly elementPeakA: readonly number[];
+  readonly elementMaxReverseV: readonly number[];
+  readonly outMinV: number;
+  readonly outMaxV: number;
+  readonly lineMaxA: number;
+}
+
+export type PeriodOutcome =
+  | { readonly ok: true; readonly end: readonly number[]; readonly integrals: PeriodIntegrals; readonly steps: number; readonly trace?: readonly Snapshot[] }
+  | { readonly ok: false; readonly code: "load-collapse"; readonly atS: number; readonly reason: string };
+
+export interface PeriodOptions {
+  /** Relative tolerance of the local error against a voltage scale and a current scale. */
+  readonly rtol: number;
+  readonly voltageScaleV: number;
+  readonly currentScaleA: number;
+  readonly record: boolean;
+}
+
+/**
+ * Integrate the AC bridge over one period from state x0 at t = 0 (the rising zero of the source)
+ * by TR-BDF2 with local-error step control: the error estimate is LTE_COEFF·h³·|x‴|, with x‴ from
+ * the second divided difference of f on the step's three nodes. The controllers' supply is the
+ * reservoir voltage at the start of each step. Steps end on the source's peaks and zero
+ * crossings. Integrals use the quadrature on the same nodes, so
+ * the pointwise power balance e·i = R·i² + Σ v·i + ESR·iC² + vC·iC + vout·iload + L·i·di/dt
+ * carries over to the period integrals.
+ */
+export function integratePeriod(
+  c: AcBridgeCircuit,
+  x0: readonly number[],
+  opt: PeriodOptions,
+): PeriodOutcome {
+  const period = 1 / c.frequencyHz;
+  const scale = [opt.rtol * opt.voltageScaleV, opt.rtol * opt.currentScaleA];
+  const hMax = period / 25;
+  const hMin = period * 1e-12;
+  const acc = newAccumulators();
+  const trace: Snapshot[] = [];
+  let t = 0;
+  let x = [...x0];
+  let laws = c.pairLaws(x[0] ?? 0);
+  const first = solveStage(c, laws, 0, 0, x, 0);
+  if (first === undefined) return collapse(0);
+  let s0: Snapshot = first;
+  if (opt.record) trace.push(s0);
+  let h = period / 2000;
+  let steps = 0;
+  // Breakpoints at the source's peaks and zero crossings: a short conduction pulse around a
+  // peak always contains a node, so a long step cannot jump over it unseen.
+  const breaks = [0.25, 0.5, 0.75, 1].map((q) => q * period);
+  let nextBreak = 0;
+  while (t < period) {
+    while ((breaks[nextBreak] ?? period) <= t * (1 + 1e-12)) nextBreak += 1;
+    const target = breaks[nextBreak] ?? period;
+    const last = t + h >= target - period * 1e-12;
+    if (last) h = target - t;
+    laws = c.pairLaws(x[0] ?? 0);
+    const a1 = TR_COEFF * h;
+    const b1 = x.map((v, j) => v + a1 * (s0.f[j] ?? 0));
+    const sg = solveStage(c, laws, t + GAMMA * h, a1, b1, s0.lineA);
+    const xg = sg === undefined ? undefined : stateOf(sg, x.length);
+    const s1 =
+      sg === undefined || xg === undefined
+        ? undefined
+        : solveStage(
+            c,
+            laws,
+            t + h,
+            BDF_COEFF * h,
+            x.map((v, j) => BDF_W_GAMMA * (xg[j] ?? 0) + BDF_W_N * v),
+            sg.lineA,
+          );
+    if (sg === undefined || s1 === undefined) {
+      h /= 4;
+      if (h < hMin) return collapse(t);
+      continue;
+    }
+    let errNorm = 0;
+    for (let j = 0; j < x.length; j += 1) {
+      const f0 = s0.f[j] ?? 0;
+      const fg = sg.f[j] ?? 0;
+      const f1 = s1.f[j] ?? 0;
+      const dd = ((f1 - fg) / ((1 - GAMMA) * h) - (fg - f0) / (GAMMA * h)) / h;
+      const err = LTE_COEFF * h * h * h * 2 * Math.abs(dd);
+      errNorm = Math.max(errNorm, err / (scale[j] ?? 1));
+    }
+    if (errNorm <= 1 || h <= hMin * 4) {
+      accumulate(acc, c, s0, sg, s1, h);
+      if (opt.record) trace.push(sg, s1);
+      t = last ? target : t + h;
+      x = stateOf(s1, x.length);
+      s0 = s1;
+      steps += 1;
+    }
+    const grow = errNorm > 0 ? 0.9 * errNorm ** (-1 / 3) : 4;
+    h = Math.min(hMax, h * Math.min(4, Math.max(0.2, grow)));
+  }
+  return { ok: true, end: x, integrals: acc, steps, ...(opt.record ? { trace } : {}) };
+}
+
+function collapse(atS: number): PeriodOutcome {
+  return {
+    ok: false,
+    code: "load-collapse",
+    atS,
+    reason: "the reservoir voltage cannot be held: the load draws more than the source can feed through the bridge",
+  };
+}
+
+function stateOf(s: Snapshot, n: number): number[] {
+  return n > 1 ? [s.capV, s.lineA] : [s.capV];
+}
+
+interface Acc {
+  sourceEnergyJ: number;
+  lineA2s: number;
+  sourceResistanceEnergyJ: number;
+  inductorEnergyJ: number;
+  esrEnergyJ: number;
+  capEnergyJ: number;
+  capA2s: number;
+  loadEnergyJ: number;
+  loadAs: number;
+  outVs: number;
+  elementAs: number[];
+  elementA2s: number[];
+  elementEnergyJ: number[];
+  elementPeakA: number[];
+  elementMaxReverseV: number[];
+  outMinV: number;
+  outMaxV: number;
+  lineMaxA: number;
+}
+
+function newAccumulators(): Acc {
+  return {
+    sourceEnergyJ: 0,
+    lineA2s: 0,
+    sourceResistanceEnergyJ: 0,
+    inductorEnergyJ: 0,
+    esrEnergyJ: 0,
+    capEnergyJ: 0,
+    capA2s: 0,
+    loadEnergyJ: 0,
+    loadAs: 0,
+    outVs: 0,
+    elementAs: [0, 0, 0, 0],
+    elementA2s: [0, 0, 0, 0],
+    elementEnergyJ: [0, 0, 0, 0],
+    elementPeakA: [0, 0, 0, 0],
+    elementMaxReverseV: [0, 0, 0, 0],
+    outMinV: Number.POSITIVE_INFINITY,
+    outMaxV: Number.NEGATIVE_INFINITY,
+    lineMaxA: 0,
+  };
+}
+
+const ELEMENT_BUF = [0, 0, 0, 0];
+
+function accumulate(acc: Acc, c: AcBridgeCircuit, s0: Snapshot, sg: Snapshot, s1: Snapshot, h: number): void {
+  const w0 = QUAD_W0 * h;
+  const wg = QUAD_WG * h;
+  const w1 = QUAD_W1 * h;
+  const nodes: readonly (readonly [Snapshot, number])[] = [
+    [s0, w0],
+    [sg, wg],
+    [s1, w1],
+  ];
+  for (const [s, w] of nodes) {
+    const i = s.lineA;
+    const mag = Math.abs(i);
+    acc.sourceEnergyJ += w * s.sourceV * i;
+    acc.lineA2s += w * i * i;
+    acc.sourceResistanceEnergyJ += w * c.sourceResistanceOhm * i * i;
+    acc.inductorEnergyJ += w * s.inductorV * i;
+    acc.esrEnergyJ += w * c.esrOhm * s.capA * s.capA;
+    acc.capEnergyJ += w * s.capV * s.capA;
+    acc.capA2s += w * s.capA * s.capA;
+    acc.loadEnergyJ += w * s.outV * s.loadA;
+    acc.loadAs += w * s.loadA;
+    acc.outVs += w * s.outV;
+    acc.outMinV = Math.min(acc.outMinV, s.outV);
+    acc.outMaxV = Math.max(acc.outMaxV, s.outV);
+    acc.lineMaxA = Math.max(acc.lineMaxA, mag);
+    const base = s.pair > 0 ? 0 : 2;
+    if (s.pair !== 0) {
+      ELEMENT_BUF[base] = s.dropAV;
+      ELEMENT_BUF[base + 1] = s.dropBV;
+      for (const slot of [base, base + 1]) {
+        acc.elementAs[slot] = (acc.elementAs[slot] ?? 0) + w * mag;
+        acc.elementA2s[slot] = (acc.elementA2s[slot] ?? 0) + w * mag * mag;
+        acc.elementEnergyJ[slot] = (acc.elementEnergyJ[slot] ?? 0) + w * (ELEMENT_BUF[slot] ?? 0) * mag;
+        acc.elementPeakA[slot] = Math.max(acc.elementPeakA[slot] ?? 0, mag);
+      }
+      // Blocking elements: the output plus the drop of the conducting element on their line
+      // (line1Low ↔ line1High, line2High ↔ line2Low; see bridge-element.ts REVERSE_PARTNER).
+      const other = s.pair > 0 ? 2 : 0;
+      const rev = [s.outV + s.dropBV, s.outV + s.dropAV];
+      acc.elementMaxReverseV[other] = Math.max(acc.elementMaxReverseV[other] ?? 0, rev[0] ?? 0);
+      acc.elementMaxReverseV[other + 1] = Math.max(acc.elementMaxReverseV[other + 1] ?? 0, rev[1] ?? 0);
+    } else {
+      for (let k = 0; k < 4; k += 1) acc.elementMaxReverseV[k] = Math.max(acc.elementMaxReverseV[k] ?? 0, s.outV);
+    }
+  }
+}
