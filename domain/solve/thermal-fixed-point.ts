@@ -1,4 +1,4 @@
-import { cToK, kToC } from "../physics/constants.js";
+import { cToK } from "../physics/constants.js";
 import { bracketedRoot } from "./root-find.js";
 
 /** The loss at a junction temperature, or a failure the caller records (e.g. the circuit collapsed). */
