@@ -3,7 +3,7 @@ import type { monteCarloSpec } from "../../contracts/review.js";
 import { distributionOf, monteCarlo } from "../../domain/checks/monte-carlo.js";
 import type { ReviewRequirement } from "../../domain/review/candidate-review.js";
 import type { CompiledRuleSet } from "../../domain/rules/compile-rule-set.js";
-import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
+import { evaluateRule } from "../../domain/rules/evaluate-rules.js";
 import type { RuleInput } from "../../domain/rules/rule-model.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
 
@@ -20,6 +20,12 @@ export function reviewMonteCarlo(spec: z.output<typeof monteCarloSpec>, stage: S
   const fails = new Map<string, number>();
   const warns = new Map<string, number>();
   let unsolved = 0;
+  // Only the rules that read a sampled figure can change from sample to sample.
+  const sampled = new Set(["tjWorstC", "lossWorstW", "dropWorstV", "loadVMinV"]);
+  const varying = set.rules.filter((r) => r.names.some((n) => sampled.has(n)));
+  // One metrics record, its sampled figures overwritten per sample (read synchronously by the rules).
+  const metrics: Record<string, number | boolean> = { ...base.metrics };
+  const input = { ...base, metrics, unavailable: {} };
   const supplyV = spec.supplyV ?? req.supplyMinV;
   const ambientC = spec.ambientC ?? req.ambientMaxC;
   monteCarlo({ stage, supplyV, ambientC, sourceResistanceOhm: req.sourceResistanceOhm, load: req.load, tolerances: spec.tolerances, samples: spec.samples, seed: spec.seed }, (s) => {
@@ -32,10 +38,14 @@ export function reviewMonteCarlo(spec: z.output<typeof monteCarloSpec>, stage: S
     loss.push(p.dieLossW);
     drop.push(p.forward.dropV);
     loadV.push(p.loadV);
-    const metrics = { ...base.metrics, tjWorstC: p.tjC, lossWorstW: p.dieLossW, dropWorstV: p.forward.dropV, loadVMinV: p.loadV };
-    for (const v of evaluateRuleSet(set, { ...base, metrics, unavailable: {} }).verdicts) {
+    metrics["tjWorstC"] = p.tjC;
+    metrics["lossWorstW"] = p.dieLossW;
+    metrics["dropWorstV"] = p.forward.dropV;
+    metrics["loadVMinV"] = p.loadV;
+    for (const rule of varying) {
+      const v = evaluateRule(rule, input, set.stamp);
       if (v.outcome === "fail") fails.set(v.ruleId, (fails.get(v.ruleId) ?? 0) + 1);
-      if (v.outcome === "warn") warns.set(v.ruleId, (warns.get(v.ruleId) ?? 0) + 1);
+      else if (v.outcome === "warn") warns.set(v.ruleId, (warns.get(v.ruleId) ?? 0) + 1);
     }
   });
   const share = (m: Map<string, number>) => Object.fromEntries([...m.entries()].sort(([a], [b]) => (a < b ? -1 : 1)).map(([k, v]) => [k, v / spec.samples]));

@@ -1,5 +1,7 @@
 import type { ThermalPath } from "../physics/thermal-path.js";
-import { solveOperatingPoint } from "../solve/electrothermal-point.js";
+import { cToK } from "../physics/constants.js";
+import { solveElectrical } from "../solve/electrical-point.js";
+import { dieLossW, solveOperatingPoint } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
 import { bracketedRoot } from "../solve/root-find.js";
 import type { StageModel } from "../stages/stage-model.js";
@@ -32,6 +34,15 @@ export function thermalSizing(conditions: readonly SizingCondition[], path: Ther
   for (const c of conditions) {
     if (c.ambientC >= targetC) {
       return { outcome: "impossible", reason: `the ${c.ambientC} °C ambient alone reaches the ${targetC} °C junction target: no thermal path can hold it` };
+    }
+    // Closed form: at the limit Tj = target, so Rth,max = (target − Ta)/P(target), with P the
+    // circuit's loss solved at Tj = target — exact whenever target is the stable root there
+    // (Rth·dP/dTj < 1). Otherwise (near runaway) the bracketed search below decides.
+    const direct = directLimit(c, targetC);
+    if (direct === "no-heat") continue;
+    if (direct !== undefined) {
+      limit = Math.min(limit, direct);
+      continue;
     }
     const excess = (rth: number): number => {
       const r = solveOperatingPoint({ stage: c.stage, supplyV: c.supplyV, sourceResistanceOhm: c.sourceResistanceOhm, load: c.load, ambientC: c.ambientC, rthKPerW: rth });
@@ -68,4 +79,22 @@ export function thermalSizing(conditions: readonly SizingCondition[], path: Ther
     presentTotalRthKPerW,
     reason: `the path needs at most ${limit.toFixed(2)} K/W junction-to-ambient (now ${presentTotalRthKPerW} K/W); give θJC and θCS to size a heatsink`,
   };
+}
+
+/** (target − Ta)/P(target) when target is a stable root there; "no-heat" when nothing dissipates. */
+function directLimit(c: SizingCondition, targetC: number): number | "no-heat" | undefined {
+  const loss = (tK: number): number | undefined => {
+    const e = solveElectrical(c, tK);
+    return e.ok ? dieLossW(c.stage, e.point) : undefined;
+  };
+  const tK = cToK(targetC);
+  const p = loss(tK);
+  if (p === undefined) return undefined;
+  if (p <= 0) return "no-heat";
+  const rth = (targetC - c.ambientC) / p;
+  const lo = loss(tK - 0.01);
+  const hi = loss(tK + 0.01);
+  if (lo === undefined || hi === undefined) return undefined;
+  const gain = (rth * (hi - lo)) / 0.02;
+  return gain < 1 ? rth : undefined;
 }

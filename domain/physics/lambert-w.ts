@@ -40,6 +40,11 @@ export function lambertW0(x: number): number {
 /** Wright omega ω(x) = W0(e^x) for real x, computed without forming e^x. */
 export function wrightOmega(x: number): number {
   if (x < -700) return Math.exp(x); // ω ≈ e^x to double precision
+  if (x < -10) {
+    // Series W(z) = z − z² + 3z³/2 − 8z⁴/3 … with z = e^x < 4.6e-5: the next term is below 1e-17·z.
+    const z = Math.exp(x);
+    return z * (1 - z * (1 - 1.5 * z));
+  }
   if (x < 1) return lambertW0(Math.exp(x));
   // Solve g(w) = w + ln w - x = 0 by Halley: g' = 1 + 1/w, g'' = -1/w².
   let w = x - Math.log(x);

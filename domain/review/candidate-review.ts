@@ -86,10 +86,19 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
   const tctx: TransientContext = { ...req.transientContext, supplyNominalV: req.supplyNominalV, supplyMaxV: req.supplyMaxV, reverseV: req.reverseV };
   const transients = req.transients.map((p) => transientStress(cand.stage, p, tctx));
 
-  // Thermal sizing at the hot, full-load corners with the datasheet-maximum part.
+  // Thermal sizing at the hot, full-load corner with the datasheet-maximum part, at the supply
+  // whose corner ran hottest (every supply when none of those corners has a point).
   const sizingStage = cand.datasheetMax ? scaleStage(cand.stage, cand.datasheetMax) : cand.stage;
+  const hotTolerance = cand.datasheetMax ? "datasheet-max" : "typical";
+  let hottest: { supplyV: number; tjC: number } | undefined;
+  for (const c of corners) {
+    const k = c.conditions;
+    if (k.ambient !== "max" || k.loadScale !== fullScale || k.tolerance !== hotTolerance || !("point" in c.result)) continue;
+    if (hottest === undefined || c.result.point.tjC > hottest.tjC) hottest = { supplyV: k.supplyV, tjC: c.result.point.tjC };
+  }
+  const sizingSupplies = hottest ? [hottest.supplyV] : [req.supplyMinV, req.supplyNominalV, req.supplyMaxV];
   const sizing = thermalSizing(
-    [req.supplyMinV, req.supplyNominalV, req.supplyMaxV].map((supplyV) => ({
+    sizingSupplies.map((supplyV) => ({
       supplyV,
       ambientC: req.ambientMaxC,
       load: scaleLoad(req.load, fullScale),

@@ -41,8 +41,13 @@ export const SEARCH_ABOVE_LIMIT_K = 150;
  */
 export function solveOperatingPoint(m: OperatingPointModel): OperatingPointOutcome {
   const tjMaxC = stageTjMaxC(m.stage);
+  // The search evaluates the root itself, then probes ±0.01 K for the loop gain: keep the
+  // circuit solved at the root instead of solving it again.
+  const recent: { tK: number; e: ReturnType<typeof solveElectrical> }[] = [];
   const r = thermalFixedPoint(m.ambientC, m.rthKPerW, tjMaxC + SEARCH_ABOVE_LIMIT_K, (tK) => {
     const e = solveElectrical(m, tK);
+    if (recent.length >= 3) recent.shift();
+    recent.push({ tK, e });
     return e.ok ? { ok: true, lossW: dieLossW(m.stage, e.point) } : { ok: false, failure: e };
   });
   if (r.kind === "failed") {
@@ -59,7 +64,7 @@ export function solveOperatingPoint(m: OperatingPointModel): OperatingPointOutco
       evidence: { searchedToC: kToC(r.searchedToK), lossAtSearchEndW: r.lossAtEndW, thermalLoopGainAtSearchEnd: r.loopGainAtEnd },
     };
   }
-  const e = solveElectrical(m, r.tjK);
+  const e = recent.find((x) => x.tK === r.tjK)?.e ?? solveElectrical(m, r.tjK);
   if (!e.ok) throw new Error("unreachable: the circuit solved during the search but not at its root");
   const point: SolvedPoint = { ...e.point, tjC: kToC(r.tjK), dieLossW: r.lossW, thermalLoopGain: r.loopGain, iterations: r.evaluations };
   if (point.tjC > tjMaxC) {

@@ -1,4 +1,6 @@
-import { type DiodeParams, diodeCurrentA, diodeSlopeOhm, diodeVoltageV } from "../physics/diode.js";
+import { thermalVoltageV } from "../physics/constants.js";
+import { type DiodeParams, diodeVoltageV, saturationCurrentAt } from "../physics/diode.js";
+import { wrightOmega } from "../physics/lambert-w.js";
 
 /** How the stage conducts at an operating point. */
 export type ConductionMode =
@@ -34,17 +36,30 @@ export function junctionState(d: DiodeParams, currentA: number, tK: number, mode
  * solves V/R + Id(V) = I (monotone in V) by Newton steps kept inside a shrinking bracket.
  */
 export function channelWithBodyDiodeV(rOhm: number, d: DiodeParams, currentA: number, tK: number): number {
+  // Is(T) and n·Vt once per call (the hot path of every MOSFET stage).
+  const is = saturationCurrentAt(d, tK);
+  const nvt = d.ideality * thermalVoltageV(tK);
+  const rs = d.seriesResistanceOhm;
+  const id = (v: number): number => {
+    if (rs <= 0) return is * Math.expm1(v / nvt);
+    return (nvt / rs) * wrightOmega(Math.log((is * rs) / nvt) + (v + is * rs) / nvt) - is;
+  };
+  // The usual case: at I·R the body diode carries a negligible share, and V = (I − Id)·R to
+  // first order (the neglected term is Id·R·(dId/dV)·R, far below double precision here).
+  const v0 = currentA * rOhm;
+  const id0 = id(v0);
+  if (id0 <= 1e-9 * currentA) return v0 - id0 * rOhm;
   let lo = 0;
-  let hi = Math.min(currentA * rOhm, diodeVoltageV(d, currentA, tK));
+  let hi = Math.min(v0, nvt * Math.log1p(currentA / is) + currentA * rs);
   let v = hi;
   for (let i = 0; i < 100; i += 1) {
-    const id = diodeCurrentA(d, v, tK);
-    const f = v / rOhm + id - currentA;
+    const idv = id(v);
+    const f = v / rOhm + idv - currentA;
     if (Math.abs(f) <= 1e-13 * Math.max(currentA, 1e-12)) break;
     if (f > 0) hi = v;
     else lo = v;
-    // dId/dV = 1 / slope at the diode current
-    const g = 1 / rOhm + 1 / diodeSlopeOhm(d, Math.max(id, 0), tK);
+    // dId/dV = 1 / (n·Vt/(Id + Is) + Rs)
+    const g = 1 / rOhm + 1 / (nvt / (Math.max(idv, 0) + is) + rs);
     let next = v - f / g;
     if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
     if (Math.abs(next - v) <= 1e-15 * Math.max(v, 1e-12)) {
