@@ -1,13 +1,6 @@
-import type { LoadModel } from "../solve/load-model.js";
+import type { AcSourceAndFilter } from "../solve/ac-bridge-circuit.js";
 
-interface AcInputs {
-  readonly sourceRmsV: number;
-  readonly frequencyHz: number;
-  readonly sourceResistanceOhm: number;
-  readonly leakageInductanceH: number;
-  readonly capacitanceF: number;
-  readonly esrOhm: number;
-  readonly load: LoadModel;
+interface AcInputs extends AcSourceAndFilter {
   readonly ambientC: number;
 }
 

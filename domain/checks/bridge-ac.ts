@@ -1,7 +1,6 @@
 import { cToK, kToC } from "../physics/constants.js";
-import type { AcBridgeCircuit, ForwardLaw, PairLaws } from "../solve/ac-bridge-circuit.js";
+import type { AcBridgeCircuit, AcSourceAndFilter, ForwardLaw, PairLaws, Snapshot } from "../solve/ac-bridge-circuit.js";
 import { integratePeriod, type PeriodIntegrals } from "../solve/ac-bridge-period.js";
-import type { Snapshot } from "../solve/ac-bridge-circuit.js";
 import { fmt } from "../solve/electrical-point.js";
 import { SEARCH_ABOVE_LIMIT_K } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
@@ -19,16 +18,8 @@ import {
   elementTjMaxC,
 } from "./bridge-element.js";
 
-export interface BridgeAcModel {
+export interface BridgeAcModel extends AcSourceAndFilter {
   readonly elements: BridgeElements;
-  readonly sourceRmsV: number;
-  readonly frequencyHz: number;
-  readonly sourceResistanceOhm: number;
-  /** Leakage inductance of the source (transformer), H; 0 for none. */
-  readonly leakageInductanceH: number;
-  readonly capacitanceF: number;
-  readonly esrOhm: number;
-  readonly load: LoadModel;
   readonly ambientC: number;
 }
 

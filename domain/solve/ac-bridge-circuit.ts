@@ -15,15 +15,20 @@ export interface PairLaws {
  * capacitor C with series ESR across which the load sits. pairLaws gives the element laws for the
  * voltage the controllers run from (the reservoir voltage).
  */
-export interface AcBridgeCircuit {
+export interface AcBridgeCircuit extends AcSourceAndFilter {
+  readonly pairLaws: (controllerSupplyV: number) => PairLaws;
+}
+
+/** The AC source, its leakage, the reservoir capacitor and the load: shared by every AC bridge model. */
+export interface AcSourceAndFilter {
   readonly sourceRmsV: number;
   readonly frequencyHz: number;
   readonly sourceResistanceOhm: number;
+  /** Leakage inductance of the source (transformer), H; 0 for none. */
   readonly leakageInductanceH: number;
   readonly capacitanceF: number;
   readonly esrOhm: number;
   readonly load: LoadModel;
-  readonly pairLaws: (controllerSupplyV: number) => PairLaws;
 }
 
 /** Everything at one instant: the state, the algebraic variables and the state derivatives. */
