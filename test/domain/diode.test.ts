@@ -84,6 +84,7 @@ quit
           if (i === undefined || v === undefined) continue;
           worst = Math.max(worst, Math.abs(diodeVoltageV(p, i, cToK(tC)) - v));
         }
+        if (process.env.BACKSTOP_REPORT) console.log(`ngspice diode worst |dV| ${tC} degC: ${worst.toExponential(2)} V`);
         expect(worst).toBeLessThan(1e-3);
       }
     }
