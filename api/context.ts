@@ -14,8 +14,19 @@ export interface PartsCatalog {
   list(): readonly CatalogPart[];
 }
 
+/** What an adapter learns of each procedure call (for metrics); `outcome` is the result's or the error code. */
+export interface ProcedureObservation {
+  readonly path: string;
+  readonly ok: boolean;
+  readonly data?: unknown;
+  readonly error?: unknown;
+  readonly seconds: number;
+}
+
 export interface Context {
   readonly catalog: PartsCatalog;
   /** Rule sets requests may name; absent: the built-in sets only. */
   readonly ruleSets?: RuleSetStore | undefined;
+  /** optional observer of every procedure call (the HTTP adapter's metrics) */
+  readonly observe?: (o: ProcedureObservation) => void;
 }

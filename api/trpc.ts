@@ -9,5 +9,15 @@ const t = initTRPC.context<Context>().create({
 });
 
 export const router = t.router;
-export const publicProcedure = t.procedure;
+/** Times every call (input parsing included) and tells the context's observer, if any. */
+const observed = t.middleware(async ({ path, ctx, next }) => {
+  if (ctx.observe === undefined) return next();
+  const started = performance.now();
+  const r = await next();
+  const seconds = (performance.now() - started) / 1000;
+  ctx.observe(r.ok ? { path, ok: true, data: r.data, seconds } : { path, ok: false, error: r.error, seconds });
+  return r;
+});
+
+export const publicProcedure = t.procedure.use(observed);
 export const createCallerFactory = t.createCallerFactory;

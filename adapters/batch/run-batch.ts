@@ -3,8 +3,7 @@ import type { Readable, Writable } from "node:stream";
 import { z } from "zod";
 import type { Context } from "../../api/context.js";
 import { errorBodyOf } from "../../api/error-body.js";
-import { appRouter } from "../../api/router.js";
-import { createCallerFactory } from "../../api/trpc.js";
+import { type Invoke, procedureInvoker } from "../../api/procedure-registry.js";
 import type { ErrorBody } from "../../contracts/outcome.js";
 
 /** One input line: `{ "id"?: string|number, "procedure": "<router path>", "input": {...} }`. */
@@ -25,19 +24,7 @@ export interface BatchCounts {
 }
 
 const MAX_LINE_CHARS = 1_000_000;
-type Invoke = (input: unknown) => Promise<unknown>;
-
-/** Resolve a router path to a callable procedure of an in-process caller (same router as HTTP). */
-export function procedureInvoker(ctx: Context): (path: string) => Invoke | undefined {
-  const caller = createCallerFactory(appRouter)(ctx) as unknown as Record<string, unknown>;
-  const known = new Set(Object.keys(appRouter._def.procedures));
-  return (path) => {
-    if (!known.has(path)) return undefined;
-    let node: unknown = caller;
-    for (const part of path.split(".")) node = (node as Record<string, unknown>)[part];
-    return node as Invoke;
-  };
-}
+export { procedureInvoker };
 
 /** Process one raw line into exactly one output record; never throws. */
 export async function processLine(raw: string, lineNo: number, invoker: (path: string) => Invoke | undefined): Promise<BatchOutputLine> {

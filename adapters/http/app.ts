@@ -1,22 +1,38 @@
 import { randomUUID } from "node:crypto";
 import { fetchRequestHandler } from "@trpc/server/adapters/fetch";
 import { Hono } from "hono";
+import { bodyLimit } from "hono/body-limit";
 import type { Context } from "../../api/context.js";
+import { errorBodyOf } from "../../api/error-body.js";
+import { openApiText } from "../../api/openapi.js";
 import { appRouter } from "../../api/router.js";
+import { outcomeLabel } from "../compute/call.js";
+import type { ComputePool } from "../compute/pool.js";
 import type { Logger } from "../logging/logger.js";
+import { apiKeyChecker, presentedKey } from "./auth.js";
+import { DEFAULT_HTTP_CONFIG, type HttpConfig } from "./config.js";
+import { createMetrics, type Metrics, routeLabel } from "./metrics.js";
+import { sendProblem } from "./problem.js";
+import { type Env, mountV1 } from "./v1.js";
 
 export interface AppDeps {
   readonly ctx: Context;
   readonly logger: Logger;
+  readonly config?: HttpConfig;
+  readonly metrics?: Metrics;
+  /** worker threads for /v1 (a hard stop at the compute budget); absent: in process */
+  readonly pool?: ComputePool | undefined;
+  /** false while draining: /readyz answers 503 */
+  readonly isReady?: () => boolean;
 }
 
-type Env = { Variables: { requestId: string } };
-
 const REQUEST_ID = /^[\w.:-]{1,128}$/;
+const PROTECTED = /^\/(trpc|v1)(\/|$)/;
 
-/** The HTTP face of backstop: tRPC under /trpc, probes, one log line per request. */
-export function createApp({ ctx, logger }: AppDeps): Hono<Env> {
+/** The HTTP face of backstop: tRPC under /trpc, plain JSON under /v1, OpenAPI, probes, metrics, one log line per request. */
+export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics = createMetrics(), pool, isReady = () => true }: AppDeps): Hono<Env> {
   const app = new Hono<Env>();
+  const checkKey = config.apiKeys ? apiKeyChecker(config.apiKeys) : undefined;
 
   app.use("*", async (c, next) => {
     const incoming = c.req.header("x-request-id");
@@ -25,10 +41,34 @@ export function createApp({ ctx, logger }: AppDeps): Hono<Env> {
     const started = performance.now();
     await next();
     c.header("x-request-id", requestId);
+    if (!isReady()) c.header("connection", "close");
+    metrics.countRequest(routeLabel(c.req.path), c.res.status);
     logger.info({ requestId, method: c.req.method, path: c.req.path, status: c.res.status, durationMs: Math.round((performance.now() - started) * 1000) / 1000 }, "request");
   });
 
+  // API keys guard the analyses only; probes, metrics and the OpenAPI document stay open.
+  app.use("*", async (c, next) => {
+    if (checkKey === undefined || !PROTECTED.test(c.req.path)) return next();
+    if (checkKey(presentedKey(c.req.header("authorization"), c.req.header("x-api-key")))) return next();
+    return sendProblem(c, 401, { code: "unauthorized", message: "a valid API key is required (Authorization: Bearer <key> or X-API-Key)" }, { "www-authenticate": 'Bearer realm="backstop"' });
+  });
+
+  const limit = bodyLimit({
+    maxSize: config.maxBodyBytes,
+    onError: (c) => sendProblem(c, 413, { code: "payload-too-large", message: `the request body exceeds ${config.maxBodyBytes} bytes (BACKSTOP_MAX_BODY_BYTES)` }),
+  });
+  app.use("/trpc/*", limit);
+  app.use("/v1/*", limit);
+
+  app.get("/livez", (c) => c.json({ status: "ok" }));
   app.get("/healthz", (c) => c.json({ status: "ok" }));
+  app.get("/readyz", (c) => (isReady() ? c.json({ status: "ready" }) : c.json({ status: "draining" }, 503)));
+  app.get("/metrics", async (c) => c.body(await metrics.registry.metrics(), 200, { "content-type": metrics.registry.contentType }));
+  let openapi: string | undefined;
+  app.get("/openapi.json", (c) => {
+    openapi ??= openApiText();
+    return c.body(openapi, 200, { "content-type": "application/json" });
+  });
 
   app.all("/trpc/*", (c) =>
     fetchRequestHandler({
@@ -36,17 +76,23 @@ export function createApp({ ctx, logger }: AppDeps): Hono<Env> {
       req: c.req.raw,
       router: appRouter,
       allowMethodOverride: true,
-      createContext: () => ctx,
+      maxBatchSize: config.maxTrpcBatch,
+      createContext: () => ({
+        ...ctx,
+        observe: (o) => metrics.observeProcedure("trpc", o.path, o.ok ? outcomeLabel(o.data) : errorBodyOf(o.error).code, o.seconds),
+      }),
       onError: ({ error, path }) => {
         if (error.code === "INTERNAL_SERVER_ERROR") logger.error({ requestId: c.get("requestId"), path, err: error.cause ?? error }, "procedure failed");
       },
     }),
   );
 
-  app.notFound((c) => c.json({ code: "not-found", message: `no route ${c.req.method} ${c.req.path}` }, 404));
+  mountV1(app, { ctx, logger, config, metrics, pool });
+
+  app.notFound((c) => sendProblem(c, 404, { code: "not-found", message: `no route ${c.req.method} ${c.req.path}` }));
   app.onError((err, c) => {
     logger.error({ requestId: c.get("requestId"), err }, "unhandled error");
-    return c.json({ code: "internal", message: "internal error" }, 500);
+    return sendProblem(c, 500, { code: "internal", message: "internal error: the request was not completed (logged on the server)" });
   });
   return app;
 }

@@ -1,35 +1,73 @@
+import { availableParallelism } from "node:os";
 import { serve } from "@hono/node-server";
 import { loadCatalogFile } from "../catalog/file-catalog.js";
+import { createComputePool } from "../compute/pool.js";
 import { createLogger } from "../logging/logger.js";
 import { DEMO_CATALOG } from "../project-root.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
 import { createApp } from "./app.js";
+import { httpConfigFromEnv } from "./config.js";
+import { createMetrics } from "./metrics.js";
 
 const logger = createLogger();
+function fail(message: string): never {
+  logger.fatal(message);
+  process.stderr.write(`backstop: ${message}\n`);
+  process.exit(2);
+}
+
+let config: ReturnType<typeof httpConfigFromEnv>;
+let catalog: ReturnType<typeof loadCatalogFile>;
 const catalogPath = process.env.BACKSTOP_CATALOG ?? DEMO_CATALOG();
-const catalog = loadCatalogFile(catalogPath);
+try {
+  config = httpConfigFromEnv();
+  catalog = loadCatalogFile(catalogPath);
+} catch (e) {
+  fail((e as Error).message);
+}
 const port = Number(process.env.PORT ?? 8080);
 // Company rule sets: a bad file is refused whole and logged; the others load (README, "Rule sets").
 const rulesDir = process.env.BACKSTOP_RULES_DIR;
 const ruleSets = loadRuleSetStore(rulesDir);
 for (const r of ruleSets.refused()) logger.error({ file: r.file, setId: r.setId, problems: r.problems.map((p) => p.message) }, "rule set refused");
-const app = createApp({ ctx: { catalog, ruleSets }, logger });
+const drainDelayMs = Number(process.env.BACKSTOP_DRAIN_DELAY_MS ?? 0);
+const shutdownTimeoutMs = Number(process.env.BACKSTOP_SHUTDOWN_TIMEOUT_MS ?? 20_000);
+// /v1 runs in worker threads (stopped at the compute budget) unless BACKSTOP_WORKERS=0.
+const threads = Number(process.env.BACKSTOP_WORKERS ?? Math.min(4, availableParallelism()));
+const pool = createComputePool({ threads, catalogPath, rulesDir });
+
+if (config.apiKeys === undefined) logger.warn("API-key auth is OFF: set BACKSTOP_API_KEYS or BACKSTOP_API_KEYS_FILE to require a key on /v1 and /trpc");
+
+let draining = false;
+const app = createApp({ ctx: { catalog, ruleSets }, logger, config, metrics: createMetrics(), pool, isReady: () => !draining });
 
 const server = serve({ fetch: app.fetch, port, hostname: process.env.HOST ?? "0.0.0.0" }, (info) => {
-  logger.info({ port: info.port, catalog: catalogPath, parts: catalog.list().length, ruleSets: ruleSets.list().map((s) => s.stamp.id), rulesRefused: ruleSets.refused().length }, "backstop listening");
+  logger.info(
+    { port: info.port, catalog: catalogPath, parts: catalog.list().length, ruleSets: ruleSets.list().map((s) => s.stamp.id), rulesRefused: ruleSets.refused().length, workers: pool?.threads ?? 0, auth: config.apiKeys !== undefined },
+    "backstop listening",
+  );
   process.stdout.write(
     `backstop listening on http://localhost:${info.port} with ${catalog.list().length} parts from ${catalogPath}\n` +
-      `  try: curl -s -X POST -H 'content-type: application/json' -d @examples/http/operatingPoint.body.json http://localhost:${info.port}/trpc/operatingPoint\n`,
+      `  try: curl -s -X POST -H 'content-type: application/json' -d @examples/http/operatingPoint.body.json http://localhost:${info.port}/v1/operatingPoint\n`,
   );
 });
 
+/** Graceful stop: /readyz flips to 503 at once, then (after BACKSTOP_DRAIN_DELAY_MS) stop accepting, finish in-flight requests, exit 0. */
 function shutdown(signal: string): void {
-  logger.info({ signal }, "draining");
-  server.close((err) => {
-    if (err) logger.error({ err }, "close failed");
-    process.exit(err ? 1 : 0);
-  });
-  setTimeout(() => process.exit(1), 10_000).unref();
+  if (draining) return;
+  draining = true;
+  logger.info({ signal, drainDelayMs }, "draining: readiness is now false");
+  setTimeout(() => process.exit(1), drainDelayMs + shutdownTimeoutMs).unref();
+  setTimeout(() => {
+    server.close((err) => {
+      void (pool?.close() ?? Promise.resolve()).finally(() => {
+        if (err) logger.error({ err }, "close failed");
+        else logger.info("in-flight requests finished; exiting");
+        process.exit(err ? 1 : 0);
+      });
+    });
+    (server as unknown as { closeIdleConnections?: () => void }).closeIdleConnections?.();
+  }, drainDelayMs);
 }
 process.on("SIGTERM", () => shutdown("SIGTERM"));
 process.on("SIGINT", () => shutdown("SIGINT"));

@@ -1,0 +1,34 @@
+import { errorBodyOf } from "../../api/error-body.js";
+import { httpStatusOf, type Invoke } from "../../api/procedure-registry.js";
+import type { ErrorBody } from "../../contracts/outcome.js";
+
+/** One analysis call's answer as every adapter sees it: a result, or an error body with its HTTP status. */
+export type ItemResult =
+  | { readonly ok: true; readonly result: unknown; readonly outcome: string; readonly seconds: number }
+  | { readonly ok: false; readonly status: number; readonly error: ErrorBody; readonly outcome: string; readonly seconds: number; readonly internal?: string };
+
+const OUTCOME = /^[a-z][a-z0-9-]{0,39}$/;
+
+/** A bounded metrics label for a result: its literal `outcome` if it has one, else "ok". */
+export function outcomeLabel(result: unknown): string {
+  const o = typeof result === "object" && result !== null ? (result as { outcome?: unknown }).outcome : undefined;
+  return typeof o === "string" && OUTCOME.test(o) ? o : "ok";
+}
+
+/** Call one procedure of the in-process router; never throws. */
+export async function callOne(invoke: Invoke, input: unknown): Promise<ItemResult> {
+  const t0 = performance.now();
+  try {
+    const result = await invoke(input);
+    return { ok: true, result, outcome: outcomeLabel(result), seconds: (performance.now() - t0) / 1000 };
+  } catch (e) {
+    const error = errorBodyOf(e);
+    const status = httpStatusOf(e);
+    const seconds = (performance.now() - t0) / 1000;
+    if (error.code === "internal") {
+      const cause = (e as { cause?: unknown }).cause ?? e;
+      return { ok: false, status, error, outcome: error.code, seconds, internal: cause instanceof Error ? (cause.stack ?? cause.message) : String(cause) };
+    }
+    return { ok: false, status, error, outcome: error.code, seconds };
+  }
+}

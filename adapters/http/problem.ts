@@ -1,0 +1,42 @@
+import type { Context as HonoContext } from "hono";
+import type { ErrorBody } from "../../contracts/outcome.js";
+import type { Problem, ProblemCode } from "../../contracts/problem.js";
+
+const TITLES: Record<ProblemCode, string> = {
+  "invalid-input": "Invalid input",
+  "unknown-part": "Unknown part",
+  "unknown-procedure": "Unknown procedure",
+  "fit-failed": "Datasheet points cannot be fitted",
+  "malformed-line": "Malformed line",
+  internal: "Internal error",
+  "malformed-json": "Malformed JSON",
+  "not-found": "Not found",
+  "method-not-allowed": "Method not allowed",
+  "payload-too-large": "Payload too large",
+  "too-many-items": "Too many items",
+  unauthorized: "Unauthorized",
+  "compute-timeout": "Compute time exceeded",
+  unavailable: "Service unavailable",
+};
+
+export const PROBLEM_TYPE = "application/problem+json";
+
+/** An RFC 9457 problem body; never carries a stack or an internal message. */
+export function problemOf(status: number, body: ErrorBody | { code: ProblemCode; message: string; issues?: ErrorBody["issues"] }, extra: { instance?: string | undefined; requestId?: string | undefined } = {}): Problem {
+  return {
+    type: `urn:backstop:problem:${body.code}`,
+    title: TITLES[body.code],
+    status,
+    detail: body.message,
+    ...(extra.instance === undefined ? {} : { instance: extra.instance }),
+    code: body.code,
+    issues: body.issues ?? [],
+    ...(extra.requestId === undefined ? {} : { requestId: extra.requestId }),
+  };
+}
+
+/** Send a problem as application/problem+json. */
+export function sendProblem(c: HonoContext, status: number, body: Parameters<typeof problemOf>[1], headers: Record<string, string> = {}): Response {
+  const p = problemOf(status, body, { instance: c.req.path, requestId: c.get("requestId") as string | undefined });
+  return new Response(JSON.stringify(p), { status, headers: { "content-type": PROBLEM_TYPE, ...headers } });
+}

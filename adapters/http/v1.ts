@@ -1,0 +1,119 @@
+import type { Hono } from "hono";
+import { procedureEntries, procedureEntry, procedureInvoker } from "../../api/procedure-registry.js";
+import type { Context } from "../../api/context.js";
+import { type ItemResult, callOne } from "../compute/call.js";
+import type { ComputePool } from "../compute/pool.js";
+import type { Logger } from "../logging/logger.js";
+import type { HttpConfig } from "./config.js";
+import type { Adapter, Metrics } from "./metrics.js";
+import { problemOf, sendProblem } from "./problem.js";
+
+export type Env = { Variables: { requestId: string } };
+
+export interface V1Deps {
+  readonly ctx: Context;
+  readonly logger: Logger;
+  readonly config: HttpConfig;
+  readonly metrics: Metrics;
+  readonly pool?: ComputePool | undefined;
+}
+
+class ComputeTimeout extends Error {}
+
+const yieldToLoop = () => new Promise<void>((r) => setImmediate(r));
+
+/**
+ * `POST /v1/<procedure>` (one input → its result) and `POST /v1/<procedure>/bulk` (an array of inputs
+ * → `{ results: [{ ok, result } | { ok: false, problem }], ok, failed }`, in order), for every
+ * procedure of the router. Same router, same validation, same JSON as /trpc; errors are RFC 9457.
+ */
+export function mountV1(app: Hono<Env>, deps: V1Deps): void {
+  const { ctx, logger, config, metrics, pool } = deps;
+  const invoker = procedureInvoker(ctx);
+
+  /** Run the inputs in order within the request's compute budget: in the pool (hard stop) or here (checked between items). */
+  async function execute(path: string, inputs: unknown[], adapter: Adapter, requestId: string): Promise<ItemResult[]> {
+    const signal = AbortSignal.timeout(config.requestTimeoutMs);
+    let items: ItemResult[];
+    if (pool) {
+      const size = Math.max(1, Math.min(256, Math.ceil(inputs.length / pool.threads)));
+      const slices: unknown[][] = [];
+      for (let i = 0; i < inputs.length; i += size) slices.push(inputs.slice(i, i + size));
+      try {
+        items = (await Promise.all(slices.map((s) => pool.call(path, s, signal)))).flat();
+      } catch (e) {
+        if (signal.aborted) throw new ComputeTimeout();
+        throw e;
+      }
+    } else {
+      const invoke = invoker(path);
+      if (invoke === undefined) throw new Error(`no procedure ${path}`);
+      items = [];
+      let lastYield = performance.now();
+      for (const input of inputs) {
+        if (signal.aborted) throw new ComputeTimeout();
+        items.push(await callOne(invoke, input));
+        if (performance.now() - lastYield > 10) {
+          await yieldToLoop(); // keep probes and other requests answered during a long bulk call
+          lastYield = performance.now();
+        }
+      }
+    }
+    for (const it of items) {
+      metrics.observeProcedure(adapter, path, it.outcome, it.seconds);
+      if (!it.ok && it.internal !== undefined) logger.error({ requestId, path, err: it.internal }, "procedure failed");
+    }
+    return items;
+  }
+
+  async function readJson(req: Request): Promise<{ ok: true; value: unknown } | { ok: false; message: string }> {
+    const text = await req.text();
+    try {
+      return { ok: true, value: JSON.parse(text) };
+    } catch (e) {
+      return { ok: false, message: `the body is not JSON: ${(e as Error).message}` };
+    }
+  }
+
+  app.get("/v1", (c) => c.json({ procedures: procedureEntries().map((e) => ({ path: e.path, type: e.type, description: e.description ?? null, url: `/v1/${e.path}`, bulkUrl: `/v1/${e.path}/bulk` })) }));
+
+  const handler = (bulk: boolean) => async (c: import("hono").Context<Env>) => {
+    const path = c.req.param("procedure") ?? "";
+    if (procedureEntry(path) === undefined) {
+      return sendProblem(c, 404, { code: "unknown-procedure", message: `no procedure "${path}"`, issues: [{ path: ["procedure"], message: "unknown procedure" }] });
+    }
+    const body = await readJson(c.req.raw);
+    if (!body.ok) return sendProblem(c, 400, { code: "malformed-json", message: body.message });
+    let inputs: unknown[];
+    if (bulk) {
+      if (!Array.isArray(body.value)) return sendProblem(c, 400, { code: "invalid-input", message: "a bulk body is a JSON array of inputs", issues: [{ path: [], message: "expected an array" }] });
+      if (body.value.length > config.maxBulkItems) {
+        return sendProblem(c, 413, { code: "too-many-items", message: `a bulk request holds at most ${config.maxBulkItems} items, this one ${body.value.length}` });
+      }
+      inputs = body.value;
+    } else inputs = [body.value];
+    let items: ItemResult[];
+    try {
+      items = await execute(path, inputs, bulk ? "v1-bulk" : "v1", c.get("requestId"));
+    } catch (e) {
+      if (e instanceof ComputeTimeout) {
+        return sendProblem(c, 503, { code: "compute-timeout", message: `the request needed more than its ${config.requestTimeoutMs} ms compute budget; split it or raise BACKSTOP_REQUEST_TIMEOUT_MS` }, { "retry-after": "1" });
+      }
+      throw e;
+    }
+    if (!bulk) {
+      const it = items[0] as ItemResult;
+      if (it.ok) return c.body(JSON.stringify(it.result), 200, { "content-type": "application/json" });
+      return sendProblem(c, it.status, it.error);
+    }
+    const results = items.map((it) => (it.ok ? { ok: true, result: it.result } : { ok: false, problem: problemOf(it.status, it.error) }));
+    const ok = items.filter((i) => i.ok).length;
+    return c.body(JSON.stringify({ results, ok, failed: items.length - ok }), 200, { "content-type": "application/json" });
+  };
+
+  app.post("/v1/:procedure/bulk", handler(true));
+  app.post("/v1/:procedure", handler(false));
+  app.on(["GET", "PUT", "PATCH", "DELETE"], ["/v1/:procedure", "/v1/:procedure/bulk"], (c) =>
+    sendProblem(c, 405, { code: "method-not-allowed", message: `${c.req.method} is not allowed here; POST the input as JSON` }, { allow: "POST" }),
+  );
+}
