@@ -1,48 +1,159 @@
-import { createReadStream, createWriteStream, renameSync, rmSync } from "node:fs";
+import { createReadStream, createWriteStream, renameSync, rmSync, type WriteStream } from "node:fs";
+import { availableParallelism } from "node:os";
 import { finished } from "node:stream/promises";
 import { parseArgs } from "node:util";
+import { procedureEntry } from "../../api/procedure-registry.js";
 import { loadCatalogFile } from "../catalog/file-catalog.js";
-import { loadRuleSetStore } from "../rulesets/registry.js";
+import { type ComputePool, createComputePool } from "../compute/pool.js";
 import { DEMO_CATALOG } from "../project-root.js";
-import { runBatch } from "./run-batch.js";
+import { loadRuleSetStore } from "../rulesets/registry.js";
+import { formatOf } from "./formats.js";
+import { mergeShards } from "./merge.js";
+import type { BatchCounts } from "./run-batch.js";
+import { type Shard, streamBatch } from "./stream-batch.js";
 
-const USAGE = "usage: backstop batch --in requests.jsonl --out results.jsonl [--catalog parts.json]";
+const USAGE = `usage:
+  backstop batch --in requests.jsonl|.csv --out results.jsonl|.csv [--procedure NAME] [--shard i/N | --shard N]
+                 [--workers N] [--catalog parts.json] [--in-format jsonl|csv] [--out-format jsonl|csv]
+  backstop merge --out results.jsonl|.csv shard-0 shard-1 ...
+  --shard N takes the index from JOB_COMPLETION_INDEX; "{shard}" in --out is replaced by the index.
+  exit 0: every row answered; 1: some rows rejected; 2: could not run.`;
 
-/** `backstop batch`: exit 0 all rows ok, 1 some rows failed, 2 could not run. */
+class UsageError extends Error {}
+
+export function parseShard(spec: string | undefined, env: NodeJS.ProcessEnv): Shard | undefined {
+  if (spec === undefined) return undefined;
+  const m = /^(?:(\d+)\/)?(\d+)$/.exec(spec);
+  if (!m) throw new UsageError(`--shard "${spec}": expected i/N or N`);
+  const count = Number(m[2]);
+  const rawIndex = m[1] ?? env.JOB_COMPLETION_INDEX;
+  if (rawIndex === undefined || !/^\d+$/.test(rawIndex)) throw new UsageError(`--shard ${spec}: no index given and JOB_COMPLETION_INDEX is not set`);
+  const index = Number(rawIndex);
+  if (!(count >= 1 && index < count)) throw new UsageError(`--shard ${index}/${count}: need 0 <= i < N`);
+  return { index, count };
+}
+
+/** Write to `<out>.partial-<pid>` and rename to `<out>` only when complete; remove it on any failure or signal. */
+async function atomically(outPath: string, body: (write: (t: string) => Promise<void>) => Promise<void>): Promise<void> {
+  const partial = `${outPath}.partial-${process.pid}`;
+  const onSignal = () => {
+    rmSync(partial, { force: true });
+    process.stderr.write(`backstop: stopped by a signal; no output written to ${outPath}\n`);
+    process.exit(2);
+  };
+  process.once("SIGTERM", onSignal);
+  process.once("SIGINT", onSignal);
+  let out: WriteStream | undefined;
+  try {
+    out = createWriteStream(partial);
+    const stream = out;
+    const failed = new Promise<never>((_, reject) => stream.once("error", reject));
+    failed.catch(() => undefined);
+    const write = (t: string) => (stream.write(t) ? Promise.resolve() : Promise.race([new Promise<void>((r) => stream.once("drain", () => r())), failed]));
+    await Promise.race([body(write), failed]);
+    stream.end();
+    await finished(stream);
+    renameSync(partial, outPath);
+  } catch (e) {
+    out?.destroy();
+    rmSync(partial, { force: true });
+    throw e;
+  } finally {
+    process.removeListener("SIGTERM", onSignal);
+    process.removeListener("SIGINT", onSignal);
+  }
+}
+
+/** Progress on stderr: a redrawn line on a terminal, else a counter and rate every few seconds. */
+function progress(everyMs: number) {
+  const tty = process.stderr.isTTY === true;
+  const t0 = performance.now();
+  let last = 0;
+  const text = (c: BatchCounts) => {
+    const s = (performance.now() - t0) / 1000;
+    return `backstop batch: ${c.lines} rows, ${c.failed} rejected, ${Math.round(c.lines / Math.max(s, 1e-3))} rows/s`;
+  };
+  return {
+    tick(c: BatchCounts) {
+      const now = performance.now();
+      if (now - last < (tty ? 200 : everyMs)) return;
+      last = now;
+      process.stderr.write(tty ? `\r${text(c)}` : `${text(c)}\n`);
+    },
+    done(c: BatchCounts, out: string) {
+      process.stderr.write(`${tty ? "\r" : ""}${text(c)}; ${c.ok} ok -> ${out}\n`);
+    },
+  };
+}
+
+async function batch(rest: string[]): Promise<number> {
+  const { values } = parseArgs({
+    args: rest,
+    options: {
+      in: { type: "string" },
+      out: { type: "string" },
+      catalog: { type: "string" },
+      procedure: { type: "string" },
+      shard: { type: "string" },
+      workers: { type: "string" },
+      "in-format": { type: "string" },
+      "out-format": { type: "string" },
+    },
+  });
+  if (values.in === undefined || values.out === undefined) throw new UsageError("--in and --out are required");
+  if (values.procedure !== undefined && procedureEntry(values.procedure) === undefined) throw new UsageError(`--procedure: no procedure "${values.procedure}"`);
+  const shard = parseShard(values.shard, process.env);
+  const outPath = values.out.replaceAll("{shard}", String(shard?.index ?? 0));
+  const inFormat = formatOf(values.in, values["in-format"]);
+  const outFormat = formatOf(outPath, values["out-format"]);
+  const workers = values.workers === undefined ? Math.max(1, Math.min(8, availableParallelism() - 1)) : Number(values.workers);
+  if (!Number.isInteger(workers) || workers < 0) throw new UsageError("--workers must be a whole number (0: no worker threads)");
+  const catalogPath = values.catalog ?? process.env.BACKSTOP_CATALOG ?? DEMO_CATALOG();
+  const catalog = loadCatalogFile(catalogPath);
+  const rulesDir = process.env.BACKSTOP_RULES_DIR;
+  const ruleSets = loadRuleSetStore(rulesDir);
+  for (const r of ruleSets.refused()) process.stderr.write(`backstop batch: rule set file ${r.file} refused: ${r.problems.map((p) => p.message).join("; ")}\n`);
+  const input = createReadStream(values.in);
+  await new Promise<void>((resolve, reject) => {
+    input.once("open", () => resolve());
+    input.once("error", reject);
+  });
+  const pool: ComputePool | undefined = workers > 0 ? createComputePool({ threads: workers, catalogPath, rulesDir }) : undefined;
+  const p = progress(Number(process.env.BACKSTOP_PROGRESS_MS ?? 5000));
+  let counts: BatchCounts = { lines: 0, ok: 0, failed: 0 };
+  try {
+    await atomically(outPath, async (write) => {
+      counts = await streamBatch({ input, inFormat, outFormat, write, ctx: { catalog, ruleSets }, procedure: values.procedure, shard, pool, onProgress: (c) => p.tick(c) });
+    });
+  } finally {
+    await pool?.close();
+  }
+  p.done(counts, outPath);
+  return counts.failed > 0 ? 1 : 0;
+}
+
+async function merge(rest: string[]): Promise<number> {
+  const { values, positionals } = parseArgs({ args: rest, allowPositionals: true, options: { out: { type: "string" }, format: { type: "string" } } });
+  if (values.out === undefined || positionals.length === 0) throw new UsageError("merge needs --out and at least one shard file");
+  const format = formatOf(values.out, values.format);
+  let n = 0;
+  await atomically(values.out, async (write) => {
+    n = await mergeShards(positionals, format, write);
+  });
+  process.stderr.write(`backstop merge: ${positionals.length} shards, ${n} rows -> ${values.out}\n`);
+  return 0;
+}
+
+/** `backstop batch` / `backstop merge`: exit 0 all rows ok, 1 some rows failed, 2 could not run. */
 export async function main(argv: string[]): Promise<number> {
   const [verb, ...rest] = argv;
-  if (verb !== "batch") {
-    process.stderr.write(`${USAGE}\n`);
-    return 2;
-  }
-  let values: { in?: string; out?: string; catalog?: string };
   try {
-    values = parseArgs({ args: rest, options: { in: { type: "string" }, out: { type: "string" }, catalog: { type: "string" } } }).values;
+    if (verb === "batch") return await batch(rest);
+    if (verb === "merge") return await merge(rest);
+    throw new UsageError(verb === undefined ? "no command" : `unknown command "${verb}"`);
   } catch (e) {
-    process.stderr.write(`${(e as Error).message}\n${USAGE}\n`);
-    return 2;
-  }
-  if (values.in === undefined || values.out === undefined) {
-    process.stderr.write(`${USAGE}\n`);
-    return 2;
-  }
-  const outPath = values.out;
-  const partial = `${outPath}.partial-${process.pid}`;
-  try {
-    const catalog = loadCatalogFile(values.catalog ?? process.env.BACKSTOP_CATALOG ?? DEMO_CATALOG());
-    const input = createReadStream(values.in);
-    const output = createWriteStream(partial);
-    const ruleSets = loadRuleSetStore(process.env.BACKSTOP_RULES_DIR);
-    for (const r of ruleSets.refused()) process.stderr.write(`backstop batch: rule set file ${r.file} refused: ${r.problems.map((p) => p.message).join("; ")}\n`);
-    const counts = await runBatch(input, output, { catalog, ruleSets });
-    output.end();
-    await finished(output);
-    renameSync(partial, outPath);
-    process.stderr.write(`backstop batch: ${counts.lines} lines, ${counts.ok} ok, ${counts.failed} failed -> ${outPath}\n`);
-    return counts.failed > 0 ? 1 : 0;
-  } catch (e) {
-    rmSync(partial, { force: true });
-    process.stderr.write(`backstop batch could not run: ${(e as Error).message}\n`);
+    if (e instanceof UsageError || (e as { code?: string }).code?.startsWith("ERR_PARSE_ARGS")) process.stderr.write(`${(e as Error).message}\n${USAGE}\n`);
+    else process.stderr.write(`backstop could not run: ${(e as Error).message}\n`);
     return 2;
   }
 }

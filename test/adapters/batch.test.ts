@@ -1,9 +1,9 @@
-import { execFileSync, spawnSync } from "node:child_process";
+import { spawnSync } from "node:child_process";
 import { existsSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { PassThrough, Readable } from "node:stream";
-import { beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { type BatchOutputLine, runBatch } from "../../adapters/batch/run-batch.js";
 import { projectRoot } from "../../adapters/project-root.js";
 import { demoContext } from "../helpers/app.js";
@@ -55,9 +55,7 @@ describe("batch mode", () => {
 
 describe("batch command line", () => {
   const root = projectRoot();
-  beforeAll(() => {
-    execFileSync("npm", ["run", "build", "--silent"], { cwd: root, stdio: "ignore" });
-  }, 120_000);
+  // dist/ is built once by test/helpers/build-once.ts (vitest globalSetup)
 
   it("writes the output under its final name only when complete, exit 1 when some rows failed", () => {
     const dir = mkdtempSync(join(tmpdir(), "backstop-batch-"));

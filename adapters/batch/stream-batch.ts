@@ -1,0 +1,113 @@
+import { createInterface } from "node:readline";
+import type { Readable } from "node:stream";
+import { parse } from "csv-parse";
+import type { Context } from "../../api/context.js";
+import { procedureInvoker } from "../../api/procedure-registry.js";
+import type { ComputePool } from "../compute/pool.js";
+import { csvRowToLine, type Format, outputFormatter } from "./formats.js";
+import { type BatchCounts, type BatchOutputLine, processLine } from "./run-batch.js";
+
+/** A shard of the input: record n (1-based) belongs to shard (n - 1) mod count. */
+export interface Shard {
+  readonly index: number;
+  readonly count: number;
+}
+
+export interface StreamBatchOptions {
+  readonly input: Readable;
+  readonly inFormat: Format;
+  readonly outFormat: Format;
+  /** write one chunk of output text; resolves when it may write more (backpressure) */
+  readonly write: (text: string) => Promise<void>;
+  readonly ctx: Context;
+  readonly procedure?: string | undefined;
+  readonly shard?: Shard | undefined;
+  readonly pool?: ComputePool | undefined;
+  readonly onProgress?: (counts: BatchCounts) => void;
+  /** records per pool task */
+  readonly chunkSize?: number;
+}
+
+type Rec = { lineNo: number; raw: string } | { lineNo: number; out: BatchOutputLine };
+
+async function* jsonlRecords(input: Readable): AsyncGenerator<Rec> {
+  let n = 0;
+  for await (const raw of createInterface({ input, crlfDelay: Number.POSITIVE_INFINITY })) {
+    n += 1;
+    yield { lineNo: n, raw };
+  }
+}
+
+async function* csvRecords(input: Readable, procedure: string | undefined): AsyncGenerator<Rec> {
+  const parser = input.pipe(parse({ bom: true, relax_column_count: true, skip_empty_lines: false }));
+  let header: string[] | undefined;
+  let n = 0;
+  for await (const cells of parser as AsyncIterable<string[]>) {
+    if (header === undefined) {
+      header = cells.map((h) => h.trim());
+      continue;
+    }
+    n += 1;
+    const r = csvRowToLine(header, cells, procedure);
+    yield "raw" in r ? { lineNo: n, raw: r.raw } : { lineNo: n, out: { id: r.id, line: n, ok: false, error: r.error } };
+  }
+}
+
+/**
+ * The batch engine: stream records in (JSON Lines or CSV), answer each with the router (in worker
+ * threads when a pool is given), write one output record per input record in input order. Memory
+ * stays bounded: at most `2 × threads` chunks are in flight.
+ */
+export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
+  const counts: BatchCounts = { lines: 0, ok: 0, failed: 0 };
+  const fmt = outputFormatter(o.outFormat, o.procedure);
+  if (fmt.header) await o.write(fmt.header);
+  const invoker = o.pool ? undefined : procedureInvoker(o.ctx);
+  const chunkSize = o.chunkSize ?? 64;
+  const maxInFlight = Math.max(2, 2 * (o.pool?.threads ?? 1));
+  const queue: Promise<BatchOutputLine[]>[] = [];
+
+  const answer = async (chunk: Rec[]): Promise<BatchOutputLine[]> => {
+    const todo = chunk.filter((r): r is { lineNo: number; raw: string } => "raw" in r);
+    let done: BatchOutputLine[];
+    if (o.pool) done = todo.length > 0 ? await o.pool.lines(todo) : [];
+    else {
+      done = [];
+      for (const r of todo) done.push(await processLine(r.raw, r.lineNo, invoker as NonNullable<typeof invoker>));
+    }
+    let k = 0;
+    return chunk.map((r) => ("out" in r ? r.out : (done[k++] as BatchOutputLine)));
+  };
+  const enqueue = (c: Rec[]) => {
+    const p = answer(c);
+    p.catch(() => undefined); // awaited in order by flushHead; this only keeps an early rejection from going unhandled
+    queue.push(p);
+  };
+  const flushHead = async () => {
+    const outs = await (queue.shift() as Promise<BatchOutputLine[]>);
+    let text = "";
+    for (const out of outs) {
+      counts.lines += 1;
+      if (out.ok) counts.ok += 1;
+      else counts.failed += 1;
+      text += fmt.line(out);
+    }
+    if (text) await o.write(text);
+    o.onProgress?.(counts);
+  };
+
+  const source = o.inFormat === "csv" ? csvRecords(o.input, o.procedure) : jsonlRecords(o.input);
+  let chunk: Rec[] = [];
+  for await (const rec of source) {
+    if (o.shard && (rec.lineNo - 1) % o.shard.count !== o.shard.index) continue;
+    chunk.push(rec);
+    if (chunk.length >= chunkSize) {
+      enqueue(chunk);
+      chunk = [];
+      if (queue.length >= maxInFlight) await flushHead();
+    }
+  }
+  if (chunk.length > 0) enqueue(chunk);
+  while (queue.length > 0) await flushHead();
+  return counts;
+}
