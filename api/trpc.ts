@@ -4,7 +4,10 @@ import { errorBodyOf } from "./error-body.js";
 
 const t = initTRPC.context<Context>().create({
   errorFormatter({ shape, error }) {
-    return { ...shape, data: { code: shape.data.code, httpStatus: shape.data.httpStatus, path: shape.data.path, backstop: errorBodyOf(error) } };
+    const backstop = errorBodyOf(error);
+    // an internal error's own message may hold internals: the client gets the generic one
+    const message = backstop.code === "internal" ? backstop.message : shape.message;
+    return { ...shape, message, data: { code: shape.data.code, httpStatus: shape.data.httpStatus, path: shape.data.path, backstop } };
   },
 });
 
