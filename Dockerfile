@@ -1,5 +1,6 @@
-# Build with the dev tool chain, run with production dependencies only (the same commands as README:
-# `npm ci`, `npm run build`, then the server that `npm start` runs).
+# syntax=docker/dockerfile:1
+# Build with the dev tool chain, run with production dependencies only. The RUN steps are the same
+# commands as README's and CI's: `npm ci`, `npm run build`, `npm ci --omit=dev`; CMD is `npm start`'s server.
 FROM node:22-slim AS build
 WORKDIR /app
 COPY package.json package-lock.json ./
@@ -7,14 +8,22 @@ RUN npm ci --no-audit --no-fund
 COPY . .
 RUN npm run build
 
+FROM node:22-slim AS deps
+WORKDIR /app
+COPY package.json package-lock.json ./
+RUN npm ci --omit=dev --no-audit --no-fund
+
 FROM node:22-slim
 ENV NODE_ENV=production PORT=8080
 WORKDIR /app
-COPY package.json package-lock.json ./
-RUN npm ci --omit=dev --no-audit --no-fund && npm cache clean --force
+COPY --from=deps /app/node_modules ./node_modules
 COPY --from=build /app/dist ./dist
+COPY package.json ./
 COPY examples ./examples
 COPY bin ./bin
 USER node
 EXPOSE 8080
+# no shell tools needed: node itself fetches /livez
+HEALTHCHECK --interval=10s --timeout=3s --start-period=5s --retries=3 CMD ["node", "-e", "fetch('http://127.0.0.1:'+(process.env.PORT||8080)+'/livez').then(r=>process.exit(r.ok?0:1),()=>process.exit(1))"]
+# node is PID 1: the server handles SIGTERM/SIGINT itself (drain, then exit 0) and starts no child processes
 CMD ["node", "dist/adapters/http/main.js"]

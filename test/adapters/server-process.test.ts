@@ -1,0 +1,74 @@
+import { type ChildProcess, spawn } from "node:child_process";
+import { join } from "node:path";
+import { afterAll, describe, expect, it } from "vitest";
+import { projectRoot } from "../../adapters/project-root.js";
+
+// The built server as a process on a loopback port (dist/ is built by the vitest globalSetup).
+const good = { stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" }, supplyV: 12, load: { kind: "constant-current", currentA: 2 }, ambientC: 25 };
+
+function start(env: Record<string, string>): Promise<{ child: ChildProcess; base: string; logs: string[] }> {
+  const child = spawn("node", [join(projectRoot(), "dist", "adapters", "http", "main.js")], {
+    env: { ...process.env, PORT: "0", HOST: "127.0.0.1", LOG_LEVEL: "info", ...env },
+    stdio: ["ignore", "pipe", "pipe"],
+  });
+  const logs: string[] = [];
+  return new Promise((resolve, reject) => {
+    const timer = setTimeout(() => reject(new Error(`server did not start: ${logs.join("")}`)), 30_000);
+    child.stdout?.on("data", (d: Buffer) => {
+      logs.push(String(d));
+      const m = /listening on http:\/\/localhost:(\d+)/.exec(logs.join(""));
+      if (m) {
+        clearTimeout(timer);
+        resolve({ child, base: `http://127.0.0.1:${m[1]}`, logs });
+      }
+    });
+    child.stderr?.on("data", (d: Buffer) => logs.push(String(d)));
+  });
+}
+const post = (url: string, body: unknown) => fetch(url, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+const exited = (c: ChildProcess) => new Promise<number | null>((r) => (c.exitCode !== null ? r(c.exitCode) : c.on("exit", (code) => r(code))));
+
+describe("the server process", () => {
+  const children: ChildProcess[] = [];
+  afterAll(() => {
+    for (const c of children) if (c.exitCode === null) c.kill("SIGKILL");
+  });
+
+  it("warns when auth is off; /v1 (worker threads) equals /trpc; quick latency figures", async () => {
+    const s = await start({ BACKSTOP_WORKERS: "1" });
+    children.push(s.child);
+    expect(s.logs.join("")).toMatch(/API-key auth is OFF/);
+    const v1 = await (await post(`${s.base}/v1/operatingPoint`, good)).text();
+    const trpc = (await (await post(`${s.base}/trpc/operatingPoint`, good)).json()) as { result: { data: unknown } };
+    expect(v1).toBe(JSON.stringify(trpc.result.data));
+    const time = async (url: string, n: number) => {
+      const t0 = performance.now();
+      for (let i = 0; i < n; i += 1) await (await post(url, good)).arrayBuffer();
+      return (performance.now() - t0) / n;
+    };
+    const trpcMs = await time(`${s.base}/trpc/operatingPoint`, 30);
+    const v1Ms = await time(`${s.base}/v1/operatingPoint`, 30);
+    const t0 = performance.now();
+    await (await post(`${s.base}/v1/operatingPoint/bulk`, Array.from({ length: 1000 }, () => good))).arrayBuffer();
+    console.log(`latency (mean of 30, loopback): /trpc ${trpcMs.toFixed(2)} ms, /v1 ${v1Ms.toFixed(2)} ms; bulk 1000 cases ${(performance.now() - t0).toFixed(0)} ms`);
+    s.child.kill("SIGTERM");
+    expect(await exited(s.child)).toBe(0);
+  });
+
+  it("SIGTERM under load: /readyz flips first, every accepted request completes, exit 0", async () => {
+    const s = await start({ BACKSTOP_WORKERS: "1", BACKSTOP_DRAIN_DELAY_MS: "400" });
+    children.push(s.child);
+    expect((await fetch(`${s.base}/readyz`)).status).toBe(200);
+    const inFlight = Array.from({ length: 24 }, (_, i) => post(`${s.base}/v1/operatingPoint/bulk`, Array.from({ length: 40 + i }, () => good)).then(async (r) => ({ status: r.status, n: ((await r.json()) as { results: unknown[] }).results.length })));
+    await new Promise((r) => setTimeout(r, 30)); // the requests are on the wire
+    s.child.kill("SIGTERM");
+    await new Promise((r) => setTimeout(r, 100));
+    expect((await fetch(`${s.base}/readyz`)).status).toBe(503); // still serving, but not ready
+    const done = await Promise.all(inFlight);
+    expect(done.map((d) => d.status)).toEqual(done.map(() => 200));
+    expect(done.map((d) => d.n)).toEqual(done.map((_, i) => 40 + i));
+    expect(await exited(s.child)).toBe(0);
+    const log = s.logs.join("");
+    expect(log.indexOf("draining")).toBeLessThan(log.indexOf("in-flight requests finished"));
+  });
+});
