@@ -28,5 +28,5 @@ export interface Context {
   /** Rule sets requests may name; absent: the built-in sets only. */
   readonly ruleSets?: RuleSetStore | undefined;
   /** optional observer of every procedure call (the HTTP adapter's metrics) */
-  readonly observe?: (o: ProcedureObservation) => void;
+  readonly observe?: ((o: ProcedureObservation) => void) | undefined;
 }

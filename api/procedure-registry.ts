@@ -12,7 +12,8 @@ import { createCallerFactory } from "./trpc.js";
  *
  * - input: the zod schema given to `.input(...)` (tRPC keeps it in `_def.inputs`);
  * - output: `.output(...)` if the procedure declares one, else `meta({ output })`, else the contract
- *   named by convention `<procedure>Output` exported from `contracts/index.ts` (as `operatingPointOutput`).
+ *   named by convention `<procedure path in camelCase>Output` exported from `contracts/index.ts`
+ *   (`operatingPointOutput`, `rulesEvaluateOutput` for `rules.evaluate`).
  */
 export interface ProcedureEntry {
   readonly path: string;
@@ -51,7 +52,8 @@ export function procedureEntries(): readonly ProcedureEntry[] {
       const def = (procs[path] as { _def: ProcedureDef })._def;
       const input = def.inputs.find(isZod);
       const leaf = path.split(".").at(-1) ?? path;
-      const output = [def.output, def.meta?.output, named[`${leaf}Output`], named[`${path.replaceAll(".", "_")}Output`]].find(isZod);
+      const camel = path.split(".").map((p, i) => (i === 0 ? p : p.charAt(0).toUpperCase() + p.slice(1))).join("");
+      const output = [def.output, def.meta?.output, named[`${camel}Output`], named[`${leaf}Output`]].find(isZod);
       return { path, type: def.type, input, output, description: def.meta?.description ?? describe(input) };
     });
   return cache;

@@ -2,7 +2,8 @@ import type { Context as HonoContext } from "hono";
 import type { ErrorBody } from "../../contracts/outcome.js";
 import type { Problem, ProblemCode } from "../../contracts/problem.js";
 
-const TITLES: Record<ProblemCode, string> = {
+/** Titles of the known codes; a code added later reads as its own words ("unknown-rule-set" → "Unknown rule set"). */
+const TITLES: Partial<Record<ProblemCode, string>> = {
   "invalid-input": "Invalid input",
   "unknown-part": "Unknown part",
   "unknown-procedure": "Unknown procedure",
@@ -19,13 +20,18 @@ const TITLES: Record<ProblemCode, string> = {
   unavailable: "Service unavailable",
 };
 
+const titleOf = (code: string) => {
+  const words = code.replaceAll("-", " ");
+  return words.charAt(0).toUpperCase() + words.slice(1);
+};
+
 export const PROBLEM_TYPE = "application/problem+json";
 
 /** An RFC 9457 problem body; never carries a stack or an internal message. */
 export function problemOf(status: number, body: ErrorBody | { code: ProblemCode; message: string; issues?: ErrorBody["issues"] }, extra: { instance?: string | undefined; requestId?: string | undefined } = {}): Problem {
   return {
     type: `urn:backstop:problem:${body.code}`,
-    title: TITLES[body.code],
+    title: TITLES[body.code] ?? titleOf(body.code),
     status,
     detail: body.message,
     ...(extra.instance === undefined ? {} : { instance: extra.instance }),
