@@ -39,7 +39,7 @@ function tidy(node: unknown): unknown {
 
 /** JSON Schema of one contract side; any `$defs` are hoisted into components under `prefix`. */
 function schemaOf(schema: z.ZodType, io: "input" | "output", prefix: string, components: Json): Json {
-  const raw = z.toJSONSchema(schema, { io, target: "draft-2020-12", unrepresentable: "any" }) as Json;
+  const raw = z.toJSONSchema(schema, { io, target: "draft-2020-12", unrepresentable: "any", reused: "ref" }) as Json;
   let text = JSON.stringify(tidy(raw));
   const defs = (JSON.parse(text) as Json).$defs as Json | undefined;
   if (defs) {
