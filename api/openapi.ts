@@ -15,15 +15,21 @@ const BOUND_KEYWORD = { gt: "exclusiveMinimum", ge: "minimum", lt: "exclusiveMax
  * `x-unit`, and its bounds (gt/ge/lt/le in the field's unit) become the standard keywords on the
  * number branch. Works on a fresh copy; the zod schemas are never touched.
  */
-function tidy(node: unknown): unknown {
-  if (Array.isArray(node)) return node.map(tidy);
+function tidy(node: unknown, defs: Json = {}): unknown {
+  if (Array.isArray(node)) return node.map((n) => tidy(n, defs));
   if (typeof node !== "object" || node === null) return node;
-  const src = node as Json;
+  let src = node as Json;
+  // a quantity whose number|string union was shared by reference: inline it, so its bounds land on the number branch
+  const target = typeof src.$ref === "string" ? defs[src.$ref.replace("#/$defs/", "")] : undefined;
+  if (typeof src.unit === "string" && target !== undefined) {
+    const { $ref: _drop, ...rest } = src;
+    src = { ...(target as Json), ...rest };
+  }
   const out: Json = {};
   for (const [k, v] of Object.entries(src)) {
     if (k === "$schema") continue;
-    if (SCHEMA_MAPS.has(k) && typeof v === "object" && v !== null) out[k] = Object.fromEntries(Object.entries(v as Json).map(([name, s]) => [name, tidy(s)]));
-    else if (SCHEMA_ONE.has(k) || SCHEMA_LIST.has(k)) out[k] = tidy(v);
+    if (SCHEMA_MAPS.has(k) && typeof v === "object" && v !== null) out[k] = Object.fromEntries(Object.entries(v as Json).map(([name, s]) => [name, tidy(s, defs)]));
+    else if (SCHEMA_ONE.has(k) || SCHEMA_LIST.has(k)) out[k] = tidy(v, defs);
     else if (k === "unit" && typeof v === "string") out["x-unit"] = v;
     else if (k in BOUND_KEYWORD && typeof v === "number") continue;
     else out[k] = v;
@@ -40,7 +46,7 @@ function tidy(node: unknown): unknown {
 /** JSON Schema of one contract side; any `$defs` are hoisted into components under `prefix`. */
 function schemaOf(schema: z.ZodType, io: "input" | "output", prefix: string, components: Json): Json {
   const raw = z.toJSONSchema(schema, { io, target: "draft-2020-12", unrepresentable: "any", reused: "ref" }) as Json;
-  let text = JSON.stringify(tidy(raw));
+  let text = JSON.stringify(tidy(raw, (raw.$defs as Json | undefined) ?? {}));
   const defs = (JSON.parse(text) as Json).$defs as Json | undefined;
   if (defs) {
     for (const name of Object.keys(defs)) text = text.replaceAll(`"#/$defs/${name}"`, `"#/components/schemas/${prefix}_${name}"`);

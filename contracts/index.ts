@@ -15,3 +15,4 @@ export * from "./hold-up.js";
 export * from "./oring.js";
 export * from "./battery-charge.js";
 export * from "./bridge.js";
+export * from "./review.js";

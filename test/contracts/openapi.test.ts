@@ -25,9 +25,13 @@ describe("OpenAPI 3.1 document", () => {
       expect(doc.paths[`/v1/${path}`], path).toBeDefined();
       expect(doc.paths[`/v1/${path}/bulk`], path).toBeDefined();
     }
-    const op = doc.components.schemas.OperatingPointInput as { properties: Record<string, { anyOf?: { type: string; exclusiveMinimum?: number }[]; "x-unit"?: string }> };
-    expect(op.properties.supplyV?.["x-unit"]).toBe("V");
-    expect(op.properties.supplyV?.anyOf?.find((b) => b.type === "number")?.exclusiveMinimum).toBe(0);
+    type S = { $ref?: string; properties?: Record<string, S>; anyOf?: S[]; type?: string; exclusiveMinimum?: number; "x-unit"?: string };
+    const deref = (s: S | undefined): S | undefined => (s?.$ref ? deref(doc.components.schemas[s.$ref.replace("#/components/schemas/", "")] as S) : s);
+    const supplyV = deref(deref(doc.components.schemas.OperatingPointInput as S)?.properties?.supplyV);
+    expect(supplyV?.["x-unit"]).toBe("V");
+    expect(supplyV?.anyOf?.find((b) => b.type === "number")?.exclusiveMinimum).toBe(0);
+    const refs = JSON.stringify(doc).match(/"#\/components\/schemas\/[^"]+"/g) ?? [];
+    for (const r of new Set(refs)) expect(doc.components.schemas[r.slice(22, -1)], r).toBeDefined(); // every $ref resolves
     expect(doc.components.schemas.OperatingPointOutput?.description).not.toBe("not declared in the contracts");
   });
 
