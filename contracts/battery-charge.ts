@@ -1,5 +1,7 @@
 import { z } from "zod";
 import { provenance } from "./outcome.js";
+import { metricRecord, ruleSetResultSchema } from "./rule-set.js";
+import { ruleSetRef } from "./rules.js";
 import { quantity, ratio, temperatureC } from "./quantity.js";
 import { stageInput } from "./stage.js";
 
@@ -39,6 +41,8 @@ export const batteryChargeInput = z
       })
       .optional(),
     relativeTolerance: ratio("relative tolerance of the adaptive ODE step (default 1e-7)", { ge: 1e-12, le: 1e-2 }).optional(),
+    ruleSet: ruleSetRef.optional().meta({ description: "when given, the result carries this rule set's verdicts (docs/metrics.md lists what this analysis provides)" }),
+    ruleMetrics: metricRecord.optional().meta({ description: "requirement metrics for the rules that this analysis does not compute (parallelSources, reverseVMaxV, reverseCurrentBudgetA, ...)" }),
   })
   .meta({ description: "battery-to-battery charging through each stage: charge time, losses, final states, reverse drain" });
 export type BatteryChargeInput = z.input<typeof batteryChargeInput>;
@@ -87,6 +91,6 @@ const result = z.discriminatedUnion("outcome", [
 export const batteryChargeOutput = z.object({
   ...provenance,
   assumptions: z.array(z.string()),
-  stages: z.array(z.object({ stage: z.object({ kind: z.string(), name: z.string().optional(), partId: z.string().optional() }), result, metrics: chargeMetrics })),
+  stages: z.array(z.object({ stage: z.object({ kind: z.string(), name: z.string().optional(), partId: z.string().optional() }), result, metrics: chargeMetrics, rules: ruleSetResultSchema.optional().meta({ description: "verdicts of the named rule set on this stage (present when ruleSet was given)" }) })),
 });
 export type BatteryChargeOutput = z.infer<typeof batteryChargeOutput>;

@@ -1,6 +1,8 @@
 import { z } from "zod";
 import { load } from "./load.js";
 import { provenance } from "./outcome.js";
+import { metricRecord, ruleSetResultSchema } from "./rule-set.js";
+import { ruleSetRef } from "./rules.js";
 import { quantity, temperatureC } from "./quantity.js";
 import { stageInput } from "./stage.js";
 
@@ -34,6 +36,8 @@ const common = {
   sourceResistanceOhm: quantity("ohm", "source and wiring resistance (default 0)", { ge: 0, le: 1e6 }).optional(),
   load,
   ambientC: temperatureC("ambient temperature"),
+  ruleSet: ruleSetRef.optional().meta({ description: "when given, the result carries this rule set's verdicts on the bridge (and on compareTo)" }),
+  ruleMetrics: metricRecord.optional().meta({ description: "requirement metrics for the rules that the bridge analysis does not compute (supplyMinV, standbyBudgetA, ...)" }),
 };
 
 export const bridgeDcInput = z
@@ -60,6 +64,10 @@ const head = {
   metrics: z.record(z.string(), z.number()).meta({
     description: "flat metric values for rules: element.<position>.<metric>, capacitor.<metric>, <polarity>.<metric>",
   }),
+  rules: ruleSetResultSchema.optional().meta({
+    description: "verdicts of the named rule set on the bridge: each rule on each element, the worst shown and named in element (present when ruleSet was given)",
+  }),
+  compareToRules: ruleSetResultSchema.optional().meta({ description: "the same for the compareTo bridge" }),
 };
 
 // ---- DC ----

@@ -1,6 +1,8 @@
 import { z } from "zod";
 import { load } from "./load.js";
 import { provenance } from "./outcome.js";
+import { metricRecord, ruleSetResultSchema } from "./rule-set.js";
+import { ruleSetRef } from "./rules.js";
 import { quantity, temperatureC } from "./quantity.js";
 import { stageInput } from "./stage.js";
 import { fallingInputFields, holdUpCapacitor } from "./turn-off.js";
@@ -22,6 +24,8 @@ export const holdUpInput = z
         z.object({ kind: z.literal("falls"), ...fallFields }).meta({ description: "the input is shorted or steps lower through a loop" }),
       ])
       .meta({ description: "how the input is lost" }),
+    ruleSet: ruleSetRef.optional().meta({ description: "when given, the result carries this rule set's verdicts (docs/metrics.md lists what this analysis provides)" }),
+    ruleMetrics: metricRecord.optional().meta({ description: "requirement metrics for the rules that this analysis does not compute (parallelSources, reverseVMaxV, reverseCurrentBudgetA, ...)" }),
   })
   .meta({ description: "time the output stays above the load's minimum after the input is lost, per stage" });
 export type HoldUpInput = z.input<typeof holdUpInput>;
@@ -56,6 +60,7 @@ export const holdUpOutput = z.object({
       stage: z.object({ kind: z.string(), name: z.string().optional(), partId: z.string().optional() }),
       result: row,
       metrics: holdUpMetrics,
+      rules: ruleSetResultSchema.optional().meta({ description: "verdicts of the named rule set on this stage (present when ruleSet was given)" }),
     }),
   ),
 });

@@ -1,6 +1,8 @@
 import { z } from "zod";
 import { load } from "./load.js";
 import { provenance } from "./outcome.js";
+import { metricRecord, ruleSetResultSchema } from "./rule-set.js";
+import { ruleSetRef } from "./rules.js";
 import { quantity, temperatureC } from "./quantity.js";
 import { stageInput } from "./stage.js";
 
@@ -17,6 +19,8 @@ export const oringInput = z
     sources: z.array(oringSource).min(1, { message: "an ORing network needs at least one source" }).max(32),
     load,
     ambientC: temperatureC("ambient temperature"),
+    ruleSet: ruleSetRef.optional().meta({ description: "when given, the result carries this rule set's verdicts (docs/metrics.md lists what this analysis provides)" }),
+    ruleMetrics: metricRecord.optional().meta({ description: "requirement metrics for the rules that this analysis does not compute (parallelSources, reverseVMaxV, reverseCurrentBudgetA, ...)" }),
   })
   .meta({ description: "paralleled sources, each through its own stage, into one node with a load" });
 export type OringInput = z.input<typeof oringInput>;
@@ -50,11 +54,16 @@ export const oringMetrics = z.object({
   minShare: z.number().meta({ description: "smallest share among the sources that conduct forward" }),
 });
 
+const rules = ruleSetResultSchema.optional().meta({
+  description: "verdicts of the named rule set on the network, each branch evaluated and the worst shown per rule, named in element (present when ruleSet was given)",
+});
+
 export const oringOutput = z.discriminatedUnion("outcome", [
   z.object({
     outcome: z.literal("solved"),
     ...provenance,
     assumptions: z.array(z.string()),
+    rules,
     nodeV: z.number(),
     loadCurrentA: z.number(),
     kclResidualA: z.number(),
@@ -64,7 +73,7 @@ export const oringOutput = z.discriminatedUnion("outcome", [
     branches: z.array(oringBranch),
     metrics: oringMetrics,
   }),
-  z.object({ outcome: z.literal("load-collapse"), ...provenance, assumptions: z.array(z.string()), reason: z.string() }),
-  z.object({ outcome: z.literal("thermal-runaway"), ...provenance, assumptions: z.array(z.string()), reason: z.string(), lastTjC: z.array(z.number()) }),
+  z.object({ outcome: z.literal("load-collapse"), ...provenance, assumptions: z.array(z.string()), rules, reason: z.string() }),
+  z.object({ outcome: z.literal("thermal-runaway"), ...provenance, assumptions: z.array(z.string()), rules, reason: z.string(), lastTjC: z.array(z.number()) }),
 ]);
 export type OringOutput = z.infer<typeof oringOutput>;

@@ -85,6 +85,7 @@ export const verdictSchema = z.object({
   reason: z.string().nullable(),
   notApplicableCode: z.enum(["stage-kind", "precondition", "not-required", "missing-value", "not-finite"]).nullable().meta({ description: "why not applicable: out of scope, or a gap in the evidence" }),
   ruleSet: ruleSetStamp,
+  element: z.string().optional().meta({ description: "for a circuit of several elements (bridge positions, ORing branches): the worst element, whose values the verdict shows" }),
 });
 
 export const ruleSetResultSchema = z.object({

@@ -21,6 +21,8 @@ const diodeStage = (kind: "pn-diode" | "schottky-diode") =>
       .meta({ description: "datasheet reverse leakage at the rated voltage; scaled in temperature by the junction's Is(T) law (default: Is(T) of the diode model)" }),
     tjMaxC: temperatureC("maximum junction temperature"),
     thermal: thermalPath,
+    avalancheEnergyJ: quantity("J", "single-pulse avalanche energy rating at 25 °C starting junction temperature (for the turn-off rules)", { gt: 0, le: 1e6 }).optional(),
+    peakRepetitiveCurrentA: quantity("A", "repetitive peak forward current rating IFRM (for the bridge rules)", { gt: 0, le: 1e5 }).optional(),
   });
 
 export const controller = z

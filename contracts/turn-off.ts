@@ -1,6 +1,8 @@
 import { z } from "zod";
 import { load } from "./load.js";
 import { provenance } from "./outcome.js";
+import { metricRecord, ruleSetResultSchema } from "./rule-set.js";
+import { ruleSetRef } from "./rules.js";
 import { quantity, temperatureC } from "./quantity.js";
 import { stageInput } from "./stage.js";
 
@@ -46,7 +48,9 @@ export const fallingInputFields = {
 export const turnOffInput = z
   .object({
     ...fallingInputFields,
-    avalancheRatingJ: quantity("J", "single-pulse avalanche energy rating of the blocking element", { gt: 0, le: 1e6 }).optional(),
+    avalancheRatingJ: quantity("J", "single-pulse avalanche energy rating of the blocking element at 25 °C starting Tj (default: the part's avalancheEnergyJ)", { gt: 0, le: 1e6 }).optional(),
+    ruleSet: ruleSetRef.optional().meta({ description: "when given, the result carries this rule set's verdicts (docs/metrics.md lists what this analysis provides)" }),
+    ruleMetrics: metricRecord.optional().meta({ description: "requirement metrics for the rules that this analysis does not compute (parallelSources, reverseVMaxV, reverseCurrentBudgetA, ...)" }),
   })
   .superRefine((v, ctx) => {
     if (!(v.inputAfterV < v.outputV)) ctx.addIssue({ code: "custom", path: ["inputAfterV"], message: "must be below outputV: the input falls at t = 0" });
@@ -85,7 +89,12 @@ export const turnOffMetrics = z.object({
   fallsBelowLoadMinimumS: z.number().optional(),
 });
 
-const head = { ...provenance, stage: z.object({ kind: z.string(), name: z.string().optional(), partId: z.string().optional() }), assumptions: z.array(z.string()) };
+const head = {
+  ...provenance,
+  stage: z.object({ kind: z.string(), name: z.string().optional(), partId: z.string().optional() }),
+  assumptions: z.array(z.string()),
+  rules: ruleSetResultSchema.optional().meta({ description: "verdicts of the named rule set on the event (present when ruleSet was given)" }),
+};
 const common = {
   ...head,
   loop: z.object({

@@ -2,6 +2,7 @@ import type { RuleInput } from "../../domain/rules/rule-model.js";
 import type { OperatingPointOutcome } from "../../domain/solve/electrothermal-point.js";
 import type { LoadModel } from "../../domain/solve/load-model.js";
 import { type StageModel, stageQuiescentA, stageTjMaxC } from "../../domain/stages/stage-model.js";
+import { otherAnalysesMetrics } from "./analysis-rules.js";
 
 /** Metrics the operating point computes; a caller may not supply them alongside it. */
 export const OPERATING_POINT_METRICS = ["tjWorstC", "lossWorstW", "dropWorstV", "loadVMinV", "gateDriveMinV"] as const;
@@ -33,7 +34,7 @@ export function operatingPointRuleInput(stage: StageModel, load: LoadModel, o: O
   if (stage.kind === "integrated-switch" && !Object.hasOwn(metrics, "blocksReverseCurrent")) {
     unavailable["blocksReverseCurrent"] = "the integrated-switch model does not say whether it blocks reverse current; give it in ruleMetrics";
   }
-  return { stageKind: stage.kind, metrics, part: partParameters(stage), unavailable };
+  return { stageKind: stage.kind, metrics, part: partParameters(stage), unavailable, notRequired: otherAnalysesMetrics(metrics, "operatingPoint") };
 }
 
 export function stageMetrics(stage: StageModel): Record<string, number | boolean> {

@@ -1,6 +1,7 @@
 import type { CandidateReview, ReviewRequirement } from "../../domain/review/candidate-review.js";
 import type { RuleInput } from "../../domain/rules/rule-model.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
+import { otherAnalysesMetrics } from "./analysis-rules.js";
 import { partParameters, stageMetrics } from "./operating-point-metrics.js";
 
 export interface RequirementFlags {
@@ -63,5 +64,5 @@ export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags
   metrics["reverseTransientVMaxV"] = Math.max(req.reverseV, ...negative);
   const positive = r.transients.filter((t) => t.polarity === "positive").map((t) => t.inputPeakV);
   metrics["transientVMaxV"] = Math.max(req.supplyMaxV, ...positive);
-  return { stageKind: stage.kind, metrics, part: partParameters(stage), unavailable, notRequired };
+  return { stageKind: stage.kind, metrics, part: partParameters(stage), unavailable, notRequired: { ...otherAnalysesMetrics(metrics, "review"), ...notRequired } };
 }

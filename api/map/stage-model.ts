@@ -23,6 +23,8 @@ export function toStageModel(spec: StageSpec, thermal: ThermalPath, path: (strin
         ...(spec.reverseLeakage === undefined ? {} : { reverseLeakage: { currentA: spec.reverseLeakage.currentA, tempK: cToK(spec.reverseLeakage.tempC) } }),
         tjMaxC: spec.tjMaxC,
         thermal,
+        ...(spec.avalancheEnergyJ === undefined ? {} : { avalancheEnergyJ: spec.avalancheEnergyJ }),
+        ...(spec.peakRepetitiveCurrentA === undefined ? {} : { peakRepetitiveCurrentA: spec.peakRepetitiveCurrentA }),
       };
     case "pfet-high-side":
     case "nfet-low-side":
@@ -86,6 +88,8 @@ function toMosfet(m: MosfetSpec, path: (string | number)[], assumptions: string[
     vdsMaxV: m.vdsMaxV,
     vgsMaxV: m.vgsMaxV,
     tjMaxC: m.tjMaxC,
+    ...(m.avalancheEnergyJ === undefined ? {} : { avalancheEnergyJ: m.avalancheEnergyJ }),
+    ...(m.peakRepetitiveCurrentA === undefined ? {} : { peakRepetitiveCurrentA: m.peakRepetitiveCurrentA }),
   };
 }
 

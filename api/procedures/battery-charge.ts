@@ -2,6 +2,9 @@ import { type BatteryChargeOutput, batteryChargeInput } from "../../contracts/ba
 import { chargeBattery } from "../../domain/checks/battery-charging.js";
 import type { BatteryModel } from "../../domain/physics/battery-ocv.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
+import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
+import { ruleSetForAnalysis } from "../map/analysis-rules.js";
+import { batteryChargeRuleInput, CHARGE_COMPUTES } from "../map/reverse-current-rules.js";
 import { stageLabel } from "../map/reverse-inputs.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { publicProcedure } from "../trpc.js";
@@ -31,6 +34,7 @@ export const batteryCharge = publicProcedure.input(batteryChargeInput).query(({ 
   if (input.stop?.minCurrentA === undefined) assumptions.push(`stop.minCurrentA: ${stop.minCurrentA} A (1e-3 of the target's capacity per hour)`);
   if (input.stop?.maxTimeS === undefined) assumptions.push("stop.maxTimeS: 7 days");
   const rtol = input.relativeTolerance ?? 1e-7;
+  const set = ruleSetForAnalysis(input.ruleSet, input.ruleMetrics, CHARGE_COMPUTES, "batteryCharge", ctx);
   const stages = input.stages.map((s, k) => {
     const stage = resolveStage(s, ctx.catalog, ["stages", k], assumptions);
     const result = chargeBattery({
@@ -54,7 +58,8 @@ export const batteryCharge = publicProcedure.input(batteryChargeInput).query(({ 
             overTemperature: result.overTemperature,
           } : {}),
     };
-    return { stage: stageLabel(stage.spec, stage.partId), result, metrics };
+    const rules = set === undefined ? undefined : evaluateRuleSet(set, batteryChargeRuleInput(stage.model, result, input.ruleMetrics ?? {}));
+    return { stage: stageLabel(stage.spec, stage.partId), result, metrics, ...(rules === undefined ? {} : { rules }) };
   });
   return { modelVersion: MODEL_VERSION, caution: CAUTION, assumptions, stages };
 });

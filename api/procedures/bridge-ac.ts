@@ -1,7 +1,11 @@
 import { type BridgeAcOutput, type BridgeElementsInput, bridgeAcInput } from "../../contracts/bridge.js";
 import { analyseBridgeAc, type BridgeAcOutcome } from "../../domain/checks/bridge-ac.js";
 import { acSaving } from "../../domain/checks/bridge-saving.js";
+import type { RuleSetResult } from "../../domain/rules/rule-model.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
+import { evaluateRuleSetOverElements } from "../../domain/rules/element-verdicts.js";
+import { ruleSetForAnalysis } from "../map/analysis-rules.js";
+import { BRIDGE_AC_COMPUTES, bridgeAcElementInputs } from "../map/bridge-rules.js";
 import { toBridgeElements } from "../map/bridge-elements.js";
 import { publicProcedure } from "../trpc.js";
 
@@ -16,9 +20,11 @@ export const bridgeAc = publicProcedure.input(bridgeAcInput).query(({ input, ctx
   const esrOhm = orZero(input.esrOhm, "esrOhm");
   assumptions.push("MOSFET controllers run from the reservoir voltage and switch quasi-statically (turn-on/off delays neglected against the period)");
   assumptions.push("junction temperatures from the period-average loss (thermal time constants long against the period)");
-  const run = (elements: BridgeElementsInput, path: string): BridgeAcOutcome =>
-    analyseBridgeAc({
-      elements: toBridgeElements(elements, ctx.catalog, [path], assumptions),
+  const set = ruleSetForAnalysis(input.ruleSet, input.ruleMetrics, BRIDGE_AC_COMPUTES, "bridgeAc", ctx);
+  const run = (spec: BridgeElementsInput, path: string): { result: BridgeAcOutcome; rules: RuleSetResult | undefined } => {
+    const elements = toBridgeElements(spec, ctx.catalog, [path], assumptions);
+    const result = analyseBridgeAc({
+      elements,
       sourceRmsV: input.sourceRmsV,
       frequencyHz: input.frequencyHz,
       sourceResistanceOhm,
@@ -28,8 +34,13 @@ export const bridgeAc = publicProcedure.input(bridgeAcInput).query(({ input, ctx
       load: input.load,
       ambientC: input.ambientC,
     });
-  const bridge = run(input.bridge, "bridge");
-  const compareTo = input.compareTo === undefined ? undefined : run(input.compareTo, "compareTo");
+    const rules = set === undefined ? undefined : evaluateRuleSetOverElements(set, bridgeAcElementInputs(elements, result, input.load, input.capacitorRippleRatingA, input.ruleMetrics ?? {}));
+    return { result, rules };
+  };
+  const main = run(input.bridge, "bridge");
+  const other = input.compareTo === undefined ? undefined : run(input.compareTo, "compareTo");
+  const bridge = main.result;
+  const compareTo = other?.result;
   const metrics: Record<string, number> = {};
   addMetrics(metrics, "", bridge, input.capacitorRippleRatingA);
   if (compareTo !== undefined) addMetrics(metrics, "compareTo.", compareTo, input.capacitorRippleRatingA);
@@ -39,6 +50,8 @@ export const bridgeAc = publicProcedure.input(bridgeAcInput).query(({ input, ctx
     caution: CAUTION,
     assumptions,
     metrics,
+    ...(main.rules === undefined ? {} : { rules: main.rules }),
+    ...(other?.rules === undefined ? {} : { compareToRules: other.rules }),
     bridge,
     ...(compareTo === undefined ? {} : { compareTo }),
     ...(saving === undefined ? {} : { saving }),

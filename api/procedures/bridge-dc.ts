@@ -2,6 +2,9 @@ import { type BridgeDcOutput, type BridgeElementsInput, bridgeDcInput } from "..
 import { analyseBridgeDc, type BridgeDcResult } from "../../domain/checks/bridge-dc.js";
 import { dcSaving } from "../../domain/checks/bridge-saving.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
+import { evaluateRuleSetOverElements } from "../../domain/rules/element-verdicts.js";
+import { ruleSetForAnalysis } from "../map/analysis-rules.js";
+import { BRIDGE_DC_COMPUTES, bridgeDcElementInputs } from "../map/bridge-rules.js";
 import { toBridgeElements } from "../map/bridge-elements.js";
 import { publicProcedure } from "../trpc.js";
 
@@ -9,10 +12,17 @@ export const bridgeDc = publicProcedure.input(bridgeDcInput).query(({ input, ctx
   const assumptions: string[] = [];
   const sourceResistanceOhm = input.sourceResistanceOhm ?? 0;
   if (input.sourceResistanceOhm === undefined) assumptions.push("sourceResistanceOhm: 0 (default)");
-  const run = (elements: BridgeElementsInput, path: string) =>
-    analyseBridgeDc({ elements: toBridgeElements(elements, ctx.catalog, [path], assumptions), supplyV: input.supplyV, sourceResistanceOhm, load: input.load, ambientC: input.ambientC });
-  const bridge = run(input.bridge, "bridge");
-  const compareTo = input.compareTo === undefined ? undefined : run(input.compareTo, "compareTo");
+  const set = ruleSetForAnalysis(input.ruleSet, input.ruleMetrics, BRIDGE_DC_COMPUTES, "bridgeDc", ctx);
+  const run = (spec: BridgeElementsInput, path: string) => {
+    const elements = toBridgeElements(spec, ctx.catalog, [path], assumptions);
+    const result = analyseBridgeDc({ elements, supplyV: input.supplyV, sourceResistanceOhm, load: input.load, ambientC: input.ambientC });
+    const rules = set === undefined ? undefined : evaluateRuleSetOverElements(set, bridgeDcElementInputs(elements, result, input.load, input.ruleMetrics ?? {}));
+    return { result, rules };
+  };
+  const main = run(input.bridge, "bridge");
+  const other = input.compareTo === undefined ? undefined : run(input.compareTo, "compareTo");
+  const bridge = main.result;
+  const compareTo = other?.result;
   const metrics: Record<string, number> = {};
   addMetrics(metrics, "", bridge);
   if (compareTo !== undefined) addMetrics(metrics, "compareTo.", compareTo);
@@ -29,6 +39,8 @@ export const bridgeDc = publicProcedure.input(bridgeDcInput).query(({ input, ctx
     caution: CAUTION,
     assumptions,
     metrics,
+    ...(main.rules === undefined ? {} : { rules: main.rules }),
+    ...(other?.rules === undefined ? {} : { compareToRules: other.rules }),
     bridge,
     ...(compareTo === undefined ? {} : { compareTo }),
     ...(saving === undefined ? {} : { saving }),

@@ -2,12 +2,16 @@ import { type HoldUpOutput, holdUpInput } from "../../contracts/hold-up.js";
 import { type HoldUpModel, holdUp as holdUpCheck } from "../../domain/checks/hold-up.js";
 import { blocksReverseCurrent } from "../../domain/checks/stage-ratings.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
+import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
+import { ruleSetForAnalysis } from "../map/analysis-rules.js";
+import { HOLD_UP_COMPUTES, holdUpRuleInput } from "../map/reverse-current-rules.js";
 import { controllerTiming, loadMinimumV, stageLabel } from "../map/reverse-inputs.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { publicProcedure } from "../trpc.js";
 
 export const holdUp = publicProcedure.input(holdUpInput).query(({ input, ctx }): HoldUpOutput => {
   const assumptions: string[] = [];
+  const set = ruleSetForAnalysis(input.ruleSet, input.ruleMetrics, HOLD_UP_COMPUTES, "holdUp", ctx);
   const loadMinV = loadMinimumV(input.load, input.loadMinV, ["loadMinV"]);
   const stages = input.stages.map((s, k) => {
     const stage = resolveStage(s, ctx.catalog, ["stages", k], assumptions);
@@ -43,7 +47,8 @@ export const holdUp = publicProcedure.input(holdUpInput).query(({ input, ctx }):
       ...(holdUpS === undefined || input.requiredHoldUpS === undefined ? {} : { holdUpMarginS: holdUpS - input.requiredHoldUpS }),
       ...(result.outcome === "holds" ? { reverseLeakageA: result.reverseLeakageA } : {}),
     };
-    return { stage: stageLabel(stage.spec, stage.partId), result, metrics };
+    const rules = set === undefined ? undefined : evaluateRuleSet(set, holdUpRuleInput(stage.model, result, input.requiredHoldUpS, input.ruleMetrics ?? {}));
+    return { stage: stageLabel(stage.spec, stage.partId), result, metrics, ...(rules === undefined ? {} : { rules }) };
   });
   return { modelVersion: MODEL_VERSION, caution: CAUTION, assumptions, stages };
 });

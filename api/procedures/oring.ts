@@ -1,5 +1,8 @@
 import { type OringOutput, oringInput } from "../../contracts/oring.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
+import { evaluateRuleSetOverElements } from "../../domain/rules/element-verdicts.js";
+import { ruleSetForAnalysis } from "../map/analysis-rules.js";
+import { ORING_COMPUTES, oringElementInputs } from "../map/reverse-current-rules.js";
 import { solveOring } from "../../domain/solve/oring-network.js";
 import { stageTjMaxC } from "../../domain/stages/stage-model.js";
 import { stageLabel } from "../map/reverse-inputs.js";
@@ -9,6 +12,7 @@ import { publicProcedure } from "../trpc.js";
 
 export const oring = publicProcedure.input(oringInput).query(({ input, ctx }): OringOutput => {
   const assumptions: string[] = ["sources sink reverse current (a battery does; many bench supplies do not)"];
+  const set = ruleSetForAnalysis(input.ruleSet, input.ruleMetrics, ORING_COMPUTES, "oring", ctx);
   const resolved = input.sources.map((s, k) => resolveStage(s.stage, ctx.catalog, ["sources", k, "stage"], assumptions));
   const r = solveOring({
     sources: input.sources.map((s, k) => ({
@@ -20,7 +24,20 @@ export const oring = publicProcedure.input(oringInput).query(({ input, ctx }): O
     load: input.load,
     ambientC: input.ambientC,
   });
-  const head = { modelVersion: MODEL_VERSION, caution: CAUTION, assumptions };
+  const rules =
+    set === undefined || r.outcome === "no-sources"
+      ? undefined
+      : evaluateRuleSetOverElements(
+          set,
+          oringElementInputs(
+            resolved.map((s) => s.model),
+            input.sources.map((s) => s.name),
+            input.load,
+            r,
+            input.ruleMetrics ?? {},
+          ),
+        );
+  const head = { modelVersion: MODEL_VERSION, caution: CAUTION, assumptions, ...(rules === undefined ? {} : { rules }) };
   switch (r.outcome) {
     case "no-sources":
       throw inputProblem("invalid-input", [r.path], r.reason);

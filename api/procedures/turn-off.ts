@@ -1,13 +1,22 @@
 import { type TurnOffOutput, turnOffInput } from "../../contracts/turn-off.js";
+import type { RuleSetResult } from "../../domain/rules/rule-model.js";
 import { type TurnOffOutcome, turnOffEvent } from "../../domain/checks/turn-off-event.js";
+import { stageAvalancheEnergyJ } from "../../domain/checks/stage-ratings.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
+import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
+import { ruleSetForAnalysis } from "../map/analysis-rules.js";
+import { TURN_OFF_COMPUTES, turnOffRuleInput } from "../map/reverse-current-rules.js";
 import { controllerTiming, loadMinimumV, stageLabel } from "../map/reverse-inputs.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { publicProcedure } from "../trpc.js";
 
 export const turnOff = publicProcedure.input(turnOffInput).query(({ input, ctx }): TurnOffOutput => {
   const assumptions: string[] = [];
+  const set = ruleSetForAnalysis(input.ruleSet, input.ruleMetrics, TURN_OFF_COMPUTES, "turnOff", ctx);
   const stage = resolveStage(input.stage, ctx.catalog, ["stage"], assumptions);
+  const partRatingJ = stageAvalancheEnergyJ(stage.model);
+  const avalancheRatingJ = input.avalancheRatingJ ?? partRatingJ;
+  if (input.avalancheRatingJ === undefined && partRatingJ !== undefined) assumptions.push(`avalancheRatingJ: the part's avalancheEnergyJ (${partRatingJ} J at 25 °C starting Tj)`);
   const controller = controllerTiming(stage.spec, stage.model, input.turnOff, ["turnOff"], assumptions);
   if (input.clampV === undefined) assumptions.push("clampV: the blocking element's rated voltage (a lower bound of its breakdown: the energy estimate is conservative)");
   if (stage.model.kind === "pn-diode" || stage.model.kind === "schottky-diode") {
@@ -27,13 +36,14 @@ export const turnOff = publicProcedure.input(turnOffInput).query(({ input, ctx }
     ...(controller === undefined ? {} : { controller }),
     ...(input.reverseRecoveryChargeC === undefined ? {} : { reverseRecoveryChargeC: input.reverseRecoveryChargeC }),
     ...(input.clampV === undefined ? {} : { clampV: input.clampV }),
-    ...(input.avalancheRatingJ === undefined ? {} : { avalancheRatingJ: input.avalancheRatingJ }),
+    ...(avalancheRatingJ === undefined ? {} : { avalancheRatingJ }),
   });
-  const head = { modelVersion: MODEL_VERSION, caution: CAUTION, stage: stageLabel(stage.spec, stage.partId), assumptions };
+  const rules = set === undefined ? undefined : evaluateRuleSet(set, turnOffRuleInput(stage.model, r, input.tjC, avalancheRatingJ, input.ruleMetrics ?? {}));
+  const head = { modelVersion: MODEL_VERSION, caution: CAUTION, stage: stageLabel(stage.spec, stage.partId), assumptions, ...(rules === undefined ? {} : { rules }) };
   return toOutput(head, r, input.outputV);
 });
 
-type Head = { modelVersion: string; caution: string; stage: { kind: string; name?: string; partId?: string }; assumptions: string[] };
+type Head = { modelVersion: string; caution: string; stage: { kind: string; name?: string; partId?: string }; assumptions: string[]; rules?: RuleSetResult };
 
 function toOutput(head: Head, r: TurnOffOutcome, v0: number): TurnOffOutput {
   switch (r.outcome) {

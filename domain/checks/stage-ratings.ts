@@ -44,3 +44,33 @@ export function blocksReverseCurrent(stage: StageModel): boolean {
       return stage.blocksReverseCurrent;
   }
 }
+
+/** The blocking element's single-pulse avalanche energy rating (EAS at 25 °C start), J; undefined when not rated. */
+export function stageAvalancheEnergyJ(stage: StageModel): number | undefined {
+  switch (stage.kind) {
+    case "pn-diode":
+    case "schottky-diode":
+      return stage.avalancheEnergyJ;
+    case "pfet-high-side":
+    case "nfet-low-side":
+    case "nfet-ideal-diode":
+      return stage.mosfet.avalancheEnergyJ;
+    case "integrated-switch":
+      return undefined;
+  }
+}
+
+/** Repetitive peak forward current rating of the element carrying the load current, A; undefined when not given. */
+export function stagePeakRepetitiveCurrentA(stage: StageModel): number | undefined {
+  switch (stage.kind) {
+    case "pn-diode":
+    case "schottky-diode":
+      return stage.peakRepetitiveCurrentA;
+    case "pfet-high-side":
+    case "nfet-low-side":
+    case "nfet-ideal-diode":
+      return stage.mosfet.peakRepetitiveCurrentA;
+    case "integrated-switch":
+      return undefined;
+  }
+}

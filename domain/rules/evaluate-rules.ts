@@ -73,16 +73,30 @@ function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: r
     if (!r.appliesTo.includes(input.stageKind)) return na("stage-kind", `the rule covers ${r.appliesTo.join(", ")}, not ${input.stageKind}`);
   }
   try {
+    const optional = input.notRequired;
+    const skippedOf = (): string[] => (optional === undefined ? [] : c.names.filter((n, i) => Object.hasOwn(optional, n) && R.ok[map[i] ?? -1] !== true));
+    const notRequired = (names: readonly string[]): Verdict => na("not-required", `not required: ${names.map((n) => `${n} (${optional?.[n] ?? ""})`).join("; ")}`);
     if (c.when !== null) {
       const w = gather(R, map, c.whenSlots);
-      if (w.missing.length > 0) return na("missing-value", `precondition '${r.when}' cannot be evaluated: ${w.missing.join("; ")}`);
-      if (!c.when.test(w.slots)) return na("precondition", `precondition '${r.when}' is false`);
+      let holds: boolean | undefined;
+      if (w.missing.length > 0) {
+        // A precondition on requirement inputs the caller left out: decided if it has the same
+        // value whichever way the missing flags go ("parallelSources or holdUpRequired" with
+        // holdUpRequired true), otherwise the rule is out of scope; a gap elsewhere stays a gap.
+        const whenNames = new Set(c.whenSlots.map((i) => c.names[i]));
+        const skipped = skippedOf().filter((n) => whenNames.has(n));
+        holds = skipped.length > 0 ? preconditionOverFlags(c, R, map, w.slots) : undefined;
+        if (holds === undefined) {
+          if (skipped.length > 0) return notRequired(skipped);
+          return na("missing-value", `precondition '${r.when}' cannot be evaluated: ${w.missing.join("; ")}`);
+        }
+      } else holds = c.when.test(w.slots);
+      if (!holds) return na("precondition", `precondition '${r.when}' is false`);
     }
     const e = gather(R, map, c.expressionSlots);
-    const optional = input.notRequired;
-    if (optional !== undefined && e.missing.length > 0) {
-      const skipped = c.names.filter((n, i) => Object.hasOwn(optional, n) && R.ok[map[i] ?? -1] !== true);
-      if (skipped.length > 0) return na("not-required", `not required: ${skipped.map((n) => `${n} (${optional[n] ?? ""})`).join("; ")}`);
+    if (e.missing.length > 0) {
+      const skipped = skippedOf();
+      if (skipped.length > 0) return notRequired(skipped);
     }
     if (e.missing.length > 0) return na("missing-value", `cannot be evaluated: ${e.missing.join("; ")}`);
     const holds = c.expression.test(e.slots);
@@ -98,6 +112,33 @@ function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: r
     if (err === NON_FINITE) return na("not-finite", "an intermediate value is not finite (division by zero, log of zero or a negative number, overflow)");
     throw err;
   }
+}
+
+/**
+ * Three-valued precondition: when every missing slot is a boolean, try both values of each (at
+ * most 4 of them); the result when all agree, undefined when they do not or a missing slot is a
+ * number.
+ */
+function preconditionOverFlags(c: CompiledRule, R: Resolved, map: readonly number[], slots: readonly number[]): boolean | undefined {
+  const when = c.when;
+  if (when === null) return undefined;
+  const free: number[] = [];
+  c.whenSlots.forEach((nameIdx, k) => {
+    const j = map[nameIdx] ?? -1;
+    if (R.ok[j] !== true) free.push(k);
+  });
+  if (free.length > 4 || free.some((k) => c.refs[c.whenSlots[k] ?? -1]?.boolean !== true)) return undefined;
+  let seen: boolean | undefined;
+  for (let bits = 0; bits < 1 << free.length; bits += 1) {
+    const trial = [...slots];
+    free.forEach((k, b) => {
+      trial[k] = (bits >> b) & 1;
+    });
+    const v = when.test(trial);
+    if (seen !== undefined && v !== seen) return undefined;
+    seen = v;
+  }
+  return seen;
 }
 
 interface Cmp {
@@ -143,7 +184,11 @@ function verdict(
  */
 export function evaluateRuleSet(set: CompiledRuleSet, input: RuleInput): RuleSetResult {
   const R = resolve(set.refs, input);
-  const verdicts = set.rules.map((c) => evaluateResolved(c, input, R, c.setIndex, set.stamp));
+  return summarizeVerdicts(set.stamp, set.rules.map((c) => evaluateResolved(c, input, R, c.setIndex, set.stamp)));
+}
+
+/** The set's counts and outcome from its verdicts (fail > warn > incomplete > pass; not-applicable). */
+export function summarizeVerdicts(stamp: CompiledRuleSet["stamp"], verdicts: readonly Verdict[]): RuleSetResult {
   const counts = { pass: 0, warn: 0, fail: 0, notApplicable: 0 };
   let gaps = 0;
   for (const v of verdicts) {
@@ -153,7 +198,7 @@ export function evaluateRuleSet(set: CompiledRuleSet, input: RuleInput): RuleSet
     } else counts[v.outcome] += 1;
   }
   const outcome: RuleSetOutcome = counts.fail > 0 ? "fail" : counts.warn > 0 ? "warn" : gaps > 0 ? "incomplete" : counts.pass > 0 ? "pass" : "not-applicable";
-  return { ruleSet: set.stamp, outcome, counts, verdicts };
+  return { ruleSet: stamp, outcome, counts, verdicts };
 }
 
 function fmt(x: number): string {

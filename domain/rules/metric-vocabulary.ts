@@ -35,16 +35,18 @@ const OP = "operatingPoint";
 const REQ = "requirement (the caller)";
 const STAGE = "stage description";
 const REVIEW = "the caller today; a design-review analysis later";
+const BRIDGE_ELEMENTS: readonly StageKind[] = ["pn-diode", "schottky-diode", "nfet-ideal-diode"];
+const RATED: readonly StageKind[] = [...DIODES, ...FETS];
 
 export const METRICS: readonly MetricDef[] = [
-  { name: "tjWorstC", type: "number", unit: "°C", meaning: "junction temperature of the die carrying the load current at the worst corner (self-consistent electrothermal point)", stageKinds: "all", providedBy: OP },
+  { name: "tjWorstC", type: "number", unit: "°C", meaning: "junction temperature of the die carrying the load current at the worst condition the analysis covers (self-consistent electrothermal point)", stageKinds: "all", providedBy: "operatingPoint, review (worst corner); oring (each branch); batteryCharge (peak over the charge); bridgeDc (each element, hotter polarity), bridgeAc (each element)" },
   { name: "lossWorstW", type: "number", unit: "W", meaning: "heat dissipated in that die at the worst corner", stageKinds: "all", providedBy: OP },
   { name: "dropWorstV", type: "number", unit: "V", meaning: "forward drop across the stage at the worst corner", stageKinds: "all", providedBy: OP },
-  { name: "loadVMinV", type: "number", unit: "V", meaning: "lowest voltage the load sees (lowest supply, highest current)", stageKinds: "all", providedBy: OP },
-  { name: "loadMinV", type: "number", unit: "V", meaning: "the load's minimum operating voltage", stageKinds: "all", providedBy: REQ },
+  { name: "loadVMinV", type: "number", unit: "V", meaning: "lowest voltage the load sees (lowest supply, highest current)", stageKinds: "all", providedBy: "operatingPoint, review; oring (node voltage); bridgeDc (lower of the two polarities); bridgeAc (ripple trough)" },
+  { name: "loadMinV", type: "number", unit: "V", meaning: "the load's minimum operating voltage", stageKinds: "all", providedBy: `${REQ}; a constant-power load's minVoltageV` },
   { name: "supplyMinV", type: "number", unit: "V", meaning: "lowest input voltage of the supply class, including cold crank or end of discharge", stageKinds: "all", providedBy: REQ },
   { name: "supplyMaxV", type: "number", unit: "V", meaning: "highest steady input voltage (jump start, charger float)", stageKinds: "all", providedBy: REQ },
-  { name: "reverseVMaxV", type: "number", unit: "V", meaning: "magnitude of the worst steady reverse input voltage (reversed supply)", stageKinds: "all", providedBy: REQ },
+  { name: "reverseVMaxV", type: "number", unit: "V", meaning: "magnitude of the worst steady reverse voltage the blocking element sees: the reversed supply, or a bridge element's own reverse voltage (DC: across the blocking pair; AC: its peak repetitive value)", stageKinds: "all", providedBy: `${REQ}; bridgeDc, bridgeAc (each element)` },
   { name: "reverseTransientVMaxV", type: "number", unit: "V", meaning: "magnitude of the worst negative transient peak the blocking element sees, after any clamp", stageKinds: "all", providedBy: REVIEW },
   { name: "transientVMaxV", type: "number", unit: "V", meaning: "worst positive transient peak at the stage input, after any clamp (load dump, surge)", stageKinds: "all", providedBy: REVIEW },
   { name: "gateSourceVMaxV", type: "number", unit: "V", meaning: "magnitude of the highest gate-source voltage over the steady and transient input range", stageKinds: ["pfet-high-side", "nfet-low-side"], providedBy: REVIEW },
@@ -54,8 +56,19 @@ export const METRICS: readonly MetricDef[] = [
   { name: "lossBudgetW", type: "number", unit: "W", meaning: "the product's budget for the input stage's loss at the worst corner", stageKinds: "all", providedBy: REQ },
   { name: "standbyBudgetA", type: "number", unit: "A", meaning: "the product's standby current budget allotted to the input stage", stageKinds: "all", providedBy: REQ },
   { name: "blocksReverseCurrent", type: "boolean", unit: "-", meaning: "the stage turns off when the output rises above the input", stageKinds: "all", providedBy: STAGE },
-  { name: "parallelSources", type: "boolean", unit: "-", meaning: "the input is paralleled with another source (ORing, redundant feeds, a second battery)", stageKinds: "all", providedBy: REQ },
-  { name: "holdUpRequired", type: "boolean", unit: "-", meaning: "the load must ride through an input dropout on its own capacitance", stageKinds: "all", providedBy: REQ },
+  { name: "parallelSources", type: "boolean", unit: "-", meaning: "the input is paralleled with another source (ORing, redundant feeds, a second battery)", stageKinds: "all", providedBy: `${REQ}; oring (true with two sources or more)` },
+  { name: "holdUpRequired", type: "boolean", unit: "-", meaning: "the load must ride through an input dropout on its own capacitance", stageKinds: "all", providedBy: `${REQ}; holdUp (true when requiredHoldUpS is given)` },
+  { name: "peakReverseCurrentA", type: "number", unit: "A", meaning: "peak current flowing backwards through the stage when the input is shorted or steps lower (magnitude)", stageKinds: "all", providedBy: "turnOff" },
+  { name: "absorbedEnergyJ", type: "number", unit: "J", meaning: "energy the blocking element absorbs clamping the loop inductance after it turns off (Vclamp·∫|i|dt); 0 when the current is back at zero by then or the stage never turns off", stageKinds: "all", providedBy: "turnOff" },
+  { name: "eventTjC", type: "number", unit: "°C", meaning: "junction temperature of the stage when the event starts (the avalanche rating is derated from it)", stageKinds: "all", providedBy: "turnOff (its tjC)" },
+  { name: "holdUpS", type: "number", unit: "s", meaning: "time the output stays above the load's minimum after the input is lost, including the turn-off event", stageKinds: "all", providedBy: "holdUp (each stage)" },
+  { name: "holdUpRequiredS", type: "number", unit: "s", meaning: "hold-up time the product must achieve", stageKinds: "all", providedBy: `${REQ}; holdUp's requiredHoldUpS` },
+  { name: "reverseCurrentA", type: "number", unit: "A", meaning: "steady current flowing backwards through the stage into its source (a blocking stage's leakage included)", stageKinds: "all", providedBy: "oring (each branch)" },
+  { name: "reverseCurrentBudgetA", type: "number", unit: "A", meaning: "largest steady reverse current a source may take (a battery's self-discharge allowance, a supply that cannot sink)", stageKinds: "all", providedBy: REQ },
+  { name: "targetCanDrainSource", type: "boolean", unit: "-", meaning: "in battery-to-battery charging, the stage lets the target battery discharge into a source that has fallen below it", stageKinds: "all", providedBy: "batteryCharge (each stage)" },
+  { name: "peakRepetitiveCurrentA", type: "number", unit: "A", meaning: "peak forward current of a bridge element in each period (the reservoir capacitor's charging pulse)", stageKinds: BRIDGE_ELEMENTS, providedBy: "bridgeAc (each element)" },
+  { name: "capacitorRippleCurrentA", type: "number", unit: "A", meaning: "RMS ripple current in the reservoir capacitor", stageKinds: "all", providedBy: "bridgeAc" },
+  { name: "capacitorRippleRatingA", type: "number", unit: "A", meaning: "the reservoir capacitor's rated RMS ripple current", stageKinds: "all", providedBy: "the caller (bridgeAc's capacitorRippleRatingA)" },
 ];
 
 /** Part parameters, read in expressions as `part.<name>`. */
@@ -66,6 +79,8 @@ export const PART_PARAMETERS: readonly MetricDef[] = [
   { name: "vgsMaxV", type: "number", unit: "V", meaning: "MOSFET gate-source voltage rating (magnitude)", stageKinds: FETS, providedBy: STAGE },
   { name: "vgsOnV", type: "number", unit: "V", meaning: "gate-source voltage of the highest datasheet Rds(on) point: the drive needed to reach the rated on-resistance", stageKinds: FETS, providedBy: STAGE },
   { name: "maxInputV", type: "number", unit: "V", meaning: "highest input voltage the controller or integrated switch is rated for", stageKinds: CONTROLLED, providedBy: STAGE },
+  { name: "avalancheEnergyJ", type: "number", unit: "J", meaning: "single-pulse avalanche energy rating (EAS) of the blocking element, at 25 °C starting junction temperature", stageKinds: RATED, providedBy: `${STAGE} (diode or mosfet avalancheEnergyJ); turnOff's avalancheRatingJ overrides` },
+  { name: "ifrmA", type: "number", unit: "A", meaning: "repetitive peak forward current rating: a diode's IFRM, a MOSFET's repetitive pulsed drain current", stageKinds: RATED, providedBy: `${STAGE} (diode or mosfet peakRepetitiveCurrentA)` },
 ];
 
 const METRIC_INDEX = new Map(METRICS.map((m) => [m.name, m] as const));

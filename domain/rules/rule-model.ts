@@ -68,6 +68,12 @@ export interface Verdict {
   readonly reason: string | null;
   readonly notApplicableCode: NotApplicableCode | null;
   readonly ruleSet: RuleSetStamp;
+  /**
+   * When the rule was evaluated on each of several elements (bridge positions, ORing branches):
+   * the element whose verdict this is, the worst of them (element-verdicts.ts). Absent for a
+   * single stage, or when every element gave the same verdict on the same values.
+   */
+  readonly element?: string;
 }
 
 export interface RuleSetResult {

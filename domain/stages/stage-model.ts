@@ -17,6 +17,10 @@ export interface DiodeStage {
   readonly reverseRatingV: number;
   readonly tjMaxC: number;
   readonly thermal: ThermalPath;
+  /** Single-pulse avalanche energy rating at 25 °C starting Tj, J; absent: not rated. */
+  readonly avalancheEnergyJ?: number;
+  /** Repetitive peak forward current rating IFRM, A; absent: not given. */
+  readonly peakRepetitiveCurrentA?: number;
 }
 
 export interface MosfetModel {
@@ -25,6 +29,10 @@ export interface MosfetModel {
   readonly vdsMaxV: number;
   readonly vgsMaxV: number;
   readonly tjMaxC: number;
+  /** Single-pulse avalanche energy rating EAS at 25 °C starting Tj, J; absent: not rated. */
+  readonly avalancheEnergyJ?: number;
+  /** Repetitive peak drain current rating, A; absent: not given. */
+  readonly peakRepetitiveCurrentA?: number;
 }
 
 /** P-channel MOSFET in the supply line, gate pulled to ground: |Vgs| = min(Vout, clamp). */

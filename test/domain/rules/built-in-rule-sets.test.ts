@@ -18,10 +18,15 @@ interface Case {
 interface RuleCases {
   readonly pass: Case;
   readonly violate: Case & { readonly outcome: VerdictOutcome };
+  /** For a rule with its own precondition: a case where it is false. */
+  readonly off?: Case;
 }
 
 const p = (kind: string, metrics: Vals, part: Vals, threshold?: number, margin?: number): Case => ({ kind, metrics, part, ...(threshold === undefined ? {} : { threshold }), ...(margin === undefined ? {} : { margin }) });
 const v = (outcome: VerdictOutcome, c: Case) => ({ ...c, outcome });
+
+const AVALANCHE_PART = { avalancheEnergyJ: 0.1, tjMaxC: 175 };
+const NO_ENERGY = p("pn-diode", { absorbedEnergyJ: 0, eventTjC: 85 }, AVALANCHE_PART);
 
 const DEFAULT: Record<string, RuleCases> = {
   "tj-limit": { pass: p("schottky-diode", { tjWorstC: 140 }, { tjMaxC: 150 }, 150, 10), violate: v("fail", p("schottky-diode", { tjWorstC: 151 }, { tjMaxC: 150 }, 150, -1)) },
@@ -47,6 +52,29 @@ const DEFAULT: Record<string, RuleCases> = {
   },
   "standby-quiescent": { pass: p("integrated-switch", { quiescentA: 50e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, 50e-6), violate: v("fail", p("integrated-switch", { quiescentA: 150e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, -50e-6)) },
   "loss-budget": { pass: p("schottky-diode", { lossWorstW: 0.75, lossBudgetW: 1 }, {}, 1, 0.25), violate: v("fail", p("schottky-diode", { lossWorstW: 1.5, lossBudgetW: 1 }, {}, 1, -0.5)) },
+  // Avalanche: EAS 100 mJ at 25 °C, Tj(max) 175 °C, event at 85 °C → derated 0.1·(175 − 85)/(175 − 25) = 0.06 J.
+  "avalanche-energy": {
+    pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.05, eventTjC: 85 }, AVALANCHE_PART, 0.06, 0.01),
+    violate: v("fail", p("nfet-ideal-diode", { absorbedEnergyJ: 0.07, eventTjC: 85 }, AVALANCHE_PART, 0.06, -0.01)),
+    off: NO_ENERGY,
+  },
+  // 0.8 · 0.06 = 0.048 J.
+  "avalanche-energy-margin": {
+    pass: p("schottky-diode", { absorbedEnergyJ: 0.04, eventTjC: 85 }, AVALANCHE_PART, 0.048, 0.008),
+    violate: v("warn", p("schottky-diode", { absorbedEnergyJ: 0.05, eventTjC: 85 }, AVALANCHE_PART, 0.048, -0.002)),
+    off: NO_ENERGY,
+  },
+  "hold-up-time": { pass: p("schottky-diode", { holdUpS: 0.003, holdUpRequiredS: 0.002 }, {}, 0.002, 0.001), violate: v("fail", p("pfet-high-side", { holdUpS: 0.0015, holdUpRequiredS: 0.002 }, {}, 0.002, -0.0005)) },
+  // 1.25 · 2 ms = 2.5 ms.
+  "hold-up-margin": { pass: p("nfet-ideal-diode", { holdUpS: 0.003, holdUpRequiredS: 0.002 }, {}, 0.0025, 0.0005), violate: v("warn", p("nfet-ideal-diode", { holdUpS: 0.0022, holdUpRequiredS: 0.002 }, {}, 0.0025, -0.0003)) },
+  "reverse-current-budget": {
+    pass: p("schottky-diode", { reverseCurrentA: 1e-3, reverseCurrentBudgetA: 5e-3 }, {}, 5e-3, 4e-3),
+    violate: v("fail", p("schottky-diode", { reverseCurrentA: 8e-3, reverseCurrentBudgetA: 5e-3 }, {}, 5e-3, -3e-3)),
+  },
+  "battery-back-drain": { pass: p("nfet-ideal-diode", { targetCanDrainSource: false }, {}), violate: v("fail", p("pfet-high-side", { targetCanDrainSource: true }, {})) },
+  "element-peak-current": { pass: p("pn-diode", { peakRepetitiveCurrentA: 8 }, { ifrmA: 10 }, 10, 2), violate: v("fail", p("pn-diode", { peakRepetitiveCurrentA: 12 }, { ifrmA: 10 }, 10, -2)) },
+  "element-peak-current-derated": { pass: p("nfet-ideal-diode", { peakRepetitiveCurrentA: 7 }, { ifrmA: 10 }, 8, 1), violate: v("warn", p("nfet-ideal-diode", { peakRepetitiveCurrentA: 9 }, { ifrmA: 10 }, 8, -1)) },
+  "capacitor-ripple": { pass: p("pn-diode", { capacitorRippleCurrentA: 2, capacitorRippleRatingA: 2.5 }, {}, 2.5, 0.5), violate: v("fail", p("pn-diode", { capacitorRippleCurrentA: 3, capacitorRippleRatingA: 2.5 }, {}, 2.5, -0.5)) },
 };
 
 const VEHICLE: Record<string, RuleCases> = {
@@ -66,6 +94,24 @@ const VEHICLE: Record<string, RuleCases> = {
   "controller-input-derated": { pass: p("integrated-switch", { supplyMaxV: 16 }, { maxInputV: 60 }, 42, 26), violate: v("warn", p("integrated-switch", { supplyMaxV: 45 }, { maxInputV: 60 }, 42, -3)) },
   "start-margin": { pass: p("nfet-ideal-diode", { startVoltageV: 2.5, supplyMinV: 6 }, {}, 5.4, 2.9), violate: v("warn", p("nfet-ideal-diode", { startVoltageV: 5.7, supplyMinV: 6 }, {}, 5.4, -0.3)) },
   "gate-drive-at-min-supply": { pass: p("nfet-low-side", { gateDriveMinV: 6 }, { vgsOnV: 4.5 }, 4.5, 1.5), violate: v("fail", p("nfet-low-side", { gateDriveMinV: 3.5 }, { vgsOnV: 4.5 }, 4.5, -1)) },
+  // 0.8 · 0.06 J = 0.048 J; 0.6 · 0.06 J = 0.036 J.
+  "avalanche-energy": {
+    pass: p("pfet-high-side", { absorbedEnergyJ: 0.04, eventTjC: 85 }, AVALANCHE_PART, 0.048, 0.008),
+    violate: v("fail", p("pfet-high-side", { absorbedEnergyJ: 0.05, eventTjC: 85 }, AVALANCHE_PART, 0.048, -0.002)),
+    off: NO_ENERGY,
+  },
+  "avalanche-energy-margin": {
+    pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.03, eventTjC: 85 }, AVALANCHE_PART, 0.036, 0.006),
+    violate: v("warn", p("nfet-ideal-diode", { absorbedEnergyJ: 0.04, eventTjC: 85 }, AVALANCHE_PART, 0.036, -0.004)),
+    off: NO_ENERGY,
+  },
+  // 1.25 · 2 ms = 2.5 ms (fail); 1.5 · 2 ms = 3 ms (warn).
+  "hold-up-time": { pass: p("schottky-diode", { holdUpS: 0.003, holdUpRequiredS: 0.002 }, {}, 0.0025, 0.0005), violate: v("fail", p("schottky-diode", { holdUpS: 0.0022, holdUpRequiredS: 0.002 }, {}, 0.0025, -0.0003)) },
+  "hold-up-margin": { pass: p("schottky-diode", { holdUpS: 0.0035, holdUpRequiredS: 0.002 }, {}, 0.003, 0.0005), violate: v("warn", p("schottky-diode", { holdUpS: 0.0028, holdUpRequiredS: 0.002 }, {}, 0.003, -0.0002)) },
+  // 0.9 · 10 A = 9 A (fail); 0.7 · 10 A = 7 A (warn); ripple 0.8 · 2.5 A = 2 A.
+  "element-peak-current": { pass: p("pn-diode", { peakRepetitiveCurrentA: 8 }, { ifrmA: 10 }, 9, 1), violate: v("fail", p("pn-diode", { peakRepetitiveCurrentA: 9.5 }, { ifrmA: 10 }, 9, -0.5)) },
+  "element-peak-current-derated": { pass: p("schottky-diode", { peakRepetitiveCurrentA: 6 }, { ifrmA: 10 }, 7, 1), violate: v("warn", p("schottky-diode", { peakRepetitiveCurrentA: 7.5 }, { ifrmA: 10 }, 7, -0.5)) },
+  "capacitor-ripple": { pass: p("pn-diode", { capacitorRippleCurrentA: 1.8, capacitorRippleRatingA: 2.5 }, {}, 2, 0.2), violate: v("fail", p("pn-diode", { capacitorRippleCurrentA: 2.2, capacitorRippleRatingA: 2.5 }, {}, 2, -0.2)) },
 };
 
 const CONSUMER: Record<string, RuleCases> = {
@@ -77,6 +123,14 @@ const CONSUMER: Record<string, RuleCases> = {
   "fet-vgs-derated": { pass: p("pfet-high-side", { gateSourceVMaxV: 17 }, { vgsMaxV: 20 }, 18, 1), violate: v("warn", p("pfet-high-side", { gateSourceVMaxV: 19 }, { vgsMaxV: 20 }, 18, -1)) },
   "controller-input-derated": { pass: p("integrated-switch", { supplyMaxV: 16 }, { maxInputV: 60 }, 54, 38), violate: v("warn", p("integrated-switch", { supplyMaxV: 56 }, { maxInputV: 60 }, 54, -2)) },
   "standby-quiescent": { pass: p("nfet-ideal-diode", { quiescentA: 50e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, 50e-6), violate: v("warn", p("nfet-ideal-diode", { quiescentA: 150e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, -50e-6)) },
+  // 0.9 · 0.06 J = 0.054 J; 1.1 · 2 ms = 2.2 ms; 0.9 · 10 A = 9 A.
+  "avalanche-energy-margin": {
+    pass: p("nfet-low-side", { absorbedEnergyJ: 0.05, eventTjC: 85 }, AVALANCHE_PART, 0.054, 0.004),
+    violate: v("warn", p("nfet-low-side", { absorbedEnergyJ: 0.058, eventTjC: 85 }, AVALANCHE_PART, 0.054, -0.004)),
+    off: NO_ENERGY,
+  },
+  "hold-up-margin": { pass: p("pn-diode", { holdUpS: 0.0025, holdUpRequiredS: 0.002 }, {}, 0.0022, 0.0003), violate: v("warn", p("pn-diode", { holdUpS: 0.0021, holdUpRequiredS: 0.002 }, {}, 0.0022, -0.0001)) },
+  "element-peak-current-derated": { pass: p("pn-diode", { peakRepetitiveCurrentA: 8 }, { ifrmA: 10 }, 9, 1), violate: v("warn", p("pn-diode", { peakRepetitiveCurrentA: 9.5 }, { ifrmA: 10 }, 9, -0.5)) },
 };
 
 const TABLES: Record<string, Record<string, RuleCases>> = { default: DEFAULT, vehicle: VEHICLE, consumer: CONSUMER };
@@ -131,7 +185,7 @@ describe.each(sets.map((s) => [s.stamp.id, s] as const))("built-in rule set %s",
         expect(out.outcome).toBe("not-applicable");
         expect(out.reason).toContain(`not ${other}`);
       } else if (r.when !== undefined) {
-        const out = run(set, ruleId, p("pn-diode", { parallelSources: false, holdUpRequired: false, blocksReverseCurrent: false }, {}));
+        const out = run(set, ruleId, cases?.off ?? p("pn-diode", { parallelSources: false, holdUpRequired: false, blocksReverseCurrent: false }, {}));
         expect(out.outcome).toBe("not-applicable");
         expect(out.reason).toContain("is false");
       } else {
