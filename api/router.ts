@@ -6,6 +6,7 @@ import { operatingPoint } from "./procedures/operating-point.js";
 import { oring } from "./procedures/oring.js";
 import { review } from "./procedures/review.js";
 import { rules } from "./procedures/rules.js";
+import { sizing } from "./procedures/sizing.js";
 import { turnOff } from "./procedures/turn-off.js";
 import { router } from "./trpc.js";
 
@@ -20,6 +21,7 @@ export const appRouter = router({
   batteryCharge,
   bridgeDc,
   bridgeAc,
+  sizing,
 });
 
 /** Clients import only this type (`import type { AppRouter } from "backstop/api/router"`). */

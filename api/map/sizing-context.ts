@@ -1,0 +1,100 @@
+import type { Requirement } from "../../contracts/requirement.js";
+import type { StageSpec } from "../../contracts/stage.js";
+import type { TransientThermal } from "../../domain/checks/start-up.js";
+import { totalRthKPerW } from "../../domain/physics/thermal-path.js";
+import { reviewCandidate } from "../../domain/review/candidate-review.js";
+import type { CompiledRuleSet } from "../../domain/rules/compile-rule-set.js";
+import type { SizingContext, TurnOffSizing } from "../../domain/sizing/assessment.js";
+import { type StageScale, UNSCALED } from "../../domain/stages/scale-stage.js";
+import type { StageModel } from "../../domain/stages/stage-model.js";
+import type { MappedRequirement } from "./requirement.js";
+import { reviewRuleInput } from "./review-metrics.js";
+
+type TransientThermalInput =
+  | { kind: "foster"; terms: { rKPerW: number; tauS: number }[] }
+  | { kind: "single-pole"; heatCapacityJPerK: number }
+  | undefined;
+
+/** The candidate's transient thermal model, as the review forms it. */
+export function transientThermalOf(t: TransientThermalInput, stage: StageModel): TransientThermal {
+  if (t === undefined) return { kind: "quasi-static" };
+  if (t.kind === "foster") return { kind: "foster", terms: t.terms };
+  const rth = totalRthKPerW(stage.thermal);
+  return { kind: "foster", terms: [{ rKPerW: rth, tauS: rth * t.heatCapacityJPerK }] };
+}
+
+export interface TurnOffRequest {
+  loop: { resistanceOhm: number; inductanceH: number };
+  capacitor: { capacitanceF: number; esrOhm: number };
+  outputV?: number | undefined;
+  inputAfterV?: number | undefined;
+  tjC?: number | undefined;
+  reverseThresholdV?: number | undefined;
+  gateChargeC?: number | undefined;
+  gateSinkCurrentA?: number | undefined;
+  clampV?: number | undefined;
+  peakReverseCurrentMaxA?: number | undefined;
+  absorbedEnergyMaxJ?: number | undefined;
+}
+
+/**
+ * The sizing context of one template: the review of any trial part exactly as the review
+ * procedure forms it (reviewCandidate + reviewRuleInput, mission energy left out: no rule reads
+ * it), the rule set, and the turn-off event with the template's trip threshold.
+ */
+export function sizingContext(
+  r: Requirement,
+  req: MappedRequirement,
+  set: CompiledRuleSet,
+  stage: { spec: StageSpec; model: StageModel },
+  cand: { transientThermal?: TransientThermalInput; datasheetMax?: { rdsOnFactor: number; forwardVoltageFactor: number } | undefined },
+  turnOff: TurnOffRequest | undefined,
+): SizingContext {
+  const flags = {
+    parallelSources: r.parallelSources ?? false,
+    holdUpRequired: r.holdUpRequired ?? false,
+    ...(r.standbyBudgetA === undefined ? {} : { standbyBudgetA: r.standbyBudgetA }),
+    ...(r.lossBudgetW === undefined ? {} : { lossBudgetW: r.lossBudgetW }),
+  };
+  const { mission: _mission, ...searchReq } = req.model;
+  const transientThermal = transientThermalOf(cand.transientThermal, stage.model);
+  const datasheetMax: StageScale | undefined = cand.datasheetMax ? { ...UNSCALED, ...cand.datasheetMax } : undefined;
+  const assess = (s: StageModel) => {
+    const review = reviewCandidate(searchReq, { stage: s, transientThermal, ...(datasheetMax ? { datasheetMax } : {}) });
+    return { review, input: reviewRuleInput(s, req.model, flags, review) };
+  };
+  const t = turnOff === undefined ? undefined : turnOffSizing(r, req, stage.spec, turnOff);
+  return {
+    requirement: req.model,
+    ruleSet: set,
+    assess,
+    ...(r.lossBudgetW === undefined ? {} : { lossBudgetW: r.lossBudgetW }),
+    ...(t === undefined ? {} : typeof t === "string" ? { turnOffUnavailable: t } : { turnOff: t }),
+  };
+}
+
+function turnOffSizing(r: Requirement, req: MappedRequirement, spec: StageSpec, t: TurnOffRequest): TurnOffSizing | string {
+  const own = spec.kind === "nfet-ideal-diode" ? spec.controller : undefined;
+  const threshold = t.reverseThresholdV ?? own?.reverseThresholdV;
+  if (threshold === undefined) return "the part states no reverse trip threshold: give turnOff.reverseThresholdV";
+  return {
+    loopResistanceOhm: t.loop.resistanceOhm,
+    loopInductanceH: t.loop.inductanceH,
+    capacitanceF: t.capacitor.capacitanceF,
+    esrOhm: t.capacitor.esrOhm,
+    outputV: t.outputV ?? req.model.supplyNominalV,
+    inputAfterV: t.inputAfterV ?? 0,
+    loadMinV: req.model.loadMinV ?? 0,
+    tjC: t.tjC ?? r.ambient.maxC,
+    timing: {
+      reverseThresholdV: threshold,
+      turnOffDelayS: own?.turnOffDelayS ?? 0,
+      ...(t.gateChargeC === undefined ? {} : { gateChargeC: t.gateChargeC }),
+      ...(t.gateSinkCurrentA === undefined ? {} : { gateSinkCurrentA: t.gateSinkCurrentA }),
+    },
+    ...(own?.turnOffDelayS === undefined ? {} : { templateDelayS: own.turnOffDelayS }),
+    ...(t.clampV === undefined ? {} : { clampV: t.clampV }),
+    ...(t.peakReverseCurrentMaxA === undefined ? {} : { peakReverseCurrentMaxA: t.peakReverseCurrentMaxA }),
+    ...(t.absorbedEnergyMaxJ === undefined ? {} : { absorbedEnergyMaxJ: t.absorbedEnergyMaxJ }),
+  };
+}
