@@ -1,3 +1,4 @@
+import { blocksReverseCurrent } from "../../domain/checks/stage-ratings.js";
 import type { RuleInput } from "../../domain/rules/rule-model.js";
 import type { OperatingPointOutcome } from "../../domain/solve/electrothermal-point.js";
 import type { LoadModel } from "../../domain/solve/load-model.js";
@@ -31,26 +32,19 @@ export function operatingPointRuleInput(stage: StageModel, load: LoadModel, o: O
   } else {
     for (const n of OPERATING_POINT_METRICS) unavailable[n] = `no operating point (${o.outcome}: ${o.reason})`;
   }
-  if (stage.kind === "integrated-switch" && !Object.hasOwn(metrics, "blocksReverseCurrent")) {
-    unavailable["blocksReverseCurrent"] = "the integrated-switch model does not say whether it blocks reverse current; give it in ruleMetrics";
-  }
   return { stageKind: stage.kind, metrics, part: partParameters(stage), unavailable, notRequired: otherAnalysesMetrics(metrics, "operatingPoint") };
 }
 
 export function stageMetrics(stage: StageModel): Record<string, number | boolean> {
-  const m: Record<string, number | boolean> = { quiescentA: stageQuiescentA(stage) };
+  // Whether the stage turns off on reverse current comes from one place (stage-ratings.ts).
+  const m: Record<string, number | boolean> = { quiescentA: stageQuiescentA(stage), blocksReverseCurrent: blocksReverseCurrent(stage) };
   switch (stage.kind) {
-    case "pn-diode":
-    case "schottky-diode":
-      return { ...m, blocksReverseCurrent: true };
-    case "pfet-high-side":
-    case "nfet-low-side":
-      // Both conduct backwards once on: neither turns off when the output rises above the input.
-      return { ...m, blocksReverseCurrent: false };
     case "nfet-ideal-diode":
-      return { ...m, blocksReverseCurrent: true, startVoltageV: stage.controller.startV };
+      return { ...m, startVoltageV: stage.controller.startV };
     case "integrated-switch":
       return { ...m, startVoltageV: stage.startV };
+    default:
+      return m;
   }
 }
 

@@ -1,7 +1,5 @@
 import type { Requirement } from "../../contracts/requirement.js";
 import type { StageSpec } from "../../contracts/stage.js";
-import type { TransientThermal } from "../../domain/checks/start-up.js";
-import { totalRthKPerW } from "../../domain/physics/thermal-path.js";
 import { reviewCandidate } from "../../domain/review/candidate-review.js";
 import type { CompiledRuleSet } from "../../domain/rules/compile-rule-set.js";
 import type { SizingContext, TurnOffSizing } from "../../domain/sizing/assessment.js";
@@ -9,19 +7,7 @@ import { type StageScale, UNSCALED } from "../../domain/stages/scale-stage.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
 import type { MappedRequirement } from "./requirement.js";
 import { reviewRuleInput } from "./review-metrics.js";
-
-type TransientThermalInput =
-  | { kind: "foster"; terms: { rKPerW: number; tauS: number }[] }
-  | { kind: "single-pole"; heatCapacityJPerK: number }
-  | undefined;
-
-/** The candidate's transient thermal model, as the review forms it. */
-export function transientThermalOf(t: TransientThermalInput, stage: StageModel): TransientThermal {
-  if (t === undefined) return { kind: "quasi-static" };
-  if (t.kind === "foster") return { kind: "foster", terms: t.terms };
-  const rth = totalRthKPerW(stage.thermal);
-  return { kind: "foster", terms: [{ rKPerW: rth, tauS: rth * t.heatCapacityJPerK }] };
-}
+import { type TransientThermalInput, transientThermalOf } from "./transient-thermal.js";
 
 export interface TurnOffRequest {
   loop: { resistanceOhm: number; inductanceH: number };

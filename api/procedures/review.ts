@@ -1,8 +1,6 @@
 import type { ReviewOutput } from "../../contracts/review.js";
 import { reviewInput } from "../../contracts/review.js";
 import type { CornerResult } from "../../domain/checks/corners.js";
-import type { TransientThermal } from "../../domain/checks/start-up.js";
-import { totalRthKPerW } from "../../domain/physics/thermal-path.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { type CandidateReview, reviewCandidate } from "../../domain/review/candidate-review.js";
 import { type CandidateVerdict, rankCandidates } from "../../domain/review/ranking.js";
@@ -13,6 +11,7 @@ import { resolveStage } from "../map/resolve-stage.js";
 import { toReviewRequirement } from "../map/requirement.js";
 import { reviewRuleInput } from "../map/review-metrics.js";
 import { reviewMonteCarlo } from "../map/review-monte-carlo.js";
+import { transientThermalOf } from "../map/transient-thermal.js";
 import { resolveRuleSet } from "../map/rule-set.js";
 import { publicProcedure } from "../trpc.js";
 
@@ -31,11 +30,7 @@ export const review = publicProcedure.input(reviewInput).query(({ input, ctx }):
   const evaluated = input.candidates.map((c, index) => {
     const path = ["candidates", index, "stage"];
     const stage = resolveStage(c.stage, ctx.catalog, path, assumptions, c.thermal);
-    const transientThermal: TransientThermal = c.transientThermal
-      ? c.transientThermal.kind === "foster"
-        ? { kind: "foster", terms: c.transientThermal.terms }
-        : { kind: "foster", terms: [{ rKPerW: totalRthKPerW(stage.model.thermal), tauS: totalRthKPerW(stage.model.thermal) * c.transientThermal.heatCapacityJPerK }] }
-      : { kind: "quasi-static" };
+    const transientThermal = transientThermalOf(c.transientThermal, stage.model);
     const datasheetMax = c.datasheetMax ? { ...UNSCALED, ...c.datasheetMax } : undefined;
     const r = reviewCandidate(req.model, { stage: stage.model, transientThermal, ...(datasheetMax ? { datasheetMax } : {}) });
     const ruleInput = reviewRuleInput(stage.model, req.model, flags, r);
