@@ -55,19 +55,18 @@ describe("report in headless Chromium", () => {
       page.on("pageerror", (e) => problems.push(`pageerror: ${e.message}`));
       page.on("requestfailed", (r) => problems.push(`request failed: ${r.url()}`));
       await page.goto(pathToFileURL(htmlFile).href, { waitUntil: "load" });
-      const layout = await page.evaluate(() => {
-        const svgs = Array.from(document.querySelectorAll("svg.bs-chart"));
-        const failing = document.querySelector('section.candidate[data-verdict="fail"]');
-        const firstRow = failing?.querySelector("table.verdicts tbody tr");
-        return {
-          charts: svgs.length,
-          laidOut: svgs.filter((s) => s.getBoundingClientRect().width >= 600 && s.getBoundingClientRect().height >= 300).length,
-          failingFirstRule: firstRow?.getAttribute("data-rule") ?? null,
-          failingFirstOutcome: firstRow?.getAttribute("data-outcome") ?? null,
-          failingFirstValues: firstRow?.querySelectorAll("td")[2]?.textContent ?? null,
-          failingId: failing?.id ?? null,
-        };
-      });
+      const charts = page.locator("svg.bs-chart");
+      const boxes = await Promise.all((await charts.all()).map((c) => c.boundingBox()));
+      const failingSection = page.locator('section.candidate[data-verdict="fail"]').first();
+      const firstRow = failingSection.locator("table.verdicts tbody tr").first();
+      const layout = {
+        charts: await charts.count(),
+        laidOut: boxes.filter((b) => b !== null && b.width >= 600 && b.height >= 300).length,
+        failingFirstRule: await firstRow.getAttribute("data-rule"),
+        failingFirstOutcome: await firstRow.getAttribute("data-outcome"),
+        failingFirstValues: await firstRow.locator("td").nth(2).textContent(),
+        failingId: await failingSection.getAttribute("id"),
+      };
       const shot = await page.screenshot({ fullPage: false });
       writeFileSync(join(tmpdir(), "backstop-report-screenshot.png"), shot);
       expect(problems).toEqual([]);
