@@ -20,8 +20,8 @@ export type Block =
 
 const WORST = "◆";
 
-/** Markdown (GitHub-flavoured tables); charts as image links to the SVG files under `svgDir`. */
-export function toMarkdown(blocks: readonly Block[], svgDir: string): string {
+/** Markdown (GitHub-flavoured tables); charts as image links to the SVG files under `svgDir` (null: named only). */
+export function toMarkdown(blocks: readonly Block[], svgDir: string | null): string {
   const out: string[] = [];
   for (const b of blocks) {
     switch (b.kind) {
@@ -42,7 +42,8 @@ export function toMarkdown(blocks: readonly Block[], svgDir: string): string {
         break;
       }
       case "charts":
-        for (const c of b.charts) out.push(`![${mdCell(c.title)}](${svgDir === "" ? "" : `${svgDir}/`}${c.file})`, "");
+        if (svgDir === null) out.push(...b.charts.map((c) => `- ${c.title} (${c.spec.subtitle ?? ""}): in the HTML report`), "");
+        else for (const c of b.charts) out.push(`![${mdCell(c.title)}](${svgDir === "" ? "" : `${svgDir}/`}${c.file})`, "");
         break;
       case "section-start":
       case "section-end":

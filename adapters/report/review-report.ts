@@ -8,15 +8,15 @@ import { marginText, orderedVerdicts, outcomeLabel, valuesText } from "./verdict
 export interface ReportOptions {
   /** The request id, shown in the title and used to name the SVG files. */
   readonly id?: string | number;
-  /** Folder the Markdown links the SVGs under (relative to the .md file); default `<id>-charts`. */
-  readonly svgDir?: string;
+  /** Folder the Markdown links the SVGs under (relative to the .md file); default `<id>-charts`; null: no links (no files go with it). */
+  readonly svgDir?: string | null;
 }
 
 export interface ReviewReport {
   readonly markdown: string;
   readonly html: string;
   readonly svgs: readonly { readonly file: string; readonly svg: string }[];
-  readonly svgDir: string;
+  readonly svgDir: string | null;
 }
 
 const tone = (verdict: string) => (verdict === "fail" ? "verdict-fail" : verdict === "warn" ? "verdict-warn" : verdict === "pass" ? "verdict-pass" : "verdict-other");
@@ -104,7 +104,7 @@ function reportBlocks(r: Review, charts: readonly ReportChart[], title: string):
  */
 export function renderReviewReport(r: Review, opts: ReportOptions = {}): ReviewReport {
   const name = slug(opts.id === undefined ? "review" : String(opts.id));
-  const svgDir = opts.svgDir ?? `${name}-charts`;
+  const svgDir = opts.svgDir === undefined ? `${name}-charts` : opts.svgDir;
   const charts = r.candidates.flatMap((c) => candidateCharts(c));
   const title = `Design review${opts.id === undefined ? "" : ` ${opts.id}`}`;
   const blocks = reportBlocks(r, charts, title);

@@ -17,7 +17,7 @@ async function review(input: unknown): Promise<ReviewOutput> {
 }
 
 /** Parse as XML; any warning or error of the parser fails the test. */
-export function parseSvg(svg: string) {
+function parseSvg(svg: string) {
   const problems: string[] = [];
   const doc = new DOMParser({ onError: (level, msg) => problems.push(`${level}: ${msg}`) }).parseFromString(svg, "image/svg+xml");
   if (problems.length > 0) throw new Error(`SVG does not parse: ${problems.join("; ")}`);
@@ -199,7 +199,7 @@ describe("design-review report", () => {
     if (typeof lossW !== "number") throw new Error("no loss metric");
     const rows = section.split("\n").filter((l) => l.startsWith("| ") && !l.startsWith("| rule"));
     // The verdict table opens with the failing rules (in rule-set order), each with its values.
-    failing.forEach((v, i) => expect(rows[i]).toMatch(new RegExp(`^\\| ${v.ruleId} \\| \\*\\*FAIL\\*\\* \\|`)));
+    for (const [i, v] of failing.entries()) expect(rows[i]).toMatch(new RegExp(`^\\| ${v.ruleId} \\| \\*\\*FAIL\\*\\* \\|`));
     const lossRow = rows.find((l) => l.startsWith("| loss-budget |"));
     expect(lossRow).toContain(`lossWorstW = ${Number(lossW.toPrecision(4))}`);
     expect(lossRow).toContain("threshold <= 2,");
