@@ -27,7 +27,7 @@ tr.verdict.fail td:first-child { border-left: 5px solid #9b1c1c; }
 tr.verdict.warn td:first-child { border-left: 5px dashed #6b4a12; }
 tr.verdict.not-applicable { color: #5d6066; }
 .charts { display: grid; grid-template-columns: repeat(auto-fill, minmax(640px, 1fr)); gap: 12px; }
-figure { margin: 0; border: 1px solid #d6d1c4; background: #fdfcf8; width: 640px; }
+figure { margin: 0; border: 1px solid #d6d1c4; background: #fdfcf8; width: 640px; justify-self: start; }
 figure svg { display: block; }
 @media print { body { background: #ffffff; } main { max-width: none; } figure { break-inside: avoid; } }
 `;
