@@ -205,4 +205,32 @@ describe("design-review report", () => {
     expect(lossRow).toContain("threshold <= 2,");
     expect(section.indexOf("Failing rule")).toBeLessThan(section.indexOf("| rule |"));
   });
+
+  // A load the source cannot deliver (200 W through 1 Ω from 12 V: the maximum is V²/4R = 36 W,
+  // maximum power transfer) leaves every corner without an operating point: the report still
+  // renders, with the line broken where the sweep has no point instead of invented numbers.
+  it("renders a candidate without any operating point: valid SVG, no invented numbers, the fail first", async () => {
+    const r = await review({
+      requirement: { supply: { class: "custom", minV: 11, nominalV: 12, maxV: 13 }, sourceResistanceOhm: 1, load: { kind: "constant-power", powerW: 200, minVoltageV: 5 }, loadLevels: [1], ambient: { minC: 0, maxC: 40 }, transients: [] },
+      candidates: [{ stage: { kind: "catalog-part", partId: "demo-ideal-diode-60v-3mohm" } }],
+    });
+    const c = r.candidates[0];
+    expect(c?.worst.unsolvedCorners).toHaveLength(c?.corners.length ?? -1);
+    expect(c?.verdict).toBe("fail");
+    const rep = renderReviewReport(r);
+    for (const s of rep.svgs) {
+      parseSvg(s.svg);
+      expect(s.svg).not.toMatch(/NaN|Infinity|undefined/);
+    }
+    const svgOf = (kind: string) => parseSvg(rep.svgs.find((s) => s.file.endsWith(`${kind}.svg`))?.svg ?? "").documentElement as Element;
+    // Ambient swept at full load: no point anywhere, so no line at all.
+    expect(byClass(svgOf("tj-vs-ambient"), "series")[0]?.getElementsByTagName("path")).toHaveLength(0);
+    // Load swept: only the light loads the source can deliver are drawn.
+    const stable = c?.curves.load.filter((p) => p.outcome === "solved" || p.outcome === "over-temperature").length ?? 0;
+    expect(stable).toBeGreaterThan(0);
+    expect(stable).toBeLessThan(c?.curves.load.length ?? 0);
+    expect(pathPoints(byClass(svgOf("tj-vs-current"), "series")[0]?.getElementsByTagName("path")[0]?.getAttribute("d") ?? "")).toHaveLength(stable);
+    expect(rep.markdown).toContain("corners without an operating point: 0, 1, 2, 3, 4, 5");
+    expect(rep.markdown.split("## Rank 1 · candidate 0")[1]?.split("\n").find((l) => l.startsWith("**"))).toMatch(/^\*\*FAIL\. fail: corner 0/);
+  });
 });
