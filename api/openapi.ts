@@ -132,6 +132,25 @@ export function openApiDocument(opts: { maxBulkItems?: number } = {}): Json {
   schemas.Problem = schemaOf(problem, "output", "Problem", schemas);
   const text = (description: string, type = "text/plain") => ({ description, content: { [type]: { schema: { type: "string" } } } });
   const probe = (summary: string, extra: Json = {}) => ({ get: { operationId: summary.split(" ")[0], summary, tags: ["operations"], security: [], responses: { "200": text("ok", "application/json"), ...extra } } });
+  paths["/v1/review/report"] = {
+    post: {
+      operationId: "review_report",
+      summary: "the design review rendered as a report: self-contained HTML with inline SVG charts (default), Markdown, or the review result",
+      tags: ["analyses"],
+      parameters: [
+        { name: "format", in: "query", required: false, schema: { enum: ["html", "markdown", "json"] }, description: "also a `format` field of the body, or Accept: text/html / text/markdown" },
+        { name: "id", in: "query", required: false, schema: { type: "string" }, description: "names the report (title)" },
+      ],
+      requestBody: { required: true, content: { "application/json": { schema: ref("ReviewInput") } } },
+      responses: {
+        "200": {
+          description: "the report",
+          content: { "text/html": { schema: { type: "string" } }, "text/markdown": { schema: { type: "string" } }, "application/json": { schema: ref("ReviewOutput") } },
+        },
+        ...ERRORS,
+      },
+    },
+  };
   paths["/livez"] = probe("livez: the process runs");
   paths["/readyz"] = probe("readyz: ready for traffic (503 while draining)", { "503": text("draining", "application/json") });
   paths["/healthz"] = probe("healthz: alias of livez");

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { provenance } from "./outcome.js";
+import { ruleSetResultSchema } from "./rule-set.js";
 import { quantity, temperatureC } from "./quantity.js";
 import { requirement } from "./requirement.js";
 import { stageInput } from "./stage.js";
@@ -71,6 +72,17 @@ export const reviewInput = z
   .meta({ description: "design review: a requirement and candidate stages" });
 export type ReviewInput = z.input<typeof reviewInput>;
 
+const pointFields = {
+  outcome: z.string(),
+  mode: z.string().optional(),
+  currentA: z.number().optional(),
+  dropV: z.number().optional(),
+  lossW: z.number().optional(),
+  tjC: z.number().optional(),
+  loadV: z.number().optional(),
+  reason: z.string().optional(),
+};
+
 export const cornerConditions = z.object({
   supply: z.enum(["min", "nominal", "max"]),
   supplyV: z.number(),
@@ -80,17 +92,28 @@ export const cornerConditions = z.object({
   tolerance: z.enum(["typical", "datasheet-max"]),
 });
 
-export const cornerRow = z.object({
-  conditions: cornerConditions,
-  outcome: z.string(),
-  mode: z.string().optional(),
-  currentA: z.number().optional(),
-  dropV: z.number().optional(),
-  lossW: z.number().optional(),
-  tjC: z.number().optional(),
-  loadV: z.number().optional(),
-  reason: z.string().optional(),
-});
+export const cornerRow = z.object({ conditions: cornerConditions, ...pointFields });
+
+export const reviewCurves = z
+  .object({
+    conditions: cornerConditions.extend({ basis: z.enum(["worst-tj-corner", "lowest-supply-hot-full-load"]).meta({ description: "which corner the curves pass through" }) }),
+    load: z.array(z.object({ loadScale: z.number(), ...pointFields })).meta({ description: "load level swept at the conditions' supply, ambient and tolerance" }),
+    ambient: z.array(z.object({ ambientC: z.number(), ...pointFields })).meta({ description: "ambient swept over the requirement's range at the conditions' supply, load and tolerance" }),
+  })
+  .meta({ description: "drop, loss and Tj against load level and ambient, through the worst-Tj corner (same solve as the corners), for plots" });
+
+const profileSample = z.object({ timeS: z.number(), supplyV: z.number(), mode: z.string(), loadV: z.number(), lossW: z.number(), tjC: z.number() });
+export const reviewStartUp = z
+  .object({
+    atMinSupply: z.object({ inputV: z.number(), startMarginV: z.number().optional(), gateSourceV: z.number().optional(), gateDriveMarginV: z.number().optional() }),
+    profiles: z.array(
+      z.object({
+        ambientC: z.number(),
+        result: z.object({ samples: z.array(profileSample).readonly(), minLoadV: z.number(), maxTjC: z.number(), bodyDiodeTimeS: z.number(), dropoutTimeS: z.number(), thermalModel: z.string() }),
+      }),
+    ).readonly(),
+  })
+  .meta({ description: "drive at the lowest supply; the start-up profile samples per ambient" });
 
 const worstOf = z.object({ value: z.number(), corner: z.number().int() });
 
@@ -103,14 +126,15 @@ export const candidateResult = z.object({
   rankReason: z.string(),
   worst: z.object({ tjC: worstOf.optional(), lossW: worstOf.optional(), dropV: worstOf.optional(), loadMinV: worstOf.optional(), unsolvedCorners: z.array(z.number().int()) }),
   corners: z.array(cornerRow),
-  startUp: z.unknown().meta({ description: "drive at the lowest supply; the start-up profile samples per ambient" }),
+  startUp: reviewStartUp,
+  curves: reviewCurves,
   reverse: z.unknown().meta({ description: "steady reverse polarity: blocking element, voltage vs rating, leakage, junction temperature" }),
   transients: z.unknown().meta({ description: "per pulse: peak, element stresses, clamp requirement" }),
   thermalSizing: z.unknown(),
   energy: z.unknown().optional(),
   standby: z.unknown(),
   metrics: z.record(z.string(), z.union([z.number(), z.boolean()])),
-  rules: z.unknown().optional(),
+  rules: ruleSetResultSchema,
   costTotal: z.number().optional(),
 });
 

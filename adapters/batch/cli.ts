@@ -10,13 +10,15 @@ import { loadRuleSetStore } from "../rulesets/registry.js";
 import { formatOf } from "./formats.js";
 import { mergeShards } from "./merge.js";
 import type { BatchCounts } from "./run-batch.js";
-import { type Shard, streamBatch } from "./stream-batch.js";
+import { reportNamer, writeReviewReport } from "../report/write-report.js";
+import { type RowHook, type Shard, streamBatch } from "./stream-batch.js";
 
 const USAGE = `usage:
   backstop batch --in requests.jsonl|.csv --out results.jsonl|.csv [--procedure NAME] [--shard i/N | --shard N]
-                 [--workers N] [--catalog parts.json] [--in-format jsonl|csv] [--out-format jsonl|csv]
+                 [--workers N] [--catalog parts.json] [--in-format jsonl|csv] [--out-format jsonl|csv] [--report-dir folder]
   backstop merge --out results.jsonl|.csv shard-0 shard-1 ...
   --shard N takes the index from JOB_COMPLETION_INDEX; "{shard}" in --out is replaced by the index.
+  --report-dir writes each answered review as <id>.html, <id>.md and <id>-charts/*.svg.
   exit 0: every row answered; 1: some rows rejected; 2: could not run.`;
 
 class UsageError extends Error {}
@@ -98,6 +100,7 @@ async function batch(rest: string[]): Promise<number> {
       workers: { type: "string" },
       "in-format": { type: "string" },
       "out-format": { type: "string" },
+      "report-dir": { type: "string" },
     },
   });
   if (values.in === undefined || values.out === undefined) throw new UsageError("--in and --out are required");
@@ -121,14 +124,25 @@ async function batch(rest: string[]): Promise<number> {
   const pool: ComputePool | undefined = workers > 0 ? createComputePool({ threads: workers, catalogPath, rulesDir }) : undefined;
   const p = progress(Number(process.env.BACKSTOP_PROGRESS_MS ?? 5000));
   let counts: BatchCounts = { lines: 0, ok: 0, failed: 0 };
+  const reportDir = values["report-dir"];
+  const nameOf = reportNamer();
+  let reports = 0;
+  const onRow: RowHook | undefined = reportDir
+    ? (row, procedure) => {
+        if (!row.ok || procedure !== "review") return;
+        writeReviewReport(reportDir, nameOf(row.id, row.line), row.result, row.id ?? undefined);
+        reports += 1;
+      }
+    : undefined;
   try {
     await atomically(outPath, async (write) => {
-      counts = await streamBatch({ input, inFormat, outFormat, write, ctx: { catalog, ruleSets }, procedure: values.procedure, shard, pool, onProgress: (c) => p.tick(c) });
+      counts = await streamBatch({ input, inFormat, outFormat, write, ctx: { catalog, ruleSets }, procedure: values.procedure, shard, pool, onProgress: (c) => p.tick(c), onRow });
     });
   } finally {
     await pool?.close();
   }
   p.done(counts, outPath);
+  if (reportDir) process.stderr.write(`backstop batch: ${reports} review report(s) -> ${reportDir}\n`);
   return counts.failed > 0 ? 1 : 0;
 }
 

@@ -1,11 +1,12 @@
-import { createReadStream } from "node:fs";
-import { join } from "node:path";
+import { createReadStream, readFileSync } from "node:fs";
+import { join, resolve } from "node:path";
 import { Writable } from "node:stream";
 import type { OperatingPointOutput } from "../../contracts/operating-point.js";
 import { CAUTION } from "../../domain/provenance.js";
 import { loadCatalogFile } from "../catalog/file-catalog.js";
 import { DEMO_CATALOG, projectRoot } from "../project-root.js";
-import { type BatchOutputLine, runBatch } from "./run-batch.js";
+import { writeReviewReport } from "../report/write-report.js";
+import { type BatchOutputLine, procedureInvoker, runBatch } from "./run-batch.js";
 
 /** `npm run demo`: the batch mode on the invented demo scenarios, printed as a readable table. */
 async function demo(): Promise<void> {
@@ -40,8 +41,26 @@ async function demo(): Promise<void> {
     );
     if (!p && "reason" in res) out.push(`    ${res.reason}`);
   }
-  out.push("", `${counts.lines} requests, ${counts.ok} answered, ${counts.failed} rejected.`, "", CAUTION, "");
+  out.push("", `${counts.lines} requests, ${counts.ok} answered, ${counts.failed} rejected.`, "");
+  out.push(...(await demoReport()), "", CAUTION, "");
   process.stdout.write(out.join("\n"));
+}
+
+/** The example design review, rendered as a report into BACKSTOP_REPORT_DIR (default dist/demo-reports). */
+async function demoReport(): Promise<string[]> {
+  const file = join(projectRoot(), "examples", "requests", "review.json");
+  const line = JSON.parse(readFileSync(file, "utf8")) as { id: string; input: unknown };
+  const review = procedureInvoker({ catalog: loadCatalogFile(DEMO_CATALOG()) })("review");
+  if (review === undefined) throw new Error("review procedure missing");
+  const result = (await review(line.input)) as { ranking: { rank: number; label: string; verdict: string }[] };
+  const dir = resolve(process.env.BACKSTOP_REPORT_DIR ?? join(projectRoot(), "dist", "demo-reports"));
+  const w = writeReviewReport(dir, line.id, result, line.id);
+  return [
+    `design review ${line.id} (${file}):`,
+    ...result.ranking.map((r) => `  ${r.rank}. ${r.label.padEnd(40)} ${r.verdict}`),
+    `report: ${w.html}`,
+    `        ${w.markdown} (+ ${w.svgCount} SVG charts in ${w.svgDir})`,
+  ];
 }
 
 await demo();

@@ -26,6 +26,20 @@ export interface StreamBatchOptions {
   readonly onProgress?: (counts: BatchCounts) => void;
   /** records per pool task */
   readonly chunkSize?: number;
+  /** called for each answered record, in input order, with the procedure its line named (if it parsed that far) */
+  readonly onRow?: RowHook | undefined;
+}
+
+export type RowHook = (row: BatchOutputLine, procedure: string | undefined) => void | Promise<void>;
+
+function procedureOf(rec: Rec): string | undefined {
+  if (!("raw" in rec)) return undefined;
+  try {
+    const v = JSON.parse(rec.raw) as unknown;
+    return typeof v === "object" && v !== null && "procedure" in v && typeof v.procedure === "string" ? v.procedure : undefined;
+  } catch {
+    return undefined;
+  }
 }
 
 type Rec = { lineNo: number; raw: string } | { lineNo: number; out: BatchOutputLine };
@@ -65,7 +79,7 @@ export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
   const invoker = o.pool ? undefined : procedureInvoker(o.ctx);
   const chunkSize = o.chunkSize ?? 64;
   const maxInFlight = Math.max(2, 2 * (o.pool?.threads ?? 1));
-  const queue: Promise<BatchOutputLine[]>[] = [];
+  const queue: { recs: Rec[]; outs: Promise<BatchOutputLine[]> }[] = [];
 
   const answer = async (chunk: Rec[]): Promise<BatchOutputLine[]> => {
     const todo = chunk.filter((r): r is { lineNo: number; raw: string } => "raw" in r);
@@ -81,10 +95,11 @@ export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
   const enqueue = (c: Rec[]) => {
     const p = answer(c);
     p.catch(() => undefined); // awaited in order by flushHead; this only keeps an early rejection from going unhandled
-    queue.push(p);
+    queue.push({ recs: c, outs: p });
   };
   const flushHead = async () => {
-    const outs = await (queue.shift() as Promise<BatchOutputLine[]>);
+    const head = queue.shift() as { recs: Rec[]; outs: Promise<BatchOutputLine[]> };
+    const outs = await head.outs;
     let text = "";
     for (const out of outs) {
       counts.lines += 1;
@@ -93,6 +108,7 @@ export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
       text += fmt.line(out);
     }
     if (text) await o.write(text);
+    if (o.onRow) for (const [i, out] of outs.entries()) await o.onRow(out, procedureOf(head.recs[i] as Rec));
     o.onProgress?.(counts);
   };
 

@@ -3,6 +3,8 @@ import { reviewInput } from "../../contracts/review.js";
 import type { CornerResult } from "../../domain/checks/corners.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { type CandidateReview, reviewCandidate } from "../../domain/review/candidate-review.js";
+import { reviewCurves } from "../../domain/review/curves.js";
+import type { OperatingPointOutcome } from "../../domain/solve/electrothermal-point.js";
 import { type CandidateVerdict, rankCandidates } from "../../domain/review/ranking.js";
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import type { RuleSetResult } from "../../domain/rules/rule-model.js";
@@ -39,7 +41,10 @@ export const review = publicProcedure.input(reviewInput).query(({ input, ctx }):
     const heatsink = r.thermalSizing.outcome === "heatsink-needed" || r.thermalSizing.outcome === "better-path-needed";
     const cost = stage.spec.costEach === undefined ? undefined : stage.spec.costEach + (heatsink ? (c.heatsinkCost ?? 0) : 0);
     const worstLossW = r.worst.unsolvedCornerIndexes.length === 0 ? r.worst.lossW?.value : undefined;
-    return { index, c, stage, r, ruleInput, rules, verdict, reason, cost, worstLossW };
+    const m = req.model;
+    const curveSpace = { supplyMinV: m.supplyMinV, ambientMinC: m.ambientMinC, ambientMaxC: m.ambientMaxC, loadScales: m.loadScales, sourceResistanceOhm: m.sourceResistanceOhm, load: m.load };
+    const curves = reviewCurves(stage.model, datasheetMax ? { ...curveSpace, datasheetMax } : curveSpace, r.corners, r.worst);
+    return { index, c, stage, r, ruleInput, rules, verdict, reason, cost, worstLossW, curves };
   });
 
   const ranked = rankCandidates(evaluated.map((e) => ({ index: e.index, verdict: e.verdict, ...(e.worstLossW === undefined ? {} : { worstLossW: e.worstLossW }), ...(e.cost === undefined ? {} : { cost: e.cost }) })));
@@ -83,6 +88,11 @@ export const review = publicProcedure.input(reviewInput).query(({ input, ctx }):
       },
       corners: e.r.corners.map(cornerRow),
       startUp: e.r.startUp,
+      curves: {
+        conditions: e.curves.conditions,
+        load: e.curves.load.map((p) => ({ loadScale: p.loadScale, ...pointRow(p.result) })),
+        ambient: e.curves.ambient.map((p) => ({ ambientC: p.ambientC, ...pointRow(p.result) })),
+      },
       reverse: e.r.reverse,
       transients: e.r.transients,
       thermalSizing: e.r.thermalSizing,
@@ -124,10 +134,13 @@ function describe(c: CornerResult): string {
 }
 
 function cornerRow(c: CornerResult) {
-  const r = c.result;
+  return { conditions: c.conditions, ...pointRow(c.result) };
+}
+
+function pointRow(r: OperatingPointOutcome) {
   if ("point" in r) {
     const p = r.point;
-    return { conditions: c.conditions, outcome: r.outcome, mode: p.forward.mode, currentA: p.currentA, dropV: p.forward.dropV, lossW: p.dieLossW, tjC: p.tjC, loadV: p.loadV };
+    return { outcome: r.outcome, mode: p.forward.mode, currentA: p.currentA, dropV: p.forward.dropV, lossW: p.dieLossW, tjC: p.tjC, loadV: p.loadV };
   }
-  return { conditions: c.conditions, outcome: r.outcome, reason: r.reason };
+  return { outcome: r.outcome, reason: r.reason };
 }

@@ -1,0 +1,77 @@
+import type { Hono } from "hono";
+import type { Context } from "../../api/context.js";
+import { procedureInvoker } from "../../api/procedure-registry.js";
+import { reviewOutput } from "../../contracts/review.js";
+import { callOne, type ItemResult } from "../compute/call.js";
+import type { ComputePool } from "../compute/pool.js";
+import type { Logger } from "../logging/logger.js";
+import { renderReviewReport } from "../report/review-report.js";
+import type { HttpConfig } from "./config.js";
+import { sendProblem } from "./problem.js";
+import type { Env } from "./v1.js";
+
+type Format = "html" | "markdown" | "json";
+const FORMATS: readonly Format[] = ["html", "markdown", "json"];
+
+/** `?format=` or a `format` field of the body wins; else the Accept header; else HTML. */
+function formatOf(query: string | undefined, field: unknown, accept: string | undefined): Format | { bad: string } {
+  const asked = query ?? (typeof field === "string" ? field : undefined);
+  if (asked !== undefined) return FORMATS.includes(asked as Format) ? (asked as Format) : { bad: asked };
+  const a = (accept ?? "").toLowerCase();
+  if (a.includes("text/html")) return "html";
+  if (a.includes("text/markdown")) return "markdown";
+  if (a.includes("application/json")) return "json";
+  return "html";
+}
+
+export interface ReviewReportDeps {
+  readonly ctx: Context;
+  readonly logger: Logger;
+  readonly config: HttpConfig;
+  readonly pool?: ComputePool | undefined;
+}
+
+/**
+ * `POST /v1/review/report`: the body is a review input (as for `POST /v1/review`), optionally with
+ * `format` and `id` fields; the answer is the design-review report as one self-contained HTML page
+ * (default, or `Accept: text/html`), Markdown (`text/markdown`; the charts are only in the HTML),
+ * or the review result as JSON. The review runs as under /v1 (worker pool and compute budget when
+ * configured); errors are the same problem+json. The report is rendered from the result alone.
+ */
+export function mountReviewReport(app: Hono<Env>, deps: ReviewReportDeps): void {
+  const invoke = procedureInvoker(deps.ctx)("review");
+  if (invoke === undefined) throw new Error("the router has no review procedure");
+  app.post("/v1/review/report", async (c) => {
+    let body: unknown;
+    try {
+      body = JSON.parse(await c.req.text());
+    } catch (e) {
+      return sendProblem(c, 400, { code: "malformed-json", message: `the body is not JSON: ${(e as Error).message}` });
+    }
+    if (typeof body !== "object" || body === null || Array.isArray(body)) {
+      return sendProblem(c, 400, { code: "invalid-input", message: "the body is a review input (a JSON object)", issues: [{ path: [], message: "expected an object" }] });
+    }
+    const { format: field, id: bodyId, ...input } = body as Record<string, unknown>;
+    const format = formatOf(c.req.query("format"), field, c.req.header("accept"));
+    if (typeof format === "object") {
+      return sendProblem(c, 400, { code: "invalid-input", message: `format must be one of ${FORMATS.join(", ")}`, issues: [{ path: ["format"], message: `unknown format "${format.bad}"` }] });
+    }
+    const id = c.req.query("id") ?? (typeof bodyId === "string" || typeof bodyId === "number" ? bodyId : undefined);
+    let item: ItemResult | undefined;
+    const signal = AbortSignal.timeout(deps.config.requestTimeoutMs);
+    try {
+      item = deps.pool ? (await deps.pool.call("review", [input], signal))[0] : await callOne(invoke, input);
+    } catch (e) {
+      if (!signal.aborted) throw e;
+      return sendProblem(c, 503, { code: "compute-timeout", message: `the review needed more than its ${deps.config.requestTimeoutMs} ms compute budget` }, { "retry-after": "1" });
+    }
+    if (item === undefined) throw new Error("the review call returned no item");
+    if (!item.ok) {
+      if (item.internal !== undefined) deps.logger.error({ requestId: c.get("requestId"), err: item.internal }, "review report failed");
+      return sendProblem(c, item.status, item.error);
+    }
+    if (format === "json") return c.body(JSON.stringify(item.result), 200, { "content-type": "application/json" });
+    const report = renderReviewReport(reviewOutput.parse(item.result), id === undefined ? { svgDir: null } : { id, svgDir: null });
+    return format === "html" ? c.html(report.html) : c.body(report.markdown, 200, { "content-type": "text/markdown; charset=utf-8" });
+  });
+}

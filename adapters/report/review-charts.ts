@@ -1,0 +1,121 @@
+import { type Candidate, num, slug } from "./format.js";
+import { type ChartLimit, type ChartMark, type ChartSeries, type ChartSpec, lineChart } from "./svg-chart.js";
+
+/** One chart of a report: where it belongs, what it shows, and the SVG document. */
+export interface ReportChart {
+  readonly candidateIndex: number;
+  readonly kind: ChartKind;
+  /** File name of the SVG on its own, unique within the report. */
+  readonly file: string;
+  readonly title: string;
+  readonly spec: ChartSpec;
+  readonly svg: string;
+}
+
+export const CHART_KINDS = ["drop-vs-current", "loss-vs-current", "tj-vs-current", "tj-vs-ambient", "startup-voltage", "startup-tj"] as const;
+export type ChartKind = (typeof CHART_KINDS)[number];
+
+/** The metric of the rule vocabulary a chart's y axis shows, for drawing the rules' thresholds. */
+const LIMIT_METRIC: Record<ChartKind, string> = {
+  "drop-vs-current": "dropWorstV",
+  "loss-vs-current": "lossWorstW",
+  "tj-vs-current": "tjWorstC",
+  "tj-vs-ambient": "tjWorstC",
+  "startup-voltage": "loadVMinV",
+  "startup-tj": "tjWorstC",
+};
+
+/** Thresholds of the applied rules whose left-hand side is the metric (e.g. `tjWorstC <= …`). */
+export function ruleLimits(c: Candidate, metric: string, unit: string): ChartLimit[] {
+  const lhs = new RegExp(`^\\s*${metric}\\s*(<=|>=|<|>)`);
+  return c.rules.verdicts
+    .filter((v) => v.outcome !== "not-applicable" && v.threshold !== null && lhs.test(v.expression))
+    .map((v) => ({ label: `${v.ruleId} (${v.comparison ?? ""} ${num(v.threshold)} ${unit})`, value: v.threshold ?? 0 }));
+}
+
+type Row = Candidate["curves"]["load"][number] | Candidate["curves"]["ambient"][number];
+
+/** A row plots where a stable operating point exists (solved or over-temperature); elsewhere the line breaks. */
+export function plotted(r: Row): boolean {
+  return r.outcome === "solved" || r.outcome === "over-temperature";
+}
+
+function at<R extends Row>(rows: readonly R[], x: (r: R) => number | undefined, y: (r: R) => number | undefined): [number, number | null][] {
+  return rows.flatMap((r): [number, number | null][] => {
+    const xv = x(r);
+    if (xv === undefined) return [];
+    return [[xv, plotted(r) ? (y(r) ?? null) : null]];
+  });
+}
+
+function conditionsText(c: Candidate): string {
+  const k = c.curves.conditions;
+  return `supply ${num(k.supplyV)} V, ${k.tolerance}`;
+}
+
+/** The candidate's charts, every plotted number taken from the review result as it stands. */
+export function candidateCharts(c: Candidate, prefix = ""): ReportChart[] {
+  const k = c.curves.conditions;
+  const tag = `${prefix}c${c.index}-${slug(c.label)}`;
+  const curveCorner = c.corners.findIndex(
+    (r) => r.conditions.supply === k.supply && r.conditions.ambient === k.ambient && r.conditions.loadScale === k.loadScale && r.conditions.tolerance === k.tolerance,
+  );
+  const corner = c.corners[curveCorner];
+  const mark = (y: number | undefined): ChartMark[] =>
+    corner?.currentA !== undefined && y !== undefined ? [{ label: `corner ${curveCorner}${k.basis === "worst-tj-corner" ? " (worst Tj)" : ""}`, x: corner.currentA, y }] : [];
+  const out: ReportChart[] = [];
+  const add = (kind: ChartKind, title: string, where: string, spec: Omit<ChartSpec, "id" | "title" | "subtitle">) => {
+    const id = `${tag}-${kind}`;
+    const full: ChartSpec = { id, title, subtitle: `${c.label} · ${where}`, ...spec };
+    out.push({ candidateIndex: c.index, kind, file: `${id}.svg`, title, spec: full, svg: lineChart(full) });
+  };
+  const load = c.curves.load;
+  const where = `${conditionsText(c)}, ambient ${num(k.ambientC)} °C`;
+  add("drop-vs-current", "Forward drop against load current", where, {
+    xLabel: "Load current (A)",
+    yLabel: "Forward drop (V)",
+    series: [{ name: "drop", points: at(load, (r) => r.currentA, (r) => r.dropV) }],
+    limits: ruleLimits(c, LIMIT_METRIC["drop-vs-current"], "V"),
+    marks: mark(corner?.dropV),
+  });
+  add("loss-vs-current", "Stage loss against load current", where, {
+    xLabel: "Load current (A)",
+    yLabel: "Loss (W)",
+    series: [{ name: "loss", points: at(load, (r) => r.currentA, (r) => r.lossW) }],
+    limits: ruleLimits(c, LIMIT_METRIC["loss-vs-current"], "W"),
+    marks: mark(corner?.lossW),
+  });
+  add("tj-vs-current", "Junction temperature against load current", where, {
+    xLabel: "Load current (A)",
+    yLabel: "Junction temperature (°C)",
+    series: [{ name: "Tj", points: at(load, (r) => r.currentA, (r) => r.tjC) }],
+    limits: ruleLimits(c, LIMIT_METRIC["tj-vs-current"], "°C"),
+    marks: mark(corner?.tjC),
+  });
+  add("tj-vs-ambient", "Junction temperature against ambient", `${conditionsText(c)}, load ×${num(k.loadScale)}`, {
+    xLabel: "Ambient temperature (°C)",
+    yLabel: "Junction temperature (°C)",
+    series: [{ name: "Tj", points: at(c.curves.ambient, (r) => r.ambientC, (r) => r.tjC) }],
+    limits: ruleLimits(c, LIMIT_METRIC["tj-vs-ambient"], "°C"),
+    marks: corner?.tjC === undefined ? [] : [{ label: `corner ${curveCorner}`, x: k.ambientC, y: corner.tjC }],
+  });
+  const profiles = c.startUp.profiles;
+  const first = profiles[0];
+  if (first !== undefined) {
+    const spacing = 24;
+    const supply: ChartSeries = { name: "supply", points: first.result.samples.map((s) => [s.timeS, s.supplyV]), markerSpacingPx: spacing };
+    add("startup-voltage", "Start-up profile: supply and load voltage", `ambients ${profiles.map((p) => num(p.ambientC)).join(", ")} °C`, {
+      xLabel: "Time (s)",
+      yLabel: "Voltage (V)",
+      series: [supply, ...profiles.map((p) => ({ name: `load, ${num(p.ambientC)} °C`, points: p.result.samples.map((s) => [s.timeS, s.loadV] as [number, number]), markerSpacingPx: spacing }))],
+      limits: ruleLimits(c, LIMIT_METRIC["startup-voltage"], "V"),
+    });
+    add("startup-tj", "Start-up profile: junction temperature", `thermal model ${first.result.thermalModel}`, {
+      xLabel: "Time (s)",
+      yLabel: "Junction temperature (°C)",
+      series: profiles.map((p) => ({ name: `Tj, ${num(p.ambientC)} °C`, points: p.result.samples.map((s) => [s.timeS, s.tjC] as [number, number]), markerSpacingPx: spacing })),
+      limits: ruleLimits(c, LIMIT_METRIC["startup-tj"], "°C"),
+    });
+  }
+  return out;
+}

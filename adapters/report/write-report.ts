@@ -1,0 +1,47 @@
+import { mkdirSync, writeFileSync } from "node:fs";
+import { join } from "node:path";
+import { reviewOutput } from "../../contracts/review.js";
+import { slug } from "./format.js";
+import { renderReviewReport } from "./review-report.js";
+
+export interface WrittenReport {
+  readonly html: string;
+  readonly markdown: string;
+  readonly svgDir: string;
+  readonly svgCount: number;
+  readonly bytes: number;
+}
+
+/**
+ * Write one review's report into `dir`: `<name>.html` (self-contained), `<name>.md` and the charts
+ * as `<name>-charts/*.svg` (linked from the Markdown). `result` is a review result as a procedure
+ * returned it; it is checked against the output contract first (a mismatch is a bug, so it throws).
+ */
+export function writeReviewReport(dir: string, name: string, result: unknown, id?: string | number): WrittenReport {
+  const base = slug(name);
+  const report = renderReviewReport(reviewOutput.parse(result), { ...(id === undefined ? {} : { id }), svgDir: `${base}-charts` });
+  const svgDir = join(dir, `${base}-charts`);
+  mkdirSync(svgDir, { recursive: true });
+  let bytes = 0;
+  for (const s of report.svgs) {
+    writeFileSync(join(svgDir, s.file), s.svg);
+    bytes += Buffer.byteLength(s.svg);
+  }
+  const html = join(dir, `${base}.html`);
+  const markdown = join(dir, `${base}.md`);
+  writeFileSync(html, report.html);
+  writeFileSync(markdown, report.markdown);
+  bytes += Buffer.byteLength(report.html) + Buffer.byteLength(report.markdown);
+  return { html, markdown, svgDir, svgCount: report.svgs.length, bytes };
+}
+
+/** File names for a batch run's reports: the row's id, else `line-<n>`; a repeated id gets `-line<n>`. */
+export function reportNamer(): (id: string | number | null, line: number) => string {
+  const used = new Set<string>();
+  return (id, line) => {
+    let name = id === null ? `line-${line}` : slug(String(id));
+    if (used.has(name)) name = `${name}-line${line}`;
+    used.add(name);
+    return name;
+  };
+}

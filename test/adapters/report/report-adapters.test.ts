@@ -1,0 +1,83 @@
+import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import { main } from "../../../adapters/batch/cli.js";
+import { projectRoot } from "../../../adapters/project-root.js";
+import { reportNamer } from "../../../adapters/report/write-report.js";
+import { reviewOutput } from "../../../contracts/review.js";
+import { testApp } from "../../helpers/app.js";
+
+const example = JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "review.json"), "utf8")) as { id: string; procedure: string; input: Record<string, unknown> };
+// One candidate keeps these adapter checks quick; the renderer's own tests use the whole example.
+const input: Record<string, unknown> = { ...example.input, candidates: (example.input["candidates"] as unknown[]).slice(0, 1) };
+delete input["monteCarlo"];
+
+describe("review report over HTTP", () => {
+  const { app } = testApp();
+  const post = (body: unknown, path = "/v1/review/report", headers: Record<string, string> = {}) =>
+    app.request(path, { method: "POST", headers: { "content-type": "application/json", ...headers }, body: JSON.stringify(body) });
+
+  it("answers HTML by default and for Accept: text/html, Markdown for text/markdown or format, JSON for format=json", async () => {
+    const html = await post(input, "/v1/review/report?id=van", { accept: "text/html" });
+    expect(html.status).toBe(200);
+    expect(html.headers.get("content-type")).toMatch(/^text\/html/);
+    const page = await html.text();
+    expect(page).toMatch(/^<!DOCTYPE html>/);
+    expect(page).toContain("<h1>Design review van</h1>");
+    expect(page.match(/<svg /g)).toHaveLength(6);
+    const md = await post({ ...input, format: "markdown" });
+    expect(md.headers.get("content-type")).toMatch(/^text\/markdown/);
+    const text = await md.text();
+    expect(text).toMatch(/^# Design review/);
+    expect(text).toContain("in the HTML report");
+    expect(text).not.toContain("](");
+    const viaAccept = await post(input, undefined, { accept: "text/markdown" });
+    expect(await viaAccept.text()).toBe(text);
+    const json = await post(input, "/v1/review/report?format=json");
+    expect(reviewOutput.safeParse(await json.json()).success).toBe(true);
+  });
+
+  it("rejects bad input with 400 naming the field, and an unknown format", async () => {
+    const bad = await post({ ...input, requirement: { ...(input["requirement"] as object), ambient: { minC: 90, maxC: 20 } } });
+    expect(bad.status).toBe(400);
+    const body = (await bad.json()) as { code: string; issues: { path: (string | number)[] }[] };
+    expect(body.code).toBe("invalid-input");
+    expect(body.issues.map((i) => i.path.join("."))).toContain("requirement.ambient.minC");
+    const fmt = await post(input, "/v1/review/report?format=pdf");
+    expect(fmt.status).toBe(400);
+    expect(((await fmt.json()) as { issues: { path: string[] }[] }).issues[0]?.path).toEqual(["format"]);
+    const notJson = await app.request("/v1/review/report", { method: "POST", headers: { "content-type": "application/json" }, body: "{ nope" });
+    expect(notJson.status).toBe(400);
+  });
+});
+
+describe("review reports in batch (--report-dir)", () => {
+  it("writes <id>.html, <id>.md and the charts for each answered review line, nothing for other lines", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "backstop-batch-report-"));
+    const inFile = join(dir, "in.jsonl");
+    const op = { stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" }, supplyV: 12, load: { kind: "constant-current", currentA: 2 }, ambientC: 25 };
+    writeFileSync(
+      inFile,
+      [
+        JSON.stringify({ id: "van/12v", procedure: "review", input }),
+        JSON.stringify({ id: "op", procedure: "operatingPoint", input: op }),
+        JSON.stringify({ id: "bad", procedure: "review", input: { ...input, candidates: [] } }),
+        JSON.stringify({ procedure: "review", input }),
+      ].join("\n"),
+    );
+    const reports = join(dir, "reports");
+    const code = await main(["batch", "--in", inFile, "--out", join(dir, "out.jsonl"), "--report-dir", reports]);
+    expect(code).toBe(1); // the bad line is rejected; the others are answered
+    expect(readdirSync(reports).sort()).toEqual(["line-4-charts", "line-4.html", "line-4.md", "van-12v-charts", "van-12v.html", "van-12v.md"]);
+    expect(readdirSync(join(reports, "van-12v-charts"))).toHaveLength(6);
+    const md = readFileSync(join(reports, "van-12v.md"), "utf8");
+    for (const link of md.matchAll(/\]\(([^)]+\.svg)\)/g)) expect(existsSync(join(reports, link[1] ?? ""))).toBe(true);
+    expect(readFileSync(join(reports, "van-12v.html"), "utf8")).toContain("Design review van/12v");
+  });
+
+  it("names reports by id, by line without one, and never overwrites a repeated id", () => {
+    const name = reportNamer();
+    expect([name("a", 1), name(null, 2), name("a", 3), name("../x y", 4)]).toEqual(["a", "line-2", "a-line3", "x-y"]);
+  });
+});

@@ -1,0 +1,236 @@
+import { readFileSync } from "node:fs";
+import { join } from "node:path";
+import { DOMParser, type Element } from "@xmldom/xmldom";
+import { beforeAll, describe, expect, it } from "vitest";
+import { procedureInvoker } from "../../../adapters/batch/run-batch.js";
+import { projectRoot } from "../../../adapters/project-root.js";
+import { candidateCharts } from "../../../adapters/report/review-charts.js";
+import { renderReviewReport } from "../../../adapters/report/review-report.js";
+import { type ReviewOutput, reviewOutput } from "../../../contracts/review.js";
+import { demoContext } from "../../helpers/app.js";
+
+type Cand = ReviewOutput["candidates"][number];
+const invoke = procedureInvoker(demoContext())("review");
+async function review(input: unknown): Promise<ReviewOutput> {
+  if (invoke === undefined) throw new Error("review procedure missing");
+  return reviewOutput.parse(await invoke(input));
+}
+
+/** Parse as XML; any warning or error of the parser fails the test. */
+function parseSvg(svg: string) {
+  const problems: string[] = [];
+  const doc = new DOMParser({ onError: (level, msg) => problems.push(`${level}: ${msg}`) }).parseFromString(svg, "image/svg+xml");
+  if (problems.length > 0) throw new Error(`SVG does not parse: ${problems.join("; ")}`);
+  return doc;
+}
+
+const byClass = (root: Element, cls: string) => Array.from(root.getElementsByTagName("*")).filter((e) => (e.getAttribute("class") ?? "").split(" ").includes(cls));
+
+/** The axis scale as drawn: the pixel→value line through the first and last tick of each axis. */
+function axisScales(svg: Element) {
+  const axis = (cls: string, attr: "x1" | "y1") => {
+    const g = byClass(svg, cls)[0];
+    if (!g) throw new Error(`no ${cls}`);
+    const ticks = Array.from(g.getElementsByTagName("line")).map((t) => ({ px: Number(t.getAttribute(attr)), v: Number(t.getAttribute("data-value")) }));
+    const a = ticks[0];
+    const b = ticks[ticks.length - 1];
+    if (!a || !b || a.px === b.px) throw new Error(`${cls} has too few ticks`);
+    const perPx = (b.v - a.v) / (b.px - a.px);
+    return { invert: (px: number) => a.v + (px - a.px) * perPx, perPx: Math.abs(perPx) };
+  };
+  return { x: axis("x-axis", "x1"), y: axis("y-axis", "y1") };
+}
+
+/** Vertices of the path's subpaths (d3-shape emits M and L commands only for a linear curve). */
+function pathPoints(d: string): [number, number][] {
+  return [...d.matchAll(/[ML](-?[\d.]+),(-?[\d.]+)/g)].map((m) => [Number(m[1]), Number(m[2])]);
+}
+
+/** The report writes a true minus sign. */
+const minus = (v: number) => String(v).replace("-", "−");
+
+/** What each chart must show, computed here from the review result without the renderer. */
+function expectedSeries(c: Cand, kind: string): Map<string, [number, number][]> {
+  const stable = (o: string) => o === "solved" || o === "over-temperature";
+  const load = (y: (r: Cand["curves"]["load"][number]) => number | undefined) =>
+    c.curves.load.filter((r) => stable(r.outcome) && r.currentA !== undefined && y(r) !== undefined).map((r) => [r.currentA ?? 0, y(r) ?? 0] as [number, number]);
+  const profiles = c.startUp.profiles;
+  switch (kind) {
+    case "drop-vs-current":
+      return new Map([["drop", load((r) => r.dropV)]]);
+    case "loss-vs-current":
+      return new Map([["loss", load((r) => r.lossW)]]);
+    case "tj-vs-current":
+      return new Map([["Tj", load((r) => r.tjC)]]);
+    case "tj-vs-ambient":
+      return new Map([["Tj", c.curves.ambient.filter((r) => stable(r.outcome)).map((r) => [r.ambientC, r.tjC ?? 0] as [number, number])]]);
+    case "startup-voltage":
+      return new Map([
+        ["supply", (profiles[0]?.result.samples ?? []).map((s) => [s.timeS, s.supplyV] as [number, number])],
+        ...profiles.map((p) => [`load, ${minus(p.ambientC)} °C`, p.result.samples.map((s) => [s.timeS, s.loadV] as [number, number])] as [string, [number, number][]]),
+      ]);
+    case "startup-tj":
+      return new Map(profiles.map((p) => [`Tj, ${minus(p.ambientC)} °C`, p.result.samples.map((s) => [s.timeS, s.tjC] as [number, number])] as [string, [number, number][]]));
+    default:
+      throw new Error(`unknown chart ${kind}`);
+  }
+}
+
+const LIMIT_METRIC: Record<string, string> = {
+  "drop-vs-current": "dropWorstV",
+  "loss-vs-current": "lossWorstW",
+  "tj-vs-current": "tjWorstC",
+  "tj-vs-ambient": "tjWorstC",
+  "startup-voltage": "loadVMinV",
+  "startup-tj": "tjWorstC",
+};
+
+describe("design-review report", () => {
+  let result: ReviewOutput;
+  let id: string;
+  beforeAll(async () => {
+    const line = JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "review.json"), "utf8")) as { id: string; input: unknown };
+    id = line.id;
+    result = await review(line.input);
+  });
+
+  it("every SVG parses as XML, standalone, with axis labels that carry units", () => {
+    const rep = renderReviewReport(result, { id });
+    // Six charts per candidate: three against current, Tj against ambient, two of the start-up profile.
+    expect(rep.svgs).toHaveLength(6 * result.candidates.length);
+    for (const s of rep.svgs) {
+      const svg = parseSvg(s.svg).documentElement;
+      if (!svg) throw new Error("empty SVG");
+      expect(svg.getAttribute("xmlns")).toBe("http://www.w3.org/2000/svg");
+      for (const cls of ["x-label", "y-label"]) expect(byClass(svg, cls)[0]?.textContent).toMatch(/\((A|V|W|°C|s)\)$/);
+      expect(s.svg).not.toMatch(/NaN|Infinity|undefined/);
+    }
+  });
+
+  it("each chart's plotted points, limits and marks read back through the axis scale to the numbers in the result", () => {
+    let checked = 0;
+    for (const c of result.candidates) {
+      for (const chart of candidateCharts(c)) {
+        const svg = parseSvg(chart.svg).documentElement;
+        if (!svg) throw new Error("empty SVG");
+        const { x, y } = axisScales(svg);
+        const expected = expectedSeries(c, chart.kind);
+        const groups = byClass(svg, "series");
+        expect(groups.map((g) => g.getAttribute("data-series"))).toEqual([...expected.keys()]);
+        for (const g of groups) {
+          const want = expected.get(g.getAttribute("data-series") ?? "") ?? [];
+          const got = pathPoints(g.getElementsByTagName("path")[0]?.getAttribute("d") ?? "");
+          expect(got).toHaveLength(want.length);
+          // Coordinates are written to 1e-3 px; tick positions too: 2e-3 px of either axis's scale.
+          got.forEach(([px, py], i) => {
+            const [wx, wy] = want[i] ?? [Number.NaN, Number.NaN];
+            expect(Math.abs(x.invert(px) - wx)).toBeLessThanOrEqual(2e-3 * x.perPx + 1e-12);
+            expect(Math.abs(y.invert(py) - wy)).toBeLessThanOrEqual(2e-3 * y.perPx + 1e-12);
+            checked += 1;
+          });
+        }
+        // Limits: the thresholds of the applied rules on this chart's metric, drawn where they are.
+        const lhs = new RegExp(`^\\s*${LIMIT_METRIC[chart.kind]}\\s*(<=|>=|<|>)`);
+        const thresholds = c.rules.verdicts.filter((v) => v.outcome !== "not-applicable" && v.threshold !== null && lhs.test(v.expression)).map((v) => v.threshold);
+        const limits = byClass(svg, "limit");
+        expect(limits.map((l) => Number(l.getAttribute("data-value")))).toEqual(thresholds);
+        for (const l of limits) {
+          const yy = Number(l.getElementsByTagName("line")[0]?.getAttribute("y1"));
+          expect(Math.abs(y.invert(yy) - Number(l.getAttribute("data-value")))).toBeLessThanOrEqual(2e-3 * y.perPx + 1e-12);
+        }
+        // Greyscale: no two series share a dash pattern.
+        const dashes = groups.map((g) => g.getElementsByTagName("path")[0]?.getAttribute("stroke-dasharray") ?? "solid");
+        expect(new Set(dashes).size).toBe(dashes.length);
+      }
+      // The Tj-against-current mark is the worst-Tj corner, at its current and junction temperature.
+      const tjChart = candidateCharts(c).find((ch) => ch.kind === "tj-vs-current");
+      const w = c.worst.tjC;
+      if (tjChart && w) {
+        const mark = byClass(parseSvg(tjChart.svg).documentElement as Element, "mark")[0];
+        expect(Number(mark?.getAttribute("data-y"))).toBe(w.value);
+        expect(Number(mark?.getAttribute("data-x"))).toBe(c.corners[w.corner]?.currentA);
+      }
+    }
+    expect(checked).toBeGreaterThan(1000);
+  });
+
+  it("is deterministic and self-contained (no script, no external reference)", () => {
+    const a = renderReviewReport(result, { id });
+    const b = renderReviewReport(result, { id });
+    expect(a.html).toBe(b.html);
+    expect(a.markdown).toBe(b.markdown);
+    expect(a.html).not.toMatch(/<script|<link|<img|src=|url\(/i);
+    expect(a.html.replaceAll("http://www.w3.org/2000/svg", "")).not.toMatch(/https?:\/\//);
+  });
+
+  it("carries the caution, the model and rule-set versions, and the corner table with the worst case marked", () => {
+    const rep = renderReviewReport(result, { id });
+    const c0 = result.candidates[0];
+    if (!c0?.worst.tjC) throw new Error("no worst corner");
+    expect(rep.markdown).toContain(result.caution);
+    expect(rep.html).toContain(result.caution.replace(/&/g, "&amp;"));
+    expect(rep.markdown).toContain(`model version ${result.modelVersion}`);
+    expect(rep.markdown).toContain(`rule set ${c0.rules.ruleSet.id} version ${c0.rules.ruleSet.version}, ${c0.rules.ruleSet.hash}`);
+    // The worst-Tj corner's row has its Tj cell marked; no other Tj cell of that table is.
+    expect(rep.markdown).toContain(`highest junction temperature: ${Number(c0.worst.tjC.value.toPrecision(4))} °C at corner ${c0.worst.tjC.corner}`);
+    const table = rep.markdown.split(`## Rank ${c0.rank} · candidate 0`)[1]?.split("### Curves")[0] ?? "";
+    const row = table.split("\n").find((l) => l.startsWith(`| ${c0.worst.tjC?.corner} |`));
+    expect(row?.split("|")[12]?.trim()).toBe(`**${Number(c0.worst.tjC.value.toPrecision(4))}** ◆`);
+  });
+
+  // DOMAIN.md, common practice: a Schottky drops ~0.5 V at 10 A (several watts), so a 2 W loss
+  // budget fails; loss-budget is the last rule of the default set, so "first" is the report's doing.
+  it("a failing candidate shows its failing rule and the values it used first", async () => {
+    const r = await review({
+      requirement: { supply: { class: "vehicle-24v-f" }, load: { kind: "constant-current", currentA: 10 }, ambient: { minC: -40, maxC: 70 }, transients: [], lossBudgetW: 2 },
+      candidates: [{ stage: { kind: "catalog-part", partId: "demo-schottky-10a-60v" } }],
+    });
+    const c = r.candidates[0];
+    const failing = c?.rules.verdicts.filter((v) => v.outcome === "fail") ?? [];
+    expect(failing.map((v) => v.ruleId)).toContain("loss-budget");
+    expect(c?.rules.verdicts.at(-1)?.ruleId).toBe("loss-budget");
+    const md = renderReviewReport(r, { id: "schottky-10a" }).markdown;
+    const section = md.split("## Rank 1 · candidate 0")[1] ?? "";
+    const note = section.split("\n").find((l) => l.startsWith("Failing rule"));
+    const firstFail = failing[0];
+    if (!firstFail) throw new Error("no failing rule");
+    expect(note).toContain(`Failing rule ${firstFail.ruleId}: ${firstFail.expression}`);
+    const lossW = c?.metrics["lossWorstW"];
+    if (typeof lossW !== "number") throw new Error("no loss metric");
+    const rows = section.split("\n").filter((l) => l.startsWith("| ") && !l.startsWith("| rule"));
+    // The verdict table opens with the failing rules (in rule-set order), each with its values.
+    for (const [i, v] of failing.entries()) expect(rows[i]).toMatch(new RegExp(`^\\| ${v.ruleId} \\| \\*\\*FAIL\\*\\* \\|`));
+    const lossRow = rows.find((l) => l.startsWith("| loss-budget |"));
+    expect(lossRow).toContain(`lossWorstW = ${Number(lossW.toPrecision(4))}`);
+    expect(lossRow).toContain("threshold <= 2,");
+    expect(section.indexOf("Failing rule")).toBeLessThan(section.indexOf("| rule |"));
+  });
+
+  // A load the source cannot deliver (200 W through 1 Ω from 12 V: the maximum is V²/4R = 36 W,
+  // maximum power transfer) leaves every corner without an operating point: the report still
+  // renders, with the line broken where the sweep has no point instead of invented numbers.
+  it("renders a candidate without any operating point: valid SVG, no invented numbers, the fail first", async () => {
+    const r = await review({
+      requirement: { supply: { class: "custom", minV: 11, nominalV: 12, maxV: 13 }, sourceResistanceOhm: 1, load: { kind: "constant-power", powerW: 200, minVoltageV: 5 }, loadLevels: [1], ambient: { minC: 0, maxC: 40 }, transients: [] },
+      candidates: [{ stage: { kind: "catalog-part", partId: "demo-ideal-diode-60v-3mohm" } }],
+    });
+    const c = r.candidates[0];
+    expect(c?.worst.unsolvedCorners).toHaveLength(c?.corners.length ?? -1);
+    expect(c?.verdict).toBe("fail");
+    const rep = renderReviewReport(r);
+    for (const s of rep.svgs) {
+      parseSvg(s.svg);
+      expect(s.svg).not.toMatch(/NaN|Infinity|undefined/);
+    }
+    const svgOf = (kind: string) => parseSvg(rep.svgs.find((s) => s.file.endsWith(`${kind}.svg`))?.svg ?? "").documentElement as Element;
+    // Ambient swept at full load: no point anywhere, so no line at all.
+    expect(byClass(svgOf("tj-vs-ambient"), "series")[0]?.getElementsByTagName("path")).toHaveLength(0);
+    // Load swept: only the light loads the source can deliver are drawn.
+    const stable = c?.curves.load.filter((p) => p.outcome === "solved" || p.outcome === "over-temperature").length ?? 0;
+    expect(stable).toBeGreaterThan(0);
+    expect(stable).toBeLessThan(c?.curves.load.length ?? 0);
+    expect(pathPoints(byClass(svgOf("tj-vs-current"), "series")[0]?.getElementsByTagName("path")[0]?.getAttribute("d") ?? "")).toHaveLength(stable);
+    expect(rep.markdown).toContain("corners without an operating point: 0, 1, 2, 3, 4, 5");
+    expect(rep.markdown.split("## Rank 1 · candidate 0")[1]?.split("\n").find((l) => l.startsWith("**"))).toMatch(/^\*\*FAIL\. fail: corner 0/);
+  });
+});
