@@ -2,6 +2,7 @@ import { z } from "zod";
 import { quantity, ratio, temperatureC } from "./quantity.js";
 
 const energyGapEv = z.number().gt(0.1).lte(5).meta({ description: "activation energy Eg of the Is(T) law, eV (default: 1.11 PN, 0.69 Schottky)", unit: "eV" });
+const vfTempCoVPerK = quantity("V/K", "linear forward-voltage temperature coefficient at constant current (about −2 mV/K for silicon); replaces the Eg/XTI law", { ge: -0.05, le: 0.05 });
 const saturationTempExponent = z.number().gte(0).lte(10).meta({ description: "Is temperature exponent XTI (default: 3 PN, 2 Schottky)", unit: "1" });
 
 export const diodeShockley = z.object({
@@ -11,6 +12,7 @@ export const diodeShockley = z.object({
   seriesResistanceOhm: quantity("ohm", "series resistance Rs", { ge: 0, le: 1e3 }),
   energyGapEv: energyGapEv.optional(),
   saturationTempExponent: saturationTempExponent.optional(),
+  vfTempCoVPerK: vfTempCoVPerK.optional(),
   nominalTempC: temperatureC("temperature at which Is holds (default 25 °C)").optional(),
 });
 
@@ -26,10 +28,16 @@ export const diodePoints = z.object({
   seriesResistanceOhm: quantity("ohm", "series resistance to hold with two points (default 0)", { ge: 0, le: 1e3 }).optional(),
   energyGapEv: energyGapEv.optional(),
   saturationTempExponent: saturationTempExponent.optional(),
+  vfTempCoVPerK: vfTempCoVPerK.optional(),
 });
 
 export const diode = z
   .discriminatedUnion("model", [diodeShockley, diodePoints])
+  .superRefine((d, ctx) => {
+    if (d.vfTempCoVPerK !== undefined && (d.energyGapEv !== undefined || d.saturationTempExponent !== undefined)) {
+      ctx.addIssue({ code: "custom", path: ["vfTempCoVPerK"], message: "give either a linear Vf temperature coefficient or the Eg/XTI law, not both" });
+    }
+  })
   .meta({ description: "a junction: Shockley parameters, or two or three datasheet points that backstop fits" });
 export type DiodeInput = z.input<typeof diode>;
 export type DiodeSpec = z.output<typeof diode>;

@@ -9,7 +9,8 @@ export type Junction = keyof typeof JUNCTION_DEFAULTS;
 /** Contract diode → domain Shockley parameters, fitting datasheet points where given. */
 export function toDiodeParams(spec: DiodeSpec, junction: Junction, path: (string | number)[], assumptions: string[]): DiodeParams {
   const defaults = JUNCTION_DEFAULTS[junction];
-  if (spec.energyGapEv === undefined || spec.saturationTempExponent === undefined) {
+  const linear = spec.vfTempCoVPerK === undefined ? {} : { linearTempCoVPerK: spec.vfTempCoVPerK };
+  if (spec.vfTempCoVPerK === undefined && (spec.energyGapEv === undefined || spec.saturationTempExponent === undefined)) {
     assumptions.push(
       `${path.join(".")}: Eg ${spec.energyGapEv ?? defaults.energyGapEv} eV, XTI ${spec.saturationTempExponent ?? defaults.saturationTempExponent} ` +
         `(SPICE level-1 defaults for a ${junction === "pn" ? "PN" : "Schottky"} junction, common practice)`,
@@ -25,6 +26,7 @@ export function toDiodeParams(spec: DiodeSpec, junction: Junction, path: (string
       energyGapEv,
       saturationTempExponent,
       nominalTempK: spec.nominalTempC === undefined ? DEFAULT_NOMINAL_TEMP_K : cToK(spec.nominalTempC),
+      ...linear,
     };
   }
   const currents = new Set(spec.points.map((p) => `${p.currentA}@${p.tempC ?? 25}`));
@@ -37,6 +39,7 @@ export function toDiodeParams(spec: DiodeSpec, junction: Junction, path: (string
       energyGapEv,
       saturationTempExponent,
       nominalTempK: DEFAULT_NOMINAL_TEMP_K,
+      ...linear,
       ...(spec.seriesResistanceOhm === undefined ? {} : { seriesResistanceOhm: spec.seriesResistanceOhm }),
     },
   );

@@ -1,5 +1,4 @@
-import { thermalVoltageV } from "../physics/constants.js";
-import { type DiodeParams, saturationCurrentAt } from "../physics/diode.js";
+import { type DiodeParams, saturationCurrentAt, emissionVoltageV } from "../physics/diode.js";
 import { channelResistanceOhm, interpolate } from "../physics/mosfet-channel.js";
 import { totalRthKPerW } from "../physics/thermal-path.js";
 import type { ForwardLaw } from "../solve/ac-bridge-circuit.js";
@@ -101,7 +100,7 @@ export function controllerGateV(e: IdealDiodeStage, controllerSupplyV: number): 
 /** Shockley with series resistance, Is(T) and n·Vt evaluated once for the temperature. */
 export function junctionLaw(d: DiodeParams, tK: number): ForwardLaw {
   const is = saturationCurrentAt(d, tK);
-  const nvt = d.ideality * thermalVoltageV(tK);
+  const nvt = emissionVoltageV(d, tK);
   const rs = d.seriesResistanceOhm;
   return (i) => {
     const x = Math.max(i, 0);
@@ -125,7 +124,7 @@ export function channelLaw(rOhm: number, d: DiodeParams, tK: number, regulatedDr
       let hi = i;
       // The body current at the unshared channel voltage bounds y from above; one Newton step
       // from there lands left of the root, and from the left Newton on this convex f is monotone.
-      y = Math.min(i, saturationCurrentAt(d, tK) * Math.expm1(Math.min((i * rOhm) / (d.ideality * thermalVoltageV(tK)), 700)));
+      y = Math.min(i, saturationCurrentAt(d, tK) * Math.expm1(Math.min((i * rOhm) / (emissionVoltageV(d, tK)), 700)));
       for (let k = 0; k < 60; k += 1) {
         const [vd, sd] = diode(y);
         const f = (i - y) * rOhm - vd;

@@ -1,6 +1,5 @@
 import { cToK, kToC } from "../physics/constants.js";
-import { type DiodeParams, saturationCurrentAt } from "../physics/diode.js";
-import { thermalVoltageV } from "../physics/constants.js";
+import { type DiodeParams, saturationCurrentAt, emissionVoltageV } from "../physics/diode.js";
 import { totalRthKPerW } from "../physics/thermal-path.js";
 import { thermalFixedPoint } from "../solve/thermal-fixed-point.js";
 import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
@@ -38,7 +37,7 @@ export type ReverseSteadyResult =
 
 /** Reverse current of a junction at reverse voltage vR: Is(T)·(1 − e^(−vR/(n·Vt))), Shockley. */
 export function junctionLeakageA(d: DiodeParams, reverseV: number, tK: number, point?: LeakagePoint): number {
-  const shape = -Math.expm1(-reverseV / (d.ideality * thermalVoltageV(tK)));
+  const shape = -Math.expm1(-reverseV / (emissionVoltageV(d, tK)));
   if (point) return (point.currentA * saturationCurrentAt(d, tK)) / saturationCurrentAt(d, point.tempK);
   return saturationCurrentAt(d, tK) * shape;
 }

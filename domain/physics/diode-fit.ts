@@ -14,6 +14,8 @@ export interface DiodeFitOptions {
   readonly nominalTempK: number;
   /** With two points: the series resistance to hold fixed (default 0). */
   readonly seriesResistanceOhm?: number;
+  /** A linear Vf temperature coefficient instead of the Eg/XTI law, V/K. */
+  readonly linearTempCoVPerK?: number;
 }
 
 export type DiodeFitResult =
@@ -45,6 +47,7 @@ export function fitDiode(points: readonly ForwardPoint[], opts: DiodeFitOptions)
     energyGapEv: opts.energyGapEv,
     saturationTempExponent: opts.saturationTempExponent,
     nominalTempK: opts.nominalTempK,
+    ...(opts.linearTempCoVPerK === undefined ? {} : { linearTempCoVPerK: opts.linearTempCoVPerK }),
   });
   const residuals = (u: readonly number[]): number[] => {
     const p = build(u);

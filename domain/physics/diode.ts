@@ -24,10 +24,24 @@ export interface DiodeParams {
   readonly saturationTempExponent: number;
   /** Temperature at which saturationCurrentA holds, K. */
   readonly nominalTempK: number;
+  /**
+   * Optional linear forward-voltage temperature coefficient at constant current, V/K (about
+   * −2 mV/K for silicon, memory). When given it replaces the Eg/XTI law: the forward curve shifts
+   * by tc·(T − T0) and the slope n·Vt stays at its T0 value, i.e. Is(T) = Is0·e^(−tc·(T − T0)/(n·Vt0)).
+   */
+  readonly linearTempCoVPerK?: number;
+}
+
+/** n·Vt of the junction at tK: the emission voltage of the exponential (held at T0 under a linear law). */
+export function emissionVoltageV(p: DiodeParams, tK: number): number {
+  return p.ideality * thermalVoltageV(p.linearTempCoVPerK === undefined ? tK : p.nominalTempK);
 }
 
 /** Saturation current at the absolute temperature tK, A. */
 export function saturationCurrentAt(p: DiodeParams, tK: number): number {
+  if (p.linearTempCoVPerK !== undefined) {
+    return p.saturationCurrentA * Math.exp((-p.linearTempCoVPerK * (tK - p.nominalTempK)) / emissionVoltageV(p, p.nominalTempK));
+  }
   const ratio = tK / p.nominalTempK;
   const vt = thermalVoltageV(tK);
   return (
@@ -40,7 +54,7 @@ export function saturationCurrentAt(p: DiodeParams, tK: number): number {
 /** Forward voltage at forward current currentA (≥ 0) and temperature tK: explicit. */
 export function diodeVoltageV(p: DiodeParams, currentA: number, tK: number): number {
   const is = saturationCurrentAt(p, tK);
-  const nvt = p.ideality * thermalVoltageV(tK);
+  const nvt = emissionVoltageV(p, tK);
   return nvt * Math.log1p(currentA / is) + currentA * p.seriesResistanceOhm;
 }
 
@@ -52,7 +66,7 @@ export function diodeVoltageV(p: DiodeParams, currentA: number, tK: number): num
  */
 export function diodeCurrentA(p: DiodeParams, voltageV: number, tK: number): number {
   const is = saturationCurrentAt(p, tK);
-  const nvt = p.ideality * thermalVoltageV(tK);
+  const nvt = emissionVoltageV(p, tK);
   const rs = p.seriesResistanceOhm;
   if (rs <= 0) return is * Math.expm1(voltageV / nvt);
   const x = Math.log((is * rs) / nvt) + (voltageV + is * rs) / nvt;
@@ -62,7 +76,7 @@ export function diodeCurrentA(p: DiodeParams, voltageV: number, tK: number): num
 /** Small-signal slope dV/dI of the diode at current currentA, ohm. */
 export function diodeSlopeOhm(p: DiodeParams, currentA: number, tK: number): number {
   const is = saturationCurrentAt(p, tK);
-  return (p.ideality * thermalVoltageV(tK)) / (currentA + is) + p.seriesResistanceOhm;
+  return emissionVoltageV(p, tK) / (currentA + is) + p.seriesResistanceOhm;
 }
 
 /** Defaults of the SPICE level-1 law by junction type [common practice]. */

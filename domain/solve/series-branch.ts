@@ -1,5 +1,4 @@
-import { thermalVoltageV } from "../physics/constants.js";
-import { type DiodeParams, diodeCurrentA, diodeVoltageV } from "../physics/diode.js";
+import { type DiodeParams, diodeCurrentA, diodeVoltageV, emissionVoltageV } from "../physics/diode.js";
 import { channelResistanceOhm } from "../physics/mosfet-channel.js";
 import { junctionLeakageA, type LeakagePoint } from "../checks/reverse-steady.js";
 import { stageForward } from "../stages/forward.js";
@@ -129,7 +128,7 @@ function reverseLaw(stage: StageModel, leftV: number, rightV: number, tK: number
  */
 export function reverseJunctionA(d: DiodeParams, v: number, tK: number, point?: LeakagePoint): number {
   if (point === undefined || v >= 0) return diodeCurrentA(d, v, tK);
-  const shape = -Math.expm1(v / (d.ideality * thermalVoltageV(tK)));
+  const shape = -Math.expm1(v / (emissionVoltageV(d, tK)));
   return -junctionLeakageA(d, -v, tK, point) * shape;
 }
 

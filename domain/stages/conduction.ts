@@ -1,5 +1,4 @@
-import { thermalVoltageV } from "../physics/constants.js";
-import { type DiodeParams, diodeVoltageV, saturationCurrentAt } from "../physics/diode.js";
+import { type DiodeParams, diodeVoltageV, saturationCurrentAt, emissionVoltageV } from "../physics/diode.js";
 import { wrightOmega } from "../physics/lambert-w.js";
 
 /** How the stage conducts at an operating point. */
@@ -38,7 +37,7 @@ export function junctionState(d: DiodeParams, currentA: number, tK: number, mode
 export function channelWithBodyDiodeV(rOhm: number, d: DiodeParams, currentA: number, tK: number): number {
   // Is(T) and n·Vt once per call (the hot path of every MOSFET stage).
   const is = saturationCurrentAt(d, tK);
-  const nvt = d.ideality * thermalVoltageV(tK);
+  const nvt = emissionVoltageV(d, tK);
   const rs = d.seriesResistanceOhm;
   const id = (v: number): number => {
     if (rs <= 0) return is * Math.expm1(v / nvt);

@@ -128,3 +128,30 @@ describe("diode fit from datasheet points", () => {
     expect(fit.ok).toBe(false);
   });
 });
+
+describe("linear forward-voltage temperature coefficient", () => {
+  const tc = -0.002;
+  const d: DiodeParams = { saturationCurrentA: 1e-9, ideality: 1.8, seriesResistanceOhm: 0.02, energyGapEv: 1.11, saturationTempExponent: 3, nominalTempK: cToK(25), linearTempCoVPerK: tc };
+  // By construction (DOMAIN.md: "or a linear Vf temperature coefficient, about −2 mV/K, memory"):
+  // at a current far above Is the curve shifts by tc·(T − T0), and I(V) stays its exact inverse.
+  it("shifts the forward voltage by tc·ΔT at constant current", () => {
+    for (const i of [0.01, 1, 5]) {
+      for (const tC of [-40, 85, 150]) {
+        // The "+1" of ln(I/Is + 1) departs from the pure shift by n·Vt·Is/I: below 10 µV here.
+        expect(Math.abs(diodeVoltageV(d, i, cToK(tC)) - diodeVoltageV(d, i, cToK(25)) - tc * (tC - 25))).toBeLessThan(1e-5);
+        expect(relativeError(diodeCurrentA(d, diodeVoltageV(d, i, cToK(tC)), cToK(tC)), i)).toBeLessThan(1e-9);
+      }
+    }
+  });
+  // Closed form: a constant current I through the diode with Vf(T) = V0 + tc·(T − T0) and
+  // Tj = Ta + Rth·I·Vf(Tj) gives Tj = (Ta + Rth·I·(V0 − tc·T0)) / (1 − Rth·I·tc).
+  it("gives the closed-form self-heated junction temperature", async () => {
+    const { solveOperatingPoint } = await import("../../domain/solve/electrothermal-point.js");
+    const stage = { kind: "pn-diode" as const, diode: d, reverseRatingV: 100, tjMaxC: 175, thermal: { kind: "junction-ambient" as const, rthJaKPerW: 40 } };
+    const r = solveOperatingPoint({ stage, supplyV: 12, sourceResistanceOhm: 0, load: { kind: "constant-current", currentA: 2 }, ambientC: 50, rthKPerW: 40 });
+    if (r.outcome !== "solved") throw new Error(r.outcome);
+    const v0 = diodeVoltageV(d, 2, cToK(25));
+    const closed = (50 + 40 * 2 * (v0 - tc * 25)) / (1 - 40 * 2 * tc);
+    expect(Math.abs(r.point.tjC - closed)).toBeLessThan(1e-4);
+  });
+});
