@@ -58,6 +58,7 @@ export const reviewInput = z
     candidates: z.array(candidate).min(1).max(64),
     ruleSet: z.string().min(1).max(100).optional().meta({ description: "id of a rule set (default: default)" }),
     monteCarlo: monteCarloSpec.optional(),
+    curves: z.boolean().optional().meta({ description: "also return load and ambient sweeps through the worst corner, for charts (default false; reports ask for them)" }),
   })
   .superRefine((r, ctx) => {
     const mc = r.monteCarlo;
@@ -127,7 +128,7 @@ export const candidateResult = z.object({
   worst: z.object({ tjC: worstOf.optional(), lossW: worstOf.optional(), dropV: worstOf.optional(), loadMinV: worstOf.optional(), unsolvedCorners: z.array(z.number().int()) }),
   corners: z.array(cornerRow),
   startUp: reviewStartUp,
-  curves: reviewCurves,
+  curves: reviewCurves.optional(),
   reverse: z.unknown().meta({ description: "steady reverse polarity: blocking element, voltage vs rating, leakage, junction temperature" }),
   transients: z.unknown().meta({ description: "per pulse: peak, element stresses, clamp requirement" }),
   thermalSizing: z.unknown(),

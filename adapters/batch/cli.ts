@@ -136,7 +136,7 @@ async function batch(rest: string[]): Promise<number> {
     : undefined;
   try {
     await atomically(outPath, async (write) => {
-      counts = await streamBatch({ input, inFormat, outFormat, write, ctx: { catalog, ruleSets }, procedure: values.procedure, shard, pool, onProgress: (c) => p.tick(c), onRow });
+      counts = await streamBatch({ input, inFormat, outFormat, write, ctx: { catalog, ruleSets }, procedure: values.procedure, shard, pool, onProgress: (c) => p.tick(c), onRow, reviewCurves: reportDir !== undefined });
     });
   } finally {
     await pool?.close();

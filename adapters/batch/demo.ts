@@ -52,7 +52,7 @@ async function demoReport(): Promise<string[]> {
   const line = JSON.parse(readFileSync(file, "utf8")) as { id: string; input: unknown };
   const review = procedureInvoker({ catalog: loadCatalogFile(DEMO_CATALOG()) })("review");
   if (review === undefined) throw new Error("review procedure missing");
-  const result = (await review(line.input)) as { ranking: { rank: number; label: string; verdict: string }[] };
+  const result = (await review({ ...(line.input as object), curves: true })) as { ranking: { rank: number; label: string; verdict: string }[] };
   const dir = resolve(process.env.BACKSTOP_REPORT_DIR ?? join(projectRoot(), "dist", "demo-reports"));
   const w = writeReviewReport(dir, line.id, result, line.id);
   return [

@@ -28,6 +28,20 @@ export interface StreamBatchOptions {
   readonly chunkSize?: number;
   /** called for each answered record, in input order, with the procedure its line named (if it parsed that far) */
   readonly onRow?: RowHook | undefined;
+  /** ask every review line for its chart sweeps (`curves: true`), for reports */
+  readonly reviewCurves?: boolean | undefined;
+}
+
+/** A review line with `input.curves` set (when the line asks nothing else of it); other lines as they are. */
+function withReviewCurves(rec: Rec): Rec {
+  if (!("raw" in rec)) return rec;
+  try {
+    const v = JSON.parse(rec.raw) as { procedure?: unknown; input?: unknown };
+    if (v.procedure !== "review" || typeof v.input !== "object" || v.input === null || Array.isArray(v.input) || "curves" in v.input) return rec;
+    return { lineNo: rec.lineNo, raw: JSON.stringify({ ...v, input: { ...v.input, curves: true } }) };
+  } catch {
+    return rec;
+  }
 }
 
 export type RowHook = (row: BatchOutputLine, procedure: string | undefined) => void | Promise<void>;
@@ -116,7 +130,7 @@ export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
   let chunk: Rec[] = [];
   for await (const rec of source) {
     if (o.shard && (rec.lineNo - 1) % o.shard.count !== o.shard.index) continue;
-    chunk.push(rec);
+    chunk.push(o.reviewCurves ? withReviewCurves(rec) : rec);
     if (chunk.length >= chunkSize) {
       enqueue(chunk);
       chunk = [];

@@ -51,7 +51,9 @@ export function mountReviewReport(app: Hono<Env>, deps: ReviewReportDeps): void 
     if (typeof body !== "object" || body === null || Array.isArray(body)) {
       return sendProblem(c, 400, { code: "invalid-input", message: "the body is a review input (a JSON object)", issues: [{ path: [], message: "expected an object" }] });
     }
-    const { format: field, id: bodyId, ...input } = body as Record<string, unknown>;
+    const { format: field, id: bodyId, ...fields } = body as Record<string, unknown>;
+    // A report draws the load and ambient sweeps: ask the review for them unless the body says otherwise.
+    const input = { curves: true, ...fields };
     const format = formatOf(c.req.query("format"), field, c.req.header("accept"));
     if (typeof format === "object") {
       return sendProblem(c, 400, { code: "invalid-input", message: `format must be one of ${FORMATS.join(", ")}`, issues: [{ path: ["format"], message: `unknown format "${format.bad}"` }] });

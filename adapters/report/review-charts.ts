@@ -33,7 +33,8 @@ export function ruleLimits(c: Candidate, metric: string, unit: string): ChartLim
     .map((v) => ({ label: `${v.ruleId} (${v.comparison ?? ""} ${num(v.threshold)} ${unit})`, value: v.threshold ?? 0 }));
 }
 
-type Row = Candidate["curves"]["load"][number] | Candidate["curves"]["ambient"][number];
+type Curves = NonNullable<Candidate["curves"]>;
+type Row = Curves["load"][number] | Curves["ambient"][number];
 
 /** A row plots where a stable operating point exists (solved or over-temperature); elsewhere the line breaks. */
 export function plotted(r: Row): boolean {
@@ -48,29 +49,37 @@ function at<R extends Row>(rows: readonly R[], x: (r: R) => number | undefined, 
   });
 }
 
-function conditionsText(c: Candidate): string {
-  const k = c.curves.conditions;
+function conditionsText(k: Curves["conditions"]): string {
   return `supply ${num(k.supplyV)} V, ${k.tolerance}`;
 }
 
 /** The candidate's charts, every plotted number taken from the review result as it stands. */
 export function candidateCharts(c: Candidate, prefix = ""): ReportChart[] {
-  const k = c.curves.conditions;
   const tag = `${prefix}c${c.index}-${slug(c.label)}`;
-  const curveCorner = c.corners.findIndex(
-    (r) => r.conditions.supply === k.supply && r.conditions.ambient === k.ambient && r.conditions.loadScale === k.loadScale && r.conditions.tolerance === k.tolerance,
-  );
-  const corner = c.corners[curveCorner];
-  const mark = (y: number | undefined): ChartMark[] =>
-    corner?.currentA !== undefined && y !== undefined ? [{ label: `corner ${curveCorner}${k.basis === "worst-tj-corner" ? " (worst Tj)" : ""}`, x: corner.currentA, y }] : [];
   const out: ReportChart[] = [];
   const add = (kind: ChartKind, title: string, where: string, spec: Omit<ChartSpec, "id" | "title" | "subtitle">) => {
     const id = `${tag}-${kind}`;
     const full: ChartSpec = { id, title, subtitle: `${c.label} · ${where}`, ...spec };
     out.push({ candidateIndex: c.index, kind, file: `${id}.svg`, title, spec: full, svg: lineChart(full) });
   };
-  const load = c.curves.load;
-  const where = `${conditionsText(c)}, ambient ${num(k.ambientC)} °C`;
+  if (c.curves !== undefined) curveCharts(c, c.curves, add);
+  startUpCharts(c, add);
+  return out;
+}
+
+type AddChart = (kind: ChartKind, title: string, where: string, spec: Omit<ChartSpec, "id" | "title" | "subtitle">) => void;
+
+/** The load and ambient sweeps (present when the review was asked for `curves`). */
+function curveCharts(c: Candidate, curves: Curves, add: AddChart): void {
+  const k = curves.conditions;
+  const curveCorner = c.corners.findIndex(
+    (r) => r.conditions.supply === k.supply && r.conditions.ambient === k.ambient && r.conditions.loadScale === k.loadScale && r.conditions.tolerance === k.tolerance,
+  );
+  const corner = c.corners[curveCorner];
+  const mark = (y: number | undefined): ChartMark[] =>
+    corner?.currentA !== undefined && y !== undefined ? [{ label: `corner ${curveCorner}${k.basis === "worst-tj-corner" ? " (worst Tj)" : ""}`, x: corner.currentA, y }] : [];
+  const load = curves.load;
+  const where = `${conditionsText(k)}, ambient ${num(k.ambientC)} °C`;
   add("drop-vs-current", "Forward drop against load current", where, {
     xLabel: "Load current (A)",
     yLabel: "Forward drop (V)",
@@ -92,13 +101,17 @@ export function candidateCharts(c: Candidate, prefix = ""): ReportChart[] {
     limits: ruleLimits(c, LIMIT_METRIC["tj-vs-current"], "°C"),
     marks: mark(corner?.tjC),
   });
-  add("tj-vs-ambient", "Junction temperature against ambient", `${conditionsText(c)}, load ×${num(k.loadScale)}`, {
+  add("tj-vs-ambient", "Junction temperature against ambient", `${conditionsText(k)}, load ×${num(k.loadScale)}`, {
     xLabel: "Ambient temperature (°C)",
     yLabel: "Junction temperature (°C)",
-    series: [{ name: "Tj", points: at(c.curves.ambient, (r) => r.ambientC, (r) => r.tjC) }],
+    series: [{ name: "Tj", points: at(curves.ambient, (r) => r.ambientC, (r) => r.tjC) }],
     limits: ruleLimits(c, LIMIT_METRIC["tj-vs-ambient"], "°C"),
     marks: corner?.tjC === undefined ? [] : [{ label: `corner ${curveCorner}`, x: k.ambientC, y: corner.tjC }],
   });
+}
+
+/** The start-up profile charts (present when the requirement gave a profile). */
+function startUpCharts(c: Candidate, add: AddChart): void {
   const profiles = c.startUp.profiles;
   const first = profiles[0];
   if (first !== undefined) {
@@ -117,5 +130,4 @@ export function candidateCharts(c: Candidate, prefix = ""): ReportChart[] {
       limits: ruleLimits(c, LIMIT_METRIC["startup-tj"], "°C"),
     });
   }
-  return out;
 }

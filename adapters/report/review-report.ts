@@ -49,7 +49,10 @@ function candidateBlocks(c: Candidate, charts: readonly ReportChart[]): Block[] 
     { kind: "heading", level: 3, text: "Curves" },
     {
       kind: "para",
-      text: `Drawn through corner conditions (${c.curves.conditions.basis}): supply ${c.curves.conditions.supply} ${num(c.curves.conditions.supplyV)} V, ambient ${num(c.curves.conditions.ambientC)} °C, load ×${num(c.curves.conditions.loadScale)}, ${c.curves.conditions.tolerance}. Dash-dot lines are the rule thresholds; the diamond is the corner the curves pass through.`,
+      text:
+        c.curves === undefined
+          ? "No load or ambient sweeps in this result (the review was not asked for curves)."
+          : `Drawn through corner conditions (${c.curves.conditions.basis}): supply ${c.curves.conditions.supply} ${num(c.curves.conditions.supplyV)} V, ambient ${num(c.curves.conditions.ambientC)} °C, load ×${num(c.curves.conditions.loadScale)}, ${c.curves.conditions.tolerance}. Dash-dot lines are the rule thresholds; the diamond is the corner the curves pass through.`,
     },
     { kind: "charts", charts },
   );

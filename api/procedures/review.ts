@@ -43,7 +43,7 @@ export const review = publicProcedure.input(reviewInput).query(({ input, ctx }):
     const worstLossW = r.worst.unsolvedCornerIndexes.length === 0 ? r.worst.lossW?.value : undefined;
     const m = req.model;
     const curveSpace = { supplyMinV: m.supplyMinV, ambientMinC: m.ambientMinC, ambientMaxC: m.ambientMaxC, loadScales: m.loadScales, sourceResistanceOhm: m.sourceResistanceOhm, load: m.load };
-    const curves = reviewCurves(stage.model, datasheetMax ? { ...curveSpace, datasheetMax } : curveSpace, r.corners, r.worst);
+    const curves = input.curves ? reviewCurves(stage.model, datasheetMax ? { ...curveSpace, datasheetMax } : curveSpace, r.corners, r.worst) : undefined;
     return { index, c, stage, r, ruleInput, rules, verdict, reason, cost, worstLossW, curves };
   });
 
@@ -88,11 +88,15 @@ export const review = publicProcedure.input(reviewInput).query(({ input, ctx }):
       },
       corners: e.r.corners.map(cornerRow),
       startUp: e.r.startUp,
-      curves: {
-        conditions: e.curves.conditions,
-        load: e.curves.load.map((p) => ({ loadScale: p.loadScale, ...pointRow(p.result) })),
-        ambient: e.curves.ambient.map((p) => ({ ambientC: p.ambientC, ...pointRow(p.result) })),
-      },
+      ...(e.curves === undefined
+        ? {}
+        : {
+            curves: {
+              conditions: e.curves.conditions,
+              load: e.curves.load.map((p) => ({ loadScale: p.loadScale, ...pointRow(p.result) })),
+              ambient: e.curves.ambient.map((p) => ({ ambientC: p.ambientC, ...pointRow(p.result) })),
+            },
+          }),
       reverse: e.r.reverse,
       transients: e.r.transients,
       thermalSizing: e.r.thermalSizing,
