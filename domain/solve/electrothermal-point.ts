@@ -41,7 +41,7 @@ export const SEARCH_ABOVE_LIMIT_K = 150;
  */
 export function solveOperatingPoint(m: OperatingPointModel): OperatingPointOutcome {
   const tjMaxC = stageTjMaxC(m.stage);
-  // The search evaluates the root itself, then probes ±0.01 K for the loop gain: keep the
+  // The search evaluates the root itself, then probes +0.01 K for the loop gain: keep the
   // circuit solved at the root instead of solving it again.
   const recent: { tK: number; e: ReturnType<typeof solveElectrical> }[] = [];
   const r = thermalFixedPoint(m.ambientC, m.rthKPerW, tjMaxC + SEARCH_ABOVE_LIMIT_K, (tK) => {

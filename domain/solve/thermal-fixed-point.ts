@@ -20,23 +20,29 @@ export function thermalFixedPoint<F>(ambientC: number, rthKPerW: number, ceiling
   const ceilingK = Math.max(cToK(ceilingC), taK);
   const state: { failure?: { failure: F; atK: number } } = {};
   let evaluations = 0;
+  // The root finder's last evaluation is usually the root itself: remember it.
+  let lastK = Number.NaN;
+  let lastLossW = Number.NaN;
   const loss = (tK: number): number => {
+    if (tK === lastK) return lastLossW;
     evaluations += 1;
     const r = lossAt(tK);
     if (!r.ok) {
       state.failure ??= { failure: r.failure, atK: tK };
       return Number.NaN;
     }
+    lastK = tK;
+    lastLossW = r.lossW;
     return r.lossW;
   };
   const failed = (): FixedPointResult<F> | undefined =>
     state.failure === undefined ? undefined : { kind: "failed", failure: state.failure.failure, atK: state.failure.atK };
   const h = (tK: number): number => taK + rthKPerW * loss(tK) - tK;
-  const gain = (tK: number): number => {
+  // Rth·dP/dT by a forward difference over 0.01 K from the root (one extra circuit solve).
+  const gain = (tK: number, atRootW: number): number => {
     const d = 0.01;
-    const a = loss(tK - d);
     const b = loss(tK + d);
-    return Number.isFinite(a) && Number.isFinite(b) ? (rthKPerW * (b - a)) / (2 * d) : 0;
+    return Number.isFinite(b) && Number.isFinite(atRootW) ? (rthKPerW * (b - atRootW)) / d : 0;
   };
   const done = (tjK: number): FixedPointResult<F> => {
     const lossW = loss(tjK);
@@ -44,7 +50,7 @@ export function thermalFixedPoint<F>(ambientC: number, rthKPerW: number, ceiling
     const f = failed();
     if (f) return f;
   }
-    return { kind: "root", tjK, lossW, loopGain: gain(tjK), evaluations };
+    return { kind: "root", tjK, lossW, loopGain: gain(tjK, lossW), evaluations };
   };
 
   let t = taK;
@@ -94,7 +100,7 @@ export function thermalFixedPoint<F>(ambientC: number, rthKPerW: number, ceiling
     const f = failed();
     if (f) return f;
   }
-  return { kind: "runaway", searchedToK: ceilingK, lossAtEndW, loopGainAtEnd: gain(ceilingK) };
+  return { kind: "runaway", searchedToK: ceilingK, lossAtEndW, loopGainAtEnd: gain(ceilingK, lossAtEndW) };
 }
 
 
