@@ -38,15 +38,17 @@ function resolve(refs: readonly NameRef[], input: RuleInput): Resolved {
 }
 
 /** Slot values for one expression (idx: positions in the rule's names, map: rule name → R). */
-function gather(R: Resolved, map: readonly number[], idx: readonly number[]): { slots: number[]; missing: string[] } {
-  const slots: number[] = [];
-  const missing: string[] = [];
-  for (const i of idx) {
-    const j = map[i] ?? -1;
-    slots.push(R.v[j] ?? Number.NaN);
-    if (R.ok[j] !== true) missing.push(R.why[j] ?? "internal: slot out of range");
+const NONE_MISSING: readonly string[] = [];
+
+function gather(R: Resolved, map: readonly number[], idx: readonly number[]): { slots: number[]; missing: readonly string[] } {
+  const slots = new Array<number>(idx.length);
+  let missing: string[] | undefined;
+  for (let k = 0; k < idx.length; k += 1) {
+    const j = map[idx[k] ?? -1] ?? -1;
+    slots[k] = R.v[j] ?? Number.NaN;
+    if (R.ok[j] !== true) (missing ??= []).push(R.why[j] ?? "internal: slot out of range");
   }
-  return { slots, missing };
+  return { slots, missing: missing ?? NONE_MISSING };
 }
 
 /**
@@ -58,6 +60,28 @@ export function evaluateRule(c: CompiledRule, input: RuleInput, stamp: CompiledR
   return evaluateResolved(c, input, resolve(c.refs, input), c.ownIndex, stamp);
 }
 
+/** "a, b, c" of a rule's stage kinds, formed once per compiled rule (hot path of not-applicable verdicts). */
+const coverTexts = new WeakMap<CompiledRule, string>();
+function coverText(c: CompiledRule): string {
+  let t = coverTexts.get(c);
+  if (t === undefined) {
+    t = c.rule.appliesTo === "all" ? "all" : c.rule.appliesTo.join(", ");
+    coverTexts.set(c, t);
+  }
+  return t;
+}
+
+/** Names the caller left out on purpose (notRequired) that this rule needs. */
+function skippedNames(c: CompiledRule, input: RuleInput, R: Resolved, map: readonly number[]): string[] {
+  const optional = input.notRequired;
+  if (optional === undefined) return [];
+  return c.names.filter((n, i) => Object.hasOwn(optional, n) && R.ok[map[i] ?? -1] !== true);
+}
+
+function notRequiredReason(input: RuleInput, names: readonly string[]): string {
+  return `not required: ${names.map((n) => `${n} (${input.notRequired?.[n] ?? ""})`).join("; ")}`;
+}
+
 function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: readonly number[], stamp: CompiledRuleSet["stamp"]): Verdict {
   const r = c.rule;
   const vals: Record<string, number | boolean> = {};
@@ -66,16 +90,12 @@ function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: r
     const name = c.names[i];
     if (R.ok[j] === true && name !== undefined) vals[name] = R.out[j] ?? Number.NaN;
   }
-  const make = (outcome: VerdictOutcome, cmp: Cmp | null, reason: string | null, code: NotApplicableCode | null): Verdict => verdict(c, vals, outcome, cmp, reason, code, stamp);
-  const na = (code: NotApplicableCode, reason: string): Verdict => make("not-applicable", null, reason, code);
+  const na = (code: NotApplicableCode, reason: string): Verdict => verdict(c, vals, "not-applicable", null, reason, code, stamp);
   if (r.appliesTo !== "all") {
-    if (input.stageKind === undefined) return na("missing-value", `the rule covers ${r.appliesTo.join(", ")} and no stage kind was given`);
-    if (!r.appliesTo.includes(input.stageKind)) return na("stage-kind", `the rule covers ${r.appliesTo.join(", ")}, not ${input.stageKind}`);
+    if (input.stageKind === undefined) return na("missing-value", `the rule covers ${coverText(c)} and no stage kind was given`);
+    if (!r.appliesTo.includes(input.stageKind)) return na("stage-kind", `the rule covers ${coverText(c)}, not ${input.stageKind}`);
   }
   try {
-    const optional = input.notRequired;
-    const skippedOf = (): string[] => (optional === undefined ? [] : c.names.filter((n, i) => Object.hasOwn(optional, n) && R.ok[map[i] ?? -1] !== true));
-    const notRequired = (names: readonly string[]): Verdict => na("not-required", `not required: ${names.map((n) => `${n} (${optional?.[n] ?? ""})`).join("; ")}`);
     if (c.when !== null) {
       const w = gather(R, map, c.whenSlots);
       let holds: boolean | undefined;
@@ -84,10 +104,10 @@ function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: r
         // value whichever way the missing flags go ("parallelSources or holdUpRequired" with
         // holdUpRequired true), otherwise the rule is out of scope; a gap elsewhere stays a gap.
         const whenNames = new Set(c.whenSlots.map((i) => c.names[i]));
-        const skipped = skippedOf().filter((n) => whenNames.has(n));
+        const skipped = skippedNames(c, input, R, map).filter((n) => whenNames.has(n));
         holds = skipped.length > 0 ? preconditionOverFlags(c, R, map, w.slots) : undefined;
         if (holds === undefined) {
-          if (skipped.length > 0) return notRequired(skipped);
+          if (skipped.length > 0) return na("not-required", notRequiredReason(input, skipped));
           return na("missing-value", `precondition '${r.when}' cannot be evaluated: ${w.missing.join("; ")}`);
         }
       } else holds = c.when.test(w.slots);
@@ -95,19 +115,19 @@ function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: r
     }
     const e = gather(R, map, c.expressionSlots);
     if (e.missing.length > 0) {
-      const skipped = skippedOf();
-      if (skipped.length > 0) return notRequired(skipped);
+      const skipped = skippedNames(c, input, R, map);
+      if (skipped.length > 0) return na("not-required", notRequiredReason(input, skipped));
+      return na("missing-value", `cannot be evaluated: ${e.missing.join("; ")}`);
     }
-    if (e.missing.length > 0) return na("missing-value", `cannot be evaluated: ${e.missing.join("; ")}`);
     const holds = c.expression.test(e.slots);
     const outcome: VerdictOutcome = holds ? "pass" : r.severity;
     const cmp = c.expression.comparison;
-    if (cmp === null) return make(outcome, null, holds ? null : `'${r.expression}' is false`, null);
+    if (cmp === null) return verdict(c, vals, outcome, null, holds ? null : `'${r.expression}' is false`, null, stamp);
     const lhs = cmp.lhs(e.slots);
     const rhs = cmp.rhs(e.slots);
     const margin = cmp.bound === "upper" ? rhs - lhs : lhs - rhs;
     const reason = holds ? null : `${fmt(lhs)} ${cmp.op} ${fmt(rhs)} does not hold (margin ${fmt(margin)})`;
-    return make(outcome, { op: cmp.op, threshold: rhs, margin }, reason, null);
+    return verdict(c, vals, outcome, { op: cmp.op, threshold: rhs, margin }, reason, null, stamp);
   } catch (err) {
     if (err === NON_FINITE) return na("not-finite", "an intermediate value is not finite (division by zero, log of zero or a negative number, overflow)");
     throw err;
