@@ -46,7 +46,10 @@ function gather(R: Resolved, map: readonly number[], idx: readonly number[]): { 
   for (let k = 0; k < idx.length; k += 1) {
     const j = map[idx[k] ?? -1] ?? -1;
     slots[k] = R.v[j] ?? Number.NaN;
-    if (R.ok[j] !== true) (missing ??= []).push(R.why[j] ?? "internal: slot out of range");
+    if (R.ok[j] !== true) {
+      missing ??= [];
+      missing.push(R.why[j] ?? "internal: slot out of range");
+    }
   }
   return { slots, missing: missing ?? NONE_MISSING };
 }
