@@ -6,6 +6,7 @@ import { SEARCH_ABOVE_LIMIT_K } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
 import { shootPeriodic } from "../solve/periodic-shooting.js";
 import { type AcCircuitMetrics, type AcElementMetrics, SLOT, circuitMetrics, elementMetrics } from "./bridge-ac-metrics.js";
+import { type AcPeriodWaveform, acPeriodWaveform } from "./bridge-ac-waveform.js";
 import { validateAcModel } from "./bridge-ac-validate.js";
 import {
   BRIDGE_POSITIONS,
@@ -35,6 +36,13 @@ export interface AcSteadyState extends AcCircuitMetrics {
   readonly elements: readonly AcElementResult[];
   readonly totalElementLossW: number;
   readonly solver: { readonly shootingIterations: number; readonly periodsIntegrated: number; readonly stepsLastPeriod: number; readonly thermalIterations: number };
+  /** One period of the steady state, when asked for (`waveformPoints`). */
+  readonly waveform?: AcPeriodWaveform;
+}
+
+export interface BridgeAcOptions {
+  /** Return one period as samples: this many evenly spaced times (bridge-ac-waveform.ts). */
+  readonly waveformPoints?: number;
 }
 
 export type BridgeAcOutcome =
@@ -101,7 +109,7 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
  * runaway. Zero frequency, non-positive capacitance and the like are reported as invalid input; a
  * load the source cannot feed is load-collapse.
  */
-export function analyseBridgeAc(m: BridgeAcModel): BridgeAcOutcome {
+export function analyseBridgeAc(m: BridgeAcModel, opts: BridgeAcOptions = {}): BridgeAcOutcome {
   const invalid = validateAcModel(m);
   if (invalid !== undefined) return { outcome: "invalid-input", ...invalid };
   const taK = cToK(m.ambientC);
@@ -133,14 +141,14 @@ export function analyseBridgeAc(m: BridgeAcModel): BridgeAcOutcome {
       maxDelta = Math.max(maxDelta, Math.abs(t - temps[p]));
       next[p] = t;
     }
-    if (maxDelta <= THERMAL_TOL_K) return finish(m, iso, temps, iter, periods);
+    if (maxDelta <= THERMAL_TOL_K) return finish(m, iso, temps, iter, periods, opts);
     Object.assign(temps, next);
   }
   return { outcome: "no-thermal-convergence", reason: `the junction temperatures did not settle within ${THERMAL_MAX_ITER} iterations (thermal loop gain close to 1)` };
 }
 
-function finish(m: BridgeAcModel, iso: Isothermal, temps: Readonly<Record<BridgePosition, number>>, thermalIterations: number, periods: number): BridgeAcOutcome {
-  const steadyState = steadyStateOf(m, iso, temps, { thermalIterations, periods });
+function finish(m: BridgeAcModel, iso: Isothermal, temps: Readonly<Record<BridgePosition, number>>, thermalIterations: number, periods: number, opts: BridgeAcOptions): BridgeAcOutcome {
+  const steadyState = steadyStateOf(m, iso, temps, { thermalIterations, periods }, opts.waveformPoints);
   const hot = steadyState.elements.find((e) => e.tjC > e.tjMaxC);
   if (hot !== undefined) {
     return { outcome: "over-temperature", steadyState, reason: `${hot.position} runs at ${fmt(hot.tjC)} °C, above its ${fmt(hot.tjMaxC)} °C junction limit` };
@@ -157,6 +165,7 @@ export function steadyStateOf(
   iso: Isothermal,
   temps: Readonly<Record<BridgePosition, number>>,
   counts: { readonly thermalIterations: number; readonly periods: number },
+  waveformPoints?: number,
 ): AcSteadyState {
   const period = 1 / m.frequencyHz;
   const x0 = iso.x;
@@ -182,6 +191,7 @@ export function steadyStateOf(
     elements,
     totalElementLossW: elements.reduce((s, e) => s + e.lossW, 0),
     solver: { shootingIterations: iso.iterations, periodsIntegrated: counts.periods, stepsLastPeriod: iso.steps, thermalIterations: counts.thermalIterations },
+    ...(waveformPoints === undefined ? {} : { waveform: acPeriodWaveform(iso.trace, period, waveformPoints) }),
   };
 }
 
