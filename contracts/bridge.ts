@@ -54,6 +54,7 @@ export const bridgeAcInput = z
     capacitanceF: quantity("F", "reservoir capacitance", { gt: 0, le: 100 }),
     esrOhm: quantity("ohm", "reservoir capacitor ESR (default 0)", { ge: 0, le: 1e3 }).optional(),
     capacitorRippleRatingA: quantity("A", "rated RMS ripple current of the reservoir capacitor, for the rules", { gt: 0, le: 1e4 }).optional(),
+    waveform: z.boolean().optional().meta({ description: "also return one period of the steady state as samples (source and output voltage, each element's current), for charts (default false; the bridge report asks for it)" }),
   })
   .meta({ description: "full bridge on an AC input with a reservoir capacitor: periodic steady state, electrothermally" });
 export type BridgeAcInput = z.input<typeof bridgeAcInput>;
@@ -157,6 +158,16 @@ const steadyState = z.object({
   elements: z.array(acElement).readonly(),
   totalElementLossW: z.number(),
   solver: z.object({ shootingIterations: z.number(), periodsIntegrated: z.number(), stepsLastPeriod: z.number(), thermalIterations: z.number() }),
+  waveform: z
+    .object({
+      timeS: z.array(z.number()).readonly().meta({ description: "from the source's rising zero, s" }),
+      sourceV: z.array(z.number()).readonly(),
+      outputV: z.array(z.number()).readonly(),
+      elementCurrentA: z.object({ line1High: z.array(z.number()).readonly(), line2High: z.array(z.number()).readonly(), line1Low: z.array(z.number()).readonly(), line2Low: z.array(z.number()).readonly() }).meta({ description: "forward current of each element (0 while its pair blocks)" }),
+      nodes: z.number().int().meta({ description: "integrator nodes of the converged period the samples were picked from" }),
+    })
+    .optional()
+    .meta({ description: "one period of the steady state: the integrator's nodes, ~400 picked evenly in time plus each element's peak and the output's extremes (present when waveform was asked for)" }),
 });
 export const acBridgeOutcome = z.discriminatedUnion("outcome", [
   z.object({ outcome: z.literal("solved"), steadyState }),

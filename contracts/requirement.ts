@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { load } from "./load.js";
 import { quantity, ratio, temperatureC } from "./quantity.js";
+import { holdUpCapacitor, reverseLoop, turnOffTiming } from "./turn-off.js";
 
 const volts = (d: string) => quantity("V", d, { gt: 0, le: 10_000 });
 
@@ -24,6 +25,20 @@ export const customPulse = z.object({
   decayConvention: z.enum(["to-10-percent", "time-constant"]).optional().meta({ description: "td to 10 % of the peak (τ = td/ln 10, default) or τ itself" }),
   clampedAtV: volts("a centrally suppressed pulse: the input is held at this level").optional(),
 });
+
+/** The reverse-current event each candidate is put through in the review (the turnOff analysis's loop and capacitor). */
+export const reviewTurnOff = z
+  .object({
+    loop: reverseLoop,
+    capacitor: holdUpCapacitor,
+    inputAfterV: quantity("V", "input from t = 0 on: 0 for a short (default), or the lower voltage it steps to", { ge: 0, le: 10_000 }).optional(),
+    outputV: quantity("V", "output voltage before the event (default: the nominal supply)", { gt: 0, le: 10_000 }).optional(),
+    tjC: temperatureC("junction temperature at the event (default: the candidate's worst-case Tj over the corners, else the highest ambient)").optional(),
+    timing: turnOffTiming.optional(),
+    reverseRecoveryChargeC: quantity("C", "a diode stage's reverse-recovery charge Qrr (default 0: ideal)", { ge: 0, le: 1 }).optional(),
+    clampV: quantity("V", "voltage the blocking element clamps the inductive energy at (default: its rated voltage)", { gt: 0, le: 10_000 }).optional(),
+  })
+  .meta({ description: "the input shorted or stepping lower: each candidate's reverse-current peak, turn-off and absorbed energy (the turnOff analysis), for the avalanche and reverse-current rules" });
 
 export const requirement = z
   .object({
@@ -77,6 +92,7 @@ export const requirement = z
     parallelSources: z.boolean().optional().meta({ description: "the input is paralleled with another source (default false)" }),
     holdUpRequired: z.boolean().optional().meta({ description: "the load must ride through an input dropout (default false)" }),
     tjMarginK: quantity("K", "margin below Tj(max) that thermal sizing holds (default 25 K, common practice)", { ge: 0, le: 200 }).optional(),
+    turnOff: reviewTurnOff.optional(),
   })
   .superRefine((r, ctx) => {
     if (r.ambient.minC > r.ambient.maxC) ctx.addIssue({ code: "custom", path: ["ambient", "minC"], message: "must not be above ambient.maxC" });
@@ -89,6 +105,8 @@ export const requirement = z
       const prev = r.startProfile?.[i - 1];
       if (prev && !(p.timeS > prev.timeS)) ctx.addIssue({ code: "custom", path: ["startProfile", i, "timeS"], message: "times must increase" });
     });
+    const t = r.turnOff;
+    if (t?.outputV !== undefined && t.inputAfterV !== undefined && !(t.inputAfterV < t.outputV)) ctx.addIssue({ code: "custom", path: ["turnOff", "inputAfterV"], message: "must be below turnOff.outputV: the input falls at t = 0" });
     if (r.inputClamp && r.inputClamp.clampV <= r.inputClamp.standoffV) ctx.addIssue({ code: "custom", path: ["inputClamp", "clampV"], message: "must be above standoffV" });
   });
 export type RequirementInput = z.input<typeof requirement>;

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { turnOffEventOutput, turnOffTiming } from "./turn-off.js";
 import { provenance } from "./outcome.js";
 import { ruleSetResultSchema } from "./rule-set.js";
 import { quantity, temperatureC } from "./quantity.js";
@@ -32,6 +33,7 @@ export const candidate = z.object({
     .meta({ description: "the datasheet-maximum tolerance corner (absent: typical values only)" }),
   transientThermal: transientThermal.optional(),
   heatsinkCost: z.number().gte(0).lte(1e6).optional().meta({ description: "cost of a heatsink if one is needed, for ranking", unit: "currency" }),
+  turnOffTiming: turnOffTiming.optional().meta({ description: "this candidate's reverse-current turn-off timing for the requirement's turnOff event (default: requirement.turnOff.timing, else the stage controller's own)" }),
 });
 
 const mcParameter = z.enum(["rdsOn", "forwardVoltage", "rth", "supplyV", "ambientC", "load"]);
@@ -129,6 +131,15 @@ export const candidateResult = z.object({
   corners: z.array(cornerRow),
   startUp: reviewStartUp,
   curves: reviewCurves.optional(),
+  turnOff: z
+    .object({
+      tjC: z.number().meta({ description: "junction temperature at the event" }),
+      tjSource: z.enum(["given", "worst-corner", "highest-ambient"]),
+      avalancheRatingJ: z.number().optional().meta({ description: "the part's single-pulse avalanche rating at 25 °C starting Tj" }),
+      event: turnOffEventOutput,
+    })
+    .optional()
+    .meta({ description: "the requirement's turn-off event for this candidate (as the turnOff procedure computes it; the waveform when curves were asked for)" }),
   reverse: z.unknown().meta({ description: "steady reverse polarity: blocking element, voltage vs rating, leakage, junction temperature" }),
   transients: z.unknown().meta({ description: "per pulse: peak, element stresses, clamp requirement" }),
   thermalSizing: z.unknown(),

@@ -51,6 +51,7 @@ export const turnOffInput = z
     avalancheRatingJ: quantity("J", "single-pulse avalanche energy rating of the blocking element at 25 °C starting Tj (default: the part's avalancheEnergyJ)", { gt: 0, le: 1e6 }).optional(),
     ruleSet: ruleSetRef.optional().meta({ description: "when given, the result carries this rule set's verdicts (docs/metrics.md lists what this analysis provides)" }),
     ruleMetrics: metricRecord.optional().meta({ description: "requirement metrics for the rules that this analysis does not compute (parallelSources, reverseVMaxV, reverseCurrentBudgetA, ...)" }),
+    waveform: z.boolean().optional().meta({ description: "also return the event as time samples (loop current, output and capacitor voltage), for charts (default false)" }),
   })
   .superRefine((v, ctx) => {
     if (!(v.inputAfterV < v.outputV)) ctx.addIssue({ code: "custom", path: ["inputAfterV"], message: "must be below outputV: the input falls at t = 0" });
@@ -89,14 +90,25 @@ export const turnOffMetrics = z.object({
   fallsBelowLoadMinimumS: z.number().optional(),
 });
 
+/** The event as samples from the closed form: ~200 per phase, with the reverse peak, the trip and the turn-off instant among them. */
+export const turnOffWaveformSchema = z
+  .object({
+    timeS: z.array(z.number()).readonly().meta({ description: "from the input's fall, s" }),
+    currentA: z.array(z.number()).readonly().meta({ description: "loop current, positive forward (negative: reverse current through the stage)" }),
+    outputV: z.array(z.number()).readonly(),
+    capacitorV: z.array(z.number()).readonly(),
+    clampStartIndex: z.number().int().optional().meta({ description: "index of the turn-off instant; the clamp phase runs from it on (absent without a clamp phase)" }),
+    pointsPerPhase: z.number().int().meta({ description: "evenly spaced samples per phase (the extrema and event instants come on top)" }),
+  })
+  .meta({ description: "the turn-off event against time (present when waveform was asked for)" });
+
 const head = {
   ...provenance,
   stage: z.object({ kind: z.string(), name: z.string().optional(), partId: z.string().optional() }),
   assumptions: z.array(z.string()),
   rules: ruleSetResultSchema.optional().meta({ description: "verdicts of the named rule set on the event (present when ruleSet was given)" }),
 };
-const common = {
-  ...head,
+const eventFields = {
   loop: z.object({
     regime: z.enum(["under-damped", "critically-damped", "over-damped"]),
     dampingRatio: z.number(),
@@ -113,32 +125,42 @@ const common = {
   end: windowState,
   energies,
   metrics: turnOffMetrics,
+  waveform: turnOffWaveformSchema.optional(),
 };
 
-export const turnOffOutput = z.discriminatedUnion("outcome", [
-  z.object({
-    outcome: z.literal("blocks"),
-    ...common,
-    turnOffS: z.number(),
-    detectS: z.number().optional(),
-    clamp: z
-      .object({
-        clampV: z.number(),
-        currentAtTurnOffA: z.number(),
-        inductiveEnergyJ: z.number().meta({ description: "½·L·I² at turn-off" }),
-        clampedFormulaJ: z.number().meta({ description: "½·L·I²·Vcl/(Vcl − Vs), Vs = output − input at turn-off" }),
-        absorbedJ: z.number().meta({ description: "Vcl·∫|i|dt over the clamp phase, exact loop response" }),
-        durationS: z.number(),
-        avalancheRatingJ: z.number().optional(),
-        withinAvalancheRating: z.boolean().optional(),
-        after: windowState,
-        energies,
-      })
-      .optional(),
-  }),
-  z.object({ outcome: z.literal("does-not-block"), ...common, reason: z.string(), fallsBelowMinS: z.number().optional(), settlesAtV: z.number() }),
-  z.object({ outcome: z.literal("stays-on"), ...common, reason: z.string() }),
-  z.object({ outcome: z.literal("clamp-below-drive"), ...head, reason: z.string(), clampV: z.number(), driveV: z.number(), currentAtTurnOffA: z.number() }),
-  z.object({ outcome: z.literal("invalid-load-line"), ...head, reason: z.string(), path: z.string() }),
-]);
+/** The event's outcomes, with the given head fields (the turnOff result's provenance, or none inside a review). */
+function eventOutcomes<H extends z.ZodRawShape>(h: H) {
+  const common = { ...h, ...eventFields };
+  return z.discriminatedUnion("outcome", [
+    z.object({
+      outcome: z.literal("blocks"),
+      ...common,
+      turnOffS: z.number(),
+      detectS: z.number().optional(),
+      clamp: z
+        .object({
+          clampV: z.number(),
+          currentAtTurnOffA: z.number(),
+          inductiveEnergyJ: z.number().meta({ description: "½·L·I² at turn-off" }),
+          clampedFormulaJ: z.number().meta({ description: "½·L·I²·Vcl/(Vcl − Vs), Vs = output − input at turn-off" }),
+          absorbedJ: z.number().meta({ description: "Vcl·∫|i|dt over the clamp phase, exact loop response" }),
+          durationS: z.number(),
+          avalancheRatingJ: z.number().optional(),
+          withinAvalancheRating: z.boolean().optional(),
+          after: windowState,
+          energies,
+        })
+        .optional(),
+    }),
+    z.object({ outcome: z.literal("does-not-block"), ...common, reason: z.string(), fallsBelowMinS: z.number().optional(), settlesAtV: z.number() }),
+    z.object({ outcome: z.literal("stays-on"), ...common, reason: z.string() }),
+    z.object({ outcome: z.literal("clamp-below-drive"), ...h, reason: z.string(), clampV: z.number(), driveV: z.number(), currentAtTurnOffA: z.number() }),
+    z.object({ outcome: z.literal("invalid-load-line"), ...h, reason: z.string(), path: z.string() }),
+  ]);
+}
+
+export const turnOffOutput = eventOutcomes(head);
 export type TurnOffOutput = z.infer<typeof turnOffOutput>;
+/** The event inside a design review (no provenance of its own). */
+export const turnOffEventOutput = eventOutcomes({});
+export type TurnOffEventOutput = z.infer<typeof turnOffEventOutput>;

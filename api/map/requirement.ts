@@ -1,5 +1,6 @@
 import type { Requirement } from "../../contracts/requirement.js";
 import type { ReviewRequirement } from "../../domain/review/candidate-review.js";
+import type { ReviewTurnOff } from "../../domain/review/review-turn-off.js";
 import { findSupplyClass, type SupplyClass } from "../../domain/review/supply-classes.js";
 import { findTransient, type TransientPulse } from "../../domain/review/transient-library.js";
 import { inputProblem } from "../input-problem.js";
@@ -96,6 +97,29 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
       ...(r.energyPricePerKWh === undefined ? {} : { pricePerKWh: r.energyPricePerKWh }),
       ...(r.battery ? { battery: r.battery } : {}),
       tjMarginK,
+      ...(r.turnOff ? { turnOff: reviewTurnOffOf(r.turnOff, nominalV, assumptions) } : {}),
     },
+  };
+}
+
+/** The review's turn-off event: defaults recorded (a short from the nominal supply; Tj per candidate). */
+function reviewTurnOffOf(t: NonNullable<Requirement["turnOff"]>, nominalV: number, assumptions: string[]): ReviewTurnOff {
+  if (t.inputAfterV === undefined) assumptions.push("turnOff.inputAfterV: 0 V (the input shorted)");
+  if (t.outputV === undefined) assumptions.push(`turnOff.outputV: the nominal supply ${nominalV} V before the event`);
+  if (t.tjC === undefined) assumptions.push("turnOff.tjC: each candidate's worst-case junction temperature over the corners (the highest ambient where no corner solved)");
+  if (t.clampV === undefined) assumptions.push("turnOff.clampV: the blocking element's rated voltage (a lower bound of its breakdown: the energy estimate is conservative)");
+  const outputV = t.outputV ?? nominalV;
+  const inputAfterV = t.inputAfterV ?? 0;
+  if (!(inputAfterV < outputV)) throw inputProblem("invalid-input", ["requirement", "turnOff", "inputAfterV"], `must be below the output voltage before the event (${outputV} V)`);
+  return {
+    inputAfterV,
+    outputV,
+    loopResistanceOhm: t.loop.resistanceOhm,
+    loopInductanceH: t.loop.inductanceH,
+    capacitanceF: t.capacitor.capacitanceF,
+    esrOhm: t.capacitor.esrOhm,
+    ...(t.tjC === undefined ? {} : { tjC: t.tjC }),
+    ...(t.reverseRecoveryChargeC === undefined ? {} : { reverseRecoveryChargeC: t.reverseRecoveryChargeC }),
+    ...(t.clampV === undefined ? {} : { clampV: t.clampV }),
   };
 }

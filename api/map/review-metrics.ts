@@ -1,4 +1,5 @@
 import type { CandidateReview, ReviewRequirement } from "../../domain/review/candidate-review.js";
+import type { ReviewTurnOffResult } from "../../domain/review/review-turn-off.js";
 import type { RuleInput } from "../../domain/rules/rule-model.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
 import { otherAnalysesMetrics } from "./analysis-rules.js";
@@ -64,5 +65,38 @@ export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags
   metrics["reverseTransientVMaxV"] = Math.max(req.reverseV, ...negative);
   const positive = r.transients.filter((t) => t.polarity === "positive").map((t) => t.inputPeakV);
   metrics["transientVMaxV"] = Math.max(req.supplyMaxV, ...positive);
-  return { stageKind: stage.kind, metrics, part: partParameters(stage), unavailable, notRequired: { ...otherAnalysesMetrics(metrics, "review"), ...notRequired } };
+  const part = partParameters(stage);
+  if (r.turnOff !== undefined) turnOffMetrics(r.turnOff, metrics, part, unavailable);
+  const elsewhere = otherAnalysesMetrics(metrics, "review");
+  for (const n of Object.keys(unavailable)) delete elsewhere[n];
+  return { stageKind: stage.kind, metrics, part, unavailable, notRequired: { ...elsewhere, ...notRequired } };
+}
+
+/**
+ * The requirement's turn-off event → the turnOff analysis's metrics (as turnOffRuleInput reads
+ * them): peakReverseCurrentA, absorbedEnergyJ (the clamp phase's Vcl·∫|i|dt; 0 when the current
+ * is back at zero by turn-off or the stage never turns off), eventTjC and the part's avalanche
+ * rating; an absorbed energy without a rating is a gap, not out of scope.
+ */
+function turnOffMetrics(t: ReviewTurnOffResult, metrics: Record<string, number | boolean>, part: Record<string, number>, unavailable: Record<string, string>): void {
+  metrics["eventTjC"] = t.tjC;
+  if (t.avalancheRatingJ !== undefined) part["avalancheEnergyJ"] = t.avalancheRatingJ;
+  else unavailable["part.avalancheEnergyJ"] = "the stage gives no avalanche energy rating (the part's avalancheEnergyJ)";
+  const r = t.result;
+  switch (r.outcome) {
+    case "blocks":
+      metrics["peakReverseCurrentA"] = r.peakReverseCurrentA;
+      metrics["absorbedEnergyJ"] = r.clamp?.absorbedJ ?? 0;
+      break;
+    case "does-not-block":
+    case "stays-on":
+      metrics["peakReverseCurrentA"] = r.peakReverseCurrentA;
+      metrics["absorbedEnergyJ"] = 0;
+      break;
+    case "clamp-below-drive":
+    case "invalid-load-line":
+      unavailable["peakReverseCurrentA"] = `turn-off event ${r.outcome}: ${r.reason}`;
+      unavailable["absorbedEnergyJ"] = `turn-off event ${r.outcome}: ${r.reason}`;
+      break;
+  }
 }

@@ -1,5 +1,6 @@
 import { type BridgeAcOutput, type BridgeElementsInput, bridgeAcInput } from "../../contracts/bridge.js";
 import { analyseBridgeAc, type BridgeAcOutcome } from "../../domain/checks/bridge-ac.js";
+import { AC_WAVEFORM_POINTS } from "../../domain/checks/bridge-ac-waveform.js";
 import { acSaving } from "../../domain/checks/bridge-saving.js";
 import type { RuleSetResult } from "../../domain/rules/rule-model.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
@@ -33,7 +34,7 @@ export const bridgeAc = publicProcedure.input(bridgeAcInput).query(({ input, ctx
       esrOhm,
       load: input.load,
       ambientC: input.ambientC,
-    });
+    }, input.waveform ? { waveformPoints: AC_WAVEFORM_POINTS } : {});
     const rules = set === undefined ? undefined : evaluateRuleSetOverElements(set, bridgeAcElementInputs(elements, result, input.load, input.capacitorRippleRatingA, input.ruleMetrics ?? {}));
     return { result, rules };
   };

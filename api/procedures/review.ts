@@ -10,6 +10,8 @@ import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import type { RuleSetResult } from "../../domain/rules/rule-model.js";
 import { UNSCALED } from "../../domain/stages/scale-stage.js";
 import { resolveStage } from "../map/resolve-stage.js";
+import { controllerTiming } from "../map/reverse-inputs.js";
+import { turnOffEventFields } from "../map/turn-off-output.js";
 import { toReviewRequirement } from "../map/requirement.js";
 import { reviewRuleInput } from "../map/review-metrics.js";
 import { reviewMonteCarlo } from "../map/review-monte-carlo.js";
@@ -34,7 +36,14 @@ export const review = publicProcedure.input(reviewInput).query(({ input, ctx }):
     const stage = resolveStage(c.stage, ctx.catalog, path, assumptions, c.thermal);
     const transientThermal = transientThermalOf(c.transientThermal, stage.model);
     const datasheetMax = c.datasheetMax ? { ...UNSCALED, ...c.datasheetMax } : undefined;
-    const r = reviewCandidate(req.model, { stage: stage.model, transientThermal, ...(datasheetMax ? { datasheetMax } : {}) });
+    const turnOffController = req.model.turnOff ? controllerTiming(stage.spec, stage.model, c.turnOffTiming ?? input.requirement.turnOff?.timing, c.turnOffTiming ? [...path.slice(0, 2), "turnOffTiming"] : ["requirement", "turnOff", "timing"], assumptions) : undefined;
+    const r = reviewCandidate(req.model, {
+      stage: stage.model,
+      transientThermal,
+      ...(datasheetMax ? { datasheetMax } : {}),
+      ...(turnOffController ? { turnOffController } : {}),
+      ...(input.curves ? { turnOffWaveform: true } : {}),
+    });
     const ruleInput = reviewRuleInput(stage.model, req.model, flags, r);
     const rules = evaluateRuleSet(set, ruleInput);
     const { verdict, reason } = verdictOf(r, rules);
@@ -95,6 +104,16 @@ export const review = publicProcedure.input(reviewInput).query(({ input, ctx }):
               conditions: e.curves.conditions,
               load: e.curves.load.map((p) => ({ loadScale: p.loadScale, ...pointRow(p.result) })),
               ambient: e.curves.ambient.map((p) => ({ ambientC: p.ambientC, ...pointRow(p.result) })),
+            },
+          }),
+      ...(e.r.turnOff === undefined
+        ? {}
+        : {
+            turnOff: {
+              tjC: e.r.turnOff.tjC,
+              tjSource: e.r.turnOff.tjSource,
+              ...(e.r.turnOff.avalancheRatingJ === undefined ? {} : { avalancheRatingJ: e.r.turnOff.avalancheRatingJ }),
+              event: turnOffEventFields(e.r.turnOff.result, req.model.turnOff?.outputV ?? 0, e.r.turnOff.waveform),
             },
           }),
       reverse: e.r.reverse,

@@ -1,6 +1,7 @@
 import { type TurnOffOutput, turnOffInput } from "../../contracts/turn-off.js";
-import type { RuleSetResult } from "../../domain/rules/rule-model.js";
-import { type TurnOffOutcome, turnOffEvent } from "../../domain/checks/turn-off-event.js";
+import { turnOffEventFields } from "../map/turn-off-output.js";
+import { type TurnOffModel, turnOffEvent } from "../../domain/checks/turn-off-event.js";
+import { turnOffWaveform } from "../../domain/checks/turn-off-waveform.js";
 import { stageAvalancheEnergyJ } from "../../domain/checks/stage-ratings.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
@@ -22,7 +23,7 @@ export const turnOff = publicProcedure.input(turnOffInput).query(({ input, ctx }
   if (stage.model.kind === "pn-diode" || stage.model.kind === "schottky-diode") {
     if (input.reverseRecoveryChargeC === undefined) assumptions.push("reverseRecoveryChargeC: 0 (an ideal diode without stored charge)");
   }
-  const r = turnOffEvent({
+  const model: TurnOffModel = {
     stage: stage.model,
     outputV: input.outputV,
     inputAfterV: input.inputAfterV,
@@ -37,49 +38,10 @@ export const turnOff = publicProcedure.input(turnOffInput).query(({ input, ctx }
     ...(input.reverseRecoveryChargeC === undefined ? {} : { reverseRecoveryChargeC: input.reverseRecoveryChargeC }),
     ...(input.clampV === undefined ? {} : { clampV: input.clampV }),
     ...(avalancheRatingJ === undefined ? {} : { avalancheRatingJ }),
-  });
+  };
+  const r = turnOffEvent(model);
+  const waveform = input.waveform ? turnOffWaveform(model, r) : undefined;
   const rules = set === undefined ? undefined : evaluateRuleSet(set, turnOffRuleInput(stage.model, r, input.tjC, avalancheRatingJ, input.ruleMetrics ?? {}));
   const head = { modelVersion: MODEL_VERSION, caution: CAUTION, stage: stageLabel(stage.spec, stage.partId), assumptions, ...(rules === undefined ? {} : { rules }) };
-  return toOutput(head, r, input.outputV);
+  return { ...head, ...turnOffEventFields(r, input.outputV, waveform) };
 });
-
-type Head = { modelVersion: string; caution: string; stage: { kind: string; name?: string; partId?: string }; assumptions: string[]; rules?: RuleSetResult };
-
-function toOutput(head: Head, r: TurnOffOutcome, v0: number): TurnOffOutput {
-  switch (r.outcome) {
-    case "clamp-below-drive":
-    case "invalid-load-line":
-      return { ...head, ...r };
-    case "blocks": {
-      const c = r.clamp;
-      const absorbed = c?.absorbedJ ?? 0;
-      const rating = c?.avalancheRatingJ;
-      const after = c?.after ?? r.end;
-      return {
-        ...head,
-        ...r,
-        metrics: {
-          blocksReverseCurrent: true,
-          peakReverseCurrentA: r.peakReverseCurrentA,
-          turnOffS: r.turnOffS,
-          absorbedEnergyJ: absorbed,
-          ...(rating === undefined ? {} : { avalancheRatingJ: rating, avalancheEnergyRatio: absorbed / rating }),
-          outputVoltageLostV: v0 - after.capacitorV,
-        },
-      };
-    }
-    case "does-not-block":
-      return {
-        ...head,
-        ...r,
-        metrics: {
-          blocksReverseCurrent: false,
-          peakReverseCurrentA: r.peakReverseCurrentA,
-          outputVoltageLostV: r.end.voltageLostV,
-          ...(r.fallsBelowMinS === undefined ? {} : { fallsBelowLoadMinimumS: r.fallsBelowMinS }),
-        },
-      };
-    case "stays-on":
-      return { ...head, ...r, metrics: { blocksReverseCurrent: true, peakReverseCurrentA: r.peakReverseCurrentA, outputVoltageLostV: r.end.voltageLostV } };
-  }
-}

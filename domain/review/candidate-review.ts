@@ -2,6 +2,7 @@ import { type ReverseSteadyResult, reverseSteady } from "../checks/reverse-stead
 import { type CornerResult, type CornerSpace, solveCorners, type WorstCase, worstCase } from "../checks/corners.js";
 import { type MissionEnergy, type MissionRow, missionEnergy, type StandbyDrain, standbyDrain } from "../checks/energy.js";
 import { alongProfile, type DriveAtInput, driveAtInput, type ProfileResult, type TransientThermal } from "../checks/start-up.js";
+import type { ControllerTurnOff } from "../checks/reverse-path.js";
 import { blocksReverseCurrent } from "../checks/stage-ratings.js";
 import { thermalSizing, type ThermalSizing } from "../checks/thermal-sizing.js";
 import { type TransientContext, type TransientResult, transientStress } from "../checks/transient-stress.js";
@@ -11,6 +12,7 @@ import { scaleLoad } from "../solve/load-scale.js";
 import { type StageScale, scaleStage } from "../stages/scale-stage.js";
 import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
 import type { TransientPulse } from "./transient-library.js";
+import { type ReviewTurnOff, type ReviewTurnOffResult, reviewTurnOff } from "./review-turn-off.js";
 
 export interface ReviewRequirement {
   readonly supplyMinV: number;
@@ -34,12 +36,19 @@ export interface ReviewRequirement {
   readonly battery?: { readonly capacityAh: number; readonly usableFraction: number };
   /** Margin below the junction limit that thermal sizing holds, K. */
   readonly tjMarginK: number;
+  /** The reverse-current event every candidate is put through (absent: not reviewed). */
+  readonly turnOff?: ReviewTurnOff;
 }
+
 
 export interface ReviewCandidate {
   readonly stage: StageModel;
   readonly datasheetMax?: StageScale;
   readonly transientThermal: TransientThermal;
+  /** The controller's reverse turn-off timing, for stages that turn off on reverse current. */
+  readonly turnOffController?: ControllerTurnOff;
+  /** Also sample the turn-off event (turn-off-waveform.ts), for charts. */
+  readonly turnOffWaveform?: boolean;
 }
 
 export interface CandidateReview {
@@ -52,6 +61,7 @@ export interface CandidateReview {
   readonly energy?: MissionEnergy;
   readonly standby: StandbyDrain;
   readonly blocksReverseCurrent: boolean;
+  readonly turnOff?: ReviewTurnOffResult;
 }
 
 /** Every check of one candidate against the requirement. Pure; deterministic. */
@@ -110,6 +120,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
     stageTjMaxC(cand.stage) - req.tjMarginK,
   );
 
+  const turnOff = req.turnOff ? reviewTurnOff(req.turnOff, { load: req.load, ambientMaxC: req.ambientMaxC, ...(req.loadMinV === undefined ? {} : { loadMinV: req.loadMinV }) }, cand, worst.tjC?.value) : undefined;
   const energy = req.mission ? missionEnergy(cand.stage, req.mission, req.supplyNominalV, req.sourceResistanceOhm, req.load, req.pricePerKWh) : undefined;
   return {
     corners,
@@ -121,6 +132,6 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
     ...(energy ? { energy } : {}),
     standby: standbyDrain(cand.stage, req.loadStandbyA, req.battery),
     blocksReverseCurrent: blocksReverseCurrent(cand.stage),
+    ...(turnOff ? { turnOff } : {}),
   };
 }
-
