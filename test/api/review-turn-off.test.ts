@@ -1,0 +1,74 @@
+import { readFileSync } from "node:fs";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import { procedureInvoker } from "../../adapters/batch/run-batch.js";
+import { projectRoot } from "../../adapters/project-root.js";
+import { reviewOutput } from "../../contracts/review.js";
+import { turnOffOutput } from "../../contracts/turn-off.js";
+import { demoContext } from "../helpers/app.js";
+
+const ctx = demoContext();
+const review = procedureInvoker(ctx)("review");
+const turnOff = procedureInvoker(ctx)("turnOff");
+const example = JSON.parse(readFileSync(join(projectRoot(), "examples/requests/review.json"), "utf8")).input;
+
+describe("review with a turn-off section", () => {
+  it("runs the turnOff analysis per candidate: same event as the procedure, metrics computed, avalanche rules decide", async () => {
+    if (review === undefined || turnOff === undefined) throw new Error("procedures missing");
+    const r = reviewOutput.parse(await review(example));
+    const ideal = r.candidates.find((c) => c.stage.partId === "demo-ideal-diode-60v-3mohm");
+    const t = ideal?.turnOff;
+    if (ideal === undefined || t === undefined) throw new Error("no turn-off result");
+    // Source: the same model through the turnOff procedure (its own example's loop, this Tj).
+    const direct = turnOffOutput.parse(
+      await turnOff({
+        stage: { kind: "catalog-part", partId: "demo-ideal-diode-60v-3mohm" },
+        outputV: r.requirement.supplyNominalV,
+        inputAfterV: 0,
+        loop: example.requirement.turnOff.loop,
+        capacitor: example.requirement.turnOff.capacitor,
+        load: example.requirement.load,
+        loadMinV: example.requirement.loadMinV,
+        tjC: t.tjC,
+      }),
+    );
+    if (direct.outcome !== "blocks" || t.event.outcome !== "blocks") throw new Error(direct.outcome);
+    expect(t.event.peakReverseCurrentA).toBe(direct.peakReverseCurrentA);
+    expect(t.event.clamp?.absorbedJ).toBe(direct.clamp?.absorbedJ);
+    expect(t.tjSource).toBe("worst-corner");
+    expect(t.tjC).toBe(ideal.worst.tjC?.value);
+    expect(t.event.waveform).toBeUndefined(); // only with curves
+    expect(ideal.metrics["absorbedEnergyJ"]).toBe(direct.clamp?.absorbedJ);
+    expect(ideal.metrics["eventTjC"]).toBe(t.tjC);
+    const aval = ideal.rules.verdicts.find((v) => v.ruleId === "avalanche-energy");
+    expect(aval?.outcome).toBe("pass");
+    expect(aval?.values["absorbedEnergyJ"]).toBe(direct.clamp?.absorbedJ);
+    // A part without an avalanche rating that absorbs energy is a gap, not out of scope.
+    const integrated = r.candidates.find((c) => c.stage.partId === "demo-integrated-ideal-diode-5a-36v");
+    expect(integrated?.rules.verdicts.find((v) => v.ruleId === "avalanche-energy")?.notApplicableCode).toBe("missing-value");
+  });
+
+  it("with a rating too small, the avalanche rule fails the candidate; without the section the rules are out of scope", async () => {
+    if (review === undefined) throw new Error("review missing");
+    const stage = { kind: "catalog-part", partId: "demo-ideal-diode-60v-3mohm" };
+    const base = { ...example, candidates: [{ stage }], monteCarlo: undefined };
+    const plain = reviewOutput.parse(await review({ ...base, requirement: { ...example.requirement, turnOff: undefined } }));
+    expect(plain.candidates[0]?.turnOff).toBeUndefined();
+    expect(plain.candidates[0]?.rules.verdicts.find((v) => v.ruleId === "avalanche-energy")?.notApplicableCode).toBe("not-required");
+    // A 200 µH loop (a long harness), 4.7 mF at the output and a slow turn-off (1 ms): the reverse
+    // current reaches tens of amperes and ½·L·I² exceeds the derated 150 mJ rating.
+    const hard = { ...example.requirement, turnOff: { loop: { resistanceOhm: "20 mOhm", inductanceH: "200 uH" }, capacitor: { capacitanceF: "4.7 mF", esrOhm: "20 mOhm" } } };
+    const r = reviewOutput.parse(await review({ ...base, requirement: hard, candidates: [{ stage, turnOffTiming: { reverseThresholdV: "30 mV", turnOffDelayS: "1 ms" } }], curves: true }));
+    const c = r.candidates[0];
+    const e = c?.turnOff?.event;
+    if (c === undefined || e === undefined || e.outcome !== "blocks") throw new Error("no event");
+    const aval = c.rules.verdicts.find((v) => v.ruleId === "avalanche-energy");
+    // Source: the rule's own expression on the numbers it read (150 mJ derated to Tj).
+    const limit = 0.15 * (175 - (c.turnOff?.tjC ?? 0)) / (175 - 25);
+    expect(e.clamp?.absorbedJ ?? 0).toBeGreaterThan(limit);
+    expect(aval?.outcome).toBe("fail");
+    expect(c.verdict).toBe("fail");
+    expect(e.waveform?.timeS.length).toBeGreaterThanOrEqual(399);
+    expect(Math.max(...(e.waveform?.currentA ?? []).map((i) => -i))).toBe(e.peakReverseCurrentA);
+  });
+});
