@@ -10,7 +10,7 @@ import { loadRuleSetStore } from "../rulesets/registry.js";
 import { formatOf } from "./formats.js";
 import { mergeShards } from "./merge.js";
 import type { BatchCounts } from "./run-batch.js";
-import { reportNamer, writeReviewReport } from "../report/write-report.js";
+import { reportNamer, writeBridgeAcReport, writeReviewReport } from "../report/write-report.js";
 import { type RowHook, type Shard, streamBatch } from "./stream-batch.js";
 
 const USAGE = `usage:
@@ -18,7 +18,7 @@ const USAGE = `usage:
                  [--workers N] [--catalog parts.json] [--in-format jsonl|csv] [--out-format jsonl|csv] [--report-dir folder]
   backstop merge --out results.jsonl|.csv shard-0 shard-1 ...
   --shard N takes the index from JOB_COMPLETION_INDEX; "{shard}" in --out is replaced by the index.
-  --report-dir writes each answered review as <id>.html, <id>.md and <id>-charts/*.svg.
+  --report-dir writes each answered review and bridgeAc line as <id>.html, <id>.md and <id>-charts/*.svg.
   exit 0: every row answered; 1: some rows rejected; 2: could not run.`;
 
 class UsageError extends Error {}
@@ -129,8 +129,8 @@ async function batch(rest: string[]): Promise<number> {
   let reports = 0;
   const onRow: RowHook | undefined = reportDir
     ? (row, procedure) => {
-        if (!row.ok || procedure !== "review") return;
-        writeReviewReport(reportDir, nameOf(row.id, row.line), row.result, row.id ?? undefined);
+        if (!row.ok || (procedure !== "review" && procedure !== "bridgeAc")) return;
+        (procedure === "review" ? writeReviewReport : writeBridgeAcReport)(reportDir, nameOf(row.id, row.line), row.result, row.id ?? undefined);
         reports += 1;
       }
     : undefined;
@@ -142,7 +142,7 @@ async function batch(rest: string[]): Promise<number> {
     await pool?.close();
   }
   p.done(counts, outPath);
-  if (reportDir) process.stderr.write(`backstop batch: ${reports} review report(s) -> ${reportDir}\n`);
+  if (reportDir) process.stderr.write(`backstop batch: ${reports} report(s) -> ${reportDir}\n`);
   return counts.failed > 0 ? 1 : 0;
 }
 

@@ -28,7 +28,7 @@ export interface StreamBatchOptions {
   readonly chunkSize?: number;
   /** called for each answered record, in input order, with the procedure its line named (if it parsed that far) */
   readonly onRow?: RowHook | undefined;
-  /** ask every review line for its chart sweeps (`curves: true`), for reports */
+  /** ask every review line for its chart sweeps (`curves: true`) and every bridgeAc line for its period (`waveform: true`), for reports */
   readonly reviewCurves?: boolean | undefined;
 }
 
@@ -37,8 +37,10 @@ function withReviewCurves(rec: Rec): Rec {
   if (!("raw" in rec)) return rec;
   try {
     const v = JSON.parse(rec.raw) as { procedure?: unknown; input?: unknown };
-    if (v.procedure !== "review" || typeof v.input !== "object" || v.input === null || Array.isArray(v.input) || "curves" in v.input) return rec;
-    return { lineNo: rec.lineNo, raw: JSON.stringify({ ...v, input: { ...v.input, curves: true } }) };
+    // A review's report draws its sweeps (curves), a bridgeAc report its period (waveform).
+    const flag = v.procedure === "review" ? "curves" : v.procedure === "bridgeAc" ? "waveform" : undefined;
+    if (flag === undefined || typeof v.input !== "object" || v.input === null || Array.isArray(v.input) || flag in v.input) return rec;
+    return { lineNo: rec.lineNo, raw: JSON.stringify({ ...v, input: { ...v.input, [flag]: true } }) };
   } catch {
     return rec;
   }

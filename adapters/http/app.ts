@@ -13,6 +13,7 @@ import { apiKeyChecker, presentedKey } from "./auth.js";
 import { DEFAULT_HTTP_CONFIG, type HttpConfig } from "./config.js";
 import { createMetrics, type Metrics, routeLabel } from "./metrics.js";
 import { sendProblem } from "./problem.js";
+import { mountBridgeAcReport } from "./bridge-report-route.js";
 import { mountReviewReport } from "./review-report-route.js";
 import { type Env, mountV1 } from "./v1.js";
 
@@ -89,6 +90,7 @@ export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics =
   );
 
   mountReviewReport(app, { ctx, logger, config, pool });
+  mountBridgeAcReport(app, { ctx, logger, config, pool });
   mountV1(app, { ctx, logger, config, metrics, pool });
 
   app.notFound((c) => sendProblem(c, 404, { code: "not-found", message: `no route ${c.req.method} ${c.req.path}` }));

@@ -5,7 +5,7 @@ import { reviewOutput } from "../../contracts/review.js";
 import { callOne, type ItemResult } from "../compute/call.js";
 import type { ComputePool } from "../compute/pool.js";
 import type { Logger } from "../logging/logger.js";
-import { renderReviewReport } from "../report/review-report.js";
+import { type ReportOptions, renderReviewReport } from "../report/review-report.js";
 import type { HttpConfig } from "./config.js";
 import { sendProblem } from "./problem.js";
 import type { Env } from "./v1.js";
@@ -39,9 +39,25 @@ export interface ReviewReportDeps {
  * configured); errors are the same problem+json. The report is rendered from the result alone.
  */
 export function mountReviewReport(app: Hono<Env>, deps: ReviewReportDeps): void {
-  const invoke = procedureInvoker(deps.ctx)("review");
-  if (invoke === undefined) throw new Error("the router has no review procedure");
-  app.post("/v1/review/report", async (c) => {
+  mountProcedureReport(app, deps, {
+    procedure: "review",
+    flag: "curves",
+    render: (result, opts) => renderReviewReport(reviewOutput.parse(result), opts),
+  });
+}
+
+/** What a report route needs: the procedure, the input flag that asks it for chart data, the renderer. */
+export interface ReportRoute {
+  readonly procedure: string;
+  readonly flag: string;
+  readonly render: (result: unknown, opts: ReportOptions) => { readonly html: string; readonly markdown: string };
+}
+
+/** `POST /v1/<procedure>/report` for any procedure with a renderer (the review's route is the pattern). */
+export function mountProcedureReport(app: Hono<Env>, deps: ReviewReportDeps, route: ReportRoute): void {
+  const invoke = procedureInvoker(deps.ctx)(route.procedure);
+  if (invoke === undefined) throw new Error(`the router has no ${route.procedure} procedure`);
+  app.post(`/v1/${route.procedure}/report`, async (c) => {
     let body: unknown;
     try {
       body = JSON.parse(await c.req.text());
@@ -49,11 +65,11 @@ export function mountReviewReport(app: Hono<Env>, deps: ReviewReportDeps): void 
       return sendProblem(c, 400, { code: "malformed-json", message: `the body is not JSON: ${(e as Error).message}` });
     }
     if (typeof body !== "object" || body === null || Array.isArray(body)) {
-      return sendProblem(c, 400, { code: "invalid-input", message: "the body is a review input (a JSON object)", issues: [{ path: [], message: "expected an object" }] });
+      return sendProblem(c, 400, { code: "invalid-input", message: `the body is a ${route.procedure} input (a JSON object)`, issues: [{ path: [], message: "expected an object" }] });
     }
     const { format: field, id: bodyId, ...fields } = body as Record<string, unknown>;
-    // A report draws the load and ambient sweeps: ask the review for them unless the body says otherwise.
-    const input = { curves: true, ...fields };
+    // A report draws the chart data (review: curves; bridgeAc: waveform): ask for it unless the body says otherwise.
+    const input = { [route.flag]: true, ...fields };
     const format = formatOf(c.req.query("format"), field, c.req.header("accept"));
     if (typeof format === "object") {
       return sendProblem(c, 400, { code: "invalid-input", message: `format must be one of ${FORMATS.join(", ")}`, issues: [{ path: ["format"], message: `unknown format "${format.bad}"` }] });
@@ -62,18 +78,18 @@ export function mountReviewReport(app: Hono<Env>, deps: ReviewReportDeps): void 
     let item: ItemResult | undefined;
     const signal = AbortSignal.timeout(deps.config.requestTimeoutMs);
     try {
-      item = deps.pool ? (await deps.pool.call("review", [input], signal))[0] : await callOne(invoke, input);
+      item = deps.pool ? (await deps.pool.call(route.procedure, [input], signal))[0] : await callOne(invoke, input);
     } catch (e) {
       if (!signal.aborted) throw e;
-      return sendProblem(c, 503, { code: "compute-timeout", message: `the review needed more than its ${deps.config.requestTimeoutMs} ms compute budget` }, { "retry-after": "1" });
+      return sendProblem(c, 503, { code: "compute-timeout", message: `the ${route.procedure} call needed more than its ${deps.config.requestTimeoutMs} ms compute budget` }, { "retry-after": "1" });
     }
-    if (item === undefined) throw new Error("the review call returned no item");
+    if (item === undefined) throw new Error(`the ${route.procedure} call returned no item`);
     if (!item.ok) {
-      if (item.internal !== undefined) deps.logger.error({ requestId: c.get("requestId"), err: item.internal }, "review report failed");
+      if (item.internal !== undefined) deps.logger.error({ requestId: c.get("requestId"), err: item.internal }, `${route.procedure} report failed`);
       return sendProblem(c, item.status, item.error);
     }
     if (format === "json") return c.body(JSON.stringify(item.result), 200, { "content-type": "application/json" });
-    const report = renderReviewReport(reviewOutput.parse(item.result), id === undefined ? { svgDir: null } : { id, svgDir: null });
+    const report = route.render(item.result, id === undefined ? { svgDir: null } : { id, svgDir: null });
     return format === "html" ? c.html(report.html) : c.body(report.markdown, 200, { "content-type": "text/markdown; charset=utf-8" });
   });
 }

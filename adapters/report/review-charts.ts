@@ -4,7 +4,7 @@ import { type ChartLimit, type ChartMark, type ChartSeries, type ChartSpec, line
 /** One chart of a report: where it belongs, what it shows, and the SVG document. */
 export interface ReportChart {
   readonly candidateIndex: number;
-  readonly kind: ChartKind;
+  readonly kind: ChartKind | (typeof BRIDGE_CHART_KINDS)[number];
   /** File name of the SVG on its own, unique within the report. */
   readonly file: string;
   readonly title: string;
@@ -12,8 +12,10 @@ export interface ReportChart {
   readonly svg: string;
 }
 
-export const CHART_KINDS = ["drop-vs-current", "loss-vs-current", "tj-vs-current", "tj-vs-ambient", "startup-voltage", "startup-tj"] as const;
+export const CHART_KINDS = ["drop-vs-current", "loss-vs-current", "tj-vs-current", "tj-vs-ambient", "startup-voltage", "startup-tj", "turnoff-current"] as const;
 export type ChartKind = (typeof CHART_KINDS)[number];
+/** The AC bridge report's charts (bridge-report.ts). */
+export const BRIDGE_CHART_KINDS = ["element-current", "voltages"] as const;
 
 /** The metric of the rule vocabulary a chart's y axis shows, for drawing the rules' thresholds. */
 const LIMIT_METRIC: Record<ChartKind, string> = {
@@ -23,6 +25,7 @@ const LIMIT_METRIC: Record<ChartKind, string> = {
   "tj-vs-ambient": "tjWorstC",
   "startup-voltage": "loadVMinV",
   "startup-tj": "tjWorstC",
+  "turnoff-current": "peakReverseCurrentA",
 };
 
 /** Thresholds of the applied rules whose left-hand side is the metric (e.g. `tjWorstC <= …`). */
@@ -64,6 +67,7 @@ export function candidateCharts(c: Candidate, prefix = ""): ReportChart[] {
   };
   if (c.curves !== undefined) curveCharts(c, c.curves, add);
   startUpCharts(c, add);
+  turnOffChart(c, add);
   return out;
 }
 
@@ -130,4 +134,30 @@ function startUpCharts(c: Candidate, add: AddChart): void {
       limits: ruleLimits(c, LIMIT_METRIC["startup-tj"], "°C"),
     });
   }
+}
+
+/** A time axis in s, ms or µs, whichever keeps the largest time between 1 and 1000. */
+export function timeUnit(maxS: number): { readonly label: string; readonly factor: number } {
+  if (maxS < 1e-3) return { label: "µs", factor: 1e6 };
+  if (maxS < 1) return { label: "ms", factor: 1e3 };
+  return { label: "s", factor: 1 };
+}
+
+/** The turn-off event's reverse current against time (present when the review had a turn-off section and curves). */
+function turnOffChart(c: Candidate, add: AddChart): void {
+  const e = c.turnOff?.event;
+  if (e === undefined || !("waveform" in e) || e.waveform === undefined) return;
+  const w = e.waveform;
+  const u = timeUnit(w.timeS.at(-1) ?? 0);
+  const reverse = w.timeS.map((t, k): [number, number] => [t * u.factor, -(w.currentA[k] ?? 0)]);
+  const marks: ChartMark[] = [{ label: `peak ${num(e.peakReverseCurrentA)} A`, x: e.peakReverseTimeS * u.factor, y: e.peakReverseCurrentA }];
+  if (e.outcome === "blocks") marks.push({ label: "turn-off", x: e.turnOffS * u.factor, y: -(w.currentA[w.clampStartIndex ?? w.timeS.length - 1] ?? 0) });
+  const t = c.turnOff;
+  add("turnoff-current", "Turn-off: reverse current against time", `${e.outcome}, Tj ${num(t?.tjC)} °C at the event`, {
+    xLabel: `Time after the input falls (${u.label})`,
+    yLabel: "Reverse current (A)",
+    series: [{ name: "reverse current", points: reverse, markerSpacingPx: 18 }],
+    limits: ruleLimits(c, LIMIT_METRIC["turnoff-current"], "A"),
+    marks,
+  });
 }

@@ -62,11 +62,24 @@ function candidateBlocks(c: Candidate, charts: readonly ReportChart[]): Block[] 
     items: [
       `start-up at the lowest supply: input ${num(su.inputV)} V${su.startMarginV === undefined ? "" : `, start margin ${num(su.startMarginV)} V`}${su.gateSourceV === undefined ? "" : `, gate drive ${num(su.gateSourceV)} V (margin ${num(su.gateDriveMarginV)} V)`}`,
       ...c.startUp.profiles.map((p) => `start-up profile at ${num(p.ambientC)} °C: lowest load voltage ${num(p.result.minLoadV)} V, highest Tj ${num(p.result.maxTjC)} °C, body-diode time ${num(p.result.bodyDiodeTimeS)} s, dropout ${num(p.result.dropoutTimeS)} s (${p.result.thermalModel})`),
+      ...turnOffLines(c),
       ...(c.costTotal === undefined ? [] : [`cost ${num(c.costTotal)}`]),
     ],
   });
   b.push({ kind: "section-end" });
   return b;
+}
+
+/** The requirement's turn-off event for the candidate, in words (the chart draws its waveform). */
+function turnOffLines(c: Candidate): string[] {
+  const t = c.turnOff;
+  if (t === undefined) return [];
+  const e = t.event;
+  const head = `turn-off event (Tj ${num(t.tjC)} °C, ${t.tjSource}): ${e.outcome}`;
+  if (!("metrics" in e)) return [`${head}: ${e.reason}`];
+  const clamp = e.outcome === "blocks" && e.clamp ? `, clamp ${num(e.clamp.clampV)} V absorbs ${num(e.clamp.absorbedJ)} J over ${num(e.clamp.durationS)} s${t.avalancheRatingJ === undefined ? " (no avalanche rating)" : ` (rating ${num(t.avalancheRatingJ)} J at 25 °C)`}` : "";
+  const off = e.outcome === "blocks" ? `, turns off at ${num(e.turnOffS)} s` : "";
+  return [`${head}: peak reverse current ${num(e.peakReverseCurrentA)} A at ${num(e.peakReverseTimeS)} s${off}${clamp}; output loses ${num(e.metrics.outputVoltageLostV)} V`];
 }
 
 function reportBlocks(r: Review, charts: readonly ReportChart[], title: string): Block[] {

@@ -1,4 +1,4 @@
-import { type Candidate, num, type Verdict, valueText } from "./format.js";
+import { num, type Verdict, valueText } from "./format.js";
 
 /** Fail first, then warn, then gaps in the evidence, then pass, then rules out of scope. */
 function group(v: Verdict): number {
@@ -10,7 +10,7 @@ function group(v: Verdict): number {
 }
 
 /** The candidate's verdicts in reading order (stable within a group: the rule set's order). */
-export function orderedVerdicts(c: Candidate): Verdict[] {
+export function orderedVerdicts(c: { readonly rules: { readonly verdicts: readonly Verdict[] } }): Verdict[] {
   return c.rules.verdicts
     .map((v, i) => ({ v, i }))
     .sort((a, b) => group(a.v) - group(b.v) || a.i - b.i)

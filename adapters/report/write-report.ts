@@ -2,7 +2,9 @@ import { mkdirSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { reviewOutput } from "../../contracts/review.js";
 import { slug } from "./format.js";
-import { renderReviewReport } from "./review-report.js";
+import { type ReviewReport, renderReviewReport } from "./review-report.js";
+import { renderBridgeAcReport } from "./bridge-report.js";
+import { bridgeAcOutput } from "../../contracts/bridge.js";
 
 export interface WrittenReport {
   readonly html: string;
@@ -19,7 +21,16 @@ export interface WrittenReport {
  */
 export function writeReviewReport(dir: string, name: string, result: unknown, id?: string | number): WrittenReport {
   const base = slug(name);
-  const report = renderReviewReport(reviewOutput.parse(result), { ...(id === undefined ? {} : { id }), svgDir: `${base}-charts` });
+  return writeReport(dir, base, renderReviewReport(reviewOutput.parse(result), { ...(id === undefined ? {} : { id }), svgDir: `${base}-charts` }));
+}
+
+/** The same for a bridgeAc result: `<name>.html`, `<name>.md`, `<name>-charts/*.svg`. */
+export function writeBridgeAcReport(dir: string, name: string, result: unknown, id?: string | number): WrittenReport {
+  const base = slug(name);
+  return writeReport(dir, base, renderBridgeAcReport(bridgeAcOutput.parse(result), { ...(id === undefined ? {} : { id }), svgDir: `${base}-charts` }));
+}
+
+function writeReport(dir: string, base: string, report: ReviewReport): WrittenReport {
   const svgDir = join(dir, `${base}-charts`);
   mkdirSync(svgDir, { recursive: true });
   let bytes = 0;

@@ -36,7 +36,7 @@ export function acPeriodWaveform(trace: readonly Snapshot[], periodS: number, po
   const nodes = trace.filter((s, i) => i === 0 || s.t > (trace[i - 1]?.t ?? Number.NEGATIVE_INFINITY));
   const keep = new Set<number>();
   const n = Math.max(2, Math.floor(points));
-  if (nodes.length <= n) nodes.forEach((_, i) => keep.add(i));
+  if (nodes.length <= n) for (let i = 0; i < nodes.length; i += 1) keep.add(i);
   else {
     let j = 0;
     for (let k = 0; k < n; k += 1) {

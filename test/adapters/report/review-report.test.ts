@@ -1,6 +1,6 @@
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
-import { DOMParser, type Element } from "@xmldom/xmldom";
+import type { Element } from "@xmldom/xmldom";
 import { beforeAll, describe, expect, it } from "vitest";
 import { procedureInvoker } from "../../../adapters/batch/run-batch.js";
 import { projectRoot } from "../../../adapters/project-root.js";
@@ -8,6 +8,7 @@ import { candidateCharts } from "../../../adapters/report/review-charts.js";
 import { renderReviewReport } from "../../../adapters/report/review-report.js";
 import { type ReviewOutput, reviewOutput } from "../../../contracts/review.js";
 import { demoContext } from "../../helpers/app.js";
+import { axisScales, byClass, parseSvg, pathPoints } from "../../helpers/svg-readback.js";
 
 type Cand = ReviewOutput["candidates"][number];
 const invoke = procedureInvoker(demoContext())("review");
@@ -17,41 +18,11 @@ async function review(input: unknown): Promise<ReviewOutput> {
   return reviewOutput.parse(await invoke({ ...(input as object), curves: true }));
 }
 
-/** Parse as XML; any warning or error of the parser fails the test. */
-function parseSvg(svg: string) {
-  const problems: string[] = [];
-  const doc = new DOMParser({ onError: (level, msg) => problems.push(`${level}: ${msg}`) }).parseFromString(svg, "image/svg+xml");
-  if (problems.length > 0) throw new Error(`SVG does not parse: ${problems.join("; ")}`);
-  return doc;
-}
-
-const byClass = (root: Element, cls: string) => Array.from(root.getElementsByTagName("*")).filter((e) => (e.getAttribute("class") ?? "").split(" ").includes(cls));
-
-/** The axis scale as drawn: the pixel→value line through the first and last tick of each axis. */
-function axisScales(svg: Element) {
-  const axis = (cls: string, attr: "x1" | "y1") => {
-    const g = byClass(svg, cls)[0];
-    if (!g) throw new Error(`no ${cls}`);
-    const ticks = Array.from(g.getElementsByTagName("line")).map((t) => ({ px: Number(t.getAttribute(attr)), v: Number(t.getAttribute("data-value")) }));
-    const a = ticks[0];
-    const b = ticks[ticks.length - 1];
-    if (!a || !b || a.px === b.px) throw new Error(`${cls} has too few ticks`);
-    const perPx = (b.v - a.v) / (b.px - a.px);
-    return { invert: (px: number) => a.v + (px - a.px) * perPx, perPx: Math.abs(perPx) };
-  };
-  return { x: axis("x-axis", "x1"), y: axis("y-axis", "y1") };
-}
-
-/** Vertices of the path's subpaths (d3-shape emits M and L commands only for a linear curve). */
-function pathPoints(d: string): [number, number][] {
-  return [...d.matchAll(/[ML](-?[\d.]+),(-?[\d.]+)/g)].map((m) => [Number(m[1]), Number(m[2])]);
-}
-
 /** The report writes a true minus sign. */
 const minus = (v: number) => String(v).replace("-", "−");
 
 /** What each chart must show, computed here from the review result without the renderer. */
-function expectedSeries(c: Cand, kind: string): Map<string, [number, number][]> {
+function expectedSeries(c: Cand, kind: string, xUnit = "s"): Map<string, [number, number][]> {
   const stable = (o: string) => o === "solved" || o === "over-temperature";
   const curves = c.curves;
   if (curves === undefined) throw new Error("the review was asked for curves");
@@ -74,6 +45,14 @@ function expectedSeries(c: Cand, kind: string): Map<string, [number, number][]> 
       ]);
     case "startup-tj":
       return new Map(profiles.map((p) => [`Tj, ${minus(p.ambientC)} °C`, p.result.samples.map((s) => [s.timeS, s.tjC] as [number, number])] as [string, [number, number][]]));
+    case "turnoff-current": {
+      const e = c.turnOff?.event;
+      const w = e && "waveform" in e ? e.waveform : undefined;
+      if (w === undefined) throw new Error("no turn-off waveform");
+      // The x axis is in the unit its label names: µs, ms or s.
+      const f = xUnit === "µs" ? 1e6 : xUnit === "ms" ? 1e3 : 1;
+      return new Map([["reverse current", w.timeS.map((t, k) => [t * f, -(w.currentA[k] ?? 0)] as [number, number])]]);
+    }
     default:
       throw new Error(`unknown chart ${kind}`);
   }
@@ -86,6 +65,7 @@ const LIMIT_METRIC: Record<string, string> = {
   "tj-vs-ambient": "tjWorstC",
   "startup-voltage": "loadVMinV",
   "startup-tj": "tjWorstC",
+  "turnoff-current": "peakReverseCurrentA",
 };
 
 describe("design-review report", () => {
@@ -99,13 +79,14 @@ describe("design-review report", () => {
 
   it("every SVG parses as XML, standalone, with axis labels that carry units", () => {
     const rep = renderReviewReport(result, { id });
-    // Six charts per candidate: three against current, Tj against ambient, two of the start-up profile.
-    expect(rep.svgs).toHaveLength(6 * result.candidates.length);
+    // Seven charts per candidate: three against current, Tj against ambient, two of the start-up
+    // profile, the turn-off reverse current (the example has a turn-off section).
+    expect(rep.svgs).toHaveLength(7 * result.candidates.length);
     for (const s of rep.svgs) {
       const svg = parseSvg(s.svg).documentElement;
       if (!svg) throw new Error("empty SVG");
       expect(svg.getAttribute("xmlns")).toBe("http://www.w3.org/2000/svg");
-      for (const cls of ["x-label", "y-label"]) expect(byClass(svg, cls)[0]?.textContent).toMatch(/\((A|V|W|°C|s)\)$/);
+      for (const cls of ["x-label", "y-label"]) expect(byClass(svg, cls)[0]?.textContent).toMatch(/\((A|V|W|°C|s|ms|µs)\)$/);
       expect(s.svg).not.toMatch(/NaN|Infinity|undefined/);
     }
   });
@@ -117,7 +98,7 @@ describe("design-review report", () => {
         const svg = parseSvg(chart.svg).documentElement;
         if (!svg) throw new Error("empty SVG");
         const { x, y } = axisScales(svg);
-        const expected = expectedSeries(c, chart.kind);
+        const expected = expectedSeries(c, chart.kind, /\((\w+|µs)\)$/.exec(byClass(svg, "x-label")[0]?.textContent ?? "")?.[1]);
         const groups = byClass(svg, "series");
         expect(groups.map((g) => g.getAttribute("data-series"))).toEqual([...expected.keys()]);
         for (const g of groups) {
@@ -153,6 +134,14 @@ describe("design-review report", () => {
         expect(Number(mark?.getAttribute("data-y"))).toBe(w.value);
         expect(Number(mark?.getAttribute("data-x"))).toBe(c.corners[w.corner]?.currentA);
       }
+    }
+    // The turn-off chart marks the reported peak, at its time.
+    for (const c of result.candidates) {
+      const ch = candidateCharts(c).find((x) => x.kind === "turnoff-current");
+      const e = c.turnOff?.event;
+      if (ch === undefined || e === undefined || !("peakReverseCurrentA" in e)) throw new Error("no turn-off chart");
+      const mark = byClass(parseSvg(ch.svg).documentElement as Element, "mark")[0];
+      expect(Number(mark?.getAttribute("data-y"))).toBe(e.peakReverseCurrentA);
     }
     expect(checked).toBeGreaterThan(1000);
   });
