@@ -12,6 +12,7 @@ const example = JSON.parse(readFileSync(join(projectRoot(), "examples", "request
 // One candidate keeps these adapter checks quick; the renderer's own tests use the whole example.
 const input: Record<string, unknown> = { ...example.input, candidates: (example.input["candidates"] as unknown[]).slice(0, 1) };
 delete input["monteCarlo"];
+const bridge = JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "bridgeAc.json"), "utf8")) as { id: string; input: Record<string, unknown> };
 
 describe("review report over HTTP", () => {
   const { app } = testApp();
@@ -25,7 +26,7 @@ describe("review report over HTTP", () => {
     const page = await html.text();
     expect(page).toMatch(/^<!DOCTYPE html>/);
     expect(page).toContain("<h1>Design review van</h1>");
-    expect(page.match(/<svg /g)).toHaveLength(6);
+    expect(page.match(/<svg /g)).toHaveLength(7); // six curves and start-up charts, the turn-off current
     const md = await post({ ...input, format: "markdown" });
     expect(md.headers.get("content-type")).toMatch(/^text\/markdown/);
     const text = await md.text();
@@ -36,6 +37,19 @@ describe("review report over HTTP", () => {
     expect(await viaAccept.text()).toBe(text);
     const json = await post(input, "/v1/review/report?format=json");
     expect(reviewOutput.safeParse(await json.json()).success).toBe(true);
+  });
+
+  it("POST /v1/bridgeAc/report: the bridge page with its period charts; Markdown; 400 naming the field", async () => {
+    const html = await post(bridge.input, "/v1/bridgeAc/report?id=irrigation");
+    expect(html.status).toBe(200);
+    const page = await html.text();
+    expect(page).toContain("<h1>AC bridge irrigation</h1>");
+    expect(page.match(/<svg /g)).toHaveLength(4);
+    const md = await post({ ...bridge.input, format: "markdown" }, "/v1/bridgeAc/report");
+    expect(await md.text()).toMatch(/^# AC bridge\n/);
+    const bad = await post({ ...bridge.input, capacitanceF: -1 }, "/v1/bridgeAc/report");
+    expect(bad.status).toBe(400);
+    expect(((await bad.json()) as { issues: { path: (string | number)[] }[] }).issues.map((i) => i.path.join("."))).toContain("capacitanceF");
   });
 
   it("rejects bad input with 400 naming the field, and an unknown format", async () => {
@@ -64,13 +78,17 @@ describe("review reports in batch (--report-dir)", () => {
         JSON.stringify({ id: "op", procedure: "operatingPoint", input: op }),
         JSON.stringify({ id: "bad", procedure: "review", input: { ...input, candidates: [] } }),
         JSON.stringify({ procedure: "review", input }),
+        JSON.stringify({ id: "bridge", procedure: "bridgeAc", input: bridge.input }),
       ].join("\n"),
     );
     const reports = join(dir, "reports");
     const code = await main(["batch", "--in", inFile, "--out", join(dir, "out.jsonl"), "--report-dir", reports]);
     expect(code).toBe(1); // the bad line is rejected; the others are answered
-    expect(readdirSync(reports).sort()).toEqual(["line-4-charts", "line-4.html", "line-4.md", "van-12v-charts", "van-12v.html", "van-12v.md"]);
-    expect(readdirSync(join(reports, "van-12v-charts"))).toHaveLength(6);
+    expect(readdirSync(reports).sort()).toEqual(["bridge-charts", "bridge.html", "bridge.md", "line-4-charts", "line-4.html", "line-4.md", "van-12v-charts", "van-12v.html", "van-12v.md"]);
+    expect(readdirSync(join(reports, "van-12v-charts"))).toHaveLength(7);
+    // The bridgeAc line: its own page with the four period charts (bridge and compareTo).
+    expect(readdirSync(join(reports, "bridge-charts"))).toHaveLength(4);
+    expect(readFileSync(join(reports, "bridge.html"), "utf8")).toContain("<h1>AC bridge bridge</h1>");
     const md = readFileSync(join(reports, "van-12v.md"), "utf8");
     for (const link of md.matchAll(/\]\(([^)]+\.svg)\)/g)) expect(existsSync(join(reports, link[1] ?? ""))).toBe(true);
     expect(readFileSync(join(reports, "van-12v.html"), "utf8")).toContain("Design review van/12v");

@@ -8,7 +8,9 @@ import { PNG } from "pngjs";
 import { describe, expect, it } from "vitest";
 import { procedureInvoker } from "../../../adapters/batch/run-batch.js";
 import { projectRoot } from "../../../adapters/project-root.js";
+import { renderBridgeAcReport } from "../../../adapters/report/bridge-report.js";
 import { renderReviewReport } from "../../../adapters/report/review-report.js";
+import { bridgeAcOutput } from "../../../contracts/bridge.js";
 import { reviewOutput } from "../../../contracts/review.js";
 import { demoContext } from "../../helpers/app.js";
 import { toolAvailable } from "../../helpers/external-tool.js";
@@ -36,15 +38,22 @@ function pixelStats(png: Buffer) {
 
 describe("report in headless Chromium", () => {
   // Chromium as the oracle of "it renders": a browser engine lays the page out and paints it.
-  it.skipIf(!hasChromium)("renders without console errors; every chart is laid out; the screenshot is not blank; a failing candidate's first verdict is its failing rule", async () => {
+  it.skipIf(!hasChromium)("renders the review and the bridge pages without console errors; every chart is laid out; the screenshot is not blank; a failing candidate's first verdict is its failing rule", async () => {
     const line = JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "review.json"), "utf8")) as { id: string; input: unknown };
     const invoke = procedureInvoker(demoContext())("review");
     if (invoke === undefined) throw new Error("review procedure missing");
-    const result = reviewOutput.parse(await invoke(line.input));
+    // With curves: every chart kind of the review, the turn-off reverse current included.
+    const result = reviewOutput.parse(await invoke({ ...(line.input as object), curves: true }));
     const rep = renderReviewReport(result, { id: line.id });
     const dir = mkdtempSync(join(tmpdir(), "backstop-report-"));
     const htmlFile = join(dir, "report.html");
     writeFileSync(htmlFile, rep.html);
+    const bridgeLine = JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "bridgeAc.json"), "utf8")) as { id: string; input: object };
+    const bridgeInvoke = procedureInvoker(demoContext())("bridgeAc");
+    if (bridgeInvoke === undefined) throw new Error("bridgeAc procedure missing");
+    const bridgeRep = renderBridgeAcReport(bridgeAcOutput.parse(await bridgeInvoke({ ...bridgeLine.input, waveform: true })), { id: bridgeLine.id });
+    const bridgeFile = join(dir, "bridge.html");
+    writeFileSync(bridgeFile, bridgeRep.html);
     const browser = await chromium.launchPersistentContext(join(dir, "profile"), { executablePath: chromiumPath(), headless: true, args: ARGS, viewport: { width: 1360, height: 1400 } });
     try {
       const page = await browser.newPage();
@@ -79,6 +88,12 @@ describe("report in headless Chromium", () => {
       expect(layout.failingFirstRule).toBe(rule?.ruleId);
       expect(layout.failingFirstOutcome).toBe("fail");
       for (const k of Object.keys(rule?.values ?? {})) expect(layout.failingFirstValues).toContain(k);
+      // The bridge page, in the same browser.
+      await page.goto(pathToFileURL(bridgeFile).href, { waitUntil: "load" });
+      const bridgeBoxes = await Promise.all((await page.locator("svg.bs-chart").all()).map((c) => c.boundingBox()));
+      expect(problems).toEqual([]);
+      expect(bridgeBoxes.filter((b) => b !== null && b.width >= 600 && b.height >= 300).length).toBe(bridgeRep.svgs.length);
+      expect(await page.locator("table.elements").count()).toBe(2);
       const stats = pixelStats(shot);
       expect(stats.width).toBe(1360);
       // Blank (one tone) has zero variance; the first screen of this report measured variance ~1500 and
