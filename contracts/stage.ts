@@ -68,6 +68,7 @@ export const stageSpec = z
         quiescentA: quantity("A", "quiescent current", { ge: 0, le: 1 }),
         maxVoltageV: volts("absolute maximum input voltage"),
         reverseRatingV: volts("reverse voltage the switch blocks (absent: not rated for reverse)").optional(),
+        avalancheEnergyJ: quantity("J", "single-pulse energy its internal FET or clamp absorbs at 25 °C start (for the turn-off rules)", { gt: 0, le: 1e6 }).optional(),
         blocksReverseCurrent: z.boolean().optional().meta({ description: "turns off on reverse current (default: true when regulatedDropV > 0, i.e. an ideal-diode type)" }),
         currentLimitA: quantity("A", "current limit", { gt: 0, le: 1e4 }).optional(),
         tjMaxC: temperatureC("maximum junction temperature"),

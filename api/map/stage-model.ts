@@ -70,6 +70,7 @@ export function toStageModel(spec: StageSpec, thermal: ThermalPath, path: (strin
         maxVoltageV: spec.maxVoltageV,
         ...(spec.reverseRatingV === undefined ? {} : { reverseRatingV: spec.reverseRatingV }),
         blocksReverseCurrent: blocksReverse(spec, path, assumptions),
+        ...(spec.avalancheEnergyJ === undefined ? {} : { avalancheEnergyJ: spec.avalancheEnergyJ }),
         ...(spec.currentLimitA === undefined ? {} : { currentLimitA: spec.currentLimitA }),
         tjMaxC: spec.tjMaxC,
         thermal,

@@ -56,7 +56,7 @@ export function stageAvalancheEnergyJ(stage: StageModel): number | undefined {
     case "nfet-ideal-diode":
       return stage.mosfet.avalancheEnergyJ;
     case "integrated-switch":
-      return undefined;
+      return stage.avalancheEnergyJ;
   }
 }
 

@@ -92,6 +92,8 @@ export interface IntegratedSwitchStage {
   readonly reverseRatingV?: number;
   /** Whether the switch turns off on reverse current (ideal-diode type) or conducts both ways. */
   readonly blocksReverseCurrent: boolean;
+  /** Energy its internal FET or clamp absorbs in one pulse at 25 °C start, J; absent: not rated. */
+  readonly avalancheEnergyJ?: number;
   readonly currentLimitA?: number;
   readonly tjMaxC: number;
   readonly thermal: ThermalPath;

@@ -43,9 +43,15 @@ describe("review with a turn-off section", () => {
     const aval = ideal.rules.verdicts.find((v) => v.ruleId === "avalanche-energy");
     expect(aval?.outcome).toBe("pass");
     expect(aval?.values["absorbedEnergyJ"]).toBe(direct.clamp?.absorbedJ);
-    // A part without an avalanche rating that absorbs energy is a gap, not out of scope.
+    // The integrated switch's own rating decides for it.
     const integrated = r.candidates.find((c) => c.stage.partId === "demo-integrated-ideal-diode-5a-36v");
-    expect(integrated?.rules.verdicts.find((v) => v.ruleId === "avalanche-energy")?.notApplicableCode).toBe("missing-value");
+    expect(integrated?.rules.verdicts.find((v) => v.ruleId === "avalanche-energy")?.outcome).toBe("pass");
+    // A part without an avalanche rating that absorbs energy is a gap, not out of scope.
+    const part = ctx.catalog.find("demo-integrated-ideal-diode-5a-36v");
+    if (part === undefined) throw new Error("demo part missing");
+    const { avalancheEnergyJ: _rating, ...unrated } = part.stage as typeof part.stage & { avalancheEnergyJ?: number };
+    const gap = reviewOutput.parse(await review({ ...example, candidates: [{ stage: unrated, turnOffTiming: example.candidates[3].turnOffTiming }], monteCarlo: undefined }));
+    expect(gap.candidates[0]?.rules.verdicts.find((v) => v.ruleId === "avalanche-energy")?.notApplicableCode).toBe("missing-value");
   });
 
   it("with a rating too small, the avalanche rule fails the candidate; without the section the rules are out of scope", async () => {
