@@ -1,4 +1,5 @@
-import { unit as parseUnit, type Unit } from "mathjs";
+import type { Unit } from "mathjs";
+import mathjs from "mathjs/lib/browser/math.js";
 import { z } from "zod";
 
 /**
@@ -27,18 +28,38 @@ function normaliseUnitText(text: string): string {
     .trim();
 }
 
-function toFieldUnit(raw: string, fieldUnit: string): { ok: true; value: number } | { ok: false; message: string } {
+type Converted = { ok: true; value: number } | { ok: false; message: string };
+
+/**
+ * Parsed strings, per field unit: a request repeats the same few spellings ("12 V", "85 degC"), and
+ * mathjs's unit parser costs ~10 µs a call, more than the operating point itself. A pure function of
+ * (text, unit), so a cache; bounded: cleared when it holds CACHE_LIMIT entries.
+ */
+const converted = new Map<string, Converted>();
+const CACHE_LIMIT = 10_000;
+
+function toFieldUnit(raw: string, fieldUnit: string): Converted {
+  const key = `${fieldUnit}\u0000${raw}`;
+  const hit = converted.get(key);
+  if (hit !== undefined) return hit;
+  const out = convert(raw, fieldUnit);
+  if (converted.size >= CACHE_LIMIT) converted.clear();
+  converted.set(key, out);
+  return out;
+}
+
+function convert(raw: string, fieldUnit: string): Converted {
   const text = normaliseUnitText(raw);
   let parsed: Unit;
   try {
-    parsed = parseUnit(text);
+    parsed = mathjs.unit(text);
   } catch {
     return { ok: false, message: `cannot read "${raw}" as a value with a unit (expected something like "1.5 ${fieldUnit}")` };
   }
   if (parsed.units.length === 0) {
     return { ok: false, message: `"${raw}" has no unit: give a number in ${fieldUnit} or a value with a unit` };
   }
-  if (!parsed.equalBase(parseUnit(fieldUnit))) {
+  if (!parsed.equalBase(mathjs.unit(fieldUnit))) {
     return { ok: false, message: `"${raw}" is not a quantity of the kind ${fieldUnit} measures (wrong dimension)` };
   }
   return { ok: true, value: parsed.toNumber(fieldUnit) };

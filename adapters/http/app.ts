@@ -41,9 +41,16 @@ export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics =
     const requestId = incoming !== undefined && REQUEST_ID.test(incoming) ? incoming : randomUUID();
     c.set("requestId", requestId);
     const started = performance.now();
-    await next();
+    // Set before the handler builds its response, so it is built once with them; a handler that
+    // returns a ready Response (tRPC's) gets them after (that copies the response).
+    const closing = !isReady();
     c.header("x-request-id", requestId);
-    if (!isReady()) c.header("connection", "close");
+    if (closing) c.header("connection", "close");
+    await next();
+    if (c.res.headers.get("x-request-id") !== requestId) {
+      c.header("x-request-id", requestId);
+      if (closing) c.header("connection", "close");
+    }
     metrics.countRequest(routeLabel(c.req.path), c.res.status);
     logger.info({ requestId, method: c.req.method, path: c.req.path, status: c.res.status, durationMs: Math.round((performance.now() - started) * 1000) / 1000 }, "request");
   });
@@ -55,10 +62,15 @@ export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics =
     return sendProblem(c, 401, { code: "unauthorized", message: "a valid API key is required (Authorization: Bearer <key> or X-API-Key)" }, { "www-authenticate": 'Bearer realm="backstop"' });
   });
 
-  const limit = bodyLimit({
-    maxSize: config.maxBodyBytes,
-    onError: (c) => sendProblem(c, 413, { code: "payload-too-large", message: `the request body exceeds ${config.maxBodyBytes} bytes (BACKSTOP_MAX_BODY_BYTES)` }),
-  });
+  const tooLarge = (c: import("hono").Context<Env>) => sendProblem(c, 413, { code: "payload-too-large", message: `the request body exceeds ${config.maxBodyBytes} bytes (BACKSTOP_MAX_BODY_BYTES)` });
+  const streamedLimit = bodyLimit({ maxSize: config.maxBodyBytes, onError: tooLarge });
+  // A declared length is checked from the header alone (hono's bodyLimit would first turn the body
+  // into a web stream, a third of a small request's cost); a streamed body is counted as it comes.
+  const limit: import("hono").MiddlewareHandler<Env> = async (c, next) => {
+    const length = c.req.header("content-length");
+    if (length !== undefined && c.req.header("transfer-encoding") === undefined) return Number(length) > config.maxBodyBytes ? tooLarge(c) : next();
+    return streamedLimit(c, next);
+  };
   app.use("/trpc/*", limit);
   app.use("/v1/*", limit);
 

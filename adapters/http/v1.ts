@@ -33,9 +33,9 @@ export function mountV1(app: Hono<Env>, deps: V1Deps): void {
 
   /** Run the inputs in order within the request's compute budget: in the pool (hard stop) or here (checked between items). */
   async function execute(path: string, inputs: unknown[], adapter: Adapter, requestId: string): Promise<ItemResult[]> {
-    const signal = AbortSignal.timeout(config.requestTimeoutMs);
     let items: ItemResult[];
     if (pool) {
+      const signal = AbortSignal.timeout(config.requestTimeoutMs);
       const size = Math.max(1, Math.min(256, Math.ceil(inputs.length / pool.threads)));
       const slices: unknown[][] = [];
       for (let i = 0; i < inputs.length; i += size) slices.push(inputs.slice(i, i + size));
@@ -50,8 +50,9 @@ export function mountV1(app: Hono<Env>, deps: V1Deps): void {
       if (invoke === undefined) throw new Error(`no procedure ${path}`);
       items = [];
       let lastYield = performance.now();
+      const deadline = lastYield + config.requestTimeoutMs;
       for (const input of inputs) {
-        if (signal.aborted) throw new ComputeTimeout();
+        if (performance.now() > deadline) throw new ComputeTimeout();
         items.push(await callOne(invoke, input));
         if (performance.now() - lastYield > 10) {
           await yieldToLoop(); // keep probes and other requests answered during a long bulk call

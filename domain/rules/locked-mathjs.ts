@@ -1,4 +1,5 @@
-import { all, create, type MathNode } from "mathjs";
+import type { MathNode } from "mathjs";
+import mathjs from "mathjs/lib/browser/math.js";
 
 /**
  * A dedicated mathjs instance, used only to parse. Its parse function is taken first, then the
@@ -7,8 +8,8 @@ import { all, create, type MathNode } from "mathjs";
  * expressions are never evaluated by mathjs: the walked, whitelisted tree is compiled to closures
  * over numbers (sandbox.ts), so the lock is a second wall behind the whitelist.
  */
-if (all === undefined) throw new Error("mathjs: the full factory set is missing");
-const instance = create(all);
+// The single-file build's `create` is bound to its full factory set: a fresh, separate instance.
+const instance = mathjs.create();
 const parseOnce: (text: string) => MathNode = instance.parse;
 
 const refuse = (name: string) => () => {
