@@ -17,7 +17,8 @@ export function errorBodyOf(err: unknown): ErrorBody {
     return { code: "invalid-input", message: `invalid input at ${where}`, issues };
   }
   if (cause instanceof InputProblem) return { code: cause.code, message: cause.message, issues: cause.issues };
-  if (err instanceof TRPCError && err.code === "NOT_FOUND") return { code: "unknown-procedure", message: err.message, issues: [] };
-  if (err instanceof TRPCError && err.code !== "INTERNAL_SERVER_ERROR") return { code: "invalid-input", message: err.message, issues: [] };
+  if (err instanceof TRPCError && err.code === "NOT_FOUND") return { code: "unknown-procedure", message: err.message, issues: [{ path: ["procedure"], message: err.message }] };
+  // a body tRPC could not read (not JSON, a bad batch): the fault is the input as a whole
+  if (err instanceof TRPCError && err.code !== "INTERNAL_SERVER_ERROR") return { code: "invalid-input", message: err.message, issues: [{ path: [], message: err.message }] };
   return { code: "internal", message: "internal error: the request was not completed (logged on the server)", issues: [] };
 }

@@ -84,6 +84,35 @@ async function* csvRecords(input: Readable, procedure: string | undefined): Asyn
 }
 
 /**
+ * A chunk in the pool; if its task fails (the worker thread threw or died), each record is retried
+ * alone, so only the records that fail again are reported (as internal errors) and the run goes on.
+ */
+async function linesInPool(pool: ComputePool, todo: { lineNo: number; raw: string }[]): Promise<BatchOutputLine[]> {
+  try {
+    return await pool.lines(todo);
+  } catch {
+    const out: BatchOutputLine[] = [];
+    for (const r of todo) {
+      try {
+        out.push(...(await pool.lines([r])));
+      } catch (e) {
+        out.push({ id: idOfRaw(r.raw), line: r.lineNo, ok: false, error: { code: "internal", message: `the worker thread failed on this record: ${(e as Error).message}`.slice(0, 500), issues: [] } });
+      }
+    }
+    return out;
+  }
+}
+
+function idOfRaw(raw: string): string | number | null {
+  try {
+    const id = (JSON.parse(raw) as { id?: unknown }).id;
+    return typeof id === "string" || typeof id === "number" ? id : null;
+  } catch {
+    return null;
+  }
+}
+
+/**
  * The batch engine: stream records in (JSON Lines or CSV), answer each with the router (in worker
  * threads when a pool is given), write one output record per input record in input order. Memory
  * stays bounded: at most `2 × threads` chunks are in flight.
@@ -100,7 +129,7 @@ export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
   const answer = async (chunk: Rec[]): Promise<BatchOutputLine[]> => {
     const todo = chunk.filter((r): r is { lineNo: number; raw: string } => "raw" in r);
     let done: BatchOutputLine[];
-    if (o.pool) done = todo.length > 0 ? await o.pool.lines(todo) : [];
+    if (o.pool) done = todo.length > 0 ? await linesInPool(o.pool, todo) : [];
     else {
       done = [];
       for (const r of todo) done.push(await processLine(r.raw, r.lineNo, invoker as NonNullable<typeof invoker>));

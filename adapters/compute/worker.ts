@@ -21,8 +21,25 @@ export async function call({ path, inputs }: { path: string; inputs: unknown[] }
   return out;
 }
 
+/**
+ * Test hook for the fault suite (test/reliability): with BACKSTOP_TEST_WORKER_FAULT set to "throw"
+ * or "crash", a record whose text holds FAULT_MARKER makes this thread throw from the task, or die
+ * (an uncaught error outside it). Unset in production; the marker is not a field of any contract.
+ */
+const FAULT = process.env.BACKSTOP_TEST_WORKER_FAULT;
+const FAULT_MARKER = "__backstop_test_worker_fault__";
+
 /** Batch: raw JSON lines with their line numbers → one output record each, in order. */
 export async function lines({ records }: { records: { raw: string; lineNo: number }[] }) {
+  if (FAULT !== undefined && records.some((r) => r.raw.includes(FAULT_MARKER))) {
+    if (FAULT === "crash") {
+      setImmediate(() => {
+        throw new Error("test fault: the worker thread dies");
+      });
+      await new Promise(() => undefined); // never answers; the thread's death rejects the task
+    }
+    throw new Error("test fault: the worker thread throws");
+  }
   const out = [];
   for (const r of records) out.push(await processLine(r.raw, r.lineNo, invoker));
   return out;

@@ -10,6 +10,10 @@ export interface HttpConfig {
   readonly maxTrpcBatch: number;
   /** compute budget of one /v1 request, ms (503 compute-timeout past it) */
   readonly requestTimeoutMs: number;
+  /** a client must send the request headers within this, ms (408 and the connection closed) */
+  readonly headersTimeoutMs: number;
+  /** a client must send the whole request (headers and body) within this, ms (408 and closed) */
+  readonly receiveTimeoutMs: number;
   /** accepted API keys; undefined: auth off */
   readonly apiKeys: readonly string[] | undefined;
 }
@@ -40,6 +44,8 @@ export function httpConfigFromEnv(env: NodeJS.ProcessEnv = process.env): HttpCon
     maxBulkItems: positiveInt(env, "BACKSTOP_MAX_BULK_ITEMS", 10_000),
     maxTrpcBatch: positiveInt(env, "BACKSTOP_MAX_TRPC_BATCH", 100),
     requestTimeoutMs: positiveInt(env, "BACKSTOP_REQUEST_TIMEOUT_MS", 30_000),
+    headersTimeoutMs: positiveInt(env, "BACKSTOP_HEADERS_TIMEOUT_MS", 10_000),
+    receiveTimeoutMs: positiveInt(env, "BACKSTOP_RECEIVE_TIMEOUT_MS", 30_000),
     apiKeys: apiKeysFromEnv(env),
   };
 }

@@ -41,7 +41,15 @@ if (config.apiKeys === undefined) logger.warn("API-key auth is OFF: set BACKSTOP
 let draining = false;
 const app = createApp({ ctx: { catalog, ruleSets }, logger, config, metrics: createMetrics(), pool, isReady: () => !draining });
 
-const server = serve({ fetch: app.fetch, port, hostname: process.env.HOST ?? "0.0.0.0" }, (info) => {
+// A slow or stalled client cannot hold a connection: headers and the whole request have deadlines
+// (node checks them every connectionsCheckingInterval, so that is kept well below the deadlines).
+const headersTimeout = Math.min(config.headersTimeoutMs, config.receiveTimeoutMs);
+const serverOptions = {
+  headersTimeout,
+  requestTimeout: config.receiveTimeoutMs,
+  connectionsCheckingInterval: Math.max(50, Math.min(1000, Math.floor(headersTimeout / 4))),
+};
+const server = serve({ fetch: app.fetch, port, hostname: process.env.HOST ?? "0.0.0.0", serverOptions }, (info) => {
   logger.info(
     { port: info.port, catalog: catalogPath, parts: catalog.list().length, ruleSets: ruleSets.list().map((s) => s.stamp.id), rulesRefused: ruleSets.refused().length, workers: pool?.threads ?? 0, auth: config.apiKeys !== undefined },
     "backstop listening",

@@ -84,7 +84,7 @@ export function mountV1(app: Hono<Env>, deps: V1Deps): void {
       return sendProblem(c, 404, { code: "unknown-procedure", message: `no procedure "${path}"`, issues: [{ path: ["procedure"], message: "unknown procedure" }] });
     }
     const body = await readJson(c.req.raw);
-    if (!body.ok) return sendProblem(c, 400, { code: "malformed-json", message: body.message });
+    if (!body.ok) return sendProblem(c, 400, { code: "malformed-json", message: body.message, issues: [{ path: [], message: body.message }] });
     let inputs: unknown[];
     if (bulk) {
       if (!Array.isArray(body.value)) return sendProblem(c, 400, { code: "invalid-input", message: "a bulk body is a JSON array of inputs", issues: [{ path: [], message: "expected an array" }] });

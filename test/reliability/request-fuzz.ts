@@ -1,0 +1,93 @@
+import { readdirSync, readFileSync } from "node:fs";
+import { join } from "node:path";
+import fc from "fast-check";
+import { projectRoot } from "../../adapters/project-root.js";
+
+/** The example request of every procedure (examples/requests/*.json), by procedure. */
+export function exampleInputs(): Map<string, unknown> {
+  const dir = join(projectRoot(), "examples", "requests");
+  const out = new Map<string, unknown>();
+  for (const f of readdirSync(dir).filter((f) => f.endsWith(".json")).sort()) {
+    const c = JSON.parse(readFileSync(join(dir, f), "utf8")) as { procedure: string; input: unknown };
+    out.set(c.procedure, c.input);
+  }
+  return out;
+}
+
+type Path = (string | number)[];
+
+/** Every path to a node of `v` (the root excluded), depth first, in key order. */
+export function pathsOf(v: unknown, at: Path = []): Path[] {
+  const out: Path[] = [];
+  if (Array.isArray(v)) v.forEach((x, i) => out.push([...at, i], ...pathsOf(x, [...at, i])));
+  else if (typeof v === "object" && v !== null) for (const [k, x] of Object.entries(v)) out.push([...at, k], ...pathsOf(x, [...at, k]));
+  return out;
+}
+
+export const MUTATIONS = ["type", "sign", "magnitude", "wrong-unit", "missing", "extra", "huge-string", "deep-nesting"] as const;
+export type Mutation = (typeof MUTATIONS)[number];
+
+const DEEP = "__fuzz_deep_nesting__";
+const DEPTH = 10_000;
+const typeSwaps = [null, true, "text", 7, [], {}, [1, 2], { kind: "nothing" }];
+const magnitudes = [1e300, -1e300, 1e-300, 0, Number.MAX_VALUE, 5e15, -0, 2 ** 53 + 1];
+const wrongUnits = ["3 kg", "5 m/s", "2 V", "1 A", "4 s", "7 degC", "12 ohm", "1 J", "2 K/W", "banana", "1e999 V", "NaN V", "-Infinity A", ""];
+
+/** A mutation of one node, as an arbitrary: the kind, the node index and the replacement picks. */
+export const mutationArb = fc.record({ kind: fc.constantFrom(...MUTATIONS), node: fc.nat(), pick: fc.nat() });
+
+function getAt(v: unknown, p: Path): unknown {
+  let x = v;
+  for (const k of p) x = (x as Record<string | number, unknown>)[k];
+  return x;
+}
+
+/** The JSON text of `input` with one node mutated as `m` says. */
+export function mutatedBody(input: unknown, m: { kind: Mutation; node: number; pick: number }): string {
+  const copy = structuredClone(input) as Record<string, unknown>;
+  const paths = pathsOf(copy);
+  if (paths.length === 0) return JSON.stringify(copy);
+  const path = paths[m.node % paths.length] as Path;
+  const parent = getAt(copy, path.slice(0, -1)) as Record<string | number, unknown> | unknown[];
+  const key = path.at(-1) as string | number;
+  const old = (parent as Record<string | number, unknown>)[key];
+  const set = (v: unknown) => {
+    (parent as Record<string | number, unknown>)[key] = v;
+  };
+  const pick = <T>(xs: readonly T[]): T => xs[m.pick % xs.length] as T;
+  switch (m.kind) {
+    case "type":
+      set(pick(typeSwaps.filter((t) => typeof t !== typeof old || Array.isArray(t) !== Array.isArray(old))));
+      break;
+    case "sign":
+      if (typeof old === "number") set(old === 0 ? -1 : -old);
+      else if (typeof old === "string") set(`-${old}`);
+      else set(-1);
+      break;
+    case "magnitude": {
+      const x = pick(magnitudes);
+      set(typeof old === "string" && /\d/.test(old) ? old.replace(/^-?[\d.]+(e-?\d+)?/i, String(x)) : x);
+      break;
+    }
+    case "wrong-unit":
+      set(pick(wrongUnits));
+      break;
+    case "missing":
+      if (Array.isArray(parent)) parent.splice(key as number, 1);
+      else delete (parent as Record<string, unknown>)[key as string];
+      break;
+    case "extra":
+      if (typeof old === "object" && old !== null && !Array.isArray(old)) (old as Record<string, unknown>).unexpectedField = pick([1, "x", null, { a: 1 }]);
+      else copy.unexpectedField = 1;
+      break;
+    case "huge-string":
+      set(pick(["x".repeat(200_000), `${"1".repeat(100_000)} V`, "\u0000".repeat(10_000), "😀".repeat(50_000)]));
+      break;
+    case "deep-nesting":
+      set(DEEP);
+      break;
+  }
+  const text = JSON.stringify(copy);
+  const nested = pick([`${"[".repeat(DEPTH)}${"]".repeat(DEPTH)}`, `${'{"a":'.repeat(DEPTH)}1${"}".repeat(DEPTH)}`]);
+  return text.replace(`"${DEEP}"`, nested);
+}
