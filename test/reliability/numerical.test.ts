@@ -19,7 +19,9 @@ const SEED = 4_242;
 function nonFinite(v: unknown, at = "", out: string[] = []): string[] {
   if (typeof v === "number") {
     if (!Number.isFinite(v)) out.push(`${at}=${v}`);
-  } else if (Array.isArray(v)) v.forEach((x, i) => nonFinite(x, `${at}[${i}]`, out));
+  } else if (Array.isArray(v)) {
+    for (let i = 0; i < v.length; i += 1) nonFinite(v[i], `${at}[${i}]`, out);
+  }
   else if (typeof v === "object" && v !== null) for (const [k, x] of Object.entries(v)) nonFinite(x, `${at}.${k}`, out);
   return out;
 }

@@ -19,7 +19,9 @@ type Path = (string | number)[];
 /** Every path to a node of `v` (the root excluded), depth first, in key order. */
 export function pathsOf(v: unknown, at: Path = []): Path[] {
   const out: Path[] = [];
-  if (Array.isArray(v)) v.forEach((x, i) => out.push([...at, i], ...pathsOf(x, [...at, i])));
+  if (Array.isArray(v)) {
+    for (let i = 0; i < v.length; i += 1) out.push([...at, i], ...pathsOf(v[i], [...at, i]));
+  }
   else if (typeof v === "object" && v !== null) for (const [k, x] of Object.entries(v)) out.push([...at, k], ...pathsOf(x, [...at, k]));
   return out;
 }

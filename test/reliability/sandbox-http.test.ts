@@ -71,7 +71,7 @@ const ATTACKS = [
   "tjWorstC'' <= 1",
   "tjWorstC <= 1 ? 2 : 3",
   "`1` <= 1",
-  "${tjWorstC} <= 1",
+  ["$", "{tjWorstC} <= 1"].join(""), // a template placeholder
   "tjWorstC <= 1\u0000",
   "tj\u0057orstC <= 1 and tjWorstC.a",
   "",
