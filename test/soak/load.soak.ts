@@ -1,0 +1,109 @@
+import { type ChildProcess, spawn } from "node:child_process";
+import { readFileSync } from "node:fs";
+import { connect } from "node:net";
+import { join } from "node:path";
+import autocannon from "autocannon";
+import { afterAll, describe, expect, it } from "vitest";
+import { projectRoot } from "../../adapters/project-root.js";
+
+/**
+ * Soak (npm run soak): the built server on loopback under 60 s of mixed procedures at 64
+ * connections from this process (the server is its own process), with 100 stalled connections
+ * opened on the way. Zero errors and zero non-2xx; the resident memory after warm-up grows by at
+ * most 10 %; every stalled connection is cut by the header deadline.
+ */
+const SECONDS = Number(process.env.BACKSTOP_SOAK_SECONDS ?? 60);
+const WARMUP_S = Math.min(15, SECONDS / 4);
+const example = (name: string) => JSON.stringify((JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", `${name}.json`), "utf8")) as { input: unknown }).input);
+const op = (k: number) => ({ stage: { kind: "catalog-part", partId: ["demo-schottky-10a-60v", "demo-pfet-40v-12mohm", "demo-ideal-diode-60v-3mohm"][k % 3] }, supplyV: 12 + (k % 5), load: { kind: "constant-current", currentA: 0.5 + (k % 9) * 0.5 }, ambientC: -40 + (k % 12) * 10 });
+const json = { "content-type": "application/json" };
+const REQUESTS = [
+  ...Array.from({ length: 6 }, (_, k) => ({ method: "POST" as const, path: "/v1/operatingPoint", headers: json, body: JSON.stringify(op(k)) })),
+  ...Array.from({ length: 4 }, (_, k) => ({ method: "POST" as const, path: "/trpc/operatingPoint", headers: json, body: JSON.stringify(op(k + 7)) })),
+  { method: "POST" as const, path: "/v1/operatingPoint/bulk", headers: json, body: JSON.stringify(Array.from({ length: 50 }, (_, k) => op(k))) },
+  { method: "POST" as const, path: "/v1/rules.evaluate", headers: json, body: example("rules.evaluate") },
+  { method: "POST" as const, path: "/trpc/rules.evaluate", headers: json, body: example("rules.evaluate") },
+  { method: "POST" as const, path: "/v1/turnOff", headers: json, body: example("turnOff") },
+  { method: "POST" as const, path: "/v1/holdUp", headers: json, body: example("holdUp") },
+  { method: "POST" as const, path: "/v1/oring", headers: json, body: example("oring") },
+  { method: "POST" as const, path: "/v1/bridgeDc", headers: json, body: example("bridgeDc") },
+  { method: "POST" as const, path: "/v1/review", headers: json, body: example("review") },
+  { method: "GET" as const, path: "/readyz" },
+  { method: "GET" as const, path: "/v1" },
+];
+
+async function rssBytes(base: string): Promise<number> {
+  const text = await (await fetch(`${base}/metrics`)).text();
+  const m = /^backstop_process_resident_memory_bytes (\d+(?:\.\d+)?(?:e\+\d+)?)$/m.exec(text);
+  if (!m) throw new Error("no resident memory in /metrics");
+  return Number(m[1]);
+}
+
+describe("soak: mixed load on the built server", () => {
+  let child: ChildProcess | undefined;
+  afterAll(() => {
+    if (child?.exitCode === null) child.kill("SIGKILL");
+  });
+
+  it(`${SECONDS} s at 64 connections: zero errors, memory flat after warm-up, stalled connections cut`, async () => {
+    const c = spawn("node", [join(projectRoot(), "dist", "adapters", "http", "main.js")], {
+      env: { ...process.env, PORT: "0", HOST: "127.0.0.1", LOG_LEVEL: "warn", BACKSTOP_HEADERS_TIMEOUT_MS: "2000" },
+      stdio: ["ignore", "pipe", "inherit"],
+    });
+    child = c;
+    let text = "";
+    const port = await new Promise<number>((resolve) => c.stdout?.on("data", (d: Buffer) => {
+      text += String(d);
+      const m = /localhost:(\d+)/.exec(text);
+      if (m) resolve(Number(m[1]));
+    }));
+    const base = `http://127.0.0.1:${port}`;
+    const samples: { t: number; rss: number }[] = [];
+    const t0 = performance.now();
+    const sampler = setInterval(() => {
+      void rssBytes(base).then((rss) => samples.push({ t: (performance.now() - t0) / 1000, rss }), () => undefined);
+    }, 2000);
+    // 100 connections that send half a header and stall, opened a third of the way in
+    const stalled: Promise<number>[] = [];
+    const opener = setTimeout(() => {
+      for (let i = 0; i < 100; i += 1) {
+        stalled.push(
+          new Promise((resolve) => {
+            const started = performance.now();
+            const s = connect(port, "127.0.0.1", () => s.write("POST /v1/operatingPoint HTTP/1.1\r\nHost: 127.0.0.1\r\n"));
+            s.on("error", () => undefined);
+            s.resume(); // read the 408, so the end of the stream is seen
+            s.on("close", () => resolve(performance.now() - started));
+            setTimeout(() => s.destroy(), 15_000).unref();
+          }),
+        );
+      }
+    }, (SECONDS * 1000) / 3);
+    const result = await autocannon({ url: base, connections: 64, duration: SECONDS, requests: REQUESTS, timeout: 30 });
+    clearInterval(sampler);
+    clearTimeout(opener);
+    const cut = await Promise.all(stalled);
+    if (process.env.BACKSTOP_REPORT) console.log(`stalled: ${cut.map((x) => Math.round(x)).sort((a, b) => a - b).join(" ")}`);
+
+    const total = result.requests.total;
+    console.log(
+      `soak: ${total} requests in ${SECONDS} s (${Math.round(result.requests.average)}/s), p99 ${result.latency.p99} ms, errors ${result.errors}, timeouts ${result.timeouts}, non-2xx ${result.non2xx}; ` +
+        `RSS ${samples.map((s) => Math.round(s.rss / 2 ** 20)).join(" ")} MB; stalled connections closed after ${Math.round(Math.max(...cut))} ms at most`,
+    );
+    expect(total).toBeGreaterThan(SECONDS * 50);
+    expect(result.errors).toBe(0);
+    expect(result.timeouts).toBe(0);
+    expect(result.non2xx).toBe(0);
+    // memory: mean of the last three samples against the mean of the first three after warm-up
+    const after = samples.filter((s) => s.t >= WARMUP_S);
+    expect(after.length).toBeGreaterThanOrEqual(6);
+    const mean = (xs: { rss: number }[]) => xs.reduce((a, s) => a + s.rss, 0) / xs.length;
+    const growth = mean(after.slice(-3)) / mean(after.slice(0, 3)) - 1;
+    console.log(`soak: resident memory growth after warm-up ${(growth * 100).toFixed(1)} %`);
+    expect(growth).toBeLessThanOrEqual(0.1);
+    expect(cut).toHaveLength(100);
+    expect(Math.max(...cut)).toBeLessThan(10_000);
+    c.kill("SIGTERM");
+    expect(await new Promise((r) => c.on("exit", (code) => r(code)))).toBe(0);
+  }, (SECONDS + 120) * 1000);
+});

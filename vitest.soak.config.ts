@@ -1,0 +1,11 @@
+import { defineConfig } from "vitest/config";
+
+/** npm run soak: the slow reliability tests (test/soak/*.soak.ts), against the built server. */
+export default defineConfig({
+  test: {
+    include: ["test/soak/**/*.soak.ts"],
+    globalSetup: ["test/helpers/build-once.ts"],
+    testTimeout: 300_000,
+    reporters: ["default"],
+  },
+});
