@@ -84,15 +84,17 @@ interface Load {
 }
 /** autocannon in its own process (see lib/load-driver.ts). */
 function drive(base: string, bodies: { path: string; body: string }[], connections: number, durationS: number, warmupS = 1): Promise<Load> {
-  const spec = JSON.stringify({ url: base, connections, durationS, warmupS, bodies, timeoutS: 30 });
-  return new Promise((resolve, reject) => {
+  const specDir = mkdtempSync(join(tmpdir(), "backstop-load-"));
+  const spec = join(specDir, "spec.json");
+  writeFileSync(spec, JSON.stringify({ url: base, connections, durationS, warmupS, bodies, timeoutS: 30 }));
+  return new Promise<Load>((resolve, reject) => {
     const child = spawn(process.execPath, [dist("bench", "lib", "load-driver.js"), spec], { stdio: ["ignore", "pipe", "inherit"] });
     let out = "";
     child.stdout.on("data", (d: Buffer) => {
       out += String(d);
     });
     child.once("exit", (code) => (code === 0 ? resolve(JSON.parse(out.trim().split("\n").at(-1) ?? "{}") as Load) : reject(new Error(`load driver exited ${code}`))));
-  });
+  }).finally(() => rmSync(specDir, { recursive: true, force: true }));
 }
 
 function runNode(args: string[], env: Record<string, string> = {}): Promise<{ code: number | null; stdout: string; stderr: string; wallMs: number }> {

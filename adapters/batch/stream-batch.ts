@@ -3,7 +3,7 @@ import type { Readable } from "node:stream";
 import { parse } from "csv-parse";
 import type { Context } from "../../api/context.js";
 import { procedureInvoker } from "../../api/procedure-registry.js";
-import type { ComputePool } from "../compute/pool.js";
+import type { ComputePool, FormattedLine, LinesFormat } from "../compute/pool.js";
 import { csvRowToLine, type Format, outputFormatter } from "./formats.js";
 import { type BatchCounts, type BatchOutputLine, processLine } from "./run-batch.js";
 
@@ -87,21 +87,24 @@ async function* csvRecords(input: Readable, procedure: string | undefined): Asyn
  * A chunk in the pool; if its task fails (the worker thread threw or died), each record is retried
  * alone, so only the records that fail again are reported (as internal errors) and the run goes on.
  */
-async function linesInPool(pool: ComputePool, todo: { lineNo: number; raw: string }[]): Promise<BatchOutputLine[]> {
+async function linesInPool(pool: ComputePool, todo: { lineNo: number; raw: string }[], fmt: Formatter, format: LinesFormat): Promise<FormattedLine[]> {
   try {
-    return await pool.lines(todo);
+    return await pool.lines(todo, format);
   } catch {
-    const out: BatchOutputLine[] = [];
+    const out: FormattedLine[] = [];
     for (const r of todo) {
       try {
-        out.push(...(await pool.lines([r])));
+        out.push(...(await pool.lines([r], format)));
       } catch (e) {
-        out.push({ id: idOfRaw(r.raw), line: r.lineNo, ok: false, error: { code: "internal", message: `the worker thread failed on this record: ${(e as Error).message}`.slice(0, 500), issues: [] } });
+        const failed: BatchOutputLine = { id: idOfRaw(r.raw), line: r.lineNo, ok: false, error: { code: "internal", message: `the worker thread failed on this record: ${(e as Error).message}`.slice(0, 500), issues: [] } };
+        out.push({ ok: false, text: fmt.line(failed), ...(format.withRecords ? { record: failed } : {}) });
       }
     }
     return out;
   }
 }
+
+type Formatter = ReturnType<typeof outputFormatter>;
 
 function idOfRaw(raw: string): string | number | null {
   try {
@@ -124,18 +127,20 @@ export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
   const invoker = o.pool ? undefined : procedureInvoker(o.ctx);
   const chunkSize = o.chunkSize ?? 64;
   const maxInFlight = Math.max(2, 2 * (o.pool?.threads ?? 1));
-  const queue: { recs: Rec[]; outs: Promise<BatchOutputLine[]> }[] = [];
+  const queue: { recs: Rec[]; outs: Promise<FormattedLine[]> }[] = [];
+  const withRecords = o.onRow !== undefined;
+  const written = (out: BatchOutputLine): FormattedLine => ({ ok: out.ok, text: fmt.line(out), ...(withRecords ? { record: out } : {}) });
 
-  const answer = async (chunk: Rec[]): Promise<BatchOutputLine[]> => {
+  const answer = async (chunk: Rec[]): Promise<FormattedLine[]> => {
     const todo = chunk.filter((r): r is { lineNo: number; raw: string } => "raw" in r);
-    let done: BatchOutputLine[];
-    if (o.pool) done = todo.length > 0 ? await linesInPool(o.pool, todo) : [];
+    let done: FormattedLine[];
+    if (o.pool) done = todo.length > 0 ? await linesInPool(o.pool, todo, fmt, { outFormat: o.outFormat, procedure: o.procedure, withRecords }) : [];
     else {
       done = [];
-      for (const r of todo) done.push(await processLine(r.raw, r.lineNo, invoker as NonNullable<typeof invoker>));
+      for (const r of todo) done.push(written(await processLine(r.raw, r.lineNo, invoker as NonNullable<typeof invoker>)));
     }
     let k = 0;
-    return chunk.map((r) => ("out" in r ? r.out : (done[k++] as BatchOutputLine)));
+    return chunk.map((r) => ("out" in r ? written(r.out) : (done[k++] as FormattedLine)));
   };
   const enqueue = (c: Rec[]) => {
     const p = answer(c);
@@ -143,17 +148,17 @@ export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
     queue.push({ recs: c, outs: p });
   };
   const flushHead = async () => {
-    const head = queue.shift() as { recs: Rec[]; outs: Promise<BatchOutputLine[]> };
+    const head = queue.shift() as { recs: Rec[]; outs: Promise<FormattedLine[]> };
     const outs = await head.outs;
     let text = "";
     for (const out of outs) {
       counts.lines += 1;
       if (out.ok) counts.ok += 1;
       else counts.failed += 1;
-      text += fmt.line(out);
+      text += out.text;
     }
     if (text) await o.write(text);
-    if (o.onRow) for (const [i, out] of outs.entries()) await o.onRow(out, procedureOf(head.recs[i] as Rec));
+    if (o.onRow) for (const [i, out] of outs.entries()) await o.onRow(out.record as BatchOutputLine, procedureOf(head.recs[i] as Rec));
     o.onProgress?.(counts);
   };
 

@@ -1,6 +1,7 @@
 import { existsSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { Piscina } from "piscina";
+import type { Format } from "../batch/formats.js";
 import type { BatchOutputLine } from "../batch/run-batch.js";
 import type { ItemResult } from "./call.js";
 
@@ -11,10 +12,25 @@ export function workerFile(): string | undefined {
   return file.endsWith(".js") && existsSync(file) && import.meta.url.endsWith(".js") ? file : undefined;
 }
 
+/** One batch output record, already written out: whether it was answered, its text, and the record itself when asked for. */
+export interface FormattedLine {
+  readonly ok: boolean;
+  readonly text: string;
+  readonly record?: BatchOutputLine;
+}
+
+/** How batch records come back from the threads: the output format, and whether the records too (for a row hook). */
+export interface LinesFormat {
+  readonly outFormat: Format;
+  readonly procedure?: string | undefined;
+  readonly withRecords?: boolean;
+}
+
 export interface ComputePool {
   readonly threads: number;
   call(path: string, inputs: unknown[], signal?: AbortSignal): Promise<ItemResult[]>;
-  lines(records: { raw: string; lineNo: number }[], signal?: AbortSignal): Promise<BatchOutputLine[]>;
+  /** batch records → each one's output text in `format` (formatted in the thread), in order */
+  lines(records: { raw: string; lineNo: number }[], format: LinesFormat, signal?: AbortSignal): Promise<FormattedLine[]>;
   close(): Promise<void>;
 }
 
@@ -27,7 +43,7 @@ export function createComputePool(opts: { threads: number; catalogPath: string; 
   return {
     threads: opts.threads,
     call: (path, inputs, signal) => pool.run({ path, inputs }, options("call", signal)) as Promise<ItemResult[]>,
-    lines: (records, signal) => pool.run({ records }, options("lines", signal)) as Promise<BatchOutputLine[]>,
+    lines: (records, format, signal) => pool.run({ records, ...format }, options("lines", signal)) as Promise<FormattedLine[]>,
     close: () => pool.destroy(),
   };
 }

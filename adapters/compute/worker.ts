@@ -1,5 +1,6 @@
 import { workerData } from "node:worker_threads";
 import { procedureInvoker } from "../../api/procedure-registry.js";
+import { type Format, outputFormatter } from "../batch/formats.js";
 import { processLine } from "../batch/run-batch.js";
 import { loadCatalogFile } from "../catalog/file-catalog.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
@@ -29,8 +30,20 @@ export async function call({ path, inputs }: { path: string; inputs: unknown[] }
 const FAULT = process.env.BACKSTOP_TEST_WORKER_FAULT;
 const FAULT_MARKER = "__backstop_test_worker_fault__";
 
-/** Batch: raw JSON lines with their line numbers → one output record each, in order. */
-export async function lines({ records }: { records: { raw: string; lineNo: number }[] }) {
+const formatters = new Map<string, ReturnType<typeof outputFormatter>>();
+
+/**
+ * Batch: raw JSON lines with their line numbers → one output record each, in order, written out
+ * here in the output format (the main thread only joins the texts: serialising in the threads
+ * keeps the main thread, which reads and writes, from being the bottleneck).
+ */
+export async function lines({ records, outFormat, procedure, withRecords }: { records: { raw: string; lineNo: number }[]; outFormat: Format; procedure?: string | undefined; withRecords?: boolean }) {
+  const key = `${outFormat}:${procedure ?? ""}`;
+  let fmt = formatters.get(key);
+  if (fmt === undefined) {
+    fmt = outputFormatter(outFormat, procedure);
+    formatters.set(key, fmt);
+  }
   if (FAULT !== undefined && records.some((r) => r.raw.includes(FAULT_MARKER))) {
     if (FAULT === "crash") {
       setImmediate(() => {
@@ -41,6 +54,9 @@ export async function lines({ records }: { records: { raw: string; lineNo: numbe
     throw new Error("test fault: the worker thread throws");
   }
   const out = [];
-  for (const r of records) out.push(await processLine(r.raw, r.lineNo, invoker));
+  for (const r of records) {
+    const o = await processLine(r.raw, r.lineNo, invoker);
+    out.push(withRecords ? { ok: o.ok, text: fmt.line(o), record: o } : { ok: o.ok, text: fmt.line(o) });
+  }
   return out;
 }

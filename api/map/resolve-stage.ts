@@ -5,6 +5,9 @@ import type { PartsCatalog } from "../context.js";
 import { inputProblem } from "../input-problem.js";
 import { toStageModel } from "./stage-model.js";
 
+/** Mapped models of catalog parts (immutable records), per part and request path. */
+const catalogModels = new WeakMap<object, Map<string, { model: StageModel; assumptions: readonly string[] }>>();
+
 export interface ResolvedStage {
   readonly spec: StageSpec;
   readonly model: StageModel;
@@ -25,6 +28,21 @@ export function resolveStage(
   if (input.kind === "catalog-part") {
     const part = catalog.find(input.partId);
     if (part === undefined) throw inputProblem("unknown-part", [...path, "partId"], `no part "${input.partId}" in the parts catalog`);
+    if (thermalOverride === undefined && input.thermal === undefined) {
+      // a catalog part with its own thermal path maps to the same model every time (the diode fit
+      // included): map it once per path and replay the defaults it recorded
+      const key = path.join("\u0000");
+      const perPart = catalogModels.get(part) ?? new Map<string, { model: StageModel; assumptions: readonly string[] }>();
+      catalogModels.set(part, perPart);
+      let hit = perPart.get(key);
+      if (hit === undefined) {
+        const recorded: string[] = [];
+        hit = { model: toStageModel(part.stage, part.stage.thermal, [...path], recorded), assumptions: recorded };
+        if (perPart.size < 64) perPart.set(key, hit);
+      }
+      assumptions.push(...hit.assumptions);
+      return { spec: part.stage, model: hit.model, partId: part.id };
+    }
     const thermal = thermalOverride ?? input.thermal ?? part.stage.thermal;
     return { spec: part.stage, model: toStageModel(part.stage, thermal, [...path], assumptions), partId: part.id };
   }

@@ -1,8 +1,9 @@
 /**
  * The load generator, run as its own process (so it does not share an event loop with the server
- * or the bench): autocannon, programmatic, against one loopback URL. Reads a JSON spec from argv[2],
+ * or the bench): autocannon, programmatic, against one loopback URL. Reads a JSON spec from the file argv[2],
  * prints one JSON line with the figures.
  */
+import { readFileSync } from "node:fs";
 import autocannon from "autocannon";
 
 interface Spec {
@@ -15,7 +16,8 @@ interface Spec {
   readonly timeoutS?: number;
 }
 
-const spec = JSON.parse(process.argv[2] ?? "{}") as Spec;
+// the spec is a file (a bulk body is too large for the command line)
+const spec = JSON.parse(readFileSync(process.argv[2] ?? "", "utf8")) as Spec;
 const requests = spec.bodies.map((b) => ({ method: "POST" as const, path: b.path, body: b.body, headers: { "content-type": "application/json" } }));
 
 function run(durationS: number) {
