@@ -14,7 +14,7 @@ import { join } from "node:path";
 import { type BridgeAcModel, solveBridgeAcAt, steadyStateOf } from "../domain/checks/bridge-ac.js";
 import type { BridgeElements } from "../domain/checks/bridge-element.js";
 import { activeElement, demoPn, diodeElement, uniform } from "../test/helpers/bridge-parts.js";
-import { bridgeNetlist, reduceBridgeRows, type SpiceBridge } from "../test/helpers/bridge-spice.js";
+import { bridgeNetlist, reduceBridgeRows, type SpiceBridge, spiceBridgeOf } from "../test/helpers/bridge-spice.js";
 
 const T25 = 298.15;
 const temps = { line1High: T25, line2High: T25, line1Low: T25, line2Low: T25 };
@@ -24,20 +24,7 @@ function model(elements: BridgeElements, leakageInductanceH: number): BridgeAcMo
 }
 
 function spice(m: BridgeAcModel, periods: number, switchOnOhm?: number): SpiceBridge {
-  return {
-    sourceRmsV: m.sourceRmsV,
-    frequencyHz: m.frequencyHz,
-    sourceResistanceOhm: m.sourceResistanceOhm,
-    leakageInductanceH: m.leakageInductanceH,
-    capacitanceF: m.capacitanceF,
-    esrOhm: m.esrOhm,
-    loadOhm: 20,
-    diode: demoPn,
-    ...(switchOnOhm === undefined ? {} : { switchOnOhm }),
-    tempC: 25,
-    periods,
-    maxStepFraction: 1 / 2000,
-  };
+  return spiceBridgeOf(m, demoPn, periods, switchOnOhm);
 }
 
 /** ngspice in batch mode in a scratch folder; returns the rows and the wall time of the process. */

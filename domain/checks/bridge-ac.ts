@@ -1,5 +1,5 @@
 import { cToK, kToC } from "../physics/constants.js";
-import type { AcBridgeCircuit, AcSourceAndFilter, ForwardLaw, PairLaws, Snapshot } from "../solve/ac-bridge-circuit.js";
+import { type AcBridgeCircuit, type AcSourceAndFilter, type ForwardLaw, type PairLaws, type Snapshot, sourceAndFilterOf } from "../solve/ac-bridge-circuit.js";
 import { integratePeriod, type PeriodIntegrals } from "../solve/ac-bridge-period.js";
 import { fmt } from "../solve/electrical-point.js";
 import { SEARCH_ABOVE_LIMIT_K } from "../solve/electrothermal-point.js";
@@ -222,13 +222,7 @@ function buildCircuit(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, num
   });
   const constant = allFixed ? pairs(0) : undefined;
   return {
-    sourceRmsV: m.sourceRmsV,
-    frequencyHz: m.frequencyHz,
-    sourceResistanceOhm: m.sourceResistanceOhm,
-    leakageInductanceH: m.leakageInductanceH,
-    capacitanceF: m.capacitanceF,
-    esrOhm: m.esrOhm,
-    load: m.load,
+    ...sourceAndFilterOf(m),
     pairLaws: constant !== undefined ? () => constant : pairs,
   };
 }

@@ -31,6 +31,19 @@ export interface AcSourceAndFilter {
   readonly load: LoadModel;
 }
 
+/** Just the source-and-filter fields of a larger model (the circuit carries nothing else of it). */
+export function sourceAndFilterOf(m: AcSourceAndFilter): AcSourceAndFilter {
+  return {
+    sourceRmsV: m.sourceRmsV,
+    frequencyHz: m.frequencyHz,
+    sourceResistanceOhm: m.sourceResistanceOhm,
+    leakageInductanceH: m.leakageInductanceH,
+    capacitanceF: m.capacitanceF,
+    esrOhm: m.esrOhm,
+    load: m.load,
+  };
+}
+
 /** Everything at one instant: the state, the algebraic variables and the state derivatives. */
 export interface Snapshot {
   readonly t: number;

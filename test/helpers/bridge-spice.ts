@@ -1,3 +1,4 @@
+import type { BridgeAcModel } from "../../domain/checks/bridge-ac.js";
 import type { DiodeParams } from "../../domain/physics/diode.js";
 
 /** A diode bridge or a switch-based active bridge, as ngspice sees it (all at one temperature). */
@@ -18,6 +19,25 @@ export interface SpiceBridge {
   readonly periods: number;
   /** Largest internal time step as a fraction of the period. */
   readonly maxStepFraction: number;
+}
+
+/** The oracle's view of an AC bridge model with a resistive load (25 °C, steps of T/2000). */
+export function spiceBridgeOf(m: BridgeAcModel, diode: DiodeParams, periods: number, switchOnOhm?: number): SpiceBridge {
+  if (m.load.kind !== "resistive") throw new Error("the oracle netlist has a resistive load");
+  return {
+    sourceRmsV: m.sourceRmsV,
+    frequencyHz: m.frequencyHz,
+    sourceResistanceOhm: m.sourceResistanceOhm,
+    leakageInductanceH: m.leakageInductanceH,
+    capacitanceF: m.capacitanceF,
+    esrOhm: m.esrOhm,
+    loadOhm: m.load.resistanceOhm,
+    diode,
+    ...(switchOnOhm === undefined ? {} : { switchOnOhm }),
+    tempC: 25,
+    periods,
+    maxStepFraction: 1 / 2000,
+  };
 }
 
 export interface SpiceBridgeResult {

@@ -3,7 +3,7 @@ import { analyseBridgeAc, type BridgeAcModel, solveBridgeAcAt, steadyStateOf } f
 import { BRIDGE_POSITIONS, type BridgeElements } from "../../../domain/checks/bridge-element.js";
 import { cToK } from "../../../domain/physics/constants.js";
 import { activeElement, demoPn, diodeElement, uniform } from "../../helpers/bridge-parts.js";
-import { bridgeNetlist, reduceBridgeRows, type SpiceBridge } from "../../helpers/bridge-spice.js";
+import { bridgeNetlist, reduceBridgeRows, type SpiceBridge, spiceBridgeOf } from "../../helpers/bridge-spice.js";
 import { toolAvailable } from "../../helpers/external-tool.js";
 import { runNgspice } from "../../helpers/ngspice.js";
 import { relativeError } from "../../helpers/tolerance.js";
@@ -35,21 +35,7 @@ function isothermal(m: BridgeAcModel, tC: number) {
 }
 
 function spiceOf(m: BridgeAcModel, switchOnOhm?: number): SpiceBridge {
-  if (m.load.kind !== "resistive") throw new Error("the oracle netlist has a resistive load");
-  return {
-    sourceRmsV: m.sourceRmsV,
-    frequencyHz: m.frequencyHz,
-    sourceResistanceOhm: m.sourceResistanceOhm,
-    leakageInductanceH: m.leakageInductanceH,
-    capacitanceF: m.capacitanceF,
-    esrOhm: m.esrOhm,
-    loadOhm: m.load.resistanceOhm,
-    diode: demoPn,
-    ...(switchOnOhm === undefined ? {} : { switchOnOhm }),
-    tempC: 25,
-    periods: 30,
-    maxStepFraction: 1 / 2000,
-  };
+  return spiceBridgeOf(m, demoPn, 30, switchOnOhm);
 }
 
 describe("AC bridge against ngspice transient to steady state", () => {
