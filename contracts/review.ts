@@ -150,6 +150,25 @@ export const candidateResult = z.object({
   costTotal: z.number().optional(),
 });
 
+const distribution = z
+  .object({ mean: z.number(), std: z.number(), p1: z.number(), p5: z.number(), p50: z.number(), p95: z.number(), p99: z.number(), min: z.number(), max: z.number() })
+  .meta({ description: "mean, standard deviation and nearest-rank percentiles over the samples with an operating point" });
+
+export const monteCarloResult = z.object({
+  candidate: z.number().int(),
+  samples: z.number().int(),
+  seed: z.number().int(),
+  supplyV: z.number(),
+  ambientC: z.number(),
+  shareWithoutOperatingPoint: z.number().meta({ description: "share of samples with no operating point (runaway, collapse, stage off)" }),
+  tjC: distribution.optional(),
+  lossW: distribution.optional(),
+  dropV: distribution.optional(),
+  loadV: distribution.optional(),
+  shareFailingByRule: z.record(z.string(), z.number()).meta({ description: "rule id → share of samples on which it fails" }),
+  shareWarningByRule: z.record(z.string(), z.number()),
+});
+
 export const reviewOutput = z.object({
   ...provenance,
   requirement: z.object({
@@ -163,7 +182,7 @@ export const reviewOutput = z.object({
   }),
   ranking: z.array(z.object({ rank: z.number().int(), index: z.number().int(), label: z.string(), verdict: z.string(), reason: z.string() })),
   candidates: z.array(candidateResult),
-  monteCarlo: z.unknown().optional(),
+  monteCarlo: monteCarloResult.optional(),
   assumptions: z.array(z.string()),
 });
 export type ReviewOutput = z.infer<typeof reviewOutput>;

@@ -2,6 +2,7 @@ import { CORNER_HEADERS, cornerTable, worstLines } from "./corner-table.js";
 import { type Block, toHtmlBody, toMarkdown } from "./doc.js";
 import { type Candidate, escapeHtml, num, type Review, slug } from "./format.js";
 import { htmlPage } from "./html-page.js";
+import { monteCarloBlocks } from "./monte-carlo-blocks.js";
 import { candidateCharts, type ReportChart } from "./review-charts.js";
 import { marginText, orderedVerdicts, outcomeLabel, valuesText } from "./verdicts.js";
 
@@ -109,6 +110,7 @@ function reportBlocks(r: Review, charts: readonly ReportChart[], title: string):
     const c = r.candidates[e.index];
     if (c) b.push(...candidateBlocks(c, charts.filter((x) => x.candidateIndex === c.index)));
   }
+  b.push(...monteCarloBlocks(r));
   b.push({ kind: "heading", level: 2, text: "Sources and assumptions" }, { kind: "list", items: [...q.sources, ...r.assumptions] }, { kind: "para", tone: "caution", text: r.caution });
   return b;
 }

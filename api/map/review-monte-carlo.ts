@@ -1,5 +1,5 @@
 import type { z } from "zod";
-import type { monteCarloSpec } from "../../contracts/review.js";
+import type { monteCarloResult, monteCarloSpec } from "../../contracts/review.js";
 import { distributionOf, monteCarlo } from "../../domain/checks/monte-carlo.js";
 import type { ReviewRequirement } from "../../domain/review/candidate-review.js";
 import type { CompiledRuleSet } from "../../domain/rules/compile-rule-set.js";
@@ -12,7 +12,7 @@ import type { StageModel } from "../../domain/stages/stage-model.js";
  * load): percentiles of junction temperature, loss, drop and load voltage, and the share of
  * samples each rule fails or warns on, with the sample's point standing in for the worst corner.
  */
-export function reviewMonteCarlo(spec: z.output<typeof monteCarloSpec>, stage: StageModel, req: ReviewRequirement, base: RuleInput, set: CompiledRuleSet) {
+export function reviewMonteCarlo(spec: z.output<typeof monteCarloSpec>, stage: StageModel, req: ReviewRequirement, base: RuleInput, set: CompiledRuleSet): z.output<typeof monteCarloResult> {
   const tj: number[] = [];
   const loss: number[] = [];
   const drop: number[] = [];
@@ -56,11 +56,16 @@ export function reviewMonteCarlo(spec: z.output<typeof monteCarloSpec>, stage: S
     supplyV,
     ambientC,
     shareWithoutOperatingPoint: unsolved / spec.samples,
-    tjC: distributionOf(tj),
-    lossW: distributionOf(loss),
-    dropV: distributionOf(drop),
-    loadV: distributionOf(loadV),
+    ...present("tjC", distributionOf(tj)),
+    ...present("lossW", distributionOf(loss)),
+    ...present("dropV", distributionOf(drop)),
+    ...present("loadV", distributionOf(loadV)),
     shareFailingByRule: share(fails),
     shareWarningByRule: share(warns),
   };
+}
+
+/** `{ [key]: value }` when there is a value (no sample had a point: the key is left out). */
+function present<K extends string, V>(key: K, value: V | undefined): { [k in K]?: V } {
+  return value === undefined ? {} : ({ [key]: value } as { [k in K]?: V });
 }

@@ -170,6 +170,18 @@ describe("design-review report", () => {
     expect(row?.split("|")[12]?.trim()).toBe(`**${Number(c0.worst.tjC.value.toPrecision(4))}** ◆`);
   });
 
+  it("shows the Monte Carlo spread exactly as the result states it", () => {
+    const mc = result.monteCarlo;
+    if (mc?.tjC === undefined) throw new Error("the example review samples a candidate");
+    const md = renderReviewReport(result, { id }).markdown;
+    const section = md.split("## Monte Carlo")[1]?.split("## Sources")[0] ?? "";
+    expect(section).toContain(`${mc.samples} samples (seed ${mc.seed})`);
+    const row = section.split("\n").find((l) => l.startsWith("| junction temperature"));
+    const cells = row?.split("|").map((x) => x.trim()) ?? [];
+    // mean, std, p1, p50, p99 as the result gives them, at the report's 4 significant digits.
+    expect(cells.slice(2, 7)).toEqual([mc.tjC.mean, mc.tjC.std, mc.tjC.p1, mc.tjC.p50, mc.tjC.p99].map((v) => String(Number(v.toPrecision(4)))));
+  });
+
   // DOMAIN.md, common practice: a Schottky drops ~0.5 V at 10 A (several watts), so a 2 W loss
   // budget fails; loss-budget is the last rule of the default set, so "first" is the report's doing.
   it("a failing candidate shows its failing rule and the values it used first", async () => {
