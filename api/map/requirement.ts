@@ -64,7 +64,9 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
   const loadLevels = r.loadLevels ?? [...REVIEW_DEFAULTS.loadLevels];
   if (r.loadLevels === undefined) assumptions.push("load levels 100 % and 10 % of full load (default)");
   const deratingFactor = r.deratingFactor ?? REVIEW_DEFAULTS.deratingFactor;
-  if (r.deratingFactor === undefined) assumptions.push("clamp sizing keeps every part at ≤ 80 % of its voltage rating (common practice)");
+  if (r.deratingFactor === undefined) {
+    assumptions.push("clamp window: each part's transient allowance from the rule set's transient rules; 80 % of the rating where no rule bounds it (common practice)");
+  }
   const tjMarginK = r.tjMarginK ?? REVIEW_DEFAULTS.tjMarginK;
   if (r.tjMarginK === undefined) assumptions.push("thermal sizing holds Tj(max) − 25 K (common practice)");
   const loadMinV = r.loadMinV ?? (r.load.kind === "constant-power" ? r.load.minVoltageV : undefined);

@@ -15,6 +15,7 @@ import { turnOffEventFields } from "../map/turn-off-output.js";
 import { toReviewRequirement } from "../map/requirement.js";
 import { reviewRuleInput } from "../map/review-metrics.js";
 import { reviewMonteCarlo } from "../map/review-monte-carlo.js";
+import { transientAllowanceOf } from "../map/transient-allowance.js";
 import { transientThermalOf } from "../map/transient-thermal.js";
 import { resolveRuleSet } from "../map/rule-set.js";
 import { publicProcedure } from "../trpc.js";
@@ -37,9 +38,12 @@ export const review = publicProcedure.input(reviewInput).query(({ input, ctx }):
     const transientThermal = transientThermalOf(c.transientThermal, stage.model);
     const datasheetMax = c.datasheetMax ? { ...UNSCALED, ...c.datasheetMax } : undefined;
     const turnOffController = req.model.turnOff ? controllerTiming(stage.spec, stage.model, c.turnOffTiming ?? input.requirement.turnOff?.timing, c.turnOffTiming ? [...path.slice(0, 2), "turnOffTiming"] : ["requirement", "turnOff", "timing"], assumptions) : undefined;
+    // Unless the requirement sets its own derating, the clamp window follows the rule set.
+    const transientAllowanceV = input.requirement.deratingFactor === undefined ? transientAllowanceOf(set, stage.model, req.model) : undefined;
     const r = reviewCandidate(req.model, {
       stage: stage.model,
       transientThermal,
+      ...(transientAllowanceV ? { transientAllowanceV } : {}),
       ...(datasheetMax ? { datasheetMax } : {}),
       ...(turnOffController ? { turnOffController } : {}),
       ...(input.curves ? { turnOffWaveform: true } : {}),

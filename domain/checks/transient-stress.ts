@@ -19,6 +19,23 @@ export interface TransientContext {
   readonly clampToStandoffRatio: number;
   /** A clamp the design already has at its input (bidirectional: it limits either polarity). */
   readonly inputClamp?: InputClamp;
+  /**
+   * Allowances read from a rule set, V, in place of rating × deratingFactor: for the element that
+   * blocks a negative pulse, for a controller's or switch's input, and for a gate-source.
+   */
+  readonly allowanceV?: TransientAllowance;
+}
+
+export interface TransientAllowance {
+  readonly blocking?: number | undefined;
+  readonly input?: number | undefined;
+  readonly gateSource?: number | undefined;
+}
+
+function allowanceKey(element: string, polarity: "negative" | "positive"): keyof TransientAllowance | undefined {
+  if (polarity === "negative") return element === "controller-input" ? undefined : "blocking";
+  if (element === "controller-input" || element === "switch-input") return "input";
+  return element === "gate-source" ? "gateSource" : undefined;
 }
 
 export interface InputClamp {
@@ -83,9 +100,15 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
   const baseV = pulse.baseV === "supply" ? ctx.supplyNominalV : pulse.baseV;
   const peak = pulse.clampedAtV ?? baseV + pulse.amplitudeV;
   const tauS = tauFromDecay(pulse.decayS, pulse.decayConvention);
-  const allowance = (ratingV: number | undefined) => (ratingV === undefined ? undefined : ratingV * ctx.deratingFactor);
+  const polarity = (pulse.clampedAtV ?? (pulse.baseV === "supply" ? ctx.supplyNominalV : pulse.baseV) + pulse.amplitudeV) < 0 ? "negative" : "positive";
+  const allowance = (element: string, ratingV: number | undefined) => {
+    const key = allowanceKey(element, polarity);
+    const fromRules = key === undefined ? undefined : ctx.allowanceV?.[key];
+    if (fromRules !== undefined) return fromRules;
+    return ratingV === undefined ? undefined : ratingV * ctx.deratingFactor;
+  };
   const stress = (element: string, seenV: number, ratingV: number | undefined): ElementStress => {
-    const allowedV = allowance(ratingV);
+    const allowedV = allowance(element, ratingV);
     return { element, seenV, ratingV, allowedV, exceeds: allowedV === undefined || seenV > allowedV };
   };
 

@@ -5,7 +5,7 @@ import { alongProfile, type DriveAtInput, driveAtInput, type ProfileResult, type
 import type { ControllerTurnOff } from "../checks/reverse-path.js";
 import { blocksReverseCurrent } from "../checks/stage-ratings.js";
 import { thermalSizing, type ThermalSizing } from "../checks/thermal-sizing.js";
-import { type TransientContext, type TransientResult, transientStress } from "../checks/transient-stress.js";
+import { type TransientAllowance, type TransientContext, type TransientResult, transientStress } from "../checks/transient-stress.js";
 import { totalRthKPerW } from "../physics/thermal-path.js";
 import type { LoadModel } from "../solve/load-model.js";
 import { scaleLoad } from "../solve/load-scale.js";
@@ -43,6 +43,8 @@ export interface ReviewRequirement {
 
 export interface ReviewCandidate {
   readonly stage: StageModel;
+  /** Transient allowances read from the rule set (absent: rating × the requirement's derating). */
+  readonly transientAllowanceV?: TransientAllowance;
   readonly datasheetMax?: StageScale;
   readonly transientThermal: TransientThermal;
   /** The controller's reverse turn-off timing, for stages that turn off on reverse current. */
@@ -93,7 +95,13 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
     : [];
 
   const reverse = reverseSteady(cand.stage, req.reverseV, req.ambientMaxC, cand.stage.kind === "pn-diode" || cand.stage.kind === "schottky-diode" ? cand.stage.reverseLeakage : undefined);
-  const tctx: TransientContext = { ...req.transientContext, supplyNominalV: req.supplyNominalV, supplyMaxV: req.supplyMaxV, reverseV: req.reverseV };
+  const tctx: TransientContext = {
+    ...req.transientContext,
+    supplyNominalV: req.supplyNominalV,
+    supplyMaxV: req.supplyMaxV,
+    reverseV: req.reverseV,
+    ...(cand.transientAllowanceV ? { allowanceV: cand.transientAllowanceV } : {}),
+  };
   const transients = req.transients.map((p) => transientStress(cand.stage, p, tctx));
 
   // Thermal sizing at the hot, full-load corner with the datasheet-maximum part, at the supply

@@ -60,6 +60,25 @@ describe("design review", () => {
     expect(reviewOutput.safeParse(JSON.parse(a)).success).toBe(true);
   });
 
+  // Consistency, by construction of the default (100 %) and vehicle (90 %) transient rules in
+  // rulesets/: the clamp window sized by the review is the one the rule set then accepts.
+  it("sizes the clamp window to the rule set's transient allowance, and a clamp at its edge passes", async () => {
+    type Tr = { pulseId: string; clamp: { needed: unknown; clampMaxV?: number } };
+    const req12 = { supply: { class: "vehicle-12v-b" }, load: { kind: "constant-current", currentA: 3 }, ambient: { minC: -40, maxC: 85 }, transients: ["iso7637-2-pulse-1-12v"] };
+    const windowOf = async (extra: Record<string, unknown>, ruleSet?: string) => {
+      const r = await call({ requirement: { ...req12, ...extra }, candidates: [idealDiode], ...(ruleSet ? { ruleSet } : {}) });
+      const t = (r.candidates[0] as unknown as { transients: Tr[] }).transients[0];
+      return t?.clamp.clampMaxV;
+    };
+    const held = 13.5; // nominal supply held at the output (vehicle-12v-b)
+    expect(await windowOf({})).toBeCloseTo(60 - held, 9);
+    expect(await windowOf({}, "vehicle")).toBeCloseTo(0.9 * 60 - held, 9);
+    expect(await windowOf({ deratingFactor: 0.8 })).toBeCloseTo(0.8 * 60 - held, 9);
+    const clampV = 60 - held;
+    const r = await call({ requirement: { ...req12, inputClamp: { standoffV: 16, clampV } }, candidates: [idealDiode] });
+    expect(verdictOf(r.candidates[0], "fet-vds-reverse-transient")?.outcome).toBe("pass");
+  });
+
   const { app } = testApp();
   const bad: [string, unknown, string][] = [
     ["min above max", { requirement: { ...base, supply: { class: "custom", minV: 30, nominalV: 24, maxV: 20 } }, candidates: [idealDiode] }, "requirement.supply.minV"],

@@ -1,0 +1,40 @@
+import type { TransientAllowance } from "../../domain/checks/transient-stress.js";
+import type { ReviewRequirement } from "../../domain/review/candidate-review.js";
+import type { CompiledRuleSet } from "../../domain/rules/compile-rule-set.js";
+import type { RuleInput } from "../../domain/rules/rule-model.js";
+import { ruleBoundary, rulesReading } from "../../domain/sizing/rule-boundary.js";
+import type { StageModel } from "../../domain/stages/stage-model.js";
+import { partParameters, stageMetrics } from "./operating-point-metrics.js";
+
+/**
+ * The transient allowances a rule set grants a stage: the largest negative-pulse stress on the
+ * blocking element, input peak and gate-source peak that every applicable rule on
+ * reverseTransientVMaxV, transientVMaxV and gateSourceVMaxV still passes (each rule read as a
+ * bound on that one name, the part's ratings held). The review sizes its clamp window to these,
+ * so the window and the verdicts agree; a name no rule bounds keeps rating × derating.
+ */
+export function transientAllowanceOf(set: CompiledRuleSet, stage: StageModel, req: ReviewRequirement): TransientAllowance {
+  const base: RuleInput = {
+    stageKind: stage.kind,
+    metrics: { ...stageMetrics(stage), supplyMinV: req.supplyMinV, supplyMaxV: req.supplyMaxV, reverseVMaxV: req.reverseV },
+    part: partParameters(stage),
+  };
+  // Probe above the steady supply: a rule like max(supplyMaxV, transientVMaxV) <= rating is flat below it.
+  const probe = Math.max(2 * req.supplyMaxV, 2 * req.reverseV, 1);
+  const largest = (name: string): number | undefined => {
+    let best: number | undefined;
+    for (const rule of rulesReading(set, name)) {
+      const b = ruleBoundary(rule, { ...base, metrics: { ...base.metrics, [name]: probe } }, name, set.stamp, probe);
+      if (b.kind === "bound" && b.bound === "at-most" && b.value > 0) best = best === undefined ? b.value : Math.min(best, b.value);
+    }
+    return best;
+  };
+  const blocking = largest("reverseTransientVMaxV");
+  const input = largest("transientVMaxV");
+  const gateSource = largest("gateSourceVMaxV");
+  return {
+    ...(blocking === undefined ? {} : { blocking }),
+    ...(input === undefined ? {} : { input }),
+    ...(gateSource === undefined ? {} : { gateSource }),
+  };
+}
