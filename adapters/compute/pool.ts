@@ -3,7 +3,7 @@ import { fileURLToPath } from "node:url";
 import { Piscina } from "piscina";
 import type { Format } from "../batch/formats.js";
 import type { BatchOutputLine } from "../batch/run-batch.js";
-import type { ItemResult } from "./call.js";
+import type { ItemJson, ItemResult } from "./call.js";
 
 /** The compiled worker (dist/adapters/compute/worker.js); absent when running from TypeScript sources. */
 export function workerFile(): string | undefined {
@@ -29,6 +29,8 @@ export interface LinesFormat {
 export interface ComputePool {
   readonly threads: number;
   call(path: string, inputs: unknown[], signal?: AbortSignal): Promise<ItemResult[]>;
+  /** as `call`, each result written out as JSON in the thread */
+  callJson(path: string, inputs: unknown[], signal?: AbortSignal): Promise<ItemJson[]>;
   /** batch records → each one's output text in `format` (formatted in the thread), in order */
   lines(records: { raw: string; lineNo: number }[], format: LinesFormat, signal?: AbortSignal): Promise<FormattedLine[]>;
   close(): Promise<void>;
@@ -43,6 +45,7 @@ export function createComputePool(opts: { threads: number; catalogPath: string; 
   return {
     threads: opts.threads,
     call: (path, inputs, signal) => pool.run({ path, inputs }, options("call", signal)) as Promise<ItemResult[]>,
+    callJson: (path, inputs, signal) => pool.run({ path, inputs }, options("callJson", signal)) as Promise<ItemJson[]>,
     lines: (records, format, signal) => pool.run({ records, ...format }, options("lines", signal)) as Promise<FormattedLine[]>,
     close: () => pool.destroy(),
   };

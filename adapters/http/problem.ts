@@ -1,4 +1,5 @@
 import type { Context as HonoContext } from "hono";
+import type { ContentfulStatusCode } from "hono/utils/http-status";
 import type { ErrorBody } from "../../contracts/outcome.js";
 import type { Problem, ProblemCode } from "../../contracts/problem.js";
 
@@ -41,8 +42,12 @@ export function problemOf(status: number, body: ErrorBody | { code: ProblemCode;
   };
 }
 
-/** Send a problem as application/problem+json. */
+/**
+ * Send a problem as application/problem+json. Built with `c.body`, so the headers the request
+ * middleware prepared (x-request-id) are in it from the start: a ready `Response` would have to be
+ * copied to add them, through a web stream, several times the cost of the answer.
+ */
 export function sendProblem(c: HonoContext, status: number, body: Parameters<typeof problemOf>[1], headers: Record<string, string> = {}): Response {
   const p = problemOf(status, body, { instance: c.req.path, requestId: c.get("requestId") as string | undefined });
-  return new Response(JSON.stringify(p), { status, headers: { "content-type": PROBLEM_TYPE, ...headers } });
+  return c.body(JSON.stringify(p), status as ContentfulStatusCode, { "content-type": PROBLEM_TYPE, ...headers });
 }

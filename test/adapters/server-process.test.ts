@@ -34,13 +34,18 @@ describe("the server process", () => {
     for (const c of children) if (c.exitCode === null) c.kill("SIGKILL");
   });
 
-  it("warns when auth is off; /v1 (worker threads) equals /trpc; quick latency figures", async () => {
+  it("warns when auth is off; /v1 and bulk /v1 (worker threads) equal /trpc; quick latency figures", async () => {
     const s = await start({ BACKSTOP_WORKERS: "1" });
     children.push(s.child);
     expect(s.logs.join("")).toMatch(/API-key auth is OFF/);
     const v1 = await (await post(`${s.base}/v1/operatingPoint`, good)).text();
     const trpc = (await (await post(`${s.base}/trpc/operatingPoint`, good)).json()) as { result: { data: unknown } };
     expect(v1).toBe(JSON.stringify(trpc.result.data));
+    // a single operating point runs in the main thread; bulk goes to the worker threads: same bytes
+    const bulk = await (await post(`${s.base}/v1/operatingPoint/bulk`, [good, { ...good, supplyV: "x" }, good])).text();
+    const bad = (await (await post(`${s.base}/v1/operatingPoint`, { ...good, supplyV: "x" })).json()) as Record<string, unknown>;
+    const { instance: _i, requestId: _r, ...badInBulk } = bad;
+    expect(bulk).toBe(JSON.stringify({ results: [{ ok: true, result: trpc.result.data }, { ok: false, problem: badInBulk }, { ok: true, result: trpc.result.data }], ok: 2, failed: 1 }));
     const time = async (url: string, n: number) => {
       const t0 = performance.now();
       for (let i = 0; i < n; i += 1) await (await post(url, good)).arrayBuffer();
