@@ -122,12 +122,16 @@ function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: r
       if (skipped.length > 0) return na("not-required", notRequiredReason(input, skipped));
       return na("missing-value", `cannot be evaluated: ${e.missing.join("; ")}`);
     }
-    const holds = c.expression.test(e.slots);
-    const outcome: VerdictOutcome = holds ? "pass" : r.severity;
     const cmp = c.expression.comparison;
-    if (cmp === null) return verdict(c, vals, outcome, null, holds ? null : `'${r.expression}' is false`, null, stamp);
+    if (cmp === null) {
+      const holds = c.expression.test(e.slots);
+      return verdict(c, vals, holds ? "pass" : r.severity, null, holds ? null : `'${r.expression}' is false`, null, stamp);
+    }
+    // A top-level comparison: both sides once, the condition from them (the same tree as test()).
     const lhs = cmp.lhs(e.slots);
     const rhs = cmp.rhs(e.slots);
+    const holds = cmp.op === "<" ? lhs < rhs : cmp.op === "<=" ? lhs <= rhs : cmp.op === ">" ? lhs > rhs : lhs >= rhs;
+    const outcome: VerdictOutcome = holds ? "pass" : r.severity;
     const margin = cmp.bound === "upper" ? rhs - lhs : lhs - rhs;
     const reason = holds ? null : `${fmt(lhs)} ${cmp.op} ${fmt(rhs)} does not hold (margin ${fmt(margin)})`;
     return verdict(c, vals, outcome, { op: cmp.op, threshold: rhs, margin }, reason, null, stamp);
