@@ -37,21 +37,30 @@ function resolve(refs: readonly NameRef[], input: RuleInput): Resolved {
   return R;
 }
 
-/** Slot values for one expression (idx: positions in the rule's names, map: rule name → R). */
 const NONE_MISSING: readonly string[] = [];
 
-function gather(R: Resolved, map: readonly number[], idx: readonly number[]): { slots: number[]; missing: readonly string[] } {
+/** Slot values for one expression (idx: positions in the rule's names, map: rule name → R). */
+function slotsOf(R: Resolved, map: readonly number[], idx: readonly number[]): number[] {
   const slots = new Array<number>(idx.length);
+  for (let k = 0; k < idx.length; k += 1) slots[k] = R.v[map[idx[k] ?? -1] ?? -1] ?? Number.NaN;
+  return slots;
+}
+
+/** Why the names an expression reads are absent (empty when every one is present). */
+function missingOf(R: Resolved, map: readonly number[], idx: readonly number[]): readonly string[] {
   let missing: string[] | undefined;
   for (let k = 0; k < idx.length; k += 1) {
     const j = map[idx[k] ?? -1] ?? -1;
-    slots[k] = R.v[j] ?? Number.NaN;
     if (R.ok[j] !== true) {
       missing ??= [];
       missing.push(R.why[j] ?? "internal: slot out of range");
     }
   }
-  return { slots, missing: missing ?? NONE_MISSING };
+  return missing ?? NONE_MISSING;
+}
+
+function gather(R: Resolved, map: readonly number[], idx: readonly number[]): { slots: number[]; missing: readonly string[] } {
+  return { slots: slotsOf(R, map, idx), missing: missingOf(R, map, idx) };
 }
 
 /**
@@ -93,7 +102,7 @@ function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: r
     const name = c.names[i];
     if (R.ok[j] === true && name !== undefined) vals[name] = R.out[j] ?? Number.NaN;
   }
-  const na = (code: NotApplicableCode, reason: string): Verdict => verdict(c, vals, "not-applicable", null, reason, code, stamp);
+  const na = (code: NotApplicableCode, reason: string): Verdict => verdict(c, vals, "not-applicable", null, 0, 0, reason, code, stamp);
   if (r.appliesTo !== "all") {
     if (input.stageKind === undefined) return na("missing-value", `the rule covers ${coverText(c)} and no stage kind was given`);
     if (!r.appliesTo.includes(input.stageKind)) return na("stage-kind", `the rule covers ${coverText(c)}, not ${input.stageKind}`);
@@ -116,25 +125,26 @@ function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: r
       } else holds = c.when.test(w.slots);
       if (!holds) return na("precondition", `precondition '${r.when}' is false`);
     }
-    const e = gather(R, map, c.expressionSlots);
-    if (e.missing.length > 0) {
+    const missing = missingOf(R, map, c.expressionSlots);
+    if (missing.length > 0) {
       const skipped = skippedNames(c, input, R, map);
       if (skipped.length > 0) return na("not-required", notRequiredReason(input, skipped));
-      return na("missing-value", `cannot be evaluated: ${e.missing.join("; ")}`);
+      return na("missing-value", `cannot be evaluated: ${missing.join("; ")}`);
     }
+    const slots = slotsOf(R, map, c.expressionSlots);
     const cmp = c.expression.comparison;
     if (cmp === null) {
-      const holds = c.expression.test(e.slots);
-      return verdict(c, vals, holds ? "pass" : r.severity, null, holds ? null : `'${r.expression}' is false`, null, stamp);
+      const holds = c.expression.test(slots);
+      return verdict(c, vals, holds ? "pass" : r.severity, null, 0, 0, holds ? null : `'${r.expression}' is false`, null, stamp);
     }
     // A top-level comparison: both sides once, the condition from them (the same tree as test()).
-    const lhs = cmp.lhs(e.slots);
-    const rhs = cmp.rhs(e.slots);
+    const lhs = cmp.lhs(slots);
+    const rhs = cmp.rhs(slots);
     const holds = cmp.op === "<" ? lhs < rhs : cmp.op === "<=" ? lhs <= rhs : cmp.op === ">" ? lhs > rhs : lhs >= rhs;
     const outcome: VerdictOutcome = holds ? "pass" : r.severity;
     const margin = cmp.bound === "upper" ? rhs - lhs : lhs - rhs;
     const reason = holds ? null : `${fmt(lhs)} ${cmp.op} ${fmt(rhs)} does not hold (margin ${fmt(margin)})`;
-    return verdict(c, vals, outcome, { op: cmp.op, threshold: rhs, margin }, reason, null, stamp);
+    return verdict(c, vals, outcome, cmp.op, rhs, margin, reason, null, stamp);
   } catch (err) {
     if (err === NON_FINITE) return na("not-finite", "an intermediate value is not finite (division by zero, log of zero or a negative number, overflow)");
     throw err;
@@ -168,18 +178,14 @@ function preconditionOverFlags(c: CompiledRule, R: Resolved, map: readonly numbe
   return seen;
 }
 
-interface Cmp {
-  readonly op: string;
-  readonly threshold: number;
-  readonly margin: number;
-}
-
 /** One literal with a fixed key order (stable JSON, and one object shape for the engine). */
 function verdict(
   c: CompiledRule,
   values: Readonly<Record<string, number | boolean>>,
   outcome: VerdictOutcome,
-  cmp: Cmp | null,
+  op: string | null,
+  threshold: number,
+  margin: number,
   reason: string | null,
   notApplicableCode: NotApplicableCode | null,
   ruleSet: CompiledRuleSet["stamp"],
@@ -192,10 +198,10 @@ function verdict(
     severity: r.severity,
     expression: r.expression,
     values,
-    comparison: cmp === null ? null : cmp.op,
-    threshold: cmp === null ? null : cmp.threshold,
-    margin: cmp === null ? null : cmp.margin,
-    relativeMargin: cmp === null || cmp.threshold === 0 ? null : cmp.margin / Math.abs(cmp.threshold),
+    comparison: op,
+    threshold: op === null ? null : threshold,
+    margin: op === null ? null : margin,
+    relativeMargin: op === null || threshold === 0 ? null : margin / Math.abs(threshold),
     source: r.source,
     rationale: r.rationale,
     reason,
