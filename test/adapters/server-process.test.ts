@@ -1,30 +1,11 @@
-import { type ChildProcess, spawn } from "node:child_process";
-import { join } from "node:path";
+import type { ChildProcess } from "node:child_process";
 import { afterAll, describe, expect, it } from "vitest";
-import { projectRoot } from "../../adapters/project-root.js";
+import { startBuiltServer } from "../helpers/built-server.js";
 
 // The built server as a process on a loopback port (dist/ is built by the vitest globalSetup).
 const good = { stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" }, supplyV: 12, load: { kind: "constant-current", currentA: 2 }, ambientC: 25 };
 
-function start(env: Record<string, string>): Promise<{ child: ChildProcess; base: string; logs: string[] }> {
-  const child = spawn("node", [join(projectRoot(), "dist", "adapters", "http", "main.js")], {
-    env: { ...process.env, PORT: "0", HOST: "127.0.0.1", LOG_LEVEL: "info", ...env },
-    stdio: ["ignore", "pipe", "pipe"],
-  });
-  const logs: string[] = [];
-  return new Promise((resolve, reject) => {
-    const timer = setTimeout(() => reject(new Error(`server did not start: ${logs.join("")}`)), 30_000);
-    child.stdout?.on("data", (d: Buffer) => {
-      logs.push(String(d));
-      const m = /listening on http:\/\/localhost:(\d+)/.exec(logs.join(""));
-      if (m) {
-        clearTimeout(timer);
-        resolve({ child, base: `http://127.0.0.1:${m[1]}`, logs });
-      }
-    });
-    child.stderr?.on("data", (d: Buffer) => logs.push(String(d)));
-  });
-}
+const start = startBuiltServer;
 const post = (url: string, body: unknown) => fetch(url, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
 const exited = (c: ChildProcess) => new Promise<number | null>((r) => (c.exitCode !== null ? r(c.exitCode) : c.on("exit", (code) => r(code))));
 

@@ -5,6 +5,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
 import { projectRoot } from "../../adapters/project-root.js";
+import { startBuiltServer } from "../helpers/built-server.js";
 
 /**
  * Faults against the built code (dist/ is built by the vitest globalSetup): a worker thread that
@@ -65,17 +66,10 @@ describe("server: slow clients are cut off by the header and request deadlines",
   });
 
   it("a stalled header or body is answered 408 and closed; other clients are served meanwhile", async () => {
-    const c = spawn("node", [join(projectRoot(), "dist", "adapters", "http", "main.js")], {
-      env: { ...process.env, PORT: "0", HOST: "127.0.0.1", LOG_LEVEL: "warn", BACKSTOP_WORKERS: "0", BACKSTOP_HEADERS_TIMEOUT_MS: "400", BACKSTOP_RECEIVE_TIMEOUT_MS: "800" },
-      stdio: ["ignore", "pipe", "pipe"],
-    });
+    const server = await startBuiltServer({ LOG_LEVEL: "warn", BACKSTOP_WORKERS: "0", BACKSTOP_HEADERS_TIMEOUT_MS: "400", BACKSTOP_RECEIVE_TIMEOUT_MS: "800" });
+    const c = server.child;
     child = c;
-    let text = "";
-    const port = await new Promise<number>((resolve) => c.stdout?.on("data", (d: Buffer) => {
-      text += String(d);
-      const m = /localhost:(\d+)/.exec(text);
-      if (m) resolve(Number(m[1]));
-    }));
+    const port = server.port;
     /** open a connection, send `sent`, then nothing; resolves with what came back and when the server closed it */
     const stall = (sent: string) =>
       new Promise<{ reply: string; closedAfterMs: number }>((resolve, reject) => {

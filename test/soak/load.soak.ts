@@ -1,10 +1,11 @@
-import { type ChildProcess, spawn } from "node:child_process";
+import type { ChildProcess } from "node:child_process";
 import { readFileSync } from "node:fs";
 import { connect } from "node:net";
 import { join } from "node:path";
 import autocannon from "autocannon";
 import { afterAll, describe, expect, it } from "vitest";
 import { projectRoot } from "../../adapters/project-root.js";
+import { startBuiltServer } from "../helpers/built-server.js";
 
 /**
  * Soak (npm run soak): the built server on loopback under 60 s of mixed procedures at 64
@@ -46,17 +47,10 @@ describe("soak: mixed load on the built server", () => {
   });
 
   it(`${SECONDS} s at 64 connections: zero errors, memory flat after warm-up, stalled connections cut`, async () => {
-    const c = spawn("node", [join(projectRoot(), "dist", "adapters", "http", "main.js")], {
-      env: { ...process.env, PORT: "0", HOST: "127.0.0.1", LOG_LEVEL: "warn", BACKSTOP_HEADERS_TIMEOUT_MS: "2000" },
-      stdio: ["ignore", "pipe", "inherit"],
-    });
+    const server = await startBuiltServer({ LOG_LEVEL: "warn", BACKSTOP_HEADERS_TIMEOUT_MS: "2000" });
+    const c = server.child;
     child = c;
-    let text = "";
-    const port = await new Promise<number>((resolve) => c.stdout?.on("data", (d: Buffer) => {
-      text += String(d);
-      const m = /localhost:(\d+)/.exec(text);
-      if (m) resolve(Number(m[1]));
-    }));
+    const port = server.port;
     const base = `http://127.0.0.1:${port}`;
     const samples: { t: number; rss: number }[] = [];
     const t0 = performance.now();

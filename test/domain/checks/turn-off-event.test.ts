@@ -1,10 +1,10 @@
 import { describe, expect, it } from "vitest";
-import { type TurnOffModel, turnOffEvent } from "../../../domain/checks/turn-off-event.js";
+import { turnOffEvent } from "../../../domain/checks/turn-off-event.js";
 import { extremaTimes, loopSystem, type RlcLoop, stateAt } from "../../../domain/physics/rlc-series.js";
 import { toolAvailable } from "../../helpers/external-tool.js";
 import { runNgspice } from "../../helpers/ngspice.js";
 import { relativeError } from "../../helpers/tolerance.js";
-import { idealDiodeStage, lowSideStage, pfetStage, schottkyStage } from "../../fixtures/reverse-stages.js";
+import { lowSideStage, pfetStage, schottkyStage, turnOffFixture } from "../../fixtures/reverse-stages.js";
 
 /**
  * Independent oracle: classical RK4 on the raw circuit (KCL at the output node solved for v_out
@@ -94,20 +94,7 @@ quit
   });
 });
 
-const event: TurnOffModel = {
-  stage: idealDiodeStage,
-  outputV: 12,
-  inputAfterV: 0,
-  loopResistanceOhm: 0.01,
-  loopInductanceH: 1e-6,
-  capacitanceF: 100e-6,
-  esrOhm: 0.005,
-  load: { kind: "constant-current", currentA: 2 },
-  loadMinV: 9,
-  tjC: 25,
-  controller: { reverseThresholdV: 0.03, turnOffDelayS: 1e-6, gateChargeC: 30e-9, gateSinkCurrentA: 0.03 },
-  avalancheRatingJ: 0.05,
-};
+const event = turnOffFixture;
 
 describe("turn-off event", () => {
   it("controller: trips at threshold/Rds, turns off after the delay, clamp energy balances", () => {

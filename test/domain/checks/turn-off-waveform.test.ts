@@ -1,23 +1,10 @@
 import { describe, expect, it } from "vitest";
-import { type TurnOffModel, turnOffEvent } from "../../../domain/checks/turn-off-event.js";
+import { turnOffEvent } from "../../../domain/checks/turn-off-event.js";
 import { turnOffWaveform } from "../../../domain/checks/turn-off-waveform.js";
 import { relativeError } from "../../helpers/tolerance.js";
-import { idealDiodeStage, pfetStage, schottkyStage } from "../../fixtures/reverse-stages.js";
+import { pfetStage, schottkyStage, turnOffFixture } from "../../fixtures/reverse-stages.js";
 
-const event: TurnOffModel = {
-  stage: idealDiodeStage,
-  outputV: 12,
-  inputAfterV: 0,
-  loopResistanceOhm: 0.01,
-  loopInductanceH: 1e-6,
-  capacitanceF: 100e-6,
-  esrOhm: 0.005,
-  load: { kind: "constant-current", currentA: 2 },
-  loadMinV: 9,
-  tjC: 25,
-  controller: { reverseThresholdV: 0.03, turnOffDelayS: 1e-6, gateChargeC: 30e-9, gateSinkCurrentA: 0.03 },
-  avalancheRatingJ: 0.05,
-};
+const event = turnOffFixture;
 
 /** Composite trapezoid ∫ f dt over samples [from, to]. */
 function trapezoid(t: readonly number[], f: readonly number[], from = 0, to = t.length - 1): number {

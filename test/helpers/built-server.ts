@@ -1,0 +1,27 @@
+import { type ChildProcess, spawn } from "node:child_process";
+import { join } from "node:path";
+import { projectRoot } from "../../adapters/project-root.js";
+
+/**
+ * The built server (dist/, built by the vitest globalSetup) as a process on a loopback port chosen
+ * by the system; resolves once it says where it listens, rejects after 30 s with what it printed.
+ */
+export function startBuiltServer(env: Record<string, string>): Promise<{ child: ChildProcess; port: number; base: string; logs: string[] }> {
+  const child = spawn("node", [join(projectRoot(), "dist", "adapters", "http", "main.js")], {
+    env: { ...process.env, PORT: "0", HOST: "127.0.0.1", LOG_LEVEL: "info", ...env },
+    stdio: ["ignore", "pipe", "pipe"],
+  });
+  const logs: string[] = [];
+  return new Promise((resolve, reject) => {
+    const timer = setTimeout(() => reject(new Error(`server did not start: ${logs.join("")}`)), 30_000);
+    child.stdout?.on("data", (d: Buffer) => {
+      logs.push(String(d));
+      const m = /listening on http:\/\/localhost:(\d+)/.exec(logs.join(""));
+      if (m) {
+        clearTimeout(timer);
+        resolve({ child, port: Number(m[1]), base: `http://127.0.0.1:${m[1]}`, logs });
+      }
+    });
+    child.stderr?.on("data", (d: Buffer) => logs.push(String(d)));
+  });
+}
