@@ -11,6 +11,19 @@ export interface NameRef {
   readonly boolean: boolean;
 }
 
+/**
+ * Reusable buffers for evaluation: a name's presence (1) and value (booleans as 0/1). Evaluation is synchronous and never re-enters itself (the compiled conditions call
+ * nothing of ours), so a buffer is never in use twice at once; it holds no result after a call.
+ */
+export interface ResolvedScratch {
+  readonly ok: Uint8Array;
+  readonly v: Float64Array;
+}
+
+export function resolvedScratch(n: number): ResolvedScratch {
+  return { ok: new Uint8Array(n), v: new Float64Array(n) };
+}
+
 export interface CompiledRule {
   readonly rule: Rule;
   readonly when: CompiledExpression | null;
@@ -24,6 +37,10 @@ export interface CompiledRule {
   /** names[i] is the set's refs[setIndex[i]]. */
   readonly setIndex: readonly number[];
   readonly ownIndex: readonly number[];
+  /** "a, b, c" of the stage kinds it covers ("all"), formed once for not-applicable reasons. */
+  readonly coverText: string;
+  /** Scratch for evaluation (see ResolvedScratch): slot arrays and the rule's own names. */
+  readonly work: { readonly when: number[]; readonly expr: number[]; readonly own: ResolvedScratch };
 }
 
 export interface CompiledRuleSet {
@@ -32,6 +49,8 @@ export interface CompiledRuleSet {
   readonly rules: readonly CompiledRule[];
   /** Every name any rule reads, sorted: resolved once per record. */
   readonly refs: readonly NameRef[];
+  /** Scratch for evaluation of the set's names (see ResolvedScratch). */
+  readonly work: ResolvedScratch;
 }
 
 function nameRef(name: string): NameRef {
@@ -64,7 +83,7 @@ export type CompileRuleSetOutcome =
 export function compileRuleSet(set: RuleSet): CompileRuleSetOutcome {
   const errors: RuleLoadError[] = [];
   const seen = new Set<string>();
-  const pending: Omit<CompiledRule, "setIndex">[] = [];
+  const pending: Omit<CompiledRule, "setIndex" | "coverText" | "work">[] = [];
   for (const rule of set.rules) {
     if (seen.has(rule.id)) errors.push({ ruleId: rule.id, field: "id", code: "duplicate-id", column: 1, message: `rule id '${rule.id}' appears more than once` });
     seen.add(rule.id);
@@ -88,8 +107,13 @@ export function compileRuleSet(set: RuleSet): CompileRuleSetOutcome {
   }
   if (errors.length > 0) return { ok: false, errors };
   const all = [...new Set(pending.flatMap((r) => r.names))].sort();
-  const rules: CompiledRule[] = pending.map((r) => ({ ...r, setIndex: r.names.map((n) => all.indexOf(n)) }));
-  return { ok: true, compiled: { set, stamp: { id: set.id, version: set.version, hash: ruleSetHash(set) }, rules, refs: all.map(nameRef) } };
+  const rules: CompiledRule[] = pending.map((r) => ({
+    ...r,
+    setIndex: r.names.map((n) => all.indexOf(n)),
+    coverText: r.rule.appliesTo === "all" ? "all" : r.rule.appliesTo.join(", "),
+    work: { when: new Array<number>(r.whenSlots.length).fill(0), expr: new Array<number>(r.expressionSlots.length).fill(0), own: resolvedScratch(r.names.length) },
+  }));
+  return { ok: true, compiled: { set, stamp: { id: set.id, version: set.version, hash: ruleSetHash(set) }, rules, refs: all.map(nameRef), work: resolvedScratch(all.length) } };
 }
 
 /** One line per error: `rule <id>, <field> column <n>: <message>`. */

@@ -1,66 +1,66 @@
-import type { CompiledRule, CompiledRuleSet, NameRef } from "./compile-rule-set.js";
+import type { CompiledRule, CompiledRuleSet, NameRef, ResolvedScratch } from "./compile-rule-set.js";
 import type { NotApplicableCode, RuleInput, RuleSetOutcome, RuleSetResult, Verdict, VerdictOutcome } from "./rule-model.js";
 import { NON_FINITE } from "./sandbox.js";
 
-/** The values of a list of names in one input: present (as 0/1 for booleans) or why not. */
-interface Resolved {
-  readonly ok: boolean[];
-  readonly v: number[];
-  readonly out: (number | boolean)[];
-  readonly why: string[];
-}
+type Resolved = ResolvedScratch;
 
 /** Look each name up once; absent or ill-typed is data (the reason), never a throw. */
-function resolve(refs: readonly NameRef[], input: RuleInput): Resolved {
-  const R: Resolved = { ok: [], v: [], out: [], why: [] };
-  for (const ref of refs) {
-    const src: Readonly<Record<string, number | boolean>> = ref.isPart ? input.part : input.metrics;
-    let why = "";
+function resolve(refs: readonly NameRef[], input: RuleInput, R: Resolved): Resolved {
+  const metrics = input.metrics;
+  const part = input.part;
+  for (let i = 0; i < refs.length; i += 1) {
+    const ref = refs[i] as NameRef;
+    const raw = ref.isPart ? part[ref.key] : metrics[ref.key];
+    let ok = 0;
     let v = Number.NaN;
-    if (!Object.hasOwn(src, ref.key)) {
-      const u = input.unavailable !== undefined && Object.hasOwn(input.unavailable, ref.name) ? input.unavailable[ref.name] : undefined;
-      why = u === undefined ? `${ref.name} is not given` : `${ref.name} is not available: ${u}`;
-    } else {
-      const raw = src[ref.key];
-      if (ref.boolean) {
-        if (raw === true || raw === 1) v = 1;
-        else if (raw === false || raw === 0) v = 0;
-        else why = `${ref.name} is ${String(raw)}; a boolean metric takes true/false or 0/1`;
-      } else if (typeof raw === "number" && Number.isFinite(raw)) v = raw;
-      else why = `${ref.name} is ${String(raw)}; a finite number is required`;
+    if (typeof raw === "number" && (!ref.boolean || raw === 0 || raw === 1) && Number.isFinite(raw)) {
+      ok = 1;
+      v = raw;
+    } else if (typeof raw === "boolean" && ref.boolean) {
+      ok = 1;
+      v = raw ? 1 : 0;
     }
-    R.ok.push(why === "");
-    R.v.push(v);
-    R.out.push(ref.boolean ? v === 1 : v);
-    R.why.push(why);
+    R.ok[i] = ok;
+    R.v[i] = v;
   }
   return R;
 }
 
+function whyAbsent(ref: NameRef, src: Readonly<Record<string, number | boolean>>, input: RuleInput): string {
+  if (!Object.hasOwn(src, ref.key)) {
+    const u = input.unavailable !== undefined && Object.hasOwn(input.unavailable, ref.name) ? input.unavailable[ref.name] : undefined;
+    return u === undefined ? `${ref.name} is not given` : `${ref.name} is not available: ${u}`;
+  }
+  const raw = src[ref.key];
+  return ref.boolean ? `${ref.name} is ${String(raw)}; a boolean metric takes true/false or 0/1` : `${ref.name} is ${String(raw)}; a finite number is required`;
+}
+
 const NONE_MISSING: readonly string[] = [];
 
-/** Slot values for one expression (idx: positions in the rule's names, map: rule name → R). */
-function slotsOf(R: Resolved, map: readonly number[], idx: readonly number[]): number[] {
-  const slots = new Array<number>(idx.length);
-  for (let k = 0; k < idx.length; k += 1) slots[k] = R.v[map[idx[k] ?? -1] ?? -1] ?? Number.NaN;
-  return slots;
+/** Fill slot values for one expression (idx: positions in the rule's names, map: rule name → R). */
+function fillSlots(out: number[], R: Resolved, map: readonly number[], idx: readonly number[]): number[] {
+  for (let k = 0; k < idx.length; k += 1) out[k] = R.v[map[idx[k] as number] as number] as number;
+  return out;
+}
+
+/** Whether every name an expression reads is present. */
+function allPresent(R: Resolved, map: readonly number[], idx: readonly number[]): boolean {
+  for (let k = 0; k < idx.length; k += 1) if (R.ok[map[idx[k] as number] as number] !== 1) return false;
+  return true;
 }
 
 /** Why the names an expression reads are absent (empty when every one is present). */
-function missingOf(R: Resolved, map: readonly number[], idx: readonly number[]): readonly string[] {
+function missingOf(R: Resolved, refs: readonly NameRef[], input: RuleInput, map: readonly number[], idx: readonly number[]): readonly string[] {
   let missing: string[] | undefined;
   for (let k = 0; k < idx.length; k += 1) {
     const j = map[idx[k] ?? -1] ?? -1;
-    if (R.ok[j] !== true) {
+    if (R.ok[j] !== 1) {
       missing ??= [];
-      missing.push(R.why[j] ?? "internal: slot out of range");
+      const ref = refs[idx[k] ?? -1];
+      missing.push(ref === undefined ? "internal: slot out of range" : whyAbsent(ref, ref.isPart ? input.part : input.metrics, input));
     }
   }
   return missing ?? NONE_MISSING;
-}
-
-function gather(R: Resolved, map: readonly number[], idx: readonly number[]): { slots: number[]; missing: readonly string[] } {
-  return { slots: slotsOf(R, map, idx), missing: missingOf(R, map, idx) };
 }
 
 /**
@@ -69,69 +69,67 @@ function gather(R: Resolved, map: readonly number[], idx: readonly number[]): { 
  * the margin is rhs − lhs for `<`/`<=` (lhs − rhs for `>`/`>=`), relative to |threshold|.
  */
 export function evaluateRule(c: CompiledRule, input: RuleInput, stamp: CompiledRuleSet["stamp"]): Verdict {
-  return evaluateResolved(c, input, resolve(c.refs, input), c.ownIndex, stamp);
-}
-
-/** "a, b, c" of a rule's stage kinds, formed once per compiled rule (hot path of not-applicable verdicts). */
-const coverTexts = new WeakMap<CompiledRule, string>();
-function coverText(c: CompiledRule): string {
-  let t = coverTexts.get(c);
-  if (t === undefined) {
-    t = c.rule.appliesTo === "all" ? "all" : c.rule.appliesTo.join(", ");
-    coverTexts.set(c, t);
-  }
-  return t;
+  return evaluateResolved(c, input, resolve(c.refs, input, c.work.own), c.ownIndex, stamp);
 }
 
 /** Names the caller left out on purpose (notRequired) that this rule needs. */
 function skippedNames(c: CompiledRule, input: RuleInput, R: Resolved, map: readonly number[]): string[] {
   const optional = input.notRequired;
   if (optional === undefined) return [];
-  return c.names.filter((n, i) => Object.hasOwn(optional, n) && R.ok[map[i] ?? -1] !== true);
+  return c.names.filter((n, i) => Object.hasOwn(optional, n) && R.ok[map[i] ?? -1] !== 1);
 }
 
 function notRequiredReason(input: RuleInput, names: readonly string[]): string {
   return `not required: ${names.map((n) => `${n} (${input.notRequired?.[n] ?? ""})`).join("; ")}`;
 }
 
+function valuesOf(c: CompiledRule, R: Resolved, map: readonly number[]): Record<string, number | boolean> {
+  const vals: Record<string, number | boolean> = {};
+  const names = c.names;
+  const refs = c.refs;
+  for (let i = 0; i < names.length; i += 1) {
+    const j = map[i] as number;
+    if (R.ok[j] === 1) vals[names[i] as string] = (refs[i] as NameRef).boolean ? R.v[j] === 1 : (R.v[j] as number);
+  }
+  return vals;
+}
+
+function notApplicable(c: CompiledRule, vals: Readonly<Record<string, number | boolean>>, code: NotApplicableCode, reason: string, stamp: CompiledRuleSet["stamp"]): Verdict {
+  return verdict(c, vals, "not-applicable", null, 0, 0, reason, code, stamp);
+}
+
 function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: readonly number[], stamp: CompiledRuleSet["stamp"]): Verdict {
   const r = c.rule;
-  const vals: Record<string, number | boolean> = {};
-  for (let i = 0; i < c.names.length; i += 1) {
-    const j = map[i] ?? -1;
-    const name = c.names[i];
-    if (R.ok[j] === true && name !== undefined) vals[name] = R.out[j] ?? Number.NaN;
-  }
-  const na = (code: NotApplicableCode, reason: string): Verdict => verdict(c, vals, "not-applicable", null, 0, 0, reason, code, stamp);
+  const vals = valuesOf(c, R, map);
   if (r.appliesTo !== "all") {
-    if (input.stageKind === undefined) return na("missing-value", `the rule covers ${coverText(c)} and no stage kind was given`);
-    if (!r.appliesTo.includes(input.stageKind)) return na("stage-kind", `the rule covers ${coverText(c)}, not ${input.stageKind}`);
+    if (input.stageKind === undefined) return notApplicable(c, vals, "missing-value", `the rule covers ${c.coverText} and no stage kind was given`, stamp);
+    if (!r.appliesTo.includes(input.stageKind)) return notApplicable(c, vals, "stage-kind", `the rule covers ${c.coverText}, not ${input.stageKind}`, stamp);
   }
+  const buf = c.work;
   try {
     if (c.when !== null) {
-      const w = gather(R, map, c.whenSlots);
+      const wSlots = fillSlots(buf.when, R, map, c.whenSlots);
       let holds: boolean | undefined;
-      if (w.missing.length > 0) {
+      if (!allPresent(R, map, c.whenSlots)) {
         // A precondition on requirement inputs the caller left out: decided if it has the same
         // value whichever way the missing flags go ("parallelSources or holdUpRequired" with
         // holdUpRequired true), otherwise the rule is out of scope; a gap elsewhere stays a gap.
         const whenNames = new Set(c.whenSlots.map((i) => c.names[i]));
         const skipped = skippedNames(c, input, R, map).filter((n) => whenNames.has(n));
-        holds = skipped.length > 0 ? preconditionOverFlags(c, R, map, w.slots) : undefined;
+        holds = skipped.length > 0 ? preconditionOverFlags(c, R, map, wSlots) : undefined;
         if (holds === undefined) {
-          if (skipped.length > 0) return na("not-required", notRequiredReason(input, skipped));
-          return na("missing-value", `precondition '${r.when}' cannot be evaluated: ${w.missing.join("; ")}`);
+          if (skipped.length > 0) return notApplicable(c, vals, "not-required", notRequiredReason(input, skipped), stamp);
+          return notApplicable(c, vals, "missing-value", `precondition '${r.when}' cannot be evaluated: ${missingOf(R, c.refs, input, map, c.whenSlots).join("; ")}`, stamp);
         }
-      } else holds = c.when.test(w.slots);
-      if (!holds) return na("precondition", `precondition '${r.when}' is false`);
+      } else holds = c.when.test(wSlots);
+      if (!holds) return notApplicable(c, vals, "precondition", `precondition '${r.when}' is false`, stamp);
     }
-    const missing = missingOf(R, map, c.expressionSlots);
-    if (missing.length > 0) {
+    if (!allPresent(R, map, c.expressionSlots)) {
       const skipped = skippedNames(c, input, R, map);
-      if (skipped.length > 0) return na("not-required", notRequiredReason(input, skipped));
-      return na("missing-value", `cannot be evaluated: ${missing.join("; ")}`);
+      if (skipped.length > 0) return notApplicable(c, vals, "not-required", notRequiredReason(input, skipped), stamp);
+      return notApplicable(c, vals, "missing-value", `cannot be evaluated: ${missingOf(R, c.refs, input, map, c.expressionSlots).join("; ")}`, stamp);
     }
-    const slots = slotsOf(R, map, c.expressionSlots);
+    const slots = fillSlots(buf.expr, R, map, c.expressionSlots);
     const cmp = c.expression.comparison;
     if (cmp === null) {
       const holds = c.expression.test(slots);
@@ -146,7 +144,7 @@ function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: r
     const reason = holds ? null : `${fmt(lhs)} ${cmp.op} ${fmt(rhs)} does not hold (margin ${fmt(margin)})`;
     return verdict(c, vals, outcome, cmp.op, rhs, margin, reason, null, stamp);
   } catch (err) {
-    if (err === NON_FINITE) return na("not-finite", "an intermediate value is not finite (division by zero, log of zero or a negative number, overflow)");
+    if (err === NON_FINITE) return notApplicable(c, vals, "not-finite", "an intermediate value is not finite (division by zero, log of zero or a negative number, overflow)", stamp);
     throw err;
   }
 }
@@ -162,7 +160,7 @@ function preconditionOverFlags(c: CompiledRule, R: Resolved, map: readonly numbe
   const free: number[] = [];
   c.whenSlots.forEach((nameIdx, k) => {
     const j = map[nameIdx] ?? -1;
-    if (R.ok[j] !== true) free.push(k);
+    if (R.ok[j] !== 1) free.push(k);
   });
   if (free.length > 4 || free.some((k) => c.refs[c.whenSlots[k] ?? -1]?.boolean !== true)) return undefined;
   let seen: boolean | undefined;
@@ -216,8 +214,14 @@ function verdict(
  * non-finite value), else pass; not-applicable when no rule was in scope at all.
  */
 export function evaluateRuleSet(set: CompiledRuleSet, input: RuleInput): RuleSetResult {
-  const R = resolve(set.refs, input);
-  return summarizeVerdicts(set.stamp, set.rules.map((c) => evaluateResolved(c, input, R, c.setIndex, set.stamp)));
+  const R = resolve(set.refs, input, set.work);
+  const rules = set.rules;
+  const verdicts = new Array<Verdict>(rules.length);
+  for (let i = 0; i < rules.length; i += 1) {
+    const c = rules[i] as CompiledRule;
+    verdicts[i] = evaluateResolved(c, input, R, c.setIndex, set.stamp);
+  }
+  return summarizeVerdicts(set.stamp, verdicts);
 }
 
 /** The set's counts and outcome from its verdicts (fail > warn > incomplete > pass; not-applicable). */
@@ -228,7 +232,9 @@ export function summarizeVerdicts(stamp: CompiledRuleSet["stamp"], verdicts: rea
     if (v.outcome === "not-applicable") {
       counts.notApplicable += 1;
       if (v.notApplicableCode === "missing-value" || v.notApplicableCode === "not-finite") gaps += 1;
-    } else counts[v.outcome] += 1;
+    } else if (v.outcome === "pass") counts.pass += 1;
+    else if (v.outcome === "warn") counts.warn += 1;
+    else counts.fail += 1;
   }
   const outcome: RuleSetOutcome = counts.fail > 0 ? "fail" : counts.warn > 0 ? "warn" : gaps > 0 ? "incomplete" : counts.pass > 0 ? "pass" : "not-applicable";
   return { ruleSet: stamp, outcome, counts, verdicts };
