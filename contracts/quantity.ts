@@ -1,6 +1,7 @@
 import type { Unit } from "mathjs";
-import mathjs from "mathjs/lib/browser/math.js";
+import { mathjs } from "../domain/rules/mathjs-bundle.js";
 import { z } from "zod";
+import { fastQuantity } from "./quantity-fast-path.js";
 
 /**
  * A physical quantity in a request: a number in the unit its field name states, or a string with
@@ -50,16 +51,18 @@ function toFieldUnit(raw: string, fieldUnit: string): Converted {
 
 function convert(raw: string, fieldUnit: string): Converted {
   const text = normaliseUnitText(raw);
+  const fast = fastQuantity(text, fieldUnit);
+  if (fast !== undefined) return { ok: true, value: fast };
   let parsed: Unit;
   try {
-    parsed = mathjs.unit(text);
+    parsed = mathjs().unit(text);
   } catch {
     return { ok: false, message: `cannot read "${raw}" as a value with a unit (expected something like "1.5 ${fieldUnit}")` };
   }
   if (parsed.units.length === 0) {
     return { ok: false, message: `"${raw}" has no unit: give a number in ${fieldUnit} or a value with a unit` };
   }
-  if (!parsed.equalBase(mathjs.unit(fieldUnit))) {
+  if (!parsed.equalBase(mathjs().unit(fieldUnit))) {
     return { ok: false, message: `"${raw}" is not a quantity of the kind ${fieldUnit} measures (wrong dimension)` };
   }
   return { ok: true, value: parsed.toNumber(fieldUnit) };

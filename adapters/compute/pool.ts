@@ -50,3 +50,34 @@ export function createComputePool(opts: { threads: number; catalogPath: string; 
     close: () => pool.destroy(),
   };
 }
+
+/**
+ * A compute pool whose threads start on the first call or on `start()`, whichever comes first. The
+ * HTTP server starts it just after it listens: each thread loads the whole router (as long as the
+ * main thread takes to start), and on a small machine threads starting alongside the main thread
+ * would double its start-up. A call that arrives before the threads are up waits in the pool's
+ * queue, within its compute budget, like any call while the threads are busy.
+ */
+export function deferredComputePool(opts: Parameters<typeof createComputePool>[0]): (ComputePool & { start(): void }) | undefined {
+  if (workerFile() === undefined || opts.threads < 1) return undefined;
+  let inner: ComputePool | undefined;
+  let closed = false;
+  const get = (): ComputePool => {
+    inner ??= createComputePool(opts);
+    if (inner === undefined) throw new Error("compute pool: the worker file is missing");
+    return inner;
+  };
+  return {
+    threads: opts.threads,
+    start: () => {
+      if (!closed) get();
+    },
+    call: (path, inputs, signal) => get().call(path, inputs, signal),
+    callJson: (path, inputs, signal) => get().callJson(path, inputs, signal),
+    lines: (records, format, signal) => get().lines(records, format, signal),
+    close: async () => {
+      closed = true;
+      await inner?.close();
+    },
+  };
+}

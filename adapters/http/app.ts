@@ -41,13 +41,12 @@ export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics =
     const requestId = incoming !== undefined && REQUEST_ID.test(incoming) ? incoming : randomUUID();
     c.set("requestId", requestId);
     const started = performance.now();
-    // Set before the handler builds its response, so it is built once with them; a handler that
-    // returns a ready Response (tRPC's) gets them after (that copies the response).
     const closing = !isReady();
-    c.header("x-request-id", requestId);
-    if (closing) c.header("connection", "close");
+    c.set("closing", closing);
     await next();
-    if (c.res.headers.get("x-request-id") !== requestId) {
+    // A handler that answered with plainResponse() carries both headers already (the cheap path:
+    // a plain header object goes to node's writeHead as it is); any other response gets them here.
+    if (c.get("headersSet") !== true) {
       c.header("x-request-id", requestId);
       if (closing) c.header("connection", "close");
     }

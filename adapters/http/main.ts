@@ -1,7 +1,7 @@
 import { availableParallelism } from "node:os";
 import { serve } from "@hono/node-server";
 import { loadCatalogFile } from "../catalog/file-catalog.js";
-import { createComputePool } from "../compute/pool.js";
+import { deferredComputePool } from "../compute/pool.js";
 import { createLogger } from "../logging/logger.js";
 import { DEMO_CATALOG } from "../project-root.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
@@ -32,9 +32,10 @@ const ruleSets = loadRuleSetStore(rulesDir);
 for (const r of ruleSets.refused()) logger.error({ file: r.file, setId: r.setId, problems: r.problems.map((p) => p.message) }, "rule set refused");
 const drainDelayMs = Number(process.env.BACKSTOP_DRAIN_DELAY_MS ?? 0);
 const shutdownTimeoutMs = Number(process.env.BACKSTOP_SHUTDOWN_TIMEOUT_MS ?? 20_000);
-// /v1 runs in worker threads (stopped at the compute budget) unless BACKSTOP_WORKERS=0.
+// /v1 runs in worker threads (stopped at the compute budget) unless BACKSTOP_WORKERS=0; they start
+// once the server listens (see deferredComputePool).
 const threads = Number(process.env.BACKSTOP_WORKERS ?? Math.min(4, availableParallelism()));
-const pool = createComputePool({ threads, catalogPath, rulesDir });
+const pool = deferredComputePool({ threads, catalogPath, rulesDir });
 
 if (config.apiKeys === undefined) logger.warn("API-key auth is OFF: set BACKSTOP_API_KEYS or BACKSTOP_API_KEYS_FILE to require a key on /v1 and /trpc");
 
@@ -50,8 +51,13 @@ const serverOptions = {
   connectionsCheckingInterval: Math.max(50, Math.min(1000, Math.floor(headersTimeout / 4))),
 };
 const server = serve({ fetch: app.fetch, port, hostname: process.env.HOST ?? "0.0.0.0", serverOptions }, (info) => {
+  // Work start-up need not wait for, done once the server listens: the compute threads (each loads
+  // the router), and a little later, when the start-up probes have been answered, the built-in rule
+  // sets (and the expression parser they need). A request that needs the sets first compiles them.
+  setImmediate(() => pool?.start());
+  setTimeout(() => logger.info({ ruleSets: ruleSets.list().map((s) => s.stamp.id) }, "rule sets ready"), 250).unref();
   logger.info(
-    { port: info.port, catalog: catalogPath, parts: catalog.list().length, ruleSets: ruleSets.list().map((s) => s.stamp.id), rulesRefused: ruleSets.refused().length, workers: pool?.threads ?? 0, auth: config.apiKeys !== undefined },
+    { port: info.port, catalog: catalogPath, parts: catalog.list().length, rulesRefused: ruleSets.refused().length, workers: pool?.threads ?? 0, auth: config.apiKeys !== undefined },
     "backstop listening",
   );
   process.stdout.write(

@@ -8,7 +8,20 @@ import type { HttpConfig } from "./config.js";
 import type { Adapter, Metrics } from "./metrics.js";
 import { problemOf, sendProblem } from "./problem.js";
 
-export type Env = { Variables: { requestId: string } };
+export type Env = { Variables: { requestId: string; closing: boolean; headersSet: boolean } };
+
+/**
+ * A JSON answer with its headers as one plain object (content type, request id, and
+ * `connection: close` while draining), marked so the request middleware adds nothing: Hono's
+ * `c.header()` would build a web Headers object, and node's server turns that back into a plain
+ * one, which costs more than a small analysis.
+ */
+export function plainResponse(c: import("hono").Context<Env>, text: string, status: number): Response {
+  c.set("headersSet", true);
+  const headers: Record<string, string> = { "content-type": "application/json", "x-request-id": c.get("requestId") };
+  if (c.get("closing") === true) headers.connection = "close";
+  return new Response(text, { status, headers });
+}
 
 export interface V1Deps {
   readonly ctx: Context;
@@ -118,10 +131,10 @@ export function mountV1(app: Hono<Env>, deps: V1Deps): void {
     }
     if (!bulk) {
       const it = items[0] as ItemJson;
-      if (it.ok) return c.body(it.json as string, 200, { "content-type": "application/json" });
+      if (it.ok) return plainResponse(c, it.json as string, 200);
       return sendProblem(c, it.status, it.error);
     }
-    return c.body(bulkBody(items), 200, { "content-type": "application/json" });
+    return plainResponse(c, bulkBody(items), 200);
   };
 
   app.post("/v1/:procedure/bulk", handler(true));

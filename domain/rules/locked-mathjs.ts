@@ -1,5 +1,5 @@
 import type { MathNode } from "mathjs";
-import mathjs from "mathjs/lib/browser/math.js";
+import { mathjs } from "./mathjs-bundle.js";
 
 /**
  * A dedicated mathjs instance, used only to parse. Its parse function is taken first, then the
@@ -8,20 +8,27 @@ import mathjs from "mathjs/lib/browser/math.js";
  * expressions are never evaluated by mathjs: the walked, whitelisted tree is compiled to closures
  * over numbers (sandbox.ts), so the lock is a second wall behind the whitelist.
  */
-// The single-file build's `create` is bound to its full factory set: a fresh, separate instance.
-const instance = mathjs.create();
-const parseOnce: (text: string) => MathNode = instance.parse;
+// Built on the first parse, not at import: taking `parse` from an instance builds the parser and
+// every node class (about a tenth of a second), which the service's start-up need not wait for.
+let parseOnce: ((text: string) => MathNode) | undefined;
 
-const refuse = (name: string) => () => {
-  throw new Error(`${name} is disabled in the rules sandbox`);
-};
-instance.import(
-  Object.fromEntries(
-    ["import", "createUnit", "evaluate", "parse", "compile", "simplify", "derivative", "resolve", "reviver"].map((n) => [n, refuse(n)]),
-  ),
-  { override: true },
-);
+function lockedParser(): (text: string) => MathNode {
+  // The single-file build's `create` is bound to its full factory set: a fresh, separate instance.
+  const instance = mathjs().create();
+  const parse: (text: string) => MathNode = instance.parse;
+  const refuse = (name: string) => () => {
+    throw new Error(`${name} is disabled in the rules sandbox`);
+  };
+  instance.import(
+    Object.fromEntries(
+      ["import", "createUnit", "evaluate", "parse", "compile", "simplify", "derivative", "resolve", "reviver"].map((n) => [n, refuse(n)]),
+    ),
+    { override: true },
+  );
+  return parse;
+}
 
 export function parseExpression(text: string): MathNode {
+  parseOnce ??= lockedParser();
   return parseOnce(text);
 }

@@ -23,17 +23,31 @@ export interface RuleSetStore {
   refused(): readonly RefusedRuleSet[];
 }
 
-export function createRuleSetStore(sets: readonly CompiledRuleSet[], refused: readonly RefusedRuleSet[] = []): RuleSetStore {
-  const byId = new Map(sets.map((s) => [s.stamp.id, s] as const));
+/**
+ * A store of compiled sets and the refused ones. `sets` may be a function: the sets are then
+ * compiled on first use (the built-in sets, which cannot be refused, need not hold up start-up).
+ */
+export function createRuleSetStore(sets: readonly CompiledRuleSet[] | (() => readonly CompiledRuleSet[]), refused: readonly RefusedRuleSet[] = []): RuleSetStore {
+  let all: readonly CompiledRuleSet[] | undefined = typeof sets === "function" ? undefined : sets;
+  let byIdCache: Map<string, CompiledRuleSet> | undefined;
+  const list = (): readonly CompiledRuleSet[] => {
+    all ??= (sets as () => readonly CompiledRuleSet[])();
+    return all;
+  };
+  const byIdMap = (): Map<string, CompiledRuleSet> => {
+    byIdCache ??= new Map(list().map((s) => [s.stamp.id, s] as const));
+    return byIdCache;
+  };
   return {
     get(id) {
+      const byId = byIdMap();
       const s = byId.get(id);
       if (s !== undefined) return { ok: true, set: s };
       const r = refused.find((f) => f.setId === id);
       if (r !== undefined) return { ok: false, message: `rule set '${id}' was refused at load (${r.file}): ${r.problems.map((p) => p.message).join("; ")}` };
       return { ok: false, message: `unknown rule set '${id}'; known: ${[...byId.keys()].join(", ")}` };
     },
-    list: () => sets,
+    list,
     refused: () => refused,
   };
 }
