@@ -55,11 +55,14 @@ export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics =
   });
 
   // API keys guard the analyses only; probes, metrics and the OpenAPI document stay open.
-  app.use("*", async (c, next) => {
-    if (checkKey === undefined || !PROTECTED.test(c.req.path)) return next();
-    if (checkKey(presentedKey(c.req.header("authorization"), c.req.header("x-api-key")))) return next();
-    return sendProblem(c, 401, { code: "unauthorized", message: "a valid API key is required (Authorization: Bearer <key> or X-API-Key)" }, { "www-authenticate": 'Bearer realm="backstop"' });
-  });
+  // (registered only when keys are configured: one middleware less on every request otherwise)
+  if (checkKey !== undefined) {
+    app.use("*", async (c, next) => {
+      if (!PROTECTED.test(c.req.path)) return next();
+      if (checkKey(presentedKey(c.req.header("authorization"), c.req.header("x-api-key")))) return next();
+      return sendProblem(c, 401, { code: "unauthorized", message: "a valid API key is required (Authorization: Bearer <key> or X-API-Key)" }, { "www-authenticate": 'Bearer realm="backstop"' });
+    });
+  }
 
   const tooLarge = (c: import("hono").Context<Env>) => sendProblem(c, 413, { code: "payload-too-large", message: `the request body exceeds ${config.maxBodyBytes} bytes (BACKSTOP_MAX_BODY_BYTES)` });
   const streamedLimit = bodyLimit({ maxSize: config.maxBodyBytes, onError: tooLarge });

@@ -19,13 +19,29 @@ export function createMetrics() {
     labelNames: ["route", "status"] as const,
     registers: [registry],
   });
+  // The labelled series, looked up once per label combination (prom-client hashes the label
+  // object on every observe otherwise); the labels are bounded (procedures, outcomes, routes).
+  const procedureSeries = new Map<string, { observe(v: number): void }>();
+  const requestSeries = new Map<string, { inc(): void }>();
   return {
     registry,
     observeProcedure(adapter: Adapter, path: string, outcome: string, seconds: number) {
-      procedure.observe({ procedure: path, outcome, adapter }, seconds);
+      const key = `${adapter}\u0000${path}\u0000${outcome}`;
+      let series = procedureSeries.get(key);
+      if (series === undefined) {
+        series = procedure.labels({ procedure: path, outcome, adapter });
+        procedureSeries.set(key, series);
+      }
+      series.observe(seconds);
     },
     countRequest(route: string, status: number) {
-      requests.inc({ route, status: String(status) });
+      const key = `${route}\u0000${status}`;
+      let series = requestSeries.get(key);
+      if (series === undefined) {
+        series = requests.labels({ route, status: String(status) });
+        requestSeries.set(key, series);
+      }
+      series.inc();
     },
   };
 }

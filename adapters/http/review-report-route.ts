@@ -53,11 +53,36 @@ export interface ReportRoute {
   readonly render: (result: unknown, opts: ReportOptions) => { readonly html: string; readonly markdown: string };
 }
 
+type ReportHandler = (c: import("hono").Context<Env>) => Promise<Response>;
+
+/**
+ * The report handlers of each app, by procedure, behind one `POST /v1/:procedure/report` route:
+ * a static path per procedure beside `/v1/:procedure/bulk` would make Hono fall back from its
+ * regular-expression router to its slower trie router for every request.
+ */
+const reportHandlers = new WeakMap<Hono<Env>, Map<string, ReportHandler>>();
+
+function reportRoute(app: Hono<Env>): Map<string, ReportHandler> {
+  let handlers = reportHandlers.get(app);
+  if (handlers === undefined) {
+    const known = new Map<string, ReportHandler>();
+    handlers = known;
+    reportHandlers.set(app, known);
+    app.post("/v1/:procedure/report", (c) => {
+      const procedure = c.req.param("procedure") ?? "";
+      const h = known.get(procedure);
+      if (h !== undefined) return h(c);
+      return sendProblem(c, 404, { code: "not-found", message: `no report for "${procedure}"; reports exist for ${[...known.keys()].join(", ")}`, issues: [{ path: ["procedure"], message: "no report for this procedure" }] });
+    });
+  }
+  return handlers;
+}
+
 /** `POST /v1/<procedure>/report` for any procedure with a renderer (the review's route is the pattern). */
 export function mountProcedureReport(app: Hono<Env>, deps: ReviewReportDeps, route: ReportRoute): void {
   const invoke = procedureInvoker(deps.ctx)(route.procedure);
   if (invoke === undefined) throw new Error(`the router has no ${route.procedure} procedure`);
-  app.post(`/v1/${route.procedure}/report`, async (c) => {
+  reportRoute(app).set(route.procedure, async (c) => {
     let body: unknown;
     try {
       body = JSON.parse(await c.req.text());
