@@ -4,6 +4,7 @@ import { integratePeriod, type PeriodIntegrals } from "../solve/ac-bridge-period
 import { fmt } from "../solve/electrical-point.js";
 import { SEARCH_ABOVE_LIMIT_K } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
+import { mirrorState, wholeFromHalf, wholeTraceFromHalf } from "../solve/ac-bridge-half-wave.js";
 import { shootPeriodic } from "../solve/periodic-shooting.js";
 import { type AcCircuitMetrics, type AcElementMetrics, SLOT, circuitMetrics, elementMetrics } from "./bridge-ac-metrics.js";
 import { type AcPeriodWaveform, acPeriodWaveform } from "./bridge-ac-waveform.js";
@@ -12,7 +13,7 @@ import {
   BRIDGE_POSITIONS,
   type BridgeElements,
   type BridgePosition,
-  controllerGateV,
+  gateDriveOf,
   elementLaw,
   elementReverseRatingV,
   elementRthKPerW,
@@ -63,6 +64,8 @@ interface Isothermal {
   readonly integrals: PeriodIntegrals;
   readonly trace: readonly Snapshot[];
   readonly end: readonly number[];
+  /** Change over one period of the energy in the capacitor and the inductance, J. */
+  readonly storedJ: { readonly capacitorJ: number; readonly inductorJ: number };
   readonly iterations: number;
   readonly periods: number;
   readonly steps: number;
@@ -84,11 +87,14 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
   const rippleV = Math.min(peakV, currentScaleA / (2 * m.frequencyHz * m.capacitanceF));
   const voltageScaleV = Math.min(peakV, 10 * rippleV);
   const x0 = warm ?? (inductive ? [0.9 * peakV, 0] : [0.9 * peakV]);
+  // A symmetric bridge repeats every half period (ac-bridge-half-wave.ts): shoot on the half map.
+  const half = halfWaveSymmetric(m, tjK);
+  const opt = { rtol: AC_RTOL, voltageScaleV, currentScaleA, record: true, halfPeriod: half };
   const shot = shootPeriodic(
     (x) => {
-      const r = integratePeriod(circuit, x, { rtol: AC_RTOL, voltageScaleV, currentScaleA, record: true });
+      const r = integratePeriod(circuit, x, opt);
       if (!r.ok) return { ok: false, reason: r.reason };
-      return { ok: true, end: r.end, value: { integrals: r.integrals, trace: r.trace ?? [], steps: r.steps } };
+      return { ok: true, end: half ? mirrorState(r.end) : r.end, value: { integrals: r.integrals, trace: r.trace ?? [], steps: r.steps } };
     },
     x0,
     inductive ? [voltageScaleV, currentScaleA] : [voltageScaleV],
@@ -97,7 +103,35 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
   if (!shot.ok) return { ok: false, outcome: shot.code, reason: shot.reason };
   const last = shot.value;
   const end = shot.x.map((v, j) => v + (shot.residual[j] ?? 0));
-  return { ok: true, x: shot.x, end, integrals: last.integrals, trace: last.trace, iterations: shot.iterations, periods: shot.periods, steps: last.steps };
+  // Energy stored over one period: a half period's change, twice, on the half map.
+  const spans = half ? 2 : 1;
+  const storedJ = {
+    capacitorJ: spans * 0.5 * m.capacitanceF * ((end[0] ?? 0) ** 2 - (shot.x[0] ?? 0) ** 2),
+    inductorJ: spans * 0.5 * m.leakageInductanceH * ((end[1] ?? 0) ** 2 - (shot.x[1] ?? 0) ** 2),
+  };
+  const period = 1 / m.frequencyHz;
+  return {
+    ok: true,
+    x: shot.x,
+    end,
+    storedJ,
+    integrals: half ? wholeFromHalf(last.integrals) : last.integrals,
+    trace: half ? wholeTraceFromHalf(last.trace, period) : last.trace,
+    iterations: shot.iterations,
+    periods: shot.periods / spans,
+    steps: spans * last.steps,
+  };
+}
+
+/**
+ * Whether the bridge is half-wave symmetric: the first element of each pair is the same part at
+ * the same temperature, and so is the second (line1High ~ line2High, line2Low ~ line1Low).
+ * Structural equality of the element records; anything else takes the whole period.
+ */
+function halfWaveSymmetric(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, number>>): boolean {
+  const e = m.elements;
+  const same = (a: BridgePosition, b: BridgePosition) => tjK[a] === tjK[b] && (e[a] === e[b] || JSON.stringify(e[a]) === JSON.stringify(e[b]));
+  return same("line1High", "line2High") && same("line2Low", "line1Low");
 }
 
 /**
@@ -168,13 +202,7 @@ export function steadyStateOf(
   waveformPoints?: number,
 ): AcSteadyState {
   const period = 1 / m.frequencyHz;
-  const x0 = iso.x;
-  const x1 = iso.end;
-  const stored = {
-    capacitorJ: 0.5 * m.capacitanceF * ((x1[0] ?? 0) ** 2 - (x0[0] ?? 0) ** 2),
-    inductorJ: 0.5 * m.leakageInductanceH * ((x1[1] ?? 0) ** 2 - (x0[1] ?? 0) ** 2),
-  };
-  const circuit = circuitMetrics(iso.integrals, period, m.sourceRmsV, stored);
+  const circuit = circuitMetrics(iso.integrals, period, m.sourceRmsV, iso.storedJ);
   const elements = BRIDGE_POSITIONS.map((position): AcElementResult => {
     const e = m.elements[position];
     return {
@@ -204,11 +232,16 @@ function buildCircuit(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, num
   }
   // MOSFET laws depend on the supply only through the gate drive: rebuild when that changes.
   const cache = new Map<BridgePosition, { gateV: number | undefined; law: ForwardLaw }>();
+  const gates = new Map<BridgePosition, (supplyV: number) => number | undefined>();
+  for (const p of BRIDGE_POSITIONS) {
+    const e = m.elements[p];
+    if (e.kind === "nfet-ideal-diode") gates.set(p, gateDriveOf(e));
+  }
   const lawOf = (p: BridgePosition, supplyV: number): ForwardLaw => {
     const f = fixed.get(p);
     if (f !== undefined) return f;
     const e = m.elements[p];
-    const gateV = e.kind === "nfet-ideal-diode" ? controllerGateV(e, supplyV) : undefined;
+    const gateV = gates.get(p)?.(supplyV);
     const hit = cache.get(p);
     if (hit !== undefined && hit.gateV === gateV) return hit.law;
     const law = elementLaw(e, tjK[p], supplyV).law;
@@ -221,10 +254,26 @@ function buildCircuit(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, num
     negative: [lawOf("line2High", supplyV), lawOf("line1Low", supplyV)],
   });
   const constant = allFixed ? pairs(0) : undefined;
+  // The integrator asks once per step; the laws change only when a gate drive does, so the
+  // last answer is kept (same supply, or same four laws) instead of a new record per step.
+  let lastSupplyV = Number.NaN;
+  let lastPairs: PairLaws | undefined;
+  const cachedPairs = (supplyV: number): PairLaws => {
+    if (lastPairs !== undefined && supplyV === lastSupplyV) return lastPairs;
+    const p = pairs(supplyV);
+    lastSupplyV = supplyV;
+    if (lastPairs !== undefined && samePairs(p, lastPairs)) return lastPairs;
+    lastPairs = p;
+    return p;
+  };
   return {
     ...sourceAndFilterOf(m),
-    pairLaws: constant !== undefined ? () => constant : pairs,
+    pairLaws: constant !== undefined ? () => constant : cachedPairs,
   };
+}
+
+function samePairs(a: PairLaws, b: PairLaws): boolean {
+  return a.positive[0] === b.positive[0] && a.positive[1] === b.positive[1] && a.negative[0] === b.negative[0] && a.negative[1] === b.negative[1];
 }
 
 /** A current scale for the error control: the load current at the source peak voltage. */

@@ -89,12 +89,14 @@ export function elementLaw(e: BridgeElement, tK: number, controllerSupplyV: numb
 
 /** Gate drive the element's controller delivers at its supply, V; undefined below its start voltage. */
 export function controllerGateV(e: IdealDiodeStage, controllerSupplyV: number): number | undefined {
+  return gateDriveOf(e)(controllerSupplyV);
+}
+
+/** controllerGateV as a function of the supply, with the gate-drive table built once. */
+export function gateDriveOf(e: IdealDiodeStage): (controllerSupplyV: number) => number | undefined {
   const c = e.controller;
-  if (controllerSupplyV < c.startV) return undefined;
-  return interpolate(
-    c.gateDrive.map((p) => [p.inputV, p.gateSourceV] as const),
-    controllerSupplyV,
-  );
+  const nodes = c.gateDrive.map((p) => [p.inputV, p.gateSourceV] as const);
+  return (supplyV) => (supplyV < c.startV ? undefined : interpolate(nodes, supplyV));
 }
 
 /** Shockley with series resistance, Is(T) and n·Vt evaluated once for the temperature. */
@@ -113,35 +115,37 @@ export function junctionLaw(d: DiodeParams, tK: number): ForwardLaw {
  * ln-form Id = Is·(exp((V − Id·Rs)/nVt) − 1) with the diode current as the inner unknown.
  */
 export function channelLaw(rOhm: number, d: DiodeParams, tK: number, regulatedDropV: number): ForwardLaw {
-  const diode = junctionLaw(d, tK);
+  // Is(T), n·Vt and Rs once per law; the inner loop works on plain numbers (no per-call tuples).
+  const is = saturationCurrentAt(d, tK);
+  const nvt = emissionVoltageV(d, tK);
+  const rs = d.seriesResistanceOhm;
+  const off: readonly [number, number] = [Math.max(regulatedDropV, 0), rOhm];
   return (i) => {
-    if (!(i > 0)) return [Math.max(regulatedDropV , 0), rOhm];
-    // Unknown: body-diode current y in [0, i]; residual (i − y)·R − Vd(y) = 0, decreasing in y.
-    const r0 = i * rOhm - diode(0)[0];
-    let y = 0;
-    if (r0 > 0) {
-      let lo = 0;
-      let hi = i;
-      // The body current at the unshared channel voltage bounds y from above; one Newton step
-      // from there lands left of the root, and from the left Newton on this convex f is monotone.
-      y = Math.min(i, saturationCurrentAt(d, tK) * Math.expm1(Math.min((i * rOhm) / (emissionVoltageV(d, tK)), 700)));
-      for (let k = 0; k < 60; k += 1) {
-        const [vd, sd] = diode(y);
-        const f = (i - y) * rOhm - vd;
-        if (f > 0) lo = y;
-        else hi = y;
-        let next = y + f / (rOhm + sd);
-        if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
-        if (Math.abs(next - y) <= 1e-15 * i + 1e-300) {
-          y = next;
-          break;
-        }
+    if (!(i > 0)) return off;
+    // Unknown: body-diode current y in [0, i]; residual (i − y)·R − Vd(y) = 0, decreasing in y
+    // (Vd(0) = 0, so the residual at y = 0 is i·R > 0).
+    let lo = 0;
+    let hi = i;
+    // The body current at the unshared channel voltage bounds y from above; one Newton step
+    // from there lands left of the root, and from the left Newton on this convex f is monotone.
+    let y = Math.min(i, is * Math.expm1(Math.min((i * rOhm) / nvt, 700)));
+    for (let k = 0; k < 60; k += 1) {
+      const vd = nvt * Math.log1p(y / is) + y * rs;
+      const sd = nvt / (y + is) + rs;
+      const f = (i - y) * rOhm - vd;
+      if (f > 0) lo = y;
+      else hi = y;
+      let next = y + f / (rOhm + sd);
+      if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+      if (Math.abs(next - y) <= 1e-15 * i + 1e-300) {
         y = next;
+        break;
       }
+      y = next;
     }
     const v = (i - y) * rOhm;
     if (regulatedDropV > 0 && v < regulatedDropV) return [regulatedDropV, 0];
-    const sd = diode(y)[1];
+    const sd = nvt / (y + is) + rs;
     return [v, 1 / (1 / rOhm + 1 / sd)];
   };
 }

@@ -36,10 +36,12 @@ export interface PeriodOptions {
   readonly voltageScaleV: number;
   readonly currentScaleA: number;
   readonly record: boolean;
+  /** Integrate to T/2 only (the half-wave map of a symmetric bridge, ac-bridge-half-wave.ts); default the whole period. */
+  readonly halfPeriod?: boolean;
 }
 
 /**
- * Integrate the AC bridge over one period from state x0 at t = 0 (the rising zero of the source)
+ * Integrate the AC bridge over one period (or its first half) from state x0 at t = 0 (the rising zero of the source)
  * by TR-BDF2 with local-error step control: the error estimate is LTE_COEFF·h³·|x‴|, with x‴ from
  * the second divided difference of f on the step's three nodes. The controllers' supply is the
  * reservoir voltage at the start of each step. Steps end on the source's peaks and zero
@@ -53,6 +55,7 @@ export function integratePeriod(
   opt: PeriodOptions,
 ): PeriodOutcome {
   const period = 1 / c.frequencyHz;
+  const endS = opt.halfPeriod === true ? period / 2 : period;
   const scale = [opt.rtol * opt.voltageScaleV, opt.rtol * opt.currentScaleA];
   const hMax = period / 25;
   const hMin = period * 1e-12;
@@ -69,11 +72,11 @@ export function integratePeriod(
   let steps = 0;
   // Breakpoints at the source's peaks and zero crossings: a short conduction pulse around a
   // peak always contains a node, so a long step cannot jump over it unseen.
-  const breaks = [0.25, 0.5, 0.75, 1].map((q) => q * period);
+  const breaks = [0.25, 0.5, 0.75, 1].map((q) => q * period).filter((b) => b <= endS * (1 + 1e-12));
   let nextBreak = 0;
-  while (t < period) {
-    while ((breaks[nextBreak] ?? period) <= t * (1 + 1e-12)) nextBreak += 1;
-    const target = breaks[nextBreak] ?? period;
+  while (t < endS) {
+    while ((breaks[nextBreak] ?? endS) <= t * (1 + 1e-12)) nextBreak += 1;
+    const target = breaks[nextBreak] ?? endS;
     const last = t + h >= target - period * 1e-12;
     if (last) h = target - t;
     laws = c.pairLaws(x[0] ?? 0);
