@@ -89,12 +89,15 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
   const x0 = warm ?? (inductive ? [0.9 * peakV, 0] : [0.9 * peakV]);
   // A symmetric bridge repeats every half period (ac-bridge-half-wave.ts): shoot on the half map.
   const half = halfWaveSymmetric(m, tjK);
-  const opt = { rtol: AC_RTOL, voltageScaleV, currentScaleA, record: true, halfPeriod: half };
+  const opt = { rtol: AC_RTOL, voltageScaleV, currentScaleA, record: true, halfPeriod: half, jacobian: true };
   const shot = shootPeriodic(
     (x) => {
       const r = integratePeriod(circuit, x, opt);
       if (!r.ok) return { ok: false, reason: r.reason };
-      return { ok: true, end: half ? mirrorState(r.end) : r.end, value: { integrals: r.integrals, trace: r.trace ?? [], steps: r.steps } };
+      const value = { integrals: r.integrals, trace: r.trace ?? [], steps: r.steps };
+      // On the half map the end is mirrored, M·H(x), and so is its derivative's current row.
+      const jacobian = half && r.jacobian !== undefined ? r.jacobian.map((row, i) => (i === 1 ? row.map((v) => -v) : row)) : r.jacobian;
+      return { ok: true, end: half ? mirrorState(r.end) : r.end, value, ...(jacobian === undefined ? {} : { jacobian }) };
     },
     x0,
     inductive ? [voltageScaleV, currentScaleA] : [voltageScaleV],

@@ -63,6 +63,12 @@ export interface Snapshot {
   readonly inductorV: number;
   /** dx/dt of the state [capV, lineA] (lineA only with inductance). */
   readonly f: readonly number[];
+  /**
+   * Sensitivity of the stage solution to its right-hand side b (solveStage): ∂capA/∂b₀ without
+   * inductance; [∂capA/∂b₀, ∂capA/∂b₁, ∂vL/∂b₀, ∂vL/∂b₁] with it. The integrator chains these into
+   * the derivative of the period map (its shooting Jacobian).
+   */
+  readonly sens: readonly number[];
 }
 
 export function loadCurrentA(load: LoadModel, v: number): number {
@@ -125,11 +131,16 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
   const k = c.esrOhm + a / cap;
   const bv = b[0] ?? 0;
   const lh = c.leakageInductanceH;
-  const finish = (i: number, s: 1 | -1 | 0, outV: number, dA: number, dB: number, inductorV: number): Snapshot => {
+  const finish = (i: number, s: 1 | -1 | 0, outV: number, dA: number, dB: number, inductorV: number, sens: readonly number[]): Snapshot => {
     const loadA = loadCurrentA(c.load, outV);
     const capA = Math.abs(i) - loadA;
     const f = lh > 0 ? [capA / cap, inductorV / lh] : [capA / cap];
-    return { t, sourceV: e, capV: outV - c.esrOhm * capA, lineA: i, outV, loadA, capA, pair: s, dropAV: dA, dropBV: dB, inductorV, f };
+    return { t, sourceV: e, capV: outV - c.esrOhm * capA, lineA: i, outV, loadA, capA, pair: s, dropAV: dA, dropBV: dB, inductorV, f, sens };
+  };
+  // Off-state output: v + k·ℓ(v) = b₀, so ∂v/∂b₀ = 1/(1 + k·ℓ'(v)) and ∂capA/∂b₀ = −ℓ'·∂v/∂b₀.
+  const offSens = (outV: number, kk: number): number => {
+    const slope = loadSlopeS(c.load, outV);
+    return -slope / (1 + kk * slope);
   };
 
   if (!(lh > 0)) {
@@ -139,7 +150,7 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
     const s: 1 | -1 = e >= 0 ? 1 : -1;
     const [la, lb] = s > 0 ? laws.positive : laws.negative;
     // Laws give the right-hand limit at zero current (a regulated drop starts at its setpoint).
-    if (off >= m - la(0)[0] - lb(0)[0]) return finish(0, 0, off, 0, 0, 0);
+    if (off >= m - la(0)[0] - lb(0)[0]) return finish(0, 0, off, 0, 0, 0, [offSens(off, k)]);
     // g(i) = outV + k·ℓ(outV) − k·i − b: g(0) > 0, decreasing.
     const g = (i: number): readonly [number, number] => {
       const [va, sa] = la(i);
@@ -151,11 +162,15 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
     let hi = Math.max(Math.abs(hintA) * 2, (m - off) / Math.max(r + k, 1e-3), 1e-9);
     for (let n = 0; n < 200 && g(hi)[0] > 0; n += 1) hi *= 2;
     const i = safeNewton(g, 0, hi, g(0)[0], Math.abs(hintA), 1e-13 * hi);
-    const [va] = la(i);
-    const [vb] = lb(i);
+    const [va, sa] = la(i);
+    const [vb, sb] = lb(i);
     const outV = m - r * i - va - vb;
     if (!(outV > 0)) return undefined;
-    return finish(s * i, s, outV, va, vb, 0);
+    // g(i; b₀) = 0: ∂i/∂b₀ = 1/g'(i); capA = i − ℓ(outV(i)), outV' = −(R + rA + rB).
+    const rr = r + sa + sb;
+    const slope = loadSlopeS(c.load, outV);
+    const gp = -rr * (1 + k * slope) - k;
+    return finish(s * i, s, outV, va, vb, 0, [(1 + slope * rr) / gp]);
   }
 
   const bi = b[1] ?? 0;
@@ -164,17 +179,21 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
     const i = bi;
     const outV = solveOutputV(c.load, bv + c.esrOhm * Math.abs(i), c.esrOhm);
     if (outV === undefined) return undefined;
+    const ov = 1 / (1 + c.esrOhm * loadSlopeS(c.load, outV));
+    const slope = loadSlopeS(c.load, outV);
     if (i === 0) {
       const s: 1 | -1 = e >= 0 ? 1 : -1;
       const [la, lb] = s > 0 ? laws.positive : laws.negative;
       const drive = Math.abs(e) - outV - la(0)[0] - lb(0)[0];
-      return finish(0, 0, outV, 0, 0, drive > 0 ? s * drive : 0);
+      return finish(0, 0, outV, 0, 0, drive > 0 ? s * drive : 0, [-slope * ov, 0, drive > 0 ? -s * ov : 0, 0]);
     }
     const s: 1 | -1 = i > 0 ? 1 : -1;
     const [la, lb] = s > 0 ? laws.positive : laws.negative;
-    const va = la(Math.abs(i))[0];
-    const vb = lb(Math.abs(i))[0];
-    return finish(i, s, outV, va, vb, e - r * i - s * (va + vb + outV));
+    const [va, sa] = la(Math.abs(i));
+    const [vb, sb] = lb(Math.abs(i));
+    // outV from b₀ + ESR·|i|: ∂outV/∂b₀ = ov, ∂outV/∂b₁ = ESR·s·ov.
+    const sens = [-slope * ov, s - slope * c.esrOhm * s * ov, -s * ov, -r - sa - sb - c.esrOhm * ov];
+    return finish(i, s, outV, va, vb, e - r * i - s * (va + vb + outV), sens);
   }
   const al = a / lh;
   const out0 = solveOutputV(c.load, bv, k);
@@ -184,7 +203,7 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
   let s: 1 | -1 | 0 = 0;
   if (q > onset(laws.positive)) s = 1;
   else if (-q > onset(laws.negative)) s = -1;
-  if (s === 0) return finish(0, 0, out0, 0, 0, -bi / al);
+  if (s === 0) return finish(0, 0, out0, 0, 0, -bi / al, [offSens(out0, k), 0, 0, -1 / al]);
   const sq = s * q;
   const [la, lb] = s > 0 ? laws.positive : laws.negative;
   const dk = (out: number): number => k / (1 + k * loadSlopeS(c.load, out));
@@ -203,7 +222,16 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
   const x = safeNewton(h, 0, sq, onset(s > 0 ? laws.positive : laws.negative) - sq, Math.abs(hintA), 1e-14 * sq);
   const outV = solveOutputV(c.load, bv + k * x, k);
   if (failed || outV === undefined) return undefined;
-  const va = la(x)[0];
-  const vb = lb(x)[0];
-  return finish(s * x, s, outV, va, vb, (s * x - bi) / al);
+  const [va, sa] = la(x);
+  const [vb, sb] = lb(x);
+  // h(x; b) = 0 with ∂h/∂b₀ = (a/L)·ov, ∂h/∂b₁ = −s; outV = O(b₀ + k·x), ∂O = ov = 1/(1 + k·ℓ').
+  const slope = loadSlopeS(c.load, outV);
+  const ov = 1 / (1 + k * slope);
+  const hx = 1 + al * (r + sa + sb + k * ov);
+  const dx0 = (-al * ov) / hx;
+  const dx1 = s / hx;
+  const dOut0 = ov * (1 + k * dx0);
+  const dOut1 = ov * k * dx1;
+  const sens = [dx0 - slope * dOut0, dx1 - slope * dOut1, (s * dx0) / al, (s * dx1 - 1) / al];
+  return finish(s * x, s, outV, va, vb, (s * x - bi) / al, sens);
 }

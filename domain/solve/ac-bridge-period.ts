@@ -27,7 +27,15 @@ export interface PeriodIntegrals {
 }
 
 export type PeriodOutcome =
-  | { readonly ok: true; readonly end: readonly number[]; readonly integrals: PeriodIntegrals; readonly steps: number; readonly trace?: readonly Snapshot[] }
+  | {
+      readonly ok: true;
+      readonly end: readonly number[];
+      readonly integrals: PeriodIntegrals;
+      readonly steps: number;
+      readonly trace?: readonly Snapshot[];
+      /** ∂end/∂x0 (row i, column j), with `jacobian` asked for. */
+      readonly jacobian?: readonly (readonly number[])[];
+    }
   | { readonly ok: false; readonly code: "load-collapse"; readonly atS: number; readonly reason: string };
 
 export interface PeriodOptions {
@@ -38,6 +46,12 @@ export interface PeriodOptions {
   readonly record: boolean;
   /** Integrate to T/2 only (the half-wave map of a symmetric bridge, ac-bridge-half-wave.ts); default the whole period. */
   readonly halfPeriod?: boolean;
+  /**
+   * Also differentiate the discrete map: the stages' sensitivities (Snapshot.sens) chained
+   * through the TR and BDF2 stages on the accepted steps (the variational equation of the
+   * one-step method, exact for its step sequence).
+   */
+  readonly jacobian?: boolean;
 }
 
 /**
@@ -70,6 +84,11 @@ export function integratePeriod(
   if (opt.record) trace.push(s0);
   let h = period / 2000;
   let steps = 0;
+  const n = x.length;
+  const sens = opt.jacobian === true;
+  // Dx = ∂x/∂x0 and Df = ∂f/∂x0 at the step's start node, n×n row-major.
+  let dx: number[] = n > 1 ? [1, 0, 0, 1] : [1];
+  let df: number[] = sens ? mulS(c, s0, dx) : [];
   // Breakpoints at the source's peaks and zero crossings: a short conduction pulse around a
   // peak always contains a node, so a long step cannot jump over it unseen.
   const breaks = [0.25, 0.5, 0.75, 1].map((q) => q * period).filter((b) => b <= endS * (1 + 1e-12));
@@ -110,6 +129,13 @@ export function integratePeriod(
       errNorm = Math.max(errNorm, err / (scale[j] ?? 1));
     }
     if (errNorm <= 1 || h <= hMin * 4) {
+      if (sens) {
+        const db1 = axpy(dx, a1, df);
+        const dxg = axpy(db1, a1, mulS(c, sg, db1));
+        const db2 = dxg.map((v, k) => BDF_W_GAMMA * v + BDF_W_N * (dx[k] ?? 0));
+        df = mulS(c, s1, db2);
+        dx = axpy(db2, BDF_COEFF * h, df);
+      }
       accumulate(acc, c, s0, sg, s1, h);
       if (opt.record) trace.push(sg, s1);
       t = last ? target : t + h;
@@ -120,7 +146,27 @@ export function integratePeriod(
     const grow = errNorm > 0 ? 0.9 * errNorm ** (-1 / 3) : 4;
     h = Math.min(hMax, h * Math.min(4, Math.max(0.2, grow)));
   }
-  return { ok: true, end: x, integrals: acc, steps, ...(opt.record ? { trace } : {}) };
+  const jacobian = n > 1 ? [[dx[0] ?? 0, dx[1] ?? 0], [dx[2] ?? 0, dx[3] ?? 0]] : [[dx[0] ?? 0]];
+  return { ok: true, end: x, integrals: acc, steps, ...(opt.record ? { trace } : {}), ...(sens ? { jacobian } : {}) };
+}
+
+/** y + a·z for small flat matrices. */
+function axpy(y: readonly number[], a: number, z: readonly number[]): number[] {
+  return y.map((v, k) => v + a * (z[k] ?? 0));
+}
+
+/** ∂f/∂x0 = S·D, S = ∂f/∂b of the node (f = [capA/C, vL/L]) and D = ∂b/∂x0. */
+function mulS(c: AcBridgeCircuit, s: Snapshot, d: readonly number[]): number[] {
+  const sv = s.sens;
+  if (d.length === 1) return [((sv[0] ?? 0) / c.capacitanceF) * (d[0] ?? 0)];
+  const cap = c.capacitanceF;
+  const lh = c.leakageInductanceH;
+  const s00 = (sv[0] ?? 0) / cap;
+  const s01 = (sv[1] ?? 0) / cap;
+  const s10 = (sv[2] ?? 0) / lh;
+  const s11 = (sv[3] ?? 0) / lh;
+  const [d00 = 0, d01 = 0, d10 = 0, d11 = 0] = d;
+  return [s00 * d00 + s01 * d10, s00 * d01 + s01 * d11, s10 * d00 + s11 * d10, s10 * d01 + s11 * d11];
 }
 
 function collapse(atS: number): PeriodOutcome {

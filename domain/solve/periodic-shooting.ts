@@ -1,5 +1,7 @@
 /** One evaluation of the period map: the state after one period from x, and what it carried. */
-export type PeriodMap<T> = (x: readonly number[]) => { readonly ok: true; readonly end: readonly number[]; readonly value: T } | { readonly ok: false; readonly reason: string };
+export type PeriodMap<T> = (
+  x: readonly number[],
+) => { readonly ok: true; readonly end: readonly number[]; readonly value: T; readonly jacobian?: readonly (readonly number[])[] } | { readonly ok: false; readonly reason: string };
 
 export type ShootingOutcome<T> =
   | { readonly ok: true; readonly x: readonly number[]; readonly value: T; readonly iterations: number; readonly periods: number; readonly residual: readonly number[] }
@@ -8,8 +10,9 @@ export type ShootingOutcome<T> =
 /**
  * Periodic steady state by shooting: the root of F(x) = P(x) − x, P the map over one period
  * (T. J. Aprille and T. N. Trick, "Steady-state analysis of nonlinear circuits with periodic
- * inputs", Proc. IEEE 60(1), 1972). Newton with a finite-difference Jacobian, then Broyden's
- * rank-one updates (one period per iteration). A step is accepted when it lowers max|F_j|/scale_j;
+ * inputs", Proc. IEEE 60(1), 1972). Newton on J = ∂P/∂x − I: with the map's own derivative when
+ * it returns one (the sensitivity of the integration, as Aprille and Trick), else a
+ * finite-difference Jacobian and then Broyden's rank-one updates (one period per iteration). A step is accepted when it lowers max|F_j|/scale_j;
  * otherwise (also where the map fails or x[0] would turn non-positive) it is halved, and after
  * four halvings one period of the plain transient is taken instead, with a fresh Jacobian. The
  * fallback matters where F has a kink: a reservoir so large that a slightly higher start voltage
@@ -26,13 +29,14 @@ export function shootPeriodic<T>(map: PeriodMap<T>, x0: readonly number[], scale
   let x = [...x0];
   const first = run(x);
   if (!first.ok) return { ok: false, code: "load-collapse", reason: first.reason, periods };
-  let p: { readonly end: readonly number[]; readonly value: T } = first;
+  let p: { readonly end: readonly number[]; readonly value: T; readonly jacobian?: readonly (readonly number[])[] } = first;
   let f = p.end.map((v, j) => v - (x[j] ?? 0));
   let jac: number[][] | undefined;
   for (let iter = 0; iter < maxIter; iter += 1) {
     if (f.every((v, j) => Math.abs(v) <= tol * (scale[j] ?? 1))) {
       return { ok: true, x, value: p.value, iterations: iter, periods, residual: f };
     }
+    if (p.jacobian !== undefined) jac = p.jacobian.map((row, i) => row.map((v, j) => v - (i === j ? 1 : 0)));
     if (jac === undefined) {
       jac = [];
       for (let j = 0; j < n; j += 1) {
