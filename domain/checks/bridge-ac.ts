@@ -1,11 +1,11 @@
 import { cToK, kToC } from "../physics/constants.js";
 import { type AcBridgeCircuit, type AcSourceAndFilter, type ForwardLaw, type PairLaws, type Snapshot, sourceAndFilterOf } from "../solve/ac-bridge-circuit.js";
-import { integratePeriod, type PeriodIntegrals } from "../solve/ac-bridge-period.js";
+import { integratePeriod, type PeriodIntegrals, type PeriodOptions } from "../solve/ac-bridge-period.js";
 import { fmt } from "../solve/electrical-point.js";
 import { SEARCH_ABOVE_LIMIT_K } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
 import { mirrorState, wholeFromHalf, wholeTraceFromHalf } from "../solve/ac-bridge-half-wave.js";
-import { shootPeriodic } from "../solve/periodic-shooting.js";
+import { newtonPredictor, type PeriodMap, shootPeriodic } from "../solve/periodic-shooting.js";
 import { type AcCircuitMetrics, type AcElementMetrics, SLOT, circuitMetrics, elementMetrics } from "./bridge-ac-metrics.js";
 import { type AcPeriodWaveform, acPeriodWaveform } from "./bridge-ac-waveform.js";
 import { validateAcModel } from "./bridge-ac-validate.js";
@@ -55,6 +55,8 @@ export type BridgeAcOutcome =
 
 /** Relative tolerance of the integrator's local error and of the shooting residual. */
 export const AC_RTOL = 1e-5;
+/** Tolerance of the predictor's one coarse map (only its start value is used, never its results). */
+const PREDICTOR_RTOL = 1e-3;
 const THERMAL_TOL_K = 1e-3;
 const THERMAL_MAX_ITER = 100;
 
@@ -86,19 +88,25 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
   // the peak, if smaller) scales the integrator's voltage error and the periodicity residual.
   const rippleV = Math.min(peakV, currentScaleA / (2 * m.frequencyHz * m.capacitanceF));
   const voltageScaleV = Math.min(peakV, 10 * rippleV);
-  const x0 = warm ?? (inductive ? [0.9 * peakV, 0] : [0.9 * peakV]);
   // A symmetric bridge repeats every half period (ac-bridge-half-wave.ts): shoot on the half map.
   const half = halfWaveSymmetric(m, tjK);
   const opt = { rtol: AC_RTOL, voltageScaleV, currentScaleA, record: true, halfPeriod: half, jacobian: true };
-  const shot = shootPeriodic(
-    (x) => {
-      const r = integratePeriod(circuit, x, opt);
+  const periodMap = (o: PeriodOptions): PeriodMap<{ integrals: PeriodIntegrals; trace: readonly Snapshot[]; steps: number }> => (x) => {
+      const r = integratePeriod(circuit, x, o);
       if (!r.ok) return { ok: false, reason: r.reason };
       const value = { integrals: r.integrals, trace: r.trace ?? [], steps: r.steps };
       // On the half map the end is mirrored, M·H(x), and so is its derivative's current row.
       const jacobian = half && r.jacobian !== undefined ? r.jacobian.map((row, i) => (i === 1 ? row.map((v) => -v) : row)) : r.jacobian;
       return { ok: true, end: half ? mirrorState(r.end) : r.end, value, ...(jacobian === undefined ? {} : { jacobian }) };
-    },
+    };
+  // Start: the previous solution when warm (electrothermal loop), else one Newton step on the
+  // map at a loose tolerance from 0.9·peak (a fraction of a fine period's steps; it lands inside
+  // the fine map's quadratic basin, so the fine shooting typically needs two maps, not three).
+  const guess = inductive ? [0.9 * peakV, 0] : [0.9 * peakV];
+  const predicted = warm === undefined ? newtonPredictor(periodMap({ ...opt, rtol: PREDICTOR_RTOL, record: false }), guess) : undefined;
+  const x0 = warm ?? predicted ?? guess;
+  const shot = shootPeriodic(
+    periodMap(opt),
     x0,
     inductive ? [voltageScaleV, currentScaleA] : [voltageScaleV],
     10 * AC_RTOL,
@@ -121,7 +129,8 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
     integrals: half ? wholeFromHalf(last.integrals) : last.integrals,
     trace: half ? wholeTraceFromHalf(last.trace, period) : last.trace,
     iterations: shot.iterations,
-    periods: shot.periods / spans,
+    // The predictor's coarse map counts as one (cheaper) map integrated.
+    periods: (shot.periods + (warm === undefined ? 1 : 0)) / spans,
     steps: spans * last.steps,
   };
 }

@@ -95,6 +95,21 @@ export function shootPeriodic<T>(map: PeriodMap<T>, x0: readonly number[], scale
   return { ok: false, code: "no-periodic-steady-state", reason: `the shooting iteration did not converge in ${maxIter} iterations`, periods };
 }
 
+/**
+ * One Newton step x0 − (∂P/∂x − I)⁻¹·(P(x0) − x0) on a (cheaper) map that returns its derivative:
+ * a start for shootPeriodic. Undefined when the map fails, returns no derivative, the step is
+ * singular or not finite, or x[0] would not stay positive.
+ */
+export function newtonPredictor<T>(map: PeriodMap<T>, x0: readonly number[]): number[] | undefined {
+  const p = map(x0);
+  if (!p.ok || p.jacobian === undefined) return undefined;
+  const jac = p.jacobian.map((row, i) => row.map((v, j) => v - (i === j ? 1 : 0)));
+  const step = solveSmall(jac, p.end.map((v, j) => (x0[j] ?? 0) - v));
+  if (step === undefined || step.length !== x0.length) return undefined;
+  const x = x0.map((v, j) => v + (step[j] ?? 0));
+  return x.every(Number.isFinite) && (x[0] ?? 0) > 0 ? x : undefined;
+}
+
 /** Good Broyden update J += (ΔF − J·Δx)·Δxᵀ / (Δxᵀ·Δx). */
 function broyden(jac: number[][], dx: readonly number[], df: readonly number[]): void {
   const dd = dx.reduce((s, v) => s + v * v, 0);
