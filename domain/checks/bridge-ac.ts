@@ -141,9 +141,13 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
  * Structural equality of the element records; anything else takes the whole period.
  */
 function halfWaveSymmetric(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, number>>): boolean {
+  return samePart(m, tjK, "line1High", "line2High") && samePart(m, tjK, "line2Low", "line1Low");
+}
+
+/** The same element record (structurally) at the same junction temperature. */
+function samePart(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, number>>, a: BridgePosition, b: BridgePosition): boolean {
   const e = m.elements;
-  const same = (a: BridgePosition, b: BridgePosition) => tjK[a] === tjK[b] && (e[a] === e[b] || JSON.stringify(e[a]) === JSON.stringify(e[b]));
-  return same("line1High", "line2High") && same("line2Low", "line1Low");
+  return tjK[a] === tjK[b] && (e[a] === e[b] || JSON.stringify(e[a]) === JSON.stringify(e[b]));
 }
 
 /**
@@ -236,11 +240,16 @@ export function steadyStateOf(
 }
 
 function buildCircuit(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, number>>): AcBridgeCircuit {
+  // Positions holding the same part at the same temperature share one law (the stage solver
+  // evaluates a pair's law once when both elements are the same).
+  const canonical = new Map<BridgePosition, BridgePosition>();
+  for (const p of BRIDGE_POSITIONS) canonical.set(p, BRIDGE_POSITIONS.find((q) => samePart(m, tjK, p, q)) ?? p);
   // Diode laws do not depend on the controller supply: build them once.
   const fixed = new Map<BridgePosition, ForwardLaw>();
   for (const p of BRIDGE_POSITIONS) {
     const e = m.elements[p];
-    if (e.kind !== "nfet-ideal-diode") fixed.set(p, elementLaw(e, tjK[p], 0).law);
+    const q = canonical.get(p) ?? p;
+    if (e.kind !== "nfet-ideal-diode") fixed.set(p, fixed.get(q) ?? elementLaw(e, tjK[p], 0).law);
   }
   // MOSFET laws depend on the supply only through the gate drive: rebuild when that changes.
   const cache = new Map<BridgePosition, { gateV: number | undefined; law: ForwardLaw }>();
@@ -249,7 +258,8 @@ function buildCircuit(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, num
     const e = m.elements[p];
     if (e.kind === "nfet-ideal-diode") gates.set(p, gateDriveOf(e));
   }
-  const lawOf = (p: BridgePosition, supplyV: number): ForwardLaw => {
+  const lawOf = (position: BridgePosition, supplyV: number): ForwardLaw => {
+    const p = canonical.get(position) ?? position;
     const f = fixed.get(p);
     if (f !== undefined) return f;
     const e = m.elements[p];

@@ -152,18 +152,22 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
     // Laws give the right-hand limit at zero current (a regulated drop starts at its setpoint).
     if (off >= m - la(0)[0] - lb(0)[0]) return finish(0, 0, off, 0, 0, 0, [offSens(off, k)]);
     // g(i) = outV + k·ℓ(outV) − k·i − b: g(0) > 0, decreasing.
+    // The same part in both positions: one law evaluation for the pair.
+    const twin = la === lb;
     const g = (i: number): readonly [number, number] => {
-      const [va, sa] = la(i);
-      const [vb, sb] = lb(i);
-      const out = m - r * i - va - vb;
-      if (!(out > 0)) return [out - k * i - bv, -(r + sa + sb) - k];
-      return [out + k * loadCurrentA(c.load, out) - k * i - bv, -(r + sa + sb) * (1 + k * loadSlopeS(c.load, out)) - k];
+      const da = la(i);
+      const [vb, sb] = twin ? da : lb(i);
+      const out = m - r * i - da[0] - vb;
+      const rr = r + da[1] + sb;
+      if (!(out > 0)) return [out - k * i - bv, -rr - k];
+      return [out + k * loadCurrentA(c.load, out) - k * i - bv, -rr * (1 + k * loadSlopeS(c.load, out)) - k];
     };
     let hi = Math.max(Math.abs(hintA) * 2, (m - off) / Math.max(r + k, 1e-3), 1e-9);
     for (let n = 0; n < 200 && g(hi)[0] > 0; n += 1) hi *= 2;
-    const i = safeNewton(g, 0, hi, g(0)[0], Math.abs(hintA), 1e-13 * hi);
+    // g(0) > 0 here (out(0) > off and v + k·ℓ(v) increases): only its sign is needed.
+    const i = safeNewton(g, 0, hi, 1, Math.abs(hintA), 1e-13 * hi);
     const [va, sa] = la(i);
-    const [vb, sb] = lb(i);
+    const [vb, sb] = twin ? [va, sa] : lb(i);
     const outV = m - r * i - va - vb;
     if (!(outV > 0)) return undefined;
     // g(i; b₀) = 0: ∂i/∂b₀ = 1/g'(i); capA = i − ℓ(outV(i)), outV' = −(R + rA + rB).
@@ -216,7 +220,7 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
       return [1, 1];
     }
     const [va, sa] = la(x);
-    const [vb, sb] = lb(x);
+    const [vb, sb] = la === lb ? [va, sa] : lb(x);
     return [x + al * (r * x + va + vb + out) - sq, 1 + al * (r + sa + sb + dk(out))];
   };
   const x = safeNewton(h, 0, sq, onset(s > 0 ? laws.positive : laws.negative) - sq, Math.abs(hintA), 1e-14 * sq);

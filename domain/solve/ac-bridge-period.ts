@@ -132,7 +132,7 @@ export function integratePeriod(
       if (sens) {
         const db1 = axpy(dx, a1, df);
         const dxg = axpy(db1, a1, mulS(c, sg, db1));
-        const db2 = dxg.map((v, k) => BDF_W_GAMMA * v + BDF_W_N * (dx[k] ?? 0));
+        const db2 = axpy(scaled(dxg, BDF_W_GAMMA), BDF_W_N, dx);
         df = mulS(c, s1, db2);
         dx = axpy(db2, BDF_COEFF * h, df);
       }
@@ -143,7 +143,7 @@ export function integratePeriod(
       s0 = s1;
       steps += 1;
     }
-    const grow = errNorm > 0 ? 0.9 * errNorm ** (-1 / 3) : 4;
+    const grow = errNorm > 0 ? 0.9 / Math.cbrt(errNorm) : 4;
     h = Math.min(hMax, h * Math.min(4, Math.max(0.2, grow)));
   }
   const jacobian = n > 1 ? [[dx[0] ?? 0, dx[1] ?? 0], [dx[2] ?? 0, dx[3] ?? 0]] : [[dx[0] ?? 0]];
@@ -152,7 +152,12 @@ export function integratePeriod(
 
 /** y + a·z for small flat matrices. */
 function axpy(y: readonly number[], a: number, z: readonly number[]): number[] {
-  return y.map((v, k) => v + a * (z[k] ?? 0));
+  if (y.length === 1) return [(y[0] ?? 0) + a * (z[0] ?? 0)];
+  return [(y[0] ?? 0) + a * (z[0] ?? 0), (y[1] ?? 0) + a * (z[1] ?? 0), (y[2] ?? 0) + a * (z[2] ?? 0), (y[3] ?? 0) + a * (z[3] ?? 0)];
+}
+
+function scaled(y: readonly number[], a: number): number[] {
+  return y.length === 1 ? [a * (y[0] ?? 0)] : [a * (y[0] ?? 0), a * (y[1] ?? 0), a * (y[2] ?? 0), a * (y[3] ?? 0)];
 }
 
 /** ∂f/∂x0 = S·D, S = ∂f/∂b of the node (f = [capA/C, vL/L]) and D = ∂b/∂x0. */
@@ -226,51 +231,50 @@ function newAccumulators(): Acc {
   };
 }
 
-const ELEMENT_BUF = [0, 0, 0, 0];
-
 function accumulate(acc: Acc, c: AcBridgeCircuit, s0: Snapshot, sg: Snapshot, s1: Snapshot, h: number): void {
-  const w0 = QUAD_W0 * h;
-  const wg = QUAD_WG * h;
-  const w1 = QUAD_W1 * h;
-  const nodes: readonly (readonly [Snapshot, number])[] = [
-    [s0, w0],
-    [sg, wg],
-    [s1, w1],
-  ];
-  for (const [s, w] of nodes) {
-    const i = s.lineA;
-    const mag = Math.abs(i);
-    acc.sourceEnergyJ += w * s.sourceV * i;
-    acc.lineA2s += w * i * i;
-    acc.sourceResistanceEnergyJ += w * c.sourceResistanceOhm * i * i;
-    acc.inductorEnergyJ += w * s.inductorV * i;
-    acc.esrEnergyJ += w * c.esrOhm * s.capA * s.capA;
-    acc.capEnergyJ += w * s.capV * s.capA;
-    acc.capA2s += w * s.capA * s.capA;
-    acc.loadEnergyJ += w * s.outV * s.loadA;
-    acc.loadAs += w * s.loadA;
-    acc.outVs += w * s.outV;
-    acc.outMinV = Math.min(acc.outMinV, s.outV);
-    acc.outMaxV = Math.max(acc.outMaxV, s.outV);
-    acc.lineMaxA = Math.max(acc.lineMaxA, mag);
+  accumulateNode(acc, c, s0, QUAD_W0 * h);
+  accumulateNode(acc, c, sg, QUAD_WG * h);
+  accumulateNode(acc, c, s1, QUAD_W1 * h);
+}
+
+/** One quadrature node of weight w (plain scalar updates: this runs three times per step). */
+function accumulateNode(acc: Acc, c: AcBridgeCircuit, s: Snapshot, w: number): void {
+  const i = s.lineA;
+  const mag = Math.abs(i);
+  acc.sourceEnergyJ += w * s.sourceV * i;
+  acc.lineA2s += w * i * i;
+  acc.sourceResistanceEnergyJ += w * c.sourceResistanceOhm * i * i;
+  acc.inductorEnergyJ += w * s.inductorV * i;
+  acc.esrEnergyJ += w * c.esrOhm * s.capA * s.capA;
+  acc.capEnergyJ += w * s.capV * s.capA;
+  acc.capA2s += w * s.capA * s.capA;
+  acc.loadEnergyJ += w * s.outV * s.loadA;
+  acc.loadAs += w * s.loadA;
+  acc.outVs += w * s.outV;
+  if (s.outV < acc.outMinV) acc.outMinV = s.outV;
+  if (s.outV > acc.outMaxV) acc.outMaxV = s.outV;
+  if (mag > acc.lineMaxA) acc.lineMaxA = mag;
+  if (s.pair !== 0) {
     const base = s.pair > 0 ? 0 : 2;
-    if (s.pair !== 0) {
-      ELEMENT_BUF[base] = s.dropAV;
-      ELEMENT_BUF[base + 1] = s.dropBV;
-      for (const slot of [base, base + 1]) {
-        acc.elementAs[slot] = (acc.elementAs[slot] ?? 0) + w * mag;
-        acc.elementA2s[slot] = (acc.elementA2s[slot] ?? 0) + w * mag * mag;
-        acc.elementEnergyJ[slot] = (acc.elementEnergyJ[slot] ?? 0) + w * (ELEMENT_BUF[slot] ?? 0) * mag;
-        acc.elementPeakA[slot] = Math.max(acc.elementPeakA[slot] ?? 0, mag);
-      }
-      // Blocking elements: the output plus the drop of the conducting element on their line
-      // (line1Low ↔ line1High, line2High ↔ line2Low; see bridge-element.ts REVERSE_PARTNER).
-      const other = s.pair > 0 ? 2 : 0;
-      const rev = [s.outV + s.dropBV, s.outV + s.dropAV];
-      acc.elementMaxReverseV[other] = Math.max(acc.elementMaxReverseV[other] ?? 0, rev[0] ?? 0);
-      acc.elementMaxReverseV[other + 1] = Math.max(acc.elementMaxReverseV[other + 1] ?? 0, rev[1] ?? 0);
-    } else {
-      for (let k = 0; k < 4; k += 1) acc.elementMaxReverseV[k] = Math.max(acc.elementMaxReverseV[k] ?? 0, s.outV);
-    }
+    addElement(acc, base, w, mag, s.dropAV);
+    addElement(acc, base + 1, w, mag, s.dropBV);
+    // Blocking elements: the output plus the drop of the conducting element on their line
+    // (line1Low ↔ line1High, line2High ↔ line2Low; see bridge-element.ts REVERSE_PARTNER).
+    const other = s.pair > 0 ? 2 : 0;
+    raiseReverse(acc, other, s.outV + s.dropBV);
+    raiseReverse(acc, other + 1, s.outV + s.dropAV);
+  } else {
+    for (let k = 0; k < 4; k += 1) raiseReverse(acc, k, s.outV);
   }
+}
+
+function addElement(acc: Acc, slot: number, w: number, mag: number, dropV: number): void {
+  acc.elementAs[slot] = (acc.elementAs[slot] ?? 0) + w * mag;
+  acc.elementA2s[slot] = (acc.elementA2s[slot] ?? 0) + w * mag * mag;
+  acc.elementEnergyJ[slot] = (acc.elementEnergyJ[slot] ?? 0) + w * dropV * mag;
+  if (mag > (acc.elementPeakA[slot] ?? 0)) acc.elementPeakA[slot] = mag;
+}
+
+function raiseReverse(acc: Acc, slot: number, v: number): void {
+  if (v > (acc.elementMaxReverseV[slot] ?? 0)) acc.elementMaxReverseV[slot] = v;
 }
