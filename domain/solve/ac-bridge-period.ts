@@ -81,6 +81,8 @@ export function integratePeriod(
   const first = solveStage(c, laws, 0, 0, x, 0);
   if (first === undefined) return collapse(0);
   let s0: Snapshot = first;
+  // Line-current slope over the last accepted step, A/s: extrapolated warm starts for the stages.
+  let slopeAps = 0;
   if (opt.record) trace.push(s0);
   let h = period / 2000;
   let steps = 0;
@@ -101,7 +103,7 @@ export function integratePeriod(
     laws = c.pairLaws(x[0] ?? 0);
     const a1 = TR_COEFF * h;
     const b1 = x.map((v, j) => v + a1 * (s0.f[j] ?? 0));
-    const sg = solveStage(c, laws, t + GAMMA * h, a1, b1, s0.lineA);
+    const sg = solveStage(c, laws, t + GAMMA * h, a1, b1, s0.lineA + GAMMA * h * slopeAps);
     const xg = sg === undefined ? undefined : stateOf(sg, x.length);
     const s1 =
       sg === undefined || xg === undefined
@@ -112,7 +114,7 @@ export function integratePeriod(
             t + h,
             BDF_COEFF * h,
             x.map((v, j) => BDF_W_GAMMA * (xg[j] ?? 0) + BDF_W_N * v),
-            sg.lineA,
+            sg.lineA + ((1 - GAMMA) / GAMMA) * (sg.lineA - s0.lineA),
           );
     if (sg === undefined || s1 === undefined) {
       h /= 4;
@@ -140,6 +142,7 @@ export function integratePeriod(
       if (opt.record) trace.push(sg, s1);
       t = last ? target : t + h;
       x = stateOf(s1, x.length);
+      slopeAps = (s1.lineA - s0.lineA) / h;
       s0 = s1;
       steps += 1;
     }
