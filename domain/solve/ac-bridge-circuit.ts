@@ -207,7 +207,9 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
   let s: 1 | -1 | 0 = 0;
   if (q > onset(laws.positive)) s = 1;
   else if (-q > onset(laws.negative)) s = -1;
-  if (s === 0) return finish(0, 0, out0, 0, 0, -bi / al, [offSens(out0, k), 0, 0, -1 / al]);
+  // Blocked: the current is held at zero, and so is its rate at this node (the stage's −b₁/a is
+  // the jump that brought it there, not a rate; the sensitivity keeps it, so that ∂i/∂b = 0).
+  if (s === 0) return finish(0, 0, out0, 0, 0, 0, [offSens(out0, k), 0, 0, -1 / al]);
   const sq = s * q;
   const [la, lb] = s > 0 ? laws.positive : laws.negative;
   const dk = (out: number): number => k / (1 + k * loadSlopeS(c.load, out));
