@@ -66,11 +66,18 @@ interface Isothermal {
   readonly integrals: PeriodIntegrals;
   readonly trace: readonly Snapshot[];
   readonly end: readonly number[];
+  /** Line-current scale of the integrator's error control, A (passed on in a warm start). */
+  readonly lineScaleA: number;
   /** Change over one period of the energy in the capacitor and the inductance, J. */
   readonly storedJ: { readonly capacitorJ: number; readonly inductorJ: number };
   readonly iterations: number;
   readonly periods: number;
   readonly steps: number;
+}
+/** A start from a previous solution (the electrothermal loop): its state at t = 0 and current scale. */
+export interface WarmStart {
+  readonly x: readonly number[];
+  readonly lineScaleA: number;
 }
 type IsoOutcome = Isothermal | { readonly ok: false; readonly outcome: "load-collapse" | "no-periodic-steady-state"; readonly reason: string };
 
@@ -79,7 +86,7 @@ type IsoOutcome = Isothermal | { readonly ok: false; readonly outcome: "load-col
  * (what a circuit simulator computes at a fixed temperature). Shooting (periodic-shooting.ts) on
  * the one-period map of the TR-BDF2 integrator (ac-bridge-period.ts).
  */
-export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, number>>, warm?: readonly number[]): IsoOutcome {
+export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, number>>, warm?: WarmStart): IsoOutcome {
   const circuit = buildCircuit(m, tjK);
   const peakV = Math.SQRT2 * m.sourceRmsV;
   const inductive = m.leakageInductanceH > 0;
@@ -90,7 +97,7 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
   const voltageScaleV = Math.min(peakV, 10 * rippleV);
   // A symmetric bridge repeats every half period (ac-bridge-half-wave.ts): shoot on the half map.
   const half = halfWaveSymmetric(m, tjK);
-  const opt = { rtol: AC_RTOL, voltageScaleV, currentScaleA, record: true, halfPeriod: half, jacobian: true };
+  const coarse = { rtol: PREDICTOR_RTOL, voltageScaleV, currentScaleA, record: false, halfPeriod: half, jacobian: true };
   const periodMap = (o: PeriodOptions): PeriodMap<{ integrals: PeriodIntegrals; trace: readonly Snapshot[]; steps: number }> => (x) => {
       const r = integratePeriod(circuit, x, o);
       if (!r.ok) return { ok: false, reason: r.reason };
@@ -103,8 +110,13 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
   // map at a loose tolerance from 0.9·peak (a fraction of a fine period's steps; it lands inside
   // the fine map's quadratic basin, so the fine shooting typically needs two maps, not three).
   const guess = inductive ? [0.9 * peakV, 0] : [0.9 * peakV];
-  const predicted = warm === undefined ? newtonPredictor(periodMap({ ...opt, rtol: PREDICTOR_RTOL, record: false }), guess) : undefined;
-  const x0 = warm ?? predicted ?? guess;
+  const predicted = warm === undefined ? newtonPredictor(periodMap(coarse), guess) : undefined;
+  const x0 = warm?.x ?? predicted?.x ?? guess;
+  // The line current's error is held relative to its peak (from the predictor's map, or the
+  // previous solution), the load current at the source peak being the floor: the current is a
+  // state only with inductance, where its pulse peaks several times the load current.
+  const lineScaleA = Math.max(currentScaleA, warm?.lineScaleA ?? predicted?.value?.integrals.lineMaxA ?? 0);
+  const opt = { ...coarse, rtol: AC_RTOL, currentScaleA: lineScaleA, record: true };
   const shot = shootPeriodic(
     periodMap(opt),
     x0,
@@ -128,6 +140,7 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
     storedJ,
     integrals: half ? wholeFromHalf(last.integrals) : last.integrals,
     trace: half ? wholeTraceFromHalf(last.trace, period) : last.trace,
+    lineScaleA,
     iterations: shot.iterations,
     // The predictor's coarse map counts as one (cheaper) map integrated.
     periods: (shot.periods + (warm === undefined ? 1 : 0)) / spans,
@@ -164,13 +177,13 @@ export function analyseBridgeAc(m: BridgeAcModel, opts: BridgeAcOptions = {}): B
   if (invalid !== undefined) return { outcome: "invalid-input", ...invalid };
   const taK = cToK(m.ambientC);
   const temps: Record<BridgePosition, number> = { line1High: taK, line2High: taK, line1Low: taK, line2Low: taK };
-  let warm: readonly number[] | undefined;
+  let warm: WarmStart | undefined;
   let periods = 0;
   for (let iter = 1; iter <= THERMAL_MAX_ITER; iter += 1) {
     const iso = solveBridgeAcAt(m, temps, warm);
     if (!iso.ok) return { outcome: iso.outcome, reason: iso.reason };
     periods += iso.periods;
-    warm = iso.x;
+    warm = { x: iso.x, lineScaleA: iso.lineScaleA };
     const period = 1 / m.frequencyHz;
     let maxDelta = 0;
     const next: Record<BridgePosition, number> = { ...temps };

@@ -97,17 +97,19 @@ export function shootPeriodic<T>(map: PeriodMap<T>, x0: readonly number[], scale
 
 /**
  * One Newton step x0 − (∂P/∂x − I)⁻¹·(P(x0) − x0) on a (cheaper) map that returns its derivative:
- * a start for shootPeriodic. Undefined when the map fails, returns no derivative, the step is
- * singular or not finite, or x[0] would not stay positive.
+ * a start for shootPeriodic, with what the map carried. x is absent when the map returns no
+ * derivative, the step is singular or not finite, or x[0] would not stay positive; value is
+ * absent when the map fails.
  */
-export function newtonPredictor<T>(map: PeriodMap<T>, x0: readonly number[]): number[] | undefined {
+export function newtonPredictor<T>(map: PeriodMap<T>, x0: readonly number[]): { readonly x?: readonly number[]; readonly value?: T } {
   const p = map(x0);
-  if (!p.ok || p.jacobian === undefined) return undefined;
+  if (!p.ok) return {};
+  if (p.jacobian === undefined) return { value: p.value };
   const jac = p.jacobian.map((row, i) => row.map((v, j) => v - (i === j ? 1 : 0)));
   const step = solveSmall(jac, p.end.map((v, j) => (x0[j] ?? 0) - v));
-  if (step === undefined || step.length !== x0.length) return undefined;
+  if (step === undefined || step.length !== x0.length) return { value: p.value };
   const x = x0.map((v, j) => v + (step[j] ?? 0));
-  return x.every(Number.isFinite) && (x[0] ?? 0) > 0 ? x : undefined;
+  return x.every(Number.isFinite) && (x[0] ?? 0) > 0 ? { x, value: p.value } : { value: p.value };
 }
 
 /** Good Broyden update J += (ΔF − J·Δx)·Δxᵀ / (Δxᵀ·Δx). */
