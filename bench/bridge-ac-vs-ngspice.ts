@@ -2,8 +2,19 @@
  * Side-by-side benchmark: the AC bridge's periodic steady state (shooting + TR-BDF2) against an
  * ngspice 39 transient on the same circuit, run from a discharged capacitor until it reaches
  * steady state. Both at 25 °C (ngspice is isothermal). Times are CPU time (user + system; the
- * machine may be shared), medians of repeated runs. Prints both times, the ratio and the
- * difference in results, and writes bench/out/bridge-ac-vs-ngspice.json.
+ * machine is shared and noisy), best and median of repeated runs. Writes
+ * bench/out/bridge-ac-vs-ngspice.json.
+ *
+ * What makes the ngspice run fair (neither crippled nor padded):
+ * - reference: 60 periods at the tests' oracle settings (reltol 1e-5, abstol 1e-9, vntol 1e-7,
+ *   gear order 2, largest step T/2000), the last period measured;
+ * - the timed ngspice runs are the cheapest that reach steady state to a stated accuracy: for
+ *   each largest step (T/2000 … T/100, same tolerances) the fewest periods (2…15) whose last
+ *   period is within the bar of the reference on every compared quantity (DC output, ripple,
+ *   each element's RMS current and loss). ngspice is told that period count in advance (a user
+ *   would not know it and would run longer), so its figure is, if anything, generous to it;
+ * - two bars: 0.1 % (the accuracy class both reach) and "no less accurate than ours" (ngspice's
+ *   error no larger than our own error against the same reference).
  *
  *   npm run bench:bridge
  */
@@ -14,20 +25,24 @@ import { join } from "node:path";
 import { type BridgeAcModel, solveBridgeAcAt, steadyStateOf } from "../domain/checks/bridge-ac.js";
 import type { BridgeElements } from "../domain/checks/bridge-element.js";
 import { activeElement, demoPn, diodeElement, uniform } from "../test/helpers/bridge-parts.js";
-import { bridgeNetlist, reduceBridgeRows, type SpiceBridge, spiceBridgeOf } from "../test/helpers/bridge-spice.js";
+import { bridgeNetlist, reduceBridgeRows, type SpiceBridge, type SpiceBridgeResult, spiceBridgeOf } from "../test/helpers/bridge-spice.js";
 
 const T25 = 298.15;
 const temps = { line1High: T25, line2High: T25, line1Low: T25, line2Low: T25 };
+const REFERENCE_PERIODS = 60;
+const STEP_FRACTIONS = [1 / 2000, 1 / 1000, 1 / 500, 1 / 250, 1 / 100];
+const MAX_PERIODS = 15;
+const CLASS_BAR = 1e-3;
 
 function model(elements: BridgeElements, leakageInductanceH: number): BridgeAcModel {
   return { elements, sourceRmsV: 24, frequencyHz: 50, sourceResistanceOhm: 0.5, leakageInductanceH, capacitanceF: 2200e-6, esrOhm: 0.05, load: { kind: "resistive", resistanceOhm: 20 }, ambientC: 25 };
 }
 
-function spice(m: BridgeAcModel, periods: number, switchOnOhm?: number): SpiceBridge {
-  return spiceBridgeOf(m, demoPn, periods, switchOnOhm);
+function spice(m: BridgeAcModel, periods: number, switchOnOhm: number | undefined, maxStepFraction = 1 / 2000): SpiceBridge {
+  return { ...spiceBridgeOf(m, demoPn, periods, switchOnOhm), maxStepFraction };
 }
 
-/** ngspice in batch mode in a scratch folder; returns the rows and the wall time of the process. */
+/** ngspice in batch mode in a scratch folder; returns the rows and the CPU time of the process. */
 function timedNgspice(netlist: string): { rows: number[][]; ms: number } {
   const dir = mkdtempSync(join(tmpdir(), "backstop-bench-"));
   try {
@@ -44,28 +59,27 @@ function timedNgspice(netlist: string): { rows: number[][]; ms: number } {
   }
 }
 
-/** The first period count after which the period-average output changes by < 1e-4 relative (0.01 %, far inside the 1 % the comparison needs). */
-function periodsToSteadyState(m: BridgeAcModel, sw: number | undefined): number {
-  const b = { ...spice(m, 60, sw) };
-  // Full record from t = 0: tstart 0 (record every period).
-  const net = bridgeNetlist(b).replace(/\.tran (\S+) (\S+) \S+ (\S+) uic/, ".tran $1 $2 0 $3 uic");
-  const { rows } = timedNgspice(net);
-  const period = 1 / m.frequencyHz;
-  const avg: number[] = [];
-  for (let k = 0; k < 60; k += 1) {
-    const seg = rows.filter((r) => (r[0] ?? 0) >= k * period && (r[0] ?? 0) < (k + 1) * period);
-    avg.push(seg.reduce((s, r) => s + (r[1] ?? 0), 0) / Math.max(seg.length, 1));
-  }
-  for (let k = 1; k < avg.length; k += 1) {
-    const settled = avg.slice(k).every((v, j) => Math.abs(v - (avg[k + j - 1] ?? v)) < 1e-4 * Math.abs(v));
-    if (settled) return k + 1;
-  }
-  return 60;
+function stats(xs: readonly number[]): { best: number; median: number } {
+  const s = [...xs].sort((a, b) => a - b);
+  return { best: s[0] ?? Number.NaN, median: s[Math.floor(s.length / 2)] ?? Number.NaN };
 }
 
-function median(xs: number[]): number {
-  const s = [...xs].sort((a, b) => a - b);
-  return s[Math.floor(s.length / 2)] ?? Number.NaN;
+interface Comparable {
+  readonly dcOutputV: number;
+  readonly rippleVpp: number;
+  readonly elementRmsA: readonly number[];
+  readonly elementLossW: readonly number[];
+}
+
+/** Largest relative difference over DC output, ripple and each element's RMS current and loss. */
+function maxRel(a: Comparable, ref: SpiceBridgeResult): number {
+  const rel = (x: number, y: number) => Math.abs(x - y) / Math.abs(y);
+  return Math.max(
+    rel(a.dcOutputV, ref.dcOutputV),
+    rel(a.rippleVpp, ref.rippleVpp),
+    ...a.elementRmsA.map((v, k) => rel(v, ref.elementRmsA[k] ?? 1)),
+    ...a.elementLossW.map((v, k) => rel(v, ref.elementLossW[k] ?? 1)),
+  );
 }
 
 const cases = [
@@ -74,51 +88,111 @@ const cases = [
   { name: "active bridge (switch 20 mΩ + body diode)", elements: uniform(activeElement({ rdsOnOhm: 0.02 })), sw: 0.02, l: 0 },
 ];
 
+const SPICE_RUNS = 5;
+const OUR_WARMUP = 300;
+const OUR_BATCHES = 25;
+const OUR_BATCH = 8;
+const order = ["line1High", "line2High", "line1Low", "line2Low"] as const;
+
+interface SpiceCandidate {
+  readonly maxStep: string;
+  readonly periods: number;
+  readonly maxRelVsReference: number;
+  readonly ms: { readonly best: number; readonly median: number };
+}
+
+/** For each largest step, the fewest periods within `bar` of the reference; the cheapest of those, timed. */
+function cheapestWithin(m: BridgeAcModel, sw: number | undefined, ref: SpiceBridgeResult, bar: number, probe: Map<string, number>): SpiceCandidate | undefined {
+  const found: SpiceCandidate[] = [];
+  for (const frac of STEP_FRACTIONS) {
+    for (let p = 2; p <= MAX_PERIODS; p += 1) {
+      const spec = spice(m, p, sw, frac);
+      const key = `${frac}:${p}`;
+      let err = probe.get(key);
+      if (err === undefined) {
+        err = maxRel(reduceBridgeRows(timedNgspice(bridgeNetlist(spec)).rows, spec), ref);
+        probe.set(key, err);
+      }
+      if (err <= bar) {
+        const ms = stats(Array.from({ length: SPICE_RUNS }, () => timedNgspice(bridgeNetlist(spec)).ms));
+        found.push({ maxStep: `T/${Math.round(1 / frac)}`, periods: p, maxRelVsReference: err, ms });
+        break;
+      }
+    }
+  }
+  return [...found].sort((a, b) => a.ms.best - b.ms.best)[0];
+}
+
 const results = [];
 for (const c of cases) {
   const m = model(c.elements, c.l);
-  const periods = periodsToSteadyState(m, c.sw);
-  const spiceRuns = [0, 1, 2].map(() => timedNgspice(bridgeNetlist(spice(m, periods, c.sw))));
-  const spiceMs = median(spiceRuns.map((r) => r.ms));
-  const startup = median([0, 1, 2].map(() => timedNgspice(bridgeNetlist(spice(m, 1, c.sw))).ms));
-  const ref = reduceBridgeRows(spiceRuns[0]?.rows ?? [], spice(m, periods, c.sw));
-  for (let k = 0; k < 5; k += 1) solveBridgeAcAt(m, temps); // JIT warm-up
-  const times: number[] = [];
+  const refSpec = spice(m, REFERENCE_PERIODS, c.sw);
+  const refRun = timedNgspice(bridgeNetlist(refSpec));
+  const ref = reduceBridgeRows(refRun.rows, refSpec);
+
+  // Ours: warmed up (a service process runs hot), then CPU time per run from batches.
   let ours: ReturnType<typeof steadyStateOf> | undefined;
   let oursPeriods = 0;
-  for (let k = 0; k < 15; k += 1) {
-    const t = process.cpuUsage();
+  const solve = () => {
     const iso = solveBridgeAcAt(m, temps);
     if (!iso.ok) throw new Error(iso.reason);
     ours = steadyStateOf(m, iso, temps, { thermalIterations: 0, periods: iso.periods });
-    const d = process.cpuUsage(t);
-    times.push((d.user + d.system) / 1000);
     oursPeriods = iso.periods;
+  };
+  for (let k = 0; k < OUR_WARMUP; k += 1) solve();
+  const oursTimes: number[] = [];
+  for (let b = 0; b < OUR_BATCHES; b += 1) {
+    const t = process.cpuUsage();
+    for (let k = 0; k < OUR_BATCH; k += 1) solve();
+    const d = process.cpuUsage(t);
+    oursTimes.push((d.user + d.system) / 1000 / OUR_BATCH);
   }
-  if (ours === undefined) throw new Error("no run");
-  const oursMs = median(times);
-  const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
-  const order = ["line1High", "line2High", "line1Low", "line2Low"] as const;
-  const el = (p: (typeof order)[number]) => ours?.elements.find((e) => e.position === p);
+  const oursSs = ours;
+  if (oursSs === undefined) throw new Error("no run");
+  const el = (p: (typeof order)[number]) => oursSs.elements.find((e) => e.position === p);
+  const oursCmp: Comparable = {
+    dcOutputV: oursSs.dcOutputV,
+    rippleVpp: oursSs.rippleVpp,
+    elementRmsA: order.map((p) => el(p)?.rmsCurrentA ?? 0),
+    elementLossW: order.map((p) => el(p)?.lossW ?? 0),
+  };
+  const oursErr = maxRel(oursCmp, ref);
+  const oursT = stats(oursTimes);
+
+  const probe = new Map<string, number>();
+  const inClass = cheapestWithin(m, c.sw, ref, Math.max(CLASS_BAR, oursErr), probe);
+  const asAccurate = cheapestWithin(m, c.sw, ref, oursErr, probe);
+  const startupSpec = spice(m, 1, c.sw);
+  const startupNet = bridgeNetlist(startupSpec).replace(/\.tran (\S+) (\S+) (\S+) (\S+) uic/, ".tran $1 $1 0 $1 uic");
+  const startup = stats(Array.from({ length: SPICE_RUNS }, () => timedNgspice(startupNet).ms));
+  const ratio = (s: { best: number; median: number }) => ({ best: Number((s.best / oursT.best).toFixed(0)), median: Number((s.median / oursT.median).toFixed(0)) });
+  const pct = (x: number) => `${(x * 100).toFixed(3)} %`;
+  const describe = (s: SpiceCandidate | undefined) =>
+    s === undefined
+      ? undefined
+      : { ...s, ratio: ratio(s.ms), ratioNetOfStartup: ratio({ best: s.ms.best - startup.best, median: s.ms.median - startup.median }) };
   const row = {
     case: c.name,
-    ngspicePeriodsToSteadyState: periods,
-    ngspiceMs: Number(spiceMs.toFixed(1)),
-    ngspiceOneTinyRunMs: Number(startup.toFixed(1)),
-    oursMs: Number(oursMs.toFixed(2)),
-    oursPeriodsIntegrated: oursPeriods,
-    ratio: Number((spiceMs / oursMs).toFixed(0)),
-    ratioNetOfStartup: Number(((spiceMs - startup) / oursMs).toFixed(0)),
-    dcOutputV: { ours: ours.dcOutputV, ngspice: ref.dcOutputV, rel: rel(ours.dcOutputV, ref.dcOutputV) },
-    rippleVpp: { ours: ours.rippleVpp, ngspice: ref.rippleVpp, rel: rel(ours.rippleVpp, ref.rippleVpp) },
-    maxRelElementRms: Math.max(...order.map((p, k) => rel(el(p)?.rmsCurrentA ?? 0, ref.elementRmsA[k] ?? 1))),
-    maxRelElementLoss: Math.max(...order.map((p, k) => rel(el(p)?.lossW ?? 0, ref.elementLossW[k] ?? 1))),
-    capacitorRms: { ours: ours.capacitorRippleCurrentRmsA, ngspice: ref.capacitorRmsA, rel: rel(ours.capacitorRippleCurrentRmsA, ref.capacitorRmsA) },
+    ngspiceSettings: "reltol 1e-5, abstol 1e-9, vntol 1e-7, method gear, maxord 2, from a discharged capacitor (uic)",
+    ours: { ms: oursT, periodsIntegrated: oursPeriods, maxRelVsReference: oursErr },
+    ngspiceWithin0p1Percent: describe(inClass),
+    ngspiceAsAccurateAsOurs: describe(asAccurate),
+    ngspiceOneStepRunMs: startup,
+    values: {
+      dcOutputV: { ours: oursSs.dcOutputV, reference: ref.dcOutputV },
+      rippleVpp: { ours: oursSs.rippleVpp, reference: ref.rippleVpp },
+      capacitorRmsA: { ours: oursSs.capacitorRippleCurrentRmsA, reference: ref.capacitorRmsA },
+    },
   };
   results.push(row);
+  const line = (label: string, s: ReturnType<typeof describe>) =>
+    s === undefined
+      ? `  ngspice ${label}: none of the settings tried`
+      : `  ngspice ${label}: ${s.maxStep}, ${s.periods} periods, max Δ ${pct(s.maxRelVsReference)}: ${s.ms.best.toFixed(1)}/${s.ms.median.toFixed(1)} ms → ${s.ratio.best}x best, ${s.ratio.median}x median (${s.ratioNetOfStartup.best}x/${s.ratioNetOfStartup.median}x net of start-up)`;
   console.log(
-    `${row.case}: ngspice ${row.ngspiceMs} ms (${periods} periods; a 1-period run takes ${row.ngspiceOneTinyRunMs} ms), ours ${row.oursMs} ms (${oursPeriods} periods) → ${row.ratio}x (${row.ratioNetOfStartup}x net of ngspice start-up); ` +
-      `ΔVdc ${(row.dcOutputV.rel * 100).toFixed(3)} %, Δripple ${(row.rippleVpp.rel * 100).toFixed(3)} %, max Δ element RMS ${(row.maxRelElementRms * 100).toFixed(3)} %, max Δ element loss ${(row.maxRelElementLoss * 100).toFixed(3)} %`,
+    `${c.name}: ours ${oursT.best.toFixed(3)}/${oursT.median.toFixed(3)} ms best/median (${oursPeriods} periods integrated), max Δ vs reference ${pct(oursErr)}\n` +
+      `${line(`within ${pct(Math.max(CLASS_BAR, oursErr))}`, describe(inClass))}\n${line("as accurate as ours", describe(asAccurate))}\n` +
+      `  ngspice one-step run (start-up): ${startup.best.toFixed(1)}/${startup.median.toFixed(1)} ms`,
   );
 }
 mkdirSync("bench/out", { recursive: true });
