@@ -83,6 +83,7 @@ export function integratePeriod(
   let s0: Snapshot = first;
   // Line-current slope over the last accepted step, A/s: extrapolated warm starts for the stages.
   let slopeAps = 0;
+  let rejectedLast = false;
   if (opt.record) trace.push(s0);
   // First step T/200 (two orders below the period; the controller rejects it if conduction is under way).
   let h = period / 200;
@@ -171,8 +172,12 @@ export function integratePeriod(
       s0 = s1;
       steps += 1;
     }
+    // No growth right after a rejection (Hairer, Nørsett and Wanner, Solving ODEs I, §II.4:
+    // facmax = 1 after a rejected step): the estimate is least reliable where it just failed.
+    const accepted = errNorm <= 1 || h <= hMin * 4;
     const grow = errNorm > 0 ? 0.9 / Math.cbrt(errNorm) : 4;
-    h = Math.min(hMax, h * Math.min(4, Math.max(0.2, grow)));
+    h = Math.min(hMax, h * Math.min(accepted && !rejectedLast ? 4 : 1, Math.max(0.2, grow)));
+    rejectedLast = !accepted;
   }
   const jacobian = n > 1 ? [[dx[0] ?? 0, dx[1] ?? 0], [dx[2] ?? 0, dx[3] ?? 0]] : [[dx[0] ?? 0]];
   return { ok: true, end: x, integrals: acc, steps, ...(opt.record ? { trace } : {}), ...(sens ? { jacobian } : {}) };
