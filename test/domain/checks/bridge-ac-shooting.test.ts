@@ -45,7 +45,9 @@ function both(part: BridgeElements["line1High"], o: Partial<BridgeAcModel>) {
 describe("AC bridge shooting on the half period", () => {
   // Source: half-wave symmetry (ac-bridge-half-wave.ts): for a symmetric bridge the periodic state
   // of the whole-period map is x(t + T/2) = M·x(t), so both shootings must give the same steady
-  // state, to the shooting tolerance (1e-4 of the voltage scale) and the integrator's error.
+  // state, to the shooting tolerance (1e-4 of the voltage scale) and the integrator's error (the
+  // two runs take different step sequences: they agree to about 0.1 % on the active bridge's
+  // element loss, hence 2e-3 on the element figures, and far closer on the rest).
   const cases = [
     { name: "diode bridge", part: diodeElement(), o: {} },
     { name: "diode bridge with 2 mH leakage", part: diodeElement(), o: { leakageInductanceH: 2e-3 } },
@@ -62,9 +64,9 @@ describe("AC bridge shooting on the half period", () => {
       expect(relativeError(symmetric.capacitorRippleCurrentRmsA, whole.capacitorRippleCurrentRmsA)).toBeLessThan(1e-3);
       for (const e of symmetric.elements) {
         const w = whole.elements.find((x) => x.position === e.position);
-        expect(relativeError(e.rmsCurrentA, w?.rmsCurrentA ?? 0)).toBeLessThan(1e-3);
-        expect(relativeError(e.lossW, w?.lossW ?? 0)).toBeLessThan(1e-3);
-        expect(relativeError(e.averageCurrentA, w?.averageCurrentA ?? 0)).toBeLessThan(1e-3);
+        expect(relativeError(e.rmsCurrentA, w?.rmsCurrentA ?? 0)).toBeLessThan(2e-3);
+        expect(relativeError(e.lossW, w?.lossW ?? 0)).toBeLessThan(2e-3);
+        expect(relativeError(e.averageCurrentA, w?.averageCurrentA ?? 0)).toBeLessThan(2e-3);
         expect(relativeError(e.peakCurrentA, w?.peakCurrentA ?? 0)).toBeLessThan(3e-3);
         expect(relativeError(e.maxReverseV, w?.maxReverseV ?? 0)).toBeLessThan(3e-3);
       }
@@ -84,19 +86,19 @@ describe("AC bridge shooting on the half period", () => {
 
 describe("AC bridge period map derivative", () => {
   // Source: the variational equation of the one-step method (Aprille and Trick's shooting
-  // sensitivity) against a central finite difference of the map; the perturbation (20 mV,
-  // 20 mA) is well above the step-sequence noise of the adaptive integrator (its local
-  // tolerance is 0.3 mV, 17 µA), so the difference quotient is meaningful to about 1 %.
+  // sensitivity) against a central finite difference of the map. At a tight tolerance (1e-8)
+  // the adaptive step sequence's own noise in the end state (~1e-8 V) is far below the 10 mV /
+  // 10 mA perturbation, so the difference quotient is good to a fraction of a percent.
   const law = junctionLaw(demoPn, T25);
   const laws = { positive: [law, law], negative: [law, law] } as const;
   for (const lh of [0, 2e-3]) {
     it(`matches a central difference of the map (L = ${lh * 1e3} mH)`, () => {
       const c = { ...sourceAndFilterOf(model(uniform(diodeElement()), { leakageInductanceH: lh })), pairLaws: () => laws };
-      const opt = { rtol: 1e-5, voltageScaleV: 33.9, currentScaleA: 1.7, record: false, jacobian: true };
+      const opt = { rtol: 1e-8, voltageScaleV: 33.9, currentScaleA: 1.7, record: false, jacobian: true };
       const x = lh > 0 ? [27, 1.5] : [27];
       const r = integratePeriod(c, x, opt);
       if (!r.ok || r.jacobian === undefined) throw new Error("no map");
-      const d = [0.02, 0.02];
+      const d = [0.01, 0.01];
       x.forEach((_, j) => {
         const at = (sign: number) => {
           const q = integratePeriod(c, x.map((v, k) => (k === j ? v + sign * (d[j] ?? 0) : v)), { ...opt, jacobian: false });
@@ -109,7 +111,7 @@ describe("AC bridge period map derivative", () => {
         // ≈ 0: conduction has ended by the end of the period).
         const fd = ((up[0] ?? 0) - (down[0] ?? 0)) / (2 * (d[j] ?? 1));
         const an = r.jacobian?.[0]?.[j] ?? 0;
-        expect(Math.abs(an - fd)).toBeLessThan(0.02 * Math.abs(fd) + 2e-4);
+        expect(Math.abs(an - fd)).toBeLessThan(0.01 * Math.abs(fd) + 1e-5);
       });
     });
   }
