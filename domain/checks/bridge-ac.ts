@@ -87,7 +87,8 @@ type IsoOutcome = Isothermal | { readonly ok: false; readonly outcome: "load-col
  * the one-period map of the TR-BDF2 integrator (ac-bridge-period.ts).
  */
 export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, number>>, warm?: WarmStart): IsoOutcome {
-  const circuit = buildCircuit(m, tjK);
+  const parts = partKeys(m, tjK);
+  const circuit = buildCircuit(m, tjK, parts);
   const peakV = Math.SQRT2 * m.sourceRmsV;
   const inductive = m.leakageInductanceH > 0;
   const currentScaleA = loadScaleA(m.load, peakV);
@@ -96,7 +97,7 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
   const rippleV = Math.min(peakV, currentScaleA / (2 * m.frequencyHz * m.capacitanceF));
   const voltageScaleV = Math.min(peakV, 10 * rippleV);
   // A symmetric bridge repeats every half period (ac-bridge-half-wave.ts): shoot on the half map.
-  const half = halfWaveSymmetric(m, tjK);
+  const half = halfWaveSymmetric(parts);
   const coarse = { rtol: PREDICTOR_RTOL, voltageScaleV, currentScaleA, record: false, halfPeriod: half, jacobian: true };
   const periodMap = (o: PeriodOptions): PeriodMap<{ integrals: PeriodIntegrals; trace: readonly Snapshot[]; steps: number }> => (x) => {
       const r = integratePeriod(circuit, x, o);
@@ -153,14 +154,14 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
  * the same temperature, and so is the second (line1High ~ line2High, line2Low ~ line1Low).
  * Structural equality of the element records; anything else takes the whole period.
  */
-function halfWaveSymmetric(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, number>>): boolean {
-  return samePart(m, tjK, "line1High", "line2High") && samePart(m, tjK, "line2Low", "line1Low");
+function halfWaveSymmetric(parts: Readonly<Record<BridgePosition, string>>): boolean {
+  return parts.line1High === parts.line2High && parts.line2Low === parts.line1Low;
 }
 
-/** The same element record (structurally) at the same junction temperature. */
-function samePart(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, number>>, a: BridgePosition, b: BridgePosition): boolean {
-  const e = m.elements;
-  return tjK[a] === tjK[b] && (e[a] === e[b] || JSON.stringify(e[a]) === JSON.stringify(e[b]));
+/** A key per position: equal keys are the same element record (structurally) at the same junction temperature. */
+function partKeys(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, number>>): Readonly<Record<BridgePosition, string>> {
+  const key = (p: BridgePosition) => `${tjK[p]}|${JSON.stringify(m.elements[p])}`;
+  return { line1High: key("line1High"), line2High: key("line2High"), line1Low: key("line1Low"), line2Low: key("line2Low") };
 }
 
 /**
@@ -252,11 +253,11 @@ export function steadyStateOf(
   };
 }
 
-function buildCircuit(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, number>>): AcBridgeCircuit {
+function buildCircuit(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, number>>, parts: Readonly<Record<BridgePosition, string>>): AcBridgeCircuit {
   // Positions holding the same part at the same temperature share one law (the stage solver
   // evaluates a pair's law once when both elements are the same).
   const canonical = new Map<BridgePosition, BridgePosition>();
-  for (const p of BRIDGE_POSITIONS) canonical.set(p, BRIDGE_POSITIONS.find((q) => samePart(m, tjK, p, q)) ?? p);
+  for (const p of BRIDGE_POSITIONS) canonical.set(p, BRIDGE_POSITIONS.find((q) => parts[q] === parts[p]) ?? p);
   // Diode laws do not depend on the controller supply: build them once.
   const fixed = new Map<BridgePosition, ForwardLaw>();
   for (const p of BRIDGE_POSITIONS) {

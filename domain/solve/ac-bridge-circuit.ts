@@ -61,14 +61,16 @@ export interface Snapshot {
   readonly dropBV: number;
   /** Voltage across the leakage inductance, V. */
   readonly inductorV: number;
-  /** dx/dt of the state [capV, lineA] (lineA only with inductance). */
-  readonly f: readonly number[];
   /**
-   * Sensitivity of the stage solution to its right-hand side b (solveStage): ∂capA/∂b₀ without
-   * inductance; [∂capA/∂b₀, ∂capA/∂b₁, ∂vL/∂b₀, ∂vL/∂b₁] with it. The integrator chains these into
-   * the derivative of the period map (its shooting Jacobian).
+   * Sensitivity of the stage solution to its right-hand side b (solveStage): ∂capA/∂b₀, ∂capA/∂b₁,
+   * ∂vL/∂b₀, ∂vL/∂b₁ (the b₁ terms only with inductance). The integrator chains these into the
+   * derivative of the period map (its shooting Jacobian). The state derivatives are
+   * d(capV)/dt = capA/C and d(lineA)/dt = inductorV/L.
    */
-  readonly sens: readonly number[];
+  readonly dCapAdB0: number;
+  readonly dCapAdB1: number;
+  readonly dVLdB0: number;
+  readonly dVLdB1: number;
 }
 
 export function loadCurrentA(load: LoadModel, v: number): number {
@@ -131,11 +133,26 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
   const k = c.esrOhm + a / cap;
   const bv = b[0] ?? 0;
   const lh = c.leakageInductanceH;
-  const finish = (i: number, s: 1 | -1 | 0, outV: number, dA: number, dB: number, inductorV: number, sens: readonly number[]): Snapshot => {
+  const finish = (i: number, s: 1 | -1 | 0, outV: number, dA: number, dB: number, inductorV: number, sens: readonly [number, number, number, number]): Snapshot => {
     const loadA = loadCurrentA(c.load, outV);
     const capA = Math.abs(i) - loadA;
-    const f = lh > 0 ? [capA / cap, inductorV / lh] : [capA / cap];
-    return { t, sourceV: e, capV: outV - c.esrOhm * capA, lineA: i, outV, loadA, capA, pair: s, dropAV: dA, dropBV: dB, inductorV, f, sens };
+    return {
+      t,
+      sourceV: e,
+      capV: outV - c.esrOhm * capA,
+      lineA: i,
+      outV,
+      loadA,
+      capA,
+      pair: s,
+      dropAV: dA,
+      dropBV: dB,
+      inductorV,
+      dCapAdB0: sens[0],
+      dCapAdB1: sens[1],
+      dVLdB0: sens[2],
+      dVLdB1: sens[3],
+    };
   };
   // Off-state output: v + k·ℓ(v) = b₀, so ∂v/∂b₀ = 1/(1 + k·ℓ'(v)) and ∂capA/∂b₀ = −ℓ'·∂v/∂b₀.
   const offSens = (outV: number, kk: number): number => {
@@ -150,7 +167,7 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
     const s: 1 | -1 = e >= 0 ? 1 : -1;
     const [la, lb] = s > 0 ? laws.positive : laws.negative;
     // Laws give the right-hand limit at zero current (a regulated drop starts at its setpoint).
-    if (off >= m - la(0)[0] - lb(0)[0]) return finish(0, 0, off, 0, 0, 0, [offSens(off, k)]);
+    if (off >= m - la(0)[0] - lb(0)[0]) return finish(0, 0, off, 0, 0, 0, [offSens(off, k), 0, 0, 0]);
     // g(i) = outV + k·ℓ(outV) − k·i − b: g(0) > 0, decreasing.
     // The same part in both positions: one law evaluation for the pair.
     const twin = la === lb;
@@ -174,7 +191,7 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
     const rr = r + sa + sb;
     const slope = loadSlopeS(c.load, outV);
     const gp = -rr * (1 + k * slope) - k;
-    return finish(s * i, s, outV, va, vb, 0, [(1 + slope * rr) / gp]);
+    return finish(s * i, s, outV, va, vb, 0, [(1 + slope * rr) / gp, 0, 0, 0]);
   }
 
   const bi = b[1] ?? 0;
@@ -196,7 +213,7 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
     const [va, sa] = la(Math.abs(i));
     const [vb, sb] = lb(Math.abs(i));
     // outV from b₀ + ESR·|i|: ∂outV/∂b₀ = ov, ∂outV/∂b₁ = ESR·s·ov.
-    const sens = [-slope * ov, s - slope * c.esrOhm * s * ov, -s * ov, -r - sa - sb - c.esrOhm * ov];
+    const sens = [-slope * ov, s - slope * c.esrOhm * s * ov, -s * ov, -r - sa - sb - c.esrOhm * ov] as const;
     return finish(i, s, outV, va, vb, e - r * i - s * (va + vb + outV), sens);
   }
   const al = a / lh;
@@ -238,6 +255,6 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
   const dx1 = s / hx;
   const dOut0 = ov * (1 + k * dx0);
   const dOut1 = ov * k * dx1;
-  const sens = [dx0 - slope * dOut0, dx1 - slope * dOut1, (s * dx0) / al, (s * dx1 - 1) / al];
+  const sens = [dx0 - slope * dOut0, dx1 - slope * dOut1, (s * dx0) / al, (s * dx1 - 1) / al] as const;
   return finish(s * x, s, outV, va, vb, (s * x - bi) / al, sens);
 }

@@ -26,7 +26,9 @@ export function mirrorSnapshot(s: Snapshot, halfS: number): Snapshot {
     lineA: -s.lineA,
     pair,
     inductorV: -s.inductorV,
-    f: s.f.length > 1 ? [s.f[0] ?? 0, -(s.f[1] ?? 0)] : s.f,
+    // Under the mirror b₁ → −b₁ and vL → −vL.
+    dCapAdB1: -s.dCapAdB1,
+    dVLdB0: -s.dVLdB0,
   };
 }
 

@@ -47,7 +47,7 @@ export interface PeriodOptions {
   /** Integrate to T/2 only (the half-wave map of a symmetric bridge, ac-bridge-half-wave.ts); default the whole period. */
   readonly halfPeriod?: boolean;
   /**
-   * Also differentiate the discrete map: the stages' sensitivities (Snapshot.sens) chained
+   * Also differentiate the discrete map: the stages' sensitivities (Snapshot.dCapAdB0 …) chained
    * through the TR and BDF2 stages on the accepted steps (the variational equation of the
    * one-step method, exact for its step sequence).
    */
@@ -109,7 +109,7 @@ export function integratePeriod(
     let event = false;
     const tolA = scale[1] ?? 0;
     if (n > 1 && s0.pair !== 0 && Math.abs(s0.lineA) > tolA) {
-      const di = s0.f[1] ?? 0;
+      const di = s0.inductorV / c.leakageInductanceH;
       const toZeroS = di * s0.lineA < 0 ? -s0.lineA / di : Number.POSITIVE_INFINITY;
       if (1.05 * toZeroS < h) {
         h = 1.05 * toZeroS;
@@ -119,7 +119,7 @@ export function integratePeriod(
     }
     laws = c.pairLaws(x[0] ?? 0);
     const a1 = TR_COEFF * h;
-    const b1 = x.map((v, j) => v + a1 * (s0.f[j] ?? 0));
+    const b1 = n > 1 ? [x0v(x) + a1 * rateV(c, s0), x1a(x) + a1 * rateA(c, s0)] : [x0v(x) + a1 * rateV(c, s0)];
     const sg = solveStage(c, laws, t + GAMMA * h, a1, b1, s0.lineA + GAMMA * h * slopeAps);
     const xg = sg === undefined ? undefined : stateOf(sg, x.length);
     const s1 =
@@ -144,9 +144,9 @@ export function integratePeriod(
     const ends = Math.abs(s1.lineA) <= tolA && (event || Math.abs(s0.lineA) <= tolA);
     const judged = n > 1 && ends ? 1 : n;
     for (let j = 0; j < judged; j += 1) {
-      const f0 = s0.f[j] ?? 0;
-      const fg = sg.f[j] ?? 0;
-      const f1 = s1.f[j] ?? 0;
+      const f0 = j === 0 ? rateV(c, s0) : rateA(c, s0);
+      const fg = j === 0 ? rateV(c, sg) : rateA(c, sg);
+      const f1 = j === 0 ? rateV(c, s1) : rateA(c, s1);
       const dd = ((f1 - fg) / ((1 - GAMMA) * h) - (fg - f0) / (GAMMA * h)) / h;
       const err = LTE_COEFF * h * h * h * 2 * Math.abs(dd);
       errNorm = Math.max(errNorm, err / (scale[j] ?? 1));
@@ -183,6 +183,24 @@ export function integratePeriod(
   return { ok: true, end: x, integrals: acc, steps, ...(opt.record ? { trace } : {}), ...(sens ? { jacobian } : {}) };
 }
 
+/** d(capV)/dt at a node, V/s. */
+function rateV(c: AcBridgeCircuit, s: Snapshot): number {
+  return s.capA / c.capacitanceF;
+}
+
+/** d(lineA)/dt at a node, A/s (only with inductance). */
+function rateA(c: AcBridgeCircuit, s: Snapshot): number {
+  return s.inductorV / c.leakageInductanceH;
+}
+
+function x0v(x: readonly number[]): number {
+  return x[0] ?? 0;
+}
+
+function x1a(x: readonly number[]): number {
+  return x[1] ?? 0;
+}
+
 /** y + a·z for small flat matrices. */
 function axpy(y: readonly number[], a: number, z: readonly number[]): number[] {
   if (y.length === 1) return [(y[0] ?? 0) + a * (z[0] ?? 0)];
@@ -195,14 +213,13 @@ function scaled(y: readonly number[], a: number): number[] {
 
 /** ∂f/∂x0 = S·D, S = ∂f/∂b of the node (f = [capA/C, vL/L]) and D = ∂b/∂x0. */
 function mulS(c: AcBridgeCircuit, s: Snapshot, d: readonly number[]): number[] {
-  const sv = s.sens;
-  if (d.length === 1) return [((sv[0] ?? 0) / c.capacitanceF) * (d[0] ?? 0)];
+  if (d.length === 1) return [(s.dCapAdB0 / c.capacitanceF) * (d[0] ?? 0)];
   const cap = c.capacitanceF;
   const lh = c.leakageInductanceH;
-  const s00 = (sv[0] ?? 0) / cap;
-  const s01 = (sv[1] ?? 0) / cap;
-  const s10 = (sv[2] ?? 0) / lh;
-  const s11 = (sv[3] ?? 0) / lh;
+  const s00 = s.dCapAdB0 / cap;
+  const s01 = s.dCapAdB1 / cap;
+  const s10 = s.dVLdB0 / lh;
+  const s11 = s.dVLdB1 / lh;
   const [d00 = 0, d01 = 0, d10 = 0, d11 = 0] = d;
   return [s00 * d00 + s01 * d10, s00 * d01 + s01 * d11, s10 * d00 + s11 * d10, s10 * d01 + s11 * d11];
 }
