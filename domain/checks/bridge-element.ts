@@ -60,7 +60,7 @@ export interface ElementLaw {
   readonly mode: "junction" | "body-diode" | "channel";
   /** Channel resistance when the channel conducts, ohm. */
   readonly channelResistanceOhm?: number;
-  /** [drop V, dV/dI ohm] at forward current I ≥ 0; at I = 0 the right-hand limit of the drop. */
+  /** Drop V and dV/dI ohm at forward current I ≥ 0; at I = 0 the right-hand limit of the drop. */
   readonly law: ForwardLaw;
 }
 
@@ -104,9 +104,12 @@ export function junctionLaw(d: DiodeParams, tK: number): ForwardLaw {
   const is = saturationCurrentAt(d, tK);
   const nvt = emissionVoltageV(d, tK);
   const rs = d.seriesResistanceOhm;
-  return (i) => {
-    const x = Math.max(i, 0);
-    return [nvt * Math.log1p(x / is) + x * rs, nvt / (x + is) + rs];
+  return {
+    dropV: (i) => {
+      const x = Math.max(i, 0);
+      return nvt * Math.log1p(x / is) + x * rs;
+    },
+    slopeOhm: (i) => nvt / (Math.max(i, 0) + is) + rs,
   };
 }
 
@@ -115,13 +118,15 @@ export function junctionLaw(d: DiodeParams, tK: number): ForwardLaw {
  * ln-form Id = Is·(exp((V − Id·Rs)/nVt) − 1) with the diode current as the inner unknown.
  */
 export function channelLaw(rOhm: number, d: DiodeParams, tK: number, regulatedDropV: number): ForwardLaw {
-  // Is(T), n·Vt and Rs once per law; the inner loop works on plain numbers (no per-call tuples).
+  // Is(T), n·Vt and Rs once per law; the inner loop works on plain numbers. The body current of
+  // the last current asked for is kept: the drop and the slope are asked for at the same current.
   const is = saturationCurrentAt(d, tK);
   const nvt = emissionVoltageV(d, tK);
   const rs = d.seriesResistanceOhm;
-  const off: readonly [number, number] = [Math.max(regulatedDropV, 0), rOhm];
-  return (i) => {
-    if (!(i > 0)) return off;
+  let lastI = Number.NaN;
+  let lastY = 0;
+  const bodyA = (i: number): number => {
+    if (i === lastI) return lastY;
     // Unknown: body-diode current y in [0, i]; residual (i − y)·R − Vd(y) = 0, decreasing in y
     // (Vd(0) = 0, so the residual at y = 0 is i·R > 0).
     let lo = 0;
@@ -143,9 +148,22 @@ export function channelLaw(rOhm: number, d: DiodeParams, tK: number, regulatedDr
       }
       y = next;
     }
-    const v = (i - y) * rOhm;
-    if (regulatedDropV > 0 && v < regulatedDropV) return [regulatedDropV, 0];
-    const sd = nvt / (y + is) + rs;
-    return [v, 1 / (1 / rOhm + 1 / sd)];
+    lastI = i;
+    lastY = y;
+    return y;
+  };
+  const regulated = (v: number) => regulatedDropV > 0 && v < regulatedDropV;
+  return {
+    dropV: (i) => {
+      if (!(i > 0)) return Math.max(regulatedDropV, 0);
+      const v = (i - bodyA(i)) * rOhm;
+      return regulated(v) ? regulatedDropV : v;
+    },
+    slopeOhm: (i) => {
+      if (!(i > 0)) return rOhm;
+      const y = bodyA(i);
+      if (regulated((i - y) * rOhm)) return 0;
+      return 1 / (1 / rOhm + 1 / (nvt / (y + is) + rs));
+    },
   };
 }

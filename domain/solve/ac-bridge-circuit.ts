@@ -1,8 +1,11 @@
 import type { LoadModel } from "./load-model.js";
 import { safeNewton } from "./safe-newton.js";
 
-/** Forward law of one bridge element at a fixed temperature: [drop V, dV/dI ohm] at I ≥ 0. */
-export type ForwardLaw = (currentA: number) => readonly [number, number];
+/** Forward law of one bridge element at a fixed temperature: drop V and dV/dI ohm at I ≥ 0. */
+export interface ForwardLaw {
+  readonly dropV: (currentA: number) => number;
+  readonly slopeOhm: (currentA: number) => number;
+}
 
 /** The two laws of the pair that conducts when the source current is positive / negative. */
 export interface PairLaws {
@@ -167,15 +170,17 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
     const s: 1 | -1 = e >= 0 ? 1 : -1;
     const [la, lb] = s > 0 ? laws.positive : laws.negative;
     // Laws give the right-hand limit at zero current (a regulated drop starts at its setpoint).
-    if (off >= m - la(0)[0] - lb(0)[0]) return finish(0, 0, off, 0, 0, 0, [offSens(off, k), 0, 0, 0]);
+    if (off >= m - la.dropV(0) - lb.dropV(0)) return finish(0, 0, off, 0, 0, 0, [offSens(off, k), 0, 0, 0]);
     // g(i) = outV + k·ℓ(outV) − k·i − b: g(0) > 0, decreasing.
     // The same part in both positions: one law evaluation for the pair.
     const twin = la === lb;
     const g = (i: number): readonly [number, number] => {
-      const da = la(i);
-      const [vb, sb] = twin ? da : lb(i);
-      const out = m - r * i - da[0] - vb;
-      const rr = r + da[1] + sb;
+      const va = la.dropV(i);
+      const sa = la.slopeOhm(i);
+      const vb = twin ? va : lb.dropV(i);
+      const sb = twin ? sa : lb.slopeOhm(i);
+      const out = m - r * i - va - vb;
+      const rr = r + sa + sb;
       if (!(out > 0)) return [out - k * i - bv, -rr - k];
       return [out + k * loadCurrentA(c.load, out) - k * i - bv, -rr * (1 + k * loadSlopeS(c.load, out)) - k];
     };
@@ -183,8 +188,10 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
     for (let n = 0; n < 200 && g(hi)[0] > 0; n += 1) hi *= 2;
     // g(0) > 0 here (out(0) > off and v + k·ℓ(v) increases): only its sign is needed.
     const i = safeNewton(g, 0, hi, 1, Math.abs(hintA), 1e-13 * hi);
-    const [va, sa] = la(i);
-    const [vb, sb] = twin ? [va, sa] : lb(i);
+    const va = la.dropV(i);
+    const sa = la.slopeOhm(i);
+    const vb = twin ? va : lb.dropV(i);
+    const sb = twin ? sa : lb.slopeOhm(i);
     const outV = m - r * i - va - vb;
     if (!(outV > 0)) return undefined;
     // g(i; b₀) = 0: ∂i/∂b₀ = 1/g'(i); capA = i − ℓ(outV(i)), outV' = −(R + rA + rB).
@@ -205,13 +212,15 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
     if (i === 0) {
       const s: 1 | -1 = e >= 0 ? 1 : -1;
       const [la, lb] = s > 0 ? laws.positive : laws.negative;
-      const drive = Math.abs(e) - outV - la(0)[0] - lb(0)[0];
+      const drive = Math.abs(e) - outV - la.dropV(0) - lb.dropV(0);
       return finish(0, 0, outV, 0, 0, drive > 0 ? s * drive : 0, [-slope * ov, 0, drive > 0 ? -s * ov : 0, 0]);
     }
     const s: 1 | -1 = i > 0 ? 1 : -1;
     const [la, lb] = s > 0 ? laws.positive : laws.negative;
-    const [va, sa] = la(Math.abs(i));
-    const [vb, sb] = lb(Math.abs(i));
+    const va = la.dropV(Math.abs(i));
+    const sa = la.slopeOhm(Math.abs(i));
+    const vb = lb.dropV(Math.abs(i));
+    const sb = lb.slopeOhm(Math.abs(i));
     // outV from b₀ + ESR·|i|: ∂outV/∂b₀ = ov, ∂outV/∂b₁ = ESR·s·ov.
     const sens = [-slope * ov, s - slope * c.esrOhm * s * ov, -s * ov, -r - sa - sb - c.esrOhm * ov] as const;
     return finish(i, s, outV, va, vb, e - r * i - s * (va + vb + outV), sens);
@@ -220,7 +229,7 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
   const out0 = solveOutputV(c.load, bv, k);
   if (out0 === undefined) return undefined;
   const q = al * e + bi;
-  const onset = (p: readonly [ForwardLaw, ForwardLaw]): number => al * (out0 + p[0](0)[0] + p[1](0)[0]);
+  const onset = (p: readonly [ForwardLaw, ForwardLaw]): number => al * (out0 + p[0].dropV(0) + p[1].dropV(0));
   let s: 1 | -1 | 0 = 0;
   if (q > onset(laws.positive)) s = 1;
   else if (-q > onset(laws.negative)) s = -1;
@@ -238,15 +247,19 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
       failed = true;
       return [1, 1];
     }
-    const [va, sa] = la(x);
-    const [vb, sb] = la === lb ? [va, sa] : lb(x);
+    const va = la.dropV(x);
+    const sa = la.slopeOhm(x);
+    const vb = la === lb ? va : lb.dropV(x);
+    const sb = la === lb ? sa : lb.slopeOhm(x);
     return [x + al * (r * x + va + vb + out) - sq, 1 + al * (r + sa + sb + dk(out))];
   };
   const x = safeNewton(h, 0, sq, onset(s > 0 ? laws.positive : laws.negative) - sq, Math.abs(hintA), 1e-14 * sq);
   const outV = solveOutputV(c.load, bv + k * x, k);
   if (failed || outV === undefined) return undefined;
-  const [va, sa] = la(x);
-  const [vb, sb] = lb(x);
+  const va = la.dropV(x);
+  const sa = la.slopeOhm(x);
+  const vb = lb.dropV(x);
+  const sb = lb.slopeOhm(x);
   // h(x; b) = 0 with ∂h/∂b₀ = (a/L)·ov, ∂h/∂b₁ = −s; outV = O(b₀ + k·x), ∂O = ov = 1/(1 + k·ℓ').
   const slope = loadSlopeS(c.load, outV);
   const ov = 1 / (1 + k * slope);
