@@ -184,8 +184,10 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
       if (!(out > 0)) return [out - k * i - bv, -rr - k];
       return [out + k * loadCurrentA(c.load, out) - k * i - bv, -rr * (1 + k * loadSlopeS(c.load, out)) - k];
     };
-    let hi = Math.max(Math.abs(hintA) * 2, (m - off) / Math.max(r + k, 1e-3), 1e-9);
-    for (let n = 0; n < 200 && g(hi)[0] > 0; n += 1) hi *= 2;
+    // Upper bracket: at i = |e|/R the output would be at or below zero (KVL), where g < 0 for
+    // b₀ ≥ 0 without an evaluation; else (no source resistance) found by doubling.
+    let hi = r > 0 && bv >= 0 ? m / r : Math.max(Math.abs(hintA) * 2, (m - off) / Math.max(r + k, 1e-3), 1e-9);
+    if (!(r > 0 && bv >= 0)) for (let n = 0; n < 200 && g(hi)[0] > 0; n += 1) hi *= 2;
     // g(0) > 0 here (out(0) > off and v + k·ℓ(v) increases): only its sign is needed.
     const i = safeNewton(g, 0, hi, 1, Math.abs(hintA), 1e-13 * hi);
     const va = la.dropV(i);
