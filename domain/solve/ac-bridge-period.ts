@@ -91,8 +91,14 @@ export function integratePeriod(
   const n = x.length;
   const sens = opt.jacobian === true;
   // Dx = ∂x/∂x0 and Df = ∂f/∂x0 at the step's start node, n×n row-major.
-  let dx: number[] = n > 1 ? [1, 0, 0, 1] : [1];
-  let df: number[] = sens ? mulS(c, s0, dx) : [];
+  // Dx = ∂x/∂x0 and Df = ∂f/∂x0 at the step's start node, 2×2 row-major (only [0] without
+  // inductance); work buffers reused across steps.
+  const dx = new Float64Array([1, 0, 0, n > 1 ? 1 : 0]);
+  const df = new Float64Array(4);
+  const db1 = new Float64Array(4);
+  const dfg = new Float64Array(4);
+  const db2 = new Float64Array(4);
+  if (sens) mulSInto(df, c, s0, dx, n);
   // Breakpoints at the source's peaks and zero crossings: a short conduction pulse around a
   // peak always contains a node, so a long step cannot jump over it unseen.
   const breaks = [0.25, 0.5, 0.75, 1].map((q) => q * period).filter((b) => b <= endS * (1 + 1e-12));
@@ -153,11 +159,12 @@ export function integratePeriod(
     }
     if (errNorm <= 1 || h <= hMin * 4) {
       if (sens) {
-        const db1 = axpy(dx, a1, df);
-        const dxg = axpy(db1, a1, mulS(c, sg, db1));
-        const db2 = axpy(scaled(dxg, BDF_W_GAMMA), BDF_W_N, dx);
-        df = mulS(c, s1, db2);
-        dx = axpy(db2, BDF_COEFF * h, df);
+        const a2 = BDF_COEFF * h;
+        for (let k = 0; k < 4; k += 1) db1[k] = (dx[k] ?? 0) + a1 * (df[k] ?? 0);
+        mulSInto(dfg, c, sg, db1, n);
+        for (let k = 0; k < 4; k += 1) db2[k] = BDF_W_GAMMA * ((db1[k] ?? 0) + a1 * (dfg[k] ?? 0)) + BDF_W_N * (dx[k] ?? 0);
+        mulSInto(df, c, s1, db2, n);
+        for (let k = 0; k < 4; k += 1) dx[k] = (db2[k] ?? 0) + a2 * (df[k] ?? 0);
         // A blocked node's current rate is zero whatever its neighbourhood (see solveStage).
         if (n > 1 && s1.pair === 0) {
           df[2] = 0;
@@ -201,27 +208,21 @@ function x1a(x: readonly number[]): number {
   return x[1] ?? 0;
 }
 
-/** y + a·z for small flat matrices. */
-function axpy(y: readonly number[], a: number, z: readonly number[]): number[] {
-  if (y.length === 1) return [(y[0] ?? 0) + a * (z[0] ?? 0)];
-  return [(y[0] ?? 0) + a * (z[0] ?? 0), (y[1] ?? 0) + a * (z[1] ?? 0), (y[2] ?? 0) + a * (z[2] ?? 0), (y[3] ?? 0) + a * (z[3] ?? 0)];
-}
-
-function scaled(y: readonly number[], a: number): number[] {
-  return y.length === 1 ? [a * (y[0] ?? 0)] : [a * (y[0] ?? 0), a * (y[1] ?? 0), a * (y[2] ?? 0), a * (y[3] ?? 0)];
-}
-
-/** ∂f/∂x0 = S·D, S = ∂f/∂b of the node (f = [capA/C, vL/L]) and D = ∂b/∂x0. */
-function mulS(c: AcBridgeCircuit, s: Snapshot, d: readonly number[]): number[] {
-  if (d.length === 1) return [(s.dCapAdB0 / c.capacitanceF) * (d[0] ?? 0)];
+/** out = S·D, S = ∂f/∂b of the node (f = [capA/C, vL/L]) and D = ∂b/∂x0 (2×2 row-major). */
+function mulSInto(out: Float64Array, c: AcBridgeCircuit, s: Snapshot, d: Float64Array, n: number): void {
   const cap = c.capacitanceF;
-  const lh = c.leakageInductanceH;
   const s00 = s.dCapAdB0 / cap;
-  const s01 = s.dCapAdB1 / cap;
-  const s10 = s.dVLdB0 / lh;
-  const s11 = s.dVLdB1 / lh;
-  const [d00 = 0, d01 = 0, d10 = 0, d11 = 0] = d;
-  return [s00 * d00 + s01 * d10, s00 * d01 + s01 * d11, s10 * d00 + s11 * d10, s10 * d01 + s11 * d11];
+  const s01 = n > 1 ? s.dCapAdB1 / cap : 0;
+  const s10 = n > 1 ? s.dVLdB0 / c.leakageInductanceH : 0;
+  const s11 = n > 1 ? s.dVLdB1 / c.leakageInductanceH : 0;
+  const d00 = d[0] ?? 0;
+  const d01 = d[1] ?? 0;
+  const d10 = d[2] ?? 0;
+  const d11 = d[3] ?? 0;
+  out[0] = s00 * d00 + s01 * d10;
+  out[1] = s00 * d01 + s01 * d11;
+  out[2] = s10 * d00 + s11 * d10;
+  out[3] = s10 * d01 + s11 * d11;
 }
 
 function collapse(atS: number): PeriodOutcome {
