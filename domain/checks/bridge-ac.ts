@@ -36,6 +36,11 @@ export interface AcElementResult extends AcElementMetrics {
 export interface AcSteadyState extends AcCircuitMetrics {
   readonly elements: readonly AcElementResult[];
   readonly totalElementLossW: number;
+  /**
+   * Work done: shooting iterations of the last isothermal solve; periods integrated in all
+   * (a half-period map of a symmetric bridge counts ½, the predictor's coarse map included);
+   * integrator steps over the converged period (the half period's twice, on the half map).
+   */
   readonly solver: { readonly shootingIterations: number; readonly periodsIntegrated: number; readonly stepsLastPeriod: number; readonly thermalIterations: number };
   /** One period of the steady state, when asked for (`waveformPoints`). */
   readonly waveform?: AcPeriodWaveform;
