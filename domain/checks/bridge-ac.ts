@@ -165,8 +165,18 @@ function halfWaveSymmetric(parts: Readonly<Record<BridgePosition, string>>): boo
 
 /** A key per position: equal keys are the same element record (structurally) at the same junction temperature. */
 function partKeys(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, number>>): Readonly<Record<BridgePosition, string>> {
-  const key = (p: BridgePosition) => `${tjK[p]}|${JSON.stringify(m.elements[p])}`;
+  const key = (p: BridgePosition) => `${tjK[p]}|${recordKey(m.elements[p])}`;
   return { line1High: key("line1High"), line2High: key("line2High"), line1Low: key("line1Low"), line2Low: key("line2Low") };
+}
+
+/** The element records are read-only: their serialisation is kept per record (the electrothermal loop asks again and again). */
+const RECORD_KEYS = new WeakMap<object, string>();
+function recordKey(e: BridgeElements[BridgePosition]): string {
+  const hit = RECORD_KEYS.get(e);
+  if (hit !== undefined) return hit;
+  const k = JSON.stringify(e);
+  RECORD_KEYS.set(e, k);
+  return k;
 }
 
 /**
