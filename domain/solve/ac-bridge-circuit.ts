@@ -118,6 +118,33 @@ export function solveOutputV(load: LoadModel, b: number, k: number): number | un
   return v > 0 ? v : undefined;
 }
 
+/** The node record of a stage solution (module-level: no closure per stage). */
+function node(
+  c: AcBridgeCircuit,
+  t: number,
+  e: number,
+  i: number,
+  s: 1 | -1 | 0,
+  outV: number,
+  dA: number,
+  dB: number,
+  inductorV: number,
+  dCapAdB0: number,
+  dCapAdB1: number,
+  dVLdB0: number,
+  dVLdB1: number,
+): Snapshot {
+  const loadA = loadCurrentA(c.load, outV);
+  const capA = Math.abs(i) - loadA;
+  return { t, sourceV: e, capV: outV - c.esrOhm * capA, lineA: i, outV, loadA, capA, pair: s, dropAV: dA, dropBV: dB, inductorV, dCapAdB0, dCapAdB1, dVLdB0, dVLdB1 };
+}
+
+/** Off-state output: v + k·ℓ(v) = b₀, so ∂v/∂b₀ = 1/(1 + k·ℓ'(v)) and ∂capA/∂b₀ = −ℓ'·∂v/∂b₀. */
+function offSens(load: LoadModel, outV: number, k: number): number {
+  const slope = loadSlopeS(load, outV);
+  return -slope / (1 + k * slope);
+}
+
 /**
  * One implicit stage x − a·f(t, x) = b of a one-step method (a = 0: the algebraic state at x = b).
  * Without inductance x = [capV]: with source current of magnitude i through the pair picked by
@@ -136,32 +163,6 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
   const k = c.esrOhm + a / cap;
   const bv = b[0] ?? 0;
   const lh = c.leakageInductanceH;
-  const finish = (i: number, s: 1 | -1 | 0, outV: number, dA: number, dB: number, inductorV: number, sens: readonly [number, number, number, number]): Snapshot => {
-    const loadA = loadCurrentA(c.load, outV);
-    const capA = Math.abs(i) - loadA;
-    return {
-      t,
-      sourceV: e,
-      capV: outV - c.esrOhm * capA,
-      lineA: i,
-      outV,
-      loadA,
-      capA,
-      pair: s,
-      dropAV: dA,
-      dropBV: dB,
-      inductorV,
-      dCapAdB0: sens[0],
-      dCapAdB1: sens[1],
-      dVLdB0: sens[2],
-      dVLdB1: sens[3],
-    };
-  };
-  // Off-state output: v + k·ℓ(v) = b₀, so ∂v/∂b₀ = 1/(1 + k·ℓ'(v)) and ∂capA/∂b₀ = −ℓ'·∂v/∂b₀.
-  const offSens = (outV: number, kk: number): number => {
-    const slope = loadSlopeS(c.load, outV);
-    return -slope / (1 + kk * slope);
-  };
 
   if (!(lh > 0)) {
     const off = solveOutputV(c.load, bv, k);
@@ -170,7 +171,7 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
     const s: 1 | -1 = e >= 0 ? 1 : -1;
     const [la, lb] = s > 0 ? laws.positive : laws.negative;
     // Laws give the right-hand limit at zero current (a regulated drop starts at its setpoint).
-    if (off >= m - la.dropV(0) - lb.dropV(0)) return finish(0, 0, off, 0, 0, 0, [offSens(off, k), 0, 0, 0]);
+    if (off >= m - la.dropV(0) - lb.dropV(0)) return node(c, t, e, 0, 0, off, 0, 0, 0, offSens(c.load, off, k), 0, 0, 0);
     // g(i) = outV + k·ℓ(outV) − k·i − b: g(0) > 0, decreasing.
     // The same part in both positions: one law evaluation for the pair.
     const twin = la === lb;
@@ -200,7 +201,7 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
     const rr = r + sa + sb;
     const slope = loadSlopeS(c.load, outV);
     const gp = -rr * (1 + k * slope) - k;
-    return finish(s * i, s, outV, va, vb, 0, [(1 + slope * rr) / gp, 0, 0, 0]);
+    return node(c, t, e, s * i, s, outV, va, vb, 0, (1 + slope * rr) / gp, 0, 0, 0);
   }
 
   const bi = b[1] ?? 0;
@@ -215,7 +216,7 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
       const s: 1 | -1 = e >= 0 ? 1 : -1;
       const [la, lb] = s > 0 ? laws.positive : laws.negative;
       const drive = Math.abs(e) - outV - la.dropV(0) - lb.dropV(0);
-      return finish(0, 0, outV, 0, 0, drive > 0 ? s * drive : 0, [-slope * ov, 0, drive > 0 ? -s * ov : 0, 0]);
+      return node(c, t, e, 0, 0, outV, 0, 0, drive > 0 ? s * drive : 0, -slope * ov, 0, drive > 0 ? -s * ov : 0, 0);
     }
     const s: 1 | -1 = i > 0 ? 1 : -1;
     const [la, lb] = s > 0 ? laws.positive : laws.negative;
@@ -224,8 +225,7 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
     const vb = lb.dropV(Math.abs(i));
     const sb = lb.slopeOhm(Math.abs(i));
     // outV from b₀ + ESR·|i|: ∂outV/∂b₀ = ov, ∂outV/∂b₁ = ESR·s·ov.
-    const sens = [-slope * ov, s - slope * c.esrOhm * s * ov, -s * ov, -r - sa - sb - c.esrOhm * ov] as const;
-    return finish(i, s, outV, va, vb, e - r * i - s * (va + vb + outV), sens);
+    return node(c, t, e, i, s, outV, va, vb, e - r * i - s * (va + vb + outV), -slope * ov, s - slope * c.esrOhm * s * ov, -s * ov, -r - sa - sb - c.esrOhm * ov);
   }
   const al = a / lh;
   const out0 = solveOutputV(c.load, bv, k);
@@ -237,7 +237,7 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
   else if (-q > onset(laws.negative)) s = -1;
   // Blocked: the current is held at zero, and so is its rate at this node (the stage's −b₁/a is
   // the jump that brought it there, not a rate; the sensitivity keeps it, so that ∂i/∂b = 0).
-  if (s === 0) return finish(0, 0, out0, 0, 0, 0, [offSens(out0, k), 0, 0, -1 / al]);
+  if (s === 0) return node(c, t, e, 0, 0, out0, 0, 0, 0, offSens(c.load, out0, k), 0, 0, -1 / al);
   const sq = s * q;
   const [la, lb] = s > 0 ? laws.positive : laws.negative;
   const dk = (out: number): number => k / (1 + k * loadSlopeS(c.load, out));
@@ -270,6 +270,5 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
   const dx1 = s / hx;
   const dOut0 = ov * (1 + k * dx0);
   const dOut1 = ov * k * dx1;
-  const sens = [dx0 - slope * dOut0, dx1 - slope * dOut1, (s * dx0) / al, (s * dx1 - 1) / al] as const;
-  return finish(s * x, s, outV, va, vb, (s * x - bi) / al, sens);
+  return node(c, t, e, s * x, s, outV, va, vb, (s * x - bi) / al, dx0 - slope * dOut0, dx1 - slope * dOut1, (s * dx0) / al, (s * dx1 - 1) / al);
 }
