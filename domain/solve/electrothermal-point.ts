@@ -66,7 +66,20 @@ export function solveOperatingPoint(m: OperatingPointModel): OperatingPointOutco
   }
   const e = recent.find((x) => x.tK === r.tjK)?.e ?? solveElectrical(m, r.tjK);
   if (!e.ok) throw new Error("unreachable: the circuit solved during the search but not at its root");
-  const point: SolvedPoint = { ...e.point, tjC: kToC(r.tjK), dieLossW: r.lossW, thermalLoopGain: r.loopGain, iterations: r.evaluations };
+  // Fields named one by one: a spread plus extra fields takes V8's slow clone path (it was most
+  // of this function's time); the key order is the spread's.
+  const ep = e.point;
+  const point: SolvedPoint = {
+    currentA: ep.currentA,
+    sourceCurrentA: ep.sourceCurrentA,
+    stageInputV: ep.stageInputV,
+    loadV: ep.loadV,
+    forward: ep.forward,
+    tjC: kToC(r.tjK),
+    dieLossW: r.lossW,
+    thermalLoopGain: r.loopGain,
+    iterations: r.evaluations,
+  };
   if (point.tjC > tjMaxC) {
     return { outcome: "over-temperature", point, tjMaxC, reason: `the stable operating point, ${fmt(point.tjC)} °C, lies above the ${fmt(tjMaxC)} °C junction limit` };
   }
