@@ -53,9 +53,7 @@ export function saturationCurrentAt(p: DiodeParams, tK: number): number {
 
 /** Forward voltage at forward current currentA (≥ 0) and temperature tK: explicit. */
 export function diodeVoltageV(p: DiodeParams, currentA: number, tK: number): number {
-  const is = saturationCurrentAt(p, tK);
-  const nvt = emissionVoltageV(p, tK);
-  return nvt * Math.log1p(currentA / is) + currentA * p.seriesResistanceOhm;
+  return forwardVoltageAtV(diodeAt(p, tK), currentA);
 }
 
 /**
@@ -65,9 +63,34 @@ export function diodeVoltageV(p: DiodeParams, currentA: number, tK: number): num
  * evaluated as (n·Vt/Rs)·ω(x) − Is with x the log of W's argument, so large V cannot overflow.
  */
 export function diodeCurrentA(p: DiodeParams, voltageV: number, tK: number): number {
-  const is = saturationCurrentAt(p, tK);
-  const nvt = emissionVoltageV(p, tK);
-  const rs = p.seriesResistanceOhm;
+  return forwardCurrentAtA(diodeAt(p, tK), voltageV);
+}
+
+/**
+ * A diode's constants at one junction temperature: Is(T), n·Vt and Rs. The temperature law costs
+ * a power and an exponential; a stage that evaluates the same junction at several currents or
+ * voltages (a gate-drive iteration, a channel with its body diode) forms this once.
+ */
+export interface DiodeAtT {
+  readonly saturationCurrentA: number;
+  readonly emissionVoltageV: number;
+  readonly seriesResistanceOhm: number;
+}
+
+export function diodeAt(p: DiodeParams, tK: number): DiodeAtT {
+  return { saturationCurrentA: saturationCurrentAt(p, tK), emissionVoltageV: emissionVoltageV(p, tK), seriesResistanceOhm: p.seriesResistanceOhm };
+}
+
+/** V = n·Vt·ln(I/Is + 1) + I·Rs at the junction's temperature (diodeVoltageV's formula). */
+export function forwardVoltageAtV(d: DiodeAtT, currentA: number): number {
+  return d.emissionVoltageV * Math.log1p(currentA / d.saturationCurrentA) + currentA * d.seriesResistanceOhm;
+}
+
+/** I(V) through Lambert W at the junction's temperature (diodeCurrentA's formula, Banwell and Jayakumar 2000). */
+export function forwardCurrentAtA(d: DiodeAtT, voltageV: number): number {
+  const is = d.saturationCurrentA;
+  const nvt = d.emissionVoltageV;
+  const rs = d.seriesResistanceOhm;
   if (rs <= 0) return is * Math.expm1(voltageV / nvt);
   const x = Math.log((is * rs) / nvt) + (voltageV + is * rs) / nvt;
   return (nvt / rs) * wrightOmega(x) - is;

@@ -1,5 +1,4 @@
-import { type DiodeParams, diodeVoltageV, saturationCurrentAt, emissionVoltageV } from "../physics/diode.js";
-import { wrightOmega } from "../physics/lambert-w.js";
+import { type DiodeAtT, type DiodeParams, diodeAt, forwardCurrentAtA, forwardVoltageAtV } from "../physics/diode.js";
 
 /** How the stage conducts at an operating point. */
 export type ConductionMode =
@@ -26,7 +25,12 @@ export interface ForwardState {
 
 /** The body diode or a discrete diode carrying all of the current. */
 export function junctionState(d: DiodeParams, currentA: number, tK: number, mode: "junction" | "body-diode"): ForwardState {
-  const dropV = diodeVoltageV(d, currentA, tK);
+  return junctionStateAt(diodeAt(d, tK), currentA, mode);
+}
+
+/** junctionState with the junction's constants already formed at its temperature. */
+export function junctionStateAt(d: DiodeAtT, currentA: number, mode: "junction" | "body-diode"): ForwardState {
+  const dropV = forwardVoltageAtV(d, currentA);
   return { mode, dropV, lossW: dropV * currentA, channelCurrentA: 0, bodyDiodeCurrentA: currentA, bodyDiodeTimeFraction: mode === "body-diode" ? 1 : 0 };
 }
 
@@ -35,14 +39,15 @@ export function junctionState(d: DiodeParams, currentA: number, tK: number, mode
  * solves V/R + Id(V) = I (monotone in V) by Newton steps kept inside a shrinking bracket.
  */
 export function channelWithBodyDiodeV(rOhm: number, d: DiodeParams, currentA: number, tK: number): number {
-  // Is(T) and n·Vt once per call (the hot path of every MOSFET stage).
-  const is = saturationCurrentAt(d, tK);
-  const nvt = emissionVoltageV(d, tK);
+  return channelWithBodyDiodeAtV(rOhm, diodeAt(d, tK), currentA);
+}
+
+/** channelWithBodyDiodeV with the body diode's constants already formed at its temperature. */
+export function channelWithBodyDiodeAtV(rOhm: number, d: DiodeAtT, currentA: number): number {
+  const is = d.saturationCurrentA;
+  const nvt = d.emissionVoltageV;
   const rs = d.seriesResistanceOhm;
-  const id = (v: number): number => {
-    if (rs <= 0) return is * Math.expm1(v / nvt);
-    return (nvt / rs) * wrightOmega(Math.log((is * rs) / nvt) + (v + is * rs) / nvt) - is;
-  };
+  const id = (v: number): number => forwardCurrentAtA(d, v);
   // The usual case: at I·R the body diode carries a negligible share, and V = (I − Id)·R to
   // first order (the neglected term is Id·R·(dId/dV)·R, far below double precision here).
   const v0 = currentA * rOhm;

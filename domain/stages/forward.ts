@@ -1,6 +1,6 @@
 import { rdsTempFactor } from "../physics/mosfet-channel.js";
-import { type ForwardState, junctionState } from "./conduction.js";
-import { blendWithBodyDiode, mosfetForward } from "./mosfet-forward.js";
+import { type ForwardState, junctionState, junctionStateAt } from "./conduction.js";
+import { blendWithBodyDiode, mosfetAt, mosfetForward, mosfetForwardAt } from "./mosfet-forward.js";
 import type { StageModel } from "./stage-model.js";
 
 /**
@@ -17,24 +17,40 @@ export function stageForward(stage: StageModel, currentA: number, tK: number, in
       return mosfetForward(stage.mosfet.channel, stage.mosfet.bodyDiode, vgs, currentA, tK, 0);
     }
     case "pfet-high-side": {
-      // The source sits at the output: |Vgs| = Vin − drop, found by a few substitutions (the
-      // drop is small against Vin, so this contracts quickly).
+      // The source sits at the output: |Vgs| = Vin − drop(Vgs) =: F(Vgs), a strong contraction (the
+      // drop is small against Vin). Substitution, accelerated by the secant on g = F(v) − v through
+      // the last two trials (superlinear); a secant point farther from F(v) than the step |g| (a
+      // kink of the clamp or of the Rds(on) curve) is dropped for plain substitution. The
+      // temperature laws are formed once (the junction stays at tK).
+      const channel = stage.mosfet.channel;
+      const at = mosfetAt(channel, stage.mosfet.bodyDiode, tK);
       let vgs = clamp(inputV, stage.gateClampV);
-      let state = mosfetForward(stage.mosfet.channel, stage.mosfet.bodyDiode, vgs, currentA, tK, 0);
+      let state = mosfetForwardAt(channel, at, vgs, currentA, 0);
+      let prevV = Number.NaN;
+      let prevG = Number.NaN;
       for (let i = 0; i < 30; i += 1) {
         const next = clamp(Math.max(0, inputV - state.dropV), stage.gateClampV);
-        if (Math.abs(next - vgs) < 1e-12) break;
-        vgs = next;
-        state = mosfetForward(stage.mosfet.channel, stage.mosfet.bodyDiode, vgs, currentA, tK, 0);
+        const g = next - vgs;
+        if (Math.abs(g) < 1e-12) break;
+        let trial = next;
+        if (g !== prevG && Number.isFinite(prevG)) {
+          const secant = clamp(Math.max(0, vgs - (g * (vgs - prevV)) / (g - prevG)), stage.gateClampV);
+          if (Math.abs(secant - next) <= Math.abs(g)) trial = secant;
+        }
+        prevV = vgs;
+        prevG = g;
+        vgs = trial;
+        state = mosfetForwardAt(channel, at, vgs, currentA, 0);
       }
       return state;
     }
     case "nfet-ideal-diode": {
       const c = stage.controller;
       if (inputV < c.startV) return junctionState(stage.mosfet.bodyDiode, currentA, tK, "body-diode");
-      const on = mosfetForward(stage.mosfet.channel, stage.mosfet.bodyDiode, gateDriveAt(c, inputV), currentA, tK, c.regulatedDropV);
+      const at = mosfetAt(stage.mosfet.channel, stage.mosfet.bodyDiode, tK);
+      const on = mosfetForwardAt(stage.mosfet.channel, at, gateDriveAt(c, inputV), currentA, c.regulatedDropV);
       if (c.gateReleaseFraction <= 0) return on;
-      return blendWithBodyDiode(on, junctionState(stage.mosfet.bodyDiode, currentA, tK, "body-diode"), c.gateReleaseFraction);
+      return blendWithBodyDiode(on, junctionStateAt(at.bodyDiode, currentA, "body-diode"), c.gateReleaseFraction);
     }
     case "integrated-switch": {
       if (inputV < stage.startV) {

@@ -1,6 +1,6 @@
-import { type DiodeParams, diodeCurrentA } from "../physics/diode.js";
-import { type ChannelParams, channelResistanceOhm, fullEnhancementV } from "../physics/mosfet-channel.js";
-import { channelWithBodyDiodeV, type ForwardState, junctionState } from "./conduction.js";
+import { type DiodeAtT, type DiodeParams, diodeAt, forwardCurrentAtA } from "../physics/diode.js";
+import { type ChannelParams, channelConductance25S, fullEnhancementV, rdsTempFactor } from "../physics/mosfet-channel.js";
+import { channelWithBodyDiodeAtV, type ForwardState, junctionStateAt } from "./conduction.js";
 
 /**
  * A MOSFET channel at a given gate drive in parallel with its body diode.
@@ -16,11 +16,34 @@ export function mosfetForward(
   tK: number,
   regulatedDropV: number,
 ): ForwardState {
-  const rOhm = channelResistanceOhm(channel, gateSourceV, tK);
-  if (rOhm === undefined) return { ...junctionState(bodyDiode, currentA, tK, "body-diode"), gateSourceV };
+  return mosfetForwardAt(channel, mosfetAt(channel, bodyDiode, tK), gateSourceV, currentA, regulatedDropV);
+}
+
+/** A MOSFET's temperature-dependent constants at one junction temperature: Rds(on)(T)/Rds(on)(25 °C) and the body diode's. */
+export interface MosfetAtT {
+  readonly rdsFactor: number;
+  readonly bodyDiode: DiodeAtT;
+}
+
+export function mosfetAt(channel: ChannelParams, bodyDiode: DiodeParams, tK: number): MosfetAtT {
+  return { rdsFactor: rdsTempFactor(channel.tempLaw, tK), bodyDiode: diodeAt(bodyDiode, tK) };
+}
+
+/**
+ * mosfetForward with the temperature-dependent constants formed once (mosfetAt): a stage that
+ * tries several gate drives at one temperature (the P-FET's Vgs = Vin − drop) pays the
+ * temperature laws once. Rds = (R(T)/R25) / G25(Vgs), as channelResistanceOhm.
+ */
+export function mosfetForwardAt(channel: ChannelParams, at: MosfetAtT, gateSourceV: number, currentA: number, regulatedDropV: number): ForwardState {
+  const g = channelConductance25S(channel, gateSourceV);
+  if (!(g > 0)) {
+    const body = junctionStateAt(at.bodyDiode, currentA, "body-diode");
+    return { mode: body.mode, dropV: body.dropV, lossW: body.lossW, channelCurrentA: body.channelCurrentA, bodyDiodeCurrentA: body.bodyDiodeCurrentA, bodyDiodeTimeFraction: body.bodyDiodeTimeFraction, gateSourceV };
+  }
+  const rOhm = at.rdsFactor / g;
   const mode = gateSourceV >= fullEnhancementV(channel) ? "fully-enhanced" : "partially-enhanced";
   if (regulatedDropV > 0 && currentA * rOhm < regulatedDropV) {
-    const bodyA = Math.min(currentA, Math.max(0, diodeCurrentA(bodyDiode, regulatedDropV, tK)));
+    const bodyA = Math.min(currentA, Math.max(0, forwardCurrentAtA(at.bodyDiode, regulatedDropV)));
     return {
       mode: "regulated-drop",
       dropV: regulatedDropV,
@@ -32,7 +55,7 @@ export function mosfetForward(
       bodyDiodeTimeFraction: 0,
     };
   }
-  const dropV = channelWithBodyDiodeV(rOhm, bodyDiode, currentA, tK);
+  const dropV = channelWithBodyDiodeAtV(rOhm, at.bodyDiode, currentA);
   const channelA = dropV / rOhm;
   return {
     mode,
