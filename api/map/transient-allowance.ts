@@ -24,7 +24,8 @@ export function transientAllowanceOf(set: CompiledRuleSet, stage: StageModel, re
   const largest = (name: string): number | undefined => {
     let best: number | undefined;
     for (const rule of rulesReading(set, name)) {
-      const b = ruleBoundary(rule, { ...base, metrics: { ...base.metrics, [name]: probe } }, name, set.stamp, probe);
+      // ruleBoundary sets `name` itself for every trial, starting at the probe.
+      const b = ruleBoundary(rule, base, name, set.stamp, probe);
       if (b.kind === "bound" && b.bound === "at-most" && b.value > 0) best = best === undefined ? b.value : Math.min(best, b.value);
     }
     return best;

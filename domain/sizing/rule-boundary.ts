@@ -27,7 +27,16 @@ export function withValue(input: RuleInput, name: string, x: number): RuleInput 
  * passes: rising margin → the name must be at least x*, falling → at most x*.
  */
 export function ruleBoundary(c: CompiledRule, input: RuleInput, name: string, stamp: CompiledRuleSet["stamp"], present: number): RuleBoundary {
-  const at = (x: number): Verdict => evaluateRule(c, withValue(input, name, x), stamp);
+  // One copy of the input (withValue's) whose entry for `name` each trial overwrites: the engine
+  // reads the value at evaluation and keeps no reference to the input, so every trial sees
+  // exactly withValue(input, name, x) without copying the metrics again.
+  const probe = withValue(input, name, present);
+  const target = (name.startsWith("part.") ? probe.part : probe.metrics) as Record<string, number | boolean>;
+  const key = name.startsWith("part.") ? name.slice(5) : name;
+  const at = (x: number): Verdict => {
+    target[key] = x;
+    return evaluateRule(c, probe, stamp);
+  };
   const v0 = at(present);
   if (v0.outcome === "not-applicable") {
     const code = v0.notApplicableCode;
