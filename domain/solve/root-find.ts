@@ -1,6 +1,10 @@
 /**
  * Bracketed root of a continuous f on [a, b] with f(a)·f(b) ≤ 0, by the Illinois variant of
  * regula falsi (Dowell & Jarratt, BIT 11, 1971): superlinear, and never leaves the bracket.
+ * Stops when the bracket is narrower than tolX, or (with stepTolX) when the secant correction
+ * |f(x)/f'(x)| estimated from the last two iterates (their true values, not Illinois' halved
+ * ones) is below stepTolX: the usual stopping test of the secant method, which saves the last
+ * iterations a one-sided regula falsi spends closing the far end of the bracket.
  */
 export function bracketedRoot(
   f: (x: number) => number,
@@ -10,17 +14,27 @@ export function bracketedRoot(
   fb: number,
   tolX: number,
   maxIter = 200,
+  stepTolX?: number,
 ): { x: number; fx: number; iterations: number } {
   if (fa === 0) return { x: a, fx: 0, iterations: 0 };
   if (fb === 0) return { x: b, fx: 0, iterations: 0 };
   let side = 0;
   let x = a;
   let fx = fa;
+  // The previous iterate, for the secant estimate of the correction: first the nearer end.
+  let px = Math.abs(fa) < Math.abs(fb) ? a : b;
+  let pf = px === a ? fa : fb;
   for (let i = 1; i <= maxIter; i += 1) {
     x = (a * fb - b * fa) / (fb - fa);
     if (!(x > Math.min(a, b) && x < Math.max(a, b))) x = 0.5 * (a + b);
     fx = f(x);
     if (fx === 0 || Math.abs(b - a) < tolX) return { x, fx, iterations: i };
+    if (stepTolX !== undefined) {
+      const slope = (fx - pf) / (x - px);
+      if (slope !== 0 && Math.abs(fx / slope) < stepTolX) return { x, fx, iterations: i };
+      px = x;
+      pf = fx;
+    }
     if (fx * fb > 0) {
       b = x;
       fb = fx;

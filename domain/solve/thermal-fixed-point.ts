@@ -9,6 +9,9 @@ export type FixedPointResult<F> =
   | { readonly kind: "runaway"; readonly searchedToK: number; readonly lossAtEndW: number; readonly loopGainAtEnd: number }
   | { readonly kind: "failed"; readonly failure: F; readonly atK: number };
 
+/** Tolerance on the junction temperature of the root, K. */
+const ROOT_TOL_K = 1e-9;
+
 /**
  * The lowest solution of Tj = Ta + Rth·P(Tj) (the stable operating point where Rth·dP/dTj < 1).
  * h(T) = Ta + Rth·P(T) − T is ≥ 0 at T = Ta; the search takes fixed-point and secant steps upward
@@ -68,23 +71,26 @@ export function thermalFixedPoint<F>(ambientC: number, rthKPerW: number, ceiling
     if (f) return f;
   }
     if (hn > 0) {
-      const slope = (hn - ht) / (next - t);
-      if (slope < 0) {
+      // Secant steps through the last two points while both lie below the root (h > 0) on a
+      // falling h; converged from below when the correction left is under the tolerance.
+      let slope = (hn - ht) / (next - t);
+      for (let k = 0; k < 100 && hn > 0 && slope < 0; k += 1) {
         const secant = Math.min(next - hn / slope, ceilingK);
-        if (secant > next) {
-          t = next;
-          ht = hn;
-          next = secant;
-          hn = h(next);
-          {
-    const f = failed();
-    if (f) return f;
-  }
+        if (!(secant > next)) break;
+        t = next;
+        ht = hn;
+        next = secant;
+        hn = h(next);
+        {
+          const f = failed();
+          if (f) return f;
         }
+        slope = (hn - ht) / (next - t);
+        if (hn > 0 && slope < 0 && hn / -slope < ROOT_TOL_K) return done(next);
       }
     }
     if (hn <= 0) {
-      const root = bracketedRoot(h, t, next, ht, hn, 1e-9).x;
+      const root = bracketedRoot(h, t, next, ht, hn, ROOT_TOL_K, 200, ROOT_TOL_K).x;
       {
     const f = failed();
     if (f) return f;
