@@ -24,6 +24,8 @@ export function transientAllowanceOf(set: CompiledRuleSet, stage: StageModel, re
   const largest = (name: string): number | undefined => {
     let best: number | undefined;
     for (const rule of rulesReading(set, name)) {
+      // A rule for other stage kinds is out of scope for ruleBoundary too (skipped below): skip it here.
+      if (rule.rule.appliesTo !== "all" && !rule.rule.appliesTo.includes(stage.kind)) continue;
       // ruleBoundary sets `name` itself for every trial, starting at the probe.
       const b = ruleBoundary(rule, base, name, set.stamp, probe);
       if (b.kind === "bound" && b.bound === "at-most" && b.value > 0) best = best === undefined ? b.value : Math.min(best, b.value);

@@ -1,6 +1,6 @@
-import { rdsTempFactor } from "../physics/mosfet-channel.js";
+import { channelConductance25S, fullEnhancementV, rdsTempFactor } from "../physics/mosfet-channel.js";
 import { type ForwardState, junctionState, junctionStateAt } from "./conduction.js";
-import { blendWithBodyDiode, mosfetAt, mosfetForward, mosfetForwardAt } from "./mosfet-forward.js";
+import { blendWithBodyDiode, mosfetAt, mosfetForward, mosfetForwardAt, withGateSourceV } from "./mosfet-forward.js";
 import type { StageModel } from "./stage-model.js";
 
 /**
@@ -24,6 +24,7 @@ export function stageForward(stage: StageModel, currentA: number, tK: number, in
       // temperature laws are formed once (the junction stays at tK).
       const channel = stage.mosfet.channel;
       const at = mosfetAt(channel, stage.mosfet.bodyDiode, tK);
+      const fullOn = fullEnhancementV(channel);
       let vgs = clamp(inputV, stage.gateClampV);
       let state = mosfetForwardAt(channel, at, vgs, currentA, 0);
       let prevV = Number.NaN;
@@ -39,8 +40,11 @@ export function stageForward(stage: StageModel, currentA: number, tK: number, in
         }
         prevV = vgs;
         prevG = g;
+        // Where the 25 °C conductance and the enhancement class do not change (above the highest
+        // Rds(on) point, or below threshold) the state is the same but for Vgs: no new solve.
+        const same = channelConductance25S(channel, trial) === channelConductance25S(channel, vgs) && trial >= fullOn === vgs >= fullOn;
         vgs = trial;
-        state = mosfetForwardAt(channel, at, vgs, currentA, 0);
+        state = same ? withGateSourceV(state, vgs) : mosfetForwardAt(channel, at, vgs, currentA, 0);
       }
       return state;
     }

@@ -69,6 +69,23 @@ export function mosfetForwardAt(channel: ChannelParams, at: MosfetAtT, gateSourc
   };
 }
 
+/** The same state at another gate drive (its conduction unchanged), field for field in the order mosfetForwardAt writes them. */
+export function withGateSourceV(s: ForwardState, gateSourceV: number): ForwardState {
+  if (s.channelResistanceOhm === undefined) {
+    return { mode: s.mode, dropV: s.dropV, lossW: s.lossW, channelCurrentA: s.channelCurrentA, bodyDiodeCurrentA: s.bodyDiodeCurrentA, bodyDiodeTimeFraction: s.bodyDiodeTimeFraction, gateSourceV };
+  }
+  return {
+    mode: s.mode,
+    dropV: s.dropV,
+    lossW: s.lossW,
+    channelCurrentA: s.channelCurrentA,
+    bodyDiodeCurrentA: s.bodyDiodeCurrentA,
+    gateSourceV,
+    channelResistanceOhm: s.channelResistanceOhm,
+    bodyDiodeTimeFraction: s.bodyDiodeTimeFraction,
+  };
+}
+
 /** Time-average of a gated state and the body-diode state, for a duty-cycled charge pump. */
 export function blendWithBodyDiode(on: ForwardState, body: ForwardState, releaseFraction: number): ForwardState {
   if (releaseFraction <= 0) return on;

@@ -52,6 +52,13 @@ describe("P-FET gate drive Vgs = Vin − drop (closed form of the piecewise-line
     });
   }
 
+  it("above the highest Rds(on) point (no clamp): drop = I·Rds(on) at 10 V, Vgs = Vin − drop", () => {
+    const s = stageForward(pfet(0), 4, T25_K, 14);
+    expect(relativeError(s.dropV, 4 * 0.01)).toBeLessThan(1e-12);
+    expect(Math.abs((s.gateSourceV ?? 0) - (14 - s.dropV))).toBeLessThan(1e-12);
+    expect(s.mode).toBe("fully-enhanced");
+  });
+
   it("a gate clamp below the input holds Vgs at the clamp: drop = I·Rds(on) at 10 V and above", () => {
     const s = stageForward(pfet(0, 12), 4, T25_K, 20);
     expect(s.gateSourceV).toBe(12);
