@@ -18,15 +18,14 @@ export interface RequirementFlags {
  * corner's outcome), so their rules cannot pass.
  */
 export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags: RequirementFlags, r: CandidateReview): RuleInput {
-  const metrics: Record<string, number | boolean> = {
-    ...stageMetrics(stage),
-    supplyMinV: req.supplyMinV,
-    supplyMaxV: req.supplyMaxV,
-    reverseVMaxV: req.reverseV,
-    parallelSources: flags.parallelSources,
-    holdUpRequired: flags.holdUpRequired,
-    blocksReverseCurrent: r.blocksReverseCurrent,
-  };
+  // stageMetrics returns a fresh record: filled in place (the keys in the order a spread would give).
+  const metrics = stageMetrics(stage);
+  metrics["supplyMinV"] = req.supplyMinV;
+  metrics["supplyMaxV"] = req.supplyMaxV;
+  metrics["reverseVMaxV"] = req.reverseV;
+  metrics["parallelSources"] = flags.parallelSources;
+  metrics["holdUpRequired"] = flags.holdUpRequired;
+  metrics["blocksReverseCurrent"] = r.blocksReverseCurrent;
   const unavailable: Record<string, string> = {};
   const notRequired: Record<string, string> = {};
   if (req.loadMinV !== undefined) metrics["loadMinV"] = req.loadMinV;
@@ -69,7 +68,7 @@ export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags
   if (r.turnOff !== undefined) turnOffMetrics(r.turnOff, metrics, part, unavailable);
   const elsewhere = otherAnalysesMetrics(metrics, "review");
   for (const n of Object.keys(unavailable)) delete elsewhere[n];
-  return { stageKind: stage.kind, metrics, part, unavailable, notRequired: { ...elsewhere, ...notRequired } };
+  return { stageKind: stage.kind, metrics, part, unavailable, notRequired: Object.assign(elsewhere, notRequired) };
 }
 
 /**

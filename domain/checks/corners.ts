@@ -86,29 +86,45 @@ export interface WorstCase {
 
 /** The worst corner per metric, among the corners that have an operating point. */
 export function worstCase(corners: readonly CornerResult[]): WorstCase {
-  let tjC: WorstOf | undefined;
-  let lossW: WorstOf | undefined;
-  let dropV: WorstOf | undefined;
-  let loadMinV: WorstOf | undefined;
+  // Scalars while scanning (one record per metric at the end, not one per improvement).
+  let tjI = -1;
+  let lossI = -1;
+  let dropI = -1;
+  let loadI = -1;
+  let tj = 0;
+  let loss = 0;
+  let drop = 0;
+  let load = 0;
   const unsolved: number[] = [];
-  corners.forEach((c, i) => {
-    const r = c.result;
+  for (let i = 0; i < corners.length; i += 1) {
+    const r = (corners[i] as CornerResult).result;
     if (!("point" in r)) {
       unsolved.push(i);
-      return;
+      continue;
     }
     const p = r.point;
-    if (tjC === undefined || p.tjC > tjC.value) tjC = { value: p.tjC, cornerIndex: i };
-    if (lossW === undefined || p.dieLossW > lossW.value) lossW = { value: p.dieLossW, cornerIndex: i };
-    if (dropV === undefined || p.forward.dropV > dropV.value) dropV = { value: p.forward.dropV, cornerIndex: i };
-    if (loadMinV === undefined || p.loadV < loadMinV.value) loadMinV = { value: p.loadV, cornerIndex: i };
-  });
+    if (tjI < 0 || p.tjC > tj) {
+      tjI = i;
+      tj = p.tjC;
+    }
+    if (lossI < 0 || p.dieLossW > loss) {
+      lossI = i;
+      loss = p.dieLossW;
+    }
+    if (dropI < 0 || p.forward.dropV > drop) {
+      dropI = i;
+      drop = p.forward.dropV;
+    }
+    if (loadI < 0 || p.loadV < load) {
+      loadI = i;
+      load = p.loadV;
+    }
+  }
   return {
-    ...(tjC ? { tjC } : {}),
-    ...(lossW ? { lossW } : {}),
-    ...(dropV ? { dropV } : {}),
-    ...(loadMinV ? { loadMinV } : {}),
+    ...(tjI < 0 ? {} : { tjC: { value: tj, cornerIndex: tjI } }),
+    ...(lossI < 0 ? {} : { lossW: { value: loss, cornerIndex: lossI } }),
+    ...(dropI < 0 ? {} : { dropV: { value: drop, cornerIndex: dropI } }),
+    ...(loadI < 0 ? {} : { loadMinV: { value: load, cornerIndex: loadI } }),
     unsolvedCornerIndexes: unsolved,
   };
 }
-

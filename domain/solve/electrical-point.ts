@@ -37,20 +37,17 @@ export type ElectricalOutcome =
 /** The circuit supply → source resistance → stage → load, solved at a fixed junction temperature. */
 export function solveElectrical(c: CircuitModel, tK: number): ElectricalOutcome {
   const iq = stageQuiescentA(c.stage);
-  const at = (currentA: number): ElectricalPoint => {
-    const stageInputV = c.supplyV - (currentA + iq) * c.sourceResistanceOhm;
-    const forward = stageForward(c.stage, currentA, tK, stageInputV);
-    return { currentA, sourceCurrentA: currentA + iq, stageInputV, loadV: stageInputV - forward.dropV, forward };
-  };
   const load = c.load;
   if (load.kind === "constant-current") {
-    const p = at(load.currentA);
+    // The hot path of every corner: one point, no closure.
+    const p = pointAt(c, iq, load.currentA, tK);
     if (p.forward.mode === "off") return stageOff(p);
     if (!(p.loadV > 0)) {
       return { ok: false, code: "load-collapse", reason: `the supply cannot drive ${fmt(load.currentA)} A: the load voltage would be ${fmt(p.loadV)} V` };
     }
     return { ok: true, point: p };
   }
+  const at = (currentA: number): ElectricalPoint => pointAt(c, iq, currentA, tK);
   const idle = at(0);
   if (idle.forward.mode === "off") {
     return { ok: false, code: "stage-off", reason: `the stage blocks at an input of ${fmt(idle.stageInputV)} V (below its start voltage): the load is unpowered`, stageInputV: idle.stageInputV };
@@ -90,6 +87,13 @@ export function solveElectrical(c: CircuitModel, tK: number): ElectricalOutcome 
   }
   const h = (i: number): number => g(i) - load.powerW;
   return finish(at(bracketedRoot(h, 0, peak.x, h(0), h(peak.x), 1e-13 * zeroA).x));
+}
+
+/** The circuit at a load current: the source drop sets the stage's input, the stage its drop. */
+function pointAt(c: CircuitModel, iq: number, currentA: number, tK: number): ElectricalPoint {
+  const stageInputV = c.supplyV - (currentA + iq) * c.sourceResistanceOhm;
+  const forward = stageForward(c.stage, currentA, tK, stageInputV);
+  return { currentA, sourceCurrentA: currentA + iq, stageInputV, loadV: stageInputV - forward.dropV, forward };
 }
 
 function finish(p: ElectricalPoint): ElectricalOutcome {

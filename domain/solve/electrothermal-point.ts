@@ -1,6 +1,6 @@
 import { kToC } from "../physics/constants.js";
 import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
-import { type CircuitModel, type ElectricalPoint, fmt, solveElectrical } from "./electrical-point.js";
+import { type CircuitModel, type ElectricalOutcome, type ElectricalPoint, fmt, solveElectrical } from "./electrical-point.js";
 import { thermalFixedPoint } from "./thermal-fixed-point.js";
 
 export interface OperatingPointModel extends CircuitModel {
@@ -43,11 +43,17 @@ export function solveOperatingPoint(m: OperatingPointModel): OperatingPointOutco
   const tjMaxC = stageTjMaxC(m.stage);
   // The search evaluates the root itself, then probes +0.01 K for the loop gain: keep the
   // circuit solved at the root instead of solving it again.
-  const recent: { tK: number; e: ReturnType<typeof solveElectrical> }[] = [];
+  // The root is the last or the second-to-last circuit solved (before the gain probe): two slots.
+  let lastK = Number.NaN;
+  let lastE: ElectricalOutcome | undefined;
+  let prevK = Number.NaN;
+  let prevE: ElectricalOutcome | undefined;
   const r = thermalFixedPoint(m.ambientC, m.rthKPerW, tjMaxC + SEARCH_ABOVE_LIMIT_K, (tK) => {
     const e = solveElectrical(m, tK);
-    if (recent.length >= 3) recent.shift();
-    recent.push({ tK, e });
+    prevK = lastK;
+    prevE = lastE;
+    lastK = tK;
+    lastE = e;
     return e.ok ? { ok: true, lossW: dieLossW(m.stage, e.point) } : { ok: false, failure: e };
   });
   if (r.kind === "failed") {
@@ -64,7 +70,7 @@ export function solveOperatingPoint(m: OperatingPointModel): OperatingPointOutco
       evidence: { searchedToC: kToC(r.searchedToK), lossAtSearchEndW: r.lossAtEndW, thermalLoopGainAtSearchEnd: r.loopGainAtEnd },
     };
   }
-  const e = recent.find((x) => x.tK === r.tjK)?.e ?? solveElectrical(m, r.tjK);
+  const e = (r.tjK === lastK ? lastE : r.tjK === prevK ? prevE : undefined) ?? solveElectrical(m, r.tjK);
   if (!e.ok) throw new Error("unreachable: the circuit solved during the search but not at its root");
   // Fields named one by one: a spread plus extra fields takes V8's slow clone path (it was most
   // of this function's time); the key order is the spread's.
