@@ -9,8 +9,14 @@ export type FixedPointResult<F> =
   | { readonly kind: "runaway"; readonly searchedToK: number; readonly lossAtEndW: number; readonly loopGainAtEnd: number }
   | { readonly kind: "failed"; readonly failure: F; readonly atK: number };
 
-/** Tolerance on the junction temperature of the root, K. */
+/** Width of the bracket at which the root is taken, K. */
 const ROOT_TOL_K = 1e-9;
+/**
+ * Secant correction below which the root is taken, K: far below ROOT_TOL_K, so a search that stops
+ * on it is as accurate as one that closes the bracket (the secant converges superlinearly, so
+ * the tighter test costs at most one more circuit solve).
+ */
+const STEP_TOL_K = 1e-12;
 
 /**
  * The lowest solution of Tj = Ta + Rth·P(Tj) (the stable operating point where Rth·dP/dTj < 1).
@@ -86,11 +92,11 @@ export function thermalFixedPoint<F>(ambientC: number, rthKPerW: number, ceiling
           if (f) return f;
         }
         slope = (hn - ht) / (next - t);
-        if (hn > 0 && slope < 0 && hn / -slope < ROOT_TOL_K) return done(next);
+        if (hn > 0 && slope < 0 && hn / -slope < STEP_TOL_K) return done(next);
       }
     }
     if (hn <= 0) {
-      const root = bracketedRoot(h, t, next, ht, hn, ROOT_TOL_K, 200, ROOT_TOL_K).x;
+      const root = bracketedRoot(h, t, next, ht, hn, ROOT_TOL_K, 200, STEP_TOL_K).x;
       {
     const f = failed();
     if (f) return f;

@@ -40,7 +40,7 @@ describe("bracketedRoot with the secant stopping test (stepTolX)", () => {
 describe("thermalFixedPoint: the lowest root of Tj = Ta + Rth·P(Tj)", () => {
   // Closed form: with P(T) = P0·(1 + α·(T − Ta)), Tj − Ta = Rth·P(Tj) gives
   // Tj − Ta = Rth·P0/(1 − Rth·P0·α) for Rth·P0·α < 1, and the loop gain Rth·dP/dT = Rth·P0·α.
-  it("linear loss: the closed form to 1e-9 K, with the loop gain Rth·P0·α", () => {
+  it("linear loss: the closed form to 1e-11 K, with the loop gain Rth·P0·α", () => {
     const taC = 40;
     const taK = taC + 273.15;
     for (const [rth, p0, alpha] of [
@@ -51,12 +51,12 @@ describe("thermalFixedPoint: the lowest root of Tj = Ta + Rth·P(Tj)", () => {
       const r = thermalFixedPoint(taC, rth, 500, (tK) => ({ ok: true as const, lossW: p0 * (1 + alpha * (tK - taK)) }));
       if (r.kind !== "root") throw new Error(r.kind);
       const exact = taK + (rth * p0) / (1 - rth * p0 * alpha);
-      expect(Math.abs(r.tjK - exact)).toBeLessThan(1e-9);
+      expect(Math.abs(r.tjK - exact)).toBeLessThan(1e-11);
       expect(Math.abs(r.loopGain - rth * p0 * alpha)).toBeLessThan(1e-9);
     }
   });
 
-  it("quadratic loss P0·(1 + α·ΔT)²: the smaller root of the quadratic (the stable one), to 1e-9 K", () => {
+  it("quadratic loss P0·(1 + α·ΔT)²: the smaller root of the quadratic (the stable one), to 1e-11 K", () => {
     // u = Tj − Ta solves k·α²·u² + (2kα − 1)·u + k = 0 with k = Rth·P0; the lower root is stable.
     const taC = 25;
     const taK = taC + 273.15;
@@ -69,7 +69,7 @@ describe("thermalFixedPoint: the lowest root of Tj = Ta + Rth·P(Tj)", () => {
     const u = (-B - Math.sqrt(B * B - 4 * A * k)) / (2 * A);
     const r = thermalFixedPoint(taC, rth, 400, (tK) => ({ ok: true as const, lossW: p0 * (1 + alpha * (tK - taK)) ** 2 }));
     if (r.kind !== "root") throw new Error(r.kind);
-    expect(Math.abs(r.tjK - (taK + u))).toBeLessThan(1e-9);
+    expect(Math.abs(r.tjK - (taK + u))).toBeLessThan(1e-11);
     // a regression guard on the search's cost: start, fixed-point step, secant steps, gain probe
     expect(r.evaluations).toBeLessThanOrEqual(7); // 9 before the secant stopping test
   });
