@@ -20,7 +20,9 @@ export type RdsTempLaw =
 
 /** R(T)/R(25 °C). */
 export function rdsTempFactor(law: RdsTempLaw, tK: number): number {
-  if (law.law === "power") return (tK / T25_K) ** law.exponent;
+  // (T/T25)^α as exp(α·ln(T/T25)): the same power, about half the cost of Math.pow in V8 (this
+  // runs for every circuit solve of a MOSFET stage); a few ulp of rounding, exact at T25.
+  if (law.law === "power") return law.exponent === 0 ? 1 : Math.exp(law.exponent * Math.log(tK / T25_K));
   const pts = law.points;
   const first = pts[0];
   const last = pts[pts.length - 1];
