@@ -1,5 +1,5 @@
 import { totalRthKPerW } from "../physics/thermal-path.js";
-import { type OperatingPointOutcome, solveOperatingPoint } from "../solve/electrothermal-point.js";
+import { type OperatingPointOutcome, solveThermalPoint, type ThermalPoint } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
 import { scaleLoad } from "../solve/load-scale.js";
 import { type StageScale, scaleStage } from "../stages/scale-stage.js";
@@ -16,7 +16,8 @@ export interface CornerConditions {
 
 export interface CornerResult {
   readonly conditions: CornerConditions;
-  readonly result: OperatingPointOutcome;
+  /** The point without its loop gain: no corner check reads Rth·dP/dTj, so its probe is skipped. */
+  readonly result: OperatingPointOutcome<ThermalPoint>;
 }
 
 export interface CornerSpace {
@@ -58,7 +59,7 @@ export function solveCorners(stage: StageModel, space: CornerSpace): CornerResul
     const s = c.tolerance === "typical" ? stage : maxStage;
     return {
       conditions: c,
-      result: solveOperatingPoint({
+      result: solveThermalPoint({
         stage: s,
         supplyV: c.supplyV,
         sourceResistanceOhm: space.sourceResistanceOhm,

@@ -9,19 +9,24 @@ export interface OperatingPointModel extends CircuitModel {
   readonly rthKPerW: number;
 }
 
-export interface SolvedPoint extends ElectricalPoint {
+/** A solved electrothermal point without its loop gain (what the corners of a review report). */
+export interface ThermalPoint extends ElectricalPoint {
   readonly tjC: number;
   /** Heat dissipated in the die that carries the load current, W. */
   readonly dieLossW: number;
-  /** Rth·dP/dTj at the solution: below 1 is a stable operating point. */
-  readonly thermalLoopGain: number;
+  /** Circuit solves the search took. */
   readonly iterations: number;
 }
 
-export type OperatingPointOutcome =
-  | { readonly outcome: "solved"; readonly point: SolvedPoint }
-  | { readonly outcome: "over-temperature"; readonly point: SolvedPoint; readonly tjMaxC: number; readonly reason: string }
-  | { readonly outcome: "load-undervoltage"; readonly point: SolvedPoint; readonly minVoltageV: number; readonly reason: string }
+export interface SolvedPoint extends ThermalPoint {
+  /** Rth·dP/dTj at the solution: below 1 is a stable operating point. */
+  readonly thermalLoopGain: number;
+}
+
+export type OperatingPointOutcome<P extends ThermalPoint = SolvedPoint> =
+  | { readonly outcome: "solved"; readonly point: P }
+  | { readonly outcome: "over-temperature"; readonly point: P; readonly tjMaxC: number; readonly reason: string }
+  | { readonly outcome: "load-undervoltage"; readonly point: P; readonly minVoltageV: number; readonly reason: string }
   | {
       readonly outcome: "thermal-runaway";
       readonly reason: string;
@@ -40,6 +45,20 @@ export const SEARCH_ABOVE_LIMIT_K = 150;
  * thermal runaway.
  */
 export function solveOperatingPoint(m: OperatingPointModel): OperatingPointOutcome {
+  const r = solve(m, true);
+  if ("point" in r && !("thermalLoopGain" in r.point)) throw new Error("unreachable: a probed root without its loop gain");
+  return r as OperatingPointOutcome;
+}
+
+/**
+ * solveOperatingPoint without the loop-gain probe: the same point, one circuit solve fewer, for
+ * callers that do not report Rth·dP/dTj (the corners of a design review).
+ */
+export function solveThermalPoint(m: OperatingPointModel): OperatingPointOutcome<ThermalPoint> {
+  return solve(m, false);
+}
+
+function solve(m: OperatingPointModel, probeGain: boolean): OperatingPointOutcome<ThermalPoint> {
   const tjMaxC = stageTjMaxC(m.stage);
   // The search evaluates the root itself, then probes +0.01 K for the loop gain: keep the
   // circuit solved at the root instead of solving it again.
@@ -55,7 +74,7 @@ export function solveOperatingPoint(m: OperatingPointModel): OperatingPointOutco
     lastK = tK;
     lastE = e;
     return e.ok ? { ok: true, lossW: dieLossW(m.stage, e.point) } : { ok: false, failure: e };
-  });
+  }, probeGain);
   if (r.kind === "failed") {
     const e = r.failure;
     if (e.ok) throw new Error("unreachable: a failure that is ok");
@@ -75,17 +94,20 @@ export function solveOperatingPoint(m: OperatingPointModel): OperatingPointOutco
   // Fields named one by one: a spread plus extra fields takes V8's slow clone path (it was most
   // of this function's time); the key order is the spread's.
   const ep = e.point;
-  const point: SolvedPoint = {
-    currentA: ep.currentA,
-    sourceCurrentA: ep.sourceCurrentA,
-    stageInputV: ep.stageInputV,
-    loadV: ep.loadV,
-    forward: ep.forward,
-    tjC: kToC(r.tjK),
-    dieLossW: r.lossW,
-    thermalLoopGain: r.loopGain,
-    iterations: r.evaluations,
-  };
+  const point: ThermalPoint | SolvedPoint =
+    r.loopGain === undefined
+      ? { currentA: ep.currentA, sourceCurrentA: ep.sourceCurrentA, stageInputV: ep.stageInputV, loadV: ep.loadV, forward: ep.forward, tjC: kToC(r.tjK), dieLossW: r.lossW, iterations: r.evaluations }
+      : {
+          currentA: ep.currentA,
+          sourceCurrentA: ep.sourceCurrentA,
+          stageInputV: ep.stageInputV,
+          loadV: ep.loadV,
+          forward: ep.forward,
+          tjC: kToC(r.tjK),
+          dieLossW: r.lossW,
+          thermalLoopGain: r.loopGain,
+          iterations: r.evaluations,
+        };
   if (point.tjC > tjMaxC) {
     return { outcome: "over-temperature", point, tjMaxC, reason: `the stable operating point, ${fmt(point.tjC)} °C, lies above the ${fmt(tjMaxC)} °C junction limit` };
   }

@@ -5,7 +5,8 @@ import { bracketedRoot } from "./root-find.js";
 export type LossAt<F> = (tK: number) => { readonly ok: true; readonly lossW: number } | { readonly ok: false; readonly failure: F };
 
 export type FixedPointResult<F> =
-  | { readonly kind: "root"; readonly tjK: number; readonly lossW: number; readonly loopGain: number; readonly evaluations: number }
+  /** loopGain: Rth·dP/dTj at the root, absent when the caller did not ask for it (probeGain false). */
+  | { readonly kind: "root"; readonly tjK: number; readonly lossW: number; readonly loopGain?: number; readonly evaluations: number }
   | { readonly kind: "runaway"; readonly searchedToK: number; readonly lossAtEndW: number; readonly loopGainAtEnd: number }
   | { readonly kind: "failed"; readonly failure: F; readonly atK: number };
 
@@ -23,8 +24,10 @@ const STEP_TOL_K = 1e-12;
  * h(T) = Ta + Rth·P(T) − T is ≥ 0 at T = Ta; the search takes fixed-point and secant steps upward
  * until h changes sign and then closes the bracket by regula falsi (Illinois). If h stays
  * positive up to ceilingC the loss rises faster than the thermal path sheds it: runaway.
+ * With probeGain (the default) the root also carries Rth·dP/dTj, by a forward difference over
+ * 0.01 K (one more evaluation of the loss).
  */
-export function thermalFixedPoint<F>(ambientC: number, rthKPerW: number, ceilingC: number, lossAt: LossAt<F>): FixedPointResult<F> {
+export function thermalFixedPoint<F>(ambientC: number, rthKPerW: number, ceilingC: number, lossAt: LossAt<F>, probeGain = true): FixedPointResult<F> {
   const taK = cToK(ambientC);
   const ceilingK = Math.max(cToK(ceilingC), taK);
   const state: { failure?: { failure: F; atK: number } } = {};
@@ -59,6 +62,8 @@ export function thermalFixedPoint<F>(ambientC: number, rthKPerW: number, ceiling
     const f = failed();
     if (f) return f;
   }
+    // The gain probe is one more circuit solve: only when the caller reports the gain.
+    if (!probeGain) return { kind: "root", tjK, lossW, evaluations };
     return { kind: "root", tjK, lossW, loopGain: gain(tjK, lossW), evaluations };
   };
 

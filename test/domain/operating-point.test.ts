@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { cToK } from "../../domain/physics/constants.js";
 import { diodeVoltageV } from "../../domain/physics/diode.js";
 import { fitDiode } from "../../domain/physics/diode-fit.js";
-import { solveOperatingPoint } from "../../domain/solve/electrothermal-point.js";
+import { solveOperatingPoint, solveThermalPoint } from "../../domain/solve/electrothermal-point.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
 import { idealDiode, lowSideFet, mosfet } from "../helpers/stages.js";
 import { relativeError, withinTolerance } from "../helpers/tolerance.js";
@@ -173,3 +173,23 @@ describe("gate drive", () => {
 function lowSideFetMosfet() {
   return mosfet(0.01);
 }
+
+describe("solveThermalPoint (no loop-gain probe)", () => {
+  // The same search stopped at the same root: every field equal, one circuit solve fewer.
+  it("gives solveOperatingPoint's point without the gain, one circuit solve fewer", () => {
+    const stage = lowSideFet(0.01, 40, { law: "power", exponent: 2.3 });
+    for (const [currentA, ambientC] of [
+      [2, 25],
+      [6, 85],
+    ] as const) {
+      const m = { stage, supplyV: 12, sourceResistanceOhm: 0.02, load: cc(currentA), ambientC, rthKPerW: 40 };
+      const full = solved(solveOperatingPoint(m));
+      const r = solveThermalPoint(m);
+      if (r.outcome !== "solved") throw new Error(r.outcome);
+      const { thermalLoopGain, iterations, ...rest } = full;
+      expect(thermalLoopGain).toBeGreaterThan(0);
+      expect(r.point).toEqual({ ...rest, iterations: iterations - 1 });
+      expect("thermalLoopGain" in r.point).toBe(false);
+    }
+  });
+});

@@ -52,7 +52,7 @@ describe("thermalFixedPoint: the lowest root of Tj = Ta + Rth·P(Tj)", () => {
       if (r.kind !== "root") throw new Error(r.kind);
       const exact = taK + (rth * p0) / (1 - rth * p0 * alpha);
       expect(Math.abs(r.tjK - exact)).toBeLessThan(1e-11);
-      expect(Math.abs(r.loopGain - rth * p0 * alpha)).toBeLessThan(1e-9);
+      expect(Math.abs((r.loopGain ?? Number.NaN) - rth * p0 * alpha)).toBeLessThan(1e-9);
     }
   });
 
