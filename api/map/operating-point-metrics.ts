@@ -40,9 +40,11 @@ export function stageMetrics(stage: StageModel): Record<string, number | boolean
   const m: Record<string, number | boolean> = { quiescentA: stageQuiescentA(stage), blocksReverseCurrent: blocksReverseCurrent(stage) };
   switch (stage.kind) {
     case "nfet-ideal-diode":
-      return { ...m, startVoltageV: stage.controller.startV };
+      m["startVoltageV"] = stage.controller.startV;
+      return m;
     case "integrated-switch":
-      return { ...m, startVoltageV: stage.startV };
+      m["startVoltageV"] = stage.startV;
+      return m;
     default:
       return m;
   }

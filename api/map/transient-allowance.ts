@@ -16,7 +16,8 @@ import { partParameters, stageMetrics } from "./operating-point-metrics.js";
 export function transientAllowanceOf(set: CompiledRuleSet, stage: StageModel, req: ReviewRequirement): TransientAllowance {
   const base: RuleInput = {
     stageKind: stage.kind,
-    metrics: { ...stageMetrics(stage), supplyMinV: req.supplyMinV, supplyMaxV: req.supplyMaxV, reverseVMaxV: req.reverseV },
+    // stageMetrics is a fresh record (no spread clone: V8's slow path once fields follow it).
+    metrics: Object.assign(stageMetrics(stage), { supplyMinV: req.supplyMinV, supplyMaxV: req.supplyMaxV, reverseVMaxV: req.reverseV }),
     part: partParameters(stage),
   };
   // Probe above the steady supply: a rule like max(supplyMaxV, transientVMaxV) <= rating is flat below it.

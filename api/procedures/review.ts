@@ -36,7 +36,7 @@ export const review = publicProcedure.input(reviewInput).query(({ input, ctx }):
     const path = ["candidates", index, "stage"];
     const stage = resolveStage(c.stage, ctx.catalog, path, assumptions, c.thermal);
     const transientThermal = transientThermalOf(c.transientThermal, stage.model);
-    const datasheetMax = c.datasheetMax ? { ...UNSCALED, ...c.datasheetMax } : undefined;
+    const datasheetMax = c.datasheetMax ? Object.assign({}, UNSCALED, c.datasheetMax) : undefined;
     const turnOffController = req.model.turnOff ? controllerTiming(stage.spec, stage.model, c.turnOffTiming ?? input.requirement.turnOff?.timing, c.turnOffTiming ? [...path.slice(0, 2), "turnOffTiming"] : ["requirement", "turnOff", "timing"], assumptions) : undefined;
     // Unless the requirement sets its own derating, the clamp window follows the rule set.
     const transientAllowanceV = input.requirement.deratingFactor === undefined ? transientAllowanceOf(set, stage.model, req.model) : undefined;
@@ -92,13 +92,15 @@ export const review = publicProcedure.input(reviewInput).query(({ input, ctx }):
       rank: rankOf.get(e.index) ?? 0,
       verdict: e.verdict,
       rankReason: rankReason(e),
-      worst: {
-        ...(e.r.worst.tjC ? { tjC: { value: e.r.worst.tjC.value, corner: e.r.worst.tjC.cornerIndex } } : {}),
-        ...(e.r.worst.lossW ? { lossW: { value: e.r.worst.lossW.value, corner: e.r.worst.lossW.cornerIndex } } : {}),
-        ...(e.r.worst.dropV ? { dropV: { value: e.r.worst.dropV.value, corner: e.r.worst.dropV.cornerIndex } } : {}),
-        ...(e.r.worst.loadMinV ? { loadMinV: { value: e.r.worst.loadMinV.value, corner: e.r.worst.loadMinV.cornerIndex } } : {}),
-        unsolvedCorners: [...e.r.worst.unsolvedCornerIndexes],
-      },
+      // Object.assign: a literal that opens with a spread and then gets fields is V8's slow path.
+      worst: Object.assign(
+        {},
+        e.r.worst.tjC ? { tjC: { value: e.r.worst.tjC.value, corner: e.r.worst.tjC.cornerIndex } } : {},
+        e.r.worst.lossW ? { lossW: { value: e.r.worst.lossW.value, corner: e.r.worst.lossW.cornerIndex } } : {},
+        e.r.worst.dropV ? { dropV: { value: e.r.worst.dropV.value, corner: e.r.worst.dropV.cornerIndex } } : {},
+        e.r.worst.loadMinV ? { loadMinV: { value: e.r.worst.loadMinV.value, corner: e.r.worst.loadMinV.cornerIndex } } : {},
+        { unsolvedCorners: [...e.r.worst.unsolvedCornerIndexes] },
+      ),
       corners: e.r.corners.map(cornerRow),
       startUp: e.r.startUp,
       ...(e.curves === undefined

@@ -121,11 +121,13 @@ export function worstCase(corners: readonly CornerResult[]): WorstCase {
       load = p.loadV;
     }
   }
-  return {
-    ...(tjI < 0 ? {} : { tjC: { value: tj, cornerIndex: tjI } }),
-    ...(lossI < 0 ? {} : { lossW: { value: loss, cornerIndex: lossI } }),
-    ...(dropI < 0 ? {} : { dropV: { value: drop, cornerIndex: dropI } }),
-    ...(loadI < 0 ? {} : { loadMinV: { value: load, cornerIndex: loadI } }),
-    unsolvedCornerIndexes: unsolved,
-  };
+  // Object.assign: a literal that opens with a spread and then gets fields is V8's slow path.
+  return Object.assign(
+    {},
+    tjI < 0 ? {} : { tjC: { value: tj, cornerIndex: tjI } },
+    lossI < 0 ? {} : { lossW: { value: loss, cornerIndex: lossI } },
+    dropI < 0 ? {} : { dropV: { value: drop, cornerIndex: dropI } },
+    loadI < 0 ? {} : { loadMinV: { value: load, cornerIndex: loadI } },
+    { unsolvedCornerIndexes: unsolved },
+  );
 }

@@ -115,7 +115,7 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
   const own = ctx.inputClamp;
   const designClamp = (p: { baseV: number; amplitudeV: number }): ClampDuty | undefined => {
     if (own === undefined) return undefined;
-    const duty = clampExponential({ ...p, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, own.clampV);
+    const duty = clampExponential({ baseV: p.baseV, amplitudeV: p.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, own.clampV);
     const conducts = duty.conducts === true;
     return {
       duty,
@@ -146,7 +146,7 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
       tauS,
       stresses,
       reachesLoad: !blocks,
-      clamp: stresses.some((s) => s.exceeds) ? clampFor({ ...mirrored, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, ctx.reverseV, clampMaxV, ctx) : { needed: false },
+      clamp: stresses.some((s) => s.exceeds) ? clampFor({ baseV: mirrored.baseV, amplitudeV: mirrored.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, ctx.reverseV, clampMaxV, ctx) : { needed: false },
       ...(dc ? { designClamp: dc } : {}),
     };
   }

