@@ -60,9 +60,8 @@ export function solveThermalPoint(m: OperatingPointModel): OperatingPointOutcome
 
 function solve(m: OperatingPointModel, probeGain: boolean): OperatingPointOutcome<ThermalPoint> {
   const tjMaxC = stageTjMaxC(m.stage);
-  // The search evaluates the root itself, then probes +0.01 K for the loop gain: keep the
-  // circuit solved at the root instead of solving it again.
-  // The root is the last or the second-to-last circuit solved (before the gain probe): two slots.
+  // The search evaluates the root itself (then, when asked, probes +0.01 K for the loop gain):
+  // keep the circuit solved at the root, the last or the second-to-last solve, in two slots.
   let lastK = Number.NaN;
   let lastE: ElectricalOutcome | undefined;
   let prevK = Number.NaN;
