@@ -21,13 +21,13 @@ export const operatingPoint = publicProcedure.input(operatingPointInput).query((
   const sourceResistanceOhm = input.sourceResistanceOhm ?? 0;
   const outcome = solveOperatingPoint({ stage: stage.model, supplyV: input.supplyV, sourceResistanceOhm, load: input.load, ambientC: input.ambientC, rthKPerW });
   const rules = verdicts(input, stage.model, outcome, ctx);
-  const head = {
-    modelVersion: MODEL_VERSION,
-    caution: CAUTION,
-    stage: { kind: stage.model.kind, ...(stage.spec.name === undefined ? {} : { name: stage.spec.name }), ...(stage.partId === undefined ? {} : { partId: stage.partId }) },
-    assumptions,
-    ...(rules === undefined ? {} : { rules }),
-  };
+  // Fields written one by one, no spread (V8 11 takes a slow clone path for a literal that spreads
+  // and then adds fields; this runs once per /v1 call and batch line). Same keys, same order.
+  const stageOut: { kind: StageModel["kind"]; name?: string; partId?: string } = { kind: stage.model.kind };
+  if (stage.spec.name !== undefined) stageOut.name = stage.spec.name;
+  if (stage.partId !== undefined) stageOut.partId = stage.partId;
+  const head: Head = { modelVersion: MODEL_VERSION, caution: CAUTION, stage: stageOut, assumptions };
+  if (rules !== undefined) head.rules = rules;
   const toPoint = (p: SolvedPoint): SolvedPointOutput => pointOutput(p, input.ambientC, rthKPerW, stageQuiescentA(stage.model), stage.model.kind);
   return withHead(head, outcome, toPoint);
 });
@@ -45,36 +45,42 @@ function verdicts(input: OperatingPointInputParsed, stage: StageModel, outcome: 
 
 type OperatingPointInputParsed = z.output<typeof operatingPointInput>;
 
-function withHead(
-  head: Omit<Extract<OperatingPointOutput, { outcome: "solved" }>, "outcome" | "point">,
-  o: OperatingPointOutcome,
-  toPoint: (p: SolvedPoint) => SolvedPointOutput,
-): OperatingPointOutput {
+type Head = { -readonly [K in keyof Omit<Extract<OperatingPointOutput, { outcome: "solved" }>, "outcome" | "point">]: Omit<Extract<OperatingPointOutput, { outcome: "solved" }>, "outcome" | "point">[K] };
+
+/** `{ outcome, ...head, ...fields }` in that key order, built without a spread literal. */
+function headed<O extends OperatingPointOutcome["outcome"], T extends object>(outcome: O, head: Head, fields: T): { outcome: O } & Head & T {
+  const out = { outcome } as { outcome: O } & Head & T;
+  Object.assign(out, head, fields);
+  return out;
+}
+
+function withHead(head: Head, o: OperatingPointOutcome, toPoint: (p: SolvedPoint) => SolvedPointOutput): OperatingPointOutput {
   switch (o.outcome) {
     case "solved":
-      return { outcome: o.outcome, ...head, point: toPoint(o.point) };
+      return headed(o.outcome, head, { point: toPoint(o.point) });
     case "over-temperature":
-      return { outcome: o.outcome, ...head, reason: o.reason, tjMaxC: o.tjMaxC, point: toPoint(o.point) };
+      return headed(o.outcome, head, { reason: o.reason, tjMaxC: o.tjMaxC, point: toPoint(o.point) });
     case "load-undervoltage":
-      return { outcome: o.outcome, ...head, reason: o.reason, minVoltageV: o.minVoltageV, point: toPoint(o.point) };
+      return headed(o.outcome, head, { reason: o.reason, minVoltageV: o.minVoltageV, point: toPoint(o.point) });
     case "thermal-runaway":
-      return { outcome: o.outcome, ...head, reason: o.reason, evidence: o.evidence };
+      return headed(o.outcome, head, { reason: o.reason, evidence: o.evidence });
     case "load-collapse":
-      return {
-        outcome: o.outcome,
-        ...head,
-        reason: o.reason,
-        atJunctionC: o.atJunctionC,
-        ...(o.maxDeliverablePowerW === undefined ? {} : { maxDeliverablePowerW: o.maxDeliverablePowerW }),
-      };
+      return headed(
+        o.outcome,
+        head,
+        o.maxDeliverablePowerW === undefined
+          ? { reason: o.reason, atJunctionC: o.atJunctionC }
+          : { reason: o.reason, atJunctionC: o.atJunctionC, maxDeliverablePowerW: o.maxDeliverablePowerW },
+      );
     case "stage-off":
-      return { outcome: o.outcome, ...head, reason: o.reason, stageInputV: o.stageInputV };
+      return headed(o.outcome, head, { reason: o.reason, stageInputV: o.stageInputV });
   }
 }
 
 function pointOutput(p: SolvedPoint, ambientC: number, rthKPerW: number, quiescentA: number, kind: string): SolvedPointOutput {
   const f = p.forward;
-  return {
+  // thermalLoopGain last, after the optional gate fields (the key order of the output)
+  const out: Omit<SolvedPointOutput, "thermalLoopGain"> & { -readonly [K in "gateSourceV" | "channelResistanceOhm" | "thermalLoopGain"]?: number } = {
     mode: f.mode,
     currentA: p.currentA,
     sourceCurrentA: p.sourceCurrentA,
@@ -90,8 +96,9 @@ function pointOutput(p: SolvedPoint, ambientC: number, rthKPerW: number, quiesce
     channelCurrentA: f.channelCurrentA,
     bodyDiodeCurrentA: f.bodyDiodeCurrentA,
     bodyDiodeTimeFraction: f.bodyDiodeTimeFraction,
-    ...(f.gateSourceV === undefined ? {} : { gateSourceV: f.gateSourceV }),
-    ...(f.channelResistanceOhm === undefined ? {} : { channelResistanceOhm: f.channelResistanceOhm }),
-    thermalLoopGain: p.thermalLoopGain,
   };
+  if (f.gateSourceV !== undefined) out.gateSourceV = f.gateSourceV;
+  if (f.channelResistanceOhm !== undefined) out.channelResistanceOhm = f.channelResistanceOhm;
+  out.thermalLoopGain = p.thermalLoopGain;
+  return out as SolvedPointOutput;
 }
