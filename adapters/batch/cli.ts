@@ -36,7 +36,7 @@ export function parseShard(spec: string | undefined, env: NodeJS.ProcessEnv): Sh
 }
 
 /** Write to `<out>.partial-<pid>` and rename to `<out>` only when complete; remove it on any failure or signal. */
-async function atomically(outPath: string, body: (write: (t: string) => Promise<void>) => Promise<void>): Promise<void> {
+async function atomically(outPath: string, body: (write: (t: string | Uint8Array) => Promise<void>) => Promise<void>): Promise<void> {
   const partial = `${outPath}.partial-${process.pid}`;
   const onSignal = () => {
     rmSync(partial, { force: true });
@@ -51,7 +51,7 @@ async function atomically(outPath: string, body: (write: (t: string) => Promise<
     const stream = out;
     const failed = new Promise<never>((_, reject) => stream.once("error", reject));
     failed.catch(() => undefined);
-    const write = (t: string) => (stream.write(t) ? Promise.resolve() : Promise.race([new Promise<void>((r) => stream.once("drain", () => r())), failed]));
+    const write = (t: string | Uint8Array) => (stream.write(t) ? Promise.resolve() : Promise.race([new Promise<void>((r) => stream.once("drain", () => r())), failed]));
     await Promise.race([body(write), failed]);
     stream.end();
     await finished(stream);

@@ -17,8 +17,8 @@ export interface StreamBatchOptions {
   readonly input: Readable;
   readonly inFormat: Format;
   readonly outFormat: Format;
-  /** write one chunk of output text; resolves when it may write more (backpressure) */
-  readonly write: (text: string) => Promise<void>;
+  /** write one chunk of output (text, or its UTF-8 bytes); resolves when it may write more (backpressure) */
+  readonly write: (chunk: string | Uint8Array) => Promise<void>;
   readonly ctx: Context;
   readonly procedure?: string | undefined;
   readonly shard?: Shard | undefined;
@@ -116,6 +116,20 @@ function idOfRaw(raw: string): string | number | null {
 }
 
 /**
+ * The chunk's output lines as UTF-8, each line encoded straight into one buffer: encoding the
+ * joined text instead costs ten times as much (the joined string is flattened, then scanned twice),
+ * about a fifth of a batch line's time. 3 bytes per UTF-16 unit bound every code point's encoding.
+ */
+export function utf8Of(outs: readonly FormattedLine[]): Buffer {
+  let units = 0;
+  for (const out of outs) units += out.text.length;
+  const buf = Buffer.allocUnsafe(units * 3);
+  let at = 0;
+  for (const out of outs) at += buf.write(out.text, at, "utf8");
+  return buf.subarray(0, at);
+}
+
+/**
  * The batch engine: stream records in (JSON Lines or CSV), answer each with the router (in worker
  * threads when a pool is given), write one output record per input record in input order. Memory
  * stays bounded: at most `2 × threads` chunks are in flight.
@@ -150,14 +164,12 @@ export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
   const flushHead = async () => {
     const head = queue.shift() as { recs: Rec[]; outs: Promise<FormattedLine[]> };
     const outs = await head.outs;
-    let text = "";
     for (const out of outs) {
       counts.lines += 1;
       if (out.ok) counts.ok += 1;
       else counts.failed += 1;
-      text += out.text;
     }
-    if (text) await o.write(text);
+    if (outs.length > 0) await o.write(utf8Of(outs));
     if (o.onRow) for (const [i, out] of outs.entries()) await o.onRow(out.record as BatchOutputLine, procedureOf(head.recs[i] as Rec));
     o.onProgress?.(counts);
   };
