@@ -16,7 +16,7 @@ export type Env = { Variables: { requestId: string; closing: boolean; headersSet
  * `c.header()` would build a web Headers object, and node's server turns that back into a plain
  * one, which costs more than a small analysis.
  */
-export function plainResponse(c: import("hono").Context<Env>, text: string, status: number): Response {
+export function plainResponse(c: import("hono").Context<Env>, text: string | Uint8Array, status: number): Response {
   c.set("headersSet", true);
   const headers: Record<string, string> = { "content-type": "application/json", "x-request-id": c.get("requestId") };
   if (c.get("closing") === true) headers.connection = "close";
@@ -134,7 +134,7 @@ export function mountV1(app: Hono<Env>, deps: V1Deps): void {
       if (it.ok) return plainResponse(c, it.json as string, 200);
       return sendProblem(c, it.status, it.error);
     }
-    return plainResponse(c, bulkBody(items), 200);
+    return plainResponse(c, bulkBodyUtf8(items), 200);
   };
 
   app.post("/v1/:procedure/bulk", handler(true));
@@ -149,13 +149,37 @@ export function mountV1(app: Hono<Env>, deps: V1Deps): void {
  * byte for byte, joined from the results already written out (each result is serialised once).
  */
 export function bulkBody(items: readonly ItemJson[]): string {
+  return bulkParts(items).join("");
+}
+
+/**
+ * {@link bulkBody} as UTF-8 bytes, each part encoded straight into one buffer: encoding the joined
+ * megabyte instead costs ten times as much (the joined string is flattened, then scanned twice).
+ * 3 bytes per UTF-16 unit bound every code point's encoding.
+ */
+export function bulkBodyUtf8(items: readonly ItemJson[]): Buffer {
+  const parts = bulkParts(items);
+  let units = 0;
+  for (const p of parts) units += p.length;
+  const buf = Buffer.allocUnsafe(units * 3);
+  let at = 0;
+  for (const p of parts) at += buf.write(p, at, "utf8");
+  return buf.subarray(0, at);
+}
+
+/** The pieces of the bulk answer, separators included, in order (no piece is a joined copy of results). */
+function bulkParts(items: readonly ItemJson[]): string[] {
   let ok = 0;
-  const parts: string[] = [];
-  for (const it of items) {
+  const parts: string[] = ['{"results":['];
+  for (let i = 0; i < items.length; i += 1) {
+    const it = items[i] as ItemJson;
+    if (i > 0) parts.push(",");
     if (it.ok) {
       ok += 1;
-      parts.push(it.json === undefined ? '{"ok":true}' : `{"ok":true,"result":${it.json}}`);
+      if (it.json === undefined) parts.push('{"ok":true}');
+      else parts.push('{"ok":true,"result":', it.json, "}");
     } else parts.push(JSON.stringify({ ok: false, problem: problemOf(it.status, it.error) }));
   }
-  return `{"results":[${parts.join(",")}],"ok":${ok},"failed":${items.length - ok}}`;
+  parts.push(`],"ok":${ok},"failed":${items.length - ok}}`);
+  return parts;
 }

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import type { ItemJson } from "../../adapters/compute/call.js";
 import { problemOf } from "../../adapters/http/problem.js";
-import { bulkBody } from "../../adapters/http/v1.js";
+import { bulkBody, bulkBodyUtf8 } from "../../adapters/http/v1.js";
 
 // The bulk answer is joined from results already written out; it must be the bytes of
 // JSON.stringify({ results, ok, failed }) of the same results (the form it had before).
@@ -20,5 +20,8 @@ describe("bulkBody", () => {
     });
     expect(bulkBody(items)).toBe(expected);
     expect(bulkBody([])).toBe(JSON.stringify({ results: [], ok: 0, failed: 0 }));
+    // the bytes sent: the UTF-8 of the same text (oracle: Buffer.from)
+    expect(Buffer.compare(bulkBodyUtf8(items), Buffer.from(expected, "utf8"))).toBe(0);
+    expect(bulkBodyUtf8([]).toString("utf8")).toBe(JSON.stringify({ results: [], ok: 0, failed: 0 }));
   });
 });
