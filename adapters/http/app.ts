@@ -43,10 +43,14 @@ export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics =
     const started = performance.now();
     const closing = !isReady();
     c.set("closing", closing);
+    // Set before the handler builds its response, so it is built once with them (adding a header to a
+    // finished response copies it through a web stream, several times the cost of a small answer). A
+    // /v1 answer built by plainResponse() carries both itself; a handler that returns a ready Response
+    // (tRPC's) gets them after.
+    c.header("x-request-id", requestId);
+    if (closing) c.header("connection", "close");
     await next();
-    // A handler that answered with plainResponse() carries both headers already (the cheap path:
-    // a plain header object goes to node's writeHead as it is); any other response gets them here.
-    if (c.get("headersSet") !== true) {
+    if (c.get("headersSet") !== true && c.res.headers.get("x-request-id") !== requestId) {
       c.header("x-request-id", requestId);
       if (closing) c.header("connection", "close");
     }
