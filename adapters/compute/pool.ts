@@ -1,6 +1,6 @@
 import { existsSync } from "node:fs";
 import { fileURLToPath } from "node:url";
-import { Piscina } from "piscina";
+import { createRequire } from "node:module";
 import type { Format } from "../batch/formats.js";
 import type { BatchOutputLine } from "../batch/run-batch.js";
 import type { ItemJson, ItemResult } from "./call.js";
@@ -40,6 +40,8 @@ export interface ComputePool {
 export function createComputePool(opts: { threads: number; catalogPath: string; rulesDir?: string | undefined }): ComputePool | undefined {
   const filename = workerFile();
   if (filename === undefined || opts.threads < 1) return undefined;
+  // piscina loaded with the first pool (the HTTP server starts its pool after it listens)
+  const { Piscina } = createRequire(import.meta.url)("piscina") as typeof import("piscina");
   const pool = new Piscina({ filename, minThreads: opts.threads, maxThreads: opts.threads, idleTimeout: 60_000, workerData: { catalogPath: opts.catalogPath, rulesDir: opts.rulesDir } });
   const options = (name: string, signal?: AbortSignal) => (signal === undefined ? { name } : { name, signal });
   return {
