@@ -26,4 +26,4 @@ EXPOSE 8080
 # no shell tools needed: node itself fetches /livez
 HEALTHCHECK --interval=10s --timeout=3s --start-period=5s --retries=3 CMD ["node", "-e", "fetch('http://127.0.0.1:'+(process.env.PORT||8080)+'/livez').then(r=>process.exit(r.ok?0:1),()=>process.exit(1))"]
 # node is PID 1: the server handles SIGTERM/SIGINT itself (drain, then exit 0) and starts no child processes
-CMD ["node", "dist/adapters/http/main.js"]
+CMD ["node", "dist/bundle/main.js"]

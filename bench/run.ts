@@ -21,7 +21,7 @@ import { DEMO_CATALOG, projectRoot } from "../adapters/project-root.js";
 const root = projectRoot();
 const quick = process.env.BENCH_QUICK === "1";
 const dist = (...p: string[]) => join(root, "dist", ...p);
-const MAIN = dist("adapters", "http", "main.js");
+const MAIN = dist("bundle", "main.js"); // what `npm start` runs
 const RSS_PRELOAD = dist("bench", "lib", "max-rss.js");
 
 interface Row {

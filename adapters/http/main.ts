@@ -51,11 +51,12 @@ const serverOptions = {
   connectionsCheckingInterval: Math.max(50, Math.min(1000, Math.floor(headersTimeout / 4))),
 };
 const server = serve({ fetch: app.fetch, port, hostname: process.env.HOST ?? "0.0.0.0", serverOptions }, (info) => {
-  // Work start-up need not wait for, done once the server listens: the compute threads (each loads
-  // the router), and a little later, when the start-up probes have been answered, the built-in rule
-  // sets (and the expression parser they need). A request that needs the sets first compiles them.
-  setImmediate(() => pool?.start());
-  setTimeout(() => logger.info({ ruleSets: ruleSets.list().map((s) => s.stamp.id) }, "rule sets ready"), 250).unref();
+  // Work start-up need not wait for, done shortly after the server listens, once the start-up
+  // probes have been answered: the compute threads (each loads the router, and on a small machine
+  // they would take the CPU the first answers need), then the built-in rule sets (and the expression
+  // parser they need). A request that needs either earlier starts it itself and waits for it.
+  setTimeout(() => pool?.start(), 150).unref();
+  setTimeout(() => logger.info({ ruleSets: ruleSets.list().map((s) => s.stamp.id) }, "rule sets ready"), 300).unref();
   logger.info(
     { port: info.port, catalog: catalogPath, parts: catalog.list().length, rulesRefused: ruleSets.refused().length, workers: pool?.threads ?? 0, auth: config.apiKeys !== undefined },
     "backstop listening",
