@@ -1,4 +1,5 @@
 import { type AcBridgeCircuit, type Snapshot, solveStage } from "./ac-bridge-circuit.js";
+import { type OffDecay, offDecayOf, offGain, offMoments, offNode, offOutV, onsetS } from "./ac-bridge-off-interval.js";
 import { BDF_COEFF, BDF_W_GAMMA, BDF_W_N, GAMMA, LTE_COEFF, QUAD_W0, QUAD_W1, QUAD_WG, TR_COEFF } from "./tr-bdf2.js";
 
 /** Index of an element in the accumulators: positive pair [0, 1], negative pair [2, 3]. */
@@ -52,6 +53,12 @@ export interface PeriodOptions {
    * one-step method, exact for its step sequence).
    */
   readonly jacobian?: boolean;
+  /**
+   * Step across the off intervals by the general method too (default false: a resistive or
+   * constant-current load's off interval is one exact step, ac-bridge-off-interval.ts). For
+   * checking the closed form against the general path.
+   */
+  readonly generalOffInterval?: boolean;
 }
 
 /**
@@ -103,9 +110,36 @@ export function integratePeriod(
   // peak always contains a node, so a long step cannot jump over it unseen.
   const breaks = [0.25, 0.5, 0.75, 1].map((q) => q * period).filter((b) => b <= endS * (1 + 1e-12));
   let nextBreak = 0;
+  const decay = opt.generalOffInterval === true ? undefined : offDecayOf(c);
   while (t < endS) {
     while ((breaks[nextBreak] ?? endS) <= t * (1 + 1e-12)) nextBreak += 1;
     const target = breaks[nextBreak] ?? endS;
+    if (decay !== undefined && s0.pair === 0) {
+      // No pair conducts: one exact step to the onset of conduction (or the breakpoint).
+      const off = offStep(c, decay, s0, t, target, period, acc, opt.record ? trace : undefined);
+      if (off === "collapse") return collapse(t);
+      if (off !== undefined) {
+        if (sens) {
+          const g = offGain(decay, off.t - t);
+          dx[0] = (dx[0] ?? 0) * g;
+          dx[1] = (dx[1] ?? 0) * g;
+          dx[2] = 0;
+          dx[3] = 0;
+          mulSInto(df, c, off, dx, n);
+          df[2] = 0;
+          df[3] = 0;
+        }
+        t = off.t >= target - period * 1e-12 ? target : off.t;
+        s0 = off;
+        x = stateOf(off, n);
+        slopeAps = 0;
+        steps += 1;
+        // Conduction starts from zero current: begin it with a short step.
+        if (t < target) h = Math.min(h, period / 400);
+        rejectedLast = false;
+        continue;
+      }
+    }
     let last = t + h >= target - period * 1e-12;
     if (last) h = target - t;
     // Event: with inductance the line current falls to zero at the end of conduction and then
@@ -188,6 +222,48 @@ export function integratePeriod(
   }
   const jacobian = n > 1 ? [[dx[0] ?? 0, dx[1] ?? 0], [dx[2] ?? 0, dx[3] ?? 0]] : [[dx[0] ?? 0]];
   return { ok: true, end: x, integrals: acc, steps, ...(opt.record ? { trace } : {}), ...(sens ? { jacobian } : {}) };
+}
+
+/**
+ * The off interval from the off node s0 at t to the onset of conduction or t1, in closed form
+ * (ac-bridge-off-interval.ts): its integrals (no line current; the capacitor, its ESR and the
+ * load exchange the stored energy exactly), trace nodes at most T/50 apart, and the end node.
+ * Undefined when conduction starts at t already (the general step takes it).
+ */
+function offStep(c: AcBridgeCircuit, d: OffDecay, s0: Snapshot, t: number, t1: number, period: number, acc: Acc, trace: Snapshot[] | undefined): Snapshot | "collapse" | undefined {
+  const laws = c.pairLaws(s0.capV);
+  const positive = Math.sin(2 * Math.PI * c.frequencyHz * (0.5 * (t + t1))) >= 0;
+  const [la, lb] = positive ? laws.positive : laws.negative;
+  const tOn = onsetS(c, d, t, t1, s0.outV, la.dropV(0) + lb.dropV(0));
+  const tEnd = tOn ?? t1;
+  const span = tEnd - t;
+  if (!(span > 0)) return undefined;
+  const out0 = s0.outV;
+  const outEnd = offOutV(d, out0, span);
+  if (!(outEnd > 0)) return "collapse";
+  const { vS, v2S } = offMoments(d, out0, span);
+  const esr = c.esrOhm;
+  // capA = −ℓ(outV), capV = outV − ESR·capA.
+  const capA2s = d.kind === "resistive" ? v2S / (d.loadOhm * d.loadOhm) : d.currentA * d.currentA * span;
+  acc.esrEnergyJ += esr * capA2s;
+  acc.capA2s += capA2s;
+  acc.capEnergyJ += d.kind === "resistive" ? (-(1 + esr / d.loadOhm) * v2S) / d.loadOhm : -d.currentA * (vS + esr * d.currentA * span);
+  acc.loadEnergyJ += d.kind === "resistive" ? v2S / d.loadOhm : d.currentA * vS;
+  acc.loadAs += d.kind === "resistive" ? vS / d.loadOhm : d.currentA * span;
+  acc.outVs += vS;
+  // The output falls monotonically: its extremes are the ends.
+  for (const v of [out0, outEnd]) {
+    if (v < acc.outMinV) acc.outMinV = v;
+    if (v > acc.outMaxV) acc.outMaxV = v;
+  }
+  for (let k = 0; k < 4; k += 1) raiseReverse(acc, k, out0);
+  const end = offNode(c, d, tEnd, outEnd);
+  if (trace !== undefined) {
+    const pieces = Math.max(1, Math.ceil((50 * span) / period));
+    for (let k = 1; k < pieces; k += 1) trace.push(offNode(c, d, t + (k * span) / pieces, offOutV(d, out0, (k * span) / pieces)));
+    trace.push(end);
+  }
+  return end;
 }
 
 /** d(capV)/dt at a node, V/s. */
