@@ -1,5 +1,4 @@
 import type { LoadModel } from "./load-model.js";
-import { safeNewton } from "./safe-newton.js";
 
 /** Forward law of one bridge element at a fixed temperature: drop V and dV/dI ohm at I ≥ 0. */
 export interface ForwardLaw {
@@ -118,6 +117,12 @@ export function solveOutputV(load: LoadModel, b: number, k: number): number | un
   return v > 0 ? v : undefined;
 }
 
+/** g(i) of the stage without inductance (solveStage), for the bracket search. */
+function gValue(la: ForwardLaw, lb: ForwardLaw, m: number, r: number, k: number, bv: number, load: LoadModel, i: number): number {
+  const out = m - r * i - la.dropV(i) - lb.dropV(i);
+  return out > 0 ? out + k * loadCurrentA(load, out) - k * i - bv : out - k * i - bv;
+}
+
 /** The node record of a stage solution (module-level: no closure per stage). */
 function node(
   c: AcBridgeCircuit,
@@ -175,22 +180,45 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
     // g(i) = outV + k·ℓ(outV) − k·i − b: g(0) > 0, decreasing.
     // The same part in both positions: one law evaluation for the pair.
     const twin = la === lb;
-    const g = (i: number): readonly [number, number] => {
+    const load = c.load;
+    // Upper bracket: at i = |e|/R the output would be at or below zero (KVL), where g < 0 for
+    // b₀ ≥ 0 without an evaluation; else (no source resistance) found by doubling.
+    let hi = r > 0 && bv >= 0 ? m / r : Math.max(Math.abs(hintA) * 2, (m - off) / Math.max(r + k, 1e-3), 1e-9);
+    if (!(r > 0 && bv >= 0)) for (let n = 0; n < 200 && gValue(la, lb, m, r, k, bv, load, hi) > 0; n += 1) hi *= 2;
+    // g(0) > 0 here (out(0) > off and v + k·ℓ(v) increases). Newton kept inside the shrinking
+    // bracket, bisection where a step would leave it (safe-newton.ts's rule, written out here
+    // so that no closure or tuple is made per evaluation).
+    const tolI = 1e-13 * hi;
+    let lo = 0;
+    const hint = Math.abs(hintA);
+    let i = hint > lo && hint < hi ? hint : 0.5 * (lo + hi);
+    for (let it = 0; it < 100; it += 1) {
       const va = la.dropV(i);
       const sa = la.slopeOhm(i);
       const vb = twin ? va : lb.dropV(i);
       const sb = twin ? sa : lb.slopeOhm(i);
       const out = m - r * i - va - vb;
       const rr = r + sa + sb;
-      if (!(out > 0)) return [out - k * i - bv, -rr - k];
-      return [out + k * loadCurrentA(c.load, out) - k * i - bv, -rr * (1 + k * loadSlopeS(c.load, out)) - k];
-    };
-    // Upper bracket: at i = |e|/R the output would be at or below zero (KVL), where g < 0 for
-    // b₀ ≥ 0 without an evaluation; else (no source resistance) found by doubling.
-    let hi = r > 0 && bv >= 0 ? m / r : Math.max(Math.abs(hintA) * 2, (m - off) / Math.max(r + k, 1e-3), 1e-9);
-    if (!(r > 0 && bv >= 0)) for (let n = 0; n < 200 && g(hi)[0] > 0; n += 1) hi *= 2;
-    // g(0) > 0 here (out(0) > off and v + k·ℓ(v) increases): only its sign is needed.
-    const i = safeNewton(g, 0, hi, 1, Math.abs(hintA), 1e-13 * hi);
+      let f: number;
+      let df: number;
+      if (!(out > 0)) {
+        f = out - k * i - bv;
+        df = -rr - k;
+      } else {
+        f = out + k * loadCurrentA(load, out) - k * i - bv;
+        df = -rr * (1 + k * loadSlopeS(load, out)) - k;
+      }
+      if (f === 0) break;
+      if (f > 0) lo = i;
+      else hi = i;
+      let next = df !== 0 ? i - f / df : Number.NaN;
+      if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+      if (Math.abs(next - i) <= tolI || hi - lo <= tolI) {
+        i = next;
+        break;
+      }
+      i = next;
+    }
     const va = la.dropV(i);
     const sa = la.slopeOhm(i);
     const vb = twin ? va : lb.dropV(i);
@@ -242,20 +270,40 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
   const [la, lb] = s > 0 ? laws.positive : laws.negative;
   const dk = (out: number): number => k / (1 + k * loadSlopeS(c.load, out));
   // h(x) = x + (a/L)·(R·x + VA + VB + outV(x)) − s·q for x = |i| > 0: increasing, h(0) < 0 ≤ h(sq).
+  // Newton inside the shrinking bracket, bisection where a step would leave it (safe-newton.ts's
+  // rule, written out: no closure or tuple per evaluation).
   let failed = false;
-  const h = (x: number): readonly [number, number] => {
-    const out = solveOutputV(c.load, bv + k * x, k);
-    if (out === undefined) {
-      failed = true;
-      return [1, 1];
+  const twin = la === lb;
+  const load = c.load;
+  const tolX = 1e-14 * sq;
+  let lo = 0;
+  let hi = sq;
+  const hint = Math.abs(hintA);
+  let x = hint > lo && hint < hi ? hint : 0.5 * (lo + hi);
+  for (let it = 0; it < 100; it += 1) {
+    const out = solveOutputV(load, bv + k * x, k);
+    let f = 1;
+    let df = 1;
+    if (out === undefined) failed = true;
+    else {
+      const va = la.dropV(x);
+      const sa = la.slopeOhm(x);
+      const vb = twin ? va : lb.dropV(x);
+      const sb = twin ? sa : lb.slopeOhm(x);
+      f = x + al * (r * x + va + vb + out) - sq;
+      df = 1 + al * (r + sa + sb + dk(out));
     }
-    const va = la.dropV(x);
-    const sa = la.slopeOhm(x);
-    const vb = la === lb ? va : lb.dropV(x);
-    const sb = la === lb ? sa : lb.slopeOhm(x);
-    return [x + al * (r * x + va + vb + out) - sq, 1 + al * (r + sa + sb + dk(out))];
-  };
-  const x = safeNewton(h, 0, sq, onset(s > 0 ? laws.positive : laws.negative) - sq, Math.abs(hintA), 1e-14 * sq);
+    if (f === 0) break;
+    if (f < 0) lo = x;
+    else hi = x;
+    let next = df !== 0 ? x - f / df : Number.NaN;
+    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+    if (Math.abs(next - x) <= tolX || hi - lo <= tolX) {
+      x = next;
+      break;
+    }
+    x = next;
+  }
   const outV = solveOutputV(c.load, bv + k * x, k);
   if (failed || outV === undefined) return undefined;
   const va = la.dropV(x);
