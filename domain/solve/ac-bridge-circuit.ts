@@ -117,6 +117,18 @@ export function solveOutputV(load: LoadModel, b: number, k: number): number | un
   return v > 0 ? v : undefined;
 }
 
+/**
+ * A Newton step x → next for a current in a junction's knee, where the residual is logarithmic
+ * in the current: plain Newton creeps up by a factor 1 + ln(root/x) a step (or leaves the bracket
+ * downwards); the same step taken in u = ln x (Newton on ln x: x·exp(Δ/x)) lands near the root
+ * at once. Used where the plain step would more than double x or leave the bracket at lo; the
+ * bracket still guards every step.
+ */
+function kneeStep(x: number, next: number, lo: number): number {
+  if (!(x > 0) || !(next > 2 * x || next <= lo)) return next;
+  return x * Math.exp(Math.max(-50, Math.min((next - x) / x, 50)));
+}
+
 /** g(i) of the stage without inductance (solveStage), for the bracket search. */
 function gValue(la: ForwardLaw, lb: ForwardLaw, m: number, r: number, k: number, bv: number, load: LoadModel, i: number): number {
   const out = m - r * i - la.dropV(i) - lb.dropV(i);
@@ -191,7 +203,9 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
     const tolI = 1e-13 * hi;
     let lo = 0;
     const hint = Math.abs(hintA);
-    let i = hint > lo && hint < hi ? hint : 0.5 * (lo + hi);
+    // Without a usable hint (the onset: none) from the left end, where g > 0 and, g being convex,
+    // Newton rises to the root monotonically.
+    let i = hint > lo && hint < hi ? hint : lo;
     for (let it = 0; it < 100; it += 1) {
       const va = la.dropV(i);
       const sa = la.slopeOhm(i);
@@ -211,7 +225,8 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
       if (f === 0) break;
       if (f > 0) lo = i;
       else hi = i;
-      let next = df !== 0 ? i - f / df : Number.NaN;
+      const plain = df !== 0 ? i - f / df : Number.NaN;
+      let next = kneeStep(i, plain, lo);
       if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
       if (Math.abs(next - i) <= tolI || hi - lo <= tolI) {
         i = next;
@@ -296,7 +311,8 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
     if (f === 0) break;
     if (f < 0) lo = x;
     else hi = x;
-    let next = df !== 0 ? x - f / df : Number.NaN;
+    const plain = df !== 0 ? x - f / df : Number.NaN;
+    let next = kneeStep(x, plain, lo);
     if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
     if (Math.abs(next - x) <= tolX || hi - lo <= tolX) {
       x = next;
