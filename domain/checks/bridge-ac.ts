@@ -115,8 +115,8 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
   // A symmetric bridge repeats every half period (ac-bridge-half-wave.ts): shoot on the half map.
   const half = halfWaveSymmetric(parts);
   const coarse = { rtol: PREDICTOR_RTOL, voltageScaleV, currentScaleA, record: false, halfPeriod: half, jacobian: true };
-  const periodMap = (o: PeriodOptions): PeriodMap<{ integrals: PeriodIntegrals; trace: readonly Snapshot[]; steps: number }> => (x) => {
-      const r = integratePeriod(circuit, x, o);
+  const periodMap = (o: PeriodOptions): PeriodMap<{ integrals: PeriodIntegrals; trace: readonly Snapshot[]; steps: number }> => (x, withJacobian) => {
+      const r = integratePeriod(circuit, x, { ...o, jacobian: withJacobian });
       if (!r.ok) return { ok: false, reason: r.reason };
       const value = { integrals: r.integrals, trace: r.trace ?? [], steps: r.steps };
       // On the half map the end is mirrored, M·H(x), and so is its derivative's current row.

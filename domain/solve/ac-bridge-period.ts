@@ -105,6 +105,9 @@ export function integratePeriod(
   const db1 = new Float64Array(4);
   const dfg = new Float64Array(4);
   const db2 = new Float64Array(4);
+  // Right-hand sides of the two stages (reused; solveStage reads them before returning).
+  const rhs1: number[] = n > 1 ? [0, 0] : [0];
+  const rhs2: number[] = n > 1 ? [0, 0] : [0];
   if (sens) mulSInto(df, c, s0, dx, n);
   // Breakpoints at the source's peaks and zero crossings: a short conduction pulse around a
   // peak always contains a node, so a long step cannot jump over it unseen.
@@ -159,20 +162,14 @@ export function integratePeriod(
     }
     laws = c.pairLaws(x[0] ?? 0);
     const a1 = TR_COEFF * h;
-    const b1 = n > 1 ? [x0v(x) + a1 * rateV(c, s0), x1a(x) + a1 * rateA(c, s0)] : [x0v(x) + a1 * rateV(c, s0)];
-    const sg = solveStage(c, laws, t + GAMMA * h, a1, b1, s0.lineA + GAMMA * h * slopeAps);
-    const xg = sg === undefined ? undefined : stateOf(sg, x.length);
-    const s1 =
-      sg === undefined || xg === undefined
-        ? undefined
-        : solveStage(
-            c,
-            laws,
-            t + h,
-            BDF_COEFF * h,
-            x.map((v, j) => BDF_W_GAMMA * (xg[j] ?? 0) + BDF_W_N * v),
-            sg.lineA + ((1 - GAMMA) / GAMMA) * (sg.lineA - s0.lineA),
-          );
+    rhs1[0] = x0v(x) + a1 * rateV(c, s0);
+    if (n > 1) rhs1[1] = x1a(x) + a1 * rateA(c, s0);
+    const sg = solveStage(c, laws, t + GAMMA * h, a1, rhs1, s0.lineA + GAMMA * h * slopeAps);
+    if (sg !== undefined) {
+      rhs2[0] = BDF_W_GAMMA * sg.capV + BDF_W_N * x0v(x);
+      if (n > 1) rhs2[1] = BDF_W_GAMMA * sg.lineA + BDF_W_N * x1a(x);
+    }
+    const s1 = sg === undefined ? undefined : solveStage(c, laws, t + h, BDF_COEFF * h, rhs2, sg.lineA + ((1 - GAMMA) / GAMMA) * (sg.lineA - s0.lineA));
     if (sg === undefined || s1 === undefined) {
       h /= 4;
       if (h < hMin) return collapse(t);

@@ -1,6 +1,10 @@
-/** One evaluation of the period map: the state after one period from x, and what it carried. */
+/**
+ * One evaluation of the period map: the state after one period from x, and what it carried;
+ * its derivative (when the map can give one) where `withJacobian` asks for it.
+ */
 export type PeriodMap<T> = (
   x: readonly number[],
+  withJacobian: boolean,
 ) => { readonly ok: true; readonly end: readonly number[]; readonly value: T; readonly jacobian?: readonly (readonly number[])[] } | { readonly ok: false; readonly reason: string };
 
 export type ShootingOutcome<T> =
@@ -12,7 +16,10 @@ export type ShootingOutcome<T> =
  * (T. J. Aprille and T. N. Trick, "Steady-state analysis of nonlinear circuits with periodic
  * inputs", Proc. IEEE 60(1), 1972). Newton on J = ∂P/∂x − I: with the map's own derivative when
  * it returns one (the sensitivity of the integration, as Aprille and Trick), else a
- * finite-difference Jacobian and then Broyden's rank-one updates (one period per iteration). A step is accepted when it lowers max|F_j|/scale_j;
+ * finite-difference Jacobian and then Broyden's rank-one updates (one period per iteration). The
+ * map's derivative is asked for at the start and after a fallback only: a Newton trial is often
+ * the converged period, whose derivative would go unused, and otherwise the rank-one update of
+ * the exact derivative carries on (C. G. Broyden, Math. Comp. 19, 1965). A step is accepted when it lowers max|F_j|/scale_j;
  * otherwise (also where the map fails or x[0] would turn non-positive) it is halved, and after
  * four halvings one period of the plain transient is taken instead, with a fresh Jacobian. The
  * fallback matters where F has a kink: a reservoir so large that a slightly higher start voltage
@@ -22,12 +29,12 @@ export type ShootingOutcome<T> =
 export function shootPeriodic<T>(map: PeriodMap<T>, x0: readonly number[], scale: readonly number[], tol: number, maxIter = 40): ShootingOutcome<T> {
   const n = x0.length;
   let periods = 0;
-  const run = (x: readonly number[]) => {
+  const run = (x: readonly number[], withJacobian: boolean) => {
     periods += 1;
-    return map(x);
+    return map(x, withJacobian);
   };
   let x = [...x0];
-  const first = run(x);
+  const first = run(x, true);
   if (!first.ok) return { ok: false, code: "load-collapse", reason: first.reason, periods };
   let p: { readonly end: readonly number[]; readonly value: T; readonly jacobian?: readonly (readonly number[])[] } = first;
   let f = p.end.map((v, j) => v - (x[j] ?? 0));
@@ -42,7 +49,7 @@ export function shootPeriodic<T>(map: PeriodMap<T>, x0: readonly number[], scale
       for (let j = 0; j < n; j += 1) {
         const d = 1e-4 * (scale[j] ?? 1);
         const xp = x.map((v, k) => (k === j ? v - d : v));
-        const q = run(xp);
+        const q = run(xp, false);
         if (!q.ok) return { ok: false, code: "load-collapse", reason: q.reason, periods };
         for (let i = 0; i < n; i += 1) {
           const row = jac[i] ?? new Array<number>(n).fill(0);
@@ -59,7 +66,7 @@ export function shootPeriodic<T>(map: PeriodMap<T>, x0: readonly number[], scale
     for (let k = 0; k < 4 && step.length === n; k += 1) {
       const xn = x.map((v, j) => v + lambda * (step[j] ?? 0));
       if ((xn[0] ?? 0) > 0) {
-        const q = run(xn);
+        const q = run(xn, false);
         const fn = q.ok ? q.end.map((v, j) => v - (xn[j] ?? 0)) : [];
         if (q.ok && norm(fn) < norm(f)) {
           const dx = xn.map((v, j) => v - (x[j] ?? 0));
@@ -77,7 +84,7 @@ export function shootPeriodic<T>(map: PeriodMap<T>, x0: readonly number[], scale
     if (!accepted) {
       // Fall back to one period of the plain transient (always physical) and a fresh Jacobian.
       const xn: number[] = [...p.end];
-      const q = (xn[0] ?? 0) > 0 ? run(xn) : undefined;
+      const q = (xn[0] ?? 0) > 0 ? run(xn, true) : undefined;
       if (q === undefined || !q.ok) {
         return {
           ok: false,
@@ -102,7 +109,7 @@ export function shootPeriodic<T>(map: PeriodMap<T>, x0: readonly number[], scale
  * absent when the map fails.
  */
 export function newtonPredictor<T>(map: PeriodMap<T>, x0: readonly number[]): { readonly x?: readonly number[]; readonly value?: T } {
-  const p = map(x0);
+  const p = map(x0, true);
   if (!p.ok) return {};
   if (p.jacobian === undefined) return { value: p.value };
   const jac = p.jacobian.map((row, i) => row.map((v, j) => v - (i === j ? 1 : 0)));
