@@ -66,7 +66,8 @@ export interface PeriodOptions {
  * by TR-BDF2 with local-error step control: the error estimate is LTE_COEFF·h³·|x‴|, with x‴ from
  * the second divided difference of f on the step's three nodes. The controllers' supply is the
  * reservoir voltage at the start of each step. Steps end on the source's peaks and zero
- * crossings. Integrals use the quadrature on the same nodes, so
+ * crossings. While no pair conducts, a resistive or constant-current load's discharge is one
+ * exact step to the located onset of conduction (ac-bridge-off-interval.ts). Integrals use the quadrature on the same nodes, so
  * the pointwise power balance e·i = R·i² + Σ v·i + ESR·iC² + vC·iC + vout·iload + L·i·di/dt
  * carries over to the period integrals.
  */

@@ -119,7 +119,8 @@ describe("AC bridge period map derivative", () => {
 
 describe("AC bridge solver work", () => {
   // Source: regression guard on this implementation's work (measured: 1.5 maps, about 80 steps
-  // per period without inductance, 175 with 2 mH, when this test was written); a slip back to
+  // per period without inductance, 175 with 2 mH, when this test was written; 80 and 142 with
+  // the closed-form off intervals); a slip back to
   // shooting on whole periods, a finite-difference Jacobian or a step crawl into the blocking
   // kink of the inductive case exceeds these bounds.
   it("reaches the steady state in at most two periods of integration", () => {
