@@ -226,7 +226,9 @@ export function integratePeriod(
  * The off interval from the off node s0 at t to the onset of conduction or t1, in closed form
  * (ac-bridge-off-interval.ts): its integrals (no line current; the capacitor, its ESR and the
  * load exchange the stored energy exactly), trace nodes at most T/50 apart, and the end node.
- * Undefined when conduction starts at t already (the general step takes it).
+ * Undefined when conduction starts at t already (the general step takes it). The pair's drop at
+ * zero current is taken at the supply of the interval's start, as the general step takes the laws
+ * at the supply of each step's start.
  */
 function offStep(c: AcBridgeCircuit, d: OffDecay, s0: Snapshot, t: number, t1: number, period: number, acc: Acc, trace: Snapshot[] | undefined): Snapshot | "collapse" | undefined {
   const laws = c.pairLaws(s0.capV);
