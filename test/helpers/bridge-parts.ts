@@ -1,4 +1,5 @@
 import type { DiodeParams } from "../../domain/physics/diode.js";
+import type { BridgeAcModel } from "../../domain/checks/bridge-ac.js";
 import type { BridgeElements } from "../../domain/checks/bridge-element.js";
 import type { DiodeStage, IdealDiodeStage } from "../../domain/stages/stage-model.js";
 
@@ -26,4 +27,20 @@ export function activeElement(o: { rdsOnOhm?: number; startV?: number; rthJaKPer
 
 export function uniform<E extends BridgeElements[keyof BridgeElements]>(e: E): BridgeElements {
   return { line1High: e, line2High: e, line1Low: e, line2Low: e };
+}
+
+/** Demo AC bridge: a 24 V AC controller input, 2200 µF reservoir, 20 Ω load (invented); `o` overrides. */
+export function demoBridgeAc(elements: BridgeElements, o: Partial<BridgeAcModel> = {}): BridgeAcModel {
+  return {
+    elements,
+    sourceRmsV: 24,
+    frequencyHz: 50,
+    sourceResistanceOhm: 0.5,
+    leakageInductanceH: 0,
+    capacitanceF: 2200e-6,
+    esrOhm: 0.05,
+    load: { kind: "resistive", resistanceOhm: 20 },
+    ambientC: 25,
+    ...o,
+  };
 }

@@ -3,26 +3,13 @@ import { type BridgeAcModel, solveBridgeAcAt, steadyStateOf } from "../../../dom
 import { type BridgeElements, junctionLaw } from "../../../domain/checks/bridge-element.js";
 import { integratePeriod } from "../../../domain/solve/ac-bridge-period.js";
 import { sourceAndFilterOf } from "../../../domain/solve/ac-bridge-circuit.js";
-import { activeElement, demoPn, diodeElement, uniform } from "../../helpers/bridge-parts.js";
+import { activeElement, demoBridgeAc, demoPn, diodeElement, uniform } from "../../helpers/bridge-parts.js";
 import { relativeError } from "../../helpers/tolerance.js";
 
 const T25 = 298.15;
 const temps = { line1High: T25, line2High: T25, line1Low: T25, line2Low: T25 };
 
-function model(elements: BridgeElements, o: Partial<BridgeAcModel> = {}): BridgeAcModel {
-  return {
-    elements,
-    sourceRmsV: 24,
-    frequencyHz: 50,
-    sourceResistanceOhm: 0.5,
-    leakageInductanceH: 0,
-    capacitanceF: 2200e-6,
-    esrOhm: 0.05,
-    load: { kind: "resistive", resistanceOhm: 20 },
-    ambientC: 25,
-    ...o,
-  };
-}
+const model = demoBridgeAc;
 
 function solve(m: BridgeAcModel) {
   const iso = solveBridgeAcAt(m, temps);

@@ -1,24 +1,10 @@
 import { describe, expect, it } from "vitest";
 import { analyseBridgeAc, type BridgeAcModel } from "../../../domain/checks/bridge-ac.js";
-import { BRIDGE_POSITIONS, type BridgeElements } from "../../../domain/checks/bridge-element.js";
-import { activeElement, diodeElement, uniform } from "../../helpers/bridge-parts.js";
+import { BRIDGE_POSITIONS } from "../../../domain/checks/bridge-element.js";
+import { activeElement, demoBridgeAc, diodeElement, uniform } from "../../helpers/bridge-parts.js";
 import { relativeError } from "../../helpers/tolerance.js";
 
-/** Demo: a 24 V AC controller input, 2200 µF reservoir, 20 Ω load (invented). */
-function model(elements: BridgeElements, o: Partial<BridgeAcModel> = {}): BridgeAcModel {
-  return {
-    elements,
-    sourceRmsV: 24,
-    frequencyHz: 50,
-    sourceResistanceOhm: 0.5,
-    leakageInductanceH: 0,
-    capacitanceF: 2200e-6,
-    esrOhm: 0.05,
-    load: { kind: "resistive", resistanceOhm: 20 },
-    ambientC: 25,
-    ...o,
-  };
-}
+const model = demoBridgeAc;
 
 function trapezoid(t: readonly number[], f: readonly number[]): number {
   let s = 0;

@@ -1,8 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { analyseBridgeAc, type BridgeAcModel, solveBridgeAcAt, steadyStateOf } from "../../../domain/checks/bridge-ac.js";
-import { BRIDGE_POSITIONS, type BridgeElements } from "../../../domain/checks/bridge-element.js";
+import { BRIDGE_POSITIONS } from "../../../domain/checks/bridge-element.js";
 import { cToK } from "../../../domain/physics/constants.js";
-import { activeElement, demoPn, diodeElement, uniform } from "../../helpers/bridge-parts.js";
+import { activeElement, demoBridgeAc, demoPn, diodeElement, uniform } from "../../helpers/bridge-parts.js";
 import { bridgeNetlist, reduceBridgeRows, type SpiceBridge, spiceBridgeOf } from "../../helpers/bridge-spice.js";
 import { toolAvailable } from "../../helpers/external-tool.js";
 import { runNgspice } from "../../helpers/ngspice.js";
@@ -10,21 +10,7 @@ import { relativeError } from "../../helpers/tolerance.js";
 
 const hasSpice = toolAvailable("ngspice");
 
-/** Demo: a 24 V AC irrigation controller input, 2200 µF reservoir, 20 Ω load (invented). */
-function model(elements: BridgeElements, o: Partial<BridgeAcModel> = {}): BridgeAcModel {
-  return {
-    elements,
-    sourceRmsV: 24,
-    frequencyHz: 50,
-    sourceResistanceOhm: 0.5,
-    leakageInductanceH: 0,
-    capacitanceF: 2200e-6,
-    esrOhm: 0.05,
-    load: { kind: "resistive", resistanceOhm: 20 },
-    ambientC: 25,
-    ...o,
-  };
-}
+const model = demoBridgeAc;
 
 function isothermal(m: BridgeAcModel, tC: number) {
   const t = cToK(tC);
