@@ -101,6 +101,8 @@ export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics =
         ...ctx,
         observe: (o) => metrics.observeProcedure("trpc", o.path, o.ok ? outcomeLabel(o.data) : errorBodyOf(o.error).code, o.seconds),
       }),
+      // the request id in tRPC's own response (adding it afterwards would copy the response through a web stream)
+      responseMeta: () => ({ headers: c.get("closing") === true ? { "x-request-id": c.get("requestId"), connection: "close" } : { "x-request-id": c.get("requestId") } }),
       onError: ({ error, path }) => {
         if (error.code === "INTERNAL_SERVER_ERROR") logger.error({ requestId: c.get("requestId"), path, err: error.cause ?? error }, "procedure failed");
       },
