@@ -3,9 +3,9 @@ import { analyseBridgeAc, type BridgeAcOutcome } from "../../domain/checks/bridg
 import { AC_WAVEFORM_POINTS } from "../../domain/checks/bridge-ac-waveform.js";
 import { acSaving } from "../../domain/checks/bridge-saving.js";
 import type { RuleSetResult } from "../../domain/rules/rule-model.js";
-import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { evaluateRuleSetOverElements } from "../../domain/rules/element-verdicts.js";
 import { ruleSetForAnalysis } from "../map/analysis-rules.js";
+import { bridgeComparison } from "../map/bridge-comparison.js";
 import { BRIDGE_AC_COMPUTES, bridgeAcElementInputs } from "../map/bridge-rules.js";
 import { toBridgeElements } from "../map/bridge-elements.js";
 import { publicProcedure } from "../trpc.js";
@@ -46,17 +46,7 @@ export const bridgeAc = publicProcedure.input(bridgeAcInput).query(({ input, ctx
   addMetrics(metrics, "", bridge, input.capacitorRippleRatingA);
   if (compareTo !== undefined) addMetrics(metrics, "compareTo.", compareTo, input.capacitorRippleRatingA);
   const saving = compareTo === undefined ? undefined : acSaving(bridge, compareTo);
-  return {
-    modelVersion: MODEL_VERSION,
-    caution: CAUTION,
-    assumptions,
-    metrics,
-    ...(main.rules === undefined ? {} : { rules: main.rules }),
-    ...(other?.rules === undefined ? {} : { compareToRules: other.rules }),
-    bridge,
-    ...(compareTo === undefined ? {} : { compareTo }),
-    ...(saving === undefined ? {} : { saving }),
-  };
+  return bridgeComparison(assumptions, metrics, main, other, saving);
 });
 
 /**

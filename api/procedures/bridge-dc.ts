@@ -1,9 +1,9 @@
 import { type BridgeDcOutput, type BridgeElementsInput, bridgeDcInput } from "../../contracts/bridge.js";
 import { analyseBridgeDc, type BridgeDcResult } from "../../domain/checks/bridge-dc.js";
 import { dcSaving } from "../../domain/checks/bridge-saving.js";
-import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { evaluateRuleSetOverElements } from "../../domain/rules/element-verdicts.js";
 import { ruleSetForAnalysis } from "../map/analysis-rules.js";
+import { bridgeComparison } from "../map/bridge-comparison.js";
 import { BRIDGE_DC_COMPUTES, bridgeDcElementInputs } from "../map/bridge-rules.js";
 import { toBridgeElements } from "../map/bridge-elements.js";
 import { publicProcedure } from "../trpc.js";
@@ -34,17 +34,7 @@ export const bridgeDc = publicProcedure.input(bridgeDcInput).query(({ input, ctx
           const negative = dcSaving(bridge.negative, compareTo.negative);
           return { ...(positive === undefined ? {} : { positive }), ...(negative === undefined ? {} : { negative }) };
         })();
-  return {
-    modelVersion: MODEL_VERSION,
-    caution: CAUTION,
-    assumptions,
-    metrics,
-    ...(main.rules === undefined ? {} : { rules: main.rules }),
-    ...(other?.rules === undefined ? {} : { compareToRules: other.rules }),
-    bridge,
-    ...(compareTo === undefined ? {} : { compareTo }),
-    ...(saving === undefined ? {} : { saving }),
-  };
+  return bridgeComparison(assumptions, metrics, main, other, saving);
 });
 
 /** Per polarity: load voltage, total loss; per element: current, reverse voltage, Tj and their limits. */

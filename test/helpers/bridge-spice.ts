@@ -1,14 +1,9 @@
 import type { BridgeAcModel } from "../../domain/checks/bridge-ac.js";
 import type { DiodeParams } from "../../domain/physics/diode.js";
+import type { AcSourceAndFilter } from "../../domain/solve/ac-bridge-circuit.js";
 
 /** A diode bridge or a switch-based active bridge, as ngspice sees it (all at one temperature). */
-export interface SpiceBridge {
-  readonly sourceRmsV: number;
-  readonly frequencyHz: number;
-  readonly sourceResistanceOhm: number;
-  readonly leakageInductanceH: number;
-  readonly capacitanceF: number;
-  readonly esrOhm: number;
+export interface SpiceBridge extends Omit<AcSourceAndFilter, "load"> {
   readonly loadOhm: number;
   /** Diode of a diode bridge, or the body diode of an active element. */
   readonly diode: DiodeParams;
