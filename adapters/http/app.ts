@@ -1,4 +1,3 @@
-import { randomUUID } from "node:crypto";
 import { fetchRequestHandler } from "@trpc/server/adapters/fetch";
 import { Hono } from "hono";
 import { bodyLimit } from "hono/body-limit";
@@ -13,6 +12,7 @@ import { apiKeyChecker, presentedKey } from "./auth.js";
 import { DEFAULT_HTTP_CONFIG, type HttpConfig } from "./config.js";
 import { createMetrics, type Metrics, routeLabel } from "./metrics.js";
 import { sendProblem } from "./problem.js";
+import { logRequest, requestIdOf } from "./request-line.js";
 import { mountBridgeAcReport } from "./bridge-report-route.js";
 import { mountReviewReport } from "./review-report-route.js";
 import { type Env, mountV1 } from "./v1.js";
@@ -28,7 +28,6 @@ export interface AppDeps {
   readonly isReady?: () => boolean;
 }
 
-const REQUEST_ID = /^[\w.:-]{1,128}$/;
 const PROTECTED = /^\/(trpc|v1)(\/|$)/;
 
 /** The HTTP face of backstop: tRPC under /trpc, plain JSON under /v1, OpenAPI, probes, metrics, one log line per request. */
@@ -37,8 +36,7 @@ export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics =
   const checkKey = config.apiKeys ? apiKeyChecker(config.apiKeys) : undefined;
 
   app.use("*", async (c, next) => {
-    const incoming = c.req.header("x-request-id");
-    const requestId = incoming !== undefined && REQUEST_ID.test(incoming) ? incoming : randomUUID();
+    const requestId = requestIdOf(c.req.header("x-request-id"));
     c.set("requestId", requestId);
     const started = performance.now();
     const closing = !isReady();
@@ -54,8 +52,9 @@ export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics =
       c.header("x-request-id", requestId);
       if (closing) c.header("connection", "close");
     }
-    metrics.countRequest(routeLabel(c.req.path), c.res.status);
-    logger.info({ requestId, method: c.req.method, path: c.req.path, status: c.res.status, durationMs: Math.round((performance.now() - started) * 1000) / 1000 }, "request");
+    const path = c.req.path;
+    metrics.countRequest(routeLabel(path), c.res.status);
+    logRequest(logger, requestId, c.req.method, path, c.res.status, started);
   });
 
   // API keys guard the analyses only; probes, metrics and the OpenAPI document stay open.

@@ -16,6 +16,16 @@ export interface HttpConfig {
   readonly receiveTimeoutMs: number;
   /** accepted API keys; undefined: auth off */
   readonly apiKeys: readonly string[] | undefined;
+  /** answer the hottest single calls on node's own request objects (see fast-lane.ts); false: all through Hono */
+  readonly fastLane: boolean;
+}
+
+function onOff(env: NodeJS.ProcessEnv, name: string, fallback: boolean): boolean {
+  const raw = env[name];
+  if (raw === undefined || raw === "") return fallback;
+  if (raw === "1" || raw === "true" || raw === "on") return true;
+  if (raw === "0" || raw === "false" || raw === "off") return false;
+  throw new Error(`${name} must be 1 or 0 (true/false, on/off), got "${raw}"`);
 }
 
 function positiveInt(env: NodeJS.ProcessEnv, name: string, fallback: number): number {
@@ -47,6 +57,7 @@ export function httpConfigFromEnv(env: NodeJS.ProcessEnv = process.env): HttpCon
     headersTimeoutMs: positiveInt(env, "BACKSTOP_HEADERS_TIMEOUT_MS", 10_000),
     receiveTimeoutMs: positiveInt(env, "BACKSTOP_RECEIVE_TIMEOUT_MS", 30_000),
     apiKeys: apiKeysFromEnv(env),
+    fastLane: onOff(env, "BACKSTOP_FAST_LANE", true),
   };
 }
 

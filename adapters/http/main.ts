@@ -1,5 +1,5 @@
 import { availableParallelism } from "node:os";
-import { serve } from "@hono/node-server";
+import { createServer } from "node:http";
 import { loadCatalogFile } from "../catalog/file-catalog.js";
 import { deferredComputePool } from "../compute/pool.js";
 import { createLogger } from "../logging/logger.js";
@@ -7,6 +7,7 @@ import { DEMO_CATALOG } from "../project-root.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
 import { createApp } from "./app.js";
 import { httpConfigFromEnv } from "./config.js";
+import { createRequestListener } from "./fast-lane.js";
 import { createMetrics } from "./metrics.js";
 
 const logger = createLogger();
@@ -40,7 +41,10 @@ const pool = deferredComputePool({ threads, catalogPath, rulesDir });
 if (config.apiKeys === undefined) logger.warn("API-key auth is OFF: set BACKSTOP_API_KEYS or BACKSTOP_API_KEYS_FILE to require a key on /v1 and /trpc");
 
 let draining = false;
-const app = createApp({ ctx: { catalog, ruleSets }, logger, config, metrics: createMetrics(), pool, isReady: () => !draining });
+const ctx = { catalog, ruleSets };
+const metrics = createMetrics();
+const isReady = () => !draining;
+const app = createApp({ ctx, logger, config, metrics, pool, isReady });
 
 // A slow or stalled client cannot hold a connection: headers and the whole request have deadlines
 // (node checks them every connectionsCheckingInterval, so that is kept well below the deadlines).
@@ -50,7 +54,9 @@ const serverOptions = {
   requestTimeout: config.receiveTimeoutMs,
   connectionsCheckingInterval: Math.max(50, Math.min(1000, Math.floor(headersTimeout / 4))),
 };
-const server = serve({ fetch: app.fetch, port, hostname: process.env.HOST ?? "0.0.0.0", serverOptions }, (info) => {
+const server = createServer(serverOptions, createRequestListener({ app, ctx, logger, config, metrics, isReady, fastLane: config.fastLane }));
+server.listen(port, process.env.HOST ?? "0.0.0.0", () => {
+  const info = server.address() as import("node:net").AddressInfo;
   // Work start-up need not wait for, done shortly after the server listens, once the start-up
   // probes have been answered: the compute threads (each loads the router, and on a small machine
   // they would take the CPU the first answers need), then the built-in rule sets (and the expression
@@ -61,9 +67,12 @@ const server = serve({ fetch: app.fetch, port, hostname: process.env.HOST ?? "0.
     { port: info.port, catalog: catalogPath, parts: catalog.list().length, rulesRefused: ruleSets.refused().length, workers: pool?.threads ?? 0, auth: config.apiKeys !== undefined },
     "backstop listening",
   );
-  process.stdout.write(
-    `backstop listening on http://localhost:${info.port} with ${catalog.list().length} parts from ${catalogPath}\n` +
-      `  try: curl -s -X POST -H 'content-type: application/json' -d @examples/http/operatingPoint.body.json http://localhost:${info.port}/v1/operatingPoint\n`,
+  // the start-up log lines (warnings among them) out before the line that says where to connect
+  logger.flush(() =>
+    process.stdout.write(
+      `backstop listening on http://localhost:${info.port} with ${catalog.list().length} parts from ${catalogPath}\n` +
+        `  try: curl -s -X POST -H 'content-type: application/json' -d @examples/http/operatingPoint.body.json http://localhost:${info.port}/v1/operatingPoint\n`,
+    ),
   );
 });
 

@@ -41,8 +41,8 @@ class ComputeTimeout extends Error {}
  * 15 % of the main thread at load). A larger body (an inline rule set, a long table), any other
  * procedure, and every bulk request keep the worker threads and their hard compute budget.
  */
-const INLINE_PROCEDURES: ReadonlySet<string> = new Set(["operatingPoint", "rules.list", "rules.show"]);
-const INLINE_MAX_BODY_CHARS = 16 * 1024;
+export const INLINE_PROCEDURES: ReadonlySet<string> = new Set(["operatingPoint", "rules.list", "rules.show"]);
+export const INLINE_MAX_BODY_CHARS = 16 * 1024;
 
 const yieldToLoop = () => new Promise<void>((r) => setImmediate(r));
 
