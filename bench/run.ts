@@ -137,12 +137,16 @@ async function httpOverhead(): Promise<void> {
   const rounds = quick ? 1 : 2;
   const echoNode = await startServer(dist("bench", "lib", "echo-node.js"));
   const echoHono = await startServer(dist("bench", "lib", "echo-hono.js"));
+  // as `npm start` runs it (BACKSTOP_HTTP_PROCESSES=auto: one HTTP process per CPU), and as one process
   const backstop = await startServer(MAIN, { LOG_LEVEL: process.env.BENCH_LOG_LEVEL ?? "info" });
+  const lone = await startServer(MAIN, { LOG_LEVEL: process.env.BENCH_LOG_LEVEL ?? "info", BACKSTOP_HTTP_PROCESSES: "1" });
   const targets = [
     { name: "node:http echo", base: echoNode.base, path: "/echo" },
     { name: "Hono echo", base: echoHono.base, path: "/echo" },
     { name: "/v1/operatingPoint", base: backstop.base, path: "/v1/operatingPoint" },
     { name: "/trpc/operatingPoint", base: backstop.base, path: "/trpc/operatingPoint" },
+    { name: "/v1/operatingPoint, one HTTP process", base: lone.base, path: "/v1/operatingPoint" },
+    { name: "/trpc/operatingPoint, one HTTP process", base: lone.base, path: "/trpc/operatingPoint" },
   ];
   const got: Record<string, Load[]> = {};
   try {
@@ -154,7 +158,7 @@ async function httpOverhead(): Promise<void> {
       }
     }
   } finally {
-    await Promise.all([stop(echoNode), stop(echoHono), stop(backstop)]);
+    await Promise.all([stop(echoNode), stop(echoHono), stop(backstop), stop(lone)]);
   }
   const agg = (name: string) => {
     const ls = got[name] ?? [];
@@ -170,7 +174,7 @@ async function httpOverhead(): Promise<void> {
   const node = agg("node:http echo");
   for (const t of targets) {
     const a = agg(t.name);
-    const isV1 = t.name.startsWith("/v1");
+    const isV1 = t.name === "/v1/operatingPoint";
     rows.push({
       part: "http",
       metric: `${t.name} rate (32 conns)`,

@@ -11,7 +11,13 @@ const banner = [
 ].join("\n");
 
 await build({
-  entryPoints: { main: "dist/adapters/http/main.js", worker: "dist/adapters/compute/worker.js" },
+  // main: the entry, which loads server-process (the server itself) or cluster-primary (several of them)
+  entryPoints: {
+    main: "dist/adapters/http/main.js",
+    "server-process": "dist/adapters/http/server-process.js",
+    "cluster-primary": "dist/adapters/http/cluster-primary.js",
+    worker: "dist/adapters/compute/worker.js",
+  },
   outdir: "dist/bundle",
   bundle: true,
   platform: "node",

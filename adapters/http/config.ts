@@ -62,3 +62,16 @@ export function httpConfigFromEnv(env: NodeJS.ProcessEnv = process.env): HttpCon
 }
 
 export const DEFAULT_HTTP_CONFIG: HttpConfig = httpConfigFromEnv({});
+
+/**
+ * HTTP processes of one server, BACKSTOP_HTTP_PROCESSES: a whole number from 1 to 64, or "auto"
+ * (the default): one per CPU of the budget, at most 4. Node runs JavaScript on one core per process;
+ * several processes share one port.
+ */
+export function httpProcessesFromEnv(env: NodeJS.ProcessEnv, budgetCpus: number): number {
+  const raw = env.BACKSTOP_HTTP_PROCESSES;
+  if (raw === undefined || raw === "" || raw === "auto") return Math.max(1, Math.min(4, budgetCpus));
+  const n = Number(raw);
+  if (!Number.isInteger(n) || n < 1 || n > 64) throw new Error(`BACKSTOP_HTTP_PROCESSES must be "auto" or a whole number from 1 to 64, got "${raw}"`);
+  return n;
+}

@@ -5,11 +5,13 @@ import { startBuiltServer } from "../helpers/built-server.js";
 // The built server as a process on a loopback port (dist/ is built by the vitest globalSetup).
 const good = { stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" }, supplyV: 12, load: { kind: "constant-current", currentA: 2 }, ambientC: 25 };
 
-const start = startBuiltServer;
+// Both ways the server runs: one HTTP process, and a cluster of two (a primary and two processes).
+const MODES = ["1", "2"] as const;
 const post = (url: string, body: unknown) => fetch(url, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
 const exited = (c: ChildProcess) => new Promise<number | null>((r) => (c.exitCode !== null ? r(c.exitCode) : c.on("exit", (code) => r(code))));
 
-describe("the server process", () => {
+describe.each(MODES)("the server process (BACKSTOP_HTTP_PROCESSES=%s)", (processes) => {
+  const start = (env: Record<string, string>) => startBuiltServer({ BACKSTOP_HTTP_PROCESSES: processes, ...env });
   const children: ChildProcess[] = [];
   afterAll(() => {
     for (const c of children) if (c.exitCode === null) c.kill("SIGKILL");
