@@ -36,10 +36,11 @@ for (const r of ruleSets.refused()) logger.error({ file: r.file, setId: r.setId,
 const drainDelayMs = Number(process.env.BACKSTOP_DRAIN_DELAY_MS ?? 0);
 const shutdownTimeoutMs = Number(process.env.BACKSTOP_SHUTDOWN_TIMEOUT_MS ?? 20_000);
 // /v1 runs in worker threads (stopped at the compute budget) unless BACKSTOP_WORKERS=0; they start
-// once the server listens (see deferredComputePool). By default the CPU budget is shared out among
-// the HTTP processes (main.ts): at least one thread each, at most 4.
+// once the server listens (see deferredComputePool). By default one per CPU of the budget, at most 4,
+// in each HTTP process: a bulk request is split over its process's threads, and idle threads cost
+// only memory (sharing one thread a CPU out among the processes lowered the bulk rate on 2 cores).
 const processes = cluster.isWorker ? Number(process.env.BACKSTOP_HTTP_PROCESSES ?? 1) : 1;
-const threads = Number(process.env.BACKSTOP_WORKERS ?? Math.max(1, Math.min(4, Math.floor(cpuBudget() / processes))));
+const threads = Number(process.env.BACKSTOP_WORKERS ?? Math.min(4, cpuBudget()));
 const pool = deferredComputePool({ threads, catalogPath, rulesDir });
 
 if (config.apiKeys === undefined) logger.warn("API-key auth is OFF: set BACKSTOP_API_KEYS or BACKSTOP_API_KEYS_FILE to require a key on /v1 and /trpc");
