@@ -6,13 +6,10 @@ import { procedureInvoker } from "../../api/procedure-registry.js";
 import type { ComputePool, FormattedLine, LinesFormat } from "../compute/pool.js";
 import { utf8Join } from "../utf8-join.js";
 import { csvRowToLine, type Format, outputFormatter } from "./formats.js";
+import { answerJsonlChunk, type ChunkAnswer, inShard, type JsonlChunk, jsonlChunks, linesOf, type Shard } from "./jsonl-chunk.js";
 import { type BatchCounts, type BatchOutputLine, processLine } from "./run-batch.js";
 
-/** A shard of the input: record n (1-based) belongs to shard (n - 1) mod count. */
-export interface Shard {
-  readonly index: number;
-  readonly count: number;
-}
+export type { Shard } from "./jsonl-chunk.js";
 
 export interface StreamBatchOptions {
   readonly input: Readable;
@@ -25,8 +22,10 @@ export interface StreamBatchOptions {
   readonly shard?: Shard | undefined;
   readonly pool?: ComputePool | undefined;
   readonly onProgress?: (counts: BatchCounts) => void;
-  /** records per pool task */
+  /** records per pool task (CSV input, or with a row hook) */
   readonly chunkSize?: number;
+  /** input bytes per chunk (JSON Lines input without a row hook) */
+  readonly chunkBytes?: number;
   /** called for each answered record, in input order, with the procedure its line named (if it parsed that far) */
   readonly onRow?: RowHook | undefined;
   /** ask every review line for its chart sweeps (`curves: true`) and every bridgeAc line for its period (`waveform: true`), for reports */
@@ -127,6 +126,7 @@ export function utf8Of(outs: readonly FormattedLine[]): Buffer {
  * stays bounded: at most `2 × threads` chunks are in flight.
  */
 export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
+  if (o.inFormat === "jsonl" && o.onRow === undefined && !o.reviewCurves) return streamJsonlChunks(o);
   const counts: BatchCounts = { lines: 0, ok: 0, failed: 0 };
   const fmt = outputFormatter(o.outFormat, o.procedure);
   if (fmt.header) await o.write(fmt.header);
@@ -178,6 +178,91 @@ export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
     }
   }
   if (chunk.length > 0) enqueue(chunk);
+  while (queue.length > 0) await flushHead();
+  return counts;
+}
+
+/**
+ * A chunk in the pool; if its task fails (the worker thread threw or died), each of its records is
+ * retried alone, so only the records that fail again are reported (as internal errors) and the run goes on.
+ */
+async function chunkInPool(pool: ComputePool, c: JsonlChunk, o: StreamBatchOptions, fmt: Formatter): Promise<ChunkAnswer> {
+  const task = { outFormat: o.outFormat, procedure: o.procedure, shard: o.shard };
+  // a tight copy: a view clones its whole underlying buffer to the thread
+  const tight = (b: Uint8Array) => (b.byteOffset === 0 && b.byteLength === b.buffer.byteLength ? b : new Uint8Array(b));
+  try {
+    return await pool.jsonlChunk({ ...task, bytes: tight(c.bytes), firstLine: c.firstLine });
+  } catch {
+    const raws = linesOf(Buffer.from(c.bytes.buffer, c.bytes.byteOffset, c.bytes.byteLength).toString("utf8"));
+    const parts: Uint8Array[] = [];
+    let ok = 0;
+    let lines = 0;
+    for (const [i, raw] of raws.entries()) {
+      const lineNo = c.firstLine + i;
+      if (!inShard(lineNo, o.shard)) continue;
+      try {
+        const one = await pool.jsonlChunk({ ...task, bytes: Buffer.from(raw, "utf8"), firstLine: lineNo, shard: undefined });
+        parts.push(one.bytes);
+        ok += one.ok;
+        lines += one.lines;
+      } catch (e) {
+        const failed: BatchOutputLine = { id: idOfRaw(raw), line: lineNo, ok: false, error: { code: "internal", message: `the worker thread failed on this record: ${(e as Error).message}`.slice(0, 500), issues: [] } };
+        parts.push(Buffer.from(fmt.line(failed), "utf8"));
+        lines += 1;
+      }
+    }
+    return { bytes: Buffer.concat(parts), lines, ok, failed: lines - ok };
+  }
+}
+
+/**
+ * JSON Lines in, no row hook: the input goes in chunks of whole lines as bytes to the threads, each
+ * coming back as its output bytes, written in input order. The main thread cuts, counts lines and
+ * writes, and answers a chunk itself when every thread already has two (so on two cores one thread
+ * and the main thread both compute; without a pool it answers every chunk). At most
+ * `2 × threads + 2` chunks are in flight.
+ */
+async function streamJsonlChunks(o: StreamBatchOptions): Promise<BatchCounts> {
+  const counts: BatchCounts = { lines: 0, ok: 0, failed: 0 };
+  const fmt = outputFormatter(o.outFormat, o.procedure);
+  if (fmt.header) await o.write(fmt.header);
+  const pool = o.pool;
+  const threads = pool?.threads ?? 0;
+  const maxInFlight = 2 * threads + 2;
+  let invoker: ReturnType<typeof procedureInvoker> | undefined;
+  const here = (c: JsonlChunk): Promise<ChunkAnswer> => {
+    invoker ??= procedureInvoker(o.ctx); // built only if this thread answers a chunk
+    return answerJsonlChunk(Buffer.from(c.bytes.buffer, c.bytes.byteOffset, c.bytes.byteLength).toString("utf8"), c.firstLine, fmt.line, invoker, o.shard);
+  };
+  const queue: { answer: Promise<ChunkAnswer>; settled: boolean }[] = [];
+  let inPool = 0;
+  const flushHead = async () => {
+    const a = await (queue.shift() as (typeof queue)[number]).answer;
+    counts.lines += a.lines;
+    counts.ok += a.ok;
+    counts.failed += a.failed;
+    if (a.bytes.length > 0) await o.write(a.bytes);
+    o.onProgress?.(counts);
+  };
+  for await (const c of jsonlChunks(o.input, o.chunkBytes ?? 256 * 1024)) {
+    let answer: Promise<ChunkAnswer>;
+    if (pool !== undefined && inPool < 2 * threads) {
+      inPool += 1;
+      answer = chunkInPool(pool, c, o, fmt);
+      answer.then(
+        () => (inPool -= 1),
+        () => (inPool -= 1),
+      );
+    } else answer = here(c);
+    const entry = { answer, settled: false };
+    answer.then(
+      () => (entry.settled = true),
+      () => (entry.settled = true), // awaited in order by flushHead; this also keeps an early rejection from going unhandled
+    );
+    queue.push(entry);
+    await Promise.resolve(); // let the settled flags of answers already done be set
+    while (queue.length >= maxInFlight || (queue.length > 0 && (queue[0] as (typeof queue)[number]).settled)) await flushHead();
+  }
   while (queue.length > 0) await flushHead();
   return counts;
 }

@@ -2,6 +2,7 @@ import { existsSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { createRequire } from "node:module";
 import type { Format } from "../batch/formats.js";
+import type { ChunkAnswer, Shard } from "../batch/jsonl-chunk.js";
 import type { BatchOutputLine } from "../batch/run-batch.js";
 import type { ItemJson, ItemResult } from "./call.js";
 
@@ -26,6 +27,15 @@ export interface LinesFormat {
   readonly withRecords?: boolean;
 }
 
+/** A chunk of JSON Lines input for a thread: its bytes, its first line's number, the output format and the shard (records outside it are skipped). */
+export interface JsonlChunkTask {
+  readonly bytes: Uint8Array;
+  readonly firstLine: number;
+  readonly outFormat: Format;
+  readonly procedure?: string | undefined;
+  readonly shard?: Shard | undefined;
+}
+
 export interface ComputePool {
   readonly threads: number;
   call(path: string, inputs: unknown[], signal?: AbortSignal): Promise<ItemResult[]>;
@@ -33,6 +43,8 @@ export interface ComputePool {
   callJson(path: string, inputs: unknown[], signal?: AbortSignal): Promise<ItemJson[]>;
   /** batch records → each one's output text in `format` (formatted in the thread), in order */
   lines(records: { raw: string; lineNo: number }[], format: LinesFormat, signal?: AbortSignal): Promise<FormattedLine[]>;
+  /** batch, JSON Lines in: a chunk of whole input lines as bytes → its output records as bytes (parsed, answered, written out and encoded in the thread) */
+  jsonlChunk(chunk: JsonlChunkTask, signal?: AbortSignal): Promise<ChunkAnswer>;
   close(): Promise<void>;
 }
 
@@ -49,6 +61,7 @@ export function createComputePool(opts: { threads: number; catalogPath: string; 
     call: (path, inputs, signal) => pool.run({ path, inputs }, options("call", signal)) as Promise<ItemResult[]>,
     callJson: (path, inputs, signal) => pool.run({ path, inputs }, options("callJson", signal)) as Promise<ItemJson[]>,
     lines: (records, format, signal) => pool.run({ records, ...format }, options("lines", signal)) as Promise<FormattedLine[]>,
+    jsonlChunk: (chunk, signal) => pool.run(chunk, options("jsonlChunk", signal)) as Promise<ChunkAnswer>,
     close: () => pool.destroy(),
   };
 }
@@ -77,6 +90,7 @@ export function deferredComputePool(opts: Parameters<typeof createComputePool>[0
     call: (path, inputs, signal) => get().call(path, inputs, signal),
     callJson: (path, inputs, signal) => get().callJson(path, inputs, signal),
     lines: (records, format, signal) => get().lines(records, format, signal),
+    jsonlChunk: (chunk, signal) => get().jsonlChunk(chunk, signal),
     close: async () => {
       closed = true;
       await inner?.close();

@@ -1,6 +1,8 @@
+import { createRequire } from "node:module";
 import { workerData } from "node:worker_threads";
 import { procedureInvoker } from "../../api/procedure-registry.js";
 import { type Format, outputFormatter } from "../batch/formats.js";
+import { answerJsonlChunk, type ChunkAnswer, type Shard } from "../batch/jsonl-chunk.js";
 import { processLine } from "../batch/run-batch.js";
 import { loadCatalogFile } from "../catalog/file-catalog.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
@@ -40,6 +42,26 @@ const FAULT = process.env.BACKSTOP_TEST_WORKER_FAULT;
 const FAULT_MARKER = "__backstop_test_worker_fault__";
 
 const formatters = new Map<string, ReturnType<typeof outputFormatter>>();
+const formatterOf = (outFormat: Format, procedure: string | undefined) => {
+  const key = `${outFormat}:${procedure ?? ""}`;
+  let fmt = formatters.get(key);
+  if (fmt === undefined) {
+    fmt = outputFormatter(outFormat, procedure);
+    formatters.set(key, fmt);
+  }
+  return fmt;
+};
+
+async function testFault(hit: boolean): Promise<void> {
+  if (FAULT === undefined || !hit) return;
+  if (FAULT === "crash") {
+    setImmediate(() => {
+      throw new Error("test fault: the worker thread dies");
+    });
+    await new Promise(() => undefined); // never answers; the thread's death rejects the task
+  }
+  throw new Error("test fault: the worker thread throws");
+}
 
 /**
  * Batch: raw JSON lines with their line numbers → one output record each, in order, written out
@@ -47,25 +69,35 @@ const formatters = new Map<string, ReturnType<typeof outputFormatter>>();
  * keeps the main thread, which reads and writes, from being the bottleneck).
  */
 export async function lines({ records, outFormat, procedure, withRecords }: { records: { raw: string; lineNo: number }[]; outFormat: Format; procedure?: string | undefined; withRecords?: boolean }) {
-  const key = `${outFormat}:${procedure ?? ""}`;
-  let fmt = formatters.get(key);
-  if (fmt === undefined) {
-    fmt = outputFormatter(outFormat, procedure);
-    formatters.set(key, fmt);
-  }
-  if (FAULT !== undefined && records.some((r) => r.raw.includes(FAULT_MARKER))) {
-    if (FAULT === "crash") {
-      setImmediate(() => {
-        throw new Error("test fault: the worker thread dies");
-      });
-      await new Promise(() => undefined); // never answers; the thread's death rejects the task
-    }
-    throw new Error("test fault: the worker thread throws");
-  }
+  const fmt = formatterOf(outFormat, procedure);
+  await testFault(records.some((r) => r.raw.includes(FAULT_MARKER)));
   const out = [];
   for (const r of records) {
     const o = await processLine(r.raw, r.lineNo, invoker);
     out.push(withRecords ? { ok: o.ok, text: fmt.line(o), record: o } : { ok: o.ok, text: fmt.line(o) });
   }
   return out;
+}
+
+/**
+ * Batch, JSON Lines in: a chunk of whole input lines as bytes (its first line's number given) →
+ * its output records, written out and encoded here, as bytes. Bytes cross between threads as one
+ * copy; records as objects, or many small strings, cost the main thread more than answering them.
+ */
+export async function jsonlChunk({ bytes, firstLine, outFormat, procedure, shard }: { bytes: Uint8Array; firstLine: number; outFormat: Format; procedure?: string | undefined; shard?: Shard | undefined }): Promise<ChunkAnswer> {
+  const text = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString("utf8");
+  await testFault(text.includes(FAULT_MARKER));
+  const answer = await answerJsonlChunk(text, firstLine, formatterOf(outFormat, procedure).line, invoker, shard);
+  return moved(answer, answer.bytes.buffer as ArrayBuffer);
+}
+
+let piscina: typeof import("piscina") | undefined;
+/**
+ * `value` sent back with `buffer` transferred, not copied (piscina's documented transferable
+ * protocol, `Piscina.move`): the buffer then belongs to the main thread, and this thread must not touch it again.
+ */
+function moved<T extends object>(value: T, buffer: ArrayBuffer): T {
+  piscina ??= createRequire(import.meta.url)("piscina") as typeof import("piscina");
+  const { Piscina } = piscina;
+  return Piscina.move({ [Piscina.transferableSymbol]: buffer, [Piscina.valueSymbol]: value } as never) as T;
 }

@@ -1,0 +1,133 @@
+import type { Readable } from "node:stream";
+import type { Invoke } from "../../api/procedure-registry.js";
+import { processLine } from "./run-batch.js";
+
+/** A shard of the input: record n (1-based) belongs to shard (n - 1) mod count. */
+export interface Shard {
+  readonly index: number;
+  readonly count: number;
+}
+
+/** A run of whole JSON Lines input lines as bytes, with the number of its first line and how many lines it holds. */
+export interface JsonlChunk {
+  readonly bytes: Uint8Array;
+  readonly firstLine: number;
+  readonly lines: number;
+}
+
+/** A chunk's answer: its output records as UTF-8 bytes, and how many were written, answered and rejected. */
+export interface ChunkAnswer {
+  readonly bytes: Uint8Array;
+  readonly lines: number;
+  readonly ok: number;
+  readonly failed: number;
+}
+
+const LF = 0x0a;
+const CR = 0x0d;
+
+/**
+ * Line breaks as `readline` reads them with `crlfDelay: Infinity`: `\r\n`, `\n`, or a `\r` not
+ * followed by `\n`. `linesOf` splits a chunk's text the same way; the last piece is dropped when empty
+ * (the chunk ended with a break, or is empty), as readline yields no line after a final break.
+ */
+const BREAK = /\r?\n|\r(?!\n)/;
+
+export function linesOf(text: string): string[] {
+  const parts = text.split(BREAK);
+  if (parts[parts.length - 1] === "") parts.pop();
+  return parts;
+}
+
+/** The number of lines `linesOf` finds in these bytes (UTF-8: the bytes `\r` and `\n` are only ever those characters). */
+export function lineCountOf(bytes: Uint8Array): number {
+  if (bytes.length === 0) return 0;
+  let breaks = 0;
+  for (let at = bytes.indexOf(LF); at >= 0; at = bytes.indexOf(LF, at + 1)) breaks += 1;
+  for (let at = bytes.indexOf(CR); at >= 0; at = bytes.indexOf(CR, at + 1)) if (bytes[at + 1] !== LF) breaks += 1;
+  const last = bytes[bytes.length - 1];
+  return last === LF || last === CR ? breaks : breaks + 1;
+}
+
+/**
+ * The input cut into chunks of whole lines of about `targetBytes` each (a chunk ends just after a
+ * `\n`, so a `\r\n` is never split and a multi-byte character never is; the last chunk takes what is
+ * left). Only the bytes are looked at here: decoding, parsing and answering happen where the chunk
+ * is answered (a worker thread, or this thread).
+ */
+export async function* jsonlChunks(input: Readable, targetBytes: number): AsyncGenerator<JsonlChunk> {
+  let pending: Buffer[] = [];
+  let pendingBytes = 0;
+  let firstLine = 1;
+  const cut = (bytes: Uint8Array): JsonlChunk => {
+    const lines = lineCountOf(bytes);
+    const c = { bytes, firstLine, lines };
+    firstLine += lines;
+    return c;
+  };
+  for await (const piece of input as AsyncIterable<Buffer>) {
+    pending.push(piece);
+    pendingBytes += piece.length;
+    if (pendingBytes < targetBytes) continue;
+    const end = piece.lastIndexOf(LF);
+    if (end < 0) continue; // no line ends in this piece: read on
+    const all = pending.length === 1 ? piece : Buffer.concat(pending, pendingBytes);
+    const split = all.length - (piece.length - end - 1);
+    const rest = all.subarray(split);
+    yield cut(all.subarray(0, split));
+    pending = rest.length > 0 ? [Buffer.from(rest)] : [];
+    pendingBytes = rest.length;
+  }
+  if (pendingBytes > 0) yield cut(pending.length === 1 ? (pending[0] as Buffer) : Buffer.concat(pending, pendingBytes));
+}
+
+/** Does record `lineNo` belong to this run (no shard: every record does)? */
+export const inShard = (lineNo: number, shard: Shard | undefined): boolean => shard === undefined || (lineNo - 1) % shard.count === shard.index;
+
+/**
+ * UTF-8 output written as it comes into one growing buffer: each record's text is encoded at once
+ * and can die young (a chunk's texts kept until the end were copied and promoted by the young
+ * generation's collector, doubling the GC time). Three bytes per UTF-16 unit bound every code
+ * point's encoding (a surrogate pair is 4 bytes for 2 units, a lone surrogate 3 for 1). The buffer
+ * is never from Node's shared pool, so it can be transferred to another thread.
+ */
+export class Utf8Sink {
+  private buf: Buffer;
+  private at = 0;
+  constructor(capacity: number) {
+    this.buf = Buffer.allocUnsafeSlow(Math.max(capacity, 16 * 1024));
+  }
+  write(text: string): void {
+    if (this.buf.length - this.at < text.length * 3) {
+      const bigger = Buffer.allocUnsafeSlow(Math.max(2 * this.buf.length, this.at + text.length * 3));
+      this.buf.copy(bigger, 0, 0, this.at);
+      this.buf = bigger;
+    }
+    this.at += this.buf.write(text, this.at, "utf8");
+  }
+  bytes(): Buffer {
+    return this.buf.subarray(0, this.at);
+  }
+}
+
+/**
+ * Answer a chunk of JSON Lines: each line of the shard through `processLine`, written out with
+ * `line` (the output format), all of it encoded as UTF-8 in one buffer. The same function runs in
+ * the worker threads and in process, so both write the same bytes.
+ */
+export async function answerJsonlChunk(text: string, firstLine: number, line: (o: Awaited<ReturnType<typeof processLine>>) => string, invoker: (path: string) => Invoke | undefined, shard: Shard | undefined): Promise<ChunkAnswer> {
+  const raws = linesOf(text);
+  // about four output bytes per input byte for the common answer; the sink grows if need be
+  const out = new Utf8Sink(text.length * 5);
+  let ok = 0;
+  let lines = 0;
+  for (let i = 0; i < raws.length; i += 1) {
+    const lineNo = firstLine + i;
+    if (!inShard(lineNo, shard)) continue;
+    const o = await processLine(raws[i] as string, lineNo, invoker);
+    if (o.ok) ok += 1;
+    lines += 1;
+    out.write(line(o));
+  }
+  return { bytes: out.bytes(), lines, ok, failed: lines - ok };
+}
