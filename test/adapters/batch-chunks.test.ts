@@ -1,0 +1,158 @@
+import { spawnSync } from "node:child_process";
+import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { createInterface } from "node:readline";
+import { PassThrough, Readable } from "node:stream";
+import { describe, expect, it } from "vitest";
+import { jsonlChunks, lineCountOf, linesOf } from "../../adapters/batch/jsonl-chunk.js";
+import { runBatch } from "../../adapters/batch/run-batch.js";
+import { type StreamBatchOptions, streamBatch } from "../../adapters/batch/stream-batch.js";
+import { projectRoot } from "../../adapters/project-root.js";
+import { demoContext } from "../helpers/app.js";
+
+/**
+ * The chunked JSON Lines path (bytes cut at line ends, answered in worker threads or in process)
+ * writes the same bytes as the per-line path it replaced. Oracles: node:readline for the line
+ * breaks, and `runBatch` (readline, one record at a time, JSON.stringify) and the per-record
+ * streamBatch path for the output.
+ */
+const good = (a: number) => ({ stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" }, supplyV: 12, load: { kind: "constant-current", currentA: a }, ambientC: 25 });
+
+/** Valid rows, invalid rows, malformed JSON, unknown procedures, blank lines, CRLF and lone CR breaks, non-ASCII text, a bad UTF-8 byte. */
+function mixedBytes(n: number): Buffer {
+  const parts: Buffer[] = [];
+  for (let i = 0; i < n; i += 1) {
+    const k = i % 11;
+    let text: string;
+    if (k === 1) text = "{ not json";
+    else if (k === 2) text = JSON.stringify({ id: `r${i}`, procedure: "operatingPoint", input: { ...good(1), supplyV: "12 A" } });
+    else if (k === 3) text = JSON.stringify({ id: i, procedure: "noSuchProcedure", input: {} });
+    else if (k === 4) text = "";
+    else if (k === 5) text = JSON.stringify({ id: `µΩ-𝄞-${i}`, procedure: "operatingPoint", input: { ...good(1), stage: { kind: "catalog-part", partId: "missing °C" } } });
+    else if (k === 6) text = "   ";
+    else if (k === 7) text = JSON.stringify([1, 2]);
+    else text = JSON.stringify({ id: `r${i}`, procedure: "operatingPoint", input: good((i % 40) / 10) });
+    parts.push(Buffer.from(text, "utf8"));
+    if (i % 97 === 50) parts.push(Buffer.from([0xc3])); // a truncated two-byte sequence before the break
+    parts.push(Buffer.from(i % 13 === 0 ? "\r\n" : i % 29 === 0 ? "\r" : "\n"));
+  }
+  return Buffer.concat(parts);
+}
+
+async function readlineLines(bytes: Buffer, pieces: number): Promise<string[]> {
+  const step = Math.max(1, Math.ceil(bytes.length / pieces));
+  const chunks: Buffer[] = [];
+  for (let at = 0; at < bytes.length; at += step) chunks.push(bytes.subarray(at, at + step));
+  const out: string[] = [];
+  for await (const l of createInterface({ input: Readable.from(chunks), crlfDelay: Number.POSITIVE_INFINITY })) out.push(l);
+  return out;
+}
+
+function piecesOf(bytes: Buffer, step: number): Readable {
+  const chunks: Buffer[] = [];
+  for (let at = 0; at < bytes.length; at += step) chunks.push(bytes.subarray(at, at + step));
+  return Readable.from(chunks);
+}
+
+describe("JSON Lines chunks break lines as readline does", () => {
+  const cases = ["", "\n", "a", "a\n", "a\r", "a\r\n", "a\n\n", "\r\r\n\n", "a\rb\r\nc\nd", "a\r\r", "é\n€\r𝄞", "\n\n\nx"];
+  it.each(cases.map((c) => [JSON.stringify(c), c]))("%s", async (_name, text) => {
+    const want = await readlineLines(Buffer.from(text as string), 1);
+    expect(linesOf(text as string)).toEqual(want);
+    expect(lineCountOf(Buffer.from(text as string))).toBe(want.length);
+  });
+
+  it("a mixed file cut into chunks of every size: the same lines, numbered without a gap", async () => {
+    const bytes = mixedBytes(600);
+    const want = await readlineLines(bytes, 37);
+    for (const [piece, target] of [
+      [1000, 1],
+      [64 * 1024, 4096],
+      [333, 2000],
+      [7, 10_000],
+    ] as const) {
+      const got: string[] = [];
+      let next = 1;
+      for await (const c of jsonlChunks(piecesOf(bytes, piece), target)) {
+        expect(c.firstLine).toBe(next);
+        const lines = linesOf(Buffer.from(c.bytes).toString("utf8"));
+        expect(lines).toHaveLength(c.lines);
+        got.push(...lines);
+        next += c.lines;
+      }
+      expect(got).toEqual(want);
+    }
+  });
+});
+
+async function collect(run: (write: (c: string | Uint8Array) => Promise<void>) => Promise<unknown>): Promise<Buffer> {
+  const parts: Buffer[] = [];
+  await run(async (c) => {
+    parts.push(typeof c === "string" ? Buffer.from(c, "utf8") : Buffer.from(c));
+  });
+  return Buffer.concat(parts);
+}
+
+describe("in process: the chunked path writes the bytes of the per-record path", () => {
+  const bytes = mixedBytes(900);
+  const base = (extra: Partial<StreamBatchOptions>) => (write: (c: string | Uint8Array) => Promise<void>) =>
+    streamBatch({ input: piecesOf(bytes, 4000), inFormat: "jsonl", outFormat: "jsonl", write, ctx: demoContext(), ...extra });
+
+  it("JSON Lines out, against runBatch and against the per-record path (taken with a row hook)", async () => {
+    const out = new PassThrough();
+    const parts: Buffer[] = [];
+    out.on("data", (c: Buffer) => parts.push(c));
+    await runBatch(piecesOf(bytes, 4000), out, demoContext());
+    const oracle = Buffer.concat(parts);
+    const chunked = await collect(base({ chunkBytes: 3000 }));
+    const perRecord = await collect(base({ onRow: () => undefined }));
+    expect(oracle.toString("utf8").split("\n")).toHaveLength(await readlineLines(bytes, 1).then((l) => l.length + 1));
+    expect(chunked.equals(oracle)).toBe(true);
+    expect(perRecord.equals(oracle)).toBe(true);
+  });
+
+  it("CSV out and a shard: the same bytes as the per-record path", async () => {
+    for (const extra of [{ outFormat: "csv" as const }, { shard: { index: 1, count: 3 } }, { outFormat: "csv" as const, procedure: "operatingPoint", shard: { index: 0, count: 2 } }]) {
+      const chunked = await collect(base({ ...extra, chunkBytes: 5000 }));
+      const perRecord = await collect(base({ ...extra, onRow: () => undefined }));
+      expect(chunked.length).toBeGreaterThan(1000);
+      expect(chunked.equals(perRecord)).toBe(true);
+    }
+  });
+});
+
+describe("built CLI: in process, one worker thread and two write the same bytes", () => {
+  // dist/ is built once by test/helpers/build-once.ts (vitest globalSetup)
+  const bin = join(projectRoot(), "bin", "backstop.mjs");
+  const dir = mkdtempSync(join(tmpdir(), "backstop-chunks-"));
+  const run = (args: string[]) => spawnSync("node", [bin, "batch", ...args], { encoding: "utf8", env: { ...process.env, BACKSTOP_PROGRESS_MS: "600000" } });
+  // about 1.2 MB: several chunks of the default size, so the threads and the main thread each answer some
+  const input = join(dir, "mixed.jsonl");
+  writeFileSync(input, mixedBytes(6000));
+
+  it.each(["jsonl", "csv"])("JSON Lines in, %s out, against the in-process per-record oracle", async (fmt) => {
+    const outs = ["0", "1", "2"].map((w) => {
+      const out = join(dir, `out-w${w}.${fmt}`);
+      const r = run(["--in", input, "--out", out, "--workers", w]);
+      expect(r.status, r.stderr).toBe(1); // some rows rejected
+      return readFileSync(out);
+    });
+    const oracle = await collect((write) => streamBatch({ input: Readable.from([readFileSync(input)]), inFormat: "jsonl", outFormat: fmt as "jsonl" | "csv", write, ctx: demoContext(), onRow: () => undefined }));
+    for (const o of outs) expect(o.equals(oracle)).toBe(true);
+  }, 120_000);
+
+  it("CSV in (the per-record path with threads): in process and two threads agree", () => {
+    const csv = join(dir, "in.csv");
+    const rows = ["id,procedure,stage.kind,stage.partId,supplyV,load.kind,load.currentA,ambientC"];
+    for (let i = 0; i < 500; i += 1) rows.push(i % 9 === 4 ? `c${i},operatingPoint,catalog-part,missing,12 A,constant-current,1,25` : i % 9 === 7 ? `c${i},nope,,,,,,` : `c${i},operatingPoint,catalog-part,demo-schottky-5a-45v,12,constant-current,${(i % 30) / 10},25`);
+    writeFileSync(csv, `${rows.join("\n")}\n`);
+    const outs = ["0", "2"].map((w) => {
+      const out = join(dir, `csv-w${w}.jsonl`);
+      expect(run(["--in", csv, "--out", out, "--workers", w]).status).toBe(1);
+      return readFileSync(out);
+    });
+    expect(outs[0]?.length).toBeGreaterThan(1000);
+    expect(outs[0]?.equals(outs[1] as Buffer)).toBe(true);
+  }, 60_000);
+});
