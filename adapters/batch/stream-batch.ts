@@ -228,7 +228,8 @@ async function streamJsonlChunks(o: StreamBatchOptions): Promise<BatchCounts> {
   if (fmt.header) await o.write(fmt.header);
   const pool = o.pool;
   const threads = pool?.threads ?? 0;
-  const maxInFlight = 2 * threads + 2;
+  const depth = 2; // chunks given to each thread at once, so it never waits while this thread answers one
+  const maxInFlight = depth * threads + 2;
   let invoker: ReturnType<typeof procedureInvoker> | undefined;
   const here = (c: JsonlChunk): Promise<ChunkAnswer> => {
     invoker ??= procedureInvoker(o.ctx); // built only if this thread answers a chunk
@@ -246,7 +247,7 @@ async function streamJsonlChunks(o: StreamBatchOptions): Promise<BatchCounts> {
   };
   for await (const c of jsonlChunks(o.input, o.chunkBytes ?? 256 * 1024)) {
     let answer: Promise<ChunkAnswer>;
-    if (pool !== undefined && inPool < 2 * threads) {
+    if (pool !== undefined && inPool < depth * threads) {
       inPool += 1;
       answer = chunkInPool(pool, c, o, fmt);
       answer.then(
