@@ -188,10 +188,9 @@ export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
  */
 async function chunkInPool(pool: ComputePool, c: JsonlChunk, o: StreamBatchOptions, fmt: Formatter): Promise<ChunkAnswer> {
   const task = { outFormat: o.outFormat, procedure: o.procedure, shard: o.shard };
-  // a tight copy: a view clones its whole underlying buffer to the thread
-  const tight = (b: Uint8Array) => (b.byteOffset === 0 && b.byteLength === b.buffer.byteLength ? b : new Uint8Array(b));
+  // a copy in a buffer of its own, transferred to the thread (c.bytes stays here for the retry)
   try {
-    return await pool.jsonlChunk({ ...task, bytes: tight(c.bytes), firstLine: c.firstLine });
+    return await pool.jsonlChunk({ ...task, bytes: new Uint8Array(c.bytes), firstLine: c.firstLine });
   } catch {
     const raws = linesOf(Buffer.from(c.bytes.buffer, c.bytes.byteOffset, c.bytes.byteLength).toString("utf8"));
     const parts: Uint8Array[] = [];
@@ -201,7 +200,7 @@ async function chunkInPool(pool: ComputePool, c: JsonlChunk, o: StreamBatchOptio
       const lineNo = c.firstLine + i;
       if (!inShard(lineNo, o.shard)) continue;
       try {
-        const one = await pool.jsonlChunk({ ...task, bytes: Buffer.from(raw, "utf8"), firstLine: lineNo, shard: undefined });
+        const one = await pool.jsonlChunk({ ...task, bytes: new Uint8Array(Buffer.from(raw, "utf8")), firstLine: lineNo, shard: undefined });
         parts.push(one.bytes);
         ok += one.ok;
         lines += one.lines;

@@ -43,7 +43,7 @@ export interface ComputePool {
   callJson(path: string, inputs: unknown[], signal?: AbortSignal): Promise<ItemJson[]>;
   /** batch records → each one's output text in `format` (formatted in the thread), in order */
   lines(records: { raw: string; lineNo: number }[], format: LinesFormat, signal?: AbortSignal): Promise<FormattedLine[]>;
-  /** batch, JSON Lines in: a chunk of whole input lines as bytes → its output records as bytes (parsed, answered, written out and encoded in the thread) */
+  /** batch, JSON Lines in: a chunk of whole input lines as bytes → its output records as bytes (parsed, answered, written out and encoded in the thread); the bytes' buffer is transferred (it must be the chunk's alone: not a view into a larger or pooled buffer) */
   jsonlChunk(chunk: JsonlChunkTask, signal?: AbortSignal): Promise<ChunkAnswer>;
   close(): Promise<void>;
 }
@@ -61,7 +61,8 @@ export function createComputePool(opts: { threads: number; catalogPath: string; 
     call: (path, inputs, signal) => pool.run({ path, inputs }, options("call", signal)) as Promise<ItemResult[]>,
     callJson: (path, inputs, signal) => pool.run({ path, inputs }, options("callJson", signal)) as Promise<ItemJson[]>,
     lines: (records, format, signal) => pool.run({ records, ...format }, options("lines", signal)) as Promise<FormattedLine[]>,
-    jsonlChunk: (chunk, signal) => pool.run(chunk, options("jsonlChunk", signal)) as Promise<ChunkAnswer>,
+    // the chunk's bytes are transferred, not copied: the caller hands over a buffer of its own
+    jsonlChunk: (chunk, signal) => pool.run(chunk, { ...options("jsonlChunk", signal), transferList: [chunk.bytes.buffer as ArrayBuffer] }) as Promise<ChunkAnswer>,
     close: () => pool.destroy(),
   };
 }
