@@ -47,7 +47,9 @@ async function atomically(outPath: string, body: (write: (t: string | Uint8Array
   process.once("SIGINT", onSignal);
   let out: WriteStream | undefined;
   try {
-    out = createWriteStream(partial);
+    // a few MB may wait to be written, so the main thread answers or cuts the next chunk meanwhile
+    // instead of waiting for a drain after every chunk of output
+    out = createWriteStream(partial, { highWaterMark: 4 * 1024 * 1024 });
     const stream = out;
     const failed = new Promise<never>((_, reject) => stream.once("error", reject));
     failed.catch(() => undefined);
@@ -120,7 +122,7 @@ async function batch(rest: string[]): Promise<number> {
   const rulesDir = process.env.BACKSTOP_RULES_DIR;
   const ruleSets = loadRuleSetStore(rulesDir);
   for (const r of ruleSets.refused()) process.stderr.write(`backstop batch: rule set file ${r.file} refused: ${r.problems.map((p) => p.message).join("; ")}\n`);
-  const input = createReadStream(values.in);
+  const input = createReadStream(values.in, { highWaterMark: 256 * 1024 }); // read ahead a chunk while the main thread answers one
   await new Promise<void>((resolve, reject) => {
     input.once("open", () => resolve());
     input.once("error", reject);
