@@ -16,6 +16,8 @@ await build({
     main: "dist/adapters/http/main.js",
     "server-process": "dist/adapters/http/server-process.js",
     "cluster-primary": "dist/adapters/http/cluster-primary.js",
+    // the batch command line (bin/backstop.mjs)
+    cli: "dist/adapters/batch/cli.js",
     worker: "dist/adapters/compute/worker.js",
   },
   outdir: "dist/bundle",

@@ -96,7 +96,7 @@ function toMosfet(m: MosfetSpec, path: (string | number)[], assumptions: string[
 
 function toTempLaw(law: TempLawSpec | undefined, path: (string | number)[], assumptions: string[]): RdsTempLaw {
   if (law === undefined) {
-    assumptions.push(`${path.join(".")}: Rds(on) ∝ (T/298.15 K)^${DEFAULT_RDS_EXPONENT} (default exponent, common practice)`);
+    assumptions.push(`${path.join(".")}: Rds(on) scales as (T/298.15 K)^${DEFAULT_RDS_EXPONENT} (default exponent, common practice)`);
     return { law: "power", exponent: DEFAULT_RDS_EXPONENT };
   }
   if (law.law === "power") return { law: "power", exponent: law.exponent };
