@@ -11,7 +11,7 @@ import type { Logger } from "../logging/logger.js";
 import { apiKeyChecker, presentedKey } from "./auth.js";
 import { DEFAULT_HTTP_CONFIG, type HttpConfig } from "./config.js";
 import { createMetrics, type Metrics, routeLabel } from "./metrics.js";
-import { sendProblem } from "./problem.js";
+import { INTERNAL_ERROR_MESSAGE, sendProblem } from "./problem.js";
 import { logRequest, requestIdOf } from "./request-line.js";
 import { mountBridgeAcReport } from "./bridge-report-route.js";
 import { mountReviewReport } from "./review-report-route.js";
@@ -127,7 +127,7 @@ export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics =
   app.notFound((c) => sendProblem(c, 404, { code: "not-found", message: `no route ${c.req.method} ${c.req.path}` }));
   app.onError((err, c) => {
     logger.error({ requestId: c.get("requestId"), err }, "unhandled error");
-    return sendProblem(c, 500, { code: "internal", message: "internal error: the request was not completed (logged on the server)" });
+    return sendProblem(c, 500, { code: "internal", message: INTERNAL_ERROR_MESSAGE });
   });
   return app;
 }

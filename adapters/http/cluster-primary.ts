@@ -16,7 +16,7 @@ const RESTARTS_PER_MINUTE = 5;
  * - on SIGTERM or SIGINT passes the signal to every process (each drains as a lone server does) and
  *   exits once all have, 0 if every one exited 0.
  */
-export function runPrimary(o: { readonly processes: number; readonly exec: string; readonly logger?: Logger }): void {
+export function runPrimary(o: { readonly processes: number; readonly exec: string }): void {
   const { processes, exec } = o;
   cluster.setupPrimary({ exec, args: process.argv.slice(2) });
   let stopping = false;
@@ -31,7 +31,7 @@ export function runPrimary(o: { readonly processes: number; readonly exec: strin
   let loaded: Promise<void> | undefined;
   const load = () =>
     Promise.all([import("../logging/logger.js"), import("./cluster-metrics.js")]).then(([l, m]) => {
-      logger = o.logger ?? l.createLogger();
+      logger = l.createLogger();
       metrics = m.answerMetricsRequests();
     });
 

@@ -8,7 +8,7 @@ import type { Logger } from "../logging/logger.js";
 import { apiKeyChecker, presentedKey } from "./auth.js";
 import type { HttpConfig } from "./config.js";
 import type { Adapter, Metrics } from "./metrics.js";
-import { PROBLEM_TYPE, problemOf } from "./problem.js";
+import { INTERNAL_ERROR_MESSAGE, PROBLEM_TYPE, problemOf } from "./problem.js";
 import { logRequest, requestIdOf } from "./request-line.js";
 import { type Env, INLINE_MAX_BODY_CHARS, INLINE_PROCEDURES } from "./v1.js";
 
@@ -30,6 +30,8 @@ const TRPC_LANE_MAX_BODY_BYTES = 64 * 1024;
 interface Lane {
   readonly adapter: Adapter;
   readonly procedure: string;
+  /** the URL path the lane answers (`/v1/operatingPoint`) */
+  readonly path: string;
   readonly invoke: Invoke;
   readonly maxBodyBytes: number;
 }
@@ -70,7 +72,7 @@ export function createRequestListener(deps: RequestListenerDeps): NodeListener {
     res.writeHead(200, headers);
     res.end(body);
     metrics.countRequest(lane.adapter, 200);
-    logRequest(logger, requestId, req.method ?? "", pathOf(req.url ?? ""), 200, startedMs);
+    logRequest(logger, requestId, req.method ?? "", lane.path, 200, startedMs);
   }
 
   async function call(req: IncomingMessage, res: ServerResponse, lane: Lane, text: string, raw: Buffer | undefined, startedMs: number): Promise<void> {
@@ -116,8 +118,8 @@ function laneTable(ctx: Context, config: HttpConfig): Map<string, Lane> {
   for (const e of procedureEntries()) {
     const invoke = invoker(e.path);
     if (invoke === undefined) continue;
-    if (INLINE_PROCEDURES.has(e.path)) lanes.set(`/v1/${e.path}`, { adapter: "v1", procedure: e.path, invoke, maxBodyBytes: Math.min(INLINE_MAX_BODY_CHARS, config.maxBodyBytes) });
-    if (e.type === "query") lanes.set(`/trpc/${e.path}`, { adapter: "trpc", procedure: e.path, invoke, maxBodyBytes: Math.min(TRPC_LANE_MAX_BODY_BYTES, config.maxBodyBytes) });
+    if (INLINE_PROCEDURES.has(e.path)) lanes.set(`/v1/${e.path}`, { adapter: "v1", procedure: e.path, path: `/v1/${e.path}`, invoke, maxBodyBytes: Math.min(INLINE_MAX_BODY_CHARS, config.maxBodyBytes) });
+    if (e.type === "query") lanes.set(`/trpc/${e.path}`, { adapter: "trpc", procedure: e.path, path: `/trpc/${e.path}`, invoke, maxBodyBytes: Math.min(TRPC_LANE_MAX_BODY_BYTES, config.maxBodyBytes) });
   }
   return lanes;
 }
@@ -125,11 +127,6 @@ function laneTable(ctx: Context, config: HttpConfig): Map<string, Lane> {
 function header(req: IncomingMessage, name: string): string | undefined {
   const v = req.headers[name];
   return Array.isArray(v) ? v.join(", ") : v;
-}
-
-function pathOf(url: string): string {
-  const q = url.indexOf("?");
-  return q < 0 ? url : url.slice(0, q);
 }
 
 /** The declared body length of a request with no transfer coding, else undefined. */
@@ -187,7 +184,7 @@ function failed(res: ServerResponse, e: unknown, logger: Logger): void {
     res.destroy();
     return;
   }
-  const body = JSON.stringify(problemOf(500, { code: "internal", message: "internal error: the request was not completed (logged on the server)" }));
+  const body = JSON.stringify(problemOf(500, { code: "internal", message: INTERNAL_ERROR_MESSAGE }));
   res.writeHead(500, { "content-type": PROBLEM_TYPE, "content-length": String(Buffer.byteLength(body)) });
   res.end(body);
 }

@@ -28,6 +28,9 @@ const titleOf = (code: string) => {
 
 export const PROBLEM_TYPE = "application/problem+json";
 
+/** What a client is told of an internal error (the error itself is only logged). */
+export const INTERNAL_ERROR_MESSAGE = "internal error: the request was not completed (logged on the server)";
+
 /** An RFC 9457 problem body; never carries a stack or an internal message. */
 export function problemOf(status: number, body: ErrorBody | { code: ProblemCode; message: string; issues?: ErrorBody["issues"] }, extra: { instance?: string | undefined; requestId?: string | undefined } = {}): Problem {
   return {
