@@ -123,7 +123,9 @@ async function batch(rest: string[]): Promise<number> {
   const rulesDir = process.env.BACKSTOP_RULES_DIR;
   const ruleSets = loadRuleSetStore(rulesDir);
   for (const r of ruleSets.refused()) process.stderr.write(`backstop batch: rule set file ${r.file} refused: ${r.problems.map((p) => p.message).join("; ")}\n`);
-  const input = createReadStream(values.in, { highWaterMark: 256 * 1024 }); // read ahead a chunk while the main thread answers one
+  // reads of 1 MiB (four chunks): a read then rarely keeps a chunk waiting (at 256 KiB, one read per
+  // chunk, the main thread waited 0.4-0.7 s for input in a 3.5 s run of 300,000 lines; at 1 MiB 0.06 s)
+  const input = createReadStream(values.in, { highWaterMark: 1024 * 1024 });
   await new Promise<void>((resolve, reject) => {
     input.once("open", () => resolve());
     input.once("error", reject);

@@ -50,12 +50,27 @@ export function lineCountOf(bytes: Uint8Array): number {
 }
 
 /**
- * The input cut into chunks of whole lines of about `targetBytes` each (a chunk ends just after a
- * `\n`, so a `\r\n` is never split and a multi-byte character never is; the last chunk takes what is
- * left). Only the bytes are looked at here: decoding, parsing and answering happen where the chunk
- * is answered (a worker thread, or this thread).
+ * Where a chunk that must hold at least the bytes before `from` may end in `bytes`: just after the
+ * first line break that ends at or after `from` (a `\n`, or a `\r` whose next byte is known not to
+ * be `\n`, so a `\r\n` is never split), or -1 when no break can be placed yet.
+ */
+export function cutAfter(bytes: Uint8Array, from: number): number {
+  const lf = bytes.indexOf(LF, from);
+  const cr = (lf < 0 ? bytes : bytes.subarray(0, lf)).indexOf(CR, from);
+  if (cr < 0) return lf < 0 ? -1 : lf + 1;
+  if (cr + 1 >= bytes.length) return -1; // the byte after the \r has not been read yet
+  return bytes[cr + 1] === LF ? cr + 2 : cr + 1;
+}
+
+/**
+ * The input cut into chunks of whole lines of at least `targetBytes` each (a chunk ends just after
+ * a line break, so a `\r\n` is never split and a multi-byte character never is; the last chunk
+ * takes what is left). A large piece of input gives several chunks, so the reader may read far
+ * ahead; a chunk is a view into the piece it came from. Only the bytes are looked at here:
+ * decoding, parsing and answering happen where the chunk is answered (a worker thread, or this thread).
  */
 export async function* jsonlChunks(input: Readable, targetBytes: number): AsyncGenerator<JsonlChunk> {
+  const target = Math.max(1, targetBytes);
   let pending: Buffer[] = [];
   let pendingBytes = 0;
   let firstLine = 1;
@@ -68,15 +83,15 @@ export async function* jsonlChunks(input: Readable, targetBytes: number): AsyncG
   for await (const piece of input as AsyncIterable<Buffer>) {
     pending.push(piece);
     pendingBytes += piece.length;
-    if (pendingBytes < targetBytes) continue;
-    const end = piece.lastIndexOf(LF);
-    if (end < 0) continue; // no line ends in this piece: read on
-    const all = pending.length === 1 ? piece : Buffer.concat(pending, pendingBytes);
-    const split = all.length - (piece.length - end - 1);
-    const rest = all.subarray(split);
-    yield cut(all.subarray(0, split));
-    pending = rest.length > 0 ? [Buffer.from(rest)] : [];
-    pendingBytes = rest.length;
+    if (pendingBytes < target) continue;
+    let all = pending.length === 1 ? piece : Buffer.concat(pending, pendingBytes);
+    for (let end = cutAfter(all, target - 1); end > 0; end = cutAfter(all, target - 1)) {
+      yield cut(all.subarray(0, end));
+      all = all.subarray(end);
+      if (all.length < target) break;
+    }
+    pending = all.length > 0 ? [all] : [];
+    pendingBytes = all.length;
   }
   if (pendingBytes > 0) yield cut(pending.length === 1 ? (pending[0] as Buffer) : Buffer.concat(pending, pendingBytes));
 }
@@ -113,9 +128,10 @@ export class Utf8Sink {
 /**
  * Answer a chunk of JSON Lines: each line of the shard through `processLine`, written out with
  * `line` (the output format), all of it encoded as UTF-8 in one buffer. The same function runs in
- * the worker threads and in process, so both write the same bytes.
+ * the worker threads and in process, so both write the same bytes. With `yieldEvery` > 0 it lets
+ * the event loop run (setImmediate) after every that many records.
  */
-export async function answerJsonlChunk(text: string, firstLine: number, line: (o: Awaited<ReturnType<typeof processLine>>) => string, invoker: (path: string) => Invoke | undefined, shard: Shard | undefined): Promise<ChunkAnswer> {
+export async function answerJsonlChunk(text: string, firstLine: number, line: (o: Awaited<ReturnType<typeof processLine>>) => string, invoker: (path: string) => Invoke | undefined, shard: Shard | undefined, yieldEvery = 0): Promise<ChunkAnswer> {
   const raws = linesOf(text);
   // about four output bytes per input byte for the common answer; the sink grows if need be
   const out = new Utf8Sink(text.length * 5);
@@ -128,6 +144,7 @@ export async function answerJsonlChunk(text: string, firstLine: number, line: (o
     if (o.ok) ok += 1;
     lines += 1;
     out.write(line(o));
+    if (yieldEvery > 0 && lines % yieldEvery === 0) await new Promise<void>((r) => setImmediate(r));
   }
   return { bytes: out.bytes(), lines, ok, failed: lines - ok };
 }

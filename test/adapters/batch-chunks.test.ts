@@ -5,7 +5,7 @@ import { join } from "node:path";
 import { createInterface } from "node:readline";
 import { PassThrough, Readable } from "node:stream";
 import { describe, expect, it } from "vitest";
-import { jsonlChunks, lineCountOf, linesOf } from "../../adapters/batch/jsonl-chunk.js";
+import { cutAfter, jsonlChunks, lineCountOf, linesOf } from "../../adapters/batch/jsonl-chunk.js";
 import { runBatch } from "../../adapters/batch/run-batch.js";
 import { type StreamBatchOptions, streamBatch } from "../../adapters/batch/stream-batch.js";
 import { projectRoot } from "../../adapters/project-root.js";
@@ -71,6 +71,7 @@ describe("JSON Lines chunks break lines as readline does", () => {
       [64 * 1024, 4096],
       [333, 2000],
       [7, 10_000],
+      [1024 * 1024, 3000], // one piece, many chunks
     ] as const) {
       const got: string[] = [];
       let next = 1;
@@ -82,6 +83,45 @@ describe("JSON Lines chunks break lines as readline does", () => {
         next += c.lines;
       }
       expect(got).toEqual(want);
+    }
+  });
+});
+
+describe("where a chunk is cut", () => {
+  // Oracle: readline's breaks (\r\n, \n, or a lone \r); a cut is never inside a \r\n and never before the wanted size.
+  it.each([
+    ["ab\ncd\n", 0, 3],
+    ["ab\ncd\n", 3, 6],
+    ["ab\r\ncd", 0, 4],
+    ["ab\rcd", 0, 3],
+    ["ab\r", 0, -1], // the next byte decides between \r and \r\n
+    ["ab\r\n", 2, 4],
+    ["ab\r\n", 3, 4],
+    ["abcd", 0, -1],
+    ["a\rb\nc", 2, 4],
+  ] as const)("%j from %i -> %i", (text, from, want) => {
+    expect(cutAfter(Buffer.from(text), from)).toBe(want);
+  });
+
+  it("chunks stay near the target size with any kind of break (lone \r breaks too: no chunk holds the whole input)", async () => {
+    const lines = Array.from({ length: 3000 }, (_, i) => JSON.stringify({ id: i, procedure: "operatingPoint", input: good(i / 1000) }));
+    const longest = Math.max(...lines.map((l) => l.length));
+    for (const eol of ["\n", "\r\n", "\r"]) {
+      const bytes = Buffer.from(lines.join(eol) + eol);
+      const target = 20_000;
+      const sizes: number[] = [];
+      let next = 1;
+      for await (const c of jsonlChunks(piecesOf(bytes, 64 * 1024), target)) {
+        expect(c.firstLine).toBe(next);
+        next += c.lines;
+        sizes.push(c.bytes.length);
+      }
+      expect(next - 1).toBe(lines.length);
+      expect(sizes.length).toBeGreaterThan(bytes.length / (target + longest + 2) - 1);
+      for (const size of sizes.slice(0, -1)) {
+        expect(size).toBeGreaterThanOrEqual(target);
+        expect(size).toBeLessThanOrEqual(target + longest + 2);
+      }
     }
   });
 });
