@@ -7,8 +7,9 @@
  * Parts: HTTP overhead (/v1 and /trpc against a bare Hono and a bare node:http JSON echo,
  * autocannon from a second process, 32 connections), the heavy review over HTTP against the same
  * reviews in process on one core, bulk /v1 of 1,000 operating points, batch of a generated JSON
- * Lines file against a parse-and-re-serialise pass-through (with peak RSS of the child), start-up
- * to /readyz, and the existing analysis benches (AC bridge vs ngspice, review, rule evaluation).
+ * Lines file against a parse-and-re-serialise pass-through (alternating runs, the best of each;
+ * with peak RSS of the child), start-up to /readyz, and the existing analysis benches (AC bridge
+ * vs ngspice, review, rule evaluation).
  */
 import { type ChildProcess, execFileSync, spawn } from "node:child_process";
 import { createWriteStream, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
@@ -246,20 +247,37 @@ async function batch(): Promise<void> {
     }
     await new Promise<void>((r) => out.end(() => r()));
     const rssOf = (file: string) => Math.max(...readFileSync(file, "utf8").trim().split("\n").map((l) => (JSON.parse(l) as { maxRssKB: number }).maxRssKB)) / 1024;
-    log(`batch: pass-through of ${lines} lines`);
-    const passRss = join(dir, "pass.rss");
-    const pass = await runNode(["--import", RSS_PRELOAD, dist("bench", "lib", "batch-passthrough.js"), input, join(dir, "pass.jsonl")], { BENCH_RSS_FILE: passRss });
-    if (pass.code !== 0) throw new Error(`pass-through failed: ${pass.stderr}`);
-    log(`batch: backstop batch of ${lines} lines`);
-    const batchRss = join(dir, "batch.rss");
-    const run = await runNode(["--import", RSS_PRELOAD, join(root, "bin", "backstop.mjs"), "batch", "--in", input, "--out", join(dir, "out.jsonl")], { BENCH_RSS_FILE: batchRss, BACKSTOP_PROGRESS_MS: "60000" });
-    if (run.code !== 0) throw new Error(`batch failed (${run.code}): ${run.stderr}`);
-    const passRate = (lines * 1000) / pass.wallMs;
-    const batchRate = (lines * 1000) / run.wallMs;
-    const peak = rssOf(batchRss);
-    details.batch = { lines, passThroughMs: pass.wallMs, batchMs: run.wallMs, passThroughRssMB: rssOf(passRss), batchRssMB: peak, batchStderr: run.stderr.trim().split("\n").at(-1) };
-    rows.push({ part: "batch", metric: `pass-through (parse + re-serialise), ${lines.toLocaleString("en-US")} lines`, value: Math.round(passRate), unit: "lines/s" });
-    rows.push({ part: "batch", metric: "backstop batch, default workers", value: Math.round(batchRate), unit: "lines/s", baseline: "pass-through", ratio: round(batchRate / passRate), target: "≥ 0.4", pass: batchRate / passRate >= 0.4 });
+    // Alternating runs (pass-through, batch, pass-through, batch, ...), each side's best: the
+    // machine is shared, and one outside burst during one run would otherwise set the ratio.
+    const rounds = quick ? 1 : 2;
+    const passMs: number[] = [];
+    const batchMs: number[] = [];
+    const passRss: number[] = [];
+    const batchRss: number[] = [];
+    let batchStderr = "";
+    for (let r = 0; r < rounds; r += 1) {
+      log(`batch: pass-through of ${lines} lines (round ${r + 1} of ${rounds})`);
+      const passRssFile = join(dir, `pass-${r}.rss`);
+      const pass = await runNode(["--import", RSS_PRELOAD, dist("bench", "lib", "batch-passthrough.js"), input, join(dir, `pass-${r}.jsonl`)], { BENCH_RSS_FILE: passRssFile });
+      if (pass.code !== 0) throw new Error(`pass-through failed: ${pass.stderr}`);
+      rmSync(join(dir, `pass-${r}.jsonl`), { force: true });
+      log(`batch: backstop batch of ${lines} lines (round ${r + 1} of ${rounds})`);
+      const batchRssFile = join(dir, `batch-${r}.rss`);
+      const run = await runNode(["--import", RSS_PRELOAD, join(root, "bin", "backstop.mjs"), "batch", "--in", input, "--out", join(dir, `out-${r}.jsonl`)], { BENCH_RSS_FILE: batchRssFile, BACKSTOP_PROGRESS_MS: "60000" });
+      if (run.code !== 0) throw new Error(`batch failed (${run.code}): ${run.stderr}`);
+      rmSync(join(dir, `out-${r}.jsonl`), { force: true });
+      passMs.push(pass.wallMs);
+      batchMs.push(run.wallMs);
+      passRss.push(rssOf(passRssFile));
+      batchRss.push(rssOf(batchRssFile));
+      batchStderr = run.stderr.trim().split("\n").at(-1) ?? "";
+    }
+    const passRate = (lines * 1000) / Math.min(...passMs);
+    const batchRate = (lines * 1000) / Math.min(...batchMs);
+    const peak = Math.max(...batchRss);
+    details.batch = { lines, rounds, passThroughMs: passMs, batchMs, passThroughRssMB: passRss, batchRssMB: batchRss, batchStderr };
+    rows.push({ part: "batch", metric: `pass-through (parse + re-serialise), ${lines.toLocaleString("en-US")} lines, best of ${rounds}`, value: Math.round(passRate), unit: "lines/s" });
+    rows.push({ part: "batch", metric: `backstop batch, default workers, best of ${rounds}`, value: Math.round(batchRate), unit: "lines/s", baseline: "pass-through", ratio: round(batchRate / passRate), target: "≥ 0.4", pass: batchRate / passRate >= 0.4 });
     rows.push({ part: "batch", metric: "backstop batch peak RSS (process, all threads)", value: round(peak, 0), unit: "MB", target: "≤ 300", pass: peak <= 300 });
   } finally {
     rmSync(dir, { recursive: true, force: true });
