@@ -1,5 +1,6 @@
-import { mkdirSync, writeFileSync } from "node:fs";
+import { mkdirSync } from "node:fs";
 import { join } from "node:path";
+import { type FileOps, writeFileAtomic } from "../atomic-file.js";
 import { reviewOutput } from "../../contracts/review.js";
 import { slug } from "./format.js";
 import { type ReviewReport, renderReviewReport } from "./review-report.js";
@@ -19,29 +20,30 @@ export interface WrittenReport {
  * as `<name>-charts/*.svg` (linked from the Markdown). `result` is a review result as a procedure
  * returned it; it is checked against the output contract first (a mismatch is a bug, so it throws).
  */
-export function writeReviewReport(dir: string, name: string, result: unknown, id?: string | number): WrittenReport {
+export function writeReviewReport(dir: string, name: string, result: unknown, id?: string | number, ops?: FileOps): WrittenReport {
   const base = slug(name);
-  return writeReport(dir, base, renderReviewReport(reviewOutput.parse(result), { ...(id === undefined ? {} : { id }), svgDir: `${base}-charts` }));
+  return writeReport(dir, base, renderReviewReport(reviewOutput.parse(result), { ...(id === undefined ? {} : { id }), svgDir: `${base}-charts` }), ops);
 }
 
 /** The same for a bridgeAc result: `<name>.html`, `<name>.md`, `<name>-charts/*.svg`. */
-export function writeBridgeAcReport(dir: string, name: string, result: unknown, id?: string | number): WrittenReport {
+export function writeBridgeAcReport(dir: string, name: string, result: unknown, id?: string | number, ops?: FileOps): WrittenReport {
   const base = slug(name);
-  return writeReport(dir, base, renderBridgeAcReport(bridgeAcOutput.parse(result), { ...(id === undefined ? {} : { id }), svgDir: `${base}-charts` }));
+  return writeReport(dir, base, renderBridgeAcReport(bridgeAcOutput.parse(result), { ...(id === undefined ? {} : { id }), svgDir: `${base}-charts` }), ops);
 }
 
-function writeReport(dir: string, base: string, report: ReviewReport): WrittenReport {
+/** Each file written whole under its name (writeFileAtomic): a batch killed mid-report leaves no torn file behind a final name. */
+function writeReport(dir: string, base: string, report: ReviewReport, ops?: FileOps): WrittenReport {
   const svgDir = join(dir, `${base}-charts`);
   mkdirSync(svgDir, { recursive: true });
   let bytes = 0;
   for (const s of report.svgs) {
-    writeFileSync(join(svgDir, s.file), s.svg);
+    writeFileAtomic(join(svgDir, s.file), s.svg, ops);
     bytes += Buffer.byteLength(s.svg);
   }
   const html = join(dir, `${base}.html`);
   const markdown = join(dir, `${base}.md`);
-  writeFileSync(html, report.html);
-  writeFileSync(markdown, report.markdown);
+  writeFileAtomic(html, report.html, ops);
+  writeFileAtomic(markdown, report.markdown, ops);
   bytes += Buffer.byteLength(report.html) + Buffer.byteLength(report.markdown);
   return { html, markdown, svgDir, svgCount: report.svgs.length, bytes };
 }

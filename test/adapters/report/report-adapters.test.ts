@@ -1,12 +1,14 @@
-import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, readdirSync, readFileSync, renameSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { main } from "../../../adapters/batch/cli.js";
 import { projectRoot } from "../../../adapters/project-root.js";
-import { reportNamer } from "../../../adapters/report/write-report.js";
+import { type FileOps, writeFileAtomic } from "../../../adapters/atomic-file.js";
+import { reportNamer, writeReviewReport } from "../../../adapters/report/write-report.js";
+import { procedureInvoker } from "../../../api/procedure-registry.js";
 import { reviewOutput } from "../../../contracts/review.js";
-import { testApp } from "../../helpers/app.js";
+import { demoContext, testApp } from "../../helpers/app.js";
 
 const example = JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "review.json"), "utf8")) as { id: string; procedure: string; input: Record<string, unknown> };
 // One candidate keeps these adapter checks quick; the renderer's own tests use the whole example.
@@ -92,6 +94,45 @@ describe("review reports in batch (--report-dir)", () => {
     const md = readFileSync(join(reports, "van-12v.md"), "utf8");
     for (const link of md.matchAll(/\]\(([^)]+\.svg)\)/g)) expect(existsSync(join(reports, link[1] ?? ""))).toBe(true);
     expect(readFileSync(join(reports, "van-12v.html"), "utf8")).toContain("Design review van/12v");
+  });
+
+  it("writes each file whole under its name: the data goes to a temp file, renamed over the name", async () => {
+    // A batch killed mid-report must leave no torn file under a final name (the batch output's rule,
+    // test/reliability/faults.test.ts): watch the order of the file operations.
+    const dir = mkdtempSync(join(tmpdir(), "backstop-atomic-report-"));
+    const calls: string[] = [];
+    const ops: FileOps = {
+      writeFileSync: (p, d) => {
+        calls.push(`write ${p}`);
+        writeFileSync(p, d);
+      },
+      renameSync: (a, b) => {
+        calls.push(`rename ${a} -> ${b}`);
+        renameSync(a, b);
+      },
+      rmSync: (p, o) => {
+        calls.push(`rm ${p}`);
+        rmSync(p, o);
+      },
+    };
+    const w = writeReviewReport(dir, "atomic", await procedureInvoker(demoContext())("review")?.(input), "atomic", ops);
+    const finals = [w.html, w.markdown, ...readdirSync(w.svgDir).map((f) => join(w.svgDir, f))];
+    expect(finals).toHaveLength(2 + w.svgCount);
+    for (const f of finals) {
+      expect(calls).not.toContain(`write ${f}`);
+      expect(calls).toContain(`write ${f}.partial-${process.pid}`);
+      expect(calls).toContain(`rename ${f}.partial-${process.pid} -> ${f}`);
+    }
+    expect(readdirSync(dir).filter((f) => f.includes(".partial-"))).toEqual([]);
+    expect(readFileSync(w.html, "utf8")).toMatch(/<\/html>\s*$/);
+  });
+
+  it("a write that fails removes its temp file and throws", () => {
+    const dir = mkdtempSync(join(tmpdir(), "backstop-atomic-fail-"));
+    const target = join(dir, "x.md");
+    const failing: FileOps = { writeFileSync, rmSync, renameSync: () => { throw new Error("disk gone"); } };
+    expect(() => writeFileAtomic(target, "text", failing)).toThrow("disk gone");
+    expect(readdirSync(dir)).toEqual([]);
   });
 
   it("names reports by id, by line without one, and never overwrites a repeated id", () => {
