@@ -11,10 +11,15 @@ import { startBuiltServer } from "../helpers/built-server.js";
  * Soak (npm run soak): the built server on loopback under 60 s of mixed procedures at 64
  * connections from this process (the server is its own process), with 100 stalled connections
  * opened on the way. Zero errors and zero non-2xx; the resident memory after warm-up grows by at
- * most 10 %; every stalled connection is cut by the header deadline.
+ * most 10 % (medians of the first and last thirds of the samples); every stalled connection is cut by the header deadline.
  */
 const SECONDS = Number(process.env.BACKSTOP_SOAK_SECONDS ?? 60);
-const WARMUP_S = Math.min(15, SECONDS / 4);
+// The cluster's resident memory (two HTTP processes, each with compute threads, each thread its own
+// heap) climbs for the first 10-25 s, then saws by about +-8 % around a plateau (a 180 s run: 750-890
+// MB from 25 s to the end). So: a 25 s warm-up, and the median of the last third of the samples after
+// it against the median of the first third (three samples each, as before, swung 11-12 % with no
+// growth in the trend and failed runs of both this and the previous build).
+const WARMUP_S = Math.min(25, SECONDS * 0.4);
 const example = (name: string) => JSON.stringify((JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", `${name}.json`), "utf8")) as { input: unknown }).input);
 const op = (k: number) => ({ stage: { kind: "catalog-part", partId: ["demo-schottky-10a-60v", "demo-pfet-40v-12mohm", "demo-ideal-diode-60v-3mohm"][k % 3] }, supplyV: 12 + (k % 5), load: { kind: "constant-current", currentA: 0.5 + (k % 9) * 0.5 }, ambientC: -40 + (k % 12) * 10 });
 const json = { "content-type": "application/json" };
@@ -88,11 +93,15 @@ describe("soak: mixed load on the built server", () => {
     expect(result.errors).toBe(0);
     expect(result.timeouts).toBe(0);
     expect(result.non2xx).toBe(0);
-    // memory: mean of the last three samples against the mean of the first three after warm-up
+    // memory: median of the last third of the samples after warm-up against the median of the first third
     const after = samples.filter((s) => s.t >= WARMUP_S);
-    expect(after.length).toBeGreaterThanOrEqual(6);
-    const mean = (xs: { rss: number }[]) => xs.reduce((a, s) => a + s.rss, 0) / xs.length;
-    const growth = mean(after.slice(-3)) / mean(after.slice(0, 3)) - 1;
+    expect(after.length).toBeGreaterThanOrEqual(9);
+    const third = Math.floor(after.length / 3);
+    const median = (xs: { rss: number }[]) => {
+      const v = xs.map((s) => s.rss).sort((a, b) => a - b);
+      return v.length % 2 === 1 ? (v[(v.length - 1) / 2] as number) : ((v[v.length / 2 - 1] as number) + (v[v.length / 2] as number)) / 2;
+    };
+    const growth = median(after.slice(-third)) / median(after.slice(0, third)) - 1;
     console.log(`soak: resident memory growth after warm-up ${(growth * 100).toFixed(1)} %`);
     expect(growth).toBeLessThanOrEqual(0.1);
     expect(cut).toHaveLength(100);
