@@ -84,6 +84,8 @@ export async function* jsonlChunks(input: Readable, targetBytes: number): AsyncG
     pending.push(piece);
     pendingBytes += piece.length;
     if (pendingBytes < target) continue;
+    // no break in this piece: nothing new to cut at (and no copy of what is pending for each piece of a long line)
+    if (pending.length > 1 && piece.indexOf(LF) < 0 && piece.indexOf(CR) < 0) continue;
     let all = pending.length === 1 ? piece : Buffer.concat(pending, pendingBytes);
     for (let end = cutAfter(all, target - 1); end > 0; end = cutAfter(all, target - 1)) {
       yield cut(all.subarray(0, end));

@@ -103,6 +103,21 @@ describe("where a chunk is cut", () => {
     expect(cutAfter(Buffer.from(text), from)).toBe(want);
   });
 
+  it("a line longer than many pieces comes whole in one chunk, the lines around it in chunks of their own", async () => {
+    const long = `{"id":"long","pad":"${"x".repeat(3_000_000)}"}`;
+    const text = `a\nb\r\n${long}\r\nc\nd\n`;
+    const got: string[] = [];
+    let next = 1;
+    for await (const c of jsonlChunks(piecesOf(Buffer.from(text), 64 * 1024), 2)) {
+      expect(c.firstLine).toBe(next);
+      const lines = linesOf(Buffer.from(c.bytes).toString("utf8"));
+      expect(lines).toHaveLength(c.lines);
+      next += c.lines;
+      got.push(...lines);
+    }
+    expect(got).toEqual(["a", "b", long, "c", "d"]);
+  });
+
   it("chunks stay near the target size with any kind of break (lone \r breaks too: no chunk holds the whole input)", async () => {
     const lines = Array.from({ length: 3000 }, (_, i) => JSON.stringify({ id: i, procedure: "operatingPoint", input: good(i / 1000) }));
     const longest = Math.max(...lines.map((l) => l.length));
