@@ -23,15 +23,21 @@ export interface BatchCounts {
   failed: number;
 }
 
-const MAX_LINE_CHARS = 1_000_000;
+/** The longest input line answered, in UTF-16 units; a longer one is rejected (overlongLine). */
+export const MAX_LINE_CHARS = 1_000_000;
 export { procedureInvoker };
+
+/** The record for a line longer than MAX_LINE_CHARS (it is not parsed: no id). */
+export function overlongLine(lineNo: number): BatchOutputLine {
+  return { id: null, line: lineNo, ok: false, error: { code: "malformed-line", message: `line longer than ${MAX_LINE_CHARS} characters`, issues: [] } };
+}
 
 /** Process one raw line into exactly one output record; never throws. */
 export async function processLine(raw: string, lineNo: number, invoker: (path: string) => Invoke | undefined): Promise<BatchOutputLine> {
   let parsedJson: unknown;
   const fail = (id: string | number | null, error: ErrorBody): BatchOutputLine => ({ id, line: lineNo, ok: false, error });
   if (raw.trim() === "") return fail(null, { code: "malformed-line", message: "empty line", issues: [] });
-  if (raw.length > MAX_LINE_CHARS) return fail(null, { code: "malformed-line", message: `line longer than ${MAX_LINE_CHARS} characters`, issues: [] });
+  if (raw.length > MAX_LINE_CHARS) return overlongLine(lineNo);
   try {
     parsedJson = JSON.parse(raw);
   } catch (e) {

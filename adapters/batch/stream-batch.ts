@@ -7,7 +7,7 @@ import type { ComputePool, FormattedLine, LinesFormat } from "../compute/pool.js
 import { utf8Join } from "../utf8-join.js";
 import { csvRowToLine, type Format, outputFormatter } from "./formats.js";
 import { answerJsonlChunk, type ChunkAnswer, inShard, type JsonlChunk, jsonlChunks, linesOf, type Shard } from "./jsonl-chunk.js";
-import { type BatchCounts, type BatchOutputLine, processLine } from "./run-batch.js";
+import { type BatchCounts, type BatchOutputLine, overlongLine, processLine } from "./run-batch.js";
 
 export type { Shard } from "./jsonl-chunk.js";
 
@@ -26,6 +26,8 @@ export interface StreamBatchOptions {
   readonly chunkSize?: number;
   /** input bytes per chunk (JSON Lines input without a row hook) */
   readonly chunkBytes?: number;
+  /** the longest line held in memory, bytes (JSON Lines input without a row hook; default MAX_LINE_BYTES) */
+  readonly maxLineBytes?: number;
   /** called for each answered record, in input order, with the procedure its line named (if it parsed that far) */
   readonly onRow?: RowHook | undefined;
   /** ask every review line for its chart sweeps (`curves: true`) and every bridgeAc line for its period (`waveform: true`), for reports */
@@ -258,9 +260,13 @@ async function streamJsonlChunks(o: StreamBatchOptions): Promise<BatchCounts> {
     if (a.bytes.length > 0) await o.write(a.bytes);
     o.onProgress?.(counts);
   };
-  for await (const c of jsonlChunks(o.input, o.chunkBytes ?? 256 * 1024)) {
+  for await (const c of jsonlChunks(o.input, o.chunkBytes ?? 256 * 1024, o.maxLineBytes)) {
     let answer: Promise<ChunkAnswer>;
-    if (pool !== undefined && inPool < depth * threads) {
+    if (c.overlongBytes !== undefined) {
+      // a line too long to hold: its record is written here (its bytes were not kept)
+      const inRun = inShard(c.firstLine, o.shard);
+      answer = Promise.resolve({ bytes: inRun ? Buffer.from(fmt.line(overlongLine(c.firstLine)), "utf8") : new Uint8Array(0), lines: inRun ? 1 : 0, ok: 0, failed: inRun ? 1 : 0 });
+    } else if (pool !== undefined && inPool < depth * threads) {
       inPool += 1;
       answer = chunkInPool(pool, c, o, fmt);
       answer.then(

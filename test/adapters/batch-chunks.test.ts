@@ -4,8 +4,9 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { createInterface } from "node:readline";
 import { PassThrough, Readable } from "node:stream";
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { cutAfter, jsonlChunks, lineCountOf, linesOf } from "../../adapters/batch/jsonl-chunk.js";
+import { cutAfter, jsonlChunks, lineCountOf, linesOf, MAX_LINE_BYTES } from "../../adapters/batch/jsonl-chunk.js";
 import { runBatch } from "../../adapters/batch/run-batch.js";
 import { type StreamBatchOptions, streamBatch } from "../../adapters/batch/stream-batch.js";
 import { projectRoot } from "../../adapters/project-root.js";
@@ -103,8 +104,8 @@ describe("where a chunk is cut", () => {
     expect(cutAfter(Buffer.from(text), from)).toBe(want);
   });
 
-  it("a line longer than many pieces comes whole in one chunk, the lines around it in chunks of their own", async () => {
-    const long = `{"id":"long","pad":"${"x".repeat(3_000_000)}"}`;
+  it("a line longer than many pieces (but not than MAX_LINE_BYTES) comes whole in one chunk, the lines around it in chunks of their own", async () => {
+    const long = `{"id":"long","pad":"${"x".repeat(2_000_000)}"}`; // under MAX_LINE_BYTES
     const text = `a\nb\r\n${long}\r\nc\nd\n`;
     const got: string[] = [];
     let next = 1;
@@ -116,6 +117,74 @@ describe("where a chunk is cut", () => {
       got.push(...lines);
     }
     expect(got).toEqual(["a", "b", long, "c", "d"]);
+  });
+
+  it("lines over the byte cap come as chunks of their own without bytes; every other line as readline reads it (property, fast-check)", async () => {
+    // Oracle: node:readline's lines; a line whose bytes (break not counted) exceed the cap is
+    // expected as one overlong chunk whose size counts its break.
+    const content = fc.array(fc.constantFrom("a", "b", " ", "{", "é", "€", "𝄞"), { maxLength: 120 }).map((cs) => cs.join(""));
+    const brk = fc.constantFrom("\n", "\r\n", "\r");
+    const input = fc.record({
+      lines: fc.array(fc.tuple(content, brk), { maxLength: 40 }),
+      last: fc.option(content, { nil: undefined }),
+      piece: fc.integer({ min: 1, max: 400 }),
+      target: fc.integer({ min: 1, max: 200 }),
+      extraCap: fc.integer({ min: 0, max: 150 }),
+    });
+    await fc.assert(
+      fc.asyncProperty(input, async ({ lines, last, piece, target, extraCap }) => {
+        const text = lines.map(([c, b]) => c + b).join("") + (last ?? "");
+        if (text === "") return;
+        const bytes = Buffer.from(text, "utf8");
+        const cap = target + extraCap;
+        // each line's break as the text has it (a generated "\r" then "\n" reads as one \r\n)
+        let at = 0;
+        const want = (await readlineLines(bytes, 1)).map((l) => {
+          at += l.length;
+          const b = text.startsWith("\r\n", at) ? 2 : text[at] === "\r" || text[at] === "\n" ? 1 : 0;
+          at += b;
+          const n = Buffer.byteLength(l, "utf8");
+          return n > cap ? { overlong: n + b } : { line: l };
+        });
+        const got: ({ overlong: number } | { line: string })[] = [];
+        let next = 1;
+        for await (const c of jsonlChunks(piecesOf(bytes, piece), target, cap)) {
+          expect(c.firstLine).toBe(next);
+          next += c.lines;
+          if (c.overlongBytes !== undefined) {
+            expect([c.lines, c.bytes.length]).toEqual([1, 0]);
+            got.push({ overlong: c.overlongBytes });
+          } else {
+            const ls = linesOf(Buffer.from(c.bytes).toString("utf8"));
+            expect(ls).toHaveLength(c.lines);
+            for (const l of ls) got.push({ line: l });
+          }
+        }
+        expect(got).toEqual(want);
+      }),
+      { numRuns: 400, seed: 20261202 },
+    );
+  });
+
+  it("a line past MAX_LINE_BYTES is answered as too long without being held; the lines around it as in the per-record path", async () => {
+    const around = (i: number) => JSON.stringify({ id: `r${i}`, procedure: "operatingPoint", input: good(1) });
+    const huge = `{"id":"huge","pad":"${"x".repeat(MAX_LINE_BYTES + 10)}"}`;
+    const text = `${around(1)}\n${huge}\r\n${around(2)}\n${huge}`;
+    const out = new PassThrough();
+    const parts: Buffer[] = [];
+    out.on("data", (c: Buffer) => parts.push(c));
+    await runBatch(piecesOf(Buffer.from(text), 1024 * 1024), out, demoContext());
+    const oracle = Buffer.concat(parts);
+    const chunked = await collect((write) => streamBatch({ input: piecesOf(Buffer.from(text), 1024 * 1024), inFormat: "jsonl", outFormat: "jsonl", write, ctx: demoContext() }));
+    expect(chunked.toString("utf8")).toBe(oracle.toString("utf8"));
+    const records = chunked.toString("utf8").trim().split("\n").map((l) => JSON.parse(l) as { line: number; ok: boolean; error?: { message: string } });
+    expect(records.map((r) => [r.line, r.ok])).toEqual([
+      [1, true],
+      [2, false],
+      [3, true],
+      [4, false],
+    ]);
+    expect(records[1]?.error?.message).toBe("line longer than 1000000 characters");
   });
 
   it("chunks stay near the target size with any kind of break (lone \r breaks too: no chunk holds the whole input)", async () => {
