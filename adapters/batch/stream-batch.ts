@@ -26,8 +26,6 @@ export interface StreamBatchOptions {
   readonly chunkSize?: number;
   /** input bytes per chunk (JSON Lines input without a row hook) */
   readonly chunkBytes?: number;
-  /** the longest line held in memory, bytes (JSON Lines input without a row hook; default MAX_LINE_BYTES) */
-  readonly maxLineBytes?: number;
   /** called for each answered record, in input order, with the procedure its line named (if it parsed that far) */
   readonly onRow?: RowHook | undefined;
   /** ask every review line for its chart sweeps (`curves: true`) and every bridgeAc line for its period (`waveform: true`), for reports */
@@ -260,7 +258,7 @@ async function streamJsonlChunks(o: StreamBatchOptions): Promise<BatchCounts> {
     if (a.bytes.length > 0) await o.write(a.bytes);
     o.onProgress?.(counts);
   };
-  for await (const c of jsonlChunks(o.input, o.chunkBytes ?? 256 * 1024, o.maxLineBytes)) {
+  for await (const c of jsonlChunks(o.input, o.chunkBytes ?? 256 * 1024)) {
     let answer: Promise<ChunkAnswer>;
     if (c.overlongBytes !== undefined) {
       // a line too long to hold: its record is written here (its bytes were not kept)
