@@ -64,7 +64,19 @@ export function procedureEntry(path: string): ProcedureEntry | undefined {
   return procedureEntries().find((e) => e.path === path);
 }
 
-export type Invoke = (input: unknown) => Promise<unknown>;
+/**
+ * A procedure called in process. `now` is the same call answered in this turn of the event loop
+ * where the procedure's input parser and resolver are synchronous (every procedure's today), or a
+ * promise where either is not; it throws where the call would reject. A batch answers a record
+ * with `now` and skips the two promises and microtask turns a call costs (about 1.3 us of 8 for
+ * an operating point).
+ */
+export interface Invoke {
+  (input: unknown): Promise<unknown>;
+  readonly now: (input: unknown) => unknown;
+}
+
+const isThenable = (v: unknown): v is PromiseLike<unknown> => typeof v === "object" && v !== null && typeof (v as { then?: unknown }).then === "function";
 
 /** Resolve a router path to a callable procedure of an in-process caller (the same router as /trpc). */
 export function procedureInvoker(ctx: Context): (path: string) => Invoke | undefined {
@@ -79,7 +91,8 @@ export function procedureInvoker(ctx: Context): (path: string) => Invoke | undef
       if (invoke === undefined) {
         let node: unknown = caller;
         for (const part of path.split(".")) node = (node as Record<string, unknown>)[part];
-        invoke = node as Invoke;
+        const call = node as (input: unknown) => Promise<unknown>;
+        invoke = Object.assign((input: unknown) => call(input), { now: call });
       }
       direct.set(path, invoke);
     }
@@ -116,21 +129,37 @@ export function directInvoke(path: string, ctx: Context): Invoke | undefined {
   const parse = getParseFn(def.inputs[0] as Parameters<typeof getParseFn>[0]);
   const resolver = def.resolver;
   const { type, meta } = def;
-  const run = async (raw: unknown): Promise<unknown> => {
-    let input: unknown;
+  // errors mapped as tRPC maps them: a parse failure is BAD_REQUEST with the parser's error as
+  // cause, a resolver's failure getTRPCErrorFromUnknown
+  const badInput = (cause: unknown) => new TRPCError({ code: "BAD_REQUEST", cause });
+  const resolve = (input: unknown, raw: unknown): unknown => {
+    let out: unknown;
     try {
-      input = await parse(raw);
-    } catch (cause) {
-      throw new TRPCError({ code: "BAD_REQUEST", cause });
-    }
-    try {
-      return await resolver({ ctx, input, path, type, meta, batchIndex: 0, getRawInput: async () => raw, signal: undefined });
+      out = resolver({ ctx, input, path, type, meta, batchIndex: 0, getRawInput: async () => raw, signal: undefined });
     } catch (cause) {
       throw getTRPCErrorFromUnknown(cause);
     }
+    return isThenable(out)
+      ? Promise.resolve(out).catch((cause: unknown) => {
+          throw getTRPCErrorFromUnknown(cause);
+        })
+      : out;
   };
-  if (ctx.observe === undefined) return run;
-  return async (raw) => {
+  const now = (raw: unknown): unknown => {
+    let input: unknown;
+    try {
+      input = parse(raw);
+    } catch (cause) {
+      throw badInput(cause);
+    }
+    if (!isThenable(input)) return resolve(input, raw);
+    return Promise.resolve(input).then((parsed) => resolve(parsed, raw), (cause: unknown) => {
+      throw badInput(cause);
+    });
+  };
+  const run = async (raw: unknown): Promise<unknown> => now(raw);
+  if (ctx.observe === undefined) return Object.assign(run, { now });
+  const observedRun = async (raw: unknown): Promise<unknown> => {
     const started = performance.now();
     try {
       const data = await run(raw);
@@ -141,6 +170,7 @@ export function directInvoke(path: string, ctx: Context): Invoke | undefined {
       throw e;
     }
   };
+  return Object.assign(observedRun, { now: observedRun });
 }
 
 /** The HTTP status a thrown procedure error maps to (the same mapping /trpc uses). */

@@ -11,7 +11,7 @@ import { formatOf } from "./formats.js";
 import { mergeShards } from "./merge.js";
 import type { BatchCounts } from "./run-batch.js";
 import { reportNamer, writeBridgeAcReport, writeReviewReport } from "../report/write-report.js";
-import { type RowHook, type Shard, streamBatch } from "./stream-batch.js";
+import { CHUNKS_PER_THREAD, type RowHook, type Shard, streamBatch } from "./stream-batch.js";
 
 const USAGE = `usage:
   backstop batch --in requests.jsonl|.csv --out results.jsonl|.csv [--procedure NAME] [--shard i/N | --shard N]
@@ -130,7 +130,7 @@ async function batch(rest: string[]): Promise<number> {
     input.once("open", () => resolve());
     input.once("error", reject);
   });
-  const pool: ComputePool | undefined = workers > 0 ? createComputePool({ threads: workers, catalogPath, rulesDir }) : undefined;
+  const pool: ComputePool | undefined = workers > 0 ? createComputePool({ threads: workers, catalogPath, rulesDir, tasksPerThread: CHUNKS_PER_THREAD }) : undefined;
   const p = progress(Number(process.env.BACKSTOP_PROGRESS_MS ?? 5000));
   let counts: BatchCounts = { lines: 0, ok: 0, failed: 0 };
   const reportDir = values["report-dir"];
@@ -145,7 +145,7 @@ async function batch(rest: string[]): Promise<number> {
     : undefined;
   try {
     await atomically(outPath, async (write) => {
-      counts = await streamBatch({ input, inFormat, outFormat, write, ctx: { catalog, ruleSets }, procedure: values.procedure, shard, pool, onProgress: (c) => p.tick(c), onRow, reviewCurves: reportDir !== undefined });
+      counts = await streamBatch({ input, inFormat, outFormat, write, ctx: { catalog, ruleSets }, procedure: values.procedure, shard, pool, onProgress: (c) => p.tick(c), onRow, reviewCurves: reportDir !== undefined, poolOnly: process.env.BACKSTOP_TEST_WORKER_FAULT !== undefined });
     });
   } finally {
     await pool?.close();

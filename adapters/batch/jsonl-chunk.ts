@@ -1,6 +1,6 @@
 import type { Readable } from "node:stream";
 import type { Invoke } from "../../api/procedure-registry.js";
-import { MAX_LINE_CHARS, processLine } from "./run-batch.js";
+import { MAX_LINE_CHARS, type processLine, processLineNow } from "./run-batch.js";
 
 /** A shard of the input: record n (1-based) belongs to shard (n - 1) mod count. */
 export interface Shard {
@@ -48,7 +48,8 @@ const CR = 0x0d;
 const BREAK = /\r?\n|\r(?!\n)/;
 
 export function linesOf(text: string): string[] {
-  const parts = text.split(BREAK);
+  // without a \r every break is a \n: a split on the character (about a third of the regex's time)
+  const parts = text.includes("\r") ? text.split(BREAK) : text.split("\n");
   if (parts[parts.length - 1] === "") parts.pop();
   return parts;
 }
@@ -233,7 +234,8 @@ export async function answerJsonlChunk(text: string, firstLine: number, line: (o
   for (let i = 0; i < raws.length; i += 1) {
     const lineNo = firstLine + i;
     if (!inShard(lineNo, shard)) continue;
-    const o = await processLine(raws[i] as string, lineNo, invoker);
+    const now = processLineNow(raws[i] as string, lineNo, invoker);
+    const o = now instanceof Promise ? await now : now; // no turn of the microtask queue for a synchronous answer
     if (o.ok) ok += 1;
     lines += 1;
     out.write(line(o));

@@ -32,8 +32,17 @@ export function overlongLine(lineNo: number): BatchOutputLine {
   return { id: null, line: lineNo, ok: false, error: { code: "malformed-line", message: `line longer than ${MAX_LINE_CHARS} characters`, issues: [] } };
 }
 
-/** Process one raw line into exactly one output record; never throws. */
+/** Process one raw line into exactly one output record; never rejects. */
 export async function processLine(raw: string, lineNo: number, invoker: (path: string) => Invoke | undefined): Promise<BatchOutputLine> {
+  return processLineNow(raw, lineNo, invoker);
+}
+
+/**
+ * As {@link processLine}, answered in this turn where the procedure answers synchronously (its
+ * `Invoke.now`), else a promise of the record; never throws or rejects. The chunked batch path
+ * answers its records with this and awaits only the promises.
+ */
+export function processLineNow(raw: string, lineNo: number, invoker: (path: string) => Invoke | undefined): BatchOutputLine | Promise<BatchOutputLine> {
   let parsedJson: unknown;
   const fail = (id: string | number | null, error: ErrorBody): BatchOutputLine => ({ id, line: lineNo, ok: false, error });
   if (raw.trim() === "") return fail(null, { code: "malformed-line", message: "empty line", issues: [] });
@@ -58,11 +67,19 @@ export async function processLine(raw: string, lineNo: number, invoker: (path: s
   if (invoke === undefined) {
     return fail(id, { code: "unknown-procedure", message: `no procedure "${line.procedure}"`, issues: [{ path: ["procedure"], message: "unknown procedure" }] });
   }
+  let result: unknown;
   try {
-    return { id, line: lineNo, ok: true, result: await invoke(line.input) };
+    result = invoke.now(line.input);
   } catch (e) {
     return fail(id, errorBodyOf(e));
   }
+  if (typeof result === "object" && result !== null && typeof (result as { then?: unknown }).then === "function") {
+    return Promise.resolve(result).then(
+      (r): BatchOutputLine => ({ id, line: lineNo, ok: true, result: r }),
+      (e: unknown) => fail(id, errorBodyOf(e)),
+    );
+  }
+  return { id, line: lineNo, ok: true, result };
 }
 
 /**

@@ -28,6 +28,11 @@ export interface StreamBatchOptions {
   readonly chunkBytes?: number;
   /** called for each answered record, in input order, with the procedure its line named (if it parsed that far) */
   readonly onRow?: RowHook | undefined;
+  /**
+   * JSON Lines chunks only in the pool, none in this thread (with a pool). For the fault suite:
+   * a small input would otherwise be answered here before a thread has started.
+   */
+  readonly poolOnly?: boolean | undefined;
   /** ask every review line for its chart sweeps (`curves: true`) and every bridgeAc line for its period (`waveform: true`), for reports */
   readonly reviewCurves?: boolean | undefined;
 }
@@ -217,70 +222,152 @@ async function chunkInPool(pool: ComputePool, c: JsonlChunk, o: StreamBatchOptio
 /** Records this thread answers between two turns of the event loop when it shares the work with a pool. */
 const YIELD_EVERY_LINES = 64;
 
+/** Chunks given to each pool thread at once (posted to it together), so it never waits for this thread to hand it the next. */
+export const CHUNKS_PER_THREAD = 2;
+
+/**
+ * Chunks read and not yet written, beyond those the pool holds: this thread's own and those
+ * waiting to be taken or written. Eight chunks of 256 kB are about 2 MB of input and 10 MB of output.
+ */
+const CHUNKS_AHEAD = 6;
+
+interface Slot {
+  readonly chunk: JsonlChunk;
+  answer?: ChunkAnswer;
+}
+
 /**
  * JSON Lines in, no row hook: the input goes in chunks of whole lines as bytes to the threads, each
- * coming back as its output bytes, written in input order. The main thread cuts, counts lines and
- * writes, and answers a chunk itself when every thread already has two (so on two cores one thread
- * and the main thread both compute; without a pool it answers every chunk). At most
- * `2 × threads + 2` chunks are in flight.
+ * coming back as its output bytes, written in input order. Chunks are handed out as they are
+ * taken, not when they are read: each pool thread holds up to CHUNKS_PER_THREAD, and this thread
+ * answers the oldest chunk nobody holds whenever it is free (without a pool, every chunk). So both
+ * threads of a two-core machine compute from start to end: this one while the pool's threads
+ * start, and whichever is free at the end. Reading, handing out and writing run between this
+ * thread's records (it lets the event loop run every YIELD_EVERY_LINES records). At most
+ * `CHUNKS_PER_THREAD × threads + CHUNKS_AHEAD` chunks are read and not yet written.
  */
 async function streamJsonlChunks(o: StreamBatchOptions): Promise<BatchCounts> {
   const counts: BatchCounts = { lines: 0, ok: 0, failed: 0 };
   const fmt = outputFormatter(o.outFormat, o.procedure);
   if (fmt.header) await o.write(fmt.header);
   const pool = o.pool;
-  const threads = pool?.threads ?? 0;
-  const depth = 2; // chunks given to each thread at once, so it never waits while this thread answers one
-  const maxInFlight = depth * threads + 2;
+  const poolRoom = CHUNKS_PER_THREAD * (pool?.threads ?? 0);
+  const window = poolRoom + CHUNKS_AHEAD;
   let invoker: ReturnType<typeof procedureInvoker> | undefined;
-  // This thread answers one chunk at a time (chunks given to it meanwhile wait their turn) and, with
-  // a pool, lets the event loop run every YIELD_EVERY_LINES records (about a millisecond): the
-  // pool's answers are then taken, and the next task handed to the thread, while this thread
-  // computes, not only between its chunks. Before, a chunk answered here ran to its end as one
-  // run of microtasks (about 15 ms), and several read ahead ran interleaved, the thread idling meanwhile.
-  let hereTurn: Promise<unknown> = Promise.resolve();
-  const here = (c: JsonlChunk): Promise<ChunkAnswer> => {
-    const answer = hereTurn.then(() => {
-      invoker ??= procedureInvoker(o.ctx); // built only if this thread answers a chunk
-      const text = Buffer.from(c.bytes.buffer, c.bytes.byteOffset, c.bytes.byteLength).toString("utf8");
-      return answerJsonlChunk(text, c.firstLine, fmt.line, invoker, o.shard, pool === undefined ? 0 : YIELD_EVERY_LINES);
-    });
-    hereTurn = answer.catch(() => undefined);
-    return answer;
-  };
-  const queue: { answer: Promise<ChunkAnswer>; settled: boolean }[] = [];
+
+  const slots: Slot[] = []; // read and not yet written, in input order
+  const untaken: Slot[] = []; // of those, the ones no thread holds yet, oldest first
   let inPool = 0;
-  const flushHead = async () => {
-    const a = await (queue.shift() as (typeof queue)[number]).answer;
-    counts.lines += a.lines;
-    counts.ok += a.ok;
-    counts.failed += a.failed;
-    if (a.bytes.length > 0) await o.write(a.bytes);
-    o.onProgress?.(counts);
+  // Chunks go to the pool once a thread has started: until then this thread answers them (a chunk
+  // handed to a starting thread would hold up the output behind it while this thread waits).
+  let poolUp = false;
+  let reading = false;
+  let readDone = false;
+  let writing = false;
+  let failure: { error: unknown } | undefined;
+  let wake: (() => void) | undefined;
+  const signal = () => {
+    const w = wake;
+    wake = undefined;
+    w?.();
   };
-  for await (const c of jsonlChunks(o.input, o.chunkBytes ?? 256 * 1024)) {
-    let answer: Promise<ChunkAnswer>;
-    if (c.overlongBytes !== undefined) {
-      // a line too long to hold: its record is written here (its bytes were not kept)
-      const inRun = inShard(c.firstLine, o.shard);
-      answer = Promise.resolve({ bytes: inRun ? Buffer.from(fmt.line(overlongLine(c.firstLine)), "utf8") : new Uint8Array(0), lines: inRun ? 1 : 0, ok: 0, failed: inRun ? 1 : 0 });
-    } else if (pool !== undefined && inPool < depth * threads) {
+  const fail = (error: unknown) => {
+    failure ??= { error };
+    signal();
+  };
+  const finished = (s: Slot, a: ChunkAnswer) => {
+    s.answer = a;
+    pumpWrite();
+  };
+
+  const reader = jsonlChunks(o.input, o.chunkBytes ?? 256 * 1024)[Symbol.asyncIterator]();
+  const pumpRead = () => {
+    if (reading || readDone || failure !== undefined || slots.length >= window) return;
+    reading = true;
+    reader.next().then((r) => {
+      reading = false;
+      if (r.done === true) readDone = true;
+      else {
+        const c = r.value;
+        const s: Slot = { chunk: c };
+        slots.push(s);
+        if (c.overlongBytes !== undefined) {
+          // a line too long to hold: its record is written here (its bytes were not kept)
+          const inRun = inShard(c.firstLine, o.shard);
+          finished(s, { bytes: inRun ? Buffer.from(fmt.line(overlongLine(c.firstLine)), "utf8") : new Uint8Array(0), lines: inRun ? 1 : 0, ok: 0, failed: inRun ? 1 : 0 });
+        } else untaken.push(s);
+        pumpPool();
+        pumpRead();
+      }
+      signal();
+    }, fail);
+  };
+  const pumpPool = () => {
+    while (pool !== undefined && poolUp && failure === undefined && inPool < poolRoom && untaken.length > 0) {
+      const s = untaken.shift() as Slot;
       inPool += 1;
-      answer = chunkInPool(pool, c, o, fmt);
-      answer.then(
-        () => (inPool -= 1),
-        () => (inPool -= 1),
-      );
-    } else answer = here(c);
-    const entry = { answer, settled: false };
-    answer.then(
-      () => (entry.settled = true),
-      () => (entry.settled = true), // awaited in order by flushHead; this also keeps an early rejection from going unhandled
-    );
-    queue.push(entry);
-    await Promise.resolve(); // let the settled flags of answers already done be set
-    while (queue.length >= maxInFlight || (queue.length > 0 && (queue[0] as (typeof queue)[number]).settled)) await flushHead();
+      chunkInPool(pool, s.chunk, o, fmt).then((a) => {
+        inPool -= 1;
+        finished(s, a);
+        pumpPool();
+      }, fail);
+    }
+  };
+  const pumpWrite = () => {
+    if (writing || failure !== undefined || slots[0]?.answer === undefined) return;
+    writing = true;
+    writeHeads().then(signal, fail);
+  };
+  // Writes the answered chunks at the head, in order; `writing` is cleared in the same turn as the
+  // last head is found unanswered, so an answer that comes after it starts the writer again.
+  const writeHeads = async () => {
+    try {
+      for (let head = slots[0]; head?.answer !== undefined; head = slots[0]) {
+        const a = head.answer;
+        slots.shift();
+        counts.lines += a.lines;
+        counts.ok += a.ok;
+        counts.failed += a.failed;
+        pumpRead();
+        if (a.bytes.length > 0) await o.write(a.bytes);
+        o.onProgress?.(counts);
+      }
+    } finally {
+      writing = false;
+    }
+  };
+  const check = () => {
+    if (failure !== undefined) throw failure.error;
+  };
+  // a thread that cannot start fails its chunks too, and chunkInPool answers their records one by one
+  const up = () => {
+    poolUp = true;
+    pumpPool();
+  };
+  pool?.ready().then(up, up);
+  pumpRead();
+  try {
+    for (;;) {
+      check();
+      const s = pool !== undefined && o.poolOnly === true ? undefined : untaken.shift();
+      if (s !== undefined) {
+        // the oldest chunk no thread holds: answered here
+        invoker ??= procedureInvoker(o.ctx); // built only if this thread answers a chunk
+        const c = s.chunk;
+        const text = Buffer.from(c.bytes.buffer, c.bytes.byteOffset, c.bytes.byteLength).toString("utf8");
+        finished(s, await answerJsonlChunk(text, c.firstLine, fmt.line, invoker, o.shard, pool === undefined ? 0 : YIELD_EVERY_LINES));
+        // the pool's answers, its start and the reads are events: let them in between chunks too
+        if (pool !== undefined) await new Promise<void>((r) => setImmediate(r));
+        continue;
+      }
+      if (readDone && slots.length === 0 && !writing) break;
+      await new Promise<void>((r) => (wake = r));
+    }
+    check();
+  } catch (e) {
+    failure ??= { error: e }; // stops reading and writing
+    if (!readDone) void reader.return(undefined).catch(() => undefined);
+    throw e;
   }
-  while (queue.length > 0) await flushHead();
   return counts;
 }

@@ -45,6 +45,8 @@ export interface ComputePool {
   lines(records: { raw: string; lineNo: number }[], format: LinesFormat, signal?: AbortSignal): Promise<FormattedLine[]>;
   /** batch, JSON Lines in: a chunk of whole input lines as bytes → its output records as bytes (parsed, answered, written out and encoded in the thread); the bytes' buffer is transferred (it must be the chunk's alone: not a view into a larger or pooled buffer) */
   jsonlChunk(chunk: JsonlChunkTask, signal?: AbortSignal): Promise<ChunkAnswer>;
+  /** settles once a thread has loaded the router and answered (it fails if the thread cannot start) */
+  ready(): Promise<void>;
   close(): Promise<void>;
 }
 
@@ -52,7 +54,7 @@ export interface ComputePool {
 export const COMPUTE_THREAD_YOUNG_GENERATION_MB = 32;
 
 /** A pool of worker threads running the router; aborting a task terminates its thread (a hard stop). */
-export function createComputePool(opts: { threads: number; catalogPath: string; rulesDir?: string | undefined }): ComputePool | undefined {
+export function createComputePool(opts: { threads: number; catalogPath: string; rulesDir?: string | undefined; tasksPerThread?: number }): ComputePool | undefined {
   const filename = workerFile();
   if (filename === undefined || opts.threads < 1) return undefined;
   // piscina loaded with the first pool (the HTTP server starts its pool after it listens)
@@ -65,9 +67,13 @@ export function createComputePool(opts: { threads: number; catalogPath: string; 
     minThreads: opts.threads,
     maxThreads: opts.threads,
     idleTimeout: 60_000,
+    // tasks posted to a thread at once: a batch gives each thread its next chunk while it answers
+    // one (the next is then waiting in the thread, not in this thread's queue until it turns)
+    concurrentTasksPerWorker: opts.tasksPerThread ?? 1,
     resourceLimits: { maxYoungGenerationSizeMb: COMPUTE_THREAD_YOUNG_GENERATION_MB },
     workerData: { catalogPath: opts.catalogPath, rulesDir: opts.rulesDir },
   });
+  let up: Promise<void> | undefined;
   const options = (name: string, signal?: AbortSignal) => (signal === undefined ? { name } : { name, signal });
   return {
     threads: opts.threads,
@@ -76,6 +82,10 @@ export function createComputePool(opts: { threads: number; catalogPath: string; 
     lines: (records, format, signal) => pool.run({ records, ...format }, options("lines", signal)) as Promise<FormattedLine[]>,
     // the chunk's bytes are transferred, not copied: the caller hands over a buffer of its own
     jsonlChunk: (chunk, signal) => pool.run(chunk, { ...options("jsonlChunk", signal), transferList: [chunk.bytes.buffer as ArrayBuffer] }) as Promise<ChunkAnswer>,
+    ready: () => {
+      up ??= pool.run(null, options("ping")).then(() => undefined);
+      return up;
+    },
     close: () => pool.destroy(),
   };
 }
@@ -105,6 +115,7 @@ export function deferredComputePool(opts: Parameters<typeof createComputePool>[0
     callJson: (path, inputs, signal) => get().callJson(path, inputs, signal),
     lines: (records, format, signal) => get().lines(records, format, signal),
     jsonlChunk: (chunk, signal) => get().jsonlChunk(chunk, signal),
+    ready: () => get().ready(),
     close: async () => {
       closed = true;
       await inner?.close();

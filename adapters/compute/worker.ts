@@ -15,6 +15,11 @@ import { type ItemJson, type ItemResult, callOne, callOneJson } from "./call.js"
 const { catalogPath, rulesDir } = workerData as { catalogPath: string; rulesDir?: string | undefined };
 const invoker = procedureInvoker({ catalog: loadCatalogFile(catalogPath), ruleSets: loadRuleSetStore(rulesDir) });
 
+/** Answers once this thread has loaded the router (the pool's `ready`). */
+export function ping(): boolean {
+  return true;
+}
+
 /** HTTP /v1: the items of one request (or a slice of a bulk request), in order. */
 export async function call({ path, inputs }: { path: string; inputs: unknown[] }): Promise<ItemResult[]> {
   const invoke = invoker(path);
@@ -37,6 +42,8 @@ export async function callJson({ path, inputs }: { path: string; inputs: unknown
  * Test hook for the fault suite (test/reliability): with BACKSTOP_TEST_WORKER_FAULT set to "throw"
  * or "crash", a record whose text holds FAULT_MARKER makes this thread throw from the task, or die
  * (an uncaught error outside it). Unset in production; the marker is not a field of any contract.
+ * With it set, the batch command answers no chunk in its main thread (`poolOnly`), so the marked
+ * records meet a thread.
  */
 const FAULT = process.env.BACKSTOP_TEST_WORKER_FAULT;
 const FAULT_MARKER = "__backstop_test_worker_fault__";
