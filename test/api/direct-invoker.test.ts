@@ -33,6 +33,12 @@ async function answer(call: () => Promise<unknown>): Promise<Seen> {
     return { name: (e as Error).name, code: (e as { code?: unknown }).code, status: httpStatusOf(e), body: errorBodyOf(e), causeName: (cause as Error | undefined)?.name };
   }
 }
+/** The tRPC caller's procedure at a dotted router path. */
+function callerProcedure(caller: Record<string, unknown>, path: string): (input: unknown) => Promise<unknown> {
+  let node: unknown = caller;
+  for (const part of path.split(".")) node = (node as Record<string, unknown>)[part];
+  return node as (input: unknown) => Promise<unknown>;
+}
 const label = (o: ProcedureObservation) => ({ path: o.path, ok: o.ok, outcome: o.ok ? outcomeLabel(o.data) : errorBodyOf(o.error).code, finite: Number.isFinite(o.seconds) && o.seconds >= 0 });
 
 describe("direct invoker", () => {
@@ -51,9 +57,7 @@ describe("direct invoker", () => {
     const invoker = procedureInvoker(directCtx);
     let errors = 0;
     for (const c of cases) {
-      let node: unknown = caller;
-      for (const part of c.procedure.split(".")) node = (node as Record<string, unknown>)[part];
-      const viaCaller = await answer(() => (node as (i: unknown) => Promise<unknown>)(c.input));
+      const viaCaller = await answer(() => callerProcedure(caller, c.procedure)(c.input));
       const invoke = invoker(c.procedure);
       if (invoke === undefined) throw new Error(`no ${c.procedure}`);
       const viaDirect = await answer(() => invoke(c.input));
@@ -63,5 +67,27 @@ describe("direct invoker", () => {
     expect(errors).toBeGreaterThanOrEqual(6);
     expect(seenDirect.map(label)).toEqual(seenCaller.map(label));
     expect(seenDirect.length).toBe(cases.length);
+  });
+
+  it("now: answers in the same turn (no promise) for every procedure of the router, with the same results and errors as the caller", async () => {
+    const ctx = demoContext(); // no observer: the batch's context
+    const caller = createCallerFactory(appRouter)(ctx) as unknown as Record<string, unknown>;
+    const invoker = procedureInvoker(ctx);
+    let sync = 0;
+    for (const c of cases) {
+      const viaCaller = await answer(() => callerProcedure(caller, c.procedure)(c.input));
+      const invoke = invoker(c.procedure);
+      if (invoke === undefined) throw new Error(`no ${c.procedure}`);
+      let thenable = false;
+      const viaNow = await answer(async () => {
+        const r = invoke.now(c.input); // throws here, not later, for a bad input
+        thenable = typeof (r as { then?: unknown } | null)?.then === "function";
+        return r;
+      });
+      expect(viaNow, c.id).toEqual(viaCaller);
+      expect(thenable, c.id).toBe(false); // every procedure's parser and resolver are synchronous today
+      sync += 1;
+    }
+    expect(sync).toBe(cases.length);
   });
 });
