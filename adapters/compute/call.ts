@@ -17,20 +17,44 @@ export function outcomeLabel(result: unknown): string {
 
 /** Call one procedure of the in-process router; never throws. */
 export async function callOne(invoke: Invoke, input: unknown): Promise<ItemResult> {
+  return callOneNow(invoke, input);
+}
+
+/**
+ * As {@link callOne}, answered in the same turn where the procedure answers synchronously
+ * (`Invoke.now`), else a promise; never throws or rejects. The compute threads answer a bulk
+ * request's items with it (no promise or microtask turn per item).
+ */
+export function callOneNow(invoke: Invoke, input: unknown): ItemResult | Promise<ItemResult> {
   const t0 = performance.now();
+  let answer: unknown;
   try {
-    const result = await invoke(input);
-    return { ok: true, result, outcome: outcomeLabel(result), seconds: (performance.now() - t0) / 1000 };
+    answer = invoke.now(input);
   } catch (e) {
-    const error = errorBodyOf(e);
-    const status = httpStatusOf(e);
-    const seconds = (performance.now() - t0) / 1000;
-    if (error.code === "internal") {
-      const cause = (e as { cause?: unknown }).cause ?? e;
-      return { ok: false, status, error, outcome: error.code, seconds, internal: cause instanceof Error ? (cause.stack ?? cause.message) : String(cause) };
-    }
-    return { ok: false, status, error, outcome: error.code, seconds };
+    return failed(e, t0);
   }
+  if (typeof answer === "object" && answer !== null && typeof (answer as { then?: unknown }).then === "function") {
+    return Promise.resolve(answer).then(
+      (result) => succeeded(result, t0),
+      (e: unknown) => failed(e, t0),
+    );
+  }
+  return succeeded(answer, t0);
+}
+
+function succeeded(result: unknown, t0: number): ItemResult {
+  return { ok: true, result, outcome: outcomeLabel(result), seconds: (performance.now() - t0) / 1000 };
+}
+
+function failed(e: unknown, t0: number): ItemResult {
+  const error = errorBodyOf(e);
+  const status = httpStatusOf(e);
+  const seconds = (performance.now() - t0) / 1000;
+  if (error.code === "internal") {
+    const cause = (e as { cause?: unknown }).cause ?? e;
+    return { ok: false, status, error, outcome: error.code, seconds, internal: cause instanceof Error ? (cause.stack ?? cause.message) : String(cause) };
+  }
+  return { ok: false, status, error, outcome: error.code, seconds };
 }
 
 /** An answer with its result already written out as JSON (what /v1 sends; text crosses threads cheaply). */
@@ -40,6 +64,15 @@ export type ItemJson =
 
 /** {@link callOne}, the result written out as JSON (`JSON.stringify`, so the same bytes). */
 export async function callOneJson(invoke: Invoke, input: unknown): Promise<ItemJson> {
-  const it = await callOne(invoke, input);
+  return asJson(await callOneNow(invoke, input));
+}
+
+/** {@link callOneNow}, the result written out as JSON. */
+export function callOneJsonNow(invoke: Invoke, input: unknown): ItemJson | Promise<ItemJson> {
+  const it = callOneNow(invoke, input);
+  return it instanceof Promise ? it.then(asJson) : asJson(it);
+}
+
+function asJson(it: ItemResult): ItemJson {
   return it.ok ? { ok: true, json: JSON.stringify(it.result), outcome: it.outcome, seconds: it.seconds } : it;
 }

@@ -6,7 +6,7 @@ import { answerJsonlChunk, type ChunkAnswer, type Shard } from "../batch/jsonl-c
 import { processLine } from "../batch/run-batch.js";
 import { loadCatalogFile } from "../catalog/file-catalog.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
-import { type ItemJson, type ItemResult, callOne, callOneJson } from "./call.js";
+import { type ItemJson, type ItemResult, callOneJsonNow, callOneNow } from "./call.js";
 
 /**
  * A worker thread of the compute pool (piscina): the same router, in this thread, with its own
@@ -25,7 +25,10 @@ export async function call({ path, inputs }: { path: string; inputs: unknown[] }
   const invoke = invoker(path);
   if (invoke === undefined) throw new Error(`no procedure ${path}`);
   const out: ItemResult[] = [];
-  for (const input of inputs) out.push(await callOne(invoke, input));
+  for (const input of inputs) {
+    const it = callOneNow(invoke, input);
+    out.push(it instanceof Promise ? await it : it);
+  }
   return out;
 }
 
@@ -34,7 +37,10 @@ export async function callJson({ path, inputs }: { path: string; inputs: unknown
   const invoke = invoker(path);
   if (invoke === undefined) throw new Error(`no procedure ${path}`);
   const out: ItemJson[] = [];
-  for (const input of inputs) out.push(await callOneJson(invoke, input));
+  for (const input of inputs) {
+    const it = callOneJsonNow(invoke, input);
+    out.push(it instanceof Promise ? await it : it);
+  }
   return out;
 }
 
