@@ -1,4 +1,3 @@
-import { createInterface } from "node:readline";
 import type { Readable } from "node:stream";
 import { parse } from "csv-parse";
 import type { Context } from "../../api/context.js";
@@ -65,13 +64,25 @@ function procedureOf(rec: Rec): string | undefined {
 
 type Rec = { lineNo: number; raw: string } | { lineNo: number; out: BatchOutputLine };
 
+/**
+ * JSON Lines records for the per-record path (a row hook, reports), the lines as readline reads
+ * them, taken from the same byte chunks as the chunked path: a line of more than MAX_LINE_BYTES is
+ * answered as too long without being held (readline held it whole, so a file without line breaks
+ * could stop the run).
+ */
 async function* jsonlRecords(input: Readable): AsyncGenerator<Rec> {
-  let n = 0;
-  for await (const raw of createInterface({ input, crlfDelay: Number.POSITIVE_INFINITY })) {
-    n += 1;
-    yield { lineNo: n, raw };
+  for await (const c of jsonlChunks(input, RECORD_CHUNK_BYTES)) {
+    if (c.overlongBytes !== undefined) {
+      yield { lineNo: c.firstLine, out: overlongLine(c.firstLine) };
+      continue;
+    }
+    const raws = linesOf(Buffer.from(c.bytes.buffer, c.bytes.byteOffset, c.bytes.byteLength).toString("utf8"));
+    for (let i = 0; i < raws.length; i += 1) yield { lineNo: c.firstLine + i, raw: raws[i] as string };
   }
 }
+
+/** Input bytes decoded at once by the per-record path. */
+const RECORD_CHUNK_BYTES = 64 * 1024;
 
 async function* csvRecords(input: Readable, procedure: string | undefined): AsyncGenerator<Rec> {
   const parser = input.pipe(parse({ bom: true, relax_column_count: true, skip_empty_lines: false }));

@@ -177,6 +177,11 @@ describe("where a chunk is cut", () => {
     const oracle = Buffer.concat(parts);
     const chunked = await collect((write) => streamBatch({ input: piecesOf(Buffer.from(text), 1024 * 1024), inFormat: "jsonl", outFormat: "jsonl", write, ctx: demoContext() }));
     expect(chunked.toString("utf8")).toBe(oracle.toString("utf8"));
+    // the per-record path (taken with a row hook, as for reports) reads the same chunks: the same record, the line not held
+    const rows: number[] = [];
+    const perRecord = await collect((write) => streamBatch({ input: piecesOf(Buffer.from(text), 1024 * 1024), inFormat: "jsonl", outFormat: "jsonl", write, ctx: demoContext(), onRow: (r) => void rows.push(r.line) }));
+    expect(perRecord.toString("utf8")).toBe(oracle.toString("utf8"));
+    expect(rows).toEqual([1, 2, 3, 4]);
     const records = chunked.toString("utf8").trim().split("\n").map((l) => JSON.parse(l) as { line: number; ok: boolean; error?: { message: string } });
     expect(records.map((r) => [r.line, r.ok])).toEqual([
       [1, true],
