@@ -76,7 +76,8 @@ export interface Invoke {
   readonly now: (input: unknown) => unknown;
 }
 
-const isThenable = (v: unknown): v is PromiseLike<unknown> => typeof v === "object" && v !== null && typeof (v as { then?: unknown }).then === "function";
+/** A promise (or any thenable): what `Invoke.now` returns where a procedure is asynchronous. */
+export const isThenable = (v: unknown): v is PromiseLike<unknown> => typeof v === "object" && v !== null && typeof (v as { then?: unknown }).then === "function";
 
 /** Resolve a router path to a callable procedure of an in-process caller (the same router as /trpc). */
 export function procedureInvoker(ctx: Context): (path: string) => Invoke | undefined {

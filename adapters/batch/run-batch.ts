@@ -3,7 +3,7 @@ import type { Readable, Writable } from "node:stream";
 import { z } from "zod";
 import type { Context } from "../../api/context.js";
 import { errorBodyOf } from "../../api/error-body.js";
-import { type Invoke, procedureInvoker } from "../../api/procedure-registry.js";
+import { type Invoke, isThenable, procedureInvoker } from "../../api/procedure-registry.js";
 import type { ErrorBody } from "../../contracts/outcome.js";
 
 /** One input line: `{ "id"?: string|number, "procedure": "<router path>", "input": {...} }`. */
@@ -73,7 +73,7 @@ export function processLineNow(raw: string, lineNo: number, invoker: (path: stri
   } catch (e) {
     return fail(id, errorBodyOf(e));
   }
-  if (typeof result === "object" && result !== null && typeof (result as { then?: unknown }).then === "function") {
+  if (isThenable(result)) {
     return Promise.resolve(result).then(
       (r): BatchOutputLine => ({ id, line: lineNo, ok: true, result: r }),
       (e: unknown) => fail(id, errorBodyOf(e)),

@@ -1,5 +1,5 @@
 import { errorBodyOf } from "../../api/error-body.js";
-import { httpStatusOf, type Invoke } from "../../api/procedure-registry.js";
+import { httpStatusOf, type Invoke, isThenable } from "../../api/procedure-registry.js";
 import type { ErrorBody } from "../../contracts/outcome.js";
 
 /** One analysis call's answer as every adapter sees it: a result, or an error body with its HTTP status. */
@@ -33,7 +33,7 @@ export function callOneNow(invoke: Invoke, input: unknown): ItemResult | Promise
   } catch (e) {
     return failed(e, t0);
   }
-  if (typeof answer === "object" && answer !== null && typeof (answer as { then?: unknown }).then === "function") {
+  if (isThenable(answer)) {
     return Promise.resolve(answer).then(
       (result) => succeeded(result, t0),
       (e: unknown) => failed(e, t0),
