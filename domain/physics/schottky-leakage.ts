@@ -1,0 +1,36 @@
+import { BOLTZMANN_J_PER_K, ELEMENTARY_CHARGE_C } from "./constants.js";
+
+/** Boltzmann's constant in eV/K (k/q). */
+const K_EV_PER_K = BOLTZMANN_J_PER_K / ELEMENTARY_CHARGE_C;
+
+/**
+ * Reverse leakage of a Schottky junction by thermionic emission over its barrier ΦB (common
+ * practice; S. M. Sze and K. K. Ng, Physics of Semiconductor Devices, 3rd ed., 2007, §3.3: the
+ * saturation current density is A**·T²·exp(−q·ΦB/(k·T))), referred to one datasheet point:
+ *
+ *   I_R(T, V_R) = I_ref·(T/T_ref)²·exp(−(ΦB/k)·(1/T − 1/T_ref))·(V_R/V_ref)^m
+ *
+ * The reverse-voltage power m is empirical (image-force barrier lowering and edge leakage make a
+ * real Schottky's leakage rise with V_R; m = 0 is the ideal saturated diode).
+ */
+export interface LeakageLaw {
+  readonly refCurrentA: number;
+  readonly refTempK: number;
+  readonly refVoltageV: number;
+  /** Barrier height ΦB, eV. */
+  readonly barrierEv: number;
+  /** Reverse-voltage power m, dimensionless. */
+  readonly voltageExponent: number;
+}
+
+/** ln(I_R/I_ref) of the law at (tK, reverseV); reverseV > 0. */
+export function leakageLogRatio(law: LeakageLaw, tK: number, reverseV: number): number {
+  return (
+    2 * Math.log(tK / law.refTempK) - (law.barrierEv / K_EV_PER_K) * (1 / tK - 1 / law.refTempK) + law.voltageExponent * Math.log(reverseV / law.refVoltageV)
+  );
+}
+
+/** Reverse leakage current at junction temperature tK and reverse voltage reverseV (> 0), A. */
+export function leakageCurrentA(law: LeakageLaw, tK: number, reverseV: number): number {
+  return law.refCurrentA * Math.exp(leakageLogRatio(law, tK, reverseV));
+}
