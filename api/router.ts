@@ -2,6 +2,7 @@ import { batteryCharge } from "./procedures/battery-charge.js";
 import { holdUp } from "./procedures/hold-up.js";
 import { bridgeAc } from "./procedures/bridge-ac.js";
 import { bridgeDc } from "./procedures/bridge-dc.js";
+import { fit } from "./procedures/fit.js";
 import { operatingPoint } from "./procedures/operating-point.js";
 import { oring } from "./procedures/oring.js";
 import { review } from "./procedures/review.js";
@@ -22,6 +23,7 @@ export const appRouter = router({
   bridgeDc,
   bridgeAc,
   sizing,
+  fit,
 });
 
 /** Clients import only this type (`import type { AppRouter } from "backstop/api/router"`). */

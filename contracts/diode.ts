@@ -24,11 +24,19 @@ export const forwardPoint = z.object({
 
 export const diodePoints = z.object({
   model: z.literal("points"),
-  points: z.array(forwardPoint).min(2).max(3).meta({ description: "two or three (I, Vf, T) points; two fit Is and n, three also Rs" }),
+  points: z
+    .array(forwardPoint)
+    .min(2)
+    .max(64)
+    .meta({
+      description:
+        "two or more (I, Vf, T) points, read off the datasheet's curves at one temperature or several; two fit Is and n, three also Rs (exactly); four or more fit Is, n, Rs by least squares, and Eg too where they span two temperatures and neither Eg nor vfTempCoVPerK is given",
+    }),
   seriesResistanceOhm: quantity("ohm", "series resistance to hold with two points (default 0)", { ge: 0, le: 1e3 }).optional(),
   energyGapEv: energyGapEv.optional(),
   saturationTempExponent: saturationTempExponent.optional(),
   vfTempCoVPerK: vfTempCoVPerK.optional(),
+  acceptFit: z.boolean().optional().meta({ description: "use a least-squares fit whose worst residual exceeds 2 % of Vf (default false: such a fit is refused, naming the point)" }),
 });
 
 export const diode = z
@@ -38,6 +46,6 @@ export const diode = z
       ctx.addIssue({ code: "custom", path: ["vfTempCoVPerK"], message: "give either a linear Vf temperature coefficient or the Eg/XTI law, not both" });
     }
   })
-  .meta({ description: "a junction: Shockley parameters, or two or three datasheet points that backstop fits" });
+  .meta({ description: "a junction: Shockley parameters, or datasheet (I, Vf, T) points that backstop fits" });
 export type DiodeInput = z.input<typeof diode>;
 export type DiodeSpec = z.output<typeof diode>;

@@ -16,3 +16,4 @@ export * from "./oring.js";
 export * from "./battery-charge.js";
 export * from "./bridge.js";
 export * from "./review.js";
+export * from "./fit.js";

@@ -29,6 +29,7 @@ const MUTATION_RUNS: Record<string, number> = {
   batteryCharge: 5,
   "sizing.spec": 5,
   "sizing.catalog": 5,
+  fit: 60,
 };
 const RANDOM_RUNS = 200;
 let cases = 0;

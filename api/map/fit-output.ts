@@ -1,0 +1,133 @@
+import type { FitOutput, FitSpec } from "../../contracts/fit.js";
+import { fitFoster } from "../../domain/fit/foster-fit.js";
+import { type FitQuality, withinBound } from "../../domain/fit/fit-quality.js";
+import { fitLeakage } from "../../domain/fit/leakage-fit.js";
+import { fitRdsTemperature } from "../../domain/fit/rds-temperature-fit.js";
+import { cToK, kToC } from "../../domain/physics/constants.js";
+import { fitDiodePoints } from "./diode-params.js";
+import { gateFit, refusedFit } from "./fit-gate.js";
+
+type Parsed<C extends FitSpec["curve"]> = Extract<FitSpec, { curve: C }>;
+type Body = Omit<FitOutput, "modelVersion" | "caution" | "assumptions">;
+type Parameter = FitOutput["parameters"][number];
+
+const param = (name: string, value: number, unit: string, fitted: boolean, standardError?: number): Parameter => ({
+  name,
+  value,
+  unit,
+  fitted,
+  ...(standardError === undefined || !Number.isFinite(standardError) ? {} : { standardError }),
+});
+
+function qualityOf(q: FitQuality, unit: string): FitOutput["quality"] {
+  return { unit, rms: q.rms, worstPoint: q.worstIndex, worstResidual: q.worst, worstFraction: q.worstFraction, boundFraction: q.boundFraction, withinBound: withinBound(q) };
+}
+
+const residualsOf = (measured: readonly number[], modelled: readonly number[]) =>
+  measured.map((m, point) => ({ point, measured: m, modelled: modelled[point] ?? 0, residual: (modelled[point] ?? 0) - m }));
+
+export function diodeForwardFit(input: Parsed<"diode-forward">, assumptions: string[]): Body {
+  const fit = fitDiodePoints(input.diode, input.junction, ["diode"], assumptions);
+  const p = fit.params;
+  const se = fit.standardErrors;
+  const has = (n: (typeof fit.fitted)[number]) => fit.fitted.includes(n);
+  const linear = p.linearTempCoVPerK;
+  return {
+    curve: "diode-forward",
+    method: fit.exact ? "exact" : "least-squares",
+    parameters: [
+      param("saturationCurrentA", p.saturationCurrentA, "A", true, se.lnSaturationCurrent === undefined ? undefined : se.lnSaturationCurrent * p.saturationCurrentA),
+      param("ideality", p.ideality, "1", true, se.ideality),
+      param("seriesResistanceOhm", p.seriesResistanceOhm, "ohm", has("seriesResistanceOhm"), se.seriesResistanceOhm),
+      ...(linear === undefined
+        ? [param("energyGapEv", p.energyGapEv, "eV", has("energyGapEv"), se.energyGapEv), param("saturationTempExponent", p.saturationTempExponent, "1", false)]
+        : [param("vfTempCoVPerK", linear, "V/K", false)]),
+    ],
+    model: {
+      model: "shockley",
+      saturationCurrentA: p.saturationCurrentA,
+      ideality: p.ideality,
+      seriesResistanceOhm: p.seriesResistanceOhm,
+      ...(linear === undefined ? { energyGapEv: p.energyGapEv, saturationTempExponent: p.saturationTempExponent } : { vfTempCoVPerK: linear }),
+      nominalTempC: kToC(p.nominalTempK),
+    },
+    quality: qualityOf(fit.quality, "V"),
+    residuals: residualsOf(
+      input.diode.points.map((pt) => pt.voltageV),
+      fit.modelledV,
+    ),
+  };
+}
+
+export function rdsOnTemperatureFit(input: Parsed<"rds-on-temperature">, assumptions: string[]): Body {
+  const fit = fitRdsTemperature(input.points.map((p) => ({ tempK: cToK(p.tjC), value: p.rdsOnOhm })));
+  if (!fit.ok) throw refusedFit(["points"], fit.reason, fit.points);
+  const exact = input.points.length === 2;
+  const describe = (i: number) => `${input.points[i]?.tjC} °C, ${input.points[i]?.rdsOnOhm} ohm`;
+  if (!exact) assumptions.push(gateFit(fit.quality, input.acceptFit, ["points"], "Rds(on)(Tj): R25 and the exponent of (T/298.15 K)^a fitted", "ohm", input.points.length, describe));
+  return {
+    curve: "rds-on-temperature",
+    method: exact ? "exact" : "least-squares",
+    parameters: [param("rdsOn25Ohm", fit.params.r25, "ohm", true, fit.standardErrors.r25), param("exponent", fit.params.exponent, "1", true, fit.standardErrors.exponent)],
+    model: { law: "power", exponent: fit.params.exponent },
+    quality: qualityOf(fit.quality, "ohm"),
+    residuals: residualsOf(
+      input.points.map((p) => p.rdsOnOhm),
+      fit.modelled,
+    ),
+  };
+}
+
+export function zthFit(input: Parsed<"zth">, assumptions: string[]): Body {
+  const fit = fitFoster(
+    input.points.map((p) => ({ timeS: p.timeS, zthKPerW: p.zthKPerW })),
+    { ...(input.stages === undefined ? {} : { stages: input.stages }), ...(input.steadyKPerW === undefined ? {} : { steadyKPerW: input.steadyKPerW }) },
+  );
+  if (!fit.ok) throw refusedFit(["points"], fit.reason, fit.points);
+  const k = fit.params.terms.length;
+  const exact = (input.steadyKPerW === undefined ? 2 * k : 2 * k - 1) === input.points.length;
+  const describe = (i: number) => `${input.points[i]?.timeS} s, ${input.points[i]?.zthKPerW} K/W`;
+  const what = `Zth(t): a ${k}-stage Foster network fitted${input.steadyKPerW === undefined ? "" : ` with its sum of R held at ${input.steadyKPerW} K/W`}`;
+  if (!exact) assumptions.push(gateFit(fit.quality, input.acceptFit, ["points"], what, "K/W", input.points.length, describe));
+  return {
+    curve: "zth",
+    method: exact ? "exact" : "least-squares",
+    parameters: [
+      ...fit.params.terms.flatMap((t, i) => [param(`rKPerW[${i}]`, t.rKPerW, "K/W", true), param(`tauS[${i}]`, t.tauS, "s", true)]),
+      param("steadyKPerW", fit.params.steadyKPerW, "K/W", input.steadyKPerW === undefined),
+    ],
+    model: { kind: "foster", terms: fit.params.terms.map((t) => ({ rKPerW: t.rKPerW, tauS: t.tauS })) },
+    quality: qualityOf(fit.quality, "K/W"),
+    residuals: residualsOf(
+      input.points.map((p) => p.zthKPerW),
+      fit.modelled,
+    ),
+  };
+}
+
+export function reverseLeakageFit(input: Parsed<"reverse-leakage">, assumptions: string[]): Body {
+  const fit = fitLeakage(input.points.map((p) => ({ tempK: cToK(p.tjC), reverseV: p.reverseV, currentA: p.currentA })));
+  if (!fit.ok) throw refusedFit(["points"], fit.reason, fit.points);
+  const fitM = new Set(input.points.map((p) => p.reverseV)).size >= 2;
+  const exact = (fitM ? 3 : 2) === input.points.length;
+  if (!fitM) assumptions.push("reverse-leakage: the points are at one reverse voltage, so the VR power m is 0 (the law holds at that voltage)");
+  const describe = (i: number) => `${input.points[i]?.tjC} °C, ${input.points[i]?.reverseV} V, ${input.points[i]?.currentA} A`;
+  if (!exact) assumptions.push(gateFit(fit.quality, input.acceptFit, ["points"], "reverse-leakage: barrier height, VR power and reference current fitted", "A", input.points.length, describe));
+  const l = fit.params;
+  const se = fit.standardErrors;
+  return {
+    curve: "reverse-leakage",
+    method: exact ? "exact" : "least-squares",
+    parameters: [
+      param("barrierEv", l.barrierEv, "eV", true, se.barrierEv),
+      param("voltageExponent", l.voltageExponent, "1", fitM, se.voltageExponent),
+      param("refCurrentA", l.refCurrentA, "A", true, se.refCurrentA),
+    ],
+    model: { law: "thermionic-emission", barrierEv: l.barrierEv, voltageExponent: l.voltageExponent, refCurrentA: l.refCurrentA, refTempC: kToC(l.refTempK), refVoltageV: l.refVoltageV },
+    quality: qualityOf(fit.quality, "A"),
+    residuals: residualsOf(
+      input.points.map((p) => p.currentA),
+      fit.modelled,
+    ),
+  };
+}
