@@ -2,6 +2,7 @@ import { z } from "zod";
 import { diodePoints, diodeShockley } from "./diode.js";
 import { provenance } from "./outcome.js";
 import { quantity, temperatureC } from "./quantity.js";
+import { reverseLeakageCurve } from "./stage.js";
 
 const acceptFit = (bound: string) =>
   z
@@ -39,18 +40,7 @@ const zth = z.strictObject({
   acceptFit: acceptFit("5 % of Zth"),
 });
 
-const reverseLeakage = z.strictObject({
-  curve: z.literal("reverse-leakage"),
-  points: points(
-    z.strictObject({
-      tjC: temperatureC("junction temperature"),
-      reverseV: quantity("V", "reverse voltage", { gt: 0, le: 10_000 }),
-      currentA: quantity("A", "reverse current", { gt: 0, le: 10 }),
-    }),
-    "IR(Tj, VR) points, at two junction temperatures or more",
-  ),
-  acceptFit: acceptFit("25 % of IR"),
-});
+const reverseLeakage = z.strictObject({ curve: z.literal("reverse-leakage"), ...reverseLeakageCurve.shape });
 
 export const fitInput = z
   .discriminatedUnion("curve", [diodeForward, rdsOnTemperature, zth, reverseLeakage])

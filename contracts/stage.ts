@@ -8,6 +8,23 @@ const volts = (d: string) => quantity("V", d, { gt: 0, le: 10_000 });
 const name = z.string().min(1).max(200).optional().meta({ description: "a label for reports" });
 const costEach = z.number().gte(0).lte(1e6).optional().meta({ description: "unit cost in the caller's currency, for ranking", unit: "currency" });
 
+export const reverseLeakageCurve = z
+  .strictObject({
+    points: z
+      .array(
+        z.strictObject({
+          tjC: temperatureC("junction temperature"),
+          reverseV: quantity("V", "reverse voltage", { gt: 0, le: 10_000 }),
+          currentA: quantity("A", "reverse current", { gt: 0, le: 10 }),
+        }),
+      )
+      .min(2)
+      .max(64)
+      .meta({ description: "IR(Tj, VR) points read off the datasheet's curves, at two junction temperatures or more" }),
+    acceptFit: z.boolean().optional().meta({ description: "use a fit whose worst residual exceeds 25 % of IR (default false: refused, naming the point)" }),
+  })
+  .meta({ description: "reverse leakage curves: fitted to IR = Iref·(T/Tref)²·exp(−(ΦB/k)·(1/T − 1/Tref))·(VR/Vref)^m (thermionic emission over the barrier ΦB)" });
+
 const diodeStage = (kind: "pn-diode" | "schottky-diode") =>
   z.object({
     kind: z.literal(kind),
@@ -16,9 +33,14 @@ const diodeStage = (kind: "pn-diode" | "schottky-diode") =>
     diode,
     reverseRatingV: volts("repetitive peak reverse voltage rating VRRM"),
     reverseLeakage: z
-      .object({ currentA: quantity("A", "datasheet reverse current", { gt: 0, le: 10 }), tempC: temperatureC("junction temperature of that figure") })
+      .union([
+        z
+          .object({ currentA: quantity("A", "datasheet reverse current", { gt: 0, le: 10 }), tempC: temperatureC("junction temperature of that figure") })
+          .meta({ description: "one figure at the rated voltage, scaled in temperature by the junction's Is(T) law" }),
+        reverseLeakageCurve,
+      ])
       .optional()
-      .meta({ description: "datasheet reverse leakage at the rated voltage; scaled in temperature by the junction's Is(T) law (default: Is(T) of the diode model)" }),
+      .meta({ description: "datasheet reverse leakage: one figure at the rated voltage, or IR(Tj, VR) points fitted to the thermionic-emission law (default: Is(T) of the diode model)" }),
     tjMaxC: temperatureC("maximum junction temperature"),
     thermal: thermalPath,
     avalancheEnergyJ: quantity("J", "single-pulse avalanche energy rating at 25 °C starting junction temperature (for the turn-off rules)", { gt: 0, le: 1e6 }).optional(),

@@ -1,11 +1,11 @@
 import type { FitOutput, FitSpec } from "../../contracts/fit.js";
 import { fitFoster } from "../../domain/fit/foster-fit.js";
 import { type FitQuality, withinBound } from "../../domain/fit/fit-quality.js";
-import { fitLeakage } from "../../domain/fit/leakage-fit.js";
 import { fitRdsTemperature } from "../../domain/fit/rds-temperature-fit.js";
 import { cToK, kToC } from "../../domain/physics/constants.js";
 import { fitDiodePoints } from "./diode-params.js";
 import { gateFit, refusedFit } from "./fit-gate.js";
+import { fitLeakageCurve } from "./leakage-curve.js";
 
 type Parsed<C extends FitSpec["curve"]> = Extract<FitSpec, { curve: C }>;
 type Body = Omit<FitOutput, "modelVersion" | "caution" | "assumptions">;
@@ -106,13 +106,7 @@ export function zthFit(input: Parsed<"zth">, assumptions: string[]): Body {
 }
 
 export function reverseLeakageFit(input: Parsed<"reverse-leakage">, assumptions: string[]): Body {
-  const fit = fitLeakage(input.points.map((p) => ({ tempK: cToK(p.tjC), reverseV: p.reverseV, currentA: p.currentA })));
-  if (!fit.ok) throw refusedFit(["points"], fit.reason, fit.points);
-  const fitM = new Set(input.points.map((p) => p.reverseV)).size >= 2;
-  const exact = (fitM ? 3 : 2) === input.points.length;
-  if (!fitM) assumptions.push("reverse-leakage: the points are at one reverse voltage, so the VR power m is 0 (the law holds at that voltage)");
-  const describe = (i: number) => `${input.points[i]?.tjC} °C, ${input.points[i]?.reverseV} V, ${input.points[i]?.currentA} A`;
-  if (!exact) assumptions.push(gateFit(fit.quality, input.acceptFit, ["points"], "reverse-leakage: barrier height, VR power and reference current fitted", "A", input.points.length, describe));
+  const { fit, fitsVoltage: fitM, exact } = fitLeakageCurve(input, [], assumptions);
   const l = fit.params;
   const se = fit.standardErrors;
   return {

@@ -2,8 +2,9 @@ import type { StageSpec } from "../../contracts/stage.js";
 import { cToK } from "../../domain/physics/constants.js";
 import type { RdsTempLaw } from "../../domain/physics/mosfet-channel.js";
 import type { ThermalPath } from "../../domain/physics/thermal-path.js";
-import type { MosfetModel, StageModel } from "../../domain/stages/stage-model.js";
+import type { DatasheetLeakage, MosfetModel, StageModel } from "../../domain/stages/stage-model.js";
 import { toDiodeParams } from "./diode-params.js";
+import { fitLeakageCurve } from "./leakage-curve.js";
 
 type MosfetSpec = Extract<StageSpec, { mosfet: unknown }>["mosfet"];
 type TempLawSpec = NonNullable<MosfetSpec["rdsOnTemp"]>;
@@ -20,7 +21,7 @@ export function toStageModel(spec: StageSpec, thermal: ThermalPath, path: (strin
         kind: spec.kind,
         diode: toDiodeParams(spec.diode, spec.kind === "pn-diode" ? "pn" : "schottky", [...path, "diode"], assumptions),
         reverseRatingV: spec.reverseRatingV,
-        ...(spec.reverseLeakage === undefined ? {} : { reverseLeakage: { currentA: spec.reverseLeakage.currentA, tempK: cToK(spec.reverseLeakage.tempC) } }),
+        ...(spec.reverseLeakage === undefined ? {} : { reverseLeakage: toLeakage(spec.reverseLeakage, [...path, "reverseLeakage"], assumptions) }),
         tjMaxC: spec.tjMaxC,
         thermal,
         ...(spec.avalancheEnergyJ === undefined ? {} : { avalancheEnergyJ: spec.avalancheEnergyJ }),
@@ -101,6 +102,11 @@ function toTempLaw(law: TempLawSpec | undefined, path: (string | number)[], assu
   }
   if (law.law === "power") return { law: "power", exponent: law.exponent };
   return { law: "points", points: law.points.map((p) => ({ tempK: cToK(p.tjC), factor: p.factor })) };
+}
+
+function toLeakage(l: NonNullable<Extract<StageSpec, { kind: "pn-diode" | "schottky-diode" }>["reverseLeakage"]>, path: (string | number)[], assumptions: string[]): DatasheetLeakage {
+  if ("points" in l) return { law: fitLeakageCurve(l, path, assumptions).fit.params };
+  return { currentA: l.currentA, tempK: cToK(l.tempC) };
 }
 
 function blocksReverse(spec: Extract<StageSpec, { kind: "integrated-switch" }>, path: (string | number)[], assumptions: string[]): boolean {

@@ -1,13 +1,16 @@
 import { cToK, kToC } from "../physics/constants.js";
 import { type DiodeParams, saturationCurrentAt, emissionVoltageV } from "../physics/diode.js";
+import { leakageCurrentA } from "../physics/schottky-leakage.js";
 import { totalRthKPerW } from "../physics/thermal-path.js";
 import { thermalFixedPoint } from "../solve/thermal-fixed-point.js";
-import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
+import { type DatasheetLeakage, type StageModel, stageTjMaxC } from "../stages/stage-model.js";
 
-/** A datasheet reverse-leakage point; scaled in temperature by the junction's own Is(T) law. */
-export interface LeakagePoint {
-  readonly currentA: number;
-  readonly tempK: number;
+/** A datasheet reverse leakage: a point scaled by the junction's own Is(T) law, or a fitted law. */
+export type LeakagePoint = DatasheetLeakage;
+
+/** The same leakage law scaled by s (the sizing's search over a template's leakage). */
+export function scaleLeakage(l: LeakagePoint, s: number): LeakagePoint {
+  return "law" in l ? { law: { ...l.law, refCurrentA: s * l.law.refCurrentA } } : { currentA: s * l.currentA, tempK: l.tempK };
 }
 
 export interface ReverseStress {
@@ -35,9 +38,13 @@ export type ReverseSteadyResult =
     }
   | { readonly outcome: "leakage-runaway"; readonly stress: ReverseStress; readonly reason: string; readonly leakageAtLimitA: number };
 
-/** Reverse current of a junction at reverse voltage vR: Is(T)·(1 − e^(−vR/(n·Vt))), Shockley. */
+/**
+ * Reverse current of a junction at reverse voltage vR: Is(T)·(1 − e^(−vR/(n·Vt))), Shockley; with
+ * a datasheet point, that point scaled by Is(T)/Is(T_point); with a fitted law, the law at (T, vR).
+ */
 export function junctionLeakageA(d: DiodeParams, reverseV: number, tK: number, point?: LeakagePoint): number {
   const shape = -Math.expm1(-reverseV / (emissionVoltageV(d, tK)));
+  if (point && "law" in point) return leakageCurrentA(point.law, tK, reverseV);
   if (point) return (point.currentA * saturationCurrentAt(d, tK)) / saturationCurrentAt(d, point.tempK);
   return saturationCurrentAt(d, tK) * shape;
 }

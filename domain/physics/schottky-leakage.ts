@@ -25,12 +25,12 @@ export interface LeakageLaw {
 
 /** ln(I_R/I_ref) of the law at (tK, reverseV); reverseV > 0. */
 export function leakageLogRatio(law: LeakageLaw, tK: number, reverseV: number): number {
-  return (
-    2 * Math.log(tK / law.refTempK) - (law.barrierEv / K_EV_PER_K) * (1 / tK - 1 / law.refTempK) + law.voltageExponent * Math.log(reverseV / law.refVoltageV)
-  );
+  const voltage = law.voltageExponent === 0 ? 0 : law.voltageExponent * Math.log(reverseV / law.refVoltageV);
+  return 2 * Math.log(tK / law.refTempK) - (law.barrierEv / K_EV_PER_K) * (1 / tK - 1 / law.refTempK) + voltage;
 }
 
-/** Reverse leakage current at junction temperature tK and reverse voltage reverseV (> 0), A. */
+/** Reverse leakage current at junction temperature tK and reverse voltage reverseV, A (0 at no reverse bias). */
 export function leakageCurrentA(law: LeakageLaw, tK: number, reverseV: number): number {
+  if (!(reverseV > 0)) return 0;
   return law.refCurrentA * Math.exp(leakageLogRatio(law, tK, reverseV));
 }

@@ -1,4 +1,4 @@
-import { reverseSteady, junctionLeakageA } from "../checks/reverse-steady.js";
+import { reverseSteady, junctionLeakageA, scaleLeakage, type LeakagePoint } from "../checks/reverse-steady.js";
 import { cToK, T25_K } from "../physics/constants.js";
 import type { DiodeStage } from "../stages/stage-model.js";
 import type { SizingContext } from "./assessment.js";
@@ -23,10 +23,10 @@ export function leakageLimit(ctx: SizingContext, stage: DiodeStage): SpecItem {
   if (req.ambientMaxC >= target) {
     return { ...base, outcome: "impossible", source, reason: `the ${req.ambientMaxC} °C ambient alone reaches the ${fmt(target)} °C junction target (Tj(max) − ${req.tjMarginK} K): no leakage is small enough` };
   }
-  const point = stage.reverseLeakage ?? { currentA: junctionLeakageA(stage.diode, vr, T25_K), tempK: T25_K };
+  const point: LeakagePoint = stage.reverseLeakage ?? { currentA: junctionLeakageA(stage.diode, vr, T25_K), tempK: T25_K };
   const leakAt = (s: number, tC: number) => s * junctionLeakageA(stage.diode, vr, cToK(tC), point);
   const g = (s: number): number | undefined => {
-    const r = reverseSteady(stage, vr, req.ambientMaxC, { currentA: s * point.currentA, tempK: point.tempK });
+    const r = reverseSteady(stage, vr, req.ambientMaxC, scaleLeakage(point, s));
     return r.outcome === "blocks" ? (target - r.tjC) / target : undefined;
   };
   const search = largestScale(g, 1e-12, 1e12);

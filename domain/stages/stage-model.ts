@@ -1,4 +1,5 @@
 import type { DiodeParams } from "../physics/diode.js";
+import type { LeakageLaw } from "../physics/schottky-leakage.js";
 import type { ChannelParams } from "../physics/mosfet-channel.js";
 import type { ThermalPath } from "../physics/thermal-path.js";
 
@@ -12,8 +13,8 @@ export type StageKind = StageModel["kind"];
 export interface DiodeStage {
   readonly kind: "pn-diode" | "schottky-diode";
   readonly diode: DiodeParams;
-  /** A datasheet reverse-leakage point (at the rated reverse voltage); absent: Is(T) of the fit. */
-  readonly reverseLeakage?: { readonly currentA: number; readonly tempK: number };
+  /** The datasheet's reverse leakage; absent: Is(T) of the forward fit. */
+  readonly reverseLeakage?: DatasheetLeakage;
   readonly reverseRatingV: number;
   readonly tjMaxC: number;
   readonly thermal: ThermalPath;
@@ -22,6 +23,12 @@ export interface DiodeStage {
   /** Repetitive peak forward current rating IFRM, A; absent: not given. */
   readonly peakRepetitiveCurrentA?: number;
 }
+
+/**
+ * A datasheet reverse leakage: one point (at the rated reverse voltage), scaled in temperature by
+ * the junction's own Is(T) law; or a thermionic-emission law fitted to IR(Tj, VR) points.
+ */
+export type DatasheetLeakage = { readonly currentA: number; readonly tempK: number } | { readonly law: LeakageLaw };
 
 export interface MosfetModel {
   readonly channel: ChannelParams;
