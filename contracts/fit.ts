@@ -29,8 +29,8 @@ const rdsOnTemperature = z.strictObject({
   acceptFit: acceptFit("5 % of Rds(on)"),
 });
 
-const zth = z.strictObject({
-  curve: z.literal("zth"),
+/** Single-pulse Zth(t) points and how to fit them (the fit procedure's and a candidate's transient thermal form). */
+export const zthCurveFields = {
   points: points(
     z.strictObject({ timeS: quantity("s", "pulse duration", { gt: 0, le: 1e6 }), zthKPerW: quantity("K/W", "single-pulse transient thermal impedance", { gt: 0, le: 10_000 }) }),
     "single-pulse Zth(t) points",
@@ -38,7 +38,8 @@ const zth = z.strictObject({
   steadyKPerW: quantity("K/W", "the steady thermal resistance the network's ΣR must equal (absent: ΣR fitted freely)", { gt: 0, le: 10_000 }).optional(),
   stages: z.number().int().min(1).max(5).optional().meta({ description: "number of Foster stages (absent: the fewest of 1..5 within 5 % of Zth)" }),
   acceptFit: acceptFit("5 % of Zth"),
-});
+};
+const zth = z.strictObject({ curve: z.literal("zth"), ...zthCurveFields });
 
 const reverseLeakage = z.strictObject({ curve: z.literal("reverse-leakage"), ...reverseLeakageCurve.shape });
 

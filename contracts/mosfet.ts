@@ -14,6 +14,17 @@ export const rdsTempLaw = z
         .min(2)
         .meta({ description: "normalised on-resistance against junction temperature, increasing Tj" }),
     }),
+    z
+      .strictObject({
+        law: z.literal("power-fit"),
+        points: z
+          .array(z.strictObject({ tjC: temperatureC("junction temperature"), factor: z.number().gt(0).lte(100).meta({ description: "Rds(on)(Tj)/Rds(on)(25 °C)", unit: "1" }) }))
+          .min(2)
+          .max(64)
+          .meta({ description: "normalised on-resistance against junction temperature, read off the datasheet's curve" }),
+        acceptFit: z.boolean().optional().meta({ description: "use a fit whose worst residual exceeds 5 % of Rds(on) (default false: refused, naming the point)" }),
+      })
+      .meta({ description: "the power law (T/298.15 K)^α with α fitted to the points by least squares (the factor held at 1 at 25 °C)" }),
   ])
   .meta({ description: "temperature law of Rds(on) (default: power law, α = 2.3, common practice)" });
 

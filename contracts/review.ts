@@ -6,6 +6,7 @@ import { quantity, temperatureC } from "./quantity.js";
 import { requirement } from "./requirement.js";
 import { stageInput } from "./stage.js";
 import { thermalPath } from "./thermal.js";
+import { zthCurveFields } from "./fit.js";
 
 export const transientThermal = z
   .discriminatedUnion("kind", [
@@ -17,8 +18,14 @@ export const transientThermal = z
         .max(12),
     }),
     z.object({ kind: z.literal("single-pole"), heatCapacityJPerK: quantity("J/K", "heat capacity of the junction-to-ambient path", { gt: 0, le: 1e6 }) }),
+    z
+      .strictObject({ kind: z.literal("zth-points"), ...zthCurveFields })
+      .meta({ description: "single-pulse junction-to-ambient Zth(t) points, fitted to a Foster network (steadyKPerW default: the stage's thermal path)" }),
   ])
-  .meta({ description: "transient thermal model for start-up profiles: a Foster network, or one pole from RthJA and a heat capacity (absent: quasi-static steady state, an upper bound)" });
+  .meta({
+    description:
+      "transient thermal model for start-up profiles: a Foster network, one pole from RthJA and a heat capacity, or Zth(t) points fitted to a Foster network (absent: quasi-static steady state, an upper bound)",
+  });
 
 export const candidate = z.object({
   label: z.string().min(1).max(200).optional(),

@@ -1,11 +1,10 @@
 import type { FitOutput, FitSpec } from "../../contracts/fit.js";
-import { fitFoster } from "../../domain/fit/foster-fit.js";
 import { type FitQuality, withinBound } from "../../domain/fit/fit-quality.js";
-import { fitRdsTemperature } from "../../domain/fit/rds-temperature-fit.js";
-import { cToK, kToC } from "../../domain/physics/constants.js";
+import { kToC } from "../../domain/physics/constants.js";
 import { fitDiodePoints } from "./diode-params.js";
-import { gateFit, refusedFit } from "./fit-gate.js";
 import { fitLeakageCurve } from "./leakage-curve.js";
+import { fitRdsTempCurve } from "./rds-temp-curve.js";
+import { fitZthCurve } from "./transient-thermal.js";
 
 type Parsed<C extends FitSpec["curve"]> = Extract<FitSpec, { curve: C }>;
 type Body = Omit<FitOutput, "modelVersion" | "caution" | "assumptions">;
@@ -60,11 +59,7 @@ export function diodeForwardFit(input: Parsed<"diode-forward">, assumptions: str
 }
 
 export function rdsOnTemperatureFit(input: Parsed<"rds-on-temperature">, assumptions: string[]): Body {
-  const fit = fitRdsTemperature(input.points.map((p) => ({ tempK: cToK(p.tjC), value: p.rdsOnOhm })));
-  if (!fit.ok) throw refusedFit(["points"], fit.reason, fit.points);
-  const exact = input.points.length === 2;
-  const describe = (i: number) => `${input.points[i]?.tjC} °C, ${input.points[i]?.rdsOnOhm} ohm`;
-  if (!exact) assumptions.push(gateFit(fit.quality, input.acceptFit, ["points"], "Rds(on)(Tj): R25 and the exponent of (T/298.15 K)^a fitted", "ohm", input.points.length, describe));
+  const { fit, exact } = fitRdsTempCurve(input, false, [], assumptions);
   return {
     curve: "rds-on-temperature",
     method: exact ? "exact" : "least-squares",
@@ -79,16 +74,7 @@ export function rdsOnTemperatureFit(input: Parsed<"rds-on-temperature">, assumpt
 }
 
 export function zthFit(input: Parsed<"zth">, assumptions: string[]): Body {
-  const fit = fitFoster(
-    input.points.map((p) => ({ timeS: p.timeS, zthKPerW: p.zthKPerW })),
-    { ...(input.stages === undefined ? {} : { stages: input.stages }), ...(input.steadyKPerW === undefined ? {} : { steadyKPerW: input.steadyKPerW }) },
-  );
-  if (!fit.ok) throw refusedFit(["points"], fit.reason, fit.points);
-  const k = fit.params.terms.length;
-  const exact = (input.steadyKPerW === undefined ? 2 * k : 2 * k - 1) === input.points.length;
-  const describe = (i: number) => `${input.points[i]?.timeS} s, ${input.points[i]?.zthKPerW} K/W`;
-  const what = `Zth(t): a ${k}-stage Foster network fitted${input.steadyKPerW === undefined ? "" : ` with its sum of R held at ${input.steadyKPerW} K/W`}`;
-  if (!exact) assumptions.push(gateFit(fit.quality, input.acceptFit, ["points"], what, "K/W", input.points.length, describe));
+  const { fit, exact } = fitZthCurve(input, undefined, [], assumptions);
   return {
     curve: "zth",
     method: exact ? "exact" : "least-squares",

@@ -35,6 +35,8 @@ export function sizingContext(
   stage: { spec: StageSpec; model: StageModel },
   cand: { transientThermal?: TransientThermalInput; datasheetMax?: { rdsOnFactor: number; forwardVoltageFactor: number } | undefined },
   turnOff: TurnOffRequest | undefined,
+  path: (string | number)[] = [],
+  assumptions: string[] = [],
 ): SizingContext {
   const flags = {
     parallelSources: r.parallelSources ?? false,
@@ -43,7 +45,7 @@ export function sizingContext(
     ...(r.lossBudgetW === undefined ? {} : { lossBudgetW: r.lossBudgetW }),
   };
   const { mission: _mission, ...searchReq } = req.model;
-  const transientThermal = transientThermalOf(cand.transientThermal, stage.model);
+  const transientThermal = transientThermalOf(cand.transientThermal, stage.model, [...path, "transientThermal"], assumptions);
   const datasheetMax: StageScale | undefined = cand.datasheetMax ? { ...UNSCALED, ...cand.datasheetMax } : undefined;
   const assess = (s: StageModel) => {
     const review = reviewCandidate(searchReq, { stage: s, transientThermal, ...(datasheetMax ? { datasheetMax } : {}) });

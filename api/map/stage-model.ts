@@ -5,6 +5,7 @@ import type { ThermalPath } from "../../domain/physics/thermal-path.js";
 import type { DatasheetLeakage, MosfetModel, StageModel } from "../../domain/stages/stage-model.js";
 import { toDiodeParams } from "./diode-params.js";
 import { fitLeakageCurve } from "./leakage-curve.js";
+import { fitRdsTempCurve } from "./rds-temp-curve.js";
 
 type MosfetSpec = Extract<StageSpec, { mosfet: unknown }>["mosfet"];
 type TempLawSpec = NonNullable<MosfetSpec["rdsOnTemp"]>;
@@ -101,6 +102,7 @@ function toTempLaw(law: TempLawSpec | undefined, path: (string | number)[], assu
     return { law: "power", exponent: DEFAULT_RDS_EXPONENT };
   }
   if (law.law === "power") return { law: "power", exponent: law.exponent };
+  if (law.law === "power-fit") return { law: "power", exponent: fitRdsTempCurve(law, true, path, assumptions).fit.params.exponent };
   return { law: "points", points: law.points.map((p) => ({ tempK: cToK(p.tjC), factor: p.factor })) };
 }
 

@@ -35,7 +35,7 @@ export const review = publicProcedure.input(reviewInput).query(({ input, ctx }):
   const evaluated = input.candidates.map((c, index) => {
     const path = ["candidates", index, "stage"];
     const stage = resolveStage(c.stage, ctx.catalog, path, assumptions, c.thermal);
-    const transientThermal = transientThermalOf(c.transientThermal, stage.model);
+    const transientThermal = transientThermalOf(c.transientThermal, stage.model, [...path.slice(0, 2), "transientThermal"], assumptions);
     const datasheetMax = c.datasheetMax ? Object.assign({}, UNSCALED, c.datasheetMax) : undefined;
     const turnOffController = req.model.turnOff ? controllerTiming(stage.spec, stage.model, c.turnOffTiming ?? input.requirement.turnOff?.timing, c.turnOffTiming ? [...path.slice(0, 2), "turnOffTiming"] : ["requirement", "turnOff", "timing"], assumptions) : undefined;
     // Unless the requirement sets its own derating, the clamp window follows the rule set.

@@ -24,7 +24,7 @@ export const sizing = router({
     if (input.ruleSet === undefined) assumptions.push("rule set: the built-in default (common practice)");
     const specifications = input.templates.map((c, index) => {
       const stage = resolveStage(c.stage, ctx.catalog, ["templates", index, "stage"], assumptions, c.thermal);
-      const sctx = sizingContext(input.requirement, req, set, stage, c, input.turnOff);
+      const sctx = sizingContext(input.requirement, req, set, stage, c, input.turnOff, ["templates", index], assumptions);
       const spec = specifyStage(sctx, stage.model);
       return { index, label: c.label ?? stage.spec.name ?? stage.partId ?? `template ${index}`, stage: stageLabel(stage.spec, stage.partId), items: [...spec.items] };
     });

@@ -16,10 +16,11 @@ export const RDS_FIT_BOUND = 0.05;
  * Fit the power law R(T) = R25·(T/298.15 K)^α (mosfet-channel.ts, common practice) to Rds(on)
  * against Tj, by least squares on ln R (every point weighted by its relative error), α held in
  * 0..5 as the contracts hold it. R25 is fitted too (a normalised curve gives R25 near 1), so the
- * exponent does not lean on one point. Refused: fewer than two temperatures, and a curve that falls
+ * exponent does not lean on one point; normalised points (a factor R/R25) hold R25 at 1. Refused: fewer than two temperatures, and a curve that falls
  * with rising Tj by more than the bound (no α ≥ 0 follows it), with the offending points.
  */
-export function fitRdsTemperature(points: readonly RdsTempPoint[]): CurveFit<{ readonly r25: number; readonly exponent: number }> {
+export function fitRdsTemperature(points: readonly RdsTempPoint[], opts: { readonly normalised?: boolean } = {}): CurveFit<{ readonly r25: number; readonly exponent: number }> {
+  const normalised = opts.normalised === true;
   if (new Set(points.map((p) => p.tempK)).size < 2) return refuse("an Rds(on)(Tj) fit needs points at two temperatures or more");
   const fall = firstFall(
     points.map((p) => p.tempK),
@@ -31,17 +32,20 @@ export function fitRdsTemperature(points: readonly RdsTempPoint[]): CurveFit<{ r
   }
   const x = points.map((p) => Math.log(p.tempK / T25_K));
   const y = points.map((p) => Math.log(p.value));
-  const sol = leastSquares({
-    residuals: (u) => x.map((xi, i) => (u[0] ?? 0) + (u[1] ?? 0) * xi - (y[i] ?? 0)),
-    start: [y.reduce((s, v) => s + v, 0) / y.length, 2.3],
-    lower: [Number.NEGATIVE_INFINITY, 0],
-    upper: [Number.POSITIVE_INFINITY, 5],
-  });
+  // Normalised points (R/R25) hold ln R25 at 0, fitting the exponent alone: the law as a part uses it.
+  const sol = normalised
+    ? leastSquares({ residuals: (u) => x.map((xi, i) => (u[0] ?? 0) * xi - (y[i] ?? 0)), start: [2.3], lower: [0], upper: [5] })
+    : leastSquares({
+        residuals: (u) => x.map((xi, i) => (u[0] ?? 0) + (u[1] ?? 0) * xi - (y[i] ?? 0)),
+        start: [y.reduce((s, v) => s + v, 0) / y.length, 2.3],
+        lower: [Number.NEGATIVE_INFINITY, 0],
+        upper: [Number.POSITIVE_INFINITY, 5],
+      });
   if (sol.outcome !== "solved") return refuse(sol.reason);
-  const r25 = Math.exp(sol.params[0] ?? 0);
-  const exponent = sol.params[1] ?? 0;
+  const r25 = normalised ? 1 : Math.exp(sol.params[0] ?? 0);
+  const exponent = (normalised ? sol.params[0] : sol.params[1]) ?? 0;
   const modelled = points.map((p) => r25 * Math.exp(exponent * Math.log(p.tempK / T25_K)));
-  const [seLn, seExp] = sol.standardErrors;
+  const [seLn, seExp] = normalised ? [undefined, sol.standardErrors[0]] : sol.standardErrors;
   return {
     ok: true,
     params: { r25, exponent },
