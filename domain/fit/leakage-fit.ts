@@ -35,26 +35,20 @@ function groups(points: readonly LeakagePointTV[], key: (p: LeakagePointTV) => n
  */
 export function fitLeakage(points: readonly LeakagePointTV[]): CurveFit<LeakageLaw> {
   if (new Set(points.map((p) => p.tempK)).size < 2) return refuse("a leakage fit needs points at two junction temperatures or more (the barrier height comes from the temperature slope)");
-  for (const g of groups(points, (p) => p.reverseV)) {
-    const fall = firstFall(
-      g.map((i) => points[i]?.tempK ?? 0),
-      g.map((i) => points[i]?.currentA ?? 0),
-      LEAKAGE_FIT_BOUND,
-    );
-    if (fall) {
+  const sweeps = [
+    { along: (p: LeakagePointTV) => p.tempK, held: (p: LeakagePointTV) => p.reverseV, what: "Tj", same: "VR", why: "thermionic emission rises with temperature" },
+    { along: (p: LeakagePointTV) => p.reverseV, held: (p: LeakagePointTV) => p.tempK, what: "VR", same: "Tj", why: "no leakage law follows that" },
+  ];
+  for (const sweep of sweeps) {
+    for (const g of groups(points, sweep.held)) {
+      const fall = firstFall(
+        g.map((i) => (points[i] === undefined ? 0 : sweep.along(points[i]))),
+        g.map((i) => points[i]?.currentA ?? 0),
+        LEAKAGE_FIT_BOUND,
+      );
+      if (fall === undefined) continue;
       const pair = [g[fall[0]] ?? 0, g[fall[1]] ?? 0];
-      return refuse(`the reverse current falls by more than 25 % with rising Tj between points ${pair[0]} and ${pair[1]} (same VR): thermionic emission rises with temperature`, pair);
-    }
-  }
-  for (const g of groups(points, (p) => p.tempK)) {
-    const fall = firstFall(
-      g.map((i) => points[i]?.reverseV ?? 0),
-      g.map((i) => points[i]?.currentA ?? 0),
-      LEAKAGE_FIT_BOUND,
-    );
-    if (fall) {
-      const pair = [g[fall[0]] ?? 0, g[fall[1]] ?? 0];
-      return refuse(`the reverse current falls by more than 25 % with rising VR between points ${pair[0]} and ${pair[1]} (same Tj): no leakage law follows that`, pair);
+      return refuse(`the reverse current falls by more than 25 % with rising ${sweep.what} between points ${pair[0]} and ${pair[1]} (same ${sweep.same}): ${sweep.why}`, pair);
     }
   }
   const refVoltageV = Math.max(...points.map((p) => p.reverseV));
