@@ -39,13 +39,16 @@ export const diodePoints = z.object({
   acceptFit: z.boolean().optional().meta({ description: "use a least-squares fit whose worst residual exceeds 2 % of Vf (default false: such a fit is refused, naming the point)" }),
 });
 
+/** One temperature law: a linear Vf coefficient or the Eg/XTI law, not both. */
+export function oneTemperatureLaw(d: { vfTempCoVPerK?: number | undefined; energyGapEv?: number | undefined; saturationTempExponent?: number | undefined }, ctx: z.RefinementCtx): void {
+  if (d.vfTempCoVPerK !== undefined && (d.energyGapEv !== undefined || d.saturationTempExponent !== undefined)) {
+    ctx.addIssue({ code: "custom", path: ["vfTempCoVPerK"], message: "give either a linear Vf temperature coefficient or the Eg/XTI law, not both" });
+  }
+}
+
 export const diode = z
   .discriminatedUnion("model", [diodeShockley, diodePoints])
-  .superRefine((d, ctx) => {
-    if (d.vfTempCoVPerK !== undefined && (d.energyGapEv !== undefined || d.saturationTempExponent !== undefined)) {
-      ctx.addIssue({ code: "custom", path: ["vfTempCoVPerK"], message: "give either a linear Vf temperature coefficient or the Eg/XTI law, not both" });
-    }
-  })
+  .superRefine(oneTemperatureLaw)
   .meta({ description: "a junction: Shockley parameters, or datasheet (I, Vf, T) points that backstop fits" });
 export type DiodeInput = z.input<typeof diode>;
 export type DiodeSpec = z.output<typeof diode>;

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { diodePoints, diodeShockley } from "./diode.js";
+import { diodePoints, diodeShockley, oneTemperatureLaw } from "./diode.js";
 import { provenance } from "./outcome.js";
 import { quantity, temperatureC } from "./quantity.js";
 import { reverseLeakageCurve } from "./stage.js";
@@ -14,7 +14,7 @@ const points = <T extends z.ZodType>(point: T, what: string) => z.array(point).m
 const diodeForward = z.strictObject({
   curve: z.literal("diode-forward"),
   junction: z.enum(["pn", "schottky"]).meta({ description: "junction type: its SPICE Eg/XTI defaults (PN 1.11 eV/3, Schottky 0.69 eV/2)" }),
-  diode: diodePoints,
+  diode: diodePoints.superRefine(oneTemperatureLaw),
 });
 
 const rdsOnTemperature = z.strictObject({
