@@ -83,7 +83,7 @@ function fitStages(points: readonly ZthPoint[], k: number, steady: number | unde
     const hi = Math.log(tMax * widen);
     const lnTaus = Array.from({ length: k }, (_, i) => (k === 1 ? (lo + hi) / 2 : lo + ((hi - lo) * i) / (k - 1)));
     const start = steady === undefined ? [...lnTaus, ...new Array<number>(k).fill(Math.log(zMax / k))] : [...lnTaus, ...new Array<number>(k - 1).fill(0)];
-    const sol = leastSquares({ residuals, start, lower, upper });
+    const sol = leastSquares({ residuals, start, lower, upper, maxIterations: 150 });
     if (sol.outcome !== "solved" || !Number.isFinite(sol.sumSquares)) continue;
     if (best === undefined || sol.sumSquares < best.ssr) best = { u: sol.params, ssr: sol.sumSquares };
   }
