@@ -63,7 +63,7 @@ export const review = publicProcedure.input(reviewInput).query(({ input, ctx }):
 
   const ranked = rankCandidates(evaluated.map((e) => ({ index: e.index, verdict: e.verdict, ...(e.worstLossW === undefined ? {} : { worstLossW: e.worstLossW }), ...(e.cost === undefined ? {} : { cost: e.cost }) })));
   const rankOf = new Map(ranked.map((e, i) => [e.index, i + 1]));
-  const label = (e: (typeof evaluated)[number]) => e.c.label ?? e.stage.spec.name ?? e.stage.partId ?? `candidate ${e.index}`;
+  const label = (e: (typeof evaluated)[number]) => e.c.label ?? e.stage.spec.name ?? e.stage.partId ?? `candidate ${e.index + 1}`;
   const rankReason = (e: (typeof evaluated)[number]) =>
     `${e.reason}; worst-case loss ${e.worstLossW === undefined ? "undefined (a corner has no operating point)" : formatQuantity(e.worstLossW, "W")}${e.cost === undefined ? "" : `; cost ${e.cost}`}`;
 

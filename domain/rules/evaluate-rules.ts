@@ -142,7 +142,7 @@ function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: r
     const holds = cmp.op === "<" ? lhs < rhs : cmp.op === "<=" ? lhs <= rhs : cmp.op === ">" ? lhs > rhs : lhs >= rhs;
     const outcome: VerdictOutcome = holds ? "pass" : r.severity;
     const margin = cmp.bound === "upper" ? rhs - lhs : lhs - rhs;
-    const reason = holds ? null : comparisonReason(c, cmp.op, lhs, rhs, margin);
+    const reason = holds ? null : comparisonReason(r.expression, c.expression.names, cmp.op, lhs, rhs, margin);
     return verdict(c, vals, outcome, cmp.op, rhs, margin, reason, null, stamp);
   } catch (err) {
     if (err === NON_FINITE) return notApplicable(c, vals, "not-finite", "an intermediate value is not finite (division by zero, log of zero or a negative number, overflow)", stamp);
