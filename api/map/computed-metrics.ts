@@ -41,4 +41,5 @@ export const RESULT_FLAGS: Readonly<Record<string, { readonly metric: string } |
   blocks: { metric: "targetCanDrainSource" },
   currentLimited: { notALimit: "a source at its current limit is a working mode; the node voltage it gives is ruled through loadVMinV" },
   meetsRequirement: { metric: "holdUpS" },
+  aboveTjMax: { metric: "reverseTjC" },
 };
