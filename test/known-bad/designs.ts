@@ -173,6 +173,16 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     twin: review({ ...req12, load: { kind: "constant-current", currentA: 0.1 }, ambient: { minC: -40, maxC: 165 } }, pn({ tjMaxC: 175 })),
   },
   {
+    id: "rectifier-reverse-too-hot-vehicle",
+    hazard: "reverse",
+    why: "the same leaky rectifier at 155 °C ambient: its reverse junction settles about 13 K up (168 °C), inside Tj(max) but within the vehicle set's 10 K margin; the twin's stays at ambient",
+    procedure: "review",
+    rule: "reverse-tj-limit",
+    sets: ["vehicle"],
+    bad: review({ ...req12, load: { kind: "constant-current", currentA: 0.1 }, ambient: { minC: -40, maxC: 155 } }, pn({ tjMaxC: 175, diode: { model: "shockley", saturationCurrentA: "8 uA", ideality: 1.9, seriesResistanceOhm: "30 mOhm" } })),
+    twin: review({ ...req12, load: { kind: "constant-current", currentA: 0.1 }, ambient: { minC: -40, maxC: 155 } }, pn({ tjMaxC: 175 })),
+  },
+  {
     id: "schottky-30v-on-24v-reverse",
     hazard: "reverse",
     why: "a 30 V Schottky blocks the 28 V reversed 24 V battery at 93 % of VRRM",
