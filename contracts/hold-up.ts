@@ -59,6 +59,10 @@ export const holdUpOutput = z.object({
     z.object({
       stage: z.object({ kind: z.string(), name: z.string().optional(), partId: z.string().optional() }),
       result: row,
+      meetsRequirement: z.boolean().optional().meta({
+        description: "present when requiredHoldUpS is given: whether the hold-up reaches it (an outcome of holds or drains-back says only how long the output stays up; never interrupted meets it, no hold-up does not)",
+      }),
+      requirementReason: z.string().optional().meta({ description: "the hold-up against the requirement, in words with units (present with meetsRequirement)" }),
       metrics: holdUpMetrics,
       rules: ruleSetResultSchema.optional().meta({ description: "verdicts of the named rule set on this stage (present when ruleSet was given)" }),
     }),

@@ -42,6 +42,7 @@ export const mosfet = z
     bodyDiode: diode,
     avalancheEnergyJ: quantity("J", "single-pulse avalanche energy rating EAS at 25 °C starting junction temperature (for the turn-off rules)", { gt: 0, le: 1e6 }).optional(),
     peakRepetitiveCurrentA: quantity("A", "repetitive peak drain current rating (for the bridge rules)", { gt: 0, le: 1e5 }).optional(),
+    avalancheCurrentA: quantity("A", "single-pulse avalanche current rating IAS, the current at which EAS is rated (for the turn-off rules)", { gt: 0, le: 1e5 }).optional(),
   })
   .superRefine((m, ctx) => {
     m.rdsOn.forEach((p, i) => {

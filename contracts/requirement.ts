@@ -11,6 +11,7 @@ export const supplySpec = z
     minV: volts("lowest supply (overrides the class)").optional(),
     nominalV: volts("nominal supply (overrides the class)").optional(),
     maxV: volts("highest steady supply (overrides the class)").optional(),
+    jumpStartV: volts("jump-start overvoltage, lasting about a minute (overrides the class's; a custom supply has none unless given)").optional(),
   })
   .meta({ description: "the supply: a built-in class, with any value overridden, or 'custom' with all three given" });
 

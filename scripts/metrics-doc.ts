@@ -1,4 +1,6 @@
-import { type MetricDef, METRICS, PART_PARAMETERS } from "../domain/rules/metric-vocabulary.js";
+import { builtInRuleSetFiles } from "../domain/rules/built-in-sets.js";
+import { type MetricDef, METRIC_ROLES, METRICS, PART_NOT_ASSESSED, PART_PARAMETERS } from "../domain/rules/metric-vocabulary.js";
+import type { RuleSet } from "../domain/rules/rule-model.js";
 import { EXPRESSION_LIMITS, FUNCTIONS, UNIT_SCALES } from "../domain/rules/sandbox-whitelist.js";
 
 /** docs/metrics.md, generated from the vocabulary in code (npm run docs:metrics rewrites it). */
@@ -24,6 +26,7 @@ export function metricsMarkdown(): string {
     head,
     ...PART_PARAMETERS.map(row("part.")),
     "",
+    ...hazardTable(),
     "## Expression language",
     "",
     "mathjs syntax, checked against a whitelist when a rule set is loaded: numbers, `true`/`false`, `+ - * / ^`, unary `-`,",
@@ -34,4 +37,81 @@ export function metricsMarkdown(): string {
     "Everything else is refused: other functions, assignment, function definitions, property access other than `part.<name>`, matrices, objects, strings, ranges, chained comparisons, unknown names.",
     "",
   ].join("\n");
+}
+
+/** The hazard each built-in rule assesses; a rule missing here makes the generator (and so the docs test) fail. */
+const RULE_HAZARDS: Readonly<Record<string, string>> = {
+  "tj-limit": "thermal (forward)",
+  "tj-margin": "thermal (forward)",
+  "loss-budget": "thermal (forward)",
+  "load-voltage-min": "load voltage",
+  "load-voltage-headroom": "load voltage",
+  "diode-reverse-steady": "reverse polarity (voltage)",
+  "fet-vds-reverse-steady": "reverse polarity (voltage)",
+  "switch-reverse-steady": "reverse polarity (voltage)",
+  "reverse-leakage-runaway": "reverse polarity (leakage heating)",
+  "reverse-tj-limit": "reverse polarity (leakage heating)",
+  "reverse-tj-margin": "reverse polarity (leakage heating)",
+  "diode-reverse-transient": "negative transients",
+  "fet-vds-reverse-transient": "negative transients",
+  "switch-reverse-transient": "negative transients",
+  "fet-vgs-limit": "gate stress",
+  "fet-vgs-derated": "gate stress",
+  "controller-input-max": "controller or switch input",
+  "controller-input-derated": "controller or switch input",
+  "controller-reverse-max": "controller or switch input",
+  "controller-reverse-derated": "controller or switch input",
+  "clamp-standoff": "input clamp",
+  "clamp-standoff-jump-start": "input clamp",
+  "clamp-energy": "input clamp",
+  "clamp-peak-current": "input clamp",
+  "start-at-min-supply": "start-up",
+  "start-margin": "start-up",
+  "start-at-profile-minimum": "start-up",
+  "start-profile-no-dropout": "start-up",
+  "gate-drive-at-min-supply": "start-up",
+  "reverse-current-blocking": "reverse current",
+  "reverse-current-budget": "reverse current",
+  "battery-back-drain": "reverse current",
+  "avalanche-energy": "turn-off (avalanche)",
+  "avalanche-energy-margin": "turn-off (avalanche)",
+  "avalanche-current": "turn-off (avalanche)",
+  "hold-up-time": "hold-up",
+  "hold-up-margin": "hold-up",
+  "standby-quiescent": "standby",
+  "element-peak-current": "bridge elements",
+  "element-peak-current-derated": "bridge elements",
+  "capacitor-ripple": "bridge elements",
+};
+
+/** Which hazards each built-in set assesses, rule by rule, and what is deliberately not assessed. */
+function hazardTable(): string[] {
+  const sets = builtInRuleSetFiles().map(([, d]) => d as RuleSet);
+  const ids = [...new Set(sets.flatMap((s) => s.rules.map((r) => r.id)))];
+  const missing = ids.filter((id) => RULE_HAZARDS[id] === undefined);
+  if (missing.length > 0) throw new Error(`scripts/metrics-doc.ts: give the hazard of built-in rule(s) ${missing.join(", ")} in RULE_HAZARDS`);
+  const order = [...new Set(Object.values(RULE_HAZARDS))];
+  ids.sort((a, b) => order.indexOf(RULE_HAZARDS[a] ?? "") - order.indexOf(RULE_HAZARDS[b] ?? ""));
+  const cell = (s: RuleSet, id: string) => {
+    const r = s.rules.find((x) => x.id === id);
+    return r === undefined ? "—" : `${r.severity}: \`${r.expression}\`${r.when === undefined ? "" : ` when \`${r.when}\``}`;
+  };
+  const notAssessed = [
+    ...Object.entries(METRIC_ROLES).flatMap(([n, r]) => (r.notAssessed ? [`- \`${n}\` for ${r.notAssessed.stageKinds === "all" ? "every kind" : r.notAssessed.stageKinds.join(", ")}: ${r.notAssessed.reason}`] : [])),
+    ...Object.entries(PART_NOT_ASSESSED).map(([n, na]) => `- \`part.${n}\` for ${na.stageKinds === "all" ? "every kind" : na.stageKinds.join(", ")}: ${na.reason}`),
+  ];
+  return [
+    "## Hazards each built-in rule set assesses",
+    "",
+    "Every computed limit is read by a rule of every built-in set for each stage kind it applies to (test/domain/rules/soundness-invariant.test.ts); the rule's stage kinds and source are in its file.",
+    "",
+    `| hazard | rule | ${sets.map((s) => `${s.id} ${s.version}`).join(" | ")} |`,
+    `|---|---|${sets.map(() => "---|").join("")}`,
+    ...ids.map((id) => `| ${RULE_HAZARDS[id]} | \`${id}\` | ${sets.map((s) => cell(s, id)).join(" | ")} |`),
+    "",
+    "Computed figures deliberately not compared with a limit, and why:",
+    "",
+    ...notAssessed,
+    "",
+  ];
 }

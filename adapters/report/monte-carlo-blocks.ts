@@ -13,7 +13,7 @@ const FIGURES = [
 export function monteCarloBlocks(r: Review): Block[] {
   const mc: Mc | undefined = r.monteCarlo;
   if (mc === undefined) return [];
-  const label = r.candidates[mc.candidate]?.label ?? `candidate ${mc.candidate}`;
+  const label = r.candidates[mc.candidate]?.label ?? `candidate ${mc.candidate + 1}`;
   const rows = FIGURES.flatMap(([key, name]) => {
     const d = mc[key];
     return d === undefined ? [] : [[name, d.mean, d.std, d.p1, d.p50, d.p99, d.min, d.max].map((v) => ({ text: typeof v === "string" ? v : num(v) }))];

@@ -4,7 +4,7 @@ import { type Candidate, escapeHtml, num, type Review, slug } from "./format.js"
 import { htmlPage } from "./html-page.js";
 import { monteCarloBlocks } from "./monte-carlo-blocks.js";
 import { candidateCharts, type ReportChart } from "./review-charts.js";
-import { marginText, orderedVerdicts, outcomeLabel, valuesText } from "./verdicts.js";
+import { marginText, orderedVerdicts, outcomeLabel, outOfScope, outOfScopeSummary, valuesText } from "./verdicts.js";
 
 export interface ReportOptions {
   /** The request id, shown in the title and used to name the SVG files. */
@@ -23,11 +23,14 @@ export interface ReviewReport {
 const tone = (verdict: string) => (verdict === "fail" ? "verdict-fail" : verdict === "warn" ? "verdict-warn" : verdict === "pass" ? "verdict-pass" : "verdict-other");
 
 function candidateBlocks(c: Candidate, charts: readonly ReportChart[]): Block[] {
-  const ordered = orderedVerdicts(c);
+  // Rules out of scope are collapsed into one row; gaps in the evidence keep their own rows.
+  const all = orderedVerdicts(c);
+  const ordered = all.filter((v) => !outOfScope(v));
+  const skipped = all.filter(outOfScope);
   const stage = [c.stage.kind, c.stage.partId ? `part ${c.stage.partId}` : undefined].filter(Boolean).join(", ");
   const b: Block[] = [
     { kind: "section-start", id: `candidate-${c.index}`, verdict: c.verdict },
-    { kind: "heading", level: 2, text: `Rank ${c.rank} · candidate ${c.index}: ${c.label} — ${outcomeLabel(c.verdict)}` },
+    { kind: "heading", level: 2, text: `Rank ${c.rank} · candidate ${c.index + 1}: ${c.label} — ${outcomeLabel(c.verdict)}` },
     { kind: "para", tone: tone(c.verdict), text: `${outcomeLabel(c.verdict)}. ${c.rankReason}` },
   ];
   const first = ordered[0];
@@ -41,8 +44,11 @@ function candidateBlocks(c: Candidate, charts: readonly ReportChart[]): Block[] 
       cls: "verdicts",
       caption: "Verdicts, failing and warning rules first, with the values each rule read",
       headers: ["rule", "outcome", "values read", "threshold and margin", "expression", "source"],
-      rows: ordered.map((v) => [{ text: v.ruleId }, { text: v.outcome === "not-applicable" ? `n/a (${v.notApplicableCode ?? "?"})` : outcomeLabel(v.outcome), strong: v.outcome === "fail" || v.outcome === "warn" }, { text: valuesText(v) }, { text: marginText(v) }, { text: v.expression }, { text: v.source }]),
-      rowTags: ordered.map((v) => `class="verdict ${v.outcome}" data-rule="${escapeHtml(v.ruleId)}" data-outcome="${v.outcome}"`),
+      rows: [
+        ...ordered.map((v) => [{ text: v.ruleId }, { text: v.outcome === "not-applicable" ? `n/a (${v.notApplicableCode ?? "?"})` : outcomeLabel(v.outcome), strong: v.outcome === "fail" || v.outcome === "warn" }, { text: valuesText(v) }, { text: marginText(v) }, { text: v.expression }, { text: v.source }]),
+        ...(skipped.length === 0 ? [] : [[{ text: `${skipped.length} rules` }, { text: "n/a" }, { text: "" }, { text: `out of scope (${outOfScopeSummary(skipped)})` }, { text: "" }, { text: "" }]]),
+      ],
+      rowTags: [...ordered.map((v) => `class="verdict ${v.outcome}" data-rule="${escapeHtml(v.ruleId)}" data-outcome="${v.outcome}"`), ...(skipped.length === 0 ? [] : ['class="verdict not-applicable collapsed"'])],
     },
     { kind: "heading", level: 3, text: "Worst case over the corners" },
     { kind: "list", items: worstLines(c) },
@@ -103,7 +109,7 @@ function reportBlocks(r: Review, charts: readonly ReportChart[], title: string):
       kind: "table",
       cls: "ranking",
       headers: ["rank", "candidate", "verdict", "reason"],
-      rows: r.ranking.map((e) => [{ text: String(e.rank) }, { text: `${e.index}: ${e.label}` }, { text: outcomeLabel(e.verdict), strong: e.verdict === "fail" }, { text: e.reason }]),
+      rows: r.ranking.map((e) => [{ text: String(e.rank) }, { text: `${e.index + 1}: ${e.label}` }, { text: outcomeLabel(e.verdict), strong: e.verdict === "fail" }, { text: e.reason }]),
     },
   ];
   for (const e of r.ranking) {

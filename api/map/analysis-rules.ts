@@ -55,11 +55,24 @@ export function ruleSetForAnalysis(
 }
 
 /**
- * Metrics that only the reverse-current and bridge analyses compute (with the requirement inputs
- * that only their rules read). The operating point and the design review compute none of them:
- * there, rules on them are out of scope, not gaps.
+ * Metrics that only one analysis computes (with the requirement inputs that only its rules
+ * read): the design review's steady-reverse, clamp and start-profile figures, the reverse-current
+ * and bridge analyses'. Elsewhere rules on them are out of scope, not gaps.
  */
 export const ANALYSIS_ONLY_METRICS: Readonly<Record<string, readonly string[]>> = {
+  review: [
+    "reverseTjC",
+    "reverseLeakageRunaway",
+    "controllerReverseVMaxV",
+    "clampEnergyJ",
+    "clampPeakCurrentA",
+    "clampStandoffV",
+    "clampEnergyRatingJ",
+    "clampPeakCurrentRatingA",
+    "jumpStartV",
+    "startProfileMinV",
+    "startProfileDropoutS",
+  ],
   turnOff: ["peakReverseCurrentA", "absorbedEnergyJ", "eventTjC"],
   holdUp: ["holdUpS", "holdUpRequiredS"],
   oring: ["reverseCurrentA", "reverseCurrentBudgetA"],

@@ -64,12 +64,39 @@ export function partParameters(stage: StageModel): Record<string, number> {
       part["vgsMaxV"] = stage.mosfet.vgsMaxV;
       const top = stage.mosfet.channel.rdsOnPoints.at(-1);
       if (top !== undefined) part["vgsOnV"] = top.gateSourceV;
+      if (stage.mosfet.avalancheCurrentA !== undefined) part["avalancheCurrentA"] = stage.mosfet.avalancheCurrentA;
       if (stage.kind === "nfet-ideal-diode" && stage.controller.maxInputV !== undefined) part["maxInputV"] = stage.controller.maxInputV;
+      if (stage.kind === "nfet-ideal-diode" && stage.controller.reverseRatingV !== undefined) part["controllerReverseRatingV"] = stage.controller.reverseRatingV;
       break;
     }
     case "integrated-switch":
       part["maxInputV"] = stage.maxVoltageV;
+      if (stage.reverseRatingV !== undefined) part["switchReverseRatingV"] = stage.reverseRatingV;
       break;
   }
   return part;
+}
+
+/**
+ * Part ratings the stage does not state that a stress of the design review or the turn-off event
+ * is compared with: the rule is then a gap (it cannot pass), with why.
+ */
+export function missingRatings(stage: StageModel): Record<string, string> {
+  const out: Record<string, string> = {};
+  switch (stage.kind) {
+    case "nfet-ideal-diode":
+      if (stage.controller.reverseRatingV === undefined) out["part.controllerReverseRatingV"] = "the controller states no reverse rating of its input pin (controller.reverseRatingV): its survival of the reversed supply is unproven";
+      if (stage.mosfet.avalancheCurrentA === undefined) out["part.avalancheCurrentA"] = "the MOSFET states no avalanche current rating (mosfet.avalancheCurrentA)";
+      break;
+    case "pfet-high-side":
+    case "nfet-low-side":
+      if (stage.mosfet.avalancheCurrentA === undefined) out["part.avalancheCurrentA"] = "the MOSFET states no avalanche current rating (mosfet.avalancheCurrentA)";
+      break;
+    case "integrated-switch":
+      if (stage.reverseRatingV === undefined) out["part.switchReverseRatingV"] = "the switch states no reverse rating (reverseRatingV): its reverse blocking is unproven";
+      break;
+    default:
+      break;
+  }
+  return out;
 }

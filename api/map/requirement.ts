@@ -32,6 +32,9 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
   if (!(minV <= nominalV && nominalV <= maxV)) {
     throw inputProblem("invalid-input", ["requirement", "supply"], `supply must satisfy min ≤ nominal ≤ max (got ${minV}, ${nominalV}, ${maxV})`);
   }
+  // The class's jump start only where it lies above the (possibly overridden) highest supply.
+  const jumpStartV = r.supply.jumpStartV ?? (cls?.jumpStartV !== undefined && cls.jumpStartV >= maxV ? cls.jumpStartV : undefined);
+  if (jumpStartV !== undefined && !(jumpStartV >= maxV)) throw inputProblem("invalid-input", ["requirement", "supply", "jumpStartV"], `the jump-start voltage must be at least the highest steady supply (${maxV} V); got ${jumpStartV} V`);
   const sources: string[] = [];
   if (cls) sources.push(`${cls.id}: ${cls.source}`);
   const reverseV = r.reverse?.voltageV ?? cls?.reverseV ?? maxV;
@@ -78,6 +81,7 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
       supplyMinV: minV,
       supplyNominalV: nominalV,
       supplyMaxV: maxV,
+      ...(jumpStartV === undefined ? {} : { jumpStartV }),
       ambientMinC: r.ambient.minC,
       ambientMaxC: r.ambient.maxC,
       sourceResistanceOhm: r.sourceResistanceOhm ?? 0,

@@ -8,7 +8,7 @@ import type { OringOutcome } from "../../domain/solve/oring-network.js";
 import type { LoadModel } from "../../domain/solve/load-model.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
 import { closeScope, draft, putOr, type RuleInputDraft } from "./analysis-rules.js";
-import { partParameters, stageMetrics } from "./operating-point-metrics.js";
+import { missingRatings, partParameters, stageMetrics } from "./operating-point-metrics.js";
 
 type Caller = Readonly<Record<string, number | boolean>>;
 
@@ -16,6 +16,7 @@ type Caller = Readonly<Record<string, number | boolean>>;
 function stageDraft(stage: StageModel, caller: Caller): RuleInputDraft {
   const d = draft(stage.kind, caller, partParameters(stage));
   Object.assign(d.metrics, stageMetrics(stage), { blocksReverseCurrent: blocksReverseCurrent(stage) });
+  Object.assign(d.unavailable, missingRatings(stage));
   return d;
 }
 

@@ -3,7 +3,31 @@ import type { ReviewTurnOffResult } from "../../domain/review/review-turn-off.js
 import type { RuleInput } from "../../domain/rules/rule-model.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
 import { otherAnalysesMetrics } from "./analysis-rules.js";
-import { partParameters, stageMetrics } from "./operating-point-metrics.js";
+import { missingRatings, partParameters, stageMetrics } from "./operating-point-metrics.js";
+import { reviewHazardMetrics } from "./review-hazard-metrics.js";
+
+/** What the design review computes for its rules (the soundness invariant reads it: api/map/computed-metrics.ts). */
+export const REVIEW_COMPUTES = [
+  "tjWorstC",
+  "lossWorstW",
+  "dropWorstV",
+  "loadVMinV",
+  "gateDriveMinV",
+  "gateSourceVMaxV",
+  // The steady reversed supply the blocking element sees (the requirement's reverse voltage).
+  "reverseVMaxV",
+  "reverseTransientVMaxV",
+  "transientVMaxV",
+  "reverseTjC",
+  "reverseLeakageRunaway",
+  "controllerReverseVMaxV",
+  "clampEnergyJ",
+  "clampPeakCurrentA",
+  "startProfileDropoutS",
+  "peakReverseCurrentA",
+  "absorbedEnergyJ",
+  "eventTjC",
+] as const;
 
 export interface RequirementFlags {
   readonly standbyBudgetA?: number;
@@ -57,13 +81,16 @@ export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags
   }
   if (stage.kind === "pfet-high-side" || stage.kind === "nfet-low-side") {
     const clamp = stage.gateClampV;
-    const peaks = [req.supplyMaxV, ...r.transients.filter((t) => t.polarity === "positive").map((t) => t.inputPeakV)];
+    const peaks = [req.supplyMaxV, ...(req.jumpStartV === undefined ? [] : [req.jumpStartV]), ...r.transients.filter((t) => t.polarity === "positive").map((t) => t.inputPeakV)];
     metrics["gateSourceVMaxV"] = Math.max(...peaks.map((v) => (clamp === undefined ? v : Math.min(v, clamp))));
   }
   const negative = r.transients.filter((t) => t.polarity === "negative").map((t) => t.stresses[0]?.seenV ?? 0);
   metrics["reverseTransientVMaxV"] = Math.max(req.reverseV, ...negative);
   const positive = r.transients.filter((t) => t.polarity === "positive").map((t) => t.inputPeakV);
-  metrics["transientVMaxV"] = Math.max(req.supplyMaxV, ...positive);
+  // Jump start is a steady overvoltage for about a minute: the input-side ratings see it too.
+  metrics["transientVMaxV"] = Math.max(req.supplyMaxV, req.jumpStartV ?? 0, ...positive);
+  reviewHazardMetrics(stage, req, r, { metrics, unavailable, notRequired });
+  Object.assign(unavailable, missingRatings(stage));
   const part = partParameters(stage);
   if (r.turnOff !== undefined) turnOffMetrics(r.turnOff, metrics, part, unavailable);
   const elsewhere = otherAnalysesMetrics(metrics, "review");

@@ -93,6 +93,7 @@ function toMosfet(m: MosfetSpec, path: (string | number)[], assumptions: string[
     tjMaxC: m.tjMaxC,
     ...(m.avalancheEnergyJ === undefined ? {} : { avalancheEnergyJ: m.avalancheEnergyJ }),
     ...(m.peakRepetitiveCurrentA === undefined ? {} : { peakRepetitiveCurrentA: m.peakRepetitiveCurrentA }),
+    ...(m.avalancheCurrentA === undefined ? {} : { avalancheCurrentA: m.avalancheCurrentA }),
   };
 }
 

@@ -6,6 +6,7 @@ import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { ruleSetForAnalysis } from "../map/analysis-rules.js";
 import { HOLD_UP_COMPUTES, holdUpRuleInput } from "../map/reverse-current-rules.js";
 import { controllerTiming, loadMinimumV, stageLabel } from "../map/reverse-inputs.js";
+import { holdUpAgainstRequirement } from "../map/hold-up-requirement.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { publicProcedure } from "../trpc.js";
 
@@ -48,7 +49,8 @@ export const holdUp = publicProcedure.input(holdUpInput).query(({ input, ctx }):
       ...(result.outcome === "holds" ? { reverseLeakageA: result.reverseLeakageA } : {}),
     };
     const rules = set === undefined ? undefined : evaluateRuleSet(set, holdUpRuleInput(stage.model, result, input.requiredHoldUpS, input.ruleMetrics ?? {}));
-    return { stage: stageLabel(stage.spec, stage.partId), result, metrics, ...(rules === undefined ? {} : { rules }) };
+    const req = input.requiredHoldUpS === undefined ? undefined : holdUpAgainstRequirement(result, input.requiredHoldUpS);
+    return { stage: stageLabel(stage.spec, stage.partId), result, ...(req === undefined ? {} : req), metrics, ...(rules === undefined ? {} : { rules }) };
   });
   return { modelVersion: MODEL_VERSION, caution: CAUTION, assumptions, stages };
 });

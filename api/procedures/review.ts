@@ -7,6 +7,7 @@ import { reviewCurves } from "../../domain/review/curves.js";
 import type { OperatingPointOutcome } from "../../domain/solve/electrothermal-point.js";
 import { type CandidateVerdict, rankCandidates } from "../../domain/review/ranking.js";
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
+import { formatQuantity } from "../../domain/rules/quantity-text.js";
 import type { RuleSetResult } from "../../domain/rules/rule-model.js";
 import { UNSCALED } from "../../domain/stages/scale-stage.js";
 import { resolveStage } from "../map/resolve-stage.js";
@@ -62,9 +63,9 @@ export const review = publicProcedure.input(reviewInput).query(({ input, ctx }):
 
   const ranked = rankCandidates(evaluated.map((e) => ({ index: e.index, verdict: e.verdict, ...(e.worstLossW === undefined ? {} : { worstLossW: e.worstLossW }), ...(e.cost === undefined ? {} : { cost: e.cost }) })));
   const rankOf = new Map(ranked.map((e, i) => [e.index, i + 1]));
-  const label = (e: (typeof evaluated)[number]) => e.c.label ?? e.stage.spec.name ?? e.stage.partId ?? `candidate ${e.index}`;
+  const label = (e: (typeof evaluated)[number]) => e.c.label ?? e.stage.spec.name ?? e.stage.partId ?? `candidate ${e.index + 1}`;
   const rankReason = (e: (typeof evaluated)[number]) =>
-    `${e.reason}; worst-case loss ${e.worstLossW === undefined ? "undefined (a corner has no operating point)" : `${e.worstLossW.toPrecision(3)} W`}${e.cost === undefined ? "" : `; cost ${e.cost}`}`;
+    `${e.reason}; worst-case loss ${e.worstLossW === undefined ? "undefined (a corner has no operating point)" : formatQuantity(e.worstLossW, "W")}${e.cost === undefined ? "" : `; cost ${e.cost}`}`;
 
   const mc = input.monteCarlo;
   const mcTarget = mc ? evaluated[mc.candidate ?? 0] : undefined;

@@ -35,6 +35,8 @@ export type ReverseSteadyResult =
       readonly leakagePowerW: number;
       readonly tjC: number;
       readonly ambientC: number;
+      /** The junction settles above its Tj(max): it blocks, but outside its rating (the rules read reverseTjC). */
+      readonly aboveTjMax: boolean;
     }
   | { readonly outcome: "leakage-runaway"; readonly stress: ReverseStress; readonly reason: string; readonly leakageAtLimitA: number };
 
@@ -108,14 +110,14 @@ export function reverseStress(stage: StageModel, reverseV: number): { stress: Re
  */
 export function reverseSteady(stage: StageModel, reverseV: number, ambientC: number, leakagePoint?: LeakagePoint): ReverseSteadyResult {
   const { stress, junction } = reverseStress(stage, reverseV);
-  if (junction === undefined) return { outcome: "blocks", stress, leakageA: 0, leakagePowerW: 0, tjC: ambientC, ambientC };
+  if (junction === undefined) return { outcome: "blocks", stress, leakageA: 0, leakagePowerW: 0, tjC: ambientC, ambientC, aboveTjMax: ambientC > stageTjMaxC(stage) };
   const rth = totalRthKPerW(stage.thermal);
   const tjMaxC = stageTjMaxC(stage);
   const leakAt = (tK: number) => junctionLeakageA(junction, reverseV, tK, leakagePoint);
   const r = thermalFixedPoint<never>(ambientC, rth, tjMaxC + 150, (tK) => ({ ok: true, lossW: reverseV * leakAt(tK) }));
   if (r.kind === "root") {
     const leakageA = leakAt(r.tjK);
-    return { outcome: "blocks", stress, leakageA, leakagePowerW: leakageA * reverseV, tjC: kToC(r.tjK), ambientC };
+    return { outcome: "blocks", stress, leakageA, leakagePowerW: leakageA * reverseV, tjC: kToC(r.tjK), ambientC, aboveTjMax: kToC(r.tjK) > tjMaxC };
   }
   return {
     outcome: "leakage-runaway",

@@ -116,11 +116,13 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
   const designClamp = (p: { baseV: number; amplitudeV: number }): ClampDuty | undefined => {
     if (own === undefined) return undefined;
     const duty = clampExponential({ baseV: p.baseV, amplitudeV: p.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, own.clampV);
-    const conducts = duty.conducts === true;
+    // A clamp that conducts the supply the pulse rides on ("always") is within no rating.
+    const within = (rating: number | undefined, duty_: (d: Extract<ClampResult, { conducts: true }>) => number) =>
+      rating === undefined ? undefined : duty.conducts === false ? true : duty.conducts === true ? duty_(duty) <= rating : false;
     return {
       duty,
-      withinPeakCurrent: own.peakCurrentA === undefined ? undefined : !conducts || (duty.conducts === true && duty.peakCurrentA <= own.peakCurrentA),
-      withinEnergy: own.energyJ === undefined ? undefined : !conducts || (duty.conducts === true && duty.energyJ <= own.energyJ),
+      withinPeakCurrent: within(own.peakCurrentA, (d) => d.peakCurrentA),
+      withinEnergy: within(own.energyJ, (d) => d.energyJ),
       standoffClearsSteady: own.standoffV >= Math.max(ctx.supplyMaxV, ctx.reverseV),
     };
   };

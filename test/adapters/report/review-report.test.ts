@@ -165,7 +165,7 @@ describe("design-review report", () => {
     expect(rep.markdown).toContain(`rule set ${c0.rules.ruleSet.id} version ${c0.rules.ruleSet.version}, ${c0.rules.ruleSet.hash}`);
     // The worst-Tj corner's row has its Tj cell marked; no other Tj cell of that table is.
     expect(rep.markdown).toContain(`highest junction temperature: ${Number(c0.worst.tjC.value.toPrecision(4))} °C at corner ${c0.worst.tjC.corner}`);
-    const table = rep.markdown.split(`## Rank ${c0.rank} · candidate 0`)[1]?.split("### Curves")[0] ?? "";
+    const table = rep.markdown.split(`## Rank ${c0.rank} · candidate 1`)[1]?.split("### Curves")[0] ?? "";
     const row = table.split("\n").find((l) => l.startsWith(`| ${c0.worst.tjC?.corner} |`));
     expect(row?.split("|")[12]?.trim()).toBe(`**${Number(c0.worst.tjC.value.toPrecision(4))}** ◆`);
   });
@@ -194,7 +194,7 @@ describe("design-review report", () => {
     expect(failing.map((v) => v.ruleId)).toContain("loss-budget");
     expect(c?.rules.verdicts.findIndex((v) => v.ruleId === "loss-budget")).toBeGreaterThan(5); // late in the set, yet shown first
     const md = renderReviewReport(r, { id: "schottky-10a" }).markdown;
-    const section = md.split("## Rank 1 · candidate 0")[1] ?? "";
+    const section = md.split("## Rank 1 · candidate 1")[1] ?? "";
     const note = section.split("\n").find((l) => l.startsWith("Failing rule"));
     const firstFail = failing[0];
     if (!firstFail) throw new Error("no failing rule");
@@ -205,8 +205,9 @@ describe("design-review report", () => {
     // The verdict table opens with the failing rules (in rule-set order), each with its values.
     for (const [i, v] of failing.entries()) expect(rows[i]).toMatch(new RegExp(`^\\| ${v.ruleId} \\| \\*\\*FAIL\\*\\* \\|`));
     const lossRow = rows.find((l) => l.startsWith("| loss-budget |"));
-    expect(lossRow).toContain(`lossWorstW = ${Number(lossW.toPrecision(4))}`);
-    expect(lossRow).toContain("threshold <= 2,");
+    // Values, threshold and margin with their units (the vocabulary's), at 4 significant digits.
+    expect(lossRow).toContain(`lossWorstW = ${Number(lossW.toPrecision(4))} W`);
+    expect(lossRow).toContain("threshold <= 2 W,");
     expect(section.indexOf("Failing rule")).toBeLessThan(section.indexOf("| rule |"));
   });
 
@@ -235,6 +236,6 @@ describe("design-review report", () => {
     expect(stable).toBeLessThan(c?.curves?.load.length ?? 0);
     expect(pathPoints(byClass(svgOf("tj-vs-current"), "series")[0]?.getElementsByTagName("path")[0]?.getAttribute("d") ?? "")).toHaveLength(stable);
     expect(rep.markdown).toContain("corners without an operating point: 0, 1, 2, 3, 4, 5");
-    expect(rep.markdown.split("## Rank 1 · candidate 0")[1]?.split("\n").find((l) => l.startsWith("**"))).toMatch(/^\*\*FAIL\. fail: corner 0/);
+    expect(rep.markdown.split("## Rank 1 · candidate 1")[1]?.split("\n").find((l) => l.startsWith("**"))).toMatch(/^\*\*FAIL\. fail: corner 0/);
   });
 });

@@ -74,7 +74,34 @@ const DEFAULT: Record<string, RuleCases> = {
   "battery-back-drain": { pass: p("nfet-ideal-diode", { targetCanDrainSource: false }, {}), violate: v("fail", p("pfet-high-side", { targetCanDrainSource: true }, {})) },
   "element-peak-current": { pass: p("pn-diode", { peakRepetitiveCurrentA: 8 }, { ifrmA: 10 }, 10, 2), violate: v("fail", p("pn-diode", { peakRepetitiveCurrentA: 12 }, { ifrmA: 10 }, 10, -2)) },
   "element-peak-current-derated": { pass: p("nfet-ideal-diode", { peakRepetitiveCurrentA: 7 }, { ifrmA: 10 }, 8, 1), violate: v("warn", p("nfet-ideal-diode", { peakRepetitiveCurrentA: 9 }, { ifrmA: 10 }, 8, -1)) },
-  "capacitor-ripple": { pass: p("pn-diode", { capacitorRippleCurrentA: 2, capacitorRippleRatingA: 2.5 }, {}, 2.5, 0.5), violate: v("fail", p("pn-diode", { capacitorRippleCurrentA: 3, capacitorRippleRatingA: 2.5 }, {}, 2.5, -0.5)) },
+  "capacitor-ripple": { pass: p("pn-diode", { capacitorRippleCurrentA: 2, capacitorRippleRatingA: 2.5 }, {}, 2.5, 0.5), violate: v("fail", p("pn-diode", { capacitorRippleCurrentA: 3, capacitorRippleRatingA: 2.5 }, {}, 2.5, -0.5)) },  "reverse-leakage-runaway": { pass: p("schottky-diode", { reverseLeakageRunaway: false }, {}), violate: v("fail", p("schottky-diode", { reverseLeakageRunaway: true }, {})) },
+  "reverse-tj-limit": { pass: p("schottky-diode", { reverseTjC: 140 }, { tjMaxC: 150 }, 150, 10), violate: v("fail", p("schottky-diode", { reverseTjC: 155 }, { tjMaxC: 150 }, 150, -5)) },
+  // lhs = Tj(max) − reverse Tj: 150 − 120 = 30 against 25 (margin 5); 150 − 130 = 20 (margin −5).
+  "reverse-tj-margin": { pass: p("pn-diode", { reverseTjC: 120 }, { tjMaxC: 150 }, 25, 5), violate: v("warn", p("pn-diode", { reverseTjC: 130 }, { tjMaxC: 150 }, 25, -5)) },
+  // 0.8 · 40 V = 32 V.
+  "switch-reverse-steady": { pass: p("integrated-switch", { reverseVMaxV: 28 }, { switchReverseRatingV: 40 }, 32, 4), violate: v("fail", p("integrated-switch", { reverseVMaxV: 34 }, { switchReverseRatingV: 40 }, 32, -2)) },
+  "switch-reverse-transient": { pass: p("integrated-switch", { reverseTransientVMaxV: 36 }, { switchReverseRatingV: 40 }, 40, 4), violate: v("fail", p("integrated-switch", { reverseTransientVMaxV: 45 }, { switchReverseRatingV: 40 }, 40, -5)) },
+  "controller-reverse-max": { pass: p("nfet-ideal-diode", { controllerReverseVMaxV: 28 }, { controllerReverseRatingV: 40 }, 40, 12), violate: v("fail", p("nfet-ideal-diode", { controllerReverseVMaxV: 28 }, { controllerReverseRatingV: 20 }, 20, -8)) },
+  "controller-reverse-derated": { pass: p("nfet-ideal-diode", { reverseVMaxV: 28 }, { controllerReverseRatingV: 40 }, 32, 4), violate: v("warn", p("nfet-ideal-diode", { reverseVMaxV: 34 }, { controllerReverseRatingV: 40 }, 32, -2)) },
+  // max(16 V, 14 V) = 16 V.
+  "clamp-standoff": { pass: p("pn-diode", { clampStandoffV: 26, supplyMaxV: 16, reverseVMaxV: 14 }, {}, 16, 10), violate: v("fail", p("nfet-ideal-diode", { clampStandoffV: 14, supplyMaxV: 16, reverseVMaxV: 14 }, {}, 16, -2)) },
+  "clamp-standoff-jump-start": { pass: p("pn-diode", { clampStandoffV: 26, jumpStartV: 24 }, {}, 24, 2), violate: v("fail", p("pfet-high-side", { clampStandoffV: 18, jumpStartV: 24 }, {}, 24, -6)) },
+  "clamp-energy": {
+    pass: p("nfet-ideal-diode", { clampEnergyJ: 3, clampEnergyRatingJ: 5 }, {}, 5, 2),
+    violate: v("fail", p("nfet-ideal-diode", { clampEnergyJ: 51, clampEnergyRatingJ: 5 }, {}, 5, -46)),
+    off: p("pn-diode", { clampEnergyJ: 0, clampEnergyRatingJ: 5 }, {}),
+  },
+  "clamp-peak-current": {
+    pass: p("nfet-ideal-diode", { clampPeakCurrentA: 20, clampPeakCurrentRatingA: 30 }, {}, 30, 10),
+    violate: v("fail", p("nfet-ideal-diode", { clampPeakCurrentA: 43, clampPeakCurrentRatingA: 30 }, {}, 30, -13)),
+    off: p("pn-diode", { clampPeakCurrentA: 0, clampPeakCurrentRatingA: 30 }, {}),
+  },
+  "avalanche-current": {
+    pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 30 }, { avalancheCurrentA: 40 }, 40, 10),
+    violate: v("fail", p("pfet-high-side", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 50 }, { avalancheCurrentA: 40 }, 40, -10)),
+  },
+  "start-at-profile-minimum": { pass: p("nfet-ideal-diode", { startVoltageV: 3.2, startProfileMinV: 4.5 }, {}, 4.5, 1.3), violate: v("fail", p("integrated-switch", { startVoltageV: 5, startProfileMinV: 4.5 }, {}, 4.5, -0.5)) },
+  "start-profile-no-dropout": { pass: p("pn-diode", { startProfileDropoutS: 0 }, {}, 0, 0), violate: v("fail", p("pn-diode", { startProfileDropoutS: 0.02 }, {}, 0, -0.02)) },
 };
 
 const VEHICLE: Record<string, RuleCases> = {
@@ -111,7 +138,29 @@ const VEHICLE: Record<string, RuleCases> = {
   // 0.9 · 10 A = 9 A (fail); 0.7 · 10 A = 7 A (warn); ripple 0.8 · 2.5 A = 2 A.
   "element-peak-current": { pass: p("pn-diode", { peakRepetitiveCurrentA: 8 }, { ifrmA: 10 }, 9, 1), violate: v("fail", p("pn-diode", { peakRepetitiveCurrentA: 9.5 }, { ifrmA: 10 }, 9, -0.5)) },
   "element-peak-current-derated": { pass: p("schottky-diode", { peakRepetitiveCurrentA: 6 }, { ifrmA: 10 }, 7, 1), violate: v("warn", p("schottky-diode", { peakRepetitiveCurrentA: 7.5 }, { ifrmA: 10 }, 7, -0.5)) },
-  "capacitor-ripple": { pass: p("pn-diode", { capacitorRippleCurrentA: 1.8, capacitorRippleRatingA: 2.5 }, {}, 2, 0.2), violate: v("fail", p("pn-diode", { capacitorRippleCurrentA: 2.2, capacitorRippleRatingA: 2.5 }, {}, 2, -0.2)) },
+  "capacitor-ripple": { pass: p("pn-diode", { capacitorRippleCurrentA: 1.8, capacitorRippleRatingA: 2.5 }, {}, 2, 0.2), violate: v("fail", p("pn-diode", { capacitorRippleCurrentA: 2.2, capacitorRippleRatingA: 2.5 }, {}, 2, -0.2)) },  // lhs = Tj(max) − reverse Tj against 10 K (fail) and 30 K (warn).
+  "reverse-tj-limit": { pass: p("schottky-diode", { reverseTjC: 135 }, { tjMaxC: 150 }, 10, 5), violate: v("fail", p("schottky-diode", { reverseTjC: 145 }, { tjMaxC: 150 }, 10, -5)) },
+  "reverse-tj-margin": { pass: p("pn-diode", { reverseTjC: 115 }, { tjMaxC: 150 }, 30, 5), violate: v("warn", p("pn-diode", { reverseTjC: 125 }, { tjMaxC: 150 }, 30, -5)) },
+  // 0.7 · 40 V = 28 V; 0.9 · 40 V = 36 V.
+  "switch-reverse-steady": { pass: p("integrated-switch", { reverseVMaxV: 14 }, { switchReverseRatingV: 40 }, 28, 14), violate: v("fail", p("integrated-switch", { reverseVMaxV: 30 }, { switchReverseRatingV: 40 }, 28, -2)) },
+  "switch-reverse-transient": { pass: p("integrated-switch", { reverseTransientVMaxV: 35 }, { switchReverseRatingV: 40 }, 36, 1), violate: v("fail", p("integrated-switch", { reverseTransientVMaxV: 38 }, { switchReverseRatingV: 40 }, 36, -2)) },
+  "controller-reverse-max": { pass: p("nfet-ideal-diode", { controllerReverseVMaxV: 28 }, { controllerReverseRatingV: 40 }, 36, 8), violate: v("fail", p("nfet-ideal-diode", { controllerReverseVMaxV: 38 }, { controllerReverseRatingV: 40 }, 36, -2)) },
+  "controller-reverse-derated": { pass: p("nfet-ideal-diode", { reverseVMaxV: 14 }, { controllerReverseRatingV: 40 }, 28, 14), violate: v("warn", p("nfet-ideal-diode", { reverseVMaxV: 30 }, { controllerReverseRatingV: 40 }, 28, -2)) },
+  // 0.8 · 5 J = 4 J; 0.8 · 30 A = 24 A; 0.9 · 40 A = 36 A.
+  "clamp-energy": {
+    pass: p("nfet-ideal-diode", { clampEnergyJ: 3, clampEnergyRatingJ: 5 }, {}, 4, 1),
+    violate: v("fail", p("nfet-ideal-diode", { clampEnergyJ: 4.5, clampEnergyRatingJ: 5 }, {}, 4, -0.5)),
+    off: p("pn-diode", { clampEnergyJ: 0, clampEnergyRatingJ: 5 }, {}),
+  },
+  "clamp-peak-current": {
+    pass: p("nfet-ideal-diode", { clampPeakCurrentA: 20, clampPeakCurrentRatingA: 30 }, {}, 24, 4),
+    violate: v("fail", p("nfet-ideal-diode", { clampPeakCurrentA: 25, clampPeakCurrentRatingA: 30 }, {}, 24, -1)),
+    off: p("pn-diode", { clampPeakCurrentA: 0, clampPeakCurrentRatingA: 30 }, {}),
+  },
+  "avalanche-current": {
+    pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 30 }, { avalancheCurrentA: 40 }, 36, 6),
+    violate: v("fail", p("nfet-low-side", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 38 }, { avalancheCurrentA: 40 }, 36, -2)),
+  },
 };
 
 const CONSUMER: Record<string, RuleCases> = {
@@ -130,7 +179,10 @@ const CONSUMER: Record<string, RuleCases> = {
     off: NO_ENERGY,
   },
   "hold-up-margin": { pass: p("pn-diode", { holdUpS: 0.0025, holdUpRequiredS: 0.002 }, {}, 0.0022, 0.0003), violate: v("warn", p("pn-diode", { holdUpS: 0.0021, holdUpRequiredS: 0.002 }, {}, 0.0022, -0.0001)) },
-  "element-peak-current-derated": { pass: p("pn-diode", { peakRepetitiveCurrentA: 8 }, { ifrmA: 10 }, 9, 1), violate: v("warn", p("pn-diode", { peakRepetitiveCurrentA: 9.5 }, { ifrmA: 10 }, 9, -0.5)) },
+  "element-peak-current-derated": { pass: p("pn-diode", { peakRepetitiveCurrentA: 8 }, { ifrmA: 10 }, 9, 1), violate: v("warn", p("pn-diode", { peakRepetitiveCurrentA: 9.5 }, { ifrmA: 10 }, 9, -0.5)) },  // lhs = Tj(max) − reverse Tj against 10 K; 0.9 · 40 V = 36 V.
+  "reverse-tj-margin": { pass: p("pn-diode", { reverseTjC: 135 }, { tjMaxC: 150 }, 10, 5), violate: v("warn", p("pn-diode", { reverseTjC: 145 }, { tjMaxC: 150 }, 10, -5)) },
+  "switch-reverse-steady": { pass: p("integrated-switch", { reverseVMaxV: 28 }, { switchReverseRatingV: 40 }, 36, 8), violate: v("fail", p("integrated-switch", { reverseVMaxV: 37 }, { switchReverseRatingV: 40 }, 36, -1)) },
+  "controller-reverse-derated": { pass: p("nfet-ideal-diode", { reverseVMaxV: 28 }, { controllerReverseRatingV: 40 }, 36, 8), violate: v("warn", p("nfet-ideal-diode", { reverseVMaxV: 37 }, { controllerReverseRatingV: 40 }, 36, -1)) },
 };
 
 const TABLES: Record<string, Record<string, RuleCases>> = { default: DEFAULT, vehicle: VEHICLE, consumer: CONSUMER };

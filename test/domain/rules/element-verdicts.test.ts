@@ -38,7 +38,7 @@ describe("a rule set over several elements", () => {
     expect(v("vr")?.outcome).toBe("fail");
     expect(v("vr")?.element).toBe("line2High");
     expect(v("vr")?.margin).toBeCloseTo(-2, 12);
-    expect(v("vr")?.reason).toMatch(/^line2High: 34 <= 32 does not hold/);
+    expect(v("vr")?.reason).toMatch(/^line2High: reverseVMaxV = 34 V <= 32 V does not hold/);
     expect(r.outcome).toBe("fail");
   });
 

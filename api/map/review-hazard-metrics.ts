@@ -1,0 +1,72 @@
+import type { CandidateReview, ReviewRequirement } from "../../domain/review/candidate-review.js";
+import type { StageModel } from "../../domain/stages/stage-model.js";
+
+interface Scope {
+  readonly metrics: Record<string, number | boolean>;
+  readonly unavailable: Record<string, string>;
+  readonly notRequired: Record<string, string>;
+}
+
+/**
+ * The review's steady-reverse, clamp and start-profile figures → the rule vocabulary:
+ * reverseLeakageRunaway and reverseTjC (reverse-steady.ts), controllerReverseVMaxV (the steady
+ * reversed supply and every negative pulse on the controller's pin), the design clamp's worst
+ * energy and peak current over the pulses with its ratings and stand-off (transient-stress.ts),
+ * the jump-start voltage, and the start profile's lowest supply and dropout time (start-up.ts).
+ * What the requirement does not ask (no clamp, no profile, no jump start) is out of scope with
+ * why; a figure the model could not give is unavailable, so its rule cannot pass.
+ */
+export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r: CandidateReview, s: Scope): void {
+  const { metrics, unavailable, notRequired } = s;
+  const rev = r.reverse;
+  metrics["reverseLeakageRunaway"] = rev.outcome === "leakage-runaway";
+  if (rev.outcome === "blocks") metrics["reverseTjC"] = rev.tjC;
+  else unavailable["reverseTjC"] = `steady reverse polarity has no stable junction temperature (${rev.outcome}: ${rev.reason})`;
+
+  if (stage.kind === "nfet-ideal-diode") {
+    const pin = r.transients.flatMap((t) => (t.polarity === "negative" ? t.stresses.filter((x) => x.element === "controller-input").map((x) => x.seenV) : []));
+    metrics["controllerReverseVMaxV"] = Math.max(rev.stress.controllerReverseV ?? req.reverseV, ...pin);
+  }
+
+  if (req.jumpStartV !== undefined) metrics["jumpStartV"] = req.jumpStartV;
+  else notRequired["jumpStartV"] = "the supply has no jump start";
+
+  const clamp = req.transientContext.inputClamp;
+  if (clamp === undefined) {
+    for (const n of ["clampStandoffV", "clampEnergyJ", "clampPeakCurrentA", "clampEnergyRatingJ", "clampPeakCurrentRatingA"]) notRequired[n] = "the requirement has no input clamp";
+  } else {
+    metrics["clampStandoffV"] = clamp.standoffV;
+    let energyJ = 0;
+    let peakA = 0;
+    let always: string | undefined;
+    for (const t of r.transients) {
+      const d = t.designClamp?.duty;
+      if (d === undefined || d.conducts === false) continue;
+      if (d.conducts === "always") always ??= `pulse ${t.pulseId}: ${d.reason}`;
+      else {
+        energyJ = Math.max(energyJ, d.energyJ);
+        peakA = Math.max(peakA, d.peakCurrentA);
+      }
+    }
+    if (always === undefined) {
+      metrics["clampEnergyJ"] = energyJ;
+      metrics["clampPeakCurrentA"] = peakA;
+    } else {
+      unavailable["clampEnergyJ"] = always;
+      unavailable["clampPeakCurrentA"] = always;
+    }
+    if (clamp.energyJ !== undefined) metrics["clampEnergyRatingJ"] = clamp.energyJ;
+    else unavailable["clampEnergyRatingJ"] = "the input clamp states no energy rating (inputClamp.energyJ)";
+    if (clamp.peakCurrentA !== undefined) metrics["clampPeakCurrentRatingA"] = clamp.peakCurrentA;
+    else unavailable["clampPeakCurrentRatingA"] = "the input clamp states no peak current rating (inputClamp.peakCurrentA)";
+  }
+
+  const profile = req.startProfile;
+  if (profile === undefined || profile.length === 0) {
+    notRequired["startProfileMinV"] = "the requirement gives no start-up profile";
+    notRequired["startProfileDropoutS"] = "the requirement gives no start-up profile";
+  } else {
+    metrics["startProfileMinV"] = Math.min(...profile.map((p) => p.voltageV));
+    metrics["startProfileDropoutS"] = Math.max(0, ...r.startUp.profiles.map((p) => p.result.dropoutTimeS));
+  }
+}

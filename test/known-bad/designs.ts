@@ -1,0 +1,357 @@
+// Known-bad designs: each is one a practitioner rejects for one named reason, beside a near twin
+// that differs in the one thing that fixes it. Parts are invented (no manufacturer's data); the
+// physics each design leans on is named beside it (common practice, closed forms of the models).
+
+export type Hazard = "thermal" | "reverse" | "transient" | "clamp" | "controller" | "turn-off" | "hold-up" | "start-up" | "bridge" | "load" | "standby";
+
+export interface KnownBad {
+  readonly id: string;
+  readonly hazard: Hazard;
+  /** What a practitioner sees. */
+  readonly why: string;
+  readonly procedure: "review" | "holdUp" | "turnOff" | "bridgeAc";
+  /** The rule that must fail on `bad` and pass on `twin`. */
+  readonly rule: string;
+  /** Built-in sets where the hazard is a failure (default: all three). */
+  readonly sets?: readonly string[];
+  readonly bad: Record<string, unknown>;
+  readonly twin: Record<string, unknown>;
+}
+
+type Obj = Record<string, unknown>;
+
+const schottky = (o: Obj = {}): Obj => ({
+  kind: "schottky-diode",
+  name: "test Schottky",
+  diode: { model: "shockley", saturationCurrentA: "40 uA", ideality: 1.15, seriesResistanceOhm: "18 mOhm" },
+  reverseRatingV: 60,
+  tjMaxC: 175,
+  thermal: { kind: "junction-ambient", rthJaKPerW: 35 },
+  ...o,
+});
+const pn = (o: Obj = {}): Obj => ({
+  kind: "pn-diode",
+  name: "test PN rectifier",
+  diode: { model: "shockley", saturationCurrentA: "20 nA", ideality: 1.9, seriesResistanceOhm: "30 mOhm" },
+  reverseRatingV: 100,
+  tjMaxC: 150,
+  thermal: { kind: "junction-ambient", rthJaKPerW: 40 },
+  ...o,
+});
+const mosfet = (o: Obj = {}): Obj => ({
+  rdsOn: [
+    { gateSourceV: 4.5, rdsOnOhm: "4.5 mOhm" },
+    { gateSourceV: 10, rdsOnOhm: "3 mOhm" },
+  ],
+  thresholdV: 2,
+  vgsMaxV: 20,
+  vdsMaxV: 60,
+  tjMaxC: 175,
+  bodyDiode: { model: "shockley", saturationCurrentA: "8 nA", ideality: 1.4, seriesResistanceOhm: "10 mOhm" },
+  avalancheEnergyJ: "150 mJ",
+  avalancheCurrentA: "60 A",
+  ...o,
+});
+const controller = (o: Obj = {}): Obj => ({
+  startV: 3.2,
+  gateDrive: [
+    { inputV: 3.2, gateSourceV: 6 },
+    { inputV: 6, gateSourceV: 10 },
+    { inputV: 12, gateSourceV: 11 },
+  ],
+  regulatedDropV: "20 mV",
+  quiescentA: "80 uA",
+  maxInputV: 65,
+  reverseThresholdV: "30 mV",
+  turnOffDelayS: "2 us",
+  reverseRatingV: 65,
+  ...o,
+});
+const idealDiode = (m: Obj = {}, c: Obj = {}): Obj => ({
+  kind: "nfet-ideal-diode",
+  name: "test ideal diode",
+  mosfet: mosfet(m),
+  controller: controller(c),
+  thermal: { kind: "junction-ambient", rthJaKPerW: 45 },
+});
+const pfet = (m: Obj = {}, o: Obj = {}): Obj => ({
+  kind: "pfet-high-side",
+  name: "test P-FET",
+  mosfet: mosfet({ rdsOn: [{ gateSourceV: 4.5, rdsOnOhm: "19 mOhm" }, { gateSourceV: 10, rdsOnOhm: "12 mOhm" }], vdsMaxV: 60, ...m }),
+  gateClampV: 15,
+  thermal: { kind: "junction-ambient", rthJaKPerW: 50 },
+  ...o,
+});
+const integratedSwitch = (o: Obj = {}): Obj => ({
+  kind: "integrated-switch",
+  name: "test integrated switch",
+  onResistanceOhm: "25 mOhm",
+  startV: 2.5,
+  belowStart: "blocks",
+  regulatedDropV: "15 mV",
+  quiescentA: "0.2 mA",
+  maxVoltageV: 60,
+  currentLimitA: 6,
+  tjMaxC: 150,
+  thermal: { kind: "junction-ambient", rthJaKPerW: 55 },
+  reverseRatingV: 60,
+  ...o,
+});
+
+const req12: Obj = { supply: { class: "vehicle-12v-b" }, load: { kind: "constant-current", currentA: 3 }, ambient: { minC: -40, maxC: 85 }, transients: [] };
+const req24: Obj = { supply: { class: "vehicle-24v-f" }, load: { kind: "constant-current", currentA: 3 }, ambient: { minC: -40, maxC: 85 }, transients: [] };
+const review = (requirement: Obj, stage: Obj): Obj => ({ requirement, candidates: [{ stage }] });
+/** A bidirectional TVS-like input clamp: stand-off above jump start, clamping below the parts' ratings. */
+const clamp = (o: Obj = {}): Obj => ({ standoffV: 26, clampV: 40, peakCurrentA: 100, energyJ: 100, ...o });
+const crank: Obj[] = [
+  { timeS: 0, voltageV: 12 },
+  { timeS: 0.005, voltageV: 4.5 },
+  { timeS: 0.02, voltageV: 4.5 },
+  { timeS: 0.07, voltageV: 6.5 },
+  { timeS: 1, voltageV: 6.5 },
+  { timeS: 1.1, voltageV: 12 },
+];
+const turnOffEvent: Obj = { loop: { resistanceOhm: "20 mOhm", inductanceH: "1 uH" }, capacitor: { capacitanceF: "470 uF", esrOhm: "20 mOhm" } };
+const holdUp = (requiredHoldUpS: string): Obj => ({
+  stages: [idealDiode()],
+  outputV: "12 V",
+  capacitor: { capacitanceF: "1000 uF", esrOhm: "30 mOhm" },
+  load: { kind: "constant-power", powerW: 20, minVoltageV: "8 V" },
+  tjC: "85 degC",
+  requiredHoldUpS,
+  input: { kind: "open" },
+});
+const bridgeAc = (ifrm: string): Obj => ({
+  bridge: { all: pn({ peakRepetitiveCurrentA: ifrm, thermal: { kind: "junction-ambient", rthJaKPerW: 30 } }) },
+  sourceRmsV: "24 V",
+  frequencyHz: "50 Hz",
+  sourceResistanceOhm: "0.4 ohm",
+  leakageInductanceH: "1 mH",
+  capacitanceF: "2200 uF",
+  esrOhm: "40 mOhm",
+  capacitorRippleRatingA: "5 A",
+  load: { kind: "resistive", resistanceOhm: "40 ohm" },
+  ambientC: "40 degC",
+});
+
+export const KNOWN_BAD: readonly KnownBad[] = [
+  {
+    id: "schottky-hot-at-full-load",
+    hazard: "thermal",
+    why: "a 10 A Schottky at 8 A on 60 K/W at 85 °C: about 4 W, Tj far above 175 °C",
+    procedure: "review",
+    rule: "tj-limit",
+    bad: review({ ...req12, load: { kind: "constant-current", currentA: 8 } }, schottky({ thermal: { kind: "junction-ambient", rthJaKPerW: 60 } })),
+    twin: review({ ...req12, load: { kind: "constant-current", currentA: 1 } }, schottky({ thermal: { kind: "junction-ambient", rthJaKPerW: 60 } })),
+  },
+  {
+    id: "pn-diode-loses-the-load",
+    hazard: "load",
+    why: "a PN diode drops about 1 V: at the 8 V bottom of the supply the 7.5 V load is lost",
+    procedure: "review",
+    rule: "load-voltage-min",
+    bad: review({ ...req12, load: { kind: "constant-current", currentA: 0.8 }, loadMinV: 7.5 }, pn()),
+    twin: review({ ...req12, load: { kind: "constant-current", currentA: 0.8 }, loadMinV: 5 }, pn()),
+  },
+  {
+    id: "schottky-reverse-runaway",
+    hazard: "reverse",
+    why: "a 60 V Schottky on 60 K/W at 125 °C under the 28 V reversed 24 V battery: leakage runs away",
+    procedure: "review",
+    rule: "reverse-leakage-runaway",
+    bad: review({ ...req24, load: { kind: "constant-current", currentA: 0.2 }, ambient: { minC: -40, maxC: 125 } }, schottky({ thermal: { kind: "junction-ambient", rthJaKPerW: 60 } })),
+    twin: review({ ...req24, load: { kind: "constant-current", currentA: 0.2 }, ambient: { minC: -40, maxC: 125 } }, pn({ reverseRatingV: 100, thermal: { kind: "junction-ambient", rthJaKPerW: 60 } })),
+  },
+  {
+    id: "schottky-reverse-too-hot",
+    hazard: "reverse",
+    why: "a leaky rectifier at 165 °C ambient settles under the reversed battery, but its own leakage holds it above Tj(max) (a stable point lies at most about 1/(d ln IR/dT) ≈ 10-15 K above ambient)",
+    procedure: "review",
+    rule: "reverse-tj-limit",
+    sets: ["default", "consumer"],
+    bad: review({ ...req12, load: { kind: "constant-current", currentA: 0.1 }, ambient: { minC: -40, maxC: 165 } }, pn({ tjMaxC: 175, diode: { model: "shockley", saturationCurrentA: "5 uA", ideality: 1.9, seriesResistanceOhm: "30 mOhm" } })),
+    twin: review({ ...req12, load: { kind: "constant-current", currentA: 0.1 }, ambient: { minC: -40, maxC: 165 } }, pn({ tjMaxC: 175 })),
+  },
+  {
+    id: "rectifier-reverse-too-hot-vehicle",
+    hazard: "reverse",
+    why: "the same leaky rectifier at 155 °C ambient: its reverse junction settles about 13 K up (168 °C), inside Tj(max) but within the vehicle set's 10 K margin; the twin's stays at ambient",
+    procedure: "review",
+    rule: "reverse-tj-limit",
+    sets: ["vehicle"],
+    bad: review({ ...req12, load: { kind: "constant-current", currentA: 0.1 }, ambient: { minC: -40, maxC: 155 } }, pn({ tjMaxC: 175, diode: { model: "shockley", saturationCurrentA: "8 uA", ideality: 1.9, seriesResistanceOhm: "30 mOhm" } })),
+    twin: review({ ...req12, load: { kind: "constant-current", currentA: 0.1 }, ambient: { minC: -40, maxC: 155 } }, pn({ tjMaxC: 175 })),
+  },
+  {
+    id: "schottky-30v-on-24v-reverse",
+    hazard: "reverse",
+    why: "a 30 V Schottky blocks the 28 V reversed 24 V battery at 93 % of VRRM",
+    procedure: "review",
+    rule: "diode-reverse-steady",
+    bad: review(req24, schottky({ reverseRatingV: 30 })),
+    twin: review(req24, schottky({ reverseRatingV: 60 })),
+  },
+  {
+    id: "pfet-30v-on-24v-reverse",
+    hazard: "reverse",
+    why: "a 30 V P-FET's body diode blocks the 28 V reversed 24 V battery",
+    procedure: "review",
+    rule: "fet-vds-reverse-steady",
+    bad: review(req24, pfet({ vdsMaxV: 30 })),
+    twin: review(req24, pfet({ vdsMaxV: 60 })),
+  },
+  {
+    id: "switch-20v-reverse-on-24v",
+    hazard: "reverse",
+    why: "an integrated switch rated 20 V reverse under the 28 V reversed 24 V battery",
+    procedure: "review",
+    rule: "switch-reverse-steady",
+    bad: review(req24, integratedSwitch({ reverseRatingV: 20 })),
+    twin: review(req24, integratedSwitch({ reverseRatingV: 60 })),
+  },
+  {
+    id: "controller-pin-20v-reverse",
+    hazard: "controller",
+    why: "the ideal-diode controller's pin is rated 20 V reverse; the reversed 24 V battery puts 28 V on it",
+    procedure: "review",
+    rule: "controller-reverse-max",
+    bad: review(req24, idealDiode({}, { reverseRatingV: 20 })),
+    twin: review(req24, idealDiode({}, { reverseRatingV: 65 })),
+  },
+  {
+    id: "controller-input-30v-on-24v",
+    hazard: "controller",
+    why: "a controller rated 30 V input on a 24 V system whose steady maximum is 32 V and jump start 36 V",
+    procedure: "review",
+    rule: "controller-input-max",
+    bad: review(req24, idealDiode({}, { maxInputV: 30 })),
+    twin: review(req24, idealDiode({}, { maxInputV: 65 })),
+  },
+  {
+    id: "pfet-gate-unclamped-on-24v",
+    hazard: "transient",
+    why: "a P-FET with its gate tied to ground and no Zener sees the full 32 V (36 V jump start) across a 20 V gate",
+    procedure: "review",
+    rule: "fet-vgs-limit",
+    bad: review(req24, pfet({}, { gateClampV: undefined })),
+    twin: review(req24, pfet({}, { gateClampV: 15 })),
+  },
+  {
+    id: "schottky-45v-under-pulse-1",
+    hazard: "transient",
+    why: "pulse 1 (−150 V) clamped at 36 V while the output is held at 13.5 V puts 49.5 V across a 45 V Schottky",
+    procedure: "review",
+    rule: "diode-reverse-transient",
+    bad: review({ ...req12, transients: ["iso7637-2-pulse-1-12v"], inputClamp: clamp({ clampV: 36 }) }, schottky({ reverseRatingV: 45 })),
+    twin: review({ ...req12, transients: ["iso7637-2-pulse-1-12v"], inputClamp: clamp({ clampV: 36 }) }, schottky({ reverseRatingV: 60 })),
+  },
+  {
+    id: "clamp-5j-under-load-dump-a",
+    hazard: "clamp",
+    why: "an input clamp rated 5 J / 30 A takes about 51 J in load dump A (unsuppressed)",
+    procedure: "review",
+    rule: "clamp-energy",
+    bad: review({ ...req12, transients: ["iso16750-2-load-dump-a-12v"], inputClamp: clamp({ energyJ: 5, peakCurrentA: 30 }) }, idealDiode()),
+    twin: review({ ...req12, transients: ["iso16750-2-load-dump-a-12v"], inputClamp: clamp({ energyJ: 100, peakCurrentA: 100 }) }, idealDiode()),
+  },
+  {
+    id: "clamp-30a-under-pulse-2a",
+    hazard: "clamp",
+    why: "an input clamp rated 30 A peak takes about 43 A from pulse 2a's 2 ohm source",
+    procedure: "review",
+    rule: "clamp-peak-current",
+    bad: review({ ...req12, transients: ["iso7637-2-pulse-2a"], inputClamp: clamp({ energyJ: 5, peakCurrentA: 30 }) }, idealDiode()),
+    twin: review({ ...req12, transients: ["iso7637-2-pulse-2a"], inputClamp: clamp({ energyJ: 5, peakCurrentA: 60 }) }, idealDiode()),
+  },
+  {
+    id: "clamp-standoff-below-supply",
+    hazard: "clamp",
+    why: "a clamp standing off 14 V conducts the 16 V steady maximum of a 12 V system",
+    procedure: "review",
+    rule: "clamp-standoff",
+    bad: review({ ...req12, supply: { class: "vehicle-12v-b", jumpStartV: 16 }, inputClamp: clamp({ standoffV: 14, clampV: 22 }) }, idealDiode()),
+    twin: review({ ...req12, supply: { class: "vehicle-12v-b", jumpStartV: 16 }, inputClamp: clamp({ standoffV: 17, clampV: 24 }) }, idealDiode()),
+  },
+  {
+    id: "clamp-standoff-below-jump-start",
+    hazard: "clamp",
+    why: "an 18 V stand-off clamp on a 12 V vehicle line conducts for a minute at the 24 V jump start",
+    procedure: "review",
+    rule: "clamp-standoff-jump-start",
+    bad: review({ ...req12, inputClamp: clamp({ standoffV: 18, clampV: 30 }) }, idealDiode()),
+    twin: review({ ...req12, inputClamp: clamp({ standoffV: 26, clampV: 40 }) }, idealDiode()),
+  },
+  {
+    id: "ideal-diode-avalanche-energy",
+    hazard: "turn-off",
+    why: "a 10 uH loop is cut at the reverse threshold at about 9 A: the MOSFET absorbs about 0.5 mJ, above its 0.3 mJ avalanche rating derated to the event's 88 °C",
+    procedure: "review",
+    rule: "avalanche-energy",
+    bad: review({ ...req12, turnOff: { ...turnOffEvent, loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } }, idealDiode({ avalancheEnergyJ: "0.3 mJ" })),
+    twin: review({ ...req12, turnOff: { ...turnOffEvent, loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } }, idealDiode({ avalancheEnergyJ: "150 mJ" })),
+  },
+  {
+    id: "ideal-diode-avalanche-current",
+    hazard: "turn-off",
+    why: "the reverse current at turn-off exceeds the MOSFET's avalanche current rating IAS though the energy is within EAS",
+    procedure: "review",
+    rule: "avalanche-current",
+    bad: review({ ...req12, turnOff: { ...turnOffEvent, timing: { reverseThresholdV: "30 mV", turnOffDelayS: "5 us" } } }, idealDiode({ avalancheEnergyJ: "2 J", avalancheCurrentA: "2 A" })),
+    twin: review({ ...req12, turnOff: { ...turnOffEvent, timing: { reverseThresholdV: "30 mV", turnOffDelayS: "5 us" } } }, idealDiode({ avalancheEnergyJ: "2 J", avalancheCurrentA: "400 A" })),
+  },
+  {
+    id: "controller-start-above-min-supply",
+    hazard: "start-up",
+    why: "a controller that starts at 9 V on a 12 V code B supply whose minimum is 8 V",
+    procedure: "review",
+    rule: "start-at-min-supply",
+    bad: review(req12, idealDiode({}, { startV: 9 })),
+    twin: review(req12, idealDiode({}, { startV: 3.2 })),
+  },
+  {
+    id: "controller-start-above-crank-bottom",
+    hazard: "start-up",
+    why: "a controller that starts at 5 V passes the 8 V class minimum but the crank profile falls to 4.5 V",
+    procedure: "review",
+    rule: "start-at-profile-minimum",
+    bad: review({ ...req12, startProfile: crank }, idealDiode({}, { startV: 5 })),
+    twin: review({ ...req12, startProfile: crank }, idealDiode({}, { startV: 3.2 })),
+  },
+  {
+    id: "load-drops-out-in-crank",
+    hazard: "start-up",
+    why: "an 8 W constant-power load needing 5 V behind a PN diode loses its operating point at the 4.5 V crank bottom",
+    procedure: "review",
+    rule: "start-profile-no-dropout",
+    bad: review({ ...req12, load: { kind: "constant-power", powerW: 8, minVoltageV: 5 }, loadMinV: 3, startProfile: crank }, pn({ thermal: { kind: "junction-ambient", rthJaKPerW: 20 } })),
+    twin: review({ ...req12, load: { kind: "constant-power", powerW: 8, minVoltageV: 3 }, loadMinV: 3, startProfile: crank }, pn({ thermal: { kind: "junction-ambient", rthJaKPerW: 20 } })),
+  },
+  {
+    id: "standby-quiescent-over-budget",
+    hazard: "standby",
+    why: "an 80 uA controller on a 50 uA standby budget",
+    procedure: "review",
+    rule: "standby-quiescent",
+    sets: ["default", "vehicle"],
+    bad: review({ ...req12, standbyBudgetA: "50 uA" }, idealDiode()),
+    twin: review({ ...req12, standbyBudgetA: "100 uA" }, idealDiode({}, { quiescentA: "40 uA" })),
+  },
+  {
+    id: "hold-up-short-of-20ms",
+    hazard: "hold-up",
+    why: "1000 uF at 12 V into 20 W down to 8 V holds about 2 ms, not the required 20 ms",
+    procedure: "holdUp",
+    rule: "hold-up-time",
+    bad: holdUp("20 ms"),
+    twin: holdUp("1 ms"),
+  },
+  {
+    id: "bridge-element-peak-over-ifrm",
+    hazard: "bridge",
+    why: "a capacitor-input bridge's charging pulse is several times the load current: above a 3 A IFRM",
+    procedure: "bridgeAc",
+    rule: "element-peak-current",
+    bad: bridgeAc("3 A"),
+    twin: bridgeAc("40 A"),
+  },
+];
