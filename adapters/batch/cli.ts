@@ -10,7 +10,7 @@ import { loadRuleSetStore } from "../rulesets/registry.js";
 import { formatOf } from "./formats.js";
 import { mergeShards } from "./merge.js";
 import type { BatchCounts } from "./run-batch.js";
-import { reportNamer, writeBridgeAcReport, writeReviewReport } from "../report/write-report.js";
+import { reportFailed, reportNamer, writeBridgeAcReport, writeReviewReport } from "../report/write-report.js";
 import { CHUNKS_PER_THREAD, type RowHook, type Shard, streamBatch } from "./stream-batch.js";
 
 const USAGE = `usage:
@@ -138,9 +138,15 @@ async function batch(rest: string[]): Promise<number> {
   let reports = 0;
   const onRow: RowHook | undefined = reportDir
     ? (row, procedure) => {
-        if (!row.ok || (procedure !== "review" && procedure !== "bridgeAc")) return;
-        (procedure === "review" ? writeReviewReport : writeBridgeAcReport)(reportDir, nameOf(row.id, row.line), row.result, row.id ?? undefined);
+        if (!row.ok || (procedure !== "review" && procedure !== "bridgeAc")) return undefined;
+        try {
+          (procedure === "review" ? writeReviewReport : writeBridgeAcReport)(reportDir, nameOf(row.id, row.line), row.result, row.id ?? undefined);
+        } catch (e) {
+          // that line's error row; the batch goes on
+          return reportFailed(procedure, e);
+        }
         reports += 1;
+        return undefined;
       }
     : undefined;
   try {

@@ -1,5 +1,6 @@
 import cluster from "node:cluster";
 import { createServer } from "node:http";
+import { Server as NetServer } from "node:net";
 import { cpuBudget } from "../cpu-budget.js";
 import { loadCatalogFile } from "../catalog/file-catalog.js";
 import { deferredComputePool } from "../compute/pool.js";
@@ -61,6 +62,8 @@ const serverOptions = {
   requestTimeout: config.receiveTimeoutMs,
   connectionsCheckingInterval: Math.max(50, Math.min(1000, Math.floor(headersTimeout / 4))),
 };
+// the listening socket's own close, without http.Server's cut of idle connections (see shutdown)
+const netClose = NetServer.prototype.close;
 const server = createServer(serverOptions, createRequestListener({ app, ctx, logger, config, metrics, isReady, fastLane: config.fastLane }));
 server.listen(port, process.env.HOST ?? "0.0.0.0", () => {
   const info = server.address() as import("node:net").AddressInfo;
@@ -82,22 +85,33 @@ server.listen(port, process.env.HOST ?? "0.0.0.0", () => {
   logger.flush(() => (cluster.isWorker ? process.send?.({ type: "backstop:listening", text }) : process.stdout.write(text)));
 });
 
-/** Graceful stop: /readyz flips to 503 at once, then (after BACKSTOP_DRAIN_DELAY_MS) stop accepting, finish in-flight requests, exit 0. */
+/**
+ * Graceful stop: /readyz flips to 503 at once; from then every answer carries `Connection: close`,
+ * so a client's connection ends after its next answer. After BACKSTOP_DRAIN_DELAY_MS the listener
+ * stops accepting, with no connection cut: node's `server.close()` would also destroy every
+ * connection it counts as idle, and that includes one whose next request is already written but
+ * not yet read (the client gets ECONNRESET). So only the listening socket is closed (net.Server's
+ * close); a connection ends after its answer (Connection: close) or, idle, at the keep-alive
+ * timeout, which the client was told (`Keep-Alive: timeout=`) and closes its side before. Once
+ * the last connection has ended: the compute threads stop, exit 0 (1 past the shutdown timeout).
+ */
 function shutdown(signal: string): void {
   if (draining) return;
   draining = true;
   logger.info({ signal, drainDelayMs }, "draining: readiness is now false");
   setTimeout(() => process.exit(1), drainDelayMs + shutdownTimeoutMs).unref();
-  setTimeout(() => {
-    server.close((err) => {
+  // the listener closes in the check phase after the drain delay's timer: the poll phase between
+  // accepts every connection the kernel holds for it first (one left in the backlog would be reset,
+  // as it would be if a long task had kept the loop from accepting until the timer fired)
+  setTimeout(() => setImmediate(() => {
+    netClose.call(server, (err?: Error) => {
       void (pool?.close() ?? Promise.resolve()).finally(() => {
         if (err) logger.error({ err }, "close failed");
         else logger.info("in-flight requests finished; exiting");
         process.exit(err ? 1 : 0);
       });
     });
-    (server as unknown as { closeIdleConnections?: () => void }).closeIdleConnections?.();
-  }, drainDelayMs);
+  }), drainDelayMs);
 }
 process.on("SIGTERM", () => shutdown("SIGTERM"));
 // the primary gone (killed): this process drains and stops too rather than serve on alone
