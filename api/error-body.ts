@@ -9,6 +9,9 @@ import { InputProblem } from "./input-problem.js";
  * bad input reads the same over every adapter. Internal errors never carry a stack or a message
  * from inside.
  */
+/** Error codes of an input that is well formed but that the service will not answer as asked (HTTP 422). */
+export const UNPROCESSABLE_CODES: ReadonlySet<string> = new Set(["limit-exceeded", "answer-too-large", "report-failed"]);
+
 export function errorBodyOf(err: unknown): ErrorBody {
   const cause = err instanceof TRPCError ? err.cause : err;
   if (cause instanceof ZodError) {
@@ -23,7 +26,11 @@ export function errorBodyOf(err: unknown): ErrorBody {
     const where = first ? `${first.path.join(".") || "(input)"}: ${first.message}` : "invalid input";
     return over.length > 0 ? { code: "limit-exceeded", message: `input over a limit at ${where}`, issues } : { code: "invalid-input", message: `invalid input at ${where}`, issues };
   }
-  if (cause instanceof InputProblem) return { code: cause.code, message: cause.message, issues: cappedIssues(cause.issues.length, (k) => cause.issues[k] as Issue) };
+  // (a problem relayed from a compute thread was capped there: its closing count is kept as it is)
+  if (cause instanceof InputProblem) {
+    const issues = cause.issues.length <= LIMITS.maxErrorIssues + 1 ? cause.issues : cappedIssues(cause.issues.length, (k) => cause.issues[k] as Issue);
+    return { code: cause.code, message: cause.message, issues };
+  }
   if (err instanceof TRPCError && err.code === "NOT_FOUND") return { code: "unknown-procedure", message: err.message, issues: [{ path: ["procedure"], message: err.message }] };
   // a body tRPC could not read (not JSON, a bad batch): the fault is the input as a whole
   if (err instanceof TRPCError && err.code !== "INTERNAL_SERVER_ERROR") return { code: "invalid-input", message: err.message, issues: [{ path: [], message: err.message }] };

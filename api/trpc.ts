@@ -2,7 +2,7 @@ import { initTRPC } from "@trpc/server";
 import { middlewareMarker } from "@trpc/server/unstable-core-do-not-import";
 import { ZodError } from "zod";
 import type { Context } from "./context.js";
-import { errorBodyOf } from "./error-body.js";
+import { errorBodyOf, UNPROCESSABLE_CODES } from "./error-body.js";
 
 const t = initTRPC.context<Context>().create({
   errorFormatter({ shape, error }) {
@@ -10,7 +10,7 @@ const t = initTRPC.context<Context>().create({
     // an internal error's own message may hold internals: the client gets the generic one
     // and a zod error's is all its issues as JSON (unbounded): the client gets the capped body's
     const message = backstop.code === "internal" || error.cause instanceof ZodError ? backstop.message : shape.message;
-    const httpStatus = backstop.code === "limit-exceeded" ? 422 : shape.data.httpStatus;
+    const httpStatus = UNPROCESSABLE_CODES.has(backstop.code) ? 422 : shape.data.httpStatus;
     return { ...shape, message, data: { code: shape.data.code, httpStatus, path: shape.data.path, backstop } };
   },
 });

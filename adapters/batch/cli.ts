@@ -6,6 +6,7 @@ import { procedureEntry } from "../../api/procedure-registry.js";
 import { loadCatalogFile } from "../catalog/file-catalog.js";
 import { type ComputePool, createComputePool } from "../compute/pool.js";
 import { DEMO_CATALOG } from "../project-root.js";
+import { removeStalePartials } from "../atomic-file.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
 import { formatOf } from "./formats.js";
 import { mergeShards } from "./merge.js";
@@ -38,6 +39,7 @@ export function parseShard(spec: string | undefined, env: NodeJS.ProcessEnv): Sh
 /** Write to `<out>.partial-<pid>` and rename to `<out>` only when complete; remove it on any failure or signal. */
 async function atomically(outPath: string, body: (write: (t: string | Uint8Array) => Promise<void>) => Promise<void>): Promise<void> {
   const partial = `${outPath}.partial-${process.pid}`;
+  for (const f of removeStalePartials(outPath)) process.stderr.write(`backstop: removed ${f}, left by a run that no longer exists\n`);
   const onSignal = () => {
     rmSync(partial, { force: true });
     process.stderr.write(`backstop: stopped by a signal; no output written to ${outPath}\n`);

@@ -36,7 +36,10 @@ export function inputShape(value: unknown, maxDepth: number = LIMITS.maxInputDep
   return { depth, nodes, chars };
 }
 
-/** The refusal of an input nested deeper than the limit (HTTP 422), or undefined; `extra` levels allowed above an input (1 for a bulk array). */
+/**
+ * The refusal of an input nested deeper than the limit (HTTP 422), or undefined; `extra` levels
+ * allowed above an input (1 for a bulk array; its shape walked to at least the limit plus `extra`).
+ */
 export function depthProblem(shape: InputShape, extra = 0): ErrorBody | undefined {
   if (shape.depth <= LIMITS.maxInputDepth + extra) return undefined;
   const message = limitMessage("maxInputDepth", `the input nests arrays and objects more than ${LIMITS.maxInputDepth + extra} deep`);

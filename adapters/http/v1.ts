@@ -1,6 +1,7 @@
 import type { Hono } from "hono";
 import { procedureEntries, procedureEntry, procedureInvoker } from "../../api/procedure-registry.js";
 import type { Context } from "../../api/context.js";
+import { LIMITS } from "../../contracts/limits.js";
 import { answerLimitHit, callOneJson, type ItemJson } from "../compute/call.js";
 import type { ComputePool } from "../compute/pool.js";
 import type { Logger } from "../logging/logger.js";
@@ -114,7 +115,8 @@ export function mountV1(app: Hono<Env>, deps: V1Deps): void {
     const body = await readJson(c.req.raw);
     if (!body.ok) return sendProblem(c, 400, { code: "malformed-json", message: body.message, issues: [{ path: [], message: body.message }] });
     // checked before the input goes anywhere (a compute thread's structured clone recurses)
-    const deep = depthProblem(inputShape(body.value), bulk ? 1 : 0);
+    const extra = bulk ? 1 : 0; // a bulk body's items are one level down
+    const deep = depthProblem(inputShape(body.value, LIMITS.maxInputDepth + extra), extra);
     if (deep !== undefined) return sendProblem(c, 422, deep);
     let inputs: unknown[];
     if (bulk) {
