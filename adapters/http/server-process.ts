@@ -64,7 +64,12 @@ const serverOptions = {
 };
 // the listening socket's own close, without http.Server's cut of idle connections (see shutdown)
 const netClose = NetServer.prototype.close;
+const QUIET_MS = 100;
+let lastConnectionMs = 0;
 const server = createServer(serverOptions, createRequestListener({ app, ctx, logger, config, metrics, isReady, fastLane: config.fastLane }));
+server.on("connection", () => {
+  lastConnectionMs = performance.now();
+});
 server.listen(port, process.env.HOST ?? "0.0.0.0", () => {
   const info = server.address() as import("node:net").AddressInfo;
   // Work start-up need not wait for, done shortly after the server listens, once the start-up
@@ -100,10 +105,14 @@ function shutdown(signal: string): void {
   draining = true;
   logger.info({ signal, drainDelayMs }, "draining: readiness is now false");
   setTimeout(() => process.exit(1), drainDelayMs + shutdownTimeoutMs).unref();
-  // the listener closes in the check phase after the drain delay's timer: the poll phase between
-  // accepts every connection the kernel holds for it first (one left in the backlog would be reset,
-  // as it would be if a long task had kept the loop from accepting until the timer fired)
-  setTimeout(() => setImmediate(() => {
+  // the listener closes once it has accepted no connection for QUIET_MS of loop time: a connection the
+  // kernel holds for it when it closes would be reset, and after a long task (or a burst of clients)
+  // the backlog may still hold some when the drain delay ends
+  setTimeout(function closeWhenQuiet() {
+    if (performance.now() - lastConnectionMs < QUIET_MS) {
+      setTimeout(closeWhenQuiet, QUIET_MS / 4);
+      return;
+    }
     netClose.call(server, (err?: Error) => {
       void (pool?.close() ?? Promise.resolve()).finally(() => {
         if (err) logger.error({ err }, "close failed");
@@ -111,7 +120,7 @@ function shutdown(signal: string): void {
         process.exit(err ? 1 : 0);
       });
     });
-  }), drainDelayMs);
+  }, drainDelayMs);
 }
 process.on("SIGTERM", () => shutdown("SIGTERM"));
 // the primary gone (killed): this process drains and stops too rather than serve on alone

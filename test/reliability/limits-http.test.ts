@@ -19,9 +19,12 @@ const deep = (n: number) => `${'{"a":'.repeat(n)}1${"}".repeat(n)}`;
 
 let server: { child: ChildProcess; base: string };
 beforeAll(async () => {
-  server = await startBuiltServer({ BACKSTOP_HTTP_PROCESSES: "1", BACKSTOP_WORKERS: "1", BACKSTOP_REQUEST_TIMEOUT_MS: "2000", BACKSTOP_MAX_ANSWER_BYTES: "1000000", LOG_LEVEL: "warn" });
+  server = await startBuiltServer({ BACKSTOP_HTTP_PROCESSES: "1", BACKSTOP_WORKERS: "1", BACKSTOP_REQUEST_TIMEOUT_MS: "4000", BACKSTOP_MAX_ANSWER_BYTES: "1000000", LOG_LEVEL: "warn" });
   // past start-up (the compute thread and the built-in rule sets are warmed just after listening)
-  expect((await post("/v1/rules.evaluate", rulesEvaluate)).status).toBe(200);
+  // (a thread starting on a busy host may take past the budget: its first calls are retried)
+  let warm = 0;
+  for (let k = 0; k < 10 && warm !== 200; k += 1) warm = (await post("/v1/rules.evaluate", rulesEvaluate)).status;
+  expect(warm).toBe(200);
   await new Promise((r) => setTimeout(r, 1000));
 }, 60_000);
 afterAll(() => {
