@@ -67,7 +67,7 @@ describe.each(MODES)("the server process (BACKSTOP_HTTP_PROCESSES=%s)", (process
   });
 
   // The lone process (the pod's model, deploy/deployment.yaml). With two processes behind a primary,
-  // resets at shutdown remain (not fixed: see the report of issue 22's work).
+  // resets at shutdown remain (not fixed yet).
   it.runIf(processes === "1")("SIGTERM with busy keep-alive connections: every request sent on an accepted connection is answered, none reset", async () => {
     const s = await start({ BACKSTOP_WORKERS: "1", BACKSTOP_DRAIN_DELAY_MS: "300" });
     children.push(s.child);
