@@ -1,4 +1,5 @@
-import { renameSync, rmSync, writeFileSync } from "node:fs";
+import { readdirSync, renameSync, rmSync, writeFileSync } from "node:fs";
+import { basename, dirname, join } from "node:path";
 
 /** The file operations `writeFileAtomic` uses (node:fs; a test passes its own to watch the order). */
 export interface FileOps {
@@ -24,4 +25,39 @@ export function writeFileAtomic(path: string, data: string | Uint8Array, ops: Fi
     ops.rmSync(temp, { force: true });
     throw e;
   }
+}
+
+/** Whether a process with this id runs (signal 0 tests without signalling; EPERM: it runs as another user). */
+function alive(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch (e) {
+    return (e as { code?: string }).code === "EPERM";
+  }
+}
+
+/**
+ * Remove the `<path>.partial-<pid>` files that a dead run left (kill -9, a lost node): a run to the
+ * same output clears them first. A partial of a live process (another run writing now) is left alone.
+ * Returns the files removed.
+ */
+export function removeStalePartials(path: string): string[] {
+  const dir = dirname(path);
+  const prefix = `${basename(path)}.partial-`;
+  let names: string[];
+  try {
+    names = readdirSync(dir);
+  } catch {
+    return [];
+  }
+  const removed: string[] = [];
+  for (const name of names) {
+    if (!name.startsWith(prefix)) continue;
+    const pid = Number(name.slice(prefix.length));
+    if (!Number.isInteger(pid) || pid <= 0 || pid === process.pid || alive(pid)) continue;
+    rmSync(join(dir, name), { force: true });
+    removed.push(name);
+  }
+  return removed;
 }

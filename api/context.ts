@@ -29,4 +29,9 @@ export interface Context {
   readonly ruleSets?: RuleSetStore | undefined;
   /** optional observer of every procedure call (the HTTP adapter's metrics) */
   readonly observe?: ((o: ProcedureObservation) => void) | undefined;
+  /**
+   * optional: where a tRPC call runs instead of here (the HTTP server's compute threads, under its
+   * compute budget): the call's result, or a rejection with the error to answer; undefined: here
+   */
+  readonly offload?: ((path: string, rawInput: unknown) => Promise<unknown> | undefined) | undefined;
 }

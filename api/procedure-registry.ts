@@ -4,6 +4,7 @@ import { getParseFn, getTRPCErrorFromUnknown } from "@trpc/server/unstable-core-
 import type { z } from "zod";
 import * as contracts from "../contracts/index.js";
 import type { Context } from "./context.js";
+import { errorBodyOf, UNPROCESSABLE_CODES } from "./error-body.js";
 import { appRouter } from "./router.js";
 import { createCallerFactory, observeCall, publicProcedure } from "./trpc.js";
 
@@ -174,7 +175,8 @@ export function directInvoke(path: string, ctx: Context): Invoke | undefined {
   return Object.assign(observedRun, { now: observedRun });
 }
 
-/** The HTTP status a thrown procedure error maps to (the same mapping /trpc uses). */
+/** The HTTP status a thrown procedure error maps to (the same mapping /trpc uses): tRPC's, and 422 for UNPROCESSABLE_CODES (an input past a limit). */
 export function httpStatusOf(err: unknown): number {
-  return err instanceof TRPCError ? getHTTPStatusCodeFromError(err) : 500;
+  if (!(err instanceof TRPCError)) return 500;
+  return err.code === "BAD_REQUEST" && UNPROCESSABLE_CODES.has(errorBodyOf(err).code) ? 422 : getHTTPStatusCodeFromError(err);
 }

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { turnOffEventOutput, turnOffTiming } from "./turn-off.js";
+import { LIMITS, limitMessage } from "./limits.js";
 import { provenance } from "./outcome.js";
 import { ruleSetResultSchema } from "./rule-set.js";
 import { quantity, temperatureC } from "./quantity.js";
@@ -45,7 +46,7 @@ export const candidate = z.object({
 
 const mcParameter = z.enum(["rdsOn", "forwardVoltage", "rth", "supplyV", "ambientC", "load"]);
 export const monteCarloSpec = z.object({
-  samples: z.number().int().min(1).max(100_000),
+  samples: z.number().int().min(1).max(LIMITS.maxMonteCarloSamples, { error: limitMessage("maxMonteCarloSamples", "Monte Carlo samples") }),
   seed: z.number().int().min(0).max(2 ** 32 - 1),
   candidate: z.number().int().min(0).max(63).optional().meta({ description: "index of the candidate to sample (default 0)" }),
   supplyV: quantity("V", "supply for the samples (default: lowest supply)", { gt: 0, le: 10_000 }).optional(),
@@ -64,12 +65,16 @@ export const monteCarloSpec = z.object({
 export const reviewInput = z
   .object({
     requirement,
-    candidates: z.array(candidate).min(1).max(64),
+    candidates: z.array(candidate).min(1).max(LIMITS.maxCandidates, { error: limitMessage("maxCandidates", "candidates in one review") }),
     ruleSet: z.string().min(1).max(100).optional().meta({ description: "id of a rule set (default: default)" }),
     monteCarlo: monteCarloSpec.optional(),
     curves: z.boolean().optional().meta({ description: "also return load and ambient sweeps through the worst corner, for charts (default false; reports ask for them)" }),
   })
   .superRefine((r, ctx) => {
+    const work = (r.requirement.startProfile?.length ?? 0) * r.candidates.length;
+    if (work > LIMITS.maxProfileWork) {
+      ctx.addIssue({ code: "custom", path: ["requirement", "startProfile"], message: limitMessage("maxProfileWork", `start-up profile points times candidates is ${work}`) });
+    }
     const mc = r.monteCarlo;
     if (mc?.candidate !== undefined && mc.candidate >= r.candidates.length) ctx.addIssue({ code: "custom", path: ["monteCarlo", "candidate"], message: "no candidate at that index" });
     mc?.tolerances.forEach((t, i) => {

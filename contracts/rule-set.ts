@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { METRICS, PART_PARAMETERS } from "../domain/rules/metric-vocabulary.js";
 import type { Rule, RuleSet } from "../domain/rules/rule-model.js";
+import { LIMITS, limitMessage } from "./limits.js";
 
 /**
  * Rule sets as files and requests carry them. The shape is checked here; the expressions, the
@@ -53,14 +54,24 @@ export function toRuleSet(s: RuleSetSpec): RuleSet {
 const metricNames = new Set(METRICS.map((m) => m.name));
 const partNames = new Set(PART_PARAMETERS.map((m) => m.name));
 
+/** More names than any record may hold: one issue for the record, not one a name. */
+function tooManyNames(rec: Record<string, unknown>, ctx: z.RefinementCtx): boolean {
+  const n = Object.keys(rec).length;
+  if (n <= LIMITS.maxMetrics) return false;
+  ctx.addIssue({ code: "custom", path: [], message: limitMessage("maxMetrics", `the record holds ${n} names`) });
+  return true;
+}
+
 /** Metric values by name; a name outside the vocabulary is refused (a typo would leave a rule not applicable). */
 export const metricRecord = z.record(z.string(), z.union([z.number(), z.boolean()])).superRefine((rec, ctx) => {
+  if (tooManyNames(rec, ctx)) return;
   for (const [k, v] of Object.entries(rec)) {
     if (!metricNames.has(k)) ctx.addIssue({ code: "custom", path: [k], message: `unknown metric '${k}' (see docs/metrics.md)` });
     else if (typeof v === "number" && !Number.isFinite(v)) ctx.addIssue({ code: "custom", path: [k], message: "must be a finite number" });
   }
 });
 export const partRecord = z.record(z.string(), z.number()).superRefine((rec, ctx) => {
+  if (tooManyNames(rec, ctx)) return;
   for (const [k, v] of Object.entries(rec)) {
     if (!partNames.has(k)) ctx.addIssue({ code: "custom", path: [k], message: `unknown part parameter '${k}' (see docs/metrics.md)` });
     else if (!Number.isFinite(v)) ctx.addIssue({ code: "custom", path: [k], message: "must be a finite number" });

@@ -6,11 +6,12 @@ import { procedureEntry } from "../../api/procedure-registry.js";
 import { loadCatalogFile } from "../catalog/file-catalog.js";
 import { type ComputePool, createComputePool } from "../compute/pool.js";
 import { DEMO_CATALOG } from "../project-root.js";
+import { removeStalePartials } from "../atomic-file.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
 import { formatOf } from "./formats.js";
 import { mergeShards } from "./merge.js";
 import type { BatchCounts } from "./run-batch.js";
-import { reportNamer, writeBridgeAcReport, writeReviewReport } from "../report/write-report.js";
+import { reportFailed, reportNamer, writeBridgeAcReport, writeReviewReport } from "../report/write-report.js";
 import { CHUNKS_PER_THREAD, type RowHook, type Shard, streamBatch } from "./stream-batch.js";
 
 const USAGE = `usage:
@@ -38,6 +39,7 @@ export function parseShard(spec: string | undefined, env: NodeJS.ProcessEnv): Sh
 /** Write to `<out>.partial-<pid>` and rename to `<out>` only when complete; remove it on any failure or signal. */
 async function atomically(outPath: string, body: (write: (t: string | Uint8Array) => Promise<void>) => Promise<void>): Promise<void> {
   const partial = `${outPath}.partial-${process.pid}`;
+  for (const f of removeStalePartials(outPath)) process.stderr.write(`backstop: removed ${f}, left by a run that no longer exists\n`);
   const onSignal = () => {
     rmSync(partial, { force: true });
     process.stderr.write(`backstop: stopped by a signal; no output written to ${outPath}\n`);
@@ -138,9 +140,15 @@ async function batch(rest: string[]): Promise<number> {
   let reports = 0;
   const onRow: RowHook | undefined = reportDir
     ? (row, procedure) => {
-        if (!row.ok || (procedure !== "review" && procedure !== "bridgeAc")) return;
-        (procedure === "review" ? writeReviewReport : writeBridgeAcReport)(reportDir, nameOf(row.id, row.line), row.result, row.id ?? undefined);
+        if (!row.ok || (procedure !== "review" && procedure !== "bridgeAc")) return undefined;
+        try {
+          (procedure === "review" ? writeReviewReport : writeBridgeAcReport)(reportDir, nameOf(row.id, row.line), row.result, row.id ?? undefined);
+        } catch (e) {
+          // that line's error row; the batch goes on
+          return reportFailed(procedure, e);
+        }
         reports += 1;
+        return undefined;
       }
     : undefined;
   try {

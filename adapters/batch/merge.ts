@@ -36,7 +36,9 @@ async function* shardRecords(file: string, format: Format, onHeader: (h: string)
 
 /**
  * Merge shard outputs into the one output an unsharded run writes: a k-way merge on the global line
- * number, streaming (one record per shard in memory). CSV headers must agree.
+ * number, streaming (one record per shard in memory). CSV headers must agree; a line number twice
+ * (a shard given twice, or the shards of two runs) or a line number missing (a shard left out) is an
+ * error, so no merged file is written.
  */
 export async function mergeShards(files: readonly string[], format: Format, write: (text: string) => Promise<void>): Promise<number> {
   let header: string | undefined;
@@ -58,6 +60,8 @@ export async function mergeShards(files: readonly string[], format: Format, writ
     if (best < 0) break;
     const h = heads[best] as Head;
     if (h.line <= last) throw new Error(`line ${h.line} appears twice or out of order across the shards`);
+    // an unsharded run numbers every input record from 1, so the shards of one run hold every number once
+    if (h.line !== last + 1) throw new Error(`line ${last + 1}${h.line > last + 2 ? ` to ${h.line - 1}` : ""} is in none of the shard files: give every shard of the run`);
     last = h.line;
     await write(h.text);
     n += 1;

@@ -1,6 +1,7 @@
 import type { Readable } from "node:stream";
 import { parse } from "csv-parse";
 import type { Context } from "../../api/context.js";
+import type { ErrorBody } from "../../contracts/outcome.js";
 import { procedureInvoker } from "../../api/procedure-registry.js";
 import type { ComputePool, FormattedLine, LinesFormat } from "../compute/pool.js";
 import { utf8Join } from "../utf8-join.js";
@@ -50,7 +51,11 @@ function withReviewCurves(rec: Rec): Rec {
   }
 }
 
-export type RowHook = (row: BatchOutputLine, procedure: string | undefined) => void | Promise<void>;
+/**
+ * Called for each answered record before it is written; an error body returned (a report that
+ * could not be drawn) is written as that line's error row in place of its result, and the batch goes on.
+ */
+export type RowHook = (row: BatchOutputLine, procedure: string | undefined) => undefined | ErrorBody | Promise<undefined | ErrorBody>;
 
 function procedureOf(rec: Rec): string | undefined {
   if (!("raw" in rec)) return undefined;
@@ -172,13 +177,19 @@ export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
   const flushHead = async () => {
     const head = queue.shift() as { recs: Rec[]; outs: Promise<FormattedLine[]> };
     const outs = await head.outs;
+    if (o.onRow) {
+      for (const [i, out] of outs.entries()) {
+        const row = out.record as BatchOutputLine;
+        const refused = await o.onRow(row, procedureOf(head.recs[i] as Rec));
+        if (refused !== undefined) outs[i] = written({ id: row.id, line: row.line, ok: false, error: refused });
+      }
+    }
     for (const out of outs) {
       counts.lines += 1;
       if (out.ok) counts.ok += 1;
       else counts.failed += 1;
     }
     if (outs.length > 0) await o.write(utf8Of(outs));
-    if (o.onRow) for (const [i, out] of outs.entries()) await o.onRow(out.record as BatchOutputLine, procedureOf(head.recs[i] as Rec));
     o.onProgress?.(counts);
   };
 

@@ -1,5 +1,6 @@
 import { errorBodyOf } from "../../api/error-body.js";
 import { httpStatusOf, type Invoke, isThenable } from "../../api/procedure-registry.js";
+import { LIMITS } from "../../contracts/limits.js";
 import type { ErrorBody } from "../../contracts/outcome.js";
 
 /** One analysis call's answer as every adapter sees it: a result, or an error body with its HTTP status. */
@@ -75,4 +76,40 @@ export function callOneJsonNow(invoke: Invoke, input: unknown): ItemJson | Promi
 
 function asJson(it: ItemResult): ItemJson {
   return it.ok ? { ok: true, json: JSON.stringify(it.result), outcome: it.outcome, seconds: it.seconds } : it;
+}
+
+/** The refusal of an answer past the answer limit (HTTP 422): how large it got, the limit and what to ask for instead. */
+export function answerTooLarge(chars: number): Extract<ItemResult, { ok: false }> {
+  const message = `the answer is ${chars} characters of JSON or more: at most ${LIMITS.maxAnswerBytes} (limit BACKSTOP_MAX_ANSWER_BYTES); ask for less in one request (fewer items, candidates or start-up profile points, no curves or waveform)`;
+  return { ok: false, status: 422, error: { code: "answer-too-large", message, issues: [{ path: [], message }] }, outcome: "answer-too-large", seconds: 0 };
+}
+
+/**
+ * Answers written out, in order, until their JSON passes the answer limit: then the refusal in
+ * place of the item that passed it, and no further item is answered (the whole request is refused).
+ */
+export async function boundedJsonAnswers(inputs: readonly unknown[], answer: (input: unknown) => ItemJson | Promise<ItemJson>): Promise<ItemJson[]> {
+  const out: ItemJson[] = [];
+  let chars = 0;
+  for (const input of inputs) {
+    const a = answer(input);
+    const it = a instanceof Promise ? await a : a;
+    if (it.ok) chars += it.json?.length ?? 0;
+    if (chars > LIMITS.maxAnswerBytes) {
+      out.push(answerTooLarge(chars));
+      break;
+    }
+    out.push(it);
+  }
+  return out;
+}
+
+/** The refusal among answers, if one passed the answer limit (see {@link boundedJsonAnswers}), counting the answers of every slice together. */
+export function answerLimitHit(items: readonly ItemJson[]): Extract<ItemResult, { ok: false }> | undefined {
+  let chars = 0;
+  for (const it of items) {
+    if (!it.ok && it.error.code === "answer-too-large") return it;
+    if (it.ok) chars += it.json?.length ?? 0;
+  }
+  return chars > LIMITS.maxAnswerBytes ? answerTooLarge(chars) : undefined;
 }

@@ -5,6 +5,7 @@ import type { Format } from "../batch/formats.js";
 import type { ChunkAnswer, Shard } from "../batch/jsonl-chunk.js";
 import type { BatchOutputLine } from "../batch/run-batch.js";
 import type { ItemJson, ItemResult } from "./call.js";
+import type { ReportAnswer, ReportTask } from "./report-call.js";
 
 /** The compiled worker (dist/adapters/compute/worker.js); absent when running from TypeScript sources. */
 export function workerFile(): string | undefined {
@@ -38,9 +39,12 @@ export interface JsonlChunkTask {
 
 export interface ComputePool {
   readonly threads: number;
-  call(path: string, inputs: unknown[], signal?: AbortSignal): Promise<ItemResult[]>;
+  /** the items as objects; `bounded`: a result past the answer limit is refused in its place */
+  call(path: string, inputs: unknown[], signal?: AbortSignal, bounded?: boolean): Promise<ItemResult[]>;
   /** as `call`, each result written out as JSON in the thread */
   callJson(path: string, inputs: unknown[], signal?: AbortSignal): Promise<ItemJson[]>;
+  /** a procedure's call and its report drawn, in a thread */
+  report(task: ReportTask, signal?: AbortSignal): Promise<ReportAnswer>;
   /** batch records → each one's output text in `format` (formatted in the thread), in order */
   lines(records: { raw: string; lineNo: number }[], format: LinesFormat, signal?: AbortSignal): Promise<FormattedLine[]>;
   /** batch, JSON Lines in: a chunk of whole input lines as bytes → its output records as bytes (parsed, answered, written out and encoded in the thread); the bytes' buffer is transferred (it must be the chunk's alone: not a view into a larger or pooled buffer) */
@@ -77,8 +81,9 @@ export function createComputePool(opts: { threads: number; catalogPath: string; 
   const options = (name: string, signal?: AbortSignal) => (signal === undefined ? { name } : { name, signal });
   return {
     threads: opts.threads,
-    call: (path, inputs, signal) => pool.run({ path, inputs }, options("call", signal)) as Promise<ItemResult[]>,
+    call: (path, inputs, signal, bounded) => pool.run({ path, inputs, bounded }, options("call", signal)) as Promise<ItemResult[]>,
     callJson: (path, inputs, signal) => pool.run({ path, inputs }, options("callJson", signal)) as Promise<ItemJson[]>,
+    report: (task, signal) => pool.run(task, options("report", signal)) as Promise<ReportAnswer>,
     lines: (records, format, signal) => pool.run({ records, ...format }, options("lines", signal)) as Promise<FormattedLine[]>,
     // the chunk's bytes are transferred, not copied: the caller hands over a buffer of its own
     jsonlChunk: (chunk, signal) => pool.run(chunk, { ...options("jsonlChunk", signal), transferList: [chunk.bytes.buffer as ArrayBuffer] }) as Promise<ChunkAnswer>,
@@ -111,8 +116,9 @@ export function deferredComputePool(opts: Parameters<typeof createComputePool>[0
     start: () => {
       if (!closed) get();
     },
-    call: (path, inputs, signal) => get().call(path, inputs, signal),
+    call: (path, inputs, signal, bounded) => get().call(path, inputs, signal, bounded),
     callJson: (path, inputs, signal) => get().callJson(path, inputs, signal),
+    report: (task, signal) => get().report(task, signal),
     lines: (records, format, signal) => get().lines(records, format, signal),
     jsonlChunk: (chunk, signal) => get().jsonlChunk(chunk, signal),
     ready: () => get().ready(),

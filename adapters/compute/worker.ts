@@ -6,7 +6,9 @@ import { answerJsonlChunk, type ChunkAnswer, type Shard } from "../batch/jsonl-c
 import { processLine } from "../batch/run-batch.js";
 import { loadCatalogFile } from "../catalog/file-catalog.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
-import { type ItemJson, type ItemResult, callOneJsonNow, callOneNow } from "./call.js";
+import { type ReportAnswer, type ReportTask, reportAnswer } from "./report-call.js";
+import { LIMITS } from "../../contracts/limits.js";
+import { answerTooLarge, boundedJsonAnswers, type ItemJson, type ItemResult, callOneJsonNow, callOneNow } from "./call.js";
 
 /**
  * A worker thread of the compute pool (piscina): the same router, in this thread, with its own
@@ -20,28 +22,39 @@ export function ping(): boolean {
   return true;
 }
 
-/** HTTP /v1: the items of one request (or a slice of a bulk request), in order. */
-export async function call({ path, inputs }: { path: string; inputs: unknown[] }): Promise<ItemResult[]> {
+/**
+ * HTTP /trpc and reports: the items of one request, in order, as objects; with `bounded`, a result
+ * whose JSON passes the answer limit is refused in its place (measured here, off the request thread).
+ */
+export async function call({ path, inputs, bounded }: { path: string; inputs: unknown[]; bounded?: boolean }): Promise<ItemResult[]> {
   const invoke = invoker(path);
   if (invoke === undefined) throw new Error(`no procedure ${path}`);
   const out: ItemResult[] = [];
   for (const input of inputs) {
-    const it = callOneNow(invoke, input);
-    out.push(it instanceof Promise ? await it : it);
+    const a = callOneNow(invoke, input);
+    const it = a instanceof Promise ? await a : a;
+    const chars = bounded === true && it.ok ? (JSON.stringify(it.result)?.length ?? 0) : 0;
+    out.push(chars > LIMITS.maxAnswerBytes ? answerTooLarge(chars) : it);
   }
   return out;
 }
 
-/** HTTP /v1: as {@link call}, each result written out as JSON here (a string crosses to the main thread far cheaper than a cloned object, and the main thread need not serialise it). */
+/** HTTP reports: the call and its report drawn here (see reportAnswer). */
+export async function report(task: ReportTask): Promise<ReportAnswer> {
+  const invoke = invoker(task.procedure);
+  if (invoke === undefined) throw new Error(`no procedure ${task.procedure}`);
+  return reportAnswer(invoke, task);
+}
+
+/**
+ * HTTP /v1: as {@link call}, each result written out as JSON here (a string crosses to the main
+ * thread far cheaper than a cloned object, and the main thread need not serialise it), up to the
+ * answer limit (boundedJsonAnswers).
+ */
 export async function callJson({ path, inputs }: { path: string; inputs: unknown[] }): Promise<ItemJson[]> {
   const invoke = invoker(path);
   if (invoke === undefined) throw new Error(`no procedure ${path}`);
-  const out: ItemJson[] = [];
-  for (const input of inputs) {
-    const it = callOneJsonNow(invoke, input);
-    out.push(it instanceof Promise ? await it : it);
-  }
-  return out;
+  return boundedJsonAnswers(inputs, (input) => callOneJsonNow(invoke, input));
 }
 
 /**

@@ -3,6 +3,7 @@ import { Hono } from "hono";
 import { bodyLimit } from "hono/body-limit";
 import type { Context } from "../../api/context.js";
 import { errorBodyOf } from "../../api/error-body.js";
+import { httpStatusOf } from "../../api/procedure-registry.js";
 import { openApiText } from "../../api/openapi.js";
 import { appRouter } from "../../api/router.js";
 import { outcomeLabel } from "../compute/call.js";
@@ -15,6 +16,7 @@ import { INTERNAL_ERROR_MESSAGE, sendProblem } from "./problem.js";
 import { logRequest, requestIdOf } from "./request-line.js";
 import { mountBridgeAcReport } from "./bridge-report-route.js";
 import { mountReviewReport } from "./review-report-route.js";
+import { trpcOffload } from "./trpc-offload.js";
 import { type Env, mountV1 } from "./v1.js";
 
 export interface AppDeps {
@@ -101,6 +103,7 @@ export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics =
     return c.body(openapi, 200, { "content-type": "application/json" });
   });
 
+  const offload = trpcOffload(pool, config);
   app.all("/trpc/*", (c) =>
     fetchRequestHandler({
       endpoint: "/trpc",
@@ -110,10 +113,16 @@ export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics =
       maxBatchSize: config.maxTrpcBatch,
       createContext: () => ({
         ...ctx,
+        offload,
         observe: (o) => metrics.observeProcedure("trpc", o.path, o.ok ? outcomeLabel(o.data) : errorBodyOf(o.error).code, o.seconds),
       }),
       // the request id in tRPC's own response (adding it afterwards would copy the response through a web stream)
-      responseMeta: () => ({ headers: c.get("closing") === true ? { "x-request-id": c.get("requestId"), connection: "close" } : { "x-request-id": c.get("requestId") } }),
+      // and 422 for a single call refused over a limit (tRPC's own mapping has no such status)
+      responseMeta: ({ errors, info }) => {
+        const headers: Record<string, string> = c.get("closing") === true ? { "x-request-id": c.get("requestId"), connection: "close" } : { "x-request-id": c.get("requestId") };
+        const limited = info?.isBatchCall !== true && errors.length === 1 && httpStatusOf(errors[0]) === 422;
+        return limited ? { headers, status: 422 } : { headers };
+      },
       onError: ({ error, path }) => {
         if (error.code === "INTERNAL_SERVER_ERROR") logger.error({ requestId: c.get("requestId"), path, err: error.cause ?? error }, "procedure failed");
       },

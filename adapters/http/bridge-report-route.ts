@@ -1,6 +1,4 @@
 import type { Hono } from "hono";
-import { bridgeAcOutput } from "../../contracts/bridge.js";
-import { renderBridgeAcReport } from "../report/bridge-report.js";
 import { mountProcedureReport, type ReviewReportDeps } from "./review-report-route.js";
 import type { Env } from "./v1.js";
 
@@ -10,5 +8,5 @@ import type { Env } from "./v1.js";
  * from the result alone, with the period waveform asked for unless the body says `waveform: false`.
  */
 export function mountBridgeAcReport(app: Hono<Env>, deps: ReviewReportDeps): void {
-  mountProcedureReport(app, deps, { procedure: "bridgeAc", flag: "waveform", render: (result, opts) => renderBridgeAcReport(bridgeAcOutput.parse(result), opts) });
+  mountProcedureReport(app, deps, "bridgeAc");
 }

@@ -24,8 +24,8 @@ export interface RequestListenerDeps {
   readonly fastLane?: boolean;
 }
 
-/** Largest body a tRPC call may have to take the lane (larger ones go through the app). */
-const TRPC_LANE_MAX_BODY_BYTES = 64 * 1024;
+/** Largest body a tRPC call may have to take the lane (larger ones go through the app): as /v1's inline bound. */
+const TRPC_LANE_MAX_BODY_BYTES = INLINE_MAX_BODY_CHARS;
 
 interface Lane {
   readonly adapter: Adapter;
@@ -44,8 +44,8 @@ type NodeListener = (req: IncomingMessage, res: ServerResponse) => void;
  *
  * - `POST /v1/<procedure>` of a procedure /v1 runs in the main thread (operatingPoint, rules.list,
  *   rules.show) with a declared body of at most 16 KiB;
- * - a single (unbatched) tRPC call of a query procedure: `POST /trpc/<procedure>` with a JSON body of
- *   at most 64 KiB, or `GET /trpc/<procedure>?input=<JSON>`.
+ * - a single (unbatched) tRPC call of one of those procedures: `POST /trpc/<procedure>` with a JSON
+ *   body of at most 16 KiB, or `GET /trpc/<procedure>?input=<JSON>`.
  *
  * Through the app, the same call costs the web Request and Response objects, the middleware chain
  * and (for tRPC) its fetch adapter's abort signals and option copies: several times the call itself.
@@ -119,7 +119,8 @@ function laneTable(ctx: Context, config: HttpConfig): Map<string, Lane> {
     const invoke = invoker(e.path);
     if (invoke === undefined) continue;
     if (INLINE_PROCEDURES.has(e.path)) lanes.set(`/v1/${e.path}`, { adapter: "v1", procedure: e.path, path: `/v1/${e.path}`, invoke, maxBodyBytes: Math.min(INLINE_MAX_BODY_CHARS, config.maxBodyBytes) });
-    if (e.type === "query") lanes.set(`/trpc/${e.path}`, { adapter: "trpc", procedure: e.path, path: `/trpc/${e.path}`, invoke, maxBodyBytes: Math.min(TRPC_LANE_MAX_BODY_BYTES, config.maxBodyBytes) });
+    // only the procedures that run in the main thread: every other call is the compute threads' (trpc-offload.ts)
+    if (e.type === "query" && INLINE_PROCEDURES.has(e.path)) lanes.set(`/trpc/${e.path}`, { adapter: "trpc", procedure: e.path, path: `/trpc/${e.path}`, invoke, maxBodyBytes: Math.min(TRPC_LANE_MAX_BODY_BYTES, config.maxBodyBytes) });
   }
   return lanes;
 }

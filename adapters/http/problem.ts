@@ -54,3 +54,9 @@ export function sendProblem(c: HonoContext, status: number, body: Parameters<typ
   const p = problemOf(status, body, { instance: c.req.path, requestId: c.get("requestId") as string | undefined });
   return c.body(JSON.stringify(p), status as ContentfulStatusCode, { "content-type": PROBLEM_TYPE, ...headers });
 }
+
+/** The error of a request past its compute budget (every route's: /v1, /trpc, reports; 503 with retry-after). */
+export function computeTimeout(config: { readonly requestTimeoutMs: number }): ErrorBody {
+  const message = `the request needed more than its ${config.requestTimeoutMs} ms compute budget; split it or raise BACKSTOP_REQUEST_TIMEOUT_MS`;
+  return { code: "compute-timeout", message, issues: [] };
+}

@@ -1,22 +1,21 @@
 import type { Hono } from "hono";
 import type { Context } from "../../api/context.js";
 import { procedureInvoker } from "../../api/procedure-registry.js";
-import { reviewOutput } from "../../contracts/review.js";
-import { callOne, type ItemResult } from "../compute/call.js";
+import { type ReportAnswer, reportAnswer } from "../compute/report-call.js";
 import type { ComputePool } from "../compute/pool.js";
 import type { Logger } from "../logging/logger.js";
-import { type ReportOptions, renderReviewReport } from "../report/review-report.js";
+import { REPORT_RENDERERS, type ReportFormat } from "../report/report-body.js";
 import type { HttpConfig } from "./config.js";
-import { sendProblem } from "./problem.js";
+import { depthProblem, inputShape } from "./input-shape.js";
+import { computeTimeout, sendProblem } from "./problem.js";
 import type { Env } from "./v1.js";
 
-type Format = "html" | "markdown" | "json";
-const FORMATS: readonly Format[] = ["html", "markdown", "json"];
+const FORMATS: readonly ReportFormat[] = ["html", "markdown", "json"];
 
 /** `?format=` or a `format` field of the body wins; else the Accept header; else HTML. */
-function formatOf(query: string | undefined, field: unknown, accept: string | undefined): Format | { bad: string } {
+function formatOf(query: string | undefined, field: unknown, accept: string | undefined): ReportFormat | { bad: string } {
   const asked = query ?? (typeof field === "string" ? field : undefined);
-  if (asked !== undefined) return FORMATS.includes(asked as Format) ? (asked as Format) : { bad: asked };
+  if (asked !== undefined) return FORMATS.includes(asked as ReportFormat) ? (asked as ReportFormat) : { bad: asked };
   const a = (accept ?? "").toLowerCase();
   if (a.includes("text/html")) return "html";
   if (a.includes("text/markdown")) return "markdown";
@@ -39,18 +38,7 @@ export interface ReviewReportDeps {
  * configured); errors are the same problem+json. The report is rendered from the result alone.
  */
 export function mountReviewReport(app: Hono<Env>, deps: ReviewReportDeps): void {
-  mountProcedureReport(app, deps, {
-    procedure: "review",
-    flag: "curves",
-    render: (result, opts) => renderReviewReport(reviewOutput.parse(result), opts),
-  });
-}
-
-/** What a report route needs: the procedure, the input flag that asks it for chart data, the renderer. */
-export interface ReportRoute {
-  readonly procedure: string;
-  readonly flag: string;
-  readonly render: (result: unknown, opts: ReportOptions) => { readonly html: string; readonly markdown: string };
+  mountProcedureReport(app, deps, "review");
 }
 
 type ReportHandler = (c: import("hono").Context<Env>) => Promise<Response>;
@@ -78,11 +66,16 @@ function reportRoute(app: Hono<Env>): Map<string, ReportHandler> {
   return handlers;
 }
 
-/** `POST /v1/<procedure>/report` for any procedure with a renderer (the review's route is the pattern). */
-export function mountProcedureReport(app: Hono<Env>, deps: ReviewReportDeps, route: ReportRoute): void {
-  const invoke = procedureInvoker(deps.ctx)(route.procedure);
-  if (invoke === undefined) throw new Error(`the router has no ${route.procedure} procedure`);
-  reportRoute(app).set(route.procedure, async (c) => {
+/**
+ * `POST /v1/<procedure>/report` for any procedure with a renderer (REPORT_RENDERERS). The call and
+ * the drawing run together in a compute thread under the request's compute budget (in process
+ * without a pool); a result that cannot be drawn is a 422 `report-failed`, never a 5xx.
+ */
+export function mountProcedureReport(app: Hono<Env>, deps: ReviewReportDeps, procedure: string): void {
+  const renderer = REPORT_RENDERERS[procedure];
+  const invoke = procedureInvoker(deps.ctx)(procedure);
+  if (invoke === undefined || renderer === undefined) throw new Error(`the router has no ${procedure} procedure with a report`);
+  reportRoute(app).set(procedure, async (c) => {
     let body: unknown;
     try {
       body = JSON.parse(await c.req.text());
@@ -90,31 +83,32 @@ export function mountProcedureReport(app: Hono<Env>, deps: ReviewReportDeps, rou
       return sendProblem(c, 400, { code: "malformed-json", message: `the body is not JSON: ${(e as Error).message}` });
     }
     if (typeof body !== "object" || body === null || Array.isArray(body)) {
-      return sendProblem(c, 400, { code: "invalid-input", message: `the body is a ${route.procedure} input (a JSON object)`, issues: [{ path: [], message: "expected an object" }] });
+      return sendProblem(c, 400, { code: "invalid-input", message: `the body is a ${procedure} input (a JSON object)`, issues: [{ path: [], message: "expected an object" }] });
     }
+    const deep = depthProblem(inputShape(body));
+    if (deep !== undefined) return sendProblem(c, 422, deep);
     const { format: field, id: bodyId, ...fields } = body as Record<string, unknown>;
     // A report draws the chart data (review: curves; bridgeAc: waveform): ask for it unless the body says otherwise.
-    const input = { [route.flag]: true, ...fields };
+    const input = { [renderer.flag]: true, ...fields };
     const format = formatOf(c.req.query("format"), field, c.req.header("accept"));
     if (typeof format === "object") {
       return sendProblem(c, 400, { code: "invalid-input", message: `format must be one of ${FORMATS.join(", ")}`, issues: [{ path: ["format"], message: `unknown format "${format.bad}"` }] });
     }
     const id = c.req.query("id") ?? (typeof bodyId === "string" || typeof bodyId === "number" ? bodyId : undefined);
-    let item: ItemResult | undefined;
+    const task = { procedure, input, format, id };
+    let answer: ReportAnswer;
     const signal = AbortSignal.timeout(deps.config.requestTimeoutMs);
     try {
-      item = deps.pool ? (await deps.pool.call(route.procedure, [input], signal))[0] : await callOne(invoke, input);
+      answer = deps.pool ? await deps.pool.report(task, signal) : await reportAnswer(invoke, task);
     } catch (e) {
       if (!signal.aborted) throw e;
-      return sendProblem(c, 503, { code: "compute-timeout", message: `the ${route.procedure} call needed more than its ${deps.config.requestTimeoutMs} ms compute budget` }, { "retry-after": "1" });
+      return sendProblem(c, 503, computeTimeout(deps.config), { "retry-after": "1" });
     }
-    if (item === undefined) throw new Error(`the ${route.procedure} call returned no item`);
-    if (!item.ok) {
-      if (item.internal !== undefined) deps.logger.error({ requestId: c.get("requestId"), err: item.internal }, `${route.procedure} report failed`);
-      return sendProblem(c, item.status, item.error);
+    if (!answer.ok) {
+      if (answer.internal !== undefined) deps.logger.error({ requestId: c.get("requestId"), err: answer.internal }, `${procedure} report failed`);
+      return sendProblem(c, answer.status, answer.error);
     }
-    if (format === "json") return c.body(JSON.stringify(item.result), 200, { "content-type": "application/json" });
-    const report = route.render(item.result, id === undefined ? { svgDir: null } : { id, svgDir: null });
-    return format === "html" ? c.html(report.html) : c.body(report.markdown, 200, { "content-type": "text/markdown; charset=utf-8" });
+    if (format === "json") return c.body(answer.text, 200, { "content-type": "application/json" });
+    return format === "html" ? c.html(answer.text) : c.body(answer.text, 200, { "content-type": "text/markdown; charset=utf-8" });
   });
 }

@@ -1,5 +1,6 @@
 import cluster from "node:cluster";
 import { createServer } from "node:http";
+import { Server as NetServer } from "node:net";
 import { cpuBudget } from "../cpu-budget.js";
 import { loadCatalogFile } from "../catalog/file-catalog.js";
 import { deferredComputePool } from "../compute/pool.js";
@@ -61,7 +62,14 @@ const serverOptions = {
   requestTimeout: config.receiveTimeoutMs,
   connectionsCheckingInterval: Math.max(50, Math.min(1000, Math.floor(headersTimeout / 4))),
 };
+// the listening socket's own close, without http.Server's cut of idle connections (see shutdown)
+const netClose = NetServer.prototype.close;
+const QUIET_MS = 100;
+let lastConnectionMs = 0;
 const server = createServer(serverOptions, createRequestListener({ app, ctx, logger, config, metrics, isReady, fastLane: config.fastLane }));
+server.on("connection", () => {
+  lastConnectionMs = performance.now();
+});
 server.listen(port, process.env.HOST ?? "0.0.0.0", () => {
   const info = server.address() as import("node:net").AddressInfo;
   // Work start-up need not wait for, done shortly after the server listens, once the start-up
@@ -82,21 +90,36 @@ server.listen(port, process.env.HOST ?? "0.0.0.0", () => {
   logger.flush(() => (cluster.isWorker ? process.send?.({ type: "backstop:listening", text }) : process.stdout.write(text)));
 });
 
-/** Graceful stop: /readyz flips to 503 at once, then (after BACKSTOP_DRAIN_DELAY_MS) stop accepting, finish in-flight requests, exit 0. */
+/**
+ * Graceful stop: /readyz flips to 503 at once; from then every answer carries `Connection: close`,
+ * so a client's connection ends after its next answer. After BACKSTOP_DRAIN_DELAY_MS the listener
+ * stops accepting, with no connection cut: node's `server.close()` would also destroy every
+ * connection it counts as idle, and that includes one whose next request is already written but
+ * not yet read (the client gets ECONNRESET). So only the listening socket is closed (net.Server's
+ * close); a connection ends after its answer (Connection: close) or, idle, at the keep-alive
+ * timeout, which the client was told (`Keep-Alive: timeout=`) and closes its side before. Once
+ * the last connection has ended: the compute threads stop, exit 0 (1 past the shutdown timeout).
+ */
 function shutdown(signal: string): void {
   if (draining) return;
   draining = true;
   logger.info({ signal, drainDelayMs }, "draining: readiness is now false");
   setTimeout(() => process.exit(1), drainDelayMs + shutdownTimeoutMs).unref();
-  setTimeout(() => {
-    server.close((err) => {
+  // the listener closes once it has accepted no connection for QUIET_MS of loop time: a connection the
+  // kernel holds for it when it closes would be reset, and after a long task (or a burst of clients)
+  // the backlog may still hold some when the drain delay ends
+  setTimeout(function closeWhenQuiet() {
+    if (performance.now() - lastConnectionMs < QUIET_MS) {
+      setTimeout(closeWhenQuiet, QUIET_MS / 4);
+      return;
+    }
+    netClose.call(server, (err?: Error) => {
       void (pool?.close() ?? Promise.resolve()).finally(() => {
         if (err) logger.error({ err }, "close failed");
         else logger.info("in-flight requests finished; exiting");
         process.exit(err ? 1 : 0);
       });
     });
-    (server as unknown as { closeIdleConnections?: () => void }).closeIdleConnections?.();
   }, drainDelayMs);
 }
 process.on("SIGTERM", () => shutdown("SIGTERM"));

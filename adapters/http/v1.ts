@@ -1,12 +1,14 @@
 import type { Hono } from "hono";
 import { procedureEntries, procedureEntry, procedureInvoker } from "../../api/procedure-registry.js";
 import type { Context } from "../../api/context.js";
-import { callOneJson, type ItemJson } from "../compute/call.js";
+import { LIMITS } from "../../contracts/limits.js";
+import { answerLimitHit, callOneJson, type ItemJson } from "../compute/call.js";
 import type { ComputePool } from "../compute/pool.js";
 import type { Logger } from "../logging/logger.js";
 import type { HttpConfig } from "./config.js";
 import type { Adapter, Metrics } from "./metrics.js";
-import { problemOf, sendProblem } from "./problem.js";
+import { depthProblem, inputShape } from "./input-shape.js";
+import { computeTimeout, problemOf, sendProblem } from "./problem.js";
 import { utf8Join } from "../utf8-join.js";
 
 export type Env = { Variables: { requestId: string; closing: boolean; headersSet: boolean } };
@@ -112,6 +114,10 @@ export function mountV1(app: Hono<Env>, deps: V1Deps): void {
     }
     const body = await readJson(c.req.raw);
     if (!body.ok) return sendProblem(c, 400, { code: "malformed-json", message: body.message, issues: [{ path: [], message: body.message }] });
+    // checked before the input goes anywhere (a compute thread's structured clone recurses)
+    const extra = bulk ? 1 : 0; // a bulk body's items are one level down
+    const deep = depthProblem(inputShape(body.value, LIMITS.maxInputDepth + extra), extra);
+    if (deep !== undefined) return sendProblem(c, 422, deep);
     let inputs: unknown[];
     if (bulk) {
       if (!Array.isArray(body.value)) return sendProblem(c, 400, { code: "invalid-input", message: "a bulk body is a JSON array of inputs", issues: [{ path: [], message: "expected an array" }] });
@@ -125,11 +131,11 @@ export function mountV1(app: Hono<Env>, deps: V1Deps): void {
     try {
       items = await execute(path, inputs, bulk ? "v1-bulk" : "v1", c.get("requestId"), inline);
     } catch (e) {
-      if (e instanceof ComputeTimeout) {
-        return sendProblem(c, 503, { code: "compute-timeout", message: `the request needed more than its ${config.requestTimeoutMs} ms compute budget; split it or raise BACKSTOP_REQUEST_TIMEOUT_MS` }, { "retry-after": "1" });
-      }
+      if (e instanceof ComputeTimeout) return sendProblem(c, 503, computeTimeout(config), { "retry-after": "1" });
       throw e;
     }
+    const tooLarge = answerLimitHit(items);
+    if (tooLarge !== undefined) return sendProblem(c, tooLarge.status, tooLarge.error);
     if (!bulk) {
       const it = items[0] as ItemJson;
       if (it.ok) return plainResponse(c, it.json as string, 200);

@@ -1,4 +1,4 @@
-import { escapeHtml, mdCell } from "./format.js";
+import { escapeHtml, mdCell, mdText } from "./format.js";
 import type { ReportChart } from "./review-charts.js";
 
 /** A small document model, so Markdown and HTML show the same content in the same order. */
@@ -26,23 +26,23 @@ export function toMarkdown(blocks: readonly Block[], svgDir: string | null): str
   for (const b of blocks) {
     switch (b.kind) {
       case "heading":
-        out.push(`${"#".repeat(b.level)} ${b.text}`, "");
+        out.push(`${"#".repeat(b.level)} ${mdText(b.text)}`, "");
         break;
       case "para":
-        out.push(b.tone === "caution" ? `> **Caution.** ${b.text}` : b.tone?.startsWith("verdict") ? `**${b.text}**` : b.text, "");
+        out.push(b.tone === "caution" ? `> **Caution.** ${mdText(b.text)}` : b.tone?.startsWith("verdict") ? `**${mdText(b.text)}**` : mdText(b.text), "");
         break;
       case "list":
-        out.push(...b.items.map((i) => `- ${i}`), "");
+        out.push(...b.items.map((i) => `- ${mdText(i)}`), "");
         break;
       case "table": {
-        if (b.caption) out.push(`*${b.caption}*`, "");
+        if (b.caption) out.push(`*${mdText(b.caption)}*`, "");
         out.push(`| ${b.headers.map(mdCell).join(" | ")} |`, `|${b.headers.map(() => "---").join("|")}|`);
         for (const r of b.rows) out.push(`| ${r.map((c) => (c.mark ? `**${mdCell(c.text)}** ${WORST}` : c.strong ? `**${mdCell(c.text)}**` : mdCell(c.text))).join(" | ")} |`);
         out.push("");
         break;
       }
       case "charts":
-        if (svgDir === null) out.push(...b.charts.map((c) => `- ${c.title} (${c.spec.subtitle ?? ""}): in the HTML report`), "");
+        if (svgDir === null) out.push(...b.charts.map((c) => `- ${mdText(c.title)} (${mdText(c.spec.subtitle ?? "")}): in the HTML report`), "");
         else for (const c of b.charts) out.push(`![${mdCell(c.title)}](${svgDir === "" ? "" : `${svgDir}/`}${c.file})`, "");
         break;
       case "section-start":

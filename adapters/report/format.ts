@@ -29,7 +29,20 @@ export function escapeHtml(s: string): string {
   return s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
 }
 
-/** Markdown table cell: pipes and newlines escaped. */
+/**
+ * Plain text as Markdown inline text: the characters that would start emphasis, code, a link or an
+ * image, a table cell, raw HTML (`<` before a tag's first character) or an entity are
+ * backslash-escaped, and a line break becomes a space. Every text of a report is plain (labels, ids
+ * and names come from the caller), so none can inject markup. A table cell is this.
+ */
 export function mdCell(s: string): string {
-  return s.replace(/\|/g, "\\|").replace(/\r?\n/g, " ");
+  return s
+    .replace(/\r?\n|\r/g, " ")
+    .replace(/[\\`*_[\]|]|<(?=[A-Za-z/!?])|&(?=#?[A-Za-z0-9]+;)/g, "\\$&")
+    .replace(/~~/g, "\\~\\~");
+}
+
+/** {@link mdCell}, and a start that would make a block (a list item, a quote, a heading) escaped: a paragraph's or heading's text. */
+export function mdText(s: string): string {
+  return mdCell(s).replace(/^(\s*)([-+*>#]|\d+[.)])(?=\s|$)/, "$1\\$2");
 }

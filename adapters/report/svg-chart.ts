@@ -80,7 +80,9 @@ function extent(values: readonly number[], fallback: readonly [number, number]):
   let lo = Math.min(...finite);
   let hi = Math.max(...finite);
   if (hi - lo < 1e-12 * Math.max(1, Math.abs(hi))) {
-    const pad = Math.abs(hi) > 0 ? Math.abs(hi) * 0.1 : 1;
+    // a tenth of the value, unless that is so small that tick steps would underflow (d3's ticks then
+    // ask for an array of impossible length): values within 1e-200 of zero read as a flat line at zero
+    const pad = Math.abs(hi) > 1e-200 ? Math.abs(hi) * 0.1 : 1;
     lo -= pad;
     hi += pad;
   }

@@ -6,6 +6,7 @@ import { slug } from "./format.js";
 import { type ReviewReport, renderReviewReport } from "./review-report.js";
 import { renderBridgeAcReport } from "./bridge-report.js";
 import { bridgeAcOutput } from "../../contracts/bridge.js";
+import type { ErrorBody } from "../../contracts/outcome.js";
 
 export interface WrittenReport {
   readonly html: string;
@@ -57,4 +58,10 @@ export function reportNamer(): (id: string | number | null, line: number) => str
     used.add(name);
     return name;
   };
+}
+
+/** The error of a result that could not be drawn as a report (batch: that line's error row; HTTP: 422). */
+export function reportFailed(procedure: string, e: unknown): ErrorBody {
+  const message = `the ${procedure} result was computed but its report could not be drawn (${e instanceof Error ? e.message : String(e)}); ask for the result as JSON`;
+  return { code: "report-failed", message, issues: [{ path: [], message }] };
 }

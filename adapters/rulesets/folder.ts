@@ -48,6 +48,14 @@ export function loadRuleSetFolder(dir: string, taken: ReadonlySet<string> = new 
 
 /** The `id` a refused file declares, when it can be read, so requests naming it learn why. */
 function declaredId(text: string): string | undefined {
-  const m = /^\s*"?id"?\s*:\s*"?([A-Za-z0-9][A-Za-z0-9._-]*)"?/m.exec(text);
+  // JSON that parses (refused for its rules, not its syntax): its own top-level id, wherever the key
+  // stands; a file written on one line has no line that starts with it
+  try {
+    const v = JSON.parse(text) as { id?: unknown } | null;
+    if (typeof v?.id === "string") return v.id;
+  } catch {
+    // not JSON (YAML, or JSON that does not parse): the first line that declares an id, or the first key of a one-line object
+  }
+  const m = /^[\s{]*"?id"?\s*:\s*"?([A-Za-z0-9][A-Za-z0-9._-]*)"?/m.exec(text);
   return m?.[1];
 }

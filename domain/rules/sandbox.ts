@@ -30,19 +30,39 @@ export interface CompiledExpression {
 
 export type CompileOutcome = { readonly ok: true; readonly compiled: CompiledExpression } | { readonly ok: false; readonly error: ExpressionError };
 
+/**
+ * Compiled expressions by text. Only accepted ones are kept (a refused text is answered again from
+ * scratch: refusals must not let a caller fill memory with texts of its choosing), and the cache is
+ * bounded in entries and in bytes: each entry counts its text (two bytes a character) and its
+ * closure tree (COMPILED_NODE_BYTES for each of at most min(characters, maxNodes) nodes, an upper
+ * estimate); past either bound it is emptied.
+ */
 const cache = new Map<string, CompileOutcome>();
-const CACHE_MAX = 10_000;
+export const COMPILE_CACHE_LIMITS = { maxEntries: 4096, maxBytes: 32 * 1024 * 1024 } as const;
+const COMPILED_NODE_BYTES = 256;
+let cachedBytes = 0;
+
+/** Entries and estimated bytes the compile cache holds now (for tests and metrics). */
+export function compileCacheSize(): { readonly entries: number; readonly bytes: number } {
+  return { entries: cache.size, bytes: cachedBytes };
+}
 
 /**
  * Check an expression against the whitelist and the vocabulary, type it (numbers vs booleans; a
- * rule must be a condition), and compile it. Results are cached by the expression text.
+ * rule must be a condition), and compile it. Accepted expressions are cached by their text.
  */
 export function compileExpression(text: string): CompileOutcome {
   const hit = cache.get(text);
   if (hit !== undefined) return hit;
   const out = compileUncached(text);
-  if (cache.size >= CACHE_MAX) cache.clear();
+  if (!out.ok) return out;
+  const bytes = 2 * text.length + COMPILED_NODE_BYTES * Math.min(text.length, EXPRESSION_LIMITS.maxNodes);
+  if (cache.size >= COMPILE_CACHE_LIMITS.maxEntries || cachedBytes + bytes > COMPILE_CACHE_LIMITS.maxBytes) {
+    cache.clear();
+    cachedBytes = 0;
+  }
   cache.set(text, out);
+  cachedBytes += bytes;
   return out;
 }
 

@@ -182,6 +182,17 @@ describe("where a chunk is cut", () => {
     const perRecord = await collect((write) => streamBatch({ input: piecesOf(Buffer.from(text), 1024 * 1024), inFormat: "jsonl", outFormat: "jsonl", write, ctx: demoContext(), onRow: (r) => void rows.push(r.line) }));
     expect(perRecord.toString("utf8")).toBe(oracle.toString("utf8"));
     expect(rows).toEqual([1, 2, 3, 4]);
+    // a row the hook refuses (a report that cannot be drawn) is written as that line's error row; the rest go on
+    const refused = await collect((write) =>
+      streamBatch({ input: piecesOf(Buffer.from(text), 1024 * 1024), inFormat: "jsonl", outFormat: "jsonl", write, ctx: demoContext(), onRow: (r) => (r.line === 1 ? { code: "report-failed", message: "cannot draw", issues: [] } : undefined) }),
+    );
+    const refusedRows = refused.toString("utf8").trim().split("\n").map((l) => JSON.parse(l) as { line: number; ok: boolean; error?: { code: string } });
+    expect(refusedRows.map((r) => [r.line, r.ok, r.error?.code])).toEqual([
+      [1, false, "report-failed"],
+      [2, false, "malformed-line"],
+      [3, true, undefined],
+      [4, false, "malformed-line"],
+    ]);
     const records = chunked.toString("utf8").trim().split("\n").map((l) => JSON.parse(l) as { line: number; ok: boolean; error?: { message: string } });
     expect(records.map((r) => [r.line, r.ok])).toEqual([
       [1, true],

@@ -72,6 +72,14 @@ describe("backstop batch at scale (built CLI, worker threads)", () => {
     const shards = [0, 1, 2].map((i) => join(dir, `s-${i}.jsonl`));
     expect(run(["merge", "--out", join(dir, "merged.jsonl"), ...shards]).status).toBe(0);
     expect(readFileSync(join(dir, "merged.jsonl"), "utf8")).toBe(readFileSync(join(dir, "a.jsonl"), "utf8"));
+    // a shard left out (a gap in the line numbers) or given twice: refused, nothing written
+    const gap = run(["merge", "--out", join(dir, "gap.jsonl"), shards[0] as string, shards[2] as string]);
+    expect(gap.status).toBe(2);
+    expect(String(gap.stderr)).toMatch(/line 2 is in none of the shard files: give every shard of the run/);
+    const twice = run(["merge", "--out", join(dir, "twice.jsonl"), ...shards, shards[1] as string]);
+    expect(twice.status).toBe(2);
+    expect(String(twice.stderr)).toMatch(/line 2 appears twice/);
+    expect(existsSync(join(dir, "gap.jsonl")) || existsSync(join(dir, "twice.jsonl"))).toBe(false);
   });
 
   it("CSV in and out with a header from the output contract; sharded CSV merges to the same file", async () => {

@@ -48,6 +48,7 @@ function standInPool(threads: number, readyMs: number, delayMs: (k: number) => n
     threads,
     call: () => Promise.reject(new Error("not used")),
     callJson: () => Promise.reject(new Error("not used")),
+    report: () => Promise.reject(new Error("not used")),
     lines: () => Promise.reject(new Error("not used")),
     ready: () => ready,
     jsonlChunk: async (c: JsonlChunkTask): Promise<ChunkAnswer> => {

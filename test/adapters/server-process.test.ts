@@ -1,4 +1,5 @@
 import type { ChildProcess } from "node:child_process";
+import { Agent, request } from "node:http";
 import { afterAll, describe, expect, it } from "vitest";
 import { startBuiltServer } from "../helpers/built-server.js";
 
@@ -50,13 +51,59 @@ describe.each(MODES)("the server process (BACKSTOP_HTTP_PROCESSES=%s)", (process
     const inFlight = Array.from({ length: 24 }, (_, i) => post(`${s.base}/v1/operatingPoint/bulk`, Array.from({ length: 40 + i }, () => good)).then(async (r) => ({ status: r.status, n: ((await r.json()) as { results: unknown[] }).results.length })));
     await new Promise((r) => setTimeout(r, 30)); // the requests are on the wire
     s.child.kill("SIGTERM");
-    await new Promise((r) => setTimeout(r, 100));
-    expect((await fetch(`${s.base}/readyz`)).status).toBe(503); // still serving, but not ready
+    // still serving, but not ready (each process turns once its event loop takes the signal)
+    let ready = 200;
+    for (let k = 0; k < 40 && ready !== 503; k += 1) {
+      await new Promise((r) => setTimeout(r, 25));
+      ready = (await fetch(`${s.base}/readyz`)).status;
+    }
+    expect(ready).toBe(503);
     const done = await Promise.all(inFlight);
     expect(done.map((d) => d.status)).toEqual(done.map(() => 200));
     expect(done.map((d) => d.n)).toEqual(done.map((_, i) => 40 + i));
     expect(await exited(s.child)).toBe(0);
     const log = s.logs.join("");
     expect(log.indexOf("draining")).toBeLessThan(log.indexOf("in-flight requests finished"));
+  });
+
+  // The lone process (the pod's model, deploy/deployment.yaml). With two processes behind a primary,
+  // resets at shutdown remain (not fixed yet).
+  it.runIf(processes === "1")("SIGTERM with busy keep-alive connections: every request sent on an accepted connection is answered, none reset", async () => {
+    const s = await start({ BACKSTOP_WORKERS: "1", BACKSTOP_DRAIN_DELAY_MS: "300" });
+    children.push(s.child);
+    const body = JSON.stringify(Array.from({ length: 20 }, () => good));
+    // one keep-alive connection a loop; each sends its next request as soon as the last is answered,
+    // and stops at the first answer that says Connection: close
+    const once = (agent: Agent) =>
+      new Promise<{ status: number; close: boolean }>((resolve, reject) => {
+        const req = request(`${s.base}/v1/operatingPoint/bulk`, { method: "POST", agent, headers: { "content-type": "application/json", "content-length": Buffer.byteLength(body) } }, (res) => {
+          res.resume();
+          res.on("end", () => resolve({ status: res.statusCode ?? 0, close: res.headers.connection === "close" }));
+        });
+        req.on("error", reject);
+        req.end(body);
+      });
+    const loop = async () => {
+      const agent = new Agent({ keepAlive: true, maxSockets: 1 });
+      const statuses: number[] = [];
+      try {
+        for (;;) {
+          const r = await once(agent);
+          statuses.push(r.status);
+          if (r.close) return { statuses, error: undefined };
+        }
+      } catch (e) {
+        return { statuses, error: (e as { code?: string }).code ?? String(e) };
+      } finally {
+        agent.destroy();
+      }
+    };
+    const loops = Array.from({ length: 16 }, loop);
+    await new Promise((r) => setTimeout(r, 200));
+    s.child.kill("SIGTERM");
+    const done = await Promise.all(loops);
+    expect(done.map((d) => d.error)).toEqual(done.map(() => undefined));
+    for (const d of done) expect(d.statuses.every((x) => x === 200)).toBe(true);
+    expect(await exited(s.child)).toBe(0);
   });
 });

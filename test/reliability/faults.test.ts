@@ -53,7 +53,11 @@ describe("batch: kill -9", () => {
     expect(await new Promise((r) => child.on("exit", (_c, s) => r(s)))).toBe("SIGKILL");
     expect(existsSync(out)).toBe(false);
     expect(readdirSync(dir).some((f) => f.startsWith("killed.jsonl.partial-"))).toBe(true); // what kill -9 leaves: only the temp file
-    expect(batch(["--in", input, "--out", out, "--workers", "1"]).status).toBe(0);
+    const rerun = batch(["--in", input, "--out", out, "--workers", "1"]);
+    expect(rerun.status).toBe(0);
+    // the dead run's partial is removed by the next run to the same output, and said so
+    expect(readdirSync(dir).filter((f) => f.startsWith("killed.jsonl.partial-"))).toEqual([]);
+    expect(String(rerun.stderr)).toMatch(/removed killed\.jsonl\.partial-\d+, left by a run that no longer exists/);
     expect(batch(["--in", input, "--out", join(dir, "reference.jsonl"), "--workers", "2"]).status).toBe(0);
     expect(readFileSync(out).equals(readFileSync(join(dir, "reference.jsonl")))).toBe(true);
   }, 120_000);

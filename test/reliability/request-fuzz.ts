@@ -93,3 +93,33 @@ export function mutatedBody(input: unknown, m: { kind: Mutation; node: number; p
   const nested = pick([`${"[".repeat(DEPTH)}${"]".repeat(DEPTH)}`, `${'{"a":'.repeat(DEPTH)}1${"}".repeat(DEPTH)}`]);
   return text.replace(`"${DEEP}"`, nested);
 }
+
+/** Families that bound resources (issue 22): nesting depth, width (many items or keys) and size, each at one node of an example. */
+export const RESOURCE_MUTATIONS = ["depth-over-limit", "deep-array", "deep-object", "wide-array", "wide-object", "big-string"] as const;
+export type ResourceMutation = (typeof RESOURCE_MUTATIONS)[number];
+
+const WIDE = "__fuzz_wide__";
+
+/** The JSON text of `input` with one node replaced as `kind` says (the node picked by `node`). */
+export function resourceBody(input: unknown, kind: ResourceMutation, node: number, depthLimit: number): string {
+  const copy = structuredClone(input) as Record<string, unknown>;
+  const paths = pathsOf(copy);
+  if (paths.length === 0) return JSON.stringify(copy);
+  const path = paths[node % paths.length] as Path;
+  const parent = getAt(copy, path.slice(0, -1)) as Record<string | number, unknown>;
+  const key = path.at(-1) as string | number;
+  const old = parent[key];
+  parent[key] = WIDE;
+  const text = JSON.stringify(copy);
+  const oldText = JSON.stringify(old) ?? "null";
+  const replacement: Record<ResourceMutation, () => string> = {
+    // just past the limit, counted from this node's own depth: the input as a whole is over it
+    "depth-over-limit": () => `${"[".repeat(depthLimit + 1)}${"]".repeat(depthLimit + 1)}`,
+    "deep-array": () => `${"[".repeat(DEPTH)}${"]".repeat(DEPTH)}`,
+    "deep-object": () => `${'{"a":'.repeat(DEPTH)}1${"}".repeat(DEPTH)}`,
+    "wide-array": () => `[${Array.from({ length: 5000 }, () => oldText).join(",")}]`,
+    "wide-object": () => `{${Array.from({ length: 5000 }, (_, i) => `"k${i}":${oldText}`).join(",")}}`,
+    "big-string": () => JSON.stringify("9".repeat(6_000_000)),
+  };
+  return text.replace(`"${WIDE}"`, replacement[kind]());
+}

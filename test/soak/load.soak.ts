@@ -14,11 +14,12 @@ import { startBuiltServer } from "../helpers/built-server.js";
  * most 10 % (medians of the first and last thirds of the samples); every stalled connection is cut by the header deadline.
  */
 const SECONDS = Number(process.env.BACKSTOP_SOAK_SECONDS ?? 60);
-// The cluster's resident memory (two HTTP processes, each with compute threads, each thread its own
-// heap) climbs for the first 10-25 s, then saws by about +-8 % around a plateau (a 180 s run: 750-890
-// MB from 25 s to the end). So: a 25 s warm-up, and the median of the last third of the samples after
-// it against the median of the first third (three samples each, as before, swung 11-12 % with no
-// growth in the trend and failed runs of both this and the previous build).
+// The server runs as deploy/deployment.yaml runs it in a pod (its process model: HTTP processes and
+// compute threads), and its proportional set size (PSS, /proc/<pid>/smaps_rollup: shared pages
+// split among their users, what the pod's memory limit meets) must stay below the manifest's limit.
+// The resident memory climbs for the first 10-25 s, then saws around a plateau (two HTTP processes,
+// the previous model: +-8 %, 750-890 MB over a 180 s run). So: a 25 s warm-up, and the median of the
+// last third of the samples after it against the median of the first third.
 const WARMUP_S = Math.min(25, SECONDS * 0.4);
 const example = (name: string) => JSON.stringify((JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", `${name}.json`), "utf8")) as { input: unknown }).input);
 const op = (k: number) => ({ stage: { kind: "catalog-part", partId: ["demo-schottky-10a-60v", "demo-pfet-40v-12mohm", "demo-ideal-diode-60v-3mohm"][k % 3] }, supplyV: 12 + (k % 5), load: { kind: "constant-current", currentA: 0.5 + (k % 9) * 0.5 }, ambientC: -40 + (k % 12) * 10 });
@@ -38,6 +39,21 @@ const REQUESTS = [
   { method: "GET" as const, path: "/v1" },
 ];
 
+const manifest = readFileSync(join(projectRoot(), "deploy", "deployment.yaml"), "utf8");
+const manifestEnv = (name: string) => {
+  const m = new RegExp(`name: ${name}, value: "([^"]+)"`).exec(manifest);
+  if (!m) throw new Error(`deploy/deployment.yaml sets no ${name}`);
+  return m[1] as string;
+};
+const limitMi = Number(/limits: \{ memory: (\d+)Mi \}/.exec(manifest)?.[1]);
+
+/** PSS of a process, bytes (Linux). */
+function pssBytes(pid: number): number {
+  const m = /^Pss:\s+(\d+) kB$/m.exec(readFileSync(`/proc/${pid}/smaps_rollup`, "utf8"));
+  if (!m) throw new Error("no Pss in smaps_rollup");
+  return Number(m[1]) * 1024;
+}
+
 async function rssBytes(base: string): Promise<number> {
   const text = await (await fetch(`${base}/metrics`)).text();
   const m = /^backstop_process_resident_memory_bytes (\d+(?:\.\d+)?(?:e\+\d+)?)$/m.exec(text);
@@ -52,15 +68,19 @@ describe("soak: mixed load on the built server", () => {
   });
 
   it(`${SECONDS} s at 64 connections: zero errors, memory flat after warm-up, stalled connections cut`, async () => {
-    const server = await startBuiltServer({ LOG_LEVEL: "warn", BACKSTOP_HEADERS_TIMEOUT_MS: "2000" });
+    const processes = manifestEnv("BACKSTOP_HTTP_PROCESSES");
+    expect(processes).toBe("1"); // one process: its PSS is the pod's (a cluster would sum its processes)
+    const server = await startBuiltServer({ LOG_LEVEL: "warn", BACKSTOP_HEADERS_TIMEOUT_MS: "2000", BACKSTOP_HTTP_PROCESSES: processes, BACKSTOP_WORKERS: manifestEnv("BACKSTOP_WORKERS") });
     const c = server.child;
     child = c;
     const port = server.port;
     const base = `http://127.0.0.1:${port}`;
     const samples: { t: number; rss: number }[] = [];
+    const pss: number[] = [];
     const t0 = performance.now();
     const sampler = setInterval(() => {
       void rssBytes(base).then((rss) => samples.push({ t: (performance.now() - t0) / 1000, rss }), () => undefined);
+      if (c.pid !== undefined) pss.push(pssBytes(c.pid));
     }, 2000);
     // 100 connections that send half a header and stall, opened a third of the way in
     const stalled: Promise<number>[] = [];
@@ -87,8 +107,9 @@ describe("soak: mixed load on the built server", () => {
     const total = result.requests.total;
     console.log(
       `soak: ${total} requests in ${SECONDS} s (${Math.round(result.requests.average)}/s), p99 ${result.latency.p99} ms, errors ${result.errors}, timeouts ${result.timeouts}, non-2xx ${result.non2xx}; ` +
-        `RSS ${samples.map((s) => Math.round(s.rss / 2 ** 20)).join(" ")} MB; stalled connections closed after ${Math.round(Math.max(...cut))} ms at most`,
+        `RSS ${samples.map((s) => Math.round(s.rss / 2 ** 20)).join(" ")} MB; PSS ${pss.map((b) => Math.round(b / 2 ** 20)).join(" ")} MiB (limit ${limitMi} MiB); stalled connections closed after ${Math.round(Math.max(...cut))} ms at most`,
     );
+    expect(Math.max(...pss)).toBeLessThan(limitMi * 2 ** 20);
     expect(total).toBeGreaterThan(SECONDS * 50);
     expect(result.errors).toBe(0);
     expect(result.timeouts).toBe(0);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { compileExpression } from "../../../domain/rules/sandbox.js";
+import { COMPILE_CACHE_LIMITS, compileCacheSize, compileExpression } from "../../../domain/rules/sandbox.js";
 import { EXPRESSION_LIMITS } from "../../../domain/rules/sandbox-whitelist.js";
 
 const refused = (text: string) => {
@@ -104,5 +104,16 @@ describe("sandbox: what is allowed", () => {
   });
   it("the cache returns the same compiled object for the same text", () => {
     expect(compileExpression("tjWorstC <= 100")).toBe(compileExpression("tjWorstC <= 100"));
+  });
+  it("refused texts are not cached, and the cache stays inside its entry and byte bounds", () => {
+    const before = compileCacheSize().entries;
+    for (let i = 0; i < 50; i += 1) expect(compileExpression(`tjWorstC <= 1${"0".repeat(2000)}${i}`).ok).toBe(false); // too long
+    for (let i = 0; i < 50; i += 1) expect(compileExpression(`tjWorstC <=> ${i}`).ok).toBe(false); // syntax
+    expect(compileCacheSize().entries).toBe(before);
+    for (let i = 0; i < COMPILE_CACHE_LIMITS.maxEntries + 10; i += 1) compileExpression(`tjWorstC <= ${i} + ${"1 + ".repeat(i % 40)}1`);
+    const after = compileCacheSize();
+    expect(after.entries).toBeLessThanOrEqual(COMPILE_CACHE_LIMITS.maxEntries);
+    expect(after.bytes).toBeLessThanOrEqual(COMPILE_CACHE_LIMITS.maxBytes);
+    expect(after.entries).toBeGreaterThan(0);
   });
 });

@@ -1,0 +1,75 @@
+/**
+ * The bounds on every input dimension that drives memory or time, and on the answers: one table,
+ * read once from the environment (README, "Limits"). An input past a limit is refused with HTTP 422
+ * and the code `limit-exceeded`, its message naming the limit and the variable that sets it; the
+ * request body and the bulk item count are the HTTP server's (413, adapters/http/config.ts).
+ */
+export interface Limits {
+  /** deepest nesting of arrays and objects in one input (checked before anything else reads it) */
+  readonly maxInputDepth: number;
+  /** most issues an error answer lists; the rest are counted in one closing issue */
+  readonly maxErrorIssues: number;
+  /** most names in one metrics record (`metrics`, `ruleMetrics`, part parameters) */
+  readonly maxMetrics: number;
+  /** most candidates in one review */
+  readonly maxCandidates: number;
+  /** start-up profile points times candidates in one review (each point is stepped 40 times a candidate and ambient, and every step is in the answer) */
+  readonly maxProfileWork: number;
+  /** most Monte Carlo samples in one review */
+  readonly maxMonteCarloSamples: number;
+  /** largest answer of one request (a bulk answer as a whole), bytes of JSON */
+  readonly maxAnswerBytes: number;
+}
+
+/** The environment variable of each limit. */
+export const LIMIT_VARIABLES: { readonly [K in keyof Limits]: string } = {
+  maxInputDepth: "BACKSTOP_MAX_INPUT_DEPTH",
+  maxErrorIssues: "BACKSTOP_MAX_ERROR_ISSUES",
+  maxMetrics: "BACKSTOP_MAX_METRICS",
+  maxCandidates: "BACKSTOP_MAX_CANDIDATES",
+  maxProfileWork: "BACKSTOP_MAX_PROFILE_WORK",
+  maxMonteCarloSamples: "BACKSTOP_MAX_MONTE_CARLO_SAMPLES",
+  maxAnswerBytes: "BACKSTOP_MAX_ANSWER_BYTES",
+};
+
+export const DEFAULT_LIMITS: Limits = {
+  maxInputDepth: 64,
+  maxErrorIssues: 20,
+  maxMetrics: 256,
+  maxCandidates: 64,
+  // one candidate with a 1,000-point profile answers about 11.5 MB (two ambients, 40 steps a point)
+  maxProfileWork: 1000,
+  maxMonteCarloSamples: 100_000,
+  maxAnswerBytes: 16 * 1024 * 1024,
+};
+
+/** The limits from `env` (unset or empty: the default); a value that is not a positive integer is an error naming the variable. */
+export function limitsFromEnv(env: Readonly<Record<string, string | undefined>>): Limits {
+  const out: Record<string, number> = {};
+  for (const key of Object.keys(DEFAULT_LIMITS) as (keyof Limits)[]) {
+    const name = LIMIT_VARIABLES[key];
+    const raw = env[name];
+    if (raw === undefined || raw === "") out[key] = DEFAULT_LIMITS[key];
+    else {
+      const n = Number(raw);
+      if (!Number.isInteger(n) || n < 1) throw new Error(`${name} must be a positive integer, got "${raw}"`);
+      out[key] = n;
+    }
+  }
+  return out as unknown as Limits;
+}
+
+/** The limits of this process (its environment at start; worker threads inherit it). */
+export const LIMITS: Limits = limitsFromEnv(typeof process === "undefined" ? {} : process.env);
+
+const MARK = /\(limit [A-Z_]+\)$/;
+
+/** The message of an input past a limit: what, the limit, and its variable (the mark {@link isLimitMessage} reads). */
+export function limitMessage(key: keyof Limits, what: string): string {
+  return `${what}: at most ${LIMITS[key]} (limit ${LIMIT_VARIABLES[key]})`;
+}
+
+/** Whether an issue's message is a limit's (see {@link limitMessage}). */
+export function isLimitMessage(message: string): boolean {
+  return MARK.test(message);
+}
