@@ -1,6 +1,7 @@
 import { TRPCError } from "@trpc/server";
 import { ZodError } from "zod";
 import type { ErrorBody } from "../contracts/outcome.js";
+import { issuesOf, pathText } from "../contracts/zod-messages.js";
 import { InputProblem } from "./input-problem.js";
 
 /**
@@ -11,9 +12,9 @@ import { InputProblem } from "./input-problem.js";
 export function errorBodyOf(err: unknown): ErrorBody {
   const cause = err instanceof TRPCError ? err.cause : err;
   if (cause instanceof ZodError) {
-    const issues = cause.issues.map((i) => ({ path: i.path.map((p) => (typeof p === "symbol" ? String(p) : p)), message: i.message }));
+    const issues = issuesOf(cause.issues);
     const first = issues[0];
-    const where = first ? `${first.path.join(".") || "(input)"}: ${first.message}` : "invalid input";
+    const where = first ? `${pathText(first.path)}: ${first.message}` : "invalid input";
     return { code: "invalid-input", message: `invalid input at ${where}`, issues };
   }
   if (cause instanceof InputProblem) return { code: cause.code, message: cause.message, issues: cause.issues };

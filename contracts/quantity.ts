@@ -1,6 +1,7 @@
 import type { Unit } from "mathjs";
 import { mathjs } from "../domain/rules/mathjs-bundle.js";
 import { z } from "zod";
+import "./zod-messages.js";
 import { fastQuantity } from "./quantity-fast-path.js";
 
 /**

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import "./zod-messages.js";
 import { METRICS, PART_PARAMETERS } from "../domain/rules/metric-vocabulary.js";
 import type { Rule, RuleSet } from "../domain/rules/rule-model.js";
 
