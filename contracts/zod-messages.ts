@@ -55,6 +55,12 @@ export function unknownFieldMessage(key: string, known: readonly string[]): stri
   return known.length > 0 && known.length <= 24 ? `unknown field \`${key}\`; valid fields here: ${known.join(", ")}` : `unknown field \`${key}\``;
 }
 
+/** An id that names nothing: the nearest known one, and the list (`no supply class "car-12"; did you mean "car-12v"? known: ...`). */
+export function unknownIdMessage(what: string, id: string, known: readonly string[]): string {
+  const near = nearestName(id, known);
+  return `no ${what} "${id}"${near === undefined ? "" : `; did you mean "${near}"?`} known: ${known.join(", ")}`;
+}
+
 /** Between the per-key messages of one unrecognized_keys issue (split again by issuesOf). */
 const KEY_MESSAGE_SEPARATOR = "; also ";
 
@@ -69,17 +75,19 @@ function customError(iss: RawIssue): string | undefined {
       return (iss.keys as string[]).map((k) => unknownFieldMessage(k, known)).join(KEY_MESSAGE_SEPARATOR);
     }
     case "invalid_type":
-      return iss.input === undefined ? `required (${iss.expected === "nonoptional" ? "a value" : `a ${iss.expected}`})` : undefined;
+      return iss.input === undefined ? `required (${iss.expected === "nonoptional" ? "a value" : `${/^[aeiou]/.test(iss.expected) ? "an" : "a"} ${iss.expected}`})` : undefined;
     case "invalid_value": {
       const values = (iss as { values?: unknown[] }).values;
       if (!values || values.length < 2) return undefined;
       return `expected one of ${values.map(quoted).join(", ")}${iss.input === undefined ? "" : ` (got ${JSON.stringify(iss.input)})`}`;
     }
     case "invalid_union": {
-      const options = (iss as { options?: unknown[]; discriminator?: string }).options;
-      if (!options) return undefined;
-      const got = iss.input === undefined ? "" : ` (got ${JSON.stringify(iss.input)})`;
-      return iss.input === undefined ? `required: one of ${options.map(quoted).join(", ")}` : `expected one of ${options.map(quoted).join(", ")}${got}`;
+      const { options, discriminator } = iss as { options?: unknown[]; discriminator?: string };
+      if (!options || discriminator === undefined) return undefined;
+      const input = iss.input as Record<string, unknown> | undefined;
+      const value = typeof input === "object" && input !== null && Object.hasOwn(input, discriminator) ? input[discriminator] : undefined;
+      const list = options.map(quoted).join(", ");
+      return value === undefined ? `required: one of ${list}` : `expected one of ${list} (got ${JSON.stringify(value)})`;
     }
     default:
       return undefined;

@@ -30,6 +30,16 @@ const INDEX = /^(0|[1-9]\d{0,5})$/;
 /** A column name's path as an issue path (numeric segments as array indexes). */
 const columnPath = (dotted: string): (string | number)[] => dotted.split(".").map((p) => (INDEX.test(p) ? Number(p) : p));
 
+/** A column that cannot be set, with the path of the segment at fault. */
+class ColumnError extends Error {
+  constructor(
+    message: string,
+    readonly path: (string | number)[],
+  ) {
+    super(message);
+  }
+}
+
 /**
  * Set `value` at a dotted column name (`stage.partId`, `rdsOn.0.gateSourceV`: a numeric segment is
  * an array index). A segment `__proto__`, `constructor` or `prototype` is refused before anything is
@@ -37,8 +47,8 @@ const columnPath = (dotted: string): (string | number)[] => dotted.split(".").ma
  */
 export function setPath(target: Record<string, unknown>, dotted: string, value: unknown): void {
   const parts = dotted.split(".");
-  const hostile = parts.find((p) => PROTOTYPE_KEYS.has(p));
-  if (hostile !== undefined) throw new Error(unknownFieldMessage(hostile, []));
+  const hostile = parts.findIndex((p) => PROTOTYPE_KEYS.has(p));
+  if (hostile >= 0) throw new ColumnError(unknownFieldMessage(parts[hostile] as string, []), columnPath(parts.slice(0, hostile + 1).join(".")));
   let node: Record<string, unknown> | unknown[] = target;
   parts.forEach((part, i) => {
     const last = i === parts.length - 1;
@@ -81,7 +91,7 @@ export function csvRowToLine(header: readonly string[], cells: readonly string[]
       const v = cellValue(cell);
       if (v.present) setPath(input, name, v.value);
     } catch (e) {
-      return { id, error: { code: "malformed-line", message: `column "${name}": ${(e as Error).message}`, issues: [{ path: columnPath(name), message: (e as Error).message }] } };
+      return { id, error: { code: "malformed-line", message: `column "${name}": ${(e as Error).message}`, issues: [{ path: e instanceof ColumnError ? e.path : columnPath(name), message: (e as Error).message }] } };
     }
   }
   if (proc === undefined) return { id, error: { code: "malformed-line", message: "no procedure: add a procedure column or pass --procedure", issues: [] } };

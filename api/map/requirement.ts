@@ -1,8 +1,9 @@
 import type { Requirement } from "../../contracts/requirement.js";
 import type { ReviewRequirement } from "../../domain/review/candidate-review.js";
 import type { ReviewTurnOff } from "../../domain/review/review-turn-off.js";
-import { findSupplyClass, type SupplyClass } from "../../domain/review/supply-classes.js";
-import { findTransient, type TransientPulse } from "../../domain/review/transient-library.js";
+import { findSupplyClass, SUPPLY_CLASSES, type SupplyClass } from "../../domain/review/supply-classes.js";
+import { findTransient, TRANSIENT_LIBRARY, type TransientPulse } from "../../domain/review/transient-library.js";
+import { unknownIdMessage } from "../../contracts/zod-messages.js";
 import { inputProblem } from "../input-problem.js";
 
 /** Defaults of the design review [common practice], each recorded in `assumptions` when used. */
@@ -24,7 +25,7 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
   let cls: SupplyClass | undefined;
   if (r.supply.class !== "custom") {
     cls = findSupplyClass(r.supply.class);
-    if (cls === undefined) throw inputProblem("invalid-input", ["requirement", "supply", "class"], `no supply class "${r.supply.class}"`);
+    if (cls === undefined) throw inputProblem("invalid-input", ["requirement", "supply", "class"], unknownIdMessage("supply class", r.supply.class, [...SUPPLY_CLASSES.map((c) => c.id), "custom"]));
   }
   const minV = r.supply.minV ?? cls?.minV ?? 0;
   const nominalV = r.supply.nominalV ?? cls?.nominalV ?? 0;
@@ -43,7 +44,7 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
   wanted.forEach((t, i) => {
     if (typeof t === "string") {
       const p = findTransient(t);
-      if (p === undefined) throw inputProblem("invalid-input", ["requirement", "transients", i], `no built-in transient "${t}"`);
+      if (p === undefined) throw inputProblem("invalid-input", ["requirement", "transients", i], unknownIdMessage("built-in transient", t, TRANSIENT_LIBRARY.map((x) => x.id)));
       pulses.push(p);
       sources.push(`${p.id}: ${p.source}`);
     } else {
