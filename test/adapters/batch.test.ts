@@ -73,4 +73,26 @@ describe("batch command line", () => {
     expect(missing.status).toBe(2);
     expect(existsSync(join(dir, "o3.jsonl"))).toBe(false);
   });
+
+  it("--help prints the usage and exits 0; a CSV that cannot name a procedure is refused before any row (exit 2); blank lines are skipped and counted apart", () => {
+    const bin = join(root, "bin", "backstop.mjs");
+    for (const args of [["--help"], ["batch", "--help"], ["merge", "--help"]]) {
+      const r = spawnSync("node", [bin, ...args], { encoding: "utf8" });
+      expect(r.status, args.join(" ")).toBe(0);
+      expect(r.stdout).toMatch(/^usage:/);
+    }
+    const dir = mkdtempSync(join(tmpdir(), "backstop-batch-"));
+    const csv = join(dir, "in.csv");
+    writeFileSync(csv, "id,supplyV,ambientC\n1,12,25\n");
+    const r = spawnSync("node", [bin, "batch", "--in", csv, "--out", join(dir, "out.jsonl")], { encoding: "utf8" });
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/no "procedure" column and no --procedure was given/);
+    expect(existsSync(join(dir, "out.jsonl"))).toBe(false);
+    const jsonl = join(dir, "in.jsonl");
+    writeFileSync(jsonl, `${JSON.stringify({ id: 1, procedure: "operatingPoint", input: good })}\n\n   \n${JSON.stringify({ id: 2, procedure: "operatingPoint", input: good })}\n`);
+    const b = spawnSync("node", [bin, "batch", "--in", jsonl, "--out", join(dir, "out2.jsonl")], { encoding: "utf8" });
+    expect(b.status).toBe(0);
+    expect(b.stderr).toMatch(/2 rows, 0 rejected, 2 blank lines skipped/);
+    expect(readFileSync(join(dir, "out2.jsonl"), "utf8").trim().split("\n").map((l) => (JSON.parse(l) as { line: number }).line)).toEqual([1, 4]);
+  });
 });
