@@ -6,10 +6,10 @@ import { quantity, ratio, temperatureC } from "./quantity.js";
 import { stageInput } from "./stage.js";
 
 export const battery = z
-  .object({
+  .strictObject({
     capacityAh: z.number().gt(0).lte(1e6).meta({ description: "capacity", unit: "A·h" }),
     ocvPoints: z
-      .array(z.object({ soc: ratio("state of charge", { ge: 0, le: 1 }), voltageV: quantity("V", "open-circuit voltage", { gt: 0, le: 10_000 }) }))
+      .array(z.strictObject({ soc: ratio("state of charge", { ge: 0, le: 1 }), voltageV: quantity("V", "open-circuit voltage", { gt: 0, le: 10_000 }) }))
       .min(2)
       .max(200)
       .meta({ description: "open-circuit voltage against state of charge: SoC strictly increasing, voltage not decreasing" }),
@@ -26,14 +26,14 @@ export const battery = z
   });
 
 export const batteryChargeInput = z
-  .object({
+  .strictObject({
     source: battery,
     target: battery,
     stages: z.array(stageInput).min(1).max(10).meta({ description: "the stages to compare side by side" }),
     currentLimitA: quantity("A", "charge current limit (absent: none)", { gt: 0, le: 1e4 }).optional(),
     ambientC: temperatureC("ambient temperature"),
     stop: z
-      .object({
+      .strictObject({
         targetSoc: ratio("stop when the target reaches this state of charge (default 1)", { gt: 0, le: 1 }).optional(),
         minCurrentA: quantity("A", "stop when the charge current falls below this taper (default 1e-3 of the target's capacity per hour)", { gt: 0, le: 1e4 }).optional(),
         sourceMinSoc: ratio("stop when the source falls to this state of charge (default 0)", { ge: 0, lt: 1 }).optional(),

@@ -41,12 +41,12 @@ const common = {
 };
 
 export const bridgeDcInput = z
-  .object({ ...common, supplyV: quantity("V", "magnitude of the DC supply; both polarities are analysed", { gt: 0, le: 10_000 }) })
+  .strictObject({ ...common, supplyV: quantity("V", "magnitude of the DC supply; both polarities are analysed", { gt: 0, le: 10_000 }) })
   .meta({ description: "full bridge on a DC input of either polarity, electrothermally" });
 export type BridgeDcInput = z.input<typeof bridgeDcInput>;
 
 export const bridgeAcInput = z
-  .object({
+  .strictObject({
     ...common,
     sourceRmsV: quantity("V", "RMS voltage of the sine source", { gt: 0, le: 10_000 }),
     frequencyHz: quantity("Hz", "source frequency", { gt: 0, le: 1e5 }),

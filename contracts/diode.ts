@@ -5,7 +5,7 @@ const energyGapEv = z.number().gt(0.1).lte(5).meta({ description: "activation en
 const vfTempCoVPerK = quantity("V/K", "linear forward-voltage temperature coefficient at constant current (about −2 mV/K for silicon); replaces the Eg/XTI law", { ge: -0.05, le: 0.05 });
 const saturationTempExponent = z.number().gte(0).lte(10).meta({ description: "Is temperature exponent XTI (default: 3 PN, 2 Schottky)", unit: "1" });
 
-export const diodeShockley = z.object({
+export const diodeShockley = z.strictObject({
   model: z.literal("shockley"),
   saturationCurrentA: quantity("A", "saturation current Is at the nominal temperature", { gt: 0, le: 1 }),
   ideality: ratio("ideality (emission) factor n", { ge: 0.5, le: 10 }),
@@ -16,13 +16,13 @@ export const diodeShockley = z.object({
   nominalTempC: temperatureC("temperature at which Is holds (default 25 °C)").optional(),
 });
 
-export const forwardPoint = z.object({
+export const forwardPoint = z.strictObject({
   currentA: quantity("A", "forward current of the datasheet point", { gt: 0, le: 1e5 }),
   voltageV: quantity("V", "forward voltage of the datasheet point", { gt: 0, le: 100 }),
   tempC: temperatureC("junction temperature of the point (default 25 °C)").optional(),
 });
 
-export const diodePoints = z.object({
+export const diodePoints = z.strictObject({
   model: z.literal("points"),
   points: z
     .array(forwardPoint)

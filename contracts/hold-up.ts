@@ -10,7 +10,7 @@ import { fallingInputFields, holdUpCapacitor } from "./turn-off.js";
 const { stage: _s, outputV: _o, capacitor: _c, load: _l, loadMinV: _m, tjC: _t, ...fallFields } = fallingInputFields;
 
 export const holdUpInput = z
-  .object({
+  .strictObject({
     stages: z.array(stageInput).min(1).max(20).meta({ description: "the stage kinds to compare, each on the same output" }),
     outputV: quantity("V", "output voltage when the input is lost", { gt: 0, le: 10_000 }),
     capacitor: holdUpCapacitor,
@@ -20,8 +20,8 @@ export const holdUpInput = z
     requiredHoldUpS: quantity("s", "hold-up the design must achieve (for the metric holdUpMarginS)", { ge: 0, le: 1e6 }).optional(),
     input: z
       .discriminatedUnion("kind", [
-        z.object({ kind: z.literal("open") }).meta({ description: "the input is disconnected: nothing flows back" }),
-        z.object({ kind: z.literal("falls"), ...fallFields }).meta({ description: "the input is shorted or steps lower through a loop" }),
+        z.strictObject({ kind: z.literal("open") }).meta({ description: "the input is disconnected: nothing flows back" }),
+        z.strictObject({ kind: z.literal("falls"), ...fallFields }).meta({ description: "the input is shorted or steps lower through a loop" }),
       ])
       .meta({ description: "how the input is lost" }),
     ruleSet: ruleSetRef.optional().meta({ description: "when given, the result carries this rule set's verdicts (docs/metrics.md lists what this analysis provides)" }),

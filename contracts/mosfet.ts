@@ -6,11 +6,11 @@ const volts = (d: string) => quantity("V", d, { gt: 0, le: 10_000 });
 
 export const rdsTempLaw = z
   .discriminatedUnion("law", [
-    z.object({ law: z.literal("power"), exponent: z.number().gte(0).lte(5).meta({ description: "α in Rds(T) = Rds(25 °C)·(T/298.15 K)^α", unit: "1" }) }),
-    z.object({
+    z.strictObject({ law: z.literal("power"), exponent: z.number().gte(0).lte(5).meta({ description: "α in Rds(T) = Rds(25 °C)·(T/298.15 K)^α", unit: "1" }) }),
+    z.strictObject({
       law: z.literal("points"),
       points: z
-        .array(z.object({ tjC: temperatureC("junction temperature"), factor: z.number().gt(0).lte(100).meta({ description: "Rds(on)(Tj)/Rds(on)(25 °C)", unit: "1" }) }))
+        .array(z.strictObject({ tjC: temperatureC("junction temperature"), factor: z.number().gt(0).lte(100).meta({ description: "Rds(on)(Tj)/Rds(on)(25 °C)", unit: "1" }) }))
         .min(2)
         .meta({ description: "normalised on-resistance against junction temperature, increasing Tj" }),
     }),
@@ -29,9 +29,9 @@ export const rdsTempLaw = z
   .meta({ description: "temperature law of Rds(on) (default: power law, α = 2.3, common practice)" });
 
 export const mosfet = z
-  .object({
+  .strictObject({
     rdsOn: z
-      .array(z.object({ gateSourceV: volts("gate-source drive (magnitude)"), rdsOnOhm: quantity("ohm", "on-resistance at 25 °C", { gt: 0, le: 1e3 }) }))
+      .array(z.strictObject({ gateSourceV: volts("gate-source drive (magnitude)"), rdsOnOhm: quantity("ohm", "on-resistance at 25 °C", { gt: 0, le: 1e3 }) }))
       .min(1)
       .meta({ description: "datasheet Rds(on) at 25 °C against gate drive, one point or more" }),
     rdsOnTemp: rdsTempLaw.optional(),

@@ -8,7 +8,7 @@ import { stageInput } from "./stage.js";
 import { thermalPath } from "./thermal.js";
 
 export const operatingPointInput = z
-  .object({
+  .strictObject({
     stage: stageInput,
     supplyV: quantity("V", "open-circuit supply voltage, forward polarity", { gt: 0, le: 10_000 }),
     sourceResistanceOhm: quantity("ohm", "source and wiring resistance (default 0)", { ge: 0, le: 1e6 }).optional(),

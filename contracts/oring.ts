@@ -6,7 +6,7 @@ import { ruleSetRef } from "./rules.js";
 import { quantity, temperatureC } from "./quantity.js";
 import { stageInput } from "./stage.js";
 
-export const oringSource = z.object({
+export const oringSource = z.strictObject({
   name: z.string().min(1).max(200).optional(),
   openCircuitV: quantity("V", "open-circuit voltage of the source", { gt: 0, le: 10_000 }),
   internalResistanceOhm: quantity("ohm", "internal plus wiring resistance of the source (> 0)", { gt: 0, le: 1e6 }),
@@ -15,7 +15,7 @@ export const oringSource = z.object({
 });
 
 export const oringInput = z
-  .object({
+  .strictObject({
     sources: z.array(oringSource).min(1, { message: "an ORing network needs at least one source" }).max(32),
     load,
     ambientC: temperatureC("ambient temperature"),

@@ -1,6 +1,7 @@
 import type { Unit } from "mathjs";
 import { mathjs } from "../domain/rules/mathjs-bundle.js";
 import { z } from "zod";
+import "./zod-messages.js";
 import { fastQuantity } from "./quantity-fast-path.js";
 
 /**
@@ -49,21 +50,31 @@ function toFieldUnit(raw: string, fieldUnit: string): Converted {
   return out;
 }
 
+/** "20mR", "4k7R": the trade's R for ohms, which mathjs does not read (nor does backstop: R is ambiguous). */
+const R_FOR_OHM = /^\s*([+-]?[\d.]+(?:e[+-]?\d+)?)\s*([pnumkMG]?)R\s*$/i;
+/** A temperature written with C (coulomb) or F (farad) where degC or degF was meant. */
+const BARE_TEMPERATURE = /^\s*([+-]?[\d.]+(?:e[+-]?\d+)?)\s*([CF])\s*$/;
+
 function convert(raw: string, fieldUnit: string): Converted {
   const text = normaliseUnitText(raw);
   const fast = fastQuantity(text, fieldUnit);
   if (fast !== undefined) return { ok: true, value: fast };
+  const example = `"1.5 ${fieldUnit}"`;
   let parsed: Unit;
   try {
     parsed = mathjs().unit(text);
   } catch {
-    return { ok: false, message: `cannot read "${raw}" as a value with a unit (expected something like "1.5 ${fieldUnit}")` };
+    const r = R_FOR_OHM.exec(text);
+    if (r) return { ok: false, message: `cannot read "${raw}": R is not read as ohm; type "${r[1]} ${r[2]}ohm" (or ${r[1]} ${r[2]}Ω)` };
+    return { ok: false, message: `cannot read "${raw}" as a value with a unit: type a number in ${fieldUnit} or a string such as ${example}` };
   }
   if (parsed.units.length === 0) {
-    return { ok: false, message: `"${raw}" has no unit: give a number in ${fieldUnit} or a value with a unit` };
+    return { ok: false, message: `"${raw}" has no unit: give a number in ${fieldUnit} or a value with a unit, such as ${example}` };
   }
   if (!parsed.equalBase(mathjs().unit(fieldUnit))) {
-    return { ok: false, message: `"${raw}" is not a quantity of the kind ${fieldUnit} measures (wrong dimension)` };
+    const t = fieldUnit === "degC" ? BARE_TEMPERATURE.exec(text) : null;
+    if (t) return { ok: false, message: `"${raw}" reads ${t[2]} as ${t[2] === "C" ? "coulomb (charge)" : "farad (capacitance)"}, not a temperature: type "${t[1]} deg${t[2]}" (or ${t[1]} °${t[2]})` };
+    return { ok: false, message: `"${raw}" is not a quantity of the kind ${fieldUnit} measures (wrong dimension): type a value in ${fieldUnit}, such as ${example}` };
   }
   return { ok: true, value: parsed.toNumber(fieldUnit) };
 }
@@ -114,6 +125,12 @@ export function ratio(description: string, bounds: Bounds = {}) {
   return s.meta({ description, unit: "1" });
 }
 
-/** Absolute zero in °C, the bound of every temperature field. */
+/** Absolute zero in °C, the lower bound of every temperature field. */
 export const ABSOLUTE_ZERO_C = -273.15;
-export const temperatureC = (description: string) => quantity("degC", description, { gt: ABSOLUTE_ZERO_C, le: 1000 });
+/**
+ * The upper bound of every temperature field, 400 °C: above any junction, ambient or datasheet
+ * temperature of the silicon and SiC parts backstop models (common practice: SiC dice are rated to
+ * about 200-250 °C, solders melt at about 180-300 °C), so a larger figure is a typo or a unit slip.
+ */
+export const MAX_TEMPERATURE_C = 400;
+export const temperatureC = (description: string) => quantity("degC", description, { gt: ABSOLUTE_ZERO_C, le: MAX_TEMPERATURE_C });

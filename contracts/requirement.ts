@@ -6,7 +6,7 @@ import { holdUpCapacitor, reverseLoop, turnOffTiming } from "./turn-off.js";
 const volts = (d: string) => quantity("V", d, { gt: 0, le: 10_000 });
 
 export const supplySpec = z
-  .object({
+  .strictObject({
     class: z.string().min(1).max(64).meta({ description: "a built-in supply class id (see GET of review.supplyClasses), or 'custom'" }),
     minV: volts("lowest supply (overrides the class)").optional(),
     nominalV: volts("nominal supply (overrides the class)").optional(),
@@ -15,7 +15,7 @@ export const supplySpec = z
   })
   .meta({ description: "the supply: a built-in class, with any value overridden, or 'custom' with all three given" });
 
-export const customPulse = z.object({
+export const customPulse = z.strictObject({
   id: z.string().min(1).max(64),
   title: z.string().max(200).optional(),
   baseV: quantity("V", "supply the pulse rides on (0: supply disconnected)", { ge: -10_000, le: 10_000 }),
@@ -29,7 +29,7 @@ export const customPulse = z.object({
 
 /** The reverse-current event each candidate is put through in the review (the turnOff analysis's loop and capacitor). */
 export const reviewTurnOff = z
-  .object({
+  .strictObject({
     loop: reverseLoop,
     capacitor: holdUpCapacitor,
     inputAfterV: quantity("V", "input from t = 0 on: 0 for a short (default), or the lower voltage it steps to", { ge: 0, le: 10_000 }).optional(),
@@ -42,16 +42,16 @@ export const reviewTurnOff = z
   .meta({ description: "the input shorted or stepping lower: each candidate's reverse-current peak, turn-off and absorbed energy (the turnOff analysis), for the avalanche and reverse-current rules" });
 
 export const requirement = z
-  .object({
+  .strictObject({
     supply: supplySpec,
     sourceResistanceOhm: quantity("ohm", "source and wiring resistance (default 0)", { ge: 0, le: 1e6 }).optional(),
     load,
     loadLevels: z.array(z.number().gt(0).lte(10)).min(1).max(8).optional().meta({ description: "load levels as shares of the full load for the corners (default [1, 0.1])" }),
     loadStandbyA: quantity("A", "the load's standby current (default 0)", { ge: 0, le: 100 }).optional(),
     loadMinV: quantity("V", "lowest voltage at which the load works (default: a constant-power load's own minimum)", { ge: 0, le: 10_000 }).optional(),
-    ambient: z.object({ minC: temperatureC("lowest ambient"), maxC: temperatureC("highest ambient") }),
+    ambient: z.strictObject({ minC: temperatureC("lowest ambient"), maxC: temperatureC("highest ambient") }),
     reverse: z
-      .object({ voltageV: quantity("V", "steady reverse polarity to withstand (magnitude)", { ge: 0, le: 10_000 }), durationS: quantity("s", "how long", { gt: 0, le: 1e7 }) })
+      .strictObject({ voltageV: quantity("V", "steady reverse polarity to withstand (magnitude)", { ge: 0, le: 10_000 }), durationS: quantity("s", "how long", { gt: 0, le: 1e7 }) })
       .optional()
       .meta({ description: "steady reverse polarity (default: the supply class's)" }),
     transients: z
@@ -60,7 +60,7 @@ export const requirement = z
       .optional()
       .meta({ description: "pulses to check: built-in ids or custom pulses (default: the supply class's set)" }),
     inputClamp: z
-      .object({
+      .strictObject({
         standoffV: volts("clamp working (standoff) voltage"),
         clampV: volts("clamping voltage at its peak current"),
         peakCurrentA: quantity("A", "rated peak pulse current", { gt: 0, le: 1e5 }).optional(),
@@ -71,14 +71,14 @@ export const requirement = z
     outputHeldV: quantity("V", "voltage the hold-up capacitor keeps at the output during a negative pulse (default: nominal supply)", { ge: 0, le: 10_000 }).optional(),
     deratingFactor: ratio("share of a voltage rating the clamp sizing may use (default 0.8, common practice)", { gt: 0, le: 1 }).optional(),
     startProfile: z
-      .array(z.object({ timeS: quantity("s", "time", { ge: 0, le: 1e5 }), voltageV: quantity("V", "supply", { ge: 0, le: 10_000 }) }))
+      .array(z.strictObject({ timeS: quantity("s", "time", { ge: 0, le: 1e5 }), voltageV: quantity("V", "supply", { ge: 0, le: 10_000 }) }))
       .min(2)
       .max(1000)
       .optional()
       .meta({ description: "a start-up (cold-crank) profile: supply against time, time increasing" }),
     mission: z
       .array(
-        z.object({
+        z.strictObject({
           hoursPerYear: quantity("h", "hours a year in this state", { ge: 0, le: 8784 }),
           loadLevel: z.number().gt(0).lte(10).meta({ description: "share of the full load" }),
           ambientC: temperatureC("ambient in this state"),
@@ -87,7 +87,7 @@ export const requirement = z
       .max(64)
       .optional(),
     energyPricePerKWh: z.number().gte(0).lte(1e4).optional().meta({ description: "price of a kWh in the caller's currency" }),
-    battery: z.object({ capacityAh: quantity("A*h", "battery capacity", { gt: 0, le: 1e6 }), usableFraction: ratio("usable share of the capacity", { gt: 0, le: 1 }) }).optional(),
+    battery: z.strictObject({ capacityAh: quantity("A*h", "battery capacity", { gt: 0, le: 1e6 }), usableFraction: ratio("usable share of the capacity", { gt: 0, le: 1 }) }).optional(),
     standbyBudgetA: quantity("A", "standby current budget for the input stage", { ge: 0, le: 100 }).optional(),
     lossBudgetW: quantity("W", "largest loss the input stage may dissipate at the worst corner", { gt: 0, le: 1e5 }).optional(),
     parallelSources: z.boolean().optional().meta({ description: "the input is paralleled with another source (default false)" }),

@@ -11,14 +11,14 @@ import { zthCurveFields } from "./fit.js";
 
 export const transientThermal = z
   .discriminatedUnion("kind", [
-    z.object({
+    z.strictObject({
       kind: z.literal("foster"),
       terms: z
-        .array(z.object({ rKPerW: quantity("K/W", "thermal resistance of the term", { gt: 0, le: 10_000 }), tauS: quantity("s", "time constant τ = R·C", { gt: 0, le: 1e6 }) }))
+        .array(z.strictObject({ rKPerW: quantity("K/W", "thermal resistance of the term", { gt: 0, le: 10_000 }), tauS: quantity("s", "time constant τ = R·C", { gt: 0, le: 1e6 }) }))
         .min(1)
         .max(12),
     }),
-    z.object({ kind: z.literal("single-pole"), heatCapacityJPerK: quantity("J/K", "heat capacity of the junction-to-ambient path", { gt: 0, le: 1e6 }) }),
+    z.strictObject({ kind: z.literal("single-pole"), heatCapacityJPerK: quantity("J/K", "heat capacity of the junction-to-ambient path", { gt: 0, le: 1e6 }) }),
     z
       .strictObject({ kind: z.literal("zth-points"), ...zthCurveFields })
       .meta({ description: "single-pulse junction-to-ambient Zth(t) points, fitted to a Foster network (steadyKPerW default: the stage's thermal path)" }),
@@ -28,12 +28,12 @@ export const transientThermal = z
       "transient thermal model for start-up profiles: a Foster network, one pole from RthJA and a heat capacity, or Zth(t) points fitted to a Foster network (absent: quasi-static steady state, an upper bound)",
   });
 
-export const candidate = z.object({
+export const candidate = z.strictObject({
   label: z.string().min(1).max(200).optional(),
   stage: stageInput,
   thermal: thermalPath.optional().meta({ description: "overrides the stage's thermal path on this board" }),
   datasheetMax: z
-    .object({
+    .strictObject({
       rdsOnFactor: z.number().gte(1).lte(5).meta({ description: "datasheet maximum ÷ typical Rds(on)", unit: "1" }),
       forwardVoltageFactor: z.number().gte(1).lte(5).meta({ description: "datasheet maximum ÷ typical forward voltage", unit: "1" }),
     })
@@ -45,7 +45,7 @@ export const candidate = z.object({
 });
 
 const mcParameter = z.enum(["rdsOn", "forwardVoltage", "rth", "supplyV", "ambientC", "load"]);
-export const monteCarloSpec = z.object({
+export const monteCarloSpec = z.strictObject({
   samples: z.number().int().min(1).max(LIMITS.maxMonteCarloSamples, { error: limitMessage("maxMonteCarloSamples", "Monte Carlo samples") }),
   seed: z.number().int().min(0).max(2 ** 32 - 1),
   candidate: z.number().int().min(0).max(63).optional().meta({ description: "index of the candidate to sample (default 0)" }),
@@ -54,8 +54,8 @@ export const monteCarloSpec = z.object({
   tolerances: z
     .array(
       z.discriminatedUnion("distribution", [
-        z.object({ parameter: mcParameter, distribution: z.literal("normal"), sigma: z.number().gte(0).lte(1000).meta({ description: "standard deviation: relative for rdsOn, forwardVoltage, rth, load (≤ 0.2); V or K for supplyV, ambientC" }) }),
-        z.object({ parameter: mcParameter, distribution: z.literal("uniform"), halfWidth: z.number().gte(0).lte(1000).meta({ description: "± half width: relative (≤ 0.9) or V / K" }) }),
+        z.strictObject({ parameter: mcParameter, distribution: z.literal("normal"), sigma: z.number().gte(0).lte(1000).meta({ description: "standard deviation: relative for rdsOn, forwardVoltage, rth, load (≤ 0.2); V or K for supplyV, ambientC" }) }),
+        z.strictObject({ parameter: mcParameter, distribution: z.literal("uniform"), halfWidth: z.number().gte(0).lte(1000).meta({ description: "± half width: relative (≤ 0.9) or V / K" }) }),
       ]),
     )
     .min(1)
@@ -63,7 +63,7 @@ export const monteCarloSpec = z.object({
 });
 
 export const reviewInput = z
-  .object({
+  .strictObject({
     requirement,
     candidates: z.array(candidate).min(1).max(LIMITS.maxCandidates, { error: limitMessage("maxCandidates", "candidates in one review") }),
     ruleSet: z.string().min(1).max(100).optional().meta({ description: "id of a rule set (default: default)" }),

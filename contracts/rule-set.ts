@@ -1,4 +1,5 @@
 import { z } from "zod";
+import "./zod-messages.js";
 import { METRICS, PART_PARAMETERS } from "../domain/rules/metric-vocabulary.js";
 import type { Rule, RuleSet } from "../domain/rules/rule-model.js";
 import { LIMITS, limitMessage } from "./limits.js";
@@ -51,32 +52,34 @@ export function toRuleSet(s: RuleSetSpec): RuleSet {
   };
 }
 
-const metricNames = new Set(METRICS.map((m) => m.name));
-const partNames = new Set(PART_PARAMETERS.map((m) => m.name));
+const metricNames = METRICS.map((m) => m.name);
+const partNames = PART_PARAMETERS.map((m) => m.name);
 
-/** More names than any record may hold: one issue for the record, not one a name. */
-function tooManyNames(rec: Record<string, unknown>, ctx: z.RefinementCtx): boolean {
-  const n = Object.keys(rec).length;
-  if (n <= LIMITS.maxMetrics) return false;
-  ctx.addIssue({ code: "custom", path: [], message: limitMessage("maxMetrics", `the record holds ${n} names`) });
-  return true;
+/**
+ * Values by vocabulary name: a strict object with every name optional, so a name outside the
+ * vocabulary (a typo would leave a rule not applicable) is zod's unknown key, refused with the
+ * nearest name, and `__proto__` and the like are refused like any other (a zod record drops them
+ * silently). More names than any record may hold are one limit issue for the record, found before
+ * any name is looked at. Its output is a record of the names given.
+ */
+function vocabularyRecord<V extends z.ZodType>(names: readonly string[], value: V) {
+  const shape = Object.fromEntries(names.map((n) => [n, value.optional()]));
+  const strict = z.strictObject(shape).transform((o) => o as Record<string, z.output<V>>);
+  return z
+    .unknown()
+    .superRefine((rec, ctx) => {
+      const n = typeof rec === "object" && rec !== null ? Object.keys(rec).length : 0;
+      if (n > LIMITS.maxMetrics) ctx.addIssue({ code: "custom", path: [], message: limitMessage("maxMetrics", `the record holds ${n} names`) });
+    })
+    .pipe(strict);
 }
 
-/** Metric values by name; a name outside the vocabulary is refused (a typo would leave a rule not applicable). */
-export const metricRecord = z.record(z.string(), z.union([z.number(), z.boolean()])).superRefine((rec, ctx) => {
-  if (tooManyNames(rec, ctx)) return;
-  for (const [k, v] of Object.entries(rec)) {
-    if (!metricNames.has(k)) ctx.addIssue({ code: "custom", path: [k], message: `unknown metric '${k}' (see docs/metrics.md)` });
-    else if (typeof v === "number" && !Number.isFinite(v)) ctx.addIssue({ code: "custom", path: [k], message: "must be a finite number" });
-  }
-});
-export const partRecord = z.record(z.string(), z.number()).superRefine((rec, ctx) => {
-  if (tooManyNames(rec, ctx)) return;
-  for (const [k, v] of Object.entries(rec)) {
-    if (!partNames.has(k)) ctx.addIssue({ code: "custom", path: [k], message: `unknown part parameter '${k}' (see docs/metrics.md)` });
-    else if (!Number.isFinite(v)) ctx.addIssue({ code: "custom", path: [k], message: "must be a finite number" });
-  }
-});
+/** Metric values by name (docs/metrics.md). */
+export const metricRecord = vocabularyRecord(
+  metricNames,
+  z.union([z.number().finite("must be a finite number"), z.boolean()], { error: "expected a number in the metric's unit (SI, docs/metrics.md) or true/false" }),
+);
+export const partRecord = vocabularyRecord(partNames, z.number({ error: "expected a number in the parameter's unit (SI, docs/metrics.md)" }).finite("must be a finite number"));
 
 export const ruleSetStamp = z.object({ id: z.string(), version: z.string(), hash: z.string().meta({ description: "sha256 of the set's canonical JSON" }) });
 

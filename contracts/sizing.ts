@@ -9,7 +9,7 @@ import { holdUpCapacitor, reverseLoop } from "./turn-off.js";
 
 /** The reverse-current event the controller's turn-off delay is sized for, with its limits. */
 export const sizingTurnOff = z
-  .object({
+  .strictObject({
     loop: reverseLoop,
     capacitor: holdUpCapacitor,
     outputV: quantity("V", "output voltage before the event (default: the nominal supply)", { gt: 0, le: 10_000 }).optional(),
@@ -31,7 +31,7 @@ const common = {
 };
 
 export const sizingSpecInput = z
-  .object({
+  .strictObject({
     ...common,
     templates: z
       .array(candidate)
@@ -43,7 +43,7 @@ export const sizingSpecInput = z
 export type SizingSpecInput = z.input<typeof sizingSpecInput>;
 
 export const sizingCatalogInput = z
-  .object({
+  .strictObject({
     ...common,
     kinds: z.array(z.enum(STAGE_KINDS)).min(1).optional().meta({ description: "only parts of these stage kinds (default: all)" }),
     thermal: thermalPath.optional().meta({ description: "the board's thermal path for every part (default: each part's own)" }),

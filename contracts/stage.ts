@@ -26,7 +26,7 @@ export const reverseLeakageCurve = z
   .meta({ description: "reverse leakage curves: fitted to IR = Iref·(T/Tref)²·exp(−(ΦB/k)·(1/T − 1/Tref))·(VR/Vref)^m (thermionic emission over the barrier ΦB)" });
 
 const diodeStage = (kind: "pn-diode" | "schottky-diode") =>
-  z.object({
+  z.strictObject({
     kind: z.literal(kind),
     name,
     costEach,
@@ -35,7 +35,7 @@ const diodeStage = (kind: "pn-diode" | "schottky-diode") =>
     reverseLeakage: z
       .union([
         z
-          .object({ currentA: quantity("A", "datasheet reverse current", { gt: 0, le: 10 }), tempC: temperatureC("junction temperature of that figure") })
+          .strictObject({ currentA: quantity("A", "datasheet reverse current", { gt: 0, le: 10 }), tempC: temperatureC("junction temperature of that figure") })
           .meta({ description: "one figure at the rated voltage, scaled in temperature by the junction's Is(T) law" }),
         reverseLeakageCurve,
       ])
@@ -48,10 +48,10 @@ const diodeStage = (kind: "pn-diode" | "schottky-diode") =>
   });
 
 export const controller = z
-  .object({
+  .strictObject({
     startV: quantity("V", "input voltage from which the controller runs and drives the gate", { ge: 0, le: 10_000 }),
     gateDrive: z
-      .array(z.object({ inputV: quantity("V", "input voltage", { ge: 0, le: 10_000 }), gateSourceV: quantity("V", "gate-source drive the charge pump delivers", { ge: 0, le: 100 }) }))
+      .array(z.strictObject({ inputV: quantity("V", "input voltage", { ge: 0, le: 10_000 }), gateSourceV: quantity("V", "gate-source drive the charge pump delivers", { ge: 0, le: 100 }) }))
       .min(1)
       .meta({ description: "gate drive against input voltage, increasing inputV; held flat outside" }),
     regulatedDropV: quantity("V", "forward drop the controller regulates to at light load (0: none)", { ge: 0, le: 1 }),
@@ -73,11 +73,11 @@ export const stageSpec = z
   .discriminatedUnion("kind", [
     diodeStage("pn-diode"),
     diodeStage("schottky-diode"),
-    z.object({ kind: z.literal("pfet-high-side"), name, costEach, mosfet, gateClampV: volts("gate-source zener clamp").optional(), thermal: thermalPath }),
-    z.object({ kind: z.literal("nfet-low-side"), name, costEach, mosfet, gateClampV: volts("gate-source zener clamp").optional(), thermal: thermalPath }),
-    z.object({ kind: z.literal("nfet-ideal-diode"), name, costEach, mosfet, controller, thermal: thermalPath }),
+    z.strictObject({ kind: z.literal("pfet-high-side"), name, costEach, mosfet, gateClampV: volts("gate-source zener clamp").optional(), thermal: thermalPath }),
+    z.strictObject({ kind: z.literal("nfet-low-side"), name, costEach, mosfet, gateClampV: volts("gate-source zener clamp").optional(), thermal: thermalPath }),
+    z.strictObject({ kind: z.literal("nfet-ideal-diode"), name, costEach, mosfet, controller, thermal: thermalPath }),
     z
-      .object({
+      .strictObject({
         kind: z.literal("integrated-switch"),
         name,
         costEach,
@@ -107,7 +107,7 @@ export type StageSpecInput = z.input<typeof stageSpec>;
 export type StageSpec = z.output<typeof stageSpec>;
 
 /** A stage named by its id in the parts catalog; the thermal path may be given for this board. */
-export const catalogPartRef = z.object({
+export const catalogPartRef = z.strictObject({
   kind: z.literal("catalog-part"),
   partId: z.string().min(1).max(200).meta({ description: "id of a part in the parts catalog" }),
   thermal: thermalPath.optional(),

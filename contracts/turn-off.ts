@@ -8,21 +8,21 @@ import { stageInput } from "./stage.js";
 
 /** The loop from the input to the stage: source and wiring resistance (without the stage) and inductance. */
 export const reverseLoop = z
-  .object({
+  .strictObject({
     resistanceOhm: quantity("ohm", "source and wiring resistance of the loop, without the stage", { ge: 0, le: 1e6 }),
     inductanceH: quantity("H", "loop inductance (wiring, connector, input filter)", { gt: 0, le: 10 }),
   })
   .meta({ description: "the input loop through which the reverse current flows" });
 
 export const holdUpCapacitor = z
-  .object({
+  .strictObject({
     capacitanceF: quantity("F", "output (hold-up) capacitance", { gt: 0, le: 1e3 }),
     esrOhm: quantity("ohm", "its equivalent series resistance", { ge: 0, le: 1e3 }),
   })
   .meta({ description: "the capacitor that holds the output" });
 
 export const turnOffTiming = z
-  .object({
+  .strictObject({
     reverseThresholdV: quantity("V", "reverse drain-source voltage at which the controller trips (magnitude)", { ge: 0, le: 10 }),
     turnOffDelayS: quantity("s", "delay from the trip to the start of the gate discharge", { ge: 0, le: 1 }),
     gateChargeC: quantity("C", "gate charge to remove at turn-off", { gt: 0, le: 1 }).optional(),
@@ -46,7 +46,7 @@ export const fallingInputFields = {
 };
 
 export const turnOffInput = z
-  .object({
+  .strictObject({
     ...fallingInputFields,
     avalancheRatingJ: quantity("J", "single-pulse avalanche energy rating of the blocking element at 25 °C starting Tj (default: the part's avalancheEnergyJ)", { gt: 0, le: 1e6 }).optional(),
     ruleSet: ruleSetRef.optional().meta({ description: "when given, the result carries this rule set's verdicts (docs/metrics.md lists what this analysis provides)" }),

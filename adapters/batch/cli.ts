@@ -15,11 +15,13 @@ import { reportFailed, reportNamer, writeBridgeAcReport, writeReviewReport } fro
 import { CHUNKS_PER_THREAD, type RowHook, type Shard, streamBatch } from "./stream-batch.js";
 
 const USAGE = `usage:
+  backstop --help | backstop batch --help | backstop merge --help
   backstop batch --in requests.jsonl|.csv --out results.jsonl|.csv [--procedure NAME] [--shard i/N | --shard N]
                  [--workers N] [--catalog parts.json] [--in-format jsonl|csv] [--out-format jsonl|csv] [--report-dir folder]
   backstop merge --out results.jsonl|.csv shard-0 shard-1 ...
   --shard N takes the index from JOB_COMPLETION_INDEX; "{shard}" in --out is replaced by the index.
   --report-dir writes each answered review and bridgeAc line as <id>.html, <id>.md and <id>-charts/*.svg.
+  a CSV input needs a "procedure" column or --procedure; blank lines are skipped (counted apart, never a row).
   exit 0: every row answered; 1: some rows rejected; 2: could not run.`;
 
 class UsageError extends Error {}
@@ -77,7 +79,7 @@ function progress(everyMs: number) {
   let last = 0;
   const text = (c: BatchCounts) => {
     const s = (performance.now() - t0) / 1000;
-    return `backstop batch: ${c.lines} rows, ${c.failed} rejected, ${Math.round(c.lines / Math.max(s, 1e-3))} rows/s`;
+    return `backstop batch: ${c.lines} rows, ${c.failed} rejected${c.blank > 0 ? `, ${c.blank} blank lines skipped` : ""}, ${Math.round(c.lines / Math.max(s, 1e-3))} rows/s`;
   };
   return {
     tick(c: BatchCounts) {
@@ -105,8 +107,10 @@ async function batch(rest: string[]): Promise<number> {
       "in-format": { type: "string" },
       "out-format": { type: "string" },
       "report-dir": { type: "string" },
+      help: { type: "boolean", short: "h" },
     },
   });
+  if (values.help === true) return usage();
   if (values.in === undefined || values.out === undefined) throw new UsageError("--in and --out are required");
   if (values.procedure !== undefined && procedureEntry(values.procedure) === undefined) throw new UsageError(`--procedure: no procedure "${values.procedure}"`);
   const shard = parseShard(values.shard, process.env);
@@ -134,7 +138,7 @@ async function batch(rest: string[]): Promise<number> {
   });
   const pool: ComputePool | undefined = workers > 0 ? createComputePool({ threads: workers, catalogPath, rulesDir, tasksPerThread: CHUNKS_PER_THREAD }) : undefined;
   const p = progress(Number(process.env.BACKSTOP_PROGRESS_MS ?? 5000));
-  let counts: BatchCounts = { lines: 0, ok: 0, failed: 0 };
+  let counts: BatchCounts = { lines: 0, ok: 0, failed: 0, blank: 0 };
   const reportDir = values["report-dir"];
   const nameOf = reportNamer();
   let reports = 0;
@@ -164,7 +168,8 @@ async function batch(rest: string[]): Promise<number> {
 }
 
 async function merge(rest: string[]): Promise<number> {
-  const { values, positionals } = parseArgs({ args: rest, allowPositionals: true, options: { out: { type: "string" }, format: { type: "string" } } });
+  const { values, positionals } = parseArgs({ args: rest, allowPositionals: true, options: { out: { type: "string" }, format: { type: "string" }, help: { type: "boolean", short: "h" } } });
+  if (values.help === true) return usage();
   if (values.out === undefined || positionals.length === 0) throw new UsageError("merge needs --out and at least one shard file");
   const format = formatOf(values.out, values.format);
   let n = 0;
@@ -175,13 +180,20 @@ async function merge(rest: string[]): Promise<number> {
   return 0;
 }
 
+/** The usage on stdout, asked for (`--help`): exit 0. */
+function usage(): number {
+  process.stdout.write(`${USAGE}\n`);
+  return 0;
+}
+
 /** `backstop batch` / `backstop merge`: exit 0 all rows ok, 1 some rows failed, 2 could not run. */
 export async function main(argv: string[]): Promise<number> {
   const [verb, ...rest] = argv;
   try {
     if (verb === "batch") return await batch(rest);
     if (verb === "merge") return await merge(rest);
-    throw new UsageError(verb === undefined ? "no command" : `unknown command "${verb}"`);
+    if (verb === "--help" || verb === "-h" || verb === "help") return usage();
+    throw new UsageError(verb === undefined ? "no command (backstop batch or backstop merge; backstop --help for usage)" : `unknown command "${verb}" (backstop batch or backstop merge)`);
   } catch (e) {
     if (e instanceof UsageError || (e as { code?: string }).code?.startsWith("ERR_PARSE_ARGS")) process.stderr.write(`${(e as Error).message}\n${USAGE}\n`);
     else process.stderr.write(`backstop could not run: ${(e as Error).message}\n`);

@@ -2,6 +2,7 @@ import { stringify } from "csv-stringify/sync";
 import { z } from "zod";
 import { procedureEntries } from "../../api/procedure-registry.js";
 import type { ErrorBody } from "../../contracts/outcome.js";
+import { PROTOTYPE_KEYS, unknownFieldMessage } from "../../contracts/zod-messages.js";
 import type { BatchOutputLine } from "./run-batch.js";
 
 export type Format = "jsonl" | "csv";
@@ -26,9 +27,28 @@ export function cellValue(cell: string): { present: false } | { present: true; v
 
 const INDEX = /^(0|[1-9]\d{0,5})$/;
 
-/** Set `value` at a dotted column name (`stage.partId`, `rdsOn.0.gateSourceV`: a numeric segment is an array index). */
+/** A column name's path as an issue path (numeric segments as array indexes). */
+const columnPath = (dotted: string): (string | number)[] => dotted.split(".").map((p) => (INDEX.test(p) ? Number(p) : p));
+
+/** A column that cannot be set, with the path of the segment at fault. */
+class ColumnError extends Error {
+  constructor(
+    message: string,
+    readonly path: (string | number)[],
+  ) {
+    super(message);
+  }
+}
+
+/**
+ * Set `value` at a dotted column name (`stage.partId`, `rdsOn.0.gateSourceV`: a numeric segment is
+ * an array index). A segment `__proto__`, `constructor` or `prototype` is refused before anything is
+ * set: assigned, it would reach an object's prototype (for every object of the process).
+ */
 export function setPath(target: Record<string, unknown>, dotted: string, value: unknown): void {
   const parts = dotted.split(".");
+  const hostile = parts.findIndex((p) => PROTOTYPE_KEYS.has(p));
+  if (hostile >= 0) throw new ColumnError(unknownFieldMessage(parts[hostile] as string, []), columnPath(parts.slice(0, hostile + 1).join(".")));
   let node: Record<string, unknown> | unknown[] = target;
   parts.forEach((part, i) => {
     const last = i === parts.length - 1;
@@ -71,11 +91,22 @@ export function csvRowToLine(header: readonly string[], cells: readonly string[]
       const v = cellValue(cell);
       if (v.present) setPath(input, name, v.value);
     } catch (e) {
-      return { id, error: { code: "malformed-line", message: `column "${name}": ${(e as Error).message}`, issues: [{ path: name.split(".").map((p) => (INDEX.test(p) ? Number(p) : p)), message: (e as Error).message }] } };
+      return { id, error: { code: "malformed-line", message: `column "${name}": ${(e as Error).message}`, issues: [{ path: e instanceof ColumnError ? e.path : columnPath(name), message: (e as Error).message }] } };
     }
   }
   if (proc === undefined) return { id, error: { code: "malformed-line", message: "no procedure: add a procedure column or pass --procedure", issues: [] } };
   return { raw: JSON.stringify({ ...(id === null ? {} : { id }), procedure: proc, input }) };
+}
+
+/**
+ * Why a CSV header cannot be read as batch lines, or undefined: with no procedure column and no
+ * --procedure no row can name its procedure, so the file is refused before any row.
+ */
+export function csvHeaderProblem(header: readonly string[], procedure: string | undefined): string | undefined {
+  if (procedure === undefined && !header.includes("procedure")) {
+    return `the CSV header has no "procedure" column and no --procedure was given: add a procedure column (e.g. procedure,id,supplyV,...) or pass --procedure operatingPoint`;
+  }
+  return undefined;
 }
 
 type Json = { [k: string]: unknown };

@@ -1,6 +1,6 @@
 import type { Readable } from "node:stream";
 import type { Invoke } from "../../api/procedure-registry.js";
-import { MAX_LINE_CHARS, type processLine, processLineNow } from "./run-batch.js";
+import { isBlankLine, MAX_LINE_CHARS, type processLine, processLineNow } from "./run-batch.js";
 
 /** A shard of the input: record n (1-based) belongs to shard (n - 1) mod count. */
 export interface Shard {
@@ -35,6 +35,8 @@ export interface ChunkAnswer {
   readonly lines: number;
   readonly ok: number;
   readonly failed: number;
+  /** blank lines skipped (no record) */
+  readonly blank: number;
 }
 
 const LF = 0x0a;
@@ -231,9 +233,14 @@ export async function answerJsonlChunk(text: string, firstLine: number, line: (o
   const out = new Utf8Sink(text.length * 6);
   let ok = 0;
   let lines = 0;
+  let blank = 0;
   for (let i = 0; i < raws.length; i += 1) {
     const lineNo = firstLine + i;
     if (!inShard(lineNo, shard)) continue;
+    if (isBlankLine(raws[i] as string)) {
+      blank += 1;
+      continue;
+    }
     const now = processLineNow(raws[i] as string, lineNo, invoker);
     const o = now instanceof Promise ? await now : now; // no turn of the microtask queue for a synchronous answer
     if (o.ok) ok += 1;
@@ -241,5 +248,5 @@ export async function answerJsonlChunk(text: string, firstLine: number, line: (o
     out.write(line(o));
     if (yieldEvery > 0 && lines % yieldEvery === 0) await new Promise<void>((r) => setImmediate(r));
   }
-  return { bytes: out.bytes(), lines, ok, failed: lines - ok };
+  return { bytes: out.bytes(), lines, ok, failed: lines - ok, blank };
 }

@@ -7,7 +7,7 @@ import { type Invoke, isThenable, procedureInvoker } from "../../api/procedure-r
 import type { ErrorBody } from "../../contracts/outcome.js";
 
 /** One input line: `{ "id"?: string|number, "procedure": "<router path>", "input": {...} }`. */
-export const batchLine = z.object({
+export const batchLine = z.strictObject({
   id: z.union([z.string().max(200), z.number()]).optional(),
   procedure: z.string().min(1).max(200),
   input: z.unknown(),
@@ -18,10 +18,16 @@ export type BatchOutputLine =
   | { readonly id: string | number | null; readonly line: number; readonly ok: false; readonly error: ErrorBody };
 
 export interface BatchCounts {
+  /** rows answered (ok + failed) */
   lines: number;
   ok: number;
   failed: number;
+  /** blank input lines: skipped, never a row */
+  blank: number;
 }
+
+/** A line of nothing but whitespace: not a row (skipped and counted apart). */
+export const isBlankLine = (raw: string): boolean => raw.trim() === "";
 
 /** The longest input line answered, in UTF-16 units; a longer one is rejected (overlongLine). */
 export const MAX_LINE_CHARS = 1_000_000;
@@ -86,7 +92,7 @@ export function processLineNow(raw: string, lineNo: number, invoker: (path: stri
  * What `batchLine` accepts, checked by hand for the common, valid line (zod's object parse costs
  * more than the rest of the line's bookkeeping): an object (not an array), `procedure` a string of
  * 1–200 characters, `input` present (any value), `id` absent, a string of at most 200 characters or a finite number (`1e400`
- * parses to Infinity, which zod refuses). Anything else goes to `batchLine.safeParse`, so a bad line's error is zod's.
+ * parses to Infinity, which zod refuses), and no other key (`batchLine` is strict). Anything else goes to `batchLine.safeParse`, so a bad line's error is zod's.
  * test/adapters/batch.test.ts checks the two agree.
  */
 export function isBatchLine(v: unknown): v is { id?: string | number; procedure: string; input: unknown } {
@@ -94,6 +100,7 @@ export function isBatchLine(v: unknown): v is { id?: string | number; procedure:
   const { id, procedure, input } = v as { id?: unknown; procedure?: unknown; input?: unknown };
   if (input === undefined) return false; // zod 4: a z.unknown() key must be there
   if (typeof procedure !== "string" || procedure.length < 1 || procedure.length > 200) return false;
+  if (Object.keys(v).length !== (id === undefined ? 2 : 3)) return false;
   return id === undefined || (typeof id === "number" && Number.isFinite(id)) || (typeof id === "string" && id.length <= 200);
 }
 
@@ -104,11 +111,17 @@ function idOf(v: unknown): string | number | null {
 /** Stream JSON Lines in → one result or error line out per input line, in order, same id. */
 export async function runBatch(input: Readable, output: Writable, ctx: Context): Promise<BatchCounts> {
   const invoker = procedureInvoker(ctx);
-  const counts: BatchCounts = { lines: 0, ok: 0, failed: 0 };
+  const counts: BatchCounts = { lines: 0, ok: 0, failed: 0, blank: 0 };
   const rl = createInterface({ input, crlfDelay: Number.POSITIVE_INFINITY });
+  let lineNo = 0;
   for await (const raw of rl) {
+    lineNo += 1;
+    if (isBlankLine(raw)) {
+      counts.blank += 1;
+      continue;
+    }
     counts.lines += 1;
-    const out = await processLine(raw, counts.lines, invoker);
+    const out = await processLine(raw, lineNo, invoker);
     if (out.ok) counts.ok += 1;
     else counts.failed += 1;
     if (!output.write(`${JSON.stringify(out)}\n`)) await new Promise<void>((r) => output.once("drain", () => r()));

@@ -5,9 +5,9 @@ import type { ErrorBody } from "../../contracts/outcome.js";
 import { procedureInvoker } from "../../api/procedure-registry.js";
 import type { ComputePool, FormattedLine, LinesFormat } from "../compute/pool.js";
 import { utf8Join } from "../utf8-join.js";
-import { csvRowToLine, type Format, outputFormatter } from "./formats.js";
+import { csvHeaderProblem, csvRowToLine, type Format, outputFormatter } from "./formats.js";
 import { answerJsonlChunk, type ChunkAnswer, inShard, type JsonlChunk, jsonlChunks, linesOf, type Shard } from "./jsonl-chunk.js";
-import { type BatchCounts, type BatchOutputLine, overlongLine, processLine } from "./run-batch.js";
+import { type BatchCounts, type BatchOutputLine, isBlankLine, overlongLine, processLine } from "./run-batch.js";
 
 export type { Shard } from "./jsonl-chunk.js";
 
@@ -75,30 +75,39 @@ type Rec = { lineNo: number; raw: string } | { lineNo: number; out: BatchOutputL
  * answered as too long without being held (readline held it whole, so a file without line breaks
  * could stop the run).
  */
-async function* jsonlRecords(input: Readable): AsyncGenerator<Rec> {
+async function* jsonlRecords(input: Readable, counts: BatchCounts): AsyncGenerator<Rec> {
   for await (const c of jsonlChunks(input, RECORD_CHUNK_BYTES)) {
     if (c.overlongBytes !== undefined) {
       yield { lineNo: c.firstLine, out: overlongLine(c.firstLine) };
       continue;
     }
     const raws = linesOf(Buffer.from(c.bytes.buffer, c.bytes.byteOffset, c.bytes.byteLength).toString("utf8"));
-    for (let i = 0; i < raws.length; i += 1) yield { lineNo: c.firstLine + i, raw: raws[i] as string };
+    for (let i = 0; i < raws.length; i += 1) {
+      if (isBlankLine(raws[i] as string)) counts.blank += 1;
+      else yield { lineNo: c.firstLine + i, raw: raws[i] as string };
+    }
   }
 }
 
 /** Input bytes decoded at once by the per-record path. */
 const RECORD_CHUNK_BYTES = 64 * 1024;
 
-async function* csvRecords(input: Readable, procedure: string | undefined): AsyncGenerator<Rec> {
+async function* csvRecords(input: Readable, procedure: string | undefined, counts: BatchCounts): AsyncGenerator<Rec> {
   const parser = input.pipe(parse({ bom: true, relax_column_count: true, skip_empty_lines: false }));
   let header: string[] | undefined;
   let n = 0;
   for await (const cells of parser as AsyncIterable<string[]>) {
     if (header === undefined) {
       header = cells.map((h) => h.trim());
+      const problem = csvHeaderProblem(header, procedure);
+      if (problem !== undefined) throw new Error(problem);
       continue;
     }
     n += 1;
+    if (cells.every((c) => c.trim() === "")) {
+      counts.blank += 1;
+      continue;
+    }
     const r = csvRowToLine(header, cells, procedure);
     yield "raw" in r ? { lineNo: n, raw: r.raw } : { lineNo: n, out: { id: r.id, line: n, ok: false, error: r.error } };
   }
@@ -148,7 +157,7 @@ export function utf8Of(outs: readonly FormattedLine[]): Buffer {
  */
 export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
   if (o.inFormat === "jsonl" && o.onRow === undefined && !o.reviewCurves) return streamJsonlChunks(o);
-  const counts: BatchCounts = { lines: 0, ok: 0, failed: 0 };
+  const counts: BatchCounts = { lines: 0, ok: 0, failed: 0, blank: 0 };
   const fmt = outputFormatter(o.outFormat, o.procedure);
   if (fmt.header) await o.write(fmt.header);
   const invoker = o.pool ? undefined : procedureInvoker(o.ctx);
@@ -193,7 +202,7 @@ export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
     o.onProgress?.(counts);
   };
 
-  const source = o.inFormat === "csv" ? csvRecords(o.input, o.procedure) : jsonlRecords(o.input);
+  const source = o.inFormat === "csv" ? csvRecords(o.input, o.procedure, counts) : jsonlRecords(o.input, counts);
   let chunk: Rec[] = [];
   for await (const rec of source) {
     if (o.shard && (rec.lineNo - 1) % o.shard.count !== o.shard.index) continue;
@@ -223,9 +232,14 @@ async function chunkInPool(pool: ComputePool, c: JsonlChunk, o: StreamBatchOptio
     const parts: Uint8Array[] = [];
     let ok = 0;
     let lines = 0;
+    let blank = 0;
     for (const [i, raw] of raws.entries()) {
       const lineNo = c.firstLine + i;
       if (!inShard(lineNo, o.shard)) continue;
+      if (isBlankLine(raw)) {
+        blank += 1;
+        continue;
+      }
       try {
         const one = await pool.jsonlChunk({ ...task, bytes: new Uint8Array(Buffer.from(raw, "utf8")), firstLine: lineNo, shard: undefined });
         parts.push(one.bytes);
@@ -237,7 +251,7 @@ async function chunkInPool(pool: ComputePool, c: JsonlChunk, o: StreamBatchOptio
         lines += 1;
       }
     }
-    return { bytes: Buffer.concat(parts), lines, ok, failed: lines - ok };
+    return { bytes: Buffer.concat(parts), lines, ok, failed: lines - ok, blank };
   }
 }
 
@@ -269,7 +283,7 @@ interface Slot {
  * `CHUNKS_PER_THREAD × threads + CHUNKS_AHEAD` chunks are read and not yet written.
  */
 async function streamJsonlChunks(o: StreamBatchOptions): Promise<BatchCounts> {
-  const counts: BatchCounts = { lines: 0, ok: 0, failed: 0 };
+  const counts: BatchCounts = { lines: 0, ok: 0, failed: 0, blank: 0 };
   const fmt = outputFormatter(o.outFormat, o.procedure);
   if (fmt.header) await o.write(fmt.header);
   const pool = o.pool;
@@ -316,7 +330,7 @@ async function streamJsonlChunks(o: StreamBatchOptions): Promise<BatchCounts> {
         if (c.overlongBytes !== undefined) {
           // a line too long to hold: its record is written here (its bytes were not kept)
           const inRun = inShard(c.firstLine, o.shard);
-          finished(s, { bytes: inRun ? Buffer.from(fmt.line(overlongLine(c.firstLine)), "utf8") : new Uint8Array(0), lines: inRun ? 1 : 0, ok: 0, failed: inRun ? 1 : 0 });
+          finished(s, { bytes: inRun ? Buffer.from(fmt.line(overlongLine(c.firstLine)), "utf8") : new Uint8Array(0), lines: inRun ? 1 : 0, ok: 0, failed: inRun ? 1 : 0, blank: 0 });
         } else untaken.push(s);
         pumpPool();
         pumpRead();
@@ -350,6 +364,7 @@ async function streamJsonlChunks(o: StreamBatchOptions): Promise<BatchCounts> {
         counts.lines += a.lines;
         counts.ok += a.ok;
         counts.failed += a.failed;
+        counts.blank += a.blank;
         pumpRead();
         if (a.bytes.length > 0) await o.write(a.bytes);
         o.onProgress?.(counts);

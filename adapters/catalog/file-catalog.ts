@@ -1,6 +1,7 @@
 import { readFileSync } from "node:fs";
 import type { CatalogPart, PartsCatalog } from "../../api/context.js";
 import { catalogFile } from "../../contracts/catalog.js";
+import { issuesOf, pathText } from "../../contracts/zod-messages.js";
 
 export class CatalogLoadError extends Error {
   override name = "CatalogLoadError";
@@ -16,8 +17,8 @@ export function loadCatalogFile(path: string): PartsCatalog {
   }
   const parsed = catalogFile.safeParse(raw);
   if (!parsed.success) {
-    const first = parsed.error.issues[0];
-    throw new CatalogLoadError(`parts catalog ${path} is invalid at ${first?.path.join(".") ?? "?"}: ${first?.message ?? ""}`);
+    const first = issuesOf(parsed.error.issues)[0];
+    throw new CatalogLoadError(`parts catalog ${path} is invalid at ${first ? pathText(first.path) : "?"}: ${first?.message ?? ""}`);
   }
   return catalogOf(parsed.data.parts);
 }

@@ -124,6 +124,8 @@ export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics =
         return limited ? { headers, status: 422 } : { headers };
       },
       onError: ({ error, path }) => {
+        // tRPC's own words do not say the limit; onError runs before the error is formatted
+        if (error.message === "Batch call exceeds maximum size") error.message = `a tRPC batch holds at most ${config.maxTrpcBatch} calls (BACKSTOP_MAX_TRPC_BATCH): split it, or send many cases of one procedure to /v1/<procedure>/bulk`;
         if (error.code === "INTERNAL_SERVER_ERROR") logger.error({ requestId: c.get("requestId"), path, err: error.cause ?? error }, "procedure failed");
       },
     }),

@@ -1,5 +1,6 @@
 import { createRequire } from "node:module";
 import { ruleSetSchema, toRuleSet } from "../../contracts/rule-set.js";
+import { issuesOf, pathText } from "../../contracts/zod-messages.js";
 import { type CompiledRuleSet, compileRuleSet, formatRuleLoadError } from "../../domain/rules/compile-rule-set.js";
 import type { RuleSetProblem } from "../../domain/rules/rule-set-store.js";
 
@@ -18,10 +19,9 @@ export function ruleSetFromData(data: unknown, source: string): ParsedRuleSet {
   if (!shape.success) {
     return {
       ok: false,
-      problems: shape.error.issues.map((i) => {
-        const path = i.path.map((p) => (typeof p === "symbol" ? String(p) : p));
+      problems: issuesOf(shape.error.issues).map(({ path, message }) => {
         const ruleId = ruleIdAt(data, path);
-        return { source, path, message: `${ruleId === undefined ? "" : `rule ${ruleId}: `}${path.join(".") || "(set)"}: ${i.message}`, ...(ruleId === undefined ? {} : { ruleId }) };
+        return { source, path, message: `${ruleId === undefined ? "" : `rule ${ruleId}: `}${path.length === 0 ? "(set)" : pathText(path)}: ${message}`, ...(ruleId === undefined ? {} : { ruleId }) };
       }),
     };
   }

@@ -1,8 +1,9 @@
 import type { Requirement } from "../../contracts/requirement.js";
 import type { ReviewRequirement } from "../../domain/review/candidate-review.js";
 import type { ReviewTurnOff } from "../../domain/review/review-turn-off.js";
-import { findSupplyClass, type SupplyClass } from "../../domain/review/supply-classes.js";
-import { findTransient, type TransientPulse } from "../../domain/review/transient-library.js";
+import { findSupplyClass, SUPPLY_CLASSES, type SupplyClass } from "../../domain/review/supply-classes.js";
+import { findTransient, TRANSIENT_LIBRARY, type TransientPulse } from "../../domain/review/transient-library.js";
+import { unknownIdMessage } from "../../contracts/zod-messages.js";
 import { inputProblem } from "../input-problem.js";
 
 /** Defaults of the design review [common practice], each recorded in `assumptions` when used. */
@@ -24,7 +25,7 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
   let cls: SupplyClass | undefined;
   if (r.supply.class !== "custom") {
     cls = findSupplyClass(r.supply.class);
-    if (cls === undefined) throw inputProblem("invalid-input", ["requirement", "supply", "class"], `no supply class "${r.supply.class}"`);
+    if (cls === undefined) throw inputProblem("invalid-input", ["requirement", "supply", "class"], unknownIdMessage("supply class", r.supply.class, [...SUPPLY_CLASSES.map((c) => c.id), "custom"]));
   }
   const minV = r.supply.minV ?? cls?.minV ?? 0;
   const nominalV = r.supply.nominalV ?? cls?.nominalV ?? 0;
@@ -43,10 +44,14 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
 
   const pulses: TransientPulse[] = [];
   const wanted = r.transients ?? cls?.transients ?? [];
+  if (r.transients === undefined) assumptions.push(`requirement.transients: ${cls ? `the supply class's set (${wanted.join(", ") || "none"})` : "none (a custom supply has no default set)"} (default)`);
+  if (r.sourceResistanceOhm === undefined) assumptions.push("requirement.sourceResistanceOhm: 0 ohm (default: no source or wiring resistance)");
+  if (r.loadStandbyA === undefined) assumptions.push("requirement.loadStandbyA: 0 A (default)");
+  if (r.outputHeldV === undefined) assumptions.push(`requirement.outputHeldV: the nominal supply ${nominalV} V (default)`);
   wanted.forEach((t, i) => {
     if (typeof t === "string") {
       const p = findTransient(t);
-      if (p === undefined) throw inputProblem("invalid-input", ["requirement", "transients", i], `no built-in transient "${t}"`);
+      if (p === undefined) throw inputProblem("invalid-input", ["requirement", "transients", i], unknownIdMessage("built-in transient", t, TRANSIENT_LIBRARY.map((x) => x.id)));
       pulses.push(p);
       sources.push(`${p.id}: ${p.source}`);
     } else {
@@ -73,6 +78,9 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
   const tjMarginK = r.tjMarginK ?? REVIEW_DEFAULTS.tjMarginK;
   if (r.tjMarginK === undefined) assumptions.push("thermal sizing holds Tj(max) − 25 K (common practice)");
   const loadMinV = r.loadMinV ?? (r.load.kind === "constant-power" ? r.load.minVoltageV : undefined);
+  if (r.loadMinV === undefined) {
+    assumptions.push(loadMinV === undefined ? "requirement.loadMinV: not given and the load has no minimum of its own: no rule reads the load's minimum voltage" : `requirement.loadMinV: the constant-power load's minVoltageV ${loadMinV} V (default)`);
+  }
 
   return {
     supplyClass: cls?.id ?? "custom",
@@ -113,6 +121,7 @@ function reviewTurnOffOf(t: NonNullable<Requirement["turnOff"]>, nominalV: numbe
   if (t.inputAfterV === undefined) assumptions.push("turnOff.inputAfterV: 0 V (the input shorted)");
   if (t.outputV === undefined) assumptions.push(`turnOff.outputV: the nominal supply ${nominalV} V before the event`);
   if (t.tjC === undefined) assumptions.push("turnOff.tjC: each candidate's worst-case junction temperature over the corners (the highest ambient where no corner solved)");
+  if (t.reverseRecoveryChargeC === undefined) assumptions.push("turnOff.reverseRecoveryChargeC: 0 C for diode candidates (default: an ideal diode without stored charge)");
   if (t.clampV === undefined) assumptions.push("turnOff.clampV: the blocking element's rated voltage (a lower bound of its breakdown: the energy estimate is conservative)");
   const outputV = t.outputV ?? nominalV;
   const inputAfterV = t.inputAfterV ?? 0;

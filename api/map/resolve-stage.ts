@@ -1,3 +1,4 @@
+import { nearestName } from "../../contracts/zod-messages.js";
 import type { StageInput, StageSpec } from "../../contracts/stage.js";
 import type { ThermalPath } from "../../domain/physics/thermal-path.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
@@ -27,7 +28,10 @@ export function resolveStage(
 ): ResolvedStage {
   if (input.kind === "catalog-part") {
     const part = catalog.find(input.partId);
-    if (part === undefined) throw inputProblem("unknown-part", [...path, "partId"], `no part "${input.partId}" in the parts catalog`);
+    if (part === undefined) {
+      const near = nearestName(input.partId, catalog.list().map((p) => p.id));
+      throw inputProblem("unknown-part", [...path, "partId"], `no part "${input.partId}" in the parts catalog${near === undefined ? "" : `; did you mean "${near}"?`}`);
+    }
     if (thermalOverride === undefined && input.thermal === undefined) {
       // a catalog part with its own thermal path maps to the same model every time (the diode fit
       // included): map it once per path and replay the defaults it recorded

@@ -31,6 +31,7 @@ export const batteryCharge = publicProcedure.input(batteryChargeInput).query(({ 
     sourceMinSoc: input.stop?.sourceMinSoc ?? 0,
     maxTimeS: input.stop?.maxTimeS ?? DEFAULT_MAX_TIME_S,
   };
+  if (input.stop?.targetSoc === undefined) assumptions.push("stop.targetSoc: 1 (default: charge to full)");
   if (input.stop?.minCurrentA === undefined) assumptions.push(`stop.minCurrentA: ${stop.minCurrentA} A (1e-3 of the target's capacity per hour)`);
   if (input.stop?.maxTimeS === undefined) assumptions.push("stop.maxTimeS: 7 days");
   const rtol = input.relativeTolerance ?? 1e-7;

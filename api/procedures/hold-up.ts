@@ -21,6 +21,9 @@ export const holdUp = publicProcedure.input(holdUpInput).query(({ input, ctx }):
     if (inp.kind === "open") modelInput = { kind: "open" };
     else {
       const controller = controllerTiming(stage.spec, stage.model, inp.turnOff, ["input", "turnOff"], assumptions);
+      if (inp.reverseRecoveryChargeC === undefined && (stage.model.kind === "pn-diode" || stage.model.kind === "schottky-diode")) {
+        assumptions.push("input.reverseRecoveryChargeC: 0 C (default: an ideal diode without stored charge)");
+      }
       modelInput = {
         kind: "falls",
         inputAfterV: inp.inputAfterV,

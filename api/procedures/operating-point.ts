@@ -19,6 +19,7 @@ export const operatingPoint = publicProcedure.input(operatingPointInput).query((
   const stage = resolveStage(input.stage, ctx.catalog, ["stage"], assumptions, input.thermal);
   const rthKPerW = totalRthKPerW(stage.model.thermal);
   const sourceResistanceOhm = input.sourceResistanceOhm ?? 0;
+  if (input.sourceResistanceOhm === undefined) assumptions.push("sourceResistanceOhm: 0 ohm (default: no source or wiring resistance)");
   const outcome = solveOperatingPoint({ stage: stage.model, supplyV: input.supplyV, sourceResistanceOhm, load: input.load, ambientC: input.ambientC, rthKPerW });
   const rules = verdicts(input, stage.model, outcome, ctx);
   // Fields written one by one, no spread (V8 11 takes a slow clone path for a literal that spreads

@@ -68,6 +68,7 @@ export const review = publicProcedure.input(reviewInput).query(({ input, ctx }):
     `${e.reason}; worst-case loss ${e.worstLossW === undefined ? "undefined (a corner has no operating point)" : formatQuantity(e.worstLossW, "W")}${e.cost === undefined ? "" : `; cost ${e.cost}`}`;
 
   const mc = input.monteCarlo;
+  if (mc !== undefined && mc.candidate === undefined) assumptions.push("monteCarlo.candidate: 0 (the first candidate, default)");
   const mcTarget = mc ? evaluated[mc.candidate ?? 0] : undefined;
   return {
     modelVersion: MODEL_VERSION,

@@ -4,7 +4,7 @@ import { ARITHMETIC, COMPARISONS, EXPRESSION_LIMITS, FORBIDDEN_NAMES, FUNCTIONS,
 export type NumFn = (v: ArrayLike<number>) => number;
 export type BoolFn = (v: ArrayLike<number>) => boolean;
 
-export type ExpressionErrorCode = "too-long" | "too-deep" | "too-many-nodes" | "syntax" | "forbidden" | "unknown-name" | "type";
+export type ExpressionErrorCode = "too-long" | "too-deep" | "too-many-nodes" | "syntax" | "forbidden" | "unknown-name" | "type" | "dimension";
 /** Why an expression was refused; `column` is 1-based in the expression text. */
 export interface ExpressionError {
   readonly code: ExpressionErrorCode;
@@ -45,7 +45,7 @@ function refuse(code: ExpressionErrorCode, message: string, column: number): nev
 }
 
 /** 1-based column of the first occurrence of `needle` as a whole word (1 when not found). */
-function locate(text: string, needle: string): number {
+export function locate(text: string, needle: string): number {
   if (needle === "") return 1;
   const esc = needle.replace(/[.*+?^${}()|[\]\\]/g, "\\$&").replace(/\\\./g, "\\s*\\.\\s*");
   const m = new RegExp(`(?<![A-Za-z0-9_$])${esc}(?![A-Za-z0-9_$])`).exec(text);

@@ -39,14 +39,15 @@ export const FUNCTIONS: ReadonlyMap<string, { readonly minArgs: number; readonly
 
 /**
  * Unit symbols, read as the SI scale of the unit so that `500 mV` is 0.5 (volts) and compares with
- * metrics held in SI. Temperatures: `K` is a temperature difference (margins below a °C limit);
- * there is no affine °C unit, metrics in °C are plain numbers.
+ * metrics held in SI. Temperatures: metrics in °C are plain numbers in °C, so `150 degC` is 150;
+ * `K` is a temperature difference (margins below a °C limit: `part.tjMaxC - 25 K`). The dimension
+ * check (rule-dimensions.ts) keeps the two apart.
  */
 export const UNIT_SCALES: ReadonlyMap<string, number> = new Map([
   ["V", 1], ["mV", 1e-3], ["kV", 1e3], ["uV", 1e-6],
   ["A", 1], ["mA", 1e-3], ["uA", 1e-6], ["nA", 1e-9],
   ["W", 1], ["mW", 1e-3], ["kW", 1e3],
-  ["K", 1],
+  ["K", 1], ["degC", 1],
   ["s", 1], ["ms", 1e-3], ["us", 1e-6], ["ns", 1e-9],
   ["ohm", 1], ["mohm", 1e-3], ["kohm", 1e3],
   ["F", 1], ["mF", 1e-3], ["uF", 1e-6], ["nF", 1e-9],

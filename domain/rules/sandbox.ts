@@ -2,6 +2,7 @@ import type { MathNode } from "mathjs";
 import { parseExpression } from "./locked-mathjs.js";
 import { type BoolFn, build, type Ctx, type ExpressionError, type ExpressionErrorCode, type Loose, type NumFn } from "./sandbox-build.js";
 import { COMPARISONS, EXPRESSION_LIMITS } from "./sandbox-whitelist.js";
+import { checkDimensions } from "./rule-dimensions.js";
 
 export { NON_FINITE } from "./sandbox-build.js";
 export type { BoolFn, ExpressionError, ExpressionErrorCode, NumFn } from "./sandbox-build.js";
@@ -83,6 +84,8 @@ function compileUncached(text: string): CompileOutcome {
   try {
     const top = build(root as unknown as Loose, ctx, 0);
     if (top.type !== "boolean") return fail("type", "a rule expression must be a condition (a comparison or a logical combination), not a number", 1);
+    const units = checkDimensions(root as unknown as Loose, text);
+    if (units !== undefined) return { ok: false, error: units };
     return { ok: true, compiled: { text, names: ctx.names, test: top.f, comparison: topComparison(root as unknown as Loose, ctx) } };
   } catch (e) {
     if (typeof e === "object" && e !== null && "refusal" in e) return { ok: false, error: (e as { refusal: ExpressionError }).refusal };

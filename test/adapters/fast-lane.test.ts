@@ -97,6 +97,19 @@ const op = JSON.stringify(JSON.parse(readFileSync(join(projectRoot(), "examples"
 const examples = readdirSync(join(projectRoot(), "examples", "requests")).map((f) => JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", f), "utf8")) as { procedure: string; input: unknown });
 const JSONH = { "content-type": "application/json" };
 
+/** Requests of the lane's shapes whose input holds an unknown key: refused (400) on the lane as in the app. */
+function unknownKeyCases(): Sent[] {
+  const misspelt = op.replace('"sourceResistanceOhm"', '"sourceResistanceOhms"');
+  const proto = `${op.slice(0, -1)},"__proto__":{"polluted":"yes"}}`;
+  return [
+    { method: "POST", path: "/v1/operatingPoint", headers: JSONH, body: misspelt },
+    { method: "POST", path: "/v1/operatingPoint", headers: JSONH, body: proto },
+    { method: "POST", path: "/v1/rules.list", headers: JSONH, body: '{"verbose":true}' },
+    { method: "POST", path: "/trpc/operatingPoint", headers: JSONH, body: misspelt },
+    { method: "GET", path: `/trpc/operatingPoint?input=${encodeURIComponent(proto)}` },
+  ];
+}
+
 /** The requests both servers are sent: every shape the lane takes, and every near miss it must hand on. */
 function cases(): Sent[] {
   const bad = JSON.stringify({ ...(JSON.parse(op) as object), supplyV: "12 A" });
@@ -141,6 +154,7 @@ function cases(): Sent[] {
     { method: "GET", path: `/trpc/operatingPoint?input=${encodeURIComponent(bad)}` },
     { method: "POST", path: "/trpc/noSuchProcedure", headers: JSONH, body: op },
     { method: "GET", path: "/livez" },
+    ...unknownKeyCases(),
   );
   return list;
 }
@@ -191,6 +205,16 @@ describe("the request lane answers as the app does", () => {
       expect(comparable(a), `${c.method} ${c.path.slice(0, 60)}`).toEqual(comparable(b));
       expect(a.headers.connection, "a kept-alive connection").toBe("keep-alive");
     }
+  });
+
+  it("refuses an unknown key on the lane: 400 naming the key", async () => {
+    for (const c of unknownKeyCases()) {
+      const [a, b] = [await send(lane.base, c), await send(plain.base, c)];
+      expect(comparable(a)).toEqual(comparable(b));
+      expect(a.status, `${c.method} ${c.path.slice(0, 40)}`).toBe(400);
+      expect(a.body).toMatch(/unknown field `(sourceResistanceOhms|__proto__|verbose)`/);
+    }
+    expect(({} as Record<string, unknown>).polluted).toBeUndefined();
   });
 
   it("counts the same calls and logs the same request lines", async () => {

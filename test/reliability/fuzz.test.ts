@@ -1,8 +1,9 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { procedureEntries } from "../../api/procedure-registry.js";
+import { z } from "zod";
+import { procedureEntries, procedureEntry } from "../../api/procedure-registry.js";
 import { testApp } from "../helpers/app.js";
-import { exampleInputs, mutatedBody, mutationArb } from "./request-fuzz.js";
+import { exampleInputs, hasUnknownKey, mutatedBody, mutationArb, schemaKeys } from "./request-fuzz.js";
 
 /**
  * Fuzzing every procedure over /v1 and /trpc in process (app.request): random JSON and random
@@ -33,6 +34,19 @@ const MUTATION_RUNS: Record<string, number> = {
 };
 const RANDOM_RUNS = 200;
 let cases = 0;
+let unknownKeyCases = 0;
+
+/** The property names of each procedure's input contract: a key outside them is unknown. */
+const knownKeys = new Map<string, Set<string>>();
+function keysOf(procedure: string): Set<string> {
+  let k = knownKeys.get(procedure);
+  if (k === undefined) {
+    const input = procedureEntry(procedure)?.input;
+    k = input ? schemaKeys(z.toJSONSchema(input, { io: "input", unrepresentable: "any" })) : new Set();
+    knownKeys.set(procedure, k);
+  }
+  return k;
+}
 
 interface Problem {
   readonly code?: unknown;
@@ -45,6 +59,9 @@ async function send(surface: "v1" | "trpc", procedure: string, body: string): Pr
   const text = await res.text();
   const where = `${surface}/${procedure} ${res.status}: ${text.slice(0, 300)} ← ${body.slice(0, 200)}`;
   if (res.status >= 500) throw new Error(`5xx: ${where}`);
+  const unknownKey = hasUnknownKey(body, keysOf(procedure));
+  if (unknownKey) unknownKeyCases += 1;
+  if (res.status < 400 && unknownKey) throw new Error(`a ${res.status} for an input with an unknown key: ${where}`);
   if (res.status < 400) return;
   if (res.status >= 500 || res.status < 400) throw new Error(`unexpected status: ${where}`);
   const json = JSON.parse(text) as Problem & { error?: { data?: { backstop?: Problem } } };
@@ -89,6 +106,7 @@ describe("fuzzing /v1 and /trpc: zero 5xx, every rejection a 4xx naming a path",
 
   it("ran at least 10,000 cases and logged no internal error", () => {
     expect(cases).toBeGreaterThanOrEqual(10_000);
+    expect(unknownKeyCases).toBeGreaterThanOrEqual(1_000); // inputs with an unknown key were sent, and none was answered 200
     expect(logs.filter((l) => /"level":50/.test(l))).toEqual([]);
   });
 });

@@ -16,6 +16,40 @@ export function exampleInputs(): Map<string, unknown> {
 
 type Path = (string | number)[];
 
+/** Every property name anywhere in a JSON Schema (what an input may hold as a key). */
+export function schemaKeys(schema: unknown, out = new Set<string>()): Set<string> {
+  if (Array.isArray(schema)) for (const s of schema) schemaKeys(s, out);
+  else if (typeof schema === "object" && schema !== null) {
+    for (const [k, v] of Object.entries(schema)) {
+      if (k === "properties" && typeof v === "object" && v !== null) for (const name of Object.keys(v)) out.add(name);
+      schemaKeys(v, out);
+    }
+  }
+  return out;
+}
+
+/** Whether a JSON text holds, anywhere, an object key outside `known` (false for text that is not JSON). */
+export function hasUnknownKey(body: string, known: ReadonlySet<string>): boolean {
+  let v: unknown;
+  try {
+    v = JSON.parse(body);
+  } catch {
+    return false;
+  }
+  const todo: unknown[] = [v]; // iterative: the deep-nesting mutation nests 10,000 levels
+  while (todo.length > 0) {
+    const x = todo.pop();
+    if (Array.isArray(x)) todo.push(...x);
+    else if (typeof x === "object" && x !== null) {
+      for (const [k, y] of Object.entries(x)) {
+        if (!known.has(k)) return true;
+        todo.push(y);
+      }
+    }
+  }
+  return false;
+}
+
 /** Every path to a node of `v` (the root excluded), depth first, in key order. */
 export function pathsOf(v: unknown, at: Path = []): Path[] {
   const out: Path[] = [];

@@ -29,7 +29,7 @@ describe("rule evaluation", () => {
     expect(v?.relativeMargin).toBeNull();
   });
   it("a non-finite intermediate (division by zero, log of 0) is not applicable, never a pass or NaN", () => {
-    const res = evaluateRuleSet(compiled(setOf(rule("div", "tjWorstC / lossWorstW <= 100"), rule("log", "log(lossWorstW) <= 1"))), { metrics: { tjWorstC: 50, lossWorstW: 0 }, part: {} });
+    const res = evaluateRuleSet(compiled(setOf(rule("div", "dropWorstV / lossWorstW <= 100"), rule("log", "log(lossWorstW / lossBudgetW) <= 1"))), { metrics: { dropWorstV: 0.5, lossWorstW: 0, lossBudgetW: 1 }, part: {} });
     expect(res.verdicts.map((v) => v.outcome)).toEqual(["not-applicable", "not-applicable"]);
     expect(res.verdicts[0]?.reason).toContain("not finite");
     expect(res.outcome).toBe("incomplete");

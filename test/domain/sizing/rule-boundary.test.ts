@@ -20,7 +20,7 @@ describe("a rule read as a threshold on one name", () => {
   it.each([
     { expr: "reverseVMaxV <= 0.8 * part.vdsMaxV", name: "part.vdsMaxV", bound: "at-least", value: 28 / 0.8 },
     { expr: "max(supplyMaxV, transientVMaxV) <= part.maxInputV", name: "part.maxInputV", bound: "at-least", value: 58 },
-    { expr: "sqrt(part.vdsMaxV) * 2 >= reverseVMaxV", name: "part.vdsMaxV", bound: "at-least", value: 196 },
+    { expr: "sqrt(part.vdsMaxV * 1 V) * 2 >= reverseVMaxV", name: "part.vdsMaxV", bound: "at-least", value: 196 },
     { expr: "reverseVMaxV <= 0.8 * part.vdsMaxV", name: "reverseVMaxV", bound: "at-most", value: 48 },
     { expr: "part.vdsMaxV - 5 V >= reverseVMaxV", name: "part.vdsMaxV", bound: "at-least", value: 33 },
   ])("$expr in $name", ({ expr, name, bound, value }) => {
