@@ -2,7 +2,7 @@ import { TRPCError } from "@trpc/server";
 import { ZodError } from "zod";
 import { isLimitMessage, LIMITS } from "../contracts/limits.js";
 import type { ErrorBody, Issue } from "../contracts/outcome.js";
-import { issuesOf, pathText } from "../contracts/zod-messages.js";
+import { countIssues, issuesOf, pathText } from "../contracts/zod-messages.js";
 import { InputProblem } from "./input-problem.js";
 
 /**
@@ -18,8 +18,9 @@ export function errorBodyOf(err: unknown): ErrorBody {
   if (cause instanceof ZodError) {
     // an input past a limit is refused for that alone (HTTP 422): its other issues may be many and are beside the point
     const over = cause.issues.filter((i) => isLimitMessage(i.message));
-    const all = issuesOf(over.length > 0 ? over : cause.issues);
-    const issues = cappedIssues(all.length, (k) => all[k] as Issue);
+    const chosen = over.length > 0 ? over : cause.issues;
+    const listed = issuesOf(chosen);
+    const issues = cappedIssues(countIssues(chosen), (k) => listed[k] as Issue);
     const first = issues[0];
     const where = first ? `${pathText(first.path)}: ${first.message}` : "invalid input";
     return over.length > 0 ? { code: "limit-exceeded", message: `input over a limit at ${where}`, issues } : { code: "invalid-input", message: `invalid input at ${where}`, issues };

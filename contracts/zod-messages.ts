@@ -108,6 +108,13 @@ export interface PlainIssue {
 
 const plainPath = (path: readonly PropertyKey[]): (string | number)[] => path.map((p) => (typeof p === "symbol" ? String(p) : p));
 
+/** The one branch of a union whose type the input matched (its issues are the ones to report), if exactly one did. */
+function matchedBranch(i: z.core.$ZodIssue): z.core.$ZodIssue[] | undefined {
+  if (i.code !== "invalid_union" || i.errors.length === 0) return undefined;
+  const typed = i.errors.filter((branch) => !branch.every((b) => b.code === "invalid_type" && b.path.length === 0));
+  return typed.length === 1 ? (typed[0] as z.core.$ZodIssue[]) : undefined;
+}
+
 /**
  * zod's issues as backstop reports them: an unknown key is one issue per key with the key on the
  * path; a union whose input matched one branch's type (an inline rule set given where an id or a
@@ -125,19 +132,32 @@ export function issuesOf(issues: readonly z.core.$ZodIssue[], at: readonly Prope
         const k = i.keys[n] as string;
         out.push({ path: plainPath([...path, k]), message: each ? (parts[n] as string) : `unknown field \`${k}\`` });
       }
-      if (i.keys.length > listed) out.push({ path: plainPath(path), message: `${i.keys.length - listed} more unknown fields here` });
       continue;
     }
-    if (i.code === "invalid_union" && i.errors.length > 0) {
-      const typed = i.errors.filter((branch) => !branch.every((b) => b.code === "invalid_type" && b.path.length === 0));
-      if (typed.length === 1) {
-        out.push(...issuesOf(typed[0] as z.core.$ZodIssue[], path));
-        continue;
-      }
+    const branch = matchedBranch(i);
+    if (branch !== undefined) {
+      out.push(...issuesOf(branch, path));
+      continue;
     }
     out.push({ path: plainPath(path), message: i.message });
   }
   return out;
+}
+
+/**
+ * How many issues {@link issuesOf} would report with no cap on unknown keys (it lists at most
+ * `BACKSTOP_MAX_ERROR_ISSUES` keys of one object): the count an error answer states.
+ */
+export function countIssues(issues: readonly z.core.$ZodIssue[]): number {
+  let n = 0;
+  for (const i of issues) {
+    if (i.code === "unrecognized_keys") n += i.keys.length;
+    else {
+      const branch = matchedBranch(i);
+      n += branch === undefined ? 1 : countIssues(branch);
+    }
+  }
+  return n;
 }
 
 /** A path as a user types it: `ruleSet.rules[3].severity` (the input itself: "(input)"). */

@@ -45,10 +45,14 @@ function pushLawDefaults(spec: DiodeSpec, junction: Junction, path: (string | nu
  */
 export function fitDiodePoints(spec: PointsSpec, junction: Junction, path: (string | number)[], assumptions: string[]): Extract<DiodeFitResult, { ok: true }> {
   const defaults = JUNCTION_DEFAULTS[junction];
-  const currents = new Set(spec.points.map((p) => `${p.currentA}@${p.tempC ?? 25}`));
-  if (currents.size !== spec.points.length) {
-    throw inputProblem("fit-failed", [...path, "points"], "two points share the same current and temperature");
+  const keys = spec.points.map((p) => `${p.currentA} A at ${p.tempC ?? 25} °C`);
+  const twin = keys.findIndex((k, i) => keys.indexOf(k) !== i);
+  if (twin >= 0) {
+    const first = keys.indexOf(keys[twin] as string);
+    throw inputProblem("fit-failed", [...path, "points", twin], `points ${first} and ${twin} share the same current and temperature (${keys[twin]}; a point without tempC is at 25 °C): give each point its tempC, or drop one`);
   }
+  const untimed = spec.points.flatMap((p, i) => (p.tempC === undefined ? [i] : []));
+  if (untimed.length > 0) assumptions.push(`${[...path, "points"].join(".")}[${untimed.join(", ")}].tempC: 25 °C (default: the datasheet's usual room-temperature curve)`);
   const fit = fitDiode(
     spec.points.map((p) => ({ currentA: p.currentA, voltageV: p.voltageV, tempK: cToK(p.tempC ?? 25) })),
     {
@@ -62,7 +66,9 @@ export function fitDiodePoints(spec: PointsSpec, junction: Junction, path: (stri
   );
   if (!fit.ok) {
     if (fit.points.length === 0) throw inputProblem("fit-failed", [...path, "points"], fit.message);
-    throw refusedFit([...path, "points"], fit.message, fit.points);
+    const defaulted = fit.points.filter((i) => untimed.includes(i));
+    const note = defaulted.length === 0 ? "" : ` (point ${defaulted.join(", ")} gives no tempC and is taken at 25 °C)`;
+    throw refusedFit([...path, "points"], fit.message + note, fit.points);
   }
   pushLawDefaults(spec, junction, path, assumptions, fit.fitted.includes("energyGapEv"));
   if (!fit.exact) {
