@@ -59,19 +59,20 @@ const partNames = PART_PARAMETERS.map((m) => m.name);
  * Values by vocabulary name: a strict object with every name optional, so a name outside the
  * vocabulary (a typo would leave a rule not applicable) is zod's unknown key, refused with the
  * nearest name, and `__proto__` and the like are refused like any other (a zod record drops them
- * silently). More names than any record may hold are one limit issue for the record, found before
- * any name is looked at. Its output is a record of the names given.
+ * silently). More names than any record may hold are one limit issue for the record (the answer
+ * then reports the limit alone). Its output is a record of the names given.
  */
 function vocabularyRecord<V extends z.ZodType>(names: readonly string[], value: V) {
   const shape = Object.fromEntries(names.map((n) => [n, value.optional()]));
-  const strict = z.strictObject(shape).transform((o) => o as Record<string, z.output<V>>);
   return z
-    .unknown()
-    .superRefine((rec, ctx) => {
-      const n = typeof rec === "object" && rec !== null ? Object.keys(rec).length : 0;
-      if (n > LIMITS.maxMetrics) ctx.addIssue({ code: "custom", path: [], message: limitMessage("maxMetrics", `the record holds ${n} names`) });
+    .strictObject(shape)
+    .check((ctx) => {
+      // the names given: the known ones kept in the value and the unknown ones zod listed
+      const unknown = ctx.issues.find((i) => i.code === "unrecognized_keys" && (i.path?.length ?? 0) === 0);
+      const n = Object.keys(ctx.value).length + (unknown?.code === "unrecognized_keys" ? unknown.keys.length : 0);
+      if (n > LIMITS.maxMetrics) ctx.issues.push({ code: "custom", input: ctx.value, path: [], message: limitMessage("maxMetrics", `the record holds ${n} names`) });
     })
-    .pipe(strict);
+    .transform((o) => o as Record<string, z.output<V>>);
 }
 
 /** Metric values by name (docs/metrics.md). */
