@@ -120,8 +120,14 @@ const eventFields = {
   loadMethod: z.string(),
   initialCurrentA: z.number(),
   initialSlopeAPerS: z.number(),
-  peakReverseCurrentA: z.number(),
+  peakReverseCurrentA: z.number().meta({
+    description: "largest reverse current of the event (magnitude): up to turn-off for a stage that blocks, else followed past the window until the current turns",
+  }),
   peakReverseTimeS: z.number(),
+  peakReverseIsLowerBound: z
+    .literal(true)
+    .optional()
+    .meta({ description: "present when the current was still rising at the end of the searched span: peakReverseCurrentA is only a lower bound (rules read it as unavailable)" }),
   end: windowState,
   energies,
   metrics: turnOffMetrics,

@@ -9,6 +9,7 @@ import type { LoadModel } from "../../domain/solve/load-model.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
 import { closeScope, draft, putOr, type RuleInputDraft } from "./analysis-rules.js";
 import { partParameters, stageMetrics } from "./operating-point-metrics.js";
+import { putPeakReverse } from "./turn-off-output.js";
 
 type Caller = Readonly<Record<string, number | boolean>>;
 
@@ -45,7 +46,7 @@ export function turnOffRuleInput(stage: StageModel, r: TurnOffOutcome, tjC: numb
       break;
     case "does-not-block":
     case "stays-on":
-      d.metrics["peakReverseCurrentA"] = r.peakReverseCurrentA;
+      putPeakReverse(r, d.metrics, d.unavailable);
       d.metrics["absorbedEnergyJ"] = 0;
       break;
     case "clamp-below-drive":

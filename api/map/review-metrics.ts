@@ -4,6 +4,7 @@ import type { RuleInput } from "../../domain/rules/rule-model.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
 import { otherAnalysesMetrics } from "./analysis-rules.js";
 import { partParameters, stageMetrics } from "./operating-point-metrics.js";
+import { putPeakReverse } from "./turn-off-output.js";
 
 export interface RequirementFlags {
   readonly standbyBudgetA?: number;
@@ -89,7 +90,7 @@ function turnOffMetrics(t: ReviewTurnOffResult, metrics: Record<string, number |
       break;
     case "does-not-block":
     case "stays-on":
-      metrics["peakReverseCurrentA"] = r.peakReverseCurrentA;
+      putPeakReverse(r, metrics, unavailable);
       metrics["absorbedEnergyJ"] = 0;
       break;
     case "clamp-below-drive":

@@ -44,8 +44,14 @@ export interface TurnOffCommon {
   readonly initialCurrentA: number;
   /** di/dt at t = 0+, A/s: (inputAfter − inputBefore)/L. */
   readonly initialSlopeAPerS: number;
+  /**
+   * Largest reverse current of the event, A (magnitude), at peakReverseTimeS: over the window, or
+   * — where the stage keeps conducting past the window's end — until the current turns.
+   */
   readonly peakReverseCurrentA: number;
   readonly peakReverseTimeS: number;
+  /** Present (true) when the current was still rising at the end of the searched span: the peak is only a lower bound. */
+  readonly peakReverseIsLowerBound?: true;
   readonly end: WindowState;
   readonly energies: PhaseEnergies;
 }
@@ -107,8 +113,10 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   const x0: Vec2 = [i0, m.outputV];
   const ch = loopCharacter(s);
   const horizon = ch.decayPerS > 0 ? 60 / ch.decayPerS : (400 * Math.PI) / Math.max(ch.naturalRadPerS, 1e-300);
-  const common = (tEnd: number): TurnOffCommon => {
-    const peak = peakReverse(s, x0, tEnd);
+  // tEnd: the end of the window; conducting: the stage still conducts there (it never blocks),
+  // so the reverse current is followed on the same loop until it turns, up to the horizon.
+  const common = (tEnd: number, conducting = false): TurnOffCommon => {
+    const peak = peakReverse(s, x0, tEnd, conducting ? Math.max(tEnd, horizon) : tEnd, conducting);
     return {
       loop: { ...ch, totalResistanceOhm: loop.loopResistanceOhm, stageResistanceOhm: stageOhm },
       loadMethod: line.method,
@@ -116,6 +124,7 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
       initialSlopeAPerS: (m.inputAfterV - vinBefore - i0 * stageOhm) / m.loopInductanceH,
       peakReverseCurrentA: peak.currentA,
       peakReverseTimeS: peak.timeS,
+      ...(peak.lowerBound ? { peakReverseIsLowerBound: true as const } : {}),
       end: windowState(loop, x0, tEnd, m.outputV),
       energies: phaseEnergies(loop, x0, tEnd, 0),
     };
@@ -129,14 +138,14 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
       const level = m.loadMinV + k * m.esrOhm * line.currentA;
       const fall = firstCrossing(s, x0, [k * m.esrOhm, k], level, horizon);
       const settles = outputV(loop, stateAt(s, x0, horizon));
-      const c = common(fall ?? horizon);
+      const c = common(fall ?? horizon, true);
       const reason = path.reason;
       return fall === undefined ? { outcome: "does-not-block", reason, settlesAtV: settles, ...c } : { outcome: "does-not-block", reason, fallsBelowMinS: fall, settlesAtV: settles, ...c };
     }
     case "controller": {
       const t = firstCrossing(s, x0, [1, 0], -path.tripCurrentA, horizon);
       if (t === undefined) {
-        return { outcome: "stays-on", reason: `the reverse current never reaches the trip level ${path.tripCurrentA.toPrecision(4)} A (threshold / Rds(on)): the controller keeps the channel on`, ...common(horizon) };
+        return { outcome: "stays-on", reason: `the reverse current never reaches the trip level ${path.tripCurrentA.toPrecision(4)} A (threshold / Rds(on)): the controller keeps the channel on`, ...common(horizon, true) };
       }
       detectS = t;
       turnOffS = t + path.offDelayS;
@@ -147,7 +156,7 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
       break;
     case "diode": {
       const t0 = firstCrossing(s, x0, [1, 0], 0, horizon);
-      if (t0 === undefined) return { outcome: "stays-on", reason: "the diode current never reverses: it stays forward biased", ...common(horizon) };
+      if (t0 === undefined) return { outcome: "stays-on", reason: "the diode current never reverses: it stays forward biased", ...common(horizon, true) };
       turnOffS = recoveryEnd(s, x0, t0, m.reverseRecoveryChargeC ?? 0, horizon);
       detectS = t0;
       break;
@@ -189,14 +198,20 @@ function windowState(p: RlcLoop, x0: Vec2, t: number, v0: number, offsetS = 0): 
   return { timeS: offsetS + t, currentA: x[0], outputV: outputV(p, x), capacitorV: x[1], chargeLostC: p.capacitanceF * (v0 - x[1]), voltageLostV: v0 - x[1] };
 }
 
-/** Largest −i(t) on [0, tEnd]: the end points and the first two extrema of i. */
-function peakReverse(s: ReturnType<typeof loopSystem>, x0: Vec2, tEnd: number): { currentA: number; timeS: number } {
+/**
+ * Largest −i(t) on [0, searchS] (searchS ≥ tEnd): the end points and the first two extrema of i.
+ * A stage that blocks is searched to its turn-off (the clamp then drives the current back to
+ * zero, so that is the event's maximum); one that keeps conducting (`open`) is followed past the
+ * window on the same loop until the current turns. Where the largest value is still the end of
+ * such a search (the current rising there), it is only a lower bound and says so.
+ */
+function peakReverse(s: ReturnType<typeof loopSystem>, x0: Vec2, tEnd: number, searchS: number, open: boolean): { currentA: number; timeS: number; lowerBound: boolean } {
   let best = { currentA: 0, timeS: 0 };
-  for (const t of [0, ...extremaTimes(s, x0, [1, 0], tEnd, 2), tEnd]) {
+  for (const t of [0, ...extremaTimes(s, x0, [1, 0], searchS, 2), tEnd, searchS]) {
     const rev = -stateAt(s, x0, t)[0];
     if (rev > best.currentA) best = { currentA: rev, timeS: t };
   }
-  return best;
+  return { ...best, lowerBound: open && best.currentA > 0 && best.timeS >= searchS };
 }
 
 /**

@@ -132,6 +132,23 @@ describe("turn-off event", () => {
     expect(r.end.outputV).toBeCloseTo(9, 6);
   });
 
+  // Source: independent RK4 of the same loop over twice the span: the stage keeps conducting
+  // after the output falls below the load's minimum, so the reverse current is followed until it
+  // turns (it was reported at the window's end while still rising, and charted as the peak).
+  it("P-FET does not block: the reverse peak is the current's maximum, past the end of the window", () => {
+    const m = { ...event, stage: pfetStage, capacitanceF: 2200e-6, loopInductanceH: 2e-6 };
+    const r = turnOffEvent(m);
+    if (r.outcome !== "does-not-block") throw new Error(r.outcome);
+    expect(r.peakReverseTimeS).toBeGreaterThan(r.end.timeS);
+    expect(r.peakReverseCurrentA).toBeGreaterThan(-r.end.currentA);
+    expect(r.peakReverseIsLowerBound).toBeUndefined();
+    const p: RlcLoop = { sourceV: 0, loopResistanceOhm: r.loop.totalResistanceOhm, inductanceH: m.loopInductanceH, capacitanceF: m.capacitanceF, esrOhm: m.esrOhm, loadCurrentA: 2, loadConductanceS: 0 };
+    const rows = rk4Loop(p, [r.initialCurrentA, m.outputV], 2 * r.peakReverseTimeS, 40_000);
+    const best = rows.reduce((a, b) => (-b.i > -a.i ? b : a));
+    expect(relativeError(r.peakReverseCurrentA, -best.i)).toBeLessThan(1e-6);
+    expect(Math.abs(r.peakReverseTimeS - best.t)).toBeLessThan(1e-3 * r.peakReverseTimeS);
+  });
+
   it("low-side N-FET: a hard short removes its gate drive (blocks); a lower input keeps it on", () => {
     expect(turnOffEvent({ ...event, stage: lowSideStage }).outcome).toBe("blocks");
     expect(turnOffEvent({ ...event, stage: lowSideStage, inputAfterV: 10 }).outcome).toBe("does-not-block");
