@@ -162,6 +162,17 @@ function eventOutcomes<H extends z.ZodRawShape>(h: H) {
     z.object({ outcome: z.literal("stays-on"), ...common, reason: z.string() }),
     z.object({ outcome: z.literal("clamp-below-drive"), ...h, reason: z.string(), clampV: z.number(), driveV: z.number(), currentAtTurnOffA: z.number() }),
     z.object({ outcome: z.literal("invalid-load-line"), ...h, reason: z.string(), path: z.string() }),
+    z
+      .object({
+        outcome: z.literal("unstable-loop"),
+        ...h,
+        reason: z.string(),
+        mode: z.enum(["diverges", "oscillation-grows"]).meta({ description: "diverges: a real growing mode (R·P/V² ≥ 1); oscillation-grows: negative damping" }),
+        dampingRatio: z.number().meta({ description: "damping ratio of the linearised loop (negative: negative damping; 0 where it diverges)" }),
+        growthPerS: z.number().meta({ description: "growth rate of the fastest-growing natural mode, 1/s" }),
+        loadIncrementalResistanceOhm: z.number().meta({ description: "the constant-power load's incremental resistance −V²/P at the pre-event output" }),
+      })
+      .meta({ description: "the constant-power load's negative incremental resistance makes the linearised loop unstable: no bounded response" }),
   ]);
 }
 

@@ -51,6 +51,7 @@ export function turnOffRuleInput(stage: StageModel, r: TurnOffOutcome, tjC: numb
       break;
     case "clamp-below-drive":
     case "invalid-load-line":
+    case "unstable-loop":
       d.unavailable["peakReverseCurrentA"] = `${r.outcome}: ${r.reason}`;
       d.unavailable["absorbedEnergyJ"] = `${r.outcome}: ${r.reason}`;
       break;

@@ -95,6 +95,7 @@ function turnOffMetrics(t: ReviewTurnOffResult, metrics: Record<string, number |
       break;
     case "clamp-below-drive":
     case "invalid-load-line":
+    case "unstable-loop":
       unavailable["peakReverseCurrentA"] = `turn-off event ${r.outcome}: ${r.reason}`;
       unavailable["absorbedEnergyJ"] = `turn-off event ${r.outcome}: ${r.reason}`;
       break;

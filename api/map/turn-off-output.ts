@@ -8,6 +8,7 @@ export function turnOffEventFields(r: TurnOffOutcome, v0: number, waveform?: Tur
   switch (r.outcome) {
     case "clamp-below-drive":
     case "invalid-load-line":
+    case "unstable-loop":
       return { ...r };
     case "blocks": {
       const c = r.clamp;

@@ -77,7 +77,19 @@ export type TurnOffOutcome =
   | ({ readonly outcome: "does-not-block"; readonly reason: string; readonly fallsBelowMinS?: number; readonly settlesAtV: number } & TurnOffCommon)
   | ({ readonly outcome: "stays-on"; readonly reason: string } & TurnOffCommon)
   | { readonly outcome: "clamp-below-drive"; readonly reason: string; readonly clampV: number; readonly driveV: number; readonly currentAtTurnOffA: number }
-  | { readonly outcome: "invalid-load-line"; readonly reason: string; readonly path: string };
+  | { readonly outcome: "invalid-load-line"; readonly reason: string; readonly path: string }
+  | {
+      readonly outcome: "unstable-loop";
+      readonly reason: string;
+      /** "diverges": a real eigenvalue above zero (R·P/V² ≥ 1); "oscillation-grows": negative damping. */
+      readonly mode: "diverges" | "oscillation-grows";
+      /** ζ of the linearised loop (negative: negative damping; 0 where it diverges without oscillation). */
+      readonly dampingRatio: number;
+      /** Growth rate of the fastest-growing natural mode, 1/s. */
+      readonly growthPerS: number;
+      /** The constant-power load's incremental resistance at the pre-event output, −V²/P, ohm. */
+      readonly loadIncrementalResistanceOhm: number;
+    };
 
 /**
  * Reverse-current event at an input that falls at t = 0, on the closed-form R-L-C response
@@ -90,8 +102,12 @@ export type TurnOffOutcome =
 export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   const tK = cToK(m.tjC);
   const line = loadLine(m.load, m.outputV);
-  if (!(1 + m.esrOhm * line.conductanceS > 0)) {
-    return { outcome: "invalid-load-line", reason: "the capacitor ESR exceeds V²/P of the constant-power load: the linearised loop has no meaning", path: "esrOhm" };
+  // 1 + ESR·G → 0 makes the output's gain on the capacitor current, ESR/(1 + ESR·G), unbounded
+  // and the loop's modes 1e8 apart: near it the closed form is rounding (at 2e-6 of it the output
+  // came out at −4.9e5 V, at 2e-16 the energy balance at 170). Within 0.1 % of V²/P the tangent
+  // says nothing a converter at the edge of collapse would do.
+  if (!(1 + m.esrOhm * line.conductanceS > 1e-3)) {
+    return { outcome: "invalid-load-line", reason: "the capacitor ESR is within 0.1 % of V²/P of the constant-power load, or above it (ESR·P/V² >= 0.999): the output is at the edge of collapse and the linearised loop has no meaning", path: "esrOhm" };
   }
   const i0 = line.currentA + line.conductanceS * m.outputV;
   const vinBefore = m.outputV + i0 * m.loopResistanceOhm;
@@ -107,11 +123,25 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
     loadConductanceS: line.conductanceS,
   };
   const s = loopSystem(loop);
-  if (!(det2(s) > 0)) {
-    return { outcome: "invalid-load-line", reason: "the constant-power load's tangent makes the loop unstable (R·P/V² ≥ 1): the output collapses", path: "load" };
+  const ch = loopCharacter(s);
+  // A constant-power load is a negative incremental resistance −V²/P: its tangent can make the
+  // linearised loop unstable, by a real mode (det A ≤ 0: R·P/V² ≥ 1) or by negative damping
+  // (trace A > 0: P/V² > C·(R + ESR)/L, the negative-resistance oscillator; common practice for
+  // a converter input behind an L-C). No bounded response exists to report: its own outcome.
+  // At the real-mode boundary (det A → 0+) the slow mode's decay vanishes and the closed form is
+  // rounding (energy balances of 0.6-1000 within 1e-15 of it): det A within 0.1 % of |a12·a21|
+  // (R·P/V² ≥ 0.999 with no ESR) counts as diverging, as the ESR's edge above.
+  const diverges = !(det2(s) > 1e-3 * Math.abs(s.a12 * s.a21));
+  if (diverges || ch.dampingRatio < 0) {
+    const rNeg = line.conductanceS < 0 ? 1 / line.conductanceS : 0;
+    const m2 = (s.a11 + s.a22) / 2;
+    const growthPerS = diverges ? Math.max(0, m2 + Math.sqrt(Math.max(m2 * m2 - det2(s), 0))) : m2;
+    const reason = diverges
+      ? `the constant-power load's incremental resistance ${rNeg.toPrecision(4)} ohm outweighs the loop resistance, or comes within 0.1 % of it (R·P/V² >= 0.999 without ESR): the linearised loop diverges (growth ${growthPerS.toPrecision(3)} 1/s) and the output collapses`
+      : `the constant-power load's incremental resistance ${rNeg.toPrecision(4)} ohm gives the linearised loop negative damping (damping ratio ${ch.dampingRatio.toPrecision(3)}: P/V^2 > C·(R + ESR)/L): its oscillation grows at ${growthPerS.toPrecision(3)} 1/s, so there is no bounded response to report; damp the input filter (more loop resistance or ESR, less inductance or more capacitance)`;
+    return { outcome: "unstable-loop", reason, mode: diverges ? "diverges" : "oscillation-grows", dampingRatio: diverges ? 0 : ch.dampingRatio, growthPerS, loadIncrementalResistanceOhm: rNeg };
   }
   const x0: Vec2 = [i0, m.outputV];
-  const ch = loopCharacter(s);
   const horizon = ch.decayPerS > 0 ? 60 / ch.decayPerS : (400 * Math.PI) / Math.max(ch.naturalRadPerS, 1e-300);
   // tEnd: the end of the window; conducting: the stage still conducts there (it never blocks),
   // so the reverse current is followed on the same loop until it turns, up to the horizon.
@@ -165,7 +195,11 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   const c = common(turnOffS);
   const base = { outcome: "blocks" as const, turnOffS, ...(detectS === undefined ? {} : { detectS }), ...c };
   const xOff = stateAt(s, x0, turnOffS);
-  if (!(xOff[0] < 0)) return base;
+  // No clamp phase without reverse current at turn-off. A current at rounding level (a diode
+  // recovering at its zero crossing: ~1e-16 A, the crossing located to 1e-15 of its time) counts
+  // as none: against the loop's current scale, max(|i0|, ΔV·√(C/L)), below 1e-9.
+  const currentScaleA = Math.max(Math.abs(i0), Math.abs(m.outputV - m.inputAfterV) * Math.sqrt(m.capacitanceF / m.loopInductanceH));
+  if (!(xOff[0] < -1e-9 * currentScaleA)) return base;
   const clampV = m.clampV ?? stageBreakdownV(m.stage);
   const driveV = outputV(loop, xOff) - m.inputAfterV;
   if (!(clampV > driveV)) {

@@ -27,10 +27,10 @@ export const TURN_OFF_WAVEFORM_POINTS = 200;
  * evenly spaced samples including both ends, plus the extrema of the loop current inside it
  * (extremaTimes, so the first reverse peak is a sample, not an interpolation), the reported peak
  * time, the trip (detect) time, the turn-off instant and the window's end. Outcomes without a loop response
- * (clamp-below-drive, invalid-load-line) have no waveform.
+ * (clamp-below-drive, invalid-load-line, unstable-loop) have no waveform.
  */
 export function turnOffWaveform(m: TurnOffModel, r: TurnOffOutcome, points = TURN_OFF_WAVEFORM_POINTS): TurnOffWaveform | undefined {
-  if (r.outcome === "clamp-below-drive" || r.outcome === "invalid-load-line") return undefined;
+  if (r.outcome === "clamp-below-drive" || r.outcome === "invalid-load-line" || r.outcome === "unstable-loop") return undefined;
   const n = Math.max(2, Math.floor(points));
   const line = loadLine(m.load, m.outputV);
   const loop: RlcLoop = {
