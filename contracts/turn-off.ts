@@ -120,8 +120,14 @@ const eventFields = {
   loadMethod: z.string(),
   initialCurrentA: z.number(),
   initialSlopeAPerS: z.number(),
-  peakReverseCurrentA: z.number(),
+  peakReverseCurrentA: z.number().meta({
+    description: "largest reverse current of the event (magnitude): up to turn-off for a stage that blocks, else followed past the window until the current turns",
+  }),
   peakReverseTimeS: z.number(),
+  peakReverseIsLowerBound: z
+    .literal(true)
+    .optional()
+    .meta({ description: "present when the current was still rising at the end of the searched span: peakReverseCurrentA is only a lower bound (rules read it as unavailable)" }),
   end: windowState,
   energies,
   metrics: turnOffMetrics,
@@ -156,6 +162,17 @@ function eventOutcomes<H extends z.ZodRawShape>(h: H) {
     z.object({ outcome: z.literal("stays-on"), ...common, reason: z.string() }),
     z.object({ outcome: z.literal("clamp-below-drive"), ...h, reason: z.string(), clampV: z.number(), driveV: z.number(), currentAtTurnOffA: z.number() }),
     z.object({ outcome: z.literal("invalid-load-line"), ...h, reason: z.string(), path: z.string() }),
+    z
+      .object({
+        outcome: z.literal("unstable-loop"),
+        ...h,
+        reason: z.string(),
+        mode: z.enum(["diverges", "oscillation-grows"]).meta({ description: "diverges: a real growing mode (R·P/V² ≥ 1); oscillation-grows: negative damping" }),
+        dampingRatio: z.number().meta({ description: "damping ratio of the linearised loop (negative: negative damping; 0 where it diverges)" }),
+        growthPerS: z.number().meta({ description: "growth rate of the fastest-growing natural mode, 1/s" }),
+        loadIncrementalResistanceOhm: z.number().meta({ description: "the constant-power load's incremental resistance −V²/P at the pre-event output" }),
+      })
+      .meta({ description: "the constant-power load's negative incremental resistance makes the linearised loop unstable: no bounded response" }),
   ]);
 }
 

@@ -150,7 +150,9 @@ function turnOffChart(c: Candidate, add: AddChart): void {
   const w = e.waveform;
   const u = timeUnit(w.timeS.at(-1) ?? 0);
   const reverse = w.timeS.map((t, k): [number, number] => [t * u.factor, -(w.currentA[k] ?? 0)]);
-  const marks: ChartMark[] = [{ label: `peak ${num(e.peakReverseCurrentA)} A`, x: e.peakReverseTimeS * u.factor, y: e.peakReverseCurrentA }];
+  // A peak that is only a lower bound (still rising at the end of the searched span) is labelled so.
+  const peakLabel = "peakReverseIsLowerBound" in e && e.peakReverseIsLowerBound === true ? `at least ${num(e.peakReverseCurrentA)} A (still rising at the window's end)` : `peak ${num(e.peakReverseCurrentA)} A`;
+  const marks: ChartMark[] = [{ label: peakLabel, x: e.peakReverseTimeS * u.factor, y: e.peakReverseCurrentA }];
   if (e.outcome === "blocks") marks.push({ label: "turn-off", x: e.turnOffS * u.factor, y: -(w.currentA[w.clampStartIndex ?? w.timeS.length - 1] ?? 0) });
   const t = c.turnOff;
   add("turnoff-current", "Turn-off: reverse current against time", `${e.outcome}, Tj ${num(t?.tjC)} °C at the event`, {

@@ -9,6 +9,7 @@ import type { LoadModel } from "../../domain/solve/load-model.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
 import { closeScope, draft, putOr, type RuleInputDraft } from "./analysis-rules.js";
 import { missingRatings, partParameters, stageMetrics } from "./operating-point-metrics.js";
+import { putPeakReverse } from "./turn-off-output.js";
 
 type Caller = Readonly<Record<string, number | boolean>>;
 
@@ -46,11 +47,12 @@ export function turnOffRuleInput(stage: StageModel, r: TurnOffOutcome, tjC: numb
       break;
     case "does-not-block":
     case "stays-on":
-      d.metrics["peakReverseCurrentA"] = r.peakReverseCurrentA;
+      putPeakReverse(r, d.metrics, d.unavailable);
       d.metrics["absorbedEnergyJ"] = 0;
       break;
     case "clamp-below-drive":
     case "invalid-load-line":
+    case "unstable-loop":
       d.unavailable["peakReverseCurrentA"] = `${r.outcome}: ${r.reason}`;
       d.unavailable["absorbedEnergyJ"] = `${r.outcome}: ${r.reason}`;
       break;

@@ -4,6 +4,7 @@ import type { RuleInput } from "../../domain/rules/rule-model.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
 import { otherAnalysesMetrics } from "./analysis-rules.js";
 import { missingRatings, partParameters, stageMetrics } from "./operating-point-metrics.js";
+import { putPeakReverse } from "./turn-off-output.js";
 import { reviewHazardMetrics } from "./review-hazard-metrics.js";
 
 /** What the design review computes for its rules (the soundness invariant reads it: api/map/computed-metrics.ts). */
@@ -116,11 +117,12 @@ function turnOffMetrics(t: ReviewTurnOffResult, metrics: Record<string, number |
       break;
     case "does-not-block":
     case "stays-on":
-      metrics["peakReverseCurrentA"] = r.peakReverseCurrentA;
+      putPeakReverse(r, metrics, unavailable);
       metrics["absorbedEnergyJ"] = 0;
       break;
     case "clamp-below-drive":
     case "invalid-load-line":
+    case "unstable-loop":
       unavailable["peakReverseCurrentA"] = `turn-off event ${r.outcome}: ${r.reason}`;
       unavailable["absorbedEnergyJ"] = `turn-off event ${r.outcome}: ${r.reason}`;
       break;

@@ -50,6 +50,8 @@ export function dischargeTime(m: DischargeModel): DischargeOutcome {
       if (start <= vmin) return belowMin(start, vmin);
       const tau = c * (r + esr);
       const vcMin = (vmin * (r + esr)) / r + esr * lk;
+      // The exponential tends to −I_lk·R: a minimum at or below it is never reached.
+      if (!(vcMin + lk * r > 0)) return { outcome: "no-drain", reason: `the resistive load's exponential discharge never takes the output down to the ${vmin} V minimum: it holds indefinitely` };
       return { outcome: "holds", timeS: tau * Math.log((v0 + lk * r) / (vcMin + lk * r)), method: "exponential discharge τ = C·(R + ESR)", startOutputV: start };
     }
     case "constant-power": {
@@ -65,9 +67,13 @@ export function dischargeTime(m: DischargeModel): DischargeOutcome {
       if (esr === 0 && lk === 0) {
         return { outcome: "holds", timeS: (c * (v0 * v0 - vmin * vmin)) / (2 * p), method: "energy form C·(V0² − Vmin²)/(2P)", startOutputV: start };
       }
-      const vcAtMin = vmin + esr * (p / vmin + lk);
-      const integrand = (vc: number): number => 1 / (p / (vout(vc) ?? vmin) + lk);
-      return { outcome: "holds", timeS: c * gaussLegendre(integrand, vcAtMin, v0, 200), method: "constant power with ESR and leakage, by quadrature of C·dv/(P/v + I)", startOutputV: start };
+      // With ESR the output cannot fall below √(ESR·P) (the roots merge: the converter's current
+      // no longer passes the ESR): a lower minimum ends at that collapse instead.
+      const vEnd = Math.max(vmin, Math.sqrt(esr * p));
+      const vcAtMin = vEnd > 0 ? vEnd + esr * (p / vEnd + lk) : esr * lk;
+      const integrand = (vc: number): number => 1 / (p / (vout(vc) ?? vEnd) + lk);
+      const method = vEnd > vmin ? `constant power with ESR and leakage, by quadrature of C·dv/(P/v + I), to the collapse at ${vEnd.toPrecision(4)} V (sqrt(ESR·P)) above the minimum` : "constant power with ESR and leakage, by quadrature of C·dv/(P/v + I)";
+      return { outcome: "holds", timeS: c * gaussLegendre(integrand, vcAtMin, v0, 200), method, startOutputV: start };
     }
   }
 }

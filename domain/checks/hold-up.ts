@@ -77,6 +77,7 @@ export function holdUp(m: HoldUpModel): HoldUpOutcome {
   });
   switch (ev.outcome) {
     case "invalid-load-line":
+    case "unstable-loop":
     case "clamp-below-drive":
       return { outcome: "no-hold-up", reason: ev.reason };
     case "stays-on":

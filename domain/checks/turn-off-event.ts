@@ -44,8 +44,14 @@ export interface TurnOffCommon {
   readonly initialCurrentA: number;
   /** di/dt at t = 0+, A/s: (inputAfter − inputBefore)/L. */
   readonly initialSlopeAPerS: number;
+  /**
+   * Largest reverse current of the event, A (magnitude), at peakReverseTimeS: over the window, or
+   * — where the stage keeps conducting past the window's end — until the current turns.
+   */
   readonly peakReverseCurrentA: number;
   readonly peakReverseTimeS: number;
+  /** Present (true) when the current was still rising at the end of the searched span: the peak is only a lower bound. */
+  readonly peakReverseIsLowerBound?: true;
   readonly end: WindowState;
   readonly energies: PhaseEnergies;
 }
@@ -71,7 +77,19 @@ export type TurnOffOutcome =
   | ({ readonly outcome: "does-not-block"; readonly reason: string; readonly fallsBelowMinS?: number; readonly settlesAtV: number } & TurnOffCommon)
   | ({ readonly outcome: "stays-on"; readonly reason: string } & TurnOffCommon)
   | { readonly outcome: "clamp-below-drive"; readonly reason: string; readonly clampV: number; readonly driveV: number; readonly currentAtTurnOffA: number }
-  | { readonly outcome: "invalid-load-line"; readonly reason: string; readonly path: string };
+  | { readonly outcome: "invalid-load-line"; readonly reason: string; readonly path: string }
+  | {
+      readonly outcome: "unstable-loop";
+      readonly reason: string;
+      /** "diverges": a real eigenvalue above zero (R·P/V² ≥ 1); "oscillation-grows": negative damping. */
+      readonly mode: "diverges" | "oscillation-grows";
+      /** ζ of the linearised loop (negative: negative damping; 0 where it diverges without oscillation). */
+      readonly dampingRatio: number;
+      /** Growth rate of the fastest-growing natural mode, 1/s. */
+      readonly growthPerS: number;
+      /** The constant-power load's incremental resistance at the pre-event output, −V²/P, ohm. */
+      readonly loadIncrementalResistanceOhm: number;
+    };
 
 /**
  * Reverse-current event at an input that falls at t = 0, on the closed-form R-L-C response
@@ -84,8 +102,12 @@ export type TurnOffOutcome =
 export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   const tK = cToK(m.tjC);
   const line = loadLine(m.load, m.outputV);
-  if (!(1 + m.esrOhm * line.conductanceS > 0)) {
-    return { outcome: "invalid-load-line", reason: "the capacitor ESR exceeds V²/P of the constant-power load: the linearised loop has no meaning", path: "esrOhm" };
+  // 1 + ESR·G → 0 makes the output's gain on the capacitor current, ESR/(1 + ESR·G), unbounded
+  // and the loop's modes 1e8 apart: near it the closed form is rounding (at 2e-6 of it the output
+  // came out at −4.9e5 V, at 2e-16 the energy balance at 170). Within 0.1 % of V²/P the tangent
+  // says nothing a converter at the edge of collapse would do.
+  if (!(1 + m.esrOhm * line.conductanceS > 1e-3)) {
+    return { outcome: "invalid-load-line", reason: "the capacitor ESR is within 0.1 % of V²/P of the constant-power load, or above it (ESR·P/V² >= 0.999): the output is at the edge of collapse and the linearised loop has no meaning", path: "esrOhm" };
   }
   const i0 = line.currentA + line.conductanceS * m.outputV;
   const vinBefore = m.outputV + i0 * m.loopResistanceOhm;
@@ -101,14 +123,30 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
     loadConductanceS: line.conductanceS,
   };
   const s = loopSystem(loop);
-  if (!(det2(s) > 0)) {
-    return { outcome: "invalid-load-line", reason: "the constant-power load's tangent makes the loop unstable (R·P/V² ≥ 1): the output collapses", path: "load" };
+  const ch = loopCharacter(s);
+  // A constant-power load is a negative incremental resistance −V²/P: its tangent can make the
+  // linearised loop unstable, by a real mode (det A ≤ 0: R·P/V² ≥ 1) or by negative damping
+  // (trace A > 0: P/V² > C·(R + ESR)/L, the negative-resistance oscillator; common practice for
+  // a converter input behind an L-C). No bounded response exists to report: its own outcome.
+  // At the real-mode boundary (det A → 0+) the slow mode's decay vanishes and the closed form is
+  // rounding (energy balances of 0.6-1000 within 1e-15 of it): det A within 0.1 % of |a12·a21|
+  // (R·P/V² ≥ 0.999 with no ESR) counts as diverging, as the ESR's edge above.
+  const diverges = !(det2(s) > 1e-3 * Math.abs(s.a12 * s.a21));
+  if (diverges || ch.dampingRatio < 0) {
+    const rNeg = line.conductanceS < 0 ? 1 / line.conductanceS : 0;
+    const m2 = (s.a11 + s.a22) / 2;
+    const growthPerS = diverges ? Math.max(0, m2 + Math.sqrt(Math.max(m2 * m2 - det2(s), 0))) : m2;
+    const reason = diverges
+      ? `the constant-power load's incremental resistance ${rNeg.toPrecision(4)} ohm outweighs the loop resistance, or comes within 0.1 % of it (R·P/V² >= 0.999 without ESR): the linearised loop diverges (growth ${growthPerS.toPrecision(3)} 1/s) and the output collapses`
+      : `the constant-power load's incremental resistance ${rNeg.toPrecision(4)} ohm gives the linearised loop negative damping (damping ratio ${ch.dampingRatio.toPrecision(3)}: P/V^2 > C·(R + ESR)/L): its oscillation grows at ${growthPerS.toPrecision(3)} 1/s, so there is no bounded response to report; damp the input filter (more loop resistance or ESR, less inductance or more capacitance)`;
+    return { outcome: "unstable-loop", reason, mode: diverges ? "diverges" : "oscillation-grows", dampingRatio: diverges ? 0 : ch.dampingRatio, growthPerS, loadIncrementalResistanceOhm: rNeg };
   }
   const x0: Vec2 = [i0, m.outputV];
-  const ch = loopCharacter(s);
   const horizon = ch.decayPerS > 0 ? 60 / ch.decayPerS : (400 * Math.PI) / Math.max(ch.naturalRadPerS, 1e-300);
-  const common = (tEnd: number): TurnOffCommon => {
-    const peak = peakReverse(s, x0, tEnd);
+  // tEnd: the end of the window; conducting: the stage still conducts there (it never blocks),
+  // so the reverse current is followed on the same loop until it turns, up to the horizon.
+  const common = (tEnd: number, conducting = false): TurnOffCommon => {
+    const peak = peakReverse(s, x0, tEnd, conducting ? Math.max(tEnd, horizon) : tEnd, conducting);
     return {
       loop: { ...ch, totalResistanceOhm: loop.loopResistanceOhm, stageResistanceOhm: stageOhm },
       loadMethod: line.method,
@@ -116,6 +154,7 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
       initialSlopeAPerS: (m.inputAfterV - vinBefore - i0 * stageOhm) / m.loopInductanceH,
       peakReverseCurrentA: peak.currentA,
       peakReverseTimeS: peak.timeS,
+      ...(peak.lowerBound ? { peakReverseIsLowerBound: true as const } : {}),
       end: windowState(loop, x0, tEnd, m.outputV),
       energies: phaseEnergies(loop, x0, tEnd, 0),
     };
@@ -129,14 +168,14 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
       const level = m.loadMinV + k * m.esrOhm * line.currentA;
       const fall = firstCrossing(s, x0, [k * m.esrOhm, k], level, horizon);
       const settles = outputV(loop, stateAt(s, x0, horizon));
-      const c = common(fall ?? horizon);
+      const c = common(fall ?? horizon, true);
       const reason = path.reason;
       return fall === undefined ? { outcome: "does-not-block", reason, settlesAtV: settles, ...c } : { outcome: "does-not-block", reason, fallsBelowMinS: fall, settlesAtV: settles, ...c };
     }
     case "controller": {
       const t = firstCrossing(s, x0, [1, 0], -path.tripCurrentA, horizon);
       if (t === undefined) {
-        return { outcome: "stays-on", reason: `the reverse current never reaches the trip level ${path.tripCurrentA.toPrecision(4)} A (threshold / Rds(on)): the controller keeps the channel on`, ...common(horizon) };
+        return { outcome: "stays-on", reason: `the reverse current never reaches the trip level ${path.tripCurrentA.toPrecision(4)} A (threshold / Rds(on)): the controller keeps the channel on`, ...common(horizon, true) };
       }
       detectS = t;
       turnOffS = t + path.offDelayS;
@@ -147,7 +186,7 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
       break;
     case "diode": {
       const t0 = firstCrossing(s, x0, [1, 0], 0, horizon);
-      if (t0 === undefined) return { outcome: "stays-on", reason: "the diode current never reverses: it stays forward biased", ...common(horizon) };
+      if (t0 === undefined) return { outcome: "stays-on", reason: "the diode current never reverses: it stays forward biased", ...common(horizon, true) };
       turnOffS = recoveryEnd(s, x0, t0, m.reverseRecoveryChargeC ?? 0, horizon);
       detectS = t0;
       break;
@@ -156,7 +195,11 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   const c = common(turnOffS);
   const base = { outcome: "blocks" as const, turnOffS, ...(detectS === undefined ? {} : { detectS }), ...c };
   const xOff = stateAt(s, x0, turnOffS);
-  if (!(xOff[0] < 0)) return base;
+  // No clamp phase without reverse current at turn-off. A current at rounding level (a diode
+  // recovering at its zero crossing: ~1e-16 A, the crossing located to 1e-15 of its time) counts
+  // as none: against the loop's current scale, max(|i0|, ΔV·√(C/L)), below 1e-9.
+  const currentScaleA = Math.max(Math.abs(i0), Math.abs(m.outputV - m.inputAfterV) * Math.sqrt(m.capacitanceF / m.loopInductanceH));
+  if (!(xOff[0] < -1e-9 * currentScaleA)) return base;
   const clampV = m.clampV ?? stageBreakdownV(m.stage);
   const driveV = outputV(loop, xOff) - m.inputAfterV;
   if (!(clampV > driveV)) {
@@ -189,14 +232,20 @@ function windowState(p: RlcLoop, x0: Vec2, t: number, v0: number, offsetS = 0): 
   return { timeS: offsetS + t, currentA: x[0], outputV: outputV(p, x), capacitorV: x[1], chargeLostC: p.capacitanceF * (v0 - x[1]), voltageLostV: v0 - x[1] };
 }
 
-/** Largest −i(t) on [0, tEnd]: the end points and the first two extrema of i. */
-function peakReverse(s: ReturnType<typeof loopSystem>, x0: Vec2, tEnd: number): { currentA: number; timeS: number } {
+/**
+ * Largest −i(t) on [0, searchS] (searchS ≥ tEnd): the end points and the first two extrema of i.
+ * A stage that blocks is searched to its turn-off (the clamp then drives the current back to
+ * zero, so that is the event's maximum); one that keeps conducting (`open`) is followed past the
+ * window on the same loop until the current turns. Where the largest value is still the end of
+ * such a search (the current rising there), it is only a lower bound and says so.
+ */
+function peakReverse(s: ReturnType<typeof loopSystem>, x0: Vec2, tEnd: number, searchS: number, open: boolean): { currentA: number; timeS: number; lowerBound: boolean } {
   let best = { currentA: 0, timeS: 0 };
-  for (const t of [0, ...extremaTimes(s, x0, [1, 0], tEnd, 2), tEnd]) {
+  for (const t of [0, ...extremaTimes(s, x0, [1, 0], searchS, 2), tEnd, searchS]) {
     const rev = -stateAt(s, x0, t)[0];
     if (rev > best.currentA) best = { currentA: rev, timeS: t };
   }
-  return best;
+  return { ...best, lowerBound: open && best.currentA > 0 && best.timeS >= searchS };
 }
 
 /**

@@ -73,10 +73,13 @@ export function phaseEnergies(p: RlcLoop, x0: Vec2, t: number, clampV: number): 
   const s = loopSystem(p);
   const x = stateAt(s, x0, t);
   const q = stateIntegral(s, x0, t);
-  const rate = Math.abs(s.a11) + Math.abs(s.a22) + Math.sqrt(Math.abs(det2(s)));
-  const panels = Math.min(50_000, Math.ceil(200 + 4 * t * rate));
+  const segments = quadratureSegments(s, t);
   const rLoop = p.loopResistanceOhm;
-  const dissip = (f: (xs: Vec2) => number): number => gaussLegendre((tt) => f(stateAt(s, x0, tt)), 0, t, panels);
+  const dissip = (f: (xs: Vec2) => number): number => {
+    let sum = 0;
+    for (const [a, b, n] of segments) sum += gaussLegendre((tt) => f(stateAt(s, x0, tt)), a, b, n);
+    return sum;
+  };
   const loadA = (xs: Vec2): number => p.loadCurrentA + p.loadConductanceS * outputV(p, xs);
   const loopResistanceJ = dissip((xs) => rLoop * xs[0] * xs[0]);
   const esrJ = dissip((xs) => {
@@ -91,6 +94,35 @@ export function phaseEnergies(p: RlcLoop, x0: Vec2, t: number, clampV: number): 
   const clampJ = -clampV * q[0];
   const lost = capacitorLostJ + inductorLostJ + sourceDeliveredJ;
   const used = loopResistanceJ + esrJ + loadJ + clampJ;
-  const scale = Math.max(Math.abs(capacitorLostJ) + Math.abs(inductorLostJ) + Math.abs(sourceDeliveredJ), 1e-300);
+  // Relative to the energies exchanged, and to no less than 1e-9 of the energy stored at the
+  // start: a phase of zero length (or one at rounding level) exchanges only the rounding of
+  // ½·C·V², and a residual relative to that alone would be 1 or 1e20, meaning nothing.
+  const stored = 0.5 * p.capacitanceF * x0[1] * x0[1] + 0.5 * p.inductanceH * x0[0] * x0[0];
+  const scale = Math.max(Math.abs(capacitorLostJ) + Math.abs(inductorLostJ) + Math.abs(sourceDeliveredJ), 1e-9 * stored, 1e-300);
   return { capacitorLostJ, inductorLostJ, sourceDeliveredJ, loopResistanceJ, esrJ, loadJ, clampJ, balanceResidual: (lost - used) / scale };
+}
+
+/**
+ * Gauss-Legendre segments [a, b, panels] over [0, t] for the dissipation integrals: one range
+ * with panels for the fastest time scale (4 per unit of t·rate, at most 50,000), as long as that
+ * cap does not bind. A stiff over-damped loop (a fast mode that dies within a sliver of a long
+ * window) breaks the cap: there the fast mode is resolved on ranges doubling from 1/|λfast| to
+ * 64/|λfast| (e^-64: gone), and the rest at the slow mode's density.
+ */
+function quadratureSegments(s: Linear2, t: number): readonly (readonly [number, number, number])[] {
+  const rate = Math.abs(s.a11) + Math.abs(s.a22) + Math.sqrt(Math.abs(det2(s)));
+  const panels = (len: number, density: number) => Math.min(50_000, Math.ceil(200 + 4 * len * density));
+  const m = (s.a11 + s.a22) / 2;
+  const q = m * m - det2(s);
+  if (4 * t * rate <= 50_000 - 200 || !(q > 0)) return [[0, t, panels(t, rate)]];
+  const fast = Math.abs(m - Math.sqrt(q));
+  const slow = Math.abs(m + Math.sqrt(q));
+  const out: [number, number, number][] = [];
+  let a = 0;
+  for (let b = 1 / fast; a < t; b *= 2) {
+    const end = b >= 64 / fast ? t : Math.min(b, t);
+    out.push([a, end, panels(end - a, end <= 64 / fast ? fast + slow : slow)]);
+    a = end;
+  }
+  return out;
 }

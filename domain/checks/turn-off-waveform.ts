@@ -20,16 +20,17 @@ export const TURN_OFF_WAVEFORM_POINTS = 200;
 /**
  * The turn-off event as time samples, from the same closed form as `turnOffEvent`
  * (domain/physics/rlc-series.ts: x(t) = xp + e^(At)·(x0 − xp), exact at every sample, no
- * integration): the conduction phase [0, end of the window] on the loop with the stage in it,
+ * integration): the conduction phase [0, end of the window] on the loop with the stage in it
+ * (for a stage that keeps conducting, on to the reverse peak where that comes later),
  * then — when the stage blocks with reverse current — the clamp phase on the loop with Vs + Vcl
  * as source, from the turn-off state until the current is back at zero. Each phase has `points`
  * evenly spaced samples including both ends, plus the extrema of the loop current inside it
  * (extremaTimes, so the first reverse peak is a sample, not an interpolation), the reported peak
- * time, the trip (detect) time and the turn-off instant. Outcomes without a loop response
- * (clamp-below-drive, invalid-load-line) have no waveform.
+ * time, the trip (detect) time, the turn-off instant and the window's end. Outcomes without a loop response
+ * (clamp-below-drive, invalid-load-line, unstable-loop) have no waveform.
  */
 export function turnOffWaveform(m: TurnOffModel, r: TurnOffOutcome, points = TURN_OFF_WAVEFORM_POINTS): TurnOffWaveform | undefined {
-  if (r.outcome === "clamp-below-drive" || r.outcome === "invalid-load-line") return undefined;
+  if (r.outcome === "clamp-below-drive" || r.outcome === "invalid-load-line" || r.outcome === "unstable-loop") return undefined;
   const n = Math.max(2, Math.floor(points));
   const line = loadLine(m.load, m.outputV);
   const loop: RlcLoop = {
@@ -43,8 +44,9 @@ export function turnOffWaveform(m: TurnOffModel, r: TurnOffOutcome, points = TUR
   };
   const s = loopSystem(loop);
   const x0: Vec2 = [r.initialCurrentA, m.outputV];
-  const endS = r.outcome === "blocks" ? r.turnOffS : r.end.timeS;
-  const extra = [r.peakReverseTimeS, ...(r.outcome === "blocks" && r.detectS !== undefined ? [r.detectS] : [])];
+  // A stage that keeps conducting: to the end of the window or the reverse peak past it, whichever is later.
+  const endS = r.outcome === "blocks" ? r.turnOffS : Math.max(r.end.timeS, r.peakReverseTimeS);
+  const extra = [r.peakReverseTimeS, ...(r.outcome === "blocks" ? (r.detectS !== undefined ? [r.detectS] : []) : [r.end.timeS])];
   const cols = { timeS: [] as number[], currentA: [] as number[], outputV: [] as number[], capacitorV: [] as number[] };
   const push = (p: RlcLoop, sys: Linear2, start: Vec2, offsetS: number, times: readonly number[]): void => {
     for (const t of times) {

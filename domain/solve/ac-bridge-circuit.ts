@@ -228,7 +228,12 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
       const plain = df !== 0 ? i - f / df : Number.NaN;
       let next = kneeStep(i, plain, lo);
       if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
-      if (Math.abs(next - i) <= tolI || hi - lo <= tolI) {
+      // Converged on a step below tolerance that is also small against the current itself: in
+      // the knee the first steps from zero are far below tolI (Is-sized), and stopping there
+      // left the stage's voltage equation volts from solved (a charge from nowhere at each
+      // onset: the element averages fell 0.1-0.9 % short of the load's).
+      const dI = Math.abs(next - i);
+      if ((dI <= tolI && dI <= 1e-6 * next) || hi - lo <= tolI) {
         i = next;
         break;
       }

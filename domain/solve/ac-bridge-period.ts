@@ -59,6 +59,11 @@ export interface PeriodOptions {
    * checking the closed form against the general path.
    */
   readonly generalOffInterval?: boolean;
+  /**
+   * Without inductance: relative tolerance of the line current's defect against currentScaleA
+   * (absent or 0: the current is not judged, only the voltage).
+   */
+  readonly currentRtol?: number;
 }
 
 /**
@@ -177,6 +182,18 @@ export function integratePeriod(
       continue;
     }
     let errNorm = 0;
+    // Without inductance the line current is algebraic (C·dv/dt plus the load), one order less
+    // accurate than the voltage, and the voltage's error does not bound it: where the loop
+    // resistance is small a volt-level error in the state is a large current error (a
+    // capacitor-input bridge with Rs -> 0 rang in its first conduction step, its peak 10 % high).
+    // Its error is judged on its own: the TR node's current against the straight line between
+    // the step's ends, (1 - g)*i0 + g*i1, a defect of g*(1 - g)*h^2*|i''|/2 on a smooth current
+    // (the interpolation remainder), large across a conduction edge that the step does not resolve.
+    let currentNorm = 0;
+    if (n === 1 && (opt.currentRtol ?? 0) > 0 && (s0.pair !== 0 || sg.pair !== 0 || s1.pair !== 0)) {
+      const defect = Math.abs(sg.capA - ((1 - GAMMA) * s0.capA + GAMMA * s1.capA));
+      currentNorm = defect / ((opt.currentRtol ?? 1) * opt.currentScaleA);
+    }
     // A step that ends blocked (or within the current tolerance of it) after an event step or
     // from a start already that close: the current's error is below its tolerance by bound.
     const ends = Math.abs(s1.lineA) <= tolA && (event || Math.abs(s0.lineA) <= tolA);
@@ -189,7 +206,7 @@ export function integratePeriod(
       const err = LTE_COEFF * h * h * h * 2 * Math.abs(dd);
       errNorm = Math.max(errNorm, err / (scale[j] ?? 1));
     }
-    if (errNorm <= 1 || h <= hMin * 4) {
+    if (Math.max(errNorm, currentNorm) <= 1 || h <= hMin * 4) {
       if (sens) {
         const a2 = BDF_COEFF * h;
         for (let k = 0; k < 4; k += 1) db1[k] = (dx[k] ?? 0) + a1 * (df[k] ?? 0);
@@ -213,8 +230,9 @@ export function integratePeriod(
     }
     // No growth right after a rejection (Hairer, Nørsett and Wanner, Solving ODEs I, §II.4:
     // facmax = 1 after a rejected step): the estimate is least reliable where it just failed.
-    const accepted = errNorm <= 1 || h <= hMin * 4;
-    const grow = errNorm > 0 ? 0.9 / Math.cbrt(errNorm) : 4;
+    const accepted = Math.max(errNorm, currentNorm) <= 1 || h <= hMin * 4;
+    // The voltage's error is third order in h, the current's defect second order.
+    const grow = Math.min(errNorm > 0 ? 0.9 / Math.cbrt(errNorm) : 4, currentNorm > 0 ? 0.9 / Math.sqrt(currentNorm) : 4);
     h = Math.min(hMax, h * Math.min(accepted && !rejectedLast ? 4 : 1, Math.max(0.2, grow)));
     rejectedLast = !accepted;
   }
@@ -359,9 +377,23 @@ function newAccumulators(): Acc {
 }
 
 function accumulate(acc: Acc, c: AcBridgeCircuit, s0: Snapshot, sg: Snapshot, s1: Snapshot, h: number): void {
+  const loadAs = acc.loadAs;
   accumulateNode(acc, c, s0, QUAD_W0 * h);
   accumulateNode(acc, c, sg, QUAD_WG * h);
   accumulateNode(acc, c, s1, QUAD_W1 * h);
+  // Without inductance the line current is C·d(capV)/dt plus the load current (Kirchhoff at the
+  // output), and the step's charge through the conducting pair is C·Δ(capV) plus the load's
+  // charge: exact for the step's own update (TR-BDF2 advances capV by h·Σ w·capA/C), where the
+  // quadrature of the algebraic current is one order less accurate and straddles the edges of
+  // conduction. The elements' averages then equal the load's to the periodicity residual.
+  if (c.leakageInductanceH > 0) return;
+  const pair = s0.pair !== 0 ? s0.pair : sg.pair !== 0 ? sg.pair : s1.pair;
+  if (pair === 0) return;
+  const base = pair > 0 ? 0 : 2;
+  const charge = c.capacitanceF * (s1.capV - s0.capV) + (acc.loadAs - loadAs);
+  const quad = QUAD_W0 * h * (s0.pair === pair ? Math.abs(s0.lineA) : 0) + QUAD_WG * h * (sg.pair === pair ? Math.abs(sg.lineA) : 0) + QUAD_W1 * h * (s1.pair === pair ? Math.abs(s1.lineA) : 0);
+  acc.elementAs[base] = (acc.elementAs[base] ?? 0) + charge - quad;
+  acc.elementAs[base + 1] = (acc.elementAs[base + 1] ?? 0) + charge - quad;
 }
 
 /** One quadrature node of weight w (plain scalar updates: this runs three times per step). */

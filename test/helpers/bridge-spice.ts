@@ -42,6 +42,8 @@ export interface SpiceBridgeResult {
   readonly elementRmsA: readonly number[];
   readonly elementLossW: readonly number[];
   readonly elementAverageA: readonly number[];
+  /** Largest forward current of each element over ngspice's own time points, A. */
+  readonly elementPeakA: readonly number[];
   readonly capacitorRmsA: number;
   readonly sourceRmsA: number;
 }
@@ -129,6 +131,7 @@ export function reduceBridgeRows(rows: readonly number[][], b: SpiceBridge): Spi
     rippleVpp: Math.max(...outs) - Math.min(...outs),
     elementRmsA: [1, 2, 3, 4].map((k) => Math.sqrt(integrate((r) => col(r, k) ** 2))),
     elementAverageA: [1, 2, 3, 4].map((k) => integrate((r) => col(r, k))),
+    elementPeakA: [1, 2, 3, 4].map((k) => Math.max(...rows.map((r) => col(r, k)))),
     elementLossW: [1, 2, 3, 4].map((k) => integrate((r) => (elementV[k - 1]?.(r) ?? 0) * col(r, k))),
     capacitorRmsA: Math.sqrt(integrate((r) => (col(r, 1) + col(r, 2) - vOut(r) / b.loadOhm) ** 2)),
     sourceRmsA: Math.sqrt(integrate((r) => col(r, 7) ** 2)),

@@ -1,10 +1,11 @@
 import { describe, expect, it } from "vitest";
 import { turnOffEvent } from "../../../domain/checks/turn-off-event.js";
+import { phaseEnergies } from "../../../domain/checks/turn-off-loop.js";
 import { extremaTimes, loopSystem, type RlcLoop, stateAt } from "../../../domain/physics/rlc-series.js";
 import { toolAvailable } from "../../helpers/external-tool.js";
 import { runNgspice } from "../../helpers/ngspice.js";
 import { relativeError } from "../../helpers/tolerance.js";
-import { lowSideStage, pfetStage, schottkyStage, turnOffFixture } from "../../fixtures/reverse-stages.js";
+import { lowSideStage, pfetStage, pnStage, schottkyStage, turnOffFixture } from "../../fixtures/reverse-stages.js";
 
 /**
  * Independent oracle: classical RK4 on the raw circuit (KCL at the output node solved for v_out
@@ -130,6 +131,62 @@ describe("turn-off event", () => {
     // Source: energy conservation (0.1 %) up to the time the output reaches its minimum.
     expect(Math.abs(r.energies.balanceResidual)).toBeLessThan(1e-3);
     expect(r.end.outputV).toBeCloseTo(9, 6);
+  });
+
+  // Source: independent RK4 of the same loop over twice the span: the stage keeps conducting
+  // after the output falls below the load's minimum, so the reverse current is followed until it
+  // turns (it was reported at the window's end while still rising, and charted as the peak).
+  it("P-FET does not block: the reverse peak is the current's maximum, past the end of the window", () => {
+    const m = { ...event, stage: pfetStage, capacitanceF: 2200e-6, loopInductanceH: 2e-6 };
+    const r = turnOffEvent(m);
+    if (r.outcome !== "does-not-block") throw new Error(r.outcome);
+    expect(r.peakReverseTimeS).toBeGreaterThan(r.end.timeS);
+    expect(r.peakReverseCurrentA).toBeGreaterThan(-r.end.currentA);
+    expect(r.peakReverseIsLowerBound).toBeUndefined();
+    const p: RlcLoop = { sourceV: 0, loopResistanceOhm: r.loop.totalResistanceOhm, inductanceH: m.loopInductanceH, capacitanceF: m.capacitanceF, esrOhm: m.esrOhm, loadCurrentA: 2, loadConductanceS: 0 };
+    const rows = rk4Loop(p, [r.initialCurrentA, m.outputV], 2 * r.peakReverseTimeS, 40_000);
+    const best = rows.reduce((a, b) => (-b.i > -a.i ? b : a));
+    expect(relativeError(r.peakReverseCurrentA, -best.i)).toBeLessThan(1e-6);
+    expect(Math.abs(r.peakReverseTimeS - best.t)).toBeLessThan(1e-3 * r.peakReverseTimeS);
+  });
+
+  // Source: a series R-L-C with a negative conductance G = −P/V² across C (the constant-power
+  // load's tangent) has trace A = −(R + ESR')/L − G'/C: negative damping where P/V² > C·(R + ESR)/L
+  // (the negative-resistance oscillator; common practice for a converter behind an input L-C).
+  // Checked by an independent RK4 of the same linear loop: the oscillation grows.
+  it("constant-power load with negative damping: the unstable loop is its own outcome, every number finite", () => {
+    const m = { ...event, stage: pfetStage, loopResistanceOhm: 0.001, esrOhm: 0.001, capacitanceF: 10e-6, loopInductanceH: 10e-6, load: { kind: "constant-power" as const, powerW: 100, minVoltageV: 6 } };
+    // P/V² = 0.69 S against C·(R + ESR)/L = 0.0025 S (+ the stage's Rds(on)): negative damping.
+    const r = turnOffEvent(m);
+    if (r.outcome !== "unstable-loop") throw new Error(r.outcome);
+    expect(r.mode).toBe("oscillation-grows");
+    expect(r.dampingRatio).toBeLessThan(0);
+    expect(r.growthPerS).toBeGreaterThan(0);
+    expect(r.loadIncrementalResistanceOhm).toBeCloseTo(-(12 * 12) / 100, 12);
+    expect(JSON.stringify(r)).not.toMatch(/null|NaN|Infinity/);
+    const g = -100 / 144;
+    const p: RlcLoop = { sourceV: 0, loopResistanceOhm: 0.001 + 0.012, inductanceH: 10e-6, capacitanceF: 10e-6, esrOhm: 0.001, loadCurrentA: 200 / 12, loadConductanceS: g };
+    const rows = rk4Loop(p, [100 / 12, 12], 20 / r.growthPerS, 40_000);
+    const early = Math.max(...rows.slice(0, 2000).map((x) => Math.abs(x.i)));
+    const late = Math.max(...rows.slice(-2000).map((x) => Math.abs(x.i)));
+    expect(late).toBeGreaterThan(1e3 * early);
+    // R·P/V² ≥ 1: a real growing mode.
+    const d = turnOffEvent({ ...m, loopResistanceOhm: 2, esrOhm: 0, load: { kind: "constant-power", powerW: 100, minVoltageV: 6 } });
+    if (d.outcome !== "unstable-loop") throw new Error(d.outcome);
+    expect(d.mode).toBe("diverges");
+  });
+
+  it("a turn-off at zero current has no clamp phase, and a zero-length window a meaningful balance", () => {
+    // A diode that recovers at its zero crossing (no Qrr): the current at turn-off is rounding.
+    const r = turnOffEvent({ ...event, stage: pnStage, loopResistanceOhm: 0, esrOhm: 0, load: { kind: "resistive", resistanceOhm: 1 }, outputV: 1, capacitanceF: 0.1, loopInductanceH: 1.136e-4 });
+    if (r.outcome !== "blocks") throw new Error(r.outcome);
+    expect(r.clamp).toBeUndefined();
+    expect(Math.abs(r.energies.balanceResidual)).toBeLessThan(1e-6);
+    // A window of zero length (a stage that turns off at t = 0) exchanges nothing: the residual
+    // is rounding against the stored energy (it was 1: 2.7e-18 J of rounding against itself).
+    const p: RlcLoop = { ...base, loopResistanceOhm: 1, esrOhm: 1, capacitanceF: 0.012, inductanceH: 1e-3, loadCurrentA: 1 };
+    const e = phaseEnergies(p, [1, 0.9999999999999998], 0, 0);
+    expect(Math.abs(e.balanceResidual)).toBeLessThan(1e-9);
   });
 
   it("low-side N-FET: a hard short removes its gate drive (blocks); a lower input keeps it on", () => {

@@ -39,14 +39,17 @@ describe("turn-off waveform", () => {
     expect(w.capacitorV.at(-1)).toBeCloseTo(r.clamp.after.capacitorV, 12);
   });
 
-  it("does not block: the window runs to the load minimum, with the peak a sample", () => {
+  it("does not block: the window's end (the load minimum) and the peak are samples", () => {
     const m = { ...event, stage: pfetStage, load: { kind: "resistive" as const, resistanceOhm: 6 } };
     const r = turnOffEvent(m);
     const w = turnOffWaveform(m, r);
     if (r.outcome !== "does-not-block" || w === undefined) throw new Error(r.outcome);
     expect(w.clampStartIndex).toBeUndefined();
     expect(Math.max(...w.currentA.map((i) => -i))).toBe(r.peakReverseCurrentA);
-    expect(w.outputV.at(-1)).toBeCloseTo(9, 6);
+    const end = w.timeS.indexOf(r.end.timeS);
+    expect(end).toBeGreaterThanOrEqual(0);
+    expect(w.outputV[end]).toBeCloseTo(9, 6);
+    expect(w.timeS.at(-1)).toBe(Math.max(r.end.timeS, r.peakReverseTimeS));
     // Source: the reverse current's first extremum is a sample (extremaTimes of the closed form):
     // no sample beats the reported peak and the one at the peak time equals it.
     const at = w.timeS.indexOf(r.peakReverseTimeS);
