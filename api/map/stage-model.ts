@@ -10,7 +10,7 @@ import { fitRdsTempCurve } from "./rds-temp-curve.js";
 type MosfetSpec = Extract<StageSpec, { mosfet: unknown }>["mosfet"];
 type TempLawSpec = NonNullable<MosfetSpec["rdsOnTemp"]>;
 
-/** Default Rds(on) temperature exponent [common practice; REFERENCES.md, mobility exponents 2.2-2.33]. */
+/** Default Rds(on) temperature exponent [common practice; docs/references.md, mobility exponents 2.2-2.33]. */
 export const DEFAULT_RDS_EXPONENT = 2.3;
 
 /** Contract stage → domain stage model; records every default it applies in `assumptions`. */

@@ -2,7 +2,7 @@
  * A clamp (TVS) fed by an exponentially decaying transient through the source resistance:
  *   Voc(t) = Ub + A·e^(−t/τ),  clamped at Vc, B = Vc − Ub (0 < B < A),
  *   Ipk = (A − B)/Ri,  tc = τ·ln(A/B),  Q = (τ/Ri)·(A − B − B·ln(A/B)),  E = Vc·Q.
- * Derivation in REFERENCES.md (integrate i(t) = (Voc(t) − Vc)/Ri while it is positive); the test
+ * Derivation in docs/references.md (integrate i(t) = (Voc(t) − Vc)/Ri while it is positive); the test
  * checks it against numerical integration.
  */
 export interface ExponentialPulse {

@@ -1,5 +1,5 @@
 /**
- * Transient thermal impedance as a Foster network (JEDEC JESD51-14 practice; REFERENCES.md):
+ * Transient thermal impedance as a Foster network (JEDEC JESD51-14 practice; docs/references.md):
  *   Zth(t) = Σ Ri·(1 − exp(−t/τi)),  τi = Ri·Ci,
  * with superposition for a pulse train: ΔTj(t) = Σk Pk·[Zth(t − tk,start) − Zth(t − tk,end)].
  */

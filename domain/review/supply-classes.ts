@@ -1,7 +1,7 @@
 /**
  * Built-in supply classes. Each value says where it comes from: a standard's clause ("S"), or
  * "memory" where it was written from general knowledge and must be confirmed before it is relied
- * on (REFERENCES.md). Every value can be overridden in the requirement.
+ * on (docs/references.md). Every value can be overridden in the requirement.
  */
 export interface SupplyClass {
   readonly id: string;
@@ -19,7 +19,7 @@ export interface SupplyClass {
   readonly source: string;
 }
 
-const iso = "ISO 16750-2, supply voltage codes (REFERENCES.md [S])";
+const iso = "ISO 16750-2, supply voltage codes (docs/references.md [S])";
 const isoRev12 = "reversed voltage −14 V for 60 s, ISO 16750-2 clause 4.7 (memory)";
 const isoRev24 = "reversed voltage −28 V for 60 s, ISO 16750-2 clause 4.7 (memory)";
 const nominal12 = "nominal 13.5 V with the generator running (memory)";
@@ -98,7 +98,7 @@ export const SUPPLY_CLASSES: readonly SupplyClass[] = [
       reverseV: 57,
       reverseDurationS: 3600,
       transients: [],
-      source: "IEEE 802.3 PD input ranges (REFERENCES.md, secondary tables [S]); nominal 50 V (memory); the PD must accept either polarity (clause 33.3.1), so reverse = the full range reversed",
+      source: "IEEE 802.3 PD input ranges (docs/references.md, secondary tables [S]); nominal 50 V (memory); the PD must accept either polarity (clause 33.3.1), so reverse = the full range reversed",
     }),
   ),
 ];

@@ -1,7 +1,7 @@
 /**
  * Built-in transient pulses: an exponential open-circuit voltage Voc(t) = baseV + amplitudeV·e^(−t/τ)
  * behind a source resistance (negative pulses: amplitudeV < 0), or a level clamped centrally.
- * decayS follows the "to-10-percent" convention (τ = td/ln 10) unless stated (REFERENCES.md [M]).
+ * decayS follows the "to-10-percent" convention (τ = td/ln 10) unless stated (docs/references.md [M]).
  * Every value names its source: the standard, or "memory" to be confirmed against it.
  */
 export interface TransientPulse {
@@ -41,7 +41,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 3e-6,
     decayS: 1e-3,
     decayConvention: "to-10-percent",
-    source: "ISO 7637-2 pulse 1, 24 V: up to −600 V, Ri 50 Ω, td 1 ms, tr 3 µs (REFERENCES.md [S]); base 0 V (memory)",
+    source: "ISO 7637-2 pulse 1, 24 V: up to −600 V, Ri 50 Ω, td 1 ms, tr 3 µs (docs/references.md [S]); base 0 V (memory)",
   },
   {
     id: "iso7637-2-pulse-2a",
@@ -52,7 +52,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 1e-6,
     decayS: 50e-6,
     decayConvention: "to-10-percent",
-    source: "ISO 7637-2 pulse 2a: +37 to +112 V, Ri 2 Ω, td 50 µs, tr 1 µs (REFERENCES.md [S]); riding on the nominal supply (memory)",
+    source: "ISO 7637-2 pulse 2a: +37 to +112 V, Ri 2 Ω, td 50 µs, tr 1 µs (docs/references.md [S]); riding on the nominal supply (memory)",
   },
   {
     id: "iso7637-2-pulse-3a",
@@ -63,7 +63,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 5e-9,
     decayS: 0.1e-6,
     decayConvention: "to-10-percent",
-    source: "ISO 7637-2 pulses 3a/3b: ±(75–220) V class levels, Ri 50 Ω, td 0.1 µs, tr 5 ns (REFERENCES.md [S/M])",
+    source: "ISO 7637-2 pulses 3a/3b: ±(75–220) V class levels, Ri 50 Ω, td 0.1 µs, tr 5 ns (docs/references.md [S/M])",
   },
   {
     id: "iso16750-2-load-dump-a-12v",
@@ -74,7 +74,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 10e-3,
     decayS: 400e-3,
     decayConvention: "to-10-percent",
-    source: "ISO 16750-2 test A, 12 V: Us 79–101 V, Ri 0.5–4 Ω, td 40–400 ms, tr 10 ms, higher Us with higher Ri (REFERENCES.md [S]); the severe corner chosen and Us read as the peak including the 13.5 V supply (memory)",
+    source: "ISO 16750-2 test A, 12 V: Us 79–101 V, Ri 0.5–4 Ω, td 40–400 ms, tr 10 ms, higher Us with higher Ri (docs/references.md [S]); the severe corner chosen and Us read as the peak including the 13.5 V supply (memory)",
   },
   {
     id: "iso16750-2-load-dump-a-24v",
@@ -85,7 +85,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 10e-3,
     decayS: 350e-3,
     decayConvention: "to-10-percent",
-    source: "ISO 16750-2 test A, 24 V: Us 151–202 V, Ri 1–8 Ω, td 100–350 ms (REFERENCES.md [S]); corner and peak reading as for 12 V (memory)",
+    source: "ISO 16750-2 test A, 24 V: Us 151–202 V, Ri 1–8 Ω, td 100–350 ms (docs/references.md [S]); corner and peak reading as for 12 V (memory)",
   },
   {
     id: "iso16750-2-load-dump-b-12v",
@@ -97,7 +97,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     decayS: 400e-3,
     decayConvention: "to-10-percent",
     clampedAtV: 35,
-    source: "ISO 16750-2 test B, 12 V: clamped to 35 V (REFERENCES.md [S])",
+    source: "ISO 16750-2 test B, 12 V: clamped to 35 V (docs/references.md [S])",
   },
   {
     id: "iso16750-2-load-dump-b-24v",
@@ -109,7 +109,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     decayS: 350e-3,
     decayConvention: "to-10-percent",
     clampedAtV: 58,
-    source: "ISO 16750-2 test B, 24 V: clamped to about 58 V (REFERENCES.md [S])",
+    source: "ISO 16750-2 test B, 24 V: clamped to about 58 V (docs/references.md [S])",
   },
 ];
 

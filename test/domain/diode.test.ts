@@ -33,7 +33,7 @@ function newtonCurrent(p: DiodeParams, v: number, tK: number): number {
 
 describe("diode with series resistance", () => {
   // Source: T. C. Banwell and A. Jayakumar, Electronics Letters 36(4), 2000, worked example
-  // (Is = 25 fA, n = 1, Rs = 0.3 ohm, 300 K); values recomputed in REFERENCES.md [C].
+  // (Is = 25 fA, n = 1, Rs = 0.3 ohm, 300 K); values recomputed in docs/references.md [C].
   it("reproduces the Banwell-Jayakumar example", () => {
     expect(diodeCurrentA(banwell, 0.8, 300) * 1e3).toBeCloseTo(138.242, 2);
     expect(diodeCurrentA(banwell, 1.0, 300) * 1e3).toBeCloseTo(669.029, 2);

@@ -59,7 +59,7 @@ describe("electrothermal fixed point", () => {
     expect(relativeError(p.forward.dropV, 0.1)).toBeLessThan(1e-6);
   });
 
-  // Closed form (REFERENCES.md, self-heating with a linear coefficient a, checkable by substitution):
+  // Closed form (docs/references.md, self-heating with a linear coefficient a, checkable by substitution):
   // Tj = (Ta + I²·R25·Rth·(1 − 25·a)) / (1 − I²·R25·Rth·a).
   it("matches the linear-coefficient self-heating closed form", () => {
     const a = 0.006;

@@ -53,7 +53,7 @@ export interface SpiceBridgeResult {
  * its loss is the element voltage times that current. An active element is a voltage-controlled
  * switch driven by its own forward voltage (on above 1 mV, off below 0 V: an ideal diode with
  * on-resistance RON) in parallel with the body diode. The floating source is tied to ground by
- * 10 MΩ per line so the matrix is solvable (30 V / 10 MΩ = 3 µA, below the resolution of the checks) (REFERENCES.md, general-purpose oracle).
+ * 10 MΩ per line so the matrix is solvable (30 V / 10 MΩ = 3 µA, below the resolution of the checks) (docs/references.md, general-purpose oracle).
  */
 export function bridgeNetlist(b: SpiceBridge): string {
   const d = b.diode;

@@ -143,7 +143,7 @@ describe("AC bridge against Schade's capacitor-input rectifier curves", () => {
   // Source: derivation [C] for C → ∞ (pure DC output V = Vp·cos α, conduction half-angle α):
   // averaging the source current over a half period gives tan α − α = π·Rs/(2·RL) (full wave),
   // the asymptote Schade's curves approach at large ω·C·RL; and the textbook Vdc ≈ Vp − Vr/2 with
-  // Vr = Idc/(2fC) (Sedra & Smith, REFERENCES.md) for small Rs.
+  // Vr = Idc/(2fC) (Sedra & Smith, docs/references.md) for small Rs.
   it("approaches the C → ∞ closed form tan α − α = π·Rs/(2·RL) and the textbook Vp − Vr/2", () => {
     for (const rsOverRl of [0.01, 0.1]) {
       let lo = 0;

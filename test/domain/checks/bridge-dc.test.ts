@@ -58,7 +58,7 @@ describe("DC bridge, either polarity", () => {
     expect(a?.tjC).not.toBeCloseTo(b?.tjC ?? 0, 1);
   });
 
-  // Source: closed form for a channel with a power-law Rds(on) (REFERENCES.md MOSFET): Tj solves
+  // Source: closed form for a channel with a power-law Rds(on) (docs/references.md MOSFET): Tj solves
   // Tj = Ta + I²·R25·(Tj/298.15)^α·Rth; checked by substitution.
   it("active bridge: I²·Rds(on)(Tj) per element, far below the diode bridge", () => {
     const i = 2;

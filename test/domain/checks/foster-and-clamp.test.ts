@@ -11,7 +11,7 @@ const net = [
 
 describe("Foster network", () => {
   // Closed form: a single rectangular pulse P from 0 gives ΔTj(t) = P·Zth(t) while on and
-  // P·(Zth(t) − Zth(t − tp)) after, Zth(t) = Σ Ri(1 − e^(−t/τi)) (REFERENCES.md, JESD51-14 practice).
+  // P·(Zth(t) − Zth(t − tp)) after, Zth(t) = Σ Ri(1 − e^(−t/τi)) (docs/references.md, JESD51-14 practice).
   it("single pulse equals the closed form, and stepping reproduces it", () => {
     const p = 5;
     const tp = 0.2;
@@ -44,7 +44,7 @@ describe("Foster network", () => {
 });
 
 describe("clamp energy for an exponentially decaying source", () => {
-  // Check: the closed form (REFERENCES.md derivation) against direct numerical integration of
+  // Check: the closed form (docs/references.md derivation) against direct numerical integration of
   // i(t) = max(0, (Ub + A·e^(−t/τ) − Vc)/Ri) and E = ∫ Vc·i dt (composite Simpson, 200 000 panels).
   it.each([
     { baseV: 13.5, amplitudeV: 87.5, tauS: 0.4 / Math.LN10, sourceResistanceOhm: 4, clampV: 33 },
@@ -72,7 +72,7 @@ describe("clamp energy for an exponentially decaying source", () => {
     expect(clampExponential({ baseV: 13.5, amplitudeV: 20, tauS: 0.1, sourceResistanceOhm: 1 }, 12).conducts).toBe("always");
   });
 
-  // Convention (REFERENCES.md, memory): td to 10 % of the peak means τ = td/ln 10.
+  // Convention (docs/references.md, memory): td to 10 % of the peak means τ = td/ln 10.
   it("reads td as the time to 10 %", () => {
     expect(Math.exp(-0.4 / tauFromDecay(0.4, "to-10-percent"))).toBeCloseTo(0.1, 12);
   });

@@ -14,7 +14,7 @@ const schottky: StageModel = { kind: "schottky-diode", diode: schottkyDiode, rev
 
 describe("steady reverse polarity", () => {
   // Closed form: d ln Is/dT = XTI/(n·T) + Eg·q/(n·k·T²) for the SPICE Is(T) law, so the leakage
-  // doubles every ln 2 / (that) kelvin (REFERENCES.md: about 8 K near room temperature for 0.6 eV).
+  // doubles every ln 2 / (that) kelvin (docs/references.md: about 8 K near room temperature for 0.6 eV).
   it("Schottky leakage doubles at the interval the Is(T) law predicts", () => {
     const t = cToK(85);
     const n = schottkyDiode.ideality;
@@ -54,7 +54,7 @@ describe("transients", () => {
     expect(r.clamp.clampMaxV).toBeCloseTo(45 * 0.8 - 13.5, 9);
     expect(r.clamp.standoffMinV).toBe(14);
     if (r.clamp.atClampMax.conducts !== true) throw new Error("conducts");
-    // Ipk = (|Us| − Vc)/Ri with the pulse riding on 0 V (REFERENCES.md).
+    // Ipk = (|Us| − Vc)/Ri with the pulse riding on 0 V (docs/references.md).
     expect(r.clamp.atClampMax.peakCurrentA).toBeCloseTo((150 - 22.5) / 10, 9);
   });
 

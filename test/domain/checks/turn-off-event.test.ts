@@ -105,7 +105,7 @@ describe("turn-off event", () => {
     // Source: the controller model itself: Rds(on) 5 mΩ at 10 V → trip at 0.03/0.005 = 6 A.
     const detect = r.detectS ?? 0;
     expect(r.turnOffS - detect).toBeCloseTo(2e-6, 12);
-    // Source: di/dt = ΔV/L at the start (REFERENCES.md, turn-off): −(12 + 2·0.015)/1 µH.
+    // Source: di/dt = ΔV/L at the start (docs/references.md, turn-off): −(12 + 2·0.015)/1 µH.
     expect(relativeError(r.initialSlopeAPerS, -(12 + 2 * 0.015) / 1e-6)).toBeLessThan(1e-9);
     // Source: energy conservation over the conduction phase and over the clamp phase, 0.1 %.
     expect(Math.abs(r.energies.balanceResidual)).toBeLessThan(1e-3);
@@ -114,7 +114,7 @@ describe("turn-off event", () => {
     expect(r.clamp.withinAvalancheRating).toBe(r.clamp.absorbedJ <= 0.05);
   });
 
-  // Source: REFERENCES.md, E = ½·L·I²·Vcl/(Vcl − Vs) (unclamped inductive switching), which the
+  // Source: docs/references.md, E = ½·L·I²·Vcl/(Vcl − Vs) (unclamped inductive switching), which the
   // exact clamp phase approaches when R → 0 and C is large (the drive voltage stays constant).
   it("exact clamp energy approaches the clamped-inductance formula for a stiff output", () => {
     const r = turnOffEvent({ ...event, loopResistanceOhm: 1e-6, esrOhm: 1e-6, capacitanceF: 1 });

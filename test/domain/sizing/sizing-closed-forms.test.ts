@@ -28,7 +28,7 @@ function context(raw: unknown, stage: StageModel, turnOff?: TurnOffRequest, spec
 const fixed12 = { supply: { class: "custom", minV: 12, nominalV: 12, maxV: 12 }, loadLevels: [1], transients: [], reverse: { voltageV: 12, durationS: 60 } };
 
 describe("largest Rds(on): closed form of the self-heating equation", () => {
-  // Closed form (REFERENCES.md, linear coefficient a): Tj = (Ta + I²·R25·Rth·(1 − 25a)) / (1 − I²·R25·Rth·a).
+  // Closed form (docs/references.md, linear coefficient a): Tj = (Ta + I²·R25·Rth·(1 − 25a)) / (1 − I²·R25·Rth·a).
   // Solved for R25 at Tj = the rule's limit: R25 = (Tj − Ta) / (I²·Rth·(1 + a·(Tj − 25))).
   it.each([
     { a: 0.005, rth: 30, ta: 85, i: 10 },
