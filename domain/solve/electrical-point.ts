@@ -11,6 +11,8 @@ export interface CircuitModel {
   /** Source and wiring resistance in series with the supply, ohm. */
   readonly sourceResistanceOhm: number;
   readonly load: LoadModel;
+  /** Whether the stage's control runs, fixed for the solve (absent: from its input voltage at each trial current). */
+  readonly running?: boolean;
 }
 
 export interface ElectricalPoint {
@@ -92,7 +94,7 @@ export function solveElectrical(c: CircuitModel, tK: number): ElectricalOutcome 
 /** The circuit at a load current: the source drop sets the stage's input, the stage its drop. */
 function pointAt(c: CircuitModel, iq: number, currentA: number, tK: number): ElectricalPoint {
   const stageInputV = c.supplyV - (currentA + iq) * c.sourceResistanceOhm;
-  const forward = stageForward(c.stage, currentA, tK, stageInputV);
+  const forward = stageForward(c.stage, currentA, tK, stageInputV, c.running);
   return { currentA, sourceCurrentA: currentA + iq, stageInputV, loadV: stageInputV - forward.dropV, forward };
 }
 

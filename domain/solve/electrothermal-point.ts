@@ -1,5 +1,5 @@
 import { kToC } from "../physics/constants.js";
-import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
+import { type StageModel, stageStartV, stageTjMaxC } from "../stages/stage-model.js";
 import { type CircuitModel, type ElectricalOutcome, type ElectricalPoint, fmt, solveElectrical } from "./electrical-point.js";
 import { thermalFixedPoint } from "./thermal-fixed-point.js";
 
@@ -58,7 +58,27 @@ export function solveThermalPoint(m: OperatingPointModel): OperatingPointOutcome
   return solve(m, false);
 }
 
+/**
+ * A stage with a start voltage (a controller, an integrated switch): its control runs from that
+ * voltage at its input, and the current it then lets through lowers the input by I·Rs. The state
+ * of the control is settled once for the circuit: running where the running point keeps its own
+ * input at or above the start voltage, else below start (body diode or off). Left to each trial
+ * current, the mode flipped back and forth with the supply near the threshold, and the thermal
+ * root sat on the jump between two losses (Tj off Ta + Rth·P by tenths of a kelvin). Near the
+ * threshold a real controller may chatter; the point below start, the lossier one, is reported.
+ */
 function solve(m: OperatingPointModel, probeGain: boolean): OperatingPointOutcome<ThermalPoint> {
+  const startV = stageStartV(m.stage);
+  if (startV === undefined || m.running !== undefined) return solveWithControl(m, probeGain);
+  const on = solveWithControl({ ...m, running: true }, probeGain);
+  if ("point" in on && on.point.stageInputV >= startV) return on;
+  const below = solveWithControl({ ...m, running: false }, probeGain);
+  if ("point" in on) return below;
+  // running has no point (runaway, collapse): it stands unless the control never starts
+  return "point" in below && below.point.stageInputV < startV ? below : on;
+}
+
+function solveWithControl(m: OperatingPointModel, probeGain: boolean): OperatingPointOutcome<ThermalPoint> {
   const tjMaxC = stageTjMaxC(m.stage);
   // The search evaluates the root itself (then, when asked, probes +0.01 K for the loop gain):
   // keep the circuit solved at the root, the last or the second-to-last solve, in two slots.

@@ -6,8 +6,10 @@ import type { StageModel } from "./stage-model.js";
 /**
  * Forward state of any stage carrying currentA ≥ 0 at junction temperature tK, with inputV the
  * voltage at the stage's input terminal (it sets the gate drive and whether a controller runs).
+ * `running` fixes whether the control runs (a caller that has settled it for the whole circuit,
+ * electrical-point.ts); absent, it runs from its start voltage up.
  */
-export function stageForward(stage: StageModel, currentA: number, tK: number, inputV: number): ForwardState {
+export function stageForward(stage: StageModel, currentA: number, tK: number, inputV: number, running?: boolean): ForwardState {
   switch (stage.kind) {
     case "pn-diode":
     case "schottky-diode":
@@ -50,14 +52,14 @@ export function stageForward(stage: StageModel, currentA: number, tK: number, in
     }
     case "nfet-ideal-diode": {
       const c = stage.controller;
-      if (inputV < c.startV) return junctionState(stage.mosfet.bodyDiode, currentA, tK, "body-diode");
+      if (!(running ?? inputV >= c.startV)) return junctionState(stage.mosfet.bodyDiode, currentA, tK, "body-diode");
       const at = mosfetAt(stage.mosfet.channel, stage.mosfet.bodyDiode, tK);
       const on = mosfetForwardAt(stage.mosfet.channel, at, gateDriveAt(c, inputV), currentA, c.regulatedDropV);
       if (c.gateReleaseFraction <= 0) return on;
       return blendWithBodyDiode(on, junctionStateAt(at.bodyDiode, currentA, "body-diode"), c.gateReleaseFraction);
     }
     case "integrated-switch": {
-      if (inputV < stage.startV) {
+      if (!(running ?? inputV >= stage.startV)) {
         if (stage.belowStart.mode === "blocks") {
           return { mode: "off", dropV: 0, lossW: 0, channelCurrentA: 0, bodyDiodeCurrentA: 0, bodyDiodeTimeFraction: 0 };
         }

@@ -122,6 +122,21 @@ export function stageTjMaxC(stage: StageModel): number {
   }
 }
 
+/** Input voltage from which the stage's control runs (undefined: a stage without one), V. */
+export function stageStartV(stage: StageModel): number | undefined {
+  switch (stage.kind) {
+    case "nfet-ideal-diode":
+      return stage.controller.startV;
+    case "integrated-switch":
+      return stage.startV;
+    case "pn-diode":
+    case "schottky-diode":
+    case "pfet-high-side":
+    case "nfet-low-side":
+      return undefined;
+  }
+}
+
 /** Quiescent current drawn from the input to ground by the stage's control, A. */
 export function stageQuiescentA(stage: StageModel): number {
   switch (stage.kind) {
