@@ -210,7 +210,8 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   const cch = loopCharacter(sc);
   const ramp = (m.loopInductanceH * -xOff[0]) / (clampV - driveV);
   const end = firstCrossing(sc, xOff, [1, 0], 0, Math.max(50 * ramp, cch.decayPerS > 0 ? 60 / cch.decayPerS : 50 * ramp)) ?? 0;
-  const energies = phaseEnergies(clampLoop, xOff, end, clampV);
+  const eventStoredJ = 0.5 * m.capacitanceF * m.outputV * m.outputV + 0.5 * m.loopInductanceH * i0 * i0;
+  const energies = phaseEnergies(clampLoop, xOff, end, clampV, eventStoredJ);
   const inductiveEnergyJ = 0.5 * m.loopInductanceH * xOff[0] * xOff[0];
   const absorbedJ = energies.clampJ;
   const clamp: ClampPhase = {

@@ -69,7 +69,11 @@ export interface PhaseEnergies {
   readonly balanceResidual: number;
 }
 
-export function phaseEnergies(p: RlcLoop, x0: Vec2, t: number, clampV: number): PhaseEnergies {
+/**
+ * The energies of one phase of the loop from state x0 over [0, t]. `eventStoredJ` is the energy the
+ * whole event started with (default: this phase's own start): the residual's floor is 1e-9 of it.
+ */
+export function phaseEnergies(p: RlcLoop, x0: Vec2, t: number, clampV: number, eventStoredJ = 0): PhaseEnergies {
   const s = loopSystem(p);
   const x = stateAt(s, x0, t);
   const q = stateIntegral(s, x0, t);
@@ -95,9 +99,11 @@ export function phaseEnergies(p: RlcLoop, x0: Vec2, t: number, clampV: number): 
   const lost = capacitorLostJ + inductorLostJ + sourceDeliveredJ;
   const used = loopResistanceJ + esrJ + loadJ + clampJ;
   // Relative to the energies exchanged, and to no less than 1e-9 of the energy stored at the
-  // start: a phase of zero length (or one at rounding level) exchanges only the rounding of
-  // ½·C·V², and a residual relative to that alone would be 1 or 1e20, meaning nothing.
-  const stored = 0.5 * p.capacitanceF * x0[1] * x0[1] + 0.5 * p.inductanceH * x0[0] * x0[0];
+  // start (of the event, where a later phase is given it): a phase of zero length, or a clamp
+  // phase of a current at rounding level (1e-16 J of a 1e-4 J event), exchanges only the rounding
+  // of ½·C·V² and of its end's location, and a residual relative to that alone would be 1e-2 to
+  // 1e20, meaning nothing for the event.
+  const stored = Math.max(0.5 * p.capacitanceF * x0[1] * x0[1] + 0.5 * p.inductanceH * x0[0] * x0[0], eventStoredJ);
   const scale = Math.max(Math.abs(capacitorLostJ) + Math.abs(inductorLostJ) + Math.abs(sourceDeliveredJ), 1e-9 * stored, 1e-300);
   return { capacitorLostJ, inductorLostJ, sourceDeliveredJ, loopResistanceJ, esrJ, loadJ, clampJ, balanceResidual: (lost - used) / scale };
 }

@@ -79,7 +79,7 @@ describe("every numeric field of the falling-input analyses is finite", () => {
         expect(Math.abs(r.clamp?.energies.balanceResidual ?? 0), JSON.stringify(input)).toBeLessThan(1e-3);
         expect(r.clamp?.absorbedJ ?? 0, JSON.stringify(input)).toBeGreaterThanOrEqual(0);
       }),
-      { numRuns: 150, seed: 20261203 },
+      { numRuns: 150, seed: 20261203, endOnFailure: true },
     );
   }, 120_000);
 
@@ -101,7 +101,7 @@ describe("every numeric field of the falling-input analyses is finite", () => {
         expect(out.ok ? [] : [JSON.stringify(out.error)]).toEqual([]);
         expect(nonFinite(out.result), JSON.stringify(input)).toEqual([]);
       }),
-      { numRuns: 50, seed: 20261203 },
+      { numRuns: 50, seed: 20261203, endOnFailure: true },
     );
   }, 120_000);
 });
