@@ -28,7 +28,7 @@ const idealDiode = { stage: { kind: "catalog-part", partId: "demo-ideal-diode-60
 const pfet = { stage: { kind: "catalog-part", partId: "demo-pfet-40v-12mohm" } };
 
 describe("design review", () => {
-  // Common practice (DOMAIN.md): a Schottky drops about 0.5 V at 10 A, several watts; an ideal
+  // Common practice (docs/references.md, facts of the trade): a Schottky drops about 0.5 V at 10 A, several watts; an ideal
   // diode of a few milliohms dissipates a few hundred milliwatts.
   it("a Schottky fails on loss at 10 A where an ideal-diode stage passes", async () => {
     const r = await call({ requirement: { ...base, lossBudgetW: 2 }, candidates: [schottky, idealDiode] });

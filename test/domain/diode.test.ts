@@ -132,7 +132,7 @@ describe("diode fit from datasheet points", () => {
 describe("linear forward-voltage temperature coefficient", () => {
   const tc = -0.002;
   const d: DiodeParams = { saturationCurrentA: 1e-9, ideality: 1.8, seriesResistanceOhm: 0.02, energyGapEv: 1.11, saturationTempExponent: 3, nominalTempK: cToK(25), linearTempCoVPerK: tc };
-  // By construction (DOMAIN.md: "or a linear Vf temperature coefficient, about −2 mV/K, memory"):
+  // By construction (docs/references.md, Diodes: a linear Vf temperature coefficient of about −2 mV/K):
   // at a current far above Is the curve shifts by tc·(T − T0), and I(V) stays its exact inverse.
   it("shifts the forward voltage by tc·ΔT at constant current", () => {
     for (const i of [0.01, 1, 5]) {

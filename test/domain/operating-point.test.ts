@@ -14,7 +14,7 @@ function solved(r: ReturnType<typeof solveOperatingPoint>) {
   return r.point;
 }
 
-describe("facts of the trade (common practice, DOMAIN.md)", () => {
+describe("facts of the trade (common practice, docs/references.md)", () => {
   it("a 5 A-class Schottky at ~0.3 V near zero current and ~0.7 V at 5 A dissipates ~3.5 W at 5 A", () => {
     const fit = fitDiode(
       [

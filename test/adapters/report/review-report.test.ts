@@ -182,7 +182,7 @@ describe("design-review report", () => {
     expect(cells.slice(2, 7)).toEqual([mc.tjC.mean, mc.tjC.std, mc.tjC.p1, mc.tjC.p50, mc.tjC.p99].map((v) => String(Number(v.toPrecision(4)))));
   });
 
-  // DOMAIN.md, common practice: a Schottky drops ~0.5 V at 10 A (several watts), so a 2 W loss
+  // docs/references.md (facts of the trade), common practice: a Schottky drops ~0.5 V at 10 A (several watts), so a 2 W loss
   // budget fails; loss-budget is the last rule of the default set, so "first" is the report's doing.
   it("a failing candidate shows its failing rule and the values it used first", async () => {
     const r = await review({

@@ -6,7 +6,7 @@ import { withinTolerance } from "../../helpers/tolerance.js";
 
 // A 10 mΩ channel with no temperature coefficient, fully enhanced (10 V drive above 3 V), no
 // regulated drop: the closed form is drop = I·R, loss = I²·R, Tj = Ta + Rth·I²·R (Ohm's law and
-// the steady thermal path, DOMAIN.md); 1e-5 relative covers the circuit solve's convergence and the
+// the steady thermal path, docs/references.md); 1e-5 relative covers the circuit solve's convergence and the
 // body diode's share in parallel (nanoamperes at these millivolts).
 const R = 0.01;
 const RTH = 20;
