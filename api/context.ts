@@ -30,8 +30,9 @@ export interface Context {
   /** optional observer of every procedure call (the HTTP adapter's metrics) */
   readonly observe?: ((o: ProcedureObservation) => void) | undefined;
   /**
-   * optional: where a tRPC call runs instead of here (the HTTP server's compute threads, under its
-   * compute budget): the call's result, or a rejection with the error to answer; undefined: here
+   * optional: where a /trpc call runs instead of here (the HTTP server's compute threads, under its
+   * compute budget, `adapters/http/trpc-offload.ts`), given the input as the client sent it: the
+   * call's result, or a rejection with the error to answer; undefined: here (`runProcedure`)
    */
   readonly offload?: ((path: string, rawInput: unknown) => Promise<unknown> | undefined) | undefined;
 }

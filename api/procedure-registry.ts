@@ -1,63 +1,37 @@
-import { TRPCError } from "@trpc/server";
+import { getTRPCErrorFromUnknown, TRPCError } from "@trpc/server";
 import { getHTTPStatusCodeFromError } from "@trpc/server/http";
-import { getParseFn, getTRPCErrorFromUnknown } from "@trpc/server/unstable-core-do-not-import";
 import type { z } from "zod";
-import * as contracts from "../contracts/index.js";
 import type { Context } from "./context.js";
+import type { ProcedureDefinition } from "./define-procedure.js";
 import { errorBodyOf, UNPROCESSABLE_CODES } from "./error-body.js";
-import { appRouter } from "./router.js";
-import { createCallerFactory, observeCall, publicProcedure } from "./trpc.js";
+import { PROCEDURE_TABLE } from "./procedure-table.js";
 
 /**
- * Every procedure of the router with its input and output contracts, derived from the router itself
- * so a procedure added to `api/router.ts` appears in /v1, OpenAPI, metrics and batch with no edit here.
- *
- * - input: the zod schema given to `.input(...)` (tRPC keeps it in `_def.inputs`);
- * - output: `.output(...)` if the procedure declares one, else `meta({ output })`, else the contract
- *   named by convention `<procedure path in camelCase>Output` exported from `contracts/index.ts`
- *   (`operatingPointOutput`, `rulesEvaluateOutput` for `rules.evaluate`).
+ * A procedure of the table as the adapters list it: /v1's listing, OpenAPI, the batch's CSV
+ * columns, the metrics and the tests read these.
  */
 export interface ProcedureEntry {
   readonly path: string;
-  readonly type: "query" | "mutation" | "subscription";
-  readonly input: z.ZodType | undefined;
-  readonly output: z.ZodType | undefined;
+  readonly type: "query";
+  readonly input: z.ZodType;
+  readonly output: z.ZodType;
   readonly description: string | undefined;
 }
 
-interface ProcedureDef {
-  readonly type: "query" | "mutation" | "subscription";
-  readonly inputs: readonly unknown[];
-  readonly output?: unknown;
-  readonly meta?: { readonly output?: unknown; readonly description?: string };
-}
+const definitions: ReadonlyMap<string, ProcedureDefinition> = new Map(PROCEDURE_TABLE.map((d): [string, ProcedureDefinition] => [d.name, d]));
 
-function isZod(x: unknown): x is z.ZodType {
-  return typeof x === "object" && x !== null && "_zod" in x;
-}
-
-function describe(schema: z.ZodType | undefined): string | undefined {
-  const d = schema?.meta()?.description;
+function describe(schema: z.ZodType): string | undefined {
+  const d = schema.meta()?.description;
   return typeof d === "string" ? d : undefined;
 }
 
 let cache: readonly ProcedureEntry[] | undefined;
 
-/** Every procedure, sorted by path (stable order for OpenAPI and listings). */
+/** Every procedure of the table, sorted by path (a stable order for OpenAPI and listings). */
 export function procedureEntries(): readonly ProcedureEntry[] {
-  if (cache) return cache;
-  const named = contracts as unknown as Record<string, unknown>;
-  const procs = appRouter._def.procedures as unknown as Record<string, { _def: ProcedureDef }>;
-  cache = Object.keys(procs)
-    .sort()
-    .map((path) => {
-      const def = (procs[path] as { _def: ProcedureDef })._def;
-      const input = def.inputs.find(isZod);
-      const leaf = path.split(".").at(-1) ?? path;
-      const camel = path.split(".").map((p, i) => (i === 0 ? p : p.charAt(0).toUpperCase() + p.slice(1))).join("");
-      const output = [def.output, def.meta?.output, named[`${camel}Output`], named[`${leaf}Output`]].find(isZod);
-      return { path, type: def.type, input, output, description: def.meta?.description ?? describe(input) };
-    });
+  cache ??= [...definitions.values()]
+    .map((d) => ({ path: d.name, type: "query" as const, input: d.input, output: d.output, description: d.description ?? describe(d.input) }))
+    .sort((a, b) => (a.path < b.path ? -1 : a.path > b.path ? 1 : 0));
   return cache;
 }
 
@@ -67,10 +41,9 @@ export function procedureEntry(path: string): ProcedureEntry | undefined {
 
 /**
  * A procedure called in process. `now` is the same call answered in this turn of the event loop
- * where the procedure's input parser and resolver are synchronous (every procedure's today), or a
- * promise where either is not; it throws where the call would reject. A batch answers a record
- * with `now` and skips the two promises and microtask turns a call costs (about 1.3 us of 8 for
- * an operating point).
+ * where the handler is synchronous (every procedure's today), or a promise where it is not; it
+ * throws where the call would reject. A batch answers a record with `now` and skips the promise
+ * and microtask turn a call costs.
  */
 export interface Invoke {
   (input: unknown): Promise<unknown>;
@@ -80,99 +53,93 @@ export interface Invoke {
 /** A promise (or any thenable): what `Invoke.now` returns where a procedure is asynchronous. */
 export const isThenable = (v: unknown): v is PromiseLike<unknown> => typeof v === "object" && v !== null && typeof (v as { then?: unknown }).then === "function";
 
-/** Resolve a router path to a callable procedure of an in-process caller (the same router as /trpc). */
+/**
+ * The one definition of a call: the input parsed by the entry's contract (a failure is
+ * BAD_REQUEST with the zod error as its cause), the handler run with the context, and anything
+ * the handler throws mapped by tRPC's `getTRPCErrorFromUnknown` (a TRPCError as it is, anything
+ * else INTERNAL_SERVER_ERROR with it as the cause). /trpc, /v1, bulk, batch and the compute
+ * threads all call procedures through it.
+ */
+function callNow(d: ProcedureDefinition, ctx: Context, raw: unknown): unknown {
+  let input: unknown;
+  try {
+    input = d.input.parse(raw);
+  } catch (cause) {
+    throw new TRPCError({ code: "BAD_REQUEST", cause });
+  }
+  let out: unknown;
+  try {
+    out = d.handler({ input, ctx });
+  } catch (cause) {
+    throw getTRPCErrorFromUnknown(cause);
+  }
+  return isThenable(out)
+    ? Promise.resolve(out).catch((cause: unknown) => {
+        throw getTRPCErrorFromUnknown(cause);
+      })
+    : out;
+}
+
+/** Tell the context's observer of one call that began at `started` (performance.now()). */
+function observeCall(ctx: Context, path: string, started: number, r: { ok: true; data: unknown } | { ok: false; error: unknown }): void {
+  if (ctx.observe === undefined) return;
+  const seconds = (performance.now() - started) / 1000;
+  ctx.observe(r.ok ? { path, ok: true, data: r.data, seconds } : { path, ok: false, error: r.error, seconds });
+}
+
+/** `answer()` (a value, or a promise of one), its outcome told to the context's observer, if any; input parsing included in the time. */
+function observed(ctx: Context, path: string, answer: () => unknown): unknown {
+  if (ctx.observe === undefined) return answer();
+  const started = performance.now();
+  let out: unknown;
+  try {
+    out = answer();
+  } catch (error) {
+    observeCall(ctx, path, started, { ok: false, error });
+    throw error;
+  }
+  if (!isThenable(out)) {
+    observeCall(ctx, path, started, { ok: true, data: out });
+    return out;
+  }
+  return Promise.resolve(out).then(
+    (data) => {
+      observeCall(ctx, path, started, { ok: true, data });
+      return data;
+    },
+    (error: unknown) => {
+      observeCall(ctx, path, started, { ok: false, error });
+      throw error;
+    },
+  );
+}
+
+/** Resolve a procedure's name to its in-process call with this context (observed where the context has an observer). */
 export function procedureInvoker(ctx: Context): (path: string) => Invoke | undefined {
-  const caller = createCallerFactory(appRouter)(ctx) as unknown as Record<string, unknown>;
-  const known = new Set(Object.keys(appRouter._def.procedures));
-  const direct = new Map<string, Invoke>();
+  const invokers = new Map<string, Invoke>();
   return (path) => {
-    if (!known.has(path)) return undefined;
-    let invoke = direct.get(path);
+    let invoke = invokers.get(path);
     if (invoke === undefined) {
-      invoke = directInvoke(path, ctx);
-      if (invoke === undefined) {
-        let node: unknown = caller;
-        for (const part of path.split(".")) node = (node as Record<string, unknown>)[part];
-        const call = node as (input: unknown) => Promise<unknown>;
-        invoke = Object.assign((input: unknown) => call(input), { now: call });
-      }
-      direct.set(path, invoke);
+      const d = definitions.get(path);
+      if (d === undefined) return undefined;
+      const now = ctx.observe === undefined ? (raw: unknown) => callNow(d, ctx, raw) : (raw: unknown) => observed(ctx, path, () => callNow(d, ctx, raw));
+      invoke = Object.assign(async (raw: unknown) => now(raw), { now });
+      invokers.set(path, invoke);
     }
     return invoke;
   };
 }
 
-interface ResolverDef {
-  readonly type: "query" | "mutation" | "subscription";
-  readonly inputs: readonly unknown[];
-  readonly middlewares: readonly ((...a: never[]) => unknown)[];
-  readonly resolver?: (opts: { ctx: Context; input: unknown; path: string; type: string; meta: unknown; batchIndex: number; getRawInput: () => Promise<unknown>; signal: undefined }) => unknown;
-  readonly meta?: unknown;
-}
-
 /**
- * The same call as the tRPC caller without its middleware chain (which copies the call options at
- * every step): the procedure's own input parser (tRPC's `getParseFn` of its `.input(...)`), its
- * resolver with the same context, errors mapped as tRPC maps them (a parse failure is BAD_REQUEST
- * with the zod error as cause, anything else `getTRPCErrorFromUnknown`), and the observer told as
- * the `observed` middleware tells it. Only for a procedure whose chain is exactly publicProcedure's
- * middlewares, one input parser and the resolver; any other shape (a procedure with its own
- * middleware, an output parser) goes through the caller. test/api/direct-invoker.test.ts checks
- * results and error bodies against the caller.
+ * A /trpc call (the tRPC router's resolver): where the context offloads it (the HTTP server: its
+ * compute threads, under the compute budget), the answer comes from there; else it is called here.
  */
-export function directInvoke(path: string, ctx: Context): Invoke | undefined {
-  const procs = appRouter._def.procedures as unknown as Record<string, { _def: ResolverDef }>;
-  const def = procs[path]?._def;
-  const base = (publicProcedure as unknown as { _def: { middlewares: readonly unknown[] } })._def.middlewares;
-  if (def === undefined || def.resolver === undefined || def.type !== "query") return undefined;
-  if (def.inputs.length !== 1 || def.middlewares.length !== base.length + 2) return undefined;
-  if (!base.every((m, i) => def.middlewares[i] === m)) return undefined;
-  if ((def.middlewares[base.length] as { _type?: string })._type !== "input") return undefined;
-  const parse = getParseFn(def.inputs[0] as Parameters<typeof getParseFn>[0]);
-  const resolver = def.resolver;
-  const { type, meta } = def;
-  // errors mapped as tRPC maps them: a parse failure is BAD_REQUEST with the parser's error as
-  // cause, a resolver's failure getTRPCErrorFromUnknown
-  const badInput = (cause: unknown) => new TRPCError({ code: "BAD_REQUEST", cause });
-  const resolve = (input: unknown, raw: unknown): unknown => {
-    let out: unknown;
-    try {
-      out = resolver({ ctx, input, path, type, meta, batchIndex: 0, getRawInput: async () => raw, signal: undefined });
-    } catch (cause) {
-      throw getTRPCErrorFromUnknown(cause);
-    }
-    return isThenable(out)
-      ? Promise.resolve(out).catch((cause: unknown) => {
-          throw getTRPCErrorFromUnknown(cause);
-        })
-      : out;
-  };
-  const now = (raw: unknown): unknown => {
-    let input: unknown;
-    try {
-      input = parse(raw);
-    } catch (cause) {
-      throw badInput(cause);
-    }
-    if (!isThenable(input)) return resolve(input, raw);
-    return Promise.resolve(input).then((parsed) => resolve(parsed, raw), (cause: unknown) => {
-      throw badInput(cause);
-    });
-  };
-  const run = async (raw: unknown): Promise<unknown> => now(raw);
-  if (ctx.observe === undefined) return Object.assign(run, { now });
-  const observedRun = async (raw: unknown): Promise<unknown> => {
-    const started = performance.now();
-    try {
-      const data = await run(raw);
-      observeCall(ctx, path, started, { ok: true, data });
-      return data;
-    } catch (e) {
-      observeCall(ctx, path, started, { ok: false, error: e });
-      throw e;
-    }
-  };
-  return Object.assign(observedRun, { now: observedRun });
+export function runProcedure(path: string, raw: unknown, ctx: Context): unknown {
+  const away = ctx.offload?.(path, raw);
+  if (away !== undefined) return observed(ctx, path, () => away);
+  const d = definitions.get(path);
+  if (d === undefined) throw new TRPCError({ code: "NOT_FOUND", message: `no procedure "${path}"` });
+  return observed(ctx, path, () => callNow(d, ctx, raw));
 }
 
 /** The HTTP status a thrown procedure error maps to (the same mapping /trpc uses): tRPC's, and 422 for UNPROCESSABLE_CODES (an input past a limit). */

@@ -1,8 +1,9 @@
 import { initTRPC } from "@trpc/server";
-import { middlewareMarker } from "@trpc/server/unstable-core-do-not-import";
-import { ZodError } from "zod";
+import { ZodError, type z } from "zod";
 import type { Context } from "./context.js";
+import type { ProcedureDefinition } from "./define-procedure.js";
 import { errorBodyOf, UNPROCESSABLE_CODES } from "./error-body.js";
+import { runProcedure } from "./procedure-registry.js";
 
 const t = initTRPC.context<Context>().create({
   errorFormatter({ shape, error }) {
@@ -17,37 +18,13 @@ const t = initTRPC.context<Context>().create({
 
 export const router = t.router;
 
-/** Tell the context's observer of one call that began at `started` (performance.now()). */
-export function observeCall(ctx: Context, path: string, started: number, r: { ok: true; data: unknown } | { ok: false; error: unknown }): void {
-  if (ctx.observe === undefined) return;
-  const seconds = (performance.now() - started) / 1000;
-  ctx.observe(r.ok ? { path, ok: true, data: r.data, seconds } : { path, ok: false, error: r.error, seconds });
-}
-
 /**
- * Times every call (input parsing included) and tells the context's observer, if any; where the
- * context offloads the call, its answer comes from there and the rest of the chain does not run.
+ * The tRPC query of a table entry. Its input reaches the resolver as the client sent it (typed by
+ * the input contract for clients): the call itself parses it, wherever the context runs it
+ * (`runProcedure`: here, or the HTTP server's compute threads through `offload`).
  */
-const observed = t.middleware(async ({ path, ctx, next, getRawInput }) => {
-  const away = ctx.offload === undefined ? undefined : ctx.offload(path, await getRawInput());
-  if (away !== undefined) {
-    const started = performance.now();
-    try {
-      const data = await away;
-      observeCall(ctx, path, started, { ok: true, data });
-      // the result a resolver's middleware gives (tRPC's shape): the chain ends here
-      return { marker: middlewareMarker, ok: true as const, data, ctx } as unknown as Awaited<ReturnType<typeof next>>;
-    } catch (error) {
-      observeCall(ctx, path, started, { ok: false, error });
-      throw error;
-    }
-  }
-  if (ctx.observe === undefined) return next();
-  const started = performance.now();
-  const r = await next();
-  observeCall(ctx, path, started, r.ok ? { ok: true, data: r.data } : { ok: false, error: r.error });
-  return r;
-});
-
-export const publicProcedure = t.procedure.use(observed);
-export const createCallerFactory = t.createCallerFactory;
+export function trpcProcedure<D extends ProcedureDefinition>(definition: D) {
+  type Answer = Awaited<ReturnType<D["handler"]>>;
+  const passThrough = (raw: unknown) => raw as z.input<D["input"]>;
+  return t.procedure.input(passThrough).query(({ input, ctx }) => runProcedure(definition.name, input, ctx) as Answer | Promise<Answer>);
+}

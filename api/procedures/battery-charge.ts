@@ -1,4 +1,4 @@
-import { type BatteryChargeOutput, batteryChargeInput } from "../../contracts/battery-charge.js";
+import { type BatteryChargeOutput, batteryChargeInput, batteryChargeOutput } from "../../contracts/battery-charge.js";
 import { chargeBattery } from "../../domain/checks/battery-charging.js";
 import type { BatteryModel } from "../../domain/physics/battery-ocv.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
@@ -7,7 +7,7 @@ import { ruleSetForAnalysis } from "../map/analysis-rules.js";
 import { batteryChargeRuleInput, CHARGE_COMPUTES } from "../map/reverse-current-rules.js";
 import { stageLabel } from "../map/reverse-inputs.js";
 import { resolveStage } from "../map/resolve-stage.js";
-import { publicProcedure } from "../trpc.js";
+import { defineProcedure } from "../define-procedure.js";
 
 const SECONDS_PER_HOUR = 3600;
 const DEFAULT_MAX_TIME_S = 7 * 24 * 3600;
@@ -20,7 +20,7 @@ const toBattery = (b: BatteryIn): BatteryModel => ({
   initialSoc: b.initialSoc,
 });
 
-export const batteryCharge = publicProcedure.input(batteryChargeInput).query(({ input, ctx }): BatteryChargeOutput => {
+export const batteryCharge = defineProcedure({ name: "batteryCharge", input: batteryChargeInput, output: batteryChargeOutput, handler: ({ input, ctx }): BatteryChargeOutput => {
   const assumptions: string[] = [
     "stage junction temperature quasi-static (thermal time constants ≪ charge time)",
     "stage quiescent current not drawn from the source",
@@ -63,4 +63,4 @@ export const batteryCharge = publicProcedure.input(batteryChargeInput).query(({ 
     return { stage: stageLabel(stage.spec, stage.partId), result, metrics, ...(rules === undefined ? {} : { rules }) };
   });
   return { modelVersion: MODEL_VERSION, caution: CAUTION, assumptions, stages };
-});
+} });

@@ -1,4 +1,4 @@
-import { type BridgeAcOutput, type BridgeElementsInput, bridgeAcInput } from "../../contracts/bridge.js";
+import { type BridgeAcOutput, type BridgeElementsInput, bridgeAcInput, bridgeAcOutput } from "../../contracts/bridge.js";
 import { analyseBridgeAc, type BridgeAcOutcome } from "../../domain/checks/bridge-ac.js";
 import { AC_WAVEFORM_POINTS } from "../../domain/checks/bridge-ac-waveform.js";
 import { acSaving } from "../../domain/checks/bridge-saving.js";
@@ -8,9 +8,9 @@ import { ruleSetForAnalysis } from "../map/analysis-rules.js";
 import { bridgeComparison } from "../map/bridge-comparison.js";
 import { BRIDGE_AC_COMPUTES, bridgeAcElementInputs } from "../map/bridge-rules.js";
 import { toBridgeElements } from "../map/bridge-elements.js";
-import { publicProcedure } from "../trpc.js";
+import { defineProcedure } from "../define-procedure.js";
 
-export const bridgeAc = publicProcedure.input(bridgeAcInput).query(({ input, ctx }): BridgeAcOutput => {
+export const bridgeAc = defineProcedure({ name: "bridgeAc", input: bridgeAcInput, output: bridgeAcOutput, handler: ({ input, ctx }): BridgeAcOutput => {
   const assumptions: string[] = [];
   const orZero = (v: number | undefined, name: string): number => {
     if (v === undefined) assumptions.push(`${name}: 0 (default)`);
@@ -47,7 +47,7 @@ export const bridgeAc = publicProcedure.input(bridgeAcInput).query(({ input, ctx
   if (compareTo !== undefined) addMetrics(metrics, "compareTo.", compareTo, input.capacitorRippleRatingA);
   const saving = compareTo === undefined ? undefined : acSaving(bridge, compareTo);
   return bridgeComparison(assumptions, metrics, main, other, saving);
-});
+} });
 
 /**
  * Rule metrics: per element the peak repetitive current, RMS current, reverse voltage and its

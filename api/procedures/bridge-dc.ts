@@ -1,4 +1,4 @@
-import { type BridgeDcOutput, type BridgeElementsInput, bridgeDcInput } from "../../contracts/bridge.js";
+import { type BridgeDcOutput, type BridgeElementsInput, bridgeDcInput, bridgeDcOutput } from "../../contracts/bridge.js";
 import { analyseBridgeDc, type BridgeDcResult } from "../../domain/checks/bridge-dc.js";
 import { dcSaving } from "../../domain/checks/bridge-saving.js";
 import { evaluateRuleSetOverElements } from "../../domain/rules/element-verdicts.js";
@@ -6,9 +6,9 @@ import { ruleSetForAnalysis } from "../map/analysis-rules.js";
 import { bridgeComparison } from "../map/bridge-comparison.js";
 import { BRIDGE_DC_COMPUTES, bridgeDcElementInputs } from "../map/bridge-rules.js";
 import { toBridgeElements } from "../map/bridge-elements.js";
-import { publicProcedure } from "../trpc.js";
+import { defineProcedure } from "../define-procedure.js";
 
-export const bridgeDc = publicProcedure.input(bridgeDcInput).query(({ input, ctx }): BridgeDcOutput => {
+export const bridgeDc = defineProcedure({ name: "bridgeDc", input: bridgeDcInput, output: bridgeDcOutput, handler: ({ input, ctx }): BridgeDcOutput => {
   const assumptions: string[] = [];
   const sourceResistanceOhm = input.sourceResistanceOhm ?? 0;
   if (input.sourceResistanceOhm === undefined) assumptions.push("sourceResistanceOhm: 0 (default)");
@@ -35,7 +35,7 @@ export const bridgeDc = publicProcedure.input(bridgeDcInput).query(({ input, ctx
           return { ...(positive === undefined ? {} : { positive }), ...(negative === undefined ? {} : { negative }) };
         })();
   return bridgeComparison(assumptions, metrics, main, other, saving);
-});
+} });
 
 /** Per polarity: load voltage, total loss; per element: current, reverse voltage, Tj and their limits. */
 function addMetrics(out: Record<string, number>, prefix: string, r: BridgeDcResult): void {

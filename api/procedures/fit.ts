@@ -1,10 +1,10 @@
-import { type FitOutput, fitInput } from "../../contracts/fit.js";
+import { type FitOutput, fitInput, fitOutput } from "../../contracts/fit.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { diodeForwardFit, rdsOnTemperatureFit, reverseLeakageFit, zthFit } from "../map/fit-output.js";
-import { publicProcedure } from "../trpc.js";
+import { defineProcedure } from "../define-procedure.js";
 
 /** A datasheet curve's points in, the fitted law, its parameters and residuals out; no analysis. */
-export const fit = publicProcedure.input(fitInput).query(({ input }): FitOutput => {
+export const fit = defineProcedure({ name: "fit", input: fitInput, output: fitOutput, handler: ({ input }): FitOutput => {
   const assumptions: string[] = [];
   const body = (() => {
     switch (input.curve) {
@@ -19,4 +19,4 @@ export const fit = publicProcedure.input(fitInput).query(({ input }): FitOutput 
     }
   })();
   return { modelVersion: MODEL_VERSION, caution: CAUTION, ...body, assumptions };
-});
+} });

@@ -1,4 +1,4 @@
-import { type HoldUpOutput, holdUpInput } from "../../contracts/hold-up.js";
+import { type HoldUpOutput, holdUpInput, holdUpOutput } from "../../contracts/hold-up.js";
 import { type HoldUpModel, holdUp as holdUpCheck } from "../../domain/checks/hold-up.js";
 import { blocksReverseCurrent } from "../../domain/checks/stage-ratings.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
@@ -8,9 +8,9 @@ import { HOLD_UP_COMPUTES, holdUpRuleInput } from "../map/reverse-current-rules.
 import { controllerTiming, loadMinimumV, stageLabel } from "../map/reverse-inputs.js";
 import { holdUpAgainstRequirement } from "../map/hold-up-requirement.js";
 import { resolveStage } from "../map/resolve-stage.js";
-import { publicProcedure } from "../trpc.js";
+import { defineProcedure } from "../define-procedure.js";
 
-export const holdUp = publicProcedure.input(holdUpInput).query(({ input, ctx }): HoldUpOutput => {
+export const holdUp = defineProcedure({ name: "holdUp", input: holdUpInput, output: holdUpOutput, handler: ({ input, ctx }): HoldUpOutput => {
   const assumptions: string[] = [];
   const set = ruleSetForAnalysis(input.ruleSet, input.ruleMetrics, HOLD_UP_COMPUTES, "holdUp", ctx);
   const loadMinV = loadMinimumV(input.load, input.loadMinV, ["loadMinV"]);
@@ -56,4 +56,4 @@ export const holdUp = publicProcedure.input(holdUpInput).query(({ input, ctx }):
     return { stage: stageLabel(stage.spec, stage.partId), result, ...(req === undefined ? {} : req), metrics, ...(rules === undefined ? {} : { rules }) };
   });
   return { modelVersion: MODEL_VERSION, caution: CAUTION, assumptions, stages };
-});
+} });

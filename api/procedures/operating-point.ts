@@ -1,5 +1,5 @@
 import type { z } from "zod";
-import { operatingPointInput, type OperatingPointOutput, type SolvedPointOutput } from "../../contracts/operating-point.js";
+import { operatingPointInput, operatingPointOutput, type OperatingPointOutput, type SolvedPointOutput } from "../../contracts/operating-point.js";
 import type { RuleSetResult } from "../../domain/rules/rule-model.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
 import type { Context } from "../context.js";
@@ -12,9 +12,9 @@ import { inputProblem } from "../input-problem.js";
 import { OPERATING_POINT_METRICS, operatingPointRuleInput } from "../map/operating-point-metrics.js";
 import { resolveRuleSet } from "../map/rule-set.js";
 import { resolveStage } from "../map/resolve-stage.js";
-import { publicProcedure } from "../trpc.js";
+import { defineProcedure } from "../define-procedure.js";
 
-export const operatingPoint = publicProcedure.input(operatingPointInput).query(({ input, ctx }): OperatingPointOutput => {
+export const operatingPoint = defineProcedure({ name: "operatingPoint", input: operatingPointInput, output: operatingPointOutput, handler: ({ input, ctx }): OperatingPointOutput => {
   const assumptions: string[] = [];
   const stage = resolveStage(input.stage, ctx.catalog, ["stage"], assumptions, input.thermal);
   const rthKPerW = totalRthKPerW(stage.model.thermal);
@@ -31,7 +31,7 @@ export const operatingPoint = publicProcedure.input(operatingPointInput).query((
   if (rules !== undefined) head.rules = rules;
   const toPoint = (p: SolvedPoint): SolvedPointOutput => pointOutput(p, input.ambientC, rthKPerW, stageQuiescentA(stage.model), stage.model.kind);
   return withHead(head, outcome, toPoint);
-});
+} });
 
 /** The named rule set's verdicts on this point, with the caller's requirement metrics. */
 function verdicts(input: OperatingPointInputParsed, stage: StageModel, outcome: OperatingPointOutcome, ctx: Context): RuleSetResult | undefined {

@@ -1,4 +1,4 @@
-import { type OringOutput, oringInput } from "../../contracts/oring.js";
+import { type OringOutput, oringInput, oringOutput } from "../../contracts/oring.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { evaluateRuleSetOverElements } from "../../domain/rules/element-verdicts.js";
 import { ruleSetForAnalysis } from "../map/analysis-rules.js";
@@ -8,9 +8,9 @@ import { stageTjMaxC } from "../../domain/stages/stage-model.js";
 import { stageLabel } from "../map/reverse-inputs.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { inputProblem } from "../input-problem.js";
-import { publicProcedure } from "../trpc.js";
+import { defineProcedure } from "../define-procedure.js";
 
-export const oring = publicProcedure.input(oringInput).query(({ input, ctx }): OringOutput => {
+export const oring = defineProcedure({ name: "oring", input: oringInput, output: oringOutput, handler: ({ input, ctx }): OringOutput => {
   const assumptions: string[] = ["sources sink reverse current (a battery does; many bench supplies do not)"];
   const set = ruleSetForAnalysis(input.ruleSet, input.ruleMetrics, ORING_COMPUTES, "oring", ctx);
   const resolved = input.sources.map((s, k) => resolveStage(s.stage, ctx.catalog, ["sources", k, "stage"], assumptions));
@@ -88,7 +88,7 @@ export const oring = publicProcedure.input(oringInput).query(({ input, ctx }): O
       };
     }
   }
-});
+} });
 
 function unreachable(): never {
   throw new Error("unreachable: one resolved stage per source");

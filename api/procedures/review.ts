@@ -1,5 +1,5 @@
 import type { ReviewOutput } from "../../contracts/review.js";
-import { reviewInput } from "../../contracts/review.js";
+import { reviewInput, reviewOutput } from "../../contracts/review.js";
 import type { CornerResult } from "../../domain/checks/corners.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { type CandidateReview, reviewCandidate } from "../../domain/review/candidate-review.js";
@@ -19,9 +19,9 @@ import { reviewMonteCarlo } from "../map/review-monte-carlo.js";
 import { transientAllowanceOf } from "../map/transient-allowance.js";
 import { transientThermalOf } from "../map/transient-thermal.js";
 import { resolveRuleSet } from "../map/rule-set.js";
-import { publicProcedure } from "../trpc.js";
+import { defineProcedure } from "../define-procedure.js";
 
-export const review = publicProcedure.input(reviewInput).query(({ input, ctx }): ReviewOutput => {
+export const review = defineProcedure({ name: "review", input: reviewInput, output: reviewOutput, handler: ({ input, ctx }): ReviewOutput => {
   const assumptions: string[] = [];
   const req = toReviewRequirement(input.requirement, assumptions);
   const set = resolveRuleSet(input.ruleSet ?? "default", ctx, ["ruleSet"]);
@@ -136,7 +136,7 @@ export const review = publicProcedure.input(reviewInput).query(({ input, ctx }):
     ...(mc && mcTarget ? { monteCarlo: reviewMonteCarlo(mc, mcTarget.stage.model, req.model, mcTarget.ruleInput, set) } : {}),
     assumptions,
   };
-});
+} });
 
 /** A corner without an operating point fails outright; otherwise the rule set decides. */
 function verdictOf(r: CandidateReview, rules: RuleSetResult): { verdict: CandidateVerdict; reason: string } {

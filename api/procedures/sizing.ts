@@ -1,4 +1,4 @@
-import { type SizingCatalogOutput, type SizingSpecOutput, sizingCatalogInput, sizingSpecInput } from "../../contracts/sizing.js";
+import { type SizingCatalogOutput, type SizingSpecOutput, sizingCatalogInput, sizingCatalogOutput, sizingSpecInput, sizingSpecOutput } from "../../contracts/sizing.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { matchCatalog } from "../../domain/sizing/catalog-match.js";
 import { specifyStage } from "../../domain/sizing/stage-spec.js";
@@ -7,7 +7,7 @@ import { resolveStage } from "../map/resolve-stage.js";
 import { stageLabel } from "../map/reverse-inputs.js";
 import { resolveRuleSet } from "../map/rule-set.js";
 import { sizingContext } from "../map/sizing-context.js";
-import { publicProcedure, router } from "../trpc.js";
+import { defineProcedure } from "../define-procedure.js";
 
 const CAUTION_NOTE = "the specification holds each template's laws (temperature law, gate-drive points, Is(T)) and thermal path; a part with different laws needs its own sizing";
 
@@ -16,8 +16,8 @@ const CAUTION_NOTE = "the specification holds each template's laws (temperature 
  * rule or requirement field that set it). sizing.catalog: every catalog part sized against
  * itself, with margins and the first line it misses, ranked as the review ranks.
  */
-export const sizing = router({
-  spec: publicProcedure.input(sizingSpecInput).query(({ input, ctx }): SizingSpecOutput => {
+export const sizing = [
+  defineProcedure({ name: "sizing.spec", input: sizingSpecInput, output: sizingSpecOutput, handler: ({ input, ctx }): SizingSpecOutput => {
     const assumptions: string[] = [CAUTION_NOTE];
     const req = toReviewRequirement(input.requirement, assumptions);
     const set = resolveRuleSet(input.ruleSet ?? "default", ctx, ["ruleSet"]);
@@ -29,8 +29,8 @@ export const sizing = router({
       return { index, label: c.label ?? stage.spec.name ?? stage.partId ?? `template ${index}`, stage: stageLabel(stage.spec, stage.partId), items: [...spec.items] };
     });
     return { modelVersion: MODEL_VERSION, caution: CAUTION, ruleSet: set.stamp, specifications, assumptions };
-  }),
-  catalog: publicProcedure.input(sizingCatalogInput).query(({ input, ctx }): SizingCatalogOutput => {
+  } }),
+  defineProcedure({ name: "sizing.catalog", input: sizingCatalogInput, output: sizingCatalogOutput, handler: ({ input, ctx }): SizingCatalogOutput => {
     const assumptions: string[] = [CAUTION_NOTE];
     const req = toReviewRequirement(input.requirement, assumptions);
     const set = resolveRuleSet(input.ruleSet ?? "default", ctx, ["ruleSet"]);
@@ -44,5 +44,5 @@ export const sizing = router({
     });
     const matched = matchCatalog(candidates);
     return { modelVersion: MODEL_VERSION, caution: CAUTION, ruleSet: set.stamp, parts: matched.map((m) => ({ ...m, items: [...m.items] })), assumptions };
-  }),
-});
+  } }),
+] as const;

@@ -1,4 +1,4 @@
-import { type TurnOffOutput, turnOffInput } from "../../contracts/turn-off.js";
+import { type TurnOffOutput, turnOffInput, turnOffOutput } from "../../contracts/turn-off.js";
 import { turnOffEventFields } from "../map/turn-off-output.js";
 import { type TurnOffModel, turnOffEvent } from "../../domain/checks/turn-off-event.js";
 import { turnOffWaveform } from "../../domain/checks/turn-off-waveform.js";
@@ -9,9 +9,9 @@ import { ruleSetForAnalysis } from "../map/analysis-rules.js";
 import { TURN_OFF_COMPUTES, turnOffRuleInput } from "../map/reverse-current-rules.js";
 import { controllerTiming, loadMinimumV, stageLabel } from "../map/reverse-inputs.js";
 import { resolveStage } from "../map/resolve-stage.js";
-import { publicProcedure } from "../trpc.js";
+import { defineProcedure } from "../define-procedure.js";
 
-export const turnOff = publicProcedure.input(turnOffInput).query(({ input, ctx }): TurnOffOutput => {
+export const turnOff = defineProcedure({ name: "turnOff", input: turnOffInput, output: turnOffOutput, handler: ({ input, ctx }): TurnOffOutput => {
   const assumptions: string[] = [];
   const set = ruleSetForAnalysis(input.ruleSet, input.ruleMetrics, TURN_OFF_COMPUTES, "turnOff", ctx);
   const stage = resolveStage(input.stage, ctx.catalog, ["stage"], assumptions);
@@ -44,4 +44,4 @@ export const turnOff = publicProcedure.input(turnOffInput).query(({ input, ctx }
   const rules = set === undefined ? undefined : evaluateRuleSet(set, turnOffRuleInput(stage.model, r, input.tjC, avalancheRatingJ, input.ruleMetrics ?? {}));
   const head = { modelVersion: MODEL_VERSION, caution: CAUTION, stage: stageLabel(stage.spec, stage.partId), assumptions, ...(rules === undefined ? {} : { rules }) };
   return { ...head, ...turnOffEventFields(r, input.outputV, waveform) };
-});
+} });
