@@ -6,7 +6,7 @@ import type { SizingContext, TurnOffSizing } from "../../domain/sizing/assessmen
 import { type StageScale, UNSCALED } from "../../domain/stages/scale-stage.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
 import type { MappedRequirement } from "./requirement.js";
-import { reviewRuleInput } from "./review-metrics.js";
+import { reviewRuleInput } from "../../domain/rules/metrics-of-review.js";
 import { type TransientThermalInput, transientThermalOf } from "./transient-thermal.js";
 
 export interface TurnOffRequest {

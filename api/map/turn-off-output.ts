@@ -43,13 +43,3 @@ export function turnOffEventFields(r: TurnOffOutcome, v0: number, waveform?: Tur
       return { ...r, ...w, metrics: { blocksReverseCurrent: true, peakReverseCurrentA: r.peakReverseCurrentA, outputVoltageLostV: r.end.voltageLostV } };
   }
 }
-
-/**
- * The event's reverse peak as a rule metric: the value where it is the event's maximum; where it
- * is only a lower bound (the current still rising at the end of the searched span) it is
- * unavailable with the bound in the reason, so that no rule passes on it.
- */
-export function putPeakReverse(r: { readonly peakReverseCurrentA: number; readonly peakReverseIsLowerBound?: true }, metrics: Record<string, number | boolean>, unavailable: Record<string, string>): void {
-  if (r.peakReverseIsLowerBound === true) unavailable["peakReverseCurrentA"] = `the reverse current is still rising at the end of the simulated span: ${r.peakReverseCurrentA.toPrecision(4)} A is only a lower bound of its peak`;
-  else metrics["peakReverseCurrentA"] = r.peakReverseCurrentA;
-}

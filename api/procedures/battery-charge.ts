@@ -4,7 +4,7 @@ import type { BatteryModel } from "../../domain/physics/battery-ocv.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { ruleSetForAnalysis } from "../map/analysis-rules.js";
-import { batteryChargeRuleInput, CHARGE_COMPUTES } from "../map/reverse-current-rules.js";
+import { batteryChargeRuleInput, CHARGE_COMPUTES } from "../../domain/rules/metrics-of-reverse-current.js";
 import { stageLabel } from "../map/reverse-inputs.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { defineProcedure } from "../define-procedure.js";

@@ -6,7 +6,7 @@ import type { RuleSetResult } from "../../domain/rules/rule-model.js";
 import { evaluateRuleSetOverElements } from "../../domain/rules/element-verdicts.js";
 import { ruleSetForAnalysis } from "../map/analysis-rules.js";
 import { bridgeComparison } from "../map/bridge-comparison.js";
-import { BRIDGE_AC_COMPUTES, bridgeAcElementInputs } from "../map/bridge-rules.js";
+import { BRIDGE_AC_COMPUTES, bridgeAcElementInputs } from "../../domain/rules/metrics-of-bridge.js";
 import { toBridgeElements } from "../map/bridge-elements.js";
 import { defineProcedure } from "../define-procedure.js";
 

@@ -4,7 +4,7 @@ import { dcSaving } from "../../domain/checks/bridge-saving.js";
 import { evaluateRuleSetOverElements } from "../../domain/rules/element-verdicts.js";
 import { ruleSetForAnalysis } from "../map/analysis-rules.js";
 import { bridgeComparison } from "../map/bridge-comparison.js";
-import { BRIDGE_DC_COMPUTES, bridgeDcElementInputs } from "../map/bridge-rules.js";
+import { BRIDGE_DC_COMPUTES, bridgeDcElementInputs } from "../../domain/rules/metrics-of-bridge.js";
 import { toBridgeElements } from "../map/bridge-elements.js";
 import { defineProcedure } from "../define-procedure.js";
 

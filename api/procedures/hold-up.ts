@@ -4,7 +4,7 @@ import { blocksReverseCurrent } from "../../domain/checks/stage-ratings.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { ruleSetForAnalysis } from "../map/analysis-rules.js";
-import { HOLD_UP_COMPUTES, holdUpRuleInput } from "../map/reverse-current-rules.js";
+import { HOLD_UP_COMPUTES, holdUpRuleInput } from "../../domain/rules/metrics-of-reverse-current.js";
 import { controllerTiming, loadMinimumV, stageLabel } from "../map/reverse-inputs.js";
 import { holdUpAgainstRequirement } from "../map/hold-up-requirement.js";
 import { resolveStage } from "../map/resolve-stage.js";

@@ -9,7 +9,7 @@ import { type OperatingPointOutcome, type SolvedPoint, solveOperatingPoint } fro
 import { stageQuiescentA } from "../../domain/stages/stage-model.js";
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { inputProblem } from "../input-problem.js";
-import { OPERATING_POINT_METRICS, operatingPointRuleInput } from "../map/operating-point-metrics.js";
+import { OPERATING_POINT_METRICS, operatingPointRuleInput } from "../../domain/rules/metrics-of-operating-point.js";
 import { resolveRuleSet } from "../map/rule-set.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { defineProcedure } from "../define-procedure.js";

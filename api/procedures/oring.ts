@@ -2,7 +2,7 @@ import { type OringOutput, oringInput, oringOutput } from "../../contracts/oring
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { evaluateRuleSetOverElements } from "../../domain/rules/element-verdicts.js";
 import { ruleSetForAnalysis } from "../map/analysis-rules.js";
-import { ORING_COMPUTES, oringElementInputs } from "../map/reverse-current-rules.js";
+import { ORING_COMPUTES, oringElementInputs } from "../../domain/rules/metrics-of-reverse-current.js";
 import { solveOring } from "../../domain/solve/oring-network.js";
 import { stageTjMaxC } from "../../domain/stages/stage-model.js";
 import { stageLabel } from "../map/reverse-inputs.js";

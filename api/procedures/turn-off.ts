@@ -6,7 +6,7 @@ import { stageAvalancheEnergyJ } from "../../domain/checks/stage-ratings.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { ruleSetForAnalysis } from "../map/analysis-rules.js";
-import { TURN_OFF_COMPUTES, turnOffRuleInput } from "../map/reverse-current-rules.js";
+import { TURN_OFF_COMPUTES, turnOffRuleInput } from "../../domain/rules/metrics-of-reverse-current.js";
 import { controllerTiming, loadMinimumV, stageLabel } from "../map/reverse-inputs.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { defineProcedure } from "../define-procedure.js";

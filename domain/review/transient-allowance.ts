@@ -1,10 +1,10 @@
-import type { TransientAllowance } from "../../domain/checks/transient-stress.js";
-import type { ReviewRequirement } from "../../domain/review/candidate-review.js";
-import type { CompiledRuleSet } from "../../domain/rules/compile-rule-set.js";
-import type { RuleInput } from "../../domain/rules/rule-model.js";
-import { ruleBoundary, rulesReading } from "../../domain/sizing/rule-boundary.js";
-import type { StageModel } from "../../domain/stages/stage-model.js";
-import { partParameters, stageMetrics } from "./operating-point-metrics.js";
+import type { TransientAllowance } from "../checks/transient-stress.js";
+import type { ReviewRequirement } from "./candidate-review.js";
+import type { CompiledRuleSet } from "../rules/compile-rule-set.js";
+import type { RuleInput } from "../rules/rule-model.js";
+import { ruleBoundary, rulesReading } from "../sizing/rule-boundary.js";
+import type { StageModel } from "../stages/stage-model.js";
+import { partParameters, stageMetrics } from "../rules/metrics-of-operating-point.js";
 
 /**
  * The transient allowances a rule set grants a stage: the largest negative-pulse stress on the

@@ -1,7 +1,7 @@
-import { BRIDGE_AC_COMPUTES, BRIDGE_DC_COMPUTES } from "./bridge-rules.js";
-import { OPERATING_POINT_METRICS } from "./operating-point-metrics.js";
-import { CHARGE_COMPUTES, HOLD_UP_COMPUTES, ORING_COMPUTES, TURN_OFF_COMPUTES } from "./reverse-current-rules.js";
-import { REVIEW_COMPUTES } from "./review-metrics.js";
+import { BRIDGE_AC_COMPUTES, BRIDGE_DC_COMPUTES } from "./metrics-of-bridge.js";
+import { OPERATING_POINT_METRICS } from "./metrics-of-operating-point.js";
+import { CHARGE_COMPUTES, HOLD_UP_COMPUTES, ORING_COMPUTES, TURN_OFF_COMPUTES } from "./metrics-of-reverse-current.js";
+import { REVIEW_COMPUTES } from "./metrics-of-review.js";
 
 /**
  * What each analysis computes for its rules, by procedure: the one list the soundness invariant

@@ -100,7 +100,7 @@ export const PART_PARAMETERS: readonly MetricDef[] = [
 /**
  * The soundness declaration of the vocabulary. A "computed" metric is a stress or figure an
  * analysis works out (each analysis lists what it computes in its `*_COMPUTES`, collected in
- * api/map/computed-metrics.ts); a "requirement" metric is the caller's (a budget, a rating
+ * domain/rules/computed-metrics.ts); a "requirement" metric is the caller's (a budget, a rating
  * outside the stage, a profile's bottom); a "stage" metric describes the stage. Every computed
  * metric and every part parameter must be read by a rule's condition in every built-in rule set
  * for each stage kind it applies to, and every requirement metric by at least one rule of each

@@ -1,12 +1,12 @@
-import type { BridgeAcOutcome } from "../../domain/checks/bridge-ac.js";
-import type { BridgeDcResult } from "../../domain/checks/bridge-dc.js";
-import { BRIDGE_POSITIONS, type BridgeElements } from "../../domain/checks/bridge-element.js";
-import { stagePeakRepetitiveCurrentA } from "../../domain/checks/stage-ratings.js";
-import type { ElementRuleInput } from "../../domain/rules/element-verdicts.js";
-import type { LoadModel } from "../../domain/solve/load-model.js";
-import type { StageModel } from "../../domain/stages/stage-model.js";
-import { closeScope, draft, putOr, type RuleInputDraft } from "./analysis-rules.js";
-import { partParameters, stageMetrics } from "./operating-point-metrics.js";
+import type { BridgeAcOutcome } from "../checks/bridge-ac.js";
+import type { BridgeDcResult } from "../checks/bridge-dc.js";
+import { BRIDGE_POSITIONS, type BridgeElements } from "../checks/bridge-element.js";
+import { stagePeakRepetitiveCurrentA } from "../checks/stage-ratings.js";
+import type { ElementRuleInput } from "./element-verdicts.js";
+import type { LoadModel } from "../solve/load-model.js";
+import type { StageModel } from "../stages/stage-model.js";
+import { closeScope, draft, putOr, type RuleInputDraft } from "./rule-input-draft.js";
+import { partParameters, stageMetrics } from "./metrics-of-operating-point.js";
 
 type Caller = Readonly<Record<string, number | boolean>>;
 

@@ -1,9 +1,9 @@
-import { blocksReverseCurrent } from "../../domain/checks/stage-ratings.js";
-import type { RuleInput } from "../../domain/rules/rule-model.js";
-import type { OperatingPointOutcome } from "../../domain/solve/electrothermal-point.js";
-import type { LoadModel } from "../../domain/solve/load-model.js";
-import { type StageModel, stageQuiescentA, stageTjMaxC } from "../../domain/stages/stage-model.js";
-import { otherAnalysesMetrics } from "./analysis-rules.js";
+import { blocksReverseCurrent } from "../checks/stage-ratings.js";
+import type { RuleInput } from "./rule-model.js";
+import type { OperatingPointOutcome } from "../solve/electrothermal-point.js";
+import type { LoadModel } from "../solve/load-model.js";
+import { type StageModel, stageQuiescentA, stageTjMaxC } from "../stages/stage-model.js";
+import { otherAnalysesMetrics } from "./rule-input-draft.js";
 
 /** Metrics the operating point computes; a caller may not supply them alongside it. */
 export const OPERATING_POINT_METRICS = ["tjWorstC", "lossWorstW", "dropWorstV", "loadVMinV", "gateDriveMinV"] as const;

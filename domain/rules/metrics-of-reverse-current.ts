@@ -1,15 +1,14 @@
-import type { ChargingOutcome } from "../../domain/checks/battery-charging.js";
-import type { HoldUpOutcome } from "../../domain/checks/hold-up.js";
-import { blocksReverseCurrent } from "../../domain/checks/stage-ratings.js";
-import type { TurnOffOutcome } from "../../domain/checks/turn-off-event.js";
-import type { ElementRuleInput } from "../../domain/rules/element-verdicts.js";
-import type { RuleInput } from "../../domain/rules/rule-model.js";
-import type { OringOutcome } from "../../domain/solve/oring-network.js";
-import type { LoadModel } from "../../domain/solve/load-model.js";
-import type { StageModel } from "../../domain/stages/stage-model.js";
-import { closeScope, draft, putOr, type RuleInputDraft } from "./analysis-rules.js";
-import { missingRatings, partParameters, stageMetrics } from "./operating-point-metrics.js";
-import { putPeakReverse } from "./turn-off-output.js";
+import type { ChargingOutcome } from "../checks/battery-charging.js";
+import type { HoldUpOutcome } from "../checks/hold-up.js";
+import { blocksReverseCurrent } from "../checks/stage-ratings.js";
+import type { TurnOffOutcome } from "../checks/turn-off-event.js";
+import type { ElementRuleInput } from "./element-verdicts.js";
+import type { RuleInput } from "./rule-model.js";
+import type { OringOutcome } from "../solve/oring-network.js";
+import type { LoadModel } from "../solve/load-model.js";
+import type { StageModel } from "../stages/stage-model.js";
+import { closeScope, draft, putOr, putPeakReverse, type RuleInputDraft } from "./rule-input-draft.js";
+import { missingRatings, partParameters, stageMetrics } from "./metrics-of-operating-point.js";
 
 type Caller = Readonly<Record<string, number | boolean>>;
 

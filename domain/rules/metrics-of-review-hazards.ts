@@ -1,5 +1,5 @@
-import type { CandidateReview, ReviewRequirement } from "../../domain/review/candidate-review.js";
-import type { StageModel } from "../../domain/stages/stage-model.js";
+import type { CandidateReview, ReviewRequirement } from "../review/candidate-review.js";
+import type { StageModel } from "../stages/stage-model.js";
 
 interface Scope {
   readonly metrics: Record<string, number | boolean>;

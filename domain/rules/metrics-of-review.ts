@@ -1,13 +1,12 @@
-import type { CandidateReview, ReviewRequirement } from "../../domain/review/candidate-review.js";
-import type { ReviewTurnOffResult } from "../../domain/review/review-turn-off.js";
-import type { RuleInput } from "../../domain/rules/rule-model.js";
-import type { StageModel } from "../../domain/stages/stage-model.js";
-import { otherAnalysesMetrics } from "./analysis-rules.js";
-import { missingRatings, partParameters, stageMetrics } from "./operating-point-metrics.js";
-import { putPeakReverse } from "./turn-off-output.js";
-import { reviewHazardMetrics } from "./review-hazard-metrics.js";
+import type { CandidateReview, ReviewRequirement } from "../review/candidate-review.js";
+import type { ReviewTurnOffResult } from "../review/review-turn-off.js";
+import type { RuleInput } from "./rule-model.js";
+import type { StageModel } from "../stages/stage-model.js";
+import { otherAnalysesMetrics, putPeakReverse } from "./rule-input-draft.js";
+import { missingRatings, partParameters, stageMetrics } from "./metrics-of-operating-point.js";
+import { reviewHazardMetrics } from "./metrics-of-review-hazards.js";
 
-/** What the design review computes for its rules (the soundness invariant reads it: api/map/computed-metrics.ts). */
+/** What the design review computes for its rules (the soundness invariant reads it: domain/rules/computed-metrics.ts). */
 export const REVIEW_COMPUTES = [
   "tjWorstC",
   "lossWorstW",

@@ -1,10 +1,5 @@
-import type { RuleSetSpec } from "../../contracts/rule-set.js";
-import type { CompiledRuleSet } from "../../domain/rules/compile-rule-set.js";
-import { METRICS } from "../../domain/rules/metric-vocabulary.js";
-import type { RuleInput } from "../../domain/rules/rule-model.js";
-import type { Context } from "../context.js";
-import { inputProblem } from "../input-problem.js";
-import { resolveRuleSet } from "./rule-set.js";
+import { METRICS } from "./metric-vocabulary.js";
+import type { RuleInput } from "./rule-model.js";
 
 /** What an analysis puts into a rule input before its scope is closed. */
 export interface RuleInputDraft {
@@ -34,24 +29,6 @@ export function closeScope(d: RuleInputDraft, analysis: string): RuleInput {
     notRequired[n] = `not computed by ${analysis}; give it in ruleMetrics where it applies`;
   }
   return { stageKind: d.stageKind, metrics: d.metrics, part: d.part, unavailable: d.unavailable, notRequired };
-}
-
-/**
- * The rule set a request names, after checking that ruleMetrics leaves out the names the
- * analysis computes (a caller's value would otherwise overwrite, or be overwritten by, the
- * computed one without notice).
- */
-export function ruleSetForAnalysis(
-  ref: string | RuleSetSpec | undefined,
-  callerMetrics: Readonly<Record<string, number | boolean>> | undefined,
-  computed: readonly string[],
-  analysis: string,
-  ctx: Context,
-): CompiledRuleSet | undefined {
-  for (const n of computed) {
-    if (callerMetrics !== undefined && Object.hasOwn(callerMetrics, n)) throw inputProblem("invalid-input", ["ruleMetrics", n], `${n} is computed by ${analysis}; leave it out of ruleMetrics`);
-  }
-  return ref === undefined ? undefined : resolveRuleSet(ref, ctx, ["ruleSet"]);
 }
 
 /**
@@ -93,4 +70,14 @@ export function otherAnalysesMetrics(given: Readonly<Record<string, number | boo
 export function putOr(d: RuleInputDraft, name: string, value: number | boolean | undefined, whyNot: string): void {
   if (value === undefined) d.unavailable[name] = whyNot;
   else d.metrics[name] = value;
+}
+
+/**
+ * The event's reverse peak as a rule metric: the value where it is the event's maximum; where it
+ * is only a lower bound (the current still rising at the end of the searched span) it is
+ * unavailable with the bound in the reason, so that no rule passes on it.
+ */
+export function putPeakReverse(r: { readonly peakReverseCurrentA: number; readonly peakReverseIsLowerBound?: true }, metrics: Record<string, number | boolean>, unavailable: Record<string, string>): void {
+  if (r.peakReverseIsLowerBound === true) unavailable["peakReverseCurrentA"] = `the reverse current is still rising at the end of the simulated span: ${r.peakReverseCurrentA.toPrecision(4)} A is only a lower bound of its peak`;
+  else metrics["peakReverseCurrentA"] = r.peakReverseCurrentA;
 }

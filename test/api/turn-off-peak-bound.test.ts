@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { putPeakReverse } from "../../api/map/turn-off-output.js";
+import { putPeakReverse } from "../../domain/rules/rule-input-draft.js";
 import { compileRuleSet } from "../../domain/rules/compile-rule-set.js";
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 

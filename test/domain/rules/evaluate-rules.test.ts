@@ -84,7 +84,7 @@ describe("requirement inputs left out on purpose", () => {
     const metrics = { quiescentA: 1e-4, tjWorstC: 80, lossWorstW: 0.1, dropWorstV: 0.02, loadVMinV: 11, supplyMinV: 9, supplyMaxV: 16, reverseVMaxV: 14, reverseTransientVMaxV: 20, transientVMaxV: 30, gateDriveMinV: 10, startVoltageV: 3, blocksReverseCurrent: true, parallelSources: false, holdUpRequired: false };
     const part = { tjMaxC: 175, vdsMaxV: 60, vgsMaxV: 20, vgsOnV: 10, maxInputV: 65, controllerReverseRatingV: 65 };
     // The reverse-current and bridge analyses' own metrics are out of scope here as well.
-    const { ANALYSIS_ONLY_METRICS } = await import("../../../api/map/analysis-rules.js");
+    const { ANALYSIS_ONLY_METRICS } = await import("../../../domain/rules/rule-input-draft.js");
     const elsewhere = Object.fromEntries(Object.values(ANALYSIS_ONLY_METRICS).flatMap((names) => names.map((n) => [n, "another analysis"])));
     const r = evaluateRuleSet(set, { stageKind: "nfet-ideal-diode", metrics, part, notRequired: { ...elsewhere, standbyBudgetA: "no budget set", lossBudgetW: "no budget set", loadMinV: "no minimum given" } });
     const standby = r.verdicts.find((v) => v.ruleId === "standby-quiescent");

@@ -3,7 +3,7 @@ import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { procedureInvoker } from "../../../adapters/batch/run-batch.js";
 import { projectRoot } from "../../../adapters/project-root.js";
-import { ANALYSIS_COMPUTES, RESULT_FLAGS } from "../../../api/map/computed-metrics.js";
+import { ANALYSIS_COMPUTES, RESULT_FLAGS } from "../../../domain/rules/computed-metrics.js";
 import { builtInRuleSets } from "../../../domain/rules/built-in-sets.js";
 import type { CompiledRuleSet } from "../../../domain/rules/compile-rule-set.js";
 import { type MetricDef, METRIC_ROLES, METRICS, type NotAssessed, PART_NOT_ASSESSED, PART_PARAMETERS, STAGE_KIND_LIST } from "../../../domain/rules/metric-vocabulary.js";
@@ -11,7 +11,7 @@ import { demoContext } from "../../helpers/app.js";
 import { KNOWN_BAD } from "../../known-bad/designs.js";
 
 // The soundness invariant: a limit that a check computes is a limit a rule reads. Each analysis
-// declares what it computes (api/map/computed-metrics.ts), each vocabulary metric its role and
+// declares what it computes (domain/rules/computed-metrics.ts), each vocabulary metric its role and
 // where it is deliberately not assessed (metric-vocabulary.ts); this walks them against every
 // built-in rule set. (Common practice: a release gate must not pass what a computed figure shows
 // destroyed.)
