@@ -3,7 +3,7 @@ import { chargeBattery } from "../../domain/checks/battery-charging.js";
 import type { BatteryModel } from "../../domain/physics/battery-ocv.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
-import { ruleSetForAnalysis } from "../map/analysis-rules.js";
+import { ruleSetForAnalysis } from "../map/analysis-rule-set.js";
 import { batteryChargeRuleInput, CHARGE_COMPUTES } from "../../domain/rules/metrics-of-reverse-current.js";
 import { stageLabel } from "../map/reverse-inputs.js";
 import { resolveStage } from "../map/resolve-stage.js";

@@ -4,7 +4,7 @@ import { AC_WAVEFORM_POINTS } from "../../domain/checks/bridge-ac-waveform.js";
 import { acSaving } from "../../domain/checks/bridge-saving.js";
 import type { RuleSetResult } from "../../domain/rules/rule-model.js";
 import { evaluateRuleSetOverElements } from "../../domain/rules/element-verdicts.js";
-import { ruleSetForAnalysis } from "../map/analysis-rules.js";
+import { ruleSetForAnalysis } from "../map/analysis-rule-set.js";
 import { bridgeComparison } from "../map/bridge-comparison.js";
 import { BRIDGE_AC_COMPUTES, bridgeAcElementInputs } from "../../domain/rules/metrics-of-bridge.js";
 import { toBridgeElements } from "../map/bridge-elements.js";

@@ -2,7 +2,7 @@ import { type BridgeDcOutput, type BridgeElementsInput, bridgeDcInput, bridgeDcO
 import { analyseBridgeDc, type BridgeDcResult } from "../../domain/checks/bridge-dc.js";
 import { dcSaving } from "../../domain/checks/bridge-saving.js";
 import { evaluateRuleSetOverElements } from "../../domain/rules/element-verdicts.js";
-import { ruleSetForAnalysis } from "../map/analysis-rules.js";
+import { ruleSetForAnalysis } from "../map/analysis-rule-set.js";
 import { bridgeComparison } from "../map/bridge-comparison.js";
 import { BRIDGE_DC_COMPUTES, bridgeDcElementInputs } from "../../domain/rules/metrics-of-bridge.js";
 import { toBridgeElements } from "../map/bridge-elements.js";

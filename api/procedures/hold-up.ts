@@ -3,7 +3,7 @@ import { type HoldUpModel, holdUp as holdUpCheck } from "../../domain/checks/hol
 import { blocksReverseCurrent } from "../../domain/checks/stage-ratings.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
-import { ruleSetForAnalysis } from "../map/analysis-rules.js";
+import { ruleSetForAnalysis } from "../map/analysis-rule-set.js";
 import { HOLD_UP_COMPUTES, holdUpRuleInput } from "../../domain/rules/metrics-of-reverse-current.js";
 import { controllerTiming, loadMinimumV, stageLabel } from "../map/reverse-inputs.js";
 import { holdUpAgainstRequirement } from "../map/hold-up-requirement.js";

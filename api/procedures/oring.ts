@@ -1,7 +1,7 @@
 import { type OringOutput, oringInput, oringOutput } from "../../contracts/oring.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { evaluateRuleSetOverElements } from "../../domain/rules/element-verdicts.js";
-import { ruleSetForAnalysis } from "../map/analysis-rules.js";
+import { ruleSetForAnalysis } from "../map/analysis-rule-set.js";
 import { ORING_COMPUTES, oringElementInputs } from "../../domain/rules/metrics-of-reverse-current.js";
 import { solveOring } from "../../domain/solve/oring-network.js";
 import { stageTjMaxC } from "../../domain/stages/stage-model.js";

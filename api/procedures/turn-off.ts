@@ -5,7 +5,7 @@ import { turnOffWaveform } from "../../domain/checks/turn-off-waveform.js";
 import { stageAvalancheEnergyJ } from "../../domain/checks/stage-ratings.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
-import { ruleSetForAnalysis } from "../map/analysis-rules.js";
+import { ruleSetForAnalysis } from "../map/analysis-rule-set.js";
 import { TURN_OFF_COMPUTES, turnOffRuleInput } from "../../domain/rules/metrics-of-reverse-current.js";
 import { controllerTiming, loadMinimumV, stageLabel } from "../map/reverse-inputs.js";
 import { resolveStage } from "../map/resolve-stage.js";
