@@ -77,6 +77,10 @@ export const candidate = z.strictObject({
     .strictObject({
       rdsOnFactor: z.number().gte(1).lte(5).meta({ description: "datasheet maximum ÷ typical Rds(on)", unit: "1" }),
       forwardVoltageFactor: z.number().gte(1).lte(5).meta({ description: "datasheet maximum ÷ typical forward voltage", unit: "1" }),
+      startV: quantity("V", "datasheet maximum start voltage of the controller or integrated switch (the start checks and the datasheet-maximum corners use it)", { ge: 0, le: 10_000 }).optional(),
+      thresholdV: quantity("V", "datasheet maximum gate threshold Vth(max) of the MOSFET, at 25 °C (the start checks and the datasheet-maximum corners use it)", { ge: 0, le: 100 }).optional(),
+      reverseThresholdV: quantity("V", "datasheet maximum reverse-current threshold of the controller (the review's turn-off event uses it)", { ge: 0, le: 10 }).optional(),
+      turnOffDelayS: quantity("s", "datasheet maximum turn-off delay of the controller (the review's turn-off event uses it)", { ge: 0, le: 1 }).optional(),
     })
     .optional()
     .meta({ description: "the datasheet-maximum tolerance corner (absent: typical values only)" }),
@@ -85,7 +89,7 @@ export const candidate = z.strictObject({
   turnOffTiming: turnOffTiming.optional().meta({ description: "this candidate's reverse-current turn-off timing for the requirement's turnOff event (default: requirement.turnOff.timing, else the stage controller's own)" }),
 });
 
-const mcParameter = z.enum(["rdsOn", "forwardVoltage", "rth", "supplyV", "ambientC", "load"]);
+const mcParameter = z.enum(["rdsOn", "forwardVoltage", "rth", "supplyV", "ambientC", "load", "startV", "thresholdV"]);
 export const monteCarloSpec = z.strictObject({
   samples: z.number().int().min(1).max(LIMITS.maxMonteCarloSamples, { error: limitMessage("maxMonteCarloSamples", "Monte Carlo samples") }),
   seed: z.number().int().min(0).max(2 ** 32 - 1),
@@ -95,7 +99,7 @@ export const monteCarloSpec = z.strictObject({
   tolerances: z
     .array(
       z.discriminatedUnion("distribution", [
-        z.strictObject({ parameter: mcParameter, distribution: z.literal("normal"), sigma: z.number().gte(0).lte(1000).meta({ description: "standard deviation: relative for rdsOn, forwardVoltage, rth, load (≤ 0.2); V or K for supplyV, ambientC" }) }),
+        z.strictObject({ parameter: mcParameter, distribution: z.literal("normal"), sigma: z.number().gte(0).lte(1000).meta({ description: "standard deviation: relative for rdsOn, forwardVoltage, rth, load (≤ 0.2); V or K for supplyV, ambientC, startV (a controller's or switch's start voltage), thresholdV (the MOSFET's Vth)" }) }),
         z.strictObject({ parameter: mcParameter, distribution: z.literal("uniform"), halfWidth: z.number().gte(0).lte(1000).meta({ description: "± half width: relative (≤ 0.9) or V / K" }) }),
       ]),
     )
@@ -119,7 +123,7 @@ export const reviewInput = z
     const mc = r.monteCarlo;
     if (mc?.candidate !== undefined && mc.candidate >= r.candidates.length) ctx.addIssue({ code: "custom", path: ["monteCarlo", "candidate"], message: "no candidate at that index" });
     mc?.tolerances.forEach((t, i) => {
-      const relative = t.parameter !== "supplyV" && t.parameter !== "ambientC";
+      const relative = t.parameter !== "supplyV" && t.parameter !== "ambientC" && t.parameter !== "startV" && t.parameter !== "thresholdV";
       const spread = t.distribution === "normal" ? t.sigma : t.halfWidth;
       const cap = t.distribution === "normal" ? 0.2 : 0.9;
       if (relative && spread > cap) ctx.addIssue({ code: "custom", path: ["monteCarlo", "tolerances", i], message: `a relative ${t.distribution} spread must be at most ${cap}` });
