@@ -4,44 +4,14 @@ import { toStageModel } from "../../api/map/stage-model.js";
 import { stageSpec } from "../../contracts/stage.js";
 import { monteCarlo } from "../../domain/checks/monte-carlo.js";
 import { demoContext } from "../helpers/app.js";
+import { idealDiode as knownBadIdealDiode } from "../known-bad/designs.js";
 
 // Sources: the start check is the comparison of the stage input with the controller's start
 // voltage (common practice: below start the body diode carries the load); the reverse current at
 // turn-off grows as ΔV·td/L before the gate is off (docs/references.md, Turn-off and inductive
 // energy); a uniform draw's share beyond a level is its closed-form probability.
-const idealDiode = (controller: Record<string, unknown> = {}) => ({
-  kind: "nfet-ideal-diode",
-  name: "test ideal diode",
-  mosfet: {
-    rdsOn: [
-      { gateSourceV: 4.5, rdsOnOhm: "4.5 mOhm" },
-      { gateSourceV: 10, rdsOnOhm: "3 mOhm" },
-    ],
-    thresholdV: 2,
-    vgsMaxV: 20,
-    vdsMaxV: 60,
-    tjMaxC: 175,
-    bodyDiode: { model: "shockley", saturationCurrentA: "8 nA", ideality: 1.4, seriesResistanceOhm: "10 mOhm" },
-    avalancheEnergyJ: "150 mJ",
-    avalancheCurrentA: "60 A",
-  },
-  controller: {
-    startV: 3.2,
-    gateDrive: [
-      { inputV: 3.2, gateSourceV: 6 },
-      { inputV: 6, gateSourceV: 10 },
-      { inputV: 12, gateSourceV: 11 },
-    ],
-    regulatedDropV: "20 mV",
-    quiescentA: "80 uA",
-    maxInputV: 65,
-    reverseThresholdV: "30 mV",
-    turnOffDelayS: "2 us",
-    reverseRatingV: 65,
-    ...controller,
-  },
-  thermal: { kind: "junction-ambient", rthJaKPerW: 45 },
-});
+// The known-bad designs' ideal diode: controller start 3.2 V, Vth 2 V, threshold 30 mV, delay 2 µs.
+const idealDiode = () => knownBadIdealDiode();
 const requirement = {
   supply: { class: "vehicle-12v-b" },
   load: { kind: "constant-current", currentA: 3 },

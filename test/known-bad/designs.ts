@@ -67,7 +67,7 @@ const controller = (o: Obj = {}): Obj => ({
   reverseRatingV: 65,
   ...o,
 });
-const idealDiode = (m: Obj = {}, c: Obj = {}): Obj => ({
+export const idealDiode = (m: Obj = {}, c: Obj = {}): Obj => ({
   kind: "nfet-ideal-diode",
   name: "test ideal diode",
   mosfet: mosfet(m),
