@@ -1,5 +1,9 @@
 import { describe, expect, it } from "vitest";
+import { toStageModel } from "../../api/map/stage-model.js";
 import { appRouter } from "../../api/router.js";
+import { stageSpec } from "../../contracts/stage.js";
+import { reverseSteady } from "../../domain/checks/reverse-steady.js";
+import { cToK } from "../../domain/physics/constants.js";
 import { demoContext } from "../helpers/app.js";
 
 // Source: thermionic emission over a Schottky barrier, IR ∝ T²·exp(−q·ΦB/(k·T)) (S. M. Sze and
@@ -78,5 +82,30 @@ describe("a Schottky's reverse leakage follows thermionic emission, not the forw
   it("a PN diode refuses a barrier height, naming the field", async () => {
     const stage = { ...schottky({ currentA: "1 uA", tempC: 25, barrierEv: 0.6 }), kind: "pn-diode" };
     await expect(appRouter.createCaller(demoContext()).operatingPoint({ stage, currentA: 1, ambientC: 25 } as never)).rejects.toThrow(/barrierEv|reverseLeakage/);
+  });
+});
+
+describe("the known-bad hot-leakage design (test/known-bad/designs.ts) under both laws", () => {
+  // The same stage and reversed 14 V at 100 °C on 35 K/W: the forward fit's Is(T) scaling of the
+  // 40 µA figure (what a Schottky got before, still a PN diode's law) settles; thermionic
+  // emission over 0.7 eV runs away — the stability bound is Rth·VR·IR(Ta)·(d ln IR/dT) < 1/e.
+  it("settles with the Is(T) scaling, runs away with thermionic emission", () => {
+    const spec = stageSpec.parse({
+      kind: "schottky-diode",
+      diode: { model: "shockley", saturationCurrentA: "40 uA", ideality: 1.15, seriesResistanceOhm: "18 mOhm" },
+      reverseRatingV: 60,
+      reverseLeakage: { currentA: "40 uA", tempC: 25, barrierEv: 0.7 },
+      tjMaxC: 175,
+      thermal: { kind: "junction-ambient", rthJaKPerW: 35 },
+    });
+    const model = toStageModel(spec, { kind: "junction-ambient", rthJaKPerW: 35 }, ["stage"], []);
+    if (model.kind !== "schottky-diode") throw new Error(model.kind);
+    expect(reverseSteady(model, 14, 100, { currentA: 40e-6, tempK: cToK(25) }).outcome).toBe("blocks");
+    expect(reverseSteady(model, 14, 100, model.reverseLeakage).outcome).toBe("leakage-runaway");
+    // The closed-form bound at 100 °C: IR(100 °C) by the law, slope 2/T + ΦB/(k·T²).
+    const t = cToK(100);
+    const ir = closedForm(40e-6, 25, 100, 0.7);
+    const slope = 2 / t + (0.7 * Q_E) / (K_B * t * t);
+    expect(35 * 14 * ir * slope).toBeGreaterThan(1 / Math.E);
   });
 });
