@@ -9,15 +9,56 @@ import { stageInput } from "./stage.js";
 import { thermalPath } from "./thermal.js";
 import { zthCurveFields } from "./fit.js";
 
+/** What a Foster or Cauer network spans, and the heat capacity of the rest of the path when it spans junction to case. */
+const networkScope = {
+  scope: z
+    .enum(["junction-ambient", "junction-case"])
+    .optional()
+    .meta({
+      description:
+        "what the network spans (default junction-ambient: its ΣR must be the stage's thermal path within 5 %); junction-case: a datasheet Zth(j-c) network, cascaded with the rest of the path as one node of caseToAmbientHeatCapacityJPerK",
+    }),
+  caseToAmbientHeatCapacityJPerK: quantity("J/K", "heat capacity of the case-to-ambient path (board copper, heatsink), for a junction-case network", { gt: 0, le: 1e6 }).optional(),
+};
+
+function needsCaseCapacity(t: { scope?: string | undefined; caseToAmbientHeatCapacityJPerK?: number | undefined }, ctx: z.RefinementCtx): void {
+  if (t.scope === "junction-case" && t.caseToAmbientHeatCapacityJPerK === undefined) {
+    ctx.addIssue({ code: "custom", path: ["caseToAmbientHeatCapacityJPerK"], message: "a junction-case network needs the heat capacity of the rest of the path (board copper, heatsink), J/K" });
+  }
+  if (t.scope !== "junction-case" && t.caseToAmbientHeatCapacityJPerK !== undefined) {
+    ctx.addIssue({ code: "custom", path: ["caseToAmbientHeatCapacityJPerK"], message: 'only a network with scope "junction-case" takes a case-to-ambient heat capacity' });
+  }
+}
+
 export const transientThermal = z
   .discriminatedUnion("kind", [
-    z.strictObject({
-      kind: z.literal("foster"),
-      terms: z
-        .array(z.strictObject({ rKPerW: quantity("K/W", "thermal resistance of the term", { gt: 0, le: 10_000 }), tauS: quantity("s", "time constant τ = R·C", { gt: 0, le: 1e6 }) }))
-        .min(1)
-        .max(12),
-    }),
+    z
+      .strictObject({
+        kind: z.literal("foster"),
+        terms: z
+          .array(z.strictObject({ rKPerW: quantity("K/W", "thermal resistance of the term", { gt: 0, le: 10_000 }), tauS: quantity("s", "time constant τ = R·C", { gt: 0, le: 1e6 }) }))
+          .min(1)
+          .max(12),
+        ...networkScope,
+      })
+      .superRefine(needsCaseCapacity),
+    z
+      .strictObject({
+        kind: z.literal("cauer"),
+        stages: z
+          .array(
+            z.strictObject({
+              rKPerW: quantity("K/W", "resistance from this node to the next (the last: to ambient, or to the case)", { gt: 0, le: 10_000 }),
+              cJPerK: quantity("J/K", "heat capacity from this node to ambient", { gt: 0, le: 1e6 }),
+            }),
+          )
+          .min(1)
+          .max(12)
+          .meta({ description: "the ladder's stages, junction first" }),
+        ...networkScope,
+      })
+      .superRefine(needsCaseCapacity)
+      .meta({ description: "a Cauer (ladder) network: physical nodes, so a junction-case ladder is cascaded with the case-to-ambient path exactly" }),
     z.strictObject({ kind: z.literal("single-pole"), heatCapacityJPerK: quantity("J/K", "heat capacity of the junction-to-ambient path", { gt: 0, le: 1e6 }) }),
     z
       .strictObject({ kind: z.literal("zth-points"), ...zthCurveFields })
@@ -25,7 +66,7 @@ export const transientThermal = z
   ])
   .meta({
     description:
-      "transient thermal model for start-up profiles: a Foster network, one pole from RthJA and a heat capacity, or Zth(t) points fitted to a Foster network (absent: quasi-static steady state, an upper bound)",
+      "transient thermal model for start-up profiles: a Foster or Cauer network (junction-ambient, or junction-case cascaded with the board), one pole from RthJA and a heat capacity, or Zth(t) points fitted to a Foster network (absent: quasi-static steady state, an upper bound)",
   });
 
 export const candidate = z.strictObject({
@@ -36,6 +77,10 @@ export const candidate = z.strictObject({
     .strictObject({
       rdsOnFactor: z.number().gte(1).lte(5).meta({ description: "datasheet maximum ÷ typical Rds(on)", unit: "1" }),
       forwardVoltageFactor: z.number().gte(1).lte(5).meta({ description: "datasheet maximum ÷ typical forward voltage", unit: "1" }),
+      startV: quantity("V", "datasheet maximum start voltage of the controller or integrated switch (the start checks and the datasheet-maximum corners use it)", { ge: 0, le: 10_000 }).optional(),
+      thresholdV: quantity("V", "datasheet maximum gate threshold Vth(max) of the MOSFET, at 25 °C (the start checks and the datasheet-maximum corners use it)", { ge: 0, le: 100 }).optional(),
+      reverseThresholdV: quantity("V", "datasheet maximum reverse-current threshold of the controller (the review's turn-off event uses it)", { ge: 0, le: 10 }).optional(),
+      turnOffDelayS: quantity("s", "datasheet maximum turn-off delay of the controller (the review's turn-off event uses it)", { ge: 0, le: 1 }).optional(),
     })
     .optional()
     .meta({ description: "the datasheet-maximum tolerance corner (absent: typical values only)" }),
@@ -44,7 +89,7 @@ export const candidate = z.strictObject({
   turnOffTiming: turnOffTiming.optional().meta({ description: "this candidate's reverse-current turn-off timing for the requirement's turnOff event (default: requirement.turnOff.timing, else the stage controller's own)" }),
 });
 
-const mcParameter = z.enum(["rdsOn", "forwardVoltage", "rth", "supplyV", "ambientC", "load"]);
+const mcParameter = z.enum(["rdsOn", "forwardVoltage", "rth", "supplyV", "ambientC", "load", "startV", "thresholdV"]);
 export const monteCarloSpec = z.strictObject({
   samples: z.number().int().min(1).max(LIMITS.maxMonteCarloSamples, { error: limitMessage("maxMonteCarloSamples", "Monte Carlo samples") }),
   seed: z.number().int().min(0).max(2 ** 32 - 1),
@@ -54,7 +99,7 @@ export const monteCarloSpec = z.strictObject({
   tolerances: z
     .array(
       z.discriminatedUnion("distribution", [
-        z.strictObject({ parameter: mcParameter, distribution: z.literal("normal"), sigma: z.number().gte(0).lte(1000).meta({ description: "standard deviation: relative for rdsOn, forwardVoltage, rth, load (≤ 0.2); V or K for supplyV, ambientC" }) }),
+        z.strictObject({ parameter: mcParameter, distribution: z.literal("normal"), sigma: z.number().gte(0).lte(1000).meta({ description: "standard deviation: relative for rdsOn, forwardVoltage, rth, load (≤ 0.2); V or K for supplyV, ambientC, startV (a controller's or switch's start voltage), thresholdV (the MOSFET's Vth)" }) }),
         z.strictObject({ parameter: mcParameter, distribution: z.literal("uniform"), halfWidth: z.number().gte(0).lte(1000).meta({ description: "± half width: relative (≤ 0.9) or V / K" }) }),
       ]),
     )
@@ -78,7 +123,7 @@ export const reviewInput = z
     const mc = r.monteCarlo;
     if (mc?.candidate !== undefined && mc.candidate >= r.candidates.length) ctx.addIssue({ code: "custom", path: ["monteCarlo", "candidate"], message: "no candidate at that index" });
     mc?.tolerances.forEach((t, i) => {
-      const relative = t.parameter !== "supplyV" && t.parameter !== "ambientC";
+      const relative = t.parameter !== "supplyV" && t.parameter !== "ambientC" && t.parameter !== "startV" && t.parameter !== "thresholdV";
       const spread = t.distribution === "normal" ? t.sigma : t.halfWidth;
       const cap = t.distribution === "normal" ? 0.2 : 0.9;
       if (relative && spread > cap) ctx.addIssue({ code: "custom", path: ["monteCarlo", "tolerances", i], message: `a relative ${t.distribution} spread must be at most ${cap}` });

@@ -25,6 +25,20 @@ export const reverseLeakageCurve = z
   })
   .meta({ description: "reverse leakage curves: fitted to IR = Iref·(T/Tref)²·exp(−(ΦB/k)·(1/T − 1/Tref))·(VR/Vref)^m (thermionic emission over the barrier ΦB)" });
 
+const leakageFigure = { currentA: quantity("A", "datasheet reverse current", { gt: 0, le: 10 }), tempC: temperatureC("junction temperature of that figure") };
+
+const pnLeakagePoint = z.strictObject(leakageFigure).meta({ description: "one figure at the rated voltage, scaled in temperature by the junction's Is(T) law" });
+
+/** A Schottky's one datasheet figure and the thermionic-emission law that carries it in Tj and VR (schottky-leakage.ts). */
+const schottkyLeakagePoint = z
+  .strictObject({
+    ...leakageFigure,
+    reverseV: volts("reverse voltage of that figure (default: the rated reverse voltage)").optional(),
+    barrierEv: z.number().gte(0.2).lte(1.5).optional().meta({ description: "barrier height ΦB of IR ∝ T²·exp(−q·ΦB/(k·T)), eV (default 0.7 eV: toward the steep end of silicon power Schottky barriers, so hot leakage errs high)", unit: "eV" }),
+    voltageExponent: ratio("power m of IR ∝ VR^m (default 0: the figure's current at every reverse voltage up to it, an upper bound below it)", { ge: 0, le: 3 }).optional(),
+  })
+  .meta({ description: "one figure scaled by thermionic emission: IR = I·(T/T0)²·exp(−(ΦB/k)·(1/T − 1/T0))·(VR/V0)^m, independent of the forward fit" });
+
 const diodeStage = (kind: "pn-diode" | "schottky-diode") =>
   z.strictObject({
     kind: z.literal(kind),
@@ -33,14 +47,14 @@ const diodeStage = (kind: "pn-diode" | "schottky-diode") =>
     diode,
     reverseRatingV: volts("repetitive peak reverse voltage rating VRRM"),
     reverseLeakage: z
-      .union([
-        z
-          .strictObject({ currentA: quantity("A", "datasheet reverse current", { gt: 0, le: 10 }), tempC: temperatureC("junction temperature of that figure") })
-          .meta({ description: "one figure at the rated voltage, scaled in temperature by the junction's Is(T) law" }),
-        reverseLeakageCurve,
-      ])
+      .union([kind === "schottky-diode" ? schottkyLeakagePoint : pnLeakagePoint, reverseLeakageCurve])
       .optional()
-      .meta({ description: "datasheet reverse leakage: one figure at the rated voltage, or IR(Tj, VR) points fitted to the thermionic-emission law (default: Is(T) of the diode model)" }),
+      .meta({
+        description:
+          kind === "schottky-diode"
+            ? "datasheet reverse leakage: one figure scaled by thermionic emission over the barrier (barrierEv, default 0.7 eV), or IR(Tj, VR) points fitted to that law (default: the forward fit's Is at its nominal temperature, scaled by the same law)"
+            : "datasheet reverse leakage: one figure at the rated voltage, or IR(Tj, VR) points fitted to the thermionic-emission law (default: Is(T) of the diode model)",
+      }),
     tjMaxC: temperatureC("maximum junction temperature"),
     thermal: thermalPath,
     avalancheEnergyJ: quantity("J", "single-pulse avalanche energy rating at 25 °C starting junction temperature (for the turn-off rules)", { gt: 0, le: 1e6 }).optional(),

@@ -5,6 +5,7 @@ import { findSupplyClass, SUPPLY_CLASSES, type SupplyClass } from "../../domain/
 import { findTransient, TRANSIENT_LIBRARY, type TransientPulse } from "../../domain/review/transient-library.js";
 import { unknownIdMessage } from "../../contracts/zod-messages.js";
 import { inputProblem } from "../input-problem.js";
+import { missingQrrSentence } from "./reverse-inputs.js";
 
 /** Defaults of the design review [common practice], each recorded in `assumptions` when used. */
 export const REVIEW_DEFAULTS = {
@@ -121,7 +122,7 @@ function reviewTurnOffOf(t: NonNullable<Requirement["turnOff"]>, nominalV: numbe
   if (t.inputAfterV === undefined) assumptions.push("turnOff.inputAfterV: 0 V (the input shorted)");
   if (t.outputV === undefined) assumptions.push(`turnOff.outputV: the nominal supply ${nominalV} V before the event`);
   if (t.tjC === undefined) assumptions.push("turnOff.tjC: each candidate's worst-case junction temperature over the corners (the highest ambient where no corner solved)");
-  if (t.reverseRecoveryChargeC === undefined) assumptions.push("turnOff.reverseRecoveryChargeC: 0 C for diode candidates (default: an ideal diode without stored charge)");
+  if (t.reverseRecoveryChargeC === undefined) assumptions.push(missingQrrSentence("turnOff.reverseRecoveryChargeC", "diode"));
   if (t.clampV === undefined) assumptions.push("turnOff.clampV: the blocking element's rated voltage (a lower bound of its breakdown: the energy estimate is conservative)");
   const outputV = t.outputV ?? nominalV;
   const inputAfterV = t.inputAfterV ?? 0;

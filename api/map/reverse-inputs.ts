@@ -44,3 +44,14 @@ export function loadMinimumV(load: LoadModel, given: number | undefined, path: (
 export function stageLabel(spec: StageSpec, partId: string | undefined): { kind: string; name?: string; partId?: string } {
   return { kind: spec.kind, ...(spec.name === undefined ? {} : { name: spec.name }), ...(partId === undefined ? {} : { partId }) };
 }
+
+/**
+ * The sentence for a diode stage whose reverse-recovery charge Qrr is not given: a Schottky is a
+ * majority-carrier junction (no stored charge to speak of, common practice); a PN diode's Qrr keeps
+ * it conducting backwards after the current reverses, so 0 understates the reverse peak and the
+ * charge lost: a warning naming the field to give.
+ */
+export function missingQrrSentence(field: string, kind: "pn-diode" | "schottky-diode" | "diode"): string {
+  if (kind === "schottky-diode") return `${field}: 0 C (a Schottky junction stores no minority charge to speak of, common practice)`;
+  return `warning: ${field}: not given, taken as 0 C for ${kind === "pn-diode" ? "this PN diode" : "PN diode candidates"}: a PN junction's stored charge keeps it conducting backwards after the current reverses, so the reverse-current peak and the charge lost are understated; give its Qrr from the datasheet`;
+}

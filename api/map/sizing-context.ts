@@ -3,8 +3,9 @@ import type { StageSpec } from "../../contracts/stage.js";
 import { reviewCandidate } from "../../domain/review/candidate-review.js";
 import type { CompiledRuleSet } from "../../domain/rules/compile-rule-set.js";
 import type { SizingContext, TurnOffSizing } from "../../domain/sizing/assessment.js";
-import { type StageScale, UNSCALED } from "../../domain/stages/scale-stage.js";
+import type { StageScale } from "../../domain/stages/scale-stage.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
+import { type DatasheetMaxSpec, datasheetMaxScale } from "./datasheet-max.js";
 import type { MappedRequirement } from "./requirement.js";
 import { reviewRuleInput } from "../../domain/rules/metrics-of-review.js";
 import { type TransientThermalInput, transientThermalOf } from "./transient-thermal.js";
@@ -33,7 +34,7 @@ export function sizingContext(
   req: MappedRequirement,
   set: CompiledRuleSet,
   stage: { spec: StageSpec; model: StageModel },
-  cand: { transientThermal?: TransientThermalInput; datasheetMax?: { rdsOnFactor: number; forwardVoltageFactor: number } | undefined },
+  cand: { transientThermal?: TransientThermalInput; datasheetMax?: DatasheetMaxSpec | undefined },
   turnOff: TurnOffRequest | undefined,
   path: (string | number)[] = [],
   assumptions: string[] = [],
@@ -46,7 +47,7 @@ export function sizingContext(
   };
   const { mission: _mission, ...searchReq } = req.model;
   const transientThermal = transientThermalOf(cand.transientThermal, stage.model, [...path, "transientThermal"], assumptions);
-  const datasheetMax: StageScale | undefined = cand.datasheetMax ? { ...UNSCALED, ...cand.datasheetMax } : undefined;
+  const datasheetMax: StageScale | undefined = cand.datasheetMax ? datasheetMaxScale(cand.datasheetMax, stage.model, [...path, "datasheetMax"]) : undefined;
   const assess = (s: StageModel) => {
     const review = reviewCandidate(searchReq, { stage: s, transientThermal, ...(datasheetMax ? { datasheetMax } : {}) });
     return { review, input: reviewRuleInput(s, req.model, flags, review) };

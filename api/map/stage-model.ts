@@ -1,5 +1,7 @@
 import type { StageSpec } from "../../contracts/stage.js";
-import { cToK } from "../../domain/physics/constants.js";
+import { cToK, kToC } from "../../domain/physics/constants.js";
+import type { DiodeParams } from "../../domain/physics/diode.js";
+import { DEFAULT_SCHOTTKY_BARRIER_EV } from "../../domain/physics/schottky-leakage.js";
 import type { RdsTempLaw } from "../../domain/physics/mosfet-channel.js";
 import type { ThermalPath } from "../../domain/physics/thermal-path.js";
 import type { DatasheetLeakage, MosfetModel, StageModel } from "../../domain/stages/stage-model.js";
@@ -17,17 +19,19 @@ export const DEFAULT_RDS_EXPONENT = 2.3;
 export function toStageModel(spec: StageSpec, thermal: ThermalPath, path: (string | number)[], assumptions: string[]): StageModel {
   switch (spec.kind) {
     case "pn-diode":
-    case "schottky-diode":
+    case "schottky-diode": {
+      const diode = toDiodeParams(spec.diode, spec.kind === "pn-diode" ? "pn" : "schottky", [...path, "diode"], assumptions);
       return {
         kind: spec.kind,
-        diode: toDiodeParams(spec.diode, spec.kind === "pn-diode" ? "pn" : "schottky", [...path, "diode"], assumptions),
+        diode,
         reverseRatingV: spec.reverseRatingV,
-        ...(spec.reverseLeakage === undefined ? {} : { reverseLeakage: toLeakage(spec.reverseLeakage, [...path, "reverseLeakage"], assumptions) }),
+        ...leakageOf(spec, diode, [...path, "reverseLeakage"], assumptions),
         tjMaxC: spec.tjMaxC,
         thermal,
         ...(spec.avalancheEnergyJ === undefined ? {} : { avalancheEnergyJ: spec.avalancheEnergyJ }),
         ...(spec.peakRepetitiveCurrentA === undefined ? {} : { peakRepetitiveCurrentA: spec.peakRepetitiveCurrentA }),
       };
+    }
     case "pfet-high-side":
     case "nfet-low-side":
       return {
@@ -107,9 +111,35 @@ function toTempLaw(law: TempLawSpec | undefined, path: (string | number)[], assu
   return { law: "points", points: law.points.map((p) => ({ tempK: cToK(p.tjC), factor: p.factor })) };
 }
 
-function toLeakage(l: NonNullable<Extract<StageSpec, { kind: "pn-diode" | "schottky-diode" }>["reverseLeakage"]>, path: (string | number)[], assumptions: string[]): DatasheetLeakage {
-  if ("points" in l) return { law: fitLeakageCurve(l, path, assumptions).fit.params };
-  return { currentA: l.currentA, tempK: cToK(l.tempC) };
+type DiodeSpec = Extract<StageSpec, { kind: "pn-diode" | "schottky-diode" }>;
+
+/**
+ * A diode's reverse leakage law. A Schottky's follows thermionic emission over its barrier
+ * (schottky-leakage.ts), never the forward fit's Is(T), whose fitted n flattens it: from its one
+ * figure, from its fitted curves, or, with neither, from the forward model's Is at its nominal
+ * temperature. A PN diode's one figure is scaled by the junction's Is(T); with none, Is(T) itself.
+ */
+function leakageOf(spec: DiodeSpec, diode: DiodeParams, path: (string | number)[], assumptions: string[]): { reverseLeakage?: DatasheetLeakage } {
+  const l = spec.reverseLeakage;
+  if (l !== undefined && "points" in l) return { reverseLeakage: { law: fitLeakageCurve(l, path, assumptions).fit.params } };
+  if (spec.kind === "pn-diode") return l === undefined ? {} : { reverseLeakage: { currentA: l.currentA, tempK: cToK(l.tempC) } };
+  const where = path.join(".");
+  const figure = l as { currentA: number; tempC: number; reverseV?: number; barrierEv?: number; voltageExponent?: number } | undefined;
+  const barrierEv = figure?.barrierEv ?? DEFAULT_SCHOTTKY_BARRIER_EV;
+  if (figure?.barrierEv === undefined) {
+    assumptions.push(`${where}: barrier height ${DEFAULT_SCHOTTKY_BARRIER_EV} eV for the thermionic-emission leakage law (default, memory: silicon power Schottky barriers lie about 0.5–0.8 eV; the steep end makes hot leakage err high)`);
+  }
+  if (figure === undefined) {
+    assumptions.push(`${where}: no datasheet leakage: the forward model's Is at ${kToC(diode.nominalTempK)} °C taken as the reverse current there, carried in temperature by thermionic emission`);
+    return { reverseLeakage: { law: { refCurrentA: diode.saturationCurrentA, refTempK: diode.nominalTempK, refVoltageV: spec.reverseRatingV, barrierEv, voltageExponent: 0 } } };
+  }
+  const voltageExponent = figure.voltageExponent ?? 0;
+  if (figure.voltageExponent === undefined) assumptions.push(`${where}: leakage taken independent of the reverse voltage (m = 0: the figure's current at every voltage, an upper bound below the figure's voltage)`);
+  return {
+    reverseLeakage: {
+      law: { refCurrentA: figure.currentA, refTempK: cToK(figure.tempC), refVoltageV: figure.reverseV ?? spec.reverseRatingV, barrierEv, voltageExponent },
+    },
+  };
 }
 
 function blocksReverse(spec: Extract<StageSpec, { kind: "integrated-switch" }>, path: (string | number)[], assumptions: string[]): boolean {

@@ -5,7 +5,7 @@ import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { ruleSetForAnalysis } from "../map/analysis-rule-set.js";
 import { HOLD_UP_COMPUTES, holdUpRuleInput } from "../../domain/rules/metrics-of-reverse-current.js";
-import { controllerTiming, loadMinimumV, stageLabel } from "../map/reverse-inputs.js";
+import { controllerTiming, loadMinimumV, missingQrrSentence, stageLabel } from "../map/reverse-inputs.js";
 import { holdUpAgainstRequirement } from "../map/hold-up-requirement.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { defineProcedure } from "../define-procedure.js";
@@ -22,7 +22,7 @@ export const holdUp = defineProcedure({ name: "holdUp", input: holdUpInput, outp
     else {
       const controller = controllerTiming(stage.spec, stage.model, inp.turnOff, ["input", "turnOff"], assumptions);
       if (inp.reverseRecoveryChargeC === undefined && (stage.model.kind === "pn-diode" || stage.model.kind === "schottky-diode")) {
-        assumptions.push("input.reverseRecoveryChargeC: 0 C (default: an ideal diode without stored charge)");
+        assumptions.push(missingQrrSentence("input.reverseRecoveryChargeC", stage.model.kind));
       }
       modelInput = {
         kind: "falls",

@@ -9,7 +9,7 @@ import { type CandidateVerdict, rankCandidates } from "../../domain/review/ranki
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { formatQuantity } from "../../domain/rules/quantity-text.js";
 import type { RuleSetResult } from "../../domain/rules/rule-model.js";
-import { UNSCALED } from "../../domain/stages/scale-stage.js";
+import { datasheetMaxScale, worstTurnOffTiming } from "../map/datasheet-max.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { controllerTiming } from "../map/reverse-inputs.js";
 import { turnOffEventFields } from "../map/turn-off-output.js";
@@ -37,8 +37,9 @@ export const review = defineProcedure({ name: "review", input: reviewInput, outp
     const path = ["candidates", index, "stage"];
     const stage = resolveStage(c.stage, ctx.catalog, path, assumptions, c.thermal);
     const transientThermal = transientThermalOf(c.transientThermal, stage.model, [...path.slice(0, 2), "transientThermal"], assumptions);
-    const datasheetMax = c.datasheetMax ? Object.assign({}, UNSCALED, c.datasheetMax) : undefined;
-    const turnOffController = req.model.turnOff ? controllerTiming(stage.spec, stage.model, c.turnOffTiming ?? input.requirement.turnOff?.timing, c.turnOffTiming ? [...path.slice(0, 2), "turnOffTiming"] : ["requirement", "turnOff", "timing"], assumptions) : undefined;
+    const datasheetMax = c.datasheetMax ? datasheetMaxScale(c.datasheetMax, stage.model, [...path.slice(0, 2), "datasheetMax"]) : undefined;
+    const typicalTiming = req.model.turnOff ? controllerTiming(stage.spec, stage.model, c.turnOffTiming ?? input.requirement.turnOff?.timing, c.turnOffTiming ? [...path.slice(0, 2), "turnOffTiming"] : ["requirement", "turnOff", "timing"], assumptions) : undefined;
+    const turnOffController = worstTurnOffTiming(typicalTiming, c.datasheetMax, [...path.slice(0, 2), "datasheetMax"], assumptions);
     // Unless the requirement sets its own derating, the clamp window follows the rule set.
     const transientAllowanceV = input.requirement.deratingFactor === undefined ? transientAllowanceOf(set, stage.model, req.model) : undefined;
     const r = reviewCandidate(req.model, {

@@ -7,7 +7,7 @@ import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { ruleSetForAnalysis } from "../map/analysis-rule-set.js";
 import { TURN_OFF_COMPUTES, turnOffRuleInput } from "../../domain/rules/metrics-of-reverse-current.js";
-import { controllerTiming, loadMinimumV, stageLabel } from "../map/reverse-inputs.js";
+import { controllerTiming, loadMinimumV, missingQrrSentence, stageLabel } from "../map/reverse-inputs.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { defineProcedure } from "../define-procedure.js";
 
@@ -21,7 +21,7 @@ export const turnOff = defineProcedure({ name: "turnOff", input: turnOffInput, o
   const controller = controllerTiming(stage.spec, stage.model, input.turnOff, ["turnOff"], assumptions);
   if (input.clampV === undefined) assumptions.push("clampV: the blocking element's rated voltage (a lower bound of its breakdown: the energy estimate is conservative)");
   if (stage.model.kind === "pn-diode" || stage.model.kind === "schottky-diode") {
-    if (input.reverseRecoveryChargeC === undefined) assumptions.push("reverseRecoveryChargeC: 0 (an ideal diode without stored charge)");
+    if (input.reverseRecoveryChargeC === undefined) assumptions.push(missingQrrSentence("reverseRecoveryChargeC", stage.model.kind));
   }
   const model: TurnOffModel = {
     stage: stage.model,

@@ -6,11 +6,11 @@ import { createRng, type Rng } from "../solve/prng.js";
 import { scaleStage } from "../stages/scale-stage.js";
 import type { StageModel } from "../stages/stage-model.js";
 
-export type McParameter = "rdsOn" | "forwardVoltage" | "rth" | "supplyV" | "ambientC" | "load";
+export type McParameter = "rdsOn" | "forwardVoltage" | "rth" | "supplyV" | "ambientC" | "load" | "startV" | "thresholdV";
 
 /**
  * A tolerance: relative (factor 1 + x) for rdsOn, forwardVoltage, rth and load; absolute (V, °C)
- * for supplyV and ambientC. Normal: sigma is the standard deviation; uniform: ±halfWidth.
+ * for supplyV, ambientC, startV (a controller's or switch's start voltage) and thresholdV (Vth). Normal: sigma is the standard deviation; uniform: ±halfWidth.
  */
 export type McTolerance =
   | { readonly parameter: McParameter; readonly distribution: "normal"; readonly sigma: number }
@@ -52,11 +52,11 @@ function draw(rng: Rng, t: McTolerance): number {
 export function monteCarlo(m: McInput, visit: (s: McSample) => void): void {
   const rng = createRng(m.seed);
   for (let i = 0; i < m.samples; i += 1) {
-    const d: Record<McParameter, number> = { rdsOn: 0, forwardVoltage: 0, rth: 0, supplyV: 0, ambientC: 0, load: 0 };
+    const d: Record<McParameter, number> = { rdsOn: 0, forwardVoltage: 0, rth: 0, supplyV: 0, ambientC: 0, load: 0, startV: 0, thresholdV: 0 };
     for (const t of m.tolerances) d[t.parameter] += draw(rng, t);
     // A relative draw below −100 % has no physical meaning: floor the factor at 1 % of nominal.
     const f = (x: number) => Math.max(1 + x, 0.01);
-    const stage = scaleStage(m.stage, { rdsOnFactor: f(d.rdsOn), forwardVoltageFactor: f(d.forwardVoltage), rthFactor: f(d.rth) });
+    const stage = scaleStage(m.stage, { rdsOnFactor: f(d.rdsOn), forwardVoltageFactor: f(d.forwardVoltage), rthFactor: f(d.rth), startShiftV: d.startV, thresholdShiftV: d.thresholdV });
     const supplyV = Math.max(m.supplyV + d.supplyV, 1e-3);
     const result = solveOperatingPoint({
       stage,

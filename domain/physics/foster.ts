@@ -43,3 +43,38 @@ export function stepFoster(net: readonly FosterTerm[], rises: readonly number[],
     return (rises[i] ?? 0) * decay + term.rKPerW * powerW * (1 - decay);
   });
 }
+
+/** N equal rectangular pulses of powerW, each widthS long, starting every periodS (widthS ≤ periodS). */
+export interface PeriodicTrain {
+  readonly powerW: number;
+  readonly widthS: number;
+  readonly periodS: number;
+  readonly count: number;
+}
+
+/**
+ * Junction rise of a Foster network under a periodic pulse train, in closed form (superposition of
+ * the step responses summed as a geometric series, per term, with a = e^(−tp/τ), b = e^(−T/τ)):
+ *   at the end of pulse n:          ΔTi = Ri·P·(1 − a)·(1 − bⁿ)/(1 − b)
+ *   periodic steady state (n → ∞):  ΔTi = Ri·P·(1 − a)/(1 − b), and its valley that peak·b/a
+ * Every term rises through a pulse and falls between pulses, so the train's highest rise is at the
+ * end of its last pulse; the steady-state peak bounds every finite train.
+ */
+export function periodicTrainRiseK(net: readonly FosterTerm[], train: PeriodicTrain): { readonly lastPeakK: number; readonly steadyPeakK: number; readonly steadyValleyK: number } {
+  let lastPeakK = 0;
+  let steadyPeakK = 0;
+  let steadyValleyK = 0;
+  for (const term of net) {
+    const a = Math.exp(-train.widthS / term.tauS);
+    const b = Math.exp(-train.periodS / term.tauS);
+    // (1 − bⁿ)/(1 − b) by expm1 so a long τ (b → 1) keeps its digits.
+    const oneMinusB = -Math.expm1(-train.periodS / term.tauS);
+    const rise = term.rKPerW * train.powerW * -Math.expm1(-train.widthS / term.tauS);
+    const series = oneMinusB > 0 ? -Math.expm1(-(train.count * train.periodS) / term.tauS) / oneMinusB : train.count;
+    lastPeakK += rise * series;
+    const steady = oneMinusB > 0 ? rise / oneMinusB : term.rKPerW * train.powerW * (train.widthS / train.periodS);
+    steadyPeakK += steady;
+    steadyValleyK += a > 0 ? steady * (b / a) : 0;
+  }
+  return { lastPeakK, steadyPeakK, steadyValleyK };
+}

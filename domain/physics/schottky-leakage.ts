@@ -23,6 +23,13 @@ export interface LeakageLaw {
   readonly voltageExponent: number;
 }
 
+/**
+ * Barrier height a Schottky's leakage law takes when the caller gives none, eV (memory: silicon
+ * power Schottky barriers lie about 0.5–0.8 eV, Sze & Ng ch. 3 tables; 0.7 eV is taken toward the
+ * steep end, so leakage carried from a cool datasheet figure to a hot junction errs high).
+ */
+export const DEFAULT_SCHOTTKY_BARRIER_EV = 0.7;
+
 /** ln(I_R/I_ref) of the law at (tK, reverseV); reverseV > 0. */
 export function leakageLogRatio(law: LeakageLaw, tK: number, reverseV: number): number {
   const voltage = law.voltageExponent === 0 ? 0 : law.voltageExponent * Math.log(reverseV / law.refVoltageV);

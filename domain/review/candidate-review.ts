@@ -9,8 +9,8 @@ import { type TransientAllowance, type TransientContext, type TransientResult, t
 import { totalRthKPerW } from "../physics/thermal-path.js";
 import type { LoadModel } from "../solve/load-model.js";
 import { scaleLoad } from "../solve/load-scale.js";
-import { type StageScale, scaleStage } from "../stages/scale-stage.js";
-import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
+import { type StageScale, scaleStage, UNSCALED } from "../stages/scale-stage.js";
+import { type StageModel, stageStartV, stageTjMaxC } from "../stages/stage-model.js";
 import type { TransientPulse } from "./transient-library.js";
 import { type ReviewTurnOff, type ReviewTurnOffResult, reviewTurnOff } from "./review-turn-off.js";
 
@@ -59,6 +59,8 @@ export interface CandidateReview {
   readonly corners: readonly CornerResult[];
   readonly worst: WorstCase;
   readonly startUp: { readonly atMinSupply: DriveAtInput; readonly profiles: readonly { readonly ambientC: number; readonly result: ProfileResult }[] };
+  /** The start voltage the start checks used (the datasheet maximum where given), V; undefined for a stage without one. */
+  readonly startVoltageV?: number;
   readonly reverse: ReverseSteadyResult;
   readonly transients: readonly TransientResult[];
   readonly thermalSizing: ThermalSizing;
@@ -88,11 +90,16 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
   // Start-up at the lowest supply, full load: the stage input after the source drop.
   const minCorner = corners.find((c) => c.conditions.supply === "min" && c.conditions.loadScale === fullScale && "point" in c.result);
   const minPoint = minCorner && "point" in minCorner.result ? minCorner.result.point : undefined;
-  const atMinSupply = driveAtInput(cand.stage, minPoint?.stageInputV ?? req.supplyMinV, minPoint?.forward.dropV ?? 0);
+  // The start checks take the datasheet-maximum start voltage and gate threshold where given (the
+  // factors stay typical here, as the start checks had them before).
+  const dm = cand.datasheetMax;
+  const startStage = dm ? scaleStage(cand.stage, { ...UNSCALED, ...(dm.startShiftV === undefined ? {} : { startShiftV: dm.startShiftV }), ...(dm.thresholdShiftV === undefined ? {} : { thresholdShiftV: dm.thresholdShiftV }) }) : cand.stage;
+  const startVoltageV = stageStartV(startStage);
+  const atMinSupply = driveAtInput(startStage, minPoint?.stageInputV ?? req.supplyMinV, minPoint?.forward.dropV ?? 0);
   const profiles = req.startProfile
     ? [req.ambientMinC, req.ambientMaxC].map((ambientC) => ({
         ambientC,
-        result: alongProfile(cand.stage, req.startProfile ?? [], req.load, req.sourceResistanceOhm, ambientC, cand.transientThermal),
+        result: alongProfile(startStage, req.startProfile ?? [], req.load, req.sourceResistanceOhm, ambientC, cand.transientThermal),
       }))
     : [];
 
@@ -136,6 +143,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
     corners,
     worst,
     startUp: { atMinSupply, profiles },
+    ...(startVoltageV === undefined ? {} : { startVoltageV }),
     reverse,
     transients,
     thermalSizing: sizing,

@@ -44,6 +44,8 @@ export interface RequirementFlags {
 export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags: RequirementFlags, r: CandidateReview): RuleInput {
   // stageMetrics returns a fresh record: filled in place (the keys in the order a spread would give).
   const metrics = stageMetrics(stage);
+  // The start checks' start voltage: the datasheet maximum where the candidate gives one.
+  if (r.startVoltageV !== undefined) metrics["startVoltageV"] = r.startVoltageV;
   metrics["supplyMinV"] = req.supplyMinV;
   metrics["supplyMaxV"] = req.supplyMaxV;
   metrics["reverseVMaxV"] = req.reverseV;

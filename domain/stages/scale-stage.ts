@@ -11,6 +11,10 @@ export interface StageScale {
   readonly forwardVoltageFactor: number;
   /** Every thermal resistance of the path × this. */
   readonly rthFactor: number;
+  /** Added to a controller's or integrated switch's start voltage, V (datasheet maximum − typical, or a sample); absent: 0. */
+  readonly startShiftV?: number;
+  /** Added to a MOSFET's gate threshold Vth, V (datasheet maximum − typical, or a sample); absent: 0. */
+  readonly thresholdShiftV?: number;
 }
 
 export const UNSCALED: StageScale = { rdsOnFactor: 1, forwardVoltageFactor: 1, rthFactor: 1 };
@@ -21,7 +25,9 @@ export const UNSCALED: StageScale = { rdsOnFactor: 1, forwardVoltageFactor: 1, r
  * kept, so the part keeps its temperature coefficient.
  */
 export function scaleStage(stage: StageModel, s: StageScale): StageModel {
-  if (s.rdsOnFactor === 1 && s.forwardVoltageFactor === 1 && s.rthFactor === 1) return stage;
+  const startShiftV = s.startShiftV ?? 0;
+  const thresholdShiftV = s.thresholdShiftV ?? 0;
+  if (s.rdsOnFactor === 1 && s.forwardVoltageFactor === 1 && s.rthFactor === 1 && startShiftV === 0 && thresholdShiftV === 0) return stage;
   // Object.assign rather than a spread followed by fields: in V8 a spread clone that then gets a
   // field takes a slow path (~1 µs each here), and the scaled stage is read in every circuit solve.
   const thermal = scaleThermal(stage.thermal, s.rthFactor);
@@ -31,10 +37,16 @@ export function scaleStage(stage: StageModel, s: StageScale): StageModel {
       return Object.assign({}, stage, { diode: scaleDiode(stage.diode, s.forwardVoltageFactor), thermal });
     case "pfet-high-side":
     case "nfet-low-side":
-    case "nfet-ideal-diode":
       return Object.assign({}, stage, { mosfet: scaleMosfet(stage.mosfet, s), thermal });
+    case "nfet-ideal-diode":
+      return Object.assign({}, stage, {
+        mosfet: scaleMosfet(stage.mosfet, s),
+        controller: startShiftV === 0 ? stage.controller : Object.assign({}, stage.controller, { startV: Math.max(0, stage.controller.startV + startShiftV) }),
+        thermal,
+      });
     case "integrated-switch":
       return Object.assign({}, stage, {
+        startV: Math.max(0, stage.startV + startShiftV),
         channel: scaleChannel(stage.channel, s.rdsOnFactor),
         belowStart: stage.belowStart.mode === "body-diode" ? { mode: "body-diode" as const, bodyDiode: scaleDiode(stage.belowStart.bodyDiode, s.forwardVoltageFactor) } : stage.belowStart,
         thermal,
@@ -51,7 +63,11 @@ function scaleChannel(c: ChannelParams, k: number): ChannelParams {
 }
 
 function scaleMosfet(m: MosfetModel, s: StageScale): MosfetModel {
-  return Object.assign({}, m, { channel: scaleChannel(m.channel, s.rdsOnFactor), bodyDiode: scaleDiode(m.bodyDiode, s.forwardVoltageFactor) });
+  const channel = scaleChannel(m.channel, s.rdsOnFactor);
+  const shift = s.thresholdShiftV ?? 0;
+  // A threshold shifted past a datasheet Rds(on) point drops that point (channelConductance25S skips points at or below Vth).
+  const thresholdV = Math.max(0, m.channel.thresholdV + shift);
+  return Object.assign({}, m, { channel: shift === 0 ? channel : Object.assign({}, channel, { thresholdV }), bodyDiode: scaleDiode(m.bodyDiode, s.forwardVoltageFactor) });
 }
 
 export function scaleThermal(t: ThermalPath, k: number): ThermalPath {

@@ -13,7 +13,7 @@ export type StageKind = StageModel["kind"];
 export interface DiodeStage {
   readonly kind: "pn-diode" | "schottky-diode";
   readonly diode: DiodeParams;
-  /** The datasheet's reverse leakage; absent: Is(T) of the forward fit. */
+  /** The datasheet's reverse leakage (a Schottky always has a thermionic-emission law here, api/map/stage-model.ts); absent: Is(T) of the forward fit. */
   readonly reverseLeakage?: DatasheetLeakage;
   readonly reverseRatingV: number;
   readonly tjMaxC: number;

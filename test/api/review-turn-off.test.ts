@@ -19,7 +19,10 @@ describe("review with a turn-off section", () => {
     const ideal = r.candidates.find((c) => c.stage.partId === "demo-ideal-diode-60v-3mohm");
     const t = ideal?.turnOff;
     if (ideal === undefined || t === undefined) throw new Error("no turn-off result");
-    // Source: the same model through the turnOff procedure (its own example's loop, this Tj).
+    // Source: the same model through the turnOff procedure (its own example's loop, this Tj, and
+    // the candidate's datasheet-maximum timing, which the review's event runs at).
+    const candidate = (example.candidates as { stage: { partId?: string }; datasheetMax?: { reverseThresholdV?: string; turnOffDelayS?: string } }[]).find((c) => c.stage.partId === "demo-ideal-diode-60v-3mohm");
+    const timing = candidate?.datasheetMax;
     const direct = turnOffOutput.parse(
       await turnOff({
         stage: { kind: "catalog-part", partId: "demo-ideal-diode-60v-3mohm" },
@@ -30,6 +33,7 @@ describe("review with a turn-off section", () => {
         load: example.requirement.load,
         loadMinV: example.requirement.loadMinV,
         tjC: t.tjC,
+        ...(timing?.reverseThresholdV === undefined || timing.turnOffDelayS === undefined ? {} : { turnOff: { reverseThresholdV: timing.reverseThresholdV, turnOffDelayS: timing.turnOffDelayS } }),
       }),
     );
     if (direct.outcome !== "blocks" || t.event.outcome !== "blocks") throw new Error(direct.outcome);

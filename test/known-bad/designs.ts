@@ -67,7 +67,7 @@ const controller = (o: Obj = {}): Obj => ({
   reverseRatingV: 65,
   ...o,
 });
-const idealDiode = (m: Obj = {}, c: Obj = {}): Obj => ({
+export const idealDiode = (m: Obj = {}, c: Obj = {}): Obj => ({
   kind: "nfet-ideal-diode",
   name: "test ideal diode",
   mosfet: mosfet(m),
@@ -161,6 +161,15 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     rule: "reverse-leakage-runaway",
     bad: review({ ...req24, load: { kind: "constant-current", currentA: 0.2 }, ambient: { minC: -40, maxC: 125 } }, schottky({ thermal: { kind: "junction-ambient", rthJaKPerW: 60 } })),
     twin: review({ ...req24, load: { kind: "constant-current", currentA: 0.2 }, ambient: { minC: -40, maxC: 125 } }, pn({ reverseRatingV: 100, thermal: { kind: "junction-ambient", rthJaKPerW: 60 } })),
+  },
+  {
+    id: "schottky-hot-leakage-runaway",
+    hazard: "reverse",
+    why: "a 40 µA-at-25 °C Schottky (barrier 0.7 eV) on 35 K/W at 100 °C under the 14 V reversed battery: thermionic emission gives about ×370 to 100 °C, 15 mA, 0.2 W, 7 K — above the 1/(e·d ln IR/dT) ≈ 5 K a stable point allows; the forward fit's Is(T) gave ×160 and passed it",
+    procedure: "review",
+    rule: "reverse-leakage-runaway",
+    bad: review({ ...req12, load: { kind: "constant-current", currentA: 0.2 }, ambient: { minC: -40, maxC: 100 } }, schottky({ reverseLeakage: { currentA: "40 uA", tempC: 25, barrierEv: 0.7 } })),
+    twin: review({ ...req12, load: { kind: "constant-current", currentA: 0.2 }, ambient: { minC: -40, maxC: 100 } }, schottky({ reverseLeakage: { currentA: "40 uA", tempC: 25, barrierEv: 0.7 }, thermal: { kind: "junction-ambient", rthJaKPerW: 12 } })),
   },
   {
     id: "schottky-reverse-too-hot",
