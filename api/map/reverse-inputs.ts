@@ -1,3 +1,4 @@
+import { behaviourOf } from "../../domain/stages/stage-behaviours.js";
 import type { StageSpec } from "../../contracts/stage.js";
 import type { ControllerTurnOff } from "../../domain/checks/reverse-path.js";
 import type { LoadModel } from "../../domain/solve/load-model.js";
@@ -17,7 +18,7 @@ export function controllerTiming(
   path: (string | number)[],
   assumptions: string[],
 ): ControllerTurnOff | undefined {
-  const needs = model.kind === "nfet-ideal-diode" || (model.kind === "integrated-switch" && model.blocksReverseCurrent);
+  const needs = behaviourOf(model).needsTurnOffTiming(model);
   if (!needs) return undefined;
   if (given !== undefined) {
     return {
@@ -27,9 +28,10 @@ export function controllerTiming(
       ...(given.gateSinkCurrentA === undefined ? {} : { gateSinkCurrentA: given.gateSinkCurrentA }),
     };
   }
-  if (spec.kind === "nfet-ideal-diode" && spec.controller.reverseThresholdV !== undefined && spec.controller.turnOffDelayS !== undefined) {
-    assumptions.push(`${path.join(".")}: reverse turn-off timing from the stage controller (threshold ${spec.controller.reverseThresholdV} V, delay ${spec.controller.turnOffDelayS} s, no gate-discharge time)`);
-    return { reverseThresholdV: spec.controller.reverseThresholdV, turnOffDelayS: spec.controller.turnOffDelayS };
+  const own = "controller" in spec ? spec.controller : undefined;
+  if (own?.reverseThresholdV !== undefined && own.turnOffDelayS !== undefined) {
+    assumptions.push(`${path.join(".")}: reverse turn-off timing from the stage controller (threshold ${own.reverseThresholdV} V, delay ${own.turnOffDelayS} s, no gate-discharge time)`);
+    return { reverseThresholdV: own.reverseThresholdV, turnOffDelayS: own.turnOffDelayS };
   }
   throw inputProblem("invalid-input", path, "required: this stage turns off on reverse current, give its reverseThresholdV and turnOffDelayS");
 }

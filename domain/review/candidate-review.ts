@@ -10,6 +10,7 @@ import { totalRthKPerW } from "../physics/thermal-path.js";
 import type { LoadModel } from "../solve/load-model.js";
 import { scaleLoad } from "../solve/load-scale.js";
 import { type StageScale, scaleStage } from "../stages/scale-stage.js";
+import { behaviourOf } from "../stages/stage-behaviours.js";
 import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
 import type { TransientPulse } from "./transient-library.js";
 import { type ReviewTurnOff, type ReviewTurnOffResult, reviewTurnOff } from "./review-turn-off.js";
@@ -96,7 +97,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
       }))
     : [];
 
-  const reverse = reverseSteady(cand.stage, req.reverseV, req.ambientMaxC, cand.stage.kind === "pn-diode" || cand.stage.kind === "schottky-diode" ? cand.stage.reverseLeakage : undefined);
+  const reverse = reverseSteady(cand.stage, req.reverseV, req.ambientMaxC, behaviourOf(cand.stage).reverseLeakage(cand.stage));
   // Object.assign: a literal that opens with a spread and then gets fields is V8's slow path.
   const tctx: TransientContext = Object.assign(
     {},
