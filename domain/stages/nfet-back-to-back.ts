@@ -5,7 +5,7 @@ import { channelWithBodyDiodeAtV, type ForwardState } from "./conduction.js";
 import { gateDriveAt } from "./gate-drive.js";
 import { mosfetAt } from "./mosfet-forward.js";
 import { mosfetRatings, scaleMosfetStage } from "./mosfet-stage.js";
-import { controllerMissing, controllerPart } from "./nfet-ideal-diode.js";
+import { controllerDriven, controllerReverseStress } from "./controller-driven.js";
 import type { StageBehaviour } from "./stage-behaviour.js";
 import type { BackToBackStage, DatasheetLeakage } from "./stage-model.js";
 import { gateDischargeS } from "./turn-off-timing.js";
@@ -71,15 +71,7 @@ export const nfetBackToBack: StageBehaviour<BackToBackStage> = {
     };
   },
   ...mosfetRatings,
-  startV: (stage) => stage.controller.startV,
-  withStartV: (stage, startV) => ({ ...stage, controller: { ...stage.controller, startV } }),
-  driveAtInput: (stage, inputV) => {
-    const c = stage.controller;
-    const vgs = inputV >= c.startV ? gateDriveAt(c, inputV) : 0;
-    return { inputV, startMarginV: inputV - c.startV, gateSourceV: vgs, gateDriveMarginV: vgs - fullEnhancementV(stage.mosfet.channel) };
-  },
-  quiescentA: (stage) => stage.controller.quiescentA,
-  quiescentHeatsDie: false,
+  ...controllerDriven,
   scale: scaleMosfetStage,
   // A positive peak: the controller's input pin, and the input-side FET, which blocks the whole
   // peak whenever the pair is off (below start or switched off).
@@ -107,23 +99,9 @@ export const nfetBackToBack: StageBehaviour<BackToBackStage> = {
     return { kind: "junction", diode: stage.mosfet.bodyDiode, leakage: stage.mosfet.offStateLeakage };
   },
   releasedGateDiode: () => undefined,
-  reverseStress: (stage, reverseV) => ({
-    stress: {
-      blockingElement: "body-diode",
-      partVoltageV: reverseV,
-      ratingV: stage.mosfet.vdsMaxV,
-      controllerReverseV: reverseV,
-      ...(stage.controller.reverseRatingV === undefined ? {} : { controllerRatingV: stage.controller.reverseRatingV }),
-      gateSourceV: 0,
-      note: "the gates are held off; the output-side FET's body diode blocks the reversed supply (the input-side FET's conducts) and the controller's input pin sees it",
-    },
-    junction: stage.mosfet.bodyDiode,
-  }),
-  gateDriveMetric: true,
-  gateSourceClampV: () => undefined,
-  controllerReversePin: true,
+  reverseStress: (stage, reverseV) =>
+    controllerReverseStress(stage, reverseV, "the gates are held off; the output-side FET's body diode blocks the reversed supply (the input-side FET's conducts) and the controller's input pin sees it"),
   sizing: { forward: "rdsOn", reverseRating: "vdsMaxV", gateFromSupply: false, ratedGateDrive: true, control: true, leakage: false },
-  describe: (stage) => ({ metrics: { startVoltageV: stage.controller.startV }, part: controllerPart(stage), missing: controllerMissing(stage) }),
 };
 
 /** Both channels in series at the gate drive the controller gives at inputV, ohm; undefined when the pair is off. */

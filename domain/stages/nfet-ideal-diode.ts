@@ -1,8 +1,9 @@
-import { fullEnhancementV, interpolate } from "../physics/mosfet-channel.js";
+import { interpolate } from "../physics/mosfet-channel.js";
 import { junctionState, junctionStateAt } from "./conduction.js";
 import { gateDriveAt } from "./gate-drive.js";
 import { blendWithBodyDiode, mosfetAt, mosfetForwardAt } from "./mosfet-forward.js";
-import { bodyDiodePath, mosfetPart, mosfetRatings, NO_AVALANCHE_CURRENT, onOhm, scaleMosfetStage } from "./mosfet-stage.js";
+import { bodyDiodePath, mosfetRatings, onOhm, scaleMosfetStage } from "./mosfet-stage.js";
+import { controllerDriven, controllerReverseStress } from "./controller-driven.js";
 import type { StageBehaviour } from "./stage-behaviour.js";
 import type { IdealDiodeStage } from "./stage-model.js";
 import { gateDischargeS } from "./turn-off-timing.js";
@@ -24,15 +25,7 @@ export const nfetIdealDiode: StageBehaviour<IdealDiodeStage> = {
     return blendWithBodyDiode(on, junctionStateAt(at.bodyDiode, currentA, "body-diode"), c.gateReleaseFraction);
   },
   ...mosfetRatings,
-  startV: (stage) => stage.controller.startV,
-  withStartV: (stage, startV) => ({ ...stage, controller: { ...stage.controller, startV } }),
-  driveAtInput: (stage, inputV) => {
-    const c = stage.controller;
-    const vgs = inputV >= c.startV ? gateDriveAt(c, inputV) : 0;
-    return { inputV, startMarginV: inputV - c.startV, gateSourceV: vgs, gateDriveMarginV: vgs - fullEnhancementV(stage.mosfet.channel) };
-  },
-  quiescentA: (stage) => stage.controller.quiescentA,
-  quiescentHeatsDie: false,
+  ...controllerDriven,
   scale: scaleMosfetStage,
   forwardLimits: (stage) => (stage.controller.maxInputV === undefined ? [] : [{ element: "controller-input", ratingV: stage.controller.maxInputV, seenV: (v) => v }]),
   blocksReverseCurrent: () => true,
@@ -49,36 +42,6 @@ export const nfetIdealDiode: StageBehaviour<IdealDiodeStage> = {
   // In steady reverse the controller holds the gate off: the body diode leaks.
   reverseConduction: (stage) => ({ kind: "junction", diode: stage.mosfet.bodyDiode, leakage: stage.mosfet.offStateLeakage }),
   releasedGateDiode: (stage) => stage.mosfet.bodyDiode,
-  reverseStress: (stage, reverseV) => ({
-    stress: {
-      blockingElement: "body-diode",
-      partVoltageV: reverseV,
-      ratingV: stage.mosfet.vdsMaxV,
-      controllerReverseV: reverseV,
-      ...(stage.controller.reverseRatingV === undefined ? {} : { controllerRatingV: stage.controller.reverseRatingV }),
-      gateSourceV: 0,
-      note: "the controller holds the gate off; the body diode blocks and the controller's input pin sees the reversed supply",
-    },
-    junction: stage.mosfet.bodyDiode,
-  }),
-  gateDriveMetric: true,
-  gateSourceClampV: () => undefined,
-  controllerReversePin: true,
+  reverseStress: (stage, reverseV) => controllerReverseStress(stage, reverseV, "the controller holds the gate off; the body diode blocks and the controller's input pin sees the reversed supply"),
   sizing: { forward: "rdsOn", reverseRating: "vdsMaxV", gateFromSupply: false, ratedGateDrive: true, control: true, leakage: false },
-  describe: (stage) => ({ metrics: { startVoltageV: stage.controller.startV }, part: controllerPart(stage), missing: controllerMissing(stage) }),
 };
-
-/** The MOSFET's ratings and the controller's input ratings (a controller driving one or two FETs). */
-export function controllerPart(stage: Pick<IdealDiodeStage, "mosfet" | "controller">): Record<string, number> {
-  const part = mosfetPart(stage.mosfet);
-  if (stage.controller.maxInputV !== undefined) part["maxInputV"] = stage.controller.maxInputV;
-  if (stage.controller.reverseRatingV !== undefined) part["controllerReverseRatingV"] = stage.controller.reverseRatingV;
-  return part;
-}
-
-export function controllerMissing(stage: Pick<IdealDiodeStage, "mosfet" | "controller">): Record<string, string> {
-  const out: Record<string, string> = {};
-  if (stage.controller.reverseRatingV === undefined) out["part.controllerReverseRatingV"] = "the controller states no reverse rating of its input pin (controller.reverseRatingV): its survival of the reversed supply is unproven";
-  if (stage.mosfet.avalancheCurrentA === undefined) out["part.avalancheCurrentA"] = NO_AVALANCHE_CURRENT;
-  return out;
-}

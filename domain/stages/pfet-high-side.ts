@@ -1,8 +1,9 @@
 import { channelConductance25S, fullEnhancementV } from "../physics/mosfet-channel.js";
 import { clampV } from "./gate-drive.js";
-import { bodyDiodePath, mosfetPart, mosfetRatings, NO_AVALANCHE_CURRENT, onOhm, scaleMosfetStage } from "./mosfet-stage.js";
+import { bodyDiodePath, onOhm } from "./mosfet-stage.js";
 import { mosfetAt, mosfetForwardAt, withGateSourceV } from "./mosfet-forward.js";
 import type { StageBehaviour } from "./stage-behaviour.js";
+import { channelOrBodyDiode, supplyGated, supplyGateDrive } from "./supply-gated-fet.js";
 import type { PFetStage } from "./stage-model.js";
 
 /**
@@ -43,20 +44,8 @@ export const pfetHighSide: StageBehaviour<PFetStage> = {
     }
     return state;
   },
-  ...mosfetRatings,
-  startV: () => undefined,
-  withStartV: (stage) => stage,
-  driveAtInput: (stage, inputV, dropV) => {
-    const vgs = clampV(inputV - dropV, stage.gateClampV);
-    return { inputV, gateSourceV: vgs, gateDriveMarginV: vgs - fullEnhancementV(stage.mosfet.channel) };
-  },
-  quiescentA: () => 0,
-  quiescentHeatsDie: false,
-  scale: scaleMosfetStage,
-  forwardLimits: (stage) => [{ element: "gate-source", ratingV: stage.mosfet.vgsMaxV, seenV: (v) => clampV(v, stage.gateClampV) }],
-  blocksReverseCurrent: () => false,
-  needsTurnOffTiming: () => false,
-  junctionRecovery: false,
+  ...supplyGated,
+  driveAtInput: (stage, inputV, dropV) => supplyGateDrive(stage, inputV, inputV - dropV),
   reversePath: (stage, tK, _before, _after, outputV) => {
     const r = onOhm(stage.mosfet, clampV(outputV, stage.gateClampV), tK);
     if (r === undefined) return bodyDiodePath(stage.mosfet);
@@ -67,12 +56,7 @@ export const pfetHighSide: StageBehaviour<PFetStage> = {
       reason: "a P-FET with its gate at ground keeps |Vgs| = V(output): it conducts backwards until the output falls below its threshold",
     };
   },
-  reverseConduction: (stage, _leftV, rightV, tK) => {
-    const r = onOhm(stage.mosfet, clampV(rightV, stage.gateClampV), tK);
-    if (r === undefined) return { kind: "junction", diode: stage.mosfet.bodyDiode, leakage: stage.mosfet.offStateLeakage };
-    return { kind: "channel", ohm: r, bodyDiode: stage.mosfet.bodyDiode };
-  },
-  releasedGateDiode: () => undefined,
+  reverseConduction: (stage, _leftV, rightV, tK) => channelOrBodyDiode(stage, onOhm(stage.mosfet, clampV(rightV, stage.gateClampV), tK)),
   reverseStress: (stage, reverseV) => ({
     stress: {
       blockingElement: "body-diode",
@@ -83,9 +67,4 @@ export const pfetHighSide: StageBehaviour<PFetStage> = {
     },
     junction: stage.mosfet.bodyDiode,
   }),
-  gateDriveMetric: true,
-  gateSourceClampV: (stage) => ({ clampV: stage.gateClampV }),
-  controllerReversePin: false,
-  sizing: { forward: "rdsOn", reverseRating: "vdsMaxV", gateFromSupply: true, ratedGateDrive: true, control: false, leakage: false },
-  describe: (stage) => ({ metrics: {}, part: mosfetPart(stage.mosfet), missing: stage.mosfet.avalancheCurrentA === undefined ? { "part.avalancheCurrentA": NO_AVALANCHE_CURRENT } : {} }),
 };
