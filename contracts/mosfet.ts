@@ -43,6 +43,13 @@ export const mosfet = z
     avalancheEnergyJ: quantity("J", "single-pulse avalanche energy rating EAS at 25 °C starting junction temperature (for the turn-off rules)", { gt: 0, le: 1e6 }).optional(),
     peakRepetitiveCurrentA: quantity("A", "repetitive peak drain current rating (for the bridge rules)", { gt: 0, le: 1e5 }).optional(),
     avalancheCurrentA: quantity("A", "single-pulse avalanche current rating IAS, the current at which EAS is rated (for the turn-off rules)", { gt: 0, le: 1e5 }).optional(),
+    offStateLeakage: z
+      .strictObject({
+        currentA: quantity("A", "off-state drain current IDSS at the rated drain-source voltage, gate shorted to source", { gt: 0, le: 10 }),
+        tempC: temperatureC("junction temperature of that figure"),
+      })
+      .optional()
+      .meta({ description: "datasheet off-state leakage IDSS, scaled in temperature by the body diode's Is(T) law (default: Is(T) of the body diode model)" }),
   })
   .superRefine((m, ctx) => {
     m.rdsOn.forEach((p, i) => {

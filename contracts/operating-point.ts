@@ -44,6 +44,14 @@ export const solvedPoint = z.object({
   gateSourceV: z.number().optional(),
   channelResistanceOhm: z.number().optional(),
   thermalLoopGain: z.number().meta({ description: "Rth·dP/dTj at the point; < 1 is stable" }),
+  startChatter: z
+    .object({
+      startV: z.number().meta({ description: "the control's start voltage", unit: "V" }),
+      runningInputV: z.number().meta({ description: "stage input with the control running (below startV)", unit: "V" }),
+      belowStartInputV: z.number().meta({ description: "stage input with the control below start (at or above startV)", unit: "V" }),
+    })
+    .optional()
+    .meta({ description: "present in the chatter band at the start threshold: neither state of the control is self-consistent (a real controller toggles, its hysteresis decides); the point reported is the one below start, the lossier" }),
 });
 export type SolvedPointOutput = z.infer<typeof solvedPoint>;
 

@@ -92,6 +92,20 @@ export const stageSpec = z
     z.strictObject({ kind: z.literal("nfet-ideal-diode"), name, costEach, mosfet, controller, thermal: thermalPath }),
     z
       .strictObject({
+        kind: z.literal("nfet-back-to-back"),
+        name,
+        costEach,
+        mosfet: mosfet.meta({ description: "each of the two N-channel MOSFETs (the same part), sources joined" }),
+        controller: controller.meta({ description: "the controller or gate driver driving both gates from its charge pump" }),
+        blocksReverseCurrent: z
+          .boolean()
+          .optional()
+          .meta({ description: "an ideal-diode controller that turns both FETs off on reverse current (default: true when the controller regulates a drop or states a reverse threshold; false: a plain gate driver, a load switch)" }),
+        thermal: thermalPath.meta({ description: "thermal path of the pair: both FETs' losses heat it" }),
+      })
+      .meta({ description: "back-to-back N-channel MOSFETs (common source): blocks both ways when off" }),
+    z
+      .strictObject({
         kind: z.literal("integrated-switch"),
         name,
         costEach,
@@ -132,4 +146,4 @@ export const stageInput = z
   .meta({ description: "a stage given inline, or a catalog part by id" });
 export type StageInput = z.output<typeof stageInput>;
 
-export const STAGE_KINDS = ["pn-diode", "schottky-diode", "pfet-high-side", "nfet-low-side", "nfet-ideal-diode", "integrated-switch"] as const;
+export const STAGE_KINDS = ["pn-diode", "schottky-diode", "pfet-high-side", "nfet-low-side", "nfet-ideal-diode", "integrated-switch", "nfet-back-to-back"] as const;

@@ -55,6 +55,7 @@ const RULE_HAZARDS: Readonly<Record<string, string>> = {
   "reverse-tj-margin": "reverse polarity (leakage heating)",
   "diode-reverse-transient": "negative transients",
   "fet-vds-reverse-transient": "negative transients",
+  "pair-forward-blocking": "forward overvoltage (blocking)",
   "switch-reverse-transient": "negative transients",
   "fet-vgs-limit": "gate stress",
   "fet-vgs-derated": "gate stress",

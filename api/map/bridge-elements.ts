@@ -9,7 +9,7 @@ import { resolveStage } from "./resolve-stage.js";
 export function toBridgeElements(input: BridgeElementsInput, catalog: PartsCatalog, path: (string | number)[], assumptions: string[]): BridgeElements {
   const one = (s: StageInput, key: string): BridgeElement => {
     const stage = resolveStage(s, catalog, [...path, key], assumptions).model;
-    if (stage.kind === "pn-diode" || stage.kind === "schottky-diode" || stage.kind === "nfet-ideal-diode") return stage;
+    if ((BRIDGE_ELEMENT_KINDS as readonly string[]).includes(stage.kind)) return stage as BridgeElement;
     throw inputProblem("invalid-input", [...path, key, "kind"], `a bridge element must be one of ${BRIDGE_ELEMENT_KINDS.join(", ")} (got ${stage.kind})`);
   };
   if ("all" in input) {

@@ -1,3 +1,4 @@
+import { behaviourOf } from "../../domain/stages/stage-behaviours.js";
 import type { StageSpec } from "../../contracts/stage.js";
 import type { ControllerTurnOff } from "../../domain/checks/reverse-path.js";
 import type { LoadModel } from "../../domain/solve/load-model.js";
@@ -17,7 +18,7 @@ export function controllerTiming(
   path: (string | number)[],
   assumptions: string[],
 ): ControllerTurnOff | undefined {
-  const needs = model.kind === "nfet-ideal-diode" || (model.kind === "integrated-switch" && model.blocksReverseCurrent);
+  const needs = behaviourOf(model).needsTurnOffTiming(model);
   if (!needs) return undefined;
   if (given !== undefined) {
     return {
@@ -27,9 +28,10 @@ export function controllerTiming(
       ...(given.gateSinkCurrentA === undefined ? {} : { gateSinkCurrentA: given.gateSinkCurrentA }),
     };
   }
-  if (spec.kind === "nfet-ideal-diode" && spec.controller.reverseThresholdV !== undefined && spec.controller.turnOffDelayS !== undefined) {
-    assumptions.push(`${path.join(".")}: reverse turn-off timing from the stage controller (threshold ${spec.controller.reverseThresholdV} V, delay ${spec.controller.turnOffDelayS} s, no gate-discharge time)`);
-    return { reverseThresholdV: spec.controller.reverseThresholdV, turnOffDelayS: spec.controller.turnOffDelayS };
+  const own = "controller" in spec ? spec.controller : undefined;
+  if (own?.reverseThresholdV !== undefined && own.turnOffDelayS !== undefined) {
+    assumptions.push(`${path.join(".")}: reverse turn-off timing from the stage controller (threshold ${own.reverseThresholdV} V, delay ${own.turnOffDelayS} s, no gate-discharge time)`);
+    return { reverseThresholdV: own.reverseThresholdV, turnOffDelayS: own.turnOffDelayS };
   }
   throw inputProblem("invalid-input", path, "required: this stage turns off on reverse current, give its reverseThresholdV and turnOffDelayS");
 }
@@ -51,7 +53,7 @@ export function stageLabel(spec: StageSpec, partId: string | undefined): { kind:
  * it conducting backwards after the current reverses, so 0 understates the reverse peak and the
  * charge lost: a warning naming the field to give.
  */
-export function missingQrrSentence(field: string, kind: "pn-diode" | "schottky-diode" | "diode"): string {
+export function missingQrrSentence(field: string, kind: StageModel["kind"] | "diode"): string {
   if (kind === "schottky-diode") return `${field}: 0 C (a Schottky junction stores no minority charge to speak of, common practice)`;
   return `warning: ${field}: not given, taken as 0 C for ${kind === "pn-diode" ? "this PN diode" : "PN diode candidates"}: a PN junction's stored charge keeps it conducting backwards after the current reverses, so the reverse-current peak and the charge lost are understated; give its Qrr from the datasheet`;
 }

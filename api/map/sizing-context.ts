@@ -63,7 +63,7 @@ export function sizingContext(
 }
 
 function turnOffSizing(r: Requirement, req: MappedRequirement, spec: StageSpec, t: TurnOffRequest): TurnOffSizing | string {
-  const own = spec.kind === "nfet-ideal-diode" ? spec.controller : undefined;
+  const own = "controller" in spec ? spec.controller : undefined;
   const threshold = t.reverseThresholdV ?? own?.reverseThresholdV;
   if (threshold === undefined) return "the part states no reverse trip threshold: give turnOff.reverseThresholdV";
   return {

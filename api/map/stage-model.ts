@@ -4,7 +4,8 @@ import type { DiodeParams } from "../../domain/physics/diode.js";
 import { DEFAULT_SCHOTTKY_BARRIER_EV } from "../../domain/physics/schottky-leakage.js";
 import type { RdsTempLaw } from "../../domain/physics/mosfet-channel.js";
 import type { ThermalPath } from "../../domain/physics/thermal-path.js";
-import type { DatasheetLeakage, MosfetModel, StageModel } from "../../domain/stages/stage-model.js";
+import type { ControllerModel, DatasheetLeakage, MosfetModel, StageModel } from "../../domain/stages/stage-model.js";
+import { inputProblem } from "../input-problem.js";
 import { toDiodeParams } from "./diode-params.js";
 import { fitLeakageCurve } from "./leakage-curve.js";
 import { fitRdsTempCurve } from "./rds-temp-curve.js";
@@ -20,7 +21,7 @@ export function toStageModel(spec: StageSpec, thermal: ThermalPath, path: (strin
   switch (spec.kind) {
     case "pn-diode":
     case "schottky-diode": {
-      const diode = toDiodeParams(spec.diode, spec.kind === "pn-diode" ? "pn" : "schottky", [...path, "diode"], assumptions);
+      const diode = toDiodeParams(spec.diode, DIODE_TECHNOLOGY[spec.kind], [...path, "diode"], assumptions);
       return {
         kind: spec.kind,
         diode,
@@ -40,20 +41,17 @@ export function toStageModel(spec: StageSpec, thermal: ThermalPath, path: (strin
         ...(spec.gateClampV === undefined ? {} : { gateClampV: spec.gateClampV }),
         thermal,
       };
-    case "nfet-ideal-diode": {
-      const c = spec.controller;
+    case "nfet-ideal-diode":
+      return { kind: spec.kind, mosfet: toMosfet(spec.mosfet, [...path, "mosfet"], assumptions), controller: toController(spec.controller), thermal };
+    case "nfet-back-to-back": {
+      if ((spec.controller.gateReleaseFraction ?? 0) > 0) {
+        throw inputProblem("invalid-input", [...path, "controller", "gateReleaseFraction"], "must be 0 for a back-to-back pair: with the gates released the input-side FET blocks, so the pair has no body-diode path (give a continuous charge pump, 0)");
+      }
       return {
         kind: spec.kind,
         mosfet: toMosfet(spec.mosfet, [...path, "mosfet"], assumptions),
-        controller: {
-          startV: c.startV,
-          gateDrive: c.gateDrive,
-          regulatedDropV: c.regulatedDropV,
-          quiescentA: c.quiescentA,
-          gateReleaseFraction: c.gateReleaseFraction ?? 0,
-          ...(c.maxInputV === undefined ? {} : { maxInputV: c.maxInputV }),
-          ...(c.reverseRatingV === undefined ? {} : { reverseRatingV: c.reverseRatingV }),
-        },
+        controller: toController(spec.controller),
+        blocksReverseCurrent: pairBlocksReverse(spec, path, assumptions),
         thermal,
       };
     }
@@ -84,6 +82,32 @@ export function toStageModel(spec: StageSpec, thermal: ThermalPath, path: (strin
   }
 }
 
+type ControllerSpec = Extract<StageSpec, { kind: "nfet-ideal-diode" }>["controller"];
+
+/** The contract's diode kinds and the technology their forward fit assumes. */
+const DIODE_TECHNOLOGY = { "pn-diode": "pn", "schottky-diode": "schottky" } as const;
+
+function toController(c: ControllerSpec): ControllerModel {
+  return {
+    startV: c.startV,
+    gateDrive: c.gateDrive,
+    regulatedDropV: c.regulatedDropV,
+    quiescentA: c.quiescentA,
+    gateReleaseFraction: c.gateReleaseFraction ?? 0,
+    ...(c.maxInputV === undefined ? {} : { maxInputV: c.maxInputV }),
+    ...(c.reverseRatingV === undefined ? {} : { reverseRatingV: c.reverseRatingV }),
+  };
+}
+
+function pairBlocksReverse(spec: Extract<StageSpec, { kind: "nfet-back-to-back" }>, path: (string | number)[], assumptions: string[]): boolean {
+  if (spec.blocksReverseCurrent !== undefined) return spec.blocksReverseCurrent;
+  const blocks = spec.controller.regulatedDropV > 0 || spec.controller.reverseThresholdV !== undefined;
+  assumptions.push(
+    `${path.join(".")}: ${blocks ? "blocks" : "does not block"} reverse current (default: ${blocks ? "the controller regulates a drop or states a reverse threshold, an ideal-diode controller" : "the controller neither regulates a drop nor states a reverse threshold, a plain gate driver"})`,
+  );
+  return blocks;
+}
+
 function toMosfet(m: MosfetSpec, path: (string | number)[], assumptions: string[]): MosfetModel {
   return {
     channel: {
@@ -98,6 +122,7 @@ function toMosfet(m: MosfetSpec, path: (string | number)[], assumptions: string[
     ...(m.avalancheEnergyJ === undefined ? {} : { avalancheEnergyJ: m.avalancheEnergyJ }),
     ...(m.peakRepetitiveCurrentA === undefined ? {} : { peakRepetitiveCurrentA: m.peakRepetitiveCurrentA }),
     ...(m.avalancheCurrentA === undefined ? {} : { avalancheCurrentA: m.avalancheCurrentA }),
+    ...(m.offStateLeakage === undefined ? {} : { offStateLeakage: { currentA: m.offStateLeakage.currentA, tempK: cToK(m.offStateLeakage.tempC) } }),
   };
 }
 

@@ -1,3 +1,4 @@
+import { behaviourOf } from "../../domain/stages/stage-behaviours.js";
 import { type HoldUpOutput, holdUpInput, holdUpOutput } from "../../contracts/hold-up.js";
 import { type HoldUpModel, holdUp as holdUpCheck } from "../../domain/checks/hold-up.js";
 import { blocksReverseCurrent } from "../../domain/checks/stage-ratings.js";
@@ -21,7 +22,7 @@ export const holdUp = defineProcedure({ name: "holdUp", input: holdUpInput, outp
     if (inp.kind === "open") modelInput = { kind: "open" };
     else {
       const controller = controllerTiming(stage.spec, stage.model, inp.turnOff, ["input", "turnOff"], assumptions);
-      if (inp.reverseRecoveryChargeC === undefined && (stage.model.kind === "pn-diode" || stage.model.kind === "schottky-diode")) {
+      if (inp.reverseRecoveryChargeC === undefined && behaviourOf(stage.model).junctionRecovery) {
         assumptions.push(missingQrrSentence("input.reverseRecoveryChargeC", stage.model.kind));
       }
       modelInput = {

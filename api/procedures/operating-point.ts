@@ -5,8 +5,8 @@ import type { StageModel } from "../../domain/stages/stage-model.js";
 import type { Context } from "../context.js";
 import { totalRthKPerW } from "../../domain/physics/thermal-path.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
-import { type OperatingPointOutcome, type SolvedPoint, solveOperatingPoint } from "../../domain/solve/electrothermal-point.js";
-import { stageQuiescentA } from "../../domain/stages/stage-model.js";
+import { type OperatingPointOutcome, type SolvedPoint, type StartChatter, solveOperatingPoint } from "../../domain/solve/electrothermal-point.js";
+import { controllerLossW } from "../../domain/stages/stage-behaviours.js";
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { inputProblem } from "../input-problem.js";
 import { OPERATING_POINT_METRICS, operatingPointRuleInput } from "../../domain/rules/metrics-of-operating-point.js";
@@ -21,6 +21,12 @@ export const operatingPoint = defineProcedure({ name: "operatingPoint", input: o
   const sourceResistanceOhm = input.sourceResistanceOhm ?? 0;
   if (input.sourceResistanceOhm === undefined) assumptions.push("sourceResistanceOhm: 0 ohm (default: no source or wiring resistance)");
   const outcome = solveOperatingPoint({ stage: stage.model, supplyV: input.supplyV, sourceResistanceOhm, load: input.load, ambientC: input.ambientC, rthKPerW });
+  if ("point" in outcome && outcome.point.startChatter !== undefined) {
+    const c = outcome.point.startChatter;
+    assumptions.push(
+      `point.startChatter: the supply lies in the chatter band at the ${c.startV} V start threshold (running, the input falls to ${c.runningInputV.toPrecision(4)} V; below start it is ${c.belowStartInputV.toPrecision(4)} V): the controller would toggle between the two states; the point below start, the lossier, is reported`,
+    );
+  }
   const rules = verdicts(input, stage.model, outcome, ctx);
   // Fields written one by one, no spread (V8 11 takes a slow clone path for a literal that spreads
   // and then adds fields; this runs once per /v1 call and batch line). Same keys, same order.
@@ -29,7 +35,7 @@ export const operatingPoint = defineProcedure({ name: "operatingPoint", input: o
   if (stage.partId !== undefined) stageOut.partId = stage.partId;
   const head: Head = { modelVersion: MODEL_VERSION, caution: CAUTION, stage: stageOut, assumptions };
   if (rules !== undefined) head.rules = rules;
-  const toPoint = (p: SolvedPoint): SolvedPointOutput => pointOutput(p, input.ambientC, rthKPerW, stageQuiescentA(stage.model), stage.model.kind);
+  const toPoint = (p: SolvedPoint): SolvedPointOutput => pointOutput(p, input.ambientC, rthKPerW, stage.model);
   return withHead(head, outcome, toPoint);
 } });
 
@@ -78,7 +84,7 @@ function withHead(head: Head, o: OperatingPointOutcome, toPoint: (p: SolvedPoint
   }
 }
 
-function pointOutput(p: SolvedPoint, ambientC: number, rthKPerW: number, quiescentA: number, kind: string): SolvedPointOutput {
+function pointOutput(p: SolvedPoint, ambientC: number, rthKPerW: number, stage: StageModel): SolvedPointOutput {
   const f = p.forward;
   // thermalLoopGain last, after the optional gate fields (the key order of the output)
   const out: Omit<SolvedPointOutput, "thermalLoopGain"> & { -readonly [K in "gateSourceV" | "channelResistanceOhm" | "thermalLoopGain"]?: number } = {
@@ -90,7 +96,7 @@ function pointOutput(p: SolvedPoint, ambientC: number, rthKPerW: number, quiesce
     loadV: p.loadV,
     loadPowerW: p.loadV * p.currentA,
     stageLossW: p.dieLossW,
-    controllerLossW: kind === "nfet-ideal-diode" ? quiescentA * Math.max(p.stageInputV, 0) : 0,
+    controllerLossW: controllerLossW(stage, p.stageInputV),
     tjC: p.tjC,
     ambientC,
     rthKPerW,
@@ -101,5 +107,6 @@ function pointOutput(p: SolvedPoint, ambientC: number, rthKPerW: number, quiesce
   if (f.gateSourceV !== undefined) out.gateSourceV = f.gateSourceV;
   if (f.channelResistanceOhm !== undefined) out.channelResistanceOhm = f.channelResistanceOhm;
   out.thermalLoopGain = p.thermalLoopGain;
+  if (p.startChatter !== undefined) (out as { startChatter?: StartChatter }).startChatter = p.startChatter;
   return out as SolvedPointOutput;
 }

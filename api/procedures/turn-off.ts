@@ -1,3 +1,4 @@
+import { behaviourOf } from "../../domain/stages/stage-behaviours.js";
 import { type TurnOffOutput, turnOffInput, turnOffOutput } from "../../contracts/turn-off.js";
 import { turnOffEventFields } from "../map/turn-off-output.js";
 import { type TurnOffModel, turnOffEvent } from "../../domain/checks/turn-off-event.js";
@@ -20,7 +21,7 @@ export const turnOff = defineProcedure({ name: "turnOff", input: turnOffInput, o
   if (input.avalancheRatingJ === undefined && partRatingJ !== undefined) assumptions.push(`avalancheRatingJ: the part's avalancheEnergyJ (${partRatingJ} J at 25 °C starting Tj)`);
   const controller = controllerTiming(stage.spec, stage.model, input.turnOff, ["turnOff"], assumptions);
   if (input.clampV === undefined) assumptions.push("clampV: the blocking element's rated voltage (a lower bound of its breakdown: the energy estimate is conservative)");
-  if (stage.model.kind === "pn-diode" || stage.model.kind === "schottky-diode") {
+  if (behaviourOf(stage.model).junctionRecovery) {
     if (input.reverseRecoveryChargeC === undefined) assumptions.push(missingQrrSentence("reverseRecoveryChargeC", stage.model.kind));
   }
   const model: TurnOffModel = {

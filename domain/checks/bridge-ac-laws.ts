@@ -1,6 +1,6 @@
 import { type AcBridgeCircuit, type ForwardLaw, type PairLaws, sourceAndFilterOf } from "../solve/ac-bridge-circuit.js";
 import type { BridgeAcModel } from "./bridge-ac.js";
-import { BRIDGE_POSITIONS, type BridgePosition, elementLaw, gateDriveOf } from "./bridge-element.js";
+import { BRIDGE_POSITIONS, type BridgePosition, elementLaw, gateDriveOf, isControlledElement } from "./bridge-element.js";
 
 /**
  * The AC bridge's circuit at fixed element temperatures: the source and filter of the model and
@@ -17,14 +17,14 @@ export function buildCircuit(m: BridgeAcModel, tjK: Readonly<Record<BridgePositi
   for (const p of BRIDGE_POSITIONS) {
     const e = m.elements[p];
     const q = canonical.get(p) ?? p;
-    if (e.kind !== "nfet-ideal-diode") fixed.set(p, fixed.get(q) ?? elementLaw(e, tjK[p], 0).law);
+    if (!isControlledElement(e)) fixed.set(p, fixed.get(q) ?? elementLaw(e, tjK[p], 0).law);
   }
   // MOSFET laws depend on the supply only through the gate drive: rebuild when that changes.
   const cache = new Map<BridgePosition, { gateV: number | undefined; law: ForwardLaw }>();
   const gates = new Map<BridgePosition, (supplyV: number) => number | undefined>();
   for (const p of BRIDGE_POSITIONS) {
     const e = m.elements[p];
-    if (e.kind === "nfet-ideal-diode") gates.set(p, gateDriveOf(e));
+    if (isControlledElement(e)) gates.set(p, gateDriveOf(e));
   }
   const lawOf = (position: BridgePosition, supplyV: number): ForwardLaw => {
     const p = canonical.get(position) ?? position;

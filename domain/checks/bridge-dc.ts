@@ -3,6 +3,7 @@ import { solveOperatingPoint } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
 import { bracketedRoot, goldenMax } from "../solve/root-find.js";
 import type { ConductionMode } from "../stages/conduction.js";
+import { stageQuiescentA } from "../stages/stage-model.js";
 import {
   BRIDGE_POSITIONS,
   type BridgeElement,
@@ -230,5 +231,5 @@ function elementAt(
 }
 
 function quiescentA(e: BridgeElement): number {
-  return e.kind === "nfet-ideal-diode" ? e.controller.quiescentA : 0;
+  return stageQuiescentA(e);
 }

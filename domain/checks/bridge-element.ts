@@ -2,7 +2,8 @@ import { type DiodeParams, saturationCurrentAt, emissionVoltageV } from "../phys
 import { channelResistanceOhm, interpolate } from "../physics/mosfet-channel.js";
 import { totalRthKPerW } from "../physics/thermal-path.js";
 import type { ForwardLaw } from "../solve/ac-bridge-circuit.js";
-import type { DiodeStage, IdealDiodeStage } from "../stages/stage-model.js";
+import { behaviourOf } from "../stages/stage-behaviours.js";
+import { type DiodeStage, type IdealDiodeStage, stageStartV, stageTjMaxC } from "../stages/stage-model.js";
 
 /**
  * One element of a full bridge: a discrete diode (PN or Schottky), or an N-channel MOSFET driven
@@ -44,11 +45,17 @@ export function polarityOf(position: BridgePosition): Polarity {
 }
 
 export function elementTjMaxC(e: BridgeElement): number {
-  return e.kind === "nfet-ideal-diode" ? e.mosfet.tjMaxC : e.tjMaxC;
+  return stageTjMaxC(e);
 }
 
 export function elementReverseRatingV(e: BridgeElement): number {
-  return e.kind === "nfet-ideal-diode" ? e.mosfet.vdsMaxV : e.reverseRatingV;
+  // Every bridge element kind states its reverse (or drain-source) rating.
+  return behaviourOf(e).reverseRatingV(e) ?? 0;
+}
+
+/** A bridge element with a controller (the ideal-diode MOSFET): the one with a start voltage. */
+export function isControlledElement(e: BridgeElement): e is IdealDiodeStage {
+  return stageStartV(e) !== undefined;
 }
 
 export function elementRthKPerW(e: BridgeElement): number {
@@ -77,7 +84,7 @@ export interface ElementLaw {
  * not modelled here.
  */
 export function elementLaw(e: BridgeElement, tK: number, controllerSupplyV: number): ElementLaw {
-  if (e.kind !== "nfet-ideal-diode") return { mode: "junction", law: junctionLaw(e.diode, tK) };
+  if (!isControlledElement(e)) return { mode: "junction", law: junctionLaw(e.diode, tK) };
   const body = e.mosfet.bodyDiode;
   const c = e.controller;
   const vgs = controllerGateV(e, controllerSupplyV);

@@ -2,6 +2,7 @@ import { totalRthKPerW } from "../physics/thermal-path.js";
 import { solveOperatingPoint } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
 import { scaleLoad } from "../solve/load-scale.js";
+import { controllerLossW } from "../stages/stage-behaviours.js";
 import { type StageModel, stageQuiescentA } from "../stages/stage-model.js";
 
 export interface MissionRow {
@@ -30,9 +31,9 @@ export function missionEnergy(
   const unsolved: number[] = [];
   rows.forEach((row, i) => {
     const r = solveOperatingPoint({ stage, supplyV, sourceResistanceOhm, load: scaleLoad(load, row.loadScale), ambientC: row.ambientC, rthKPerW: totalRthKPerW(stage.thermal) });
-    // A separate controller's quiescent power counts too (an integrated switch's is in its die loss).
-    const controllerW = stage.kind === "nfet-ideal-diode" ? stage.controller.quiescentA * supplyV : 0;
-    if ("point" in r) wh += (r.point.dieLossW + controllerW) * row.hoursPerYear;
+    // A separate controller's quiescent power counts too (an integrated switch's is in its die
+    // loss), at the voltage across it: the stage input, not the open-circuit supply.
+    if ("point" in r) wh += (r.point.dieLossW + controllerLossW(stage, r.point.stageInputV)) * row.hoursPerYear;
     else unsolved.push(i);
   });
   const kwh = wh / 1000;

@@ -2,6 +2,7 @@ import { cToK } from "../physics/constants.js";
 import type { DiodeParams } from "../physics/diode.js";
 import { reverseJunctionA } from "../solve/series-branch.js";
 import type { LoadModel } from "../solve/load-model.js";
+import { behaviourOf } from "../stages/stage-behaviours.js";
 import type { StageModel } from "../stages/stage-model.js";
 import { type DischargeOutcome, dischargeTime } from "./hold-up-discharge.js";
 import type { ControllerTurnOff } from "./reverse-path.js";
@@ -91,7 +92,7 @@ export function holdUp(m: HoldUpModel): HoldUpOutcome {
       const after = ev.clamp?.after ?? ev.end;
       const reverseV = Math.max(after.capacitorV - inp.inputAfterV, 0);
       const diode = blockingJunction(m.stage);
-      const point = m.stage.kind === "pn-diode" || m.stage.kind === "schottky-diode" ? m.stage.reverseLeakage : undefined;
+      const point = behaviourOf(m.stage).reverseLeakage(m.stage);
       const leakageA = diode === undefined ? 0 : Math.max(0, -reverseJunctionA(diode, -reverseV, tK, point));
       return fromDischarge(dischargeTime({ ...m, capacitorV: after.capacitorV, leakageA }), after.timeS, leakageA, after.capacitorV);
     }
@@ -100,15 +101,7 @@ export function holdUp(m: HoldUpModel): HoldUpOutcome {
 
 /** The junction that blocks once the stage is off: the diode itself or the MOSFET's body diode. */
 export function blockingJunction(stage: StageModel): DiodeParams | undefined {
-  switch (stage.kind) {
-    case "pn-diode":
-    case "schottky-diode":
-      return stage.diode;
-    case "integrated-switch":
-      return stage.belowStart.mode === "body-diode" ? stage.belowStart.bodyDiode : undefined;
-    default:
-      return stage.mosfet.bodyDiode;
-  }
+  return behaviourOf(stage).blockingJunction(stage);
 }
 
 function fromDischarge(d: DischargeOutcome, eventS: number, reverseLeakageA: number, startCapacitorV: number): HoldUpOutcome {

@@ -3,6 +3,7 @@ import { type DiodeParams, saturationCurrentAt, emissionVoltageV } from "../phys
 import { leakageCurrentA } from "../physics/schottky-leakage.js";
 import { totalRthKPerW } from "../physics/thermal-path.js";
 import { thermalFixedPoint } from "../solve/thermal-fixed-point.js";
+import { behaviourOf } from "../stages/stage-behaviours.js";
 import { type DatasheetLeakage, type StageModel, stageTjMaxC } from "../stages/stage-model.js";
 
 /** A datasheet reverse leakage: a point scaled by the junction's own Is(T) law, or a fitted law. */
@@ -51,55 +52,9 @@ export function junctionLeakageA(d: DiodeParams, reverseV: number, tK: number, p
   return saturationCurrentAt(d, tK) * shape;
 }
 
-/** The element that blocks a steady reversed supply, and what it sees. */
+/** The element that blocks a steady reversed supply, and what it sees (each kind's own, domain/stages/). */
 export function reverseStress(stage: StageModel, reverseV: number): { stress: ReverseStress; junction?: DiodeParams } {
-  switch (stage.kind) {
-    case "pn-diode":
-    case "schottky-diode":
-      return {
-        stress: { blockingElement: "diode", partVoltageV: reverseV, ratingV: stage.reverseRatingV, note: "the series diode is reverse-biased and carries its leakage" },
-        junction: stage.diode,
-      };
-    case "pfet-high-side":
-      return {
-        stress: {
-          blockingElement: "body-diode",
-          partVoltageV: reverseV,
-          ratingV: stage.mosfet.vdsMaxV,
-          gateSourceV: 0,
-          note: "the gate and source both sit near 0 V (gate to ground, output discharged): the channel is off and the body diode blocks",
-        },
-        junction: stage.mosfet.bodyDiode,
-      };
-    case "nfet-low-side":
-      return {
-        stress: { blockingElement: "body-diode", partVoltageV: reverseV, ratingV: stage.mosfet.vdsMaxV, gateSourceV: 0, note: "the gate is pulled to the source side: the channel is off and the body diode in the return blocks" },
-        junction: stage.mosfet.bodyDiode,
-      };
-    case "nfet-ideal-diode":
-      return {
-        stress: {
-          blockingElement: "body-diode",
-          partVoltageV: reverseV,
-          ratingV: stage.mosfet.vdsMaxV,
-          controllerReverseV: reverseV,
-          ...(stage.controller.reverseRatingV === undefined ? {} : { controllerRatingV: stage.controller.reverseRatingV }),
-          gateSourceV: 0,
-          note: "the controller holds the gate off; the body diode blocks and the controller's input pin sees the reversed supply",
-        },
-        junction: stage.mosfet.bodyDiode,
-      };
-    case "integrated-switch":
-      return {
-        stress: {
-          blockingElement: "integrated-switch",
-          partVoltageV: reverseV,
-          ratingV: stage.reverseRatingV,
-          note: stage.reverseRatingV === undefined ? "the switch states no reverse rating: its reverse blocking is unproven" : "the integrated switch blocks the reversed supply",
-        },
-        ...(stage.belowStart.mode === "body-diode" ? { junction: stage.belowStart.bodyDiode } : {}),
-      };
-  }
+  return behaviourOf(stage).reverseStress(stage, reverseV);
 }
 
 /**

@@ -1,12 +1,12 @@
 import { cToK, kToC } from "../physics/constants.js";
 import { type FosterTerm, stepFoster } from "../physics/foster.js";
-import { fullEnhancementV, interpolate } from "../physics/mosfet-channel.js";
+import { interpolate } from "../physics/mosfet-channel.js";
 import { totalRthKPerW } from "../physics/thermal-path.js";
 import { solveElectrical } from "../solve/electrical-point.js";
 import { solveOperatingPoint, dieLossW } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
 import type { ConductionMode } from "../stages/conduction.js";
-import { gateDriveAt } from "../stages/forward.js";
+import { behaviourOf } from "../stages/stage-behaviours.js";
 import type { StageModel } from "../stages/stage-model.js";
 
 /** How the stage gets its drive at a given input voltage: the start and gate-drive margins. */
@@ -20,25 +20,7 @@ export interface DriveAtInput {
 }
 
 export function driveAtInput(stage: StageModel, inputV: number, dropV = 0): DriveAtInput {
-  switch (stage.kind) {
-    case "pn-diode":
-    case "schottky-diode":
-      return { inputV };
-    case "pfet-high-side":
-    case "nfet-low-side": {
-      const raw = stage.kind === "pfet-high-side" ? inputV - dropV : inputV;
-      const vgs = stage.gateClampV === undefined ? raw : Math.min(raw, stage.gateClampV);
-      return { inputV, gateSourceV: vgs, gateDriveMarginV: vgs - fullEnhancementV(stage.mosfet.channel) };
-    }
-    case "nfet-ideal-diode": {
-      const c = stage.controller;
-      const running = inputV >= c.startV;
-      const vgs = running ? gateDriveAt(c, inputV) : 0;
-      return { inputV, startMarginV: inputV - c.startV, gateSourceV: vgs, gateDriveMarginV: vgs - fullEnhancementV(stage.mosfet.channel) };
-    }
-    case "integrated-switch":
-      return { inputV, startMarginV: inputV - stage.startV };
-  }
+  return behaviourOf(stage).driveAtInput(stage, inputV, dropV);
 }
 
 export type TransientThermal = { readonly kind: "foster"; readonly terms: readonly FosterTerm[] } | { readonly kind: "quasi-static" };

@@ -11,6 +11,7 @@ import type { LoadModel } from "../solve/load-model.js";
 import { scaleLoad } from "../solve/load-scale.js";
 import { type StageScale, scaleStage, UNSCALED } from "../stages/scale-stage.js";
 import { type StageModel, stageStartV, stageTjMaxC } from "../stages/stage-model.js";
+import { behaviourOf } from "../stages/stage-behaviours.js";
 import type { TransientPulse } from "./transient-library.js";
 import { type ReviewTurnOff, type ReviewTurnOffResult, reviewTurnOff } from "./review-turn-off.js";
 
@@ -103,7 +104,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
       }))
     : [];
 
-  const reverse = reverseSteady(cand.stage, req.reverseV, req.ambientMaxC, cand.stage.kind === "pn-diode" || cand.stage.kind === "schottky-diode" ? cand.stage.reverseLeakage : undefined);
+  const reverse = reverseSteady(cand.stage, req.reverseV, req.ambientMaxC, behaviourOf(cand.stage).reverseLeakage(cand.stage));
   // Object.assign: a literal that opens with a spread and then gets fields is V8's slow path.
   const tctx: TransientContext = Object.assign(
     {},

@@ -25,12 +25,15 @@ export const STAGE_KINDS = {
   "nfet-low-side": true,
   "nfet-ideal-diode": true,
   "integrated-switch": true,
+  "nfet-back-to-back": true,
 } as const satisfies Record<StageKind, true>;
 export const STAGE_KIND_LIST = Object.keys(STAGE_KINDS) as readonly StageKind[];
 
 const DIODES: readonly StageKind[] = ["pn-diode", "schottky-diode"];
-const FETS: readonly StageKind[] = ["pfet-high-side", "nfet-low-side", "nfet-ideal-diode"];
-const CONTROLLED: readonly StageKind[] = ["nfet-ideal-diode", "integrated-switch"];
+const FETS: readonly StageKind[] = ["pfet-high-side", "nfet-low-side", "nfet-ideal-diode", "nfet-back-to-back"];
+const CONTROLLED: readonly StageKind[] = ["nfet-ideal-diode", "integrated-switch", "nfet-back-to-back"];
+/** Kinds whose separate controller has an input pin a reversed supply reaches. */
+const CONTROLLER_PIN: readonly StageKind[] = ["nfet-ideal-diode", "nfet-back-to-back"];
 const OP = "operatingPoint";
 const REQ = "requirement (the caller)";
 const STAGE = "stage description";
@@ -60,7 +63,7 @@ export const METRICS: readonly MetricDef[] = [
   { name: "holdUpRequired", type: "boolean", unit: "-", meaning: "the load must ride through an input dropout on its own capacitance", stageKinds: "all", providedBy: `${REQ}; holdUp (true when requiredHoldUpS is given)` },
   { name: "reverseTjC", type: "number", unit: "°C", meaning: "junction temperature of the blocking element in steady reverse polarity, heated by its own leakage at the highest ambient (self-consistent)", stageKinds: "all", providedBy: "review (steady reverse polarity)" },
   { name: "reverseLeakageRunaway", type: "boolean", unit: "-", meaning: "in steady reverse polarity the blocking element's leakage heats it faster than its thermal path sheds it: no stable junction temperature", stageKinds: "all", providedBy: "review (steady reverse polarity)" },
-  { name: "controllerReverseVMaxV", type: "number", unit: "V", meaning: "magnitude of the highest reverse voltage on the controller's input pin: the steady reversed supply or a negative transient peak after any clamp", stageKinds: ["nfet-ideal-diode"], providedBy: "review (steady reverse polarity and negative transients)" },
+  { name: "controllerReverseVMaxV", type: "number", unit: "V", meaning: "magnitude of the highest reverse voltage on the controller's input pin: the steady reversed supply or a negative transient peak after any clamp", stageKinds: CONTROLLER_PIN, providedBy: "review (steady reverse polarity and negative transients)" },
   { name: "clampEnergyJ", type: "number", unit: "J", meaning: "largest energy the design's input clamp absorbs in one pulse of the requirement's transients (0 when it never conducts)", stageKinds: "all", providedBy: "review (transients, with requirement.inputClamp)" },
   { name: "clampEnergyRatingJ", type: "number", unit: "J", meaning: "the input clamp's single-pulse energy rating", stageKinds: "all", providedBy: `${REQ} (inputClamp.energyJ)` },
   { name: "clampPeakCurrentA", type: "number", unit: "A", meaning: "largest peak current through the design's input clamp over the requirement's transients (0 when it never conducts)", stageKinds: "all", providedBy: "review (transients, with requirement.inputClamp)" },
@@ -90,7 +93,7 @@ export const PART_PARAMETERS: readonly MetricDef[] = [
   { name: "vgsMaxV", type: "number", unit: "V", meaning: "MOSFET gate-source voltage rating (magnitude)", stageKinds: FETS, providedBy: STAGE },
   { name: "vgsOnV", type: "number", unit: "V", meaning: "gate-source voltage of the highest datasheet Rds(on) point: the drive needed to reach the rated on-resistance", stageKinds: FETS, providedBy: STAGE },
   { name: "maxInputV", type: "number", unit: "V", meaning: "highest input voltage the controller or integrated switch is rated for", stageKinds: CONTROLLED, providedBy: STAGE },
-  { name: "controllerReverseRatingV", type: "number", unit: "V", meaning: "reverse voltage the controller's input pin withstands (magnitude)", stageKinds: ["nfet-ideal-diode"], providedBy: `${STAGE} (controller.reverseRatingV)` },
+  { name: "controllerReverseRatingV", type: "number", unit: "V", meaning: "reverse voltage the controller's input pin withstands (magnitude)", stageKinds: CONTROLLER_PIN, providedBy: `${STAGE} (controller.reverseRatingV)` },
   { name: "switchReverseRatingV", type: "number", unit: "V", meaning: "reverse voltage an integrated switch blocks (magnitude)", stageKinds: ["integrated-switch"], providedBy: `${STAGE} (reverseRatingV)` },
   { name: "avalancheCurrentA", type: "number", unit: "A", meaning: "single-pulse avalanche current rating (IAS) of a MOSFET: the current at the start of avalanche it survives", stageKinds: FETS, providedBy: `${STAGE} (mosfet avalancheCurrentA)` },
   { name: "avalancheEnergyJ", type: "number", unit: "J", meaning: "single-pulse avalanche energy rating (EAS) of the blocking element, at 25 °C starting junction temperature", stageKinds: RATED, providedBy: `${STAGE} (diode or mosfet avalancheEnergyJ); turnOff's avalancheRatingJ overrides` },
@@ -179,8 +182,8 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
 
 /** Part parameters a built-in set does not compare for some kinds, with why (see METRIC_ROLES). */
 export const PART_NOT_ASSESSED: Readonly<Record<string, NotAssessed>> = {
-  vgsMaxV: { stageKinds: ["nfet-ideal-diode"], reason: "the controller drives the gate from its own regulated supply; no analysis computes that drive against the MOSFET's Vgs rating" },
-  ifrmA: { stageKinds: ["pfet-high-side", "nfet-low-side"], reason: "only bridge elements carry a repetitive charging pulse (bridgeAc); these kinds are not bridge elements" },
+  vgsMaxV: { stageKinds: CONTROLLER_PIN, reason: "the controller drives the gate from its own regulated supply; no analysis computes that drive against the MOSFET's Vgs rating" },
+  ifrmA: { stageKinds: ["pfet-high-side", "nfet-low-side", "nfet-back-to-back"], reason: "only bridge elements carry a repetitive charging pulse (bridgeAc); these kinds are not bridge elements" },
 };
 
 const METRIC_INDEX = new Map(METRICS.map((m) => [m.name, m] as const));

@@ -1,3 +1,4 @@
+import { behaviourOf } from "../stages/stage-behaviours.js";
 import { blocksReverseCurrent } from "../checks/stage-ratings.js";
 import type { RuleInput } from "./rule-model.js";
 import type { OperatingPointOutcome } from "../solve/electrothermal-point.js";
@@ -26,7 +27,7 @@ export function operatingPointRuleInput(stage: StageModel, load: LoadModel, o: O
     metrics["lossWorstW"] = p.dieLossW;
     metrics["dropWorstV"] = p.forward.dropV;
     metrics["loadVMinV"] = p.loadV;
-    if (p.forward.gateSourceV !== undefined && stage.kind !== "pn-diode" && stage.kind !== "schottky-diode" && stage.kind !== "integrated-switch") {
+    if (p.forward.gateSourceV !== undefined && behaviourOf(stage).gateDriveMetric) {
       metrics["gateDriveMinV"] = p.forward.gateSourceV;
     }
   } else {
@@ -38,43 +39,13 @@ export function operatingPointRuleInput(stage: StageModel, load: LoadModel, o: O
 export function stageMetrics(stage: StageModel): Record<string, number | boolean> {
   // Whether the stage turns off on reverse current comes from one place (stage-ratings.ts).
   const m: Record<string, number | boolean> = { quiescentA: stageQuiescentA(stage), blocksReverseCurrent: blocksReverseCurrent(stage) };
-  switch (stage.kind) {
-    case "nfet-ideal-diode":
-      m["startVoltageV"] = stage.controller.startV;
-      return m;
-    case "integrated-switch":
-      m["startVoltageV"] = stage.startV;
-      return m;
-    default:
-      return m;
-  }
+  return Object.assign(m, behaviourOf(stage).describe(stage).metrics);
 }
 
+/** The part's ratings by vocabulary name: tjMaxC and what its kind states (domain/stages/). */
 export function partParameters(stage: StageModel): Record<string, number> {
   const part: Record<string, number> = { tjMaxC: stageTjMaxC(stage) };
-  switch (stage.kind) {
-    case "pn-diode":
-    case "schottky-diode":
-      part["vrrmV"] = stage.reverseRatingV;
-      break;
-    case "pfet-high-side":
-    case "nfet-low-side":
-    case "nfet-ideal-diode": {
-      part["vdsMaxV"] = stage.mosfet.vdsMaxV;
-      part["vgsMaxV"] = stage.mosfet.vgsMaxV;
-      const top = stage.mosfet.channel.rdsOnPoints.at(-1);
-      if (top !== undefined) part["vgsOnV"] = top.gateSourceV;
-      if (stage.mosfet.avalancheCurrentA !== undefined) part["avalancheCurrentA"] = stage.mosfet.avalancheCurrentA;
-      if (stage.kind === "nfet-ideal-diode" && stage.controller.maxInputV !== undefined) part["maxInputV"] = stage.controller.maxInputV;
-      if (stage.kind === "nfet-ideal-diode" && stage.controller.reverseRatingV !== undefined) part["controllerReverseRatingV"] = stage.controller.reverseRatingV;
-      break;
-    }
-    case "integrated-switch":
-      part["maxInputV"] = stage.maxVoltageV;
-      if (stage.reverseRatingV !== undefined) part["switchReverseRatingV"] = stage.reverseRatingV;
-      break;
-  }
-  return part;
+  return Object.assign(part, behaviourOf(stage).describe(stage).part);
 }
 
 /**
@@ -82,21 +53,5 @@ export function partParameters(stage: StageModel): Record<string, number> {
  * is compared with: the rule is then a gap (it cannot pass), with why.
  */
 export function missingRatings(stage: StageModel): Record<string, string> {
-  const out: Record<string, string> = {};
-  switch (stage.kind) {
-    case "nfet-ideal-diode":
-      if (stage.controller.reverseRatingV === undefined) out["part.controllerReverseRatingV"] = "the controller states no reverse rating of its input pin (controller.reverseRatingV): its survival of the reversed supply is unproven";
-      if (stage.mosfet.avalancheCurrentA === undefined) out["part.avalancheCurrentA"] = "the MOSFET states no avalanche current rating (mosfet.avalancheCurrentA)";
-      break;
-    case "pfet-high-side":
-    case "nfet-low-side":
-      if (stage.mosfet.avalancheCurrentA === undefined) out["part.avalancheCurrentA"] = "the MOSFET states no avalanche current rating (mosfet.avalancheCurrentA)";
-      break;
-    case "integrated-switch":
-      if (stage.reverseRatingV === undefined) out["part.switchReverseRatingV"] = "the switch states no reverse rating (reverseRatingV): its reverse blocking is unproven";
-      break;
-    default:
-      break;
-  }
-  return out;
+  return behaviourOf(stage).describe(stage).missing;
 }

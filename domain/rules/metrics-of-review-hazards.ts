@@ -1,3 +1,4 @@
+import { behaviourOf } from "../stages/stage-behaviours.js";
 import type { CandidateReview, ReviewRequirement } from "../review/candidate-review.js";
 import type { StageModel } from "../stages/stage-model.js";
 
@@ -23,7 +24,7 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
   if (rev.outcome === "blocks") metrics["reverseTjC"] = rev.tjC;
   else unavailable["reverseTjC"] = `steady reverse polarity has no stable junction temperature (${rev.outcome}: ${rev.reason})`;
 
-  if (stage.kind === "nfet-ideal-diode") {
+  if (behaviourOf(stage).controllerReversePin) {
     const pin = r.transients.flatMap((t) => (t.polarity === "negative" ? t.stresses.filter((x) => x.element === "controller-input").map((x) => x.seenV) : []));
     metrics["controllerReverseVMaxV"] = Math.max(rev.stress.controllerReverseV ?? req.reverseV, ...pin);
   }

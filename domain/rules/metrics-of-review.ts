@@ -1,3 +1,4 @@
+import { behaviourOf } from "../stages/stage-behaviours.js";
 import type { CandidateReview, ReviewRequirement } from "../review/candidate-review.js";
 import type { ReviewTurnOffResult } from "../review/review-turn-off.js";
 import type { RuleInput } from "./rule-model.js";
@@ -78,11 +79,13 @@ export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags
     if (why === undefined && typeof metrics["tjWorstC"] === "number") metrics["tjWorstC"] = Math.max(metrics["tjWorstC"], p.result.maxTjC);
   }
 
-  if (stage.kind === "pfet-high-side" || stage.kind === "nfet-low-side" || stage.kind === "nfet-ideal-diode") {
+  const behaviour = behaviourOf(stage);
+  if (behaviour.gateDriveMetric) {
     if (r.startUp.atMinSupply.gateSourceV !== undefined) metrics["gateDriveMinV"] = r.startUp.atMinSupply.gateSourceV;
   }
-  if (stage.kind === "pfet-high-side" || stage.kind === "nfet-low-side") {
-    const clamp = stage.gateClampV;
+  const gate = behaviour.gateSourceClampV(stage);
+  if (gate !== undefined) {
+    const clamp = gate.clampV;
     const peaks = [req.supplyMaxV, ...(req.jumpStartV === undefined ? [] : [req.jumpStartV]), ...r.transients.filter((t) => t.polarity === "positive").map((t) => t.inputPeakV)];
     metrics["gateSourceVMaxV"] = Math.max(...peaks.map((v) => (clamp === undefined ? v : Math.min(v, clamp))));
   }

@@ -3,6 +3,7 @@ import { diodeVoltageV } from "../physics/diode.js";
 import type { CompiledRule } from "../rules/compile-rule-set.js";
 import { evaluateRule } from "../rules/evaluate-rules.js";
 import { scaleStage, UNSCALED } from "../stages/scale-stage.js";
+import { behaviourOf } from "../stages/stage-behaviours.js";
 import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
 import type { Assessment, SizingContext } from "./assessment.js";
 import { cornerOf } from "./corner-of.js";
@@ -92,9 +93,7 @@ export function scaledForward(stage: StageModel, p: ForwardParameter, k: number)
 
 /** The on-resistance at 25 °C at the rated (highest characterised) gate drive, ohm, and that drive. */
 export function ratedRdsOn(stage: StageModel): { ohm: number; gateSourceV: number } | undefined {
-  let top: { rdsOnOhm: number; gateSourceV: number } | undefined;
-  if (stage.kind === "integrated-switch") top = stage.channel.rdsOnPoints.at(-1);
-  else if (stage.kind === "pfet-high-side" || stage.kind === "nfet-low-side" || stage.kind === "nfet-ideal-diode") top = stage.mosfet.channel.rdsOnPoints.at(-1);
+  const top = behaviourOf(stage).ratedRdsOn(stage);
   return top === undefined ? undefined : { ohm: top.rdsOnOhm, gateSourceV: top.gateSourceV };
 }
 
@@ -159,8 +158,8 @@ export function forwardLimit(ctx: SizingContext, stage: StageModel, template: As
     value = (rated?.ohm ?? 1) * search.k;
     templateValue = rated?.ohm;
   } else {
-    const d = stage.kind === "pn-diode" || stage.kind === "schottky-diode" ? stage.diode : undefined;
-    const ld = limitStage.kind === "pn-diode" || limitStage.kind === "schottky-diode" ? limitStage.diode : undefined;
+    const d = behaviourOf(stage).forwardDiode(stage);
+    const ld = behaviourOf(limitStage).forwardDiode(limitStage);
     const i = where.currentA ?? 0;
     const tK = cToK(where.tjC ?? 25);
     value = ld ? diodeVoltageV(ld, i, tK) : Number.NaN;

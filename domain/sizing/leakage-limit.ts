@@ -1,6 +1,7 @@
 import { reverseSteady, junctionLeakageA, scaleLeakage, type LeakagePoint } from "../checks/reverse-steady.js";
 import { cToK, T25_K } from "../physics/constants.js";
-import type { DiodeStage } from "../stages/stage-model.js";
+import { behaviourOf } from "../stages/stage-behaviours.js";
+import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
 import type { SizingContext } from "./assessment.js";
 import { largestScale } from "./largest-scale.js";
 import { fmt, limitItem, type SpecItem } from "./spec-item.js";
@@ -13,18 +14,20 @@ import { fmt, limitItem, type SpecItem } from "./spec-item.js";
  * lowest stable root). Stated as the leakage at VR and Tj = that target, the figure to hold
  * against a datasheet's IR(VR, Tj).
  */
-export function leakageLimit(ctx: SizingContext, stage: DiodeStage): SpecItem {
+export function leakageLimit(ctx: SizingContext, stage: StageModel): SpecItem {
   const req = ctx.requirement;
   const vr = req.reverseV;
-  const target = stage.tjMaxC - req.tjMarginK;
+  const target = stageTjMaxC(stage) - req.tjMarginK;
+  const junction = behaviourOf(stage).blockingJunction(stage);
   const base = { id: "reverseLeakageMaxA", title: `largest reverse leakage at VR = ${fmt(vr)} V and Tj = ${fmt(target)} °C (steady reverse polarity at ${req.ambientMaxC} °C ambient)`, unit: "A", bound: "at-most" as const };
   const source = { kind: "requirement" as const, field: "reverse, tjMarginK", severity: "fail" as const };
   if (!(vr > 0)) return { ...base, outcome: "not-required", reason: "the requirement has no steady reverse polarity" };
+  if (junction === undefined) return { ...base, outcome: "not-required", reason: "the stage blocks without a junction: it has no reverse leakage to size" };
   if (req.ambientMaxC >= target) {
     return { ...base, outcome: "impossible", source, reason: `the ${req.ambientMaxC} °C ambient alone reaches the ${fmt(target)} °C junction target (Tj(max) − ${req.tjMarginK} K): no leakage is small enough` };
   }
-  const point: LeakagePoint = stage.reverseLeakage ?? { currentA: junctionLeakageA(stage.diode, vr, T25_K), tempK: T25_K };
-  const leakAt = (s: number, tC: number) => s * junctionLeakageA(stage.diode, vr, cToK(tC), point);
+  const point: LeakagePoint = behaviourOf(stage).reverseLeakage(stage) ?? { currentA: junctionLeakageA(junction, vr, T25_K), tempK: T25_K };
+  const leakAt = (s: number, tC: number) => s * junctionLeakageA(junction, vr, cToK(tC), point);
   const g = (s: number): number | undefined => {
     const r = reverseSteady(stage, vr, req.ambientMaxC, scaleLeakage(point, s));
     return r.outcome === "blocks" ? (target - r.tjC) / target : undefined;

@@ -1,5 +1,6 @@
 import { blocksReverseCurrent } from "../checks/stage-ratings.js";
-import type { StageKind, StageModel } from "../stages/stage-model.js";
+import { behaviourOf } from "../stages/stage-behaviours.js";
+import { type StageKind, type StageModel, stageStartV } from "../stages/stage-model.js";
 import type { Assessment, SizingContext } from "./assessment.js";
 import { clampSpec } from "./clamp-spec.js";
 import { forwardLimit } from "./forward-limit.js";
@@ -34,31 +35,21 @@ export function specifyStage(ctx: SizingContext, stage: StageModel): StageSpecif
     ruleLimitItem(set, input, name, { id, title, unit, bound }, value, corner);
   const reverse = `steady reverse ${ctx.requirement.reverseV} V and the negative pulses of the set`;
   const items: SpecItem[] = [];
-  switch (stage.kind) {
-    case "pn-diode":
-    case "schottky-diode":
-      items.push(forwardLimit(ctx, stage, template, "forwardVoltage").item);
-      items.push(rule("part.vrrmV", "reverseRatingMinV", "smallest repetitive peak reverse voltage rating VRRM", "V", "at-least", part("vrrmV"), reverse));
-      items.push(leakageLimit(ctx, stage));
-      break;
-    case "pfet-high-side":
-    case "nfet-low-side":
-    case "nfet-ideal-diode":
-      items.push(forwardLimit(ctx, stage, template, "rdsOn").item);
-      items.push(rule("part.vdsMaxV", "drainSourceRatingMinV", "smallest drain-source voltage rating", "V", "at-least", part("vdsMaxV"), reverse));
-      if (stage.kind !== "nfet-ideal-diode") {
-        items.push(rule("part.vgsMaxV", "gateSourceRatingMinV", "smallest gate-source voltage rating", "V", "at-least", part("vgsMaxV"), "highest steady supply and positive pulses, after the gate clamp"));
-      }
-      items.push(
-        rule("part.vgsOnV", "ratedGateDriveMaxV", `gate drive at which Rds(on) is rated, at most the drive available at the lowest supply (${metric("gateDriveMinV") ?? "?"} V)`, "V", "at-most", part("vgsOnV"), `lowest supply ${ctx.requirement.supplyMinV} V, full load`),
-      );
-      if (stage.kind === "nfet-ideal-diode") items.push(...controllerItems(ctx, stage, template, rule, part, metric));
-      break;
-    case "integrated-switch":
-      items.push(forwardLimit(ctx, stage, template, "rdsOn").item);
-      items.push(...controllerItems(ctx, stage, template, rule, part, metric));
-      break;
+  const traits = behaviourOf(stage).sizing;
+  items.push(forwardLimit(ctx, stage, template, traits.forward).item);
+  if (traits.reverseRating === "vrrmV") items.push(rule("part.vrrmV", "reverseRatingMinV", "smallest repetitive peak reverse voltage rating VRRM", "V", "at-least", part("vrrmV"), reverse));
+  if (traits.reverseRating === "vdsMaxV") items.push(rule("part.vdsMaxV", "drainSourceRatingMinV", "smallest drain-source voltage rating", "V", "at-least", part("vdsMaxV"), reverse));
+  if (traits.gateFromSupply) {
+    items.push(rule("part.vgsMaxV", "gateSourceRatingMinV", "smallest gate-source voltage rating", "V", "at-least", part("vgsMaxV"), "highest steady supply and positive pulses, after the gate clamp"));
   }
+  if (traits.ratedGateDrive) {
+    items.push(
+      rule("part.vgsOnV", "ratedGateDriveMaxV", `gate drive at which Rds(on) is rated, at most the drive available at the lowest supply (${metric("gateDriveMinV") ?? "?"} V)`, "V", "at-most", part("vgsOnV"), `lowest supply ${ctx.requirement.supplyMinV} V, full load`),
+    );
+  }
+  if (traits.leakage) items.push(leakageLimit(ctx, stage));
+  const startV = stageStartV(stage);
+  if (traits.control && startV !== undefined) items.push(...controllerItems(ctx, stage, startV, rule, part, metric));
   items.push(...thermalSpec(ctx, template.review.thermalSizing));
   items.push(...clampSpec(ctx, stage));
   return { stageKind: stage.kind, items, template };
@@ -68,8 +59,8 @@ type RuleItem = (name: string, id: string, title: string, unit: string, bound: "
 
 function controllerItems(
   ctx: SizingContext,
-  stage: Extract<StageModel, { kind: "nfet-ideal-diode" | "integrated-switch" }>,
-  _template: Assessment,
+  stage: StageModel,
+  startV: number,
   rule: RuleItem,
   part: (n: string) => number | undefined,
   metric: (n: string) => number | undefined,
@@ -78,7 +69,7 @@ function controllerItems(
   const out: SpecItem[] = [
     rule("part.maxInputV", "inputRatingMinV", "smallest input voltage rating of the controller (or switch)", "V", "at-least", part("maxInputV"), "highest steady supply and positive pulses"),
     rule("startVoltageV", "startVMaxV", "highest start voltage that still starts at the lowest supply", "V", "at-most", metric("startVoltageV"), `lowest supply ${req.supplyMinV} V`),
-    startAlongProfileLimit(ctx, stage),
+    startAlongProfileLimit(ctx, stage, startV),
   ];
   if (blocksReverseCurrent(stage)) {
     if (ctx.turnOff) out.push(...turnOffDelayLimits(ctx, stage, ctx.turnOff));

@@ -1,17 +1,13 @@
 import { cToK } from "../physics/constants.js";
 import { solveElectrical } from "../solve/electrical-point.js";
-import type { IdealDiodeStage, IntegratedSwitchStage } from "../stages/stage-model.js";
+import { behaviourOf } from "../stages/stage-behaviours.js";
+import type { StageModel } from "../stages/stage-model.js";
 import type { SizingContext } from "./assessment.js";
 import { fmt, limitItem, type SpecItem } from "./spec-item.js";
 
-type Controlled = IdealDiodeStage | IntegratedSwitchStage;
-
-export function withStartV<S extends Controlled>(stage: S, startV: number): S {
-  return stage.kind === "nfet-ideal-diode" ? { ...stage, controller: { ...stage.controller, startV } } : { ...stage, startV };
-}
-
-export function startVOf(stage: Controlled): number {
-  return stage.kind === "nfet-ideal-diode" ? stage.controller.startV : stage.startV;
+/** The stage with its control starting at startV (its kind's own, domain/stages/). */
+export function withStartV<S extends StageModel>(stage: S, startV: number): S {
+  return behaviourOf(stage).withStartV(stage, startV);
 }
 
 /**
@@ -22,7 +18,7 @@ export function startVOf(stage: Controlled): number {
  * same samples and junction temperatures) on the part with the controller always running;
  * samples where the load has no operating point even then do not count (no start voltage helps).
  */
-export function startAlongProfileLimit(ctx: SizingContext, stage: Controlled): SpecItem {
+export function startAlongProfileLimit(ctx: SizingContext, stage: StageModel, startV: number): SpecItem {
   const base = { id: "startAlongProfileMaxV", title: "highest start voltage that keeps the controller running along the start-up profile", unit: "V", bound: "at-most" as const };
   const req = ctx.requirement;
   if (req.startProfile === undefined) return { ...base, outcome: "not-required", reason: "the requirement gives no start-up profile" };
@@ -42,7 +38,7 @@ export function startAlongProfileLimit(ctx: SizingContext, stage: Controlled): S
   }
   const source = { kind: "requirement" as const, field: "startProfile", severity: "fail" as const };
   if (lowest === undefined) return { ...base, outcome: "impossible", source, reason: "the load has no operating point anywhere along the profile, whatever the start voltage" };
-  return limitItem(base, lowest.v, startVOf(stage), {
+  return limitItem(base, lowest.v, startV, {
     corner: `start-up profile at t = ${fmt(lowest.t)} s (supply ${fmt(lowest.supplyV)} V, ${lowest.ambientC} °C ambient)`,
     conditions: { timeS: lowest.t, supplyV: lowest.supplyV, ambientC: lowest.ambientC },
     source,

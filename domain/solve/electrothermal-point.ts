@@ -1,4 +1,5 @@
 import { kToC } from "../physics/constants.js";
+import { behaviourOf, quiescentLossW } from "../stages/stage-behaviours.js";
 import { type StageModel, stageStartV, stageTjMaxC } from "../stages/stage-model.js";
 import { type CircuitModel, type ElectricalOutcome, type ElectricalPoint, fmt, solveElectrical } from "./electrical-point.js";
 import { thermalFixedPoint } from "./thermal-fixed-point.js";
@@ -16,6 +17,22 @@ export interface ThermalPoint extends ElectricalPoint {
   readonly dieLossW: number;
   /** Circuit solves the search took. */
   readonly iterations: number;
+  /** Present when the control's state is self-consistent neither way at this supply (see solve). */
+  readonly startChatter?: StartChatter;
+}
+
+/**
+ * The chatter band at a start threshold: running, the control's own current pulls its input below
+ * the start voltage; below start, the input is at or above it. Neither state holds: a real
+ * controller toggles between them (its hysteresis decides), and the point below start, the
+ * lossier one, is reported.
+ */
+export interface StartChatter {
+  readonly startV: number;
+  /** Stage input with the control running, V (below startV). */
+  readonly runningInputV: number;
+  /** Stage input with the control below start, V (at or above startV). */
+  readonly belowStartInputV: number;
 }
 
 export interface SolvedPoint extends ThermalPoint {
@@ -73,9 +90,16 @@ function solve(m: OperatingPointModel, probeGain: boolean): OperatingPointOutcom
   const on = solveWithControl({ ...m, running: true }, probeGain);
   if ("point" in on && on.point.stageInputV >= startV) return on;
   const below = solveWithControl({ ...m, running: false }, probeGain);
-  if ("point" in on) return below;
+  if ("point" in on) {
+    if (!("point" in below) || below.point.stageInputV < startV) return below;
+    return withChatter(below, { startV, runningInputV: on.point.stageInputV, belowStartInputV: below.point.stageInputV });
+  }
   // running has no point (runaway, collapse): it stands unless the control never starts
   return "point" in below && below.point.stageInputV < startV ? below : on;
+}
+
+function withChatter<P extends ThermalPoint>(o: Extract<OperatingPointOutcome<P>, { point: P }>, startChatter: StartChatter): OperatingPointOutcome<P> {
+  return { ...o, point: { ...o.point, startChatter } };
 }
 
 function solveWithControl(m: OperatingPointModel, probeGain: boolean): OperatingPointOutcome<ThermalPoint> {
@@ -141,8 +165,7 @@ function solveWithControl(m: OperatingPointModel, probeGain: boolean): Operating
   return { outcome: "solved", point };
 }
 
-/** Heat in the die carrying the load: conduction loss, plus an integrated switch's own supply. */
+/** Heat in the die carrying the load: conduction loss, plus the quiescent power of a control on that die (an integrated switch). */
 export function dieLossW(stage: StageModel, p: ElectricalPoint): number {
-  if (stage.kind === "integrated-switch") return p.forward.lossW + stage.quiescentA * Math.max(p.stageInputV, 0);
-  return p.forward.lossW;
+  return behaviourOf(stage).quiescentHeatsDie ? p.forward.lossW + quiescentLossW(stage, p.stageInputV) : p.forward.lossW;
 }

@@ -1,7 +1,7 @@
 import { type DiodeParams, diodeCurrentA, diodeVoltageV, emissionVoltageV } from "../physics/diode.js";
-import { channelResistanceOhm } from "../physics/mosfet-channel.js";
 import { junctionLeakageA, type LeakagePoint } from "../checks/reverse-steady.js";
 import { stageForward } from "../stages/forward.js";
+import { behaviourOf } from "../stages/stage-behaviours.js";
 import type { StageModel } from "../stages/stage-model.js";
 import { bracketedRoot } from "./root-find.js";
 
@@ -95,29 +95,19 @@ export function branchCurrent(stage: StageModel, leftV: number, leftOhm: number,
 type ReverseLaw = { readonly kind: "channel" | "junction"; readonly currentA: (v: number) => number } | { readonly kind: "ideal-block" };
 
 function reverseLaw(stage: StageModel, leftV: number, rightV: number, tK: number): ReverseLaw {
-  const junction = (d: DiodeParams, point?: LeakagePoint): ReverseLaw => ({ kind: "junction", currentA: (v) => reverseJunctionA(d, v, tK, point) });
-  const clampV = (v: number, lim: number | undefined): number => (lim === undefined ? v : Math.min(v, lim));
-  switch (stage.kind) {
-    case "pn-diode":
-    case "schottky-diode":
-      return junction(stage.diode, stage.reverseLeakage);
-    case "pfet-high-side":
-    case "nfet-low-side": {
-      const gate = stage.kind === "pfet-high-side" ? rightV : leftV;
-      const r = channelResistanceOhm(stage.mosfet.channel, clampV(gate, stage.gateClampV), tK);
-      const body = stage.mosfet.bodyDiode;
-      if (r === undefined) return junction(body);
-      return { kind: "channel", currentA: (v) => v / r + diodeCurrentA(body, v, tK) };
+  const c = behaviourOf(stage).reverseConduction(stage, leftV, rightV, tK);
+  switch (c.kind) {
+    case "junction": {
+      const { diode, leakage } = c;
+      return { kind: "junction", currentA: (v) => reverseJunctionA(diode, v, tK, leakage) };
     }
-    case "nfet-ideal-diode":
-      return junction(stage.mosfet.bodyDiode);
-    case "integrated-switch": {
-      if (!stage.blocksReverseCurrent) {
-        const r = channelResistanceOhm(stage.channel, stage.internalGateV, tK);
-        if (r !== undefined) return { kind: "channel", currentA: (v) => v / r };
-      }
-      return stage.belowStart.mode === "body-diode" ? junction(stage.belowStart.bodyDiode) : { kind: "ideal-block" };
+    case "channel": {
+      const { ohm, bodyDiode } = c;
+      if (bodyDiode === undefined) return { kind: "channel", currentA: (v) => v / ohm };
+      return { kind: "channel", currentA: (v) => v / ohm + diodeCurrentA(bodyDiode, v, tK) };
     }
+    case "ideal-block":
+      return c;
   }
 }
 
@@ -134,7 +124,5 @@ export function reverseJunctionA(d: DiodeParams, v: number, tK: number, point?: 
 
 /** The diode that conducts when a regulating controller releases the gate. */
 function releasedGateDiode(stage: StageModel): DiodeParams | undefined {
-  if (stage.kind === "nfet-ideal-diode") return stage.mosfet.bodyDiode;
-  if (stage.kind === "integrated-switch" && stage.belowStart.mode === "body-diode") return stage.belowStart.bodyDiode;
-  return undefined;
+  return behaviourOf(stage).releasedGateDiode(stage);
 }

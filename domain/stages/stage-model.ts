@@ -2,12 +2,14 @@ import type { DiodeParams } from "../physics/diode.js";
 import type { LeakageLaw } from "../physics/schottky-leakage.js";
 import type { ChannelParams } from "../physics/mosfet-channel.js";
 import type { ThermalPath } from "../physics/thermal-path.js";
+import { behaviourOf } from "./stage-behaviours.js";
 
 /**
  * The series protection stages, in domain terms: plain SI numbers, temperatures named by unit.
- * One discriminated union on `kind`; each kind's forward model lives in a file of its own.
+ * One discriminated union on `kind`; each kind's behaviour (forward law, reverse path, ratings,
+ * start-up, scaling, quiescent current) is a module of its own, gathered in stage-behaviours.ts.
  */
-export type StageModel = DiodeStage | PFetStage | NFetLowSideStage | IdealDiodeStage | IntegratedSwitchStage;
+export type StageModel = DiodeStage | PFetStage | NFetLowSideStage | IdealDiodeStage | IntegratedSwitchStage | BackToBackStage;
 export type StageKind = StageModel["kind"];
 
 export interface DiodeStage {
@@ -42,6 +44,8 @@ export interface MosfetModel {
   readonly peakRepetitiveCurrentA?: number;
   /** Single-pulse avalanche current rating IAS (the current EAS is rated at), A; absent: not given. */
   readonly avalancheCurrentA?: number;
+  /** Off-state drain-source leakage IDSS at the rated VDS and a junction temperature (the body diode's reverse current), scaled in temperature by the body diode's Is(T); absent: Is(T) of the body diode. */
+  readonly offStateLeakage?: DatasheetLeakage;
 }
 
 /** P-channel MOSFET in the supply line, gate pulled to ground: |Vgs| = min(Vout, clamp). */
@@ -108,43 +112,33 @@ export interface IntegratedSwitchStage {
   readonly thermal: ThermalPath;
 }
 
+/**
+ * Two N-channel MOSFETs (the same part), common source, in the supply line, both gates driven by
+ * one controller (nfet-back-to-back.ts): blocks both ways when off.
+ */
+export interface BackToBackStage {
+  readonly kind: "nfet-back-to-back";
+  /** Each of the two FETs. */
+  readonly mosfet: MosfetModel;
+  /** The controller or gate driver: start voltage, charge-pump drive, regulation, quiescent current. */
+  readonly controller: ControllerModel;
+  /** An ideal-diode controller turns both off on reverse current; a plain gate driver (load switch) keeps them on. */
+  readonly blocksReverseCurrent: boolean;
+  /** The pair's thermal path (both dies heat it). */
+  readonly thermal: ThermalPath;
+}
+
 /** Junction limit of the die that carries the load current. */
 export function stageTjMaxC(stage: StageModel): number {
-  switch (stage.kind) {
-    case "pn-diode":
-    case "schottky-diode":
-    case "integrated-switch":
-      return stage.tjMaxC;
-    case "pfet-high-side":
-    case "nfet-low-side":
-    case "nfet-ideal-diode":
-      return stage.mosfet.tjMaxC;
-  }
+  return behaviourOf(stage).tjMaxC(stage);
 }
 
 /** Input voltage from which the stage's control runs (undefined: a stage without one), V. */
 export function stageStartV(stage: StageModel): number | undefined {
-  switch (stage.kind) {
-    case "nfet-ideal-diode":
-      return stage.controller.startV;
-    case "integrated-switch":
-      return stage.startV;
-    case "pn-diode":
-    case "schottky-diode":
-    case "pfet-high-side":
-    case "nfet-low-side":
-      return undefined;
-  }
+  return behaviourOf(stage).startV(stage);
 }
 
 /** Quiescent current drawn from the input to ground by the stage's control, A. */
 export function stageQuiescentA(stage: StageModel): number {
-  switch (stage.kind) {
-    case "nfet-ideal-diode":
-      return stage.controller.quiescentA;
-    case "integrated-switch":
-      return stage.quiescentA;
-    default:
-      return 0;
-  }
+  return behaviourOf(stage).quiescentA(stage);
 }

@@ -74,6 +74,13 @@ export const idealDiode = (m: Obj = {}, c: Obj = {}): Obj => ({
   controller: controller(c),
   thermal: { kind: "junction-ambient", rthJaKPerW: 45 },
 });
+const backToBack = (m: Obj = {}): Obj => ({
+  kind: "nfet-back-to-back",
+  name: "test back-to-back pair",
+  mosfet: mosfet(m),
+  controller: controller(),
+  thermal: { kind: "junction-ambient", rthJaKPerW: 40 },
+});
 const pfet = (m: Obj = {}, o: Obj = {}): Obj => ({
   kind: "pfet-high-side",
   name: "test P-FET",
@@ -235,6 +242,16 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     rule: "controller-input-max",
     bad: review(req24, idealDiode({}, { maxInputV: 30 })),
     twin: review(req24, idealDiode({}, { maxInputV: 65 })),
+  },
+  {
+    // With both gates off (below start, or switched off) the input-side FET blocks the whole input.
+    id: "back-to-back-30v-on-24v",
+    hazard: "transient",
+    why: "a back-to-back pair of 30 V FETs on a 24 V system whose steady maximum is 32 V and jump start 36 V: the input-side FET breaks down when the pair is off",
+    procedure: "review",
+    rule: "pair-forward-blocking",
+    bad: review(req24, backToBack({ vdsMaxV: 30 })),
+    twin: review(req24, backToBack({ vdsMaxV: 100 })),
   },
   {
     id: "pfet-gate-unclamped-on-24v",

@@ -43,4 +43,25 @@ describe("an ideal-diode controller at its start threshold", () => {
       expect(Math.abs(p.tjC - (25 + 50 * p.dieLossW)), `${v} V, ${p.forward.mode}`).toBeLessThan(1e-6);
     }
   });
+
+  it("flags the chatter band: running pulls the input below start, below start it sits above", () => {
+    // Closed form of the band (above): the below-start input (2·Vs + Vf)/3 ≥ 4 V and the running
+    // input ≈ 2·Vs/3 < 4 V, so about 5.7 V ≤ Vs < 6 V; outside it the state is self-consistent.
+    expect(at(5.5).startChatter).toBeUndefined();
+    expect(at(6.1).startChatter).toBeUndefined();
+    const p = at(5.85);
+    expect(p.forward.mode).toBe("body-diode");
+    const c = p.startChatter;
+    expect(c).toBeDefined();
+    if (c === undefined) return;
+    expect(c.startV).toBe(4);
+    expect(c.belowStartInputV).toBe(p.stageInputV);
+    expect(c.belowStartInputV).toBeGreaterThanOrEqual(4);
+    expect(c.runningInputV).toBeLessThan(4);
+    expect(Math.abs(c.runningInputV - (2 * 5.85) / 3)).toBeLessThan(0.02);
+    for (const v of supplies) {
+      const q = at(v);
+      if (q.startChatter !== undefined) expect(q.forward.mode, `${v} V`).toBe("body-diode");
+    }
+  });
 });
