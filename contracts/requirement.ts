@@ -12,6 +12,8 @@ export const supplySpec = z
     nominalV: volts("nominal supply (overrides the class)").optional(),
     maxV: volts("highest steady supply (overrides the class)").optional(),
     jumpStartV: volts("jump-start overvoltage, lasting about a minute (overrides the class's; a custom supply has none unless given)").optional(),
+    longTermOvervoltageV: volts("long-term overvoltage, a failed generator regulator for about an hour (overrides the class's; a custom supply has none unless given)").optional(),
+    abnormalMaxV: volts("top of the abnormal service range the equipment must survive (overrides the class's; a custom supply has none unless given)").optional(),
   })
   .meta({ description: "the supply: a built-in class, with any value overridden, or 'custom' with all three given" });
 
@@ -23,7 +25,7 @@ export const customPulse = z.strictObject({
   sourceResistanceOhm: quantity("ohm", "internal resistance Ri of the pulse source", { gt: 0, le: 1e6 }),
   riseS: quantity("s", "rise time (not used by the energy integral)", { ge: 0, le: 10 }).optional(),
   decayS: quantity("s", "decay time td", { gt: 0, le: 100 }),
-  decayConvention: z.enum(["to-10-percent", "time-constant"]).optional().meta({ description: "td to 10 % of the peak (τ = td/ln 10, default) or τ itself" }),
+  decayConvention: z.enum(["to-10-percent", "to-50-percent", "time-constant"]).optional().meta({ description: "td to 10 % of the peak (τ = td/ln 10, default), to half value (τ = td/ln 2) or τ itself" }),
   clampedAtV: volts("a centrally suppressed pulse: the input is held at this level").optional(),
 });
 

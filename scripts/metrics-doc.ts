@@ -64,6 +64,7 @@ const RULE_HAZARDS: Readonly<Record<string, string>> = {
   "controller-reverse-derated": "controller or switch input",
   "clamp-standoff": "input clamp",
   "clamp-standoff-jump-start": "input clamp",
+  "clamp-standoff-overvoltage": "input clamp",
   "clamp-energy": "input clamp",
   "clamp-peak-current": "input clamp",
   "start-at-min-supply": "start-up",

@@ -70,6 +70,7 @@ export const ANALYSIS_ONLY_METRICS: Readonly<Record<string, readonly string[]>> 
     "clampEnergyRatingJ",
     "clampPeakCurrentRatingA",
     "jumpStartV",
+    "supplyOvervoltageV",
     "startProfileMinV",
     "startProfileDropoutS",
   ],

@@ -36,6 +36,8 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
   // The class's jump start only where it lies above the (possibly overridden) highest supply.
   const jumpStartV = r.supply.jumpStartV ?? (cls?.jumpStartV !== undefined && cls.jumpStartV >= maxV ? cls.jumpStartV : undefined);
   if (jumpStartV !== undefined && !(jumpStartV >= maxV)) throw inputProblem("invalid-input", ["requirement", "supply", "jumpStartV"], `the jump-start voltage must be at least the highest steady supply (${maxV} V); got ${jumpStartV} V`);
+  const longTermOvervoltageV = overvoltageOf(r.supply.longTermOvervoltageV, cls?.longTermOvervoltageV, maxV, "longTermOvervoltageV", "long-term overvoltage");
+  const abnormalMaxV = overvoltageOf(r.supply.abnormalMaxV, cls?.abnormalMaxV, maxV, "abnormalMaxV", "abnormal service limit");
   const sources: string[] = [];
   if (cls) sources.push(`${cls.id}: ${cls.source}`);
   const reverseV = r.reverse?.voltageV ?? cls?.reverseV ?? maxV;
@@ -90,6 +92,8 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
       supplyNominalV: nominalV,
       supplyMaxV: maxV,
       ...(jumpStartV === undefined ? {} : { jumpStartV }),
+      ...(longTermOvervoltageV === undefined ? {} : { longTermOvervoltageV }),
+      ...(abnormalMaxV === undefined ? {} : { abnormalMaxV }),
       ambientMinC: r.ambient.minC,
       ambientMaxC: r.ambient.maxC,
       sourceResistanceOhm: r.sourceResistanceOhm ?? 0,
@@ -114,6 +118,12 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
       ...(r.turnOff ? { turnOff: reviewTurnOffOf(r.turnOff, nominalV, assumptions) } : {}),
     },
   };
+}
+
+/** A steady overvoltage level: the caller's, else the class's where it lies above the (possibly overridden) highest supply. */
+function overvoltageOf(given: number | undefined, ofClass: number | undefined, maxV: number, field: string, what: string): number | undefined {
+  if (given !== undefined && !(given >= maxV)) throw inputProblem("invalid-input", ["requirement", "supply", field], `the ${what} must be at least the highest steady supply (${maxV} V); got ${given} V`);
+  return given ?? (ofClass !== undefined && ofClass >= maxV ? ofClass : undefined);
 }
 
 /** The review's turn-off event: defaults recorded (a short from the nominal supply; Tj per candidate). */

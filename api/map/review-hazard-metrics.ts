@@ -1,4 +1,4 @@
-import type { CandidateReview, ReviewRequirement } from "../../domain/review/candidate-review.js";
+import { type CandidateReview, type ReviewRequirement, steadyOvervoltageV } from "../../domain/review/candidate-review.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
 
 interface Scope {
@@ -12,7 +12,7 @@ interface Scope {
  * reverseLeakageRunaway and reverseTjC (reverse-steady.ts), controllerReverseVMaxV (the steady
  * reversed supply and every negative pulse on the controller's pin), the design clamp's worst
  * energy and peak current over the pulses with its ratings and stand-off (transient-stress.ts),
- * the jump-start voltage, and the start profile's lowest supply and dropout time (start-up.ts).
+ * the jump-start voltage and the supply's highest steady overvoltage, and the start profile's lowest supply and dropout time (start-up.ts).
  * What the requirement does not ask (no clamp, no profile, no jump start) is out of scope with
  * why; a figure the model could not give is unavailable, so its rule cannot pass.
  */
@@ -30,6 +30,9 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
 
   if (req.jumpStartV !== undefined) metrics["jumpStartV"] = req.jumpStartV;
   else notRequired["jumpStartV"] = "the supply has no jump start";
+  const overvoltageV = steadyOvervoltageV(req);
+  if (overvoltageV !== undefined) metrics["supplyOvervoltageV"] = overvoltageV;
+  else notRequired["supplyOvervoltageV"] = "the supply has no jump start, long-term overvoltage or abnormal range";
 
   const clamp = req.transientContext.inputClamp;
   if (clamp === undefined) {

@@ -38,7 +38,11 @@ export function clampExponential(p: ExponentialPulse, clampV: number): ClampResu
   return { conducts: true, peakCurrentA: (a - b) / p.sourceResistanceOhm, conductionTimeS, chargeC, energyJ, averagePowerW: energyJ / conductionTimeS };
 }
 
-/** τ from a decay time: "to-10-percent" reads td as the time to fall to 10 % (τ = td/ln 10). */
-export function tauFromDecay(decayS: number, convention: "to-10-percent" | "time-constant"): number {
-  return convention === "to-10-percent" ? decayS / Math.LN10 : decayS;
+/**
+ * τ from a decay time: "to-10-percent" reads td as the time to fall to 10 % (τ = td/ln 10),
+ * "to-50-percent" as the time to half value (τ = td/ln 2, a surge's tail).
+ */
+export function tauFromDecay(decayS: number, convention: "to-10-percent" | "to-50-percent" | "time-constant"): number {
+  if (convention === "to-10-percent") return decayS / Math.LN10;
+  return convention === "to-50-percent" ? decayS / Math.LN2 : decayS;
 }

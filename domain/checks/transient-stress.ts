@@ -11,6 +11,11 @@ export interface TransientContext {
   readonly supplyMaxV: number;
   /** Steady reverse polarity to withstand (magnitude), V: a clamp must not conduct at it either. */
   readonly reverseV: number;
+  /**
+   * Highest steady overvoltage of the supply (jump start, long-term overvoltage, abnormal service
+   * limit), V; absent where it has none. A clamp must not conduct at it: it lasts a minute or more.
+   */
+  readonly overvoltageV?: number;
   /** Voltage held at the output by the hold-up capacitor during a negative pulse, V. */
   readonly outputHeldV: number;
   /** Share of a rating the design may use (e.g. 0.8), 0..1. */
@@ -123,10 +128,12 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
       duty,
       withinPeakCurrent: within(own.peakCurrentA, (d) => d.peakCurrentA),
       withinEnergy: within(own.energyJ, (d) => d.energyJ),
-      standoffClearsSteady: own.standoffV >= Math.max(ctx.supplyMaxV, ctx.reverseV),
+      standoffClearsSteady: own.standoffV >= Math.max(ctx.supplyMaxV, ctx.reverseV, ctx.overvoltageV ?? 0),
     };
   };
-  const limitByClamp = (v: number) => (own === undefined || pulse.clampedAtV !== undefined ? v : Math.min(v, own.clampV));
+  // A module clamp below a central suppressor takes the generator's whole current: the central one
+  // stops conducting once the line is below its level (ISO 16750-2 test B on the bench).
+  const limitByClamp = (v: number) => (own === undefined ? v : Math.min(v, own.clampV));
 
   if (peak < 0) {
     const magnitude = limitByClamp(-peak);
@@ -157,13 +164,13 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
   const stresses = forwardLimits(stage).map((l) => stress(l.element, l.seenV(inputPeak), l.ratingV));
   const exceeds = stresses.some((s) => s.exceeds);
   let clamp: TransientResult["clamp"] = { needed: false };
-  if (exceeds && pulse.clampedAtV !== undefined) {
-    clamp = { needed: "unmodelled", note: `the pulse is suppressed centrally at ${pulse.clampedAtV} V: choose parts rated above it (a local clamp below the central one is not modelled)` };
-  } else if (exceeds) {
+  if (exceeds) {
+    // Centrally suppressed or not, a module clamp below the input's peak takes the generator's current.
     const clampMaxV = Math.min(...stresses.filter((s) => s.exceeds).map((s) => s.allowedV ?? Number.NEGATIVE_INFINITY));
-    clamp = clampFor({ baseV, amplitudeV: pulse.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, ctx.supplyMaxV, clampMaxV, ctx);
+    clamp = clampFor({ baseV, amplitudeV: pulse.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, Math.max(ctx.supplyMaxV, ctx.overvoltageV ?? 0), clampMaxV, ctx);
   }
-  const dc = pulse.clampedAtV === undefined ? designClamp({ baseV, amplitudeV: pulse.amplitudeV }) : undefined;
+  // Above the central suppressor's level the module clamp does not conduct: the input stays at that level.
+  const dc = pulse.clampedAtV !== undefined && own !== undefined && own.clampV >= pulse.clampedAtV ? designClamp({ baseV, amplitudeV: pulse.clampedAtV - baseV }) : designClamp({ baseV, amplitudeV: pulse.amplitudeV });
   return { pulseId: pulse.id, polarity: "positive", peakOpenCircuitV: peak, inputPeakV: inputPeak, tauS, stresses, reachesLoad: true, clamp, ...(dc ? { designClamp: dc } : {}) };
 }
 

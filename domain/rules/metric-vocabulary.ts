@@ -67,6 +67,7 @@ export const METRICS: readonly MetricDef[] = [
   { name: "clampPeakCurrentRatingA", type: "number", unit: "A", meaning: "the input clamp's peak pulse current rating", stageKinds: "all", providedBy: `${REQ} (inputClamp.peakCurrentA)` },
   { name: "clampStandoffV", type: "number", unit: "V", meaning: "the input clamp's stand-off voltage (bidirectional: it must not conduct the steady supply nor the steady reversed supply)", stageKinds: "all", providedBy: `${REQ} (inputClamp.standoffV)` },
   { name: "jumpStartV", type: "number", unit: "V", meaning: "jump-start voltage of the supply class (a steady overvoltage lasting about a minute)", stageKinds: "all", providedBy: `${REQ}; the supply class where it has one` },
+  { name: "supplyOvervoltageV", type: "number", unit: "V", meaning: "highest steady overvoltage of the supply: jump start (about a minute), long-term overvoltage (a failed regulator, about an hour) or the top of the abnormal service range, whichever is highest", stageKinds: "all", providedBy: `${REQ}; the supply class where it has them` },
   { name: "startProfileMinV", type: "number", unit: "V", meaning: "lowest supply of the requirement's start-up (cold-crank) profile", stageKinds: "all", providedBy: `${REQ} (startProfile)` },
   { name: "startProfileDropoutS", type: "number", unit: "s", meaning: "time along the start-up profile during which the load has no operating point (collapse, undervoltage or stage off), at either ambient", stageKinds: "all", providedBy: "review (start-up profile)" },
   { name: "peakReverseCurrentA", type: "number", unit: "A", meaning: "peak current flowing backwards through the stage when the input is shorted or steps lower (magnitude)", stageKinds: "all", providedBy: "turnOff" },
@@ -156,6 +157,7 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
   clampPeakCurrentRatingA: requirement,
   clampStandoffV: requirement,
   jumpStartV: requirement,
+  supplyOvervoltageV: requirement,
   startProfileMinV: requirement,
   startProfileDropoutS: computed,
   peakReverseCurrentA: {

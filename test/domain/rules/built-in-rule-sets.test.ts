@@ -86,6 +86,7 @@ const DEFAULT: Record<string, RuleCases> = {
   // max(16 V, 14 V) = 16 V.
   "clamp-standoff": { pass: p("pn-diode", { clampStandoffV: 26, supplyMaxV: 16, reverseVMaxV: 14 }, {}, 16, 10), violate: v("fail", p("nfet-ideal-diode", { clampStandoffV: 14, supplyMaxV: 16, reverseVMaxV: 14 }, {}, 16, -2)) },
   "clamp-standoff-jump-start": { pass: p("pn-diode", { clampStandoffV: 26, jumpStartV: 24 }, {}, 24, 2), violate: v("fail", p("pfet-high-side", { clampStandoffV: 18, jumpStartV: 24 }, {}, 24, -6)) },
+  "clamp-standoff-overvoltage": { pass: p("nfet-ideal-diode", { clampStandoffV: 64, supplyOvervoltageV: 60 }, {}, 60, 4), violate: v("fail", p("schottky-diode", { clampStandoffV: 58, supplyOvervoltageV: 60 }, {}, 60, -2)) },
   "clamp-energy": {
     pass: p("nfet-ideal-diode", { clampEnergyJ: 3, clampEnergyRatingJ: 5 }, {}, 5, 2),
     violate: v("fail", p("nfet-ideal-diode", { clampEnergyJ: 51, clampEnergyRatingJ: 5 }, {}, 5, -46)),
