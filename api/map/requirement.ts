@@ -1,6 +1,7 @@
 import type { Requirement } from "../../contracts/requirement.js";
 import type { ReviewRequirement } from "../../domain/review/candidate-review.js";
 import type { ReviewTurnOff } from "../../domain/review/review-turn-off.js";
+import { builtInProfile, type ProfilePoint, repeatedProfile, START_PROFILES } from "../../domain/checks/start-profiles.js";
 import { findSupplyClass, SUPPLY_CLASSES, type SupplyClass } from "../../domain/review/supply-classes.js";
 import { findTransient, TRANSIENT_LIBRARY, type TransientPulse } from "../../domain/review/transient-library.js";
 import { unknownIdMessage } from "../../contracts/zod-messages.js";
@@ -110,7 +111,7 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
         clampToStandoffRatio: REVIEW_DEFAULTS.clampToStandoffRatio,
         ...(r.inputClamp ? { inputClamp: r.inputClamp } : {}),
       },
-      ...(r.startProfile ? { startProfile: r.startProfile } : {}),
+      ...(r.startProfile ? { startProfile: startProfileOf(r.startProfile, sources, assumptions) } : {}),
       ...(r.mission ? { mission: r.mission.map((m) => ({ hoursPerYear: m.hoursPerYear, loadScale: m.loadLevel, ambientC: m.ambientC })) } : {}),
       ...(r.energyPricePerKWh === undefined ? {} : { pricePerKWh: r.energyPricePerKWh }),
       ...(r.battery ? { battery: r.battery } : {}),
@@ -118,6 +119,23 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
       ...(r.turnOff ? { turnOff: reviewTurnOffOf(r.turnOff, nominalV, assumptions) } : {}),
     },
   };
+}
+
+/** The start-up profile as points: given, or a built-in one, repeated for several cranks (start-profiles.ts). */
+function startProfileOf(sp: NonNullable<Requirement["startProfile"]>, sources: string[], assumptions: string[]): ProfilePoint[] {
+  if (Array.isArray(sp)) return sp;
+  const cranks = sp.cranks ?? 1;
+  const restS = sp.restS ?? 0;
+  let points: readonly ProfilePoint[] = sp.points ?? [];
+  if (sp.builtIn !== undefined) {
+    const b = builtInProfile(sp.builtIn);
+    if (b === undefined) throw inputProblem("invalid-input", ["requirement", "startProfile", "builtIn"], unknownIdMessage("built-in start profile", sp.builtIn, START_PROFILES.map((p) => p.id)));
+    points = b.points;
+    sources.push(`${b.def.id}: ${b.def.source}`);
+  }
+  if (sp.cranks === undefined) assumptions.push("requirement.startProfile.cranks: 1 (default)");
+  else if (sp.restS === undefined && cranks > 1) assumptions.push("requirement.startProfile.restS: 0 s between cranks (default: the next crank starts at once)");
+  return repeatedProfile(points, cranks, restS);
 }
 
 /** A steady overvoltage level: the caller's, else the class's where it lies above the (possibly overridden) highest supply. */

@@ -63,7 +63,7 @@ export interface ReviewCandidate {
 export interface CandidateReview {
   readonly corners: readonly CornerResult[];
   readonly worst: WorstCase;
-  readonly startUp: { readonly atMinSupply: DriveAtInput; readonly profiles: readonly { readonly ambientC: number; readonly result: ProfileResult }[] };
+  readonly startUp: { readonly atMinSupply: DriveAtInput; readonly atProfileMin?: DriveAtInput; readonly profiles: readonly { readonly ambientC: number; readonly result: ProfileResult }[] };
   readonly reverse: ReverseSteadyResult;
   readonly transients: readonly SweptTransientResult[];
   readonly thermalSizing: ThermalSizing;
@@ -141,7 +141,8 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
   return {
     corners,
     worst,
-    startUp: { atMinSupply, profiles },
+    // The start check at the profile's lowest point (the crank's dip), where the start margin is least.
+    startUp: req.startProfile && req.startProfile.length > 0 ? { atMinSupply, atProfileMin: driveAtInput(cand.stage, Math.min(...req.startProfile.map((p) => p.voltageV))), profiles } : { atMinSupply, profiles },
     reverse,
     transients,
     thermalSizing: sizing,
