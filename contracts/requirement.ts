@@ -79,8 +79,12 @@ export const requirement = z
       .strictObject({
         standoffV: volts("clamp working (standoff) voltage"),
         clampV: volts("clamping voltage at its peak current"),
+        breakdownV: volts("breakdown voltage VBR (with peakCurrentA: the dynamic resistance (clampV - VBR)/Ipp; absent: a constant clampV)").optional(),
         peakCurrentA: quantity("A", "rated peak pulse current", { gt: 0, le: 1e5 }).optional(),
         energyJ: quantity("J", "rated pulse energy", { gt: 0, le: 1e6 }).optional(),
+        peakPulsePowerW: quantity("W", "rated peak pulse power at the reference pulse", { gt: 0, le: 1e8 }).optional(),
+        referencePulseS: quantity("s", "width (to half value) of the pulse the power is rated at (default 1 ms: a 10/1000 us pulse)", { gt: 0, le: 10 }).optional(),
+        tjMaxC: temperatureC("the clamp's maximum junction temperature, where its power derates to zero (default 150 degC)").optional(),
       })
       .optional()
       .meta({ description: "a clamp (TVS) at the input, if the design has one" }),
@@ -138,7 +142,10 @@ export const requirement = z
     }
     const t = r.turnOff;
     if (t?.outputV !== undefined && t.inputAfterV !== undefined && !(t.inputAfterV < t.outputV)) ctx.addIssue({ code: "custom", path: ["turnOff", "inputAfterV"], message: "must be below turnOff.outputV: the input falls at t = 0" });
-    if (r.inputClamp && r.inputClamp.clampV <= r.inputClamp.standoffV) ctx.addIssue({ code: "custom", path: ["inputClamp", "clampV"], message: "must be above standoffV" });
+    const c = r.inputClamp;
+    if (c && c.clampV <= c.standoffV) ctx.addIssue({ code: "custom", path: ["inputClamp", "clampV"], message: "must be above standoffV" });
+    if (c?.breakdownV !== undefined && !(c.breakdownV >= c.standoffV && c.breakdownV < c.clampV)) ctx.addIssue({ code: "custom", path: ["inputClamp", "breakdownV"], message: "must lie between standoffV and clampV" });
+    if (c?.tjMaxC !== undefined && !(c.tjMaxC > 25)) ctx.addIssue({ code: "custom", path: ["inputClamp", "tjMaxC"], message: "must be above 25 degC (the power rating's reference)" });
   });
 export type RequirementInput = z.input<typeof requirement>;
 export type Requirement = z.output<typeof requirement>;

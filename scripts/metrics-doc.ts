@@ -67,6 +67,7 @@ const RULE_HAZARDS: Readonly<Record<string, string>> = {
   "clamp-standoff-overvoltage": "input clamp",
   "clamp-energy": "input clamp",
   "clamp-peak-current": "input clamp",
+  "clamp-peak-power": "input clamp",
   "start-at-min-supply": "start-up",
   "start-margin": "start-up",
   "start-at-profile-minimum": "start-up",

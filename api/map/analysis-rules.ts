@@ -66,6 +66,8 @@ export const ANALYSIS_ONLY_METRICS: Readonly<Record<string, readonly string[]>> 
     "controllerReverseVMaxV",
     "clampEnergyJ",
     "clampPeakCurrentA",
+    "clampPeakPowerW",
+    "clampPeakPowerAllowedW",
     "clampStandoffV",
     "clampEnergyRatingJ",
     "clampPeakCurrentRatingA",

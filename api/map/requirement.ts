@@ -1,6 +1,9 @@
 import type { Requirement } from "../../contracts/requirement.js";
 import type { ReviewRequirement } from "../../domain/review/candidate-review.js";
 import type { ReviewTurnOff } from "../../domain/review/review-turn-off.js";
+import type { ParallelLoad } from "../../domain/checks/clamp-energy.js";
+import type { ClampPowerRating } from "../../domain/checks/clamp-rating.js";
+import type { InputClamp } from "../../domain/checks/transient-stress.js";
 import { builtInProfile, type ProfilePoint, repeatedProfile, START_PROFILES } from "../../domain/checks/start-profiles.js";
 import { findSupplyClass, SUPPLY_CLASSES, type SupplyClass } from "../../domain/review/supply-classes.js";
 import { findTransient, TRANSIENT_LIBRARY, type TransientPulse } from "../../domain/review/transient-library.js";
@@ -109,7 +112,8 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
         outputHeldV: r.outputHeldV ?? nominalV,
         deratingFactor,
         clampToStandoffRatio: REVIEW_DEFAULTS.clampToStandoffRatio,
-        ...(r.inputClamp ? { inputClamp: r.inputClamp } : {}),
+        ...(r.inputClamp ? { inputClamp: inputClampOf(r.inputClamp, assumptions), clampTjC: r.ambient.maxC } : {}),
+        ...(r.inputClamp ? { parallelLoad: parallelLoadOf(r.load, r.inputClamp.clampV) } : {}),
       },
       ...(r.startProfile ? { startProfile: startProfileOf(r.startProfile, sources, assumptions) } : {}),
       ...(r.mission ? { mission: r.mission.map((m) => ({ hoursPerYear: m.hoursPerYear, loadScale: m.loadLevel, ambientC: m.ambientC })) } : {}),
@@ -136,6 +140,32 @@ function startProfileOf(sp: NonNullable<Requirement["startProfile"]>, sources: s
   if (sp.cranks === undefined) assumptions.push("requirement.startProfile.cranks: 1 (default)");
   else if (sp.restS === undefined && cranks > 1) assumptions.push("requirement.startProfile.restS: 0 s between cranks (default: the next crank starts at once)");
   return repeatedProfile(points, cranks, restS);
+}
+
+/** The input clamp: its law and power rating, defaults recorded (clamp-rating.ts). */
+function inputClampOf(c: NonNullable<Requirement["inputClamp"]>, assumptions: string[]): InputClamp {
+  if (c.breakdownV === undefined) assumptions.push("inputClamp: no breakdownV, so a constant clamping voltage clampV (no dynamic resistance)");
+  else if (c.peakCurrentA === undefined) assumptions.push("inputClamp: breakdownV without peakCurrentA gives no dynamic resistance: a constant clampV is used");
+  let power: ClampPowerRating | undefined;
+  if (c.peakPulsePowerW !== undefined) {
+    if (c.referencePulseS === undefined) assumptions.push("inputClamp.referencePulseS: 1 ms (default: a 10/1000 us rating pulse, 1000 us to half value)");
+    if (c.tjMaxC === undefined) assumptions.push("inputClamp.tjMaxC: 150 degC (default, common practice)");
+    power = { peakPulsePowerW: c.peakPulsePowerW, referencePulseS: c.referencePulseS ?? 1e-3, tjMaxC: c.tjMaxC ?? 150 };
+    assumptions.push("inputClamp power: Ppp scaled by sqrt(reference width / the pulse's current half-width) (Wunsch-Bell) and derated linearly to 0 at tjMaxC from the highest ambient (common practice)");
+  }
+  return { standoffV: c.standoffV, clampV: c.clampV, breakdownV: c.breakdownV, peakCurrentA: c.peakCurrentA, energyJ: c.energyJ, ...(power ? { power } : {}) };
+}
+
+/** The module's load in parallel with the clamp: a constant-power load as the least current it draws, at the clamping voltage (the clamp's share the larger). */
+function parallelLoadOf(load: Requirement["load"], clampV: number): ParallelLoad {
+  switch (load.kind) {
+    case "resistive":
+      return { kind: "resistive", resistanceOhm: load.resistanceOhm };
+    case "constant-current":
+      return { kind: "constant-current", currentA: load.currentA };
+    case "constant-power":
+      return { kind: "constant-current", currentA: load.powerW / clampV };
+  }
 }
 
 /** A steady overvoltage level: the caller's, else the class's where it lies above the (possibly overridden) highest supply. */

@@ -24,6 +24,8 @@ export const REVIEW_COMPUTES = [
   "controllerReverseVMaxV",
   "clampEnergyJ",
   "clampPeakCurrentA",
+  "clampPeakPowerW",
+  "clampPeakPowerAllowedW",
   "startProfileDropoutS",
   "peakReverseCurrentA",
   "absorbedEnergyJ",

@@ -1,6 +1,7 @@
 import type { TransientPulse } from "../review/transient-library.js";
 import type { StageModel } from "../stages/stage-model.js";
-import { type ClampResult, clampExponential, tauFromDecay } from "./clamp-energy.js";
+import { type ClampResult, clampExponential, clampPulse, type ParallelLoad, tauFromDecay } from "./clamp-energy.js";
+import { allowedPeakPowerW, type ClampPowerRating } from "./clamp-rating.js";
 import { reverseStress } from "./reverse-steady.js";
 import { blocksReverseCurrent, forwardLimits } from "./stage-ratings.js";
 
@@ -24,6 +25,10 @@ export interface TransientContext {
   readonly clampToStandoffRatio: number;
   /** A clamp the design already has at its input (bidirectional: it limits either polarity). */
   readonly inputClamp?: InputClamp;
+  /** The module's load in parallel with the clamp while a pulse passes the stage (absent: none). */
+  readonly parallelLoad?: ParallelLoad;
+  /** Junction temperature the clamp starts a pulse at (the highest ambient), °C: its power derating. */
+  readonly clampTjC?: number;
   /**
    * Allowances read from a rule set, V, in place of rating × deratingFactor: for the element that
    * blocks a negative pulse, for a controller's or switch's input, and for a gate-source.
@@ -45,9 +50,20 @@ function allowanceKey(element: string, polarity: "negative" | "positive"): keyof
 
 export interface InputClamp {
   readonly standoffV: number;
+  /** Clamping voltage at the rated peak current (constant where no breakdown voltage is given), V. */
   readonly clampV: number;
+  /** Breakdown voltage VBR; with the rated peak current it gives the dynamic resistance (clampV − VBR)/Ipp. */
+  readonly breakdownV?: number | undefined;
   readonly peakCurrentA?: number | undefined;
   readonly energyJ?: number | undefined;
+  /** Peak pulse power at its reference pulse, with its Tj(max) (clamp-rating.ts). */
+  readonly power?: ClampPowerRating | undefined;
+}
+
+/** The clamp's law: breakdown and dynamic resistance where both are known, else the constant clamping voltage. */
+export function clampLawOf(c: InputClamp): { breakdownV: number; dynamicOhm: number } {
+  if (c.breakdownV === undefined || c.peakCurrentA === undefined) return { breakdownV: c.clampV, dynamicOhm: 0 };
+  return { breakdownV: c.breakdownV, dynamicOhm: (c.clampV - c.breakdownV) / c.peakCurrentA };
 }
 
 /** What the design's own clamp does in a pulse, against its ratings. */
@@ -55,6 +71,9 @@ export interface ClampDuty {
   readonly duty: ClampResult;
   readonly withinPeakCurrent: boolean | undefined;
   readonly withinEnergy: boolean | undefined;
+  /** Peak pulse power allowed at this pulse's width and the clamp's starting Tj, W (absent: no power rating). */
+  readonly allowedPeakPowerW?: number;
+  readonly withinPeakPower: boolean | undefined;
   /** Its standoff must clear the steady supply and steady reverse voltage, or it conducts them. */
   readonly standoffClearsSteady: boolean;
 }
@@ -118,9 +137,10 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
   };
 
   const own = ctx.inputClamp;
-  const designClamp = (p: { baseV: number; amplitudeV: number }): ClampDuty | undefined => {
+  const designClamp = (p: { baseV: number; amplitudeV: number }, load?: ParallelLoad): ClampDuty | undefined => {
     if (own === undefined) return undefined;
-    const duty = clampExponential({ baseV: p.baseV, amplitudeV: p.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, own.clampV);
+    const duty = clampPulse({ baseV: p.baseV, amplitudeV: p.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm, riseS: pulse.riseS }, clampLawOf(own), load);
+    const allowedW = own.power !== undefined && duty.conducts === true ? allowedPeakPowerW(own.power, duty.currentHalfWidthS, ctx.clampTjC ?? 25) : undefined;
     // A clamp that conducts the supply the pulse rides on ("always") is within no rating.
     const within = (rating: number | undefined, duty_: (d: Extract<ClampResult, { conducts: true }>) => number) =>
       rating === undefined ? undefined : duty.conducts === false ? true : duty.conducts === true ? duty_(duty) <= rating : false;
@@ -128,16 +148,26 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
       duty,
       withinPeakCurrent: within(own.peakCurrentA, (d) => d.peakCurrentA),
       withinEnergy: within(own.energyJ, (d) => d.energyJ),
+      ...(allowedW === undefined ? {} : { allowedPeakPowerW: allowedW }),
+      withinPeakPower: own.power === undefined ? undefined : within(allowedW ?? own.power.peakPulsePowerW, (d) => d.peakPowerW),
       standoffClearsSteady: own.standoffV >= Math.max(ctx.supplyMaxV, ctx.reverseV, ctx.overvoltageV ?? 0),
     };
   };
   // A module clamp below a central suppressor takes the generator's whole current: the central one
   // stops conducting once the line is below its level (ISO 16750-2 test B on the bench).
-  const limitByClamp = (v: number) => (own === undefined ? v : Math.min(v, own.clampV));
+  // The input peak is the clamp's voltage at its peak current (above clampV when the pulse drives more than the rated current).
+  const limitByClamp = (v: number, dc: ClampDuty | undefined) => {
+    if (own === undefined) return v;
+    const d = dc?.duty;
+    return d?.conducts === true ? Math.min(v, d.peakClampV) : Math.min(v, own.clampV);
+  };
 
   if (peak < 0) {
-    const magnitude = limitByClamp(-peak);
     const blocks = blocksReverseCurrent(stage);
+    const mirrored = { baseV: -baseV, amplitudeV: -pulse.amplitudeV };
+    // The load shares the pulse only where the stage lets it through.
+    const dc = designClamp(mirrored, blocks ? undefined : ctx.parallelLoad);
+    const magnitude = limitByClamp(-peak, dc);
     const { stress: rs } = reverseStress(stage, magnitude);
     const held = blocks ? ctx.outputHeldV : 0;
     const stresses = [stress(rs.blockingElement, magnitude + held, rs.ratingV)];
@@ -145,8 +175,6 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
     // Budget at the input: each element's allowance less what the held output adds to it.
     const budgets = stresses.map((s, i) => (s.allowedV === undefined ? Number.NEGATIVE_INFINITY : s.allowedV - (i === 0 ? held : 0)));
     const clampMaxV = Math.min(...budgets);
-    const mirrored = { baseV: -baseV, amplitudeV: -pulse.amplitudeV };
-    const dc = designClamp(mirrored);
     return {
       pulseId: pulse.id,
       polarity: "negative",
@@ -160,7 +188,10 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
     };
   }
 
-  const inputPeak = limitByClamp(peak);
+  // Above the central suppressor's level the module clamp does not conduct: the input stays at that level.
+  const held = pulse.clampedAtV !== undefined && own !== undefined && clampLawOf(own).breakdownV >= pulse.clampedAtV;
+  const dc = designClamp({ baseV, amplitudeV: held && pulse.clampedAtV !== undefined ? pulse.clampedAtV - baseV : pulse.amplitudeV }, ctx.parallelLoad);
+  const inputPeak = limitByClamp(peak, dc);
   const stresses = forwardLimits(stage).map((l) => stress(l.element, l.seenV(inputPeak), l.ratingV));
   const exceeds = stresses.some((s) => s.exceeds);
   let clamp: TransientResult["clamp"] = { needed: false };
@@ -169,8 +200,6 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
     const clampMaxV = Math.min(...stresses.filter((s) => s.exceeds).map((s) => s.allowedV ?? Number.NEGATIVE_INFINITY));
     clamp = clampFor({ baseV, amplitudeV: pulse.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, Math.max(ctx.supplyMaxV, ctx.overvoltageV ?? 0), clampMaxV, ctx);
   }
-  // Above the central suppressor's level the module clamp does not conduct: the input stays at that level.
-  const dc = pulse.clampedAtV !== undefined && own !== undefined && own.clampV >= pulse.clampedAtV ? designClamp({ baseV, amplitudeV: pulse.clampedAtV - baseV }) : designClamp({ baseV, amplitudeV: pulse.amplitudeV });
   return { pulseId: pulse.id, polarity: "positive", peakOpenCircuitV: peak, inputPeakV: inputPeak, tauS, stresses, reachesLoad: true, clamp, ...(dc ? { designClamp: dc } : {}) };
 }
 

@@ -97,6 +97,11 @@ const DEFAULT: Record<string, RuleCases> = {
     violate: v("fail", p("nfet-ideal-diode", { clampPeakCurrentA: 43, clampPeakCurrentRatingA: 30 }, {}, 30, -13)),
     off: p("pn-diode", { clampPeakCurrentA: 0, clampPeakCurrentRatingA: 30 }, {}),
   },
+  "clamp-peak-power": {
+    pass: p("schottky-diode", { clampPeakPowerW: 2500, clampPeakPowerAllowedW: 3000 }, {}, 3000, 500),
+    violate: v("fail", p("nfet-ideal-diode", { clampPeakPowerW: 3400, clampPeakPowerAllowedW: 3000 }, {}, 3000, -400)),
+    off: p("pn-diode", { clampPeakPowerW: 0, clampPeakPowerAllowedW: 3000 }, {}),
+  },
   "avalanche-current": {
     pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 30 }, { avalancheCurrentA: 40 }, 40, 10),
     violate: v("fail", p("pfet-high-side", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 50 }, { avalancheCurrentA: 40 }, 40, -10)),
@@ -157,6 +162,12 @@ const VEHICLE: Record<string, RuleCases> = {
     pass: p("nfet-ideal-diode", { clampPeakCurrentA: 20, clampPeakCurrentRatingA: 30 }, {}, 24, 4),
     violate: v("fail", p("nfet-ideal-diode", { clampPeakCurrentA: 25, clampPeakCurrentRatingA: 30 }, {}, 24, -1)),
     off: p("pn-diode", { clampPeakCurrentA: 0, clampPeakCurrentRatingA: 30 }, {}),
+  },
+  // 0.8 · 3000 W = 2400 W.
+  "clamp-peak-power": {
+    pass: p("schottky-diode", { clampPeakPowerW: 2000, clampPeakPowerAllowedW: 3000 }, {}, 2400, 400),
+    violate: v("fail", p("nfet-ideal-diode", { clampPeakPowerW: 2500, clampPeakPowerAllowedW: 3000 }, {}, 2400, -100)),
+    off: p("pn-diode", { clampPeakPowerW: 0, clampPeakPowerAllowedW: 3000 }, {}),
   },
   "avalanche-current": {
     pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 30 }, { avalancheCurrentA: 40 }, 36, 6),
