@@ -275,6 +275,18 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     twin: review({ ...req12, supply: { class: "vehicle-12v-b", jumpStartV: 16, longTermOvervoltageV: 16 }, inputClamp: clamp({ standoffV: 17, clampV: 24 }) }, idealDiode()),
   },
   {
+    id: "clamp-over-its-peak-pulse-power",
+    hazard: "clamp",
+    // Closed forms (clamp-energy.ts, clamp-rating.ts): pulse 2a through 2 ohm with the 3 A load, VBR 28 V,
+    // Rd 0.2 ohm: about 41 A at 36 V, about 1.5 kW, 11 us to half current; a 250 W (1 ms) rating allows
+    // 250 * sqrt(1 ms / 11 us) * (150 - 85)/125 = about 1.2 kW at the 85 degC ambient, a 600 W one about 2.9 kW.
+    why: "a clamp rated 250 W at 10/1000 us takes about 1.5 kW from pulse 2a, above the 1.2 kW its rating allows at that width and 85 degC",
+    procedure: "review",
+    rule: "clamp-peak-power",
+    bad: review({ ...req12, transients: ["iso7637-2-pulse-2a"], inputClamp: clamp({ breakdownV: 28, peakCurrentA: 60, peakPulsePowerW: 250, tjMaxC: 150 }) }, idealDiode()),
+    twin: review({ ...req12, transients: ["iso7637-2-pulse-2a"], inputClamp: clamp({ breakdownV: 28, peakCurrentA: 60, peakPulsePowerW: 600, tjMaxC: 150 }) }, idealDiode()),
+  },
+  {
     id: "clamp-standoff-below-telecom-abnormal",
     hazard: "clamp",
     why: "a 58 V stand-off clamp on a -48 V feed clears the 57 V normal range but conducts in the abnormal range up to 60 V (ETSI EN 300 132-2, memory)",
