@@ -118,7 +118,11 @@ export interface TransientResult {
  * derating) is exceeded, the input clamp it needs: working window, peak current (|Us| − Vc)/Ri,
  * energy and conduction time (clamp-energy.ts). Negative pulses stress the blocking element with
  * |Us| + the held output voltage; positive pulses stress the input-side ratings (controller
- * input, switch input, gate-source). A centrally suppressed pulse is held at its level.
+ * input, switch input, gate-source). A centrally suppressed pulse is held at its level unless
+ * the design's clamp breaks down below it, which then takes the generator's whole current. The
+ * design's clamp follows its breakdown and dynamic resistance, the pulse's rise and, in a positive
+ * pulse, the module's load in parallel (clamp-energy.ts); its peak power is read against its
+ * rating at the pulse's width and its starting Tj (clamp-rating.ts).
  */
 export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: TransientContext): TransientResult {
   const baseV = pulse.baseV === "supply" ? ctx.supplyNominalV : pulse.baseV;
@@ -165,8 +169,8 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
   if (peak < 0) {
     const blocks = blocksReverseCurrent(stage);
     const mirrored = { baseV: -baseV, amplitudeV: -pulse.amplitudeV };
-    // The load shares the pulse only where the stage lets it through.
-    const dc = designClamp(mirrored, blocks ? undefined : ctx.parallelLoad);
+    // A reversed load is not counted on to draw its current: the clamp takes the whole (conservative).
+    const dc = designClamp(mirrored);
     const magnitude = limitByClamp(-peak, dc);
     const { stress: rs } = reverseStress(stage, magnitude);
     const held = blocks ? ctx.outputHeldV : 0;
