@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { profilePointCount, START_PROFILE_IDS, START_PROFILE_POINTS } from "../domain/checks/start-profiles.js";
 import { load } from "./load.js";
 import { quantity, ratio, temperatureC } from "./quantity.js";
 import { holdUpCapacitor, reverseLoop, turnOffTiming } from "./turn-off.js";
@@ -12,6 +13,8 @@ export const supplySpec = z
     nominalV: volts("nominal supply (overrides the class)").optional(),
     maxV: volts("highest steady supply (overrides the class)").optional(),
     jumpStartV: volts("jump-start overvoltage, lasting about a minute (overrides the class's; a custom supply has none unless given)").optional(),
+    longTermOvervoltageV: volts("long-term overvoltage, a failed generator regulator for about an hour (overrides the class's; a custom supply has none unless given)").optional(),
+    abnormalMaxV: volts("top of the abnormal service range the equipment must survive (overrides the class's; a custom supply has none unless given)").optional(),
   })
   .meta({ description: "the supply: a built-in class, with any value overridden, or 'custom' with all three given" });
 
@@ -23,7 +26,7 @@ export const customPulse = z.strictObject({
   sourceResistanceOhm: quantity("ohm", "internal resistance Ri of the pulse source", { gt: 0, le: 1e6 }),
   riseS: quantity("s", "rise time (not used by the energy integral)", { ge: 0, le: 10 }).optional(),
   decayS: quantity("s", "decay time td", { gt: 0, le: 100 }),
-  decayConvention: z.enum(["to-10-percent", "time-constant"]).optional().meta({ description: "td to 10 % of the peak (τ = td/ln 10, default) or τ itself" }),
+  decayConvention: z.enum(["to-10-percent", "to-50-percent", "time-constant"]).optional().meta({ description: "td to 10 % of the peak (τ = td/ln 10, default), to half value (τ = td/ln 2) or τ itself" }),
   clampedAtV: volts("a centrally suppressed pulse: the input is held at this level").optional(),
 });
 
@@ -40,6 +43,19 @@ export const reviewTurnOff = z
     clampV: quantity("V", "voltage the blocking element clamps the inductive energy at (default: its rated voltage)", { gt: 0, le: 10_000 }).optional(),
   })
   .meta({ description: "the input shorted or stepping lower: each candidate's reverse-current peak, turn-off and absorbed energy (the turnOff analysis), for the avalanche and reverse-current rules" });
+
+const profilePoints = z
+  .array(z.strictObject({ timeS: quantity("s", "time", { ge: 0, le: 1e5 }), voltageV: quantity("V", "supply", { ge: 0, le: 10_000 }) }))
+  .min(2)
+  .max(1000);
+
+/** Points of the requirement's start-up profile after repetition (for the work bound). */
+export function startProfilePointCount(sp: Requirement["startProfile"]): number {
+  if (sp === undefined) return 0;
+  if (Array.isArray(sp)) return sp.length;
+  const perCrank = sp.points?.length ?? (sp.builtIn === undefined ? 0 : START_PROFILE_POINTS);
+  return profilePointCount(perCrank, sp.cranks ?? 1, sp.restS ?? 0);
+}
 
 export const requirement = z
   .strictObject({
@@ -63,19 +79,31 @@ export const requirement = z
       .strictObject({
         standoffV: volts("clamp working (standoff) voltage"),
         clampV: volts("clamping voltage at its peak current"),
+        breakdownV: volts("breakdown voltage VBR (with peakCurrentA: the dynamic resistance (clampV - VBR)/Ipp; absent: a constant clampV)").optional(),
         peakCurrentA: quantity("A", "rated peak pulse current", { gt: 0, le: 1e5 }).optional(),
         energyJ: quantity("J", "rated pulse energy", { gt: 0, le: 1e6 }).optional(),
+        peakPulsePowerW: quantity("W", "rated peak pulse power at the reference pulse", { gt: 0, le: 1e8 }).optional(),
+        referencePulseS: quantity("s", "width (to half value) of the pulse the power is rated at (default 1 ms: a 10/1000 us pulse)", { gt: 0, le: 10 }).optional(),
+        tjMaxC: temperatureC("the clamp's maximum junction temperature, where its power derates to zero (default 150 degC)").optional(),
       })
       .optional()
       .meta({ description: "a clamp (TVS) at the input, if the design has one" }),
     outputHeldV: quantity("V", "voltage the hold-up capacitor keeps at the output during a negative pulse (default: nominal supply)", { ge: 0, le: 10_000 }).optional(),
     deratingFactor: ratio("share of a voltage rating the clamp sizing may use (default 0.8, common practice)", { gt: 0, le: 1 }).optional(),
     startProfile: z
-      .array(z.strictObject({ timeS: quantity("s", "time", { ge: 0, le: 1e5 }), voltageV: quantity("V", "supply", { ge: 0, le: 10_000 }) }))
-      .min(2)
-      .max(1000)
+      .union([
+        profilePoints,
+        z
+          .strictObject({
+            builtIn: z.enum(START_PROFILE_IDS).optional().meta({ description: "a built-in ISO 16750-2 clause 4.6.3 starting profile (values memory unless docs/references.md says otherwise)" }),
+            points: profilePoints.optional(),
+            cranks: z.number().int().min(1).max(10).optional().meta({ description: "how many cranks in a row (default 1)" }),
+            restS: quantity("s", "time at the battery voltage between two cranks (default 0: at once)", { ge: 0, le: 600 }).optional(),
+          })
+          .meta({ description: "a built-in starting profile or points of one crank, repeated" }),
+      ])
       .optional()
-      .meta({ description: "a start-up (cold-crank) profile: supply against time, time increasing" }),
+      .meta({ description: "a start-up (cold-crank) profile: supply against time, time increasing; or a built-in profile or points, repeated for several cranks" }),
     mission: z
       .array(
         z.strictObject({
@@ -102,13 +130,22 @@ export const requirement = z
     if (s.class === "custom" && (s.minV === undefined || s.nominalV === undefined || s.maxV === undefined)) {
       ctx.addIssue({ code: "custom", path: ["supply"], message: "a custom supply needs minV, nominalV and maxV" });
     }
-    r.startProfile?.forEach((p, i) => {
-      const prev = r.startProfile?.[i - 1];
-      if (prev && !(p.timeS > prev.timeS)) ctx.addIssue({ code: "custom", path: ["startProfile", i, "timeS"], message: "times must increase" });
+    const sp = r.startProfile;
+    const points = Array.isArray(sp) ? sp : sp?.points;
+    const at = Array.isArray(sp) ? ["startProfile"] : ["startProfile", "points"];
+    points?.forEach((p, i) => {
+      const prev = points[i - 1];
+      if (prev && !(p.timeS > prev.timeS)) ctx.addIssue({ code: "custom", path: [...at, i, "timeS"], message: "times must increase" });
     });
+    if (sp !== undefined && !Array.isArray(sp) && (sp.builtIn === undefined) === (sp.points === undefined)) {
+      ctx.addIssue({ code: "custom", path: ["startProfile"], message: "give either builtIn (a built-in profile id) or points, not both" });
+    }
     const t = r.turnOff;
     if (t?.outputV !== undefined && t.inputAfterV !== undefined && !(t.inputAfterV < t.outputV)) ctx.addIssue({ code: "custom", path: ["turnOff", "inputAfterV"], message: "must be below turnOff.outputV: the input falls at t = 0" });
-    if (r.inputClamp && r.inputClamp.clampV <= r.inputClamp.standoffV) ctx.addIssue({ code: "custom", path: ["inputClamp", "clampV"], message: "must be above standoffV" });
+    const c = r.inputClamp;
+    if (c && c.clampV <= c.standoffV) ctx.addIssue({ code: "custom", path: ["inputClamp", "clampV"], message: "must be above standoffV" });
+    if (c?.breakdownV !== undefined && !(c.breakdownV >= c.standoffV && c.breakdownV < c.clampV)) ctx.addIssue({ code: "custom", path: ["inputClamp", "breakdownV"], message: "must lie between standoffV and clampV" });
+    if (c?.tjMaxC !== undefined && !(c.tjMaxC > 25)) ctx.addIssue({ code: "custom", path: ["inputClamp", "tjMaxC"], message: "must be above 25 degC (the power rating's reference)" });
   });
 export type RequirementInput = z.input<typeof requirement>;
 export type Requirement = z.output<typeof requirement>;

@@ -4,7 +4,7 @@ import { LIMITS, limitMessage } from "./limits.js";
 import { provenance } from "./outcome.js";
 import { ruleSetResultSchema } from "./rule-set.js";
 import { quantity, temperatureC } from "./quantity.js";
-import { requirement } from "./requirement.js";
+import { requirement, startProfilePointCount } from "./requirement.js";
 import { stageInput } from "./stage.js";
 import { thermalPath } from "./thermal.js";
 import { zthCurveFields } from "./fit.js";
@@ -116,7 +116,7 @@ export const reviewInput = z
     curves: z.boolean().optional().meta({ description: "also return load and ambient sweeps through the worst corner, for charts (default false; reports ask for them)" }),
   })
   .superRefine((r, ctx) => {
-    const work = (r.requirement.startProfile?.length ?? 0) * r.candidates.length;
+    const work = startProfilePointCount(r.requirement.startProfile) * r.candidates.length;
     if (work > LIMITS.maxProfileWork) {
       ctx.addIssue({ code: "custom", path: ["requirement", "startProfile"], message: limitMessage("maxProfileWork", `start-up profile points times candidates is ${work}`) });
     }
@@ -162,10 +162,12 @@ export const reviewCurves = z
   })
   .meta({ description: "drop, loss and Tj against load level and ambient, through the worst-Tj corner (same solve as the corners), for plots" });
 
+const driveAt = z.object({ inputV: z.number(), startMarginV: z.number().optional(), gateSourceV: z.number().optional(), gateDriveMarginV: z.number().optional() });
 const profileSample = z.object({ timeS: z.number(), supplyV: z.number(), mode: z.string(), loadV: z.number(), lossW: z.number(), tjC: z.number() });
 export const reviewStartUp = z
   .object({
-    atMinSupply: z.object({ inputV: z.number(), startMarginV: z.number().optional(), gateSourceV: z.number().optional(), gateDriveMarginV: z.number().optional() }),
+    atMinSupply: driveAt,
+    atProfileMin: driveAt.optional().meta({ description: "the same at the start-up profile's lowest point (with a profile)" }),
     profiles: z.array(
       z.object({
         ambientC: z.number(),

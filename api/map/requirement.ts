@@ -1,6 +1,10 @@
 import type { Requirement } from "../../contracts/requirement.js";
 import type { ReviewRequirement } from "../../domain/review/candidate-review.js";
 import type { ReviewTurnOff } from "../../domain/review/review-turn-off.js";
+import type { ParallelLoad } from "../../domain/checks/clamp-energy.js";
+import type { ClampPowerRating } from "../../domain/checks/clamp-rating.js";
+import type { InputClamp } from "../../domain/checks/transient-stress.js";
+import { builtInProfile, type ProfilePoint, repeatedProfile, START_PROFILES } from "../../domain/checks/start-profiles.js";
 import { findSupplyClass, SUPPLY_CLASSES, type SupplyClass } from "../../domain/review/supply-classes.js";
 import { findTransient, TRANSIENT_LIBRARY, type TransientPulse } from "../../domain/review/transient-library.js";
 import { unknownIdMessage } from "../../contracts/zod-messages.js";
@@ -37,6 +41,8 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
   // The class's jump start only where it lies above the (possibly overridden) highest supply.
   const jumpStartV = r.supply.jumpStartV ?? (cls?.jumpStartV !== undefined && cls.jumpStartV >= maxV ? cls.jumpStartV : undefined);
   if (jumpStartV !== undefined && !(jumpStartV >= maxV)) throw inputProblem("invalid-input", ["requirement", "supply", "jumpStartV"], `the jump-start voltage must be at least the highest steady supply (${maxV} V); got ${jumpStartV} V`);
+  const longTermOvervoltageV = overvoltageOf(r.supply.longTermOvervoltageV, cls?.longTermOvervoltageV, maxV, "longTermOvervoltageV", "long-term overvoltage");
+  const abnormalMaxV = overvoltageOf(r.supply.abnormalMaxV, cls?.abnormalMaxV, maxV, "abnormalMaxV", "abnormal service limit");
   const sources: string[] = [];
   if (cls) sources.push(`${cls.id}: ${cls.source}`);
   const reverseV = r.reverse?.voltageV ?? cls?.reverseV ?? maxV;
@@ -91,6 +97,8 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
       supplyNominalV: nominalV,
       supplyMaxV: maxV,
       ...(jumpStartV === undefined ? {} : { jumpStartV }),
+      ...(longTermOvervoltageV === undefined ? {} : { longTermOvervoltageV }),
+      ...(abnormalMaxV === undefined ? {} : { abnormalMaxV }),
       ambientMinC: r.ambient.minC,
       ambientMaxC: r.ambient.maxC,
       sourceResistanceOhm: r.sourceResistanceOhm ?? 0,
@@ -105,9 +113,10 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
         outputHeldV: r.outputHeldV ?? nominalV,
         deratingFactor,
         clampToStandoffRatio: REVIEW_DEFAULTS.clampToStandoffRatio,
-        ...(r.inputClamp ? { inputClamp: r.inputClamp } : {}),
+        ...(r.inputClamp ? { inputClamp: inputClampOf(r.inputClamp, assumptions), clampTjC: r.ambient.maxC } : {}),
+        ...(r.inputClamp ? { parallelLoad: parallelLoadOf(r.load, r.inputClamp.clampV) } : {}),
       },
-      ...(r.startProfile ? { startProfile: r.startProfile } : {}),
+      ...(r.startProfile ? { startProfile: startProfileOf(r.startProfile, sources, assumptions) } : {}),
       ...(r.mission ? { mission: r.mission.map((m) => ({ hoursPerYear: m.hoursPerYear, loadScale: m.loadLevel, ambientC: m.ambientC })) } : {}),
       ...(r.energyPricePerKWh === undefined ? {} : { pricePerKWh: r.energyPricePerKWh }),
       ...(r.battery ? { battery: r.battery } : {}),
@@ -115,6 +124,55 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
       ...(r.turnOff ? { turnOff: reviewTurnOffOf(r.turnOff, nominalV, assumptions) } : {}),
     },
   };
+}
+
+/** The start-up profile as points: given, or a built-in one, repeated for several cranks (start-profiles.ts). */
+function startProfileOf(sp: NonNullable<Requirement["startProfile"]>, sources: string[], assumptions: string[]): ProfilePoint[] {
+  if (Array.isArray(sp)) return sp;
+  const cranks = sp.cranks ?? 1;
+  const restS = sp.restS ?? 0;
+  let points: readonly ProfilePoint[] = sp.points ?? [];
+  if (sp.builtIn !== undefined) {
+    const b = builtInProfile(sp.builtIn);
+    if (b === undefined) throw inputProblem("invalid-input", ["requirement", "startProfile", "builtIn"], unknownIdMessage("built-in start profile", sp.builtIn, START_PROFILES.map((p) => p.id)));
+    points = b.points;
+    sources.push(`${b.def.id}: ${b.def.source}`);
+  }
+  if (sp.cranks === undefined) assumptions.push("requirement.startProfile.cranks: 1 (default)");
+  else if (sp.restS === undefined && cranks > 1) assumptions.push("requirement.startProfile.restS: 0 s between cranks (default: the next crank starts at once)");
+  return repeatedProfile(points, cranks, restS);
+}
+
+/** The input clamp: its law and power rating, defaults recorded (clamp-rating.ts). */
+function inputClampOf(c: NonNullable<Requirement["inputClamp"]>, assumptions: string[]): InputClamp {
+  if (c.breakdownV === undefined) assumptions.push("inputClamp: no breakdownV, so a constant clamping voltage clampV (no dynamic resistance)");
+  else if (c.peakCurrentA === undefined) assumptions.push("inputClamp: breakdownV without peakCurrentA gives no dynamic resistance: a constant clampV is used");
+  let power: ClampPowerRating | undefined;
+  if (c.peakPulsePowerW !== undefined) {
+    if (c.referencePulseS === undefined) assumptions.push("inputClamp.referencePulseS: 1 ms (default: a 10/1000 us rating pulse, 1000 us to half value)");
+    if (c.tjMaxC === undefined) assumptions.push("inputClamp.tjMaxC: 150 degC (default, common practice)");
+    power = { peakPulsePowerW: c.peakPulsePowerW, referencePulseS: c.referencePulseS ?? 1e-3, tjMaxC: c.tjMaxC ?? 150 };
+    assumptions.push("inputClamp power: Ppp scaled by sqrt(reference width / the pulse's current half-width) (Wunsch-Bell) and derated linearly to 0 at tjMaxC from the highest ambient (common practice)");
+  }
+  return { standoffV: c.standoffV, clampV: c.clampV, breakdownV: c.breakdownV, peakCurrentA: c.peakCurrentA, energyJ: c.energyJ, ...(power ? { power } : {}) };
+}
+
+/** The module's load in parallel with the clamp: a constant-power load as the least current it draws, at the clamping voltage (the clamp's share the larger). */
+function parallelLoadOf(load: Requirement["load"], clampV: number): ParallelLoad {
+  switch (load.kind) {
+    case "resistive":
+      return { kind: "resistive", resistanceOhm: load.resistanceOhm };
+    case "constant-current":
+      return { kind: "constant-current", currentA: load.currentA };
+    case "constant-power":
+      return { kind: "constant-current", currentA: load.powerW / clampV };
+  }
+}
+
+/** A steady overvoltage level: the caller's, else the class's where it lies above the (possibly overridden) highest supply. */
+function overvoltageOf(given: number | undefined, ofClass: number | undefined, maxV: number, field: string, what: string): number | undefined {
+  if (given !== undefined && !(given >= maxV)) throw inputProblem("invalid-input", ["requirement", "supply", field], `the ${what} must be at least the highest steady supply (${maxV} V); got ${given} V`);
+  return given ?? (ofClass !== undefined && ofClass >= maxV ? ofClass : undefined);
 }
 
 /** The review's turn-off event: defaults recorded (a short from the nominal supply; Tj per candidate). */

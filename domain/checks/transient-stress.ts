@@ -1,6 +1,7 @@
 import type { TransientPulse } from "../review/transient-library.js";
 import type { StageModel } from "../stages/stage-model.js";
-import { type ClampResult, clampExponential, tauFromDecay } from "./clamp-energy.js";
+import { type ClampResult, clampExponential, clampPulse, type ParallelLoad, tauFromDecay } from "./clamp-energy.js";
+import { allowedPeakPowerW, type ClampPowerRating } from "./clamp-rating.js";
 import { reverseStress } from "./reverse-steady.js";
 import { blocksReverseCurrent, forwardLimits } from "./stage-ratings.js";
 
@@ -11,6 +12,11 @@ export interface TransientContext {
   readonly supplyMaxV: number;
   /** Steady reverse polarity to withstand (magnitude), V: a clamp must not conduct at it either. */
   readonly reverseV: number;
+  /**
+   * Highest steady overvoltage of the supply (jump start, long-term overvoltage, abnormal service
+   * limit), V; absent where it has none. A clamp must not conduct at it: it lasts a minute or more.
+   */
+  readonly overvoltageV?: number;
   /** Voltage held at the output by the hold-up capacitor during a negative pulse, V. */
   readonly outputHeldV: number;
   /** Share of a rating the design may use (e.g. 0.8), 0..1. */
@@ -19,6 +25,10 @@ export interface TransientContext {
   readonly clampToStandoffRatio: number;
   /** A clamp the design already has at its input (bidirectional: it limits either polarity). */
   readonly inputClamp?: InputClamp;
+  /** The module's load in parallel with the clamp while a pulse passes the stage (absent: none). */
+  readonly parallelLoad?: ParallelLoad;
+  /** Junction temperature the clamp starts a pulse at (the highest ambient), °C: its power derating. */
+  readonly clampTjC?: number;
   /**
    * Allowances read from a rule set, V, in place of rating × deratingFactor: for the element that
    * blocks a negative pulse, for a controller's or switch's input, and for a gate-source.
@@ -40,9 +50,20 @@ function allowanceKey(element: string, polarity: "negative" | "positive"): keyof
 
 export interface InputClamp {
   readonly standoffV: number;
+  /** Clamping voltage at the rated peak current (constant where no breakdown voltage is given), V. */
   readonly clampV: number;
+  /** Breakdown voltage VBR; with the rated peak current it gives the dynamic resistance (clampV − VBR)/Ipp. */
+  readonly breakdownV?: number | undefined;
   readonly peakCurrentA?: number | undefined;
   readonly energyJ?: number | undefined;
+  /** Peak pulse power at its reference pulse, with its Tj(max) (clamp-rating.ts). */
+  readonly power?: ClampPowerRating | undefined;
+}
+
+/** The clamp's law: breakdown and dynamic resistance where both are known, else the constant clamping voltage. */
+export function clampLawOf(c: InputClamp): { breakdownV: number; dynamicOhm: number } {
+  if (c.breakdownV === undefined || c.peakCurrentA === undefined) return { breakdownV: c.clampV, dynamicOhm: 0 };
+  return { breakdownV: c.breakdownV, dynamicOhm: (c.clampV - c.breakdownV) / c.peakCurrentA };
 }
 
 /** What the design's own clamp does in a pulse, against its ratings. */
@@ -50,6 +71,9 @@ export interface ClampDuty {
   readonly duty: ClampResult;
   readonly withinPeakCurrent: boolean | undefined;
   readonly withinEnergy: boolean | undefined;
+  /** Peak pulse power allowed at this pulse's width and the clamp's starting Tj, W (absent: no power rating). */
+  readonly allowedPeakPowerW?: number;
+  readonly withinPeakPower: boolean | undefined;
   /** Its standoff must clear the steady supply and steady reverse voltage, or it conducts them. */
   readonly standoffClearsSteady: boolean;
 }
@@ -94,7 +118,11 @@ export interface TransientResult {
  * derating) is exceeded, the input clamp it needs: working window, peak current (|Us| − Vc)/Ri,
  * energy and conduction time (clamp-energy.ts). Negative pulses stress the blocking element with
  * |Us| + the held output voltage; positive pulses stress the input-side ratings (controller
- * input, switch input, gate-source). A centrally suppressed pulse is held at its level.
+ * input, switch input, gate-source). A centrally suppressed pulse is held at its level unless
+ * the design's clamp breaks down below it, which then takes the generator's whole current. The
+ * design's clamp follows its breakdown and dynamic resistance, the pulse's rise and, in a positive
+ * pulse, the module's load in parallel (clamp-energy.ts); its peak power is read against its
+ * rating at the pulse's width and its starting Tj (clamp-rating.ts).
  */
 export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: TransientContext): TransientResult {
   const baseV = pulse.baseV === "supply" ? ctx.supplyNominalV : pulse.baseV;
@@ -113,9 +141,10 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
   };
 
   const own = ctx.inputClamp;
-  const designClamp = (p: { baseV: number; amplitudeV: number }): ClampDuty | undefined => {
+  const designClamp = (p: { baseV: number; amplitudeV: number }, load?: ParallelLoad): ClampDuty | undefined => {
     if (own === undefined) return undefined;
-    const duty = clampExponential({ baseV: p.baseV, amplitudeV: p.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, own.clampV);
+    const duty = clampPulse({ baseV: p.baseV, amplitudeV: p.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm, riseS: pulse.riseS }, clampLawOf(own), load);
+    const allowedW = own.power !== undefined && duty.conducts === true ? allowedPeakPowerW(own.power, duty.currentHalfWidthS, ctx.clampTjC ?? 25) : undefined;
     // A clamp that conducts the supply the pulse rides on ("always") is within no rating.
     const within = (rating: number | undefined, duty_: (d: Extract<ClampResult, { conducts: true }>) => number) =>
       rating === undefined ? undefined : duty.conducts === false ? true : duty.conducts === true ? duty_(duty) <= rating : false;
@@ -123,14 +152,26 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
       duty,
       withinPeakCurrent: within(own.peakCurrentA, (d) => d.peakCurrentA),
       withinEnergy: within(own.energyJ, (d) => d.energyJ),
-      standoffClearsSteady: own.standoffV >= Math.max(ctx.supplyMaxV, ctx.reverseV),
+      ...(allowedW === undefined ? {} : { allowedPeakPowerW: allowedW }),
+      withinPeakPower: own.power === undefined ? undefined : within(allowedW ?? own.power.peakPulsePowerW, (d) => d.peakPowerW),
+      standoffClearsSteady: own.standoffV >= Math.max(ctx.supplyMaxV, ctx.reverseV, ctx.overvoltageV ?? 0),
     };
   };
-  const limitByClamp = (v: number) => (own === undefined || pulse.clampedAtV !== undefined ? v : Math.min(v, own.clampV));
+  // A module clamp below a central suppressor takes the generator's whole current: the central one
+  // stops conducting once the line is below its level (ISO 16750-2 test B on the bench).
+  // The input peak is the clamp's voltage at its peak current (above clampV when the pulse drives more than the rated current).
+  const limitByClamp = (v: number, dc: ClampDuty | undefined) => {
+    if (own === undefined) return v;
+    const d = dc?.duty;
+    return d?.conducts === true ? Math.min(v, d.peakClampV) : Math.min(v, own.clampV);
+  };
 
   if (peak < 0) {
-    const magnitude = limitByClamp(-peak);
     const blocks = blocksReverseCurrent(stage);
+    const mirrored = { baseV: -baseV, amplitudeV: -pulse.amplitudeV };
+    // A reversed load is not counted on to draw its current: the clamp takes the whole (conservative).
+    const dc = designClamp(mirrored);
+    const magnitude = limitByClamp(-peak, dc);
     const { stress: rs } = reverseStress(stage, magnitude);
     const held = blocks ? ctx.outputHeldV : 0;
     const stresses = [stress(rs.blockingElement, magnitude + held, rs.ratingV)];
@@ -138,8 +179,6 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
     // Budget at the input: each element's allowance less what the held output adds to it.
     const budgets = stresses.map((s, i) => (s.allowedV === undefined ? Number.NEGATIVE_INFINITY : s.allowedV - (i === 0 ? held : 0)));
     const clampMaxV = Math.min(...budgets);
-    const mirrored = { baseV: -baseV, amplitudeV: -pulse.amplitudeV };
-    const dc = designClamp(mirrored);
     return {
       pulseId: pulse.id,
       polarity: "negative",
@@ -153,17 +192,18 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
     };
   }
 
-  const inputPeak = limitByClamp(peak);
+  // Above the central suppressor's level the module clamp does not conduct: the input stays at that level.
+  const held = pulse.clampedAtV !== undefined && own !== undefined && clampLawOf(own).breakdownV >= pulse.clampedAtV;
+  const dc = designClamp({ baseV, amplitudeV: held && pulse.clampedAtV !== undefined ? pulse.clampedAtV - baseV : pulse.amplitudeV }, ctx.parallelLoad);
+  const inputPeak = limitByClamp(peak, dc);
   const stresses = forwardLimits(stage).map((l) => stress(l.element, l.seenV(inputPeak), l.ratingV));
   const exceeds = stresses.some((s) => s.exceeds);
   let clamp: TransientResult["clamp"] = { needed: false };
-  if (exceeds && pulse.clampedAtV !== undefined) {
-    clamp = { needed: "unmodelled", note: `the pulse is suppressed centrally at ${pulse.clampedAtV} V: choose parts rated above it (a local clamp below the central one is not modelled)` };
-  } else if (exceeds) {
+  if (exceeds) {
+    // Centrally suppressed or not, a module clamp below the input's peak takes the generator's current.
     const clampMaxV = Math.min(...stresses.filter((s) => s.exceeds).map((s) => s.allowedV ?? Number.NEGATIVE_INFINITY));
-    clamp = clampFor({ baseV, amplitudeV: pulse.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, ctx.supplyMaxV, clampMaxV, ctx);
+    clamp = clampFor({ baseV, amplitudeV: pulse.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, Math.max(ctx.supplyMaxV, ctx.overvoltageV ?? 0), clampMaxV, ctx);
   }
-  const dc = pulse.clampedAtV === undefined ? designClamp({ baseV, amplitudeV: pulse.amplitudeV }) : undefined;
   return { pulseId: pulse.id, polarity: "positive", peakOpenCircuitV: peak, inputPeakV: inputPeak, tauS, stresses, reachesLoad: true, clamp, ...(dc ? { designClamp: dc } : {}) };
 }
 

@@ -5,7 +5,8 @@ import { alongProfile, type DriveAtInput, driveAtInput, type ProfileResult, type
 import type { ControllerTurnOff } from "../checks/reverse-path.js";
 import { blocksReverseCurrent } from "../checks/stage-ratings.js";
 import { thermalSizing, type ThermalSizing } from "../checks/thermal-sizing.js";
-import { type TransientAllowance, type TransientContext, type TransientResult, transientStress } from "../checks/transient-stress.js";
+import type { TransientAllowance, TransientContext } from "../checks/transient-stress.js";
+import { type SweptTransientResult, sweptTransientStress } from "../checks/transient-sweep.js";
 import { totalRthKPerW } from "../physics/thermal-path.js";
 import type { LoadModel } from "../solve/load-model.js";
 import { scaleLoad } from "../solve/load-scale.js";
@@ -21,6 +22,10 @@ export interface ReviewRequirement {
   readonly supplyMaxV: number;
   /** Jump-start overvoltage, V; absent where the supply has none. */
   readonly jumpStartV?: number;
+  /** Long-term overvoltage (a failed regulator, about an hour), V; absent where the supply has none. */
+  readonly longTermOvervoltageV?: number;
+  /** Top of the abnormal service range, V; absent where the supply has none. */
+  readonly abnormalMaxV?: number;
   readonly ambientMinC: number;
   readonly ambientMaxC: number;
   readonly sourceResistanceOhm: number;
@@ -32,7 +37,7 @@ export interface ReviewRequirement {
   readonly reverseV: number;
   readonly reverseDurationS: number;
   readonly transients: readonly TransientPulse[];
-  readonly transientContext: Omit<TransientContext, "supplyNominalV" | "supplyMaxV" | "reverseV">;
+  readonly transientContext: Omit<TransientContext, "supplyNominalV" | "supplyMaxV" | "reverseV" | "overvoltageV">;
   readonly startProfile?: readonly { readonly timeS: number; readonly voltageV: number }[];
   readonly mission?: readonly MissionRow[];
   readonly pricePerKWh?: number;
@@ -59,11 +64,11 @@ export interface ReviewCandidate {
 export interface CandidateReview {
   readonly corners: readonly CornerResult[];
   readonly worst: WorstCase;
-  readonly startUp: { readonly atMinSupply: DriveAtInput; readonly profiles: readonly { readonly ambientC: number; readonly result: ProfileResult }[] };
+  readonly startUp: { readonly atMinSupply: DriveAtInput; readonly atProfileMin?: DriveAtInput; readonly profiles: readonly { readonly ambientC: number; readonly result: ProfileResult }[] };
   /** The start voltage the start checks used (the datasheet maximum where given), V; undefined for a stage without one. */
   readonly startVoltageV?: number;
   readonly reverse: ReverseSteadyResult;
-  readonly transients: readonly TransientResult[];
+  readonly transients: readonly SweptTransientResult[];
   readonly thermalSizing: ThermalSizing;
   readonly energy?: MissionEnergy;
   readonly standby: StandbyDrain;
@@ -110,9 +115,10 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
     {},
     req.transientContext,
     { supplyNominalV: req.supplyNominalV, supplyMaxV: req.supplyMaxV, reverseV: req.reverseV },
+    steadyOvervoltageV(req) === undefined ? {} : { overvoltageV: steadyOvervoltageV(req) },
     cand.transientAllowanceV ? { allowanceV: cand.transientAllowanceV } : {},
   );
-  const transients = req.transients.map((p) => transientStress(cand.stage, p, tctx));
+  const transients = req.transients.flatMap((p) => sweptTransientStress(cand.stage, p, tctx));
 
   // Thermal sizing at the hot, full-load corner with the datasheet-maximum part, at the supply
   // whose corner ran hottest (every supply when none of those corners has a point).
@@ -143,7 +149,8 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
   return {
     corners,
     worst,
-    startUp: { atMinSupply, profiles },
+    // The start check at the profile's lowest point (the crank's dip), where the start margin is least.
+    startUp: req.startProfile && req.startProfile.length > 0 ? { atMinSupply, atProfileMin: driveAtInput(startStage, Math.min(...req.startProfile.map((p) => p.voltageV))), profiles } : { atMinSupply, profiles },
     ...(startVoltageV === undefined ? {} : { startVoltageV }),
     reverse,
     transients,
@@ -153,4 +160,10 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
     blocksReverseCurrent: blocksReverseCurrent(cand.stage),
     ...(turnOff ? { turnOff } : {}),
   };
+}
+
+/** The supply's highest steady overvoltage (jump start, long-term overvoltage, abnormal limit), V; undefined where it has none. */
+export function steadyOvervoltageV(req: Pick<ReviewRequirement, "jumpStartV" | "longTermOvervoltageV" | "abnormalMaxV">): number | undefined {
+  const levels = [req.jumpStartV, req.longTermOvervoltageV, req.abnormalMaxV].filter((v): v is number => v !== undefined);
+  return levels.length === 0 ? undefined : Math.max(...levels);
 }

@@ -14,6 +14,10 @@ export interface SupplyClass {
   readonly reverseDurationS: number;
   /** Jump-start overvoltage (a steady overvoltage for about a minute), V; absent where the class has none. */
   readonly jumpStartV?: number;
+  /** Long-term overvoltage (a failed generator regulator, about an hour), V; absent where the class has none. */
+  readonly longTermOvervoltageV?: number;
+  /** Top of the abnormal service range the equipment must survive without damage, V (magnitude). */
+  readonly abnormalMaxV?: number;
   /** Transients of the built-in library that apply to this class by default. */
   readonly transients: readonly string[];
   readonly source: string;
@@ -24,8 +28,10 @@ const isoRev12 = "reversed voltage −14 V for 60 s, ISO 16750-2 clause 4.7 (mem
 const isoRev24 = "reversed voltage −28 V for 60 s, ISO 16750-2 clause 4.7 (memory)";
 const nominal12 = "nominal 13.5 V with the generator running (memory)";
 const nominal24 = "nominal 27 V with the generator running (memory)";
-const jump12 = "jump start 24 V for 60 s, ISO 16750-2 clause 4.3.1.2 (memory)";
-const jump24 = "jump start 36 V for 60 s, ISO 16750-2 clause 4.3.1.2 (memory)";
+const jump12 = "jump start 24 V for 60 s, ISO 16750-2 clause 4.3.1.2 (docs/references.md [S, secondary])";
+const jump24 = "jump start 36 V for 60 s (memory: the secondary source gives the jump-start test for 12 V systems only; 36 V equals the long-term overvoltage)";
+const longTerm12 = "long-term overvoltage 18 V for 60 min, ISO 16750-2 clause 4.3.1.1 (memory)";
+const longTerm24 = "long-term overvoltage 36 V for 60 min, ISO 16750-2 clause 4.3.1.1 (memory)";
 
 const vehicle12 = (code: string, minV: number): SupplyClass => ({
   id: `vehicle-12v-${code.toLowerCase()}`,
@@ -36,8 +42,9 @@ const vehicle12 = (code: string, minV: number): SupplyClass => ({
   reverseV: 14,
   reverseDurationS: 60,
   jumpStartV: 24,
+  longTermOvervoltageV: 18,
   transients: ["iso7637-2-pulse-1-12v", "iso7637-2-pulse-2a", "iso16750-2-load-dump-b-12v"],
-  source: `${iso}; ${nominal12}; ${isoRev12}; ${jump12}`,
+  source: `${iso}; ${nominal12}; ${isoRev12}; ${jump12}; ${longTerm12}`,
 });
 const vehicle24 = (code: string, minV: number): SupplyClass => ({
   id: `vehicle-24v-${code.toLowerCase()}`,
@@ -48,8 +55,9 @@ const vehicle24 = (code: string, minV: number): SupplyClass => ({
   reverseV: 28,
   reverseDurationS: 60,
   jumpStartV: 36,
+  longTermOvervoltageV: 36,
   transients: ["iso7637-2-pulse-1-24v", "iso7637-2-pulse-2a", "iso16750-2-load-dump-b-24v"],
-  source: `${iso}; ${nominal24}; ${isoRev24}; ${jump24}`,
+  source: `${iso}; ${nominal24}; ${isoRev24}; ${jump24}; ${longTerm24}`,
 });
 
 export const SUPPLY_CLASSES: readonly SupplyClass[] = [
@@ -63,14 +71,14 @@ export const SUPPLY_CLASSES: readonly SupplyClass[] = [
   vehicle24("H", 18),
   {
     id: "industrial-24v",
-    title: "24 V DC industrial control supply (19.2–30 V)",
-    minV: 19.2,
+    title: "24 V DC industrial control supply (20.4–28.8 V)",
+    minV: 20.4,
     nominalV: 24,
-    maxV: 30,
-    reverseV: 30,
+    maxV: 28.8,
+    reverseV: 28.8,
     reverseDurationS: 3600,
-    transients: [],
-    source: "IEC 61131-2 24 V DC range −15 %/+20 % (memory); reverse: the full maximum reversed by miswiring (common practice)",
+    transients: ["iec61000-4-5-surge-1kv-line-line"],
+    source: "IEC 61131-2 24 V DC steady range −15 %/+20 % of 24 V = 20.4–28.8 V (docs/references.md [S, secondary]); reverse: the full maximum reversed by miswiring (common practice); surge IEC 61000-4-5 1 kV line to line (memory)",
   },
   {
     id: "telecom-48v",
@@ -80,8 +88,9 @@ export const SUPPLY_CLASSES: readonly SupplyClass[] = [
     maxV: 57,
     reverseV: 60,
     reverseDurationS: 3600,
-    transients: [],
-    source: "ETSI EN 300 132-2 normal service range −40.5 to −57.0 V [S]; abnormal to −60 V (memory); nominal −54 V float (memory); reverse: feed wires swapped at the abnormal limit (common practice)",
+    abnormalMaxV: 60,
+    transients: ["iec61000-4-5-surge-1kv-line-line"],
+    source: "ETSI EN 300 132-2 normal service range −40.5 to −57.0 V [S]; abnormal to −60 V (memory); nominal −54 V float (memory); reverse: feed wires swapped at the abnormal limit (common practice); surge IEC 61000-4-5 1 kV line to line (memory)",
   },
   ...[
     ["poe-pd-type-1", "Type 1", 37, 12.95],

@@ -14,10 +14,49 @@ export interface TransientPulse {
   readonly sourceResistanceOhm: number;
   readonly riseS: number;
   readonly decayS: number;
-  readonly decayConvention: "to-10-percent" | "time-constant";
+  /** td to 10 % of the peak (τ = td/ln 10), to 50 % (τ = td/ln 2, a surge's tail), or τ itself. */
+  readonly decayConvention: "to-10-percent" | "to-50-percent" | "time-constant";
   /** A centrally suppressed pulse: the module input is held at this level for the pulse. */
   readonly clampedAtV?: number;
+  /**
+   * A test whose standard gives ranges rather than one pulse: Ri and td are swept over these
+   * ranges (transient-sweep.ts) and the worst case of each figure reported with its Ri and td.
+   * The peak goes with Ri as the standard pairs them (lowest peak at the lowest Ri, highest at the
+   * highest), linearly in between; amplitudeV/sourceResistanceOhm/decayS are the severe corner.
+   */
+  readonly sweep?: TransientSweep;
   readonly source: string;
+}
+
+export interface TransientSweep {
+  readonly sourceResistanceOhm: readonly [number, number];
+  readonly decayS: readonly [number, number];
+  /** Peak open-circuit voltage (including the base) at the lowest and at the highest Ri, V. */
+  readonly peakV: readonly [number, number];
+}
+
+const ed2011 = "ISO 7637-2:2011 Annex A, level IV (memory: confirm against the edition's table)";
+/** ISO 16750-2 UA: the generator's operating voltage, 14 V (12 V systems) / 28 V (24 V systems) (docs/references.md [S, secondary]). */
+const UA12 = 14;
+const UA24 = 28;
+const loadDumpA12 = "ISO 16750-2 clause 4.6.4 test A, 12 V: Us 79–101 V, Ri 0.5–4 ohm, td 40–400 ms, tr 10 ms, higher Us with higher Ri; UA 14 V (docs/references.md [S, secondary]); Us read as the peak including UA (memory)";
+const loadDumpA24 = "ISO 16750-2 clause 4.6.4 test A, 24 V: Us 151–202 V, Ri 1–8 ohm, td 100–350 ms, tr 10 ms, higher Us with higher Ri; UA 28 V (docs/references.md [S, secondary]); Us read as the peak including UA (memory)";
+
+/** IEC 61000-4-5 combination wave on a DC power port (docs/references.md): level kV, coupling and polarity. */
+function surge(levelKV: number, coupling: "line-line" | "line-earth", polarity: 1 | -1): TransientPulse {
+  const ohm = coupling === "line-line" ? 2 : 12;
+  const sign = polarity > 0 ? "" : "-negative";
+  return {
+    id: `iec61000-4-5-surge-${levelKV}kv-${coupling}${sign}`,
+    title: `IEC 61000-4-5 surge ${polarity > 0 ? "+" : "−"}${levelKV} kV ${coupling === "line-line" ? "line to line" : "line to earth"} (1.2/50 us, 8/20 us, ${ohm} ohm) on the supply`,
+    baseV: "supply",
+    amplitudeV: polarity * levelKV * 1000,
+    sourceResistanceOhm: ohm,
+    riseS: 1.2e-6,
+    decayS: 20e-6,
+    decayConvention: "to-50-percent",
+    source: `IEC 61000-4-5 combination wave: 1.2/50 us open circuit, 8/20 us short circuit, effective impedance 2 ohm (12 ohm line to earth), levels 0.5/1/2/4 kV (memory); clamp current modelled as an instant rise and an exponential tail to half value at 20 us behind ${ohm} ohm, an upper bound of the 8/20 wave's charge (docs/references.md)`,
+  };
 }
 
 export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
@@ -30,7 +69,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 1e-6,
     decayS: 2e-3,
     decayConvention: "to-10-percent",
-    source: "ISO 7637-2 pulse 1, 12 V: −75 to −150 V, Ri 10 Ω, td 2 ms, tr 1 µs (memory); applied with the supply disconnected (memory)",
+    source: "ISO 7637-2 pulse 1, 12 V: −75 to −150 V, Ri 10 ohm, td 2 ms, tr 1 us (memory); applied with the supply disconnected (memory)",
   },
   {
     id: "iso7637-2-pulse-1-24v",
@@ -41,7 +80,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 3e-6,
     decayS: 1e-3,
     decayConvention: "to-10-percent",
-    source: "ISO 7637-2 pulse 1, 24 V: up to −600 V, Ri 50 Ω, td 1 ms, tr 3 µs (docs/references.md [S]); base 0 V (memory)",
+    source: "ISO 7637-2 pulse 1, 24 V: up to −600 V, Ri 50 ohm, td 1 ms, tr 3 us (docs/references.md [S]); base 0 V (memory)",
   },
   {
     id: "iso7637-2-pulse-2a",
@@ -52,65 +91,112 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 1e-6,
     decayS: 50e-6,
     decayConvention: "to-10-percent",
-    source: "ISO 7637-2 pulse 2a: +37 to +112 V, Ri 2 Ω, td 50 µs, tr 1 µs (docs/references.md [S]); riding on the nominal supply (memory)",
+    source: "ISO 7637-2 pulse 2a: +37 to +112 V, Ri 2 ohm, td 50 us, tr 1 us (docs/references.md [S]); riding on the nominal supply (memory)",
+  },
+  {
+    id: "iso7637-2-pulse-2b-12v",
+    title: "ISO 7637-2 pulse 2b (DC motors acting as generators after ignition off), 12 V: +10 V for 2 s",
+    baseV: "supply",
+    amplitudeV: 10,
+    sourceResistanceOhm: 0.05,
+    riseS: 1e-3,
+    decayS: 2,
+    decayConvention: "to-10-percent",
+    source: `${ed2011}: pulse 2b, 12 V: Us 10 V, Ri 0–0.05 ohm, td 0.2–2 s, tr 1 ms; the model needs Ri > 0, so the upper 0.05 ohm with the longest td`,
+  },
+  {
+    id: "iso7637-2-pulse-2b-24v",
+    title: "ISO 7637-2 pulse 2b, 24 V: +20 V for 2 s",
+    baseV: "supply",
+    amplitudeV: 20,
+    sourceResistanceOhm: 0.05,
+    riseS: 1e-3,
+    decayS: 2,
+    decayConvention: "to-10-percent",
+    source: `${ed2011}: pulse 2b, 24 V: Us 20 V, Ri 0–0.05 ohm, td 0.2–2 s, tr 1 ms; the upper 0.05 ohm with the longest td`,
   },
   {
     id: "iso7637-2-pulse-3a",
-    title: "ISO 7637-2 pulse 3a (switching spikes), −220 V",
+    title: "ISO 7637-2 pulse 3a (switching spikes), −220 V (2004 edition level)",
     baseV: "supply",
     amplitudeV: -220,
     sourceResistanceOhm: 50,
     riseS: 5e-9,
     decayS: 0.1e-6,
     decayConvention: "to-10-percent",
-    source: "ISO 7637-2 pulses 3a/3b: ±(75–220) V class levels, Ri 50 Ω, td 0.1 µs, tr 5 ns (docs/references.md [S/M])",
+    source: "ISO 7637-2:2004 pulses 3a/3b: ±(75–220) V class levels, Ri 50 ohm, td 0.1 us, tr 5 ns (docs/references.md [S/M])",
   },
+  ...(
+    [
+      ["3a", "12v", -150],
+      ["3b", "12v", 100],
+      ["3a", "24v", -200],
+      ["3b", "24v", 200],
+    ] as const
+  ).map(
+    ([pulse, system, us]): TransientPulse => ({
+      id: `iso7637-2-pulse-${pulse}-${system}`,
+      title: `ISO 7637-2 pulse ${pulse} (switching spikes), ${system === "12v" ? "12" : "24"} V system, ${us > 0 ? "+" : "−"}${Math.abs(us)} V`,
+      baseV: "supply",
+      amplitudeV: us,
+      sourceResistanceOhm: 50,
+      riseS: 5e-9,
+      decayS: 150e-9,
+      decayConvention: "to-10-percent",
+      source: `${ed2011}: pulse ${pulse}, ${system === "12v" ? "12" : "24"} V: Us ${us} V, Ri 50 ohm, td 150 ns, tr 5 ns; on the supply`,
+    }),
+  ),
   {
     id: "iso16750-2-load-dump-a-12v",
-    title: "ISO 16750-2 load dump test A (unsuppressed), 12 V: 101 V peak, Ri 4 Ω, td 400 ms",
-    baseV: 13.5,
-    amplitudeV: 101 - 13.5,
+    title: "ISO 16750-2 load dump test A (unsuppressed), 12 V: Us 79–101 V, Ri 0.5–4 ohm, td 40–400 ms swept",
+    baseV: UA12,
+    amplitudeV: 101 - UA12,
     sourceResistanceOhm: 4,
     riseS: 10e-3,
     decayS: 400e-3,
     decayConvention: "to-10-percent",
-    source: "ISO 16750-2 test A, 12 V: Us 79–101 V, Ri 0.5–4 Ω, td 40–400 ms, tr 10 ms, higher Us with higher Ri (docs/references.md [S]); the severe corner chosen and Us read as the peak including the 13.5 V supply (memory)",
+    sweep: { sourceResistanceOhm: [0.5, 4], decayS: [40e-3, 400e-3], peakV: [79, 101] },
+    source: loadDumpA12,
   },
   {
     id: "iso16750-2-load-dump-a-24v",
-    title: "ISO 16750-2 load dump test A (unsuppressed), 24 V: 202 V peak, Ri 8 Ω, td 350 ms",
-    baseV: 27,
-    amplitudeV: 202 - 27,
+    title: "ISO 16750-2 load dump test A (unsuppressed), 24 V: Us 151–202 V, Ri 1–8 ohm, td 100–350 ms swept",
+    baseV: UA24,
+    amplitudeV: 202 - UA24,
     sourceResistanceOhm: 8,
     riseS: 10e-3,
     decayS: 350e-3,
     decayConvention: "to-10-percent",
-    source: "ISO 16750-2 test A, 24 V: Us 151–202 V, Ri 1–8 Ω, td 100–350 ms (docs/references.md [S]); corner and peak reading as for 12 V (memory)",
+    sweep: { sourceResistanceOhm: [1, 8], decayS: [100e-3, 350e-3], peakV: [151, 202] },
+    source: loadDumpA24,
   },
   {
     id: "iso16750-2-load-dump-b-12v",
     title: "ISO 16750-2 load dump test B (centrally suppressed), 12 V: clamped to 35 V",
-    baseV: 13.5,
-    amplitudeV: 101 - 13.5,
+    baseV: UA12,
+    amplitudeV: 101 - UA12,
     sourceResistanceOhm: 4,
     riseS: 10e-3,
     decayS: 400e-3,
     decayConvention: "to-10-percent",
     clampedAtV: 35,
-    source: "ISO 16750-2 test B, 12 V: clamped to 35 V (docs/references.md [S])",
+    sweep: { sourceResistanceOhm: [0.5, 4], decayS: [40e-3, 400e-3], peakV: [79, 101] },
+    source: `ISO 16750-2 clause 4.6.4 test B, 12 V: clamped to 35 V (docs/references.md [S]); the test-A generator behind the central suppressor: a module clamp below 35 V takes its whole current (${loadDumpA12})`,
   },
   {
     id: "iso16750-2-load-dump-b-24v",
     title: "ISO 16750-2 load dump test B (centrally suppressed), 24 V: clamped to about 58 V",
-    baseV: 27,
-    amplitudeV: 202 - 27,
+    baseV: UA24,
+    amplitudeV: 202 - UA24,
     sourceResistanceOhm: 8,
     riseS: 10e-3,
     decayS: 350e-3,
     decayConvention: "to-10-percent",
     clampedAtV: 58,
-    source: "ISO 16750-2 test B, 24 V: clamped to about 58 V (docs/references.md [S])",
+    sweep: { sourceResistanceOhm: [1, 8], decayS: [100e-3, 350e-3], peakV: [151, 202] },
+    source: `ISO 16750-2 clause 4.6.4 test B, 24 V: clamped to about 58 V (docs/references.md [S]); a module clamp below it takes the generator's whole current (${loadDumpA24})`,
   },
+  ...[0.5, 1, 2].flatMap((kv) => (["line-line", "line-earth"] as const).flatMap((c) => [surge(kv, c, 1), surge(kv, c, -1)])),
 ];
 
 export function findTransient(id: string): TransientPulse | undefined {

@@ -28,6 +28,7 @@ export const ANALYSIS_COMPUTES: Readonly<Record<string, readonly string[]>> = {
 export const RESULT_FLAGS: Readonly<Record<string, { readonly metric: string } | { readonly notALimit: string }>> = {
   withinEnergy: { metric: "clampEnergyJ" },
   withinPeakCurrent: { metric: "clampPeakCurrentA" },
+  withinPeakPower: { metric: "clampPeakPowerW" },
   standoffClearsSteady: { metric: "clampStandoffV" },
   exceeds: { metric: "reverseTransientVMaxV" },
   feasible: { notALimit: "whether a clamp window exists for the parts as they are: the parts' own voltage rules (reverseTransientVMaxV, transientVMaxV, gateSourceVMaxV) fail when a pulse exceeds them" },

@@ -1,5 +1,5 @@
 import { behaviourOf } from "../stages/stage-behaviours.js";
-import type { CandidateReview, ReviewRequirement } from "../review/candidate-review.js";
+import { type CandidateReview, type ReviewRequirement, steadyOvervoltageV } from "../review/candidate-review.js";
 import type { StageModel } from "../stages/stage-model.js";
 
 interface Scope {
@@ -13,7 +13,7 @@ interface Scope {
  * reverseLeakageRunaway and reverseTjC (reverse-steady.ts), controllerReverseVMaxV (the steady
  * reversed supply and every negative pulse on the controller's pin), the design clamp's worst
  * energy and peak current over the pulses with its ratings and stand-off (transient-stress.ts),
- * the jump-start voltage, and the start profile's lowest supply and dropout time (start-up.ts).
+ * the jump-start voltage and the supply's highest steady overvoltage, and the start profile's lowest supply and dropout time (start-up.ts).
  * What the requirement does not ask (no clamp, no profile, no jump start) is out of scope with
  * why; a figure the model could not give is unavailable, so its rule cannot pass.
  */
@@ -31,10 +31,13 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
 
   if (req.jumpStartV !== undefined) metrics["jumpStartV"] = req.jumpStartV;
   else notRequired["jumpStartV"] = "the supply has no jump start";
+  const overvoltageV = steadyOvervoltageV(req);
+  if (overvoltageV !== undefined) metrics["supplyOvervoltageV"] = overvoltageV;
+  else notRequired["supplyOvervoltageV"] = "the supply has no jump start, long-term overvoltage or abnormal range";
 
   const clamp = req.transientContext.inputClamp;
   if (clamp === undefined) {
-    for (const n of ["clampStandoffV", "clampEnergyJ", "clampPeakCurrentA", "clampEnergyRatingJ", "clampPeakCurrentRatingA"]) notRequired[n] = "the requirement has no input clamp";
+    for (const n of ["clampStandoffV", "clampEnergyJ", "clampPeakCurrentA", "clampEnergyRatingJ", "clampPeakCurrentRatingA", "clampPeakPowerW", "clampPeakPowerAllowedW"]) notRequired[n] = "the requirement has no input clamp";
   } else {
     metrics["clampStandoffV"] = clamp.standoffV;
     let energyJ = 0;
@@ -56,6 +59,7 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
       unavailable["clampEnergyJ"] = always;
       unavailable["clampPeakCurrentA"] = always;
     }
+    clampPowerMetrics(r, clamp.power === undefined, always, s);
     if (clamp.energyJ !== undefined) metrics["clampEnergyRatingJ"] = clamp.energyJ;
     else unavailable["clampEnergyRatingJ"] = "the input clamp states no energy rating (inputClamp.energyJ)";
     if (clamp.peakCurrentA !== undefined) metrics["clampPeakCurrentRatingA"] = clamp.peakCurrentA;
@@ -70,4 +74,32 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
     metrics["startProfileMinV"] = Math.min(...profile.map((p) => p.voltageV));
     metrics["startProfileDropoutS"] = Math.max(0, ...r.startUp.profiles.map((p) => p.result.dropoutTimeS));
   }
+}
+
+/**
+ * The clamp's peak power against its rating read at each pulse's width and the clamp's starting
+ * Tj (clamp-rating.ts), at the pulse that uses the largest share of it. A clamp without a power
+ * rating has its energy and peak current checked instead (clamp-energy, clamp-peak-current).
+ */
+function clampPowerMetrics(r: CandidateReview, unrated: boolean, always: string | undefined, s: Scope): void {
+  const names = ["clampPeakPowerW", "clampPeakPowerAllowedW"];
+  if (unrated) {
+    for (const n of names) s.notRequired[n] = "the input clamp states no peak pulse power (inputClamp.peakPulsePowerW): its energy and peak current ratings are checked instead";
+    return;
+  }
+  if (always !== undefined) {
+    for (const n of names) s.unavailable[n] = always;
+    return;
+  }
+  let worst: { p: number; allowed: number } | undefined;
+  for (const t of r.transients) {
+    const dc = t.designClamp;
+    if (dc?.duty.conducts !== true || dc.allowedPeakPowerW === undefined) continue;
+    const share = dc.allowedPeakPowerW > 0 ? dc.duty.peakPowerW / dc.allowedPeakPowerW : Number.POSITIVE_INFINITY;
+    const wShare = worst === undefined ? -1 : worst.allowed > 0 ? worst.p / worst.allowed : Number.POSITIVE_INFINITY;
+    if (worst === undefined || share > wShare) worst = { p: dc.duty.peakPowerW, allowed: dc.allowedPeakPowerW };
+  }
+  s.metrics["clampPeakPowerW"] = worst?.p ?? 0;
+  if (worst !== undefined) s.metrics["clampPeakPowerAllowedW"] = worst.allowed;
+  else s.notRequired["clampPeakPowerAllowedW"] = "the input clamp conducts in none of the requirement's pulses";
 }

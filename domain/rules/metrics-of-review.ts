@@ -1,5 +1,5 @@
 import { behaviourOf } from "../stages/stage-behaviours.js";
-import type { CandidateReview, ReviewRequirement } from "../review/candidate-review.js";
+import { type CandidateReview, type ReviewRequirement, steadyOvervoltageV } from "../review/candidate-review.js";
 import type { ReviewTurnOffResult } from "../review/review-turn-off.js";
 import type { RuleInput } from "./rule-model.js";
 import type { StageModel } from "../stages/stage-model.js";
@@ -24,6 +24,8 @@ export const REVIEW_COMPUTES = [
   "controllerReverseVMaxV",
   "clampEnergyJ",
   "clampPeakCurrentA",
+  "clampPeakPowerW",
+  "clampPeakPowerAllowedW",
   "startProfileDropoutS",
   "peakReverseCurrentA",
   "absorbedEnergyJ",
@@ -86,14 +88,14 @@ export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags
   const gate = behaviour.gateSourceClampV(stage);
   if (gate !== undefined) {
     const clamp = gate.clampV;
-    const peaks = [req.supplyMaxV, ...(req.jumpStartV === undefined ? [] : [req.jumpStartV]), ...r.transients.filter((t) => t.polarity === "positive").map((t) => t.inputPeakV)];
+    const peaks = [req.supplyMaxV, steadyOvervoltageV(req) ?? 0, ...r.transients.filter((t) => t.polarity === "positive").map((t) => t.inputPeakV)];
     metrics["gateSourceVMaxV"] = Math.max(...peaks.map((v) => (clamp === undefined ? v : Math.min(v, clamp))));
   }
   const negative = r.transients.filter((t) => t.polarity === "negative").map((t) => t.stresses[0]?.seenV ?? 0);
   metrics["reverseTransientVMaxV"] = Math.max(req.reverseV, ...negative);
   const positive = r.transients.filter((t) => t.polarity === "positive").map((t) => t.inputPeakV);
-  // Jump start is a steady overvoltage for about a minute: the input-side ratings see it too.
-  metrics["transientVMaxV"] = Math.max(req.supplyMaxV, req.jumpStartV ?? 0, ...positive);
+  // Jump start, long-term overvoltage and the abnormal limit are steady for a minute or more: the input-side ratings see them too.
+  metrics["transientVMaxV"] = Math.max(req.supplyMaxV, steadyOvervoltageV(req) ?? 0, ...positive);
   reviewHazardMetrics(stage, req, r, { metrics, unavailable, notRequired });
   Object.assign(unavailable, missingRatings(stage));
   const part = partParameters(stage);

@@ -1,5 +1,7 @@
 import { clampExponential } from "../checks/clamp-energy.js";
-import { type TransientContext, transientStress } from "../checks/transient-stress.js";
+import type { TransientContext } from "../checks/transient-stress.js";
+import { sweepPoint, sweptTransientStress } from "../checks/transient-sweep.js";
+import { steadyOvervoltageV } from "../review/candidate-review.js";
 import type { StageModel } from "../stages/stage-model.js";
 import type { SizingContext } from "./assessment.js";
 import { fmt, limitItem, type SpecItem } from "./spec-item.js";
@@ -15,8 +17,15 @@ import { fmt, limitItem, type SpecItem } from "./spec-item.js";
 export function clampSpec(ctx: SizingContext, stage: StageModel): SpecItem[] {
   const req = ctx.requirement;
   const { inputClamp: own, ...rest } = req.transientContext;
-  const tctx: TransientContext = { ...rest, supplyNominalV: req.supplyNominalV, supplyMaxV: req.supplyMaxV, reverseV: req.reverseV };
-  const results = req.transients.map((p) => ({ p, r: transientStress(stage, p, tctx) }));
+  const overvoltageV = steadyOvervoltageV(req);
+  const tctx: TransientContext = { ...rest, supplyNominalV: req.supplyNominalV, supplyMaxV: req.supplyMaxV, reverseV: req.reverseV, ...(overvoltageV === undefined ? {} : { overvoltageV }) };
+  // A swept test (transient-sweep.ts) enters with each of its worst points, as that point's pulse.
+  const results = req.transients.flatMap((p) =>
+    sweptTransientStress(stage, p, tctx).map((r) => {
+      const base = p.baseV === "supply" ? req.supplyNominalV : p.baseV;
+      return { p: p.sweep && r.sweep ? sweepPoint(p, p.sweep, r.sweep.sourceResistanceOhm, r.sweep.decayS, base) : p, r };
+    }),
+  );
   const source = { kind: "requirement" as const, field: "transients, deratingFactor", severity: "fail" as const };
   const ids = {
     standoff: { id: "clampStandoffMinV", title: "input clamp: standoff (working) voltage at least", unit: "V", bound: "at-least" as const },
@@ -46,11 +55,12 @@ export function clampSpec(ctx: SizingContext, stage: StageModel): SpecItem[] {
   // Every pulse whose open-circuit peak passes the clamping voltage drives the clamp.
   let current = { v: 0, id: "" };
   let energy = { v: 0, id: "" };
+  // A module clamp below a central suppressor takes the generator's whole current (ISO 16750-2 test B).
   for (const { p, r } of results) {
-    if (p.clampedAtV !== undefined) continue;
+    if (p.clampedAtV !== undefined && clampMax.v >= p.clampedAtV) continue;
     const baseV = p.baseV === "supply" ? req.supplyNominalV : p.baseV;
     const mirrored = r.polarity === "negative" ? { baseV: -baseV, amplitudeV: -p.amplitudeV } : { baseV, amplitudeV: p.amplitudeV };
-    const duty = clampExponential({ ...mirrored, tauS: r.tauS, sourceResistanceOhm: p.sourceResistanceOhm }, clampMax.v);
+    const duty = clampExponential({ ...mirrored, tauS: r.tauS, sourceResistanceOhm: p.sourceResistanceOhm, riseS: p.riseS }, clampMax.v);
     if (duty.conducts !== true) continue;
     if (duty.peakCurrentA > current.v) current = { v: duty.peakCurrentA, id: p.id };
     if (duty.energyJ > energy.v) energy = { v: duty.energyJ, id: p.id };

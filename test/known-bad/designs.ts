@@ -107,6 +107,7 @@ const integratedSwitch = (o: Obj = {}): Obj => ({
 
 const req12: Obj = { supply: { class: "vehicle-12v-b" }, load: { kind: "constant-current", currentA: 3 }, ambient: { minC: -40, maxC: 85 }, transients: [] };
 const req24: Obj = { supply: { class: "vehicle-24v-f" }, load: { kind: "constant-current", currentA: 3 }, ambient: { minC: -40, maxC: 85 }, transients: [] };
+const req48: Obj = { supply: { class: "telecom-48v" }, load: { kind: "constant-current", currentA: 3 }, ambient: { minC: -5, maxC: 55 }, transients: [] };
 const review = (requirement: Obj, stage: Obj): Obj => ({ requirement, candidates: [{ stage }] });
 /** A bidirectional TVS-like input clamp: stand-off above jump start, clamping below the parts' ratings. */
 const clamp = (o: Obj = {}): Obj => ({ standoffV: 26, clampV: 40, peakCurrentA: 100, energyJ: 100, ...o });
@@ -274,11 +275,12 @@ export const KNOWN_BAD: readonly KnownBad[] = [
   {
     id: "clamp-5j-under-load-dump-a",
     hazard: "clamp",
-    why: "an input clamp rated 5 J / 30 A takes about 51 J in load dump A (unsuppressed)",
+    // Closed form (clamp-energy.ts) at the sweep's worst point, Ri 0.5 ohm, Us 79 V, td 400 ms, tr 10 ms, UA 14 V, Vc 40 V: about 220 J.
+    why: "an input clamp rated 5 J / 30 A takes about 220 J and 78 A in load dump A at its low-Ri corner (Ri 0.5 ohm, td 400 ms, with the 10 ms rise)",
     procedure: "review",
     rule: "clamp-energy",
     bad: review({ ...req12, transients: ["iso16750-2-load-dump-a-12v"], inputClamp: clamp({ energyJ: 5, peakCurrentA: 30 }) }, idealDiode()),
-    twin: review({ ...req12, transients: ["iso16750-2-load-dump-a-12v"], inputClamp: clamp({ energyJ: 100, peakCurrentA: 100 }) }, idealDiode()),
+    twin: review({ ...req12, transients: ["iso16750-2-load-dump-a-12v"], inputClamp: clamp({ energyJ: 300, peakCurrentA: 100 }) }, idealDiode()),
   },
   {
     id: "clamp-30a-under-pulse-2a",
@@ -295,8 +297,29 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     why: "a clamp standing off 14 V conducts the 16 V steady maximum of a 12 V system",
     procedure: "review",
     rule: "clamp-standoff",
-    bad: review({ ...req12, supply: { class: "vehicle-12v-b", jumpStartV: 16 }, inputClamp: clamp({ standoffV: 14, clampV: 22 }) }, idealDiode()),
-    twin: review({ ...req12, supply: { class: "vehicle-12v-b", jumpStartV: 16 }, inputClamp: clamp({ standoffV: 17, clampV: 24 }) }, idealDiode()),
+    bad: review({ ...req12, supply: { class: "vehicle-12v-b", jumpStartV: 16, longTermOvervoltageV: 16 }, inputClamp: clamp({ standoffV: 14, clampV: 22 }) }, idealDiode()),
+    twin: review({ ...req12, supply: { class: "vehicle-12v-b", jumpStartV: 16, longTermOvervoltageV: 16 }, inputClamp: clamp({ standoffV: 17, clampV: 24 }) }, idealDiode()),
+  },
+  {
+    id: "clamp-over-its-peak-pulse-power",
+    hazard: "clamp",
+    // Closed forms (clamp-energy.ts, clamp-rating.ts): pulse 2a through 2 ohm with the 3 A load, VBR 28 V,
+    // Rd 0.2 ohm: about 41 A at 36 V, about 1.5 kW, 11 us to half current; a 250 W (1 ms) rating allows
+    // 250 * sqrt(1 ms / 11 us) * (150 - 85)/125 = about 1.2 kW at the 85 degC ambient, a 600 W one about 2.9 kW.
+    why: "a clamp rated 250 W at 10/1000 us takes about 1.5 kW from pulse 2a, above the 1.2 kW its rating allows at that width and 85 degC",
+    procedure: "review",
+    rule: "clamp-peak-power",
+    bad: review({ ...req12, transients: ["iso7637-2-pulse-2a"], inputClamp: clamp({ breakdownV: 28, peakCurrentA: 60, peakPulsePowerW: 250, tjMaxC: 150 }) }, idealDiode()),
+    twin: review({ ...req12, transients: ["iso7637-2-pulse-2a"], inputClamp: clamp({ breakdownV: 28, peakCurrentA: 60, peakPulsePowerW: 600, tjMaxC: 150 }) }, idealDiode()),
+  },
+  {
+    id: "clamp-standoff-below-telecom-abnormal",
+    hazard: "clamp",
+    why: "a 58 V stand-off clamp on a -48 V feed clears the 57 V normal range but conducts in the abnormal range up to 60 V (ETSI EN 300 132-2, memory)",
+    procedure: "review",
+    rule: "clamp-standoff-overvoltage",
+    bad: review({ ...req48, inputClamp: clamp({ standoffV: 58, clampV: 80 }) }, idealDiode({ vdsMaxV: 100 }, { maxInputV: 100, reverseRatingV: 100 })),
+    twin: review({ ...req48, inputClamp: clamp({ standoffV: 64, clampV: 85 }) }, idealDiode({ vdsMaxV: 100 }, { maxInputV: 100, reverseRatingV: 100 })),
   },
   {
     id: "clamp-standoff-below-jump-start",

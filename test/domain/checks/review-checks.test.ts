@@ -72,7 +72,24 @@ describe("transients", () => {
     const r = transientStress(stage, pulse, ctx);
     expect(r.peakOpenCircuitV).toBe(35);
     expect(r.stresses[0]?.exceeds).toBe(true);
-    expect(r.clamp.needed).toBe("unmodelled");
+    // A module clamp below the central 35 V takes the test-A generator's whole current (ISO 16750-2
+    // test B on the bench): Ipk = (Us − Vc)/Ri at the severe corner, Us 101 V, Ri 4 ohm (clamp-energy.ts closed form).
+    if (r.clamp.needed !== true || r.clamp.atClampMax.conducts !== true) throw new Error("a module clamp is needed and conducts");
+    expect(r.clamp.clampMaxV).toBeCloseTo(30 * 0.8, 9);
+    expect(r.clamp.atClampMax.peakCurrentA).toBeCloseTo((101 - 24) / 4, 9);
+  });
+
+  it("a design clamp below the central suppressor absorbs the load dump; one above it does not conduct", () => {
+    const pulse = findTransient("iso16750-2-load-dump-b-12v");
+    if (pulse === undefined) throw new Error("load dump b");
+    const below = transientStress(schottky, pulse, { ...ctx, inputClamp: { standoffV: 26, clampV: 30 } });
+    expect(below.inputPeakV).toBe(30);
+    if (below.designClamp?.duty.conducts !== true) throw new Error("the module clamp conducts");
+    // Same closed form as test A through Ri 4 ohm from UA = 14 V (docs/references.md).
+    expect(below.designClamp.duty.peakCurrentA).toBeCloseTo((101 - 30) / 4, 9);
+    const above = transientStress(schottky, pulse, { ...ctx, inputClamp: { standoffV: 30, clampV: 40 } });
+    expect(above.inputPeakV).toBe(35);
+    expect(above.designClamp?.duty.conducts).toBe(false);
   });
 });
 

@@ -87,6 +87,7 @@ const DEFAULT: Record<string, RuleCases> = {
   // max(16 V, 14 V) = 16 V.
   "clamp-standoff": { pass: p("pn-diode", { clampStandoffV: 26, supplyMaxV: 16, reverseVMaxV: 14 }, {}, 16, 10), violate: v("fail", p("nfet-ideal-diode", { clampStandoffV: 14, supplyMaxV: 16, reverseVMaxV: 14 }, {}, 16, -2)) },
   "clamp-standoff-jump-start": { pass: p("pn-diode", { clampStandoffV: 26, jumpStartV: 24 }, {}, 24, 2), violate: v("fail", p("pfet-high-side", { clampStandoffV: 18, jumpStartV: 24 }, {}, 24, -6)) },
+  "clamp-standoff-overvoltage": { pass: p("nfet-ideal-diode", { clampStandoffV: 64, supplyOvervoltageV: 60 }, {}, 60, 4), violate: v("fail", p("schottky-diode", { clampStandoffV: 58, supplyOvervoltageV: 60 }, {}, 60, -2)) },
   "clamp-energy": {
     pass: p("nfet-ideal-diode", { clampEnergyJ: 3, clampEnergyRatingJ: 5 }, {}, 5, 2),
     violate: v("fail", p("nfet-ideal-diode", { clampEnergyJ: 51, clampEnergyRatingJ: 5 }, {}, 5, -46)),
@@ -96,6 +97,11 @@ const DEFAULT: Record<string, RuleCases> = {
     pass: p("nfet-ideal-diode", { clampPeakCurrentA: 20, clampPeakCurrentRatingA: 30 }, {}, 30, 10),
     violate: v("fail", p("nfet-ideal-diode", { clampPeakCurrentA: 43, clampPeakCurrentRatingA: 30 }, {}, 30, -13)),
     off: p("pn-diode", { clampPeakCurrentA: 0, clampPeakCurrentRatingA: 30 }, {}),
+  },
+  "clamp-peak-power": {
+    pass: p("schottky-diode", { clampPeakPowerW: 2500, clampPeakPowerAllowedW: 3000 }, {}, 3000, 500),
+    violate: v("fail", p("nfet-ideal-diode", { clampPeakPowerW: 3400, clampPeakPowerAllowedW: 3000 }, {}, 3000, -400)),
+    off: p("pn-diode", { clampPeakPowerW: 0, clampPeakPowerAllowedW: 3000 }, {}),
   },
   "avalanche-current": {
     pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 30 }, { avalancheCurrentA: 40 }, 40, 10),
@@ -158,6 +164,12 @@ const VEHICLE: Record<string, RuleCases> = {
     pass: p("nfet-ideal-diode", { clampPeakCurrentA: 20, clampPeakCurrentRatingA: 30 }, {}, 24, 4),
     violate: v("fail", p("nfet-ideal-diode", { clampPeakCurrentA: 25, clampPeakCurrentRatingA: 30 }, {}, 24, -1)),
     off: p("pn-diode", { clampPeakCurrentA: 0, clampPeakCurrentRatingA: 30 }, {}),
+  },
+  // 0.8 · 3000 W = 2400 W.
+  "clamp-peak-power": {
+    pass: p("schottky-diode", { clampPeakPowerW: 2000, clampPeakPowerAllowedW: 3000 }, {}, 2400, 400),
+    violate: v("fail", p("nfet-ideal-diode", { clampPeakPowerW: 2500, clampPeakPowerAllowedW: 3000 }, {}, 2400, -100)),
+    off: p("pn-diode", { clampPeakPowerW: 0, clampPeakPowerAllowedW: 3000 }, {}),
   },
   "avalanche-current": {
     pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 30 }, { avalancheCurrentA: 40 }, 36, 6),
