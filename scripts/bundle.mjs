@@ -11,11 +11,9 @@ const banner = [
 ].join("\n");
 
 await build({
-  // main: the entry, which loads server-process (the server itself) or cluster-primary (several of them)
   entryPoints: {
+    // the HTTP server
     main: "dist/adapters/http/main.js",
-    "server-process": "dist/adapters/http/server-process.js",
-    "cluster-primary": "dist/adapters/http/cluster-primary.js",
     // the batch command line (bin/backstop.mjs)
     cli: "dist/adapters/batch/cli.js",
     worker: "dist/adapters/compute/worker.js",
