@@ -68,9 +68,8 @@ describe("soak: mixed load on the built server", () => {
   });
 
   it(`${SECONDS} s at 64 connections: zero errors, memory flat after warm-up, stalled connections cut`, async () => {
-    const processes = manifestEnv("BACKSTOP_HTTP_PROCESSES");
-    expect(processes).toBe("1"); // one process: its PSS is the pod's (a cluster would sum its processes)
-    const server = await startBuiltServer({ LOG_LEVEL: "warn", BACKSTOP_HEADERS_TIMEOUT_MS: "2000", BACKSTOP_HTTP_PROCESSES: processes, BACKSTOP_WORKERS: manifestEnv("BACKSTOP_WORKERS") });
+    // one process (the server's only mode): its PSS is the pod's
+    const server = await startBuiltServer({ LOG_LEVEL: "warn", BACKSTOP_HEADERS_TIMEOUT_MS: "2000", BACKSTOP_WORKERS: manifestEnv("BACKSTOP_WORKERS") });
     const c = server.child;
     child = c;
     const port = server.port;
