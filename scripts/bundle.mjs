@@ -1,6 +1,6 @@
 // The server and its compute-thread worker as one ESM file each (dist/bundle/), from the compiled
-// dist/ (run after tsc; `npm run build` does both). Loading one file instead of the ~400 modules
-// of the import graph halves the service's start-up (process start to /readyz). Packages loaded on
+// dist/ (run after tsc; `npm run build` does both): one file to load at start instead of the ~400
+// modules of the import graph (start-up: the bench's start-up row, docs/performance.md). Packages loaded on
 // first use through createRequire (mathjs, yaml, piscina) stay in node_modules, loaded from there.
 import { build } from "esbuild";
 

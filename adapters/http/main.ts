@@ -75,9 +75,9 @@ server.on("connection", () => {
 server.listen(port, process.env.HOST ?? "0.0.0.0", () => {
   const info = server.address() as import("node:net").AddressInfo;
   // Work start-up need not wait for, done shortly after the server listens, once the start-up
-  // probes have been answered: the compute threads (each loads the router, and on a small machine
-  // they would take the CPU the first answers need), then the built-in rule sets (and the expression
-  // parser they need). A request that needs either earlier starts it itself and waits for it.
+  // probes have been answered: the compute threads (each loads the router), then the built-in rule
+  // sets (and the expression parser they need). A request that needs either earlier starts it
+  // itself and waits for it.
   setTimeout(() => pool?.start(), 150).unref();
   setTimeout(() => logger.info({ ruleSets: ruleSets.list().map((s) => s.stamp.id) }, "rule sets ready"), 300).unref();
   logger.info(
