@@ -25,7 +25,7 @@ USER node
 EXPOSE 8080
 # no shell tools needed: node itself fetches /livez
 HEALTHCHECK --interval=10s --timeout=3s --start-period=5s --retries=3 CMD ["node", "-e", "fetch('http://127.0.0.1:'+(process.env.PORT||8080)+'/livez').then(r=>process.exit(r.ok?0:1),()=>process.exit(1))"]
-# node is PID 1: the server handles SIGTERM/SIGINT itself (drain, then exit 0); with several HTTP
-# processes (BACKSTOP_HTTP_PROCESSES, by default one per CPU of the container's quota, at most 4) it is
-# their primary: it passes the signal to each, waits for them and exits
+# node is PID 1: the server handles SIGTERM/SIGINT itself (drain, then exit 0). One HTTP process a
+# container, with its compute threads (BACKSTOP_WORKERS, by default one per CPU of the container's
+# quota, at most 4); scale with replicas
 CMD ["node", "dist/bundle/main.js"]

@@ -3,7 +3,8 @@ import { defineConfig } from "vitest/config";
 export default defineConfig({
   test: {
     include: ["test/**/*.test.ts"],
-    // builds dist/ once: the server, CLI and worker-thread tests run the built code
+    // names the run; dist/ is built at most once in it, by the first test file that needs the built
+    // server or CLI (ensureBuilt); the others run from the sources without a build
     globalSetup: ["test/helpers/build-once.ts"],
     testTimeout: 60_000,
     reporters: ["default"],

@@ -4,7 +4,7 @@ import { defineConfig } from "vitest/config";
 export default defineConfig({
   test: {
     include: ["test/soak/**/*.soak.ts"],
-    globalSetup: ["test/helpers/build-once.ts"],
+    globalSetup: ["test/helpers/build-once.ts"], // dist/ built once, on first use (the soak starts the built server)
     testTimeout: 300_000,
     reporters: ["default"],
   },

@@ -1,3 +1,6 @@
+import type { ExpressionErrorCode } from "../domain/rules/sandbox.js";
+import type { ExpressionSizeLimits } from "../domain/rules/sandbox-whitelist.js";
+
 /**
  * The bounds on every input dimension that drives memory or time, and on the answers: one table,
  * read once from the environment (README, "Limits"). An input past a limit is refused with HTTP 422
@@ -19,6 +22,10 @@ export interface Limits {
   readonly maxMonteCarloSamples: number;
   /** largest answer of one request (a bulk answer as a whole), bytes of JSON */
   readonly maxAnswerBytes: number;
+  /** longest rule expression (`expression` or `when`) of a company or inline rule set, characters */
+  readonly maxExpressionChars: number;
+  /** most syntax nodes in one such rule expression (evaluation time is bounded by it) */
+  readonly maxExpressionNodes: number;
 }
 
 /** The environment variable of each limit. */
@@ -30,6 +37,8 @@ export const LIMIT_VARIABLES: { readonly [K in keyof Limits]: string } = {
   maxProfileWork: "BACKSTOP_MAX_PROFILE_WORK",
   maxMonteCarloSamples: "BACKSTOP_MAX_MONTE_CARLO_SAMPLES",
   maxAnswerBytes: "BACKSTOP_MAX_ANSWER_BYTES",
+  maxExpressionChars: "BACKSTOP_MAX_EXPRESSION_CHARS",
+  maxExpressionNodes: "BACKSTOP_MAX_EXPRESSION_NODES",
 };
 
 export const DEFAULT_LIMITS: Limits = {
@@ -41,6 +50,8 @@ export const DEFAULT_LIMITS: Limits = {
   maxProfileWork: 1000,
   maxMonteCarloSamples: 100_000,
   maxAnswerBytes: 16 * 1024 * 1024,
+  maxExpressionChars: 2000,
+  maxExpressionNodes: 256,
 };
 
 /** The limits from `env` (unset or empty: the default); a value that is not a positive integer is an error naming the variable. */
@@ -67,6 +78,22 @@ const MARK = /\(limit [A-Z_]+\)$/;
 /** The message of an input past a limit: what, the limit, and its variable (the mark {@link isLimitMessage} reads). */
 export function limitMessage(key: keyof Limits, what: string): string {
   return `${what}: at most ${LIMITS[key]} (limit ${LIMIT_VARIABLES[key]})`;
+}
+
+/** The size limits of a rule expression of a company or inline rule set (the built-in sets keep the domain's defaults). */
+export function expressionSizeLimits(): ExpressionSizeLimits {
+  return { maxLength: LIMITS.maxExpressionChars, maxNodes: LIMITS.maxExpressionNodes };
+}
+
+const EXPRESSION_LIMIT_KEYS: Partial<Record<ExpressionErrorCode, keyof Limits>> = { "too-long": "maxExpressionChars", "too-many-nodes": "maxExpressionNodes" };
+
+/**
+ * A rule-set load error's message with the limit it hit named (marked as {@link limitMessage}'s
+ * are); another error's message as it is.
+ */
+export function expressionErrorMessage(code: string, message: string): string {
+  const key = (EXPRESSION_LIMIT_KEYS as Readonly<Record<string, keyof Limits | undefined>>)[code];
+  return key === undefined ? message : `${message} (limit ${LIMIT_VARIABLES[key]})`;
 }
 
 /** Whether an issue's message is a limit's (see {@link limitMessage}). */

@@ -1,6 +1,6 @@
 // The server and its compute-thread worker as one ESM file each (dist/bundle/), from the compiled
-// dist/ (run after tsc; `npm run build` does both). Loading one file instead of the ~400 modules
-// of the import graph halves the service's start-up (process start to /readyz). Packages loaded on
+// dist/ (run after tsc; `npm run build` does both): one file to load at start instead of the ~400
+// modules of the import graph (start-up: the bench's start-up row, docs/performance.md). Packages loaded on
 // first use through createRequire (mathjs, yaml, piscina) stay in node_modules, loaded from there.
 import { build } from "esbuild";
 
@@ -11,11 +11,9 @@ const banner = [
 ].join("\n");
 
 await build({
-  // main: the entry, which loads server-process (the server itself) or cluster-primary (several of them)
   entryPoints: {
+    // the HTTP server
     main: "dist/adapters/http/main.js",
-    "server-process": "dist/adapters/http/server-process.js",
-    "cluster-primary": "dist/adapters/http/cluster-primary.js",
     // the batch command line (bin/backstop.mjs)
     cli: "dist/adapters/batch/cli.js",
     worker: "dist/adapters/compute/worker.js",

@@ -28,14 +28,12 @@ export interface AppDeps {
   readonly pool?: ComputePool | undefined;
   /** false while draining: /readyz answers 503 */
   readonly isReady?: () => boolean;
-  /** the text of /metrics; default: this process's registry (a cluster's processes ask the primary for all of theirs) */
-  readonly metricsText?: () => Promise<string>;
 }
 
 const PROTECTED = /^\/(trpc|v1)(\/|$)/;
 
 /** The HTTP face of backstop: tRPC under /trpc, plain JSON under /v1, OpenAPI, probes, metrics, one log line per request. */
-export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics = createMetrics(), pool, isReady = () => true, metricsText }: AppDeps): Hono<Env> {
+export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics = createMetrics(), pool, isReady = () => true }: AppDeps): Hono<Env> {
   const app = new Hono<Env>();
   const checkKey = config.apiKeys ? apiKeyChecker(config.apiKeys) : undefined;
 
@@ -86,11 +84,10 @@ export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics =
   app.get("/livez", (c) => c.json({ status: "ok" }));
   app.get("/healthz", (c) => c.json({ status: "ok" }));
   app.get("/readyz", (c) => (isReady() ? c.json({ status: "ready" }) : c.json({ status: "draining" }, 503)));
-  const readMetrics = metricsText ?? (() => metrics.registry.metrics());
   app.get("/metrics", async (c) => {
     let text: string;
     try {
-      text = await readMetrics();
+      text = await metrics.registry.metrics();
     } catch (e) {
       logger.error({ requestId: c.get("requestId"), err: e }, "metrics unavailable");
       return sendProblem(c, 503, { code: "unavailable", message: "the metrics could not be gathered; try again" }, { "retry-after": "1" });

@@ -16,16 +16,6 @@ export interface HttpConfig {
   readonly receiveTimeoutMs: number;
   /** accepted API keys; undefined: auth off */
   readonly apiKeys: readonly string[] | undefined;
-  /** answer the hottest single calls on node's own request objects (see fast-lane.ts); false: all through Hono */
-  readonly fastLane: boolean;
-}
-
-function onOff(env: NodeJS.ProcessEnv, name: string, fallback: boolean): boolean {
-  const raw = env[name];
-  if (raw === undefined || raw === "") return fallback;
-  if (raw === "1" || raw === "true" || raw === "on") return true;
-  if (raw === "0" || raw === "false" || raw === "off") return false;
-  throw new Error(`${name} must be 1 or 0 (true/false, on/off), got "${raw}"`);
 }
 
 function positiveInt(env: NodeJS.ProcessEnv, name: string, fallback: number): number {
@@ -57,21 +47,8 @@ export function httpConfigFromEnv(env: NodeJS.ProcessEnv = process.env): HttpCon
     headersTimeoutMs: positiveInt(env, "BACKSTOP_HEADERS_TIMEOUT_MS", 10_000),
     receiveTimeoutMs: positiveInt(env, "BACKSTOP_RECEIVE_TIMEOUT_MS", 30_000),
     apiKeys: apiKeysFromEnv(env),
-    fastLane: onOff(env, "BACKSTOP_FAST_LANE", true),
   };
 }
 
 export const DEFAULT_HTTP_CONFIG: HttpConfig = httpConfigFromEnv({});
 
-/**
- * HTTP processes of one server, BACKSTOP_HTTP_PROCESSES: a whole number from 1 to 64, or "auto"
- * (the default): one per CPU of the budget, at most 4. Node runs JavaScript on one core per process;
- * several processes share one port.
- */
-export function httpProcessesFromEnv(env: NodeJS.ProcessEnv, budgetCpus: number): number {
-  const raw = env.BACKSTOP_HTTP_PROCESSES;
-  if (raw === undefined || raw === "" || raw === "auto") return Math.max(1, Math.min(4, budgetCpus));
-  const n = Number(raw);
-  if (!Number.isInteger(n) || n < 1 || n > 64) throw new Error(`BACKSTOP_HTTP_PROCESSES must be "auto" or a whole number from 1 to 64, got "${raw}"`);
-  return n;
-}

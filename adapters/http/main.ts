@@ -1,25 +1,127 @@
-// The server's entry point (`npm start`). One HTTP process, or with BACKSTOP_HTTP_PROCESSES > 1
-// (by default one per CPU of the process's budget, at most 4) a primary that runs that many
-// (cluster-primary.ts). Either way the server itself is server-process.ts, loaded only where it
-// runs: the primary stays small, so the processes start as fast as a lone one.
-import cluster from "node:cluster";
-import { fileURLToPath } from "node:url";
+// The server's entry point (`npm start`): one HTTP process (a container runs one; scale with
+// replicas) and its compute threads (adapters/compute/pool.ts). Every request goes through the
+// Hono app (createApp) on @hono/node-server's request listener.
+import { createServer } from "node:http";
+import { Server as NetServer } from "node:net";
+import { getRequestListener } from "@hono/node-server";
 import { cpuBudget } from "../cpu-budget.js";
-import { httpProcessesFromEnv } from "./config.js";
+import { loadCatalogFile } from "../catalog/file-catalog.js";
+import { deferredComputePool } from "../compute/pool.js";
+import { createLogger } from "../logging/logger.js";
+import { DEMO_CATALOG } from "../project-root.js";
+import { loadRuleSetStore } from "../rulesets/registry.js";
+import { createApp } from "./app.js";
+import { httpConfigFromEnv } from "./config.js";
+import { createMetrics } from "./metrics.js";
 
-const serverProcess = new URL("./server-process.js", import.meta.url);
-// a file of its own in the bundle too (a computed specifier is not bundled in): a lone server never loads it
-const primary = new URL("./cluster-primary.js", import.meta.url);
+const logger = createLogger();
+function fail(message: string): never {
+  logger.fatal(message);
+  process.stderr.write(`backstop: ${message}\n`);
+  process.exit(2);
+}
 
-let processes: number;
+let config: ReturnType<typeof httpConfigFromEnv>;
+let catalog: ReturnType<typeof loadCatalogFile>;
+const catalogPath = process.env.BACKSTOP_CATALOG ?? DEMO_CATALOG();
 try {
-  processes = httpProcessesFromEnv(process.env, cpuBudget());
+  config = httpConfigFromEnv();
+  catalog = loadCatalogFile(catalogPath);
 } catch (e) {
-  process.stderr.write(`backstop: ${(e as Error).message}\n`);
-  process.exit(2); // as a server process that cannot start (cluster-primary.ts, CONFIG_FAILURE_EXIT)
+  fail((e as Error).message);
 }
-if (processes <= 1 || !cluster.isPrimary) await import(serverProcess.href);
-else {
-  const { runPrimary } = (await import(primary.href)) as typeof import("./cluster-primary.js");
-  runPrimary({ processes, exec: fileURLToPath(serverProcess) });
+const port = Number(process.env.PORT ?? 8080);
+// Company rule sets: a bad file is refused whole and logged; the others load (README, "Rule sets").
+const rulesDir = process.env.BACKSTOP_RULES_DIR;
+const ruleSets = loadRuleSetStore(rulesDir);
+for (const r of ruleSets.refused()) logger.error({ file: r.file, setId: r.setId, problems: r.problems.map((p) => p.message) }, "rule set refused");
+const drainDelayMs = Number(process.env.BACKSTOP_DRAIN_DELAY_MS ?? 0);
+const shutdownTimeoutMs = Number(process.env.BACKSTOP_SHUTDOWN_TIMEOUT_MS ?? 20_000);
+// /v1 runs in worker threads (stopped at the compute budget) unless BACKSTOP_WORKERS=0; they start
+// once the server listens (see deferredComputePool). By default one per CPU of the budget, at most 4:
+// a bulk request is split over the threads.
+const threads = Number(process.env.BACKSTOP_WORKERS ?? Math.min(4, cpuBudget()));
+const pool = deferredComputePool({ threads, catalogPath, rulesDir });
+
+// the former multi-process mode's setting: one process a container now
+const processesSetting = process.env.BACKSTOP_HTTP_PROCESSES;
+if (processesSetting !== undefined && processesSetting !== "" && processesSetting !== "1") {
+  logger.warn({ BACKSTOP_HTTP_PROCESSES: processesSetting }, "BACKSTOP_HTTP_PROCESSES is no longer read: the server runs one HTTP process; scale with replicas");
 }
+if (config.apiKeys === undefined) logger.warn("API-key auth is OFF: set BACKSTOP_API_KEYS or BACKSTOP_API_KEYS_FILE to require a key on /v1 and /trpc");
+
+let draining = false;
+const ctx = { catalog, ruleSets };
+const metrics = createMetrics();
+const isReady = () => !draining;
+const app = createApp({ ctx, logger, config, metrics, pool, isReady });
+
+// A slow or stalled client cannot hold a connection: headers and the whole request have deadlines
+// (node checks them every connectionsCheckingInterval, so that is kept well below the deadlines).
+const headersTimeout = Math.min(config.headersTimeoutMs, config.receiveTimeoutMs);
+const serverOptions = {
+  headersTimeout,
+  requestTimeout: config.receiveTimeoutMs,
+  connectionsCheckingInterval: Math.max(50, Math.min(1000, Math.floor(headersTimeout / 4))),
+};
+// the listening socket's own close, without http.Server's cut of idle connections (see shutdown)
+const netClose = NetServer.prototype.close;
+const QUIET_MS = 100;
+let lastConnectionMs = 0;
+const server = createServer(serverOptions, getRequestListener(app.fetch));
+server.on("connection", () => {
+  lastConnectionMs = performance.now();
+});
+server.listen(port, process.env.HOST ?? "0.0.0.0", () => {
+  const info = server.address() as import("node:net").AddressInfo;
+  // Work start-up need not wait for, done shortly after the server listens, once the start-up
+  // probes have been answered: the compute threads (each loads the router), then the built-in rule
+  // sets (and the expression parser they need). A request that needs either earlier starts it
+  // itself and waits for it.
+  setTimeout(() => pool?.start(), 150).unref();
+  setTimeout(() => logger.info({ ruleSets: ruleSets.list().map((s) => s.stamp.id) }, "rule sets ready"), 300).unref();
+  logger.info(
+    { port: info.port, catalog: catalogPath, parts: catalog.list().length, rulesRefused: ruleSets.refused().length, workers: pool?.threads ?? 0, auth: config.apiKeys !== undefined },
+    "backstop listening",
+  );
+  const text =
+    `backstop listening on http://localhost:${info.port} with ${catalog.list().length} parts from ${catalogPath}\n` +
+    `  try: curl -s -X POST -H 'content-type: application/json' -d @examples/http/operatingPoint.body.json http://localhost:${info.port}/v1/operatingPoint\n`;
+  // the start-up log lines (warnings among them) out before the line that says where to connect
+  logger.flush(() => process.stdout.write(text));
+});
+
+/**
+ * Graceful stop: /readyz flips to 503 at once; from then every answer carries `Connection: close`,
+ * so a client's connection ends after its next answer. After BACKSTOP_DRAIN_DELAY_MS the listener
+ * stops accepting, with no connection cut: node's `server.close()` would also destroy every
+ * connection it counts as idle, and that includes one whose next request is already written but
+ * not yet read (the client gets ECONNRESET). So only the listening socket is closed (net.Server's
+ * close); a connection ends after its answer (Connection: close) or, idle, at the keep-alive
+ * timeout, which the client was told (`Keep-Alive: timeout=`) and closes its side before. Once
+ * the last connection has ended: the compute threads stop, exit 0 (1 past the shutdown timeout).
+ */
+function shutdown(signal: string): void {
+  if (draining) return;
+  draining = true;
+  logger.info({ signal, drainDelayMs }, "draining: readiness is now false");
+  setTimeout(() => process.exit(1), drainDelayMs + shutdownTimeoutMs).unref();
+  // the listener closes once it has accepted no connection for QUIET_MS of loop time: a connection the
+  // kernel holds for it when it closes would be reset, and after a long task (or a burst of clients)
+  // the backlog may still hold some when the drain delay ends
+  setTimeout(function closeWhenQuiet() {
+    if (performance.now() - lastConnectionMs < QUIET_MS) {
+      setTimeout(closeWhenQuiet, QUIET_MS / 4);
+      return;
+    }
+    netClose.call(server, (err?: Error) => {
+      void (pool?.close() ?? Promise.resolve()).finally(() => {
+        if (err) logger.error({ err }, "close failed");
+        else logger.info("in-flight requests finished; exiting");
+        process.exit(err ? 1 : 0);
+      });
+    });
+  }, drainDelayMs);
+}
+process.on("SIGTERM", () => shutdown("SIGTERM"));
+process.on("SIGINT", () => shutdown("SIGINT"));

@@ -1,5 +1,4 @@
-import { Counter, collectDefaultMetrics, Registry } from "prom-client";
-import { seriesHistogram } from "./series-histogram.js";
+import { Counter, collectDefaultMetrics, Histogram, Registry } from "prom-client";
 
 export type Adapter = "trpc" | "v1" | "v1-bulk";
 
@@ -10,11 +9,12 @@ export const PROCEDURE_BUCKETS_S: readonly number[] = [0.0005, 0.001, 0.0025, 0.
 export function createMetrics() {
   const registry = new Registry();
   collectDefaultMetrics({ register: registry, prefix: "backstop_" });
-  const procedure = seriesHistogram({
+  const procedure = new Histogram({
     name: "backstop_procedure_duration_seconds",
     help: "time to answer one analysis call, by procedure, outcome (result outcome or error code) and adapter",
-    buckets: PROCEDURE_BUCKETS_S,
-    registry,
+    labelNames: ["procedure", "outcome", "adapter"] as const,
+    buckets: [...PROCEDURE_BUCKETS_S],
+    registers: [registry],
   });
   const requests = new Counter({
     name: "backstop_http_requests_total",
@@ -22,29 +22,14 @@ export function createMetrics() {
     labelNames: ["route", "status"] as const,
     registers: [registry],
   });
-  // The labelled series, looked up once per label combination (prom-client hashes the label
-  // object on every observe otherwise); the labels are bounded (procedures, outcomes, routes).
-  const procedureSeries = new Map<string, { observe(v: number): void }>();
-  const requestSeries = new Map<string, { inc(): void }>();
+  // the labels are bounded: procedures, outcomes, adapters, route families (routeLabel) and statuses
   return {
     registry,
     observeProcedure(adapter: Adapter, path: string, outcome: string, seconds: number) {
-      const key = `${adapter}\u0000${path}\u0000${outcome}`;
-      let series = procedureSeries.get(key);
-      if (series === undefined) {
-        series = procedure.series({ procedure: path, outcome, adapter });
-        procedureSeries.set(key, series);
-      }
-      series.observe(seconds);
+      procedure.observe({ procedure: path, outcome, adapter }, seconds);
     },
     countRequest(route: string, status: number) {
-      const key = `${route}\u0000${status}`;
-      let series = requestSeries.get(key);
-      if (series === undefined) {
-        series = requests.labels({ route, status: String(status) });
-        requestSeries.set(key, series);
-      }
-      series.inc();
+      requests.inc({ route, status: String(status) });
     },
   };
 }

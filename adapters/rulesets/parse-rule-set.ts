@@ -1,6 +1,7 @@
 import { createRequire } from "node:module";
 import { ruleSetSchema, toRuleSet } from "../../contracts/rule-set.js";
 import { issuesOf, pathText } from "../../contracts/zod-messages.js";
+import { expressionErrorMessage, expressionSizeLimits } from "../../contracts/limits.js";
 import { type CompiledRuleSet, compileRuleSet, formatRuleLoadError } from "../../domain/rules/compile-rule-set.js";
 import type { RuleSetProblem } from "../../domain/rules/rule-set-store.js";
 
@@ -26,13 +27,13 @@ export function ruleSetFromData(data: unknown, source: string): ParsedRuleSet {
     };
   }
   const set = toRuleSet(shape.data);
-  const out = compileRuleSet(set);
+  const out = compileRuleSet(set, expressionSizeLimits());
   if (out.ok) return out;
   return {
     ok: false,
     problems: out.errors.map((e) => {
       const idx = set.rules.findIndex((r) => r.id === e.ruleId);
-      return { source, ruleId: e.ruleId, path: ["rules", idx, e.field], column: e.column, message: formatRuleLoadError(e) };
+      return { source, ruleId: e.ruleId, path: ["rules", idx, e.field], column: e.column, message: formatRuleLoadError({ ...e, message: expressionErrorMessage(e.code, e.message) }) };
     }),
   };
 }

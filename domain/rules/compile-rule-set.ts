@@ -1,6 +1,7 @@
 import type { Rule, RuleSet, RuleSetStamp } from "./rule-model.js";
 import { ruleSetHash } from "./rule-set-hash.js";
 import { type CompiledExpression, compileExpression, type ExpressionErrorCode } from "./sandbox.js";
+import { EXPRESSION_LIMITS, type ExpressionSizeLimits } from "./sandbox-whitelist.js";
 import { metricDef, partParameterDef, STAGE_KINDS } from "./metric-vocabulary.js";
 
 /** A vocabulary name resolved at compile time: where to read it and whether it is a boolean. */
@@ -78,9 +79,10 @@ export type CompileRuleSetOutcome =
  * Validate and compile every rule of a set: expressions against the sandbox, stage kinds against
  * the known kinds, ids unique. All errors are collected; a set with any error is refused whole
  * (a partly loaded set would give verdicts nobody reviewed). The stamp's hash is sha256 of the
- * set's canonical JSON (rule-set-hash.ts).
+ * set's canonical JSON (rule-set-hash.ts). `size` bounds each expression (a request's or a
+ * file's: the configured limits; the built-in sets: the defaults).
  */
-export function compileRuleSet(set: RuleSet): CompileRuleSetOutcome {
+export function compileRuleSet(set: RuleSet, size: ExpressionSizeLimits = EXPRESSION_LIMITS): CompileRuleSetOutcome {
   const errors: RuleLoadError[] = [];
   const seen = new Set<string>();
   const pending: Omit<CompiledRule, "setIndex" | "coverText" | "work">[] = [];
@@ -94,9 +96,9 @@ export function compileRuleSet(set: RuleSet): CompileRuleSetOutcome {
         }
       }
     }
-    const when = rule.when === undefined ? null : compileExpression(rule.when);
+    const when = rule.when === undefined ? null : compileExpression(rule.when, size);
     if (when !== null && !when.ok) errors.push({ ruleId: rule.id, field: "when", ...when.error });
-    const expr = compileExpression(rule.expression);
+    const expr = compileExpression(rule.expression, size);
     if (!expr.ok) errors.push({ ruleId: rule.id, field: "expression", ...expr.error });
     if (expr.ok && (when === null || when.ok)) {
       const w = when === null ? null : when.compiled;

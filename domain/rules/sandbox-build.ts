@@ -36,6 +36,8 @@ export interface Ctx {
   readonly names: string[];
   readonly index: Map<string, number>;
   nodes: number;
+  /** most syntax nodes the expression may have */
+  readonly maxNodes: number;
 }
 
 type Built = { readonly type: "number"; readonly f: NumFn } | { readonly type: "boolean"; readonly f: BoolFn };
@@ -89,7 +91,7 @@ function bool(b: Built, ctx: Ctx, what: string): BoolFn {
  */
 export function build(n: Loose, ctx: Ctx, depth: number): Built {
   ctx.nodes += 1;
-  if (ctx.nodes > EXPRESSION_LIMITS.maxNodes) refuse("too-many-nodes", `expression has more than ${EXPRESSION_LIMITS.maxNodes} syntax nodes`, 1);
+  if (ctx.nodes > ctx.maxNodes) refuse("too-many-nodes", `expression has more than ${ctx.maxNodes} syntax nodes`, 1);
   if (depth > EXPRESSION_LIMITS.maxDepth) refuse("too-deep", `expression nests deeper than ${EXPRESSION_LIMITS.maxDepth} levels`, 1);
   const d = depth + 1;
   switch (n.type) {

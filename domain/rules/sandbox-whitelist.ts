@@ -3,8 +3,14 @@
  * refused when the rule set is loaded.
  */
 
-/** Limits on an expression's source and syntax tree. */
+/** Limits on an expression's source and syntax tree (the first two are the defaults of ExpressionSizeLimits). */
 export const EXPRESSION_LIMITS = { maxLength: 2000, maxNodes: 256, maxDepth: 48, maxBracketDepth: 32 } as const;
+
+/** The bounds on an expression's size that a deployment may set (contracts/limits.ts): characters and syntax nodes. */
+export interface ExpressionSizeLimits {
+  readonly maxLength: number;
+  readonly maxNodes: number;
+}
 
 export type BinaryNumeric = (a: number, b: number) => number;
 

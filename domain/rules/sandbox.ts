@@ -1,7 +1,7 @@
 import type { MathNode } from "mathjs";
 import { parseExpression } from "./locked-mathjs.js";
 import { type BoolFn, build, type Ctx, type ExpressionError, type ExpressionErrorCode, type Loose, type NumFn } from "./sandbox-build.js";
-import { COMPARISONS, EXPRESSION_LIMITS } from "./sandbox-whitelist.js";
+import { COMPARISONS, EXPRESSION_LIMITS, type ExpressionSizeLimits } from "./sandbox-whitelist.js";
 import { checkDimensions } from "./rule-dimensions.js";
 
 export { NON_FINITE } from "./sandbox-build.js";
@@ -35,10 +35,9 @@ export type CompileOutcome = { readonly ok: true; readonly compiled: CompiledExp
  * Compiled expressions by text. Only accepted ones are kept (a refused text is answered again from
  * scratch: refusals must not let a caller fill memory with texts of its choosing), and the cache is
  * bounded in entries and in bytes: each entry counts its text (two bytes a character) and its
- * closure tree (COMPILED_NODE_BYTES for each of at most min(characters, maxNodes) nodes, an upper
- * estimate); past either bound it is emptied.
+ * closure tree (COMPILED_NODE_BYTES for each of its syntax nodes, an upper estimate); past either bound it is emptied.
  */
-const cache = new Map<string, CompileOutcome>();
+const cache = new Map<string, { readonly out: CompileOutcome; readonly nodes: number }>();
 export const COMPILE_CACHE_LIMITS = { maxEntries: 4096, maxBytes: 32 * 1024 * 1024 } as const;
 const COMPILED_NODE_BYTES = 256;
 let cachedBytes = 0;
@@ -49,46 +48,52 @@ export function compileCacheSize(): { readonly entries: number; readonly bytes: 
 }
 
 /**
- * Check an expression against the whitelist and the vocabulary, type it (numbers vs booleans; a
- * rule must be a condition), and compile it. Accepted expressions are cached by their text.
+ * Check an expression against the size limits, the whitelist and the vocabulary, type it (numbers
+ * vs booleans; a rule must be a condition), and compile it. Accepted expressions are cached by
+ * their text (with their node count, so a hit is held to the limits of the call).
  */
-export function compileExpression(text: string): CompileOutcome {
+export function compileExpression(text: string, size: ExpressionSizeLimits = EXPRESSION_LIMITS): CompileOutcome {
+  if (text.length > size.maxLength) return fail("too-long", `expression is ${text.length} characters; the limit is ${size.maxLength}`, size.maxLength + 1);
   const hit = cache.get(text);
-  if (hit !== undefined) return hit;
-  const out = compileUncached(text);
+  if (hit !== undefined) return hit.nodes > size.maxNodes ? tooManyNodes(size.maxNodes) : hit.out;
+  const { out, nodes } = compileUncached(text, size.maxNodes);
   if (!out.ok) return out;
-  const bytes = 2 * text.length + COMPILED_NODE_BYTES * Math.min(text.length, EXPRESSION_LIMITS.maxNodes);
+  const bytes = 2 * text.length + COMPILED_NODE_BYTES * Math.min(text.length, nodes);
   if (cache.size >= COMPILE_CACHE_LIMITS.maxEntries || cachedBytes + bytes > COMPILE_CACHE_LIMITS.maxBytes) {
     cache.clear();
     cachedBytes = 0;
   }
-  cache.set(text, out);
+  cache.set(text, { out, nodes });
   cachedBytes += bytes;
   return out;
 }
 
-function compileUncached(text: string): CompileOutcome {
-  const L = EXPRESSION_LIMITS;
-  if (text.length > L.maxLength) return fail("too-long", `expression is ${text.length} characters; the limit is ${L.maxLength}`, L.maxLength + 1);
+function tooManyNodes(maxNodes: number): CompileOutcome {
+  return fail("too-many-nodes", `expression has more than ${maxNodes} syntax nodes`, 1);
+}
+
+/** The outcome and the syntax nodes of the accepted tree (0 when refused). */
+function compileUncached(text: string, maxNodes: number): { readonly out: CompileOutcome; readonly nodes: number } {
+  const refused = (out: CompileOutcome) => ({ out, nodes: 0 });
   const deep = bracketOverflow(text);
-  if (deep > 0) return fail("too-deep", `brackets nest deeper than ${L.maxBracketDepth}`, deep);
-  if (text.trim() === "") return fail("syntax", "expression is empty", 1);
+  if (deep > 0) return refused(fail("too-deep", `brackets nest deeper than ${EXPRESSION_LIMITS.maxBracketDepth}`, deep));
+  if (text.trim() === "") return refused(fail("syntax", "expression is empty", 1));
   let root: MathNode;
   try {
     root = parseExpression(text);
   } catch (e) {
     const col = typeof (e as { char?: unknown }).char === "number" ? (e as { char: number }).char : 1;
-    return fail("syntax", e instanceof Error ? e.message : "syntax error", col);
+    return refused(fail("syntax", e instanceof Error ? e.message : "syntax error", col));
   }
-  const ctx: Ctx = { text, names: [], index: new Map(), nodes: 0 };
+  const ctx: Ctx = { text, names: [], index: new Map(), nodes: 0, maxNodes };
   try {
     const top = build(root as unknown as Loose, ctx, 0);
-    if (top.type !== "boolean") return fail("type", "a rule expression must be a condition (a comparison or a logical combination), not a number", 1);
+    if (top.type !== "boolean") return refused(fail("type", "a rule expression must be a condition (a comparison or a logical combination), not a number", 1));
     const units = checkDimensions(root as unknown as Loose, text);
-    if (units !== undefined) return { ok: false, error: units };
-    return { ok: true, compiled: { text, names: ctx.names, test: top.f, comparison: topComparison(root as unknown as Loose, ctx) } };
+    if (units !== undefined) return refused({ ok: false, error: units });
+    return { out: { ok: true, compiled: { text, names: ctx.names, test: top.f, comparison: topComparison(root as unknown as Loose, ctx) } }, nodes: ctx.nodes };
   } catch (e) {
-    if (typeof e === "object" && e !== null && "refusal" in e) return { ok: false, error: (e as { refusal: ExpressionError }).refusal };
+    if (typeof e === "object" && e !== null && "refusal" in e) return refused({ ok: false, error: (e as { refusal: ExpressionError }).refusal });
     throw e;
   }
 }

@@ -5,10 +5,10 @@ import { join } from "node:path";
 import { PassThrough, Readable } from "node:stream";
 import { describe, expect, it } from "vitest";
 import { type BatchOutputLine, runBatch } from "../../adapters/batch/run-batch.js";
-import { projectRoot } from "../../adapters/project-root.js";
 import type { Problem } from "../../contracts/problem.js";
 import { type Answer, errorAnswer, sharedCases } from "../helpers/cases.js";
 import { demoContext, testApp } from "../helpers/app.js";
+import { builtCli } from "../helpers/build-once.js";
 
 // One case suite, run through every adapter: the numbers must be identical (same router, in process
 // or in worker threads). Source of truth: the router itself, so this is a consistency check.
@@ -56,7 +56,7 @@ async function viaBatch(): Promise<Answer[]> {
 function viaBatchCliWorkers(): Answer[] {
   const dir = mkdtempSync(join(tmpdir(), "backstop-agree-"));
   writeFileSync(join(dir, "in.jsonl"), `${cases.map((c) => JSON.stringify(c)).join("\n")}\n`);
-  spawnSync("node", [join(projectRoot(), "bin", "backstop.mjs"), "batch", "--in", join(dir, "in.jsonl"), "--out", join(dir, "out.jsonl"), "--workers", "2"], { encoding: "utf8" });
+  spawnSync("node", [builtCli(), "batch", "--in", join(dir, "in.jsonl"), "--out", join(dir, "out.jsonl"), "--workers", "2"], { encoding: "utf8" });
   return readFileSync(join(dir, "out.jsonl"), "utf8").trim().split("\n").map((l) => fromBatch(JSON.parse(l) as BatchOutputLine));
 }
 

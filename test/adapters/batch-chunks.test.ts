@@ -9,8 +9,8 @@ import { describe, expect, it } from "vitest";
 import { cutAfter, jsonlChunks, lineCountOf, linesOf, MAX_LINE_BYTES } from "../../adapters/batch/jsonl-chunk.js";
 import { runBatch } from "../../adapters/batch/run-batch.js";
 import { type StreamBatchOptions, streamBatch } from "../../adapters/batch/stream-batch.js";
-import { projectRoot } from "../../adapters/project-root.js";
 import { demoContext } from "../helpers/app.js";
+import { builtCli } from "../helpers/build-once.js";
 
 /**
  * The chunked JSON Lines path (bytes cut at line ends, answered in worker threads or in process)
@@ -264,8 +264,7 @@ describe("in process: the chunked path writes the bytes of the per-record path",
 });
 
 describe("built CLI: in process, one worker thread and two write the same bytes", () => {
-  // dist/ is built once by test/helpers/build-once.ts (vitest globalSetup)
-  const bin = join(projectRoot(), "bin", "backstop.mjs");
+  const bin = builtCli();
   const dir = mkdtempSync(join(tmpdir(), "backstop-chunks-"));
   const run = (args: string[]) => spawnSync("node", [bin, "batch", ...args], { encoding: "utf8", env: { ...process.env, BACKSTOP_PROGRESS_MS: "600000" } });
   // about 1.2 MB: several chunks of the default size, so the threads and the main thread each answer some

@@ -6,10 +6,9 @@ import { parse } from "csv-parse/sync";
 import { describe, expect, it } from "vitest";
 import { parseShard } from "../../adapters/batch/cli.js";
 import { cellValue, csvRowToLine, setPath } from "../../adapters/batch/formats.js";
-import { projectRoot } from "../../adapters/project-root.js";
+import { builtCli } from "../helpers/build-once.js";
 
-// dist/ is built once by test/helpers/build-once.ts (vitest globalSetup)
-const bin = join(projectRoot(), "bin", "backstop.mjs");
+const bin = builtCli();
 const good = (a: number) => ({ stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" }, supplyV: 12, load: { kind: "constant-current", currentA: a }, ambientC: 25 });
 const runAsync = (args: string[], env: Record<string, string> = {}) =>
   new Promise<number | null>((resolve) => spawn("node", [bin, ...args], { env: { ...process.env, ...env }, stdio: "ignore" }).on("exit", (c) => resolve(c)));

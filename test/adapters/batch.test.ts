@@ -7,6 +7,7 @@ import { describe, expect, it } from "vitest";
 import { type BatchOutputLine, runBatch } from "../../adapters/batch/run-batch.js";
 import { projectRoot } from "../../adapters/project-root.js";
 import { demoContext } from "../helpers/app.js";
+import { ensureBuilt } from "../helpers/build-once.js";
 
 const good = { stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" }, supplyV: 12, load: { kind: "constant-current", currentA: 2 }, ambientC: 25 };
 
@@ -55,7 +56,7 @@ describe("batch mode", () => {
 
 describe("batch command line", () => {
   const root = projectRoot();
-  // dist/ is built once by test/helpers/build-once.ts (vitest globalSetup)
+  ensureBuilt();
 
   it("writes the output under its final name only when complete, exit 1 when some rows failed", () => {
     const dir = mkdtempSync(join(tmpdir(), "backstop-batch-"));

@@ -1,6 +1,5 @@
 import { availableParallelism } from "node:os";
 import { describe, expect, it } from "vitest";
-import { httpProcessesFromEnv } from "../../adapters/http/config.js";
 import { cpuBudget, quotaCpus } from "../../adapters/cpu-budget.js";
 
 const files = (m: Record<string, string>) => (p: string) => m[p];
@@ -22,12 +21,5 @@ describe("the CPU budget", () => {
     expect(cpuBudget(files({ "/sys/fs/cgroup/cpu.max": "100000 100000" }))).toBe(1);
     expect(cpuBudget(files({ "/sys/fs/cgroup/cpu.max": "50000 100000" }))).toBe(1);
     expect(cpuBudget(files({ "/sys/fs/cgroup/cpu.max": `${(cpus + 8) * 100000} 100000` }))).toBe(cpus);
-  });
-  it("gives one HTTP process per budget CPU by default, at most 4, and refuses a bad count", () => {
-    expect(httpProcessesFromEnv({}, 1)).toBe(1);
-    expect(httpProcessesFromEnv({}, 2)).toBe(2);
-    expect(httpProcessesFromEnv({ BACKSTOP_HTTP_PROCESSES: "auto" }, 16)).toBe(4);
-    expect(httpProcessesFromEnv({ BACKSTOP_HTTP_PROCESSES: "3" }, 1)).toBe(3);
-    for (const bad of ["0", "-1", "1.5", "65", "two"]) expect(() => httpProcessesFromEnv({ BACKSTOP_HTTP_PROCESSES: bad }, 2)).toThrow(/BACKSTOP_HTTP_PROCESSES/);
   });
 });

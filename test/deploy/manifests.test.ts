@@ -25,6 +25,10 @@ describe("Kubernetes manifests and Dockerfile match the server", () => {
     expect(c.command).toEqual(dockerCmd);
     expect(`${dockerCmd.join(" ")}`).toBe(pkg.scripts.start);
     expect(c.env.find((e: Doc) => e.name === "PORT").value).toBe(String(port.containerPort));
+    // every variable it sets is documented (README), and none is left from the removed multi-process mode
+    const readme = readFileSync(join(root, "README.md"), "utf8");
+    for (const e of c.env as Doc[]) expect([e.name, readme.includes(`\`${e.name}\``)]).toEqual([e.name, true]);
+    expect(c.env.map((e: Doc) => e.name)).not.toContain("BACKSTOP_HTTP_PROCESSES");
     expect(dockerfile).toMatch(new RegExp(`EXPOSE ${port.containerPort}`));
     const { app } = testApp();
     for (const probe of [c.readinessProbe, c.livenessProbe, c.startupProbe]) {

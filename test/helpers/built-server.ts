@@ -1,9 +1,13 @@
 import { type ChildProcess, spawn } from "node:child_process";
 import { join } from "node:path";
 import { projectRoot } from "../../adapters/project-root.js";
+import { ensureBuilt } from "./build-once.js";
+
+// a file that starts the built server needs dist/
+ensureBuilt();
 
 /**
- * The built server as it ships (dist/bundle/main.js, built by the vitest globalSetup) as a process on a loopback port chosen
+ * The built server as it ships (dist/bundle/main.js, built on first use, build-once.ts) as a process on a loopback port chosen
  * by the system; resolves once it says where it listens, rejects after 30 s with what it printed.
  */
 export function startBuiltServer(env: Record<string, string>): Promise<{ child: ChildProcess; port: number; base: string; logs: string[] }> {

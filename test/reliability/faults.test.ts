@@ -4,15 +4,15 @@ import { connect } from "node:net";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
-import { projectRoot } from "../../adapters/project-root.js";
 import { startBuiltServer } from "../helpers/built-server.js";
+import { builtCli } from "../helpers/build-once.js";
 
 /**
- * Faults against the built code (dist/ is built by the vitest globalSetup): a worker thread that
+ * Faults against the built code (dist/ built on first use, test/helpers/build-once.ts): a worker thread that
  * throws or dies mid-batch, kill -9 of a batch and its rerun, and slow clients against the server.
  * SIGTERM under load is test/adapters/server-process.test.ts.
  */
-const bin = join(projectRoot(), "bin", "backstop.mjs");
+const bin = builtCli();
 const dir = mkdtempSync(join(tmpdir(), "backstop-faults-"));
 const MARKER = "__backstop_test_worker_fault__"; // adapters/compute/worker.ts, test hook
 const good = (a: number) => ({ stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" }, supplyV: 12, load: { kind: "constant-current", currentA: a }, ambientC: 25 });

@@ -4,11 +4,18 @@ import { testApp } from "../helpers/app.js";
 /**
  * The rule-expression attack list (test/domain/rules/sandbox.test.ts) and more, sent as inline rule
  * sets to rules.evaluate over /v1 and /trpc: each is a 400 invalid-rule-set naming the rule's
- * expression (or precondition) path, nothing leaks into the process, and the server still answers.
+ * expression (or precondition) path (one over a size limit: a 422 limit-exceeded naming the limit),
+ * nothing leaks into the process, and the server still answers.
  */
 const { app, logs } = testApp();
 const metrics = { tjWorstC: 96.4, lossWorstW: 0.12, dropWorstV: 0.04, parallelSources: false };
 const part = { tjMaxC: 175 };
+
+/** attacks over a size limit (contracts/limits.ts), with the limit each one names */
+const OVER_A_LIMIT = new Map([
+  [`${"tjWorstC + ".repeat(100_000)}1 <= 0`, "BACKSTOP_MAX_EXPRESSION_CHARS"],
+  [`min(${Array(16).fill(`max(${Array(16).fill("1").join(",")})`).join(",")}) <= 1`, "BACKSTOP_MAX_EXPRESSION_NODES"],
+]);
 
 const ATTACKS = [
   // the sandbox unit test's list
@@ -40,10 +47,9 @@ const ATTACKS = [
   "tjWorstC <= ",
   "tjWorstC and lossWorstW",
   "parallelSources + 1 > 0",
-  `${"tjWorstC + ".repeat(100_000)}1 <= 0`,
+  ...OVER_A_LIMIT.keys(),
   `${"(".repeat(500)}tjWorstC${")".repeat(500)} <= 1`,
   `${"-".repeat(400)}tjWorstC <= 1`,
-  `min(${Array(16).fill(`max(${Array(16).fill("1").join(",")})`).join(",")}) <= 1`,
   // more found for the HTTP surface
   'constructor.constructor("return process")() == 1',
   "tjWorstC.constructor.constructor == 1",
@@ -96,12 +102,19 @@ describe("sandbox attacks over HTTP (rules.evaluate with an inline rule set)", (
       ["when", inline("tjWorstC <= 150", attack)],
     ] as const) {
       const v1 = await post("/v1/rules.evaluate", body);
-      const problem = (await v1.json()) as { code: string; issues: { path: (string | number)[] }[] };
-      expect(v1.status, JSON.stringify(problem).slice(0, 300)).toBe(400);
-      expect(["invalid-rule-set", "invalid-input"]).toContain(problem.code);
+      const problem = (await v1.json()) as { code: string; issues: { path: (string | number)[]; message: string }[] };
+      const limit = OVER_A_LIMIT.get(attack);
+      if (limit === undefined) {
+        expect(v1.status, JSON.stringify(problem).slice(0, 300)).toBe(400);
+        expect(["invalid-rule-set", "invalid-input"]).toContain(problem.code);
+      } else {
+        expect(v1.status, JSON.stringify(problem).slice(0, 300)).toBe(422);
+        expect(problem.code).toBe("limit-exceeded");
+        expect(problem.issues.every((i) => i.message.endsWith(`(limit ${limit})`))).toBe(true);
+      }
       expect(problem.issues.some((i) => i.path.join(".") === `ruleSet.rules.0.${where}`)).toBe(true);
       const trpc = await post("/trpc/rules.evaluate", body);
-      expect(trpc.status).toBe(400);
+      expect(trpc.status).toBe(limit === undefined ? 400 : 422);
       const t = (await trpc.json()) as { error: { data: { backstop: { issues: { path: (string | number)[] }[] } } } };
       expect(t.error.data.backstop.issues.map((i) => i.path.join("."))).toContain(`ruleSet.rules.0.${where}`);
     }

@@ -14,8 +14,8 @@ import { startBuiltServer } from "../helpers/built-server.js";
  * most 10 % (medians of the first and last thirds of the samples); every stalled connection is cut by the header deadline.
  */
 const SECONDS = Number(process.env.BACKSTOP_SOAK_SECONDS ?? 60);
-// The server runs as deploy/deployment.yaml runs it in a pod (its process model: HTTP processes and
-// compute threads), and its proportional set size (PSS, /proc/<pid>/smaps_rollup: shared pages
+// The server runs as deploy/deployment.yaml runs it in a pod (its process model: one HTTP process and
+// its compute threads), and its proportional set size (PSS, /proc/<pid>/smaps_rollup: shared pages
 // split among their users, what the pod's memory limit meets) must stay below the manifest's limit.
 // The resident memory climbs for the first 10-25 s, then saws around a plateau (two HTTP processes,
 // the previous model: +-8 %, 750-890 MB over a 180 s run). So: a 25 s warm-up, and the median of the
@@ -68,9 +68,8 @@ describe("soak: mixed load on the built server", () => {
   });
 
   it(`${SECONDS} s at 64 connections: zero errors, memory flat after warm-up, stalled connections cut`, async () => {
-    const processes = manifestEnv("BACKSTOP_HTTP_PROCESSES");
-    expect(processes).toBe("1"); // one process: its PSS is the pod's (a cluster would sum its processes)
-    const server = await startBuiltServer({ LOG_LEVEL: "warn", BACKSTOP_HEADERS_TIMEOUT_MS: "2000", BACKSTOP_HTTP_PROCESSES: processes, BACKSTOP_WORKERS: manifestEnv("BACKSTOP_WORKERS") });
+    // one process (the server's only mode): its PSS is the pod's
+    const server = await startBuiltServer({ LOG_LEVEL: "warn", BACKSTOP_HEADERS_TIMEOUT_MS: "2000", BACKSTOP_WORKERS: manifestEnv("BACKSTOP_WORKERS") });
     const c = server.child;
     child = c;
     const port = server.port;

@@ -75,6 +75,17 @@ describe("sandbox: the attack list is refused with a clear error and position", 
     const e = refused(wide);
     expect(e.code).toBe("too-many-nodes");
   });
+  it("the size limits a call gives hold, a cached text included (a deployment may set them: contracts/limits.ts)", () => {
+    const text = "tjWorstC <= part.tjMaxC - 25 K";
+    expect(compileExpression(text).ok).toBe(true); // cached under the defaults
+    const short = compileExpression(text, { maxLength: text.length - 1, maxNodes: 256 });
+    expect(short.ok ? undefined : short.error.code).toBe("too-long");
+    const few = compileExpression(text, { maxLength: 2000, maxNodes: 3 });
+    expect(few.ok ? undefined : few.error).toEqual({ code: "too-many-nodes", message: "expression has more than 3 syntax nodes", column: 1 });
+    const fresh = compileExpression("tjWorstC <= part.tjMaxC - 30 K", { maxLength: 2000, maxNodes: 3 }); // not cached
+    expect(fresh.ok ? undefined : fresh.error.code).toBe("too-many-nodes");
+    expect(compileExpression(text, { maxLength: text.length, maxNodes: 256 }).ok).toBe(true);
+  });
 });
 
 describe("sandbox: what is allowed", () => {
