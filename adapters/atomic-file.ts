@@ -1,5 +1,6 @@
-import { readdirSync, renameSync, rmSync, writeFileSync } from "node:fs";
+import { createWriteStream, readdirSync, renameSync, rmSync, type WriteStream, writeFileSync } from "node:fs";
 import { basename, dirname, join } from "node:path";
+import { finished } from "node:stream/promises";
 
 /** The file operations `writeFileAtomic` uses (node:fs; a test passes its own to watch the order). */
 export interface FileOps {
@@ -60,4 +61,43 @@ export function removeStalePartials(path: string): string[] {
     removed.push(name);
   }
   return removed;
+}
+
+/**
+ * Stream a file so that its name only ever holds the complete output: `body` writes to
+ * `<path>.partial-<pid>`, which is renamed to `path` when it is done and removed on any failure or
+ * on SIGTERM/SIGINT (then the process exits 2). Partials left by dead runs are removed first.
+ * `write` resolves when more may be written (backpressure) and rejects when the file cannot be written.
+ */
+export async function writeStreamAtomic(path: string, body: (write: (t: string | Uint8Array) => Promise<void>) => Promise<void>, log: (line: string) => void): Promise<void> {
+  const partial = `${path}.partial-${process.pid}`;
+  for (const f of removeStalePartials(path)) log(`backstop: removed ${f}, left by a run that no longer exists`);
+  const onSignal = () => {
+    rmSync(partial, { force: true });
+    log(`backstop: stopped by a signal; no output written to ${path}`);
+    process.exit(2);
+  };
+  process.once("SIGTERM", onSignal);
+  process.once("SIGINT", onSignal);
+  let out: WriteStream | undefined;
+  try {
+    // a few MB may wait to be written, so the batch answers or cuts the next chunk meanwhile
+    // instead of waiting for a drain after every chunk of output
+    out = createWriteStream(partial, { highWaterMark: 4 * 1024 * 1024 });
+    const stream = out;
+    const failed = new Promise<never>((_, reject) => stream.once("error", reject));
+    failed.catch(() => undefined);
+    const write = (t: string | Uint8Array) => (stream.write(t) ? Promise.resolve() : Promise.race([new Promise<void>((r) => stream.once("drain", () => r())), failed]));
+    await Promise.race([body(write), failed]);
+    stream.end();
+    await finished(stream);
+    renameSync(partial, path);
+  } catch (e) {
+    out?.destroy();
+    rmSync(partial, { force: true });
+    throw e;
+  } finally {
+    process.removeListener("SIGTERM", onSignal);
+    process.removeListener("SIGINT", onSignal);
+  }
 }

@@ -1,18 +1,19 @@
-import { createReadStream, createWriteStream, renameSync, rmSync, type WriteStream } from "node:fs";
+import { createReadStream } from "node:fs";
 import { availableParallelism } from "node:os";
-import { finished } from "node:stream/promises";
 import { parseArgs } from "node:util";
 import { procedureEntry } from "../../api/procedure-registry.js";
 import { loadCatalogFile } from "../catalog/file-catalog.js";
 import { type ComputePool, createComputePool } from "../compute/pool.js";
 import { DEMO_CATALOG } from "../project-root.js";
-import { removeStalePartials } from "../atomic-file.js";
+import { writeStreamAtomic } from "../atomic-file.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
 import { formatOf } from "./formats.js";
 import { mergeShards } from "./merge.js";
-import type { BatchCounts } from "./run-batch.js";
+import type { BatchCounts } from "./line.js";
+import { REPORT_RENDERERS } from "../report/report-body.js";
 import { reportFailed, reportNamer, writeBridgeAcReport, writeReviewReport } from "../report/write-report.js";
-import { CHUNKS_PER_THREAD, type RowHook, type Shard, streamBatch } from "./stream-batch.js";
+import type { Shard } from "./answer.js";
+import { CHUNKS_PER_THREAD, type RowHook, streamBatch } from "./engine.js";
 
 const USAGE = `usage:
   backstop --help | backstop batch --help | backstop merge --help
@@ -26,6 +27,8 @@ const USAGE = `usage:
 
 class UsageError extends Error {}
 
+const logLine = (line: string) => process.stderr.write(`${line}\n`);
+
 export function parseShard(spec: string | undefined, env: NodeJS.ProcessEnv): Shard | undefined {
   if (spec === undefined) return undefined;
   const m = /^(?:(\d+)\/)?(\d+)$/.exec(spec);
@@ -36,40 +39,6 @@ export function parseShard(spec: string | undefined, env: NodeJS.ProcessEnv): Sh
   const index = Number(rawIndex);
   if (!(count >= 1 && index < count)) throw new UsageError(`--shard ${index}/${count}: need 0 <= i < N`);
   return { index, count };
-}
-
-/** Write to `<out>.partial-<pid>` and rename to `<out>` only when complete; remove it on any failure or signal. */
-async function atomically(outPath: string, body: (write: (t: string | Uint8Array) => Promise<void>) => Promise<void>): Promise<void> {
-  const partial = `${outPath}.partial-${process.pid}`;
-  for (const f of removeStalePartials(outPath)) process.stderr.write(`backstop: removed ${f}, left by a run that no longer exists\n`);
-  const onSignal = () => {
-    rmSync(partial, { force: true });
-    process.stderr.write(`backstop: stopped by a signal; no output written to ${outPath}\n`);
-    process.exit(2);
-  };
-  process.once("SIGTERM", onSignal);
-  process.once("SIGINT", onSignal);
-  let out: WriteStream | undefined;
-  try {
-    // a few MB may wait to be written, so the main thread answers or cuts the next chunk meanwhile
-    // instead of waiting for a drain after every chunk of output
-    out = createWriteStream(partial, { highWaterMark: 4 * 1024 * 1024 });
-    const stream = out;
-    const failed = new Promise<never>((_, reject) => stream.once("error", reject));
-    failed.catch(() => undefined);
-    const write = (t: string | Uint8Array) => (stream.write(t) ? Promise.resolve() : Promise.race([new Promise<void>((r) => stream.once("drain", () => r())), failed]));
-    await Promise.race([body(write), failed]);
-    stream.end();
-    await finished(stream);
-    renameSync(partial, outPath);
-  } catch (e) {
-    out?.destroy();
-    rmSync(partial, { force: true });
-    throw e;
-  } finally {
-    process.removeListener("SIGTERM", onSignal);
-    process.removeListener("SIGINT", onSignal);
-  }
 }
 
 /** Progress on stderr: a redrawn line on a terminal, else a counter and rate every few seconds. */
@@ -141,29 +110,33 @@ async function batch(rest: string[]): Promise<number> {
   let counts: BatchCounts = { lines: 0, ok: 0, failed: 0, blank: 0 };
   const reportDir = values["report-dir"];
   const nameOf = reportNamer();
-  let reports = 0;
-  const onRow: RowHook | undefined = reportDir
-    ? (row, procedure) => {
-        if (!row.ok || (procedure !== "review" && procedure !== "bridgeAc")) return undefined;
-        try {
-          (procedure === "review" ? writeReviewReport : writeBridgeAcReport)(reportDir, nameOf(row.id, row.line), row.result, row.id ?? undefined);
-        } catch (e) {
-          // that line's error row; the batch goes on
-          return reportFailed(procedure, e);
-        }
-        reports += 1;
-        return undefined;
-      }
-    : undefined;
+  let drawn = 0;
+  const onRow: RowHook = (row, procedure) => {
+    try {
+      (procedure === "review" ? writeReviewReport : writeBridgeAcReport)(reportDir as string, nameOf(row.id, row.line), row.result, row.id ?? undefined);
+    } catch (e) {
+      // that line's error row; the batch goes on
+      return reportFailed(procedure, e);
+    }
+    drawn += 1;
+    return undefined;
+  };
+  // the report procedures and the flag that asks each for its chart data (a review's curves, a bridgeAc's waveform)
+  const flags = Object.fromEntries(Object.entries(REPORT_RENDERERS).map(([p, r]) => [p, r.flag]));
   try {
-    await atomically(outPath, async (write) => {
-      counts = await streamBatch({ input, inFormat, outFormat, write, ctx: { catalog, ruleSets }, procedure: values.procedure, shard, pool, onProgress: (c) => p.tick(c), onRow, reviewCurves: reportDir !== undefined, poolOnly: process.env.BACKSTOP_TEST_WORKER_FAULT !== undefined });
-    });
+    await writeStreamAtomic(
+      outPath,
+      async (write) => {
+        const reports = reportDir === undefined ? undefined : { flags, onRow };
+        counts = await streamBatch({ input, inFormat, outFormat, write, ctx: { catalog, ruleSets }, procedure: values.procedure, shard, pool, onProgress: (c) => p.tick(c), reports, poolOnly: process.env.BACKSTOP_TEST_WORKER_FAULT !== undefined });
+      },
+      logLine,
+    );
   } finally {
     await pool?.close();
   }
   p.done(counts, outPath);
-  if (reportDir) process.stderr.write(`backstop batch: ${reports} report(s) -> ${reportDir}\n`);
+  if (reportDir) process.stderr.write(`backstop batch: ${drawn} report(s) -> ${reportDir}\n`);
   return counts.failed > 0 ? 1 : 0;
 }
 
@@ -173,9 +146,13 @@ async function merge(rest: string[]): Promise<number> {
   if (values.out === undefined || positionals.length === 0) throw new UsageError("merge needs --out and at least one shard file");
   const format = formatOf(values.out, values.format);
   let n = 0;
-  await atomically(values.out, async (write) => {
-    n = await mergeShards(positionals, format, write);
-  });
+  await writeStreamAtomic(
+    values.out,
+    async (write) => {
+      n = await mergeShards(positionals, format, write);
+    },
+    logLine,
+  );
   process.stderr.write(`backstop merge: ${positionals.length} shards, ${n} rows -> ${values.out}\n`);
   return 0;
 }

@@ -3,7 +3,7 @@ import { z } from "zod";
 import { procedureEntries } from "../../api/procedure-registry.js";
 import type { ErrorBody } from "../../contracts/outcome.js";
 import { PROTOTYPE_KEYS, unknownFieldMessage } from "../../contracts/zod-messages.js";
-import type { BatchOutputLine } from "./run-batch.js";
+import type { BatchOutputLine } from "./line.js";
 
 export type Format = "jsonl" | "csv";
 export const formatOf = (file: string, given: string | undefined): Format => {

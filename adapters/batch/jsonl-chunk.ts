@@ -1,12 +1,5 @@
 import type { Readable } from "node:stream";
-import type { Invoke } from "../../api/procedure-registry.js";
-import { isBlankLine, MAX_LINE_CHARS, type processLine, processLineNow } from "./run-batch.js";
-
-/** A shard of the input: record n (1-based) belongs to shard (n - 1) mod count. */
-export interface Shard {
-  readonly index: number;
-  readonly count: number;
-}
+import { MAX_LINE_CHARS } from "./line.js";
 
 /**
  * A run of whole JSON Lines input lines as bytes, with the number of its first line and how many
@@ -28,16 +21,6 @@ export interface JsonlChunk {
  * failed the run when it could not be decoded to one string.
  */
 export const MAX_LINE_BYTES = 3 * MAX_LINE_CHARS;
-
-/** A chunk's answer: its output records as UTF-8 bytes, and how many were written, answered and rejected. */
-export interface ChunkAnswer {
-  readonly bytes: Uint8Array;
-  readonly lines: number;
-  readonly ok: number;
-  readonly failed: number;
-  /** blank lines skipped (no record) */
-  readonly blank: number;
-}
 
 const LF = 0x0a;
 const CR = 0x0d;
@@ -128,8 +111,9 @@ export async function* jsonlChunks(input: Readable, targetBytes: number, maxLine
     }
     if (run < bytes.length) yield cut(bytes.subarray(run));
   };
-  for await (const read of input as AsyncIterable<Buffer>) {
-    let piece = read;
+  for await (const read of input as AsyncIterable<Buffer | string>) {
+    // a stream of text (Readable.from a string) as its UTF-8 bytes
+    let piece = typeof read === "string" ? Buffer.from(read, "utf8") : read;
     if (skipping !== undefined) {
       const end = skipping.crAtEnd ? (piece[0] === LF ? 1 : 0) : cutAfter(piece, 0);
       if (end < 0) {
@@ -188,65 +172,4 @@ function lastLineStart(bytes: Uint8Array): number {
   const upTo = bytes.length - 2; // a break at the final byte does not start a line within these bytes
   if (upTo < 0) return 0;
   return Math.max(bytes.lastIndexOf(LF, upTo), bytes.lastIndexOf(CR, upTo)) + 1;
-}
-
-/** Does record `lineNo` belong to this run (no shard: every record does)? */
-export const inShard = (lineNo: number, shard: Shard | undefined): boolean => shard === undefined || (lineNo - 1) % shard.count === shard.index;
-
-/**
- * UTF-8 output written as it comes into one growing buffer: each record's text is encoded at once
- * and can die young (a chunk's texts kept until the end were copied and promoted by the young
- * generation's collector, doubling the GC time). Three bytes per UTF-16 unit bound every code
- * point's encoding (a surrogate pair is 4 bytes for 2 units, a lone surrogate 3 for 1). The buffer
- * is never from Node's shared pool, so it can be transferred to another thread.
- */
-export class Utf8Sink {
-  private buf: Buffer;
-  private at = 0;
-  constructor(capacity: number) {
-    this.buf = Buffer.allocUnsafeSlow(Math.max(capacity, 16 * 1024));
-  }
-  write(text: string): void {
-    if (this.buf.length - this.at < text.length * 3) {
-      const bigger = Buffer.allocUnsafeSlow(Math.max(2 * this.buf.length, this.at + text.length * 3));
-      this.buf.copy(bigger, 0, 0, this.at);
-      this.buf = bigger;
-    }
-    this.at += this.buf.write(text, this.at, "utf8");
-  }
-  bytes(): Buffer {
-    return this.buf.subarray(0, this.at);
-  }
-}
-
-/**
- * Answer a chunk of JSON Lines: each line of the shard through `processLine`, written out with
- * `line` (the output format), all of it encoded as UTF-8 in one buffer. The same function runs in
- * the worker threads and in process, so both write the same bytes. With `yieldEvery` > 0 it lets
- * the event loop run (setImmediate) after every that many records.
- */
-export async function answerJsonlChunk(text: string, firstLine: number, line: (o: Awaited<ReturnType<typeof processLine>>) => string, invoker: (path: string) => Invoke | undefined, shard: Shard | undefined, yieldEvery = 0): Promise<ChunkAnswer> {
-  const raws = linesOf(text);
-  // An operating point's answer is about 5.1 output bytes per input byte (the bench's lines: 225
-  // in, 1,150 out), so at 5 every such chunk grew once (a copy of the whole chunk's output); the
-  // pages never written are never resident. The sink grows if need be (a review's answer is larger).
-  const out = new Utf8Sink(text.length * 6);
-  let ok = 0;
-  let lines = 0;
-  let blank = 0;
-  for (let i = 0; i < raws.length; i += 1) {
-    const lineNo = firstLine + i;
-    if (!inShard(lineNo, shard)) continue;
-    if (isBlankLine(raws[i] as string)) {
-      blank += 1;
-      continue;
-    }
-    const now = processLineNow(raws[i] as string, lineNo, invoker);
-    const o = now instanceof Promise ? await now : now; // no turn of the microtask queue for a synchronous answer
-    if (o.ok) ok += 1;
-    lines += 1;
-    out.write(line(o));
-    if (yieldEvery > 0 && lines % yieldEvery === 0) await new Promise<void>((r) => setImmediate(r));
-  }
-  return { bytes: out.bytes(), lines, ok, failed: lines - ok, blank };
 }

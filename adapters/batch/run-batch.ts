@@ -1,130 +1,13 @@
-import { createInterface } from "node:readline";
 import type { Readable, Writable } from "node:stream";
-import { z } from "zod";
 import type { Context } from "../../api/context.js";
-import { errorBodyOf } from "../../api/error-body.js";
-import { type Invoke, isThenable, procedureInvoker } from "../../api/procedure-registry.js";
-import type { ErrorBody } from "../../contracts/outcome.js";
+import { procedureInvoker } from "../../api/procedure-registry.js";
+import { streamBatch } from "./engine.js";
+import type { BatchCounts } from "./line.js";
 
-/** One input line: `{ "id"?: string|number, "procedure": "<router path>", "input": {...} }`. */
-export const batchLine = z.strictObject({
-  id: z.union([z.string().max(200), z.number()]).optional(),
-  procedure: z.string().min(1).max(200),
-  input: z.unknown(),
-});
-
-export type BatchOutputLine =
-  | { readonly id: string | number | null; readonly line: number; readonly ok: true; readonly result: unknown }
-  | { readonly id: string | number | null; readonly line: number; readonly ok: false; readonly error: ErrorBody };
-
-export interface BatchCounts {
-  /** rows answered (ok + failed) */
-  lines: number;
-  ok: number;
-  failed: number;
-  /** blank input lines: skipped, never a row */
-  blank: number;
-}
-
-/** A line of nothing but whitespace: not a row (skipped and counted apart). */
-export const isBlankLine = (raw: string): boolean => raw.trim() === "";
-
-/** The longest input line answered, in UTF-16 units; a longer one is rejected (overlongLine). */
-export const MAX_LINE_CHARS = 1_000_000;
 export { procedureInvoker };
+export { type BatchCounts, type BatchOutputLine, batchLine, isBatchLine, processLine } from "./line.js";
 
-/** The record for a line longer than MAX_LINE_CHARS (it is not parsed: no id). */
-export function overlongLine(lineNo: number): BatchOutputLine {
-  return { id: null, line: lineNo, ok: false, error: { code: "malformed-line", message: `line longer than ${MAX_LINE_CHARS} characters`, issues: [] } };
-}
-
-/** Process one raw line into exactly one output record; never rejects. */
-export async function processLine(raw: string, lineNo: number, invoker: (path: string) => Invoke | undefined): Promise<BatchOutputLine> {
-  return processLineNow(raw, lineNo, invoker);
-}
-
-/**
- * As {@link processLine}, answered in this turn where the procedure answers synchronously (its
- * `Invoke.now`), else a promise of the record; never throws or rejects. The chunked batch path
- * answers its records with this and awaits only the promises.
- */
-export function processLineNow(raw: string, lineNo: number, invoker: (path: string) => Invoke | undefined): BatchOutputLine | Promise<BatchOutputLine> {
-  let parsedJson: unknown;
-  const fail = (id: string | number | null, error: ErrorBody): BatchOutputLine => ({ id, line: lineNo, ok: false, error });
-  if (raw.trim() === "") return fail(null, { code: "malformed-line", message: "empty line", issues: [] });
-  if (raw.length > MAX_LINE_CHARS) return overlongLine(lineNo);
-  try {
-    parsedJson = JSON.parse(raw);
-  } catch (e) {
-    return fail(null, { code: "malformed-line", message: `not JSON: ${(e as Error).message}`, issues: [] });
-  }
-  let line: { id?: string | number | undefined; procedure: string; input?: unknown };
-  if (isBatchLine(parsedJson)) line = parsedJson;
-  else {
-    const checked = batchLine.safeParse(parsedJson); // a bad line: zod names what is wrong
-    if (!checked.success) {
-      const id = typeof parsedJson === "object" && parsedJson !== null && "id" in parsedJson ? idOf((parsedJson as { id: unknown }).id) : null;
-      return fail(id, errorBodyOf(checked.error));
-    }
-    line = checked.data;
-  }
-  const id = line.id ?? null;
-  const invoke = invoker(line.procedure);
-  if (invoke === undefined) {
-    return fail(id, { code: "unknown-procedure", message: `no procedure "${line.procedure}"`, issues: [{ path: ["procedure"], message: "unknown procedure" }] });
-  }
-  let result: unknown;
-  try {
-    result = invoke.now(line.input);
-  } catch (e) {
-    return fail(id, errorBodyOf(e));
-  }
-  if (isThenable(result)) {
-    return Promise.resolve(result).then(
-      (r): BatchOutputLine => ({ id, line: lineNo, ok: true, result: r }),
-      (e: unknown) => fail(id, errorBodyOf(e)),
-    );
-  }
-  return { id, line: lineNo, ok: true, result };
-}
-
-/**
- * What `batchLine` accepts, checked by hand for the common, valid line (zod's object parse costs
- * more than the rest of the line's bookkeeping): an object (not an array), `procedure` a string of
- * 1–200 characters, `input` present (any value), `id` absent, a string of at most 200 characters or a finite number (`1e400`
- * parses to Infinity, which zod refuses), and no other key (`batchLine` is strict). Anything else goes to `batchLine.safeParse`, so a bad line's error is zod's.
- * test/adapters/batch.test.ts checks the two agree.
- */
-export function isBatchLine(v: unknown): v is { id?: string | number; procedure: string; input: unknown } {
-  if (typeof v !== "object" || v === null || Array.isArray(v)) return false;
-  const { id, procedure, input } = v as { id?: unknown; procedure?: unknown; input?: unknown };
-  if (input === undefined) return false; // zod 4: a z.unknown() key must be there
-  if (typeof procedure !== "string" || procedure.length < 1 || procedure.length > 200) return false;
-  if (Object.keys(v).length !== (id === undefined ? 2 : 3)) return false;
-  return id === undefined || (typeof id === "number" && Number.isFinite(id)) || (typeof id === "string" && id.length <= 200);
-}
-
-function idOf(v: unknown): string | number | null {
-  return typeof v === "string" || typeof v === "number" ? v : null;
-}
-
-/** Stream JSON Lines in → one result or error line out per input line, in order, same id. */
+/** JSON Lines in → one result or error line out per input line, in order, same id: the batch engine in this thread, written to a stream. */
 export async function runBatch(input: Readable, output: Writable, ctx: Context): Promise<BatchCounts> {
-  const invoker = procedureInvoker(ctx);
-  const counts: BatchCounts = { lines: 0, ok: 0, failed: 0, blank: 0 };
-  const rl = createInterface({ input, crlfDelay: Number.POSITIVE_INFINITY });
-  let lineNo = 0;
-  for await (const raw of rl) {
-    lineNo += 1;
-    if (isBlankLine(raw)) {
-      counts.blank += 1;
-      continue;
-    }
-    counts.lines += 1;
-    const out = await processLine(raw, lineNo, invoker);
-    if (out.ok) counts.ok += 1;
-    else counts.failed += 1;
-    if (!output.write(`${JSON.stringify(out)}\n`)) await new Promise<void>((r) => output.once("drain", () => r()));
-  }
-  return counts;
+  return streamBatch({ input, inFormat: "jsonl", outFormat: "jsonl", ctx, write: (chunk) => (output.write(chunk) ? Promise.resolve() : new Promise<void>((r) => output.once("drain", () => r()))) });
 }

@@ -1,9 +1,7 @@
 import { existsSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { createRequire } from "node:module";
-import type { Format } from "../batch/formats.js";
-import type { ChunkAnswer, Shard } from "../batch/jsonl-chunk.js";
-import type { BatchOutputLine } from "../batch/run-batch.js";
+import type { ChunkAnswer, ChunkTask } from "../batch/answer.js";
 import type { ItemJson, ItemResult } from "./call.js";
 import type { ReportAnswer, ReportTask } from "./report-call.js";
 
@@ -14,29 +12,6 @@ export function workerFile(): string | undefined {
   return file.endsWith(".js") && existsSync(file) && import.meta.url.endsWith(".js") ? file : undefined;
 }
 
-/** One batch output record, already written out: whether it was answered, its text, and the record itself when asked for. */
-export interface FormattedLine {
-  readonly ok: boolean;
-  readonly text: string;
-  readonly record?: BatchOutputLine;
-}
-
-/** How batch records come back from the threads: the output format, and whether the records too (for a row hook). */
-export interface LinesFormat {
-  readonly outFormat: Format;
-  readonly procedure?: string | undefined;
-  readonly withRecords?: boolean;
-}
-
-/** A chunk of JSON Lines input for a thread: its bytes, its first line's number, the output format and the shard (records outside it are skipped). */
-export interface JsonlChunkTask {
-  readonly bytes: Uint8Array;
-  readonly firstLine: number;
-  readonly outFormat: Format;
-  readonly procedure?: string | undefined;
-  readonly shard?: Shard | undefined;
-}
-
 export interface ComputePool {
   readonly threads: number;
   /** the items as objects; `bounded`: a result past the answer limit is refused in its place */
@@ -45,10 +20,8 @@ export interface ComputePool {
   callJson(path: string, inputs: unknown[], signal?: AbortSignal): Promise<ItemJson[]>;
   /** a procedure's call and its report drawn, in a thread */
   report(task: ReportTask, signal?: AbortSignal): Promise<ReportAnswer>;
-  /** batch records → each one's output text in `format` (formatted in the thread), in order */
-  lines(records: { raw: string; lineNo: number }[], format: LinesFormat, signal?: AbortSignal): Promise<FormattedLine[]>;
-  /** batch, JSON Lines in: a chunk of whole input lines as bytes → its output records as bytes (parsed, answered, written out and encoded in the thread); the bytes' buffer is transferred (it must be the chunk's alone: not a view into a larger or pooled buffer) */
-  jsonlChunk(chunk: JsonlChunkTask, signal?: AbortSignal): Promise<ChunkAnswer>;
+  /** batch: a chunk of whole input records as bytes → its output records as bytes (parsed, answered, written out and encoded in the thread); the bytes' buffer is transferred (it must be the chunk's alone: not a view into a larger or pooled buffer) */
+  batchChunk(chunk: ChunkTask, signal?: AbortSignal): Promise<ChunkAnswer>;
   /** settles once a thread has loaded the router and answered (it fails if the thread cannot start) */
   ready(): Promise<void>;
   close(): Promise<void>;
@@ -84,9 +57,8 @@ export function createComputePool(opts: { threads: number; catalogPath: string; 
     call: (path, inputs, signal, bounded) => pool.run({ path, inputs, bounded }, options("call", signal)) as Promise<ItemResult[]>,
     callJson: (path, inputs, signal) => pool.run({ path, inputs }, options("callJson", signal)) as Promise<ItemJson[]>,
     report: (task, signal) => pool.run(task, options("report", signal)) as Promise<ReportAnswer>,
-    lines: (records, format, signal) => pool.run({ records, ...format }, options("lines", signal)) as Promise<FormattedLine[]>,
     // the chunk's bytes are transferred, not copied: the caller hands over a buffer of its own
-    jsonlChunk: (chunk, signal) => pool.run(chunk, { ...options("jsonlChunk", signal), transferList: [chunk.bytes.buffer as ArrayBuffer] }) as Promise<ChunkAnswer>,
+    batchChunk: (chunk, signal) => pool.run(chunk, { ...options("batchChunk", signal), transferList: [chunk.bytes.buffer as ArrayBuffer] }) as Promise<ChunkAnswer>,
     ready: () => {
       up ??= pool.run(null, options("ping")).then(() => undefined);
       return up;
@@ -119,8 +91,7 @@ export function deferredComputePool(opts: Parameters<typeof createComputePool>[0
     call: (path, inputs, signal, bounded) => get().call(path, inputs, signal, bounded),
     callJson: (path, inputs, signal) => get().callJson(path, inputs, signal),
     report: (task, signal) => get().report(task, signal),
-    lines: (records, format, signal) => get().lines(records, format, signal),
-    jsonlChunk: (chunk, signal) => get().jsonlChunk(chunk, signal),
+    batchChunk: (chunk, signal) => get().batchChunk(chunk, signal),
     ready: () => get().ready(),
     close: async () => {
       closed = true;

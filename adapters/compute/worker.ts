@@ -2,8 +2,7 @@ import { createRequire } from "node:module";
 import { workerData } from "node:worker_threads";
 import { procedureInvoker } from "../../api/procedure-registry.js";
 import { type Format, outputFormatter } from "../batch/formats.js";
-import { answerJsonlChunk, type ChunkAnswer, type Shard } from "../batch/jsonl-chunk.js";
-import { processLine } from "../batch/run-batch.js";
+import { answerChunk, type ChunkAnswer, type ChunkTask } from "../batch/answer.js";
 import { loadCatalogFile } from "../catalog/file-catalog.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
 import { type ReportAnswer, type ReportTask, reportAnswer } from "./report-call.js";
@@ -90,30 +89,14 @@ async function testFault(hit: boolean): Promise<void> {
 }
 
 /**
- * Batch: raw JSON lines with their line numbers → one output record each, in order, written out
- * here in the output format (the main thread only joins the texts: serialising in the threads
- * keeps the main thread, which reads and writes, from being the bottleneck).
+ * Batch: a chunk of whole input records as bytes (its first line's number given) → its output
+ * records, written out and encoded here, as bytes (answerChunk, as the main thread answers its
+ * own). Bytes cross between threads as one copy; records as objects, or many small strings, cost
+ * the main thread more than answering them.
  */
-export async function lines({ records, outFormat, procedure, withRecords }: { records: { raw: string; lineNo: number }[]; outFormat: Format; procedure?: string | undefined; withRecords?: boolean }) {
-  const fmt = formatterOf(outFormat, procedure);
-  if (FAULT !== undefined) await testFault(records.some((r) => r.raw.includes(FAULT_MARKER)));
-  const out = [];
-  for (const r of records) {
-    const o = await processLine(r.raw, r.lineNo, invoker);
-    out.push(withRecords ? { ok: o.ok, text: fmt.line(o), record: o } : { ok: o.ok, text: fmt.line(o) });
-  }
-  return out;
-}
-
-/**
- * Batch, JSON Lines in: a chunk of whole input lines as bytes (its first line's number given) →
- * its output records, written out and encoded here, as bytes. Bytes cross between threads as one
- * copy; records as objects, or many small strings, cost the main thread more than answering them.
- */
-export async function jsonlChunk({ bytes, firstLine, outFormat, procedure, shard }: { bytes: Uint8Array; firstLine: number; outFormat: Format; procedure?: string | undefined; shard?: Shard | undefined }): Promise<ChunkAnswer> {
-  const text = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString("utf8");
-  if (FAULT !== undefined) await testFault(text.includes(FAULT_MARKER)); // no scan of every chunk in production
-  const answer = await answerJsonlChunk(text, firstLine, formatterOf(outFormat, procedure).line, invoker, shard);
+export async function batchChunk(task: ChunkTask): Promise<ChunkAnswer> {
+  if (FAULT !== undefined) await testFault(Buffer.from(task.bytes.buffer, task.bytes.byteOffset, task.bytes.byteLength).includes(FAULT_MARKER)); // no scan of every chunk in production
+  const answer = await answerChunk(task, formatterOf(task.outFormat, task.procedure).line, invoker);
   return moved(answer, answer.bytes.buffer as ArrayBuffer);
 }
 

@@ -3,20 +3,19 @@ import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { createInterface } from "node:readline";
-import { PassThrough, Readable } from "node:stream";
+import { Readable } from "node:stream";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { cutAfter, jsonlChunks, lineCountOf, linesOf, MAX_LINE_BYTES } from "../../adapters/batch/jsonl-chunk.js";
-import { runBatch } from "../../adapters/batch/run-batch.js";
-import { type StreamBatchOptions, streamBatch } from "../../adapters/batch/stream-batch.js";
+import { type StreamBatchOptions, streamBatch } from "../../adapters/batch/engine.js";
 import { demoContext } from "../helpers/app.js";
 import { builtCli } from "../helpers/build-once.js";
+import { readlineOracle } from "../helpers/batch-oracle.js";
 
 /**
- * The chunked JSON Lines path (bytes cut at line ends, answered in worker threads or in process)
- * writes the same bytes as the per-line path it replaced. Oracles: node:readline for the line
- * breaks, and `runBatch` (readline, one record at a time, JSON.stringify) and the per-record
- * streamBatch path for the output.
+ * The batch engine (input cut into chunks of whole lines as bytes, answered in worker threads or
+ * in process) writes what a plain reading writes. Oracles: node:readline for the line breaks, and
+ * readlineOracle (readline, one record at a time, the output format's line) for the output.
  */
 const good = (a: number) => ({ stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" }, supplyV: 12, load: { kind: "constant-current", currentA: a }, ambientC: 25 });
 
@@ -166,33 +165,13 @@ describe("where a chunk is cut", () => {
     );
   });
 
-  it("a line past MAX_LINE_BYTES is answered as too long without being held; the lines around it as in the per-record path", async () => {
+  it("a line past MAX_LINE_BYTES is answered as too long without being held; the lines around it as readline reads them", async () => {
     const around = (i: number) => JSON.stringify({ id: `r${i}`, procedure: "operatingPoint", input: good(1) });
     const huge = `{"id":"huge","pad":"${"x".repeat(MAX_LINE_BYTES + 10)}"}`;
     const text = `${around(1)}\n${huge}\r\n${around(2)}\n${huge}`;
-    const out = new PassThrough();
-    const parts: Buffer[] = [];
-    out.on("data", (c: Buffer) => parts.push(c));
-    await runBatch(piecesOf(Buffer.from(text), 1024 * 1024), out, demoContext());
-    const oracle = Buffer.concat(parts);
+    const oracle = await readlineOracle(Buffer.from(text), demoContext());
     const chunked = await collect((write) => streamBatch({ input: piecesOf(Buffer.from(text), 1024 * 1024), inFormat: "jsonl", outFormat: "jsonl", write, ctx: demoContext() }));
     expect(chunked.toString("utf8")).toBe(oracle.toString("utf8"));
-    // the per-record path (taken with a row hook, as for reports) reads the same chunks: the same record, the line not held
-    const rows: number[] = [];
-    const perRecord = await collect((write) => streamBatch({ input: piecesOf(Buffer.from(text), 1024 * 1024), inFormat: "jsonl", outFormat: "jsonl", write, ctx: demoContext(), onRow: (r) => void rows.push(r.line) }));
-    expect(perRecord.toString("utf8")).toBe(oracle.toString("utf8"));
-    expect(rows).toEqual([1, 2, 3, 4]);
-    // a row the hook refuses (a report that cannot be drawn) is written as that line's error row; the rest go on
-    const refused = await collect((write) =>
-      streamBatch({ input: piecesOf(Buffer.from(text), 1024 * 1024), inFormat: "jsonl", outFormat: "jsonl", write, ctx: demoContext(), onRow: (r) => (r.line === 1 ? { code: "report-failed", message: "cannot draw", issues: [] } : undefined) }),
-    );
-    const refusedRows = refused.toString("utf8").trim().split("\n").map((l) => JSON.parse(l) as { line: number; ok: boolean; error?: { code: string } });
-    expect(refusedRows.map((r) => [r.line, r.ok, r.error?.code])).toEqual([
-      [1, false, "report-failed"],
-      [2, false, "malformed-line"],
-      [3, true, undefined],
-      [4, false, "malformed-line"],
-    ]);
     const records = chunked.toString("utf8").trim().split("\n").map((l) => JSON.parse(l) as { line: number; ok: boolean; error?: { message: string } });
     expect(records.map((r) => [r.line, r.ok])).toEqual([
       [1, true],
@@ -234,31 +213,23 @@ async function collect(run: (write: (c: string | Uint8Array) => Promise<void>) =
   return Buffer.concat(parts);
 }
 
-describe("in process: the chunked path writes the bytes of the per-record path", () => {
+describe("in process: the engine writes what readline and processLine write", () => {
   const bytes = mixedBytes(900);
   const base = (extra: Partial<StreamBatchOptions>) => (write: (c: string | Uint8Array) => Promise<void>) =>
     streamBatch({ input: piecesOf(bytes, 4000), inFormat: "jsonl", outFormat: "jsonl", write, ctx: demoContext(), ...extra });
 
-  it("JSON Lines out, against runBatch and against the per-record path (taken with a row hook)", async () => {
-    const out = new PassThrough();
-    const parts: Buffer[] = [];
-    out.on("data", (c: Buffer) => parts.push(c));
-    await runBatch(piecesOf(bytes, 4000), out, demoContext());
-    const oracle = Buffer.concat(parts);
-    const chunked = await collect(base({ chunkBytes: 3000 }));
-    const perRecord = await collect(base({ onRow: () => undefined }));
+  it("JSON Lines out, chunks of any size", async () => {
+    const oracle = await readlineOracle(bytes, demoContext());
     // one record per line that is not blank (blank lines are skipped and counted apart)
     expect(oracle.toString("utf8").split("\n")).toHaveLength(await readlineLines(bytes, 1).then((l) => l.filter((x) => x.trim() !== "").length + 1));
-    expect(chunked.equals(oracle)).toBe(true);
-    expect(perRecord.equals(oracle)).toBe(true);
+    for (const chunkBytes of [1, 3000, 256 * 1024]) expect((await collect(base({ chunkBytes }))).equals(oracle)).toBe(true);
   });
 
-  it("CSV out and a shard: the same bytes as the per-record path", async () => {
+  it("CSV out and a shard", async () => {
     for (const extra of [{ outFormat: "csv" as const }, { shard: { index: 1, count: 3 } }, { outFormat: "csv" as const, procedure: "operatingPoint", shard: { index: 0, count: 2 } }]) {
       const chunked = await collect(base({ ...extra, chunkBytes: 5000 }));
-      const perRecord = await collect(base({ ...extra, onRow: () => undefined }));
       expect(chunked.length).toBeGreaterThan(1000);
-      expect(chunked.equals(perRecord)).toBe(true);
+      expect(chunked.equals(await readlineOracle(bytes, demoContext(), extra))).toBe(true);
     }
   });
 });
@@ -271,18 +242,18 @@ describe("built CLI: in process, one worker thread and two write the same bytes"
   const input = join(dir, "mixed.jsonl");
   writeFileSync(input, mixedBytes(6000));
 
-  it.each(["jsonl", "csv"])("JSON Lines in, %s out, against the in-process per-record oracle", async (fmt) => {
+  it.each(["jsonl", "csv"])("JSON Lines in, %s out, against readline and processLine", async (fmt) => {
     const outs = ["0", "1", "2"].map((w) => {
       const out = join(dir, `out-w${w}.${fmt}`);
       const r = run(["--in", input, "--out", out, "--workers", w]);
       expect(r.status, r.stderr).toBe(1); // some rows rejected
       return readFileSync(out);
     });
-    const oracle = await collect((write) => streamBatch({ input: Readable.from([readFileSync(input)]), inFormat: "jsonl", outFormat: fmt as "jsonl" | "csv", write, ctx: demoContext(), onRow: () => undefined }));
+    const oracle = await readlineOracle(readFileSync(input), demoContext(), { outFormat: fmt as "jsonl" | "csv" });
     for (const o of outs) expect(o.equals(oracle)).toBe(true);
   }, 120_000);
 
-  it("CSV in (the per-record path with threads): in process and two threads agree", () => {
+  it("CSV in: in process and two threads agree", () => {
     const csv = join(dir, "in.csv");
     const rows = ["id,procedure,stage.kind,stage.partId,supplyV,load.kind,load.currentA,ambientC"];
     for (let i = 0; i < 500; i += 1) rows.push(i % 9 === 4 ? `c${i},operatingPoint,catalog-part,missing,12 A,constant-current,1,25` : i % 9 === 7 ? `c${i},nope,,,,,,` : `c${i},operatingPoint,catalog-part,demo-schottky-5a-45v,12,constant-current,${(i % 30) / 10},25`);

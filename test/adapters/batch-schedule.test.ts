@@ -1,20 +1,21 @@
-import { PassThrough, Readable } from "node:stream";
+import { Readable } from "node:stream";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
+import { answerChunk, type ChunkAnswer, type ChunkTask } from "../../adapters/batch/answer.js";
+import { streamBatch } from "../../adapters/batch/engine.js";
 import { outputFormatter } from "../../adapters/batch/formats.js";
-import { answerJsonlChunk, type ChunkAnswer, jsonlChunks } from "../../adapters/batch/jsonl-chunk.js";
-import { runBatch } from "../../adapters/batch/run-batch.js";
-import { streamBatch } from "../../adapters/batch/stream-batch.js";
-import type { ComputePool, JsonlChunkTask } from "../../adapters/compute/pool.js";
+import { jsonlChunks } from "../../adapters/batch/jsonl-chunk.js";
+import type { ComputePool } from "../../adapters/compute/pool.js";
 import { procedureInvoker } from "../../api/procedure-registry.js";
 import { demoContext } from "../helpers/app.js";
+import { readlineOracle } from "../helpers/batch-oracle.js";
 
 /**
- * How the chunked JSON Lines path hands out chunks: to the pool's threads once they are up, to the
- * main thread whenever it is free, written in input order whoever answers and however long each
- * takes. The pool here is a stand-in in this thread that answers with the same function as a
- * worker thread after a delay of the test's choosing. Oracle: runBatch (readline, one record at a
- * time), as in batch-chunks.test.ts.
+ * How the batch engine hands out chunks: to the pool's threads once they are up, to the main
+ * thread whenever it is free, written in input order whoever answers and however long each takes;
+ * and how a chunk whose thread fails is answered row by row. The pool here is a stand-in in this
+ * thread that answers with the same function as a worker thread after a delay of the test's
+ * choosing. Oracle: readlineOracle (readline, one record at a time), as in batch-chunks.test.ts.
  */
 const good = (a: number) => ({ stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" }, supplyV: 12, load: { kind: "constant-current", currentA: a }, ambientC: 25 });
 
@@ -37,7 +38,7 @@ function piecesOf(bytes: Buffer, step: number): Readable {
 const sleep = (ms: number) => new Promise<void>((r) => setTimeout(r, ms));
 
 /** A pool of `threads` stand-in threads: each task answered after `delayMs(k)` (k: the task's number), ready after `readyMs`. */
-function standInPool(threads: number, readyMs: number, delayMs: (k: number) => number) {
+function standInPool(threads: number, readyMs: number, delayMs: (k: number) => number, fault?: (text: string, lines: number) => boolean) {
   const invoker = procedureInvoker(demoContext());
   const line = outputFormatter("jsonl", undefined).line;
   let tasks = 0;
@@ -49,16 +50,19 @@ function standInPool(threads: number, readyMs: number, delayMs: (k: number) => n
     call: () => Promise.reject(new Error("not used")),
     callJson: () => Promise.reject(new Error("not used")),
     report: () => Promise.reject(new Error("not used")),
-    lines: () => Promise.reject(new Error("not used")),
     ready: () => ready,
-    jsonlChunk: async (c: JsonlChunkTask): Promise<ChunkAnswer> => {
+    batchChunk: async (c: ChunkTask): Promise<ChunkAnswer> => {
       const k = tasks;
       tasks += 1;
       busy += 1;
       mostBusy = Math.max(mostBusy, busy);
       await sleep(delayMs(k));
       const text = Buffer.from(c.bytes.buffer, c.bytes.byteOffset, c.bytes.byteLength).toString("utf8");
-      const a = await answerJsonlChunk(text, c.firstLine, line, invoker, c.shard);
+      if (fault?.(text, c.lines) === true) {
+        busy -= 1;
+        throw new Error("stand-in thread failed");
+      }
+      const a = await answerChunk(c, line, invoker);
       busy -= 1;
       return a;
     },
@@ -67,13 +71,7 @@ function standInPool(threads: number, readyMs: number, delayMs: (k: number) => n
   return { pool, stats: () => ({ tasks, mostBusy }) };
 }
 
-async function oracleOf(bytes: Buffer): Promise<Buffer> {
-  const out = new PassThrough();
-  const parts: Buffer[] = [];
-  out.on("data", (c: Buffer) => parts.push(c));
-  await runBatch(piecesOf(bytes, 8192), out, demoContext());
-  return Buffer.concat(parts);
-}
+const oracleOf = (bytes: Buffer): Promise<Buffer> => readlineOracle(bytes, demoContext());
 
 async function chunked(bytes: Buffer, pool: ComputePool | undefined, opts: { piece: number; chunkBytes: number; writeMs?: (k: number) => number; poolOnly?: boolean }) {
   const parts: Buffer[] = [];
@@ -165,5 +163,22 @@ describe("chunks handed out as they are taken", () => {
     setTimeout(() => broken.destroy(new Error("input went away")), 20);
     await expect(streamBatch({ input: broken, inFormat: "jsonl", outFormat: "jsonl", ctx: demoContext(), pool, chunkBytes: 2000, write: () => Promise.resolve() })).rejects.toThrow("input went away");
   });
-});
 
+  it("a chunk whose thread fails is answered row by row: a row that fails again is an internal error row, every other row as without the fault", async () => {
+    const lines = inputBytes(300).toString("utf8").split("\n");
+    lines[40] = JSON.stringify({ id: "lost", procedure: "operatingPoint", input: good(1) });
+    lines[41] = ""; // a blank line in a failed chunk stays blank
+    const bytes = Buffer.from(lines.join("\n"));
+    // a chunk of several lines fails when it holds row 41; row 41 alone fails again
+    const { pool } = standInPool(2, 0, () => 0, (text, n) => text.includes('"lost"') || (n > 1 && text.includes('"r7"')));
+    const got = await chunked(bytes, pool, { piece: 4096, chunkBytes: 3000, poolOnly: true });
+    const want = (await oracleOf(bytes)).toString("utf8").split("\n");
+    const rows = got.bytes.toString("utf8").split("\n");
+    expect(rows).toHaveLength(want.length);
+    const lost = rows.map((r, i) => [r, i] as const).filter(([r]) => r !== "" && !(JSON.parse(r) as { ok: boolean }).ok && r.includes('"internal"'));
+    expect(lost.map(([r]) => JSON.parse(r) as { id: unknown; line: number; error: { message: string } }).map((r) => [r.id, r.line, r.error.message])).toEqual([["lost", 41, "the worker thread failed on this record: stand-in thread failed"]]);
+    for (const [i, r] of rows.entries()) if (i !== lost[0]?.[1]) expect(r).toBe(want[i]);
+    expect(got.counts.blank).toBe(1);
+    expect(got.counts.lines).toBe(299);
+  });
+});

@@ -3,7 +3,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { Readable } from "node:stream";
 import { afterEach, describe, expect, it } from "vitest";
-import { streamBatch } from "../../adapters/batch/stream-batch.js";
+import { streamBatch } from "../../adapters/batch/engine.js";
 import { loadCatalogFile } from "../../adapters/catalog/file-catalog.js";
 import { ruleSetFromText } from "../../adapters/rulesets/parse-rule-set.js";
 import { demoContext, testApp } from "../helpers/app.js";
@@ -58,9 +58,11 @@ describe("no prototype pollution through any entry point", () => {
     const lines = hostileBodies.map((b, i) => `{"id":${i},"procedure":"operatingPoint","input":${b}}`);
     lines.push(`{"id":"top","procedure":"operatingPoint","input":${op},"__proto__":{"polluted":"yes"}}`);
     const csv = ["id,procedure,__proto__.polluted,constructor.prototype.polluted,load.prototype.polluted", "1,operatingPoint,yes,,", "2,operatingPoint,,yes,", "3,operatingPoint,,,yes"].join("\n");
-    for (const [inFormat, text] of [["jsonl", lines.join("\n")], ["csv", csv]] as const) {
+    // with reports too: a line of a report procedure is read again to set its flag
+    const reports = { flags: { operatingPoint: "curves" }, onRow: () => undefined };
+    for (const [inFormat, text, extra] of [["jsonl", lines.join("\n"), {}], ["csv", csv, {}], ["jsonl", lines.join("\n"), { reports }]] as const) {
       const parts: string[] = [];
-      const counts = await streamBatch({ input: Readable.from([Buffer.from(text)]), inFormat, outFormat: "jsonl", write: async (c) => void parts.push(String(c)), ctx: demoContext(), onRow: () => undefined });
+      const counts = await streamBatch({ input: Readable.from([Buffer.from(text)]), inFormat, outFormat: "jsonl", write: async (c) => void parts.push(Buffer.from(c).toString("utf8")), ctx: demoContext(), ...extra });
       expect(counts.ok).toBe(0);
       expect(counts.failed).toBe(inFormat === "jsonl" ? lines.length : 3);
       expect(parts.join("")).toMatch(/never a field/);
