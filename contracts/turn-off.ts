@@ -84,8 +84,9 @@ export const turnOffMetrics = z.object({
   peakReverseCurrentA: z.number(),
   turnOffS: z.number().optional(),
   absorbedEnergyJ: z.number().optional(),
-  avalancheRatingJ: z.number().optional(),
-  avalancheEnergyRatio: z.number().optional().meta({ description: "absorbed energy / avalanche rating; above 1 exceeds it" }),
+  avalancheRatingJ: z.number().optional().meta({ description: "single-pulse avalanche rating at 25 °C starting Tj" }),
+  avalancheRatingAtTjJ: z.number().optional().meta({ description: "the rating derated to the event's starting Tj (what avalanche-energy reads as avalancheEnergyAtTjJ)" }),
+  avalancheEnergyRatio: z.number().optional().meta({ description: "absorbed energy / the rating at the event's Tj; above 1 exceeds it (absent when that rating is 0)" }),
   outputVoltageLostV: z.number(),
   fallsBelowLoadMinimumS: z.number().optional(),
 });
@@ -151,8 +152,9 @@ function eventOutcomes<H extends z.ZodRawShape>(h: H) {
           clampedFormulaJ: z.number().meta({ description: "½·L·I²·Vcl/(Vcl − Vs), Vs = output − input at turn-off" }),
           absorbedJ: z.number().meta({ description: "Vcl·∫|i|dt over the clamp phase, exact loop response" }),
           durationS: z.number(),
-          avalancheRatingJ: z.number().optional(),
-          withinAvalancheRating: z.boolean().optional(),
+          avalancheRatingJ: z.number().optional().meta({ description: "single-pulse avalanche rating at 25 °C starting Tj" }),
+          avalancheRatingAtTjJ: z.number().optional().meta({ description: "the rating derated linearly to zero at Tj(max), at the event's starting Tj (no credit below 25 °C)" }),
+          withinAvalancheRating: z.boolean().optional().meta({ description: "absorbedJ within avalancheRatingAtTjJ" }),
           after: windowState,
           energies,
         })

@@ -75,6 +75,7 @@ export const METRICS: readonly MetricDef[] = [
   { name: "peakReverseCurrentA", type: "number", unit: "A", meaning: "peak current flowing backwards through the stage when the input is shorted or steps lower (magnitude)", stageKinds: "all", providedBy: "turnOff" },
   { name: "absorbedEnergyJ", type: "number", unit: "J", meaning: "energy the blocking element absorbs clamping the loop inductance after it turns off (Vclamp·∫|i|dt); 0 when the current is back at zero by then or the stage never turns off", stageKinds: "all", providedBy: "turnOff" },
   { name: "eventTjC", type: "number", unit: "°C", meaning: "junction temperature of the stage when the event starts (the avalanche rating is derated from it)", stageKinds: "all", providedBy: "turnOff (its tjC)" },
+  { name: "avalancheEnergyAtTjJ", type: "number", unit: "J", meaning: "the blocking element's single-pulse avalanche rating at the event's starting junction temperature: part.avalancheEnergyJ derated linearly to 0 at Tj(max), no credit below 25 °C", stageKinds: "all", providedBy: "turnOff (from its tjC and the rating)" },
   { name: "holdUpS", type: "number", unit: "s", meaning: "time the output stays above the load's minimum after the input is lost, including the turn-off event", stageKinds: "all", providedBy: "holdUp (each stage)" },
   { name: "holdUpRequiredS", type: "number", unit: "s", meaning: "hold-up time the product must achieve", stageKinds: "all", providedBy: `${REQ}; holdUp's requiredHoldUpS` },
   { name: "reverseCurrentA", type: "number", unit: "A", meaning: "steady current flowing backwards through the stage into its source (a blocking stage's leakage included)", stageKinds: "all", providedBy: "oring (each branch)" },
@@ -169,7 +170,8 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
     },
   },
   absorbedEnergyJ: computed,
-  eventTjC: computed,
+  eventTjC: { role: "computed", notAssessed: { stageKinds: "all", reason: "the event's starting Tj is ruled through avalancheEnergyAtTjJ, the avalanche rating derated to it" } },
+  avalancheEnergyAtTjJ: computed,
   holdUpS: computed,
   holdUpRequiredS: requirement,
   reverseCurrentA: computed,
@@ -182,6 +184,7 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
 
 /** Part parameters a built-in set does not compare for some kinds, with why (see METRIC_ROLES). */
 export const PART_NOT_ASSESSED: Readonly<Record<string, NotAssessed>> = {
+  avalancheEnergyJ: { stageKinds: "all", reason: "the 25 °C rating is ruled through avalancheEnergyAtTjJ, the same rating derated to the event's starting Tj" },
   vgsMaxV: { stageKinds: CONTROLLER_PIN, reason: "the controller drives the gate from its own regulated supply; no analysis computes that drive against the MOSFET's Vgs rating" },
   ifrmA: { stageKinds: ["pfet-high-side", "nfet-low-side", "nfet-back-to-back"], reason: "only bridge elements carry a repetitive charging pulse (bridgeAc); these kinds are not bridge elements" },
 };

@@ -317,6 +317,15 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     twin: review({ ...req12, turnOff: { ...turnOffEvent, loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } }, idealDiode({ avalancheEnergyJ: "150 mJ" })),
   },
   {
+    id: "ideal-diode-avalanche-energy-hot-start",
+    hazard: "turn-off",
+    why: "the same 10 uH cut at about 9 A puts about 0.5 mJ into the MOSFET, within its 1 mJ rating at 25 °C but not within that rating derated to the event's 150 °C start (1 mJ·(175 − 150)/(175 − 25) ≈ 0.17 mJ)",
+    procedure: "review",
+    rule: "avalanche-energy",
+    bad: review({ ...req12, turnOff: { ...turnOffEvent, tjC: "150 degC", loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } }, idealDiode({ avalancheEnergyJ: "1 mJ" })),
+    twin: review({ ...req12, turnOff: { ...turnOffEvent, tjC: "150 degC", loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } }, idealDiode({ avalancheEnergyJ: "5 mJ" })),
+  },
+  {
     id: "ideal-diode-avalanche-current",
     hazard: "turn-off",
     why: "the reverse current at turn-off exceeds the MOSFET's avalanche current rating IAS though the energy is within EAS",

@@ -25,8 +25,11 @@ interface RuleCases {
 const p = (kind: string, metrics: Vals, part: Vals, threshold?: number, margin?: number): Case => ({ kind, metrics, part, ...(threshold === undefined ? {} : { threshold }), ...(margin === undefined ? {} : { margin }) });
 const v = (outcome: VerdictOutcome, c: Case) => ({ ...c, outcome });
 
-const AVALANCHE_PART = { avalancheEnergyJ: 0.1, tjMaxC: 175 };
-const NO_ENERGY = p("pn-diode", { absorbedEnergyJ: 0, eventTjC: 85 }, AVALANCHE_PART);
+// The avalanche rules read the rating at the event's Tj (avalancheEnergyAtTjJ, computed in
+// domain/checks/avalanche-derating.ts): EAS 100 mJ at 25 °C, Tj(max) 175 °C, event at 85 °C →
+// 0.1·(175 − 85)/(175 − 25) = 0.06 J (closed form, test/domain/checks/avalanche-derating.test.ts).
+const AT_85C = 0.06;
+const NO_ENERGY = p("pn-diode", { absorbedEnergyJ: 0, avalancheEnergyAtTjJ: AT_85C }, {});
 
 const DEFAULT: Record<string, RuleCases> = {
   "tj-limit": { pass: p("schottky-diode", { tjWorstC: 140 }, { tjMaxC: 150 }, 150, 10), violate: v("fail", p("schottky-diode", { tjWorstC: 151 }, { tjMaxC: 150 }, 150, -1)) },
@@ -55,14 +58,14 @@ const DEFAULT: Record<string, RuleCases> = {
   "loss-budget": { pass: p("schottky-diode", { lossWorstW: 0.75, lossBudgetW: 1 }, {}, 1, 0.25), violate: v("fail", p("schottky-diode", { lossWorstW: 1.5, lossBudgetW: 1 }, {}, 1, -0.5)) },
   // Avalanche: EAS 100 mJ at 25 °C, Tj(max) 175 °C, event at 85 °C → derated 0.1·(175 − 85)/(175 − 25) = 0.06 J.
   "avalanche-energy": {
-    pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.05, eventTjC: 85 }, AVALANCHE_PART, 0.06, 0.01),
-    violate: v("fail", p("nfet-ideal-diode", { absorbedEnergyJ: 0.07, eventTjC: 85 }, AVALANCHE_PART, 0.06, -0.01)),
+    pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.05, avalancheEnergyAtTjJ: AT_85C }, {}, 0.06, 0.01),
+    violate: v("fail", p("nfet-ideal-diode", { absorbedEnergyJ: 0.07, avalancheEnergyAtTjJ: AT_85C }, {}, 0.06, -0.01)),
     off: NO_ENERGY,
   },
   // 0.8 · 0.06 = 0.048 J.
   "avalanche-energy-margin": {
-    pass: p("schottky-diode", { absorbedEnergyJ: 0.04, eventTjC: 85 }, AVALANCHE_PART, 0.048, 0.008),
-    violate: v("warn", p("schottky-diode", { absorbedEnergyJ: 0.05, eventTjC: 85 }, AVALANCHE_PART, 0.048, -0.002)),
+    pass: p("schottky-diode", { absorbedEnergyJ: 0.04, avalancheEnergyAtTjJ: AT_85C }, {}, 0.048, 0.008),
+    violate: v("warn", p("schottky-diode", { absorbedEnergyJ: 0.05, avalancheEnergyAtTjJ: AT_85C }, {}, 0.048, -0.002)),
     off: NO_ENERGY,
   },
   "hold-up-time": { pass: p("schottky-diode", { holdUpS: 0.003, holdUpRequiredS: 0.002 }, {}, 0.002, 0.001), violate: v("fail", p("pfet-high-side", { holdUpS: 0.0015, holdUpRequiredS: 0.002 }, {}, 0.002, -0.0005)) },
@@ -125,13 +128,13 @@ const VEHICLE: Record<string, RuleCases> = {
   "gate-drive-at-min-supply": { pass: p("nfet-low-side", { gateDriveMinV: 6 }, { vgsOnV: 4.5 }, 4.5, 1.5), violate: v("fail", p("nfet-low-side", { gateDriveMinV: 3.5 }, { vgsOnV: 4.5 }, 4.5, -1)) },
   // 0.8 · 0.06 J = 0.048 J; 0.6 · 0.06 J = 0.036 J.
   "avalanche-energy": {
-    pass: p("pfet-high-side", { absorbedEnergyJ: 0.04, eventTjC: 85 }, AVALANCHE_PART, 0.048, 0.008),
-    violate: v("fail", p("pfet-high-side", { absorbedEnergyJ: 0.05, eventTjC: 85 }, AVALANCHE_PART, 0.048, -0.002)),
+    pass: p("pfet-high-side", { absorbedEnergyJ: 0.04, avalancheEnergyAtTjJ: AT_85C }, {}, 0.048, 0.008),
+    violate: v("fail", p("pfet-high-side", { absorbedEnergyJ: 0.05, avalancheEnergyAtTjJ: AT_85C }, {}, 0.048, -0.002)),
     off: NO_ENERGY,
   },
   "avalanche-energy-margin": {
-    pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.03, eventTjC: 85 }, AVALANCHE_PART, 0.036, 0.006),
-    violate: v("warn", p("nfet-ideal-diode", { absorbedEnergyJ: 0.04, eventTjC: 85 }, AVALANCHE_PART, 0.036, -0.004)),
+    pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.03, avalancheEnergyAtTjJ: AT_85C }, {}, 0.036, 0.006),
+    violate: v("warn", p("nfet-ideal-diode", { absorbedEnergyJ: 0.04, avalancheEnergyAtTjJ: AT_85C }, {}, 0.036, -0.004)),
     off: NO_ENERGY,
   },
   // 1.25 · 2 ms = 2.5 ms (fail); 1.5 · 2 ms = 3 ms (warn).
@@ -176,8 +179,8 @@ const CONSUMER: Record<string, RuleCases> = {
   "standby-quiescent": { pass: p("nfet-ideal-diode", { quiescentA: 50e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, 50e-6), violate: v("warn", p("nfet-ideal-diode", { quiescentA: 150e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, -50e-6)) },
   // 0.9 · 0.06 J = 0.054 J; 1.1 · 2 ms = 2.2 ms; 0.9 · 10 A = 9 A.
   "avalanche-energy-margin": {
-    pass: p("nfet-low-side", { absorbedEnergyJ: 0.05, eventTjC: 85 }, AVALANCHE_PART, 0.054, 0.004),
-    violate: v("warn", p("nfet-low-side", { absorbedEnergyJ: 0.058, eventTjC: 85 }, AVALANCHE_PART, 0.054, -0.004)),
+    pass: p("nfet-low-side", { absorbedEnergyJ: 0.05, avalancheEnergyAtTjJ: AT_85C }, {}, 0.054, 0.004),
+    violate: v("warn", p("nfet-low-side", { absorbedEnergyJ: 0.058, avalancheEnergyAtTjJ: AT_85C }, {}, 0.054, -0.004)),
     off: NO_ENERGY,
   },
   "hold-up-margin": { pass: p("pn-diode", { holdUpS: 0.0025, holdUpRequiredS: 0.002 }, {}, 0.0022, 0.0003), violate: v("warn", p("pn-diode", { holdUpS: 0.0021, holdUpRequiredS: 0.002 }, {}, 0.0022, -0.0001)) },
