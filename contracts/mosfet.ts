@@ -50,6 +50,7 @@ export const mosfet = z
       })
       .optional()
       .meta({ description: "datasheet off-state leakage IDSS, scaled in temperature by the body diode's Is(T) law (default: Is(T) of the body diode model)" }),
+    repetitiveAvalancheEnergyJ: quantity("J", "repetitive avalanche energy rating EAR, per event (for the turn-off rules when the event repeats)", { gt: 0, le: 1e6 }).optional(),
   })
   .superRefine((m, ctx) => {
     m.rdsOn.forEach((p, i) => {

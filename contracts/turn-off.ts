@@ -30,6 +30,11 @@ export const turnOffTiming = z
   })
   .meta({ description: "reverse-current turn-off of a controller; default: the stage controller's reverseThresholdV and turnOffDelayS" });
 
+export const repetitiveEvent = z
+  .boolean()
+  .optional()
+  .meta({ description: "the event repeats in service (each switch-off, each pulse of a train), not a one-off fault: the absorbed energy is then also held to the MOSFET's repetitive avalanche rating EAR (default false)" });
+
 /** The fields the turn-off event and the hold-up of a falling input share. */
 export const fallingInputFields = {
   stage: stageInput,
@@ -49,6 +54,7 @@ export const turnOffInput = z
   .strictObject({
     ...fallingInputFields,
     avalancheRatingJ: quantity("J", "single-pulse avalanche energy rating of the blocking element at 25 °C starting Tj (default: the part's avalancheEnergyJ)", { gt: 0, le: 1e6 }).optional(),
+    repetitive: repetitiveEvent,
     ruleSet: ruleSetRef.optional().meta({ description: "when given, the result carries this rule set's verdicts (docs/metrics.md lists what this analysis provides)" }),
     ruleMetrics: metricRecord.optional().meta({ description: "requirement metrics for the rules that this analysis does not compute (parallelSources, reverseVMaxV, reverseCurrentBudgetA, ...)" }),
     waveform: z.boolean().optional().meta({ description: "also return the event as time samples (loop current, output and capacitor voltage), for charts (default false)" }),

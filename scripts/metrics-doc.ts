@@ -78,6 +78,7 @@ const RULE_HAZARDS: Readonly<Record<string, string>> = {
   "avalanche-energy": "turn-off (avalanche)",
   "avalanche-energy-margin": "turn-off (avalanche)",
   "avalanche-current": "turn-off (avalanche)",
+  "avalanche-energy-repetitive": "turn-off (avalanche)",
   "hold-up-time": "hold-up",
   "hold-up-margin": "hold-up",
   "standby-quiescent": "standby",

@@ -30,14 +30,14 @@ export const TURN_OFF_COMPUTES = ["peakReverseCurrentA", "absorbedEnergyJ", "eve
 /**
  * turnOff → rules: peakReverseCurrentA, absorbedEnergyJ (the clamp phase's Vcl·∫|i|dt; 0 when the
  * current is back at zero by turn-off, or when the stage never turns off and so never clamps),
- * eventTjC (the request's tjC), part.avalancheEnergyJ (the request's avalancheRatingJ, else the
+ * eventTjC (the request's tjC), turnOffRepetitive (its repetitive), part.avalancheEnergyJ (the request's avalancheRatingJ, else the
  * stage's) and avalancheEnergyAtTjJ (that rating derated to eventTjC). Energy absorbed without a
  * rating is a gap in the evidence (unavailable), not out of scope: the element is stressed and
  * nothing says it survives.
  */
-export function turnOffRuleInput(stage: StageModel, r: TurnOffOutcome, tjC: number, avalancheRatingJ: number | undefined, caller: Caller): RuleInput {
+export function turnOffRuleInput(stage: StageModel, r: TurnOffOutcome, event: { readonly tjC: number; readonly repetitive: boolean }, avalancheRatingJ: number | undefined, caller: Caller): RuleInput {
   const d = stageDraft(stage, caller);
-  putEventAvalanche(stage, tjC, avalancheRatingJ, d, "the stage gives no avalanche energy rating: give avalancheRatingJ, or the part's avalancheEnergyJ");
+  putEventAvalanche(stage, event, avalancheRatingJ, d, "the stage gives no avalanche energy rating: give avalancheRatingJ, or the part's avalancheEnergyJ");
   switch (r.outcome) {
     case "blocks":
       d.metrics["peakReverseCurrentA"] = r.peakReverseCurrentA;

@@ -111,7 +111,7 @@ export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags
  * rating; an absorbed energy without a rating is a gap, not out of scope.
  */
 function turnOffMetrics(stage: StageModel, t: ReviewTurnOffResult, metrics: Record<string, number | boolean>, part: Record<string, number>, unavailable: Record<string, string>): void {
-  putEventAvalanche(stage, t.tjC, t.avalancheRatingJ, { metrics, part, unavailable }, "the stage gives no avalanche energy rating (the part's avalancheEnergyJ)");
+  putEventAvalanche(stage, t, t.avalancheRatingJ, { metrics, part, unavailable }, "the stage gives no avalanche energy rating (the part's avalancheEnergyJ)");
   const r = t.result;
   switch (r.outcome) {
     case "blocks":

@@ -52,7 +52,7 @@ export const ANALYSIS_ONLY_METRICS: Readonly<Record<string, readonly string[]>> 
     "startProfileMinV",
     "startProfileDropoutS",
   ],
-  turnOff: ["peakReverseCurrentA", "absorbedEnergyJ", "eventTjC", "avalancheEnergyAtTjJ"],
+  turnOff: ["peakReverseCurrentA", "absorbedEnergyJ", "eventTjC", "avalancheEnergyAtTjJ", "turnOffRepetitive"],
   holdUp: ["holdUpS", "holdUpRequiredS"],
   oring: ["reverseCurrentA", "reverseCurrentBudgetA"],
   batteryCharge: ["targetCanDrainSource"],
@@ -85,19 +85,22 @@ export function putPeakReverse(r: { readonly peakReverseCurrentA: number; readon
 }
 
 /**
- * The turn-off event's starting Tj and its avalanche rating for the rules: eventTjC, the 25 °C
- * rating as part.avalancheEnergyJ and avalancheEnergyAtTjJ, that rating derated to eventTjC
- * (domain/checks/avalanche-derating.ts), which the avalanche-energy rules read. Without a rating
- * both are unavailable with `missing` (a gap: the element is stressed and nothing says it survives).
+ * The turn-off event's starting Tj, whether it repeats, and its avalanche rating for the rules:
+ * eventTjC, turnOffRepetitive, the 25 °C rating as part.avalancheEnergyJ and
+ * avalancheEnergyAtTjJ, that rating derated to eventTjC (domain/checks/avalanche-derating.ts),
+ * which the avalanche-energy rules read. Without a rating both are unavailable with `missing` (a
+ * gap: the element is stressed and nothing says it survives).
  */
 export function putEventAvalanche(
   stage: StageModel,
-  tjC: number,
+  event: { readonly tjC: number; readonly repetitive: boolean },
   ratingJ: number | undefined,
   into: { readonly metrics: Record<string, number | boolean>; readonly part: Record<string, number>; readonly unavailable: Record<string, string> },
   missing: string,
 ): void {
+  const tjC = event.tjC;
   into.metrics["eventTjC"] = tjC;
+  into.metrics["turnOffRepetitive"] = event.repetitive;
   if (ratingJ === undefined) {
     into.unavailable["part.avalancheEnergyJ"] = missing;
     into.unavailable["avalancheEnergyAtTjJ"] = missing;

@@ -46,6 +46,8 @@ export interface MosfetModel {
   readonly avalancheCurrentA?: number;
   /** Off-state drain-source leakage IDSS at the rated VDS and a junction temperature (the body diode's reverse current), scaled in temperature by the body diode's Is(T); absent: Is(T) of the body diode. */
   readonly offStateLeakage?: DatasheetLeakage;
+  /** Repetitive avalanche energy rating EAR, J per event; absent: not rated. */
+  readonly repetitiveAvalancheEnergyJ?: number;
 }
 
 /** P-channel MOSFET in the supply line, gate pulled to ground: |Vgs| = min(Vout, clamp). */

@@ -326,6 +326,15 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     twin: review({ ...req12, turnOff: { ...turnOffEvent, tjC: "150 degC", loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } }, idealDiode({ avalancheEnergyJ: "5 mJ" })),
   },
   {
+    id: "ideal-diode-repetitive-avalanche-energy",
+    hazard: "turn-off",
+    why: "the 10 uH cut at about 9 A repeats in service: about 0.5 mJ a time is far within the 150 mJ single-pulse rating but above the MOSFET's 0.3 mJ repetitive rating EAR",
+    procedure: "review",
+    rule: "avalanche-energy-repetitive",
+    bad: review({ ...req12, turnOff: { ...turnOffEvent, repetitive: true, loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } }, idealDiode({ repetitiveAvalancheEnergyJ: "0.3 mJ" })),
+    twin: review({ ...req12, turnOff: { ...turnOffEvent, repetitive: true, loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } }, idealDiode({ repetitiveAvalancheEnergyJ: "1 mJ" })),
+  },
+  {
     id: "ideal-diode-avalanche-current",
     hazard: "turn-off",
     why: "the reverse current at turn-off exceeds the MOSFET's avalanche current rating IAS though the energy is within EAS",

@@ -104,6 +104,12 @@ const DEFAULT: Record<string, RuleCases> = {
     pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 30 }, { avalancheCurrentA: 40 }, 40, 10),
     violate: v("fail", p("pfet-high-side", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 50 }, { avalancheCurrentA: 40 }, 40, -10)),
   },
+  // A repeating event's energy against EAR 1 mJ: 0.6 mJ passes (margin 0.4 mJ), 1.2 mJ fails; a one-off event is off.
+  "avalanche-energy-repetitive": {
+    pass: p("nfet-ideal-diode", { turnOffRepetitive: true, absorbedEnergyJ: 0.6e-3 }, { repetitiveAvalancheEnergyJ: 1e-3 }, 1e-3, 0.4e-3),
+    violate: v("fail", p("pfet-high-side", { turnOffRepetitive: true, absorbedEnergyJ: 1.2e-3 }, { repetitiveAvalancheEnergyJ: 1e-3 }, 1e-3, -0.2e-3)),
+    off: p("nfet-low-side", { turnOffRepetitive: false, absorbedEnergyJ: 1.2e-3 }, { repetitiveAvalancheEnergyJ: 1e-3 }),
+  },
   "start-at-profile-minimum": { pass: p("nfet-ideal-diode", { startVoltageV: 3.2, startProfileMinV: 4.5 }, {}, 4.5, 1.3), violate: v("fail", p("integrated-switch", { startVoltageV: 5, startProfileMinV: 4.5 }, {}, 4.5, -0.5)) },
   "start-profile-no-dropout": { pass: p("pn-diode", { startProfileDropoutS: 0 }, {}, 0, 0), violate: v("fail", p("pn-diode", { startProfileDropoutS: 0.02 }, {}, 0, -0.02)) },
 };
@@ -131,6 +137,12 @@ const VEHICLE: Record<string, RuleCases> = {
     pass: p("pfet-high-side", { absorbedEnergyJ: 0.04, avalancheEnergyAtTjJ: AT_85C }, {}, 0.048, 0.008),
     violate: v("fail", p("pfet-high-side", { absorbedEnergyJ: 0.05, avalancheEnergyAtTjJ: AT_85C }, {}, 0.048, -0.002)),
     off: NO_ENERGY,
+  },
+  // 0.9 · EAR 1 mJ = 0.9 mJ.
+  "avalanche-energy-repetitive": {
+    pass: p("nfet-ideal-diode", { turnOffRepetitive: true, absorbedEnergyJ: 0.6e-3 }, { repetitiveAvalancheEnergyJ: 1e-3 }, 0.9e-3, 0.3e-3),
+    violate: v("fail", p("nfet-low-side", { turnOffRepetitive: true, absorbedEnergyJ: 0.95e-3 }, { repetitiveAvalancheEnergyJ: 1e-3 }, 0.9e-3, -0.05e-3)),
+    off: p("pfet-high-side", { turnOffRepetitive: false, absorbedEnergyJ: 0.95e-3 }, { repetitiveAvalancheEnergyJ: 1e-3 }),
   },
   "avalanche-energy-margin": {
     pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.03, avalancheEnergyAtTjJ: AT_85C }, {}, 0.036, 0.006),
