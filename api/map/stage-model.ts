@@ -124,6 +124,7 @@ function toMosfet(m: MosfetSpec, path: (string | number)[], assumptions: string[
     ...(m.avalancheCurrentA === undefined ? {} : { avalancheCurrentA: m.avalancheCurrentA }),
     ...(m.offStateLeakage === undefined ? {} : { offStateLeakage: { currentA: m.offStateLeakage.currentA, tempK: cToK(m.offStateLeakage.tempC) } }),
     ...(m.repetitiveAvalancheEnergyJ === undefined ? {} : { repetitiveAvalancheEnergyJ: m.repetitiveAvalancheEnergyJ }),
+    ...(m.vdsTempCoPerK === undefined ? {} : { vdsTempCoPerK: m.vdsTempCoPerK }),
   };
 }
 

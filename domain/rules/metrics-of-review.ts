@@ -1,6 +1,7 @@
 import { behaviourOf } from "../stages/stage-behaviours.js";
 import type { CandidateReview, ReviewRequirement } from "../review/candidate-review.js";
 import type { ReviewTurnOffResult } from "../review/review-turn-off.js";
+import { mosfetBreakdownColdV } from "../checks/breakdown-temperature.js";
 import type { RuleInput } from "./rule-model.js";
 import type { StageModel } from "../stages/stage-model.js";
 import { otherAnalysesMetrics, putEventAvalanche, putPeakReverse } from "./rule-input-draft.js";
@@ -29,6 +30,7 @@ export const REVIEW_COMPUTES = [
   "absorbedEnergyJ",
   "eventTjC",
   "avalancheEnergyAtTjJ",
+  "vdsBreakdownColdV",
 ] as const;
 
 export interface RequirementFlags {
@@ -92,6 +94,8 @@ export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags
   }
   const negative = r.transients.filter((t) => t.polarity === "negative").map((t) => t.stresses[0]?.seenV ?? 0);
   metrics["reverseTransientVMaxV"] = Math.max(req.reverseV, ...negative);
+  const coldV = mosfetBreakdownColdV(stage, req.ambientMinC);
+  if (coldV !== undefined) metrics["vdsBreakdownColdV"] = coldV;
   const positive = r.transients.filter((t) => t.polarity === "positive").map((t) => t.inputPeakV);
   // Jump start is a steady overvoltage for about a minute: the input-side ratings see it too.
   metrics["transientVMaxV"] = Math.max(req.supplyMaxV, req.jumpStartV ?? 0, ...positive);

@@ -51,6 +51,7 @@ export const ANALYSIS_ONLY_METRICS: Readonly<Record<string, readonly string[]>> 
     "jumpStartV",
     "startProfileMinV",
     "startProfileDropoutS",
+    "vdsBreakdownColdV",
   ],
   turnOff: ["peakReverseCurrentA", "absorbedEnergyJ", "eventTjC", "avalancheEnergyAtTjJ", "turnOffRepetitive"],
   holdUp: ["holdUpS", "holdUpRequiredS"],

@@ -48,6 +48,8 @@ export interface MosfetModel {
   readonly offStateLeakage?: DatasheetLeakage;
   /** Repetitive avalanche energy rating EAR, J per event; absent: not rated. */
   readonly repetitiveAvalancheEnergyJ?: number;
+  /** Temperature coefficient of the drain-source breakdown, 1/K; absent: DEFAULT_VDS_TEMPCO_PER_K. */
+  readonly vdsTempCoPerK?: number;
 }
 
 /** P-channel MOSFET in the supply line, gate pulled to ground: |Vgs| = min(Vout, clamp). */

@@ -335,6 +335,15 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     twin: review({ ...req12, turnOff: { ...turnOffEvent, repetitive: true, loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } }, idealDiode({ repetitiveAvalancheEnergyJ: "1 mJ" })),
   },
   {
+    id: "ideal-diode-vds-breakdown-cold",
+    hazard: "transient",
+    why: "a 44 V input clamp holds pulse 1 to about 57.5 V across the blocking 60 V MOSFET: within its 25 °C rating, above its breakdown at −40 °C (60 V·(1 − 0.001·65) = 56.1 V)",
+    procedure: "review",
+    rule: "fet-vds-reverse-transient-cold",
+    bad: review({ ...req12, transients: ["iso7637-2-pulse-1-12v"], inputClamp: clamp({ clampV: 44 }) }, idealDiode()),
+    twin: review({ ...req12, transients: ["iso7637-2-pulse-1-12v"], inputClamp: clamp({ clampV: 36 }) }, idealDiode()),
+  },
+  {
     id: "ideal-diode-avalanche-current",
     hazard: "turn-off",
     why: "the reverse current at turn-off exceeds the MOSFET's avalanche current rating IAS though the energy is within EAS",

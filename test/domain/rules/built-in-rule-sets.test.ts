@@ -41,6 +41,11 @@ const DEFAULT: Record<string, RuleCases> = {
   "fet-vds-reverse-steady": { pass: p("pfet-high-side", { reverseVMaxV: 14 }, { vdsMaxV: 40 }, 32, 18), violate: v("fail", p("pfet-high-side", { reverseVMaxV: 33 }, { vdsMaxV: 40 }, 32, -1)) },
   "fet-vds-reverse-transient": { pass: p("nfet-ideal-diode", { reverseTransientVMaxV: 38 }, { vdsMaxV: 40 }, 40, 2), violate: v("fail", p("nfet-ideal-diode", { reverseTransientVMaxV: 50 }, { vdsMaxV: 40 }, 40, -10)) },
   "pair-forward-blocking": { pass: p("nfet-back-to-back", { supplyMaxV: 16, transientVMaxV: 36 }, { vdsMaxV: 40 }, 40, 4), violate: v("fail", p("nfet-back-to-back", { supplyMaxV: 16, transientVMaxV: 42 }, { vdsMaxV: 40 }, 40, -2)) },
+  // The cold breakdown of a 60 V MOSFET at −40 °C, +0.1 %/K: 60·(1 − 0.001·65) = 56.1 V.
+  "fet-vds-reverse-transient-cold": {
+    pass: p("nfet-ideal-diode", { reverseTransientVMaxV: 50, vdsBreakdownColdV: 56.1 }, {}, 56.1, 6.1),
+    violate: v("fail", p("pfet-high-side", { reverseTransientVMaxV: 58, vdsBreakdownColdV: 56.1 }, {}, 56.1, -1.9)),
+  },
   "fet-vgs-limit": { pass: p("pfet-high-side", { gateSourceVMaxV: 16 }, { vgsMaxV: 20 }, 20, 4), violate: v("fail", p("pfet-high-side", { gateSourceVMaxV: 24 }, { vgsMaxV: 20 }, 20, -4)) },
   "fet-vgs-derated": { pass: p("nfet-low-side", { gateSourceVMaxV: 15 }, { vgsMaxV: 20 }, 16, 1), violate: v("warn", p("nfet-low-side", { gateSourceVMaxV: 18 }, { vgsMaxV: 20 }, 16, -2)) },
   "controller-input-max": {
@@ -124,6 +129,11 @@ const VEHICLE: Record<string, RuleCases> = {
   "fet-vds-reverse-steady": { pass: p("nfet-low-side", { reverseVMaxV: 14 }, { vdsMaxV: 40 }, 28, 14), violate: v("fail", p("nfet-low-side", { reverseVMaxV: 30 }, { vdsMaxV: 40 }, 28, -2)) },
   "fet-vds-reverse-transient": { pass: p("nfet-ideal-diode", { reverseTransientVMaxV: 35 }, { vdsMaxV: 40 }, 36, 1), violate: v("fail", p("nfet-ideal-diode", { reverseTransientVMaxV: 38 }, { vdsMaxV: 40 }, 36, -2)) },
   "pair-forward-blocking": { pass: p("nfet-back-to-back", { supplyMaxV: 16, transientVMaxV: 35 }, { vdsMaxV: 40 }, 36, 1), violate: v("fail", p("nfet-back-to-back", { supplyMaxV: 16, transientVMaxV: 38 }, { vdsMaxV: 40 }, 36, -2)) },
+  // 0.9 · 56.1 V = 50.49 V.
+  "fet-vds-reverse-transient-cold": {
+    pass: p("nfet-ideal-diode", { reverseTransientVMaxV: 48, vdsBreakdownColdV: 56.1 }, {}, 50.49, 2.49),
+    violate: v("fail", p("nfet-low-side", { reverseTransientVMaxV: 52, vdsBreakdownColdV: 56.1 }, {}, 50.49, -1.51)),
+  },
   "fet-vgs-derated": { pass: p("nfet-low-side", { gateSourceVMaxV: 13 }, { vgsMaxV: 20 }, 14, 1), violate: v("warn", p("nfet-low-side", { gateSourceVMaxV: 15 }, { vgsMaxV: 20 }, 14, -1)) },
   "controller-input-max": {
     pass: p("nfet-ideal-diode", { supplyMaxV: 16, transientVMaxV: 35 }, { maxInputV: 60 }, 54, 19),
