@@ -10,13 +10,18 @@ import { KNOWN_BAD } from "./designs.js";
 type Clamp = { absorbedJ: number; avalancheRatingJ: number; avalancheRatingAtTjJ: number; withinAvalancheRating: boolean };
 type Out = { candidates: { turnOff: { tjC: number; event: { outcome: string; clamp?: Clamp; metrics: Record<string, number> } } }[] };
 
+/** The review of a known-bad design's bad variant (under a rule set when given). */
+async function reviewBad(id: string, ruleSet?: string): Promise<unknown> {
+  const d = KNOWN_BAD.find((x) => x.id === id);
+  if (d === undefined) throw new Error(`design ${id} missing`);
+  const call = procedureInvoker(demoContext())("review");
+  if (call === undefined) throw new Error("no review");
+  return call(ruleSet === undefined ? d.bad : { ...d.bad, ruleSet });
+}
+
 describe("ideal-diode-avalanche-energy-hot-start", () => {
   it("absorbs less than EAS at 25 °C and more than EAS derated to 150 °C; the result reports both", async () => {
-    const d = KNOWN_BAD.find((x) => x.id === "ideal-diode-avalanche-energy-hot-start");
-    if (d === undefined) throw new Error("design missing");
-    const call = procedureInvoker(demoContext())("review");
-    if (call === undefined) throw new Error("no review");
-    const out = (await call(d.bad)) as Out;
+    const out = (await reviewBad("ideal-diode-avalanche-energy-hot-start")) as Out;
     const t = out.candidates[0]?.turnOff;
     expect(t?.tjC).toBe(150);
     const c = t?.event.clamp;
@@ -33,11 +38,7 @@ describe("ideal-diode-avalanche-energy-hot-start", () => {
 
 describe("ideal-diode-vds-breakdown-cold", () => {
   it("stresses the MOSFET within its 25 °C rating and above its breakdown at −40 °C (default set)", async () => {
-    const d = KNOWN_BAD.find((x) => x.id === "ideal-diode-vds-breakdown-cold");
-    if (d === undefined) throw new Error("design missing");
-    const call = procedureInvoker(demoContext())("review");
-    if (call === undefined) throw new Error("no review");
-    const out = (await call({ ...d.bad, ruleSet: "default" })) as { candidates: { metrics: Record<string, number>; rules: { verdicts: { ruleId: string; outcome: string }[] } }[] };
+    const out = (await reviewBad("ideal-diode-vds-breakdown-cold", "default")) as { candidates: { metrics: Record<string, number>; rules: { verdicts: { ruleId: string; outcome: string }[] } }[] };
     const c = out.candidates[0];
     if (c === undefined) throw new Error("no candidate");
     // Closed form: 60 V·(1 + 0.001·(−40 − 25)) = 56.1 V.
