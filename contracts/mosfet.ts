@@ -50,6 +50,13 @@ export const mosfet = z
       })
       .optional()
       .meta({ description: "datasheet off-state leakage IDSS, scaled in temperature by the body diode's Is(T) law (default: Is(T) of the body diode model)" }),
+    vdsTempCoPerK: z
+      .number()
+      .min(0)
+      .max(0.003)
+      .optional()
+      .meta({ description: "temperature coefficient of the drain-source breakdown voltage, per kelvin (0.001 = +0.1 %/K); the review derates vdsMaxV with it to the coldest ambient (default 0.001, memory)" }),
+    repetitiveAvalancheEnergyJ: quantity("J", "repetitive avalanche energy rating EAR, per event (for the turn-off rules when the event repeats)", { gt: 0, le: 1e6 }).optional(),
   })
   .superRefine((m, ctx) => {
     m.rdsOn.forEach((p, i) => {

@@ -2,7 +2,7 @@ import { z } from "zod";
 import { profilePointCount, START_PROFILE_IDS, START_PROFILE_POINTS } from "../domain/checks/start-profiles.js";
 import { load } from "./load.js";
 import { quantity, ratio, temperatureC } from "./quantity.js";
-import { holdUpCapacitor, reverseLoop, turnOffTiming } from "./turn-off.js";
+import { holdUpCapacitor, repetitiveEvent, reverseLoop, turnOffTiming } from "./turn-off.js";
 
 const volts = (d: string) => quantity("V", d, { gt: 0, le: 10_000 });
 
@@ -41,6 +41,7 @@ export const reviewTurnOff = z
     timing: turnOffTiming.optional(),
     reverseRecoveryChargeC: quantity("C", "a diode stage's reverse-recovery charge Qrr (default 0: ideal)", { ge: 0, le: 1 }).optional(),
     clampV: quantity("V", "voltage the blocking element clamps the inductive energy at (default: its rated voltage)", { gt: 0, le: 10_000 }).optional(),
+    repetitive: repetitiveEvent,
   })
   .meta({ description: "the input shorted or stepping lower: each candidate's reverse-current peak, turn-off and absorbed energy (the turnOff analysis), for the avalanche and reverse-current rules" });
 

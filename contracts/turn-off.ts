@@ -30,6 +30,11 @@ export const turnOffTiming = z
   })
   .meta({ description: "reverse-current turn-off of a controller; default: the stage controller's reverseThresholdV and turnOffDelayS" });
 
+export const repetitiveEvent = z
+  .boolean()
+  .optional()
+  .meta({ description: "the event repeats in service (each switch-off, each pulse of a train), not a one-off fault: the absorbed energy is then also held to the MOSFET's repetitive avalanche rating EAR (default false)" });
+
 /** The fields the turn-off event and the hold-up of a falling input share. */
 export const fallingInputFields = {
   stage: stageInput,
@@ -49,6 +54,7 @@ export const turnOffInput = z
   .strictObject({
     ...fallingInputFields,
     avalancheRatingJ: quantity("J", "single-pulse avalanche energy rating of the blocking element at 25 °C starting Tj (default: the part's avalancheEnergyJ)", { gt: 0, le: 1e6 }).optional(),
+    repetitive: repetitiveEvent,
     ruleSet: ruleSetRef.optional().meta({ description: "when given, the result carries this rule set's verdicts (docs/metrics.md lists what this analysis provides)" }),
     ruleMetrics: metricRecord.optional().meta({ description: "requirement metrics for the rules that this analysis does not compute (parallelSources, reverseVMaxV, reverseCurrentBudgetA, ...)" }),
     waveform: z.boolean().optional().meta({ description: "also return the event as time samples (loop current, output and capacitor voltage), for charts (default false)" }),
@@ -84,8 +90,9 @@ export const turnOffMetrics = z.object({
   peakReverseCurrentA: z.number(),
   turnOffS: z.number().optional(),
   absorbedEnergyJ: z.number().optional(),
-  avalancheRatingJ: z.number().optional(),
-  avalancheEnergyRatio: z.number().optional().meta({ description: "absorbed energy / avalanche rating; above 1 exceeds it" }),
+  avalancheRatingJ: z.number().optional().meta({ description: "single-pulse avalanche rating at 25 °C starting Tj" }),
+  avalancheRatingAtTjJ: z.number().optional().meta({ description: "the rating derated to the event's starting Tj (what avalanche-energy reads as avalancheEnergyAtTjJ)" }),
+  avalancheEnergyRatio: z.number().optional().meta({ description: "absorbed energy / the rating at the event's Tj; above 1 exceeds it (absent when that rating is 0)" }),
   outputVoltageLostV: z.number(),
   fallsBelowLoadMinimumS: z.number().optional(),
 });
@@ -151,8 +158,9 @@ function eventOutcomes<H extends z.ZodRawShape>(h: H) {
           clampedFormulaJ: z.number().meta({ description: "½·L·I²·Vcl/(Vcl − Vs), Vs = output − input at turn-off" }),
           absorbedJ: z.number().meta({ description: "Vcl·∫|i|dt over the clamp phase, exact loop response" }),
           durationS: z.number(),
-          avalancheRatingJ: z.number().optional(),
-          withinAvalancheRating: z.boolean().optional(),
+          avalancheRatingJ: z.number().optional().meta({ description: "single-pulse avalanche rating at 25 °C starting Tj" }),
+          avalancheRatingAtTjJ: z.number().optional().meta({ description: "the rating derated linearly to zero at Tj(max), at the event's starting Tj (no credit below 25 °C)" }),
+          withinAvalancheRating: z.boolean().optional().meta({ description: "absorbedJ within avalancheRatingAtTjJ" }),
           after: windowState,
           energies,
         })

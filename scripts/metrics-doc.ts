@@ -80,6 +80,8 @@ const RULE_HAZARDS: Readonly<Record<string, string>> = {
   "avalanche-energy": "turn-off (avalanche)",
   "avalanche-energy-margin": "turn-off (avalanche)",
   "avalanche-current": "turn-off (avalanche)",
+  "avalanche-energy-repetitive": "turn-off (avalanche)",
+  "fet-vds-reverse-transient-cold": "transient",
   "hold-up-time": "hold-up",
   "hold-up-margin": "hold-up",
   "standby-quiescent": "standby",

@@ -9,7 +9,7 @@ import { findSupplyClass, SUPPLY_CLASSES, type SupplyClass } from "../../domain/
 import { findTransient, TRANSIENT_LIBRARY, type TransientPulse } from "../../domain/review/transient-library.js";
 import { unknownIdMessage } from "../../contracts/zod-messages.js";
 import { inputProblem } from "../input-problem.js";
-import { missingQrrSentence } from "./reverse-inputs.js";
+import { missingQrrSentence, ONE_OFF_EVENT } from "./reverse-inputs.js";
 
 /** Defaults of the design review [common practice], each recorded in `assumptions` when used. */
 export const REVIEW_DEFAULTS = {
@@ -182,6 +182,7 @@ function reviewTurnOffOf(t: NonNullable<Requirement["turnOff"]>, nominalV: numbe
   if (t.tjC === undefined) assumptions.push("turnOff.tjC: each candidate's worst-case junction temperature over the corners (the highest ambient where no corner solved)");
   if (t.reverseRecoveryChargeC === undefined) assumptions.push(missingQrrSentence("turnOff.reverseRecoveryChargeC", "diode"));
   if (t.clampV === undefined) assumptions.push("turnOff.clampV: the blocking element's rated voltage (a lower bound of its breakdown: the energy estimate is conservative)");
+  if (t.repetitive === undefined) assumptions.push(ONE_OFF_EVENT("turnOff.repetitive"));
   const outputV = t.outputV ?? nominalV;
   const inputAfterV = t.inputAfterV ?? 0;
   if (!(inputAfterV < outputV)) throw inputProblem("invalid-input", ["requirement", "turnOff", "inputAfterV"], `must be below the output voltage before the event (${outputV} V)`);
@@ -195,5 +196,6 @@ function reviewTurnOffOf(t: NonNullable<Requirement["turnOff"]>, nominalV: numbe
     ...(t.tjC === undefined ? {} : { tjC: t.tjC }),
     ...(t.reverseRecoveryChargeC === undefined ? {} : { reverseRecoveryChargeC: t.reverseRecoveryChargeC }),
     ...(t.clampV === undefined ? {} : { clampV: t.clampV }),
+    repetitive: t.repetitive ?? false,
   };
 }

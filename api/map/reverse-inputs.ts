@@ -57,3 +57,6 @@ export function missingQrrSentence(field: string, kind: StageModel["kind"] | "di
   if (kind === "schottky-diode") return `${field}: 0 C (a Schottky junction stores no minority charge to speak of, common practice)`;
   return `warning: ${field}: not given, taken as 0 C for ${kind === "pn-diode" ? "this PN diode" : "PN diode candidates"}: a PN junction's stored charge keeps it conducting backwards after the current reverses, so the reverse-current peak and the charge lost are understated; give its Qrr from the datasheet`;
 }
+
+/** The declared default of a turn-off event's `repetitive` field. */
+export const ONE_OFF_EVENT = (field: string): string => `${field}: false (a one-off event: its energy is held to the single-pulse avalanche rating, not to the repetitive one)`;

@@ -123,6 +123,8 @@ function toMosfet(m: MosfetSpec, path: (string | number)[], assumptions: string[
     ...(m.peakRepetitiveCurrentA === undefined ? {} : { peakRepetitiveCurrentA: m.peakRepetitiveCurrentA }),
     ...(m.avalancheCurrentA === undefined ? {} : { avalancheCurrentA: m.avalancheCurrentA }),
     ...(m.offStateLeakage === undefined ? {} : { offStateLeakage: { currentA: m.offStateLeakage.currentA, tempK: cToK(m.offStateLeakage.tempC) } }),
+    ...(m.repetitiveAvalancheEnergyJ === undefined ? {} : { repetitiveAvalancheEnergyJ: m.repetitiveAvalancheEnergyJ }),
+    ...(m.vdsTempCoPerK === undefined ? {} : { vdsTempCoPerK: m.vdsTempCoPerK }),
   };
 }
 

@@ -14,6 +14,7 @@ export function turnOffEventFields(r: TurnOffOutcome, v0: number, waveform?: Tur
       const c = r.clamp;
       const absorbed = c?.absorbedJ ?? 0;
       const rating = c?.avalancheRatingJ;
+      const atTj = c?.avalancheRatingAtTjJ;
       const after = c?.after ?? r.end;
       return {
         ...r,
@@ -23,7 +24,8 @@ export function turnOffEventFields(r: TurnOffOutcome, v0: number, waveform?: Tur
           peakReverseCurrentA: r.peakReverseCurrentA,
           turnOffS: r.turnOffS,
           absorbedEnergyJ: absorbed,
-          ...(rating === undefined ? {} : { avalancheRatingJ: rating, avalancheEnergyRatio: absorbed / rating }),
+          ...(rating === undefined ? {} : { avalancheRatingJ: rating }),
+          ...(atTj === undefined ? {} : { avalancheRatingAtTjJ: atTj, ...(atTj > 0 ? { avalancheEnergyRatio: absorbed / atTj } : {}) }),
           outputVoltageLostV: v0 - after.capacitorV,
         },
       };

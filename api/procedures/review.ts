@@ -1,4 +1,5 @@
 import type { ReviewOutput } from "../../contracts/review.js";
+import { DEFAULT_VDS_TEMPCO_PER_K, stageMosfet } from "../../domain/checks/breakdown-temperature.js";
 import { reviewInput, reviewOutput } from "../../contracts/review.js";
 import type { CornerResult } from "../../domain/checks/corners.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
@@ -36,6 +37,10 @@ export const review = defineProcedure({ name: "review", input: reviewInput, outp
   const evaluated = input.candidates.map((c, index) => {
     const path = ["candidates", index, "stage"];
     const stage = resolveStage(c.stage, ctx.catalog, path, assumptions, c.thermal);
+    const fet = stageMosfet(stage.model);
+    if (fet !== undefined && fet.vdsTempCoPerK === undefined) {
+      assumptions.push(`${path.join(".")}: mosfet.vdsTempCoPerK ${DEFAULT_VDS_TEMPCO_PER_K} /K (+0.1 %/K, memory): the breakdown at the coldest ambient ${req.model.ambientMinC} °C is vdsMaxV scaled by it`);
+    }
     const transientThermal = transientThermalOf(c.transientThermal, stage.model, [...path.slice(0, 2), "transientThermal"], assumptions);
     const datasheetMax = c.datasheetMax ? datasheetMaxScale(c.datasheetMax, stage.model, [...path.slice(0, 2), "datasheetMax"]) : undefined;
     const typicalTiming = req.model.turnOff ? controllerTiming(stage.spec, stage.model, c.turnOffTiming ?? input.requirement.turnOff?.timing, c.turnOffTiming ? [...path.slice(0, 2), "turnOffTiming"] : ["requirement", "turnOff", "timing"], assumptions) : undefined;

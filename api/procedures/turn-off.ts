@@ -8,7 +8,7 @@ import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { ruleSetForAnalysis } from "../map/analysis-rule-set.js";
 import { TURN_OFF_COMPUTES, turnOffRuleInput } from "../../domain/rules/metrics-of-reverse-current.js";
-import { controllerTiming, loadMinimumV, missingQrrSentence, stageLabel } from "../map/reverse-inputs.js";
+import { controllerTiming, loadMinimumV, missingQrrSentence, ONE_OFF_EVENT, stageLabel } from "../map/reverse-inputs.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { defineProcedure } from "../define-procedure.js";
 
@@ -19,6 +19,7 @@ export const turnOff = defineProcedure({ name: "turnOff", input: turnOffInput, o
   const partRatingJ = stageAvalancheEnergyJ(stage.model);
   const avalancheRatingJ = input.avalancheRatingJ ?? partRatingJ;
   if (input.avalancheRatingJ === undefined && partRatingJ !== undefined) assumptions.push(`avalancheRatingJ: the part's avalancheEnergyJ (${partRatingJ} J at 25 °C starting Tj)`);
+  if (input.repetitive === undefined) assumptions.push(ONE_OFF_EVENT("repetitive"));
   const controller = controllerTiming(stage.spec, stage.model, input.turnOff, ["turnOff"], assumptions);
   if (input.clampV === undefined) assumptions.push("clampV: the blocking element's rated voltage (a lower bound of its breakdown: the energy estimate is conservative)");
   if (behaviourOf(stage.model).junctionRecovery) {
@@ -42,7 +43,7 @@ export const turnOff = defineProcedure({ name: "turnOff", input: turnOffInput, o
   };
   const r = turnOffEvent(model);
   const waveform = input.waveform ? turnOffWaveform(model, r) : undefined;
-  const rules = set === undefined ? undefined : evaluateRuleSet(set, turnOffRuleInput(stage.model, r, input.tjC, avalancheRatingJ, input.ruleMetrics ?? {}));
+  const rules = set === undefined ? undefined : evaluateRuleSet(set, turnOffRuleInput(stage.model, r, { tjC: input.tjC, repetitive: input.repetitive ?? false }, avalancheRatingJ, input.ruleMetrics ?? {}));
   const head = { modelVersion: MODEL_VERSION, caution: CAUTION, stage: stageLabel(stage.spec, stage.partId), assumptions, ...(rules === undefined ? {} : { rules }) };
   return { ...head, ...turnOffEventFields(r, input.outputV, waveform) };
 } });

@@ -1,7 +1,8 @@
 import { cToK } from "../physics/constants.js";
 import { det2, firstCrossing, extremaTimes, loopSystem, outputV, type RlcLoop, stateAt, stateIntegral, type Vec2 } from "../physics/rlc-series.js";
 import type { LoadModel } from "../solve/load-model.js";
-import type { StageModel } from "../stages/stage-model.js";
+import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
+import { avalancheEnergyAtTjJ } from "./avalanche-derating.js";
 import { type ControllerTurnOff, reversePath, stageBreakdownV } from "./reverse-path.js";
 import { type LoopCharacter, loadLine, loopCharacter, type PhaseEnergies, phaseEnergies } from "./turn-off-loop.js";
 
@@ -25,7 +26,7 @@ export interface TurnOffModel {
   readonly reverseRecoveryChargeC?: number;
   /** Voltage the blocking element clamps at (avalanche or TVS), V; default its rated voltage. */
   readonly clampV?: number;
-  /** Single-pulse avalanche energy rating, J. */
+  /** Single-pulse avalanche energy rating at 25 °C starting Tj, J (derated to the event's tjC). */
   readonly avalancheRatingJ?: number;
 }
 
@@ -67,6 +68,9 @@ export interface ClampPhase {
   readonly absorbedJ: number;
   readonly durationS: number;
   readonly avalancheRatingJ?: number;
+  /** The rating derated to the event's starting Tj (avalancheEnergyAtTjJ), J. */
+  readonly avalancheRatingAtTjJ?: number;
+  /** absorbedJ within avalancheRatingAtTjJ. */
   readonly withinAvalancheRating?: boolean;
   readonly after: WindowState;
   readonly energies: PhaseEnergies;
@@ -221,11 +225,15 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
     clampedFormulaJ: (inductiveEnergyJ * clampV) / (clampV - driveV),
     absorbedJ,
     durationS: end,
-    ...(m.avalancheRatingJ === undefined ? {} : { avalancheRatingJ: m.avalancheRatingJ, withinAvalancheRating: absorbedJ <= m.avalancheRatingJ }),
+    ...(m.avalancheRatingJ === undefined ? {} : avalancheFields(m.avalancheRatingJ, avalancheEnergyAtTjJ(m.avalancheRatingJ, stageTjMaxC(m.stage), m.tjC), absorbedJ)),
     after: windowState(clampLoop, xOff, end, m.outputV, turnOffS),
     energies,
   };
   return { ...base, clamp };
+}
+
+function avalancheFields(ratingJ: number, atTjJ: number, absorbedJ: number) {
+  return { avalancheRatingJ: ratingJ, avalancheRatingAtTjJ: atTjJ, withinAvalancheRating: absorbedJ <= atTjJ };
 }
 
 function windowState(p: RlcLoop, x0: Vec2, t: number, v0: number, offsetS = 0): WindowState {

@@ -17,11 +17,14 @@ export interface ReviewTurnOff {
   readonly tjC?: number;
   readonly reverseRecoveryChargeC?: number;
   readonly clampV?: number;
+  /** The event repeats in service (its energy is held to the repetitive avalanche rating too). */
+  readonly repetitive: boolean;
 }
 
 export interface ReviewTurnOffResult {
   readonly tjC: number;
   readonly tjSource: "given" | "worst-corner" | "highest-ambient";
+  readonly repetitive: boolean;
   readonly avalancheRatingJ?: number;
   readonly result: TurnOffOutcome;
   readonly waveform?: TurnOffWaveform;
@@ -61,6 +64,6 @@ export function reviewTurnOff(
   };
   const result = turnOffEvent(model);
   const waveform = cand.turnOffWaveform ? turnOffWaveform(model, result) : undefined;
-  return { tjC, tjSource, ...(avalancheRatingJ === undefined ? {} : { avalancheRatingJ }), result, ...(waveform ? { waveform } : {}) };
+  return { tjC, tjSource, repetitive: t.repetitive, ...(avalancheRatingJ === undefined ? {} : { avalancheRatingJ }), result, ...(waveform ? { waveform } : {}) };
 }
 

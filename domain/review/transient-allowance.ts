@@ -5,6 +5,13 @@ import type { RuleInput } from "../rules/rule-model.js";
 import { ruleBoundary, rulesReading } from "../sizing/rule-boundary.js";
 import type { StageModel } from "../stages/stage-model.js";
 import { partParameters, stageMetrics } from "../rules/metrics-of-operating-point.js";
+import { mosfetBreakdownColdV } from "../checks/breakdown-temperature.js";
+
+/** A MOSFET's breakdown at the coldest ambient, which a rule on reverseTransientVMaxV may read (as the review's rule input has it). */
+function coldBreakdown(stage: StageModel, req: ReviewRequirement): Record<string, number> {
+  const v = mosfetBreakdownColdV(stage, req.ambientMinC);
+  return v === undefined ? {} : { vdsBreakdownColdV: v };
+}
 
 /**
  * The transient allowances a rule set grants a stage: the largest negative-pulse stress on the
@@ -17,7 +24,7 @@ export function transientAllowanceOf(set: CompiledRuleSet, stage: StageModel, re
   const base: RuleInput = {
     stageKind: stage.kind,
     // stageMetrics is a fresh record (no spread clone: V8's slow path once fields follow it).
-    metrics: Object.assign(stageMetrics(stage), { supplyMinV: req.supplyMinV, supplyMaxV: req.supplyMaxV, reverseVMaxV: req.reverseV }),
+    metrics: Object.assign(stageMetrics(stage), { supplyMinV: req.supplyMinV, supplyMaxV: req.supplyMaxV, reverseVMaxV: req.reverseV }, coldBreakdown(stage, req)),
     part: partParameters(stage),
   };
   // Probe above the steady supply: a rule like max(supplyMaxV, transientVMaxV) <= rating is flat below it.

@@ -78,6 +78,9 @@ export const METRICS: readonly MetricDef[] = [
   { name: "peakReverseCurrentA", type: "number", unit: "A", meaning: "peak current flowing backwards through the stage when the input is shorted or steps lower (magnitude)", stageKinds: "all", providedBy: "turnOff" },
   { name: "absorbedEnergyJ", type: "number", unit: "J", meaning: "energy the blocking element absorbs clamping the loop inductance after it turns off (Vclamp·∫|i|dt); 0 when the current is back at zero by then or the stage never turns off", stageKinds: "all", providedBy: "turnOff" },
   { name: "eventTjC", type: "number", unit: "°C", meaning: "junction temperature of the stage when the event starts (the avalanche rating is derated from it)", stageKinds: "all", providedBy: "turnOff (its tjC)" },
+  { name: "vdsBreakdownColdV", type: "number", unit: "V", meaning: "a MOSFET's drain-source breakdown at the requirement's lowest ambient: vdsMaxV scaled by its temperature coefficient from 25 °C down (no credit above 25 °C)", stageKinds: FETS, providedBy: "review (mosfet.vdsTempCoPerK, default +0.1 %/K)" },
+  { name: "avalancheEnergyAtTjJ", type: "number", unit: "J", meaning: "the blocking element's single-pulse avalanche rating at the event's starting junction temperature: part.avalancheEnergyJ derated linearly to 0 at Tj(max), no credit below 25 °C", stageKinds: "all", providedBy: "turnOff (from its tjC and the rating)" },
+  { name: "turnOffRepetitive", type: "boolean", unit: "-", meaning: "the turn-off event repeats in service (each switch-off or each pulse of a train, not a one-off fault): its energy is held to the repetitive avalanche rating too", stageKinds: "all", providedBy: "turnOff's repetitive; the requirement's turnOff.repetitive (default false)" },
   { name: "holdUpS", type: "number", unit: "s", meaning: "time the output stays above the load's minimum after the input is lost, including the turn-off event", stageKinds: "all", providedBy: "holdUp (each stage)" },
   { name: "holdUpRequiredS", type: "number", unit: "s", meaning: "hold-up time the product must achieve", stageKinds: "all", providedBy: `${REQ}; holdUp's requiredHoldUpS` },
   { name: "reverseCurrentA", type: "number", unit: "A", meaning: "steady current flowing backwards through the stage into its source (a blocking stage's leakage included)", stageKinds: "all", providedBy: "oring (each branch)" },
@@ -100,6 +103,7 @@ export const PART_PARAMETERS: readonly MetricDef[] = [
   { name: "switchReverseRatingV", type: "number", unit: "V", meaning: "reverse voltage an integrated switch blocks (magnitude)", stageKinds: ["integrated-switch"], providedBy: `${STAGE} (reverseRatingV)` },
   { name: "avalancheCurrentA", type: "number", unit: "A", meaning: "single-pulse avalanche current rating (IAS) of a MOSFET: the current at the start of avalanche it survives", stageKinds: FETS, providedBy: `${STAGE} (mosfet avalancheCurrentA)` },
   { name: "avalancheEnergyJ", type: "number", unit: "J", meaning: "single-pulse avalanche energy rating (EAS) of the blocking element, at 25 °C starting junction temperature", stageKinds: RATED, providedBy: `${STAGE} (diode or mosfet avalancheEnergyJ); turnOff's avalancheRatingJ overrides` },
+  { name: "repetitiveAvalancheEnergyJ", type: "number", unit: "J", meaning: "repetitive avalanche energy rating (EAR) of a MOSFET, per event", stageKinds: FETS, providedBy: `${STAGE} (mosfet repetitiveAvalancheEnergyJ)` },
   { name: "ifrmA", type: "number", unit: "A", meaning: "repetitive peak forward current rating: a diode's IFRM, a MOSFET's repetitive pulsed drain current", stageKinds: RATED, providedBy: `${STAGE} (diode or mosfet peakRepetitiveCurrentA)` },
 ];
 
@@ -175,7 +179,10 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
     },
   },
   absorbedEnergyJ: computed,
-  eventTjC: computed,
+  eventTjC: { role: "computed", notAssessed: { stageKinds: "all", reason: "the event's starting Tj is ruled through avalancheEnergyAtTjJ, the avalanche rating derated to it" } },
+  avalancheEnergyAtTjJ: computed,
+  vdsBreakdownColdV: computed,
+  turnOffRepetitive: requirement,
   holdUpS: computed,
   holdUpRequiredS: requirement,
   reverseCurrentA: computed,
@@ -188,6 +195,7 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
 
 /** Part parameters a built-in set does not compare for some kinds, with why (see METRIC_ROLES). */
 export const PART_NOT_ASSESSED: Readonly<Record<string, NotAssessed>> = {
+  avalancheEnergyJ: { stageKinds: "all", reason: "the 25 °C rating is ruled through avalancheEnergyAtTjJ, the same rating derated to the event's starting Tj" },
   vgsMaxV: { stageKinds: CONTROLLER_PIN, reason: "the controller drives the gate from its own regulated supply; no analysis computes that drive against the MOSFET's Vgs rating" },
   ifrmA: { stageKinds: ["pfet-high-side", "nfet-low-side", "nfet-back-to-back"], reason: "only bridge elements carry a repetitive charging pulse (bridgeAc); these kinds are not bridge elements" },
 };

@@ -7,7 +7,7 @@ import type { RuleInput } from "./rule-model.js";
 import type { OringOutcome } from "../solve/oring-network.js";
 import type { LoadModel } from "../solve/load-model.js";
 import type { StageModel } from "../stages/stage-model.js";
-import { closeScope, draft, putOr, putPeakReverse, type RuleInputDraft } from "./rule-input-draft.js";
+import { closeScope, draft, putEventAvalanche, putOr, putPeakReverse, type RuleInputDraft } from "./rule-input-draft.js";
 import { missingRatings, partParameters, stageMetrics } from "./metrics-of-operating-point.js";
 
 type Caller = Readonly<Record<string, number | boolean>>;
@@ -25,20 +25,19 @@ function loadMinimum(d: RuleInputDraft, load: LoadModel, loadMinV?: number): voi
   else if (load.kind === "constant-power") d.metrics["loadMinV"] = load.minVoltageV;
 }
 
-export const TURN_OFF_COMPUTES = ["peakReverseCurrentA", "absorbedEnergyJ", "eventTjC", "blocksReverseCurrent"] as const;
+export const TURN_OFF_COMPUTES = ["peakReverseCurrentA", "absorbedEnergyJ", "eventTjC", "avalancheEnergyAtTjJ", "blocksReverseCurrent"] as const;
 
 /**
  * turnOff → rules: peakReverseCurrentA, absorbedEnergyJ (the clamp phase's Vcl·∫|i|dt; 0 when the
  * current is back at zero by turn-off, or when the stage never turns off and so never clamps),
- * eventTjC (the request's tjC) and part.avalancheEnergyJ (the request's avalancheRatingJ, else the
- * stage's). Energy absorbed without a rating is a gap in the evidence (unavailable), not out of
- * scope: the element is stressed and nothing says it survives.
+ * eventTjC (the request's tjC), turnOffRepetitive (its repetitive), part.avalancheEnergyJ (the request's avalancheRatingJ, else the
+ * stage's) and avalancheEnergyAtTjJ (that rating derated to eventTjC). Energy absorbed without a
+ * rating is a gap in the evidence (unavailable), not out of scope: the element is stressed and
+ * nothing says it survives.
  */
-export function turnOffRuleInput(stage: StageModel, r: TurnOffOutcome, tjC: number, avalancheRatingJ: number | undefined, caller: Caller): RuleInput {
+export function turnOffRuleInput(stage: StageModel, r: TurnOffOutcome, event: { readonly tjC: number; readonly repetitive: boolean }, avalancheRatingJ: number | undefined, caller: Caller): RuleInput {
   const d = stageDraft(stage, caller);
-  d.metrics["eventTjC"] = tjC;
-  if (avalancheRatingJ !== undefined) d.part["avalancheEnergyJ"] = avalancheRatingJ;
-  else d.unavailable["part.avalancheEnergyJ"] = "the stage gives no avalanche energy rating: give avalancheRatingJ, or the part's avalancheEnergyJ";
+  putEventAvalanche(stage, event, avalancheRatingJ, d, "the stage gives no avalanche energy rating: give avalancheRatingJ, or the part's avalancheEnergyJ");
   switch (r.outcome) {
     case "blocks":
       d.metrics["peakReverseCurrentA"] = r.peakReverseCurrentA;

@@ -1,9 +1,10 @@
 import { behaviourOf } from "../stages/stage-behaviours.js";
 import { type CandidateReview, type ReviewRequirement, steadyOvervoltageV } from "../review/candidate-review.js";
 import type { ReviewTurnOffResult } from "../review/review-turn-off.js";
+import { mosfetBreakdownColdV } from "../checks/breakdown-temperature.js";
 import type { RuleInput } from "./rule-model.js";
 import type { StageModel } from "../stages/stage-model.js";
-import { otherAnalysesMetrics, putPeakReverse } from "./rule-input-draft.js";
+import { otherAnalysesMetrics, putEventAvalanche, putPeakReverse } from "./rule-input-draft.js";
 import { missingRatings, partParameters, stageMetrics } from "./metrics-of-operating-point.js";
 import { reviewHazardMetrics } from "./metrics-of-review-hazards.js";
 
@@ -30,6 +31,8 @@ export const REVIEW_COMPUTES = [
   "peakReverseCurrentA",
   "absorbedEnergyJ",
   "eventTjC",
+  "avalancheEnergyAtTjJ",
+  "vdsBreakdownColdV",
 ] as const;
 
 export interface RequirementFlags {
@@ -93,13 +96,15 @@ export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags
   }
   const negative = r.transients.filter((t) => t.polarity === "negative").map((t) => t.stresses[0]?.seenV ?? 0);
   metrics["reverseTransientVMaxV"] = Math.max(req.reverseV, ...negative);
+  const coldV = mosfetBreakdownColdV(stage, req.ambientMinC);
+  if (coldV !== undefined) metrics["vdsBreakdownColdV"] = coldV;
   const positive = r.transients.filter((t) => t.polarity === "positive").map((t) => t.inputPeakV);
   // Jump start, long-term overvoltage and the abnormal limit are steady for a minute or more: the input-side ratings see them too.
   metrics["transientVMaxV"] = Math.max(req.supplyMaxV, steadyOvervoltageV(req) ?? 0, ...positive);
   reviewHazardMetrics(stage, req, r, { metrics, unavailable, notRequired });
   Object.assign(unavailable, missingRatings(stage));
   const part = partParameters(stage);
-  if (r.turnOff !== undefined) turnOffMetrics(r.turnOff, metrics, part, unavailable);
+  if (r.turnOff !== undefined) turnOffMetrics(stage, r.turnOff, metrics, part, unavailable);
   const elsewhere = otherAnalysesMetrics(metrics, "review");
   for (const n of Object.keys(unavailable)) delete elsewhere[n];
   return { stageKind: stage.kind, metrics, part, unavailable, notRequired: Object.assign(elsewhere, notRequired) };
@@ -111,10 +116,8 @@ export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags
  * is back at zero by turn-off or the stage never turns off), eventTjC and the part's avalanche
  * rating; an absorbed energy without a rating is a gap, not out of scope.
  */
-function turnOffMetrics(t: ReviewTurnOffResult, metrics: Record<string, number | boolean>, part: Record<string, number>, unavailable: Record<string, string>): void {
-  metrics["eventTjC"] = t.tjC;
-  if (t.avalancheRatingJ !== undefined) part["avalancheEnergyJ"] = t.avalancheRatingJ;
-  else unavailable["part.avalancheEnergyJ"] = "the stage gives no avalanche energy rating (the part's avalancheEnergyJ)";
+function turnOffMetrics(stage: StageModel, t: ReviewTurnOffResult, metrics: Record<string, number | boolean>, part: Record<string, number>, unavailable: Record<string, string>): void {
+  putEventAvalanche(stage, t, t.avalancheRatingJ, { metrics, part, unavailable }, "the stage gives no avalanche energy rating (the part's avalancheEnergyJ)");
   const r = t.result;
   switch (r.outcome) {
     case "blocks":

@@ -1,3 +1,5 @@
+import { avalancheEnergyAtTjJ } from "../checks/avalanche-derating.js";
+import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
 import { METRICS } from "./metric-vocabulary.js";
 import type { RuleInput } from "./rule-model.js";
 
@@ -52,8 +54,9 @@ export const ANALYSIS_ONLY_METRICS: Readonly<Record<string, readonly string[]>> 
     "supplyOvervoltageV",
     "startProfileMinV",
     "startProfileDropoutS",
+    "vdsBreakdownColdV",
   ],
-  turnOff: ["peakReverseCurrentA", "absorbedEnergyJ", "eventTjC"],
+  turnOff: ["peakReverseCurrentA", "absorbedEnergyJ", "eventTjC", "avalancheEnergyAtTjJ", "turnOffRepetitive"],
   holdUp: ["holdUpS", "holdUpRequiredS"],
   oring: ["reverseCurrentA", "reverseCurrentBudgetA"],
   batteryCharge: ["targetCanDrainSource"],
@@ -83,4 +86,30 @@ export function putOr(d: RuleInputDraft, name: string, value: number | boolean |
 export function putPeakReverse(r: { readonly peakReverseCurrentA: number; readonly peakReverseIsLowerBound?: true }, metrics: Record<string, number | boolean>, unavailable: Record<string, string>): void {
   if (r.peakReverseIsLowerBound === true) unavailable["peakReverseCurrentA"] = `the reverse current is still rising at the end of the simulated span: ${r.peakReverseCurrentA.toPrecision(4)} A is only a lower bound of its peak`;
   else metrics["peakReverseCurrentA"] = r.peakReverseCurrentA;
+}
+
+/**
+ * The turn-off event's starting Tj, whether it repeats, and its avalanche rating for the rules:
+ * eventTjC, turnOffRepetitive, the 25 °C rating as part.avalancheEnergyJ and
+ * avalancheEnergyAtTjJ, that rating derated to eventTjC (domain/checks/avalanche-derating.ts),
+ * which the avalanche-energy rules read. Without a rating both are unavailable with `missing` (a
+ * gap: the element is stressed and nothing says it survives).
+ */
+export function putEventAvalanche(
+  stage: StageModel,
+  event: { readonly tjC: number; readonly repetitive: boolean },
+  ratingJ: number | undefined,
+  into: { readonly metrics: Record<string, number | boolean>; readonly part: Record<string, number>; readonly unavailable: Record<string, string> },
+  missing: string,
+): void {
+  const tjC = event.tjC;
+  into.metrics["eventTjC"] = tjC;
+  into.metrics["turnOffRepetitive"] = event.repetitive;
+  if (ratingJ === undefined) {
+    into.unavailable["part.avalancheEnergyJ"] = missing;
+    into.unavailable["avalancheEnergyAtTjJ"] = missing;
+    return;
+  }
+  into.part["avalancheEnergyJ"] = ratingJ;
+  into.metrics["avalancheEnergyAtTjJ"] = avalancheEnergyAtTjJ(ratingJ, stageTjMaxC(stage), tjC);
 }

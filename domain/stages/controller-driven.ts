@@ -2,7 +2,7 @@ import type { ReverseStress } from "../checks/reverse-steady.js";
 import type { DiodeParams } from "../physics/diode.js";
 import { fullEnhancementV } from "../physics/mosfet-channel.js";
 import { gateDriveAt } from "./gate-drive.js";
-import { mosfetPart, NO_AVALANCHE_CURRENT } from "./mosfet-stage.js";
+import { mosfetMissing, mosfetPart } from "./mosfet-stage.js";
 import type { IdealDiodeStage } from "./stage-model.js";
 
 export type ControllerDriven = Pick<IdealDiodeStage, "mosfet" | "controller">;
@@ -55,6 +55,5 @@ export function controllerPart(stage: ControllerDriven): Record<string, number> 
 export function controllerMissing(stage: ControllerDriven): Record<string, string> {
   const out: Record<string, string> = {};
   if (stage.controller.reverseRatingV === undefined) out["part.controllerReverseRatingV"] = "the controller states no reverse rating of its input pin (controller.reverseRatingV): its survival of the reversed supply is unproven";
-  if (stage.mosfet.avalancheCurrentA === undefined) out["part.avalancheCurrentA"] = NO_AVALANCHE_CURRENT;
-  return out;
+  return Object.assign(out, mosfetMissing(stage.mosfet));
 }

@@ -31,10 +31,19 @@ export function mosfetPart(m: MosfetModel): Record<string, number> {
   const top = m.channel.rdsOnPoints.at(-1);
   if (top !== undefined) part["vgsOnV"] = top.gateSourceV;
   if (m.avalancheCurrentA !== undefined) part["avalancheCurrentA"] = m.avalancheCurrentA;
+  if (m.repetitiveAvalancheEnergyJ !== undefined) part["repetitiveAvalancheEnergyJ"] = m.repetitiveAvalancheEnergyJ;
   return part;
 }
 
 export const NO_AVALANCHE_CURRENT = "the MOSFET states no avalanche current rating (mosfet.avalancheCurrentA)";
+
+/** The MOSFET's avalanche ratings it does not state (each a gap in the rules that read it). */
+export function mosfetMissing(m: MosfetModel): Record<string, string> {
+  const out: Record<string, string> = {};
+  if (m.avalancheCurrentA === undefined) out["part.avalancheCurrentA"] = NO_AVALANCHE_CURRENT;
+  if (m.repetitiveAvalancheEnergyJ === undefined) out["part.repetitiveAvalancheEnergyJ"] = "the MOSFET states no repetitive avalanche energy rating (mosfet.repetitiveAvalancheEnergyJ)";
+  return out;
+}
 
 /** A MOSFET whose channel is off conducts reverse current through its body diode (as a diode). */
 export function bodyDiodePath(m: MosfetModel): ReversePath {

@@ -46,6 +46,10 @@ export interface MosfetModel {
   readonly avalancheCurrentA?: number;
   /** Off-state drain-source leakage IDSS at the rated VDS and a junction temperature (the body diode's reverse current), scaled in temperature by the body diode's Is(T); absent: Is(T) of the body diode. */
   readonly offStateLeakage?: DatasheetLeakage;
+  /** Repetitive avalanche energy rating EAR, J per event; absent: not rated. */
+  readonly repetitiveAvalancheEnergyJ?: number;
+  /** Temperature coefficient of the drain-source breakdown, 1/K; absent: DEFAULT_VDS_TEMPCO_PER_K. */
+  readonly vdsTempCoPerK?: number;
 }
 
 /** P-channel MOSFET in the supply line, gate pulled to ground: |Vgs| = min(Vout, clamp). */

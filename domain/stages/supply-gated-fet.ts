@@ -1,6 +1,6 @@
 import { fullEnhancementV } from "../physics/mosfet-channel.js";
 import { clampV } from "./gate-drive.js";
-import { mosfetPart, mosfetRatings, NO_AVALANCHE_CURRENT, scaleMosfetStage } from "./mosfet-stage.js";
+import { mosfetMissing, mosfetPart, mosfetRatings, scaleMosfetStage } from "./mosfet-stage.js";
 import type { ReverseConduction } from "./stage-behaviour.js";
 import type { NFetLowSideStage, PFetStage } from "./stage-model.js";
 
@@ -27,7 +27,7 @@ export const supplyGated = {
   gateSourceClampV: (stage: SupplyGated) => ({ clampV: stage.gateClampV }),
   controllerReversePin: false,
   sizing: { forward: "rdsOn", reverseRating: "vdsMaxV", gateFromSupply: true, ratedGateDrive: true, control: false, leakage: false } as const,
-  describe: (stage: SupplyGated) => ({ metrics: {}, part: mosfetPart(stage.mosfet), missing: stage.mosfet.avalancheCurrentA === undefined ? { "part.avalancheCurrentA": NO_AVALANCHE_CURRENT } : {} }),
+  describe: (stage: SupplyGated) => ({ metrics: {}, part: mosfetPart(stage.mosfet), missing: mosfetMissing(stage.mosfet) }),
 };
 
 /** The gate drive at a gate voltage taken from the supply (clamped), and its margin over full enhancement. */

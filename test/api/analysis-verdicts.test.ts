@@ -88,6 +88,37 @@ describe("verdicts of the reverse-current and bridge analyses", () => {
     });
   });
 
+  describe("turnOff: a repeating event's energy against the repetitive avalanche rating EAR", () => {
+    it("the example's repeating event is held to the part's 4 mJ EAR (threshold = the rating)", async () => {
+      const out = turnOffOutput.parse(await call("turnOff", { ...example("turnOff"), ruleSet: "default" }));
+      if (out.outcome !== "blocks" || out.clamp === undefined) throw new Error(out.outcome);
+      const v = verdict(out.rules, "avalanche-energy-repetitive");
+      expect(v.outcome).toBe("pass");
+      expect(v.threshold).toBe(0.004);
+      expect(v.values["absorbedEnergyJ"]).toBe(out.clamp.absorbedJ);
+    });
+
+    it("fails with a 10 µs delay: the energy is within the 50 mJ single-pulse rating but above the 4 mJ EAR", async () => {
+      const out = turnOffOutput.parse(await call("turnOff", { ...example("turnOff"), turnOff: { reverseThresholdV: "20 mV", turnOffDelayS: "10 us" }, ruleSet: "default" }));
+      expect(verdict(out.rules, "avalanche-energy").outcome).toBe("pass");
+      const v = verdict(out.rules, "avalanche-energy-repetitive");
+      expect(v.outcome).toBe("fail");
+      expect(v.values["absorbedEnergyJ"] as number).toBeGreaterThan(0.004);
+    });
+
+    it("a one-off event is out of the rule's scope; a repeating one on a MOSFET without EAR leaves the set incomplete", async () => {
+      const once = turnOffOutput.parse(await call("turnOff", { ...example("turnOff"), repetitive: false, ruleSet: "default" }));
+      expect(verdict(once.rules, "avalanche-energy-repetitive").notApplicableCode).toBe("precondition");
+      const stage = catalogStage("demo-ideal-diode-60v-3mohm") as { mosfet: Input };
+      delete stage.mosfet["repetitiveAvalancheEnergyJ"];
+      const out = turnOffOutput.parse(await call("turnOff", { ...example("turnOff"), stage, ruleSet: "default" }));
+      const v = verdict(out.rules, "avalanche-energy-repetitive");
+      expect(v.notApplicableCode).toBe("missing-value");
+      expect(v.reason).toMatch(/repetitiveAvalancheEnergyJ/);
+      expect(out.rules?.outcome).toBe("incomplete");
+    });
+  });
+
   describe("holdUp: hold-up time against the requirement", () => {
     // Closed form (energy balance, ESR neglected): C·(V0² − Vmin²)/2 = P·t → t = C·(144 − 64)/(2·20 W).
     const closedForm = (capacitanceF: number) => (capacitanceF * (12 * 12 - 8 * 8)) / (2 * 20);

@@ -71,12 +71,18 @@ describe("design review", () => {
       return t?.clamp.clampMaxV;
     };
     const held = 13.5; // nominal supply held at the output (vehicle-12v-b)
-    expect(await windowOf({})).toBeCloseTo(60 - held, 9);
-    expect(await windowOf({}, "vehicle")).toBeCloseTo(0.9 * 60 - held, 9);
+    // The tighter rule is the breakdown at the coldest ambient (fet-vds-reverse-transient-cold):
+    // 60 V·(1 + 0.001·(−40 − 25)) = 56.1 V at the default +0.1 %/K (closed form of the linear coefficient).
+    const coldV = 60 * (1 + 0.001 * (-40 - 25));
+    expect(await windowOf({})).toBeCloseTo(coldV - held, 9);
+    expect(await windowOf({}, "vehicle")).toBeCloseTo(0.9 * coldV - held, 9);
     expect(await windowOf({ deratingFactor: 0.8 })).toBeCloseTo(0.8 * 60 - held, 9);
-    const clampV = 60 - held;
+    // At a 25 °C lowest ambient the cold rule is the rating itself.
+    expect(await windowOf({ ambient: { minC: 25, maxC: 85 } })).toBeCloseTo(60 - held, 9);
+    const clampV = coldV - held;
     const r = await call({ requirement: { ...req12, inputClamp: { standoffV: 16, clampV } }, candidates: [idealDiode] });
     expect(verdictOf(r.candidates[0], "fet-vds-reverse-transient")?.outcome).toBe("pass");
+    expect(verdictOf(r.candidates[0], "fet-vds-reverse-transient-cold")?.outcome).toBe("pass");
   });
 
   const { app } = testApp();

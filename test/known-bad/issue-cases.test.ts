@@ -23,6 +23,9 @@ const REVIEWS: readonly { readonly id: string; readonly rule: string; readonly i
   { id: "ideal-diode-clamp-5j-30a-pulse-2a", rule: "clamp-peak-current", input: { ...both, requirement: { ...both.requirement, transients: ["iso16750-2-load-dump-a-12v", "iso7637-2-pulse-2a"] } } },
   { id: "controller-pin-20v-under-28v-reverse", rule: "controller-reverse-max", input: design("controller-pin-20v-reverse") },
   { id: "start-voltage-above-start-profile-bottom", rule: "start-at-profile-minimum", input: design("controller-start-above-crank-bottom") },
+  { id: "ideal-diode-0.5mj-within-eas-at-25c-not-at-150c", rule: "avalanche-energy", input: design("ideal-diode-avalanche-energy-hot-start") },
+  { id: "ideal-diode-repeating-0.5mj-over-0.3mj-ear", rule: "avalanche-energy-repetitive", input: design("ideal-diode-repetitive-avalanche-energy") },
+  { id: "ideal-diode-57v-pulse-1-over-cold-breakdown", rule: "fet-vds-reverse-transient-cold", input: design("ideal-diode-vds-breakdown-cold") },
 ];
 const HOLD_UP = (JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "holdUp.json"), "utf8")) as { input: Record<string, unknown> }).input;
 

@@ -112,6 +112,13 @@ describe("turn-off event", () => {
     expect(Math.abs(r.clamp.energies.balanceResidual)).toBeLessThan(1e-3);
     expect(r.peakReverseCurrentA).toBeCloseTo(r.clamp.currentAtTurnOffA, 9);
     expect(r.clamp.withinAvalancheRating).toBe(r.clamp.absorbedJ <= 0.05);
+    // At a 25 °C start the rating is EAS itself; at 130 °C on a 175 °C part EAS·45/150 = 15 mJ
+    // (closed form, docs/references.md "MOSFETs"), and the flag compares with that.
+    expect(r.clamp.avalancheRatingAtTjJ).toBe(0.05);
+    const hot = turnOffEvent({ ...event, tjC: 130 });
+    if (hot.outcome !== "blocks" || hot.clamp === undefined) throw new Error("expected a clamp phase at 130 °C");
+    expect(hot.clamp.avalancheRatingAtTjJ).toBeCloseTo((0.05 * 45) / 150, 15);
+    expect(hot.clamp.withinAvalancheRating).toBe(hot.clamp.absorbedJ <= (0.05 * 45) / 150);
   });
 
   // Source: docs/references.md, E = ½·L·I²·Vcl/(Vcl − Vs) (unclamped inductive switching), which the

@@ -25,8 +25,11 @@ interface RuleCases {
 const p = (kind: string, metrics: Vals, part: Vals, threshold?: number, margin?: number): Case => ({ kind, metrics, part, ...(threshold === undefined ? {} : { threshold }), ...(margin === undefined ? {} : { margin }) });
 const v = (outcome: VerdictOutcome, c: Case) => ({ ...c, outcome });
 
-const AVALANCHE_PART = { avalancheEnergyJ: 0.1, tjMaxC: 175 };
-const NO_ENERGY = p("pn-diode", { absorbedEnergyJ: 0, eventTjC: 85 }, AVALANCHE_PART);
+// The avalanche rules read the rating at the event's Tj (avalancheEnergyAtTjJ, computed in
+// domain/checks/avalanche-derating.ts): EAS 100 mJ at 25 °C, Tj(max) 175 °C, event at 85 °C →
+// 0.1·(175 − 85)/(175 − 25) = 0.06 J (closed form, test/domain/checks/avalanche-derating.test.ts).
+const AT_85C = 0.06;
+const NO_ENERGY = p("pn-diode", { absorbedEnergyJ: 0, avalancheEnergyAtTjJ: AT_85C }, {});
 
 const DEFAULT: Record<string, RuleCases> = {
   "tj-limit": { pass: p("schottky-diode", { tjWorstC: 140 }, { tjMaxC: 150 }, 150, 10), violate: v("fail", p("schottky-diode", { tjWorstC: 151 }, { tjMaxC: 150 }, 150, -1)) },
@@ -38,6 +41,11 @@ const DEFAULT: Record<string, RuleCases> = {
   "fet-vds-reverse-steady": { pass: p("pfet-high-side", { reverseVMaxV: 14 }, { vdsMaxV: 40 }, 32, 18), violate: v("fail", p("pfet-high-side", { reverseVMaxV: 33 }, { vdsMaxV: 40 }, 32, -1)) },
   "fet-vds-reverse-transient": { pass: p("nfet-ideal-diode", { reverseTransientVMaxV: 38 }, { vdsMaxV: 40 }, 40, 2), violate: v("fail", p("nfet-ideal-diode", { reverseTransientVMaxV: 50 }, { vdsMaxV: 40 }, 40, -10)) },
   "pair-forward-blocking": { pass: p("nfet-back-to-back", { supplyMaxV: 16, transientVMaxV: 36 }, { vdsMaxV: 40 }, 40, 4), violate: v("fail", p("nfet-back-to-back", { supplyMaxV: 16, transientVMaxV: 42 }, { vdsMaxV: 40 }, 40, -2)) },
+  // The cold breakdown of a 60 V MOSFET at −40 °C, +0.1 %/K: 60·(1 − 0.001·65) = 56.1 V.
+  "fet-vds-reverse-transient-cold": {
+    pass: p("nfet-ideal-diode", { reverseTransientVMaxV: 50, vdsBreakdownColdV: 56.1 }, {}, 56.1, 6.1),
+    violate: v("fail", p("pfet-high-side", { reverseTransientVMaxV: 58, vdsBreakdownColdV: 56.1 }, {}, 56.1, -1.9)),
+  },
   "fet-vgs-limit": { pass: p("pfet-high-side", { gateSourceVMaxV: 16 }, { vgsMaxV: 20 }, 20, 4), violate: v("fail", p("pfet-high-side", { gateSourceVMaxV: 24 }, { vgsMaxV: 20 }, 20, -4)) },
   "fet-vgs-derated": { pass: p("nfet-low-side", { gateSourceVMaxV: 15 }, { vgsMaxV: 20 }, 16, 1), violate: v("warn", p("nfet-low-side", { gateSourceVMaxV: 18 }, { vgsMaxV: 20 }, 16, -2)) },
   "controller-input-max": {
@@ -55,14 +63,14 @@ const DEFAULT: Record<string, RuleCases> = {
   "loss-budget": { pass: p("schottky-diode", { lossWorstW: 0.75, lossBudgetW: 1 }, {}, 1, 0.25), violate: v("fail", p("schottky-diode", { lossWorstW: 1.5, lossBudgetW: 1 }, {}, 1, -0.5)) },
   // Avalanche: EAS 100 mJ at 25 °C, Tj(max) 175 °C, event at 85 °C → derated 0.1·(175 − 85)/(175 − 25) = 0.06 J.
   "avalanche-energy": {
-    pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.05, eventTjC: 85 }, AVALANCHE_PART, 0.06, 0.01),
-    violate: v("fail", p("nfet-ideal-diode", { absorbedEnergyJ: 0.07, eventTjC: 85 }, AVALANCHE_PART, 0.06, -0.01)),
+    pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.05, avalancheEnergyAtTjJ: AT_85C }, {}, 0.06, 0.01),
+    violate: v("fail", p("nfet-ideal-diode", { absorbedEnergyJ: 0.07, avalancheEnergyAtTjJ: AT_85C }, {}, 0.06, -0.01)),
     off: NO_ENERGY,
   },
   // 0.8 · 0.06 = 0.048 J.
   "avalanche-energy-margin": {
-    pass: p("schottky-diode", { absorbedEnergyJ: 0.04, eventTjC: 85 }, AVALANCHE_PART, 0.048, 0.008),
-    violate: v("warn", p("schottky-diode", { absorbedEnergyJ: 0.05, eventTjC: 85 }, AVALANCHE_PART, 0.048, -0.002)),
+    pass: p("schottky-diode", { absorbedEnergyJ: 0.04, avalancheEnergyAtTjJ: AT_85C }, {}, 0.048, 0.008),
+    violate: v("warn", p("schottky-diode", { absorbedEnergyJ: 0.05, avalancheEnergyAtTjJ: AT_85C }, {}, 0.048, -0.002)),
     off: NO_ENERGY,
   },
   "hold-up-time": { pass: p("schottky-diode", { holdUpS: 0.003, holdUpRequiredS: 0.002 }, {}, 0.002, 0.001), violate: v("fail", p("pfet-high-side", { holdUpS: 0.0015, holdUpRequiredS: 0.002 }, {}, 0.002, -0.0005)) },
@@ -107,6 +115,12 @@ const DEFAULT: Record<string, RuleCases> = {
     pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 30 }, { avalancheCurrentA: 40 }, 40, 10),
     violate: v("fail", p("pfet-high-side", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 50 }, { avalancheCurrentA: 40 }, 40, -10)),
   },
+  // A repeating event's energy against EAR 1 mJ: 0.6 mJ passes (margin 0.4 mJ), 1.2 mJ fails; a one-off event is off.
+  "avalanche-energy-repetitive": {
+    pass: p("nfet-ideal-diode", { turnOffRepetitive: true, absorbedEnergyJ: 0.6e-3 }, { repetitiveAvalancheEnergyJ: 1e-3 }, 1e-3, 0.4e-3),
+    violate: v("fail", p("pfet-high-side", { turnOffRepetitive: true, absorbedEnergyJ: 1.2e-3 }, { repetitiveAvalancheEnergyJ: 1e-3 }, 1e-3, -0.2e-3)),
+    off: p("nfet-low-side", { turnOffRepetitive: false, absorbedEnergyJ: 1.2e-3 }, { repetitiveAvalancheEnergyJ: 1e-3 }),
+  },
   "start-at-profile-minimum": { pass: p("nfet-ideal-diode", { startVoltageV: 3.2, startProfileMinV: 4.5 }, {}, 4.5, 1.3), violate: v("fail", p("integrated-switch", { startVoltageV: 5, startProfileMinV: 4.5 }, {}, 4.5, -0.5)) },
   "start-profile-no-dropout": { pass: p("pn-diode", { startProfileDropoutS: 0 }, {}, 0, 0), violate: v("fail", p("pn-diode", { startProfileDropoutS: 0.02 }, {}, 0, -0.02)) },
 };
@@ -121,6 +135,11 @@ const VEHICLE: Record<string, RuleCases> = {
   "fet-vds-reverse-steady": { pass: p("nfet-low-side", { reverseVMaxV: 14 }, { vdsMaxV: 40 }, 28, 14), violate: v("fail", p("nfet-low-side", { reverseVMaxV: 30 }, { vdsMaxV: 40 }, 28, -2)) },
   "fet-vds-reverse-transient": { pass: p("nfet-ideal-diode", { reverseTransientVMaxV: 35 }, { vdsMaxV: 40 }, 36, 1), violate: v("fail", p("nfet-ideal-diode", { reverseTransientVMaxV: 38 }, { vdsMaxV: 40 }, 36, -2)) },
   "pair-forward-blocking": { pass: p("nfet-back-to-back", { supplyMaxV: 16, transientVMaxV: 35 }, { vdsMaxV: 40 }, 36, 1), violate: v("fail", p("nfet-back-to-back", { supplyMaxV: 16, transientVMaxV: 38 }, { vdsMaxV: 40 }, 36, -2)) },
+  // 0.9 · 56.1 V = 50.49 V.
+  "fet-vds-reverse-transient-cold": {
+    pass: p("nfet-ideal-diode", { reverseTransientVMaxV: 48, vdsBreakdownColdV: 56.1 }, {}, 50.49, 2.49),
+    violate: v("fail", p("nfet-low-side", { reverseTransientVMaxV: 52, vdsBreakdownColdV: 56.1 }, {}, 50.49, -1.51)),
+  },
   "fet-vgs-derated": { pass: p("nfet-low-side", { gateSourceVMaxV: 13 }, { vgsMaxV: 20 }, 14, 1), violate: v("warn", p("nfet-low-side", { gateSourceVMaxV: 15 }, { vgsMaxV: 20 }, 14, -1)) },
   "controller-input-max": {
     pass: p("nfet-ideal-diode", { supplyMaxV: 16, transientVMaxV: 35 }, { maxInputV: 60 }, 54, 19),
@@ -131,13 +150,19 @@ const VEHICLE: Record<string, RuleCases> = {
   "gate-drive-at-min-supply": { pass: p("nfet-low-side", { gateDriveMinV: 6 }, { vgsOnV: 4.5 }, 4.5, 1.5), violate: v("fail", p("nfet-low-side", { gateDriveMinV: 3.5 }, { vgsOnV: 4.5 }, 4.5, -1)) },
   // 0.8 · 0.06 J = 0.048 J; 0.6 · 0.06 J = 0.036 J.
   "avalanche-energy": {
-    pass: p("pfet-high-side", { absorbedEnergyJ: 0.04, eventTjC: 85 }, AVALANCHE_PART, 0.048, 0.008),
-    violate: v("fail", p("pfet-high-side", { absorbedEnergyJ: 0.05, eventTjC: 85 }, AVALANCHE_PART, 0.048, -0.002)),
+    pass: p("pfet-high-side", { absorbedEnergyJ: 0.04, avalancheEnergyAtTjJ: AT_85C }, {}, 0.048, 0.008),
+    violate: v("fail", p("pfet-high-side", { absorbedEnergyJ: 0.05, avalancheEnergyAtTjJ: AT_85C }, {}, 0.048, -0.002)),
     off: NO_ENERGY,
   },
+  // 0.9 · EAR 1 mJ = 0.9 mJ.
+  "avalanche-energy-repetitive": {
+    pass: p("nfet-ideal-diode", { turnOffRepetitive: true, absorbedEnergyJ: 0.6e-3 }, { repetitiveAvalancheEnergyJ: 1e-3 }, 0.9e-3, 0.3e-3),
+    violate: v("fail", p("nfet-low-side", { turnOffRepetitive: true, absorbedEnergyJ: 0.95e-3 }, { repetitiveAvalancheEnergyJ: 1e-3 }, 0.9e-3, -0.05e-3)),
+    off: p("pfet-high-side", { turnOffRepetitive: false, absorbedEnergyJ: 0.95e-3 }, { repetitiveAvalancheEnergyJ: 1e-3 }),
+  },
   "avalanche-energy-margin": {
-    pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.03, eventTjC: 85 }, AVALANCHE_PART, 0.036, 0.006),
-    violate: v("warn", p("nfet-ideal-diode", { absorbedEnergyJ: 0.04, eventTjC: 85 }, AVALANCHE_PART, 0.036, -0.004)),
+    pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.03, avalancheEnergyAtTjJ: AT_85C }, {}, 0.036, 0.006),
+    violate: v("warn", p("nfet-ideal-diode", { absorbedEnergyJ: 0.04, avalancheEnergyAtTjJ: AT_85C }, {}, 0.036, -0.004)),
     off: NO_ENERGY,
   },
   // 1.25 · 2 ms = 2.5 ms (fail); 1.5 · 2 ms = 3 ms (warn).
@@ -188,8 +213,8 @@ const CONSUMER: Record<string, RuleCases> = {
   "standby-quiescent": { pass: p("nfet-ideal-diode", { quiescentA: 50e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, 50e-6), violate: v("warn", p("nfet-ideal-diode", { quiescentA: 150e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, -50e-6)) },
   // 0.9 · 0.06 J = 0.054 J; 1.1 · 2 ms = 2.2 ms; 0.9 · 10 A = 9 A.
   "avalanche-energy-margin": {
-    pass: p("nfet-low-side", { absorbedEnergyJ: 0.05, eventTjC: 85 }, AVALANCHE_PART, 0.054, 0.004),
-    violate: v("warn", p("nfet-low-side", { absorbedEnergyJ: 0.058, eventTjC: 85 }, AVALANCHE_PART, 0.054, -0.004)),
+    pass: p("nfet-low-side", { absorbedEnergyJ: 0.05, avalancheEnergyAtTjJ: AT_85C }, {}, 0.054, 0.004),
+    violate: v("warn", p("nfet-low-side", { absorbedEnergyJ: 0.058, avalancheEnergyAtTjJ: AT_85C }, {}, 0.054, -0.004)),
     off: NO_ENERGY,
   },
   "hold-up-margin": { pass: p("pn-diode", { holdUpS: 0.0025, holdUpRequiredS: 0.002 }, {}, 0.0022, 0.0003), violate: v("warn", p("pn-diode", { holdUpS: 0.0021, holdUpRequiredS: 0.002 }, {}, 0.0022, -0.0001)) },
