@@ -69,7 +69,11 @@ export function removeStalePartials(path: string): string[] {
  * on SIGTERM/SIGINT (then the process exits 2). Partials left by dead runs are removed first.
  * `write` resolves when more may be written (backpressure) and rejects when the file cannot be written.
  */
-export async function writeStreamAtomic(path: string, body: (write: (t: string | Uint8Array) => Promise<void>) => Promise<void>, log: (line: string) => void): Promise<void> {
+export async function writeStreamAtomic(
+  path: string,
+  body: (write: (t: string | Uint8Array) => Promise<void>) => Promise<void>,
+  log: (line: string) => void,
+): Promise<void> {
   const partial = `${path}.partial-${process.pid}`;
   for (const f of removeStalePartials(path)) log(`backstop: removed ${f}, left by a run that no longer exists`);
   const onSignal = () => {
@@ -87,7 +91,10 @@ export async function writeStreamAtomic(path: string, body: (write: (t: string |
     const stream = out;
     const failed = new Promise<never>((_, reject) => stream.once("error", reject));
     failed.catch(() => undefined);
-    const write = (t: string | Uint8Array) => (stream.write(t) ? Promise.resolve() : Promise.race([new Promise<void>((r) => stream.once("drain", () => r())), failed]));
+    const write = (t: string | Uint8Array) =>
+      stream.write(t)
+        ? Promise.resolve()
+        : Promise.race([new Promise<void>((r) => stream.once("drain", () => r())), failed]);
     await Promise.race([body(write), failed]);
     stream.end();
     await finished(stream);

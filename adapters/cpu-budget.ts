@@ -16,7 +16,10 @@ export function cpuBudget(read: (path: string) => string | undefined = readQuiet
 export function quotaCpus(read: (path: string) => string | undefined): number | undefined {
   const v2 = read("/sys/fs/cgroup/cpu.max")?.trim().split(/\s+/);
   if (v2 !== undefined && v2.length === 2) return ratio(v2[0], v2[1]);
-  return ratio(read("/sys/fs/cgroup/cpu/cpu.cfs_quota_us")?.trim(), read("/sys/fs/cgroup/cpu/cpu.cfs_period_us")?.trim());
+  return ratio(
+    read("/sys/fs/cgroup/cpu/cpu.cfs_quota_us")?.trim(),
+    read("/sys/fs/cgroup/cpu/cpu.cfs_period_us")?.trim(),
+  );
 }
 
 function ratio(quota: string | undefined, period: string | undefined): number | undefined {

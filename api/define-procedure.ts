@@ -16,7 +16,12 @@ export interface ProcedureCall<I> {
  * checks results against it). `description` is the OpenAPI summary (default: the input contract's
  * description).
  */
-export interface ProcedureDefinition<N extends string = string, In extends z.ZodType = z.ZodType, Out extends z.ZodType = z.ZodType, R = unknown> {
+export interface ProcedureDefinition<
+  N extends string = string,
+  In extends z.ZodType = z.ZodType,
+  Out extends z.ZodType = z.ZodType,
+  R = unknown,
+> {
   readonly name: N;
   readonly input: In;
   readonly output: Out;
@@ -25,11 +30,18 @@ export interface ProcedureDefinition<N extends string = string, In extends z.Zod
 }
 
 /** A value of `T` that may be read only (what a handler may answer where the contract says `T`). */
-type ReadOnly<T> = T extends readonly (infer E)[] ? readonly ReadOnly<E>[] : T extends object ? { readonly [K in keyof T]: ReadOnly<T[K]> } : T;
+type ReadOnly<T> = T extends readonly (infer E)[]
+  ? readonly ReadOnly<E>[]
+  : T extends object
+    ? { readonly [K in keyof T]: ReadOnly<T[K]> }
+    : T;
 
 /** A procedure of the table (the compiler checks that the handler's answer has the output contract's type). */
-export function defineProcedure<const N extends string, In extends z.ZodType, Out extends z.ZodType, R extends ReadOnly<z.output<Out>> | Promise<ReadOnly<z.output<Out>>>>(
-  definition: ProcedureDefinition<N, In, Out, R>,
-): ProcedureDefinition<N, In, Out, R> {
+export function defineProcedure<
+  const N extends string,
+  In extends z.ZodType,
+  Out extends z.ZodType,
+  R extends ReadOnly<z.output<Out>> | Promise<ReadOnly<z.output<Out>>>,
+>(definition: ProcedureDefinition<N, In, Out, R>): ProcedureDefinition<N, In, Out, R> {
   return definition;
 }

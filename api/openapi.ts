@@ -6,7 +6,18 @@ import { procedureEntries } from "./procedure-registry.js";
 type Json = { [k: string]: unknown };
 
 const SCHEMA_MAPS = new Set(["properties", "patternProperties", "$defs", "definitions", "dependentSchemas"]);
-const SCHEMA_ONE = new Set(["items", "additionalProperties", "not", "if", "then", "else", "contains", "propertyNames", "unevaluatedItems", "unevaluatedProperties"]);
+const SCHEMA_ONE = new Set([
+  "items",
+  "additionalProperties",
+  "not",
+  "if",
+  "then",
+  "else",
+  "contains",
+  "propertyNames",
+  "unevaluatedItems",
+  "unevaluatedProperties",
+]);
 const SCHEMA_LIST = new Set(["anyOf", "oneOf", "allOf", "prefixItems"]);
 const BOUND_KEYWORD = { gt: "exclusiveMinimum", ge: "minimum", lt: "exclusiveMaximum", le: "maximum" } as const;
 
@@ -28,7 +39,8 @@ function tidy(node: unknown, defs: Json = {}): unknown {
   const out: Json = {};
   for (const [k, v] of Object.entries(src)) {
     if (k === "$schema") continue;
-    if (SCHEMA_MAPS.has(k) && typeof v === "object" && v !== null) out[k] = Object.fromEntries(Object.entries(v as Json).map(([name, s]) => [name, tidy(s, defs)]));
+    if (SCHEMA_MAPS.has(k) && typeof v === "object" && v !== null)
+      out[k] = Object.fromEntries(Object.entries(v as Json).map(([name, s]) => [name, tidy(s, defs)]));
     else if (SCHEMA_ONE.has(k) || SCHEMA_LIST.has(k)) out[k] = tidy(v, defs);
     else if (k === "unit" && typeof v === "string") out["x-unit"] = v;
     else if (k in BOUND_KEYWORD && typeof v === "number") continue;
@@ -36,7 +48,11 @@ function tidy(node: unknown, defs: Json = {}): unknown {
   }
   const bounds = Object.entries(BOUND_KEYWORD).filter(([k]) => typeof src[k] === "number");
   if (bounds.length > 0) {
-    const numberBranch = Array.isArray(out.anyOf) ? (out.anyOf as Json[]).find((b) => b.type === "number") : out.type === "number" ? out : undefined;
+    const numberBranch = Array.isArray(out.anyOf)
+      ? (out.anyOf as Json[]).find((b) => b.type === "number")
+      : out.type === "number"
+        ? out
+        : undefined;
     if (numberBranch) for (const [k, keyword] of bounds) numberBranch[keyword] = src[k];
     else out["x-bounds"] = Object.fromEntries(bounds.map(([k]) => [k, src[k]]));
   }
@@ -49,7 +65,8 @@ function schemaOf(schema: z.ZodType, io: "input" | "output", prefix: string, com
   let text = JSON.stringify(tidy(raw, (raw.$defs as Json | undefined) ?? {}));
   const defs = (JSON.parse(text) as Json).$defs as Json | undefined;
   if (defs) {
-    for (const name of Object.keys(defs)) text = text.replaceAll(`"#/$defs/${name}"`, `"#/components/schemas/${prefix}_${name}"`);
+    for (const name of Object.keys(defs))
+      text = text.replaceAll(`"#/$defs/${name}"`, `"#/components/schemas/${prefix}_${name}"`);
     const fixed = JSON.parse(text) as Json;
     for (const [name, s] of Object.entries(fixed.$defs as Json)) components[`${prefix}_${name}`] = s;
     delete fixed.$defs;
@@ -58,9 +75,16 @@ function schemaOf(schema: z.ZodType, io: "input" | "output", prefix: string, com
   return JSON.parse(text) as Json;
 }
 
-const pascal = (path: string) => path.split(/[.\-_]/).map((p) => p.charAt(0).toUpperCase() + p.slice(1)).join("");
+const pascal = (path: string) =>
+  path
+    .split(/[.\-_]/)
+    .map((p) => p.charAt(0).toUpperCase() + p.slice(1))
+    .join("");
 const ref = (name: string) => ({ $ref: `#/components/schemas/${name}` });
-const problemResponse = (description: string) => ({ description, content: { "application/problem+json": { schema: ref("Problem") } } });
+const problemResponse = (description: string) => ({
+  description,
+  content: { "application/problem+json": { schema: ref("Problem") } },
+});
 
 const ERRORS = {
   "400": problemResponse("invalid input (with the field paths) or malformed JSON"),
@@ -78,7 +102,9 @@ export function openApiDocument(opts: { maxBulkItems?: number } = {}): Json {
   for (const e of procedureEntries()) {
     const name = pascal(e.path);
     schemas[`${name}Input`] = e.input ? schemaOf(e.input, "input", `${name}Input`, schemas) : {};
-    schemas[`${name}Output`] = e.output ? schemaOf(e.output, "output", `${name}Output`, schemas) : { description: "not declared in the contracts" };
+    schemas[`${name}Output`] = e.output
+      ? schemaOf(e.output, "output", `${name}Output`, schemas)
+      : { description: "not declared in the contracts" };
     const summary = e.description ?? e.path;
     const tags = [e.path.includes(".") ? (e.path.split(".")[0] as string) : "analyses"];
     paths[`/v1/${e.path}`] = {
@@ -87,7 +113,13 @@ export function openApiDocument(opts: { maxBulkItems?: number } = {}): Json {
         summary,
         tags,
         requestBody: { required: true, content: { "application/json": { schema: ref(`${name}Input`) } } },
-        responses: { "200": { description: "the result (an outcome is data, not an error)", content: { "application/json": { schema: ref(`${name}Output`) } } }, ...ERRORS },
+        responses: {
+          "200": {
+            description: "the result (an outcome is data, not an error)",
+            content: { "application/json": { schema: ref(`${name}Output`) } },
+          },
+          ...ERRORS,
+        },
       },
     };
     paths[`/v1/${e.path}/bulk`] = {
@@ -97,7 +129,11 @@ export function openApiDocument(opts: { maxBulkItems?: number } = {}): Json {
         tags,
         requestBody: {
           required: true,
-          content: { "application/json": { schema: { type: "array", maxItems: opts.maxBulkItems ?? 10_000, items: ref(`${name}Input`) } } },
+          content: {
+            "application/json": {
+              schema: { type: "array", maxItems: opts.maxBulkItems ?? 10_000, items: ref(`${name}Input`) },
+            },
+          },
         },
         responses: {
           "200": {
@@ -112,8 +148,16 @@ export function openApiDocument(opts: { maxBulkItems?: number } = {}): Json {
                       type: "array",
                       items: {
                         oneOf: [
-                          { type: "object", required: ["ok", "result"], properties: { ok: { const: true }, result: ref(`${name}Output`) } },
-                          { type: "object", required: ["ok", "problem"], properties: { ok: { const: false }, problem: ref("Problem") } },
+                          {
+                            type: "object",
+                            required: ["ok", "result"],
+                            properties: { ok: { const: true }, result: ref(`${name}Output`) },
+                          },
+                          {
+                            type: "object",
+                            required: ["ok", "problem"],
+                            properties: { ok: { const: false }, problem: ref("Problem") },
+                          },
                         ],
                       },
                     },
@@ -130,31 +174,69 @@ export function openApiDocument(opts: { maxBulkItems?: number } = {}): Json {
     };
   }
   schemas.Problem = schemaOf(problem, "output", "Problem", schemas);
-  const text = (description: string, type = "text/plain") => ({ description, content: { [type]: { schema: { type: "string" } } } });
-  const probe = (summary: string, extra: Json = {}) => ({ get: { operationId: summary.split(" ")[0], summary, tags: ["operations"], security: [], responses: { "200": text("ok", "application/json"), ...extra } } });
+  const text = (description: string, type = "text/plain") => ({
+    description,
+    content: { [type]: { schema: { type: "string" } } },
+  });
+  const probe = (summary: string, extra: Json = {}) => ({
+    get: {
+      operationId: summary.split(" ")[0],
+      summary,
+      tags: ["operations"],
+      security: [],
+      responses: { "200": text("ok", "application/json"), ...extra },
+    },
+  });
   paths["/v1/review/report"] = {
     post: {
       operationId: "review_report",
-      summary: "the design review rendered as a report: self-contained HTML with inline SVG charts (default), Markdown, or the review result",
+      summary:
+        "the design review rendered as a report: self-contained HTML with inline SVG charts (default), Markdown, or the review result",
       tags: ["analyses"],
       parameters: [
-        { name: "format", in: "query", required: false, schema: { enum: ["html", "markdown", "json"] }, description: "also a `format` field of the body, or Accept: text/html / text/markdown" },
-        { name: "id", in: "query", required: false, schema: { type: "string" }, description: "names the report (title)" },
+        {
+          name: "format",
+          in: "query",
+          required: false,
+          schema: { enum: ["html", "markdown", "json"] },
+          description: "also a `format` field of the body, or Accept: text/html / text/markdown",
+        },
+        {
+          name: "id",
+          in: "query",
+          required: false,
+          schema: { type: "string" },
+          description: "names the report (title)",
+        },
       ],
       requestBody: { required: true, content: { "application/json": { schema: ref("ReviewInput") } } },
       responses: {
         "200": {
           description: "the report",
-          content: { "text/html": { schema: { type: "string" } }, "text/markdown": { schema: { type: "string" } }, "application/json": { schema: ref("ReviewOutput") } },
+          content: {
+            "text/html": { schema: { type: "string" } },
+            "text/markdown": { schema: { type: "string" } },
+            "application/json": { schema: ref("ReviewOutput") },
+          },
         },
         ...ERRORS,
       },
     },
   };
   paths["/livez"] = probe("livez: the process runs");
-  paths["/readyz"] = probe("readyz: ready for traffic (503 while draining)", { "503": text("draining", "application/json") });
+  paths["/readyz"] = probe("readyz: ready for traffic (503 while draining)", {
+    "503": text("draining", "application/json"),
+  });
   paths["/healthz"] = probe("healthz: alias of livez");
-  paths["/metrics"] = { get: { operationId: "metrics", summary: "Prometheus metrics", tags: ["operations"], security: [], responses: { "200": text("text exposition format") } } };
+  paths["/metrics"] = {
+    get: {
+      operationId: "metrics",
+      summary: "Prometheus metrics",
+      tags: ["operations"],
+      security: [],
+      responses: { "200": text("text exposition format") },
+    },
+  };
   return {
     openapi: "3.1.0",
     info: {
@@ -163,7 +245,7 @@ export function openApiDocument(opts: { maxBulkItems?: number } = {}): Json {
       description:
         "Rules and calculations for reverse-polarity and reverse-current protection stages. Every analysis is POST /v1/<procedure> " +
         "(and /v1/<procedure>/bulk for many cases); the same procedures are served over tRPC at /trpc/<procedure>. " +
-        "Quantities are numbers in the unit their name states (x-unit) or strings with a unit (\"2.5 mOhm\"). " +
+        'Quantities are numbers in the unit their name states (x-unit) or strings with a unit ("2.5 mOhm"). ' +
         "Results are engineering estimates: verify on hardware and against the applicable standards.",
     },
     servers: [{ url: "/" }],
@@ -176,7 +258,11 @@ export function openApiDocument(opts: { maxBulkItems?: number } = {}): Json {
     components: {
       schemas,
       securitySchemes: {
-        bearerAuth: { type: "http", scheme: "bearer", description: "an API key from BACKSTOP_API_KEYS (only when auth is on)" },
+        bearerAuth: {
+          type: "http",
+          scheme: "bearer",
+          description: "an API key from BACKSTOP_API_KEYS (only when auth is on)",
+        },
         apiKeyHeader: { type: "apiKey", in: "header", name: "X-API-Key" },
       },
     },

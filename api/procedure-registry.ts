@@ -18,7 +18,9 @@ export interface ProcedureEntry {
   readonly description: string | undefined;
 }
 
-const definitions: ReadonlyMap<string, ProcedureDefinition> = new Map(PROCEDURE_TABLE.map((d): [string, ProcedureDefinition] => [d.name, d]));
+const definitions: ReadonlyMap<string, ProcedureDefinition> = new Map(
+  PROCEDURE_TABLE.map((d): [string, ProcedureDefinition] => [d.name, d]),
+);
 
 function describe(schema: z.ZodType): string | undefined {
   const d = schema.meta()?.description;
@@ -30,7 +32,13 @@ let cache: readonly ProcedureEntry[] | undefined;
 /** Every procedure of the table, sorted by path (a stable order for OpenAPI and listings). */
 export function procedureEntries(): readonly ProcedureEntry[] {
   cache ??= [...definitions.values()]
-    .map((d) => ({ path: d.name, type: "query" as const, input: d.input, output: d.output, description: d.description ?? describe(d.input) }))
+    .map((d) => ({
+      path: d.name,
+      type: "query" as const,
+      input: d.input,
+      output: d.output,
+      description: d.description ?? describe(d.input),
+    }))
     .sort((a, b) => (a.path < b.path ? -1 : a.path > b.path ? 1 : 0));
   return cache;
 }
@@ -51,7 +59,8 @@ export interface Invoke {
 }
 
 /** A promise (or any thenable): what `Invoke.now` returns where a procedure is asynchronous. */
-export const isThenable = (v: unknown): v is PromiseLike<unknown> => typeof v === "object" && v !== null && typeof (v as { then?: unknown }).then === "function";
+export const isThenable = (v: unknown): v is PromiseLike<unknown> =>
+  typeof v === "object" && v !== null && typeof (v as { then?: unknown }).then === "function";
 
 /**
  * The one definition of a call: the input parsed by the entry's contract (a failure is
@@ -81,7 +90,12 @@ function callNow(d: ProcedureDefinition, ctx: Context, raw: unknown): unknown {
 }
 
 /** Tell the context's observer of one call that began at `started` (performance.now()). */
-function observeCall(ctx: Context, path: string, started: number, r: { ok: true; data: unknown } | { ok: false; error: unknown }): void {
+function observeCall(
+  ctx: Context,
+  path: string,
+  started: number,
+  r: { ok: true; data: unknown } | { ok: false; error: unknown },
+): void {
   if (ctx.observe === undefined) return;
   const seconds = (performance.now() - started) / 1000;
   ctx.observe(r.ok ? { path, ok: true, data: r.data, seconds } : { path, ok: false, error: r.error, seconds });
@@ -122,7 +136,10 @@ export function procedureInvoker(ctx: Context): (path: string) => Invoke | undef
     if (invoke === undefined) {
       const d = definitions.get(path);
       if (d === undefined) return undefined;
-      const now = ctx.observe === undefined ? (raw: unknown) => callNow(d, ctx, raw) : (raw: unknown) => observed(ctx, path, () => callNow(d, ctx, raw));
+      const now =
+        ctx.observe === undefined
+          ? (raw: unknown) => callNow(d, ctx, raw)
+          : (raw: unknown) => observed(ctx, path, () => callNow(d, ctx, raw));
       invoke = Object.assign(async (raw: unknown) => now(raw), { now });
       invokers.set(path, invoke);
     }
@@ -145,5 +162,7 @@ export function runProcedure(path: string, raw: unknown, ctx: Context): unknown 
 /** The HTTP status a thrown procedure error maps to (the same mapping /trpc uses): tRPC's, and 422 for UNPROCESSABLE_CODES (an input past a limit). */
 export function httpStatusOf(err: unknown): number {
   if (!(err instanceof TRPCError)) return 500;
-  return err.code === "BAD_REQUEST" && UNPROCESSABLE_CODES.has(errorBodyOf(err).code) ? 422 : getHTTPStatusCodeFromError(err);
+  return err.code === "BAD_REQUEST" && UNPROCESSABLE_CODES.has(errorBodyOf(err).code)
+    ? 422
+    : getHTTPStatusCodeFromError(err);
 }

@@ -15,7 +15,19 @@ import { turnOff } from "./procedures/turn-off.js";
  * tRPC router (`api/router.ts`), `/v1` and bulk, the batch, the compute threads, the OpenAPI
  * document and the metrics are all built from this list (`api/procedure-registry.ts`).
  */
-export const PROCEDURE_TABLE = [operatingPoint, review, ...rules, turnOff, holdUp, oring, batteryCharge, bridgeDc, bridgeAc, ...sizing, fit] as const;
+export const PROCEDURE_TABLE = [
+  operatingPoint,
+  review,
+  ...rules,
+  turnOff,
+  holdUp,
+  oring,
+  batteryCharge,
+  bridgeDc,
+  bridgeAc,
+  ...sizing,
+  fit,
+] as const;
 
 /** A procedure of the table. */
 export type TableProcedure = (typeof PROCEDURE_TABLE)[number];

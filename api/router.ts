@@ -3,11 +3,21 @@ import { PROCEDURE_TABLE, type TableProcedure } from "./procedure-table.js";
 import { router, trpcProcedure } from "./trpc.js";
 
 /** `{ rules: { evaluate: P } }` for the name "rules.evaluate". */
-type Nested<Name extends string, P> = Name extends `${infer Head}.${infer Rest}` ? { [K in Head]: Nested<Rest, P> } : { [K in Name]: P };
+type Nested<Name extends string, P> = Name extends `${infer Head}.${infer Rest}`
+  ? { [K in Head]: Nested<Rest, P> }
+  : { [K in Name]: P };
 type Intersection<U> = (U extends unknown ? (u: U) => void : never) extends (i: infer I) => void ? I : never;
 type Merged<T> = { [K in keyof T]: T[K] extends AnyTRPCProcedure ? T[K] : Merged<T[K]> };
 /** The router's record: each table entry's tRPC query at its dotted name. */
-type RouterRecord = Merged<Intersection<TableProcedure extends infer D ? (D extends TableProcedure ? Nested<D["name"], ReturnType<typeof trpcProcedure<D>>> : never) : never>>;
+type RouterRecord = Merged<
+  Intersection<
+    TableProcedure extends infer D
+      ? D extends TableProcedure
+        ? Nested<D["name"], ReturnType<typeof trpcProcedure<D>>>
+        : never
+      : never
+  >
+>;
 
 function nest(): RouterRecord {
   const root: Record<string, unknown> = {};

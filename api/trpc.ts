@@ -26,5 +26,7 @@ export const router = t.router;
 export function trpcProcedure<D extends ProcedureDefinition>(definition: D) {
   type Answer = Awaited<ReturnType<D["handler"]>>;
   const passThrough = (raw: unknown) => raw as z.input<D["input"]>;
-  return t.procedure.input(passThrough).query(({ input, ctx }) => runProcedure(definition.name, input, ctx) as Answer | Promise<Answer>);
+  return t.procedure
+    .input(passThrough)
+    .query(({ input, ctx }) => runProcedure(definition.name, input, ctx) as Answer | Promise<Answer>);
 }

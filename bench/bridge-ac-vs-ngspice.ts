@@ -25,7 +25,13 @@ import { join } from "node:path";
 import { type BridgeAcModel, solveBridgeAcAt, steadyStateOf } from "../domain/checks/bridge-ac.js";
 import type { BridgeElements } from "../domain/checks/bridge-element.js";
 import { activeElement, demoPn, diodeElement, uniform } from "../test/helpers/bridge-parts.js";
-import { bridgeNetlist, reduceBridgeRows, type SpiceBridge, type SpiceBridgeResult, spiceBridgeOf } from "../test/helpers/bridge-spice.js";
+import {
+  bridgeNetlist,
+  reduceBridgeRows,
+  type SpiceBridge,
+  type SpiceBridgeResult,
+  spiceBridgeOf,
+} from "../test/helpers/bridge-spice.js";
 
 const T25 = 298.15;
 const temps = { line1High: T25, line2High: T25, line1Low: T25, line2Low: T25 };
@@ -35,10 +41,25 @@ const MAX_PERIODS = 15;
 const CLASS_BAR = 1e-3;
 
 function model(elements: BridgeElements, leakageInductanceH: number): BridgeAcModel {
-  return { elements, sourceRmsV: 24, frequencyHz: 50, sourceResistanceOhm: 0.5, leakageInductanceH, capacitanceF: 2200e-6, esrOhm: 0.05, load: { kind: "resistive", resistanceOhm: 20 }, ambientC: 25 };
+  return {
+    elements,
+    sourceRmsV: 24,
+    frequencyHz: 50,
+    sourceResistanceOhm: 0.5,
+    leakageInductanceH,
+    capacitanceF: 2200e-6,
+    esrOhm: 0.05,
+    load: { kind: "resistive", resistanceOhm: 20 },
+    ambientC: 25,
+  };
 }
 
-function spice(m: BridgeAcModel, periods: number, switchOnOhm: number | undefined, maxStepFraction = 1 / 2000): SpiceBridge {
+function spice(
+  m: BridgeAcModel,
+  periods: number,
+  switchOnOhm: number | undefined,
+  maxStepFraction = 1 / 2000,
+): SpiceBridge {
   return { ...spiceBridgeOf(m, demoPn, periods, switchOnOhm), maxStepFraction };
 }
 
@@ -49,10 +70,20 @@ function timedNgspice(netlist: string): { rows: number[][]; ms: number } {
     writeFileSync(join(dir, ".spiceinit"), "");
     writeFileSync(join(dir, "circuit.cir"), netlist);
     // CPU time (user + system) of the ngspice child, from bash's `times` (robust to a busy machine).
-    const out = execFileSync("bash", ["-c", "ngspice -b circuit.cir >/dev/null 2>&1; times"], { cwd: dir, encoding: "utf8", timeout: 300_000 });
+    const out = execFileSync("bash", ["-c", "ngspice -b circuit.cir >/dev/null 2>&1; times"], {
+      cwd: dir,
+      encoding: "utf8",
+      timeout: 300_000,
+    });
     const child = out.trim().split("\n")[1] ?? "";
-    const ms = [...child.matchAll(/(\d+)m([\d.]+)s/g)].reduce((sum, m) => sum + (Number(m[1]) * 60 + Number(m[2])) * 1000, 0);
-    const rows = readFileSync(join(dir, "out.txt"), "utf8").trim().split("\n").map((l) => l.trim().split(/\s+/).map(Number));
+    const ms = [...child.matchAll(/(\d+)m([\d.]+)s/g)].reduce(
+      (sum, m) => sum + (Number(m[1]) * 60 + Number(m[2])) * 1000,
+      0,
+    );
+    const rows = readFileSync(join(dir, "out.txt"), "utf8")
+      .trim()
+      .split("\n")
+      .map((l) => l.trim().split(/\s+/).map(Number));
     return { rows, ms };
   } finally {
     rmSync(dir, { recursive: true, force: true });
@@ -85,7 +116,12 @@ function maxRel(a: Comparable, ref: SpiceBridgeResult): number {
 const cases = [
   { name: "diode bridge", elements: uniform(diodeElement()), sw: undefined, l: 0 },
   { name: "diode bridge, 2 mH leakage", elements: uniform(diodeElement()), sw: undefined, l: 2e-3 },
-  { name: "active bridge (switch 20 mΩ + body diode)", elements: uniform(activeElement({ rdsOnOhm: 0.02 })), sw: 0.02, l: 0 },
+  {
+    name: "active bridge (switch 20 mΩ + body diode)",
+    elements: uniform(activeElement({ rdsOnOhm: 0.02 })),
+    sw: 0.02,
+    l: 0,
+  },
 ];
 
 const SPICE_RUNS = 5;
@@ -102,7 +138,13 @@ interface SpiceCandidate {
 }
 
 /** For each largest step, the fewest periods within `bar` of the reference; the cheapest of those, timed. */
-function cheapestWithin(m: BridgeAcModel, sw: number | undefined, ref: SpiceBridgeResult, bar: number, probe: Map<string, number>): SpiceCandidate | undefined {
+function cheapestWithin(
+  m: BridgeAcModel,
+  sw: number | undefined,
+  ref: SpiceBridgeResult,
+  bar: number,
+  probe: Map<string, number>,
+): SpiceCandidate | undefined {
   const found: SpiceCandidate[] = [];
   for (const frac of STEP_FRACTIONS) {
     for (let p = 2; p <= MAX_PERIODS; p += 1) {
@@ -165,12 +207,19 @@ for (const c of cases) {
   const startupSpec = spice(m, 1, c.sw);
   const startupNet = bridgeNetlist(startupSpec).replace(/\.tran (\S+) (\S+) (\S+) (\S+) uic/, ".tran $1 $1 0 $1 uic");
   const startup = stats(Array.from({ length: SPICE_RUNS }, () => timedNgspice(startupNet).ms));
-  const ratio = (s: { best: number; median: number }) => ({ best: Number((s.best / oursT.best).toFixed(0)), median: Number((s.median / oursT.median).toFixed(0)) });
+  const ratio = (s: { best: number; median: number }) => ({
+    best: Number((s.best / oursT.best).toFixed(0)),
+    median: Number((s.median / oursT.median).toFixed(0)),
+  });
   const pct = (x: number) => `${(x * 100).toFixed(3)} %`;
   const describe = (s: SpiceCandidate | undefined) =>
     s === undefined
       ? undefined
-      : { ...s, ratio: ratio(s.ms), ratioNetOfStartup: ratio({ best: s.ms.best - startup.best, median: s.ms.median - startup.median }) };
+      : {
+          ...s,
+          ratio: ratio(s.ms),
+          ratioNetOfStartup: ratio({ best: s.ms.best - startup.best, median: s.ms.median - startup.median }),
+        };
   const row = {
     case: c.name,
     ngspiceSettings: "reltol 1e-5, abstol 1e-9, vntol 1e-7, method gear, maxord 2, from a discharged capacitor (uic)",

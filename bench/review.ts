@@ -12,7 +12,12 @@ import { DEMO_CATALOG } from "../adapters/project-root.js";
 const invoke = procedureInvoker({ catalog: loadCatalogFile(DEMO_CATALOG()) })("review");
 if (invoke === undefined) throw new Error("review procedure missing");
 
-const candidates = ["demo-schottky-10a-60v", "demo-pfet-40v-12mohm", "demo-ideal-diode-60v-3mohm", "demo-integrated-ideal-diode-5a-36v"].map((partId) => ({
+const candidates = [
+  "demo-schottky-10a-60v",
+  "demo-pfet-40v-12mohm",
+  "demo-ideal-diode-60v-3mohm",
+  "demo-integrated-ideal-diode-5a-36v",
+].map((partId) => ({
   stage: { kind: "catalog-part", partId },
   datasheetMax: { rdsOnFactor: 1.3, forwardVoltageFactor: 1.1 },
 }));
@@ -27,13 +32,28 @@ const review = {
   },
   candidates,
 };
-const withMc = { ...review, candidates: [candidates[2]], monteCarlo: { samples: 10_000, seed: 1, tolerances: [{ parameter: "rdsOn", distribution: "normal", sigma: 0.08 }, { parameter: "ambientC", distribution: "normal", sigma: 3 }] } };
+const withMc = {
+  ...review,
+  candidates: [candidates[2]],
+  monteCarlo: {
+    samples: 10_000,
+    seed: 1,
+    tolerances: [
+      { parameter: "rdsOn", distribution: "normal", sigma: 0.08 },
+      { parameter: "ambientC", distribution: "normal", sigma: 3 },
+    ],
+  },
+};
 
 /**
  * Runs per second of one input: the best of 7 timed rounds after a warm-up (the machine is shared
  * and noisy; the best round is the one least disturbed), with the median round beside it.
  */
-async function timeIt(label: string, roundSeconds: number, input: unknown): Promise<{ label: string; perSecond: number; msEach: number; medianPerSecond: number; medianMsEach: number }> {
+async function timeIt(
+  label: string,
+  roundSeconds: number,
+  input: unknown,
+): Promise<{ label: string; perSecond: number; msEach: number; medianPerSecond: number; medianMsEach: number }> {
   if (invoke === undefined) throw new Error("unreachable");
   for (let i = 0; i < 20; i += 1) await invoke(input);
   const rounds: number[] = [];
@@ -52,8 +72,13 @@ async function timeIt(label: string, roundSeconds: number, input: unknown): Prom
   return { label, perSecond: best, msEach: 1000 / best, medianPerSecond: median, medianMsEach: 1000 / median };
 }
 
-const rows = [await timeIt("review: 4 candidates × 24 corners, default rules", 0.7, review), await timeIt("Monte Carlo: 10 000 samples, 1 candidate", 1, withMc)];
+const rows = [
+  await timeIt("review: 4 candidates × 24 corners, default rules", 0.7, review),
+  await timeIt("Monte Carlo: 10 000 samples, 1 candidate", 1, withMc),
+];
 for (const r of rows) {
-  console.log(`${r.label.padEnd(52)} ${r.perSecond.toFixed(1).padStart(10)} /s ${r.msEach.toFixed(3).padStart(10)} ms each (best of 7 rounds; median ${r.medianPerSecond.toFixed(1)} /s, ${r.medianMsEach.toFixed(3)} ms)`);
+  console.log(
+    `${r.label.padEnd(52)} ${r.perSecond.toFixed(1).padStart(10)} /s ${r.msEach.toFixed(3).padStart(10)} ms each (best of 7 rounds; median ${r.medianPerSecond.toFixed(1)} /s, ${r.medianMsEach.toFixed(3)} ms)`,
+  );
 }
 console.log(JSON.stringify({ review: rows[0], monteCarlo: rows[1] }));

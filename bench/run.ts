@@ -48,7 +48,10 @@ const parts: [string, () => Promise<PartResult>][] = [
 ];
 const only = process.env.BENCH_ONLY?.split(",");
 const file = join(root, "bench", "results.json");
-const previous = (existsSync(file) ? (JSON.parse(readFileSync(file, "utf8")) as { parts?: Record<string, PartEntry> }).parts : undefined) ?? {};
+const previous =
+  (existsSync(file)
+    ? (JSON.parse(readFileSync(file, "utf8")) as { parts?: Record<string, PartEntry> }).parts
+    : undefined) ?? {};
 const entries: Record<string, PartEntry> = only ? { ...previous } : {};
 const rows: Row[] = [];
 for (const [name, f] of parts) {
@@ -59,18 +62,56 @@ for (const [name, f] of parts) {
   try {
     result = await f();
   } catch (e) {
-    result = { rows: [{ part: name, metric: `failed: ${(e as Error).message.slice(0, 300)}`, value: Number.NaN, unit: "", pass: false }], details: {} };
+    result = {
+      rows: [
+        {
+          part: name,
+          metric: `failed: ${(e as Error).message.slice(0, 300)}`,
+          value: Number.NaN,
+          unit: "",
+          pass: false,
+        },
+      ],
+      details: {},
+    };
   }
-  const measured = { at: new Date().toISOString(), cores: availableParallelism(), cpu: cpus()[0]?.model ?? "unknown", node: process.version, loadAverageAtStart, loadAverageAtEnd: loadavg().map((x) => round(x)), seconds: round((performance.now() - t0) / 1000, 1) };
+  const measured = {
+    at: new Date().toISOString(),
+    cores: availableParallelism(),
+    cpu: cpus()[0]?.model ?? "unknown",
+    node: process.version,
+    loadAverageAtStart,
+    loadAverageAtEnd: loadavg().map((x) => round(x)),
+    seconds: round((performance.now() - t0) / 1000, 1),
+  };
   entries[name] = { measured, ...result };
   rows.push(...result.rows);
 }
 
 const fmt = (v: number) => (Number.isNaN(v) ? "—" : v.toLocaleString("en-US", { maximumFractionDigits: 3 }));
 const header = ["part", "metric", "value", "unit", "vs", "ratio", "spread", "target", "ok"];
-const table = rows.map((r) => [r.part, r.metric, fmt(r.value), r.unit, r.baseline ?? "", r.ratio === undefined ? "" : String(r.ratio), r.spread === undefined ? "" : `${r.spread[0]}–${r.spread[1]}`, r.target ?? "", r.pass === undefined ? "" : r.pass ? "yes" : "NO"]);
+const table = rows.map((r) => [
+  r.part,
+  r.metric,
+  fmt(r.value),
+  r.unit,
+  r.baseline ?? "",
+  r.ratio === undefined ? "" : String(r.ratio),
+  r.spread === undefined ? "" : `${r.spread[0]}–${r.spread[1]}`,
+  r.target ?? "",
+  r.pass === undefined ? "" : r.pass ? "yes" : "NO",
+]);
 const widths = header.map((h, i) => Math.max(h.length, ...table.map((t) => (t[i] as string).length)));
-const line = (cells: string[]) => cells.map((c, i) => (i === 2 || i === 5 ? c.padStart(widths[i] as number) : c.padEnd(widths[i] as number))).join("  ");
-process.stdout.write(`${line(header)}\n${widths.map((w) => "-".repeat(w)).join("  ")}\n${table.map(line).join("\n")}\n`);
-process.stdout.write(`\nmachine: ${availableParallelism()} cores, ${cpus()[0]?.model ?? "unknown"}, node ${process.version}; load average now ${loadavg().map((x) => round(x)).join(" ")}\n`);
+const line = (cells: string[]) =>
+  cells
+    .map((c, i) => (i === 2 || i === 5 ? c.padStart(widths[i] as number) : c.padEnd(widths[i] as number)))
+    .join("  ");
+process.stdout.write(
+  `${line(header)}\n${widths.map((w) => "-".repeat(w)).join("  ")}\n${table.map(line).join("\n")}\n`,
+);
+process.stdout.write(
+  `\nmachine: ${availableParallelism()} cores, ${cpus()[0]?.model ?? "unknown"}, node ${process.version}; load average now ${loadavg()
+    .map((x) => round(x))
+    .join(" ")}\n`,
+);
 writeFileSync(file, `${JSON.stringify({ parts: entries }, null, 2)}\n`);

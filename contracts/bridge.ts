@@ -10,7 +10,8 @@ import { stageInput } from "./stage.js";
 export const BRIDGE_ELEMENT_KINDS = ["pn-diode", "schottky-diode", "nfet-ideal-diode"] as const;
 
 const element = stageInput.meta({
-  description: "a bridge element: pn-diode, schottky-diode or nfet-ideal-diode (a MOSFET driven as an ideal diode), inline or a catalog part",
+  description:
+    "a bridge element: pn-diode, schottky-diode or nfet-ideal-diode (a MOSFET driven as an ideal diode), inline or a catalog part",
 });
 
 /**
@@ -32,16 +33,26 @@ const position = z.enum(BRIDGE_POSITIONS);
 
 const common = {
   bridge: bridgeElementsInput,
-  compareTo: bridgeElementsInput.optional().meta({ description: "a second bridge (e.g. the diode bridge the active one replaces): the result gives the saving" }),
+  compareTo: bridgeElementsInput.optional().meta({
+    description: "a second bridge (e.g. the diode bridge the active one replaces): the result gives the saving",
+  }),
   sourceResistanceOhm: quantity("ohm", "source and wiring resistance (default 0)", { ge: 0, le: 1e6 }).optional(),
   load,
   ambientC: temperatureC("ambient temperature"),
-  ruleSet: ruleSetRef.optional().meta({ description: "when given, the result carries this rule set's verdicts on the bridge (and on compareTo)" }),
-  ruleMetrics: metricRecord.optional().meta({ description: "requirement metrics for the rules that the bridge analysis does not compute (supplyMinV, standbyBudgetA, ...)" }),
+  ruleSet: ruleSetRef
+    .optional()
+    .meta({ description: "when given, the result carries this rule set's verdicts on the bridge (and on compareTo)" }),
+  ruleMetrics: metricRecord.optional().meta({
+    description:
+      "requirement metrics for the rules that the bridge analysis does not compute (supplyMinV, standbyBudgetA, ...)",
+  }),
 };
 
 export const bridgeDcInput = z
-  .strictObject({ ...common, supplyV: quantity("V", "magnitude of the DC supply; both polarities are analysed", { gt: 0, le: 10_000 }) })
+  .strictObject({
+    ...common,
+    supplyV: quantity("V", "magnitude of the DC supply; both polarities are analysed", { gt: 0, le: 10_000 }),
+  })
   .meta({ description: "full bridge on a DC input of either polarity, electrothermally" });
 export type BridgeDcInput = z.input<typeof bridgeDcInput>;
 
@@ -50,13 +61,24 @@ export const bridgeAcInput = z
     ...common,
     sourceRmsV: quantity("V", "RMS voltage of the sine source", { gt: 0, le: 10_000 }),
     frequencyHz: quantity("Hz", "source frequency", { gt: 0, le: 1e5 }),
-    leakageInductanceH: quantity("H", "source (transformer leakage) inductance (default 0)", { ge: 0, le: 10 }).optional(),
+    leakageInductanceH: quantity("H", "source (transformer leakage) inductance (default 0)", {
+      ge: 0,
+      le: 10,
+    }).optional(),
     capacitanceF: quantity("F", "reservoir capacitance", { gt: 0, le: 100 }),
     esrOhm: quantity("ohm", "reservoir capacitor ESR (default 0)", { ge: 0, le: 1e3 }).optional(),
-    capacitorRippleRatingA: quantity("A", "rated RMS ripple current of the reservoir capacitor, for the rules", { gt: 0, le: 1e4 }).optional(),
-    waveform: z.boolean().optional().meta({ description: "also return one period of the steady state as samples (source and output voltage, each element's current), for charts (default false; the bridge report asks for it)" }),
+    capacitorRippleRatingA: quantity("A", "rated RMS ripple current of the reservoir capacitor, for the rules", {
+      gt: 0,
+      le: 1e4,
+    }).optional(),
+    waveform: z.boolean().optional().meta({
+      description:
+        "also return one period of the steady state as samples (source and output voltage, each element's current), for charts (default false; the bridge report asks for it)",
+    }),
   })
-  .meta({ description: "full bridge on an AC input with a reservoir capacitor: periodic steady state, electrothermally" });
+  .meta({
+    description: "full bridge on an AC input with a reservoir capacitor: periodic steady state, electrothermally",
+  });
 export type BridgeAcInput = z.input<typeof bridgeAcInput>;
 
 const head = {
@@ -66,7 +88,8 @@ const head = {
     description: "flat metric values for rules: element.<position>.<metric>, capacitor.<metric>, <polarity>.<metric>",
   }),
   rules: ruleSetResultSchema.optional().meta({
-    description: "verdicts of the named rule set on the bridge: each rule on each element, the worst shown and named in element (present when ruleSet was given)",
+    description:
+      "verdicts of the named rule set on the bridge: each rule on each element, the worst shown and named in element (present when ruleSet was given)",
   }),
   compareToRules: ruleSetResultSchema.optional().meta({ description: "the same for the compareTo bridge" }),
 };
@@ -98,13 +121,27 @@ const dcPolarity = z.discriminatedUnion("outcome", [
     elements: z.array(dcElement).readonly(),
     reason: z.string().optional(),
   }),
-  z.object({ outcome: z.literal("thermal-runaway"), polarity: z.enum(["positive", "negative"]), position, reason: z.string(), searchedToC: z.number(), lossAtSearchEndW: z.number() }),
-  z.object({ outcome: z.literal("load-collapse"), polarity: z.enum(["positive", "negative"]), reason: z.string(), maxDeliverablePowerW: z.number().optional() }),
+  z.object({
+    outcome: z.literal("thermal-runaway"),
+    polarity: z.enum(["positive", "negative"]),
+    position,
+    reason: z.string(),
+    searchedToC: z.number(),
+    lossAtSearchEndW: z.number(),
+  }),
+  z.object({
+    outcome: z.literal("load-collapse"),
+    polarity: z.enum(["positive", "negative"]),
+    reason: z.string(),
+    maxDeliverablePowerW: z.number().optional(),
+  }),
 ]);
 const dcBridge = z.object({ positive: dcPolarity, negative: dcPolarity });
 const saving = z
   .object({
-    lossSavingW: z.number().meta({ description: "compareTo's total element loss minus the bridge's (positive: the bridge saves)" }),
+    lossSavingW: z
+      .number()
+      .meta({ description: "compareTo's total element loss minus the bridge's (positive: the bridge saves)" }),
     hottestTjReductionK: z.number().meta({ description: "compareTo's hottest junction minus the bridge's" }),
   })
   .meta({ description: "present when both bridges solved" });
@@ -124,7 +161,9 @@ const acElement = z.object({
   averageCurrentA: z.number(),
   rmsCurrentA: z.number(),
   peakCurrentA: z.number().meta({ description: "peak repetitive forward current" }),
-  conductionAngleDeg: z.number().meta({ description: "degrees of the period the element carries more than 0.1 % of its peak" }),
+  conductionAngleDeg: z
+    .number()
+    .meta({ description: "degrees of the period the element carries more than 0.1 % of its peak" }),
   lossW: z.number(),
   maxReverseV: z.number().meta({ description: "peak repetitive reverse voltage across the element" }),
   tjC: z.number(),
@@ -157,23 +196,50 @@ const steadyState = z.object({
   }),
   elements: z.array(acElement).readonly(),
   totalElementLossW: z.number(),
-  solver: z.object({ shootingIterations: z.number(), periodsIntegrated: z.number(), stepsLastPeriod: z.number(), thermalIterations: z.number() }),
+  solver: z.object({
+    shootingIterations: z.number(),
+    periodsIntegrated: z.number(),
+    stepsLastPeriod: z.number(),
+    thermalIterations: z.number(),
+  }),
   waveform: z
     .object({
       timeS: z.array(z.number()).readonly().meta({ description: "from the source's rising zero, s" }),
       sourceV: z.array(z.number()).readonly(),
       outputV: z.array(z.number()).readonly(),
-      elementCurrentA: z.object({ line1High: z.array(z.number()).readonly(), line2High: z.array(z.number()).readonly(), line1Low: z.array(z.number()).readonly(), line2Low: z.array(z.number()).readonly() }).meta({ description: "forward current of each element (0 while its pair blocks)" }),
-      nodes: z.number().int().meta({ description: "integrator nodes of the converged period the samples were picked from" }),
+      elementCurrentA: z
+        .object({
+          line1High: z.array(z.number()).readonly(),
+          line2High: z.array(z.number()).readonly(),
+          line1Low: z.array(z.number()).readonly(),
+          line2Low: z.array(z.number()).readonly(),
+        })
+        .meta({ description: "forward current of each element (0 while its pair blocks)" }),
+      nodes: z
+        .number()
+        .int()
+        .meta({ description: "integrator nodes of the converged period the samples were picked from" }),
     })
     .optional()
-    .meta({ description: "one period of the steady state: the integrator's nodes, ~400 picked evenly in time plus each element's peak and the output's extremes (present when waveform was asked for)" }),
+    .meta({
+      description:
+        "one period of the steady state: the integrator's nodes, ~400 picked evenly in time plus each element's peak and the output's extremes (present when waveform was asked for)",
+    }),
 });
 export const acBridgeOutcome = z.discriminatedUnion("outcome", [
   z.object({ outcome: z.literal("solved"), steadyState }),
   z.object({ outcome: z.enum(["over-temperature", "load-undervoltage"]), steadyState, reason: z.string() }),
-  z.object({ outcome: z.literal("thermal-runaway"), position, reason: z.string(), searchedToC: z.number(), lossAtSearchEndW: z.number() }),
-  z.object({ outcome: z.enum(["load-collapse", "no-periodic-steady-state", "no-thermal-convergence"]), reason: z.string() }),
+  z.object({
+    outcome: z.literal("thermal-runaway"),
+    position,
+    reason: z.string(),
+    searchedToC: z.number(),
+    lossAtSearchEndW: z.number(),
+  }),
+  z.object({
+    outcome: z.enum(["load-collapse", "no-periodic-steady-state", "no-thermal-convergence"]),
+    reason: z.string(),
+  }),
   z.object({ outcome: z.literal("invalid-input"), path: z.string(), reason: z.string() }),
 ]);
 export const bridgeAcOutput = z.object({

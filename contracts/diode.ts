@@ -1,9 +1,21 @@
 import { z } from "zod";
 import { quantity, ratio, temperatureC } from "./quantity.js";
 
-const energyGapEv = z.number().gt(0.1).lte(5).meta({ description: "activation energy Eg of the Is(T) law, eV (default: 1.11 PN, 0.69 Schottky)", unit: "eV" });
-const vfTempCoVPerK = quantity("V/K", "linear forward-voltage temperature coefficient at constant current (about −2 mV/K for silicon); replaces the Eg/XTI law", { ge: -0.05, le: 0.05 });
-const saturationTempExponent = z.number().gte(0).lte(10).meta({ description: "Is temperature exponent XTI (default: 3 PN, 2 Schottky)", unit: "1" });
+const energyGapEv = z
+  .number()
+  .gt(0.1)
+  .lte(5)
+  .meta({ description: "activation energy Eg of the Is(T) law, eV (default: 1.11 PN, 0.69 Schottky)", unit: "eV" });
+const vfTempCoVPerK = quantity(
+  "V/K",
+  "linear forward-voltage temperature coefficient at constant current (about −2 mV/K for silicon); replaces the Eg/XTI law",
+  { ge: -0.05, le: 0.05 },
+);
+const saturationTempExponent = z
+  .number()
+  .gte(0)
+  .lte(10)
+  .meta({ description: "Is temperature exponent XTI (default: 3 PN, 2 Schottky)", unit: "1" });
 
 export const diodeShockley = z.strictObject({
   model: z.literal("shockley"),
@@ -24,25 +36,38 @@ export const forwardPoint = z.strictObject({
 
 export const diodePoints = z.strictObject({
   model: z.literal("points"),
-  points: z
-    .array(forwardPoint)
-    .min(2)
-    .max(64)
-    .meta({
-      description:
-        "two or more (I, Vf, T) points, read off the datasheet's curves at one temperature or several; two fit Is and n, three also Rs (exactly); four or more fit Is, n, Rs by least squares, and Eg too where they span two temperatures and neither Eg nor vfTempCoVPerK is given",
-    }),
-  seriesResistanceOhm: quantity("ohm", "series resistance to hold with two points (default 0)", { ge: 0, le: 1e3 }).optional(),
+  points: z.array(forwardPoint).min(2).max(64).meta({
+    description:
+      "two or more (I, Vf, T) points, read off the datasheet's curves at one temperature or several; two fit Is and n, three also Rs (exactly); four or more fit Is, n, Rs by least squares, and Eg too where they span two temperatures and neither Eg nor vfTempCoVPerK is given",
+  }),
+  seriesResistanceOhm: quantity("ohm", "series resistance to hold with two points (default 0)", {
+    ge: 0,
+    le: 1e3,
+  }).optional(),
   energyGapEv: energyGapEv.optional(),
   saturationTempExponent: saturationTempExponent.optional(),
   vfTempCoVPerK: vfTempCoVPerK.optional(),
-  acceptFit: z.boolean().optional().meta({ description: "use a least-squares fit whose worst residual exceeds 2 % of Vf (default false: such a fit is refused, naming the point)" }),
+  acceptFit: z.boolean().optional().meta({
+    description:
+      "use a least-squares fit whose worst residual exceeds 2 % of Vf (default false: such a fit is refused, naming the point)",
+  }),
 });
 
 /** One temperature law: a linear Vf coefficient or the Eg/XTI law, not both. */
-export function oneTemperatureLaw(d: { vfTempCoVPerK?: number | undefined; energyGapEv?: number | undefined; saturationTempExponent?: number | undefined }, ctx: z.RefinementCtx): void {
+export function oneTemperatureLaw(
+  d: {
+    vfTempCoVPerK?: number | undefined;
+    energyGapEv?: number | undefined;
+    saturationTempExponent?: number | undefined;
+  },
+  ctx: z.RefinementCtx,
+): void {
   if (d.vfTempCoVPerK !== undefined && (d.energyGapEv !== undefined || d.saturationTempExponent !== undefined)) {
-    ctx.addIssue({ code: "custom", path: ["vfTempCoVPerK"], message: "give either a linear Vf temperature coefficient or the Eg/XTI law, not both" });
+    ctx.addIssue({
+      code: "custom",
+      path: ["vfTempCoVPerK"],
+      message: "give either a linear Vf temperature coefficient or the Eg/XTI law, not both",
+    });
   }
 }
 

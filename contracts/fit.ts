@@ -8,12 +8,17 @@ const acceptFit = (bound: string) =>
   z
     .boolean()
     .optional()
-    .meta({ description: `use a least-squares fit whose worst residual exceeds ${bound} (default false: such a fit is refused, naming the point)` });
-const points = <T extends z.ZodType>(point: T, what: string) => z.array(point).min(2).max(64).meta({ description: what });
+    .meta({
+      description: `use a least-squares fit whose worst residual exceeds ${bound} (default false: such a fit is refused, naming the point)`,
+    });
+const points = <T extends z.ZodType>(point: T, what: string) =>
+  z.array(point).min(2).max(64).meta({ description: what });
 
 const diodeForward = z.strictObject({
   curve: z.literal("diode-forward"),
-  junction: z.enum(["pn", "schottky"]).meta({ description: "junction type: its SPICE Eg/XTI defaults (PN 1.11 eV/3, Schottky 0.69 eV/2)" }),
+  junction: z
+    .enum(["pn", "schottky"])
+    .meta({ description: "junction type: its SPICE Eg/XTI defaults (PN 1.11 eV/3, Schottky 0.69 eV/2)" }),
   diode: diodePoints.superRefine(oneTemperatureLaw),
 });
 
@@ -22,7 +27,11 @@ const rdsOnTemperature = z.strictObject({
   points: points(
     z.strictObject({
       tjC: temperatureC("junction temperature"),
-      rdsOnOhm: quantity("ohm", "on-resistance at that Tj (or the normalised factor Rds(on)(Tj)/Rds(on)(25 °C), given as a plain number)", { gt: 0, le: 1e3 }),
+      rdsOnOhm: quantity(
+        "ohm",
+        "on-resistance at that Tj (or the normalised factor Rds(on)(Tj)/Rds(on)(25 °C), given as a plain number)",
+        { gt: 0, le: 1e3 },
+      ),
     }),
     "Rds(on) against junction temperature, at two temperatures or more",
   ),
@@ -32,11 +41,23 @@ const rdsOnTemperature = z.strictObject({
 /** Single-pulse Zth(t) points and how to fit them (the fit procedure's and a candidate's transient thermal form). */
 export const zthCurveFields = {
   points: points(
-    z.strictObject({ timeS: quantity("s", "pulse duration", { gt: 0, le: 1e6 }), zthKPerW: quantity("K/W", "single-pulse transient thermal impedance", { gt: 0, le: 10_000 }) }),
+    z.strictObject({
+      timeS: quantity("s", "pulse duration", { gt: 0, le: 1e6 }),
+      zthKPerW: quantity("K/W", "single-pulse transient thermal impedance", { gt: 0, le: 10_000 }),
+    }),
     "single-pulse Zth(t) points",
   ),
-  steadyKPerW: quantity("K/W", "the steady thermal resistance the network's ΣR must equal (absent: ΣR fitted freely)", { gt: 0, le: 10_000 }).optional(),
-  stages: z.number().int().min(1).max(5).optional().meta({ description: "number of Foster stages (absent: the fewest of 1..5 within 5 % of Zth)" }),
+  steadyKPerW: quantity("K/W", "the steady thermal resistance the network's ΣR must equal (absent: ΣR fitted freely)", {
+    gt: 0,
+    le: 10_000,
+  }).optional(),
+  stages: z
+    .number()
+    .int()
+    .min(1)
+    .max(5)
+    .optional()
+    .meta({ description: "number of Foster stages (absent: the fewest of 1..5 within 5 % of Zth)" }),
   acceptFit: acceptFit("5 % of Zth"),
 };
 const zth = z.strictObject({ curve: z.literal("zth"), ...zthCurveFields });
@@ -60,38 +81,57 @@ const leakageLaw = z
     voltageExponent: z.number().meta({ description: "power m of the (VR/Vref)^m factor", unit: "1" }),
     refCurrentA: z.number().meta({ description: "IR at the reference point", unit: "A" }),
     refTempC: z.number().meta({ description: "reference junction temperature (25 °C)", unit: "degC" }),
-    refVoltageV: z.number().meta({ description: "reference reverse voltage (the highest VR of the points)", unit: "V" }),
+    refVoltageV: z
+      .number()
+      .meta({ description: "reference reverse voltage (the highest VR of the points)", unit: "V" }),
   })
-  .meta({ description: "IR(T, VR) = Iref·(T/Tref)²·exp(−(ΦB/k)·(1/T − 1/Tref))·(VR/Vref)^m (thermionic emission over the barrier)" });
+  .meta({
+    description:
+      "IR(T, VR) = Iref·(T/Tref)²·exp(−(ΦB/k)·(1/T − 1/Tref))·(VR/Vref)^m (thermionic emission over the barrier)",
+  });
 
 export const fitOutput = z.object({
   ...provenance,
   curve: z.enum(["diode-forward", "rds-on-temperature", "zth", "reverse-leakage"]),
-  method: z.enum(["exact", "least-squares"]).meta({ description: "exact: the points determine the parameters (zero residual); least-squares: more points than parameters" }),
+  method: z.enum(["exact", "least-squares"]).meta({
+    description:
+      "exact: the points determine the parameters (zero residual); least-squares: more points than parameters",
+  }),
   parameters: z
     .array(
       z.object({
         name: z.string(),
         value: z.number(),
         unit: z.string(),
-        standardError: z.number().optional().meta({ description: "from the Jacobian at the solution, s²·(JᵀJ)⁻¹ (absent: exact fit, parameter on a bound, or not meaningful)" }),
+        standardError: z.number().optional().meta({
+          description:
+            "from the Jacobian at the solution, s²·(JᵀJ)⁻¹ (absent: exact fit, parameter on a bound, or not meaningful)",
+        }),
         fitted: z.boolean().meta({ description: "false: held at a given or default value" }),
       }),
     )
     .meta({ description: "the law's parameters" }),
   model: z
     .union([diodeShockley, z.strictObject({ law: z.literal("power"), exponent: z.number() }), fosterModel, leakageLaw])
-    .meta({ description: "the fitted law in the form a part takes (a Shockley diode, an Rds(on) temperature law, a Foster network, a leakage law)" }),
+    .meta({
+      description:
+        "the fitted law in the form a part takes (a Shockley diode, an Rds(on) temperature law, a Foster network, a leakage law)",
+    }),
   quality: z.object({
     unit: z.string().meta({ description: "the curve's unit" }),
     rms: z.number().meta({ description: "RMS of model − point" }),
-    worstPoint: z.number().int().meta({ description: "index of the worst point (largest residual as a share of the point's value)" }),
+    worstPoint: z
+      .number()
+      .int()
+      .meta({ description: "index of the worst point (largest residual as a share of the point's value)" }),
     worstResidual: z.number().meta({ description: "model − point at the worst point" }),
     worstFraction: z.number().meta({ description: "|worst residual| / point value" }),
     boundFraction: z.number().meta({ description: "the bound on worstFraction" }),
     withinBound: z.boolean(),
   }),
-  residuals: z.array(z.object({ point: z.number().int(), measured: z.number(), modelled: z.number(), residual: z.number() })).meta({ description: "per point, in the caller's order, in the curve's unit" }),
+  residuals: z
+    .array(z.object({ point: z.number().int(), measured: z.number(), modelled: z.number(), residual: z.number() }))
+    .meta({ description: "per point, in the caller's order, in the curve's unit" }),
   assumptions: z.array(z.string()),
 });
 export type FitOutput = z.infer<typeof fitOutput>;

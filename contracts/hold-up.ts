@@ -11,21 +11,41 @@ const { stage: _s, outputV: _o, capacitor: _c, load: _l, loadMinV: _m, tjC: _t, 
 
 export const holdUpInput = z
   .strictObject({
-    stages: z.array(stageInput).min(1).max(20).meta({ description: "the stage kinds to compare, each on the same output" }),
+    stages: z
+      .array(stageInput)
+      .min(1)
+      .max(20)
+      .meta({ description: "the stage kinds to compare, each on the same output" }),
     outputV: quantity("V", "output voltage when the input is lost", { gt: 0, le: 10_000 }),
     capacitor: holdUpCapacitor,
     load,
-    loadMinV: quantity("V", "the load's minimum operating voltage (default: a constant-power load's minVoltageV)", { ge: 0, le: 10_000 }).optional(),
+    loadMinV: quantity("V", "the load's minimum operating voltage (default: a constant-power load's minVoltageV)", {
+      ge: 0,
+      le: 10_000,
+    }).optional(),
     tjC: temperatureC("junction temperature of the stages (sets the reverse leakage)"),
-    requiredHoldUpS: quantity("s", "hold-up the design must achieve (for the metric holdUpMarginS)", { ge: 0, le: 1e6 }).optional(),
+    requiredHoldUpS: quantity("s", "hold-up the design must achieve (for the metric holdUpMarginS)", {
+      ge: 0,
+      le: 1e6,
+    }).optional(),
     input: z
       .discriminatedUnion("kind", [
-        z.strictObject({ kind: z.literal("open") }).meta({ description: "the input is disconnected: nothing flows back" }),
-        z.strictObject({ kind: z.literal("falls"), ...fallFields }).meta({ description: "the input is shorted or steps lower through a loop" }),
+        z
+          .strictObject({ kind: z.literal("open") })
+          .meta({ description: "the input is disconnected: nothing flows back" }),
+        z
+          .strictObject({ kind: z.literal("falls"), ...fallFields })
+          .meta({ description: "the input is shorted or steps lower through a loop" }),
       ])
       .meta({ description: "how the input is lost" }),
-    ruleSet: ruleSetRef.optional().meta({ description: "when given, the result carries this rule set's verdicts (docs/metrics.md lists what this analysis provides)" }),
-    ruleMetrics: metricRecord.optional().meta({ description: "requirement metrics for the rules that this analysis does not compute (parallelSources, reverseVMaxV, reverseCurrentBudgetA, ...)" }),
+    ruleSet: ruleSetRef.optional().meta({
+      description:
+        "when given, the result carries this rule set's verdicts (docs/metrics.md lists what this analysis provides)",
+    }),
+    ruleMetrics: metricRecord.optional().meta({
+      description:
+        "requirement metrics for the rules that this analysis does not compute (parallelSources, reverseVMaxV, reverseCurrentBudgetA, ...)",
+    }),
   })
   .meta({ description: "time the output stays above the load's minimum after the input is lost, per stage" });
 export type HoldUpInput = z.input<typeof holdUpInput>;
@@ -47,7 +67,12 @@ const row = z.discriminatedUnion("outcome", [
     reverseLeakageA: z.number(),
     startCapacitorV: z.number(),
   }),
-  z.object({ outcome: z.literal("drains-back"), holdUpS: z.number(), reason: z.string(), peakReverseCurrentA: z.number() }),
+  z.object({
+    outcome: z.literal("drains-back"),
+    holdUpS: z.number(),
+    reason: z.string(),
+    peakReverseCurrentA: z.number(),
+  }),
   z.object({ outcome: z.literal("not-interrupted"), reason: z.string(), settlesAtV: z.number().optional() }),
   z.object({ outcome: z.literal("no-hold-up"), reason: z.string(), startOutputV: z.number().optional() }),
 ]);
@@ -60,11 +85,16 @@ export const holdUpOutput = z.object({
       stage: z.object({ kind: z.string(), name: z.string().optional(), partId: z.string().optional() }),
       result: row,
       meetsRequirement: z.boolean().optional().meta({
-        description: "present when requiredHoldUpS is given: whether the hold-up reaches it (an outcome of holds or drains-back says only how long the output stays up; never interrupted meets it, no hold-up does not)",
+        description:
+          "present when requiredHoldUpS is given: whether the hold-up reaches it (an outcome of holds or drains-back says only how long the output stays up; never interrupted meets it, no hold-up does not)",
       }),
-      requirementReason: z.string().optional().meta({ description: "the hold-up against the requirement, in words with units (present with meetsRequirement)" }),
+      requirementReason: z.string().optional().meta({
+        description: "the hold-up against the requirement, in words with units (present with meetsRequirement)",
+      }),
       metrics: holdUpMetrics,
-      rules: ruleSetResultSchema.optional().meta({ description: "verdicts of the named rule set on this stage (present when ruleSet was given)" }),
+      rules: ruleSetResultSchema
+        .optional()
+        .meta({ description: "verdicts of the named rule set on this stage (present when ruleSet was given)" }),
     }),
   ),
 });

@@ -85,7 +85,10 @@ export function expressionSizeLimits(): ExpressionSizeLimits {
   return { maxLength: LIMITS.maxExpressionChars, maxNodes: LIMITS.maxExpressionNodes };
 }
 
-const EXPRESSION_LIMIT_KEYS: Partial<Record<ExpressionErrorCode, keyof Limits>> = { "too-long": "maxExpressionChars", "too-many-nodes": "maxExpressionNodes" };
+const EXPRESSION_LIMIT_KEYS: Partial<Record<ExpressionErrorCode, keyof Limits>> = {
+  "too-long": "maxExpressionChars",
+  "too-many-nodes": "maxExpressionNodes",
+};
 
 /**
  * A rule-set load error's message with the limit it hit named (marked as {@link limitMessage}'s

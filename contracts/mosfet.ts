@@ -6,11 +6,19 @@ const volts = (d: string) => quantity("V", d, { gt: 0, le: 10_000 });
 
 export const rdsTempLaw = z
   .discriminatedUnion("law", [
-    z.strictObject({ law: z.literal("power"), exponent: z.number().gte(0).lte(5).meta({ description: "α in Rds(T) = Rds(25 °C)·(T/298.15 K)^α", unit: "1" }) }),
+    z.strictObject({
+      law: z.literal("power"),
+      exponent: z.number().gte(0).lte(5).meta({ description: "α in Rds(T) = Rds(25 °C)·(T/298.15 K)^α", unit: "1" }),
+    }),
     z.strictObject({
       law: z.literal("points"),
       points: z
-        .array(z.strictObject({ tjC: temperatureC("junction temperature"), factor: z.number().gt(0).lte(100).meta({ description: "Rds(on)(Tj)/Rds(on)(25 °C)", unit: "1" }) }))
+        .array(
+          z.strictObject({
+            tjC: temperatureC("junction temperature"),
+            factor: z.number().gt(0).lte(100).meta({ description: "Rds(on)(Tj)/Rds(on)(25 °C)", unit: "1" }),
+          }),
+        )
         .min(2)
         .meta({ description: "normalised on-resistance against junction temperature, increasing Tj" }),
     }),
@@ -18,20 +26,38 @@ export const rdsTempLaw = z
       .strictObject({
         law: z.literal("power-fit"),
         points: z
-          .array(z.strictObject({ tjC: temperatureC("junction temperature"), factor: z.number().gt(0).lte(100).meta({ description: "Rds(on)(Tj)/Rds(on)(25 °C)", unit: "1" }) }))
+          .array(
+            z.strictObject({
+              tjC: temperatureC("junction temperature"),
+              factor: z.number().gt(0).lte(100).meta({ description: "Rds(on)(Tj)/Rds(on)(25 °C)", unit: "1" }),
+            }),
+          )
           .min(2)
           .max(64)
-          .meta({ description: "normalised on-resistance against junction temperature, read off the datasheet's curve" }),
-        acceptFit: z.boolean().optional().meta({ description: "use a fit whose worst residual exceeds 5 % of Rds(on) (default false: refused, naming the point)" }),
+          .meta({
+            description: "normalised on-resistance against junction temperature, read off the datasheet's curve",
+          }),
+        acceptFit: z.boolean().optional().meta({
+          description:
+            "use a fit whose worst residual exceeds 5 % of Rds(on) (default false: refused, naming the point)",
+        }),
       })
-      .meta({ description: "the power law (T/298.15 K)^α with α fitted to the points by least squares (the factor held at 1 at 25 °C)" }),
+      .meta({
+        description:
+          "the power law (T/298.15 K)^α with α fitted to the points by least squares (the factor held at 1 at 25 °C)",
+      }),
   ])
   .meta({ description: "temperature law of Rds(on) (default: power law, α = 2.3, common practice)" });
 
 export const mosfet = z
   .strictObject({
     rdsOn: z
-      .array(z.strictObject({ gateSourceV: volts("gate-source drive (magnitude)"), rdsOnOhm: quantity("ohm", "on-resistance at 25 °C", { gt: 0, le: 1e3 }) }))
+      .array(
+        z.strictObject({
+          gateSourceV: volts("gate-source drive (magnitude)"),
+          rdsOnOhm: quantity("ohm", "on-resistance at 25 °C", { gt: 0, le: 1e3 }),
+        }),
+      )
       .min(1)
       .meta({ description: "datasheet Rds(on) at 25 °C against gate drive, one point or more" }),
     rdsOnTemp: rdsTempLaw.optional(),
@@ -40,35 +66,64 @@ export const mosfet = z
     vdsMaxV: volts("drain-source voltage rating"),
     tjMaxC: temperatureC("maximum junction temperature"),
     bodyDiode: diode,
-    avalancheEnergyJ: quantity("J", "single-pulse avalanche energy rating EAS at 25 °C starting junction temperature (for the turn-off rules)", { gt: 0, le: 1e6 }).optional(),
-    peakRepetitiveCurrentA: quantity("A", "repetitive peak drain current rating (for the bridge rules)", { gt: 0, le: 1e5 }).optional(),
-    avalancheCurrentA: quantity("A", "single-pulse avalanche current rating IAS, the current at which EAS is rated (for the turn-off rules)", { gt: 0, le: 1e5 }).optional(),
+    avalancheEnergyJ: quantity(
+      "J",
+      "single-pulse avalanche energy rating EAS at 25 °C starting junction temperature (for the turn-off rules)",
+      { gt: 0, le: 1e6 },
+    ).optional(),
+    peakRepetitiveCurrentA: quantity("A", "repetitive peak drain current rating (for the bridge rules)", {
+      gt: 0,
+      le: 1e5,
+    }).optional(),
+    avalancheCurrentA: quantity(
+      "A",
+      "single-pulse avalanche current rating IAS, the current at which EAS is rated (for the turn-off rules)",
+      { gt: 0, le: 1e5 },
+    ).optional(),
     offStateLeakage: z
       .strictObject({
-        currentA: quantity("A", "off-state drain current IDSS at the rated drain-source voltage, gate shorted to source", { gt: 0, le: 10 }),
+        currentA: quantity(
+          "A",
+          "off-state drain current IDSS at the rated drain-source voltage, gate shorted to source",
+          { gt: 0, le: 10 },
+        ),
         tempC: temperatureC("junction temperature of that figure"),
       })
       .optional()
-      .meta({ description: "datasheet off-state leakage IDSS, scaled in temperature by the body diode's Is(T) law (default: Is(T) of the body diode model)" }),
-    vdsTempCoPerK: z
-      .number()
-      .min(0)
-      .max(0.003)
-      .optional()
-      .meta({ description: "temperature coefficient of the drain-source breakdown voltage, per kelvin (0.001 = +0.1 %/K); the review derates vdsMaxV with it to the coldest ambient (default 0.001, memory)" }),
-    repetitiveAvalancheEnergyJ: quantity("J", "repetitive avalanche energy rating EAR, per event (for the turn-off rules when the event repeats)", { gt: 0, le: 1e6 }).optional(),
+      .meta({
+        description:
+          "datasheet off-state leakage IDSS, scaled in temperature by the body diode's Is(T) law (default: Is(T) of the body diode model)",
+      }),
+    vdsTempCoPerK: z.number().min(0).max(0.003).optional().meta({
+      description:
+        "temperature coefficient of the drain-source breakdown voltage, per kelvin (0.001 = +0.1 %/K); the review derates vdsMaxV with it to the coldest ambient (default 0.001, memory)",
+    }),
+    repetitiveAvalancheEnergyJ: quantity(
+      "J",
+      "repetitive avalanche energy rating EAR, per event (for the turn-off rules when the event repeats)",
+      { gt: 0, le: 1e6 },
+    ).optional(),
   })
   .superRefine((m, ctx) => {
     m.rdsOn.forEach((p, i) => {
       if (p.gateSourceV <= m.thresholdV) {
-        ctx.addIssue({ code: "custom", path: ["rdsOn", i, "gateSourceV"], message: `must be above the threshold voltage (${m.thresholdV} V)` });
+        ctx.addIssue({
+          code: "custom",
+          path: ["rdsOn", i, "gateSourceV"],
+          message: `must be above the threshold voltage (${m.thresholdV} V)`,
+        });
       }
     });
     const law = m.rdsOnTemp;
     if (law?.law === "points") {
       law.points.forEach((p, i) => {
         const prev = law.points[i - 1];
-        if (prev && !(p.tjC > prev.tjC)) ctx.addIssue({ code: "custom", path: ["rdsOnTemp", "points", i, "tjC"], message: "temperatures must increase" });
+        if (prev && !(p.tjC > prev.tjC))
+          ctx.addIssue({
+            code: "custom",
+            path: ["rdsOnTemp", "points", i, "tjC"],
+            message: "temperatures must increase",
+          });
       });
     }
   });

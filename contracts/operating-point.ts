@@ -15,15 +15,25 @@ export const operatingPointInput = z
     load,
     ambientC: temperatureC("ambient temperature"),
     thermal: thermalPath.optional().meta({ description: "overrides the stage's thermal path for this board" }),
-    ruleSet: ruleSetRef.optional().meta({ description: "when given, the result carries this rule set's verdicts on the point" }),
-    ruleMetrics: metricRecord
+    ruleSet: ruleSetRef
       .optional()
-      .meta({ description: "requirement metrics for the rules that the point does not compute (supplyMinV, reverseVMaxV, standbyBudgetA, parallelSources, ...)" }),
+      .meta({ description: "when given, the result carries this rule set's verdicts on the point" }),
+    ruleMetrics: metricRecord.optional().meta({
+      description:
+        "requirement metrics for the rules that the point does not compute (supplyMinV, reverseVMaxV, standbyBudgetA, parallelSources, ...)",
+    }),
   })
   .meta({ description: "steady-state electrothermal operating point of one stage" });
 export type OperatingPointInput = z.input<typeof operatingPointInput>;
 
-export const CONDUCTION_MODES = ["off", "junction", "body-diode", "regulated-drop", "fully-enhanced", "partially-enhanced"] as const;
+export const CONDUCTION_MODES = [
+  "off",
+  "junction",
+  "body-diode",
+  "regulated-drop",
+  "fully-enhanced",
+  "partially-enhanced",
+] as const;
 
 export const solvedPoint = z.object({
   mode: z.enum(CONDUCTION_MODES),
@@ -48,10 +58,15 @@ export const solvedPoint = z.object({
     .object({
       startV: z.number().meta({ description: "the control's start voltage", unit: "V" }),
       runningInputV: z.number().meta({ description: "stage input with the control running (below startV)", unit: "V" }),
-      belowStartInputV: z.number().meta({ description: "stage input with the control below start (at or above startV)", unit: "V" }),
+      belowStartInputV: z
+        .number()
+        .meta({ description: "stage input with the control below start (at or above startV)", unit: "V" }),
     })
     .optional()
-    .meta({ description: "present in the chatter band at the start threshold: neither state of the control is self-consistent (a real controller toggles, its hysteresis decides); the point reported is the one below start, the lossier" }),
+    .meta({
+      description:
+        "present in the chatter band at the start threshold: neither state of the control is self-consistent (a real controller toggles, its hysteresis decides); the point reported is the one below start, the lossier",
+    }),
 });
 export type SolvedPointOutput = z.infer<typeof solvedPoint>;
 
@@ -59,20 +74,44 @@ const base = {
   ...provenance,
   stage: z.object({ kind: z.string(), name: z.string().optional(), partId: z.string().optional() }),
   assumptions: z.array(z.string()).meta({ description: "defaults applied and where they come from" }),
-  rules: ruleSetResultSchema.optional().meta({ description: "verdicts of the named rule set on this point (present when ruleSet was given)" }),
+  rules: ruleSetResultSchema
+    .optional()
+    .meta({ description: "verdicts of the named rule set on this point (present when ruleSet was given)" }),
 };
 
 export const operatingPointOutput = z.discriminatedUnion("outcome", [
   z.object({ outcome: z.literal("solved"), ...base, point: solvedPoint }),
-  z.object({ outcome: z.literal("over-temperature"), ...base, reason: z.string(), tjMaxC: z.number(), point: solvedPoint }),
-  z.object({ outcome: z.literal("load-undervoltage"), ...base, reason: z.string(), minVoltageV: z.number(), point: solvedPoint }),
+  z.object({
+    outcome: z.literal("over-temperature"),
+    ...base,
+    reason: z.string(),
+    tjMaxC: z.number(),
+    point: solvedPoint,
+  }),
+  z.object({
+    outcome: z.literal("load-undervoltage"),
+    ...base,
+    reason: z.string(),
+    minVoltageV: z.number(),
+    point: solvedPoint,
+  }),
   z.object({
     outcome: z.literal("thermal-runaway"),
     ...base,
     reason: z.string(),
-    evidence: z.object({ searchedToC: z.number(), lossAtSearchEndW: z.number(), thermalLoopGainAtSearchEnd: z.number() }),
+    evidence: z.object({
+      searchedToC: z.number(),
+      lossAtSearchEndW: z.number(),
+      thermalLoopGainAtSearchEnd: z.number(),
+    }),
   }),
-  z.object({ outcome: z.literal("load-collapse"), ...base, reason: z.string(), atJunctionC: z.number(), maxDeliverablePowerW: z.number().optional() }),
+  z.object({
+    outcome: z.literal("load-collapse"),
+    ...base,
+    reason: z.string(),
+    atJunctionC: z.number(),
+    maxDeliverablePowerW: z.number().optional(),
+  }),
   z.object({ outcome: z.literal("stage-off"), ...base, reason: z.string(), stageInputV: z.number() }),
 ]);
 export type OperatingPointOutput = z.infer<typeof operatingPointOutput>;

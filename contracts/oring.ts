@@ -19,13 +19,26 @@ export const oringInput = z
     sources: z.array(oringSource).min(1, { message: "an ORing network needs at least one source" }).max(32),
     load,
     ambientC: temperatureC("ambient temperature"),
-    ruleSet: ruleSetRef.optional().meta({ description: "when given, the result carries this rule set's verdicts (docs/metrics.md lists what this analysis provides)" }),
-    ruleMetrics: metricRecord.optional().meta({ description: "requirement metrics for the rules that this analysis does not compute (parallelSources, reverseVMaxV, reverseCurrentBudgetA, ...)" }),
+    ruleSet: ruleSetRef.optional().meta({
+      description:
+        "when given, the result carries this rule set's verdicts (docs/metrics.md lists what this analysis provides)",
+    }),
+    ruleMetrics: metricRecord.optional().meta({
+      description:
+        "requirement metrics for the rules that this analysis does not compute (parallelSources, reverseVMaxV, reverseCurrentBudgetA, ...)",
+    }),
   })
   .meta({ description: "paralleled sources, each through its own stage, into one node with a load" });
 export type OringInput = z.input<typeof oringInput>;
 
-export const BRANCH_MODES = ["forward", "forward-body-diode-subthreshold", "idle", "reverse-junction-leakage", "reverse-channel", "reverse-blocked-ideal"] as const;
+export const BRANCH_MODES = [
+  "forward",
+  "forward-body-diode-subthreshold",
+  "idle",
+  "reverse-junction-leakage",
+  "reverse-channel",
+  "reverse-blocked-ideal",
+] as const;
 
 export const oringBranch = z.object({
   name: z.string().optional(),
@@ -33,7 +46,9 @@ export const oringBranch = z.object({
   currentA: z.number().meta({ description: "into the node; negative: reverse current into the source" }),
   mode: z.enum(BRANCH_MODES),
   forwardMode: z.string().optional(),
-  blocks: z.boolean().meta({ description: "a reverse current is stopped by a junction or a controller (leakage only)" }),
+  blocks: z
+    .boolean()
+    .meta({ description: "a reverse current is stopped by a junction or a controller (leakage only)" }),
   reverseCurrentA: z.number().meta({ description: "current flowing backwards into this source (0 when forward)" }),
   stageV: z.number(),
   stageLossW: z.number(),
@@ -55,7 +70,8 @@ export const oringMetrics = z.object({
 });
 
 const rules = ruleSetResultSchema.optional().meta({
-  description: "verdicts of the named rule set on the network, each branch evaluated and the worst shown per rule, named in element (present when ruleSet was given)",
+  description:
+    "verdicts of the named rule set on the network, each branch evaluated and the worst shown per rule, named in element (present when ruleSet was given)",
 });
 
 export const oringOutput = z.discriminatedUnion("outcome", [
@@ -73,7 +89,20 @@ export const oringOutput = z.discriminatedUnion("outcome", [
     branches: z.array(oringBranch),
     metrics: oringMetrics,
   }),
-  z.object({ outcome: z.literal("load-collapse"), ...provenance, assumptions: z.array(z.string()), rules, reason: z.string() }),
-  z.object({ outcome: z.literal("thermal-runaway"), ...provenance, assumptions: z.array(z.string()), rules, reason: z.string(), lastTjC: z.array(z.number()) }),
+  z.object({
+    outcome: z.literal("load-collapse"),
+    ...provenance,
+    assumptions: z.array(z.string()),
+    rules,
+    reason: z.string(),
+  }),
+  z.object({
+    outcome: z.literal("thermal-runaway"),
+    ...provenance,
+    assumptions: z.array(z.string()),
+    rules,
+    reason: z.string(),
+    lastTjC: z.array(z.number()),
+  }),
 ]);
 export type OringOutput = z.infer<typeof oringOutput>;

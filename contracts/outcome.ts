@@ -1,7 +1,20 @@
 import { z } from "zod";
 
 /** Error codes of the service edge, one closed list. */
-export const ERROR_CODES = ["invalid-input", "unknown-part", "unknown-procedure", "fit-failed", "malformed-line", "unknown-rule-set", "invalid-rule-set", "limit-exceeded", "answer-too-large", "compute-timeout", "report-failed", "internal"] as const;
+export const ERROR_CODES = [
+  "invalid-input",
+  "unknown-part",
+  "unknown-procedure",
+  "fit-failed",
+  "malformed-line",
+  "unknown-rule-set",
+  "invalid-rule-set",
+  "limit-exceeded",
+  "answer-too-large",
+  "compute-timeout",
+  "report-failed",
+  "internal",
+] as const;
 export type ErrorCode = (typeof ERROR_CODES)[number];
 
 export const issue = z.object({

@@ -2,7 +2,15 @@ import { z } from "zod";
 import { ERROR_CODES, issue } from "./outcome.js";
 
 /** Error codes that only the HTTP edge produces (the analysis codes are in `outcome.ts`). */
-export const EDGE_ERROR_CODES = ["malformed-json", "not-found", "method-not-allowed", "payload-too-large", "too-many-items", "unauthorized", "unavailable"] as const;
+export const EDGE_ERROR_CODES = [
+  "malformed-json",
+  "not-found",
+  "method-not-allowed",
+  "payload-too-large",
+  "too-many-items",
+  "unauthorized",
+  "unavailable",
+] as const;
 export const PROBLEM_CODES = [...ERROR_CODES, ...EDGE_ERROR_CODES] as const;
 export type ProblemCode = (typeof PROBLEM_CODES)[number];
 

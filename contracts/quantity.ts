@@ -65,16 +65,33 @@ function convert(raw: string, fieldUnit: string): Converted {
     parsed = mathjs().unit(text);
   } catch {
     const r = R_FOR_OHM.exec(text);
-    if (r) return { ok: false, message: `cannot read "${raw}": R is not read as ohm; type "${r[1]} ${r[2]}ohm" (or ${r[1]} ${r[2]}Ω)` };
-    return { ok: false, message: `cannot read "${raw}" as a value with a unit: type a number in ${fieldUnit} or a string such as ${example}` };
+    if (r)
+      return {
+        ok: false,
+        message: `cannot read "${raw}": R is not read as ohm; type "${r[1]} ${r[2]}ohm" (or ${r[1]} ${r[2]}Ω)`,
+      };
+    return {
+      ok: false,
+      message: `cannot read "${raw}" as a value with a unit: type a number in ${fieldUnit} or a string such as ${example}`,
+    };
   }
   if (parsed.units.length === 0) {
-    return { ok: false, message: `"${raw}" has no unit: give a number in ${fieldUnit} or a value with a unit, such as ${example}` };
+    return {
+      ok: false,
+      message: `"${raw}" has no unit: give a number in ${fieldUnit} or a value with a unit, such as ${example}`,
+    };
   }
   if (!parsed.equalBase(mathjs().unit(fieldUnit))) {
     const t = fieldUnit === "degC" ? BARE_TEMPERATURE.exec(text) : null;
-    if (t) return { ok: false, message: `"${raw}" reads ${t[2]} as ${t[2] === "C" ? "coulomb (charge)" : "farad (capacitance)"}, not a temperature: type "${t[1]} deg${t[2]}" (or ${t[1]} °${t[2]})` };
-    return { ok: false, message: `"${raw}" is not a quantity of the kind ${fieldUnit} measures (wrong dimension): type a value in ${fieldUnit}, such as ${example}` };
+    if (t)
+      return {
+        ok: false,
+        message: `"${raw}" reads ${t[2]} as ${t[2] === "C" ? "coulomb (charge)" : "farad (capacitance)"}, not a temperature: type "${t[1]} deg${t[2]}" (or ${t[1]} °${t[2]})`,
+      };
+    return {
+      ok: false,
+      message: `"${raw}" is not a quantity of the kind ${fieldUnit} measures (wrong dimension): type a value in ${fieldUnit}, such as ${example}`,
+    };
   }
   return { ok: true, value: parsed.toNumber(fieldUnit) };
 }
@@ -92,7 +109,8 @@ function checkBounds(value: number, unitName: string, b: Bounds): string | undef
 export function quantity(unitName: string, description: string, bounds: Bounds = {}) {
   return z
     .union([z.number(), z.string().max(MAX_QUANTITY_STRING)], {
-      error: (iss) => (iss.input === undefined ? "required" : `expected a number in ${unitName} or a string with a unit`),
+      error: (iss) =>
+        iss.input === undefined ? "required" : `expected a number in ${unitName} or a string with a unit`,
     })
     .transform((raw, ctx) => {
       let value: number;
@@ -133,4 +151,5 @@ export const ABSOLUTE_ZERO_C = -273.15;
  * about 200-250 °C, solders melt at about 180-300 °C), so a larger figure is a typo or a unit slip.
  */
 export const MAX_TEMPERATURE_C = 400;
-export const temperatureC = (description: string) => quantity("degC", description, { gt: ABSOLUTE_ZERO_C, le: MAX_TEMPERATURE_C });
+export const temperatureC = (description: string) =>
+  quantity("degC", description, { gt: ABSOLUTE_ZERO_C, le: MAX_TEMPERATURE_C });

@@ -8,13 +8,23 @@ const volts = (d: string) => quantity("V", d, { gt: 0, le: 10_000 });
 
 export const supplySpec = z
   .strictObject({
-    class: z.string().min(1).max(64).meta({ description: "a built-in supply class id (see GET of review.supplyClasses), or 'custom'" }),
+    class: z
+      .string()
+      .min(1)
+      .max(64)
+      .meta({ description: "a built-in supply class id (see GET of review.supplyClasses), or 'custom'" }),
     minV: volts("lowest supply (overrides the class)").optional(),
     nominalV: volts("nominal supply (overrides the class)").optional(),
     maxV: volts("highest steady supply (overrides the class)").optional(),
-    jumpStartV: volts("jump-start overvoltage, lasting about a minute (overrides the class's; a custom supply has none unless given)").optional(),
-    longTermOvervoltageV: volts("long-term overvoltage, a failed generator regulator for about an hour (overrides the class's; a custom supply has none unless given)").optional(),
-    abnormalMaxV: volts("top of the abnormal service range the equipment must survive (overrides the class's; a custom supply has none unless given)").optional(),
+    jumpStartV: volts(
+      "jump-start overvoltage, lasting about a minute (overrides the class's; a custom supply has none unless given)",
+    ).optional(),
+    longTermOvervoltageV: volts(
+      "long-term overvoltage, a failed generator regulator for about an hour (overrides the class's; a custom supply has none unless given)",
+    ).optional(),
+    abnormalMaxV: volts(
+      "top of the abnormal service range the equipment must survive (overrides the class's; a custom supply has none unless given)",
+    ).optional(),
   })
   .meta({ description: "the supply: a built-in class, with any value overridden, or 'custom' with all three given" });
 
@@ -26,7 +36,10 @@ export const customPulse = z.strictObject({
   sourceResistanceOhm: quantity("ohm", "internal resistance Ri of the pulse source", { gt: 0, le: 1e6 }),
   riseS: quantity("s", "rise time (not used by the energy integral)", { ge: 0, le: 10 }).optional(),
   decayS: quantity("s", "decay time td", { gt: 0, le: 100 }),
-  decayConvention: z.enum(["to-10-percent", "to-50-percent", "time-constant"]).optional().meta({ description: "td to 10 % of the peak (τ = td/ln 10, default), to half value (τ = td/ln 2) or τ itself" }),
+  decayConvention: z
+    .enum(["to-10-percent", "to-50-percent", "time-constant"])
+    .optional()
+    .meta({ description: "td to 10 % of the peak (τ = td/ln 10, default), to half value (τ = td/ln 2) or τ itself" }),
   clampedAtV: volts("a centrally suppressed pulse: the input is held at this level").optional(),
 });
 
@@ -35,18 +48,40 @@ export const reviewTurnOff = z
   .strictObject({
     loop: reverseLoop,
     capacitor: holdUpCapacitor,
-    inputAfterV: quantity("V", "input from t = 0 on: 0 for a short (default), or the lower voltage it steps to", { ge: 0, le: 10_000 }).optional(),
-    outputV: quantity("V", "output voltage before the event (default: the nominal supply)", { gt: 0, le: 10_000 }).optional(),
-    tjC: temperatureC("junction temperature at the event (default: the candidate's worst-case Tj over the corners, else the highest ambient)").optional(),
+    inputAfterV: quantity("V", "input from t = 0 on: 0 for a short (default), or the lower voltage it steps to", {
+      ge: 0,
+      le: 10_000,
+    }).optional(),
+    outputV: quantity("V", "output voltage before the event (default: the nominal supply)", {
+      gt: 0,
+      le: 10_000,
+    }).optional(),
+    tjC: temperatureC(
+      "junction temperature at the event (default: the candidate's worst-case Tj over the corners, else the highest ambient)",
+    ).optional(),
     timing: turnOffTiming.optional(),
-    reverseRecoveryChargeC: quantity("C", "a diode stage's reverse-recovery charge Qrr (default 0: ideal)", { ge: 0, le: 1 }).optional(),
-    clampV: quantity("V", "voltage the blocking element clamps the inductive energy at (default: its rated voltage)", { gt: 0, le: 10_000 }).optional(),
+    reverseRecoveryChargeC: quantity("C", "a diode stage's reverse-recovery charge Qrr (default 0: ideal)", {
+      ge: 0,
+      le: 1,
+    }).optional(),
+    clampV: quantity("V", "voltage the blocking element clamps the inductive energy at (default: its rated voltage)", {
+      gt: 0,
+      le: 10_000,
+    }).optional(),
     repetitive: repetitiveEvent,
   })
-  .meta({ description: "the input shorted or stepping lower: each candidate's reverse-current peak, turn-off and absorbed energy (the turnOff analysis), for the avalanche and reverse-current rules" });
+  .meta({
+    description:
+      "the input shorted or stepping lower: each candidate's reverse-current peak, turn-off and absorbed energy (the turnOff analysis), for the avalanche and reverse-current rules",
+  });
 
 const profilePoints = z
-  .array(z.strictObject({ timeS: quantity("s", "time", { ge: 0, le: 1e5 }), voltageV: quantity("V", "supply", { ge: 0, le: 10_000 }) }))
+  .array(
+    z.strictObject({
+      timeS: quantity("s", "time", { ge: 0, le: 1e5 }),
+      voltageV: quantity("V", "supply", { ge: 0, le: 10_000 }),
+    }),
+  )
   .min(2)
   .max(1000);
 
@@ -63,12 +98,23 @@ export const requirement = z
     supply: supplySpec,
     sourceResistanceOhm: quantity("ohm", "source and wiring resistance (default 0)", { ge: 0, le: 1e6 }).optional(),
     load,
-    loadLevels: z.array(z.number().gt(0).lte(10)).min(1).max(8).optional().meta({ description: "load levels as shares of the full load for the corners (default [1, 0.1])" }),
+    loadLevels: z
+      .array(z.number().gt(0).lte(10))
+      .min(1)
+      .max(8)
+      .optional()
+      .meta({ description: "load levels as shares of the full load for the corners (default [1, 0.1])" }),
     loadStandbyA: quantity("A", "the load's standby current (default 0)", { ge: 0, le: 100 }).optional(),
-    loadMinV: quantity("V", "lowest voltage at which the load works (default: a constant-power load's own minimum)", { ge: 0, le: 10_000 }).optional(),
+    loadMinV: quantity("V", "lowest voltage at which the load works (default: a constant-power load's own minimum)", {
+      ge: 0,
+      le: 10_000,
+    }).optional(),
     ambient: z.strictObject({ minC: temperatureC("lowest ambient"), maxC: temperatureC("highest ambient") }),
     reverse: z
-      .strictObject({ voltageV: quantity("V", "steady reverse polarity to withstand (magnitude)", { ge: 0, le: 10_000 }), durationS: quantity("s", "how long", { gt: 0, le: 1e7 }) })
+      .strictObject({
+        voltageV: quantity("V", "steady reverse polarity to withstand (magnitude)", { ge: 0, le: 10_000 }),
+        durationS: quantity("s", "how long", { gt: 0, le: 1e7 }),
+      })
       .optional()
       .meta({ description: "steady reverse polarity (default: the supply class's)" }),
     transients: z
@@ -80,31 +126,61 @@ export const requirement = z
       .strictObject({
         standoffV: volts("clamp working (standoff) voltage"),
         clampV: volts("clamping voltage at its peak current"),
-        breakdownV: volts("breakdown voltage VBR (with peakCurrentA: the dynamic resistance (clampV - VBR)/Ipp; absent: a constant clampV)").optional(),
+        breakdownV: volts(
+          "breakdown voltage VBR (with peakCurrentA: the dynamic resistance (clampV - VBR)/Ipp; absent: a constant clampV)",
+        ).optional(),
         peakCurrentA: quantity("A", "rated peak pulse current", { gt: 0, le: 1e5 }).optional(),
         energyJ: quantity("J", "rated pulse energy", { gt: 0, le: 1e6 }).optional(),
         peakPulsePowerW: quantity("W", "rated peak pulse power at the reference pulse", { gt: 0, le: 1e8 }).optional(),
-        referencePulseS: quantity("s", "width (to half value) of the pulse the power is rated at (default 1 ms: a 10/1000 us pulse)", { gt: 0, le: 10 }).optional(),
-        tjMaxC: temperatureC("the clamp's maximum junction temperature, where its power derates to zero (default 150 degC)").optional(),
+        referencePulseS: quantity(
+          "s",
+          "width (to half value) of the pulse the power is rated at (default 1 ms: a 10/1000 us pulse)",
+          { gt: 0, le: 10 },
+        ).optional(),
+        tjMaxC: temperatureC(
+          "the clamp's maximum junction temperature, where its power derates to zero (default 150 degC)",
+        ).optional(),
       })
       .optional()
       .meta({ description: "a clamp (TVS) at the input, if the design has one" }),
-    outputHeldV: quantity("V", "voltage the hold-up capacitor keeps at the output during a negative pulse (default: nominal supply)", { ge: 0, le: 10_000 }).optional(),
-    deratingFactor: ratio("share of a voltage rating the clamp sizing may use (default 0.8, common practice)", { gt: 0, le: 1 }).optional(),
+    outputHeldV: quantity(
+      "V",
+      "voltage the hold-up capacitor keeps at the output during a negative pulse (default: nominal supply)",
+      { ge: 0, le: 10_000 },
+    ).optional(),
+    deratingFactor: ratio("share of a voltage rating the clamp sizing may use (default 0.8, common practice)", {
+      gt: 0,
+      le: 1,
+    }).optional(),
     startProfile: z
       .union([
         profilePoints,
         z
           .strictObject({
-            builtIn: z.enum(START_PROFILE_IDS).optional().meta({ description: "a built-in ISO 16750-2 clause 4.6.3 starting profile (values memory unless docs/references.md says otherwise)" }),
+            builtIn: z.enum(START_PROFILE_IDS).optional().meta({
+              description:
+                "a built-in ISO 16750-2 clause 4.6.3 starting profile (values memory unless docs/references.md says otherwise)",
+            }),
             points: profilePoints.optional(),
-            cranks: z.number().int().min(1).max(10).optional().meta({ description: "how many cranks in a row (default 1)" }),
-            restS: quantity("s", "time at the battery voltage between two cranks (default 0: at once)", { ge: 0, le: 600 }).optional(),
+            cranks: z
+              .number()
+              .int()
+              .min(1)
+              .max(10)
+              .optional()
+              .meta({ description: "how many cranks in a row (default 1)" }),
+            restS: quantity("s", "time at the battery voltage between two cranks (default 0: at once)", {
+              ge: 0,
+              le: 600,
+            }).optional(),
           })
           .meta({ description: "a built-in starting profile or points of one crank, repeated" }),
       ])
       .optional()
-      .meta({ description: "a start-up (cold-crank) profile: supply against time, time increasing; or a built-in profile or points, repeated for several cranks" }),
+      .meta({
+        description:
+          "a start-up (cold-crank) profile: supply against time, time increasing; or a built-in profile or points, repeated for several cranks",
+      }),
     mission: z
       .array(
         z.strictObject({
@@ -115,19 +191,43 @@ export const requirement = z
       )
       .max(64)
       .optional(),
-    energyPricePerKWh: z.number().gte(0).lte(1e4).optional().meta({ description: "price of a kWh in the caller's currency" }),
-    battery: z.strictObject({ capacityAh: quantity("A*h", "battery capacity", { gt: 0, le: 1e6 }), usableFraction: ratio("usable share of the capacity", { gt: 0, le: 1 }) }).optional(),
+    energyPricePerKWh: z
+      .number()
+      .gte(0)
+      .lte(1e4)
+      .optional()
+      .meta({ description: "price of a kWh in the caller's currency" }),
+    battery: z
+      .strictObject({
+        capacityAh: quantity("A*h", "battery capacity", { gt: 0, le: 1e6 }),
+        usableFraction: ratio("usable share of the capacity", { gt: 0, le: 1 }),
+      })
+      .optional(),
     standbyBudgetA: quantity("A", "standby current budget for the input stage", { ge: 0, le: 100 }).optional(),
-    lossBudgetW: quantity("W", "largest loss the input stage may dissipate at the worst corner", { gt: 0, le: 1e5 }).optional(),
-    parallelSources: z.boolean().optional().meta({ description: "the input is paralleled with another source (default false)" }),
-    holdUpRequired: z.boolean().optional().meta({ description: "the load must ride through an input dropout (default false)" }),
-    tjMarginK: quantity("K", "margin below Tj(max) that thermal sizing holds (default 25 K, common practice)", { ge: 0, le: 200 }).optional(),
+    lossBudgetW: quantity("W", "largest loss the input stage may dissipate at the worst corner", {
+      gt: 0,
+      le: 1e5,
+    }).optional(),
+    parallelSources: z
+      .boolean()
+      .optional()
+      .meta({ description: "the input is paralleled with another source (default false)" }),
+    holdUpRequired: z
+      .boolean()
+      .optional()
+      .meta({ description: "the load must ride through an input dropout (default false)" }),
+    tjMarginK: quantity("K", "margin below Tj(max) that thermal sizing holds (default 25 K, common practice)", {
+      ge: 0,
+      le: 200,
+    }).optional(),
     turnOff: reviewTurnOff.optional(),
   })
   .superRefine((r, ctx) => {
-    if (r.ambient.minC > r.ambient.maxC) ctx.addIssue({ code: "custom", path: ["ambient", "minC"], message: "must not be above ambient.maxC" });
+    if (r.ambient.minC > r.ambient.maxC)
+      ctx.addIssue({ code: "custom", path: ["ambient", "minC"], message: "must not be above ambient.maxC" });
     const s = r.supply;
-    if (s.minV !== undefined && s.maxV !== undefined && s.minV > s.maxV) ctx.addIssue({ code: "custom", path: ["supply", "minV"], message: "must not be above supply.maxV" });
+    if (s.minV !== undefined && s.maxV !== undefined && s.minV > s.maxV)
+      ctx.addIssue({ code: "custom", path: ["supply", "minV"], message: "must not be above supply.maxV" });
     if (s.class === "custom" && (s.minV === undefined || s.nominalV === undefined || s.maxV === undefined)) {
       ctx.addIssue({ code: "custom", path: ["supply"], message: "a custom supply needs minV, nominalV and maxV" });
     }
@@ -136,17 +236,38 @@ export const requirement = z
     const at = Array.isArray(sp) ? ["startProfile"] : ["startProfile", "points"];
     points?.forEach((p, i) => {
       const prev = points[i - 1];
-      if (prev && !(p.timeS > prev.timeS)) ctx.addIssue({ code: "custom", path: [...at, i, "timeS"], message: "times must increase" });
+      if (prev && !(p.timeS > prev.timeS))
+        ctx.addIssue({ code: "custom", path: [...at, i, "timeS"], message: "times must increase" });
     });
     if (sp !== undefined && !Array.isArray(sp) && (sp.builtIn === undefined) === (sp.points === undefined)) {
-      ctx.addIssue({ code: "custom", path: ["startProfile"], message: "give either builtIn (a built-in profile id) or points, not both" });
+      ctx.addIssue({
+        code: "custom",
+        path: ["startProfile"],
+        message: "give either builtIn (a built-in profile id) or points, not both",
+      });
     }
     const t = r.turnOff;
-    if (t?.outputV !== undefined && t.inputAfterV !== undefined && !(t.inputAfterV < t.outputV)) ctx.addIssue({ code: "custom", path: ["turnOff", "inputAfterV"], message: "must be below turnOff.outputV: the input falls at t = 0" });
+    if (t?.outputV !== undefined && t.inputAfterV !== undefined && !(t.inputAfterV < t.outputV))
+      ctx.addIssue({
+        code: "custom",
+        path: ["turnOff", "inputAfterV"],
+        message: "must be below turnOff.outputV: the input falls at t = 0",
+      });
     const c = r.inputClamp;
-    if (c && c.clampV <= c.standoffV) ctx.addIssue({ code: "custom", path: ["inputClamp", "clampV"], message: "must be above standoffV" });
-    if (c?.breakdownV !== undefined && !(c.breakdownV >= c.standoffV && c.breakdownV < c.clampV)) ctx.addIssue({ code: "custom", path: ["inputClamp", "breakdownV"], message: "must lie between standoffV and clampV" });
-    if (c?.tjMaxC !== undefined && !(c.tjMaxC > 25)) ctx.addIssue({ code: "custom", path: ["inputClamp", "tjMaxC"], message: "must be above 25 degC (the power rating's reference)" });
+    if (c && c.clampV <= c.standoffV)
+      ctx.addIssue({ code: "custom", path: ["inputClamp", "clampV"], message: "must be above standoffV" });
+    if (c?.breakdownV !== undefined && !(c.breakdownV >= c.standoffV && c.breakdownV < c.clampV))
+      ctx.addIssue({
+        code: "custom",
+        path: ["inputClamp", "breakdownV"],
+        message: "must lie between standoffV and clampV",
+      });
+    if (c?.tjMaxC !== undefined && !(c.tjMaxC > 25))
+      ctx.addIssue({
+        code: "custom",
+        path: ["inputClamp", "tjMaxC"],
+        message: "must be above 25 degC (the power rating's reference)",
+      });
   });
 export type RequirementInput = z.input<typeof requirement>;
 export type Requirement = z.output<typeof requirement>;

@@ -11,22 +11,34 @@ import { zthCurveFields } from "./fit.js";
 
 /** What a Foster or Cauer network spans, and the heat capacity of the rest of the path when it spans junction to case. */
 const networkScope = {
-  scope: z
-    .enum(["junction-ambient", "junction-case"])
-    .optional()
-    .meta({
-      description:
-        "what the network spans (default junction-ambient: its ΣR must be the stage's thermal path within 5 %); junction-case: a datasheet Zth(j-c) network, cascaded with the rest of the path as one node of caseToAmbientHeatCapacityJPerK",
-    }),
-  caseToAmbientHeatCapacityJPerK: quantity("J/K", "heat capacity of the case-to-ambient path (board copper, heatsink), for a junction-case network", { gt: 0, le: 1e6 }).optional(),
+  scope: z.enum(["junction-ambient", "junction-case"]).optional().meta({
+    description:
+      "what the network spans (default junction-ambient: its ΣR must be the stage's thermal path within 5 %); junction-case: a datasheet Zth(j-c) network, cascaded with the rest of the path as one node of caseToAmbientHeatCapacityJPerK",
+  }),
+  caseToAmbientHeatCapacityJPerK: quantity(
+    "J/K",
+    "heat capacity of the case-to-ambient path (board copper, heatsink), for a junction-case network",
+    { gt: 0, le: 1e6 },
+  ).optional(),
 };
 
-function needsCaseCapacity(t: { scope?: string | undefined; caseToAmbientHeatCapacityJPerK?: number | undefined }, ctx: z.RefinementCtx): void {
+function needsCaseCapacity(
+  t: { scope?: string | undefined; caseToAmbientHeatCapacityJPerK?: number | undefined },
+  ctx: z.RefinementCtx,
+): void {
   if (t.scope === "junction-case" && t.caseToAmbientHeatCapacityJPerK === undefined) {
-    ctx.addIssue({ code: "custom", path: ["caseToAmbientHeatCapacityJPerK"], message: "a junction-case network needs the heat capacity of the rest of the path (board copper, heatsink), J/K" });
+    ctx.addIssue({
+      code: "custom",
+      path: ["caseToAmbientHeatCapacityJPerK"],
+      message: "a junction-case network needs the heat capacity of the rest of the path (board copper, heatsink), J/K",
+    });
   }
   if (t.scope !== "junction-case" && t.caseToAmbientHeatCapacityJPerK !== undefined) {
-    ctx.addIssue({ code: "custom", path: ["caseToAmbientHeatCapacityJPerK"], message: 'only a network with scope "junction-case" takes a case-to-ambient heat capacity' });
+    ctx.addIssue({
+      code: "custom",
+      path: ["caseToAmbientHeatCapacityJPerK"],
+      message: 'only a network with scope "junction-case" takes a case-to-ambient heat capacity',
+    });
   }
 }
 
@@ -36,7 +48,12 @@ export const transientThermal = z
       .strictObject({
         kind: z.literal("foster"),
         terms: z
-          .array(z.strictObject({ rKPerW: quantity("K/W", "thermal resistance of the term", { gt: 0, le: 10_000 }), tauS: quantity("s", "time constant τ = R·C", { gt: 0, le: 1e6 }) }))
+          .array(
+            z.strictObject({
+              rKPerW: quantity("K/W", "thermal resistance of the term", { gt: 0, le: 10_000 }),
+              tauS: quantity("s", "time constant τ = R·C", { gt: 0, le: 1e6 }),
+            }),
+          )
           .min(1)
           .max(12),
         ...networkScope,
@@ -48,7 +65,10 @@ export const transientThermal = z
         stages: z
           .array(
             z.strictObject({
-              rKPerW: quantity("K/W", "resistance from this node to the next (the last: to ambient, or to the case)", { gt: 0, le: 10_000 }),
+              rKPerW: quantity("K/W", "resistance from this node to the next (the last: to ambient, or to the case)", {
+                gt: 0,
+                le: 10_000,
+              }),
               cJPerK: quantity("J/K", "heat capacity from this node to ambient", { gt: 0, le: 1e6 }),
             }),
           )
@@ -58,11 +78,18 @@ export const transientThermal = z
         ...networkScope,
       })
       .superRefine(needsCaseCapacity)
-      .meta({ description: "a Cauer (ladder) network: physical nodes, so a junction-case ladder is cascaded with the case-to-ambient path exactly" }),
-    z.strictObject({ kind: z.literal("single-pole"), heatCapacityJPerK: quantity("J/K", "heat capacity of the junction-to-ambient path", { gt: 0, le: 1e6 }) }),
-    z
-      .strictObject({ kind: z.literal("zth-points"), ...zthCurveFields })
-      .meta({ description: "single-pulse junction-to-ambient Zth(t) points, fitted to a Foster network (steadyKPerW default: the stage's thermal path)" }),
+      .meta({
+        description:
+          "a Cauer (ladder) network: physical nodes, so a junction-case ladder is cascaded with the case-to-ambient path exactly",
+      }),
+    z.strictObject({
+      kind: z.literal("single-pole"),
+      heatCapacityJPerK: quantity("J/K", "heat capacity of the junction-to-ambient path", { gt: 0, le: 1e6 }),
+    }),
+    z.strictObject({ kind: z.literal("zth-points"), ...zthCurveFields }).meta({
+      description:
+        "single-pulse junction-to-ambient Zth(t) points, fitted to a Foster network (steadyKPerW default: the stage's thermal path)",
+    }),
   ])
   .meta({
     description:
@@ -76,31 +103,84 @@ export const candidate = z.strictObject({
   datasheetMax: z
     .strictObject({
       rdsOnFactor: z.number().gte(1).lte(5).meta({ description: "datasheet maximum ÷ typical Rds(on)", unit: "1" }),
-      forwardVoltageFactor: z.number().gte(1).lte(5).meta({ description: "datasheet maximum ÷ typical forward voltage", unit: "1" }),
-      startV: quantity("V", "datasheet maximum start voltage of the controller or integrated switch (the start checks and the datasheet-maximum corners use it)", { ge: 0, le: 10_000 }).optional(),
-      thresholdV: quantity("V", "datasheet maximum gate threshold Vth(max) of the MOSFET, at 25 °C (the start checks and the datasheet-maximum corners use it)", { ge: 0, le: 100 }).optional(),
-      reverseThresholdV: quantity("V", "datasheet maximum reverse-current threshold of the controller (the review's turn-off event uses it)", { ge: 0, le: 10 }).optional(),
-      turnOffDelayS: quantity("s", "datasheet maximum turn-off delay of the controller (the review's turn-off event uses it)", { ge: 0, le: 1 }).optional(),
+      forwardVoltageFactor: z
+        .number()
+        .gte(1)
+        .lte(5)
+        .meta({ description: "datasheet maximum ÷ typical forward voltage", unit: "1" }),
+      startV: quantity(
+        "V",
+        "datasheet maximum start voltage of the controller or integrated switch (the start checks and the datasheet-maximum corners use it)",
+        { ge: 0, le: 10_000 },
+      ).optional(),
+      thresholdV: quantity(
+        "V",
+        "datasheet maximum gate threshold Vth(max) of the MOSFET, at 25 °C (the start checks and the datasheet-maximum corners use it)",
+        { ge: 0, le: 100 },
+      ).optional(),
+      reverseThresholdV: quantity(
+        "V",
+        "datasheet maximum reverse-current threshold of the controller (the review's turn-off event uses it)",
+        { ge: 0, le: 10 },
+      ).optional(),
+      turnOffDelayS: quantity(
+        "s",
+        "datasheet maximum turn-off delay of the controller (the review's turn-off event uses it)",
+        { ge: 0, le: 1 },
+      ).optional(),
     })
     .optional()
     .meta({ description: "the datasheet-maximum tolerance corner (absent: typical values only)" }),
   transientThermal: transientThermal.optional(),
-  heatsinkCost: z.number().gte(0).lte(1e6).optional().meta({ description: "cost of a heatsink if one is needed, for ranking", unit: "currency" }),
-  turnOffTiming: turnOffTiming.optional().meta({ description: "this candidate's reverse-current turn-off timing for the requirement's turnOff event (default: requirement.turnOff.timing, else the stage controller's own)" }),
+  heatsinkCost: z
+    .number()
+    .gte(0)
+    .lte(1e6)
+    .optional()
+    .meta({ description: "cost of a heatsink if one is needed, for ranking", unit: "currency" }),
+  turnOffTiming: turnOffTiming.optional().meta({
+    description:
+      "this candidate's reverse-current turn-off timing for the requirement's turnOff event (default: requirement.turnOff.timing, else the stage controller's own)",
+  }),
 });
 
 const mcParameter = z.enum(["rdsOn", "forwardVoltage", "rth", "supplyV", "ambientC", "load", "startV", "thresholdV"]);
 export const monteCarloSpec = z.strictObject({
-  samples: z.number().int().min(1).max(LIMITS.maxMonteCarloSamples, { error: limitMessage("maxMonteCarloSamples", "Monte Carlo samples") }),
-  seed: z.number().int().min(0).max(2 ** 32 - 1),
-  candidate: z.number().int().min(0).max(63).optional().meta({ description: "index of the candidate to sample (default 0)" }),
+  samples: z
+    .number()
+    .int()
+    .min(1)
+    .max(LIMITS.maxMonteCarloSamples, { error: limitMessage("maxMonteCarloSamples", "Monte Carlo samples") }),
+  seed: z
+    .number()
+    .int()
+    .min(0)
+    .max(2 ** 32 - 1),
+  candidate: z
+    .number()
+    .int()
+    .min(0)
+    .max(63)
+    .optional()
+    .meta({ description: "index of the candidate to sample (default 0)" }),
   supplyV: quantity("V", "supply for the samples (default: lowest supply)", { gt: 0, le: 10_000 }).optional(),
   ambientC: temperatureC("ambient for the samples (default: highest ambient)").optional(),
   tolerances: z
     .array(
       z.discriminatedUnion("distribution", [
-        z.strictObject({ parameter: mcParameter, distribution: z.literal("normal"), sigma: z.number().gte(0).lte(1000).meta({ description: "standard deviation: relative for rdsOn, forwardVoltage, rth, load (≤ 0.2); V or K for supplyV, ambientC, startV (a controller's or switch's start voltage), thresholdV (the MOSFET's Vth)" }) }),
-        z.strictObject({ parameter: mcParameter, distribution: z.literal("uniform"), halfWidth: z.number().gte(0).lte(1000).meta({ description: "± half width: relative (≤ 0.9) or V / K" }) }),
+        z.strictObject({
+          parameter: mcParameter,
+          distribution: z.literal("normal"),
+          sigma: z.number().gte(0).lte(1000).meta({
+            description:
+              "standard deviation: relative for rdsOn, forwardVoltage, rth, load (≤ 0.2); V or K for supplyV, ambientC, startV (a controller's or switch's start voltage), thresholdV (the MOSFET's Vth)",
+          }),
+        }),
+        z.strictObject({
+          parameter: mcParameter,
+          distribution: z.literal("uniform"),
+          halfWidth: z.number().gte(0).lte(1000).meta({ description: "± half width: relative (≤ 0.9) or V / K" }),
+        }),
       ]),
     )
     .min(1)
@@ -110,23 +190,43 @@ export const monteCarloSpec = z.strictObject({
 export const reviewInput = z
   .strictObject({
     requirement,
-    candidates: z.array(candidate).min(1).max(LIMITS.maxCandidates, { error: limitMessage("maxCandidates", "candidates in one review") }),
+    candidates: z
+      .array(candidate)
+      .min(1)
+      .max(LIMITS.maxCandidates, { error: limitMessage("maxCandidates", "candidates in one review") }),
     ruleSet: z.string().min(1).max(100).optional().meta({ description: "id of a rule set (default: default)" }),
     monteCarlo: monteCarloSpec.optional(),
-    curves: z.boolean().optional().meta({ description: "also return load and ambient sweeps through the worst corner, for charts (default false; reports ask for them)" }),
+    curves: z.boolean().optional().meta({
+      description:
+        "also return load and ambient sweeps through the worst corner, for charts (default false; reports ask for them)",
+    }),
   })
   .superRefine((r, ctx) => {
     const work = startProfilePointCount(r.requirement.startProfile) * r.candidates.length;
     if (work > LIMITS.maxProfileWork) {
-      ctx.addIssue({ code: "custom", path: ["requirement", "startProfile"], message: limitMessage("maxProfileWork", `start-up profile points times candidates is ${work}`) });
+      ctx.addIssue({
+        code: "custom",
+        path: ["requirement", "startProfile"],
+        message: limitMessage("maxProfileWork", `start-up profile points times candidates is ${work}`),
+      });
     }
     const mc = r.monteCarlo;
-    if (mc?.candidate !== undefined && mc.candidate >= r.candidates.length) ctx.addIssue({ code: "custom", path: ["monteCarlo", "candidate"], message: "no candidate at that index" });
+    if (mc?.candidate !== undefined && mc.candidate >= r.candidates.length)
+      ctx.addIssue({ code: "custom", path: ["monteCarlo", "candidate"], message: "no candidate at that index" });
     mc?.tolerances.forEach((t, i) => {
-      const relative = t.parameter !== "supplyV" && t.parameter !== "ambientC" && t.parameter !== "startV" && t.parameter !== "thresholdV";
+      const relative =
+        t.parameter !== "supplyV" &&
+        t.parameter !== "ambientC" &&
+        t.parameter !== "startV" &&
+        t.parameter !== "thresholdV";
       const spread = t.distribution === "normal" ? t.sigma : t.halfWidth;
       const cap = t.distribution === "normal" ? 0.2 : 0.9;
-      if (relative && spread > cap) ctx.addIssue({ code: "custom", path: ["monteCarlo", "tolerances", i], message: `a relative ${t.distribution} spread must be at most ${cap}` });
+      if (relative && spread > cap)
+        ctx.addIssue({
+          code: "custom",
+          path: ["monteCarlo", "tolerances", i],
+          message: `a relative ${t.distribution} spread must be at most ${cap}`,
+        });
     });
   })
   .meta({ description: "design review: a requirement and candidate stages" });
@@ -156,24 +256,58 @@ export const cornerRow = z.object({ conditions: cornerConditions, ...pointFields
 
 export const reviewCurves = z
   .object({
-    conditions: cornerConditions.extend({ basis: z.enum(["worst-tj-corner", "lowest-supply-hot-full-load"]).meta({ description: "which corner the curves pass through" }) }),
-    load: z.array(z.object({ loadScale: z.number(), ...pointFields })).meta({ description: "load level swept at the conditions' supply, ambient and tolerance" }),
-    ambient: z.array(z.object({ ambientC: z.number(), ...pointFields })).meta({ description: "ambient swept over the requirement's range at the conditions' supply, load and tolerance" }),
+    conditions: cornerConditions.extend({
+      basis: z
+        .enum(["worst-tj-corner", "lowest-supply-hot-full-load"])
+        .meta({ description: "which corner the curves pass through" }),
+    }),
+    load: z
+      .array(z.object({ loadScale: z.number(), ...pointFields }))
+      .meta({ description: "load level swept at the conditions' supply, ambient and tolerance" }),
+    ambient: z.array(z.object({ ambientC: z.number(), ...pointFields })).meta({
+      description: "ambient swept over the requirement's range at the conditions' supply, load and tolerance",
+    }),
   })
-  .meta({ description: "drop, loss and Tj against load level and ambient, through the worst-Tj corner (same solve as the corners), for plots" });
+  .meta({
+    description:
+      "drop, loss and Tj against load level and ambient, through the worst-Tj corner (same solve as the corners), for plots",
+  });
 
-const driveAt = z.object({ inputV: z.number(), startMarginV: z.number().optional(), gateSourceV: z.number().optional(), gateDriveMarginV: z.number().optional() });
-const profileSample = z.object({ timeS: z.number(), supplyV: z.number(), mode: z.string(), loadV: z.number(), lossW: z.number(), tjC: z.number() });
+const driveAt = z.object({
+  inputV: z.number(),
+  startMarginV: z.number().optional(),
+  gateSourceV: z.number().optional(),
+  gateDriveMarginV: z.number().optional(),
+});
+const profileSample = z.object({
+  timeS: z.number(),
+  supplyV: z.number(),
+  mode: z.string(),
+  loadV: z.number(),
+  lossW: z.number(),
+  tjC: z.number(),
+});
 export const reviewStartUp = z
   .object({
     atMinSupply: driveAt,
-    atProfileMin: driveAt.optional().meta({ description: "the same at the start-up profile's lowest point (with a profile)" }),
-    profiles: z.array(
-      z.object({
-        ambientC: z.number(),
-        result: z.object({ samples: z.array(profileSample).readonly(), minLoadV: z.number(), maxTjC: z.number(), bodyDiodeTimeS: z.number(), dropoutTimeS: z.number(), thermalModel: z.string() }),
-      }),
-    ).readonly(),
+    atProfileMin: driveAt
+      .optional()
+      .meta({ description: "the same at the start-up profile's lowest point (with a profile)" }),
+    profiles: z
+      .array(
+        z.object({
+          ambientC: z.number(),
+          result: z.object({
+            samples: z.array(profileSample).readonly(),
+            minLoadV: z.number(),
+            maxTjC: z.number(),
+            bodyDiodeTimeS: z.number(),
+            dropoutTimeS: z.number(),
+            thermalModel: z.string(),
+          }),
+        }),
+      )
+      .readonly(),
   })
   .meta({ description: "drive at the lowest supply; the start-up profile samples per ambient" });
 
@@ -186,7 +320,13 @@ export const candidateResult = z.object({
   rank: z.number().int(),
   verdict: z.string(),
   rankReason: z.string(),
-  worst: z.object({ tjC: worstOf.optional(), lossW: worstOf.optional(), dropV: worstOf.optional(), loadMinV: worstOf.optional(), unsolvedCorners: z.array(z.number().int()) }),
+  worst: z.object({
+    tjC: worstOf.optional(),
+    lossW: worstOf.optional(),
+    dropV: worstOf.optional(),
+    loadMinV: worstOf.optional(),
+    unsolvedCorners: z.array(z.number().int()),
+  }),
   corners: z.array(cornerRow),
   startUp: reviewStartUp,
   curves: reviewCurves.optional(),
@@ -194,12 +334,20 @@ export const candidateResult = z.object({
     .object({
       tjC: z.number().meta({ description: "junction temperature at the event" }),
       tjSource: z.enum(["given", "worst-corner", "highest-ambient"]),
-      avalancheRatingJ: z.number().optional().meta({ description: "the part's single-pulse avalanche rating at 25 °C starting Tj" }),
+      avalancheRatingJ: z
+        .number()
+        .optional()
+        .meta({ description: "the part's single-pulse avalanche rating at 25 °C starting Tj" }),
       event: turnOffEventOutput,
     })
     .optional()
-    .meta({ description: "the requirement's turn-off event for this candidate (as the turnOff procedure computes it; the waveform when curves were asked for)" }),
-  reverse: z.unknown().meta({ description: "steady reverse polarity: blocking element, voltage vs rating, leakage, junction temperature" }),
+    .meta({
+      description:
+        "the requirement's turn-off event for this candidate (as the turnOff procedure computes it; the waveform when curves were asked for)",
+    }),
+  reverse: z.unknown().meta({
+    description: "steady reverse polarity: blocking element, voltage vs rating, leakage, junction temperature",
+  }),
   transients: z.unknown().meta({ description: "per pulse: peak, element stresses, clamp requirement" }),
   thermalSizing: z.unknown(),
   energy: z.unknown().optional(),
@@ -210,8 +358,20 @@ export const candidateResult = z.object({
 });
 
 const distribution = z
-  .object({ mean: z.number(), std: z.number(), p1: z.number(), p5: z.number(), p50: z.number(), p95: z.number(), p99: z.number(), min: z.number(), max: z.number() })
-  .meta({ description: "mean, standard deviation and nearest-rank percentiles over the samples with an operating point" });
+  .object({
+    mean: z.number(),
+    std: z.number(),
+    p1: z.number(),
+    p5: z.number(),
+    p50: z.number(),
+    p95: z.number(),
+    p99: z.number(),
+    min: z.number(),
+    max: z.number(),
+  })
+  .meta({
+    description: "mean, standard deviation and nearest-rank percentiles over the samples with an operating point",
+  });
 
 export const monteCarloResult = z.object({
   candidate: z.number().int(),
@@ -219,12 +379,16 @@ export const monteCarloResult = z.object({
   seed: z.number().int(),
   supplyV: z.number(),
   ambientC: z.number(),
-  shareWithoutOperatingPoint: z.number().meta({ description: "share of samples with no operating point (runaway, collapse, stage off)" }),
+  shareWithoutOperatingPoint: z
+    .number()
+    .meta({ description: "share of samples with no operating point (runaway, collapse, stage off)" }),
   tjC: distribution.optional(),
   lossW: distribution.optional(),
   dropV: distribution.optional(),
   loadV: distribution.optional(),
-  shareFailingByRule: z.record(z.string(), z.number()).meta({ description: "rule id → share of samples on which it fails" }),
+  shareFailingByRule: z
+    .record(z.string(), z.number())
+    .meta({ description: "rule id → share of samples on which it fails" }),
   shareWarningByRule: z.record(z.string(), z.number()),
 });
 
@@ -239,7 +403,15 @@ export const reviewOutput = z.object({
     transients: z.array(z.string()),
     sources: z.array(z.string()),
   }),
-  ranking: z.array(z.object({ rank: z.number().int(), index: z.number().int(), label: z.string(), verdict: z.string(), reason: z.string() })),
+  ranking: z.array(
+    z.object({
+      rank: z.number().int(),
+      index: z.number().int(),
+      label: z.string(),
+      verdict: z.string(),
+      reason: z.string(),
+    }),
+  ),
   candidates: z.array(candidateResult),
   monteCarlo: monteCarloResult.optional(),
   assumptions: z.array(z.string()),

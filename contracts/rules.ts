@@ -14,7 +14,9 @@ export const rulesEvaluateInput = z
   .strictObject({
     ruleSet: ruleSetRef,
     stageKind: stageKind.optional().meta({ description: "rules limited to stage kinds are not applicable without it" }),
-    metrics: metricRecord.meta({ description: "metric values by vocabulary name, SI units (docs/metrics.md); booleans as true/false or 0/1" }),
+    metrics: metricRecord.meta({
+      description: "metric values by vocabulary name, SI units (docs/metrics.md); booleans as true/false or 0/1",
+    }),
     part: partRecord.default({}).meta({ description: "part parameters by name, read in rules as part.<name>" }),
   })
   .meta({ description: "evaluate a rule set against metrics computed elsewhere" });
@@ -33,13 +35,33 @@ const metricDefSchema = z.object({
 
 export const rulesListInput = z.strictObject({}).optional();
 export const rulesListOutput = z.object({
-  ruleSets: z.array(z.object({ id: z.string(), version: z.string(), hash: z.string(), description: z.string(), basedOn: z.string().optional(), rules: z.number() })),
-  refused: z.array(z.object({ file: z.string(), setId: z.string().optional(), problems: z.array(z.object({ message: z.string() })) })).meta({
-    description: "rule-set files refused at load, with why",
-  }),
+  ruleSets: z.array(
+    z.object({
+      id: z.string(),
+      version: z.string(),
+      hash: z.string(),
+      description: z.string(),
+      basedOn: z.string().optional(),
+      rules: z.number(),
+    }),
+  ),
+  refused: z
+    .array(
+      z.object({
+        file: z.string(),
+        setId: z.string().optional(),
+        problems: z.array(z.object({ message: z.string() })),
+      }),
+    )
+    .meta({
+      description: "rule-set files refused at load, with why",
+    }),
   metrics: z.array(metricDefSchema),
   partParameters: z.array(metricDefSchema),
 });
 
 export const rulesShowInput = z.strictObject({ id: z.string().min(1).max(80) });
-export const rulesShowOutput = z.object({ ruleSet: ruleSetSchema, stamp: z.object({ id: z.string(), version: z.string(), hash: z.string() }) });
+export const rulesShowOutput = z.object({
+  ruleSet: ruleSetSchema,
+  stamp: z.object({ id: z.string(), version: z.string(), hash: z.string() }),
+});

@@ -12,17 +12,32 @@ export const sizingTurnOff = z
   .strictObject({
     loop: reverseLoop,
     capacitor: holdUpCapacitor,
-    outputV: quantity("V", "output voltage before the event (default: the nominal supply)", { gt: 0, le: 10_000 }).optional(),
+    outputV: quantity("V", "output voltage before the event (default: the nominal supply)", {
+      gt: 0,
+      le: 10_000,
+    }).optional(),
     inputAfterV: quantity("V", "input from t = 0 on (default 0: a short)", { ge: 0, le: 10_000 }).optional(),
     tjC: temperatureC("junction temperature at the event (default: the highest ambient)").optional(),
-    reverseThresholdV: quantity("V", "reverse drop at which the controller trips (default: the part's)", { ge: 0, le: 10 }).optional(),
+    reverseThresholdV: quantity("V", "reverse drop at which the controller trips (default: the part's)", {
+      ge: 0,
+      le: 10,
+    }).optional(),
     gateChargeC: quantity("C", "gate charge removed at turn-off", { gt: 0, le: 1 }).optional(),
     gateSinkCurrentA: quantity("A", "the driver's gate sink current", { gt: 0, le: 100 }).optional(),
-    clampV: quantity("V", "voltage the blocking element clamps at (default: its rated voltage)", { gt: 0, le: 10_000 }).optional(),
+    clampV: quantity("V", "voltage the blocking element clamps at (default: its rated voltage)", {
+      gt: 0,
+      le: 10_000,
+    }).optional(),
     peakReverseCurrentMaxA: quantity("A", "largest reverse-current peak allowed", { gt: 0, le: 1e5 }).optional(),
-    absorbedEnergyMaxJ: quantity("J", "largest energy the blocking element may absorb at turn-off (e.g. its derated avalanche rating)", { gt: 0, le: 1e6 }).optional(),
+    absorbedEnergyMaxJ: quantity(
+      "J",
+      "largest energy the blocking element may absorb at turn-off (e.g. its derated avalanche rating)",
+      { gt: 0, le: 1e6 },
+    ).optional(),
   })
-  .meta({ description: "the turn-off event: loop, output capacitor, and the reverse-current peak and absorbed-energy limits" });
+  .meta({
+    description: "the turn-off event: loop, output capacitor, and the reverse-current peak and absorbed-energy limits",
+  });
 
 const common = {
   requirement,
@@ -33,11 +48,10 @@ const common = {
 export const sizingSpecInput = z
   .strictObject({
     ...common,
-    templates: z
-      .array(candidate)
-      .min(1)
-      .max(16)
-      .meta({ description: "one part per family to size (inline or from the catalog): its laws (Rds(on) temperature law and gate-drive points, diode Is(T)) and thermal path are held; the specification says how far each value may go" }),
+    templates: z.array(candidate).min(1).max(16).meta({
+      description:
+        "one part per family to size (inline or from the catalog): its laws (Rds(on) temperature law and gate-drive points, diode Is(T)) and thermal path are held; the specification says how far each value may go",
+    }),
   })
   .meta({ description: "inverse sizing: the part specification a requirement and rule set need, per stage kind" });
 export type SizingSpecInput = z.input<typeof sizingSpecInput>;
@@ -45,8 +59,14 @@ export type SizingSpecInput = z.input<typeof sizingSpecInput>;
 export const sizingCatalogInput = z
   .strictObject({
     ...common,
-    kinds: z.array(z.enum(STAGE_KINDS)).min(1).optional().meta({ description: "only parts of these stage kinds (default: all)" }),
-    thermal: thermalPath.optional().meta({ description: "the board's thermal path for every part (default: each part's own)" }),
+    kinds: z
+      .array(z.enum(STAGE_KINDS))
+      .min(1)
+      .optional()
+      .meta({ description: "only parts of these stage kinds (default: all)" }),
+    thermal: thermalPath
+      .optional()
+      .meta({ description: "the board's thermal path for every part (default: each part's own)" }),
     datasheetMax: candidate.shape.datasheetMax,
   })
   .meta({ description: "the approved-parts catalog against the specification, ranked as the design review ranks" });
@@ -68,7 +88,14 @@ export const specItem = z.object({
   conditions: z.record(z.string(), z.union([z.number(), z.string()])).optional(),
   source: z
     .discriminatedUnion("kind", [
-      z.object({ kind: z.literal("rule"), ruleId: z.string(), expression: z.string(), severity: z.enum(["fail", "warn"]), threshold: z.number().nullable(), ruleSet: stamp }),
+      z.object({
+        kind: z.literal("rule"),
+        ruleId: z.string(),
+        expression: z.string(),
+        severity: z.enum(["fail", "warn"]),
+        threshold: z.number().nullable(),
+        ruleSet: stamp,
+      }),
       z.object({ kind: z.literal("requirement"), field: z.string(), severity: z.enum(["fail", "warn"]) }),
     ])
     .optional(),
@@ -80,7 +107,9 @@ const head = { ...provenance, ruleSet: stamp, assumptions: z.array(z.string()) }
 
 export const sizingSpecOutput = z.object({
   ...head,
-  specifications: z.array(z.object({ index: z.number().int(), label: z.string(), stage: stageLabel, items: z.array(specItem) })),
+  specifications: z.array(
+    z.object({ index: z.number().int(), label: z.string(), stage: stageLabel, items: z.array(specItem) }),
+  ),
 });
 export type SizingSpecOutput = z.infer<typeof sizingSpecOutput>;
 

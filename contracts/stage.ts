@@ -6,7 +6,12 @@ import { thermalPath } from "./thermal.js";
 
 const volts = (d: string) => quantity("V", d, { gt: 0, le: 10_000 });
 const name = z.string().min(1).max(200).optional().meta({ description: "a label for reports" });
-const costEach = z.number().gte(0).lte(1e6).optional().meta({ description: "unit cost in the caller's currency, for ranking", unit: "currency" });
+const costEach = z
+  .number()
+  .gte(0)
+  .lte(1e6)
+  .optional()
+  .meta({ description: "unit cost in the caller's currency, for ranking", unit: "currency" });
 
 export const reverseLeakageCurve = z
   .strictObject({
@@ -21,23 +26,43 @@ export const reverseLeakageCurve = z
       .min(2)
       .max(64)
       .meta({ description: "IR(Tj, VR) points read off the datasheet's curves, at two junction temperatures or more" }),
-    acceptFit: z.boolean().optional().meta({ description: "use a fit whose worst residual exceeds 25 % of IR (default false: refused, naming the point)" }),
+    acceptFit: z.boolean().optional().meta({
+      description: "use a fit whose worst residual exceeds 25 % of IR (default false: refused, naming the point)",
+    }),
   })
-  .meta({ description: "reverse leakage curves: fitted to IR = Iref·(T/Tref)²·exp(−(ΦB/k)·(1/T − 1/Tref))·(VR/Vref)^m (thermionic emission over the barrier ΦB)" });
+  .meta({
+    description:
+      "reverse leakage curves: fitted to IR = Iref·(T/Tref)²·exp(−(ΦB/k)·(1/T − 1/Tref))·(VR/Vref)^m (thermionic emission over the barrier ΦB)",
+  });
 
-const leakageFigure = { currentA: quantity("A", "datasheet reverse current", { gt: 0, le: 10 }), tempC: temperatureC("junction temperature of that figure") };
+const leakageFigure = {
+  currentA: quantity("A", "datasheet reverse current", { gt: 0, le: 10 }),
+  tempC: temperatureC("junction temperature of that figure"),
+};
 
-const pnLeakagePoint = z.strictObject(leakageFigure).meta({ description: "one figure at the rated voltage, scaled in temperature by the junction's Is(T) law" });
+const pnLeakagePoint = z
+  .strictObject(leakageFigure)
+  .meta({ description: "one figure at the rated voltage, scaled in temperature by the junction's Is(T) law" });
 
 /** A Schottky's one datasheet figure and the thermionic-emission law that carries it in Tj and VR (schottky-leakage.ts). */
 const schottkyLeakagePoint = z
   .strictObject({
     ...leakageFigure,
     reverseV: volts("reverse voltage of that figure (default: the rated reverse voltage)").optional(),
-    barrierEv: z.number().gte(0.2).lte(1.5).optional().meta({ description: "barrier height ΦB of IR ∝ T²·exp(−q·ΦB/(k·T)), eV (default 0.7 eV: toward the steep end of silicon power Schottky barriers, so hot leakage errs high)", unit: "eV" }),
-    voltageExponent: ratio("power m of IR ∝ VR^m (default 0: the figure's current at every reverse voltage up to it, an upper bound below it)", { ge: 0, le: 3 }).optional(),
+    barrierEv: z.number().gte(0.2).lte(1.5).optional().meta({
+      description:
+        "barrier height ΦB of IR ∝ T²·exp(−q·ΦB/(k·T)), eV (default 0.7 eV: toward the steep end of silicon power Schottky barriers, so hot leakage errs high)",
+      unit: "eV",
+    }),
+    voltageExponent: ratio(
+      "power m of IR ∝ VR^m (default 0: the figure's current at every reverse voltage up to it, an upper bound below it)",
+      { ge: 0, le: 3 },
+    ).optional(),
   })
-  .meta({ description: "one figure scaled by thermionic emission: IR = I·(T/T0)²·exp(−(ΦB/k)·(1/T − 1/T0))·(VR/V0)^m, independent of the forward fit" });
+  .meta({
+    description:
+      "one figure scaled by thermionic emission: IR = I·(T/T0)²·exp(−(ΦB/k)·(1/T − 1/T0))·(VR/V0)^m, independent of the forward fit",
+  });
 
 const diodeStage = (kind: "pn-diode" | "schottky-diode") =>
   z.strictObject({
@@ -57,29 +82,48 @@ const diodeStage = (kind: "pn-diode" | "schottky-diode") =>
       }),
     tjMaxC: temperatureC("maximum junction temperature"),
     thermal: thermalPath,
-    avalancheEnergyJ: quantity("J", "single-pulse avalanche energy rating at 25 °C starting junction temperature (for the turn-off rules)", { gt: 0, le: 1e6 }).optional(),
-    peakRepetitiveCurrentA: quantity("A", "repetitive peak forward current rating IFRM (for the bridge rules)", { gt: 0, le: 1e5 }).optional(),
+    avalancheEnergyJ: quantity(
+      "J",
+      "single-pulse avalanche energy rating at 25 °C starting junction temperature (for the turn-off rules)",
+      { gt: 0, le: 1e6 },
+    ).optional(),
+    peakRepetitiveCurrentA: quantity("A", "repetitive peak forward current rating IFRM (for the bridge rules)", {
+      gt: 0,
+      le: 1e5,
+    }).optional(),
   });
 
 export const controller = z
   .strictObject({
     startV: quantity("V", "input voltage from which the controller runs and drives the gate", { ge: 0, le: 10_000 }),
     gateDrive: z
-      .array(z.strictObject({ inputV: quantity("V", "input voltage", { ge: 0, le: 10_000 }), gateSourceV: quantity("V", "gate-source drive the charge pump delivers", { ge: 0, le: 100 }) }))
+      .array(
+        z.strictObject({
+          inputV: quantity("V", "input voltage", { ge: 0, le: 10_000 }),
+          gateSourceV: quantity("V", "gate-source drive the charge pump delivers", { ge: 0, le: 100 }),
+        }),
+      )
       .min(1)
       .meta({ description: "gate drive against input voltage, increasing inputV; held flat outside" }),
     regulatedDropV: quantity("V", "forward drop the controller regulates to at light load (0: none)", { ge: 0, le: 1 }),
     quiescentA: quantity("A", "quiescent current from the input to ground", { ge: 0, le: 1 }),
-    gateReleaseFraction: ratio("share of time a duty-cycled charge pump releases the gate (0 for a continuous pump)", { ge: 0, le: 1 }).optional(),
+    gateReleaseFraction: ratio("share of time a duty-cycled charge pump releases the gate (0 for a continuous pump)", {
+      ge: 0,
+      le: 1,
+    }).optional(),
     maxInputV: volts("absolute maximum input voltage of the controller").optional(),
     reverseRatingV: volts("reverse voltage the controller's input withstands (magnitude)").optional(),
-    reverseThresholdV: quantity("V", "reverse drop at which the controller turns the MOSFET off", { ge: 0, le: 10 }).optional(),
+    reverseThresholdV: quantity("V", "reverse drop at which the controller turns the MOSFET off", {
+      ge: 0,
+      le: 10,
+    }).optional(),
     turnOffDelayS: quantity("s", "delay from reverse threshold to gate off", { ge: 0, le: 1 }).optional(),
   })
   .superRefine((c, ctx) => {
     c.gateDrive.forEach((p, i) => {
       const prev = c.gateDrive[i - 1];
-      if (prev && !(p.inputV > prev.inputV)) ctx.addIssue({ code: "custom", path: ["gateDrive", i, "inputV"], message: "input voltages must increase" });
+      if (prev && !(p.inputV > prev.inputV))
+        ctx.addIssue({ code: "custom", path: ["gateDrive", i, "inputV"], message: "input voltages must increase" });
     });
   });
 
@@ -87,8 +131,22 @@ export const stageSpec = z
   .discriminatedUnion("kind", [
     diodeStage("pn-diode"),
     diodeStage("schottky-diode"),
-    z.strictObject({ kind: z.literal("pfet-high-side"), name, costEach, mosfet, gateClampV: volts("gate-source zener clamp").optional(), thermal: thermalPath }),
-    z.strictObject({ kind: z.literal("nfet-low-side"), name, costEach, mosfet, gateClampV: volts("gate-source zener clamp").optional(), thermal: thermalPath }),
+    z.strictObject({
+      kind: z.literal("pfet-high-side"),
+      name,
+      costEach,
+      mosfet,
+      gateClampV: volts("gate-source zener clamp").optional(),
+      thermal: thermalPath,
+    }),
+    z.strictObject({
+      kind: z.literal("nfet-low-side"),
+      name,
+      costEach,
+      mosfet,
+      gateClampV: volts("gate-source zener clamp").optional(),
+      thermal: thermalPath,
+    }),
     z.strictObject({ kind: z.literal("nfet-ideal-diode"), name, costEach, mosfet, controller, thermal: thermalPath }),
     z
       .strictObject({
@@ -96,11 +154,13 @@ export const stageSpec = z
         name,
         costEach,
         mosfet: mosfet.meta({ description: "each of the two N-channel MOSFETs (the same part), sources joined" }),
-        controller: controller.meta({ description: "the controller or gate driver driving both gates from its charge pump" }),
-        blocksReverseCurrent: z
-          .boolean()
-          .optional()
-          .meta({ description: "an ideal-diode controller that turns both FETs off on reverse current (default: true when the controller regulates a drop or states a reverse threshold; false: a plain gate driver, a load switch)" }),
+        controller: controller.meta({
+          description: "the controller or gate driver driving both gates from its charge pump",
+        }),
+        blocksReverseCurrent: z.boolean().optional().meta({
+          description:
+            "an ideal-diode controller that turns both FETs off on reverse current (default: true when the controller regulates a drop or states a reverse threshold; false: a plain gate driver, a load switch)",
+        }),
         thermal: thermalPath.meta({ description: "thermal path of the pair: both FETs' losses heat it" }),
       })
       .meta({ description: "back-to-back N-channel MOSFETs (common source): blocks both ways when off" }),
@@ -112,14 +172,22 @@ export const stageSpec = z
         onResistanceOhm: quantity("ohm", "on-resistance at 25 °C", { gt: 0, le: 1e3 }),
         onResistanceTemp: rdsTempLaw.optional(),
         startV: quantity("V", "input voltage from which the switch turns on (UVLO)", { ge: 0, le: 10_000 }),
-        belowStart: z.enum(["body-diode", "blocks"]).meta({ description: "below start: the body diode conducts, or the switch blocks" }),
+        belowStart: z
+          .enum(["body-diode", "blocks"])
+          .meta({ description: "below start: the body diode conducts, or the switch blocks" }),
         bodyDiode: diode.optional(),
         regulatedDropV: quantity("V", "regulated forward drop (ideal-diode type; 0: plain switch)", { ge: 0, le: 1 }),
         quiescentA: quantity("A", "quiescent current", { ge: 0, le: 1 }),
         maxVoltageV: volts("absolute maximum input voltage"),
         reverseRatingV: volts("reverse voltage the switch blocks (absent: not rated for reverse)").optional(),
-        avalancheEnergyJ: quantity("J", "single-pulse energy its internal FET or clamp absorbs at 25 °C start (for the turn-off rules)", { gt: 0, le: 1e6 }).optional(),
-        blocksReverseCurrent: z.boolean().optional().meta({ description: "turns off on reverse current (default: true when regulatedDropV > 0, i.e. an ideal-diode type)" }),
+        avalancheEnergyJ: quantity(
+          "J",
+          "single-pulse energy its internal FET or clamp absorbs at 25 °C start (for the turn-off rules)",
+          { gt: 0, le: 1e6 },
+        ).optional(),
+        blocksReverseCurrent: z.boolean().optional().meta({
+          description: "turns off on reverse current (default: true when regulatedDropV > 0, i.e. an ideal-diode type)",
+        }),
         currentLimitA: quantity("A", "current limit", { gt: 0, le: 1e4 }).optional(),
         tjMaxC: temperatureC("maximum junction temperature"),
         thermal: thermalPath,
@@ -146,4 +214,12 @@ export const stageInput = z
   .meta({ description: "a stage given inline, or a catalog part by id" });
 export type StageInput = z.output<typeof stageInput>;
 
-export const STAGE_KINDS = ["pn-diode", "schottky-diode", "pfet-high-side", "nfet-low-side", "nfet-ideal-diode", "integrated-switch", "nfet-back-to-back"] as const;
+export const STAGE_KINDS = [
+  "pn-diode",
+  "schottky-diode",
+  "pfet-high-side",
+  "nfet-low-side",
+  "nfet-ideal-diode",
+  "integrated-switch",
+  "nfet-back-to-back",
+] as const;

@@ -23,44 +23,80 @@ export const holdUpCapacitor = z
 
 export const turnOffTiming = z
   .strictObject({
-    reverseThresholdV: quantity("V", "reverse drain-source voltage at which the controller trips (magnitude)", { ge: 0, le: 10 }),
+    reverseThresholdV: quantity("V", "reverse drain-source voltage at which the controller trips (magnitude)", {
+      ge: 0,
+      le: 10,
+    }),
     turnOffDelayS: quantity("s", "delay from the trip to the start of the gate discharge", { ge: 0, le: 1 }),
     gateChargeC: quantity("C", "gate charge to remove at turn-off", { gt: 0, le: 1 }).optional(),
     gateSinkCurrentA: quantity("A", "the driver's gate sink current", { gt: 0, le: 100 }).optional(),
   })
-  .meta({ description: "reverse-current turn-off of a controller; default: the stage controller's reverseThresholdV and turnOffDelayS" });
+  .meta({
+    description:
+      "reverse-current turn-off of a controller; default: the stage controller's reverseThresholdV and turnOffDelayS",
+  });
 
-export const repetitiveEvent = z
-  .boolean()
-  .optional()
-  .meta({ description: "the event repeats in service (each switch-off, each pulse of a train), not a one-off fault: the absorbed energy is then also held to the MOSFET's repetitive avalanche rating EAR (default false)" });
+export const repetitiveEvent = z.boolean().optional().meta({
+  description:
+    "the event repeats in service (each switch-off, each pulse of a train), not a one-off fault: the absorbed energy is then also held to the MOSFET's repetitive avalanche rating EAR (default false)",
+});
 
 /** The fields the turn-off event and the hold-up of a falling input share. */
 export const fallingInputFields = {
   stage: stageInput,
   outputV: quantity("V", "output voltage before the event (steady state)", { gt: 0, le: 10_000 }),
-  inputAfterV: quantity("V", "input voltage from t = 0 on: 0 for a short, or the lower voltage it steps to", { ge: 0, le: 10_000 }),
+  inputAfterV: quantity("V", "input voltage from t = 0 on: 0 for a short, or the lower voltage it steps to", {
+    ge: 0,
+    le: 10_000,
+  }),
   loop: reverseLoop,
   capacitor: holdUpCapacitor,
   load,
-  loadMinV: quantity("V", "the load's minimum operating voltage (default: a constant-power load's minVoltageV)", { ge: 0, le: 10_000 }).optional(),
+  loadMinV: quantity("V", "the load's minimum operating voltage (default: a constant-power load's minVoltageV)", {
+    ge: 0,
+    le: 10_000,
+  }).optional(),
   tjC: temperatureC("junction temperature of the stage at the event"),
   turnOff: turnOffTiming.optional(),
-  reverseRecoveryChargeC: quantity("C", "a diode stage's reverse-recovery charge Qrr (default 0: ideal)", { ge: 0, le: 1 }).optional(),
-  clampV: quantity("V", "voltage the blocking element clamps the inductive energy at (default: its rated voltage)", { gt: 0, le: 10_000 }).optional(),
+  reverseRecoveryChargeC: quantity("C", "a diode stage's reverse-recovery charge Qrr (default 0: ideal)", {
+    ge: 0,
+    le: 1,
+  }).optional(),
+  clampV: quantity("V", "voltage the blocking element clamps the inductive energy at (default: its rated voltage)", {
+    gt: 0,
+    le: 10_000,
+  }).optional(),
 };
 
 export const turnOffInput = z
   .strictObject({
     ...fallingInputFields,
-    avalancheRatingJ: quantity("J", "single-pulse avalanche energy rating of the blocking element at 25 °C starting Tj (default: the part's avalancheEnergyJ)", { gt: 0, le: 1e6 }).optional(),
+    avalancheRatingJ: quantity(
+      "J",
+      "single-pulse avalanche energy rating of the blocking element at 25 °C starting Tj (default: the part's avalancheEnergyJ)",
+      { gt: 0, le: 1e6 },
+    ).optional(),
     repetitive: repetitiveEvent,
-    ruleSet: ruleSetRef.optional().meta({ description: "when given, the result carries this rule set's verdicts (docs/metrics.md lists what this analysis provides)" }),
-    ruleMetrics: metricRecord.optional().meta({ description: "requirement metrics for the rules that this analysis does not compute (parallelSources, reverseVMaxV, reverseCurrentBudgetA, ...)" }),
-    waveform: z.boolean().optional().meta({ description: "also return the event as time samples (loop current, output and capacitor voltage), for charts (default false)" }),
+    ruleSet: ruleSetRef.optional().meta({
+      description:
+        "when given, the result carries this rule set's verdicts (docs/metrics.md lists what this analysis provides)",
+    }),
+    ruleMetrics: metricRecord.optional().meta({
+      description:
+        "requirement metrics for the rules that this analysis does not compute (parallelSources, reverseVMaxV, reverseCurrentBudgetA, ...)",
+    }),
+    waveform: z.boolean().optional().meta({
+      description:
+        "also return the event as time samples (loop current, output and capacitor voltage), for charts (default false)",
+    }),
   })
   .superRefine((v, ctx) => {
-    if (!(v.inputAfterV < v.outputV)) ctx.addIssue({ code: "custom", path: ["inputAfterV"], message: "must be below outputV: the input falls at t = 0" });
+    if (!(v.inputAfterV < v.outputV))
+      ctx.addIssue({
+        code: "custom",
+        path: ["inputAfterV"],
+        message: "must be below outputV: the input falls at t = 0",
+      });
   })
   .meta({ description: "reverse current when the input falls: peak current, charge lost, turn-off energy" });
 export type TurnOffInput = z.input<typeof turnOffInput>;
@@ -91,8 +127,12 @@ export const turnOffMetrics = z.object({
   turnOffS: z.number().optional(),
   absorbedEnergyJ: z.number().optional(),
   avalancheRatingJ: z.number().optional().meta({ description: "single-pulse avalanche rating at 25 °C starting Tj" }),
-  avalancheRatingAtTjJ: z.number().optional().meta({ description: "the rating derated to the event's starting Tj (what avalanche-energy reads as avalancheEnergyAtTjJ)" }),
-  avalancheEnergyRatio: z.number().optional().meta({ description: "absorbed energy / the rating at the event's Tj; above 1 exceeds it (absent when that rating is 0)" }),
+  avalancheRatingAtTjJ: z.number().optional().meta({
+    description: "the rating derated to the event's starting Tj (what avalanche-energy reads as avalancheEnergyAtTjJ)",
+  }),
+  avalancheEnergyRatio: z.number().optional().meta({
+    description: "absorbed energy / the rating at the event's Tj; above 1 exceeds it (absent when that rating is 0)",
+  }),
   outputVoltageLostV: z.number(),
   fallsBelowLoadMinimumS: z.number().optional(),
 });
@@ -101,11 +141,19 @@ export const turnOffMetrics = z.object({
 export const turnOffWaveformSchema = z
   .object({
     timeS: z.array(z.number()).readonly().meta({ description: "from the input's fall, s" }),
-    currentA: z.array(z.number()).readonly().meta({ description: "loop current, positive forward (negative: reverse current through the stage)" }),
+    currentA: z
+      .array(z.number())
+      .readonly()
+      .meta({ description: "loop current, positive forward (negative: reverse current through the stage)" }),
     outputV: z.array(z.number()).readonly(),
     capacitorV: z.array(z.number()).readonly(),
-    clampStartIndex: z.number().int().optional().meta({ description: "index of the turn-off instant; the clamp phase runs from it on (absent without a clamp phase)" }),
-    pointsPerPhase: z.number().int().meta({ description: "evenly spaced samples per phase (the extrema and event instants come on top)" }),
+    clampStartIndex: z.number().int().optional().meta({
+      description: "index of the turn-off instant; the clamp phase runs from it on (absent without a clamp phase)",
+    }),
+    pointsPerPhase: z
+      .number()
+      .int()
+      .meta({ description: "evenly spaced samples per phase (the extrema and event instants come on top)" }),
   })
   .meta({ description: "the turn-off event against time (present when waveform was asked for)" });
 
@@ -113,7 +161,9 @@ const head = {
   ...provenance,
   stage: z.object({ kind: z.string(), name: z.string().optional(), partId: z.string().optional() }),
   assumptions: z.array(z.string()),
-  rules: ruleSetResultSchema.optional().meta({ description: "verdicts of the named rule set on the event (present when ruleSet was given)" }),
+  rules: ruleSetResultSchema
+    .optional()
+    .meta({ description: "verdicts of the named rule set on the event (present when ruleSet was given)" }),
 };
 const eventFields = {
   loop: z.object({
@@ -128,13 +178,14 @@ const eventFields = {
   initialCurrentA: z.number(),
   initialSlopeAPerS: z.number(),
   peakReverseCurrentA: z.number().meta({
-    description: "largest reverse current of the event (magnitude): up to turn-off for a stage that blocks, else followed past the window until the current turns",
+    description:
+      "largest reverse current of the event (magnitude): up to turn-off for a stage that blocks, else followed past the window until the current turns",
   }),
   peakReverseTimeS: z.number(),
-  peakReverseIsLowerBound: z
-    .literal(true)
-    .optional()
-    .meta({ description: "present when the current was still rising at the end of the searched span: peakReverseCurrentA is only a lower bound (rules read it as unavailable)" }),
+  peakReverseIsLowerBound: z.literal(true).optional().meta({
+    description:
+      "present when the current was still rising at the end of the searched span: peakReverseCurrentA is only a lower bound (rules read it as unavailable)",
+  }),
   end: windowState,
   energies,
   metrics: turnOffMetrics,
@@ -158,29 +209,57 @@ function eventOutcomes<H extends z.ZodRawShape>(h: H) {
           clampedFormulaJ: z.number().meta({ description: "½·L·I²·Vcl/(Vcl − Vs), Vs = output − input at turn-off" }),
           absorbedJ: z.number().meta({ description: "Vcl·∫|i|dt over the clamp phase, exact loop response" }),
           durationS: z.number(),
-          avalancheRatingJ: z.number().optional().meta({ description: "single-pulse avalanche rating at 25 °C starting Tj" }),
-          avalancheRatingAtTjJ: z.number().optional().meta({ description: "the rating derated linearly to zero at Tj(max), at the event's starting Tj (no credit below 25 °C)" }),
+          avalancheRatingJ: z
+            .number()
+            .optional()
+            .meta({ description: "single-pulse avalanche rating at 25 °C starting Tj" }),
+          avalancheRatingAtTjJ: z.number().optional().meta({
+            description:
+              "the rating derated linearly to zero at Tj(max), at the event's starting Tj (no credit below 25 °C)",
+          }),
           withinAvalancheRating: z.boolean().optional().meta({ description: "absorbedJ within avalancheRatingAtTjJ" }),
           after: windowState,
           energies,
         })
         .optional(),
     }),
-    z.object({ outcome: z.literal("does-not-block"), ...common, reason: z.string(), fallsBelowMinS: z.number().optional(), settlesAtV: z.number() }),
+    z.object({
+      outcome: z.literal("does-not-block"),
+      ...common,
+      reason: z.string(),
+      fallsBelowMinS: z.number().optional(),
+      settlesAtV: z.number(),
+    }),
     z.object({ outcome: z.literal("stays-on"), ...common, reason: z.string() }),
-    z.object({ outcome: z.literal("clamp-below-drive"), ...h, reason: z.string(), clampV: z.number(), driveV: z.number(), currentAtTurnOffA: z.number() }),
+    z.object({
+      outcome: z.literal("clamp-below-drive"),
+      ...h,
+      reason: z.string(),
+      clampV: z.number(),
+      driveV: z.number(),
+      currentAtTurnOffA: z.number(),
+    }),
     z.object({ outcome: z.literal("invalid-load-line"), ...h, reason: z.string(), path: z.string() }),
     z
       .object({
         outcome: z.literal("unstable-loop"),
         ...h,
         reason: z.string(),
-        mode: z.enum(["diverges", "oscillation-grows"]).meta({ description: "diverges: a real growing mode (R·P/V² ≥ 1); oscillation-grows: negative damping" }),
-        dampingRatio: z.number().meta({ description: "damping ratio of the linearised loop (negative: negative damping; 0 where it diverges)" }),
+        mode: z
+          .enum(["diverges", "oscillation-grows"])
+          .meta({ description: "diverges: a real growing mode (R·P/V² ≥ 1); oscillation-grows: negative damping" }),
+        dampingRatio: z.number().meta({
+          description: "damping ratio of the linearised loop (negative: negative damping; 0 where it diverges)",
+        }),
         growthPerS: z.number().meta({ description: "growth rate of the fastest-growing natural mode, 1/s" }),
-        loadIncrementalResistanceOhm: z.number().meta({ description: "the constant-power load's incremental resistance −V²/P at the pre-event output" }),
+        loadIncrementalResistanceOhm: z
+          .number()
+          .meta({ description: "the constant-power load's incremental resistance −V²/P at the pre-event output" }),
       })
-      .meta({ description: "the constant-power load's negative incremental resistance makes the linearised loop unstable: no bounded response" }),
+      .meta({
+        description:
+          "the constant-power load's negative incremental resistance makes the linearised loop unstable: no bounded response",
+      }),
   ]);
 }
 

@@ -22,7 +22,11 @@ function distance(a: string, b: string, cap: number): number {
     const row = [i];
     let best = i;
     for (let j = 1; j <= b.length; j += 1) {
-      const v = Math.min((prev[j] as number) + 1, (row[j - 1] as number) + 1, (prev[j - 1] as number) + (a[i - 1] === b[j - 1] ? 0 : 1));
+      const v = Math.min(
+        (prev[j] as number) + 1,
+        (row[j - 1] as number) + 1,
+        (prev[j - 1] as number) + (a[i - 1] === b[j - 1] ? 0 : 1),
+      );
       row.push(v);
       if (v < best) best = v;
     }
@@ -50,10 +54,13 @@ export function nearestName(key: string, names: readonly string[]): string | und
 
 /** The message for one unknown key of an object whose valid keys are `known`. */
 export function unknownFieldMessage(key: string, known: readonly string[]): string {
-  if (PROTOTYPE_KEYS.has(key)) return `unknown field \`${key}\`: this name is never a field (it would reach an object's prototype)`;
+  if (PROTOTYPE_KEYS.has(key))
+    return `unknown field \`${key}\`: this name is never a field (it would reach an object's prototype)`;
   const near = nearestName(key, known);
   if (near !== undefined) return `unknown field \`${key}\`; did you mean \`${near}\`?`;
-  return known.length > 0 && known.length <= 24 ? `unknown field \`${key}\`; valid fields here: ${known.join(", ")}` : `unknown field \`${key}\``;
+  return known.length > 0 && known.length <= 24
+    ? `unknown field \`${key}\`; valid fields here: ${known.join(", ")}`
+    : `unknown field \`${key}\``;
 }
 
 /** An id that names nothing: the nearest known one, and the list (`no supply class "car-12"; did you mean "car-12v"? known: ...`). */
@@ -80,7 +87,9 @@ function customError(iss: RawIssue): string | undefined {
         .join(KEY_MESSAGE_SEPARATOR);
     }
     case "invalid_type":
-      return iss.input === undefined ? `required (${iss.expected === "nonoptional" ? "a value" : `${/^[aeiou]/.test(iss.expected) ? "an" : "a"} ${iss.expected}`})` : undefined;
+      return iss.input === undefined
+        ? `required (${iss.expected === "nonoptional" ? "a value" : `${/^[aeiou]/.test(iss.expected) ? "an" : "a"} ${iss.expected}`})`
+        : undefined;
     case "invalid_value": {
       const values = (iss as { values?: unknown[] }).values;
       if (!values || values.length < 2) return undefined;
@@ -90,9 +99,14 @@ function customError(iss: RawIssue): string | undefined {
       const { options, discriminator } = iss as { options?: unknown[]; discriminator?: string };
       if (!options || discriminator === undefined) return undefined;
       const input = iss.input as Record<string, unknown> | undefined;
-      const value = typeof input === "object" && input !== null && Object.hasOwn(input, discriminator) ? input[discriminator] : undefined;
+      const value =
+        typeof input === "object" && input !== null && Object.hasOwn(input, discriminator)
+          ? input[discriminator]
+          : undefined;
       const list = options.map(quoted).join(", ");
-      return value === undefined ? `required: one of ${list}` : `expected one of ${list} (got ${JSON.stringify(value)})`;
+      return value === undefined
+        ? `required: one of ${list}`
+        : `expected one of ${list} (got ${JSON.stringify(value)})`;
     }
     default:
       return undefined;
@@ -106,7 +120,8 @@ export interface PlainIssue {
   readonly message: string;
 }
 
-const plainPath = (path: readonly PropertyKey[]): (string | number)[] => path.map((p) => (typeof p === "symbol" ? String(p) : p));
+const plainPath = (path: readonly PropertyKey[]): (string | number)[] =>
+  path.map((p) => (typeof p === "symbol" ? String(p) : p));
 
 /** The one branch of a union whose type the input matched (its issues are the ones to report), if exactly one did. */
 function matchedBranch(i: z.core.$ZodIssue): z.core.$ZodIssue[] | undefined {

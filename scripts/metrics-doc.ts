@@ -1,5 +1,11 @@
 import { builtInRuleSetFiles } from "../domain/rules/built-in-sets.js";
-import { type MetricDef, METRIC_ROLES, METRICS, PART_NOT_ASSESSED, PART_PARAMETERS } from "../domain/rules/metric-vocabulary.js";
+import {
+  type MetricDef,
+  METRIC_ROLES,
+  METRICS,
+  PART_NOT_ASSESSED,
+  PART_PARAMETERS,
+} from "../domain/rules/metric-vocabulary.js";
 import type { RuleSet } from "../domain/rules/rule-model.js";
 import { EXPRESSION_LIMITS, FUNCTIONS, UNIT_SCALES } from "../domain/rules/sandbox-whitelist.js";
 
@@ -95,16 +101,30 @@ function hazardTable(): string[] {
   const sets = builtInRuleSetFiles().map(([, d]) => d as RuleSet);
   const ids = [...new Set(sets.flatMap((s) => s.rules.map((r) => r.id)))];
   const missing = ids.filter((id) => RULE_HAZARDS[id] === undefined);
-  if (missing.length > 0) throw new Error(`scripts/metrics-doc.ts: give the hazard of built-in rule(s) ${missing.join(", ")} in RULE_HAZARDS`);
+  if (missing.length > 0)
+    throw new Error(
+      `scripts/metrics-doc.ts: give the hazard of built-in rule(s) ${missing.join(", ")} in RULE_HAZARDS`,
+    );
   const order = [...new Set(Object.values(RULE_HAZARDS))];
   ids.sort((a, b) => order.indexOf(RULE_HAZARDS[a] ?? "") - order.indexOf(RULE_HAZARDS[b] ?? ""));
   const cell = (s: RuleSet, id: string) => {
     const r = s.rules.find((x) => x.id === id);
-    return r === undefined ? "—" : `${r.severity}: \`${r.expression}\`${r.when === undefined ? "" : ` when \`${r.when}\``}`;
+    return r === undefined
+      ? "—"
+      : `${r.severity}: \`${r.expression}\`${r.when === undefined ? "" : ` when \`${r.when}\``}`;
   };
   const notAssessed = [
-    ...Object.entries(METRIC_ROLES).flatMap(([n, r]) => (r.notAssessed ? [`- \`${n}\` for ${r.notAssessed.stageKinds === "all" ? "every kind" : r.notAssessed.stageKinds.join(", ")}: ${r.notAssessed.reason}`] : [])),
-    ...Object.entries(PART_NOT_ASSESSED).map(([n, na]) => `- \`part.${n}\` for ${na.stageKinds === "all" ? "every kind" : na.stageKinds.join(", ")}: ${na.reason}`),
+    ...Object.entries(METRIC_ROLES).flatMap(([n, r]) =>
+      r.notAssessed
+        ? [
+            `- \`${n}\` for ${r.notAssessed.stageKinds === "all" ? "every kind" : r.notAssessed.stageKinds.join(", ")}: ${r.notAssessed.reason}`,
+          ]
+        : [],
+    ),
+    ...Object.entries(PART_NOT_ASSESSED).map(
+      ([n, na]) =>
+        `- \`part.${n}\` for ${na.stageKinds === "all" ? "every kind" : na.stageKinds.join(", ")}: ${na.reason}`,
+    ),
   ];
   return [
     "## Hazards each built-in rule set assesses",

@@ -10,7 +10,8 @@ export interface Shard {
 }
 
 /** Does record `lineNo` belong to this run (no shard: every record does)? */
-export const inShard = (lineNo: number, shard: Shard | undefined): boolean => shard === undefined || (lineNo - 1) % shard.count === shard.index;
+export const inShard = (lineNo: number, shard: Shard | undefined): boolean =>
+  shard === undefined || (lineNo - 1) % shard.count === shard.index;
 
 /**
  * Records as the reader hands them on (reader.ts): whole lines as UTF-8 bytes (a JSON Lines line
@@ -93,7 +94,10 @@ export class Utf8Sink {
  * for bridgeAc) when its input is an object that does not set it; the line as it is otherwise.
  * `procedure`: the report procedure the line names, if it names one.
  */
-export function withReportFlag(raw: string, flags: Readonly<Record<string, string>>): { raw: string; procedure: string | undefined } {
+export function withReportFlag(
+  raw: string,
+  flags: Readonly<Record<string, string>>,
+): { raw: string; procedure: string | undefined } {
   let v: { procedure?: unknown; input?: unknown };
   try {
     v = JSON.parse(raw) as typeof v;
@@ -102,7 +106,14 @@ export function withReportFlag(raw: string, flags: Readonly<Record<string, strin
   }
   const procedure = typeof v?.procedure === "string" && Object.hasOwn(flags, v.procedure) ? v.procedure : undefined;
   const flag = procedure === undefined ? undefined : flags[procedure];
-  if (flag === undefined || typeof v.input !== "object" || v.input === null || Array.isArray(v.input) || flag in v.input) return { raw, procedure };
+  if (
+    flag === undefined ||
+    typeof v.input !== "object" ||
+    v.input === null ||
+    Array.isArray(v.input) ||
+    flag in v.input
+  )
+    return { raw, procedure };
   return { raw: JSON.stringify({ ...v, input: { ...v.input, [flag]: true } }), procedure };
 }
 
@@ -112,7 +123,12 @@ export function withReportFlag(raw: string, flags: Readonly<Record<string, strin
  * same function runs in the worker threads and in the main thread, so both write the same bytes.
  * With `yieldEvery` > 0 it lets the event loop run (setImmediate) after every that many records.
  */
-export async function answerChunk(c: ChunkTask, line: (o: BatchOutputLine) => string, invoker: (path: string) => Invoke | undefined, yieldEvery = 0): Promise<ChunkAnswer> {
+export async function answerChunk(
+  c: ChunkTask,
+  line: (o: BatchOutputLine) => string,
+  invoker: (path: string) => Invoke | undefined,
+  yieldEvery = 0,
+): Promise<ChunkAnswer> {
   const text = Buffer.from(c.bytes.buffer, c.bytes.byteOffset, c.bytes.byteLength).toString("utf8");
   const raws = linesOf(text);
   const answered = c.answered === undefined ? undefined : new Map(c.answered.map((r) => [r.line, r]));

@@ -35,7 +35,8 @@ export function parseShard(spec: string | undefined, env: NodeJS.ProcessEnv): Sh
   if (!m) throw new UsageError(`--shard "${spec}": expected i/N or N`);
   const count = Number(m[2]);
   const rawIndex = m[1] ?? env.JOB_COMPLETION_INDEX;
-  if (rawIndex === undefined || !/^\d+$/.test(rawIndex)) throw new UsageError(`--shard ${spec}: no index given and JOB_COMPLETION_INDEX is not set`);
+  if (rawIndex === undefined || !/^\d+$/.test(rawIndex))
+    throw new UsageError(`--shard ${spec}: no index given and JOB_COMPLETION_INDEX is not set`);
   const index = Number(rawIndex);
   if (!(count >= 1 && index < count)) throw new UsageError(`--shard ${index}/${count}: need 0 <= i < N`);
   return { index, count };
@@ -81,7 +82,8 @@ async function batch(rest: string[]): Promise<number> {
   });
   if (values.help === true) return usage();
   if (values.in === undefined || values.out === undefined) throw new UsageError("--in and --out are required");
-  if (values.procedure !== undefined && procedureEntry(values.procedure) === undefined) throw new UsageError(`--procedure: no procedure "${values.procedure}"`);
+  if (values.procedure !== undefined && procedureEntry(values.procedure) === undefined)
+    throw new UsageError(`--procedure: no procedure "${values.procedure}"`);
   const shard = parseShard(values.shard, process.env);
   const outPath = values.out.replaceAll("{shard}", String(shard?.index ?? 0));
   const inFormat = formatOf(values.in, values["in-format"]);
@@ -92,12 +94,16 @@ async function batch(rest: string[]): Promise<number> {
   // 0.25 in process; peak RSS 256-280 MB against 180 MB, the thread holding its own router and heap)
   const cores = availableParallelism();
   const workers = values.workers === undefined ? Math.max(1, Math.min(8, cores - 1)) : Number(values.workers);
-  if (!Number.isInteger(workers) || workers < 0) throw new UsageError("--workers must be a whole number (0: no worker threads)");
+  if (!Number.isInteger(workers) || workers < 0)
+    throw new UsageError("--workers must be a whole number (0: no worker threads)");
   const catalogPath = values.catalog ?? process.env.BACKSTOP_CATALOG ?? DEMO_CATALOG();
   const catalog = loadCatalogFile(catalogPath);
   const rulesDir = process.env.BACKSTOP_RULES_DIR;
   const ruleSets = loadRuleSetStore(rulesDir);
-  for (const r of ruleSets.refused()) process.stderr.write(`backstop batch: rule set file ${r.file} refused: ${r.problems.map((p) => p.message).join("; ")}\n`);
+  for (const r of ruleSets.refused())
+    process.stderr.write(
+      `backstop batch: rule set file ${r.file} refused: ${r.problems.map((p) => p.message).join("; ")}\n`,
+    );
   // reads of 1 MiB (four chunks): a read then rarely keeps a chunk waiting (at 256 KiB, one read per
   // chunk, the main thread waited 0.4-0.7 s for input in a 3.5 s run of 300,000 lines; at 1 MiB 0.06 s)
   const input = createReadStream(values.in, { highWaterMark: 1024 * 1024 });
@@ -105,7 +111,10 @@ async function batch(rest: string[]): Promise<number> {
     input.once("open", () => resolve());
     input.once("error", reject);
   });
-  const pool: ComputePool | undefined = workers > 0 ? createComputePool({ threads: workers, catalogPath, rulesDir, tasksPerThread: CHUNKS_PER_THREAD }) : undefined;
+  const pool: ComputePool | undefined =
+    workers > 0
+      ? createComputePool({ threads: workers, catalogPath, rulesDir, tasksPerThread: CHUNKS_PER_THREAD })
+      : undefined;
   const p = progress(Number(process.env.BACKSTOP_PROGRESS_MS ?? 5000));
   let counts: BatchCounts = { lines: 0, ok: 0, failed: 0, blank: 0 };
   const reportDir = values["report-dir"];
@@ -113,7 +122,12 @@ async function batch(rest: string[]): Promise<number> {
   let drawn = 0;
   const onRow: RowHook = (row, procedure) => {
     try {
-      (procedure === "review" ? writeReviewReport : writeBridgeAcReport)(reportDir as string, nameOf(row.id, row.line), row.result, row.id ?? undefined);
+      (procedure === "review" ? writeReviewReport : writeBridgeAcReport)(
+        reportDir as string,
+        nameOf(row.id, row.line),
+        row.result,
+        row.id ?? undefined,
+      );
     } catch (e) {
       // that line's error row; the batch goes on
       return reportFailed(procedure, e);
@@ -128,7 +142,19 @@ async function batch(rest: string[]): Promise<number> {
       outPath,
       async (write) => {
         const reports = reportDir === undefined ? undefined : { flags, onRow };
-        counts = await streamBatch({ input, inFormat, outFormat, write, ctx: { catalog, ruleSets }, procedure: values.procedure, shard, pool, onProgress: (c) => p.tick(c), reports, poolOnly: process.env.BACKSTOP_TEST_WORKER_FAULT !== undefined });
+        counts = await streamBatch({
+          input,
+          inFormat,
+          outFormat,
+          write,
+          ctx: { catalog, ruleSets },
+          procedure: values.procedure,
+          shard,
+          pool,
+          onProgress: (c) => p.tick(c),
+          reports,
+          poolOnly: process.env.BACKSTOP_TEST_WORKER_FAULT !== undefined,
+        });
       },
       logLine,
     );
@@ -141,9 +167,14 @@ async function batch(rest: string[]): Promise<number> {
 }
 
 async function merge(rest: string[]): Promise<number> {
-  const { values, positionals } = parseArgs({ args: rest, allowPositionals: true, options: { out: { type: "string" }, format: { type: "string" }, help: { type: "boolean", short: "h" } } });
+  const { values, positionals } = parseArgs({
+    args: rest,
+    allowPositionals: true,
+    options: { out: { type: "string" }, format: { type: "string" }, help: { type: "boolean", short: "h" } },
+  });
   if (values.help === true) return usage();
-  if (values.out === undefined || positionals.length === 0) throw new UsageError("merge needs --out and at least one shard file");
+  if (values.out === undefined || positionals.length === 0)
+    throw new UsageError("merge needs --out and at least one shard file");
   const format = formatOf(values.out, values.format);
   let n = 0;
   await writeStreamAtomic(
@@ -170,9 +201,14 @@ export async function main(argv: string[]): Promise<number> {
     if (verb === "batch") return await batch(rest);
     if (verb === "merge") return await merge(rest);
     if (verb === "--help" || verb === "-h" || verb === "help") return usage();
-    throw new UsageError(verb === undefined ? "no command (backstop batch or backstop merge; backstop --help for usage)" : `unknown command "${verb}" (backstop batch or backstop merge)`);
+    throw new UsageError(
+      verb === undefined
+        ? "no command (backstop batch or backstop merge; backstop --help for usage)"
+        : `unknown command "${verb}" (backstop batch or backstop merge)`,
+    );
   } catch (e) {
-    if (e instanceof UsageError || (e as { code?: string }).code?.startsWith("ERR_PARSE_ARGS")) process.stderr.write(`${(e as Error).message}\n${USAGE}\n`);
+    if (e instanceof UsageError || (e as { code?: string }).code?.startsWith("ERR_PARSE_ARGS"))
+      process.stderr.write(`${(e as Error).message}\n${USAGE}\n`);
     else process.stderr.write(`backstop could not run: ${(e as Error).message}\n`);
     return 2;
   }

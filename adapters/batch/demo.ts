@@ -20,7 +20,17 @@ async function demo(): Promise<void> {
   });
   const counts = await runBatch(createReadStream(file), sink, { catalog: loadCatalogFile(DEMO_CATALOG()) });
   const out: string[] = [`backstop demo: ${file}`, ""];
-  out.push(["scenario / part".padEnd(68), "outcome".padEnd(17), "mode".padEnd(19), "drop V".padStart(8), "loss W".padStart(8), "Tj °C".padStart(7), "load V".padStart(8)].join(" "));
+  out.push(
+    [
+      "scenario / part".padEnd(68),
+      "outcome".padEnd(17),
+      "mode".padEnd(19),
+      "drop V".padStart(8),
+      "loss W".padStart(8),
+      "Tj °C".padStart(7),
+      "load V".padStart(8),
+    ].join(" "),
+  );
   for (const r of rows) {
     if (!r.ok) {
       out.push(`${String(r.id).padEnd(68)} error: ${r.error.message}`);
@@ -52,7 +62,9 @@ async function demoReport(): Promise<string[]> {
   const line = JSON.parse(readFileSync(file, "utf8")) as { id: string; input: unknown };
   const review = procedureInvoker({ catalog: loadCatalogFile(DEMO_CATALOG()) })("review");
   if (review === undefined) throw new Error("review procedure missing");
-  const result = (await review({ ...(line.input as object), curves: true })) as { ranking: { rank: number; label: string; verdict: string }[] };
+  const result = (await review({ ...(line.input as object), curves: true })) as {
+    ranking: { rank: number; label: string; verdict: string }[];
+  };
   const dir = resolve(process.env.BACKSTOP_REPORT_DIR ?? join(projectRoot(), "dist", "demo-reports"));
   const w = writeReviewReport(dir, line.id, result, line.id);
   return [

@@ -3,7 +3,14 @@ import type { Context } from "../../api/context.js";
 import { procedureInvoker } from "../../api/procedure-registry.js";
 import type { ErrorBody } from "../../contracts/outcome.js";
 import type { ComputePool } from "../compute/pool.js";
-import { answerChunk, type ChunkAnswer, type ChunkOptions, type RecordChunk, type ReportRow, type Shard } from "./answer.js";
+import {
+  answerChunk,
+  type ChunkAnswer,
+  type ChunkOptions,
+  type RecordChunk,
+  type ReportRow,
+  type Shard,
+} from "./answer.js";
 import { type Format, outputFormatter } from "./formats.js";
 import { answerInPool } from "./in-pool.js";
 import type { BatchCounts, BatchOutputLine } from "./line.js";
@@ -14,7 +21,10 @@ import { recordChunks } from "./reader.js";
  * error body returned (a report that could not be drawn) is written as that line's error row in
  * place of its result, and the batch goes on.
  */
-export type RowHook = (row: Extract<BatchOutputLine, { ok: true }>, procedure: string) => undefined | ErrorBody | Promise<undefined | ErrorBody>;
+export type RowHook = (
+  row: Extract<BatchOutputLine, { ok: true }>,
+  procedure: string,
+) => undefined | ErrorBody | Promise<undefined | ErrorBody>;
 
 export interface StreamBatchOptions {
   readonly input: Readable;
@@ -70,7 +80,12 @@ export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
   const counts: BatchCounts = { lines: 0, ok: 0, failed: 0, blank: 0 };
   const fmt = outputFormatter(o.outFormat, o.procedure);
   if (fmt.header) await o.write(fmt.header);
-  const options: ChunkOptions = { outFormat: o.outFormat, procedure: o.procedure, shard: o.shard, reportFlags: o.reports?.flags };
+  const options: ChunkOptions = {
+    outFormat: o.outFormat,
+    procedure: o.procedure,
+    shard: o.shard,
+    reportFlags: o.reports?.flags,
+  };
   const pool = o.pool;
   const poolRoom = CHUNKS_PER_THREAD * (pool?.threads ?? 0);
   const window = poolRoom + CHUNKS_AHEAD;
@@ -101,7 +116,11 @@ export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
     pumpWrite();
   };
 
-  const reader = recordChunks(o.input, o.inFormat, { targetBytes: o.chunkBytes ?? 256 * 1024, procedure: o.procedure, shard: o.shard })[Symbol.asyncIterator]();
+  const reader = recordChunks(o.input, o.inFormat, {
+    targetBytes: o.chunkBytes ?? 256 * 1024,
+    procedure: o.procedure,
+    shard: o.shard,
+  })[Symbol.asyncIterator]();
   const pumpRead = () => {
     if (reading || readDone || failure !== undefined || slots.length >= window) return;
     reading = true;
@@ -166,7 +185,10 @@ export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
       if (s !== undefined) {
         // the oldest chunk no thread holds: answered here
         invoker ??= procedureInvoker(o.ctx); // built only if this thread answers a chunk
-        finished(s, await answerChunk({ ...options, ...s.chunk }, fmt.line, invoker, pool === undefined ? 0 : YIELD_EVERY_LINES));
+        finished(
+          s,
+          await answerChunk({ ...options, ...s.chunk }, fmt.line, invoker, pool === undefined ? 0 : YIELD_EVERY_LINES),
+        );
         // the pool's answers, its start and the reads are events: let them in between chunks too
         if (pool !== undefined) await new Promise<void>((r) => setImmediate(r));
         continue;
@@ -187,7 +209,12 @@ export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
  * One chunk's answer written and counted. Its report rows go through the hook first, in order; a
  * row the hook refuses is written as its error row in place of its text.
  */
-async function writeAnswer(a: ChunkAnswer, o: StreamBatchOptions, line: (r: BatchOutputLine) => string, counts: BatchCounts): Promise<void> {
+async function writeAnswer(
+  a: ChunkAnswer,
+  o: StreamBatchOptions,
+  line: (r: BatchOutputLine) => string,
+  counts: BatchCounts,
+): Promise<void> {
   counts.lines += a.lines;
   counts.ok += a.ok;
   counts.failed += a.failed;

@@ -28,7 +28,8 @@ export function cellValue(cell: string): { present: false } | { present: true; v
 const INDEX = /^(0|[1-9]\d{0,5})$/;
 
 /** A column name's path as an issue path (numeric segments as array indexes). */
-const columnPath = (dotted: string): (string | number)[] => dotted.split(".").map((p) => (INDEX.test(p) ? Number(p) : p));
+const columnPath = (dotted: string): (string | number)[] =>
+  dotted.split(".").map((p) => (INDEX.test(p) ? Number(p) : p));
 
 /** A column that cannot be set, with the path of the segment at fault. */
 class ColumnError extends Error {
@@ -48,12 +49,17 @@ class ColumnError extends Error {
 export function setPath(target: Record<string, unknown>, dotted: string, value: unknown): void {
   const parts = dotted.split(".");
   const hostile = parts.findIndex((p) => PROTOTYPE_KEYS.has(p));
-  if (hostile >= 0) throw new ColumnError(unknownFieldMessage(parts[hostile] as string, []), columnPath(parts.slice(0, hostile + 1).join(".")));
+  if (hostile >= 0)
+    throw new ColumnError(
+      unknownFieldMessage(parts[hostile] as string, []),
+      columnPath(parts.slice(0, hostile + 1).join(".")),
+    );
   let node: Record<string, unknown> | unknown[] = target;
   parts.forEach((part, i) => {
     const last = i === parts.length - 1;
     const key: string | number = Array.isArray(node) ? Number(part) : part;
-    if (Array.isArray(node) && !INDEX.test(part)) throw new Error(`column "${dotted}": "${part}" is not an array index`);
+    if (Array.isArray(node) && !INDEX.test(part))
+      throw new Error(`column "${dotted}": "${part}" is not an array index`);
     if (last) {
       (node as Record<string | number, unknown>)[key] = value;
       return;
@@ -70,12 +76,19 @@ export function setPath(target: Record<string, unknown>, dotted: string, value: 
 }
 
 /** One CSV data row → a batch line `{ id, procedure, input }` as JSON text, or the error it gives. */
-export function csvRowToLine(header: readonly string[], cells: readonly string[], procedure: string | undefined): { raw: string } | { id: string | number | null; error: ErrorBody } {
+export function csvRowToLine(
+  header: readonly string[],
+  cells: readonly string[],
+  procedure: string | undefined,
+): { raw: string } | { id: string | number | null; error: ErrorBody } {
   const idAt = header.indexOf("id");
   const rawId = idAt >= 0 ? (cells[idAt] ?? "") : "";
   const id = rawId === "" ? null : /^\d{1,15}$/.test(rawId) ? Number(rawId) : rawId;
   if (cells.length !== header.length) {
-    return { id, error: { code: "malformed-line", message: `expected ${header.length} cells, found ${cells.length}`, issues: [] } };
+    return {
+      id,
+      error: { code: "malformed-line", message: `expected ${header.length} cells, found ${cells.length}`, issues: [] },
+    };
   }
   const input: Record<string, unknown> = {};
   let proc = procedure;
@@ -91,10 +104,25 @@ export function csvRowToLine(header: readonly string[], cells: readonly string[]
       const v = cellValue(cell);
       if (v.present) setPath(input, name, v.value);
     } catch (e) {
-      return { id, error: { code: "malformed-line", message: `column "${name}": ${(e as Error).message}`, issues: [{ path: e instanceof ColumnError ? e.path : columnPath(name), message: (e as Error).message }] } };
+      return {
+        id,
+        error: {
+          code: "malformed-line",
+          message: `column "${name}": ${(e as Error).message}`,
+          issues: [{ path: e instanceof ColumnError ? e.path : columnPath(name), message: (e as Error).message }],
+        },
+      };
     }
   }
-  if (proc === undefined) return { id, error: { code: "malformed-line", message: "no procedure: add a procedure column or pass --procedure", issues: [] } };
+  if (proc === undefined)
+    return {
+      id,
+      error: {
+        code: "malformed-line",
+        message: "no procedure: add a procedure column or pass --procedure",
+        issues: [],
+      },
+    };
   return { raw: JSON.stringify({ ...(id === null ? {} : { id }), procedure: proc, input }) };
 }
 
@@ -119,7 +147,8 @@ function leaves(schema: Json, prefix: string, out: string[]): void {
     return;
   }
   if (schema.type === "object" && schema.properties) {
-    for (const [k, v] of Object.entries(schema.properties as Json)) leaves(v as Json, prefix ? `${prefix}.${k}` : k, out);
+    for (const [k, v] of Object.entries(schema.properties as Json))
+      leaves(v as Json, prefix ? `${prefix}.${k}` : k, out);
     return;
   }
   if (prefix && !out.includes(prefix)) out.push(prefix);
@@ -150,18 +179,31 @@ function at(obj: unknown, dotted: string): unknown {
   return node;
 }
 
-const cell = (v: unknown): string => (v === undefined || v === null ? "" : typeof v === "object" ? JSON.stringify(v) : String(v));
+const cell = (v: unknown): string =>
+  v === undefined || v === null ? "" : typeof v === "object" ? JSON.stringify(v) : String(v);
 
 /** The output writer of a batch run: JSON Lines, or CSV with a header derived from the contracts. */
-export function outputFormatter(format: Format, procedure: string | undefined): { header: string; line: (o: BatchOutputLine) => string } {
+export function outputFormatter(
+  format: Format,
+  procedure: string | undefined,
+): { header: string; line: (o: BatchOutputLine) => string } {
   if (format === "jsonl") return { header: "", line: (o) => `${JSON.stringify(o)}\n` };
   const cols = resultColumns(procedure);
   const header = stringify([[...BASE_COLUMNS, ...cols]]);
   return {
     header,
     line: (o) => {
-      const base = [o.line, cell(o.id), o.ok ? "true" : "false", o.ok ? "" : o.error.code, o.ok ? "" : o.error.message, o.ok ? "" : JSON.stringify(o.error.issues)];
-      const rest = cols.map((c) => (o.ok ? cell(c === "result" ? o.result : at(o.result, c.startsWith("result.") ? c.slice(7) : c)) : ""));
+      const base = [
+        o.line,
+        cell(o.id),
+        o.ok ? "true" : "false",
+        o.ok ? "" : o.error.code,
+        o.ok ? "" : o.error.message,
+        o.ok ? "" : JSON.stringify(o.error.issues),
+      ];
+      const rest = cols.map((c) =>
+        o.ok ? cell(c === "result" ? o.result : at(o.result, c.startsWith("result.") ? c.slice(7) : c)) : "",
+      );
       return stringify([[...base, ...rest]]);
     },
   };

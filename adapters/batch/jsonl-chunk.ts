@@ -71,7 +71,11 @@ export function cutAfter(bytes: Uint8Array, from: number): number {
  * and no bytes: its bytes are counted and dropped as they are read. Only the bytes are looked at here: decoding, parsing and answering happen where the
  * chunk is answered (a worker thread, or this thread).
  */
-export async function* jsonlChunks(input: Readable, targetBytes: number, maxLineBytes = MAX_LINE_BYTES): AsyncGenerator<JsonlChunk> {
+export async function* jsonlChunks(
+  input: Readable,
+  targetBytes: number,
+  maxLineBytes = MAX_LINE_BYTES,
+): AsyncGenerator<JsonlChunk> {
   const target = Math.max(1, targetBytes);
   // at least the target: a remainder longer than this then holds no break past target − 1 (see below)
   const cap = Math.max(maxLineBytes, target);
@@ -154,7 +158,8 @@ export async function* jsonlChunks(input: Readable, targetBytes: number, maxLine
     pendingBytes = all.length;
   }
   if (skipping !== undefined) yield overlong(skipping.bytes);
-  else if (pendingBytes > 0) yield* emit(pending.length === 1 ? (pending[0] as Buffer) : Buffer.concat(pending, pendingBytes));
+  else if (pendingBytes > 0)
+    yield* emit(pending.length === 1 ? (pending[0] as Buffer) : Buffer.concat(pending, pendingBytes));
 }
 
 /** The bytes of the break that ends the line bytes[at, end) (0 for a last line without one). */

@@ -31,11 +31,20 @@ export const MAX_LINE_CHARS = 1_000_000;
 
 /** The record for a line longer than MAX_LINE_CHARS (it is not parsed: no id). */
 export function overlongLine(lineNo: number): BatchOutputLine {
-  return { id: null, line: lineNo, ok: false, error: { code: "malformed-line", message: `line longer than ${MAX_LINE_CHARS} characters`, issues: [] } };
+  return {
+    id: null,
+    line: lineNo,
+    ok: false,
+    error: { code: "malformed-line", message: `line longer than ${MAX_LINE_CHARS} characters`, issues: [] },
+  };
 }
 
 /** Process one raw line into exactly one output record; never rejects. */
-export async function processLine(raw: string, lineNo: number, invoker: (path: string) => Invoke | undefined): Promise<BatchOutputLine> {
+export async function processLine(
+  raw: string,
+  lineNo: number,
+  invoker: (path: string) => Invoke | undefined,
+): Promise<BatchOutputLine> {
   return processLineNow(raw, lineNo, invoker);
 }
 
@@ -44,9 +53,18 @@ export async function processLine(raw: string, lineNo: number, invoker: (path: s
  * `Invoke.now`), else a promise of the record; never throws or rejects. The batch engine answers
  * its records with this and awaits only the promises (answer.ts).
  */
-export function processLineNow(raw: string, lineNo: number, invoker: (path: string) => Invoke | undefined): BatchOutputLine | Promise<BatchOutputLine> {
+export function processLineNow(
+  raw: string,
+  lineNo: number,
+  invoker: (path: string) => Invoke | undefined,
+): BatchOutputLine | Promise<BatchOutputLine> {
   let parsedJson: unknown;
-  const fail = (id: string | number | null, error: ErrorBody): BatchOutputLine => ({ id, line: lineNo, ok: false, error });
+  const fail = (id: string | number | null, error: ErrorBody): BatchOutputLine => ({
+    id,
+    line: lineNo,
+    ok: false,
+    error,
+  });
   if (raw.trim() === "") return fail(null, { code: "malformed-line", message: "empty line", issues: [] });
   if (raw.length > MAX_LINE_CHARS) return overlongLine(lineNo);
   try {
@@ -59,7 +77,10 @@ export function processLineNow(raw: string, lineNo: number, invoker: (path: stri
   else {
     const checked = batchLine.safeParse(parsedJson); // a bad line: zod names what is wrong
     if (!checked.success) {
-      const id = typeof parsedJson === "object" && parsedJson !== null && "id" in parsedJson ? idOf((parsedJson as { id: unknown }).id) : null;
+      const id =
+        typeof parsedJson === "object" && parsedJson !== null && "id" in parsedJson
+          ? idOf((parsedJson as { id: unknown }).id)
+          : null;
       return fail(id, errorBodyOf(checked.error));
     }
     line = checked.data;
@@ -67,7 +88,11 @@ export function processLineNow(raw: string, lineNo: number, invoker: (path: stri
   const id = line.id ?? null;
   const invoke = invoker(line.procedure);
   if (invoke === undefined) {
-    return fail(id, { code: "unknown-procedure", message: `no procedure "${line.procedure}"`, issues: [{ path: ["procedure"], message: "unknown procedure" }] });
+    return fail(id, {
+      code: "unknown-procedure",
+      message: `no procedure "${line.procedure}"`,
+      issues: [{ path: ["procedure"], message: "unknown procedure" }],
+    });
   }
   let result: unknown;
   try {
@@ -97,7 +122,9 @@ export function isBatchLine(v: unknown): v is { id?: string | number; procedure:
   if (input === undefined) return false; // zod 4: a z.unknown() key must be there
   if (typeof procedure !== "string" || procedure.length < 1 || procedure.length > 200) return false;
   if (Object.keys(v).length !== (id === undefined ? 2 : 3)) return false;
-  return id === undefined || (typeof id === "number" && Number.isFinite(id)) || (typeof id === "string" && id.length <= 200);
+  return (
+    id === undefined || (typeof id === "number" && Number.isFinite(id)) || (typeof id === "string" && id.length <= 200)
+  );
 }
 
 function idOf(v: unknown): string | number | null {

@@ -21,7 +21,9 @@ async function* shardRecords(file: string, format: Format, onHeader: (h: string)
     return;
   }
   let first = true;
-  for await (const cells of createReadStream(file).pipe(parse({ relax_column_count: true })) as AsyncIterable<string[]>) {
+  for await (const cells of createReadStream(file).pipe(parse({ relax_column_count: true })) as AsyncIterable<
+    string[]
+  >) {
     const text = stringify([cells]);
     if (first) {
       first = false;
@@ -40,7 +42,11 @@ async function* shardRecords(file: string, format: Format, onHeader: (h: string)
  * (a shard given twice, or the shards of two runs) or a line number missing (a shard left out) is an
  * error, so no merged file is written.
  */
-export async function mergeShards(files: readonly string[], format: Format, write: (text: string) => Promise<void>): Promise<number> {
+export async function mergeShards(
+  files: readonly string[],
+  format: Format,
+  write: (text: string) => Promise<void>,
+): Promise<number> {
   let header: string | undefined;
   const onHeader = (h: string) => {
     if (header === undefined) header = h;
@@ -61,7 +67,10 @@ export async function mergeShards(files: readonly string[], format: Format, writ
     const h = heads[best] as Head;
     if (h.line <= last) throw new Error(`line ${h.line} appears twice or out of order across the shards`);
     // an unsharded run numbers every input record from 1, so the shards of one run hold every number once
-    if (h.line !== last + 1) throw new Error(`line ${last + 1}${h.line > last + 2 ? ` to ${h.line - 1}` : ""} is in none of the shard files: give every shard of the run`);
+    if (h.line !== last + 1)
+      throw new Error(
+        `line ${last + 1}${h.line > last + 2 ? ` to ${h.line - 1}` : ""} is in none of the shard files: give every shard of the run`,
+      );
     last = h.line;
     await write(h.text);
     n += 1;

@@ -11,14 +11,22 @@ import { type BatchOutputLine, overlongLine } from "./line.js";
  * so shards and merges agree on them. Only the bytes are looked at for JSON Lines: decoding,
  * parsing and answering happen where the chunk is answered (answer.ts).
  */
-export function recordChunks(input: Readable, format: Format, o: { targetBytes: number; procedure?: string | undefined; shard?: Shard | undefined }): AsyncGenerator<RecordChunk> {
-  return format === "csv" ? csvChunks(input, o.targetBytes, o.procedure, o.shard) : jsonlRecordChunks(input, o.targetBytes);
+export function recordChunks(
+  input: Readable,
+  format: Format,
+  o: { targetBytes: number; procedure?: string | undefined; shard?: Shard | undefined },
+): AsyncGenerator<RecordChunk> {
+  return format === "csv"
+    ? csvChunks(input, o.targetBytes, o.procedure, o.shard)
+    : jsonlRecordChunks(input, o.targetBytes);
 }
 
 /** JSON Lines as cut by jsonlChunks; a line too long to hold comes as its own chunk, answered as too long. */
 async function* jsonlRecordChunks(input: Readable, targetBytes: number): AsyncGenerator<RecordChunk> {
   for await (const c of jsonlChunks(input, targetBytes)) {
-    yield c.overlongBytes === undefined ? c : { bytes: c.bytes, firstLine: c.firstLine, lines: 1, answered: [overlongLine(c.firstLine)] };
+    yield c.overlongBytes === undefined
+      ? c
+      : { bytes: c.bytes, firstLine: c.firstLine, lines: 1, answered: [overlongLine(c.firstLine)] };
   }
 }
 
@@ -28,7 +36,12 @@ async function* jsonlRecordChunks(input: Readable, targetBytes: number): AsyncGe
  * (skipped and counted where the chunk is answered). A header that cannot name a procedure fails
  * the run before any row.
  */
-async function* csvChunks(input: Readable, targetBytes: number, procedure: string | undefined, shard: Shard | undefined): AsyncGenerator<RecordChunk> {
+async function* csvChunks(
+  input: Readable,
+  targetBytes: number,
+  procedure: string | undefined,
+  shard: Shard | undefined,
+): AsyncGenerator<RecordChunk> {
   const parser = input.pipe(parse({ bom: true, relax_column_count: true, skip_empty_lines: false }));
   let header: string[] | undefined;
   let n = 0;
@@ -36,7 +49,12 @@ async function* csvChunks(input: Readable, targetBytes: number, procedure: strin
   let answered: BatchOutputLine[] = [];
   let chars = 0;
   const cut = (): RecordChunk => {
-    const c = { bytes: Buffer.from(`${texts.join("\n")}\n`, "utf8"), firstLine: n - texts.length + 1, lines: texts.length, ...(answered.length > 0 ? { answered } : {}) };
+    const c = {
+      bytes: Buffer.from(`${texts.join("\n")}\n`, "utf8"),
+      firstLine: n - texts.length + 1,
+      lines: texts.length,
+      ...(answered.length > 0 ? { answered } : {}),
+    };
     texts = [];
     answered = [];
     chars = 0;

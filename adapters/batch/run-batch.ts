@@ -9,5 +9,12 @@ export { type BatchCounts, type BatchOutputLine, batchLine, isBatchLine, process
 
 /** JSON Lines in → one result or error line out per input line, in order, same id: the batch engine in this thread, written to a stream. */
 export async function runBatch(input: Readable, output: Writable, ctx: Context): Promise<BatchCounts> {
-  return streamBatch({ input, inFormat: "jsonl", outFormat: "jsonl", ctx, write: (chunk) => (output.write(chunk) ? Promise.resolve() : new Promise<void>((r) => output.once("drain", () => r()))) });
+  return streamBatch({
+    input,
+    inFormat: "jsonl",
+    outFormat: "jsonl",
+    ctx,
+    write: (chunk) =>
+      output.write(chunk) ? Promise.resolve() : new Promise<void>((r) => output.once("drain", () => r())),
+  });
 }

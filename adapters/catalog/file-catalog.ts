@@ -18,7 +18,9 @@ export function loadCatalogFile(path: string): PartsCatalog {
   const parsed = catalogFile.safeParse(raw);
   if (!parsed.success) {
     const first = issuesOf(parsed.error.issues)[0];
-    throw new CatalogLoadError(`parts catalog ${path} is invalid at ${first ? pathText(first.path) : "?"}: ${first?.message ?? ""}`);
+    throw new CatalogLoadError(
+      `parts catalog ${path} is invalid at ${first ? pathText(first.path) : "?"}: ${first?.message ?? ""}`,
+    );
   }
   return catalogOf(parsed.data.parts);
 }

@@ -6,7 +6,14 @@ import type { ErrorBody } from "../../contracts/outcome.js";
 /** One analysis call's answer as every adapter sees it: a result, or an error body with its HTTP status. */
 export type ItemResult =
   | { readonly ok: true; readonly result: unknown; readonly outcome: string; readonly seconds: number }
-  | { readonly ok: false; readonly status: number; readonly error: ErrorBody; readonly outcome: string; readonly seconds: number; readonly internal?: string };
+  | {
+      readonly ok: false;
+      readonly status: number;
+      readonly error: ErrorBody;
+      readonly outcome: string;
+      readonly seconds: number;
+      readonly internal?: string;
+    };
 
 const OUTCOME = /^[a-z][a-z0-9-]{0,39}$/;
 
@@ -53,7 +60,14 @@ function failed(e: unknown, t0: number): ItemResult {
   const seconds = (performance.now() - t0) / 1000;
   if (error.code === "internal") {
     const cause = (e as { cause?: unknown }).cause ?? e;
-    return { ok: false, status, error, outcome: error.code, seconds, internal: cause instanceof Error ? (cause.stack ?? cause.message) : String(cause) };
+    return {
+      ok: false,
+      status,
+      error,
+      outcome: error.code,
+      seconds,
+      internal: cause instanceof Error ? (cause.stack ?? cause.message) : String(cause),
+    };
   }
   return { ok: false, status, error, outcome: error.code, seconds };
 }
@@ -81,14 +95,23 @@ function asJson(it: ItemResult): ItemJson {
 /** The refusal of an answer past the answer limit (HTTP 422): how large it got, the limit and what to ask for instead. */
 export function answerTooLarge(chars: number): Extract<ItemResult, { ok: false }> {
   const message = `the answer is ${chars} characters of JSON or more: at most ${LIMITS.maxAnswerBytes} (limit BACKSTOP_MAX_ANSWER_BYTES); ask for less in one request (fewer items, candidates or start-up profile points, no curves or waveform)`;
-  return { ok: false, status: 422, error: { code: "answer-too-large", message, issues: [{ path: [], message }] }, outcome: "answer-too-large", seconds: 0 };
+  return {
+    ok: false,
+    status: 422,
+    error: { code: "answer-too-large", message, issues: [{ path: [], message }] },
+    outcome: "answer-too-large",
+    seconds: 0,
+  };
 }
 
 /**
  * Answers written out, in order, until their JSON passes the answer limit: then the refusal in
  * place of the item that passed it, and no further item is answered (the whole request is refused).
  */
-export async function boundedJsonAnswers(inputs: readonly unknown[], answer: (input: unknown) => ItemJson | Promise<ItemJson>): Promise<ItemJson[]> {
+export async function boundedJsonAnswers(
+  inputs: readonly unknown[],
+  answer: (input: unknown) => ItemJson | Promise<ItemJson>,
+): Promise<ItemJson[]> {
   const out: ItemJson[] = [];
   let chars = 0;
   for (const input of inputs) {

@@ -31,7 +31,12 @@ export interface ComputePool {
 export const COMPUTE_THREAD_YOUNG_GENERATION_MB = 32;
 
 /** A pool of worker threads running the router; aborting a task terminates its thread (a hard stop). */
-export function createComputePool(opts: { threads: number; catalogPath: string; rulesDir?: string | undefined; tasksPerThread?: number }): ComputePool | undefined {
+export function createComputePool(opts: {
+  threads: number;
+  catalogPath: string;
+  rulesDir?: string | undefined;
+  tasksPerThread?: number;
+}): ComputePool | undefined {
   const filename = workerFile();
   if (filename === undefined || opts.threads < 1) return undefined;
   // piscina loaded with the first pool (the HTTP server starts its pool after it listens)
@@ -54,11 +59,16 @@ export function createComputePool(opts: { threads: number; catalogPath: string; 
   const options = (name: string, signal?: AbortSignal) => (signal === undefined ? { name } : { name, signal });
   return {
     threads: opts.threads,
-    call: (path, inputs, signal, bounded) => pool.run({ path, inputs, bounded }, options("call", signal)) as Promise<ItemResult[]>,
+    call: (path, inputs, signal, bounded) =>
+      pool.run({ path, inputs, bounded }, options("call", signal)) as Promise<ItemResult[]>,
     callJson: (path, inputs, signal) => pool.run({ path, inputs }, options("callJson", signal)) as Promise<ItemJson[]>,
     report: (task, signal) => pool.run(task, options("report", signal)) as Promise<ReportAnswer>,
     // the chunk's bytes are transferred, not copied: the caller hands over a buffer of its own
-    batchChunk: (chunk, signal) => pool.run(chunk, { ...options("batchChunk", signal), transferList: [chunk.bytes.buffer as ArrayBuffer] }) as Promise<ChunkAnswer>,
+    batchChunk: (chunk, signal) =>
+      pool.run(chunk, {
+        ...options("batchChunk", signal),
+        transferList: [chunk.bytes.buffer as ArrayBuffer],
+      }) as Promise<ChunkAnswer>,
     ready: () => {
       up ??= pool.run(null, options("ping")).then(() => undefined);
       return up;
@@ -74,7 +84,9 @@ export function createComputePool(opts: { threads: number; catalogPath: string; 
  * would double its start-up. A call that arrives before the threads are up waits in the pool's
  * queue, within its compute budget, like any call while the threads are busy.
  */
-export function deferredComputePool(opts: Parameters<typeof createComputePool>[0]): (ComputePool & { start(): void }) | undefined {
+export function deferredComputePool(
+  opts: Parameters<typeof createComputePool>[0],
+): (ComputePool & { start(): void }) | undefined {
   if (workerFile() === undefined || opts.threads < 1) return undefined;
   let inner: ComputePool | undefined;
   let closed = false;

@@ -7,7 +7,14 @@ import { loadCatalogFile } from "../catalog/file-catalog.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
 import { type ReportAnswer, type ReportTask, reportAnswer } from "./report-call.js";
 import { LIMITS } from "../../contracts/limits.js";
-import { answerTooLarge, boundedJsonAnswers, type ItemJson, type ItemResult, callOneJsonNow, callOneNow } from "./call.js";
+import {
+  answerTooLarge,
+  boundedJsonAnswers,
+  type ItemJson,
+  type ItemResult,
+  callOneJsonNow,
+  callOneNow,
+} from "./call.js";
 
 /**
  * A worker thread of the compute pool (piscina): the same router, in this thread, with its own
@@ -25,7 +32,15 @@ export function ping(): boolean {
  * HTTP /trpc and reports: the items of one request, in order, as objects; with `bounded`, a result
  * whose JSON passes the answer limit is refused in its place (measured here, off the request thread).
  */
-export async function call({ path, inputs, bounded }: { path: string; inputs: unknown[]; bounded?: boolean }): Promise<ItemResult[]> {
+export async function call({
+  path,
+  inputs,
+  bounded,
+}: {
+  path: string;
+  inputs: unknown[];
+  bounded?: boolean;
+}): Promise<ItemResult[]> {
   const invoke = invoker(path);
   if (invoke === undefined) throw new Error(`no procedure ${path}`);
   const out: ItemResult[] = [];
@@ -95,7 +110,10 @@ async function testFault(hit: boolean): Promise<void> {
  * the main thread more than answering them.
  */
 export async function batchChunk(task: ChunkTask): Promise<ChunkAnswer> {
-  if (FAULT !== undefined) await testFault(Buffer.from(task.bytes.buffer, task.bytes.byteOffset, task.bytes.byteLength).includes(FAULT_MARKER)); // no scan of every chunk in production
+  if (FAULT !== undefined)
+    await testFault(
+      Buffer.from(task.bytes.buffer, task.bytes.byteOffset, task.bytes.byteLength).includes(FAULT_MARKER),
+    ); // no scan of every chunk in production
   const answer = await answerChunk(task, formatterOf(task.outFormat, task.procedure).line, invoker);
   return moved(answer, answer.bytes.buffer as ArrayBuffer);
 }

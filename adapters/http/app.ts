@@ -33,7 +33,14 @@ export interface AppDeps {
 const PROTECTED = /^\/(trpc|v1)(\/|$)/;
 
 /** The HTTP face of backstop: tRPC under /trpc, plain JSON under /v1, OpenAPI, probes, metrics, one log line per request. */
-export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics = createMetrics(), pool, isReady = () => true }: AppDeps): Hono<Env> {
+export function createApp({
+  ctx,
+  logger,
+  config = DEFAULT_HTTP_CONFIG,
+  metrics = createMetrics(),
+  pool,
+  isReady = () => true,
+}: AppDeps): Hono<Env> {
   const app = new Hono<Env>();
   const checkKey = config.apiKeys ? apiKeyChecker(config.apiKeys) : undefined;
 
@@ -65,17 +72,27 @@ export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics =
     app.use("*", async (c, next) => {
       if (!PROTECTED.test(c.req.path)) return next();
       if (checkKey(presentedKey(c.req.header("authorization"), c.req.header("x-api-key")))) return next();
-      return sendProblem(c, 401, { code: "unauthorized", message: "a valid API key is required (Authorization: Bearer <key> or X-API-Key)" }, { "www-authenticate": 'Bearer realm="backstop"' });
+      return sendProblem(
+        c,
+        401,
+        { code: "unauthorized", message: "a valid API key is required (Authorization: Bearer <key> or X-API-Key)" },
+        { "www-authenticate": 'Bearer realm="backstop"' },
+      );
     });
   }
 
-  const tooLarge = (c: import("hono").Context<Env>) => sendProblem(c, 413, { code: "payload-too-large", message: `the request body exceeds ${config.maxBodyBytes} bytes (BACKSTOP_MAX_BODY_BYTES)` });
+  const tooLarge = (c: import("hono").Context<Env>) =>
+    sendProblem(c, 413, {
+      code: "payload-too-large",
+      message: `the request body exceeds ${config.maxBodyBytes} bytes (BACKSTOP_MAX_BODY_BYTES)`,
+    });
   const streamedLimit = bodyLimit({ maxSize: config.maxBodyBytes, onError: tooLarge });
   // A declared length is checked from the header alone (hono's bodyLimit would first turn the body
   // into a web stream, a third of a small request's cost); a streamed body is counted as it comes.
   const limit: import("hono").MiddlewareHandler<Env> = async (c, next) => {
     const length = c.req.header("content-length");
-    if (length !== undefined && c.req.header("transfer-encoding") === undefined) return Number(length) > config.maxBodyBytes ? tooLarge(c) : next();
+    if (length !== undefined && c.req.header("transfer-encoding") === undefined)
+      return Number(length) > config.maxBodyBytes ? tooLarge(c) : next();
     return streamedLimit(c, next);
   };
   app.use("/trpc/*", limit);
@@ -90,7 +107,12 @@ export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics =
       text = await metrics.registry.metrics();
     } catch (e) {
       logger.error({ requestId: c.get("requestId"), err: e }, "metrics unavailable");
-      return sendProblem(c, 503, { code: "unavailable", message: "the metrics could not be gathered; try again" }, { "retry-after": "1" });
+      return sendProblem(
+        c,
+        503,
+        { code: "unavailable", message: "the metrics could not be gathered; try again" },
+        { "retry-after": "1" },
+      );
     }
     return c.body(text, 200, { "content-type": metrics.registry.contentType });
   });
@@ -111,19 +133,25 @@ export function createApp({ ctx, logger, config = DEFAULT_HTTP_CONFIG, metrics =
       createContext: () => ({
         ...ctx,
         offload,
-        observe: (o) => metrics.observeProcedure("trpc", o.path, o.ok ? outcomeLabel(o.data) : errorBodyOf(o.error).code, o.seconds),
+        observe: (o) =>
+          metrics.observeProcedure("trpc", o.path, o.ok ? outcomeLabel(o.data) : errorBodyOf(o.error).code, o.seconds),
       }),
       // the request id in tRPC's own response (adding it afterwards would copy the response through a web stream)
       // and 422 for a single call refused over a limit (tRPC's own mapping has no such status)
       responseMeta: ({ errors, info }) => {
-        const headers: Record<string, string> = c.get("closing") === true ? { "x-request-id": c.get("requestId"), connection: "close" } : { "x-request-id": c.get("requestId") };
+        const headers: Record<string, string> =
+          c.get("closing") === true
+            ? { "x-request-id": c.get("requestId"), connection: "close" }
+            : { "x-request-id": c.get("requestId") };
         const limited = info?.isBatchCall !== true && errors.length === 1 && httpStatusOf(errors[0]) === 422;
         return limited ? { headers, status: 422 } : { headers };
       },
       onError: ({ error, path }) => {
         // tRPC's own words do not say the limit; onError runs before the error is formatted
-        if (error.message === "Batch call exceeds maximum size") error.message = `a tRPC batch holds at most ${config.maxTrpcBatch} calls (BACKSTOP_MAX_TRPC_BATCH): split it, or send many cases of one procedure to /v1/<procedure>/bulk`;
-        if (error.code === "INTERNAL_SERVER_ERROR") logger.error({ requestId: c.get("requestId"), path, err: error.cause ?? error }, "procedure failed");
+        if (error.message === "Batch call exceeds maximum size")
+          error.message = `a tRPC batch holds at most ${config.maxTrpcBatch} calls (BACKSTOP_MAX_TRPC_BATCH): split it, or send many cases of one procedure to /v1/<procedure>/bulk`;
+        if (error.code === "INTERNAL_SERVER_ERROR")
+          logger.error({ requestId: c.get("requestId"), path, err: error.cause ?? error }, "procedure failed");
       },
     }),
   );

@@ -31,7 +31,8 @@ export function apiKeysFromEnv(env: NodeJS.ProcessEnv): string[] | undefined {
   const keys: string[] = [];
   if (env.BACKSTOP_API_KEYS) keys.push(...env.BACKSTOP_API_KEYS.split(/[\s,]+/));
   if (env.BACKSTOP_API_KEYS_FILE) {
-    for (const line of readFileSync(env.BACKSTOP_API_KEYS_FILE, "utf8").split("\n")) keys.push(line.replace(/#.*$/, ""));
+    for (const line of readFileSync(env.BACKSTOP_API_KEYS_FILE, "utf8").split("\n"))
+      keys.push(line.replace(/#.*$/, ""));
   }
   const clean = keys.map((k) => k.trim()).filter((k) => k.length > 0);
   for (const k of clean) if (k.length < 16) throw new Error("every API key must be at least 16 characters long");
@@ -51,4 +52,3 @@ export function httpConfigFromEnv(env: NodeJS.ProcessEnv = process.env): HttpCon
 }
 
 export const DEFAULT_HTTP_CONFIG: HttpConfig = httpConfigFromEnv({});
-

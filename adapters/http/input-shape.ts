@@ -42,6 +42,9 @@ export function inputShape(value: unknown, maxDepth: number = LIMITS.maxInputDep
  */
 export function depthProblem(shape: InputShape, extra = 0): ErrorBody | undefined {
   if (shape.depth <= LIMITS.maxInputDepth + extra) return undefined;
-  const message = limitMessage("maxInputDepth", `the input nests arrays and objects more than ${LIMITS.maxInputDepth + extra} deep`);
+  const message = limitMessage(
+    "maxInputDepth",
+    `the input nests arrays and objects more than ${LIMITS.maxInputDepth + extra} deep`,
+  );
   return { code: "limit-exceeded", message, issues: [{ path: [], message }] };
 }

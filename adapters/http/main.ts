@@ -34,7 +34,8 @@ const port = Number(process.env.PORT ?? 8080);
 // Company rule sets: a bad file is refused whole and logged; the others load (README, "Rule sets").
 const rulesDir = process.env.BACKSTOP_RULES_DIR;
 const ruleSets = loadRuleSetStore(rulesDir);
-for (const r of ruleSets.refused()) logger.error({ file: r.file, setId: r.setId, problems: r.problems.map((p) => p.message) }, "rule set refused");
+for (const r of ruleSets.refused())
+  logger.error({ file: r.file, setId: r.setId, problems: r.problems.map((p) => p.message) }, "rule set refused");
 const drainDelayMs = Number(process.env.BACKSTOP_DRAIN_DELAY_MS ?? 0);
 const shutdownTimeoutMs = Number(process.env.BACKSTOP_SHUTDOWN_TIMEOUT_MS ?? 20_000);
 // /v1 runs in worker threads (stopped at the compute budget) unless BACKSTOP_WORKERS=0; they start
@@ -46,9 +47,13 @@ const pool = deferredComputePool({ threads, catalogPath, rulesDir });
 // the former multi-process mode's setting: one process a container now
 const processesSetting = process.env.BACKSTOP_HTTP_PROCESSES;
 if (processesSetting !== undefined && processesSetting !== "" && processesSetting !== "1") {
-  logger.warn({ BACKSTOP_HTTP_PROCESSES: processesSetting }, "BACKSTOP_HTTP_PROCESSES is no longer read: the server runs one HTTP process; scale with replicas");
+  logger.warn(
+    { BACKSTOP_HTTP_PROCESSES: processesSetting },
+    "BACKSTOP_HTTP_PROCESSES is no longer read: the server runs one HTTP process; scale with replicas",
+  );
 }
-if (config.apiKeys === undefined) logger.warn("API-key auth is OFF: set BACKSTOP_API_KEYS or BACKSTOP_API_KEYS_FILE to require a key on /v1 and /trpc");
+if (config.apiKeys === undefined)
+  logger.warn("API-key auth is OFF: set BACKSTOP_API_KEYS or BACKSTOP_API_KEYS_FILE to require a key on /v1 and /trpc");
 
 let draining = false;
 const ctx = { catalog, ruleSets };
@@ -81,7 +86,14 @@ server.listen(port, process.env.HOST ?? "0.0.0.0", () => {
   setTimeout(() => pool?.start(), 150).unref();
   setTimeout(() => logger.info({ ruleSets: ruleSets.list().map((s) => s.stamp.id) }, "rule sets ready"), 300).unref();
   logger.info(
-    { port: info.port, catalog: catalogPath, parts: catalog.list().length, rulesRefused: ruleSets.refused().length, workers: pool?.threads ?? 0, auth: config.apiKeys !== undefined },
+    {
+      port: info.port,
+      catalog: catalogPath,
+      parts: catalog.list().length,
+      rulesRefused: ruleSets.refused().length,
+      workers: pool?.threads ?? 0,
+      auth: config.apiKeys !== undefined,
+    },
     "backstop listening",
   );
   const text =

@@ -3,7 +3,9 @@ import { Counter, collectDefaultMetrics, Histogram, Registry } from "prom-client
 export type Adapter = "trpc" | "v1" | "v1-bulk";
 
 /** upper bounds of the procedure-duration buckets, seconds */
-export const PROCEDURE_BUCKETS_S: readonly number[] = [0.0005, 0.001, 0.0025, 0.005, 0.01, 0.025, 0.05, 0.1, 0.25, 0.5, 1, 2.5, 10];
+export const PROCEDURE_BUCKETS_S: readonly number[] = [
+  0.0005, 0.001, 0.0025, 0.005, 0.01, 0.025, 0.05, 0.1, 0.25, 0.5, 1, 2.5, 10,
+];
 
 /** Prometheus metrics of one server: process metrics, a histogram per procedure and outcome, HTTP counts. */
 export function createMetrics() {

@@ -32,7 +32,11 @@ export const PROBLEM_TYPE = "application/problem+json";
 export const INTERNAL_ERROR_MESSAGE = "internal error: the request was not completed (logged on the server)";
 
 /** An RFC 9457 problem body; never carries a stack or an internal message. */
-export function problemOf(status: number, body: ErrorBody | { code: ProblemCode; message: string; issues?: ErrorBody["issues"] }, extra: { instance?: string | undefined; requestId?: string | undefined } = {}): Problem {
+export function problemOf(
+  status: number,
+  body: ErrorBody | { code: ProblemCode; message: string; issues?: ErrorBody["issues"] },
+  extra: { instance?: string | undefined; requestId?: string | undefined } = {},
+): Problem {
   return {
     type: `urn:backstop:problem:${body.code}`,
     title: TITLES[body.code] ?? titleOf(body.code),
@@ -50,7 +54,12 @@ export function problemOf(status: number, body: ErrorBody | { code: ProblemCode;
  * middleware prepared (x-request-id) are in it from the start: a ready `Response` would have to be
  * copied to add them, through a web stream, several times the cost of the answer.
  */
-export function sendProblem(c: HonoContext, status: number, body: Parameters<typeof problemOf>[1], headers: Record<string, string> = {}): Response {
+export function sendProblem(
+  c: HonoContext,
+  status: number,
+  body: Parameters<typeof problemOf>[1],
+  headers: Record<string, string> = {},
+): Response {
   const p = problemOf(status, body, { instance: c.req.path, requestId: c.get("requestId") as string | undefined });
   return c.body(JSON.stringify(p), status as ContentfulStatusCode, { "content-type": PROBLEM_TYPE, ...headers });
 }

@@ -9,6 +9,16 @@ export function requestIdOf(incoming: string | undefined): string {
 }
 
 /** The one log line of every request (the same fields whichever path answered it). */
-export function logRequest(logger: Logger, requestId: string, method: string, path: string, status: number, startedMs: number): void {
-  logger.info({ requestId, method, path, status, durationMs: Math.round((performance.now() - startedMs) * 1000) / 1000 }, "request");
+export function logRequest(
+  logger: Logger,
+  requestId: string,
+  method: string,
+  path: string,
+  status: number,
+  startedMs: number,
+): void {
+  logger.info(
+    { requestId, method, path, status, durationMs: Math.round((performance.now() - startedMs) * 1000) / 1000 },
+    "request",
+  );
 }

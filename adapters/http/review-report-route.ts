@@ -13,7 +13,11 @@ import type { Env } from "./v1.js";
 const FORMATS: readonly ReportFormat[] = ["html", "markdown", "json"];
 
 /** `?format=` or a `format` field of the body wins; else the Accept header; else HTML. */
-function formatOf(query: string | undefined, field: unknown, accept: string | undefined): ReportFormat | { bad: string } {
+function formatOf(
+  query: string | undefined,
+  field: unknown,
+  accept: string | undefined,
+): ReportFormat | { bad: string } {
   const asked = query ?? (typeof field === "string" ? field : undefined);
   if (asked !== undefined) return FORMATS.includes(asked as ReportFormat) ? (asked as ReportFormat) : { bad: asked };
   const a = (accept ?? "").toLowerCase();
@@ -60,7 +64,11 @@ function reportRoute(app: Hono<Env>): Map<string, ReportHandler> {
       const procedure = c.req.param("procedure") ?? "";
       const h = known.get(procedure);
       if (h !== undefined) return h(c);
-      return sendProblem(c, 404, { code: "not-found", message: `no report for "${procedure}"; reports exist for ${[...known.keys()].join(", ")}`, issues: [{ path: ["procedure"], message: "no report for this procedure" }] });
+      return sendProblem(c, 404, {
+        code: "not-found",
+        message: `no report for "${procedure}"; reports exist for ${[...known.keys()].join(", ")}`,
+        issues: [{ path: ["procedure"], message: "no report for this procedure" }],
+      });
     });
   }
   return handlers;
@@ -74,7 +82,8 @@ function reportRoute(app: Hono<Env>): Map<string, ReportHandler> {
 export function mountProcedureReport(app: Hono<Env>, deps: ReviewReportDeps, procedure: string): void {
   const renderer = REPORT_RENDERERS[procedure];
   const invoke = procedureInvoker(deps.ctx)(procedure);
-  if (invoke === undefined || renderer === undefined) throw new Error(`the router has no ${procedure} procedure with a report`);
+  if (invoke === undefined || renderer === undefined)
+    throw new Error(`the router has no ${procedure} procedure with a report`);
   reportRoute(app).set(procedure, async (c) => {
     let body: unknown;
     try {
@@ -83,7 +92,11 @@ export function mountProcedureReport(app: Hono<Env>, deps: ReviewReportDeps, pro
       return sendProblem(c, 400, { code: "malformed-json", message: `the body is not JSON: ${(e as Error).message}` });
     }
     if (typeof body !== "object" || body === null || Array.isArray(body)) {
-      return sendProblem(c, 400, { code: "invalid-input", message: `the body is a ${procedure} input (a JSON object)`, issues: [{ path: [], message: "expected an object" }] });
+      return sendProblem(c, 400, {
+        code: "invalid-input",
+        message: `the body is a ${procedure} input (a JSON object)`,
+        issues: [{ path: [], message: "expected an object" }],
+      });
     }
     const deep = depthProblem(inputShape(body));
     if (deep !== undefined) return sendProblem(c, 422, deep);
@@ -92,7 +105,11 @@ export function mountProcedureReport(app: Hono<Env>, deps: ReviewReportDeps, pro
     const input = { [renderer.flag]: true, ...fields };
     const format = formatOf(c.req.query("format"), field, c.req.header("accept"));
     if (typeof format === "object") {
-      return sendProblem(c, 400, { code: "invalid-input", message: `format must be one of ${FORMATS.join(", ")}`, issues: [{ path: ["format"], message: `unknown format "${format.bad}"` }] });
+      return sendProblem(c, 400, {
+        code: "invalid-input",
+        message: `format must be one of ${FORMATS.join(", ")}`,
+        issues: [{ path: ["format"], message: `unknown format "${format.bad}"` }],
+      });
     }
     const id = c.req.query("id") ?? (typeof bodyId === "string" || typeof bodyId === "number" ? bodyId : undefined);
     const task = { procedure, input, format, id };
@@ -105,10 +122,13 @@ export function mountProcedureReport(app: Hono<Env>, deps: ReviewReportDeps, pro
       return sendProblem(c, 503, computeTimeout(deps.config), { "retry-after": "1" });
     }
     if (!answer.ok) {
-      if (answer.internal !== undefined) deps.logger.error({ requestId: c.get("requestId"), err: answer.internal }, `${procedure} report failed`);
+      if (answer.internal !== undefined)
+        deps.logger.error({ requestId: c.get("requestId"), err: answer.internal }, `${procedure} report failed`);
       return sendProblem(c, answer.status, answer.error);
     }
     if (format === "json") return c.body(answer.text, 200, { "content-type": "application/json" });
-    return format === "html" ? c.html(answer.text) : c.body(answer.text, 200, { "content-type": "text/markdown; charset=utf-8" });
+    return format === "html"
+      ? c.html(answer.text)
+      : c.body(answer.text, 200, { "content-type": "text/markdown; charset=utf-8" });
   });
 }

@@ -12,11 +12,20 @@ import { INLINE_MAX_BODY_CHARS, INLINE_PROCEDURES } from "./v1.js";
 /** Most values in an input that a cheap procedure answers in the main thread over /trpc (as /v1 does by body size). */
 const INLINE_MAX_NODES = 512;
 
-const TRPC_CODE: Record<number, TRPCError["code"]> = { 400: "BAD_REQUEST", 404: "NOT_FOUND", 422: "BAD_REQUEST", 503: "SERVICE_UNAVAILABLE" };
+const TRPC_CODE: Record<number, TRPCError["code"]> = {
+  400: "BAD_REQUEST",
+  404: "NOT_FOUND",
+  422: "BAD_REQUEST",
+  503: "SERVICE_UNAVAILABLE",
+};
 
 /** An error body as the TRPCError that answers it: errorBodyOf gives the same body back, httpStatusOf the same status. */
 export function errorOfBody(status: number, body: ErrorBody): TRPCError {
-  return new TRPCError({ code: TRPC_CODE[status] ?? "INTERNAL_SERVER_ERROR", message: body.message, cause: new InputProblem(body.code, body.message, body.issues) });
+  return new TRPCError({
+    code: TRPC_CODE[status] ?? "INTERNAL_SERVER_ERROR",
+    message: body.message,
+    cause: new InputProblem(body.code, body.message, body.issues),
+  });
 }
 
 /**
@@ -30,14 +39,19 @@ export function trpcOffload(pool: ComputePool | undefined, config: HttpConfig): 
     const shape = inputShape(raw);
     const deep = depthProblem(shape);
     if (deep !== undefined) return Promise.reject(errorOfBody(422, deep));
-    if (pool === undefined || (INLINE_PROCEDURES.has(path) && shape.nodes <= INLINE_MAX_NODES && shape.chars <= INLINE_MAX_BODY_CHARS)) return undefined;
+    if (
+      pool === undefined ||
+      (INLINE_PROCEDURES.has(path) && shape.nodes <= INLINE_MAX_NODES && shape.chars <= INLINE_MAX_BODY_CHARS)
+    )
+      return undefined;
     const signal = AbortSignal.timeout(config.requestTimeoutMs);
     return pool.call(path, [raw], signal, true).then(
       (items) => {
         const it = items[0] as ItemResult;
         if (it.ok) return it.result;
         // an internal error keeps the thread's stack for the log (tRPC's onError), never for the client
-        if (it.internal !== undefined) throw new TRPCError({ code: "INTERNAL_SERVER_ERROR", cause: new Error(it.internal) });
+        if (it.internal !== undefined)
+          throw new TRPCError({ code: "INTERNAL_SERVER_ERROR", cause: new Error(it.internal) });
         throw errorOfBody(it.status, it.error);
       },
       (e: unknown) => {

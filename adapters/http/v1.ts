@@ -61,7 +61,13 @@ export function mountV1(app: Hono<Env>, deps: V1Deps): void {
    * Run the inputs in order within the request's compute budget: in the pool (hard stop) or here
    * (checked between items); each result comes back written out as JSON.
    */
-  async function execute(path: string, inputs: unknown[], adapter: Adapter, requestId: string, inline: boolean): Promise<ItemJson[]> {
+  async function execute(
+    path: string,
+    inputs: unknown[],
+    adapter: Adapter,
+    requestId: string,
+    inline: boolean,
+  ): Promise<ItemJson[]> {
     let items: ItemJson[];
     if (pool && !inline) {
       const signal = AbortSignal.timeout(config.requestTimeoutMs);
@@ -96,7 +102,9 @@ export function mountV1(app: Hono<Env>, deps: V1Deps): void {
     return items;
   }
 
-  async function readJson(req: Request): Promise<{ ok: true; value: unknown; chars: number } | { ok: false; message: string }> {
+  async function readJson(
+    req: Request,
+  ): Promise<{ ok: true; value: unknown; chars: number } | { ok: false; message: string }> {
     const text = await req.text();
     try {
       return { ok: true, value: JSON.parse(text), chars: text.length };
@@ -105,24 +113,51 @@ export function mountV1(app: Hono<Env>, deps: V1Deps): void {
     }
   }
 
-  app.get("/v1", (c) => c.json({ procedures: procedureEntries().map((e) => ({ path: e.path, type: e.type, description: e.description ?? null, url: `/v1/${e.path}`, bulkUrl: `/v1/${e.path}/bulk` })) }));
+  app.get("/v1", (c) =>
+    c.json({
+      procedures: procedureEntries().map((e) => ({
+        path: e.path,
+        type: e.type,
+        description: e.description ?? null,
+        url: `/v1/${e.path}`,
+        bulkUrl: `/v1/${e.path}/bulk`,
+      })),
+    }),
+  );
 
   const handler = (bulk: boolean) => async (c: import("hono").Context<Env>) => {
     const path = c.req.param("procedure") ?? "";
     if (procedureEntry(path) === undefined) {
-      return sendProblem(c, 404, { code: "unknown-procedure", message: `no procedure "${path}"`, issues: [{ path: ["procedure"], message: "unknown procedure" }] });
+      return sendProblem(c, 404, {
+        code: "unknown-procedure",
+        message: `no procedure "${path}"`,
+        issues: [{ path: ["procedure"], message: "unknown procedure" }],
+      });
     }
     const body = await readJson(c.req.raw);
-    if (!body.ok) return sendProblem(c, 400, { code: "malformed-json", message: body.message, issues: [{ path: [], message: body.message }] });
+    if (!body.ok)
+      return sendProblem(c, 400, {
+        code: "malformed-json",
+        message: body.message,
+        issues: [{ path: [], message: body.message }],
+      });
     // checked before the input goes anywhere (a compute thread's structured clone recurses)
     const extra = bulk ? 1 : 0; // a bulk body's items are one level down
     const deep = depthProblem(inputShape(body.value, LIMITS.maxInputDepth + extra), extra);
     if (deep !== undefined) return sendProblem(c, 422, deep);
     let inputs: unknown[];
     if (bulk) {
-      if (!Array.isArray(body.value)) return sendProblem(c, 400, { code: "invalid-input", message: "a bulk body is a JSON array of inputs", issues: [{ path: [], message: "expected an array" }] });
+      if (!Array.isArray(body.value))
+        return sendProblem(c, 400, {
+          code: "invalid-input",
+          message: "a bulk body is a JSON array of inputs",
+          issues: [{ path: [], message: "expected an array" }],
+        });
       if (body.value.length > config.maxBulkItems) {
-        return sendProblem(c, 413, { code: "too-many-items", message: `a bulk request holds at most ${config.maxBulkItems} items, this one ${body.value.length}` });
+        return sendProblem(c, 413, {
+          code: "too-many-items",
+          message: `a bulk request holds at most ${config.maxBulkItems} items, this one ${body.value.length}`,
+        });
       }
       inputs = body.value;
     } else inputs = [body.value];
@@ -147,7 +182,12 @@ export function mountV1(app: Hono<Env>, deps: V1Deps): void {
   app.post("/v1/:procedure/bulk", handler(true));
   app.post("/v1/:procedure", handler(false));
   app.on(["GET", "PUT", "PATCH", "DELETE"], ["/v1/:procedure", "/v1/:procedure/bulk"], (c) =>
-    sendProblem(c, 405, { code: "method-not-allowed", message: `${c.req.method} is not allowed here; POST the input as JSON` }, { allow: "POST" }),
+    sendProblem(
+      c,
+      405,
+      { code: "method-not-allowed", message: `${c.req.method} is not allowed here; POST the input as JSON` },
+      { allow: "POST" },
+    ),
   );
 }
 

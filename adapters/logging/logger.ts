@@ -10,7 +10,10 @@ export function createLogger(level = process.env.LOG_LEVEL ?? "info", destinatio
   const opts = {
     level,
     base: { service: "backstop" },
-    redact: { paths: ["req.headers.authorization", "req.headers['x-api-key']", "headers.authorization", "headers['x-api-key']"], censor: "[redacted]" },
+    redact: {
+      paths: ["req.headers.authorization", "req.headers['x-api-key']", "headers.authorization", "headers['x-api-key']"],
+      censor: "[redacted]",
+    },
   };
   return pino(opts, destination ?? pino.destination({ dest: 1, sync: false }));
 }

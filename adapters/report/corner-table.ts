@@ -1,6 +1,20 @@
 import { type Candidate, num } from "./format.js";
 
-export const CORNER_HEADERS = ["#", "supply", "supply V", "ambient °C", "load ×", "tolerance", "outcome", "mode", "current A", "drop V", "loss W", "Tj °C", "load V"] as const;
+export const CORNER_HEADERS = [
+  "#",
+  "supply",
+  "supply V",
+  "ambient °C",
+  "load ×",
+  "tolerance",
+  "outcome",
+  "mode",
+  "current A",
+  "drop V",
+  "loss W",
+  "Tj °C",
+  "load V",
+] as const;
 
 export interface CornerCell {
   readonly text: string;
@@ -35,7 +49,8 @@ export function cornerTable(c: Candidate): CornerCell[][] {
 /** One line per worst-case metric, naming its corner. */
 export function worstLines(c: Candidate): string[] {
   const w = c.worst;
-  const line = (what: string, x: { value: number; corner: number } | undefined, unit: string) => (x ? [`${what}: ${num(x.value)} ${unit} at corner ${x.corner}`] : []);
+  const line = (what: string, x: { value: number; corner: number } | undefined, unit: string) =>
+    x ? [`${what}: ${num(x.value)} ${unit} at corner ${x.corner}`] : [];
   return [
     ...line("highest junction temperature", w.tjC, "°C"),
     ...line("highest loss", w.lossW, "W"),

@@ -11,9 +11,20 @@ export interface Cell {
 }
 export type Block =
   | { readonly kind: "heading"; readonly level: 1 | 2 | 3; readonly text: string; readonly id?: string }
-  | { readonly kind: "para"; readonly text: string; readonly tone?: "caution" | "verdict-fail" | "verdict-warn" | "verdict-pass" | "verdict-other" | "note" }
+  | {
+      readonly kind: "para";
+      readonly text: string;
+      readonly tone?: "caution" | "verdict-fail" | "verdict-warn" | "verdict-pass" | "verdict-other" | "note";
+    }
   | { readonly kind: "list"; readonly items: readonly string[] }
-  | { readonly kind: "table"; readonly caption?: string; readonly headers: readonly string[]; readonly rows: readonly (readonly Cell[])[]; readonly rowTags?: readonly string[]; readonly cls: string }
+  | {
+      readonly kind: "table";
+      readonly caption?: string;
+      readonly headers: readonly string[];
+      readonly rows: readonly (readonly Cell[])[];
+      readonly rowTags?: readonly string[];
+      readonly cls: string;
+    }
   | { readonly kind: "charts"; readonly charts: readonly ReportChart[] }
   | { readonly kind: "section-start"; readonly id: string; readonly verdict: string }
   | { readonly kind: "section-end" };
@@ -29,7 +40,14 @@ export function toMarkdown(blocks: readonly Block[], svgDir: string | null): str
         out.push(`${"#".repeat(b.level)} ${mdText(b.text)}`, "");
         break;
       case "para":
-        out.push(b.tone === "caution" ? `> **Caution.** ${mdText(b.text)}` : b.tone?.startsWith("verdict") ? `**${mdText(b.text)}**` : mdText(b.text), "");
+        out.push(
+          b.tone === "caution"
+            ? `> **Caution.** ${mdText(b.text)}`
+            : b.tone?.startsWith("verdict")
+              ? `**${mdText(b.text)}**`
+              : mdText(b.text),
+          "",
+        );
         break;
       case "list":
         out.push(...b.items.map((i) => `- ${mdText(i)}`), "");
@@ -37,13 +55,22 @@ export function toMarkdown(blocks: readonly Block[], svgDir: string | null): str
       case "table": {
         if (b.caption) out.push(`*${mdText(b.caption)}*`, "");
         out.push(`| ${b.headers.map(mdCell).join(" | ")} |`, `|${b.headers.map(() => "---").join("|")}|`);
-        for (const r of b.rows) out.push(`| ${r.map((c) => (c.mark ? `**${mdCell(c.text)}** ${WORST}` : c.strong ? `**${mdCell(c.text)}**` : mdCell(c.text))).join(" | ")} |`);
+        for (const r of b.rows)
+          out.push(
+            `| ${r.map((c) => (c.mark ? `**${mdCell(c.text)}** ${WORST}` : c.strong ? `**${mdCell(c.text)}**` : mdCell(c.text))).join(" | ")} |`,
+          );
         out.push("");
         break;
       }
       case "charts":
-        if (svgDir === null) out.push(...b.charts.map((c) => `- ${mdText(c.title)} (${mdText(c.spec.subtitle ?? "")}): in the HTML report`), "");
-        else for (const c of b.charts) out.push(`![${mdCell(c.title)}](${svgDir === "" ? "" : `${svgDir}/`}${c.file})`, "");
+        if (svgDir === null)
+          out.push(
+            ...b.charts.map((c) => `- ${mdText(c.title)} (${mdText(c.spec.subtitle ?? "")}): in the HTML report`),
+            "",
+          );
+        else
+          for (const c of b.charts)
+            out.push(`![${mdCell(c.title)}](${svgDir === "" ? "" : `${svgDir}/`}${c.file})`, "");
         break;
       case "section-start":
       case "section-end":
@@ -62,7 +89,9 @@ export function toHtmlBody(blocks: readonly Block[]): string {
         out.push(`<h${b.level}${b.id ? ` id="${escapeHtml(b.id)}"` : ""}>${escapeHtml(b.text)}</h${b.level}>`);
         break;
       case "para":
-        out.push(`<p${b.tone ? ` class="${b.tone}"` : ""}>${b.tone === "caution" ? "<strong>Caution.</strong> " : ""}${escapeHtml(b.text)}</p>`);
+        out.push(
+          `<p${b.tone ? ` class="${b.tone}"` : ""}>${b.tone === "caution" ? "<strong>Caution.</strong> " : ""}${escapeHtml(b.text)}</p>`,
+        );
         break;
       case "list":
         out.push(`<ul>${b.items.map((i) => `<li>${escapeHtml(i)}</li>`).join("")}</ul>`);
@@ -72,11 +101,19 @@ export function toHtmlBody(blocks: readonly Block[]): string {
         const rows = b.rows.map((r, i) => {
           const tag = b.rowTags?.[i];
           const cells = r
-            .map((c) => (c.mark ? `<td class="mark">${escapeHtml(c.text)} <span aria-label="worst">${WORST}</span></td>` : c.strong ? `<td><strong>${escapeHtml(c.text)}</strong></td>` : `<td>${escapeHtml(c.text)}</td>`))
+            .map((c) =>
+              c.mark
+                ? `<td class="mark">${escapeHtml(c.text)} <span aria-label="worst">${WORST}</span></td>`
+                : c.strong
+                  ? `<td><strong>${escapeHtml(c.text)}</strong></td>`
+                  : `<td>${escapeHtml(c.text)}</td>`,
+            )
             .join("");
           return `<tr${tag ? ` ${tag}` : ""}>${cells}</tr>`;
         });
-        out.push(`<div class="scroll"><table class="${b.cls}">${b.caption ? `<caption>${escapeHtml(b.caption)}</caption>` : ""}${head}<tbody>${rows.join("")}</tbody></table></div>`);
+        out.push(
+          `<div class="scroll"><table class="${b.cls}">${b.caption ? `<caption>${escapeHtml(b.caption)}</caption>` : ""}${head}<tbody>${rows.join("")}</tbody></table></div>`,
+        );
         break;
       }
       case "charts":

@@ -21,7 +21,10 @@ export function valueText(v: number | boolean): string {
 
 /** A file-name-safe slug: letters, digits, dot, dash, underscore; never empty. */
 export function slug(s: string): string {
-  const t = s.replace(/[^A-Za-z0-9._-]+/g, "-").replace(/^[-.]+|-+$/g, "").slice(0, 120);
+  const t = s
+    .replace(/[^A-Za-z0-9._-]+/g, "-")
+    .replace(/^[-.]+|-+$/g, "")
+    .slice(0, 120);
   return t === "" ? "report" : t;
 }
 

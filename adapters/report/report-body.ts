@@ -20,7 +20,12 @@ export const REPORT_RENDERERS: Readonly<Record<string, ReportRenderer>> = {
 export type ReportFormat = "html" | "markdown" | "json";
 
 /** A result as the text of its report in `format` (JSON: the result itself), or the error of a report that could not be drawn. */
-export function reportBody(procedure: string, result: unknown, format: ReportFormat, id: string | number | undefined): { ok: true; text: string } | { ok: false; error: ErrorBody } {
+export function reportBody(
+  procedure: string,
+  result: unknown,
+  format: ReportFormat,
+  id: string | number | undefined,
+): { ok: true; text: string } | { ok: false; error: ErrorBody } {
   if (format === "json") return { ok: true, text: JSON.stringify(result) };
   const renderer = REPORT_RENDERERS[procedure];
   if (renderer === undefined) throw new Error(`no report for ${procedure}`);

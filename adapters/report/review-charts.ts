@@ -12,7 +12,15 @@ export interface ReportChart {
   readonly svg: string;
 }
 
-export const CHART_KINDS = ["drop-vs-current", "loss-vs-current", "tj-vs-current", "tj-vs-ambient", "startup-voltage", "startup-tj", "turnoff-current"] as const;
+export const CHART_KINDS = [
+  "drop-vs-current",
+  "loss-vs-current",
+  "tj-vs-current",
+  "tj-vs-ambient",
+  "startup-voltage",
+  "startup-tj",
+  "turnoff-current",
+] as const;
 export type ChartKind = (typeof CHART_KINDS)[number];
 /** The AC bridge report's charts (bridge-report.ts). */
 export const BRIDGE_CHART_KINDS = ["element-current", "voltages"] as const;
@@ -33,7 +41,10 @@ export function ruleLimits(c: Candidate, metric: string, unit: string): ChartLim
   const lhs = new RegExp(`^\\s*${metric}\\s*(<=|>=|<|>)`);
   return c.rules.verdicts
     .filter((v) => v.outcome !== "not-applicable" && v.threshold !== null && lhs.test(v.expression))
-    .map((v) => ({ label: `${v.ruleId} (${v.comparison ?? ""} ${num(v.threshold)} ${unit})`, value: v.threshold ?? 0 }));
+    .map((v) => ({
+      label: `${v.ruleId} (${v.comparison ?? ""} ${num(v.threshold)} ${unit})`,
+      value: v.threshold ?? 0,
+    }));
 }
 
 type Curves = NonNullable<Candidate["curves"]>;
@@ -44,7 +55,11 @@ export function plotted(r: Row): boolean {
   return r.outcome === "solved" || r.outcome === "over-temperature";
 }
 
-function at<R extends Row>(rows: readonly R[], x: (r: R) => number | undefined, y: (r: R) => number | undefined): [number, number | null][] {
+function at<R extends Row>(
+  rows: readonly R[],
+  x: (r: R) => number | undefined,
+  y: (r: R) => number | undefined,
+): [number, number | null][] {
   return rows.flatMap((r): [number, number | null][] => {
     const xv = x(r);
     if (xv === undefined) return [];
@@ -71,44 +86,91 @@ export function candidateCharts(c: Candidate, prefix = ""): ReportChart[] {
   return out;
 }
 
-type AddChart = (kind: ChartKind, title: string, where: string, spec: Omit<ChartSpec, "id" | "title" | "subtitle">) => void;
+type AddChart = (
+  kind: ChartKind,
+  title: string,
+  where: string,
+  spec: Omit<ChartSpec, "id" | "title" | "subtitle">,
+) => void;
 
 /** The load and ambient sweeps (present when the review was asked for `curves`). */
 function curveCharts(c: Candidate, curves: Curves, add: AddChart): void {
   const k = curves.conditions;
   const curveCorner = c.corners.findIndex(
-    (r) => r.conditions.supply === k.supply && r.conditions.ambient === k.ambient && r.conditions.loadScale === k.loadScale && r.conditions.tolerance === k.tolerance,
+    (r) =>
+      r.conditions.supply === k.supply &&
+      r.conditions.ambient === k.ambient &&
+      r.conditions.loadScale === k.loadScale &&
+      r.conditions.tolerance === k.tolerance,
   );
   const corner = c.corners[curveCorner];
   const mark = (y: number | undefined): ChartMark[] =>
-    corner?.currentA !== undefined && y !== undefined ? [{ label: `corner ${curveCorner}${k.basis === "worst-tj-corner" ? " (worst Tj)" : ""}`, x: corner.currentA, y }] : [];
+    corner?.currentA !== undefined && y !== undefined
+      ? [{ label: `corner ${curveCorner}${k.basis === "worst-tj-corner" ? " (worst Tj)" : ""}`, x: corner.currentA, y }]
+      : [];
   const load = curves.load;
   const where = `${conditionsText(k)}, ambient ${num(k.ambientC)} °C`;
   add("drop-vs-current", "Forward drop against load current", where, {
     xLabel: "Load current (A)",
     yLabel: "Forward drop (V)",
-    series: [{ name: "drop", points: at(load, (r) => r.currentA, (r) => r.dropV) }],
+    series: [
+      {
+        name: "drop",
+        points: at(
+          load,
+          (r) => r.currentA,
+          (r) => r.dropV,
+        ),
+      },
+    ],
     limits: ruleLimits(c, LIMIT_METRIC["drop-vs-current"], "V"),
     marks: mark(corner?.dropV),
   });
   add("loss-vs-current", "Stage loss against load current", where, {
     xLabel: "Load current (A)",
     yLabel: "Loss (W)",
-    series: [{ name: "loss", points: at(load, (r) => r.currentA, (r) => r.lossW) }],
+    series: [
+      {
+        name: "loss",
+        points: at(
+          load,
+          (r) => r.currentA,
+          (r) => r.lossW,
+        ),
+      },
+    ],
     limits: ruleLimits(c, LIMIT_METRIC["loss-vs-current"], "W"),
     marks: mark(corner?.lossW),
   });
   add("tj-vs-current", "Junction temperature against load current", where, {
     xLabel: "Load current (A)",
     yLabel: "Junction temperature (°C)",
-    series: [{ name: "Tj", points: at(load, (r) => r.currentA, (r) => r.tjC) }],
+    series: [
+      {
+        name: "Tj",
+        points: at(
+          load,
+          (r) => r.currentA,
+          (r) => r.tjC,
+        ),
+      },
+    ],
     limits: ruleLimits(c, LIMIT_METRIC["tj-vs-current"], "°C"),
     marks: mark(corner?.tjC),
   });
   add("tj-vs-ambient", "Junction temperature against ambient", `${conditionsText(k)}, load ×${num(k.loadScale)}`, {
     xLabel: "Ambient temperature (°C)",
     yLabel: "Junction temperature (°C)",
-    series: [{ name: "Tj", points: at(curves.ambient, (r) => r.ambientC, (r) => r.tjC) }],
+    series: [
+      {
+        name: "Tj",
+        points: at(
+          curves.ambient,
+          (r) => r.ambientC,
+          (r) => r.tjC,
+        ),
+      },
+    ],
     limits: ruleLimits(c, LIMIT_METRIC["tj-vs-ambient"], "°C"),
     marks: corner?.tjC === undefined ? [] : [{ label: `corner ${curveCorner}`, x: k.ambientC, y: corner.tjC }],
   });
@@ -120,17 +182,37 @@ function startUpCharts(c: Candidate, add: AddChart): void {
   const first = profiles[0];
   if (first !== undefined) {
     const spacing = 24;
-    const supply: ChartSeries = { name: "supply", points: first.result.samples.map((s) => [s.timeS, s.supplyV]), markerSpacingPx: spacing };
-    add("startup-voltage", "Start-up profile: supply and load voltage", `ambients ${profiles.map((p) => num(p.ambientC)).join(", ")} °C`, {
-      xLabel: "Time (s)",
-      yLabel: "Voltage (V)",
-      series: [supply, ...profiles.map((p) => ({ name: `load, ${num(p.ambientC)} °C`, points: p.result.samples.map((s) => [s.timeS, s.loadV] as [number, number]), markerSpacingPx: spacing }))],
-      limits: ruleLimits(c, LIMIT_METRIC["startup-voltage"], "V"),
-    });
+    const supply: ChartSeries = {
+      name: "supply",
+      points: first.result.samples.map((s) => [s.timeS, s.supplyV]),
+      markerSpacingPx: spacing,
+    };
+    add(
+      "startup-voltage",
+      "Start-up profile: supply and load voltage",
+      `ambients ${profiles.map((p) => num(p.ambientC)).join(", ")} °C`,
+      {
+        xLabel: "Time (s)",
+        yLabel: "Voltage (V)",
+        series: [
+          supply,
+          ...profiles.map((p) => ({
+            name: `load, ${num(p.ambientC)} °C`,
+            points: p.result.samples.map((s) => [s.timeS, s.loadV] as [number, number]),
+            markerSpacingPx: spacing,
+          })),
+        ],
+        limits: ruleLimits(c, LIMIT_METRIC["startup-voltage"], "V"),
+      },
+    );
     add("startup-tj", "Start-up profile: junction temperature", `thermal model ${first.result.thermalModel}`, {
       xLabel: "Time (s)",
       yLabel: "Junction temperature (°C)",
-      series: profiles.map((p) => ({ name: `Tj, ${num(p.ambientC)} °C`, points: p.result.samples.map((s) => [s.timeS, s.tjC] as [number, number]), markerSpacingPx: spacing })),
+      series: profiles.map((p) => ({
+        name: `Tj, ${num(p.ambientC)} °C`,
+        points: p.result.samples.map((s) => [s.timeS, s.tjC] as [number, number]),
+        markerSpacingPx: spacing,
+      })),
       limits: ruleLimits(c, LIMIT_METRIC["startup-tj"], "°C"),
     });
   }
@@ -151,9 +233,17 @@ function turnOffChart(c: Candidate, add: AddChart): void {
   const u = timeUnit(w.timeS.at(-1) ?? 0);
   const reverse = w.timeS.map((t, k): [number, number] => [t * u.factor, -(w.currentA[k] ?? 0)]);
   // A peak that is only a lower bound (still rising at the end of the searched span) is labelled so.
-  const peakLabel = "peakReverseIsLowerBound" in e && e.peakReverseIsLowerBound === true ? `at least ${num(e.peakReverseCurrentA)} A (still rising at the window's end)` : `peak ${num(e.peakReverseCurrentA)} A`;
+  const peakLabel =
+    "peakReverseIsLowerBound" in e && e.peakReverseIsLowerBound === true
+      ? `at least ${num(e.peakReverseCurrentA)} A (still rising at the window's end)`
+      : `peak ${num(e.peakReverseCurrentA)} A`;
   const marks: ChartMark[] = [{ label: peakLabel, x: e.peakReverseTimeS * u.factor, y: e.peakReverseCurrentA }];
-  if (e.outcome === "blocks") marks.push({ label: "turn-off", x: e.turnOffS * u.factor, y: -(w.currentA[w.clampStartIndex ?? w.timeS.length - 1] ?? 0) });
+  if (e.outcome === "blocks")
+    marks.push({
+      label: "turn-off",
+      x: e.turnOffS * u.factor,
+      y: -(w.currentA[w.clampStartIndex ?? w.timeS.length - 1] ?? 0),
+    });
   const t = c.turnOff;
   add("turnoff-current", "Turn-off: reverse current against time", `${e.outcome}, Tj ${num(t?.tjC)} °C at the event`, {
     xLabel: `Time after the input falls (${u.label})`,

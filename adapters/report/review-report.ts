@@ -20,7 +20,14 @@ export interface ReviewReport {
   readonly svgDir: string | null;
 }
 
-const tone = (verdict: string) => (verdict === "fail" ? "verdict-fail" : verdict === "warn" ? "verdict-warn" : verdict === "pass" ? "verdict-pass" : "verdict-other");
+const tone = (verdict: string) =>
+  verdict === "fail"
+    ? "verdict-fail"
+    : verdict === "warn"
+      ? "verdict-warn"
+      : verdict === "pass"
+        ? "verdict-pass"
+        : "verdict-other";
 
 function candidateBlocks(c: Candidate, charts: readonly ReportChart[]): Block[] {
   // Rules out of scope are collapsed into one row; gaps in the evidence keep their own rows.
@@ -30,29 +37,72 @@ function candidateBlocks(c: Candidate, charts: readonly ReportChart[]): Block[] 
   const stage = [c.stage.kind, c.stage.partId ? `part ${c.stage.partId}` : undefined].filter(Boolean).join(", ");
   const b: Block[] = [
     { kind: "section-start", id: `candidate-${c.index}`, verdict: c.verdict },
-    { kind: "heading", level: 2, text: `Rank ${c.rank} · candidate ${c.index + 1}: ${c.label} — ${outcomeLabel(c.verdict)}` },
+    {
+      kind: "heading",
+      level: 2,
+      text: `Rank ${c.rank} · candidate ${c.index + 1}: ${c.label} — ${outcomeLabel(c.verdict)}`,
+    },
     { kind: "para", tone: tone(c.verdict), text: `${outcomeLabel(c.verdict)}. ${c.rankReason}` },
   ];
   const first = ordered[0];
   if (first && (first.outcome === "fail" || first.outcome === "warn")) {
-    b.push({ kind: "para", tone: "note", text: `${first.outcome === "fail" ? "Failing" : "Warning"} rule ${first.ruleId}: ${first.expression} — ${valuesText(first)}; ${marginText(first)}.` });
+    b.push({
+      kind: "para",
+      tone: "note",
+      text: `${first.outcome === "fail" ? "Failing" : "Warning"} rule ${first.ruleId}: ${first.expression} — ${valuesText(first)}; ${marginText(first)}.`,
+    });
   }
   b.push(
-    { kind: "para", text: `Stage: ${stage}. Rule set ${c.rules.ruleSet.id} ${c.rules.ruleSet.version} (${c.rules.ruleSet.hash}): ${c.rules.outcome}; ${c.rules.counts.pass} pass, ${c.rules.counts.warn} warn, ${c.rules.counts.fail} fail, ${c.rules.counts.notApplicable} not applicable.` },
+    {
+      kind: "para",
+      text: `Stage: ${stage}. Rule set ${c.rules.ruleSet.id} ${c.rules.ruleSet.version} (${c.rules.ruleSet.hash}): ${c.rules.outcome}; ${c.rules.counts.pass} pass, ${c.rules.counts.warn} warn, ${c.rules.counts.fail} fail, ${c.rules.counts.notApplicable} not applicable.`,
+    },
     {
       kind: "table",
       cls: "verdicts",
       caption: "Verdicts, failing and warning rules first, with the values each rule read",
       headers: ["rule", "outcome", "values read", "threshold and margin", "expression", "source"],
       rows: [
-        ...ordered.map((v) => [{ text: v.ruleId }, { text: v.outcome === "not-applicable" ? `n/a (${v.notApplicableCode ?? "?"})` : outcomeLabel(v.outcome), strong: v.outcome === "fail" || v.outcome === "warn" }, { text: valuesText(v) }, { text: marginText(v) }, { text: v.expression }, { text: v.source }]),
-        ...(skipped.length === 0 ? [] : [[{ text: `${skipped.length} rules` }, { text: "n/a" }, { text: "" }, { text: `out of scope (${outOfScopeSummary(skipped)})` }, { text: "" }, { text: "" }]]),
+        ...ordered.map((v) => [
+          { text: v.ruleId },
+          {
+            text: v.outcome === "not-applicable" ? `n/a (${v.notApplicableCode ?? "?"})` : outcomeLabel(v.outcome),
+            strong: v.outcome === "fail" || v.outcome === "warn",
+          },
+          { text: valuesText(v) },
+          { text: marginText(v) },
+          { text: v.expression },
+          { text: v.source },
+        ]),
+        ...(skipped.length === 0
+          ? []
+          : [
+              [
+                { text: `${skipped.length} rules` },
+                { text: "n/a" },
+                { text: "" },
+                { text: `out of scope (${outOfScopeSummary(skipped)})` },
+                { text: "" },
+                { text: "" },
+              ],
+            ]),
       ],
-      rowTags: [...ordered.map((v) => `class="verdict ${v.outcome}" data-rule="${escapeHtml(v.ruleId)}" data-outcome="${v.outcome}"`), ...(skipped.length === 0 ? [] : ['class="verdict not-applicable collapsed"'])],
+      rowTags: [
+        ...ordered.map(
+          (v) => `class="verdict ${v.outcome}" data-rule="${escapeHtml(v.ruleId)}" data-outcome="${v.outcome}"`,
+        ),
+        ...(skipped.length === 0 ? [] : ['class="verdict not-applicable collapsed"']),
+      ],
     },
     { kind: "heading", level: 3, text: "Worst case over the corners" },
     { kind: "list", items: worstLines(c) },
-    { kind: "table", cls: "corners", caption: "Corners (◆ marks the worst value of its column)", headers: [...CORNER_HEADERS], rows: cornerTable(c) },
+    {
+      kind: "table",
+      cls: "corners",
+      caption: "Corners (◆ marks the worst value of its column)",
+      headers: [...CORNER_HEADERS],
+      rows: cornerTable(c),
+    },
     { kind: "heading", level: 3, text: "Curves" },
     {
       kind: "para",
@@ -68,7 +118,10 @@ function candidateBlocks(c: Candidate, charts: readonly ReportChart[]): Block[] 
     kind: "list",
     items: [
       `start-up at the lowest supply: input ${num(su.inputV)} V${su.startMarginV === undefined ? "" : `, start margin ${num(su.startMarginV)} V`}${su.gateSourceV === undefined ? "" : `, gate drive ${num(su.gateSourceV)} V (margin ${num(su.gateDriveMarginV)} V)`}`,
-      ...c.startUp.profiles.map((p) => `start-up profile at ${num(p.ambientC)} °C: lowest load voltage ${num(p.result.minLoadV)} V, highest Tj ${num(p.result.maxTjC)} °C, body-diode time ${num(p.result.bodyDiodeTimeS)} s, dropout ${num(p.result.dropoutTimeS)} s (${p.result.thermalModel})`),
+      ...c.startUp.profiles.map(
+        (p) =>
+          `start-up profile at ${num(p.ambientC)} °C: lowest load voltage ${num(p.result.minLoadV)} V, highest Tj ${num(p.result.maxTjC)} °C, body-diode time ${num(p.result.bodyDiodeTimeS)} s, dropout ${num(p.result.dropoutTimeS)} s (${p.result.thermalModel})`,
+      ),
       ...turnOffLines(c),
       ...(c.costTotal === undefined ? [] : [`cost ${num(c.costTotal)}`]),
     ],
@@ -84,9 +137,14 @@ function turnOffLines(c: Candidate): string[] {
   const e = t.event;
   const head = `turn-off event (Tj ${num(t.tjC)} °C, ${t.tjSource}): ${e.outcome}`;
   if (!("metrics" in e)) return [`${head}: ${e.reason}`];
-  const clamp = e.outcome === "blocks" && e.clamp ? `, clamp ${num(e.clamp.clampV)} V absorbs ${num(e.clamp.absorbedJ)} J over ${num(e.clamp.durationS)} s${t.avalancheRatingJ === undefined ? " (no avalanche rating)" : ` (rating ${num(t.avalancheRatingJ)} J at 25 °C)`}` : "";
+  const clamp =
+    e.outcome === "blocks" && e.clamp
+      ? `, clamp ${num(e.clamp.clampV)} V absorbs ${num(e.clamp.absorbedJ)} J over ${num(e.clamp.durationS)} s${t.avalancheRatingJ === undefined ? " (no avalanche rating)" : ` (rating ${num(t.avalancheRatingJ)} J at 25 °C)`}`
+      : "";
   const off = e.outcome === "blocks" ? `, turns off at ${num(e.turnOffS)} s` : "";
-  return [`${head}: peak reverse current ${num(e.peakReverseCurrentA)} A at ${num(e.peakReverseTimeS)} s${off}${clamp}; output loses ${num(e.metrics.outputVoltageLostV)} V`];
+  return [
+    `${head}: peak reverse current ${num(e.peakReverseCurrentA)} A at ${num(e.peakReverseTimeS)} s${off}${clamp}; output loses ${num(e.metrics.outputVoltageLostV)} V`,
+  ];
 }
 
 function reportBlocks(r: Review, charts: readonly ReportChart[], title: string): Block[] {
@@ -109,15 +167,30 @@ function reportBlocks(r: Review, charts: readonly ReportChart[], title: string):
       kind: "table",
       cls: "ranking",
       headers: ["rank", "candidate", "verdict", "reason"],
-      rows: r.ranking.map((e) => [{ text: String(e.rank) }, { text: `${e.index + 1}: ${e.label}` }, { text: outcomeLabel(e.verdict), strong: e.verdict === "fail" }, { text: e.reason }]),
+      rows: r.ranking.map((e) => [
+        { text: String(e.rank) },
+        { text: `${e.index + 1}: ${e.label}` },
+        { text: outcomeLabel(e.verdict), strong: e.verdict === "fail" },
+        { text: e.reason },
+      ]),
     },
   ];
   for (const e of r.ranking) {
     const c = r.candidates[e.index];
-    if (c) b.push(...candidateBlocks(c, charts.filter((x) => x.candidateIndex === c.index)));
+    if (c)
+      b.push(
+        ...candidateBlocks(
+          c,
+          charts.filter((x) => x.candidateIndex === c.index),
+        ),
+      );
   }
   b.push(...monteCarloBlocks(r));
-  b.push({ kind: "heading", level: 2, text: "Sources and assumptions" }, { kind: "list", items: [...q.sources, ...r.assumptions] }, { kind: "para", tone: "caution", text: r.caution });
+  b.push(
+    { kind: "heading", level: 2, text: "Sources and assumptions" },
+    { kind: "list", items: [...q.sources, ...r.assumptions] },
+    { kind: "para", tone: "caution", text: r.caution },
+  );
   return b;
 }
 

@@ -50,7 +50,12 @@ type Marker = (typeof MARKERS)[number];
 const FONT = "font-family=\"'DejaVu Sans', 'Liberation Sans', Arial, sans-serif\"";
 
 export function escapeXml(s: string): string {
-  return s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;").replace(/'/g, "&#39;");
+  return s
+    .replace(/&/g, "&amp;")
+    .replace(/</g, "&lt;")
+    .replace(/>/g, "&gt;")
+    .replace(/"/g, "&quot;")
+    .replace(/'/g, "&#39;");
 }
 
 /** Compact number for coordinates: finite, at most 3 decimals, no exponent. */
@@ -116,10 +121,15 @@ export function lineChart(spec: ChartSpec): string {
   out.push(
     `<svg xmlns="http://www.w3.org/2000/svg" id="${escapeXml(spec.id)}" class="bs-chart" width="${CHART_WIDTH}" height="${CHART_HEIGHT}" viewBox="0 0 ${CHART_WIDTH} ${CHART_HEIGHT}" role="img" aria-label="${escapeXml(spec.title)}" ${FONT} font-size="11">`,
   );
-  out.push(`<title>${escapeXml(spec.subtitle === undefined ? spec.title : `${spec.title} — ${spec.subtitle}`)}</title>`);
+  out.push(
+    `<title>${escapeXml(spec.subtitle === undefined ? spec.title : `${spec.title} — ${spec.subtitle}`)}</title>`,
+  );
   out.push(`<rect x="0" y="0" width="${CHART_WIDTH}" height="${CHART_HEIGHT}" fill="#fdfcf8"/>`);
-  out.push(`<text x="${M.left}" y="18" font-size="13" font-weight="bold" fill="#1d1f24">${escapeXml(spec.title)}</text>`);
-  if (spec.subtitle !== undefined) out.push(`<text x="${M.left}" y="34" font-size="10.5" fill="#4a4e55">${escapeXml(spec.subtitle)}</text>`);
+  out.push(
+    `<text x="${M.left}" y="18" font-size="13" font-weight="bold" fill="#1d1f24">${escapeXml(spec.title)}</text>`,
+  );
+  if (spec.subtitle !== undefined)
+    out.push(`<text x="${M.left}" y="34" font-size="10.5" fill="#4a4e55">${escapeXml(spec.subtitle)}</text>`);
 
   // Grid and axes.
   const xTicks = x.ticks(8);
@@ -127,17 +137,25 @@ export function lineChart(spec: ChartSpec): string {
   const fx = x.tickFormat(8);
   const fy = y.tickFormat(6);
   out.push('<g class="axis x-axis" stroke="#c9c4b8" stroke-width="0.6">');
-  for (const t of xTicks) out.push(`<line class="tick" data-value="${t}" x1="${px(x(t))}" x2="${px(x(t))}" y1="${px(y0)}" y2="${px(y1)}"/>`);
+  for (const t of xTicks)
+    out.push(`<line class="tick" data-value="${t}" x1="${px(x(t))}" x2="${px(x(t))}" y1="${px(y0)}" y2="${px(y1)}"/>`);
   out.push("</g>");
   out.push('<g class="axis y-axis" stroke="#c9c4b8" stroke-width="0.6">');
-  for (const t of yTicks) out.push(`<line class="tick" data-value="${t}" x1="${px(x0)}" x2="${px(x1)}" y1="${px(y(t))}" y2="${px(y(t))}"/>`);
+  for (const t of yTicks)
+    out.push(`<line class="tick" data-value="${t}" x1="${px(x0)}" x2="${px(x1)}" y1="${px(y(t))}" y2="${px(y(t))}"/>`);
   out.push("</g>");
-  out.push(`<rect x="${px(x0)}" y="${px(y1)}" width="${px(x1 - x0)}" height="${px(y0 - y1)}" fill="none" stroke="#3b3f46" stroke-width="1"/>`);
+  out.push(
+    `<rect x="${px(x0)}" y="${px(y1)}" width="${px(x1 - x0)}" height="${px(y0 - y1)}" fill="none" stroke="#3b3f46" stroke-width="1"/>`,
+  );
   out.push('<g class="tick-labels" fill="#30343a">');
-  for (const t of xTicks) out.push(`<text x="${px(x(t))}" y="${px(y0 + 16)}" text-anchor="middle">${escapeXml(fx(t))}</text>`);
-  for (const t of yTicks) out.push(`<text x="${px(x0 - 6)}" y="${px(y(t) + 4)}" text-anchor="end">${escapeXml(fy(t))}</text>`);
+  for (const t of xTicks)
+    out.push(`<text x="${px(x(t))}" y="${px(y0 + 16)}" text-anchor="middle">${escapeXml(fx(t))}</text>`);
+  for (const t of yTicks)
+    out.push(`<text x="${px(x0 - 6)}" y="${px(y(t) + 4)}" text-anchor="end">${escapeXml(fy(t))}</text>`);
   out.push("</g>");
-  out.push(`<text class="x-label" x="${px((x0 + x1) / 2)}" y="${CHART_HEIGHT - 12}" text-anchor="middle" fill="#1d1f24">${escapeXml(spec.xLabel)}</text>`);
+  out.push(
+    `<text class="x-label" x="${px((x0 + x1) / 2)}" y="${CHART_HEIGHT - 12}" text-anchor="middle" fill="#1d1f24">${escapeXml(spec.xLabel)}</text>`,
+  );
   out.push(
     `<text class="y-label" x="${px(18)}" y="${px((y0 + y1) / 2)}" text-anchor="middle" fill="#1d1f24" transform="rotate(-90 18 ${px((y0 + y1) / 2)})">${escapeXml(spec.yLabel)}</text>`,
   );
@@ -163,7 +181,10 @@ export function lineChart(spec: ChartSpec): string {
     const marker = MARKERS[i % MARKERS.length] ?? "disc";
     const d = path(s.points) ?? "";
     out.push(`<g class="series" data-series="${escapeXml(s.name)}">`);
-    if (d !== "") out.push(`<path class="series-line" d="${d}" fill="none" stroke="${ink}" stroke-width="1.8"${dash ? ` stroke-dasharray="${dash}"` : ""}/>`);
+    if (d !== "")
+      out.push(
+        `<path class="series-line" d="${d}" fill="none" stroke="${ink}" stroke-width="1.8"${dash ? ` stroke-dasharray="${dash}"` : ""}/>`,
+      );
     const spacing = s.markerSpacingPx ?? 0;
     let lastX = Number.NEGATIVE_INFINITY;
     for (const p of s.points) {

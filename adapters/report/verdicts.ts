@@ -22,7 +22,11 @@ export function orderedVerdicts(c: { readonly rules: { readonly verdicts: readon
 /** "tjWorstC = 157.8 °C, part.tjMaxC = 175 °C" in the order the rule read them (key order is stable), units from the vocabulary. */
 export function valuesText(v: Verdict): string {
   const entries = Object.entries(v.values);
-  return entries.length === 0 ? "(no values)" : entries.map(([k, x]) => `${k} = ${typeof x === "boolean" ? String(x) : formatQuantity(x, unitOf(k) ?? "")}`).join(", ");
+  return entries.length === 0
+    ? "(no values)"
+    : entries
+        .map(([k, x]) => `${k} = ${typeof x === "boolean" ? String(x) : formatQuantity(x, unitOf(k) ?? "")}`)
+        .join(", ");
 }
 
 /** Threshold and margin of a comparison, or the reason a rule was not applied. */
@@ -36,7 +40,9 @@ export function marginText(v: Verdict): string {
 
 /** Out of scope, not a gap: a stage kind the rule does not cover, a false precondition, a requirement not set. */
 export function outOfScope(v: Verdict): boolean {
-  return v.outcome === "not-applicable" && v.notApplicableCode !== "missing-value" && v.notApplicableCode !== "not-finite";
+  return (
+    v.outcome === "not-applicable" && v.notApplicableCode !== "missing-value" && v.notApplicableCode !== "not-finite"
+  );
 }
 
 /** One line for the rules out of scope, grouped by why ("stage kind: a, b; not required: c"). */

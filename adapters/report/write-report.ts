@@ -21,15 +21,40 @@ export interface WrittenReport {
  * as `<name>-charts/*.svg` (linked from the Markdown). `result` is a review result as a procedure
  * returned it; it is checked against the output contract first (a mismatch is a bug, so it throws).
  */
-export function writeReviewReport(dir: string, name: string, result: unknown, id?: string | number, ops?: FileOps): WrittenReport {
+export function writeReviewReport(
+  dir: string,
+  name: string,
+  result: unknown,
+  id?: string | number,
+  ops?: FileOps,
+): WrittenReport {
   const base = slug(name);
-  return writeReport(dir, base, renderReviewReport(reviewOutput.parse(result), { ...(id === undefined ? {} : { id }), svgDir: `${base}-charts` }), ops);
+  return writeReport(
+    dir,
+    base,
+    renderReviewReport(reviewOutput.parse(result), { ...(id === undefined ? {} : { id }), svgDir: `${base}-charts` }),
+    ops,
+  );
 }
 
 /** The same for a bridgeAc result: `<name>.html`, `<name>.md`, `<name>-charts/*.svg`. */
-export function writeBridgeAcReport(dir: string, name: string, result: unknown, id?: string | number, ops?: FileOps): WrittenReport {
+export function writeBridgeAcReport(
+  dir: string,
+  name: string,
+  result: unknown,
+  id?: string | number,
+  ops?: FileOps,
+): WrittenReport {
   const base = slug(name);
-  return writeReport(dir, base, renderBridgeAcReport(bridgeAcOutput.parse(result), { ...(id === undefined ? {} : { id }), svgDir: `${base}-charts` }), ops);
+  return writeReport(
+    dir,
+    base,
+    renderBridgeAcReport(bridgeAcOutput.parse(result), {
+      ...(id === undefined ? {} : { id }),
+      svgDir: `${base}-charts`,
+    }),
+    ops,
+  );
 }
 
 /** Each file written whole under its name (writeFileAtomic): a batch killed mid-report leaves no torn file behind a final name. */

@@ -37,7 +37,17 @@ export function loadRuleSetFolder(dir: string, taken: ReadonlySet<string> = new 
     }
     const id = parsed.compiled.stamp.id;
     if (ids.has(id)) {
-      refused.push({ file, setId: id, problems: [{ source: file, path: ["id"], message: `rule-set id '${id}' is already taken by a built-in set or an earlier file` }] });
+      refused.push({
+        file,
+        setId: id,
+        problems: [
+          {
+            source: file,
+            path: ["id"],
+            message: `rule-set id '${id}' is already taken by a built-in set or an earlier file`,
+          },
+        ],
+      });
       continue;
     }
     ids.add(id);

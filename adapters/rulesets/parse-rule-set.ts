@@ -12,7 +12,9 @@ function parseYaml(text: string, options: { readonly maxAliasCount: number }): u
   return yamlParse(text, options);
 }
 
-export type ParsedRuleSet = { readonly ok: true; readonly compiled: CompiledRuleSet } | { readonly ok: false; readonly problems: readonly RuleSetProblem[] };
+export type ParsedRuleSet =
+  | { readonly ok: true; readonly compiled: CompiledRuleSet }
+  | { readonly ok: false; readonly problems: readonly RuleSetProblem[] };
 
 /** Validate a rule set given as data (inline in a request, or a parsed file) and compile it. */
 export function ruleSetFromData(data: unknown, source: string): ParsedRuleSet {
@@ -22,7 +24,12 @@ export function ruleSetFromData(data: unknown, source: string): ParsedRuleSet {
       ok: false,
       problems: issuesOf(shape.error.issues).map(({ path, message }) => {
         const ruleId = ruleIdAt(data, path);
-        return { source, path, message: `${ruleId === undefined ? "" : `rule ${ruleId}: `}${path.length === 0 ? "(set)" : pathText(path)}: ${message}`, ...(ruleId === undefined ? {} : { ruleId }) };
+        return {
+          source,
+          path,
+          message: `${ruleId === undefined ? "" : `rule ${ruleId}: `}${path.length === 0 ? "(set)" : pathText(path)}: ${message}`,
+          ...(ruleId === undefined ? {} : { ruleId }),
+        };
       }),
     };
   }
@@ -33,7 +40,13 @@ export function ruleSetFromData(data: unknown, source: string): ParsedRuleSet {
     ok: false,
     problems: out.errors.map((e) => {
       const idx = set.rules.findIndex((r) => r.id === e.ruleId);
-      return { source, ruleId: e.ruleId, path: ["rules", idx, e.field], column: e.column, message: formatRuleLoadError({ ...e, message: expressionErrorMessage(e.code, e.message) }) };
+      return {
+        source,
+        ruleId: e.ruleId,
+        path: ["rules", idx, e.field],
+        column: e.column,
+        message: formatRuleLoadError({ ...e, message: expressionErrorMessage(e.code, e.message) }),
+      };
     }),
   };
 }
@@ -44,7 +57,16 @@ export function ruleSetFromText(text: string, fileName: string): ParsedRuleSet {
   try {
     data = /\.ya?ml$/i.test(fileName) ? parseYaml(text, { maxAliasCount: 50 }) : JSON.parse(text);
   } catch (e) {
-    return { ok: false, problems: [{ source: fileName, path: [], message: `not valid ${/\.ya?ml$/i.test(fileName) ? "YAML" : "JSON"}: ${e instanceof Error ? e.message : String(e)}` }] };
+    return {
+      ok: false,
+      problems: [
+        {
+          source: fileName,
+          path: [],
+          message: `not valid ${/\.ya?ml$/i.test(fileName) ? "YAML" : "JSON"}: ${e instanceof Error ? e.message : String(e)}`,
+        },
+      ],
+    };
   }
   return ruleSetFromData(data, fileName);
 }

@@ -17,7 +17,12 @@ export function ruleSetForAnalysis(
   ctx: Context,
 ): CompiledRuleSet | undefined {
   for (const n of computed) {
-    if (callerMetrics !== undefined && Object.hasOwn(callerMetrics, n)) throw inputProblem("invalid-input", ["ruleMetrics", n], `${n} is computed by ${analysis}; leave it out of ruleMetrics`);
+    if (callerMetrics !== undefined && Object.hasOwn(callerMetrics, n))
+      throw inputProblem(
+        "invalid-input",
+        ["ruleMetrics", n],
+        `${n} is computed by ${analysis}; leave it out of ruleMetrics`,
+      );
   }
   return ref === undefined ? undefined : resolveRuleSet(ref, ctx, ["ruleSet"]);
 }

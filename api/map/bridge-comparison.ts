@@ -11,7 +11,13 @@ export interface BridgeRun<R> {
  * The answer of a bridge procedure (DC or AC): provenance, assumptions and metrics, then the bridge
  * and, when one was given, the bridge it is compared to and the saving, in that key order.
  */
-export function bridgeComparison<R, S>(assumptions: string[], metrics: Record<string, number>, main: BridgeRun<R>, other: BridgeRun<R> | undefined, saving: S | undefined) {
+export function bridgeComparison<R, S>(
+  assumptions: string[],
+  metrics: Record<string, number>,
+  main: BridgeRun<R>,
+  other: BridgeRun<R> | undefined,
+  saving: S | undefined,
+) {
   return {
     modelVersion: MODEL_VERSION,
     caution: CAUTION,

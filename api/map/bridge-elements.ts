@@ -6,11 +6,20 @@ import { inputProblem } from "../input-problem.js";
 import { resolveStage } from "./resolve-stage.js";
 
 /** Contract bridge elements ({ all } | { high, low } | four positions) → the domain's four elements. */
-export function toBridgeElements(input: BridgeElementsInput, catalog: PartsCatalog, path: (string | number)[], assumptions: string[]): BridgeElements {
+export function toBridgeElements(
+  input: BridgeElementsInput,
+  catalog: PartsCatalog,
+  path: (string | number)[],
+  assumptions: string[],
+): BridgeElements {
   const one = (s: StageInput, key: string): BridgeElement => {
     const stage = resolveStage(s, catalog, [...path, key], assumptions).model;
     if ((BRIDGE_ELEMENT_KINDS as readonly string[]).includes(stage.kind)) return stage as BridgeElement;
-    throw inputProblem("invalid-input", [...path, key, "kind"], `a bridge element must be one of ${BRIDGE_ELEMENT_KINDS.join(", ")} (got ${stage.kind})`);
+    throw inputProblem(
+      "invalid-input",
+      [...path, key, "kind"],
+      `a bridge element must be one of ${BRIDGE_ELEMENT_KINDS.join(", ")} (got ${stage.kind})`,
+    );
   };
   if ("all" in input) {
     const e = one(input.all, "all");
@@ -22,6 +31,7 @@ export function toBridgeElements(input: BridgeElementsInput, catalog: PartsCatal
     return { line1High: h, line2High: h, line1Low: l, line2Low: l };
   }
   const [a, b, c, d] = BRIDGE_POSITIONS.map((p) => one(input[p], p));
-  if (a === undefined || b === undefined || c === undefined || d === undefined) throw new Error("unreachable: four positions");
+  if (a === undefined || b === undefined || c === undefined || d === undefined)
+    throw new Error("unreachable: four positions");
   return { line1High: a, line2High: b, line1Low: c, line2Low: d };
 }

@@ -15,7 +15,9 @@ export interface DatasheetMaxSpec {
 
 /** The stage's own MOSFET gate threshold, V; undefined for a stage without a discrete MOSFET. */
 function mosfetThresholdV(stage: StageModel): number | undefined {
-  return stage.kind === "pfet-high-side" || stage.kind === "nfet-low-side" || stage.kind === "nfet-ideal-diode" ? stage.mosfet.channel.thresholdV : undefined;
+  return stage.kind === "pfet-high-side" || stage.kind === "nfet-low-side" || stage.kind === "nfet-ideal-diode"
+    ? stage.mosfet.channel.thresholdV
+    : undefined;
 }
 
 /**
@@ -24,10 +26,25 @@ function mosfetThresholdV(stage: StageModel): number | undefined {
  * field, where the stage has no such parameter or the maximum is below the typical value.
  */
 export function datasheetMaxScale(dm: DatasheetMaxSpec, stage: StageModel, path: (string | number)[]): StageScale {
-  const shift = (field: "startV" | "thresholdV", max: number | undefined, typical: number | undefined, what: string): number => {
+  const shift = (
+    field: "startV" | "thresholdV",
+    max: number | undefined,
+    typical: number | undefined,
+    what: string,
+  ): number => {
     if (max === undefined) return 0;
-    if (typical === undefined) throw inputProblem("invalid-input", [...path, field], `this ${stage.kind} stage has no ${what}: leave ${field} out`);
-    if (max < typical) throw inputProblem("invalid-input", [...path, field], `the datasheet maximum ${max} V is below the stage's typical ${what} ${typical} V: give the maximum (at or above ${typical} V)`);
+    if (typical === undefined)
+      throw inputProblem(
+        "invalid-input",
+        [...path, field],
+        `this ${stage.kind} stage has no ${what}: leave ${field} out`,
+      );
+    if (max < typical)
+      throw inputProblem(
+        "invalid-input",
+        [...path, field],
+        `the datasheet maximum ${max} V is below the stage's typical ${what} ${typical} V: give the maximum (at or above ${typical} V)`,
+      );
     return max - typical;
   };
   return {
@@ -44,10 +61,22 @@ export function datasheetMaxScale(dm: DatasheetMaxSpec, stage: StageModel, path:
  * threshold and delay (both only lengthen the reverse current's rise before the gate is off: the
  * turn-off event's worst case), said in `assumptions`.
  */
-export function worstTurnOffTiming(timing: ControllerTurnOff | undefined, dm: DatasheetMaxSpec | undefined, path: (string | number)[], assumptions: string[]): ControllerTurnOff | undefined {
-  if (timing === undefined || dm === undefined || (dm.reverseThresholdV === undefined && dm.turnOffDelayS === undefined)) return timing;
+export function worstTurnOffTiming(
+  timing: ControllerTurnOff | undefined,
+  dm: DatasheetMaxSpec | undefined,
+  path: (string | number)[],
+  assumptions: string[],
+): ControllerTurnOff | undefined {
+  if (
+    timing === undefined ||
+    dm === undefined ||
+    (dm.reverseThresholdV === undefined && dm.turnOffDelayS === undefined)
+  )
+    return timing;
   const reverseThresholdV = Math.max(timing.reverseThresholdV, dm.reverseThresholdV ?? 0);
   const turnOffDelayS = Math.max(timing.turnOffDelayS, dm.turnOffDelayS ?? 0);
-  assumptions.push(`${path.join(".")}: the turn-off event at the datasheet maximum timing (reverse threshold ${reverseThresholdV} V, delay ${turnOffDelayS} s)`);
+  assumptions.push(
+    `${path.join(".")}: the turn-off event at the datasheet maximum timing (reverse threshold ${reverseThresholdV} V, delay ${turnOffDelayS} s)`,
+  );
   return { ...timing, reverseThresholdV, turnOffDelayS };
 }

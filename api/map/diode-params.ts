@@ -9,7 +9,12 @@ export type Junction = keyof typeof JUNCTION_DEFAULTS;
 type PointsSpec = Extract<DiodeSpec, { model: "points" }>;
 
 /** Contract diode → domain Shockley parameters, fitting datasheet points where given. */
-export function toDiodeParams(spec: DiodeSpec, junction: Junction, path: (string | number)[], assumptions: string[]): DiodeParams {
+export function toDiodeParams(
+  spec: DiodeSpec,
+  junction: Junction,
+  path: (string | number)[],
+  assumptions: string[],
+): DiodeParams {
   if (spec.model === "points") return fitDiodePoints(spec, junction, path, assumptions).params;
   const defaults = JUNCTION_DEFAULTS[junction];
   pushLawDefaults(spec, junction, path, assumptions, false);
@@ -25,12 +30,22 @@ export function toDiodeParams(spec: DiodeSpec, junction: Junction, path: (string
 }
 
 /** The Eg/XTI defaults a diode falls back on, in `assumptions` (an Eg the points fit is not a default). */
-function pushLawDefaults(spec: DiodeSpec, junction: Junction, path: (string | number)[], assumptions: string[], egFitted: boolean): void {
+function pushLawDefaults(
+  spec: DiodeSpec,
+  junction: Junction,
+  path: (string | number)[],
+  assumptions: string[],
+  egFitted: boolean,
+): void {
   const defaults = JUNCTION_DEFAULTS[junction];
-  if (spec.vfTempCoVPerK !== undefined || (spec.energyGapEv !== undefined && spec.saturationTempExponent !== undefined)) return;
+  if (spec.vfTempCoVPerK !== undefined || (spec.energyGapEv !== undefined && spec.saturationTempExponent !== undefined))
+    return;
   const kind = junction === "pn" ? "PN" : "Schottky";
   if (egFitted) {
-    if (spec.saturationTempExponent === undefined) assumptions.push(`${path.join(".")}: XTI ${defaults.saturationTempExponent} (SPICE level-1 default for a ${kind} junction, common practice); Eg fitted to the points`);
+    if (spec.saturationTempExponent === undefined)
+      assumptions.push(
+        `${path.join(".")}: XTI ${defaults.saturationTempExponent} (SPICE level-1 default for a ${kind} junction, common practice); Eg fitted to the points`,
+      );
     return;
   }
   assumptions.push(
@@ -43,16 +58,28 @@ function pushLawDefaults(spec: DiodeSpec, junction: Junction, path: (string | nu
  * Fit a points diode: two or three points exactly (as always), four or more by least squares,
  * gated at 2 % of Vf (acceptFit overrides) with the fit's residuals in `assumptions`.
  */
-export function fitDiodePoints(spec: PointsSpec, junction: Junction, path: (string | number)[], assumptions: string[]): Extract<DiodeFitResult, { ok: true }> {
+export function fitDiodePoints(
+  spec: PointsSpec,
+  junction: Junction,
+  path: (string | number)[],
+  assumptions: string[],
+): Extract<DiodeFitResult, { ok: true }> {
   const defaults = JUNCTION_DEFAULTS[junction];
   const keys = spec.points.map((p) => `${p.currentA} A at ${p.tempC ?? 25} °C`);
   const twin = keys.findIndex((k, i) => keys.indexOf(k) !== i);
   if (twin >= 0) {
     const first = keys.indexOf(keys[twin] as string);
-    throw inputProblem("fit-failed", [...path, "points", twin], `points ${first} and ${twin} share the same current and temperature (${keys[twin]}; a point without tempC is at 25 °C): give each point its tempC, or drop one`);
+    throw inputProblem(
+      "fit-failed",
+      [...path, "points", twin],
+      `points ${first} and ${twin} share the same current and temperature (${keys[twin]}; a point without tempC is at 25 °C): give each point its tempC, or drop one`,
+    );
   }
   const untimed = spec.points.flatMap((p, i) => (p.tempC === undefined ? [i] : []));
-  if (untimed.length > 0) assumptions.push(`${[...path, "points"].join(".")}[${untimed.join(", ")}].tempC: 25 °C (default: the datasheet's usual room-temperature curve)`);
+  if (untimed.length > 0)
+    assumptions.push(
+      `${[...path, "points"].join(".")}[${untimed.join(", ")}].tempC: 25 °C (default: the datasheet's usual room-temperature curve)`,
+    );
   const fit = fitDiode(
     spec.points.map((p) => ({ currentA: p.currentA, voltageV: p.voltageV, tempK: cToK(p.tempC ?? 25) })),
     {
@@ -77,7 +104,17 @@ export function fitDiodePoints(spec: PointsSpec, junction: Junction, path: (stri
       return p === undefined ? "" : `${p.currentA} A, ${p.voltageV} V, ${p.tempC ?? 25} °C`;
     };
     const held = fit.fitted.includes("energyGapEv") ? "" : " (Eg held)";
-    assumptions.push(gateFit(fit.quality, spec.acceptFit, [...path, "points"], `${path.join(".")}: Is, n, Rs${held ? "" : ", Eg"} fitted${held}`, "V", spec.points.length, pt));
+    assumptions.push(
+      gateFit(
+        fit.quality,
+        spec.acceptFit,
+        [...path, "points"],
+        `${path.join(".")}: Is, n, Rs${held ? "" : ", Eg"} fitted${held}`,
+        "V",
+        spec.points.length,
+        pt,
+      ),
+    );
   }
   return fit;
 }

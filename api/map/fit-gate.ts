@@ -13,7 +13,16 @@ export function refusedFit(path: (string | number)[], message: string, points: r
  * and its residual, unless the caller accepts it (acceptFit); either way the sentence for the
  * result's `assumptions` comes back.
  */
-export function gateFit(q: FitQuality, accept: boolean | undefined, path: (string | number)[], what: string, unit: string, points: number, describePoint: (i: number) => string): string {
-  if (!withinBound(q) && accept !== true) throw refusedFit(path, `${what}: ${beyondBoundReason(q, unit, describePoint)}`, [q.worstIndex]);
+export function gateFit(
+  q: FitQuality,
+  accept: boolean | undefined,
+  path: (string | number)[],
+  what: string,
+  unit: string,
+  points: number,
+  describePoint: (i: number) => string,
+): string {
+  if (!withinBound(q) && accept !== true)
+    throw refusedFit(path, `${what}: ${beyondBoundReason(q, unit, describePoint)}`, [q.worstIndex]);
   return describeFit(what, q, unit, points);
 }

@@ -19,11 +19,24 @@ const param = (name: string, value: number, unit: string, fitted: boolean, stand
 });
 
 function qualityOf(q: FitQuality, unit: string): FitOutput["quality"] {
-  return { unit, rms: q.rms, worstPoint: q.worstIndex, worstResidual: q.worst, worstFraction: q.worstFraction, boundFraction: q.boundFraction, withinBound: withinBound(q) };
+  return {
+    unit,
+    rms: q.rms,
+    worstPoint: q.worstIndex,
+    worstResidual: q.worst,
+    worstFraction: q.worstFraction,
+    boundFraction: q.boundFraction,
+    withinBound: withinBound(q),
+  };
 }
 
 const residualsOf = (measured: readonly number[], modelled: readonly number[]) =>
-  measured.map((m, point) => ({ point, measured: m, modelled: modelled[point] ?? 0, residual: (modelled[point] ?? 0) - m }));
+  measured.map((m, point) => ({
+    point,
+    measured: m,
+    modelled: modelled[point] ?? 0,
+    residual: (modelled[point] ?? 0) - m,
+  }));
 
 export function diodeForwardFit(input: Parsed<"diode-forward">, assumptions: string[]): Body {
   const fit = fitDiodePoints(input.diode, input.junction, ["diode"], assumptions);
@@ -35,11 +48,20 @@ export function diodeForwardFit(input: Parsed<"diode-forward">, assumptions: str
     curve: "diode-forward",
     method: fit.exact ? "exact" : "least-squares",
     parameters: [
-      param("saturationCurrentA", p.saturationCurrentA, "A", true, se.lnSaturationCurrent === undefined ? undefined : se.lnSaturationCurrent * p.saturationCurrentA),
+      param(
+        "saturationCurrentA",
+        p.saturationCurrentA,
+        "A",
+        true,
+        se.lnSaturationCurrent === undefined ? undefined : se.lnSaturationCurrent * p.saturationCurrentA,
+      ),
       param("ideality", p.ideality, "1", true, se.ideality),
       param("seriesResistanceOhm", p.seriesResistanceOhm, "ohm", has("seriesResistanceOhm"), se.seriesResistanceOhm),
       ...(linear === undefined
-        ? [param("energyGapEv", p.energyGapEv, "eV", has("energyGapEv"), se.energyGapEv), param("saturationTempExponent", p.saturationTempExponent, "1", false)]
+        ? [
+            param("energyGapEv", p.energyGapEv, "eV", has("energyGapEv"), se.energyGapEv),
+            param("saturationTempExponent", p.saturationTempExponent, "1", false),
+          ]
         : [param("vfTempCoVPerK", linear, "V/K", false)]),
     ],
     model: {
@@ -47,7 +69,9 @@ export function diodeForwardFit(input: Parsed<"diode-forward">, assumptions: str
       saturationCurrentA: p.saturationCurrentA,
       ideality: p.ideality,
       seriesResistanceOhm: p.seriesResistanceOhm,
-      ...(linear === undefined ? { energyGapEv: p.energyGapEv, saturationTempExponent: p.saturationTempExponent } : { vfTempCoVPerK: linear }),
+      ...(linear === undefined
+        ? { energyGapEv: p.energyGapEv, saturationTempExponent: p.saturationTempExponent }
+        : { vfTempCoVPerK: linear }),
       nominalTempC: kToC(p.nominalTempK),
     },
     quality: qualityOf(fit.quality, "V"),
@@ -63,7 +87,10 @@ export function rdsOnTemperatureFit(input: Parsed<"rds-on-temperature">, assumpt
   return {
     curve: "rds-on-temperature",
     method: exact ? "exact" : "least-squares",
-    parameters: [param("rdsOn25Ohm", fit.params.r25, "ohm", true, fit.standardErrors.r25), param("exponent", fit.params.exponent, "1", true, fit.standardErrors.exponent)],
+    parameters: [
+      param("rdsOn25Ohm", fit.params.r25, "ohm", true, fit.standardErrors.r25),
+      param("exponent", fit.params.exponent, "1", true, fit.standardErrors.exponent),
+    ],
     model: { law: "power", exponent: fit.params.exponent },
     quality: qualityOf(fit.quality, "ohm"),
     residuals: residualsOf(
@@ -79,7 +106,10 @@ export function zthFit(input: Parsed<"zth">, assumptions: string[]): Body {
     curve: "zth",
     method: exact ? "exact" : "least-squares",
     parameters: [
-      ...fit.params.terms.flatMap((t, i) => [param(`rKPerW[${i}]`, t.rKPerW, "K/W", true), param(`tauS[${i}]`, t.tauS, "s", true)]),
+      ...fit.params.terms.flatMap((t, i) => [
+        param(`rKPerW[${i}]`, t.rKPerW, "K/W", true),
+        param(`tauS[${i}]`, t.tauS, "s", true),
+      ]),
       param("steadyKPerW", fit.params.steadyKPerW, "K/W", input.steadyKPerW === undefined),
     ],
     model: { kind: "foster", terms: fit.params.terms.map((t) => ({ rKPerW: t.rKPerW, tauS: t.tauS })) },
@@ -103,7 +133,14 @@ export function reverseLeakageFit(input: Parsed<"reverse-leakage">, assumptions:
       param("voltageExponent", l.voltageExponent, "1", fitM, se.voltageExponent),
       param("refCurrentA", l.refCurrentA, "A", true, se.refCurrentA),
     ],
-    model: { law: "thermionic-emission", barrierEv: l.barrierEv, voltageExponent: l.voltageExponent, refCurrentA: l.refCurrentA, refTempC: kToC(l.refTempK), refVoltageV: l.refVoltageV },
+    model: {
+      law: "thermionic-emission",
+      barrierEv: l.barrierEv,
+      voltageExponent: l.voltageExponent,
+      refCurrentA: l.refCurrentA,
+      refTempC: kToC(l.refTempK),
+      refVoltageV: l.refVoltageV,
+    },
     quality: qualityOf(fit.quality, "A"),
     residuals: residualsOf(
       input.points.map((p) => p.currentA),

@@ -16,10 +16,24 @@ export function fitLeakageCurve(spec: LeakageCurveSpec, path: (string | number)[
   const fitsVoltage = new Set(spec.points.map((p) => p.reverseV)).size >= 2;
   const exact = (fitsVoltage ? 3 : 2) === spec.points.length;
   const where = path.length === 0 ? "reverse-leakage" : path.join(".");
-  if (!fitsVoltage) assumptions.push(`${where}: the points are at one reverse voltage, so the VR power m is 0 (the law holds at that voltage)`);
-  const describe = (i: number) => `${spec.points[i]?.tjC} °C, ${spec.points[i]?.reverseV} V, ${spec.points[i]?.currentA} A`;
+  if (!fitsVoltage)
+    assumptions.push(
+      `${where}: the points are at one reverse voltage, so the VR power m is 0 (the law holds at that voltage)`,
+    );
+  const describe = (i: number) =>
+    `${spec.points[i]?.tjC} °C, ${spec.points[i]?.reverseV} V, ${spec.points[i]?.currentA} A`;
   if (!exact) {
-    assumptions.push(gateFit(fit.quality, spec.acceptFit, [...path, "points"], `${where}: barrier height${fitsVoltage ? ", VR power" : ""} and reference current of the thermionic-emission law fitted`, "A", spec.points.length, describe));
+    assumptions.push(
+      gateFit(
+        fit.quality,
+        spec.acceptFit,
+        [...path, "points"],
+        `${where}: barrier height${fitsVoltage ? ", VR power" : ""} and reference current of the thermionic-emission law fitted`,
+        "A",
+        spec.points.length,
+        describe,
+      ),
+    );
   }
   return { fit, fitsVoltage, exact };
 }

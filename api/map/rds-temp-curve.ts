@@ -7,8 +7,19 @@ import { gateFit, refusedFit } from "./fit-gate.js";
  * refused naming the points where no such law follows them, gated at 5 % of Rds(on) (acceptFit
  * overrides), the residuals in `assumptions`.
  */
-export function fitRdsTempCurve(spec: { readonly points: readonly { readonly tjC: number; readonly factor?: number; readonly rdsOnOhm?: number }[]; readonly acceptFit?: boolean | undefined }, normalised: boolean, path: (string | number)[], assumptions: string[]) {
-  const curve = { points: spec.points.map((p) => ({ tjC: p.tjC, value: p.factor ?? p.rdsOnOhm ?? 0 })), acceptFit: spec.acceptFit };
+export function fitRdsTempCurve(
+  spec: {
+    readonly points: readonly { readonly tjC: number; readonly factor?: number; readonly rdsOnOhm?: number }[];
+    readonly acceptFit?: boolean | undefined;
+  },
+  normalised: boolean,
+  path: (string | number)[],
+  assumptions: string[],
+) {
+  const curve = {
+    points: spec.points.map((p) => ({ tjC: p.tjC, value: p.factor ?? p.rdsOnOhm ?? 0 })),
+    acceptFit: spec.acceptFit,
+  };
   const fit = fitRdsTemperature(
     curve.points.map((p) => ({ tempK: cToK(p.tjC), value: p.value })),
     { normalised },
@@ -19,6 +30,9 @@ export function fitRdsTempCurve(spec: { readonly points: readonly { readonly tjC
   const unit = normalised ? "(factor)" : "ohm";
   const describe = (i: number) => `${curve.points[i]?.tjC} °C, ${curve.points[i]?.value} ${unit}`;
   const what = `${where}: ${normalised ? "the exponent" : "R25 and the exponent"} of (T/298.15 K)^a fitted`;
-  if (!exact) assumptions.push(gateFit(fit.quality, curve.acceptFit, [...path, "points"], what, unit, curve.points.length, describe));
+  if (!exact)
+    assumptions.push(
+      gateFit(fit.quality, curve.acceptFit, [...path, "points"], what, unit, curve.points.length, describe),
+    );
   return { fit, exact };
 }

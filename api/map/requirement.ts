@@ -4,7 +4,12 @@ import type { ReviewTurnOff } from "../../domain/review/review-turn-off.js";
 import type { ParallelLoad } from "../../domain/checks/clamp-energy.js";
 import type { ClampPowerRating } from "../../domain/checks/clamp-rating.js";
 import type { InputClamp } from "../../domain/checks/transient-stress.js";
-import { builtInProfile, type ProfilePoint, repeatedProfile, START_PROFILES } from "../../domain/checks/start-profiles.js";
+import {
+  builtInProfile,
+  type ProfilePoint,
+  repeatedProfile,
+  START_PROFILES,
+} from "../../domain/checks/start-profiles.js";
 import { findSupplyClass, SUPPLY_CLASSES, type SupplyClass } from "../../domain/review/supply-classes.js";
 import { findTransient, TRANSIENT_LIBRARY, type TransientPulse } from "../../domain/review/transient-library.js";
 import { unknownIdMessage } from "../../contracts/zod-messages.js";
@@ -30,35 +35,81 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
   let cls: SupplyClass | undefined;
   if (r.supply.class !== "custom") {
     cls = findSupplyClass(r.supply.class);
-    if (cls === undefined) throw inputProblem("invalid-input", ["requirement", "supply", "class"], unknownIdMessage("supply class", r.supply.class, [...SUPPLY_CLASSES.map((c) => c.id), "custom"]));
+    if (cls === undefined)
+      throw inputProblem(
+        "invalid-input",
+        ["requirement", "supply", "class"],
+        unknownIdMessage("supply class", r.supply.class, [...SUPPLY_CLASSES.map((c) => c.id), "custom"]),
+      );
   }
   const minV = r.supply.minV ?? cls?.minV ?? 0;
   const nominalV = r.supply.nominalV ?? cls?.nominalV ?? 0;
   const maxV = r.supply.maxV ?? cls?.maxV ?? 0;
   if (!(minV <= nominalV && nominalV <= maxV)) {
-    throw inputProblem("invalid-input", ["requirement", "supply"], `supply must satisfy min ≤ nominal ≤ max (got ${minV}, ${nominalV}, ${maxV})`);
+    throw inputProblem(
+      "invalid-input",
+      ["requirement", "supply"],
+      `supply must satisfy min ≤ nominal ≤ max (got ${minV}, ${nominalV}, ${maxV})`,
+    );
   }
   // The class's jump start only where it lies above the (possibly overridden) highest supply.
-  const jumpStartV = r.supply.jumpStartV ?? (cls?.jumpStartV !== undefined && cls.jumpStartV >= maxV ? cls.jumpStartV : undefined);
-  if (jumpStartV !== undefined && !(jumpStartV >= maxV)) throw inputProblem("invalid-input", ["requirement", "supply", "jumpStartV"], `the jump-start voltage must be at least the highest steady supply (${maxV} V); got ${jumpStartV} V`);
-  const longTermOvervoltageV = overvoltageOf(r.supply.longTermOvervoltageV, cls?.longTermOvervoltageV, maxV, "longTermOvervoltageV", "long-term overvoltage");
-  const abnormalMaxV = overvoltageOf(r.supply.abnormalMaxV, cls?.abnormalMaxV, maxV, "abnormalMaxV", "abnormal service limit");
+  const jumpStartV =
+    r.supply.jumpStartV ?? (cls?.jumpStartV !== undefined && cls.jumpStartV >= maxV ? cls.jumpStartV : undefined);
+  if (jumpStartV !== undefined && !(jumpStartV >= maxV))
+    throw inputProblem(
+      "invalid-input",
+      ["requirement", "supply", "jumpStartV"],
+      `the jump-start voltage must be at least the highest steady supply (${maxV} V); got ${jumpStartV} V`,
+    );
+  const longTermOvervoltageV = overvoltageOf(
+    r.supply.longTermOvervoltageV,
+    cls?.longTermOvervoltageV,
+    maxV,
+    "longTermOvervoltageV",
+    "long-term overvoltage",
+  );
+  const abnormalMaxV = overvoltageOf(
+    r.supply.abnormalMaxV,
+    cls?.abnormalMaxV,
+    maxV,
+    "abnormalMaxV",
+    "abnormal service limit",
+  );
   const sources: string[] = [];
   if (cls) sources.push(`${cls.id}: ${cls.source}`);
   const reverseV = r.reverse?.voltageV ?? cls?.reverseV ?? maxV;
   const reverseDurationS = r.reverse?.durationS ?? cls?.reverseDurationS ?? 60;
-  if (r.reverse === undefined) assumptions.push(cls ? `reverse polarity ${reverseV} V for ${reverseDurationS} s from the supply class` : `reverse polarity: the custom maximum ${maxV} V reversed (common practice)`);
+  if (r.reverse === undefined)
+    assumptions.push(
+      cls
+        ? `reverse polarity ${reverseV} V for ${reverseDurationS} s from the supply class`
+        : `reverse polarity: the custom maximum ${maxV} V reversed (common practice)`,
+    );
 
   const pulses: TransientPulse[] = [];
   const wanted = r.transients ?? cls?.transients ?? [];
-  if (r.transients === undefined) assumptions.push(`requirement.transients: ${cls ? `the supply class's set (${wanted.join(", ") || "none"})` : "none (a custom supply has no default set)"} (default)`);
-  if (r.sourceResistanceOhm === undefined) assumptions.push("requirement.sourceResistanceOhm: 0 ohm (default: no source or wiring resistance)");
+  if (r.transients === undefined)
+    assumptions.push(
+      `requirement.transients: ${cls ? `the supply class's set (${wanted.join(", ") || "none"})` : "none (a custom supply has no default set)"} (default)`,
+    );
+  if (r.sourceResistanceOhm === undefined)
+    assumptions.push("requirement.sourceResistanceOhm: 0 ohm (default: no source or wiring resistance)");
   if (r.loadStandbyA === undefined) assumptions.push("requirement.loadStandbyA: 0 A (default)");
-  if (r.outputHeldV === undefined) assumptions.push(`requirement.outputHeldV: the nominal supply ${nominalV} V (default)`);
+  if (r.outputHeldV === undefined)
+    assumptions.push(`requirement.outputHeldV: the nominal supply ${nominalV} V (default)`);
   wanted.forEach((t, i) => {
     if (typeof t === "string") {
       const p = findTransient(t);
-      if (p === undefined) throw inputProblem("invalid-input", ["requirement", "transients", i], unknownIdMessage("built-in transient", t, TRANSIENT_LIBRARY.map((x) => x.id)));
+      if (p === undefined)
+        throw inputProblem(
+          "invalid-input",
+          ["requirement", "transients", i],
+          unknownIdMessage(
+            "built-in transient",
+            t,
+            TRANSIENT_LIBRARY.map((x) => x.id),
+          ),
+        );
       pulses.push(p);
       sources.push(`${p.id}: ${p.source}`);
     } else {
@@ -80,13 +131,19 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
   if (r.loadLevels === undefined) assumptions.push("load levels 100 % and 10 % of full load (default)");
   const deratingFactor = r.deratingFactor ?? REVIEW_DEFAULTS.deratingFactor;
   if (r.deratingFactor === undefined) {
-    assumptions.push("clamp window: each part's transient allowance from the rule set's transient rules; 80 % of the rating where no rule bounds it (common practice)");
+    assumptions.push(
+      "clamp window: each part's transient allowance from the rule set's transient rules; 80 % of the rating where no rule bounds it (common practice)",
+    );
   }
   const tjMarginK = r.tjMarginK ?? REVIEW_DEFAULTS.tjMarginK;
   if (r.tjMarginK === undefined) assumptions.push("thermal sizing holds Tj(max) − 25 K (common practice)");
   const loadMinV = r.loadMinV ?? (r.load.kind === "constant-power" ? r.load.minVoltageV : undefined);
   if (r.loadMinV === undefined) {
-    assumptions.push(loadMinV === undefined ? "requirement.loadMinV: not given and the load has no minimum of its own: no rule reads the load's minimum voltage" : `requirement.loadMinV: the constant-power load's minVoltageV ${loadMinV} V (default)`);
+    assumptions.push(
+      loadMinV === undefined
+        ? "requirement.loadMinV: not given and the load has no minimum of its own: no rule reads the load's minimum voltage"
+        : `requirement.loadMinV: the constant-power load's minVoltageV ${loadMinV} V (default)`,
+    );
   }
 
   return {
@@ -117,7 +174,15 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
         ...(r.inputClamp ? { parallelLoad: parallelLoadOf(r.load, r.inputClamp.clampV) } : {}),
       },
       ...(r.startProfile ? { startProfile: startProfileOf(r.startProfile, sources, assumptions) } : {}),
-      ...(r.mission ? { mission: r.mission.map((m) => ({ hoursPerYear: m.hoursPerYear, loadScale: m.loadLevel, ambientC: m.ambientC })) } : {}),
+      ...(r.mission
+        ? {
+            mission: r.mission.map((m) => ({
+              hoursPerYear: m.hoursPerYear,
+              loadScale: m.loadLevel,
+              ambientC: m.ambientC,
+            })),
+          }
+        : {}),
       ...(r.energyPricePerKWh === undefined ? {} : { pricePerKWh: r.energyPricePerKWh }),
       ...(r.battery ? { battery: r.battery } : {}),
       tjMarginK,
@@ -127,34 +192,62 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
 }
 
 /** The start-up profile as points: given, or a built-in one, repeated for several cranks (start-profiles.ts). */
-function startProfileOf(sp: NonNullable<Requirement["startProfile"]>, sources: string[], assumptions: string[]): ProfilePoint[] {
+function startProfileOf(
+  sp: NonNullable<Requirement["startProfile"]>,
+  sources: string[],
+  assumptions: string[],
+): ProfilePoint[] {
   if (Array.isArray(sp)) return sp;
   const cranks = sp.cranks ?? 1;
   const restS = sp.restS ?? 0;
   let points: readonly ProfilePoint[] = sp.points ?? [];
   if (sp.builtIn !== undefined) {
     const b = builtInProfile(sp.builtIn);
-    if (b === undefined) throw inputProblem("invalid-input", ["requirement", "startProfile", "builtIn"], unknownIdMessage("built-in start profile", sp.builtIn, START_PROFILES.map((p) => p.id)));
+    if (b === undefined)
+      throw inputProblem(
+        "invalid-input",
+        ["requirement", "startProfile", "builtIn"],
+        unknownIdMessage(
+          "built-in start profile",
+          sp.builtIn,
+          START_PROFILES.map((p) => p.id),
+        ),
+      );
     points = b.points;
     sources.push(`${b.def.id}: ${b.def.source}`);
   }
   if (sp.cranks === undefined) assumptions.push("requirement.startProfile.cranks: 1 (default)");
-  else if (sp.restS === undefined && cranks > 1) assumptions.push("requirement.startProfile.restS: 0 s between cranks (default: the next crank starts at once)");
+  else if (sp.restS === undefined && cranks > 1)
+    assumptions.push("requirement.startProfile.restS: 0 s between cranks (default: the next crank starts at once)");
   return repeatedProfile(points, cranks, restS);
 }
 
 /** The input clamp: its law and power rating, defaults recorded (clamp-rating.ts). */
 function inputClampOf(c: NonNullable<Requirement["inputClamp"]>, assumptions: string[]): InputClamp {
-  if (c.breakdownV === undefined) assumptions.push("inputClamp: no breakdownV, so a constant clamping voltage clampV (no dynamic resistance)");
-  else if (c.peakCurrentA === undefined) assumptions.push("inputClamp: breakdownV without peakCurrentA gives no dynamic resistance: a constant clampV is used");
+  if (c.breakdownV === undefined)
+    assumptions.push("inputClamp: no breakdownV, so a constant clamping voltage clampV (no dynamic resistance)");
+  else if (c.peakCurrentA === undefined)
+    assumptions.push(
+      "inputClamp: breakdownV without peakCurrentA gives no dynamic resistance: a constant clampV is used",
+    );
   let power: ClampPowerRating | undefined;
   if (c.peakPulsePowerW !== undefined) {
-    if (c.referencePulseS === undefined) assumptions.push("inputClamp.referencePulseS: 1 ms (default: a 10/1000 us rating pulse, 1000 us to half value)");
+    if (c.referencePulseS === undefined)
+      assumptions.push("inputClamp.referencePulseS: 1 ms (default: a 10/1000 us rating pulse, 1000 us to half value)");
     if (c.tjMaxC === undefined) assumptions.push("inputClamp.tjMaxC: 150 degC (default, common practice)");
     power = { peakPulsePowerW: c.peakPulsePowerW, referencePulseS: c.referencePulseS ?? 1e-3, tjMaxC: c.tjMaxC ?? 150 };
-    assumptions.push("inputClamp power: Ppp scaled by sqrt(reference width / the pulse's current half-width) (Wunsch-Bell) and derated linearly to 0 at tjMaxC from the highest ambient (common practice)");
+    assumptions.push(
+      "inputClamp power: Ppp scaled by sqrt(reference width / the pulse's current half-width) (Wunsch-Bell) and derated linearly to 0 at tjMaxC from the highest ambient (common practice)",
+    );
   }
-  return { standoffV: c.standoffV, clampV: c.clampV, breakdownV: c.breakdownV, peakCurrentA: c.peakCurrentA, energyJ: c.energyJ, ...(power ? { power } : {}) };
+  return {
+    standoffV: c.standoffV,
+    clampV: c.clampV,
+    breakdownV: c.breakdownV,
+    peakCurrentA: c.peakCurrentA,
+    energyJ: c.energyJ,
+    ...(power ? { power } : {}),
+  };
 }
 
 /** The module's load in parallel with the clamp: a constant-power load as the least current it draws, at the clamping voltage (the clamp's share the larger). */
@@ -170,22 +263,49 @@ function parallelLoadOf(load: Requirement["load"], clampV: number): ParallelLoad
 }
 
 /** A steady overvoltage level: the caller's, else the class's where it lies above the (possibly overridden) highest supply. */
-function overvoltageOf(given: number | undefined, ofClass: number | undefined, maxV: number, field: string, what: string): number | undefined {
-  if (given !== undefined && !(given >= maxV)) throw inputProblem("invalid-input", ["requirement", "supply", field], `the ${what} must be at least the highest steady supply (${maxV} V); got ${given} V`);
+function overvoltageOf(
+  given: number | undefined,
+  ofClass: number | undefined,
+  maxV: number,
+  field: string,
+  what: string,
+): number | undefined {
+  if (given !== undefined && !(given >= maxV))
+    throw inputProblem(
+      "invalid-input",
+      ["requirement", "supply", field],
+      `the ${what} must be at least the highest steady supply (${maxV} V); got ${given} V`,
+    );
   return given ?? (ofClass !== undefined && ofClass >= maxV ? ofClass : undefined);
 }
 
 /** The review's turn-off event: defaults recorded (a short from the nominal supply; Tj per candidate). */
-function reviewTurnOffOf(t: NonNullable<Requirement["turnOff"]>, nominalV: number, assumptions: string[]): ReviewTurnOff {
+function reviewTurnOffOf(
+  t: NonNullable<Requirement["turnOff"]>,
+  nominalV: number,
+  assumptions: string[],
+): ReviewTurnOff {
   if (t.inputAfterV === undefined) assumptions.push("turnOff.inputAfterV: 0 V (the input shorted)");
   if (t.outputV === undefined) assumptions.push(`turnOff.outputV: the nominal supply ${nominalV} V before the event`);
-  if (t.tjC === undefined) assumptions.push("turnOff.tjC: each candidate's worst-case junction temperature over the corners (the highest ambient where no corner solved)");
-  if (t.reverseRecoveryChargeC === undefined) assumptions.push(missingQrrSentence("turnOff.reverseRecoveryChargeC", "diode"));
-  if (t.clampV === undefined) assumptions.push("turnOff.clampV: the blocking element's rated voltage (a lower bound of its breakdown: the energy estimate is conservative)");
+  if (t.tjC === undefined)
+    assumptions.push(
+      "turnOff.tjC: each candidate's worst-case junction temperature over the corners (the highest ambient where no corner solved)",
+    );
+  if (t.reverseRecoveryChargeC === undefined)
+    assumptions.push(missingQrrSentence("turnOff.reverseRecoveryChargeC", "diode"));
+  if (t.clampV === undefined)
+    assumptions.push(
+      "turnOff.clampV: the blocking element's rated voltage (a lower bound of its breakdown: the energy estimate is conservative)",
+    );
   if (t.repetitive === undefined) assumptions.push(ONE_OFF_EVENT("turnOff.repetitive"));
   const outputV = t.outputV ?? nominalV;
   const inputAfterV = t.inputAfterV ?? 0;
-  if (!(inputAfterV < outputV)) throw inputProblem("invalid-input", ["requirement", "turnOff", "inputAfterV"], `must be below the output voltage before the event (${outputV} V)`);
+  if (!(inputAfterV < outputV))
+    throw inputProblem(
+      "invalid-input",
+      ["requirement", "turnOff", "inputAfterV"],
+      `must be below the output voltage before the event (${outputV} V)`,
+    );
   return {
     inputAfterV,
     outputV,

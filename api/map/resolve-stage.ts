@@ -29,14 +29,22 @@ export function resolveStage(
   if (input.kind === "catalog-part") {
     const part = catalog.find(input.partId);
     if (part === undefined) {
-      const near = nearestName(input.partId, catalog.list().map((p) => p.id));
-      throw inputProblem("unknown-part", [...path, "partId"], `no part "${input.partId}" in the parts catalog${near === undefined ? "" : `; did you mean "${near}"?`}`);
+      const near = nearestName(
+        input.partId,
+        catalog.list().map((p) => p.id),
+      );
+      throw inputProblem(
+        "unknown-part",
+        [...path, "partId"],
+        `no part "${input.partId}" in the parts catalog${near === undefined ? "" : `; did you mean "${near}"?`}`,
+      );
     }
     if (thermalOverride === undefined && input.thermal === undefined) {
       // a catalog part with its own thermal path maps to the same model every time (the diode fit
       // included): map it once per path and replay the defaults it recorded
       const key = path.join("\u0000");
-      const perPart = catalogModels.get(part) ?? new Map<string, { model: StageModel; assumptions: readonly string[] }>();
+      const perPart =
+        catalogModels.get(part) ?? new Map<string, { model: StageModel; assumptions: readonly string[] }>();
       catalogModels.set(part, perPart);
       let hit = perPart.get(key);
       if (hit === undefined) {

@@ -5,7 +5,12 @@ import type { LoadModel } from "../../domain/solve/load-model.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
 import { inputProblem } from "../input-problem.js";
 
-type Timing = { reverseThresholdV: number; turnOffDelayS: number; gateChargeC?: number | undefined; gateSinkCurrentA?: number | undefined };
+type Timing = {
+  reverseThresholdV: number;
+  turnOffDelayS: number;
+  gateChargeC?: number | undefined;
+  gateSinkCurrentA?: number | undefined;
+};
 
 /**
  * The controller's reverse turn-off timing: the request's `turnOff`, else the stage controller's
@@ -30,10 +35,16 @@ export function controllerTiming(
   }
   const own = "controller" in spec ? spec.controller : undefined;
   if (own?.reverseThresholdV !== undefined && own.turnOffDelayS !== undefined) {
-    assumptions.push(`${path.join(".")}: reverse turn-off timing from the stage controller (threshold ${own.reverseThresholdV} V, delay ${own.turnOffDelayS} s, no gate-discharge time)`);
+    assumptions.push(
+      `${path.join(".")}: reverse turn-off timing from the stage controller (threshold ${own.reverseThresholdV} V, delay ${own.turnOffDelayS} s, no gate-discharge time)`,
+    );
     return { reverseThresholdV: own.reverseThresholdV, turnOffDelayS: own.turnOffDelayS };
   }
-  throw inputProblem("invalid-input", path, "required: this stage turns off on reverse current, give its reverseThresholdV and turnOffDelayS");
+  throw inputProblem(
+    "invalid-input",
+    path,
+    "required: this stage turns off on reverse current, give its reverseThresholdV and turnOffDelayS",
+  );
 }
 
 /** The load's minimum voltage: given, or a constant-power load's own minVoltageV. */
@@ -43,8 +54,15 @@ export function loadMinimumV(load: LoadModel, given: number | undefined, path: (
   throw inputProblem("invalid-input", path, "required: the load's minimum operating voltage");
 }
 
-export function stageLabel(spec: StageSpec, partId: string | undefined): { kind: string; name?: string; partId?: string } {
-  return { kind: spec.kind, ...(spec.name === undefined ? {} : { name: spec.name }), ...(partId === undefined ? {} : { partId }) };
+export function stageLabel(
+  spec: StageSpec,
+  partId: string | undefined,
+): { kind: string; name?: string; partId?: string } {
+  return {
+    kind: spec.kind,
+    ...(spec.name === undefined ? {} : { name: spec.name }),
+    ...(partId === undefined ? {} : { partId }),
+  };
 }
 
 /**
@@ -54,9 +72,11 @@ export function stageLabel(spec: StageSpec, partId: string | undefined): { kind:
  * charge lost: a warning naming the field to give.
  */
 export function missingQrrSentence(field: string, kind: StageModel["kind"] | "diode"): string {
-  if (kind === "schottky-diode") return `${field}: 0 C (a Schottky junction stores no minority charge to speak of, common practice)`;
+  if (kind === "schottky-diode")
+    return `${field}: 0 C (a Schottky junction stores no minority charge to speak of, common practice)`;
   return `warning: ${field}: not given, taken as 0 C for ${kind === "pn-diode" ? "this PN diode" : "PN diode candidates"}: a PN junction's stored charge keeps it conducting backwards after the current reverses, so the reverse-current peak and the charge lost are understated; give its Qrr from the datasheet`;
 }
 
 /** The declared default of a turn-off event's `repetitive` field. */
-export const ONE_OFF_EVENT = (field: string): string => `${field}: false (a one-off event: its energy is held to the single-pulse avalanche rating, not to the repetitive one)`;
+export const ONE_OFF_EVENT = (field: string): string =>
+  `${field}: false (a one-off event: its energy is held to the single-pulse avalanche rating, not to the repetitive one)`;

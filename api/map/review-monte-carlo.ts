@@ -12,7 +12,13 @@ import type { StageModel } from "../../domain/stages/stage-model.js";
  * load): percentiles of junction temperature, loss, drop and load voltage, and the share of
  * samples each rule fails or warns on, with the sample's point standing in for the worst corner.
  */
-export function reviewMonteCarlo(spec: z.output<typeof monteCarloSpec>, stage: StageModel, req: ReviewRequirement, base: RuleInput, set: CompiledRuleSet): z.output<typeof monteCarloResult> {
+export function reviewMonteCarlo(
+  spec: z.output<typeof monteCarloSpec>,
+  stage: StageModel,
+  req: ReviewRequirement,
+  base: RuleInput,
+  set: CompiledRuleSet,
+): z.output<typeof monteCarloResult> {
   const tj: number[] = [];
   const loss: number[] = [];
   const drop: number[] = [];
@@ -28,27 +34,40 @@ export function reviewMonteCarlo(spec: z.output<typeof monteCarloSpec>, stage: S
   const input = { ...base, metrics, unavailable: {} };
   const supplyV = spec.supplyV ?? req.supplyMinV;
   const ambientC = spec.ambientC ?? req.ambientMaxC;
-  monteCarlo({ stage, supplyV, ambientC, sourceResistanceOhm: req.sourceResistanceOhm, load: req.load, tolerances: spec.tolerances, samples: spec.samples, seed: spec.seed }, (s) => {
-    if (!("point" in s.result)) {
-      unsolved += 1;
-      return;
-    }
-    const p = s.result.point;
-    tj.push(p.tjC);
-    loss.push(p.dieLossW);
-    drop.push(p.forward.dropV);
-    loadV.push(p.loadV);
-    metrics["tjWorstC"] = p.tjC;
-    metrics["lossWorstW"] = p.dieLossW;
-    metrics["dropWorstV"] = p.forward.dropV;
-    metrics["loadVMinV"] = p.loadV;
-    for (const rule of varying) {
-      const v = evaluateRule(rule, input, set.stamp);
-      if (v.outcome === "fail") fails.set(v.ruleId, (fails.get(v.ruleId) ?? 0) + 1);
-      else if (v.outcome === "warn") warns.set(v.ruleId, (warns.get(v.ruleId) ?? 0) + 1);
-    }
-  });
-  const share = (m: Map<string, number>) => Object.fromEntries([...m.entries()].sort(([a], [b]) => (a < b ? -1 : 1)).map(([k, v]) => [k, v / spec.samples]));
+  monteCarlo(
+    {
+      stage,
+      supplyV,
+      ambientC,
+      sourceResistanceOhm: req.sourceResistanceOhm,
+      load: req.load,
+      tolerances: spec.tolerances,
+      samples: spec.samples,
+      seed: spec.seed,
+    },
+    (s) => {
+      if (!("point" in s.result)) {
+        unsolved += 1;
+        return;
+      }
+      const p = s.result.point;
+      tj.push(p.tjC);
+      loss.push(p.dieLossW);
+      drop.push(p.forward.dropV);
+      loadV.push(p.loadV);
+      metrics["tjWorstC"] = p.tjC;
+      metrics["lossWorstW"] = p.dieLossW;
+      metrics["dropWorstV"] = p.forward.dropV;
+      metrics["loadVMinV"] = p.loadV;
+      for (const rule of varying) {
+        const v = evaluateRule(rule, input, set.stamp);
+        if (v.outcome === "fail") fails.set(v.ruleId, (fails.get(v.ruleId) ?? 0) + 1);
+        else if (v.outcome === "warn") warns.set(v.ruleId, (warns.get(v.ruleId) ?? 0) + 1);
+      }
+    },
+  );
+  const share = (m: Map<string, number>) =>
+    Object.fromEntries([...m.entries()].sort(([a], [b]) => (a < b ? -1 : 1)).map(([k, v]) => [k, v / spec.samples]));
   return {
     candidate: spec.candidate ?? 0,
     samples: spec.samples,

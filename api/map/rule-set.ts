@@ -28,15 +28,31 @@ export function resolveRuleSet(ref: string | RuleSetSpec, ctx: Context, path: (s
   if (out.ok) return out.compiled;
   const issues = out.errors.map((e) => {
     const idx = ref.rules.findIndex((r) => r.id === e.ruleId);
-    return { path: [...path, "rules", idx, e.field], message: `rule ${e.ruleId}${e.field === "when" || e.field === "expression" ? `, column ${e.column}` : ""}: ${expressionErrorMessage(e.code, e.message)}` };
+    return {
+      path: [...path, "rules", idx, e.field],
+      message: `rule ${e.ruleId}${e.field === "when" || e.field === "expression" ? `, column ${e.column}` : ""}: ${expressionErrorMessage(e.code, e.message)}`,
+    };
   });
   const over = issues.filter((i) => isLimitMessage(i.message));
   return (() => {
-    if (over.length > 0) throw problem("limit-exceeded", `rule set '${ref.id}' over a limit: ${over.map((i) => i.message).join("; ")}`, over);
-    throw problem("invalid-rule-set", `invalid rule set '${ref.id}': ${issues.map((i) => i.message).join("; ")}`, issues);
+    if (over.length > 0)
+      throw problem(
+        "limit-exceeded",
+        `rule set '${ref.id}' over a limit: ${over.map((i) => i.message).join("; ")}`,
+        over,
+      );
+    throw problem(
+      "invalid-rule-set",
+      `invalid rule set '${ref.id}': ${issues.map((i) => i.message).join("; ")}`,
+      issues,
+    );
   })();
 }
 
-function problem(code: "unknown-rule-set" | "invalid-rule-set" | "limit-exceeded", message: string, issues: { path: (string | number)[]; message: string }[]): TRPCError {
+function problem(
+  code: "unknown-rule-set" | "invalid-rule-set" | "limit-exceeded",
+  message: string,
+  issues: { path: (string | number)[]; message: string }[],
+): TRPCError {
   return new TRPCError({ code: "BAD_REQUEST", message, cause: new InputProblem(code, message, issues) });
 }

@@ -46,10 +46,21 @@ export function sizingContext(
     ...(r.lossBudgetW === undefined ? {} : { lossBudgetW: r.lossBudgetW }),
   };
   const { mission: _mission, ...searchReq } = req.model;
-  const transientThermal = transientThermalOf(cand.transientThermal, stage.model, [...path, "transientThermal"], assumptions);
-  const datasheetMax: StageScale | undefined = cand.datasheetMax ? datasheetMaxScale(cand.datasheetMax, stage.model, [...path, "datasheetMax"]) : undefined;
+  const transientThermal = transientThermalOf(
+    cand.transientThermal,
+    stage.model,
+    [...path, "transientThermal"],
+    assumptions,
+  );
+  const datasheetMax: StageScale | undefined = cand.datasheetMax
+    ? datasheetMaxScale(cand.datasheetMax, stage.model, [...path, "datasheetMax"])
+    : undefined;
   const assess = (s: StageModel) => {
-    const review = reviewCandidate(searchReq, { stage: s, transientThermal, ...(datasheetMax ? { datasheetMax } : {}) });
+    const review = reviewCandidate(searchReq, {
+      stage: s,
+      transientThermal,
+      ...(datasheetMax ? { datasheetMax } : {}),
+    });
     return { review, input: reviewRuleInput(s, req.model, flags, review) };
   };
   const t = turnOff === undefined ? undefined : turnOffSizing(r, req, stage.spec, turnOff);
@@ -62,7 +73,12 @@ export function sizingContext(
   };
 }
 
-function turnOffSizing(r: Requirement, req: MappedRequirement, spec: StageSpec, t: TurnOffRequest): TurnOffSizing | string {
+function turnOffSizing(
+  r: Requirement,
+  req: MappedRequirement,
+  spec: StageSpec,
+  t: TurnOffRequest,
+): TurnOffSizing | string {
   const own = "controller" in spec ? spec.controller : undefined;
   const threshold = t.reverseThresholdV ?? own?.reverseThresholdV;
   if (threshold === undefined) return "the part states no reverse trip threshold: give turnOff.reverseThresholdV";

@@ -17,7 +17,12 @@ type TempLawSpec = NonNullable<MosfetSpec["rdsOnTemp"]>;
 export const DEFAULT_RDS_EXPONENT = 2.3;
 
 /** Contract stage → domain stage model; records every default it applies in `assumptions`. */
-export function toStageModel(spec: StageSpec, thermal: ThermalPath, path: (string | number)[], assumptions: string[]): StageModel {
+export function toStageModel(
+  spec: StageSpec,
+  thermal: ThermalPath,
+  path: (string | number)[],
+  assumptions: string[],
+): StageModel {
   switch (spec.kind) {
     case "pn-diode":
     case "schottky-diode": {
@@ -42,10 +47,19 @@ export function toStageModel(spec: StageSpec, thermal: ThermalPath, path: (strin
         thermal,
       };
     case "nfet-ideal-diode":
-      return { kind: spec.kind, mosfet: toMosfet(spec.mosfet, [...path, "mosfet"], assumptions), controller: toController(spec.controller), thermal };
+      return {
+        kind: spec.kind,
+        mosfet: toMosfet(spec.mosfet, [...path, "mosfet"], assumptions),
+        controller: toController(spec.controller),
+        thermal,
+      };
     case "nfet-back-to-back": {
       if ((spec.controller.gateReleaseFraction ?? 0) > 0) {
-        throw inputProblem("invalid-input", [...path, "controller", "gateReleaseFraction"], "must be 0 for a back-to-back pair: with the gates released the input-side FET blocks, so the pair has no body-diode path (give a continuous charge pump, 0)");
+        throw inputProblem(
+          "invalid-input",
+          [...path, "controller", "gateReleaseFraction"],
+          "must be 0 for a back-to-back pair: with the gates released the input-side FET blocks, so the pair has no body-diode path (give a continuous charge pump, 0)",
+        );
       }
       return {
         kind: spec.kind,
@@ -67,7 +81,10 @@ export function toStageModel(spec: StageSpec, thermal: ThermalPath, path: (strin
         startV: spec.startV,
         belowStart:
           spec.belowStart === "body-diode" && spec.bodyDiode !== undefined
-            ? { mode: "body-diode", bodyDiode: toDiodeParams(spec.bodyDiode, "pn", [...path, "bodyDiode"], assumptions) }
+            ? {
+                mode: "body-diode",
+                bodyDiode: toDiodeParams(spec.bodyDiode, "pn", [...path, "bodyDiode"], assumptions),
+              }
             : { mode: "blocks" },
         regulatedDropV: spec.regulatedDropV,
         quiescentA: spec.quiescentA,
@@ -99,7 +116,11 @@ function toController(c: ControllerSpec): ControllerModel {
   };
 }
 
-function pairBlocksReverse(spec: Extract<StageSpec, { kind: "nfet-back-to-back" }>, path: (string | number)[], assumptions: string[]): boolean {
+function pairBlocksReverse(
+  spec: Extract<StageSpec, { kind: "nfet-back-to-back" }>,
+  path: (string | number)[],
+  assumptions: string[],
+): boolean {
   if (spec.blocksReverseCurrent !== undefined) return spec.blocksReverseCurrent;
   const blocks = spec.controller.regulatedDropV > 0 || spec.controller.reverseThresholdV !== undefined;
   assumptions.push(
@@ -122,7 +143,9 @@ function toMosfet(m: MosfetSpec, path: (string | number)[], assumptions: string[
     ...(m.avalancheEnergyJ === undefined ? {} : { avalancheEnergyJ: m.avalancheEnergyJ }),
     ...(m.peakRepetitiveCurrentA === undefined ? {} : { peakRepetitiveCurrentA: m.peakRepetitiveCurrentA }),
     ...(m.avalancheCurrentA === undefined ? {} : { avalancheCurrentA: m.avalancheCurrentA }),
-    ...(m.offStateLeakage === undefined ? {} : { offStateLeakage: { currentA: m.offStateLeakage.currentA, tempK: cToK(m.offStateLeakage.tempC) } }),
+    ...(m.offStateLeakage === undefined
+      ? {}
+      : { offStateLeakage: { currentA: m.offStateLeakage.currentA, tempK: cToK(m.offStateLeakage.tempC) } }),
     ...(m.repetitiveAvalancheEnergyJ === undefined ? {} : { repetitiveAvalancheEnergyJ: m.repetitiveAvalancheEnergyJ }),
     ...(m.vdsTempCoPerK === undefined ? {} : { vdsTempCoPerK: m.vdsTempCoPerK }),
   };
@@ -130,11 +153,14 @@ function toMosfet(m: MosfetSpec, path: (string | number)[], assumptions: string[
 
 function toTempLaw(law: TempLawSpec | undefined, path: (string | number)[], assumptions: string[]): RdsTempLaw {
   if (law === undefined) {
-    assumptions.push(`${path.join(".")}: Rds(on) scales as (T/298.15 K)^${DEFAULT_RDS_EXPONENT} (default exponent, common practice)`);
+    assumptions.push(
+      `${path.join(".")}: Rds(on) scales as (T/298.15 K)^${DEFAULT_RDS_EXPONENT} (default exponent, common practice)`,
+    );
     return { law: "power", exponent: DEFAULT_RDS_EXPONENT };
   }
   if (law.law === "power") return { law: "power", exponent: law.exponent };
-  if (law.law === "power-fit") return { law: "power", exponent: fitRdsTempCurve(law, true, path, assumptions).fit.params.exponent };
+  if (law.law === "power-fit")
+    return { law: "power", exponent: fitRdsTempCurve(law, true, path, assumptions).fit.params.exponent };
   return { law: "points", points: law.points.map((p) => ({ tempK: cToK(p.tjC), factor: p.factor })) };
 }
 
@@ -146,32 +172,70 @@ type DiodeSpec = Extract<StageSpec, { kind: "pn-diode" | "schottky-diode" }>;
  * figure, from its fitted curves, or, with neither, from the forward model's Is at its nominal
  * temperature. A PN diode's one figure is scaled by the junction's Is(T); with none, Is(T) itself.
  */
-function leakageOf(spec: DiodeSpec, diode: DiodeParams, path: (string | number)[], assumptions: string[]): { reverseLeakage?: DatasheetLeakage } {
+function leakageOf(
+  spec: DiodeSpec,
+  diode: DiodeParams,
+  path: (string | number)[],
+  assumptions: string[],
+): { reverseLeakage?: DatasheetLeakage } {
   const l = spec.reverseLeakage;
-  if (l !== undefined && "points" in l) return { reverseLeakage: { law: fitLeakageCurve(l, path, assumptions).fit.params } };
-  if (spec.kind === "pn-diode") return l === undefined ? {} : { reverseLeakage: { currentA: l.currentA, tempK: cToK(l.tempC) } };
+  if (l !== undefined && "points" in l)
+    return { reverseLeakage: { law: fitLeakageCurve(l, path, assumptions).fit.params } };
+  if (spec.kind === "pn-diode")
+    return l === undefined ? {} : { reverseLeakage: { currentA: l.currentA, tempK: cToK(l.tempC) } };
   const where = path.join(".");
-  const figure = l as { currentA: number; tempC: number; reverseV?: number; barrierEv?: number; voltageExponent?: number } | undefined;
+  const figure = l as
+    | { currentA: number; tempC: number; reverseV?: number; barrierEv?: number; voltageExponent?: number }
+    | undefined;
   const barrierEv = figure?.barrierEv ?? DEFAULT_SCHOTTKY_BARRIER_EV;
   if (figure?.barrierEv === undefined) {
-    assumptions.push(`${where}: barrier height ${DEFAULT_SCHOTTKY_BARRIER_EV} eV for the thermionic-emission leakage law (default, memory: silicon power Schottky barriers lie about 0.5–0.8 eV; the steep end makes hot leakage err high)`);
+    assumptions.push(
+      `${where}: barrier height ${DEFAULT_SCHOTTKY_BARRIER_EV} eV for the thermionic-emission leakage law (default, memory: silicon power Schottky barriers lie about 0.5–0.8 eV; the steep end makes hot leakage err high)`,
+    );
   }
   if (figure === undefined) {
-    assumptions.push(`${where}: no datasheet leakage: the forward model's Is at ${kToC(diode.nominalTempK)} °C taken as the reverse current there, carried in temperature by thermionic emission`);
-    return { reverseLeakage: { law: { refCurrentA: diode.saturationCurrentA, refTempK: diode.nominalTempK, refVoltageV: spec.reverseRatingV, barrierEv, voltageExponent: 0 } } };
+    assumptions.push(
+      `${where}: no datasheet leakage: the forward model's Is at ${kToC(diode.nominalTempK)} °C taken as the reverse current there, carried in temperature by thermionic emission`,
+    );
+    return {
+      reverseLeakage: {
+        law: {
+          refCurrentA: diode.saturationCurrentA,
+          refTempK: diode.nominalTempK,
+          refVoltageV: spec.reverseRatingV,
+          barrierEv,
+          voltageExponent: 0,
+        },
+      },
+    };
   }
   const voltageExponent = figure.voltageExponent ?? 0;
-  if (figure.voltageExponent === undefined) assumptions.push(`${where}: leakage taken independent of the reverse voltage (m = 0: the figure's current at every voltage, an upper bound below the figure's voltage)`);
+  if (figure.voltageExponent === undefined)
+    assumptions.push(
+      `${where}: leakage taken independent of the reverse voltage (m = 0: the figure's current at every voltage, an upper bound below the figure's voltage)`,
+    );
   return {
     reverseLeakage: {
-      law: { refCurrentA: figure.currentA, refTempK: cToK(figure.tempC), refVoltageV: figure.reverseV ?? spec.reverseRatingV, barrierEv, voltageExponent },
+      law: {
+        refCurrentA: figure.currentA,
+        refTempK: cToK(figure.tempC),
+        refVoltageV: figure.reverseV ?? spec.reverseRatingV,
+        barrierEv,
+        voltageExponent,
+      },
     },
   };
 }
 
-function blocksReverse(spec: Extract<StageSpec, { kind: "integrated-switch" }>, path: (string | number)[], assumptions: string[]): boolean {
+function blocksReverse(
+  spec: Extract<StageSpec, { kind: "integrated-switch" }>,
+  path: (string | number)[],
+  assumptions: string[],
+): boolean {
   if (spec.blocksReverseCurrent !== undefined) return spec.blocksReverseCurrent;
   const blocks = spec.regulatedDropV > 0;
-  assumptions.push(`${path.join(".")}: ${blocks ? "blocks" : "does not block"} reverse current (default from regulatedDropV ${blocks ? "> 0: an ideal-diode type" : "= 0: a plain switch"})`);
+  assumptions.push(
+    `${path.join(".")}: ${blocks ? "blocks" : "does not block"} reverse current (default from regulatedDropV ${blocks ? "> 0: an ideal-diode type" : "= 0: a plain switch"})`,
+  );
   return blocks;
 }

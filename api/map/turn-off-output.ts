@@ -25,7 +25,9 @@ export function turnOffEventFields(r: TurnOffOutcome, v0: number, waveform?: Tur
           turnOffS: r.turnOffS,
           absorbedEnergyJ: absorbed,
           ...(rating === undefined ? {} : { avalancheRatingJ: rating }),
-          ...(atTj === undefined ? {} : { avalancheRatingAtTjJ: atTj, ...(atTj > 0 ? { avalancheEnergyRatio: absorbed / atTj } : {}) }),
+          ...(atTj === undefined
+            ? {}
+            : { avalancheRatingAtTjJ: atTj, ...(atTj > 0 ? { avalancheEnergyRatio: absorbed / atTj } : {}) }),
           outputVoltageLostV: v0 - after.capacitorV,
         },
       };
@@ -42,6 +44,14 @@ export function turnOffEventFields(r: TurnOffOutcome, v0: number, waveform?: Tur
         },
       };
     case "stays-on":
-      return { ...r, ...w, metrics: { blocksReverseCurrent: true, peakReverseCurrentA: r.peakReverseCurrentA, outputVoltageLostV: r.end.voltageLostV } };
+      return {
+        ...r,
+        ...w,
+        metrics: {
+          blocksReverseCurrent: true,
+          peakReverseCurrentA: r.peakReverseCurrentA,
+          outputVoltageLostV: r.end.voltageLostV,
+        },
+      };
   }
 }

@@ -22,134 +22,195 @@ import { transientThermalOf } from "../map/transient-thermal.js";
 import { resolveRuleSet } from "../map/rule-set.js";
 import { defineProcedure } from "../define-procedure.js";
 
-export const review = defineProcedure({ name: "review", input: reviewInput, output: reviewOutput, handler: ({ input, ctx }): ReviewOutput => {
-  const assumptions: string[] = [];
-  const req = toReviewRequirement(input.requirement, assumptions);
-  const set = resolveRuleSet(input.ruleSet ?? "default", ctx, ["ruleSet"]);
-  if (input.ruleSet === undefined) assumptions.push("rule set: the built-in default (common practice)");
-  const flags = {
-    parallelSources: input.requirement.parallelSources ?? false,
-    holdUpRequired: input.requirement.holdUpRequired ?? false,
-    ...(input.requirement.standbyBudgetA === undefined ? {} : { standbyBudgetA: input.requirement.standbyBudgetA }),
-    ...(input.requirement.lossBudgetW === undefined ? {} : { lossBudgetW: input.requirement.lossBudgetW }),
-  };
+export const review = defineProcedure({
+  name: "review",
+  input: reviewInput,
+  output: reviewOutput,
+  handler: ({ input, ctx }): ReviewOutput => {
+    const assumptions: string[] = [];
+    const req = toReviewRequirement(input.requirement, assumptions);
+    const set = resolveRuleSet(input.ruleSet ?? "default", ctx, ["ruleSet"]);
+    if (input.ruleSet === undefined) assumptions.push("rule set: the built-in default (common practice)");
+    const flags = {
+      parallelSources: input.requirement.parallelSources ?? false,
+      holdUpRequired: input.requirement.holdUpRequired ?? false,
+      ...(input.requirement.standbyBudgetA === undefined ? {} : { standbyBudgetA: input.requirement.standbyBudgetA }),
+      ...(input.requirement.lossBudgetW === undefined ? {} : { lossBudgetW: input.requirement.lossBudgetW }),
+    };
 
-  const evaluated = input.candidates.map((c, index) => {
-    const path = ["candidates", index, "stage"];
-    const stage = resolveStage(c.stage, ctx.catalog, path, assumptions, c.thermal);
-    const fet = stageMosfet(stage.model);
-    if (fet !== undefined && fet.vdsTempCoPerK === undefined) {
-      assumptions.push(`${path.join(".")}: mosfet.vdsTempCoPerK ${DEFAULT_VDS_TEMPCO_PER_K} /K (+0.1 %/K, memory): the breakdown at the coldest ambient ${req.model.ambientMinC} °C is vdsMaxV scaled by it`);
-    }
-    const transientThermal = transientThermalOf(c.transientThermal, stage.model, [...path.slice(0, 2), "transientThermal"], assumptions);
-    const datasheetMax = c.datasheetMax ? datasheetMaxScale(c.datasheetMax, stage.model, [...path.slice(0, 2), "datasheetMax"]) : undefined;
-    const typicalTiming = req.model.turnOff ? controllerTiming(stage.spec, stage.model, c.turnOffTiming ?? input.requirement.turnOff?.timing, c.turnOffTiming ? [...path.slice(0, 2), "turnOffTiming"] : ["requirement", "turnOff", "timing"], assumptions) : undefined;
-    const turnOffController = worstTurnOffTiming(typicalTiming, c.datasheetMax, [...path.slice(0, 2), "datasheetMax"], assumptions);
-    // Unless the requirement sets its own derating, the clamp window follows the rule set.
-    const transientAllowanceV = input.requirement.deratingFactor === undefined ? transientAllowanceOf(set, stage.model, req.model) : undefined;
-    const r = reviewCandidate(req.model, {
-      stage: stage.model,
-      transientThermal,
-      ...(transientAllowanceV ? { transientAllowanceV } : {}),
-      ...(datasheetMax ? { datasheetMax } : {}),
-      ...(turnOffController ? { turnOffController } : {}),
-      ...(input.curves ? { turnOffWaveform: true } : {}),
+    const evaluated = input.candidates.map((c, index) => {
+      const path = ["candidates", index, "stage"];
+      const stage = resolveStage(c.stage, ctx.catalog, path, assumptions, c.thermal);
+      const fet = stageMosfet(stage.model);
+      if (fet !== undefined && fet.vdsTempCoPerK === undefined) {
+        assumptions.push(
+          `${path.join(".")}: mosfet.vdsTempCoPerK ${DEFAULT_VDS_TEMPCO_PER_K} /K (+0.1 %/K, memory): the breakdown at the coldest ambient ${req.model.ambientMinC} °C is vdsMaxV scaled by it`,
+        );
+      }
+      const transientThermal = transientThermalOf(
+        c.transientThermal,
+        stage.model,
+        [...path.slice(0, 2), "transientThermal"],
+        assumptions,
+      );
+      const datasheetMax = c.datasheetMax
+        ? datasheetMaxScale(c.datasheetMax, stage.model, [...path.slice(0, 2), "datasheetMax"])
+        : undefined;
+      const typicalTiming = req.model.turnOff
+        ? controllerTiming(
+            stage.spec,
+            stage.model,
+            c.turnOffTiming ?? input.requirement.turnOff?.timing,
+            c.turnOffTiming ? [...path.slice(0, 2), "turnOffTiming"] : ["requirement", "turnOff", "timing"],
+            assumptions,
+          )
+        : undefined;
+      const turnOffController = worstTurnOffTiming(
+        typicalTiming,
+        c.datasheetMax,
+        [...path.slice(0, 2), "datasheetMax"],
+        assumptions,
+      );
+      // Unless the requirement sets its own derating, the clamp window follows the rule set.
+      const transientAllowanceV =
+        input.requirement.deratingFactor === undefined ? transientAllowanceOf(set, stage.model, req.model) : undefined;
+      const r = reviewCandidate(req.model, {
+        stage: stage.model,
+        transientThermal,
+        ...(transientAllowanceV ? { transientAllowanceV } : {}),
+        ...(datasheetMax ? { datasheetMax } : {}),
+        ...(turnOffController ? { turnOffController } : {}),
+        ...(input.curves ? { turnOffWaveform: true } : {}),
+      });
+      const ruleInput = reviewRuleInput(stage.model, req.model, flags, r);
+      const rules = evaluateRuleSet(set, ruleInput);
+      const { verdict, reason } = verdictOf(r, rules);
+      const heatsink =
+        r.thermalSizing.outcome === "heatsink-needed" || r.thermalSizing.outcome === "better-path-needed";
+      const cost =
+        stage.spec.costEach === undefined ? undefined : stage.spec.costEach + (heatsink ? (c.heatsinkCost ?? 0) : 0);
+      const worstLossW = r.worst.unsolvedCornerIndexes.length === 0 ? r.worst.lossW?.value : undefined;
+      const m = req.model;
+      const curveSpace = {
+        supplyMinV: m.supplyMinV,
+        ambientMinC: m.ambientMinC,
+        ambientMaxC: m.ambientMaxC,
+        loadScales: m.loadScales,
+        sourceResistanceOhm: m.sourceResistanceOhm,
+        load: m.load,
+      };
+      const curves = input.curves
+        ? reviewCurves(stage.model, datasheetMax ? { ...curveSpace, datasheetMax } : curveSpace, r.corners, r.worst)
+        : undefined;
+      return { index, c, stage, r, ruleInput, rules, verdict, reason, cost, worstLossW, curves };
     });
-    const ruleInput = reviewRuleInput(stage.model, req.model, flags, r);
-    const rules = evaluateRuleSet(set, ruleInput);
-    const { verdict, reason } = verdictOf(r, rules);
-    const heatsink = r.thermalSizing.outcome === "heatsink-needed" || r.thermalSizing.outcome === "better-path-needed";
-    const cost = stage.spec.costEach === undefined ? undefined : stage.spec.costEach + (heatsink ? (c.heatsinkCost ?? 0) : 0);
-    const worstLossW = r.worst.unsolvedCornerIndexes.length === 0 ? r.worst.lossW?.value : undefined;
-    const m = req.model;
-    const curveSpace = { supplyMinV: m.supplyMinV, ambientMinC: m.ambientMinC, ambientMaxC: m.ambientMaxC, loadScales: m.loadScales, sourceResistanceOhm: m.sourceResistanceOhm, load: m.load };
-    const curves = input.curves ? reviewCurves(stage.model, datasheetMax ? { ...curveSpace, datasheetMax } : curveSpace, r.corners, r.worst) : undefined;
-    return { index, c, stage, r, ruleInput, rules, verdict, reason, cost, worstLossW, curves };
-  });
 
-  const ranked = rankCandidates(evaluated.map((e) => ({ index: e.index, verdict: e.verdict, ...(e.worstLossW === undefined ? {} : { worstLossW: e.worstLossW }), ...(e.cost === undefined ? {} : { cost: e.cost }) })));
-  const rankOf = new Map(ranked.map((e, i) => [e.index, i + 1]));
-  const label = (e: (typeof evaluated)[number]) => e.c.label ?? e.stage.spec.name ?? e.stage.partId ?? `candidate ${e.index + 1}`;
-  const rankReason = (e: (typeof evaluated)[number]) =>
-    `${e.reason}; worst-case loss ${e.worstLossW === undefined ? "undefined (a corner has no operating point)" : formatQuantity(e.worstLossW, "W")}${e.cost === undefined ? "" : `; cost ${e.cost}`}`;
+    const ranked = rankCandidates(
+      evaluated.map((e) => ({
+        index: e.index,
+        verdict: e.verdict,
+        ...(e.worstLossW === undefined ? {} : { worstLossW: e.worstLossW }),
+        ...(e.cost === undefined ? {} : { cost: e.cost }),
+      })),
+    );
+    const rankOf = new Map(ranked.map((e, i) => [e.index, i + 1]));
+    const label = (e: (typeof evaluated)[number]) =>
+      e.c.label ?? e.stage.spec.name ?? e.stage.partId ?? `candidate ${e.index + 1}`;
+    const rankReason = (e: (typeof evaluated)[number]) =>
+      `${e.reason}; worst-case loss ${e.worstLossW === undefined ? "undefined (a corner has no operating point)" : formatQuantity(e.worstLossW, "W")}${e.cost === undefined ? "" : `; cost ${e.cost}`}`;
 
-  const mc = input.monteCarlo;
-  if (mc !== undefined && mc.candidate === undefined) assumptions.push("monteCarlo.candidate: 0 (the first candidate, default)");
-  const mcTarget = mc ? evaluated[mc.candidate ?? 0] : undefined;
-  return {
-    modelVersion: MODEL_VERSION,
-    caution: CAUTION,
-    requirement: {
-      supplyClass: req.supplyClass,
-      supplyMinV: req.model.supplyMinV,
-      supplyNominalV: req.model.supplyNominalV,
-      supplyMaxV: req.model.supplyMaxV,
-      reverseV: req.model.reverseV,
-      transients: req.model.transients.map((t) => t.id),
-      sources: req.sources,
-    },
-    ranking: ranked.map((r, i) => {
-      const e = evaluated[r.index];
-      if (e === undefined) throw new Error("unreachable: ranked index out of range");
-      return { rank: i + 1, index: e.index, label: label(e), verdict: e.verdict, reason: rankReason(e) };
-    }),
-    candidates: evaluated.map((e) => ({
-      index: e.index,
-      label: label(e),
-      stage: { kind: e.stage.model.kind, ...(e.stage.spec.name === undefined ? {} : { name: e.stage.spec.name }), ...(e.stage.partId === undefined ? {} : { partId: e.stage.partId }) },
-      rank: rankOf.get(e.index) ?? 0,
-      verdict: e.verdict,
-      rankReason: rankReason(e),
-      // Object.assign: a literal that opens with a spread and then gets fields is V8's slow path.
-      worst: Object.assign(
-        {},
-        e.r.worst.tjC ? { tjC: { value: e.r.worst.tjC.value, corner: e.r.worst.tjC.cornerIndex } } : {},
-        e.r.worst.lossW ? { lossW: { value: e.r.worst.lossW.value, corner: e.r.worst.lossW.cornerIndex } } : {},
-        e.r.worst.dropV ? { dropV: { value: e.r.worst.dropV.value, corner: e.r.worst.dropV.cornerIndex } } : {},
-        e.r.worst.loadMinV ? { loadMinV: { value: e.r.worst.loadMinV.value, corner: e.r.worst.loadMinV.cornerIndex } } : {},
-        { unsolvedCorners: [...e.r.worst.unsolvedCornerIndexes] },
-      ),
-      corners: e.r.corners.map(cornerRow),
-      startUp: e.r.startUp,
-      ...(e.curves === undefined
-        ? {}
-        : {
-            curves: {
-              conditions: e.curves.conditions,
-              load: e.curves.load.map((p) => ({ loadScale: p.loadScale, ...pointRow(p.result) })),
-              ambient: e.curves.ambient.map((p) => ({ ambientC: p.ambientC, ...pointRow(p.result) })),
-            },
-          }),
-      ...(e.r.turnOff === undefined
-        ? {}
-        : {
-            turnOff: {
-              tjC: e.r.turnOff.tjC,
-              tjSource: e.r.turnOff.tjSource,
-              ...(e.r.turnOff.avalancheRatingJ === undefined ? {} : { avalancheRatingJ: e.r.turnOff.avalancheRatingJ }),
-              event: turnOffEventFields(e.r.turnOff.result, req.model.turnOff?.outputV ?? 0, e.r.turnOff.waveform),
-            },
-          }),
-      reverse: e.r.reverse,
-      transients: e.r.transients,
-      thermalSizing: e.r.thermalSizing,
-      ...(e.r.energy ? { energy: e.r.energy } : {}),
-      standby: e.r.standby,
-      metrics: e.ruleInput.metrics,
-      rules: e.rules,
-      ...(e.cost === undefined ? {} : { costTotal: e.cost }),
-    })),
-    ...(mc && mcTarget ? { monteCarlo: reviewMonteCarlo(mc, mcTarget.stage.model, req.model, mcTarget.ruleInput, set) } : {}),
-    assumptions,
-  };
-} });
+    const mc = input.monteCarlo;
+    if (mc !== undefined && mc.candidate === undefined)
+      assumptions.push("monteCarlo.candidate: 0 (the first candidate, default)");
+    const mcTarget = mc ? evaluated[mc.candidate ?? 0] : undefined;
+    return {
+      modelVersion: MODEL_VERSION,
+      caution: CAUTION,
+      requirement: {
+        supplyClass: req.supplyClass,
+        supplyMinV: req.model.supplyMinV,
+        supplyNominalV: req.model.supplyNominalV,
+        supplyMaxV: req.model.supplyMaxV,
+        reverseV: req.model.reverseV,
+        transients: req.model.transients.map((t) => t.id),
+        sources: req.sources,
+      },
+      ranking: ranked.map((r, i) => {
+        const e = evaluated[r.index];
+        if (e === undefined) throw new Error("unreachable: ranked index out of range");
+        return { rank: i + 1, index: e.index, label: label(e), verdict: e.verdict, reason: rankReason(e) };
+      }),
+      candidates: evaluated.map((e) => ({
+        index: e.index,
+        label: label(e),
+        stage: {
+          kind: e.stage.model.kind,
+          ...(e.stage.spec.name === undefined ? {} : { name: e.stage.spec.name }),
+          ...(e.stage.partId === undefined ? {} : { partId: e.stage.partId }),
+        },
+        rank: rankOf.get(e.index) ?? 0,
+        verdict: e.verdict,
+        rankReason: rankReason(e),
+        // Object.assign: a literal that opens with a spread and then gets fields is V8's slow path.
+        worst: Object.assign(
+          {},
+          e.r.worst.tjC ? { tjC: { value: e.r.worst.tjC.value, corner: e.r.worst.tjC.cornerIndex } } : {},
+          e.r.worst.lossW ? { lossW: { value: e.r.worst.lossW.value, corner: e.r.worst.lossW.cornerIndex } } : {},
+          e.r.worst.dropV ? { dropV: { value: e.r.worst.dropV.value, corner: e.r.worst.dropV.cornerIndex } } : {},
+          e.r.worst.loadMinV
+            ? { loadMinV: { value: e.r.worst.loadMinV.value, corner: e.r.worst.loadMinV.cornerIndex } }
+            : {},
+          { unsolvedCorners: [...e.r.worst.unsolvedCornerIndexes] },
+        ),
+        corners: e.r.corners.map(cornerRow),
+        startUp: e.r.startUp,
+        ...(e.curves === undefined
+          ? {}
+          : {
+              curves: {
+                conditions: e.curves.conditions,
+                load: e.curves.load.map((p) => ({ loadScale: p.loadScale, ...pointRow(p.result) })),
+                ambient: e.curves.ambient.map((p) => ({ ambientC: p.ambientC, ...pointRow(p.result) })),
+              },
+            }),
+        ...(e.r.turnOff === undefined
+          ? {}
+          : {
+              turnOff: {
+                tjC: e.r.turnOff.tjC,
+                tjSource: e.r.turnOff.tjSource,
+                ...(e.r.turnOff.avalancheRatingJ === undefined
+                  ? {}
+                  : { avalancheRatingJ: e.r.turnOff.avalancheRatingJ }),
+                event: turnOffEventFields(e.r.turnOff.result, req.model.turnOff?.outputV ?? 0, e.r.turnOff.waveform),
+              },
+            }),
+        reverse: e.r.reverse,
+        transients: e.r.transients,
+        thermalSizing: e.r.thermalSizing,
+        ...(e.r.energy ? { energy: e.r.energy } : {}),
+        standby: e.r.standby,
+        metrics: e.ruleInput.metrics,
+        rules: e.rules,
+        ...(e.cost === undefined ? {} : { costTotal: e.cost }),
+      })),
+      ...(mc && mcTarget
+        ? { monteCarlo: reviewMonteCarlo(mc, mcTarget.stage.model, req.model, mcTarget.ruleInput, set) }
+        : {}),
+      assumptions,
+    };
+  },
+});
 
 /** A corner without an operating point fails outright; otherwise the rule set decides. */
 function verdictOf(r: CandidateReview, rules: RuleSetResult): { verdict: CandidateVerdict; reason: string } {
   const first = r.worst.unsolvedCornerIndexes[0];
   const corner = first === undefined ? undefined : r.corners[first];
   if (corner && !("point" in corner.result)) {
-    return { verdict: "fail", reason: `fail: corner ${first} (${describe(corner)}) has no operating point: ${corner.result.reason}` };
+    return {
+      verdict: "fail",
+      reason: `fail: corner ${first} (${describe(corner)}) has no operating point: ${corner.result.reason}`,
+    };
   }
   const failing = rules.verdicts.find((v) => v.outcome === "fail") ?? rules.verdicts.find((v) => v.outcome === "warn");
   switch (rules.outcome) {
@@ -157,10 +218,18 @@ function verdictOf(r: CandidateReview, rules: RuleSetResult): { verdict: Candida
       return { verdict: "pass", reason: `pass: ${rules.counts.pass} rules passed` };
     case "fail":
     case "warn":
-      return { verdict: rules.outcome, reason: `${rules.outcome}: ${failing?.ruleId ?? "?"} (${failing?.reason ?? failing?.title ?? ""})` };
+      return {
+        verdict: rules.outcome,
+        reason: `${rules.outcome}: ${failing?.ruleId ?? "?"} (${failing?.reason ?? failing?.title ?? ""})`,
+      };
     default: {
-      const gap = rules.verdicts.find((v) => v.notApplicableCode === "missing-value" || v.notApplicableCode === "not-finite");
-      return { verdict: "incomplete", reason: `incomplete: ${gap ? `${gap.ruleId} could not be evaluated (${gap.reason ?? ""})` : "no rule applied"}` };
+      const gap = rules.verdicts.find(
+        (v) => v.notApplicableCode === "missing-value" || v.notApplicableCode === "not-finite",
+      );
+      return {
+        verdict: "incomplete",
+        reason: `incomplete: ${gap ? `${gap.ruleId} could not be evaluated (${gap.reason ?? ""})` : "no rule applied"}`,
+      };
     }
   }
 }
@@ -176,7 +245,16 @@ function cornerRow(c: CornerResult) {
   const r = c.result;
   if ("point" in r) {
     const p = r.point;
-    return { conditions: c.conditions, outcome: r.outcome, mode: p.forward.mode, currentA: p.currentA, dropV: p.forward.dropV, lossW: p.dieLossW, tjC: p.tjC, loadV: p.loadV };
+    return {
+      conditions: c.conditions,
+      outcome: r.outcome,
+      mode: p.forward.mode,
+      currentA: p.currentA,
+      dropV: p.forward.dropV,
+      lossW: p.dieLossW,
+      tjC: p.tjC,
+      loadV: p.loadV,
+    };
   }
   return { conditions: c.conditions, outcome: r.outcome, reason: r.reason };
 }
@@ -184,7 +262,15 @@ function cornerRow(c: CornerResult) {
 function pointRow(r: OperatingPointOutcome) {
   if ("point" in r) {
     const p = r.point;
-    return { outcome: r.outcome, mode: p.forward.mode, currentA: p.currentA, dropV: p.forward.dropV, lossW: p.dieLossW, tjC: p.tjC, loadV: p.loadV };
+    return {
+      outcome: r.outcome,
+      mode: p.forward.mode,
+      currentA: p.currentA,
+      dropV: p.forward.dropV,
+      lossW: p.dieLossW,
+      tjC: p.tjC,
+      loadV: p.loadV,
+    };
   }
   return { outcome: r.outcome, reason: r.reason };
 }

@@ -1,4 +1,11 @@
-import { type SizingCatalogOutput, type SizingSpecOutput, sizingCatalogInput, sizingCatalogOutput, sizingSpecInput, sizingSpecOutput } from "../../contracts/sizing.js";
+import {
+  type SizingCatalogOutput,
+  type SizingSpecOutput,
+  sizingCatalogInput,
+  sizingCatalogOutput,
+  sizingSpecInput,
+  sizingSpecOutput,
+} from "../../contracts/sizing.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { matchCatalog } from "../../domain/sizing/catalog-match.js";
 import { specifyStage } from "../../domain/sizing/stage-spec.js";
@@ -9,7 +16,8 @@ import { resolveRuleSet } from "../map/rule-set.js";
 import { sizingContext } from "../map/sizing-context.js";
 import { defineProcedure } from "../define-procedure.js";
 
-const CAUTION_NOTE = "the specification holds each template's laws (temperature law, gate-drive points, Is(T)) and thermal path; a part with different laws needs its own sizing";
+const CAUTION_NOTE =
+  "the specification holds each template's laws (temperature law, gate-drive points, Is(T)) and thermal path; a part with different laws needs its own sizing";
 
 /**
  * sizing.spec: per template part, the limiting specification (each line with its corner and the
@@ -17,32 +25,81 @@ const CAUTION_NOTE = "the specification holds each template's laws (temperature 
  * itself, with margins and the first line it misses, ranked as the review ranks.
  */
 export const sizing = [
-  defineProcedure({ name: "sizing.spec", input: sizingSpecInput, output: sizingSpecOutput, handler: ({ input, ctx }): SizingSpecOutput => {
-    const assumptions: string[] = [CAUTION_NOTE];
-    const req = toReviewRequirement(input.requirement, assumptions);
-    const set = resolveRuleSet(input.ruleSet ?? "default", ctx, ["ruleSet"]);
-    if (input.ruleSet === undefined) assumptions.push("rule set: the built-in default (common practice)");
-    const specifications = input.templates.map((c, index) => {
-      const stage = resolveStage(c.stage, ctx.catalog, ["templates", index, "stage"], assumptions, c.thermal);
-      const sctx = sizingContext(input.requirement, req, set, stage, c, input.turnOff, ["templates", index], assumptions);
-      const spec = specifyStage(sctx, stage.model);
-      return { index, label: c.label ?? stage.spec.name ?? stage.partId ?? `template ${index}`, stage: stageLabel(stage.spec, stage.partId), items: [...spec.items] };
-    });
-    return { modelVersion: MODEL_VERSION, caution: CAUTION, ruleSet: set.stamp, specifications, assumptions };
-  } }),
-  defineProcedure({ name: "sizing.catalog", input: sizingCatalogInput, output: sizingCatalogOutput, handler: ({ input, ctx }): SizingCatalogOutput => {
-    const assumptions: string[] = [CAUTION_NOTE];
-    const req = toReviewRequirement(input.requirement, assumptions);
-    const set = resolveRuleSet(input.ruleSet ?? "default", ctx, ["ruleSet"]);
-    if (input.ruleSet === undefined) assumptions.push("rule set: the built-in default (common practice)");
-    const wanted = input.kinds === undefined ? undefined : new Set<string>(input.kinds);
-    const parts = ctx.catalog.list().filter((p) => wanted === undefined || wanted.has(p.stage.kind));
-    const candidates = parts.map((p) => {
-      const stage = resolveStage({ kind: "catalog-part", partId: p.id }, ctx.catalog, ["catalog", p.id], assumptions, input.thermal);
-      const sctx = sizingContext(input.requirement, req, set, stage, { datasheetMax: input.datasheetMax }, input.turnOff);
-      return { ctx: sctx, partId: p.id, label: p.stage.name ?? p.description, stage: stage.model, ...(p.stage.costEach === undefined ? {} : { cost: p.stage.costEach }) };
-    });
-    const matched = matchCatalog(candidates);
-    return { modelVersion: MODEL_VERSION, caution: CAUTION, ruleSet: set.stamp, parts: matched.map((m) => ({ ...m, items: [...m.items] })), assumptions };
-  } }),
+  defineProcedure({
+    name: "sizing.spec",
+    input: sizingSpecInput,
+    output: sizingSpecOutput,
+    handler: ({ input, ctx }): SizingSpecOutput => {
+      const assumptions: string[] = [CAUTION_NOTE];
+      const req = toReviewRequirement(input.requirement, assumptions);
+      const set = resolveRuleSet(input.ruleSet ?? "default", ctx, ["ruleSet"]);
+      if (input.ruleSet === undefined) assumptions.push("rule set: the built-in default (common practice)");
+      const specifications = input.templates.map((c, index) => {
+        const stage = resolveStage(c.stage, ctx.catalog, ["templates", index, "stage"], assumptions, c.thermal);
+        const sctx = sizingContext(
+          input.requirement,
+          req,
+          set,
+          stage,
+          c,
+          input.turnOff,
+          ["templates", index],
+          assumptions,
+        );
+        const spec = specifyStage(sctx, stage.model);
+        return {
+          index,
+          label: c.label ?? stage.spec.name ?? stage.partId ?? `template ${index}`,
+          stage: stageLabel(stage.spec, stage.partId),
+          items: [...spec.items],
+        };
+      });
+      return { modelVersion: MODEL_VERSION, caution: CAUTION, ruleSet: set.stamp, specifications, assumptions };
+    },
+  }),
+  defineProcedure({
+    name: "sizing.catalog",
+    input: sizingCatalogInput,
+    output: sizingCatalogOutput,
+    handler: ({ input, ctx }): SizingCatalogOutput => {
+      const assumptions: string[] = [CAUTION_NOTE];
+      const req = toReviewRequirement(input.requirement, assumptions);
+      const set = resolveRuleSet(input.ruleSet ?? "default", ctx, ["ruleSet"]);
+      if (input.ruleSet === undefined) assumptions.push("rule set: the built-in default (common practice)");
+      const wanted = input.kinds === undefined ? undefined : new Set<string>(input.kinds);
+      const parts = ctx.catalog.list().filter((p) => wanted === undefined || wanted.has(p.stage.kind));
+      const candidates = parts.map((p) => {
+        const stage = resolveStage(
+          { kind: "catalog-part", partId: p.id },
+          ctx.catalog,
+          ["catalog", p.id],
+          assumptions,
+          input.thermal,
+        );
+        const sctx = sizingContext(
+          input.requirement,
+          req,
+          set,
+          stage,
+          { datasheetMax: input.datasheetMax },
+          input.turnOff,
+        );
+        return {
+          ctx: sctx,
+          partId: p.id,
+          label: p.stage.name ?? p.description,
+          stage: stage.model,
+          ...(p.stage.costEach === undefined ? {} : { cost: p.stage.costEach }),
+        };
+      });
+      const matched = matchCatalog(candidates);
+      return {
+        modelVersion: MODEL_VERSION,
+        caution: CAUTION,
+        ruleSet: set.stamp,
+        parts: matched.map((m) => ({ ...m, items: [...m.items] })),
+        assumptions,
+      };
+    },
+  }),
 ] as const;

@@ -18,10 +18,21 @@ interface Spec {
 
 // the spec is a file (a bulk body is too large for the command line)
 const spec = JSON.parse(readFileSync(process.argv[2] ?? "", "utf8")) as Spec;
-const requests = spec.bodies.map((b) => ({ method: "POST" as const, path: b.path, body: b.body, headers: { "content-type": "application/json" } }));
+const requests = spec.bodies.map((b) => ({
+  method: "POST" as const,
+  path: b.path,
+  body: b.body,
+  headers: { "content-type": "application/json" },
+}));
 
 function run(durationS: number) {
-  return autocannon({ url: spec.url, connections: spec.connections, duration: durationS, requests, timeout: spec.timeoutS ?? 10 });
+  return autocannon({
+    url: spec.url,
+    connections: spec.connections,
+    duration: durationS,
+    requests,
+    timeout: spec.timeoutS ?? 10,
+  });
 }
 
 if ((spec.warmupS ?? 0) > 0) await run(spec.warmupS as number);

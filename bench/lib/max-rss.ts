@@ -2,4 +2,7 @@
 import { appendFileSync } from "node:fs";
 
 const file = process.env.BENCH_RSS_FILE;
-if (file) process.on("exit", () => appendFileSync(file, `${JSON.stringify({ pid: process.pid, maxRssKB: process.resourceUsage().maxRSS })}\n`));
+if (file)
+  process.on("exit", () =>
+    appendFileSync(file, `${JSON.stringify({ pid: process.pid, maxRssKB: process.resourceUsage().maxRSS })}\n`),
+  );

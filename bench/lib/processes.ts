@@ -21,10 +21,16 @@ export interface Server {
 
 /** A server script on a loopback port; resolves once it prints where it listens. */
 export function startServer(script: string, env: Record<string, string> = {}): Promise<Server> {
-  const child = spawn(process.execPath, [script], { env: { ...process.env, PORT: "0", HOST: "127.0.0.1", LOG_LEVEL: "info", ...env }, stdio: ["ignore", "pipe", "pipe"] });
+  const child = spawn(process.execPath, [script], {
+    env: { ...process.env, PORT: "0", HOST: "127.0.0.1", LOG_LEVEL: "info", ...env },
+    stdio: ["ignore", "pipe", "pipe"],
+  });
   const output: string[] = [];
   return new Promise((resolve, reject) => {
-    const timer = setTimeout(() => reject(new Error(`${script} did not start: ${output.join("").slice(-2000)}`)), 30_000);
+    const timer = setTimeout(
+      () => reject(new Error(`${script} did not start: ${output.join("").slice(-2000)}`)),
+      30_000,
+    );
     child.stdout?.on("data", (d: Buffer) => {
       // keep only the start of the log: the request lines are not needed and would grow without bound
       if (output.length < 50) output.push(String(d));
@@ -60,21 +66,36 @@ export interface Load {
 }
 
 /** autocannon in its own process (see load-driver.ts). */
-export function drive(base: string, bodies: { path: string; body: string }[], connections: number, durationS: number, warmupS = 1): Promise<Load> {
+export function drive(
+  base: string,
+  bodies: { path: string; body: string }[],
+  connections: number,
+  durationS: number,
+  warmupS = 1,
+): Promise<Load> {
   const specDir = mkdtempSync(join(tmpdir(), "backstop-load-"));
   const spec = join(specDir, "spec.json");
   writeFileSync(spec, JSON.stringify({ url: base, connections, durationS, warmupS, bodies, timeoutS: 30 }));
   return new Promise<Load>((resolve, reject) => {
-    const child = spawn(process.execPath, [dist("bench", "lib", "load-driver.js"), spec], { stdio: ["ignore", "pipe", "inherit"] });
+    const child = spawn(process.execPath, [dist("bench", "lib", "load-driver.js"), spec], {
+      stdio: ["ignore", "pipe", "inherit"],
+    });
     let out = "";
     child.stdout.on("data", (d: Buffer) => {
       out += String(d);
     });
-    child.once("exit", (code) => (code === 0 ? resolve(JSON.parse(out.trim().split("\n").at(-1) ?? "{}") as Load) : reject(new Error(`load driver exited ${code}`))));
+    child.once("exit", (code) =>
+      code === 0
+        ? resolve(JSON.parse(out.trim().split("\n").at(-1) ?? "{}") as Load)
+        : reject(new Error(`load driver exited ${code}`)),
+    );
   }).finally(() => rmSync(specDir, { recursive: true, force: true }));
 }
 
-export function runNode(args: string[], env: Record<string, string> = {}): Promise<{ code: number | null; stdout: string; stderr: string; wallMs: number }> {
+export function runNode(
+  args: string[],
+  env: Record<string, string> = {},
+): Promise<{ code: number | null; stdout: string; stderr: string; wallMs: number }> {
   const t0 = performance.now();
   return new Promise((resolve) => {
     const child = spawn(process.execPath, args, { env: { ...process.env, ...env }, stdio: ["ignore", "pipe", "pipe"] });

@@ -18,10 +18,17 @@ export async function batch(): Promise<PartResult> {
     const input = join(dir, "in.jsonl");
     const out = createWriteStream(input);
     for (let k = 0; k < lines; k += 1) {
-      if (!out.write(`${JSON.stringify({ id: k, procedure: "operatingPoint", input: opCase(k) })}\n`)) await new Promise<void>((r) => out.once("drain", () => r()));
+      if (!out.write(`${JSON.stringify({ id: k, procedure: "operatingPoint", input: opCase(k) })}\n`))
+        await new Promise<void>((r) => out.once("drain", () => r()));
     }
     await new Promise<void>((r) => out.end(() => r()));
-    const rssOf = (file: string) => Math.max(...readFileSync(file, "utf8").trim().split("\n").map((l) => (JSON.parse(l) as { maxRssKB: number }).maxRssKB)) / 1024;
+    const rssOf = (file: string) =>
+      Math.max(
+        ...readFileSync(file, "utf8")
+          .trim()
+          .split("\n")
+          .map((l) => (JSON.parse(l) as { maxRssKB: number }).maxRssKB),
+      ) / 1024;
     const passMs: number[] = [];
     const batchMs: number[] = [];
     const passRss: number[] = [];
@@ -30,12 +37,27 @@ export async function batch(): Promise<PartResult> {
     for (let r = 0; r < rounds; r += 1) {
       log(`batch: pass-through of ${lines} lines (round ${r + 1} of ${rounds})`);
       const passRssFile = join(dir, `pass-${r}.rss`);
-      const pass = await runNode(["--import", RSS_PRELOAD, dist("bench", "lib", "batch-passthrough.js"), input, join(dir, `pass-${r}.jsonl`)], { BENCH_RSS_FILE: passRssFile });
+      const pass = await runNode(
+        ["--import", RSS_PRELOAD, dist("bench", "lib", "batch-passthrough.js"), input, join(dir, `pass-${r}.jsonl`)],
+        { BENCH_RSS_FILE: passRssFile },
+      );
       if (pass.code !== 0) throw new Error(`pass-through failed: ${pass.stderr}`);
       rmSync(join(dir, `pass-${r}.jsonl`), { force: true });
       log(`batch: backstop batch of ${lines} lines (round ${r + 1} of ${rounds})`);
       const batchRssFile = join(dir, `batch-${r}.rss`);
-      const run = await runNode(["--import", RSS_PRELOAD, join(root, "bin", "backstop.mjs"), "batch", "--in", input, "--out", join(dir, `out-${r}.jsonl`)], { BENCH_RSS_FILE: batchRssFile, BACKSTOP_PROGRESS_MS: "60000" });
+      const run = await runNode(
+        [
+          "--import",
+          RSS_PRELOAD,
+          join(root, "bin", "backstop.mjs"),
+          "batch",
+          "--in",
+          input,
+          "--out",
+          join(dir, `out-${r}.jsonl`),
+        ],
+        { BENCH_RSS_FILE: batchRssFile, BACKSTOP_PROGRESS_MS: "60000" },
+      );
       if (run.code !== 0) throw new Error(`batch failed (${run.code}): ${run.stderr}`);
       rmSync(join(dir, `out-${r}.jsonl`), { force: true });
       passMs.push(pass.wallMs);
@@ -50,11 +72,42 @@ export async function batch(): Promise<PartResult> {
     const n = lines.toLocaleString("en-US");
     return {
       rows: [
-        { part: "batch", metric: `pass-through (parse + re-serialise), ${n} lines (median of ${rounds})`, value: Math.round(rate(median(passMs))), unit: "lines/s" },
-        { part: "batch", metric: `backstop batch, default workers (median of ${rounds} alternating)`, value: Math.round(rate(median(batchMs))), unit: "lines/s", baseline: "pass-through", ratio: round(r.median), spread: [round(r.spread[0]), round(r.spread[1])], target: "≥ 0.4", pass: r.median >= 0.4 },
-        { part: "batch", metric: `backstop batch peak RSS, process and its threads (median of ${rounds})`, value: round(peak, 0), unit: "MB", spread: [round(Math.min(...batchRss), 0), round(Math.max(...batchRss), 0)], target: "≤ 300", pass: peak <= 300 },
+        {
+          part: "batch",
+          metric: `pass-through (parse + re-serialise), ${n} lines (median of ${rounds})`,
+          value: Math.round(rate(median(passMs))),
+          unit: "lines/s",
+        },
+        {
+          part: "batch",
+          metric: `backstop batch, default workers (median of ${rounds} alternating)`,
+          value: Math.round(rate(median(batchMs))),
+          unit: "lines/s",
+          baseline: "pass-through",
+          ratio: round(r.median),
+          spread: [round(r.spread[0]), round(r.spread[1])],
+          target: "≥ 0.4",
+          pass: r.median >= 0.4,
+        },
+        {
+          part: "batch",
+          metric: `backstop batch peak RSS, process and its threads (median of ${rounds})`,
+          value: round(peak, 0),
+          unit: "MB",
+          spread: [round(Math.min(...batchRss), 0), round(Math.max(...batchRss), 0)],
+          target: "≤ 300",
+          pass: peak <= 300,
+        },
       ],
-      details: { lines, rounds, passThroughMs: passMs, batchMs, passThroughRssMB: passRss, batchRssMB: batchRss, batchStderr },
+      details: {
+        lines,
+        rounds,
+        passThroughMs: passMs,
+        batchMs,
+        passThroughRssMB: passRss,
+        batchRssMB: batchRss,
+        batchStderr,
+      },
     };
   } finally {
     rmSync(dir, { recursive: true, force: true });

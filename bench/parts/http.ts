@@ -16,7 +16,10 @@ export async function httpOverhead(): Promise<PartResult> {
   const seconds = Number(process.env.BENCH_HTTP_SECONDS ?? (quick ? 2 : 5));
   const rounds = Number(process.env.BENCH_ROUNDS ?? (quick ? 3 : 5));
   const logLevel = process.env.BENCH_LOG_LEVEL ?? "info";
-  const servers = await Promise.all([startServer(dist("bench", "lib", "echo-hono.js")), startServer(MAIN, { LOG_LEVEL: logLevel })]);
+  const servers = await Promise.all([
+    startServer(dist("bench", "lib", "echo-hono.js")),
+    startServer(MAIN, { LOG_LEVEL: logLevel }),
+  ]);
   const [echoHono, backstop] = servers;
   const targets = [
     { name: "Hono echo", base: echoHono.base, path: "/echo" },
@@ -53,9 +56,23 @@ export async function httpOverhead(): Promise<PartResult> {
       ...(guarded ? { target: `≥ ${GUARD}`, pass: r.median >= GUARD } : {}),
     });
     const p99 = median(ls.map((l) => l.p99Ms));
-    rows.push({ part: "http", metric: `${t.name} p99 (median of ${rounds})`, value: p99, unit: "ms", target: "≤ 20", pass: p99 <= 20 });
+    rows.push({
+      part: "http",
+      metric: `${t.name} p99 (median of ${rounds})`,
+      value: p99,
+      unit: "ms",
+      target: "≤ 20",
+      pass: p99 <= 20,
+    });
     const bad = ls.reduce((s, l) => s + l.errors + l.timeouts + l.non2xx, 0);
-    rows.push({ part: "http", metric: `${t.name} errors + timeouts + non-2xx`, value: bad, unit: "", target: "0", pass: bad === 0 });
+    rows.push({
+      part: "http",
+      metric: `${t.name} errors + timeouts + non-2xx`,
+      value: bad,
+      unit: "",
+      target: "0",
+      pass: bad === 0,
+    });
   }
   return { rows, details: { seconds, rounds, connections: 32, logLevel, runs: got } };
 }

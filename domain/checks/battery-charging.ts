@@ -12,7 +12,12 @@ export interface ChargingModel {
   readonly currentLimitA?: number;
   readonly ambientC: number;
   /** Stop at the first of: target SoC reached, current below a taper, source SoC floor, time. */
-  readonly stop: { readonly targetSoc: number; readonly minCurrentA: number; readonly sourceMinSoc: number; readonly maxTimeS: number };
+  readonly stop: {
+    readonly targetSoc: number;
+    readonly minCurrentA: number;
+    readonly sourceMinSoc: number;
+    readonly maxTimeS: number;
+  };
   /** Relative tolerance of the adaptive step (absolute: 1e-9 of the target's capacity). */
   readonly rtol: number;
 }
@@ -45,7 +50,12 @@ export type ChargingOutcome =
         readonly limiterLossJ: number;
         readonly balanceResidual: number;
       };
-      readonly errorBound: { readonly chargeC: number; readonly targetSoc: number; readonly timeS: number; readonly stageLossJ: number };
+      readonly errorBound: {
+        readonly chargeC: number;
+        readonly targetSoc: number;
+        readonly timeS: number;
+        readonly stageLossJ: number;
+      };
       readonly peakStageTjC: number;
       readonly stageTjMaxC: number;
       /** The stage's junction passes its limit at some point of the charge. */
@@ -53,7 +63,12 @@ export type ChargingOutcome =
       readonly steps: number;
       readonly reverse: ReverseCheck;
     }
-  | { readonly outcome: "no-charge"; readonly reason: string; readonly initialCurrentA: number; readonly reverse: ReverseCheck }
+  | {
+      readonly outcome: "no-charge";
+      readonly reason: string;
+      readonly initialCurrentA: number;
+      readonly reverse: ReverseCheck;
+    }
   | { readonly outcome: "integration-failed"; readonly reason: string }
   | { readonly outcome: "thermal-runaway"; readonly reason: string };
 
@@ -62,7 +77,12 @@ export type ChargingOutcome =
  * time), warm-started from startK. Returns the (limited) branch and the current the loop would
  * carry without the limit, whose crossing of the limit is a kink of the charge curve.
  */
-function branchAt(m: ChargingModel, socS: number, socT: number, startK: number): { b: BranchState; unlimitedA: number; tK: number } | undefined {
+function branchAt(
+  m: ChargingModel,
+  socS: number,
+  socT: number,
+  startK: number,
+): { b: BranchState; unlimitedA: number; tK: number } | undefined {
   const taK = cToK(m.ambientC);
   const rth = totalRthKPerW(m.stage.thermal);
   const vs = ocvV(m.source, socS);
@@ -101,7 +121,8 @@ function integrateCharge(m: ChargingModel, rtol: number, at: At): RawRun | strin
   const socS = (q: number): number => m.source.initialSoc - q / m.source.capacityC;
   const socT = (q: number): number => m.target.initialSoc + q / m.target.capacityC;
   let peakTK = cToK(m.ambientC);
-  const margins = (q: number, i: number): number => Math.min(m.stop.targetSoc - socT(q), i - m.stop.minCurrentA, socS(q) - m.stop.sourceMinSoc);
+  const margins = (q: number, i: number): number =>
+    Math.min(m.stop.targetSoc - socT(q), i - m.stop.minCurrentA, socS(q) - m.stop.sourceMinSoc);
   const rhs = (_t: number, y: readonly number[]): number[] => {
     const r = at(y[0] ?? 0);
     peakTK = Math.max(peakTK, r.tK);
@@ -119,7 +140,8 @@ function integrateCharge(m: ChargingModel, rtol: number, at: At): RawRun | strin
     const bpS = Math.max(...m.source.ocvPoints.map((p) => p.soc).filter((x) => x < socS(q0) - 1e-12), -1);
     const lim = m.currentLimitA;
     const limSign = lim === undefined ? 0 : Math.sign(unlimitedA(q0) - lim) || 1;
-    const kink = (q: number): number => Math.min(bpT - socT(q), socS(q) - bpS, lim === undefined ? 1 : limSign * (unlimitedA(q) - lim));
+    const kink = (q: number): number =>
+      Math.min(bpT - socT(q), socS(q) - bpS, lim === undefined ? 1 : limSign * (unlimitedA(q) - lim));
     const res = integrateRk45(rhs, t, y, m.stop.maxTimeS, {
       rtol,
       atol: 1e-9 * m.target.capacityC,
@@ -128,7 +150,8 @@ function integrateCharge(m: ChargingModel, rtol: number, at: At): RawRun | strin
       maxSteps: 200_000,
       event: (_t, yy) => Math.min(margins(yy[0] ?? 0, at(yy[0] ?? 0).b.currentA), kink(yy[0] ?? 0)),
     });
-    if (res.outcome !== "event" && res.outcome !== "end") return `the adaptive integration stopped: ${res.outcome} at t = ${res.t} s`;
+    if (res.outcome !== "event" && res.outcome !== "end")
+      return `the adaptive integration stopped: ${res.outcome} at t = ${res.t} s`;
     res.localErrorSum.forEach((e, i) => {
       errSum[i] = (errSum[i] ?? 0) + e;
     });
@@ -137,7 +160,17 @@ function integrateCharge(m: ChargingModel, rtol: number, at: At): RawRun | strin
     y = res.y;
     const q = y[0] ?? 0;
     if (res.outcome === "end" || !(margins(q, at(q).b.currentA) > 0)) {
-      return { timeS: t, chargeC: q, stageLossJ: y[1] ?? 0, resistanceLossJ: y[2] ?? 0, limiterLossJ: y[3] ?? 0, ended: res.outcome === "end", localErrorSum: errSum, steps, peakTK };
+      return {
+        timeS: t,
+        chargeC: q,
+        stageLossJ: y[1] ?? 0,
+        resistanceLossJ: y[2] ?? 0,
+        limiterLossJ: y[3] ?? 0,
+        ended: res.outcome === "end",
+        localErrorSum: errSum,
+        steps,
+        peakTK,
+      };
     }
   }
   return "more than 1000 smooth pieces: the charge current keeps switching";
@@ -168,7 +201,20 @@ export function chargeBattery(m: ChargingModel): ChargingOutcome {
     const r = branchAt(m, socS(q), socT(q), lastK);
     if (r === undefined) {
       failed = "the stage junction has no stable temperature (thermal runaway) at this current";
-      return { b: { currentA: 0, stageV: 0, stageLossW: 0, resistanceLossW: 0, limiterLossW: 0, mode: "idle", blocks: false, currentLimited: false }, unlimitedA: 0, tK: cToK(m.ambientC) };
+      return {
+        b: {
+          currentA: 0,
+          stageV: 0,
+          stageLossW: 0,
+          resistanceLossW: 0,
+          limiterLossW: 0,
+          mode: "idle",
+          blocks: false,
+          currentLimited: false,
+        },
+        unlimitedA: 0,
+        tK: cToK(m.ambientC),
+      };
     }
     lastK = r.tK;
     if (memo.size > 64) memo.clear();
@@ -198,7 +244,8 @@ export function chargeBattery(m: ChargingModel): ChargingOutcome {
   const targetInJ = capT * ocvIntegralVs(m.target, m.target.initialSoc, socT(q));
   const losses = run.stageLossJ + run.resistanceLossJ + run.limiterLossJ;
   const chargeBound = Math.max(run.localErrorSum[0] ?? 0, 2 * Math.abs(fine.chargeC - q));
-  const timeLocal = stoppedBy === "time-limit" ? 0 : (run.localErrorSum[0] ?? 0) / Math.max(Math.abs(end.currentA), 1e-300);
+  const timeLocal =
+    stoppedBy === "time-limit" ? 0 : (run.localErrorSum[0] ?? 0) / Math.max(Math.abs(end.currentA), 1e-300);
   return {
     outcome: "charged",
     stoppedBy,
@@ -245,6 +292,13 @@ function stopReason(m: ChargingModel, sS: number, sT: number, i: number): StopRe
 export function reverseCheck(m: ChargingModel, targetSoc: number): ReverseCheck {
   const sourceOcvV = ocvV(m.source, 0);
   const targetOcvV = ocvV(m.target, targetSoc);
-  const b = branchCurrent(m.stage, sourceOcvV, m.source.internalResistanceOhm, targetOcvV, m.target.internalResistanceOhm, cToK(m.ambientC));
+  const b = branchCurrent(
+    m.stage,
+    sourceOcvV,
+    m.source.internalResistanceOhm,
+    targetOcvV,
+    m.target.internalResistanceOhm,
+    cToK(m.ambientC),
+  );
   return { sourceOcvV, targetOcvV, backCurrentA: -b.currentA, blocks: b.blocks || b.currentA >= 0, mode: b.mode };
 }

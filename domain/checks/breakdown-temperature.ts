@@ -35,5 +35,7 @@ export function stageMosfet(stage: StageModel): MosfetModel | undefined {
  */
 export function mosfetBreakdownColdV(stage: StageModel, ambientMinC: number): number | undefined {
   const m = stageMosfet(stage);
-  return m === undefined ? undefined : breakdownAtTjV(m.vdsMaxV, m.vdsTempCoPerK ?? DEFAULT_VDS_TEMPCO_PER_K, ambientMinC);
+  return m === undefined
+    ? undefined
+    : breakdownAtTjV(m.vdsMaxV, m.vdsTempCoPerK ?? DEFAULT_VDS_TEMPCO_PER_K, ambientMinC);
 }

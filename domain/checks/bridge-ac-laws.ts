@@ -1,13 +1,23 @@
 import { type AcBridgeCircuit, type ForwardLaw, type PairLaws, sourceAndFilterOf } from "../solve/ac-bridge-circuit.js";
 import type { BridgeAcModel } from "./bridge-ac.js";
-import { BRIDGE_POSITIONS, type BridgePosition, elementLaw, gateDriveOf, isControlledElement } from "./bridge-element.js";
+import {
+  BRIDGE_POSITIONS,
+  type BridgePosition,
+  elementLaw,
+  gateDriveOf,
+  isControlledElement,
+} from "./bridge-element.js";
 
 /**
  * The AC bridge's circuit at fixed element temperatures: the source and filter of the model and
  * the forward laws of the conducting pairs as the stage solver asks for them (per step, at the
  * instantaneous supply that sets each controller's gate drive).
  */
-export function buildCircuit(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, number>>, parts: Readonly<Record<BridgePosition, string>>): AcBridgeCircuit {
+export function buildCircuit(
+  m: BridgeAcModel,
+  tjK: Readonly<Record<BridgePosition, number>>,
+  parts: Readonly<Record<BridgePosition, string>>,
+): AcBridgeCircuit {
   // Positions holding the same part at the same temperature share one law (the stage solver
   // evaluates a pair's law once when both elements are the same).
   const canonical = new Map<BridgePosition, BridgePosition>();
@@ -74,6 +84,10 @@ export function buildCircuit(m: BridgeAcModel, tjK: Readonly<Record<BridgePositi
 }
 
 function samePairs(a: PairLaws, b: PairLaws): boolean {
-  return a.positive[0] === b.positive[0] && a.positive[1] === b.positive[1] && a.negative[0] === b.negative[0] && a.negative[1] === b.negative[1];
+  return (
+    a.positive[0] === b.positive[0] &&
+    a.positive[1] === b.positive[1] &&
+    a.negative[0] === b.negative[0] &&
+    a.negative[1] === b.negative[1]
+  );
 }
-

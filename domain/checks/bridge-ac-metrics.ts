@@ -3,7 +3,12 @@ import type { ElementSlot, PeriodIntegrals } from "../solve/ac-bridge-period.js"
 import type { BridgePosition } from "./bridge-element.js";
 
 /** Slot of each position in the period accumulators: positive pair 0, 1; negative pair 2, 3. */
-export const SLOT: Readonly<Record<BridgePosition, ElementSlot>> = { line1High: 0, line2Low: 1, line2High: 2, line1Low: 3 };
+export const SLOT: Readonly<Record<BridgePosition, ElementSlot>> = {
+  line1High: 0,
+  line2Low: 1,
+  line2High: 2,
+  line1Low: 3,
+};
 
 /** Conduction threshold as a fraction of the element's peak current (the diode law never reaches zero exactly). */
 export const CONDUCTION_THRESHOLD = 1e-3;
@@ -90,7 +95,12 @@ export function circuitMetrics(
   };
 }
 
-export function elementMetrics(g: PeriodIntegrals, slot: ElementSlot, periodS: number, trace: readonly Snapshot[]): AcElementMetrics {
+export function elementMetrics(
+  g: PeriodIntegrals,
+  slot: ElementSlot,
+  periodS: number,
+  trace: readonly Snapshot[],
+): AcElementMetrics {
   const peak = g.elementPeakA[slot] ?? 0;
   return {
     averageCurrentA: (g.elementAs[slot] ?? 0) / periodS,

@@ -16,7 +16,8 @@ export function validateAcModel(m: AcInputs): { path: string; reason: string } |
     ["capacitanceF", m.capacitanceF],
   ];
   for (const [path, v] of positive) {
-    if (!(Number.isFinite(v) && v > 0)) return { path, reason: `${path} must be a finite number above zero (got ${v})` };
+    if (!(Number.isFinite(v) && v > 0))
+      return { path, reason: `${path} must be a finite number above zero (got ${v})` };
   }
   const nonNegative: readonly [string, number][] = [
     ["sourceResistanceOhm", m.sourceResistanceOhm],
@@ -24,12 +25,17 @@ export function validateAcModel(m: AcInputs): { path: string; reason: string } |
     ["esrOhm", m.esrOhm],
   ];
   for (const [path, v] of nonNegative) {
-    if (!(Number.isFinite(v) && v >= 0)) return { path, reason: `${path} must be a finite number of zero or more (got ${v})` };
+    if (!(Number.isFinite(v) && v >= 0))
+      return { path, reason: `${path} must be a finite number of zero or more (got ${v})` };
   }
   if (!Number.isFinite(m.ambientC)) return { path: "ambientC", reason: "ambientC must be finite" };
   const l = m.load;
   const [path, v] =
-    l.kind === "resistive" ? ["load.resistanceOhm", l.resistanceOhm] : l.kind === "constant-current" ? ["load.currentA", l.currentA] : ["load.powerW", l.powerW];
+    l.kind === "resistive"
+      ? ["load.resistanceOhm", l.resistanceOhm]
+      : l.kind === "constant-current"
+        ? ["load.currentA", l.currentA]
+        : ["load.powerW", l.powerW];
   if (!(Number.isFinite(v) && v > 0)) return { path, reason: `${path} must be a finite number above zero (got ${v})` };
   return undefined;
 }

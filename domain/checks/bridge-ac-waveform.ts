@@ -31,7 +31,11 @@ export function nodeElementCurrentA(s: Snapshot, position: BridgePosition): numb
  * maximum (so the sampled peaks equal the reported peak currents and ripple exactly). No node is
  * interpolated or recomputed.
  */
-export function acPeriodWaveform(trace: readonly Snapshot[], periodS: number, points = AC_WAVEFORM_POINTS): AcPeriodWaveform {
+export function acPeriodWaveform(
+  trace: readonly Snapshot[],
+  periodS: number,
+  points = AC_WAVEFORM_POINTS,
+): AcPeriodWaveform {
   // Nodes in time order, one per time (a step's end node is the next step's start node).
   const nodes = trace.filter((s, i) => i === 0 || s.t > (trace[i - 1]?.t ?? Number.NEGATIVE_INFINITY));
   const keep = new Set<number>();
@@ -55,13 +59,21 @@ export function acPeriodWaveform(trace: readonly Snapshot[], periodS: number, po
   for (const p of BRIDGE_POSITIONS) keep.add(argBest((s) => nodeElementCurrentA(s, p)));
   keep.add(argBest((s) => s.outV));
   keep.add(argBest((s) => -s.outV));
-  const picked = [...keep].sort((a, b) => a - b).map((i) => nodes[i]).filter((s): s is Snapshot => s !== undefined);
+  const picked = [...keep]
+    .sort((a, b) => a - b)
+    .map((i) => nodes[i])
+    .filter((s): s is Snapshot => s !== undefined);
   const column = (p: BridgePosition) => picked.map((s) => nodeElementCurrentA(s, p));
   return {
     timeS: picked.map((s) => s.t),
     sourceV: picked.map((s) => s.sourceV),
     outputV: picked.map((s) => s.outV),
-    elementCurrentA: { line1High: column("line1High"), line2High: column("line2High"), line1Low: column("line1Low"), line2Low: column("line2Low") },
+    elementCurrentA: {
+      line1High: column("line1High"),
+      line2High: column("line2High"),
+      line1Low: column("line1Low"),
+      line2Low: column("line2Low"),
+    },
     nodes: nodes.length,
   };
 }

@@ -6,7 +6,13 @@ import { SEARCH_ABOVE_LIMIT_K } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
 import { mirrorState, wholeFromHalf, wholeTraceFromHalf } from "../solve/ac-bridge-half-wave.js";
 import { newtonPredictor, type PeriodMap, shootPeriodic } from "../solve/periodic-shooting.js";
-import { type AcCircuitMetrics, type AcElementMetrics, SLOT, circuitMetrics, elementMetrics } from "./bridge-ac-metrics.js";
+import {
+  type AcCircuitMetrics,
+  type AcElementMetrics,
+  SLOT,
+  circuitMetrics,
+  elementMetrics,
+} from "./bridge-ac-metrics.js";
 import { type AcPeriodWaveform, acPeriodWaveform } from "./bridge-ac-waveform.js";
 import { validateAcModel } from "./bridge-ac-validate.js";
 import { buildCircuit } from "./bridge-ac-laws.js";
@@ -41,7 +47,12 @@ export interface AcSteadyState extends AcCircuitMetrics {
    * (a half-period map of a symmetric bridge counts ½, the predictor's coarse map included);
    * integrator steps over the converged period (the half period's twice, on the half map).
    */
-  readonly solver: { readonly shootingIterations: number; readonly periodsIntegrated: number; readonly stepsLastPeriod: number; readonly thermalIterations: number };
+  readonly solver: {
+    readonly shootingIterations: number;
+    readonly periodsIntegrated: number;
+    readonly stepsLastPeriod: number;
+    readonly thermalIterations: number;
+  };
   /** One period of the steady state, when asked for (`waveformPoints`). */
   readonly waveform?: AcPeriodWaveform;
 }
@@ -53,9 +64,22 @@ export interface BridgeAcOptions {
 
 export type BridgeAcOutcome =
   | { readonly outcome: "solved"; readonly steadyState: AcSteadyState }
-  | { readonly outcome: "over-temperature" | "load-undervoltage"; readonly steadyState: AcSteadyState; readonly reason: string }
-  | { readonly outcome: "thermal-runaway"; readonly position: BridgePosition; readonly reason: string; readonly searchedToC: number; readonly lossAtSearchEndW: number }
-  | { readonly outcome: "load-collapse" | "no-periodic-steady-state" | "no-thermal-convergence"; readonly reason: string }
+  | {
+      readonly outcome: "over-temperature" | "load-undervoltage";
+      readonly steadyState: AcSteadyState;
+      readonly reason: string;
+    }
+  | {
+      readonly outcome: "thermal-runaway";
+      readonly position: BridgePosition;
+      readonly reason: string;
+      readonly searchedToC: number;
+      readonly lossAtSearchEndW: number;
+    }
+  | {
+      readonly outcome: "load-collapse" | "no-periodic-steady-state" | "no-thermal-convergence";
+      readonly reason: string;
+    }
   | { readonly outcome: "invalid-input"; readonly path: string; readonly reason: string };
 
 /**
@@ -105,14 +129,20 @@ export interface WarmStart {
   readonly x: readonly number[];
   readonly lineScaleA: number;
 }
-type IsoOutcome = Isothermal | { readonly ok: false; readonly outcome: "load-collapse" | "no-periodic-steady-state"; readonly reason: string };
+type IsoOutcome =
+  | Isothermal
+  | { readonly ok: false; readonly outcome: "load-collapse" | "no-periodic-steady-state"; readonly reason: string };
 
 /**
  * Periodic steady state of the AC bridge with every junction held at the given temperature, K
  * (what a circuit simulator computes at a fixed temperature). Shooting (periodic-shooting.ts) on
  * the one-period map of the TR-BDF2 integrator (ac-bridge-period.ts).
  */
-export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, number>>, warm?: WarmStart): IsoOutcome {
+export function solveBridgeAcAt(
+  m: BridgeAcModel,
+  tjK: Readonly<Record<BridgePosition, number>>,
+  warm?: WarmStart,
+): IsoOutcome {
   const parts = partKeys(m, tjK);
   const circuit = buildCircuit(m, tjK, parts);
   const peakV = Math.SQRT2 * m.sourceRmsV;
@@ -124,14 +154,31 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
   const voltageScaleV = Math.min(peakV, 10 * rippleV);
   // A symmetric bridge repeats every half period (ac-bridge-half-wave.ts): shoot on the half map.
   const half = halfWaveSymmetric(parts);
-  const coarse = { rtol: PREDICTOR_RTOL, voltageScaleV, currentScaleA, record: false, halfPeriod: half, jacobian: true };
-  const periodMap = (o: PeriodOptions): PeriodMap<{ integrals: PeriodIntegrals; trace: readonly Snapshot[]; steps: number }> => (x, withJacobian) => {
+  const coarse = {
+    rtol: PREDICTOR_RTOL,
+    voltageScaleV,
+    currentScaleA,
+    record: false,
+    halfPeriod: half,
+    jacobian: true,
+  };
+  const periodMap =
+    (o: PeriodOptions): PeriodMap<{ integrals: PeriodIntegrals; trace: readonly Snapshot[]; steps: number }> =>
+    (x, withJacobian) => {
       const r = integratePeriod(circuit, x, { ...o, jacobian: withJacobian });
       if (!r.ok) return { ok: false, reason: r.reason };
       const value = { integrals: r.integrals, trace: r.trace ?? [], steps: r.steps };
       // On the half map the end is mirrored, M·H(x), and so is its derivative's current row.
-      const jacobian = half && r.jacobian !== undefined ? r.jacobian.map((row, i) => (i === 1 ? row.map((v) => -v) : row)) : r.jacobian;
-      return { ok: true, end: half ? mirrorState(r.end) : r.end, value, ...(jacobian === undefined ? {} : { jacobian }) };
+      const jacobian =
+        half && r.jacobian !== undefined
+          ? r.jacobian.map((row, i) => (i === 1 ? row.map((v) => -v) : row))
+          : r.jacobian;
+      return {
+        ok: true,
+        end: half ? mirrorState(r.end) : r.end,
+        value,
+        ...(jacobian === undefined ? {} : { jacobian }),
+      };
     };
   // Start: the previous solution when warm (electrothermal loop), else one Newton step on the
   // map at a loose tolerance from 0.9·peak (a fraction of a fine period's steps; it lands inside
@@ -143,7 +190,13 @@ export function solveBridgeAcAt(m: BridgeAcModel, tjK: Readonly<Record<BridgePos
   // previous solution), the load current at the source peak being the floor: the current is a
   // state only with inductance, where its pulse peaks several times the load current.
   const lineScaleA = Math.max(currentScaleA, warm?.lineScaleA ?? predicted?.value?.integrals.lineMaxA ?? 0);
-  const opt = { ...coarse, rtol: AC_RTOL, currentScaleA: LINE_ERROR_SCALE * lineScaleA, record: true, ...(inductive ? {} : { currentRtol: CURRENT_RTOL }) };
+  const opt = {
+    ...coarse,
+    rtol: AC_RTOL,
+    currentScaleA: LINE_ERROR_SCALE * lineScaleA,
+    record: true,
+    ...(inductive ? {} : { currentRtol: CURRENT_RTOL }),
+  };
   const shot = shootPeriodic(
     periodMap(opt),
     x0,
@@ -185,9 +238,17 @@ function halfWaveSymmetric(parts: Readonly<Record<BridgePosition, string>>): boo
 }
 
 /** A key per position: equal keys are the same element record (structurally) at the same junction temperature. */
-function partKeys(m: BridgeAcModel, tjK: Readonly<Record<BridgePosition, number>>): Readonly<Record<BridgePosition, string>> {
+function partKeys(
+  m: BridgeAcModel,
+  tjK: Readonly<Record<BridgePosition, number>>,
+): Readonly<Record<BridgePosition, string>> {
   const key = (p: BridgePosition) => `${tjK[p]}|${recordKey(m.elements[p])}`;
-  return { line1High: key("line1High"), line2High: key("line2High"), line1Low: key("line1Low"), line2Low: key("line2Low") };
+  return {
+    line1High: key("line1High"),
+    line2High: key("line2High"),
+    line1Low: key("line1Low"),
+    line2Low: key("line2Low"),
+  };
 }
 
 /** The element records are read-only: their serialisation is kept per record (the electrothermal loop asks again and again). */
@@ -244,17 +305,35 @@ export function analyseBridgeAc(m: BridgeAcModel, opts: BridgeAcOptions = {}): B
     if (maxDelta <= THERMAL_TOL_K) return finish(m, iso, temps, iter, periods, opts);
     Object.assign(temps, next);
   }
-  return { outcome: "no-thermal-convergence", reason: `the junction temperatures did not settle within ${THERMAL_MAX_ITER} iterations (thermal loop gain close to 1)` };
+  return {
+    outcome: "no-thermal-convergence",
+    reason: `the junction temperatures did not settle within ${THERMAL_MAX_ITER} iterations (thermal loop gain close to 1)`,
+  };
 }
 
-function finish(m: BridgeAcModel, iso: Isothermal, temps: Readonly<Record<BridgePosition, number>>, thermalIterations: number, periods: number, opts: BridgeAcOptions): BridgeAcOutcome {
+function finish(
+  m: BridgeAcModel,
+  iso: Isothermal,
+  temps: Readonly<Record<BridgePosition, number>>,
+  thermalIterations: number,
+  periods: number,
+  opts: BridgeAcOptions,
+): BridgeAcOutcome {
   const steadyState = steadyStateOf(m, iso, temps, { thermalIterations, periods }, opts.waveformPoints);
   const hot = steadyState.elements.find((e) => e.tjC > e.tjMaxC);
   if (hot !== undefined) {
-    return { outcome: "over-temperature", steadyState, reason: `${hot.position} runs at ${fmt(hot.tjC)} °C, above its ${fmt(hot.tjMaxC)} °C junction limit` };
+    return {
+      outcome: "over-temperature",
+      steadyState,
+      reason: `${hot.position} runs at ${fmt(hot.tjC)} °C, above its ${fmt(hot.tjMaxC)} °C junction limit`,
+    };
   }
   if (m.load.kind === "constant-power" && steadyState.outputMinV < m.load.minVoltageV) {
-    return { outcome: "load-undervoltage", steadyState, reason: `the output dips to ${fmt(steadyState.outputMinV)} V, below the load's ${fmt(m.load.minVoltageV)} V minimum operating voltage` };
+    return {
+      outcome: "load-undervoltage",
+      steadyState,
+      reason: `the output dips to ${fmt(steadyState.outputMinV)} V, below the load's ${fmt(m.load.minVoltageV)} V minimum operating voltage`,
+    };
   }
   return { outcome: "solved", steadyState };
 }
@@ -284,7 +363,12 @@ export function steadyStateOf(
     ...circuit,
     elements,
     totalElementLossW: elements.reduce((s, e) => s + e.lossW, 0),
-    solver: { shootingIterations: iso.iterations, periodsIntegrated: counts.periods, stepsLastPeriod: iso.steps, thermalIterations: counts.thermalIterations },
+    solver: {
+      shootingIterations: iso.iterations,
+      periodsIntegrated: counts.periods,
+      stepsLastPeriod: iso.steps,
+      thermalIterations: counts.thermalIterations,
+    },
     ...(waveformPoints === undefined ? {} : { waveform: acPeriodWaveform(iso.trace, period, waveformPoints) }),
   };
 }

@@ -55,8 +55,20 @@ export type DcPolarityOutcome =
       readonly elements: readonly DcElementState[];
       readonly reason?: string;
     }
-  | { readonly outcome: "thermal-runaway"; readonly polarity: Polarity; readonly position: BridgePosition; readonly reason: string; readonly searchedToC: number; readonly lossAtSearchEndW: number }
-  | { readonly outcome: "load-collapse"; readonly polarity: Polarity; readonly reason: string; readonly maxDeliverablePowerW?: number };
+  | {
+      readonly outcome: "thermal-runaway";
+      readonly polarity: Polarity;
+      readonly position: BridgePosition;
+      readonly reason: string;
+      readonly searchedToC: number;
+      readonly lossAtSearchEndW: number;
+    }
+  | {
+      readonly outcome: "load-collapse";
+      readonly polarity: Polarity;
+      readonly reason: string;
+      readonly maxDeliverablePowerW?: number;
+    };
 
 export interface BridgeDcResult {
   readonly positive: DcPolarityOutcome;
@@ -79,7 +91,12 @@ export function analyseBridgeDc(m: BridgeDcModel): BridgeDcResult {
 }
 
 type AtCurrent =
-  | { readonly ok: true; readonly loadV: number; readonly inputV: number; readonly states: readonly [ElementAt, ElementAt] }
+  | {
+      readonly ok: true;
+      readonly loadV: number;
+      readonly inputV: number;
+      readonly states: readonly [ElementAt, ElementAt];
+    }
   | { readonly ok: false; readonly failure: DcPolarityOutcome };
 
 interface ElementAt {
@@ -120,7 +137,8 @@ function analysePolarity(m: BridgeDcModel, polarity: Polarity): DcPolarityOutcom
   });
 
   const idle = loadV(0);
-  if (idle === undefined || !(idle > 0)) return lastFailure ?? collapse("the supply cannot hold the bridge's quiescent current");
+  if (idle === undefined || !(idle > 0))
+    return lastFailure ?? collapse("the supply cannot hold the bridge's quiescent current");
   const load = m.load;
   let currentA: number;
   switch (load.kind) {
@@ -146,7 +164,10 @@ function analysePolarity(m: BridgeDcModel, polarity: Polarity): DcPolarityOutcom
       for (let k = 0; k < 200 && g(zeroA) > 0; k += 1) zeroA *= 2;
       const peak = goldenMax(g, 0, zeroA, 1e-10 * zeroA);
       if (peak.fx < load.powerW) {
-        return collapse(`the bridge can deliver at most ${fmt(peak.fx)} W to the load, less than its ${fmt(load.powerW)} W`, peak.fx);
+        return collapse(
+          `the bridge can deliver at most ${fmt(peak.fx)} W to the load, less than its ${fmt(load.powerW)} W`,
+          peak.fx,
+        );
       }
       const h = (i: number): number => g(i) - load.powerW;
       currentA = bracketedRoot(h, 0, peak.x, h(0), h(peak.x), 1e-13 * zeroA).x;
@@ -162,7 +183,12 @@ function analysePolarity(m: BridgeDcModel, polarity: Polarity): DcPolarityOutcom
   return assemble(m, polarity, currentA, sol);
 }
 
-function assemble(m: BridgeDcModel, polarity: Polarity, currentA: number, sol: Extract<AtCurrent, { ok: true }>): DcPolarityOutcome {
+function assemble(
+  m: BridgeDcModel,
+  polarity: Polarity,
+  currentA: number,
+  sol: Extract<AtCurrent, { ok: true }>,
+): DcPolarityOutcome {
   const pair = CONDUCTING_PAIR[polarity];
   const conducting = new Map<BridgePosition, ElementAt>([
     [pair[0], sol.states[0]],
@@ -173,21 +199,58 @@ function assemble(m: BridgeDcModel, polarity: Polarity, currentA: number, sol: E
     const s = conducting.get(position);
     const base = { position, tjMaxC: elementTjMaxC(e), reverseRatingV: elementReverseRatingV(e) };
     if (s !== undefined) {
-      return { ...base, role: "conducting", mode: s.mode, currentA, dropV: s.dropV, lossW: s.lossW, tjC: s.tjC, reverseV: 0, thermalLoopGain: s.gain };
+      return {
+        ...base,
+        role: "conducting",
+        mode: s.mode,
+        currentA,
+        dropV: s.dropV,
+        lossW: s.lossW,
+        tjC: s.tjC,
+        reverseV: 0,
+        thermalLoopGain: s.gain,
+      };
     }
     const partner = conducting.get(REVERSE_PARTNER[position]);
     const reverseV = sol.loadV + (partner?.dropV ?? 0);
-    return { ...base, role: "blocking", mode: "blocking", currentA: 0, dropV: 0, lossW: 0, tjC: m.ambientC, reverseV, thermalLoopGain: 0 };
+    return {
+      ...base,
+      role: "blocking",
+      mode: "blocking",
+      currentA: 0,
+      dropV: 0,
+      lossW: 0,
+      tjC: m.ambientC,
+      reverseV,
+      thermalLoopGain: 0,
+    };
   });
   const totalLossW = sol.states[0].lossW + sol.states[1].lossW;
   const totalDropV = sol.states[0].dropV + sol.states[1].dropV;
   const hot = elements.find((e) => e.tjC > e.tjMaxC);
-  const common = { polarity, conducting: pair, bridgeInputV: sol.inputV, loadV: sol.loadV, loadCurrentA: currentA, totalDropV, totalLossW, elements };
+  const common = {
+    polarity,
+    conducting: pair,
+    bridgeInputV: sol.inputV,
+    loadV: sol.loadV,
+    loadCurrentA: currentA,
+    totalDropV,
+    totalLossW,
+    elements,
+  };
   if (hot !== undefined) {
-    return { outcome: "over-temperature", ...common, reason: `${hot.position} runs at ${fmt(hot.tjC)} °C, above its ${fmt(hot.tjMaxC)} °C junction limit` };
+    return {
+      outcome: "over-temperature",
+      ...common,
+      reason: `${hot.position} runs at ${fmt(hot.tjC)} °C, above its ${fmt(hot.tjMaxC)} °C junction limit`,
+    };
   }
   if (m.load.kind === "constant-power" && sol.loadV < m.load.minVoltageV) {
-    return { outcome: "load-undervoltage", ...common, reason: `the load sees ${fmt(sol.loadV)} V, below its ${fmt(m.load.minVoltageV)} V minimum operating voltage` };
+    return {
+      outcome: "load-undervoltage",
+      ...common,
+      reason: `the load sees ${fmt(sol.loadV)} V, below its ${fmt(m.load.minVoltageV)} V minimum operating voltage`,
+    };
   }
   return { outcome: "solved", ...common };
 }
@@ -212,7 +275,13 @@ function elementAt(
     case "solved":
     case "over-temperature":
     case "load-undervoltage":
-      return { dropV: r.point.forward.dropV, lossW: r.point.dieLossW, tjC: r.point.tjC, mode: r.point.forward.mode, gain: r.point.thermalLoopGain };
+      return {
+        dropV: r.point.forward.dropV,
+        lossW: r.point.dieLossW,
+        tjC: r.point.tjC,
+        mode: r.point.forward.mode,
+        gain: r.point.thermalLoopGain,
+      };
     case "thermal-runaway":
       return {
         failure: {

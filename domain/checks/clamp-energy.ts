@@ -34,7 +34,9 @@ export interface ClampLaw {
 }
 
 /** The module's load in parallel with the clamp during the pulse. */
-export type ParallelLoad = { readonly kind: "resistive"; readonly resistanceOhm: number } | { readonly kind: "constant-current"; readonly currentA: number };
+export type ParallelLoad =
+  | { readonly kind: "resistive"; readonly resistanceOhm: number }
+  | { readonly kind: "constant-current"; readonly currentA: number };
 
 export type ClampResult =
   | { readonly conducts: false; readonly peakOpenCircuitV: number }
@@ -73,7 +75,11 @@ export function clampPulse(p: ExponentialPulse, law: ClampLaw, load?: ParallelLo
     ub -= ri * load.currentA;
   }
   const b = law.breakdownV - ub;
-  if (b <= 0) return { conducts: "always", reason: `the clamp's breakdown ${law.breakdownV} V is not above the ${round(ub)} V the pulse rides on at the clamp: it would conduct the supply` };
+  if (b <= 0)
+    return {
+      conducts: "always",
+      reason: `the clamp's breakdown ${law.breakdownV} V is not above the ${round(ub)} V the pulse rides on at the clamp: it would conduct the supply`,
+    };
   if (a <= b) return { conducts: false, peakOpenCircuitV: ub + a };
   const r = ri + law.dynamicOhm;
   const tr = p.riseS ?? 0;
@@ -88,8 +94,12 @@ export function clampPulse(p: ExponentialPulse, law: ClampLaw, load?: ParallelLo
   const peakClampV = law.breakdownV + law.dynamicOhm * peakCurrentA;
   // ∫v dt and ∫v² dt over the conduction, for the load's share.
   const vdt = law.breakdownV * conductionTimeS + law.dynamicOhm * chargeC;
-  const v2dt = law.breakdownV * law.breakdownV * conductionTimeS + 2 * law.breakdownV * law.dynamicOhm * chargeC + law.dynamicOhm * law.dynamicOhm * i2;
-  const loadEnergyJ = load === undefined ? 0 : load.kind === "resistive" ? v2dt / load.resistanceOhm : load.currentA * vdt;
+  const v2dt =
+    law.breakdownV * law.breakdownV * conductionTimeS +
+    2 * law.breakdownV * law.dynamicOhm * chargeC +
+    law.dynamicOhm * law.dynamicOhm * i2;
+  const loadEnergyJ =
+    load === undefined ? 0 : load.kind === "resistive" ? v2dt / load.resistanceOhm : load.currentA * vdt;
   return {
     conducts: true,
     peakCurrentA,

@@ -48,7 +48,8 @@ export function cornerConditions(space: CornerSpace): CornerConditions[] {
   const tolerances = space.datasheetMax ? (["typical", "datasheet-max"] as const) : (["typical"] as const);
   for (const [supply, supplyV] of supplies)
     for (const [ambient, ambientC] of ambients)
-      for (const loadScale of space.loadScales) for (const tolerance of tolerances) out.push({ supply, supplyV, ambient, ambientC, loadScale, tolerance });
+      for (const loadScale of space.loadScales)
+        for (const tolerance of tolerances) out.push({ supply, supplyV, ambient, ambientC, loadScale, tolerance });
   return out;
 }
 

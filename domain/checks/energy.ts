@@ -30,14 +30,25 @@ export function missionEnergy(
   let wh = 0;
   const unsolved: number[] = [];
   rows.forEach((row, i) => {
-    const r = solveOperatingPoint({ stage, supplyV, sourceResistanceOhm, load: scaleLoad(load, row.loadScale), ambientC: row.ambientC, rthKPerW: totalRthKPerW(stage.thermal) });
+    const r = solveOperatingPoint({
+      stage,
+      supplyV,
+      sourceResistanceOhm,
+      load: scaleLoad(load, row.loadScale),
+      ambientC: row.ambientC,
+      rthKPerW: totalRthKPerW(stage.thermal),
+    });
     // A separate controller's quiescent power counts too (an integrated switch's is in its die
     // loss), at the voltage across it: the stage input, not the open-circuit supply.
     if ("point" in r) wh += (r.point.dieLossW + controllerLossW(stage, r.point.stageInputV)) * row.hoursPerYear;
     else unsolved.push(i);
   });
   const kwh = wh / 1000;
-  return { lossEnergyKWhPerYear: kwh, ...(pricePerKWh === undefined ? {} : { costPerYear: kwh * pricePerKWh }), unsolvedRows: unsolved };
+  return {
+    lossEnergyKWhPerYear: kwh,
+    ...(pricePerKWh === undefined ? {} : { costPerYear: kwh * pricePerKWh }),
+    unsolvedRows: unsolved,
+  };
 }
 
 export interface StandbyDrain {
@@ -50,7 +61,11 @@ export interface StandbyDrain {
 }
 
 /** Quiescent current as charge per day and the days to drain a battery to its usable depth. */
-export function standbyDrain(stage: StageModel, loadStandbyA: number, battery?: { capacityAh: number; usableFraction: number }): StandbyDrain {
+export function standbyDrain(
+  stage: StageModel,
+  loadStandbyA: number,
+  battery?: { capacityAh: number; usableFraction: number },
+): StandbyDrain {
   const iq = stageQuiescentA(stage);
   const total = iq + loadStandbyA;
   return {

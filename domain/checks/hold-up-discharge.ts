@@ -41,8 +41,14 @@ export function dischargeTime(m: DischargeModel): DischargeOutcome {
       const i = load.currentA + lk;
       const start = v0 - esr * i;
       if (start <= vmin) return belowMin(start, vmin);
-      if (!(i > 0)) return { outcome: "no-drain", reason: "nothing draws current from the output: it holds indefinitely" };
-      return { outcome: "holds", timeS: (c * (start - vmin)) / i, method: "linear discharge C·ΔV/I", startOutputV: start };
+      if (!(i > 0))
+        return { outcome: "no-drain", reason: "nothing draws current from the output: it holds indefinitely" };
+      return {
+        outcome: "holds",
+        timeS: (c * (start - vmin)) / i,
+        method: "linear discharge C·ΔV/I",
+        startOutputV: start,
+      };
     }
     case "resistive": {
       const r = load.resistanceOhm;
@@ -51,8 +57,17 @@ export function dischargeTime(m: DischargeModel): DischargeOutcome {
       const tau = c * (r + esr);
       const vcMin = (vmin * (r + esr)) / r + esr * lk;
       // The exponential tends to −I_lk·R: a minimum at or below it is never reached.
-      if (!(vcMin + lk * r > 0)) return { outcome: "no-drain", reason: `the resistive load's exponential discharge never takes the output down to the ${vmin} V minimum: it holds indefinitely` };
-      return { outcome: "holds", timeS: tau * Math.log((v0 + lk * r) / (vcMin + lk * r)), method: "exponential discharge τ = C·(R + ESR)", startOutputV: start };
+      if (!(vcMin + lk * r > 0))
+        return {
+          outcome: "no-drain",
+          reason: `the resistive load's exponential discharge never takes the output down to the ${vmin} V minimum: it holds indefinitely`,
+        };
+      return {
+        outcome: "holds",
+        timeS: tau * Math.log((v0 + lk * r) / (vcMin + lk * r)),
+        method: "exponential discharge τ = C·(R + ESR)",
+        startOutputV: start,
+      };
     }
     case "constant-power": {
       const p = load.powerW;
@@ -62,22 +77,38 @@ export function dischargeTime(m: DischargeModel): DischargeOutcome {
         return disc >= 0 && a > 0 ? (a + Math.sqrt(disc)) / 2 : undefined;
       };
       const start = vout(v0);
-      if (start === undefined) return { outcome: "collapse", reason: "the capacitor ESR cannot pass the load's power even at the start: the output collapses" };
+      if (start === undefined)
+        return {
+          outcome: "collapse",
+          reason: "the capacitor ESR cannot pass the load's power even at the start: the output collapses",
+        };
       if (start <= vmin) return belowMin(start, vmin);
       if (esr === 0 && lk === 0) {
-        return { outcome: "holds", timeS: (c * (v0 * v0 - vmin * vmin)) / (2 * p), method: "energy form C·(V0² − Vmin²)/(2P)", startOutputV: start };
+        return {
+          outcome: "holds",
+          timeS: (c * (v0 * v0 - vmin * vmin)) / (2 * p),
+          method: "energy form C·(V0² − Vmin²)/(2P)",
+          startOutputV: start,
+        };
       }
       // With ESR the output cannot fall below √(ESR·P) (the roots merge: the converter's current
       // no longer passes the ESR): a lower minimum ends at that collapse instead.
       const vEnd = Math.max(vmin, Math.sqrt(esr * p));
       const vcAtMin = vEnd > 0 ? vEnd + esr * (p / vEnd + lk) : esr * lk;
       const integrand = (vc: number): number => 1 / (p / (vout(vc) ?? vEnd) + lk);
-      const method = vEnd > vmin ? `constant power with ESR and leakage, by quadrature of C·dv/(P/v + I), to the collapse at ${vEnd.toPrecision(4)} V (sqrt(ESR·P)) above the minimum` : "constant power with ESR and leakage, by quadrature of C·dv/(P/v + I)";
+      const method =
+        vEnd > vmin
+          ? `constant power with ESR and leakage, by quadrature of C·dv/(P/v + I), to the collapse at ${vEnd.toPrecision(4)} V (sqrt(ESR·P)) above the minimum`
+          : "constant power with ESR and leakage, by quadrature of C·dv/(P/v + I)";
       return { outcome: "holds", timeS: c * gaussLegendre(integrand, vcAtMin, v0, 200), method, startOutputV: start };
     }
   }
 }
 
 function belowMin(start: number, vmin: number): DischargeOutcome {
-  return { outcome: "below-minimum-at-start", startOutputV: start, reason: `the output starts at ${start.toPrecision(4)} V, not above the load's ${vmin} V minimum` };
+  return {
+    outcome: "below-minimum-at-start",
+    startOutputV: start,
+    reason: `the output starts at ${start.toPrecision(4)} V, not above the load's ${vmin} V minimum`,
+  };
 }

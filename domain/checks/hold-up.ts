@@ -42,7 +42,12 @@ export type HoldUpOutcome =
       readonly reverseLeakageA: number;
       readonly startCapacitorV: number;
     }
-  | { readonly outcome: "drains-back"; readonly holdUpS: number; readonly reason: string; readonly peakReverseCurrentA: number }
+  | {
+      readonly outcome: "drains-back";
+      readonly holdUpS: number;
+      readonly reason: string;
+      readonly peakReverseCurrentA: number;
+    }
   | { readonly outcome: "not-interrupted"; readonly reason: string; readonly settlesAtV?: number }
   | { readonly outcome: "no-hold-up"; readonly reason: string; readonly startOutputV?: number };
 
@@ -82,19 +87,37 @@ export function holdUp(m: HoldUpModel): HoldUpOutcome {
     case "clamp-below-drive":
       return { outcome: "no-hold-up", reason: ev.reason };
     case "stays-on":
-      return { outcome: "not-interrupted", reason: `the stage keeps conducting forward: ${ev.reason}`, settlesAtV: ev.end.outputV };
+      return {
+        outcome: "not-interrupted",
+        reason: `the stage keeps conducting forward: ${ev.reason}`,
+        settlesAtV: ev.end.outputV,
+      };
     case "does-not-block":
       if (ev.fallsBelowMinS === undefined) {
-        return { outcome: "not-interrupted", reason: `${ev.reason}; the remaining input holds the output at ${ev.settlesAtV.toPrecision(4)} V, above the minimum`, settlesAtV: ev.settlesAtV };
+        return {
+          outcome: "not-interrupted",
+          reason: `${ev.reason}; the remaining input holds the output at ${ev.settlesAtV.toPrecision(4)} V, above the minimum`,
+          settlesAtV: ev.settlesAtV,
+        };
       }
-      return { outcome: "drains-back", holdUpS: ev.fallsBelowMinS, reason: ev.reason, peakReverseCurrentA: ev.peakReverseCurrentA };
+      return {
+        outcome: "drains-back",
+        holdUpS: ev.fallsBelowMinS,
+        reason: ev.reason,
+        peakReverseCurrentA: ev.peakReverseCurrentA,
+      };
     case "blocks": {
       const after = ev.clamp?.after ?? ev.end;
       const reverseV = Math.max(after.capacitorV - inp.inputAfterV, 0);
       const diode = blockingJunction(m.stage);
       const point = behaviourOf(m.stage).reverseLeakage(m.stage);
       const leakageA = diode === undefined ? 0 : Math.max(0, -reverseJunctionA(diode, -reverseV, tK, point));
-      return fromDischarge(dischargeTime({ ...m, capacitorV: after.capacitorV, leakageA }), after.timeS, leakageA, after.capacitorV);
+      return fromDischarge(
+        dischargeTime({ ...m, capacitorV: after.capacitorV, leakageA }),
+        after.timeS,
+        leakageA,
+        after.capacitorV,
+      );
     }
   }
 }
@@ -104,8 +127,26 @@ export function blockingJunction(stage: StageModel): DiodeParams | undefined {
   return behaviourOf(stage).blockingJunction(stage);
 }
 
-function fromDischarge(d: DischargeOutcome, eventS: number, reverseLeakageA: number, startCapacitorV: number): HoldUpOutcome {
+function fromDischarge(
+  d: DischargeOutcome,
+  eventS: number,
+  reverseLeakageA: number,
+  startCapacitorV: number,
+): HoldUpOutcome {
   if (d.outcome === "no-drain") return { outcome: "not-interrupted", reason: d.reason };
-  if (d.outcome !== "holds") return { outcome: "no-hold-up", reason: d.reason, ...(d.outcome === "below-minimum-at-start" ? { startOutputV: d.startOutputV } : {}) };
-  return { outcome: "holds", holdUpS: eventS + d.timeS, eventS, dischargeS: d.timeS, method: d.method, reverseLeakageA, startCapacitorV };
+  if (d.outcome !== "holds")
+    return {
+      outcome: "no-hold-up",
+      reason: d.reason,
+      ...(d.outcome === "below-minimum-at-start" ? { startOutputV: d.startOutputV } : {}),
+    };
+  return {
+    outcome: "holds",
+    holdUpS: eventS + d.timeS,
+    eventS,
+    dischargeS: d.timeS,
+    method: d.method,
+    reverseLeakageA,
+    startCapacitorV,
+  };
 }

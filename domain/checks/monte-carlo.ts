@@ -6,7 +6,15 @@ import { createRng, type Rng } from "../solve/prng.js";
 import { scaleStage } from "../stages/scale-stage.js";
 import type { StageModel } from "../stages/stage-model.js";
 
-export type McParameter = "rdsOn" | "forwardVoltage" | "rth" | "supplyV" | "ambientC" | "load" | "startV" | "thresholdV";
+export type McParameter =
+  | "rdsOn"
+  | "forwardVoltage"
+  | "rth"
+  | "supplyV"
+  | "ambientC"
+  | "load"
+  | "startV"
+  | "thresholdV";
 
 /**
  * A tolerance: relative (factor 1 + x) for rdsOn, forwardVoltage, rth and load; absolute (V, °C)
@@ -52,11 +60,26 @@ function draw(rng: Rng, t: McTolerance): number {
 export function monteCarlo(m: McInput, visit: (s: McSample) => void): void {
   const rng = createRng(m.seed);
   for (let i = 0; i < m.samples; i += 1) {
-    const d: Record<McParameter, number> = { rdsOn: 0, forwardVoltage: 0, rth: 0, supplyV: 0, ambientC: 0, load: 0, startV: 0, thresholdV: 0 };
+    const d: Record<McParameter, number> = {
+      rdsOn: 0,
+      forwardVoltage: 0,
+      rth: 0,
+      supplyV: 0,
+      ambientC: 0,
+      load: 0,
+      startV: 0,
+      thresholdV: 0,
+    };
     for (const t of m.tolerances) d[t.parameter] += draw(rng, t);
     // A relative draw below −100 % has no physical meaning: floor the factor at 1 % of nominal.
     const f = (x: number) => Math.max(1 + x, 0.01);
-    const stage = scaleStage(m.stage, { rdsOnFactor: f(d.rdsOn), forwardVoltageFactor: f(d.forwardVoltage), rthFactor: f(d.rth), startShiftV: d.startV, thresholdShiftV: d.thresholdV });
+    const stage = scaleStage(m.stage, {
+      rdsOnFactor: f(d.rdsOn),
+      forwardVoltageFactor: f(d.forwardVoltage),
+      rthFactor: f(d.rth),
+      startShiftV: d.startV,
+      thresholdShiftV: d.thresholdV,
+    });
     const supplyV = Math.max(m.supplyV + d.supplyV, 1e-3);
     const result = solveOperatingPoint({
       stage,
@@ -78,5 +101,15 @@ export function distributionOf(values: readonly number[]): Distribution | undefi
   const mean = sorted.reduce((s, v) => s + v, 0) / n;
   const variance = n > 1 ? sorted.reduce((s, v) => s + (v - mean) ** 2, 0) / (n - 1) : 0;
   const q = (p: number) => sorted[Math.min(n - 1, Math.max(0, Math.ceil(p * n) - 1))] ?? mean;
-  return { mean, std: Math.sqrt(variance), p1: q(0.01), p5: q(0.05), p50: q(0.5), p95: q(0.95), p99: q(0.99), min: sorted[0] ?? mean, max: sorted[n - 1] ?? mean };
+  return {
+    mean,
+    std: Math.sqrt(variance),
+    p1: q(0.01),
+    p5: q(0.05),
+    p50: q(0.5),
+    p95: q(0.95),
+    p99: q(0.99),
+    min: sorted[0] ?? mean,
+    max: sorted[n - 1] ?? mean,
+  };
 }

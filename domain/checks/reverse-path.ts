@@ -19,9 +19,19 @@ export { type ControllerTurnOff, gateDischargeS } from "../stages/turn-off-timin
  * junction temperature.
  */
 export type ReversePath =
-  | { readonly kind: "controller"; readonly channelOhm: number; readonly tripCurrentA: number; readonly offDelayS: number }
+  | {
+      readonly kind: "controller";
+      readonly channelOhm: number;
+      readonly tripCurrentA: number;
+      readonly offDelayS: number;
+    }
   | { readonly kind: "diode"; readonly seriesOhm: number }
-  | { readonly kind: "channel-stays-on"; readonly channelOhm: number; readonly thresholdV: number; readonly reason: string }
+  | {
+      readonly kind: "channel-stays-on";
+      readonly channelOhm: number;
+      readonly thresholdV: number;
+      readonly reason: string;
+    }
   | { readonly kind: "gate-falls"; readonly channelOhm: number; readonly offDelayS: number };
 
 /** inputBeforeV: input before the event (gate drive); inputAfterV: the input after it. */

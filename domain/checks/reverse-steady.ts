@@ -11,7 +11,9 @@ export type LeakagePoint = DatasheetLeakage;
 
 /** The same leakage law scaled by s (the sizing's search over a template's leakage). */
 export function scaleLeakage(l: LeakagePoint, s: number): LeakagePoint {
-  return "law" in l ? { law: { ...l.law, refCurrentA: s * l.law.refCurrentA } } : { currentA: s * l.currentA, tempK: l.tempK };
+  return "law" in l
+    ? { law: { ...l.law, refCurrentA: s * l.law.refCurrentA } }
+    : { currentA: s * l.currentA, tempK: l.tempK };
 }
 
 export interface ReverseStress {
@@ -39,14 +41,19 @@ export type ReverseSteadyResult =
       /** The junction settles above its Tj(max): it blocks, but outside its rating (the rules read reverseTjC). */
       readonly aboveTjMax: boolean;
     }
-  | { readonly outcome: "leakage-runaway"; readonly stress: ReverseStress; readonly reason: string; readonly leakageAtLimitA: number };
+  | {
+      readonly outcome: "leakage-runaway";
+      readonly stress: ReverseStress;
+      readonly reason: string;
+      readonly leakageAtLimitA: number;
+    };
 
 /**
  * Reverse current of a junction at reverse voltage vR: Is(T)·(1 − e^(−vR/(n·Vt))), Shockley; with
  * a datasheet point, that point scaled by Is(T)/Is(T_point); with a fitted law, the law at (T, vR).
  */
 export function junctionLeakageA(d: DiodeParams, reverseV: number, tK: number, point?: LeakagePoint): number {
-  const shape = -Math.expm1(-reverseV / (emissionVoltageV(d, tK)));
+  const shape = -Math.expm1(-reverseV / emissionVoltageV(d, tK));
   if (point && "law" in point) return leakageCurrentA(point.law, tK, reverseV);
   if (point) return (point.currentA * saturationCurrentAt(d, tK)) / saturationCurrentAt(d, point.tempK);
   return saturationCurrentAt(d, tK) * shape;
@@ -63,16 +70,38 @@ export function reverseStress(stage: StageModel, reverseV: number): { stress: Re
  * temperature (leakage grows steeply with temperature: a Schottky can run away in reverse).
  * Steady state: conservative for a reversal shorter than the thermal time constants.
  */
-export function reverseSteady(stage: StageModel, reverseV: number, ambientC: number, leakagePoint?: LeakagePoint): ReverseSteadyResult {
+export function reverseSteady(
+  stage: StageModel,
+  reverseV: number,
+  ambientC: number,
+  leakagePoint?: LeakagePoint,
+): ReverseSteadyResult {
   const { stress, junction } = reverseStress(stage, reverseV);
-  if (junction === undefined) return { outcome: "blocks", stress, leakageA: 0, leakagePowerW: 0, tjC: ambientC, ambientC, aboveTjMax: ambientC > stageTjMaxC(stage) };
+  if (junction === undefined)
+    return {
+      outcome: "blocks",
+      stress,
+      leakageA: 0,
+      leakagePowerW: 0,
+      tjC: ambientC,
+      ambientC,
+      aboveTjMax: ambientC > stageTjMaxC(stage),
+    };
   const rth = totalRthKPerW(stage.thermal);
   const tjMaxC = stageTjMaxC(stage);
   const leakAt = (tK: number) => junctionLeakageA(junction, reverseV, tK, leakagePoint);
   const r = thermalFixedPoint<never>(ambientC, rth, tjMaxC + 150, (tK) => ({ ok: true, lossW: reverseV * leakAt(tK) }));
   if (r.kind === "root") {
     const leakageA = leakAt(r.tjK);
-    return { outcome: "blocks", stress, leakageA, leakagePowerW: leakageA * reverseV, tjC: kToC(r.tjK), ambientC, aboveTjMax: kToC(r.tjK) > tjMaxC };
+    return {
+      outcome: "blocks",
+      stress,
+      leakageA,
+      leakagePowerW: leakageA * reverseV,
+      tjC: kToC(r.tjK),
+      ambientC,
+      aboveTjMax: kToC(r.tjK) > tjMaxC,
+    };
   }
   return {
     outcome: "leakage-runaway",

@@ -23,7 +23,9 @@ export function driveAtInput(stage: StageModel, inputV: number, dropV = 0): Driv
   return behaviourOf(stage).driveAtInput(stage, inputV, dropV);
 }
 
-export type TransientThermal = { readonly kind: "foster"; readonly terms: readonly FosterTerm[] } | { readonly kind: "quasi-static" };
+export type TransientThermal =
+  | { readonly kind: "foster"; readonly terms: readonly FosterTerm[] }
+  | { readonly kind: "quasi-static" };
 
 export interface ProfileSample {
   readonly timeS: number;
@@ -65,7 +67,14 @@ export function alongProfile(
   const rth = totalRthKPerW(stage.thermal);
   const first = profile[0];
   if (first === undefined) throw new Error("alongProfile: empty profile");
-  const start = solveOperatingPoint({ stage, supplyV: first.voltageV, sourceResistanceOhm, load, ambientC, rthKPerW: rth });
+  const start = solveOperatingPoint({
+    stage,
+    supplyV: first.voltageV,
+    sourceResistanceOhm,
+    load,
+    ambientC,
+    rthKPerW: rth,
+  });
   const p0 = "point" in start ? start.point.dieLossW : 0;
   let rises = thermal.kind === "foster" ? thermal.terms.map((t) => t.rKPerW * p0) : [];
   let tjK = cToK(ambientC) + (thermal.kind === "foster" ? rises.reduce((a, b) => a + b, 0) : rth * p0);
@@ -95,7 +104,14 @@ export function alongProfile(
       lossW = dieLossW(stage, e.point);
       sample = { timeS: t, supplyV, mode: e.point.forward.mode, loadV: e.point.loadV, lossW, tjC: kToC(tjK) };
     } else {
-      sample = { timeS: t, supplyV, mode: e.ok || e.code === "load-collapse" ? "load-dropout" : "stage-off", loadV: e.ok ? e.point.loadV : 0, lossW: 0, tjC: kToC(tjK) };
+      sample = {
+        timeS: t,
+        supplyV,
+        mode: e.ok || e.code === "load-collapse" ? "load-dropout" : "stage-off",
+        loadV: e.ok ? e.point.loadV : 0,
+        lossW: 0,
+        tjC: kToC(tjK),
+      };
     }
     samples.push(sample);
     const next = times[i + 1];

@@ -15,9 +15,23 @@ export interface SizingCondition {
 }
 
 export type ThermalSizing =
-  | { readonly outcome: "no-heatsink-needed"; readonly maxTotalRthKPerW: number | "unbounded"; readonly presentTotalRthKPerW: number }
-  | { readonly outcome: "heatsink-needed"; readonly maxTotalRthKPerW: number; readonly maxSinkRthKPerW: number; readonly presentTotalRthKPerW: number }
-  | { readonly outcome: "better-path-needed"; readonly maxTotalRthKPerW: number; readonly presentTotalRthKPerW: number; readonly reason: string }
+  | {
+      readonly outcome: "no-heatsink-needed";
+      readonly maxTotalRthKPerW: number | "unbounded";
+      readonly presentTotalRthKPerW: number;
+    }
+  | {
+      readonly outcome: "heatsink-needed";
+      readonly maxTotalRthKPerW: number;
+      readonly maxSinkRthKPerW: number;
+      readonly presentTotalRthKPerW: number;
+    }
+  | {
+      readonly outcome: "better-path-needed";
+      readonly maxTotalRthKPerW: number;
+      readonly presentTotalRthKPerW: number;
+      readonly reason: string;
+    }
   | { readonly outcome: "impossible"; readonly reason: string };
 
 /** Beyond this total thermal resistance the part is taken to need no thermal path at all, K/W. */
@@ -29,11 +43,19 @@ const RTH_CEILING = 10_000;
  * Tj rises monotonically with Rth, so the limit is bracketed and refined by regula falsi. With a
  * junction-case-sink path the answer is the largest θSA = Rth,max − θJC − θCS.
  */
-export function thermalSizing(conditions: readonly SizingCondition[], path: ThermalPath, presentTotalRthKPerW: number, targetC: number): ThermalSizing {
+export function thermalSizing(
+  conditions: readonly SizingCondition[],
+  path: ThermalPath,
+  presentTotalRthKPerW: number,
+  targetC: number,
+): ThermalSizing {
   let limit = Number.POSITIVE_INFINITY;
   for (const c of conditions) {
     if (c.ambientC >= targetC) {
-      return { outcome: "impossible", reason: `the ${c.ambientC} °C ambient alone reaches the ${targetC} °C junction target: no thermal path can hold it` };
+      return {
+        outcome: "impossible",
+        reason: `the ${c.ambientC} °C ambient alone reaches the ${targetC} °C junction target: no thermal path can hold it`,
+      };
     }
     // Closed form: at the limit Tj = target, so Rth,max = (target − Ta)/P(target), with P the
     // circuit's loss solved at Tj = target — exact whenever target is the stable root there
@@ -45,7 +67,14 @@ export function thermalSizing(conditions: readonly SizingCondition[], path: Ther
       continue;
     }
     const excess = (rth: number): number => {
-      const r = solveOperatingPoint({ stage: c.stage, supplyV: c.supplyV, sourceResistanceOhm: c.sourceResistanceOhm, load: c.load, ambientC: c.ambientC, rthKPerW: rth });
+      const r = solveOperatingPoint({
+        stage: c.stage,
+        supplyV: c.supplyV,
+        sourceResistanceOhm: c.sourceResistanceOhm,
+        load: c.load,
+        ambientC: c.ambientC,
+        rthKPerW: rth,
+      });
       if ("point" in r) return r.point.tjC - targetC;
       return r.outcome === "thermal-runaway" ? 1e3 : Number.NaN;
     };
@@ -59,17 +88,25 @@ export function thermalSizing(conditions: readonly SizingCondition[], path: Ther
     if (fHi < 0) continue;
     const f0 = excess(0);
     if (!(f0 < 0)) {
-      return { outcome: "impossible", reason: `even with zero thermal resistance the junction does not stay below ${targetC} °C at ${c.ambientC} °C ambient` };
+      return {
+        outcome: "impossible",
+        reason: `even with zero thermal resistance the junction does not stay below ${targetC} °C at ${c.ambientC} °C ambient`,
+      };
     }
     const root = bracketedRoot((r) => (Number.isNaN(excess(r)) ? 1e3 : excess(r)), 0, hi, f0, fHi, 1e-6 * hi);
     limit = Math.min(limit, root.x);
   }
-  if (!Number.isFinite(limit)) return { outcome: "no-heatsink-needed", maxTotalRthKPerW: "unbounded", presentTotalRthKPerW };
-  if (presentTotalRthKPerW <= limit) return { outcome: "no-heatsink-needed", maxTotalRthKPerW: limit, presentTotalRthKPerW };
+  if (!Number.isFinite(limit))
+    return { outcome: "no-heatsink-needed", maxTotalRthKPerW: "unbounded", presentTotalRthKPerW };
+  if (presentTotalRthKPerW <= limit)
+    return { outcome: "no-heatsink-needed", maxTotalRthKPerW: limit, presentTotalRthKPerW };
   if (path.kind === "junction-case-sink") {
     const sink = limit - path.rthJcKPerW - path.rthCsKPerW;
     if (sink <= 0) {
-      return { outcome: "impossible", reason: `θJC + θCS = ${path.rthJcKPerW + path.rthCsKPerW} K/W already exceeds the ${limit.toFixed(3)} K/W the junction allows: even an ideal sink cannot hold it` };
+      return {
+        outcome: "impossible",
+        reason: `θJC + θCS = ${path.rthJcKPerW + path.rthCsKPerW} K/W already exceeds the ${limit.toFixed(3)} K/W the junction allows: even an ideal sink cannot hold it`,
+      };
     }
     return { outcome: "heatsink-needed", maxTotalRthKPerW: limit, maxSinkRthKPerW: sink, presentTotalRthKPerW };
   }

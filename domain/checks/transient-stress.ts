@@ -108,7 +108,10 @@ export interface TransientResult {
   readonly stresses: readonly ElementStress[];
   /** Whether the pulse (or its reverse current) reaches the load side. */
   readonly reachesLoad: boolean;
-  readonly clamp: { readonly needed: false } | ({ readonly needed: true } & ClampRequirement) | { readonly needed: "unmodelled"; readonly note: string };
+  readonly clamp:
+    | { readonly needed: false }
+    | ({ readonly needed: true } & ClampRequirement)
+    | { readonly needed: "unmodelled"; readonly note: string };
   /** With a clamp in the design: its duty in this pulse and whether it is within its ratings. */
   readonly designClamp?: ClampDuty;
 }
@@ -128,7 +131,10 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
   const baseV = pulse.baseV === "supply" ? ctx.supplyNominalV : pulse.baseV;
   const peak = pulse.clampedAtV ?? baseV + pulse.amplitudeV;
   const tauS = tauFromDecay(pulse.decayS, pulse.decayConvention);
-  const polarity = (pulse.clampedAtV ?? (pulse.baseV === "supply" ? ctx.supplyNominalV : pulse.baseV) + pulse.amplitudeV) < 0 ? "negative" : "positive";
+  const polarity =
+    (pulse.clampedAtV ?? (pulse.baseV === "supply" ? ctx.supplyNominalV : pulse.baseV) + pulse.amplitudeV) < 0
+      ? "negative"
+      : "positive";
   const allowance = (element: string, ratingV: number | undefined) => {
     const key = allowanceKey(element, polarity);
     const fromRules = key === undefined ? undefined : ctx.allowanceV?.[key];
@@ -143,17 +149,37 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
   const own = ctx.inputClamp;
   const designClamp = (p: { baseV: number; amplitudeV: number }, load?: ParallelLoad): ClampDuty | undefined => {
     if (own === undefined) return undefined;
-    const duty = clampPulse({ baseV: p.baseV, amplitudeV: p.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm, riseS: pulse.riseS }, clampLawOf(own), load);
-    const allowedW = own.power !== undefined && duty.conducts === true ? allowedPeakPowerW(own.power, duty.currentHalfWidthS, ctx.clampTjC ?? 25) : undefined;
+    const duty = clampPulse(
+      {
+        baseV: p.baseV,
+        amplitudeV: p.amplitudeV,
+        tauS,
+        sourceResistanceOhm: pulse.sourceResistanceOhm,
+        riseS: pulse.riseS,
+      },
+      clampLawOf(own),
+      load,
+    );
+    const allowedW =
+      own.power !== undefined && duty.conducts === true
+        ? allowedPeakPowerW(own.power, duty.currentHalfWidthS, ctx.clampTjC ?? 25)
+        : undefined;
     // A clamp that conducts the supply the pulse rides on ("always") is within no rating.
     const within = (rating: number | undefined, duty_: (d: Extract<ClampResult, { conducts: true }>) => number) =>
-      rating === undefined ? undefined : duty.conducts === false ? true : duty.conducts === true ? duty_(duty) <= rating : false;
+      rating === undefined
+        ? undefined
+        : duty.conducts === false
+          ? true
+          : duty.conducts === true
+            ? duty_(duty) <= rating
+            : false;
     return {
       duty,
       withinPeakCurrent: within(own.peakCurrentA, (d) => d.peakCurrentA),
       withinEnergy: within(own.energyJ, (d) => d.energyJ),
       ...(allowedW === undefined ? {} : { allowedPeakPowerW: allowedW }),
-      withinPeakPower: own.power === undefined ? undefined : within(allowedW ?? own.power.peakPulsePowerW, (d) => d.peakPowerW),
+      withinPeakPower:
+        own.power === undefined ? undefined : within(allowedW ?? own.power.peakPulsePowerW, (d) => d.peakPowerW),
       standoffClearsSteady: own.standoffV >= Math.max(ctx.supplyMaxV, ctx.reverseV, ctx.overvoltageV ?? 0),
     };
   };
@@ -177,7 +203,9 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
     const stresses = [stress(rs.blockingElement, magnitude + held, rs.ratingV)];
     if (rs.controllerReverseV !== undefined) stresses.push(stress("controller-input", magnitude, rs.controllerRatingV));
     // Budget at the input: each element's allowance less what the held output adds to it.
-    const budgets = stresses.map((s, i) => (s.allowedV === undefined ? Number.NEGATIVE_INFINITY : s.allowedV - (i === 0 ? held : 0)));
+    const budgets = stresses.map((s, i) =>
+      s.allowedV === undefined ? Number.NEGATIVE_INFINITY : s.allowedV - (i === 0 ? held : 0),
+    );
     const clampMaxV = Math.min(...budgets);
     return {
       pulseId: pulse.id,
@@ -187,14 +215,29 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
       tauS,
       stresses,
       reachesLoad: !blocks,
-      clamp: stresses.some((s) => s.exceeds) ? clampFor({ baseV: mirrored.baseV, amplitudeV: mirrored.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, ctx.reverseV, clampMaxV, ctx) : { needed: false },
+      clamp: stresses.some((s) => s.exceeds)
+        ? clampFor(
+            {
+              baseV: mirrored.baseV,
+              amplitudeV: mirrored.amplitudeV,
+              tauS,
+              sourceResistanceOhm: pulse.sourceResistanceOhm,
+            },
+            ctx.reverseV,
+            clampMaxV,
+            ctx,
+          )
+        : { needed: false },
       ...(dc ? { designClamp: dc } : {}),
     };
   }
 
   // Above the central suppressor's level the module clamp does not conduct: the input stays at that level.
   const held = pulse.clampedAtV !== undefined && own !== undefined && clampLawOf(own).breakdownV >= pulse.clampedAtV;
-  const dc = designClamp({ baseV, amplitudeV: held && pulse.clampedAtV !== undefined ? pulse.clampedAtV - baseV : pulse.amplitudeV }, ctx.parallelLoad);
+  const dc = designClamp(
+    { baseV, amplitudeV: held && pulse.clampedAtV !== undefined ? pulse.clampedAtV - baseV : pulse.amplitudeV },
+    ctx.parallelLoad,
+  );
   const inputPeak = limitByClamp(peak, dc);
   const stresses = forwardLimits(stage).map((l) => stress(l.element, l.seenV(inputPeak), l.ratingV));
   const exceeds = stresses.some((s) => s.exceeds);
@@ -202,9 +245,24 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
   if (exceeds) {
     // Centrally suppressed or not, a module clamp below the input's peak takes the generator's current.
     const clampMaxV = Math.min(...stresses.filter((s) => s.exceeds).map((s) => s.allowedV ?? Number.NEGATIVE_INFINITY));
-    clamp = clampFor({ baseV, amplitudeV: pulse.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm }, Math.max(ctx.supplyMaxV, ctx.overvoltageV ?? 0), clampMaxV, ctx);
+    clamp = clampFor(
+      { baseV, amplitudeV: pulse.amplitudeV, tauS, sourceResistanceOhm: pulse.sourceResistanceOhm },
+      Math.max(ctx.supplyMaxV, ctx.overvoltageV ?? 0),
+      clampMaxV,
+      ctx,
+    );
   }
-  return { pulseId: pulse.id, polarity: "positive", peakOpenCircuitV: peak, inputPeakV: inputPeak, tauS, stresses, reachesLoad: true, clamp, ...(dc ? { designClamp: dc } : {}) };
+  return {
+    pulseId: pulse.id,
+    polarity: "positive",
+    peakOpenCircuitV: peak,
+    inputPeakV: inputPeak,
+    tauS,
+    stresses,
+    reachesLoad: true,
+    clamp,
+    ...(dc ? { designClamp: dc } : {}),
+  };
 }
 
 function clampFor(
@@ -214,7 +272,10 @@ function clampFor(
   ctx: TransientContext,
 ): TransientResult["clamp"] {
   if (!Number.isFinite(clampMaxV) || clampMaxV <= 0) {
-    return { needed: "unmodelled", note: "a part in the path states no rating for this polarity: no clamp window can be given" };
+    return {
+      needed: "unmodelled",
+      note: "a part in the path states no rating for this polarity: no clamp window can be given",
+    };
   }
   const feasible = clampMaxV >= standoffMinV * ctx.clampToStandoffRatio;
   return {

@@ -7,7 +7,12 @@ export const SWEEP_RI_POINTS = 9;
 export const SWEEP_TD_POINTS = 5;
 
 /** The figures a sweep reports the worst case of. */
-export type SweepFigure = "inputPeakV" | "blockingStressV" | "clampEnergyJ" | "clampPeakCurrentA" | "requiredClampEnergyJ";
+export type SweepFigure =
+  | "inputPeakV"
+  | "blockingStressV"
+  | "clampEnergyJ"
+  | "clampPeakCurrentA"
+  | "requiredClampEnergyJ";
 
 /** Where a swept test's worst case of one or more figures lies. */
 export interface SweepWorst {
@@ -37,10 +42,22 @@ function figure(r: TransientResult, f: SweepFigure): number {
   }
 }
 
-const FIGURES: readonly SweepFigure[] = ["inputPeakV", "blockingStressV", "clampEnergyJ", "clampPeakCurrentA", "requiredClampEnergyJ"];
+const FIGURES: readonly SweepFigure[] = [
+  "inputPeakV",
+  "blockingStressV",
+  "clampEnergyJ",
+  "clampPeakCurrentA",
+  "requiredClampEnergyJ",
+];
 
 /** The pulse at one point of its sweep: the peak paired with Ri linearly between the standard's ends. */
-export function sweepPoint(pulse: TransientPulse, sw: TransientSweep, riOhm: number, decayS: number, baseV: number): TransientPulse {
+export function sweepPoint(
+  pulse: TransientPulse,
+  sw: TransientSweep,
+  riOhm: number,
+  decayS: number,
+  baseV: number,
+): TransientPulse {
   const [r0, r1] = sw.sourceResistanceOhm;
   const [v0, v1] = sw.peakV;
   const share = r1 > r0 ? (riOhm - r0) / (r1 - r0) : 1;
@@ -61,7 +78,11 @@ function grid(lo: number, hi: number, n: number): number[] {
  * through unchanged. Each figure is exact at the grid's points (the closed forms of
  * clamp-energy.ts); between them a figure that peaks inside a cell is read at its nearest point.
  */
-export function sweptTransientStress(stage: StageModel, pulse: TransientPulse, ctx: TransientContext): SweptTransientResult[] {
+export function sweptTransientStress(
+  stage: StageModel,
+  pulse: TransientPulse,
+  ctx: TransientContext,
+): SweptTransientResult[] {
   const sw = pulse.sweep;
   if (sw === undefined) return [transientStress(stage, pulse, ctx)];
   const baseV = pulse.baseV === "supply" ? ctx.supplyNominalV : pulse.baseV;
@@ -87,6 +108,16 @@ export function sweptTransientStress(stage: StageModel, pulse: TransientPulse, c
     .map(([i, worstOf]) => {
       const x = results[i];
       if (x === undefined) throw new Error("unreachable: sweep index out of range");
-      return { ...x.r, pulseId: pulse.id, sweep: { worstOf, sourceResistanceOhm: x.riOhm, decayS: x.decayS, peakOpenCircuitV: x.peakV, points: results.length } };
+      return {
+        ...x.r,
+        pulseId: pulse.id,
+        sweep: {
+          worstOf,
+          sourceResistanceOhm: x.riOhm,
+          decayS: x.decayS,
+          peakOpenCircuitV: x.peakV,
+          points: results.length,
+        },
+      };
     });
 }

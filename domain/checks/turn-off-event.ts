@@ -1,5 +1,15 @@
 import { cToK } from "../physics/constants.js";
-import { det2, firstCrossing, extremaTimes, loopSystem, outputV, type RlcLoop, stateAt, stateIntegral, type Vec2 } from "../physics/rlc-series.js";
+import {
+  det2,
+  firstCrossing,
+  extremaTimes,
+  loopSystem,
+  outputV,
+  type RlcLoop,
+  stateAt,
+  stateIntegral,
+  type Vec2,
+} from "../physics/rlc-series.js";
 import type { LoadModel } from "../solve/load-model.js";
 import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
 import { avalancheEnergyAtTjJ } from "./avalanche-derating.js";
@@ -77,10 +87,26 @@ export interface ClampPhase {
 }
 
 export type TurnOffOutcome =
-  | ({ readonly outcome: "blocks"; readonly turnOffS: number; readonly detectS?: number; readonly clamp?: ClampPhase } & TurnOffCommon)
-  | ({ readonly outcome: "does-not-block"; readonly reason: string; readonly fallsBelowMinS?: number; readonly settlesAtV: number } & TurnOffCommon)
+  | ({
+      readonly outcome: "blocks";
+      readonly turnOffS: number;
+      readonly detectS?: number;
+      readonly clamp?: ClampPhase;
+    } & TurnOffCommon)
+  | ({
+      readonly outcome: "does-not-block";
+      readonly reason: string;
+      readonly fallsBelowMinS?: number;
+      readonly settlesAtV: number;
+    } & TurnOffCommon)
   | ({ readonly outcome: "stays-on"; readonly reason: string } & TurnOffCommon)
-  | { readonly outcome: "clamp-below-drive"; readonly reason: string; readonly clampV: number; readonly driveV: number; readonly currentAtTurnOffA: number }
+  | {
+      readonly outcome: "clamp-below-drive";
+      readonly reason: string;
+      readonly clampV: number;
+      readonly driveV: number;
+      readonly currentAtTurnOffA: number;
+    }
   | { readonly outcome: "invalid-load-line"; readonly reason: string; readonly path: string }
   | {
       readonly outcome: "unstable-loop";
@@ -111,7 +137,12 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   // came out at −4.9e5 V, at 2e-16 the energy balance at 170). Within 0.1 % of V²/P the tangent
   // says nothing a converter at the edge of collapse would do.
   if (!(1 + m.esrOhm * line.conductanceS > 1e-3)) {
-    return { outcome: "invalid-load-line", reason: "the capacitor ESR is within 0.1 % of V²/P of the constant-power load, or above it (ESR·P/V² >= 0.999): the output is at the edge of collapse and the linearised loop has no meaning", path: "esrOhm" };
+    return {
+      outcome: "invalid-load-line",
+      reason:
+        "the capacitor ESR is within 0.1 % of V²/P of the constant-power load, or above it (ESR·P/V² >= 0.999): the output is at the edge of collapse and the linearised loop has no meaning",
+      path: "esrOhm",
+    };
   }
   const i0 = line.currentA + line.conductanceS * m.outputV;
   const vinBefore = m.outputV + i0 * m.loopResistanceOhm;
@@ -143,7 +174,14 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
     const reason = diverges
       ? `the constant-power load's incremental resistance ${rNeg.toPrecision(4)} ohm outweighs the loop resistance, or comes within 0.1 % of it (R·P/V² >= 0.999 without ESR): the linearised loop diverges (growth ${growthPerS.toPrecision(3)} 1/s) and the output collapses`
       : `the constant-power load's incremental resistance ${rNeg.toPrecision(4)} ohm gives the linearised loop negative damping (damping ratio ${ch.dampingRatio.toPrecision(3)}: P/V^2 > C·(R + ESR)/L): its oscillation grows at ${growthPerS.toPrecision(3)} 1/s, so there is no bounded response to report; damp the input filter (more loop resistance or ESR, less inductance or more capacitance)`;
-    return { outcome: "unstable-loop", reason, mode: diverges ? "diverges" : "oscillation-grows", dampingRatio: diverges ? 0 : ch.dampingRatio, growthPerS, loadIncrementalResistanceOhm: rNeg };
+    return {
+      outcome: "unstable-loop",
+      reason,
+      mode: diverges ? "diverges" : "oscillation-grows",
+      dampingRatio: diverges ? 0 : ch.dampingRatio,
+      growthPerS,
+      loadIncrementalResistanceOhm: rNeg,
+    };
   }
   const x0: Vec2 = [i0, m.outputV];
   const horizon = ch.decayPerS > 0 ? 60 / ch.decayPerS : (400 * Math.PI) / Math.max(ch.naturalRadPerS, 1e-300);
@@ -174,12 +212,18 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
       const settles = outputV(loop, stateAt(s, x0, horizon));
       const c = common(fall ?? horizon, true);
       const reason = path.reason;
-      return fall === undefined ? { outcome: "does-not-block", reason, settlesAtV: settles, ...c } : { outcome: "does-not-block", reason, fallsBelowMinS: fall, settlesAtV: settles, ...c };
+      return fall === undefined
+        ? { outcome: "does-not-block", reason, settlesAtV: settles, ...c }
+        : { outcome: "does-not-block", reason, fallsBelowMinS: fall, settlesAtV: settles, ...c };
     }
     case "controller": {
       const t = firstCrossing(s, x0, [1, 0], -path.tripCurrentA, horizon);
       if (t === undefined) {
-        return { outcome: "stays-on", reason: `the reverse current never reaches the trip level ${path.tripCurrentA.toPrecision(4)} A (threshold / Rds(on)): the controller keeps the channel on`, ...common(horizon, true) };
+        return {
+          outcome: "stays-on",
+          reason: `the reverse current never reaches the trip level ${path.tripCurrentA.toPrecision(4)} A (threshold / Rds(on)): the controller keeps the channel on`,
+          ...common(horizon, true),
+        };
       }
       detectS = t;
       turnOffS = t + path.offDelayS;
@@ -190,7 +234,12 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
       break;
     case "diode": {
       const t0 = firstCrossing(s, x0, [1, 0], 0, horizon);
-      if (t0 === undefined) return { outcome: "stays-on", reason: "the diode current never reverses: it stays forward biased", ...common(horizon, true) };
+      if (t0 === undefined)
+        return {
+          outcome: "stays-on",
+          reason: "the diode current never reverses: it stays forward biased",
+          ...common(horizon, true),
+        };
       turnOffS = recoveryEnd(s, x0, t0, m.reverseRecoveryChargeC ?? 0, horizon);
       detectS = t0;
       break;
@@ -202,18 +251,28 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   // No clamp phase without reverse current at turn-off. A current at rounding level (a diode
   // recovering at its zero crossing: ~1e-16 A, the crossing located to 1e-15 of its time) counts
   // as none: against the loop's current scale, max(|i0|, ΔV·√(C/L)), below 1e-9.
-  const currentScaleA = Math.max(Math.abs(i0), Math.abs(m.outputV - m.inputAfterV) * Math.sqrt(m.capacitanceF / m.loopInductanceH));
+  const currentScaleA = Math.max(
+    Math.abs(i0),
+    Math.abs(m.outputV - m.inputAfterV) * Math.sqrt(m.capacitanceF / m.loopInductanceH),
+  );
   if (!(xOff[0] < -1e-9 * currentScaleA)) return base;
   const clampV = m.clampV ?? stageBreakdownV(m.stage);
   const driveV = outputV(loop, xOff) - m.inputAfterV;
   if (!(clampV > driveV)) {
-    return { outcome: "clamp-below-drive", reason: `the clamp voltage ${clampV} V does not exceed the output-to-input voltage ${driveV.toPrecision(4)} V: the reverse current cannot be turned off`, clampV, driveV, currentAtTurnOffA: -xOff[0] };
+    return {
+      outcome: "clamp-below-drive",
+      reason: `the clamp voltage ${clampV} V does not exceed the output-to-input voltage ${driveV.toPrecision(4)} V: the reverse current cannot be turned off`,
+      clampV,
+      driveV,
+      currentAtTurnOffA: -xOff[0],
+    };
   }
   const clampLoop: RlcLoop = { ...loop, sourceV: m.inputAfterV + clampV, loopResistanceOhm: m.loopResistanceOhm };
   const sc = loopSystem(clampLoop);
   const cch = loopCharacter(sc);
   const ramp = (m.loopInductanceH * -xOff[0]) / (clampV - driveV);
-  const end = firstCrossing(sc, xOff, [1, 0], 0, Math.max(50 * ramp, cch.decayPerS > 0 ? 60 / cch.decayPerS : 50 * ramp)) ?? 0;
+  const end =
+    firstCrossing(sc, xOff, [1, 0], 0, Math.max(50 * ramp, cch.decayPerS > 0 ? 60 / cch.decayPerS : 50 * ramp)) ?? 0;
   const eventStoredJ = 0.5 * m.capacitanceF * m.outputV * m.outputV + 0.5 * m.loopInductanceH * i0 * i0;
   const energies = phaseEnergies(clampLoop, xOff, end, clampV, eventStoredJ);
   const inductiveEnergyJ = 0.5 * m.loopInductanceH * xOff[0] * xOff[0];
@@ -225,7 +284,13 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
     clampedFormulaJ: (inductiveEnergyJ * clampV) / (clampV - driveV),
     absorbedJ,
     durationS: end,
-    ...(m.avalancheRatingJ === undefined ? {} : avalancheFields(m.avalancheRatingJ, avalancheEnergyAtTjJ(m.avalancheRatingJ, stageTjMaxC(m.stage), m.tjC), absorbedJ)),
+    ...(m.avalancheRatingJ === undefined
+      ? {}
+      : avalancheFields(
+          m.avalancheRatingJ,
+          avalancheEnergyAtTjJ(m.avalancheRatingJ, stageTjMaxC(m.stage), m.tjC),
+          absorbedJ,
+        )),
     after: windowState(clampLoop, xOff, end, m.outputV, turnOffS),
     energies,
   };
@@ -238,7 +303,14 @@ function avalancheFields(ratingJ: number, atTjJ: number, absorbedJ: number) {
 
 function windowState(p: RlcLoop, x0: Vec2, t: number, v0: number, offsetS = 0): WindowState {
   const x = stateAt(loopSystem(p), x0, t);
-  return { timeS: offsetS + t, currentA: x[0], outputV: outputV(p, x), capacitorV: x[1], chargeLostC: p.capacitanceF * (v0 - x[1]), voltageLostV: v0 - x[1] };
+  return {
+    timeS: offsetS + t,
+    currentA: x[0],
+    outputV: outputV(p, x),
+    capacitorV: x[1],
+    chargeLostC: p.capacitanceF * (v0 - x[1]),
+    voltageLostV: v0 - x[1],
+  };
 }
 
 /**
@@ -248,7 +320,13 @@ function windowState(p: RlcLoop, x0: Vec2, t: number, v0: number, offsetS = 0): 
  * window on the same loop until the current turns. Where the largest value is still the end of
  * such a search (the current rising there), it is only a lower bound and says so.
  */
-function peakReverse(s: ReturnType<typeof loopSystem>, x0: Vec2, tEnd: number, searchS: number, open: boolean): { currentA: number; timeS: number; lowerBound: boolean } {
+function peakReverse(
+  s: ReturnType<typeof loopSystem>,
+  x0: Vec2,
+  tEnd: number,
+  searchS: number,
+  open: boolean,
+): { currentA: number; timeS: number; lowerBound: boolean } {
   let best = { currentA: 0, timeS: 0 };
   for (const t of [0, ...extremaTimes(s, x0, [1, 0], searchS, 2), tEnd, searchS]) {
     const rev = -stateAt(s, x0, t)[0];

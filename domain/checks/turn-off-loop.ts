@@ -23,7 +23,11 @@ export function loadLine(load: LoadModel, v0: number): { currentA: number; condu
     case "constant-current":
       return { currentA: load.currentA, conductanceS: 0, method: "constant-current source term (exact)" };
     case "resistive":
-      return { currentA: 0, conductanceS: 1 / load.resistanceOhm, method: "resistor in the second-order system (exact)" };
+      return {
+        currentA: 0,
+        conductanceS: 1 / load.resistanceOhm,
+        method: "resistor in the second-order system (exact)",
+      };
     case "constant-power":
       return {
         currentA: (2 * load.powerW) / v0,
@@ -49,7 +53,8 @@ export function loopCharacter(s: Linear2): LoopCharacter {
   const m = (s.a11 + s.a22) / 2;
   const d = det2(s);
   const q = m * m - d;
-  const regime: DampingRegime = Math.abs(q) <= 1e-12 * Math.max(m * m, Math.abs(d)) ? "critically-damped" : q < 0 ? "under-damped" : "over-damped";
+  const regime: DampingRegime =
+    Math.abs(q) <= 1e-12 * Math.max(m * m, Math.abs(d)) ? "critically-damped" : q < 0 ? "under-damped" : "over-damped";
   const wn = Math.sqrt(Math.max(d, 0));
   return { regime, dampingRatio: wn > 0 ? -m / wn : 0, naturalRadPerS: wn, decayPerS: slowestDecayPerS(s) };
 }
@@ -104,8 +109,21 @@ export function phaseEnergies(p: RlcLoop, x0: Vec2, t: number, clampV: number, e
   // of ½·C·V² and of its end's location, and a residual relative to that alone would be 1e-2 to
   // 1e20, meaning nothing for the event.
   const stored = Math.max(0.5 * p.capacitanceF * x0[1] * x0[1] + 0.5 * p.inductanceH * x0[0] * x0[0], eventStoredJ);
-  const scale = Math.max(Math.abs(capacitorLostJ) + Math.abs(inductorLostJ) + Math.abs(sourceDeliveredJ), 1e-9 * stored, 1e-300);
-  return { capacitorLostJ, inductorLostJ, sourceDeliveredJ, loopResistanceJ, esrJ, loadJ, clampJ, balanceResidual: (lost - used) / scale };
+  const scale = Math.max(
+    Math.abs(capacitorLostJ) + Math.abs(inductorLostJ) + Math.abs(sourceDeliveredJ),
+    1e-9 * stored,
+    1e-300,
+  );
+  return {
+    capacitorLostJ,
+    inductorLostJ,
+    sourceDeliveredJ,
+    loopResistanceJ,
+    esrJ,
+    loadJ,
+    clampJ,
+    balanceResidual: (lost - used) / scale,
+  };
 }
 
 /**

@@ -1,4 +1,12 @@
-import { extremaTimes, type Linear2, loopSystem, outputV, type RlcLoop, stateAt, type Vec2 } from "../physics/rlc-series.js";
+import {
+  extremaTimes,
+  type Linear2,
+  loopSystem,
+  outputV,
+  type RlcLoop,
+  stateAt,
+  type Vec2,
+} from "../physics/rlc-series.js";
 import type { TurnOffModel, TurnOffOutcome } from "./turn-off-event.js";
 import { loadLine } from "./turn-off-loop.js";
 
@@ -29,8 +37,13 @@ export const TURN_OFF_WAVEFORM_POINTS = 200;
  * time, the trip (detect) time, the turn-off instant and the window's end. Outcomes without a loop response
  * (clamp-below-drive, invalid-load-line, unstable-loop) have no waveform.
  */
-export function turnOffWaveform(m: TurnOffModel, r: TurnOffOutcome, points = TURN_OFF_WAVEFORM_POINTS): TurnOffWaveform | undefined {
-  if (r.outcome === "clamp-below-drive" || r.outcome === "invalid-load-line" || r.outcome === "unstable-loop") return undefined;
+export function turnOffWaveform(
+  m: TurnOffModel,
+  r: TurnOffOutcome,
+  points = TURN_OFF_WAVEFORM_POINTS,
+): TurnOffWaveform | undefined {
+  if (r.outcome === "clamp-below-drive" || r.outcome === "invalid-load-line" || r.outcome === "unstable-loop")
+    return undefined;
   const n = Math.max(2, Math.floor(points));
   const line = loadLine(m.load, m.outputV);
   const loop: RlcLoop = {
@@ -46,7 +59,10 @@ export function turnOffWaveform(m: TurnOffModel, r: TurnOffOutcome, points = TUR
   const x0: Vec2 = [r.initialCurrentA, m.outputV];
   // A stage that keeps conducting: to the end of the window or the reverse peak past it, whichever is later.
   const endS = r.outcome === "blocks" ? r.turnOffS : Math.max(r.end.timeS, r.peakReverseTimeS);
-  const extra = [r.peakReverseTimeS, ...(r.outcome === "blocks" ? (r.detectS !== undefined ? [r.detectS] : []) : [r.end.timeS])];
+  const extra = [
+    r.peakReverseTimeS,
+    ...(r.outcome === "blocks" ? (r.detectS !== undefined ? [r.detectS] : []) : [r.end.timeS]),
+  ];
   const cols = { timeS: [] as number[], currentA: [] as number[], outputV: [] as number[], capacitorV: [] as number[] };
   const push = (p: RlcLoop, sys: Linear2, start: Vec2, offsetS: number, times: readonly number[]): void => {
     for (const t of times) {

@@ -23,7 +23,11 @@ export const refuse = (reason: string, points: readonly number[] = []) => ({ ok:
  * smaller dip (reading noise on a flat stretch) is left to the fit and its gate. Points with equal
  * x are not compared.
  */
-export function firstFall(xs: readonly number[], ys: readonly number[], tolerance: number): readonly [number, number] | undefined {
+export function firstFall(
+  xs: readonly number[],
+  ys: readonly number[],
+  tolerance: number,
+): readonly [number, number] | undefined {
   const order = xs.map((_, i) => i).sort((a, b) => (xs[a] ?? 0) - (xs[b] ?? 0));
   for (let k = 1; k < order.length; k += 1) {
     const a = order[k - 1] ?? 0;

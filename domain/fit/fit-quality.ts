@@ -16,7 +16,11 @@ export interface FitQuality {
   readonly boundFraction: number;
 }
 
-export function fitQuality(modelled: readonly number[], measured: readonly number[], boundFraction: number): FitQuality {
+export function fitQuality(
+  modelled: readonly number[],
+  measured: readonly number[],
+  boundFraction: number,
+): FitQuality {
   let ss = 0;
   let worstIndex = 0;
   let worstFraction = -1;
@@ -30,7 +34,13 @@ export function fitQuality(modelled: readonly number[], measured: readonly numbe
     }
   });
   const worst = (modelled[worstIndex] ?? 0) - (measured[worstIndex] ?? 0);
-  return { rms: Math.sqrt(ss / Math.max(measured.length, 1)), worstIndex, worst, worstFraction: Math.max(worstFraction, 0), boundFraction };
+  return {
+    rms: Math.sqrt(ss / Math.max(measured.length, 1)),
+    worstIndex,
+    worst,
+    worstFraction: Math.max(worstFraction, 0),
+    boundFraction,
+  };
 }
 
 export const withinBound = (q: FitQuality): boolean => q.worstFraction <= q.boundFraction;
@@ -41,7 +51,9 @@ export function describeFit(what: string, q: FitQuality, unit: string, points: n
   return (
     `${what}: least-squares fit to ${points} points, RMS residual ${q.rms.toPrecision(3)} ${unit}, worst ${q.worst.toPrecision(3)} ${unit} ` +
     `(${pct(q.worstFraction)}) at point ${q.worstIndex}` +
-    (withinBound(q) ? ` (bound ${pct(q.boundFraction)})` : `, beyond the ${pct(q.boundFraction)} bound: accepted by the caller (acceptFit)`)
+    (withinBound(q)
+      ? ` (bound ${pct(q.boundFraction)})`
+      : `, beyond the ${pct(q.boundFraction)} bound: accepted by the caller (acceptFit)`)
   );
 }
 

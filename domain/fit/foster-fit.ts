@@ -37,16 +37,26 @@ export function fitFoster(points: readonly ZthPoint[], opts: FosterFitOptions = 
   const ts = points.map((p) => p.timeS);
   const zs = points.map((p) => p.zthKPerW);
   const fall = firstFall(ts, zs, ZTH_FIT_BOUND);
-  if (fall !== undefined) return refuse(`Zth falls by more than 5 % with time between points ${fall[0]} and ${fall[1]}: no Foster network follows that (each term rises with time)`, fall);
+  if (fall !== undefined)
+    return refuse(
+      `Zth falls by more than 5 % with time between points ${fall[0]} and ${fall[1]}: no Foster network follows that (each term rises with time)`,
+      fall,
+    );
   const s = opts.steadyKPerW;
   if (s !== undefined) {
     const over = zs.findIndex((z) => z > s * (1 + ZTH_FIT_BOUND));
-    if (over >= 0) return refuse(`point ${over} (Zth ${zs[over]} K/W) is above the steady value ${s} K/W: ΣR of a Foster network bounds Zth`, [over]);
+    if (over >= 0)
+      return refuse(
+        `point ${over} (Zth ${zs[over]} K/W) is above the steady value ${s} K/W: ΣR of a Foster network bounds Zth`,
+        [over],
+      );
   }
   const paramsFor = (k: number) => (s === undefined ? 2 * k : 2 * k - 1);
   const most = Math.min(MAX_FOSTER_STAGES, Math.floor((points.length + (s === undefined ? 0 : 1)) / 2));
   if (opts.stages !== undefined && paramsFor(opts.stages) > points.length) {
-    return refuse(`${opts.stages} stages have ${paramsFor(opts.stages)} parameters: give at least as many points (${points.length} given)`);
+    return refuse(
+      `${opts.stages} stages have ${paramsFor(opts.stages)} parameters: give at least as many points (${points.length} given)`,
+    );
   }
   if (most < 1) return refuse("a Foster fit needs at least two points (one with the steady value)");
   const candidates = opts.stages === undefined ? Array.from({ length: most }, (_, i) => i + 1) : [opts.stages];
@@ -60,7 +70,11 @@ export function fitFoster(points: readonly ZthPoint[], opts: FosterFitOptions = 
   return best ?? refuse("the Foster fit did not reach a finite solution");
 }
 
-function fitStages(points: readonly ZthPoint[], k: number, steady: number | undefined): Extract<FosterFit, { ok: true }> | undefined {
+function fitStages(
+  points: readonly ZthPoint[],
+  k: number,
+  steady: number | undefined,
+): Extract<FosterFit, { ok: true }> | undefined {
   const tMin = Math.min(...points.map((p) => p.timeS));
   const tMax = Math.max(...points.map((p) => p.timeS));
   const zMax = Math.max(...points.map((p) => p.zthKPerW));
@@ -75,14 +89,23 @@ function fitStages(points: readonly ZthPoint[], k: number, steady: number | unde
     const net = terms(u);
     return points.map((p) => (zthKPerW(net, p.timeS) - p.zthKPerW) / p.zthKPerW);
   };
-  const lower = [...new Array<number>(k).fill(LN_TAU[0]), ...new Array<number>(steady === undefined ? k : k - 1).fill(steady === undefined ? Math.log(1e-9) : -40)];
-  const upper = [...new Array<number>(k).fill(LN_TAU[1]), ...new Array<number>(steady === undefined ? k : k - 1).fill(steady === undefined ? Math.log(1e4) : 40)];
+  const lower = [
+    ...new Array<number>(k).fill(LN_TAU[0]),
+    ...new Array<number>(steady === undefined ? k : k - 1).fill(steady === undefined ? Math.log(1e-9) : -40),
+  ];
+  const upper = [
+    ...new Array<number>(k).fill(LN_TAU[1]),
+    ...new Array<number>(steady === undefined ? k : k - 1).fill(steady === undefined ? Math.log(1e4) : 40),
+  ];
   let best: { u: readonly number[]; ssr: number } | undefined;
   for (const widen of [1, 3, 1 / 3]) {
     const lo = Math.log(tMin / widen);
     const hi = Math.log(tMax * widen);
     const lnTaus = Array.from({ length: k }, (_, i) => (k === 1 ? (lo + hi) / 2 : lo + ((hi - lo) * i) / (k - 1)));
-    const start = steady === undefined ? [...lnTaus, ...new Array<number>(k).fill(Math.log(zMax / k))] : [...lnTaus, ...new Array<number>(k - 1).fill(0)];
+    const start =
+      steady === undefined
+        ? [...lnTaus, ...new Array<number>(k).fill(Math.log(zMax / k))]
+        : [...lnTaus, ...new Array<number>(k - 1).fill(0)];
     const sol = leastSquares({ residuals, start, lower, upper, maxIterations: 150 });
     if (sol.outcome !== "solved" || !Number.isFinite(sol.sumSquares)) continue;
     if (best === undefined || sol.sumSquares < best.ssr) best = { u: sol.params, ssr: sol.sumSquares };
@@ -97,5 +120,11 @@ function fitStages(points: readonly ZthPoint[], k: number, steady: number | unde
   );
   // Standard errors of single terms of a sum of exponentials are not meaningful (the terms trade
   // off against each other); the fit states its residuals instead.
-  return { ok: true, params: { terms: net, steadyKPerW: net.reduce((a, t) => a + t.rKPerW, 0) }, standardErrors: {}, quality, modelled };
+  return {
+    ok: true,
+    params: { terms: net, steadyKPerW: net.reduce((a, t) => a + t.rKPerW, 0) },
+    standardErrors: {},
+    quality,
+    modelled,
+  };
 }

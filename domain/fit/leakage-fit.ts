@@ -34,10 +34,25 @@ function groups(points: readonly LeakagePointTV[], key: (p: LeakagePointTV) => n
  * than the bound) with rising Tj at one VR or with rising VR at one Tj (no law of this form follows it), with the points.
  */
 export function fitLeakage(points: readonly LeakagePointTV[]): CurveFit<LeakageLaw> {
-  if (new Set(points.map((p) => p.tempK)).size < 2) return refuse("a leakage fit needs points at two junction temperatures or more (the barrier height comes from the temperature slope)");
+  if (new Set(points.map((p) => p.tempK)).size < 2)
+    return refuse(
+      "a leakage fit needs points at two junction temperatures or more (the barrier height comes from the temperature slope)",
+    );
   const sweeps = [
-    { along: (p: LeakagePointTV) => p.tempK, held: (p: LeakagePointTV) => p.reverseV, what: "Tj", same: "VR", why: "thermionic emission rises with temperature" },
-    { along: (p: LeakagePointTV) => p.reverseV, held: (p: LeakagePointTV) => p.tempK, what: "VR", same: "Tj", why: "no leakage law follows that" },
+    {
+      along: (p: LeakagePointTV) => p.tempK,
+      held: (p: LeakagePointTV) => p.reverseV,
+      what: "Tj",
+      same: "VR",
+      why: "thermionic emission rises with temperature",
+    },
+    {
+      along: (p: LeakagePointTV) => p.reverseV,
+      held: (p: LeakagePointTV) => p.tempK,
+      what: "VR",
+      same: "Tj",
+      why: "no leakage law follows that",
+    },
   ];
   for (const sweep of sweeps) {
     for (const g of groups(points, sweep.held)) {
@@ -48,7 +63,10 @@ export function fitLeakage(points: readonly LeakagePointTV[]): CurveFit<LeakageL
       );
       if (fall === undefined) continue;
       const pair = [g[fall[0]] ?? 0, g[fall[1]] ?? 0];
-      return refuse(`the reverse current falls by more than 25 % with rising ${sweep.what} between points ${pair[0]} and ${pair[1]} (same ${sweep.same}): ${sweep.why}`, pair);
+      return refuse(
+        `the reverse current falls by more than 25 % with rising ${sweep.what} between points ${pair[0]} and ${pair[1]} (same ${sweep.same}): ${sweep.why}`,
+        pair,
+      );
     }
   }
   const refVoltageV = Math.max(...points.map((p) => p.reverseV));

@@ -53,7 +53,8 @@ export type LeastSquaresResult =
 export function leastSquares(p: LeastSquaresProblem): LeastSquaresResult {
   const r0 = p.residuals(p.start);
   if (r0.length === p.start.length) return newtonRoot(p, r0);
-  if (r0.length < p.start.length) return { outcome: "singular", reason: `${r0.length} points cannot determine ${p.start.length} parameters` };
+  if (r0.length < p.start.length)
+    return { outcome: "singular", reason: `${r0.length} points cannot determine ${p.start.length} parameters` };
   return levenbergMarquardt(p);
 }
 
@@ -77,7 +78,8 @@ function forwardJacobian(p: LeastSquaresProblem, u: readonly number[], r: readon
 function newtonRoot(p: LeastSquaresProblem, r0: readonly number[]): LeastSquaresResult {
   const u = [...p.start];
   const dim = u.length;
-  const feasible = (t: readonly number[]) => t.every((v, j) => v > (p.lower[j] ?? Number.NEGATIVE_INFINITY) && v < (p.upper[j] ?? Number.POSITIVE_INFINITY));
+  const feasible = (t: readonly number[]) =>
+    t.every((v, j) => v > (p.lower[j] ?? Number.NEGATIVE_INFINITY) && v < (p.upper[j] ?? Number.POSITIVE_INFINITY));
   let r = r0;
   let norm = Math.hypot(...r);
   let iter = 0;
@@ -107,7 +109,8 @@ function newtonRoot(p: LeastSquaresProblem, r0: readonly number[]): LeastSquares
     }
     if (!accepted) break;
   }
-  if (!Number.isFinite(norm)) return { outcome: "non-finite", reason: "the model gives no finite value at the starting point" };
+  if (!Number.isFinite(norm))
+    return { outcome: "non-finite", reason: "the model gives no finite value at the starting point" };
   return {
     outcome: "solved",
     method: "newton",
@@ -131,7 +134,8 @@ function levenbergMarquardt(p: LeastSquaresProblem): LeastSquaresResult {
   let u = p.start.map(clip);
   let r = p.residuals(u);
   let ssr = sumSq(r);
-  if (!Number.isFinite(ssr)) return { outcome: "non-finite", reason: "the model gives no finite value at the starting point" };
+  if (!Number.isFinite(ssr))
+    return { outcome: "non-finite", reason: "the model gives no finite value at the starting point" };
   let jac = forwardJacobian(p, u, r);
   const normal = (jm: readonly number[][], rv: readonly number[]) => {
     const a = Array.from({ length: n }, () => new Array<number>(n).fill(0));

@@ -38,7 +38,7 @@ export function cauerToFoster(ladder: readonly CauerStage[]): FosterTerm[] {
   return eigenvectors
     .map(({ value, vector }) => {
       const norm = vector.reduce((s, x) => s + x * x, 0);
-      return { rKPerW: ((vector[0] ?? 0) ** 2 / norm / c1) / value, tauS: 1 / value };
+      return { rKPerW: (vector[0] ?? 0) ** 2 / norm / c1 / value, tauS: 1 / value };
     })
     .sort((x, y) => x.tauS - y.tauS);
 }

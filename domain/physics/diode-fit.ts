@@ -39,20 +39,32 @@ export type DiodeFitResult =
       readonly fitted: readonly ("saturationCurrentA" | "ideality" | "seriesResistanceOhm" | "energyGapEv")[];
       readonly quality: FitQuality;
       /** Standard errors (least-squares fits only): ln Is (a relative error of Is), n, Rs in ohm, Eg in eV. */
-      readonly standardErrors: { readonly lnSaturationCurrent?: number; readonly ideality?: number; readonly seriesResistanceOhm?: number; readonly energyGapEv?: number };
+      readonly standardErrors: {
+        readonly lnSaturationCurrent?: number;
+        readonly ideality?: number;
+        readonly seriesResistanceOhm?: number;
+        readonly energyGapEv?: number;
+      };
       /** Modelled Vf at each point, in the caller's order. */
       readonly modelledV: readonly number[];
     }
   | { readonly ok: false; readonly code: "fit-failed"; readonly message: string; readonly points: readonly number[] };
 
-const fail = (message: string, points: readonly number[] = []): DiodeFitResult => ({ ok: false, code: "fit-failed", message, points });
+const fail = (message: string, points: readonly number[] = []): DiodeFitResult => ({
+  ok: false,
+  code: "fit-failed",
+  message,
+  points,
+});
 
 /**
  * Points a Shockley diode with Rs ≥ 0 cannot follow, whatever its parameters: at one temperature
  * its Vf rises strictly with current (dV/dI = n·Vt/(I + Is) + Rs > 0). Returns the offending pair
  * (indices in the caller's order) and a reason, or undefined.
  */
-export function unfollowableForward(points: readonly ForwardPoint[]): { readonly points: readonly number[]; readonly reason: string } | undefined {
+export function unfollowableForward(
+  points: readonly ForwardPoint[],
+): { readonly points: readonly number[]; readonly reason: string } | undefined {
   const byTemp = new Map<number, number[]>();
   points.forEach((p, i) => {
     byTemp.set(p.tempK, [...(byTemp.get(p.tempK) ?? []), i]);
@@ -137,15 +149,22 @@ export function fitDiode(points: readonly ForwardPoint[], opts: DiodeFitOptions)
   const r = sol.residuals;
   const maxResidualV = Math.max(...r.map(Math.abs));
   if (exact) {
-    if (!(maxResidualV < 1e-6)) return fail(`no diode law passes through the points (residual ${maxResidualV.toExponential(2)} V)`);
-    if (params.ideality < 0.5 || params.ideality > 10) return fail(`the points imply an ideality factor of ${params.ideality.toFixed(3)}, outside 0.5..10`);
+    if (!(maxResidualV < 1e-6))
+      return fail(`no diode law passes through the points (residual ${maxResidualV.toExponential(2)} V)`);
+    if (params.ideality < 0.5 || params.ideality > 10)
+      return fail(`the points imply an ideality factor of ${params.ideality.toFixed(3)}, outside 0.5..10`);
     if (params.seriesResistanceOhm < 0) {
-      return fail(`the points imply a negative series resistance (${params.seriesResistanceOhm.toExponential(3)} ohm): the curve bends the wrong way`);
+      return fail(
+        `the points imply a negative series resistance (${params.seriesResistanceOhm.toExponential(3)} ohm): the curve bends the wrong way`,
+      );
     }
   }
   const modelledV = points.map((pt) => diodeVoltageV(params, pt.currentA, pt.tempK));
   const se = sol.standardErrors;
-  const fitted = (["saturationCurrentA", "ideality", "seriesResistanceOhm", "energyGapEv"] as const).slice(0, start.length);
+  const fitted = (["saturationCurrentA", "ideality", "seriesResistanceOhm", "energyGapEv"] as const).slice(
+    0,
+    start.length,
+  );
   return {
     ok: true,
     params,

@@ -40,13 +40,21 @@ export function emissionVoltageV(p: DiodeParams, tK: number): number {
 /** Saturation current at the absolute temperature tK, A. */
 export function saturationCurrentAt(p: DiodeParams, tK: number): number {
   if (p.linearTempCoVPerK !== undefined) {
-    return p.saturationCurrentA * Math.exp((-p.linearTempCoVPerK * (tK - p.nominalTempK)) / emissionVoltageV(p, p.nominalTempK));
+    return (
+      p.saturationCurrentA *
+      Math.exp((-p.linearTempCoVPerK * (tK - p.nominalTempK)) / emissionVoltageV(p, p.nominalTempK))
+    );
   }
   const ratio = tK / p.nominalTempK;
   const vt = thermalVoltageV(tK);
   // (T/T0)^(XTI/n)·exp(Eg/(n·Vt)·(T/T0 − 1)) as one exponential of the summed logs: the same law,
   // one transcendental call fewer than Math.pow and exp (every circuit solve of every stage).
-  return p.saturationCurrentA * Math.exp((p.saturationTempExponent / p.ideality) * Math.log(ratio) + (p.energyGapEv / (p.ideality * vt)) * (ratio - 1));
+  return (
+    p.saturationCurrentA *
+    Math.exp(
+      (p.saturationTempExponent / p.ideality) * Math.log(ratio) + (p.energyGapEv / (p.ideality * vt)) * (ratio - 1),
+    )
+  );
 }
 
 /** Forward voltage at forward current currentA (≥ 0) and temperature tK: explicit. */
@@ -76,7 +84,11 @@ export interface DiodeAtT {
 }
 
 export function diodeAt(p: DiodeParams, tK: number): DiodeAtT {
-  return { saturationCurrentA: saturationCurrentAt(p, tK), emissionVoltageV: emissionVoltageV(p, tK), seriesResistanceOhm: p.seriesResistanceOhm };
+  return {
+    saturationCurrentA: saturationCurrentAt(p, tK),
+    emissionVoltageV: emissionVoltageV(p, tK),
+    seriesResistanceOhm: p.seriesResistanceOhm,
+  };
 }
 
 /** V = n·Vt·ln(I/Is + 1) + I·Rs at the junction's temperature (diodeVoltageV's formula). */

@@ -37,7 +37,12 @@ export function pulseTrainRiseK(net: readonly FosterTerm[], pulses: readonly Pow
  * Advance the node rises of a Foster network over dtS with the power held at powerW — exact for a
  * constant power over the step: ΔTi ← ΔTi·e^(−dt/τi) + Ri·P·(1 − e^(−dt/τi)).
  */
-export function stepFoster(net: readonly FosterTerm[], rises: readonly number[], powerW: number, dtS: number): number[] {
+export function stepFoster(
+  net: readonly FosterTerm[],
+  rises: readonly number[],
+  powerW: number,
+  dtS: number,
+): number[] {
   return net.map((term, i) => {
     const decay = Math.exp(-dtS / term.tauS);
     return (rises[i] ?? 0) * decay + term.rKPerW * powerW * (1 - decay);
@@ -60,7 +65,10 @@ export interface PeriodicTrain {
  * Every term rises through a pulse and falls between pulses, so the train's highest rise is at the
  * end of its last pulse; the steady-state peak bounds every finite train.
  */
-export function periodicTrainRiseK(net: readonly FosterTerm[], train: PeriodicTrain): { readonly lastPeakK: number; readonly steadyPeakK: number; readonly steadyValleyK: number } {
+export function periodicTrainRiseK(
+  net: readonly FosterTerm[],
+  train: PeriodicTrain,
+): { readonly lastPeakK: number; readonly steadyPeakK: number; readonly steadyValleyK: number } {
   let lastPeakK = 0;
   let steadyPeakK = 0;
   let steadyValleyK = 0;

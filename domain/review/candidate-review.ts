@@ -1,7 +1,19 @@
 import { type ReverseSteadyResult, reverseSteady } from "../checks/reverse-steady.js";
 import { type CornerResult, type CornerSpace, solveCorners, type WorstCase, worstCase } from "../checks/corners.js";
-import { type MissionEnergy, type MissionRow, missionEnergy, type StandbyDrain, standbyDrain } from "../checks/energy.js";
-import { alongProfile, type DriveAtInput, driveAtInput, type ProfileResult, type TransientThermal } from "../checks/start-up.js";
+import {
+  type MissionEnergy,
+  type MissionRow,
+  missionEnergy,
+  type StandbyDrain,
+  standbyDrain,
+} from "../checks/energy.js";
+import {
+  alongProfile,
+  type DriveAtInput,
+  driveAtInput,
+  type ProfileResult,
+  type TransientThermal,
+} from "../checks/start-up.js";
 import type { ControllerTurnOff } from "../checks/reverse-path.js";
 import { blocksReverseCurrent } from "../checks/stage-ratings.js";
 import { thermalSizing, type ThermalSizing } from "../checks/thermal-sizing.js";
@@ -48,7 +60,6 @@ export interface ReviewRequirement {
   readonly turnOff?: ReviewTurnOff;
 }
 
-
 export interface ReviewCandidate {
   readonly stage: StageModel;
   /** Transient allowances read from the rule set (absent: rating × the requirement's derating). */
@@ -64,7 +75,11 @@ export interface ReviewCandidate {
 export interface CandidateReview {
   readonly corners: readonly CornerResult[];
   readonly worst: WorstCase;
-  readonly startUp: { readonly atMinSupply: DriveAtInput; readonly atProfileMin?: DriveAtInput; readonly profiles: readonly { readonly ambientC: number; readonly result: ProfileResult }[] };
+  readonly startUp: {
+    readonly atMinSupply: DriveAtInput;
+    readonly atProfileMin?: DriveAtInput;
+    readonly profiles: readonly { readonly ambientC: number; readonly result: ProfileResult }[];
+  };
   /** The start voltage the start checks used (the datasheet maximum where given), V; undefined for a stage without one. */
   readonly startVoltageV?: number;
   readonly reverse: ReverseSteadyResult;
@@ -94,22 +109,42 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
   const fullScale = Math.max(...req.loadScales);
 
   // Start-up at the lowest supply, full load: the stage input after the source drop.
-  const minCorner = corners.find((c) => c.conditions.supply === "min" && c.conditions.loadScale === fullScale && "point" in c.result);
+  const minCorner = corners.find(
+    (c) => c.conditions.supply === "min" && c.conditions.loadScale === fullScale && "point" in c.result,
+  );
   const minPoint = minCorner && "point" in minCorner.result ? minCorner.result.point : undefined;
   // The start checks take the datasheet-maximum start voltage and gate threshold where given (the
   // factors stay typical here, as the start checks had them before).
   const dm = cand.datasheetMax;
-  const startStage = dm ? scaleStage(cand.stage, { ...UNSCALED, ...(dm.startShiftV === undefined ? {} : { startShiftV: dm.startShiftV }), ...(dm.thresholdShiftV === undefined ? {} : { thresholdShiftV: dm.thresholdShiftV }) }) : cand.stage;
+  const startStage = dm
+    ? scaleStage(cand.stage, {
+        ...UNSCALED,
+        ...(dm.startShiftV === undefined ? {} : { startShiftV: dm.startShiftV }),
+        ...(dm.thresholdShiftV === undefined ? {} : { thresholdShiftV: dm.thresholdShiftV }),
+      })
+    : cand.stage;
   const startVoltageV = stageStartV(startStage);
   const atMinSupply = driveAtInput(startStage, minPoint?.stageInputV ?? req.supplyMinV, minPoint?.forward.dropV ?? 0);
   const profiles = req.startProfile
     ? [req.ambientMinC, req.ambientMaxC].map((ambientC) => ({
         ambientC,
-        result: alongProfile(startStage, req.startProfile ?? [], req.load, req.sourceResistanceOhm, ambientC, cand.transientThermal),
+        result: alongProfile(
+          startStage,
+          req.startProfile ?? [],
+          req.load,
+          req.sourceResistanceOhm,
+          ambientC,
+          cand.transientThermal,
+        ),
       }))
     : [];
 
-  const reverse = reverseSteady(cand.stage, req.reverseV, req.ambientMaxC, behaviourOf(cand.stage).reverseLeakage(cand.stage));
+  const reverse = reverseSteady(
+    cand.stage,
+    req.reverseV,
+    req.ambientMaxC,
+    behaviourOf(cand.stage).reverseLeakage(cand.stage),
+  );
   // Object.assign: a literal that opens with a spread and then gets fields is V8's slow path.
   const tctx: TransientContext = Object.assign(
     {},
@@ -127,8 +162,10 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
   let hottest: { supplyV: number; tjC: number } | undefined;
   for (const c of corners) {
     const k = c.conditions;
-    if (k.ambient !== "max" || k.loadScale !== fullScale || k.tolerance !== hotTolerance || !("point" in c.result)) continue;
-    if (hottest === undefined || c.result.point.tjC > hottest.tjC) hottest = { supplyV: k.supplyV, tjC: c.result.point.tjC };
+    if (k.ambient !== "max" || k.loadScale !== fullScale || k.tolerance !== hotTolerance || !("point" in c.result))
+      continue;
+    if (hottest === undefined || c.result.point.tjC > hottest.tjC)
+      hottest = { supplyV: k.supplyV, tjC: c.result.point.tjC };
   }
   const sizingSupplies = hottest ? [hottest.supplyV] : [req.supplyMinV, req.supplyNominalV, req.supplyMaxV];
   const sizing = thermalSizing(
@@ -144,13 +181,33 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
     stageTjMaxC(cand.stage) - req.tjMarginK,
   );
 
-  const turnOff = req.turnOff ? reviewTurnOff(req.turnOff, { load: req.load, ambientMaxC: req.ambientMaxC, ...(req.loadMinV === undefined ? {} : { loadMinV: req.loadMinV }) }, cand, worst.tjC?.value) : undefined;
-  const energy = req.mission ? missionEnergy(cand.stage, req.mission, req.supplyNominalV, req.sourceResistanceOhm, req.load, req.pricePerKWh) : undefined;
+  const turnOff = req.turnOff
+    ? reviewTurnOff(
+        req.turnOff,
+        {
+          load: req.load,
+          ambientMaxC: req.ambientMaxC,
+          ...(req.loadMinV === undefined ? {} : { loadMinV: req.loadMinV }),
+        },
+        cand,
+        worst.tjC?.value,
+      )
+    : undefined;
+  const energy = req.mission
+    ? missionEnergy(cand.stage, req.mission, req.supplyNominalV, req.sourceResistanceOhm, req.load, req.pricePerKWh)
+    : undefined;
   return {
     corners,
     worst,
     // The start check at the profile's lowest point (the crank's dip), where the start margin is least.
-    startUp: req.startProfile && req.startProfile.length > 0 ? { atMinSupply, atProfileMin: driveAtInput(startStage, Math.min(...req.startProfile.map((p) => p.voltageV))), profiles } : { atMinSupply, profiles },
+    startUp:
+      req.startProfile && req.startProfile.length > 0
+        ? {
+            atMinSupply,
+            atProfileMin: driveAtInput(startStage, Math.min(...req.startProfile.map((p) => p.voltageV))),
+            profiles,
+          }
+        : { atMinSupply, profiles },
     ...(startVoltageV === undefined ? {} : { startVoltageV }),
     reverse,
     transients,
@@ -163,7 +220,11 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
 }
 
 /** The supply's highest steady overvoltage (jump start, long-term overvoltage, abnormal limit), V; undefined where it has none. */
-export function steadyOvervoltageV(req: Pick<ReviewRequirement, "jumpStartV" | "longTermOvervoltageV" | "abnormalMaxV">): number | undefined {
-  const levels = [req.jumpStartV, req.longTermOvervoltageV, req.abnormalMaxV].filter((v): v is number => v !== undefined);
+export function steadyOvervoltageV(
+  req: Pick<ReviewRequirement, "jumpStartV" | "longTermOvervoltageV" | "abnormalMaxV">,
+): number | undefined {
+  const levels = [req.jumpStartV, req.longTermOvervoltageV, req.abnormalMaxV].filter(
+    (v): v is number => v !== undefined,
+  );
   return levels.length === 0 ? undefined : Math.max(...levels);
 }

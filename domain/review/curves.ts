@@ -59,7 +59,12 @@ export function curveAmbients(ambientMinC: number, ambientMaxC: number, steps = 
  * or, where no corner solved, the lowest supply at the hottest ambient and full load (datasheet
  * maximum where given). Pure; deterministic.
  */
-export function reviewCurves(stage: StageModel, space: CurveSpace, corners: readonly CornerResult[], worst: WorstCase): ReviewCurves {
+export function reviewCurves(
+  stage: StageModel,
+  space: CurveSpace,
+  corners: readonly CornerResult[],
+  worst: WorstCase,
+): ReviewCurves {
   const full = Math.max(...space.loadScales);
   const worstCorner = worst.tjC === undefined ? undefined : corners[worst.tjC.cornerIndex];
   const conditions: CurveConditions = worstCorner
@@ -73,13 +78,27 @@ export function reviewCurves(stage: StageModel, space: CurveSpace, corners: read
         tolerance: space.datasheetMax ? "datasheet-max" : "typical",
         basis: "lowest-supply-hot-full-load",
       };
-  const s = conditions.tolerance === "datasheet-max" && space.datasheetMax ? scaleStage(stage, space.datasheetMax) : stage;
+  const s =
+    conditions.tolerance === "datasheet-max" && space.datasheetMax ? scaleStage(stage, space.datasheetMax) : stage;
   const rthKPerW = totalRthKPerW(s.thermal);
   const solve = (loadScale: number, ambientC: number) =>
-    solveOperatingPoint({ stage: s, supplyV: conditions.supplyV, sourceResistanceOhm: space.sourceResistanceOhm, load: scaleLoad(space.load, loadScale), ambientC, rthKPerW });
+    solveOperatingPoint({
+      stage: s,
+      supplyV: conditions.supplyV,
+      sourceResistanceOhm: space.sourceResistanceOhm,
+      load: scaleLoad(space.load, loadScale),
+      ambientC,
+      rthKPerW,
+    });
   return {
     conditions,
-    load: curveLoadLevels(space.loadScales).map((loadScale) => ({ loadScale, result: solve(loadScale, conditions.ambientC) })),
-    ambient: curveAmbients(space.ambientMinC, space.ambientMaxC).map((ambientC) => ({ ambientC, result: solve(conditions.loadScale, ambientC) })),
+    load: curveLoadLevels(space.loadScales).map((loadScale) => ({
+      loadScale,
+      result: solve(loadScale, conditions.ambientC),
+    })),
+    ambient: curveAmbients(space.ambientMinC, space.ambientMaxC).map((ambientC) => ({
+      ambientC,
+      result: solve(conditions.loadScale, ambientC),
+    })),
   };
 }

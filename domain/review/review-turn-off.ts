@@ -40,7 +40,11 @@ export interface ReviewTurnOffResult {
 export function reviewTurnOff(
   t: ReviewTurnOff,
   req: { readonly load: LoadModel; readonly loadMinV?: number; readonly ambientMaxC: number },
-  cand: { readonly stage: StageModel; readonly turnOffController?: ControllerTurnOff; readonly turnOffWaveform?: boolean },
+  cand: {
+    readonly stage: StageModel;
+    readonly turnOffController?: ControllerTurnOff;
+    readonly turnOffWaveform?: boolean;
+  },
   worstTjC: number | undefined,
 ): ReviewTurnOffResult {
   const tjSource = t.tjC !== undefined ? "given" : worstTjC !== undefined ? "worst-corner" : "highest-ambient";
@@ -64,6 +68,12 @@ export function reviewTurnOff(
   };
   const result = turnOffEvent(model);
   const waveform = cand.turnOffWaveform ? turnOffWaveform(model, result) : undefined;
-  return { tjC, tjSource, repetitive: t.repetitive, ...(avalancheRatingJ === undefined ? {} : { avalancheRatingJ }), result, ...(waveform ? { waveform } : {}) };
+  return {
+    tjC,
+    tjSource,
+    repetitive: t.repetitive,
+    ...(avalancheRatingJ === undefined ? {} : { avalancheRatingJ }),
+    result,
+    ...(waveform ? { waveform } : {}),
+  };
 }
-

@@ -29,7 +29,8 @@ const isoRev24 = "reversed voltage −28 V for 60 s, ISO 16750-2 clause 4.7 (mem
 const nominal12 = "nominal 13.5 V with the generator running (memory)";
 const nominal24 = "nominal 27 V with the generator running (memory)";
 const jump12 = "jump start 24 V for 60 s, ISO 16750-2 clause 4.3.1.2 (docs/references.md [S, secondary])";
-const jump24 = "jump start 36 V for 60 s (memory: the secondary source gives the jump-start test for 12 V systems only; 36 V equals the long-term overvoltage)";
+const jump24 =
+  "jump start 36 V for 60 s (memory: the secondary source gives the jump-start test for 12 V systems only; 36 V equals the long-term overvoltage)";
 const longTerm12 = "long-term overvoltage 18 V for 60 min, ISO 16750-2 clause 4.3.1.1 (memory)";
 const longTerm24 = "long-term overvoltage 36 V for 60 min, ISO 16750-2 clause 4.3.1.1 (memory)";
 
@@ -78,7 +79,8 @@ export const SUPPLY_CLASSES: readonly SupplyClass[] = [
     reverseV: 28.8,
     reverseDurationS: 3600,
     transients: ["iec61000-4-5-surge-1kv-line-line"],
-    source: "IEC 61131-2 24 V DC steady range −15 %/+20 % of 24 V = 20.4–28.8 V (docs/references.md [S, secondary]); reverse: the full maximum reversed by miswiring (common practice); surge IEC 61000-4-5 1 kV line to line (memory)",
+    source:
+      "IEC 61131-2 24 V DC steady range −15 %/+20 % of 24 V = 20.4–28.8 V (docs/references.md [S, secondary]); reverse: the full maximum reversed by miswiring (common practice); surge IEC 61000-4-5 1 kV line to line (memory)",
   },
   {
     id: "telecom-48v",
@@ -90,7 +92,8 @@ export const SUPPLY_CLASSES: readonly SupplyClass[] = [
     reverseDurationS: 3600,
     abnormalMaxV: 60,
     transients: ["iec61000-4-5-surge-1kv-line-line"],
-    source: "ETSI EN 300 132-2 normal service range −40.5 to −57.0 V [S]; abnormal to −60 V (memory); nominal −54 V float (memory); reverse: feed wires swapped at the abnormal limit (common practice); surge IEC 61000-4-5 1 kV line to line (memory)",
+    source:
+      "ETSI EN 300 132-2 normal service range −40.5 to −57.0 V [S]; abnormal to −60 V (memory); nominal −54 V float (memory); reverse: feed wires swapped at the abnormal limit (common practice); surge IEC 61000-4-5 1 kV line to line (memory)",
   },
   ...[
     ["poe-pd-type-1", "Type 1", 37, 12.95],
@@ -107,7 +110,8 @@ export const SUPPLY_CLASSES: readonly SupplyClass[] = [
       reverseV: 57,
       reverseDurationS: 3600,
       transients: [],
-      source: "IEEE 802.3 PD input ranges (docs/references.md, secondary tables [S]); nominal 50 V (memory); the PD must accept either polarity (clause 33.3.1), so reverse = the full range reversed",
+      source:
+        "IEEE 802.3 PD input ranges (docs/references.md, secondary tables [S]); nominal 50 V (memory); the PD must accept either polarity (clause 33.3.1), so reverse = the full range reversed",
     }),
   ),
 ];

@@ -20,11 +20,19 @@ function coldBreakdown(stage: StageModel, req: ReviewRequirement): Record<string
  * bound on that one name, the part's ratings held). The review sizes its clamp window to these,
  * so the window and the verdicts agree; a name no rule bounds keeps rating × derating.
  */
-export function transientAllowanceOf(set: CompiledRuleSet, stage: StageModel, req: ReviewRequirement): TransientAllowance {
+export function transientAllowanceOf(
+  set: CompiledRuleSet,
+  stage: StageModel,
+  req: ReviewRequirement,
+): TransientAllowance {
   const base: RuleInput = {
     stageKind: stage.kind,
     // stageMetrics is a fresh record (no spread clone: V8's slow path once fields follow it).
-    metrics: Object.assign(stageMetrics(stage), { supplyMinV: req.supplyMinV, supplyMaxV: req.supplyMaxV, reverseVMaxV: req.reverseV }, coldBreakdown(stage, req)),
+    metrics: Object.assign(
+      stageMetrics(stage),
+      { supplyMinV: req.supplyMinV, supplyMaxV: req.supplyMaxV, reverseVMaxV: req.reverseV },
+      coldBreakdown(stage, req),
+    ),
     part: partParameters(stage),
   };
   // Probe above the steady supply: a rule like max(supplyMaxV, transientVMaxV) <= rating is flat below it.
@@ -36,7 +44,8 @@ export function transientAllowanceOf(set: CompiledRuleSet, stage: StageModel, re
       if (rule.rule.appliesTo !== "all" && !rule.rule.appliesTo.includes(stage.kind)) continue;
       // ruleBoundary sets `name` itself for every trial, starting at the probe.
       const b = ruleBoundary(rule, base, name, set.stamp, probe);
-      if (b.kind === "bound" && b.bound === "at-most" && b.value > 0) best = best === undefined ? b.value : Math.min(best, b.value);
+      if (b.kind === "bound" && b.bound === "at-most" && b.value > 0)
+        best = best === undefined ? b.value : Math.min(best, b.value);
     }
     return best;
   };

@@ -39,8 +39,10 @@ const ed2011 = "ISO 7637-2:2011 Annex A, level IV (memory: confirm against the e
 /** ISO 16750-2 UA: the generator's operating voltage, 14 V (12 V systems) / 28 V (24 V systems) (docs/references.md [S, secondary]). */
 const UA12 = 14;
 const UA24 = 28;
-const loadDumpA12 = "ISO 16750-2 clause 4.6.4 test A, 12 V: Us 79–101 V, Ri 0.5–4 ohm, td 40–400 ms, tr 10 ms, higher Us with higher Ri; UA 14 V (docs/references.md [S, secondary]); Us read as the peak including UA (memory)";
-const loadDumpA24 = "ISO 16750-2 clause 4.6.4 test A, 24 V: Us 151–202 V, Ri 1–8 ohm, td 100–350 ms, tr 10 ms, higher Us with higher Ri; UA 28 V (docs/references.md [S, secondary]); Us read as the peak including UA (memory)";
+const loadDumpA12 =
+  "ISO 16750-2 clause 4.6.4 test A, 12 V: Us 79–101 V, Ri 0.5–4 ohm, td 40–400 ms, tr 10 ms, higher Us with higher Ri; UA 14 V (docs/references.md [S, secondary]); Us read as the peak including UA (memory)";
+const loadDumpA24 =
+  "ISO 16750-2 clause 4.6.4 test A, 24 V: Us 151–202 V, Ri 1–8 ohm, td 100–350 ms, tr 10 ms, higher Us with higher Ri; UA 28 V (docs/references.md [S, secondary]); Us read as the peak including UA (memory)";
 
 /** IEC 61000-4-5 combination wave on a DC power port (docs/references.md): level kV, coupling and polarity. */
 function surge(levelKV: number, coupling: "line-line" | "line-earth", polarity: 1 | -1): TransientPulse {
@@ -69,7 +71,8 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 1e-6,
     decayS: 2e-3,
     decayConvention: "to-10-percent",
-    source: "ISO 7637-2 pulse 1, 12 V: −75 to −150 V, Ri 10 ohm, td 2 ms, tr 1 us (memory); applied with the supply disconnected (memory)",
+    source:
+      "ISO 7637-2 pulse 1, 12 V: −75 to −150 V, Ri 10 ohm, td 2 ms, tr 1 us (memory); applied with the supply disconnected (memory)",
   },
   {
     id: "iso7637-2-pulse-1-24v",
@@ -80,7 +83,8 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 3e-6,
     decayS: 1e-3,
     decayConvention: "to-10-percent",
-    source: "ISO 7637-2 pulse 1, 24 V: up to −600 V, Ri 50 ohm, td 1 ms, tr 3 us (docs/references.md [S]); base 0 V (memory)",
+    source:
+      "ISO 7637-2 pulse 1, 24 V: up to −600 V, Ri 50 ohm, td 1 ms, tr 3 us (docs/references.md [S]); base 0 V (memory)",
   },
   {
     id: "iso7637-2-pulse-2a",
@@ -91,7 +95,8 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 1e-6,
     decayS: 50e-6,
     decayConvention: "to-10-percent",
-    source: "ISO 7637-2 pulse 2a: +37 to +112 V, Ri 2 ohm, td 50 us, tr 1 us (docs/references.md [S]); riding on the nominal supply (memory)",
+    source:
+      "ISO 7637-2 pulse 2a: +37 to +112 V, Ri 2 ohm, td 50 us, tr 1 us (docs/references.md [S]); riding on the nominal supply (memory)",
   },
   {
     id: "iso7637-2-pulse-2b-12v",
@@ -124,7 +129,8 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 5e-9,
     decayS: 0.1e-6,
     decayConvention: "to-10-percent",
-    source: "ISO 7637-2:2004 pulses 3a/3b: ±(75–220) V class levels, Ri 50 ohm, td 0.1 us, tr 5 ns (docs/references.md [S/M])",
+    source:
+      "ISO 7637-2:2004 pulses 3a/3b: ±(75–220) V class levels, Ri 50 ohm, td 0.1 us, tr 5 ns (docs/references.md [S/M])",
   },
   ...(
     [
@@ -196,7 +202,9 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     sweep: { sourceResistanceOhm: [1, 8], decayS: [100e-3, 350e-3], peakV: [151, 202] },
     source: `ISO 16750-2 clause 4.6.4 test B, 24 V: clamped to about 58 V (docs/references.md [S]); a module clamp below it takes the generator's whole current (${loadDumpA24})`,
   },
-  ...[0.5, 1, 2].flatMap((kv) => (["line-line", "line-earth"] as const).flatMap((c) => [surge(kv, c, 1), surge(kv, c, -1)])),
+  ...[0.5, 1, 2].flatMap((kv) =>
+    (["line-line", "line-earth"] as const).flatMap((c) => [surge(kv, c, 1), surge(kv, c, -1)]),
+  ),
 ];
 
 export function findTransient(id: string): TransientPulse | undefined {

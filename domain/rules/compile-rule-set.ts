@@ -87,12 +87,25 @@ export function compileRuleSet(set: RuleSet, size: ExpressionSizeLimits = EXPRES
   const seen = new Set<string>();
   const pending: Omit<CompiledRule, "setIndex" | "coverText" | "work">[] = [];
   for (const rule of set.rules) {
-    if (seen.has(rule.id)) errors.push({ ruleId: rule.id, field: "id", code: "duplicate-id", column: 1, message: `rule id '${rule.id}' appears more than once` });
+    if (seen.has(rule.id))
+      errors.push({
+        ruleId: rule.id,
+        field: "id",
+        code: "duplicate-id",
+        column: 1,
+        message: `rule id '${rule.id}' appears more than once`,
+      });
     seen.add(rule.id);
     if (rule.appliesTo !== "all") {
       for (const k of rule.appliesTo) {
         if (!Object.hasOwn(STAGE_KINDS, k)) {
-          errors.push({ ruleId: rule.id, field: "appliesTo", code: "unknown-stage-kind", column: 1, message: `unknown stage kind '${k}'; known: ${Object.keys(STAGE_KINDS).join(", ")}` });
+          errors.push({
+            ruleId: rule.id,
+            field: "appliesTo",
+            code: "unknown-stage-kind",
+            column: 1,
+            message: `unknown stage kind '${k}'; known: ${Object.keys(STAGE_KINDS).join(", ")}`,
+          });
         }
       }
     }
@@ -104,7 +117,16 @@ export function compileRuleSet(set: RuleSet, size: ExpressionSizeLimits = EXPRES
       const w = when === null ? null : when.compiled;
       const names = [...new Set([...(w?.names ?? []), ...expr.compiled.names])].sort();
       const at = (n: string): number => names.indexOf(n);
-      pending.push({ rule, when: w, expression: expr.compiled, names, whenSlots: (w?.names ?? []).map(at), expressionSlots: expr.compiled.names.map(at), refs: names.map(nameRef), ownIndex: names.map((_, i) => i) });
+      pending.push({
+        rule,
+        when: w,
+        expression: expr.compiled,
+        names,
+        whenSlots: (w?.names ?? []).map(at),
+        expressionSlots: expr.compiled.names.map(at),
+        refs: names.map(nameRef),
+        ownIndex: names.map((_, i) => i),
+      });
     }
   }
   if (errors.length > 0) return { ok: false, errors };
@@ -113,9 +135,22 @@ export function compileRuleSet(set: RuleSet, size: ExpressionSizeLimits = EXPRES
     ...r,
     setIndex: r.names.map((n) => all.indexOf(n)),
     coverText: r.rule.appliesTo === "all" ? "all" : r.rule.appliesTo.join(", "),
-    work: { when: new Array<number>(r.whenSlots.length).fill(0), expr: new Array<number>(r.expressionSlots.length).fill(0), own: resolvedScratch(r.names.length) },
+    work: {
+      when: new Array<number>(r.whenSlots.length).fill(0),
+      expr: new Array<number>(r.expressionSlots.length).fill(0),
+      own: resolvedScratch(r.names.length),
+    },
   }));
-  return { ok: true, compiled: { set, stamp: { id: set.id, version: set.version, hash: ruleSetHash(set) }, rules, refs: all.map(nameRef), work: resolvedScratch(all.length) } };
+  return {
+    ok: true,
+    compiled: {
+      set,
+      stamp: { id: set.id, version: set.version, hash: ruleSetHash(set) },
+      rules,
+      refs: all.map(nameRef),
+      work: resolvedScratch(all.length),
+    },
+  };
 }
 
 /** One line per error: `rule <id>, <field> column <n>: <message>`. */

@@ -31,16 +31,24 @@ export const RESULT_FLAGS: Readonly<Record<string, { readonly metric: string } |
   withinPeakPower: { metric: "clampPeakPowerW" },
   standoffClearsSteady: { metric: "clampStandoffV" },
   exceeds: { metric: "reverseTransientVMaxV" },
-  feasible: { notALimit: "whether a clamp window exists for the parts as they are: the parts' own voltage rules (reverseTransientVMaxV, transientVMaxV, gateSourceVMaxV) fail when a pulse exceeds them" },
+  feasible: {
+    notALimit:
+      "whether a clamp window exists for the parts as they are: the parts' own voltage rules (reverseTransientVMaxV, transientVMaxV, gateSourceVMaxV) fail when a pulse exceeds them",
+  },
   needed: { notALimit: "whether a clamp is needed: the parts' own voltage rules decide" },
-  conducts: { notALimit: "whether the clamp conducts in the pulse: its energy and current are ruled (clampEnergyJ, clampPeakCurrentA)" },
+  conducts: {
+    notALimit:
+      "whether the clamp conducts in the pulse: its energy and current are ruled (clampEnergyJ, clampPeakCurrentA)",
+  },
   reachesLoad: { notALimit: "where a pulse goes, descriptive" },
   withinAvalancheRating: { metric: "absorbedEnergyJ" },
   overTemperature: { metric: "tjWorstC" },
   anyOverTemperature: { metric: "tjWorstC" },
   allReverseBlocked: { metric: "reverseCurrentA" },
   blocks: { metric: "targetCanDrainSource" },
-  currentLimited: { notALimit: "a source at its current limit is a working mode; the node voltage it gives is ruled through loadVMinV" },
+  currentLimited: {
+    notALimit: "a source at its current limit is a working mode; the node voltage it gives is ruled through loadVMinV",
+  },
   meetsRequirement: { metric: "holdUpS" },
   aboveTjMax: { metric: "reverseTjC" },
 };

@@ -31,7 +31,12 @@ function closeness(v: Verdict): number {
 }
 
 function sameVerdict(a: Verdict, b: Verdict): boolean {
-  return a.outcome === b.outcome && a.reason === b.reason && a.margin === b.margin && JSON.stringify(a.values) === JSON.stringify(b.values);
+  return (
+    a.outcome === b.outcome &&
+    a.reason === b.reason &&
+    a.margin === b.margin &&
+    JSON.stringify(a.values) === JSON.stringify(b.values)
+  );
 }
 
 /**
@@ -42,7 +47,10 @@ function sameVerdict(a: Verdict, b: Verdict): boolean {
  * circuit-wide rule, or a symmetric circuit), which needs no name. The set's outcome follows
  * from these verdicts as for one stage: the circuit passes a rule only if every element does.
  */
-export function evaluateRuleSetOverElements(set: CompiledRuleSet, elements: readonly ElementRuleInput[]): RuleSetResult {
+export function evaluateRuleSetOverElements(
+  set: CompiledRuleSet,
+  elements: readonly ElementRuleInput[],
+): RuleSetResult {
   const results = elements.map((e) => evaluateRuleSet(set, e.input).verdicts);
   const verdicts = set.rules.map((_, i): Verdict => {
     let worst: { v: Verdict; element: string } | undefined;

@@ -1,5 +1,12 @@
 import type { CompiledRule, CompiledRuleSet, NameRef, ResolvedScratch } from "./compile-rule-set.js";
-import type { NotApplicableCode, RuleInput, RuleSetOutcome, RuleSetResult, Verdict, VerdictOutcome } from "./rule-model.js";
+import type {
+  NotApplicableCode,
+  RuleInput,
+  RuleSetOutcome,
+  RuleSetResult,
+  Verdict,
+  VerdictOutcome,
+} from "./rule-model.js";
 import { NON_FINITE } from "./sandbox.js";
 import { comparisonReason } from "./verdict-text.js";
 
@@ -29,11 +36,16 @@ function resolve(refs: readonly NameRef[], input: RuleInput, R: Resolved): Resol
 
 function whyAbsent(ref: NameRef, src: Readonly<Record<string, number | boolean>>, input: RuleInput): string {
   if (!Object.hasOwn(src, ref.key)) {
-    const u = input.unavailable !== undefined && Object.hasOwn(input.unavailable, ref.name) ? input.unavailable[ref.name] : undefined;
+    const u =
+      input.unavailable !== undefined && Object.hasOwn(input.unavailable, ref.name)
+        ? input.unavailable[ref.name]
+        : undefined;
     return u === undefined ? `${ref.name} is not given` : `${ref.name} is not available: ${u}`;
   }
   const raw = src[ref.key];
-  return ref.boolean ? `${ref.name} is ${String(raw)}; a boolean metric takes true/false or 0/1` : `${ref.name} is ${String(raw)}; a finite number is required`;
+  return ref.boolean
+    ? `${ref.name} is ${String(raw)}; a boolean metric takes true/false or 0/1`
+    : `${ref.name} is ${String(raw)}; a finite number is required`;
 }
 
 const NONE_MISSING: readonly string[] = [];
@@ -51,14 +63,24 @@ function allPresent(R: Resolved, map: readonly number[], idx: readonly number[])
 }
 
 /** Why the names an expression reads are absent (empty when every one is present). */
-function missingOf(R: Resolved, refs: readonly NameRef[], input: RuleInput, map: readonly number[], idx: readonly number[]): readonly string[] {
+function missingOf(
+  R: Resolved,
+  refs: readonly NameRef[],
+  input: RuleInput,
+  map: readonly number[],
+  idx: readonly number[],
+): readonly string[] {
   let missing: string[] | undefined;
   for (let k = 0; k < idx.length; k += 1) {
     const j = map[idx[k] ?? -1] ?? -1;
     if (R.ok[j] !== 1) {
       missing ??= [];
       const ref = refs[idx[k] ?? -1];
-      missing.push(ref === undefined ? "internal: slot out of range" : whyAbsent(ref, ref.isPart ? input.part : input.metrics, input));
+      missing.push(
+        ref === undefined
+          ? "internal: slot out of range"
+          : whyAbsent(ref, ref.isPart ? input.part : input.metrics, input),
+      );
     }
   }
   return missing ?? NONE_MISSING;
@@ -95,16 +117,36 @@ function valuesOf(c: CompiledRule, R: Resolved, map: readonly number[]): Record<
   return vals;
 }
 
-function notApplicable(c: CompiledRule, vals: Readonly<Record<string, number | boolean>>, code: NotApplicableCode, reason: string, stamp: CompiledRuleSet["stamp"]): Verdict {
+function notApplicable(
+  c: CompiledRule,
+  vals: Readonly<Record<string, number | boolean>>,
+  code: NotApplicableCode,
+  reason: string,
+  stamp: CompiledRuleSet["stamp"],
+): Verdict {
   return verdict(c, vals, "not-applicable", null, 0, 0, reason, code, stamp);
 }
 
-function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: readonly number[], stamp: CompiledRuleSet["stamp"]): Verdict {
+function evaluateResolved(
+  c: CompiledRule,
+  input: RuleInput,
+  R: Resolved,
+  map: readonly number[],
+  stamp: CompiledRuleSet["stamp"],
+): Verdict {
   const r = c.rule;
   const vals = valuesOf(c, R, map);
   if (r.appliesTo !== "all") {
-    if (input.stageKind === undefined) return notApplicable(c, vals, "missing-value", `the rule covers ${c.coverText} and no stage kind was given`, stamp);
-    if (!r.appliesTo.includes(input.stageKind)) return notApplicable(c, vals, "stage-kind", `the rule covers ${c.coverText}, not ${input.stageKind}`, stamp);
+    if (input.stageKind === undefined)
+      return notApplicable(
+        c,
+        vals,
+        "missing-value",
+        `the rule covers ${c.coverText} and no stage kind was given`,
+        stamp,
+      );
+    if (!r.appliesTo.includes(input.stageKind))
+      return notApplicable(c, vals, "stage-kind", `the rule covers ${c.coverText}, not ${input.stageKind}`, stamp);
   }
   const buf = c.work;
   try {
@@ -119,8 +161,15 @@ function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: r
         const skipped = skippedNames(c, input, R, map).filter((n) => whenNames.has(n));
         holds = skipped.length > 0 ? preconditionOverFlags(c, R, map, wSlots) : undefined;
         if (holds === undefined) {
-          if (skipped.length > 0) return notApplicable(c, vals, "not-required", notRequiredReason(input, skipped), stamp);
-          return notApplicable(c, vals, "missing-value", `precondition '${r.when}' cannot be evaluated: ${missingOf(R, c.refs, input, map, c.whenSlots).join("; ")}`, stamp);
+          if (skipped.length > 0)
+            return notApplicable(c, vals, "not-required", notRequiredReason(input, skipped), stamp);
+          return notApplicable(
+            c,
+            vals,
+            "missing-value",
+            `precondition '${r.when}' cannot be evaluated: ${missingOf(R, c.refs, input, map, c.whenSlots).join("; ")}`,
+            stamp,
+          );
         }
       } else holds = c.when.test(wSlots);
       if (!holds) return notApplicable(c, vals, "precondition", `precondition '${r.when}' is false`, stamp);
@@ -128,13 +177,29 @@ function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: r
     if (!allPresent(R, map, c.expressionSlots)) {
       const skipped = skippedNames(c, input, R, map);
       if (skipped.length > 0) return notApplicable(c, vals, "not-required", notRequiredReason(input, skipped), stamp);
-      return notApplicable(c, vals, "missing-value", `cannot be evaluated: ${missingOf(R, c.refs, input, map, c.expressionSlots).join("; ")}`, stamp);
+      return notApplicable(
+        c,
+        vals,
+        "missing-value",
+        `cannot be evaluated: ${missingOf(R, c.refs, input, map, c.expressionSlots).join("; ")}`,
+        stamp,
+      );
     }
     const slots = fillSlots(buf.expr, R, map, c.expressionSlots);
     const cmp = c.expression.comparison;
     if (cmp === null) {
       const holds = c.expression.test(slots);
-      return verdict(c, vals, holds ? "pass" : r.severity, null, 0, 0, holds ? null : `'${r.expression}' is false`, null, stamp);
+      return verdict(
+        c,
+        vals,
+        holds ? "pass" : r.severity,
+        null,
+        0,
+        0,
+        holds ? null : `'${r.expression}' is false`,
+        null,
+        stamp,
+      );
     }
     // A top-level comparison: both sides once, the condition from them (the same tree as test()).
     const lhs = cmp.lhs(slots);
@@ -145,7 +210,14 @@ function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: r
     const reason = holds ? null : comparisonReason(r.expression, c.expression.names, cmp.op, lhs, rhs, margin);
     return verdict(c, vals, outcome, cmp.op, rhs, margin, reason, null, stamp);
   } catch (err) {
-    if (err === NON_FINITE) return notApplicable(c, vals, "not-finite", "an intermediate value is not finite (division by zero, log of zero or a negative number, overflow)", stamp);
+    if (err === NON_FINITE)
+      return notApplicable(
+        c,
+        vals,
+        "not-finite",
+        "an intermediate value is not finite (division by zero, log of zero or a negative number, overflow)",
+        stamp,
+      );
     throw err;
   }
 }
@@ -155,7 +227,12 @@ function evaluateResolved(c: CompiledRule, input: RuleInput, R: Resolved, map: r
  * most 4 of them); the result when all agree, undefined when they do not or a missing slot is a
  * number.
  */
-function preconditionOverFlags(c: CompiledRule, R: Resolved, map: readonly number[], slots: readonly number[]): boolean | undefined {
+function preconditionOverFlags(
+  c: CompiledRule,
+  R: Resolved,
+  map: readonly number[],
+  slots: readonly number[],
+): boolean | undefined {
   const when = c.when;
   if (when === null) return undefined;
   const free: number[] = [];
@@ -237,6 +314,15 @@ export function summarizeVerdicts(stamp: CompiledRuleSet["stamp"], verdicts: rea
     else if (v.outcome === "warn") counts.warn += 1;
     else counts.fail += 1;
   }
-  const outcome: RuleSetOutcome = counts.fail > 0 ? "fail" : counts.warn > 0 ? "warn" : gaps > 0 ? "incomplete" : counts.pass > 0 ? "pass" : "not-applicable";
+  const outcome: RuleSetOutcome =
+    counts.fail > 0
+      ? "fail"
+      : counts.warn > 0
+        ? "warn"
+        : gaps > 0
+          ? "incomplete"
+          : counts.pass > 0
+            ? "pass"
+            : "not-applicable";
   return { ruleSet: stamp, outcome, counts, verdicts };
 }

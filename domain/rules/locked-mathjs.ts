@@ -21,7 +21,9 @@ function lockedParser(): (text: string) => MathNode {
   };
   instance.import(
     Object.fromEntries(
-      ["import", "createUnit", "evaluate", "parse", "compile", "simplify", "derivative", "resolve", "reviver"].map((n) => [n, refuse(n)]),
+      ["import", "createUnit", "evaluate", "parse", "compile", "simplify", "derivative", "resolve", "reviver"].map(
+        (n) => [n, refuse(n)],
+      ),
     ),
     { override: true },
   );

@@ -15,7 +15,9 @@ function elementDraft(e: StageModel, load: LoadModel, caller: Caller): RuleInput
   Object.assign(d.metrics, stageMetrics(e));
   const ifrm = stagePeakRepetitiveCurrentA(e);
   if (ifrm !== undefined) d.part["ifrmA"] = ifrm;
-  else d.unavailable["part.ifrmA"] = "the element gives no repetitive peak current rating: give the diode's (or the mosfet's) peakRepetitiveCurrentA";
+  else
+    d.unavailable["part.ifrmA"] =
+      "the element gives no repetitive peak current rating: give the diode's (or the mosfet's) peakRepetitiveCurrentA";
   if (load.kind === "constant-power") d.metrics["loadMinV"] = load.minVoltageV;
   return d;
 }
@@ -28,10 +30,18 @@ export const BRIDGE_DC_COMPUTES = ["tjWorstC", "reverseVMaxV", "loadVMinV"] as c
  * loadVMinV = the lower load voltage of the two polarities. A polarity without a solution makes
  * these unavailable, with its outcome.
  */
-export function bridgeDcElementInputs(elements: BridgeElements, r: BridgeDcResult, load: LoadModel, caller: Caller): ElementRuleInput[] {
+export function bridgeDcElementInputs(
+  elements: BridgeElements,
+  r: BridgeDcResult,
+  load: LoadModel,
+  caller: Caller,
+): ElementRuleInput[] {
   const polarities = [r.positive, r.negative];
   const failed = polarities.find((p) => !("elements" in p));
-  const why = failed === undefined ? "internal: element missing" : `${failed.polarity} polarity has no solution (${failed.outcome}: ${"reason" in failed ? failed.reason : ""})`;
+  const why =
+    failed === undefined
+      ? "internal: element missing"
+      : `${failed.polarity} polarity has no solution (${failed.outcome}: ${"reason" in failed ? failed.reason : ""})`;
   const solved = failed === undefined ? polarities.flatMap((p) => ("elements" in p ? [p] : [])) : [];
   return BRIDGE_POSITIONS.map((pos) => {
     const d = elementDraft(elements[pos], load, caller);
@@ -44,7 +54,14 @@ export function bridgeDcElementInputs(elements: BridgeElements, r: BridgeDcResul
   });
 }
 
-export const BRIDGE_AC_COMPUTES = ["tjWorstC", "reverseVMaxV", "loadVMinV", "peakRepetitiveCurrentA", "capacitorRippleCurrentA", "capacitorRippleRatingA"] as const;
+export const BRIDGE_AC_COMPUTES = [
+  "tjWorstC",
+  "reverseVMaxV",
+  "loadVMinV",
+  "peakRepetitiveCurrentA",
+  "capacitorRippleCurrentA",
+  "capacitorRippleRatingA",
+] as const;
 
 /**
  * bridgeAc → rules, one element per position: tjWorstC (from the period-average loss),
@@ -52,7 +69,13 @@ export const BRIDGE_AC_COMPUTES = ["tjWorstC", "reverseVMaxV", "loadVMinV", "pea
  * the ripple trough, capacitorRippleCurrentA and the capacitor's rating (out of scope when the
  * request does not rate it). Without a periodic steady state these are unavailable.
  */
-export function bridgeAcElementInputs(elements: BridgeElements, r: BridgeAcOutcome, load: LoadModel, rippleRatingA: number | undefined, caller: Caller): ElementRuleInput[] {
+export function bridgeAcElementInputs(
+  elements: BridgeElements,
+  r: BridgeAcOutcome,
+  load: LoadModel,
+  rippleRatingA: number | undefined,
+  caller: Caller,
+): ElementRuleInput[] {
   const s = "steadyState" in r ? r.steadyState : undefined;
   const why = "reason" in r ? `no periodic steady state (${r.outcome}: ${r.reason})` : "internal: element missing";
   return BRIDGE_POSITIONS.map((pos) => {
@@ -64,7 +87,9 @@ export function bridgeAcElementInputs(elements: BridgeElements, r: BridgeAcOutco
     putOr(d, "loadVMinV", s?.outputMinV, why);
     putOr(d, "capacitorRippleCurrentA", s?.capacitorRippleCurrentRmsA, why);
     if (rippleRatingA !== undefined) d.metrics["capacitorRippleRatingA"] = rippleRatingA;
-    else d.notRequired["capacitorRippleRatingA"] = "capacitorRippleRatingA is not given: the capacitor is not rated in this request";
+    else
+      d.notRequired["capacitorRippleRatingA"] =
+        "capacitorRippleRatingA is not given: the capacitor is not rated in this request";
     return { element: pos, input: closeScope(d, "bridgeAc") };
   });
 }

@@ -17,7 +17,12 @@ export const OPERATING_POINT_METRICS = ["tjWorstC", "lossWorstW", "dropWorstV", 
  * off) those names are marked unavailable with the outcome, so their rules are not applicable
  * and the set's outcome is at best "incomplete", never "pass".
  */
-export function operatingPointRuleInput(stage: StageModel, load: LoadModel, o: OperatingPointOutcome, callerMetrics: Readonly<Record<string, number | boolean>>): RuleInput {
+export function operatingPointRuleInput(
+  stage: StageModel,
+  load: LoadModel,
+  o: OperatingPointOutcome,
+  callerMetrics: Readonly<Record<string, number | boolean>>,
+): RuleInput {
   const metrics: Record<string, number | boolean> = { ...callerMetrics, ...stageMetrics(stage) };
   if (load.kind === "constant-power") metrics["loadMinV"] = load.minVoltageV;
   const unavailable: Record<string, string> = {};
@@ -33,12 +38,21 @@ export function operatingPointRuleInput(stage: StageModel, load: LoadModel, o: O
   } else {
     for (const n of OPERATING_POINT_METRICS) unavailable[n] = `no operating point (${o.outcome}: ${o.reason})`;
   }
-  return { stageKind: stage.kind, metrics, part: partParameters(stage), unavailable, notRequired: otherAnalysesMetrics(metrics, "operatingPoint") };
+  return {
+    stageKind: stage.kind,
+    metrics,
+    part: partParameters(stage),
+    unavailable,
+    notRequired: otherAnalysesMetrics(metrics, "operatingPoint"),
+  };
 }
 
 export function stageMetrics(stage: StageModel): Record<string, number | boolean> {
   // Whether the stage turns off on reverse current comes from one place (stage-ratings.ts).
-  const m: Record<string, number | boolean> = { quiescentA: stageQuiescentA(stage), blocksReverseCurrent: blocksReverseCurrent(stage) };
+  const m: Record<string, number | boolean> = {
+    quiescentA: stageQuiescentA(stage),
+    blocksReverseCurrent: blocksReverseCurrent(stage),
+  };
   return Object.assign(m, behaviourOf(stage).describe(stage).metrics);
 }
 

@@ -7,7 +7,14 @@ import type { RuleInput } from "./rule-model.js";
 import type { OringOutcome } from "../solve/oring-network.js";
 import type { LoadModel } from "../solve/load-model.js";
 import type { StageModel } from "../stages/stage-model.js";
-import { closeScope, draft, putEventAvalanche, putOr, putPeakReverse, type RuleInputDraft } from "./rule-input-draft.js";
+import {
+  closeScope,
+  draft,
+  putEventAvalanche,
+  putOr,
+  putPeakReverse,
+  type RuleInputDraft,
+} from "./rule-input-draft.js";
 import { missingRatings, partParameters, stageMetrics } from "./metrics-of-operating-point.js";
 
 type Caller = Readonly<Record<string, number | boolean>>;
@@ -25,7 +32,13 @@ function loadMinimum(d: RuleInputDraft, load: LoadModel, loadMinV?: number): voi
   else if (load.kind === "constant-power") d.metrics["loadMinV"] = load.minVoltageV;
 }
 
-export const TURN_OFF_COMPUTES = ["peakReverseCurrentA", "absorbedEnergyJ", "eventTjC", "avalancheEnergyAtTjJ", "blocksReverseCurrent"] as const;
+export const TURN_OFF_COMPUTES = [
+  "peakReverseCurrentA",
+  "absorbedEnergyJ",
+  "eventTjC",
+  "avalancheEnergyAtTjJ",
+  "blocksReverseCurrent",
+] as const;
 
 /**
  * turnOff → rules: peakReverseCurrentA, absorbedEnergyJ (the clamp phase's Vcl·∫|i|dt; 0 when the
@@ -35,9 +48,21 @@ export const TURN_OFF_COMPUTES = ["peakReverseCurrentA", "absorbedEnergyJ", "eve
  * rating is a gap in the evidence (unavailable), not out of scope: the element is stressed and
  * nothing says it survives.
  */
-export function turnOffRuleInput(stage: StageModel, r: TurnOffOutcome, event: { readonly tjC: number; readonly repetitive: boolean }, avalancheRatingJ: number | undefined, caller: Caller): RuleInput {
+export function turnOffRuleInput(
+  stage: StageModel,
+  r: TurnOffOutcome,
+  event: { readonly tjC: number; readonly repetitive: boolean },
+  avalancheRatingJ: number | undefined,
+  caller: Caller,
+): RuleInput {
   const d = stageDraft(stage, caller);
-  putEventAvalanche(stage, event, avalancheRatingJ, d, "the stage gives no avalanche energy rating: give avalancheRatingJ, or the part's avalancheEnergyJ");
+  putEventAvalanche(
+    stage,
+    event,
+    avalancheRatingJ,
+    d,
+    "the stage gives no avalanche energy rating: give avalancheRatingJ, or the part's avalancheEnergyJ",
+  );
   switch (r.outcome) {
     case "blocks":
       d.metrics["peakReverseCurrentA"] = r.peakReverseCurrentA;
@@ -66,7 +91,12 @@ export const HOLD_UP_COMPUTES = ["holdUpS", "holdUpRequiredS", "blocksReverseCur
  * the reverse-current-blocking rule). An output that is never interrupted (the input after the
  * event keeps it up) has no finite hold-up: the hold-up rules are then out of scope with why.
  */
-export function holdUpRuleInput(stage: StageModel, r: HoldUpOutcome, requiredS: number | undefined, caller: Caller): RuleInput {
+export function holdUpRuleInput(
+  stage: StageModel,
+  r: HoldUpOutcome,
+  requiredS: number | undefined,
+  caller: Caller,
+): RuleInput {
   const d = stageDraft(stage, caller);
   if (requiredS !== undefined) {
     d.metrics["holdUpRequiredS"] = requiredS;
@@ -87,7 +117,13 @@ export function holdUpRuleInput(stage: StageModel, r: HoldUpOutcome, requiredS: 
   return closeScope(d, "holdUp");
 }
 
-export const ORING_COMPUTES = ["tjWorstC", "reverseCurrentA", "loadVMinV", "parallelSources", "blocksReverseCurrent"] as const;
+export const ORING_COMPUTES = [
+  "tjWorstC",
+  "reverseCurrentA",
+  "loadVMinV",
+  "parallelSources",
+  "blocksReverseCurrent",
+] as const;
 
 /**
  * oring → rules, one element per branch (named by the source's name, else "sources[k]"): the
@@ -95,7 +131,13 @@ export const ORING_COMPUTES = ["tjWorstC", "reverseCurrentA", "loadVMinV", "para
  * into its source, and shared by all: loadVMinV = node voltage, parallelSources = more than one
  * source. Without a solution those are unavailable with the network's outcome.
  */
-export function oringElementInputs(stages: readonly StageModel[], names: readonly (string | undefined)[], load: LoadModel, r: OringOutcome, caller: Caller): ElementRuleInput[] {
+export function oringElementInputs(
+  stages: readonly StageModel[],
+  names: readonly (string | undefined)[],
+  load: LoadModel,
+  r: OringOutcome,
+  caller: Caller,
+): ElementRuleInput[] {
   return stages.map((stage, k) => {
     const d = stageDraft(stage, caller);
     d.metrics["parallelSources"] = stages.length > 1;

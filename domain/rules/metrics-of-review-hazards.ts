@@ -22,10 +22,14 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
   const rev = r.reverse;
   metrics["reverseLeakageRunaway"] = rev.outcome === "leakage-runaway";
   if (rev.outcome === "blocks") metrics["reverseTjC"] = rev.tjC;
-  else unavailable["reverseTjC"] = `steady reverse polarity has no stable junction temperature (${rev.outcome}: ${rev.reason})`;
+  else
+    unavailable["reverseTjC"] =
+      `steady reverse polarity has no stable junction temperature (${rev.outcome}: ${rev.reason})`;
 
   if (behaviourOf(stage).controllerReversePin) {
-    const pin = r.transients.flatMap((t) => (t.polarity === "negative" ? t.stresses.filter((x) => x.element === "controller-input").map((x) => x.seenV) : []));
+    const pin = r.transients.flatMap((t) =>
+      t.polarity === "negative" ? t.stresses.filter((x) => x.element === "controller-input").map((x) => x.seenV) : [],
+    );
     metrics["controllerReverseVMaxV"] = Math.max(rev.stress.controllerReverseV ?? req.reverseV, ...pin);
   }
 
@@ -37,7 +41,16 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
 
   const clamp = req.transientContext.inputClamp;
   if (clamp === undefined) {
-    for (const n of ["clampStandoffV", "clampEnergyJ", "clampPeakCurrentA", "clampEnergyRatingJ", "clampPeakCurrentRatingA", "clampPeakPowerW", "clampPeakPowerAllowedW"]) notRequired[n] = "the requirement has no input clamp";
+    for (const n of [
+      "clampStandoffV",
+      "clampEnergyJ",
+      "clampPeakCurrentA",
+      "clampEnergyRatingJ",
+      "clampPeakCurrentRatingA",
+      "clampPeakPowerW",
+      "clampPeakPowerAllowedW",
+    ])
+      notRequired[n] = "the requirement has no input clamp";
   } else {
     metrics["clampStandoffV"] = clamp.standoffV;
     let energyJ = 0;
@@ -63,7 +76,9 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
     if (clamp.energyJ !== undefined) metrics["clampEnergyRatingJ"] = clamp.energyJ;
     else unavailable["clampEnergyRatingJ"] = "the input clamp states no energy rating (inputClamp.energyJ)";
     if (clamp.peakCurrentA !== undefined) metrics["clampPeakCurrentRatingA"] = clamp.peakCurrentA;
-    else unavailable["clampPeakCurrentRatingA"] = "the input clamp states no peak current rating (inputClamp.peakCurrentA)";
+    else
+      unavailable["clampPeakCurrentRatingA"] =
+        "the input clamp states no peak current rating (inputClamp.peakCurrentA)";
   }
 
   const profile = req.startProfile;
@@ -84,7 +99,9 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
 function clampPowerMetrics(r: CandidateReview, unrated: boolean, always: string | undefined, s: Scope): void {
   const names = ["clampPeakPowerW", "clampPeakPowerAllowedW"];
   if (unrated) {
-    for (const n of names) s.notRequired[n] = "the input clamp states no peak pulse power (inputClamp.peakPulsePowerW): its energy and peak current ratings are checked instead";
+    for (const n of names)
+      s.notRequired[n] =
+        "the input clamp states no peak pulse power (inputClamp.peakPulsePowerW): its energy and peak current ratings are checked instead";
     return;
   }
   if (always !== undefined) {

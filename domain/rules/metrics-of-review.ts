@@ -47,7 +47,12 @@ export interface RequirementFlags {
  * have an operating point; when any corner has none, they are marked unavailable (with the
  * corner's outcome), so their rules cannot pass.
  */
-export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags: RequirementFlags, r: CandidateReview): RuleInput {
+export function reviewRuleInput(
+  stage: StageModel,
+  req: ReviewRequirement,
+  flags: RequirementFlags,
+  r: CandidateReview,
+): RuleInput {
   // stageMetrics returns a fresh record: filled in place (the keys in the order a spread would give).
   const metrics = stageMetrics(stage);
   // The start checks' start voltage: the datasheet maximum where the candidate gives one.
@@ -69,7 +74,10 @@ export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags
 
   const unsolved = r.worst.unsolvedCornerIndexes;
   const firstUnsolved = unsolved[0] === undefined ? undefined : r.corners[unsolved[0]];
-  const why = firstUnsolved && !("point" in firstUnsolved.result) ? `corner ${unsolved[0]} has no operating point (${firstUnsolved.result.outcome}: ${firstUnsolved.result.reason})` : undefined;
+  const why =
+    firstUnsolved && !("point" in firstUnsolved.result)
+      ? `corner ${unsolved[0]} has no operating point (${firstUnsolved.result.outcome}: ${firstUnsolved.result.reason})`
+      : undefined;
   const put = (name: string, v: number | undefined) => {
     if (why !== undefined) unavailable[name] = why;
     else if (v !== undefined) metrics[name] = v;
@@ -80,8 +88,10 @@ export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags
   put("loadVMinV", r.worst.loadMinV?.value);
   for (const p of r.startUp.profiles) {
     // A start-up profile lowers the load voltage and raises the junction: the worst of both counts.
-    if (why === undefined && typeof metrics["loadVMinV"] === "number") metrics["loadVMinV"] = Math.min(metrics["loadVMinV"], p.result.minLoadV);
-    if (why === undefined && typeof metrics["tjWorstC"] === "number") metrics["tjWorstC"] = Math.max(metrics["tjWorstC"], p.result.maxTjC);
+    if (why === undefined && typeof metrics["loadVMinV"] === "number")
+      metrics["loadVMinV"] = Math.min(metrics["loadVMinV"], p.result.minLoadV);
+    if (why === undefined && typeof metrics["tjWorstC"] === "number")
+      metrics["tjWorstC"] = Math.max(metrics["tjWorstC"], p.result.maxTjC);
   }
 
   const behaviour = behaviourOf(stage);
@@ -91,7 +101,11 @@ export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags
   const gate = behaviour.gateSourceClampV(stage);
   if (gate !== undefined) {
     const clamp = gate.clampV;
-    const peaks = [req.supplyMaxV, steadyOvervoltageV(req) ?? 0, ...r.transients.filter((t) => t.polarity === "positive").map((t) => t.inputPeakV)];
+    const peaks = [
+      req.supplyMaxV,
+      steadyOvervoltageV(req) ?? 0,
+      ...r.transients.filter((t) => t.polarity === "positive").map((t) => t.inputPeakV),
+    ];
     metrics["gateSourceVMaxV"] = Math.max(...peaks.map((v) => (clamp === undefined ? v : Math.min(v, clamp))));
   }
   const negative = r.transients.filter((t) => t.polarity === "negative").map((t) => t.stresses[0]?.seenV ?? 0);
@@ -116,8 +130,20 @@ export function reviewRuleInput(stage: StageModel, req: ReviewRequirement, flags
  * is back at zero by turn-off or the stage never turns off), eventTjC and the part's avalanche
  * rating; an absorbed energy without a rating is a gap, not out of scope.
  */
-function turnOffMetrics(stage: StageModel, t: ReviewTurnOffResult, metrics: Record<string, number | boolean>, part: Record<string, number>, unavailable: Record<string, string>): void {
-  putEventAvalanche(stage, t, t.avalancheRatingJ, { metrics, part, unavailable }, "the stage gives no avalanche energy rating (the part's avalancheEnergyJ)");
+function turnOffMetrics(
+  stage: StageModel,
+  t: ReviewTurnOffResult,
+  metrics: Record<string, number | boolean>,
+  part: Record<string, number>,
+  unavailable: Record<string, string>,
+): void {
+  putEventAvalanche(
+    stage,
+    t,
+    t.avalancheRatingJ,
+    { metrics, part, unavailable },
+    "the stage gives no avalanche energy rating (the part's avalancheEnergyJ)",
+  );
   const r = t.result;
   switch (r.outcome) {
     case "blocks":

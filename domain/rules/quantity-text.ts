@@ -28,6 +28,7 @@ export function formatQuantity(x: number, unit: string, digits = 4): string {
   const u = unit === "1" || unit === "-" ? "" : unit;
   if (NO_PREFIX.has(unit) || x === 0) return u === "" ? formatNumber(x, digits) : `${formatNumber(x, digits)} ${u}`;
   const a = Math.abs(Number(x.toPrecision(digits)));
-  const [scale, prefix] = PREFIXES.find(([s]) => a >= s * (1 - 1e-12)) ?? (PREFIXES[PREFIXES.length - 1] as readonly [number, string]);
+  const [scale, prefix] =
+    PREFIXES.find(([s]) => a >= s * (1 - 1e-12)) ?? (PREFIXES[PREFIXES.length - 1] as readonly [number, string]);
   return `${formatNumber(x / scale, digits)} ${prefix}${u}`;
 }

@@ -74,7 +74,16 @@ function show(d: Dim): string {
   if (d.kind === "temp?") return "a temperature";
   if (d.kind === "bool") return "a condition";
   if (d.kind === "free") return "a number";
-  const known: [string, Dim][] = [["V", q(1, 0, 0, 0)], ["A", q(0, 1, 0, 0)], ["W", q(1, 1, 0, 0)], ["J", q(1, 1, 1, 0)], ["s", q(0, 0, 1, 0)], ["K (a temperature difference)", KELVIN], ["ohm", q(1, -1, 0, 0)], ["a ratio", q(0, 0, 0, 0)]];
+  const known: [string, Dim][] = [
+    ["V", q(1, 0, 0, 0)],
+    ["A", q(0, 1, 0, 0)],
+    ["W", q(1, 1, 0, 0)],
+    ["J", q(1, 1, 1, 0)],
+    ["s", q(0, 0, 1, 0)],
+    ["K (a temperature difference)", KELVIN],
+    ["ohm", q(1, -1, 0, 0)],
+    ["a ratio", q(0, 0, 0, 0)],
+  ];
   const hit = known.find(([, k]) => same(k, d));
   if (hit) return hit[0].startsWith("a ") ? hit[0] : `${hit[0]}`;
   return (
@@ -129,22 +138,38 @@ function sumOf(op: string, a: Dim, b: Dim, an: Loose, bn: Loose): Dim {
   const subtract = op === "-";
   if (a.kind === "free") return b.kind === "point" && subtract ? EITHER : b.kind === "point" ? EITHER : b;
   if (b.kind === "free") return temperatureLike(a) ? EITHER : a;
-  if (a.kind === "point" && b.kind === "point") return subtract ? KELVIN : refuse("cannot add two temperatures in °C; add a difference in K (part.tjMaxC + 10 K)", bn);
+  if (a.kind === "point" && b.kind === "point")
+    return subtract
+      ? KELVIN
+      : refuse("cannot add two temperatures in °C; add a difference in K (part.tjMaxC + 10 K)", bn);
   if (temperatureLike(a) && (isDiff(b) || b.kind === "temp?")) return a.kind === "point" && isDiff(b) ? POINT : EITHER;
   if (temperatureLike(a) && temperatureLike(b)) return EITHER;
-  if (isDiff(a) && b.kind === "point") return subtract ? refuse("cannot subtract a temperature in °C from a difference in K", bn) : POINT;
+  if (isDiff(a) && b.kind === "point")
+    return subtract ? refuse("cannot subtract a temperature in °C from a difference in K", bn) : POINT;
   if (isDiff(a) && b.kind === "temp?") return EITHER;
   if (a.kind === "q" && b.kind === "q" && same(a, b)) return a;
-  const hint = temperatureLike(a) || temperatureLike(b) ? "; a temperature margin is written in K (part.tjMaxC - 25 K)" : "";
-  return refuse(`cannot ${subtract ? "subtract" : "add"} ${show(b)} ${subtract ? "from" : "to"} ${show(a)}${hint}`, culprit(an, bn));
+  const hint =
+    temperatureLike(a) || temperatureLike(b) ? "; a temperature margin is written in K (part.tjMaxC - 25 K)" : "";
+  return refuse(
+    `cannot ${subtract ? "subtract" : "add"} ${show(b)} ${subtract ? "from" : "to"} ${show(a)}${hint}`,
+    culprit(an, bn),
+  );
 }
 
 function productOf(op: "*" | "/", a: Dim, b: Dim, an: Loose, bn: Loose): Dim {
   // a point scaled depends on where the scale's zero is: refused; a point-or-difference is read as a difference
-  for (const [d, n] of [[a, an], [b, bn]] as const) {
+  for (const [d, n] of [
+    [a, an],
+    [b, bn],
+  ] as const) {
     if (d.kind === "point") {
-      const isUnitLiteral = op === "*" && n.type === "SymbolNode" && n.name === "degC" && (d === b ? a.kind === "free" : b.kind === "free");
-      if (!isUnitLiteral) refuse(`a temperature in °C cannot be ${op === "*" ? "multiplied" : "divided"}: its value depends on the zero of the scale; use a difference (tjWorstC - 25 degC) or a margin in K`, n);
+      const isUnitLiteral =
+        op === "*" && n.type === "SymbolNode" && n.name === "degC" && (d === b ? a.kind === "free" : b.kind === "free");
+      if (!isUnitLiteral)
+        refuse(
+          `a temperature in °C cannot be ${op === "*" ? "multiplied" : "divided"}: its value depends on the zero of the scale; use a difference (tjWorstC - 25 degC) or a margin in K`,
+          n,
+        );
     }
   }
   if ((a.kind === "free" && b.kind === "point") || (a.kind === "point" && b.kind === "free")) return POINT; // 150 degC
@@ -153,8 +178,13 @@ function productOf(op: "*" | "/", a: Dim, b: Dim, an: Loose, bn: Loose): Dim {
   const y = asQ(b);
   if (x.kind === "free" && y.kind === "free") return FREE;
   if (y.kind === "free") return x;
-  if (x.kind === "free") return op === "*" ? y : y.kind === "q" ? { kind: "q", e: y.e.map((v) => -v) as unknown as Exps } : y;
-  if (x.kind === "q" && y.kind === "q") return { kind: "q", e: x.e.map((v, i) => (op === "*" ? v + (y.e[i] as number) : v - (y.e[i] as number))) as unknown as Exps };
+  if (x.kind === "free")
+    return op === "*" ? y : y.kind === "q" ? { kind: "q", e: y.e.map((v) => -v) as unknown as Exps } : y;
+  if (x.kind === "q" && y.kind === "q")
+    return {
+      kind: "q",
+      e: x.e.map((v, i) => (op === "*" ? v + (y.e[i] as number) : v - (y.e[i] as number))) as unknown as Exps,
+    };
   return FREE;
 }
 
@@ -169,12 +199,27 @@ function compared(op: string, a: Dim, b: Dim, an: Loose, bn: Loose): Dim {
     same(a, b);
   if (ok) return BOOL;
   if ((a.kind === "point" && isDiff(b)) || (isDiff(a) && b.kind === "point")) {
-    return refuse(`'${op}' compares a temperature in °C with kelvin: K is read as a temperature difference; for a temperature write it in degC (150 degC)`, culprit(an, bn));
+    return refuse(
+      `'${op}' compares a temperature in °C with kelvin: K is read as a temperature difference; for a temperature write it in degC (150 degC)`,
+      culprit(an, bn),
+    );
   }
   return refuse(`'${op}' compares ${show(a)} with ${show(b)}`, culprit(an, bn));
 }
 
-const OPS: Record<string, string> = { add: "+", subtract: "-", multiply: "*", divide: "/", pow: "^", smaller: "<", smallerEq: "<=", larger: ">", largerEq: ">=", equal: "==", unequal: "!=" };
+const OPS: Record<string, string> = {
+  add: "+",
+  subtract: "-",
+  multiply: "*",
+  divide: "/",
+  pow: "^",
+  smaller: "<",
+  smallerEq: "<=",
+  larger: ">",
+  largerEq: ">=",
+  equal: "==",
+  unequal: "!=",
+};
 
 function dim(n: Loose): Dim {
   switch (n.type) {
@@ -223,7 +268,8 @@ function operator(n: Loose): Dim {
   if (fn === "add" || fn === "subtract") return sumOf(op, a, b, an, bn);
   if (fn === "multiply" || fn === "divide") return productOf(fn === "multiply" ? "*" : "/", a, b, an, bn);
   if (fn === "pow") {
-    if (b.kind !== "free" && !(b.kind === "q" && b.e.every((x) => x === 0))) refuse("an exponent must be a plain number", bn);
+    if (b.kind !== "free" && !(b.kind === "q" && b.e.every((x) => x === 0)))
+      refuse("an exponent must be a plain number", bn);
     if (a.kind === "free" || (a.kind === "q" && a.e.every((x) => x === 0))) return a;
     if (a.kind === "point") refuse("a temperature in °C cannot be raised to a power", an);
     const k = bn.type === "ConstantNode" && typeof bn.value === "number" ? bn.value : undefined;
@@ -250,7 +296,8 @@ function call(n: Loose): Dim {
   const plain = d.kind === "free" || (d.kind === "q" && d.e.every((x) => x === 0));
   if (name === "sqrt") {
     if (plain) return d;
-    if (d.kind === "q" && d.e.every((x) => x % 2 === 0)) return { kind: "q", e: d.e.map((x) => x / 2) as unknown as Exps };
+    if (d.kind === "q" && d.e.every((x) => x % 2 === 0))
+      return { kind: "q", e: d.e.map((x) => x / 2) as unknown as Exps };
     return refuse(`sqrt of ${show(d)} has no unit`, args[0] as Loose);
   }
   if (!plain) refuse(`${name} needs a plain number or a ratio, got ${show(d)}`, args[0] as Loose);

@@ -12,7 +12,11 @@ export interface RuleInputDraft {
   readonly notRequired: Record<string, string>;
 }
 
-export function draft(stageKind: string, callerMetrics: Readonly<Record<string, number | boolean>>, part: Record<string, number>): RuleInputDraft {
+export function draft(
+  stageKind: string,
+  callerMetrics: Readonly<Record<string, number | boolean>>,
+  part: Record<string, number>,
+): RuleInputDraft {
   return { stageKind, metrics: { ...callerMetrics }, part, unavailable: {}, notRequired: {} };
 }
 
@@ -64,7 +68,10 @@ export const ANALYSIS_ONLY_METRICS: Readonly<Record<string, readonly string[]>> 
 };
 
 /** notRequired entries for the analysis-only metrics the caller did not give, naming where each comes from. */
-export function otherAnalysesMetrics(given: Readonly<Record<string, number | boolean>>, here: string): Record<string, string> {
+export function otherAnalysesMetrics(
+  given: Readonly<Record<string, number | boolean>>,
+  here: string,
+): Record<string, string> {
   const out: Record<string, string> = {};
   for (const [analysis, names] of Object.entries(ANALYSIS_ONLY_METRICS)) {
     for (const n of names) if (!Object.hasOwn(given, n)) out[n] = `computed by ${analysis}, not by ${here}`;
@@ -83,8 +90,14 @@ export function putOr(d: RuleInputDraft, name: string, value: number | boolean |
  * is only a lower bound (the current still rising at the end of the searched span) it is
  * unavailable with the bound in the reason, so that no rule passes on it.
  */
-export function putPeakReverse(r: { readonly peakReverseCurrentA: number; readonly peakReverseIsLowerBound?: true }, metrics: Record<string, number | boolean>, unavailable: Record<string, string>): void {
-  if (r.peakReverseIsLowerBound === true) unavailable["peakReverseCurrentA"] = `the reverse current is still rising at the end of the simulated span: ${r.peakReverseCurrentA.toPrecision(4)} A is only a lower bound of its peak`;
+export function putPeakReverse(
+  r: { readonly peakReverseCurrentA: number; readonly peakReverseIsLowerBound?: true },
+  metrics: Record<string, number | boolean>,
+  unavailable: Record<string, string>,
+): void {
+  if (r.peakReverseIsLowerBound === true)
+    unavailable["peakReverseCurrentA"] =
+      `the reverse current is still rising at the end of the simulated span: ${r.peakReverseCurrentA.toPrecision(4)} A is only a lower bound of its peak`;
   else metrics["peakReverseCurrentA"] = r.peakReverseCurrentA;
 }
 
@@ -99,7 +112,11 @@ export function putEventAvalanche(
   stage: StageModel,
   event: { readonly tjC: number; readonly repetitive: boolean },
   ratingJ: number | undefined,
-  into: { readonly metrics: Record<string, number | boolean>; readonly part: Record<string, number>; readonly unavailable: Record<string, string> },
+  into: {
+    readonly metrics: Record<string, number | boolean>;
+    readonly part: Record<string, number>;
+    readonly unavailable: Record<string, string>;
+  },
   missing: string,
 ): void {
   const tjC = event.tjC;

@@ -79,7 +79,12 @@ export interface Verdict {
 export interface RuleSetResult {
   readonly ruleSet: RuleSetStamp;
   readonly outcome: RuleSetOutcome;
-  readonly counts: { readonly pass: number; readonly warn: number; readonly fail: number; readonly notApplicable: number };
+  readonly counts: {
+    readonly pass: number;
+    readonly warn: number;
+    readonly fail: number;
+    readonly notApplicable: number;
+  };
   readonly verdicts: readonly Verdict[];
 }
 

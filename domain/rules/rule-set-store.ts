@@ -18,7 +18,9 @@ export interface RefusedRuleSet {
 
 /** Port: the rule sets a request may name (built-in and company), and those refused at load. */
 export interface RuleSetStore {
-  get(id: string): { readonly ok: true; readonly set: CompiledRuleSet } | { readonly ok: false; readonly message: string };
+  get(
+    id: string,
+  ): { readonly ok: true; readonly set: CompiledRuleSet } | { readonly ok: false; readonly message: string };
   list(): readonly CompiledRuleSet[];
   refused(): readonly RefusedRuleSet[];
 }
@@ -27,7 +29,10 @@ export interface RuleSetStore {
  * A store of compiled sets and the refused ones. `sets` may be a function: the sets are then
  * compiled on first use (the built-in sets, which cannot be refused, need not hold up start-up).
  */
-export function createRuleSetStore(sets: readonly CompiledRuleSet[] | (() => readonly CompiledRuleSet[]), refused: readonly RefusedRuleSet[] = []): RuleSetStore {
+export function createRuleSetStore(
+  sets: readonly CompiledRuleSet[] | (() => readonly CompiledRuleSet[]),
+  refused: readonly RefusedRuleSet[] = [],
+): RuleSetStore {
   let all: readonly CompiledRuleSet[] | undefined = typeof sets === "function" ? undefined : sets;
   let byIdCache: Map<string, CompiledRuleSet> | undefined;
   const list = (): readonly CompiledRuleSet[] => {
@@ -44,7 +49,11 @@ export function createRuleSetStore(sets: readonly CompiledRuleSet[] | (() => rea
       const s = byId.get(id);
       if (s !== undefined) return { ok: true, set: s };
       const r = refused.find((f) => f.setId === id);
-      if (r !== undefined) return { ok: false, message: `rule set '${id}' was refused at load (${r.file}): ${r.problems.map((p) => p.message).join("; ")}` };
+      if (r !== undefined)
+        return {
+          ok: false,
+          message: `rule set '${id}' was refused at load (${r.file}): ${r.problems.map((p) => p.message).join("; ")}`,
+        };
       return { ok: false, message: `unknown rule set '${id}'; known: ${[...byId.keys()].join(", ")}` };
     },
     list,

@@ -1,10 +1,25 @@
 import { metricDef, partParameterDef } from "./metric-vocabulary.js";
-import { ARITHMETIC, COMPARISONS, EXPRESSION_LIMITS, FORBIDDEN_NAMES, FUNCTIONS, UNIT_SCALES } from "./sandbox-whitelist.js";
+import {
+  ARITHMETIC,
+  COMPARISONS,
+  EXPRESSION_LIMITS,
+  FORBIDDEN_NAMES,
+  FUNCTIONS,
+  UNIT_SCALES,
+} from "./sandbox-whitelist.js";
 
 export type NumFn = (v: ArrayLike<number>) => number;
 export type BoolFn = (v: ArrayLike<number>) => boolean;
 
-export type ExpressionErrorCode = "too-long" | "too-deep" | "too-many-nodes" | "syntax" | "forbidden" | "unknown-name" | "type" | "dimension";
+export type ExpressionErrorCode =
+  | "too-long"
+  | "too-deep"
+  | "too-many-nodes"
+  | "syntax"
+  | "forbidden"
+  | "unknown-name"
+  | "type"
+  | "dimension";
 /** Why an expression was refused; `column` is 1-based in the expression text. */
 export interface ExpressionError {
   readonly code: ExpressionErrorCode;
@@ -92,7 +107,8 @@ function bool(b: Built, ctx: Ctx, what: string): BoolFn {
 export function build(n: Loose, ctx: Ctx, depth: number): Built {
   ctx.nodes += 1;
   if (ctx.nodes > ctx.maxNodes) refuse("too-many-nodes", `expression has more than ${ctx.maxNodes} syntax nodes`, 1);
-  if (depth > EXPRESSION_LIMITS.maxDepth) refuse("too-deep", `expression nests deeper than ${EXPRESSION_LIMITS.maxDepth} levels`, 1);
+  if (depth > EXPRESSION_LIMITS.maxDepth)
+    refuse("too-deep", `expression nests deeper than ${EXPRESSION_LIMITS.maxDepth} levels`, 1);
   const d = depth + 1;
   switch (n.type) {
     case "ParenthesisNode":
@@ -108,7 +124,11 @@ export function build(n: Loose, ctx: Ctx, depth: number): Built {
         return { type: "number", f: () => x };
       }
       const shown = typeof n.value === "string" ? JSON.stringify(n.value) : String(n.value);
-      return refuse("forbidden", `only finite numbers and true/false are allowed as constants, got ${shown}`, locate(ctx.text, shown));
+      return refuse(
+        "forbidden",
+        `only finite numbers and true/false are allowed as constants, got ${shown}`,
+        locate(ctx.text, shown),
+      );
     }
     case "SymbolNode":
       return symbol(n.name ?? "", ctx);
@@ -119,7 +139,8 @@ export function build(n: Loose, ctx: Ctx, depth: number): Built {
     case "FunctionNode":
       return call(n, ctx, d);
     case "ConditionalNode": {
-      if (!n.condition || !n.trueExpr || !n.falseExpr) return refuse("syntax", "incomplete conditional", locate(ctx.text, "?"));
+      if (!n.condition || !n.trueExpr || !n.falseExpr)
+        return refuse("syntax", "incomplete conditional", locate(ctx.text, "?"));
       const c = bool(build(n.condition, ctx, d), ctx, "?");
       const t = build(n.trueExpr, ctx, d);
       const e = build(n.falseExpr, ctx, d);
@@ -148,32 +169,63 @@ function refusedNodeMessage(type: string): string {
 }
 
 function nodeMarker(type: string): string {
-  const m: Record<string, string> = { FunctionAssignmentNode: "=", AssignmentNode: "=", BlockNode: ";", ArrayNode: "[", ObjectNode: "{", RangeNode: ":", IndexNode: "[", RelationalNode: "<" };
+  const m: Record<string, string> = {
+    FunctionAssignmentNode: "=",
+    AssignmentNode: "=",
+    BlockNode: ";",
+    ArrayNode: "[",
+    ObjectNode: "{",
+    RangeNode: ":",
+    IndexNode: "[",
+    RelationalNode: "<",
+  };
   return m[type] ?? "";
 }
 
 function symbol(name: string, ctx: Ctx): Built {
-  if (FORBIDDEN_NAMES.has(name)) refuse("forbidden", `'${name}' is not allowed in a rule expression`, locate(ctx.text, name));
+  if (FORBIDDEN_NAMES.has(name))
+    refuse("forbidden", `'${name}' is not allowed in a rule expression`, locate(ctx.text, name));
   const m = metricDef(name);
   if (m !== undefined) return variable(ctx, name, m.type);
   const scale = UNIT_SCALES.get(name);
   if (scale !== undefined) return { type: "number", f: () => scale };
-  if (name === "part") return refuse("forbidden", "'part' must be followed by a parameter name, as in part.tjMaxC", locate(ctx.text, name));
-  return refuse("unknown-name", `unknown name '${name}': not in the metric vocabulary (see docs/metrics.md)`, locate(ctx.text, name));
+  if (name === "part")
+    return refuse(
+      "forbidden",
+      "'part' must be followed by a parameter name, as in part.tjMaxC",
+      locate(ctx.text, name),
+    );
+  return refuse(
+    "unknown-name",
+    `unknown name '${name}': not in the metric vocabulary (see docs/metrics.md)`,
+    locate(ctx.text, name),
+  );
 }
 
 function accessor(n: Loose, ctx: Ctx): Built {
   const dims = n.index?.dimensions ?? [];
   const key = dims[0];
-  const ok = n.object?.type === "SymbolNode" && n.object.name === "part" && n.index?.dotNotation === true && dims.length === 1 && key?.type === "ConstantNode" && typeof key.value === "string";
+  const ok =
+    n.object?.type === "SymbolNode" &&
+    n.object.name === "part" &&
+    n.index?.dotNotation === true &&
+    dims.length === 1 &&
+    key?.type === "ConstantNode" &&
+    typeof key.value === "string";
   if (!ok) {
     const at = n.object?.type === "SymbolNode" ? locate(ctx.text, n.object.name ?? "") : 1;
     return refuse("forbidden", "property access is allowed only as part.<parameter>", at);
   }
   const prop = String(key?.value);
-  if (FORBIDDEN_NAMES.has(prop)) refuse("forbidden", `'part.${prop}' is not allowed in a rule expression`, locate(ctx.text, prop));
+  if (FORBIDDEN_NAMES.has(prop))
+    refuse("forbidden", `'part.${prop}' is not allowed in a rule expression`, locate(ctx.text, prop));
   const p = partParameterDef(prop);
-  if (p === undefined) return refuse("unknown-name", `unknown part parameter 'part.${prop}' (see docs/metrics.md)`, locate(ctx.text, `part.${prop}`));
+  if (p === undefined)
+    return refuse(
+      "unknown-name",
+      `unknown part parameter 'part.${prop}' (see docs/metrics.md)`,
+      locate(ctx.text, `part.${prop}`),
+    );
   return variable(ctx, `part.${prop}`, p.type);
 }
 
@@ -219,16 +271,23 @@ function operator(n: Loose, ctx: Ctx, d: number): Built {
 
 function call(n: Loose, ctx: Ctx, d: number): Built {
   const callee = typeof n.fn === "object" ? n.fn : undefined;
-  if (callee?.type !== "SymbolNode") return refuse("forbidden", "only calls of the whitelisted functions by name are allowed", locate(ctx.text, "("));
+  if (callee?.type !== "SymbolNode")
+    return refuse("forbidden", "only calls of the whitelisted functions by name are allowed", locate(ctx.text, "("));
   const name = callee.name ?? "";
   const def = FUNCTIONS.get(name);
   if (def === undefined) {
-    const why = FORBIDDEN_NAMES.has(name) ? "is refused in the rules sandbox" : "is not in the whitelist (min, max, abs, sqrt, exp, log, log10)";
+    const why = FORBIDDEN_NAMES.has(name)
+      ? "is refused in the rules sandbox"
+      : "is not in the whitelist (min, max, abs, sqrt, exp, log, log10)";
     return refuse("forbidden", `function '${name}' ${why}`, locate(ctx.text, name));
   }
   const args = n.args ?? [];
   if (args.length < def.minArgs || args.length > def.maxArgs) {
-    refuse("syntax", `${name} takes ${def.minArgs === def.maxArgs ? def.minArgs : `${def.minArgs} to ${def.maxArgs}`} argument(s), got ${args.length}`, locate(ctx.text, name));
+    refuse(
+      "syntax",
+      `${name} takes ${def.minArgs === def.maxArgs ? def.minArgs : `${def.minArgs} to ${def.maxArgs}`} argument(s), got ${args.length}`,
+      locate(ctx.text, name),
+    );
   }
   const fs = args.map((a) => num(build(a, ctx, d), ctx, name));
   const impl = def.fn;

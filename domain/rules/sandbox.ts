@@ -1,6 +1,14 @@
 import type { MathNode } from "mathjs";
 import { parseExpression } from "./locked-mathjs.js";
-import { type BoolFn, build, type Ctx, type ExpressionError, type ExpressionErrorCode, type Loose, type NumFn } from "./sandbox-build.js";
+import {
+  type BoolFn,
+  build,
+  type Ctx,
+  type ExpressionError,
+  type ExpressionErrorCode,
+  type Loose,
+  type NumFn,
+} from "./sandbox-build.js";
 import { COMPARISONS, EXPRESSION_LIMITS, type ExpressionSizeLimits } from "./sandbox-whitelist.js";
 import { checkDimensions } from "./rule-dimensions.js";
 
@@ -29,7 +37,9 @@ export interface CompiledExpression {
   readonly comparison: TopComparison | null;
 }
 
-export type CompileOutcome = { readonly ok: true; readonly compiled: CompiledExpression } | { readonly ok: false; readonly error: ExpressionError };
+export type CompileOutcome =
+  | { readonly ok: true; readonly compiled: CompiledExpression }
+  | { readonly ok: false; readonly error: ExpressionError };
 
 /**
  * Compiled expressions by text. Only accepted ones are kept (a refused text is answered again from
@@ -53,7 +63,12 @@ export function compileCacheSize(): { readonly entries: number; readonly bytes: 
  * their text (with their node count, so a hit is held to the limits of the call).
  */
 export function compileExpression(text: string, size: ExpressionSizeLimits = EXPRESSION_LIMITS): CompileOutcome {
-  if (text.length > size.maxLength) return fail("too-long", `expression is ${text.length} characters; the limit is ${size.maxLength}`, size.maxLength + 1);
+  if (text.length > size.maxLength)
+    return fail(
+      "too-long",
+      `expression is ${text.length} characters; the limit is ${size.maxLength}`,
+      size.maxLength + 1,
+    );
   const hit = cache.get(text);
   if (hit !== undefined) return hit.nodes > size.maxNodes ? tooManyNodes(size.maxNodes) : hit.out;
   const { out, nodes } = compileUncached(text, size.maxNodes);
@@ -76,7 +91,8 @@ function tooManyNodes(maxNodes: number): CompileOutcome {
 function compileUncached(text: string, maxNodes: number): { readonly out: CompileOutcome; readonly nodes: number } {
   const refused = (out: CompileOutcome) => ({ out, nodes: 0 });
   const deep = bracketOverflow(text);
-  if (deep > 0) return refused(fail("too-deep", `brackets nest deeper than ${EXPRESSION_LIMITS.maxBracketDepth}`, deep));
+  if (deep > 0)
+    return refused(fail("too-deep", `brackets nest deeper than ${EXPRESSION_LIMITS.maxBracketDepth}`, deep));
   if (text.trim() === "") return refused(fail("syntax", "expression is empty", 1));
   let root: MathNode;
   try {
@@ -88,12 +104,22 @@ function compileUncached(text: string, maxNodes: number): { readonly out: Compil
   const ctx: Ctx = { text, names: [], index: new Map(), nodes: 0, maxNodes };
   try {
     const top = build(root as unknown as Loose, ctx, 0);
-    if (top.type !== "boolean") return refused(fail("type", "a rule expression must be a condition (a comparison or a logical combination), not a number", 1));
+    if (top.type !== "boolean")
+      return refused(
+        fail("type", "a rule expression must be a condition (a comparison or a logical combination), not a number", 1),
+      );
     const units = checkDimensions(root as unknown as Loose, text);
     if (units !== undefined) return refused({ ok: false, error: units });
-    return { out: { ok: true, compiled: { text, names: ctx.names, test: top.f, comparison: topComparison(root as unknown as Loose, ctx) } }, nodes: ctx.nodes };
+    return {
+      out: {
+        ok: true,
+        compiled: { text, names: ctx.names, test: top.f, comparison: topComparison(root as unknown as Loose, ctx) },
+      },
+      nodes: ctx.nodes,
+    };
   } catch (e) {
-    if (typeof e === "object" && e !== null && "refusal" in e) return refused({ ok: false, error: (e as { refusal: ExpressionError }).refusal });
+    if (typeof e === "object" && e !== null && "refusal" in e)
+      return refused({ ok: false, error: (e as { refusal: ExpressionError }).refusal });
     throw e;
   }
 }
@@ -125,4 +151,3 @@ function topComparison(root: Loose, ctx: Ctx): TopComparison | null {
   if (lhs.type !== "number" || rhs.type !== "number") return null;
   return { op: cmp.op, bound: cmp.op.startsWith("<") ? "upper" : "lower", lhs: lhs.f, rhs: rhs.f };
 }
-

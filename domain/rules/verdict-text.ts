@@ -23,7 +23,8 @@ function leftSide(text: string): string | undefined {
     const ch = text[i];
     if (ch === "(" || ch === "[") depth += 1;
     else if (ch === ")" || ch === "]") depth -= 1;
-    else if (depth === 0 && (ch === "<" || ch === ">" || ((ch === "=" || ch === "!") && text[i + 1] === "="))) return text.slice(0, i).trim();
+    else if (depth === 0 && (ch === "<" || ch === ">" || ((ch === "=" || ch === "!") && text[i + 1] === "=")))
+      return text.slice(0, i).trim();
   }
   return undefined;
 }
@@ -39,12 +40,17 @@ export function comparisonText(expression: string, exprNames: readonly string[])
   const lhs = leftSide(expression);
   let out: ComparisonText | null = null;
   if (lhs !== undefined) {
-    const names = exprNames.filter((n) => new RegExp(`(^|[^A-Za-z0-9_.])${n.replace(".", "\\.")}($|[^A-Za-z0-9_])`).test(lhs));
+    const names = exprNames.filter((n) =>
+      new RegExp(`(^|[^A-Za-z0-9_.])${n.replace(".", "\\.")}($|[^A-Za-z0-9_])`).test(lhs),
+    );
     const units = [...new Set(names.map(unitOf))];
     const u = units.length === 1 ? units[0] : undefined;
     if (u !== undefined) {
       const celsius = names.filter((n) => unitOf(n) === "°C").length;
-      out = u === "°C" && celsius >= 2 && lhs.includes("-") ? { lhs, unit: "K", marginUnit: "K" } : { lhs, unit: u, marginUnit: u === "°C" ? "K" : u };
+      out =
+        u === "°C" && celsius >= 2 && lhs.includes("-")
+          ? { lhs, unit: "K", marginUnit: "K" }
+          : { lhs, unit: u, marginUnit: u === "°C" ? "K" : u };
     } else out = { lhs, unit: "", marginUnit: "" };
   }
   if (cache.size >= 10_000) cache.clear();
@@ -57,8 +63,16 @@ export function comparisonText(expression: string, exprNames: readonly string[])
  * "tjWorstC = 157.8 °C <= 150 °C does not hold (margin -7.803 K)". Full precision stays in the
  * verdict's numbers.
  */
-export function comparisonReason(expression: string, names: readonly string[], op: string, lhs: number, rhs: number, margin: number): string {
+export function comparisonReason(
+  expression: string,
+  names: readonly string[],
+  op: string,
+  lhs: number,
+  rhs: number,
+  margin: number,
+): string {
   const t = comparisonText(expression, names);
-  if (t === null) return `${formatNumber(lhs, 6)} ${op} ${formatNumber(rhs, 6)} does not hold (margin ${formatNumber(margin, 6)})`;
+  if (t === null)
+    return `${formatNumber(lhs, 6)} ${op} ${formatNumber(rhs, 6)} does not hold (margin ${formatNumber(margin, 6)})`;
   return `${t.lhs} = ${formatQuantity(lhs, t.unit)} ${op} ${formatQuantity(rhs, t.unit)} does not hold (margin ${formatQuantity(margin, t.marginUnit)})`;
 }

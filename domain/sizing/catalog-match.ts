@@ -34,19 +34,30 @@ function severityOf(i: SpecItem): "fail" | "warn" {
 }
 
 /** fail: a fail-severity line missed or impossible; warn: only warn lines missed; incomplete: a line not determined. */
-export function verdictOfItems(items: readonly SpecItem[]): { verdict: CandidateVerdict; firstMiss?: SpecItem; reason: string } {
+export function verdictOfItems(items: readonly SpecItem[]): {
+  verdict: CandidateVerdict;
+  firstMiss?: SpecItem;
+  reason: string;
+} {
   const missed = items.filter((i) => i.meets === false || i.outcome === "impossible");
   const failing = missed.find((i) => severityOf(i) === "fail");
   const first = missed[0];
-  if (failing !== undefined && first !== undefined) return { verdict: "fail", firstMiss: first, reason: `fail: ${describeMiss(first)}` };
+  if (failing !== undefined && first !== undefined)
+    return { verdict: "fail", firstMiss: first, reason: `fail: ${describeMiss(first)}` };
   if (first !== undefined) return { verdict: "warn", firstMiss: first, reason: `warn: ${describeMiss(first)}` };
   const gap = items.find((i) => i.outcome === "not-determined");
-  if (gap !== undefined) return { verdict: "incomplete", reason: `incomplete: ${gap.id} could not be determined (${gap.reason})` };
+  if (gap !== undefined)
+    return { verdict: "incomplete", reason: `incomplete: ${gap.id} could not be determined (${gap.reason})` };
   return { verdict: "pass", reason: `pass: meets all ${items.filter((i) => i.meets === true).length} limits` };
 }
 
 function describeMiss(i: SpecItem): string {
-  const by = i.source?.kind === "rule" ? `rule ${i.source.ruleId}` : i.source?.kind === "requirement" ? `requirement ${i.source.field}` : "the requirement";
+  const by =
+    i.source?.kind === "rule"
+      ? `rule ${i.source.ruleId}`
+      : i.source?.kind === "requirement"
+        ? `requirement ${i.source.field}`
+        : "the requirement";
   if (i.outcome === "impossible") return `${i.id} cannot be met (${i.reason})`;
   const op = i.bound === "at-most" ? "above" : "below";
   return `${i.id}: ${fmt(i.templateValue ?? Number.NaN)} ${i.unit} is ${op} the ${fmt(i.value ?? Number.NaN)} ${i.unit} limit set by ${by} at ${i.corner ?? "the requirement"}`;
@@ -66,7 +77,14 @@ export function matchCatalog(parts: readonly CatalogCandidate[]): CatalogMatch[]
     const worstLossW = w.unsolvedCornerIndexes.length === 0 ? w.lossW?.value : undefined;
     return { index, p, spec, v, worstLossW };
   });
-  const ranked = rankCandidates(rows.map((r) => ({ index: r.index, verdict: r.v.verdict, ...(r.worstLossW === undefined ? {} : { worstLossW: r.worstLossW }), ...(r.p.cost === undefined ? {} : { cost: r.p.cost }) })));
+  const ranked = rankCandidates(
+    rows.map((r) => ({
+      index: r.index,
+      verdict: r.v.verdict,
+      ...(r.worstLossW === undefined ? {} : { worstLossW: r.worstLossW }),
+      ...(r.p.cost === undefined ? {} : { cost: r.p.cost }),
+    })),
+  );
   return ranked.map((e, i) => {
     const r = rows[e.index];
     if (r === undefined) throw new Error("unreachable: ranked index out of range");

@@ -28,10 +28,18 @@ function ruleConstraint(c: CompiledRule, ctx: SizingContext): Constraint {
   return {
     id: c.rule.id,
     metric,
-    source: { kind: "rule", ruleId: c.rule.id, expression: c.rule.expression, severity: c.rule.severity, threshold: null, ruleSet: stamp },
+    source: {
+      kind: "rule",
+      ruleId: c.rule.id,
+      expression: c.rule.expression,
+      severity: c.rule.severity,
+      threshold: null,
+      ruleSet: stamp,
+    },
     margin: (a) => {
       const v = evaluateRule(c, a.input, stamp);
-      if (v.outcome === "not-applicable") return v.notApplicableCode === "missing-value" || v.notApplicableCode === "not-finite" ? undefined : null;
+      if (v.outcome === "not-applicable")
+        return v.notApplicableCode === "missing-value" || v.notApplicableCode === "not-finite" ? undefined : null;
       if (v.margin === null || v.threshold === null) return v.outcome === "pass" ? 1 : -1;
       return v.margin / Math.max(Math.abs(v.threshold), 1e-12);
     },
@@ -50,7 +58,8 @@ export function forwardConstraints(ctx: SizingContext, stage: StageModel, templa
     const k = ruleConstraint(c, ctx);
     if (k.margin(template) !== null) out.push(k);
   }
-  const ruled = (m: string) => out.some((k) => k.metric === m || ctx.ruleSet.rules.some((r) => r.rule.id === k.id && r.names.includes(m)));
+  const ruled = (m: string) =>
+    out.some((k) => k.metric === m || ctx.ruleSet.rules.some((r) => r.rule.id === k.id && r.names.includes(m)));
   const metric = (a: Assessment, m: string) => {
     const v = a.input.metrics[m];
     return typeof v === "number" ? v : undefined;
@@ -65,7 +74,8 @@ export function forwardConstraints(ctx: SizingContext, stage: StageModel, templa
         const t = metric(a, "tjWorstC");
         return t === undefined ? undefined : (limit - t) / Math.max(Math.abs(limit), 1e-12);
       },
-      failReason: (a) => `the worst junction ${fmt(metric(a, "tjWorstC") ?? Number.NaN)} °C exceeds Tj(max) − ${ctx.requirement.tjMarginK} K = ${fmt(limit)} °C`,
+      failReason: (a) =>
+        `the worst junction ${fmt(metric(a, "tjWorstC") ?? Number.NaN)} °C exceeds Tj(max) − ${ctx.requirement.tjMarginK} K = ${fmt(limit)} °C`,
     });
   }
   const budget = ctx.lossBudgetW;
@@ -78,7 +88,8 @@ export function forwardConstraints(ctx: SizingContext, stage: StageModel, templa
         const p = metric(a, "lossWorstW");
         return p === undefined ? undefined : (budget - p) / budget;
       },
-      failReason: (a) => `the worst-case loss ${fmt(metric(a, "lossWorstW") ?? Number.NaN)} W exceeds the ${budget} W budget`,
+      failReason: (a) =>
+        `the worst-case loss ${fmt(metric(a, "lossWorstW") ?? Number.NaN)} W exceeds the ${budget} W budget`,
     });
   }
   return out;
@@ -110,14 +121,37 @@ export interface ForwardLimit {
  * reviewed in full — each corner is the self-consistent electrothermal point
  * (domain/solve/electrothermal-point.ts) — so the limit is where the first rule's margin is zero.
  */
-export function forwardLimit(ctx: SizingContext, stage: StageModel, template: Assessment, p: ForwardParameter): ForwardLimit {
+export function forwardLimit(
+  ctx: SizingContext,
+  stage: StageModel,
+  template: Assessment,
+  p: ForwardParameter,
+): ForwardLimit {
   const constraints = forwardConstraints(ctx, stage, template);
   const rated = ratedRdsOn(stage);
   const base =
     p === "rdsOn"
-      ? { id: "rdsOnMaxOhm", title: `largest Rds(on) at 25 °C${rated ? ` at Vgs = ${rated.gateSourceV} V` : ""} (the template's temperature law and thermal path held)`, unit: "ohm", bound: "at-most" as const }
-      : { id: "forwardDropMaxV", title: "largest forward drop at the worst-case current and junction temperature", unit: "V", bound: "at-most" as const };
-  if (constraints.length === 0) return { item: { ...base, outcome: "not-required", reason: "no rule of the set reads the junction temperature, loss, drop or load voltage, and the requirement sets no budget" } };
+      ? {
+          id: "rdsOnMaxOhm",
+          title: `largest Rds(on) at 25 °C${rated ? ` at Vgs = ${rated.gateSourceV} V` : ""} (the template's temperature law and thermal path held)`,
+          unit: "ohm",
+          bound: "at-most" as const,
+        }
+      : {
+          id: "forwardDropMaxV",
+          title: "largest forward drop at the worst-case current and junction temperature",
+          unit: "V",
+          bound: "at-most" as const,
+        };
+  if (constraints.length === 0)
+    return {
+      item: {
+        ...base,
+        outcome: "not-required",
+        reason:
+          "no rule of the set reads the junction temperature, loss, drop or load voltage, and the requirement sets no budget",
+      },
+    };
   const trials = new Map<number, Assessment>();
   const trial = (k: number): Assessment => {
     const hit = trials.get(k);
@@ -138,18 +172,28 @@ export function forwardLimit(ctx: SizingContext, stage: StageModel, template: As
   };
   const search = largestScale((k) => worst(trial(k))?.v, 1e-4, 1e4);
   const what = p === "rdsOn" ? "Rds(on)" : "forward drop";
-  if (search.kind === "unbounded") return { item: { ...base, outcome: "unbounded", reason: `even ${search.kMax}× the template's ${what} meets every forward rule` } };
+  if (search.kind === "unbounded")
+    return {
+      item: {
+        ...base,
+        outcome: "unbounded",
+        reason: `even ${search.kMax}× the template's ${what} meets every forward rule`,
+      },
+    };
   if (search.kind === "impossible") {
     const a = trial(search.kMin);
     const w = worst(a);
-    return { item: { ...base, outcome: "impossible", reason: impossibleReason(ctx, stage, w?.c, a, what, search.kMin) } };
+    return {
+      item: { ...base, outcome: "impossible", reason: impossibleReason(ctx, stage, w?.c, a, what, search.kMin) },
+    };
   }
   const limitStage = scaledForward(stage, p, search.k);
   const a = trial(search.k);
   const lim = worst(a)?.c ?? constraints[0];
   if (lim === undefined) throw new Error("unreachable: a limit without a constraint");
   const where = cornerOf(a.review, lim.metric);
-  const source: SpecSource = lim.source.kind === "rule" ? { ...lim.source, threshold: thresholdOf(ctx, lim.id, a) } : lim.source;
+  const source: SpecSource =
+    lim.source.kind === "rule" ? { ...lim.source, threshold: thresholdOf(ctx, lim.id, a) } : lim.source;
   const why = `${lim.id} sets it${search.cliff ? " (at the edge where the operating point vanishes)" : ""}: the part at the limit has margin ${fmt(lim.margin(a) ?? Number.NaN)} (relative) there`;
   let value: number;
   let templateValue: number | undefined;
@@ -167,7 +211,12 @@ export function forwardLimit(ctx: SizingContext, stage: StageModel, template: As
     extra["atCurrentA"] = i;
     extra["atJunctionC"] = where.tjC ?? 25;
   }
-  const item = limitItem(base, value, templateValue, { corner: where.corner, conditions: { ...(where.conditions ?? {}), ...extra, scaleFactor: search.k }, source, reason: why });
+  const item = limitItem(base, value, templateValue, {
+    corner: where.corner,
+    conditions: { ...(where.conditions ?? {}), ...extra, scaleFactor: search.k },
+    source,
+    reason: why,
+  });
   return { item, atLimit: { k: search.k, stage: limitStage, assessment: a } };
 }
 
@@ -176,7 +225,14 @@ function thresholdOf(ctx: SizingContext, ruleId: string, a: Assessment): number 
   return c === undefined ? null : evaluateRule(c, a.input, ctx.ruleSet.stamp).threshold;
 }
 
-function impossibleReason(ctx: SizingContext, stage: StageModel, c: Constraint | undefined, a: Assessment, what: string, kMin: number): string {
+function impossibleReason(
+  ctx: SizingContext,
+  stage: StageModel,
+  c: Constraint | undefined,
+  a: Assessment,
+  what: string,
+  kMin: number,
+): string {
   if (c === undefined) return `no ${what} meets the rules`;
   const ambient = ctx.requirement.ambientMaxC;
   const thr = c.source.kind === "rule" ? thresholdOf(ctx, c.id, a) : stageTjMaxC(stage) - ctx.requirement.tjMarginK;

@@ -14,7 +14,12 @@ export type ScaleSearch =
   | { readonly kind: "unbounded"; readonly kMax: number; readonly evaluations: number }
   | { readonly kind: "impossible"; readonly kMin: number; readonly evaluations: number };
 
-export function largestScale(g: (k: number) => number | undefined, kMin = 1e-4, kMax = 1e4, relTol = 1e-9): ScaleSearch {
+export function largestScale(
+  g: (k: number) => number | undefined,
+  kMin = 1e-4,
+  kMax = 1e4,
+  relTol = 1e-9,
+): ScaleSearch {
   let evaluations = 0;
   const cache = new Map<number, number | undefined>();
   const at = (k: number): number | undefined => {

@@ -14,9 +14,18 @@ export type RuleBoundary =
 /** The rule input with one name (a metric, or `part.<name>`) set to x. */
 export function withValue(input: RuleInput, name: string, x: number): RuleInput {
   // Object.assign, not a spread followed by fields (V8's slow clone path, ~1 µs per call).
-  if (name.startsWith("part.")) return Object.assign({}, input, { part: Object.assign({}, input.part, { [name.slice(5)]: x }) });
-  const unavailable = input.unavailable === undefined ? undefined : Object.fromEntries(Object.entries(input.unavailable).filter(([k]) => k !== name));
-  return Object.assign({}, input, { metrics: Object.assign({}, input.metrics, { [name]: x }) }, unavailable === undefined ? {} : { unavailable });
+  if (name.startsWith("part."))
+    return Object.assign({}, input, { part: Object.assign({}, input.part, { [name.slice(5)]: x }) });
+  const unavailable =
+    input.unavailable === undefined
+      ? undefined
+      : Object.fromEntries(Object.entries(input.unavailable).filter(([k]) => k !== name));
+  return Object.assign(
+    {},
+    input,
+    { metrics: Object.assign({}, input.metrics, { [name]: x }) },
+    unavailable === undefined ? {} : { unavailable },
+  );
 }
 
 /**
@@ -27,7 +36,13 @@ export function withValue(input: RuleInput, name: string, x: number): RuleInput 
  * of the built-in sets, a few for a curved expression. The sign of dmargin/dx says which side
  * passes: rising margin → the name must be at least x*, falling → at most x*.
  */
-export function ruleBoundary(c: CompiledRule, input: RuleInput, name: string, stamp: CompiledRuleSet["stamp"], present: number): RuleBoundary {
+export function ruleBoundary(
+  c: CompiledRule,
+  input: RuleInput,
+  name: string,
+  stamp: CompiledRuleSet["stamp"],
+  present: number,
+): RuleBoundary {
   // One copy of the input (withValue's) whose entry for `name` each trial overwrites: the engine
   // reads the value at evaluation and keeps no reference to the input, so every trial sees
   // exactly withValue(input, name, x) without copying the metrics again.
@@ -42,16 +57,23 @@ export function ruleBoundary(c: CompiledRule, input: RuleInput, name: string, st
   if (v0.outcome === "not-applicable") {
     const code = v0.notApplicableCode;
     const reason = `${c.rule.id}: ${v0.reason ?? "not applicable"}`;
-    return code === "stage-kind" || code === "precondition" || code === "not-required" ? { kind: "out-of-scope", reason } : { kind: "undetermined", reason };
+    return code === "stage-kind" || code === "precondition" || code === "not-required"
+      ? { kind: "out-of-scope", reason }
+      : { kind: "undetermined", reason };
   }
-  if (v0.margin === null) return { kind: "undetermined", reason: `${c.rule.id}: '${c.rule.expression}' is not a comparison, so it sets no threshold on ${name}` };
+  if (v0.margin === null)
+    return {
+      kind: "undetermined",
+      reason: `${c.rule.id}: '${c.rule.expression}' is not a comparison, so it sets no threshold on ${name}`,
+    };
   let x0 = present;
   let m0 = v0.margin;
   let x1 = present + Math.max(Math.abs(present) * 1e-3, 1e-9);
   let m1 = at(x1).margin;
   if (m1 === null) return { kind: "undetermined", reason: `${c.rule.id}: no margin near ${name} = ${x1}` };
   const slope = (m1 - m0) / (x1 - x0);
-  if (!(Math.abs(slope) > 0) || !Number.isFinite(slope)) return { kind: "undetermined", reason: `${c.rule.id}: its margin does not depend on ${name} near ${present}` };
+  if (!(Math.abs(slope) > 0) || !Number.isFinite(slope))
+    return { kind: "undetermined", reason: `${c.rule.id}: its margin does not depend on ${name} near ${present}` };
   const bound: Bound = slope > 0 ? "at-least" : "at-most";
   for (let i = 0; i < 60; i += 1) {
     const d = m1 - m0;
@@ -65,7 +87,8 @@ export function ruleBoundary(c: CompiledRule, input: RuleInput, name: string, st
     x1 = x2;
     m1 = v2.margin;
     const scale = Math.max(Math.abs(v2.threshold ?? 0), 1e-12);
-    if (Math.abs(m1) <= 1e-15 * scale || Math.abs(x1 - x0) <= 1e-14 * Math.max(Math.abs(x1), 1e-300)) return { kind: "bound", bound, value: x1, atLimit: v2 };
+    if (Math.abs(m1) <= 1e-15 * scale || Math.abs(x1 - x0) <= 1e-14 * Math.max(Math.abs(x1), 1e-300))
+      return { kind: "bound", bound, value: x1, atLimit: v2 };
   }
   return { kind: "undetermined", reason: `${c.rule.id}: the secant search for the boundary of ${name} did not settle` };
 }

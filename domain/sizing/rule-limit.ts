@@ -20,21 +20,47 @@ export function ruleLimitItem(
 ): SpecItem {
   const present = templateValue ?? 1;
   const found = rulesReading(set, name).map((c) => ({ c, b: ruleBoundary(c, input, name, set.stamp, present) }));
-  const bounds = found.filter((f): f is { c: (typeof found)[number]["c"]; b: Extract<RuleBoundary, { kind: "bound" }> } => f.b.kind === "bound" && f.b.bound === base.bound);
-  const undetermined = found.filter((f) => f.b.kind === "undetermined" || (f.b.kind === "bound" && f.b.bound !== base.bound));
+  const bounds = found.filter(
+    (f): f is { c: (typeof found)[number]["c"]; b: Extract<RuleBoundary, { kind: "bound" }> } =>
+      f.b.kind === "bound" && f.b.bound === base.bound,
+  );
+  const undetermined = found.filter(
+    (f) => f.b.kind === "undetermined" || (f.b.kind === "bound" && f.b.bound !== base.bound),
+  );
   if (bounds.length === 0) {
     if (undetermined.length > 0) {
-      const why = undetermined.map((f) => (f.b.kind === "bound" ? `${f.c.rule.id}: bounds ${name} from the other side` : "reason" in f.b ? f.b.reason : "")).join("; ");
+      const why = undetermined
+        .map((f) =>
+          f.b.kind === "bound"
+            ? `${f.c.rule.id}: bounds ${name} from the other side`
+            : "reason" in f.b
+              ? f.b.reason
+              : "",
+        )
+        .join("; ");
       return { ...base, outcome: "not-determined", reason: why };
     }
     const why = found.map((f) => ("reason" in f.b ? f.b.reason : "")).filter((s) => s !== "");
-    return { ...base, outcome: "not-required", reason: why.length > 0 ? why.join("; ") : `no rule of ${set.stamp.id} reads ${name}` };
+    return {
+      ...base,
+      outcome: "not-required",
+      reason: why.length > 0 ? why.join("; ") : `no rule of ${set.stamp.id} reads ${name}`,
+    };
   }
-  const strictest = bounds.reduce((a, b) => ((base.bound === "at-most" ? b.b.value < a.b.value : b.b.value > a.b.value) ? b : a));
+  const strictest = bounds.reduce((a, b) =>
+    (base.bound === "at-most" ? b.b.value < a.b.value : b.b.value > a.b.value) ? b : a,
+  );
   const r = strictest.c.rule;
   return limitItem(base, strictest.b.value, templateValue, {
     corner,
-    source: { kind: "rule", ruleId: r.id, expression: r.expression, severity: r.severity, threshold: strictest.b.atLimit.threshold, ruleSet: set.stamp },
+    source: {
+      kind: "rule",
+      ruleId: r.id,
+      expression: r.expression,
+      severity: r.severity,
+      threshold: strictest.b.atLimit.threshold,
+      ruleSet: set.stamp,
+    },
     reason: `${r.id} ('${r.expression}') holds for ${name} ${base.bound === "at-most" ? "≤" : "≥"} ${fmt(strictest.b.value)} ${base.unit}${bounds.length > 1 ? ` (the strictest of ${bounds.map((b) => b.c.rule.id).join(", ")})` : ""}`,
   });
 }

@@ -57,7 +57,16 @@ export function limitItem(
   const margin = base.bound === "at-most" ? value - templateValue : templateValue - value;
   // A limit equal to the part's value within rounding counts as met (the boundary is inclusive).
   const meets = margin >= -1e-9 * Math.max(Math.abs(value), 1e-300);
-  return { ...base, outcome: "limit", value, templateValue, margin, ...(value === 0 ? {} : { relativeMargin: margin / Math.abs(value) }), meets, ...rest };
+  return {
+    ...base,
+    outcome: "limit",
+    value,
+    templateValue,
+    margin,
+    ...(value === 0 ? {} : { relativeMargin: margin / Math.abs(value) }),
+    meets,
+    ...rest,
+  };
 }
 
 export function fmt(x: number): string {

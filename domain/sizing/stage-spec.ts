@@ -31,20 +31,67 @@ export function specifyStage(ctx: SizingContext, stage: StageModel): StageSpecif
   const num = (v: number | boolean | undefined) => (typeof v === "number" ? v : undefined);
   const part = (name: string) => num(input.part[name]);
   const metric = (name: string) => num(input.metrics[name]);
-  const rule = (name: string, id: string, title: string, unit: string, bound: "at-most" | "at-least", value: number | undefined, corner: string) =>
-    ruleLimitItem(set, input, name, { id, title, unit, bound }, value, corner);
+  const rule = (
+    name: string,
+    id: string,
+    title: string,
+    unit: string,
+    bound: "at-most" | "at-least",
+    value: number | undefined,
+    corner: string,
+  ) => ruleLimitItem(set, input, name, { id, title, unit, bound }, value, corner);
   const reverse = `steady reverse ${ctx.requirement.reverseV} V and the negative pulses of the set`;
   const items: SpecItem[] = [];
   const traits = behaviourOf(stage).sizing;
   items.push(forwardLimit(ctx, stage, template, traits.forward).item);
-  if (traits.reverseRating === "vrrmV") items.push(rule("part.vrrmV", "reverseRatingMinV", "smallest repetitive peak reverse voltage rating VRRM", "V", "at-least", part("vrrmV"), reverse));
-  if (traits.reverseRating === "vdsMaxV") items.push(rule("part.vdsMaxV", "drainSourceRatingMinV", "smallest drain-source voltage rating", "V", "at-least", part("vdsMaxV"), reverse));
+  if (traits.reverseRating === "vrrmV")
+    items.push(
+      rule(
+        "part.vrrmV",
+        "reverseRatingMinV",
+        "smallest repetitive peak reverse voltage rating VRRM",
+        "V",
+        "at-least",
+        part("vrrmV"),
+        reverse,
+      ),
+    );
+  if (traits.reverseRating === "vdsMaxV")
+    items.push(
+      rule(
+        "part.vdsMaxV",
+        "drainSourceRatingMinV",
+        "smallest drain-source voltage rating",
+        "V",
+        "at-least",
+        part("vdsMaxV"),
+        reverse,
+      ),
+    );
   if (traits.gateFromSupply) {
-    items.push(rule("part.vgsMaxV", "gateSourceRatingMinV", "smallest gate-source voltage rating", "V", "at-least", part("vgsMaxV"), "highest steady supply and positive pulses, after the gate clamp"));
+    items.push(
+      rule(
+        "part.vgsMaxV",
+        "gateSourceRatingMinV",
+        "smallest gate-source voltage rating",
+        "V",
+        "at-least",
+        part("vgsMaxV"),
+        "highest steady supply and positive pulses, after the gate clamp",
+      ),
+    );
   }
   if (traits.ratedGateDrive) {
     items.push(
-      rule("part.vgsOnV", "ratedGateDriveMaxV", `gate drive at which Rds(on) is rated, at most the drive available at the lowest supply (${metric("gateDriveMinV") ?? "?"} V)`, "V", "at-most", part("vgsOnV"), `lowest supply ${ctx.requirement.supplyMinV} V, full load`),
+      rule(
+        "part.vgsOnV",
+        "ratedGateDriveMaxV",
+        `gate drive at which Rds(on) is rated, at most the drive available at the lowest supply (${metric("gateDriveMinV") ?? "?"} V)`,
+        "V",
+        "at-most",
+        part("vgsOnV"),
+        `lowest supply ${ctx.requirement.supplyMinV} V, full load`,
+      ),
     );
   }
   if (traits.leakage) items.push(leakageLimit(ctx, stage));
@@ -55,7 +102,15 @@ export function specifyStage(ctx: SizingContext, stage: StageModel): StageSpecif
   return { stageKind: stage.kind, items, template };
 }
 
-type RuleItem = (name: string, id: string, title: string, unit: string, bound: "at-most" | "at-least", value: number | undefined, corner: string) => SpecItem;
+type RuleItem = (
+  name: string,
+  id: string,
+  title: string,
+  unit: string,
+  bound: "at-most" | "at-least",
+  value: number | undefined,
+  corner: string,
+) => SpecItem;
 
 function controllerItems(
   ctx: SizingContext,
@@ -67,15 +122,57 @@ function controllerItems(
 ): SpecItem[] {
   const req = ctx.requirement;
   const out: SpecItem[] = [
-    rule("part.maxInputV", "inputRatingMinV", "smallest input voltage rating of the controller (or switch)", "V", "at-least", part("maxInputV"), "highest steady supply and positive pulses"),
-    rule("startVoltageV", "startVMaxV", "highest start voltage that still starts at the lowest supply", "V", "at-most", metric("startVoltageV"), `lowest supply ${req.supplyMinV} V`),
+    rule(
+      "part.maxInputV",
+      "inputRatingMinV",
+      "smallest input voltage rating of the controller (or switch)",
+      "V",
+      "at-least",
+      part("maxInputV"),
+      "highest steady supply and positive pulses",
+    ),
+    rule(
+      "startVoltageV",
+      "startVMaxV",
+      "highest start voltage that still starts at the lowest supply",
+      "V",
+      "at-most",
+      metric("startVoltageV"),
+      `lowest supply ${req.supplyMinV} V`,
+    ),
     startAlongProfileLimit(ctx, stage, startV),
   ];
   if (blocksReverseCurrent(stage)) {
     if (ctx.turnOff) out.push(...turnOffDelayLimits(ctx, stage, ctx.turnOff));
-    else if (ctx.turnOffUnavailable !== undefined) out.push({ id: "turnOffDelayMaxS", title: "longest turn-off delay", unit: "s", bound: "at-most", outcome: "not-determined", reason: ctx.turnOffUnavailable });
-    else out.push({ id: "turnOffDelayMaxS", title: "longest turn-off delay", unit: "s", bound: "at-most", outcome: "not-required", reason: "no turn-off event (loop, capacitor and limits) was given" });
+    else if (ctx.turnOffUnavailable !== undefined)
+      out.push({
+        id: "turnOffDelayMaxS",
+        title: "longest turn-off delay",
+        unit: "s",
+        bound: "at-most",
+        outcome: "not-determined",
+        reason: ctx.turnOffUnavailable,
+      });
+    else
+      out.push({
+        id: "turnOffDelayMaxS",
+        title: "longest turn-off delay",
+        unit: "s",
+        bound: "at-most",
+        outcome: "not-required",
+        reason: "no turn-off event (loop, capacitor and limits) was given",
+      });
   }
-  out.push(rule("quiescentA", "quiescentMaxA", "largest quiescent current within the standby budget", "A", "at-most", metric("quiescentA"), "standby, supply present"));
+  out.push(
+    rule(
+      "quiescentA",
+      "quiescentMaxA",
+      "largest quiescent current within the standby budget",
+      "A",
+      "at-most",
+      metric("quiescentA"),
+      "standby, supply present",
+    ),
+  );
   return out;
 }

@@ -19,25 +19,41 @@ export function withStartV<S extends StageModel>(stage: S, startV: number): S {
  * samples where the load has no operating point even then do not count (no start voltage helps).
  */
 export function startAlongProfileLimit(ctx: SizingContext, stage: StageModel, startV: number): SpecItem {
-  const base = { id: "startAlongProfileMaxV", title: "highest start voltage that keeps the controller running along the start-up profile", unit: "V", bound: "at-most" as const };
+  const base = {
+    id: "startAlongProfileMaxV",
+    title: "highest start voltage that keeps the controller running along the start-up profile",
+    unit: "V",
+    bound: "at-most" as const,
+  };
   const req = ctx.requirement;
-  if (req.startProfile === undefined) return { ...base, outcome: "not-required", reason: "the requirement gives no start-up profile" };
+  if (req.startProfile === undefined)
+    return { ...base, outcome: "not-required", reason: "the requirement gives no start-up profile" };
   const running = withStartV(stage, 0);
   const review = ctx.assess(running).review;
   let lowest: { v: number; t: number; ambientC: number; supplyV: number } | undefined;
   let skipped = 0;
   for (const p of review.startUp.profiles) {
     for (const s of p.result.samples) {
-      const e = solveElectrical({ stage: running, supplyV: s.supplyV, sourceResistanceOhm: req.sourceResistanceOhm, load: req.load }, cToK(s.tjC));
+      const e = solveElectrical(
+        { stage: running, supplyV: s.supplyV, sourceResistanceOhm: req.sourceResistanceOhm, load: req.load },
+        cToK(s.tjC),
+      );
       if (!e.ok || (req.load.kind === "constant-power" && e.point.loadV < req.load.minVoltageV)) {
         skipped += 1;
         continue;
       }
-      if (lowest === undefined || e.point.stageInputV < lowest.v) lowest = { v: e.point.stageInputV, t: s.timeS, ambientC: p.ambientC, supplyV: s.supplyV };
+      if (lowest === undefined || e.point.stageInputV < lowest.v)
+        lowest = { v: e.point.stageInputV, t: s.timeS, ambientC: p.ambientC, supplyV: s.supplyV };
     }
   }
   const source = { kind: "requirement" as const, field: "startProfile", severity: "fail" as const };
-  if (lowest === undefined) return { ...base, outcome: "impossible", source, reason: "the load has no operating point anywhere along the profile, whatever the start voltage" };
+  if (lowest === undefined)
+    return {
+      ...base,
+      outcome: "impossible",
+      source,
+      reason: "the load has no operating point anywhere along the profile, whatever the start voltage",
+    };
   return limitItem(base, lowest.v, startV, {
     corner: `start-up profile at t = ${fmt(lowest.t)} s (supply ${fmt(lowest.supplyV)} V, ${lowest.ambientC} °C ambient)`,
     conditions: { timeS: lowest.t, supplyV: lowest.supplyV, ambientC: lowest.ambientC },

@@ -6,7 +6,12 @@ import type { SizingContext, TurnOffSizing } from "./assessment.js";
 import { fmt, limitItem, type SpecItem } from "./spec-item.js";
 
 /** The reverse-current event with the controller's delay set to d (every other value of the template held). */
-export function eventWithDelay(ctx: SizingContext, stage: StageModel, t: TurnOffSizing, delayS: number): TurnOffOutcome {
+export function eventWithDelay(
+  ctx: SizingContext,
+  stage: StageModel,
+  t: TurnOffSizing,
+  delayS: number,
+): TurnOffOutcome {
   return turnOffEvent({
     stage,
     outputV: t.outputV,
@@ -36,13 +41,35 @@ export function eventWithDelay(ctx: SizingContext, stage: StageModel, t: TurnOff
  */
 export function turnOffDelayLimits(ctx: SizingContext, stage: StageModel, t: TurnOffSizing): SpecItem[] {
   const corner = `input falls from ${fmt(t.outputV)} V to ${fmt(t.inputAfterV)} V, loop ${fmt(t.loopResistanceOhm)} Ω ${fmt(t.loopInductanceH)} H, ${fmt(t.capacitanceF)} F at the output, Tj ${fmt(t.tjC)} °C`;
-  const conditions = { outputV: t.outputV, inputAfterV: t.inputAfterV, loopResistanceOhm: t.loopResistanceOhm, loopInductanceH: t.loopInductanceH, capacitanceF: t.capacitanceF, tjC: t.tjC };
+  const conditions = {
+    outputV: t.outputV,
+    inputAfterV: t.inputAfterV,
+    loopResistanceOhm: t.loopResistanceOhm,
+    loopInductanceH: t.loopInductanceH,
+    capacitanceF: t.capacitanceF,
+    tjC: t.tjC,
+  };
   const e0 = eventWithDelay(ctx, stage, t, 0);
-  const current = { id: "turnOffDelayMaxS.reverseCurrent", title: "longest turn-off delay that keeps the reverse-current peak within its limit", unit: "s", bound: "at-most" as const };
-  const energy = { id: "turnOffDelayMaxS.absorbedEnergy", title: "longest turn-off delay that keeps the energy the blocking element absorbs within its limit", unit: "s", bound: "at-most" as const };
+  const current = {
+    id: "turnOffDelayMaxS.reverseCurrent",
+    title: "longest turn-off delay that keeps the reverse-current peak within its limit",
+    unit: "s",
+    bound: "at-most" as const,
+  };
+  const energy = {
+    id: "turnOffDelayMaxS.absorbedEnergy",
+    title: "longest turn-off delay that keeps the energy the blocking element absorbs within its limit",
+    unit: "s",
+    bound: "at-most" as const,
+  };
   if (e0.outcome !== "blocks") {
     const why = e0.reason;
-    return [current, energy].map((b) => ({ ...b, outcome: "not-determined" as const, corner, reason: `the event does not end in a controller turn-off (${e0.outcome}: ${why})` }));
+    return [current, energy].map((b) => ({
+      ...b,
+      outcome: "not-determined" as const,
+      corner,
+      reason: `the event does not end in a controller turn-off (${e0.outcome}: ${why})`,
+    }));
   }
   const detect = e0.detectS ?? 0;
   const discharge = gateDischargeS(t.timing);
@@ -60,14 +87,40 @@ export function turnOffDelayLimits(ctx: SizingContext, stage: StageModel, t: Tur
     if (e.outcome === "clamp-below-drive") return Number.POSITIVE_INFINITY;
     return e.outcome === "blocks" ? (e.clamp?.absorbedJ ?? 0) : Number.POSITIVE_INFINITY;
   };
-  const invert = (f: (d: number) => number, limit: number, base: typeof current, what: string, unit: string, field: string): SpecItem => {
+  const invert = (
+    f: (d: number) => number,
+    limit: number,
+    base: typeof current,
+    what: string,
+    unit: string,
+    field: string,
+  ): SpecItem => {
     const source = { kind: "requirement" as const, field: `turnOff.${field}`, severity: "fail" as const };
     const f0 = f(0);
-    if (f0 > limit) return { ...base, outcome: "impossible", corner, source, reason: `even with no delay ${what} reaches ${fmt(f0)} ${unit}, above the ${fmt(limit)} ${unit} limit ${tail}: lower the trip threshold, add loop inductance or a faster gate discharge` };
+    if (f0 > limit)
+      return {
+        ...base,
+        outcome: "impossible",
+        corner,
+        source,
+        reason: `even with no delay ${what} reaches ${fmt(f0)} ${unit}, above the ${fmt(limit)} ${unit} limit ${tail}: lower the trip threshold, add loop inductance or a faster gate discharge`,
+      };
     const fPk = f(dPeak);
-    if (fPk <= limit) return { ...base, outcome: "unbounded", corner, source, reason: `${what} stays at or below ${fmt(fPk)} ${unit} (limit ${fmt(limit)} ${unit}) however late the turn-off ${tail}` };
+    if (fPk <= limit)
+      return {
+        ...base,
+        outcome: "unbounded",
+        corner,
+        source,
+        reason: `${what} stays at or below ${fmt(fPk)} ${unit} (limit ${fmt(limit)} ${unit}) however late the turn-off ${tail}`,
+      };
     const root = bracketedRoot((d) => f(d) - limit, 0, dPeak, f0 - limit, fPk - limit, 1e-12 * Math.max(dPeak, 1e-300));
-    return limitItem(base, root.x, t.templateDelayS, { corner, conditions, source, reason: `at this delay ${what} reaches the ${fmt(limit)} ${unit} limit ${tail}` });
+    return limitItem(base, root.x, t.templateDelayS, {
+      corner,
+      conditions,
+      source,
+      reason: `at this delay ${what} reaches the ${fmt(limit)} ${unit} limit ${tail}`,
+    });
   };
   return [
     t.peakReverseCurrentMaxA === undefined

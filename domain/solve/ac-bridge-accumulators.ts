@@ -65,7 +65,10 @@ export function accumulate(acc: Acc, c: AcBridgeCircuit, s0: Snapshot, sg: Snaps
   if (pair === 0) return;
   const base = pair > 0 ? 0 : 2;
   const charge = c.capacitanceF * (s1.capV - s0.capV) + (acc.loadAs - loadAs);
-  const quad = QUAD_W0 * h * (s0.pair === pair ? Math.abs(s0.lineA) : 0) + QUAD_WG * h * (sg.pair === pair ? Math.abs(sg.lineA) : 0) + QUAD_W1 * h * (s1.pair === pair ? Math.abs(s1.lineA) : 0);
+  const quad =
+    QUAD_W0 * h * (s0.pair === pair ? Math.abs(s0.lineA) : 0) +
+    QUAD_WG * h * (sg.pair === pair ? Math.abs(sg.lineA) : 0) +
+    QUAD_W1 * h * (s1.pair === pair ? Math.abs(s1.lineA) : 0);
   acc.elementAs[base] = (acc.elementAs[base] ?? 0) + charge - quad;
   acc.elementAs[base + 1] = (acc.elementAs[base + 1] ?? 0) + charge - quad;
 }

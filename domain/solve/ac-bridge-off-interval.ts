@@ -19,8 +19,15 @@ export interface OffDecay {
 
 export function offDecayOf(c: AcBridgeCircuit): OffDecay | undefined {
   const l = c.load;
-  if (l.kind === "resistive") return { kind: "resistive", rate: (l.resistanceOhm + c.esrOhm) * c.capacitanceF, loadOhm: l.resistanceOhm, currentA: 0 };
-  if (l.kind === "constant-current") return { kind: "constant-current", rate: l.currentA / c.capacitanceF, loadOhm: 0, currentA: l.currentA };
+  if (l.kind === "resistive")
+    return {
+      kind: "resistive",
+      rate: (l.resistanceOhm + c.esrOhm) * c.capacitanceF,
+      loadOhm: l.resistanceOhm,
+      currentA: 0,
+    };
+  if (l.kind === "constant-current")
+    return { kind: "constant-current", rate: l.currentA / c.capacitanceF, loadOhm: 0, currentA: l.currentA };
   return undefined;
 }
 
@@ -60,14 +67,24 @@ export function offMoments(d: OffDecay, out0: number, s: number): { readonly vS:
  * root), reached by Newton from below. The interval lies within a half-cycle (the integrator's breakpoints are the zero
  * crossings). Returns the root's lower bracket (the node there is still off) or undefined.
  */
-export function onsetS(c: AcBridgeCircuit, d: OffDecay, t0: number, t1: number, out0: number, dropAtZeroV: number): number | undefined {
+export function onsetS(
+  c: AcBridgeCircuit,
+  d: OffDecay,
+  t0: number,
+  t1: number,
+  out0: number,
+  dropAtZeroV: number,
+): number | undefined {
   const w = 2 * Math.PI * c.frequencyHz;
   const amp = Math.SQRT2 * c.sourceRmsV;
   const sign = Math.sin(w * (0.5 * (t0 + t1))) >= 0 ? 1 : -1;
   const m = (t: number): number => sign * amp * Math.sin(w * t) - dropAtZeroV - offOutV(d, out0, t - t0);
   const dm = (t: number): readonly [number, number] => {
     const out = offOutV(d, out0, t - t0);
-    return [sign * amp * w * Math.cos(w * t) - offSlope(d, out), -sign * amp * w * w * Math.sin(w * t) - offCurvature(d, out)];
+    return [
+      sign * amp * w * Math.cos(w * t) - offSlope(d, out),
+      -sign * amp * w * w * Math.sin(w * t) - offCurvature(d, out),
+    ];
   };
   const tol = 1e-13 / c.frequencyHz;
   const d0 = dm(t0)[0];

@@ -10,7 +10,16 @@ import { type OffDecay, offMoments, offNode, offOutV, onsetS } from "./ac-bridge
  * zero current is taken at the supply of the interval's start, as the general step takes the laws
  * at the supply of each step's start.
  */
-export function offStep(c: AcBridgeCircuit, d: OffDecay, s0: Snapshot, t: number, t1: number, period: number, acc: Acc, trace: Snapshot[] | undefined): Snapshot | "collapse" | undefined {
+export function offStep(
+  c: AcBridgeCircuit,
+  d: OffDecay,
+  s0: Snapshot,
+  t: number,
+  t1: number,
+  period: number,
+  acc: Acc,
+  trace: Snapshot[] | undefined,
+): Snapshot | "collapse" | undefined {
   const laws = c.pairLaws(s0.capV);
   const positive = Math.sin(2 * Math.PI * c.frequencyHz * (0.5 * (t + t1))) >= 0;
   const [la, lb] = positive ? laws.positive : laws.negative;
@@ -27,7 +36,8 @@ export function offStep(c: AcBridgeCircuit, d: OffDecay, s0: Snapshot, t: number
   const capA2s = d.kind === "resistive" ? v2S / (d.loadOhm * d.loadOhm) : d.currentA * d.currentA * span;
   acc.esrEnergyJ += esr * capA2s;
   acc.capA2s += capA2s;
-  acc.capEnergyJ += d.kind === "resistive" ? (-(1 + esr / d.loadOhm) * v2S) / d.loadOhm : -d.currentA * (vS + esr * d.currentA * span);
+  acc.capEnergyJ +=
+    d.kind === "resistive" ? (-(1 + esr / d.loadOhm) * v2S) / d.loadOhm : -d.currentA * (vS + esr * d.currentA * span);
   acc.loadEnergyJ += d.kind === "resistive" ? v2S / d.loadOhm : d.currentA * vS;
   acc.loadAs += d.kind === "resistive" ? vS / d.loadOhm : d.currentA * span;
   acc.outVs += vS;
@@ -40,7 +50,8 @@ export function offStep(c: AcBridgeCircuit, d: OffDecay, s0: Snapshot, t: number
   const end = offNode(c, d, tEnd, outEnd);
   if (trace !== undefined) {
     const pieces = Math.max(1, Math.ceil((50 * span) / period));
-    for (let k = 1; k < pieces; k += 1) trace.push(offNode(c, d, t + (k * span) / pieces, offOutV(d, out0, (k * span) / pieces)));
+    for (let k = 1; k < pieces; k += 1)
+      trace.push(offNode(c, d, t + (k * span) / pieces, offOutV(d, out0, (k * span) / pieces)));
     trace.push(end);
   }
   return end;

@@ -79,11 +79,7 @@ export interface PeriodOptions {
  * the pointwise power balance e·i = R·i² + Σ v·i + ESR·iC² + vC·iC + vout·iload + L·i·di/dt
  * carries over to the period integrals.
  */
-export function integratePeriod(
-  c: AcBridgeCircuit,
-  x0: readonly number[],
-  opt: PeriodOptions,
-): PeriodOutcome {
+export function integratePeriod(c: AcBridgeCircuit, x0: readonly number[], opt: PeriodOptions): PeriodOutcome {
   const period = 1 / c.frequencyHz;
   const endS = opt.halfPeriod === true ? period / 2 : period;
   const scale = [opt.rtol * opt.voltageScaleV, opt.rtol * opt.currentScaleA];
@@ -178,7 +174,10 @@ export function integratePeriod(
       rhs2[0] = BDF_W_GAMMA * sg.capV + BDF_W_N * x0v(x);
       if (n > 1) rhs2[1] = BDF_W_GAMMA * sg.lineA + BDF_W_N * x1a(x);
     }
-    const s1 = sg === undefined ? undefined : solveStage(c, laws, t + h, BDF_COEFF * h, rhs2, sg.lineA + ((1 - GAMMA) / GAMMA) * (sg.lineA - s0.lineA));
+    const s1 =
+      sg === undefined
+        ? undefined
+        : solveStage(c, laws, t + h, BDF_COEFF * h, rhs2, sg.lineA + ((1 - GAMMA) / GAMMA) * (sg.lineA - s0.lineA));
     if (sg === undefined || s1 === undefined) {
       h /= 4;
       if (h < hMin) return collapse(t);
@@ -214,7 +213,8 @@ export function integratePeriod(
         const a2 = BDF_COEFF * h;
         for (let k = 0; k < 4; k += 1) db1[k] = (dx[k] ?? 0) + a1 * (df[k] ?? 0);
         mulSInto(dfg, c, sg, db1, n);
-        for (let k = 0; k < 4; k += 1) db2[k] = BDF_W_GAMMA * ((db1[k] ?? 0) + a1 * (dfg[k] ?? 0)) + BDF_W_N * (dx[k] ?? 0);
+        for (let k = 0; k < 4; k += 1)
+          db2[k] = BDF_W_GAMMA * ((db1[k] ?? 0) + a1 * (dfg[k] ?? 0)) + BDF_W_N * (dx[k] ?? 0);
         mulSInto(df, c, s1, db2, n);
         for (let k = 0; k < 4; k += 1) dx[k] = (db2[k] ?? 0) + a2 * (df[k] ?? 0);
         // A blocked node's current rate is zero whatever its neighbourhood (see solveStage).
@@ -235,11 +235,20 @@ export function integratePeriod(
     // facmax = 1 after a rejected step): the estimate is least reliable where it just failed.
     const accepted = Math.max(errNorm, currentNorm) <= 1 || h <= hMin * 4;
     // The voltage's error is third order in h, the current's defect second order.
-    const grow = Math.min(errNorm > 0 ? 0.9 / Math.cbrt(errNorm) : 4, currentNorm > 0 ? 0.9 / Math.sqrt(currentNorm) : 4);
+    const grow = Math.min(
+      errNorm > 0 ? 0.9 / Math.cbrt(errNorm) : 4,
+      currentNorm > 0 ? 0.9 / Math.sqrt(currentNorm) : 4,
+    );
     h = Math.min(hMax, h * Math.min(accepted && !rejectedLast ? 4 : 1, Math.max(0.2, grow)));
     rejectedLast = !accepted;
   }
-  const jacobian = n > 1 ? [[dx[0] ?? 0, dx[1] ?? 0], [dx[2] ?? 0, dx[3] ?? 0]] : [[dx[0] ?? 0]];
+  const jacobian =
+    n > 1
+      ? [
+          [dx[0] ?? 0, dx[1] ?? 0],
+          [dx[2] ?? 0, dx[3] ?? 0],
+        ]
+      : [[dx[0] ?? 0]];
   return { ok: true, end: x, integrals: acc, steps, ...(opt.record ? { trace } : {}), ...(sens ? { jacobian } : {}) };
 }
 

@@ -1,4 +1,12 @@
-import { type AcBridgeCircuit, type ForwardLaw, loadCurrentA, loadSlopeS, type PairLaws, type Snapshot, solveOutputV } from "./ac-bridge-circuit.js";
+import {
+  type AcBridgeCircuit,
+  type ForwardLaw,
+  loadCurrentA,
+  loadSlopeS,
+  type PairLaws,
+  type Snapshot,
+  solveOutputV,
+} from "./ac-bridge-circuit.js";
 import type { LoadModel } from "./load-model.js";
 
 /**
@@ -14,7 +22,16 @@ function kneeStep(x: number, next: number, lo: number): number {
 }
 
 /** g(i) of the stage without inductance (solveStage), for the bracket search. */
-function gValue(la: ForwardLaw, lb: ForwardLaw, m: number, r: number, k: number, bv: number, load: LoadModel, i: number): number {
+function gValue(
+  la: ForwardLaw,
+  lb: ForwardLaw,
+  m: number,
+  r: number,
+  k: number,
+  bv: number,
+  load: LoadModel,
+  i: number,
+): number {
   const out = m - r * i - la.dropV(i) - lb.dropV(i);
   return out > 0 ? out + k * loadCurrentA(load, out) - k * i - bv : out - k * i - bv;
 }
@@ -37,7 +54,23 @@ function node(
 ): Snapshot {
   const loadA = loadCurrentA(c.load, outV);
   const capA = Math.abs(i) - loadA;
-  return { t, sourceV: e, capV: outV - c.esrOhm * capA, lineA: i, outV, loadA, capA, pair: s, dropAV: dA, dropBV: dB, inductorV, dCapAdB0, dCapAdB1, dVLdB0, dVLdB1 };
+  return {
+    t,
+    sourceV: e,
+    capV: outV - c.esrOhm * capA,
+    lineA: i,
+    outV,
+    loadA,
+    capA,
+    pair: s,
+    dropAV: dA,
+    dropBV: dB,
+    inductorV,
+    dCapAdB0,
+    dCapAdB1,
+    dVLdB0,
+    dVLdB1,
+  };
 }
 
 /** Off-state output: v + k·ℓ(v) = b₀, so ∂v/∂b₀ = 1/(1 + k·ℓ'(v)) and ∂capA/∂b₀ = −ℓ'·∂v/∂b₀. */
@@ -56,7 +89,14 @@ function offSens(load: LoadModel, outV: number, k: number): number {
  * = b₁ is increasing in i with a jump at i = 0 (the blocking bridge): zero current inside the jump.
  * Undefined when the load cannot be held (outV would fall to zero): the caller shrinks the step.
  */
-export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: number, b: readonly number[], hintA: number): Snapshot | undefined {
+export function solveStage(
+  c: AcBridgeCircuit,
+  laws: PairLaws,
+  t: number,
+  a: number,
+  b: readonly number[],
+  hintA: number,
+): Snapshot | undefined {
   const w = 2 * Math.PI * c.frequencyHz;
   const e = Math.SQRT2 * c.sourceRmsV * Math.sin(w * t);
   const r = c.sourceResistanceOhm;
@@ -72,7 +112,8 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
     const s: 1 | -1 = e >= 0 ? 1 : -1;
     const [la, lb] = s > 0 ? laws.positive : laws.negative;
     // Laws give the right-hand limit at zero current (a regulated drop starts at its setpoint).
-    if (off >= m - la.dropV(0) - lb.dropV(0)) return node(c, t, e, 0, 0, off, 0, 0, 0, offSens(c.load, off, k), 0, 0, 0);
+    if (off >= m - la.dropV(0) - lb.dropV(0))
+      return node(c, t, e, 0, 0, off, 0, 0, 0, offSens(c.load, off, k), 0, 0, 0);
     // g(i) = outV + k·ℓ(outV) − k·i − b: g(0) > 0, decreasing.
     // The same part in both positions: one law evaluation for the pair.
     const twin = la === lb;
@@ -157,7 +198,21 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
     const vb = lb.dropV(Math.abs(i));
     const sb = lb.slopeOhm(Math.abs(i));
     // outV from b₀ + ESR·|i|: ∂outV/∂b₀ = ov, ∂outV/∂b₁ = ESR·s·ov.
-    return node(c, t, e, i, s, outV, va, vb, e - r * i - s * (va + vb + outV), -slope * ov, s - slope * c.esrOhm * s * ov, -s * ov, -r - sa - sb - c.esrOhm * ov);
+    return node(
+      c,
+      t,
+      e,
+      i,
+      s,
+      outV,
+      va,
+      vb,
+      e - r * i - s * (va + vb + outV),
+      -slope * ov,
+      s - slope * c.esrOhm * s * ov,
+      -s * ov,
+      -r - sa - sb - c.esrOhm * ov,
+    );
   }
   const al = a / lh;
   const out0 = solveOutputV(c.load, bv, k);
@@ -223,5 +278,19 @@ export function solveStage(c: AcBridgeCircuit, laws: PairLaws, t: number, a: num
   const dx1 = s / hx;
   const dOut0 = ov * (1 + k * dx0);
   const dOut1 = ov * k * dx1;
-  return node(c, t, e, s * x, s, outV, va, vb, (s * x - bi) / al, dx0 - slope * dOut0, dx1 - slope * dOut1, (s * dx0) / al, (s * dx1 - 1) / al);
+  return node(
+    c,
+    t,
+    e,
+    s * x,
+    s,
+    outV,
+    va,
+    vb,
+    (s * x - bi) / al,
+    dx0 - slope * dOut0,
+    dx1 - slope * dOut1,
+    (s * dx0) / al,
+    (s * dx1 - 1) / al,
+  );
 }

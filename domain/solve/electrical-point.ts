@@ -45,14 +45,23 @@ export function solveElectrical(c: CircuitModel, tK: number): ElectricalOutcome 
     const p = pointAt(c, iq, load.currentA, tK);
     if (p.forward.mode === "off") return stageOff(p);
     if (!(p.loadV > 0)) {
-      return { ok: false, code: "load-collapse", reason: `the supply cannot drive ${fmt(load.currentA)} A: the load voltage would be ${fmt(p.loadV)} V` };
+      return {
+        ok: false,
+        code: "load-collapse",
+        reason: `the supply cannot drive ${fmt(load.currentA)} A: the load voltage would be ${fmt(p.loadV)} V`,
+      };
     }
     return { ok: true, point: p };
   }
   const at = (currentA: number): ElectricalPoint => pointAt(c, iq, currentA, tK);
   const idle = at(0);
   if (idle.forward.mode === "off") {
-    return { ok: false, code: "stage-off", reason: `the stage blocks at an input of ${fmt(idle.stageInputV)} V (below its start voltage): the load is unpowered`, stageInputV: idle.stageInputV };
+    return {
+      ok: false,
+      code: "stage-off",
+      reason: `the stage blocks at an input of ${fmt(idle.stageInputV)} V (below its start voltage): the load is unpowered`,
+      stageInputV: idle.stageInputV,
+    };
   }
   if (!(idle.loadV > 0)) {
     return { ok: false, code: "load-collapse", reason: "the supply cannot even carry the stage's quiescent current" };
@@ -73,7 +82,8 @@ export function solveElectrical(c: CircuitModel, tK: number): ElectricalOutcome 
     return v > 0 ? load.powerW / v : Number.NaN;
   }, load.powerW / idle.loadV);
   // Accept it only on the rising side of I·V(I): the stable branch, not the far root.
-  if (fast !== undefined && (fast * (1 + 1e-6)) * at(fast * (1 + 1e-6)).loadV > fast * at(fast).loadV) return finish(at(fast));
+  if (fast !== undefined && fast * (1 + 1e-6) * at(fast * (1 + 1e-6)).loadV > fast * at(fast).loadV)
+    return finish(at(fast));
   let zeroA = Math.max(load.powerW / idle.loadV, 1e-6);
   for (let k = 0; k < 400 && at(zeroA).loadV > 0; k += 1) zeroA *= 2;
   const g = (i: number): number => i * at(i).loadV;
@@ -123,7 +133,12 @@ function fixedPoint(f: (x: number) => number, x0: number): number | undefined {
 }
 
 function stageOff(p: ElectricalPoint): ElectricalOutcome {
-  return { ok: false, code: "stage-off", reason: `the stage blocks at an input of ${fmt(p.stageInputV)} V under load (below its start voltage)`, stageInputV: p.stageInputV };
+  return {
+    ok: false,
+    code: "stage-off",
+    reason: `the stage blocks at an input of ${fmt(p.stageInputV)} V under load (below its start voltage)`,
+    stageInputV: p.stageInputV,
+  };
 }
 
 export function fmt(x: number): string {

@@ -1,7 +1,13 @@
 import { kToC } from "../physics/constants.js";
 import { behaviourOf, quiescentLossW } from "../stages/stage-behaviours.js";
 import { type StageModel, stageStartV, stageTjMaxC } from "../stages/stage-model.js";
-import { type CircuitModel, type ElectricalOutcome, type ElectricalPoint, fmt, solveElectrical } from "./electrical-point.js";
+import {
+  type CircuitModel,
+  type ElectricalOutcome,
+  type ElectricalPoint,
+  fmt,
+  solveElectrical,
+} from "./electrical-point.js";
 import { thermalFixedPoint } from "./thermal-fixed-point.js";
 
 export interface OperatingPointModel extends CircuitModel {
@@ -47,9 +53,18 @@ export type OperatingPointOutcome<P extends ThermalPoint = SolvedPoint> =
   | {
       readonly outcome: "thermal-runaway";
       readonly reason: string;
-      readonly evidence: { readonly searchedToC: number; readonly lossAtSearchEndW: number; readonly thermalLoopGainAtSearchEnd: number };
+      readonly evidence: {
+        readonly searchedToC: number;
+        readonly lossAtSearchEndW: number;
+        readonly thermalLoopGainAtSearchEnd: number;
+      };
     }
-  | { readonly outcome: "load-collapse"; readonly reason: string; readonly atJunctionC: number; readonly maxDeliverablePowerW?: number }
+  | {
+      readonly outcome: "load-collapse";
+      readonly reason: string;
+      readonly atJunctionC: number;
+      readonly maxDeliverablePowerW?: number;
+    }
   | { readonly outcome: "stage-off"; readonly reason: string; readonly stageInputV: number };
 
 /** How far above the junction limit the search for a stable point goes, K. */
@@ -63,7 +78,8 @@ export const SEARCH_ABOVE_LIMIT_K = 150;
  */
 export function solveOperatingPoint(m: OperatingPointModel): OperatingPointOutcome {
   const r = solve(m, true);
-  if ("point" in r && !("thermalLoopGain" in r.point)) throw new Error("unreachable: a probed root without its loop gain");
+  if ("point" in r && !("thermalLoopGain" in r.point))
+    throw new Error("unreachable: a probed root without its loop gain");
   return r as OperatingPointOutcome;
 }
 
@@ -92,13 +108,20 @@ function solve(m: OperatingPointModel, probeGain: boolean): OperatingPointOutcom
   const below = solveWithControl({ ...m, running: false }, probeGain);
   if ("point" in on) {
     if (!("point" in below) || below.point.stageInputV < startV) return below;
-    return withChatter(below, { startV, runningInputV: on.point.stageInputV, belowStartInputV: below.point.stageInputV });
+    return withChatter(below, {
+      startV,
+      runningInputV: on.point.stageInputV,
+      belowStartInputV: below.point.stageInputV,
+    });
   }
   // running has no point (runaway, collapse): it stands unless the control never starts
   return "point" in below && below.point.stageInputV < startV ? below : on;
 }
 
-function withChatter<P extends ThermalPoint>(o: Extract<OperatingPointOutcome<P>, { point: P }>, startChatter: StartChatter): OperatingPointOutcome<P> {
+function withChatter<P extends ThermalPoint>(
+  o: Extract<OperatingPointOutcome<P>, { point: P }>,
+  startChatter: StartChatter,
+): OperatingPointOutcome<P> {
   return { ...o, point: { ...o.point, startChatter } };
 }
 
@@ -110,26 +133,41 @@ function solveWithControl(m: OperatingPointModel, probeGain: boolean): Operating
   let lastE: ElectricalOutcome | undefined;
   let prevK = Number.NaN;
   let prevE: ElectricalOutcome | undefined;
-  const r = thermalFixedPoint(m.ambientC, m.rthKPerW, tjMaxC + SEARCH_ABOVE_LIMIT_K, (tK) => {
-    const e = solveElectrical(m, tK);
-    prevK = lastK;
-    prevE = lastE;
-    lastK = tK;
-    lastE = e;
-    return e.ok ? { ok: true, lossW: dieLossW(m.stage, e.point) } : { ok: false, failure: e };
-  }, probeGain);
+  const r = thermalFixedPoint(
+    m.ambientC,
+    m.rthKPerW,
+    tjMaxC + SEARCH_ABOVE_LIMIT_K,
+    (tK) => {
+      const e = solveElectrical(m, tK);
+      prevK = lastK;
+      prevE = lastE;
+      lastK = tK;
+      lastE = e;
+      return e.ok ? { ok: true, lossW: dieLossW(m.stage, e.point) } : { ok: false, failure: e };
+    },
+    probeGain,
+  );
   if (r.kind === "failed") {
     const e = r.failure;
     if (e.ok) throw new Error("unreachable: a failure that is ok");
     return e.code === "stage-off"
       ? { outcome: "stage-off", reason: e.reason, stageInputV: e.stageInputV }
-      : { outcome: "load-collapse", reason: e.reason, atJunctionC: kToC(r.atK), ...(e.maxDeliverablePowerW === undefined ? {} : { maxDeliverablePowerW: e.maxDeliverablePowerW }) };
+      : {
+          outcome: "load-collapse",
+          reason: e.reason,
+          atJunctionC: kToC(r.atK),
+          ...(e.maxDeliverablePowerW === undefined ? {} : { maxDeliverablePowerW: e.maxDeliverablePowerW }),
+        };
   }
   if (r.kind === "runaway") {
     return {
       outcome: "thermal-runaway",
       reason: `no stable operating point up to ${fmt(kToC(r.searchedToK))} °C: with ${fmt(m.rthKPerW)} K/W the loss rises faster with temperature than the thermal path can shed it`,
-      evidence: { searchedToC: kToC(r.searchedToK), lossAtSearchEndW: r.lossAtEndW, thermalLoopGainAtSearchEnd: r.loopGainAtEnd },
+      evidence: {
+        searchedToC: kToC(r.searchedToK),
+        lossAtSearchEndW: r.lossAtEndW,
+        thermalLoopGainAtSearchEnd: r.loopGainAtEnd,
+      },
     };
   }
   const e = (r.tjK === lastK ? lastE : r.tjK === prevK ? prevE : undefined) ?? solveElectrical(m, r.tjK);
@@ -139,7 +177,16 @@ function solveWithControl(m: OperatingPointModel, probeGain: boolean): Operating
   const ep = e.point;
   const point: ThermalPoint | SolvedPoint =
     r.loopGain === undefined
-      ? { currentA: ep.currentA, sourceCurrentA: ep.sourceCurrentA, stageInputV: ep.stageInputV, loadV: ep.loadV, forward: ep.forward, tjC: kToC(r.tjK), dieLossW: r.lossW, iterations: r.evaluations }
+      ? {
+          currentA: ep.currentA,
+          sourceCurrentA: ep.sourceCurrentA,
+          stageInputV: ep.stageInputV,
+          loadV: ep.loadV,
+          forward: ep.forward,
+          tjC: kToC(r.tjK),
+          dieLossW: r.lossW,
+          iterations: r.evaluations,
+        }
       : {
           currentA: ep.currentA,
           sourceCurrentA: ep.sourceCurrentA,
@@ -152,7 +199,12 @@ function solveWithControl(m: OperatingPointModel, probeGain: boolean): Operating
           iterations: r.evaluations,
         };
   if (point.tjC > tjMaxC) {
-    return { outcome: "over-temperature", point, tjMaxC, reason: `the stable operating point, ${fmt(point.tjC)} °C, lies above the ${fmt(tjMaxC)} °C junction limit` };
+    return {
+      outcome: "over-temperature",
+      point,
+      tjMaxC,
+      reason: `the stable operating point, ${fmt(point.tjC)} °C, lies above the ${fmt(tjMaxC)} °C junction limit`,
+    };
   }
   if (m.load.kind === "constant-power" && point.loadV < m.load.minVoltageV) {
     return {
@@ -167,5 +219,7 @@ function solveWithControl(m: OperatingPointModel, probeGain: boolean): Operating
 
 /** Heat in the die carrying the load: conduction loss, plus the quiescent power of a control on that die (an integrated switch). */
 export function dieLossW(stage: StageModel, p: ElectricalPoint): number {
-  return behaviourOf(stage).quiescentHeatsDie ? p.forward.lossW + quiescentLossW(stage, p.stageInputV) : p.forward.lossW;
+  return behaviourOf(stage).quiescentHeatsDie
+    ? p.forward.lossW + quiescentLossW(stage, p.stageInputV)
+    : p.forward.lossW;
 }

@@ -21,8 +21,20 @@ export interface Rk45Options {
 }
 
 export type Rk45Outcome =
-  | { readonly outcome: "event" | "end"; readonly t: number; readonly y: readonly number[]; readonly steps: number; readonly rejected: number; readonly localErrorSum: readonly number[] }
-  | { readonly outcome: "too-many-steps" | "step-underflow" | "non-finite"; readonly t: number; readonly y: readonly number[]; readonly steps: number };
+  | {
+      readonly outcome: "event" | "end";
+      readonly t: number;
+      readonly y: readonly number[];
+      readonly steps: number;
+      readonly rejected: number;
+      readonly localErrorSum: readonly number[];
+    }
+  | {
+      readonly outcome: "too-many-steps" | "step-underflow" | "non-finite";
+      readonly t: number;
+      readonly y: readonly number[];
+      readonly steps: number;
+    };
 
 type Rhs = (t: number, y: readonly number[]) => number[];
 

@@ -52,18 +52,31 @@ export type OringOutcome =
  * (Picard); no convergence within the limit or a junction beyond 1000 °C is reported as runaway.
  */
 export function solveOring(m: OringModel): OringOutcome {
-  if (m.sources.length === 0) return { outcome: "no-sources", reason: "an ORing network needs at least one source", path: "sources" };
+  if (m.sources.length === 0)
+    return { outcome: "no-sources", reason: "an ORing network needs at least one source", path: "sources" };
   const taK = cToK(m.ambientC);
   let tK = m.sources.map(() => taK);
   for (let iter = 1; iter <= 200; iter += 1) {
     const node = solveNode(m, tK);
-    if (node === undefined) return { outcome: "load-collapse", reason: "the sources cannot hold any positive node voltage under this load" };
-    const next = node.branches.map((b, k) => taK + totalRthKPerW((m.sources[k] as OringSource).stage.thermal) * b.stageLossW);
+    if (node === undefined)
+      return { outcome: "load-collapse", reason: "the sources cannot hold any positive node voltage under this load" };
+    const next = node.branches.map(
+      (b, k) => taK + totalRthKPerW((m.sources[k] as OringSource).stage.thermal) * b.stageLossW,
+    );
     const change = Math.max(...next.map((t, k) => Math.abs(t - (tK[k] ?? t))));
-    if (next.some((t) => t > cToK(1000))) return { outcome: "thermal-runaway", reason: "a junction passes 1000 °C: no stable operating point", lastTjC: next.map(kToC) };
+    if (next.some((t) => t > cToK(1000)))
+      return {
+        outcome: "thermal-runaway",
+        reason: "a junction passes 1000 °C: no stable operating point",
+        lastTjC: next.map(kToC),
+      };
     if (change < 1e-7) {
       const fwd = node.branches.reduce((s, b) => s + Math.max(b.currentA, 0), 0);
-      const branches = node.branches.map((b, k) => ({ ...b, tjC: kToC(tK[k] ?? taK), share: fwd > 0 ? Math.max(b.currentA, 0) / fwd : 0 }));
+      const branches = node.branches.map((b, k) => ({
+        ...b,
+        tjC: kToC(tK[k] ?? taK),
+        share: fwd > 0 ? Math.max(b.currentA, 0) / fwd : 0,
+      }));
       return {
         outcome: "solved",
         nodeV: node.v,
@@ -77,7 +90,11 @@ export function solveOring(m: OringModel): OringOutcome {
     }
     tK = next;
   }
-  return { outcome: "thermal-runaway", reason: "the junction temperatures do not settle (Picard iteration, 200 steps)", lastTjC: tK.map(kToC) };
+  return {
+    outcome: "thermal-runaway",
+    reason: "the junction temperatures do not settle (Picard iteration, 200 steps)",
+    lastTjC: tK.map(kToC),
+  };
 }
 
 export function loadCurrentA(load: LoadModel, v: number): number {
@@ -91,9 +108,14 @@ export function loadCurrentA(load: LoadModel, v: number): number {
   }
 }
 
-function solveNode(m: OringModel, tK: readonly number[]): { v: number; loadA: number; branches: BranchState[] } | undefined {
+function solveNode(
+  m: OringModel,
+  tK: readonly number[],
+): { v: number; loadA: number; branches: BranchState[] } | undefined {
   const branchesAt = (v: number): BranchState[] =>
-    m.sources.map((s, k) => branchCurrent(s.stage, s.openCircuitV, s.internalResistanceOhm, v, 0, tK[k] ?? 300, s.currentLimitA));
+    m.sources.map((s, k) =>
+      branchCurrent(s.stage, s.openCircuitV, s.internalResistanceOhm, v, 0, tK[k] ?? 300, s.currentLimitA),
+    );
   const f = (v: number): number => branchesAt(v).reduce((acc, b) => acc + b.currentA, 0) - loadCurrentA(m.load, v);
   const top = Math.max(...m.sources.map((s) => s.openCircuitV));
   let hi = top;

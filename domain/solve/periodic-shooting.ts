@@ -5,11 +5,30 @@
 export type PeriodMap<T> = (
   x: readonly number[],
   withJacobian: boolean,
-) => { readonly ok: true; readonly end: readonly number[]; readonly value: T; readonly jacobian?: readonly (readonly number[])[] } | { readonly ok: false; readonly reason: string };
+) =>
+  | {
+      readonly ok: true;
+      readonly end: readonly number[];
+      readonly value: T;
+      readonly jacobian?: readonly (readonly number[])[];
+    }
+  | { readonly ok: false; readonly reason: string };
 
 export type ShootingOutcome<T> =
-  | { readonly ok: true; readonly x: readonly number[]; readonly value: T; readonly iterations: number; readonly periods: number; readonly residual: readonly number[] }
-  | { readonly ok: false; readonly code: "load-collapse" | "no-periodic-steady-state"; readonly reason: string; readonly periods: number };
+  | {
+      readonly ok: true;
+      readonly x: readonly number[];
+      readonly value: T;
+      readonly iterations: number;
+      readonly periods: number;
+      readonly residual: readonly number[];
+    }
+  | {
+      readonly ok: false;
+      readonly code: "load-collapse" | "no-periodic-steady-state";
+      readonly reason: string;
+      readonly periods: number;
+    };
 
 /**
  * Periodic steady state by shooting: the root of F(x) = P(x) − x, P the map over one period
@@ -26,7 +45,13 @@ export type ShootingOutcome<T> =
  * skips conduction altogether (F = −I·T/C above the fixed point, slope −1 below it). Converged when
  * |F_j| ≤ tol·scale_j for every component. For n ≤ 2 state variables.
  */
-export function shootPeriodic<T>(map: PeriodMap<T>, x0: readonly number[], scale: readonly number[], tol: number, maxIter = 40): ShootingOutcome<T> {
+export function shootPeriodic<T>(
+  map: PeriodMap<T>,
+  x0: readonly number[],
+  scale: readonly number[],
+  tol: number,
+  maxIter = 40,
+): ShootingOutcome<T> {
   const n = x0.length;
   let periods = 0;
   const run = (x: readonly number[], withJacobian: boolean) => {
@@ -36,7 +61,8 @@ export function shootPeriodic<T>(map: PeriodMap<T>, x0: readonly number[], scale
   let x = [...x0];
   const first = run(x, true);
   if (!first.ok) return { ok: false, code: "load-collapse", reason: first.reason, periods };
-  let p: { readonly end: readonly number[]; readonly value: T; readonly jacobian?: readonly (readonly number[])[] } = first;
+  let p: { readonly end: readonly number[]; readonly value: T; readonly jacobian?: readonly (readonly number[])[] } =
+    first;
   let f = p.end.map((v, j) => v - (x[j] ?? 0));
   let jac: number[][] | undefined;
   for (let iter = 0; iter < maxIter; iter += 1) {
@@ -59,7 +85,11 @@ export function shootPeriodic<T>(map: PeriodMap<T>, x0: readonly number[], scale
       }
     }
     // A singular Jacobian (a period without conduction maps x to x − I·T/C) falls back below.
-    const step = solveSmall(jac, f.map((v) => -v)) ?? [];
+    const step =
+      solveSmall(
+        jac,
+        f.map((v) => -v),
+      ) ?? [];
     let lambda = 1;
     let accepted = false;
     const norm = (g: readonly number[]): number => Math.max(...g.map((v, j) => Math.abs(v) / (scale[j] ?? 1)));
@@ -89,7 +119,8 @@ export function shootPeriodic<T>(map: PeriodMap<T>, x0: readonly number[], scale
         return {
           ok: false,
           code: "load-collapse",
-          reason: "no periodic state with a positive reservoir voltage: the load draws more than the source can feed through the bridge",
+          reason:
+            "no periodic state with a positive reservoir voltage: the load draws more than the source can feed through the bridge",
           periods,
         };
       }
@@ -99,7 +130,12 @@ export function shootPeriodic<T>(map: PeriodMap<T>, x0: readonly number[], scale
       jac = undefined;
     }
   }
-  return { ok: false, code: "no-periodic-steady-state", reason: `the shooting iteration did not converge in ${maxIter} iterations`, periods };
+  return {
+    ok: false,
+    code: "no-periodic-steady-state",
+    reason: `the shooting iteration did not converge in ${maxIter} iterations`,
+    periods,
+  };
 }
 
 /**
@@ -108,12 +144,18 @@ export function shootPeriodic<T>(map: PeriodMap<T>, x0: readonly number[], scale
  * derivative, the step is singular or not finite, or x[0] would not stay positive; value is
  * absent when the map fails.
  */
-export function newtonPredictor<T>(map: PeriodMap<T>, x0: readonly number[]): { readonly x?: readonly number[]; readonly value?: T } {
+export function newtonPredictor<T>(
+  map: PeriodMap<T>,
+  x0: readonly number[],
+): { readonly x?: readonly number[]; readonly value?: T } {
   const p = map(x0, true);
   if (!p.ok) return {};
   if (p.jacobian === undefined) return { value: p.value };
   const jac = p.jacobian.map((row, i) => row.map((v, j) => v - (i === j ? 1 : 0)));
-  const step = solveSmall(jac, p.end.map((v, j) => (x0[j] ?? 0) - v));
+  const step = solveSmall(
+    jac,
+    p.end.map((v, j) => (x0[j] ?? 0) - v),
+  );
   if (step === undefined || step.length !== x0.length) return { value: p.value };
   const x = x0.map((v, j) => v + (step[j] ?? 0));
   return x.every(Number.isFinite) && (x[0] ?? 0) > 0 ? { x, value: p.value } : { value: p.value };

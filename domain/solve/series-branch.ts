@@ -44,10 +44,25 @@ export interface BranchState {
  *   integrated switch: a plain switch (blocksReverseCurrent false) conducts through its channel;
  *   a blocking one leaks through its body diode, or not at all for back-to-back FETs.
  */
-export function branchCurrent(stage: StageModel, leftV: number, leftOhm: number, rightV: number, rightOhm: number, tK: number, limitA?: number): BranchState {
+export function branchCurrent(
+  stage: StageModel,
+  leftV: number,
+  leftOhm: number,
+  rightV: number,
+  rightOhm: number,
+  tK: number,
+  limitA?: number,
+): BranchState {
   const rt = leftOhm + rightOhm;
   const dv = leftV - rightV;
-  const make = (i: number, v: number, mode: BranchMode, blocks: boolean, limited: boolean, forwardMode?: string): BranchState => ({
+  const make = (
+    i: number,
+    v: number,
+    mode: BranchMode,
+    blocks: boolean,
+    limited: boolean,
+    forwardMode?: string,
+  ): BranchState => ({
     currentA: i,
     stageV: v,
     stageLossW: Math.abs(i * v),
@@ -69,7 +84,8 @@ export function branchCurrent(stage: StageModel, leftV: number, leftOhm: number,
     const g = (i: number): number => dv - i * rt - drop(i).dropV;
     const g0 = g(0);
     if (drop(0).mode === "off") return make(0, dv, "idle", true, false, "off");
-    const cap = (i: number): { i: number; limited: boolean } => (limitA !== undefined && i > limitA ? { i: limitA, limited: true } : { i, limited: false });
+    const cap = (i: number): { i: number; limited: boolean } =>
+      limitA !== undefined && i > limitA ? { i: limitA, limited: true } : { i, limited: false };
     const body = releasedGateDiode(stage);
     const gb = (x: number): number => dv - x * rt - (body === undefined ? 0 : diodeVoltageV(body, x, tK));
     // Body diode alone with the gate released: it carries the current while its drop is below
@@ -89,10 +105,18 @@ export function branchCurrent(stage: StageModel, leftV: number, leftOhm: number,
   if (rev.kind === "ideal-block") return make(0, dv, "reverse-blocked-ideal", true, false);
   const h = (v: number): number => rev.currentA(v) - (dv - v) / rt;
   const v = bracketedRoot(h, dv, 0, h(dv), h(0), 1e-15 * Math.abs(dv), 400).x;
-  return make(rev.currentA(v), v, rev.kind === "channel" ? "reverse-channel" : "reverse-junction-leakage", rev.kind !== "channel", false);
+  return make(
+    rev.currentA(v),
+    v,
+    rev.kind === "channel" ? "reverse-channel" : "reverse-junction-leakage",
+    rev.kind !== "channel",
+    false,
+  );
 }
 
-type ReverseLaw = { readonly kind: "channel" | "junction"; readonly currentA: (v: number) => number } | { readonly kind: "ideal-block" };
+type ReverseLaw =
+  | { readonly kind: "channel" | "junction"; readonly currentA: (v: number) => number }
+  | { readonly kind: "ideal-block" };
 
 function reverseLaw(stage: StageModel, leftV: number, rightV: number, tK: number): ReverseLaw {
   const c = behaviourOf(stage).reverseConduction(stage, leftV, rightV, tK);
@@ -118,7 +142,7 @@ function reverseLaw(stage: StageModel, leftV: number, rightV: number, tK: number
  */
 export function reverseJunctionA(d: DiodeParams, v: number, tK: number, point?: LeakagePoint): number {
   if (point === undefined || v >= 0) return diodeCurrentA(d, v, tK);
-  const shape = -Math.expm1(v / (emissionVoltageV(d, tK)));
+  const shape = -Math.expm1(v / emissionVoltageV(d, tK));
   return -junctionLeakageA(d, -v, tK, point) * shape;
 }
 

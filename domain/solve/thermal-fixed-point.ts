@@ -2,12 +2,25 @@ import { cToK } from "../physics/constants.js";
 import { bracketedRoot } from "./root-find.js";
 
 /** The loss at a junction temperature, or a failure the caller records (e.g. the circuit collapsed). */
-export type LossAt<F> = (tK: number) => { readonly ok: true; readonly lossW: number } | { readonly ok: false; readonly failure: F };
+export type LossAt<F> = (
+  tK: number,
+) => { readonly ok: true; readonly lossW: number } | { readonly ok: false; readonly failure: F };
 
 export type FixedPointResult<F> =
   /** loopGain: Rth·dP/dTj at the root, absent when the caller did not ask for it (probeGain false). */
-  | { readonly kind: "root"; readonly tjK: number; readonly lossW: number; readonly loopGain?: number; readonly evaluations: number }
-  | { readonly kind: "runaway"; readonly searchedToK: number; readonly lossAtEndW: number; readonly loopGainAtEnd: number }
+  | {
+      readonly kind: "root";
+      readonly tjK: number;
+      readonly lossW: number;
+      readonly loopGain?: number;
+      readonly evaluations: number;
+    }
+  | {
+      readonly kind: "runaway";
+      readonly searchedToK: number;
+      readonly lossAtEndW: number;
+      readonly loopGainAtEnd: number;
+    }
   | { readonly kind: "failed"; readonly failure: F; readonly atK: number };
 
 /** Width of the bracket at which the root is taken, K. */
@@ -27,7 +40,13 @@ const STEP_TOL_K = 1e-12;
  * With probeGain (the default) the root also carries Rth·dP/dTj, by a forward difference over
  * 0.01 K (one more evaluation of the loss).
  */
-export function thermalFixedPoint<F>(ambientC: number, rthKPerW: number, ceilingC: number, lossAt: LossAt<F>, probeGain = true): FixedPointResult<F> {
+export function thermalFixedPoint<F>(
+  ambientC: number,
+  rthKPerW: number,
+  ceilingC: number,
+  lossAt: LossAt<F>,
+  probeGain = true,
+): FixedPointResult<F> {
   const taK = cToK(ambientC);
   const ceilingK = Math.max(cToK(ceilingC), taK);
   const state: { failure?: { failure: F; atK: number } } = {};
@@ -48,7 +67,9 @@ export function thermalFixedPoint<F>(ambientC: number, rthKPerW: number, ceiling
     return r.lossW;
   };
   const failed = (): FixedPointResult<F> | undefined =>
-    state.failure === undefined ? undefined : { kind: "failed", failure: state.failure.failure, atK: state.failure.atK };
+    state.failure === undefined
+      ? undefined
+      : { kind: "failed", failure: state.failure.failure, atK: state.failure.atK };
   const h = (tK: number): number => taK + rthKPerW * loss(tK) - tK;
   // Rth·dP/dT by a forward difference over 0.01 K from the root (one extra circuit solve).
   const gain = (tK: number, atRootW: number): number => {
@@ -59,9 +80,9 @@ export function thermalFixedPoint<F>(ambientC: number, rthKPerW: number, ceiling
   const done = (tjK: number): FixedPointResult<F> => {
     const lossW = loss(tjK);
     {
-    const f = failed();
-    if (f) return f;
-  }
+      const f = failed();
+      if (f) return f;
+    }
     // The gain probe is one more circuit solve: only when the caller reports the gain.
     if (!probeGain) return { kind: "root", tjK, lossW, evaluations };
     return { kind: "root", tjK, lossW, loopGain: gain(tjK, lossW), evaluations };
@@ -78,9 +99,9 @@ export function thermalFixedPoint<F>(ambientC: number, rthKPerW: number, ceiling
     let next = Math.min(t + ht, ceilingK);
     let hn = h(next);
     {
-    const f = failed();
-    if (f) return f;
-  }
+      const f = failed();
+      if (f) return f;
+    }
     if (hn > 0) {
       // Secant steps through the last two points while both lie below the root (h > 0) on a
       // falling h; converged from below when the correction left is under the tolerance.
@@ -103,9 +124,9 @@ export function thermalFixedPoint<F>(ambientC: number, rthKPerW: number, ceiling
     if (hn <= 0) {
       const root = bracketedRoot(h, t, next, ht, hn, ROOT_TOL_K, 200, STEP_TOL_K).x;
       {
-    const f = failed();
-    if (f) return f;
-  }
+        const f = failed();
+        if (f) return f;
+      }
       return done(root);
     }
     if (next >= ceilingK) break;
@@ -119,5 +140,3 @@ export function thermalFixedPoint<F>(ambientC: number, rthKPerW: number, ceiling
   }
   return { kind: "runaway", searchedToK: ceilingK, lossAtEndW, loopGainAtEnd: gain(ceilingK, lossAtEndW) };
 }
-
-

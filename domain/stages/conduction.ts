@@ -24,14 +24,26 @@ export interface ForwardState {
 }
 
 /** The body diode or a discrete diode carrying all of the current. */
-export function junctionState(d: DiodeParams, currentA: number, tK: number, mode: "junction" | "body-diode"): ForwardState {
+export function junctionState(
+  d: DiodeParams,
+  currentA: number,
+  tK: number,
+  mode: "junction" | "body-diode",
+): ForwardState {
   return junctionStateAt(diodeAt(d, tK), currentA, mode);
 }
 
 /** junctionState with the junction's constants already formed at its temperature. */
 export function junctionStateAt(d: DiodeAtT, currentA: number, mode: "junction" | "body-diode"): ForwardState {
   const dropV = forwardVoltageAtV(d, currentA);
-  return { mode, dropV, lossW: dropV * currentA, channelCurrentA: 0, bodyDiodeCurrentA: currentA, bodyDiodeTimeFraction: mode === "body-diode" ? 1 : 0 };
+  return {
+    mode,
+    dropV,
+    lossW: dropV * currentA,
+    channelCurrentA: 0,
+    bodyDiodeCurrentA: currentA,
+    bodyDiodeTimeFraction: mode === "body-diode" ? 1 : 0,
+  };
 }
 
 /**

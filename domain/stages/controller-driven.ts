@@ -14,22 +14,38 @@ export type ControllerDriven = Pick<IdealDiodeStage, "mosfet" | "controller">;
  */
 export const controllerDriven = {
   startV: (stage: ControllerDriven) => stage.controller.startV,
-  withStartV: <S extends ControllerDriven>(stage: S, startV: number): S => ({ ...stage, controller: { ...stage.controller, startV } }),
+  withStartV: <S extends ControllerDriven>(stage: S, startV: number): S => ({
+    ...stage,
+    controller: { ...stage.controller, startV },
+  }),
   driveAtInput: (stage: ControllerDriven, inputV: number) => {
     const c = stage.controller;
     const vgs = inputV >= c.startV ? gateDriveAt(c, inputV) : 0;
-    return { inputV, startMarginV: inputV - c.startV, gateSourceV: vgs, gateDriveMarginV: vgs - fullEnhancementV(stage.mosfet.channel) };
+    return {
+      inputV,
+      startMarginV: inputV - c.startV,
+      gateSourceV: vgs,
+      gateDriveMarginV: vgs - fullEnhancementV(stage.mosfet.channel),
+    };
   },
   quiescentA: (stage: ControllerDriven) => stage.controller.quiescentA,
   quiescentHeatsDie: false,
   gateDriveMetric: true,
   gateSourceClampV: () => undefined,
   controllerReversePin: true,
-  describe: (stage: ControllerDriven) => ({ metrics: { startVoltageV: stage.controller.startV }, part: controllerPart(stage), missing: controllerMissing(stage) }),
+  describe: (stage: ControllerDriven) => ({
+    metrics: { startVoltageV: stage.controller.startV },
+    part: controllerPart(stage),
+    missing: controllerMissing(stage),
+  }),
 };
 
 /** A reversed supply: the gate held off, a body diode blocks (rated by VDS), the controller's pin sees it. */
-export function controllerReverseStress(stage: ControllerDriven, reverseV: number, note: string): { stress: ReverseStress; junction: DiodeParams } {
+export function controllerReverseStress(
+  stage: ControllerDriven,
+  reverseV: number,
+  note: string,
+): { stress: ReverseStress; junction: DiodeParams } {
   return {
     stress: {
       blockingElement: "body-diode",
@@ -54,6 +70,8 @@ export function controllerPart(stage: ControllerDriven): Record<string, number> 
 
 export function controllerMissing(stage: ControllerDriven): Record<string, string> {
   const out: Record<string, string> = {};
-  if (stage.controller.reverseRatingV === undefined) out["part.controllerReverseRatingV"] = "the controller states no reverse rating of its input pin (controller.reverseRatingV): its survival of the reversed supply is unproven";
+  if (stage.controller.reverseRatingV === undefined)
+    out["part.controllerReverseRatingV"] =
+      "the controller states no reverse rating of its input pin (controller.reverseRatingV): its survival of the reversed supply is unproven";
   return Object.assign(out, mosfetMissing(stage.mosfet));
 }

@@ -17,7 +17,8 @@ export const diodeStage: StageBehaviour<DiodeStage> = {
   driveAtInput: (_stage, inputV) => ({ inputV }),
   quiescentA: () => 0,
   quiescentHeatsDie: false,
-  scale: (stage, s, thermal) => Object.assign({}, stage, { diode: scaleDiode(stage.diode, s.forwardVoltageFactor), thermal }),
+  scale: (stage, s, thermal) =>
+    Object.assign({}, stage, { diode: scaleDiode(stage.diode, s.forwardVoltageFactor), thermal }),
   forwardLimits: () => [],
   blocksReverseCurrent: () => true,
   needsTurnOffTiming: () => false,
@@ -26,7 +27,12 @@ export const diodeStage: StageBehaviour<DiodeStage> = {
   reverseConduction: (stage) => ({ kind: "junction", diode: stage.diode, leakage: stage.reverseLeakage }),
   releasedGateDiode: () => undefined,
   reverseStress: (stage, reverseV) => ({
-    stress: { blockingElement: "diode", partVoltageV: reverseV, ratingV: stage.reverseRatingV, note: "the series diode is reverse-biased and carries its leakage" },
+    stress: {
+      blockingElement: "diode",
+      partVoltageV: reverseV,
+      ratingV: stage.reverseRatingV,
+      note: "the series diode is reverse-biased and carries its leakage",
+    },
     junction: stage.diode,
   }),
   blockingJunction: (stage) => stage.diode,
@@ -40,6 +46,13 @@ export const diodeStage: StageBehaviour<DiodeStage> = {
   gateDriveMetric: false,
   gateSourceClampV: () => undefined,
   controllerReversePin: false,
-  sizing: { forward: "forwardVoltage", reverseRating: "vrrmV", gateFromSupply: false, ratedGateDrive: false, control: false, leakage: true },
+  sizing: {
+    forward: "forwardVoltage",
+    reverseRating: "vrrmV",
+    gateFromSupply: false,
+    ratedGateDrive: false,
+    control: false,
+    leakage: true,
+  },
   describe: (stage) => ({ metrics: {}, part: { vrrmV: stage.reverseRatingV }, missing: {} }),
 };

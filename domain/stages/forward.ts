@@ -11,6 +11,12 @@ export { gateDriveAt } from "./gate-drive.js";
  * electrical-point.ts); absent, it runs from its start voltage up. Each kind's law is its own
  * module's (stage-behaviours.ts).
  */
-export function stageForward(stage: StageModel, currentA: number, tK: number, inputV: number, running?: boolean): ForwardState {
+export function stageForward(
+  stage: StageModel,
+  currentA: number,
+  tK: number,
+  inputV: number,
+  running?: boolean,
+): ForwardState {
   return behaviourOf(stage).forward(stage, currentA, tK, inputV, running);
 }

@@ -34,7 +34,10 @@ export const integratedSwitch: StageBehaviour<IntegratedSwitchStage> = {
   scale: (stage, s, thermal) =>
     Object.assign({}, stage, {
       channel: scaleChannel(stage.channel, s.rdsOnFactor),
-      belowStart: stage.belowStart.mode === "body-diode" ? { mode: "body-diode" as const, bodyDiode: scaleDiode(stage.belowStart.bodyDiode, s.forwardVoltageFactor) } : stage.belowStart,
+      belowStart:
+        stage.belowStart.mode === "body-diode"
+          ? { mode: "body-diode" as const, bodyDiode: scaleDiode(stage.belowStart.bodyDiode, s.forwardVoltageFactor) }
+          : stage.belowStart,
       thermal,
     }),
   forwardLimits: (stage) => [{ element: "switch-input", ratingV: stage.maxVoltageV, seenV: (v) => v }],
@@ -45,18 +48,30 @@ export const integratedSwitch: StageBehaviour<IntegratedSwitchStage> = {
     const r = inputBeforeV >= stage.startV ? channelResistanceOhm(stage.channel, stage.internalGateV, tK) : undefined;
     if (!stage.blocksReverseCurrent) {
       if (r === undefined) return offSwitch(stage);
-      return { kind: "channel-stays-on", channelOhm: r, thresholdV: 0, reason: "a plain integrated switch does not turn off on reverse current: it conducts backwards" };
+      return {
+        kind: "channel-stays-on",
+        channelOhm: r,
+        thresholdV: 0,
+        reason: "a plain integrated switch does not turn off on reverse current: it conducts backwards",
+      };
     }
     if (timing === undefined) throw new Error("reversePath: an integrated switch needs its turn-off timing");
     if (r === undefined) return offSwitch(stage);
-    return { kind: "controller", channelOhm: r, tripCurrentA: timing.reverseThresholdV / r, offDelayS: timing.turnOffDelayS + gateDischargeS(timing) };
+    return {
+      kind: "controller",
+      channelOhm: r,
+      tripCurrentA: timing.reverseThresholdV / r,
+      offDelayS: timing.turnOffDelayS + gateDischargeS(timing),
+    };
   },
   reverseConduction: (stage, _leftV, _rightV, tK) => {
     if (!stage.blocksReverseCurrent) {
       const r = channelResistanceOhm(stage.channel, stage.internalGateV, tK);
       if (r !== undefined) return { kind: "channel", ohm: r };
     }
-    return stage.belowStart.mode === "body-diode" ? { kind: "junction", diode: stage.belowStart.bodyDiode } : { kind: "ideal-block" };
+    return stage.belowStart.mode === "body-diode"
+      ? { kind: "junction", diode: stage.belowStart.bodyDiode }
+      : { kind: "ideal-block" };
   },
   releasedGateDiode: (stage) => (stage.belowStart.mode === "body-diode" ? stage.belowStart.bodyDiode : undefined),
   reverseStress: (stage, reverseV) => ({
@@ -64,7 +79,10 @@ export const integratedSwitch: StageBehaviour<IntegratedSwitchStage> = {
       blockingElement: "integrated-switch",
       partVoltageV: reverseV,
       ratingV: stage.reverseRatingV,
-      note: stage.reverseRatingV === undefined ? "the switch states no reverse rating: its reverse blocking is unproven" : "the integrated switch blocks the reversed supply",
+      note:
+        stage.reverseRatingV === undefined
+          ? "the switch states no reverse rating: its reverse blocking is unproven"
+          : "the integrated switch blocks the reversed supply",
     },
     ...(stage.belowStart.mode === "body-diode" ? { junction: stage.belowStart.bodyDiode } : {}),
   }),
@@ -82,11 +100,27 @@ export const integratedSwitch: StageBehaviour<IntegratedSwitchStage> = {
   gateDriveMetric: false,
   gateSourceClampV: () => undefined,
   controllerReversePin: false,
-  sizing: { forward: "rdsOn", reverseRating: "none", gateFromSupply: false, ratedGateDrive: false, control: true, leakage: false },
+  sizing: {
+    forward: "rdsOn",
+    reverseRating: "none",
+    gateFromSupply: false,
+    ratedGateDrive: false,
+    control: true,
+    leakage: false,
+  },
   describe: (stage) => ({
     metrics: { startVoltageV: stage.startV },
-    part: { maxInputV: stage.maxVoltageV, ...(stage.reverseRatingV === undefined ? {} : { switchReverseRatingV: stage.reverseRatingV }) },
-    missing: stage.reverseRatingV === undefined ? { "part.switchReverseRatingV": "the switch states no reverse rating (reverseRatingV): its reverse blocking is unproven" } : {},
+    part: {
+      maxInputV: stage.maxVoltageV,
+      ...(stage.reverseRatingV === undefined ? {} : { switchReverseRatingV: stage.reverseRatingV }),
+    },
+    missing:
+      stage.reverseRatingV === undefined
+        ? {
+            "part.switchReverseRatingV":
+              "the switch states no reverse rating (reverseRatingV): its reverse blocking is unproven",
+          }
+        : {},
   }),
 };
 
@@ -110,5 +144,8 @@ function withoutBodyDiode(stage: IntegratedSwitchStage, currentA: number, tK: nu
 }
 
 function offSwitch(stage: IntegratedSwitchStage): ReversePath {
-  return { kind: "diode", seriesOhm: stage.belowStart.mode === "body-diode" ? stage.belowStart.bodyDiode.seriesResistanceOhm : 0 };
+  return {
+    kind: "diode",
+    seriesOhm: stage.belowStart.mode === "body-diode" ? stage.belowStart.bodyDiode.seriesResistanceOhm : 0,
+  };
 }

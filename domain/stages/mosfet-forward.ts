@@ -1,5 +1,10 @@
 import { type DiodeAtT, type DiodeParams, diodeAt, forwardCurrentAtA } from "../physics/diode.js";
-import { type ChannelParams, channelConductance25S, fullEnhancementV, rdsTempFactor } from "../physics/mosfet-channel.js";
+import {
+  type ChannelParams,
+  channelConductance25S,
+  fullEnhancementV,
+  rdsTempFactor,
+} from "../physics/mosfet-channel.js";
 import { channelWithBodyDiodeAtV, type ForwardState, junctionStateAt } from "./conduction.js";
 
 /**
@@ -34,11 +39,25 @@ export function mosfetAt(channel: ChannelParams, bodyDiode: DiodeParams, tK: num
  * tries several gate drives at one temperature (the P-FET's Vgs = Vin − drop) pays the
  * temperature laws once. Rds = (R(T)/R25) / G25(Vgs), as channelResistanceOhm.
  */
-export function mosfetForwardAt(channel: ChannelParams, at: MosfetAtT, gateSourceV: number, currentA: number, regulatedDropV: number): ForwardState {
+export function mosfetForwardAt(
+  channel: ChannelParams,
+  at: MosfetAtT,
+  gateSourceV: number,
+  currentA: number,
+  regulatedDropV: number,
+): ForwardState {
   const g = channelConductance25S(channel, gateSourceV);
   if (!(g > 0)) {
     const body = junctionStateAt(at.bodyDiode, currentA, "body-diode");
-    return { mode: body.mode, dropV: body.dropV, lossW: body.lossW, channelCurrentA: body.channelCurrentA, bodyDiodeCurrentA: body.bodyDiodeCurrentA, bodyDiodeTimeFraction: body.bodyDiodeTimeFraction, gateSourceV };
+    return {
+      mode: body.mode,
+      dropV: body.dropV,
+      lossW: body.lossW,
+      channelCurrentA: body.channelCurrentA,
+      bodyDiodeCurrentA: body.bodyDiodeCurrentA,
+      bodyDiodeTimeFraction: body.bodyDiodeTimeFraction,
+      gateSourceV,
+    };
   }
   const rOhm = at.rdsFactor / g;
   const mode = gateSourceV >= fullEnhancementV(channel) ? "fully-enhanced" : "partially-enhanced";
@@ -72,7 +91,15 @@ export function mosfetForwardAt(channel: ChannelParams, at: MosfetAtT, gateSourc
 /** The same state at another gate drive (its conduction unchanged), field for field in the order mosfetForwardAt writes them. */
 export function withGateSourceV(s: ForwardState, gateSourceV: number): ForwardState {
   if (s.channelResistanceOhm === undefined) {
-    return { mode: s.mode, dropV: s.dropV, lossW: s.lossW, channelCurrentA: s.channelCurrentA, bodyDiodeCurrentA: s.bodyDiodeCurrentA, bodyDiodeTimeFraction: s.bodyDiodeTimeFraction, gateSourceV };
+    return {
+      mode: s.mode,
+      dropV: s.dropV,
+      lossW: s.lossW,
+      channelCurrentA: s.channelCurrentA,
+      bodyDiodeCurrentA: s.bodyDiodeCurrentA,
+      bodyDiodeTimeFraction: s.bodyDiodeTimeFraction,
+      gateSourceV,
+    };
   }
   return {
     mode: s.mode,

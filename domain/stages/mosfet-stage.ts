@@ -21,7 +21,11 @@ export const mosfetRatings = {
   },
 };
 
-export function scaleMosfetStage<S extends { readonly mosfet: MosfetModel }>(stage: S, s: StageScale, thermal: ThermalPath): S {
+export function scaleMosfetStage<S extends { readonly mosfet: MosfetModel }>(
+  stage: S,
+  s: StageScale,
+  thermal: ThermalPath,
+): S {
   return Object.assign({}, stage, { mosfet: scaleMosfet(stage.mosfet, s), thermal });
 }
 
@@ -41,7 +45,9 @@ export const NO_AVALANCHE_CURRENT = "the MOSFET states no avalanche current rati
 export function mosfetMissing(m: MosfetModel): Record<string, string> {
   const out: Record<string, string> = {};
   if (m.avalancheCurrentA === undefined) out["part.avalancheCurrentA"] = NO_AVALANCHE_CURRENT;
-  if (m.repetitiveAvalancheEnergyJ === undefined) out["part.repetitiveAvalancheEnergyJ"] = "the MOSFET states no repetitive avalanche energy rating (mosfet.repetitiveAvalancheEnergyJ)";
+  if (m.repetitiveAvalancheEnergyJ === undefined)
+    out["part.repetitiveAvalancheEnergyJ"] =
+      "the MOSFET states no repetitive avalanche energy rating (mosfet.repetitiveAvalancheEnergyJ)";
   return out;
 }
 

@@ -10,7 +10,14 @@ import type { StageBehaviour } from "./stage-behaviour.js";
 import type { BackToBackStage, DatasheetLeakage } from "./stage-model.js";
 import { gateDischargeS } from "./turn-off-timing.js";
 
-const OFF: ForwardState = { mode: "off", dropV: 0, lossW: 0, channelCurrentA: 0, bodyDiodeCurrentA: 0, bodyDiodeTimeFraction: 0 };
+const OFF: ForwardState = {
+  mode: "off",
+  dropV: 0,
+  lossW: 0,
+  channelCurrentA: 0,
+  bodyDiodeCurrentA: 0,
+  bodyDiodeTimeFraction: 0,
+};
 
 /**
  * Two N-channel MOSFETs (the same part) in the supply line, sources joined (common source), both
@@ -76,7 +83,9 @@ export const nfetBackToBack: StageBehaviour<BackToBackStage> = {
   // A positive peak: the controller's input pin, and the input-side FET, which blocks the whole
   // peak whenever the pair is off (below start or switched off).
   forwardLimits: (stage) => [
-    ...(stage.controller.maxInputV === undefined ? [] : [{ element: "controller-input" as const, ratingV: stage.controller.maxInputV, seenV: (v: number) => v }]),
+    ...(stage.controller.maxInputV === undefined
+      ? []
+      : [{ element: "controller-input" as const, ratingV: stage.controller.maxInputV, seenV: (v: number) => v }]),
     { element: "forward-blocking-fet", ratingV: stage.mosfet.vdsMaxV, seenV: (v) => v },
   ],
   blocksReverseCurrent: (stage) => stage.blocksReverseCurrent,
@@ -86,12 +95,24 @@ export const nfetBackToBack: StageBehaviour<BackToBackStage> = {
     const r = pairOhm(stage, inputBeforeV, tK);
     if (!stage.blocksReverseCurrent) {
       if (r === undefined) return { kind: "diode", seriesOhm: 0 };
-      return { kind: "channel-stays-on", channelOhm: r, thresholdV: 0, reason: "a back-to-back pair held on by a plain gate driver does not turn off on reverse current: it conducts backwards" };
+      return {
+        kind: "channel-stays-on",
+        channelOhm: r,
+        thresholdV: 0,
+        reason:
+          "a back-to-back pair held on by a plain gate driver does not turn off on reverse current: it conducts backwards",
+      };
     }
-    if (timing === undefined) throw new Error("reversePath: a back-to-back pair with an ideal-diode controller needs its turn-off timing");
+    if (timing === undefined)
+      throw new Error("reversePath: a back-to-back pair with an ideal-diode controller needs its turn-off timing");
     // Off before the event, the output-side FET's body diode blocks at once (no stored charge to remove).
     if (r === undefined) return { kind: "diode", seriesOhm: 0 };
-    return { kind: "controller", channelOhm: r, tripCurrentA: timing.reverseThresholdV / r, offDelayS: timing.turnOffDelayS + gateDischargeS(timing) };
+    return {
+      kind: "controller",
+      channelOhm: r,
+      tripCurrentA: timing.reverseThresholdV / r,
+      offDelayS: timing.turnOffDelayS + gateDischargeS(timing),
+    };
   },
   reverseConduction: (stage, leftV, _rightV, tK) => {
     const r = stage.blocksReverseCurrent ? undefined : pairOhm(stage, leftV, tK);
@@ -100,8 +121,19 @@ export const nfetBackToBack: StageBehaviour<BackToBackStage> = {
   },
   releasedGateDiode: () => undefined,
   reverseStress: (stage, reverseV) =>
-    controllerReverseStress(stage, reverseV, "the gates are held off; the output-side FET's body diode blocks the reversed supply (the input-side FET's conducts) and the controller's input pin sees it"),
-  sizing: { forward: "rdsOn", reverseRating: "vdsMaxV", gateFromSupply: false, ratedGateDrive: true, control: true, leakage: false },
+    controllerReverseStress(
+      stage,
+      reverseV,
+      "the gates are held off; the output-side FET's body diode blocks the reversed supply (the input-side FET's conducts) and the controller's input pin sees it",
+    ),
+  sizing: {
+    forward: "rdsOn",
+    reverseRating: "vdsMaxV",
+    gateFromSupply: false,
+    ratedGateDrive: true,
+    control: true,
+    leakage: false,
+  },
 };
 
 /** Both channels in series at the gate drive the controller gives at inputV, ohm; undefined when the pair is off. */
@@ -129,5 +161,12 @@ export function offStateBlocking(stage: BackToBackStage, inputV: number, outputV
   const v = inputV - outputV;
   const ratingV = stage.mosfet.vdsMaxV;
   const blockingFet = v > 0 ? "input-side" : v < 0 ? "output-side" : "none";
-  return { blockingFet, blockedV: Math.abs(v), ratingV, withinRating: Math.abs(v) <= ratingV, junction: stage.mosfet.bodyDiode, leakage: stage.mosfet.offStateLeakage };
+  return {
+    blockingFet,
+    blockedV: Math.abs(v),
+    ratingV,
+    withinRating: Math.abs(v) <= ratingV,
+    junction: stage.mosfet.bodyDiode,
+    leakage: stage.mosfet.offStateLeakage,
+  };
 }

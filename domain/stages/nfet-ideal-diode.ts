@@ -27,21 +27,48 @@ export const nfetIdealDiode: StageBehaviour<IdealDiodeStage> = {
   ...mosfetRatings,
   ...controllerDriven,
   scale: scaleMosfetStage,
-  forwardLimits: (stage) => (stage.controller.maxInputV === undefined ? [] : [{ element: "controller-input", ratingV: stage.controller.maxInputV, seenV: (v) => v }]),
+  forwardLimits: (stage) =>
+    stage.controller.maxInputV === undefined
+      ? []
+      : [{ element: "controller-input", ratingV: stage.controller.maxInputV, seenV: (v) => v }],
   blocksReverseCurrent: () => true,
   needsTurnOffTiming: () => true,
   junctionRecovery: false,
   reversePath: (stage, tK, inputBeforeV, _after, _outputV, timing) => {
     if (timing === undefined) throw new Error("reversePath: a controller stage needs its turn-off timing");
     const c = stage.controller;
-    const vgs = interpolate(c.gateDrive.map((p) => [p.inputV, p.gateSourceV] as const), inputBeforeV);
+    const vgs = interpolate(
+      c.gateDrive.map((p) => [p.inputV, p.gateSourceV] as const),
+      inputBeforeV,
+    );
     const r = inputBeforeV >= c.startV ? onOhm(stage.mosfet, vgs, tK) : undefined;
     if (r === undefined) return bodyDiodePath(stage.mosfet);
-    return { kind: "controller", channelOhm: r, tripCurrentA: timing.reverseThresholdV / r, offDelayS: timing.turnOffDelayS + gateDischargeS(timing) };
+    return {
+      kind: "controller",
+      channelOhm: r,
+      tripCurrentA: timing.reverseThresholdV / r,
+      offDelayS: timing.turnOffDelayS + gateDischargeS(timing),
+    };
   },
   // In steady reverse the controller holds the gate off: the body diode leaks.
-  reverseConduction: (stage) => ({ kind: "junction", diode: stage.mosfet.bodyDiode, leakage: stage.mosfet.offStateLeakage }),
+  reverseConduction: (stage) => ({
+    kind: "junction",
+    diode: stage.mosfet.bodyDiode,
+    leakage: stage.mosfet.offStateLeakage,
+  }),
   releasedGateDiode: (stage) => stage.mosfet.bodyDiode,
-  reverseStress: (stage, reverseV) => controllerReverseStress(stage, reverseV, "the controller holds the gate off; the body diode blocks and the controller's input pin sees the reversed supply"),
-  sizing: { forward: "rdsOn", reverseRating: "vdsMaxV", gateFromSupply: false, ratedGateDrive: true, control: true, leakage: false },
+  reverseStress: (stage, reverseV) =>
+    controllerReverseStress(
+      stage,
+      reverseV,
+      "the controller holds the gate off; the body diode blocks and the controller's input pin sees the reversed supply",
+    ),
+  sizing: {
+    forward: "rdsOn",
+    reverseRating: "vdsMaxV",
+    gateFromSupply: false,
+    ratedGateDrive: true,
+    control: true,
+    leakage: false,
+  },
 };

@@ -12,7 +12,8 @@ import { gateDischargeS } from "./turn-off-timing.js";
  * below threshold the gate discharges and the body diode blocks.
  */
 export const nfetLowSide: StageBehaviour<NFetLowSideStage> = {
-  forward: (stage, currentA, tK, inputV) => mosfetForward(stage.mosfet.channel, stage.mosfet.bodyDiode, clampV(inputV, stage.gateClampV), currentA, tK, 0),
+  forward: (stage, currentA, tK, inputV) =>
+    mosfetForward(stage.mosfet.channel, stage.mosfet.bodyDiode, clampV(inputV, stage.gateClampV), currentA, tK, 0),
   ...supplyGated,
   driveAtInput: (stage, inputV) => supplyGateDrive(stage, inputV, inputV),
   reversePath: (stage, tK, inputBeforeV, inputAfterV, _outputV, timing) => {
@@ -28,9 +29,16 @@ export const nfetLowSide: StageBehaviour<NFetLowSideStage> = {
     }
     return { kind: "gate-falls", channelOhm: r, offDelayS: gateDischargeS(timing) };
   },
-  reverseConduction: (stage, leftV, _rightV, tK) => channelOrBodyDiode(stage, onOhm(stage.mosfet, clampV(leftV, stage.gateClampV), tK)),
+  reverseConduction: (stage, leftV, _rightV, tK) =>
+    channelOrBodyDiode(stage, onOhm(stage.mosfet, clampV(leftV, stage.gateClampV), tK)),
   reverseStress: (stage, reverseV) => ({
-    stress: { blockingElement: "body-diode", partVoltageV: reverseV, ratingV: stage.mosfet.vdsMaxV, gateSourceV: 0, note: "the gate is pulled to the source side: the channel is off and the body diode in the return blocks" },
+    stress: {
+      blockingElement: "body-diode",
+      partVoltageV: reverseV,
+      ratingV: stage.mosfet.vdsMaxV,
+      gateSourceV: 0,
+      note: "the gate is pulled to the source side: the channel is off and the body diode in the return blocks",
+    },
     junction: stage.mosfet.bodyDiode,
   }),
 };

@@ -38,7 +38,9 @@ export const pfetHighSide: StageBehaviour<PFetStage> = {
       prevG = g;
       // Where the 25 °C conductance and the enhancement class do not change (above the highest
       // Rds(on) point, or below threshold) the state is the same but for Vgs: no new solve.
-      const same = channelConductance25S(channel, trial) === channelConductance25S(channel, vgs) && trial >= fullOn === vgs >= fullOn;
+      const same =
+        channelConductance25S(channel, trial) === channelConductance25S(channel, vgs) &&
+        trial >= fullOn === vgs >= fullOn;
       vgs = trial;
       state = same ? withGateSourceV(state, vgs) : mosfetForwardAt(channel, at, vgs, currentA, 0);
     }
@@ -53,10 +55,12 @@ export const pfetHighSide: StageBehaviour<PFetStage> = {
       kind: "channel-stays-on",
       channelOhm: r,
       thresholdV: stage.mosfet.channel.thresholdV,
-      reason: "a P-FET with its gate at ground keeps |Vgs| = V(output): it conducts backwards until the output falls below its threshold",
+      reason:
+        "a P-FET with its gate at ground keeps |Vgs| = V(output): it conducts backwards until the output falls below its threshold",
     };
   },
-  reverseConduction: (stage, _leftV, rightV, tK) => channelOrBodyDiode(stage, onOhm(stage.mosfet, clampV(rightV, stage.gateClampV), tK)),
+  reverseConduction: (stage, _leftV, rightV, tK) =>
+    channelOrBodyDiode(stage, onOhm(stage.mosfet, clampV(rightV, stage.gateClampV), tK)),
   reverseStress: (stage, reverseV) => ({
     stress: {
       blockingElement: "body-diode",

@@ -8,11 +8,17 @@ import type { MosfetModel } from "./stage-model.js";
 // field takes a slow path (~1 µs each here), and the scaled stage is read in every circuit solve.
 
 export function scaleDiode(d: DiodeParams, k: number): DiodeParams {
-  return k === 1 ? d : Object.assign({}, d, { ideality: d.ideality * k, seriesResistanceOhm: d.seriesResistanceOhm * k });
+  return k === 1
+    ? d
+    : Object.assign({}, d, { ideality: d.ideality * k, seriesResistanceOhm: d.seriesResistanceOhm * k });
 }
 
 export function scaleChannel(c: ChannelParams, k: number): ChannelParams {
-  return k === 1 ? c : Object.assign({}, c, { rdsOnPoints: c.rdsOnPoints.map((p) => ({ gateSourceV: p.gateSourceV, rdsOnOhm: p.rdsOnOhm * k })) });
+  return k === 1
+    ? c
+    : Object.assign({}, c, {
+        rdsOnPoints: c.rdsOnPoints.map((p) => ({ gateSourceV: p.gateSourceV, rdsOnOhm: p.rdsOnOhm * k })),
+      });
 }
 
 export function scaleMosfet(m: MosfetModel, s: StageScale): MosfetModel {
@@ -20,7 +26,10 @@ export function scaleMosfet(m: MosfetModel, s: StageScale): MosfetModel {
   const shift = s.thresholdShiftV ?? 0;
   // A threshold shifted past a datasheet Rds(on) point drops that point (channelConductance25S skips points at or below Vth).
   const thresholdV = Math.max(0, m.channel.thresholdV + shift);
-  return Object.assign({}, m, { channel: shift === 0 ? channel : Object.assign({}, channel, { thresholdV }), bodyDiode: scaleDiode(m.bodyDiode, s.forwardVoltageFactor) });
+  return Object.assign({}, m, {
+    channel: shift === 0 ? channel : Object.assign({}, channel, { thresholdV }),
+    bodyDiode: scaleDiode(m.bodyDiode, s.forwardVoltageFactor),
+  });
 }
 
 export function scaleThermal(t: ThermalPath, k: number): ThermalPath {

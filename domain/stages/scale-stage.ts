@@ -28,10 +28,19 @@ export const UNSCALED: StageScale = { rdsOnFactor: 1, forwardVoltageFactor: 1, r
 export function scaleStage(stage: StageModel, s: StageScale): StageModel {
   const startShiftV = s.startShiftV ?? 0;
   const thresholdShiftV = s.thresholdShiftV ?? 0;
-  if (s.rdsOnFactor === 1 && s.forwardVoltageFactor === 1 && s.rthFactor === 1 && startShiftV === 0 && thresholdShiftV === 0) return stage;
+  if (
+    s.rdsOnFactor === 1 &&
+    s.forwardVoltageFactor === 1 &&
+    s.rthFactor === 1 &&
+    startShiftV === 0 &&
+    thresholdShiftV === 0
+  )
+    return stage;
   const behaviour = behaviourOf(stage);
   const scaled = behaviour.scale(stage, s, scaleThermal(stage.thermal, s.rthFactor));
   const startV = behaviour.startV(scaled);
   // a controller's or integrated switch's start voltage shifted (a stage without control has none)
-  return startShiftV === 0 || startV === undefined ? scaled : behaviour.withStartV(scaled, Math.max(0, startV + startShiftV));
+  return startShiftV === 0 || startV === undefined
+    ? scaled
+    : behaviour.withStartV(scaled, Math.max(0, startV + startShiftV));
 }

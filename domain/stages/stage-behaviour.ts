@@ -10,7 +10,13 @@ import type { DatasheetLeakage, StageModel } from "./stage-model.js";
 import type { ControllerTurnOff } from "./turn-off-timing.js";
 
 /** The stage model of one kind (a kind shared by one interface, the two diodes, included). */
-export type StageOf<K extends StageModel["kind"]> = StageModel extends infer S ? (S extends StageModel ? (K extends S["kind"] ? S : never) : never) : never;
+export type StageOf<K extends StageModel["kind"]> = StageModel extends infer S
+  ? S extends StageModel
+    ? K extends S["kind"]
+      ? S
+      : never
+    : never
+  : never;
 
 /**
  * How a stage conducts when the voltage across it is reversed (steady state, series-branch.ts):
@@ -56,7 +62,13 @@ export interface StageDescription {
  */
 export interface StageBehaviour<S extends StageModel> {
   /** Forward state carrying currentA ≥ 0 at tK with inputV at its input; `running` fixes the control's state. */
-  readonly forward: (stage: S, currentA: number, tK: number, inputV: number, running: boolean | undefined) => ForwardState;
+  readonly forward: (
+    stage: S,
+    currentA: number,
+    tK: number,
+    inputV: number,
+    running: boolean | undefined,
+  ) => ForwardState;
   /** Junction limit of the die that carries the load current, °C. */
   readonly tjMaxC: (stage: S) => number;
   /** Input voltage from which its control runs, V; undefined without one. */
@@ -80,7 +92,14 @@ export interface StageBehaviour<S extends StageModel> {
   /** Whether it is a junction whose stored (reverse-recovery) charge a turn-off removes. */
   readonly junctionRecovery: boolean;
   /** How the current reverses through it (turn-off, hold-up). */
-  readonly reversePath: (stage: S, tK: number, inputBeforeV: number, inputAfterV: number, outputV: number, timing: ControllerTurnOff | undefined) => ReversePath;
+  readonly reversePath: (
+    stage: S,
+    tK: number,
+    inputBeforeV: number,
+    inputAfterV: number,
+    outputV: number,
+    timing: ControllerTurnOff | undefined,
+  ) => ReversePath;
   /** Steady reverse conduction between leftV (input) and rightV (output), rightV > leftV. */
   readonly reverseConduction: (stage: S, leftV: number, rightV: number, tK: number) => ReverseConduction;
   /** The diode that carries the current when a regulating control releases the gate; undefined: none. */

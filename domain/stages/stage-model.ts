@@ -9,7 +9,13 @@ import { behaviourOf } from "./stage-behaviours.js";
  * One discriminated union on `kind`; each kind's behaviour (forward law, reverse path, ratings,
  * start-up, scaling, quiescent current) is a module of its own, gathered in stage-behaviours.ts.
  */
-export type StageModel = DiodeStage | PFetStage | NFetLowSideStage | IdealDiodeStage | IntegratedSwitchStage | BackToBackStage;
+export type StageModel =
+  | DiodeStage
+  | PFetStage
+  | NFetLowSideStage
+  | IdealDiodeStage
+  | IntegratedSwitchStage
+  | BackToBackStage;
 export type StageKind = StageModel["kind"];
 
 export interface DiodeStage {

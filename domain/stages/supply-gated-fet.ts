@@ -18,7 +18,13 @@ export const supplyGated = {
   quiescentA: () => 0,
   quiescentHeatsDie: false,
   scale: scaleMosfetStage,
-  forwardLimits: (stage: SupplyGated) => [{ element: "gate-source" as const, ratingV: stage.mosfet.vgsMaxV, seenV: (v: number) => clampV(v, stage.gateClampV) }],
+  forwardLimits: (stage: SupplyGated) => [
+    {
+      element: "gate-source" as const,
+      ratingV: stage.mosfet.vgsMaxV,
+      seenV: (v: number) => clampV(v, stage.gateClampV),
+    },
+  ],
   blocksReverseCurrent: () => false,
   needsTurnOffTiming: () => false,
   junctionRecovery: false,
@@ -26,8 +32,19 @@ export const supplyGated = {
   gateDriveMetric: true,
   gateSourceClampV: (stage: SupplyGated) => ({ clampV: stage.gateClampV }),
   controllerReversePin: false,
-  sizing: { forward: "rdsOn", reverseRating: "vdsMaxV", gateFromSupply: true, ratedGateDrive: true, control: false, leakage: false } as const,
-  describe: (stage: SupplyGated) => ({ metrics: {}, part: mosfetPart(stage.mosfet), missing: mosfetMissing(stage.mosfet) }),
+  sizing: {
+    forward: "rdsOn",
+    reverseRating: "vdsMaxV",
+    gateFromSupply: true,
+    ratedGateDrive: true,
+    control: false,
+    leakage: false,
+  } as const,
+  describe: (stage: SupplyGated) => ({
+    metrics: {},
+    part: mosfetPart(stage.mosfet),
+    missing: mosfetMissing(stage.mosfet),
+  }),
 };
 
 /** The gate drive at a gate voltage taken from the supply (clamped), and its margin over full enhancement. */
@@ -38,6 +55,7 @@ export function supplyGateDrive(stage: SupplyGated, inputV: number, gateV: numbe
 
 /** Steady reverse: the channel (with its body diode) while on at resistance r, else the body diode's leakage. */
 export function channelOrBodyDiode(stage: SupplyGated, r: number | undefined): ReverseConduction {
-  if (r === undefined) return { kind: "junction", diode: stage.mosfet.bodyDiode, leakage: stage.mosfet.offStateLeakage };
+  if (r === undefined)
+    return { kind: "junction", diode: stage.mosfet.bodyDiode, leakage: stage.mosfet.offStateLeakage };
   return { kind: "channel", ohm: r, bodyDiode: stage.mosfet.bodyDiode };
 }

@@ -14,15 +14,23 @@ import { builtCli } from "../helpers/build-once.js";
 // or in worker threads). Source of truth: the router itself, so this is a consistency check.
 const cases = sharedCases();
 const { app } = testApp();
-const post = (url: string, body: unknown) => app.request(url, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+const post = (url: string, body: unknown) =>
+  app.request(url, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
 const fromProblem = (p: Problem): Answer => errorAnswer({ code: p.code, issues: p.issues });
 const fromBatch = (o: BatchOutputLine): Answer => (o.ok ? { ok: true, result: o.result } : errorAnswer(o.error));
 
 async function viaTrpc(): Promise<Answer[]> {
   const out: Answer[] = [];
   for (const c of cases) {
-    const b = (await (await post(`/trpc/${c.procedure}`, c.input)).json()) as { result?: { data: unknown }; error?: { data: { backstop: Problem } } };
-    out.push(b.result ? { ok: true, result: b.result.data } : fromProblem((b.error as { data: { backstop: Problem } }).data.backstop));
+    const b = (await (await post(`/trpc/${c.procedure}`, c.input)).json()) as {
+      result?: { data: unknown };
+      error?: { data: { backstop: Problem } };
+    };
+    out.push(
+      b.result
+        ? { ok: true, result: b.result.data }
+        : fromProblem((b.error as { data: { backstop: Problem } }).data.backstop),
+    );
   }
   return out;
 }
@@ -39,9 +47,16 @@ async function viaBulk(): Promise<Answer[]> {
   const out: Answer[] = [];
   for (const procedure of [...new Set(cases.map((c) => c.procedure))]) {
     const mine = cases.filter((c) => c.procedure === procedure);
-    const b = (await (await post(`/v1/${procedure}/bulk`, mine.map((c) => c.input))).json()) as { results: ({ ok: true; result: unknown } | { ok: false; problem: Problem })[] };
+    const b = (await (
+      await post(
+        `/v1/${procedure}/bulk`,
+        mine.map((c) => c.input),
+      )
+    ).json()) as { results: ({ ok: true; result: unknown } | { ok: false; problem: Problem })[] };
     b.results.forEach((r, i) => {
-      out[cases.indexOf(mine[i] as (typeof cases)[number])] = r.ok ? { ok: true, result: r.result } : fromProblem(r.problem);
+      out[cases.indexOf(mine[i] as (typeof cases)[number])] = r.ok
+        ? { ok: true, result: r.result }
+        : fromProblem(r.problem);
     });
   }
   return out;
@@ -51,13 +66,24 @@ async function viaBatch(): Promise<Answer[]> {
   const chunks: string[] = [];
   sink.on("data", (c) => chunks.push(String(c)));
   await runBatch(Readable.from([cases.map((c) => JSON.stringify(c)).join("\n")]), sink, demoContext());
-  return chunks.join("").trim().split("\n").map((l) => fromBatch(JSON.parse(l) as BatchOutputLine));
+  return chunks
+    .join("")
+    .trim()
+    .split("\n")
+    .map((l) => fromBatch(JSON.parse(l) as BatchOutputLine));
 }
 function viaBatchCliWorkers(): Answer[] {
   const dir = mkdtempSync(join(tmpdir(), "backstop-agree-"));
   writeFileSync(join(dir, "in.jsonl"), `${cases.map((c) => JSON.stringify(c)).join("\n")}\n`);
-  spawnSync("node", [builtCli(), "batch", "--in", join(dir, "in.jsonl"), "--out", join(dir, "out.jsonl"), "--workers", "2"], { encoding: "utf8" });
-  return readFileSync(join(dir, "out.jsonl"), "utf8").trim().split("\n").map((l) => fromBatch(JSON.parse(l) as BatchOutputLine));
+  spawnSync(
+    "node",
+    [builtCli(), "batch", "--in", join(dir, "in.jsonl"), "--out", join(dir, "out.jsonl"), "--workers", "2"],
+    { encoding: "utf8" },
+  );
+  return readFileSync(join(dir, "out.jsonl"), "utf8")
+    .trim()
+    .split("\n")
+    .map((l) => fromBatch(JSON.parse(l) as BatchOutputLine));
 }
 
 describe("one case suite through /trpc, /v1, bulk /v1, batch and batch with worker threads", () => {

@@ -17,7 +17,12 @@ import { readlineOracle } from "../helpers/batch-oracle.js";
  * in process) writes what a plain reading writes. Oracles: node:readline for the line breaks, and
  * readlineOracle (readline, one record at a time, the output format's line) for the output.
  */
-const good = (a: number) => ({ stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" }, supplyV: 12, load: { kind: "constant-current", currentA: a }, ambientC: 25 });
+const good = (a: number) => ({
+  stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" },
+  supplyV: 12,
+  load: { kind: "constant-current", currentA: a },
+  ambientC: 25,
+});
 
 /** Valid rows, invalid rows, malformed JSON, unknown procedures, blank lines, CRLF and lone CR breaks, non-ASCII text, a bad UTF-8 byte. */
 function mixedBytes(n: number): Buffer {
@@ -26,10 +31,16 @@ function mixedBytes(n: number): Buffer {
     const k = i % 11;
     let text: string;
     if (k === 1) text = "{ not json";
-    else if (k === 2) text = JSON.stringify({ id: `r${i}`, procedure: "operatingPoint", input: { ...good(1), supplyV: "12 A" } });
+    else if (k === 2)
+      text = JSON.stringify({ id: `r${i}`, procedure: "operatingPoint", input: { ...good(1), supplyV: "12 A" } });
     else if (k === 3) text = JSON.stringify({ id: i, procedure: "noSuchProcedure", input: {} });
     else if (k === 4) text = "";
-    else if (k === 5) text = JSON.stringify({ id: `µΩ-𝄞-${i}`, procedure: "operatingPoint", input: { ...good(1), stage: { kind: "catalog-part", partId: "missing °C" } } });
+    else if (k === 5)
+      text = JSON.stringify({
+        id: `µΩ-𝄞-${i}`,
+        procedure: "operatingPoint",
+        input: { ...good(1), stage: { kind: "catalog-part", partId: "missing °C" } },
+      });
     else if (k === 6) text = "   ";
     else if (k === 7) text = JSON.stringify([1, 2]);
     else text = JSON.stringify({ id: `r${i}`, procedure: "operatingPoint", input: good((i % 40) / 10) });
@@ -45,7 +56,8 @@ async function readlineLines(bytes: Buffer, pieces: number): Promise<string[]> {
   const chunks: Buffer[] = [];
   for (let at = 0; at < bytes.length; at += step) chunks.push(bytes.subarray(at, at + step));
   const out: string[] = [];
-  for await (const l of createInterface({ input: Readable.from(chunks), crlfDelay: Number.POSITIVE_INFINITY })) out.push(l);
+  for await (const l of createInterface({ input: Readable.from(chunks), crlfDelay: Number.POSITIVE_INFINITY }))
+    out.push(l);
   return out;
 }
 
@@ -56,7 +68,20 @@ function piecesOf(bytes: Buffer, step: number): Readable {
 }
 
 describe("JSON Lines chunks break lines as readline does", () => {
-  const cases = ["", "\n", "a", "a\n", "a\r", "a\r\n", "a\n\n", "\r\r\n\n", "a\rb\r\nc\nd", "a\r\r", "é\n€\r𝄞", "\n\n\nx"];
+  const cases = [
+    "",
+    "\n",
+    "a",
+    "a\n",
+    "a\r",
+    "a\r\n",
+    "a\n\n",
+    "\r\r\n\n",
+    "a\rb\r\nc\nd",
+    "a\r\r",
+    "é\n€\r𝄞",
+    "\n\n\nx",
+  ];
   it.each(cases.map((c) => [JSON.stringify(c), c]))("%s", async (_name, text) => {
     const want = await readlineLines(Buffer.from(text as string), 1);
     expect(linesOf(text as string)).toEqual(want);
@@ -121,7 +146,9 @@ describe("where a chunk is cut", () => {
   it("lines over the byte cap come as chunks of their own without bytes; every other line as readline reads it (property, fast-check)", async () => {
     // Oracle: node:readline's lines; a line whose bytes (break not counted) exceed the cap is
     // expected as one overlong chunk whose size counts its break.
-    const content = fc.array(fc.constantFrom("a", "b", " ", "{", "é", "€", "𝄞"), { maxLength: 120 }).map((cs) => cs.join(""));
+    const content = fc
+      .array(fc.constantFrom("a", "b", " ", "{", "é", "€", "𝄞"), { maxLength: 120 })
+      .map((cs) => cs.join(""));
     const brk = fc.constantFrom("\n", "\r\n", "\r");
     const input = fc.record({
       lines: fc.array(fc.tuple(content, brk), { maxLength: 40 }),
@@ -170,9 +197,21 @@ describe("where a chunk is cut", () => {
     const huge = `{"id":"huge","pad":"${"x".repeat(MAX_LINE_BYTES + 10)}"}`;
     const text = `${around(1)}\n${huge}\r\n${around(2)}\n${huge}`;
     const oracle = await readlineOracle(Buffer.from(text), demoContext());
-    const chunked = await collect((write) => streamBatch({ input: piecesOf(Buffer.from(text), 1024 * 1024), inFormat: "jsonl", outFormat: "jsonl", write, ctx: demoContext() }));
+    const chunked = await collect((write) =>
+      streamBatch({
+        input: piecesOf(Buffer.from(text), 1024 * 1024),
+        inFormat: "jsonl",
+        outFormat: "jsonl",
+        write,
+        ctx: demoContext(),
+      }),
+    );
     expect(chunked.toString("utf8")).toBe(oracle.toString("utf8"));
-    const records = chunked.toString("utf8").trim().split("\n").map((l) => JSON.parse(l) as { line: number; ok: boolean; error?: { message: string } });
+    const records = chunked
+      .toString("utf8")
+      .trim()
+      .split("\n")
+      .map((l) => JSON.parse(l) as { line: number; ok: boolean; error?: { message: string } });
     expect(records.map((r) => [r.line, r.ok])).toEqual([
       [1, true],
       [2, false],
@@ -183,7 +222,9 @@ describe("where a chunk is cut", () => {
   });
 
   it("chunks stay near the target size with any kind of break (lone \r breaks too: no chunk holds the whole input)", async () => {
-    const lines = Array.from({ length: 3000 }, (_, i) => JSON.stringify({ id: i, procedure: "operatingPoint", input: good(i / 1000) }));
+    const lines = Array.from({ length: 3000 }, (_, i) =>
+      JSON.stringify({ id: i, procedure: "operatingPoint", input: good(i / 1000) }),
+    );
     const longest = Math.max(...lines.map((l) => l.length));
     for (const eol of ["\n", "\r\n", "\r"]) {
       const bytes = Buffer.from(lines.join(eol) + eol);
@@ -216,17 +257,31 @@ async function collect(run: (write: (c: string | Uint8Array) => Promise<void>) =
 describe("in process: the engine writes what readline and processLine write", () => {
   const bytes = mixedBytes(900);
   const base = (extra: Partial<StreamBatchOptions>) => (write: (c: string | Uint8Array) => Promise<void>) =>
-    streamBatch({ input: piecesOf(bytes, 4000), inFormat: "jsonl", outFormat: "jsonl", write, ctx: demoContext(), ...extra });
+    streamBatch({
+      input: piecesOf(bytes, 4000),
+      inFormat: "jsonl",
+      outFormat: "jsonl",
+      write,
+      ctx: demoContext(),
+      ...extra,
+    });
 
   it("JSON Lines out, chunks of any size", async () => {
     const oracle = await readlineOracle(bytes, demoContext());
     // one record per line that is not blank (blank lines are skipped and counted apart)
-    expect(oracle.toString("utf8").split("\n")).toHaveLength(await readlineLines(bytes, 1).then((l) => l.filter((x) => x.trim() !== "").length + 1));
-    for (const chunkBytes of [1, 3000, 256 * 1024]) expect((await collect(base({ chunkBytes }))).equals(oracle)).toBe(true);
+    expect(oracle.toString("utf8").split("\n")).toHaveLength(
+      await readlineLines(bytes, 1).then((l) => l.filter((x) => x.trim() !== "").length + 1),
+    );
+    for (const chunkBytes of [1, 3000, 256 * 1024])
+      expect((await collect(base({ chunkBytes }))).equals(oracle)).toBe(true);
   });
 
   it("CSV out and a shard", async () => {
-    for (const extra of [{ outFormat: "csv" as const }, { shard: { index: 1, count: 3 } }, { outFormat: "csv" as const, procedure: "operatingPoint", shard: { index: 0, count: 2 } }]) {
+    for (const extra of [
+      { outFormat: "csv" as const },
+      { shard: { index: 1, count: 3 } },
+      { outFormat: "csv" as const, procedure: "operatingPoint", shard: { index: 0, count: 2 } },
+    ]) {
       const chunked = await collect(base({ ...extra, chunkBytes: 5000 }));
       expect(chunked.length).toBeGreaterThan(1000);
       expect(chunked.equals(await readlineOracle(bytes, demoContext(), extra))).toBe(true);
@@ -237,26 +292,41 @@ describe("in process: the engine writes what readline and processLine write", ()
 describe("built CLI: in process, one worker thread and two write the same bytes", () => {
   const bin = builtCli();
   const dir = mkdtempSync(join(tmpdir(), "backstop-chunks-"));
-  const run = (args: string[]) => spawnSync("node", [bin, "batch", ...args], { encoding: "utf8", env: { ...process.env, BACKSTOP_PROGRESS_MS: "600000" } });
+  const run = (args: string[]) =>
+    spawnSync("node", [bin, "batch", ...args], {
+      encoding: "utf8",
+      env: { ...process.env, BACKSTOP_PROGRESS_MS: "600000" },
+    });
   // about 1.2 MB: several chunks of the default size, so the threads and the main thread each answer some
   const input = join(dir, "mixed.jsonl");
   writeFileSync(input, mixedBytes(6000));
 
-  it.each(["jsonl", "csv"])("JSON Lines in, %s out, against readline and processLine", async (fmt) => {
-    const outs = ["0", "1", "2"].map((w) => {
-      const out = join(dir, `out-w${w}.${fmt}`);
-      const r = run(["--in", input, "--out", out, "--workers", w]);
-      expect(r.status, r.stderr).toBe(1); // some rows rejected
-      return readFileSync(out);
-    });
-    const oracle = await readlineOracle(readFileSync(input), demoContext(), { outFormat: fmt as "jsonl" | "csv" });
-    for (const o of outs) expect(o.equals(oracle)).toBe(true);
-  }, 120_000);
+  it.each(["jsonl", "csv"])(
+    "JSON Lines in, %s out, against readline and processLine",
+    async (fmt) => {
+      const outs = ["0", "1", "2"].map((w) => {
+        const out = join(dir, `out-w${w}.${fmt}`);
+        const r = run(["--in", input, "--out", out, "--workers", w]);
+        expect(r.status, r.stderr).toBe(1); // some rows rejected
+        return readFileSync(out);
+      });
+      const oracle = await readlineOracle(readFileSync(input), demoContext(), { outFormat: fmt as "jsonl" | "csv" });
+      for (const o of outs) expect(o.equals(oracle)).toBe(true);
+    },
+    120_000,
+  );
 
   it("CSV in: in process and two threads agree", () => {
     const csv = join(dir, "in.csv");
     const rows = ["id,procedure,stage.kind,stage.partId,supplyV,load.kind,load.currentA,ambientC"];
-    for (let i = 0; i < 500; i += 1) rows.push(i % 9 === 4 ? `c${i},operatingPoint,catalog-part,missing,12 A,constant-current,1,25` : i % 9 === 7 ? `c${i},nope,,,,,,` : `c${i},operatingPoint,catalog-part,demo-schottky-5a-45v,12,constant-current,${(i % 30) / 10},25`);
+    for (let i = 0; i < 500; i += 1)
+      rows.push(
+        i % 9 === 4
+          ? `c${i},operatingPoint,catalog-part,missing,12 A,constant-current,1,25`
+          : i % 9 === 7
+            ? `c${i},nope,,,,,,`
+            : `c${i},operatingPoint,catalog-part,demo-schottky-5a-45v,12,constant-current,${(i % 30) / 10},25`,
+      );
     writeFileSync(csv, `${rows.join("\n")}\n`);
     const outs = ["0", "2"].map((w) => {
       const out = join(dir, `csv-w${w}.jsonl`);

@@ -31,17 +31,24 @@ const edge: unknown[] = [
 
 describe("isBatchLine", () => {
   it("agrees with batchLine on edge cases", () => {
-    const withInput = edge.filter((v) => typeof v === "object" && v !== null && !Array.isArray(v)).map((v) => ({ ...(v as object), input: {} }));
+    const withInput = edge
+      .filter((v) => typeof v === "object" && v !== null && !Array.isArray(v))
+      .map((v) => ({ ...(v as object), input: {} }));
     expect(withInput.filter((v) => batchLine.safeParse(v).success).length).toBeGreaterThanOrEqual(5);
-    for (const v of [...edge, ...withInput]) expect(isBatchLine(v), JSON.stringify(v)).toBe(batchLine.safeParse(v).success);
+    for (const v of [...edge, ...withInput])
+      expect(isBatchLine(v), JSON.stringify(v)).toBe(batchLine.safeParse(v).success);
   });
   it("agrees with batchLine on random lines", () => {
-    const id = fc.oneof(fc.constant(undefined), fc.string({ maxLength: 260 }), fc.double(), fc.integer(), fc.boolean(), fc.constant(null));
-    const procedure = fc.oneof(fc.string({ maxLength: 260 }), fc.integer(), fc.constant(undefined));
-    const line = fc.oneof(
-      fc.record({ id, procedure, input: fc.jsonValue() }, { requiredKeys: [] }),
-      fc.jsonValue(),
+    const id = fc.oneof(
+      fc.constant(undefined),
+      fc.string({ maxLength: 260 }),
+      fc.double(),
+      fc.integer(),
+      fc.boolean(),
+      fc.constant(null),
     );
+    const procedure = fc.oneof(fc.string({ maxLength: 260 }), fc.integer(), fc.constant(undefined));
+    const line = fc.oneof(fc.record({ id, procedure, input: fc.jsonValue() }, { requiredKeys: [] }), fc.jsonValue());
     fc.assert(
       fc.property(line, (v) => {
         // through JSON, as a batch line arrives (drops undefined, turns non-finite doubles to null)

@@ -17,13 +17,19 @@ import { readlineOracle } from "../helpers/batch-oracle.js";
  * thread that answers with the same function as a worker thread after a delay of the test's
  * choosing. Oracle: readlineOracle (readline, one record at a time), as in batch-chunks.test.ts.
  */
-const good = (a: number) => ({ stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" }, supplyV: 12, load: { kind: "constant-current", currentA: a }, ambientC: 25 });
+const good = (a: number) => ({
+  stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" },
+  supplyV: 12,
+  load: { kind: "constant-current", currentA: a },
+  ambientC: 25,
+});
 
 function inputBytes(n: number): Buffer {
   const lines: string[] = [];
   for (let i = 0; i < n; i += 1) {
     if (i % 17 === 3) lines.push("{ not json");
-    else if (i % 23 === 5) lines.push(JSON.stringify({ id: `r${i}`, procedure: "operatingPoint", input: { ...good(1), supplyV: "-3 V" } }));
+    else if (i % 23 === 5)
+      lines.push(JSON.stringify({ id: `r${i}`, procedure: "operatingPoint", input: { ...good(1), supplyV: "-3 V" } }));
     else lines.push(JSON.stringify({ id: `r${i}`, procedure: "operatingPoint", input: good((i % 40) / 10) }));
   }
   return Buffer.from(`${lines.join("\n")}\n`);
@@ -38,7 +44,12 @@ function piecesOf(bytes: Buffer, step: number): Readable {
 const sleep = (ms: number) => new Promise<void>((r) => setTimeout(r, ms));
 
 /** A pool of `threads` stand-in threads: each task answered after `delayMs(k)` (k: the task's number), ready after `readyMs`. */
-function standInPool(threads: number, readyMs: number, delayMs: (k: number) => number, fault?: (text: string, lines: number) => boolean) {
+function standInPool(
+  threads: number,
+  readyMs: number,
+  delayMs: (k: number) => number,
+  fault?: (text: string, lines: number) => boolean,
+) {
   const invoker = procedureInvoker(demoContext());
   const line = outputFormatter("jsonl", undefined).line;
   let tasks = 0;
@@ -73,7 +84,11 @@ function standInPool(threads: number, readyMs: number, delayMs: (k: number) => n
 
 const oracleOf = (bytes: Buffer): Promise<Buffer> => readlineOracle(bytes, demoContext());
 
-async function chunked(bytes: Buffer, pool: ComputePool | undefined, opts: { piece: number; chunkBytes: number; writeMs?: (k: number) => number; poolOnly?: boolean }) {
+async function chunked(
+  bytes: Buffer,
+  pool: ComputePool | undefined,
+  opts: { piece: number; chunkBytes: number; writeMs?: (k: number) => number; poolOnly?: boolean },
+) {
   const parts: Buffer[] = [];
   let writes = 0;
   const counts = await streamBatch({
@@ -111,7 +126,11 @@ describe("chunks handed out as they are taken", () => {
         fc.integer({ min: 512, max: 65_536 }),
         async (threads, readyMs, delays, writeDelays, chunkBytes, piece) => {
           const { pool } = standInPool(threads, readyMs, (k) => delays[k % delays.length] as number);
-          const got = await chunked(bytes, pool, { piece, chunkBytes, writeMs: (k) => writeDelays[k % writeDelays.length] as number });
+          const got = await chunked(bytes, pool, {
+            piece,
+            chunkBytes,
+            writeMs: (k) => writeDelays[k % writeDelays.length] as number,
+          });
           expect(got.bytes.equals(want)).toBe(true);
           expect(got.counts.lines).toBe(600);
         },
@@ -161,7 +180,17 @@ describe("chunks handed out as they are taken", () => {
     const broken = new Readable({ read() {} });
     broken.push(bytes.subarray(0, 5000));
     setTimeout(() => broken.destroy(new Error("input went away")), 20);
-    await expect(streamBatch({ input: broken, inFormat: "jsonl", outFormat: "jsonl", ctx: demoContext(), pool, chunkBytes: 2000, write: () => Promise.resolve() })).rejects.toThrow("input went away");
+    await expect(
+      streamBatch({
+        input: broken,
+        inFormat: "jsonl",
+        outFormat: "jsonl",
+        ctx: demoContext(),
+        pool,
+        chunkBytes: 2000,
+        write: () => Promise.resolve(),
+      }),
+    ).rejects.toThrow("input went away");
   });
 
   it("a chunk whose thread fails is answered row by row: a row that fails again is an internal error row, every other row as without the fault", async () => {
@@ -170,13 +199,24 @@ describe("chunks handed out as they are taken", () => {
     lines[41] = ""; // a blank line in a failed chunk stays blank
     const bytes = Buffer.from(lines.join("\n"));
     // a chunk of several lines fails when it holds row 41; row 41 alone fails again
-    const { pool } = standInPool(2, 0, () => 0, (text, n) => text.includes('"lost"') || (n > 1 && text.includes('"r7"')));
+    const { pool } = standInPool(
+      2,
+      0,
+      () => 0,
+      (text, n) => text.includes('"lost"') || (n > 1 && text.includes('"r7"')),
+    );
     const got = await chunked(bytes, pool, { piece: 4096, chunkBytes: 3000, poolOnly: true });
     const want = (await oracleOf(bytes)).toString("utf8").split("\n");
     const rows = got.bytes.toString("utf8").split("\n");
     expect(rows).toHaveLength(want.length);
-    const lost = rows.map((r, i) => [r, i] as const).filter(([r]) => r !== "" && !(JSON.parse(r) as { ok: boolean }).ok && r.includes('"internal"'));
-    expect(lost.map(([r]) => JSON.parse(r) as { id: unknown; line: number; error: { message: string } }).map((r) => [r.id, r.line, r.error.message])).toEqual([["lost", 41, "the worker thread failed on this record: stand-in thread failed"]]);
+    const lost = rows
+      .map((r, i) => [r, i] as const)
+      .filter(([r]) => r !== "" && !(JSON.parse(r) as { ok: boolean }).ok && r.includes('"internal"'));
+    expect(
+      lost
+        .map(([r]) => JSON.parse(r) as { id: unknown; line: number; error: { message: string } })
+        .map((r) => [r.id, r.line, r.error.message]),
+    ).toEqual([["lost", 41, "the worker thread failed on this record: stand-in thread failed"]]);
     for (const [i, r] of rows.entries()) if (i !== lost[0]?.[1]) expect(r).toBe(want[i]);
     expect(got.counts.blank).toBe(1);
     expect(got.counts.lines).toBe(299);

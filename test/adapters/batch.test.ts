@@ -9,14 +9,23 @@ import { projectRoot } from "../../adapters/project-root.js";
 import { demoContext } from "../helpers/app.js";
 import { ensureBuilt } from "../helpers/build-once.js";
 
-const good = { stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" }, supplyV: 12, load: { kind: "constant-current", currentA: 2 }, ambientC: 25 };
+const good = {
+  stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" },
+  supplyV: 12,
+  load: { kind: "constant-current", currentA: 2 },
+  ambientC: 25,
+};
 
 async function batch(lines: string[]): Promise<BatchOutputLine[]> {
   const out = new PassThrough();
   const chunks: string[] = [];
   out.on("data", (c) => chunks.push(String(c)));
   await runBatch(Readable.from([lines.join("\n")]), out, demoContext());
-  return chunks.join("").trim().split("\n").map((l) => JSON.parse(l) as BatchOutputLine);
+  return chunks
+    .join("")
+    .trim()
+    .split("\n")
+    .map((l) => JSON.parse(l) as BatchOutputLine);
 }
 
 describe("batch mode", () => {
@@ -24,10 +33,18 @@ describe("batch mode", () => {
     const lines = [
       JSON.stringify({ id: "a", procedure: "operatingPoint", input: good }),
       "{ this is not json",
-      JSON.stringify({ id: "b", procedure: "operatingPoint", input: { ...good, load: { kind: "constant-current", currentA: "5 V" } } }),
+      JSON.stringify({
+        id: "b",
+        procedure: "operatingPoint",
+        input: { ...good, load: { kind: "constant-current", currentA: "5 V" } },
+      }),
       JSON.stringify({ id: "c", procedure: "noSuchThing", input: {} }),
       "",
-      JSON.stringify({ id: 7, procedure: "operatingPoint", input: { ...good, stage: { kind: "catalog-part", partId: "missing" } } }),
+      JSON.stringify({
+        id: 7,
+        procedure: "operatingPoint",
+        input: { ...good, stage: { kind: "catalog-part", partId: "missing" } },
+      }),
       JSON.stringify({ procedure: "operatingPoint", input: good }),
       JSON.stringify([1, 2, 3]),
     ];
@@ -63,14 +80,24 @@ describe("batch command line", () => {
     const inFile = join(dir, "in.jsonl");
     const outFile = join(dir, "out.jsonl");
     writeFileSync(inFile, `${JSON.stringify({ id: 1, procedure: "operatingPoint", input: good })}\nnot json\n`);
-    const r = spawnSync("node", [join(root, "bin", "backstop.mjs"), "batch", "--in", inFile, "--out", outFile], { encoding: "utf8" });
+    const r = spawnSync("node", [join(root, "bin", "backstop.mjs"), "batch", "--in", inFile, "--out", outFile], {
+      encoding: "utf8",
+    });
     expect(r.status).toBe(1);
     const lines = readFileSync(outFile, "utf8").trim().split("\n");
     expect(lines).toHaveLength(2);
-    const again = spawnSync("node", [join(root, "bin", "backstop.mjs"), "batch", "--in", inFile, "--out", `${outFile}.2`], { encoding: "utf8" });
+    const again = spawnSync(
+      "node",
+      [join(root, "bin", "backstop.mjs"), "batch", "--in", inFile, "--out", `${outFile}.2`],
+      { encoding: "utf8" },
+    );
     expect(again.status).toBe(1);
     expect(readFileSync(`${outFile}.2`, "utf8")).toBe(readFileSync(outFile, "utf8")); // deterministic
-    const missing = spawnSync("node", [join(root, "bin", "backstop.mjs"), "batch", "--in", join(dir, "nope.jsonl"), "--out", join(dir, "o3.jsonl")], { encoding: "utf8" });
+    const missing = spawnSync(
+      "node",
+      [join(root, "bin", "backstop.mjs"), "batch", "--in", join(dir, "nope.jsonl"), "--out", join(dir, "o3.jsonl")],
+      { encoding: "utf8" },
+    );
     expect(missing.status).toBe(2);
     expect(existsSync(join(dir, "o3.jsonl"))).toBe(false);
   });
@@ -90,10 +117,18 @@ describe("batch command line", () => {
     expect(r.stderr).toMatch(/no "procedure" column and no --procedure was given/);
     expect(existsSync(join(dir, "out.jsonl"))).toBe(false);
     const jsonl = join(dir, "in.jsonl");
-    writeFileSync(jsonl, `${JSON.stringify({ id: 1, procedure: "operatingPoint", input: good })}\n\n   \n${JSON.stringify({ id: 2, procedure: "operatingPoint", input: good })}\n`);
+    writeFileSync(
+      jsonl,
+      `${JSON.stringify({ id: 1, procedure: "operatingPoint", input: good })}\n\n   \n${JSON.stringify({ id: 2, procedure: "operatingPoint", input: good })}\n`,
+    );
     const b = spawnSync("node", [bin, "batch", "--in", jsonl, "--out", join(dir, "out2.jsonl")], { encoding: "utf8" });
     expect(b.status).toBe(0);
     expect(b.stderr).toMatch(/2 rows, 0 rejected, 2 blank lines skipped/);
-    expect(readFileSync(join(dir, "out2.jsonl"), "utf8").trim().split("\n").map((l) => (JSON.parse(l) as { line: number }).line)).toEqual([1, 4]);
+    expect(
+      readFileSync(join(dir, "out2.jsonl"), "utf8")
+        .trim()
+        .split("\n")
+        .map((l) => (JSON.parse(l) as { line: number }).line),
+    ).toEqual([1, 4]);
   });
 });

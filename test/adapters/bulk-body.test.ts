@@ -7,8 +7,17 @@ import { bulkBody, bulkBodyUtf8 } from "../../adapters/http/v1.js";
 // JSON.stringify({ results, ok, failed }) of the same results (the form it had before).
 describe("bulkBody", () => {
   it("is JSON.stringify of the results, byte for byte", () => {
-    const results: unknown[] = [{ outcome: "solved", x: 1.5e-300, s: 'quote " and \u2028 and é' }, { a: [1, null, { b: -0 }] }, "text", 0];
-    const error = { code: "invalid-input" as const, message: "invalid input at load.currentA: bad", issues: [{ path: ["load", "currentA"], message: "bad" }] };
+    const results: unknown[] = [
+      { outcome: "solved", x: 1.5e-300, s: 'quote " and \u2028 and é' },
+      { a: [1, null, { b: -0 }] },
+      "text",
+      0,
+    ];
+    const error = {
+      code: "invalid-input" as const,
+      message: "invalid input at load.currentA: bad",
+      issues: [{ path: ["load", "currentA"], message: "bad" }],
+    };
     const items: ItemJson[] = [
       ...results.map((r): ItemJson => ({ ok: true, json: JSON.stringify(r), outcome: "ok", seconds: 0 })),
       { ok: false, status: 400, error, outcome: "invalid-input", seconds: 0 },

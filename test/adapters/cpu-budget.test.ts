@@ -10,8 +10,16 @@ describe("the CPU budget", () => {
     expect(quotaCpus(files({ "/sys/fs/cgroup/cpu.max": "200000 100000\n" }))).toBe(2);
     expect(quotaCpus(files({ "/sys/fs/cgroup/cpu.max": "150000 100000" }))).toBe(1.5);
     expect(quotaCpus(files({ "/sys/fs/cgroup/cpu.max": "max 100000" }))).toBeUndefined();
-    expect(quotaCpus(files({ "/sys/fs/cgroup/cpu/cpu.cfs_quota_us": "50000", "/sys/fs/cgroup/cpu/cpu.cfs_period_us": "100000" }))).toBe(0.5);
-    expect(quotaCpus(files({ "/sys/fs/cgroup/cpu/cpu.cfs_quota_us": "-1", "/sys/fs/cgroup/cpu/cpu.cfs_period_us": "100000" }))).toBeUndefined();
+    expect(
+      quotaCpus(
+        files({ "/sys/fs/cgroup/cpu/cpu.cfs_quota_us": "50000", "/sys/fs/cgroup/cpu/cpu.cfs_period_us": "100000" }),
+      ),
+    ).toBe(0.5);
+    expect(
+      quotaCpus(
+        files({ "/sys/fs/cgroup/cpu/cpu.cfs_quota_us": "-1", "/sys/fs/cgroup/cpu/cpu.cfs_period_us": "100000" }),
+      ),
+    ).toBeUndefined();
     expect(quotaCpus(files({ "/sys/fs/cgroup/cpu.max": "garbage" }))).toBeUndefined();
     expect(quotaCpus(files({}))).toBeUndefined();
   });

@@ -8,10 +8,17 @@ import { startBuiltServer } from "../helpers/built-server.js";
 
 // The built server as a process on a loopback port (dist/ is built on first use, test/helpers/build-once.ts):
 // one HTTP process, as a container runs it (deploy/deployment.yaml).
-const good = { stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" }, supplyV: 12, load: { kind: "constant-current", currentA: 2 }, ambientC: 25 };
+const good = {
+  stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" },
+  supplyV: 12,
+  load: { kind: "constant-current", currentA: 2 },
+  ambientC: 25,
+};
 
-const post = (url: string, body: unknown) => fetch(url, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
-const exited = (c: ChildProcess) => new Promise<number | null>((r) => (c.exitCode !== null ? r(c.exitCode) : c.on("exit", (code) => r(code))));
+const post = (url: string, body: unknown) =>
+  fetch(url, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+const exited = (c: ChildProcess) =>
+  new Promise<number | null>((r) => (c.exitCode !== null ? r(c.exitCode) : c.on("exit", (code) => r(code))));
 /** Resolves once the server's output holds `text` (a log line it writes when the event happens). */
 const logged = (s: { child: ChildProcess; logs: string[] }, text: string) =>
   new Promise<void>((resolve) => {
@@ -27,10 +34,18 @@ const logged = (s: { child: ChildProcess; logs: string[] }, text: string) =>
 /** One request on a keep-alive agent: its status and whether the answer said Connection: close. */
 const once_ = (base: string, path: string, body: string, agent: Agent) =>
   new Promise<{ status: number; close: boolean }>((resolve, reject) => {
-    const req = request(`${base}${path}`, { method: "POST", agent, headers: { "content-type": "application/json", "content-length": Buffer.byteLength(body) } }, (res) => {
-      res.resume();
-      res.on("end", () => resolve({ status: res.statusCode ?? 0, close: res.headers.connection === "close" }));
-    });
+    const req = request(
+      `${base}${path}`,
+      {
+        method: "POST",
+        agent,
+        headers: { "content-type": "application/json", "content-length": Buffer.byteLength(body) },
+      },
+      (res) => {
+        res.resume();
+        res.on("end", () => resolve({ status: res.statusCode ?? 0, close: res.headers.connection === "close" }));
+      },
+    );
     req.on("error", reject);
     req.end(body);
   });
@@ -54,9 +69,22 @@ describe("the server process", () => {
     expect(v1).toBe(JSON.stringify(trpc.result.data));
     // a single operating point runs in the main thread; bulk goes to the worker threads: same bytes
     const bulk = await (await post(`${s.base}/v1/operatingPoint/bulk`, [good, { ...good, supplyV: "x" }, good])).text();
-    const bad = (await (await post(`${s.base}/v1/operatingPoint`, { ...good, supplyV: "x" })).json()) as Record<string, unknown>;
+    const bad = (await (await post(`${s.base}/v1/operatingPoint`, { ...good, supplyV: "x" })).json()) as Record<
+      string,
+      unknown
+    >;
     const { instance: _i, requestId: _r, ...badInBulk } = bad;
-    expect(bulk).toBe(JSON.stringify({ results: [{ ok: true, result: trpc.result.data }, { ok: false, problem: badInBulk }, { ok: true, result: trpc.result.data }], ok: 2, failed: 1 }));
+    expect(bulk).toBe(
+      JSON.stringify({
+        results: [
+          { ok: true, result: trpc.result.data },
+          { ok: false, problem: badInBulk },
+          { ok: true, result: trpc.result.data },
+        ],
+        ok: 2,
+        failed: 1,
+      }),
+    );
     const time = async (url: string, n: number) => {
       const t0 = performance.now();
       for (let i = 0; i < n; i += 1) await (await post(url, good)).arrayBuffer();
@@ -65,8 +93,15 @@ describe("the server process", () => {
     const trpcMs = await time(`${s.base}/trpc/operatingPoint`, 30);
     const v1Ms = await time(`${s.base}/v1/operatingPoint`, 30);
     const t0 = performance.now();
-    await (await post(`${s.base}/v1/operatingPoint/bulk`, Array.from({ length: 1000 }, () => good))).arrayBuffer();
-    console.log(`latency (mean of 30, loopback): /trpc ${trpcMs.toFixed(2)} ms, /v1 ${v1Ms.toFixed(2)} ms; bulk 1000 cases ${(performance.now() - t0).toFixed(0)} ms`);
+    await (
+      await post(
+        `${s.base}/v1/operatingPoint/bulk`,
+        Array.from({ length: 1000 }, () => good),
+      )
+    ).arrayBuffer();
+    console.log(
+      `latency (mean of 30, loopback): /trpc ${trpcMs.toFixed(2)} ms, /v1 ${v1Ms.toFixed(2)} ms; bulk 1000 cases ${(performance.now() - t0).toFixed(0)} ms`,
+    );
     s.child.kill("SIGTERM");
     expect(await exited(s.child)).toBe(0);
   });
@@ -80,13 +115,23 @@ describe("the server process", () => {
     const inFlight = Array.from({ length: 24 }, (_, i) => {
       const body = JSON.stringify(Array.from({ length: 40 + i }, () => good));
       return new Promise<{ status: number; n: number }>((resolve, reject) => {
-        const req = request(`${s.base}/v1/operatingPoint/bulk`, { method: "POST", agent, headers: { "content-type": "application/json", "content-length": Buffer.byteLength(body) } }, (res) => {
-          let text = "";
-          res.on("data", (d: Buffer) => {
-            text += String(d);
-          });
-          res.on("end", () => resolve({ status: res.statusCode ?? 0, n: (JSON.parse(text) as { results: unknown[] }).results.length }));
-        });
+        const req = request(
+          `${s.base}/v1/operatingPoint/bulk`,
+          {
+            method: "POST",
+            agent,
+            headers: { "content-type": "application/json", "content-length": Buffer.byteLength(body) },
+          },
+          (res) => {
+            let text = "";
+            res.on("data", (d: Buffer) => {
+              text += String(d);
+            });
+            res.on("end", () =>
+              resolve({ status: res.statusCode ?? 0, n: (JSON.parse(text) as { results: unknown[] }).results.length }),
+            );
+          },
+        );
         req.on("error", reject);
         sent.push(once(req, "finish").then(() => undefined));
         req.end(body);
@@ -150,7 +195,10 @@ describe("the server process", () => {
         return { status: r.status, closed: once(socket, "close"), errors, agent };
       }),
     );
-    const running = [...Array.from({ length: loops - 8 }, () => loop("/v1/operatingPoint", single)), ...Array.from({ length: 8 }, () => loop("/v1/operatingPoint/bulk", bulk))];
+    const running = [
+      ...Array.from({ length: loops - 8 }, () => loop("/v1/operatingPoint", single)),
+      ...Array.from({ length: 8 }, () => loop("/v1/operatingPoint/bulk", bulk)),
+    ];
     await answering;
     s.child.kill("SIGTERM");
     const done = await Promise.all(running);
@@ -163,7 +211,10 @@ describe("the server process", () => {
   });
 
   it("stops with exit 2 on a bad setting, naming it; warns that BACKSTOP_HTTP_PROCESSES is no longer read", async () => {
-    const child = spawn("node", [join(projectRoot(), "dist", "bundle", "main.js")], { env: { ...process.env, PORT: "0", HOST: "127.0.0.1", BACKSTOP_MAX_BODY_BYTES: "lots" }, stdio: ["ignore", "ignore", "pipe"] });
+    const child = spawn("node", [join(projectRoot(), "dist", "bundle", "main.js")], {
+      env: { ...process.env, PORT: "0", HOST: "127.0.0.1", BACKSTOP_MAX_BODY_BYTES: "lots" },
+      stdio: ["ignore", "ignore", "pipe"],
+    });
     children.push(child);
     let err = "";
     child.stderr?.on("data", (d: Buffer) => {

@@ -15,9 +15,12 @@ import { postTrpc, testApp } from "../helpers/app.js";
 // case that passes and one that fails for a physical reason, each checked against its source.
 type Input = Record<string, unknown>;
 const root = projectRoot();
-const example = (p: string): Input => (JSON.parse(readFileSync(join(root, "examples", "requests", `${p}.json`), "utf8")) as { input: Input }).input;
+const example = (p: string): Input =>
+  (JSON.parse(readFileSync(join(root, "examples", "requests", `${p}.json`), "utf8")) as { input: Input }).input;
 const catalogStage = (id: string): Input => {
-  const c = JSON.parse(readFileSync(join(root, "examples", "catalog", "demo-parts.json"), "utf8")) as { parts: { id: string; stage: Input }[] };
+  const c = JSON.parse(readFileSync(join(root, "examples", "catalog", "demo-parts.json"), "utf8")) as {
+    parts: { id: string; stage: Input }[];
+  };
   const part = c.parts.find((p) => p.id === id);
   if (part === undefined) throw new Error(id);
   return structuredClone(part.stage);
@@ -51,7 +54,12 @@ describe("verdicts of the reverse-current and bridge analyses", () => {
 
     it("fails with a 10 µs delay against a 5 mJ rating: the reverse current rises for longer and the loop inductance hands its energy to the clamp", async () => {
       const out = turnOffOutput.parse(
-        await call("turnOff", { ...example("turnOff"), turnOff: { reverseThresholdV: "20 mV", turnOffDelayS: "10 us" }, avalancheRatingJ: "5 mJ", ruleSet: "default" }),
+        await call("turnOff", {
+          ...example("turnOff"),
+          turnOff: { reverseThresholdV: "20 mV", turnOffDelayS: "10 us" },
+          avalancheRatingJ: "5 mJ",
+          ruleSet: "default",
+        }),
       );
       if (out.outcome !== "blocks" || out.clamp === undefined) throw new Error(out.outcome);
       const v = verdict(out.rules, "avalanche-energy");
@@ -67,7 +75,12 @@ describe("verdicts of the reverse-current and bridge analyses", () => {
 
     it("a P-FET never turns off: no clamp energy (rule out of scope), but it fails reverse-current blocking where hold-up is required", async () => {
       const out = turnOffOutput.parse(
-        await call("turnOff", { ...example("turnOff"), stage: { kind: "catalog-part", partId: "demo-pfet-40v-12mohm" }, ruleSet: "default", ruleMetrics: { holdUpRequired: true } }),
+        await call("turnOff", {
+          ...example("turnOff"),
+          stage: { kind: "catalog-part", partId: "demo-pfet-40v-12mohm" },
+          ruleSet: "default",
+          ruleMetrics: { holdUpRequired: true },
+        }),
       );
       expect(out.outcome).toBe("does-not-block");
       // Common practice: a MOSFET channel conducts both ways; the output drains into the shorted input.
@@ -99,7 +112,13 @@ describe("verdicts of the reverse-current and bridge analyses", () => {
     });
 
     it("fails with a 10 µs delay: the energy is within the 50 mJ single-pulse rating but above the 4 mJ EAR", async () => {
-      const out = turnOffOutput.parse(await call("turnOff", { ...example("turnOff"), turnOff: { reverseThresholdV: "20 mV", turnOffDelayS: "10 us" }, ruleSet: "default" }));
+      const out = turnOffOutput.parse(
+        await call("turnOff", {
+          ...example("turnOff"),
+          turnOff: { reverseThresholdV: "20 mV", turnOffDelayS: "10 us" },
+          ruleSet: "default",
+        }),
+      );
       expect(verdict(out.rules, "avalanche-energy").outcome).toBe("pass");
       const v = verdict(out.rules, "avalanche-energy-repetitive");
       expect(v.outcome).toBe("fail");
@@ -107,7 +126,9 @@ describe("verdicts of the reverse-current and bridge analyses", () => {
     });
 
     it("a one-off event is out of the rule's scope; a repeating one on a MOSFET without EAR leaves the set incomplete", async () => {
-      const once = turnOffOutput.parse(await call("turnOff", { ...example("turnOff"), repetitive: false, ruleSet: "default" }));
+      const once = turnOffOutput.parse(
+        await call("turnOff", { ...example("turnOff"), repetitive: false, ruleSet: "default" }),
+      );
       expect(verdict(once.rules, "avalanche-energy-repetitive").notApplicableCode).toBe("precondition");
       const stage = catalogStage("demo-ideal-diode-60v-3mohm") as { mosfet: Input };
       delete stage.mosfet["repetitiveAvalancheEnergyJ"];
@@ -123,7 +144,14 @@ describe("verdicts of the reverse-current and bridge analyses", () => {
     // Closed form (energy balance, ESR neglected): C·(V0² − Vmin²)/2 = P·t → t = C·(144 − 64)/(2·20 W).
     const closedForm = (capacitanceF: number) => (capacitanceF * (12 * 12 - 8 * 8)) / (2 * 20);
     const run = async (capacitance: string) =>
-      holdUpOutput.parse(await call("holdUp", { ...example("holdUp"), capacitor: { capacitanceF: capacitance, esrOhm: "30 mOhm" }, input: { kind: "open" }, ruleSet: "default" }));
+      holdUpOutput.parse(
+        await call("holdUp", {
+          ...example("holdUp"),
+          capacitor: { capacitanceF: capacitance, esrOhm: "30 mOhm" },
+          input: { kind: "open" },
+          ruleSet: "default",
+        }),
+      );
 
     it("1500 µF holds a 20 W load for about 3 ms: passes 2 ms and the 1.25× margin", async () => {
       const out = await run("1500 uF");
@@ -177,7 +205,10 @@ describe("verdicts of the reverse-current and bridge analyses", () => {
       const hottest = out.branches.reduce((a, b) => (b.tjC > a.tjC ? b : a));
       expect(tj.element).toBe(hottest.name);
       expect(tj.values["tjWorstC"]).toBe(hottest.tjC);
-      expect(verdict(out.rules, "reverse-current-blocking").values).toEqual({ blocksReverseCurrent: true, parallelSources: true });
+      expect(verdict(out.rules, "reverse-current-blocking").values).toEqual({
+        blocksReverseCurrent: true,
+        parallelSources: true,
+      });
     });
 
     it("two P-FETs fail: the 12.6 V source drives current back into the 12 V one through the lower channel", async () => {
@@ -210,7 +241,9 @@ describe("verdicts of the reverse-current and bridge analyses", () => {
 
   describe("batteryCharge: back-drain of the source", () => {
     it("the ideal diode blocks (pass); the P-FET lets the target drain a flat source (fail)", async () => {
-      const out = batteryChargeOutput.parse(await call("batteryCharge", { ...example("batteryCharge"), ruleSet: "default" }));
+      const out = batteryChargeOutput.parse(
+        await call("batteryCharge", { ...example("batteryCharge"), ruleSet: "default" }),
+      );
       const [schottky, ideal, pfet] = out.stages;
       expect(verdict(ideal?.rules, "battery-back-drain").outcome).toBe("pass");
       expect(verdict(schottky?.rules, "battery-back-drain").outcome).toBe("pass");
@@ -248,7 +281,9 @@ describe("verdicts of the reverse-current and bridge analyses", () => {
 
     it("with 1 mH leakage the charging pulse stays under an 8 A IFRM; a stiff source (no inductance, 50 mΩ) drives it above", async () => {
       const soft = bridgeAcOutput.parse(await call("bridgeAc", base));
-      const stiff = bridgeAcOutput.parse(await call("bridgeAc", { ...base, leakageInductanceH: 0, sourceResistanceOhm: "50 mOhm" }));
+      const stiff = bridgeAcOutput.parse(
+        await call("bridgeAc", { ...base, leakageInductanceH: 0, sourceResistanceOhm: "50 mOhm" }),
+      );
       const a = verdict(soft.rules, "element-peak-current");
       const b = verdict(stiff.rules, "element-peak-current");
       expect(a.outcome).toBe("pass");
@@ -256,7 +291,8 @@ describe("verdicts of the reverse-current and bridge analyses", () => {
       expect(b.threshold).toBe(8);
       // Charge balance: the same load charge in a shorter pulse means a higher peak (textbook).
       if (!("steadyState" in soft.bridge) || !("steadyState" in stiff.bridge)) throw new Error("no steady state");
-      const angle = (o: typeof soft.bridge) => ("steadyState" in o ? Math.max(...o.steadyState.elements.map((e) => e.conductionAngleDeg)) : Number.NaN);
+      const angle = (o: typeof soft.bridge) =>
+        "steadyState" in o ? Math.max(...o.steadyState.elements.map((e) => e.conductionAngleDeg)) : Number.NaN;
       expect(angle(stiff.bridge)).toBeLessThan(angle(soft.bridge));
       // The bridge is symmetric: every element carries the same pulse, one pair in each half
       // period (half-wave symmetry), so no element is singled out (as for bridgeDc above).

@@ -5,7 +5,12 @@ import { projectRoot } from "../../adapters/project-root.js";
 import { bridgeAcOutput, bridgeDcOutput } from "../../contracts/bridge.js";
 import { postTrpc, testApp } from "../helpers/app.js";
 
-const example = (name: string) => (JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", `${name}.json`), "utf8")) as { input: Record<string, unknown> }).input;
+const example = (name: string) =>
+  (
+    JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", `${name}.json`), "utf8")) as {
+      input: Record<string, unknown>;
+    }
+  ).input;
 
 type ErrBody = { error: { data: { backstop: { code: string; issues: { path: (string | number)[] }[] } } } };
 
@@ -21,7 +26,13 @@ describe("bridge procedures over HTTP (tRPC)", () => {
     expect(out.compareTo?.outcome).toBe("solved");
     expect(out.saving?.lossSavingW).toBeGreaterThan(0);
     expect(out.saving?.hottestTjReductionK).toBeGreaterThan(0);
-    for (const k of ["element.line1High.peakRepetitiveCurrentA", "element.line2Low.reverseV", "element.line1Low.reverseRatingV", "capacitor.rippleCurrentRmsA", "capacitor.rippleRatingA"]) {
+    for (const k of [
+      "element.line1High.peakRepetitiveCurrentA",
+      "element.line2Low.reverseV",
+      "element.line1Low.reverseRatingV",
+      "capacitor.rippleCurrentRmsA",
+      "capacitor.rippleRatingA",
+    ]) {
       expect(Number.isFinite(out.metrics[k])).toBe(true);
     }
   });
@@ -40,7 +51,11 @@ describe("bridge procedures over HTTP (tRPC)", () => {
   const cases: [string, unknown, (string | number)[]][] = [
     ["zero frequency", { ...ac, frequencyHz: 0 }, ["frequencyHz"]],
     ["a negative capacitance", { ...ac, capacitanceF: "-10 uF" }, ["capacitanceF"]],
-    ["a stage kind that cannot sit in a bridge", { ...ac, bridge: { all: { kind: "catalog-part", partId: "demo-pfet-40v-12mohm" } } }, ["bridge", "all", "kind"]],
+    [
+      "a stage kind that cannot sit in a bridge",
+      { ...ac, bridge: { all: { kind: "catalog-part", partId: "demo-pfet-40v-12mohm" } } },
+      ["bridge", "all", "kind"],
+    ],
   ];
   it.each(cases)("rejects %s with the field path", async (_name, input, path) => {
     const r = await postTrpc(app, "bridgeAc", input);

@@ -17,14 +17,26 @@ const requirement = {
   load: { kind: "constant-current", currentA: 3 },
   ambient: { minC: -40, maxC: 85 },
   transients: [],
-  turnOff: { loop: { resistanceOhm: "20 mOhm", inductanceH: "1 uH" }, capacitor: { capacitanceF: "470 uF", esrOhm: "20 mOhm" } },
+  turnOff: {
+    loop: { resistanceOhm: "20 mOhm", inductanceH: "1 uH" },
+    capacitor: { capacitanceF: "470 uF", esrOhm: "20 mOhm" },
+  },
 };
 type Verdict = { ruleId: string; outcome: string };
 type Candidate = { rules: { verdicts: Verdict[] }; turnOff?: { event: Record<string, unknown> } };
 const review = procedureInvoker(demoContext())("review");
 async function run(datasheetMax?: Record<string, unknown>, extra: Record<string, unknown> = {}) {
   if (review === undefined) throw new Error("no review");
-  const out = (await review({ requirement, candidates: [{ stage: idealDiode(), ...(datasheetMax ? { datasheetMax: { rdsOnFactor: 1, forwardVoltageFactor: 1, ...datasheetMax } } : {}) }], ...extra })) as {
+  const out = (await review({
+    requirement,
+    candidates: [
+      {
+        stage: idealDiode(),
+        ...(datasheetMax ? { datasheetMax: { rdsOnFactor: 1, forwardVoltageFactor: 1, ...datasheetMax } } : {}),
+      },
+    ],
+    ...extra,
+  })) as {
     candidates: Candidate[];
     assumptions: string[];
     monteCarlo?: { dropV?: { p5: number; p95: number } };
@@ -45,7 +57,9 @@ describe("control-parameter tolerances in the review", () => {
     const slow = await run({ turnOffDelayS: "4 us" });
     const worst = slow.candidates[0]?.turnOff?.event;
     const peak = (r: Record<string, unknown> | undefined) => Number(r?.["peakReverseCurrentA"]);
-    expect(slow.assumptions.some((a) => /datasheet maximum timing \(reverse threshold 0\.03 V, delay 0\.000004 s\)/.test(a))).toBe(true);
+    expect(
+      slow.assumptions.some((a) => /datasheet maximum timing \(reverse threshold 0\.03 V, delay 0\.000004 s\)/.test(a)),
+    ).toBe(true);
     // Input shorted, about 13 V on the 1 µH loop: di/dt = ΔV/L ≈ 13 A/µs, so 2 µs more delay adds
     // about 27 A (the loop's resistance and the capacitor's fall take a little off).
     const slope = Math.abs(Number(typical?.["initialSlopeAPerS"]));
@@ -58,8 +72,19 @@ describe("control-parameter tolerances in the review", () => {
 
   it("refuses a start voltage on a stage without one, naming the field", async () => {
     if (review === undefined) throw new Error("no review");
-    const schottky = { kind: "schottky-diode", diode: { model: "shockley", saturationCurrentA: "40 uA", ideality: 1.15, seriesResistanceOhm: "18 mOhm" }, reverseRatingV: 60, tjMaxC: 175, thermal: { kind: "junction-ambient", rthJaKPerW: 35 } };
-    await expect(review({ requirement: { ...requirement, turnOff: undefined }, candidates: [{ stage: schottky, datasheetMax: { rdsOnFactor: 1, forwardVoltageFactor: 1, startV: 5 } }] })).rejects.toThrow(/candidates\.0\.datasheetMax\.startV|no start voltage/);
+    const schottky = {
+      kind: "schottky-diode",
+      diode: { model: "shockley", saturationCurrentA: "40 uA", ideality: 1.15, seriesResistanceOhm: "18 mOhm" },
+      reverseRatingV: 60,
+      tjMaxC: 175,
+      thermal: { kind: "junction-ambient", rthJaKPerW: 35 },
+    };
+    await expect(
+      review({
+        requirement: { ...requirement, turnOff: undefined },
+        candidates: [{ stage: schottky, datasheetMax: { rdsOnFactor: 1, forwardVoltageFactor: 1, startV: 5 } }],
+      }),
+    ).rejects.toThrow(/candidates\.0\.datasheetMax\.startV|no start voltage/);
   });
 
   it("refuses a datasheet maximum below the typical value", async () => {
@@ -67,7 +92,14 @@ describe("control-parameter tolerances in the review", () => {
   });
 
   it("Monte Carlo takes a start-voltage tolerance (V): near the start voltage, some samples run on the body diode", async () => {
-    const out = await run(undefined, { monteCarlo: { samples: 400, seed: 7, supplyV: "9 V", tolerances: [{ parameter: "startV", distribution: "uniform", halfWidth: 7 }] } });
+    const out = await run(undefined, {
+      monteCarlo: {
+        samples: 400,
+        seed: 7,
+        supplyV: "9 V",
+        tolerances: [{ parameter: "startV", distribution: "uniform", halfWidth: 7 }],
+      },
+    });
     const d = out.monteCarlo?.dropV;
     expect(d?.p5).toBeLessThan(0.1);
     expect(d?.p95).toBeGreaterThan(0.3);
@@ -76,13 +108,27 @@ describe("control-parameter tolerances in the review", () => {
 
 describe("Monte Carlo start-voltage draws against the uniform distribution's closed form", () => {
   it("the share of samples below start is (s0 + h − Vin)/(2h) within 3 binomial standard deviations", () => {
-    const stage = toStageModel(stageSpec.parse(idealDiode()), { kind: "junction-ambient", rthJaKPerW: 45 }, ["stage"], []);
+    const stage = toStageModel(
+      stageSpec.parse(idealDiode()),
+      { kind: "junction-ambient", rthJaKPerW: 45 },
+      ["stage"],
+      [],
+    );
     const samples = 2000;
     const h = 4;
     let body = 0;
     let inputV = 0;
     monteCarlo(
-      { stage, supplyV: 5, ambientC: 25, sourceResistanceOhm: 0.03, load: { kind: "constant-current", currentA: 1 }, tolerances: [{ parameter: "startV", distribution: "uniform", halfWidth: h }], samples, seed: 11 },
+      {
+        stage,
+        supplyV: 5,
+        ambientC: 25,
+        sourceResistanceOhm: 0.03,
+        load: { kind: "constant-current", currentA: 1 },
+        tolerances: [{ parameter: "startV", distribution: "uniform", halfWidth: h }],
+        samples,
+        seed: 11,
+      },
       (s) => {
         if (!("point" in s.result)) return;
         inputV = s.result.point.stageInputV;

@@ -63,6 +63,9 @@ describe("omitting an input with a default adds the default to assumptions", () 
     }
     const added = after.filter((a) => !before.has(a));
     const field = String(path.at(-1));
-    expect(added.find((a) => a.includes(field)), `${procedure} without ${path.join(".")}: new assumptions ${JSON.stringify(added)}`).toBeDefined();
+    expect(
+      added.find((a) => a.includes(field)),
+      `${procedure} without ${path.join(".")}: new assumptions ${JSON.stringify(added)}`,
+    ).toBeDefined();
   });
 });

@@ -8,14 +8,30 @@ import { cToK } from "../../domain/physics/constants.js";
 import { type DiodeParams, diodeVoltageV } from "../../domain/physics/diode.js";
 import { demoContext, postTrpc, testApp } from "../helpers/app.js";
 
-type ErrBody = { error: { data: { httpStatus: number; backstop: { code: string; issues: { path: (string | number)[]; message: string }[] } } } };
+type ErrBody = {
+  error: {
+    data: { httpStatus: number; backstop: { code: string; issues: { path: (string | number)[]; message: string }[] } };
+  };
+};
 
 const caller = appRouter.createCaller(demoContext());
-const example = JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "fit.json"), "utf8")) as { input: Parameters<typeof caller.fit>[0] };
+const example = JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "fit.json"), "utf8")) as {
+  input: Parameters<typeof caller.fit>[0];
+};
 
 // Points from the model itself (diode.ts, checked against ngspice in test/domain/diode.test.ts).
-const truth: DiodeParams = { saturationCurrentA: 1e-8, ideality: 1.7, seriesResistanceOhm: 0.05, energyGapEv: 1.11, saturationTempExponent: 3, nominalTempK: cToK(25) };
-const pnPoints = [0.01, 0.05, 0.2, 0.5, 1, 2, 4].map((currentA) => ({ currentA, voltageV: diodeVoltageV(truth, currentA, cToK(25)) }));
+const truth: DiodeParams = {
+  saturationCurrentA: 1e-8,
+  ideality: 1.7,
+  seriesResistanceOhm: 0.05,
+  energyGapEv: 1.11,
+  saturationTempExponent: 3,
+  nominalTempK: cToK(25),
+};
+const pnPoints = [0.01, 0.05, 0.2, 0.5, 1, 2, 4].map((currentA) => ({
+  currentA,
+  voltageV: diodeVoltageV(truth, currentA, cToK(25)),
+}));
 const pnStage = (points: unknown[], extra: object = {}) => ({
   kind: "pn-diode",
   diode: { model: "points", points, ...extra },
@@ -23,7 +39,12 @@ const pnStage = (points: unknown[], extra: object = {}) => ({
   tjMaxC: 150,
   thermal: { kind: "junction-ambient", rthJaKPerW: 50 },
 });
-const op = (stage: unknown) => ({ stage, supplyV: "12 V", load: { kind: "constant-current", currentA: 1 }, ambientC: 25 });
+const op = (stage: unknown) => ({
+  stage,
+  supplyV: "12 V",
+  load: { kind: "constant-current", currentA: 1 },
+  ambientC: 25,
+});
 
 describe("fit procedure", () => {
   it("fits the example's eight forward points at two temperatures, within the 2 % gate, and matches its contract", async () => {
@@ -49,7 +70,9 @@ describe("fit procedure", () => {
 
   it("takes the curve-points form in an analysis and records the fit's residuals in assumptions", async () => {
     const r = await caller.operatingPoint(op(pnStage(pnPoints)) as never);
-    expect(r.assumptions.some((a) => /stage\.diode: Is, n, Rs fitted \(Eg held\): least-squares fit to 7 points/.test(a))).toBe(true);
+    expect(
+      r.assumptions.some((a) => /stage\.diode: Is, n, Rs fitted \(Eg held\): least-squares fit to 7 points/.test(a)),
+    ).toBe(true);
   });
 
   const { app } = testApp();
@@ -67,22 +90,43 @@ describe("fit procedure", () => {
 
   it("refuses a forward voltage falling with current, naming both points", async () => {
     const falling = pnPoints.map((p, i) => (i === 2 ? { ...p, voltageV: 0.3 } : p));
-    const r = await postTrpc(app, "fit", { curve: "diode-forward", junction: "pn", diode: { model: "points", points: falling } });
+    const r = await postTrpc(app, "fit", {
+      curve: "diode-forward",
+      junction: "pn",
+      diode: { model: "points", points: falling },
+    });
     expect(r.status).toBe(400);
     const b = (r.body as ErrBody).error.data.backstop;
     expect(b.issues.map((i) => i.path.join("."))).toEqual(["diode.points.1", "diode.points.2"]);
   });
 
   it("fits Rds(on)(Tj), Zth(t) and IR(Tj, VR) curves to the forms a part takes", async () => {
-    const rds = await caller.fit({ curve: "rds-on-temperature", points: [-40, 25, 100, 175].map((tjC) => ({ tjC, rdsOnOhm: 0.01 * ((tjC + 273.15) / 298.15) ** 2.2 })) });
+    const rds = await caller.fit({
+      curve: "rds-on-temperature",
+      points: [-40, 25, 100, 175].map((tjC) => ({ tjC, rdsOnOhm: 0.01 * ((tjC + 273.15) / 298.15) ** 2.2 })),
+    });
     expect(rds.model).toEqual({ law: "power", exponent: expect.closeTo(2.2, 9) });
     const times = Array.from({ length: 9 }, (_, i) => 1e-4 * 10 ** (i / 2));
-    const zth = await caller.fit({ curve: "zth", steadyKPerW: 2, points: times.map((timeS) => ({ timeS, zthKPerW: 0.5 * -Math.expm1(-timeS / 1e-3) + 1.5 * -Math.expm1(-timeS / 0.3) })) });
+    const zth = await caller.fit({
+      curve: "zth",
+      steadyKPerW: 2,
+      points: times.map((timeS) => ({
+        timeS,
+        zthKPerW: 0.5 * -Math.expm1(-timeS / 1e-3) + 1.5 * -Math.expm1(-timeS / 0.3),
+      })),
+    });
     expect(zth.model).toMatchObject({ kind: "foster" });
     expect(zth.quality.worstFraction).toBeLessThan(1e-6);
     const leak = await caller.fit({
       curve: "reverse-leakage",
-      points: [25, 125].map((tjC) => ({ tjC, reverseV: 40, currentA: 1e-5 * ((tjC + 273.15) / 298.15) ** 2 * Math.exp(-(0.65 / 8.617333262e-5) * (1 / (tjC + 273.15) - 1 / 298.15)) })),
+      points: [25, 125].map((tjC) => ({
+        tjC,
+        reverseV: 40,
+        currentA:
+          1e-5 *
+          ((tjC + 273.15) / 298.15) ** 2 *
+          Math.exp(-(0.65 / 8.617333262e-5) * (1 / (tjC + 273.15) - 1 / 298.15)),
+      })),
     });
     expect(leak.method).toBe("exact");
     expect(leak.parameters.find((p) => p.name === "barrierEv")?.value).toBeCloseTo(0.65, 6);

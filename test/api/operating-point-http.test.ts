@@ -9,7 +9,11 @@ const good = {
   ambientC: 85,
 };
 
-type ErrBody = { error: { data: { httpStatus: number; backstop: { code: string; issues: { path: (string | number)[]; message: string }[] } } } };
+type ErrBody = {
+  error: {
+    data: { httpStatus: number; backstop: { code: string; issues: { path: (string | number)[]; message: string }[] } };
+  };
+};
 
 describe("operatingPoint over HTTP (tRPC)", () => {
   const { app, logs } = testApp();
@@ -33,13 +37,50 @@ describe("operatingPoint over HTTP (tRPC)", () => {
 
   const cases: [string, unknown, (string | number)[]][] = [
     ["missing field", { ...good, supplyV: undefined }, ["supplyV"]],
-    ["a voltage where amps are due", { ...good, load: { kind: "constant-current", currentA: "5 V" } }, ["load", "currentA"]],
+    [
+      "a voltage where amps are due",
+      { ...good, load: { kind: "constant-current", currentA: "5 V" } },
+      ["load", "currentA"],
+    ],
     ["a negative resistance", { ...good, sourceResistanceOhm: -0.1 }, ["sourceResistanceOhm"]],
     ["NaN", { ...good, ambientC: "NaN" }, ["ambientC"]],
-    ["a string where a number is due", { ...good, stage: { kind: "pn-diode", diode: { model: "shockley", saturationCurrentA: 1e-9, ideality: "abc", seriesResistanceOhm: 0 }, reverseRatingV: 100, tjMaxC: 150, thermal: { kind: "junction-ambient", rthJaKPerW: 50 } } }, ["stage", "diode", "ideality"]],
+    [
+      "a string where a number is due",
+      {
+        ...good,
+        stage: {
+          kind: "pn-diode",
+          diode: { model: "shockley", saturationCurrentA: 1e-9, ideality: "abc", seriesResistanceOhm: 0 },
+          reverseRatingV: 100,
+          tjMaxC: 150,
+          thermal: { kind: "junction-ambient", rthJaKPerW: 50 },
+        },
+      },
+      ["stage", "diode", "ideality"],
+    ],
     ["an unknown part id", { ...good, stage: { kind: "catalog-part", partId: "no-such-part" } }, ["stage", "partId"]],
     ["an unknown stage kind", { ...good, stage: { kind: "vacuum-tube" } }, ["stage", "kind"]],
-    ["points that cannot be fitted", { ...good, stage: { kind: "schottky-diode", diode: { model: "points", points: [{ currentA: 0.1, voltageV: 0.3 }, { currentA: 1, voltageV: 0.6 }, { currentA: 10, voltageV: 0.65 }] }, reverseRatingV: 40, tjMaxC: 150, thermal: { kind: "junction-ambient", rthJaKPerW: 50 } } }, ["stage", "diode", "points"]],
+    [
+      "points that cannot be fitted",
+      {
+        ...good,
+        stage: {
+          kind: "schottky-diode",
+          diode: {
+            model: "points",
+            points: [
+              { currentA: 0.1, voltageV: 0.3 },
+              { currentA: 1, voltageV: 0.6 },
+              { currentA: 10, voltageV: 0.65 },
+            ],
+          },
+          reverseRatingV: 40,
+          tjMaxC: 150,
+          thermal: { kind: "junction-ambient", rthJaKPerW: 50 },
+        },
+      },
+      ["stage", "diode", "points"],
+    ],
   ];
   it.each(cases)("rejects %s with 400 naming the field", async (_what, input, path) => {
     const r = await postTrpc(app, "operatingPoint", input);
@@ -50,7 +91,11 @@ describe("operatingPoint over HTTP (tRPC)", () => {
   });
 
   it("rejects malformed JSON with 400 and keeps serving", async () => {
-    const res = await app.request("/trpc/operatingPoint", { method: "POST", headers: { "content-type": "application/json" }, body: "{not json" });
+    const res = await app.request("/trpc/operatingPoint", {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: "{not json",
+    });
     expect(res.status).toBe(400);
     expect((await postTrpc(app, "operatingPoint", good)).status).toBe(200);
   });

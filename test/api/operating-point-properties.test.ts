@@ -22,7 +22,11 @@ describe("operatingPoint over random valid inputs (property, fast-check)", () =>
     const load = fc.oneof(
       fc.record({ kind: fc.constant("constant-current"), currentA: fc.double({ min: 0, max: 200, noNaN: true }) }),
       fc.record({ kind: fc.constant("resistive"), resistanceOhm: fc.double({ min: 1e-3, max: 1e6, noNaN: true }) }),
-      fc.record({ kind: fc.constant("constant-power"), powerW: fc.double({ min: 0.01, max: 5000, noNaN: true }), minVoltageV: fc.double({ min: 0, max: 50, noNaN: true }) }),
+      fc.record({
+        kind: fc.constant("constant-power"),
+        powerW: fc.double({ min: 0.01, max: 5000, noNaN: true }),
+        minVoltageV: fc.double({ min: 0, max: 50, noNaN: true }),
+      }),
     );
     await fc.assert(
       fc.asyncProperty(
@@ -32,7 +36,13 @@ describe("operatingPoint over random valid inputs (property, fast-check)", () =>
         load,
         fc.double({ min: -60, max: 150, noNaN: true }),
         async (partId, supplyV, sourceResistanceOhm, ld, ambientC) => {
-          const r = (await invoke({ stage: { kind: "catalog-part", partId }, supplyV, sourceResistanceOhm, load: ld, ambientC })) as { outcome: string };
+          const r = (await invoke({
+            stage: { kind: "catalog-part", partId },
+            supplyV,
+            sourceResistanceOhm,
+            load: ld,
+            ambientC,
+          })) as { outcome: string };
           expect(typeof r.outcome).toBe("string");
           expect(allFinite(r)).toBe(true);
         },

@@ -20,7 +20,11 @@ const cases = [
   { id: "op-not-an-object", procedure: "operatingPoint", input: 42 },
   { id: "op-undefined", procedure: "operatingPoint", input: undefined },
   { id: "op-ruleset-unknown", procedure: "operatingPoint", input: { ...op, ruleSet: "no-such-set" } },
-  { id: "op-computed-metric", procedure: "operatingPoint", input: { ...op, ruleSet: "consumer", ruleMetrics: { tjC: 1 } } },
+  {
+    id: "op-computed-metric",
+    procedure: "operatingPoint",
+    input: { ...op, ruleSet: "consumer", ruleMetrics: { tjC: 1 } },
+  },
   { id: "rules-show-unknown", procedure: "rules.show", input: { id: "nope" } },
   { id: "rules-list", procedure: "rules.list", input: undefined },
   { id: "op-with-rules", procedure: "operatingPoint", input: { ...op, ruleSet: "consumer" } },
@@ -32,7 +36,13 @@ async function answer(call: () => unknown): Promise<Seen> {
     return { result: JSON.stringify(await call()) };
   } catch (e) {
     const cause = (e as { cause?: unknown }).cause;
-    return { name: (e as Error).name, code: (e as { code?: unknown }).code, status: httpStatusOf(e), body: errorBodyOf(e), causeName: (cause as Error | undefined)?.name };
+    return {
+      name: (e as Error).name,
+      code: (e as { code?: unknown }).code,
+      status: httpStatusOf(e),
+      body: errorBodyOf(e),
+      causeName: (cause as Error | undefined)?.name,
+    };
   }
 }
 /** The tRPC caller's procedure at a dotted router path. */
@@ -41,7 +51,12 @@ function callerProcedure(ctx: Context, path: string): (input: unknown) => Promis
   for (const part of path.split(".")) node = (node as Record<string, unknown>)[part];
   return node as (input: unknown) => Promise<unknown>;
 }
-const label = (o: ProcedureObservation) => ({ path: o.path, ok: o.ok, outcome: o.ok ? outcomeLabel(o.data) : errorBodyOf(o.error).code, finite: Number.isFinite(o.seconds) && o.seconds >= 0 });
+const label = (o: ProcedureObservation) => ({
+  path: o.path,
+  ok: o.ok,
+  outcome: o.ok ? outcomeLabel(o.data) : errorBodyOf(o.error).code,
+  finite: Number.isFinite(o.seconds) && o.seconds >= 0,
+});
 
 describe("the procedure table", () => {
   it("declares each procedure once, with its input and output contract, and the router and the listing hold exactly those", () => {
@@ -62,7 +77,9 @@ describe("the procedure table", () => {
     expect(new Set(examples.map((c) => c.procedure)).size).toBe(PROCEDURE_TABLE.length);
     for (const c of examples) {
       const result = await invoker(c.procedure)?.(c.input);
-      const parsed = procedureEntries().find((e) => e.path === c.procedure)?.output.safeParse(result);
+      const parsed = procedureEntries()
+        .find((e) => e.path === c.procedure)
+        ?.output.safeParse(result);
       expect(parsed?.success ? "ok" : JSON.stringify(parsed?.error.issues.slice(0, 3)), c.id).toBe("ok");
     }
   });
@@ -90,10 +107,30 @@ describe("the procedure table", () => {
   it("a bad input is BAD_REQUEST (400) with the zod error as its cause; a handler's own throw is INTERNAL_SERVER_ERROR (500) with no message of its own", async () => {
     const invoke = procedureInvoker(demoContext())("operatingPoint");
     const bad = await answer(() => invoke?.now(42));
-    expect(bad).toMatchObject({ name: "TRPCError", code: "BAD_REQUEST", status: 400, causeName: "ZodError", body: { code: "invalid-input" } });
-    const broken = procedureInvoker({ ...demoContext(), catalog: { find: () => { throw new Error("disk on fire"); }, list: () => [] } })("operatingPoint");
+    expect(bad).toMatchObject({
+      name: "TRPCError",
+      code: "BAD_REQUEST",
+      status: 400,
+      causeName: "ZodError",
+      body: { code: "invalid-input" },
+    });
+    const broken = procedureInvoker({
+      ...demoContext(),
+      catalog: {
+        find: () => {
+          throw new Error("disk on fire");
+        },
+        list: () => [],
+      },
+    })("operatingPoint");
     const seen = await answer(() => broken?.now(base.find((c) => c.procedure === "operatingPoint")?.input));
-    expect(seen).toMatchObject({ name: "TRPCError", code: "INTERNAL_SERVER_ERROR", status: 500, causeName: "Error", body: { code: "internal", issues: [] } });
+    expect(seen).toMatchObject({
+      name: "TRPCError",
+      code: "INTERNAL_SERVER_ERROR",
+      status: 500,
+      causeName: "Error",
+      body: { code: "internal", issues: [] },
+    });
     expect(JSON.stringify(seen)).not.toContain("disk on fire");
   });
 

@@ -8,13 +8,26 @@ import { oringOutput } from "../../contracts/oring.js";
 import { turnOffOutput } from "../../contracts/turn-off.js";
 import { postTrpc, testApp } from "../helpers/app.js";
 
-type ErrBody = { error: { data: { httpStatus: number; backstop: { code: string; issues: { path: (string | number)[]; message: string }[] } } } };
+type ErrBody = {
+  error: {
+    data: { httpStatus: number; backstop: { code: string; issues: { path: (string | number)[]; message: string }[] } };
+  };
+};
 const example = (p: string): Record<string, unknown> =>
-  (JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", `${p}.json`), "utf8")) as { input: Record<string, unknown> }).input;
+  (
+    JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", `${p}.json`), "utf8")) as {
+      input: Record<string, unknown>;
+    }
+  ).input;
 
 describe("reverse-current procedures over HTTP (tRPC)", () => {
   const { app } = testApp();
-  const outputs = { turnOff: turnOffOutput, holdUp: holdUpOutput, oring: oringOutput, batteryCharge: batteryChargeOutput } as const;
+  const outputs = {
+    turnOff: turnOffOutput,
+    holdUp: holdUpOutput,
+    oring: oringOutput,
+    batteryCharge: batteryChargeOutput,
+  } as const;
 
   it.each(Object.keys(outputs))("%s answers its example within its output contract", async (proc) => {
     const r = await postTrpc(app, proc, example(proc));
@@ -38,15 +51,54 @@ describe("reverse-current procedures over HTTP (tRPC)", () => {
     [
       "a state-of-charge curve that is not monotonic",
       "batteryCharge",
-      { ...bat, source: { ...bat.source, ocvPoints: [{ soc: 0, voltageV: 12.9 }, { soc: 0.5, voltageV: 13.6 }, { soc: 1, voltageV: 13.1 }] } },
+      {
+        ...bat,
+        source: {
+          ...bat.source,
+          ocvPoints: [
+            { soc: 0, voltageV: 12.9 },
+            { soc: 0.5, voltageV: 13.6 },
+            { soc: 1, voltageV: 13.1 },
+          ],
+        },
+      },
       ["source", "ocvPoints", 2, "voltageV"],
     ],
-    ["SoC points out of order", "batteryCharge", { ...bat, source: { ...bat.source, ocvPoints: [{ soc: 0.5, voltageV: 12.9 }, { soc: 0.2, voltageV: 13.6 }] } }, ["source", "ocvPoints", 1, "soc"]],
-    ["a negative capacitance", "turnOff", { ...example("turnOff"), capacitor: { capacitanceF: "-470 uF", esrOhm: 0.02 } }, ["capacitor", "capacitanceF"]],
-    ["a negative hold-up capacitance", "holdUp", { ...example("holdUp"), capacitor: { capacitanceF: -1e-3, esrOhm: 0.02 } }, ["capacitor", "capacitanceF"]],
+    [
+      "SoC points out of order",
+      "batteryCharge",
+      {
+        ...bat,
+        source: {
+          ...bat.source,
+          ocvPoints: [
+            { soc: 0.5, voltageV: 12.9 },
+            { soc: 0.2, voltageV: 13.6 },
+          ],
+        },
+      },
+      ["source", "ocvPoints", 1, "soc"],
+    ],
+    [
+      "a negative capacitance",
+      "turnOff",
+      { ...example("turnOff"), capacitor: { capacitanceF: "-470 uF", esrOhm: 0.02 } },
+      ["capacitor", "capacitanceF"],
+    ],
+    [
+      "a negative hold-up capacitance",
+      "holdUp",
+      { ...example("holdUp"), capacitor: { capacitanceF: -1e-3, esrOhm: 0.02 } },
+      ["capacitor", "capacitanceF"],
+    ],
     ["zero sources", "oring", { ...example("oring"), sources: [] }, ["sources"]],
     ["an input that does not fall", "turnOff", { ...example("turnOff"), inputAfterV: "14 V" }, ["inputAfterV"]],
-    ["a controller stage without turn-off timing", "turnOff", { ...example("turnOff"), stage: { kind: "catalog-part", partId: "demo-integrated-ideal-diode-5a-36v" } }, ["turnOff"]],
+    [
+      "a controller stage without turn-off timing",
+      "turnOff",
+      { ...example("turnOff"), stage: { kind: "catalog-part", partId: "demo-integrated-ideal-diode-5a-36v" } },
+      ["turnOff"],
+    ],
     ["a load without its minimum voltage", "turnOff", { ...example("turnOff"), loadMinV: undefined }, ["loadMinV"]],
   ];
   it.each(cases)("rejects %s with 400 naming the field", async (_what, proc, input, path) => {

@@ -21,7 +21,12 @@ describe("review with a turn-off section", () => {
     if (ideal === undefined || t === undefined) throw new Error("no turn-off result");
     // Source: the same model through the turnOff procedure (its own example's loop, this Tj, and
     // the candidate's datasheet-maximum timing, which the review's event runs at).
-    const candidate = (example.candidates as { stage: { partId?: string }; datasheetMax?: { reverseThresholdV?: string; turnOffDelayS?: string } }[]).find((c) => c.stage.partId === "demo-ideal-diode-60v-3mohm");
+    const candidate = (
+      example.candidates as {
+        stage: { partId?: string };
+        datasheetMax?: { reverseThresholdV?: string; turnOffDelayS?: string };
+      }[]
+    ).find((c) => c.stage.partId === "demo-ideal-diode-60v-3mohm");
     const timing = candidate?.datasheetMax;
     const direct = turnOffOutput.parse(
       await turnOff({
@@ -33,7 +38,9 @@ describe("review with a turn-off section", () => {
         load: example.requirement.load,
         loadMinV: example.requirement.loadMinV,
         tjC: t.tjC,
-        ...(timing?.reverseThresholdV === undefined || timing.turnOffDelayS === undefined ? {} : { turnOff: { reverseThresholdV: timing.reverseThresholdV, turnOffDelayS: timing.turnOffDelayS } }),
+        ...(timing?.reverseThresholdV === undefined || timing.turnOffDelayS === undefined
+          ? {}
+          : { turnOff: { reverseThresholdV: timing.reverseThresholdV, turnOffDelayS: timing.turnOffDelayS } }),
       }),
     );
     if (direct.outcome !== "blocks" || t.event.outcome !== "blocks") throw new Error(direct.outcome);
@@ -54,27 +61,52 @@ describe("review with a turn-off section", () => {
     const part = ctx.catalog.find("demo-integrated-ideal-diode-5a-36v");
     if (part === undefined) throw new Error("demo part missing");
     const { avalancheEnergyJ: _rating, ...unrated } = part.stage as typeof part.stage & { avalancheEnergyJ?: number };
-    const gap = reviewOutput.parse(await review({ ...example, candidates: [{ stage: unrated, turnOffTiming: example.candidates[3].turnOffTiming }], monteCarlo: undefined }));
-    expect(gap.candidates[0]?.rules.verdicts.find((v) => v.ruleId === "avalanche-energy")?.notApplicableCode).toBe("missing-value");
+    const gap = reviewOutput.parse(
+      await review({
+        ...example,
+        candidates: [{ stage: unrated, turnOffTiming: example.candidates[3].turnOffTiming }],
+        monteCarlo: undefined,
+      }),
+    );
+    expect(gap.candidates[0]?.rules.verdicts.find((v) => v.ruleId === "avalanche-energy")?.notApplicableCode).toBe(
+      "missing-value",
+    );
   });
 
   it("with a rating too small, the avalanche rule fails the candidate; without the section the rules are out of scope", async () => {
     if (review === undefined) throw new Error("review missing");
     const stage = { kind: "catalog-part", partId: "demo-ideal-diode-60v-3mohm" };
     const base = { ...example, candidates: [{ stage }], monteCarlo: undefined };
-    const plain = reviewOutput.parse(await review({ ...base, requirement: { ...example.requirement, turnOff: undefined } }));
+    const plain = reviewOutput.parse(
+      await review({ ...base, requirement: { ...example.requirement, turnOff: undefined } }),
+    );
     expect(plain.candidates[0]?.turnOff).toBeUndefined();
-    expect(plain.candidates[0]?.rules.verdicts.find((v) => v.ruleId === "avalanche-energy")?.notApplicableCode).toBe("not-required");
+    expect(plain.candidates[0]?.rules.verdicts.find((v) => v.ruleId === "avalanche-energy")?.notApplicableCode).toBe(
+      "not-required",
+    );
     // A 200 µH loop (a long harness), 4.7 mF at the output and a slow turn-off (1 ms): the reverse
     // current reaches tens of amperes and ½·L·I² exceeds the derated 150 mJ rating.
-    const hard = { ...example.requirement, turnOff: { loop: { resistanceOhm: "20 mOhm", inductanceH: "200 uH" }, capacitor: { capacitanceF: "4.7 mF", esrOhm: "20 mOhm" } } };
-    const r = reviewOutput.parse(await review({ ...base, requirement: hard, candidates: [{ stage, turnOffTiming: { reverseThresholdV: "30 mV", turnOffDelayS: "1 ms" } }], curves: true }));
+    const hard = {
+      ...example.requirement,
+      turnOff: {
+        loop: { resistanceOhm: "20 mOhm", inductanceH: "200 uH" },
+        capacitor: { capacitanceF: "4.7 mF", esrOhm: "20 mOhm" },
+      },
+    };
+    const r = reviewOutput.parse(
+      await review({
+        ...base,
+        requirement: hard,
+        candidates: [{ stage, turnOffTiming: { reverseThresholdV: "30 mV", turnOffDelayS: "1 ms" } }],
+        curves: true,
+      }),
+    );
     const c = r.candidates[0];
     const e = c?.turnOff?.event;
     if (c === undefined || e === undefined || e.outcome !== "blocks") throw new Error("no event");
     const aval = c.rules.verdicts.find((v) => v.ruleId === "avalanche-energy");
     // Source: the rule's own expression on the numbers it read (150 mJ derated to Tj).
-    const limit = 0.15 * (175 - (c.turnOff?.tjC ?? 0)) / (175 - 25);
+    const limit = (0.15 * (175 - (c.turnOff?.tjC ?? 0))) / (175 - 25);
     expect(e.clamp?.absorbedJ ?? 0).toBeGreaterThan(limit);
     expect(aval?.outcome).toBe("fail");
     expect(c.verdict).toBe("fail");

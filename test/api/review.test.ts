@@ -7,7 +7,12 @@ import { reviewOutput } from "../../contracts/review.js";
 import { demoContext, postTrpc, testApp } from "../helpers/app.js";
 
 type Verdict = { ruleId: string; outcome: string; notApplicableCode: string | null };
-type Cand = { label: string; verdict: string; rules: { verdicts: Verdict[] }; metrics: Record<string, number | boolean> };
+type Cand = {
+  label: string;
+  verdict: string;
+  rules: { verdicts: Verdict[] };
+  metrics: Record<string, number | boolean>;
+};
 type Out = { candidates: Cand[]; ranking: { index: number; verdict: string }[] };
 
 const review = procedureInvoker(demoContext())("review");
@@ -40,20 +45,28 @@ describe("design review", () => {
   });
 
   it("a P-FET fails the reverse-current rule where sources are paralleled", async () => {
-    const r = await call({ requirement: { ...base, load: { kind: "constant-current", currentA: 3 }, parallelSources: true }, candidates: [pfet, idealDiode] });
+    const r = await call({
+      requirement: { ...base, load: { kind: "constant-current", currentA: 3 }, parallelSources: true },
+      candidates: [pfet, idealDiode],
+    });
     expect(verdictOf(r.candidates[0], "reverse-current-blocking")?.outcome).toBe("fail");
     expect(verdictOf(r.candidates[1], "reverse-current-blocking")?.outcome).toBe("pass");
     expect(r.candidates[0]?.verdict).toBe("fail");
   });
 
   it("a budget the requirement does not set puts its rule out of scope, not in doubt", async () => {
-    const r = await call({ requirement: { ...base, load: { kind: "constant-current", currentA: 3 } }, candidates: [idealDiode] });
+    const r = await call({
+      requirement: { ...base, load: { kind: "constant-current", currentA: 3 } },
+      candidates: [idealDiode],
+    });
     expect(verdictOf(r.candidates[0], "standby-quiescent")?.notApplicableCode).toBe("not-required");
     expect(r.candidates[0]?.verdict).not.toBe("incomplete");
   });
 
   it("the example review is deterministic and matches the output contract", async () => {
-    const line = JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "review.json"), "utf8")) as { input: unknown };
+    const line = JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "review.json"), "utf8")) as {
+      input: unknown;
+    };
     const a = JSON.stringify(await call(line.input));
     const b = JSON.stringify(await call(line.input));
     expect(a).toBe(b);
@@ -64,9 +77,18 @@ describe("design review", () => {
   // rulesets/: the clamp window sized by the review is the one the rule set then accepts.
   it("sizes the clamp window to the rule set's transient allowance, and a clamp at its edge passes", async () => {
     type Tr = { pulseId: string; clamp: { needed: unknown; clampMaxV?: number } };
-    const req12 = { supply: { class: "vehicle-12v-b" }, load: { kind: "constant-current", currentA: 3 }, ambient: { minC: -40, maxC: 85 }, transients: ["iso7637-2-pulse-1-12v"] };
+    const req12 = {
+      supply: { class: "vehicle-12v-b" },
+      load: { kind: "constant-current", currentA: 3 },
+      ambient: { minC: -40, maxC: 85 },
+      transients: ["iso7637-2-pulse-1-12v"],
+    };
     const windowOf = async (extra: Record<string, unknown>, ruleSet?: string) => {
-      const r = await call({ requirement: { ...req12, ...extra }, candidates: [idealDiode], ...(ruleSet ? { ruleSet } : {}) });
+      const r = await call({
+        requirement: { ...req12, ...extra },
+        candidates: [idealDiode],
+        ...(ruleSet ? { ruleSet } : {}),
+      });
       const t = (r.candidates[0] as unknown as { transients: Tr[] }).transients[0];
       return t?.clamp.clampMaxV;
     };
@@ -80,28 +102,61 @@ describe("design review", () => {
     // At a 25 °C lowest ambient the cold rule is the rating itself.
     expect(await windowOf({ ambient: { minC: 25, maxC: 85 } })).toBeCloseTo(60 - held, 9);
     const clampV = coldV - held;
-    const r = await call({ requirement: { ...req12, inputClamp: { standoffV: 16, clampV } }, candidates: [idealDiode] });
+    const r = await call({
+      requirement: { ...req12, inputClamp: { standoffV: 16, clampV } },
+      candidates: [idealDiode],
+    });
     expect(verdictOf(r.candidates[0], "fet-vds-reverse-transient")?.outcome).toBe("pass");
     expect(verdictOf(r.candidates[0], "fet-vds-reverse-transient-cold")?.outcome).toBe("pass");
   });
 
   const { app } = testApp();
   const bad: [string, unknown, string][] = [
-    ["min above max", { requirement: { ...base, supply: { class: "custom", minV: 30, nominalV: 24, maxV: 20 } }, candidates: [idealDiode] }, "requirement.supply.minV"],
-    ["ambient min above max", { requirement: { ...base, ambient: { minC: 90, maxC: 20 } }, candidates: [idealDiode] }, "requirement.ambient.minC"],
+    [
+      "min above max",
+      {
+        requirement: { ...base, supply: { class: "custom", minV: 30, nominalV: 24, maxV: 20 } },
+        candidates: [idealDiode],
+      },
+      "requirement.supply.minV",
+    ],
+    [
+      "ambient min above max",
+      { requirement: { ...base, ambient: { minC: 90, maxC: 20 } }, candidates: [idealDiode] },
+      "requirement.ambient.minC",
+    ],
     ["an empty candidate list", { requirement: base, candidates: [] }, "candidates"],
     [
       "a profile whose time does not increase",
-      { requirement: { ...base, startProfile: [{ timeS: 0, voltageV: 24 }, { timeS: 0.1, voltageV: 12 }, { timeS: 0.1, voltageV: 24 }] }, candidates: [idealDiode] },
+      {
+        requirement: {
+          ...base,
+          startProfile: [
+            { timeS: 0, voltageV: 24 },
+            { timeS: 0.1, voltageV: 12 },
+            { timeS: 0.1, voltageV: 24 },
+          ],
+        },
+        candidates: [idealDiode],
+      },
       "requirement.startProfile.2.timeS",
     ],
-    ["an unknown supply class", { requirement: { ...base, supply: { class: "moon-base" } }, candidates: [idealDiode] }, "requirement.supply.class"],
-    ["an unknown transient", { requirement: { ...base, transients: ["no-such-pulse"] }, candidates: [idealDiode] }, "requirement.transients.0"],
+    [
+      "an unknown supply class",
+      { requirement: { ...base, supply: { class: "moon-base" } }, candidates: [idealDiode] },
+      "requirement.supply.class",
+    ],
+    [
+      "an unknown transient",
+      { requirement: { ...base, transients: ["no-such-pulse"] }, candidates: [idealDiode] },
+      "requirement.transients.0",
+    ],
   ];
   it.each(bad)("rejects %s with 400 naming the field", async (_what, input, path) => {
     const r = await postTrpc(app, "review", input);
     expect(r.status).toBe(400);
-    const issues = (r.body as { error: { data: { backstop: { issues: { path: (string | number)[] }[] } } } }).error.data.backstop.issues;
+    const issues = (r.body as { error: { data: { backstop: { issues: { path: (string | number)[] }[] } } } }).error.data
+      .backstop.issues;
     expect(issues.map((i) => i.path.join("."))).toContain(path);
   });
 });

@@ -3,7 +3,14 @@ import { operatingPointOutput } from "../../contracts/operating-point.js";
 import { rulesEvaluateOutput, rulesListOutput, rulesShowOutput } from "../../contracts/rules.js";
 import { postTrpc, testApp } from "../helpers/app.js";
 
-type ErrBody = { error: { data: { httpStatus: number; backstop: { code: string; message: string; issues: { path: (string | number)[]; message: string }[] } } } };
+type ErrBody = {
+  error: {
+    data: {
+      httpStatus: number;
+      backstop: { code: string; message: string; issues: { path: (string | number)[]; message: string }[] };
+    };
+  };
+};
 const dataOf = (r: { body: Record<string, unknown> }) => (r.body as { result: { data: unknown } }).result.data;
 
 const opPoint = {
@@ -32,25 +39,58 @@ describe("rules procedures over HTTP (tRPC)", () => {
     expect(out.stamp.hash).toMatch(/^sha256:/);
     const bad = await postTrpc(app, "rules.show", { id: "nope" });
     expect(bad.status).toBe(400);
-    expect((bad.body as ErrBody).error.data.backstop).toMatchObject({ code: "unknown-rule-set", issues: [{ path: ["id"] }] });
+    expect((bad.body as ErrBody).error.data.backstop).toMatchObject({
+      code: "unknown-rule-set",
+      issues: [{ path: ["id"] }],
+    });
   });
 
   it("rules.evaluate gives verdicts with values, threshold and margin, stamped with the set", async () => {
-    const r = await postTrpc(app, "rules.evaluate", { ruleSet: "default", stageKind: "schottky-diode", metrics: { tjWorstC: 130 }, part: { tjMaxC: 150 } });
+    const r = await postTrpc(app, "rules.evaluate", {
+      ruleSet: "default",
+      stageKind: "schottky-diode",
+      metrics: { tjWorstC: 130 },
+      part: { tjMaxC: 150 },
+    });
     const out = rulesEvaluateOutput.parse(dataOf(r));
     const tj = out.result.verdicts.find((v) => v.ruleId === "tj-margin");
     // 130 °C against 150 − 25 = 125 °C: warn, margin −5 K (hand computed).
-    expect(tj).toMatchObject({ outcome: "warn", threshold: 125, margin: -5, values: { tjWorstC: 130, "part.tjMaxC": 150 } });
+    expect(tj).toMatchObject({
+      outcome: "warn",
+      threshold: 125,
+      margin: -5,
+      values: { tjWorstC: 130, "part.tjMaxC": 150 },
+    });
     expect(out.result.outcome).toBe("warn");
   });
 
   it("rules.evaluate with an inline set whose rule is unsafe is a 400 naming the rule and the column", async () => {
-    const set = { id: "acme", version: "1", description: "inline", rules: [{ id: "sneaky", title: "t", appliesTo: "all", expression: "tjWorstC <= import(1)", severity: "fail", source: "s", rationale: "r" }] };
+    const set = {
+      id: "acme",
+      version: "1",
+      description: "inline",
+      rules: [
+        {
+          id: "sneaky",
+          title: "t",
+          appliesTo: "all",
+          expression: "tjWorstC <= import(1)",
+          severity: "fail",
+          source: "s",
+          rationale: "r",
+        },
+      ],
+    };
     const r = await postTrpc(app, "rules.evaluate", { ruleSet: set, metrics: { tjWorstC: 1 } });
     expect(r.status).toBe(400);
     const body = (r.body as ErrBody).error.data.backstop;
     expect(body.code).toBe("invalid-rule-set");
-    expect(body.issues).toEqual([{ path: ["ruleSet", "rules", 0, "expression"], message: "rule sneaky, column 13: function 'import' is refused in the rules sandbox" }]);
+    expect(body.issues).toEqual([
+      {
+        path: ["ruleSet", "rules", 0, "expression"],
+        message: "rule sneaky, column 13: function 'import' is refused in the rules sandbox",
+      },
+    ]);
   });
 
   it("rules.evaluate refuses a metric outside the vocabulary, naming its path", async () => {
@@ -60,7 +100,11 @@ describe("rules procedures over HTTP (tRPC)", () => {
   });
 
   it("operatingPoint returns verdicts on its own point when a rule set is named", async () => {
-    const r = await postTrpc(app, "operatingPoint", { ...opPoint, ruleSet: "default", ruleMetrics: { reverseVMaxV: 14, parallelSources: true, holdUpRequired: false } });
+    const r = await postTrpc(app, "operatingPoint", {
+      ...opPoint,
+      ruleSet: "default",
+      ruleMetrics: { reverseVMaxV: 14, parallelSources: true, holdUpRequired: false },
+    });
     expect(r.status).toBe(200);
     const out = operatingPointOutput.parse(dataOf(r));
     if (out.outcome !== "solved") throw new Error(`expected solved, got ${out.outcome}`);
@@ -83,7 +127,12 @@ describe("rules procedures over HTTP (tRPC)", () => {
   });
 
   it("without a point (thermal runaway) the temperature rules are not applicable with the cause, and the set is never 'pass'", async () => {
-    const r = await postTrpc(app, "operatingPoint", { ...opPoint, load: { kind: "constant-current", currentA: 5 }, thermal: { kind: "junction-ambient", rthJaKPerW: 400 }, ruleSet: "default" });
+    const r = await postTrpc(app, "operatingPoint", {
+      ...opPoint,
+      load: { kind: "constant-current", currentA: 5 },
+      thermal: { kind: "junction-ambient", rthJaKPerW: 400 },
+      ruleSet: "default",
+    });
     const out = operatingPointOutput.parse(dataOf(r));
     expect(out.outcome).not.toBe("solved");
     const tj = out.rules?.verdicts.find((v) => v.ruleId === "tj-limit");

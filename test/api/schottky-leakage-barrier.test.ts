@@ -42,19 +42,30 @@ async function leakageAt125(reverseLeakage: Record<string, unknown>) {
     capacitor: { capacitanceF: "1000 uF", esrOhm: "30 mOhm" },
     load: { kind: "constant-power", powerW: 20, minVoltageV: "8 V" },
     tjC: "125 degC",
-    input: { kind: "falls", inputAfterV: "0 V", loop: { resistanceOhm: "20 mOhm", inductanceH: "1 uH" }, reverseRecoveryChargeC: "20 nC" },
+    input: {
+      kind: "falls",
+      inputAfterV: "0 V",
+      loop: { resistanceOhm: "20 mOhm", inductanceH: "1 uH" },
+      reverseRecoveryChargeC: "20 nC",
+    },
   } as never);
-  const body = JSON.parse(JSON.stringify(out)) as { assumptions: string[]; stages: { result: { reverseLeakageA: number } }[] };
+  const body = JSON.parse(JSON.stringify(out)) as {
+    assumptions: string[];
+    stages: { result: { reverseLeakageA: number } }[];
+  };
   return { leakageA: body.stages[0]?.result.reverseLeakageA ?? Number.NaN, assumptions: body.assumptions };
 }
 
 describe("a Schottky's reverse leakage follows thermionic emission, not the forward fit", () => {
-  it.each([0.5, 0.6, 0.75])("one 25 °C figure and ΦB = %s eV: the 125 °C leakage within a factor 2 of the closed form", async (barrierEv) => {
-    const { leakageA } = await leakageAt125({ currentA: "50 uA", tempC: 25, barrierEv });
-    const expected = closedForm(50e-6, 25, 125, barrierEv);
-    expect(leakageA / expected).toBeGreaterThan(0.5);
-    expect(leakageA / expected).toBeLessThan(2);
-  });
+  it.each([0.5, 0.6, 0.75])(
+    "one 25 °C figure and ΦB = %s eV: the 125 °C leakage within a factor 2 of the closed form",
+    async (barrierEv) => {
+      const { leakageA } = await leakageAt125({ currentA: "50 uA", tempC: 25, barrierEv });
+      const expected = closedForm(50e-6, 25, 125, barrierEv);
+      expect(leakageA / expected).toBeGreaterThan(0.5);
+      expect(leakageA / expected).toBeLessThan(2);
+    },
+  );
 
   it("no barrier given: the stated default (0.7 eV) is applied and said in the assumptions", async () => {
     const { leakageA, assumptions } = await leakageAt125({ currentA: "50 uA", tempC: 25 });
@@ -73,7 +84,13 @@ describe("a Schottky's reverse leakage follows thermionic emission, not the forw
   });
 
   it("the voltage power m scales the figure from its voltage", async () => {
-    const { leakageA } = await leakageAt125({ currentA: "50 uA", tempC: 25, barrierEv: 0.6, reverseV: 40, voltageExponent: 0.5 });
+    const { leakageA } = await leakageAt125({
+      currentA: "50 uA",
+      tempC: 25,
+      barrierEv: 0.6,
+      reverseV: 40,
+      voltageExponent: 0.5,
+    });
     // holdUp's reverse voltage is the 12 V held output with the input at 0 V.
     const ratio = leakageA / (closedForm(50e-6, 25, 125, 0.6) * Math.sqrt(12 / 40));
     expect(Math.abs(ratio - 1)).toBeLessThan(0.02);
@@ -81,7 +98,9 @@ describe("a Schottky's reverse leakage follows thermionic emission, not the forw
 
   it("a PN diode refuses a barrier height, naming the field", async () => {
     const stage = { ...schottky({ currentA: "1 uA", tempC: 25, barrierEv: 0.6 }), kind: "pn-diode" };
-    await expect(appRouter.createCaller(demoContext()).operatingPoint({ stage, currentA: 1, ambientC: 25 } as never)).rejects.toThrow(/barrierEv|reverseLeakage/);
+    await expect(
+      appRouter.createCaller(demoContext()).operatingPoint({ stage, currentA: 1, ambientC: 25 } as never),
+    ).rejects.toThrow(/barrierEv|reverseLeakage/);
   });
 });
 

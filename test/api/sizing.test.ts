@@ -4,9 +4,24 @@ import { sizingCatalogOutput, sizingSpecOutput } from "../../contracts/sizing.js
 import { rankCandidates } from "../../domain/review/ranking.js";
 import { demoContext, postTrpc, testApp } from "../helpers/app.js";
 
-type Item = { id: string; outcome: string; value?: number; templateValue?: number; meets?: boolean; reason: string; source?: { kind: string; ruleId?: string }; conditions?: Record<string, number | string> };
+type Item = {
+  id: string;
+  outcome: string;
+  value?: number;
+  templateValue?: number;
+  meets?: boolean;
+  reason: string;
+  source?: { kind: string; ruleId?: string };
+  conditions?: Record<string, number | string>;
+};
 type Spec = { specifications: { items: Item[] }[] };
-type Verdict = { ruleId: string; outcome: string; margin: number | null; threshold: number | null; relativeMargin: number | null };
+type Verdict = {
+  ruleId: string;
+  outcome: string;
+  margin: number | null;
+  threshold: number | null;
+  relativeMargin: number | null;
+};
 type Review = { candidates: { verdict: string; rules: { verdicts: Verdict[] } }[] };
 
 const ctx = demoContext();
@@ -27,7 +42,9 @@ const verdict = (r: Review, ruleId: string) => r.candidates[0]?.rules.verdicts.f
 const part = (id: string) => {
   const p = ctx.catalog.find(id);
   if (p === undefined) throw new Error(`no demo part ${id}`);
-  return structuredClone(p.stage) as Record<string, unknown> & { mosfet?: { rdsOn: { gateSourceV: number; rdsOnOhm: number }[]; vdsMaxV: number } };
+  return structuredClone(p.stage) as Record<string, unknown> & {
+    mosfet?: { rdsOn: { gateSourceV: number; rdsOnOhm: number }[]; vdsMaxV: number };
+  };
 };
 /** The demo ideal diode with every Rds(on) point × k (the shape the sizing scales). */
 const idealDiodeScaled = (k: number, vds?: number) => {
@@ -74,7 +91,8 @@ describe("sizing.spec round trip through the review", () => {
     expect(vds.source?.ruleId).toBe("fet-vds-reverse-transient");
     // The clamp holds the input at 45 V and the hold-up keeps 27 V nominal at the output: 72 V.
     expect(vds.value).toBeCloseTo(72, 9);
-    const at = async (f: number) => review({ requirement, candidates: [{ stage: idealDiodeScaled(1, (vds.value ?? 0) * f) }] });
+    const at = async (f: number) =>
+      review({ requirement, candidates: [{ stage: idealDiodeScaled(1, (vds.value ?? 0) * f) }] });
     expect(Math.abs(verdict(await at(1), "fet-vds-reverse-transient")?.margin ?? 1)).toBeLessThan(1e-9);
     expect(verdict(await at(1.01), "fet-vds-reverse-transient")?.outcome).toBe("pass");
     expect(verdict(await at(0.99), "fet-vds-reverse-transient")?.outcome).toBe("fail");
@@ -82,7 +100,10 @@ describe("sizing.spec round trip through the review", () => {
 
   it("the largest forward drop of a Schottky: the part at the limit holds the junction rule exactly", async () => {
     const req = { ...requirement, lossBudgetW: 5 };
-    const s = await spec({ requirement: req, templates: [{ stage: { kind: "catalog-part", partId: "demo-schottky-10a-60v" } }] });
+    const s = await spec({
+      requirement: req,
+      templates: [{ stage: { kind: "catalog-part", partId: "demo-schottky-10a-60v" } }],
+    });
     const vf = item(s, "forwardDropMaxV");
     // 35 K/W from 85 °C: the 150 °C target (Tj(max) − 25 K) allows about 2.6 W, below the 5 W budget.
     expect(vf.source?.ruleId).toBe("tj-margin");
@@ -90,7 +111,12 @@ describe("sizing.spec round trip through the review", () => {
     const diode = (f: number) => {
       const d = part("demo-schottky-10a-60v");
       // The forward-voltage scale of the review's tolerance corner: n and Rs × k, Is held.
-      d["diode"] = { model: "shockley", saturationCurrentA: 40e-6, ideality: 1.15 * k * f, seriesResistanceOhm: 0.018 * k * f };
+      d["diode"] = {
+        model: "shockley",
+        saturationCurrentA: 40e-6,
+        ideality: 1.15 * k * f,
+        seriesResistanceOhm: 0.018 * k * f,
+      };
       return d;
     };
     const at = async (f: number) => review({ requirement: req, candidates: [{ stage: diode(f) }] });
@@ -101,7 +127,12 @@ describe("sizing.spec round trip through the review", () => {
   });
 
   it("the longest turn-off delay: the turnOff procedure at that delay peaks at the limit", async () => {
-    const turnOff = { loop: { resistanceOhm: 0.02, inductanceH: 1e-6 }, capacitor: { capacitanceF: 470e-6, esrOhm: 0.03 }, peakReverseCurrentMaxA: 50, absorbedEnergyMaxJ: 0.02 };
+    const turnOff = {
+      loop: { resistanceOhm: 0.02, inductanceH: 1e-6 },
+      capacitor: { capacitanceF: 470e-6, esrOhm: 0.03 },
+      peakReverseCurrentMaxA: 50,
+      absorbedEnergyMaxJ: 0.02,
+    };
     const s = await spec({ requirement, templates: [idealTemplate], turnOff });
     const ev = (delay: number) =>
       invoke("turnOff")({
@@ -129,7 +160,10 @@ describe("sizing.spec round trip through the review", () => {
   });
 
   it("impossible: a 160 °C ambient above the 150 °C junction target gives the reason, not a number", async () => {
-    const s = await spec({ requirement: { ...requirement, ambient: { minC: 0, maxC: 160 } }, templates: [idealTemplate] });
+    const s = await spec({
+      requirement: { ...requirement, ambient: { minC: 0, maxC: 160 } },
+      templates: [idealTemplate],
+    });
     const rds = item(s, "rdsOnMaxOhm");
     expect(rds.outcome).toBe("impossible");
     expect(rds.value).toBeUndefined();
@@ -139,18 +173,33 @@ describe("sizing.spec round trip through the review", () => {
 
 describe("sizing.catalog", () => {
   const catalog = async (input: unknown) => sizingCatalogOutput.parse(await invoke("sizing.catalog")(input));
-  const req = { supply: { class: "vehicle-12v-b" }, load: { kind: "constant-current", currentA: 3 }, ambient: { minC: -40, maxC: 85 }, transients: [], lossBudgetW: 1, standbyBudgetA: 0.0005 };
+  const req = {
+    supply: { class: "vehicle-12v-b" },
+    load: { kind: "constant-current", currentA: 3 },
+    ambient: { minC: -40, maxC: 85 },
+    transients: [],
+    lossBudgetW: 1,
+    standbyBudgetA: 0.0005,
+  };
 
   it("ranks as the review ranks, with margins, and names the first line each failing part misses", async () => {
     const out = await catalog({ requirement: req });
     expect(out.parts.length).toBe(ctx.catalog.list().length);
-    const again = rankCandidates(out.parts.map((p, index) => ({ index, verdict: p.verdict, ...(p.worstLossW === undefined ? {} : { worstLossW: p.worstLossW }), ...(p.cost === undefined ? {} : { cost: p.cost }) })));
+    const again = rankCandidates(
+      out.parts.map((p, index) => ({
+        index,
+        verdict: p.verdict,
+        ...(p.worstLossW === undefined ? {} : { worstLossW: p.worstLossW }),
+        ...(p.cost === undefined ? {} : { cost: p.cost }),
+      })),
+    );
     expect(again.map((e) => e.index)).toEqual(out.parts.map((_, i) => i));
     for (const p of out.parts) {
       const missed = p.items.filter((i) => i.meets === false || i.outcome === "impossible");
       if (p.verdict === "fail" || p.verdict === "warn") expect(p.firstMiss?.id).toBe(missed[0]?.id);
       else expect(missed).toEqual([]);
-      for (const i of p.items) if (i.outcome === "limit" && i.templateValue !== undefined) expect(i.margin).toBeDefined();
+      for (const i of p.items)
+        if (i.outcome === "limit" && i.templateValue !== undefined) expect(i.margin).toBeDefined();
     }
     // A Schottky at 3 A dissipates more than 1 W: it fails on its forward drop first.
     const schottky = out.parts.find((p) => p.partId === "demo-schottky-5a-45v");
@@ -164,7 +213,9 @@ describe("sizing.catalog", () => {
     for (const p of out.parts) {
       const r = await review({ requirement: req, candidates: [{ stage: { kind: "catalog-part", partId: p.partId } }] });
       const ruleFails = r.candidates[0]?.rules.verdicts.filter((v) => v.outcome === "fail").map((v) => v.ruleId) ?? [];
-      const specRuleMisses = p.items.filter((i) => i.meets === false && i.source?.kind === "rule" && i.source.severity === "fail").map((i) => (i.source?.kind === "rule" ? i.source.ruleId : ""));
+      const specRuleMisses = p.items
+        .filter((i) => i.meets === false && i.source?.kind === "rule" && i.source.severity === "fail")
+        .map((i) => (i.source?.kind === "rule" ? i.source.ruleId : ""));
       for (const id of specRuleMisses) expect(ruleFails).toContain(id);
       if (r.candidates[0]?.verdict === "pass") expect(p.verdict).toBe("pass");
     }
@@ -174,10 +225,16 @@ describe("sizing.catalog", () => {
     const { app } = testApp();
     const ok = await postTrpc(app, "sizing.catalog", { requirement: req, kinds: ["nfet-ideal-diode"] });
     expect(ok.status).toBe(200);
-    const bad = await postTrpc(app, "sizing.spec", { requirement: req, templates: [{ stage: { kind: "catalog-part", partId: "no-such-part" } }] });
+    const bad = await postTrpc(app, "sizing.spec", {
+      requirement: req,
+      templates: [{ stage: { kind: "catalog-part", partId: "no-such-part" } }],
+    });
     expect(bad.status).toBe(400);
     expect(JSON.stringify(bad.body)).toContain("partId");
-    const neg = await postTrpc(app, "sizing.spec", { requirement: { ...req, lossBudgetW: -1 }, templates: [idealTemplate] });
+    const neg = await postTrpc(app, "sizing.spec", {
+      requirement: { ...req, lossBudgetW: -1 },
+      templates: [idealTemplate],
+    });
     expect(neg.status).toBe(400);
     expect(JSON.stringify(neg.body)).toContain("lossBudgetW");
   });

@@ -11,8 +11,12 @@ describe("the typed tRPC client (as in README)", () => {
   it("is typed by the procedure table: inputs by the input contracts, answers by the handlers (checked by tsc)", () => {
     expectTypeOf<inferRouterInputs<AppRouter>["operatingPoint"]>().toEqualTypeOf<z.input<typeof operatingPointInput>>();
     // (answers as tRPC's client types them: its serialised form of the handler's type)
-    expectTypeOf<inferRouterOutputs<AppRouter>["operatingPoint"]["outcome"]>().toEqualTypeOf<OperatingPointOutput["outcome"]>();
-    expectTypeOf<inferRouterOutputs<AppRouter>["rules"]["list"]["metrics"][number]["stageKinds"]>().toEqualTypeOf<z.output<typeof rulesListOutput>["metrics"][number]["stageKinds"]>();
+    expectTypeOf<inferRouterOutputs<AppRouter>["operatingPoint"]["outcome"]>().toEqualTypeOf<
+      OperatingPointOutput["outcome"]
+    >();
+    expectTypeOf<inferRouterOutputs<AppRouter>["rules"]["list"]["metrics"][number]["stageKinds"]>().toEqualTypeOf<
+      z.output<typeof rulesListOutput>["metrics"][number]["stageKinds"]
+    >();
     expectTypeOf<inferRouterInputs<AppRouter>["sizing"]["catalog"]>().not.toBeAny();
     expectTypeOf<inferRouterOutputs<AppRouter>["sizing"]["catalog"]>().not.toBeAny();
   });
@@ -20,7 +24,13 @@ describe("the typed tRPC client (as in README)", () => {
   it("calls operatingPoint through the HTTP app", async () => {
     const { app } = testApp();
     const client = createTRPCClient<AppRouter>({
-      links: [httpLink({ url: "http://backstop.test/trpc", methodOverride: "POST", fetch: async (url, init) => app.request(String(url), init as RequestInit) })],
+      links: [
+        httpLink({
+          url: "http://backstop.test/trpc",
+          methodOverride: "POST",
+          fetch: async (url, init) => app.request(String(url), init as RequestInit),
+        }),
+      ],
     });
     const r = await client.operatingPoint.query({
       stage: { kind: "catalog-part", partId: "demo-schottky-10a-60v" },

@@ -24,27 +24,38 @@ function nonFinite(v: unknown, path = "$", out: string[] = []): string[] {
   else if (typeof v === "number" && !Number.isFinite(v)) out.push(path);
   else if (Array.isArray(v)) {
     for (let i = 0; i < v.length; i += 1) nonFinite(v[i], `${path}[${i}]`, out);
-  }
-  else if (typeof v === "object" && v !== undefined) for (const [k, x] of Object.entries(v)) if (k !== "rules") nonFinite(x, `${path}.${k}`, out);
+  } else if (typeof v === "object" && v !== undefined)
+    for (const [k, x] of Object.entries(v)) if (k !== "rules") nonFinite(x, `${path}.${k}`, out);
   return out;
 }
 
-const logUniform = (lo: number, hi: number) => fc.double({ min: Math.log10(lo), max: Math.log10(hi), noNaN: true }).map((e) => 10 ** e);
+const logUniform = (lo: number, hi: number) =>
+  fc.double({ min: Math.log10(lo), max: Math.log10(hi), noNaN: true }).map((e) => 10 ** e);
 const loadArb = fc.oneof(
   fc.record({ kind: fc.constant("constant-current"), currentA: logUniform(1e-3, 50) }),
   fc.record({ kind: fc.constant("resistive"), resistanceOhm: logUniform(0.05, 1e4) }),
-  fc.record({ kind: fc.constant("constant-power"), powerW: logUniform(0.01, 2000), minVoltageV: fc.double({ min: 0, max: 20, noNaN: true }) }),
+  fc.record({
+    kind: fc.constant("constant-power"),
+    powerW: logUniform(0.01, 2000),
+    minVoltageV: fc.double({ min: 0, max: 20, noNaN: true }),
+  }),
 );
 const event = fc.record({
   partId: fc.constantFrom(...PARTS),
   outputV: fc.double({ min: 1, max: 60, noNaN: true }),
   afterFraction: fc.constantFrom(0, 0, 0.2, 0.5, 0.9, 0.999),
-  loop: fc.record({ resistanceOhm: fc.oneof(fc.constant(0), logUniform(1e-4, 10)), inductanceH: logUniform(1e-9, 1e-3) }),
+  loop: fc.record({
+    resistanceOhm: fc.oneof(fc.constant(0), logUniform(1e-4, 10)),
+    inductanceH: logUniform(1e-9, 1e-3),
+  }),
   capacitor: fc.record({ capacitanceF: logUniform(1e-7, 0.1), esrOhm: fc.oneof(fc.constant(0), logUniform(1e-4, 5)) }),
   load: loadArb,
   loadMinFraction: fc.constantFrom(0, 0.5, 0.75, 0.99),
   tjC: fc.double({ min: -40, max: 150, noNaN: true }),
-  turnOff: fc.record({ reverseThresholdV: logUniform(1e-3, 0.2), turnOffDelayS: fc.oneof(fc.constant(0), logUniform(1e-8, 1e-4)) }),
+  turnOff: fc.record({
+    reverseThresholdV: logUniform(1e-3, 0.2),
+    turnOffDelayS: fc.oneof(fc.constant(0), logUniform(1e-8, 1e-4)),
+  }),
 });
 
 describe("every numeric field of the falling-input analyses is finite", () => {
@@ -74,7 +85,10 @@ describe("every numeric field of the falling-input analyses is finite", () => {
         expect(out.ok ? [] : [JSON.stringify(out.error)]).toEqual([]);
         expect(nonFinite(out.result), JSON.stringify(input)).toEqual([]);
         // Self-checks where they mean something: the energy balance closes, the clamp absorbs.
-        const r = out.result as { energies?: { balanceResidual?: number }; clamp?: { absorbedJ: number; energies: { balanceResidual?: number } } };
+        const r = out.result as {
+          energies?: { balanceResidual?: number };
+          clamp?: { absorbedJ: number; energies: { balanceResidual?: number } };
+        };
         expect(Math.abs(r.energies?.balanceResidual ?? 0), JSON.stringify(input)).toBeLessThan(1e-3);
         expect(Math.abs(r.clamp?.energies.balanceResidual ?? 0), JSON.stringify(input)).toBeLessThan(1e-3);
         expect(r.clamp?.absorbedJ ?? 0, JSON.stringify(input)).toBeGreaterThanOrEqual(0);
@@ -94,7 +108,9 @@ describe("every numeric field of the falling-input analyses is finite", () => {
           loadMinV: e.outputV * e.loadMinFraction,
           tjC: e.tjC,
           requiredHoldUpS: 1e-3,
-          input: open ? { kind: "open" } : { kind: "falls", inputAfterV: e.outputV * e.afterFraction, loop: e.loop, turnOff: e.turnOff },
+          input: open
+            ? { kind: "open" }
+            : { kind: "falls", inputAfterV: e.outputV * e.afterFraction, loop: e.loop, turnOff: e.turnOff },
           ruleSet: "default",
         };
         const out = await run("holdUp", input);

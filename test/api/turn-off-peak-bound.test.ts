@@ -10,7 +10,17 @@ describe("turn-off reverse peak as a rule metric", () => {
     id: "t",
     version: "1",
     description: "test set",
-    rules: [{ id: "peak", title: "peak", appliesTo: "all", expression: "peakReverseCurrentA <= 200", severity: "fail", source: "test", rationale: "test rule" }],
+    rules: [
+      {
+        id: "peak",
+        title: "peak",
+        appliesTo: "all",
+        expression: "peakReverseCurrentA <= 200",
+        severity: "fail",
+        source: "test",
+        rationale: "test rule",
+      },
+    ],
   });
   if (!compiled.ok) throw new Error("rule set did not compile");
   const verdictOf = (r: { peakReverseCurrentA: number; peakReverseIsLowerBound?: true }) => {

@@ -16,17 +16,30 @@ describe("OpenAPI 3.1 document", () => {
     expect(res.errors ?? []).toEqual([]);
     expect(res.valid).toBe(true);
     expect(v.version).toBe("3.1");
-    expect((await new Validator().validate({ openapi: "3.1.0", paths: { "/x": { post: { responses: 5 } } } })).valid).toBe(false); // the validator can fail
+    expect(
+      (await new Validator().validate({ openapi: "3.1.0", paths: { "/x": { post: { responses: 5 } } } })).valid,
+    ).toBe(false); // the validator can fail
   });
 
   it("has a /v1 path and a bulk path for every procedure of the table, with its input and output schema", () => {
-    const doc = openApiDocument() as { paths: Record<string, unknown>; components: { schemas: Record<string, { description?: string }> } };
+    const doc = openApiDocument() as {
+      paths: Record<string, unknown>;
+      components: { schemas: Record<string, { description?: string }> };
+    };
     for (const { path } of procedureEntries()) {
       expect(doc.paths[`/v1/${path}`], path).toBeDefined();
       expect(doc.paths[`/v1/${path}/bulk`], path).toBeDefined();
     }
-    type S = { $ref?: string; properties?: Record<string, S>; anyOf?: S[]; type?: string; exclusiveMinimum?: number; "x-unit"?: string };
-    const deref = (s: S | undefined): S | undefined => (s?.$ref ? deref(doc.components.schemas[s.$ref.replace("#/components/schemas/", "")] as S) : s);
+    type S = {
+      $ref?: string;
+      properties?: Record<string, S>;
+      anyOf?: S[];
+      type?: string;
+      exclusiveMinimum?: number;
+      "x-unit"?: string;
+    };
+    const deref = (s: S | undefined): S | undefined =>
+      s?.$ref ? deref(doc.components.schemas[s.$ref.replace("#/components/schemas/", "")] as S) : s;
     const supplyV = deref(deref(doc.components.schemas.OperatingPointInput as S)?.properties?.supplyV);
     expect(supplyV?.["x-unit"]).toBe("V");
     expect(supplyV?.anyOf?.find((b) => b.type === "number")?.exclusiveMinimum).toBe(0);
@@ -43,7 +56,9 @@ describe("OpenAPI 3.1 document", () => {
       // absent: fall through to the failing comparison
     }
     if (committed !== openApiText()) {
-      throw new Error("contracts/openapi.json is out of date with the router and contracts: run `npm run openapi` and commit the result");
+      throw new Error(
+        "contracts/openapi.json is out of date with the router and contracts: run `npm run openapi` and commit the result",
+      );
     }
   });
 

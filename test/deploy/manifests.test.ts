@@ -37,7 +37,9 @@ describe("Kubernetes manifests and Dockerfile match the server", () => {
     }
     expect(c.readinessProbe.httpGet.path).toBe("/readyz");
     expect(c.lifecycle.preStop.sleep.seconds).toBeGreaterThan(0);
-    expect(dep.spec.template.spec.terminationGracePeriodSeconds).toBeGreaterThan(c.lifecycle.preStop.sleep.seconds + 20);
+    expect(dep.spec.template.spec.terminationGracePeriodSeconds).toBeGreaterThan(
+      c.lifecycle.preStop.sleep.seconds + 20,
+    );
     const metricsPath = dep.spec.template.metadata.annotations["prometheus.io/path"];
     expect((await app.request(metricsPath)).status).toBe(200);
   });
@@ -47,7 +49,10 @@ describe("Kubernetes manifests and Dockerfile match the server", () => {
     const svc = byKind("Service")[0] as Doc;
     expect(svc.spec.selector).toEqual(labels);
     expect(svc.spec.ports[0].targetPort).toBe("http");
-    expect((byKind("HorizontalPodAutoscaler")[0] as Doc).spec.scaleTargetRef).toMatchObject({ kind: "Deployment", name: dep.metadata.name });
+    expect((byKind("HorizontalPodAutoscaler")[0] as Doc).spec.scaleTargetRef).toMatchObject({
+      kind: "Deployment",
+      name: dep.metadata.name,
+    });
     expect((byKind("PodDisruptionBudget")[0] as Doc).spec.selector.matchLabels).toEqual(labels);
   });
 

@@ -10,7 +10,10 @@ const file = join(projectRoot(), "docs", "metrics.md");
 it("docs/metrics.md is the vocabulary generated from the code (npm run docs:metrics regenerates it)", () => {
   const want = metricsMarkdown();
   if (process.env.BACKSTOP_WRITE_DOCS === "1") writeFileSync(file, want);
-  expect(readFileSync(file, "utf8"), "docs/metrics.md drifted from domain/rules/metric-vocabulary.ts: run npm run docs:metrics").toBe(want);
+  expect(
+    readFileSync(file, "utf8"),
+    "docs/metrics.md drifted from domain/rules/metric-vocabulary.ts: run npm run docs:metrics",
+  ).toBe(want);
   for (const m of METRICS) expect(want).toContain(`| \`${m.name}\` |`);
   for (const m of PART_PARAMETERS) expect(want).toContain(`| \`part.${m.name}\` |`);
 });

@@ -61,8 +61,22 @@ describe("diode with series resistance", () => {
   const hasSpice = toolAvailable("ngspice");
   it.skipIf(!hasSpice)("matches ngspice's diode model within 1 mV", () => {
     const cases: DiodeParams[] = [
-      { saturationCurrentA: 2e-9, ideality: 1.6, seriesResistanceOhm: 0.025, energyGapEv: 1.11, saturationTempExponent: 3, nominalTempK: cToK(25) },
-      { saturationCurrentA: 5e-6, ideality: 1.05, seriesResistanceOhm: 0.04, energyGapEv: 0.69, saturationTempExponent: 2, nominalTempK: cToK(25) },
+      {
+        saturationCurrentA: 2e-9,
+        ideality: 1.6,
+        seriesResistanceOhm: 0.025,
+        energyGapEv: 1.11,
+        saturationTempExponent: 3,
+        nominalTempK: cToK(25),
+      },
+      {
+        saturationCurrentA: 5e-6,
+        ideality: 1.05,
+        seriesResistanceOhm: 0.04,
+        energyGapEv: 0.69,
+        saturationTempExponent: 2,
+        nominalTempK: cToK(25),
+      },
     ];
     for (const p of cases) {
       for (const tC of [25, 100]) {
@@ -84,7 +98,8 @@ quit
           if (i === undefined || v === undefined) continue;
           worst = Math.max(worst, Math.abs(diodeVoltageV(p, i, cToK(tC)) - v));
         }
-        if (process.env.BACKSTOP_REPORT) console.log(`ngspice diode worst |dV| ${tC} degC: ${worst.toExponential(2)} V`);
+        if (process.env.BACKSTOP_REPORT)
+          console.log(`ngspice diode worst |dV| ${tC} degC: ${worst.toExponential(2)} V`);
         expect(worst).toBeLessThan(1e-3);
       }
     }
@@ -102,7 +117,8 @@ describe("diode fit from datasheet points", () => {
     const fit = fitDiode(pts, opts);
     expect(fit.ok).toBe(true);
     if (!fit.ok) return;
-    for (const pt of pts) expect(Math.abs(diodeVoltageV(fit.params, pt.currentA, pt.tempK) - pt.voltageV)).toBeLessThan(1e-3);
+    for (const pt of pts)
+      expect(Math.abs(diodeVoltageV(fit.params, pt.currentA, pt.tempK) - pt.voltageV)).toBeLessThan(1e-3);
   });
   it("three points at two temperatures give Is, n and Rs through all three", () => {
     const truth: DiodeParams = { saturationCurrentA: 3e-6, ideality: 1.1, seriesResistanceOhm: 0.03, ...opts };
@@ -116,7 +132,8 @@ describe("diode fit from datasheet points", () => {
     if (!fit.ok) return;
     expect(relativeError(fit.params.ideality, 1.1)).toBeLessThan(1e-4);
     expect(relativeError(fit.params.seriesResistanceOhm, 0.03)).toBeLessThan(1e-3);
-    for (const pt of pts) expect(Math.abs(diodeVoltageV(fit.params, pt.currentA, pt.tempK) - pt.voltageV)).toBeLessThan(1e-3);
+    for (const pt of pts)
+      expect(Math.abs(diodeVoltageV(fit.params, pt.currentA, pt.tempK) - pt.voltageV)).toBeLessThan(1e-3);
   });
   it("refuses points that imply a negative series resistance", () => {
     const pts = [
@@ -131,14 +148,24 @@ describe("diode fit from datasheet points", () => {
 
 describe("linear forward-voltage temperature coefficient", () => {
   const tc = -0.002;
-  const d: DiodeParams = { saturationCurrentA: 1e-9, ideality: 1.8, seriesResistanceOhm: 0.02, energyGapEv: 1.11, saturationTempExponent: 3, nominalTempK: cToK(25), linearTempCoVPerK: tc };
+  const d: DiodeParams = {
+    saturationCurrentA: 1e-9,
+    ideality: 1.8,
+    seriesResistanceOhm: 0.02,
+    energyGapEv: 1.11,
+    saturationTempExponent: 3,
+    nominalTempK: cToK(25),
+    linearTempCoVPerK: tc,
+  };
   // By construction (docs/references.md, Diodes: a linear Vf temperature coefficient of about −2 mV/K):
   // at a current far above Is the curve shifts by tc·(T − T0), and I(V) stays its exact inverse.
   it("shifts the forward voltage by tc·ΔT at constant current", () => {
     for (const i of [0.01, 1, 5]) {
       for (const tC of [-40, 85, 150]) {
         // The "+1" of ln(I/Is + 1) departs from the pure shift by n·Vt·Is/I: below 10 µV here.
-        expect(Math.abs(diodeVoltageV(d, i, cToK(tC)) - diodeVoltageV(d, i, cToK(25)) - tc * (tC - 25))).toBeLessThan(1e-5);
+        expect(Math.abs(diodeVoltageV(d, i, cToK(tC)) - diodeVoltageV(d, i, cToK(25)) - tc * (tC - 25))).toBeLessThan(
+          1e-5,
+        );
         expect(relativeError(diodeCurrentA(d, diodeVoltageV(d, i, cToK(tC)), cToK(tC)), i)).toBeLessThan(1e-9);
       }
     }
@@ -147,8 +174,21 @@ describe("linear forward-voltage temperature coefficient", () => {
   // Tj = Ta + Rth·I·Vf(Tj) gives Tj = (Ta + Rth·I·(V0 − tc·T0)) / (1 − Rth·I·tc).
   it("gives the closed-form self-heated junction temperature", async () => {
     const { solveOperatingPoint } = await import("../../domain/solve/electrothermal-point.js");
-    const stage = { kind: "pn-diode" as const, diode: d, reverseRatingV: 100, tjMaxC: 175, thermal: { kind: "junction-ambient" as const, rthJaKPerW: 40 } };
-    const r = solveOperatingPoint({ stage, supplyV: 12, sourceResistanceOhm: 0, load: { kind: "constant-current", currentA: 2 }, ambientC: 50, rthKPerW: 40 });
+    const stage = {
+      kind: "pn-diode" as const,
+      diode: d,
+      reverseRatingV: 100,
+      tjMaxC: 175,
+      thermal: { kind: "junction-ambient" as const, rthJaKPerW: 40 },
+    };
+    const r = solveOperatingPoint({
+      stage,
+      supplyV: 12,
+      sourceResistanceOhm: 0,
+      load: { kind: "constant-current", currentA: 2 },
+      ambientC: 50,
+      rthKPerW: 40,
+    });
     if (r.outcome !== "solved") throw new Error(r.outcome);
     const v0 = diodeVoltageV(d, 2, cToK(25));
     const closed = (50 + 40 * 2 * (v0 - tc * 25)) / (1 - 40 * 2 * tc);

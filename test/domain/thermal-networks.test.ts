@@ -1,6 +1,13 @@
 import { describe, expect, it } from "vitest";
 import { type CauerStage, cauerToFoster } from "../../domain/physics/cauer.js";
-import { type FosterTerm, type PowerPulse, periodicTrainRiseK, pulseTrainRiseK, steadyRthKPerW, zthKPerW } from "../../domain/physics/foster.js";
+import {
+  type FosterTerm,
+  type PowerPulse,
+  periodicTrainRiseK,
+  pulseTrainRiseK,
+  steadyRthKPerW,
+  zthKPerW,
+} from "../../domain/physics/foster.js";
 import { runNgspice } from "../helpers/ngspice.js";
 
 // Thermal networks as electrical ones (temperature ↔ voltage, power ↔ current, K/W ↔ ohm,
@@ -9,13 +16,20 @@ import { runNgspice } from "../helpers/ngspice.js";
 
 /** Netlist of a Foster chain (parallel R‖C blocks in series) or a Cauer ladder driven by a current source. */
 function fosterNet(net: readonly FosterTerm[]): string {
-  return net.map((t, i) => `R${i} n${i} n${i + 1} ${t.rKPerW}\nC${i} n${i} n${i + 1} ${t.tauS / t.rKPerW}`).join("\n").replace(new RegExp(`n${net.length}\\b`, "g"), "0");
+  return net
+    .map((t, i) => `R${i} n${i} n${i + 1} ${t.rKPerW}\nC${i} n${i} n${i + 1} ${t.tauS / t.rKPerW}`)
+    .join("\n")
+    .replace(new RegExp(`n${net.length}\\b`, "g"), "0");
 }
 function cauerNet(ladder: readonly CauerStage[]): string {
-  return ladder.map((s, i) => `C${i} n${i} 0 ${s.cJPerK}\nR${i} n${i} ${i + 1 === ladder.length ? "0" : `n${i + 1}`} ${s.rKPerW}`).join("\n");
+  return ladder
+    .map((s, i) => `C${i} n${i} 0 ${s.cJPerK}\nR${i} n${i} ${i + 1 === ladder.length ? "0" : `n${i + 1}`} ${s.rKPerW}`)
+    .join("\n");
 }
 function spice(body: string, source: string, stopS: number, stepS: number): number[][] {
-  return runNgspice(`* thermal network\nI1 0 n0 ${source}\n${body}\n.tran ${stepS} ${stopS} 0 ${stepS} uic\n.control\nrun\nwrdata out.txt v(n0)\nquit\n.endc\n.end\n`);
+  return runNgspice(
+    `* thermal network\nI1 0 n0 ${source}\n${body}\n.tran ${stepS} ${stopS} 0 ${stepS} uic\n.control\nrun\nwrdata out.txt v(n0)\nquit\n.endc\n.end\n`,
+  );
 }
 /** ngspice's node-0 voltage at time t (linear between its output rows). */
 function at(rows: number[][], t: number): number {
@@ -68,7 +82,11 @@ describe("a periodic pulse train through a Foster network", () => {
   });
 
   it("equals the superposition of its pulses' step responses at the end of the last pulse", () => {
-    const pulses: PowerPulse[] = Array.from({ length: train.count }, (_, k) => ({ startS: k * train.periodS, endS: k * train.periodS + train.widthS, powerW: train.powerW }));
+    const pulses: PowerPulse[] = Array.from({ length: train.count }, (_, k) => ({
+      startS: k * train.periodS,
+      endS: k * train.periodS + train.widthS,
+      powerW: train.powerW,
+    }));
     const tEnd = (train.count - 1) * train.periodS + train.widthS;
     expect(periodicTrainRiseK(net, train).lastPeakK).toBeCloseTo(pulseTrainRiseK(net, pulses, tEnd), 9);
   });
@@ -104,7 +122,8 @@ describe("a junction-case Foster network cascaded with the case-to-ambient path"
   const exact = cauerToFoster([...ladder, sink]);
   const rows = spice(cauerNet([...ladder, sink]), "DC 1", 400, 0.1);
   it("the exact cascade (ladder + heatsink stage) matches ngspice within 0.5 %", () => {
-    for (const t of [1e-2, 0.1, 1, 10, 100, 400]) expect(Math.abs(zthKPerW(exact, t) / at(rows, t) - 1), `t = ${t} s`).toBeLessThan(5e-3);
+    for (const t of [1e-2, 0.1, 1, 10, 100, 400])
+      expect(Math.abs(zthKPerW(exact, t) / at(rows, t) - 1), `t = ${t} s`).toBeLessThan(5e-3);
   });
   it("the series sum is never below it, and both reach ΣR", () => {
     let worst = 0;

@@ -22,7 +22,12 @@ export function testApp() {
   return { app, logs };
 }
 
-export async function postTrpc(app: ReturnType<typeof testApp>["app"], procedure: string, input: unknown, headers: Record<string, string> = {}) {
+export async function postTrpc(
+  app: ReturnType<typeof testApp>["app"],
+  procedure: string,
+  input: unknown,
+  headers: Record<string, string> = {},
+) {
   const res = await app.request(`/trpc/${procedure}`, {
     method: "POST",
     headers: { "content-type": "application/json", ...headers },

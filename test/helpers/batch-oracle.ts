@@ -11,7 +11,11 @@ import { processLine } from "../../adapters/batch/line.js";
  * for the lines (crlfDelay Infinity), blank lines skipped, each line of the shard through
  * processLine one at a time, written out with the output format, the texts joined and encoded once.
  */
-export async function readlineOracle(bytes: Buffer, ctx: Context, o: { outFormat?: Format; procedure?: string; shard?: Shard } = {}): Promise<Buffer> {
+export async function readlineOracle(
+  bytes: Buffer,
+  ctx: Context,
+  o: { outFormat?: Format; procedure?: string; shard?: Shard } = {},
+): Promise<Buffer> {
   const invoker = procedureInvoker(ctx);
   const fmt = outputFormatter(o.outFormat ?? "jsonl", o.procedure);
   const texts: string[] = [fmt.header];

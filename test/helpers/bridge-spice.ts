@@ -17,7 +17,12 @@ export interface SpiceBridge extends Omit<AcSourceAndFilter, "load"> {
 }
 
 /** The oracle's view of an AC bridge model with a resistive load (25 °C, steps of T/2000). */
-export function spiceBridgeOf(m: BridgeAcModel, diode: DiodeParams, periods: number, switchOnOhm?: number): SpiceBridge {
+export function spiceBridgeOf(
+  m: BridgeAcModel,
+  diode: DiodeParams,
+  periods: number,
+  switchOnOhm?: number,
+): SpiceBridge {
   if (m.load.kind !== "resistive") throw new Error("the oracle netlist has a resistive load");
   return {
     sourceRmsV: m.sourceRmsV,

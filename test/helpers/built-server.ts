@@ -10,7 +10,9 @@ ensureBuilt();
  * The built server as it ships (dist/bundle/main.js, built on first use, build-once.ts) as a process on a loopback port chosen
  * by the system; resolves once it says where it listens, rejects after 30 s with what it printed.
  */
-export function startBuiltServer(env: Record<string, string>): Promise<{ child: ChildProcess; port: number; base: string; logs: string[] }> {
+export function startBuiltServer(
+  env: Record<string, string>,
+): Promise<{ child: ChildProcess; port: number; base: string; logs: string[] }> {
   const child = spawn("node", [join(projectRoot(), "dist", "bundle", "main.js")], {
     env: { ...process.env, PORT: "0", HOST: "127.0.0.1", LOG_LEVEL: "info", ...env },
     stdio: ["ignore", "pipe", "pipe"],

@@ -13,9 +13,20 @@ export const siBodyDiode: DiodeParams = {
   nominalTempK: cToK(25),
 };
 
-export function mosfet(rdsOnOhm: number, tempLaw: RdsTempLaw = { law: "power", exponent: 0 }, extra: Partial<MosfetModel> = {}): MosfetModel {
+export function mosfet(
+  rdsOnOhm: number,
+  tempLaw: RdsTempLaw = { law: "power", exponent: 0 },
+  extra: Partial<MosfetModel> = {},
+): MosfetModel {
   return {
-    channel: { rdsOnPoints: [{ gateSourceV: 4.5, rdsOnOhm: rdsOnOhm * 1.5 }, { gateSourceV: 10, rdsOnOhm }], thresholdV: 2, tempLaw },
+    channel: {
+      rdsOnPoints: [
+        { gateSourceV: 4.5, rdsOnOhm: rdsOnOhm * 1.5 },
+        { gateSourceV: 10, rdsOnOhm },
+      ],
+      thresholdV: 2,
+      tempLaw,
+    },
     bodyDiode: siBodyDiode,
     vdsMaxV: 60,
     vgsMaxV: 20,
@@ -24,7 +35,10 @@ export function mosfet(rdsOnOhm: number, tempLaw: RdsTempLaw = { law: "power", e
   };
 }
 
-export function idealDiode(rdsOnOhm: number, opts: { startV?: number; regulatedDropV?: number; rth?: number; tempLaw?: RdsTempLaw } = {}): StageModel {
+export function idealDiode(
+  rdsOnOhm: number,
+  opts: { startV?: number; regulatedDropV?: number; rth?: number; tempLaw?: RdsTempLaw } = {},
+): StageModel {
   return {
     kind: "nfet-ideal-diode",
     mosfet: mosfet(rdsOnOhm, opts.tempLaw),
@@ -44,7 +58,11 @@ export function lowSideFet(rdsOnOhm: number, rth: number, tempLaw: RdsTempLaw): 
   const m = mosfet(rdsOnOhm, tempLaw);
   return {
     kind: "nfet-low-side",
-    mosfet: { ...m, channel: { ...m.channel, rdsOnPoints: [{ gateSourceV: 3, rdsOnOhm }] }, bodyDiode: { ...siBodyDiode, saturationCurrentA: 1e-14 } },
+    mosfet: {
+      ...m,
+      channel: { ...m.channel, rdsOnPoints: [{ gateSourceV: 3, rdsOnOhm }] },
+      bodyDiode: { ...siBodyDiode, saturationCurrentA: 1e-14 },
+    },
     thermal: { kind: "junction-ambient", rthJaKPerW: rth },
   };
 }

@@ -2,7 +2,18 @@
 // that differs in the one thing that fixes it. Parts are invented (no manufacturer's data); the
 // physics each design leans on is named beside it (common practice, closed forms of the models).
 
-export type Hazard = "thermal" | "reverse" | "transient" | "clamp" | "controller" | "turn-off" | "hold-up" | "start-up" | "bridge" | "load" | "standby";
+export type Hazard =
+  | "thermal"
+  | "reverse"
+  | "transient"
+  | "clamp"
+  | "controller"
+  | "turn-off"
+  | "hold-up"
+  | "start-up"
+  | "bridge"
+  | "load"
+  | "standby";
 
 export interface KnownBad {
   readonly id: string;
@@ -84,7 +95,14 @@ const backToBack = (m: Obj = {}): Obj => ({
 const pfet = (m: Obj = {}, o: Obj = {}): Obj => ({
   kind: "pfet-high-side",
   name: "test P-FET",
-  mosfet: mosfet({ rdsOn: [{ gateSourceV: 4.5, rdsOnOhm: "19 mOhm" }, { gateSourceV: 10, rdsOnOhm: "12 mOhm" }], vdsMaxV: 60, ...m }),
+  mosfet: mosfet({
+    rdsOn: [
+      { gateSourceV: 4.5, rdsOnOhm: "19 mOhm" },
+      { gateSourceV: 10, rdsOnOhm: "12 mOhm" },
+    ],
+    vdsMaxV: 60,
+    ...m,
+  }),
   gateClampV: 15,
   thermal: { kind: "junction-ambient", rthJaKPerW: 50 },
   ...o,
@@ -105,9 +123,24 @@ const integratedSwitch = (o: Obj = {}): Obj => ({
   ...o,
 });
 
-const req12: Obj = { supply: { class: "vehicle-12v-b" }, load: { kind: "constant-current", currentA: 3 }, ambient: { minC: -40, maxC: 85 }, transients: [] };
-const req24: Obj = { supply: { class: "vehicle-24v-f" }, load: { kind: "constant-current", currentA: 3 }, ambient: { minC: -40, maxC: 85 }, transients: [] };
-const req48: Obj = { supply: { class: "telecom-48v" }, load: { kind: "constant-current", currentA: 3 }, ambient: { minC: -5, maxC: 55 }, transients: [] };
+const req12: Obj = {
+  supply: { class: "vehicle-12v-b" },
+  load: { kind: "constant-current", currentA: 3 },
+  ambient: { minC: -40, maxC: 85 },
+  transients: [],
+};
+const req24: Obj = {
+  supply: { class: "vehicle-24v-f" },
+  load: { kind: "constant-current", currentA: 3 },
+  ambient: { minC: -40, maxC: 85 },
+  transients: [],
+};
+const req48: Obj = {
+  supply: { class: "telecom-48v" },
+  load: { kind: "constant-current", currentA: 3 },
+  ambient: { minC: -5, maxC: 55 },
+  transients: [],
+};
 const review = (requirement: Obj, stage: Obj): Obj => ({ requirement, candidates: [{ stage }] });
 /** A bidirectional TVS-like input clamp: stand-off above jump start, clamping below the parts' ratings. */
 const clamp = (o: Obj = {}): Obj => ({ standoffV: 26, clampV: 40, peakCurrentA: 100, energyJ: 100, ...o });
@@ -119,7 +152,10 @@ const crank: Obj[] = [
   { timeS: 1, voltageV: 6.5 },
   { timeS: 1.1, voltageV: 12 },
 ];
-const turnOffEvent: Obj = { loop: { resistanceOhm: "20 mOhm", inductanceH: "1 uH" }, capacitor: { capacitanceF: "470 uF", esrOhm: "20 mOhm" } };
+const turnOffEvent: Obj = {
+  loop: { resistanceOhm: "20 mOhm", inductanceH: "1 uH" },
+  capacitor: { capacitanceF: "470 uF", esrOhm: "20 mOhm" },
+};
 const holdUp = (requiredHoldUpS: string): Obj => ({
   stages: [idealDiode()],
   outputV: "12 V",
@@ -149,8 +185,14 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     why: "a 10 A Schottky at 8 A on 60 K/W at 85 °C: about 4 W, Tj far above 175 °C",
     procedure: "review",
     rule: "tj-limit",
-    bad: review({ ...req12, load: { kind: "constant-current", currentA: 8 } }, schottky({ thermal: { kind: "junction-ambient", rthJaKPerW: 60 } })),
-    twin: review({ ...req12, load: { kind: "constant-current", currentA: 1 } }, schottky({ thermal: { kind: "junction-ambient", rthJaKPerW: 60 } })),
+    bad: review(
+      { ...req12, load: { kind: "constant-current", currentA: 8 } },
+      schottky({ thermal: { kind: "junction-ambient", rthJaKPerW: 60 } }),
+    ),
+    twin: review(
+      { ...req12, load: { kind: "constant-current", currentA: 1 } },
+      schottky({ thermal: { kind: "junction-ambient", rthJaKPerW: 60 } }),
+    ),
   },
   {
     id: "pn-diode-loses-the-load",
@@ -167,8 +209,14 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     why: "a 60 V Schottky on 60 K/W at 125 °C under the 28 V reversed 24 V battery: leakage runs away",
     procedure: "review",
     rule: "reverse-leakage-runaway",
-    bad: review({ ...req24, load: { kind: "constant-current", currentA: 0.2 }, ambient: { minC: -40, maxC: 125 } }, schottky({ thermal: { kind: "junction-ambient", rthJaKPerW: 60 } })),
-    twin: review({ ...req24, load: { kind: "constant-current", currentA: 0.2 }, ambient: { minC: -40, maxC: 125 } }, pn({ reverseRatingV: 100, thermal: { kind: "junction-ambient", rthJaKPerW: 60 } })),
+    bad: review(
+      { ...req24, load: { kind: "constant-current", currentA: 0.2 }, ambient: { minC: -40, maxC: 125 } },
+      schottky({ thermal: { kind: "junction-ambient", rthJaKPerW: 60 } }),
+    ),
+    twin: review(
+      { ...req24, load: { kind: "constant-current", currentA: 0.2 }, ambient: { minC: -40, maxC: 125 } },
+      pn({ reverseRatingV: 100, thermal: { kind: "junction-ambient", rthJaKPerW: 60 } }),
+    ),
   },
   {
     id: "schottky-hot-leakage-runaway",
@@ -176,8 +224,17 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     why: "a 40 µA-at-25 °C Schottky (barrier 0.7 eV) on 35 K/W at 100 °C under the 14 V reversed battery: thermionic emission gives about ×370 to 100 °C, 15 mA, 0.2 W, 7 K — above the 1/(e·d ln IR/dT) ≈ 5 K a stable point allows; the forward fit's Is(T) gave ×160 and passed it",
     procedure: "review",
     rule: "reverse-leakage-runaway",
-    bad: review({ ...req12, load: { kind: "constant-current", currentA: 0.2 }, ambient: { minC: -40, maxC: 100 } }, schottky({ reverseLeakage: { currentA: "40 uA", tempC: 25, barrierEv: 0.7 } })),
-    twin: review({ ...req12, load: { kind: "constant-current", currentA: 0.2 }, ambient: { minC: -40, maxC: 100 } }, schottky({ reverseLeakage: { currentA: "40 uA", tempC: 25, barrierEv: 0.7 }, thermal: { kind: "junction-ambient", rthJaKPerW: 12 } })),
+    bad: review(
+      { ...req12, load: { kind: "constant-current", currentA: 0.2 }, ambient: { minC: -40, maxC: 100 } },
+      schottky({ reverseLeakage: { currentA: "40 uA", tempC: 25, barrierEv: 0.7 } }),
+    ),
+    twin: review(
+      { ...req12, load: { kind: "constant-current", currentA: 0.2 }, ambient: { minC: -40, maxC: 100 } },
+      schottky({
+        reverseLeakage: { currentA: "40 uA", tempC: 25, barrierEv: 0.7 },
+        thermal: { kind: "junction-ambient", rthJaKPerW: 12 },
+      }),
+    ),
   },
   {
     id: "schottky-reverse-too-hot",
@@ -186,8 +243,17 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     procedure: "review",
     rule: "reverse-tj-limit",
     sets: ["default", "consumer"],
-    bad: review({ ...req12, load: { kind: "constant-current", currentA: 0.1 }, ambient: { minC: -40, maxC: 165 } }, pn({ tjMaxC: 175, diode: { model: "shockley", saturationCurrentA: "5 uA", ideality: 1.9, seriesResistanceOhm: "30 mOhm" } })),
-    twin: review({ ...req12, load: { kind: "constant-current", currentA: 0.1 }, ambient: { minC: -40, maxC: 165 } }, pn({ tjMaxC: 175 })),
+    bad: review(
+      { ...req12, load: { kind: "constant-current", currentA: 0.1 }, ambient: { minC: -40, maxC: 165 } },
+      pn({
+        tjMaxC: 175,
+        diode: { model: "shockley", saturationCurrentA: "5 uA", ideality: 1.9, seriesResistanceOhm: "30 mOhm" },
+      }),
+    ),
+    twin: review(
+      { ...req12, load: { kind: "constant-current", currentA: 0.1 }, ambient: { minC: -40, maxC: 165 } },
+      pn({ tjMaxC: 175 }),
+    ),
   },
   {
     id: "rectifier-reverse-too-hot-vehicle",
@@ -196,8 +262,17 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     procedure: "review",
     rule: "reverse-tj-limit",
     sets: ["vehicle"],
-    bad: review({ ...req12, load: { kind: "constant-current", currentA: 0.1 }, ambient: { minC: -40, maxC: 155 } }, pn({ tjMaxC: 175, diode: { model: "shockley", saturationCurrentA: "8 uA", ideality: 1.9, seriesResistanceOhm: "30 mOhm" } })),
-    twin: review({ ...req12, load: { kind: "constant-current", currentA: 0.1 }, ambient: { minC: -40, maxC: 155 } }, pn({ tjMaxC: 175 })),
+    bad: review(
+      { ...req12, load: { kind: "constant-current", currentA: 0.1 }, ambient: { minC: -40, maxC: 155 } },
+      pn({
+        tjMaxC: 175,
+        diode: { model: "shockley", saturationCurrentA: "8 uA", ideality: 1.9, seriesResistanceOhm: "30 mOhm" },
+      }),
+    ),
+    twin: review(
+      { ...req12, load: { kind: "constant-current", currentA: 0.1 }, ambient: { minC: -40, maxC: 155 } },
+      pn({ tjMaxC: 175 }),
+    ),
   },
   {
     id: "schottky-30v-on-24v-reverse",
@@ -269,8 +344,14 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     why: "pulse 1 (−150 V) clamped at 36 V while the output is held at 13.5 V puts 49.5 V across a 45 V Schottky",
     procedure: "review",
     rule: "diode-reverse-transient",
-    bad: review({ ...req12, transients: ["iso7637-2-pulse-1-12v"], inputClamp: clamp({ clampV: 36 }) }, schottky({ reverseRatingV: 45 })),
-    twin: review({ ...req12, transients: ["iso7637-2-pulse-1-12v"], inputClamp: clamp({ clampV: 36 }) }, schottky({ reverseRatingV: 60 })),
+    bad: review(
+      { ...req12, transients: ["iso7637-2-pulse-1-12v"], inputClamp: clamp({ clampV: 36 }) },
+      schottky({ reverseRatingV: 45 }),
+    ),
+    twin: review(
+      { ...req12, transients: ["iso7637-2-pulse-1-12v"], inputClamp: clamp({ clampV: 36 }) },
+      schottky({ reverseRatingV: 60 }),
+    ),
   },
   {
     id: "clamp-5j-under-load-dump-a",
@@ -279,8 +360,14 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     why: "an input clamp rated 5 J / 30 A takes about 220 J and 78 A in load dump A at its low-Ri corner (Ri 0.5 ohm, td 400 ms, with the 10 ms rise)",
     procedure: "review",
     rule: "clamp-energy",
-    bad: review({ ...req12, transients: ["iso16750-2-load-dump-a-12v"], inputClamp: clamp({ energyJ: 5, peakCurrentA: 30 }) }, idealDiode()),
-    twin: review({ ...req12, transients: ["iso16750-2-load-dump-a-12v"], inputClamp: clamp({ energyJ: 300, peakCurrentA: 100 }) }, idealDiode()),
+    bad: review(
+      { ...req12, transients: ["iso16750-2-load-dump-a-12v"], inputClamp: clamp({ energyJ: 5, peakCurrentA: 30 }) },
+      idealDiode(),
+    ),
+    twin: review(
+      { ...req12, transients: ["iso16750-2-load-dump-a-12v"], inputClamp: clamp({ energyJ: 300, peakCurrentA: 100 }) },
+      idealDiode(),
+    ),
   },
   {
     id: "clamp-30a-under-pulse-2a",
@@ -288,8 +375,14 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     why: "an input clamp rated 30 A peak takes about 43 A from pulse 2a's 2 ohm source",
     procedure: "review",
     rule: "clamp-peak-current",
-    bad: review({ ...req12, transients: ["iso7637-2-pulse-2a"], inputClamp: clamp({ energyJ: 5, peakCurrentA: 30 }) }, idealDiode()),
-    twin: review({ ...req12, transients: ["iso7637-2-pulse-2a"], inputClamp: clamp({ energyJ: 5, peakCurrentA: 60 }) }, idealDiode()),
+    bad: review(
+      { ...req12, transients: ["iso7637-2-pulse-2a"], inputClamp: clamp({ energyJ: 5, peakCurrentA: 30 }) },
+      idealDiode(),
+    ),
+    twin: review(
+      { ...req12, transients: ["iso7637-2-pulse-2a"], inputClamp: clamp({ energyJ: 5, peakCurrentA: 60 }) },
+      idealDiode(),
+    ),
   },
   {
     id: "clamp-standoff-below-supply",
@@ -297,8 +390,22 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     why: "a clamp standing off 14 V conducts the 16 V steady maximum of a 12 V system",
     procedure: "review",
     rule: "clamp-standoff",
-    bad: review({ ...req12, supply: { class: "vehicle-12v-b", jumpStartV: 16, longTermOvervoltageV: 16 }, inputClamp: clamp({ standoffV: 14, clampV: 22 }) }, idealDiode()),
-    twin: review({ ...req12, supply: { class: "vehicle-12v-b", jumpStartV: 16, longTermOvervoltageV: 16 }, inputClamp: clamp({ standoffV: 17, clampV: 24 }) }, idealDiode()),
+    bad: review(
+      {
+        ...req12,
+        supply: { class: "vehicle-12v-b", jumpStartV: 16, longTermOvervoltageV: 16 },
+        inputClamp: clamp({ standoffV: 14, clampV: 22 }),
+      },
+      idealDiode(),
+    ),
+    twin: review(
+      {
+        ...req12,
+        supply: { class: "vehicle-12v-b", jumpStartV: 16, longTermOvervoltageV: 16 },
+        inputClamp: clamp({ standoffV: 17, clampV: 24 }),
+      },
+      idealDiode(),
+    ),
   },
   {
     id: "clamp-over-its-peak-pulse-power",
@@ -309,8 +416,22 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     why: "a clamp rated 250 W at 10/1000 us takes about 1.5 kW from pulse 2a, above the 1.2 kW its rating allows at that width and 85 degC",
     procedure: "review",
     rule: "clamp-peak-power",
-    bad: review({ ...req12, transients: ["iso7637-2-pulse-2a"], inputClamp: clamp({ breakdownV: 28, peakCurrentA: 60, peakPulsePowerW: 250, tjMaxC: 150 }) }, idealDiode()),
-    twin: review({ ...req12, transients: ["iso7637-2-pulse-2a"], inputClamp: clamp({ breakdownV: 28, peakCurrentA: 60, peakPulsePowerW: 600, tjMaxC: 150 }) }, idealDiode()),
+    bad: review(
+      {
+        ...req12,
+        transients: ["iso7637-2-pulse-2a"],
+        inputClamp: clamp({ breakdownV: 28, peakCurrentA: 60, peakPulsePowerW: 250, tjMaxC: 150 }),
+      },
+      idealDiode(),
+    ),
+    twin: review(
+      {
+        ...req12,
+        transients: ["iso7637-2-pulse-2a"],
+        inputClamp: clamp({ breakdownV: 28, peakCurrentA: 60, peakPulsePowerW: 600, tjMaxC: 150 }),
+      },
+      idealDiode(),
+    ),
   },
   {
     id: "clamp-standoff-below-telecom-abnormal",
@@ -318,8 +439,14 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     why: "a 58 V stand-off clamp on a -48 V feed clears the 57 V normal range but conducts in the abnormal range up to 60 V (ETSI EN 300 132-2, memory)",
     procedure: "review",
     rule: "clamp-standoff-overvoltage",
-    bad: review({ ...req48, inputClamp: clamp({ standoffV: 58, clampV: 80 }) }, idealDiode({ vdsMaxV: 100 }, { maxInputV: 100, reverseRatingV: 100 })),
-    twin: review({ ...req48, inputClamp: clamp({ standoffV: 64, clampV: 85 }) }, idealDiode({ vdsMaxV: 100 }, { maxInputV: 100, reverseRatingV: 100 })),
+    bad: review(
+      { ...req48, inputClamp: clamp({ standoffV: 58, clampV: 80 }) },
+      idealDiode({ vdsMaxV: 100 }, { maxInputV: 100, reverseRatingV: 100 }),
+    ),
+    twin: review(
+      { ...req48, inputClamp: clamp({ standoffV: 64, clampV: 85 }) },
+      idealDiode({ vdsMaxV: 100 }, { maxInputV: 100, reverseRatingV: 100 }),
+    ),
   },
   {
     id: "clamp-standoff-below-jump-start",
@@ -336,8 +463,14 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     why: "a 10 uH loop is cut at the reverse threshold at about 9 A: the MOSFET absorbs about 0.5 mJ, above its 0.3 mJ avalanche rating derated to the event's 88 °C",
     procedure: "review",
     rule: "avalanche-energy",
-    bad: review({ ...req12, turnOff: { ...turnOffEvent, loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } }, idealDiode({ avalancheEnergyJ: "0.3 mJ" })),
-    twin: review({ ...req12, turnOff: { ...turnOffEvent, loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } }, idealDiode({ avalancheEnergyJ: "150 mJ" })),
+    bad: review(
+      { ...req12, turnOff: { ...turnOffEvent, loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } },
+      idealDiode({ avalancheEnergyJ: "0.3 mJ" }),
+    ),
+    twin: review(
+      { ...req12, turnOff: { ...turnOffEvent, loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } },
+      idealDiode({ avalancheEnergyJ: "150 mJ" }),
+    ),
   },
   {
     id: "ideal-diode-avalanche-energy-hot-start",
@@ -345,8 +478,20 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     why: "the same 10 uH cut at about 9 A puts about 0.5 mJ into the MOSFET, within its 1 mJ rating at 25 °C but not within that rating derated to the event's 150 °C start (1 mJ·(175 − 150)/(175 − 25) ≈ 0.17 mJ)",
     procedure: "review",
     rule: "avalanche-energy",
-    bad: review({ ...req12, turnOff: { ...turnOffEvent, tjC: "150 degC", loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } }, idealDiode({ avalancheEnergyJ: "1 mJ" })),
-    twin: review({ ...req12, turnOff: { ...turnOffEvent, tjC: "150 degC", loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } }, idealDiode({ avalancheEnergyJ: "5 mJ" })),
+    bad: review(
+      {
+        ...req12,
+        turnOff: { ...turnOffEvent, tjC: "150 degC", loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } },
+      },
+      idealDiode({ avalancheEnergyJ: "1 mJ" }),
+    ),
+    twin: review(
+      {
+        ...req12,
+        turnOff: { ...turnOffEvent, tjC: "150 degC", loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } },
+      },
+      idealDiode({ avalancheEnergyJ: "5 mJ" }),
+    ),
   },
   {
     id: "ideal-diode-repetitive-avalanche-energy",
@@ -354,8 +499,20 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     why: "the 10 uH cut at about 9 A repeats in service: about 0.5 mJ a time is far within the 150 mJ single-pulse rating but above the MOSFET's 0.3 mJ repetitive rating EAR",
     procedure: "review",
     rule: "avalanche-energy-repetitive",
-    bad: review({ ...req12, turnOff: { ...turnOffEvent, repetitive: true, loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } }, idealDiode({ repetitiveAvalancheEnergyJ: "0.3 mJ" })),
-    twin: review({ ...req12, turnOff: { ...turnOffEvent, repetitive: true, loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } }, idealDiode({ repetitiveAvalancheEnergyJ: "1 mJ" })),
+    bad: review(
+      {
+        ...req12,
+        turnOff: { ...turnOffEvent, repetitive: true, loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } },
+      },
+      idealDiode({ repetitiveAvalancheEnergyJ: "0.3 mJ" }),
+    ),
+    twin: review(
+      {
+        ...req12,
+        turnOff: { ...turnOffEvent, repetitive: true, loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } },
+      },
+      idealDiode({ repetitiveAvalancheEnergyJ: "1 mJ" }),
+    ),
   },
   {
     id: "ideal-diode-vds-breakdown-cold",
@@ -372,8 +529,14 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     why: "the reverse current at turn-off exceeds the MOSFET's avalanche current rating IAS though the energy is within EAS",
     procedure: "review",
     rule: "avalanche-current",
-    bad: review({ ...req12, turnOff: { ...turnOffEvent, timing: { reverseThresholdV: "30 mV", turnOffDelayS: "5 us" } } }, idealDiode({ avalancheEnergyJ: "2 J", avalancheCurrentA: "2 A" })),
-    twin: review({ ...req12, turnOff: { ...turnOffEvent, timing: { reverseThresholdV: "30 mV", turnOffDelayS: "5 us" } } }, idealDiode({ avalancheEnergyJ: "2 J", avalancheCurrentA: "400 A" })),
+    bad: review(
+      { ...req12, turnOff: { ...turnOffEvent, timing: { reverseThresholdV: "30 mV", turnOffDelayS: "5 us" } } },
+      idealDiode({ avalancheEnergyJ: "2 J", avalancheCurrentA: "2 A" }),
+    ),
+    twin: review(
+      { ...req12, turnOff: { ...turnOffEvent, timing: { reverseThresholdV: "30 mV", turnOffDelayS: "5 us" } } },
+      idealDiode({ avalancheEnergyJ: "2 J", avalancheCurrentA: "400 A" }),
+    ),
   },
   {
     id: "controller-start-above-min-supply",
@@ -399,8 +562,14 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     why: "an 8 W constant-power load needing 5 V behind a PN diode loses its operating point at the 4.5 V crank bottom",
     procedure: "review",
     rule: "start-profile-no-dropout",
-    bad: review({ ...req12, load: { kind: "constant-power", powerW: 8, minVoltageV: 5 }, loadMinV: 3, startProfile: crank }, pn({ thermal: { kind: "junction-ambient", rthJaKPerW: 20 } })),
-    twin: review({ ...req12, load: { kind: "constant-power", powerW: 8, minVoltageV: 3 }, loadMinV: 3, startProfile: crank }, pn({ thermal: { kind: "junction-ambient", rthJaKPerW: 20 } })),
+    bad: review(
+      { ...req12, load: { kind: "constant-power", powerW: 8, minVoltageV: 5 }, loadMinV: 3, startProfile: crank },
+      pn({ thermal: { kind: "junction-ambient", rthJaKPerW: 20 } }),
+    ),
+    twin: review(
+      { ...req12, load: { kind: "constant-power", powerW: 8, minVoltageV: 3 }, loadMinV: 3, startProfile: crank },
+      pn({ thermal: { kind: "junction-ambient", rthJaKPerW: 20 } }),
+    ),
   },
   {
     id: "standby-quiescent-over-budget",

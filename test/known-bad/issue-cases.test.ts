@@ -18,22 +18,72 @@ const design = (id: string) => {
 };
 const both = design("clamp-5j-under-load-dump-a") as { requirement: Record<string, unknown>; candidates: unknown[] };
 const REVIEWS: readonly { readonly id: string; readonly rule: string; readonly input: Record<string, unknown> }[] = [
-  { id: "schottky-10a-60v-at-125c-under-28v-reverse", rule: "reverse-leakage-runaway", input: design("schottky-reverse-runaway") },
-  { id: "ideal-diode-clamp-5j-30a-load-dump-a", rule: "clamp-energy", input: { ...both, requirement: { ...both.requirement, transients: ["iso16750-2-load-dump-a-12v", "iso7637-2-pulse-2a"] } } },
-  { id: "ideal-diode-clamp-5j-30a-pulse-2a", rule: "clamp-peak-current", input: { ...both, requirement: { ...both.requirement, transients: ["iso16750-2-load-dump-a-12v", "iso7637-2-pulse-2a"] } } },
-  { id: "controller-pin-20v-under-28v-reverse", rule: "controller-reverse-max", input: design("controller-pin-20v-reverse") },
-  { id: "start-voltage-above-start-profile-bottom", rule: "start-at-profile-minimum", input: design("controller-start-above-crank-bottom") },
-  { id: "ideal-diode-0.5mj-within-eas-at-25c-not-at-150c", rule: "avalanche-energy", input: design("ideal-diode-avalanche-energy-hot-start") },
-  { id: "ideal-diode-repeating-0.5mj-over-0.3mj-ear", rule: "avalanche-energy-repetitive", input: design("ideal-diode-repetitive-avalanche-energy") },
-  { id: "ideal-diode-57v-pulse-1-over-cold-breakdown", rule: "fet-vds-reverse-transient-cold", input: design("ideal-diode-vds-breakdown-cold") },
+  {
+    id: "schottky-10a-60v-at-125c-under-28v-reverse",
+    rule: "reverse-leakage-runaway",
+    input: design("schottky-reverse-runaway"),
+  },
+  {
+    id: "ideal-diode-clamp-5j-30a-load-dump-a",
+    rule: "clamp-energy",
+    input: {
+      ...both,
+      requirement: { ...both.requirement, transients: ["iso16750-2-load-dump-a-12v", "iso7637-2-pulse-2a"] },
+    },
+  },
+  {
+    id: "ideal-diode-clamp-5j-30a-pulse-2a",
+    rule: "clamp-peak-current",
+    input: {
+      ...both,
+      requirement: { ...both.requirement, transients: ["iso16750-2-load-dump-a-12v", "iso7637-2-pulse-2a"] },
+    },
+  },
+  {
+    id: "controller-pin-20v-under-28v-reverse",
+    rule: "controller-reverse-max",
+    input: design("controller-pin-20v-reverse"),
+  },
+  {
+    id: "start-voltage-above-start-profile-bottom",
+    rule: "start-at-profile-minimum",
+    input: design("controller-start-above-crank-bottom"),
+  },
+  {
+    id: "ideal-diode-0.5mj-within-eas-at-25c-not-at-150c",
+    rule: "avalanche-energy",
+    input: design("ideal-diode-avalanche-energy-hot-start"),
+  },
+  {
+    id: "ideal-diode-repeating-0.5mj-over-0.3mj-ear",
+    rule: "avalanche-energy-repetitive",
+    input: design("ideal-diode-repetitive-avalanche-energy"),
+  },
+  {
+    id: "ideal-diode-57v-pulse-1-over-cold-breakdown",
+    rule: "fet-vds-reverse-transient-cold",
+    input: design("ideal-diode-vds-breakdown-cold"),
+  },
 ];
-const HOLD_UP = (JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "holdUp.json"), "utf8")) as { input: Record<string, unknown> }).input;
+const HOLD_UP = (
+  JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "holdUp.json"), "utf8")) as {
+    input: Record<string, unknown>;
+  }
+).input;
 
 type Review = { candidates: { verdict: string; rules: { verdicts: { ruleId: string; outcome: string }[] } }[] };
-type HoldUp = { stages: { result: { outcome: string }; meetsRequirement?: boolean; requirementReason?: string; rules?: { verdicts: { ruleId: string; outcome: string }[] } }[] };
+type HoldUp = {
+  stages: {
+    result: { outcome: string };
+    meetsRequirement?: boolean;
+    requirementReason?: string;
+    rules?: { verdicts: { ruleId: string; outcome: string }[] };
+  }[];
+};
 
 const { app } = testApp();
-const post = (url: string, body: unknown) => app.request(url, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+const post = (url: string, body: unknown) =>
+  app.request(url, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
 async function viaTrpc(procedure: string, input: unknown): Promise<unknown> {
   return ((await (await post(`/trpc/${procedure}`, input)).json()) as { result: { data: unknown } }).result.data;
 }

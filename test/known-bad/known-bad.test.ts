@@ -31,20 +31,30 @@ async function judge(d: KnownBad, input: Record<string, unknown>, set: string): 
     if (c === undefined) throw new Error("no candidate");
     return { verdict: c.verdict, rules: c.rules.verdicts };
   }
-  const rules = (d.procedure === "holdUp" ? (out["stages"] as { rules: unknown }[])[0]?.rules : out["rules"]) as { outcome: string; verdicts: Verdict[] };
+  const rules = (d.procedure === "holdUp" ? (out["stages"] as { rules: unknown }[])[0]?.rules : out["rules"]) as {
+    outcome: string;
+    verdicts: Verdict[];
+  };
   return { verdict: rules.outcome, rules: rules.verdicts };
 }
 
 async function judgeAll(d: KnownBad) {
   const sets = d.sets ?? SETS;
-  return Promise.all(sets.map(async (set) => ({ set, bad: await judge(d, d.bad, set), twin: await judge(d, d.twin, set) })));
+  return Promise.all(
+    sets.map(async (set) => ({ set, bad: await judge(d, d.bad, set), twin: await judge(d, d.twin, set) })),
+  );
 }
 
 describe("known-bad designs", () => {
   it("has at least 20 designs, each naming a rule every applicable set has", () => {
     expect(KNOWN_BAD.length).toBeGreaterThanOrEqual(20);
     expect(new Set(KNOWN_BAD.map((d) => d.id)).size).toBe(KNOWN_BAD.length);
-    for (const d of KNOWN_BAD) for (const s of builtInRuleSets().filter((x) => (d.sets ?? SETS).includes(x.stamp.id))) expect(s.rules.map((r) => r.rule.id), `${s.stamp.id} lacks ${d.rule}`).toContain(d.rule);
+    for (const d of KNOWN_BAD)
+      for (const s of builtInRuleSets().filter((x) => (d.sets ?? SETS).includes(x.stamp.id)))
+        expect(
+          s.rules.map((r) => r.rule.id),
+          `${s.stamp.id} lacks ${d.rule}`,
+        ).toContain(d.rule);
   });
   describe.each(KNOWN_BAD.map((d) => [d.id, d] as const))("%s", (_id, d) => {
     it(`fails on ${d.rule} under every applicable set; its twin passes it`, async () => {

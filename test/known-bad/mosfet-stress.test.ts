@@ -7,8 +7,17 @@ import { KNOWN_BAD } from "./designs.js";
 // design: its energy is within the 25 °C rating and above that rating derated to the event's
 // 150 °C, by the closed form EAS·(Tjmax − Tj)/(Tjmax − 25) = 1 mJ·25/150 (common practice,
 // docs/references.md "MOSFETs"). The cold-breakdown design: below.
-type Clamp = { absorbedJ: number; avalancheRatingJ: number; avalancheRatingAtTjJ: number; withinAvalancheRating: boolean };
-type Out = { candidates: { turnOff: { tjC: number; event: { outcome: string; clamp?: Clamp; metrics: Record<string, number> } } }[] };
+type Clamp = {
+  absorbedJ: number;
+  avalancheRatingJ: number;
+  avalancheRatingAtTjJ: number;
+  withinAvalancheRating: boolean;
+};
+type Out = {
+  candidates: {
+    turnOff: { tjC: number; event: { outcome: string; clamp?: Clamp; metrics: Record<string, number> } };
+  }[];
+};
 
 /** The review of a known-bad design's bad variant (under a rule set when given). */
 async function reviewBad(id: string, ruleSet?: string): Promise<unknown> {
@@ -38,7 +47,9 @@ describe("ideal-diode-avalanche-energy-hot-start", () => {
 
 describe("ideal-diode-vds-breakdown-cold", () => {
   it("stresses the MOSFET within its 25 °C rating and above its breakdown at −40 °C (default set)", async () => {
-    const out = (await reviewBad("ideal-diode-vds-breakdown-cold", "default")) as { candidates: { metrics: Record<string, number>; rules: { verdicts: { ruleId: string; outcome: string }[] } }[] };
+    const out = (await reviewBad("ideal-diode-vds-breakdown-cold", "default")) as {
+      candidates: { metrics: Record<string, number>; rules: { verdicts: { ruleId: string; outcome: string }[] } }[];
+    };
     const c = out.candidates[0];
     if (c === undefined) throw new Error("no candidate");
     // Closed form: 60 V·(1 + 0.001·(−40 − 25)) = 56.1 V.

@@ -17,13 +17,30 @@ const TOO_MANY_NODES = "tjWorstC + lossWorstW + dropWorstV + 1 + 2 <= 200";
 // 74 characters
 const TOO_LONG = `tjWorstC <= part.tjMaxC - 25 K${" ".repeat(44)}`;
 
-const rule = (expression: string, when?: string) => ({ id: "r", title: "r", appliesTo: "all", ...(when === undefined ? {} : { when }), expression, severity: "fail", source: "test", rationale: "test" });
-const inline = (expression: string, when?: string) => ({ stageKind: "nfet-ideal-diode", metrics: { tjWorstC: 96.4, lossWorstW: 0.12, dropWorstV: 0.04 }, part: { tjMaxC: 175 }, ruleSet: { id: "small", version: "1", description: "small", rules: [rule(expression, when)] } });
+const rule = (expression: string, when?: string) => ({
+  id: "r",
+  title: "r",
+  appliesTo: "all",
+  ...(when === undefined ? {} : { when }),
+  expression,
+  severity: "fail",
+  source: "test",
+  rationale: "test",
+});
+const inline = (expression: string, when?: string) => ({
+  stageKind: "nfet-ideal-diode",
+  metrics: { tjWorstC: 96.4, lossWorstW: 0.12, dropWorstV: 0.04 },
+  part: { tjMaxC: 175 },
+  ruleSet: { id: "small", version: "1", description: "small", rules: [rule(expression, when)] },
+});
 
 let server: { child: ChildProcess; base: string };
 const dir = mkdtempSync(join(tmpdir(), "backstop-expression-limits-"));
 beforeAll(async () => {
-  writeFileSync(join(dir, "long.json"), JSON.stringify({ id: "company-long", version: "1", description: "one rule too long", rules: [rule(TOO_LONG)] }));
+  writeFileSync(
+    join(dir, "long.json"),
+    JSON.stringify({ id: "company-long", version: "1", description: "one rule too long", rules: [rule(TOO_LONG)] }),
+  );
   server = await startBuiltServer({ ...LIMITS, BACKSTOP_WORKERS: "1", BACKSTOP_RULES_DIR: dir, LOG_LEVEL: "warn" });
 });
 afterAll(() => {
@@ -31,7 +48,11 @@ afterAll(() => {
   rmSync(dir, { recursive: true, force: true });
 });
 const post = async (path: string, body: unknown) => {
-  const res = await fetch(`${server.base}${path}`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+  const res = await fetch(`${server.base}${path}`, {
+    method: "POST",
+    headers: { "content-type": "application/json" },
+    body: JSON.stringify(body),
+  });
   return { status: res.status, json: (await res.json()) as Record<string, unknown> };
 };
 
@@ -65,6 +86,8 @@ describe("rule-expression size limits, configured", () => {
     expect(r.status).toBe(200);
     const refused = r.json.refused as { file: string; problems: { message: string }[] }[];
     const long = refused.find((f) => f.file.endsWith("long.json"));
-    expect(long?.problems.map((p) => p.message)).toEqual([expect.stringMatching(/characters; the limit is 60 \(limit BACKSTOP_MAX_EXPRESSION_CHARS\)$/)]);
+    expect(long?.problems.map((p) => p.message)).toEqual([
+      expect.stringMatching(/characters; the limit is 60 \(limit BACKSTOP_MAX_EXPRESSION_CHARS\)$/),
+    ]);
   });
 });

@@ -15,40 +15,66 @@ import { builtCli } from "../helpers/build-once.js";
 const bin = builtCli();
 const dir = mkdtempSync(join(tmpdir(), "backstop-faults-"));
 const MARKER = "__backstop_test_worker_fault__"; // adapters/compute/worker.ts, test hook
-const good = (a: number) => ({ stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" }, supplyV: 12, load: { kind: "constant-current", currentA: a }, ambientC: 25 });
-const lines = (n: number, id: (i: number) => string) => `${Array.from({ length: n }, (_, i) => JSON.stringify({ id: id(i), procedure: "operatingPoint", input: good((i % 40) / 10) })).join("\n")}\n`;
-const batch = (args: string[], env: Record<string, string> = {}) => spawnSync("node", [bin, "batch", ...args], { encoding: "utf8", env: { ...process.env, ...env } });
+const good = (a: number) => ({
+  stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" },
+  supplyV: 12,
+  load: { kind: "constant-current", currentA: a },
+  ambientC: 25,
+});
+const lines = (n: number, id: (i: number) => string) =>
+  `${Array.from({ length: n }, (_, i) => JSON.stringify({ id: id(i), procedure: "operatingPoint", input: good((i % 40) / 10) })).join("\n")}\n`;
+const batch = (args: string[], env: Record<string, string> = {}) =>
+  spawnSync("node", [bin, "batch", ...args], { encoding: "utf8", env: { ...process.env, ...env } });
 
 describe("batch: a worker thread that throws or dies", () => {
   const input = join(dir, "faulty.jsonl");
-  writeFileSync(input, lines(400, (i) => (i === 137 || i === 311 ? `${MARKER}-${i}` : `r${i}`)));
+  writeFileSync(
+    input,
+    lines(400, (i) => (i === 137 || i === 311 ? `${MARKER}-${i}` : `r${i}`)),
+  );
   const clean = batch(["--in", input, "--out", join(dir, "clean.jsonl"), "--workers", "2"]);
 
-  it.each(["throw", "crash"])("%s: those rows are reported, every other row is answered as without the fault", (mode) => {
-    const out = join(dir, `fault-${mode}.jsonl`);
-    const r = batch(["--in", input, "--out", out, "--workers", "2"], { BACKSTOP_TEST_WORKER_FAULT: mode });
-    expect(clean.status).toBe(0);
-    expect(r.status, r.stderr).toBe(1); // some rows rejected
-    const got = readFileSync(out, "utf8").trim().split("\n");
-    const want = readFileSync(join(dir, "clean.jsonl"), "utf8").trim().split("\n");
-    expect(got).toHaveLength(400);
-    const failed = got.map((l) => JSON.parse(l) as { id: string; line: number; ok: boolean; error?: { code: string; message: string } }).filter((o) => !o.ok);
-    expect(failed.map((f) => [f.id, f.line, f.error?.code])).toEqual([
-      [`${MARKER}-137`, 138, "internal"],
-      [`${MARKER}-311`, 312, "internal"],
-    ]);
-    expect(failed[0]?.error?.message).toMatch(/worker thread failed/);
-    for (let i = 0; i < 400; i += 1) if (i !== 137 && i !== 311) expect(got[i]).toBe(want[i]);
-  }, 60_000);
+  it.each(["throw", "crash"])(
+    "%s: those rows are reported, every other row is answered as without the fault",
+    (mode) => {
+      const out = join(dir, `fault-${mode}.jsonl`);
+      const r = batch(["--in", input, "--out", out, "--workers", "2"], { BACKSTOP_TEST_WORKER_FAULT: mode });
+      expect(clean.status).toBe(0);
+      expect(r.status, r.stderr).toBe(1); // some rows rejected
+      const got = readFileSync(out, "utf8").trim().split("\n");
+      const want = readFileSync(join(dir, "clean.jsonl"), "utf8").trim().split("\n");
+      expect(got).toHaveLength(400);
+      const failed = got
+        .map(
+          (l) => JSON.parse(l) as { id: string; line: number; ok: boolean; error?: { code: string; message: string } },
+        )
+        .filter((o) => !o.ok);
+      expect(failed.map((f) => [f.id, f.line, f.error?.code])).toEqual([
+        [`${MARKER}-137`, 138, "internal"],
+        [`${MARKER}-311`, 312, "internal"],
+      ]);
+      expect(failed[0]?.error?.message).toMatch(/worker thread failed/);
+      for (let i = 0; i < 400; i += 1) if (i !== 137 && i !== 311) expect(got[i]).toBe(want[i]);
+    },
+    60_000,
+  );
 });
 
 describe("batch: kill -9", () => {
   it("leaves nothing under the final name; the rerun is byte-identical to an undisturbed run", async () => {
     const input = join(dir, "big.jsonl");
-    writeFileSync(input, lines(30_000, (i) => `k${i}`));
+    writeFileSync(
+      input,
+      lines(30_000, (i) => `k${i}`),
+    );
     const out = join(dir, "killed.jsonl");
-    const child = spawn("node", [bin, "batch", "--in", input, "--out", out, "--workers", "1"], { env: { ...process.env, BACKSTOP_PROGRESS_MS: "1" }, stdio: ["ignore", "ignore", "pipe"] });
-    await new Promise<void>((resolve) => child.stderr.on("data", (d: Buffer) => (/[1-9]\d* rows/.test(String(d)) ? resolve() : undefined)));
+    const child = spawn("node", [bin, "batch", "--in", input, "--out", out, "--workers", "1"], {
+      env: { ...process.env, BACKSTOP_PROGRESS_MS: "1" },
+      stdio: ["ignore", "ignore", "pipe"],
+    });
+    await new Promise<void>((resolve) =>
+      child.stderr.on("data", (d: Buffer) => (/[1-9]\d* rows/.test(String(d)) ? resolve() : undefined)),
+    );
     child.kill("SIGKILL");
     expect(await new Promise((r) => child.on("exit", (_c, s) => r(s)))).toBe("SIGKILL");
     expect(existsSync(out)).toBe(false);
@@ -70,7 +96,12 @@ describe("server: slow clients are cut off by the header and request deadlines",
   });
 
   it("a stalled header or body is answered 408 and closed; other clients are served meanwhile", async () => {
-    const server = await startBuiltServer({ LOG_LEVEL: "warn", BACKSTOP_WORKERS: "0", BACKSTOP_HEADERS_TIMEOUT_MS: "400", BACKSTOP_RECEIVE_TIMEOUT_MS: "800" });
+    const server = await startBuiltServer({
+      LOG_LEVEL: "warn",
+      BACKSTOP_WORKERS: "0",
+      BACKSTOP_HEADERS_TIMEOUT_MS: "400",
+      BACKSTOP_RECEIVE_TIMEOUT_MS: "800",
+    });
     const c = server.child;
     child = c;
     const port = server.port;
@@ -91,8 +122,14 @@ describe("server: slow clients are cut off by the header and request deadlines",
         }, 10_000).unref();
       });
     const header = stall("POST /v1/operatingPoint HTTP/1.1\r\nHost: 127.0.0.1\r\nContent-Type: appl");
-    const body = stall(`POST /v1/operatingPoint HTTP/1.1\r\nHost: 127.0.0.1\r\nContent-Type: application/json\r\nContent-Length: 1000\r\n\r\n{"stage":`);
-    const served = await fetch(`http://127.0.0.1:${port}/v1/operatingPoint`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(good(2)) });
+    const body = stall(
+      `POST /v1/operatingPoint HTTP/1.1\r\nHost: 127.0.0.1\r\nContent-Type: application/json\r\nContent-Length: 1000\r\n\r\n{"stage":`,
+    );
+    const served = await fetch(`http://127.0.0.1:${port}/v1/operatingPoint`, {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: JSON.stringify(good(2)),
+    });
     expect(served.status).toBe(200);
     for (const r of [await header, await body]) {
       expect(r.reply).toMatch(/^HTTP\/1\.1 408/);

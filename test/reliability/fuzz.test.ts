@@ -55,7 +55,11 @@ interface Problem {
 
 async function send(surface: "v1" | "trpc", procedure: string, body: string): Promise<void> {
   cases += 1;
-  const res = await app.request(`/${surface}/${procedure}`, { method: "POST", headers: { "content-type": "application/json" }, body });
+  const res = await app.request(`/${surface}/${procedure}`, {
+    method: "POST",
+    headers: { "content-type": "application/json" },
+    body,
+  });
   const text = await res.text();
   const where = `${surface}/${procedure} ${res.status}: ${text.slice(0, 300)} ← ${body.slice(0, 200)}`;
   if (res.status >= 500) throw new Error(`5xx: ${where}`);
@@ -66,10 +70,12 @@ async function send(surface: "v1" | "trpc", procedure: string, body: string): Pr
   if (res.status >= 500 || res.status < 400) throw new Error(`unexpected status: ${where}`);
   const json = JSON.parse(text) as Problem & { error?: { data?: { backstop?: Problem } } };
   const problem = surface === "v1" ? json : json.error?.data?.backstop;
-  if (problem === undefined || typeof problem.code !== "string") throw new Error(`a rejection without a problem code: ${where}`);
+  if (problem === undefined || typeof problem.code !== "string")
+    throw new Error(`a rejection without a problem code: ${where}`);
   const issues = problem.issues ?? [];
   if (issues.length === 0) throw new Error(`a rejection that names no path: ${where}`);
-  for (const i of issues) if (!Array.isArray(i.path) || typeof i.message !== "string") throw new Error(`an issue without a path: ${where}`);
+  for (const i of issues)
+    if (!Array.isArray(i.path) || typeof i.message !== "string") throw new Error(`an issue without a path: ${where}`);
 }
 
 describe("fuzzing /v1 and /trpc: zero 5xx, every rejection a 4xx naming a path", () => {
@@ -84,25 +90,36 @@ describe("fuzzing /v1 and /trpc: zero 5xx, every rejection a 4xx naming a path",
   it.each(procedures)("%s: random JSON and random text", async (procedure) => {
     for (const surface of ["v1", "trpc"] as const) {
       await fc.assert(
-        fc.asyncProperty(fc.oneof(fc.jsonValue().map((v) => JSON.stringify(v)), fc.string({ maxLength: 200 }), fc.json({ depthSize: "large" })), async (body) => {
-          await send(surface, procedure, body);
-        }),
+        fc.asyncProperty(
+          fc.oneof(
+            fc.jsonValue().map((v) => JSON.stringify(v)),
+            fc.string({ maxLength: 200 }),
+            fc.json({ depthSize: "large" }),
+          ),
+          async (body) => {
+            await send(surface, procedure, body);
+          },
+        ),
         { numRuns: RANDOM_RUNS, seed: SEED },
       );
     }
   });
 
-  it.each(procedures)("%s: the example with one field mutated", async (procedure) => {
-    const input = examples.get(procedure);
-    for (const surface of ["v1", "trpc"] as const) {
-      await fc.assert(
-        fc.asyncProperty(mutationArb, async (m) => {
-          await send(surface, procedure, mutatedBody(input, m));
-        }),
-        { numRuns: MUTATION_RUNS[procedure] ?? 5, seed: SEED },
-      );
-    }
-  }, 120_000);
+  it.each(procedures)(
+    "%s: the example with one field mutated",
+    async (procedure) => {
+      const input = examples.get(procedure);
+      for (const surface of ["v1", "trpc"] as const) {
+        await fc.assert(
+          fc.asyncProperty(mutationArb, async (m) => {
+            await send(surface, procedure, mutatedBody(input, m));
+          }),
+          { numRuns: MUTATION_RUNS[procedure] ?? 5, seed: SEED },
+        );
+      }
+    },
+    120_000,
+  );
 
   it("ran at least 10,000 cases and logged no internal error", () => {
     expect(cases).toBeGreaterThanOrEqual(10_000);

@@ -7,7 +7,12 @@ import { startBuiltServer } from "../helpers/built-server.js";
 
 // Issue 22's bounds, through the built server as it ships (one HTTP process, one compute thread),
 // with a small compute budget and answer limit so each case runs in about a second.
-const example = (p: string) => (JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", `${p}.json`), "utf8")) as { input: Record<string, unknown> }).input;
+const example = (p: string) =>
+  (
+    JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", `${p}.json`), "utf8")) as {
+      input: Record<string, unknown>;
+    }
+  ).input;
 const review = example("review");
 const reviewRequirement = review.requirement as Record<string, unknown>;
 const reviewCandidates = review.candidates as unknown[];
@@ -19,7 +24,13 @@ const deep = (n: number) => `${'{"a":'.repeat(n)}1${"}".repeat(n)}`;
 
 let server: { child: ChildProcess; base: string };
 beforeAll(async () => {
-  server = await startBuiltServer({ BACKSTOP_HTTP_PROCESSES: "1", BACKSTOP_WORKERS: "1", BACKSTOP_REQUEST_TIMEOUT_MS: "4000", BACKSTOP_MAX_ANSWER_BYTES: "1000000", LOG_LEVEL: "warn" });
+  server = await startBuiltServer({
+    BACKSTOP_HTTP_PROCESSES: "1",
+    BACKSTOP_WORKERS: "1",
+    BACKSTOP_REQUEST_TIMEOUT_MS: "4000",
+    BACKSTOP_MAX_ANSWER_BYTES: "1000000",
+    LOG_LEVEL: "warn",
+  });
   // past start-up (the compute thread and the built-in rule sets are warmed just after listening)
   // (a thread starting on a busy host may take past the budget: its first calls are retried)
   let warm = 0;
@@ -32,14 +43,20 @@ afterAll(() => {
 });
 
 const post = async (path: string, body: unknown, headers: Record<string, string> = {}) => {
-  const res = await fetch(`${server.base}${path}`, { method: "POST", headers: { "content-type": "application/json", ...headers }, body: typeof body === "string" ? body : JSON.stringify(body) });
+  const res = await fetch(`${server.base}${path}`, {
+    method: "POST",
+    headers: { "content-type": "application/json", ...headers },
+    body: typeof body === "string" ? body : JSON.stringify(body),
+  });
   const text = await res.text();
   return { status: res.status, text, json: () => JSON.parse(text) as Record<string, unknown> };
 };
 /** The backstop error body of a /v1 problem or a /trpc error. */
 const bodyOf = (r: { json: () => Record<string, unknown> }) => {
   const j = r.json();
-  if ("error" in j) return (j.error as { data: { backstop: { code: string; message: string; issues: { message: string }[] } } }).data.backstop;
+  if ("error" in j)
+    return (j.error as { data: { backstop: { code: string; message: string; issues: { message: string }[] } } }).data
+      .backstop;
   return { code: j.code as string, message: j.detail as string, issues: j.issues as { message: string }[] };
 };
 
@@ -78,20 +95,31 @@ describe("limits on inputs: 422 naming the limit, over /v1, bulk, /trpc and repo
       expect(r.status).toBe(400);
       const issues = bodyOf(r).issues;
       expect(issues).toHaveLength(21);
-      expect(issues[20]?.message).toMatch(/^180 more issues not listed \(the first 20 of 200 are; limit BACKSTOP_MAX_ERROR_ISSUES\)/);
+      expect(issues[20]?.message).toMatch(
+        /^180 more issues not listed \(the first 20 of 200 are; limit BACKSTOP_MAX_ERROR_ISSUES\)/,
+      );
       expect(r.text.length).toBeLessThan(8000);
     }
   });
 
   it("candidates, profile points x candidates and Monte Carlo samples past their limits", async () => {
-    const many = { ...plainReview, candidates: Array.from({ length: 65 }, (_, i) => reviewCandidates[i % reviewCandidates.length]) };
+    const many = {
+      ...plainReview,
+      candidates: Array.from({ length: 65 }, (_, i) => reviewCandidates[i % reviewCandidates.length]),
+    };
     const r1 = await post("/v1/review", many);
     expect(r1.status).toBe(422);
     expect(bodyOf(r1).message).toMatch(/candidates in one review: at most 64 \(limit BACKSTOP_MAX_CANDIDATES\)/);
-    const long = { ...plainReview, requirement: { ...reviewRequirement, startProfile: profile(600) }, candidates: reviewCandidates.slice(0, 2) };
+    const long = {
+      ...plainReview,
+      requirement: { ...reviewRequirement, startProfile: profile(600) },
+      candidates: reviewCandidates.slice(0, 2),
+    };
     const r2 = await post("/trpc/review", long);
     expect(r2.status).toBe(422);
-    expect(bodyOf(r2).message).toMatch(/start-up profile points times candidates is 1200: at most 1000 \(limit BACKSTOP_MAX_PROFILE_WORK\)/);
+    expect(bodyOf(r2).message).toMatch(
+      /start-up profile points times candidates is 1200: at most 1000 \(limit BACKSTOP_MAX_PROFILE_WORK\)/,
+    );
     const mc = { ...review, monteCarlo: { ...(review.monteCarlo as object), samples: 100_001 } };
     const r3 = await post("/v1/review", mc);
     expect(r3.status).toBe(422);
@@ -101,25 +129,41 @@ describe("limits on inputs: 422 naming the limit, over /v1, bulk, /trpc and repo
 
 describe("limits on answers and time", () => {
   it("an answer past BACKSTOP_MAX_ANSWER_BYTES is 422 answer-too-large on /v1, bulk, /trpc and reports", async () => {
-    const big = { ...plainReview, requirement: { ...reviewRequirement, startProfile: profile(200) }, candidates: reviewCandidates.slice(0, 1) };
+    const big = {
+      ...plainReview,
+      requirement: { ...reviewRequirement, startProfile: profile(200) },
+      candidates: reviewCandidates.slice(0, 1),
+    };
     for (const path of ["/v1/review", "/trpc/review", "/v1/review/report?format=json"]) {
       const r = await post(path, big);
       expect([path, r.status]).toEqual([path, 422]);
       expect(bodyOf(r).code).toBe("answer-too-large");
       expect(bodyOf(r).message).toMatch(/at most 1000000 \(limit BACKSTOP_MAX_ANSWER_BYTES\)/);
     }
-    const bulk = await post("/v1/review/bulk", Array.from({ length: 2 }, () => ({ ...big, requirement: { ...reviewRequirement, startProfile: profile(60) } }))); // about 0.7 MB each
+    const bulk = await post(
+      "/v1/review/bulk",
+      Array.from({ length: 2 }, () => ({ ...big, requirement: { ...reviewRequirement, startProfile: profile(60) } })),
+    ); // about 0.7 MB each
     expect(bulk.status).toBe(422);
     expect(bodyOf(bulk).code).toBe("answer-too-large");
   });
 
   it("/trpc and reports run under the compute budget, off the request thread: /livez answers within 100 ms meanwhile", async () => {
     // a server of its own with a 1 s budget; 100,000 Monte Carlo samples are several seconds of compute with a small answer
-    const own = await startBuiltServer({ BACKSTOP_HTTP_PROCESSES: "1", BACKSTOP_WORKERS: "1", BACKSTOP_REQUEST_TIMEOUT_MS: "1000", LOG_LEVEL: "warn" });
+    const own = await startBuiltServer({
+      BACKSTOP_HTTP_PROCESSES: "1",
+      BACKSTOP_WORKERS: "1",
+      BACKSTOP_REQUEST_TIMEOUT_MS: "1000",
+      LOG_LEVEL: "warn",
+    });
     const slow = { ...review, monteCarlo: { ...(review.monteCarlo as object), samples: 100_000 } };
     await new Promise((r) => setTimeout(r, 1500)); // past its start-up warm-up (the built-in rule sets compile in the main thread)
     for (const path of ["/trpc/review", "/v1/review/report?format=markdown"]) {
-      const call = fetch(`${own.base}${path}`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(slow) }).then(async (res) => {
+      const call = fetch(`${own.base}${path}`, {
+        method: "POST",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify(slow),
+      }).then(async (res) => {
         const text = await res.text();
         return { status: res.status, text, json: () => JSON.parse(text) as Record<string, unknown> };
       });
@@ -141,7 +185,9 @@ describe("limits on answers and time", () => {
       // every probe within 100 ms but for scheduling noise on a shared 2-core host (the compute thread,
       // and its replacement started at the budget, take one core; the test runner the other)
       const sorted = [...probes].sort((a, b) => a - b);
-      console.log(`${path}: /livez ms during the call, median ${sorted[Math.floor(sorted.length / 2)]?.toFixed(0)}, max ${sorted.at(-1)?.toFixed(0)} over ${sorted.length}`);
+      console.log(
+        `${path}: /livez ms during the call, median ${sorted[Math.floor(sorted.length / 2)]?.toFixed(0)}, max ${sorted.at(-1)?.toFixed(0)} over ${sorted.length}`,
+      );
       expect(sorted[Math.floor(sorted.length * 0.9)]).toBeLessThan(100);
       expect(sorted.at(-1)).toBeLessThan(300);
     }

@@ -21,12 +21,13 @@ function nonFinite(v: unknown, at = "", out: string[] = []): string[] {
     if (!Number.isFinite(v)) out.push(`${at}=${v}`);
   } else if (Array.isArray(v)) {
     for (let i = 0; i < v.length; i += 1) nonFinite(v[i], `${at}[${i}]`, out);
-  }
-  else if (typeof v === "object" && v !== null) for (const [k, x] of Object.entries(v)) nonFinite(x, `${at}.${k}`, out);
+  } else if (typeof v === "object" && v !== null)
+    for (const [k, x] of Object.entries(v)) nonFinite(x, `${at}.${k}`, out);
   return out;
 }
 
-const logUniform = (lo: number, hi: number) => fc.double({ min: Math.log10(lo), max: Math.log10(hi), noNaN: true }).map((x) => 10 ** x);
+const logUniform = (lo: number, hi: number) =>
+  fc.double({ min: Math.log10(lo), max: Math.log10(hi), noNaN: true }).map((x) => 10 ** x);
 const PARTS = demoContext()
   .catalog.list()
   .map((p) => p.id);
@@ -39,12 +40,16 @@ const opInput = fc.record(
     load: fc.oneof(
       logUniform(1e-6, 200).map((currentA) => ({ kind: "constant-current", currentA })),
       logUniform(1e-2, 1e6).map((resistanceOhm) => ({ kind: "resistive", resistanceOhm })),
-      fc.tuple(logUniform(1e-3, 5000), fc.double({ min: 0, max: 60, noNaN: true })).map(([powerW, minVoltageV]) => ({ kind: "constant-power", powerW, minVoltageV })),
+      fc
+        .tuple(logUniform(1e-3, 5000), fc.double({ min: 0, max: 60, noNaN: true }))
+        .map(([powerW, minVoltageV]) => ({ kind: "constant-power", powerW, minVoltageV })),
     ),
     ambientC: fc.double({ min: -60, max: 200, noNaN: true }),
     thermal: fc.oneof(
       logUniform(0.1, 2000).map((rthJaKPerW) => ({ kind: "junction-ambient", rthJaKPerW })),
-      fc.tuple(logUniform(0.01, 50), logUniform(0.01, 10), logUniform(0.01, 500)).map(([a, b, c]) => ({ kind: "junction-case-sink", rthJcKPerW: a, rthCsKPerW: b, rthSaKPerW: c })),
+      fc
+        .tuple(logUniform(0.01, 50), logUniform(0.01, 10), logUniform(0.01, 500))
+        .map(([a, b, c]) => ({ kind: "junction-case-sink", rthJcKPerW: a, rthCsKPerW: b, rthSaKPerW: c })),
     ),
   },
   { requiredKeys: ["stage", "supplyV", "load", "ambientC"] },
@@ -56,7 +61,8 @@ function scaled(input: unknown, factors: readonly number[]): unknown {
   const walk = (v: unknown): unknown => {
     if (typeof v === "number" && v > 0) return v * (factors[k++ % factors.length] as number);
     if (Array.isArray(v)) return v.map(walk);
-    if (typeof v === "object" && v !== null) return Object.fromEntries(Object.entries(v).map(([key, x]) => [key, walk(x)]));
+    if (typeof v === "object" && v !== null)
+      return Object.fromEntries(Object.entries(v).map(([key, x]) => [key, walk(x)]));
     return v;
   };
   return walk(input);
@@ -71,14 +77,18 @@ async function check(procedure: string, input: unknown, outcomes: Map<string, nu
     result = await invoke(input);
   } catch (e) {
     const body = errorBodyOf(e);
-    if (body.code === "internal") throw new Error(`internal error for ${JSON.stringify(input)}: ${String((e as { cause?: unknown }).cause ?? e)}`);
+    if (body.code === "internal")
+      throw new Error(`internal error for ${JSON.stringify(input)}: ${String((e as { cause?: unknown }).cause ?? e)}`);
     outcomes.set(`error:${body.code}`, (outcomes.get(`error:${body.code}`) ?? 0) + 1);
     return;
   }
   const bad = nonFinite(result);
   if (bad.length > 0) throw new Error(`non-finite ${bad.slice(0, 5).join(", ")} for ${JSON.stringify(input)}`);
   const parsed = output.safeParse(result);
-  if (!parsed.success) throw new Error(`result does not match the output contract (${parsed.error.issues[0]?.path.join(".")}: ${parsed.error.issues[0]?.message}) for ${JSON.stringify(input)}`);
+  if (!parsed.success)
+    throw new Error(
+      `result does not match the output contract (${parsed.error.issues[0]?.path.join(".")}: ${parsed.error.issues[0]?.message}) for ${JSON.stringify(input)}`,
+    );
   const outcome = (result as { outcome?: unknown }).outcome;
   const label = typeof outcome === "string" ? outcome : "ok";
   outcomes.set(label, (outcomes.get(label) ?? 0) + 1);
@@ -95,7 +105,9 @@ describe("numerical robustness: random valid inputs", () => {
     expect(total).toBe(100_000);
     // the ranges reach past the physics: solved points and the non-converged outcomes both occur
     expect(outcomes.get("solved") ?? 0).toBeGreaterThan(10_000);
-    expect([...outcomes.keys()].filter((k) => k !== "solved" && !k.startsWith("error:")).length).toBeGreaterThanOrEqual(3);
+    expect([...outcomes.keys()].filter((k) => k !== "solved" && !k.startsWith("error:")).length).toBeGreaterThanOrEqual(
+      3,
+    );
     if (process.env.BACKSTOP_REPORT) console.log(Object.fromEntries([...outcomes].sort()));
   }, 300_000);
 
@@ -106,13 +118,19 @@ describe("numerical robustness: random valid inputs", () => {
     ["bridgeDc", 100],
     ["rules.evaluate", 400],
   ];
-  it.each(others)("%s: %i scaled examples, contract-shaped and finite", async (procedure, runs) => {
-    const example = exampleInputs().get(procedure);
-    const outcomes = new Map<string, number>();
-    await fc.assert(
-      fc.asyncProperty(fc.array(logUniform(0.2, 5), { minLength: 8, maxLength: 8 }), async (factors) => check(procedure, scaled(example, factors), outcomes)),
-      { numRuns: runs, seed: SEED },
-    );
-    expect([...outcomes.values()].reduce((a, b) => a + b, 0)).toBe(runs);
-  }, 120_000);
+  it.each(others)(
+    "%s: %i scaled examples, contract-shaped and finite",
+    async (procedure, runs) => {
+      const example = exampleInputs().get(procedure);
+      const outcomes = new Map<string, number>();
+      await fc.assert(
+        fc.asyncProperty(fc.array(logUniform(0.2, 5), { minLength: 8, maxLength: 8 }), async (factors) =>
+          check(procedure, scaled(example, factors), outcomes),
+        ),
+        { numRuns: runs, seed: SEED },
+      );
+      expect([...outcomes.values()].reduce((a, b) => a + b, 0)).toBe(runs);
+    },
+    120_000,
+  );
 });

@@ -7,7 +7,9 @@ import { projectRoot } from "../../adapters/project-root.js";
 export function exampleInputs(): Map<string, unknown> {
   const dir = join(projectRoot(), "examples", "requests");
   const out = new Map<string, unknown>();
-  for (const f of readdirSync(dir).filter((f) => f.endsWith(".json")).sort()) {
+  for (const f of readdirSync(dir)
+    .filter((f) => f.endsWith(".json"))
+    .sort()) {
     const c = JSON.parse(readFileSync(join(dir, f), "utf8")) as { procedure: string; input: unknown };
     out.set(c.procedure, c.input);
   }
@@ -55,19 +57,43 @@ export function pathsOf(v: unknown, at: Path = []): Path[] {
   const out: Path[] = [];
   if (Array.isArray(v)) {
     for (let i = 0; i < v.length; i += 1) out.push([...at, i], ...pathsOf(v[i], [...at, i]));
-  }
-  else if (typeof v === "object" && v !== null) for (const [k, x] of Object.entries(v)) out.push([...at, k], ...pathsOf(x, [...at, k]));
+  } else if (typeof v === "object" && v !== null)
+    for (const [k, x] of Object.entries(v)) out.push([...at, k], ...pathsOf(x, [...at, k]));
   return out;
 }
 
-export const MUTATIONS = ["type", "sign", "magnitude", "wrong-unit", "missing", "extra", "huge-string", "deep-nesting"] as const;
+export const MUTATIONS = [
+  "type",
+  "sign",
+  "magnitude",
+  "wrong-unit",
+  "missing",
+  "extra",
+  "huge-string",
+  "deep-nesting",
+] as const;
 export type Mutation = (typeof MUTATIONS)[number];
 
 const DEEP = "__fuzz_deep_nesting__";
 const DEPTH = 10_000;
 const typeSwaps = [null, true, "text", 7, [], {}, [1, 2], { kind: "nothing" }];
 const magnitudes = [1e300, -1e300, 1e-300, 0, Number.MAX_VALUE, 5e15, -0, 2 ** 53 + 1];
-const wrongUnits = ["3 kg", "5 m/s", "2 V", "1 A", "4 s", "7 degC", "12 ohm", "1 J", "2 K/W", "banana", "1e999 V", "NaN V", "-Infinity A", ""];
+const wrongUnits = [
+  "3 kg",
+  "5 m/s",
+  "2 V",
+  "1 A",
+  "4 s",
+  "7 degC",
+  "12 ohm",
+  "1 J",
+  "2 K/W",
+  "banana",
+  "1e999 V",
+  "NaN V",
+  "-Infinity A",
+  "",
+];
 
 /** A mutation of one node, as an arbitrary: the kind, the node index and the replacement picks. */
 export const mutationArb = fc.record({ kind: fc.constantFrom(...MUTATIONS), node: fc.nat(), pick: fc.nat() });
@@ -113,7 +139,8 @@ export function mutatedBody(input: unknown, m: { kind: Mutation; node: number; p
       else delete (parent as Record<string, unknown>)[key as string];
       break;
     case "extra":
-      if (typeof old === "object" && old !== null && !Array.isArray(old)) (old as Record<string, unknown>).unexpectedField = pick([1, "x", null, { a: 1 }]);
+      if (typeof old === "object" && old !== null && !Array.isArray(old))
+        (old as Record<string, unknown>).unexpectedField = pick([1, "x", null, { a: 1 }]);
       else copy.unexpectedField = 1;
       break;
     case "huge-string":
@@ -129,7 +156,14 @@ export function mutatedBody(input: unknown, m: { kind: Mutation; node: number; p
 }
 
 /** Families that bound resources (issue 22): nesting depth, width (many items or keys) and size, each at one node of an example. */
-export const RESOURCE_MUTATIONS = ["depth-over-limit", "deep-array", "deep-object", "wide-array", "wide-object", "big-string"] as const;
+export const RESOURCE_MUTATIONS = [
+  "depth-over-limit",
+  "deep-array",
+  "deep-object",
+  "wide-array",
+  "wide-object",
+  "big-string",
+] as const;
 export type ResourceMutation = (typeof RESOURCE_MUTATIONS)[number];
 
 const WIDE = "__fuzz_wide__";

@@ -14,7 +14,12 @@ const part = { tjMaxC: 175 };
 /** attacks over a size limit (contracts/limits.ts), with the limit each one names */
 const OVER_A_LIMIT = new Map([
   [`${"tjWorstC + ".repeat(100_000)}1 <= 0`, "BACKSTOP_MAX_EXPRESSION_CHARS"],
-  [`min(${Array(16).fill(`max(${Array(16).fill("1").join(",")})`).join(",")}) <= 1`, "BACKSTOP_MAX_EXPRESSION_NODES"],
+  [
+    `min(${Array(16)
+      .fill(`max(${Array(16).fill("1").join(",")})`)
+      .join(",")}) <= 1`,
+    "BACKSTOP_MAX_EXPRESSION_NODES",
+  ],
 ]);
 
 const ATTACKS = [
@@ -90,35 +95,55 @@ function inline(expression: string, when?: string) {
     stageKind: "nfet-ideal-diode",
     metrics,
     part,
-    ruleSet: { id: "attack", version: "1", description: "attack", rules: [{ id: "a", title: "a", appliesTo: "all", ...(when === undefined ? {} : { when }), expression, severity: "fail", source: "test", rationale: "test" }] },
+    ruleSet: {
+      id: "attack",
+      version: "1",
+      description: "attack",
+      rules: [
+        {
+          id: "a",
+          title: "a",
+          appliesTo: "all",
+          ...(when === undefined ? {} : { when }),
+          expression,
+          severity: "fail",
+          source: "test",
+          rationale: "test",
+        },
+      ],
+    },
   };
 }
-const post = (path: string, body: unknown) => app.request(path, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+const post = (path: string, body: unknown) =>
+  app.request(path, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
 
 describe("sandbox attacks over HTTP (rules.evaluate with an inline rule set)", () => {
-  it.each(ATTACKS.map((a, i) => [i, a.length > 60 ? `${a.slice(0, 60)}… (${a.length} chars)` : a, a] as const))("attack %i: %s", async (_i, _label, attack) => {
-    for (const [where, body] of [
-      ["expression", inline(attack)],
-      ["when", inline("tjWorstC <= 150", attack)],
-    ] as const) {
-      const v1 = await post("/v1/rules.evaluate", body);
-      const problem = (await v1.json()) as { code: string; issues: { path: (string | number)[]; message: string }[] };
-      const limit = OVER_A_LIMIT.get(attack);
-      if (limit === undefined) {
-        expect(v1.status, JSON.stringify(problem).slice(0, 300)).toBe(400);
-        expect(["invalid-rule-set", "invalid-input"]).toContain(problem.code);
-      } else {
-        expect(v1.status, JSON.stringify(problem).slice(0, 300)).toBe(422);
-        expect(problem.code).toBe("limit-exceeded");
-        expect(problem.issues.every((i) => i.message.endsWith(`(limit ${limit})`))).toBe(true);
+  it.each(ATTACKS.map((a, i) => [i, a.length > 60 ? `${a.slice(0, 60)}… (${a.length} chars)` : a, a] as const))(
+    "attack %i: %s",
+    async (_i, _label, attack) => {
+      for (const [where, body] of [
+        ["expression", inline(attack)],
+        ["when", inline("tjWorstC <= 150", attack)],
+      ] as const) {
+        const v1 = await post("/v1/rules.evaluate", body);
+        const problem = (await v1.json()) as { code: string; issues: { path: (string | number)[]; message: string }[] };
+        const limit = OVER_A_LIMIT.get(attack);
+        if (limit === undefined) {
+          expect(v1.status, JSON.stringify(problem).slice(0, 300)).toBe(400);
+          expect(["invalid-rule-set", "invalid-input"]).toContain(problem.code);
+        } else {
+          expect(v1.status, JSON.stringify(problem).slice(0, 300)).toBe(422);
+          expect(problem.code).toBe("limit-exceeded");
+          expect(problem.issues.every((i) => i.message.endsWith(`(limit ${limit})`))).toBe(true);
+        }
+        expect(problem.issues.some((i) => i.path.join(".") === `ruleSet.rules.0.${where}`)).toBe(true);
+        const trpc = await post("/trpc/rules.evaluate", body);
+        expect(trpc.status).toBe(limit === undefined ? 400 : 422);
+        const t = (await trpc.json()) as { error: { data: { backstop: { issues: { path: (string | number)[] }[] } } } };
+        expect(t.error.data.backstop.issues.map((i) => i.path.join("."))).toContain(`ruleSet.rules.0.${where}`);
       }
-      expect(problem.issues.some((i) => i.path.join(".") === `ruleSet.rules.0.${where}`)).toBe(true);
-      const trpc = await post("/trpc/rules.evaluate", body);
-      expect(trpc.status).toBe(limit === undefined ? 400 : 422);
-      const t = (await trpc.json()) as { error: { data: { backstop: { issues: { path: (string | number)[] }[] } } } };
-      expect(t.error.data.backstop.issues.map((i) => i.path.join("."))).toContain(`ruleSet.rules.0.${where}`);
-    }
-  });
+    },
+  );
 
   it("nothing leaked into the process and the server still answers", async () => {
     expect(({} as Record<string, unknown>).polluted).toBeUndefined();

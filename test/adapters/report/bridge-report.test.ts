@@ -15,7 +15,10 @@ describe("AC bridge report", () => {
   let result: BridgeAcOutput;
   let id: string;
   beforeAll(async () => {
-    const line = JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "bridgeAc.json"), "utf8")) as { id: string; input: object };
+    const line = JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "bridgeAc.json"), "utf8")) as {
+      id: string;
+      input: object;
+    };
     id = line.id;
     const invoke = procedureInvoker(demoContext())("bridgeAc");
     if (invoke === undefined) throw new Error("bridgeAc missing");
@@ -37,7 +40,14 @@ describe("AC bridge report", () => {
         const unit = /\((µs|ms|s)\)$/.exec(byClass(svg, "x-label")[0]?.textContent ?? "")?.[1];
         const f = unit === "µs" ? 1e6 : unit === "ms" ? 1e3 : 1;
         expect(byClass(svg, "y-label")[0]?.textContent).toMatch(/\((A|V)\)$/);
-        const want = new Map<string, readonly number[]>(chart.kind === "element-current" ? POSITIONS.map((p) => [p, w.elementCurrentA[p]]) : [["source", w.sourceV], ["output", w.outputV]]);
+        const want = new Map<string, readonly number[]>(
+          chart.kind === "element-current"
+            ? POSITIONS.map((p) => [p, w.elementCurrentA[p]])
+            : [
+                ["source", w.sourceV],
+                ["output", w.outputV],
+              ],
+        );
         const { x, y } = axisScales(svg);
         const groups = byClass(svg, "series");
         expect(groups.map((g) => g.getAttribute("data-series"))).toEqual([...want.keys()]);
@@ -52,7 +62,9 @@ describe("AC bridge report", () => {
           });
         }
         // Greyscale: dash pattern and marker differ per series.
-        const dashes = groups.map((g) => g.getElementsByTagName("path")[0]?.getAttribute("stroke-dasharray") ?? "solid");
+        const dashes = groups.map(
+          (g) => g.getElementsByTagName("path")[0]?.getAttribute("stroke-dasharray") ?? "solid",
+        );
         expect(new Set(dashes).size).toBe(dashes.length);
         if (chart.kind === "element-current") {
           // The marks are the reported peak currents, drawn at their sample.
@@ -76,8 +88,13 @@ describe("AC bridge report", () => {
     expect(a.markdown).toContain(`rule set ${rules.ruleSet.id} version ${rules.ruleSet.version}`);
     const o = result.bridge;
     if (!("steadyState" in o)) throw new Error(o.outcome);
-    for (const e of o.steadyState.elements) expect(a.markdown).toMatch(new RegExp(`^\\| ${e.position} \\| ${e.mode} \\|`, "m"));
-    const rows = a.markdown.split("## Compared")[0]?.split("\n").filter((l) => /^\| [a-z-]+ \| (\*\*)?(FAIL|WARN|PASS|n\/a)/.test(l)) ?? [];
+    for (const e of o.steadyState.elements)
+      expect(a.markdown).toMatch(new RegExp(`^\\| ${e.position} \\| ${e.mode} \\|`, "m"));
+    const rows =
+      a.markdown
+        .split("## Compared")[0]
+        ?.split("\n")
+        .filter((l) => /^\| [a-z-]+ \| (\*\*)?(FAIL|WARN|PASS|n\/a)/.test(l)) ?? [];
     const order = (r: string) => (r.includes("**FAIL**") ? 0 : r.includes("**WARN**") ? 1 : 2);
     expect(rows.length).toBe(rules.verdicts.length);
     expect(rows.map(order)).toEqual([...rows.map(order)].sort((p, q) => p - q));

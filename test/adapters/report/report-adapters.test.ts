@@ -10,16 +10,30 @@ import { procedureInvoker } from "../../../api/procedure-registry.js";
 import { reviewOutput } from "../../../contracts/review.js";
 import { demoContext, testApp } from "../../helpers/app.js";
 
-const example = JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "review.json"), "utf8")) as { id: string; procedure: string; input: Record<string, unknown> };
+const example = JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "review.json"), "utf8")) as {
+  id: string;
+  procedure: string;
+  input: Record<string, unknown>;
+};
 // One candidate keeps these adapter checks quick; the renderer's own tests use the whole example.
-const input: Record<string, unknown> = { ...example.input, candidates: (example.input["candidates"] as unknown[]).slice(0, 1) };
+const input: Record<string, unknown> = {
+  ...example.input,
+  candidates: (example.input["candidates"] as unknown[]).slice(0, 1),
+};
 delete input["monteCarlo"];
-const bridge = JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "bridgeAc.json"), "utf8")) as { id: string; input: Record<string, unknown> };
+const bridge = JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "bridgeAc.json"), "utf8")) as {
+  id: string;
+  input: Record<string, unknown>;
+};
 
 describe("review report over HTTP", () => {
   const { app } = testApp();
   const post = (body: unknown, path = "/v1/review/report", headers: Record<string, string> = {}) =>
-    app.request(path, { method: "POST", headers: { "content-type": "application/json", ...headers }, body: JSON.stringify(body) });
+    app.request(path, {
+      method: "POST",
+      headers: { "content-type": "application/json", ...headers },
+      body: JSON.stringify(body),
+    });
 
   it("answers HTML by default and for Accept: text/html, Markdown for text/markdown or format, JSON for format=json", async () => {
     const html = await post(input, "/v1/review/report?id=van", { accept: "text/html" });
@@ -51,11 +65,16 @@ describe("review report over HTTP", () => {
     expect(await md.text()).toMatch(/^# AC bridge\n/);
     const bad = await post({ ...bridge.input, capacitanceF: -1 }, "/v1/bridgeAc/report");
     expect(bad.status).toBe(400);
-    expect(((await bad.json()) as { issues: { path: (string | number)[] }[] }).issues.map((i) => i.path.join("."))).toContain("capacitanceF");
+    expect(
+      ((await bad.json()) as { issues: { path: (string | number)[] }[] }).issues.map((i) => i.path.join(".")),
+    ).toContain("capacitanceF");
   });
 
   it("rejects bad input with 400 naming the field, and an unknown format", async () => {
-    const bad = await post({ ...input, requirement: { ...(input["requirement"] as object), ambient: { minC: 90, maxC: 20 } } });
+    const bad = await post({
+      ...input,
+      requirement: { ...(input["requirement"] as object), ambient: { minC: 90, maxC: 20 } },
+    });
     expect(bad.status).toBe(400);
     const body = (await bad.json()) as { code: string; issues: { path: (string | number)[] }[] };
     expect(body.code).toBe("invalid-input");
@@ -63,7 +82,11 @@ describe("review report over HTTP", () => {
     const fmt = await post(input, "/v1/review/report?format=pdf");
     expect(fmt.status).toBe(400);
     expect(((await fmt.json()) as { issues: { path: string[] }[] }).issues[0]?.path).toEqual(["format"]);
-    const notJson = await app.request("/v1/review/report", { method: "POST", headers: { "content-type": "application/json" }, body: "{ nope" });
+    const notJson = await app.request("/v1/review/report", {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: "{ nope",
+    });
     expect(notJson.status).toBe(400);
   });
 });
@@ -72,7 +95,12 @@ describe("review reports in batch (--report-dir)", () => {
   it("writes <id>.html, <id>.md and the charts for each answered review line, nothing for other lines", async () => {
     const dir = mkdtempSync(join(tmpdir(), "backstop-batch-report-"));
     const inFile = join(dir, "in.jsonl");
-    const op = { stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" }, supplyV: 12, load: { kind: "constant-current", currentA: 2 }, ambientC: 25 };
+    const op = {
+      stage: { kind: "catalog-part", partId: "demo-schottky-5a-45v" },
+      supplyV: 12,
+      load: { kind: "constant-current", currentA: 2 },
+      ambientC: 25,
+    };
     writeFileSync(
       inFile,
       [
@@ -86,7 +114,17 @@ describe("review reports in batch (--report-dir)", () => {
     const reports = join(dir, "reports");
     const code = await main(["batch", "--in", inFile, "--out", join(dir, "out.jsonl"), "--report-dir", reports]);
     expect(code).toBe(1); // the bad line is rejected; the others are answered
-    expect(readdirSync(reports).sort()).toEqual(["bridge-charts", "bridge.html", "bridge.md", "line-4-charts", "line-4.html", "line-4.md", "van-12v-charts", "van-12v.html", "van-12v.md"]);
+    expect(readdirSync(reports).sort()).toEqual([
+      "bridge-charts",
+      "bridge.html",
+      "bridge.md",
+      "line-4-charts",
+      "line-4.html",
+      "line-4.md",
+      "van-12v-charts",
+      "van-12v.html",
+      "van-12v.md",
+    ]);
     expect(readdirSync(join(reports, "van-12v-charts"))).toHaveLength(7);
     // The bridgeAc line: its own page with the four period charts (bridge and compareTo).
     expect(readdirSync(join(reports, "bridge-charts"))).toHaveLength(4);
@@ -130,7 +168,13 @@ describe("review reports in batch (--report-dir)", () => {
   it("a write that fails removes its temp file and throws", () => {
     const dir = mkdtempSync(join(tmpdir(), "backstop-atomic-fail-"));
     const target = join(dir, "x.md");
-    const failing: FileOps = { writeFileSync, rmSync, renameSync: () => { throw new Error("disk gone"); } };
+    const failing: FileOps = {
+      writeFileSync,
+      rmSync,
+      renameSync: () => {
+        throw new Error("disk gone");
+      },
+    };
     expect(() => writeFileAtomic(target, "text", failing)).toThrow("disk gone");
     expect(readdirSync(dir)).toEqual([]);
   });

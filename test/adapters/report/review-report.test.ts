@@ -27,7 +27,9 @@ function expectedSeries(c: Cand, kind: string, xUnit = "s"): Map<string, [number
   const curves = c.curves;
   if (curves === undefined) throw new Error("the review was asked for curves");
   const load = (y: (r: NonNullable<Cand["curves"]>["load"][number]) => number | undefined) =>
-    curves.load.filter((r) => stable(r.outcome) && r.currentA !== undefined && y(r) !== undefined).map((r) => [r.currentA ?? 0, y(r) ?? 0] as [number, number]);
+    curves.load
+      .filter((r) => stable(r.outcome) && r.currentA !== undefined && y(r) !== undefined)
+      .map((r) => [r.currentA ?? 0, y(r) ?? 0] as [number, number]);
   const profiles = c.startUp.profiles;
   switch (kind) {
     case "drop-vs-current":
@@ -37,14 +39,33 @@ function expectedSeries(c: Cand, kind: string, xUnit = "s"): Map<string, [number
     case "tj-vs-current":
       return new Map([["Tj", load((r) => r.tjC)]]);
     case "tj-vs-ambient":
-      return new Map([["Tj", curves.ambient.filter((r) => stable(r.outcome)).map((r) => [r.ambientC, r.tjC ?? 0] as [number, number])]]);
+      return new Map([
+        [
+          "Tj",
+          curves.ambient.filter((r) => stable(r.outcome)).map((r) => [r.ambientC, r.tjC ?? 0] as [number, number]),
+        ],
+      ]);
     case "startup-voltage":
       return new Map([
         ["supply", (profiles[0]?.result.samples ?? []).map((s) => [s.timeS, s.supplyV] as [number, number])],
-        ...profiles.map((p) => [`load, ${minus(p.ambientC)} °C`, p.result.samples.map((s) => [s.timeS, s.loadV] as [number, number])] as [string, [number, number][]]),
+        ...profiles.map(
+          (p) =>
+            [`load, ${minus(p.ambientC)} °C`, p.result.samples.map((s) => [s.timeS, s.loadV] as [number, number])] as [
+              string,
+              [number, number][],
+            ],
+        ),
       ]);
     case "startup-tj":
-      return new Map(profiles.map((p) => [`Tj, ${minus(p.ambientC)} °C`, p.result.samples.map((s) => [s.timeS, s.tjC] as [number, number])] as [string, [number, number][]]));
+      return new Map(
+        profiles.map(
+          (p) =>
+            [`Tj, ${minus(p.ambientC)} °C`, p.result.samples.map((s) => [s.timeS, s.tjC] as [number, number])] as [
+              string,
+              [number, number][],
+            ],
+        ),
+      );
     case "turnoff-current": {
       const e = c.turnOff?.event;
       const w = e && "waveform" in e ? e.waveform : undefined;
@@ -72,7 +93,10 @@ describe("design-review report", () => {
   let result: ReviewOutput;
   let id: string;
   beforeAll(async () => {
-    const line = JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "review.json"), "utf8")) as { id: string; input: unknown };
+    const line = JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "review.json"), "utf8")) as {
+      id: string;
+      input: unknown;
+    };
     id = line.id;
     result = await review(line.input);
   });
@@ -86,7 +110,8 @@ describe("design-review report", () => {
       const svg = parseSvg(s.svg).documentElement;
       if (!svg) throw new Error("empty SVG");
       expect(svg.getAttribute("xmlns")).toBe("http://www.w3.org/2000/svg");
-      for (const cls of ["x-label", "y-label"]) expect(byClass(svg, cls)[0]?.textContent).toMatch(/\((A|V|W|°C|s|ms|µs)\)$/);
+      for (const cls of ["x-label", "y-label"])
+        expect(byClass(svg, cls)[0]?.textContent).toMatch(/\((A|V|W|°C|s|ms|µs)\)$/);
       expect(s.svg).not.toMatch(/NaN|Infinity|undefined/);
     }
   });
@@ -98,7 +123,11 @@ describe("design-review report", () => {
         const svg = parseSvg(chart.svg).documentElement;
         if (!svg) throw new Error("empty SVG");
         const { x, y } = axisScales(svg);
-        const expected = expectedSeries(c, chart.kind, /\((\w+|µs)\)$/.exec(byClass(svg, "x-label")[0]?.textContent ?? "")?.[1]);
+        const expected = expectedSeries(
+          c,
+          chart.kind,
+          /\((\w+|µs)\)$/.exec(byClass(svg, "x-label")[0]?.textContent ?? "")?.[1],
+        );
         const groups = byClass(svg, "series");
         expect(groups.map((g) => g.getAttribute("data-series"))).toEqual([...expected.keys()]);
         for (const g of groups) {
@@ -115,15 +144,21 @@ describe("design-review report", () => {
         }
         // Limits: the thresholds of the applied rules on this chart's metric, drawn where they are.
         const lhs = new RegExp(`^\\s*${LIMIT_METRIC[chart.kind]}\\s*(<=|>=|<|>)`);
-        const thresholds = c.rules.verdicts.filter((v) => v.outcome !== "not-applicable" && v.threshold !== null && lhs.test(v.expression)).map((v) => v.threshold);
+        const thresholds = c.rules.verdicts
+          .filter((v) => v.outcome !== "not-applicable" && v.threshold !== null && lhs.test(v.expression))
+          .map((v) => v.threshold);
         const limits = byClass(svg, "limit");
         expect(limits.map((l) => Number(l.getAttribute("data-value")))).toEqual(thresholds);
         for (const l of limits) {
           const yy = Number(l.getElementsByTagName("line")[0]?.getAttribute("y1"));
-          expect(Math.abs(y.invert(yy) - Number(l.getAttribute("data-value")))).toBeLessThanOrEqual(2e-3 * y.perPx + 1e-12);
+          expect(Math.abs(y.invert(yy) - Number(l.getAttribute("data-value")))).toBeLessThanOrEqual(
+            2e-3 * y.perPx + 1e-12,
+          );
         }
         // Greyscale: no two series share a dash pattern.
-        const dashes = groups.map((g) => g.getElementsByTagName("path")[0]?.getAttribute("stroke-dasharray") ?? "solid");
+        const dashes = groups.map(
+          (g) => g.getElementsByTagName("path")[0]?.getAttribute("stroke-dasharray") ?? "solid",
+        );
         expect(new Set(dashes).size).toBe(dashes.length);
       }
       // The Tj-against-current mark is the worst-Tj corner, at its current and junction temperature.
@@ -162,9 +197,13 @@ describe("design-review report", () => {
     expect(rep.markdown).toContain(result.caution);
     expect(rep.html).toContain(result.caution.replace(/&/g, "&amp;"));
     expect(rep.markdown).toContain(`model version ${result.modelVersion}`);
-    expect(rep.markdown).toContain(`rule set ${c0.rules.ruleSet.id} version ${c0.rules.ruleSet.version}, ${c0.rules.ruleSet.hash}`);
+    expect(rep.markdown).toContain(
+      `rule set ${c0.rules.ruleSet.id} version ${c0.rules.ruleSet.version}, ${c0.rules.ruleSet.hash}`,
+    );
     // The worst-Tj corner's row has its Tj cell marked; no other Tj cell of that table is.
-    expect(rep.markdown).toContain(`highest junction temperature: ${Number(c0.worst.tjC.value.toPrecision(4))} °C at corner ${c0.worst.tjC.corner}`);
+    expect(rep.markdown).toContain(
+      `highest junction temperature: ${Number(c0.worst.tjC.value.toPrecision(4))} °C at corner ${c0.worst.tjC.corner}`,
+    );
     const table = rep.markdown.split(`## Rank ${c0.rank} · candidate 1`)[1]?.split("### Curves")[0] ?? "";
     const row = table.split("\n").find((l) => l.startsWith(`| ${c0.worst.tjC?.corner} |`));
     expect(row?.split("|")[12]?.trim()).toBe(`**${Number(c0.worst.tjC.value.toPrecision(4))}** ◆`);
@@ -179,14 +218,22 @@ describe("design-review report", () => {
     const row = section.split("\n").find((l) => l.startsWith("| junction temperature"));
     const cells = row?.split("|").map((x) => x.trim()) ?? [];
     // mean, std, p1, p50, p99 as the result gives them, at the report's 4 significant digits.
-    expect(cells.slice(2, 7)).toEqual([mc.tjC.mean, mc.tjC.std, mc.tjC.p1, mc.tjC.p50, mc.tjC.p99].map((v) => String(Number(v.toPrecision(4)))));
+    expect(cells.slice(2, 7)).toEqual(
+      [mc.tjC.mean, mc.tjC.std, mc.tjC.p1, mc.tjC.p50, mc.tjC.p99].map((v) => String(Number(v.toPrecision(4)))),
+    );
   });
 
   // docs/references.md (facts of the trade), common practice: a Schottky drops ~0.5 V at 10 A (several watts), so a 2 W loss
   // budget fails; loss-budget is the last rule of the default set, so "first" is the report's doing.
   it("a failing candidate shows its failing rule and the values it used first", async () => {
     const r = await review({
-      requirement: { supply: { class: "vehicle-24v-f" }, load: { kind: "constant-current", currentA: 10 }, ambient: { minC: -40, maxC: 70 }, transients: [], lossBudgetW: 2 },
+      requirement: {
+        supply: { class: "vehicle-24v-f" },
+        load: { kind: "constant-current", currentA: 10 },
+        ambient: { minC: -40, maxC: 70 },
+        transients: [],
+        lossBudgetW: 2,
+      },
       candidates: [{ stage: { kind: "catalog-part", partId: "demo-schottky-10a-60v" } }],
     });
     const c = r.candidates[0];
@@ -203,7 +250,8 @@ describe("design-review report", () => {
     if (typeof lossW !== "number") throw new Error("no loss metric");
     const rows = section.split("\n").filter((l) => l.startsWith("| ") && !l.startsWith("| rule"));
     // The verdict table opens with the failing rules (in rule-set order), each with its values.
-    for (const [i, v] of failing.entries()) expect(rows[i]).toMatch(new RegExp(`^\\| ${v.ruleId} \\| \\*\\*FAIL\\*\\* \\|`));
+    for (const [i, v] of failing.entries())
+      expect(rows[i]).toMatch(new RegExp(`^\\| ${v.ruleId} \\| \\*\\*FAIL\\*\\* \\|`));
     const lossRow = rows.find((l) => l.startsWith("| loss-budget |"));
     // Values, threshold and margin with their units (the vocabulary's), at 4 significant digits.
     expect(lossRow).toContain(`lossWorstW = ${Number(lossW.toPrecision(4))} W`);
@@ -216,7 +264,14 @@ describe("design-review report", () => {
   // renders, with the line broken where the sweep has no point instead of invented numbers.
   it("renders a candidate without any operating point: valid SVG, no invented numbers, the fail first", async () => {
     const r = await review({
-      requirement: { supply: { class: "custom", minV: 11, nominalV: 12, maxV: 13 }, sourceResistanceOhm: 1, load: { kind: "constant-power", powerW: 200, minVoltageV: 5 }, loadLevels: [1], ambient: { minC: 0, maxC: 40 }, transients: [] },
+      requirement: {
+        supply: { class: "custom", minV: 11, nominalV: 12, maxV: 13 },
+        sourceResistanceOhm: 1,
+        load: { kind: "constant-power", powerW: 200, minVoltageV: 5 },
+        loadLevels: [1],
+        ambient: { minC: 0, maxC: 40 },
+        transients: [],
+      },
       candidates: [{ stage: { kind: "catalog-part", partId: "demo-ideal-diode-60v-3mohm" } }],
     });
     const c = r.candidates[0];
@@ -227,15 +282,26 @@ describe("design-review report", () => {
       parseSvg(s.svg);
       expect(s.svg).not.toMatch(/NaN|Infinity|undefined/);
     }
-    const svgOf = (kind: string) => parseSvg(rep.svgs.find((s) => s.file.endsWith(`${kind}.svg`))?.svg ?? "").documentElement as Element;
+    const svgOf = (kind: string) =>
+      parseSvg(rep.svgs.find((s) => s.file.endsWith(`${kind}.svg`))?.svg ?? "").documentElement as Element;
     // Ambient swept at full load: no point anywhere, so no line at all.
     expect(byClass(svgOf("tj-vs-ambient"), "series")[0]?.getElementsByTagName("path")).toHaveLength(0);
     // Load swept: only the light loads the source can deliver are drawn.
-    const stable = c?.curves?.load.filter((p) => p.outcome === "solved" || p.outcome === "over-temperature").length ?? 0;
+    const stable =
+      c?.curves?.load.filter((p) => p.outcome === "solved" || p.outcome === "over-temperature").length ?? 0;
     expect(stable).toBeGreaterThan(0);
     expect(stable).toBeLessThan(c?.curves?.load.length ?? 0);
-    expect(pathPoints(byClass(svgOf("tj-vs-current"), "series")[0]?.getElementsByTagName("path")[0]?.getAttribute("d") ?? "")).toHaveLength(stable);
+    expect(
+      pathPoints(
+        byClass(svgOf("tj-vs-current"), "series")[0]?.getElementsByTagName("path")[0]?.getAttribute("d") ?? "",
+      ),
+    ).toHaveLength(stable);
     expect(rep.markdown).toContain("corners without an operating point: 0, 1, 2, 3, 4, 5");
-    expect(rep.markdown.split("## Rank 1 · candidate 1")[1]?.split("\n").find((l) => l.startsWith("**"))).toMatch(/^\*\*FAIL\. fail: corner 0/);
+    expect(
+      rep.markdown
+        .split("## Rank 1 · candidate 1")[1]
+        ?.split("\n")
+        .find((l) => l.startsWith("**")),
+    ).toMatch(/^\*\*FAIL\. fail: corner 0/);
   });
 });

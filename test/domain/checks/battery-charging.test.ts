@@ -7,8 +7,27 @@ import { idealDiodeStage, pfetStage, schottkyStage } from "../../fixtures/revers
 const ah = 3600;
 // Invented demo batteries (inputs only): an alternator-backed source and a leisure battery.
 const base: ChargingModel = {
-  source: { capacityC: 100 * ah, ocvPoints: [{ soc: 0, voltageV: 12.9 }, { soc: 0.5, voltageV: 13.6 }, { soc: 1, voltageV: 14.2 }], internalResistanceOhm: 0.02, initialSoc: 0.95 },
-  target: { capacityC: 20 * ah, ocvPoints: [{ soc: 0, voltageV: 11.8 }, { soc: 0.2, voltageV: 12.5 }, { soc: 0.9, voltageV: 13.2 }, { soc: 1, voltageV: 13.9 }], internalResistanceOhm: 0.03, initialSoc: 0.3 },
+  source: {
+    capacityC: 100 * ah,
+    ocvPoints: [
+      { soc: 0, voltageV: 12.9 },
+      { soc: 0.5, voltageV: 13.6 },
+      { soc: 1, voltageV: 14.2 },
+    ],
+    internalResistanceOhm: 0.02,
+    initialSoc: 0.95,
+  },
+  target: {
+    capacityC: 20 * ah,
+    ocvPoints: [
+      { soc: 0, voltageV: 11.8 },
+      { soc: 0.2, voltageV: 12.5 },
+      { soc: 0.9, voltageV: 13.2 },
+      { soc: 1, voltageV: 13.9 },
+    ],
+    internalResistanceOhm: 0.03,
+    initialSoc: 0.3,
+  },
   stage: schottkyStage,
   currentLimitA: 20,
   ambientC: 25,
@@ -18,7 +37,11 @@ const base: ChargingModel = {
 
 describe("battery-to-battery charging", () => {
   // Source: energy conservation: ∫OCV_s dq (exact on the OCV points) = ∫OCV_t dq + losses, 0.1 %.
-  it.each([["Schottky", schottkyStage], ["ideal diode", idealDiodeStage], ["P-FET", pfetStage]] as [string, StageModel][])("%s: energy balance within 0.1 %", (_n, stage) => {
+  it.each([
+    ["Schottky", schottkyStage],
+    ["ideal diode", idealDiodeStage],
+    ["P-FET", pfetStage],
+  ] as [string, StageModel][])("%s: energy balance within 0.1 %", (_n, stage) => {
     const r = chargeBattery({ ...base, stage });
     if (r.outcome !== "charged") throw new Error(r.outcome);
     expect(Math.abs(r.energy.balanceResidual)).toBeLessThan(1e-3);
@@ -32,7 +55,9 @@ describe("battery-to-battery charging", () => {
       if (a.outcome !== "charged" || b.outcome !== "charged") throw new Error("unsolved");
       expect(a.stoppedBy).toBe("taper-current");
       expect(Math.abs(a.timeS - b.timeS)).toBeLessThan(a.errorBound.timeS);
-      expect(Math.abs(a.energy.stageLossJ - b.energy.stageLossJ)).toBeLessThan(a.errorBound.stageLossJ + 1e-9 * a.energy.stageLossJ);
+      expect(Math.abs(a.energy.stageLossJ - b.energy.stageLossJ)).toBeLessThan(
+        a.errorBound.stageLossJ + 1e-9 * a.energy.stageLossJ,
+      );
     }
     const tl = { ...base, stop: { ...base.stop, maxTimeS: 1800 } };
     const a = chargeBattery({ ...tl, rtol: 1e-6 });
@@ -50,8 +75,24 @@ describe("battery-to-battery charging", () => {
       ...base,
       stage: cold,
       currentLimitA: 1000,
-      source: { capacityC: 50 * ah, ocvPoints: [{ soc: 0, voltageV: 12 }, { soc: 1, voltageV: 13 }], internalResistanceOhm: 0.02, initialSoc: 0.9 },
-      target: { capacityC: 10 * ah, ocvPoints: [{ soc: 0, voltageV: 11.5 }, { soc: 1, voltageV: 13 }], internalResistanceOhm: 0.03, initialSoc: 0.2 },
+      source: {
+        capacityC: 50 * ah,
+        ocvPoints: [
+          { soc: 0, voltageV: 12 },
+          { soc: 1, voltageV: 13 },
+        ],
+        internalResistanceOhm: 0.02,
+        initialSoc: 0.9,
+      },
+      target: {
+        capacityC: 10 * ah,
+        ocvPoints: [
+          { soc: 0, voltageV: 11.5 },
+          { soc: 1, voltageV: 13 },
+        ],
+        internalResistanceOhm: 0.03,
+        initialSoc: 0.2,
+      },
       stop: { targetSoc: 0.5, minCurrentA: 1e-3, sourceMinSoc: 0, maxTimeS: 48 * 3600 },
     };
     const r = chargeBattery(m);

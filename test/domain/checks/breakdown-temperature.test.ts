@@ -1,5 +1,9 @@
 import { describe, expect, it } from "vitest";
-import { breakdownAtTjV, DEFAULT_VDS_TEMPCO_PER_K, mosfetBreakdownColdV } from "../../../domain/checks/breakdown-temperature.js";
+import {
+  breakdownAtTjV,
+  DEFAULT_VDS_TEMPCO_PER_K,
+  mosfetBreakdownColdV,
+} from "../../../domain/checks/breakdown-temperature.js";
 import { pfetStage, schottkyStage } from "../../fixtures/reverse-stages.js";
 
 // The breakdown against its closed form V(Tj) = V25·(1 + α·(Tj − 25 °C)) below 25 °C (a linear
@@ -19,7 +23,9 @@ describe("breakdownAtTjV", () => {
     expect(DEFAULT_VDS_TEMPCO_PER_K).toBe(0.001);
     if (pfetStage.kind !== "pfet-high-side") throw new Error("fixture changed");
     expect(mosfetBreakdownColdV(pfetStage, -40)).toBeCloseTo(pfetStage.mosfet.vdsMaxV * (1 - 0.065), 12);
-    expect(mosfetBreakdownColdV({ ...pfetStage, mosfet: { ...pfetStage.mosfet, vdsTempCoPerK: 0.002 } }, -40)).toBeCloseTo(pfetStage.mosfet.vdsMaxV * (1 - 0.13), 12);
+    expect(
+      mosfetBreakdownColdV({ ...pfetStage, mosfet: { ...pfetStage.mosfet, vdsTempCoPerK: 0.002 } }, -40),
+    ).toBeCloseTo(pfetStage.mosfet.vdsMaxV * (1 - 0.13), 12);
     expect(mosfetBreakdownColdV(schottkyStage, -40)).toBeUndefined();
   });
 });

@@ -32,7 +32,8 @@ function idealRectifier(k: number, peakV: number, loadOhm: number) {
   const t1 = 0.5 * (lo + hi);
   const scale = peakV / loadOhm;
   // ∫(k·cos θ + sin θ)² dθ = k²(θ/2 + sin 2θ/4) + (θ/2 − sin 2θ/4) + k·sin²θ
-  const sq = (t: number) => k * k * (t / 2 + Math.sin(2 * t) / 4) + (t / 2 - Math.sin(2 * t) / 4) + k * Math.sin(t) ** 2;
+  const sq = (t: number) =>
+    k * k * (t / 2 + Math.sin(2 * t) / 4) + (t / 2 - Math.sin(2 * t) / 4) + k * Math.sin(t) ** 2;
   return {
     conductionDeg: ((t2 - t1) * 180) / Math.PI,
     peakA: scale * (t1 < Math.atan(1 / k) ? Math.hypot(1, k) : k * Math.cos(t1) + Math.sin(t1)),
@@ -46,7 +47,10 @@ const F_HZ = 50;
 
 /** A high-voltage bridge (the junction drops are ~1e-4 of the peak) at ω·C·RL = k. */
 function bridge(k: number, rsOverRl: number, element: "diode" | "channel"): BridgeAcModel {
-  const e = element === "diode" ? diodeElement({ ...demoPn, saturationCurrentA: 1e-12, ideality: 1, seriesResistanceOhm: 0 }) : activeElement({ rdsOnOhm: 1e-6 });
+  const e =
+    element === "diode"
+      ? diodeElement({ ...demoPn, saturationCurrentA: 1e-12, ideality: 1, seriesResistanceOhm: 0 })
+      : activeElement({ rdsOnOhm: 1e-6 });
   return demoBridgeAc(uniform(e), {
     sourceRmsV: 5000,
     frequencyHz: F_HZ,
@@ -83,7 +87,9 @@ describe("AC bridge as Rs -> 0: the ideal capacitor-input rectifier", () => {
         }
         // The ideal ratio 15.55 (the first conduction step rang to 16.8-31.7 before).
         const e = s.elements[0];
-        expect(relativeError((e?.peakCurrentA ?? 0) / (e?.averageCurrentA ?? 1), ideal.peakA / ideal.averageA)).toBeLessThan(0.01);
+        expect(
+          relativeError((e?.peakCurrentA ?? 0) / (e?.averageCurrentA ?? 1), ideal.peakA / ideal.averageA),
+        ).toBeLessThan(0.01);
       });
     }
   }
@@ -111,7 +117,7 @@ describe("AC bridge as Rs -> 0: the ideal capacitor-input rectifier", () => {
         const { iso, s } = solve(m);
         const avg = s.elements.reduce((a, e) => a + e.averageCurrentA, 0) / 2;
         // The symmetric bridge is shot on the half period: the residual counts twice a period.
-        const residualA = (2 * m.capacitanceF * Math.abs((iso.end[0] ?? 0) - (iso.x[0] ?? 0))) * F_HZ;
+        const residualA = 2 * m.capacitanceF * Math.abs((iso.end[0] ?? 0) - (iso.x[0] ?? 0)) * F_HZ;
         expect(Math.abs(avg - s.loadCurrentA)).toBeLessThan(1.01 * residualA + 1e-6 * s.loadCurrentA);
         expect(relativeError(avg, s.loadCurrentA)).toBeLessThan(1e-3);
       }

@@ -38,8 +38,16 @@ describe("AC bridge shooting on the half period", () => {
   const cases = [
     { name: "diode bridge", part: diodeElement(), o: {} },
     { name: "diode bridge with 2 mH leakage", part: diodeElement(), o: { leakageInductanceH: 2e-3 } },
-    { name: "active bridge, constant-power load", part: activeElement(), o: { load: { kind: "constant-power" as const, powerW: 30, minVoltageV: 10 } } },
-    { name: "diode bridge with 20 mH leakage (conduction across the zero crossing)", part: diodeElement(), o: { leakageInductanceH: 20e-3 } },
+    {
+      name: "active bridge, constant-power load",
+      part: activeElement(),
+      o: { load: { kind: "constant-power" as const, powerW: 30, minVoltageV: 10 } },
+    },
+    {
+      name: "diode bridge with 20 mH leakage (conduction across the zero crossing)",
+      part: diodeElement(),
+      o: { leakageInductanceH: 20e-3 },
+    },
   ];
   for (const c of cases) {
     it(`${c.name}: the same steady state as the whole-period shooting`, () => {
@@ -80,7 +88,10 @@ describe("AC bridge period map derivative", () => {
   const laws = { positive: [law, law], negative: [law, law] } as const;
   for (const lh of [0, 2e-3]) {
     it(`matches a central difference of the map (L = ${lh * 1e3} mH)`, () => {
-      const c = { ...sourceAndFilterOf(model(uniform(diodeElement()), { leakageInductanceH: lh })), pairLaws: () => laws };
+      const c = {
+        ...sourceAndFilterOf(model(uniform(diodeElement()), { leakageInductanceH: lh })),
+        pairLaws: () => laws,
+      };
       const opt = { rtol: 1e-8, voltageScaleV: 33.9, currentScaleA: 1.7, record: false, jacobian: true };
       const x = lh > 0 ? [27, 1.5] : [27];
       const r = integratePeriod(c, x, opt);
@@ -88,7 +99,11 @@ describe("AC bridge period map derivative", () => {
       const d = [0.01, 0.01];
       x.forEach((_, j) => {
         const at = (sign: number) => {
-          const q = integratePeriod(c, x.map((v, k) => (k === j ? v + sign * (d[j] ?? 0) : v)), { ...opt, jacobian: false });
+          const q = integratePeriod(
+            c,
+            x.map((v, k) => (k === j ? v + sign * (d[j] ?? 0) : v)),
+            { ...opt, jacobian: false },
+          );
           if (!q.ok) throw new Error("no map");
           return q.end;
         };

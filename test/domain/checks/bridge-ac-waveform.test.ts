@@ -49,7 +49,17 @@ describe("AC bridge period waveform", () => {
         // Source: the reported RMS and average are the TR-BDF2 quadrature on every node of the
         // period; the trapezoid on the sampled nodes (conduction 60–90°) differs by the sampling
         // error, measured ≤ 4e-4 at 100–400 points: stated bound 0.5 %.
-        expect(relativeError(Math.sqrt(trapezoid(w.timeS, i.map((v) => v * v)) / period), e?.rmsCurrentA ?? 0)).toBeLessThan(5e-3);
+        expect(
+          relativeError(
+            Math.sqrt(
+              trapezoid(
+                w.timeS,
+                i.map((v) => v * v),
+              ) / period,
+            ),
+            e?.rmsCurrentA ?? 0,
+          ),
+        ).toBeLessThan(5e-3);
         expect(relativeError(trapezoid(w.timeS, i) / period, e?.averageCurrentA ?? 0)).toBeLessThan(5e-3);
       }
       // Source: Kirchhoff — the two elements of a conducting pair carry the same line current.

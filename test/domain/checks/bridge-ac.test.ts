@@ -1,5 +1,10 @@
 import { describe, expect, it } from "vitest";
-import { analyseBridgeAc, type BridgeAcModel, solveBridgeAcAt, steadyStateOf } from "../../../domain/checks/bridge-ac.js";
+import {
+  analyseBridgeAc,
+  type BridgeAcModel,
+  solveBridgeAcAt,
+  steadyStateOf,
+} from "../../../domain/checks/bridge-ac.js";
 import { BRIDGE_POSITIONS } from "../../../domain/checks/bridge-element.js";
 import { cToK } from "../../../domain/physics/constants.js";
 import { activeElement, demoBridgeAc, demoPn, diodeElement, uniform } from "../../helpers/bridge-parts.js";
@@ -29,8 +34,18 @@ describe("AC bridge against ngspice transient to steady state", () => {
   // a discharged capacitor, last period averaged); all junctions at 25 °C in both.
   const cases = [
     { name: "diode bridge", elements: uniform(diodeElement()), sw: undefined, extra: {} },
-    { name: "diode bridge with 2 mH leakage inductance", elements: uniform(diodeElement()), sw: undefined, extra: { leakageInductanceH: 2e-3 } },
-    { name: "switch-based active bridge (20 mΩ channel, body diode)", elements: uniform(activeElement({ rdsOnOhm: 0.02 })), sw: 0.02, extra: {} },
+    {
+      name: "diode bridge with 2 mH leakage inductance",
+      elements: uniform(diodeElement()),
+      sw: undefined,
+      extra: { leakageInductanceH: 2e-3 },
+    },
+    {
+      name: "switch-based active bridge (20 mΩ channel, body diode)",
+      elements: uniform(activeElement({ rdsOnOhm: 0.02 })),
+      sw: 0.02,
+      extra: {},
+    },
   ] as const;
   for (const c of cases) {
     it.skipIf(!hasSpice)(`${c.name}: DC output, per-element RMS current and loss within 1 %`, () => {
@@ -83,7 +98,13 @@ describe("AC bridge: conservation and limits", () => {
   it("approaches the ripple I/(2fC) for a very large capacitor", () => {
     const errs = [1e-3, 1e-2, 1e-1].map((capacitanceF) => {
       const stiff = diodeElement({ ...demoPn, seriesResistanceOhm: 1e-4 });
-      const m = model(uniform(stiff), { sourceRmsV: 5000, capacitanceF, esrOhm: 0, sourceResistanceOhm: 0, load: { kind: "constant-current", currentA: 1 } });
+      const m = model(uniform(stiff), {
+        sourceRmsV: 5000,
+        capacitanceF,
+        esrOhm: 0,
+        sourceResistanceOhm: 0,
+        load: { kind: "constant-current", currentA: 1 },
+      });
       const s = isothermal(m, 25);
       return relativeError(s.rippleVpp, 1 / (2 * 50 * capacitanceF));
     });
@@ -124,14 +145,17 @@ describe("AC bridge against Schade's capacitor-input rectifier curves", () => {
   const schade = (wcr: number, rsOverRl: number) => {
     const rl = 1000;
     const f = 50;
-    const m = model(uniform(diodeElement({ ...demoPn, saturationCurrentA: 1e-12, ideality: 1, seriesResistanceOhm: 0 })), {
-      sourceRmsV: 5000,
-      frequencyHz: f,
-      sourceResistanceOhm: rsOverRl * rl,
-      esrOhm: 0,
-      capacitanceF: wcr / (2 * Math.PI * f * rl),
-      load: { kind: "resistive", resistanceOhm: rl },
-    });
+    const m = model(
+      uniform(diodeElement({ ...demoPn, saturationCurrentA: 1e-12, ideality: 1, seriesResistanceOhm: 0 })),
+      {
+        sourceRmsV: 5000,
+        frequencyHz: f,
+        sourceResistanceOhm: rsOverRl * rl,
+        esrOhm: 0,
+        capacitanceF: wcr / (2 * Math.PI * f * rl),
+        load: { kind: "resistive", resistanceOhm: rl },
+      },
+    );
     return isothermal(m, 25).dcOutputV / (Math.SQRT2 * 5000);
   };
   for (const p of points) {
@@ -187,7 +211,11 @@ describe("AC bridge: active versus diode, electrothermal", () => {
   });
 
   it("reports thermal runaway when the loss outgrows the thermal path", () => {
-    const r = analyseBridgeAc(model(uniform(activeElement({ rdsOnOhm: 0.5, rthJaKPerW: 400 })), { load: { kind: "resistive", resistanceOhm: 5 } }));
+    const r = analyseBridgeAc(
+      model(uniform(activeElement({ rdsOnOhm: 0.5, rthJaKPerW: 400 })), {
+        load: { kind: "resistive", resistanceOhm: 5 },
+      }),
+    );
     expect(["thermal-runaway", "over-temperature"]).toContain(r.outcome);
     expect(JSON.stringify(r)).not.toMatch(/NaN|Infinity|null/);
   });

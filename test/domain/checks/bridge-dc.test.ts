@@ -12,7 +12,14 @@ const hasSpice = toolAvailable("ngspice");
 
 /** Demo: a PoE-powered camera input, 48 V either polarity (invented). */
 function model(elements: BridgeElements, o: Partial<BridgeDcModel> = {}): BridgeDcModel {
-  return { elements, supplyV: 48, sourceResistanceOhm: 0.2, load: { kind: "constant-current", currentA: 0.5 }, ambientC: 40, ...o };
+  return {
+    elements,
+    supplyV: 48,
+    sourceResistanceOhm: 0.2,
+    load: { kind: "constant-current", currentA: 0.5 },
+    ambientC: 40,
+    ...o,
+  };
 }
 
 function solved(o: DcPolarityOutcome) {
@@ -46,7 +53,12 @@ describe("DC bridge, either polarity", () => {
   it("solves each diode's junction temperature self-consistently on its own thermal path", () => {
     const hot = diodeElement(demoPn, 60);
     const cool = diodeElement(demoPn, 20);
-    const r = analyseBridgeDc(model({ line1High: hot, line2Low: cool, line2High: cool, line1Low: hot }, { load: { kind: "constant-current", currentA: 1 } }));
+    const r = analyseBridgeDc(
+      model(
+        { line1High: hot, line2Low: cool, line2High: cool, line1Low: hot },
+        { load: { kind: "constant-current", currentA: 1 } },
+      ),
+    );
     const pos = solved(r.positive);
     for (const e of pos.elements.filter((x) => x.role === "conducting")) {
       const rth = e.position === "line1High" ? 60 : 20;
@@ -62,14 +74,20 @@ describe("DC bridge, either polarity", () => {
   // Tj = Ta + I²·R25·(Tj/298.15)^α·Rth; checked by substitution.
   it("active bridge: I²·Rds(on)(Tj) per element, far below the diode bridge", () => {
     const i = 2;
-    const act = solved(analyseBridgeDc(model(uniform(activeElement({ rdsOnOhm: 0.03 })), { load: { kind: "constant-current", currentA: i } })).positive);
+    const act = solved(
+      analyseBridgeDc(
+        model(uniform(activeElement({ rdsOnOhm: 0.03 })), { load: { kind: "constant-current", currentA: i } }),
+      ).positive,
+    );
     for (const e of act.elements.filter((x) => x.role === "conducting")) {
       expect(e.mode).toBe("fully-enhanced");
       const r = 0.03 * (cToK(e.tjC) / 298.15) ** 2.3;
       expect(relativeError(e.lossW, i * i * r)).toBeLessThan(1e-3); // body diode takes < 0.1 %
       expect(e.tjC).toBeCloseTo(40 + 40 * e.lossW, 6);
     }
-    const dio = solved(analyseBridgeDc(model(uniform(diodeElement()), { load: { kind: "constant-current", currentA: i } })).positive);
+    const dio = solved(
+      analyseBridgeDc(model(uniform(diodeElement()), { load: { kind: "constant-current", currentA: i } })).positive,
+    );
     expect(act.totalLossW).toBeLessThan(0.1 * dio.totalLossW);
   });
 
@@ -124,9 +142,15 @@ quit
   });
 
   it("reports thermal runaway and load collapse as outcomes, never NaN", () => {
-    const runaway = analyseBridgeDc(model(uniform(activeElement({ rdsOnOhm: 0.5, rthJaKPerW: 200 })), { load: { kind: "constant-current", currentA: 3 } }));
+    const runaway = analyseBridgeDc(
+      model(uniform(activeElement({ rdsOnOhm: 0.5, rthJaKPerW: 200 })), {
+        load: { kind: "constant-current", currentA: 3 },
+      }),
+    );
     expect(runaway.positive.outcome).toBe("thermal-runaway");
-    const collapse = analyseBridgeDc(model(uniform(diodeElement()), { load: { kind: "constant-power", powerW: 5000, minVoltageV: 36 } }));
+    const collapse = analyseBridgeDc(
+      model(uniform(diodeElement()), { load: { kind: "constant-power", powerW: 5000, minVoltageV: 36 } }),
+    );
     expect(collapse.positive.outcome).toBe("load-collapse");
     if (collapse.positive.outcome === "load-collapse") {
       // Source: maximum power transfer through 0.2 ohm from 48 V is 48²/(4·0.2) = 2880 W; the
@@ -134,12 +158,17 @@ quit
       expect(collapse.positive.maxDeliverablePowerW).toBeLessThan(2880);
     }
     expect(JSON.stringify([runaway, collapse])).not.toMatch(/NaN|Infinity|null/);
-    const heavy = analyseBridgeDc(model(uniform(diodeElement()), { load: { kind: "constant-current", currentA: 500 } }));
+    const heavy = analyseBridgeDc(
+      model(uniform(diodeElement()), { load: { kind: "constant-current", currentA: 500 } }),
+    );
     expect(heavy.positive.outcome).toBe("load-collapse");
   });
 
   it("constant-power load: the stable high-voltage branch", () => {
-    const r = solved(analyseBridgeDc(model(uniform(diodeElement()), { load: { kind: "constant-power", powerW: 25, minVoltageV: 36 } })).positive);
+    const r = solved(
+      analyseBridgeDc(model(uniform(diodeElement()), { load: { kind: "constant-power", powerW: 25, minVoltageV: 36 } }))
+        .positive,
+    );
     expect(r.loadV * r.loadCurrentA).toBeCloseTo(25, 6);
     expect(r.loadV).toBeGreaterThan(40);
   });

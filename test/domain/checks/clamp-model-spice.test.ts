@@ -55,7 +55,7 @@ quit
     energyJ += 0.5 * dt * (v0 * i0 + v1 * i1);
     chargeC += 0.5 * dt * (i0 + i1);
     // The load's share while the clamp conducts (as the closed form reports it).
-    if (i0 > 0 || i1 > 0) loadEnergyJ += 0.5 * dt * ((i0 > 0 ? v0 * v0 : 0) + (i1 > 0 ? v1 * v1 : 0)) / c.loadOhm;
+    if (i0 > 0 || i1 > 0) loadEnergyJ += (0.5 * dt * ((i0 > 0 ? v0 * v0 : 0) + (i1 > 0 ? v1 * v1 : 0))) / c.loadOhm;
     peakCurrentA = Math.max(peakCurrentA, i1);
   }
   return { energyJ, peakCurrentA, chargeC, loadEnergyJ };
@@ -72,21 +72,24 @@ describe("input clamp closed form against ngspice on the same circuit", () => {
     { riOhm: 0.5, peakV: 79 },
     { riOhm: 2, peakV: 79 + 22 * (1.5 / 3.5) },
     { riOhm: 4, peakV: 101 },
-  ])("load dump A at Ri $riOhm ohm: energy, peak current, charge and the load's energy within 0.5 %", ({ riOhm, peakV }) => {
-    const tauS = tauFromDecay(0.4, "to-10-percent");
-    const pulse = { baseV: 14, amplitudeV: peakV - 14, tauS, sourceResistanceOhm: riOhm, riseS: 10e-3 };
-    const r = clampPulse(pulse, TVS, LOAD);
-    if (r.conducts !== true) throw new Error("the clamp conducts");
-    const s = spice({ baseV: 14, amplitudeV: peakV - 14, riseS: 10e-3, tauS, riOhm, ...TVS, loadOhm: 4 });
-    expect(relativeError(r.energyJ, s.energyJ)).toBeLessThan(5e-3);
-    expect(relativeError(r.peakCurrentA, s.peakCurrentA)).toBeLessThan(5e-3);
-    expect(relativeError(r.chargeC, s.chargeC)).toBeLessThan(5e-3);
-    expect(relativeError(r.loadEnergyJ, s.loadEnergyJ)).toBeLessThan(5e-3);
-    // The constant-Vc form (Vc = 45 V, no load, no rise) is what the review used before: off by more.
-    const flat = clampExponential({ baseV: 14, amplitudeV: peakV - 14, tauS, sourceResistanceOhm: riOhm }, 45);
-    if (flat.conducts !== true) throw new Error("conducts");
-    expect(relativeError(flat.energyJ, s.energyJ)).toBeGreaterThan(0.02);
-  });
+  ])(
+    "load dump A at Ri $riOhm ohm: energy, peak current, charge and the load's energy within 0.5 %",
+    ({ riOhm, peakV }) => {
+      const tauS = tauFromDecay(0.4, "to-10-percent");
+      const pulse = { baseV: 14, amplitudeV: peakV - 14, tauS, sourceResistanceOhm: riOhm, riseS: 10e-3 };
+      const r = clampPulse(pulse, TVS, LOAD);
+      if (r.conducts !== true) throw new Error("the clamp conducts");
+      const s = spice({ baseV: 14, amplitudeV: peakV - 14, riseS: 10e-3, tauS, riOhm, ...TVS, loadOhm: 4 });
+      expect(relativeError(r.energyJ, s.energyJ)).toBeLessThan(5e-3);
+      expect(relativeError(r.peakCurrentA, s.peakCurrentA)).toBeLessThan(5e-3);
+      expect(relativeError(r.chargeC, s.chargeC)).toBeLessThan(5e-3);
+      expect(relativeError(r.loadEnergyJ, s.loadEnergyJ)).toBeLessThan(5e-3);
+      // The constant-Vc form (Vc = 45 V, no load, no rise) is what the review used before: off by more.
+      const flat = clampExponential({ baseV: 14, amplitudeV: peakV - 14, tauS, sourceResistanceOhm: riOhm }, 45);
+      if (flat.conducts !== true) throw new Error("conducts");
+      expect(relativeError(flat.energyJ, s.energyJ)).toBeGreaterThan(0.02);
+    },
+  );
 });
 
 describe("input clamp closed form against numerical integration", () => {
@@ -95,7 +98,10 @@ describe("input clamp closed form against numerical integration", () => {
     const load: ParallelLoad = { kind: "constant-current", currentA: 2 };
     const r = clampPulse(p, { breakdownV: 45, dynamicOhm: 0.2 }, load);
     if (r.conducts !== true) throw new Error("conducts");
-    const voc = (t: number) => p.baseV - p.sourceResistanceOhm * 2 + p.amplitudeV * (t < p.riseS ? t / p.riseS : Math.exp(-(t - p.riseS) / p.tauS));
+    const voc = (t: number) =>
+      p.baseV -
+      p.sourceResistanceOhm * 2 +
+      p.amplitudeV * (t < p.riseS ? t / p.riseS : Math.exp(-(t - p.riseS) / p.tauS));
     const i = (t: number) => Math.max(0, (voc(t) - 45) / (p.sourceResistanceOhm + 0.2));
     let e = 0;
     const n = 400_000;

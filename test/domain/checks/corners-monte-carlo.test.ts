@@ -11,7 +11,17 @@ const load = { kind: "constant-current" as const, currentA: 5 };
 
 describe("corner search", () => {
   it("finds the analytic worst case of a model linear in its parameters", () => {
-    const space = { supplyMinV: 9, supplyNominalV: 13.5, supplyMaxV: 16, ambientMinC: -40, ambientMaxC: 85, loadScales: [1, 0.5], sourceResistanceOhm: 0, load, datasheetMax: { rdsOnFactor: 1.3, forwardVoltageFactor: 1, rthFactor: 1 } };
+    const space = {
+      supplyMinV: 9,
+      supplyNominalV: 13.5,
+      supplyMaxV: 16,
+      ambientMinC: -40,
+      ambientMaxC: 85,
+      loadScales: [1, 0.5],
+      sourceResistanceOhm: 0,
+      load,
+      datasheetMax: { rdsOnFactor: 1.3, forwardVoltageFactor: 1, rthFactor: 1 },
+    };
     const corners = solveCorners(stage, space);
     expect(corners).toHaveLength(3 * 2 * 2 * 2);
     const w = worstCase(corners);

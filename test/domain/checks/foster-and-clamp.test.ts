@@ -16,7 +16,10 @@ describe("Foster network", () => {
     const p = 5;
     const tp = 0.2;
     for (const t of [1e-4, 0.01, 0.2, 0.5, 10]) {
-      const closed = net.reduce((s, n) => s + p * n.rKPerW * ((1 - Math.exp(-t / n.tauS)) - (t > tp ? 1 - Math.exp(-(t - tp) / n.tauS) : 0)), 0);
+      const closed = net.reduce(
+        (s, n) => s + p * n.rKPerW * (1 - Math.exp(-t / n.tauS) - (t > tp ? 1 - Math.exp(-(t - tp) / n.tauS) : 0)),
+        0,
+      );
       expect(relativeError(pulseTrainRiseK(net, [{ startS: 0, endS: tp, powerW: p }], t), closed)).toBeLessThan(1e-12);
     }
     // Exact stepping over uneven steps lands on the same value (constant power within a step).
@@ -24,7 +27,12 @@ describe("Foster network", () => {
     for (const dt of [0.05, 0.1, 0.05]) {
       rises = stepFoster(net, rises, p, dt);
     }
-    expect(relativeError(rises.reduce((a, b) => a + b, 0), p * zthKPerW(net, 0.2))).toBeLessThan(1e-12);
+    expect(
+      relativeError(
+        rises.reduce((a, b) => a + b, 0),
+        p * zthKPerW(net, 0.2),
+      ),
+    ).toBeLessThan(1e-12);
   });
 
   // Superposition (linearity of the thermal network): two pulses = sum of two single responses.
@@ -34,7 +42,8 @@ describe("Foster network", () => {
       { startS: 0.1, endS: 0.3, powerW: 7 },
     ];
     const t = 0.25;
-    const single = (q: { startS: number; endS: number; powerW: number }) => q.powerW * (zthKPerW(net, t - q.startS) - zthKPerW(net, t - q.endS));
+    const single = (q: { startS: number; endS: number; powerW: number }) =>
+      q.powerW * (zthKPerW(net, t - q.startS) - zthKPerW(net, t - q.endS));
     const [a, b] = pulses;
     if (a === undefined || b === undefined) throw new Error("two pulses");
     expect(relativeError(pulseTrainRiseK(net, pulses, t), single(a) + single(b))).toBeLessThan(1e-12);
@@ -57,7 +66,8 @@ describe("clamp energy for an exponentially decaying source", () => {
     const end = r.conductionTimeS;
     const n = 200_000;
     const h = end / n;
-    const i = (t: number) => Math.max(0, (pulse.baseV + pulse.amplitudeV * Math.exp(-t / pulse.tauS) - clampV) / pulse.sourceResistanceOhm);
+    const i = (t: number) =>
+      Math.max(0, (pulse.baseV + pulse.amplitudeV * Math.exp(-t / pulse.tauS) - clampV) / pulse.sourceResistanceOhm);
     let q = i(0) + i(end);
     for (let k = 1; k < n; k += 1) q += (k % 2 ? 4 : 2) * i(k * h);
     q *= h / 3;
@@ -68,8 +78,12 @@ describe("clamp energy for an exponentially decaying source", () => {
   });
 
   it("a clamp above the peak never conducts; one below the base always would", () => {
-    expect(clampExponential({ baseV: 13.5, amplitudeV: 20, tauS: 0.1, sourceResistanceOhm: 1 }, 40).conducts).toBe(false);
-    expect(clampExponential({ baseV: 13.5, amplitudeV: 20, tauS: 0.1, sourceResistanceOhm: 1 }, 12).conducts).toBe("always");
+    expect(clampExponential({ baseV: 13.5, amplitudeV: 20, tauS: 0.1, sourceResistanceOhm: 1 }, 40).conducts).toBe(
+      false,
+    );
+    expect(clampExponential({ baseV: 13.5, amplitudeV: 20, tauS: 0.1, sourceResistanceOhm: 1 }, 12).conducts).toBe(
+      "always",
+    );
   });
 
   // Convention (docs/references.md, memory): td to 10 % of the peak means τ = td/ln 10.

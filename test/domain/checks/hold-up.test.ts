@@ -11,7 +11,12 @@ import { idealDiodeStage, pfetStage, pnStage, schottkyStage } from "../../fixtur
  * from v_out = v_C − ESR·(i_load(v_out) + I_lk) by fixed-point iteration, to the event v_out = Vmin.
  */
 function numericHoldUp(m: DischargeModel): number {
-  const iload = (v: number): number => (m.load.kind === "constant-current" ? m.load.currentA : m.load.kind === "resistive" ? v / m.load.resistanceOhm : m.load.powerW / v);
+  const iload = (v: number): number =>
+    m.load.kind === "constant-current"
+      ? m.load.currentA
+      : m.load.kind === "resistive"
+        ? v / m.load.resistanceOhm
+        : m.load.powerW / v;
   const vout = (vc: number): number => {
     let v = vc;
     for (let k = 0; k < 200; k += 1) v = vc - m.esrOhm * (iload(v) + m.leakageA);
@@ -45,7 +50,14 @@ describe("hold-up closed forms", () => {
 
   // Source: energy form t = C·(V0² − Vmin²)/(2P) (capacitor energy ½CV² delivered at power P).
   it("constant power without ESR is the energy form", () => {
-    const d = dischargeTime({ capacitorV: 12, capacitanceF: 1e-3, esrOhm: 0, load: { kind: "constant-power", powerW: 10, minVoltageV: 9 }, loadMinV: 9, leakageA: 0 });
+    const d = dischargeTime({
+      capacitorV: 12,
+      capacitanceF: 1e-3,
+      esrOhm: 0,
+      load: { kind: "constant-power", powerW: 10, minVoltageV: 9 },
+      loadMinV: 9,
+      leakageA: 0,
+    });
     expect(d.outcome === "holds" && d.timeS).toBeCloseTo((1e-3 * (144 - 81)) / 20, 12);
   });
 });
@@ -58,7 +70,13 @@ const model: HoldUpModel = {
   load: { kind: "constant-current", currentA: 0.5 },
   loadMinV: 9,
   tjC: 25,
-  input: { kind: "falls", inputAfterV: 0, loopResistanceOhm: 0.02, loopInductanceH: 1e-6, reverseRecoveryChargeC: 20e-9 },
+  input: {
+    kind: "falls",
+    inputAfterV: 0,
+    loopResistanceOhm: 0.02,
+    loopInductanceH: 1e-6,
+    reverseRecoveryChargeC: 20e-9,
+  },
 };
 
 describe("hold-up per stage kind", () => {
@@ -66,7 +84,8 @@ describe("hold-up per stage kind", () => {
     const cold = holdUp(model);
     const hot = holdUp({ ...model, tjC: 125 });
     const pn = holdUp({ ...model, stage: pnStage, tjC: 125 });
-    if (cold.outcome !== "holds" || hot.outcome !== "holds" || pn.outcome !== "holds") throw new Error("expected holds");
+    if (cold.outcome !== "holds" || hot.outcome !== "holds" || pn.outcome !== "holds")
+      throw new Error("expected holds");
     // Source: SPICE Is(T) law with Eg = 0.69 eV, XTI = 2: Is grows ~ (T ratio)^(XTI/n)·exp(...) ≫ 100× over 100 K.
     expect(hot.reverseLeakageA / cold.reverseLeakageA).toBeGreaterThan(100);
     expect(hot.holdUpS).toBeLessThan(cold.holdUpS);
@@ -75,18 +94,23 @@ describe("hold-up per stage kind", () => {
 
   it("a P-FET drains back into the short: hold-up is the reverse-drain time, far shorter", () => {
     const p = holdUp({ ...model, stage: pfetStage });
-    const d = holdUp({ ...model, stage: idealDiodeStage, input: { ...model.input, controller: { reverseThresholdV: 0.03, turnOffDelayS: 1e-6 } } as HoldUpModel["input"] });
+    const d = holdUp({
+      ...model,
+      stage: idealDiodeStage,
+      input: { ...model.input, controller: { reverseThresholdV: 0.03, turnOffDelayS: 1e-6 } } as HoldUpModel["input"],
+    });
     expect(p.outcome).toBe("drains-back");
     expect(d.outcome).toBe("holds");
     if (p.outcome !== "drains-back" || d.outcome !== "holds") return;
     expect(p.holdUpS).toBeLessThan(d.holdUpS / 100);
     // Source: linear CC discharge C·ΔV/I = 470 µF·3 V/0.5 A ≈ 2.82 ms, less the event's charge.
     expect(d.holdUpS).toBeLessThan((470e-6 * 3) / 0.5);
-    expect(d.holdUpS).toBeGreaterThan(0.5 * (470e-6 * 3) / 0.5);
+    expect(d.holdUpS).toBeGreaterThan((0.5 * (470e-6 * 3)) / 0.5);
   });
 
   it("an open input takes nothing back: all stages give the load-only time", () => {
     const t = [schottkyStage, pfetStage].map((stage) => holdUp({ ...model, stage, input: { kind: "open" } }));
-    for (const r of t) expect(r.outcome === "holds" && r.holdUpS).toBeCloseTo((470e-6 * (12 - 0.02 * 0.5 - 9)) / 0.5, 12);
+    for (const r of t)
+      expect(r.outcome === "holds" && r.holdUpS).toBeCloseTo((470e-6 * (12 - 0.02 * 0.5 - 9)) / 0.5, 12);
   });
 });

@@ -9,8 +9,21 @@ import type { StageModel } from "../../../domain/stages/stage-model.js";
 import { idealDiode, lowSideFet } from "../../helpers/stages.js";
 import { relativeError } from "../../helpers/tolerance.js";
 
-const schottkyDiode = { saturationCurrentA: 5e-6, ideality: 1.05, seriesResistanceOhm: 0.02, energyGapEv: 0.69, saturationTempExponent: 2, nominalTempK: cToK(25) };
-const schottky: StageModel = { kind: "schottky-diode", diode: schottkyDiode, reverseRatingV: 45, tjMaxC: 150, thermal: { kind: "junction-ambient", rthJaKPerW: 40 } };
+const schottkyDiode = {
+  saturationCurrentA: 5e-6,
+  ideality: 1.05,
+  seriesResistanceOhm: 0.02,
+  energyGapEv: 0.69,
+  saturationTempExponent: 2,
+  nominalTempK: cToK(25),
+};
+const schottky: StageModel = {
+  kind: "schottky-diode",
+  diode: schottkyDiode,
+  reverseRatingV: 45,
+  tjMaxC: 150,
+  thermal: { kind: "junction-ambient", rthJaKPerW: 40 },
+};
 
 describe("steady reverse polarity", () => {
   // Closed form: d ln Is/dT = XTI/(n·T) + Eg·q/(n·k·T²) for the SPICE Is(T) law, so the leakage
@@ -20,7 +33,8 @@ describe("steady reverse polarity", () => {
     const n = schottkyDiode.ideality;
     const slope = 2 / (n * t) + (0.69 * ELEMENTARY_CHARGE_C) / (n * BOLTZMANN_J_PER_K * t * t);
     const doublingK = Math.LN2 / slope;
-    const ratio = junctionLeakageA(schottkyDiode, 14, t + doublingK / 2) / junctionLeakageA(schottkyDiode, 14, t - doublingK / 2);
+    const ratio =
+      junctionLeakageA(schottkyDiode, 14, t + doublingK / 2) / junctionLeakageA(schottkyDiode, 14, t - doublingK / 2);
     expect(ratio).toBeCloseTo(2, 2);
     expect(doublingK).toBeGreaterThan(6);
     expect(doublingK).toBeLessThan(12);
@@ -36,13 +50,24 @@ describe("steady reverse polarity", () => {
   });
 
   it("reports reverse leakage runaway when the thermal path is poor", () => {
-    const leaky: StageModel = { ...schottky, diode: { ...schottkyDiode, saturationCurrentA: 2e-3 }, thermal: { kind: "junction-ambient", rthJaKPerW: 200 } };
+    const leaky: StageModel = {
+      ...schottky,
+      diode: { ...schottkyDiode, saturationCurrentA: 2e-3 },
+      thermal: { kind: "junction-ambient", rthJaKPerW: 200 },
+    };
     expect(reverseSteady(leaky, 28, 85).outcome).toBe("leakage-runaway");
   });
 });
 
 describe("transients", () => {
-  const ctx = { supplyNominalV: 13.5, supplyMaxV: 16, reverseV: 14, outputHeldV: 13.5, deratingFactor: 0.8, clampToStandoffRatio: 1.3 };
+  const ctx = {
+    supplyNominalV: 13.5,
+    supplyMaxV: 16,
+    reverseV: 14,
+    outputHeldV: 13.5,
+    deratingFactor: 0.8,
+    clampToStandoffRatio: 1.3,
+  };
   it("a negative pulse stresses the blocking diode with |Us| + the held output, and sizes the clamp window", () => {
     const pulse = findTransient("iso7637-2-pulse-1-12v");
     if (pulse === undefined) throw new Error("pulse 1");
@@ -59,7 +84,12 @@ describe("transients", () => {
   });
 
   it("a P-FET does not block: the pulse reaches the load side", () => {
-    const pfet: StageModel = { kind: "pfet-high-side", mosfet: (lowSideFet(0.01, 40, { law: "power", exponent: 2.3 }) as Extract<StageModel, { kind: "nfet-low-side" }>).mosfet, thermal: { kind: "junction-ambient", rthJaKPerW: 40 } };
+    const pfet: StageModel = {
+      kind: "pfet-high-side",
+      mosfet: (lowSideFet(0.01, 40, { law: "power", exponent: 2.3 }) as Extract<StageModel, { kind: "nfet-low-side" }>)
+        .mosfet,
+      thermal: { kind: "junction-ambient", rthJaKPerW: 40 },
+    };
     const pulse = findTransient("iso7637-2-pulse-1-12v");
     if (pulse === undefined) throw new Error("pulse 1");
     expect(transientStress(pfet, pulse, ctx).reachesLoad).toBe(true);
@@ -68,13 +98,24 @@ describe("transients", () => {
   it("a centrally suppressed load dump is held at its level", () => {
     const pulse = findTransient("iso16750-2-load-dump-b-12v");
     if (pulse === undefined) throw new Error("load dump b");
-    const stage = { ...idealDiode(0.003), controller: { startV: 3, gateDrive: [{ inputV: 3, gateSourceV: 10 }], regulatedDropV: 0.02, quiescentA: 1e-4, gateReleaseFraction: 0, maxInputV: 30 } } as StageModel;
+    const stage = {
+      ...idealDiode(0.003),
+      controller: {
+        startV: 3,
+        gateDrive: [{ inputV: 3, gateSourceV: 10 }],
+        regulatedDropV: 0.02,
+        quiescentA: 1e-4,
+        gateReleaseFraction: 0,
+        maxInputV: 30,
+      },
+    } as StageModel;
     const r = transientStress(stage, pulse, ctx);
     expect(r.peakOpenCircuitV).toBe(35);
     expect(r.stresses[0]?.exceeds).toBe(true);
     // A module clamp below the central 35 V takes the test-A generator's whole current (ISO 16750-2
     // test B on the bench): Ipk = (Us − Vc)/Ri at the severe corner, Us 101 V, Ri 4 ohm (clamp-energy.ts closed form).
-    if (r.clamp.needed !== true || r.clamp.atClampMax.conducts !== true) throw new Error("a module clamp is needed and conducts");
+    if (r.clamp.needed !== true || r.clamp.atClampMax.conducts !== true)
+      throw new Error("a module clamp is needed and conducts");
     expect(r.clamp.clampMaxV).toBeCloseTo(30 * 0.8, 9);
     expect(r.clamp.atClampMax.peakCurrentA).toBeCloseTo((101 - 24) / 4, 9);
   });
@@ -103,8 +144,16 @@ describe("start-up profile", () => {
       { timeS: 0.1, voltageV: 2 },
       { timeS: 0.2, voltageV: 12 },
     ];
-    const r = alongProfile(stage, profile, { kind: "constant-current", currentA: 2 }, 0, 25, { kind: "foster", terms: [{ rKPerW: 30, tauS: 5 }] }, 2000);
-    const below = 2 * 0.1 * (4 - 2) / 10;
+    const r = alongProfile(
+      stage,
+      profile,
+      { kind: "constant-current", currentA: 2 },
+      0,
+      25,
+      { kind: "foster", terms: [{ rKPerW: 30, tauS: 5 }] },
+      2000,
+    );
+    const below = (2 * 0.1 * (4 - 2)) / 10;
     expect(Math.abs(r.bodyDiodeTimeS - below)).toBeLessThan(2 * (0.1 / 2000));
     expect(r.maxTjC).toBeGreaterThan(r.samples[0]?.tjC ?? 0);
     expect(r.minLoadV).toBeLessThan(2);
@@ -115,7 +164,13 @@ describe("thermal sizing", () => {
   // Closed form: with loss independent of Tj, Tj = Ta + Rth·P, so Rth,max = (Ttarget − Ta)/P.
   it("matches (target − Ta)/P when the loss does not depend on temperature", () => {
     const s = lowSideFet(0.01, 50, { law: "power", exponent: 0 });
-    const cond = { supplyV: 12, ambientC: 60, load: { kind: "constant-current" as const, currentA: 10 }, sourceResistanceOhm: 0, stage: s };
+    const cond = {
+      supplyV: 12,
+      ambientC: 60,
+      load: { kind: "constant-current" as const, currentA: 10 },
+      sourceResistanceOhm: 0,
+      stage: s,
+    };
     const sink = { kind: "junction-case-sink" as const, rthJcKPerW: 2, rthCsKPerW: 0.5, rthSaKPerW: 97.5 };
     const r = thermalSizing([cond], sink, 100, 125);
     expect(r.outcome).toBe("heatsink-needed");
@@ -125,7 +180,20 @@ describe("thermal sizing", () => {
   });
   it("says so when the ambient alone reaches the target", () => {
     const s = lowSideFet(0.01, 50, { law: "power", exponent: 0 });
-    const r = thermalSizing([{ supplyV: 12, ambientC: 130, load: { kind: "constant-current", currentA: 1 }, sourceResistanceOhm: 0, stage: s }], s.thermal, 50, 125);
+    const r = thermalSizing(
+      [
+        {
+          supplyV: 12,
+          ambientC: 130,
+          load: { kind: "constant-current", currentA: 1 },
+          sourceResistanceOhm: 0,
+          stage: s,
+        },
+      ],
+      s.thermal,
+      50,
+      125,
+    );
     expect(r.outcome).toBe("impossible");
   });
 });

@@ -5,11 +5,14 @@ import { TRANSIENT_LIBRARY } from "../../../domain/review/transient-library.js";
 const cites = /ISO \d+|IEC \d+|ETSI|IEEE 802\.3|memory|common practice|REFERENCES\.md/;
 
 describe("built-in standard values cite their source", () => {
-  it.each(SUPPLY_CLASSES.map((c) => [c.id, c] as const))("supply class %s names a standard or says memory", (_id, c) => {
-    expect(c.source).toMatch(cites);
-    expect(c.minV).toBeLessThanOrEqual(c.nominalV);
-    expect(c.nominalV).toBeLessThanOrEqual(c.maxV);
-  });
+  it.each(SUPPLY_CLASSES.map((c) => [c.id, c] as const))(
+    "supply class %s names a standard or says memory",
+    (_id, c) => {
+      expect(c.source).toMatch(cites);
+      expect(c.minV).toBeLessThanOrEqual(c.nominalV);
+      expect(c.nominalV).toBeLessThanOrEqual(c.maxV);
+    },
+  );
   it.each(TRANSIENT_LIBRARY.map((t) => [t.id, t] as const))("pulse %s names a standard or says memory", (_id, t) => {
     expect(t.source).toMatch(cites);
     expect(t.sourceResistanceOhm).toBeGreaterThan(0);
@@ -18,8 +21,18 @@ describe("built-in standard values cite their source", () => {
   // The ranges given in docs/references.md [S]: ISO 16750-2 supply codes and the PoE PD input ranges.
   it("carries the ISO 16750-2 codes and IEEE 802.3 PD ranges as published", () => {
     const byId = new Map(SUPPLY_CLASSES.map((c) => [c.id, c]));
-    expect([byId.get("vehicle-12v-a")?.minV, byId.get("vehicle-12v-b")?.minV, byId.get("vehicle-12v-c")?.minV, byId.get("vehicle-12v-d")?.minV]).toEqual([6, 8, 9, 10.5]);
-    expect([byId.get("vehicle-24v-e")?.minV, byId.get("vehicle-24v-f")?.minV, byId.get("vehicle-24v-g")?.minV, byId.get("vehicle-24v-h")?.minV]).toEqual([10, 16, 22, 18]);
+    expect([
+      byId.get("vehicle-12v-a")?.minV,
+      byId.get("vehicle-12v-b")?.minV,
+      byId.get("vehicle-12v-c")?.minV,
+      byId.get("vehicle-12v-d")?.minV,
+    ]).toEqual([6, 8, 9, 10.5]);
+    expect([
+      byId.get("vehicle-24v-e")?.minV,
+      byId.get("vehicle-24v-f")?.minV,
+      byId.get("vehicle-24v-g")?.minV,
+      byId.get("vehicle-24v-h")?.minV,
+    ]).toEqual([10, 16, 22, 18]);
     expect(byId.get("telecom-48v")?.minV).toBe(40.5);
     expect(byId.get("telecom-48v")?.maxV).toBe(57);
     expect(byId.get("poe-pd-type-1")?.minV).toBe(37);

@@ -11,7 +11,15 @@ const pulseOf = (id: string): TransientPulse => {
   if (p === undefined) throw new Error(id);
   return p;
 };
-const ctx = { supplyNominalV: 13.5, supplyMaxV: 16, reverseV: 14, outputHeldV: 13.5, deratingFactor: 0.8, clampToStandoffRatio: 1.3, overvoltageV: 24 };
+const ctx = {
+  supplyNominalV: 13.5,
+  supplyMaxV: 16,
+  reverseV: 14,
+  outputHeldV: 13.5,
+  deratingFactor: 0.8,
+  clampToStandoffRatio: 1.3,
+  overvoltageV: 24,
+};
 const stage = idealDiode(0.003) as StageModel;
 
 describe("load dump A swept over the standard's Ri and td ranges", () => {
@@ -37,7 +45,16 @@ describe("load dump A swept over the standard's Ri and td ranges", () => {
   it("reports the closed form at the worst point (E = Vc*Q, Ipk = (Us - Vc)/Ri) and the low-Ri energy is about 4x the severe-corner pulse's", () => {
     const e = worst("clampEnergyJ");
     if (e?.designClamp?.duty.conducts !== true) throw new Error("the clamp conducts");
-    const closed = clampExponential({ baseV: 14, amplitudeV: 79 - 14, tauS: tauFromDecay(0.4, "to-10-percent"), sourceResistanceOhm: 0.5, riseS: 10e-3 }, 40);
+    const closed = clampExponential(
+      {
+        baseV: 14,
+        amplitudeV: 79 - 14,
+        tauS: tauFromDecay(0.4, "to-10-percent"),
+        sourceResistanceOhm: 0.5,
+        riseS: 10e-3,
+      },
+      40,
+    );
     if (closed.conducts !== true) throw new Error("closed form conducts");
     expect(e.designClamp.duty.energyJ).toBeCloseTo(closed.energyJ, 9);
     expect(e.designClamp.duty.peakCurrentA).toBeCloseTo((79 - 40) / 0.5, 9);
@@ -54,7 +71,16 @@ describe("load dump A swept over the standard's Ri and td ranges", () => {
     for (let i = 0; i <= 40; i += 1) {
       const ri = 0.5 + (3.5 * i) / 40;
       const peak = 79 + 22 * ((ri - 0.5) / 3.5);
-      const d = clampExponential({ baseV: 14, amplitudeV: peak - 14, tauS: tauFromDecay(0.4, "to-10-percent"), sourceResistanceOhm: ri, riseS: 10e-3 }, 40);
+      const d = clampExponential(
+        {
+          baseV: 14,
+          amplitudeV: peak - 14,
+          tauS: tauFromDecay(0.4, "to-10-percent"),
+          sourceResistanceOhm: ri,
+          riseS: 10e-3,
+        },
+        40,
+      );
       if (d.conducts === true) finest = Math.max(finest, d.energyJ);
     }
     expect(finest).toBeCloseTo(e.designClamp.duty.energyJ, 9);
@@ -65,18 +91,32 @@ describe("IEC 61000-4-5 surge on a DC power port", () => {
   it("drives the combination wave's short-circuit current Voc/2 ohm (1 kV: 500 A) less Vc/Z into a clamp", () => {
     // IEC 61000-4-5: effective output impedance = open-circuit peak / short-circuit peak = 2 ohm (docs/references.md).
     const pulse = pulseOf("iec61000-4-5-surge-1kv-line-line");
-    const r = transientStress(stage, pulse, { ...ctx, supplyNominalV: 24, supplyMaxV: 28.8, inputClamp: { standoffV: 33, clampV: 53 } });
+    const r = transientStress(stage, pulse, {
+      ...ctx,
+      supplyNominalV: 24,
+      supplyMaxV: 28.8,
+      inputClamp: { standoffV: 33, clampV: 53 },
+    });
     if (r.designClamp?.duty.conducts !== true) throw new Error("conducts");
     expect(r.designClamp.duty.peakCurrentA).toBeCloseTo((1000 - (53 - 24)) / 2, 9);
     expect(r.inputPeakV).toBe(53);
     // Exponential tail to half value at 20 us: tau = 20 us / ln 2.
     expect(r.tauS).toBeCloseTo(20e-6 / Math.LN2, 15);
-    const earth = transientStress(stage, pulseOf("iec61000-4-5-surge-1kv-line-earth"), { ...ctx, supplyNominalV: 24, supplyMaxV: 28.8, inputClamp: { standoffV: 33, clampV: 53 } });
+    const earth = transientStress(stage, pulseOf("iec61000-4-5-surge-1kv-line-earth"), {
+      ...ctx,
+      supplyNominalV: 24,
+      supplyMaxV: 28.8,
+      inputClamp: { standoffV: 33, clampV: 53 },
+    });
     if (earth.designClamp?.duty.conducts !== true) throw new Error("conducts");
     expect(earth.designClamp.duty.peakCurrentA).toBeCloseTo((1000 - 29) / 12, 9);
   });
   it("a negative surge stresses the blocking element", () => {
-    const r = transientStress(stage, pulseOf("iec61000-4-5-surge-0.5kv-line-line-negative"), { ...ctx, supplyNominalV: 24, supplyMaxV: 28.8 });
+    const r = transientStress(stage, pulseOf("iec61000-4-5-surge-0.5kv-line-line-negative"), {
+      ...ctx,
+      supplyNominalV: 24,
+      supplyMaxV: 28.8,
+    });
     expect(r.polarity).toBe("negative");
     expect(r.stresses[0]?.seenV).toBeCloseTo(500 - 24 + 13.5, 9);
   });

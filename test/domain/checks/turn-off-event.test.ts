@@ -11,7 +11,12 @@ import { lowSideStage, pfetStage, pnStage, schottkyStage, turnOffFixture } from 
  * Independent oracle: classical RK4 on the raw circuit (KCL at the output node solved for v_out
  * each step: i = (v_out − v_C)/ESR + I + G·v_out), fixed step, no use of the closed form.
  */
-function rk4Loop(p: RlcLoop, x0: readonly [number, number], tEnd: number, steps: number): { t: number; i: number; vc: number }[] {
+function rk4Loop(
+  p: RlcLoop,
+  x0: readonly [number, number],
+  tEnd: number,
+  steps: number,
+): { t: number; i: number; vc: number }[] {
   const f = (i: number, vc: number): [number, number] => {
     const v = (i - p.loadCurrentA + vc / p.esrOhm) / (1 / p.esrOhm + p.loadConductanceS);
     return [(p.sourceV - p.loopResistanceOhm * i - v) / p.inductanceH, (v - vc) / p.esrOhm / p.capacitanceF];
@@ -31,7 +36,15 @@ function rk4Loop(p: RlcLoop, x0: readonly [number, number], tEnd: number, steps:
   return out;
 }
 
-const base: RlcLoop = { sourceV: 0, loopResistanceOhm: 0.01, inductanceH: 1e-6, capacitanceF: 100e-6, esrOhm: 0.005, loadCurrentA: 2, loadConductanceS: 0 };
+const base: RlcLoop = {
+  sourceV: 0,
+  loopResistanceOhm: 0.01,
+  inductanceH: 1e-6,
+  capacitanceF: 100e-6,
+  esrOhm: 0.005,
+  loadCurrentA: 2,
+  loadConductanceS: 0,
+};
 // Series R-L-C: ζ = (Rt/2)·√(C/L); Rt = 0.2 ohm is critical for L = 1 µH, C = 100 µF (textbook).
 const cases: [string, RlcLoop][] = [
   ["under-damped, constant-current load", base],
@@ -56,7 +69,8 @@ describe("series R-L-C closed form", () => {
       maxErr = Math.max(maxErr, Math.abs(x[0] - r.i));
     }
     let peakCf = 0;
-    for (const t of [0, ...extremaTimes(s, x0, [1, 0], tEnd, 2), tEnd]) peakCf = Math.max(peakCf, -stateAt(s, x0, t)[0]);
+    for (const t of [0, ...extremaTimes(s, x0, [1, 0], tEnd, 2), tEnd])
+      peakCf = Math.max(peakCf, -stateAt(s, x0, t)[0]);
     expect(relativeError(peakCf, peakRk)).toBeLessThan(0.005);
     expect(maxErr).toBeLessThan(1e-6 * Math.max(peakRk, 1));
   });
@@ -150,7 +164,15 @@ describe("turn-off event", () => {
     expect(r.peakReverseTimeS).toBeGreaterThan(r.end.timeS);
     expect(r.peakReverseCurrentA).toBeGreaterThan(-r.end.currentA);
     expect(r.peakReverseIsLowerBound).toBeUndefined();
-    const p: RlcLoop = { sourceV: 0, loopResistanceOhm: r.loop.totalResistanceOhm, inductanceH: m.loopInductanceH, capacitanceF: m.capacitanceF, esrOhm: m.esrOhm, loadCurrentA: 2, loadConductanceS: 0 };
+    const p: RlcLoop = {
+      sourceV: 0,
+      loopResistanceOhm: r.loop.totalResistanceOhm,
+      inductanceH: m.loopInductanceH,
+      capacitanceF: m.capacitanceF,
+      esrOhm: m.esrOhm,
+      loadCurrentA: 2,
+      loadConductanceS: 0,
+    };
     const rows = rk4Loop(p, [r.initialCurrentA, m.outputV], 2 * r.peakReverseTimeS, 40_000);
     const best = rows.reduce((a, b) => (-b.i > -a.i ? b : a));
     expect(relativeError(r.peakReverseCurrentA, -best.i)).toBeLessThan(1e-6);
@@ -162,7 +184,15 @@ describe("turn-off event", () => {
   // (the negative-resistance oscillator; common practice for a converter behind an input L-C).
   // Checked by an independent RK4 of the same linear loop: the oscillation grows.
   it("constant-power load with negative damping: the unstable loop is its own outcome, every number finite", () => {
-    const m = { ...event, stage: pfetStage, loopResistanceOhm: 0.001, esrOhm: 0.001, capacitanceF: 10e-6, loopInductanceH: 10e-6, load: { kind: "constant-power" as const, powerW: 100, minVoltageV: 6 } };
+    const m = {
+      ...event,
+      stage: pfetStage,
+      loopResistanceOhm: 0.001,
+      esrOhm: 0.001,
+      capacitanceF: 10e-6,
+      loopInductanceH: 10e-6,
+      load: { kind: "constant-power" as const, powerW: 100, minVoltageV: 6 },
+    };
     // P/V² = 0.69 S against C·(R + ESR)/L = 0.0025 S (+ the stage's Rds(on)): negative damping.
     const r = turnOffEvent(m);
     if (r.outcome !== "unstable-loop") throw new Error(r.outcome);
@@ -172,26 +202,55 @@ describe("turn-off event", () => {
     expect(r.loadIncrementalResistanceOhm).toBeCloseTo(-(12 * 12) / 100, 12);
     expect(JSON.stringify(r)).not.toMatch(/null|NaN|Infinity/);
     const g = -100 / 144;
-    const p: RlcLoop = { sourceV: 0, loopResistanceOhm: 0.001 + 0.012, inductanceH: 10e-6, capacitanceF: 10e-6, esrOhm: 0.001, loadCurrentA: 200 / 12, loadConductanceS: g };
+    const p: RlcLoop = {
+      sourceV: 0,
+      loopResistanceOhm: 0.001 + 0.012,
+      inductanceH: 10e-6,
+      capacitanceF: 10e-6,
+      esrOhm: 0.001,
+      loadCurrentA: 200 / 12,
+      loadConductanceS: g,
+    };
     const rows = rk4Loop(p, [100 / 12, 12], 20 / r.growthPerS, 40_000);
     const early = Math.max(...rows.slice(0, 2000).map((x) => Math.abs(x.i)));
     const late = Math.max(...rows.slice(-2000).map((x) => Math.abs(x.i)));
     expect(late).toBeGreaterThan(1e3 * early);
     // R·P/V² ≥ 1: a real growing mode.
-    const d = turnOffEvent({ ...m, loopResistanceOhm: 2, esrOhm: 0, load: { kind: "constant-power", powerW: 100, minVoltageV: 6 } });
+    const d = turnOffEvent({
+      ...m,
+      loopResistanceOhm: 2,
+      esrOhm: 0,
+      load: { kind: "constant-power", powerW: 100, minVoltageV: 6 },
+    });
     if (d.outcome !== "unstable-loop") throw new Error(d.outcome);
     expect(d.mode).toBe("diverges");
   });
 
   it("a turn-off at zero current has no clamp phase, and a zero-length window a meaningful balance", () => {
     // A diode that recovers at its zero crossing (no Qrr): the current at turn-off is rounding.
-    const r = turnOffEvent({ ...event, stage: pnStage, loopResistanceOhm: 0, esrOhm: 0, load: { kind: "resistive", resistanceOhm: 1 }, outputV: 1, capacitanceF: 0.1, loopInductanceH: 1.136e-4 });
+    const r = turnOffEvent({
+      ...event,
+      stage: pnStage,
+      loopResistanceOhm: 0,
+      esrOhm: 0,
+      load: { kind: "resistive", resistanceOhm: 1 },
+      outputV: 1,
+      capacitanceF: 0.1,
+      loopInductanceH: 1.136e-4,
+    });
     if (r.outcome !== "blocks") throw new Error(r.outcome);
     expect(r.clamp).toBeUndefined();
     expect(Math.abs(r.energies.balanceResidual)).toBeLessThan(1e-6);
     // A window of zero length (a stage that turns off at t = 0) exchanges nothing: the residual
     // is rounding against the stored energy (it was 1: 2.7e-18 J of rounding against itself).
-    const p: RlcLoop = { ...base, loopResistanceOhm: 1, esrOhm: 1, capacitanceF: 0.012, inductanceH: 1e-3, loadCurrentA: 1 };
+    const p: RlcLoop = {
+      ...base,
+      loopResistanceOhm: 1,
+      esrOhm: 1,
+      capacitanceF: 0.012,
+      inductanceH: 1e-3,
+      loadCurrentA: 1,
+    };
     const e = phaseEnergies(p, [1, 0.9999999999999998], 0, 0);
     expect(Math.abs(e.balanceResidual)).toBeLessThan(1e-9);
   });

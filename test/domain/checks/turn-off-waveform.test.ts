@@ -33,7 +33,13 @@ describe("turn-off waveform", () => {
     expect(relativeError(absorbed, r.clamp.absorbedJ)).toBeLessThan(1e-3);
     // Source: charge conservation at the output node (constant-current load I): C·(v0 − vC(t)) =
     // ∫(I − i)dt; compared with the reported charge lost by turn-off and by the end of the clamp.
-    const lostBy = (to: number) => trapezoid(w.timeS, w.currentA.map((i) => 2 - i), 0, to);
+    const lostBy = (to: number) =>
+      trapezoid(
+        w.timeS,
+        w.currentA.map((i) => 2 - i),
+        0,
+        to,
+      );
     expect(relativeError(lostBy(k), r.end.chargeLostC)).toBeLessThan(1e-3);
     expect(relativeError(lostBy(w.timeS.length - 1), r.clamp.after.chargeLostC)).toBeLessThan(1e-3);
     expect(w.capacitorV.at(-1)).toBeCloseTo(r.clamp.after.capacitorV, 12);
@@ -67,6 +73,16 @@ describe("turn-off waveform", () => {
     const end = w.clampStartIndex ?? w.timeS.length - 1;
     // Source: charge-control recovery (∫ −i dt from the zero crossing = Qrr); trapezoid over the
     // recovery samples, 0.5 % (fewer samples fall in the short recovery interval).
-    expect(relativeError(trapezoid(w.timeS, w.currentA.map((i) => -i), zero, end), qrr)).toBeLessThan(5e-3);
+    expect(
+      relativeError(
+        trapezoid(
+          w.timeS,
+          w.currentA.map((i) => -i),
+          zero,
+          end,
+        ),
+        qrr,
+      ),
+    ).toBeLessThan(5e-3);
   });
 });

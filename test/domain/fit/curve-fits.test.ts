@@ -18,7 +18,10 @@ describe("Rds(on)(Tj) -> power-law exponent", () => {
   const temps = [-40, 0, 25, 50, 75, 100, 125, 150, 175];
   const points = (sigma: number, seed: number) => {
     const rng = createRng(seed);
-    return temps.map((tC) => ({ tempK: cToK(tC), value: r25 * (cToK(tC) / T25_K) ** alpha * (1 + sigma * rng.normal()) }));
+    return temps.map((tC) => ({
+      tempK: cToK(tC),
+      value: r25 * (cToK(tC) / T25_K) ** alpha * (1 + sigma * rng.normal()),
+    }));
   };
   it("recovers R25 and the exponent exactly from noise-free points", () => {
     const fit = fitRdsTemperature(points(0, 1));
@@ -44,11 +47,20 @@ describe("Rds(on)(Tj) -> power-law exponent", () => {
 });
 
 describe("reverse leakage IR(Tj, VR) -> thermionic-emission law", () => {
-  const truth: LeakageLaw = { refCurrentA: 20e-6, refTempK: T25_K, refVoltageV: 45, barrierEv: 0.62, voltageExponent: 0.4 };
+  const truth: LeakageLaw = {
+    refCurrentA: 20e-6,
+    refTempK: T25_K,
+    refVoltageV: 45,
+    barrierEv: 0.62,
+    voltageExponent: 0.4,
+  };
   const grid = [25, 75, 125].flatMap((tC) => [10, 20, 45].map((reverseV) => ({ tempK: cToK(tC), reverseV })));
   const points = (sigma: number, seed: number) => {
     const rng = createRng(seed);
-    return grid.map((p) => ({ ...p, currentA: leakageCurrentA(truth, p.tempK, p.reverseV) * Math.exp(sigma * rng.normal()) }));
+    return grid.map((p) => ({
+      ...p,
+      currentA: leakageCurrentA(truth, p.tempK, p.reverseV) * Math.exp(sigma * rng.normal()),
+    }));
   };
   it("recovers the barrier, the VR power and the reference current from noise-free points", () => {
     const fit = fitLeakage(points(0, 1));
@@ -92,20 +104,24 @@ describe("Zth(t) -> Foster network", () => {
     return times.map((timeS) => ({ timeS, zthKPerW: zthKPerW(source, timeS) * (1 + sigma * rng.normal()) }));
   };
   const dense = Array.from({ length: 201 }, (_, i) => 1e-5 * 10 ** ((4 * i) / 200));
-  const worstAgainstSource = (net: readonly FosterTerm[]) => Math.max(...dense.map((t) => Math.abs(zthKPerW(net, t) / zthKPerW(source, t) - 1)));
+  const worstAgainstSource = (net: readonly FosterTerm[]) =>
+    Math.max(...dense.map((t) => Math.abs(zthKPerW(net, t) / zthKPerW(source, t) - 1)));
 
   it.each([
     [0, 1],
     [0.01, 7],
     [0.01, 8],
     [0.01, 9],
-  ])("reproduces its source curve within 2 percent over four decades (noise %s, seed %s), ΣR = the steady value", (sigma, seed) => {
-    const fit = fitFoster(points(sigma, seed), { steadyKPerW: steady });
-    if (!fit.ok) throw new Error(fit.reason);
-    expect(fit.params.terms.length).toBeLessThanOrEqual(5);
-    expect(Math.abs(fit.params.steadyKPerW - steady)).toBeLessThan(1e-12);
-    expect(worstAgainstSource(fit.params.terms)).toBeLessThan(0.02);
-  });
+  ])(
+    "reproduces its source curve within 2 percent over four decades (noise %s, seed %s), ΣR = the steady value",
+    (sigma, seed) => {
+      const fit = fitFoster(points(sigma, seed), { steadyKPerW: steady });
+      if (!fit.ok) throw new Error(fit.reason);
+      expect(fit.params.terms.length).toBeLessThanOrEqual(5);
+      expect(Math.abs(fit.params.steadyKPerW - steady)).toBeLessThan(1e-12);
+      expect(worstAgainstSource(fit.params.terms)).toBeLessThan(0.02);
+    },
+  );
   it("fits a fixed number of stages without a steady value", () => {
     const fit = fitFoster(points(0, 1), { stages: 4 });
     if (!fit.ok) throw new Error(fit.reason);

@@ -45,12 +45,23 @@ describe("bounded nonlinear least squares (the fitting core)", () => {
   });
 
   it("is deterministic: the same problem gives the same bits", () => {
-    const p = { residuals: (u: readonly number[]) => xs.map((x, i) => (u[0] ?? 0) * Math.exp(-(u[1] ?? 0) * x) - (ys[i] ?? 0) / 10), start: [1, 0.1], lower: free, upper: none };
+    const p = {
+      residuals: (u: readonly number[]) =>
+        xs.map((x, i) => (u[0] ?? 0) * Math.exp(-(u[1] ?? 0) * x) - (ys[i] ?? 0) / 10),
+      start: [1, 0.1],
+      lower: free,
+      upper: none,
+    };
     expect(JSON.stringify(leastSquares(p))).toBe(JSON.stringify(leastSquares(p)));
   });
 
   it("solves a square system exactly by Newton (Rosenbrock's root at (1, 1))", () => {
-    const r = leastSquares({ residuals: (u) => [10 * ((u[1] ?? 0) - (u[0] ?? 0) ** 2), 1 - (u[0] ?? 0)], start: [-1.2, 1], lower: free, upper: none });
+    const r = leastSquares({
+      residuals: (u) => [10 * ((u[1] ?? 0) - (u[0] ?? 0) ** 2), 1 - (u[0] ?? 0)],
+      start: [-1.2, 1],
+      lower: free,
+      upper: none,
+    });
     if (r.outcome !== "solved") throw new Error(r.outcome);
     expect(r.method).toBe("newton");
     expect(Math.abs((r.params[0] ?? 0) - 1)).toBeLessThan(1e-9);
@@ -59,7 +70,12 @@ describe("bounded nonlinear least squares (the fitting core)", () => {
 
   it("minimises Rosenbrock's function as least squares with a third, redundant residual", () => {
     // Minimum of 100(y − x²)² + (1 − x)² + (0.01·(x − 1))² is (1, 1) exactly.
-    const r = leastSquares({ residuals: (u) => [10 * ((u[1] ?? 0) - (u[0] ?? 0) ** 2), 1 - (u[0] ?? 0), 0.01 * ((u[0] ?? 0) - 1)], start: [-1.2, 1], lower: free, upper: none });
+    const r = leastSquares({
+      residuals: (u) => [10 * ((u[1] ?? 0) - (u[0] ?? 0) ** 2), 1 - (u[0] ?? 0), 0.01 * ((u[0] ?? 0) - 1)],
+      start: [-1.2, 1],
+      lower: free,
+      upper: none,
+    });
     if (r.outcome !== "solved") throw new Error(r.outcome);
     expect(Math.abs((r.params[0] ?? 0) - 1)).toBeLessThan(1e-6);
     expect(Math.abs((r.params[1] ?? 0) - 1)).toBeLessThan(1e-6);
@@ -67,6 +83,8 @@ describe("bounded nonlinear least squares (the fitting core)", () => {
 
   it("refuses fewer points than parameters, and a model not finite at the start", () => {
     expect(leastSquares({ residuals: () => [1], start: [0, 0], lower: free, upper: none }).outcome).toBe("singular");
-    expect(leastSquares({ residuals: () => [Number.NaN, 1, 2], start: [0, 0], lower: free, upper: none }).outcome).toBe("non-finite");
+    expect(leastSquares({ residuals: () => [Number.NaN, 1, 2], start: [0, 0], lower: free, upper: none }).outcome).toBe(
+      "non-finite",
+    );
   });
 });

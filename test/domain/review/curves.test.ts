@@ -43,7 +43,8 @@ describe("review curves", () => {
     expect(curves.conditions.ambientC).toBe(85);
     const onLoad = curves.load.find((p) => p.loadScale === curves.conditions.loadScale);
     const onAmbient = curves.ambient.find((p) => p.ambientC === curves.conditions.ambientC);
-    if (!onLoad || !("point" in onLoad.result) || !onAmbient || !("point" in onAmbient.result)) throw new Error("curve misses the corner");
+    if (!onLoad || !("point" in onLoad.result) || !onAmbient || !("point" in onAmbient.result))
+      throw new Error("curve misses the corner");
     expect(onLoad.result.point.tjC).toBe(corner.result.point.tjC);
     expect(onAmbient.result.point.tjC).toBe(corner.result.point.tjC);
   });

@@ -22,7 +22,13 @@ interface RuleCases {
   readonly off?: Case;
 }
 
-const p = (kind: string, metrics: Vals, part: Vals, threshold?: number, margin?: number): Case => ({ kind, metrics, part, ...(threshold === undefined ? {} : { threshold }), ...(margin === undefined ? {} : { margin }) });
+const p = (kind: string, metrics: Vals, part: Vals, threshold?: number, margin?: number): Case => ({
+  kind,
+  metrics,
+  part,
+  ...(threshold === undefined ? {} : { threshold }),
+  ...(margin === undefined ? {} : { margin }),
+});
 const v = (outcome: VerdictOutcome, c: Case) => ({ ...c, outcome });
 
 // The avalanche rules read the rating at the event's Tj (avalancheEnergyAtTjJ, computed in
@@ -32,35 +38,83 @@ const AT_85C = 0.06;
 const NO_ENERGY = p("pn-diode", { absorbedEnergyJ: 0, avalancheEnergyAtTjJ: AT_85C }, {});
 
 const DEFAULT: Record<string, RuleCases> = {
-  "tj-limit": { pass: p("schottky-diode", { tjWorstC: 140 }, { tjMaxC: 150 }, 150, 10), violate: v("fail", p("schottky-diode", { tjWorstC: 151 }, { tjMaxC: 150 }, 150, -1)) },
-  "tj-margin": { pass: p("pfet-high-side", { tjWorstC: 120 }, { tjMaxC: 150 }, 125, 5), violate: v("warn", p("pfet-high-side", { tjWorstC: 130 }, { tjMaxC: 150 }, 125, -5)) },
-  "load-voltage-min": { pass: p("pn-diode", { loadVMinV: 11, loadMinV: 10 }, {}, 10, 1), violate: v("fail", p("pn-diode", { loadVMinV: 9.5, loadMinV: 10 }, {}, 10, -0.5)) },
-  "load-voltage-headroom": { pass: p("pn-diode", { loadVMinV: 11, loadMinV: 10 }, {}, 10.5, 0.5), violate: v("warn", p("pn-diode", { loadVMinV: 10.2, loadMinV: 10 }, {}, 10.5, -0.3)) },
-  "diode-reverse-steady": { pass: p("schottky-diode", { reverseVMaxV: 14 }, { vrrmV: 40 }, 32, 18), violate: v("fail", p("schottky-diode", { reverseVMaxV: 35 }, { vrrmV: 40 }, 32, -3)) },
-  "diode-reverse-transient": { pass: p("pn-diode", { reverseTransientVMaxV: 36 }, { vrrmV: 40 }, 40, 4), violate: v("fail", p("pn-diode", { reverseTransientVMaxV: 45 }, { vrrmV: 40 }, 40, -5)) },
-  "fet-vds-reverse-steady": { pass: p("pfet-high-side", { reverseVMaxV: 14 }, { vdsMaxV: 40 }, 32, 18), violate: v("fail", p("pfet-high-side", { reverseVMaxV: 33 }, { vdsMaxV: 40 }, 32, -1)) },
-  "fet-vds-reverse-transient": { pass: p("nfet-ideal-diode", { reverseTransientVMaxV: 38 }, { vdsMaxV: 40 }, 40, 2), violate: v("fail", p("nfet-ideal-diode", { reverseTransientVMaxV: 50 }, { vdsMaxV: 40 }, 40, -10)) },
-  "pair-forward-blocking": { pass: p("nfet-back-to-back", { supplyMaxV: 16, transientVMaxV: 36 }, { vdsMaxV: 40 }, 40, 4), violate: v("fail", p("nfet-back-to-back", { supplyMaxV: 16, transientVMaxV: 42 }, { vdsMaxV: 40 }, 40, -2)) },
+  "tj-limit": {
+    pass: p("schottky-diode", { tjWorstC: 140 }, { tjMaxC: 150 }, 150, 10),
+    violate: v("fail", p("schottky-diode", { tjWorstC: 151 }, { tjMaxC: 150 }, 150, -1)),
+  },
+  "tj-margin": {
+    pass: p("pfet-high-side", { tjWorstC: 120 }, { tjMaxC: 150 }, 125, 5),
+    violate: v("warn", p("pfet-high-side", { tjWorstC: 130 }, { tjMaxC: 150 }, 125, -5)),
+  },
+  "load-voltage-min": {
+    pass: p("pn-diode", { loadVMinV: 11, loadMinV: 10 }, {}, 10, 1),
+    violate: v("fail", p("pn-diode", { loadVMinV: 9.5, loadMinV: 10 }, {}, 10, -0.5)),
+  },
+  "load-voltage-headroom": {
+    pass: p("pn-diode", { loadVMinV: 11, loadMinV: 10 }, {}, 10.5, 0.5),
+    violate: v("warn", p("pn-diode", { loadVMinV: 10.2, loadMinV: 10 }, {}, 10.5, -0.3)),
+  },
+  "diode-reverse-steady": {
+    pass: p("schottky-diode", { reverseVMaxV: 14 }, { vrrmV: 40 }, 32, 18),
+    violate: v("fail", p("schottky-diode", { reverseVMaxV: 35 }, { vrrmV: 40 }, 32, -3)),
+  },
+  "diode-reverse-transient": {
+    pass: p("pn-diode", { reverseTransientVMaxV: 36 }, { vrrmV: 40 }, 40, 4),
+    violate: v("fail", p("pn-diode", { reverseTransientVMaxV: 45 }, { vrrmV: 40 }, 40, -5)),
+  },
+  "fet-vds-reverse-steady": {
+    pass: p("pfet-high-side", { reverseVMaxV: 14 }, { vdsMaxV: 40 }, 32, 18),
+    violate: v("fail", p("pfet-high-side", { reverseVMaxV: 33 }, { vdsMaxV: 40 }, 32, -1)),
+  },
+  "fet-vds-reverse-transient": {
+    pass: p("nfet-ideal-diode", { reverseTransientVMaxV: 38 }, { vdsMaxV: 40 }, 40, 2),
+    violate: v("fail", p("nfet-ideal-diode", { reverseTransientVMaxV: 50 }, { vdsMaxV: 40 }, 40, -10)),
+  },
+  "pair-forward-blocking": {
+    pass: p("nfet-back-to-back", { supplyMaxV: 16, transientVMaxV: 36 }, { vdsMaxV: 40 }, 40, 4),
+    violate: v("fail", p("nfet-back-to-back", { supplyMaxV: 16, transientVMaxV: 42 }, { vdsMaxV: 40 }, 40, -2)),
+  },
   // The cold breakdown of a 60 V MOSFET at −40 °C, +0.1 %/K: 60·(1 − 0.001·65) = 56.1 V.
   "fet-vds-reverse-transient-cold": {
     pass: p("nfet-ideal-diode", { reverseTransientVMaxV: 50, vdsBreakdownColdV: 56.1 }, {}, 56.1, 6.1),
     violate: v("fail", p("pfet-high-side", { reverseTransientVMaxV: 58, vdsBreakdownColdV: 56.1 }, {}, 56.1, -1.9)),
   },
-  "fet-vgs-limit": { pass: p("pfet-high-side", { gateSourceVMaxV: 16 }, { vgsMaxV: 20 }, 20, 4), violate: v("fail", p("pfet-high-side", { gateSourceVMaxV: 24 }, { vgsMaxV: 20 }, 20, -4)) },
-  "fet-vgs-derated": { pass: p("nfet-low-side", { gateSourceVMaxV: 15 }, { vgsMaxV: 20 }, 16, 1), violate: v("warn", p("nfet-low-side", { gateSourceVMaxV: 18 }, { vgsMaxV: 20 }, 16, -2)) },
+  "fet-vgs-limit": {
+    pass: p("pfet-high-side", { gateSourceVMaxV: 16 }, { vgsMaxV: 20 }, 20, 4),
+    violate: v("fail", p("pfet-high-side", { gateSourceVMaxV: 24 }, { vgsMaxV: 20 }, 20, -4)),
+  },
+  "fet-vgs-derated": {
+    pass: p("nfet-low-side", { gateSourceVMaxV: 15 }, { vgsMaxV: 20 }, 16, 1),
+    violate: v("warn", p("nfet-low-side", { gateSourceVMaxV: 18 }, { vgsMaxV: 20 }, 16, -2)),
+  },
   "controller-input-max": {
     pass: p("nfet-ideal-diode", { supplyMaxV: 16, transientVMaxV: 35 }, { maxInputV: 60 }, 60, 25),
     violate: v("fail", p("nfet-ideal-diode", { supplyMaxV: 16, transientVMaxV: 65 }, { maxInputV: 60 }, 60, -5)),
   },
-  "controller-input-derated": { pass: p("integrated-switch", { supplyMaxV: 16 }, { maxInputV: 60 }, 48, 32), violate: v("warn", p("integrated-switch", { supplyMaxV: 50 }, { maxInputV: 60 }, 48, -2)) },
-  "start-at-min-supply": { pass: p("nfet-ideal-diode", { startVoltageV: 2.5, supplyMinV: 6 }, {}, 6, 3.5), violate: v("fail", p("nfet-ideal-diode", { startVoltageV: 9, supplyMinV: 6 }, {}, 6, -3)) },
-  "gate-drive-at-min-supply": { pass: p("pfet-high-side", { gateDriveMinV: 6 }, { vgsOnV: 4.5 }, 4.5, 1.5), violate: v("warn", p("pfet-high-side", { gateDriveMinV: 3.5 }, { vgsOnV: 4.5 }, 4.5, -1)) },
+  "controller-input-derated": {
+    pass: p("integrated-switch", { supplyMaxV: 16 }, { maxInputV: 60 }, 48, 32),
+    violate: v("warn", p("integrated-switch", { supplyMaxV: 50 }, { maxInputV: 60 }, 48, -2)),
+  },
+  "start-at-min-supply": {
+    pass: p("nfet-ideal-diode", { startVoltageV: 2.5, supplyMinV: 6 }, {}, 6, 3.5),
+    violate: v("fail", p("nfet-ideal-diode", { startVoltageV: 9, supplyMinV: 6 }, {}, 6, -3)),
+  },
+  "gate-drive-at-min-supply": {
+    pass: p("pfet-high-side", { gateDriveMinV: 6 }, { vgsOnV: 4.5 }, 4.5, 1.5),
+    violate: v("warn", p("pfet-high-side", { gateDriveMinV: 3.5 }, { vgsOnV: 4.5 }, 4.5, -1)),
+  },
   "reverse-current-blocking": {
     pass: p("nfet-ideal-diode", { parallelSources: true, holdUpRequired: false, blocksReverseCurrent: true }, {}),
     violate: v("fail", p("pfet-high-side", { parallelSources: 0, holdUpRequired: 1, blocksReverseCurrent: 0 }, {})),
   },
-  "standby-quiescent": { pass: p("integrated-switch", { quiescentA: 50e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, 50e-6), violate: v("fail", p("integrated-switch", { quiescentA: 150e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, -50e-6)) },
-  "loss-budget": { pass: p("schottky-diode", { lossWorstW: 0.75, lossBudgetW: 1 }, {}, 1, 0.25), violate: v("fail", p("schottky-diode", { lossWorstW: 1.5, lossBudgetW: 1 }, {}, 1, -0.5)) },
+  "standby-quiescent": {
+    pass: p("integrated-switch", { quiescentA: 50e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, 50e-6),
+    violate: v("fail", p("integrated-switch", { quiescentA: 150e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, -50e-6)),
+  },
+  "loss-budget": {
+    pass: p("schottky-diode", { lossWorstW: 0.75, lossBudgetW: 1 }, {}, 1, 0.25),
+    violate: v("fail", p("schottky-diode", { lossWorstW: 1.5, lossBudgetW: 1 }, {}, 1, -0.5)),
+  },
   // Avalanche: EAS 100 mJ at 25 °C, Tj(max) 175 °C, event at 85 °C → derated 0.1·(175 − 85)/(175 − 25) = 0.06 J.
   "avalanche-energy": {
     pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.05, avalancheEnergyAtTjJ: AT_85C }, {}, 0.06, 0.01),
@@ -73,29 +127,78 @@ const DEFAULT: Record<string, RuleCases> = {
     violate: v("warn", p("schottky-diode", { absorbedEnergyJ: 0.05, avalancheEnergyAtTjJ: AT_85C }, {}, 0.048, -0.002)),
     off: NO_ENERGY,
   },
-  "hold-up-time": { pass: p("schottky-diode", { holdUpS: 0.003, holdUpRequiredS: 0.002 }, {}, 0.002, 0.001), violate: v("fail", p("pfet-high-side", { holdUpS: 0.0015, holdUpRequiredS: 0.002 }, {}, 0.002, -0.0005)) },
+  "hold-up-time": {
+    pass: p("schottky-diode", { holdUpS: 0.003, holdUpRequiredS: 0.002 }, {}, 0.002, 0.001),
+    violate: v("fail", p("pfet-high-side", { holdUpS: 0.0015, holdUpRequiredS: 0.002 }, {}, 0.002, -0.0005)),
+  },
   // 1.25 · 2 ms = 2.5 ms.
-  "hold-up-margin": { pass: p("nfet-ideal-diode", { holdUpS: 0.003, holdUpRequiredS: 0.002 }, {}, 0.0025, 0.0005), violate: v("warn", p("nfet-ideal-diode", { holdUpS: 0.0022, holdUpRequiredS: 0.002 }, {}, 0.0025, -0.0003)) },
+  "hold-up-margin": {
+    pass: p("nfet-ideal-diode", { holdUpS: 0.003, holdUpRequiredS: 0.002 }, {}, 0.0025, 0.0005),
+    violate: v("warn", p("nfet-ideal-diode", { holdUpS: 0.0022, holdUpRequiredS: 0.002 }, {}, 0.0025, -0.0003)),
+  },
   "reverse-current-budget": {
     pass: p("schottky-diode", { reverseCurrentA: 1e-3, reverseCurrentBudgetA: 5e-3 }, {}, 5e-3, 4e-3),
     violate: v("fail", p("schottky-diode", { reverseCurrentA: 8e-3, reverseCurrentBudgetA: 5e-3 }, {}, 5e-3, -3e-3)),
   },
-  "battery-back-drain": { pass: p("nfet-ideal-diode", { targetCanDrainSource: false }, {}), violate: v("fail", p("pfet-high-side", { targetCanDrainSource: true }, {})) },
-  "element-peak-current": { pass: p("pn-diode", { peakRepetitiveCurrentA: 8 }, { ifrmA: 10 }, 10, 2), violate: v("fail", p("pn-diode", { peakRepetitiveCurrentA: 12 }, { ifrmA: 10 }, 10, -2)) },
-  "element-peak-current-derated": { pass: p("nfet-ideal-diode", { peakRepetitiveCurrentA: 7 }, { ifrmA: 10 }, 8, 1), violate: v("warn", p("nfet-ideal-diode", { peakRepetitiveCurrentA: 9 }, { ifrmA: 10 }, 8, -1)) },
-  "capacitor-ripple": { pass: p("pn-diode", { capacitorRippleCurrentA: 2, capacitorRippleRatingA: 2.5 }, {}, 2.5, 0.5), violate: v("fail", p("pn-diode", { capacitorRippleCurrentA: 3, capacitorRippleRatingA: 2.5 }, {}, 2.5, -0.5)) },  "reverse-leakage-runaway": { pass: p("schottky-diode", { reverseLeakageRunaway: false }, {}), violate: v("fail", p("schottky-diode", { reverseLeakageRunaway: true }, {})) },
-  "reverse-tj-limit": { pass: p("schottky-diode", { reverseTjC: 140 }, { tjMaxC: 150 }, 150, 10), violate: v("fail", p("schottky-diode", { reverseTjC: 155 }, { tjMaxC: 150 }, 150, -5)) },
+  "battery-back-drain": {
+    pass: p("nfet-ideal-diode", { targetCanDrainSource: false }, {}),
+    violate: v("fail", p("pfet-high-side", { targetCanDrainSource: true }, {})),
+  },
+  "element-peak-current": {
+    pass: p("pn-diode", { peakRepetitiveCurrentA: 8 }, { ifrmA: 10 }, 10, 2),
+    violate: v("fail", p("pn-diode", { peakRepetitiveCurrentA: 12 }, { ifrmA: 10 }, 10, -2)),
+  },
+  "element-peak-current-derated": {
+    pass: p("nfet-ideal-diode", { peakRepetitiveCurrentA: 7 }, { ifrmA: 10 }, 8, 1),
+    violate: v("warn", p("nfet-ideal-diode", { peakRepetitiveCurrentA: 9 }, { ifrmA: 10 }, 8, -1)),
+  },
+  "capacitor-ripple": {
+    pass: p("pn-diode", { capacitorRippleCurrentA: 2, capacitorRippleRatingA: 2.5 }, {}, 2.5, 0.5),
+    violate: v("fail", p("pn-diode", { capacitorRippleCurrentA: 3, capacitorRippleRatingA: 2.5 }, {}, 2.5, -0.5)),
+  },
+  "reverse-leakage-runaway": {
+    pass: p("schottky-diode", { reverseLeakageRunaway: false }, {}),
+    violate: v("fail", p("schottky-diode", { reverseLeakageRunaway: true }, {})),
+  },
+  "reverse-tj-limit": {
+    pass: p("schottky-diode", { reverseTjC: 140 }, { tjMaxC: 150 }, 150, 10),
+    violate: v("fail", p("schottky-diode", { reverseTjC: 155 }, { tjMaxC: 150 }, 150, -5)),
+  },
   // lhs = Tj(max) − reverse Tj: 150 − 120 = 30 against 25 (margin 5); 150 − 130 = 20 (margin −5).
-  "reverse-tj-margin": { pass: p("pn-diode", { reverseTjC: 120 }, { tjMaxC: 150 }, 25, 5), violate: v("warn", p("pn-diode", { reverseTjC: 130 }, { tjMaxC: 150 }, 25, -5)) },
+  "reverse-tj-margin": {
+    pass: p("pn-diode", { reverseTjC: 120 }, { tjMaxC: 150 }, 25, 5),
+    violate: v("warn", p("pn-diode", { reverseTjC: 130 }, { tjMaxC: 150 }, 25, -5)),
+  },
   // 0.8 · 40 V = 32 V.
-  "switch-reverse-steady": { pass: p("integrated-switch", { reverseVMaxV: 28 }, { switchReverseRatingV: 40 }, 32, 4), violate: v("fail", p("integrated-switch", { reverseVMaxV: 34 }, { switchReverseRatingV: 40 }, 32, -2)) },
-  "switch-reverse-transient": { pass: p("integrated-switch", { reverseTransientVMaxV: 36 }, { switchReverseRatingV: 40 }, 40, 4), violate: v("fail", p("integrated-switch", { reverseTransientVMaxV: 45 }, { switchReverseRatingV: 40 }, 40, -5)) },
-  "controller-reverse-max": { pass: p("nfet-ideal-diode", { controllerReverseVMaxV: 28 }, { controllerReverseRatingV: 40 }, 40, 12), violate: v("fail", p("nfet-ideal-diode", { controllerReverseVMaxV: 28 }, { controllerReverseRatingV: 20 }, 20, -8)) },
-  "controller-reverse-derated": { pass: p("nfet-ideal-diode", { reverseVMaxV: 28 }, { controllerReverseRatingV: 40 }, 32, 4), violate: v("warn", p("nfet-ideal-diode", { reverseVMaxV: 34 }, { controllerReverseRatingV: 40 }, 32, -2)) },
+  "switch-reverse-steady": {
+    pass: p("integrated-switch", { reverseVMaxV: 28 }, { switchReverseRatingV: 40 }, 32, 4),
+    violate: v("fail", p("integrated-switch", { reverseVMaxV: 34 }, { switchReverseRatingV: 40 }, 32, -2)),
+  },
+  "switch-reverse-transient": {
+    pass: p("integrated-switch", { reverseTransientVMaxV: 36 }, { switchReverseRatingV: 40 }, 40, 4),
+    violate: v("fail", p("integrated-switch", { reverseTransientVMaxV: 45 }, { switchReverseRatingV: 40 }, 40, -5)),
+  },
+  "controller-reverse-max": {
+    pass: p("nfet-ideal-diode", { controllerReverseVMaxV: 28 }, { controllerReverseRatingV: 40 }, 40, 12),
+    violate: v("fail", p("nfet-ideal-diode", { controllerReverseVMaxV: 28 }, { controllerReverseRatingV: 20 }, 20, -8)),
+  },
+  "controller-reverse-derated": {
+    pass: p("nfet-ideal-diode", { reverseVMaxV: 28 }, { controllerReverseRatingV: 40 }, 32, 4),
+    violate: v("warn", p("nfet-ideal-diode", { reverseVMaxV: 34 }, { controllerReverseRatingV: 40 }, 32, -2)),
+  },
   // max(16 V, 14 V) = 16 V.
-  "clamp-standoff": { pass: p("pn-diode", { clampStandoffV: 26, supplyMaxV: 16, reverseVMaxV: 14 }, {}, 16, 10), violate: v("fail", p("nfet-ideal-diode", { clampStandoffV: 14, supplyMaxV: 16, reverseVMaxV: 14 }, {}, 16, -2)) },
-  "clamp-standoff-jump-start": { pass: p("pn-diode", { clampStandoffV: 26, jumpStartV: 24 }, {}, 24, 2), violate: v("fail", p("pfet-high-side", { clampStandoffV: 18, jumpStartV: 24 }, {}, 24, -6)) },
-  "clamp-standoff-overvoltage": { pass: p("nfet-ideal-diode", { clampStandoffV: 64, supplyOvervoltageV: 60 }, {}, 60, 4), violate: v("fail", p("schottky-diode", { clampStandoffV: 58, supplyOvervoltageV: 60 }, {}, 60, -2)) },
+  "clamp-standoff": {
+    pass: p("pn-diode", { clampStandoffV: 26, supplyMaxV: 16, reverseVMaxV: 14 }, {}, 16, 10),
+    violate: v("fail", p("nfet-ideal-diode", { clampStandoffV: 14, supplyMaxV: 16, reverseVMaxV: 14 }, {}, 16, -2)),
+  },
+  "clamp-standoff-jump-start": {
+    pass: p("pn-diode", { clampStandoffV: 26, jumpStartV: 24 }, {}, 24, 2),
+    violate: v("fail", p("pfet-high-side", { clampStandoffV: 18, jumpStartV: 24 }, {}, 24, -6)),
+  },
+  "clamp-standoff-overvoltage": {
+    pass: p("nfet-ideal-diode", { clampStandoffV: 64, supplyOvervoltageV: 60 }, {}, 60, 4),
+    violate: v("fail", p("schottky-diode", { clampStandoffV: 58, supplyOvervoltageV: 60 }, {}, 60, -2)),
+  },
   "clamp-energy": {
     pass: p("nfet-ideal-diode", { clampEnergyJ: 3, clampEnergyRatingJ: 5 }, {}, 5, 2),
     violate: v("fail", p("nfet-ideal-diode", { clampEnergyJ: 51, clampEnergyRatingJ: 5 }, {}, 5, -46)),
@@ -113,41 +216,105 @@ const DEFAULT: Record<string, RuleCases> = {
   },
   "avalanche-current": {
     pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 30 }, { avalancheCurrentA: 40 }, 40, 10),
-    violate: v("fail", p("pfet-high-side", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 50 }, { avalancheCurrentA: 40 }, 40, -10)),
+    violate: v(
+      "fail",
+      p("pfet-high-side", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 50 }, { avalancheCurrentA: 40 }, 40, -10),
+    ),
   },
   // A repeating event's energy against EAR 1 mJ: 0.6 mJ passes (margin 0.4 mJ), 1.2 mJ fails; a one-off event is off.
   "avalanche-energy-repetitive": {
-    pass: p("nfet-ideal-diode", { turnOffRepetitive: true, absorbedEnergyJ: 0.6e-3 }, { repetitiveAvalancheEnergyJ: 1e-3 }, 1e-3, 0.4e-3),
-    violate: v("fail", p("pfet-high-side", { turnOffRepetitive: true, absorbedEnergyJ: 1.2e-3 }, { repetitiveAvalancheEnergyJ: 1e-3 }, 1e-3, -0.2e-3)),
-    off: p("nfet-low-side", { turnOffRepetitive: false, absorbedEnergyJ: 1.2e-3 }, { repetitiveAvalancheEnergyJ: 1e-3 }),
+    pass: p(
+      "nfet-ideal-diode",
+      { turnOffRepetitive: true, absorbedEnergyJ: 0.6e-3 },
+      { repetitiveAvalancheEnergyJ: 1e-3 },
+      1e-3,
+      0.4e-3,
+    ),
+    violate: v(
+      "fail",
+      p(
+        "pfet-high-side",
+        { turnOffRepetitive: true, absorbedEnergyJ: 1.2e-3 },
+        { repetitiveAvalancheEnergyJ: 1e-3 },
+        1e-3,
+        -0.2e-3,
+      ),
+    ),
+    off: p(
+      "nfet-low-side",
+      { turnOffRepetitive: false, absorbedEnergyJ: 1.2e-3 },
+      { repetitiveAvalancheEnergyJ: 1e-3 },
+    ),
   },
-  "start-at-profile-minimum": { pass: p("nfet-ideal-diode", { startVoltageV: 3.2, startProfileMinV: 4.5 }, {}, 4.5, 1.3), violate: v("fail", p("integrated-switch", { startVoltageV: 5, startProfileMinV: 4.5 }, {}, 4.5, -0.5)) },
-  "start-profile-no-dropout": { pass: p("pn-diode", { startProfileDropoutS: 0 }, {}, 0, 0), violate: v("fail", p("pn-diode", { startProfileDropoutS: 0.02 }, {}, 0, -0.02)) },
+  "start-at-profile-minimum": {
+    pass: p("nfet-ideal-diode", { startVoltageV: 3.2, startProfileMinV: 4.5 }, {}, 4.5, 1.3),
+    violate: v("fail", p("integrated-switch", { startVoltageV: 5, startProfileMinV: 4.5 }, {}, 4.5, -0.5)),
+  },
+  "start-profile-no-dropout": {
+    pass: p("pn-diode", { startProfileDropoutS: 0 }, {}, 0, 0),
+    violate: v("fail", p("pn-diode", { startProfileDropoutS: 0.02 }, {}, 0, -0.02)),
+  },
 };
 
 const VEHICLE: Record<string, RuleCases> = {
   ...DEFAULT,
-  "tj-limit": { pass: p("schottky-diode", { tjWorstC: 135 }, { tjMaxC: 150 }, 140, 5), violate: v("fail", p("schottky-diode", { tjWorstC: 145 }, { tjMaxC: 150 }, 140, -5)) },
-  "tj-margin": { pass: p("pfet-high-side", { tjWorstC: 115 }, { tjMaxC: 150 }, 120, 5), violate: v("warn", p("pfet-high-side", { tjWorstC: 125 }, { tjMaxC: 150 }, 120, -5)) },
-  "load-voltage-headroom": { pass: p("pn-diode", { loadVMinV: 11.5, loadMinV: 10 }, {}, 11, 0.5), violate: v("warn", p("pn-diode", { loadVMinV: 10.8, loadMinV: 10 }, {}, 11, -0.2)) },
-  "diode-reverse-steady": { pass: p("schottky-diode", { reverseVMaxV: 14 }, { vrrmV: 40 }, 28, 14), violate: v("fail", p("schottky-diode", { reverseVMaxV: 30 }, { vrrmV: 40 }, 28, -2)) },
-  "diode-reverse-transient": { pass: p("pn-diode", { reverseTransientVMaxV: 35 }, { vrrmV: 40 }, 36, 1), violate: v("fail", p("pn-diode", { reverseTransientVMaxV: 38 }, { vrrmV: 40 }, 36, -2)) },
-  "fet-vds-reverse-steady": { pass: p("nfet-low-side", { reverseVMaxV: 14 }, { vdsMaxV: 40 }, 28, 14), violate: v("fail", p("nfet-low-side", { reverseVMaxV: 30 }, { vdsMaxV: 40 }, 28, -2)) },
-  "fet-vds-reverse-transient": { pass: p("nfet-ideal-diode", { reverseTransientVMaxV: 35 }, { vdsMaxV: 40 }, 36, 1), violate: v("fail", p("nfet-ideal-diode", { reverseTransientVMaxV: 38 }, { vdsMaxV: 40 }, 36, -2)) },
-  "pair-forward-blocking": { pass: p("nfet-back-to-back", { supplyMaxV: 16, transientVMaxV: 35 }, { vdsMaxV: 40 }, 36, 1), violate: v("fail", p("nfet-back-to-back", { supplyMaxV: 16, transientVMaxV: 38 }, { vdsMaxV: 40 }, 36, -2)) },
+  "tj-limit": {
+    pass: p("schottky-diode", { tjWorstC: 135 }, { tjMaxC: 150 }, 140, 5),
+    violate: v("fail", p("schottky-diode", { tjWorstC: 145 }, { tjMaxC: 150 }, 140, -5)),
+  },
+  "tj-margin": {
+    pass: p("pfet-high-side", { tjWorstC: 115 }, { tjMaxC: 150 }, 120, 5),
+    violate: v("warn", p("pfet-high-side", { tjWorstC: 125 }, { tjMaxC: 150 }, 120, -5)),
+  },
+  "load-voltage-headroom": {
+    pass: p("pn-diode", { loadVMinV: 11.5, loadMinV: 10 }, {}, 11, 0.5),
+    violate: v("warn", p("pn-diode", { loadVMinV: 10.8, loadMinV: 10 }, {}, 11, -0.2)),
+  },
+  "diode-reverse-steady": {
+    pass: p("schottky-diode", { reverseVMaxV: 14 }, { vrrmV: 40 }, 28, 14),
+    violate: v("fail", p("schottky-diode", { reverseVMaxV: 30 }, { vrrmV: 40 }, 28, -2)),
+  },
+  "diode-reverse-transient": {
+    pass: p("pn-diode", { reverseTransientVMaxV: 35 }, { vrrmV: 40 }, 36, 1),
+    violate: v("fail", p("pn-diode", { reverseTransientVMaxV: 38 }, { vrrmV: 40 }, 36, -2)),
+  },
+  "fet-vds-reverse-steady": {
+    pass: p("nfet-low-side", { reverseVMaxV: 14 }, { vdsMaxV: 40 }, 28, 14),
+    violate: v("fail", p("nfet-low-side", { reverseVMaxV: 30 }, { vdsMaxV: 40 }, 28, -2)),
+  },
+  "fet-vds-reverse-transient": {
+    pass: p("nfet-ideal-diode", { reverseTransientVMaxV: 35 }, { vdsMaxV: 40 }, 36, 1),
+    violate: v("fail", p("nfet-ideal-diode", { reverseTransientVMaxV: 38 }, { vdsMaxV: 40 }, 36, -2)),
+  },
+  "pair-forward-blocking": {
+    pass: p("nfet-back-to-back", { supplyMaxV: 16, transientVMaxV: 35 }, { vdsMaxV: 40 }, 36, 1),
+    violate: v("fail", p("nfet-back-to-back", { supplyMaxV: 16, transientVMaxV: 38 }, { vdsMaxV: 40 }, 36, -2)),
+  },
   // 0.9 · 56.1 V = 50.49 V.
   "fet-vds-reverse-transient-cold": {
     pass: p("nfet-ideal-diode", { reverseTransientVMaxV: 48, vdsBreakdownColdV: 56.1 }, {}, 50.49, 2.49),
     violate: v("fail", p("nfet-low-side", { reverseTransientVMaxV: 52, vdsBreakdownColdV: 56.1 }, {}, 50.49, -1.51)),
   },
-  "fet-vgs-derated": { pass: p("nfet-low-side", { gateSourceVMaxV: 13 }, { vgsMaxV: 20 }, 14, 1), violate: v("warn", p("nfet-low-side", { gateSourceVMaxV: 15 }, { vgsMaxV: 20 }, 14, -1)) },
+  "fet-vgs-derated": {
+    pass: p("nfet-low-side", { gateSourceVMaxV: 13 }, { vgsMaxV: 20 }, 14, 1),
+    violate: v("warn", p("nfet-low-side", { gateSourceVMaxV: 15 }, { vgsMaxV: 20 }, 14, -1)),
+  },
   "controller-input-max": {
     pass: p("nfet-ideal-diode", { supplyMaxV: 16, transientVMaxV: 35 }, { maxInputV: 60 }, 54, 19),
     violate: v("fail", p("nfet-ideal-diode", { supplyMaxV: 16, transientVMaxV: 58 }, { maxInputV: 60 }, 54, -4)),
   },
-  "controller-input-derated": { pass: p("integrated-switch", { supplyMaxV: 16 }, { maxInputV: 60 }, 42, 26), violate: v("warn", p("integrated-switch", { supplyMaxV: 45 }, { maxInputV: 60 }, 42, -3)) },
-  "start-margin": { pass: p("nfet-ideal-diode", { startVoltageV: 2.5, supplyMinV: 6 }, {}, 5.4, 2.9), violate: v("warn", p("nfet-ideal-diode", { startVoltageV: 5.7, supplyMinV: 6 }, {}, 5.4, -0.3)) },
-  "gate-drive-at-min-supply": { pass: p("nfet-low-side", { gateDriveMinV: 6 }, { vgsOnV: 4.5 }, 4.5, 1.5), violate: v("fail", p("nfet-low-side", { gateDriveMinV: 3.5 }, { vgsOnV: 4.5 }, 4.5, -1)) },
+  "controller-input-derated": {
+    pass: p("integrated-switch", { supplyMaxV: 16 }, { maxInputV: 60 }, 42, 26),
+    violate: v("warn", p("integrated-switch", { supplyMaxV: 45 }, { maxInputV: 60 }, 42, -3)),
+  },
+  "start-margin": {
+    pass: p("nfet-ideal-diode", { startVoltageV: 2.5, supplyMinV: 6 }, {}, 5.4, 2.9),
+    violate: v("warn", p("nfet-ideal-diode", { startVoltageV: 5.7, supplyMinV: 6 }, {}, 5.4, -0.3)),
+  },
+  "gate-drive-at-min-supply": {
+    pass: p("nfet-low-side", { gateDriveMinV: 6 }, { vgsOnV: 4.5 }, 4.5, 1.5),
+    violate: v("fail", p("nfet-low-side", { gateDriveMinV: 3.5 }, { vgsOnV: 4.5 }, 4.5, -1)),
+  },
   // 0.8 · 0.06 J = 0.048 J; 0.6 · 0.06 J = 0.036 J.
   "avalanche-energy": {
     pass: p("pfet-high-side", { absorbedEnergyJ: 0.04, avalancheEnergyAtTjJ: AT_85C }, {}, 0.048, 0.008),
@@ -156,29 +323,84 @@ const VEHICLE: Record<string, RuleCases> = {
   },
   // 0.9 · EAR 1 mJ = 0.9 mJ.
   "avalanche-energy-repetitive": {
-    pass: p("nfet-ideal-diode", { turnOffRepetitive: true, absorbedEnergyJ: 0.6e-3 }, { repetitiveAvalancheEnergyJ: 1e-3 }, 0.9e-3, 0.3e-3),
-    violate: v("fail", p("nfet-low-side", { turnOffRepetitive: true, absorbedEnergyJ: 0.95e-3 }, { repetitiveAvalancheEnergyJ: 1e-3 }, 0.9e-3, -0.05e-3)),
-    off: p("pfet-high-side", { turnOffRepetitive: false, absorbedEnergyJ: 0.95e-3 }, { repetitiveAvalancheEnergyJ: 1e-3 }),
+    pass: p(
+      "nfet-ideal-diode",
+      { turnOffRepetitive: true, absorbedEnergyJ: 0.6e-3 },
+      { repetitiveAvalancheEnergyJ: 1e-3 },
+      0.9e-3,
+      0.3e-3,
+    ),
+    violate: v(
+      "fail",
+      p(
+        "nfet-low-side",
+        { turnOffRepetitive: true, absorbedEnergyJ: 0.95e-3 },
+        { repetitiveAvalancheEnergyJ: 1e-3 },
+        0.9e-3,
+        -0.05e-3,
+      ),
+    ),
+    off: p(
+      "pfet-high-side",
+      { turnOffRepetitive: false, absorbedEnergyJ: 0.95e-3 },
+      { repetitiveAvalancheEnergyJ: 1e-3 },
+    ),
   },
   "avalanche-energy-margin": {
     pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.03, avalancheEnergyAtTjJ: AT_85C }, {}, 0.036, 0.006),
-    violate: v("warn", p("nfet-ideal-diode", { absorbedEnergyJ: 0.04, avalancheEnergyAtTjJ: AT_85C }, {}, 0.036, -0.004)),
+    violate: v(
+      "warn",
+      p("nfet-ideal-diode", { absorbedEnergyJ: 0.04, avalancheEnergyAtTjJ: AT_85C }, {}, 0.036, -0.004),
+    ),
     off: NO_ENERGY,
   },
   // 1.25 · 2 ms = 2.5 ms (fail); 1.5 · 2 ms = 3 ms (warn).
-  "hold-up-time": { pass: p("schottky-diode", { holdUpS: 0.003, holdUpRequiredS: 0.002 }, {}, 0.0025, 0.0005), violate: v("fail", p("schottky-diode", { holdUpS: 0.0022, holdUpRequiredS: 0.002 }, {}, 0.0025, -0.0003)) },
-  "hold-up-margin": { pass: p("schottky-diode", { holdUpS: 0.0035, holdUpRequiredS: 0.002 }, {}, 0.003, 0.0005), violate: v("warn", p("schottky-diode", { holdUpS: 0.0028, holdUpRequiredS: 0.002 }, {}, 0.003, -0.0002)) },
+  "hold-up-time": {
+    pass: p("schottky-diode", { holdUpS: 0.003, holdUpRequiredS: 0.002 }, {}, 0.0025, 0.0005),
+    violate: v("fail", p("schottky-diode", { holdUpS: 0.0022, holdUpRequiredS: 0.002 }, {}, 0.0025, -0.0003)),
+  },
+  "hold-up-margin": {
+    pass: p("schottky-diode", { holdUpS: 0.0035, holdUpRequiredS: 0.002 }, {}, 0.003, 0.0005),
+    violate: v("warn", p("schottky-diode", { holdUpS: 0.0028, holdUpRequiredS: 0.002 }, {}, 0.003, -0.0002)),
+  },
   // 0.9 · 10 A = 9 A (fail); 0.7 · 10 A = 7 A (warn); ripple 0.8 · 2.5 A = 2 A.
-  "element-peak-current": { pass: p("pn-diode", { peakRepetitiveCurrentA: 8 }, { ifrmA: 10 }, 9, 1), violate: v("fail", p("pn-diode", { peakRepetitiveCurrentA: 9.5 }, { ifrmA: 10 }, 9, -0.5)) },
-  "element-peak-current-derated": { pass: p("schottky-diode", { peakRepetitiveCurrentA: 6 }, { ifrmA: 10 }, 7, 1), violate: v("warn", p("schottky-diode", { peakRepetitiveCurrentA: 7.5 }, { ifrmA: 10 }, 7, -0.5)) },
-  "capacitor-ripple": { pass: p("pn-diode", { capacitorRippleCurrentA: 1.8, capacitorRippleRatingA: 2.5 }, {}, 2, 0.2), violate: v("fail", p("pn-diode", { capacitorRippleCurrentA: 2.2, capacitorRippleRatingA: 2.5 }, {}, 2, -0.2)) },  // lhs = Tj(max) − reverse Tj against 10 K (fail) and 30 K (warn).
-  "reverse-tj-limit": { pass: p("schottky-diode", { reverseTjC: 135 }, { tjMaxC: 150 }, 10, 5), violate: v("fail", p("schottky-diode", { reverseTjC: 145 }, { tjMaxC: 150 }, 10, -5)) },
-  "reverse-tj-margin": { pass: p("pn-diode", { reverseTjC: 115 }, { tjMaxC: 150 }, 30, 5), violate: v("warn", p("pn-diode", { reverseTjC: 125 }, { tjMaxC: 150 }, 30, -5)) },
+  "element-peak-current": {
+    pass: p("pn-diode", { peakRepetitiveCurrentA: 8 }, { ifrmA: 10 }, 9, 1),
+    violate: v("fail", p("pn-diode", { peakRepetitiveCurrentA: 9.5 }, { ifrmA: 10 }, 9, -0.5)),
+  },
+  "element-peak-current-derated": {
+    pass: p("schottky-diode", { peakRepetitiveCurrentA: 6 }, { ifrmA: 10 }, 7, 1),
+    violate: v("warn", p("schottky-diode", { peakRepetitiveCurrentA: 7.5 }, { ifrmA: 10 }, 7, -0.5)),
+  },
+  "capacitor-ripple": {
+    pass: p("pn-diode", { capacitorRippleCurrentA: 1.8, capacitorRippleRatingA: 2.5 }, {}, 2, 0.2),
+    violate: v("fail", p("pn-diode", { capacitorRippleCurrentA: 2.2, capacitorRippleRatingA: 2.5 }, {}, 2, -0.2)),
+  }, // lhs = Tj(max) − reverse Tj against 10 K (fail) and 30 K (warn).
+  "reverse-tj-limit": {
+    pass: p("schottky-diode", { reverseTjC: 135 }, { tjMaxC: 150 }, 10, 5),
+    violate: v("fail", p("schottky-diode", { reverseTjC: 145 }, { tjMaxC: 150 }, 10, -5)),
+  },
+  "reverse-tj-margin": {
+    pass: p("pn-diode", { reverseTjC: 115 }, { tjMaxC: 150 }, 30, 5),
+    violate: v("warn", p("pn-diode", { reverseTjC: 125 }, { tjMaxC: 150 }, 30, -5)),
+  },
   // 0.7 · 40 V = 28 V; 0.9 · 40 V = 36 V.
-  "switch-reverse-steady": { pass: p("integrated-switch", { reverseVMaxV: 14 }, { switchReverseRatingV: 40 }, 28, 14), violate: v("fail", p("integrated-switch", { reverseVMaxV: 30 }, { switchReverseRatingV: 40 }, 28, -2)) },
-  "switch-reverse-transient": { pass: p("integrated-switch", { reverseTransientVMaxV: 35 }, { switchReverseRatingV: 40 }, 36, 1), violate: v("fail", p("integrated-switch", { reverseTransientVMaxV: 38 }, { switchReverseRatingV: 40 }, 36, -2)) },
-  "controller-reverse-max": { pass: p("nfet-ideal-diode", { controllerReverseVMaxV: 28 }, { controllerReverseRatingV: 40 }, 36, 8), violate: v("fail", p("nfet-ideal-diode", { controllerReverseVMaxV: 38 }, { controllerReverseRatingV: 40 }, 36, -2)) },
-  "controller-reverse-derated": { pass: p("nfet-ideal-diode", { reverseVMaxV: 14 }, { controllerReverseRatingV: 40 }, 28, 14), violate: v("warn", p("nfet-ideal-diode", { reverseVMaxV: 30 }, { controllerReverseRatingV: 40 }, 28, -2)) },
+  "switch-reverse-steady": {
+    pass: p("integrated-switch", { reverseVMaxV: 14 }, { switchReverseRatingV: 40 }, 28, 14),
+    violate: v("fail", p("integrated-switch", { reverseVMaxV: 30 }, { switchReverseRatingV: 40 }, 28, -2)),
+  },
+  "switch-reverse-transient": {
+    pass: p("integrated-switch", { reverseTransientVMaxV: 35 }, { switchReverseRatingV: 40 }, 36, 1),
+    violate: v("fail", p("integrated-switch", { reverseTransientVMaxV: 38 }, { switchReverseRatingV: 40 }, 36, -2)),
+  },
+  "controller-reverse-max": {
+    pass: p("nfet-ideal-diode", { controllerReverseVMaxV: 28 }, { controllerReverseRatingV: 40 }, 36, 8),
+    violate: v("fail", p("nfet-ideal-diode", { controllerReverseVMaxV: 38 }, { controllerReverseRatingV: 40 }, 36, -2)),
+  },
+  "controller-reverse-derated": {
+    pass: p("nfet-ideal-diode", { reverseVMaxV: 14 }, { controllerReverseRatingV: 40 }, 28, 14),
+    violate: v("warn", p("nfet-ideal-diode", { reverseVMaxV: 30 }, { controllerReverseRatingV: 40 }, 28, -2)),
+  },
   // 0.8 · 5 J = 4 J; 0.8 · 30 A = 24 A; 0.9 · 40 A = 36 A.
   "clamp-energy": {
     pass: p("nfet-ideal-diode", { clampEnergyJ: 3, clampEnergyRatingJ: 5 }, {}, 4, 1),
@@ -198,30 +420,69 @@ const VEHICLE: Record<string, RuleCases> = {
   },
   "avalanche-current": {
     pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 30 }, { avalancheCurrentA: 40 }, 36, 6),
-    violate: v("fail", p("nfet-low-side", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 38 }, { avalancheCurrentA: 40 }, 36, -2)),
+    violate: v(
+      "fail",
+      p("nfet-low-side", { absorbedEnergyJ: 0.01, peakReverseCurrentA: 38 }, { avalancheCurrentA: 40 }, 36, -2),
+    ),
   },
 };
 
 const CONSUMER: Record<string, RuleCases> = {
   ...DEFAULT,
-  "tj-margin": { pass: p("schottky-diode", { tjWorstC: 135 }, { tjMaxC: 150 }, 140, 5), violate: v("warn", p("schottky-diode", { tjWorstC: 145 }, { tjMaxC: 150 }, 140, -5)) },
-  "load-voltage-headroom": { pass: p("pn-diode", { loadVMinV: 10.5, loadMinV: 10 }, {}, 10.2, 0.3), violate: v("warn", p("pn-diode", { loadVMinV: 10.1, loadMinV: 10 }, {}, 10.2, -0.1)) },
-  "diode-reverse-steady": { pass: p("schottky-diode", { reverseVMaxV: 14 }, { vrrmV: 40 }, 36, 22), violate: v("fail", p("schottky-diode", { reverseVMaxV: 37 }, { vrrmV: 40 }, 36, -1)) },
-  "fet-vds-reverse-steady": { pass: p("pfet-high-side", { reverseVMaxV: 14 }, { vdsMaxV: 40 }, 36, 22), violate: v("fail", p("pfet-high-side", { reverseVMaxV: 37 }, { vdsMaxV: 40 }, 36, -1)) },
-  "fet-vgs-derated": { pass: p("pfet-high-side", { gateSourceVMaxV: 17 }, { vgsMaxV: 20 }, 18, 1), violate: v("warn", p("pfet-high-side", { gateSourceVMaxV: 19 }, { vgsMaxV: 20 }, 18, -1)) },
-  "controller-input-derated": { pass: p("integrated-switch", { supplyMaxV: 16 }, { maxInputV: 60 }, 54, 38), violate: v("warn", p("integrated-switch", { supplyMaxV: 56 }, { maxInputV: 60 }, 54, -2)) },
-  "standby-quiescent": { pass: p("nfet-ideal-diode", { quiescentA: 50e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, 50e-6), violate: v("warn", p("nfet-ideal-diode", { quiescentA: 150e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, -50e-6)) },
+  "tj-margin": {
+    pass: p("schottky-diode", { tjWorstC: 135 }, { tjMaxC: 150 }, 140, 5),
+    violate: v("warn", p("schottky-diode", { tjWorstC: 145 }, { tjMaxC: 150 }, 140, -5)),
+  },
+  "load-voltage-headroom": {
+    pass: p("pn-diode", { loadVMinV: 10.5, loadMinV: 10 }, {}, 10.2, 0.3),
+    violate: v("warn", p("pn-diode", { loadVMinV: 10.1, loadMinV: 10 }, {}, 10.2, -0.1)),
+  },
+  "diode-reverse-steady": {
+    pass: p("schottky-diode", { reverseVMaxV: 14 }, { vrrmV: 40 }, 36, 22),
+    violate: v("fail", p("schottky-diode", { reverseVMaxV: 37 }, { vrrmV: 40 }, 36, -1)),
+  },
+  "fet-vds-reverse-steady": {
+    pass: p("pfet-high-side", { reverseVMaxV: 14 }, { vdsMaxV: 40 }, 36, 22),
+    violate: v("fail", p("pfet-high-side", { reverseVMaxV: 37 }, { vdsMaxV: 40 }, 36, -1)),
+  },
+  "fet-vgs-derated": {
+    pass: p("pfet-high-side", { gateSourceVMaxV: 17 }, { vgsMaxV: 20 }, 18, 1),
+    violate: v("warn", p("pfet-high-side", { gateSourceVMaxV: 19 }, { vgsMaxV: 20 }, 18, -1)),
+  },
+  "controller-input-derated": {
+    pass: p("integrated-switch", { supplyMaxV: 16 }, { maxInputV: 60 }, 54, 38),
+    violate: v("warn", p("integrated-switch", { supplyMaxV: 56 }, { maxInputV: 60 }, 54, -2)),
+  },
+  "standby-quiescent": {
+    pass: p("nfet-ideal-diode", { quiescentA: 50e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, 50e-6),
+    violate: v("warn", p("nfet-ideal-diode", { quiescentA: 150e-6, standbyBudgetA: 100e-6 }, {}, 100e-6, -50e-6)),
+  },
   // 0.9 · 0.06 J = 0.054 J; 1.1 · 2 ms = 2.2 ms; 0.9 · 10 A = 9 A.
   "avalanche-energy-margin": {
     pass: p("nfet-low-side", { absorbedEnergyJ: 0.05, avalancheEnergyAtTjJ: AT_85C }, {}, 0.054, 0.004),
     violate: v("warn", p("nfet-low-side", { absorbedEnergyJ: 0.058, avalancheEnergyAtTjJ: AT_85C }, {}, 0.054, -0.004)),
     off: NO_ENERGY,
   },
-  "hold-up-margin": { pass: p("pn-diode", { holdUpS: 0.0025, holdUpRequiredS: 0.002 }, {}, 0.0022, 0.0003), violate: v("warn", p("pn-diode", { holdUpS: 0.0021, holdUpRequiredS: 0.002 }, {}, 0.0022, -0.0001)) },
-  "element-peak-current-derated": { pass: p("pn-diode", { peakRepetitiveCurrentA: 8 }, { ifrmA: 10 }, 9, 1), violate: v("warn", p("pn-diode", { peakRepetitiveCurrentA: 9.5 }, { ifrmA: 10 }, 9, -0.5)) },  // lhs = Tj(max) − reverse Tj against 10 K; 0.9 · 40 V = 36 V.
-  "reverse-tj-margin": { pass: p("pn-diode", { reverseTjC: 135 }, { tjMaxC: 150 }, 10, 5), violate: v("warn", p("pn-diode", { reverseTjC: 145 }, { tjMaxC: 150 }, 10, -5)) },
-  "switch-reverse-steady": { pass: p("integrated-switch", { reverseVMaxV: 28 }, { switchReverseRatingV: 40 }, 36, 8), violate: v("fail", p("integrated-switch", { reverseVMaxV: 37 }, { switchReverseRatingV: 40 }, 36, -1)) },
-  "controller-reverse-derated": { pass: p("nfet-ideal-diode", { reverseVMaxV: 28 }, { controllerReverseRatingV: 40 }, 36, 8), violate: v("warn", p("nfet-ideal-diode", { reverseVMaxV: 37 }, { controllerReverseRatingV: 40 }, 36, -1)) },
+  "hold-up-margin": {
+    pass: p("pn-diode", { holdUpS: 0.0025, holdUpRequiredS: 0.002 }, {}, 0.0022, 0.0003),
+    violate: v("warn", p("pn-diode", { holdUpS: 0.0021, holdUpRequiredS: 0.002 }, {}, 0.0022, -0.0001)),
+  },
+  "element-peak-current-derated": {
+    pass: p("pn-diode", { peakRepetitiveCurrentA: 8 }, { ifrmA: 10 }, 9, 1),
+    violate: v("warn", p("pn-diode", { peakRepetitiveCurrentA: 9.5 }, { ifrmA: 10 }, 9, -0.5)),
+  }, // lhs = Tj(max) − reverse Tj against 10 K; 0.9 · 40 V = 36 V.
+  "reverse-tj-margin": {
+    pass: p("pn-diode", { reverseTjC: 135 }, { tjMaxC: 150 }, 10, 5),
+    violate: v("warn", p("pn-diode", { reverseTjC: 145 }, { tjMaxC: 150 }, 10, -5)),
+  },
+  "switch-reverse-steady": {
+    pass: p("integrated-switch", { reverseVMaxV: 28 }, { switchReverseRatingV: 40 }, 36, 8),
+    violate: v("fail", p("integrated-switch", { reverseVMaxV: 37 }, { switchReverseRatingV: 40 }, 36, -1)),
+  },
+  "controller-reverse-derated": {
+    pass: p("nfet-ideal-diode", { reverseVMaxV: 28 }, { controllerReverseRatingV: 40 }, 36, 8),
+    violate: v("warn", p("nfet-ideal-diode", { reverseVMaxV: 37 }, { controllerReverseRatingV: 40 }, 36, -1)),
+  },
 };
 
 const TABLES: Record<string, Record<string, RuleCases>> = { default: DEFAULT, vehicle: VEHICLE, consumer: CONSUMER };
@@ -230,7 +491,11 @@ const sets = builtInRuleSets();
 function run(set: CompiledRuleSet, ruleId: string, c: Case) {
   const rule = set.rules.find((r) => r.rule.id === ruleId);
   if (rule === undefined) throw new Error(`no rule ${ruleId} in ${set.stamp.id}`);
-  return evaluateRule(rule, { stageKind: c.kind, metrics: c.metrics, part: (c.part ?? {}) as Record<string, number> }, set.stamp);
+  return evaluateRule(
+    rule,
+    { stageKind: c.kind, metrics: c.metrics, part: (c.part ?? {}) as Record<string, number> },
+    set.stamp,
+  );
 }
 
 describe.each(sets.map((s) => [s.stamp.id, s] as const))("built-in rule set %s", (id, set) => {
@@ -276,7 +541,12 @@ describe.each(sets.map((s) => [s.stamp.id, s] as const))("built-in rule set %s",
         expect(out.outcome).toBe("not-applicable");
         expect(out.reason).toContain(`not ${other}`);
       } else if (r.when !== undefined) {
-        const out = run(set, ruleId, cases?.off ?? p("pn-diode", { parallelSources: false, holdUpRequired: false, blocksReverseCurrent: false }, {}));
+        const out = run(
+          set,
+          ruleId,
+          cases?.off ??
+            p("pn-diode", { parallelSources: false, holdUpRequired: false, blocksReverseCurrent: false }, {}),
+        );
         expect(out.outcome).toBe("not-applicable");
         expect(out.reason).toContain("is false");
       } else {
@@ -310,7 +580,10 @@ describe("built-in rule sets: identity and documentation", () => {
     if (!def || !veh || !con) throw new Error("missing set");
     const m = { tjWorstC: 128, reverseVMaxV: 30 };
     const part = { tjMaxC: 150, vrrmV: 40 };
-    const outcomes = (s: CompiledRuleSet) => s.rules.filter((r) => ["tj-limit", "tj-margin", "diode-reverse-steady"].includes(r.rule.id)).map((r) => evaluateRule(r, { stageKind: "pn-diode", metrics: m, part }, s.stamp).outcome);
+    const outcomes = (s: CompiledRuleSet) =>
+      s.rules
+        .filter((r) => ["tj-limit", "tj-margin", "diode-reverse-steady"].includes(r.rule.id))
+        .map((r) => evaluateRule(r, { stageKind: "pn-diode", metrics: m, part }, s.stamp).outcome);
     // Tj 128 °C on a 150 °C part: limits (fail / warn) are default 150 / 125, vehicle 140 / 120,
     // consumer 150 / 140. Reverse 30 V on a 40 V part: default 0.8·40 = 32 passes, vehicle
     // 0.7·40 = 28 fails, consumer 0.9·40 = 36 passes.

@@ -17,7 +17,15 @@ const setOf = (...expressions: string[]): RuleSet => ({
   id: "units",
   version: "1",
   description: "unit cases",
-  rules: expressions.map((expression, i) => ({ id: `r${i}`, title: "t", appliesTo: "all", expression, severity: "fail", source: "memory", rationale: "r" })),
+  rules: expressions.map((expression, i) => ({
+    id: `r${i}`,
+    title: "t",
+    appliesTo: "all",
+    expression,
+    severity: "fail",
+    source: "memory",
+    rationale: "r",
+  })),
 });
 
 describe("every name of the vocabulary has a unit the check knows", () => {
@@ -28,9 +36,19 @@ describe("every name of the vocabulary has a unit the check knows", () => {
 
 describe("mixed units are refused at load with the rule id and the column", () => {
   it.each([
-    ["part.tjMaxC - 25 mA (a current from a temperature)", "tjWorstC <= part.tjMaxC - 25 mA", 30, /cannot subtract A from a temperature in °C/],
+    [
+      "part.tjMaxC - 25 mA (a current from a temperature)",
+      "tjWorstC <= part.tjMaxC - 25 mA",
+      30,
+      /cannot subtract A from a temperature in °C/,
+    ],
     ["part.tjMaxC - 25 V", "tjWorstC <= part.tjMaxC - 25 V", 30, /cannot subtract V from a temperature/],
-    ["423.15 K as an absolute temperature", "tjWorstC <= 423.15 K", 20, /K is read as a temperature difference; .*degC/],
+    [
+      "423.15 K as an absolute temperature",
+      "tjWorstC <= 423.15 K",
+      20,
+      /K is read as a temperature difference; .*degC/,
+    ],
     ["a temperature against volts", "tjWorstC <= supplyMaxV", 13, /compares a temperature in °C with V/],
     ["volts plus amperes", "dropWorstV + quiescentA <= 1", 14, /cannot add A to V/],
     ["two temperatures added", "tjWorstC + part.tjMaxC <= 300", 12, /cannot add two temperatures/],
@@ -49,13 +67,22 @@ describe("mixed units are refused at load with the rule id and the column", () =
   it("a company rule file is refused naming the rule, the field and the column", () => {
     const r = ruleSetFromData(setOf("tjWorstC <= part.tjMaxC - 25 mA"), "company.json");
     expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.problems[0]).toMatchObject({ source: "company.json", ruleId: "r0", path: ["rules", 0, "expression"], column: 30 });
+    if (!r.ok)
+      expect(r.problems[0]).toMatchObject({
+        source: "company.json",
+        ruleId: "r0",
+        path: ["rules", 0, "expression"],
+        column: 30,
+      });
     if (!r.ok) expect(r.problems[0]?.message).toMatch(/^rule r0, expression column 30: cannot subtract A/);
   });
 
   it("a precondition is checked too", () => {
     const set = setOf("tjWorstC <= 150");
-    const out = compileRuleSet({ ...set, rules: [{ ...(set.rules[0] as RuleSet["rules"][number]), when: "supplyMaxV > 25 degC" }] });
+    const out = compileRuleSet({
+      ...set,
+      rules: [{ ...(set.rules[0] as RuleSet["rules"][number]), when: "supplyMaxV > 25 degC" }],
+    });
     expect(out.ok).toBe(false);
     if (!out.ok) expect(out.errors[0]).toMatchObject({ field: "when", code: "dimension" });
   });
@@ -89,7 +116,14 @@ describe("temperature literals: degC is a point, K a difference, with the plain 
   });
 
   it("the built-in derating of avalanche energy (differences of °C over a difference) is accepted", () => {
-    expect(compileExpression("absorbedEnergyJ <= 0.8 * part.avalancheEnergyJ * (part.tjMaxC - eventTjC) / (part.tjMaxC - 25)").ok).toBe(true);
-    expect(compileExpression("absorbedEnergyJ <= part.avalancheEnergyJ * (part.tjMaxC - eventTjC) / (part.tjMaxC - 25 degC)").ok).toBe(true);
+    expect(
+      compileExpression(
+        "absorbedEnergyJ <= 0.8 * part.avalancheEnergyJ * (part.tjMaxC - eventTjC) / (part.tjMaxC - 25)",
+      ).ok,
+    ).toBe(true);
+    expect(
+      compileExpression("absorbedEnergyJ <= part.avalancheEnergyJ * (part.tjMaxC - eventTjC) / (part.tjMaxC - 25 degC)")
+        .ok,
+    ).toBe(true);
   });
 });

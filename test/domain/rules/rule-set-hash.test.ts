@@ -13,15 +13,21 @@ describe("sha256 (pure)", () => {
   it("matches the FIPS 180-2 example vectors", () => {
     // FIPS 180-2 appendix B.1 and B.2, and the empty message.
     expect(sha256Hex("abc")).toBe("ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad");
-    expect(sha256Hex("abcdbcdecdefdefgefghfghighijhijkijkljklmklmnlmnomnopnopq")).toBe("248d6a61d20638b8e5c026930c3e6039a33ce45964ff2167f6ecedd419db06c1");
+    expect(sha256Hex("abcdbcdecdefdefgefghfghighijhijkijkljklmklmnlmnomnopnopq")).toBe(
+      "248d6a61d20638b8e5c026930c3e6039a33ce45964ff2167f6ecedd419db06c1",
+    );
     expect(sha256Hex("")).toBe("e3b0c44298fc1c149afbf4c8996fb92427ae41e4649b934ca495991b7852b855");
   });
   it("matches node:crypto on arbitrary text (oracle), including multi-byte UTF-8 and block boundaries", () => {
     fc.assert(
-      fc.property(fc.string({ unit: "binary", maxLength: 300 }), (s) => sha256Hex(s) === createHash("sha256").update(s, "utf8").digest("hex")),
+      fc.property(
+        fc.string({ unit: "binary", maxLength: 300 }),
+        (s) => sha256Hex(s) === createHash("sha256").update(s, "utf8").digest("hex"),
+      ),
       { numRuns: 300, seed: 7 },
     );
-    for (const n of [55, 56, 63, 64, 65, 119, 120]) expect(sha256Hex("x".repeat(n))).toBe(createHash("sha256").update("x".repeat(n)).digest("hex"));
+    for (const n of [55, 56, 63, 64, 65, 119, 120])
+      expect(sha256Hex("x".repeat(n))).toBe(createHash("sha256").update("x".repeat(n)).digest("hex"));
   });
 });
 
@@ -53,7 +59,20 @@ describe("determinism", () => {
   it("the same set and metrics give byte-identical verdicts, across fresh compilations", () => {
     const input = {
       stageKind: "nfet-ideal-diode",
-      metrics: { tjWorstC: 131.25, loadVMinV: 11.2, loadMinV: 10, supplyMinV: 6, supplyMaxV: 16, startVoltageV: 2.8, reverseVMaxV: 14, reverseTransientVMaxV: 39, parallelSources: true, blocksReverseCurrent: true, quiescentA: 80e-6, standbyBudgetA: 100e-6 },
+      metrics: {
+        tjWorstC: 131.25,
+        loadVMinV: 11.2,
+        loadMinV: 10,
+        supplyMinV: 6,
+        supplyMaxV: 16,
+        startVoltageV: 2.8,
+        reverseVMaxV: 14,
+        reverseTransientVMaxV: 39,
+        parallelSources: true,
+        blocksReverseCurrent: true,
+        quiescentA: 80e-6,
+        standbyBudgetA: 100e-6,
+      },
       part: { tjMaxC: 175, vdsMaxV: 60, maxInputV: 60 },
     };
     const set = builtInRuleSets()[1];
@@ -61,7 +80,12 @@ describe("determinism", () => {
     const a = JSON.stringify(evaluateRuleSet(set, input));
     const again = compileRuleSet(set.set);
     if (!again.ok) throw new Error("recompile failed");
-    const b = JSON.stringify(evaluateRuleSet(again.compiled, { ...input, metrics: Object.fromEntries(Object.entries(input.metrics).reverse()) }));
+    const b = JSON.stringify(
+      evaluateRuleSet(again.compiled, {
+        ...input,
+        metrics: Object.fromEntries(Object.entries(input.metrics).reverse()),
+      }),
+    );
     expect(b).toBe(a);
   });
 });

@@ -19,8 +19,13 @@ describe("sandbox: the attack list is refused with a clear error and position", 
     ["constructor as a name", "constructor(1) <= 1", /'constructor' .*refused|not allowed/, 1],
     ["__proto__ on part", "part.__proto__ <= 1", /part\.__proto__/, 6],
     ["bracket property on part", 'part["tjMaxC"] <= 1', /property access/, 1],
-    ["constructor chain through a function", 'abs.constructor("return 1") <= 1', /only calls of the whitelisted functions/, 16],
-    ["import", 'import({a: 1}) == 1', /function 'import'.*refused/, 1],
+    [
+      "constructor chain through a function",
+      'abs.constructor("return 1") <= 1',
+      /only calls of the whitelisted functions/,
+      16,
+    ],
+    ["import", "import({a: 1}) == 1", /function 'import'.*refused/, 1],
     ["createUnit", 'createUnit("foo") == 1', /function 'createUnit'.*refused/, 1],
     ["evaluate", 'evaluate("1+1") == 2', /function 'evaluate'.*refused/, 1],
     ["parse", 'tjWorstC <= parse("1")', /function 'parse'.*refused/, 13],
@@ -81,7 +86,11 @@ describe("sandbox: the attack list is refused with a clear error and position", 
     const short = compileExpression(text, { maxLength: text.length - 1, maxNodes: 256 });
     expect(short.ok ? undefined : short.error.code).toBe("too-long");
     const few = compileExpression(text, { maxLength: 2000, maxNodes: 3 });
-    expect(few.ok ? undefined : few.error).toEqual({ code: "too-many-nodes", message: "expression has more than 3 syntax nodes", column: 1 });
+    expect(few.ok ? undefined : few.error).toEqual({
+      code: "too-many-nodes",
+      message: "expression has more than 3 syntax nodes",
+      column: 1,
+    });
     const fresh = compileExpression("tjWorstC <= part.tjMaxC - 30 K", { maxLength: 2000, maxNodes: 3 }); // not cached
     expect(fresh.ok ? undefined : fresh.error.code).toBe("too-many-nodes");
     expect(compileExpression(text, { maxLength: text.length, maxNodes: 256 }).ok).toBe(true);
@@ -121,7 +130,8 @@ describe("sandbox: what is allowed", () => {
     for (let i = 0; i < 50; i += 1) expect(compileExpression(`tjWorstC <= 1${"0".repeat(2000)}${i}`).ok).toBe(false); // too long
     for (let i = 0; i < 50; i += 1) expect(compileExpression(`tjWorstC <=> ${i}`).ok).toBe(false); // syntax
     expect(compileCacheSize().entries).toBe(before);
-    for (let i = 0; i < COMPILE_CACHE_LIMITS.maxEntries + 10; i += 1) compileExpression(`tjWorstC <= ${i} + ${"1 + ".repeat(i % 40)}1`);
+    for (let i = 0; i < COMPILE_CACHE_LIMITS.maxEntries + 10; i += 1)
+      compileExpression(`tjWorstC <= ${i} + ${"1 + ".repeat(i % 40)}1`);
     const after = compileCacheSize();
     expect(after.entries).toBeLessThanOrEqual(COMPILE_CACHE_LIMITS.maxEntries);
     expect(after.bytes).toBeLessThanOrEqual(COMPILE_CACHE_LIMITS.maxBytes);

@@ -25,13 +25,28 @@ describe("quantities in words", () => {
 
 describe("reasons of failed comparisons", () => {
   it("give the left side, both sides with the vocabulary's unit and the margin (K for °C)", () => {
-    expect(comparisonReason("tjWorstC <= part.tjMaxC", ["tjWorstC", "part.tjMaxC"], "<=", 157.80342, 150, -7.80342)).toBe("tjWorstC = 157.8 °C <= 150 °C does not hold (margin -7.803 K)");
-    expect(comparisonReason("holdUpS >= holdUpRequiredS", ["holdUpS", "holdUpRequiredS"], ">=", 13.8e-6, 0.002, 13.8e-6 - 0.002)).toBe("holdUpS = 13.8 µs >= 2 ms does not hold (margin -1.986 ms)");
+    expect(
+      comparisonReason("tjWorstC <= part.tjMaxC", ["tjWorstC", "part.tjMaxC"], "<=", 157.80342, 150, -7.80342),
+    ).toBe("tjWorstC = 157.8 °C <= 150 °C does not hold (margin -7.803 K)");
+    expect(
+      comparisonReason(
+        "holdUpS >= holdUpRequiredS",
+        ["holdUpS", "holdUpRequiredS"],
+        ">=",
+        13.8e-6,
+        0.002,
+        13.8e-6 - 0.002,
+      ),
+    ).toBe("holdUpS = 13.8 µs >= 2 ms does not hold (margin -1.986 ms)");
   });
   it("read a difference of two temperatures in K", () => {
-    expect(comparisonReason("part.tjMaxC - reverseTjC >= 25", ["part.tjMaxC", "reverseTjC"], ">=", 20, 25, -5)).toBe("part.tjMaxC - reverseTjC = 20 K >= 25 K does not hold (margin -5 K)");
+    expect(comparisonReason("part.tjMaxC - reverseTjC >= 25", ["part.tjMaxC", "reverseTjC"], ">=", 20, 25, -5)).toBe(
+      "part.tjMaxC - reverseTjC = 20 K >= 25 K does not hold (margin -5 K)",
+    );
   });
   it("write numbers bare where the left side mixes units", () => {
-    expect(comparisonReason("lossWorstW + dropWorstV <= 2", ["lossWorstW", "dropWorstV"], "<=", 3, 2, -1)).toBe("lossWorstW + dropWorstV = 3 <= 2 does not hold (margin -1)");
+    expect(comparisonReason("lossWorstW + dropWorstV <= 2", ["lossWorstW", "dropWorstV"], "<=", 3, 2, -1)).toBe(
+      "lossWorstW + dropWorstV = 3 <= 2 does not hold (margin -1)",
+    );
   });
 });

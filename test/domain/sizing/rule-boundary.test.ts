@@ -8,12 +8,27 @@ const set = (expression: string, when?: string) => {
     id: "t",
     version: "1",
     description: "test",
-    rules: [{ id: "r", title: "r", appliesTo: ["nfet-ideal-diode"], expression, ...(when === undefined ? {} : { when }), severity: "fail", source: "test", rationale: "test" }],
+    rules: [
+      {
+        id: "r",
+        title: "r",
+        appliesTo: ["nfet-ideal-diode"],
+        expression,
+        ...(when === undefined ? {} : { when }),
+        severity: "fail",
+        source: "test",
+        rationale: "test",
+      },
+    ],
   });
   if (!out.ok) throw new Error(JSON.stringify(out.errors));
   return out.compiled;
 };
-const input: RuleInput = { stageKind: "nfet-ideal-diode", metrics: { reverseVMaxV: 28, supplyMaxV: 32, transientVMaxV: 58, parallelSources: false, holdUpRequired: false }, part: { vdsMaxV: 60, maxInputV: 65 } };
+const input: RuleInput = {
+  stageKind: "nfet-ideal-diode",
+  metrics: { reverseVMaxV: 28, supplyMaxV: 32, transientVMaxV: 58, parallelSources: false, holdUpRequired: false },
+  part: { vdsMaxV: 60, maxInputV: 65 },
+};
 
 describe("a rule read as a threshold on one name", () => {
   // Closed forms: each boundary solved by hand from the expression.

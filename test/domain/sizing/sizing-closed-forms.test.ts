@@ -19,13 +19,23 @@ const rules = (() => {
 })();
 
 /** A sizing context as the procedures build it, from a contract requirement. */
-function context(raw: unknown, stage: StageModel, turnOff?: TurnOffRequest, spec: Record<string, unknown> = { kind: stage.kind }) {
+function context(
+  raw: unknown,
+  stage: StageModel,
+  turnOff?: TurnOffRequest,
+  spec: Record<string, unknown> = { kind: stage.kind },
+) {
   const r = requirementSchema.parse(raw);
   const req = toReviewRequirement(r, []);
   return sizingContext(r, req, rules, { spec: spec as never, model: stage }, {}, turnOff);
 }
 
-const fixed12 = { supply: { class: "custom", minV: 12, nominalV: 12, maxV: 12 }, loadLevels: [1], transients: [], reverse: { voltageV: 12, durationS: 60 } };
+const fixed12 = {
+  supply: { class: "custom", minV: 12, nominalV: 12, maxV: 12 },
+  loadLevels: [1],
+  transients: [],
+  reverse: { voltageV: 12, durationS: 60 },
+};
 
 describe("largest Rds(on): closed form of the self-heating equation", () => {
   // Closed form (docs/references.md, linear coefficient a): Tj = (Ta + I²·R25·Rth·(1 − 25a)) / (1 − I²·R25·Rth·a).
@@ -35,7 +45,13 @@ describe("largest Rds(on): closed form of the self-heating equation", () => {
     { a: 0.004, rth: 60, ta: 40, i: 3 },
     { a: 0.007, rth: 12, ta: 105, i: 20 },
   ])("a = $a /K, Rth = $rth K/W, Ta = $ta °C, I = $i A", ({ a, rth, ta, i }) => {
-    const law = { law: "points" as const, points: [{ tempK: 273.15 - 60, factor: 1 + a * -85 }, { tempK: 273.15 + 300, factor: 1 + a * 275 }] };
+    const law = {
+      law: "points" as const,
+      points: [
+        { tempK: 273.15 - 60, factor: 1 + a * -85 },
+        { tempK: 273.15 + 300, factor: 1 + a * 275 },
+      ],
+    };
     const stage: StageModel = {
       kind: "nfet-low-side",
       mosfet: {
@@ -48,7 +64,10 @@ describe("largest Rds(on): closed form of the self-heating equation", () => {
       },
       thermal: { kind: "junction-ambient", rthJaKPerW: rth },
     };
-    const ctx = context({ ...fixed12, load: { kind: "constant-current", currentA: i }, ambient: { minC: ta, maxC: ta } }, stage);
+    const ctx = context(
+      { ...fixed12, load: { kind: "constant-current", currentA: i }, ambient: { minC: ta, maxC: ta } },
+      stage,
+    );
     const r = forwardLimit(ctx, stage, ctx.assess(stage), "rdsOn");
     const tj = 175 - 25; // rule tj-margin of the default set
     const expected = (tj - ta) / (i * i * rth * (1 + a * (tj - 25)));
@@ -60,10 +79,23 @@ describe("largest Rds(on): closed form of the self-heating equation", () => {
   it("impossible when the ambient alone is above the junction target: a reason, no number", () => {
     const stage: StageModel = {
       kind: "nfet-low-side",
-      mosfet: { channel: { rdsOnPoints: [{ gateSourceV: 3, rdsOnOhm: 0.01 }], thresholdV: 2, tempLaw: { law: "power", exponent: 2.3 } }, bodyDiode: siBodyDiode, vdsMaxV: 60, vgsMaxV: 20, tjMaxC: 175 },
+      mosfet: {
+        channel: {
+          rdsOnPoints: [{ gateSourceV: 3, rdsOnOhm: 0.01 }],
+          thresholdV: 2,
+          tempLaw: { law: "power", exponent: 2.3 },
+        },
+        bodyDiode: siBodyDiode,
+        vdsMaxV: 60,
+        vgsMaxV: 20,
+        tjMaxC: 175,
+      },
       thermal: { kind: "junction-ambient", rthJaKPerW: 20 },
     };
-    const ctx = context({ ...fixed12, load: { kind: "constant-current", currentA: 5 }, ambient: { minC: 155, maxC: 155 } }, stage);
+    const ctx = context(
+      { ...fixed12, load: { kind: "constant-current", currentA: 5 }, ambient: { minC: 155, maxC: 155 } },
+      stage,
+    );
     const r = forwardLimit(ctx, stage, ctx.assess(stage), "rdsOn");
     expect(r.item.outcome).toBe("impossible");
     expect(r.item.value).toBeUndefined();
@@ -81,12 +113,38 @@ describe("longest turn-off delay: the exact series R-L-C response solved for tim
   ])("R $r Ω, L $l H, C $c F, Imax $imax A", ({ r, l, c, iLoad, v0, rds, vth, imax }) => {
     const stage: StageModel = {
       kind: "nfet-ideal-diode",
-      mosfet: { channel: { rdsOnPoints: [{ gateSourceV: 10, rdsOnOhm: rds }], thresholdV: 2, tempLaw: { law: "power", exponent: 0 } }, bodyDiode: siBodyDiode, vdsMaxV: 60, vgsMaxV: 20, tjMaxC: 175 },
-      controller: { startV: 3, gateDrive: [{ inputV: 3, gateSourceV: 10 }], regulatedDropV: 0, quiescentA: 0, gateReleaseFraction: 0 },
+      mosfet: {
+        channel: {
+          rdsOnPoints: [{ gateSourceV: 10, rdsOnOhm: rds }],
+          thresholdV: 2,
+          tempLaw: { law: "power", exponent: 0 },
+        },
+        bodyDiode: siBodyDiode,
+        vdsMaxV: 60,
+        vgsMaxV: 20,
+        tjMaxC: 175,
+      },
+      controller: {
+        startV: 3,
+        gateDrive: [{ inputV: 3, gateSourceV: 10 }],
+        regulatedDropV: 0,
+        quiescentA: 0,
+        gateReleaseFraction: 0,
+      },
       thermal: { kind: "junction-ambient", rthJaKPerW: 40 },
     };
-    const turnOff: TurnOffRequest = { loop: { resistanceOhm: r, inductanceH: l }, capacitor: { capacitanceF: c, esrOhm: 0 }, outputV: v0, reverseThresholdV: vth, peakReverseCurrentMaxA: imax };
-    const ctx = context({ ...fixed12, load: { kind: "constant-current", currentA: iLoad }, ambient: { minC: 25, maxC: 25 } }, stage, turnOff);
+    const turnOff: TurnOffRequest = {
+      loop: { resistanceOhm: r, inductanceH: l },
+      capacitor: { capacitanceF: c, esrOhm: 0 },
+      outputV: v0,
+      reverseThresholdV: vth,
+      peakReverseCurrentMaxA: imax,
+    };
+    const ctx = context(
+      { ...fixed12, load: { kind: "constant-current", currentA: iLoad }, ambient: { minC: 25, maxC: 25 } },
+      stage,
+      turnOff,
+    );
     if (ctx.turnOff === undefined) throw new Error("no turn-off event");
     const item = turnOffDelayLimits(ctx, stage, ctx.turnOff)[0];
     const rt = r + rds;
@@ -112,13 +170,25 @@ describe("longest turn-off delay: the exact series R-L-C response solved for tim
 describe("largest reverse leakage", () => {
   const diode = (eg: number): DiodeStage => ({
     kind: "schottky-diode",
-    diode: { saturationCurrentA: 1e-6, ideality: 1.05, seriesResistanceOhm: 0.02, energyGapEv: eg, saturationTempExponent: 0, nominalTempK: 298.15 },
+    diode: {
+      saturationCurrentA: 1e-6,
+      ideality: 1.05,
+      seriesResistanceOhm: 0.02,
+      energyGapEv: eg,
+      saturationTempExponent: 0,
+      nominalTempK: 298.15,
+    },
     reverseLeakage: { currentA: 1e-4, tempK: 298.15 },
     reverseRatingV: 60,
     tjMaxC: 150,
     thermal: { kind: "junction-ambient", rthJaKPerW: 50 },
   });
-  const raw = { ...fixed12, reverse: { voltageV: 16, durationS: 60 }, load: { kind: "constant-current", currentA: 1 }, ambient: { minC: 70, maxC: 70 } };
+  const raw = {
+    ...fixed12,
+    reverse: { voltageV: 16, durationS: 60 },
+    load: { kind: "constant-current", currentA: 1 },
+    ambient: { minC: 70, maxC: 70 },
+  };
 
   // Energy balance at the stable point: Tj = Ta + Rth·VR·IR(Tj), so at Tj = 125 °C (150 − 25 K)
   // IR = (125 − 70)/(50·16) = 68.75 mA for a leakage law mild enough to have a stable root there.

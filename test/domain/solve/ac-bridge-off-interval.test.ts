@@ -11,7 +11,16 @@ const law = junctionLaw(demoPn, 298.15);
 const laws = { positive: [law, law], negative: [law, law] } as const;
 
 function circuit(load: LoadModel, leakageInductanceH: number): AcBridgeCircuit {
-  return { sourceRmsV: 24, frequencyHz: 50, sourceResistanceOhm: 0.5, leakageInductanceH, capacitanceF: 2200e-6, esrOhm: 0.05, load, pairLaws: () => laws };
+  return {
+    sourceRmsV: 24,
+    frequencyHz: 50,
+    sourceResistanceOhm: 0.5,
+    leakageInductanceH,
+    capacitanceF: 2200e-6,
+    esrOhm: 0.05,
+    load,
+    pairLaws: () => laws,
+  };
 }
 
 describe("AC bridge off interval in closed form", () => {
@@ -36,10 +45,21 @@ describe("AC bridge off interval in closed form", () => {
         expect(Math.abs((fast.end[0] ?? 0) - (general.end[0] ?? 0))).toBeLessThan(2e-6);
         const a = fast.integrals;
         const b = general.integrals;
-        for (const k of ["sourceEnergyJ", "lineA2s", "esrEnergyJ", "capA2s", "loadEnergyJ", "loadAs", "outVs", "outMinV", "outMaxV"] as const) {
+        for (const k of [
+          "sourceEnergyJ",
+          "lineA2s",
+          "esrEnergyJ",
+          "capA2s",
+          "loadEnergyJ",
+          "loadAs",
+          "outVs",
+          "outMinV",
+          "outMaxV",
+        ] as const) {
           expect(relativeError(a[k], b[k])).toBeLessThan(1e-6);
         }
-        for (let s = 0; s < 4; s += 1) expect(relativeError(a.elementEnergyJ[s] ?? 0, b.elementEnergyJ[s] ?? 0)).toBeLessThan(1e-5);
+        for (let s = 0; s < 4; s += 1)
+          expect(relativeError(a.elementEnergyJ[s] ?? 0, b.elementEnergyJ[s] ?? 0)).toBeLessThan(1e-5);
         // The map derivative through the closed form: the capacitor row agrees as well.
         expect(relativeError(fast.jacobian?.[0]?.[0] ?? 0, general.jacobian?.[0]?.[0] ?? 1)).toBeLessThan(1e-4);
       });

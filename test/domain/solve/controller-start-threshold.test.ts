@@ -12,9 +12,21 @@ import { idealDiode } from "../../helpers/stages.js";
  * steady-state energy balance Tj = Ta + Rth·P (conservation; closed form).
  */
 describe("an ideal-diode controller at its start threshold", () => {
-  const stage = idealDiode(0.005, { startV: 4, regulatedDropV: 0.02, rth: 50, tempLaw: { law: "power", exponent: 2.3 } });
+  const stage = idealDiode(0.005, {
+    startV: 4,
+    regulatedDropV: 0.02,
+    rth: 50,
+    tempLaw: { law: "power", exponent: 2.3 },
+  });
   const at = (supplyV: number) => {
-    const m: OperatingPointModel = { stage, supplyV, sourceResistanceOhm: 1, load: { kind: "resistive", resistanceOhm: 2 }, ambientC: 25, rthKPerW: 50 };
+    const m: OperatingPointModel = {
+      stage,
+      supplyV,
+      sourceResistanceOhm: 1,
+      load: { kind: "resistive", resistanceOhm: 2 },
+      ambientC: 25,
+      rthKPerW: 50,
+    };
     const r = solveOperatingPoint(m);
     if (!("point" in r)) throw new Error(`${supplyV} V: ${r.outcome}`);
     return r.point;

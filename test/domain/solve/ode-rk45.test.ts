@@ -28,6 +28,7 @@ describe("Dormand-Prince 4(5)", () => {
     const r = integrateRk45((_t, y) => [-(y[0] ?? 0)], 0, [1], 10, { ...opts, event: (_t, y) => (y[0] ?? 0) - 0.5 });
     expect(r.outcome).toBe("event");
     expect(relativeError(r.t, Math.LN2)).toBeLessThan(1e-9);
-    if (r.outcome === "event") expect(Math.abs((r.y[0] ?? 0) - 0.5)).toBeLessThanOrEqual((r.localErrorSum[0] ?? 0) + 1e-12);
+    if (r.outcome === "event")
+      expect(Math.abs((r.y[0] ?? 0) - 0.5)).toBeLessThanOrEqual((r.localErrorSum[0] ?? 0) + 1e-12);
   });
 });

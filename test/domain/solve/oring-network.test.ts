@@ -6,7 +6,11 @@ import { relativeError } from "../../helpers/tolerance.js";
 import { idealDiodeStage, pfetStage, schottkyDiode, schottkyStage } from "../../fixtures/reverse-stages.js";
 
 const isothermal = (s: StageModel): StageModel => ({ ...s, thermal: { kind: "junction-ambient", rthJaKPerW: 0 } });
-const src = (v: number, stage: StageModel, r = 0.05): OringSource => ({ openCircuitV: v, internalResistanceOhm: r, stage });
+const src = (v: number, stage: StageModel, r = 0.05): OringSource => ({
+  openCircuitV: v,
+  internalResistanceOhm: r,
+  stage,
+});
 
 /**
  * Independent oracle: bisection on the node voltage, each branch current by bisection on the
@@ -41,9 +45,30 @@ function bisectDiodeNode(vocs: number[], r: number, loadA: number): { v: number;
 
 describe("ORing network", () => {
   const configs: [string, OringModel][] = [
-    ["two Schottky, CC load", { sources: [src(12.3, schottkyStage), src(12, schottkyStage)], load: { kind: "constant-current", currentA: 5 }, ambientC: 40 }],
-    ["ideal diode + P-FET, resistive", { sources: [src(12.2, idealDiodeStage), src(12, pfetStage)], load: { kind: "resistive", resistanceOhm: 3 }, ambientC: 25 }],
-    ["three mixed, constant power", { sources: [src(48, idealDiodeStage, 0.1), src(47.5, schottkyStage, 0.1), src(47, pfetStage, 0.2)], load: { kind: "constant-power", powerW: 400, minVoltageV: 36 }, ambientC: 50 }],
+    [
+      "two Schottky, CC load",
+      {
+        sources: [src(12.3, schottkyStage), src(12, schottkyStage)],
+        load: { kind: "constant-current", currentA: 5 },
+        ambientC: 40,
+      },
+    ],
+    [
+      "ideal diode + P-FET, resistive",
+      {
+        sources: [src(12.2, idealDiodeStage), src(12, pfetStage)],
+        load: { kind: "resistive", resistanceOhm: 3 },
+        ambientC: 25,
+      },
+    ],
+    [
+      "three mixed, constant power",
+      {
+        sources: [src(48, idealDiodeStage, 0.1), src(47.5, schottkyStage, 0.1), src(47, pfetStage, 0.2)],
+        load: { kind: "constant-power", powerW: 400, minVoltageV: 36 },
+        ambientC: 50,
+      },
+    ],
   ];
   // Source: Kirchhoff's current law at the node, 1e-9 relative to the load current.
   it.each(configs)("%s: KCL holds at the node", (_n, m) => {
@@ -54,7 +79,11 @@ describe("ORing network", () => {
 
   // Source: symmetry: identical sources and stages carry equal currents (electrothermal too).
   it("identical sources split equally", () => {
-    const r = solveOring({ sources: [src(24, schottkyStage), src(24, schottkyStage), src(24, schottkyStage)], load: { kind: "constant-current", currentA: 6 }, ambientC: 25 });
+    const r = solveOring({
+      sources: [src(24, schottkyStage), src(24, schottkyStage), src(24, schottkyStage)],
+      load: { kind: "constant-current", currentA: 6 },
+      ambientC: 25,
+    });
     if (r.outcome !== "solved") throw new Error(r.outcome);
     for (const b of r.branches) expect(relativeError(b.currentA, 2)).toBeLessThan(1e-9);
     expect(r.branches[0]?.tjC).toBeGreaterThan(25);
@@ -62,7 +91,11 @@ describe("ORing network", () => {
 
   // Source: independent nested bisection with the diode equation (see bisectDiodeNode).
   it("0.3 V apart through diodes: currents match the bisection; the lower source still conducts", () => {
-    const m: OringModel = { sources: [src(12.3, isothermal(schottkyStage)), src(12, isothermal(schottkyStage))], load: { kind: "constant-current", currentA: 3 }, ambientC: 25 };
+    const m: OringModel = {
+      sources: [src(12.3, isothermal(schottkyStage)), src(12, isothermal(schottkyStage))],
+      load: { kind: "constant-current", currentA: 3 },
+      ambientC: 25,
+    };
     const r = solveOring(m);
     if (r.outcome !== "solved") throw new Error(r.outcome);
     const ref = bisectDiodeNode([12.3, 12], 0.05, 3);
@@ -72,7 +105,10 @@ describe("ORing network", () => {
     });
     expect(r.branches[1]?.currentA).toBeGreaterThan(0);
     const shares = [0.1, 0.3, 0.5].map((dv) => {
-      const s = solveOring({ ...m, sources: [src(12 + dv, isothermal(schottkyStage)), src(12, isothermal(schottkyStage))] });
+      const s = solveOring({
+        ...m,
+        sources: [src(12 + dv, isothermal(schottkyStage)), src(12, isothermal(schottkyStage))],
+      });
       return s.outcome === "solved" ? (s.branches[1]?.share ?? 1) : 1;
     });
     expect(shares[0]).toBeGreaterThan(shares[1] ?? 1);
@@ -93,6 +129,8 @@ describe("ORing network", () => {
   });
 
   it("no sources is reported, not crashed", () => {
-    expect(solveOring({ sources: [], load: { kind: "resistive", resistanceOhm: 1 }, ambientC: 25 }).outcome).toBe("no-sources");
+    expect(solveOring({ sources: [], load: { kind: "resistive", resistanceOhm: 1 }, ambientC: 25 }).outcome).toBe(
+      "no-sources",
+    );
   });
 });

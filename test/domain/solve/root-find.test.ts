@@ -67,7 +67,10 @@ describe("thermalFixedPoint: the lowest root of Tj = Ta + Rth·P(Tj)", () => {
     const A = k * alpha * alpha;
     const B = 2 * k * alpha - 1;
     const u = (-B - Math.sqrt(B * B - 4 * A * k)) / (2 * A);
-    const r = thermalFixedPoint(taC, rth, 400, (tK) => ({ ok: true as const, lossW: p0 * (1 + alpha * (tK - taK)) ** 2 }));
+    const r = thermalFixedPoint(taC, rth, 400, (tK) => ({
+      ok: true as const,
+      lossW: p0 * (1 + alpha * (tK - taK)) ** 2,
+    }));
     if (r.kind !== "root") throw new Error(r.kind);
     expect(Math.abs(r.tjK - (taK + u))).toBeLessThan(1e-11);
     // a regression guard on the search's cost: start, fixed-point step, secant steps, gain probe

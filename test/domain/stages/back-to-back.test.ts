@@ -14,12 +14,21 @@ import { mosfet, siBodyDiode } from "../../helpers/stages.js";
 const hasSpice = toolAvailable("ngspice");
 
 /** A pair of 40 V FETs (test parameters, not a real part), one Rds(on) point at 10 V, gates at 10 V from 3.5 V up. */
-function pair(rdsOnOhm: number, opts: { blocks?: boolean; regulatedDropV?: number; exponent?: number } = {}): BackToBackStage {
+function pair(
+  rdsOnOhm: number,
+  opts: { blocks?: boolean; regulatedDropV?: number; exponent?: number } = {},
+): BackToBackStage {
   const m = mosfet(rdsOnOhm, { law: "power", exponent: opts.exponent ?? 2.3 }, { vdsMaxV: 40 });
   return {
     kind: "nfet-back-to-back",
     mosfet: { ...m, channel: { ...m.channel, rdsOnPoints: [{ gateSourceV: 10, rdsOnOhm }] } },
-    controller: { startV: 3.5, gateDrive: [{ inputV: 3.5, gateSourceV: 10 }], regulatedDropV: opts.regulatedDropV ?? 0, quiescentA: 0, gateReleaseFraction: 0 },
+    controller: {
+      startV: 3.5,
+      gateDrive: [{ inputV: 3.5, gateSourceV: 10 }],
+      regulatedDropV: opts.regulatedDropV ?? 0,
+      quiescentA: 0,
+      gateReleaseFraction: 0,
+    },
     blocksReverseCurrent: opts.blocks ?? true,
     thermal: { kind: "junction-ambient", rthJaKPerW: 40 },
   };
@@ -32,7 +41,11 @@ describe("back-to-back N-FET pair: forward", () => {
   // its share is below 1e-5 of the current, which the bound allows (ngspice checks it exactly below).
   it("drops 2·I·Rds(on)(Tj) and dissipates 2·I²·Rds(on)(Tj)", () => {
     const s = pair(0.005);
-    for (const [i, tjC] of [[1, 25], [5, 100], [10, 120]] as const) {
+    for (const [i, tjC] of [
+      [1, 25],
+      [5, 100],
+      [10, 120],
+    ] as const) {
       const r = 0.005 * (cToK(tjC) / 298.15) ** 2.3;
       const f = stageForward(s, i, cToK(tjC), 12);
       expect(f.mode).toBe("fully-enhanced");
@@ -61,7 +74,12 @@ describe("back-to-back N-FET pair: forward", () => {
   it("matches ngspice on the pair's network, with and without body-diode conduction", () => {
     expect(hasSpice, "ngspice is needed for this check (apt-get install ngspice)").toBe(true);
     const d = siBodyDiode;
-    for (const [rdsOnOhm, currentA, tjC] of [[0.005, 8, 100], [0.005, 10, 150], [0.4, 3, 25], [0.4, 3, 60]] as const) {
+    for (const [rdsOnOhm, currentA, tjC] of [
+      [0.005, 8, 100],
+      [0.005, 10, 150],
+      [0.4, 3, 25],
+      [0.4, 3, 60],
+    ] as const) {
       const s = pair(rdsOnOhm);
       const r = rdsOnOhm * (cToK(tjC) / 298.15) ** 2.3;
       const rows = runNgspice(`* back-to-back pair

@@ -22,7 +22,12 @@ function pfet(exponent: number, gateClampV?: number): StageModel {
  * equation (Vin − v)·G(v) = I·f (f = R(T)/R25) is the quadratic b·v² + (a − b·Vin)·v + (I·f − a·Vin) = 0;
  * substitution from v = Vin reaches its larger root.
  */
-function closedFormVgs(vin: number, currentA: number, f: number, seg: { x0: number; g0: number; x1: number; g1: number }): number {
+function closedFormVgs(
+  vin: number,
+  currentA: number,
+  f: number,
+  seg: { x0: number; g0: number; x1: number; g1: number },
+): number {
   const b = (seg.g1 - seg.g0) / (seg.x1 - seg.x0);
   const a = seg.g0 - b * seg.x0;
   const p = a - b * vin;

@@ -9,7 +9,12 @@ import { nfetBackToBack } from "../../../domain/stages/nfet-back-to-back.js";
 import { nfetIdealDiode } from "../../../domain/stages/nfet-ideal-diode.js";
 import { nfetLowSide } from "../../../domain/stages/nfet-low-side.js";
 import { pfetHighSide } from "../../../domain/stages/pfet-high-side.js";
-import { controllerLossW, quiescentLossW, STAGE_BEHAVIOURS, type StageBehaviours } from "../../../domain/stages/stage-behaviours.js";
+import {
+  controllerLossW,
+  quiescentLossW,
+  STAGE_BEHAVIOURS,
+  type StageBehaviours,
+} from "../../../domain/stages/stage-behaviours.js";
 import type { StageModel } from "../../../domain/stages/stage-model.js";
 import { idealDiode } from "../../helpers/stages.js";
 
@@ -22,7 +27,14 @@ describe("the stage behaviour record", () => {
   it("is refused by the compiler when a kind or a member is missing", () => {
     // tsc (npm test's typecheck) fails if either line below compiles: an unused @ts-expect-error is an error.
     // @ts-expect-error: a record without the back-to-back kind is incomplete
-    const missingKind: StageBehaviours = { "pn-diode": diodeStage, "schottky-diode": diodeStage, "pfet-high-side": pfetHighSide, "nfet-low-side": nfetLowSide, "nfet-ideal-diode": nfetIdealDiode, "integrated-switch": integratedSwitch };
+    const missingKind: StageBehaviours = {
+      "pn-diode": diodeStage,
+      "schottky-diode": diodeStage,
+      "pfet-high-side": pfetHighSide,
+      "nfet-low-side": nfetLowSide,
+      "nfet-ideal-diode": nfetIdealDiode,
+      "integrated-switch": integratedSwitch,
+    };
     const { reversePath: _dropped, ...withoutReversePath } = nfetBackToBack;
     // @ts-expect-error: a behaviour without its reverse path is incomplete
     const missingMember: StageBehaviours = { ...STAGE_BEHAVIOURS, "nfet-back-to-back": withoutReversePath };
