@@ -2,7 +2,14 @@ import { z } from "zod";
 import { profilePointCount, START_PROFILE_IDS, START_PROFILE_POINTS } from "../domain/checks/start-profiles.js";
 import { load } from "./load.js";
 import { quantity, ratio, temperatureC } from "./quantity.js";
-import { holdUpCapacitor, repetitiveEvent, reverseLoop, turnOffTiming } from "./turn-off.js";
+import {
+  holdUpCapacitor,
+  inductiveClampField,
+  repetitiveEvent,
+  reverseLoop,
+  reverseRecoveryChargeField,
+  turnOffTiming,
+} from "./turn-off.js";
 
 const volts = (d: string) => quantity("V", d, { gt: 0, le: 10_000 });
 
@@ -60,14 +67,8 @@ export const reviewTurnOff = z
       "junction temperature at the event (default: the candidate's worst-case Tj over the corners, else the highest ambient)",
     ).optional(),
     timing: turnOffTiming.optional(),
-    reverseRecoveryChargeC: quantity("C", "a diode stage's reverse-recovery charge Qrr (default 0: ideal)", {
-      ge: 0,
-      le: 1,
-    }).optional(),
-    clampV: quantity("V", "voltage the blocking element clamps the inductive energy at (default: its rated voltage)", {
-      gt: 0,
-      le: 10_000,
-    }).optional(),
+    reverseRecoveryChargeC: reverseRecoveryChargeField,
+    clampV: inductiveClampField,
     repetitive: repetitiveEvent,
   })
   .meta({

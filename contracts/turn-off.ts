@@ -42,6 +42,24 @@ export const repetitiveEvent = z.boolean().optional().meta({
 });
 
 /** The fields the turn-off event and the hold-up of a falling input share. */
+/** A diode stage's Qrr and the voltage the inductive energy is clamped at: fields of every turn-off event. */
+export const reverseRecoveryChargeField = quantity(
+  "C",
+  "a diode stage's reverse-recovery charge Qrr (default 0: ideal)",
+  {
+    ge: 0,
+    le: 1,
+  },
+).optional();
+export const inductiveClampField = quantity(
+  "V",
+  "voltage the blocking element clamps the inductive energy at (default: its rated voltage)",
+  {
+    gt: 0,
+    le: 10_000,
+  },
+).optional();
+
 export const fallingInputFields = {
   stage: stageInput,
   outputV: quantity("V", "output voltage before the event (steady state)", { gt: 0, le: 10_000 }),
@@ -58,14 +76,8 @@ export const fallingInputFields = {
   }).optional(),
   tjC: temperatureC("junction temperature of the stage at the event"),
   turnOff: turnOffTiming.optional(),
-  reverseRecoveryChargeC: quantity("C", "a diode stage's reverse-recovery charge Qrr (default 0: ideal)", {
-    ge: 0,
-    le: 1,
-  }).optional(),
-  clampV: quantity("V", "voltage the blocking element clamps the inductive energy at (default: its rated voltage)", {
-    gt: 0,
-    le: 10_000,
-  }).optional(),
+  reverseRecoveryChargeC: reverseRecoveryChargeField,
+  clampV: inductiveClampField,
 };
 
 export const turnOffInput = z
