@@ -1,0 +1,192 @@
+import { z } from "zod";
+import { provenance } from "./outcome.js";
+import { ruleSetResultSchema } from "./rule-set.js";
+import { turnOffEventOutput } from "./turn-off.js";
+
+/** What a design review answers: per candidate its corners, worst cases, start-up, Monte Carlo and verdicts. */
+
+const pointFields = {
+  outcome: z.string(),
+  mode: z.string().optional(),
+  currentA: z.number().optional(),
+  dropV: z.number().optional(),
+  lossW: z.number().optional(),
+  tjC: z.number().optional(),
+  loadV: z.number().optional(),
+  reason: z.string().optional(),
+};
+
+export const cornerConditions = z.object({
+  supply: z.enum(["min", "nominal", "max"]),
+  supplyV: z.number(),
+  ambient: z.enum(["min", "max"]),
+  ambientC: z.number(),
+  loadScale: z.number(),
+  tolerance: z.enum(["typical", "datasheet-max"]),
+});
+
+export const cornerRow = z.object({ conditions: cornerConditions, ...pointFields });
+
+export const reviewCurves = z
+  .object({
+    conditions: cornerConditions.extend({
+      basis: z
+        .enum(["worst-tj-corner", "lowest-supply-hot-full-load"])
+        .meta({ description: "which corner the curves pass through" }),
+    }),
+    load: z
+      .array(z.object({ loadScale: z.number(), ...pointFields }))
+      .meta({ description: "load level swept at the conditions' supply, ambient and tolerance" }),
+    ambient: z.array(z.object({ ambientC: z.number(), ...pointFields })).meta({
+      description: "ambient swept over the requirement's range at the conditions' supply, load and tolerance",
+    }),
+  })
+  .meta({
+    description:
+      "drop, loss and Tj against load level and ambient, through the worst-Tj corner (same solve as the corners), for plots",
+  });
+
+const driveAt = z.object({
+  inputV: z.number(),
+  startMarginV: z.number().optional(),
+  gateSourceV: z.number().optional(),
+  gateDriveMarginV: z.number().optional(),
+});
+const profileSample = z.object({
+  timeS: z.number(),
+  supplyV: z.number(),
+  mode: z.string(),
+  loadV: z.number(),
+  lossW: z.number(),
+  tjC: z.number(),
+});
+export const reviewStartUp = z
+  .object({
+    atMinSupply: driveAt,
+    atProfileMin: driveAt
+      .optional()
+      .meta({ description: "the same at the start-up profile's lowest point (with a profile)" }),
+    profiles: z
+      .array(
+        z.object({
+          ambientC: z.number(),
+          result: z.object({
+            samples: z.array(profileSample).readonly(),
+            minLoadV: z.number(),
+            maxTjC: z.number(),
+            bodyDiodeTimeS: z.number(),
+            dropoutTimeS: z.number(),
+            thermalModel: z.string(),
+          }),
+        }),
+      )
+      .readonly(),
+  })
+  .meta({ description: "drive at the lowest supply; the start-up profile samples per ambient" });
+
+const worstOf = z.object({ value: z.number(), corner: z.number().int() });
+
+export const candidateResult = z.object({
+  index: z.number().int(),
+  label: z.string(),
+  stage: z.object({ kind: z.string(), name: z.string().optional(), partId: z.string().optional() }),
+  rank: z.number().int(),
+  verdict: z.string(),
+  rankReason: z.string(),
+  worst: z.object({
+    tjC: worstOf.optional(),
+    lossW: worstOf.optional(),
+    dropV: worstOf.optional(),
+    loadMinV: worstOf.optional(),
+    unsolvedCorners: z.array(z.number().int()),
+  }),
+  corners: z.array(cornerRow),
+  startUp: reviewStartUp,
+  curves: reviewCurves.optional(),
+  turnOff: z
+    .object({
+      tjC: z.number().meta({ description: "junction temperature at the event" }),
+      tjSource: z.enum(["given", "worst-corner", "highest-ambient"]),
+      avalancheRatingJ: z
+        .number()
+        .optional()
+        .meta({ description: "the part's single-pulse avalanche rating at 25 °C starting Tj" }),
+      event: turnOffEventOutput,
+    })
+    .optional()
+    .meta({
+      description:
+        "the requirement's turn-off event for this candidate (as the turnOff procedure computes it; the waveform when curves were asked for)",
+    }),
+  reverse: z.unknown().meta({
+    description: "steady reverse polarity: blocking element, voltage vs rating, leakage, junction temperature",
+  }),
+  transients: z.unknown().meta({ description: "per pulse: peak, element stresses, clamp requirement" }),
+  thermalSizing: z.unknown(),
+  energy: z.unknown().optional(),
+  standby: z.unknown(),
+  metrics: z.record(z.string(), z.union([z.number(), z.boolean()])),
+  rules: ruleSetResultSchema,
+  costTotal: z.number().optional(),
+});
+
+const distribution = z
+  .object({
+    mean: z.number(),
+    std: z.number(),
+    p1: z.number(),
+    p5: z.number(),
+    p50: z.number(),
+    p95: z.number(),
+    p99: z.number(),
+    min: z.number(),
+    max: z.number(),
+  })
+  .meta({
+    description: "mean, standard deviation and nearest-rank percentiles over the samples with an operating point",
+  });
+
+export const monteCarloResult = z.object({
+  candidate: z.number().int(),
+  samples: z.number().int(),
+  seed: z.number().int(),
+  supplyV: z.number(),
+  ambientC: z.number(),
+  shareWithoutOperatingPoint: z
+    .number()
+    .meta({ description: "share of samples with no operating point (runaway, collapse, stage off)" }),
+  tjC: distribution.optional(),
+  lossW: distribution.optional(),
+  dropV: distribution.optional(),
+  loadV: distribution.optional(),
+  shareFailingByRule: z
+    .record(z.string(), z.number())
+    .meta({ description: "rule id → share of samples on which it fails" }),
+  shareWarningByRule: z.record(z.string(), z.number()),
+});
+
+export const reviewOutput = z.object({
+  ...provenance,
+  requirement: z.object({
+    supplyClass: z.string(),
+    supplyMinV: z.number(),
+    supplyNominalV: z.number(),
+    supplyMaxV: z.number(),
+    reverseV: z.number(),
+    transients: z.array(z.string()),
+    sources: z.array(z.string()),
+  }),
+  ranking: z.array(
+    z.object({
+      rank: z.number().int(),
+      index: z.number().int(),
+      label: z.string(),
+      verdict: z.string(),
+      reason: z.string(),
+    }),
+  ),
+  candidates: z.array(candidateResult),
+  monteCarlo: monteCarloResult.optional(),
+  assumptions: z.array(z.string()),
+});
+export type ReviewOutput = z.infer<typeof reviewOutput>;
