@@ -10,116 +10,14 @@ import {
   stateIntegral,
   type Vec2,
 } from "../physics/rlc-series.js";
-import type { LoadModel } from "../solve/load-model.js";
-import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
+import { stageTjMaxC } from "../stages/stage-model.js";
 import { avalancheEnergyAtTjJ } from "./avalanche-derating.js";
-import { type ControllerTurnOff, reversePath, stageBreakdownV } from "./reverse-path.js";
-import { type LoopCharacter, loadLine, loopCharacter, type PhaseEnergies, phaseEnergies } from "./turn-off-loop.js";
+import { reversePath, stageBreakdownV } from "./reverse-path.js";
+import { loadLine, loopCharacter, phaseEnergies } from "./turn-off-loop.js";
 
-export interface TurnOffModel {
-  readonly stage: StageModel;
-  /** Output (capacitor) voltage before the event, in steady state (no capacitor current), V. */
-  readonly outputV: number;
-  /** Input voltage from t = 0 on: 0 for a short, or the lower voltage it steps to, V. */
-  readonly inputAfterV: number;
-  /** Source and wiring resistance of the loop, without the stage, ohm. */
-  readonly loopResistanceOhm: number;
-  readonly loopInductanceH: number;
-  readonly capacitanceF: number;
-  readonly esrOhm: number;
-  readonly load: LoadModel;
-  /** The load's minimum operating voltage, V. */
-  readonly loadMinV: number;
-  readonly tjC: number;
-  readonly controller?: ControllerTurnOff;
-  /** A diode stage's reverse-recovery charge, C (0: ideal). */
-  readonly reverseRecoveryChargeC?: number;
-  /** Voltage the blocking element clamps at (avalanche or TVS), V; default its rated voltage. */
-  readonly clampV?: number;
-  /** Single-pulse avalanche energy rating at 25 °C starting Tj, J (derated to the event's tjC). */
-  readonly avalancheRatingJ?: number;
-}
+import type { ClampPhase, TurnOffCommon, TurnOffModel, TurnOffOutcome, WindowState } from "./turn-off-event-types.js";
 
-export interface WindowState {
-  readonly timeS: number;
-  readonly currentA: number;
-  readonly outputV: number;
-  readonly capacitorV: number;
-  readonly chargeLostC: number;
-  readonly voltageLostV: number;
-}
-
-export interface TurnOffCommon {
-  readonly loop: LoopCharacter & { readonly totalResistanceOhm: number; readonly stageResistanceOhm: number };
-  readonly loadMethod: string;
-  readonly initialCurrentA: number;
-  /** di/dt at t = 0+, A/s: (inputAfter − inputBefore)/L. */
-  readonly initialSlopeAPerS: number;
-  /**
-   * Largest reverse current of the event, A (magnitude), at peakReverseTimeS: over the window, or
-   * — where the stage keeps conducting past the window's end — until the current turns.
-   */
-  readonly peakReverseCurrentA: number;
-  readonly peakReverseTimeS: number;
-  /** Present (true) when the current was still rising at the end of the searched span: the peak is only a lower bound. */
-  readonly peakReverseIsLowerBound?: true;
-  readonly end: WindowState;
-  readonly energies: PhaseEnergies;
-}
-
-export interface ClampPhase {
-  readonly clampV: number;
-  readonly currentAtTurnOffA: number;
-  /** ½·L·I² at turn-off, J. */
-  readonly inductiveEnergyJ: number;
-  /** ½·L·I²·Vcl/(Vcl − Vs), Vs = output − input at turn-off (unclamped inductive switching). */
-  readonly clampedFormulaJ: number;
-  /** Vcl·∫|i|dt over the clamp phase from the exact loop response, J. */
-  readonly absorbedJ: number;
-  readonly durationS: number;
-  readonly avalancheRatingJ?: number;
-  /** The rating derated to the event's starting Tj (avalancheEnergyAtTjJ), J. */
-  readonly avalancheRatingAtTjJ?: number;
-  /** absorbedJ within avalancheRatingAtTjJ. */
-  readonly withinAvalancheRating?: boolean;
-  readonly after: WindowState;
-  readonly energies: PhaseEnergies;
-}
-
-export type TurnOffOutcome =
-  | ({
-      readonly outcome: "blocks";
-      readonly turnOffS: number;
-      readonly detectS?: number;
-      readonly clamp?: ClampPhase;
-    } & TurnOffCommon)
-  | ({
-      readonly outcome: "does-not-block";
-      readonly reason: string;
-      readonly fallsBelowMinS?: number;
-      readonly settlesAtV: number;
-    } & TurnOffCommon)
-  | ({ readonly outcome: "stays-on"; readonly reason: string } & TurnOffCommon)
-  | {
-      readonly outcome: "clamp-below-drive";
-      readonly reason: string;
-      readonly clampV: number;
-      readonly driveV: number;
-      readonly currentAtTurnOffA: number;
-    }
-  | { readonly outcome: "invalid-load-line"; readonly reason: string; readonly path: string }
-  | {
-      readonly outcome: "unstable-loop";
-      readonly reason: string;
-      /** "diverges": a real eigenvalue above zero (R·P/V² ≥ 1); "oscillation-grows": negative damping. */
-      readonly mode: "diverges" | "oscillation-grows";
-      /** ζ of the linearised loop (negative: negative damping; 0 where it diverges without oscillation). */
-      readonly dampingRatio: number;
-      /** Growth rate of the fastest-growing natural mode, 1/s. */
-      readonly growthPerS: number;
-      /** The constant-power load's incremental resistance at the pre-event output, −V²/P, ohm. */
-      readonly loadIncrementalResistanceOhm: number;
-    };
+export type { ClampPhase, TurnOffCommon, TurnOffModel, TurnOffOutcome, WindowState } from "./turn-off-event-types.js";
 
 /**
  * Reverse-current event at an input that falls at t = 0, on the closed-form R-L-C response
