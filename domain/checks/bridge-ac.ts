@@ -1,24 +1,17 @@
 import { cToK, kToC } from "../physics/constants.js";
-import type { AcSourceAndFilter, Snapshot } from "../solve/ac-bridge-circuit.js";
+import type { Snapshot } from "../solve/ac-bridge-circuit.js";
 import { integratePeriod, type PeriodIntegrals, type PeriodOptions } from "../solve/ac-bridge-period.js";
 import { fmt } from "../solve/electrical-point.js";
 import { SEARCH_ABOVE_LIMIT_K } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
 import { mirrorState, wholeFromHalf, wholeTraceFromHalf } from "../solve/ac-bridge-half-wave.js";
 import { newtonPredictor, type PeriodMap, shootPeriodic } from "../solve/periodic-shooting.js";
-import {
-  type AcCircuitMetrics,
-  type AcElementMetrics,
-  SLOT,
-  circuitMetrics,
-  elementMetrics,
-} from "./bridge-ac-metrics.js";
-import { type AcPeriodWaveform, acPeriodWaveform } from "./bridge-ac-waveform.js";
+import { SLOT, circuitMetrics, elementMetrics } from "./bridge-ac-metrics.js";
+import { acPeriodWaveform } from "./bridge-ac-waveform.js";
 import { validateAcModel } from "./bridge-ac-validate.js";
 import { buildCircuit } from "./bridge-ac-laws.js";
 import {
   BRIDGE_POSITIONS,
-  type BridgeElements,
   type BridgePosition,
   elementLaw,
   elementReverseRatingV,
@@ -26,61 +19,22 @@ import {
   elementTjMaxC,
 } from "./bridge-element.js";
 
-export interface BridgeAcModel extends AcSourceAndFilter {
-  readonly elements: BridgeElements;
-  readonly ambientC: number;
-}
+import type {
+  AcElementResult,
+  AcSteadyState,
+  BridgeAcModel,
+  BridgeAcOptions,
+  BridgeAcOutcome,
+} from "./bridge-ac-types.js";
+import { halfWaveSymmetric, partKeys } from "./bridge-ac-part-keys.js";
 
-export interface AcElementResult extends AcElementMetrics {
-  readonly position: BridgePosition;
-  readonly mode: "junction" | "body-diode" | "channel";
-  readonly tjC: number;
-  readonly tjMaxC: number;
-  readonly reverseRatingV: number;
-}
-
-export interface AcSteadyState extends AcCircuitMetrics {
-  readonly elements: readonly AcElementResult[];
-  readonly totalElementLossW: number;
-  /**
-   * Work done: shooting iterations of the last isothermal solve; periods integrated in all
-   * (a half-period map of a symmetric bridge counts ½, the predictor's coarse map included);
-   * integrator steps over the converged period (the half period's twice, on the half map).
-   */
-  readonly solver: {
-    readonly shootingIterations: number;
-    readonly periodsIntegrated: number;
-    readonly stepsLastPeriod: number;
-    readonly thermalIterations: number;
-  };
-  /** One period of the steady state, when asked for (`waveformPoints`). */
-  readonly waveform?: AcPeriodWaveform;
-}
-
-export interface BridgeAcOptions {
-  /** Return one period as samples: this many evenly spaced times (bridge-ac-waveform.ts). */
-  readonly waveformPoints?: number;
-}
-
-export type BridgeAcOutcome =
-  | { readonly outcome: "solved"; readonly steadyState: AcSteadyState }
-  | {
-      readonly outcome: "over-temperature" | "load-undervoltage";
-      readonly steadyState: AcSteadyState;
-      readonly reason: string;
-    }
-  | {
-      readonly outcome: "thermal-runaway";
-      readonly position: BridgePosition;
-      readonly reason: string;
-      readonly searchedToC: number;
-      readonly lossAtSearchEndW: number;
-    }
-  | {
-      readonly outcome: "load-collapse" | "no-periodic-steady-state" | "no-thermal-convergence";
-      readonly reason: string;
-    }
-  | { readonly outcome: "invalid-input"; readonly path: string; readonly reason: string };
+export type {
+  AcElementResult,
+  AcSteadyState,
+  BridgeAcModel,
+  BridgeAcOptions,
+  BridgeAcOutcome,
+} from "./bridge-ac-types.js";
 
 /**
  * Relative tolerance of the integrator's local error and of the shooting residual (7e-6: with
@@ -226,39 +180,6 @@ export function solveBridgeAcAt(
     periods: (shot.periods + (warm === undefined ? 1 : 0)) / spans,
     steps: spans * last.steps,
   };
-}
-
-/**
- * Whether the bridge is half-wave symmetric: the first element of each pair is the same part at
- * the same temperature, and so is the second (line1High ~ line2High, line2Low ~ line1Low).
- * Structural equality of the element records; anything else takes the whole period.
- */
-function halfWaveSymmetric(parts: Readonly<Record<BridgePosition, string>>): boolean {
-  return parts.line1High === parts.line2High && parts.line2Low === parts.line1Low;
-}
-
-/** A key per position: equal keys are the same element record (structurally) at the same junction temperature. */
-function partKeys(
-  m: BridgeAcModel,
-  tjK: Readonly<Record<BridgePosition, number>>,
-): Readonly<Record<BridgePosition, string>> {
-  const key = (p: BridgePosition) => `${tjK[p]}|${recordKey(m.elements[p])}`;
-  return {
-    line1High: key("line1High"),
-    line2High: key("line2High"),
-    line1Low: key("line1Low"),
-    line2Low: key("line2Low"),
-  };
-}
-
-/** The element records are read-only: their serialisation is kept per record (the electrothermal loop asks again and again). */
-const RECORD_KEYS = new WeakMap<object, string>();
-function recordKey(e: BridgeElements[BridgePosition]): string {
-  const hit = RECORD_KEYS.get(e);
-  if (hit !== undefined) return hit;
-  const k = JSON.stringify(e);
-  RECORD_KEYS.set(e, k);
-  return k;
 }
 
 /**
