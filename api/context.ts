@@ -8,10 +8,21 @@ export interface CatalogPart {
   readonly stage: StageSpec;
 }
 
+/**
+ * What identifies the catalog data a result used: the catalog's name, the sha256 of its parts'
+ * canonical JSON (sorted by id, `sha256:` prefixed) and how many parts it holds.
+ */
+export interface CatalogStamp {
+  readonly id: string;
+  readonly hash: string;
+  readonly partCount: number;
+}
+
 /** Port: where parts come from (a file in the demo; a PLM export in production). */
 export interface PartsCatalog {
   find(id: string): CatalogPart | undefined;
   list(): readonly CatalogPart[];
+  readonly stamp: CatalogStamp;
 }
 
 /** What an adapter learns of each procedure call (for metrics); `outcome` is the result's or the error code. */

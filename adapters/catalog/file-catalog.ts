@@ -1,7 +1,9 @@
+import { createHash } from "node:crypto";
 import { readFileSync } from "node:fs";
 import type { CatalogPart, PartsCatalog } from "../../api/context.js";
 import { catalogFile } from "../../contracts/catalog.js";
 import { issuesOf, pathText } from "../../contracts/zod-messages.js";
+import { canonicalJson } from "../../domain/rules/rule-set-hash.js";
 
 export class CatalogLoadError extends Error {
   override name = "CatalogLoadError";
@@ -22,14 +24,18 @@ export function loadCatalogFile(path: string): PartsCatalog {
       `parts catalog ${path} is invalid at ${first ? pathText(first.path) : "?"}: ${first?.message ?? ""}`,
     );
   }
-  return catalogOf(parsed.data.parts);
+  return catalogOf(parsed.data.catalog, parsed.data.parts);
 }
 
-export function catalogOf(parts: readonly CatalogPart[]): PartsCatalog {
+/** A catalog of these parts, stamped with its name, the hash of its parts (sorted by id) and their count. */
+export function catalogOf(name: string, parts: readonly CatalogPart[]): PartsCatalog {
   const byId = new Map<string, CatalogPart>();
   for (const p of parts) {
     if (byId.has(p.id)) throw new CatalogLoadError(`parts catalog: duplicate id "${p.id}"`);
     byId.set(p.id, p);
   }
-  return { find: (id) => byId.get(id), list: () => [...byId.values()] };
+  const sorted = [...byId.values()].sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+  const hash = `sha256:${createHash("sha256").update(canonicalJson(sorted)).digest("hex")}`;
+  const stamp = { id: name, hash, partCount: sorted.length };
+  return { find: (id) => byId.get(id), list: () => [...byId.values()], stamp };
 }

@@ -92,6 +92,7 @@ describe("/v1 plain JSON", () => {
           throw new Error("secret detail at /srv/x.ts:12");
         },
         list: () => [],
+        stamp: { id: "broken", hash: "sha256:0", partCount: 0 },
       },
     };
     const { app: b, logs } = app({}, broken);

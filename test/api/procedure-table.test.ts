@@ -121,6 +121,7 @@ describe("the procedure table", () => {
           throw new Error("disk on fire");
         },
         list: () => [],
+        stamp: { id: "broken", hash: "sha256:0", partCount: 0 },
       },
     })("operatingPoint");
     const seen = await answer(() => broken?.now(base.find((c) => c.procedure === "operatingPoint")?.input));
