@@ -1,6 +1,7 @@
 import { batteryCharge } from "./procedures/battery-charge.js";
 import { bridgeAc } from "./procedures/bridge-ac.js";
 import { bridgeDc } from "./procedures/bridge-dc.js";
+import { catalog } from "./procedures/catalog.js";
 import { fit } from "./procedures/fit.js";
 import { holdUp } from "./procedures/hold-up.js";
 import { operatingPoint } from "./procedures/operating-point.js";
@@ -27,6 +28,7 @@ export const PROCEDURE_TABLE = [
   bridgeAc,
   ...sizing,
   fit,
+  ...catalog,
 ] as const;
 
 /** A procedure of the table. */

@@ -2,7 +2,7 @@ import { nearestName } from "../../contracts/zod-messages.js";
 import type { StageInput, StageSpec } from "../../contracts/stage.js";
 import type { ThermalPath } from "../../domain/physics/thermal-path.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
-import type { PartsCatalog } from "../context.js";
+import type { CatalogPart, PartsCatalog } from "../context.js";
 import { inputProblem } from "../input-problem.js";
 import { toStageModel } from "./stage-model.js";
 
@@ -13,6 +13,21 @@ export interface ResolvedStage {
   readonly spec: StageSpec;
   readonly model: StageModel;
   readonly partId?: string;
+}
+
+/** The catalog's part of this id, or the `unknown-part` problem at `path`, with the nearest id ("did you mean"). */
+export function catalogPart(catalog: PartsCatalog, id: string, path: (string | number)[]): CatalogPart {
+  const part = catalog.find(id);
+  if (part !== undefined) return part;
+  const near = nearestName(
+    id,
+    catalog.list().map((p) => p.id),
+  );
+  throw inputProblem(
+    "unknown-part",
+    path,
+    `no part "${id}" in the parts catalog${near === undefined ? "" : `; did you mean "${near}"?`}`,
+  );
 }
 
 /**
@@ -27,18 +42,7 @@ export function resolveStage(
   thermalOverride?: ThermalPath,
 ): ResolvedStage {
   if (input.kind === "catalog-part") {
-    const part = catalog.find(input.partId);
-    if (part === undefined) {
-      const near = nearestName(
-        input.partId,
-        catalog.list().map((p) => p.id),
-      );
-      throw inputProblem(
-        "unknown-part",
-        [...path, "partId"],
-        `no part "${input.partId}" in the parts catalog${near === undefined ? "" : `; did you mean "${near}"?`}`,
-      );
-    }
+    const part = catalogPart(catalog, input.partId, [...path, "partId"]);
     if (thermalOverride === undefined && input.thermal === undefined) {
       // a catalog part with its own thermal path maps to the same model every time (the diode fit
       // included): map it once per path and replay the defaults it recorded

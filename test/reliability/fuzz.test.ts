@@ -31,6 +31,8 @@ const MUTATION_RUNS: Record<string, number> = {
   "sizing.spec": 5,
   "sizing.catalog": 5,
   fit: 60,
+  "catalog.list": 500,
+  "catalog.show": 500,
 };
 const RANDOM_RUNS = 200;
 let cases = 0;
