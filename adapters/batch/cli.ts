@@ -3,6 +3,7 @@ import { availableParallelism } from "node:os";
 import { parseArgs } from "node:util";
 import { procedureEntry } from "../../api/procedure-registry.js";
 import { loadCatalogFile } from "../catalog/file-catalog.js";
+import { CATALOG_USAGE, catalogCommand } from "../catalog/import-cli.js";
 import { type ComputePool, createComputePool } from "../compute/pool.js";
 import { DEMO_CATALOG } from "../project-root.js";
 import { writeStreamAtomic } from "../atomic-file.js";
@@ -20,6 +21,7 @@ const USAGE = `usage:
   backstop batch --in requests.jsonl|.csv --out results.jsonl|.csv [--procedure NAME] [--shard i/N | --shard N]
                  [--workers N] [--catalog parts.json] [--in-format jsonl|csv] [--out-format jsonl|csv] [--report-dir folder]
   backstop merge --out results.jsonl|.csv shard-0 shard-1 ...
+${CATALOG_USAGE}
   --shard N takes the index from JOB_COMPLETION_INDEX; "{shard}" in --out is replaced by the index.
   --report-dir writes each answered review and bridgeAc line as <id>.html, <id>.md and <id>-charts/*.svg.
   a CSV input needs a "procedure" column or --procedure; blank lines are skipped (counted apart, never a row).
@@ -194,17 +196,18 @@ function usage(): number {
   return 0;
 }
 
-/** `backstop batch` / `backstop merge`: exit 0 all rows ok, 1 some rows failed, 2 could not run. */
+/** `backstop batch` / `backstop merge` / `backstop catalog import`: exit 0 all rows ok, 1 some rows failed, 2 could not run. */
 export async function main(argv: string[]): Promise<number> {
   const [verb, ...rest] = argv;
   try {
     if (verb === "batch") return await batch(rest);
     if (verb === "merge") return await merge(rest);
+    if (verb === "catalog") return catalogCommand(rest, logLine);
     if (verb === "--help" || verb === "-h" || verb === "help") return usage();
     throw new UsageError(
       verb === undefined
-        ? "no command (backstop batch or backstop merge; backstop --help for usage)"
-        : `unknown command "${verb}" (backstop batch or backstop merge)`,
+        ? "no command (backstop batch, merge or catalog; backstop --help for usage)"
+        : `unknown command "${verb}" (backstop batch, merge or catalog)`,
     );
   } catch (e) {
     if (e instanceof UsageError || (e as { code?: string }).code?.startsWith("ERR_PARSE_ARGS"))

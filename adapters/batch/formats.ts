@@ -19,7 +19,15 @@ export const formatOf = (file: string, given: string | undefined): Format => {
  */
 export function cellValue(cell: string): { present: false } | { present: true; value: unknown } {
   if (cell === "") return { present: false };
-  if (/^[{["]/.test(cell)) return { present: true, value: JSON.parse(cell) as unknown };
+  if (/^[{["]/.test(cell)) {
+    try {
+      return { present: true, value: JSON.parse(cell) as unknown };
+    } catch (e) {
+      throw new Error(
+        `a cell starting with ${cell[0]} is read as JSON, and this is not (${(e as Error).message}): type valid JSON, or the value without the ${cell[0]}`,
+      );
+    }
+  }
   if (/^-?(0|[1-9]\d*)(\.\d+)?([eE][+-]?\d+)?$/.test(cell)) return { present: true, value: Number(cell) };
   if (cell === "true" || cell === "false") return { present: true, value: cell === "true" };
   return { present: true, value: cell };
@@ -28,7 +36,7 @@ export function cellValue(cell: string): { present: false } | { present: true; v
 const INDEX = /^(0|[1-9]\d{0,5})$/;
 
 /** A column name's path as an issue path (numeric segments as array indexes). */
-const columnPath = (dotted: string): (string | number)[] =>
+export const columnPath = (dotted: string): (string | number)[] =>
   dotted.split(".").map((p) => (INDEX.test(p) ? Number(p) : p));
 
 /** A column that cannot be set, with the path of the segment at fault. */
@@ -75,6 +83,42 @@ export function setPath(target: Record<string, unknown>, dotted: string, value: 
   });
 }
 
+/** A cell that cannot be set: its column (name and index in the header), the path at fault, why. */
+export interface CellProblem {
+  readonly column: string;
+  readonly index: number;
+  readonly path: (string | number)[];
+  readonly message: string;
+}
+
+/**
+ * The cells of one CSV row as the object their dotted column names make (cellValue, setPath),
+ * every cell that cannot be read or set listed (the others set); columns in `skip` are left out.
+ * The batch's CSV rows and the catalog's CSV import both read rows through it.
+ */
+export function cellsToObject(
+  header: readonly string[],
+  cells: readonly string[],
+  skip: ReadonlySet<string> = new Set(),
+): { value: Record<string, unknown>; problems: CellProblem[] } {
+  const value: Record<string, unknown> = {};
+  const problems: CellProblem[] = [];
+  for (let i = 0; i < header.length; i += 1) {
+    const name = header[i] as string;
+    if (skip.has(name)) continue;
+    try {
+      const v = cellValue(cells[i] ?? "");
+      if (v.present) setPath(value, name, v.value);
+    } catch (e) {
+      const message = (e as Error).message;
+      problems.push({ column: name, index: i, path: e instanceof ColumnError ? e.path : columnPath(name), message });
+    }
+  }
+  return { value, problems };
+}
+
+const BATCH_COLUMNS: ReadonlySet<string> = new Set(["id", "procedure"]);
+
 /** One CSV data row → a batch line `{ id, procedure, input }` as JSON text, or the error it gives. */
 export function csvRowToLine(
   header: readonly string[],
@@ -90,30 +134,19 @@ export function csvRowToLine(
       error: { code: "malformed-line", message: `expected ${header.length} cells, found ${cells.length}`, issues: [] },
     };
   }
-  const input: Record<string, unknown> = {};
-  let proc = procedure;
-  for (let i = 0; i < header.length; i += 1) {
-    const name = header[i] as string;
-    const cell = cells[i] as string;
-    if (name === "id") continue;
-    if (name === "procedure") {
-      if (cell !== "") proc = cell;
-      continue;
-    }
-    try {
-      const v = cellValue(cell);
-      if (v.present) setPath(input, name, v.value);
-    } catch (e) {
-      return {
-        id,
-        error: {
-          code: "malformed-line",
-          message: `column "${name}": ${(e as Error).message}`,
-          issues: [{ path: e instanceof ColumnError ? e.path : columnPath(name), message: (e as Error).message }],
-        },
-      };
-    }
-  }
+  const procAt = header.indexOf("procedure");
+  const proc = procAt >= 0 && cells[procAt] !== "" ? cells[procAt] : procedure;
+  const { value: input, problems } = cellsToObject(header, cells, BATCH_COLUMNS);
+  const first = problems[0];
+  if (first !== undefined)
+    return {
+      id,
+      error: {
+        code: "malformed-line",
+        message: `column "${first.column}": ${first.message}`,
+        issues: [{ path: first.path, message: first.message }],
+      },
+    };
   if (proc === undefined)
     return {
       id,
