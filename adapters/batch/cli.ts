@@ -2,9 +2,9 @@ import { createReadStream } from "node:fs";
 import { availableParallelism } from "node:os";
 import { parseArgs } from "node:util";
 import { procedureEntry } from "../../api/procedure-registry.js";
-import { loadCatalogFile } from "../catalog/file-catalog.js";
+import { loadCatalog } from "../catalog/catalog-source.js";
 import { CATALOG_USAGE, catalogCommand } from "../catalog/import-cli.js";
-import { type ComputePool, createComputePool } from "../compute/pool.js";
+import { type ComputePool, catalogData, createComputePool } from "../compute/pool.js";
 import { DEMO_CATALOG } from "../project-root.js";
 import { writeStreamAtomic } from "../atomic-file.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
@@ -19,7 +19,7 @@ import { CHUNKS_PER_THREAD, type RowHook, streamBatch } from "./engine.js";
 const USAGE = `usage:
   backstop --help | backstop batch --help | backstop merge --help
   backstop batch --in requests.jsonl|.csv --out results.jsonl|.csv [--procedure NAME] [--shard i/N | --shard N]
-                 [--workers N] [--catalog parts.json] [--in-format jsonl|csv] [--out-format jsonl|csv] [--report-dir folder]
+                 [--workers N] [--catalog parts.json|folder] [--in-format jsonl|csv] [--out-format jsonl|csv] [--report-dir folder]
   backstop merge --out results.jsonl|.csv shard-0 shard-1 ...
 ${CATALOG_USAGE}
   --shard N takes the index from JOB_COMPLETION_INDEX; "{shard}" in --out is replaced by the index.
@@ -99,7 +99,7 @@ async function batch(rest: string[]): Promise<number> {
   if (!Number.isInteger(workers) || workers < 0)
     throw new UsageError("--workers must be a whole number (0: no worker threads)");
   const catalogPath = values.catalog ?? process.env.BACKSTOP_CATALOG ?? DEMO_CATALOG();
-  const catalog = loadCatalogFile(catalogPath);
+  const catalog = loadCatalog(catalogPath);
   const rulesDir = process.env.BACKSTOP_RULES_DIR;
   const ruleSets = loadRuleSetStore(rulesDir);
   for (const r of ruleSets.refused())
@@ -115,7 +115,12 @@ async function batch(rest: string[]): Promise<number> {
   });
   const pool: ComputePool | undefined =
     workers > 0
-      ? createComputePool({ threads: workers, catalogPath, rulesDir, tasksPerThread: CHUNKS_PER_THREAD })
+      ? createComputePool({
+          threads: workers,
+          catalog: catalogData(catalog),
+          rulesDir,
+          tasksPerThread: CHUNKS_PER_THREAD,
+        })
       : undefined;
   const p = progress(Number(process.env.BACKSTOP_PROGRESS_MS ?? 5000));
   let counts: BatchCounts = { lines: 0, ok: 0, failed: 0, blank: 0 };

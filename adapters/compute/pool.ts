@@ -1,6 +1,7 @@
 import { existsSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { createRequire } from "node:module";
+import type { CatalogPart, PartsCatalog } from "../../api/context.js";
 import type { ChunkAnswer, ChunkTask } from "../batch/answer.js";
 import type { ItemJson, ItemResult } from "./call.js";
 import type { ReportAnswer, ReportTask } from "./report-call.js";
@@ -27,16 +28,33 @@ export interface ComputePool {
   close(): Promise<void>;
 }
 
+/**
+ * The catalog a compute thread answers with, as the main thread loaded it: its name and parts (the
+ * thread stamps them again with catalogOf, so the same stamp). Handed over, not read from the file
+ * again, so the threads and the main thread answer from the same data even if the file has changed.
+ */
+export interface CatalogData {
+  readonly id: string;
+  readonly parts: readonly CatalogPart[];
+}
+
+export const catalogData = (c: PartsCatalog): CatalogData => ({ id: c.stamp.id, parts: c.list() });
+
 /** Young-generation size of a compute thread, MB (see createComputePool). */
 export const COMPUTE_THREAD_YOUNG_GENERATION_MB = 32;
+
+/** A pool that can also be retired: closed once the tasks given to it so far have settled. */
+export interface RetirablePool extends ComputePool {
+  closeWhenIdle(): Promise<void>;
+}
 
 /** A pool of worker threads running the router; aborting a task terminates its thread (a hard stop). */
 export function createComputePool(opts: {
   threads: number;
-  catalogPath: string;
+  catalog: CatalogData;
   rulesDir?: string | undefined;
   tasksPerThread?: number;
-}): ComputePool | undefined {
+}): RetirablePool | undefined {
   const filename = workerFile();
   if (filename === undefined || opts.threads < 1) return undefined;
   // piscina loaded with the first pool (the HTTP server starts its pool after it listens)
@@ -53,27 +71,37 @@ export function createComputePool(opts: {
     // one (the next is then waiting in the thread, not in this thread's queue until it turns)
     concurrentTasksPerWorker: opts.tasksPerThread ?? 1,
     resourceLimits: { maxYoungGenerationSizeMb: COMPUTE_THREAD_YOUNG_GENERATION_MB },
-    workerData: { catalogPath: opts.catalogPath, rulesDir: opts.rulesDir },
+    workerData: { catalog: opts.catalog, rulesDir: opts.rulesDir },
   });
   let up: Promise<void> | undefined;
+  // tasks given and not yet settled, so that a retired pool closes after its last one (closeWhenIdle)
+  let active = 0;
+  let idle: (() => void) | undefined;
+  const run = <T>(task: unknown, o: Parameters<typeof pool.run>[1]): Promise<T> => {
+    active += 1;
+    return (pool.run(task, o) as Promise<T>).finally(() => {
+      active -= 1;
+      if (active === 0) idle?.();
+    });
+  };
   const options = (name: string, signal?: AbortSignal) => (signal === undefined ? { name } : { name, signal });
   return {
     threads: opts.threads,
-    call: (path, inputs, signal, bounded) =>
-      pool.run({ path, inputs, bounded }, options("call", signal)) as Promise<ItemResult[]>,
-    callJson: (path, inputs, signal) => pool.run({ path, inputs }, options("callJson", signal)) as Promise<ItemJson[]>,
-    report: (task, signal) => pool.run(task, options("report", signal)) as Promise<ReportAnswer>,
+    call: (path, inputs, signal, bounded) => run<ItemResult[]>({ path, inputs, bounded }, options("call", signal)),
+    callJson: (path, inputs, signal) => run<ItemJson[]>({ path, inputs }, options("callJson", signal)),
+    report: (task, signal) => run<ReportAnswer>(task, options("report", signal)),
     // the chunk's bytes are transferred, not copied: the caller hands over a buffer of its own
     batchChunk: (chunk, signal) =>
-      pool.run(chunk, {
-        ...options("batchChunk", signal),
-        transferList: [chunk.bytes.buffer as ArrayBuffer],
-      }) as Promise<ChunkAnswer>,
+      run<ChunkAnswer>(chunk, { ...options("batchChunk", signal), transferList: [chunk.bytes.buffer as ArrayBuffer] }),
     ready: () => {
-      up ??= pool.run(null, options("ping")).then(() => undefined);
+      up ??= run(null, options("ping")).then(() => undefined);
       return up;
     },
     close: () => pool.destroy(),
+    closeWhenIdle: async () => {
+      if (active > 0) await new Promise<void>((r) => (idle = r));
+      await pool.destroy();
+    },
   };
 }
 
@@ -83,16 +111,27 @@ export function createComputePool(opts: {
  * main thread takes to start), and on a small machine threads starting alongside the main thread
  * would double its start-up. A call that arrives before the threads are up waits in the pool's
  * queue, within its compute budget, like any call while the threads are busy.
+ *
+ * `useCatalog` (a catalog reload) starts a new set of threads with the new catalog while the old
+ * ones answer; once one of the new threads answers, calls go to the new threads (and `commit` is
+ * called, in the same turn), and the old ones finish the calls they were given, on the old
+ * catalog, and stop.
  */
 export function deferredComputePool(
   opts: Parameters<typeof createComputePool>[0],
-): (ComputePool & { start(): void }) | undefined {
+): (ComputePool & { start(): void; useCatalog(catalog: CatalogData, commit: () => void): Promise<void> }) | undefined {
   if (workerFile() === undefined || opts.threads < 1) return undefined;
-  let inner: ComputePool | undefined;
+  let current = opts;
+  let inner: RetirablePool | undefined;
   let closed = false;
+  const retiring = new Set<Promise<void>>();
+  const make = () => {
+    const p = createComputePool(current);
+    if (p === undefined) throw new Error("compute pool: the worker file is missing");
+    return p;
+  };
   const get = (): ComputePool => {
-    inner ??= createComputePool(opts);
-    if (inner === undefined) throw new Error("compute pool: the worker file is missing");
+    inner ??= make();
     return inner;
   };
   return {
@@ -105,9 +144,32 @@ export function deferredComputePool(
     report: (task, signal) => get().report(task, signal),
     batchChunk: (chunk, signal) => get().batchChunk(chunk, signal),
     ready: () => get().ready(),
+    useCatalog: async (catalog, commit) => {
+      current = { ...current, catalog };
+      if (inner === undefined || closed) {
+        commit(); // not started: its threads will start with this catalog
+        return;
+      }
+      const next = make();
+      try {
+        await next.ready();
+      } catch (e) {
+        await next.close();
+        throw e;
+      }
+      if (closed) {
+        await next.close();
+        return;
+      }
+      const old = inner;
+      inner = next;
+      commit();
+      const done = old.closeWhenIdle().finally(() => retiring.delete(done));
+      retiring.add(done);
+    },
     close: async () => {
       closed = true;
-      await inner?.close();
+      await Promise.all([inner?.close(), ...retiring]);
     },
   };
 }

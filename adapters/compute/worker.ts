@@ -3,8 +3,9 @@ import { workerData } from "node:worker_threads";
 import { procedureInvoker } from "../../api/procedure-registry.js";
 import { type Format, outputFormatter } from "../batch/formats.js";
 import { answerChunk, type ChunkAnswer, type ChunkTask } from "../batch/answer.js";
-import { loadCatalogFile } from "../catalog/file-catalog.js";
+import { catalogOf } from "../catalog/file-catalog.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
+import type { CatalogData } from "./pool.js";
 import { type ReportAnswer, type ReportTask, reportAnswer } from "./report-call.js";
 import { LIMITS } from "../../contracts/limits.js";
 import {
@@ -17,11 +18,15 @@ import {
 } from "./call.js";
 
 /**
- * A worker thread of the compute pool (piscina): the same router, in this thread, with its own
- * catalog. A task that runs past its deadline is stopped by terminating the thread.
+ * A worker thread of the compute pool (piscina): the same router, in this thread, with the catalog
+ * the main thread handed over (pool.ts, CatalogData). A task that runs past its deadline is
+ * stopped by terminating the thread.
  */
-const { catalogPath, rulesDir } = workerData as { catalogPath: string; rulesDir?: string | undefined };
-const invoker = procedureInvoker({ catalog: loadCatalogFile(catalogPath), ruleSets: loadRuleSetStore(rulesDir) });
+const { catalog, rulesDir } = workerData as { catalog: CatalogData; rulesDir?: string | undefined };
+const invoker = procedureInvoker({
+  catalog: catalogOf(catalog.id, catalog.parts),
+  ruleSets: loadRuleSetStore(rulesDir),
+});
 
 /** Answers once this thread has loaded the router (the pool's `ready`). */
 export function ping(): boolean {

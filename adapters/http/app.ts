@@ -7,6 +7,7 @@ import { httpStatusOf } from "../../api/procedure-registry.js";
 import { openApiText } from "../../api/openapi.js";
 import { appRouter } from "../../api/router.js";
 import { outcomeLabel } from "../compute/call.js";
+import type { ReloadReport } from "../catalog/live-catalog.js";
 import type { ComputePool } from "../compute/pool.js";
 import type { Logger } from "../logging/logger.js";
 import { apiKeyChecker, presentedKey } from "./auth.js";
@@ -28,6 +29,8 @@ export interface AppDeps {
   readonly pool?: ComputePool | undefined;
   /** false while draining: /readyz answers 503 */
   readonly isReady?: () => boolean;
+  /** the last parts catalog reload (the server's live catalog), shown in /readyz */
+  readonly catalogReload?: () => ReloadReport | undefined;
 }
 
 const PROTECTED = /^\/(trpc|v1)(\/|$)/;
@@ -40,6 +43,7 @@ export function createApp({
   metrics = createMetrics(),
   pool,
   isReady = () => true,
+  catalogReload,
 }: AppDeps): Hono<Env> {
   const app = new Hono<Env>();
   const checkKey = config.apiKeys ? apiKeyChecker(config.apiKeys) : undefined;
@@ -100,7 +104,12 @@ export function createApp({
 
   app.get("/livez", (c) => c.json({ status: "ok" }));
   app.get("/healthz", (c) => c.json({ status: "ok" }));
-  app.get("/readyz", (c) => (isReady() ? c.json({ status: "ready" }) : c.json({ status: "draining" }, 503)));
+  // the detail: the catalog in use and its last reload (a refused one keeps the old catalog and stays ready)
+  app.get("/readyz", (c) => {
+    const last = catalogReload?.();
+    const catalog = { ...ctx.catalog.stamp, ...(last === undefined ? {} : { lastReload: last }) };
+    return isReady() ? c.json({ status: "ready", catalog }) : c.json({ status: "draining", catalog }, 503);
+  });
   app.get("/metrics", async (c) => {
     let text: string;
     try {

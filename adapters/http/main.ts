@@ -4,9 +4,10 @@
 import { createServer } from "node:http";
 import { Server as NetServer } from "node:net";
 import { getRequestListener } from "@hono/node-server";
+import type { Context } from "../../api/context.js";
 import { cpuBudget } from "../cpu-budget.js";
-import { loadCatalogFile } from "../catalog/file-catalog.js";
-import { deferredComputePool } from "../compute/pool.js";
+import { type LiveCatalog, openLiveCatalog, type ReloadReport } from "../catalog/live-catalog.js";
+import { catalogData, deferredComputePool } from "../compute/pool.js";
 import { createLogger } from "../logging/logger.js";
 import { DEMO_CATALOG } from "../project-root.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
@@ -22,11 +23,32 @@ function fail(message: string): never {
 }
 
 let config: ReturnType<typeof httpConfigFromEnv>;
-let catalog: ReturnType<typeof loadCatalogFile>;
+let live: LiveCatalog;
 const catalogPath = process.env.BACKSTOP_CATALOG ?? DEMO_CATALOG();
+// the catalog's files are polled for changes every BACKSTOP_CATALOG_POLL_MS (0: only on SIGHUP)
+const catalogPollMs = Number(process.env.BACKSTOP_CATALOG_POLL_MS ?? 2000);
+const metrics = createMetrics({ catalog: () => live.current().stamp });
+/** A catalog reload in the logs and the metrics (and /readyz, from live.lastReload()). */
+function reported(r: ReloadReport): void {
+  metrics.catalogReloaded(r.outcome);
+  const fields = { trigger: r.trigger, catalog: r.stamp.id, hash: r.stamp.hash, parts: r.stamp.partCount };
+  if (r.outcome === "refused")
+    logger.error({ ...fields, problem: r.message }, "catalog reload refused; the catalog in use stays");
+  else if (r.outcome === "loaded") logger.info({ ...fields, previousHash: r.previous.hash }, "catalog reloaded");
+  else logger.info(fields, "catalog unchanged");
+}
 try {
   config = httpConfigFromEnv();
-  catalog = loadCatalogFile(catalogPath);
+  if (!Number.isInteger(catalogPollMs) || catalogPollMs < 0)
+    throw new Error(
+      `BACKSTOP_CATALOG_POLL_MS must be a whole number of milliseconds (0: off), got "${process.env.BACKSTOP_CATALOG_POLL_MS}"`,
+    );
+  // a new catalog goes to the compute threads first (new threads with it), then to this thread
+  live = await openLiveCatalog(
+    catalogPath,
+    (next, commit) => (pool === undefined ? Promise.resolve(commit()) : pool.useCatalog(catalogData(next), commit)),
+    reported,
+  );
 } catch (e) {
   fail((e as Error).message);
 }
@@ -42,7 +64,7 @@ const shutdownTimeoutMs = Number(process.env.BACKSTOP_SHUTDOWN_TIMEOUT_MS ?? 20_
 // once the server listens (see deferredComputePool). By default one per CPU of the budget, at most 4:
 // a bulk request is split over the threads.
 const threads = Number(process.env.BACKSTOP_WORKERS ?? Math.min(4, cpuBudget()));
-const pool = deferredComputePool({ threads, catalogPath, rulesDir });
+const pool = deferredComputePool({ threads, catalog: catalogData(live.current()), rulesDir });
 
 // the former multi-process mode's setting: one process a container now
 const processesSetting = process.env.BACKSTOP_HTTP_PROCESSES;
@@ -56,10 +78,16 @@ if (config.apiKeys === undefined)
   logger.warn("API-key auth is OFF: set BACKSTOP_API_KEYS or BACKSTOP_API_KEYS_FILE to require a key on /v1 and /trpc");
 
 let draining = false;
-const ctx = { catalog, ruleSets };
-const metrics = createMetrics();
+// a call reads the catalog once, when its context is made (tRPC) or its handler runs (/v1, reports,
+// in a turn), so a reload never changes the catalog under a call
+const ctx: Context = {
+  get catalog() {
+    return live.current();
+  },
+  ruleSets,
+};
 const isReady = () => !draining;
-const app = createApp({ ctx, logger, config, metrics, pool, isReady });
+const app = createApp({ ctx, logger, config, metrics, pool, isReady, catalogReload: () => live.lastReload() });
 
 // A slow or stalled client cannot hold a connection: headers and the whole request have deadlines
 // (node checks them every connectionsCheckingInterval, so that is kept well below the deadlines).
@@ -85,11 +113,12 @@ server.listen(port, process.env.HOST ?? "0.0.0.0", () => {
   // itself and waits for it.
   setTimeout(() => pool?.start(), 150).unref();
   setTimeout(() => logger.info({ ruleSets: ruleSets.list().map((s) => s.stamp.id) }, "rule sets ready"), 300).unref();
+  if (catalogPollMs > 0) live.watch(catalogPollMs);
   logger.info(
     {
       port: info.port,
       catalog: catalogPath,
-      parts: catalog.list().length,
+      parts: live.current().stamp.partCount,
       rulesRefused: ruleSets.refused().length,
       workers: pool?.threads ?? 0,
       auth: config.apiKeys !== undefined,
@@ -97,7 +126,7 @@ server.listen(port, process.env.HOST ?? "0.0.0.0", () => {
     "backstop listening",
   );
   const text =
-    `backstop listening on http://localhost:${info.port} with ${catalog.list().length} parts from ${catalogPath}\n` +
+    `backstop listening on http://localhost:${info.port} with ${live.current().stamp.partCount} parts from ${catalogPath}\n` +
     `  try: curl -s -X POST -H 'content-type: application/json' -d @examples/http/operatingPoint.body.json http://localhost:${info.port}/v1/operatingPoint\n`;
   // the start-up log lines (warnings among them) out before the line that says where to connect
   logger.flush(() => process.stdout.write(text));
@@ -137,3 +166,7 @@ function shutdown(signal: string): void {
 }
 process.on("SIGTERM", () => shutdown("SIGTERM"));
 process.on("SIGINT", () => shutdown("SIGINT"));
+// SIGHUP: load the parts catalog again (README, "Parts catalog"); a catalog that does not load is refused, the old one kept
+process.on("SIGHUP", () => {
+  if (!draining) void live.reload("SIGHUP");
+});
