@@ -101,11 +101,10 @@ export function importCatalogCsv(text: string, name: string): CsvImport {
       cell: shown(cells[index] as string),
       message,
     });
+    // a cell that cannot be read is left out of the part (and its column out of the contract's issues)
     const { value, problems: cellProblems } = cellsToObject(header, cells);
-    if (cellProblems.length > 0) {
-      for (const p of cellProblems) problems.push(at(p.index, p.message));
-      continue;
-    }
+    for (const p of cellProblems) problems.push(at(p.index, p.message));
+    const unread = new Set(cellProblems.map((p) => p.index));
     const id = value.id;
     if (typeof id === "string") {
       const first = rowOfId.get(id);
@@ -116,6 +115,7 @@ export function importCatalogCsv(text: string, name: string): CsvImport {
     if (!parsed.success) {
       for (const issue of issuesOf(parsed.error.issues)) {
         const index = columnOf(paths, issue.path);
+        if (unread.has(index)) continue;
         const dotted = issue.path.join(".");
         if (index < 0) problems.push({ row, column: dotted, message: `${issue.message} (add a column ${dotted})` });
         else
@@ -125,7 +125,7 @@ export function importCatalogCsv(text: string, name: string): CsvImport {
       }
       continue;
     }
-    parts.push(value);
+    if (cellProblems.length === 0) parts.push(value);
   }
   if (problems.length > 0) return { ok: false, problems, rows };
   return {

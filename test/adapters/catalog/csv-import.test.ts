@@ -124,6 +124,9 @@ describe("backstop catalog import --csv", () => {
   it("a missing field, an unknown column and a duplicate id are named with the row and what to add", async () => {
     const rows = csv.rows.slice(0, 3).map((r) => new Map(r));
     rows[1]?.set("id", rows[0]?.get("id") as string);
+    // two bad cells in one row: an unreadable one and one the contract refuses, both listed
+    rows[0]?.set("stage.tjMaxC", "[150");
+    rows[0]?.set("stage.reverseRatingV", "-5 V");
     const header = [...csv.header.filter((h) => h !== "description"), "stage.colour"];
     rows[2]?.set("stage.colour", "blue");
     const text = stringify([header, ...rows.map((r) => header.map((h) => r.get(h) ?? ""))]);
@@ -131,6 +134,11 @@ describe("backstop catalog import --csv", () => {
     expect(r.code).toBe(1);
     const all = r.lines.join("\n");
     expect(all).toContain('row 2, column "description": required (a string) (add a column description)');
+    expect(all).toMatch(
+      /row 2, column "stage.tjMaxC" \([A-Z]+\), cell "\[150": a cell starting with \[ is read as JSON/,
+    );
+    expect(all).toMatch(/row 2, column "stage.reverseRatingV" \([A-Z]+\), cell "-5 V": /);
+    expect(all).not.toMatch(/row 2, column "stage.tjMaxC".*required/);
     expect(all).toMatch(/row 4, column "stage.colour" \([A-Z]+\), cell "blue": unknown field `colour`/);
     expect(all).toMatch(/row 3, column "id" \(A\), cell "[^"]+": duplicate id "[^"]+": also row 2/);
   });
