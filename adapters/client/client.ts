@@ -7,7 +7,7 @@ export interface BackstopClientOptions {
   /** where the service listens, e.g. "http://localhost:8080" (the client calls `<url>/trpc`) */
   readonly url: string;
   /** an API key of the server's BACKSTOP_API_KEYS, sent as `Authorization: Bearer <key>` (absent: no header) */
-  readonly apiKey?: string;
+  readonly apiKey?: string | undefined;
   /** more request headers, e.g. an `x-request-id` to find the call in the server's log */
   readonly headers?: Readonly<Record<string, string>>;
 }
