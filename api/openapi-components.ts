@@ -120,7 +120,8 @@ export interface Components {
  * (contracts/schema-names.ts), referred to by `$ref` wherever it appears. A schema whose request
  * side differs from its answer side (a quantity is a number or a string with a unit in a request,
  * a number in an answer; a default makes a field optional in a request only) is two components:
- * the request's under its name, the answer's under `<Name>Result`; one that reads the same on both
+ * the request's under its name, the answer's under `<Name>Result` (`<Name>Answer` where that name is
+ * taken); one that reads the same on both
  * sides is one.
  */
 export function contractComponents(procedures: readonly ProcedureSchemas[], answers: readonly z.ZodType[]): Components {
@@ -163,9 +164,15 @@ export function contractComponents(procedures: readonly ProcedureSchemas[], answ
         grew = true;
       }
   }
-  const answerName = (id: string) => (split.has(id) ? `${id}Result` : id);
-  for (const id of split)
-    if (used.has(answerName(id))) throw new Error(`${answerName(id)} is both a schema's name and an answer's`);
+  // `<Name>Result`, or `<Name>Answer` where a contract already exports a `<name>Result`
+  const answerNames = new Map<string, string>();
+  for (const id of split) {
+    const name = [`${id}Result`, `${id}Answer`].find((n) => !used.has(n));
+    if (name === undefined) throw new Error(`${id}Result and ${id}Answer both name other schemas`);
+    answerNames.set(id, name);
+    used.add(name);
+  }
+  const answerName = (id: string) => answerNames.get(id) ?? id;
   const schemas: Json = {};
   for (const id of [...asked].sort()) schemas[id] = JSON.parse(input.get(id) ?? "{}");
   for (const id of [...answered].sort()) {

@@ -63,6 +63,23 @@ export const pascalName = (path: string): string =>
     .join("");
 
 /**
+ * Parts of exported schemas that several places use but their module does not export, with the
+ * name their component gets (reached through the shapes, so the compiler follows a change).
+ */
+const PARTS = (): readonly (readonly [z.ZodType, string])[] => {
+  const blocks = turnOff.turnOffEventOutput.options[0].shape;
+  return [
+    [bridge.bridgeDcOutput.shape.bridge, "DcBridge"],
+    [bridge.bridgeDcOutput.shape.bridge.shape.positive, "DcBridgePolarity"],
+    [bridge.acBridgeOutcome.options[0].shape.steadyState, "AcBridgeSteadyState"],
+    [blocks.energies, "TurnOffEnergies"],
+    [blocks.end, "TurnOffWindowState"],
+    [blocks.loop, "TurnOffLoop"],
+    [reviewOutput.monteCarloResult.shape.tjC.unwrap(), "MonteCarloDistribution"],
+  ];
+};
+
+/**
  * Every exported contract schema with its component name (the export's name in PascalCase, without
  * a trailing "Schema": `ruleSetSchema` → `RuleSet`), in a stable order (module, then export name).
  * A schema exported under two names keeps the first.
@@ -75,5 +92,6 @@ export function sharedSchemaNames(): ReadonlyMap<z.ZodType, string> {
       if (value instanceof z.ZodType && !names.has(value))
         names.set(value, pascalName(key).replace(/(.)Schema$/, "$1"));
     }
+  for (const [schema, name] of PARTS()) if (!names.has(schema)) names.set(schema, name);
   return names;
 }
