@@ -1,5 +1,5 @@
 import { execFile } from "node:child_process";
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { promisify } from "node:util";
 import { transformSync } from "esbuild";
@@ -50,7 +50,6 @@ export async function typecheck(dir: string): Promise<{ ok: boolean; output: str
 
 /** A consumer's .ts file run by node: types stripped by esbuild (no bundling), imports resolved by node. */
 export async function runTs(file: string, args: readonly string[]): Promise<string> {
-  const { readFileSync } = await import("node:fs");
   const js = transformSync(readFileSync(file, "utf8"), { loader: "ts", format: "esm", target: "node20" }).code;
   const out = file.replace(/\.ts$/, ".mjs");
   writeFileSync(out, js);
