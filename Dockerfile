@@ -4,6 +4,8 @@
 FROM node:22-slim AS build
 WORKDIR /app
 COPY package.json package-lock.json ./
+# a dev dependency of the tests (the OpenAPI type generator with its own TypeScript 5), installed from the tree
+COPY tools/openapi-types/package.json ./tools/openapi-types/
 RUN npm ci --no-audit --no-fund
 COPY . .
 RUN npm run build
@@ -11,6 +13,7 @@ RUN npm run build
 FROM node:22-slim AS deps
 WORKDIR /app
 COPY package.json package-lock.json ./
+COPY tools/openapi-types/package.json ./tools/openapi-types/
 RUN npm ci --omit=dev --no-audit --no-fund
 
 FROM node:22-slim

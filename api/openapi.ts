@@ -1,110 +1,89 @@
-import { z } from "zod";
 import { MODEL_VERSION } from "../domain/provenance.js";
 import { problem } from "../contracts/problem.js";
+import { pascalName } from "../contracts/schema-names.js";
+import { contractComponents } from "./openapi-components.js";
 import { procedureEntries } from "./procedure-registry.js";
 
 type Json = { [k: string]: unknown };
 
-const SCHEMA_MAPS = new Set(["properties", "patternProperties", "$defs", "definitions", "dependentSchemas"]);
-const SCHEMA_ONE = new Set([
-  "items",
-  "additionalProperties",
-  "not",
-  "if",
-  "then",
-  "else",
-  "contains",
-  "propertyNames",
-  "unevaluatedItems",
-  "unevaluatedProperties",
-]);
-const SCHEMA_LIST = new Set(["anyOf", "oneOf", "allOf", "prefixItems"]);
-const BOUND_KEYWORD = { gt: "exclusiveMinimum", ge: "minimum", lt: "exclusiveMaximum", le: "maximum" } as const;
-
-/**
- * Make zod's JSON Schema a clean OpenAPI 3.1 schema: the `unit` of a quantity becomes the extension
- * `x-unit`, and its bounds (gt/ge/lt/le in the field's unit) become the standard keywords on the
- * number branch. Works on a fresh copy; the zod schemas are never touched.
- */
-function tidy(node: unknown, defs: Json = {}): unknown {
-  if (Array.isArray(node)) return node.map((n) => tidy(n, defs));
-  if (typeof node !== "object" || node === null) return node;
-  let src = node as Json;
-  // a quantity whose number|string union was shared by reference: inline it, so its bounds land on the number branch
-  const target = typeof src.$ref === "string" ? defs[src.$ref.replace("#/$defs/", "")] : undefined;
-  if (typeof src.unit === "string" && target !== undefined) {
-    const { $ref: _drop, ...rest } = src;
-    src = { ...(target as Json), ...rest };
-  }
-  const out: Json = {};
-  for (const [k, v] of Object.entries(src)) {
-    if (k === "$schema") continue;
-    if (SCHEMA_MAPS.has(k) && typeof v === "object" && v !== null)
-      out[k] = Object.fromEntries(Object.entries(v as Json).map(([name, s]) => [name, tidy(s, defs)]));
-    else if (SCHEMA_ONE.has(k) || SCHEMA_LIST.has(k)) out[k] = tidy(v, defs);
-    else if (k === "unit" && typeof v === "string") out["x-unit"] = v;
-    else if (k in BOUND_KEYWORD && typeof v === "number") continue;
-    else out[k] = v;
-  }
-  const bounds = Object.entries(BOUND_KEYWORD).filter(([k]) => typeof src[k] === "number");
-  if (bounds.length > 0) {
-    const numberBranch = Array.isArray(out.anyOf)
-      ? (out.anyOf as Json[]).find((b) => b.type === "number")
-      : out.type === "number"
-        ? out
-        : undefined;
-    if (numberBranch) for (const [k, keyword] of bounds) numberBranch[keyword] = src[k];
-    else out["x-bounds"] = Object.fromEntries(bounds.map(([k]) => [k, src[k]]));
-  }
-  return out;
-}
-
-/** JSON Schema of one contract side; any `$defs` are hoisted into components under `prefix`. */
-function schemaOf(schema: z.ZodType, io: "input" | "output", prefix: string, components: Json): Json {
-  const raw = z.toJSONSchema(schema, { io, target: "draft-2020-12", unrepresentable: "any", reused: "ref" }) as Json;
-  let text = JSON.stringify(tidy(raw, (raw.$defs as Json | undefined) ?? {}));
-  const defs = (JSON.parse(text) as Json).$defs as Json | undefined;
-  if (defs) {
-    for (const name of Object.keys(defs))
-      text = text.replaceAll(`"#/$defs/${name}"`, `"#/components/schemas/${prefix}_${name}"`);
-    const fixed = JSON.parse(text) as Json;
-    for (const [name, s] of Object.entries(fixed.$defs as Json)) components[`${prefix}_${name}`] = s;
-    delete fixed.$defs;
-    return fixed;
-  }
-  return JSON.parse(text) as Json;
-}
-
-const pascal = (path: string) =>
-  path
-    .split(/[.\-_]/)
-    .map((p) => p.charAt(0).toUpperCase() + p.slice(1))
-    .join("");
 const ref = (name: string) => ({ $ref: `#/components/schemas/${name}` });
 const problemResponse = (description: string) => ({
   description,
   content: { "application/problem+json": { schema: ref("Problem") } },
 });
 
-const ERRORS = {
-  "400": problemResponse("invalid input (with the field paths) or malformed JSON"),
-  "401": problemResponse("missing or wrong API key (when auth is on)"),
-  "404": problemResponse("unknown procedure, part or route"),
-  "413": problemResponse("body or bulk array too large"),
-  "500": problemResponse("internal error (logged on the server; never a stack trace)"),
-  "503": problemResponse("compute budget exceeded, or the server is draining"),
-};
+/** The error answers every analysis route shares, once under components.responses. */
+const ERROR_RESPONSES = {
+  BadRequest: ["400", problemResponse("invalid input (with the field paths) or malformed JSON")],
+  Unauthorized: ["401", problemResponse("missing or wrong API key (when auth is on)")],
+  NotFound: ["404", problemResponse("unknown procedure, part or route")],
+  TooLarge: ["413", problemResponse("body or bulk array too large")],
+  OverLimit: [
+    "422",
+    problemResponse("over a limit (limit-exceeded, answer-too-large) or a report that could not be drawn"),
+  ],
+  Internal: ["500", problemResponse("internal error (logged on the server; never a stack trace)")],
+  Unavailable: ["503", problemResponse("compute budget exceeded, or the server is draining")],
+} as const;
+const ERRORS = Object.fromEntries(
+  Object.entries(ERROR_RESPONSES).map(([name, [status]]) => [status, { $ref: `#/components/responses/${name}` }]),
+);
 
-/** The OpenAPI 3.1 document of /v1, generated from the router and its zod contracts (deterministic). */
-export function openApiDocument(opts: { maxBulkItems?: number } = {}): Json {
-  const schemas: Json = {};
+/**
+ * The example of each procedure, by path: the input of its `examples/requests/<procedure>.json`
+ * (read by the adapter that serves or writes the document, adapters/openapi/request-examples.ts).
+ */
+export type RequestExamples = ReadonlyMap<string, unknown>;
+
+/** The media types of a report (`POST /v1/<procedure>/report`): the drawn page, Markdown, or the result. */
+const reportResponses = (procedure: string, output: string) => ({
+  "200": {
+    description: `the ${procedure} report`,
+    content: {
+      "text/html": { schema: { type: "string" } },
+      "text/markdown": { schema: { type: "string" } },
+      "application/json": { schema: ref(output) },
+    },
+  },
+  ...ERRORS,
+});
+
+const reportParameters = [
+  {
+    name: "format",
+    in: "query",
+    required: false,
+    schema: { enum: ["html", "markdown", "json"] },
+    description: "also a `format` field of the body, or Accept: text/html / text/markdown / application/json",
+  },
+  { name: "id", in: "query", required: false, schema: { type: "string" }, description: "names the report (title)" },
+];
+
+/**
+ * The OpenAPI 3.1 document of /v1, generated from the procedure table and its zod contracts
+ * (deterministic): every route the app serves but /trpc (test/contracts/openapi-routes.test.ts),
+ * named components (api/openapi-components.ts), one example a procedure.
+ */
+export function openApiDocument(opts: {
+  examples: RequestExamples;
+  reports: readonly string[];
+  maxBulkItems?: number;
+}): Json {
+  const entries = procedureEntries();
+  const components = contractComponents(entries, [problem]);
+  const problemName = components.answerOf(problem);
+  if (problemName !== "Problem") throw new Error(`the problem schema is named ${problemName}`);
   const paths: Json = {};
-  for (const e of procedureEntries()) {
-    const name = pascal(e.path);
-    schemas[`${name}Input`] = e.input ? schemaOf(e.input, "input", `${name}Input`, schemas) : {};
-    schemas[`${name}Output`] = e.output
-      ? schemaOf(e.output, "output", `${name}Output`, schemas)
-      : { description: "not declared in the contracts" };
+  const exampleComponents: Json = {};
+  for (const e of entries) {
+    const input = components.inputOf(e.path);
+    const output = components.outputOf(e.path);
+    const example = opts.examples.get(e.path);
+    if (example !== undefined) exampleComponents[`${pascalName(e.path)}Example`] = { value: example };
+    const examples =
+      example === undefined
+        ? {}
+        : { examples: { [e.path]: { $ref: `#/components/examples/${pascalName(e.path)}Example` } } };
     const summary = e.description ?? e.path;
     const tags = [e.path.includes(".") ? (e.path.split(".")[0] as string) : "analyses"];
     paths[`/v1/${e.path}`] = {
@@ -112,16 +91,17 @@ export function openApiDocument(opts: { maxBulkItems?: number } = {}): Json {
         operationId: e.path.replaceAll(".", "_"),
         summary,
         tags,
-        requestBody: { required: true, content: { "application/json": { schema: ref(`${name}Input`) } } },
+        requestBody: { required: true, content: { "application/json": { schema: ref(input), ...examples } } },
         responses: {
           "200": {
             description: "the result (an outcome is data, not an error)",
-            content: { "application/json": { schema: ref(`${name}Output`) } },
+            content: { "application/json": { schema: ref(output) } },
           },
           ...ERRORS,
         },
       },
     };
+    const bulkExamples = example === undefined ? {} : { examples: { [e.path]: { value: [example] } } };
     paths[`/v1/${e.path}/bulk`] = {
       post: {
         operationId: `${e.path.replaceAll(".", "_")}_bulk`,
@@ -131,7 +111,8 @@ export function openApiDocument(opts: { maxBulkItems?: number } = {}): Json {
           required: true,
           content: {
             "application/json": {
-              schema: { type: "array", maxItems: opts.maxBulkItems ?? 10_000, items: ref(`${name}Input`) },
+              schema: { type: "array", maxItems: opts.maxBulkItems ?? 10_000, items: ref(input) },
+              ...bulkExamples,
             },
           },
         },
@@ -151,7 +132,7 @@ export function openApiDocument(opts: { maxBulkItems?: number } = {}): Json {
                           {
                             type: "object",
                             required: ["ok", "result"],
-                            properties: { ok: { const: true }, result: ref(`${name}Output`) },
+                            properties: { ok: { const: true }, result: ref(output) },
                           },
                           {
                             type: "object",
@@ -172,55 +153,37 @@ export function openApiDocument(opts: { maxBulkItems?: number } = {}): Json {
         },
       },
     };
+    if (opts.reports.includes(e.path))
+      paths[`/v1/${e.path}/report`] = {
+        post: {
+          operationId: `${e.path.replaceAll(".", "_")}_report`,
+          summary: `${summary} — rendered as a report: self-contained HTML with inline SVG charts (default), Markdown, or the result`,
+          tags,
+          parameters: reportParameters,
+          requestBody: { required: true, content: { "application/json": { schema: ref(input), ...examples } } },
+          responses: reportResponses(e.path, output),
+        },
+      };
   }
-  schemas.Problem = schemaOf(problem, "output", "Problem", schemas);
   const text = (description: string, type = "text/plain") => ({
     description,
     content: { [type]: { schema: { type: "string" } } },
   });
   const probe = (summary: string, extra: Json = {}) => ({
     get: {
-      operationId: summary.split(" ")[0],
+      operationId: summary.split(":")[0],
       summary,
       tags: ["operations"],
       security: [],
       responses: { "200": text("ok", "application/json"), ...extra },
     },
   });
-  paths["/v1/review/report"] = {
-    post: {
-      operationId: "review_report",
-      summary:
-        "the design review rendered as a report: self-contained HTML with inline SVG charts (default), Markdown, or the review result",
-      tags: ["analyses"],
-      parameters: [
-        {
-          name: "format",
-          in: "query",
-          required: false,
-          schema: { enum: ["html", "markdown", "json"] },
-          description: "also a `format` field of the body, or Accept: text/html / text/markdown",
-        },
-        {
-          name: "id",
-          in: "query",
-          required: false,
-          schema: { type: "string" },
-          description: "names the report (title)",
-        },
-      ],
-      requestBody: { required: true, content: { "application/json": { schema: ref("ReviewInput") } } },
-      responses: {
-        "200": {
-          description: "the report",
-          content: {
-            "text/html": { schema: { type: "string" } },
-            "text/markdown": { schema: { type: "string" } },
-            "application/json": { schema: ref("ReviewOutput") },
-          },
-        },
-        ...ERRORS,
-      },
+  paths["/v1"] = {
+    get: {
+      operationId: "procedures",
+      summary: "procedures: every procedure with its /v1 and bulk URL",
+      tags: ["operations"],
+      responses: { "200": text("the list", "application/json"), ...ERRORS },
     },
   };
   paths["/livez"] = probe("livez: the process runs");
@@ -228,15 +191,17 @@ export function openApiDocument(opts: { maxBulkItems?: number } = {}): Json {
     "503": text("draining", "application/json"),
   });
   paths["/healthz"] = probe("healthz: alias of livez");
+  paths["/openapi.json"] = probe("openapi: this document");
   paths["/metrics"] = {
     get: {
       operationId: "metrics",
       summary: "Prometheus metrics",
       tags: ["operations"],
       security: [],
-      responses: { "200": text("text exposition format") },
+      responses: { "200": text("text exposition format"), "503": problemResponse("the metrics could not be gathered") },
     },
   };
+  const schemas = components.schemas;
   return {
     openapi: "3.1.0",
     info: {
@@ -257,6 +222,8 @@ export function openApiDocument(opts: { maxBulkItems?: number } = {}): Json {
     paths,
     components: {
       schemas,
+      responses: Object.fromEntries(Object.entries(ERROR_RESPONSES).map(([name, [, response]]) => [name, response])),
+      examples: exampleComponents,
       securitySchemes: {
         bearerAuth: {
           type: "http",
@@ -269,5 +236,5 @@ export function openApiDocument(opts: { maxBulkItems?: number } = {}): Json {
   };
 }
 
-/** The committed form: two-space JSON with a final newline. */
-export const openApiText = () => `${JSON.stringify(openApiDocument(), null, 2)}\n`;
+/** The committed form (contracts/openapi.json): two-space JSON with a final newline, for readable diffs. */
+export const committedText = (doc: Json): string => `${JSON.stringify(doc, null, 2)}\n`;

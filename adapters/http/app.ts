@@ -4,7 +4,6 @@ import { bodyLimit } from "hono/body-limit";
 import type { Context } from "../../api/context.js";
 import { errorBodyOf } from "../../api/error-body.js";
 import { httpStatusOf } from "../../api/procedure-registry.js";
-import { openApiText } from "../../api/openapi.js";
 import { appRouter } from "../../api/router.js";
 import { outcomeLabel } from "../compute/call.js";
 import type { ReloadReport } from "../catalog/live-catalog.js";
@@ -13,6 +12,7 @@ import type { Logger } from "../logging/logger.js";
 import { apiKeyChecker, presentedKey } from "./auth.js";
 import { DEFAULT_HTTP_CONFIG, type HttpConfig } from "./config.js";
 import { createMetrics, type Metrics, routeLabel } from "./metrics.js";
+import { servedOpenApiText } from "../openapi/document.js";
 import { INTERNAL_ERROR_MESSAGE, sendProblem } from "./problem.js";
 import { logRequest, requestIdOf } from "./request-line.js";
 import { mountBridgeAcReport } from "./bridge-report-route.js";
@@ -127,7 +127,7 @@ export function createApp({
   });
   let openapi: string | undefined;
   app.get("/openapi.json", (c) => {
-    openapi ??= openApiText();
+    openapi ??= servedOpenApiText();
     return c.body(openapi, 200, { "content-type": "application/json" });
   });
 

@@ -120,7 +120,8 @@ export const integratedSwitch: StageBehaviour<IntegratedSwitchStage> = {
             "part.switchReverseRatingV":
               "the switch states no reverse rating (reverseRatingV): its reverse blocking is unproven",
           }
-        : {},
+        : // typed, so the two branches stay one record type under a consumer's compiler settings too
+          ({} as Record<string, string>),
   }),
 };
 
