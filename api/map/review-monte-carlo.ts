@@ -26,8 +26,9 @@ export function reviewMonteCarlo(
   const fails = new Map<string, number>();
   const warns = new Map<string, number>();
   let unsolved = 0;
-  // Only the rules that read a sampled figure can change from sample to sample.
-  const sampled = new Set(["tjWorstC", "lossWorstW", "dropWorstV", "loadVMinV"]);
+  // Only the rules that read a sampled figure can change from sample to sample: the point's
+  // figures and the sample's start voltage (the start checks read it).
+  const sampled = new Set(["tjWorstC", "lossWorstW", "dropWorstV", "loadVMinV", "startVoltageV"]);
   const varying = set.rules.filter((r) => r.names.some((n) => sampled.has(n)));
   // One metrics record, its sampled figures overwritten per sample (read synchronously by the rules).
   const metrics: Record<string, number | boolean> = { ...base.metrics };
@@ -59,6 +60,7 @@ export function reviewMonteCarlo(
       metrics["lossWorstW"] = p.dieLossW;
       metrics["dropWorstV"] = p.forward.dropV;
       metrics["loadVMinV"] = p.loadV;
+      if (s.startVoltageV !== undefined) metrics["startVoltageV"] = s.startVoltageV;
       for (const rule of varying) {
         const v = evaluateRule(rule, input, set.stamp);
         if (v.outcome === "fail") fails.set(v.ruleId, (fails.get(v.ruleId) ?? 0) + 1);

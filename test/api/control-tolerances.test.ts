@@ -39,7 +39,7 @@ async function run(datasheetMax?: Record<string, unknown>, extra: Record<string,
   })) as {
     candidates: Candidate[];
     assumptions: string[];
-    monteCarlo?: { dropV?: { p5: number; p95: number } };
+    monteCarlo?: { dropV?: { p5: number; p95: number }; shareFailingByRule: Record<string, number> };
   };
   return out;
 }
@@ -103,6 +103,30 @@ describe("control-parameter tolerances in the review", () => {
     const d = out.monteCarlo?.dropV;
     expect(d?.p5).toBeLessThan(0.1);
     expect(d?.p95).toBeGreaterThan(0.3);
+  });
+});
+
+describe("the Monte Carlo's sampled start voltage reaches the start rule", () => {
+  it("a sample above the 8 V minimum supply fails start-at-min-supply: the share is P(s0 + U(−h, h) > 8 V)", async () => {
+    const samples = 1000;
+    const h = 7;
+    const out = await run(undefined, {
+      monteCarlo: {
+        samples,
+        seed: 3,
+        tolerances: [{ parameter: "startV", distribution: "uniform", halfWidth: h }],
+      },
+    });
+    // Uniform closed form: (3.2 + 7 − 8)/(2·7) = 0.157; within 3 binomial standard deviations.
+    const expected = (3.2 + h - 8) / (2 * h);
+    const share = out.monteCarlo?.shareFailingByRule["start-at-min-supply"] ?? 0;
+    const sd = Math.sqrt((expected * (1 - expected)) / samples);
+    expect(Math.abs(share - expected)).toBeLessThan(3 * sd);
+    // Without the tolerance no sample fails it (the typical 3.2 V starts at 8 V).
+    const none = await run(undefined, {
+      monteCarlo: { samples: 50, seed: 3, tolerances: [{ parameter: "rdsOn", distribution: "normal", sigma: 0.1 }] },
+    });
+    expect(none.monteCarlo?.shareFailingByRule["start-at-min-supply"]).toBeUndefined();
   });
 });
 
