@@ -141,6 +141,13 @@ const req48: Obj = {
   ambient: { minC: -5, maxC: 55 },
   transients: [],
 };
+/** The industrial 24 V class with its default transients (IEC 61000-4-5 ±1 kV line to line). */
+const req24Industrial: Obj = {
+  supply: { class: "industrial-24v" },
+  load: { kind: "constant-current", currentA: 2 },
+  ambient: { minC: -25, maxC: 60 },
+  inputClamp: { standoffV: 30, clampV: 48, peakCurrentA: 1000, energyJ: 100 },
+};
 const review = (requirement: Obj, stage: Obj): Obj => ({ requirement, candidates: [{ stage }] });
 /** A bidirectional TVS-like input clamp: stand-off above jump start, clamping below the parts' ratings. */
 const clamp = (o: Obj = {}): Obj => ({ standoffV: 26, clampV: 40, peakCurrentA: 100, energyJ: 100, ...o });
@@ -352,6 +359,18 @@ export const KNOWN_BAD: readonly KnownBad[] = [
       { ...req12, transients: ["iso7637-2-pulse-1-12v"], inputClamp: clamp({ clampV: 36 }) },
       schottky({ reverseRatingV: 60 }),
     ),
+  },
+  {
+    // IEC 61000-4-5 tests a DC power port with both polarities: the negative surge reverse-biases
+    // the series diode with the clamp's voltage plus the output its capacitance holds (closed form:
+    // the blocking element sees |Vclamp| + Vheld, transient-stress.ts).
+    id: "schottky-60v-under-negative-surge",
+    hazard: "transient",
+    why: "the −1 kV surge on an industrial 24 V input, clamped at 48 V, with the 24 V output held: 72 V across a 60 V Schottky",
+    procedure: "review",
+    rule: "diode-reverse-transient",
+    bad: review(req24Industrial, schottky({ reverseRatingV: 60 })),
+    twin: review(req24Industrial, schottky({ reverseRatingV: 100 })),
   },
   {
     id: "clamp-5j-under-load-dump-a",
