@@ -20,6 +20,7 @@ import { thermalSizing, type ThermalSizing } from "../checks/thermal-sizing.js";
 import type { TransientAllowance, TransientContext } from "../checks/transient-stress.js";
 import { type SweptTransientResult, sweptTransientStress } from "../checks/transient-sweep.js";
 import { totalRthKPerW } from "../physics/thermal-path.js";
+import type { StartChatter } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
 import { scaleLoad } from "../solve/load-scale.js";
 import { type StageScale, scaleStage, UNSCALED } from "../stages/scale-stage.js";
@@ -79,6 +80,10 @@ export interface CandidateReview {
     readonly atMinSupply: DriveAtInput;
     readonly atProfileMin?: DriveAtInput;
     readonly profiles: readonly { readonly ambientC: number; readonly result: ProfileResult }[];
+    /** A corner's supply lies in the chatter band at the start threshold (electrothermal-point.ts: StartChatter). */
+    readonly inChatterBand: boolean;
+    /** The first such corner, by index, with its two inputs. */
+    readonly chatter?: StartChatter & { readonly corner: number };
   };
   /** The start voltage the start checks used (the datasheet maximum where given), V; undefined for a stage without one. */
   readonly startVoltageV?: number;
@@ -196,6 +201,14 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
   const energy = req.mission
     ? missionEnergy(cand.stage, req.mission, req.supplyNominalV, req.sourceResistanceOhm, req.load, req.pricePerKWh)
     : undefined;
+  // The first corner whose supply lies in the chatter band at the start threshold: the control
+  // toggles between running and below start there (the point below start is the one solved).
+  const chatterCorner = corners.findIndex((c) => "point" in c.result && c.result.point.startChatter !== undefined);
+  const chatterAt = corners[chatterCorner]?.result;
+  const chatter =
+    chatterAt && "point" in chatterAt && chatterAt.point.startChatter
+      ? { inChatterBand: true, chatter: { corner: chatterCorner, ...chatterAt.point.startChatter } }
+      : { inChatterBand: false };
   return {
     corners,
     worst,
@@ -206,8 +219,9 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
             atMinSupply,
             atProfileMin: driveAtInput(startStage, Math.min(...req.startProfile.map((p) => p.voltageV))),
             profiles,
+            ...chatter,
           }
-        : { atMinSupply, profiles },
+        : { atMinSupply, profiles, ...chatter },
     ...(startVoltageV === undefined ? {} : { startVoltageV }),
     reverse,
     transients,

@@ -355,6 +355,15 @@ export const METRICS: readonly MetricDef[] = [
     providedBy: "review (mosfet.vdsTempCoPerK, default +0.1 %/K)",
   },
   {
+    name: "startChatter",
+    type: "boolean",
+    unit: "-",
+    meaning:
+      "the supply lies in the chatter band at the control's start threshold: running, the source drop pulls the stage input below the start voltage; below start, it is at or above it, so neither state holds (at any corner of the review)",
+    stageKinds: CONTROLLED,
+    providedBy: `review (its corners); ${OP} (its point)`,
+  },
+  {
     name: "avalancheEnergyAtTjJ",
     type: "number",
     unit: "J",
@@ -633,6 +642,7 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
   },
   avalancheEnergyAtTjJ: computed,
   vdsBreakdownColdV: computed,
+  startChatter: computed,
   turnOffRepetitive: requirement,
   holdUpS: computed,
   holdUpRequiredS: requirement,

@@ -33,6 +33,7 @@ export const REVIEW_COMPUTES = [
   "eventTjC",
   "avalancheEnergyAtTjJ",
   "vdsBreakdownColdV",
+  "startChatter",
 ] as const;
 
 export interface RequirementFlags {
@@ -86,6 +87,12 @@ export function reviewRuleInput(
   put("lossWorstW", r.worst.lossW?.value);
   put("dropWorstV", r.worst.dropV?.value);
   put("loadVMinV", r.worst.loadMinV?.value);
+  // A stage with a start voltage: whether a corner sits in its chatter band (a corner without a
+  // point cannot say, so the figure is unavailable with it).
+  if (r.startVoltageV !== undefined) {
+    if (why !== undefined) unavailable["startChatter"] = why;
+    else metrics["startChatter"] = r.startUp.inChatterBand;
+  }
   for (const p of r.startUp.profiles) {
     // A start-up profile lowers the load voltage and raises the junction: the worst of both counts.
     if (why === undefined && typeof metrics["loadVMinV"] === "number")

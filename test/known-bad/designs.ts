@@ -148,6 +148,17 @@ const req24Industrial: Obj = {
   ambient: { minC: -25, maxC: 60 },
   inputClamp: { standoffV: 30, clampV: 48, peakCurrentA: 1000, energyJ: 100 },
 };
+/** A MOSFET rated at 4.5 V of gate drive only (the controller's ~7 V pump drives it fully on a 5 V rail). */
+const logicLevel: Obj = { rdsOn: [{ gateSourceV: 4.5, rdsOnOhm: "4.5 mOhm" }] };
+/** A 5 V rail into 1 Ω behind a source resistance, for the start threshold's chatter band. */
+const chatterReq = (sourceResistanceOhm: number): Obj => ({
+  supply: { class: "custom", minV: 4.05, nominalV: 5, maxV: 5.5 },
+  sourceResistanceOhm,
+  load: { kind: "resistive", resistanceOhm: 1 },
+  ambient: { minC: 0, maxC: 50 },
+  reverse: { voltageV: 5.5, durationS: 60 },
+  transients: [],
+});
 const review = (requirement: Obj, stage: Obj): Obj => ({ requirement, candidates: [{ stage }] });
 /** A bidirectional TVS-like input clamp: stand-off above jump start, clamping below the parts' ratings. */
 const clamp = (o: Obj = {}): Obj => ({ standoffV: 26, clampV: 40, peakCurrentA: 100, energyJ: 100, ...o });
@@ -371,6 +382,19 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     rule: "diode-reverse-transient",
     bad: review(req24Industrial, schottky({ reverseRatingV: 60 })),
     twin: review(req24Industrial, schottky({ reverseRatingV: 100 })),
+  },
+  {
+    // A 5 V rail (4.05 V at its lowest) behind 0.3 Ω into 1 Ω, controller start 3.2 V. Running, the
+    // input is about 4.05/1.3 = 3.12 V, below start; on the body diode (~0.74 V) about
+    // (4.05 + 0.3·0.74)/1.3 = 3.29 V, above it: neither state holds (closed form of the divider).
+    // The twin's 50 mΩ source keeps the running input at about 4.05/1.05 = 3.86 V.
+    id: "ideal-diode-chatters-at-start",
+    hazard: "start-up",
+    why: "a 3.2 V-start ideal diode on a 4.05 V minimum behind 0.3 Ω: its own running current pulls the input below start, so it toggles",
+    procedure: "review",
+    rule: "start-no-chatter",
+    bad: review(chatterReq(0.3), idealDiode(logicLevel)),
+    twin: review(chatterReq(0.05), idealDiode(logicLevel)),
   },
   {
     id: "clamp-5j-under-load-dump-a",
