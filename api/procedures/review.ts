@@ -47,6 +47,11 @@ export const review = defineProcedure({
           `${path.join(".")}: mosfet.vdsTempCoPerK ${DEFAULT_VDS_TEMPCO_PER_K} /K (+0.1 %/K, memory): the breakdown at the coldest ambient ${req.model.ambientMinC} °C is vdsMaxV scaled by it`,
         );
       }
+      if (fet !== undefined && fet.channel.thresholdTempCoVPerK === undefined) {
+        assumptions.push(
+          `${path.join(".")}: mosfet.thresholdTempCoVPerK not given: the gate threshold is held at its 25 °C value at every corner (a power MOSFET's falls about 2–7 mV/K, memory; it is highest at the coldest ambient ${req.model.ambientMinC} °C): give it or thresholdAtTj`,
+        );
+      }
       const transientThermal = transientThermalOf(
         c.transientThermal,
         stage.model,

@@ -19,6 +19,9 @@ import { blocksReverseCurrent } from "../checks/stage-ratings.js";
 import { thermalSizing, type ThermalSizing } from "../checks/thermal-sizing.js";
 import type { TransientAllowance, TransientContext } from "../checks/transient-stress.js";
 import { type SweptTransientResult, sweptTransientStress } from "../checks/transient-sweep.js";
+import { stageMosfet } from "../checks/breakdown-temperature.js";
+import { ZERO_C_IN_K } from "../physics/constants.js";
+import { thresholdAtV } from "../physics/mosfet-channel.js";
 import { totalRthKPerW } from "../physics/thermal-path.js";
 import type { StartChatter } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
@@ -87,6 +90,11 @@ export interface CandidateReview {
   };
   /** The start voltage the start checks used (the datasheet maximum where given), V; undefined for a stage without one. */
   readonly startVoltageV?: number;
+  /**
+   * The MOSFET's gate threshold at the coldest ambient (the datasheet maximum where given, moved
+   * by its temperature coefficient; the die at ambient, as at a cold start), V; undefined without a MOSFET.
+   */
+  readonly gateThresholdColdV?: number;
   readonly reverse: ReverseSteadyResult;
   readonly transients: readonly SweptTransientResult[];
   readonly thermalSizing: ThermalSizing;
@@ -129,6 +137,8 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
       })
     : cand.stage;
   const startVoltageV = stageStartV(startStage);
+  const fet = stageMosfet(startStage);
+  const gateThresholdColdV = fet === undefined ? undefined : thresholdAtV(fet.channel, req.ambientMinC + ZERO_C_IN_K);
   const atMinSupply = driveAtInput(startStage, minPoint?.stageInputV ?? req.supplyMinV, minPoint?.forward.dropV ?? 0);
   const profiles = req.startProfile
     ? [req.ambientMinC, req.ambientMaxC].map((ambientC) => ({
@@ -223,6 +233,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
           }
         : { atMinSupply, profiles, ...chatter },
     ...(startVoltageV === undefined ? {} : { startVoltageV }),
+    ...(gateThresholdColdV === undefined ? {} : { gateThresholdColdV }),
     reverse,
     transients,
     thermalSizing: sizing,

@@ -34,6 +34,7 @@ export const REVIEW_COMPUTES = [
   "avalancheEnergyAtTjJ",
   "vdsBreakdownColdV",
   "startChatter",
+  "gateOverdriveColdV",
 ] as const;
 
 export interface RequirementFlags {
@@ -103,7 +104,12 @@ export function reviewRuleInput(
 
   const behaviour = behaviourOf(stage);
   if (behaviour.gateDriveMetric) {
-    if (r.startUp.atMinSupply.gateSourceV !== undefined) metrics["gateDriveMinV"] = r.startUp.atMinSupply.gateSourceV;
+    const drive = r.startUp.atMinSupply.gateSourceV;
+    if (drive !== undefined) {
+      metrics["gateDriveMinV"] = drive;
+      // The same drive against the threshold at the coldest ambient, where Vth is highest.
+      if (r.gateThresholdColdV !== undefined) metrics["gateOverdriveColdV"] = drive - r.gateThresholdColdV;
+    }
   }
   const gate = behaviour.gateSourceClampV(stage);
   if (gate !== undefined) {

@@ -160,6 +160,25 @@ const chatterReq = (sourceResistanceOhm: number): Obj => ({
   transients: [],
 });
 const review = (requirement: Obj, stage: Obj): Obj => ({ requirement, candidates: [{ stage }] });
+/** A 3.3 V rail (2.7–3.6 V) at −40 °C through a logic-level P-FET whose Vth falls 6 mV/K, with its datasheet-maximum Vth. */
+const coldRail = (thresholdMaxV: number): Obj => ({
+  requirement: {
+    supply: { class: "custom", minV: 2.7, nominalV: 3.3, maxV: 3.6 },
+    load: { kind: "constant-current", currentA: 1 },
+    ambient: { minC: -40, maxC: 85 },
+    reverse: { voltageV: 3.6, durationS: 60 },
+    transients: [],
+  },
+  candidates: [
+    {
+      stage: pfet(
+        { rdsOn: [{ gateSourceV: 2.5, rdsOnOhm: "40 mOhm" }], thresholdV: 1.5, thresholdTempCoVPerK: -0.006 },
+        { gateClampV: undefined },
+      ),
+      datasheetMax: { rdsOnFactor: 1.3, forwardVoltageFactor: 1.1, thresholdV: thresholdMaxV },
+    },
+  ],
+});
 /** A bidirectional TVS-like input clamp: stand-off above jump start, clamping below the parts' ratings. */
 const clamp = (o: Obj = {}): Obj => ({ standoffV: 26, clampV: 40, peakCurrentA: 100, energyJ: 100, ...o });
 const crank: Obj[] = [
@@ -395,6 +414,18 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     rule: "start-no-chatter",
     bad: review(chatterReq(0.3), idealDiode(logicLevel)),
     twin: review(chatterReq(0.05), idealDiode(logicLevel)),
+  },
+  {
+    // Vth(T) = Vth(max) + k·(T − 25 °C) (docs/references.md, MOSFETs): 2.4 V + 6 mV/K·65 K = 2.79 V at
+    // −40 °C, above the ~2.68 V a P-FET's gate gets at the 2.7 V bottom of a 3.3 V rail; the twin's
+    // 2.0 V maximum gives 2.39 V. At 25 °C both would pass (2.4 V < 2.68 V).
+    id: "pfet-below-threshold-when-cold",
+    hazard: "start-up",
+    why: "a logic-level P-FET on a 3.3 V rail whose 2.7 V minimum drives its gate above Vth(max) at 25 °C but not at −40 °C, where Vth is 0.39 V higher",
+    procedure: "review",
+    rule: "gate-overdrive-cold",
+    bad: coldRail(2.4),
+    twin: coldRail(2.0),
   },
   {
     id: "clamp-5j-under-load-dump-a",

@@ -99,6 +99,10 @@ const DEFAULT: Record<string, RuleCases> = {
     pass: p("nfet-ideal-diode", { startVoltageV: 2.5, supplyMinV: 6 }, {}, 6, 3.5),
     violate: v("fail", p("nfet-ideal-diode", { startVoltageV: 9, supplyMinV: 6 }, {}, 6, -3)),
   },
+  "gate-overdrive-cold": {
+    pass: p("pfet-high-side", { gateOverdriveColdV: 0.4 }, {}, 0, 0.4),
+    violate: v("fail", p("nfet-ideal-diode", { gateOverdriveColdV: -0.1 }, {}, 0, -0.1)),
+  },
   "start-no-chatter": {
     pass: p("nfet-ideal-diode", { startChatter: false }, {}),
     violate: v("fail", p("nfet-back-to-back", { startChatter: true }, {})),
