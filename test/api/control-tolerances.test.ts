@@ -190,3 +190,30 @@ describe("a PN diode without its reverse-recovery charge", () => {
     expect(schottky.some((a) => /Schottky/.test(a))).toBe(true);
   });
 });
+
+describe("the Monte Carlo's sampled gate threshold reaches the cold overdrive rule", () => {
+  it("a sample fails gate-overdrive-cold when Vth25 + draw + k·(Tmin − 25 °C) ≥ the drive: P(U(−h, h) ≥ d*)", async () => {
+    const { KNOWN_BAD } = await import("../known-bad/designs.js");
+    const d = KNOWN_BAD.find((x) => x.id === "pfet-below-threshold-when-cold");
+    if (d === undefined || review === undefined) throw new Error("design or review missing");
+    const samples = 1000;
+    const h = 1;
+    const out = (await review({
+      ...d.twin,
+      monteCarlo: {
+        samples,
+        seed: 5,
+        tolerances: [{ parameter: "thresholdV", distribution: "uniform", halfWidth: h }],
+      },
+    })) as {
+      candidates: { metrics: Record<string, number> }[];
+      monteCarlo: { shareFailingByRule: Record<string, number> };
+    };
+    // Typical Vth 1.5 V, −6 mV/K, −40 °C: 1.89 V cold; a draw above drive − 1.89 V fails (uniform closed form).
+    const drive = out.candidates[0]?.metrics["gateDriveMinV"] ?? 0;
+    const expected = (h - (drive - (1.5 + 0.006 * 65))) / (2 * h);
+    const share = out.monteCarlo.shareFailingByRule["gate-overdrive-cold"] ?? 0;
+    expect(expected).toBeGreaterThan(0.05);
+    expect(Math.abs(share - expected)).toBeLessThan(3 * Math.sqrt((expected * (1 - expected)) / samples));
+  });
+});
