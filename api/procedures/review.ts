@@ -10,7 +10,7 @@ import { type CandidateVerdict, rankCandidates } from "../../domain/review/ranki
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { formatQuantity } from "../../domain/rules/quantity-text.js";
 import type { RuleSetResult } from "../../domain/rules/rule-model.js";
-import { datasheetMaxScale, worstTurnOffTiming } from "../map/datasheet-max.js";
+import { datasheetMaxScale, thresholdMinShiftV, worstTurnOffTiming } from "../map/datasheet-max.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { controllerTiming } from "../map/reverse-inputs.js";
 import { turnOffEventFields } from "../map/turn-off-output.js";
@@ -76,6 +76,9 @@ export const review = defineProcedure({
         [...path.slice(0, 2), "datasheetMax"],
         assumptions,
       );
+      const turnOffThresholdShiftV = c.datasheetMax
+        ? thresholdMinShiftV(c.datasheetMax, stage.model, [...path.slice(0, 2), "datasheetMax"])
+        : 0;
       // Unless the requirement sets its own derating, the clamp window follows the rule set.
       const transientAllowanceV =
         input.requirement.deratingFactor === undefined ? transientAllowanceOf(set, stage.model, req.model) : undefined;
@@ -85,6 +88,7 @@ export const review = defineProcedure({
         ...(transientAllowanceV ? { transientAllowanceV } : {}),
         ...(datasheetMax ? { datasheetMax } : {}),
         ...(turnOffController ? { turnOffController } : {}),
+        ...(turnOffThresholdShiftV === 0 ? {} : { turnOffThresholdShiftV }),
         ...(input.curves ? { turnOffWaveform: true } : {}),
       });
       const ruleInput = reviewRuleInput(stage.model, req.model, flags, r);

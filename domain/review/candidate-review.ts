@@ -72,6 +72,8 @@ export interface ReviewCandidate {
   readonly transientThermal: TransientThermal;
   /** The controller's reverse turn-off timing, for stages that turn off on reverse current. */
   readonly turnOffController?: ControllerTurnOff;
+  /** The gate threshold's shift for the turn-off event (datasheet minimum − typical, V, ≤ 0); absent: typical. */
+  readonly turnOffThresholdShiftV?: number;
   /** Also sample the turn-off event (turn-off-waveform.ts), for charts. */
   readonly turnOffWaveform?: boolean;
 }
@@ -204,7 +206,9 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
           ambientMaxC: req.ambientMaxC,
           ...(req.loadMinV === undefined ? {} : { loadMinV: req.loadMinV }),
         },
-        cand,
+        cand.turnOffThresholdShiftV === undefined || cand.turnOffThresholdShiftV === 0
+          ? cand
+          : { ...cand, stage: scaleStage(cand.stage, { ...UNSCALED, thresholdShiftV: cand.turnOffThresholdShiftV }) },
         worst.tjC?.value,
       )
     : undefined;

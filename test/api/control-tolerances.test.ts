@@ -217,3 +217,49 @@ describe("the Monte Carlo's sampled gate threshold reaches the cold overdrive ru
     expect(Math.abs(share - expected)).toBeLessThan(3 * Math.sqrt((expected * (1 - expected)) / samples));
   });
 });
+
+describe("the datasheet-minimum gate threshold in the review's turn-off event", () => {
+  // A low-side N-FET's gate is held by the remaining input: it conducts backwards while that input
+  // is above Vth(Tj) (nfet-low-side.ts; the threshold's linear law, docs/references.md). The input
+  // steps to 1.5 V: above a 1.2 V minimum, below the 2 V typical at 25 °C.
+  const lowSide = (mosfet: Record<string, unknown> = {}) => ({
+    kind: "nfet-low-side",
+    mosfet: {
+      rdsOn: [{ gateSourceV: 4.5, rdsOnOhm: "10 mOhm" }],
+      thresholdV: 2,
+      vgsMaxV: 20,
+      vdsMaxV: 60,
+      tjMaxC: 175,
+      bodyDiode: { model: "shockley", saturationCurrentA: "8 nA", ideality: 1.4, seriesResistanceOhm: "10 mOhm" },
+      ...mosfet,
+    },
+    gateClampV: 15,
+    thermal: { kind: "junction-ambient", rthJaKPerW: 45 },
+  });
+  const event = async (stage: unknown, datasheetMax?: Record<string, unknown>, tjC = "25 degC") => {
+    if (review === undefined) throw new Error("no review");
+    const out = (await review({
+      requirement: { ...requirement, turnOff: { ...requirement.turnOff, inputAfterV: "1.5 V", tjC } },
+      candidates: [
+        {
+          stage,
+          ...(datasheetMax ? { datasheetMax: { rdsOnFactor: 1, forwardVoltageFactor: 1, ...datasheetMax } } : {}),
+        },
+      ],
+    })) as { candidates: Candidate[] };
+    return out.candidates[0]?.turnOff?.event["outcome"];
+  };
+  it("a typical 2 V threshold lets the gate fall; the 1.2 V minimum keeps the channel on backwards", async () => {
+    expect(await event(lowSide())).toBe("blocks");
+    expect(await event(lowSide(), { thresholdMinV: "1.2 V" })).toBe("does-not-block");
+  });
+  it("hot, the threshold's coefficient does the same: 2 V − 5 mV/K·90 K = 1.55 V at 115 °C (blocks), 1.45 V at 135 °C (does not)", async () => {
+    expect(await event(lowSide({ thresholdTempCoVPerK: -0.005 }), undefined, "115 degC")).toBe("blocks");
+    expect(await event(lowSide({ thresholdTempCoVPerK: -0.005 }), undefined, "135 degC")).toBe("does-not-block");
+  });
+  it("refuses a minimum above the typical value, naming the field", async () => {
+    await expect(event(lowSide(), { thresholdMinV: "2.5 V" })).rejects.toThrow(
+      /above the stage's typical MOSFET gate threshold 2 V/,
+    );
+  });
+});
