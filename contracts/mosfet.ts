@@ -61,7 +61,22 @@ export const mosfet = z
       .min(1)
       .meta({ description: "datasheet Rds(on) at 25 °C against gate drive, one point or more" }),
     rdsOnTemp: rdsTempLaw.optional(),
-    thresholdV: volts("gate threshold voltage (magnitude)"),
+    thresholdV: volts("gate threshold voltage (magnitude), at 25 °C"),
+    thresholdTempCoVPerK: z.number().min(-0.02).max(0).optional().meta({
+      description:
+        "temperature coefficient of the gate threshold, V/K (a datasheet's, typically −0.002 to −0.007: memory); Vth(Tj) = thresholdV + k·(Tj − 25 °C) in the forward law, the reverse paths and the review's cold gate overdrive (default: Vth held at its 25 °C value); or give thresholdAtTj",
+      unit: "V/K",
+    }),
+    thresholdAtTj: z
+      .strictObject({
+        thresholdV: volts("gate threshold voltage (magnitude) at that junction temperature"),
+        tjC: temperatureC("junction temperature of that figure (not 25 °C)"),
+      })
+      .optional()
+      .meta({
+        description:
+          "the threshold at a second junction temperature (a datasheet's Vth(Tj) curve): the coefficient is the line through it and thresholdV at 25 °C",
+      }),
     vgsMaxV: volts("absolute maximum gate-source voltage"),
     vdsMaxV: volts("drain-source voltage rating"),
     tjMaxC: temperatureC("maximum junction temperature"),
@@ -105,6 +120,27 @@ export const mosfet = z
     ).optional(),
   })
   .superRefine((m, ctx) => {
+    if (m.thresholdAtTj !== undefined && m.thresholdTempCoVPerK !== undefined)
+      ctx.addIssue({
+        code: "custom",
+        path: ["thresholdAtTj"],
+        message: "give either thresholdTempCoVPerK or thresholdAtTj, not both",
+      });
+    if (m.thresholdAtTj !== undefined && Math.abs(m.thresholdAtTj.tjC - 25) < 1)
+      ctx.addIssue({
+        code: "custom",
+        path: ["thresholdAtTj", "tjC"],
+        message: "must differ from 25 °C by 1 K or more (thresholdV is the 25 °C figure)",
+      });
+    else if (m.thresholdAtTj !== undefined) {
+      const k = (m.thresholdAtTj.thresholdV - m.thresholdV) / (m.thresholdAtTj.tjC - 25);
+      if (!(k >= -0.02 && k <= 0))
+        ctx.addIssue({
+          code: "custom",
+          path: ["thresholdAtTj", "thresholdV"],
+          message: `gives a threshold coefficient of ${(k * 1000).toPrecision(3)} mV/K: a power MOSFET's threshold falls with temperature, by at most 20 mV/K (give the figure at a higher Tj lower than thresholdV, or the reverse)`,
+        });
+    }
     m.rdsOn.forEach((p, i) => {
       if (p.gateSourceV <= m.thresholdV) {
         ctx.addIssue({

@@ -81,8 +81,23 @@ export const reviewStartUp = z
         }),
       )
       .readonly(),
+    inChatterBand: z.boolean().meta({
+      description:
+        "a corner's supply lies in the chatter band at the start threshold: running, the source drop pulls the stage input below the start voltage; below start, it is at or above it (the rule start-no-chatter reads it as startChatter)",
+    }),
+    chatter: z
+      .object({
+        corner: z.number().int().meta({ description: "index of the first such corner" }),
+        startV: z.number().meta({ description: "the control's start voltage", unit: "V" }),
+        runningInputV: z.number().meta({ description: "stage input with the control running", unit: "V" }),
+        belowStartInputV: z.number().meta({ description: "stage input with the control below start", unit: "V" }),
+      })
+      .optional(),
   })
-  .meta({ description: "drive at the lowest supply; the start-up profile samples per ambient" });
+  .meta({
+    description:
+      "drive at the lowest supply; the start-up profile samples per ambient; whether a corner sits in the start threshold's chatter band",
+  });
 
 const worstOf = z.object({ value: z.number(), corner: z.number().int() });
 

@@ -32,6 +32,11 @@ export const candidate = z.strictObject({
         "datasheet maximum gate threshold Vth(max) of the MOSFET, at 25 °C (the start checks and the datasheet-maximum corners use it)",
         { ge: 0, le: 100 },
       ).optional(),
+      thresholdMinV: quantity(
+        "V",
+        "datasheet minimum gate threshold Vth(min) of the MOSFET, at 25 °C (the review's turn-off event uses it: a lower threshold keeps a P-FET's or low-side N-FET's channel conducting backwards longer)",
+        { ge: 0, le: 100 },
+      ).optional(),
       reverseThresholdV: quantity(
         "V",
         "datasheet maximum reverse-current threshold of the controller (the review's turn-off event uses it)",

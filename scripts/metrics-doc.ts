@@ -76,6 +76,8 @@ const RULE_HAZARDS: Readonly<Record<string, string>> = {
   "clamp-peak-current": "input clamp",
   "clamp-peak-power": "input clamp",
   "start-at-min-supply": "start-up",
+  "start-no-chatter": "start-up",
+  "gate-overdrive-cold": "start-up",
   "start-margin": "start-up",
   "start-at-profile-minimum": "start-up",
   "start-profile-no-dropout": "start-up",

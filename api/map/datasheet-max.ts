@@ -9,6 +9,7 @@ export interface DatasheetMaxSpec {
   readonly forwardVoltageFactor: number;
   readonly startV?: number | undefined;
   readonly thresholdV?: number | undefined;
+  readonly thresholdMinV?: number | undefined;
   readonly reverseThresholdV?: number | undefined;
   readonly turnOffDelayS?: number | undefined;
 }
@@ -79,4 +80,27 @@ export function worstTurnOffTiming(
     `${path.join(".")}: the turn-off event at the datasheet maximum timing (reverse threshold ${reverseThresholdV} V, delay ${turnOffDelayS} s)`,
   );
   return { ...timing, reverseThresholdV, turnOffDelayS };
+}
+
+/**
+ * The datasheet-minimum gate threshold as a shift from the typical (min − typical, 0 or less), for
+ * the turn-off event: a lower Vth keeps a channel held by the remaining voltage on longer in
+ * reverse. Refused, naming the field, on a stage without a MOSFET or above the typical value.
+ */
+export function thresholdMinShiftV(dm: DatasheetMaxSpec, stage: StageModel, path: (string | number)[]): number {
+  if (dm.thresholdMinV === undefined) return 0;
+  const typical = mosfetThresholdV(stage);
+  if (typical === undefined)
+    throw inputProblem(
+      "invalid-input",
+      [...path, "thresholdMinV"],
+      `this ${stage.kind} stage has no MOSFET gate threshold: leave thresholdMinV out`,
+    );
+  if (dm.thresholdMinV > typical)
+    throw inputProblem(
+      "invalid-input",
+      [...path, "thresholdMinV"],
+      `the datasheet minimum ${dm.thresholdMinV} V is above the stage's typical MOSFET gate threshold ${typical} V: give the minimum (at or below ${typical} V)`,
+    );
+  return dm.thresholdMinV - typical;
 }

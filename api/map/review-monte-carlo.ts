@@ -1,6 +1,9 @@
 import type { z } from "zod";
 import type { monteCarloResult, monteCarloSpec } from "../../contracts/review.js";
+import { stageMosfet } from "../../domain/checks/breakdown-temperature.js";
 import { distributionOf, monteCarlo } from "../../domain/checks/monte-carlo.js";
+import { ZERO_C_IN_K } from "../../domain/physics/constants.js";
+import { thresholdAtV } from "../../domain/physics/mosfet-channel.js";
 import type { ReviewRequirement } from "../../domain/review/candidate-review.js";
 import type { CompiledRuleSet } from "../../domain/rules/compile-rule-set.js";
 import { evaluateRule } from "../../domain/rules/evaluate-rules.js";
@@ -10,7 +13,9 @@ import type { StageModel } from "../../domain/stages/stage-model.js";
 /**
  * Monte Carlo of one candidate at one condition (default: lowest supply, highest ambient, full
  * load): percentiles of junction temperature, loss, drop and load voltage, and the share of
- * samples each rule fails or warns on, with the sample's point standing in for the worst corner.
+ * samples each rule fails or warns on, with the sample's point standing in for the worst corner,
+ * its start voltage for the candidate's, and its gate threshold (with the part's coefficient, at
+ * the coldest ambient) in the cold gate overdrive.
  */
 export function reviewMonteCarlo(
   spec: z.output<typeof monteCarloSpec>,
@@ -26,12 +31,26 @@ export function reviewMonteCarlo(
   const fails = new Map<string, number>();
   const warns = new Map<string, number>();
   let unsolved = 0;
-  // Only the rules that read a sampled figure can change from sample to sample.
-  const sampled = new Set(["tjWorstC", "lossWorstW", "dropWorstV", "loadVMinV"]);
+  // Only the rules that read a sampled figure can change from sample to sample: the point's
+  // figures and the sample's start voltage (the start checks read it).
+  const sampled = new Set(["tjWorstC", "lossWorstW", "dropWorstV", "loadVMinV", "startVoltageV", "gateOverdriveColdV"]);
   const varying = set.rules.filter((r) => r.names.some((n) => sampled.has(n)));
   // One metrics record, its sampled figures overwritten per sample (read synchronously by the rules).
   const metrics: Record<string, number | boolean> = { ...base.metrics };
   const input = { ...base, metrics, unavailable: {} };
+  // The cold gate overdrive with the sample's threshold: the drive at the lowest supply (the
+  // candidate's) less the sampled Vth(25 °C) moved to the coldest ambient by the part's coefficient.
+  const fet = stageMosfet(stage);
+  const drive = base.metrics["gateDriveMinV"];
+  const overdriveOf =
+    fet !== undefined && typeof drive === "number" && typeof base.metrics["gateOverdriveColdV"] === "number"
+      ? (shiftV: number) =>
+          drive -
+          thresholdAtV(
+            { ...fet.channel, thresholdV: Math.max(0, fet.channel.thresholdV + shiftV) },
+            req.ambientMinC + ZERO_C_IN_K,
+          )
+      : undefined;
   const supplyV = spec.supplyV ?? req.supplyMinV;
   const ambientC = spec.ambientC ?? req.ambientMaxC;
   monteCarlo(
@@ -59,6 +78,8 @@ export function reviewMonteCarlo(
       metrics["lossWorstW"] = p.dieLossW;
       metrics["dropWorstV"] = p.forward.dropV;
       metrics["loadVMinV"] = p.loadV;
+      if (s.startVoltageV !== undefined) metrics["startVoltageV"] = s.startVoltageV;
+      if (overdriveOf !== undefined) metrics["gateOverdriveColdV"] = overdriveOf(s.draws.thresholdV);
       for (const rule of varying) {
         const v = evaluateRule(rule, input, set.stamp);
         if (v.outcome === "fail") fails.set(v.ruleId, (fails.get(v.ruleId) ?? 0) + 1);

@@ -5,7 +5,7 @@ import type { CompiledRuleSet } from "../../domain/rules/compile-rule-set.js";
 import type { SizingContext, TurnOffSizing } from "../../domain/sizing/assessment.js";
 import type { StageScale } from "../../domain/stages/scale-stage.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
-import { type DatasheetMaxSpec, datasheetMaxScale } from "./datasheet-max.js";
+import { type DatasheetMaxSpec, datasheetMaxScale, worstTurnOffTiming } from "./datasheet-max.js";
 import type { MappedRequirement } from "./requirement.js";
 import { reviewRuleInput } from "../../domain/rules/metrics-of-review.js";
 import { type TransientThermalInput, transientThermalOf } from "./transient-thermal.js";
@@ -27,7 +27,9 @@ export interface TurnOffRequest {
 /**
  * The sizing context of one template: the review of any trial part exactly as the review
  * procedure forms it (reviewCandidate + reviewRuleInput, mission energy left out: no rule reads
- * it), the rule set, and the turn-off event with the template's trip threshold.
+ * it), the rule set, and the turn-off event with the template's trip threshold. With a datasheet
+ * maximum, the event and the template's own delay are at the maximum timing (worstTurnOffTiming,
+ * as the review takes them): the candidate check compares the maximum delay with the limit.
  */
 export function sizingContext(
   r: Requirement,
@@ -63,7 +65,10 @@ export function sizingContext(
     });
     return { review, input: reviewRuleInput(s, req.model, flags, review) };
   };
-  const t = turnOff === undefined ? undefined : turnOffSizing(r, req, stage.spec, turnOff);
+  const t =
+    turnOff === undefined
+      ? undefined
+      : turnOffSizing(r, req, stage.spec, turnOff, cand.datasheetMax, [...path, "datasheetMax"], assumptions);
   return {
     requirement: req.model,
     ruleSet: set,
@@ -78,10 +83,22 @@ function turnOffSizing(
   req: MappedRequirement,
   spec: StageSpec,
   t: TurnOffRequest,
+  dm: DatasheetMaxSpec | undefined,
+  path: (string | number)[],
+  assumptions: string[],
 ): TurnOffSizing | string {
   const own = "controller" in spec ? spec.controller : undefined;
   const threshold = t.reverseThresholdV ?? own?.reverseThresholdV;
   if (threshold === undefined) return "the part states no reverse trip threshold: give turnOff.reverseThresholdV";
+  const typicalDelayS = own?.turnOffDelayS;
+  const worst = worstTurnOffTiming(
+    { reverseThresholdV: threshold, turnOffDelayS: typicalDelayS ?? 0 },
+    dm,
+    path,
+    assumptions,
+  );
+  const templateDelayS =
+    typicalDelayS === undefined && dm?.turnOffDelayS === undefined ? undefined : worst?.turnOffDelayS;
   return {
     loopResistanceOhm: t.loop.resistanceOhm,
     loopInductanceH: t.loop.inductanceH,
@@ -92,12 +109,12 @@ function turnOffSizing(
     loadMinV: req.model.loadMinV ?? 0,
     tjC: t.tjC ?? r.ambient.maxC,
     timing: {
-      reverseThresholdV: threshold,
-      turnOffDelayS: own?.turnOffDelayS ?? 0,
+      reverseThresholdV: worst?.reverseThresholdV ?? threshold,
+      turnOffDelayS: worst?.turnOffDelayS ?? 0,
       ...(t.gateChargeC === undefined ? {} : { gateChargeC: t.gateChargeC }),
       ...(t.gateSinkCurrentA === undefined ? {} : { gateSinkCurrentA: t.gateSinkCurrentA }),
     },
-    ...(own?.turnOffDelayS === undefined ? {} : { templateDelayS: own.turnOffDelayS }),
+    ...(templateDelayS === undefined ? {} : { templateDelayS }),
     ...(t.clampV === undefined ? {} : { clampV: t.clampV }),
     ...(t.peakReverseCurrentMaxA === undefined ? {} : { peakReverseCurrentMaxA: t.peakReverseCurrentMaxA }),
     ...(t.absorbedEnergyMaxJ === undefined ? {} : { absorbedEnergyMaxJ: t.absorbedEnergyMaxJ }),

@@ -129,11 +129,19 @@ function pairBlocksReverse(
   return blocks;
 }
 
+/** The threshold's temperature coefficient, V/K: given, or the line through thresholdAtTj and the 25 °C value; absent: none. */
+function thresholdTempCo(m: MosfetSpec): { thresholdTempCoVPerK?: number } {
+  if (m.thresholdTempCoVPerK !== undefined) return { thresholdTempCoVPerK: m.thresholdTempCoVPerK };
+  const at = m.thresholdAtTj;
+  return at === undefined ? {} : { thresholdTempCoVPerK: (at.thresholdV - m.thresholdV) / (at.tjC - 25) };
+}
+
 function toMosfet(m: MosfetSpec, path: (string | number)[], assumptions: string[]): MosfetModel {
   return {
     channel: {
       rdsOnPoints: [...m.rdsOn].sort((a, b) => a.gateSourceV - b.gateSourceV),
       thresholdV: m.thresholdV,
+      ...thresholdTempCo(m),
       tempLaw: toTempLaw(m.rdsOnTemp, [...path, "rdsOnTemp"], assumptions),
     },
     bodyDiode: toDiodeParams(m.bodyDiode, "pn", [...path, "bodyDiode"], assumptions),

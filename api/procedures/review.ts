@@ -10,7 +10,7 @@ import { type CandidateVerdict, rankCandidates } from "../../domain/review/ranki
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { formatQuantity } from "../../domain/rules/quantity-text.js";
 import type { RuleSetResult } from "../../domain/rules/rule-model.js";
-import { datasheetMaxScale, worstTurnOffTiming } from "../map/datasheet-max.js";
+import { datasheetMaxScale, thresholdMinShiftV, worstTurnOffTiming } from "../map/datasheet-max.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { controllerTiming } from "../map/reverse-inputs.js";
 import { turnOffEventFields } from "../map/turn-off-output.js";
@@ -47,6 +47,11 @@ export const review = defineProcedure({
           `${path.join(".")}: mosfet.vdsTempCoPerK ${DEFAULT_VDS_TEMPCO_PER_K} /K (+0.1 %/K, memory): the breakdown at the coldest ambient ${req.model.ambientMinC} °C is vdsMaxV scaled by it`,
         );
       }
+      if (fet !== undefined && fet.channel.thresholdTempCoVPerK === undefined) {
+        assumptions.push(
+          `${path.join(".")}: mosfet.thresholdTempCoVPerK not given: the gate threshold is held at its 25 °C value at every corner (a power MOSFET's falls about 2–7 mV/K, memory; it is highest at the coldest ambient ${req.model.ambientMinC} °C): give it or thresholdAtTj`,
+        );
+      }
       const transientThermal = transientThermalOf(
         c.transientThermal,
         stage.model,
@@ -71,6 +76,9 @@ export const review = defineProcedure({
         [...path.slice(0, 2), "datasheetMax"],
         assumptions,
       );
+      const turnOffThresholdShiftV = c.datasheetMax
+        ? thresholdMinShiftV(c.datasheetMax, stage.model, [...path.slice(0, 2), "datasheetMax"])
+        : 0;
       // Unless the requirement sets its own derating, the clamp window follows the rule set.
       const transientAllowanceV =
         input.requirement.deratingFactor === undefined ? transientAllowanceOf(set, stage.model, req.model) : undefined;
@@ -80,6 +88,7 @@ export const review = defineProcedure({
         ...(transientAllowanceV ? { transientAllowanceV } : {}),
         ...(datasheetMax ? { datasheetMax } : {}),
         ...(turnOffController ? { turnOffController } : {}),
+        ...(turnOffThresholdShiftV === 0 ? {} : { turnOffThresholdShiftV }),
         ...(input.curves ? { turnOffWaveform: true } : {}),
       });
       const ruleInput = reviewRuleInput(stage.model, req.model, flags, r);

@@ -83,6 +83,8 @@ export const sizing = [
           stage,
           { datasheetMax: input.datasheetMax },
           input.turnOff,
+          [],
+          assumptions,
         );
         return {
           ctx: sctx,
@@ -98,7 +100,8 @@ export const sizing = [
         caution: CAUTION,
         ruleSet: set.stamp,
         parts: matched.map((m) => ({ ...m, items: [...m.items] })),
-        assumptions,
+        // One sentence a part for a shared default would repeat: each once.
+        assumptions: [...new Set(assumptions)],
       };
     },
   }),

@@ -4,7 +4,7 @@ import type { LoadModel } from "../solve/load-model.js";
 import { scaleLoad } from "../solve/load-scale.js";
 import { createRng, type Rng } from "../solve/prng.js";
 import { scaleStage } from "../stages/scale-stage.js";
-import type { StageModel } from "../stages/stage-model.js";
+import { type StageModel, stageStartV } from "../stages/stage-model.js";
 
 export type McParameter =
   | "rdsOn"
@@ -38,6 +38,8 @@ export interface McInput {
 export interface McSample {
   readonly draws: Readonly<Record<McParameter, number>>;
   readonly result: OperatingPointOutcome;
+  /** The sample's start voltage (the stage's own plus its draw, at least 0), V; absent for a stage without one. */
+  readonly startVoltageV?: number;
 }
 
 export interface Distribution {
@@ -89,7 +91,8 @@ export function monteCarlo(m: McInput, visit: (s: McSample) => void): void {
       ambientC: m.ambientC + d.ambientC,
       rthKPerW: totalRthKPerW(stage.thermal),
     });
-    visit({ draws: d, result });
+    const startVoltageV = stageStartV(stage);
+    visit(startVoltageV === undefined ? { draws: d, result } : { draws: d, result, startVoltageV });
   }
 }
 

@@ -4,9 +4,20 @@ import { T25_K } from "./constants.js";
 export interface ChannelParams {
   /** Datasheet Rds(on) at 25 °C against Vgs, sorted by gateSourceV ascending, at least one. */
   readonly rdsOnPoints: readonly { readonly gateSourceV: number; readonly rdsOnOhm: number }[];
-  /** Gate threshold voltage, V (magnitude for a P-channel part). */
+  /** Gate threshold voltage at 25 °C, V (magnitude for a P-channel part). */
   readonly thresholdV: number;
+  /**
+   * Temperature coefficient of the threshold, V/K (a power MOSFET's falls about 2–7 mV/K: memory,
+   * docs/references.md); absent: the threshold is held at its 25 °C value.
+   */
+  readonly thresholdTempCoVPerK?: number;
   readonly tempLaw: RdsTempLaw;
+}
+
+/** The gate threshold at a junction temperature: Vth(T) = Vth(25 °C) + k·(T − 298.15 K), at least 0, V. */
+export function thresholdAtV(p: ChannelParams, tK: number): number {
+  const k = p.thresholdTempCoVPerK;
+  return k === undefined || k === 0 ? p.thresholdV : Math.max(0, p.thresholdV + k * (tK - T25_K));
 }
 
 /**
@@ -37,17 +48,20 @@ export function rdsTempFactor(law: RdsTempLaw, tK: number): number {
 }
 
 /**
- * Channel conductance at 25 °C against Vgs: piecewise linear through (Vth, 0) and the datasheet
- * points, flat above the highest point. Below the lowest point this is the square-law triode
- * scaling R ∝ 1/(Vgs − Vth) (textbook MOSFET triode region), which is why it is linear in G.
+ * Channel conductance at 25 °C mobility against Vgs: piecewise linear through (Vth, 0) and the
+ * datasheet points, flat above the highest point. Below the lowest point this is the square-law
+ * triode scaling R ∝ 1/(Vgs − Vth) (textbook MOSFET triode region), which is why it is linear in
+ * G. `thresholdV` is the threshold at the junction's temperature (thresholdAtV; default the 25 °C
+ * one): the zero node moves with Vth(T), the datasheet points stay (their temperature dependence
+ * is the Rds(on) law's, divided out by the caller).
  */
-export function channelConductance25S(p: ChannelParams, gateSourceV: number): number {
-  if (gateSourceV <= p.thresholdV) return 0;
+export function channelConductance25S(p: ChannelParams, gateSourceV: number, thresholdV = p.thresholdV): number {
+  if (gateSourceV <= thresholdV) return 0;
   // Walk the nodes (Vth, 0), then the points above threshold, without allocating (hot path).
-  let x0 = p.thresholdV;
+  let x0 = thresholdV;
   let g0 = 0;
   for (const pt of p.rdsOnPoints) {
-    if (pt.gateSourceV <= p.thresholdV) continue;
+    if (pt.gateSourceV <= thresholdV) continue;
     const g1 = 1 / pt.rdsOnOhm;
     if (gateSourceV <= pt.gateSourceV) {
       const span = pt.gateSourceV - x0;
@@ -61,7 +75,7 @@ export function channelConductance25S(p: ChannelParams, gateSourceV: number): nu
 
 /** Channel resistance at a gate drive and temperature; Infinity-free: undefined when off. */
 export function channelResistanceOhm(p: ChannelParams, gateSourceV: number, tK: number): number | undefined {
-  const g = channelConductance25S(p, gateSourceV);
+  const g = channelConductance25S(p, gateSourceV, thresholdAtV(p, tK));
   if (!(g > 0)) return undefined;
   return rdsTempFactor(p.tempLaw, tK) / g;
 }

@@ -19,7 +19,11 @@ import { blocksReverseCurrent } from "../checks/stage-ratings.js";
 import { thermalSizing, type ThermalSizing } from "../checks/thermal-sizing.js";
 import type { TransientAllowance, TransientContext } from "../checks/transient-stress.js";
 import { type SweptTransientResult, sweptTransientStress } from "../checks/transient-sweep.js";
+import { stageMosfet } from "../checks/breakdown-temperature.js";
+import { ZERO_C_IN_K } from "../physics/constants.js";
+import { thresholdAtV } from "../physics/mosfet-channel.js";
 import { totalRthKPerW } from "../physics/thermal-path.js";
+import type { StartChatter } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
 import { scaleLoad } from "../solve/load-scale.js";
 import { type StageScale, scaleStage, UNSCALED } from "../stages/scale-stage.js";
@@ -68,6 +72,8 @@ export interface ReviewCandidate {
   readonly transientThermal: TransientThermal;
   /** The controller's reverse turn-off timing, for stages that turn off on reverse current. */
   readonly turnOffController?: ControllerTurnOff;
+  /** The gate threshold's shift for the turn-off event (datasheet minimum − typical, V, ≤ 0); absent: typical. */
+  readonly turnOffThresholdShiftV?: number;
   /** Also sample the turn-off event (turn-off-waveform.ts), for charts. */
   readonly turnOffWaveform?: boolean;
 }
@@ -79,9 +85,18 @@ export interface CandidateReview {
     readonly atMinSupply: DriveAtInput;
     readonly atProfileMin?: DriveAtInput;
     readonly profiles: readonly { readonly ambientC: number; readonly result: ProfileResult }[];
+    /** A corner's supply lies in the chatter band at the start threshold (electrothermal-point.ts: StartChatter). */
+    readonly inChatterBand: boolean;
+    /** The first such corner, by index, with its two inputs. */
+    readonly chatter?: StartChatter & { readonly corner: number };
   };
   /** The start voltage the start checks used (the datasheet maximum where given), V; undefined for a stage without one. */
   readonly startVoltageV?: number;
+  /**
+   * The MOSFET's gate threshold at the coldest ambient (the datasheet maximum where given, moved
+   * by its temperature coefficient; the die at ambient, as at a cold start), V; undefined without a MOSFET.
+   */
+  readonly gateThresholdColdV?: number;
   readonly reverse: ReverseSteadyResult;
   readonly transients: readonly SweptTransientResult[];
   readonly thermalSizing: ThermalSizing;
@@ -124,6 +139,8 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
       })
     : cand.stage;
   const startVoltageV = stageStartV(startStage);
+  const fet = stageMosfet(startStage);
+  const gateThresholdColdV = fet === undefined ? undefined : thresholdAtV(fet.channel, req.ambientMinC + ZERO_C_IN_K);
   const atMinSupply = driveAtInput(startStage, minPoint?.stageInputV ?? req.supplyMinV, minPoint?.forward.dropV ?? 0);
   const profiles = req.startProfile
     ? [req.ambientMinC, req.ambientMaxC].map((ambientC) => ({
@@ -189,13 +206,23 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
           ambientMaxC: req.ambientMaxC,
           ...(req.loadMinV === undefined ? {} : { loadMinV: req.loadMinV }),
         },
-        cand,
+        cand.turnOffThresholdShiftV === undefined || cand.turnOffThresholdShiftV === 0
+          ? cand
+          : { ...cand, stage: scaleStage(cand.stage, { ...UNSCALED, thresholdShiftV: cand.turnOffThresholdShiftV }) },
         worst.tjC?.value,
       )
     : undefined;
   const energy = req.mission
     ? missionEnergy(cand.stage, req.mission, req.supplyNominalV, req.sourceResistanceOhm, req.load, req.pricePerKWh)
     : undefined;
+  // The first corner whose supply lies in the chatter band at the start threshold: the control
+  // toggles between running and below start there (the point below start is the one solved).
+  const chatterCorner = corners.findIndex((c) => "point" in c.result && c.result.point.startChatter !== undefined);
+  const chatterAt = corners[chatterCorner]?.result;
+  const chatter =
+    chatterAt && "point" in chatterAt && chatterAt.point.startChatter
+      ? { inChatterBand: true, chatter: { corner: chatterCorner, ...chatterAt.point.startChatter } }
+      : { inChatterBand: false };
   return {
     corners,
     worst,
@@ -206,9 +233,11 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
             atMinSupply,
             atProfileMin: driveAtInput(startStage, Math.min(...req.startProfile.map((p) => p.voltageV))),
             profiles,
+            ...chatter,
           }
-        : { atMinSupply, profiles },
+        : { atMinSupply, profiles, ...chatter },
     ...(startVoltageV === undefined ? {} : { startVoltageV }),
+    ...(gateThresholdColdV === undefined ? {} : { gateThresholdColdV }),
     reverse,
     transients,
     thermalSizing: sizing,

@@ -34,6 +34,11 @@ const jump24 =
 const longTerm12 = "long-term overvoltage 18 V for 60 min, ISO 16750-2 clause 4.3.1.1 (memory)";
 const longTerm24 = "long-term overvoltage 36 V for 60 min, ISO 16750-2 clause 4.3.1.1 (memory)";
 
+/** IEC 61000-4-5 on a DC power port: surges of both polarities (a negative one reverse-biases a series blocking element). */
+const surgeBothPolarities = ["iec61000-4-5-surge-1kv-line-line", "iec61000-4-5-surge-1kv-line-line-negative"];
+const surgeSource =
+  "surge IEC 61000-4-5 ±1 kV line to line: a DC power port takes five positive and five negative surges (clause 8.2 of the 2nd edition, docs/references.md [S, secondary]); the 1 kV level (memory)";
+
 const vehicle12 = (code: string, minV: number): SupplyClass => ({
   id: `vehicle-12v-${code.toLowerCase()}`,
   title: `12 V vehicle system, supply code ${code} (${minV}–16 V)`,
@@ -78,9 +83,8 @@ export const SUPPLY_CLASSES: readonly SupplyClass[] = [
     maxV: 28.8,
     reverseV: 28.8,
     reverseDurationS: 3600,
-    transients: ["iec61000-4-5-surge-1kv-line-line"],
-    source:
-      "IEC 61131-2 24 V DC steady range −15 %/+20 % of 24 V = 20.4–28.8 V (docs/references.md [S, secondary]); reverse: the full maximum reversed by miswiring (common practice); surge IEC 61000-4-5 1 kV line to line (memory)",
+    transients: surgeBothPolarities,
+    source: `IEC 61131-2 24 V DC steady range −15 %/+20 % of 24 V = 20.4–28.8 V (docs/references.md [S, secondary]); reverse: the full maximum reversed by miswiring (common practice); ${surgeSource}`,
   },
   {
     id: "telecom-48v",
@@ -91,9 +95,8 @@ export const SUPPLY_CLASSES: readonly SupplyClass[] = [
     reverseV: 60,
     reverseDurationS: 3600,
     abnormalMaxV: 60,
-    transients: ["iec61000-4-5-surge-1kv-line-line"],
-    source:
-      "ETSI EN 300 132-2 normal service range −40.5 to −57.0 V [S]; abnormal to −60 V (memory); nominal −54 V float (memory); reverse: feed wires swapped at the abnormal limit (common practice); surge IEC 61000-4-5 1 kV line to line (memory)",
+    transients: surgeBothPolarities,
+    source: `ETSI EN 300 132-2 normal service range −40.5 to −57.0 V [S]; abnormal to −60 V (memory); nominal −54 V float (memory); reverse: feed wires swapped at the abnormal limit (common practice); ${surgeSource}`,
   },
   ...[
     ["poe-pd-type-1", "Type 1", 37, 12.95],

@@ -57,7 +57,7 @@ function surge(levelKV: number, coupling: "line-line" | "line-earth", polarity: 
     riseS: 1.2e-6,
     decayS: 20e-6,
     decayConvention: "to-50-percent",
-    source: `IEC 61000-4-5 combination wave: 1.2/50 us open circuit, 8/20 us short circuit, effective impedance 2 ohm (12 ohm line to earth), levels 0.5/1/2/4 kV (memory); clamp current modelled as an instant rise and an exponential tail to half value at 20 us behind ${ohm} ohm, an upper bound of the 8/20 wave's charge (docs/references.md)`,
+    source: `IEC 61000-4-5 combination wave: 1.2/50 us open circuit, 8/20 us short circuit, effective impedance 2 ohm (12 ohm line to earth), levels 0.5/1/2/4 kV (memory); a DC power port takes five surges of each polarity (clause 8.2, docs/references.md [S, secondary]); clamp current modelled as an instant rise and an exponential tail to half value at 20 us behind ${ohm} ohm, an upper bound of the 8/20 wave's charge (docs/references.md)`,
   };
 }
 

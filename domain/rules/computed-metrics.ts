@@ -51,4 +51,5 @@ export const RESULT_FLAGS: Readonly<Record<string, { readonly metric: string } |
   },
   meetsRequirement: { metric: "holdUpS" },
   aboveTjMax: { metric: "reverseTjC" },
+  inChatterBand: { metric: "startChatter" },
 };

@@ -355,6 +355,24 @@ export const METRICS: readonly MetricDef[] = [
     providedBy: "review (mosfet.vdsTempCoPerK, default +0.1 %/K)",
   },
   {
+    name: "gateOverdriveColdV",
+    type: "number",
+    unit: "V",
+    meaning:
+      "gate drive at the lowest supply less the MOSFET's threshold at the coldest ambient (Vth(max) where the datasheet maximum is given, moved by mosfet.thresholdTempCoVPerK): at 0 or less the channel does not turn on",
+    stageKinds: FETS,
+    providedBy: "review (mosfet.thresholdTempCoVPerK or thresholdAtTj; none given: Vth held at 25 °C)",
+  },
+  {
+    name: "startChatter",
+    type: "boolean",
+    unit: "-",
+    meaning:
+      "the supply lies in the chatter band at the control's start threshold: running, the source drop pulls the stage input below the start voltage; below start, it is at or above it, so neither state holds (at any corner of the review)",
+    stageKinds: CONTROLLED,
+    providedBy: `review (its corners); ${OP} (its point)`,
+  },
+  {
     name: "avalancheEnergyAtTjJ",
     type: "number",
     unit: "J",
@@ -633,6 +651,8 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
   },
   avalancheEnergyAtTjJ: computed,
   vdsBreakdownColdV: computed,
+  startChatter: computed,
+  gateOverdriveColdV: computed,
   turnOffRepetitive: requirement,
   holdUpS: computed,
   holdUpRequiredS: requirement,

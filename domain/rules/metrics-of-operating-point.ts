@@ -3,17 +3,25 @@ import { blocksReverseCurrent } from "../checks/stage-ratings.js";
 import type { RuleInput } from "./rule-model.js";
 import type { OperatingPointOutcome } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
-import { type StageModel, stageQuiescentA, stageTjMaxC } from "../stages/stage-model.js";
+import { type StageModel, stageQuiescentA, stageStartV, stageTjMaxC } from "../stages/stage-model.js";
 import { otherAnalysesMetrics } from "./rule-input-draft.js";
 
 /** Metrics the operating point computes; a caller may not supply them alongside it. */
-export const OPERATING_POINT_METRICS = ["tjWorstC", "lossWorstW", "dropWorstV", "loadVMinV", "gateDriveMinV"] as const;
+export const OPERATING_POINT_METRICS = [
+  "tjWorstC",
+  "lossWorstW",
+  "dropWorstV",
+  "loadVMinV",
+  "gateDriveMinV",
+  "startChatter",
+] as const;
 
 /**
  * Map an operating point, its stage and its load to rule metrics. The point is taken as the worst
  * corner the caller chose (lowest supply, highest current and ambient): tjWorstC = Tj,
  * lossWorstW = heat in the die, dropWorstV = forward drop, loadVMinV = load voltage,
- * gateDriveMinV = gate-source drive at this supply. Without a point (runaway, collapse, stage
+ * gateDriveMinV = gate-source drive at this supply, startChatter = the point lies in the start
+ * threshold's chatter band (a stage with a start voltage). Without a point (runaway, collapse, stage
  * off) those names are marked unavailable with the outcome, so their rules are not applicable
  * and the set's outcome is at best "incomplete", never "pass".
  */
@@ -35,6 +43,8 @@ export function operatingPointRuleInput(
     if (p.forward.gateSourceV !== undefined && behaviourOf(stage).gateDriveMetric) {
       metrics["gateDriveMinV"] = p.forward.gateSourceV;
     }
+    // A stage with a start voltage: whether this supply lies in the start threshold's chatter band.
+    if (stageStartV(stage) !== undefined) metrics["startChatter"] = p.startChatter !== undefined;
   } else {
     for (const n of OPERATING_POINT_METRICS) unavailable[n] = `no operating point (${o.outcome}: ${o.reason})`;
   }

@@ -33,6 +33,8 @@ export const REVIEW_COMPUTES = [
   "eventTjC",
   "avalancheEnergyAtTjJ",
   "vdsBreakdownColdV",
+  "startChatter",
+  "gateOverdriveColdV",
 ] as const;
 
 export interface RequirementFlags {
@@ -86,6 +88,12 @@ export function reviewRuleInput(
   put("lossWorstW", r.worst.lossW?.value);
   put("dropWorstV", r.worst.dropV?.value);
   put("loadVMinV", r.worst.loadMinV?.value);
+  // A stage with a start voltage: whether a corner sits in its chatter band (a corner without a
+  // point cannot say, so the figure is unavailable with it).
+  if (r.startVoltageV !== undefined) {
+    if (why !== undefined) unavailable["startChatter"] = why;
+    else metrics["startChatter"] = r.startUp.inChatterBand;
+  }
   for (const p of r.startUp.profiles) {
     // A start-up profile lowers the load voltage and raises the junction: the worst of both counts.
     if (why === undefined && typeof metrics["loadVMinV"] === "number")
@@ -96,7 +104,12 @@ export function reviewRuleInput(
 
   const behaviour = behaviourOf(stage);
   if (behaviour.gateDriveMetric) {
-    if (r.startUp.atMinSupply.gateSourceV !== undefined) metrics["gateDriveMinV"] = r.startUp.atMinSupply.gateSourceV;
+    const drive = r.startUp.atMinSupply.gateSourceV;
+    if (drive !== undefined) {
+      metrics["gateDriveMinV"] = drive;
+      // The same drive against the threshold at the coldest ambient, where Vth is highest.
+      if (r.gateThresholdColdV !== undefined) metrics["gateOverdriveColdV"] = drive - r.gateThresholdColdV;
+    }
   }
   const gate = behaviour.gateSourceClampV(stage);
   if (gate !== undefined) {

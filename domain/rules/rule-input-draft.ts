@@ -59,6 +59,7 @@ export const ANALYSIS_ONLY_METRICS: Readonly<Record<string, readonly string[]>> 
     "startProfileMinV",
     "startProfileDropoutS",
     "vdsBreakdownColdV",
+    "gateOverdriveColdV",
   ],
   turnOff: ["peakReverseCurrentA", "absorbedEnergyJ", "eventTjC", "avalancheEnergyAtTjJ", "turnOffRepetitive"],
   holdUp: ["holdUpS", "holdUpRequiredS"],

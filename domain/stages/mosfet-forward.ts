@@ -4,6 +4,7 @@ import {
   channelConductance25S,
   fullEnhancementV,
   rdsTempFactor,
+  thresholdAtV,
 } from "../physics/mosfet-channel.js";
 import { channelWithBodyDiodeAtV, type ForwardState, junctionStateAt } from "./conduction.js";
 
@@ -24,14 +25,19 @@ export function mosfetForward(
   return mosfetForwardAt(channel, mosfetAt(channel, bodyDiode, tK), gateSourceV, currentA, regulatedDropV);
 }
 
-/** A MOSFET's temperature-dependent constants at one junction temperature: Rds(on)(T)/Rds(on)(25 °C) and the body diode's. */
+/** A MOSFET's temperature-dependent constants at one junction temperature: Rds(on)(T)/Rds(on)(25 °C), the gate threshold Vth(T) and the body diode's. */
 export interface MosfetAtT {
   readonly rdsFactor: number;
+  readonly thresholdV: number;
   readonly bodyDiode: DiodeAtT;
 }
 
 export function mosfetAt(channel: ChannelParams, bodyDiode: DiodeParams, tK: number): MosfetAtT {
-  return { rdsFactor: rdsTempFactor(channel.tempLaw, tK), bodyDiode: diodeAt(bodyDiode, tK) };
+  return {
+    rdsFactor: rdsTempFactor(channel.tempLaw, tK),
+    thresholdV: thresholdAtV(channel, tK),
+    bodyDiode: diodeAt(bodyDiode, tK),
+  };
 }
 
 /**
@@ -46,7 +52,7 @@ export function mosfetForwardAt(
   currentA: number,
   regulatedDropV: number,
 ): ForwardState {
-  const g = channelConductance25S(channel, gateSourceV);
+  const g = channelConductance25S(channel, gateSourceV, at.thresholdV);
   if (!(g > 0)) {
     const body = junctionStateAt(at.bodyDiode, currentA, "body-diode");
     return {

@@ -45,9 +45,9 @@ export const nfetBackToBack: StageBehaviour<BackToBackStage> = {
     if (!(running ?? inputV >= c.startV)) return OFF;
     const channel = stage.mosfet.channel;
     const vgs = gateDriveAt(c, inputV);
-    const g = channelConductance25S(channel, vgs);
-    if (!(g > 0)) return OFF;
     const at = mosfetAt(channel, stage.mosfet.bodyDiode, tK);
+    const g = channelConductance25S(channel, vgs, at.thresholdV);
+    if (!(g > 0)) return OFF;
     const rOhm = at.rdsFactor / g;
     const mode = vgs >= fullEnhancementV(channel) ? "fully-enhanced" : "partially-enhanced";
     if (c.regulatedDropV > 0 && 2 * currentA * rOhm < c.regulatedDropV) {

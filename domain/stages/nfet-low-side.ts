@@ -1,3 +1,4 @@
+import { thresholdAtV } from "../physics/mosfet-channel.js";
 import { clampV } from "./gate-drive.js";
 import { mosfetForward } from "./mosfet-forward.js";
 import { bodyDiodePath, onOhm } from "./mosfet-stage.js";
@@ -19,11 +20,12 @@ export const nfetLowSide: StageBehaviour<NFetLowSideStage> = {
   reversePath: (stage, tK, inputBeforeV, inputAfterV, _outputV, timing) => {
     const r = onOhm(stage.mosfet, clampV(inputBeforeV, stage.gateClampV), tK);
     if (r === undefined) return bodyDiodePath(stage.mosfet);
-    if (inputAfterV > stage.mosfet.channel.thresholdV) {
+    const vth = thresholdAtV(stage.mosfet.channel, tK);
+    if (inputAfterV > vth) {
       return {
         kind: "channel-stays-on",
         channelOhm: r,
-        thresholdV: stage.mosfet.channel.thresholdV,
+        thresholdV: vth,
         reason: "the low-side N-FET's gate is held by the remaining input, above threshold: it conducts backwards",
       };
     }

@@ -1,4 +1,4 @@
-import { channelConductance25S, fullEnhancementV } from "../physics/mosfet-channel.js";
+import { channelConductance25S, fullEnhancementV, thresholdAtV } from "../physics/mosfet-channel.js";
 import { clampV } from "./gate-drive.js";
 import { bodyDiodePath, onOhm } from "./mosfet-stage.js";
 import { mosfetAt, mosfetForwardAt, withGateSourceV } from "./mosfet-forward.js";
@@ -39,7 +39,7 @@ export const pfetHighSide: StageBehaviour<PFetStage> = {
       // Where the 25 °C conductance and the enhancement class do not change (above the highest
       // Rds(on) point, or below threshold) the state is the same but for Vgs: no new solve.
       const same =
-        channelConductance25S(channel, trial) === channelConductance25S(channel, vgs) &&
+        channelConductance25S(channel, trial, at.thresholdV) === channelConductance25S(channel, vgs, at.thresholdV) &&
         trial >= fullOn === vgs >= fullOn;
       vgs = trial;
       state = same ? withGateSourceV(state, vgs) : mosfetForwardAt(channel, at, vgs, currentA, 0);
@@ -54,7 +54,7 @@ export const pfetHighSide: StageBehaviour<PFetStage> = {
     return {
       kind: "channel-stays-on",
       channelOhm: r,
-      thresholdV: stage.mosfet.channel.thresholdV,
+      thresholdV: thresholdAtV(stage.mosfet.channel, tK),
       reason:
         "a P-FET with its gate at ground keeps |Vgs| = V(output): it conducts backwards until the output falls below its threshold",
     };

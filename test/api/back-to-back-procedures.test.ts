@@ -86,5 +86,18 @@ describe("operatingPoint in the chatter band at a controller's start threshold",
     expect(r.point.startChatter?.runningInputV).toBeLessThan(3.2);
     expect(r.point.startChatter?.belowStartInputV).toBeGreaterThanOrEqual(3.2);
     expect(r.assumptions.some((a) => a.startsWith("point.startChatter:"))).toBe(true);
+    // The flag reaches the rules: start-no-chatter fails at this point, passes a volt higher.
+    const ruled = async (supplyV: number) => {
+      const o = (await run(
+        JSON.stringify({
+          id: "chatter",
+          procedure: "operatingPoint",
+          input: { ...input, supplyV, ruleSet: "default" },
+        }),
+      )) as { rules: { verdicts: { ruleId: string; outcome: string }[] } };
+      return o.rules.verdicts.find((v) => v.ruleId === "start-no-chatter")?.outcome;
+    };
+    expect(await ruled(4.05)).toBe("fail");
+    expect(await ruled(5.05)).toBe("pass");
   });
 });

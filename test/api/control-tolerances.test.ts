@@ -39,7 +39,7 @@ async function run(datasheetMax?: Record<string, unknown>, extra: Record<string,
   })) as {
     candidates: Candidate[];
     assumptions: string[];
-    monteCarlo?: { dropV?: { p5: number; p95: number } };
+    monteCarlo?: { dropV?: { p5: number; p95: number }; shareFailingByRule: Record<string, number> };
   };
   return out;
 }
@@ -106,6 +106,30 @@ describe("control-parameter tolerances in the review", () => {
   });
 });
 
+describe("the Monte Carlo's sampled start voltage reaches the start rule", () => {
+  it("a sample above the 8 V minimum supply fails start-at-min-supply: the share is P(s0 + U(−h, h) > 8 V)", async () => {
+    const samples = 1000;
+    const h = 7;
+    const out = await run(undefined, {
+      monteCarlo: {
+        samples,
+        seed: 3,
+        tolerances: [{ parameter: "startV", distribution: "uniform", halfWidth: h }],
+      },
+    });
+    // Uniform closed form: (3.2 + 7 − 8)/(2·7) = 0.157; within 3 binomial standard deviations.
+    const expected = (3.2 + h - 8) / (2 * h);
+    const share = out.monteCarlo?.shareFailingByRule["start-at-min-supply"] ?? 0;
+    const sd = Math.sqrt((expected * (1 - expected)) / samples);
+    expect(Math.abs(share - expected)).toBeLessThan(3 * sd);
+    // Without the tolerance no sample fails it (the typical 3.2 V starts at 8 V).
+    const none = await run(undefined, {
+      monteCarlo: { samples: 50, seed: 3, tolerances: [{ parameter: "rdsOn", distribution: "normal", sigma: 0.1 }] },
+    });
+    expect(none.monteCarlo?.shareFailingByRule["start-at-min-supply"]).toBeUndefined();
+  });
+});
+
 describe("Monte Carlo start-voltage draws against the uniform distribution's closed form", () => {
   it("the share of samples below start is (s0 + h − Vin)/(2h) within 3 binomial standard deviations", () => {
     const stage = toStageModel(
@@ -164,5 +188,78 @@ describe("a PN diode without its reverse-recovery charge", () => {
     const schottky = await call("demo-schottky-10a-60v");
     expect(schottky.some((a) => a.startsWith("warning:"))).toBe(false);
     expect(schottky.some((a) => /Schottky/.test(a))).toBe(true);
+  });
+});
+
+describe("the Monte Carlo's sampled gate threshold reaches the cold overdrive rule", () => {
+  it("a sample fails gate-overdrive-cold when Vth25 + draw + k·(Tmin − 25 °C) ≥ the drive: P(U(−h, h) ≥ d*)", async () => {
+    const { KNOWN_BAD } = await import("../known-bad/designs.js");
+    const d = KNOWN_BAD.find((x) => x.id === "pfet-below-threshold-when-cold");
+    if (d === undefined || review === undefined) throw new Error("design or review missing");
+    const samples = 1000;
+    const h = 1;
+    const out = (await review({
+      ...d.twin,
+      monteCarlo: {
+        samples,
+        seed: 5,
+        tolerances: [{ parameter: "thresholdV", distribution: "uniform", halfWidth: h }],
+      },
+    })) as {
+      candidates: { metrics: Record<string, number> }[];
+      monteCarlo: { shareFailingByRule: Record<string, number> };
+    };
+    // Typical Vth 1.5 V, −6 mV/K, −40 °C: 1.89 V cold; a draw above drive − 1.89 V fails (uniform closed form).
+    const drive = out.candidates[0]?.metrics["gateDriveMinV"] ?? 0;
+    const expected = (h - (drive - (1.5 + 0.006 * 65))) / (2 * h);
+    const share = out.monteCarlo.shareFailingByRule["gate-overdrive-cold"] ?? 0;
+    expect(expected).toBeGreaterThan(0.05);
+    expect(Math.abs(share - expected)).toBeLessThan(3 * Math.sqrt((expected * (1 - expected)) / samples));
+  });
+});
+
+describe("the datasheet-minimum gate threshold in the review's turn-off event", () => {
+  // A low-side N-FET's gate is held by the remaining input: it conducts backwards while that input
+  // is above Vth(Tj) (nfet-low-side.ts; the threshold's linear law, docs/references.md). The input
+  // steps to 1.5 V: above a 1.2 V minimum, below the 2 V typical at 25 °C.
+  const lowSide = (mosfet: Record<string, unknown> = {}) => ({
+    kind: "nfet-low-side",
+    mosfet: {
+      rdsOn: [{ gateSourceV: 4.5, rdsOnOhm: "10 mOhm" }],
+      thresholdV: 2,
+      vgsMaxV: 20,
+      vdsMaxV: 60,
+      tjMaxC: 175,
+      bodyDiode: { model: "shockley", saturationCurrentA: "8 nA", ideality: 1.4, seriesResistanceOhm: "10 mOhm" },
+      ...mosfet,
+    },
+    gateClampV: 15,
+    thermal: { kind: "junction-ambient", rthJaKPerW: 45 },
+  });
+  const event = async (stage: unknown, datasheetMax?: Record<string, unknown>, tjC = "25 degC") => {
+    if (review === undefined) throw new Error("no review");
+    const out = (await review({
+      requirement: { ...requirement, turnOff: { ...requirement.turnOff, inputAfterV: "1.5 V", tjC } },
+      candidates: [
+        {
+          stage,
+          ...(datasheetMax ? { datasheetMax: { rdsOnFactor: 1, forwardVoltageFactor: 1, ...datasheetMax } } : {}),
+        },
+      ],
+    })) as { candidates: Candidate[] };
+    return out.candidates[0]?.turnOff?.event["outcome"];
+  };
+  it("a typical 2 V threshold lets the gate fall; the 1.2 V minimum keeps the channel on backwards", async () => {
+    expect(await event(lowSide())).toBe("blocks");
+    expect(await event(lowSide(), { thresholdMinV: "1.2 V" })).toBe("does-not-block");
+  });
+  it("hot, the threshold's coefficient does the same: 2 V − 5 mV/K·90 K = 1.55 V at 115 °C (blocks), 1.45 V at 135 °C (does not)", async () => {
+    expect(await event(lowSide({ thresholdTempCoVPerK: -0.005 }), undefined, "115 degC")).toBe("blocks");
+    expect(await event(lowSide({ thresholdTempCoVPerK: -0.005 }), undefined, "135 degC")).toBe("does-not-block");
+  });
+  it("refuses a minimum above the typical value, naming the field", async () => {
+    await expect(event(lowSide(), { thresholdMinV: "2.5 V" })).rejects.toThrow(
+      /above the stage's typical MOSFET gate threshold 2 V/,
+    );
   });
 });

@@ -158,3 +158,24 @@ describe("built-in starting profiles", () => {
     ).rejects.toThrow(/BACKSTOP_MAX_PROFILE_WORK/);
   });
 });
+
+describe("the review's start-up in the chatter band at the start threshold", () => {
+  it("names the first corner whose two states both contradict themselves, and the rule fails", async () => {
+    const { KNOWN_BAD } = await import("../known-bad/designs.js");
+    const d = KNOWN_BAD.find((x) => x.id === "ideal-diode-chatters-at-start");
+    if (d === undefined) throw new Error("known-bad design missing");
+    type Chatter = { inChatterBand: boolean; chatter?: { corner: number; startV: number; runningInputV: number } };
+    const bad = (await call(d.bad)).candidates[0] as Cand & { startUp: Chatter; corners: { conditions: object }[] };
+    // Closed form of the divider (designs.ts): running 4.05/1.3 = 3.115 V < 3.2 V at the lowest supply.
+    expect(bad.startUp.inChatterBand).toBe(true);
+    expect(bad.startUp.chatter?.startV).toBe(3.2);
+    expect(bad.startUp.chatter?.runningInputV).toBeCloseTo(4.05 / 1.3, 1);
+    expect(bad.corners[bad.startUp.chatter?.corner ?? -1]?.conditions).toMatchObject({ supply: "min" });
+    expect(bad.metrics["startChatter"]).toBe(true);
+    expect(verdictOf(bad, "start-no-chatter")).toBe("fail");
+    const twin = (await call(d.twin)).candidates[0] as Cand & { startUp: Chatter };
+    expect(twin.startUp.inChatterBand).toBe(false);
+    expect(twin.startUp.chatter).toBeUndefined();
+    expect(twin.metrics["startChatter"]).toBe(false);
+  });
+});

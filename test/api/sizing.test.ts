@@ -159,6 +159,34 @@ describe("sizing.spec round trip through the review", () => {
     expect(dI.meets).toBe(false);
   });
 
+  it("the candidate check takes the datasheet-maximum turn-off delay: a 1.5 µs typical passes a limit its 4 µs maximum misses", async () => {
+    const turnOff = {
+      loop: { resistanceOhm: 0.02, inductanceH: 1e-6 },
+      capacitor: { capacitanceF: 470e-6, esrOhm: 0.03 },
+      peakReverseCurrentMaxA: 50,
+    };
+    const stage = part("demo-ideal-diode-60v-3mohm") as Record<string, unknown> & {
+      controller: { turnOffDelayS: number | string };
+    };
+    stage.controller.turnOffDelayS = 1.5e-6;
+    const fast = { stage };
+    const typical = item(await spec({ requirement, templates: [fast], turnOff }), "turnOffDelayMaxS.reverseCurrent");
+    // The limit lies between the typical and the maximum delay (the first test: about 1.7-2 µs here).
+    expect(typical.templateValue).toBe(1.5e-6);
+    expect(typical.meets).toBe(true);
+    const dm = { rdsOnFactor: 1, forwardVoltageFactor: 1, turnOffDelayS: 4e-6 };
+    const out = await invoke("sizing.spec")({ requirement, templates: [{ ...fast, datasheetMax: dm }], turnOff });
+    const worst = item(out as Spec, "turnOffDelayMaxS.reverseCurrent");
+    expect(worst.templateValue).toBe(4e-6);
+    expect(worst.value).toBeCloseTo(typical.value ?? 0, 12);
+    expect(worst.meets).toBe(false);
+    expect(
+      (out as { assumptions: string[] }).assumptions.some((a) =>
+        /templates\.0\.datasheetMax: the turn-off event at the datasheet maximum timing/.test(a),
+      ),
+    ).toBe(true);
+  });
+
   it("impossible: a 160 °C ambient above the 150 °C junction target gives the reason, not a number", async () => {
     const s = await spec({
       requirement: { ...requirement, ambient: { minC: 0, maxC: 160 } },

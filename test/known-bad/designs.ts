@@ -141,7 +141,44 @@ const req48: Obj = {
   ambient: { minC: -5, maxC: 55 },
   transients: [],
 };
+/** The industrial 24 V class with its default transients (IEC 61000-4-5 ±1 kV line to line). */
+const req24Industrial: Obj = {
+  supply: { class: "industrial-24v" },
+  load: { kind: "constant-current", currentA: 2 },
+  ambient: { minC: -25, maxC: 60 },
+  inputClamp: { standoffV: 30, clampV: 48, peakCurrentA: 1000, energyJ: 100 },
+};
+/** A MOSFET rated at 4.5 V of gate drive only (the controller's ~7 V pump drives it fully on a 5 V rail). */
+const logicLevel: Obj = { rdsOn: [{ gateSourceV: 4.5, rdsOnOhm: "4.5 mOhm" }] };
+/** A 5 V rail into 1 Ω behind a source resistance, for the start threshold's chatter band. */
+const chatterReq = (sourceResistanceOhm: number): Obj => ({
+  supply: { class: "custom", minV: 4.05, nominalV: 5, maxV: 5.5 },
+  sourceResistanceOhm,
+  load: { kind: "resistive", resistanceOhm: 1 },
+  ambient: { minC: 0, maxC: 50 },
+  reverse: { voltageV: 5.5, durationS: 60 },
+  transients: [],
+});
 const review = (requirement: Obj, stage: Obj): Obj => ({ requirement, candidates: [{ stage }] });
+/** A 3.3 V rail (2.7–3.6 V) at −40 °C through a logic-level P-FET whose Vth falls 6 mV/K, with its datasheet-maximum Vth. */
+const coldRail = (thresholdMaxV: number): Obj => ({
+  requirement: {
+    supply: { class: "custom", minV: 2.7, nominalV: 3.3, maxV: 3.6 },
+    load: { kind: "constant-current", currentA: 1 },
+    ambient: { minC: -40, maxC: 85 },
+    reverse: { voltageV: 3.6, durationS: 60 },
+    transients: [],
+  },
+  candidates: [
+    {
+      stage: pfet(
+        { rdsOn: [{ gateSourceV: 2.5, rdsOnOhm: "40 mOhm" }], thresholdV: 1.5, thresholdTempCoVPerK: -0.006 },
+        { gateClampV: undefined },
+      ),
+      datasheetMax: { rdsOnFactor: 1.3, forwardVoltageFactor: 1.1, thresholdV: thresholdMaxV },
+    },
+  ],
+});
 /** A bidirectional TVS-like input clamp: stand-off above jump start, clamping below the parts' ratings. */
 const clamp = (o: Obj = {}): Obj => ({ standoffV: 26, clampV: 40, peakCurrentA: 100, energyJ: 100, ...o });
 const crank: Obj[] = [
@@ -352,6 +389,43 @@ export const KNOWN_BAD: readonly KnownBad[] = [
       { ...req12, transients: ["iso7637-2-pulse-1-12v"], inputClamp: clamp({ clampV: 36 }) },
       schottky({ reverseRatingV: 60 }),
     ),
+  },
+  {
+    // IEC 61000-4-5 tests a DC power port with both polarities: the negative surge reverse-biases
+    // the series diode with the clamp's voltage plus the output its capacitance holds (closed form:
+    // the blocking element sees |Vclamp| + Vheld, transient-stress.ts).
+    id: "schottky-60v-under-negative-surge",
+    hazard: "transient",
+    why: "the −1 kV surge on an industrial 24 V input, clamped at 48 V, with the 24 V output held: 72 V across a 60 V Schottky",
+    procedure: "review",
+    rule: "diode-reverse-transient",
+    bad: review(req24Industrial, schottky({ reverseRatingV: 60 })),
+    twin: review(req24Industrial, schottky({ reverseRatingV: 100 })),
+  },
+  {
+    // A 5 V rail (4.05 V at its lowest) behind 0.3 Ω into 1 Ω, controller start 3.2 V. Running, the
+    // input is about 4.05/1.3 = 3.12 V, below start; on the body diode (~0.74 V) about
+    // (4.05 + 0.3·0.74)/1.3 = 3.29 V, above it: neither state holds (closed form of the divider).
+    // The twin's 50 mΩ source keeps the running input at about 4.05/1.05 = 3.86 V.
+    id: "ideal-diode-chatters-at-start",
+    hazard: "start-up",
+    why: "a 3.2 V-start ideal diode on a 4.05 V minimum behind 0.3 Ω: its own running current pulls the input below start, so it toggles",
+    procedure: "review",
+    rule: "start-no-chatter",
+    bad: review(chatterReq(0.3), idealDiode(logicLevel)),
+    twin: review(chatterReq(0.05), idealDiode(logicLevel)),
+  },
+  {
+    // Vth(T) = Vth(max) + k·(T − 25 °C) (docs/references.md, MOSFETs): 2.4 V + 6 mV/K·65 K = 2.79 V at
+    // −40 °C, above the ~2.68 V a P-FET's gate gets at the 2.7 V bottom of a 3.3 V rail; the twin's
+    // 2.0 V maximum gives 2.39 V. At 25 °C both would pass (2.4 V < 2.68 V).
+    id: "pfet-below-threshold-when-cold",
+    hazard: "start-up",
+    why: "a logic-level P-FET on a 3.3 V rail whose 2.7 V minimum drives its gate above Vth(max) at 25 °C but not at −40 °C, where Vth is 0.39 V higher",
+    procedure: "review",
+    rule: "gate-overdrive-cold",
+    bad: coldRail(2.4),
+    twin: coldRail(2.0),
   },
   {
     id: "clamp-5j-under-load-dump-a",

@@ -38,4 +38,14 @@ describe("built-in standard values cite their source", () => {
     expect(byId.get("poe-pd-type-1")?.minV).toBe(37);
     expect(byId.get("poe-pd-type-4")?.minV).toBe(41.1);
   });
+  // IEC 61000-4-5 (2nd edition, clause 8.2, through a quotation of the clause; docs/references.md):
+  // five positive and five negative surges on a DC power port.
+  it("the industrial 24 V and telecom −48 V classes take the surge in both polarities, each in the library", () => {
+    for (const id of ["industrial-24v", "telecom-48v"]) {
+      const c = SUPPLY_CLASSES.find((x) => x.id === id);
+      const surges = (c?.transients ?? []).map((t) => TRANSIENT_LIBRARY.find((p) => p.id === t));
+      expect(surges.map((p) => Math.sign(p?.amplitudeV ?? 0)).sort()).toEqual([-1, 1]);
+      expect(surges.map((p) => Math.abs(p?.amplitudeV ?? 0))).toEqual([1000, 1000]);
+    }
+  });
 });

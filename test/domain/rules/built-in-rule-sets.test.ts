@@ -99,6 +99,14 @@ const DEFAULT: Record<string, RuleCases> = {
     pass: p("nfet-ideal-diode", { startVoltageV: 2.5, supplyMinV: 6 }, {}, 6, 3.5),
     violate: v("fail", p("nfet-ideal-diode", { startVoltageV: 9, supplyMinV: 6 }, {}, 6, -3)),
   },
+  "gate-overdrive-cold": {
+    pass: p("pfet-high-side", { gateOverdriveColdV: 0.4 }, {}, 0, 0.4),
+    violate: v("fail", p("nfet-ideal-diode", { gateOverdriveColdV: -0.1 }, {}, 0, -0.1)),
+  },
+  "start-no-chatter": {
+    pass: p("nfet-ideal-diode", { startChatter: false }, {}),
+    violate: v("fail", p("nfet-back-to-back", { startChatter: true }, {})),
+  },
   "gate-drive-at-min-supply": {
     pass: p("pfet-high-side", { gateDriveMinV: 6 }, { vgsOnV: 4.5 }, 4.5, 1.5),
     violate: v("warn", p("pfet-high-side", { gateDriveMinV: 3.5 }, { vgsOnV: 4.5 }, 4.5, -1)),

@@ -145,6 +145,7 @@ describe("requirement inputs left out on purpose", () => {
       transientVMaxV: 30,
       gateDriveMinV: 10,
       startVoltageV: 3,
+      startChatter: false,
       blocksReverseCurrent: true,
       parallelSources: false,
       holdUpRequired: false,
