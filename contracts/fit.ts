@@ -128,6 +128,11 @@ export const fitOutput = z.object({
     worstFraction: z.number().meta({ description: "|worst residual| / point value" }),
     boundFraction: z.number().meta({ description: "the bound on worstFraction" }),
     withinBound: z.boolean(),
+    converged: z.boolean().meta({
+      description:
+        "false: the solver stopped at its iteration cap before converging (such a fit is refused unless acceptFit)",
+    }),
+    iterations: z.number().int().meta({ description: "iterations the solver took" }),
   }),
   residuals: z
     .array(z.object({ point: z.number().int(), measured: z.number(), modelled: z.number(), residual: z.number() }))

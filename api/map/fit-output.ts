@@ -27,6 +27,8 @@ function qualityOf(q: FitQuality, unit: string): FitOutput["quality"] {
     worstFraction: q.worstFraction,
     boundFraction: q.boundFraction,
     withinBound: withinBound(q),
+    converged: q.converged,
+    iterations: q.iterations,
   };
 }
 

@@ -1,6 +1,6 @@
 import { type FosterTerm, zthKPerW } from "../physics/foster.js";
 import { type CurveFit, firstFall, refuse } from "./curve-fit.js";
-import { type FitQuality, fitQuality } from "./fit-quality.js";
+import { type FitQuality, fitQuality, type SolverRun } from "./fit-quality.js";
 import { leastSquares } from "./least-squares.js";
 
 export interface ZthPoint {
@@ -97,7 +97,7 @@ function fitStages(
     ...new Array<number>(k).fill(LN_TAU[1]),
     ...new Array<number>(steady === undefined ? k : k - 1).fill(steady === undefined ? Math.log(1e4) : 40),
   ];
-  let best: { u: readonly number[]; ssr: number } | undefined;
+  let best: { u: readonly number[]; ssr: number; run: SolverRun } | undefined;
   for (const widen of [1, 3, 1 / 3]) {
     const lo = Math.log(tMin / widen);
     const hi = Math.log(tMax * widen);
@@ -108,7 +108,7 @@ function fitStages(
         : [...lnTaus, ...new Array<number>(k - 1).fill(0)];
     const sol = leastSquares({ residuals, start, lower, upper, maxIterations: 150 });
     if (sol.outcome !== "solved" || !Number.isFinite(sol.sumSquares)) continue;
-    if (best === undefined || sol.sumSquares < best.ssr) best = { u: sol.params, ssr: sol.sumSquares };
+    if (best === undefined || sol.sumSquares < best.ssr) best = { u: sol.params, ssr: sol.sumSquares, run: sol };
   }
   if (best === undefined) return undefined;
   const net = terms(best.u).sort((a, b) => a.tauS - b.tauS);
@@ -117,6 +117,7 @@ function fitStages(
     modelled,
     points.map((p) => p.zthKPerW),
     ZTH_FIT_BOUND,
+    best.run,
   );
   // Standard errors of single terms of a sum of exponentials are not meaningful (the terms trade
   // off against each other); the fit states its residuals instead.

@@ -175,6 +175,7 @@ export function fitDiode(points: readonly ForwardPoint[], opts: DiodeFitOptions)
       modelledV,
       points.map((p) => p.voltageV),
       VF_FIT_BOUND,
+      sol,
     ),
     standardErrors: {
       ...(se[0] === undefined ? {} : { lnSaturationCurrent: se[0] }),
