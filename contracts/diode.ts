@@ -47,26 +47,47 @@ export const diodePoints = z.strictObject({
   energyGapEv: energyGapEv.optional(),
   saturationTempExponent: saturationTempExponent.optional(),
   vfTempCoVPerK: vfTempCoVPerK.optional(),
+  temperatureLaw: z.enum(["eg-xti", "linear"]).optional().meta({
+    description:
+      "the Vf temperature law the points fit: eg-xti (default: the SPICE Is(T) law, Eg fitted where the points allow) or linear (a Vf shift at constant current, vfTempCoVPerK, fitted from four points or more at two temperatures or more; give vfTempCoVPerK instead to hold it)",
+  }),
   acceptFit: z.boolean().optional().meta({
     description:
       "use a least-squares fit whose worst residual exceeds 2 % of Vf (default false: such a fit is refused, naming the point)",
   }),
 });
 
-/** One temperature law: a linear Vf coefficient or the Eg/XTI law, not both. */
+/** One temperature law: a linear Vf coefficient (given, or fitted: temperatureLaw linear) or the Eg/XTI law, not both. */
 export function oneTemperatureLaw(
   d: {
     vfTempCoVPerK?: number | undefined;
     energyGapEv?: number | undefined;
     saturationTempExponent?: number | undefined;
+    temperatureLaw?: "eg-xti" | "linear" | undefined;
   },
   ctx: z.RefinementCtx,
 ): void {
-  if (d.vfTempCoVPerK !== undefined && (d.energyGapEv !== undefined || d.saturationTempExponent !== undefined)) {
+  const egXti = d.energyGapEv !== undefined || d.saturationTempExponent !== undefined;
+  if (d.vfTempCoVPerK !== undefined && (egXti || d.temperatureLaw === "eg-xti")) {
     ctx.addIssue({
       code: "custom",
       path: ["vfTempCoVPerK"],
       message: "give either a linear Vf temperature coefficient or the Eg/XTI law, not both",
+    });
+  }
+  if (d.temperatureLaw === "linear" && egXti) {
+    ctx.addIssue({
+      code: "custom",
+      path: ["temperatureLaw"],
+      message: "the linear law takes no Eg/XTI: drop energyGapEv and saturationTempExponent, or drop temperatureLaw",
+    });
+  }
+  if (d.temperatureLaw === "linear" && d.vfTempCoVPerK !== undefined) {
+    ctx.addIssue({
+      code: "custom",
+      path: ["temperatureLaw"],
+      message:
+        "vfTempCoVPerK already chooses the linear law and holds its value: drop temperatureLaw to hold it, or drop vfTempCoVPerK to fit it",
     });
   }
 }
