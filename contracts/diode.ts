@@ -1,5 +1,8 @@
 import { z } from "zod";
+import { curvePoints, forwardPoint } from "./curve-points.js";
 import { quantity, ratio, temperatureC } from "./quantity.js";
+
+export { forwardPoint };
 
 const energyGapEv = z
   .number()
@@ -28,15 +31,11 @@ export const diodeShockley = z.strictObject({
   nominalTempC: temperatureC("temperature at which Is holds (default 25 °C)").optional(),
 });
 
-export const forwardPoint = z.strictObject({
-  currentA: quantity("A", "forward current of the datasheet point", { gt: 0, le: 1e5 }),
-  voltageV: quantity("V", "forward voltage of the datasheet point", { gt: 0, le: 100 }),
-  tempC: temperatureC("junction temperature of the point (default 25 °C)").optional(),
-});
-
 export const diodePoints = z.strictObject({
   model: z.literal("points"),
-  points: z.array(forwardPoint).min(2).max(64).meta({
+  points: curvePoints(forwardPoint, {
+    min: 2,
+    max: 64,
     description:
       "two or more (I, Vf, T) points, read off the datasheet's curves at one temperature or several; two fit Is and n, three also Rs (exactly); four or more fit Is, n, Rs by least squares, and Eg too where they span two temperatures and neither Eg nor vfTempCoVPerK is given",
   }),

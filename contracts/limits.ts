@@ -26,6 +26,8 @@ export interface Limits {
   readonly maxExpressionChars: number;
   /** most syntax nodes in one such rule expression (evaluation time is bounded by it) */
   readonly maxExpressionNodes: number;
+  /** largest curve CSV file a batch input or catalog file may reference, bytes */
+  readonly maxCurveFileBytes: number;
 }
 
 /** The environment variable of each limit. */
@@ -39,6 +41,7 @@ export const LIMIT_VARIABLES: { readonly [K in keyof Limits]: string } = {
   maxAnswerBytes: "BACKSTOP_MAX_ANSWER_BYTES",
   maxExpressionChars: "BACKSTOP_MAX_EXPRESSION_CHARS",
   maxExpressionNodes: "BACKSTOP_MAX_EXPRESSION_NODES",
+  maxCurveFileBytes: "BACKSTOP_MAX_CURVE_FILE_BYTES",
 };
 
 export const DEFAULT_LIMITS: Limits = {
@@ -52,6 +55,8 @@ export const DEFAULT_LIMITS: Limits = {
   maxAnswerBytes: 16 * 1024 * 1024,
   maxExpressionChars: 2000,
   maxExpressionNodes: 256,
+  // a curve holds at most 64 points (the contracts' bound), about 40 bytes a row: ample room
+  maxCurveFileBytes: 64 * 1024,
 };
 
 /** The limits from `env` (unset or empty: the default); a value that is not a positive integer is an error naming the variable. */
