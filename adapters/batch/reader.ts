@@ -26,7 +26,7 @@ export function recordChunks(
 ): AsyncGenerator<RecordChunk> {
   return format === "csv"
     ? csvChunks(input, o.targetBytes, o.procedure, o.shard, o.curveFolder)
-    : jsonlRecordChunks(input, o.targetBytes, o.curveFolder);
+    : jsonlRecordChunks(input, o.targetBytes, o.curveFolder, o.shard);
 }
 
 /** JSON Lines as cut by jsonlChunks; a line too long to hold comes as its own chunk, answered as too long. */
@@ -34,25 +34,26 @@ async function* jsonlRecordChunks(
   input: Readable,
   targetBytes: number,
   curveFolder: string | undefined,
+  shard: Shard | undefined,
 ): AsyncGenerator<RecordChunk> {
   for await (const c of jsonlChunks(input, targetBytes)) {
     if (c.overlongBytes !== undefined)
       yield { bytes: c.bytes, firstLine: c.firstLine, lines: 1, answered: [overlongLine(c.firstLine)] };
-    else yield curveFolder === undefined ? c : chunkWithCurveFiles(c, curveFolder);
+    else yield curveFolder === undefined ? c : chunkWithCurveFiles(c, curveFolder, shard);
   }
 }
 
 const CSV_KEY = '"csv"';
 const CSV_KEY_BYTES = Buffer.from(CSV_KEY, "utf8");
 
-/** A chunk whose lines that reference curve files have them read in (or are answered with why not). */
-function chunkWithCurveFiles(c: JsonlChunk, folder: string): RecordChunk {
+/** A chunk whose lines (in the shard) that reference curve files have them read in (or are answered with why not). */
+function chunkWithCurveFiles(c: JsonlChunk, folder: string, shard: Shard | undefined): RecordChunk {
   const bytes = Buffer.from(c.bytes.buffer, c.bytes.byteOffset, c.bytes.byteLength);
   if (bytes.indexOf(CSV_KEY_BYTES) < 0) return c;
   const answered: BatchOutputLine[] = [];
   let changed = false;
   const lines = linesOf(bytes.toString("utf8")).map((raw, i) => {
-    const r = withCurveFiles(raw, c.firstLine + i, folder);
+    const r = inShard(c.firstLine + i, shard) ? withCurveFiles(raw, c.firstLine + i, folder) : undefined;
     if (r === undefined) return raw;
     changed = true;
     if ("text" in r) return r.text;

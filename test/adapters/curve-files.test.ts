@@ -184,6 +184,25 @@ describe("curves as CSV files (batch and catalog files)", () => {
       expect(noFolder.error.message).toMatch(/send the points inline, \[\{ currentA, voltageV, tempC \}/);
   });
 
+  it("a CSV batch row takes a curve file through its column (input path diode.points.csv)", async () => {
+    const out: string[] = [];
+    await streamBatch({
+      input: Readable.from([
+        "id,procedure,curve,junction,diode.model,diode.points.csv\nr1,fit,diode-forward,schottky,points,curves/vf.csv\n",
+      ]),
+      inFormat: "csv",
+      outFormat: "jsonl",
+      ctx: demoContext(),
+      curveFolder: dir,
+      write: async (c) => {
+        out.push(typeof c === "string" ? c : Buffer.from(c).toString("utf8"));
+      },
+    });
+    const row = JSON.parse(out.join("").trim()) as BatchOutputLine;
+    if (!row.ok) throw new Error(JSON.stringify(row.error));
+    expect(row.result).toEqual(await caller.fit(fitOf(inlinePoints) as never));
+  });
+
   it("over HTTP a curve file reference is refused, saying what to send instead (the server reads no caller-named file)", async () => {
     const { app } = testApp();
     const r = await postTrpc(app, "fit", { curve: "zth", points: { csv: "curves/zth.csv" } });
