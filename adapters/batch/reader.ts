@@ -44,7 +44,8 @@ async function* jsonlRecordChunks(
 }
 
 const CSV_KEY = '"csv"';
-const CSV_KEY_BYTES = Buffer.from(CSV_KEY, "utf8");
+// what a chunk's bytes are searched for: the key without its opening quote, a byte JSON text is full of
+const CSV_KEY_BYTES = Buffer.from('csv"', "utf8");
 
 /** A chunk whose lines (in the shard) that reference curve files have them read in (or are answered with why not). */
 function chunkWithCurveFiles(c: JsonlChunk, folder: string, shard: Shard | undefined): RecordChunk {
