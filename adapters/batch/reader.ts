@@ -44,7 +44,7 @@ async function* jsonlRecordChunks(
 }
 
 const CSV_KEY = '"csv"';
-// what a chunk's bytes are searched for: the key without its opening quote, a byte JSON text is full of
+// a line can reference a curve file only if its bytes hold the key's last four
 const CSV_KEY_BYTES = Buffer.from('csv"', "utf8");
 
 /** A chunk whose lines (in the shard) that reference curve files have them read in (or are answered with why not). */
