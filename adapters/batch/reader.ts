@@ -89,7 +89,7 @@ function withCurveFiles(
   }
   const r = resolveCurveFiles(v, { baseDir: folder, root: folder });
   if (r.ok) return r.files === 0 ? undefined : { text: JSON.stringify(r.value) };
-  const id = (v as { id?: unknown }).id;
+  const id = typeof v === "object" && v !== null ? (v as { id?: unknown }).id : undefined;
   // paths as the procedure's errors give them: within the line's input
   const issues = r.problems.map((p) => ({
     path: p.path[0] === "input" ? p.path.slice(1) : p.path,
