@@ -1,6 +1,6 @@
 import { type FosterTerm, zthKPerW } from "../physics/foster.js";
 import { type CurveFit, firstFall, refuse } from "./curve-fit.js";
-import { type FitQuality, fitQuality, type SolverRun } from "./fit-quality.js";
+import { type FitQuality, fitPasses, fitQuality, type SolverRun } from "./fit-quality.js";
 import { leastSquares } from "./least-squares.js";
 
 export interface ZthPoint {
@@ -13,7 +13,7 @@ export const ZTH_FIT_BOUND = 0.05;
 export const MAX_FOSTER_STAGES = 5;
 
 export interface FosterFitOptions {
-  /** Number of stages, 1..5; absent: the fewest that meet the 5 % bound (else the best of 1..5). */
+  /** Number of stages, 1..5; absent: the fewest whose fit converges within the 5 % bound (else the best of 1..5). */
   readonly stages?: number;
   /** The steady value ΣR must equal, K/W (the datasheet's Rth); absent: ΣR is fitted freely. */
   readonly steadyKPerW?: number;
@@ -65,7 +65,7 @@ export function fitFoster(points: readonly ZthPoint[], opts: FosterFitOptions = 
     const fit = fitStages(points, k, s);
     if (fit === undefined) continue;
     if (best === undefined || fit.quality.worstFraction < best.quality.worstFraction) best = fit;
-    if (opts.stages === undefined && fit.quality.worstFraction <= ZTH_FIT_BOUND) return fit;
+    if (opts.stages === undefined && fitPasses(fit.quality)) return fit;
   }
   return best ?? refuse("the Foster fit did not reach a finite solution");
 }
