@@ -65,6 +65,16 @@ describe("curves as CSV files (batch and catalog files)", () => {
     expect(fromFile.method).toBe("least-squares");
   });
 
+  it("a two-column curve (Zth(t), columns in the file's own order) gives the same Foster fit as inline", async () => {
+    const times = Array.from({ length: 9 }, (_, i) => 1e-4 * 10 ** (i / 2));
+    const zth = (t: number) => 0.5 * -Math.expm1(-t / 1e-3) + 1.5 * -Math.expm1(-t / 0.3);
+    writeFileSync(join(curvesDir, "zth.csv"), `zthKPerW,timeS\n${times.map((t) => `${zth(t)},${t}`).join("\n")}\n`);
+    const r = resolveCurveFiles({ curve: "zth", steadyKPerW: 2, points: { csv: "curves/zth.csv" } }, scope);
+    if (!r.ok) throw new Error(JSON.stringify(r.problems));
+    const inline = { curve: "zth", steadyKPerW: 2, points: times.map((timeS) => ({ timeS, zthKPerW: zth(timeS) })) };
+    expect(await caller.fit(r.value as never)).toEqual(await caller.fit(inline as never));
+  });
+
   it("reports a bad cell by its line and column, with the point's own contract message", () => {
     const msgs = problemsOf("bad.csv", "currentA,voltageV,tempC\n0.1,0.308,25\n0.5,abc,25\n-1,0.4,25\n2,0.5\n3,0.6,\n");
     expect(msgs).toHaveLength(3);
