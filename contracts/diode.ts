@@ -1,5 +1,8 @@
 import { z } from "zod";
+import { curvePoints, forwardPoint } from "./curve-points.js";
 import { quantity, ratio, temperatureC } from "./quantity.js";
+
+export { forwardPoint };
 
 const energyGapEv = z
   .number()
@@ -28,15 +31,11 @@ export const diodeShockley = z.strictObject({
   nominalTempC: temperatureC("temperature at which Is holds (default 25 °C)").optional(),
 });
 
-export const forwardPoint = z.strictObject({
-  currentA: quantity("A", "forward current of the datasheet point", { gt: 0, le: 1e5 }),
-  voltageV: quantity("V", "forward voltage of the datasheet point", { gt: 0, le: 100 }),
-  tempC: temperatureC("junction temperature of the point (default 25 °C)").optional(),
-});
-
 export const diodePoints = z.strictObject({
   model: z.literal("points"),
-  points: z.array(forwardPoint).min(2).max(64).meta({
+  points: curvePoints(forwardPoint, {
+    min: 2,
+    max: 64,
     description:
       "two or more (I, Vf, T) points, read off the datasheet's curves at one temperature or several; two fit Is and n, three also Rs (exactly); four or more fit Is, n, Rs by least squares, and Eg too where they span two temperatures and neither Eg nor vfTempCoVPerK is given",
   }),
@@ -47,26 +46,47 @@ export const diodePoints = z.strictObject({
   energyGapEv: energyGapEv.optional(),
   saturationTempExponent: saturationTempExponent.optional(),
   vfTempCoVPerK: vfTempCoVPerK.optional(),
+  temperatureLaw: z.enum(["eg-xti", "linear"]).optional().meta({
+    description:
+      "the Vf temperature law the points fit: eg-xti (default: the SPICE Is(T) law, Eg fitted where the points allow) or linear (a Vf shift at constant current, vfTempCoVPerK, fitted from four points or more at two temperatures or more; give vfTempCoVPerK instead to hold it)",
+  }),
   acceptFit: z.boolean().optional().meta({
     description:
       "use a least-squares fit whose worst residual exceeds 2 % of Vf (default false: such a fit is refused, naming the point)",
   }),
 });
 
-/** One temperature law: a linear Vf coefficient or the Eg/XTI law, not both. */
+/** One temperature law: a linear Vf coefficient (given, or fitted: temperatureLaw linear) or the Eg/XTI law, not both. */
 export function oneTemperatureLaw(
   d: {
     vfTempCoVPerK?: number | undefined;
     energyGapEv?: number | undefined;
     saturationTempExponent?: number | undefined;
+    temperatureLaw?: "eg-xti" | "linear" | undefined;
   },
   ctx: z.RefinementCtx,
 ): void {
-  if (d.vfTempCoVPerK !== undefined && (d.energyGapEv !== undefined || d.saturationTempExponent !== undefined)) {
+  const egXti = d.energyGapEv !== undefined || d.saturationTempExponent !== undefined;
+  if (d.vfTempCoVPerK !== undefined && (egXti || d.temperatureLaw === "eg-xti")) {
     ctx.addIssue({
       code: "custom",
       path: ["vfTempCoVPerK"],
       message: "give either a linear Vf temperature coefficient or the Eg/XTI law, not both",
+    });
+  }
+  if (d.temperatureLaw === "linear" && egXti) {
+    ctx.addIssue({
+      code: "custom",
+      path: ["temperatureLaw"],
+      message: "the linear law takes no Eg/XTI: drop energyGapEv and saturationTempExponent, or drop temperatureLaw",
+    });
+  }
+  if (d.temperatureLaw === "linear" && d.vfTempCoVPerK !== undefined) {
+    ctx.addIssue({
+      code: "custom",
+      path: ["temperatureLaw"],
+      message:
+        "vfTempCoVPerK already chooses the linear law and holds its value: drop temperatureLaw to hold it, or drop vfTempCoVPerK to fit it",
     });
   }
 }

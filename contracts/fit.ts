@@ -1,7 +1,8 @@
 import { z } from "zod";
 import { diodePoints, diodeShockley, oneTemperatureLaw } from "./diode.js";
+import { curvePoints, rdsOnTjPoint, zthPoint } from "./curve-points.js";
 import { provenance } from "./outcome.js";
-import { quantity, temperatureC } from "./quantity.js";
+import { quantity } from "./quantity.js";
 import { reverseLeakageCurve } from "./stage.js";
 
 const acceptFit = (bound: string) =>
@@ -11,8 +12,6 @@ const acceptFit = (bound: string) =>
     .meta({
       description: `use a least-squares fit whose worst residual exceeds ${bound} (default false: such a fit is refused, naming the point)`,
     });
-const points = <T extends z.ZodType>(point: T, what: string) =>
-  z.array(point).min(2).max(64).meta({ description: what });
 
 const diodeForward = z.strictObject({
   curve: z.literal("diode-forward"),
@@ -24,29 +23,17 @@ const diodeForward = z.strictObject({
 
 const rdsOnTemperature = z.strictObject({
   curve: z.literal("rds-on-temperature"),
-  points: points(
-    z.strictObject({
-      tjC: temperatureC("junction temperature"),
-      rdsOnOhm: quantity(
-        "ohm",
-        "on-resistance at that Tj (or the normalised factor Rds(on)(Tj)/Rds(on)(25 °C), given as a plain number)",
-        { gt: 0, le: 1e3 },
-      ),
-    }),
-    "Rds(on) against junction temperature, at two temperatures or more",
-  ),
+  points: curvePoints(rdsOnTjPoint, {
+    min: 2,
+    max: 64,
+    description: "Rds(on) against junction temperature, at two temperatures or more",
+  }),
   acceptFit: acceptFit("5 % of Rds(on)"),
 });
 
 /** Single-pulse Zth(t) points and how to fit them (the fit procedure's and a candidate's transient thermal form). */
 export const zthCurveFields = {
-  points: points(
-    z.strictObject({
-      timeS: quantity("s", "pulse duration", { gt: 0, le: 1e6 }),
-      zthKPerW: quantity("K/W", "single-pulse transient thermal impedance", { gt: 0, le: 10_000 }),
-    }),
-    "single-pulse Zth(t) points",
-  ),
+  points: curvePoints(zthPoint, { min: 2, max: 64, description: "single-pulse Zth(t) points" }),
   steadyKPerW: quantity("K/W", "the steady thermal resistance the network's ΣR must equal (absent: ΣR fitted freely)", {
     gt: 0,
     le: 10_000,
@@ -128,6 +115,11 @@ export const fitOutput = z.object({
     worstFraction: z.number().meta({ description: "|worst residual| / point value" }),
     boundFraction: z.number().meta({ description: "the bound on worstFraction" }),
     withinBound: z.boolean(),
+    converged: z.boolean().meta({
+      description:
+        "false: the solver stopped at its iteration cap before converging (such a fit is refused unless acceptFit)",
+    }),
+    iterations: z.number().int().meta({ description: "iterations the solver took" }),
   }),
   residuals: z
     .array(z.object({ point: z.number().int(), measured: z.number(), modelled: z.number(), residual: z.number() }))

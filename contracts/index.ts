@@ -17,3 +17,4 @@ export * from "./battery-charge.js";
 export * from "./bridge.js";
 export * from "./review.js";
 export * from "./fit.js";
+export * from "./curve-points.js";

@@ -28,6 +28,8 @@ export interface Limits {
   readonly maxExpressionNodes: number;
   /** most parts in one `catalog.list` answer (a page; `offset` reaches the rest) */
   readonly maxCatalogListParts: number;
+  /** largest curve CSV file a batch input or catalog file may reference, bytes */
+  readonly maxCurveFileBytes: number;
 }
 
 /** The environment variable of each limit. */
@@ -42,6 +44,7 @@ export const LIMIT_VARIABLES: { readonly [K in keyof Limits]: string } = {
   maxExpressionChars: "BACKSTOP_MAX_EXPRESSION_CHARS",
   maxExpressionNodes: "BACKSTOP_MAX_EXPRESSION_NODES",
   maxCatalogListParts: "BACKSTOP_MAX_CATALOG_LIST_PARTS",
+  maxCurveFileBytes: "BACKSTOP_MAX_CURVE_FILE_BYTES",
 };
 
 export const DEFAULT_LIMITS: Limits = {
@@ -57,6 +60,8 @@ export const DEFAULT_LIMITS: Limits = {
   maxExpressionNodes: 256,
   // an entry is about 100 bytes of JSON: a page of 1,000 is about 100 kB
   maxCatalogListParts: 1000,
+  // a curve holds at most 64 points (the contracts' bound), about 40 bytes a row: ample room
+  maxCurveFileBytes: 64 * 1024,
 };
 
 /** The limits from `env` (unset or empty: the default); a value that is not a positive integer is an error naming the variable. */

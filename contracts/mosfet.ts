@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { curvePoints, rdsFactorPoint, rdsOnVgsPoint } from "./curve-points.js";
 import { diode } from "./diode.js";
 import { quantity, temperatureC } from "./quantity.js";
 
@@ -12,31 +13,19 @@ export const rdsTempLaw = z
     }),
     z.strictObject({
       law: z.literal("points"),
-      points: z
-        .array(
-          z.strictObject({
-            tjC: temperatureC("junction temperature"),
-            factor: z.number().gt(0).lte(100).meta({ description: "Rds(on)(Tj)/Rds(on)(25 °C)", unit: "1" }),
-          }),
-        )
-        .min(2)
-        .meta({ description: "normalised on-resistance against junction temperature, increasing Tj" }),
+      points: curvePoints(rdsFactorPoint, {
+        min: 2,
+        description: "normalised on-resistance against junction temperature, increasing Tj",
+      }),
     }),
     z
       .strictObject({
         law: z.literal("power-fit"),
-        points: z
-          .array(
-            z.strictObject({
-              tjC: temperatureC("junction temperature"),
-              factor: z.number().gt(0).lte(100).meta({ description: "Rds(on)(Tj)/Rds(on)(25 °C)", unit: "1" }),
-            }),
-          )
-          .min(2)
-          .max(64)
-          .meta({
-            description: "normalised on-resistance against junction temperature, read off the datasheet's curve",
-          }),
+        points: curvePoints(rdsFactorPoint, {
+          min: 2,
+          max: 64,
+          description: "normalised on-resistance against junction temperature, read off the datasheet's curve",
+        }),
         acceptFit: z.boolean().optional().meta({
           description:
             "use a fit whose worst residual exceeds 5 % of Rds(on) (default false: refused, naming the point)",
@@ -51,15 +40,10 @@ export const rdsTempLaw = z
 
 export const mosfet = z
   .strictObject({
-    rdsOn: z
-      .array(
-        z.strictObject({
-          gateSourceV: volts("gate-source drive (magnitude)"),
-          rdsOnOhm: quantity("ohm", "on-resistance at 25 °C", { gt: 0, le: 1e3 }),
-        }),
-      )
-      .min(1)
-      .meta({ description: "datasheet Rds(on) at 25 °C against gate drive, one point or more" }),
+    rdsOn: curvePoints(rdsOnVgsPoint, {
+      min: 1,
+      description: "datasheet Rds(on) at 25 °C against gate drive, one point or more",
+    }),
     rdsOnTemp: rdsTempLaw.optional(),
     thresholdV: volts("gate threshold voltage (magnitude), at 25 °C"),
     thresholdTempCoVPerK: z.number().min(-0.02).max(0).optional().meta({

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { curvePoints, leakagePoint } from "./curve-points.js";
 import { diode } from "./diode.js";
 import { mosfet, rdsTempLaw } from "./mosfet.js";
 import { quantity, ratio, temperatureC } from "./quantity.js";
@@ -15,17 +16,11 @@ const costEach = z
 
 export const reverseLeakageCurve = z
   .strictObject({
-    points: z
-      .array(
-        z.strictObject({
-          tjC: temperatureC("junction temperature"),
-          reverseV: quantity("V", "reverse voltage", { gt: 0, le: 10_000 }),
-          currentA: quantity("A", "reverse current", { gt: 0, le: 10 }),
-        }),
-      )
-      .min(2)
-      .max(64)
-      .meta({ description: "IR(Tj, VR) points read off the datasheet's curves, at two junction temperatures or more" }),
+    points: curvePoints(leakagePoint, {
+      min: 2,
+      max: 64,
+      description: "IR(Tj, VR) points read off the datasheet's curves, at two junction temperatures or more",
+    }),
     acceptFit: z.boolean().optional().meta({
       description: "use a fit whose worst residual exceeds 25 % of IR (default false: refused, naming the point)",
     }),

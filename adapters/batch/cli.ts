@@ -1,5 +1,6 @@
 import { createReadStream } from "node:fs";
 import { availableParallelism } from "node:os";
+import { dirname, resolve } from "node:path";
 import { parseArgs } from "node:util";
 import { procedureEntry } from "../../api/procedure-registry.js";
 import { loadCatalog } from "../catalog/catalog-source.js";
@@ -25,6 +26,7 @@ ${CATALOG_USAGE}
   --shard N takes the index from JOB_COMPLETION_INDEX; "{shard}" in --out is replaced by the index.
   --report-dir writes each answered review and bridgeAc line as <id>.html, <id>.md and <id>-charts/*.svg.
   a CSV input needs a "procedure" column or --procedure; blank lines are skipped (counted apart, never a row).
+  a curve's points may be { "csv": "curves/vf.csv" }: a CSV file in the input file's folder (or below it).
   exit 0: every row answered; 1: some rows rejected; 2: could not run.`;
 
 class UsageError extends Error {}
@@ -109,6 +111,7 @@ async function batch(rest: string[]): Promise<number> {
   // reads of 1 MiB (four chunks): a read then rarely keeps a chunk waiting (at 256 KiB, one read per
   // chunk, the main thread waited 0.4-0.7 s for input in a 3.5 s run of 300,000 lines; at 1 MiB 0.06 s)
   const input = createReadStream(values.in, { highWaterMark: 1024 * 1024 });
+  const curveFolder = dirname(resolve(values.in));
   await new Promise<void>((resolve, reject) => {
     input.once("open", () => resolve());
     input.once("error", reject);
@@ -157,6 +160,7 @@ async function batch(rest: string[]): Promise<number> {
           ctx: { catalog, ruleSets },
           procedure: values.procedure,
           shard,
+          curveFolder,
           pool,
           onProgress: (c) => p.tick(c),
           reports,

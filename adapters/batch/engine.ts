@@ -37,6 +37,8 @@ export interface StreamBatchOptions {
   readonly shard?: Shard | undefined;
   readonly pool?: ComputePool | undefined;
   readonly onProgress?: (counts: BatchCounts) => void;
+  /** the input file's folder: curve file references (`{ "csv": ... }`) are read from it (absent: refused by the contracts) */
+  readonly curveFolder?: string | undefined;
   /** input bytes per chunk (default 256 kB) */
   readonly chunkBytes?: number;
   /** reports: the procedures drawn, each with the input flag that asks for its chart data, and the hook that draws a row */
@@ -120,6 +122,7 @@ export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
     targetBytes: o.chunkBytes ?? 256 * 1024,
     procedure: o.procedure,
     shard: o.shard,
+    curveFolder: o.curveFolder,
   })[Symbol.asyncIterator]();
   const pumpRead = () => {
     if (reading || readDone || failure !== undefined || slots.length >= window) return;

@@ -1,15 +1,20 @@
 import { createHash } from "node:crypto";
 import { readFileSync } from "node:fs";
+import { dirname } from "node:path";
 import type { CatalogPart, PartsCatalog } from "../../api/context.js";
 import { catalogFile } from "../../contracts/catalog.js";
 import { issuesOf, pathText } from "../../contracts/zod-messages.js";
 import { canonicalJson } from "../../domain/rules/rule-set-hash.js";
+import { resolveCurveFiles } from "../curves/curve-files.js";
 
 export class CatalogLoadError extends Error {
   override name = "CatalogLoadError";
 }
 
-/** Load and validate a parts catalog file (JSON); a bad entry stops the load, naming it. */
+/**
+ * Load and validate a parts catalog file (JSON); a bad entry stops the load, naming it. A curve
+ * given as a CSV file (`{ "csv": "curves/vf.csv" }`) is read from the catalog's folder first.
+ */
 export function loadCatalogFile(path: string): PartsCatalog {
   let raw: unknown;
   try {
@@ -17,7 +22,14 @@ export function loadCatalogFile(path: string): PartsCatalog {
   } catch (e) {
     throw new CatalogLoadError(`cannot read the parts catalog ${path}: ${(e as Error).message}`);
   }
-  const parsed = catalogFile.safeParse(raw);
+  const curves = resolveCurveFiles(raw, { baseDir: dirname(path), root: dirname(path) });
+  if (!curves.ok) {
+    const first = curves.problems[0];
+    throw new CatalogLoadError(
+      `parts catalog ${path} is invalid at ${first ? pathText(first.path) : "?"}: ${first?.message ?? ""}`,
+    );
+  }
+  const parsed = catalogFile.safeParse(curves.value);
   if (!parsed.success) {
     const first = issuesOf(parsed.error.issues)[0];
     throw new CatalogLoadError(

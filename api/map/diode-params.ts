@@ -38,7 +38,12 @@ function pushLawDefaults(
   egFitted: boolean,
 ): void {
   const defaults = JUNCTION_DEFAULTS[junction];
-  if (spec.vfTempCoVPerK !== undefined || (spec.energyGapEv !== undefined && spec.saturationTempExponent !== undefined))
+  const linear = spec.model === "points" && spec.temperatureLaw === "linear";
+  if (
+    linear ||
+    spec.vfTempCoVPerK !== undefined ||
+    (spec.energyGapEv !== undefined && spec.saturationTempExponent !== undefined)
+  )
     return;
   const kind = junction === "pn" ? "PN" : "Schottky";
   if (egFitted) {
@@ -87,6 +92,7 @@ export function fitDiodePoints(
       saturationTempExponent: spec.saturationTempExponent ?? defaults.saturationTempExponent,
       nominalTempK: DEFAULT_NOMINAL_TEMP_K,
       fitEnergyGap: spec.energyGapEv === undefined && spec.vfTempCoVPerK === undefined,
+      fitLinearTempCo: spec.temperatureLaw === "linear",
       ...(spec.vfTempCoVPerK === undefined ? {} : { linearTempCoVPerK: spec.vfTempCoVPerK }),
       ...(spec.seriesResistanceOhm === undefined ? {} : { seriesResistanceOhm: spec.seriesResistanceOhm }),
     },
@@ -103,13 +109,19 @@ export function fitDiodePoints(
       const p = spec.points[i];
       return p === undefined ? "" : `${p.currentA} A, ${p.voltageV} V, ${p.tempC ?? 25} °C`;
     };
-    const held = fit.fitted.includes("energyGapEv") ? "" : " (Eg held)";
+    const law = fit.fitted.includes("linearTempCoVPerK")
+      ? ", linear Vf temperature coefficient fitted"
+      : fit.fitted.includes("energyGapEv")
+        ? ", Eg fitted"
+        : spec.vfTempCoVPerK === undefined
+          ? " fitted (Eg held)"
+          : " fitted (linear Vf temperature coefficient held)";
     assumptions.push(
       gateFit(
         fit.quality,
         spec.acceptFit,
         [...path, "points"],
-        `${path.join(".")}: Is, n, Rs${held ? "" : ", Eg"} fitted${held}`,
+        `${path.join(".")}: Is, n, Rs${law}`,
         "V",
         spec.points.length,
         pt,

@@ -1,5 +1,5 @@
 import { TRPCError } from "@trpc/server";
-import { beyondBoundReason, describeFit, type FitQuality, withinBound } from "../../domain/fit/fit-quality.js";
+import { beyondBoundReason, describeFit, type FitQuality, fitPasses } from "../../domain/fit/fit-quality.js";
 import { InputProblem } from "../input-problem.js";
 
 /** A fit the points cannot give: one issue per offending point (or at the points when none is singled out). */
@@ -10,8 +10,8 @@ export function refusedFit(path: (string | number)[], message: string, points: r
 
 /**
  * The quality gate of a least-squares fit: beyond its bound it is refused, naming the worst point
- * and its residual, unless the caller accepts it (acceptFit); either way the sentence for the
- * result's `assumptions` comes back.
+ * and its residual, and so is a fit whose solver stopped at its iteration cap, unless the caller
+ * accepts it (acceptFit); either way the sentence for the result's `assumptions` comes back.
  */
 export function gateFit(
   q: FitQuality,
@@ -22,7 +22,7 @@ export function gateFit(
   points: number,
   describePoint: (i: number) => string,
 ): string {
-  if (!withinBound(q) && accept !== true)
+  if (!fitPasses(q) && accept !== true)
     throw refusedFit(path, `${what}: ${beyondBoundReason(q, unit, describePoint)}`, [q.worstIndex]);
   return describeFit(what, q, unit, points);
 }

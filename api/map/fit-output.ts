@@ -27,6 +27,8 @@ function qualityOf(q: FitQuality, unit: string): FitOutput["quality"] {
     worstFraction: q.worstFraction,
     boundFraction: q.boundFraction,
     withinBound: withinBound(q),
+    converged: q.converged,
+    iterations: q.iterations,
   };
 }
 
@@ -62,7 +64,7 @@ export function diodeForwardFit(input: Parsed<"diode-forward">, assumptions: str
             param("energyGapEv", p.energyGapEv, "eV", has("energyGapEv"), se.energyGapEv),
             param("saturationTempExponent", p.saturationTempExponent, "1", false),
           ]
-        : [param("vfTempCoVPerK", linear, "V/K", false)]),
+        : [param("vfTempCoVPerK", linear, "V/K", has("linearTempCoVPerK"), se.linearTempCoVPerK)]),
     ],
     model: {
       model: "shockley",

@@ -1,7 +1,9 @@
 /**
  * How well a fitted model reproduces the points it came from, in the curve's own unit: the RMS
  * of the residuals (model − point), and the worst point, judged by its residual as a share of the
- * point's value (the gates are stated as shares: 2 % of Vf, 5 % of Rds(on), 5 % of Zth).
+ * point's value (the gates are stated as shares: 2 % of Vf, 5 % of Rds(on), 5 % of Zth); and
+ * whether the solver converged or stopped at its iteration cap (least-squares.ts), its parameters
+ * then being wherever the last step left them.
  */
 export interface FitQuality {
   /** Root mean square of model − point, in the curve's unit. */
@@ -14,12 +16,23 @@ export interface FitQuality {
   readonly worstFraction: number;
   /** The stated bound on worstFraction. */
   readonly boundFraction: number;
+  /** False when the solver stopped at its iteration cap before converging. */
+  readonly converged: boolean;
+  /** Iterations the solver took. */
+  readonly iterations: number;
+}
+
+/** What the solver says of its own run (least-squares.ts's `converged` and `iterations`). */
+export interface SolverRun {
+  readonly converged: boolean;
+  readonly iterations: number;
 }
 
 export function fitQuality(
   modelled: readonly number[],
   measured: readonly number[],
   boundFraction: number,
+  run: SolverRun,
 ): FitQuality {
   let ss = 0;
   let worstIndex = 0;
@@ -40,10 +53,18 @@ export function fitQuality(
     worst,
     worstFraction: Math.max(worstFraction, 0),
     boundFraction,
+    converged: run.converged,
+    iterations: run.iterations,
   };
 }
 
 export const withinBound = (q: FitQuality): boolean => q.worstFraction <= q.boundFraction;
+
+/** A fit the gate passes without the caller's acceptance: converged, and its worst residual within the bound. */
+export const fitPasses = (q: FitQuality): boolean => q.converged && withinBound(q);
+
+const CAPPED = (q: FitQuality) =>
+  `the solver stopped at its iteration cap (${q.iterations} iterations) before converging`;
 
 /** The sentence a result's `assumptions` carries for a fit: what was fitted and how well. */
 export function describeFit(what: string, q: FitQuality, unit: string, points: number): string {
@@ -51,17 +72,27 @@ export function describeFit(what: string, q: FitQuality, unit: string, points: n
   return (
     `${what}: least-squares fit to ${points} points, RMS residual ${q.rms.toPrecision(3)} ${unit}, worst ${q.worst.toPrecision(3)} ${unit} ` +
     `(${pct(q.worstFraction)}) at point ${q.worstIndex}` +
-    (withinBound(q)
-      ? ` (bound ${pct(q.boundFraction)})`
-      : `, beyond the ${pct(q.boundFraction)} bound: accepted by the caller (acceptFit)`)
+    (withinBound(q) ? ` (bound ${pct(q.boundFraction)})` : `, beyond the ${pct(q.boundFraction)} bound`) +
+    (q.converged ? "" : `; ${CAPPED(q)}`) +
+    (fitPasses(q) ? "" : ": accepted by the caller (acceptFit)")
   );
 }
 
-/** Why a fit beyond its bound is refused: the point, its residual and the bound. */
+/**
+ * Why a fit the gate does not pass is refused: the point, its residual and the bound; or, within
+ * the bound, that the solver stopped at its cap (the parameters are not a converged minimum).
+ */
 export function beyondBoundReason(q: FitQuality, unit: string, describePoint: (i: number) => string): string {
+  if (withinBound(q))
+    return (
+      `${CAPPED(q)}, so its parameters are not a converged least-squares solution ` +
+      `(worst residual ${q.worst.toPrecision(3)} ${unit} at point ${q.worstIndex}); ` +
+      "check the points (fewer stages or parameters may converge), or set acceptFit: true to use the fit as it is"
+    );
   return (
     `the fit misses point ${q.worstIndex} (${describePoint(q.worstIndex)}) by ${q.worst.toPrecision(3)} ${unit} ` +
-    `(${(100 * q.worstFraction).toPrecision(3)} %), beyond the ${(100 * q.boundFraction).toPrecision(3)} % bound; ` +
+    `(${(100 * q.worstFraction).toPrecision(3)} %), beyond the ${(100 * q.boundFraction).toPrecision(3)} % bound` +
+    (q.converged ? "; " : ` (and ${CAPPED(q)}); `) +
     "check the points, or set acceptFit: true to use the fit as it is"
   );
 }

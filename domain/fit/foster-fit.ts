@@ -1,6 +1,6 @@
 import { type FosterTerm, zthKPerW } from "../physics/foster.js";
 import { type CurveFit, firstFall, refuse } from "./curve-fit.js";
-import { type FitQuality, fitQuality } from "./fit-quality.js";
+import { type FitQuality, fitPasses, fitQuality, type SolverRun } from "./fit-quality.js";
 import { leastSquares } from "./least-squares.js";
 
 export interface ZthPoint {
@@ -13,7 +13,7 @@ export const ZTH_FIT_BOUND = 0.05;
 export const MAX_FOSTER_STAGES = 5;
 
 export interface FosterFitOptions {
-  /** Number of stages, 1..5; absent: the fewest that meet the 5 % bound (else the best of 1..5). */
+  /** Number of stages, 1..5; absent: the fewest whose fit converges within the 5 % bound (else the best of 1..5). */
   readonly stages?: number;
   /** The steady value ΣR must equal, K/W (the datasheet's Rth); absent: ΣR is fitted freely. */
   readonly steadyKPerW?: number;
@@ -65,7 +65,7 @@ export function fitFoster(points: readonly ZthPoint[], opts: FosterFitOptions = 
     const fit = fitStages(points, k, s);
     if (fit === undefined) continue;
     if (best === undefined || fit.quality.worstFraction < best.quality.worstFraction) best = fit;
-    if (opts.stages === undefined && fit.quality.worstFraction <= ZTH_FIT_BOUND) return fit;
+    if (opts.stages === undefined && fitPasses(fit.quality)) return fit;
   }
   return best ?? refuse("the Foster fit did not reach a finite solution");
 }
@@ -97,7 +97,7 @@ function fitStages(
     ...new Array<number>(k).fill(LN_TAU[1]),
     ...new Array<number>(steady === undefined ? k : k - 1).fill(steady === undefined ? Math.log(1e4) : 40),
   ];
-  let best: { u: readonly number[]; ssr: number } | undefined;
+  let best: { u: readonly number[]; ssr: number; run: SolverRun } | undefined;
   for (const widen of [1, 3, 1 / 3]) {
     const lo = Math.log(tMin / widen);
     const hi = Math.log(tMax * widen);
@@ -108,7 +108,7 @@ function fitStages(
         : [...lnTaus, ...new Array<number>(k - 1).fill(0)];
     const sol = leastSquares({ residuals, start, lower, upper, maxIterations: 150 });
     if (sol.outcome !== "solved" || !Number.isFinite(sol.sumSquares)) continue;
-    if (best === undefined || sol.sumSquares < best.ssr) best = { u: sol.params, ssr: sol.sumSquares };
+    if (best === undefined || sol.sumSquares < best.ssr) best = { u: sol.params, ssr: sol.sumSquares, run: sol };
   }
   if (best === undefined) return undefined;
   const net = terms(best.u).sort((a, b) => a.tauS - b.tauS);
@@ -117,6 +117,7 @@ function fitStages(
     modelled,
     points.map((p) => p.zthKPerW),
     ZTH_FIT_BOUND,
+    best.run,
   );
   // Standard errors of single terms of a sum of exponentials are not meaningful (the terms trade
   // off against each other); the fit states its residuals instead.

@@ -104,6 +104,7 @@ export function fitLeakage(points: readonly LeakagePointTV[]): CurveFit<LeakageL
       modelled,
       points.map((p) => p.currentA),
       LEAKAGE_FIT_BOUND,
+      sol,
     ),
     modelled,
   };

@@ -70,6 +70,7 @@ export function fitRdsTemperature(
       modelled,
       points.map((p) => p.value),
       RDS_FIT_BOUND,
+      sol,
     ),
     modelled,
   };

@@ -23,7 +23,15 @@ export interface DiodeFitOptions {
    * passes false where Eg or a linear coefficient was given.
    */
   readonly fitEnergyGap?: boolean;
+  /**
+   * Fit a linear Vf temperature coefficient (the linear law of diode.ts) instead of holding the
+   * Eg/XTI law: needs four points or more over two temperatures or more; linearTempCoVPerK absent.
+   */
+  readonly fitLinearTempCo?: boolean;
 }
+
+/** The bounds of a fitted linear Vf temperature coefficient, V/K (those the diode contract holds a given one to). */
+export const LINEAR_TEMP_CO_BOUNDS_V_PER_K = [-0.05, 0.05] as const;
 
 /** The bound on a forward fit's worst residual: 2 % of the point's Vf (issue 23's gate). */
 export const VF_FIT_BOUND = 0.02;
@@ -36,14 +44,21 @@ export type DiodeFitResult =
       /** True when the points determine the parameters exactly (two or three points). */
       readonly exact: boolean;
       /** Which parameters were fitted (the others held). */
-      readonly fitted: readonly ("saturationCurrentA" | "ideality" | "seriesResistanceOhm" | "energyGapEv")[];
+      readonly fitted: readonly (
+        | "saturationCurrentA"
+        | "ideality"
+        | "seriesResistanceOhm"
+        | "energyGapEv"
+        | "linearTempCoVPerK"
+      )[];
       readonly quality: FitQuality;
-      /** Standard errors (least-squares fits only): ln Is (a relative error of Is), n, Rs in ohm, Eg in eV. */
+      /** Standard errors (least-squares fits only): ln Is (a relative error of Is), n, Rs in ohm, Eg in eV, the linear coefficient in V/K. */
       readonly standardErrors: {
         readonly lnSaturationCurrent?: number;
         readonly ideality?: number;
         readonly seriesResistanceOhm?: number;
         readonly energyGapEv?: number;
+        readonly linearTempCoVPerK?: number;
       };
       /** Modelled Vf at each point, in the caller's order. */
       readonly modelledV: readonly number[];
@@ -93,7 +108,10 @@ export function unfollowableForward(
  * Two points give Is and n (Rs held, default 0); three give Is, n and Rs, exactly (a square
  * system, solved by damped Newton in the fitting core, as this fit always was). Four or more give
  * Is, n, Rs by bounded least squares (Levenberg–Marquardt; n in 0.5..10, Rs in 0..1 kohm), and
- * Eg as well (XTI held, 0.1..5 eV) when they span two or more temperatures and opts.fitEnergyGap.
+ * Eg as well (XTI held, 0.1..5 eV) when they span two or more temperatures and opts.fitEnergyGap;
+ * or, with opts.fitLinearTempCo, the linear Vf temperature coefficient (−50..50 mV/K) in Eg's place,
+ * which needs four points or more over two temperatures or more (refused otherwise: one
+ * temperature says nothing of how Vf moves with it).
  * Points at other temperatures are carried through the SPICE Is(T) law (diode.ts). Refused: a
  * curve whose Vf does not rise with current (with the offending points), and exact fits that imply
  * a non-physical parameter (negative Rs, n outside 0.5..10). The 2 % gate is the caller's to apply
@@ -106,7 +124,14 @@ export function fitDiode(points: readonly ForwardPoint[], opts: DiodeFitOptions)
   const exact = points.length <= 3;
   const fitRs = points.length >= 3;
   const temps = new Set(points.map((p) => p.tempK));
-  const fitEg = !exact && temps.size >= 2 && opts.fitEnergyGap === true && opts.linearTempCoVPerK === undefined;
+  const fitTc = opts.fitLinearTempCo === true && opts.linearTempCoVPerK === undefined;
+  if (fitTc && (exact || temps.size < 2))
+    return fail(
+      `a linear Vf temperature coefficient is fitted from four points or more at two temperatures or more (${points.length} points at ${temps.size} temperature${temps.size === 1 ? "" : "s"} given): add points at another temperature, or give vfTempCoVPerK`,
+    );
+  const fitEg =
+    !fitTc && !exact && temps.size >= 2 && opts.fitEnergyGap === true && opts.linearTempCoVPerK === undefined;
+  const tcOf = (u: readonly number[]) => (fitTc ? (u[3] ?? 0) : opts.linearTempCoVPerK);
   // Exact fits sort the points by current (the order their Newton solve has always used).
   const order = exact ? [...points].sort((a, b) => a.currentA - b.currentA) : [...points];
   const p0 = [...points].sort((a, b) => a.currentA - b.currentA)[0];
@@ -120,7 +145,7 @@ export function fitDiode(points: readonly ForwardPoint[], opts: DiodeFitOptions)
     energyGapEv: fitEg ? (u[3] ?? opts.energyGapEv) : opts.energyGapEv,
     saturationTempExponent: opts.saturationTempExponent,
     nominalTempK: opts.nominalTempK,
-    ...(opts.linearTempCoVPerK === undefined ? {} : { linearTempCoVPerK: opts.linearTempCoVPerK }),
+    ...(tcOf(u) === undefined ? {} : { linearTempCoVPerK: tcOf(u) }),
   });
   const residuals = (u: readonly number[]): number[] => {
     const p = build(u);
@@ -136,13 +161,15 @@ export function fitDiode(points: readonly ForwardPoint[], opts: DiodeFitOptions)
   const start: number[] = [Math.log(p0.currentA) - p0.voltageV / (n0 * vt), n0];
   if (fitRs) start.push(0);
   if (fitEg) start.push(opts.energyGapEv);
+  // The linear coefficient starts at −2 mV/K (silicon's usual figure, memory), inside its bounds.
+  if (fitTc) start.push(-0.002);
   const free = Number.NEGATIVE_INFINITY;
   const sol = leastSquares({
     residuals,
     start,
     // Exact fits: n > 0.05 keeps the Newton trial points feasible (their only limit, as before).
-    lower: exact ? [free, 0.05, free] : [Math.log(1e-30), 0.5, 0, 0.1],
-    upper: exact ? [] : [0, 10, 1e3, 5],
+    lower: exact ? [free, 0.05, free] : [Math.log(1e-30), 0.5, 0, fitTc ? LINEAR_TEMP_CO_BOUNDS_V_PER_K[0] : 0.1],
+    upper: exact ? [] : [0, 10, 1e3, fitTc ? LINEAR_TEMP_CO_BOUNDS_V_PER_K[1] : 5],
   });
   if (sol.outcome !== "solved") return fail(sol.reason);
   const params = build(sol.params);
@@ -161,10 +188,9 @@ export function fitDiode(points: readonly ForwardPoint[], opts: DiodeFitOptions)
   }
   const modelledV = points.map((pt) => diodeVoltageV(params, pt.currentA, pt.tempK));
   const se = sol.standardErrors;
-  const fitted = (["saturationCurrentA", "ideality", "seriesResistanceOhm", "energyGapEv"] as const).slice(
-    0,
-    start.length,
-  );
+  const fitted = (
+    ["saturationCurrentA", "ideality", "seriesResistanceOhm", fitTc ? "linearTempCoVPerK" : "energyGapEv"] as const
+  ).slice(0, start.length);
   return {
     ok: true,
     params,
@@ -175,12 +201,13 @@ export function fitDiode(points: readonly ForwardPoint[], opts: DiodeFitOptions)
       modelledV,
       points.map((p) => p.voltageV),
       VF_FIT_BOUND,
+      sol,
     ),
     standardErrors: {
       ...(se[0] === undefined ? {} : { lnSaturationCurrent: se[0] }),
       ...(se[1] === undefined ? {} : { ideality: se[1] }),
       ...(se[2] === undefined ? {} : { seriesResistanceOhm: se[2] }),
-      ...(se[3] === undefined ? {} : { energyGapEv: se[3] }),
+      ...(se[3] === undefined ? {} : fitTc ? { linearTempCoVPerK: se[3] } : { energyGapEv: se[3] }),
     },
     modelledV,
   };

@@ -81,6 +81,28 @@ describe("bounded nonlinear least squares (the fitting core)", () => {
     expect(Math.abs((r.params[1] ?? 0) - 1)).toBeLessThan(1e-6);
   });
 
+  it("says when it stopped at its iteration cap, not converged (Rosenbrock's valley from (−1.2, 1) takes more than 5 steps)", () => {
+    const rosenbrock = (u: readonly number[]) => [
+      10 * ((u[1] ?? 0) - (u[0] ?? 0) ** 2),
+      1 - (u[0] ?? 0),
+      0.01 * ((u[0] ?? 0) - 1),
+    ];
+    const capped = leastSquares({
+      residuals: rosenbrock,
+      start: [-1.2, 1],
+      lower: free,
+      upper: none,
+      maxIterations: 5,
+    });
+    if (capped.outcome !== "solved") throw new Error(capped.outcome);
+    expect(capped.converged).toBe(false);
+    expect(capped.iterations).toBe(5);
+    const free_ = leastSquares({ residuals: rosenbrock, start: [-1.2, 1], lower: free, upper: none });
+    if (free_.outcome !== "solved") throw new Error(free_.outcome);
+    expect(free_.converged).toBe(true);
+    expect(free_.iterations).toBeLessThan(500);
+  });
+
   it("refuses fewer points than parameters, and a model not finite at the start", () => {
     expect(leastSquares({ residuals: () => [1], start: [0, 0], lower: free, upper: none }).outcome).toBe("singular");
     expect(leastSquares({ residuals: () => [Number.NaN, 1, 2], start: [0, 0], lower: free, upper: none }).outcome).toBe(
