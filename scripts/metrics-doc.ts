@@ -75,6 +75,7 @@ const RULE_HAZARDS: Readonly<Record<string, string>> = {
   "clamp-energy": "input clamp",
   "clamp-peak-current": "input clamp",
   "clamp-peak-power": "input clamp",
+  "clamp-train-tj": "input clamp (repeated pulses)",
   "start-at-min-supply": "start-up",
   "start-margin": "start-up",
   "start-at-profile-minimum": "start-up",

@@ -278,6 +278,23 @@ export const METRICS: readonly MetricDef[] = [
     providedBy: "review (transients, with requirement.inputClamp.peakPulsePowerW)",
   },
   {
+    name: "clampTrainTjC",
+    type: "number",
+    unit: "°C",
+    meaning:
+      "the design's input clamp junction at the end of the hottest test's pulse train (each pulse as a rectangle at its peak power carrying its energy, repeated at the test's interval and count, from the highest ambient, through the clamp's Foster network); the highest ambient when it conducts in no pulse",
+    stageKinds: "all",
+    providedBy: "review (transients, with requirement.inputClamp.thermal)",
+  },
+  {
+    name: "clampTjMaxC",
+    type: "number",
+    unit: "°C",
+    meaning: "the input clamp's maximum junction temperature",
+    stageKinds: "all",
+    providedBy: `${REQ} (inputClamp.tjMaxC, default 150 °C)`,
+  },
+  {
     name: "clampStandoffV",
     type: "number",
     unit: "V",
@@ -611,6 +628,8 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
   clampStandoffV: requirement,
   clampPeakPowerW: computed,
   clampPeakPowerAllowedW: computed,
+  clampTrainTjC: computed,
+  clampTjMaxC: requirement,
   jumpStartV: requirement,
   supplyOvervoltageV: requirement,
   startProfileMinV: requirement,

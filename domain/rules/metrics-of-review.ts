@@ -27,6 +27,7 @@ export const REVIEW_COMPUTES = [
   "clampPeakCurrentA",
   "clampPeakPowerW",
   "clampPeakPowerAllowedW",
+  "clampTrainTjC",
   "startProfileDropoutS",
   "peakReverseCurrentA",
   "absorbedEnergyJ",

@@ -51,6 +51,8 @@ export const ANALYSIS_ONLY_METRICS: Readonly<Record<string, readonly string[]>> 
     "clampPeakCurrentA",
     "clampPeakPowerW",
     "clampPeakPowerAllowedW",
+    "clampTrainTjC",
+    "clampTjMaxC",
     "clampStandoffV",
     "clampEnergyRatingJ",
     "clampPeakCurrentRatingA",

@@ -144,6 +144,12 @@ const req48: Obj = {
 const review = (requirement: Obj, stage: Obj): Obj => ({ requirement, candidates: [{ stage }] });
 /** A bidirectional TVS-like input clamp: stand-off above jump start, clamping below the parts' ratings. */
 const clamp = (o: Obj = {}): Obj => ({ standoffV: 26, clampV: 40, peakCurrentA: 100, energyJ: 100, ...o });
+/** A clamp's junction-to-ambient Foster network (invented): a fast die, a package, and its mounting's slow tail. */
+const clampNetwork = (mountingKPerW: number): Obj[] => [
+  { rKPerW: 0.05, tauS: 1e-3 },
+  { rKPerW: 0.5, tauS: 0.05 },
+  { rKPerW: mountingKPerW, tauS: 60 },
+];
 const crank: Obj[] = [
   { timeS: 0, voltageV: 12 },
   { timeS: 0.005, voltageV: 4.5 },
@@ -429,6 +435,33 @@ export const KNOWN_BAD: readonly KnownBad[] = [
         ...req12,
         transients: ["iso7637-2-pulse-2a"],
         inputClamp: clamp({ breakdownV: 28, peakCurrentA: 60, peakPulsePowerW: 600, tjMaxC: 150 }),
+      },
+      idealDiode(),
+    ),
+  },
+  {
+    id: "clamp-hot-over-pulse-1-train",
+    hazard: "clamp",
+    // Closed forms (clamp-energy.ts, clamp-train.ts): pulse 1 (−150 V, 10 ohm, td 2 ms) into a 30 V clamp, about
+    // 0.19 J and 360 W a pulse, 500 pulses 0.5 s apart (0.37 W on average for 250 s) from 85 degC: through a 200 K/W,
+    // 60 s tail about 74 K of rise (mean power times R times 1 − e^(−250/60)), through a 100 K/W one about 37 K,
+    // plus about 9 K of the last pulse in the fast terms.
+    why: "an input clamp well within its 100 J single-pulse rating reaches about 170 degC over ISO 7637-2 pulse 1's 500-pulse train on a 200 K/W mounting; on a 100 K/W one it stays near 130 degC",
+    procedure: "review",
+    rule: "clamp-train-tj",
+    bad: review(
+      {
+        ...req12,
+        transients: ["iso7637-2-pulse-1-12v"],
+        inputClamp: clamp({ clampV: 30, thermal: clampNetwork(200) }),
+      },
+      idealDiode(),
+    ),
+    twin: review(
+      {
+        ...req12,
+        transients: ["iso7637-2-pulse-1-12v"],
+        inputClamp: clamp({ clampV: 30, thermal: clampNetwork(100) }),
       },
       idealDiode(),
     ),

@@ -209,6 +209,11 @@ const DEFAULT: Record<string, RuleCases> = {
     violate: v("fail", p("nfet-ideal-diode", { clampPeakCurrentA: 43, clampPeakCurrentRatingA: 30 }, {}, 30, -13)),
     off: p("pn-diode", { clampPeakCurrentA: 0, clampPeakCurrentRatingA: 30 }, {}),
   },
+  // The clamp's junction at the end of its hottest pulse train against its Tj(max) 150 °C.
+  "clamp-train-tj": {
+    pass: p("schottky-diode", { clampTrainTjC: 138, clampTjMaxC: 150 }, {}, 150, 12),
+    violate: v("fail", p("nfet-ideal-diode", { clampTrainTjC: 153, clampTjMaxC: 150 }, {}, 150, -3)),
+  },
   "clamp-peak-power": {
     pass: p("schottky-diode", { clampPeakPowerW: 2500, clampPeakPowerAllowedW: 3000 }, {}, 3000, 500),
     violate: v("fail", p("nfet-ideal-diode", { clampPeakPowerW: 3400, clampPeakPowerAllowedW: 3000 }, {}, 3000, -400)),
@@ -413,6 +418,11 @@ const VEHICLE: Record<string, RuleCases> = {
     off: p("pn-diode", { clampPeakCurrentA: 0, clampPeakCurrentRatingA: 30 }, {}),
   },
   // 0.8 · 3000 W = 2400 W.
+  // 10 K below the clamp's 150 °C Tj(max): 140 °C.
+  "clamp-train-tj": {
+    pass: p("schottky-diode", { clampTrainTjC: 135, clampTjMaxC: 150 }, {}, 140, 5),
+    violate: v("fail", p("pfet-high-side", { clampTrainTjC: 145, clampTjMaxC: 150 }, {}, 140, -5)),
+  },
   "clamp-peak-power": {
     pass: p("schottky-diode", { clampPeakPowerW: 2000, clampPeakPowerAllowedW: 3000 }, {}, 2400, 400),
     violate: v("fail", p("nfet-ideal-diode", { clampPeakPowerW: 2500, clampPeakPowerAllowedW: 3000 }, {}, 2400, -100)),
