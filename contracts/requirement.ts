@@ -5,6 +5,9 @@ import { quantity, ratio, temperatureC } from "./quantity.js";
 import {
   holdUpCapacitor,
   inductiveClampField,
+  inputAfterField,
+  loadReverseLimitField,
+  pfetGateLag,
   repetitiveEvent,
   reverseLoop,
   reverseRecoveryChargeField,
@@ -70,10 +73,9 @@ export const reviewTurnOff = z
   .strictObject({
     loop: reverseLoop,
     capacitor: holdUpCapacitor,
-    inputAfterV: quantity("V", "input from t = 0 on: 0 for a short (default), or the lower voltage it steps to", {
-      ge: 0,
-      le: 10_000,
-    }).optional(),
+    inputAfterV: inputAfterField.optional(),
+    gateLag: pfetGateLag.optional(),
+    loadReverseLimitV: loadReverseLimitField,
     outputV: quantity("V", "output voltage before the event (default: the nominal supply)", {
       gt: 0,
       le: 10_000,

@@ -85,6 +85,7 @@ const RULE_HAZARDS: Readonly<Record<string, string>> = {
   "reverse-current-budget": "reverse current",
   "battery-back-drain": "reverse current",
   "avalanche-energy": "turn-off (avalanche)",
+  "load-reverse-voltage": "turn-off (reverse voltage at the load)",
   "avalanche-energy-margin": "turn-off (avalanche)",
   "avalanche-current": "turn-off (avalanche)",
   "avalanche-energy-repetitive": "turn-off (avalanche)",

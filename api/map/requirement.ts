@@ -316,6 +316,10 @@ function reviewTurnOffOf(
       "turnOff.clampV: the blocking element's rated voltage (a lower bound of its breakdown: the energy estimate is conservative)",
     );
   if (t.repetitive === undefined) assumptions.push(ONE_OFF_EVENT("turnOff.repetitive"));
+  if (t.gateLag === undefined)
+    assumptions.push(
+      "turnOff.gateLag: not given, so a P-FET candidate's gate follows the output at once (no gate resistor lag): the least reverse voltage at the load",
+    );
   const outputV = t.outputV ?? nominalV;
   const inputAfterV = t.inputAfterV ?? 0;
   if (!(inputAfterV < outputV))
@@ -335,5 +339,9 @@ function reviewTurnOffOf(
     ...(t.reverseRecoveryChargeC === undefined ? {} : { reverseRecoveryChargeC: t.reverseRecoveryChargeC }),
     ...(t.clampV === undefined ? {} : { clampV: t.clampV }),
     repetitive: t.repetitive ?? false,
+    ...(t.gateLag === undefined
+      ? {}
+      : { gateLagS: (t.gateLag.resistanceOhm * t.gateLag.gateChargeC) / t.gateLag.atGateSourceV }),
+    ...(t.loadReverseLimitV === undefined ? {} : { loadReverseLimitV: t.loadReverseLimitV }),
   };
 }

@@ -19,6 +19,10 @@ export interface ReviewTurnOff {
   readonly clampV?: number;
   /** The event repeats in service (its energy is held to the repetitive avalanche rating too). */
   readonly repetitive: boolean;
+  /** A P-FET candidate's gate lag, s (pfet-gate-off.ts). */
+  readonly gateLagS?: number;
+  /** The largest reverse voltage the load tolerates (magnitude), V. */
+  readonly loadReverseLimitV?: number;
 }
 
 export interface ReviewTurnOffResult {
@@ -26,6 +30,8 @@ export interface ReviewTurnOffResult {
   readonly tjSource: "given" | "worst-corner" | "highest-ambient";
   readonly repetitive: boolean;
   readonly avalancheRatingJ?: number;
+  /** The load's reverse-voltage limit the requirement states, V. */
+  readonly loadReverseLimitV?: number;
   readonly result: TurnOffOutcome;
   readonly waveform?: TurnOffWaveform;
 }
@@ -65,6 +71,7 @@ export function reviewTurnOff(
     ...(t.reverseRecoveryChargeC === undefined ? {} : { reverseRecoveryChargeC: t.reverseRecoveryChargeC }),
     ...(t.clampV === undefined ? {} : { clampV: t.clampV }),
     ...(avalancheRatingJ === undefined ? {} : { avalancheRatingJ }),
+    ...(t.gateLagS === undefined || cand.stage.kind !== "pfet-high-side" ? {} : { gateLagS: t.gateLagS }),
   };
   const result = turnOffEvent(model);
   const waveform = cand.turnOffWaveform ? turnOffWaveform(model, result) : undefined;
@@ -73,6 +80,7 @@ export function reviewTurnOff(
     tjSource,
     repetitive: t.repetitive,
     ...(avalancheRatingJ === undefined ? {} : { avalancheRatingJ }),
+    ...(t.loadReverseLimitV === undefined ? {} : { loadReverseLimitV: t.loadReverseLimitV }),
     result,
     ...(waveform ? { waveform } : {}),
   };

@@ -355,6 +355,23 @@ export const METRICS: readonly MetricDef[] = [
     providedBy: "turnOff",
   },
   {
+    name: "loadReverseVMaxV",
+    type: "number",
+    unit: "V",
+    meaning:
+      "reverse voltage the output (the load's input) reaches during the turn-off event, magnitude: minus the output's lowest voltage, 0 when it stays at or above 0 V (a negative input pulling it below through a P-FET channel still on)",
+    stageKinds: "all",
+    providedBy: "turnOff",
+  },
+  {
+    name: "loadReverseLimitV",
+    type: "number",
+    unit: "V",
+    meaning: "the largest reverse voltage the load tolerates at its input (magnitude)",
+    stageKinds: "all",
+    providedBy: `${REQ} (turnOff.loadReverseLimitV; the turnOff analysis's loadReverseLimitV)`,
+  },
+  {
     name: "eventTjC",
     type: "number",
     unit: "°C",
@@ -643,6 +660,8 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
     },
   },
   absorbedEnergyJ: computed,
+  loadReverseVMaxV: computed,
+  loadReverseLimitV: requirement,
   eventTjC: {
     role: "computed",
     notAssessed: {

@@ -144,6 +144,19 @@ const req48: Obj = {
 const review = (requirement: Obj, stage: Obj): Obj => ({ requirement, candidates: [{ stage }] });
 /** A bidirectional TVS-like input clamp: stand-off above jump start, clamping below the parts' ratings. */
 const clamp = (o: Obj = {}): Obj => ({ standoffV: 26, clampV: 40, peakCurrentA: 100, energyJ: 100, ...o });
+/** A P-FET's output at a −14 V input, its gate to ground through the given resistor (30 nC at 10 V). */
+const pfetNegativeInput = (gateResistor: string): Obj => ({
+  stage: pfet({ avalancheCurrentA: "400 A" }),
+  outputV: "12 V",
+  inputAfterV: "-14 V",
+  gateLag: { resistanceOhm: gateResistor, gateChargeC: "30 nC", atGateSourceV: "10 V" },
+  loop: { resistanceOhm: "40 mOhm", inductanceH: "1 uH" },
+  capacitor: { capacitanceF: "1000 uF", esrOhm: "10 mOhm" },
+  load: { kind: "constant-current", currentA: 1 },
+  loadMinV: "8 V",
+  tjC: "25 degC",
+  loadReverseLimitV: "0.5 V",
+});
 /** A clamp's junction-to-ambient Foster network (invented): a fast die, a package, and its mounting's slow tail. */
 const clampNetwork = (mountingKPerW: number): Obj[] => [
   { rKPerW: 0.05, tauS: 1e-3 },
@@ -622,6 +635,20 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     rule: "hold-up-time",
     bad: holdUp("20 ms"),
     twin: holdUp("1 ms"),
+  },
+  {
+    id: "pfet-gate-resistor-lets-output-go-negative",
+    hazard: "turn-off",
+    // Closed form (rlc-series.ts) with the gate lag of pfet-gate-off.ts: −14 V held at the input, 1000 uF through
+    // 52 mOhm of loop and channel (and 10 mOhm ESR) discharges with R·C ≈ 62 us; a 10 kOhm / 30 nC (at 10 V) gate
+    // lags by 30 us, so the channel is still on when the output crosses 0 V and lets go at about −5 V (59 us); a
+    // 100 ohm gate resistor (0.3 us) lets go near its 2 V threshold (32 us). Both draw about 310 A back at first
+    // (the P-FET's IAS is given as 400 A, invented).
+    why: "a P-FET whose gate is tied to ground through 10 kOhm stays on while a −14 V input pulls the output capacitor to about −5 V, beyond the 0.5 V reverse voltage the load tolerates; through 100 ohm the channel lets go near its threshold",
+    procedure: "turnOff",
+    rule: "load-reverse-voltage",
+    bad: pfetNegativeInput("10 kOhm"),
+    twin: pfetNegativeInput("100 Ohm"),
   },
   {
     id: "bridge-element-peak-over-ifrm",

@@ -116,6 +116,11 @@ const DEFAULT: Record<string, RuleCases> = {
     violate: v("fail", p("schottky-diode", { lossWorstW: 1.5, lossBudgetW: 1 }, {}, 1, -0.5)),
   },
   // Avalanche: EAS 100 mJ at 25 °C, Tj(max) 175 °C, event at 85 °C → derated 0.1·(175 − 85)/(175 − 25) = 0.06 J.
+  // The output pulled to −1.2 V against a load that tolerates 0.5 V reversed.
+  "load-reverse-voltage": {
+    pass: p("pfet-high-side", { loadReverseVMaxV: 0.3, loadReverseLimitV: 0.5 }, {}, 0.5, 0.2),
+    violate: v("fail", p("pfet-high-side", { loadReverseVMaxV: 1.2, loadReverseLimitV: 0.5 }, {}, 0.5, -0.7)),
+  },
   "avalanche-energy": {
     pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.05, avalancheEnergyAtTjJ: AT_85C }, {}, 0.06, 0.01),
     violate: v("fail", p("nfet-ideal-diode", { absorbedEnergyJ: 0.07, avalancheEnergyAtTjJ: AT_85C }, {}, 0.06, -0.01)),
