@@ -113,4 +113,36 @@ describe("review with a turn-off section", () => {
     expect(e.waveform?.timeS.length).toBeGreaterThanOrEqual(399);
     expect(Math.max(...(e.waveform?.currentA ?? []).map((i) => -i))).toBe(e.peakReverseCurrentA);
   });
+
+  it("a negative input with a gate-resistor lag: the P-FET candidate's output goes below 0 V, as the turnOff procedure finds, and fails the load's reverse limit", async () => {
+    if (review === undefined || turnOff === undefined) throw new Error("procedures missing");
+    const gateLag = { resistanceOhm: "10 kOhm", gateChargeC: "30 nC", atGateSourceV: "10 V" };
+    const requirement = {
+      ...example.requirement,
+      turnOff: { ...example.requirement.turnOff, inputAfterV: "-14 V", gateLag, loadReverseLimitV: "0.5 V" },
+    };
+    const pfet = { kind: "catalog-part", partId: "demo-pfet-40v-12mohm" };
+    const r = reviewOutput.parse(await review({ requirement, candidates: [{ stage: pfet }] }));
+    const c = r.candidates[0];
+    const e = c?.turnOff?.event;
+    if (c === undefined || e === undefined || e.outcome !== "does-not-block") throw new Error("no drain-back event");
+    const direct = turnOffOutput.parse(
+      await turnOff({
+        stage: pfet,
+        outputV: r.requirement.supplyNominalV,
+        inputAfterV: -14,
+        gateLag,
+        loop: example.requirement.turnOff.loop,
+        capacitor: example.requirement.turnOff.capacitor,
+        load: example.requirement.load,
+        loadMinV: example.requirement.loadMinV,
+        tjC: c.turnOff?.tjC ?? 0,
+      }),
+    );
+    if (direct.outcome !== "does-not-block") throw new Error(direct.outcome);
+    expect(e.gateTurnOff?.outputMinV).toBe(direct.gateTurnOff?.outputMinV);
+    expect(e.outputMinV).toBeLessThan(-0.5);
+    expect(c.metrics["loadReverseVMaxV"]).toBe(-e.outputMinV);
+    expect(c.rules.verdicts.find((v) => v.ruleId === "load-reverse-voltage")?.outcome).toBe("fail");
+  });
 });
