@@ -87,6 +87,10 @@ export const reviewTurnOff = z
     reverseRecoveryChargeC: reverseRecoveryChargeField,
     clampV: inductiveClampField,
     repetitive: repetitiveEvent,
+    repetition: pulseRepetition.optional().meta({
+      description:
+        "how often the event repeats in service or test (interval and count): with the candidate's transientThermal network, the blocking element's junction at the end of the train (rule turn-off-train-tj)",
+    }),
   })
   .meta({
     description:

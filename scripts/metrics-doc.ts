@@ -86,6 +86,7 @@ const RULE_HAZARDS: Readonly<Record<string, string>> = {
   "battery-back-drain": "reverse current",
   "avalanche-energy": "turn-off (avalanche)",
   "load-reverse-voltage": "turn-off (reverse voltage at the load)",
+  "turn-off-train-tj": "turn-off (repeated events)",
   "avalanche-energy-margin": "turn-off (avalanche)",
   "avalanche-current": "turn-off (avalanche)",
   "avalanche-energy-repetitive": "turn-off (avalanche)",

@@ -343,5 +343,6 @@ function reviewTurnOffOf(
       ? {}
       : { gateLagS: (t.gateLag.resistanceOhm * t.gateLag.gateChargeC) / t.gateLag.atGateSourceV }),
     ...(t.loadReverseLimitV === undefined ? {} : { loadReverseLimitV: t.loadReverseLimitV }),
+    ...(t.repetition === undefined ? {} : { repetition: t.repetition }),
   };
 }

@@ -372,6 +372,15 @@ export const METRICS: readonly MetricDef[] = [
     providedBy: `${REQ} (turnOff.loadReverseLimitV; the turnOff analysis's loadReverseLimitV)`,
   },
   {
+    name: "eventTrainTjC",
+    type: "number",
+    unit: "°C",
+    meaning:
+      "the blocking element's junction at the end of the review's repeated turn-off events (turnOff.repetition): each clamp phase as a rectangle at its peak power Vcl·I carrying its absorbed energy, repeated at the interval and count, from the event's Tj, through the candidate's Foster network",
+    stageKinds: "all",
+    providedBy: "review (requirement.turnOff.repetition, with the candidate's transientThermal)",
+  },
+  {
     name: "eventTjC",
     type: "number",
     unit: "°C",
@@ -661,6 +670,7 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
   },
   absorbedEnergyJ: computed,
   loadReverseVMaxV: computed,
+  eventTrainTjC: computed,
   loadReverseLimitV: requirement,
   eventTjC: {
     role: "computed",

@@ -34,6 +34,7 @@ export const REVIEW_COMPUTES = [
   "eventTjC",
   "avalancheEnergyAtTjJ",
   "loadReverseVMaxV",
+  "eventTrainTjC",
   "vdsBreakdownColdV",
 ] as const;
 
@@ -148,4 +149,11 @@ function turnOffMetrics(
     "the stage gives no avalanche energy rating (the part's avalancheEnergyJ)",
   );
   putEventFigures(t.result, t.loadReverseLimitV, { metrics, unavailable, notRequired }, "turn-off event ");
+  const train = t.train;
+  if (train === undefined)
+    notRequired["eventTrainTjC"] = t.repetition
+      ? "the candidate gives no transient thermal network (transientThermal) or the event has no response: the train is not assessed"
+      : "the requirement's turn-off event states no repetition (turnOff.repetition)";
+  else if (train.outcome === "overlapping") unavailable["eventTrainTjC"] = `turn-off event train: ${train.reason}`;
+  else metrics["eventTrainTjC"] = train.trainTjC;
 }

@@ -62,6 +62,7 @@ export const ANALYSIS_ONLY_METRICS: Readonly<Record<string, readonly string[]>> 
     "startProfileMinV",
     "startProfileDropoutS",
     "vdsBreakdownColdV",
+    "eventTrainTjC",
   ],
   turnOff: [
     "peakReverseCurrentA",

@@ -145,4 +145,48 @@ describe("review with a turn-off section", () => {
     expect(c.metrics["loadReverseVMaxV"]).toBe(-e.outputMinV);
     expect(c.rules.verdicts.find((v) => v.ruleId === "load-reverse-voltage")?.outcome).toBe("fail");
   });
+
+  it("a repeated event: the blocking element's junction over the train is the closed form of clamp-train.ts on the event's clamp phase", async () => {
+    if (review === undefined) throw new Error("review missing");
+    const candidate = (example.candidates as { stage: { partId?: string } }[]).find(
+      (c) => c.stage.partId === "demo-ideal-diode-60v-3mohm",
+    );
+    const run = async (repetition: { periodS: number; count: number }) => {
+      const r = reviewOutput.parse(
+        await review({
+          ...example,
+          monteCarlo: undefined,
+          requirement: { ...example.requirement, turnOff: { ...example.requirement.turnOff, repetition } },
+          candidates: [candidate],
+        }),
+      );
+      const c = r.candidates[0];
+      const e = c?.turnOff?.event;
+      const train = c?.turnOff?.train;
+      if (c === undefined || e?.outcome !== "blocks" || e.clamp === undefined || train?.outcome !== "computed")
+        throw new Error("no train");
+      return { c, clamp: e.clamp, train, tjC: c.turnOff?.tjC ?? 0 };
+    };
+    const once = await run({ periodS: 1, count: 1 });
+    // The candidate's junction-case network cascaded with the rest of its 45 K/W path (1 node of 2 J/K).
+    const terms = [
+      { rKPerW: 2, tauS: 0.01 },
+      { rKPerW: 13, tauS: 1 },
+      { rKPerW: 30, tauS: 60 },
+    ];
+    const p = once.clamp.clampV * once.clamp.currentAtTurnOffA;
+    const w = once.clamp.absorbedJ / p;
+    const zth = terms.reduce((a, t) => a + t.rKPerW * (1 - Math.exp(-w / t.tauS)), 0);
+    expect(once.train.trainTjC - once.tjC).toBeCloseTo(p * zth, 9);
+    // 5,000,000 events 0.2 ms apart (1000 s, past every τ): the periodic state; its peak lies above the mean E/T·ΣR.
+    const many = await run({ periodS: 2e-4, count: 5_000_000 });
+    const mean = (many.clamp.absorbedJ / 2e-4) * 45;
+    expect(many.train.steadyPeriodicTjC - many.tjC).toBeGreaterThan(mean);
+    expect(many.train.trainTjC).toBeCloseTo(many.train.steadyPeriodicTjC, 3);
+    expect(many.c.metrics["eventTrainTjC"]).toBe(many.train.trainTjC);
+    // Each event alone passes the junction limit; five thousand a second do not.
+    expect(once.c.rules.verdicts.find((v) => v.ruleId === "turn-off-train-tj")?.outcome).toBe("pass");
+    expect(many.train.trainTjC).toBeGreaterThan(175);
+    expect(many.c.rules.verdicts.find((v) => v.ruleId === "turn-off-train-tj")?.outcome).toBe("fail");
+  });
 });

@@ -144,6 +144,29 @@ const req48: Obj = {
 const review = (requirement: Obj, stage: Obj): Obj => ({ requirement, candidates: [{ stage }] });
 /** A bidirectional TVS-like input clamp: stand-off above jump start, clamping below the parts' ratings. */
 const clamp = (o: Obj = {}): Obj => ({ standoffV: 26, clampV: 40, peakCurrentA: 100, energyJ: 100, ...o });
+/** The 10 uH cut of the ideal diode repeated every periodS, on a candidate with a junction-ambient Foster network. */
+const trainReview = (periodS: number): Obj => ({
+  requirement: {
+    ...req12,
+    turnOff: {
+      ...turnOffEvent,
+      loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" },
+      repetition: { periodS, count: 10_000_000 },
+    },
+  },
+  candidates: [
+    {
+      stage: idealDiode({ avalancheEnergyJ: "150 mJ" }),
+      transientThermal: {
+        kind: "foster",
+        terms: [
+          { rKPerW: 5, tauS: 0.01 },
+          { rKPerW: 40, tauS: 20 },
+        ],
+      },
+    },
+  ],
+});
 /** A P-FET's output at a −14 V input, its gate to ground through the given resistor (30 nC at 10 V). */
 const pfetNegativeInput = (gateResistor: string): Obj => ({
   stage: pfet({ avalancheCurrentA: "400 A" }),
@@ -517,6 +540,17 @@ export const KNOWN_BAD: readonly KnownBad[] = [
       { ...req12, turnOff: { ...turnOffEvent, loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } },
       idealDiode({ avalancheEnergyJ: "150 mJ" }),
     ),
+  },
+  {
+    id: "ideal-diode-turn-off-train-hot",
+    hazard: "turn-off",
+    // Closed form (clamp-train.ts): about 0.5 mJ a cut, 10,000 cuts a second average about 5 W, through 45 K/W
+    // well past Tj(max) from the event's ~88 °C; 100 a second average 0.05 W, about 2 K.
+    why: "the 10 uH cut at about 9 A puts about 0.5 mJ into the MOSFET each time, far within its 150 mJ rating once, but repeated every 0.1 ms its junction climbs past 175 °C; every 10 ms it stays near the event's Tj",
+    procedure: "review",
+    rule: "turn-off-train-tj",
+    bad: trainReview(1e-4),
+    twin: trainReview(1e-2),
   },
   {
     id: "ideal-diode-avalanche-energy-hot-start",

@@ -116,6 +116,10 @@ const DEFAULT: Record<string, RuleCases> = {
     violate: v("fail", p("schottky-diode", { lossWorstW: 1.5, lossBudgetW: 1 }, {}, 1, -0.5)),
   },
   // Avalanche: EAS 100 mJ at 25 °C, Tj(max) 175 °C, event at 85 °C → derated 0.1·(175 − 85)/(175 − 25) = 0.06 J.
+  "turn-off-train-tj": {
+    pass: p("nfet-ideal-diode", { eventTrainTjC: 160 }, { tjMaxC: 175 }, 175, 15),
+    violate: v("fail", p("pfet-high-side", { eventTrainTjC: 180 }, { tjMaxC: 175 }, 175, -5)),
+  },
   // The output pulled to −1.2 V against a load that tolerates 0.5 V reversed.
   "load-reverse-voltage": {
     pass: p("pfet-high-side", { loadReverseVMaxV: 0.3, loadReverseLimitV: 0.5 }, {}, 0.5, 0.2),
@@ -423,6 +427,11 @@ const VEHICLE: Record<string, RuleCases> = {
     off: p("pn-diode", { clampPeakCurrentA: 0, clampPeakCurrentRatingA: 30 }, {}),
   },
   // 0.8 · 3000 W = 2400 W.
+  // 10 K below the part's 175 °C Tj(max): 165 °C.
+  "turn-off-train-tj": {
+    pass: p("nfet-ideal-diode", { eventTrainTjC: 160 }, { tjMaxC: 175 }, 165, 5),
+    violate: v("fail", p("pfet-high-side", { eventTrainTjC: 170 }, { tjMaxC: 175 }, 165, -5)),
+  },
   // 10 K below the clamp's 150 °C Tj(max): 140 °C.
   "clamp-train-tj": {
     pass: p("schottky-diode", { clampTrainTjC: 135, clampTjMaxC: 150 }, {}, 140, 5),
