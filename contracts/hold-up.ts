@@ -72,6 +72,13 @@ const row = z.discriminatedUnion("outcome", [
     holdUpS: z.number(),
     reason: z.string(),
     peakReverseCurrentA: z.number(),
+    outputMinV: z.number().meta({
+      description: "the output's lowest voltage over the event (below 0 V: a negative input pulled it there)",
+    }),
+    channelOffS: z
+      .number()
+      .optional()
+      .meta({ description: "when a P-FET's gate turned its channel off (absent: it stays on)" }),
   }),
   z.object({ outcome: z.literal("not-interrupted"), reason: z.string(), settlesAtV: z.number().optional() }),
   z.object({ outcome: z.literal("no-hold-up"), reason: z.string(), startOutputV: z.number().optional() }),

@@ -5,6 +5,9 @@ import { quantity, ratio, temperatureC } from "./quantity.js";
 import {
   holdUpCapacitor,
   inductiveClampField,
+  inputAfterField,
+  loadReverseLimitField,
+  pfetGateLag,
   repetitiveEvent,
   reverseLoop,
   reverseRecoveryChargeField,
@@ -35,6 +38,20 @@ export const supplySpec = z
   })
   .meta({ description: "the supply: a built-in class, with any value overridden, or 'custom' with all three given" });
 
+/** How a test repeats its pulse: the clamp's junction is followed over the whole train. */
+export const pulseRepetition = z
+  .strictObject({
+    periodS: quantity("s", "time from one pulse's start to the next", { gt: 0, le: 1e5 }),
+    count: z.number().int().min(1).max(1e9).meta({ description: "number of pulses in the test" }),
+  })
+  .meta({ description: "how the test repeats the pulse (a built-in pulse: the standard's interval and count)" });
+
+/** A built-in pulse with the test's own repetition in place of the standard's. */
+export const repeatedBuiltInPulse = z.strictObject({
+  builtIn: z.string().min(1).max(64).meta({ description: "a built-in transient id" }),
+  repetition: pulseRepetition,
+});
+
 export const customPulse = z.strictObject({
   id: z.string().min(1).max(64),
   title: z.string().max(200).optional(),
@@ -48,6 +65,7 @@ export const customPulse = z.strictObject({
     .optional()
     .meta({ description: "td to 10 % of the peak (τ = td/ln 10, default), to half value (τ = td/ln 2) or τ itself" }),
   clampedAtV: volts("a centrally suppressed pulse: the input is held at this level").optional(),
+  repetition: pulseRepetition.optional(),
 });
 
 /** The reverse-current event each candidate is put through in the review (the turnOff analysis's loop and capacitor). */
@@ -55,10 +73,9 @@ export const reviewTurnOff = z
   .strictObject({
     loop: reverseLoop,
     capacitor: holdUpCapacitor,
-    inputAfterV: quantity("V", "input from t = 0 on: 0 for a short (default), or the lower voltage it steps to", {
-      ge: 0,
-      le: 10_000,
-    }).optional(),
+    inputAfterV: inputAfterField.optional(),
+    gateLag: pfetGateLag.optional(),
+    loadReverseLimitV: loadReverseLimitField,
     outputV: quantity("V", "output voltage before the event (default: the nominal supply)", {
       gt: 0,
       le: 10_000,
@@ -70,6 +87,10 @@ export const reviewTurnOff = z
     reverseRecoveryChargeC: reverseRecoveryChargeField,
     clampV: inductiveClampField,
     repetitive: repetitiveEvent,
+    repetition: pulseRepetition.optional().meta({
+      description:
+        "how often the event repeats in service or test (interval and count): with the candidate's transientThermal network, the blocking element's junction at the end of the train (rule turn-off-train-tj)",
+    }),
   })
   .meta({
     description:
@@ -119,10 +140,13 @@ export const requirement = z
       .optional()
       .meta({ description: "steady reverse polarity (default: the supply class's)" }),
     transients: z
-      .array(z.union([z.string().min(1).max(64), customPulse]))
+      .array(z.union([z.string().min(1).max(64), customPulse, repeatedBuiltInPulse]))
       .max(32)
       .optional()
-      .meta({ description: "pulses to check: built-in ids or custom pulses (default: the supply class's set)" }),
+      .meta({
+        description:
+          "pulses to check: built-in ids, built-in ids with the test's own repetition ({ builtIn, repetition }), or custom pulses (default: the supply class's set)",
+      }),
     inputClamp: z
       .strictObject({
         standoffV: volts("clamp working (standoff) voltage"),
@@ -141,6 +165,20 @@ export const requirement = z
         tjMaxC: temperatureC(
           "the clamp's maximum junction temperature, where its power derates to zero (default 150 degC)",
         ).optional(),
+        thermal: z
+          .array(
+            z.strictObject({
+              rKPerW: quantity("K/W", "thermal resistance of the term", { gt: 0, le: 10_000 }),
+              tauS: quantity("s", "time constant τ = R·C", { gt: 0, le: 1e6 }),
+            }),
+          )
+          .min(1)
+          .max(12)
+          .optional()
+          .meta({
+            description:
+              "the clamp's junction-to-ambient Foster network (its datasheet's Zth): its junction over each test's pulse train, read against tjMaxC (absent: not assessed)",
+          }),
       })
       .optional()
       .meta({ description: "a clamp (TVS) at the input, if the design has one" }),

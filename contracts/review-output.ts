@@ -127,6 +127,24 @@ export const candidateResult = z.object({
         .optional()
         .meta({ description: "the part's single-pulse avalanche rating at 25 °C starting Tj" }),
       event: turnOffEventOutput,
+      train: z
+        .discriminatedUnion("outcome", [
+          z.object({
+            outcome: z.literal("computed"),
+            periodS: z.number(),
+            count: z.number(),
+            equivalentWidthS: z.number().meta({ description: "the clamp phase's energy at its peak power, E/Ppk" }),
+            singlePulseTjC: z.number(),
+            trainTjC: z.number().meta({ description: "the blocking element's junction at the end of the last event" }),
+            steadyPeriodicTjC: z.number(),
+          }),
+          z.object({ outcome: z.literal("overlapping"), reason: z.string() }),
+        ])
+        .optional()
+        .meta({
+          description:
+            "with turnOff.repetition and a Foster transientThermal: the blocking element's junction over the train of events",
+        }),
     })
     .optional()
     .meta({

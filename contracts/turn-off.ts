@@ -60,13 +60,36 @@ export const inductiveClampField = quantity(
   },
 ).optional();
 
+/** The input from t = 0 on: a short (0 V), a lower voltage, or a negative one (a reversed pulse's level). */
+export const inputAfterField = quantity(
+  "V",
+  "input voltage from t = 0 on: 0 for a short, the lower voltage it steps to, or a negative one (a negative pulse held at its level)",
+  { ge: -10_000, le: 10_000 },
+);
+
+/** A P-FET's gate tied to ground through a resistor: how fast its |Vgs| follows the falling output. */
+export const pfetGateLag = z
+  .strictObject({
+    resistanceOhm: quantity("ohm", "gate-to-ground resistance", { gt: 0, le: 1e9 }),
+    gateChargeC: quantity("C", "the MOSFET's total gate charge Qg", { gt: 0, le: 1e-3 }),
+    atGateSourceV: quantity("V", "the gate-source voltage Qg is given at (magnitude)", { gt: 0, le: 100 }),
+  })
+  .meta({
+    description:
+      "a P-FET's gate resistor and gate charge: its |Vgs| lags the output by Rg·Qg/Vgs, keeping the channel on (and the output following a negative input below 0 V) until it falls below threshold (default: no lag)",
+  });
+
+export const loadReverseLimitField = quantity(
+  "V",
+  "the largest reverse voltage the load tolerates at its input (magnitude; rule load-reverse-voltage)",
+  { ge: 0, le: 10_000 },
+).optional();
+
 export const fallingInputFields = {
   stage: stageInput,
   outputV: quantity("V", "output voltage before the event (steady state)", { gt: 0, le: 10_000 }),
-  inputAfterV: quantity("V", "input voltage from t = 0 on: 0 for a short, or the lower voltage it steps to", {
-    ge: 0,
-    le: 10_000,
-  }),
+  inputAfterV: inputAfterField,
+  gateLag: pfetGateLag.optional(),
   loop: reverseLoop,
   capacitor: holdUpCapacitor,
   load,
@@ -89,6 +112,7 @@ export const turnOffInput = z
       { gt: 0, le: 1e6 },
     ).optional(),
     repetitive: repetitiveEvent,
+    loadReverseLimitV: loadReverseLimitField,
     ruleSet: ruleSetRef.optional().meta({
       description:
         "when given, the result carries this rule set's verdicts (docs/metrics.md lists what this analysis provides)",
@@ -200,9 +224,30 @@ const eventFields = {
   }),
   end: windowState,
   energies,
+  outputMinV: z.number().meta({
+    description:
+      "the output's lowest voltage over the event (through the clamp phase where there is one): below 0 V the load sees reverse voltage",
+  }),
   metrics: turnOffMetrics,
   waveform: turnOffWaveformSchema.optional(),
 };
+
+/** The clamp phase after the stage turns off. */
+const clampPhaseSchema = z.object({
+  clampV: z.number(),
+  currentAtTurnOffA: z.number(),
+  inductiveEnergyJ: z.number().meta({ description: "½·L·I² at turn-off" }),
+  clampedFormulaJ: z.number().meta({ description: "½·L·I²·Vcl/(Vcl − Vs), Vs = output − input at turn-off" }),
+  absorbedJ: z.number().meta({ description: "Vcl·∫|i|dt over the clamp phase, exact loop response" }),
+  durationS: z.number(),
+  avalancheRatingJ: z.number().optional().meta({ description: "single-pulse avalanche rating at 25 °C starting Tj" }),
+  avalancheRatingAtTjJ: z.number().optional().meta({
+    description: "the rating derated linearly to zero at Tj(max), at the event's starting Tj (no credit below 25 °C)",
+  }),
+  withinAvalancheRating: z.boolean().optional().meta({ description: "absorbedJ within avalancheRatingAtTjJ" }),
+  after: windowState,
+  energies,
+});
 
 /** The event's outcomes, with the given head fields (the turnOff result's provenance, or none inside a review). */
 function eventOutcomes<H extends z.ZodRawShape>(h: H) {
@@ -213,27 +258,7 @@ function eventOutcomes<H extends z.ZodRawShape>(h: H) {
       ...common,
       turnOffS: z.number(),
       detectS: z.number().optional(),
-      clamp: z
-        .object({
-          clampV: z.number(),
-          currentAtTurnOffA: z.number(),
-          inductiveEnergyJ: z.number().meta({ description: "½·L·I² at turn-off" }),
-          clampedFormulaJ: z.number().meta({ description: "½·L·I²·Vcl/(Vcl − Vs), Vs = output − input at turn-off" }),
-          absorbedJ: z.number().meta({ description: "Vcl·∫|i|dt over the clamp phase, exact loop response" }),
-          durationS: z.number(),
-          avalancheRatingJ: z
-            .number()
-            .optional()
-            .meta({ description: "single-pulse avalanche rating at 25 °C starting Tj" }),
-          avalancheRatingAtTjJ: z.number().optional().meta({
-            description:
-              "the rating derated linearly to zero at Tj(max), at the event's starting Tj (no credit below 25 °C)",
-          }),
-          withinAvalancheRating: z.boolean().optional().meta({ description: "absorbedJ within avalancheRatingAtTjJ" }),
-          after: windowState,
-          energies,
-        })
-        .optional(),
+      clamp: clampPhaseSchema.optional(),
     }),
     z.object({
       outcome: z.literal("does-not-block"),
@@ -241,6 +266,23 @@ function eventOutcomes<H extends z.ZodRawShape>(h: H) {
       reason: z.string(),
       fallsBelowMinS: z.number().optional(),
       settlesAtV: z.number(),
+      gateTurnOff: z
+        .object({
+          channelOffS: z.number().meta({ description: "when the lagged |Vgs| fell below threshold" }),
+          gateLagS: z.number().meta({ description: "Rg·Qg/Vgs (0: the gate follows the output at once)" }),
+          outputAtOffV: z.number(),
+          currentAtOffA: z.number().meta({ description: "loop current at the turn-off (negative: reverse)" }),
+          peakReverseCurrentA: z.number().meta({ description: "largest reverse current up to the turn-off" }),
+          chargeLostC: z.number().meta({ description: "charge the output capacitor lost until the current stopped" }),
+          outputMinV: z.number(),
+          end: windowState,
+          clamp: clampPhaseSchema.optional(),
+        })
+        .optional()
+        .meta({
+          description:
+            "a P-FET with its gate at ground: the channel conducts backwards until its gate turns it off, then the body diode blocks (absent: it stays on)",
+        }),
     }),
     z.object({ outcome: z.literal("stays-on"), ...common, reason: z.string() }),
     z.object({

@@ -98,20 +98,24 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
   if (r.outputHeldV === undefined)
     assumptions.push(`requirement.outputHeldV: the nominal supply ${nominalV} V (default)`);
   wanted.forEach((t, i) => {
-    if (typeof t === "string") {
-      const p = findTransient(t);
+    if (typeof t === "string" || "builtIn" in t) {
+      const id = typeof t === "string" ? t : t.builtIn;
+      const p = findTransient(id);
       if (p === undefined)
         throw inputProblem(
           "invalid-input",
-          ["requirement", "transients", i],
+          typeof t === "string" ? ["requirement", "transients", i] : ["requirement", "transients", i, "builtIn"],
           unknownIdMessage(
             "built-in transient",
-            t,
+            id,
             TRANSIENT_LIBRARY.map((x) => x.id),
           ),
         );
-      pulses.push(p);
+      const repetition =
+        typeof t === "string" ? p.repetition : { ...t.repetition, source: "the test's own, given by the caller" };
+      pulses.push(repetition === undefined ? p : { ...p, repetition });
       sources.push(`${p.id}: ${p.source}`);
+      if (repetition !== undefined) sources.push(`${p.id} repetition: ${repetition.source}`);
     } else {
       pulses.push({
         id: t.id,
@@ -123,6 +127,7 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
         decayS: t.decayS,
         decayConvention: t.decayConvention ?? "to-10-percent",
         ...(t.clampedAtV === undefined ? {} : { clampedAtV: t.clampedAtV }),
+        ...(t.repetition === undefined ? {} : { repetition: { ...t.repetition, source: "given by the caller" } }),
         source: "given by the caller",
       });
     }
@@ -240,13 +245,26 @@ function inputClampOf(c: NonNullable<Requirement["inputClamp"]>, assumptions: st
       "inputClamp power: Ppp scaled by sqrt(reference width / the pulse's current half-width) (Wunsch-Bell) and derated linearly to 0 at tjMaxC from the highest ambient (common practice)",
     );
   }
+  if (c.thermal === undefined)
+    assumptions.push(
+      "inputClamp.thermal: not given, so the clamp's junction over each test's pulse train is not assessed (give its Foster network)",
+    );
+  else {
+    if (c.tjMaxC === undefined && power === undefined)
+      assumptions.push("inputClamp.tjMaxC: 150 degC (default, common practice)");
+    assumptions.push(
+      "inputClamp.thermal: each pulse as a rectangle at its peak power carrying its energy (an upper bound of its junction rise), repeated at the test's interval and count from the highest ambient (clamp-train.ts)",
+    );
+  }
   return {
     standoffV: c.standoffV,
     clampV: c.clampV,
     breakdownV: c.breakdownV,
     peakCurrentA: c.peakCurrentA,
     energyJ: c.energyJ,
+    tjMaxC: c.tjMaxC ?? 150,
     ...(power ? { power } : {}),
+    ...(c.thermal === undefined ? {} : { thermal: c.thermal }),
   };
 }
 
@@ -298,6 +316,10 @@ function reviewTurnOffOf(
       "turnOff.clampV: the blocking element's rated voltage (a lower bound of its breakdown: the energy estimate is conservative)",
     );
   if (t.repetitive === undefined) assumptions.push(ONE_OFF_EVENT("turnOff.repetitive"));
+  if (t.gateLag === undefined)
+    assumptions.push(
+      "turnOff.gateLag: not given, so a P-FET candidate's gate follows the output at once (no gate resistor lag): the least reverse voltage at the load",
+    );
   const outputV = t.outputV ?? nominalV;
   const inputAfterV = t.inputAfterV ?? 0;
   if (!(inputAfterV < outputV))
@@ -317,5 +339,10 @@ function reviewTurnOffOf(
     ...(t.reverseRecoveryChargeC === undefined ? {} : { reverseRecoveryChargeC: t.reverseRecoveryChargeC }),
     ...(t.clampV === undefined ? {} : { clampV: t.clampV }),
     repetitive: t.repetitive ?? false,
+    ...(t.gateLag === undefined
+      ? {}
+      : { gateLagS: (t.gateLag.resistanceOhm * t.gateLag.gateChargeC) / t.gateLag.atGateSourceV }),
+    ...(t.loadReverseLimitV === undefined ? {} : { loadReverseLimitV: t.loadReverseLimitV }),
+    ...(t.repetition === undefined ? {} : { repetition: t.repetition }),
   };
 }

@@ -80,3 +80,22 @@ export function missingQrrSentence(field: string, kind: StageModel["kind"] | "di
 /** The declared default of a turn-off event's `repetitive` field. */
 export const ONE_OFF_EVENT = (field: string): string =>
   `${field}: false (a one-off event: its energy is held to the single-pulse avalanche rating, not to the repetitive one)`;
+
+/**
+ * A P-FET's gate lag Rg·Qg/Vgs from the request's gateLag (pfet-gate-off.ts), with the sentence
+ * for a P-FET stage that gives none (its gate then follows the output at once: the channel turns
+ * off as soon as the output is below threshold, the least reverse voltage at the load).
+ */
+export function gateLagOf(
+  given: { resistanceOhm: number; gateChargeC: number; atGateSourceV: number } | undefined,
+  model: StageModel,
+  field: string,
+  assumptions: string[],
+): number | undefined {
+  if (given !== undefined) return (given.resistanceOhm * given.gateChargeC) / given.atGateSourceV;
+  if (model.kind === "pfet-high-side")
+    assumptions.push(
+      `${field}: not given, so the P-FET's gate follows the output at once (no gate resistor lag): its channel turns off as soon as the output falls below threshold; a gate resistor keeps it on longer and lets a negative input pull the output lower`,
+    );
+  return undefined;
+}

@@ -6,7 +6,7 @@ import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { ruleSetForAnalysis } from "../map/analysis-rule-set.js";
 import { HOLD_UP_COMPUTES, holdUpRuleInput } from "../../domain/rules/metrics-of-reverse-current.js";
-import { controllerTiming, loadMinimumV, missingQrrSentence, stageLabel } from "../map/reverse-inputs.js";
+import { controllerTiming, loadMinimumV, gateLagOf, missingQrrSentence, stageLabel } from "../map/reverse-inputs.js";
 import { holdUpAgainstRequirement } from "../map/hold-up-requirement.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { defineProcedure } from "../define-procedure.js";
@@ -29,6 +29,7 @@ export const holdUp = defineProcedure({
         if (inp.reverseRecoveryChargeC === undefined && behaviourOf(stage.model).junctionRecovery) {
           assumptions.push(missingQrrSentence("input.reverseRecoveryChargeC", stage.model.kind));
         }
+        const gateLagS = gateLagOf(inp.gateLag, stage.model, "input.gateLag", assumptions);
         modelInput = {
           kind: "falls",
           inputAfterV: inp.inputAfterV,
@@ -37,6 +38,7 @@ export const holdUp = defineProcedure({
           ...(controller === undefined ? {} : { controller }),
           ...(inp.reverseRecoveryChargeC === undefined ? {} : { reverseRecoveryChargeC: inp.reverseRecoveryChargeC }),
           ...(inp.clampV === undefined ? {} : { clampV: inp.clampV }),
+          ...(gateLagS === undefined ? {} : { gateLagS }),
         };
       }
       const result = holdUpCheck({

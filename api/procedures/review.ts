@@ -192,6 +192,7 @@ export const review = defineProcedure({
                   ? {}
                   : { avalancheRatingJ: e.r.turnOff.avalancheRatingJ }),
                 event: turnOffEventFields(e.r.turnOff.result, req.model.turnOff?.outputV ?? 0, e.r.turnOff.waveform),
+                ...(e.r.turnOff.train === undefined ? {} : { train: e.r.turnOff.train }),
               },
             }),
         reverse: e.r.reverse,

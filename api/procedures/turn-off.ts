@@ -11,6 +11,7 @@ import { TURN_OFF_COMPUTES, turnOffRuleInput } from "../../domain/rules/metrics-
 import {
   controllerTiming,
   loadMinimumV,
+  gateLagOf,
   missingQrrSentence,
   ONE_OFF_EVENT,
   stageLabel,
@@ -40,6 +41,7 @@ export const turnOff = defineProcedure({
       if (input.reverseRecoveryChargeC === undefined)
         assumptions.push(missingQrrSentence("reverseRecoveryChargeC", stage.model.kind));
     }
+    const gateLagS = gateLagOf(input.gateLag, stage.model, "gateLag", assumptions);
     const model: TurnOffModel = {
       stage: stage.model,
       outputV: input.outputV,
@@ -55,6 +57,7 @@ export const turnOff = defineProcedure({
       ...(input.reverseRecoveryChargeC === undefined ? {} : { reverseRecoveryChargeC: input.reverseRecoveryChargeC }),
       ...(input.clampV === undefined ? {} : { clampV: input.clampV }),
       ...(avalancheRatingJ === undefined ? {} : { avalancheRatingJ }),
+      ...(gateLagS === undefined ? {} : { gateLagS }),
     };
     const r = turnOffEvent(model);
     const waveform = input.waveform ? turnOffWaveform(model, r) : undefined;
@@ -66,7 +69,11 @@ export const turnOff = defineProcedure({
             turnOffRuleInput(
               stage.model,
               r,
-              { tjC: input.tjC, repetitive: input.repetitive ?? false },
+              {
+                tjC: input.tjC,
+                repetitive: input.repetitive ?? false,
+                ...(input.loadReverseLimitV === undefined ? {} : { loadReverseLimitV: input.loadReverseLimitV }),
+              },
               avalancheRatingJ,
               input.ruleMetrics ?? {},
             ),

@@ -27,6 +27,8 @@ export interface HoldUpModel {
         readonly controller?: ControllerTurnOff;
         readonly reverseRecoveryChargeC?: number;
         readonly clampV?: number;
+        /** A P-FET's gate lag, s (pfet-gate-off.ts). */
+        readonly gateLagS?: number;
       };
 }
 
@@ -47,6 +49,10 @@ export type HoldUpOutcome =
       readonly holdUpS: number;
       readonly reason: string;
       readonly peakReverseCurrentA: number;
+      /** The output's lowest voltage over the event, V (below 0 V a negative input pulled it there). */
+      readonly outputMinV: number;
+      /** When a P-FET's gate turned its channel off, s (absent: it stays on). */
+      readonly channelOffS?: number;
     }
   | { readonly outcome: "not-interrupted"; readonly reason: string; readonly settlesAtV?: number }
   | { readonly outcome: "no-hold-up"; readonly reason: string; readonly startOutputV?: number };
@@ -80,6 +86,7 @@ export function holdUp(m: HoldUpModel): HoldUpOutcome {
     ...(inp.controller === undefined ? {} : { controller: inp.controller }),
     ...(inp.reverseRecoveryChargeC === undefined ? {} : { reverseRecoveryChargeC: inp.reverseRecoveryChargeC }),
     ...(inp.clampV === undefined ? {} : { clampV: inp.clampV }),
+    ...(inp.gateLagS === undefined ? {} : { gateLagS: inp.gateLagS }),
   });
   switch (ev.outcome) {
     case "invalid-load-line":
@@ -104,7 +111,9 @@ export function holdUp(m: HoldUpModel): HoldUpOutcome {
         outcome: "drains-back",
         holdUpS: ev.fallsBelowMinS,
         reason: ev.reason,
-        peakReverseCurrentA: ev.peakReverseCurrentA,
+        peakReverseCurrentA: ev.gateTurnOff?.peakReverseCurrentA ?? ev.peakReverseCurrentA,
+        outputMinV: ev.outputMinV,
+        ...(ev.gateTurnOff === undefined ? {} : { channelOffS: ev.gateTurnOff.channelOffS }),
       };
     case "blocks": {
       const after = ev.clamp?.after ?? ev.end;

@@ -31,6 +31,11 @@ export type ReversePath =
       readonly channelOhm: number;
       readonly thresholdV: number;
       readonly reason: string;
+      /**
+       * A P-FET whose gate sits at ground: its |Vgs| is the output (up to its gate clamp), lagged
+       * by the gate's R·C, so the channel turns off once that falls below threshold.
+       */
+      readonly gateFromOutput?: { readonly clampV?: number | undefined };
     }
   | { readonly kind: "gate-falls"; readonly channelOhm: number; readonly offDelayS: number };
 

@@ -2,6 +2,8 @@ import type { TransientPulse } from "../review/transient-library.js";
 import type { StageModel } from "../stages/stage-model.js";
 import { type ClampResult, clampExponential, clampPulse, type ParallelLoad, tauFromDecay } from "./clamp-energy.js";
 import { allowedPeakPowerW, type ClampPowerRating } from "./clamp-rating.js";
+import { type ClampTrain, clampTrainTj } from "./clamp-train.js";
+import type { FosterTerm } from "../physics/foster.js";
 import { reverseStress } from "./reverse-steady.js";
 import { blocksReverseCurrent, forwardLimits } from "./stage-ratings.js";
 
@@ -58,6 +60,10 @@ export interface InputClamp {
   readonly energyJ?: number | undefined;
   /** Peak pulse power at its reference pulse, with its Tj(max) (clamp-rating.ts). */
   readonly power?: ClampPowerRating | undefined;
+  /** The clamp's maximum junction temperature, °C. */
+  readonly tjMaxC?: number | undefined;
+  /** Junction-to-ambient Foster network of the clamp: its Tj over a pulse train (clamp-train.ts). */
+  readonly thermal?: readonly FosterTerm[] | undefined;
 }
 
 /** The clamp's law: breakdown and dynamic resistance where both are known, else the constant clamping voltage. */
@@ -76,6 +82,8 @@ export interface ClampDuty {
   readonly withinPeakPower: boolean | undefined;
   /** Its standoff must clear the steady supply and steady reverse voltage, or it conducts them. */
   readonly standoffClearsSteady: boolean;
+  /** Its junction over the test's train of this pulse (with the clamp's thermal network and the pulse's repetition). */
+  readonly train?: ClampTrain;
 }
 
 export interface ElementStress {
@@ -173,8 +181,13 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
           : duty.conducts === true
             ? duty_(duty) <= rating
             : false;
+    const train =
+      own.thermal !== undefined && pulse.repetition !== undefined && duty.conducts === true
+        ? clampTrainTj(duty.energyJ, duty.peakPowerW, own.thermal, pulse.repetition, ctx.clampTjC ?? 25)
+        : undefined;
     return {
       duty,
+      ...(train === undefined ? {} : { train }),
       withinPeakCurrent: within(own.peakCurrentA, (d) => d.peakCurrentA),
       withinEnergy: within(own.energyJ, (d) => d.energyJ),
       ...(allowedW === undefined ? {} : { allowedPeakPowerW: allowedW }),

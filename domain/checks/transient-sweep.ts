@@ -12,6 +12,7 @@ export type SweepFigure =
   | "blockingStressV"
   | "clampEnergyJ"
   | "clampPeakCurrentA"
+  | "clampTrainTjC"
   | "requiredClampEnergyJ";
 
 /** Where a swept test's worst case of one or more figures lies. */
@@ -37,6 +38,8 @@ function figure(r: TransientResult, f: SweepFigure): number {
       return r.designClamp?.duty.conducts === true ? r.designClamp.duty.energyJ : 0;
     case "clampPeakCurrentA":
       return r.designClamp?.duty.conducts === true ? r.designClamp.duty.peakCurrentA : 0;
+    case "clampTrainTjC":
+      return r.designClamp?.train?.outcome === "computed" ? r.designClamp.train.trainTjC : Number.NEGATIVE_INFINITY;
     case "requiredClampEnergyJ":
       return r.clamp.needed === true && r.clamp.atClampMax.conducts === true ? r.clamp.atClampMax.energyJ : 0;
   }
@@ -47,6 +50,7 @@ const FIGURES: readonly SweepFigure[] = [
   "blockingStressV",
   "clampEnergyJ",
   "clampPeakCurrentA",
+  "clampTrainTjC",
   "requiredClampEnergyJ",
 ];
 
@@ -72,7 +76,8 @@ function grid(lo: number, hi: number, n: number): number[] {
 /**
  * A test given by ranges (ISO 16750-2 load dump: Us, Ri, td): every point of a fixed Ri × td grid
  * through transientStress, and for each figure (input peak, blocking-element stress, the design
- * clamp's energy and peak current, the required clamp's energy) the point where it is worst.
+ * clamp's energy, peak current and junction over the test's train, the required clamp's energy) the
+ * point where it is worst (a figure no point gives, such as the train without a clamp network, has none).
  * Returns one result per distinct worst point, each saying which figures it is the worst of and
  * its Ri and td, so the rules read the worst of every figure. A pulse without a sweep is passed
  * through unchanged. Each figure is exact at the grid's points (the closed forms of
@@ -101,6 +106,8 @@ export function sweptTransientStress(
       const b = results[best];
       if (a !== undefined && b !== undefined && figure(a.r, f) > figure(b.r, f)) best = i;
     }
+    const top = results[best];
+    if (top === undefined || figure(top.r, f) === Number.NEGATIVE_INFINITY) continue;
     worstIndex.set(best, [...(worstIndex.get(best) ?? []), f]);
   }
   return [...worstIndex.entries()]

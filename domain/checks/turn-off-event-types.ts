@@ -25,6 +25,8 @@ export interface TurnOffModel {
   readonly clampV?: number;
   /** Single-pulse avalanche energy rating at 25 °C starting Tj, J (derated to the event's tjC). */
   readonly avalancheRatingJ?: number;
+  /** A P-FET's gate lag Rg·Qg/Vgs, s (pfet-gate-off.ts; default 0: the gate follows the output at once). */
+  readonly gateLagS?: number;
 }
 
 export interface WindowState {
@@ -52,6 +54,25 @@ export interface TurnOffCommon {
   readonly peakReverseIsLowerBound?: true;
   readonly end: WindowState;
   readonly energies: PhaseEnergies;
+  /** The output's lowest voltage over the event (the window, and the clamp phase where there is one), V: below 0 the load sees reverse voltage. */
+  readonly outputMinV: number;
+}
+
+/** A P-FET's channel turned off by its gate (pfet-gate-off.ts), and what the event cost until the current stopped. */
+export interface GateTurnOff {
+  readonly channelOffS: number;
+  readonly gateLagS: number;
+  readonly outputAtOffV: number;
+  /** Loop current at the turn-off, A (negative: reverse). */
+  readonly currentAtOffA: number;
+  /** Largest reverse current up to the turn-off, A (magnitude): the clamp then drives it to zero. */
+  readonly peakReverseCurrentA: number;
+  /** Charge the output capacitor lost until the loop current stopped, C. */
+  readonly chargeLostC: number;
+  readonly outputMinV: number;
+  /** State when the loop current stopped (at the turn-off, or the clamp phase's end). */
+  readonly end: WindowState;
+  readonly clamp?: ClampPhase;
 }
 
 export interface ClampPhase {
@@ -85,6 +106,8 @@ export type TurnOffOutcome =
       readonly reason: string;
       readonly fallsBelowMinS?: number;
       readonly settlesAtV: number;
+      /** A P-FET whose gate turned its channel off as the output fell (absent: it stays on). */
+      readonly gateTurnOff?: GateTurnOff;
     } & TurnOffCommon)
   | ({ readonly outcome: "stays-on"; readonly reason: string } & TurnOffCommon)
   | {

@@ -10,14 +10,21 @@ import {
   stateIntegral,
   type Vec2,
 } from "../physics/rlc-series.js";
-import { stageTjMaxC } from "../stages/stage-model.js";
-import { avalancheEnergyAtTjJ } from "./avalanche-derating.js";
-import { reversePath, stageBreakdownV } from "./reverse-path.js";
+import { reversePath } from "./reverse-path.js";
+import { gateOffTime } from "./pfet-gate-off.js";
+import { clampPhase, outputMinOver, windowState } from "./turn-off-clamp-phase.js";
 import { loadLine, loopCharacter, phaseEnergies } from "./turn-off-loop.js";
 
-import type { ClampPhase, TurnOffCommon, TurnOffModel, TurnOffOutcome, WindowState } from "./turn-off-event-types.js";
+import type { GateTurnOff, TurnOffCommon, TurnOffModel, TurnOffOutcome } from "./turn-off-event-types.js";
 
-export type { ClampPhase, TurnOffCommon, TurnOffModel, TurnOffOutcome, WindowState } from "./turn-off-event-types.js";
+export type {
+  ClampPhase,
+  GateTurnOff,
+  TurnOffCommon,
+  TurnOffModel,
+  TurnOffOutcome,
+  WindowState,
+} from "./turn-off-event-types.js";
 
 /**
  * Reverse-current event at an input that falls at t = 0, on the closed-form R-L-C response
@@ -97,6 +104,7 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
       ...(peak.lowerBound ? { peakReverseIsLowerBound: true as const } : {}),
       end: windowState(loop, x0, tEnd, m.outputV),
       energies: phaseEnergies(loop, x0, tEnd, 0),
+      outputMinV: outputMinOver(loop, x0, tEnd),
     };
   };
 
@@ -110,9 +118,15 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
       const settles = outputV(loop, stateAt(s, x0, horizon));
       const c = common(fall ?? horizon, true);
       const reason = path.reason;
-      return fall === undefined
-        ? { outcome: "does-not-block", reason, settlesAtV: settles, ...c }
-        : { outcome: "does-not-block", reason, fallsBelowMinS: fall, settlesAtV: settles, ...c };
+      const gate = path.gateFromOutput ? gateTurnOff(m, loop, s, x0, i0, path, horizon) : undefined;
+      const out =
+        fall === undefined
+          ? { outcome: "does-not-block" as const, reason, settlesAtV: settles, ...c }
+          : { outcome: "does-not-block" as const, reason, fallsBelowMinS: fall, settlesAtV: settles, ...c };
+      if (gate === undefined) return out;
+      if ("outcome" in gate) return gate;
+      // The channel's turn-off ends the event: the output's lowest point is the gate's figure.
+      return { ...out, outputMinV: gate.outputMinV, gateTurnOff: gate };
     }
     case "controller": {
       const t = firstCrossing(s, x0, [1, 0], -path.tripCurrentA, horizon);
@@ -145,69 +159,53 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   }
   const c = common(turnOffS);
   const base = { outcome: "blocks" as const, turnOffS, ...(detectS === undefined ? {} : { detectS }), ...c };
-  const xOff = stateAt(s, x0, turnOffS);
-  // No clamp phase without reverse current at turn-off. A current at rounding level (a diode
-  // recovering at its zero crossing: ~1e-16 A, the crossing located to 1e-15 of its time) counts
-  // as none: against the loop's current scale, max(|i0|, ΔV·√(C/L)), below 1e-9.
-  const currentScaleA = Math.max(
-    Math.abs(i0),
-    Math.abs(m.outputV - m.inputAfterV) * Math.sqrt(m.capacitanceF / m.loopInductanceH),
+  const after = clampPhase(m, loop, stateAt(s, x0, turnOffS), turnOffS, i0);
+  if (after.kind === "below-drive") return after.outcome;
+  if (after.kind === "none") return base;
+  return { ...base, outputMinV: Math.min(base.outputMinV, after.outputMinV), clamp: after.clamp };
+}
+
+/**
+ * A P-FET with its gate at ground (pfet-gate-off.ts): the channel conducts backwards until its
+ * lagged |Vgs| falls below threshold, then the body diode blocks and the loop current is clamped
+ * back to zero (clampPhase). The reverse-current peak up to the turn-off (the clamp then drives it
+ * down), the charge the output capacitor lost by the end and the output's lowest point, which
+ * lies below 0 V where a negative input pulled it there before the gate let go.
+ */
+function gateTurnOff(
+  m: TurnOffModel,
+  loop: RlcLoop,
+  s: ReturnType<typeof loopSystem>,
+  x0: Vec2,
+  i0: number,
+  path: Extract<ReturnType<typeof reversePath>, { kind: "channel-stays-on" }>,
+  horizon: number,
+): GateTurnOff | Extract<TurnOffOutcome, { outcome: "clamp-below-drive" }> | undefined {
+  const lagS = m.gateLagS ?? 0;
+  const off = gateOffTime(
+    loop,
+    s,
+    x0,
+    { thresholdV: path.thresholdV, clampV: path.gateFromOutput?.clampV, lagS },
+    horizon,
   );
-  if (!(xOff[0] < -1e-9 * currentScaleA)) return base;
-  const clampV = m.clampV ?? stageBreakdownV(m.stage);
-  const driveV = outputV(loop, xOff) - m.inputAfterV;
-  if (!(clampV > driveV)) {
-    return {
-      outcome: "clamp-below-drive",
-      reason: `the clamp voltage ${clampV} V does not exceed the output-to-input voltage ${driveV.toPrecision(4)} V: the reverse current cannot be turned off`,
-      clampV,
-      driveV,
-      currentAtTurnOffA: -xOff[0],
-    };
-  }
-  const clampLoop: RlcLoop = { ...loop, sourceV: m.inputAfterV + clampV, loopResistanceOhm: m.loopResistanceOhm };
-  const sc = loopSystem(clampLoop);
-  const cch = loopCharacter(sc);
-  const ramp = (m.loopInductanceH * -xOff[0]) / (clampV - driveV);
-  const end =
-    firstCrossing(sc, xOff, [1, 0], 0, Math.max(50 * ramp, cch.decayPerS > 0 ? 60 / cch.decayPerS : 50 * ramp)) ?? 0;
-  const eventStoredJ = 0.5 * m.capacitanceF * m.outputV * m.outputV + 0.5 * m.loopInductanceH * i0 * i0;
-  const energies = phaseEnergies(clampLoop, xOff, end, clampV, eventStoredJ);
-  const inductiveEnergyJ = 0.5 * m.loopInductanceH * xOff[0] * xOff[0];
-  const absorbedJ = energies.clampJ;
-  const clamp: ClampPhase = {
-    clampV,
-    currentAtTurnOffA: -xOff[0],
-    inductiveEnergyJ,
-    clampedFormulaJ: (inductiveEnergyJ * clampV) / (clampV - driveV),
-    absorbedJ,
-    durationS: end,
-    ...(m.avalancheRatingJ === undefined
-      ? {}
-      : avalancheFields(
-          m.avalancheRatingJ,
-          avalancheEnergyAtTjJ(m.avalancheRatingJ, stageTjMaxC(m.stage), m.tjC),
-          absorbedJ,
-        )),
-    after: windowState(clampLoop, xOff, end, m.outputV, turnOffS),
-    energies,
-  };
-  return { ...base, clamp };
-}
-
-function avalancheFields(ratingJ: number, atTjJ: number, absorbedJ: number) {
-  return { avalancheRatingJ: ratingJ, avalancheRatingAtTjJ: atTjJ, withinAvalancheRating: absorbedJ <= atTjJ };
-}
-
-function windowState(p: RlcLoop, x0: Vec2, t: number, v0: number, offsetS = 0): WindowState {
-  const x = stateAt(loopSystem(p), x0, t);
+  if (off === undefined) return undefined;
+  const xOff = stateAt(s, x0, off);
+  const peak = peakReverse(s, x0, off, off, false);
+  const after = clampPhase(m, loop, xOff, off, i0);
+  if (after.kind === "below-drive") return after.outcome;
+  const endState = after.kind === "clamp" ? after.clamp.after : windowState(loop, x0, off, m.outputV);
+  const outputMinV = Math.min(outputMinOver(loop, x0, off), after.kind === "clamp" ? after.outputMinV : Infinity);
   return {
-    timeS: offsetS + t,
-    currentA: x[0],
-    outputV: outputV(p, x),
-    capacitorV: x[1],
-    chargeLostC: p.capacitanceF * (v0 - x[1]),
-    voltageLostV: v0 - x[1],
+    channelOffS: off,
+    gateLagS: lagS,
+    outputAtOffV: outputV(loop, xOff),
+    currentAtOffA: xOff[0],
+    peakReverseCurrentA: peak.currentA,
+    chargeLostC: endState.chargeLostC,
+    outputMinV,
+    end: endState,
+    ...(after.kind === "clamp" ? { clamp: after.clamp } : {}),
   };
 }
 

@@ -1,4 +1,6 @@
+import { type ClampTrain, clampTrainTj, type PulseRepetition } from "../checks/clamp-train.js";
 import type { ControllerTurnOff } from "../checks/reverse-path.js";
+import type { TransientThermal } from "../checks/start-up.js";
 import { stageAvalancheEnergyJ } from "../checks/stage-ratings.js";
 import { type TurnOffModel, type TurnOffOutcome, turnOffEvent } from "../checks/turn-off-event.js";
 import { type TurnOffWaveform, turnOffWaveform } from "../checks/turn-off-waveform.js";
@@ -19,6 +21,12 @@ export interface ReviewTurnOff {
   readonly clampV?: number;
   /** The event repeats in service (its energy is held to the repetitive avalanche rating too). */
   readonly repetitive: boolean;
+  /** A P-FET candidate's gate lag, s (pfet-gate-off.ts). */
+  readonly gateLagS?: number;
+  /** The largest reverse voltage the load tolerates (magnitude), V. */
+  readonly loadReverseLimitV?: number;
+  /** How often the event repeats (interval and count): the blocking element's junction over the train. */
+  readonly repetition?: PulseRepetition;
 }
 
 export interface ReviewTurnOffResult {
@@ -26,8 +34,16 @@ export interface ReviewTurnOffResult {
   readonly tjSource: "given" | "worst-corner" | "highest-ambient";
   readonly repetitive: boolean;
   readonly avalancheRatingJ?: number;
+  /** The load's reverse-voltage limit the requirement states, V. */
+  readonly loadReverseLimitV?: number;
+  readonly repetition?: PulseRepetition;
   readonly result: TurnOffOutcome;
   readonly waveform?: TurnOffWaveform;
+  /**
+   * With the event's repetition and the candidate's Foster network: the blocking element's
+   * junction over the train of clamp phases (clamp-train.ts), from the event's Tj.
+   */
+  readonly train?: ClampTrain;
 }
 
 /**
@@ -44,6 +60,7 @@ export function reviewTurnOff(
     readonly stage: StageModel;
     readonly turnOffController?: ControllerTurnOff;
     readonly turnOffWaveform?: boolean;
+    readonly transientThermal?: TransientThermal;
   },
   worstTjC: number | undefined,
 ): ReviewTurnOffResult {
@@ -65,15 +82,41 @@ export function reviewTurnOff(
     ...(t.reverseRecoveryChargeC === undefined ? {} : { reverseRecoveryChargeC: t.reverseRecoveryChargeC }),
     ...(t.clampV === undefined ? {} : { clampV: t.clampV }),
     ...(avalancheRatingJ === undefined ? {} : { avalancheRatingJ }),
+    ...(t.gateLagS === undefined || cand.stage.kind !== "pfet-high-side" ? {} : { gateLagS: t.gateLagS }),
   };
   const result = turnOffEvent(model);
   const waveform = cand.turnOffWaveform ? turnOffWaveform(model, result) : undefined;
+  const thermal = cand.transientThermal;
+  const train =
+    t.repetition !== undefined && thermal?.kind === "foster" ? eventTrain(result, thermal.terms, t.repetition, tjC) : undefined;
   return {
     tjC,
     tjSource,
     repetitive: t.repetitive,
     ...(avalancheRatingJ === undefined ? {} : { avalancheRatingJ }),
+    ...(t.loadReverseLimitV === undefined ? {} : { loadReverseLimitV: t.loadReverseLimitV }),
+    ...(t.repetition === undefined ? {} : { repetition: t.repetition }),
     result,
     ...(waveform ? { waveform } : {}),
+    ...(train === undefined ? {} : { train }),
   };
+}
+
+/**
+ * The clamp phase of each event as a rectangle at its peak power Vcl·I(turn-off) carrying its
+ * absorbed energy (an upper bound of its heating, clamp-train.ts), repeated at the event's
+ * interval and count. No clamp phase: the junction stays at the event's Tj. An event without a
+ * response (clamp below the drive, an unstable loop) has no train.
+ */
+function eventTrain(
+  r: TurnOffOutcome,
+  terms: Parameters<typeof clampTrainTj>[2],
+  rep: PulseRepetition,
+  tjC: number,
+): ClampTrain | undefined {
+  if (r.outcome === "clamp-below-drive" || r.outcome === "invalid-load-line" || r.outcome === "unstable-loop")
+    return undefined;
+  const clamp = r.outcome === "blocks" ? r.clamp : r.outcome === "does-not-block" ? r.gateTurnOff?.clamp : undefined;
+  if (clamp === undefined) return clampTrainTj(0, 0, terms, rep, tjC);
+  return clampTrainTj(clamp.absorbedJ, clamp.clampV * clamp.currentAtTurnOffA, terms, rep, tjC);
 }

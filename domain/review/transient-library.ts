@@ -1,3 +1,5 @@
+import type { PulseRepetition } from "../checks/clamp-train.js";
+
 /**
  * Built-in transient pulses: an exponential open-circuit voltage Voc(t) = baseV + amplitudeV·e^(−t/τ)
  * behind a source resistance (negative pulses: amplitudeV < 0), or a level clamped centrally.
@@ -25,6 +27,8 @@ export interface TransientPulse {
    * highest), linearly in between; amplitudeV/sourceResistanceOhm/decayS are the severe corner.
    */
   readonly sweep?: TransientSweep;
+  /** How the test repeats the pulse (its interval and count), for the clamp's junction over the train. */
+  readonly repetition?: PulseRepetition & { readonly source: string };
   readonly source: string;
 }
 
@@ -34,6 +38,28 @@ export interface TransientSweep {
   /** Peak open-circuit voltage (including the base) at the lowest and at the highest Ri, V. */
   readonly peakV: readonly [number, number];
 }
+
+/** ISO 7637-2 repetition (memory: the 2011 edition's Annex A; the shortest interval of its range, the hottest train). */
+const rep7637 = (periodS: number, count: number, what: string) => ({
+  periodS,
+  count,
+  source: `ISO 7637-2 ${what} (memory: confirm against the edition's Annex A); the shortest interval of the range`,
+});
+const REP_PULSE_1 = rep7637(0.5, 500, "pulse 1: t1 0.5-5 s, 500 pulses");
+const REP_PULSE_2A = rep7637(0.2, 500, "pulse 2a: t1 0.2-5 s, 500 pulses");
+const REP_PULSE_2B = rep7637(0.5, 10, "pulse 2b: t1 0.5-5 s, 10 pulses");
+const REP_PULSE_3 = {
+  periodS: 100e-6,
+  count: 36_000_000,
+  source:
+    "ISO 7637-2 pulses 3a/3b: t1 100 us in bursts of 10 ms every 100 ms, for 1 h (memory: confirm against the edition's Annex A); taken as a continuous 100 us train for 1 h, the gaps between bursts ignored (an upper bound)",
+};
+/** ISO 16750-2 clause 4.6.4: 10 pulses at 1 min intervals (docs/references.md [S, secondary]). */
+const REP_LOAD_DUMP = {
+  periodS: 60,
+  count: 10,
+  source: "ISO 16750-2 clause 4.6.4: 10 pulses at 1 min intervals (docs/references.md [S, secondary])",
+};
 
 const ed2011 = "ISO 7637-2:2011 Annex A, level IV (memory: confirm against the edition's table)";
 /** ISO 16750-2 UA: the generator's operating voltage, 14 V (12 V systems) / 28 V (24 V systems) (docs/references.md [S, secondary]). */
@@ -57,6 +83,12 @@ function surge(levelKV: number, coupling: "line-line" | "line-earth", polarity: 
     riseS: 1.2e-6,
     decayS: 20e-6,
     decayConvention: "to-50-percent",
+    repetition: {
+      periodS: 60,
+      count: 5,
+      source:
+        "IEC 61000-4-5 ed. 2 clause 8.2: five surges of each polarity on a DC power port, 1 min or less apart (docs/references.md [S, secondary]); 1 min taken, a faster test gives its own interval",
+    },
     source: `IEC 61000-4-5 combination wave: 1.2/50 us open circuit, 8/20 us short circuit, effective impedance 2 ohm (12 ohm line to earth), levels 0.5/1/2/4 kV (memory); a DC power port takes five surges of each polarity (clause 8.2, docs/references.md [S, secondary]); clamp current modelled as an instant rise and an exponential tail to half value at 20 us behind ${ohm} ohm, an upper bound of the 8/20 wave's charge (docs/references.md)`,
   };
 }
@@ -67,6 +99,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     title: "ISO 7637-2 pulse 1, 12 V system (inductive load disconnected), −150 V",
     baseV: 0,
     amplitudeV: -150,
+    repetition: REP_PULSE_1,
     sourceResistanceOhm: 10,
     riseS: 1e-6,
     decayS: 2e-3,
@@ -79,6 +112,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     title: "ISO 7637-2 pulse 1, 24 V system, −600 V",
     baseV: 0,
     amplitudeV: -600,
+    repetition: REP_PULSE_1,
     sourceResistanceOhm: 50,
     riseS: 3e-6,
     decayS: 1e-3,
@@ -91,6 +125,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     title: "ISO 7637-2 pulse 2a (series inductance interrupted), +112 V on the supply",
     baseV: "supply",
     amplitudeV: 112,
+    repetition: REP_PULSE_2A,
     sourceResistanceOhm: 2,
     riseS: 1e-6,
     decayS: 50e-6,
@@ -103,6 +138,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     title: "ISO 7637-2 pulse 2b (DC motors acting as generators after ignition off), 12 V: +10 V for 2 s",
     baseV: "supply",
     amplitudeV: 10,
+    repetition: REP_PULSE_2B,
     sourceResistanceOhm: 0.05,
     riseS: 1e-3,
     decayS: 2,
@@ -114,6 +150,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     title: "ISO 7637-2 pulse 2b, 24 V: +20 V for 2 s",
     baseV: "supply",
     amplitudeV: 20,
+    repetition: REP_PULSE_2B,
     sourceResistanceOhm: 0.05,
     riseS: 1e-3,
     decayS: 2,
@@ -125,6 +162,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     title: "ISO 7637-2 pulse 3a (switching spikes), −220 V (2004 edition level)",
     baseV: "supply",
     amplitudeV: -220,
+    repetition: REP_PULSE_3,
     sourceResistanceOhm: 50,
     riseS: 5e-9,
     decayS: 0.1e-6,
@@ -145,6 +183,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
       title: `ISO 7637-2 pulse ${pulse} (switching spikes), ${system === "12v" ? "12" : "24"} V system, ${us > 0 ? "+" : "−"}${Math.abs(us)} V`,
       baseV: "supply",
       amplitudeV: us,
+      repetition: REP_PULSE_3,
       sourceResistanceOhm: 50,
       riseS: 5e-9,
       decayS: 150e-9,
@@ -157,6 +196,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     title: "ISO 16750-2 load dump test A (unsuppressed), 12 V: Us 79–101 V, Ri 0.5–4 ohm, td 40–400 ms swept",
     baseV: UA12,
     amplitudeV: 101 - UA12,
+    repetition: REP_LOAD_DUMP,
     sourceResistanceOhm: 4,
     riseS: 10e-3,
     decayS: 400e-3,
@@ -169,6 +209,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     title: "ISO 16750-2 load dump test A (unsuppressed), 24 V: Us 151–202 V, Ri 1–8 ohm, td 100–350 ms swept",
     baseV: UA24,
     amplitudeV: 202 - UA24,
+    repetition: REP_LOAD_DUMP,
     sourceResistanceOhm: 8,
     riseS: 10e-3,
     decayS: 350e-3,
@@ -181,6 +222,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     title: "ISO 16750-2 load dump test B (centrally suppressed), 12 V: clamped to 35 V",
     baseV: UA12,
     amplitudeV: 101 - UA12,
+    repetition: REP_LOAD_DUMP,
     sourceResistanceOhm: 4,
     riseS: 10e-3,
     decayS: 400e-3,
@@ -194,6 +236,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     title: "ISO 16750-2 load dump test B (centrally suppressed), 24 V: clamped to about 58 V",
     baseV: UA24,
     amplitudeV: 202 - UA24,
+    repetition: REP_LOAD_DUMP,
     sourceResistanceOhm: 8,
     riseS: 10e-3,
     decayS: 350e-3,

@@ -278,6 +278,23 @@ export const METRICS: readonly MetricDef[] = [
     providedBy: "review (transients, with requirement.inputClamp.peakPulsePowerW)",
   },
   {
+    name: "clampTrainTjC",
+    type: "number",
+    unit: "°C",
+    meaning:
+      "the design's input clamp junction at the end of the hottest test's pulse train (each pulse as a rectangle at its peak power carrying its energy, repeated at the test's interval and count, from the highest ambient, through the clamp's Foster network); the highest ambient when it conducts in no pulse",
+    stageKinds: "all",
+    providedBy: "review (transients, with requirement.inputClamp.thermal)",
+  },
+  {
+    name: "clampTjMaxC",
+    type: "number",
+    unit: "°C",
+    meaning: "the input clamp's maximum junction temperature",
+    stageKinds: "all",
+    providedBy: `${REQ} (inputClamp.tjMaxC, default 150 °C)`,
+  },
+  {
     name: "clampStandoffV",
     type: "number",
     unit: "V",
@@ -336,6 +353,32 @@ export const METRICS: readonly MetricDef[] = [
       "energy the blocking element absorbs clamping the loop inductance after it turns off (Vclamp·∫|i|dt); 0 when the current is back at zero by then or the stage never turns off",
     stageKinds: "all",
     providedBy: "turnOff",
+  },
+  {
+    name: "loadReverseVMaxV",
+    type: "number",
+    unit: "V",
+    meaning:
+      "reverse voltage the output (the load's input) reaches during the turn-off event, magnitude: minus the output's lowest voltage, 0 when it stays at or above 0 V (a negative input pulling it below through a P-FET channel still on)",
+    stageKinds: "all",
+    providedBy: "turnOff",
+  },
+  {
+    name: "loadReverseLimitV",
+    type: "number",
+    unit: "V",
+    meaning: "the largest reverse voltage the load tolerates at its input (magnitude)",
+    stageKinds: "all",
+    providedBy: `${REQ} (turnOff.loadReverseLimitV; the turnOff analysis's loadReverseLimitV)`,
+  },
+  {
+    name: "eventTrainTjC",
+    type: "number",
+    unit: "°C",
+    meaning:
+      "the blocking element's junction at the end of the review's repeated turn-off events (turnOff.repetition): each clamp phase as a rectangle at its peak power Vcl·I carrying its absorbed energy, repeated at the interval and count, from the event's Tj, through the candidate's Foster network",
+    stageKinds: "all",
+    providedBy: "review (requirement.turnOff.repetition, with the candidate's transientThermal)",
   },
   {
     name: "eventTjC",
@@ -629,6 +672,8 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
   clampStandoffV: requirement,
   clampPeakPowerW: computed,
   clampPeakPowerAllowedW: computed,
+  clampTrainTjC: computed,
+  clampTjMaxC: requirement,
   jumpStartV: requirement,
   supplyOvervoltageV: requirement,
   startProfileMinV: requirement,
@@ -642,6 +687,9 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
     },
   },
   absorbedEnergyJ: computed,
+  loadReverseVMaxV: computed,
+  eventTrainTjC: computed,
+  loadReverseLimitV: requirement,
   eventTjC: {
     role: "computed",
     notAssessed: {

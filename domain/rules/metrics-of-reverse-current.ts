@@ -11,8 +11,8 @@ import {
   closeScope,
   draft,
   putEventAvalanche,
+  putEventFigures,
   putOr,
-  putPeakReverse,
   type RuleInputDraft,
 } from "./rule-input-draft.js";
 import { missingRatings, partParameters, stageMetrics } from "./metrics-of-operating-point.js";
@@ -38,6 +38,7 @@ export const TURN_OFF_COMPUTES = [
   "eventTjC",
   "avalancheEnergyAtTjJ",
   "blocksReverseCurrent",
+  "loadReverseVMaxV",
 ] as const;
 
 /**
@@ -51,7 +52,7 @@ export const TURN_OFF_COMPUTES = [
 export function turnOffRuleInput(
   stage: StageModel,
   r: TurnOffOutcome,
-  event: { readonly tjC: number; readonly repetitive: boolean },
+  event: { readonly tjC: number; readonly repetitive: boolean; readonly loadReverseLimitV?: number | undefined },
   avalancheRatingJ: number | undefined,
   caller: Caller,
 ): RuleInput {
@@ -63,23 +64,7 @@ export function turnOffRuleInput(
     d,
     "the stage gives no avalanche energy rating: give avalancheRatingJ, or the part's avalancheEnergyJ",
   );
-  switch (r.outcome) {
-    case "blocks":
-      d.metrics["peakReverseCurrentA"] = r.peakReverseCurrentA;
-      d.metrics["absorbedEnergyJ"] = r.clamp?.absorbedJ ?? 0;
-      break;
-    case "does-not-block":
-    case "stays-on":
-      putPeakReverse(r, d.metrics, d.unavailable);
-      d.metrics["absorbedEnergyJ"] = 0;
-      break;
-    case "clamp-below-drive":
-    case "invalid-load-line":
-    case "unstable-loop":
-      d.unavailable["peakReverseCurrentA"] = `${r.outcome}: ${r.reason}`;
-      d.unavailable["absorbedEnergyJ"] = `${r.outcome}: ${r.reason}`;
-      break;
-  }
+  putEventFigures(r, event.loadReverseLimitV, d);
   return closeScope(d, "turnOff");
 }
 

@@ -1,6 +1,7 @@
 import { behaviourOf } from "../stages/stage-behaviours.js";
 import { type CandidateReview, type ReviewRequirement, steadyOvervoltageV } from "../review/candidate-review.js";
 import type { StageModel } from "../stages/stage-model.js";
+import type { InputClamp } from "../checks/transient-stress.js";
 
 interface Scope {
   readonly metrics: Record<string, number | boolean>;
@@ -49,6 +50,8 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
       "clampPeakCurrentRatingA",
       "clampPeakPowerW",
       "clampPeakPowerAllowedW",
+      "clampTrainTjC",
+      "clampTjMaxC",
     ])
       notRequired[n] = "the requirement has no input clamp";
   } else {
@@ -73,6 +76,7 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
       unavailable["clampPeakCurrentA"] = always;
     }
     clampPowerMetrics(r, clamp.power === undefined, always, s);
+    clampTrainMetrics(r, clamp, req.transientContext.clampTjC, always, s);
     if (clamp.energyJ !== undefined) metrics["clampEnergyRatingJ"] = clamp.energyJ;
     else unavailable["clampEnergyRatingJ"] = "the input clamp states no energy rating (inputClamp.energyJ)";
     if (clamp.peakCurrentA !== undefined) metrics["clampPeakCurrentRatingA"] = clamp.peakCurrentA;
@@ -119,4 +123,42 @@ function clampPowerMetrics(r: CandidateReview, unrated: boolean, always: string 
   s.metrics["clampPeakPowerW"] = worst?.p ?? 0;
   if (worst !== undefined) s.metrics["clampPeakPowerAllowedW"] = worst.allowed;
   else s.notRequired["clampPeakPowerAllowedW"] = "the input clamp conducts in none of the requirement's pulses";
+}
+
+/**
+ * The clamp's junction at the end of each test's pulse train (clamp-train.ts), the hottest over
+ * the requirement's pulses, with its Tj(max). Without the clamp's thermal network it is not
+ * assessed (out of scope, with why); a pulse whose train cannot be formed (overlapping pulses)
+ * or a clamp that conducts the supply leaves it unavailable, so its rule cannot pass. No pulse
+ * that the clamp conducts: the junction stays at its start, the highest ambient.
+ */
+function clampTrainMetrics(
+  r: CandidateReview,
+  clamp: InputClamp,
+  startTjC: number | undefined,
+  always: string | undefined,
+  s: Scope,
+): void {
+  if (clamp.thermal === undefined) {
+    for (const n of ["clampTrainTjC", "clampTjMaxC"])
+      s.notRequired[n] =
+        "the input clamp gives no thermal network (inputClamp.thermal): its junction over the pulse trains is not assessed";
+    return;
+  }
+  s.metrics["clampTjMaxC"] = clamp.tjMaxC ?? 150;
+  if (always !== undefined) {
+    s.unavailable["clampTrainTjC"] = always;
+    return;
+  }
+  let tj = startTjC ?? 25;
+  for (const t of r.transients) {
+    const train = t.designClamp?.train;
+    if (train === undefined) continue;
+    if (train.outcome === "overlapping") {
+      s.unavailable["clampTrainTjC"] = `pulse ${t.pulseId}: ${train.reason}`;
+      return;
+    }
+    tj = Math.max(tj, train.trainTjC);
+  }
+  s.metrics["clampTrainTjC"] = tj;
 }

@@ -4,7 +4,7 @@ import type { ReviewTurnOffResult } from "../review/review-turn-off.js";
 import { mosfetBreakdownColdV } from "../checks/breakdown-temperature.js";
 import type { RuleInput } from "./rule-model.js";
 import type { StageModel } from "../stages/stage-model.js";
-import { otherAnalysesMetrics, putEventAvalanche, putPeakReverse } from "./rule-input-draft.js";
+import { otherAnalysesMetrics, putEventAvalanche, putEventFigures } from "./rule-input-draft.js";
 import { missingRatings, partParameters, stageMetrics } from "./metrics-of-operating-point.js";
 import { reviewHazardMetrics } from "./metrics-of-review-hazards.js";
 
@@ -27,11 +27,14 @@ export const REVIEW_COMPUTES = [
   "clampPeakCurrentA",
   "clampPeakPowerW",
   "clampPeakPowerAllowedW",
+  "clampTrainTjC",
   "startProfileDropoutS",
   "peakReverseCurrentA",
   "absorbedEnergyJ",
   "eventTjC",
   "avalancheEnergyAtTjJ",
+  "loadReverseVMaxV",
+  "eventTrainTjC",
   "vdsBreakdownColdV",
   "startChatter",
   "gateOverdriveColdV",
@@ -131,7 +134,7 @@ export function reviewRuleInput(
   reviewHazardMetrics(stage, req, r, { metrics, unavailable, notRequired });
   Object.assign(unavailable, missingRatings(stage));
   const part = partParameters(stage);
-  if (r.turnOff !== undefined) turnOffMetrics(stage, r.turnOff, metrics, part, unavailable);
+  if (r.turnOff !== undefined) turnOffMetrics(stage, r.turnOff, metrics, part, unavailable, notRequired);
   const elsewhere = otherAnalysesMetrics(metrics, "review");
   for (const n of Object.keys(unavailable)) delete elsewhere[n];
   return { stageKind: stage.kind, metrics, part, unavailable, notRequired: Object.assign(elsewhere, notRequired) };
@@ -149,6 +152,7 @@ function turnOffMetrics(
   metrics: Record<string, number | boolean>,
   part: Record<string, number>,
   unavailable: Record<string, string>,
+  notRequired: Record<string, string>,
 ): void {
   putEventAvalanche(
     stage,
@@ -157,22 +161,12 @@ function turnOffMetrics(
     { metrics, part, unavailable },
     "the stage gives no avalanche energy rating (the part's avalancheEnergyJ)",
   );
-  const r = t.result;
-  switch (r.outcome) {
-    case "blocks":
-      metrics["peakReverseCurrentA"] = r.peakReverseCurrentA;
-      metrics["absorbedEnergyJ"] = r.clamp?.absorbedJ ?? 0;
-      break;
-    case "does-not-block":
-    case "stays-on":
-      putPeakReverse(r, metrics, unavailable);
-      metrics["absorbedEnergyJ"] = 0;
-      break;
-    case "clamp-below-drive":
-    case "invalid-load-line":
-    case "unstable-loop":
-      unavailable["peakReverseCurrentA"] = `turn-off event ${r.outcome}: ${r.reason}`;
-      unavailable["absorbedEnergyJ"] = `turn-off event ${r.outcome}: ${r.reason}`;
-      break;
-  }
+  putEventFigures(t.result, t.loadReverseLimitV, { metrics, unavailable, notRequired }, "turn-off event ");
+  const train = t.train;
+  if (train === undefined)
+    notRequired["eventTrainTjC"] = t.repetition
+      ? "the candidate gives no transient thermal network (transientThermal) or the event has no response: the train is not assessed"
+      : "the requirement's turn-off event states no repetition (turnOff.repetition)";
+  else if (train.outcome === "overlapping") unavailable["eventTrainTjC"] = `turn-off event train: ${train.reason}`;
+  else metrics["eventTrainTjC"] = train.trainTjC;
 }

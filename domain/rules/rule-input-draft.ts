@@ -1,3 +1,4 @@
+import type { TurnOffOutcome } from "../checks/turn-off-event.js";
 import { avalancheEnergyAtTjJ } from "../checks/avalanche-derating.js";
 import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
 import { METRICS } from "./metric-vocabulary.js";
@@ -51,6 +52,8 @@ export const ANALYSIS_ONLY_METRICS: Readonly<Record<string, readonly string[]>> 
     "clampPeakCurrentA",
     "clampPeakPowerW",
     "clampPeakPowerAllowedW",
+    "clampTrainTjC",
+    "clampTjMaxC",
     "clampStandoffV",
     "clampEnergyRatingJ",
     "clampPeakCurrentRatingA",
@@ -60,8 +63,17 @@ export const ANALYSIS_ONLY_METRICS: Readonly<Record<string, readonly string[]>> 
     "startProfileDropoutS",
     "vdsBreakdownColdV",
     "gateOverdriveColdV",
+    "eventTrainTjC",
   ],
-  turnOff: ["peakReverseCurrentA", "absorbedEnergyJ", "eventTjC", "avalancheEnergyAtTjJ", "turnOffRepetitive"],
+  turnOff: [
+    "peakReverseCurrentA",
+    "absorbedEnergyJ",
+    "eventTjC",
+    "avalancheEnergyAtTjJ",
+    "turnOffRepetitive",
+    "loadReverseVMaxV",
+    "loadReverseLimitV",
+  ],
   holdUp: ["holdUpS", "holdUpRequiredS"],
   oring: ["reverseCurrentA", "reverseCurrentBudgetA"],
   batteryCharge: ["targetCanDrainSource"],
@@ -130,4 +142,49 @@ export function putEventAvalanche(
   }
   into.part["avalancheEnergyJ"] = ratingJ;
   into.metrics["avalancheEnergyAtTjJ"] = avalancheEnergyAtTjJ(ratingJ, stageTjMaxC(stage), tjC);
+}
+
+/**
+ * A turn-off event's figures for the rules (turnOff and the review's event alike):
+ * peakReverseCurrentA, absorbedEnergyJ (the clamp phase's Vcl·∫|i|dt; 0 when the current is back
+ * at zero by turn-off or the stage never turns off), and loadReverseVMaxV, the reverse voltage the
+ * output reaches (−outputMinV, 0 when it stays at or above 0 V), with loadReverseLimitV where the
+ * caller states the load's limit (out of scope otherwise). A P-FET whose gate turned its channel
+ * off takes its peak and clamp energy from that turn-off. Outcomes without a response leave them
+ * unavailable with why.
+ */
+export function putEventFigures(
+  r: TurnOffOutcome,
+  loadReverseLimitV: number | undefined,
+  into: {
+    readonly metrics: Record<string, number | boolean>;
+    readonly unavailable: Record<string, string>;
+    readonly notRequired: Record<string, string>;
+  },
+  label = "",
+): void {
+  const { metrics, unavailable, notRequired } = into;
+  if (loadReverseLimitV !== undefined) metrics["loadReverseLimitV"] = loadReverseLimitV;
+  else notRequired["loadReverseLimitV"] = "no load reverse-voltage limit is given (loadReverseLimitV)";
+  switch (r.outcome) {
+    case "blocks":
+      metrics["peakReverseCurrentA"] = r.peakReverseCurrentA;
+      metrics["absorbedEnergyJ"] = r.clamp?.absorbedJ ?? 0;
+      break;
+    case "does-not-block":
+    case "stays-on": {
+      const gate = r.outcome === "does-not-block" ? r.gateTurnOff : undefined;
+      if (gate === undefined) putPeakReverse(r, metrics, unavailable);
+      else metrics["peakReverseCurrentA"] = gate.peakReverseCurrentA;
+      metrics["absorbedEnergyJ"] = gate?.clamp?.absorbedJ ?? 0;
+      break;
+    }
+    case "clamp-below-drive":
+    case "invalid-load-line":
+    case "unstable-loop":
+      for (const n of ["peakReverseCurrentA", "absorbedEnergyJ", "loadReverseVMaxV"])
+        unavailable[n] = `${label}${r.outcome}: ${r.reason}`;
+      return;
+  }
+  metrics["loadReverseVMaxV"] = Math.max(0, -r.outputMinV);
 }

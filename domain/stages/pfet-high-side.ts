@@ -57,6 +57,7 @@ export const pfetHighSide: StageBehaviour<PFetStage> = {
       thresholdV: thresholdAtV(stage.mosfet.channel, tK),
       reason:
         "a P-FET with its gate at ground keeps |Vgs| = V(output): it conducts backwards until the output falls below its threshold",
+      gateFromOutput: { clampV: stage.gateClampV },
     };
   },
   reverseConduction: (stage, _leftV, rightV, tK) =>

@@ -113,4 +113,80 @@ describe("review with a turn-off section", () => {
     expect(e.waveform?.timeS.length).toBeGreaterThanOrEqual(399);
     expect(Math.max(...(e.waveform?.currentA ?? []).map((i) => -i))).toBe(e.peakReverseCurrentA);
   });
+
+  it("a negative input with a gate-resistor lag: the P-FET candidate's output goes below 0 V, as the turnOff procedure finds, and fails the load's reverse limit", async () => {
+    if (review === undefined || turnOff === undefined) throw new Error("procedures missing");
+    const gateLag = { resistanceOhm: "10 kOhm", gateChargeC: "30 nC", atGateSourceV: "10 V" };
+    const requirement = {
+      ...example.requirement,
+      turnOff: { ...example.requirement.turnOff, inputAfterV: "-14 V", gateLag, loadReverseLimitV: "0.5 V" },
+    };
+    const pfet = { kind: "catalog-part", partId: "demo-pfet-40v-12mohm" };
+    const r = reviewOutput.parse(await review({ requirement, candidates: [{ stage: pfet }] }));
+    const c = r.candidates[0];
+    const e = c?.turnOff?.event;
+    if (c === undefined || e === undefined || e.outcome !== "does-not-block") throw new Error("no drain-back event");
+    const direct = turnOffOutput.parse(
+      await turnOff({
+        stage: pfet,
+        outputV: r.requirement.supplyNominalV,
+        inputAfterV: -14,
+        gateLag,
+        loop: example.requirement.turnOff.loop,
+        capacitor: example.requirement.turnOff.capacitor,
+        load: example.requirement.load,
+        loadMinV: example.requirement.loadMinV,
+        tjC: c.turnOff?.tjC ?? 0,
+      }),
+    );
+    if (direct.outcome !== "does-not-block") throw new Error(direct.outcome);
+    expect(e.gateTurnOff?.outputMinV).toBe(direct.gateTurnOff?.outputMinV);
+    expect(e.outputMinV).toBeLessThan(-0.5);
+    expect(c.metrics["loadReverseVMaxV"]).toBe(-e.outputMinV);
+    expect(c.rules.verdicts.find((v) => v.ruleId === "load-reverse-voltage")?.outcome).toBe("fail");
+  });
+
+  it("a repeated event: the blocking element's junction over the train is the closed form of clamp-train.ts on the event's clamp phase", async () => {
+    if (review === undefined) throw new Error("review missing");
+    const candidate = (example.candidates as { stage: { partId?: string } }[]).find(
+      (c) => c.stage.partId === "demo-ideal-diode-60v-3mohm",
+    );
+    const run = async (repetition: { periodS: number; count: number }) => {
+      const r = reviewOutput.parse(
+        await review({
+          ...example,
+          monteCarlo: undefined,
+          requirement: { ...example.requirement, turnOff: { ...example.requirement.turnOff, repetition } },
+          candidates: [candidate],
+        }),
+      );
+      const c = r.candidates[0];
+      const e = c?.turnOff?.event;
+      const train = c?.turnOff?.train;
+      if (c === undefined || e?.outcome !== "blocks" || e.clamp === undefined || train?.outcome !== "computed")
+        throw new Error("no train");
+      return { c, clamp: e.clamp, train, tjC: c.turnOff?.tjC ?? 0 };
+    };
+    const once = await run({ periodS: 1, count: 1 });
+    // The candidate's junction-case network cascaded with the rest of its 45 K/W path (1 node of 2 J/K).
+    const terms = [
+      { rKPerW: 2, tauS: 0.01 },
+      { rKPerW: 13, tauS: 1 },
+      { rKPerW: 30, tauS: 60 },
+    ];
+    const p = once.clamp.clampV * once.clamp.currentAtTurnOffA;
+    const w = once.clamp.absorbedJ / p;
+    const zth = terms.reduce((a, t) => a + t.rKPerW * (1 - Math.exp(-w / t.tauS)), 0);
+    expect(once.train.trainTjC - once.tjC).toBeCloseTo(p * zth, 9);
+    // 5,000,000 events 0.2 ms apart (1000 s, past every τ): the periodic state; its peak lies above the mean E/T·ΣR.
+    const many = await run({ periodS: 2e-4, count: 5_000_000 });
+    const mean = (many.clamp.absorbedJ / 2e-4) * 45;
+    expect(many.train.steadyPeriodicTjC - many.tjC).toBeGreaterThan(mean);
+    expect(many.train.trainTjC).toBeCloseTo(many.train.steadyPeriodicTjC, 3);
+    expect(many.c.metrics["eventTrainTjC"]).toBe(many.train.trainTjC);
+    // Each event alone passes the junction limit; five thousand a second do not.
+    expect(once.c.rules.verdicts.find((v) => v.ruleId === "turn-off-train-tj")?.outcome).toBe("pass");
+    expect(many.train.trainTjC).toBeGreaterThan(175);
+    expect(many.c.rules.verdicts.find((v) => v.ruleId === "turn-off-train-tj")?.outcome).toBe("fail");
+  });
 });

@@ -181,6 +181,48 @@ const coldRail = (thresholdMaxV: number): Obj => ({
 });
 /** A bidirectional TVS-like input clamp: stand-off above jump start, clamping below the parts' ratings. */
 const clamp = (o: Obj = {}): Obj => ({ standoffV: 26, clampV: 40, peakCurrentA: 100, energyJ: 100, ...o });
+/** The 10 uH cut of the ideal diode repeated every periodS, on a candidate with a junction-ambient Foster network. */
+const trainReview = (periodS: number): Obj => ({
+  requirement: {
+    ...req12,
+    turnOff: {
+      ...turnOffEvent,
+      loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" },
+      repetition: { periodS, count: 10_000_000 },
+    },
+  },
+  candidates: [
+    {
+      stage: idealDiode({ avalancheEnergyJ: "150 mJ" }),
+      transientThermal: {
+        kind: "foster",
+        terms: [
+          { rKPerW: 5, tauS: 0.01 },
+          { rKPerW: 40, tauS: 20 },
+        ],
+      },
+    },
+  ],
+});
+/** A P-FET's output at a −14 V input, its gate to ground through the given resistor (30 nC at 10 V). */
+const pfetNegativeInput = (gateResistor: string): Obj => ({
+  stage: pfet({ avalancheCurrentA: "400 A" }),
+  outputV: "12 V",
+  inputAfterV: "-14 V",
+  gateLag: { resistanceOhm: gateResistor, gateChargeC: "30 nC", atGateSourceV: "10 V" },
+  loop: { resistanceOhm: "40 mOhm", inductanceH: "1 uH" },
+  capacitor: { capacitanceF: "1000 uF", esrOhm: "10 mOhm" },
+  load: { kind: "constant-current", currentA: 1 },
+  loadMinV: "8 V",
+  tjC: "25 degC",
+  loadReverseLimitV: "0.5 V",
+});
+/** A clamp's junction-to-ambient Foster network (invented): a fast die, a package, and its mounting's slow tail. */
+const clampNetwork = (mountingKPerW: number): Obj[] => [
+  { rKPerW: 0.05, tauS: 1e-3 },
+  { rKPerW: 0.5, tauS: 0.05 },
+  { rKPerW: mountingKPerW, tauS: 60 },
+];
 const crank: Obj[] = [
   { timeS: 0, voltageV: 12 },
   { timeS: 0.005, voltageV: 4.5 },
@@ -508,6 +550,33 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     ),
   },
   {
+    id: "clamp-hot-over-pulse-1-train",
+    hazard: "clamp",
+    // Closed forms (clamp-energy.ts, clamp-train.ts): pulse 1 (−150 V, 10 ohm, td 2 ms) into a 30 V clamp, about
+    // 0.19 J and 360 W a pulse, 500 pulses 0.5 s apart (0.37 W on average for 250 s) from 85 degC: through a 200 K/W,
+    // 60 s tail about 74 K of rise (mean power times R times 1 − e^(−250/60)), through a 100 K/W one about 37 K,
+    // plus about 9 K of the last pulse in the fast terms.
+    why: "an input clamp well within its 100 J single-pulse rating reaches about 170 degC over ISO 7637-2 pulse 1's 500-pulse train on a 200 K/W mounting; on a 100 K/W one it stays near 130 degC",
+    procedure: "review",
+    rule: "clamp-train-tj",
+    bad: review(
+      {
+        ...req12,
+        transients: ["iso7637-2-pulse-1-12v"],
+        inputClamp: clamp({ clampV: 30, thermal: clampNetwork(200) }),
+      },
+      idealDiode(),
+    ),
+    twin: review(
+      {
+        ...req12,
+        transients: ["iso7637-2-pulse-1-12v"],
+        inputClamp: clamp({ clampV: 30, thermal: clampNetwork(100) }),
+      },
+      idealDiode(),
+    ),
+  },
+  {
     id: "clamp-standoff-below-telecom-abnormal",
     hazard: "clamp",
     why: "a 58 V stand-off clamp on a -48 V feed clears the 57 V normal range but conducts in the abnormal range up to 60 V (ETSI EN 300 132-2, memory)",
@@ -545,6 +614,17 @@ export const KNOWN_BAD: readonly KnownBad[] = [
       { ...req12, turnOff: { ...turnOffEvent, loop: { resistanceOhm: "20 mOhm", inductanceH: "10 uH" } } },
       idealDiode({ avalancheEnergyJ: "150 mJ" }),
     ),
+  },
+  {
+    id: "ideal-diode-turn-off-train-hot",
+    hazard: "turn-off",
+    // Closed form (clamp-train.ts): about 0.5 mJ a cut, 10,000 cuts a second average about 5 W, through 45 K/W
+    // well past Tj(max) from the event's ~88 °C; 100 a second average 0.05 W, about 2 K.
+    why: "the 10 uH cut at about 9 A puts about 0.5 mJ into the MOSFET each time, far within its 150 mJ rating once, but repeated every 0.1 ms its junction climbs past 175 °C; every 10 ms it stays near the event's Tj",
+    procedure: "review",
+    rule: "turn-off-train-tj",
+    bad: trainReview(1e-4),
+    twin: trainReview(1e-2),
   },
   {
     id: "ideal-diode-avalanche-energy-hot-start",
@@ -663,6 +743,20 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     rule: "hold-up-time",
     bad: holdUp("20 ms"),
     twin: holdUp("1 ms"),
+  },
+  {
+    id: "pfet-gate-resistor-lets-output-go-negative",
+    hazard: "turn-off",
+    // Closed form (rlc-series.ts) with the gate lag of pfet-gate-off.ts: −14 V held at the input, 1000 uF through
+    // 52 mOhm of loop and channel (and 10 mOhm ESR) discharges with R·C ≈ 62 us; a 10 kOhm / 30 nC (at 10 V) gate
+    // lags by 30 us, so the channel is still on when the output crosses 0 V and lets go at about −5 V (59 us); a
+    // 100 ohm gate resistor (0.3 us) lets go near its 2 V threshold (32 us). Both draw about 310 A back at first
+    // (the P-FET's IAS is given as 400 A, invented).
+    why: "a P-FET whose gate is tied to ground through 10 kOhm stays on while a −14 V input pulls the output capacitor to about −5 V, beyond the 0.5 V reverse voltage the load tolerates; through 100 ohm the channel lets go near its threshold",
+    procedure: "turnOff",
+    rule: "load-reverse-voltage",
+    bad: pfetNegativeInput("10 kOhm"),
+    twin: pfetNegativeInput("100 Ohm"),
   },
   {
     id: "bridge-element-peak-over-ifrm",

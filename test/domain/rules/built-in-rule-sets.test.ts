@@ -124,6 +124,15 @@ const DEFAULT: Record<string, RuleCases> = {
     violate: v("fail", p("schottky-diode", { lossWorstW: 1.5, lossBudgetW: 1 }, {}, 1, -0.5)),
   },
   // Avalanche: EAS 100 mJ at 25 °C, Tj(max) 175 °C, event at 85 °C → derated 0.1·(175 − 85)/(175 − 25) = 0.06 J.
+  "turn-off-train-tj": {
+    pass: p("nfet-ideal-diode", { eventTrainTjC: 160 }, { tjMaxC: 175 }, 175, 15),
+    violate: v("fail", p("pfet-high-side", { eventTrainTjC: 180 }, { tjMaxC: 175 }, 175, -5)),
+  },
+  // The output pulled to −1.2 V against a load that tolerates 0.5 V reversed.
+  "load-reverse-voltage": {
+    pass: p("pfet-high-side", { loadReverseVMaxV: 0.3, loadReverseLimitV: 0.5 }, {}, 0.5, 0.2),
+    violate: v("fail", p("pfet-high-side", { loadReverseVMaxV: 1.2, loadReverseLimitV: 0.5 }, {}, 0.5, -0.7)),
+  },
   "avalanche-energy": {
     pass: p("nfet-ideal-diode", { absorbedEnergyJ: 0.05, avalancheEnergyAtTjJ: AT_85C }, {}, 0.06, 0.01),
     violate: v("fail", p("nfet-ideal-diode", { absorbedEnergyJ: 0.07, avalancheEnergyAtTjJ: AT_85C }, {}, 0.06, -0.01)),
@@ -216,6 +225,11 @@ const DEFAULT: Record<string, RuleCases> = {
     pass: p("nfet-ideal-diode", { clampPeakCurrentA: 20, clampPeakCurrentRatingA: 30 }, {}, 30, 10),
     violate: v("fail", p("nfet-ideal-diode", { clampPeakCurrentA: 43, clampPeakCurrentRatingA: 30 }, {}, 30, -13)),
     off: p("pn-diode", { clampPeakCurrentA: 0, clampPeakCurrentRatingA: 30 }, {}),
+  },
+  // The clamp's junction at the end of its hottest pulse train against its Tj(max) 150 °C.
+  "clamp-train-tj": {
+    pass: p("schottky-diode", { clampTrainTjC: 138, clampTjMaxC: 150 }, {}, 150, 12),
+    violate: v("fail", p("nfet-ideal-diode", { clampTrainTjC: 153, clampTjMaxC: 150 }, {}, 150, -3)),
   },
   "clamp-peak-power": {
     pass: p("schottky-diode", { clampPeakPowerW: 2500, clampPeakPowerAllowedW: 3000 }, {}, 3000, 500),
@@ -421,6 +435,16 @@ const VEHICLE: Record<string, RuleCases> = {
     off: p("pn-diode", { clampPeakCurrentA: 0, clampPeakCurrentRatingA: 30 }, {}),
   },
   // 0.8 · 3000 W = 2400 W.
+  // 10 K below the part's 175 °C Tj(max): 165 °C.
+  "turn-off-train-tj": {
+    pass: p("nfet-ideal-diode", { eventTrainTjC: 160 }, { tjMaxC: 175 }, 165, 5),
+    violate: v("fail", p("pfet-high-side", { eventTrainTjC: 170 }, { tjMaxC: 175 }, 165, -5)),
+  },
+  // 10 K below the clamp's 150 °C Tj(max): 140 °C.
+  "clamp-train-tj": {
+    pass: p("schottky-diode", { clampTrainTjC: 135, clampTjMaxC: 150 }, {}, 140, 5),
+    violate: v("fail", p("pfet-high-side", { clampTrainTjC: 145, clampTjMaxC: 150 }, {}, 140, -5)),
+  },
   "clamp-peak-power": {
     pass: p("schottky-diode", { clampPeakPowerW: 2000, clampPeakPowerAllowedW: 3000 }, {}, 2400, 400),
     violate: v("fail", p("nfet-ideal-diode", { clampPeakPowerW: 2500, clampPeakPowerAllowedW: 3000 }, {}, 2400, -100)),
