@@ -89,6 +89,30 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
     metrics["startProfileMinV"] = Math.min(...profile.map((p) => p.voltageV));
     metrics["startProfileDropoutS"] = Math.max(0, ...r.startUp.profiles.map((p) => p.result.dropoutTimeS));
   }
+  inrushMetrics(r, s);
+  metrics["loadTransientVMaxV"] = r.loadOvervoltage.loadVMaxV;
+  if (req.loadMaxV !== undefined) metrics["loadMaxV"] = req.loadMaxV;
+  else notRequired["loadMaxV"] = "the requirement states no highest load voltage (loadMaxV)";
+}
+
+/**
+ * The start-up charge of the output capacitance (review-inrush.ts) → inrushTjC and
+ * inrushCharges: charged (Tj peak, true), thermal shutdown (its temperature, false), a stall
+ * (the steady junction, false). A diode stage is out of scope; a load the charge cannot model is a gap.
+ */
+function inrushMetrics(r: CandidateReview, s: Scope): void {
+  const names = ["inrushTjC", "inrushCharges"];
+  const i = r.inrush;
+  if (i === undefined) {
+    for (const n of names) s.notRequired[n] = "the requirement gives no inrush (requirement.inrush)";
+    return;
+  }
+  if (!i.assessed) {
+    for (const n of names) (i.scope === "out" ? s.notRequired : s.unavailable)[n] = i.reason;
+    return;
+  }
+  s.metrics["inrushTjC"] = i.result.tjPeakC;
+  s.metrics["inrushCharges"] = i.result.outcome === "charged";
 }
 
 /**

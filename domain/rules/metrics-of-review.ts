@@ -33,6 +33,9 @@ export const REVIEW_COMPUTES = [
   "eventTjC",
   "avalancheEnergyAtTjJ",
   "vdsBreakdownColdV",
+  "inrushTjC",
+  "inrushCharges",
+  "loadTransientVMaxV",
 ] as const;
 
 export interface RequirementFlags {

@@ -117,7 +117,14 @@ export interface IntegratedSwitchStage {
   readonly blocksReverseCurrent: boolean;
   /** Energy its internal FET or clamp absorbs in one pulse at 25 °C start, J; absent: not rated. */
   readonly avalancheEnergyJ?: number;
+  /** Current the switch limits to (also into the output capacitance at start-up), A; absent: no limit. */
   readonly currentLimitA?: number;
+  /** Junction temperature at which the switch shuts itself down, °C; absent: no thermal shutdown. */
+  readonly thermalShutdownC?: number;
+  /** Input voltage above which the switch opens (overvoltage cut-off), V; absent: it passes every surge on. */
+  readonly overvoltageCutoffV?: number;
+  /** Time from the input crossing the cut-off to the switch open, s; absent: taken as instant (declared). */
+  readonly overvoltageResponseS?: number;
   readonly tjMaxC: number;
   readonly thermal: ThermalPath;
 }

@@ -254,10 +254,27 @@ const DEFAULT: Record<string, RuleCases> = {
     pass: p("pn-diode", { startProfileDropoutS: 0 }, {}, 0, 0),
     violate: v("fail", p("pn-diode", { startProfileDropoutS: 0.02 }, {}, 0, -0.02)),
   },
+  // The inrush's peak Tj against Tj(max) (vehicle: 10 K below); the charge completing; the load's peak against its rating.
+  "inrush-tj": {
+    pass: p("integrated-switch", { inrushTjC: 140 }, { tjMaxC: 150 }, 150, 10),
+    violate: v("fail", p("pfet-high-side", { inrushTjC: 152 }, { tjMaxC: 150 }, 150, -2)),
+  },
+  "inrush-completes": {
+    pass: p("integrated-switch", { inrushCharges: true }, {}),
+    violate: v("fail", p("integrated-switch", { inrushCharges: false }, {})),
+  },
+  "load-overvoltage": {
+    pass: p("integrated-switch", { loadTransientVMaxV: 34, loadMaxV: 40 }, {}, 40, 6),
+    violate: v("fail", p("pn-diode", { loadTransientVMaxV: 48, loadMaxV: 40 }, {}, 40, -8)),
+  },
 };
 
 const VEHICLE: Record<string, RuleCases> = {
   ...DEFAULT,
+  "inrush-tj": {
+    pass: p("integrated-switch", { inrushTjC: 135 }, { tjMaxC: 150 }, 140, 5),
+    violate: v("fail", p("nfet-ideal-diode", { inrushTjC: 145 }, { tjMaxC: 150 }, 140, -5)),
+  },
   "tj-limit": {
     pass: p("schottky-diode", { tjWorstC: 135 }, { tjMaxC: 150 }, 140, 5),
     violate: v("fail", p("schottky-diode", { tjWorstC: 145 }, { tjMaxC: 150 }, 140, -5)),
