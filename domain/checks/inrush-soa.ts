@@ -1,10 +1,13 @@
 import { type FosterTerm, stepFoster } from "../physics/foster.js";
 import { type InrushCircuit, inrushCharge, type InrushWaveform } from "./inrush.js";
 
-/** How the junction follows the inrush's loss: a Foster network (Zth) or, without one, the steady path. */
+/**
+ * How the junction follows the inrush's loss: a Foster network (Zth), or none (then only a stall,
+ * held for good, has a junction temperature: the steady path's).
+ */
 export type InrushThermal =
   | { readonly kind: "foster"; readonly terms: readonly FosterTerm[]; readonly steadyRthKPerW: number }
-  | { readonly kind: "quasi-static"; readonly rthKPerW: number };
+  | { readonly kind: "none"; readonly steadyRthKPerW: number };
 
 export interface InrushSoaModel extends InrushCircuit {
   /** The junction at the start of the charge (the die is at ambient at power-on), °C. */
@@ -24,9 +27,11 @@ interface Figures {
 export type InrushResult =
   | ({
       readonly outcome: "charged";
-      /** Highest junction temperature during the charge, °C. */
-      readonly tjPeakC: number;
+      /** Highest junction temperature during the charge, °C; absent without a transient network. */
+      readonly tjPeakC?: number;
       readonly thermalModel: InrushThermal["kind"];
+      /** The part's shutdown temperature, where it has one and no network says whether the charge reaches it. */
+      readonly shutdownUnassessedC?: number;
     } & Figures)
   | ({
       readonly outcome: "thermal-shutdown";
@@ -54,18 +59,18 @@ const STEPS = 2000;
  * The stage's safe operating area during the inrush in its thermally limited form: the junction
  * follows the charge's loss P(t) (inrush.ts) from the ambient through the stage's transient
  * thermal network (Foster, stepped exactly for the power held over each step: foster.ts), its
- * peak is what a rule holds to Tj(max). Without a network the junction is the steady path's
- * response to the peak loss, Tamb + Rth·Ppeak: an upper bound (a pulse heats less than its
- * steady state). A part with a thermal shutdown that its junction reaches before the charge is
- * done switches off: the start fails (outcome thermal-shutdown). An output that stalls (the load
+ * peak is what a rule holds to Tj(max). Without a network the pulse's Tj is not assessed (the
+ * steady path's Tamb + Rth·Ppeak bounds it, but hundreds of times too high for a pulse of
+ * microseconds to milliseconds: no figure, the rule stays open). A part with a thermal shutdown
+ * that its junction reaches before the charge is done switches off: the start fails (outcome
+ * thermal-shutdown). An output that stalls (the load
  * takes the whole available current) never charges: the loss is held, its Tj is the steady one.
  */
 export function inrushSoa(m: InrushSoaModel): InrushResult {
   const charge = inrushCharge(m);
   const shutdown = m.thermalShutdownC;
   if (charge.outcome === "stalls") {
-    const rth = m.thermal.kind === "foster" ? m.thermal.steadyRthKPerW : m.thermal.rthKPerW;
-    const steadyC = m.ambientC + rth * charge.stallPowerW;
+    const steadyC = m.ambientC + m.thermal.steadyRthKPerW * charge.stallPowerW;
     return {
       outcome: "does-not-charge",
       stallV: charge.stallV,
@@ -81,24 +86,27 @@ export function inrushSoa(m: InrushSoaModel): InrushResult {
     peakCurrentA: charge.peakCurrentA,
     peakPowerW: charge.peakPowerW,
   };
-  const hit = m.thermal.kind === "foster" ? fosterPeak(charge, m.thermal.terms, m.ambientC, shutdown) : undefined;
-  const tjPeakC =
-    hit?.tjPeakC ?? m.ambientC + (m.thermal.kind === "quasi-static" ? m.thermal.rthKPerW : 0) * charge.peakPowerW;
-  const shutAtS = hit !== undefined ? hit.shutdownAtS : shutdown !== undefined && tjPeakC >= shutdown ? 0 : undefined;
+  if (m.thermal.kind === "none")
+    return {
+      outcome: "charged",
+      thermalModel: "none",
+      ...(shutdown === undefined ? {} : { shutdownUnassessedC: shutdown }),
+      ...figures,
+    };
+  const hit = fosterPeak(charge, m.thermal.terms, m.ambientC, shutdown);
+  const shutAtS = hit.shutdownAtS;
   if (shutdown !== undefined && shutAtS !== undefined && shutAtS < charge.chargeTimeS) {
-    const bound =
-      m.thermal.kind === "quasi-static" ? " (steady-path upper bound: give a transient thermal network)" : "";
     return {
       outcome: "thermal-shutdown",
       shutdownAtS: shutAtS,
       outputAtShutdownV: charge.outputV(shutAtS),
       tjPeakC: shutdown,
       thermalModel: m.thermal.kind,
-      reason: `the junction reaches its shutdown temperature ${shutdown} °C at ${shutAtS.toPrecision(3)} s, before the charge completes at ${charge.chargeTimeS.toPrecision(3)} s${bound}: the switch turns off and the start fails`,
+      reason: `the junction reaches its shutdown temperature ${shutdown} °C at ${shutAtS.toPrecision(3)} s, before the charge completes at ${charge.chargeTimeS.toPrecision(3)} s: the switch turns off and the start fails`,
       ...figures,
     };
   }
-  return { outcome: "charged", tjPeakC, thermalModel: m.thermal.kind, ...figures };
+  return { outcome: "charged", tjPeakC: hit.tjPeakC, thermalModel: "foster", ...figures };
 }
 
 function fosterPeak(

@@ -63,7 +63,7 @@ export function reviewInrush(inrush: ReviewInrush, stage: StageModel, thermal: T
   const th: InrushThermal =
     thermal.kind === "foster"
       ? { kind: "foster", terms: thermal.terms, steadyRthKPerW: steady }
-      : { kind: "quasi-static", rthKPerW: steady };
+      : { kind: "none", steadyRthKPerW: steady };
   const shutdownC = stage.kind === "integrated-switch" ? stage.thermalShutdownC : undefined;
   const result = inrushSoa({
     inputV: inrush.inputV,

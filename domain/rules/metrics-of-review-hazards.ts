@@ -98,7 +98,9 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
 /**
  * The start-up charge of the output capacitance (review-inrush.ts) → inrushTjC and
  * inrushCharges: charged (Tj peak, true), thermal shutdown (its temperature, false), a stall
- * (the steady junction, false). A diode stage is out of scope; a load the charge cannot model is a gap.
+ * (the steady junction, false). A diode stage is out of scope; a load the charge cannot model is
+ * a gap, as is the pulse's Tj without a transient thermal network (and then whether a switch's
+ * thermal shutdown comes first).
  */
 function inrushMetrics(r: CandidateReview, s: Scope): void {
   const names = ["inrushTjC", "inrushCharges"];
@@ -111,8 +113,15 @@ function inrushMetrics(r: CandidateReview, s: Scope): void {
     for (const n of names) (i.scope === "out" ? s.notRequired : s.unavailable)[n] = i.reason;
     return;
   }
-  s.metrics["inrushTjC"] = i.result.tjPeakC;
-  s.metrics["inrushCharges"] = i.result.outcome === "charged";
+  const res = i.result;
+  if (res.tjPeakC !== undefined) s.metrics["inrushTjC"] = res.tjPeakC;
+  else
+    s.unavailable["inrushTjC"] =
+      "no transient thermal network for the candidate (transientThermal): the junction during the charge's pulse is not assessed";
+  if (res.outcome === "charged" && res.shutdownUnassessedC !== undefined)
+    s.unavailable["inrushCharges"] =
+      `the switch shuts down at ${res.shutdownUnassessedC} °C and no transient thermal network says whether the charge reaches it (transientThermal)`;
+  else s.metrics["inrushCharges"] = res.outcome === "charged";
 }
 
 /**
