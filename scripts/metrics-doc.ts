@@ -82,6 +82,7 @@ const RULE_HAZARDS: Readonly<Record<string, string>> = {
   "gate-drive-at-min-supply": "start-up",
   "inrush-tj": "start-up (inrush)",
   "inrush-completes": "start-up (inrush)",
+  "inrush-soa": "start-up (inrush)",
   "load-overvoltage": "load voltage",
   "reverse-current-blocking": "reverse current",
   "reverse-current-budget": "reverse current",

@@ -162,6 +162,7 @@ function toMosfet(m: MosfetSpec, path: (string | number)[], assumptions: string[
     ...(m.avalancheEnergyJ === undefined ? {} : { avalancheEnergyJ: m.avalancheEnergyJ }),
     ...(m.peakRepetitiveCurrentA === undefined ? {} : { peakRepetitiveCurrentA: m.peakRepetitiveCurrentA }),
     ...(m.avalancheCurrentA === undefined ? {} : { avalancheCurrentA: m.avalancheCurrentA }),
+    ...(m.soa === undefined ? {} : { soa: m.soa }),
     ...(m.offStateLeakage === undefined
       ? {}
       : { offStateLeakage: { currentA: m.offStateLeakage.currentA, tempK: cToK(m.offStateLeakage.tempC) } }),

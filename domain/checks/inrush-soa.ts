@@ -22,6 +22,8 @@ interface Figures {
   readonly energyJ: number;
   readonly peakCurrentA: number;
   readonly peakPowerW: number;
+  /** The stage's voltage at its peak power, V. */
+  readonly peakPowerVdsV: number;
 }
 
 export type InrushResult =
@@ -85,6 +87,7 @@ export function inrushSoa(m: InrushSoaModel): InrushResult {
     energyJ: charge.energyJ,
     peakCurrentA: charge.peakCurrentA,
     peakPowerW: charge.peakPowerW,
+    peakPowerVdsV: charge.peakPowerVdsV,
   };
   if (m.thermal.kind === "none")
     return {

@@ -52,6 +52,8 @@ export interface InrushWaveform {
   readonly energyJ: number;
   readonly peakCurrentA: number;
   readonly peakPowerW: number;
+  /** The stage's voltage at its peak power, V (the peak power's current is peakPowerW over it). */
+  readonly peakPowerVdsV: number;
 }
 
 export type InrushCharge =
@@ -106,6 +108,7 @@ export function inrushCharge(c: InrushCircuit): InrushCharge {
       energyJ,
       peakCurrentA: i0,
       peakPowerW: i0 * i0 * d.channelOhm,
+      peakPowerVdsV: i0 * d.channelOhm,
     };
   }
   if (d.kind === "slew") {
@@ -119,9 +122,13 @@ export function inrushCharge(c: InrushCircuit): InrushCharge {
     if (c.load.kind === "resistive") energyJ += (vin * vin * vin) / (6 * c.load.resistanceOhm * s);
     // P = (Vin − v)(C·s + v/RL) peaks inside the ramp at v* = (Vin − C·s·RL)/2 where that is above 0.
     let peakPowerW = powerW(0);
+    let peakPowerVdsV = vin;
     if (c.load.kind === "resistive") {
       const vStar = (vin - cap * s * c.load.resistanceOhm) / 2;
-      if (vStar > 0) peakPowerW = Math.max(peakPowerW, powerW(vStar / s));
+      if (vStar > 0 && powerW(vStar / s) > peakPowerW) {
+        peakPowerW = powerW(vStar / s);
+        peakPowerVdsV = vin - vStar;
+      }
     }
     return {
       outcome: "charges",
@@ -133,6 +140,7 @@ export function inrushCharge(c: InrushCircuit): InrushCharge {
       energyJ,
       peakCurrentA: cap * s + loadA(c.load, vin),
       peakPowerW,
+      peakPowerVdsV,
     };
   }
   const lim = d.limitA;
@@ -173,6 +181,7 @@ export function inrushCharge(c: InrushCircuit): InrushCharge {
     energyJ,
     peakCurrentA: lim,
     peakPowerW: vin * lim,
+    peakPowerVdsV: vin,
   };
 }
 

@@ -5,7 +5,8 @@ import type { TransientThermal } from "../checks/start-up.js";
 import { cToK } from "../physics/constants.js";
 import { channelResistanceOhm, type ChannelParams } from "../physics/mosfet-channel.js";
 import { totalRthKPerW } from "../physics/thermal-path.js";
-import type { StageModel } from "../stages/stage-model.js";
+import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
+import { type SoaCheck, soaCheck } from "../checks/soa-lines.js";
 
 /** The start-up charge of the output capacitance each candidate is put through in the review. */
 export interface ReviewInrush {
@@ -23,7 +24,13 @@ export interface ReviewInrush {
 }
 
 export type ReviewInrushResult =
-  | { readonly assessed: true; readonly drive: InrushDrive["kind"]; readonly result: InrushResult }
+  | {
+      readonly assessed: true;
+      readonly drive: InrushDrive["kind"];
+      readonly result: InrushResult;
+      /** The pulse against the MOSFET's datasheet SOA lines (absent: the MOSFET gives none). */
+      readonly soa?: SoaCheck;
+    }
   /** Not assessed: out of scope for the stage (a diode), or a gap (the load cannot be modelled in the charge). */
   | { readonly assessed: false; readonly scope: "out" | "gap"; readonly reason: string };
 
@@ -74,7 +81,23 @@ export function reviewInrush(inrush: ReviewInrush, stage: StageModel, thermal: T
     thermal: th,
     ...(shutdownC === undefined ? {} : { thermalShutdownC: shutdownC }),
   });
-  return { assessed: true, drive: drive.kind, result };
+  const lines = stageMosfet(stage)?.soa;
+  const soa =
+    lines === undefined || result.outcome === "does-not-charge"
+      ? undefined
+      : soaCheck(
+          lines,
+          {
+            energyJ: result.energyJ,
+            peakPowerW: result.peakPowerW,
+            // A pair's channels share an uncontrolled charge's drop; in a slew or at a limit one FET may hold it all.
+            vdsAtPeakV: drive.kind === "uncontrolled" ? result.peakPowerVdsV / channel.count : result.peakPowerVdsV,
+            currentAtPeakA: result.peakPowerVdsV > 0 ? result.peakPowerW / result.peakPowerVdsV : 0,
+          },
+          stageTjMaxC(stage),
+          inrush.ambientC,
+        );
+  return { assessed: true, drive: drive.kind, result, ...(soa === undefined ? {} : { soa }) };
 }
 
 /** The stage's channel, its full drive and how many channels the current passes in series. */

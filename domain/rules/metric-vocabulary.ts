@@ -339,6 +339,24 @@ export const METRICS: readonly MetricDef[] = [
     providedBy: "review (requirement.inrush)",
   },
   {
+    name: "inrushSoaCurrentA",
+    type: "number",
+    unit: "A",
+    meaning:
+      "drain current at the inrush pulse's peak power, the pulse taken as the rectangle of its energy at that power (width E/Ppeak)",
+    stageKinds: FETS,
+    providedBy: "review (requirement.inrush, mosfet.soa)",
+  },
+  {
+    name: "inrushSoaAllowedA",
+    type: "number",
+    unit: "A",
+    meaning:
+      "the MOSFET's datasheet single-pulse SOA lines at that pulse's Vds and width (log-log between points and lines), derated from the 25 °C case to the starting junction by (Tj,max − Tstart)/(Tj,max − 25 °C)",
+    stageKinds: FETS,
+    providedBy: "review (requirement.inrush, mosfet.soa)",
+  },
+  {
     name: "loadTransientVMaxV",
     type: "number",
     unit: "V",
@@ -652,6 +670,8 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
   startProfileDropoutS: computed,
   inrushTjC: computed,
   inrushCharges: computed,
+  inrushSoaCurrentA: computed,
+  inrushSoaAllowedA: computed,
   loadTransientVMaxV: computed,
   loadMaxV: requirement,
   peakReverseCurrentA: {

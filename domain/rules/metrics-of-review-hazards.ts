@@ -1,6 +1,7 @@
 import { behaviourOf } from "../stages/stage-behaviours.js";
 import { type CandidateReview, type ReviewRequirement, steadyOvervoltageV } from "../review/candidate-review.js";
 import type { StageModel } from "../stages/stage-model.js";
+import type { SoaCheck } from "../checks/soa-lines.js";
 
 interface Scope {
   readonly metrics: Record<string, number | boolean>;
@@ -106,11 +107,11 @@ function inrushMetrics(r: CandidateReview, s: Scope): void {
   const names = ["inrushTjC", "inrushCharges"];
   const i = r.inrush;
   if (i === undefined) {
-    for (const n of names) s.notRequired[n] = "the requirement gives no inrush (requirement.inrush)";
+    for (const n of [...names, ...SOA_NAMES]) s.notRequired[n] = "the requirement gives no inrush (requirement.inrush)";
     return;
   }
   if (!i.assessed) {
-    for (const n of names) (i.scope === "out" ? s.notRequired : s.unavailable)[n] = i.reason;
+    for (const n of [...names, ...SOA_NAMES]) (i.scope === "out" ? s.notRequired : s.unavailable)[n] = i.reason;
     return;
   }
   const res = i.result;
@@ -122,6 +123,27 @@ function inrushMetrics(r: CandidateReview, s: Scope): void {
     s.unavailable["inrushCharges"] =
       `the switch shuts down at ${res.shutdownUnassessedC} °C and no transient thermal network says whether the charge reaches it (transientThermal)`;
   else s.metrics["inrushCharges"] = res.outcome === "charged";
+  inrushSoaMetrics(i.soa, res.outcome === "does-not-charge", s);
+}
+
+const SOA_NAMES = ["inrushSoaCurrentA", "inrushSoaAllowedA"];
+
+/** The inrush pulse against the MOSFET's SOA lines (soa-lines.ts): its current at the peak power and the lines' allowance. */
+function inrushSoaMetrics(soa: SoaCheck | undefined, stalls: boolean, s: Scope): void {
+  const names = SOA_NAMES;
+  if (soa === undefined) {
+    const why = stalls
+      ? "the output stalls: the charge fails on inrush-completes"
+      : "the stage gives no SOA lines (mosfet.soa): its pulse is checked through its junction temperature (inrush-tj) alone";
+    for (const n of names) s.notRequired[n] = why;
+    return;
+  }
+  if (!soa.assessed) {
+    for (const n of names) s.unavailable[n] = soa.reason;
+    return;
+  }
+  s.metrics["inrushSoaCurrentA"] = soa.currentA;
+  s.metrics["inrushSoaAllowedA"] = soa.allowedA;
 }
 
 /**

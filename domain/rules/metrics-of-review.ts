@@ -35,6 +35,8 @@ export const REVIEW_COMPUTES = [
   "vdsBreakdownColdV",
   "inrushTjC",
   "inrushCharges",
+  "inrushSoaCurrentA",
+  "inrushSoaAllowedA",
   "loadTransientVMaxV",
 ] as const;
 

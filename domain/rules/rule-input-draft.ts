@@ -61,6 +61,8 @@ export const ANALYSIS_ONLY_METRICS: Readonly<Record<string, readonly string[]>> 
     "vdsBreakdownColdV",
     "inrushTjC",
     "inrushCharges",
+    "inrushSoaCurrentA",
+    "inrushSoaAllowedA",
     "loadTransientVMaxV",
     "loadMaxV",
   ],

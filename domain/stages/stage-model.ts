@@ -2,6 +2,7 @@ import type { DiodeParams } from "../physics/diode.js";
 import type { LeakageLaw } from "../physics/schottky-leakage.js";
 import type { ChannelParams } from "../physics/mosfet-channel.js";
 import type { ThermalPath } from "../physics/thermal-path.js";
+import type { SoaLine } from "../checks/soa-lines.js";
 import { behaviourOf } from "./stage-behaviours.js";
 
 /**
@@ -56,6 +57,8 @@ export interface MosfetModel {
   readonly repetitiveAvalancheEnergyJ?: number;
   /** Temperature coefficient of the drain-source breakdown, 1/K; absent: DEFAULT_VDS_TEMPCO_PER_K. */
   readonly vdsTempCoPerK?: number;
+  /** Datasheet single-pulse SOA lines at a 25 °C case; absent: not given. */
+  readonly soa?: readonly SoaLine[];
 }
 
 /** P-channel MOSFET in the supply line, gate pulled to ground: |Vgs| = min(Vout, clamp). */

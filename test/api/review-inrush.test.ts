@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { procedureInvoker } from "../../adapters/batch/run-batch.js";
 import { demoContext, postTrpc, testApp } from "../helpers/app.js";
+import { KNOWN_BAD } from "../known-bad/designs.js";
 
 // The review's inrush and load-side overvoltage through the procedure: the closed forms of
 // domain/checks/inrush.ts and load-overvoltage.ts (docs/references.md "Inrush"), the defaults it
@@ -113,5 +114,22 @@ describe("review: what reaches the load through the switch's overvoltage cut-off
     const issues = (r.body as { error: { data: { backstop: { issues: { path: (string | number)[] }[] } } } }).error.data
       .backstop.issues;
     expect(issues.map((i) => i.path.join("."))).toContain(path);
+  });
+});
+
+describe("review: the inrush pulse against the MOSFET's SOA lines", () => {
+  it("the known-bad slew: 2.2 A at 16 V for E/Ppeak = 8 ms against the lines' log-log value derated to 85 °C", async () => {
+    const d = KNOWN_BAD.find((x) => x.id === "inrush-slew-outside-soa");
+    if (d === undefined) throw new Error("design missing");
+    const c = (await call(d.bad)).candidates[0];
+    // Slew 1000 V/s into 2200 uF: I = C·s = 2.2 A at Vds = 16 V, E = ½·C·V², Ppeak = C·s·V → 8 ms.
+    // Along the 1 ms and 10 ms lines at 16 V (log-log): 200·16^(ln 0.01/ln 60) and 100·16^(ln 0.006/ln 60);
+    // between them at 8 ms (log-log in width), ×(175 − 85)/(175 − 25) = 0.6.
+    const at1 = 200 * 16 ** (Math.log(0.01) / Math.log(60));
+    const at10 = 100 * 16 ** (Math.log(0.006) / Math.log(60));
+    const allowed = Math.exp(Math.log(at1) + Math.log10(8) * Math.log(at10 / at1)) * 0.6;
+    expect(c?.metrics["inrushSoaCurrentA"]).toBeCloseTo(2.2, 9);
+    expect(c?.metrics["inrushSoaAllowedA"]).toBeCloseTo(allowed, 9);
+    expect(allowed).toBeCloseTo(2.08, 2);
   });
 });

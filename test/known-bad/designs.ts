@@ -159,6 +159,30 @@ const switchZth: Obj = {
     { rKPerW: 48.2, tauS: 10 },
   ],
 };
+/** Invented single-pulse SOA lines of the test FET (25 °C case), straight on log-log axes. */
+const soaLines: Obj[] = [
+  {
+    pulseWidthS: 1e-3,
+    points: [
+      { vdsV: 1, idA: 200 },
+      { vdsV: 60, idA: 2 },
+    ],
+  },
+  {
+    pulseWidthS: 10e-3,
+    points: [
+      { vdsV: 1, idA: 100 },
+      { vdsV: 60, idA: 0.6 },
+    ],
+  },
+  {
+    pulseWidthS: 0.1,
+    points: [
+      { vdsV: 1, idA: 60 },
+      { vdsV: 60, idA: 0.2 },
+    ],
+  },
+];
 const reviewZth = (requirement: Obj, stage: Obj, transientThermal: Obj): Obj => ({
   requirement,
   candidates: [{ stage, transientThermal }],
@@ -606,6 +630,23 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     twin: reviewZth(
       { ...req12, inrush: { outputCapacitanceF: "2200 uF", slewVPerS: "1000 V/s", load: { kind: "none" } } },
       idealDiode(),
+      fetZth,
+    ),
+  },
+  {
+    id: "inrush-slew-outside-soa",
+    hazard: "start-up",
+    why: "an ideal-diode FET slewing 2200 uF at 1 V/ms holds 2.2 A at 16 V for an 8 ms equivalent pulse: within Tj(max) by its Zth, but its SOA lines allow 3.5 A there at a 25 °C case, 2.1 A from 85 °C (twin: 0.5 V/ms, 1.1 A for 16 ms against 1.6 A)",
+    procedure: "review",
+    rule: "inrush-soa",
+    bad: reviewZth(
+      { ...req12, inrush: { outputCapacitanceF: "2200 uF", slewVPerS: "1000 V/s", load: { kind: "none" } } },
+      idealDiode({ soa: soaLines }),
+      fetZth,
+    ),
+    twin: reviewZth(
+      { ...req12, inrush: { outputCapacitanceF: "2200 uF", slewVPerS: "500 V/s", load: { kind: "none" } } },
+      idealDiode({ soa: soaLines }),
       fetZth,
     ),
   },

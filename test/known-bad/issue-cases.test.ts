@@ -70,6 +70,11 @@ const REVIEWS: readonly { readonly id: string; readonly rule: string; readonly i
     input: design("inrush-uncontrolled-into-2200uF"),
   },
   {
+    id: "ideal-diode-slew-2.2a-at-16v-outside-soa",
+    rule: "inrush-soa",
+    input: design("inrush-slew-outside-soa"),
+  },
+  {
     id: "switch-thermal-shutdown-before-4700uF-charged",
     rule: "inrush-completes",
     input: design("inrush-current-limit-thermal-shutdown"),

@@ -263,6 +263,10 @@ const DEFAULT: Record<string, RuleCases> = {
     pass: p("integrated-switch", { inrushCharges: true }, {}),
     violate: v("fail", p("integrated-switch", { inrushCharges: false }, {})),
   },
+  "inrush-soa": {
+    pass: p("nfet-ideal-diode", { inrushSoaCurrentA: 2, inrushSoaAllowedA: 2.5 }, {}, 2.5, 0.5),
+    violate: v("fail", p("pfet-high-side", { inrushSoaCurrentA: 3, inrushSoaAllowedA: 2.5 }, {}, 2.5, -0.5)),
+  },
   "load-overvoltage": {
     pass: p("integrated-switch", { loadTransientVMaxV: 34, loadMaxV: 40 }, {}, 40, 6),
     violate: v("fail", p("pn-diode", { loadTransientVMaxV: 48, loadMaxV: 40 }, {}, 40, -8)),
@@ -271,6 +275,11 @@ const DEFAULT: Record<string, RuleCases> = {
 
 const VEHICLE: Record<string, RuleCases> = {
   ...DEFAULT,
+  // 0.9 · 2.5 A = 2.25 A.
+  "inrush-soa": {
+    pass: p("nfet-ideal-diode", { inrushSoaCurrentA: 2, inrushSoaAllowedA: 2.5 }, {}, 2.25, 0.25),
+    violate: v("fail", p("nfet-back-to-back", { inrushSoaCurrentA: 2.4, inrushSoaAllowedA: 2.5 }, {}, 2.25, -0.15)),
+  },
   "inrush-tj": {
     pass: p("integrated-switch", { inrushTjC: 135 }, { tjMaxC: 150 }, 140, 5),
     violate: v("fail", p("nfet-ideal-diode", { inrushTjC: 145 }, { tjMaxC: 150 }, 140, -5)),
