@@ -165,11 +165,12 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
   );
   const transients = req.transients.flatMap((p) => sweptTransientStress(cand.stage, p, tctx));
   const atLoad = loadOvervoltage(cand.stage, req.transients, transients, tctx);
-  const inrush = req.inrush ? reviewInrush(req.inrush, cand.stage, cand.transientThermal) : undefined;
 
   // Thermal sizing at the hot, full-load corner with the datasheet-maximum part, at the supply
   // whose corner ran hottest (every supply when none of those corners has a point).
   const sizingStage = cand.datasheetMax ? scaleStage(cand.stage, cand.datasheetMax) : cand.stage;
+  // The inrush with the same datasheet-maximum part: a higher Rds(on) takes more of an uncontrolled charge's loss.
+  const inrush = req.inrush ? reviewInrush(req.inrush, sizingStage, cand.transientThermal) : undefined;
   const hotTolerance = cand.datasheetMax ? "datasheet-max" : "typical";
   let hottest: { supplyV: number; tjC: number } | undefined;
   for (const c of corners) {
