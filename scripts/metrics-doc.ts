@@ -84,6 +84,7 @@ const RULE_HAZARDS: Readonly<Record<string, string>> = {
   "inrush-completes": "start-up (inrush)",
   "inrush-soa": "start-up (inrush)",
   "load-overvoltage": "load voltage",
+  "switch-cutoff-above-supply": "load voltage",
   "reverse-current-blocking": "reverse current",
   "reverse-current-budget": "reverse current",
   "battery-back-drain": "reverse current",

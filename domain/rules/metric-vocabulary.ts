@@ -357,6 +357,14 @@ export const METRICS: readonly MetricDef[] = [
     providedBy: "review (requirement.inrush, mosfet.soa)",
   },
   {
+    name: "overvoltageCutoffV",
+    type: "number",
+    unit: "V",
+    meaning: "input voltage above which an integrated switch opens (its overvoltage cut-off threshold)",
+    stageKinds: ["integrated-switch"],
+    providedBy: `${STAGE} (overvoltageCutoffV), in the review`,
+  },
+  {
     name: "loadTransientVMaxV",
     type: "number",
     unit: "V",
@@ -672,6 +680,7 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
   inrushCharges: computed,
   inrushSoaCurrentA: computed,
   inrushSoaAllowedA: computed,
+  overvoltageCutoffV: stageRole,
   loadTransientVMaxV: computed,
   loadMaxV: requirement,
   peakReverseCurrentA: {

@@ -92,6 +92,9 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
   }
   inrushMetrics(r, s);
   metrics["loadTransientVMaxV"] = r.loadOvervoltage.loadVMaxV;
+  const cutoff = r.loadOvervoltage.cutoff;
+  if (cutoff !== undefined) metrics["overvoltageCutoffV"] = cutoff.thresholdV;
+  else notRequired["overvoltageCutoffV"] = "the stage has no overvoltage cut-off";
   if (req.loadMaxV !== undefined) metrics["loadMaxV"] = req.loadMaxV;
   else notRequired["loadMaxV"] = "the requirement states no highest load voltage (loadMaxV)";
 }

@@ -65,6 +65,7 @@ export const ANALYSIS_ONLY_METRICS: Readonly<Record<string, readonly string[]>> 
     "inrushSoaAllowedA",
     "loadTransientVMaxV",
     "loadMaxV",
+    "overvoltageCutoffV",
   ],
   turnOff: ["peakReverseCurrentA", "absorbedEnergyJ", "eventTjC", "avalancheEnergyAtTjJ", "turnOffRepetitive"],
   holdUp: ["holdUpS", "holdUpRequiredS"],

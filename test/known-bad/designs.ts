@@ -668,6 +668,15 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     ),
   },
   {
+    id: "switch-cutoff-inside-supply-range",
+    hazard: "load",
+    why: "an integrated switch whose overvoltage cut-off is 15 V on a 12 V code B supply that runs to 16 V: it opens in normal service (twin: 30 V)",
+    procedure: "review",
+    rule: "switch-cutoff-above-supply",
+    bad: review(req12, integratedSwitch({ overvoltageCutoffV: 15, overvoltageResponseS: "10 us" })),
+    twin: review(req12, integratedSwitch({ overvoltageCutoffV: 30, overvoltageResponseS: "10 us" })),
+  },
+  {
     id: "load-dump-reaches-the-load",
     hazard: "load",
     why: "a switch without an overvoltage cut-off passes the 35 V suppressed load dump to a load rated 32 V (twin: a 30 V cut-off opening in 10 us lets 30.1 V through)",

@@ -80,6 +80,11 @@ const REVIEWS: readonly { readonly id: string; readonly rule: string; readonly i
     input: design("inrush-current-limit-thermal-shutdown"),
   },
   {
+    id: "switch-cut-off-15v-inside-16v-supply",
+    rule: "switch-cutoff-above-supply",
+    input: design("switch-cutoff-inside-supply-range"),
+  },
+  {
     id: "switch-without-cut-off-passes-35v-to-32v-load",
     rule: "load-overvoltage",
     input: design("load-dump-reaches-the-load"),
