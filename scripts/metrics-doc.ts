@@ -85,6 +85,7 @@ const RULE_HAZARDS: Readonly<Record<string, string>> = {
   "inrush-soa": "start-up (inrush)",
   "load-overvoltage": "load voltage",
   "switch-cutoff-above-supply": "load voltage",
+  "switch-current-limit-above-load": "load voltage",
   "reverse-current-blocking": "reverse current",
   "reverse-current-budget": "reverse current",
   "battery-back-drain": "reverse current",

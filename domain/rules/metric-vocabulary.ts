@@ -365,6 +365,23 @@ export const METRICS: readonly MetricDef[] = [
     providedBy: `${STAGE} (overvoltageCutoffV), in the review`,
   },
   {
+    name: "stageCurrentMaxA",
+    type: "number",
+    unit: "A",
+    meaning:
+      "highest current through the stage over the review's corners (a constant-power load's at the lowest supply)",
+    stageKinds: ["integrated-switch"],
+    providedBy: "review (corners), for a stage with a current limit",
+  },
+  {
+    name: "switchCurrentLimitA",
+    type: "number",
+    unit: "A",
+    meaning: "current an integrated switch limits to",
+    stageKinds: ["integrated-switch"],
+    providedBy: `${STAGE} (currentLimitA), in the review`,
+  },
+  {
     name: "loadTransientVMaxV",
     type: "number",
     unit: "V",
@@ -681,6 +698,8 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
   inrushSoaCurrentA: computed,
   inrushSoaAllowedA: computed,
   overvoltageCutoffV: stageRole,
+  stageCurrentMaxA: computed,
+  switchCurrentLimitA: stageRole,
   loadTransientVMaxV: computed,
   loadMaxV: requirement,
   peakReverseCurrentA: {

@@ -95,6 +95,7 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
   const cutoff = r.loadOvervoltage.cutoff;
   if (cutoff !== undefined) metrics["overvoltageCutoffV"] = cutoff.thresholdV;
   else notRequired["overvoltageCutoffV"] = "the stage has no overvoltage cut-off";
+  currentLimitMetrics(stage, r, s);
   if (req.loadMaxV !== undefined) metrics["loadMaxV"] = req.loadMaxV;
   else notRequired["loadMaxV"] = "the requirement states no highest load voltage (loadMaxV)";
 }
@@ -177,4 +178,28 @@ function clampPowerMetrics(r: CandidateReview, unrated: boolean, always: string 
   s.metrics["clampPeakPowerW"] = worst?.p ?? 0;
   if (worst !== undefined) s.metrics["clampPeakPowerAllowedW"] = worst.allowed;
   else s.notRequired["clampPeakPowerAllowedW"] = "the input clamp conducts in none of the requirement's pulses";
+}
+
+/**
+ * An integrated switch's current limit against the highest current of the corners: a load that
+ * needs the limit or more is held at it in service (the forward model does not limit), so the
+ * load collapses. A corner without an operating point leaves the figure unavailable.
+ */
+function currentLimitMetrics(stage: StageModel, r: CandidateReview, s: Scope): void {
+  const limitA = stage.kind === "integrated-switch" ? stage.currentLimitA : undefined;
+  if (limitA === undefined) {
+    for (const n of ["stageCurrentMaxA", "switchCurrentLimitA"]) s.notRequired[n] = "the stage has no current limit";
+    return;
+  }
+  s.metrics["switchCurrentLimitA"] = limitA;
+  let maxA = 0;
+  for (const [i, c] of r.corners.entries()) {
+    if (!("point" in c.result)) {
+      s.unavailable["stageCurrentMaxA"] =
+        `corner ${i} has no operating point (${c.result.outcome}: ${c.result.reason})`;
+      return;
+    }
+    maxA = Math.max(maxA, c.result.point.currentA);
+  }
+  s.metrics["stageCurrentMaxA"] = maxA;
 }

@@ -38,6 +38,7 @@ export const REVIEW_COMPUTES = [
   "inrushSoaCurrentA",
   "inrushSoaAllowedA",
   "loadTransientVMaxV",
+  "stageCurrentMaxA",
 ] as const;
 
 export interface RequirementFlags {

@@ -66,6 +66,8 @@ export const ANALYSIS_ONLY_METRICS: Readonly<Record<string, readonly string[]>> 
     "loadTransientVMaxV",
     "loadMaxV",
     "overvoltageCutoffV",
+    "stageCurrentMaxA",
+    "switchCurrentLimitA",
   ],
   turnOff: ["peakReverseCurrentA", "absorbedEnergyJ", "eventTjC", "avalancheEnergyAtTjJ", "turnOffRepetitive"],
   holdUp: ["holdUpS", "holdUpRequiredS"],

@@ -677,6 +677,21 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     twin: review(req12, integratedSwitch({ overvoltageCutoffV: 30, overvoltageResponseS: "10 us" })),
   },
   {
+    id: "switch-current-limit-below-load",
+    hazard: "load",
+    why: "an integrated switch limiting at 6 A ahead of an 8 A load: in service it holds 6 A and the load collapses, though every corner solved with the switch fully on (twin: a 10 A limit)",
+    procedure: "review",
+    rule: "switch-current-limit-above-load",
+    bad: review(
+      { ...req12, load: { kind: "constant-current", currentA: 8 } },
+      integratedSwitch({ thermal: { kind: "junction-ambient", rthJaKPerW: 10 } }),
+    ),
+    twin: review(
+      { ...req12, load: { kind: "constant-current", currentA: 8 } },
+      integratedSwitch({ currentLimitA: 10, thermal: { kind: "junction-ambient", rthJaKPerW: 10 } }),
+    ),
+  },
+  {
     id: "load-dump-reaches-the-load",
     hazard: "load",
     why: "a switch without an overvoltage cut-off passes the 35 V suppressed load dump to a load rated 32 V (twin: a 30 V cut-off opening in 10 us lets 30.1 V through)",

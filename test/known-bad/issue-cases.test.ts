@@ -85,6 +85,11 @@ const REVIEWS: readonly { readonly id: string; readonly rule: string; readonly i
     input: design("switch-cutoff-inside-supply-range"),
   },
   {
+    id: "switch-6a-limit-ahead-of-8a-load",
+    rule: "switch-current-limit-above-load",
+    input: design("switch-current-limit-below-load"),
+  },
+  {
     id: "switch-without-cut-off-passes-35v-to-32v-load",
     rule: "load-overvoltage",
     input: design("load-dump-reaches-the-load"),

@@ -267,6 +267,10 @@ const DEFAULT: Record<string, RuleCases> = {
     pass: p("nfet-ideal-diode", { inrushSoaCurrentA: 2, inrushSoaAllowedA: 2.5 }, {}, 2.5, 0.5),
     violate: v("fail", p("pfet-high-side", { inrushSoaCurrentA: 3, inrushSoaAllowedA: 2.5 }, {}, 2.5, -0.5)),
   },
+  "switch-current-limit-above-load": {
+    pass: p("integrated-switch", { stageCurrentMaxA: 3, switchCurrentLimitA: 6 }, {}, 6, 3),
+    violate: v("fail", p("integrated-switch", { stageCurrentMaxA: 8, switchCurrentLimitA: 6 }, {}, 6, -2)),
+  },
   "switch-cutoff-above-supply": {
     pass: p("integrated-switch", { overvoltageCutoffV: 30, supplyMaxV: 16 }, {}, 16, 14),
     violate: v("fail", p("integrated-switch", { overvoltageCutoffV: 15, supplyMaxV: 16 }, {}, 16, -1)),
