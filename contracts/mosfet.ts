@@ -102,6 +102,28 @@ export const mosfet = z
       "repetitive avalanche energy rating EAR, per event (for the turn-off rules when the event repeats)",
       { gt: 0, le: 1e6 },
     ).optional(),
+    soa: z
+      .array(
+        z.strictObject({
+          pulseWidthS: quantity("s", "single-pulse width of the line", { gt: 0, le: 1e4 }),
+          points: z
+            .array(
+              z.strictObject({
+                vdsV: volts("drain-source voltage"),
+                idA: quantity("A", "drain current the line allows there", { gt: 0, le: 1e5 }),
+              }),
+            )
+            .min(2)
+            .max(16),
+        }),
+      )
+      .min(1)
+      .max(8)
+      .optional()
+      .meta({
+        description:
+          "datasheet single-pulse safe operating area at a 25 °C case: a line of points (Vds ascending) per pulse width, for the inrush check (absent: the inrush is checked through Tj alone)",
+      }),
   })
   .superRefine((m, ctx) => {
     if (m.thresholdAtTj !== undefined && m.thresholdTempCoVPerK !== undefined)
@@ -133,6 +155,16 @@ export const mosfet = z
           message: `must be above the threshold voltage (${m.thresholdV} V)`,
         });
       }
+    });
+    m.soa?.forEach((line, i) => {
+      const prev = m.soa?.[i - 1];
+      if (prev && !(line.pulseWidthS > prev.pulseWidthS))
+        ctx.addIssue({ code: "custom", path: ["soa", i, "pulseWidthS"], message: "pulse widths must increase" });
+      line.points.forEach((p, k) => {
+        const before = line.points[k - 1];
+        if (before && !(p.vdsV > before.vdsV))
+          ctx.addIssue({ code: "custom", path: ["soa", i, "points", k, "vdsV"], message: "voltages must increase" });
+      });
     });
     const law = m.rdsOnTemp;
     if (law?.law === "points") {

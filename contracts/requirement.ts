@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { profilePointCount, START_PROFILE_IDS, START_PROFILE_POINTS } from "../domain/checks/start-profiles.js";
+import { reviewInrush } from "./inrush.js";
 import { load } from "./load.js";
 import { quantity, ratio, temperatureC } from "./quantity.js";
 import {
@@ -260,6 +261,10 @@ export const requirement = z
       le: 200,
     }).optional(),
     turnOff: reviewTurnOff.optional(),
+    inrush: reviewInrush.optional(),
+    loadMaxV: volts(
+      "highest voltage the load withstands (absent: what reaches the load in surges is reported, not checked)",
+    ).optional(),
   })
   .superRefine((r, ctx) => {
     if (r.ambient.minC > r.ambient.maxC)

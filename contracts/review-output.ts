@@ -155,6 +155,14 @@ export const candidateResult = z.object({
     description: "steady reverse polarity: blocking element, voltage vs rating, leakage, junction temperature",
   }),
   transients: z.unknown().meta({ description: "per pulse: peak, element stresses, clamp requirement" }),
+  inrush: z.unknown().optional().meta({
+    description:
+      "with the requirement's inrush: the drive (uncontrolled, slew, current-limit), the charge time, peak current and power, the stage's energy, its Tj peak and the outcome (charged, thermal-shutdown, does-not-charge)",
+  }),
+  loadOvervoltage: z.unknown().optional().meta({
+    description:
+      "what reaches the load per positive pulse (an overvoltage cut-off opens above its threshold after its response time) and the highest of them with the steady overvoltages",
+  }),
   thermalSizing: z.unknown(),
   energy: z.unknown().optional(),
   standby: z.unknown(),

@@ -183,7 +183,21 @@ export const stageSpec = z
         blocksReverseCurrent: z.boolean().optional().meta({
           description: "turns off on reverse current (default: true when regulatedDropV > 0, i.e. an ideal-diode type)",
         }),
-        currentLimitA: quantity("A", "current limit", { gt: 0, le: 1e4 }).optional(),
+        currentLimitA: quantity("A", "current limit (also into the output capacitance at start-up)", {
+          gt: 0,
+          le: 1e4,
+        }).optional(),
+        thermalShutdownC: temperatureC(
+          "junction temperature at which the switch shuts itself down (absent: no thermal shutdown)",
+        ).optional(),
+        overvoltageCutoffV: volts(
+          "input voltage above which the switch opens, keeping a surge from the load (absent: no overvoltage cut-off)",
+        ).optional(),
+        overvoltageResponseS: quantity(
+          "s",
+          "time from the input crossing the cut-off threshold to the switch open (absent: taken as instant)",
+          { ge: 0, le: 1 },
+        ).optional(),
         tjMaxC: temperatureC("maximum junction temperature"),
         thermal: thermalPath,
       })

@@ -2,6 +2,7 @@ import { CORNER_HEADERS, cornerTable, worstLines } from "./corner-table.js";
 import { type Block, toHtmlBody, toMarkdown } from "./doc.js";
 import { type Candidate, escapeHtml, num, type Review, slug } from "./format.js";
 import { htmlPage } from "./html-page.js";
+import { inrushLines } from "./inrush-lines.js";
 import { monteCarloBlocks } from "./monte-carlo-blocks.js";
 import { candidateCharts, type ReportChart } from "./review-charts.js";
 import { marginText, orderedVerdicts, outcomeLabel, outOfScope, outOfScopeSummary, valuesText } from "./verdicts.js";
@@ -123,6 +124,7 @@ function candidateBlocks(c: Candidate, charts: readonly ReportChart[]): Block[] 
           `start-up profile at ${num(p.ambientC)} °C: lowest load voltage ${num(p.result.minLoadV)} V, highest Tj ${num(p.result.maxTjC)} °C, body-diode time ${num(p.result.bodyDiodeTimeS)} s, dropout ${num(p.result.dropoutTimeS)} s (${p.result.thermalModel})`,
       ),
       ...turnOffLines(c),
+      ...inrushLines(c),
       ...(c.costTotal === undefined ? [] : [`cost ${num(c.costTotal)}`]),
     ],
   });

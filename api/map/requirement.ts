@@ -15,6 +15,7 @@ import { findTransient, TRANSIENT_LIBRARY, type TransientPulse } from "../../dom
 import { unknownIdMessage } from "../../contracts/zod-messages.js";
 import { inputProblem } from "../input-problem.js";
 import { missingQrrSentence, ONE_OFF_EVENT } from "./reverse-inputs.js";
+import { reviewInrushOf } from "./inrush-requirement.js";
 
 /** Defaults of the design review [common practice], each recorded in `assumptions` when used. */
 export const REVIEW_DEFAULTS = {
@@ -192,6 +193,8 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
       ...(r.battery ? { battery: r.battery } : {}),
       tjMarginK,
       ...(r.turnOff ? { turnOff: reviewTurnOffOf(r.turnOff, nominalV, assumptions) } : {}),
+      ...(r.inrush ? { inrush: reviewInrushOf(r, r.inrush, maxV, assumptions) } : {}),
+      ...(r.loadMaxV === undefined ? {} : { loadMaxV: r.loadMaxV }),
     },
   };
 }

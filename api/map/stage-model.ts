@@ -93,6 +93,8 @@ export function toStageModel(
         blocksReverseCurrent: blocksReverse(spec, path, assumptions),
         ...(spec.avalancheEnergyJ === undefined ? {} : { avalancheEnergyJ: spec.avalancheEnergyJ }),
         ...(spec.currentLimitA === undefined ? {} : { currentLimitA: spec.currentLimitA }),
+        ...(spec.thermalShutdownC === undefined ? {} : { thermalShutdownC: spec.thermalShutdownC }),
+        ...overvoltageCutoff(spec, path, assumptions),
         tjMaxC: spec.tjMaxC,
         thermal,
       };
@@ -100,6 +102,23 @@ export function toStageModel(
 }
 
 type ControllerSpec = Extract<StageSpec, { kind: "nfet-ideal-diode" }>["controller"];
+
+/** An integrated switch's overvoltage cut-off; without a response time it is taken as instant (declared). */
+function overvoltageCutoff(
+  spec: Extract<StageSpec, { kind: "integrated-switch" }>,
+  path: readonly (string | number)[],
+  assumptions: string[],
+): { overvoltageCutoffV?: number; overvoltageResponseS?: number } {
+  if (spec.overvoltageCutoffV === undefined) return {};
+  if (spec.overvoltageResponseS === undefined)
+    assumptions.push(
+      `${[...path, "overvoltageResponseS"].join(".")}: not given: the cut-off is taken as instant (the load sees its threshold ${spec.overvoltageCutoffV} V at most)`,
+    );
+  return {
+    overvoltageCutoffV: spec.overvoltageCutoffV,
+    ...(spec.overvoltageResponseS === undefined ? {} : { overvoltageResponseS: spec.overvoltageResponseS }),
+  };
+}
 
 /** The contract's diode kinds and the technology their forward fit assumes. */
 const DIODE_TECHNOLOGY = { "pn-diode": "pn", "schottky-diode": "schottky" } as const;
@@ -151,6 +170,7 @@ function toMosfet(m: MosfetSpec, path: (string | number)[], assumptions: string[
     ...(m.avalancheEnergyJ === undefined ? {} : { avalancheEnergyJ: m.avalancheEnergyJ }),
     ...(m.peakRepetitiveCurrentA === undefined ? {} : { peakRepetitiveCurrentA: m.peakRepetitiveCurrentA }),
     ...(m.avalancheCurrentA === undefined ? {} : { avalancheCurrentA: m.avalancheCurrentA }),
+    ...(m.soa === undefined ? {} : { soa: m.soa }),
     ...(m.offStateLeakage === undefined
       ? {}
       : { offStateLeakage: { currentA: m.offStateLeakage.currentA, tempK: cToK(m.offStateLeakage.tempC) } }),

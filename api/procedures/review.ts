@@ -197,6 +197,8 @@ export const review = defineProcedure({
             }),
         reverse: e.r.reverse,
         transients: e.r.transients,
+        ...(e.r.inrush === undefined ? {} : { inrush: e.r.inrush }),
+        loadOvervoltage: e.r.loadOvervoltage,
         thermalSizing: e.r.thermalSizing,
         ...(e.r.energy ? { energy: e.r.energy } : {}),
         standby: e.r.standby,

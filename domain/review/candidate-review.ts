@@ -30,6 +30,8 @@ import { type StageScale, scaleStage, UNSCALED } from "../stages/scale-stage.js"
 import { type StageModel, stageStartV, stageTjMaxC } from "../stages/stage-model.js";
 import { behaviourOf } from "../stages/stage-behaviours.js";
 import type { TransientPulse } from "./transient-library.js";
+import { type LoadOvervoltage, loadOvervoltage } from "../checks/load-overvoltage.js";
+import { type ReviewInrush, type ReviewInrushResult, reviewInrush } from "./review-inrush.js";
 import { type ReviewTurnOff, type ReviewTurnOffResult, reviewTurnOff } from "./review-turn-off.js";
 
 export interface ReviewRequirement {
@@ -62,6 +64,10 @@ export interface ReviewRequirement {
   readonly tjMarginK: number;
   /** The reverse-current event every candidate is put through (absent: not reviewed). */
   readonly turnOff?: ReviewTurnOff;
+  /** The start-up charge of the output capacitance every candidate is put through (absent: not reviewed). */
+  readonly inrush?: ReviewInrush;
+  /** Highest voltage the load withstands, V; absent: what reaches the load is reported, not checked. */
+  readonly loadMaxV?: number;
 }
 
 export interface ReviewCandidate {
@@ -104,6 +110,10 @@ export interface CandidateReview {
   readonly standby: StandbyDrain;
   readonly blocksReverseCurrent: boolean;
   readonly turnOff?: ReviewTurnOffResult;
+  /** The start-up charge of the output capacitance (with the requirement's inrush). */
+  readonly inrush?: ReviewInrushResult;
+  /** What reaches the load from the positive surges and steady overvoltages (an overvoltage cut-off opens above its threshold). */
+  readonly loadOvervoltage: LoadOvervoltage;
 }
 
 /** Every check of one candidate against the requirement. Pure; deterministic. */
@@ -171,10 +181,13 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
     cand.transientAllowanceV ? { allowanceV: cand.transientAllowanceV } : {},
   );
   const transients = req.transients.flatMap((p) => sweptTransientStress(cand.stage, p, tctx));
+  const atLoad = loadOvervoltage(cand.stage, req.transients, transients, tctx);
 
   // Thermal sizing at the hot, full-load corner with the datasheet-maximum part, at the supply
   // whose corner ran hottest (every supply when none of those corners has a point).
   const sizingStage = cand.datasheetMax ? scaleStage(cand.stage, cand.datasheetMax) : cand.stage;
+  // The inrush with the same datasheet-maximum part: a higher Rds(on) takes more of an uncontrolled charge's loss.
+  const inrush = req.inrush ? reviewInrush(req.inrush, sizingStage, cand.transientThermal) : undefined;
   const hotTolerance = cand.datasheetMax ? "datasheet-max" : "typical";
   let hottest: { supplyV: number; tjC: number } | undefined;
   for (const c of corners) {
@@ -245,6 +258,8 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
     standby: standbyDrain(cand.stage, req.loadStandbyA, req.battery),
     blocksReverseCurrent: blocksReverseCurrent(cand.stage),
     ...(turnOff ? { turnOff } : {}),
+    ...(inrush ? { inrush } : {}),
+    loadOvervoltage: atLoad,
   };
 }
 

@@ -88,7 +88,9 @@ export function reviewTurnOff(
   const waveform = cand.turnOffWaveform ? turnOffWaveform(model, result) : undefined;
   const thermal = cand.transientThermal;
   const train =
-    t.repetition !== undefined && thermal?.kind === "foster" ? eventTrain(result, thermal.terms, t.repetition, tjC) : undefined;
+    t.repetition !== undefined && thermal?.kind === "foster"
+      ? eventTrain(result, thermal.terms, t.repetition, tjC)
+      : undefined;
   return {
     tjC,
     tjSource,

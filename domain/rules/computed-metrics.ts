@@ -52,4 +52,9 @@ export const RESULT_FLAGS: Readonly<Record<string, { readonly metric: string } |
   meetsRequirement: { metric: "holdUpS" },
   aboveTjMax: { metric: "reverseTjC" },
   inChatterBand: { metric: "startChatter" },
+  cutOff: { metric: "loadTransientVMaxV" },
+  assessed: {
+    notALimit:
+      "whether the inrush is modelled for the candidate: where not, inrushTjC and inrushCharges are a gap or out of scope with the reason",
+  },
 };

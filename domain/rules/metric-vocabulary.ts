@@ -338,6 +338,84 @@ export const METRICS: readonly MetricDef[] = [
     providedBy: "review (start-up profile)",
   },
   {
+    name: "inrushTjC",
+    type: "number",
+    unit: "°C",
+    meaning:
+      "highest junction temperature while the stage charges the output capacitance at start-up (from the highest ambient, through the transient thermal network; without one the steady path at the peak loss, an upper bound); at a thermal shutdown its temperature, at a stall the steady junction",
+    stageKinds: [...FETS, "integrated-switch"],
+    providedBy: "review (requirement.inrush)",
+  },
+  {
+    name: "inrushCharges",
+    type: "boolean",
+    unit: "-",
+    meaning:
+      "whether the start-up charge of the output capacitance completes: false where the load takes the whole current limit (the output stalls) or the switch reaches its thermal shutdown first",
+    stageKinds: [...FETS, "integrated-switch"],
+    providedBy: "review (requirement.inrush)",
+  },
+  {
+    name: "inrushSoaCurrentA",
+    type: "number",
+    unit: "A",
+    meaning:
+      "drain current at the inrush pulse's peak power, the pulse taken as the rectangle of its energy at that power (width E/Ppeak)",
+    stageKinds: FETS,
+    providedBy: "review (requirement.inrush, mosfet.soa)",
+  },
+  {
+    name: "inrushSoaAllowedA",
+    type: "number",
+    unit: "A",
+    meaning:
+      "the MOSFET's datasheet single-pulse SOA lines at that pulse's Vds and width (log-log between points and lines), derated from the 25 °C case to the starting junction by (Tj,max − Tstart)/(Tj,max − 25 °C)",
+    stageKinds: FETS,
+    providedBy: "review (requirement.inrush, mosfet.soa)",
+  },
+  {
+    name: "overvoltageCutoffV",
+    type: "number",
+    unit: "V",
+    meaning: "input voltage above which an integrated switch opens (its overvoltage cut-off threshold)",
+    stageKinds: ["integrated-switch"],
+    providedBy: `${STAGE} (overvoltageCutoffV), in the review`,
+  },
+  {
+    name: "stageCurrentMaxA",
+    type: "number",
+    unit: "A",
+    meaning:
+      "highest current through the stage over the review's corners (a constant-power load's at the lowest supply)",
+    stageKinds: ["integrated-switch"],
+    providedBy: "review (corners), for a stage with a current limit",
+  },
+  {
+    name: "switchCurrentLimitA",
+    type: "number",
+    unit: "A",
+    meaning: "current an integrated switch limits to",
+    stageKinds: ["integrated-switch"],
+    providedBy: `${STAGE} (currentLimitA), in the review`,
+  },
+  {
+    name: "loadTransientVMaxV",
+    type: "number",
+    unit: "V",
+    meaning:
+      "highest voltage the load sees: the highest steady supply, the steady overvoltages and every positive pulse after the design's clamp, each cut to an integrated switch's overvoltage threshold plus what the input rises in its response time",
+    stageKinds: "all",
+    providedBy: "review",
+  },
+  {
+    name: "loadMaxV",
+    type: "number",
+    unit: "V",
+    meaning: "highest voltage the load withstands",
+    stageKinds: "all",
+    providedBy: `${REQ} (loadMaxV)`,
+  },
+  {
     name: "peakReverseCurrentA",
     type: "number",
     unit: "A",
@@ -650,7 +728,7 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
     notAssessed: {
       stageKinds: ["pn-diode", "schottky-diode", "pfet-high-side", "nfet-low-side"],
       reason:
-        "a conducting diode or MOSFET passes a positive surge on to the load at its forward drop (its own voltage stays small); a MOSFET's gate stress from the surge is ruled through gateSourceVMaxV; the load's rating is not modelled",
+        "a conducting diode or MOSFET passes a positive surge on to the load at its forward drop (its own voltage stays small); a MOSFET's gate stress from the surge is ruled through gateSourceVMaxV; what reaches the load through loadTransientVMaxV",
     },
   },
   gateSourceVMaxV: computed,
@@ -678,6 +756,15 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
   supplyOvervoltageV: requirement,
   startProfileMinV: requirement,
   startProfileDropoutS: computed,
+  inrushTjC: computed,
+  inrushCharges: computed,
+  inrushSoaCurrentA: computed,
+  inrushSoaAllowedA: computed,
+  overvoltageCutoffV: stageRole,
+  stageCurrentMaxA: computed,
+  switchCurrentLimitA: stageRole,
+  loadTransientVMaxV: computed,
+  loadMaxV: requirement,
   peakReverseCurrentA: {
     role: "computed",
     notAssessed: {

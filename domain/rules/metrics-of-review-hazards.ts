@@ -2,6 +2,7 @@ import { behaviourOf } from "../stages/stage-behaviours.js";
 import { type CandidateReview, type ReviewRequirement, steadyOvervoltageV } from "../review/candidate-review.js";
 import type { StageModel } from "../stages/stage-model.js";
 import type { InputClamp } from "../checks/transient-stress.js";
+import type { SoaCheck } from "../checks/soa-lines.js";
 
 interface Scope {
   readonly metrics: Record<string, number | boolean>;
@@ -93,6 +94,64 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
     metrics["startProfileMinV"] = Math.min(...profile.map((p) => p.voltageV));
     metrics["startProfileDropoutS"] = Math.max(0, ...r.startUp.profiles.map((p) => p.result.dropoutTimeS));
   }
+  inrushMetrics(r, s);
+  metrics["loadTransientVMaxV"] = r.loadOvervoltage.loadVMaxV;
+  const cutoff = r.loadOvervoltage.cutoff;
+  if (cutoff !== undefined) metrics["overvoltageCutoffV"] = cutoff.thresholdV;
+  else notRequired["overvoltageCutoffV"] = "the stage has no overvoltage cut-off";
+  currentLimitMetrics(stage, r, s);
+  if (req.loadMaxV !== undefined) metrics["loadMaxV"] = req.loadMaxV;
+  else notRequired["loadMaxV"] = "the requirement states no highest load voltage (loadMaxV)";
+}
+
+/**
+ * The start-up charge of the output capacitance (review-inrush.ts) → inrushTjC and
+ * inrushCharges: charged (Tj peak, true), thermal shutdown (its temperature, false), a stall
+ * (the steady junction, false). A diode stage is out of scope; a load the charge cannot model is
+ * a gap, as is the pulse's Tj without a transient thermal network (and then whether a switch's
+ * thermal shutdown comes first).
+ */
+function inrushMetrics(r: CandidateReview, s: Scope): void {
+  const names = ["inrushTjC", "inrushCharges"];
+  const i = r.inrush;
+  if (i === undefined) {
+    for (const n of [...names, ...SOA_NAMES]) s.notRequired[n] = "the requirement gives no inrush (requirement.inrush)";
+    return;
+  }
+  if (!i.assessed) {
+    for (const n of [...names, ...SOA_NAMES]) (i.scope === "out" ? s.notRequired : s.unavailable)[n] = i.reason;
+    return;
+  }
+  const res = i.result;
+  if (res.tjPeakC !== undefined) s.metrics["inrushTjC"] = res.tjPeakC;
+  else
+    s.unavailable["inrushTjC"] =
+      "no transient thermal network for the candidate (transientThermal): the junction during the charge's pulse is not assessed";
+  if (res.outcome === "charged" && res.shutdownUnassessedC !== undefined)
+    s.unavailable["inrushCharges"] =
+      `the switch shuts down at ${res.shutdownUnassessedC} °C and no transient thermal network says whether the charge reaches it (transientThermal)`;
+  else s.metrics["inrushCharges"] = res.outcome === "charged";
+  inrushSoaMetrics(i.soa, res.outcome === "does-not-charge", s);
+}
+
+const SOA_NAMES = ["inrushSoaCurrentA", "inrushSoaAllowedA"];
+
+/** The inrush pulse against the MOSFET's SOA lines (soa-lines.ts): its current at the peak power and the lines' allowance. */
+function inrushSoaMetrics(soa: SoaCheck | undefined, stalls: boolean, s: Scope): void {
+  const names = SOA_NAMES;
+  if (soa === undefined) {
+    const why = stalls
+      ? "the output stalls: the charge fails on inrush-completes"
+      : "the stage gives no SOA lines (mosfet.soa): its pulse is checked through its junction temperature (inrush-tj) alone";
+    for (const n of names) s.notRequired[n] = why;
+    return;
+  }
+  if (!soa.assessed) {
+    for (const n of names) s.unavailable[n] = soa.reason;
+    return;
+  }
+  s.metrics["inrushSoaCurrentA"] = soa.currentA;
+  s.metrics["inrushSoaAllowedA"] = soa.allowedA;
 }
 
 /**
@@ -161,4 +220,28 @@ function clampTrainMetrics(
     tj = Math.max(tj, train.trainTjC);
   }
   s.metrics["clampTrainTjC"] = tj;
+}
+
+/**
+ * An integrated switch's current limit against the highest current of the corners: a load that
+ * needs the limit or more is held at it in service (the forward model does not limit), so the
+ * load collapses. A corner without an operating point leaves the figure unavailable.
+ */
+function currentLimitMetrics(stage: StageModel, r: CandidateReview, s: Scope): void {
+  const limitA = stage.kind === "integrated-switch" ? stage.currentLimitA : undefined;
+  if (limitA === undefined) {
+    for (const n of ["stageCurrentMaxA", "switchCurrentLimitA"]) s.notRequired[n] = "the stage has no current limit";
+    return;
+  }
+  s.metrics["switchCurrentLimitA"] = limitA;
+  let maxA = 0;
+  for (const [i, c] of r.corners.entries()) {
+    if (!("point" in c.result)) {
+      s.unavailable["stageCurrentMaxA"] =
+        `corner ${i} has no operating point (${c.result.outcome}: ${c.result.reason})`;
+      return;
+    }
+    maxA = Math.max(maxA, c.result.point.currentA);
+  }
+  s.metrics["stageCurrentMaxA"] = maxA;
 }

@@ -38,6 +38,12 @@ export const REVIEW_COMPUTES = [
   "vdsBreakdownColdV",
   "startChatter",
   "gateOverdriveColdV",
+  "inrushTjC",
+  "inrushCharges",
+  "inrushSoaCurrentA",
+  "inrushSoaAllowedA",
+  "loadTransientVMaxV",
+  "stageCurrentMaxA",
 ] as const;
 
 export interface RequirementFlags {

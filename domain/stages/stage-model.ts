@@ -2,6 +2,7 @@ import type { DiodeParams } from "../physics/diode.js";
 import type { LeakageLaw } from "../physics/schottky-leakage.js";
 import type { ChannelParams } from "../physics/mosfet-channel.js";
 import type { ThermalPath } from "../physics/thermal-path.js";
+import type { SoaLine } from "../checks/soa-lines.js";
 import { behaviourOf } from "./stage-behaviours.js";
 
 /**
@@ -56,6 +57,8 @@ export interface MosfetModel {
   readonly repetitiveAvalancheEnergyJ?: number;
   /** Temperature coefficient of the drain-source breakdown, 1/K; absent: DEFAULT_VDS_TEMPCO_PER_K. */
   readonly vdsTempCoPerK?: number;
+  /** Datasheet single-pulse SOA lines at a 25 °C case; absent: not given. */
+  readonly soa?: readonly SoaLine[];
 }
 
 /** P-channel MOSFET in the supply line, gate pulled to ground: |Vgs| = min(Vout, clamp). */
@@ -117,7 +120,14 @@ export interface IntegratedSwitchStage {
   readonly blocksReverseCurrent: boolean;
   /** Energy its internal FET or clamp absorbs in one pulse at 25 °C start, J; absent: not rated. */
   readonly avalancheEnergyJ?: number;
+  /** Current the switch limits to (also into the output capacitance at start-up), A; absent: no limit. */
   readonly currentLimitA?: number;
+  /** Junction temperature at which the switch shuts itself down, °C; absent: no thermal shutdown. */
+  readonly thermalShutdownC?: number;
+  /** Input voltage above which the switch opens (overvoltage cut-off), V; absent: it passes every surge on. */
+  readonly overvoltageCutoffV?: number;
+  /** Time from the input crossing the cut-off to the switch open, s; absent: taken as instant (declared). */
+  readonly overvoltageResponseS?: number;
   readonly tjMaxC: number;
   readonly thermal: ThermalPath;
 }

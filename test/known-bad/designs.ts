@@ -179,6 +179,51 @@ const coldRail = (thresholdMaxV: number): Obj => ({
     },
   ],
 });
+/** Invented Foster networks (Zth) summing to the stage's steady path: 45 K/W (the FET), 55 K/W (the switch). */
+const fetZth: Obj = {
+  kind: "foster",
+  terms: [
+    { rKPerW: 0.5, tauS: 1e-3 },
+    { rKPerW: 4, tauS: 0.05 },
+    { rKPerW: 40.5, tauS: 10 },
+  ],
+};
+const switchZth: Obj = {
+  kind: "foster",
+  terms: [
+    { rKPerW: 0.8, tauS: 1e-3 },
+    { rKPerW: 6, tauS: 0.05 },
+    { rKPerW: 48.2, tauS: 10 },
+  ],
+};
+/** Invented single-pulse SOA lines of the test FET (25 °C case), straight on log-log axes. */
+const soaLines: Obj[] = [
+  {
+    pulseWidthS: 1e-3,
+    points: [
+      { vdsV: 1, idA: 200 },
+      { vdsV: 60, idA: 2 },
+    ],
+  },
+  {
+    pulseWidthS: 10e-3,
+    points: [
+      { vdsV: 1, idA: 100 },
+      { vdsV: 60, idA: 0.6 },
+    ],
+  },
+  {
+    pulseWidthS: 0.1,
+    points: [
+      { vdsV: 1, idA: 60 },
+      { vdsV: 60, idA: 0.2 },
+    ],
+  },
+];
+const reviewZth = (requirement: Obj, stage: Obj, transientThermal: Obj): Obj => ({
+  requirement,
+  candidates: [{ stage, transientThermal }],
+});
 /** A bidirectional TVS-like input clamp: stand-off above jump start, clamping below the parts' ratings. */
 const clamp = (o: Obj = {}): Obj => ({ standoffV: 26, clampV: 40, peakCurrentA: 100, energyJ: 100, ...o });
 /** The 10 uH cut of the ideal diode repeated every periodS, on a candidate with a junction-ambient Foster network. */
@@ -723,6 +768,93 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     twin: review(
       { ...req12, load: { kind: "constant-power", powerW: 8, minVoltageV: 3 }, loadMinV: 3, startProfile: crank },
       pn({ thermal: { kind: "junction-ambient", rthJaKPerW: 20 } }),
+    ),
+  },
+  {
+    id: "inrush-uncontrolled-into-2200uF",
+    hazard: "start-up",
+    why: "an ideal-diode FET switched fully on into 2200 uF at 16 V: about 3.5 kA for tens of us, the whole ½·C·V² = 0.28 J in the channel, Tj far above 175 °C (twin: the gate slews the output at 1 V/ms, 35 W for 16 ms)",
+    procedure: "review",
+    rule: "inrush-tj",
+    bad: reviewZth(
+      { ...req12, inrush: { outputCapacitanceF: "2200 uF", load: { kind: "none" } } },
+      idealDiode(),
+      fetZth,
+    ),
+    twin: reviewZth(
+      { ...req12, inrush: { outputCapacitanceF: "2200 uF", slewVPerS: "1000 V/s", load: { kind: "none" } } },
+      idealDiode(),
+      fetZth,
+    ),
+  },
+  {
+    id: "inrush-slew-outside-soa",
+    hazard: "start-up",
+    why: "an ideal-diode FET slewing 2200 uF at 1 V/ms holds 2.2 A at 16 V for an 8 ms equivalent pulse: within Tj(max) by its Zth, but its SOA lines allow 3.5 A there at a 25 °C case, 2.1 A from 85 °C (twin: 0.5 V/ms, 1.1 A for 16 ms against 1.6 A)",
+    procedure: "review",
+    rule: "inrush-soa",
+    bad: reviewZth(
+      { ...req12, inrush: { outputCapacitanceF: "2200 uF", slewVPerS: "1000 V/s", load: { kind: "none" } } },
+      idealDiode({ soa: soaLines }),
+      fetZth,
+    ),
+    twin: reviewZth(
+      { ...req12, inrush: { outputCapacitanceF: "2200 uF", slewVPerS: "500 V/s", load: { kind: "none" } } },
+      idealDiode({ soa: soaLines }),
+      fetZth,
+    ),
+  },
+  {
+    id: "inrush-current-limit-thermal-shutdown",
+    hazard: "start-up",
+    why: "a 6 A current-limited switch charging 4700 uF to 16 V beside a 3 A load needs C·V/(Ilim − IL) = 25 ms at 96 W: its 160 °C thermal shutdown comes first and the product never starts (twin: 470 uF, 2.5 ms)",
+    procedure: "review",
+    rule: "inrush-completes",
+    bad: reviewZth(
+      { ...req12, inrush: { outputCapacitanceF: "4700 uF" } },
+      integratedSwitch({ thermalShutdownC: 160 }),
+      switchZth,
+    ),
+    twin: reviewZth(
+      { ...req12, inrush: { outputCapacitanceF: "470 uF" } },
+      integratedSwitch({ thermalShutdownC: 160 }),
+      switchZth,
+    ),
+  },
+  {
+    id: "switch-cutoff-inside-supply-range",
+    hazard: "load",
+    why: "an integrated switch whose overvoltage cut-off is 15 V on a 12 V code B supply that runs to 16 V: it opens in normal service (twin: 30 V)",
+    procedure: "review",
+    rule: "switch-cutoff-above-supply",
+    bad: review(req12, integratedSwitch({ overvoltageCutoffV: 15, overvoltageResponseS: "10 us" })),
+    twin: review(req12, integratedSwitch({ overvoltageCutoffV: 30, overvoltageResponseS: "10 us" })),
+  },
+  {
+    id: "switch-current-limit-below-load",
+    hazard: "load",
+    why: "an integrated switch limiting at 6 A ahead of an 8 A load: in service it holds 6 A and the load collapses, though every corner solved with the switch fully on (twin: a 10 A limit)",
+    procedure: "review",
+    rule: "switch-current-limit-above-load",
+    bad: review(
+      { ...req12, load: { kind: "constant-current", currentA: 8 } },
+      integratedSwitch({ thermal: { kind: "junction-ambient", rthJaKPerW: 10 } }),
+    ),
+    twin: review(
+      { ...req12, load: { kind: "constant-current", currentA: 8 } },
+      integratedSwitch({ currentLimitA: 10, thermal: { kind: "junction-ambient", rthJaKPerW: 10 } }),
+    ),
+  },
+  {
+    id: "load-dump-reaches-the-load",
+    hazard: "load",
+    why: "a switch without an overvoltage cut-off passes the 35 V suppressed load dump to a load rated 32 V (twin: a 30 V cut-off opening in 10 us lets 30.1 V through)",
+    procedure: "review",
+    rule: "load-overvoltage",
+    bad: review({ ...req12, loadMaxV: 32, transients: ["iso16750-2-load-dump-b-12v"] }, integratedSwitch()),
+    twin: review(
+      { ...req12, loadMaxV: 32, transients: ["iso16750-2-load-dump-b-12v"] },
+      integratedSwitch({ overvoltageCutoffV: 30, overvoltageResponseS: "10 us" }),
     ),
   },
   {

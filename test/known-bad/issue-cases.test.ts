@@ -64,6 +64,36 @@ const REVIEWS: readonly { readonly id: string; readonly rule: string; readonly i
     rule: "fet-vds-reverse-transient-cold",
     input: design("ideal-diode-vds-breakdown-cold"),
   },
+  {
+    id: "ideal-diode-full-on-into-2200uF-over-tj-max",
+    rule: "inrush-tj",
+    input: design("inrush-uncontrolled-into-2200uF"),
+  },
+  {
+    id: "ideal-diode-slew-2.2a-at-16v-outside-soa",
+    rule: "inrush-soa",
+    input: design("inrush-slew-outside-soa"),
+  },
+  {
+    id: "switch-thermal-shutdown-before-4700uF-charged",
+    rule: "inrush-completes",
+    input: design("inrush-current-limit-thermal-shutdown"),
+  },
+  {
+    id: "switch-cut-off-15v-inside-16v-supply",
+    rule: "switch-cutoff-above-supply",
+    input: design("switch-cutoff-inside-supply-range"),
+  },
+  {
+    id: "switch-6a-limit-ahead-of-8a-load",
+    rule: "switch-current-limit-above-load",
+    input: design("switch-current-limit-below-load"),
+  },
+  {
+    id: "switch-without-cut-off-passes-35v-to-32v-load",
+    rule: "load-overvoltage",
+    input: design("load-dump-reaches-the-load"),
+  },
 ];
 const HOLD_UP = (
   JSON.parse(readFileSync(join(projectRoot(), "examples", "requests", "holdUp.json"), "utf8")) as {

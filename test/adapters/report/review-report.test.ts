@@ -209,6 +209,17 @@ describe("design-review report", () => {
     expect(row?.split("|")[12]?.trim()).toBe(`**${Number(c0.worst.tjC.value.toPrecision(4))}** ◆`);
   });
 
+  it("states each candidate's inrush and the switch's cut-off as the result has them", () => {
+    const md = renderReviewReport(result, { id }).markdown;
+    const sw = result.candidates.find((c) => c.stage.partId === "demo-integrated-ideal-diode-5a-36v");
+    const i = sw?.inrush as { drive: string; result: { outcome: string; chargeTimeS: number } } | undefined;
+    if (i === undefined) throw new Error("no inrush for the switch");
+    expect(md).toContain(
+      `inrush (${i.drive}): ${i.result.outcome}: charge ${Number(i.result.chargeTimeS.toPrecision(4))} s`,
+    );
+    expect(md).toContain("overvoltage cut-off at 33 V");
+  });
+
   it("shows the Monte Carlo spread exactly as the result states it", () => {
     const mc = result.monteCarlo;
     if (mc?.tjC === undefined) throw new Error("the example review samples a candidate");

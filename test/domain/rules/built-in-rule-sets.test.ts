@@ -276,10 +276,44 @@ const DEFAULT: Record<string, RuleCases> = {
     pass: p("pn-diode", { startProfileDropoutS: 0 }, {}, 0, 0),
     violate: v("fail", p("pn-diode", { startProfileDropoutS: 0.02 }, {}, 0, -0.02)),
   },
+  // The inrush's peak Tj against Tj(max) (vehicle: 10 K below); the charge completing; the load's peak against its rating.
+  "inrush-tj": {
+    pass: p("integrated-switch", { inrushTjC: 140 }, { tjMaxC: 150 }, 150, 10),
+    violate: v("fail", p("pfet-high-side", { inrushTjC: 152 }, { tjMaxC: 150 }, 150, -2)),
+  },
+  "inrush-completes": {
+    pass: p("integrated-switch", { inrushCharges: true }, {}),
+    violate: v("fail", p("integrated-switch", { inrushCharges: false }, {})),
+  },
+  "inrush-soa": {
+    pass: p("nfet-ideal-diode", { inrushSoaCurrentA: 2, inrushSoaAllowedA: 2.5 }, {}, 2.5, 0.5),
+    violate: v("fail", p("pfet-high-side", { inrushSoaCurrentA: 3, inrushSoaAllowedA: 2.5 }, {}, 2.5, -0.5)),
+  },
+  "switch-current-limit-above-load": {
+    pass: p("integrated-switch", { stageCurrentMaxA: 3, switchCurrentLimitA: 6 }, {}, 6, 3),
+    violate: v("fail", p("integrated-switch", { stageCurrentMaxA: 8, switchCurrentLimitA: 6 }, {}, 6, -2)),
+  },
+  "switch-cutoff-above-supply": {
+    pass: p("integrated-switch", { overvoltageCutoffV: 30, supplyMaxV: 16 }, {}, 16, 14),
+    violate: v("fail", p("integrated-switch", { overvoltageCutoffV: 15, supplyMaxV: 16 }, {}, 16, -1)),
+  },
+  "load-overvoltage": {
+    pass: p("integrated-switch", { loadTransientVMaxV: 34, loadMaxV: 40 }, {}, 40, 6),
+    violate: v("fail", p("pn-diode", { loadTransientVMaxV: 48, loadMaxV: 40 }, {}, 40, -8)),
+  },
 };
 
 const VEHICLE: Record<string, RuleCases> = {
   ...DEFAULT,
+  // 0.9 · 2.5 A = 2.25 A.
+  "inrush-soa": {
+    pass: p("nfet-ideal-diode", { inrushSoaCurrentA: 2, inrushSoaAllowedA: 2.5 }, {}, 2.25, 0.25),
+    violate: v("fail", p("nfet-back-to-back", { inrushSoaCurrentA: 2.4, inrushSoaAllowedA: 2.5 }, {}, 2.25, -0.15)),
+  },
+  "inrush-tj": {
+    pass: p("integrated-switch", { inrushTjC: 135 }, { tjMaxC: 150 }, 140, 5),
+    violate: v("fail", p("nfet-ideal-diode", { inrushTjC: 145 }, { tjMaxC: 150 }, 140, -5)),
+  },
   "tj-limit": {
     pass: p("schottky-diode", { tjWorstC: 135 }, { tjMaxC: 150 }, 140, 5),
     violate: v("fail", p("schottky-diode", { tjWorstC: 145 }, { tjMaxC: 150 }, 140, -5)),

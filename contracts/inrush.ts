@@ -1,0 +1,46 @@
+import { z } from "zod";
+import { quantity } from "./quantity.js";
+
+/** The start-up charge of the output capacitance each candidate is put through in the review. */
+export const reviewInrush = z
+  .strictObject({
+    outputCapacitanceF: quantity("F", "capacitance at the stage's output, charged from 0 V at start-up", {
+      gt: 0,
+      le: 10,
+    }),
+    inputV: quantity("V", "input the output charges to (default: the highest steady supply)", {
+      gt: 0,
+      le: 10_000,
+    }).optional(),
+    slewVPerS: quantity(
+      "V/s",
+      "output slew rate a controller's soft start or a gate RC sets (absent: the channel turns fully on at once, an integrated switch limits at its currentLimitA)",
+      { gt: 0, le: 1e9 },
+    ).optional(),
+    loopResistanceOhm: quantity(
+      "ohm",
+      "resistance in the charging loop besides the source's and the stage's (wiring, capacitor ESR; default 0)",
+      { ge: 0, le: 1e6 },
+    ).optional(),
+    load: z
+      .discriminatedUnion("kind", [
+        z.strictObject({ kind: z.literal("none") }),
+        z.strictObject({
+          kind: z.literal("constant-current"),
+          currentA: quantity("A", "load current during the charge", { ge: 0, le: 1e5 }),
+        }),
+        z.strictObject({
+          kind: z.literal("resistive"),
+          resistanceOhm: quantity("ohm", "load resistance during the charge", { gt: 0, le: 1e12 }),
+        }),
+      ])
+      .optional()
+      .meta({
+        description:
+          "the load during the charge (default: the requirement's load where it is constant-current or resistive; a constant-power load needs it given)",
+      }),
+  })
+  .meta({
+    description:
+      "start-up inrush: each candidate charges the output capacitance; its Tj during the charge (the thermally limited SOA) and whether the charge completes (a current limit, a thermal shutdown)",
+  });

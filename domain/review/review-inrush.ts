@@ -1,0 +1,113 @@
+import type { InrushDrive, InrushLoad } from "../checks/inrush.js";
+import { type InrushResult, type InrushThermal, inrushSoa } from "../checks/inrush-soa.js";
+import { stageMosfet } from "../checks/breakdown-temperature.js";
+import type { TransientThermal } from "../checks/start-up.js";
+import { cToK } from "../physics/constants.js";
+import { channelResistanceOhm, type ChannelParams } from "../physics/mosfet-channel.js";
+import { totalRthKPerW } from "../physics/thermal-path.js";
+import { type StageModel, stageTjMaxC } from "../stages/stage-model.js";
+import { type SoaCheck, soaCheck } from "../checks/soa-lines.js";
+
+/** The start-up charge of the output capacitance each candidate is put through in the review. */
+export interface ReviewInrush {
+  readonly capacitanceF: number;
+  /** The input the output charges to, V. */
+  readonly inputV: number;
+  /** Loop resistance outside the stage (source, wiring, capacitor ESR), ohm. */
+  readonly loopResistanceOhm: number;
+  /** The dV/dt a controller's soft start or a gate RC sets, V/s; absent: the channel turns fully on at once. */
+  readonly slewVPerS?: number;
+  /** The load during the charge; undefined: the requirement's load cannot be modelled in it (reason). */
+  readonly load: InrushLoad | { readonly unmodelled: string };
+  /** The die starts at this ambient, °C. */
+  readonly ambientC: number;
+}
+
+export type ReviewInrushResult =
+  | {
+      readonly assessed: true;
+      readonly drive: InrushDrive["kind"];
+      readonly result: InrushResult;
+      /** The pulse against the MOSFET's datasheet SOA lines (absent: the MOSFET gives none). */
+      readonly soa?: SoaCheck;
+    }
+  /** Not assessed: out of scope for the stage (a diode), or a gap (the load cannot be modelled in the charge). */
+  | { readonly assessed: false; readonly scope: "out" | "gap"; readonly reason: string };
+
+/**
+ * A candidate through the inrush (inrush-soa.ts). The drive follows the stage: an integrated
+ * switch with a current limit limits (unless a given slew keeps the current below its limit); a
+ * given slew sets dV/dt; otherwise the channel turns fully on at once and the loop's resistance
+ * limits the current (the channel at its best-characterised drive and the ambient's Rds(on); a
+ * back-to-back pair has both channels in series). A diode stage carries the inrush on its
+ * junction: its surge rating is not modelled here (not assessed).
+ */
+export function reviewInrush(inrush: ReviewInrush, stage: StageModel, thermal: TransientThermal): ReviewInrushResult {
+  const channel = stageChannel(stage);
+  if (channel === undefined)
+    return {
+      assessed: false,
+      scope: "out",
+      reason: "a diode stage carries the inrush on its junction: its surge current rating is not modelled",
+    };
+  if ("unmodelled" in inrush.load) return { assessed: false, scope: "gap", reason: inrush.load.unmodelled };
+  const load = inrush.load;
+  const limitA = stage.kind === "integrated-switch" ? stage.currentLimitA : undefined;
+  const loadAtInputA =
+    load.kind === "none" ? 0 : load.kind === "constant-current" ? load.currentA : inrush.inputV / load.resistanceOhm;
+  const slew = inrush.slewVPerS;
+  const slewFits = slew !== undefined && (limitA === undefined || inrush.capacitanceF * slew + loadAtInputA <= limitA);
+  let drive: InrushDrive;
+  if (slewFits && slew !== undefined) drive = { kind: "slew", slewVPerS: slew };
+  else if (limitA !== undefined) drive = { kind: "current-limit", limitA };
+  else {
+    const rOhm = channelResistanceOhm(channel.params, channel.gateV, cToK(inrush.ambientC));
+    if (rOhm === undefined)
+      return { assessed: false, scope: "gap", reason: "the channel has no on-resistance at its drive" };
+    drive = { kind: "uncontrolled", channelOhm: channel.count * rOhm, loopOhm: inrush.loopResistanceOhm };
+  }
+  const steady = totalRthKPerW(stage.thermal);
+  const th: InrushThermal =
+    thermal.kind === "foster"
+      ? { kind: "foster", terms: thermal.terms, steadyRthKPerW: steady }
+      : { kind: "none", steadyRthKPerW: steady };
+  const shutdownC = stage.kind === "integrated-switch" ? stage.thermalShutdownC : undefined;
+  const result = inrushSoa({
+    inputV: inrush.inputV,
+    capacitanceF: inrush.capacitanceF,
+    load,
+    drive,
+    ambientC: inrush.ambientC,
+    thermal: th,
+    ...(shutdownC === undefined ? {} : { thermalShutdownC: shutdownC }),
+  });
+  const lines = stageMosfet(stage)?.soa;
+  const soa =
+    lines === undefined || result.outcome === "does-not-charge"
+      ? undefined
+      : soaCheck(
+          lines,
+          {
+            energyJ: result.energyJ,
+            peakPowerW: result.peakPowerW,
+            // A pair's channels share an uncontrolled charge's drop; in a slew or at a limit one FET may hold it all.
+            vdsAtPeakV: drive.kind === "uncontrolled" ? result.peakPowerVdsV / channel.count : result.peakPowerVdsV,
+            currentAtPeakA: result.peakPowerVdsV > 0 ? result.peakPowerW / result.peakPowerVdsV : 0,
+          },
+          stageTjMaxC(stage),
+          inrush.ambientC,
+        );
+  return { assessed: true, drive: drive.kind, result, ...(soa === undefined ? {} : { soa }) };
+}
+
+/** The stage's channel, its full drive and how many channels the current passes in series. */
+function stageChannel(
+  stage: StageModel,
+): { readonly params: ChannelParams; readonly gateV: number; readonly count: number } | undefined {
+  if (stage.kind === "integrated-switch") return { params: stage.channel, gateV: stage.internalGateV, count: 1 };
+  const m = stageMosfet(stage);
+  if (m === undefined) return undefined;
+  const top = m.channel.rdsOnPoints.at(-1);
+  if (top === undefined) return undefined;
+  return { params: m.channel, gateV: top.gateSourceV, count: stage.kind === "nfet-back-to-back" ? 2 : 1 };
+}

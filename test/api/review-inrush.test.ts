@@ -1,0 +1,135 @@
+import { describe, expect, it } from "vitest";
+import { procedureInvoker } from "../../adapters/batch/run-batch.js";
+import { demoContext, postTrpc, testApp } from "../helpers/app.js";
+import { KNOWN_BAD } from "../known-bad/designs.js";
+
+// The review's inrush and load-side overvoltage through the procedure: the closed forms of
+// domain/checks/inrush.ts and load-overvoltage.ts (docs/references.md "Inrush"), the defaults it
+// declares and the gaps it leaves open. The demo switch's figures are invented (examples/catalog).
+
+type Verdict = { ruleId: string; outcome: string; notApplicableCode: string | null; reason: string | null };
+type Cand = {
+  verdict: string;
+  rules: { verdicts: Verdict[] };
+  metrics: Record<string, number | boolean>;
+  inrush?: { assessed: boolean; drive?: string; result?: Record<string, number | string> };
+  loadOvervoltage: { loadVMaxV: number; pulses: { pulseId: string; inputPeakV: number; loadPeakV: number }[] };
+};
+type Out = { candidates: Cand[]; assumptions: string[] };
+
+const review = procedureInvoker(demoContext())("review");
+const call = async (input: unknown) => {
+  if (review === undefined) throw new Error("review missing");
+  return (await review(input)) as Out;
+};
+const verdictOf = (c: Cand | undefined, id: string) => c?.rules.verdicts.find((v) => v.ruleId === id);
+
+const demoSwitch = { stage: { kind: "catalog-part", partId: "demo-integrated-ideal-diode-5a-36v" } };
+const zth = {
+  kind: "foster",
+  terms: [
+    { rKPerW: 0.8, tauS: 1e-3 },
+    { rKPerW: 6, tauS: 0.05 },
+    { rKPerW: 48.2, tauS: 10 },
+  ],
+};
+const req = {
+  supply: { class: "vehicle-12v-b" },
+  load: { kind: "constant-current", currentA: 3 },
+  ambient: { minC: -40, maxC: 85 },
+  transients: ["iso16750-2-load-dump-b-12v"],
+};
+
+describe("review: inrush into the output capacitance", () => {
+  it("the switch charges at its 6 A limit beside the 3 A load in C·V/(Ilim − IL), the input defaulting to the highest steady supply", async () => {
+    const out = await call({
+      requirement: { ...req, inrush: { outputCapacitanceF: "470 uF" } },
+      candidates: [{ ...demoSwitch, transientThermal: zth }],
+    });
+    const c = out.candidates[0];
+    expect(c?.inrush?.drive).toBe("current-limit");
+    // vehicle-12v-b's highest steady supply 16 V: 470 uF·16 V / 3 A = 2.507 ms; energy 6 A·16 V·T/2.
+    const t = (470e-6 * 16) / 3;
+    expect(c?.inrush?.result?.["chargeTimeS"]).toBeCloseTo(t, 12);
+    expect(c?.inrush?.result?.["energyJ"]).toBeCloseTo((6 * 16 * t) / 2, 12);
+    expect(c?.metrics["inrushCharges"]).toBe(true);
+    expect(c?.metrics["inrushTjC"]).toBeGreaterThan(85);
+    expect(verdictOf(c, "inrush-tj")?.outcome).toBe("pass");
+    expect(out.assumptions.some((a) => a.startsWith("inrush.inputV: the highest steady supply 16 V"))).toBe(true);
+    expect(out.assumptions.some((a) => a.startsWith("inrush.load: the requirement's load"))).toBe(true);
+  });
+
+  it("leaves the pulse's Tj open without a transient thermal network, and a constant-power load's charge open without inrush.load", async () => {
+    const noZth = await call({
+      requirement: { ...req, inrush: { outputCapacitanceF: "470 uF" } },
+      candidates: [demoSwitch],
+    });
+    const c = noZth.candidates[0];
+    expect(verdictOf(c, "inrush-tj")?.notApplicableCode).toBe("missing-value");
+    // The demo switch shuts down at 165 °C: without Zth nobody can say whether the charge gets there first.
+    expect(verdictOf(c, "inrush-completes")?.notApplicableCode).toBe("missing-value");
+    expect(c?.verdict).not.toBe("pass");
+
+    const cp = await call({
+      requirement: {
+        ...req,
+        load: { kind: "constant-power", powerW: 20, minVoltageV: 8 },
+        inrush: { outputCapacitanceF: "470 uF" },
+      },
+      candidates: [{ ...demoSwitch, transientThermal: zth }],
+    });
+    expect(cp.candidates[0]?.inrush).toMatchObject({ assessed: false, scope: "gap" });
+    expect(verdictOf(cp.candidates[0], "inrush-tj")?.notApplicableCode).toBe("missing-value");
+  });
+
+  it("without requirement.inrush or loadMaxV the new rules are not required", async () => {
+    const out = await call({ requirement: req, candidates: [{ ...demoSwitch, transientThermal: zth }] });
+    for (const id of ["inrush-tj", "inrush-completes", "load-overvoltage"])
+      expect(verdictOf(out.candidates[0], id)?.notApplicableCode).toBe("not-required");
+  });
+});
+
+describe("review: what reaches the load through the switch's overvoltage cut-off", () => {
+  it("the suppressed 35 V load dump reaches the load at the 33 V threshold plus its rise over the 2 us response", async () => {
+    const out = await call({ requirement: { ...req, loadMaxV: 34 }, candidates: [demoSwitch] });
+    const c = out.candidates[0];
+    const p = c?.loadOvervoltage.pulses.find((x) => x.pulseId === "iso16750-2-load-dump-b-12v");
+    expect(p?.inputPeakV).toBe(35);
+    // Open-circuit rise: (101 − 14) V over 10 ms = 8.7 V/ms; 33 V + 8.7 V/ms·2 us = 33.0174 V.
+    expect(p?.loadPeakV).toBeCloseTo(33 + 8.7e3 * 2e-6, 9);
+    expect(c?.metrics["loadTransientVMaxV"]).toBeCloseTo(33.0174, 9);
+    expect(verdictOf(c, "load-overvoltage")?.outcome).toBe("pass");
+    const tight = await call({ requirement: { ...req, loadMaxV: 33 }, candidates: [demoSwitch] });
+    expect(verdictOf(tight.candidates[0], "load-overvoltage")?.outcome).toBe("fail");
+  });
+
+  const app = testApp().app;
+  it.each([
+    ["an unknown inrush field", { outputCapacitanceF: "470 uF", capacitance: 1 }, "requirement.inrush.capacitance"],
+    ["a slew in the wrong unit", { outputCapacitanceF: "470 uF", slewVPerS: "5 A" }, "requirement.inrush.slewVPerS"],
+    ["a missing capacitance", { slewVPerS: 1000 }, "requirement.inrush.outputCapacitanceF"],
+  ])("rejects %s with 400 naming the field", async (_what, inrush, path) => {
+    const r = await postTrpc(app, "review", { requirement: { ...req, inrush }, candidates: [demoSwitch] });
+    expect(r.status).toBe(400);
+    const issues = (r.body as { error: { data: { backstop: { issues: { path: (string | number)[] }[] } } } }).error.data
+      .backstop.issues;
+    expect(issues.map((i) => i.path.join("."))).toContain(path);
+  });
+});
+
+describe("review: the inrush pulse against the MOSFET's SOA lines", () => {
+  it("the known-bad slew: 2.2 A at 16 V for E/Ppeak = 8 ms against the lines' log-log value derated to 85 °C", async () => {
+    const d = KNOWN_BAD.find((x) => x.id === "inrush-slew-outside-soa");
+    if (d === undefined) throw new Error("design missing");
+    const c = (await call(d.bad)).candidates[0];
+    // Slew 1000 V/s into 2200 uF: I = C·s = 2.2 A at Vds = 16 V, E = ½·C·V², Ppeak = C·s·V → 8 ms.
+    // Along the 1 ms and 10 ms lines at 16 V (log-log): 200·16^(ln 0.01/ln 60) and 100·16^(ln 0.006/ln 60);
+    // between them at 8 ms (log-log in width), ×(175 − 85)/(175 − 25) = 0.6.
+    const at1 = 200 * 16 ** (Math.log(0.01) / Math.log(60));
+    const at10 = 100 * 16 ** (Math.log(0.006) / Math.log(60));
+    const allowed = Math.exp(Math.log(at1) + Math.log10(8) * Math.log(at10 / at1)) * 0.6;
+    expect(c?.metrics["inrushSoaCurrentA"]).toBeCloseTo(2.2, 9);
+    expect(c?.metrics["inrushSoaAllowedA"]).toBeCloseTo(allowed, 9);
+    expect(allowed).toBeCloseTo(2.08, 2);
+  });
+});
