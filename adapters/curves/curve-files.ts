@@ -70,8 +70,16 @@ export function resolveCurveFiles(raw: unknown, scope: CurveFileScope): CurveFil
       return v;
     }
     if (Array.isArray(v)) return v.map((x, i) => walk(x, [...path, i]));
+    // own data properties, so a "__proto__" member stays a member the contract refuses by name
+    // (an assignment would set the copy's prototype instead)
     const out: Record<string, unknown> = {};
-    for (const [k, x] of Object.entries(v)) out[k] = walk(x, [...path, k]);
+    for (const [k, x] of Object.entries(v))
+      Object.defineProperty(out, k, {
+        value: walk(x, [...path, k]),
+        enumerable: true,
+        writable: true,
+        configurable: true,
+      });
     return out;
   };
   const value = walk(raw, []);

@@ -1,8 +1,9 @@
 import type { ChildProcess } from "node:child_process";
-import { mkdirSync, mkdtempSync, readFileSync, renameSync, rmSync, writeFileSync } from "node:fs";
+import { mkdirSync, mkdtempSync, renameSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
+import { loadCatalogFile } from "../../../adapters/catalog/file-catalog.js";
 import { DEMO_CATALOG } from "../../../adapters/project-root.js";
 import { startBuiltServer } from "../../helpers/built-server.js";
 
@@ -10,7 +11,9 @@ import { startBuiltServer } from "../../helpers/built-server.js";
 // file) and on a change its poll sees (a folder). Every wait is on an event: a log line, an answer.
 type Json = Record<string, unknown>;
 type Stamp = { id: string; hash: string; partCount: number };
-const demo = JSON.parse(readFileSync(DEMO_CATALOG(), "utf8")) as { catalog: string; parts: Json[] };
+// the demo parts as loaded (a curve its file references read in), so a copy elsewhere needs no curve files
+const loaded = loadCatalogFile(DEMO_CATALOG());
+const demo = { catalog: loaded.stamp.id, parts: loaded.list() as unknown as Json[] };
 const template = demo.parts.find((p) => p.id === "demo-schottky-5a-45v") as Json;
 const newPart: Json = { ...template, id: "reload-demo-schottky-5a-45v", description: "a part added by a reload" };
 

@@ -1,4 +1,4 @@
-import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
@@ -8,7 +8,9 @@ import { openLiveCatalog, type ReloadReport } from "../../../adapters/catalog/li
 import { DEMO_CATALOG } from "../../../adapters/project-root.js";
 
 type Json = Record<string, unknown>;
-const demo = JSON.parse(readFileSync(DEMO_CATALOG(), "utf8")) as { catalog: string; parts: Json[] };
+// the demo parts as loaded (a curve its file references read in), so a copy elsewhere needs no curve files
+const loaded = loadCatalogFile(DEMO_CATALOG());
+const demo = { catalog: loaded.stamp.id, parts: loaded.list() as unknown as Json[] };
 const half = Math.ceil(demo.parts.length / 2);
 const root = mkdtempSync(join(tmpdir(), "backstop-catalog-source-"));
 afterAll(() => rmSync(root, { recursive: true, force: true }));

@@ -1,4 +1,4 @@
-import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { stringify } from "csv-stringify/sync";
@@ -12,7 +12,8 @@ import { catalogFile } from "../../../contracts/catalog.js";
 // An approved-parts list as an ERP/PLM export would give it: 500 invented parts made from the demo
 // catalog's invented parts (ids, names and one rating varied), one part a row, dotted columns.
 type Json = Record<string, unknown>;
-const templates = (JSON.parse(readFileSync(DEMO_CATALOG(), "utf8")) as { parts: Json[] }).parts;
+// the demo parts as loaded (a curve its file references read in as points)
+const templates = loadCatalogFile(DEMO_CATALOG()).list() as unknown as Json[];
 
 function demoLikeParts(n: number): Json[] {
   return Array.from({ length: n }, (_, i) => {
