@@ -163,43 +163,46 @@ describe("limits on answers and time", () => {
       BACKSTOP_MAX_MONTE_CARLO_SAMPLES: "1000000",
       LOG_LEVEL: "info",
     });
-    const slow = { ...review, monteCarlo: { ...(review.monteCarlo as object), samples: 1_000_000 } };
-    // past its start-up warm-up: the built-in rule sets compile in the main thread, then it logs this
-    await untilLogged(own, "rule sets ready");
-    for (const path of ["/trpc/review", "/v1/review/report?format=markdown"]) {
-      const call = fetch(`${own.base}${path}`, {
-        method: "POST",
-        headers: { "content-type": "application/json" },
-        body: JSON.stringify(slow),
-      }).then(async (res) => {
-        const text = await res.text();
-        return { status: res.status, text, json: () => JSON.parse(text) as Record<string, unknown> };
-      });
-      let done = false;
-      void call.finally(() => {
-        done = true;
-      });
-      const probes: number[] = [];
-      while (!done) {
-        const t0 = performance.now();
-        expect((await fetch(`${own.base}/livez`)).status).toBe(200);
-        probes.push(performance.now() - t0);
-        await new Promise((r) => setTimeout(r, 50));
+    try {
+      const slow = { ...review, monteCarlo: { ...(review.monteCarlo as object), samples: 1_000_000 } };
+      // past its start-up warm-up: the built-in rule sets compile in the main thread, then it logs this
+      await untilLogged(own, "rule sets ready");
+      for (const path of ["/trpc/review", "/v1/review/report?format=markdown"]) {
+        const call = fetch(`${own.base}${path}`, {
+          method: "POST",
+          headers: { "content-type": "application/json" },
+          body: JSON.stringify(slow),
+        }).then(async (res) => {
+          const text = await res.text();
+          return { status: res.status, text, json: () => JSON.parse(text) as Record<string, unknown> };
+        });
+        let done = false;
+        void call.finally(() => {
+          done = true;
+        });
+        const probes: number[] = [];
+        while (!done) {
+          const t0 = performance.now();
+          expect((await fetch(`${own.base}/livez`)).status).toBe(200);
+          probes.push(performance.now() - t0);
+          await new Promise((r) => setTimeout(r, 50));
+        }
+        const r = await call;
+        expect([path, r.status]).toEqual([path, 503]);
+        expect(bodyOf(r).code).toBe("compute-timeout");
+        // the event: /livez kept being answered while the call ran (a request thread busy with the
+        // call would have answered none until it ended); the bound: each probe within the timeout of
+        // the pod's liveness probe, past which the kubelet counts a failure (deploy/deployment.yaml)
+        expect(probes.length).toBeGreaterThan(3);
+        const sorted = [...probes].sort((a, b) => a - b);
+        console.log(
+          `${path}: /livez ms during the call, median ${sorted[Math.floor(sorted.length / 2)]?.toFixed(0)}, max ${sorted.at(-1)?.toFixed(0)} over ${sorted.length}`,
+        );
+        expect(sorted.at(-1)).toBeLessThan(LIVENESS_TIMEOUT_S * 1000);
       }
-      const r = await call;
-      expect([path, r.status]).toEqual([path, 503]);
-      expect(bodyOf(r).code).toBe("compute-timeout");
-      // the event: /livez kept being answered while the call ran (a request thread busy with the
-      // call would have answered none until it ended); the bound: each probe within the timeout of
-      // the pod's liveness probe, past which the kubelet counts a failure (deploy/deployment.yaml)
-      expect(probes.length).toBeGreaterThan(3);
-      const sorted = [...probes].sort((a, b) => a - b);
-      console.log(
-        `${path}: /livez ms during the call, median ${sorted[Math.floor(sorted.length / 2)]?.toFixed(0)}, max ${sorted.at(-1)?.toFixed(0)} over ${sorted.length}`,
-      );
-      expect(sorted.at(-1)).toBeLessThan(LIVENESS_TIMEOUT_S * 1000);
+    } finally {
+      own.child.kill("SIGKILL"); // also when an expectation fails: no server left behind
     }
-    own.child.kill("SIGKILL");
   });
 });
 
