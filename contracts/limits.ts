@@ -64,7 +64,13 @@ export const DEFAULT_LIMITS: Limits = {
   maxCurveFileBytes: 64 * 1024,
 };
 
-/** The limits from `env` (unset or empty: the default); a value that is not a positive integer is an error naming the variable. */
+/** A limit variable set to something other than a whole number of at least 1. */
+export class LimitSettingError extends Error {}
+
+/**
+ * The limits from `env` (unset or empty: the default); a value that is not a positive integer is a
+ * {@link LimitSettingError} naming the variable, what it got and what to type.
+ */
 export function limitsFromEnv(env: Readonly<Record<string, string | undefined>>): Limits {
   const out: Record<string, number> = {};
   for (const key of Object.keys(DEFAULT_LIMITS) as (keyof Limits)[]) {
@@ -73,15 +79,34 @@ export function limitsFromEnv(env: Readonly<Record<string, string | undefined>>)
     if (raw === undefined || raw === "") out[key] = DEFAULT_LIMITS[key];
     else {
       const n = Number(raw);
-      if (!Number.isInteger(n) || n < 1) throw new Error(`${name} must be a positive integer, got "${raw}"`);
+      if (!Number.isInteger(n) || n < 1)
+        throw new LimitSettingError(
+          `${name} must be a positive integer, got "${raw}": set it to a whole number such as ${name}=${DEFAULT_LIMITS[key]} (the default), or unset it`,
+        );
       out[key] = n;
     }
   }
   return out as unknown as Limits;
 }
 
-/** The limits of this process (its environment at start; worker threads inherit it). */
-export const LIMITS: Limits = limitsFromEnv(typeof process === "undefined" ? {} : process.env);
+/**
+ * The limits of this process (its environment at start; worker threads inherit it). They are read
+ * when this module loads, before an entry point's own code runs, so a bad setting cannot reach the
+ * server's or the batch's error handling: it is reported here as they report theirs, one line on
+ * stderr and exit 2 (could not run), not as an uncaught error with a stack trace.
+ */
+function limitsOfThisProcess(): Limits {
+  if (typeof process === "undefined") return DEFAULT_LIMITS;
+  try {
+    return limitsFromEnv(process.env);
+  } catch (e) {
+    if (!(e instanceof LimitSettingError)) throw e;
+    process.stderr.write(`backstop: ${e.message}\n`);
+    process.exit(2);
+  }
+}
+
+export const LIMITS: Limits = limitsOfThisProcess();
 
 const MARK = /\(limit [A-Z_]+\)$/;
 

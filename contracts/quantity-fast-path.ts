@@ -7,8 +7,10 @@
  * against mathjs). Anything else (other units, compound or affine conversions, expressions mathjs
  * refuses) returns undefined and goes to mathjs, which also writes the error messages.
  *
- * Why: mathjs builds its unit system on first use (about a tenth of a second, at start-up for a
- * catalog with unit strings) and parses a new string in ~10 µs.
+ * Why: mathjs builds its unit system on first use, at start-up for a catalog with unit strings (the
+ * demo catalog's "20 nA", "30 mOhm"). Bench row `ab-node22` "no-quantity-fast-path: process start to
+ * /readyz 200" (Node 22, 5 alternating runs): without this path start-up took 1.88 (1.02-2.57) times
+ * as long, 839 against 560 ms (target 500 ms, the row `start-up`).
  */
 
 /** mathjs's short prefixes, as mathjs defines their values (memory; checked against mathjs in the test). */

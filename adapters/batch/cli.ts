@@ -94,8 +94,9 @@ async function batch(rest: string[]): Promise<number> {
   const outFormat = formatOf(outPath, values["out-format"]);
   // default: cores − 1 threads, at least one; the main thread reads, writes and, for JSON Lines input,
   // answers a chunk itself whenever every thread has two (so on two cores both compute: 1,000,000
-  // operating points at 0.33-0.54 of the bench's pass-through, as the host's state moves it, against
-  // 0.25 in process; peak RSS 256-280 MB against 180 MB, the thread holding its own router and heap)
+  // operating points at 0.33-0.54 of the bench's pass-through (rows `batch`, Node 20), as the host's
+  // state moves it, against 0.25 in process; peak RSS 256-280 MB against 180 MB, the thread holding
+  // its own router and heap)
   const cores = availableParallelism();
   const workers = values.workers === undefined ? Math.max(1, Math.min(8, cores - 1)) : Number(values.workers);
   if (!Number.isInteger(workers) || workers < 0)

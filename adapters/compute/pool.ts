@@ -60,8 +60,9 @@ export function createComputePool(opts: {
   // piscina loaded with the first pool (the HTTP server starts its pool after it listens)
   const { Piscina } = createRequire(import.meta.url)("piscina") as typeof import("piscina");
   // A young generation of 32 MB a thread (V8's default here is 48). A batch of 1,000,000 lines with
-  // one thread: 24 MB peaked at 243-251 MB but ran 5-8 % slower than 48 MB (270-283 MB, near the
-  // 300 MB budget); 32 MB ran as fast as 48 within the noise at 270-272 MB.
+  // one thread (Node 20, rows `batch`): 24 MB peaked at 243-251 MB but ran 5-8 % slower than 48 MB
+  // (270-283 MB); 32 MB ran as fast as 48 within the noise at 270-272 MB. A --max-semi-space-size in
+  // NODE_OPTIONS (the image's, Dockerfile) takes precedence over this in every isolate.
   const pool = new Piscina({
     filename,
     minThreads: opts.threads,

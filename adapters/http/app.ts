@@ -54,14 +54,12 @@ export function createApp({
     const started = performance.now();
     const closing = !isReady();
     c.set("closing", closing);
-    // Set before the handler builds its response, so it is built once with them (adding a header to a
-    // finished response copies it through a web stream, several times the cost of a small answer). A
-    // /v1 answer built by plainResponse() carries both itself; a handler that returns a ready Response
-    // (tRPC's) gets them after.
+    // set before the handler builds its response (c.body, c.json take them); a handler that returns a
+    // ready Response (tRPC's) gets them after
     c.header("x-request-id", requestId);
     if (closing) c.header("connection", "close");
     await next();
-    if (c.get("headersSet") !== true && c.res.headers.get("x-request-id") !== requestId) {
+    if (c.res.headers.get("x-request-id") !== requestId) {
       c.header("x-request-id", requestId);
       if (closing) c.header("connection", "close");
     }

@@ -22,7 +22,10 @@ function positiveInt(env: NodeJS.ProcessEnv, name: string, fallback: number): nu
   const raw = env[name];
   if (raw === undefined || raw === "") return fallback;
   const n = Number(raw);
-  if (!Number.isInteger(n) || n < 1) throw new Error(`${name} must be a positive integer, got "${raw}"`);
+  if (!Number.isInteger(n) || n < 1)
+    throw new Error(
+      `${name} must be a positive integer, got "${raw}": set it to a whole number such as ${name}=${fallback} (the default), or unset it`,
+    );
   return n;
 }
 

@@ -7,10 +7,6 @@ import type { ComputePool } from "../compute/pool.js";
 import type { HttpConfig } from "./config.js";
 import { depthProblem, inputShape } from "./input-shape.js";
 import { computeTimeout } from "./problem.js";
-import { INLINE_MAX_BODY_CHARS, INLINE_PROCEDURES } from "./v1.js";
-
-/** Most values in an input that a cheap procedure answers in the main thread over /trpc (as /v1 does by body size). */
-const INLINE_MAX_NODES = 512;
 
 const TRPC_CODE: Record<number, TRPCError["code"]> = {
   400: "BAD_REQUEST",
@@ -30,20 +26,16 @@ export function errorOfBody(status: number, body: ErrorBody): TRPCError {
 
 /**
  * The HTTP server's `offload` for /trpc: every call runs in the compute threads under the request's
- * compute budget, as /v1's do (503 compute-timeout past it), except a call of a cheap, bounded
- * procedure with a small input, which runs here as on /v1. An input nested deeper than the limit is
- * refused before anything else reads it (422). Without a pool: the depth check, then in process.
+ * compute budget, as /v1's do (503 compute-timeout past it); no /trpc call runs in the main thread
+ * (docs/performance.md, "Node 22"). An input nested deeper than the limit is refused before anything else reads it (422). Without a
+ * pool: the depth check, then in process.
  */
 export function trpcOffload(pool: ComputePool | undefined, config: HttpConfig): NonNullable<Context["offload"]> {
   return (path, raw) => {
     const shape = inputShape(raw);
     const deep = depthProblem(shape);
     if (deep !== undefined) return Promise.reject(errorOfBody(422, deep));
-    if (
-      pool === undefined ||
-      (INLINE_PROCEDURES.has(path) && shape.nodes <= INLINE_MAX_NODES && shape.chars <= INLINE_MAX_BODY_CHARS)
-    )
-      return undefined;
+    if (pool === undefined) return undefined;
     const signal = AbortSignal.timeout(config.requestTimeoutMs);
     return pool.call(path, [raw], signal, true).then(
       (items) => {

@@ -11,19 +11,11 @@ import { depthProblem, inputShape } from "./input-shape.js";
 import { computeTimeout, problemOf, sendProblem } from "./problem.js";
 import { utf8Join } from "../utf8-join.js";
 
-export type Env = { Variables: { requestId: string; closing: boolean; headersSet: boolean } };
+export type Env = { Variables: { requestId: string; closing: boolean } };
 
-/**
- * A JSON answer with its headers as one plain object (content type, request id, and
- * `connection: close` while draining), marked so the request middleware adds nothing: Hono's
- * `c.header()` would build a web Headers object, and node's server turns that back into a plain
- * one, which costs more than a small analysis.
- */
-export function plainResponse(c: import("hono").Context<Env>, text: string | Uint8Array, status: number): Response {
-  c.set("headersSet", true);
-  const headers: Record<string, string> = { "content-type": "application/json", "x-request-id": c.get("requestId") };
-  if (c.get("closing") === true) headers.connection = "close";
-  return new Response(text, { status, headers });
+/** A JSON answer: the request middleware has set its request id (and `connection: close` while draining). */
+function jsonAnswer(c: import("hono").Context<Env>, text: string | Uint8Array, status: 200): Response {
+  return c.body(text as string, status, { "content-type": "application/json" });
 }
 
 export interface V1Deps {
@@ -38,10 +30,12 @@ class ComputeTimeout extends Error {}
 
 /**
  * Procedures whose single call is cheap and bounded (tens of microseconds for a plain operating
- * point): a single request of one of them with a body of at most INLINE_MAX_BODY_CHARS runs here, in
- * the main thread, because handing it to a worker thread and back costs more than the call (about
- * 15 % of the main thread at load). A larger body (an inline rule set, a long table), any other
- * procedure, and every bulk request keep the worker threads and their hard compute budget.
+ * point): a single /v1 request of one of them with a body of at most INLINE_MAX_BODY_CHARS runs here,
+ * in the main thread, because handing it to a worker thread and back costs more than the call. Bench
+ * row `ab-node22` "no-inline: /v1/operatingPoint" (Node 22, 5 alternating runs): without it 0.80
+ * (0.62-1.09) of the rate with it. A larger body (an inline rule set, a long table), any other
+ * procedure, every bulk request and every /trpc call keep the worker threads and their hard compute
+ * budget.
  */
 export const INLINE_PROCEDURES: ReadonlySet<string> = new Set(["operatingPoint", "rules.list", "rules.show"]);
 export const INLINE_MAX_BODY_CHARS = 16 * 1024;
@@ -173,10 +167,10 @@ export function mountV1(app: Hono<Env>, deps: V1Deps): void {
     if (tooLarge !== undefined) return sendProblem(c, tooLarge.status, tooLarge.error);
     if (!bulk) {
       const it = items[0] as ItemJson;
-      if (it.ok) return plainResponse(c, it.json as string, 200);
+      if (it.ok) return jsonAnswer(c, it.json as string, 200);
       return sendProblem(c, it.status, it.error);
     }
-    return plainResponse(c, bulkBodyUtf8(items), 200);
+    return jsonAnswer(c, bulkBodyUtf8(items), 200);
   };
 
   app.post("/v1/:procedure/bulk", handler(true));

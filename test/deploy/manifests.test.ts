@@ -76,6 +76,11 @@ describe("Kubernetes manifests and Dockerfile match the server", () => {
     expect(dockerfile).toMatch(/^USER node$/m);
     expect(dockerfile).toMatch(/NODE_ENV=production/);
     expect(dockerfile).toMatch(/^FROM node:22-slim$/m);
+    // CI runs the suite and the soak on the image's Node major too (the npm registry's node package)
+    const major = /^FROM node:(\d+)-slim$/m.exec(dockerfile)?.[1];
+    expect(readFileSync(join(root, ".ci", "run"), "utf8")).toContain(`node@${major}`);
+    // the image's young generation (the soak starts the server with these options)
+    expect(dockerfile).toMatch(/^ENV .*\bNODE_OPTIONS="--max-semi-space-size=\d+"/m);
     expect(dockerfile).toMatch(/HEALTHCHECK .*CMD \["node", "-e"/);
   });
 });

@@ -31,3 +31,19 @@ export function startBuiltServer(
     child.stderr?.on("data", (d: Buffer) => logs.push(String(d)));
   });
 }
+
+/** Resolves once the server's output holds `text` (a log line it writes when the event happens). */
+export function untilLogged(server: { child: ChildProcess; logs: string[] }, text: string): Promise<void> {
+  return new Promise((resolve, reject) => {
+    if (server.logs.join("").includes(text)) return resolve();
+    const look = () => {
+      if (!server.logs.join("").includes(text)) return;
+      server.child.stdout?.off("data", look);
+      server.child.off("exit", gone);
+      resolve();
+    };
+    const gone = () => reject(new Error(`the server exited before it logged "${text}": ${server.logs.join("")}`));
+    server.child.stdout?.on("data", look);
+    server.child.once("exit", gone);
+  });
+}

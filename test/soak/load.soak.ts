@@ -76,6 +76,11 @@ const manifestEnv = (name: string) => {
   return m[1] as string;
 };
 const limitMi = Number(/limits: \{ memory: (\d+)Mi \}/.exec(manifest)?.[1]);
+// the image's node options (Dockerfile ENV NODE_OPTIONS: the V8 young-generation size of the server
+// and its compute threads, which holds a fifth of the memory under this load; docs/performance.md)
+const imageNodeOptions = /^ENV .*\bNODE_OPTIONS="([^"]*)"/m.exec(
+  readFileSync(join(projectRoot(), "Dockerfile"), "utf8"),
+)?.[1];
 
 /** PSS of a process, bytes (Linux). */
 function pssBytes(pid: number): number {
@@ -105,6 +110,7 @@ describe("soak: mixed load on the built server", () => {
         LOG_LEVEL: "warn",
         BACKSTOP_HEADERS_TIMEOUT_MS: "2000",
         BACKSTOP_WORKERS: manifestEnv("BACKSTOP_WORKERS"),
+        ...(imageNodeOptions === undefined ? {} : { NODE_OPTIONS: imageNodeOptions }),
       });
       const c = server.child;
       child = c;
