@@ -7,6 +7,8 @@ import { type ComputePool, createComputePool } from "../compute/pool.js";
 import { DEMO_CATALOG } from "../project-root.js";
 import { writeStreamAtomic } from "../atomic-file.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
+import { recordKeyFromEnv, recordSignerOf } from "../record/signing-key.js";
+import { buildVersion } from "../../api/record/build-version.js";
 import { formatOf } from "./formats.js";
 import { mergeShards } from "./merge.js";
 import type { BatchCounts } from "./line.js";
@@ -100,6 +102,9 @@ async function batch(rest: string[]): Promise<number> {
   const catalog = loadCatalogFile(catalogPath);
   const rulesDir = process.env.BACKSTOP_RULES_DIR;
   const ruleSets = loadRuleSetStore(rulesDir);
+  const recordKeyPem = recordKeyFromEnv();
+  buildVersion(); // a bad BACKSTOP_BUILD_ID stops the run before the first row
+  const recordSigner = recordKeyPem === undefined ? undefined : recordSignerOf(recordKeyPem);
   for (const r of ruleSets.refused())
     process.stderr.write(
       `backstop batch: rule set file ${r.file} refused: ${r.problems.map((p) => p.message).join("; ")}\n`,
@@ -113,7 +118,7 @@ async function batch(rest: string[]): Promise<number> {
   });
   const pool: ComputePool | undefined =
     workers > 0
-      ? createComputePool({ threads: workers, catalogPath, rulesDir, tasksPerThread: CHUNKS_PER_THREAD })
+      ? createComputePool({ threads: workers, catalogPath, rulesDir, recordKeyPem, tasksPerThread: CHUNKS_PER_THREAD })
       : undefined;
   const p = progress(Number(process.env.BACKSTOP_PROGRESS_MS ?? 5000));
   let counts: BatchCounts = { lines: 0, ok: 0, failed: 0, blank: 0 };
@@ -147,7 +152,7 @@ async function batch(rest: string[]): Promise<number> {
           inFormat,
           outFormat,
           write,
-          ctx: { catalog, ruleSets },
+          ctx: { catalog, ruleSets, recordSigner },
           procedure: values.procedure,
           shard,
           pool,

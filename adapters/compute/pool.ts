@@ -35,6 +35,8 @@ export function createComputePool(opts: {
   threads: number;
   catalogPath: string;
   rulesDir?: string | undefined;
+  /** the verdict records' signing key (PEM), so a thread signs as the main thread does */
+  recordKeyPem?: string | undefined;
   tasksPerThread?: number;
 }): ComputePool | undefined {
   const filename = workerFile();
@@ -53,7 +55,7 @@ export function createComputePool(opts: {
     // one (the next is then waiting in the thread, not in this thread's queue until it turns)
     concurrentTasksPerWorker: opts.tasksPerThread ?? 1,
     resourceLimits: { maxYoungGenerationSizeMb: COMPUTE_THREAD_YOUNG_GENERATION_MB },
-    workerData: { catalogPath: opts.catalogPath, rulesDir: opts.rulesDir },
+    workerData: { catalogPath: opts.catalogPath, rulesDir: opts.rulesDir, recordKeyPem: opts.recordKeyPem },
   });
   let up: Promise<void> | undefined;
   const options = (name: string, signal?: AbortSignal) => (signal === undefined ? { name } : { name, signal });

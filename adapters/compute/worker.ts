@@ -5,6 +5,7 @@ import { type Format, outputFormatter } from "../batch/formats.js";
 import { answerChunk, type ChunkAnswer, type ChunkTask } from "../batch/answer.js";
 import { loadCatalogFile } from "../catalog/file-catalog.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
+import { recordSignerOf } from "../record/signing-key.js";
 import { type ReportAnswer, type ReportTask, reportAnswer } from "./report-call.js";
 import { LIMITS } from "../../contracts/limits.js";
 import {
@@ -20,8 +21,16 @@ import {
  * A worker thread of the compute pool (piscina): the same router, in this thread, with its own
  * catalog. A task that runs past its deadline is stopped by terminating the thread.
  */
-const { catalogPath, rulesDir } = workerData as { catalogPath: string; rulesDir?: string | undefined };
-const invoker = procedureInvoker({ catalog: loadCatalogFile(catalogPath), ruleSets: loadRuleSetStore(rulesDir) });
+const { catalogPath, rulesDir, recordKeyPem } = workerData as {
+  catalogPath: string;
+  rulesDir?: string | undefined;
+  recordKeyPem?: string | undefined;
+};
+const invoker = procedureInvoker({
+  catalog: loadCatalogFile(catalogPath),
+  ruleSets: loadRuleSetStore(rulesDir),
+  recordSigner: recordKeyPem === undefined ? undefined : recordSignerOf(recordKeyPem),
+});
 
 /** Answers once this thread has loaded the router (the pool's `ready`). */
 export function ping(): boolean {

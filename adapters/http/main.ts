@@ -10,6 +10,8 @@ import { deferredComputePool } from "../compute/pool.js";
 import { createLogger } from "../logging/logger.js";
 import { DEMO_CATALOG } from "../project-root.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
+import { recordKeyFromEnv, recordSignerOf } from "../record/signing-key.js";
+import { buildVersion } from "../../api/record/build-version.js";
 import { createApp } from "./app.js";
 import { httpConfigFromEnv } from "./config.js";
 import { createMetrics } from "./metrics.js";
@@ -23,10 +25,13 @@ function fail(message: string): never {
 
 let config: ReturnType<typeof httpConfigFromEnv>;
 let catalog: ReturnType<typeof loadCatalogFile>;
+let recordKeyPem: string | undefined;
 const catalogPath = process.env.BACKSTOP_CATALOG ?? DEMO_CATALOG();
 try {
   config = httpConfigFromEnv();
   catalog = loadCatalogFile(catalogPath);
+  recordKeyPem = recordKeyFromEnv();
+  buildVersion(); // a bad BACKSTOP_BUILD_ID stops the start, not the first analysis
 } catch (e) {
   fail((e as Error).message);
 }
@@ -42,7 +47,7 @@ const shutdownTimeoutMs = Number(process.env.BACKSTOP_SHUTDOWN_TIMEOUT_MS ?? 20_
 // once the server listens (see deferredComputePool). By default one per CPU of the budget, at most 4:
 // a bulk request is split over the threads.
 const threads = Number(process.env.BACKSTOP_WORKERS ?? Math.min(4, cpuBudget()));
-const pool = deferredComputePool({ threads, catalogPath, rulesDir });
+const pool = deferredComputePool({ threads, catalogPath, rulesDir, recordKeyPem });
 
 // the former multi-process mode's setting: one process a container now
 const processesSetting = process.env.BACKSTOP_HTTP_PROCESSES;
@@ -56,7 +61,8 @@ if (config.apiKeys === undefined)
   logger.warn("API-key auth is OFF: set BACKSTOP_API_KEYS or BACKSTOP_API_KEYS_FILE to require a key on /v1 and /trpc");
 
 let draining = false;
-const ctx = { catalog, ruleSets };
+const recordSigner = recordKeyPem === undefined ? undefined : recordSignerOf(recordKeyPem);
+const ctx = { catalog, ruleSets, recordSigner };
 const metrics = createMetrics();
 const isReady = () => !draining;
 const app = createApp({ ctx, logger, config, metrics, pool, isReady });
@@ -93,6 +99,7 @@ server.listen(port, process.env.HOST ?? "0.0.0.0", () => {
       rulesRefused: ruleSets.refused().length,
       workers: pool?.threads ?? 0,
       auth: config.apiKeys !== undefined,
+      recordKeyId: recordSigner?.keyId ?? null,
     },
     "backstop listening",
   );
