@@ -14,7 +14,9 @@ COPY package.json package-lock.json ./
 RUN npm ci --omit=dev --no-audit --no-fund
 
 FROM node:22-slim
-ENV NODE_ENV=production PORT=8080
+# the verdict records' buildVersion suffix (docker build --build-arg BACKSTOP_BUILD_ID=$(git rev-parse --short HEAD))
+ARG BACKSTOP_BUILD_ID=
+ENV NODE_ENV=production PORT=8080 BACKSTOP_BUILD_ID=$BACKSTOP_BUILD_ID
 WORKDIR /app
 COPY --from=deps /app/node_modules ./node_modules
 COPY --from=build /app/dist ./dist

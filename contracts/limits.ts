@@ -26,6 +26,8 @@ export interface Limits {
   readonly maxExpressionChars: number;
   /** most syntax nodes in one such rule expression (evaluation time is bounded by it) */
   readonly maxExpressionNodes: number;
+  /** most filed records in one verify call (each is recomputed) */
+  readonly maxVerifyRecords: number;
 }
 
 /** The environment variable of each limit. */
@@ -39,6 +41,7 @@ export const LIMIT_VARIABLES: { readonly [K in keyof Limits]: string } = {
   maxAnswerBytes: "BACKSTOP_MAX_ANSWER_BYTES",
   maxExpressionChars: "BACKSTOP_MAX_EXPRESSION_CHARS",
   maxExpressionNodes: "BACKSTOP_MAX_EXPRESSION_NODES",
+  maxVerifyRecords: "BACKSTOP_MAX_VERIFY_RECORDS",
 };
 
 export const DEFAULT_LIMITS: Limits = {
@@ -52,6 +55,7 @@ export const DEFAULT_LIMITS: Limits = {
   maxAnswerBytes: 16 * 1024 * 1024,
   maxExpressionChars: 2000,
   maxExpressionNodes: 256,
+  maxVerifyRecords: 1000,
 };
 
 /** The limits from `env` (unset or empty: the default); a value that is not a positive integer is an error naming the variable. */

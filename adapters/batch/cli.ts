@@ -16,16 +16,20 @@ import { REPORT_RENDERERS } from "../report/report-body.js";
 import { reportFailed, reportNamer, writeBridgeAcReport, writeReviewReport } from "../report/write-report.js";
 import type { Shard } from "./answer.js";
 import { CHUNKS_PER_THREAD, type RowHook, streamBatch } from "./engine.js";
+import { HOLDING, type VerifyCounts, verifyFile } from "./verify-file.js";
 
 const USAGE = `usage:
   backstop --help | backstop batch --help | backstop merge --help
   backstop batch --in requests.jsonl|.csv --out results.jsonl|.csv [--procedure NAME] [--shard i/N | --shard N]
                  [--workers N] [--catalog parts.json] [--in-format jsonl|csv] [--out-format jsonl|csv] [--report-dir folder]
   backstop merge --out results.jsonl|.csv shard-0 shard-1 ...
+  backstop verify --in records.jsonl --out report.jsonl [--catalog parts.json]
   --shard N takes the index from JOB_COMPLETION_INDEX; "{shard}" in --out is replaced by the index.
   --report-dir writes each answered review and bridgeAc line as <id>.html, <id>.md and <id>-charts/*.svg.
   a CSV input needs a "procedure" column or --procedure; blank lines are skipped (counted apart, never a row).
-  exit 0: every row answered; 1: some rows rejected; 2: could not run.`;
+  verify: each line a filed record { id, procedure, input, result }; each report line says unchanged,
+  numbers-changed, verdict-changed, tampered, signature-failed, no-record, recompute-failed or unreadable.
+  exit 0: every row answered (verify: every verdict holds); 1: some rows rejected (verify: some do not); 2: could not run.`;
 
 class UsageError extends Error {}
 
@@ -193,23 +197,68 @@ async function merge(rest: string[]): Promise<number> {
   return 0;
 }
 
+/** `backstop verify`: every filed record checked and recomputed under today's models, rules and catalog. */
+async function verify(rest: string[]): Promise<number> {
+  const { values } = parseArgs({
+    args: rest,
+    options: {
+      in: { type: "string" },
+      out: { type: "string" },
+      catalog: { type: "string" },
+      help: { type: "boolean", short: "h" },
+    },
+  });
+  if (values.help === true) return usage();
+  if (values.in === undefined || values.out === undefined) throw new UsageError("--in and --out are required");
+  const catalog = loadCatalogFile(values.catalog ?? process.env.BACKSTOP_CATALOG ?? DEMO_CATALOG());
+  const ruleSets = loadRuleSetStore(process.env.BACKSTOP_RULES_DIR);
+  for (const r of ruleSets.refused())
+    process.stderr.write(
+      `backstop verify: rule set file ${r.file} refused: ${r.problems.map((p) => p.message).join("; ")}\n`,
+    );
+  const recordKeyPem = recordKeyFromEnv();
+  buildVersion();
+  const ctx = {
+    catalog,
+    ruleSets,
+    recordSigner: recordKeyPem === undefined ? undefined : recordSignerOf(recordKeyPem),
+  };
+  const inPath = values.in;
+  let counts: VerifyCounts | undefined;
+  await writeStreamAtomic(
+    values.out,
+    async (write) => {
+      counts = await verifyFile(inPath, write, ctx);
+    },
+    logLine,
+  );
+  const c = counts as VerifyCounts;
+  const text = Object.entries(c)
+    .filter(([, n]) => n > 0)
+    .map(([s, n]) => `${n} ${s}`)
+    .join(", ");
+  process.stderr.write(`backstop verify: ${text || "no records"} -> ${values.out}\n`);
+  return Object.entries(c).every(([s, n]) => n === 0 || HOLDING.has(s)) ? 0 : 1;
+}
+
 /** The usage on stdout, asked for (`--help`): exit 0. */
 function usage(): number {
   process.stdout.write(`${USAGE}\n`);
   return 0;
 }
 
-/** `backstop batch` / `backstop merge`: exit 0 all rows ok, 1 some rows failed, 2 could not run. */
+/** `backstop batch` / `merge` / `verify`: exit 0 all rows ok (verify: every verdict holds), 1 some not, 2 could not run. */
 export async function main(argv: string[]): Promise<number> {
   const [verb, ...rest] = argv;
   try {
     if (verb === "batch") return await batch(rest);
     if (verb === "merge") return await merge(rest);
+    if (verb === "verify") return await verify(rest);
     if (verb === "--help" || verb === "-h" || verb === "help") return usage();
     throw new UsageError(
       verb === undefined
-        ? "no command (backstop batch or backstop merge; backstop --help for usage)"
-        : `unknown command "${verb}" (backstop batch or backstop merge)`,
+        ? "no command (backstop batch, merge or verify; backstop --help for usage)"
+        : `unknown command "${verb}" (backstop batch, merge or verify)`,
     );
   } catch (e) {
     if (e instanceof UsageError || (e as { code?: string }).code?.startsWith("ERR_PARSE_ARGS"))
