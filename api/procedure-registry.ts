@@ -5,6 +5,7 @@ import type { Context } from "./context.js";
 import type { ProcedureDefinition } from "./define-procedure.js";
 import { errorBodyOf, UNPROCESSABLE_CODES } from "./error-body.js";
 import { PROCEDURE_TABLE } from "./procedure-table.js";
+import { collectingFits, type FitNote } from "./record/fit-notes.js";
 import { recordCall } from "./record/verdict-record.js";
 
 /**
@@ -72,7 +73,7 @@ export const isThenable = (v: unknown): v is PromiseLike<unknown> =>
  * the handler throws mapped by tRPC's `getTRPCErrorFromUnknown` (a TRPCError as it is, anything
  * else INTERNAL_SERVER_ERROR with it as the cause), and the verdict record added to an analysis's
  * result (api/record/verdict-record.ts: digests of the input as sent and as understood, the rule
- * sets and catalog parts it used, the versions, the result's digest, signed where a key is set).
+ * sets and catalog parts it used, the curve fits it made, the versions, the result's digest, signed where a key is set).
  * /trpc, /v1, bulk, batch and the compute threads all call procedures through it.
  */
 function callNow(d: ProcedureDefinition, ctx: Context, raw: unknown): unknown {
@@ -84,19 +85,21 @@ function callNow(d: ProcedureDefinition, ctx: Context, raw: unknown): unknown {
   }
   const recording = recordCall(ctx);
   let out: unknown;
+  let fits: readonly FitNote[];
   try {
-    out = d.handler({ input, ctx: recording.ctx });
+    // the fits a handler makes are noted while it runs (synchronously, as every handler today)
+    ({ value: out, fits } = collectingFits(() => d.handler({ input, ctx: recording.ctx })));
   } catch (cause) {
     throw getTRPCErrorFromUnknown(cause);
   }
   return isThenable(out)
     ? Promise.resolve(out).then(
-        (result) => recording.seal(d.name, raw, input, result),
+        (result) => recording.seal(d.name, raw, input, result, fits),
         (cause: unknown) => {
           throw getTRPCErrorFromUnknown(cause);
         },
       )
-    : recording.seal(d.name, raw, input, out);
+    : recording.seal(d.name, raw, input, out, fits);
 }
 
 /**

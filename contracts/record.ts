@@ -6,6 +6,19 @@ export const sha256Digest = z.string().regex(/^sha256:[0-9a-f]{64}$/);
 const ruleSetStamp = z.object({ id: z.string(), version: z.string(), hash: z.string() });
 const catalogStamp = z.object({ id: z.string(), hash: z.string(), partCount: z.number().int() });
 
+/** A least-squares curve fit the call made (api/map/fit-gate.ts): where, and how well it follows its points. */
+const fitNote = z.object({
+  path: z.string().meta({ description: "where the points are in the input (stage.diode.points)" }),
+  unit: z.string().meta({ description: "the unit of the residuals (V, ohm, K/W, A)" }),
+  points: z.number().int(),
+  rmsResidual: z.number(),
+  worstResidual: z.number().meta({ description: "model - point at the worst point, in unit" }),
+  worstPoint: z.number().int().meta({ description: "index of the worst point in the caller's order" }),
+  worstFraction: z.number().meta({ description: "|worstResidual| / |point|" }),
+  boundFraction: z.number().meta({ description: "the fit's bound on worstFraction" }),
+  accepted: z.boolean().meta({ description: "beyond its bound, taken because the caller set acceptFit" }),
+});
+
 /** The record's format tag: a change of what the digests cover or how the body is signed gets a new one. */
 export const RECORD_FORMAT = "backstop-record/1";
 
@@ -31,6 +44,10 @@ export const verdictRecord = z
       .optional()
       .meta({ description: "the parts catalog's stamp (present when a part of it was used)" }),
     parts: z.array(z.string()).optional().meta({ description: "ids of the catalog parts used, sorted (with catalog)" }),
+    fits: z
+      .array(fitNote)
+      .optional()
+      .meta({ description: "every least-squares curve fit the call made, in the order made (present when one was)" }),
     modelVersion: z.string(),
     buildVersion: z.string().meta({ description: "the service's package version, `+` its build id where one was set" }),
     signature: z

@@ -41,7 +41,7 @@ export const VERIFY_STATUSES = [
 ] as const;
 export type VerifyStatus = (typeof VERIFY_STATUSES)[number];
 
-const RECORD_FIELDS = ["inputSha256", "ruleSets", "catalog", "modelVersion", "buildVersion"] as const;
+const RECORD_FIELDS = ["inputSha256", "ruleSets", "catalog", "fits", "modelVersion", "buildVersion"] as const;
 
 export const verifyReport = z.object({
   index: z.number().int().meta({ description: "the record's place in records (0-based)" }),

@@ -16,7 +16,7 @@ import { sha256Of, signedText, withoutRecord } from "../record/verdict-record.js
 type Rec = Readonly<Record<string, unknown>>;
 const isObject = (v: unknown): v is Rec => typeof v === "object" && v !== null && !Array.isArray(v);
 
-const MOVABLE = ["inputSha256", "ruleSets", "catalog", "modelVersion", "buildVersion"] as const;
+const MOVABLE = ["inputSha256", "ruleSets", "catalog", "fits", "modelVersion", "buildVersion"] as const;
 
 /** The signature's state: valid, invalid, unsigned, or made with a key this service does not hold. */
 function signatureOf(record: Rec, ctx: Context): NonNullable<VerifyReport["signature"]> {

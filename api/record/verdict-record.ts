@@ -4,6 +4,7 @@ import type { RuleSetStamp } from "../../domain/rules/rule-model.js";
 import { canonicalJson } from "../../domain/rules/rule-set-hash.js";
 import type { CatalogPart, Context } from "../context.js";
 import { buildVersion } from "./build-version.js";
+import type { FitNote } from "./fit-notes.js";
 
 /** SHA-256 of a value's canonical JSON (domain/rules/rule-set-hash.ts), `sha256:` prefixed. */
 export function sha256Of(value: unknown): string {
@@ -28,7 +29,7 @@ const byText = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0);
 export interface CallRecording {
   readonly ctx: Context;
   /** `result` with its verdict record last, where it carries `modelVersion` (an analysis); else `result` as it is. */
-  seal(procedure: string, sent: unknown, input: unknown, result: unknown): unknown;
+  seal(procedure: string, sent: unknown, input: unknown, result: unknown, fits: readonly FitNote[]): unknown;
 }
 
 /**
@@ -54,7 +55,7 @@ export function recordCall(base: Context): CallRecording {
   };
   return {
     ctx,
-    seal(procedure, sent, input, result) {
+    seal(procedure, sent, input, result, fits) {
       if (typeof result !== "object" || result === null || Array.isArray(result)) return result;
       const r = result as Record<string, unknown>;
       if (typeof r.modelVersion !== "string") return result;
@@ -70,6 +71,7 @@ export function recordCall(base: Context): CallRecording {
           return { id: s.id, version: s.version, hash: s.hash };
         }),
         ...(used.length === 0 ? {} : { catalog: { ...catalog.stamp }, parts: used.map((p) => p.id) }),
+        ...(fits.length === 0 ? {} : { fits: fits.map((f) => ({ ...f })) }),
         modelVersion: r.modelVersion,
         buildVersion: buildVersion(),
       };

@@ -82,6 +82,40 @@ describe("verdict record on every analysis result", () => {
     expect(r.ruleSets[0]?.hash).toMatch(/^sha256:[0-9a-f]{64}$/);
   });
 
+  it("lists each least-squares curve fit the call made: where, RMS and worst residual (issue 23)", () => {
+    const e = examples.find((x) => x.procedure === "fit") as (typeof examples)[number];
+    const result = call(invoke, "fit", e.input);
+    const q = result.quality as Rec;
+    expect(verdictRecord.parse(result.record).fits).toEqual([
+      {
+        path: "diode.points",
+        unit: q.unit,
+        points: (e.input as { diode: { points: unknown[] } }).diode.points.length,
+        rmsResidual: q.rms,
+        worstResidual: q.worstResidual,
+        worstPoint: q.worstPoint,
+        worstFraction: q.worstFraction,
+        boundFraction: q.boundFraction,
+        accepted: false,
+      },
+    ]);
+    // a catalog part given by curves is mapped once and replayed: every call that uses it lists its fits
+    const op = examples.find((x) => x.procedure === "operatingPoint") as (typeof examples)[number];
+    const input = { ...(op.input as Rec), stage: { kind: "catalog-part", partId: "demo-pfet-40v-9mohm-curves" } };
+    const fresh = procedureInvoker(demoContext());
+    const first = verdictRecord.parse(call(fresh, "operatingPoint", input).record).fits ?? [];
+    const second = verdictRecord.parse(call(fresh, "operatingPoint", input).record).fits ?? [];
+    expect(first.length).toBeGreaterThan(0);
+    expect(first.every((f) => f.path.startsWith("stage."))).toBe(true);
+    expect(second).toEqual(first);
+    // an inline stage without curves: no fits
+    expect(
+      verdictRecord.parse(
+        call(invoke, "rules.evaluate", examples.find((x) => x.procedure === "rules.evaluate")?.input).record,
+      ).fits,
+    ).toBeUndefined();
+  });
+
   it("same input and versions: byte-identical results in two runs with fresh contexts", () => {
     const again = procedureInvoker(demoContext());
     for (const { e, result } of answers) {
