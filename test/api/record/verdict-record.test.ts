@@ -2,6 +2,7 @@ import { createHash } from "node:crypto";
 import { readdirSync, readFileSync } from "node:fs";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
+import { catalogOf } from "../../../adapters/catalog/file-catalog.js";
 import { projectRoot } from "../../../adapters/project-root.js";
 import { procedureEntries, procedureInvoker } from "../../../api/procedure-registry.js";
 import { verdictRecord } from "../../../contracts/record.js";
@@ -151,6 +152,25 @@ describe("verify: a review's record", () => {
     const inInput =
       filedText.slice(0, inputAt) + (filedText[inputAt] === "1" ? "2" : "1") + filedText.slice(inputAt + 1);
     expect(await verify(inInput)).toMatchObject({ status: "tampered", digests: { sent: "mismatch", result: "match" } });
+  });
+
+  it("a corrected datasheet in the catalog: inputSha256 and the catalog stamp moved, the numbers said", async () => {
+    const op = examples.find((x) => x.procedure === "operatingPoint") as (typeof examples)[number];
+    const ctx = demoContext();
+    const filed = call(procedureInvoker(ctx), "operatingPoint", op.input);
+    const parts = ctx.catalog
+      .list()
+      .map((p) =>
+        p.id === "demo-ideal-diode-60v-3mohm"
+          ? { ...p, stage: { ...p.stage, thermal: { ...(p.stage.thermal as Rec), rthJaKPerW: 50 } } }
+          : p,
+      );
+    const corrected = { ...ctx, catalog: catalogOf(ctx.catalog.stamp.id, parts as Parameters<typeof catalogOf>[1]) };
+    const out = call(procedureInvoker(corrected), "verify", {
+      records: [{ procedure: "operatingPoint", input: op.input, result: filed }],
+    }) as unknown as VerifyOutput;
+    expect(out.reports[0]).toMatchObject({ status: "numbers-changed", moved: ["inputSha256", "catalog"] });
+    expect(out.reports[0]?.numbers?.path).toMatch(/^point\./);
   });
 
   it("a result without a record is said, not passed", async () => {
