@@ -1,7 +1,11 @@
+import { type ChildProcess, spawnSync } from "node:child_process";
 import { generateKeyPairSync } from "node:crypto";
-import type { ChildProcess } from "node:child_process";
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
 import { recordSignerOf } from "../../adapters/record/signing-key.js";
+import { builtCli } from "../helpers/build-once.js";
 import { startBuiltServer } from "../helpers/built-server.js";
 import example from "../../examples/requests/operatingPoint.json" with { type: "json" };
 import review from "../../examples/requests/review.json" with { type: "json" };
@@ -55,5 +59,49 @@ describe("the built server signs in its main thread and its compute threads with
       ["unchanged", "valid"],
     ]);
     s.child.kill("SIGTERM");
+  });
+});
+
+describe("the shipped command line: batch in its compute threads, then verify", () => {
+  it("signs every line in the threads with the one key; the filed lines verify valid and unchanged", () => {
+    const pem = generateKeyPairSync("ed25519").privateKey.export({ type: "pkcs8", format: "pem" }).toString();
+    const dir = mkdtempSync(join(tmpdir(), "backstop-record-cli-"));
+    try {
+      const requests = Array.from({ length: 40 }, (_, k) => ({
+        id: `case-${k}`,
+        procedure: "operatingPoint",
+        input: { ...example.input, ambientC: 20 + k },
+      }));
+      const inFile = join(dir, "requests.jsonl");
+      writeFileSync(inFile, `${requests.map((r) => JSON.stringify(r)).join("\n")}\n`);
+      const env = { ...process.env, BACKSTOP_RECORD_KEY: pem };
+      const outFile = join(dir, "results.jsonl");
+      const batch = spawnSync("node", [builtCli(), "batch", "--in", inFile, "--out", outFile, "--workers", "1"], {
+        env: { ...env, BACKSTOP_TEST_WORKER_FAULT: "none" }, // every chunk to the thread (poolOnly)
+        encoding: "utf8",
+      });
+      expect(batch.status, batch.stderr).toBe(0);
+      const results = readFileSync(outFile, "utf8")
+        .trim()
+        .split("\n")
+        .map((l) => JSON.parse(l) as { result: unknown });
+      const filed = requests.map((r, k) => JSON.stringify({ ...r, result: results[k]?.result }));
+      const recordsFile = join(dir, "records.jsonl");
+      writeFileSync(recordsFile, `${filed.join("\n")}\n`);
+      const reportFile = join(dir, "report.jsonl");
+      const verify = spawnSync("node", [builtCli(), "verify", "--in", recordsFile, "--out", reportFile], {
+        env,
+        encoding: "utf8",
+      });
+      expect(verify.status, verify.stderr).toBe(0);
+      const report = readFileSync(reportFile, "utf8")
+        .trim()
+        .split("\n")
+        .map((l) => JSON.parse(l) as Record<string, unknown>);
+      expect(report.length).toBe(40);
+      expect(report.every((r) => r.status === "unchanged" && r.signature === "valid")).toBe(true);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });
