@@ -34,7 +34,7 @@ export const verdictRecord = z
     sentSha256: sha256Digest.meta({ description: "digest of the input as the caller sent it" }),
     inputSha256: sha256Digest.meta({
       description:
-        "digest of the input as the service understood it: { input: the contract-parsed input (defaults applied), parts: every catalog part the call used, sorted by id }",
+        "digest of the input as the service understood it: { input: the contract-parsed input (defaults applied), parts: [{ id, sha256 of the part's canonical JSON }] for every catalog part the call used, sorted by id }",
     }),
     resultSha256: sha256Digest.meta({ description: "digest of this result without its record" }),
     ruleSets: z

@@ -25,6 +25,21 @@ export function withoutRecord(result: Readonly<Record<string, unknown>>): Record
 
 const byText = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0);
 
+/**
+ * The digest of a catalog part's canonical JSON, computed once a part (parts are immutable records;
+ * the entries go with their catalog). Hashing a part's data on every call cost about 30 µs of an
+ * operating point's 65 µs of record digests (docs/performance.md, "The verdict record's cost").
+ */
+const partDigests = new WeakMap<CatalogPart, string>();
+function partDigest(p: CatalogPart): string {
+  let d = partDigests.get(p);
+  if (d === undefined) {
+    d = sha256Of(p);
+    partDigests.set(p, d);
+  }
+  return d;
+}
+
 /** One call being recorded: the context its handler runs with, and the seal that adds the record. */
 export interface CallRecording {
   readonly ctx: Context;
@@ -64,7 +79,7 @@ export function recordCall(base: Context): CallRecording {
         format: RECORD_FORMAT,
         procedure,
         sentSha256: sha256Of(sent),
-        inputSha256: sha256Of({ input, parts: used }),
+        inputSha256: sha256Of({ input, parts: used.map((p) => ({ id: p.id, sha256: partDigest(p) })) }),
         resultSha256: sha256Of(r),
         ruleSets: [...sets.keys()].sort(byText).map((k) => {
           const s = sets.get(k) as RuleSetStamp;

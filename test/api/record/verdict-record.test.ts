@@ -73,7 +73,7 @@ describe("verdict record on every analysis result", () => {
     const parsed = procedureEntries()
       .find((p) => p.path === "operatingPoint")
       ?.input.parse(e.input);
-    expect(r.inputSha256).toBe(sha({ input: parsed, parts: [part] }));
+    expect(r.inputSha256).toBe(sha({ input: parsed, parts: [{ id: part?.id, sha256: sha(part) }] }));
   });
 
   it("names the rule sets the call evaluated", () => {
