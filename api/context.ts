@@ -1,4 +1,5 @@
 import type { StageSpec } from "../contracts/stage.js";
+import type { RuleSetStamp } from "../domain/rules/rule-model.js";
 import type { RuleSetStore } from "../domain/rules/rule-set-store.js";
 
 /** A part of the approved-parts catalog: a stage with an id. */
@@ -34,6 +35,23 @@ export interface ProcedureObservation {
   readonly seconds: number;
 }
 
+/**
+ * The key that signs verdict records (Ed25519; adapters/record/signing-key.ts loads it): its id
+ * (`sha256:` of the public key's SPKI DER), the public key as PEM, and sign/verify of a text's
+ * UTF-8 bytes with the signature as base64.
+ */
+export interface RecordSigner {
+  readonly keyId: string;
+  readonly publicKeyPem: string;
+  sign(text: string): string;
+  verify(text: string, signatureBase64: string): boolean;
+}
+
+/** What one call tells its verdict record as it resolves it (set per call by the call definition). */
+export interface CallUses {
+  ruleSet(stamp: RuleSetStamp): void;
+}
+
 export interface Context {
   readonly catalog: PartsCatalog;
   /** Rule sets requests may name; absent: the built-in sets only. */
@@ -46,4 +64,8 @@ export interface Context {
    * call's result, or a rejection with the error to answer; undefined: here (`runProcedure`)
    */
   readonly offload?: ((path: string, rawInput: unknown) => Promise<unknown> | undefined) | undefined;
+  /** optional: the key that signs every verdict record (absent: records are unsigned) */
+  readonly recordSigner?: RecordSigner | undefined;
+  /** set by the call definition for one call: where the rule sets it resolves are noted (api/record/) */
+  readonly uses?: CallUses | undefined;
 }

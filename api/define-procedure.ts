@@ -36,12 +36,18 @@ type ReadOnly<T> = T extends readonly (infer E)[]
     ? { readonly [K in keyof T]: ReadOnly<T[K]> }
     : T;
 
-/** A procedure of the table (the compiler checks that the handler's answer has the output contract's type). */
+/** A handler's answer: `T` without its verdict record (added to the answer by the call definition, api/record/), union by union member. */
+export type Answer<T> = T extends unknown ? (T extends { record: unknown } ? Omit<T, "record"> : T) : never;
+
+/**
+ * A procedure of the table (the compiler checks that the handler's answer has the output contract's
+ * type, less the verdict `record` that the call definition adds).
+ */
 export function defineProcedure<
   const N extends string,
   In extends z.ZodType,
   Out extends z.ZodType,
-  R extends ReadOnly<z.output<Out>> | Promise<ReadOnly<z.output<Out>>>,
+  R extends ReadOnly<Answer<z.output<Out>>> | Promise<ReadOnly<Answer<z.output<Out>>>>,
 >(definition: ProcedureDefinition<N, In, Out, R>): ProcedureDefinition<N, In, Out, R> {
   return definition;
 }

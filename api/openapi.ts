@@ -192,6 +192,17 @@ export function openApiDocument(opts: {
   });
   paths["/healthz"] = probe("healthz: alias of livez");
   paths["/openapi.json"] = probe("openapi: this document");
+  paths["/v1/record-key"] = {
+    get: {
+      operationId: "recordKey",
+      summary: "recordKey: the public key (Ed25519, PEM) and key id that check verdict-record signatures",
+      tags: ["operations"],
+      responses: {
+        "200": text("{ alg, keyId, publicKeyPem }", "application/json"),
+        "404": problemResponse("this service signs no verdict records (no key configured)"),
+      },
+    },
+  };
   paths["/metrics"] = {
     get: {
       operationId: "metrics",

@@ -5,6 +5,8 @@ import type { Context } from "./context.js";
 import type { ProcedureDefinition } from "./define-procedure.js";
 import { errorBodyOf, UNPROCESSABLE_CODES } from "./error-body.js";
 import { PROCEDURE_TABLE } from "./procedure-table.js";
+import { collectingFits, type FitNote } from "./record/fit-notes.js";
+import { recordCall } from "./record/verdict-record.js";
 
 /**
  * A procedure of the table as the adapters list it: /v1's listing, OpenAPI, the batch's CSV
@@ -18,9 +20,12 @@ export interface ProcedureEntry {
   readonly description: string | undefined;
 }
 
-const definitions: ReadonlyMap<string, ProcedureDefinition> = new Map(
-  PROCEDURE_TABLE.map((d): [string, ProcedureDefinition] => [d.name, d]),
-);
+let table: ReadonlyMap<string, ProcedureDefinition> | undefined;
+/** The table by name, built on first use (the verify procedure calls back into this module). */
+function definitions(): ReadonlyMap<string, ProcedureDefinition> {
+  table ??= new Map(PROCEDURE_TABLE.map((d): [string, ProcedureDefinition] => [d.name, d]));
+  return table;
+}
 
 function describe(schema: z.ZodType): string | undefined {
   const d = schema.meta()?.description;
@@ -31,7 +36,7 @@ let cache: readonly ProcedureEntry[] | undefined;
 
 /** Every procedure of the table, sorted by path (a stable order for OpenAPI and listings). */
 export function procedureEntries(): readonly ProcedureEntry[] {
-  cache ??= [...definitions.values()]
+  cache ??= [...definitions().values()]
     .map((d) => ({
       path: d.name,
       type: "query" as const,
@@ -66,8 +71,10 @@ export const isThenable = (v: unknown): v is PromiseLike<unknown> =>
  * The one definition of a call: the input parsed by the entry's contract (a failure is
  * BAD_REQUEST with the zod error as its cause), the handler run with the context, and anything
  * the handler throws mapped by tRPC's `getTRPCErrorFromUnknown` (a TRPCError as it is, anything
- * else INTERNAL_SERVER_ERROR with it as the cause). /trpc, /v1, bulk, batch and the compute
- * threads all call procedures through it.
+ * else INTERNAL_SERVER_ERROR with it as the cause), and the verdict record added to an analysis's
+ * result (api/record/verdict-record.ts: digests of the input as sent and as understood, the rule
+ * sets and catalog parts it used, the curve fits it made, the versions, the result's digest, signed where a key is set).
+ * /trpc, /v1, bulk, batch and the compute threads all call procedures through it.
  */
 function callNow(d: ProcedureDefinition, ctx: Context, raw: unknown): unknown {
   let input: unknown;
@@ -76,17 +83,33 @@ function callNow(d: ProcedureDefinition, ctx: Context, raw: unknown): unknown {
   } catch (cause) {
     throw new TRPCError({ code: "BAD_REQUEST", cause });
   }
+  const recording = recordCall(ctx);
   let out: unknown;
+  let fits: readonly FitNote[];
   try {
-    out = d.handler({ input, ctx });
+    // the fits a handler makes are noted while it runs (synchronously, as every handler today)
+    ({ value: out, fits } = collectingFits(() => d.handler({ input, ctx: recording.ctx })));
   } catch (cause) {
     throw getTRPCErrorFromUnknown(cause);
   }
   return isThenable(out)
-    ? Promise.resolve(out).catch((cause: unknown) => {
-        throw getTRPCErrorFromUnknown(cause);
-      })
-    : out;
+    ? Promise.resolve(out).then(
+        (result) => recording.seal(d.name, raw, input, result, fits),
+        (cause: unknown) => {
+          throw getTRPCErrorFromUnknown(cause);
+        },
+      )
+    : recording.seal(d.name, raw, input, out, fits);
+}
+
+/**
+ * A procedure called by name through the one call definition, unobserved (the verify procedure's
+ * recomputation): its result, a promise of it, or a throw as {@link callNow}'s; an unknown name is NOT_FOUND.
+ */
+export function callProcedure(path: string, ctx: Context, raw: unknown): unknown {
+  const d = definitions().get(path);
+  if (d === undefined) throw new TRPCError({ code: "NOT_FOUND", message: `no procedure "${path}"` });
+  return callNow(d, ctx, raw);
 }
 
 /** Tell the context's observer of one call that began at `started` (performance.now()). */
@@ -134,7 +157,7 @@ export function procedureInvoker(ctx: Context): (path: string) => Invoke | undef
   return (path) => {
     let invoke = invokers.get(path);
     if (invoke === undefined) {
-      const d = definitions.get(path);
+      const d = definitions().get(path);
       if (d === undefined) return undefined;
       const now =
         ctx.observe === undefined
@@ -154,7 +177,7 @@ export function procedureInvoker(ctx: Context): (path: string) => Invoke | undef
 export function runProcedure(path: string, raw: unknown, ctx: Context): unknown {
   const away = ctx.offload?.(path, raw);
   if (away !== undefined) return observed(ctx, path, () => away);
-  const d = definitions.get(path);
+  const d = definitions().get(path);
   if (d === undefined) throw new TRPCError({ code: "NOT_FOUND", message: `no procedure "${path}"` });
   return observed(ctx, path, () => callNow(d, ctx, raw));
 }

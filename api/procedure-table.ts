@@ -10,6 +10,7 @@ import { review } from "./procedures/review.js";
 import { rules } from "./procedures/rules.js";
 import { sizing } from "./procedures/sizing.js";
 import { turnOff } from "./procedures/turn-off.js";
+import { verify } from "./procedures/verify.js";
 
 /**
  * Every procedure of backstop, each declared once (`defineProcedure` in `api/procedures/`). The
@@ -29,6 +30,7 @@ export const PROCEDURE_TABLE = [
   ...sizing,
   fit,
   ...catalog,
+  verify,
 ] as const;
 
 /** A procedure of the table. */

@@ -23,8 +23,11 @@ export const router = t.router;
  * the input contract for clients): the call itself parses it, wherever the context runs it
  * (`runProcedure`: here, or the HTTP server's compute threads through `offload`).
  */
+/** A handler's answer with the verdict record the call definition adds, where the output contract has one. */
+type Recorded<A, Out> = Out extends { record: infer R } ? (A extends object ? A & { readonly record: R } : A) : A;
+
 export function trpcProcedure<D extends ProcedureDefinition>(definition: D) {
-  type Answer = Awaited<ReturnType<D["handler"]>>;
+  type Answer = Recorded<Awaited<ReturnType<D["handler"]>>, z.output<D["output"]>>;
   const passThrough = (raw: unknown) => raw as z.input<D["input"]>;
   return t.procedure
     .input(passThrough)

@@ -30,6 +30,8 @@ export interface Limits {
   readonly maxCatalogListParts: number;
   /** largest curve CSV file a batch input or catalog file may reference, bytes */
   readonly maxCurveFileBytes: number;
+  /** most filed records in one verify call (each is recomputed) */
+  readonly maxVerifyRecords: number;
 }
 
 /** The environment variable of each limit. */
@@ -45,6 +47,7 @@ export const LIMIT_VARIABLES: { readonly [K in keyof Limits]: string } = {
   maxExpressionNodes: "BACKSTOP_MAX_EXPRESSION_NODES",
   maxCatalogListParts: "BACKSTOP_MAX_CATALOG_LIST_PARTS",
   maxCurveFileBytes: "BACKSTOP_MAX_CURVE_FILE_BYTES",
+  maxVerifyRecords: "BACKSTOP_MAX_VERIFY_RECORDS",
 };
 
 export const DEFAULT_LIMITS: Limits = {
@@ -62,6 +65,7 @@ export const DEFAULT_LIMITS: Limits = {
   maxCatalogListParts: 1000,
   // a curve holds at most 64 points (the contracts' bound), about 40 bytes a row: ample room
   maxCurveFileBytes: 64 * 1024,
+  maxVerifyRecords: 1000,
 };
 
 /** A limit variable set to something other than a whole number of at least 1. */

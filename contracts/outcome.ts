@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { verdictRecord } from "./record.js";
 
 /** Error codes of the service edge, one closed list. */
 export const ERROR_CODES = [
@@ -30,8 +31,12 @@ export const errorBody = z.object({
 });
 export type ErrorBody = z.infer<typeof errorBody>;
 
-/** Stamped on every analysis result. */
+/**
+ * Stamped on every analysis result. `record` is added by the one call definition
+ * (api/procedure-registry.ts) to every result that carries `modelVersion`; a handler never writes it.
+ */
 export const provenance = {
   modelVersion: z.string().meta({ description: "version of backstop's models" }),
   caution: z.string(),
+  record: verdictRecord,
 };

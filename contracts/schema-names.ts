@@ -2,9 +2,11 @@ import { z } from "zod";
 import * as batteryCharge from "./battery-charge.js";
 import * as bridge from "./bridge.js";
 import * as catalog from "./catalog.js";
+import * as curvePoints from "./curve-points.js";
 import * as diode from "./diode.js";
 import * as fit from "./fit.js";
 import * as holdUp from "./hold-up.js";
+import * as inrush from "./inrush.js";
 import * as contracts from "./index.js";
 import * as load from "./load.js";
 import * as mosfet from "./mosfet.js";
@@ -12,6 +14,7 @@ import * as operatingPoint from "./operating-point.js";
 import * as oring from "./oring.js";
 import * as outcome from "./outcome.js";
 import * as problem from "./problem.js";
+import * as record from "./record.js";
 import * as requirement from "./requirement.js";
 import * as reviewOutput from "./review-output.js";
 import * as review from "./review.js";
@@ -22,6 +25,7 @@ import * as stage from "./stage.js";
 import * as thermal from "./thermal.js";
 import * as transientThermal from "./transient-thermal.js";
 import * as turnOff from "./turn-off.js";
+import * as verify from "./verify.js";
 
 /**
  * The modules whose exported zod schemas are the named, shared components of the OpenAPI document
@@ -34,15 +38,18 @@ const MODULES: readonly Record<string, unknown>[] = [
   batteryCharge,
   bridge,
   catalog,
+  curvePoints,
   diode,
   fit,
   holdUp,
+  inrush,
   load,
   mosfet,
   operatingPoint,
   oring,
   outcome,
   problem,
+  record,
   requirement,
   review,
   reviewOutput,
@@ -53,6 +60,7 @@ const MODULES: readonly Record<string, unknown>[] = [
   thermal,
   transientThermal,
   turnOff,
+  verify,
 ];
 
 /** `stageSpec` → `StageSpec`, `rules.show` → `RulesShow`: the PascalCase name of an export or a procedure path. */

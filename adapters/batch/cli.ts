@@ -9,6 +9,8 @@ import { type ComputePool, catalogData, createComputePool } from "../compute/poo
 import { DEMO_CATALOG } from "../project-root.js";
 import { writeStreamAtomic } from "../atomic-file.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
+import { recordKeyFromEnv, recordSignerOf } from "../record/signing-key.js";
+import { buildVersion } from "../../api/record/build-version.js";
 import { formatOf } from "./formats.js";
 import { mergeShards } from "./merge.js";
 import type { BatchCounts } from "./line.js";
@@ -16,18 +18,22 @@ import { REPORT_RENDERERS } from "../report/report-body.js";
 import { reportFailed, reportNamer, writeBridgeAcReport, writeReviewReport } from "../report/write-report.js";
 import type { Shard } from "./answer.js";
 import { CHUNKS_PER_THREAD, type RowHook, streamBatch } from "./engine.js";
+import { HOLDING, type VerifyCounts, verifyFile } from "./verify-file.js";
 
 const USAGE = `usage:
   backstop --help | backstop batch --help | backstop merge --help
   backstop batch --in requests.jsonl|.csv --out results.jsonl|.csv [--procedure NAME] [--shard i/N | --shard N]
                  [--workers N] [--catalog parts.json|folder] [--in-format jsonl|csv] [--out-format jsonl|csv] [--report-dir folder]
   backstop merge --out results.jsonl|.csv shard-0 shard-1 ...
+  backstop verify --in records.jsonl --out report.jsonl [--catalog parts.json|folder]
 ${CATALOG_USAGE}
   --shard N takes the index from JOB_COMPLETION_INDEX; "{shard}" in --out is replaced by the index.
   --report-dir writes each answered review and bridgeAc line as <id>.html, <id>.md and <id>-charts/*.svg.
   a CSV input needs a "procedure" column or --procedure; blank lines are skipped (counted apart, never a row).
   a curve's points may be { "csv": "curves/vf.csv" }: a CSV file in the input file's folder (or below it).
-  exit 0: every row answered; 1: some rows rejected; 2: could not run.`;
+  verify: each line a filed record { id, procedure, input, result }; each report line says unchanged,
+  numbers-changed, verdict-changed, tampered, signature-failed, no-record, recompute-failed or unreadable.
+  exit 0: every row answered (verify: every verdict holds); 1: some rows rejected (verify: some do not); 2: could not run.`;
 
 class UsageError extends Error {}
 
@@ -105,6 +111,9 @@ async function batch(rest: string[]): Promise<number> {
   const catalog = loadCatalog(catalogPath);
   const rulesDir = process.env.BACKSTOP_RULES_DIR;
   const ruleSets = loadRuleSetStore(rulesDir);
+  const recordKeyPem = recordKeyFromEnv();
+  buildVersion(); // a bad BACKSTOP_BUILD_ID stops the run before the first row
+  const recordSigner = recordKeyPem === undefined ? undefined : recordSignerOf(recordKeyPem);
   for (const r of ruleSets.refused())
     process.stderr.write(
       `backstop batch: rule set file ${r.file} refused: ${r.problems.map((p) => p.message).join("; ")}\n`,
@@ -123,6 +132,7 @@ async function batch(rest: string[]): Promise<number> {
           threads: workers,
           catalog: catalogData(catalog),
           rulesDir,
+          recordKeyPem,
           tasksPerThread: CHUNKS_PER_THREAD,
         })
       : undefined;
@@ -158,7 +168,7 @@ async function batch(rest: string[]): Promise<number> {
           inFormat,
           outFormat,
           write,
-          ctx: { catalog, ruleSets },
+          ctx: { catalog, ruleSets, recordSigner },
           procedure: values.procedure,
           shard,
           curveFolder,
@@ -200,24 +210,69 @@ async function merge(rest: string[]): Promise<number> {
   return 0;
 }
 
+/** `backstop verify`: every filed record checked and recomputed under today's models, rules and catalog. */
+async function verify(rest: string[]): Promise<number> {
+  const { values } = parseArgs({
+    args: rest,
+    options: {
+      in: { type: "string" },
+      out: { type: "string" },
+      catalog: { type: "string" },
+      help: { type: "boolean", short: "h" },
+    },
+  });
+  if (values.help === true) return usage();
+  if (values.in === undefined || values.out === undefined) throw new UsageError("--in and --out are required");
+  const catalog = loadCatalog(values.catalog ?? process.env.BACKSTOP_CATALOG ?? DEMO_CATALOG());
+  const ruleSets = loadRuleSetStore(process.env.BACKSTOP_RULES_DIR);
+  for (const r of ruleSets.refused())
+    process.stderr.write(
+      `backstop verify: rule set file ${r.file} refused: ${r.problems.map((p) => p.message).join("; ")}\n`,
+    );
+  const recordKeyPem = recordKeyFromEnv();
+  buildVersion();
+  const ctx = {
+    catalog,
+    ruleSets,
+    recordSigner: recordKeyPem === undefined ? undefined : recordSignerOf(recordKeyPem),
+  };
+  const inPath = values.in;
+  let counts: VerifyCounts | undefined;
+  await writeStreamAtomic(
+    values.out,
+    async (write) => {
+      counts = await verifyFile(inPath, write, ctx);
+    },
+    logLine,
+  );
+  const c = counts as VerifyCounts;
+  const text = Object.entries(c)
+    .filter(([, n]) => n > 0)
+    .map(([s, n]) => `${n} ${s}`)
+    .join(", ");
+  process.stderr.write(`backstop verify: ${text || "no records"} -> ${values.out}\n`);
+  return Object.entries(c).every(([s, n]) => n === 0 || HOLDING.has(s)) ? 0 : 1;
+}
+
 /** The usage on stdout, asked for (`--help`): exit 0. */
 function usage(): number {
   process.stdout.write(`${USAGE}\n`);
   return 0;
 }
 
-/** `backstop batch` / `backstop merge` / `backstop catalog import`: exit 0 all rows ok, 1 some rows failed, 2 could not run. */
+/** `backstop batch` / `merge` / `verify` / `catalog import`: exit 0 all rows ok (verify: every verdict holds), 1 some not, 2 could not run. */
 export async function main(argv: string[]): Promise<number> {
   const [verb, ...rest] = argv;
   try {
     if (verb === "batch") return await batch(rest);
     if (verb === "merge") return await merge(rest);
+    if (verb === "verify") return await verify(rest);
     if (verb === "catalog") return catalogCommand(rest, logLine);
     if (verb === "--help" || verb === "-h" || verb === "help") return usage();
     throw new UsageError(
       verb === undefined
-        ? "no command (backstop batch, merge or catalog; backstop --help for usage)"
-        : `unknown command "${verb}" (backstop batch, merge or catalog)`,
+        ? "no command (backstop batch, merge, verify or catalog; backstop --help for usage)"
+        : `unknown command "${verb}" (backstop batch, merge, verify or catalog)`,
     );
   } catch (e) {
     if (e instanceof UsageError || (e as { code?: string }).code?.startsWith("ERR_PARSE_ARGS"))

@@ -53,6 +53,8 @@ export function createComputePool(opts: {
   threads: number;
   catalog: CatalogData;
   rulesDir?: string | undefined;
+  /** the verdict records' signing key (PEM), so a thread signs as the main thread does */
+  recordKeyPem?: string | undefined;
   tasksPerThread?: number;
 }): RetirablePool | undefined {
   const filename = workerFile();
@@ -72,7 +74,7 @@ export function createComputePool(opts: {
     // one (the next is then waiting in the thread, not in this thread's queue until it turns)
     concurrentTasksPerWorker: opts.tasksPerThread ?? 1,
     resourceLimits: { maxYoungGenerationSizeMb: COMPUTE_THREAD_YOUNG_GENERATION_MB },
-    workerData: { catalog: opts.catalog, rulesDir: opts.rulesDir },
+    workerData: { catalog: opts.catalog, rulesDir: opts.rulesDir, recordKeyPem: opts.recordKeyPem },
   });
   let up: Promise<void> | undefined;
   // tasks given and not yet settled, so that a retired pool closes after its last one (closeWhenIdle)

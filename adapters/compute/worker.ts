@@ -6,6 +6,7 @@ import { answerChunk, type ChunkAnswer, type ChunkTask } from "../batch/answer.j
 import { catalogOf } from "../catalog/file-catalog.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
 import type { CatalogData } from "./pool.js";
+import { recordSignerOf } from "../record/signing-key.js";
 import { type ReportAnswer, type ReportTask, reportAnswer } from "./report-call.js";
 import { LIMITS } from "../../contracts/limits.js";
 import {
@@ -22,10 +23,15 @@ import {
  * the main thread handed over (pool.ts, CatalogData). A task that runs past its deadline is
  * stopped by terminating the thread.
  */
-const { catalog, rulesDir } = workerData as { catalog: CatalogData; rulesDir?: string | undefined };
+const { catalog, rulesDir, recordKeyPem } = workerData as {
+  catalog: CatalogData;
+  rulesDir?: string | undefined;
+  recordKeyPem?: string | undefined;
+};
 const invoker = procedureInvoker({
   catalog: catalogOf(catalog.id, catalog.parts),
   ruleSets: loadRuleSetStore(rulesDir),
+  recordSigner: recordKeyPem === undefined ? undefined : recordSignerOf(recordKeyPem),
 });
 
 /** Answers once this thread has loaded the router (the pool's `ready`). */

@@ -123,6 +123,16 @@ export function createApp({
     }
     return c.body(text, 200, { "content-type": metrics.registry.contentType });
   });
+  // the public key that checks verdict-record signatures (README, "Verdict records")
+  app.get("/v1/record-key", (c) => {
+    const signer = ctx.recordSigner;
+    if (signer === undefined)
+      return sendProblem(c, 404, {
+        code: "not-found",
+        message: "this service signs no verdict records: no BACKSTOP_RECORD_KEY_FILE or BACKSTOP_RECORD_KEY is set",
+      });
+    return c.json({ alg: "Ed25519", keyId: signer.keyId, publicKeyPem: signer.publicKeyPem });
+  });
   let openapi: string | undefined;
   app.get("/openapi.json", (c) => {
     openapi ??= servedOpenApiText();

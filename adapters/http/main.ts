@@ -11,6 +11,8 @@ import { catalogData, deferredComputePool } from "../compute/pool.js";
 import { createLogger } from "../logging/logger.js";
 import { DEMO_CATALOG } from "../project-root.js";
 import { loadRuleSetStore } from "../rulesets/registry.js";
+import { recordKeyFromEnv, recordSignerOf } from "../record/signing-key.js";
+import { buildVersion } from "../../api/record/build-version.js";
 import { createApp } from "./app.js";
 import { httpConfigFromEnv } from "./config.js";
 import { createMetrics } from "./metrics.js";
@@ -24,6 +26,7 @@ function fail(message: string): never {
 
 let config: ReturnType<typeof httpConfigFromEnv>;
 let live: LiveCatalog;
+let recordKeyPem: string | undefined;
 const catalogPath = process.env.BACKSTOP_CATALOG ?? DEMO_CATALOG();
 // the catalog's files are polled for changes every BACKSTOP_CATALOG_POLL_MS (0: only on SIGHUP)
 const catalogPollMs = Number(process.env.BACKSTOP_CATALOG_POLL_MS ?? 2000);
@@ -49,6 +52,8 @@ try {
     (next, commit) => (pool === undefined ? Promise.resolve(commit()) : pool.useCatalog(catalogData(next), commit)),
     reported,
   );
+  recordKeyPem = recordKeyFromEnv();
+  buildVersion(); // a bad BACKSTOP_BUILD_ID stops the start, not the first analysis
 } catch (e) {
   fail((e as Error).message);
 }
@@ -64,7 +69,7 @@ const shutdownTimeoutMs = Number(process.env.BACKSTOP_SHUTDOWN_TIMEOUT_MS ?? 20_
 // once the server listens (see deferredComputePool). By default one per CPU of the budget, at most 4:
 // a bulk request is split over the threads.
 const threads = Number(process.env.BACKSTOP_WORKERS ?? Math.min(4, cpuBudget()));
-const pool = deferredComputePool({ threads, catalog: catalogData(live.current()), rulesDir });
+const pool = deferredComputePool({ threads, catalog: catalogData(live.current()), rulesDir, recordKeyPem });
 
 // the former multi-process mode's setting: one process a container now
 const processesSetting = process.env.BACKSTOP_HTTP_PROCESSES;
@@ -78,6 +83,7 @@ if (config.apiKeys === undefined)
   logger.warn("API-key auth is OFF: set BACKSTOP_API_KEYS or BACKSTOP_API_KEYS_FILE to require a key on /v1 and /trpc");
 
 let draining = false;
+const recordSigner = recordKeyPem === undefined ? undefined : recordSignerOf(recordKeyPem);
 // a call reads the catalog once, when its context is made (tRPC) or its handler runs (/v1, reports,
 // in a turn), so a reload never changes the catalog under a call
 const ctx: Context = {
@@ -85,6 +91,7 @@ const ctx: Context = {
     return live.current();
   },
   ruleSets,
+  recordSigner,
 };
 const isReady = () => !draining;
 const app = createApp({ ctx, logger, config, metrics, pool, isReady, catalogReload: () => live.lastReload() });
@@ -122,6 +129,7 @@ server.listen(port, process.env.HOST ?? "0.0.0.0", () => {
       rulesRefused: ruleSets.refused().length,
       workers: pool?.threads ?? 0,
       auth: config.apiKeys !== undefined,
+      recordKeyId: recordSigner?.keyId ?? null,
     },
     "backstop listening",
   );

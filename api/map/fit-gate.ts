@@ -1,6 +1,7 @@
 import { TRPCError } from "@trpc/server";
 import { beyondBoundReason, describeFit, type FitQuality, fitPasses } from "../../domain/fit/fit-quality.js";
 import { InputProblem } from "../input-problem.js";
+import { fitNoteOf, noteFit } from "../record/fit-notes.js";
 
 /** A fit the points cannot give: one issue per offending point (or at the points when none is singled out). */
 export function refusedFit(path: (string | number)[], message: string, points: readonly number[]): TRPCError {
@@ -11,7 +12,8 @@ export function refusedFit(path: (string | number)[], message: string, points: r
 /**
  * The quality gate of a least-squares fit: beyond its bound it is refused, naming the worst point
  * and its residual, and so is a fit whose solver stopped at its iteration cap, unless the caller
- * accepts it (acceptFit); either way the sentence for the result's `assumptions` comes back.
+ * accepts it (acceptFit); either way the sentence for the result's `assumptions` comes back, and
+ * the fit is noted for the call's verdict record.
  */
 export function gateFit(
   q: FitQuality,
@@ -24,5 +26,6 @@ export function gateFit(
 ): string {
   if (!fitPasses(q) && accept !== true)
     throw refusedFit(path, `${what}: ${beyondBoundReason(q, unit, describePoint)}`, [q.worstIndex]);
+  noteFit(fitNoteOf(q, path, unit, points));
   return describeFit(what, q, unit, points);
 }

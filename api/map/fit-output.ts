@@ -7,7 +7,7 @@ import { fitRdsTempCurve } from "./rds-temp-curve.js";
 import { fitZthCurve } from "./transient-thermal.js";
 
 type Parsed<C extends FitSpec["curve"]> = Extract<FitSpec, { curve: C }>;
-type Body = Omit<FitOutput, "modelVersion" | "caution" | "assumptions">;
+type Body = Omit<FitOutput, "modelVersion" | "caution" | "assumptions" | "record">;
 type Parameter = FitOutput["parameters"][number];
 
 const param = (name: string, value: number, unit: string, fitted: boolean, standardError?: number): Parameter => ({

@@ -5,9 +5,17 @@ import type { StageModel } from "../../domain/stages/stage-model.js";
 import type { CatalogPart, PartsCatalog } from "../context.js";
 import { inputProblem } from "../input-problem.js";
 import { toStageModel } from "./stage-model.js";
+import { collectingFits, type FitNote, noteFit } from "../record/fit-notes.js";
+
+/** A catalog part mapped once: its model, and the defaults and fits the mapping recorded (replayed on every use). */
+interface MappedPart {
+  readonly model: StageModel;
+  readonly assumptions: readonly string[];
+  readonly fits: readonly FitNote[];
+}
 
 /** Mapped models of catalog parts (immutable records), per part and request path. */
-const catalogModels = new WeakMap<object, Map<string, { model: StageModel; assumptions: readonly string[] }>>();
+const catalogModels = new WeakMap<object, Map<string, MappedPart>>();
 
 export interface ResolvedStage {
   readonly spec: StageSpec;
@@ -47,16 +55,17 @@ export function resolveStage(
       // a catalog part with its own thermal path maps to the same model every time (the diode fit
       // included): map it once per path and replay the defaults it recorded
       const key = path.join("\u0000");
-      const perPart =
-        catalogModels.get(part) ?? new Map<string, { model: StageModel; assumptions: readonly string[] }>();
+      const perPart = catalogModels.get(part) ?? new Map<string, MappedPart>();
       catalogModels.set(part, perPart);
       let hit = perPart.get(key);
       if (hit === undefined) {
         const recorded: string[] = [];
-        hit = { model: toStageModel(part.stage, part.stage.thermal, [...path], recorded), assumptions: recorded };
+        const mapped = collectingFits(() => toStageModel(part.stage, part.stage.thermal, [...path], recorded));
+        hit = { model: mapped.value, assumptions: recorded, fits: mapped.fits };
         if (perPart.size < 64) perPart.set(key, hit);
       }
       assumptions.push(...hit.assumptions);
+      for (const f of hit.fits) noteFit(f);
       return { spec: part.stage, model: hit.model, partId: part.id };
     }
     const thermal = thermalOverride ?? input.thermal ?? part.stage.thermal;

@@ -21,11 +21,17 @@ export function ruleSetsOf(ctx: Context): RuleSetStore {
 export function resolveRuleSet(ref: string | RuleSetSpec, ctx: Context, path: (string | number)[]): CompiledRuleSet {
   if (typeof ref === "string") {
     const r = ruleSetsOf(ctx).get(ref);
-    if (r.ok) return r.set;
+    if (r.ok) {
+      ctx.uses?.ruleSet(r.set.stamp);
+      return r.set;
+    }
     throw problem("unknown-rule-set", r.message, [{ path, message: r.message }]);
   }
   const out = compileRuleSet(toRuleSet(ref), expressionSizeLimits());
-  if (out.ok) return out.compiled;
+  if (out.ok) {
+    ctx.uses?.ruleSet(out.compiled.stamp);
+    return out.compiled;
+  }
   const issues = out.errors.map((e) => {
     const idx = ref.rules.findIndex((r) => r.id === e.ruleId);
     return {

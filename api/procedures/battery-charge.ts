@@ -7,7 +7,7 @@ import { ruleSetForAnalysis } from "../map/analysis-rule-set.js";
 import { batteryChargeRuleInput, CHARGE_COMPUTES } from "../../domain/rules/metrics-of-reverse-current.js";
 import { stageLabel } from "../map/reverse-inputs.js";
 import { resolveStage } from "../map/resolve-stage.js";
-import { defineProcedure } from "../define-procedure.js";
+import { type Answer, defineProcedure } from "../define-procedure.js";
 
 const SECONDS_PER_HOUR = 3600;
 const DEFAULT_MAX_TIME_S = 7 * 24 * 3600;
@@ -29,7 +29,7 @@ export const batteryCharge = defineProcedure({
   name: "batteryCharge",
   input: batteryChargeInput,
   output: batteryChargeOutput,
-  handler: ({ input, ctx }): BatteryChargeOutput => {
+  handler: ({ input, ctx }): Answer<BatteryChargeOutput> => {
     const assumptions: string[] = [
       "stage junction temperature quasi-static (thermal time constants ≪ charge time)",
       "stage quiescent current not drawn from the source",

@@ -13,13 +13,13 @@ import { ruleSetForAnalysis } from "../map/analysis-rule-set.js";
 import { bridgeComparison } from "../map/bridge-comparison.js";
 import { BRIDGE_AC_COMPUTES, bridgeAcElementInputs } from "../../domain/rules/metrics-of-bridge.js";
 import { toBridgeElements } from "../map/bridge-elements.js";
-import { defineProcedure } from "../define-procedure.js";
+import { type Answer, defineProcedure } from "../define-procedure.js";
 
 export const bridgeAc = defineProcedure({
   name: "bridgeAc",
   input: bridgeAcInput,
   output: bridgeAcOutput,
-  handler: ({ input, ctx }): BridgeAcOutput => {
+  handler: ({ input, ctx }): Answer<BridgeAcOutput> => {
     const assumptions: string[] = [];
     const orZero = (v: number | undefined, name: string): number => {
       if (v === undefined) assumptions.push(`${name}: 0 (default)`);

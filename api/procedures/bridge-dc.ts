@@ -11,13 +11,13 @@ import { ruleSetForAnalysis } from "../map/analysis-rule-set.js";
 import { bridgeComparison } from "../map/bridge-comparison.js";
 import { BRIDGE_DC_COMPUTES, bridgeDcElementInputs } from "../../domain/rules/metrics-of-bridge.js";
 import { toBridgeElements } from "../map/bridge-elements.js";
-import { defineProcedure } from "../define-procedure.js";
+import { type Answer, defineProcedure } from "../define-procedure.js";
 
 export const bridgeDc = defineProcedure({
   name: "bridgeDc",
   input: bridgeDcInput,
   output: bridgeDcOutput,
-  handler: ({ input, ctx }): BridgeDcOutput => {
+  handler: ({ input, ctx }): Answer<BridgeDcOutput> => {
     const assumptions: string[] = [];
     const sourceResistanceOhm = input.sourceResistanceOhm ?? 0;
     if (input.sourceResistanceOhm === undefined) assumptions.push("sourceResistanceOhm: 0 (default)");

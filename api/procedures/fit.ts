@@ -1,14 +1,14 @@
 import { type FitOutput, fitInput, fitOutput } from "../../contracts/fit.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { diodeForwardFit, rdsOnTemperatureFit, reverseLeakageFit, zthFit } from "../map/fit-output.js";
-import { defineProcedure } from "../define-procedure.js";
+import { type Answer, defineProcedure } from "../define-procedure.js";
 
 /** A datasheet curve's points in, the fitted law, its parameters and residuals out; no analysis. */
 export const fit = defineProcedure({
   name: "fit",
   input: fitInput,
   output: fitOutput,
-  handler: ({ input }): FitOutput => {
+  handler: ({ input }): Answer<FitOutput> => {
     const assumptions: string[] = [];
     const body = (() => {
       switch (input.curve) {

@@ -9,13 +9,13 @@ import { HOLD_UP_COMPUTES, holdUpRuleInput } from "../../domain/rules/metrics-of
 import { controllerTiming, loadMinimumV, gateLagOf, missingQrrSentence, stageLabel } from "../map/reverse-inputs.js";
 import { holdUpAgainstRequirement } from "../map/hold-up-requirement.js";
 import { resolveStage } from "../map/resolve-stage.js";
-import { defineProcedure } from "../define-procedure.js";
+import { type Answer, defineProcedure } from "../define-procedure.js";
 
 export const holdUp = defineProcedure({
   name: "holdUp",
   input: holdUpInput,
   output: holdUpOutput,
-  handler: ({ input, ctx }): HoldUpOutput => {
+  handler: ({ input, ctx }): Answer<HoldUpOutput> => {
     const assumptions: string[] = [];
     const set = ruleSetForAnalysis(input.ruleSet, input.ruleMetrics, HOLD_UP_COMPUTES, "holdUp", ctx);
     const loadMinV = loadMinimumV(input.load, input.loadMinV, ["loadMinV"]);

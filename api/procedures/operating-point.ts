@@ -22,13 +22,13 @@ import { inputProblem } from "../input-problem.js";
 import { OPERATING_POINT_METRICS, operatingPointRuleInput } from "../../domain/rules/metrics-of-operating-point.js";
 import { resolveRuleSet } from "../map/rule-set.js";
 import { resolveStage } from "../map/resolve-stage.js";
-import { defineProcedure } from "../define-procedure.js";
+import { type Answer, defineProcedure } from "../define-procedure.js";
 
 export const operatingPoint = defineProcedure({
   name: "operatingPoint",
   input: operatingPointInput,
   output: operatingPointOutput,
-  handler: ({ input, ctx }): OperatingPointOutput => {
+  handler: ({ input, ctx }): Answer<OperatingPointOutput> => {
     const assumptions: string[] = [];
     const stage = resolveStage(input.stage, ctx.catalog, ["stage"], assumptions, input.thermal);
     const rthKPerW = totalRthKPerW(stage.model.thermal);
@@ -86,10 +86,10 @@ function verdicts(
 type OperatingPointInputParsed = z.output<typeof operatingPointInput>;
 
 type Head = {
-  -readonly [K in keyof Omit<Extract<OperatingPointOutput, { outcome: "solved" }>, "outcome" | "point">]: Omit<
+  -readonly [K in keyof Omit<
     Extract<OperatingPointOutput, { outcome: "solved" }>,
-    "outcome" | "point"
-  >[K];
+    "outcome" | "point" | "record"
+  >]: Omit<Extract<OperatingPointOutput, { outcome: "solved" }>, "outcome" | "point" | "record">[K];
 };
 
 /** `{ outcome, ...head, ...fields }` in that key order, built without a spread literal. */
@@ -107,7 +107,7 @@ function withHead(
   head: Head,
   o: OperatingPointOutcome,
   toPoint: (p: SolvedPoint) => SolvedPointOutput,
-): OperatingPointOutput {
+): Answer<OperatingPointOutput> {
   switch (o.outcome) {
     case "solved":
       return headed(o.outcome, head, { point: toPoint(o.point) });

@@ -8,13 +8,13 @@ import { stageTjMaxC } from "../../domain/stages/stage-model.js";
 import { stageLabel } from "../map/reverse-inputs.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { inputProblem } from "../input-problem.js";
-import { defineProcedure } from "../define-procedure.js";
+import { type Answer, defineProcedure } from "../define-procedure.js";
 
 export const oring = defineProcedure({
   name: "oring",
   input: oringInput,
   output: oringOutput,
-  handler: ({ input, ctx }): OringOutput => {
+  handler: ({ input, ctx }): Answer<OringOutput> => {
     const assumptions: string[] = ["sources sink reverse current (a battery does; many bench supplies do not)"];
     const set = ruleSetForAnalysis(input.ruleSet, input.ruleMetrics, ORING_COMPUTES, "oring", ctx);
     const resolved = input.sources.map((s, k) =>

@@ -20,13 +20,13 @@ import { reviewMonteCarlo } from "../map/review-monte-carlo.js";
 import { transientAllowanceOf } from "../../domain/review/transient-allowance.js";
 import { transientThermalOf } from "../map/transient-thermal.js";
 import { resolveRuleSet } from "../map/rule-set.js";
-import { defineProcedure } from "../define-procedure.js";
+import { type Answer, defineProcedure } from "../define-procedure.js";
 
 export const review = defineProcedure({
   name: "review",
   input: reviewInput,
   output: reviewOutput,
-  handler: ({ input, ctx }): ReviewOutput => {
+  handler: ({ input, ctx }): Answer<ReviewOutput> => {
     const assumptions: string[] = [];
     const req = toReviewRequirement(input.requirement, assumptions);
     const set = resolveRuleSet(input.ruleSet ?? "default", ctx, ["ruleSet"]);

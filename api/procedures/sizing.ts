@@ -14,7 +14,7 @@ import { resolveStage } from "../map/resolve-stage.js";
 import { stageLabel } from "../map/reverse-inputs.js";
 import { resolveRuleSet } from "../map/rule-set.js";
 import { sizingContext } from "../map/sizing-context.js";
-import { defineProcedure } from "../define-procedure.js";
+import { type Answer, defineProcedure } from "../define-procedure.js";
 
 const CAUTION_NOTE =
   "the specification holds each template's laws (temperature law, gate-drive points, Is(T)) and thermal path; a part with different laws needs its own sizing";
@@ -29,7 +29,7 @@ export const sizing = [
     name: "sizing.spec",
     input: sizingSpecInput,
     output: sizingSpecOutput,
-    handler: ({ input, ctx }): SizingSpecOutput => {
+    handler: ({ input, ctx }): Answer<SizingSpecOutput> => {
       const assumptions: string[] = [CAUTION_NOTE];
       const req = toReviewRequirement(input.requirement, assumptions);
       const set = resolveRuleSet(input.ruleSet ?? "default", ctx, ["ruleSet"]);
@@ -61,7 +61,7 @@ export const sizing = [
     name: "sizing.catalog",
     input: sizingCatalogInput,
     output: sizingCatalogOutput,
-    handler: ({ input, ctx }): SizingCatalogOutput => {
+    handler: ({ input, ctx }): Answer<SizingCatalogOutput> => {
       const assumptions: string[] = [CAUTION_NOTE];
       const req = toReviewRequirement(input.requirement, assumptions);
       const set = resolveRuleSet(input.ruleSet ?? "default", ctx, ["ruleSet"]);

@@ -17,13 +17,13 @@ import {
   stageLabel,
 } from "../map/reverse-inputs.js";
 import { resolveStage } from "../map/resolve-stage.js";
-import { defineProcedure } from "../define-procedure.js";
+import { type Answer, defineProcedure } from "../define-procedure.js";
 
 export const turnOff = defineProcedure({
   name: "turnOff",
   input: turnOffInput,
   output: turnOffOutput,
-  handler: ({ input, ctx }): TurnOffOutput => {
+  handler: ({ input, ctx }): Answer<TurnOffOutput> => {
     const assumptions: string[] = [];
     const set = ruleSetForAnalysis(input.ruleSet, input.ruleMetrics, TURN_OFF_COMPUTES, "turnOff", ctx);
     const stage = resolveStage(input.stage, ctx.catalog, ["stage"], assumptions);

@@ -65,7 +65,10 @@ describe("fit procedure", () => {
     // The same model through an analysis: the fitted Shockley form gives the same operating point.
     const viaPoints = await caller.operatingPoint(op(pnStage(three)) as never);
     const viaModel = await caller.operatingPoint(op({ ...pnStage(three), diode: r.model }) as never);
-    expect(JSON.stringify({ ...viaModel, assumptions: [] })).toBe(JSON.stringify({ ...viaPoints, assumptions: [] }));
+    // (the records differ: they digest two different inputs)
+    const { record: _m, ...modelled } = viaModel;
+    const { record: _p, ...pointed } = viaPoints;
+    expect(JSON.stringify({ ...modelled, assumptions: [] })).toBe(JSON.stringify({ ...pointed, assumptions: [] }));
   });
 
   it("takes the curve-points form in an analysis and records the fit's residuals in assumptions", async () => {
