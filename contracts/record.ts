@@ -1,7 +1,7 @@
 import { z } from "zod";
 
 /** A SHA-256 digest as the service writes every hash: `sha256:` and 64 lowercase hex digits. */
-export const sha256Digest = z.string().regex(/^sha256:[0-9a-f]{64}$/);
+const sha256Digest = z.string().regex(/^sha256:[0-9a-f]{64}$/);
 
 const ruleSetStamp = z.object({ id: z.string(), version: z.string(), hash: z.string() });
 const catalogStamp = z.object({ id: z.string(), hash: z.string(), partCount: z.number().int() });
