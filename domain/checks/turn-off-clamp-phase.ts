@@ -4,6 +4,8 @@ import {
   loopSystem,
   outputV,
   type RlcLoop,
+  shiftLoop,
+  sourceAt,
   stateAt,
   type Vec2,
 } from "../physics/rlc-series.js";
@@ -33,7 +35,7 @@ export function clampPhase(m: TurnOffModel, loop: RlcLoop, xOff: Vec2, turnOffS:
   );
   if (!(xOff[0] < -1e-9 * currentScaleA)) return { kind: "none" };
   const clampV = m.clampV ?? stageBreakdownV(m.stage);
-  const driveV = outputV(loop, xOff) - m.inputAfterV;
+  const driveV = outputV(loop, xOff) - sourceAt(loop, turnOffS);
   if (!(clampV > driveV)) {
     return {
       kind: "below-drive",
@@ -46,7 +48,11 @@ export function clampPhase(m: TurnOffModel, loop: RlcLoop, xOff: Vec2, turnOffS:
       },
     };
   }
-  const clampLoop: RlcLoop = { ...loop, sourceV: m.inputAfterV + clampV, loopResistanceOhm: m.loopResistanceOhm };
+  // From the turn-off on: a decaying input's part decayed to turnOffS (shiftLoop).
+  const clampLoop: RlcLoop = shiftLoop(
+    { ...loop, sourceV: m.inputAfterV + clampV, loopResistanceOhm: m.loopResistanceOhm },
+    turnOffS,
+  );
   const sc = loopSystem(clampLoop);
   const cch = loopCharacter(sc);
   const ramp = (m.loopInductanceH * -xOff[0]) / (clampV - driveV);

@@ -6,6 +6,8 @@ import {
   loopSystem,
   outputV,
   type RlcLoop,
+  shiftSystem,
+  sourceAt,
   stateAt,
   stateIntegral,
   type Vec2,
@@ -55,6 +57,7 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   const stageOhm = path.kind === "diode" ? path.seriesOhm : path.channelOhm;
   const loop: RlcLoop = {
     sourceV: m.inputAfterV,
+    ...inputDecayOf(m),
     loopResistanceOhm: m.loopResistanceOhm + stageOhm,
     inductanceH: m.loopInductanceH,
     capacitanceF: m.capacitanceF,
@@ -98,7 +101,7 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
       loop: { ...ch, totalResistanceOhm: loop.loopResistanceOhm, stageResistanceOhm: stageOhm },
       loadMethod: line.method,
       initialCurrentA: i0,
-      initialSlopeAPerS: (m.inputAfterV - vinBefore - i0 * stageOhm) / m.loopInductanceH,
+      initialSlopeAPerS: (sourceAt(loop, 0) - vinBefore - i0 * stageOhm) / m.loopInductanceH,
       peakReverseCurrentA: peak.currentA,
       peakReverseTimeS: peak.timeS,
       ...(peak.lowerBound ? { peakReverseIsLowerBound: true as const } : {}),
@@ -163,6 +166,12 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   if (after.kind === "below-drive") return after.outcome;
   if (after.kind === "none") return base;
   return { ...base, outputMinV: Math.min(base.outputMinV, after.outputMinV), clamp: after.clamp };
+}
+
+/** The loop source's decaying part for an input that decays after the event (none for a step). */
+export function inputDecayOf(m: TurnOffModel): Pick<RlcLoop, "sourceDecay"> {
+  const d = m.inputDecay;
+  return d === undefined ? {} : { sourceDecay: { extraV: d.startV - m.inputAfterV, tauS: d.tauS } };
 }
 
 /**
@@ -239,11 +248,14 @@ function peakReverse(
 function recoveryEnd(s: ReturnType<typeof loopSystem>, x0: Vec2, t0: number, qrrC: number, horizon: number): number {
   if (!(qrrC > 0)) return t0;
   const x1 = stateAt(s, x0, t0);
+  // From t0 on (a decaying input's forcing decayed to t0: shiftSystem).
+  const s1 = shiftSystem(s, t0);
   // The lobe ends where i returns to zero after its (first) extremum.
-  const tMin = extremaTimes(s, x1, [1, 0], horizon, 1)[0];
-  const back = tMin === undefined ? undefined : firstCrossing(s, stateAt(s, x1, tMin), [1, 0], 0, horizon);
+  const tMin = extremaTimes(s1, x1, [1, 0], horizon, 1)[0];
+  const back =
+    tMin === undefined ? undefined : firstCrossing(shiftSystem(s1, tMin), stateAt(s1, x1, tMin), [1, 0], 0, horizon);
   const lobeEnd = tMin === undefined || back === undefined ? horizon : tMin + back;
-  const drawn = (t: number): number => -stateIntegral(s, x1, t)[0] - qrrC;
+  const drawn = (t: number): number => -stateIntegral(s1, x1, t)[0] - qrrC;
   if (drawn(lobeEnd) < 0) return t0 + lobeEnd;
   let lo = 0;
   let hi = lobeEnd;
