@@ -193,28 +193,27 @@ export function stateIntegral(s: Linear2, x0: Vec2, t: number): Vec2 {
 /**
  * Times in (0, tMax] where w·x'(t) = 0, i.e. the extrema of the output w·x, ascending, at most
  * maxCount. Without forcing w·x'(t) = w·e^(At)·x'(0) (zerosOf). With it, w·x'(t) =
- * e^(μt)·(w·e^((A−μI)t)·v + μ·w·xe): the bracket h(t) = w·e^((A−μI)t)·v + μ·w·xe has the same
- * shape, and its own extrema are the zeros of w·e^((A−μI)t)·(A−μI)·v (zerosOf again, closed
- * form), so h is monotone between them and each such segment holds at most one zero, closed by
- * bisection.
+ * w·e^(At)·v + κ·e^(μt) = e^(μt)·h(t), h(t) = w·e^((A−μI)t)·v + κ, κ = μ·w·xe. h's own extrema
+ * are the zeros of h'(t) = e^(−μt)·w·e^(At)·(A−μI)·v, closed form (zerosOf), so h — and with it
+ * w·x', of the same sign — is monotone between them and each such segment holds at most one zero,
+ * closed by bisection on w·x' itself (no e^(−μt) to overflow for a fast decay).
  */
 export function extremaTimes(s: Linear2, x0: Vec2, w: Vec2, tMax: number, maxCount: number): number[] {
   if (s.forcing === undefined) return zerosOf(s, rateAt(s, x0, 0), w, tMax, maxCount);
-  const { xe, mu } = forcedPart(s);
+  const { mu } = forcedPart(s);
   const sh = shifted(s, mu);
   const v = naturalRate(s, x0);
-  const kappa = mu * (w[0] * xe[0] + w[1] * xe[1]);
-  const h = (t: number): number => {
-    const y = expApply(sh, t, v);
-    return w[0] * y[0] + w[1] * y[1] + kappa;
+  const f = (t: number): number => {
+    const r = rateAt(s, x0, t);
+    return w[0] * r[0] + w[1] * r[1];
   };
   const sv: Vec2 = [sh.a11 * v[0] + sh.a12 * v[1], sh.a21 * v[0] + sh.a22 * v[1]];
   const out: number[] = [];
   let a = 0;
-  let fa = h(0);
-  for (const b of [...zerosOf(sh, sv, w, tMax, 4000), tMax]) {
-    const fb = h(b);
-    if (fa * fb < 0 && b > a) out.push(bisect(h, a, b, fa));
+  let fa = f(0);
+  for (const b of [...zerosOf(s, sv, w, tMax, 4000), tMax]) {
+    const fb = f(b);
+    if (fa * fb < 0 && b > a) out.push(bisect(f, a, b, fa));
     else if (fb === 0 && b < tMax) out.push(b);
     if (out.length >= maxCount) break;
     a = b;
