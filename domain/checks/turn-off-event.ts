@@ -53,7 +53,12 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   }
   const i0 = line.currentA + line.conductanceS * m.outputV;
   const vinBefore = m.outputV + i0 * m.loopResistanceOhm;
-  const path = reversePath(m.stage, tK, vinBefore, m.inputAfterV, m.outputV, m.controller);
+  // A stage whose gate the remaining input drives (a low-side N-FET) is judged at the highest level
+  // the input holds after the event: a decaying input's start or its final level. The gate's
+  // turn-on or turn-off part-way through the decay is not modelled; taking the higher level keeps
+  // the channel on for the whole event, the worse answer for blocking.
+  const gateInputV = Math.max(m.inputAfterV, m.inputDecay?.startV ?? m.inputAfterV);
+  const path = reversePath(m.stage, tK, vinBefore, gateInputV, m.outputV, m.controller);
   const stageOhm = path.kind === "diode" ? path.seriesOhm : path.channelOhm;
   const loop: RlcLoop = {
     sourceV: m.inputAfterV,

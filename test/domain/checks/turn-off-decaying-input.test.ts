@@ -3,7 +3,7 @@ import { type TurnOffModel, type TurnOffOutcome, turnOffEvent } from "../../../d
 import { toolAvailable } from "../../helpers/external-tool.js";
 import { runNgspice } from "../../helpers/ngspice.js";
 import { relativeError } from "../../helpers/tolerance.js";
-import { pfetStage, turnOffFixture } from "../../fixtures/reverse-stages.js";
+import { lowSideStage, pfetStage, turnOffFixture } from "../../fixtures/reverse-stages.js";
 
 // An input that decays after the event (issue 19 item 11): from startV at t = 0+ to inputAfterV
 // as e^(−t/τ), through the same closed form (rlc-series.ts). Outside references: the limits
@@ -114,5 +114,20 @@ describe("a controller stage (clamp phase) under a decaying input", () => {
       expect(Math.abs(a.energies.balanceResidual)).toBeLessThan(1e-6);
       expect(Math.abs(a.clamp?.energies.balanceResidual ?? 1)).toBeLessThan(1e-6);
     }
+  });
+});
+
+describe("a low-side N-FET, whose gate the remaining input drives", () => {
+  // Circuit reasoning (its reverse path, domain/stages/nfet-low-side.ts): an input still above the
+  // threshold holds the channel on; a decay that starts there is judged at its start (conservative).
+  it("an input stepping to 0 V lets the gate fall (blocks); one decaying from 10 V to 0 V keeps it on (does-not-block)", () => {
+    const step = turnOffEvent({ ...turnOffFixture, stage: lowSideStage });
+    const decaying = turnOffEvent({
+      ...turnOffFixture,
+      stage: lowSideStage,
+      inputDecay: { startV: 10, tauS: 50e-6 },
+    });
+    expect(step.outcome).toBe("blocks");
+    expect(decaying.outcome).toBe("does-not-block");
   });
 });
