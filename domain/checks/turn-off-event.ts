@@ -34,7 +34,9 @@ export type {
  * loop until it turns off, then — for a blocking stage with reverse current — a clamp phase in
  * which the blocking element holds Vcl until the loop current returns to zero (the same closed
  * form with Vs + Vcl as source). A diode's junction drop is not in the loop (it shifts the
- * pre-event input only); the channel resistance is held at its pre-event value.
+ * pre-event input only); the channel resistance is held at its pre-event value. An input that
+ * decays after the event (m.inputDecay: from startV to inputAfterV as e^(−t/τ)) is the loop's
+ * exponential forcing in the same closed form; each later phase takes it decayed to its start.
  */
 export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   const tK = cToK(m.tjC);

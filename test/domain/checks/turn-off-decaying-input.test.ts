@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { type TurnOffModel, type TurnOffOutcome, turnOffEvent } from "../../../domain/checks/turn-off-event.js";
+import { turnOffWaveform } from "../../../domain/checks/turn-off-waveform.js";
 import { toolAvailable } from "../../helpers/external-tool.js";
 import { runNgspice } from "../../helpers/ngspice.js";
 import { relativeError } from "../../helpers/tolerance.js";
@@ -114,6 +115,17 @@ describe("a controller stage (clamp phase) under a decaying input", () => {
       expect(Math.abs(a.energies.balanceResidual)).toBeLessThan(1e-6);
       expect(Math.abs(a.clamp?.energies.balanceResidual ?? 1)).toBeLessThan(1e-6);
     }
+  });
+
+  it("the waveform of a decaying input: continuous at the turn-off, its largest reverse current the event's", () => {
+    const m: TurnOffModel = { ...turnOffFixture, inputAfterV: -5, inputDecay: { startV: 3, tauS: 2e-6 } };
+    const r = turnOffEvent(m);
+    const w = turnOffWaveform(m, r);
+    if (r.outcome !== "blocks" || w === undefined || w.clampStartIndex === undefined) throw new Error(r.outcome);
+    expect(Math.max(...w.currentA.map((i) => -i))).toBeCloseTo(r.peakReverseCurrentA, 9);
+    // the clamp phase ends where the event's clamp phase says the current stopped
+    expect(Math.abs(w.currentA[w.currentA.length - 1] ?? 1)).toBeLessThan(1e-6 * r.peakReverseCurrentA);
+    expect(w.timeS[w.timeS.length - 1]).toBeCloseTo(r.turnOffS + (r.clamp?.durationS ?? 0), 12);
   });
 });
 
