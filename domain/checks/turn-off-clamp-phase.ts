@@ -87,7 +87,8 @@ export function outputMinOver(p: RlcLoop, x0: Vec2, tEnd: number): number {
   const s = loopSystem(p);
   const k = 1 / (1 + p.esrOhm * p.loadConductanceS);
   let low = outputV(p, x0);
-  for (const t of [...extremaTimes(s, x0, [k * p.esrOhm, k], tEnd, 8), tEnd])
+  // A decaying source can push later swings lower than the first few: all extrema then.
+  for (const t of [...extremaTimes(s, x0, [k * p.esrOhm, k], tEnd, s.forcing === undefined ? 8 : 4000), tEnd])
     low = Math.min(low, outputV(p, stateAt(s, x0, t)));
   return low;
 }

@@ -240,7 +240,10 @@ function peakReverse(
   open: boolean,
 ): { currentA: number; timeS: number; lowerBound: boolean } {
   let best = { currentA: 0, timeS: 0 };
-  for (const t of [0, ...extremaTimes(s, x0, [1, 0], searchS, 2), tEnd, searchS]) {
+  // A constant input: the natural response decays, so its first two extrema hold the largest. A
+  // decaying input can push later swings further (a slow fall under a ringing loop): all of them.
+  const count = s.forcing === undefined ? 2 : 4000;
+  for (const t of [0, ...extremaTimes(s, x0, [1, 0], searchS, count), tEnd, searchS]) {
     const rev = -stateAt(s, x0, t)[0];
     if (rev > best.currentA) best = { currentA: rev, timeS: t };
   }
