@@ -47,6 +47,14 @@ export const holdUpInput = z
         "requirement metrics for the rules that this analysis does not compute (parallelSources, reverseVMaxV, reverseCurrentBudgetA, ...)",
     }),
   })
+  .superRefine((v, ctx) => {
+    if (v.input.kind === "falls" && v.input.inputDecay !== undefined && !(v.input.inputDecay.startV < v.outputV))
+      ctx.addIssue({
+        code: "custom",
+        path: ["input", "inputDecay", "startV"],
+        message: "must be below outputV: the input falls at t = 0 (give the level it jumps to, then decays from)",
+      });
+  })
   .meta({ description: "time the output stays above the load's minimum after the input is lost, per stage" });
 export type HoldUpInput = z.input<typeof holdUpInput>;
 

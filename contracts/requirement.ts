@@ -7,6 +7,7 @@ import {
   holdUpCapacitor,
   inductiveClampField,
   inputAfterField,
+  inputDecayField,
   loadReverseLimitField,
   pfetGateLag,
   repetitiveEvent,
@@ -75,6 +76,7 @@ export const reviewTurnOff = z
     loop: reverseLoop,
     capacitor: holdUpCapacitor,
     inputAfterV: inputAfterField.optional(),
+    inputDecay: inputDecayField.optional(),
     gateLag: pfetGateLag.optional(),
     loadReverseLimitV: loadReverseLimitField,
     outputV: quantity("V", "output voltage before the event (default: the nominal supply)", {

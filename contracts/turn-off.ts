@@ -67,6 +67,20 @@ export const inputAfterField = quantity(
   { ge: -10_000, le: 10_000 },
 );
 
+/** An input that decays after the event instead of stepping: from startV at t = 0+ to inputAfterV as e^(−t/τ). */
+export const inputDecayField = z
+  .strictObject({
+    startV: quantity("V", "input voltage at t = 0+, from which it decays to inputAfterV (below outputV)", {
+      ge: -10_000,
+      le: 10_000,
+    }),
+    timeConstantS: quantity("s", "time constant τ of the exponential decay", { gt: 0, le: 1e3 }),
+  })
+  .meta({
+    description:
+      "the input after the event decays exponentially from startV to inputAfterV with time constant τ (a negative pulse's tail, a source's output capacitance discharging) instead of stepping to inputAfterV (default: a step)",
+  });
+
 /** A P-FET's gate tied to ground through a resistor: how fast its |Vgs| follows the falling output. */
 export const pfetGateLag = z
   .strictObject({
@@ -89,6 +103,7 @@ export const fallingInputFields = {
   stage: stageInput,
   outputV: quantity("V", "output voltage before the event (steady state)", { gt: 0, le: 10_000 }),
   inputAfterV: inputAfterField,
+  inputDecay: inputDecayField.optional(),
   gateLag: pfetGateLag.optional(),
   loop: reverseLoop,
   capacitor: holdUpCapacitor,
@@ -132,6 +147,12 @@ export const turnOffInput = z
         code: "custom",
         path: ["inputAfterV"],
         message: "must be below outputV: the input falls at t = 0",
+      });
+    if (v.inputDecay !== undefined && !(v.inputDecay.startV < v.outputV))
+      ctx.addIssue({
+        code: "custom",
+        path: ["inputDecay", "startV"],
+        message: "must be below outputV: the input falls at t = 0 (give the level it jumps to, then decays from)",
       });
   })
   .meta({ description: "reverse current when the input falls: peak current, charge lost, turn-off energy" });

@@ -331,8 +331,16 @@ function reviewTurnOffOf(
       ["requirement", "turnOff", "inputAfterV"],
       `must be below the output voltage before the event (${outputV} V)`,
     );
+  const decay = t.inputDecay;
+  if (decay !== undefined && !(decay.startV < outputV))
+    throw inputProblem(
+      "invalid-input",
+      ["requirement", "turnOff", "inputDecay", "startV"],
+      `must be below the output voltage before the event (${outputV} V): the input falls at t = 0`,
+    );
   return {
     inputAfterV,
+    ...(decay === undefined ? {} : { inputDecay: { startV: decay.startV, tauS: decay.timeConstantS } }),
     outputV,
     loopResistanceOhm: t.loop.resistanceOhm,
     loopInductanceH: t.loop.inductanceH,

@@ -33,6 +33,9 @@ export const holdUp = defineProcedure({
         modelInput = {
           kind: "falls",
           inputAfterV: inp.inputAfterV,
+          ...(inp.inputDecay === undefined
+            ? {}
+            : { inputDecay: { startV: inp.inputDecay.startV, tauS: inp.inputDecay.timeConstantS } }),
           loopResistanceOhm: inp.loop.resistanceOhm,
           loopInductanceH: inp.loop.inductanceH,
           ...(controller === undefined ? {} : { controller }),

@@ -46,6 +46,9 @@ export const turnOff = defineProcedure({
       stage: stage.model,
       outputV: input.outputV,
       inputAfterV: input.inputAfterV,
+      ...(input.inputDecay === undefined
+        ? {}
+        : { inputDecay: { startV: input.inputDecay.startV, tauS: input.inputDecay.timeConstantS } }),
       loopResistanceOhm: input.loop.resistanceOhm,
       loopInductanceH: input.loop.inductanceH,
       capacitanceF: input.capacitor.capacitanceF,

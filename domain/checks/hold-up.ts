@@ -22,6 +22,8 @@ export interface HoldUpModel {
     | {
         readonly kind: "falls";
         readonly inputAfterV: number;
+        /** An input decaying from startV to inputAfterV (TurnOffModel.inputDecay). */
+        readonly inputDecay?: { readonly startV: number; readonly tauS: number };
         readonly loopResistanceOhm: number;
         readonly loopInductanceH: number;
         readonly controller?: ControllerTurnOff;
@@ -76,6 +78,7 @@ export function holdUp(m: HoldUpModel): HoldUpOutcome {
     stage: m.stage,
     outputV: m.outputV,
     inputAfterV: inp.inputAfterV,
+    ...(inp.inputDecay === undefined ? {} : { inputDecay: inp.inputDecay }),
     loopResistanceOhm: inp.loopResistanceOhm,
     loopInductanceH: inp.loopInductanceH,
     capacitanceF: m.capacitanceF,
@@ -117,7 +120,10 @@ export function holdUp(m: HoldUpModel): HoldUpOutcome {
       };
     case "blocks": {
       const after = ev.clamp?.after ?? ev.end;
-      const reverseV = Math.max(after.capacitorV - inp.inputAfterV, 0);
+      // After the event the input goes on towards inputAfterV; a decaying one may pass through a
+      // lower level first (startV): the larger reverse voltage of the two holds the leakage.
+      const lowestInputV = Math.min(inp.inputAfterV, inp.inputDecay?.startV ?? inp.inputAfterV);
+      const reverseV = Math.max(after.capacitorV - lowestInputV, 0);
       const diode = blockingJunction(m.stage);
       const point = behaviourOf(m.stage).reverseLeakage(m.stage);
       const leakageA = diode === undefined ? 0 : Math.max(0, -reverseJunctionA(diode, -reverseV, tK, point));

@@ -4,6 +4,8 @@ import {
   loopSystem,
   outputV,
   type RlcLoop,
+  shiftLoop,
+  sourceAt,
   stateAt,
   type Vec2,
 } from "../physics/rlc-series.js";
@@ -33,7 +35,7 @@ export function clampPhase(m: TurnOffModel, loop: RlcLoop, xOff: Vec2, turnOffS:
   );
   if (!(xOff[0] < -1e-9 * currentScaleA)) return { kind: "none" };
   const clampV = m.clampV ?? stageBreakdownV(m.stage);
-  const driveV = outputV(loop, xOff) - m.inputAfterV;
+  const driveV = outputV(loop, xOff) - sourceAt(loop, turnOffS);
   if (!(clampV > driveV)) {
     return {
       kind: "below-drive",
@@ -46,7 +48,11 @@ export function clampPhase(m: TurnOffModel, loop: RlcLoop, xOff: Vec2, turnOffS:
       },
     };
   }
-  const clampLoop: RlcLoop = { ...loop, sourceV: m.inputAfterV + clampV, loopResistanceOhm: m.loopResistanceOhm };
+  // From the turn-off on: a decaying input's part decayed to turnOffS (shiftLoop).
+  const clampLoop: RlcLoop = shiftLoop(
+    { ...loop, sourceV: m.inputAfterV + clampV, loopResistanceOhm: m.loopResistanceOhm },
+    turnOffS,
+  );
   const sc = loopSystem(clampLoop);
   const cch = loopCharacter(sc);
   const ramp = (m.loopInductanceH * -xOff[0]) / (clampV - driveV);
@@ -81,7 +87,8 @@ export function outputMinOver(p: RlcLoop, x0: Vec2, tEnd: number): number {
   const s = loopSystem(p);
   const k = 1 / (1 + p.esrOhm * p.loadConductanceS);
   let low = outputV(p, x0);
-  for (const t of [...extremaTimes(s, x0, [k * p.esrOhm, k], tEnd, 8), tEnd])
+  // A decaying source can push later swings lower than the first few: all extrema then.
+  for (const t of [...extremaTimes(s, x0, [k * p.esrOhm, k], tEnd, s.forcing === undefined ? 8 : 4000), tEnd])
     low = Math.min(low, outputV(p, stateAt(s, x0, t)));
   return low;
 }

@@ -9,6 +9,11 @@ export interface TurnOffModel {
   readonly outputV: number;
   /** Input voltage from t = 0 on: 0 for a short, or the lower voltage it steps to, V. */
   readonly inputAfterV: number;
+  /**
+   * An input that decays after the event instead of stepping: it is startV at t = 0+ and falls
+   * (or rises) to inputAfterV as e^(−t/τ) (rlc-series.ts, exponential forcing). Absent: a step.
+   */
+  readonly inputDecay?: { readonly startV: number; readonly tauS: number };
   /** Source and wiring resistance of the loop, without the stage, ohm. */
   readonly loopResistanceOhm: number;
   readonly loopInductanceH: number;

@@ -6,6 +6,8 @@ import {
   loopSystem,
   outputV,
   type RlcLoop,
+  shiftSystem,
+  sourceAt,
   stateAt,
   stateIntegral,
   type Vec2,
@@ -32,7 +34,9 @@ export type {
  * loop until it turns off, then — for a blocking stage with reverse current — a clamp phase in
  * which the blocking element holds Vcl until the loop current returns to zero (the same closed
  * form with Vs + Vcl as source). A diode's junction drop is not in the loop (it shifts the
- * pre-event input only); the channel resistance is held at its pre-event value.
+ * pre-event input only); the channel resistance is held at its pre-event value. An input that
+ * decays after the event (m.inputDecay: from startV to inputAfterV as e^(−t/τ)) is the loop's
+ * exponential forcing in the same closed form; each later phase takes it decayed to its start.
  */
 export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   const tK = cToK(m.tjC);
@@ -51,10 +55,16 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   }
   const i0 = line.currentA + line.conductanceS * m.outputV;
   const vinBefore = m.outputV + i0 * m.loopResistanceOhm;
-  const path = reversePath(m.stage, tK, vinBefore, m.inputAfterV, m.outputV, m.controller);
+  // A stage whose gate the remaining input drives (a low-side N-FET) is judged at the highest level
+  // the input holds after the event: a decaying input's start or its final level. The gate's
+  // turn-on or turn-off part-way through the decay is not modelled; taking the higher level keeps
+  // the channel on for the whole event, the worse answer for blocking.
+  const gateInputV = Math.max(m.inputAfterV, m.inputDecay?.startV ?? m.inputAfterV);
+  const path = reversePath(m.stage, tK, vinBefore, gateInputV, m.outputV, m.controller);
   const stageOhm = path.kind === "diode" ? path.seriesOhm : path.channelOhm;
   const loop: RlcLoop = {
     sourceV: m.inputAfterV,
+    ...inputDecayOf(m),
     loopResistanceOhm: m.loopResistanceOhm + stageOhm,
     inductanceH: m.loopInductanceH,
     capacitanceF: m.capacitanceF,
@@ -98,7 +108,7 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
       loop: { ...ch, totalResistanceOhm: loop.loopResistanceOhm, stageResistanceOhm: stageOhm },
       loadMethod: line.method,
       initialCurrentA: i0,
-      initialSlopeAPerS: (m.inputAfterV - vinBefore - i0 * stageOhm) / m.loopInductanceH,
+      initialSlopeAPerS: (sourceAt(loop, 0) - vinBefore - i0 * stageOhm) / m.loopInductanceH,
       peakReverseCurrentA: peak.currentA,
       peakReverseTimeS: peak.timeS,
       ...(peak.lowerBound ? { peakReverseIsLowerBound: true as const } : {}),
@@ -165,6 +175,12 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   return { ...base, outputMinV: Math.min(base.outputMinV, after.outputMinV), clamp: after.clamp };
 }
 
+/** The loop source's decaying part for an input that decays after the event (none for a step). */
+export function inputDecayOf(m: TurnOffModel): Pick<RlcLoop, "sourceDecay"> {
+  const d = m.inputDecay;
+  return d === undefined ? {} : { sourceDecay: { extraV: d.startV - m.inputAfterV, tauS: d.tauS } };
+}
+
 /**
  * A P-FET with its gate at ground (pfet-gate-off.ts): the channel conducts backwards until its
  * lagged |Vgs| falls below threshold, then the body diode blocks and the loop current is clamped
@@ -224,7 +240,10 @@ function peakReverse(
   open: boolean,
 ): { currentA: number; timeS: number; lowerBound: boolean } {
   let best = { currentA: 0, timeS: 0 };
-  for (const t of [0, ...extremaTimes(s, x0, [1, 0], searchS, 2), tEnd, searchS]) {
+  // A constant input: the natural response decays, so its first two extrema hold the largest. A
+  // decaying input can push later swings further (a slow fall under a ringing loop): all of them.
+  const count = s.forcing === undefined ? 2 : 4000;
+  for (const t of [0, ...extremaTimes(s, x0, [1, 0], searchS, count), tEnd, searchS]) {
     const rev = -stateAt(s, x0, t)[0];
     if (rev > best.currentA) best = { currentA: rev, timeS: t };
   }
@@ -239,11 +258,14 @@ function peakReverse(
 function recoveryEnd(s: ReturnType<typeof loopSystem>, x0: Vec2, t0: number, qrrC: number, horizon: number): number {
   if (!(qrrC > 0)) return t0;
   const x1 = stateAt(s, x0, t0);
+  // From t0 on (a decaying input's forcing decayed to t0: shiftSystem).
+  const s1 = shiftSystem(s, t0);
   // The lobe ends where i returns to zero after its (first) extremum.
-  const tMin = extremaTimes(s, x1, [1, 0], horizon, 1)[0];
-  const back = tMin === undefined ? undefined : firstCrossing(s, stateAt(s, x1, tMin), [1, 0], 0, horizon);
+  const tMin = extremaTimes(s1, x1, [1, 0], horizon, 1)[0];
+  const back =
+    tMin === undefined ? undefined : firstCrossing(shiftSystem(s1, tMin), stateAt(s1, x1, tMin), [1, 0], 0, horizon);
   const lobeEnd = tMin === undefined || back === undefined ? horizon : tMin + back;
-  const drawn = (t: number): number => -stateIntegral(s, x1, t)[0] - qrrC;
+  const drawn = (t: number): number => -stateIntegral(s1, x1, t)[0] - qrrC;
   if (drawn(lobeEnd) < 0) return t0 + lobeEnd;
   let lo = 0;
   let hi = lobeEnd;

@@ -82,7 +82,9 @@ export function phaseEnergies(p: RlcLoop, x0: Vec2, t: number, clampV: number, e
   const s = loopSystem(p);
   const x = stateAt(s, x0, t);
   const q = stateIntegral(s, x0, t);
-  const segments = quadratureSegments(s, t);
+  const decay = p.sourceDecay;
+  // A decaying source's rate 1/τ joins the loop's in the panel density.
+  const segments = quadratureSegments(s, t, decay === undefined ? 0 : 1 / decay.tauS);
   const rLoop = p.loopResistanceOhm;
   const dissip = (f: (xs: Vec2) => number): number => {
     let sum = 0;
@@ -98,8 +100,17 @@ export function phaseEnergies(p: RlcLoop, x0: Vec2, t: number, clampV: number, e
   const loadJ = dissip((xs) => outputV(p, xs) * loadA(xs));
   const capacitorLostJ = 0.5 * p.capacitanceF * (x0[1] * x0[1] - x[1] * x[1]);
   const inductorLostJ = 0.5 * p.inductanceH * (x0[0] * x0[0] - x[0] * x[0]);
-  // The clamp is part of sourceV in the loop equations; split it out of the source term.
-  const sourceDeliveredJ = (p.sourceV - clampV) * q[0];
+  // The clamp is part of sourceV in the loop equations; split it out of the source term. A
+  // decaying source adds ΔV·∫e^(−t/τ)·i dt (Gauss-Legendre on the closed form).
+  const decayingJ =
+    decay === undefined
+      ? 0
+      : segments.reduce(
+          (sum, [a, b, n]) =>
+            sum + gaussLegendre((tt) => decay.extraV * Math.exp(-tt / decay.tauS) * stateAt(s, x0, tt)[0], a, b, n),
+          0,
+        );
+  const sourceDeliveredJ = (p.sourceV - clampV) * q[0] + decayingJ;
   const clampJ = -clampV * q[0];
   const lost = capacitorLostJ + inductorLostJ + sourceDeliveredJ;
   const used = loopResistanceJ + esrJ + loadJ + clampJ;
@@ -133,8 +144,8 @@ export function phaseEnergies(p: RlcLoop, x0: Vec2, t: number, clampV: number, e
  * window) breaks the cap: there the fast mode is resolved on ranges doubling from 1/|λfast| to
  * 64/|λfast| (e^-64: gone), and the rest at the slow mode's density.
  */
-function quadratureSegments(s: Linear2, t: number): readonly (readonly [number, number, number])[] {
-  const rate = Math.abs(s.a11) + Math.abs(s.a22) + Math.sqrt(Math.abs(det2(s)));
+function quadratureSegments(s: Linear2, t: number, extraRate = 0): readonly (readonly [number, number, number])[] {
+  const rate = Math.abs(s.a11) + Math.abs(s.a22) + Math.sqrt(Math.abs(det2(s))) + extraRate;
   const panels = (len: number, density: number) => Math.min(50_000, Math.ceil(200 + 4 * len * density));
   const m = (s.a11 + s.a22) / 2;
   const q = m * m - det2(s);

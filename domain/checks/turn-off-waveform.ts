@@ -2,12 +2,13 @@ import {
   extremaTimes,
   type Linear2,
   loopSystem,
+  shiftLoop,
   outputV,
   type RlcLoop,
   stateAt,
   type Vec2,
 } from "../physics/rlc-series.js";
-import type { TurnOffModel, TurnOffOutcome } from "./turn-off-event.js";
+import { inputDecayOf, type TurnOffModel, type TurnOffOutcome } from "./turn-off-event.js";
 import { loadLine } from "./turn-off-loop.js";
 
 /** Time samples of the turn-off event, column by column (same length each). */
@@ -48,6 +49,7 @@ export function turnOffWaveform(
   const line = loadLine(m.load, m.outputV);
   const loop: RlcLoop = {
     sourceV: m.inputAfterV,
+    ...inputDecayOf(m),
     loopResistanceOhm: r.loop.totalResistanceOhm,
     inductanceH: m.loopInductanceH,
     capacitanceF: m.capacitanceF,
@@ -76,7 +78,10 @@ export function turnOffWaveform(
   push(loop, s, x0, 0, phaseTimes(s, x0, endS, n, extra));
   const clamp = r.outcome === "blocks" ? r.clamp : undefined;
   if (clamp === undefined || r.outcome !== "blocks") return { ...cols, pointsPerPhase: n };
-  const clampLoop: RlcLoop = { ...loop, sourceV: m.inputAfterV + clamp.clampV, loopResistanceOhm: m.loopResistanceOhm };
+  const clampLoop: RlcLoop = shiftLoop(
+    { ...loop, sourceV: m.inputAfterV + clamp.clampV, loopResistanceOhm: m.loopResistanceOhm },
+    r.turnOffS,
+  );
   const sc = loopSystem(clampLoop);
   const xOff = stateAt(s, x0, r.turnOffS);
   // The turn-off instant closes the conduction phase and opens the clamp phase (the state is continuous).

@@ -13,6 +13,18 @@
  *   e^(At) = e^(m·t)·[c(t)·I + s(t)·(A − m·I)],  m = tr(A)/2,  q = m² − det(A),
  * with c = cos(ωt), s = sin(ωt)/ω, ω = √−q (under-damped); c = cosh(βt), s = sinh(βt)/β, β = √q
  * (over-damped); c = 1, s = t (critically damped). The three regimes are one formula.
+ *
+ * A source that decays exponentially, Vs(t) = Vs + ΔV·e^(μt) (μ = −1/τ; an input falling from
+ * Vs + ΔV at t = 0+ to Vs), adds a forcing e·e^(μt), e = (ΔV/L, 0), to x' = A·x + b. An exponential
+ * forcing has an exponential particular solution (method of undetermined coefficients, textbook
+ * linear ODEs): xe·e^(μt) with μ·xe = A·xe + e, so xe = (μI − A)⁻¹·e, and the exact solution is
+ *   x(t) = xp + xe·e^(μt) + e^(At)·(x0 − xp − xe),
+ * the same closed form with one more exponential term (first order, ESR = 0, no L: the textbook
+ * RC charged from V∞ + ΔV·e^(−t/τ)). Where μ is within 1e-10 (relative) of a natural mode
+ * (det(A − μI) → 0, resonance: the exact answer there has a t·e^(μt) term) μ is moved by 1e-6 of
+ * itself, which changes the forcing by less than that and keeps the cancellation's rounding
+ * below 1e-9. The forcing lives in the system (Linear2.forcing); a phase that starts at time t0
+ * of the event takes the forcing decayed by e^(μ·t0) (shiftLoop).
  */
 export interface Linear2 {
   readonly a11: number;
@@ -21,6 +33,8 @@ export interface Linear2 {
   readonly a22: number;
   readonly b1: number;
   readonly b2: number;
+  /** An exponential forcing (e1·e^(μt), 0) on the current equation; absent: none. */
+  readonly forcing?: { readonly e1: number; readonly mu: number };
 }
 export type Vec2 = readonly [number, number];
 
@@ -33,6 +47,25 @@ export interface RlcLoop {
   /** Load current at zero output voltage, A, and its slope dI/dV, S: i_load = I + G·v_out. */
   readonly loadCurrentA: number;
   readonly loadConductanceS: number;
+  /** The source's decaying part: Vs(t) = sourceV + extraV·e^(−t/τ) (absent: a constant source). */
+  readonly sourceDecay?: { readonly extraV: number; readonly tauS: number };
+}
+
+/** The loop from time t0 of it on: its source's decaying part decayed by e^(−t0/τ). */
+export function shiftLoop(p: RlcLoop, t0: number): RlcLoop {
+  if (p.sourceDecay === undefined) return p;
+  return { ...p, sourceDecay: { ...p.sourceDecay, extraV: p.sourceDecay.extraV * Math.exp(-t0 / p.sourceDecay.tauS) } };
+}
+
+/** The system from time t0 on (its forcing decayed by e^(μ·t0)). */
+export function shiftSystem(s: Linear2, t0: number): Linear2 {
+  if (s.forcing === undefined) return s;
+  return { ...s, forcing: { ...s.forcing, e1: s.forcing.e1 * Math.exp(s.forcing.mu * t0) } };
+}
+
+/** The source voltage at time t of the loop, V. */
+export function sourceAt(p: RlcLoop, t: number): number {
+  return p.sourceV + (p.sourceDecay === undefined ? 0 : p.sourceDecay.extraV * Math.exp(-t / p.sourceDecay.tauS));
 }
 
 /** The loop as x' = A·x + b; k = 1/(1 + ESR·G) must be positive (checked by the caller). */
@@ -40,7 +73,7 @@ export function loopSystem(p: RlcLoop): Linear2 {
   const k = 1 / (1 + p.esrOhm * p.loadConductanceS);
   const l = p.inductanceH;
   const c = p.capacitanceF;
-  return {
+  const base = {
     a11: -(p.loopResistanceOhm + k * p.esrOhm) / l,
     a12: -k / l,
     b1: (p.sourceV + k * p.esrOhm * p.loadCurrentA) / l,
@@ -48,6 +81,25 @@ export function loopSystem(p: RlcLoop): Linear2 {
     a22: (-p.loadConductanceS * k) / c,
     b2: (-k * p.loadCurrentA) / c,
   };
+  const d = p.sourceDecay;
+  if (d === undefined || d.extraV === 0 || !(d.tauS > 0)) return base;
+  let mu = -1 / d.tauS;
+  const scale = Math.max(mu * mu, Math.abs(det2(base)), ((base.a11 + base.a22) / 2) ** 2, 1e-300);
+  if (Math.abs(det2(shifted(base, mu))) <= 1e-10 * scale) mu *= 1 + 1e-6;
+  return { ...base, forcing: { e1: d.extraV / l, mu } };
+}
+
+/** A − μI (the forcing dropped). */
+function shifted(s: Linear2, mu: number): Linear2 {
+  return { a11: s.a11 - mu, a12: s.a12, a21: s.a21, a22: s.a22 - mu, b1: s.b1, b2: s.b2 };
+}
+
+/** The forcing's particular amplitude xe = (μI − A)⁻¹·e, and μ ([0, 0] and 0 without forcing). */
+function forcedPart(s: Linear2): { xe: Vec2; mu: number } {
+  if (s.forcing === undefined) return { xe: [0, 0], mu: 0 };
+  const { e1, mu } = s.forcing;
+  const r = inverseApply(shifted(s, mu), [e1, 0]);
+  return { xe: [-r[0], -r[1]], mu };
 }
 
 /** Output voltage and load current from the state. */
@@ -106,34 +158,95 @@ export function particular(s: Linear2): Vec2 {
 /** Exact state x(t). */
 export function stateAt(s: Linear2, x0: Vec2, t: number): Vec2 {
   const xp = particular(s);
-  const y = expApply(s, t, [x0[0] - xp[0], x0[1] - xp[1]]);
-  return [xp[0] + y[0], xp[1] + y[1]];
+  const { xe, mu } = forcedPart(s);
+  const f = Math.exp(mu * t);
+  const y = expApply(s, t, [x0[0] - xp[0] - xe[0], x0[1] - xp[1] - xe[1]]);
+  return [xp[0] + xe[0] * f + y[0], xp[1] + xe[1] * f + y[1]];
 }
 
-/** Exact derivative x'(t) = e^(At)·(A·x0 + b). */
+/** The natural part's rate v = A·(x0 − xp − xe) = A·x0 + b + e − μ·xe: x'(t) = e^(At)·v + μ·xe·e^(μt). */
+function naturalRate(s: Linear2, x0: Vec2): Vec2 {
+  const { xe, mu } = forcedPart(s);
+  const e1 = s.forcing?.e1 ?? 0;
+  return [s.a11 * x0[0] + s.a12 * x0[1] + s.b1 + e1 - mu * xe[0], s.a21 * x0[0] + s.a22 * x0[1] + s.b2 - mu * xe[1]];
+}
+
+/** Exact derivative x'(t) = e^(At)·v + μ·xe·e^(μt) (without forcing: e^(At)·(A·x0 + b)). */
 export function rateAt(s: Linear2, x0: Vec2, t: number): Vec2 {
-  return expApply(s, t, [s.a11 * x0[0] + s.a12 * x0[1] + s.b1, s.a21 * x0[0] + s.a22 * x0[1] + s.b2]);
+  const { xe, mu } = forcedPart(s);
+  const f = mu * Math.exp(mu * t);
+  const y = expApply(s, t, naturalRate(s, x0));
+  return [y[0] + xe[0] * f, y[1] + xe[1] * f];
 }
 
-/** Exact ∫₀ᵗ x dt = xp·t + A⁻¹·(e^(At) − I)·(x0 − xp). */
+/** Exact ∫₀ᵗ x dt = xp·t + xe·(e^(μt) − 1)/μ + A⁻¹·(e^(At) − I)·(x0 − xp − xe). */
 export function stateIntegral(s: Linear2, x0: Vec2, t: number): Vec2 {
   const xp = particular(s);
-  const y0: Vec2 = [x0[0] - xp[0], x0[1] - xp[1]];
+  const { xe, mu } = forcedPart(s);
+  const g = mu === 0 ? 0 : Math.expm1(mu * t) / mu;
+  const y0: Vec2 = [x0[0] - xp[0] - xe[0], x0[1] - xp[1] - xe[1]];
   const y = expApply(s, t, y0);
   const r = inverseApply(s, [y[0] - y0[0], y[1] - y0[1]]);
-  return [xp[0] * t + r[0], xp[1] * t + r[1]];
+  return [xp[0] * t + xe[0] * g + r[0], xp[1] * t + xe[1] * g + r[1]];
 }
 
 /**
  * Times in (0, tMax] where w·x'(t) = 0, i.e. the extrema of the output w·x, ascending, at most
- * maxCount. w·x'(t) = e^(mt)·(d·c(t) + g·s(t)) with d = w·x'(0), g = w·(A − mI)·x'(0): zeros at
- * (kπ − ψ)/ω, ψ = atan2(d, g/ω) when under-damped; at most one, atanh(β·τ)/β with τ = −d/g,
- * otherwise.
+ * maxCount. Without forcing w·x'(t) = w·e^(At)·x'(0) (zerosOf). With it, w·x'(t) =
+ * w·e^(At)·v + κ·e^(μt) = e^(μt)·h(t), h(t) = w·e^((A−μI)t)·v + κ, κ = μ·w·xe. h's own extrema
+ * are the zeros of h'(t) = e^(−μt)·w·e^(At)·(A−μI)·v, closed form (zerosOf), so h — and with it
+ * w·x', of the same sign — is monotone between them and each such segment holds at most one zero,
+ * closed by bisection on w·x' itself (no e^(−μt) to overflow for a fast decay).
  */
 export function extremaTimes(s: Linear2, x0: Vec2, w: Vec2, tMax: number, maxCount: number): number[] {
+  if (s.forcing === undefined) return zerosOf(s, rateAt(s, x0, 0), w, tMax, maxCount);
+  const { mu } = forcedPart(s);
+  const sh = shifted(s, mu);
+  const v = naturalRate(s, x0);
+  const f = (t: number): number => {
+    const r = rateAt(s, x0, t);
+    return w[0] * r[0] + w[1] * r[1];
+  };
+  const sv: Vec2 = [sh.a11 * v[0] + sh.a12 * v[1], sh.a21 * v[0] + sh.a22 * v[1]];
+  const out: number[] = [];
+  let a = 0;
+  let fa = f(0);
+  for (const b of [...zerosOf(s, sv, w, tMax, 4000), tMax]) {
+    const fb = f(b);
+    if (fa * fb < 0 && b > a) out.push(bisect(f, a, b, fa));
+    else if (fb === 0 && b < tMax) out.push(b);
+    if (out.length >= maxCount) break;
+    a = b;
+    fa = fb;
+  }
+  return out;
+}
+
+function bisect(f: (t: number) => number, a: number, b: number, fa: number): number {
+  let lo = a;
+  let hi = b;
+  let flo = fa;
+  for (let i = 0; i < 200 && hi - lo > 1e-15 * Math.max(hi, 1e-300); i += 1) {
+    const mid = 0.5 * (lo + hi);
+    const fm = f(mid);
+    if (fm === 0) return mid;
+    if (fm * flo < 0) hi = mid;
+    else {
+      lo = mid;
+      flo = fm;
+    }
+  }
+  return 0.5 * (lo + hi);
+}
+
+/**
+ * Times in (0, tMax] where w·e^(At)·r0 = 0, ascending, at most maxCount. It is e^(mt)·(d·c(t) +
+ * g·s(t)) with d = w·r0, g = w·(A − mI)·r0: zeros at (kπ − ψ)/ω, ψ = atan2(d, g/ω) when
+ * under-damped; at most one, atanh(β·τ)/β with τ = −d/g, otherwise.
+ */
+function zerosOf(s: Linear2, r0: Vec2, w: Vec2, tMax: number, maxCount: number): number[] {
   const m = (s.a11 + s.a22) / 2;
   const q = m * m - det2(s);
-  const r0 = rateAt(s, x0, 0);
   const d = w[0] * r0[0] + w[1] * r0[1];
   const g = w[0] * ((s.a11 - m) * r0[0] + s.a12 * r0[1]) + w[1] * (s.a21 * r0[0] + (s.a22 - m) * r0[1]);
   const scale = Math.max(m * m, Math.abs(det2(s)), 1e-300);
@@ -177,22 +290,7 @@ export function firstCrossing(s: Linear2, x0: Vec2, w: Vec2, level: number, tMax
   for (const b of ends) {
     const fb = y(b);
     if (fb === 0) return b;
-    if (fa * fb < 0) {
-      let lo = a;
-      let hi = b;
-      let flo = fa;
-      for (let i = 0; i < 200 && hi - lo > 1e-15 * Math.max(hi, 1e-300); i += 1) {
-        const mid = 0.5 * (lo + hi);
-        const fm = y(mid);
-        if (fm === 0) return mid;
-        if (fm * flo < 0) hi = mid;
-        else {
-          lo = mid;
-          flo = fm;
-        }
-      }
-      return 0.5 * (lo + hi);
-    }
+    if (fa * fb < 0) return bisect(y, a, b, fa);
     a = b;
     fa = fb;
   }

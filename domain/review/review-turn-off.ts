@@ -10,6 +10,8 @@ import type { StageModel } from "../stages/stage-model.js";
 /** The turn-off event of the review: the turnOff analysis's loop, with the output and Tj defaulted per candidate. */
 export interface ReviewTurnOff {
   readonly inputAfterV: number;
+  /** An input decaying from startV to inputAfterV (TurnOffModel.inputDecay). */
+  readonly inputDecay?: { readonly startV: number; readonly tauS: number };
   readonly outputV: number;
   readonly loopResistanceOhm: number;
   readonly loopInductanceH: number;
@@ -71,6 +73,7 @@ export function reviewTurnOff(
     stage: cand.stage,
     outputV: t.outputV,
     inputAfterV: t.inputAfterV,
+    ...(t.inputDecay === undefined ? {} : { inputDecay: t.inputDecay }),
     loopResistanceOhm: t.loopResistanceOhm,
     loopInductanceH: t.loopInductanceH,
     capacitanceF: t.capacitanceF,

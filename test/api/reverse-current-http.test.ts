@@ -94,6 +94,27 @@ describe("reverse-current procedures over HTTP (tRPC)", () => {
     ["zero sources", "oring", { ...example("oring"), sources: [] }, ["sources"]],
     ["an input that does not fall", "turnOff", { ...example("turnOff"), inputAfterV: "14 V" }, ["inputAfterV"]],
     [
+      "a decaying input that starts above the output",
+      "turnOff",
+      { ...example("turnOff"), inputDecay: { startV: "13 V", timeConstantS: "20 us" } },
+      ["inputDecay", "startV"],
+    ],
+    [
+      "a decay without its time constant",
+      "turnOff",
+      { ...example("turnOff"), inputDecay: { startV: "3 V" } },
+      ["inputDecay", "timeConstantS"],
+    ],
+    [
+      "a hold-up input decaying from above the output",
+      "holdUp",
+      {
+        ...example("holdUp"),
+        input: { ...(example("holdUp")["input"] as object), inputDecay: { startV: "12 V", timeConstantS: "1 ms" } },
+      },
+      ["input", "inputDecay", "startV"],
+    ],
+    [
       "a controller stage without turn-off timing",
       "turnOff",
       { ...example("turnOff"), stage: { kind: "catalog-part", partId: "demo-integrated-ideal-diode-5a-36v" } },
