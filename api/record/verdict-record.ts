@@ -1,4 +1,4 @@
-import { createHash } from "node:crypto";
+import { hash } from "node:crypto";
 import { RECORD_FORMAT, type VerdictRecord } from "../../contracts/record.js";
 import type { RuleSetStamp } from "../../domain/rules/rule-model.js";
 import { canonicalJson } from "../../domain/rules/rule-set-hash.js";
@@ -6,9 +6,14 @@ import type { CatalogPart, Context } from "../context.js";
 import { buildVersion } from "./build-version.js";
 import type { FitNote } from "./fit-notes.js";
 
-/** SHA-256 of a value's canonical JSON (domain/rules/rule-set-hash.ts), `sha256:` prefixed. */
+/**
+ * SHA-256 of a value's canonical JSON (domain/rules/rule-set-hash.ts), `sha256:` prefixed. node's
+ * one-shot `hash` (no Hash object a digest; Node >= 20.12, "release candidate" in the Node 20 and
+ * 22 docs, meant for data up to 5 MB that is at hand, as a record's texts are): about 0.35 µs less
+ * than createHash on each of a record's texts of 0.2-1 kB (bench/record-cost.ts, Node 20.20).
+ */
 export function sha256Of(value: unknown): string {
-  return `sha256:${createHash("sha256").update(canonicalJson(value)).digest("hex")}`;
+  return `sha256:${hash("sha256", canonicalJson(value), "hex")}`;
 }
 
 /** The text a record's signature is over: the canonical JSON of the record without `signature`. */
