@@ -100,11 +100,11 @@ function fileReferenceRefused(point: PointSchema) {
 /** A curve's points: inline, or (batch and catalog files only) a CSV file reference. */
 export function curvePoints<T extends PointSchema>(
   point: T,
-  o: { readonly min: number; readonly max?: number; readonly description: string },
+  o: { readonly min: number; readonly max: number; readonly description: string },
 ) {
-  const list = z.array(point).min(o.min);
+  // every list a caller can make long has a bound (DEVELOPERS.md, "Bounds")
   return z.union([
-    (o.max === undefined ? list : list.max(o.max)).meta({ description: o.description }),
+    z.array(point).min(o.min).max(o.max).meta({ description: o.description }),
     fileReferenceRefused(point),
   ]);
 }

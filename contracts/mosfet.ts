@@ -15,6 +15,7 @@ export const rdsTempLaw = z
       law: z.literal("points"),
       points: curvePoints(rdsFactorPoint, {
         min: 2,
+        max: 64,
         description: "normalised on-resistance against junction temperature, increasing Tj",
       }),
     }),
@@ -42,6 +43,7 @@ export const mosfet = z
   .strictObject({
     rdsOn: curvePoints(rdsOnVgsPoint, {
       min: 1,
+      max: 64,
       description: "datasheet Rds(on) at 25 °C against gate drive, one point or more",
     }),
     rdsOnTemp: rdsTempLaw.optional(),

@@ -78,7 +78,7 @@ export const inputDecayField = z
   })
   .meta({
     description:
-      "the input after the event decays exponentially from startV to inputAfterV with time constant τ (a negative pulse's tail, a source's output capacitance discharging) instead of stepping to inputAfterV (default: a step)",
+      "the input after the event decays exponentially from startV to inputAfterV with time constant τ (a negative pulse's tail, a source's output capacitance discharging) instead of stepping to inputAfterV (absent: the input steps to inputAfterV)",
   });
 
 /** A P-FET's gate tied to ground through a resistor: how fast its |Vgs| follows the falling output. */
