@@ -132,10 +132,7 @@ export async function answerChunk(
   const text = Buffer.from(c.bytes.buffer, c.bytes.byteOffset, c.bytes.byteLength).toString("utf8");
   const raws = linesOf(text);
   const answered = c.answered === undefined ? undefined : new Map(c.answered.map((r) => [r.line, r]));
-  // An operating point's answer is about 5.1 output bytes per input byte (the bench's lines: 225
-  // in, 1,150 out), so at 5 every such chunk grew once (a copy of the whole chunk's output); the
-  // pages never written are never resident. The sink grows if need be (a review's answer is larger).
-  const out = new Utf8Sink(text.length * 6);
+  const out = new Utf8Sink(text.length); // grows as the answers need
   const reportRows: ReportRow[] = [];
   let ok = 0;
   let lines = 0;
