@@ -32,24 +32,6 @@ function normaliseUnitText(text: string): string {
 
 type Converted = { ok: true; value: number } | { ok: false; message: string };
 
-/**
- * Parsed strings, per field unit: a request repeats the same few spellings ("12 V", "85 degC"), and
- * mathjs's unit parser costs ~10 µs a call, more than the operating point itself. A pure function of
- * (text, unit), so a cache; bounded: cleared when it holds CACHE_LIMIT entries.
- */
-const converted = new Map<string, Converted>();
-const CACHE_LIMIT = 10_000;
-
-function toFieldUnit(raw: string, fieldUnit: string): Converted {
-  const key = `${fieldUnit}\u0000${raw}`;
-  const hit = converted.get(key);
-  if (hit !== undefined) return hit;
-  const out = convert(raw, fieldUnit);
-  if (converted.size >= CACHE_LIMIT) converted.clear();
-  converted.set(key, out);
-  return out;
-}
-
 /** "20mR", "4k7R": the trade's R for ohms, which mathjs does not read (nor does backstop: R is ambiguous). */
 const R_FOR_OHM = /^\s*([+-]?[\d.]+(?:e[+-]?\d+)?)\s*([pnumkMG]?)R\s*$/i;
 /** A temperature written with C (coulomb) or F (farad) where degC or degF was meant. */
@@ -116,7 +98,7 @@ export function quantity(unitName: string, description: string, bounds: Bounds =
       let value: number;
       if (typeof raw === "number") value = raw;
       else {
-        const r = toFieldUnit(raw, unitName);
+        const r = convert(raw, unitName);
         if (!r.ok) {
           ctx.addIssue({ code: "custom", message: r.message, input: raw });
           return z.NEVER;

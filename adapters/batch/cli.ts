@@ -17,7 +17,7 @@ import type { BatchCounts } from "./line.js";
 import { REPORT_RENDERERS } from "../report/report-body.js";
 import { reportFailed, reportNamer, writeBridgeAcReport, writeReviewReport } from "../report/write-report.js";
 import type { Shard } from "./answer.js";
-import { CHUNKS_PER_THREAD, type RowHook, streamBatch } from "./engine.js";
+import { type RowHook, streamBatch } from "./engine.js";
 import { HOLDING, type VerifyCounts, verifyFile } from "./verify-file.js";
 
 const USAGE = `usage:
@@ -99,10 +99,10 @@ async function batch(rest: string[]): Promise<number> {
   const inFormat = formatOf(values.in, values["in-format"]);
   const outFormat = formatOf(outPath, values["out-format"]);
   // default: cores − 1 threads, at least one; the main thread reads, writes and, for JSON Lines input,
-  // answers a chunk itself whenever every thread has two (so on two cores both compute: 1,000,000
-  // operating points at 0.33-0.54 of the bench's pass-through (rows `batch`, Node 20), as the host's
-  // state moves it, against 0.25 in process; peak RSS 256-280 MB against 180 MB, the thread holding
-  // its own router and heap)
+  // answers a chunk itself whenever every thread has one (so on two cores both compute). Row
+  // `batch-node22` (Node 22, 250,000 operating points, verdict records on): 0.09 (0.06-0.23) of the
+  // bench's pass-through at a host load of 5-11, peak RSS 312 MB (280-326), the thread holding its
+  // own router and heap
   const cores = availableParallelism();
   const workers = values.workers === undefined ? Math.max(1, Math.min(8, cores - 1)) : Number(values.workers);
   if (!Number.isInteger(workers) || workers < 0)
@@ -118,9 +118,7 @@ async function batch(rest: string[]): Promise<number> {
     process.stderr.write(
       `backstop batch: rule set file ${r.file} refused: ${r.problems.map((p) => p.message).join("; ")}\n`,
     );
-  // reads of 1 MiB (four chunks): a read then rarely keeps a chunk waiting (at 256 KiB, one read per
-  // chunk, the main thread waited 0.4-0.7 s for input in a 3.5 s run of 300,000 lines; at 1 MiB 0.06 s)
-  const input = createReadStream(values.in, { highWaterMark: 1024 * 1024 });
+  const input = createReadStream(values.in);
   const curveFolder = dirname(resolve(values.in));
   await new Promise<void>((resolve, reject) => {
     input.once("open", () => resolve());
@@ -133,7 +131,6 @@ async function batch(rest: string[]): Promise<number> {
           catalog: catalogData(catalog),
           rulesDir,
           recordKeyPem,
-          tasksPerThread: CHUNKS_PER_THREAD,
         })
       : undefined;
   const p = progress(Number(process.env.BACKSTOP_PROGRESS_MS ?? 5000));

@@ -53,12 +53,9 @@ export interface StreamBatchOptions {
 /** Records this thread answers between two turns of the event loop when it shares the work with a pool. */
 const YIELD_EVERY_LINES = 64;
 
-/** Chunks given to each pool thread at once (posted to it together), so it never waits for this thread to hand it the next. */
-export const CHUNKS_PER_THREAD = 2;
-
 /**
- * Chunks read and not yet written, beyond those the pool holds: this thread's own and those
- * waiting to be taken or written. Eight chunks of 256 kB are about 2 MB of input and 10 MB of output.
+ * Chunks read and not yet written, beyond those the pool holds (one a thread): this thread's own
+ * and those waiting to be taken or written.
  */
 const CHUNKS_AHEAD = 6;
 
@@ -70,12 +67,12 @@ interface Slot {
 /**
  * The batch engine: records in (reader.ts: JSON Lines or CSV, in chunks of whole records), one
  * output record per input record out, in input order. Chunks are handed out as they are taken,
- * not when they are read: each pool thread holds up to CHUNKS_PER_THREAD, and this thread
+ * not when they are read: each pool thread holds one, and this thread
  * answers the oldest chunk nobody holds whenever it is free (without a pool, every chunk), with
  * the same function as the threads (answerChunk). So both threads of a two-core machine compute
  * from start to end: this one while the pool's threads start, and whichever is free at the end.
  * Reading, handing out and writing run between this thread's records (it lets the event loop run
- * every YIELD_EVERY_LINES records). At most `CHUNKS_PER_THREAD × threads + CHUNKS_AHEAD` chunks
+ * every YIELD_EVERY_LINES records). At most `threads + CHUNKS_AHEAD` chunks
  * are read and not yet written.
  */
 export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
@@ -89,7 +86,7 @@ export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
     reportFlags: o.reports?.flags,
   };
   const pool = o.pool;
-  const poolRoom = CHUNKS_PER_THREAD * (pool?.threads ?? 0);
+  const poolRoom = pool?.threads ?? 0;
   const window = poolRoom + CHUNKS_AHEAD;
   let invoker: ReturnType<typeof procedureInvoker> | undefined;
 

@@ -40,9 +40,6 @@ export interface CatalogData {
 
 export const catalogData = (c: PartsCatalog): CatalogData => ({ id: c.stamp.id, parts: c.list() });
 
-/** Young-generation size of a compute thread, MB (see createComputePool). */
-export const COMPUTE_THREAD_YOUNG_GENERATION_MB = 32;
-
 /** A pool that can also be retired: closed once the tasks given to it so far have settled. */
 export interface RetirablePool extends ComputePool {
   closeWhenIdle(): Promise<void>;
@@ -55,25 +52,16 @@ export function createComputePool(opts: {
   rulesDir?: string | undefined;
   /** the verdict records' signing key (PEM), so a thread signs as the main thread does */
   recordKeyPem?: string | undefined;
-  tasksPerThread?: number;
 }): RetirablePool | undefined {
   const filename = workerFile();
   if (filename === undefined || opts.threads < 1) return undefined;
   // piscina loaded with the first pool (the HTTP server starts its pool after it listens)
   const { Piscina } = createRequire(import.meta.url)("piscina") as typeof import("piscina");
-  // A young generation of 32 MB a thread (V8's default here is 48). A batch of 1,000,000 lines with
-  // one thread (Node 20, rows `batch`): 24 MB peaked at 243-251 MB but ran 5-8 % slower than 48 MB
-  // (270-283 MB); 32 MB ran as fast as 48 within the noise at 270-272 MB. A --max-semi-space-size in
-  // NODE_OPTIONS (the image's, Dockerfile) takes precedence over this in every isolate.
   const pool = new Piscina({
     filename,
     minThreads: opts.threads,
     maxThreads: opts.threads,
     idleTimeout: 60_000,
-    // tasks posted to a thread at once: a batch gives each thread its next chunk while it answers
-    // one (the next is then waiting in the thread, not in this thread's queue until it turns)
-    concurrentTasksPerWorker: opts.tasksPerThread ?? 1,
-    resourceLimits: { maxYoungGenerationSizeMb: COMPUTE_THREAD_YOUNG_GENERATION_MB },
     workerData: { catalog: opts.catalog, rulesDir: opts.rulesDir, recordKeyPem: opts.recordKeyPem },
   });
   let up: Promise<void> | undefined;

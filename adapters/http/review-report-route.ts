@@ -45,35 +45,6 @@ export function mountReviewReport(app: Hono<Env>, deps: ReviewReportDeps): void 
   mountProcedureReport(app, deps, "review");
 }
 
-type ReportHandler = (c: import("hono").Context<Env>) => Promise<Response>;
-
-/**
- * The report handlers of each app, by procedure, behind one `POST /v1/:procedure/report` route:
- * a static path per procedure beside `/v1/:procedure/bulk` would make Hono fall back from its
- * regular-expression router to its slower trie router for every request.
- */
-const reportHandlers = new WeakMap<Hono<Env>, Map<string, ReportHandler>>();
-
-function reportRoute(app: Hono<Env>): Map<string, ReportHandler> {
-  let handlers = reportHandlers.get(app);
-  if (handlers === undefined) {
-    const known = new Map<string, ReportHandler>();
-    handlers = known;
-    reportHandlers.set(app, known);
-    app.post("/v1/:procedure/report", (c) => {
-      const procedure = c.req.param("procedure") ?? "";
-      const h = known.get(procedure);
-      if (h !== undefined) return h(c);
-      return sendProblem(c, 404, {
-        code: "not-found",
-        message: `no report for "${procedure}"; reports exist for ${[...known.keys()].join(", ")}`,
-        issues: [{ path: ["procedure"], message: "no report for this procedure" }],
-      });
-    });
-  }
-  return handlers;
-}
-
 /**
  * `POST /v1/<procedure>/report` for any procedure with a renderer (REPORT_RENDERERS). The call and
  * the drawing run together in a compute thread under the request's compute budget (in process
@@ -84,7 +55,7 @@ export function mountProcedureReport(app: Hono<Env>, deps: ReviewReportDeps, pro
   const invoke = procedureInvoker(deps.ctx)(procedure);
   if (invoke === undefined || renderer === undefined)
     throw new Error(`the router has no ${procedure} procedure with a report`);
-  reportRoute(app).set(procedure, async (c) => {
+  app.post(`/v1/${procedure}/report`, async (c) => {
     let body: unknown;
     try {
       body = JSON.parse(await c.req.text());

@@ -15,6 +15,8 @@ export interface NameRef {
 /**
  * Reusable buffers for evaluation: a name's presence (1) and value (booleans as 0/1). Evaluation is synchronous and never re-enters itself (the compiled conditions call
  * nothing of ours), so a buffer is never in use twice at once; it holds no result after a call.
+ * Row `rules-node22` (Node 22, 5 alternating runs): with buffers allocated on every call, 0.48
+ * (0.35-0.75) of the rate, 196,106 against 412,301 records/s (target 200,000).
  */
 export interface ResolvedScratch {
   readonly ok: Uint8Array;
