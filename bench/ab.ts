@@ -14,11 +14,11 @@
  * entry in bench/results.json is replaced (the others are kept).
  */
 import { existsSync, readFileSync, writeFileSync } from "node:fs";
-import { availableParallelism, cpus, loadavg } from "node:os";
+import { loadavg } from "node:os";
 import { isAbsolute, join } from "node:path";
 import { opJson } from "./lib/payloads.js";
 import { dist, drive, type Load, log, root, type Server, startServer, stop } from "./lib/processes.js";
-import { median, pairedRatio, round, type Row } from "./lib/stats.js";
+import { measuredOn, median, pairedRatio, round, type Row } from "./lib/stats.js";
 
 const builds = (process.env.BENCH_AB ?? "")
   .split(",")
@@ -121,13 +121,7 @@ for (const b of builds) {
   });
 }
 const measured = {
-  at: new Date().toISOString(),
-  cores: availableParallelism(),
-  cpu: cpus()[0]?.model ?? "unknown",
-  node: process.version,
-  loadAverageAtStart,
-  loadAverageAtEnd: loadavg().map((x) => round(x)),
-  seconds: round((performance.now() - t0) / 1000, 1),
+  ...measuredOn(loadAverageAtStart, t0),
   builds: Object.fromEntries(builds.map((b) => [b.name, { main: b.main, ...b.env }])),
 };
 for (const r of rows)

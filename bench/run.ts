@@ -12,7 +12,7 @@
  * start-up to /readyz, and the analysis benches (review, rule evaluation, AC bridge vs ngspice).
  */
 import { existsSync, readFileSync, writeFileSync } from "node:fs";
-import { availableParallelism, cpus, loadavg } from "node:os";
+import { loadavg } from "node:os";
 import { join } from "node:path";
 import { analyses } from "./parts/analyses.js";
 import { batch } from "./parts/batch.js";
@@ -20,7 +20,7 @@ import { httpOverhead } from "./parts/http.js";
 import { bulk, reviewOverHttp, startUp } from "./parts/service.js";
 import { root } from "./lib/processes.js";
 import type { PartResult, Row } from "./lib/stats.js";
-import { round } from "./lib/stats.js";
+import { measuredOn, round } from "./lib/stats.js";
 
 interface PartEntry extends PartResult {
   /** when and where the part ran */
@@ -75,15 +75,7 @@ for (const [name, f] of parts) {
       details: {},
     };
   }
-  const measured = {
-    at: new Date().toISOString(),
-    cores: availableParallelism(),
-    cpu: cpus()[0]?.model ?? "unknown",
-    node: process.version,
-    loadAverageAtStart,
-    loadAverageAtEnd: loadavg().map((x) => round(x)),
-    seconds: round((performance.now() - t0) / 1000, 1),
-  };
+  const measured = measuredOn(loadAverageAtStart, t0);
   entries[name] = { measured, ...result };
   rows.push(...result.rows);
 }

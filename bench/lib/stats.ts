@@ -1,3 +1,4 @@
+import { availableParallelism, cpus, loadavg } from "node:os";
 /** Rows of the bench table and the statistics of repeated runs. */
 export interface Row {
   readonly part: string;
@@ -19,6 +20,19 @@ export interface PartResult {
 }
 
 export const round = (x: number, d = 2) => Number(x.toFixed(d));
+
+/** Where and how a bench ran: the machine, the Node version, the host's load at the start and the end, its seconds. */
+export function measuredOn(loadAverageAtStart: number[], t0: number) {
+  return {
+    at: new Date().toISOString(),
+    cores: availableParallelism(),
+    cpu: cpus()[0]?.model ?? "unknown",
+    node: process.version,
+    loadAverageAtStart,
+    loadAverageAtEnd: loadavg().map((x) => round(x)),
+    seconds: round((performance.now() - t0) / 1000, 1),
+  };
+}
 
 export function median(xs: readonly number[]): number {
   const s = [...xs].sort((a, b) => a - b);
