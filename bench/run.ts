@@ -12,7 +12,7 @@
  * start-up to /readyz, and the analysis benches (review, rule evaluation, AC bridge vs ngspice).
  */
 import { existsSync, readFileSync, writeFileSync } from "node:fs";
-import { loadavg } from "node:os";
+import { availableParallelism, cpus, loadavg } from "node:os";
 import { join } from "node:path";
 import { analyses } from "./parts/analyses.js";
 import { batch } from "./parts/batch.js";
