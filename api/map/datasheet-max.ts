@@ -17,7 +17,7 @@ export interface DatasheetMaxSpec {
 }
 
 /** The stage's own MOSFET gate threshold, V; undefined for a stage without a discrete MOSFET. */
-function mosfetThresholdV(stage: StageModel): number | undefined {
+export function mosfetThresholdV(stage: StageModel): number | undefined {
   return stage.kind === "pfet-high-side" || stage.kind === "nfet-low-side" || stage.kind === "nfet-ideal-diode"
     ? stage.mosfet.channel.thresholdV
     : undefined;
