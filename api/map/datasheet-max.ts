@@ -132,13 +132,13 @@ export function noteThresholdCorners(
       : `Vth(max) ${maxV} V (datasheetMax.thresholdV)`;
   const moved =
     k === undefined || k === 0
-      ? "held at its 25 °C value (no mosfet.thresholdTempCoVPerK or thresholdAtTj given)"
-      : `moved by ${k} V/K`;
+      ? `held at its 25 °C value at the coldest ambient ${ambientMinC} °C (no mosfet.thresholdTempCoVPerK or thresholdAtTj given)`
+      : `moved by ${k} V/K to the coldest ambient ${ambientMinC} °C`;
   const low =
     dm?.thresholdMinV === undefined
       ? `the typical Vth ${typical} V (no datasheetMax.thresholdMinV given)`
       : `Vth(min) ${dm.thresholdMinV} V (datasheetMax.thresholdMinV)`;
   assumptions.push(
-    `${label}: gate threshold corners: the cold gate overdrive (gateOverdriveColdV) at ${high}, ${moved} to the coldest ambient ${ambientMinC} °C (${cold} V there); a turn-off event at ${low}`,
+    `${label}: gate threshold corners: the cold gate overdrive (gateOverdriveColdV) at ${high}, ${moved}: ${cold} V there; a turn-off event at ${low}`,
   );
 }

@@ -69,7 +69,7 @@ describe("sizing takes the review's gate threshold corners", () => {
     expect(verdictOfItems(items).verdict).toBe("fail");
     expect(
       out.assumptions.some((a) =>
-        /templates\.0: gate threshold corners: the cold gate overdrive \(gateOverdriveColdV\) at Vth\(max\) 2\.4 V \(datasheetMax\.thresholdV\), moved by -0\.006 V\/K to the coldest ambient -40 °C \(2\.79 V there\)/.test(
+        /templates\.0: gate threshold corners: the cold gate overdrive \(gateOverdriveColdV\) at Vth\(max\) 2\.4 V \(datasheetMax\.thresholdV\), moved by -0\.006 V\/K to the coldest ambient -40 °C: 2\.79 V there; a turn-off event at the typical Vth 1\.5 V/.test(
           a,
         ),
       ),
@@ -81,5 +81,32 @@ describe("sizing takes the review's gate threshold corners", () => {
     const { line } = await sized(2.0);
     expect(line.meets).toBe(true);
     expect(line.templateValue).toBeCloseTo(drive - (2.0 + K * (T_MIN_C - 25)), 9);
+  });
+
+  it("the turn-off event's Vth(min) is the review's: said in assumptions, and refused above the typical value naming the field", async () => {
+    const requirement = {
+      supply: { class: "vehicle-24v-f" },
+      load: { kind: "constant-current", currentA: 10 },
+      ambient: { minC: -40, maxC: 85 },
+      transients: [],
+    };
+    const turnOff = {
+      loop: { resistanceOhm: 0.02, inductanceH: 1e-6 },
+      capacitor: { capacitanceF: 470e-6, esrOhm: 0.03 },
+      peakReverseCurrentMaxA: 50,
+    };
+    const template = (thresholdMinV: number) => ({
+      stage: { kind: "catalog-part", partId: "demo-ideal-diode-60v-3mohm" },
+      datasheetMax: { rdsOnFactor: 1, forwardVoltageFactor: 1, thresholdMinV },
+    });
+    const out = (await call("sizing.spec", { requirement, templates: [template(1.2)], turnOff })) as Spec;
+    expect(
+      out.assumptions.some((a) =>
+        /templates\.0: .*a turn-off event at Vth\(min\) 1\.2 V \(datasheetMax\.thresholdMinV\)/.test(a),
+      ),
+    ).toBe(true);
+    await expect(call("sizing.spec", { requirement, templates: [template(2.5)], turnOff })).rejects.toThrow(
+      /above the stage's typical MOSFET gate threshold 2 V/,
+    );
   });
 });
