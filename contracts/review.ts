@@ -29,12 +29,12 @@ export const candidate = z.strictObject({
       ).optional(),
       thresholdV: quantity(
         "V",
-        "datasheet maximum gate threshold Vth(max) of the MOSFET, at 25 °C (the start checks and the datasheet-maximum corners use it)",
+        "datasheet maximum gate threshold Vth(max) of the MOSFET, at 25 °C (the start checks, the cold gate overdrive of the review and the sizing, and the datasheet-maximum corners use it; the Monte Carlo draws Vth uniform up to it)",
         { ge: 0, le: 100 },
       ).optional(),
       thresholdMinV: quantity(
         "V",
-        "datasheet minimum gate threshold Vth(min) of the MOSFET, at 25 °C (the review's turn-off event uses it: a lower threshold keeps a P-FET's or low-side N-FET's channel conducting backwards longer)",
+        "datasheet minimum gate threshold Vth(min) of the MOSFET, at 25 °C (the turn-off event of the review and the sizing uses it: a lower threshold keeps a P-FET's or low-side N-FET's channel conducting backwards longer; the Monte Carlo draws Vth uniform down to it)",
         { ge: 0, le: 100 },
       ).optional(),
       reverseThresholdV: quantity(
@@ -92,7 +92,7 @@ export const monteCarloSpec = z.strictObject({
           distribution: z.literal("normal"),
           sigma: z.number().gte(0).lte(1000).meta({
             description:
-              "standard deviation: relative for rdsOn, forwardVoltage, rth, load (≤ 0.2); V or K for supplyV, ambientC, startV (a controller's or switch's start voltage), thresholdV (the MOSFET's Vth)",
+              "standard deviation: relative for rdsOn, forwardVoltage, rth, load (≤ 0.2); V or K for supplyV, ambientC, startV (a controller's or switch's start voltage), thresholdV (the MOSFET's Vth; where the candidate's datasheetMax gives thresholdMinV or thresholdV, Vth is drawn uniform over that range instead)",
           }),
         }),
         z.strictObject({

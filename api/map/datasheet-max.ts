@@ -1,3 +1,5 @@
+import { stageMosfet } from "../../domain/checks/breakdown-temperature.js";
+import { gateThresholdColdV, withThresholdShift } from "../../domain/checks/gate-threshold.js";
 import type { ControllerTurnOff } from "../../domain/checks/reverse-path.js";
 import { type StageScale, UNSCALED } from "../../domain/stages/scale-stage.js";
 import { type StageModel, stageStartV } from "../../domain/stages/stage-model.js";
@@ -15,7 +17,7 @@ export interface DatasheetMaxSpec {
 }
 
 /** The stage's own MOSFET gate threshold, V; undefined for a stage without a discrete MOSFET. */
-function mosfetThresholdV(stage: StageModel): number | undefined {
+export function mosfetThresholdV(stage: StageModel): number | undefined {
   return stage.kind === "pfet-high-side" || stage.kind === "nfet-low-side" || stage.kind === "nfet-ideal-diode"
     ? stage.mosfet.channel.thresholdV
     : undefined;
@@ -103,4 +105,40 @@ export function thresholdMinShiftV(dm: DatasheetMaxSpec, stage: StageModel, path
       `the datasheet minimum ${dm.thresholdMinV} V is above the stage's typical MOSFET gate threshold ${typical} V: give the minimum (at or below ${typical} V)`,
     );
   return dm.thresholdMinV - typical;
+}
+
+/**
+ * Says in `assumptions` which gate threshold corners a candidate is taken at: the cold gate
+ * overdrive at the datasheet maximum (else the typical) Vth moved to the coldest ambient by the
+ * part's coefficient (gateThresholdColdV, as the review), the turn-off event at the datasheet
+ * minimum (else the typical). Nothing for a stage without a discrete MOSFET.
+ */
+export function noteThresholdCorners(
+  stage: StageModel,
+  dm: DatasheetMaxSpec | undefined,
+  ambientMinC: number,
+  label: string,
+  assumptions: string[],
+): void {
+  const typical = mosfetThresholdV(stage);
+  const fet = stageMosfet(stage);
+  if (typical === undefined || fet === undefined) return;
+  const maxV = dm?.thresholdV;
+  const cold = gateThresholdColdV(withThresholdShift(stage, (maxV ?? typical) - typical), ambientMinC);
+  const k = fet.channel.thresholdTempCoVPerK;
+  const high =
+    maxV === undefined
+      ? `the typical Vth ${typical} V (no datasheetMax.thresholdV given)`
+      : `Vth(max) ${maxV} V (datasheetMax.thresholdV)`;
+  const moved =
+    k === undefined || k === 0
+      ? `held at its 25 °C value at the coldest ambient ${ambientMinC} °C (no mosfet.thresholdTempCoVPerK or thresholdAtTj given)`
+      : `moved by ${k} V/K to the coldest ambient ${ambientMinC} °C`;
+  const low =
+    dm?.thresholdMinV === undefined
+      ? `the typical Vth ${typical} V (no datasheetMax.thresholdMinV given)`
+      : `Vth(min) ${dm.thresholdMinV} V (datasheetMax.thresholdMinV)`;
+  assumptions.push(
+    `${label}: gate threshold corners: the cold gate overdrive (gateOverdriveColdV) at ${high}, ${moved}: ${cold} V there; a turn-off event at ${low}`,
+  );
 }

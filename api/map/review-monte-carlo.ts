@@ -1,21 +1,21 @@
 import type { z } from "zod";
 import type { monteCarloResult, monteCarloSpec } from "../../contracts/review.js";
-import { stageMosfet } from "../../domain/checks/breakdown-temperature.js";
+import { gateThresholdColdV, withThresholdShift } from "../../domain/checks/gate-threshold.js";
 import { distributionOf, monteCarlo } from "../../domain/checks/monte-carlo.js";
-import { ZERO_C_IN_K } from "../../domain/physics/constants.js";
-import { thresholdAtV } from "../../domain/physics/mosfet-channel.js";
 import type { ReviewRequirement } from "../../domain/review/candidate-review.js";
 import type { CompiledRuleSet } from "../../domain/rules/compile-rule-set.js";
 import { evaluateRule } from "../../domain/rules/evaluate-rules.js";
 import type { RuleInput } from "../../domain/rules/rule-model.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
+import { type DatasheetMaxSpec, datasheetMaxScale, mosfetThresholdV, thresholdMinShiftV } from "./datasheet-max.js";
 
 /**
  * Monte Carlo of one candidate at one condition (default: lowest supply, highest ambient, full
  * load): percentiles of junction temperature, loss, drop and load voltage, and the share of
  * samples each rule fails or warns on, with the sample's point standing in for the worst corner,
  * its start voltage for the candidate's, and its gate threshold (with the part's coefficient, at
- * the coldest ambient) in the cold gate overdrive.
+ * the coldest ambient) in the cold gate overdrive. Where the candidate's datasheet gives a minimum
+ * or maximum Vth, the sampled Vth spans that range (datasheetThresholdRange).
  */
 export function reviewMonteCarlo(
   spec: z.output<typeof monteCarloSpec>,
@@ -23,6 +23,9 @@ export function reviewMonteCarlo(
   req: ReviewRequirement,
   base: RuleInput,
   set: CompiledRuleSet,
+  datasheetMax?: DatasheetMaxSpec,
+  path: (string | number)[] = [],
+  assumptions: string[] = [],
 ): z.output<typeof monteCarloResult> {
   const tj: number[] = [];
   const loss: number[] = [];
@@ -40,17 +43,12 @@ export function reviewMonteCarlo(
   const input = { ...base, metrics, unavailable: {} };
   // The cold gate overdrive with the sample's threshold: the drive at the lowest supply (the
   // candidate's) less the sampled Vth(25 °C) moved to the coldest ambient by the part's coefficient.
-  const fet = stageMosfet(stage);
   const drive = base.metrics["gateDriveMinV"];
   const overdriveOf =
-    fet !== undefined && typeof drive === "number" && typeof base.metrics["gateOverdriveColdV"] === "number"
-      ? (shiftV: number) =>
-          drive -
-          thresholdAtV(
-            { ...fet.channel, thresholdV: Math.max(0, fet.channel.thresholdV + shiftV) },
-            req.ambientMinC + ZERO_C_IN_K,
-          )
+    typeof drive === "number" && typeof base.metrics["gateOverdriveColdV"] === "number"
+      ? (shiftV: number) => drive - (gateThresholdColdV(withThresholdShift(stage, shiftV), req.ambientMinC) ?? 0)
       : undefined;
+  const thresholdRangeV = datasheetThresholdRange(stage, datasheetMax, path, assumptions);
   const supplyV = spec.supplyV ?? req.supplyMinV;
   const ambientC = spec.ambientC ?? req.ambientMaxC;
   monteCarlo(
@@ -61,6 +59,7 @@ export function reviewMonteCarlo(
       sourceResistanceOhm: req.sourceResistanceOhm,
       load: req.load,
       tolerances: spec.tolerances,
+      ...(thresholdRangeV === undefined ? {} : { thresholdRangeV }),
       samples: spec.samples,
       seed: spec.seed,
     },
@@ -108,4 +107,26 @@ export function reviewMonteCarlo(
 /** `{ [key]: value }` when there is a value (no sample had a point: the key is left out). */
 function present<K extends string, V>(key: K, value: V | undefined): { [k in K]?: V } {
   return value === undefined ? {} : ({ [key]: value } as { [k in K]?: V });
+}
+
+/**
+ * The datasheet's Vth range as shifts from the typical (datasheetMax.thresholdMinV and
+ * thresholdV; a bound not given: the typical), said in `assumptions`; undefined where neither is
+ * given. The shifts are the review's own (thresholdMinShiftV, datasheetMaxScale), so the same
+ * fields are refused for the same reasons.
+ */
+function datasheetThresholdRange(
+  stage: StageModel,
+  dm: DatasheetMaxSpec | undefined,
+  path: (string | number)[],
+  assumptions: string[],
+): { minShiftV: number; maxShiftV: number } | undefined {
+  if (dm === undefined || (dm.thresholdV === undefined && dm.thresholdMinV === undefined)) return undefined;
+  const minShiftV = thresholdMinShiftV(dm, stage, path);
+  const maxShiftV = datasheetMaxScale(dm, stage, path).thresholdShiftV ?? 0;
+  const typical = mosfetThresholdV(stage) ?? 0;
+  assumptions.push(
+    `monteCarlo: the MOSFET's gate threshold drawn uniform over the datasheet's ${typical + minShiftV}–${typical + maxShiftV} V at 25 °C (${path.join(".")}.thresholdMinV/thresholdV; a bound not given: the typical ${typical} V), in place of any thresholdV tolerance`,
+  );
+  return { minShiftV, maxShiftV };
 }

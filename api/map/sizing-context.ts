@@ -5,7 +5,13 @@ import type { CompiledRuleSet } from "../../domain/rules/compile-rule-set.js";
 import type { SizingContext, TurnOffSizing } from "../../domain/sizing/assessment.js";
 import type { StageScale } from "../../domain/stages/scale-stage.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
-import { type DatasheetMaxSpec, datasheetMaxScale, worstTurnOffTiming } from "./datasheet-max.js";
+import {
+  type DatasheetMaxSpec,
+  datasheetMaxScale,
+  noteThresholdCorners,
+  thresholdMinShiftV,
+  worstTurnOffTiming,
+} from "./datasheet-max.js";
 import type { MappedRequirement } from "./requirement.js";
 import { reviewRuleInput } from "../../domain/rules/metrics-of-review.js";
 import { type TransientThermalInput, transientThermalOf } from "./transient-thermal.js";
@@ -29,13 +35,15 @@ export interface TurnOffRequest {
  * procedure forms it (reviewCandidate + reviewRuleInput, mission energy left out: no rule reads
  * it), the rule set, and the turn-off event with the template's trip threshold. With a datasheet
  * maximum, the event and the template's own delay are at the maximum timing (worstTurnOffTiming,
- * as the review takes them): the candidate check compares the maximum delay with the limit.
+ * as the review takes them) and the datasheet-minimum gate threshold (thresholdMinShiftV): the
+ * candidate check compares the maximum delay with the limit. The threshold corners are said in
+ * `assumptions` (noteThresholdCorners).
  */
 export function sizingContext(
   r: Requirement,
   req: MappedRequirement,
   set: CompiledRuleSet,
-  stage: { spec: StageSpec; model: StageModel },
+  stage: { spec: StageSpec; model: StageModel; partId?: string | undefined },
   cand: { transientThermal?: TransientThermalInput; datasheetMax?: DatasheetMaxSpec | undefined },
   turnOff: TurnOffRequest | undefined,
   path: (string | number)[] = [],
@@ -57,6 +65,8 @@ export function sizingContext(
   const datasheetMax: StageScale | undefined = cand.datasheetMax
     ? datasheetMaxScale(cand.datasheetMax, stage.model, [...path, "datasheetMax"])
     : undefined;
+  const label = path.length > 0 ? path.join(".") : `part ${stage.partId ?? stage.spec.name ?? stage.model.kind}`;
+  noteThresholdCorners(stage.model, cand.datasheetMax, req.model.ambientMinC, label, assumptions);
   const assess = (s: StageModel) => {
     const review = reviewCandidate(searchReq, {
       stage: s,
@@ -68,7 +78,7 @@ export function sizingContext(
   const t =
     turnOff === undefined
       ? undefined
-      : turnOffSizing(r, req, stage.spec, turnOff, cand.datasheetMax, [...path, "datasheetMax"], assumptions);
+      : turnOffSizing(r, req, stage, turnOff, cand.datasheetMax, [...path, "datasheetMax"], assumptions);
   return {
     requirement: req.model,
     ruleSet: set,
@@ -81,13 +91,16 @@ export function sizingContext(
 function turnOffSizing(
   r: Requirement,
   req: MappedRequirement,
-  spec: StageSpec,
+  stage: { spec: StageSpec; model: StageModel },
   t: TurnOffRequest,
   dm: DatasheetMaxSpec | undefined,
   path: (string | number)[],
   assumptions: string[],
 ): TurnOffSizing | string {
+  const spec = stage.spec;
   const own = "controller" in spec ? spec.controller : undefined;
+  // The event at the datasheet-minimum gate threshold, as the review takes it (thresholdMinShiftV).
+  const thresholdShiftV = dm ? thresholdMinShiftV(dm, stage.model, path) : 0;
   const threshold = t.reverseThresholdV ?? own?.reverseThresholdV;
   if (threshold === undefined) return "the part states no reverse trip threshold: give turnOff.reverseThresholdV";
   const typicalDelayS = own?.turnOffDelayS;
@@ -114,6 +127,7 @@ function turnOffSizing(
       ...(t.gateChargeC === undefined ? {} : { gateChargeC: t.gateChargeC }),
       ...(t.gateSinkCurrentA === undefined ? {} : { gateSinkCurrentA: t.gateSinkCurrentA }),
     },
+    ...(thresholdShiftV === 0 ? {} : { thresholdShiftV }),
     ...(templateDelayS === undefined ? {} : { templateDelayS }),
     ...(t.clampV === undefined ? {} : { clampV: t.clampV }),
     ...(t.peakReverseCurrentMaxA === undefined ? {} : { peakReverseCurrentMaxA: t.peakReverseCurrentMaxA }),

@@ -207,7 +207,18 @@ export const review = defineProcedure({
         ...(e.cost === undefined ? {} : { costTotal: e.cost }),
       })),
       ...(mc && mcTarget
-        ? { monteCarlo: reviewMonteCarlo(mc, mcTarget.stage.model, req.model, mcTarget.ruleInput, set) }
+        ? {
+            monteCarlo: reviewMonteCarlo(
+              mc,
+              mcTarget.stage.model,
+              req.model,
+              mcTarget.ruleInput,
+              set,
+              mcTarget.c.datasheetMax,
+              ["candidates", mcTarget.index, "datasheetMax"],
+              assumptions,
+            ),
+          }
         : {}),
       assumptions,
     };

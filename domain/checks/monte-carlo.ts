@@ -31,6 +31,12 @@ export interface McInput {
   readonly sourceResistanceOhm: number;
   readonly load: LoadModel;
   readonly tolerances: readonly McTolerance[];
+  /**
+   * The datasheet's gate threshold range as shifts from the typical Vth (min − typical ≤ 0 ≤
+   * max − typical), V: where given, each sample's Vth is drawn uniform over it, in place of any
+   * thresholdV tolerance (the datasheet bounds the spread; no distribution is stated inside them).
+   */
+  readonly thresholdRangeV?: { readonly minShiftV: number; readonly maxShiftV: number };
   readonly samples: number;
   readonly seed: number;
 }
@@ -72,7 +78,10 @@ export function monteCarlo(m: McInput, visit: (s: McSample) => void): void {
       startV: 0,
       thresholdV: 0,
     };
-    for (const t of m.tolerances) d[t.parameter] += draw(rng, t);
+    const range = m.thresholdRangeV;
+    for (const t of m.tolerances)
+      if (range === undefined || t.parameter !== "thresholdV") d[t.parameter] += draw(rng, t);
+    if (range !== undefined) d.thresholdV = range.minShiftV + rng.next() * (range.maxShiftV - range.minShiftV);
     // A relative draw below −100 % has no physical meaning: floor the factor at 1 % of nominal.
     const f = (x: number) => Math.max(1 + x, 0.01);
     const stage = scaleStage(m.stage, {

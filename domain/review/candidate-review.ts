@@ -19,9 +19,7 @@ import { blocksReverseCurrent } from "../checks/stage-ratings.js";
 import { thermalSizing, type ThermalSizing } from "../checks/thermal-sizing.js";
 import type { TransientAllowance, TransientContext } from "../checks/transient-stress.js";
 import { type SweptTransientResult, sweptTransientStress } from "../checks/transient-sweep.js";
-import { stageMosfet } from "../checks/breakdown-temperature.js";
-import { ZERO_C_IN_K } from "../physics/constants.js";
-import { thresholdAtV } from "../physics/mosfet-channel.js";
+import { gateThresholdColdV as coldThresholdV, withThresholdShift } from "../checks/gate-threshold.js";
 import { totalRthKPerW } from "../physics/thermal-path.js";
 import type { StartChatter } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
@@ -149,8 +147,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
       })
     : cand.stage;
   const startVoltageV = stageStartV(startStage);
-  const fet = stageMosfet(startStage);
-  const gateThresholdColdV = fet === undefined ? undefined : thresholdAtV(fet.channel, req.ambientMinC + ZERO_C_IN_K);
+  const gateThresholdColdV = coldThresholdV(startStage, req.ambientMinC);
   const atMinSupply = driveAtInput(startStage, minPoint?.stageInputV ?? req.supplyMinV, minPoint?.forward.dropV ?? 0);
   const profiles = req.startProfile
     ? [req.ambientMinC, req.ambientMaxC].map((ambientC) => ({
@@ -221,7 +218,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
         },
         cand.turnOffThresholdShiftV === undefined || cand.turnOffThresholdShiftV === 0
           ? cand
-          : { ...cand, stage: scaleStage(cand.stage, { ...UNSCALED, thresholdShiftV: cand.turnOffThresholdShiftV }) },
+          : { ...cand, stage: withThresholdShift(cand.stage, cand.turnOffThresholdShiftV) },
         worst.tjC?.value,
       )
     : undefined;

@@ -482,7 +482,7 @@ export const METRICS: readonly MetricDef[] = [
     meaning:
       "gate drive at the lowest supply less the MOSFET's threshold at the coldest ambient (Vth(max) where the datasheet maximum is given, moved by mosfet.thresholdTempCoVPerK): at 0 or less the channel does not turn on",
     stageKinds: FETS,
-    providedBy: "review (mosfet.thresholdTempCoVPerK or thresholdAtTj; none given: Vth held at 25 °C)",
+    providedBy: "review and sizing (mosfet.thresholdTempCoVPerK or thresholdAtTj; none given: Vth held at 25 °C)",
   },
   {
     name: "startChatter",

@@ -26,6 +26,8 @@ export interface TurnOffSizing {
   readonly tjC: number;
   /** The template's timing: its threshold and gate discharge are held, its delay is what is sized. */
   readonly timing: ControllerTurnOff;
+  /** The gate threshold's shift for the event (datasheet minimum − typical, 0 or less; absent: 0), V. */
+  readonly thresholdShiftV?: number;
   /** The template's own turn-off delay, s, when it states one. */
   readonly templateDelayS?: number;
   readonly clampV?: number;

@@ -6,7 +6,7 @@ import { clampSpec } from "./clamp-spec.js";
 import { forwardLimit } from "./forward-limit.js";
 import { leakageLimit } from "./leakage-limit.js";
 import { ruleLimitItem } from "./rule-limit.js";
-import type { SpecItem } from "./spec-item.js";
+import { fmt, type SpecItem } from "./spec-item.js";
 import { startAlongProfileLimit } from "./start-limit.js";
 import { thermalSpec } from "./thermal-spec.js";
 import { turnOffDelayLimits } from "./turn-off-delay.js";
@@ -94,6 +94,21 @@ export function specifyStage(ctx: SizingContext, stage: StageModel): StageSpecif
       ),
     );
   }
+  // The cold gate overdrive as the review computes it (reviewCandidate: the drive at the lowest
+  // supply less Vth at the coldest ambient, at the datasheet maximum where given).
+  const coldVth = template.review.gateThresholdColdV;
+  if (coldVth !== undefined)
+    items.push(
+      rule(
+        "gateOverdriveColdV",
+        "gateOverdriveColdMinV",
+        `smallest gate overdrive: the drive at the lowest supply (${metric("gateDriveMinV") ?? "?"} V) less the threshold at the coldest ambient (${fmt(coldVth)} V)`,
+        "V",
+        "at-least",
+        metric("gateOverdriveColdV"),
+        `lowest supply ${ctx.requirement.supplyMinV} V, coldest ambient ${ctx.requirement.ambientMinC} °C`,
+      ),
+    );
   if (traits.leakage) items.push(leakageLimit(ctx, stage));
   const startV = stageStartV(stage);
   if (traits.control && startV !== undefined) items.push(...controllerItems(ctx, stage, startV, rule, part, metric));

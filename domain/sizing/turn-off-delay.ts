@@ -1,11 +1,12 @@
 import { gateDischargeS } from "../checks/reverse-path.js";
 import { type TurnOffOutcome, turnOffEvent } from "../checks/turn-off-event.js";
+import { withThresholdShift } from "../checks/gate-threshold.js";
 import { bracketedRoot } from "../solve/root-find.js";
 import type { StageModel } from "../stages/stage-model.js";
 import type { SizingContext, TurnOffSizing } from "./assessment.js";
 import { fmt, limitItem, type SpecItem } from "./spec-item.js";
 
-/** The reverse-current event with the controller's delay set to d (every other value of the template held). */
+/** The reverse-current event with the controller's delay set to d (every other value of the template held; its threshold at the event's corner). */
 export function eventWithDelay(
   ctx: SizingContext,
   stage: StageModel,
@@ -13,7 +14,7 @@ export function eventWithDelay(
   delayS: number,
 ): TurnOffOutcome {
   return turnOffEvent({
-    stage,
+    stage: withThresholdShift(stage, t.thresholdShiftV ?? 0),
     outputV: t.outputV,
     inputAfterV: t.inputAfterV,
     loopResistanceOhm: t.loopResistanceOhm,

@@ -198,8 +198,15 @@ describe("the Monte Carlo's sampled gate threshold reaches the cold overdrive ru
     if (d === undefined || review === undefined) throw new Error("design or review missing");
     const samples = 1000;
     const h = 1;
+    // No datasheet Vth range here (the twin's Vth(max) taken out): the tolerance's draw is the spread.
+    const twin = d.twin as { candidates: { datasheetMax: Record<string, unknown> }[] };
+    const candidates = twin.candidates.map((c) => {
+      const { thresholdV: _max, ...datasheetMax } = c.datasheetMax;
+      return { ...c, datasheetMax };
+    });
     const out = (await review({
       ...d.twin,
+      candidates,
       monteCarlo: {
         samples,
         seed: 5,
@@ -215,6 +222,47 @@ describe("the Monte Carlo's sampled gate threshold reaches the cold overdrive ru
     const share = out.monteCarlo.shareFailingByRule["gate-overdrive-cold"] ?? 0;
     expect(expected).toBeGreaterThan(0.05);
     expect(Math.abs(share - expected)).toBeLessThan(3 * Math.sqrt((expected * (1 - expected)) / samples));
+  });
+});
+
+describe("the Monte Carlo's Vth spans the datasheet's minimum to maximum where given", () => {
+  it("the share failing gate-overdrive-cold is P(U(min, max) + k·(Tmin − 25 °C) ≥ the drive), a thresholdV tolerance replaced", async () => {
+    const { KNOWN_BAD } = await import("../known-bad/designs.js");
+    const d = KNOWN_BAD.find((x) => x.id === "pfet-below-threshold-when-cold");
+    if (d === undefined || review === undefined) throw new Error("design or review missing");
+    const samples = 2000;
+    const [vMin, vMax] = [1.0, 2.8];
+    const twin = d.twin as { candidates: { datasheetMax: Record<string, unknown> }[] };
+    const candidates = twin.candidates.map((c) => ({
+      ...c,
+      datasheetMax: { ...c.datasheetMax, thresholdMinV: vMin, thresholdV: vMax },
+    }));
+    const out = (await review({
+      ...d.twin,
+      candidates,
+      monteCarlo: {
+        samples,
+        seed: 11,
+        tolerances: [{ parameter: "thresholdV", distribution: "uniform", halfWidth: 0.01 }],
+      },
+    })) as {
+      candidates: { metrics: Record<string, number> }[];
+      monteCarlo: { shareFailingByRule: Record<string, number> };
+      assumptions: string[];
+    };
+    // k = −6 mV/K at −40 °C: +0.39 V. The uniform closed form of the share above the drive.
+    const drive = out.candidates[0]?.metrics["gateDriveMinV"] ?? 0;
+    const cold = 0.006 * 65;
+    const expected = Math.min(1, Math.max(0, (vMax + cold - drive) / (vMax - vMin)));
+    const share = out.monteCarlo.shareFailingByRule["gate-overdrive-cold"] ?? 0;
+    expect(expected).toBeGreaterThan(0.1);
+    expect(expected).toBeLessThan(0.9);
+    expect(Math.abs(share - expected)).toBeLessThan(3 * Math.sqrt((expected * (1 - expected)) / samples));
+    expect(
+      out.assumptions.some((a) =>
+        /monteCarlo: the MOSFET's gate threshold drawn uniform over the datasheet's 1–2\.8 V at 25 °C/.test(a),
+      ),
+    ).toBe(true);
   });
 });
 
