@@ -173,13 +173,14 @@ export const candidateResult = z.object({
             .number()
             .meta({ description: "the output's lowest voltage: below 0 the load sees reverse voltage" }),
         }),
+        z.object({ pulseId: z.string(), outcome: z.literal("no-response"), reason: z.string() }),
         z.object({ pulseId: z.string(), outcome: z.literal("not-assessed"), reason: z.string() }),
       ]),
     )
     .optional()
     .meta({
       description:
-        "with the requirement's turnOff, a P-FET candidate: each negative pulse as the turn-off event's input (a decaying negative level), the channel conducting backwards until its gate lets go",
+        "with the requirement's turnOff, a P-FET candidate: each negative pulse applied with the supply disconnected as the turn-off event's input (a decaying negative level), the channel conducting backwards until its gate lets go",
     }),
   reverse: z.unknown().meta({
     description: "steady reverse polarity: blocking element, voltage vs rating, leakage, junction temperature",

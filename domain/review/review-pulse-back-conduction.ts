@@ -26,10 +26,17 @@ export type PulseBackConduction =
       /** The output's lowest voltage, V: below 0 the load sees reverse voltage. */
       readonly outputMinV: number;
     }
+  /** The event model gave no response for this input (clamp below the drive, an unstable loop): a gap. */
+  | { readonly pulseId: string; readonly outcome: "no-response"; readonly reason: string }
   | { readonly pulseId: string; readonly outcome: "not-assessed"; readonly reason: string };
 
+/** Why a pulse riding on the supply is not put through the single loop. */
+export const SUPPLY_RIDING_REASON =
+  "the pulse rides on the supply: the battery keeps feeding the load through its own low resistance while the pulse comes through the generator's Ri, which one source behind one resistance (the turn-off event's loop) cannot show — through Ri alone the load would drain the output long after the pulse; not assessed";
+
 /**
- * Each negative pulse of the review that reaches a P-FET candidate, through the requirement's
+ * Each negative pulse of the review applied with the supply disconnected (ISO 7637-2 pulse 1: the
+ * generator is the loop's only source) that reaches a P-FET candidate, through the requirement's
  * turn-off event (reviewTurnOff, the turnOff procedure's own model) with the pulse as the input
  * after the event: it starts at the pulse's peak after the clamp and decays back to its base with
  * the pulse's time constant (inputDecay); the loop's resistance is the generator's Ri; the output,
@@ -46,7 +53,6 @@ export function pulseBackConduction(
   tjC: number,
   pulses: readonly TransientPulse[],
   results: readonly TransientResult[],
-  supplyNominalV: number,
 ): readonly PulseBackConduction[] {
   if (stage.kind !== "pfet-high-side") return [];
   const out: PulseBackConduction[] = [];
@@ -56,7 +62,11 @@ export function pulseBackConduction(
     seen.add(r.pulseId);
     const pulse = pulses.find((p) => p.id === r.pulseId);
     if (pulse === undefined) continue;
-    const baseV = pulse.baseV === "supply" ? supplyNominalV : pulse.baseV;
+    if (pulse.baseV === "supply") {
+      out.push({ pulseId: r.pulseId, outcome: "not-assessed", reason: SUPPLY_RIDING_REASON });
+      continue;
+    }
+    const baseV = pulse.baseV;
     const event: ReviewTurnOff = {
       ...t,
       inputAfterV: baseV,
@@ -74,7 +84,7 @@ export function pulseBackConduction(
 function figures(r: TransientResult, baseV: number, ohm: number, e: ReviewTurnOffResult): PulseBackConduction {
   const x = e.result;
   if (x.outcome === "clamp-below-drive" || x.outcome === "invalid-load-line" || x.outcome === "unstable-loop")
-    return { pulseId: r.pulseId, outcome: "not-assessed", reason: `${x.outcome}: ${x.reason}` };
+    return { pulseId: r.pulseId, outcome: "no-response", reason: `${x.outcome}: ${x.reason}` };
   const gate = x.outcome === "does-not-block" ? x.gateTurnOff : undefined;
   return {
     pulseId: r.pulseId,

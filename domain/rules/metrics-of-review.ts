@@ -158,7 +158,9 @@ function pulseMetrics(
   unavailable: Record<string, string>,
 ): void {
   for (const p of r.pulseBackConduction ?? []) {
-    if (p.outcome === "not-assessed") {
+    // A pulse riding on the supply is reported as not assessed (with why) and leaves the figures to the rest.
+    if (p.outcome === "not-assessed") continue;
+    if (p.outcome === "no-response") {
       for (const n of ["peakReverseCurrentA", "loadReverseVMaxV"]) {
         unavailable[n] = `pulse ${p.pulseId} through the P-FET: ${p.reason}`;
         delete metrics[n];
