@@ -75,6 +75,7 @@ describe("the review's negative pulses through a P-FET candidate's back-conducti
     // Source: first-order R-C loop driven by Vin(t) = Vp·e^(−t/τ): with T = R·C and a load current I,
     // v(t) = −I·R + B·e^(−t/τ) + (V0 + I·R − B)·e^(−t/T), B = Vp·τ/(τ − T); the reverse peak at
     // t → 0+ (L/R = 0.1 us ≪ τ) is (V0 − Vp)/R less the load current (closed form).
+    if (turnOff === undefined) throw new Error("turnOff missing");
     const loadA = 0.001;
     const { r, c, p } = await reviewPfet(
       {
