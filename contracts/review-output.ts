@@ -151,6 +151,37 @@ export const candidateResult = z.object({
       description:
         "the requirement's turn-off event for this candidate (as the turnOff procedure computes it; the waveform when curves were asked for)",
     }),
+  pulseBackConduction: z
+    .array(
+      z.discriminatedUnion("outcome", [
+        z.object({
+          pulseId: z.string(),
+          outcome: z.literal("assessed"),
+          inputPeakV: z
+            .number()
+            .meta({ description: "the input at the event's start: the pulse's peak after the clamp" }),
+          inputAfterV: z.number().meta({ description: "the level the pulse decays back to (its base)" }),
+          tauS: z.number(),
+          loopResistanceOhm: z.number().meta({ description: "the generator's internal resistance (wiring not added)" }),
+          eventOutcome: z.string().meta({ description: "the turn-off event's outcome for this input" }),
+          channelOffS: z.number().optional().meta({ description: "when the P-FET's gate turned its channel off" }),
+          peakReverseCurrentA: z.number(),
+          chargeLostC: z
+            .number()
+            .meta({ description: "charge the output capacitor lost until the loop current stopped" }),
+          outputMinV: z
+            .number()
+            .meta({ description: "the output's lowest voltage: below 0 the load sees reverse voltage" }),
+        }),
+        z.object({ pulseId: z.string(), outcome: z.literal("no-response"), reason: z.string() }),
+        z.object({ pulseId: z.string(), outcome: z.literal("not-assessed"), reason: z.string() }),
+      ]),
+    )
+    .optional()
+    .meta({
+      description:
+        "with the requirement's turnOff, a P-FET candidate: each negative pulse applied with the supply disconnected as the turn-off event's input (a decaying negative level), the channel conducting backwards until its gate lets go",
+    }),
   reverse: z.unknown().meta({
     description: "steady reverse polarity: blocking element, voltage vs rating, leakage, junction temperature",
   }),

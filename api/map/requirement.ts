@@ -321,8 +321,11 @@ function reviewTurnOffOf(
   if (t.repetitive === undefined) assumptions.push(ONE_OFF_EVENT("turnOff.repetitive"));
   if (t.gateLag === undefined)
     assumptions.push(
-      "turnOff.gateLag: not given, so a P-FET candidate's gate follows the output at once (no gate resistor lag): the least reverse voltage at the load",
+      "turnOff.gateLag: not given, so a P-FET candidate's gate follows the output at once (no gate resistor lag): the least reverse voltage at the load, in the turn-off event and in each negative pulse",
     );
+  assumptions.push(
+    "negative pulses applied with the supply disconnected (ISO 7637-2 pulse 1) at a P-FET candidate: each is the turn-off event's input (from its peak after the clamp, decaying back to its base with the pulse's time constant), the loop's resistance the generator's Ri alone (the wiring not added: the larger reverse current), the output, capacitance, ESR, inductance and gate lag the turnOff event's; a negative pulse riding on the supply is reported as not assessed",
+  );
   const outputV = t.outputV ?? nominalV;
   const inputAfterV = t.inputAfterV ?? 0;
   if (!(inputAfterV < outputV))

@@ -195,6 +195,7 @@ export const review = defineProcedure({
                 ...(e.r.turnOff.train === undefined ? {} : { train: e.r.turnOff.train }),
               },
             }),
+        ...(e.r.pulseBackConduction === undefined ? {} : { pulseBackConduction: [...e.r.pulseBackConduction] }),
         reverse: e.r.reverse,
         transients: e.r.transients,
         ...(e.r.inrush === undefined ? {} : { inrush: e.r.inrush }),

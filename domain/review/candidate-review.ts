@@ -30,6 +30,7 @@ import { behaviourOf } from "../stages/stage-behaviours.js";
 import type { TransientPulse } from "./transient-library.js";
 import { type LoadOvervoltage, loadOvervoltage } from "../checks/load-overvoltage.js";
 import { type ReviewInrush, type ReviewInrushResult, reviewInrush } from "./review-inrush.js";
+import { type PulseBackConduction, pulseBackConduction } from "./review-pulse-back-conduction.js";
 import { type ReviewTurnOff, type ReviewTurnOffResult, reviewTurnOff } from "./review-turn-off.js";
 
 export interface ReviewRequirement {
@@ -108,6 +109,11 @@ export interface CandidateReview {
   readonly standby: StandbyDrain;
   readonly blocksReverseCurrent: boolean;
   readonly turnOff?: ReviewTurnOffResult;
+  /**
+   * With the requirement's turn-off event, a P-FET candidate: each negative pulse through the same
+   * event model (review-pulse-back-conduction.ts), its reverse current, charge lost and output minimum.
+   */
+  readonly pulseBackConduction?: readonly PulseBackConduction[];
   /** The start-up charge of the output capacitance (with the requirement's inrush). */
   readonly inrush?: ReviewInrushResult;
   /** What reaches the load from the positive surges and steady overvoltages (an overvoltage cut-off opens above its threshold). */
@@ -208,20 +214,20 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
     stageTjMaxC(cand.stage) - req.tjMarginK,
   );
 
-  const turnOff = req.turnOff
-    ? reviewTurnOff(
-        req.turnOff,
-        {
-          load: req.load,
-          ambientMaxC: req.ambientMaxC,
-          ...(req.loadMinV === undefined ? {} : { loadMinV: req.loadMinV }),
-        },
-        cand.turnOffThresholdShiftV === undefined || cand.turnOffThresholdShiftV === 0
-          ? cand
-          : { ...cand, stage: withThresholdShift(cand.stage, cand.turnOffThresholdShiftV) },
-        worst.tjC?.value,
-      )
-    : undefined;
+  const eventReq = {
+    load: req.load,
+    ambientMaxC: req.ambientMaxC,
+    ...(req.loadMinV === undefined ? {} : { loadMinV: req.loadMinV }),
+  };
+  const eventCand =
+    cand.turnOffThresholdShiftV === undefined || cand.turnOffThresholdShiftV === 0
+      ? cand
+      : { ...cand, stage: withThresholdShift(cand.stage, cand.turnOffThresholdShiftV) };
+  const turnOff = req.turnOff ? reviewTurnOff(req.turnOff, eventReq, eventCand, worst.tjC?.value) : undefined;
+  const pulses =
+    req.turnOff && turnOff
+      ? pulseBackConduction(req.turnOff, eventReq, eventCand.stage, turnOff.tjC, req.transients, transients)
+      : [];
   const energy = req.mission
     ? missionEnergy(cand.stage, req.mission, req.supplyNominalV, req.sourceResistanceOhm, req.load, req.pricePerKWh)
     : undefined;
@@ -255,6 +261,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
     standby: standbyDrain(cand.stage, req.loadStandbyA, req.battery),
     blocksReverseCurrent: blocksReverseCurrent(cand.stage),
     ...(turnOff ? { turnOff } : {}),
+    ...(pulses.length > 0 ? { pulseBackConduction: pulses } : {}),
     ...(inrush ? { inrush } : {}),
     loadOvervoltage: atLoad,
   };

@@ -419,7 +419,8 @@ export const METRICS: readonly MetricDef[] = [
     name: "peakReverseCurrentA",
     type: "number",
     unit: "A",
-    meaning: "peak current flowing backwards through the stage when the input is shorted or steps lower (magnitude)",
+    meaning:
+      "peak current flowing backwards through the stage when the input is shorted or steps lower (magnitude); in the review also the largest over the negative pulses applied with the supply disconnected (ISO 7637-2 pulse 1) at a P-FET",
     stageKinds: "all",
     providedBy: "turnOff",
   },
@@ -437,7 +438,7 @@ export const METRICS: readonly MetricDef[] = [
     type: "number",
     unit: "V",
     meaning:
-      "reverse voltage the output (the load's input) reaches during the turn-off event, magnitude: minus the output's lowest voltage, 0 when it stays at or above 0 V (a negative input pulling it below through a P-FET channel still on)",
+      "reverse voltage the output (the load's input) reaches during the turn-off event, magnitude: minus the output's lowest voltage, 0 when it stays at or above 0 V (a negative input pulling it below through a P-FET channel still on); in the review also the largest over the negative pulses applied with the supply disconnected (ISO 7637-2 pulse 1) at a P-FET",
     stageKinds: "all",
     providedBy: "turnOff",
   },

@@ -141,9 +141,41 @@ export function reviewRuleInput(
   Object.assign(unavailable, missingRatings(stage));
   const part = partParameters(stage);
   if (r.turnOff !== undefined) turnOffMetrics(stage, r.turnOff, metrics, part, unavailable, notRequired);
+  pulseMetrics(r, metrics, unavailable);
   const elsewhere = otherAnalysesMetrics(metrics, "review");
   for (const n of Object.keys(unavailable)) delete elsewhere[n];
   return { stageKind: stage.kind, metrics, part, unavailable, notRequired: Object.assign(elsewhere, notRequired) };
+}
+
+/**
+ * The negative pulses through a P-FET's back-conducting channel (review-pulse-back-conduction.ts)
+ * join the turn-off event's figures: loadReverseVMaxV and peakReverseCurrentA are the largest of
+ * the event and every pulse; a pulse without a response leaves both unavailable with why.
+ */
+function pulseMetrics(
+  r: CandidateReview,
+  metrics: Record<string, number | boolean>,
+  unavailable: Record<string, string>,
+): void {
+  for (const p of r.pulseBackConduction ?? []) {
+    // A pulse riding on the supply is reported as not assessed (with why) and leaves the figures to the rest.
+    if (p.outcome === "not-assessed") continue;
+    if (p.outcome === "no-response") {
+      for (const n of ["peakReverseCurrentA", "loadReverseVMaxV"]) {
+        unavailable[n] = `pulse ${p.pulseId} through the P-FET: ${p.reason}`;
+        delete metrics[n];
+      }
+      continue;
+    }
+    for (const [n, v] of [
+      ["loadReverseVMaxV", Math.max(0, -p.outputMinV)],
+      ["peakReverseCurrentA", p.peakReverseCurrentA],
+    ] as const) {
+      if (n in unavailable) continue;
+      const had = metrics[n];
+      metrics[n] = typeof had === "number" ? Math.max(had, v) : v;
+    }
+  }
 }
 
 /**

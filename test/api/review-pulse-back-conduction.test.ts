@@ -1,0 +1,120 @@
+import { readFileSync } from "node:fs";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import { procedureInvoker } from "../../adapters/batch/run-batch.js";
+import { projectRoot } from "../../adapters/project-root.js";
+import { reviewOutput } from "../../contracts/review.js";
+import { turnOffOutput } from "../../contracts/turn-off.js";
+import { demoContext } from "../helpers/app.js";
+
+const ctx = demoContext();
+const review = procedureInvoker(ctx)("review");
+const turnOff = procedureInvoker(ctx)("turnOff");
+const example = JSON.parse(readFileSync(join(projectRoot(), "examples/requests/review.json"), "utf8")).input;
+const pfet = { kind: "catalog-part", partId: "demo-pfet-40v-12mohm" };
+const PULSE_1 = "iso7637-2-pulse-1-12v";
+
+async function reviewPfet(turnOffSection: object, extra: object = {}) {
+  if (review === undefined) throw new Error("review missing");
+  const requirement = { ...example.requirement, ...extra, transients: [PULSE_1, "iso7637-2-pulse-3a-12v"] };
+  const r = reviewOutput.parse(
+    await review({ requirement: { ...requirement, turnOff: turnOffSection }, candidates: [{ stage: pfet }] }),
+  );
+  const c = r.candidates[0];
+  const p = c?.pulseBackConduction?.find((x) => x.pulseId === PULSE_1);
+  if (c === undefined || p?.outcome !== "assessed") throw new Error(`pulse 1 not assessed: ${JSON.stringify(p)}`);
+  return { r, c, p };
+}
+
+describe("the review's negative pulses through a P-FET candidate's back-conducting channel", () => {
+  it("pulse 1 at a P-FET equals the turnOff procedure (ngspice-checked model) run on the same decaying negative input", async () => {
+    if (turnOff === undefined) throw new Error("turnOff missing");
+    const gateLag = { resistanceOhm: "10 kOhm", gateChargeC: "30 nC", atGateSourceV: "10 V" };
+    const { r, c, p } = await reviewPfet({ ...example.requirement.turnOff, gateLag });
+    // The pulse's input is the transient check's own: its peak after the design's clamp and its τ.
+    const t = (c.transients as { pulseId: string; inputPeakV: number; tauS: number }[]).find(
+      (x) => x.pulseId === PULSE_1,
+    );
+    expect(p.inputPeakV).toBe(t?.inputPeakV);
+    expect(p.tauS).toBe(t?.tauS);
+    expect(p.inputAfterV).toBe(0);
+    expect(p.loopResistanceOhm).toBe(10); // pulse 1's Ri, 12 V system
+    const direct = turnOffOutput.parse(
+      await turnOff({
+        stage: pfet,
+        outputV: r.requirement.supplyNominalV,
+        inputAfterV: 0,
+        inputDecay: { startV: p.inputPeakV, timeConstantS: p.tauS },
+        gateLag,
+        loop: { ...example.requirement.turnOff.loop, resistanceOhm: 10 },
+        capacitor: example.requirement.turnOff.capacitor,
+        load: example.requirement.load,
+        loadMinV: example.requirement.loadMinV,
+        tjC: c.turnOff?.tjC ?? 0,
+      }),
+    );
+    if (direct.outcome !== "does-not-block" || direct.gateTurnOff === undefined) throw new Error(direct.outcome);
+    expect(p.peakReverseCurrentA).toBe(direct.gateTurnOff.peakReverseCurrentA);
+    expect(p.chargeLostC).toBe(direct.gateTurnOff.chargeLostC);
+    expect(p.outputMinV).toBe(direct.outputMinV);
+    expect(p.channelOffS).toBe(direct.gateTurnOff.channelOffS);
+    // The pulse's figures reach the rules: the largest of the turn-off event and the pulse.
+    const ev = c.turnOff?.event;
+    if (ev?.outcome !== "does-not-block") throw new Error("no drain-back event");
+    expect(c.metrics["peakReverseCurrentA"]).toBe(
+      Math.max(ev.gateTurnOff?.peakReverseCurrentA ?? ev.peakReverseCurrentA, p.peakReverseCurrentA),
+    );
+    expect(c.metrics["loadReverseVMaxV"]).toBe(Math.max(0, -ev.outputMinV, -p.outputMinV));
+    // A negative pulse riding on the supply is said to be not assessed, with why.
+    const p3a = c.pulseBackConduction?.find((x) => x.pulseId === "iso7637-2-pulse-3a-12v");
+    expect(p3a?.outcome).toBe("not-assessed");
+    expect(r.assumptions.some((a) => a.includes("ISO 7637-2 pulse 1") && a.includes("generator's Ri"))).toBe(true);
+  });
+
+  it("a large output capacitor: the peak and the channel's turn-off follow the R-C closed form under the decaying input", async () => {
+    // Source: first-order R-C loop driven by Vin(t) = Vp·e^(−t/τ): with T = R·C and a load current I,
+    // v(t) = −I·R + B·e^(−t/τ) + (V0 + I·R − B)·e^(−t/T), B = Vp·τ/(τ − T); the reverse peak at
+    // t → 0+ (L/R = 0.1 us ≪ τ) is (V0 − Vp)/R less the load current (closed form).
+    if (turnOff === undefined) throw new Error("turnOff missing");
+    const loadA = 0.001;
+    const { r, c, p } = await reviewPfet(
+      {
+        ...example.requirement.turnOff,
+        capacitor: { capacitanceF: "100 mF", esrOhm: "1 mOhm" },
+      },
+      { load: { kind: "constant-current", currentA: loadA } },
+    );
+    const v0 = r.requirement.supplyNominalV;
+    const direct = turnOffOutput.parse(
+      await turnOff({
+        stage: pfet,
+        outputV: v0,
+        inputAfterV: 0,
+        inputDecay: { startV: p.inputPeakV, timeConstantS: p.tauS },
+        loop: { ...example.requirement.turnOff.loop, resistanceOhm: 10 },
+        capacitor: { capacitanceF: "100 mF", esrOhm: "1 mOhm" },
+        load: { kind: "constant-current", currentA: loadA },
+        loadMinV: example.requirement.loadMinV,
+        tjC: c.turnOff?.tjC ?? 0,
+      }),
+    );
+    if (
+      direct.outcome === "clamp-below-drive" ||
+      direct.outcome === "invalid-load-line" ||
+      direct.outcome === "unstable-loop"
+    )
+      throw new Error(direct.outcome);
+    const rOhm = direct.loop.totalResistanceOhm + 1e-3; // loop, channel and the capacitor's ESR
+    expect(p.peakReverseCurrentA / ((v0 - p.inputPeakV) / rOhm - loadA) - 1).toBeLessThan(2e-3);
+    expect(p.peakReverseCurrentA / ((v0 - p.inputPeakV) / rOhm - loadA) - 1).toBeGreaterThan(-2e-3);
+    const tau = p.tauS;
+    const T = rOhm * 0.1;
+    const b = (p.inputPeakV * tau) / (tau - T);
+    const tOff = p.channelOffS ?? Number.NaN;
+    const vAtOff = -loadA * rOhm + b * Math.exp(-tOff / tau) + (v0 + loadA * rOhm - b) * Math.exp(-tOff / T);
+    // The gate follows the output at once (no gate lag given): the channel lets go at the output's lowest point.
+    expect(vAtOff).toBeCloseTo(p.outputMinV, 2);
+    // Charge conservation on the capacitor: C·(V0 − Vmin) less the load's share over the event.
+    expect(p.chargeLostC / (0.1 * (v0 - p.outputMinV))).toBeCloseTo(1, 2);
+  });
+});
