@@ -33,6 +33,8 @@ export const CONDUCTION_MODES = [
   "regulated-drop",
   "fully-enhanced",
   "partially-enhanced",
+  "current-limit",
+  "cut-off",
 ] as const;
 
 export const solvedPoint = z.object({
