@@ -34,6 +34,8 @@ export type ElectricalOutcome =
       readonly reason: string;
       readonly maxDeliverablePowerW?: number;
       readonly requestedPowerW?: number;
+      /** Present when the stage's current limit starves the load: the limit it holds, A. */
+      readonly currentLimitA?: number;
     }
   | { readonly ok: false; readonly code: "stage-off"; readonly reason: string; readonly stageInputV: number };
 
@@ -71,6 +73,7 @@ export function solveElectrical(c: CircuitModel, tK: number): ElectricalOutcome 
       ok: false,
       code: "load-collapse",
       reason: `the load needs ${fmt(free.point.currentA)} A, above the switch's ${fmt(limitA)} A current limit: the switch holds ${fmt(limitA)} A and the load voltage collapses`,
+      currentLimitA: limitA,
     };
   }
   const stageInputV = c.supplyV - (limitA + iq) * c.sourceResistanceOhm;

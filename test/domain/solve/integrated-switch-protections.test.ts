@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import { alongProfile } from "../../../domain/checks/start-up.js";
 import { solveOperatingPoint } from "../../../domain/solve/electrothermal-point.js";
 import type { IntegratedSwitchStage } from "../../../domain/stages/stage-model.js";
 import { relativeError } from "../../helpers/tolerance.js";
@@ -79,5 +80,27 @@ describe("integrated switch overvoltage cut-off in the operating point", () => {
     }
     expect(at(stage, 16, load)).toEqual(at(base, 16, load));
     expect(at(stage, 24, { kind: "constant-current", currentA: 1 }).outcome).toBe("stage-off");
+  });
+});
+
+describe("integrated switch protections along a supply profile", () => {
+  it("the samples show the limit (load at I_lim·R) and the cut-off (load unpowered, counted as dropout)", () => {
+    const stage = { ...base, currentLimitA: 2, overvoltageCutoffV: 20, tjMaxC: 250 };
+    const profile = [
+      { timeS: 0, voltageV: 6 },
+      { timeS: 1, voltageV: 12 },
+      { timeS: 2, voltageV: 24 },
+    ];
+    const r = alongProfile(stage, profile, { kind: "resistive", resistanceOhm: 2 }, 0, 25, { kind: "quasi-static" }, 4);
+    const at = (t: number) => r.samples.find((x) => x.timeS === t);
+    // 6 V into 2.05 Ω: 2.93 A > 2 A, already limiting: V_load = 2 A × 2 Ω = 4 V at every supply up to the cut-off
+    expect(at(0)?.mode).toBe("current-limit");
+    expect(at(1)?.loadV).toBeCloseTo(4, 12);
+    expect(at(1)?.lossW).toBeCloseTo((12 - 4) * 2, 12);
+    expect(at(2)?.mode).toBe("stage-off");
+    expect(at(2)?.loadV).toBe(0);
+    expect(r.minLoadV).toBe(0);
+    // 24 V reached at t = 2 s only: the samples above 20 V (t > 1.667 s) are the dropout, one step of 0.25 s before the end
+    expect(r.dropoutTimeS).toBeCloseTo(0.25, 12);
   });
 });
