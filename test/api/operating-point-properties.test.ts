@@ -51,6 +51,31 @@ describe("operatingPoint over random valid inputs (property, fast-check)", () =>
     );
   });
 
+  it("a load above an integrated switch's current limit collapses, the answer naming the limit", async () => {
+    if (invoke === undefined) throw new Error("operatingPoint missing");
+    const r = (await invoke({
+      stage: {
+        kind: "integrated-switch",
+        name: "limited switch",
+        onResistanceOhm: 0.02,
+        startV: 2.5,
+        belowStart: "blocks",
+        regulatedDropV: 0,
+        quiescentA: 0,
+        maxVoltageV: 60,
+        currentLimitA: 4,
+        tjMaxC: 150,
+        thermal: { kind: "junction-ambient", rthJaKPerW: 10 },
+      },
+      supplyV: 12,
+      load: { kind: "constant-current", currentA: 5 },
+      ambientC: 25,
+    })) as { outcome: string; currentLimitA?: number; reason?: string };
+    expect(r.outcome).toBe("load-collapse");
+    expect(r.currentLimitA).toBe(4);
+    expect(r.reason).toContain("4 A current limit");
+  });
+
   it("an integrated switch with a current limit and a cut-off: an explicit outcome with finite numbers", async () => {
     if (invoke === undefined) throw new Error("operatingPoint missing");
     await fc.assert(
