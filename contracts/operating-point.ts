@@ -33,6 +33,8 @@ export const CONDUCTION_MODES = [
   "regulated-drop",
   "fully-enhanced",
   "partially-enhanced",
+  "current-limit",
+  "cut-off",
 ] as const;
 
 export const solvedPoint = z.object({
@@ -111,6 +113,10 @@ export const operatingPointOutput = z.discriminatedUnion("outcome", [
     reason: z.string(),
     atJunctionC: z.number(),
     maxDeliverablePowerW: z.number().optional(),
+    currentLimitA: z
+      .number()
+      .optional()
+      .meta({ description: "present when the switch's current limit starves the load: the limit it holds", unit: "A" }),
   }),
   z.object({ outcome: z.literal("stage-off"), ...base, reason: z.string(), stageInputV: z.number() }),
 ]);

@@ -118,13 +118,12 @@ function withHead(
     case "thermal-runaway":
       return headed(o.outcome, head, { reason: o.reason, evidence: o.evidence });
     case "load-collapse":
-      return headed(
-        o.outcome,
-        head,
-        o.maxDeliverablePowerW === undefined
-          ? { reason: o.reason, atJunctionC: o.atJunctionC }
-          : { reason: o.reason, atJunctionC: o.atJunctionC, maxDeliverablePowerW: o.maxDeliverablePowerW },
-      );
+      return headed(o.outcome, head, {
+        reason: o.reason,
+        atJunctionC: o.atJunctionC,
+        ...(o.maxDeliverablePowerW === undefined ? {} : { maxDeliverablePowerW: o.maxDeliverablePowerW }),
+        ...(o.currentLimitA === undefined ? {} : { currentLimitA: o.currentLimitA }),
+      });
     case "stage-off":
       return headed(o.outcome, head, { reason: o.reason, stageInputV: o.stageInputV });
   }

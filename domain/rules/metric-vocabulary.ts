@@ -386,7 +386,7 @@ export const METRICS: readonly MetricDef[] = [
     type: "number",
     unit: "A",
     meaning:
-      "highest current through the stage over the review's corners (a constant-power load's at the lowest supply)",
+      "highest current through the stage over the review's corners (a constant-power load's at the lowest supply; a corner whose load collapses at the switch's current limit counts as the limit)",
     stageKinds: ["integrated-switch"],
     providedBy: "review (corners), for a stage with a current limit",
   },

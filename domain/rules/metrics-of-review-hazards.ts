@@ -224,8 +224,10 @@ function clampTrainMetrics(
 
 /**
  * An integrated switch's current limit against the highest current of the corners: a load that
- * needs the limit or more is held at it in service (the forward model does not limit), so the
- * load collapses. A corner without an operating point leaves the figure unavailable.
+ * needs the limit or more is held at it (the forward law limits, integrated-switch.ts), a resistive
+ * load then at I_lim·R, a constant-current or constant-power one collapsing at the limit, which
+ * counts as the limit reached. Any other corner without an operating point leaves the figure
+ * unavailable.
  */
 function currentLimitMetrics(stage: StageModel, r: CandidateReview, s: Scope): void {
   const limitA = stage.kind === "integrated-switch" ? stage.currentLimitA : undefined;
@@ -236,6 +238,10 @@ function currentLimitMetrics(stage: StageModel, r: CandidateReview, s: Scope): v
   s.metrics["switchCurrentLimitA"] = limitA;
   let maxA = 0;
   for (const [i, c] of r.corners.entries()) {
+    if (c.result.outcome === "load-collapse" && c.result.currentLimitA !== undefined) {
+      maxA = Math.max(maxA, c.result.currentLimitA);
+      continue;
+    }
     if (!("point" in c.result)) {
       s.unavailable["stageCurrentMaxA"] =
         `corner ${i} has no operating point (${c.result.outcome}: ${c.result.reason})`;

@@ -1,5 +1,6 @@
 import type { ForwardState } from "../stages/conduction.js";
 import { stageForward } from "../stages/forward.js";
+import { behaviourOf } from "../stages/stage-behaviours.js";
 import { type StageModel, stageQuiescentA } from "../stages/stage-model.js";
 import type { LoadModel } from "./load-model.js";
 import { bracketedRoot, goldenMax } from "./root-find.js";
@@ -33,17 +34,63 @@ export type ElectricalOutcome =
       readonly reason: string;
       readonly maxDeliverablePowerW?: number;
       readonly requestedPowerW?: number;
+      /** Present when the stage's current limit starves the load: the limit it holds, A. */
+      readonly currentLimitA?: number;
     }
   | { readonly ok: false; readonly code: "stage-off"; readonly reason: string; readonly stageInputV: number };
 
-/** The circuit supply → source resistance → stage → load, solved at a fixed junction temperature. */
+/**
+ * The circuit supply → source resistance → stage → load, solved at a fixed junction temperature,
+ * with the stage's own protections where its behaviour has them (integrated-switch.ts): above its
+ * overvoltage cut-off, judged at its input with the path open (the state an open switch holds), it
+ * is open and the load unpowered; where the load would draw more than its current limit, the
+ * current is held at the limit and the load sets its own voltage there, I_lim·R for a resistive
+ * load. A constant-current or constant-power load that needs more than the limit has no operating
+ * point: its voltage collapses (a constant-power load's draw P/V only rises as V falls).
+ */
 export function solveElectrical(c: CircuitModel, tK: number): ElectricalOutcome {
+  const b = behaviourOf(c.stage);
   const iq = stageQuiescentA(c.stage);
+  const cutoffV = b.cutoffV?.(c.stage);
+  if (cutoffV !== undefined) {
+    const open = pointAt(c, iq, 0, tK);
+    if (open.forward.mode === "cut-off") {
+      return {
+        ok: false,
+        code: "stage-off",
+        reason: `the switch's input, ${fmt(open.stageInputV)} V, is above its ${fmt(cutoffV)} V overvoltage cut-off: the switch is open and the load unpowered`,
+        stageInputV: open.stageInputV,
+      };
+    }
+  }
+  const free = solvePath(c, iq, tK);
+  const limitA = b.currentLimitA?.(c.stage);
+  if (limitA === undefined || !free.ok || !(free.point.currentA > limitA)) return free;
+  const mode = free.point.forward.mode;
+  if (mode === "body-diode" || mode === "junction") return free; // below start: the control, and its limit, not running
+  if (c.load.kind !== "resistive") {
+    return {
+      ok: false,
+      code: "load-collapse",
+      reason: `the load needs ${fmt(free.point.currentA)} A, above the switch's ${fmt(limitA)} A current limit: the switch holds ${fmt(limitA)} A and the load voltage collapses`,
+      currentLimitA: limitA,
+    };
+  }
+  const stageInputV = c.supplyV - (limitA + iq) * c.sourceResistanceOhm;
+  const loadV = limitA * c.load.resistanceOhm;
+  const atLimit = b.atCurrentLimit;
+  if (atLimit === undefined) throw new Error("solveElectrical: a stage with a current limit but no state at it");
+  const forward = atLimit(c.stage, tK, stageInputV, loadV);
+  return { ok: true, point: { currentA: limitA, sourceCurrentA: limitA + iq, stageInputV, loadV, forward } };
+}
+
+/** The circuit with the stage's forward law as it is, no current limit. */
+function solvePath(c: CircuitModel, iq: number, tK: number): ElectricalOutcome {
   const load = c.load;
   if (load.kind === "constant-current") {
     // The hot path of every corner: one point, no closure.
     const p = pointAt(c, iq, load.currentA, tK);
-    if (p.forward.mode === "off") return stageOff(p);
+    if (p.forward.mode === "off" || p.forward.mode === "cut-off") return stageOff(p);
     if (!(p.loadV > 0)) {
       return {
         ok: false,
@@ -55,7 +102,7 @@ export function solveElectrical(c: CircuitModel, tK: number): ElectricalOutcome 
   }
   const at = (currentA: number): ElectricalPoint => pointAt(c, iq, currentA, tK);
   const idle = at(0);
-  if (idle.forward.mode === "off") {
+  if (idle.forward.mode === "off" || idle.forward.mode === "cut-off") {
     return {
       ok: false,
       code: "stage-off",
@@ -109,7 +156,7 @@ function pointAt(c: CircuitModel, iq: number, currentA: number, tK: number): Ele
 }
 
 function finish(p: ElectricalPoint): ElectricalOutcome {
-  return p.forward.mode === "off" ? stageOff(p) : { ok: true, point: p };
+  return p.forward.mode === "off" || p.forward.mode === "cut-off" ? stageOff(p) : { ok: true, point: p };
 }
 
 /**

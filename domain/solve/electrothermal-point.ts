@@ -64,6 +64,8 @@ export type OperatingPointOutcome<P extends ThermalPoint = SolvedPoint> =
       readonly reason: string;
       readonly atJunctionC: number;
       readonly maxDeliverablePowerW?: number;
+      /** Present when the stage's current limit starves the load: the limit it holds, A. */
+      readonly currentLimitA?: number;
     }
   | { readonly outcome: "stage-off"; readonly reason: string; readonly stageInputV: number };
 
@@ -157,6 +159,7 @@ function solveWithControl(m: OperatingPointModel, probeGain: boolean): Operating
           reason: e.reason,
           atJunctionC: kToC(r.atK),
           ...(e.maxDeliverablePowerW === undefined ? {} : { maxDeliverablePowerW: e.maxDeliverablePowerW }),
+          ...(e.currentLimitA === undefined ? {} : { currentLimitA: e.currentLimitA }),
         };
   }
   if (r.kind === "runaway") {

@@ -77,13 +77,14 @@ export function branchCurrent(
   if (dv > 0) {
     const drop = (i: number): { dropV: number; mode: string } => {
       const s = stageForward(stage, i, tK, leftV - i * leftOhm);
-      // An "off" stage (below its start voltage) is given a drop beyond the available voltage.
-      return { dropV: s.mode === "off" ? dv + 1 : s.dropV, mode: s.mode };
+      // An "off" stage (below its start voltage, or opened by its cut-off) is given a drop beyond the available voltage.
+      return { dropV: s.mode === "off" || s.mode === "cut-off" ? dv + 1 : s.dropV, mode: s.mode };
     };
     const hi = dv / rt;
     const g = (i: number): number => dv - i * rt - drop(i).dropV;
     const g0 = g(0);
-    if (drop(0).mode === "off") return make(0, dv, "idle", true, false, "off");
+    const idleMode = drop(0).mode;
+    if (idleMode === "off" || idleMode === "cut-off") return make(0, dv, "idle", true, false, idleMode);
     const cap = (i: number): { i: number; limited: boolean } =>
       limitA !== undefined && i > limitA ? { i: limitA, limited: true } : { i, limited: false };
     const body = releasedGateDiode(stage);

@@ -7,7 +7,11 @@ export type ConductionMode =
   | "body-diode"
   | "regulated-drop"
   | "fully-enhanced"
-  | "partially-enhanced";
+  | "partially-enhanced"
+  /** An integrated switch holding its current at its limit: the drop is what the load leaves. */
+  | "current-limit"
+  /** An integrated switch opened by its overvoltage cut-off: no current, the load unpowered. */
+  | "cut-off";
 
 /** The forward state of a stage at a current, temperature and input voltage. */
 export interface ForwardState {

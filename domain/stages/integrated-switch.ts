@@ -12,9 +12,14 @@ import { gateDischargeS } from "./turn-off-timing.js";
  * internal gate drive holds the channel fully on (regulating the drop where it is an ideal-diode
  * type); below it the body diode conducts or the switch blocks. Its quiescent current heats the
  * same die. Reverse: an ideal-diode type turns off on reverse current, a plain switch conducts.
+ * Its protections, where the part has them: above its overvoltage cut-off the switch is open (no
+ * current, the load unpowered: the cut-off disconnects the output); at its current limit it holds the
+ * current at the limit and its drop rises to what the load leaves, V_in − V_load(I_lim), its loss
+ * that drop × I_lim (domain/solve/electrical-point.ts finds V_load).
  */
 export const integratedSwitch: StageBehaviour<IntegratedSwitchStage> = {
   forward: (stage, currentA, tK, inputV, running) => {
+    if (stage.overvoltageCutoffV !== undefined && inputV > stage.overvoltageCutoffV) return CUT_OFF;
     if (!(running ?? inputV >= stage.startV)) {
       if (stage.belowStart.mode === "blocks") {
         return { mode: "off", dropV: 0, lossW: 0, channelCurrentA: 0, bodyDiodeCurrentA: 0, bodyDiodeTimeFraction: 0 };
@@ -25,6 +30,24 @@ export const integratedSwitch: StageBehaviour<IntegratedSwitchStage> = {
     if (noBody) return mosfetForward(stage.channel, noBody, stage.internalGateV, currentA, tK, stage.regulatedDropV);
     return withoutBodyDiode(stage, currentA, tK);
   },
+  currentLimitA: (stage) => stage.currentLimitA,
+  atCurrentLimit: (stage, _tK, inputV, loadV) => {
+    const limitA = stage.currentLimitA;
+    if (limitA === undefined) throw new Error("atCurrentLimit: the switch has no current limit");
+    const dropV = inputV - loadV;
+    return {
+      mode: "current-limit",
+      dropV,
+      lossW: dropV * limitA,
+      channelCurrentA: limitA,
+      bodyDiodeCurrentA: 0,
+      gateSourceV: stage.internalGateV,
+      // the limiting gate drive raises the channel's resistance to dropV / I_lim
+      channelResistanceOhm: dropV / limitA,
+      bodyDiodeTimeFraction: 0,
+    };
+  },
+  cutoffV: (stage) => stage.overvoltageCutoffV,
   tjMaxC: (stage) => stage.tjMaxC,
   startV: (stage) => stage.startV,
   withStartV: (stage, startV) => ({ ...stage, startV }),
@@ -143,6 +166,15 @@ function withoutBodyDiode(stage: IntegratedSwitchStage, currentA: number, tK: nu
     bodyDiodeTimeFraction: 0,
   };
 }
+
+const CUT_OFF = {
+  mode: "cut-off",
+  dropV: 0,
+  lossW: 0,
+  channelCurrentA: 0,
+  bodyDiodeCurrentA: 0,
+  bodyDiodeTimeFraction: 0,
+} as const satisfies ForwardState;
 
 function offSwitch(stage: IntegratedSwitchStage): ReversePath {
   return {

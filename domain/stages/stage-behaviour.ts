@@ -69,6 +69,14 @@ export interface StageBehaviour<S extends StageModel> {
     inputV: number,
     running: boolean | undefined,
   ) => ForwardState;
+  /**
+   * Current its control holds the load current at, A (an integrated switch's limit); absent or
+   * undefined: none. With it, `atCurrentLimit` is the state there, the drop being what the load leaves.
+   */
+  readonly currentLimitA?: (stage: S) => number | undefined;
+  readonly atCurrentLimit?: (stage: S, tK: number, inputV: number, loadV: number) => ForwardState;
+  /** Input voltage above which its control opens the path (overvoltage cut-off), V; absent or undefined: none. */
+  readonly cutoffV?: (stage: S) => number | undefined;
   /** Junction limit of the die that carries the load current, °C. */
   readonly tjMaxC: (stage: S) => number;
   /** Input voltage from which its control runs, V; undefined without one. */

@@ -50,4 +50,76 @@ describe("operatingPoint over random valid inputs (property, fast-check)", () =>
       { numRuns: 1500, seed: 20261201 },
     );
   });
+
+  it("a load above an integrated switch's current limit collapses, the answer naming the limit", async () => {
+    if (invoke === undefined) throw new Error("operatingPoint missing");
+    const r = (await invoke({
+      stage: {
+        kind: "integrated-switch",
+        name: "limited switch",
+        onResistanceOhm: 0.02,
+        startV: 2.5,
+        belowStart: "blocks",
+        regulatedDropV: 0,
+        quiescentA: 0,
+        maxVoltageV: 60,
+        currentLimitA: 4,
+        tjMaxC: 150,
+        thermal: { kind: "junction-ambient", rthJaKPerW: 10 },
+      },
+      supplyV: 12,
+      load: { kind: "constant-current", currentA: 5 },
+      ambientC: 25,
+    })) as { outcome: string; currentLimitA?: number; reason?: string };
+    expect(r.outcome).toBe("load-collapse");
+    expect(r.currentLimitA).toBe(4);
+    expect(r.reason).toContain("4 A current limit");
+  });
+
+  it("an integrated switch with a current limit and a cut-off: an explicit outcome with finite numbers", async () => {
+    if (invoke === undefined) throw new Error("operatingPoint missing");
+    await fc.assert(
+      fc.asyncProperty(
+        fc.double({ min: 0.05, max: 60, noNaN: true }),
+        fc.double({ min: 0, max: 2, noNaN: true }),
+        fc.oneof(
+          fc.record({ kind: fc.constant("constant-current"), currentA: fc.double({ min: 0, max: 50, noNaN: true }) }),
+          fc.record({ kind: fc.constant("resistive"), resistanceOhm: fc.double({ min: 1e-3, max: 1e6, noNaN: true }) }),
+          fc.record({
+            kind: fc.constant("constant-power"),
+            powerW: fc.double({ min: 0.01, max: 2000, noNaN: true }),
+            minVoltageV: fc.double({ min: 0, max: 50, noNaN: true }),
+          }),
+        ),
+        fc.double({ min: 1e-3, max: 50, noNaN: true }),
+        fc.double({ min: 1, max: 60, noNaN: true }),
+        async (supplyV, sourceResistanceOhm, load, currentLimitA, overvoltageCutoffV) => {
+          const r = (await invoke({
+            stage: {
+              kind: "integrated-switch",
+              name: "property switch",
+              onResistanceOhm: 0.02,
+              startV: 2.5,
+              belowStart: "blocks",
+              regulatedDropV: 0,
+              quiescentA: 2e-4,
+              maxVoltageV: 60,
+              currentLimitA,
+              overvoltageCutoffV,
+              overvoltageResponseS: 1e-5,
+              tjMaxC: 150,
+              thermal: { kind: "junction-ambient", rthJaKPerW: 55 },
+            },
+            supplyV,
+            sourceResistanceOhm,
+            load,
+            ambientC: 25,
+          })) as { outcome: string };
+          expect(typeof r.outcome).toBe("string");
+          expect(allFinite(r)).toBe(true);
+        },
+      ),
+      { numRuns: 500, seed: 20261204 },
+    );
+  });
 });

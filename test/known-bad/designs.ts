@@ -862,7 +862,7 @@ export const KNOWN_BAD: readonly KnownBad[] = [
   {
     id: "switch-current-limit-below-load",
     hazard: "load",
-    why: "an integrated switch limiting at 6 A ahead of an 8 A load: in service it holds 6 A and the load collapses, though every corner solved with the switch fully on (twin: a 10 A limit)",
+    why: "an integrated switch limiting at 6 A ahead of an 8 A load: it holds 6 A and the constant-current load collapses at every full-load corner (twin: a 10 A limit)",
     procedure: "review",
     rule: "switch-current-limit-above-load",
     bad: review(
@@ -872,6 +872,21 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     twin: review(
       { ...req12, load: { kind: "constant-current", currentA: 8 } },
       integratedSwitch({ currentLimitA: 10, thermal: { kind: "junction-ambient", rthJaKPerW: 10 } }),
+    ),
+  },
+  {
+    id: "switch-heats-at-its-current-limit",
+    hazard: "thermal",
+    why: "a 3 A current-limited switch ahead of a 4 ohm load on a 12 V code B supply: above 12 V the load would draw more than 3 A, the switch holds 3 A with the load at I_lim·R = 12 V and drops the rest, (16 V − 12 V) × 3 A = 12 W through 10 K/W: about 205 °C at 85 °C ambient (twin: a 6 A limit, never reached)",
+    procedure: "review",
+    rule: "tj-limit",
+    bad: review(
+      { ...req12, load: { kind: "resistive", resistanceOhm: 4 } },
+      integratedSwitch({ currentLimitA: 3, thermal: { kind: "junction-ambient", rthJaKPerW: 10 } }),
+    ),
+    twin: review(
+      { ...req12, load: { kind: "resistive", resistanceOhm: 4 } },
+      integratedSwitch({ currentLimitA: 6, thermal: { kind: "junction-ambient", rthJaKPerW: 10 } }),
     ),
   },
   {
