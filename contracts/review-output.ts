@@ -157,15 +157,35 @@ export const candidateResult = z.object({
         z.object({
           pulseId: z.string(),
           outcome: z.literal("assessed"),
-          inputPeakV: z
+          inputPeakV: z.number().meta({
+            description:
+              "the input at the event's start: the Thevenin source's start (the pulse with the battery where it rides on the supply), or the clamp's level where that is less",
+          }),
+          inputAfterV: z
             .number()
-            .meta({ description: "the input at the event's start: the pulse's peak after the clamp" }),
-          inputAfterV: z.number().meta({ description: "the level the pulse decays back to (its base)" }),
+            .meta({ description: "the level the input decays back to (the Thevenin source's constant part)" }),
           tauS: z.number(),
-          loopResistanceOhm: z.number().meta({ description: "the generator's internal resistance (wiring not added)" }),
+          loopResistanceOhm: z.number().meta({
+            description:
+              "the generator's internal resistance Ri, in parallel with the battery's where the pulse rides on the supply (wiring not added)",
+          }),
+          batteryResistanceOhm: z.number().optional().meta({
+            description:
+              "a pulse riding on the supply: the battery's resistance (requirement.sourceResistanceOhm; 0 holds the input at the nominal supply)",
+          }),
           eventOutcome: z.string().meta({ description: "the turn-off event's outcome for this input" }),
+          channel: z.enum(["turned-off", "conducts-throughout"]).meta({
+            description:
+              "turned-off: the lagged |Vgs| fell below threshold; conducts-throughout: the output held it above (the battery holds the output), the channel conducting backwards into the pulse, its reverse peak the figure",
+          }),
           channelOffS: z.number().optional().meta({ description: "when the P-FET's gate turned its channel off" }),
           peakReverseCurrentA: z.number(),
+          peakReverseIsLowerBound: z
+            .literal(true)
+            .optional()
+            .meta({
+              description: "the current still rising at the end of the simulated span: the peak is a lower bound",
+            }),
           chargeLostC: z
             .number()
             .meta({ description: "charge the output capacitor lost until the loop current stopped" }),
@@ -174,13 +194,12 @@ export const candidateResult = z.object({
             .meta({ description: "the output's lowest voltage: below 0 the load sees reverse voltage" }),
         }),
         z.object({ pulseId: z.string(), outcome: z.literal("no-response"), reason: z.string() }),
-        z.object({ pulseId: z.string(), outcome: z.literal("not-assessed"), reason: z.string() }),
       ]),
     )
     .optional()
     .meta({
       description:
-        "with the requirement's turnOff, a P-FET candidate: each negative pulse applied with the supply disconnected as the turn-off event's input (a decaying negative level), the channel conducting backwards until its gate lets go",
+        "with the requirement's turnOff, a P-FET candidate: each negative pulse as the turn-off event's input (a decaying level: the generator alone where the supply is disconnected, the generator and the battery as one Thevenin source where the pulse rides on the supply), the channel conducting backwards until its gate lets go",
     }),
   reverse: z.unknown().meta({
     description: "steady reverse polarity: blocking element, voltage vs rating, leakage, junction temperature",

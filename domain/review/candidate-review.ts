@@ -226,7 +226,15 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
   const turnOff = req.turnOff ? reviewTurnOff(req.turnOff, eventReq, eventCand, worst.tjC?.value) : undefined;
   const pulses =
     req.turnOff && turnOff
-      ? pulseBackConduction(req.turnOff, eventReq, eventCand.stage, turnOff.tjC, req.transients, transients)
+      ? pulseBackConduction(
+          req.turnOff,
+          eventReq,
+          eventCand.stage,
+          turnOff.tjC,
+          { nominalV: req.supplyNominalV, resistanceOhm: req.sourceResistanceOhm },
+          req.transients,
+          transients,
+        )
       : [];
   const energy = req.mission
     ? missionEnergy(cand.stage, req.mission, req.supplyNominalV, req.sourceResistanceOhm, req.load, req.pricePerKWh)

@@ -1,5 +1,6 @@
 import type { TransientResult } from "../checks/transient-stress.js";
 import type { TurnOffOutcome } from "../checks/turn-off-event.js";
+import { twoSourceThevenin } from "../physics/two-source-thevenin.js";
 import type { StageModel } from "../stages/stage-model.js";
 import { type ReviewTurnOff, type ReviewTurnOffResult, reviewTurnOff } from "./review-turn-off.js";
 import type { TransientPulse } from "./transient-library.js";
@@ -9,48 +10,67 @@ export type PulseBackConduction =
   | {
       readonly pulseId: string;
       readonly outcome: "assessed";
-      /** The input at t = 0+ (the pulse's peak after the design's clamp), V. */
+      /** The input at t = 0+ (the Thevenin source's start, limited by the design's clamp), V. */
       readonly inputPeakV: number;
-      /** The level the pulse decays back to (its base), V. */
+      /** The level the input decays back to (the Thevenin source's constant part), V. */
       readonly inputAfterV: number;
       readonly tauS: number;
-      /** The generator's internal resistance, the loop's resistance (wiring not added), ohm. */
+      /** The loop's resistance: the generator's Ri, in parallel with the battery's where the pulse rides on the supply (wiring not added), ohm. */
       readonly loopResistanceOhm: number;
+      /** A pulse riding on the supply: the battery's resistance (the requirement's sourceResistanceOhm), ohm. */
+      readonly batteryResistanceOhm?: number;
       /** The turn-off event's outcome for this input (does-not-block with the gate's turn-off for a P-FET). */
       readonly eventOutcome: TurnOffOutcome["outcome"];
+      /**
+       * turned-off: the lagged |Vgs| fell below threshold and the channel let go (channelOffS);
+       * conducts-throughout: the output held |Vgs| above threshold over the span (the battery
+       * holds it): the channel conducts backwards into the pulse and its reverse peak is the figure.
+       */
+      readonly channel: "turned-off" | "conducts-throughout";
       /** The channel's turn-off by its gate, s (absent: it did not turn off over the span). */
       readonly channelOffS?: number;
       readonly peakReverseCurrentA: number;
+      /** The channel conducting throughout with the current still rising at the span's end: the peak is only a lower bound. */
+      readonly peakReverseIsLowerBound?: true;
       /** Charge the output capacitor lost until the loop current stopped, C. */
       readonly chargeLostC: number;
       /** The output's lowest voltage, V: below 0 the load sees reverse voltage. */
       readonly outputMinV: number;
     }
   /** The event model gave no response for this input (clamp below the drive, an unstable loop): a gap. */
-  | { readonly pulseId: string; readonly outcome: "no-response"; readonly reason: string }
-  | { readonly pulseId: string; readonly outcome: "not-assessed"; readonly reason: string };
+  | { readonly pulseId: string; readonly outcome: "no-response"; readonly reason: string };
 
-/** Why a pulse riding on the supply is not put through the single loop. */
-export const SUPPLY_RIDING_REASON =
-  "the pulse rides on the supply: the battery keeps feeding the load through its own low resistance while the pulse comes through the generator's Ri, which one source behind one resistance (the turn-off event's loop) cannot show — through Ri alone the load would drain the output long after the pulse; not assessed";
+/** The supply a pulse may ride on: the requirement's nominal battery behind its source resistance. */
+export interface PulseSupply {
+  readonly nominalV: number;
+  /** The requirement's sourceResistanceOhm (source and wiring), ohm. */
+  readonly resistanceOhm: number;
+}
 
 /**
- * Each negative pulse of the review applied with the supply disconnected (ISO 7637-2 pulse 1: the
- * generator is the loop's only source) that reaches a P-FET candidate, through the requirement's
- * turn-off event (reviewTurnOff, the turnOff procedure's own model) with the pulse as the input
- * after the event: it starts at the pulse's peak after the clamp and decays back to its base with
- * the pulse's time constant (inputDecay); the loop's resistance is the generator's Ri; the output,
- * capacitance, ESR, inductance, gate lag and Tj are the requirement's turn-off event. A P-FET with
- * its gate at ground and the output charged conducts backwards until its lagged |Vgs| falls below
- * threshold: the reverse current peak, the charge lost and the output's minimum are reported.
- * Other stages: none (a low-side N-FET's gate follows the input, which the pulse takes below
- * threshold at once: it is the turn-off event's gate-falls case, not a held-up gate).
+ * Each negative pulse of the review that reaches a P-FET candidate, through the requirement's
+ * turn-off event (reviewTurnOff, the turnOff procedure's own model). The loop's source is what the
+ * stage sees of the pulse generator (open circuit g0 + A·e^(−t/τ) behind Ri) and, where the pulse
+ * rides on the supply (ISO 7637-2 pulse 3a, a negative surge on the supply), the battery at the
+ * nominal supply behind the requirement's source resistance Rb, as one Thevenin source
+ * (two-source-thevenin.ts): Vth(t) = Vb + A·Rb/(Ri + Rb)·e^(−t/τ) behind Ri‖Rb (g0 = Vb). A
+ * pulse applied with the supply disconnected (ISO 7637-2 pulse 1) is its limit Rb → ∞: the
+ * generator alone, Vth = g0 + A·e^(−t/τ) behind Ri. The input starts at Vth(0+), or at the
+ * design's clamp where the transient check limits the peak to less, and decays to Vth's constant
+ * part with the pulse's τ (inputDecay); the output, capacitance, ESR, inductance, gate lag and Tj
+ * are the requirement's turn-off event. With Rb = 0 (the requirement's default) the battery holds
+ * the input at Vb and the pulse does not move it. A P-FET with its gate at ground conducts
+ * backwards until its lagged |Vgs| falls below threshold; where the output holds it above (the
+ * battery holds the output) it conducts backwards into the pulse throughout and the reverse
+ * current peak is the figure. Other stages: none (a low-side N-FET's gate follows the input, which
+ * the pulse takes below threshold at once: it is the turn-off event's gate-falls case).
  */
 export function pulseBackConduction(
   t: ReviewTurnOff,
   req: Parameters<typeof reviewTurnOff>[1],
   stage: StageModel,
   tjC: number,
+  supply: PulseSupply,
   pulses: readonly TransientPulse[],
   results: readonly TransientResult[],
 ): readonly PulseBackConduction[] {
@@ -62,26 +82,42 @@ export function pulseBackConduction(
     seen.add(r.pulseId);
     const pulse = pulses.find((p) => p.id === r.pulseId);
     if (pulse === undefined) continue;
-    if (pulse.baseV === "supply") {
-      out.push({ pulseId: r.pulseId, outcome: "not-assessed", reason: SUPPLY_RIDING_REASON });
-      continue;
-    }
-    const baseV = pulse.baseV;
+    const riding = pulse.baseV === "supply";
+    const baseV = riding ? supply.nominalV : pulse.baseV;
+    const amplitudeV = r.peakOpenCircuitV - baseV;
+    const th = riding
+      ? twoSourceThevenin({
+          batteryV: supply.nominalV,
+          batteryOhm: supply.resistanceOhm,
+          generatorBaseV: baseV,
+          generatorAmplitudeV: amplitudeV,
+          generatorOhm: pulse.sourceResistanceOhm,
+        })
+      : { finalV: baseV, startV: baseV + amplitudeV, resistanceOhm: pulse.sourceResistanceOhm };
+    const startV = Math.max(th.startV, r.inputPeakV);
     const event: ReviewTurnOff = {
       ...t,
-      inputAfterV: baseV,
-      inputDecay: { startV: r.inputPeakV, tauS: r.tauS },
-      loopResistanceOhm: pulse.sourceResistanceOhm,
+      inputAfterV: th.finalV,
+      inputDecay: { startV, tauS: r.tauS },
+      loopResistanceOhm: th.resistanceOhm,
       tjC,
       repetitive: false,
     };
     const { repetition: _omit, ...once } = event;
-    out.push(figures(r, baseV, pulse.sourceResistanceOhm, reviewTurnOff(once, req, { stage }, undefined)));
+    const e = reviewTurnOff(once, req, { stage }, undefined);
+    out.push(
+      figures(r, { startV, finalV: th.finalV, ohm: th.resistanceOhm }, riding ? supply.resistanceOhm : undefined, e),
+    );
   }
   return out;
 }
 
-function figures(r: TransientResult, baseV: number, ohm: number, e: ReviewTurnOffResult): PulseBackConduction {
+function figures(
+  r: TransientResult,
+  input: { startV: number; finalV: number; ohm: number },
+  batteryOhm: number | undefined,
+  e: ReviewTurnOffResult,
+): PulseBackConduction {
   const x = e.result;
   if (x.outcome === "clamp-below-drive" || x.outcome === "invalid-load-line" || x.outcome === "unstable-loop")
     return { pulseId: r.pulseId, outcome: "no-response", reason: `${x.outcome}: ${x.reason}` };
@@ -89,13 +125,16 @@ function figures(r: TransientResult, baseV: number, ohm: number, e: ReviewTurnOf
   return {
     pulseId: r.pulseId,
     outcome: "assessed",
-    inputPeakV: r.inputPeakV,
-    inputAfterV: baseV,
+    inputPeakV: input.startV,
+    inputAfterV: input.finalV,
     tauS: r.tauS,
-    loopResistanceOhm: ohm,
+    loopResistanceOhm: input.ohm,
+    ...(batteryOhm === undefined ? {} : { batteryResistanceOhm: batteryOhm }),
     eventOutcome: x.outcome,
+    channel: gate === undefined ? "conducts-throughout" : "turned-off",
     ...(gate === undefined ? {} : { channelOffS: gate.channelOffS }),
     peakReverseCurrentA: gate?.peakReverseCurrentA ?? x.peakReverseCurrentA,
+    ...(gate === undefined && x.peakReverseIsLowerBound === true ? { peakReverseIsLowerBound: true as const } : {}),
     chargeLostC: gate?.chargeLostC ?? x.end.chargeLostC,
     outputMinV: x.outputMinV,
   };

@@ -150,7 +150,10 @@ export function reviewRuleInput(
 /**
  * The negative pulses through a P-FET's back-conducting channel (review-pulse-back-conduction.ts)
  * join the turn-off event's figures: loadReverseVMaxV and peakReverseCurrentA are the largest of
- * the event and every pulse; a pulse without a response leaves both unavailable with why.
+ * the event and every pulse (applied with the supply disconnected or riding on it); a pulse without
+ * a response leaves both unavailable with why, and a reverse peak that is only a lower bound (the
+ * channel conducting throughout, the current still rising at the span's end) leaves
+ * peakReverseCurrentA unavailable so that no rule passes on it.
  */
 function pulseMetrics(
   r: CandidateReview,
@@ -158,14 +161,17 @@ function pulseMetrics(
   unavailable: Record<string, string>,
 ): void {
   for (const p of r.pulseBackConduction ?? []) {
-    // A pulse riding on the supply is reported as not assessed (with why) and leaves the figures to the rest.
-    if (p.outcome === "not-assessed") continue;
     if (p.outcome === "no-response") {
       for (const n of ["peakReverseCurrentA", "loadReverseVMaxV"]) {
         unavailable[n] = `pulse ${p.pulseId} through the P-FET: ${p.reason}`;
         delete metrics[n];
       }
       continue;
+    }
+    if (p.peakReverseIsLowerBound === true) {
+      unavailable["peakReverseCurrentA"] =
+        `pulse ${p.pulseId} through the P-FET: the reverse current is still rising at the end of the simulated span: ${p.peakReverseCurrentA.toPrecision(4)} A is only a lower bound of its peak`;
+      delete metrics["peakReverseCurrentA"];
     }
     for (const [n, v] of [
       ["loadReverseVMaxV", Math.max(0, -p.outputMinV)],

@@ -65,10 +65,38 @@ describe("the review's negative pulses through a P-FET candidate's back-conducti
       Math.max(ev.gateTurnOff?.peakReverseCurrentA ?? ev.peakReverseCurrentA, p.peakReverseCurrentA),
     );
     expect(c.metrics["loadReverseVMaxV"]).toBe(Math.max(0, -ev.outputMinV, -p.outputMinV));
-    // A negative pulse riding on the supply is said to be not assessed, with why.
-    const p3a = c.pulseBackConduction?.find((x) => x.pulseId === "iso7637-2-pulse-3a-12v");
-    expect(p3a?.outcome).toBe("not-assessed");
     expect(r.assumptions.some((a) => a.includes("ISO 7637-2 pulse 1") && a.includes("generator's Ri"))).toBe(true);
+  });
+
+  it("pulse 3a riding on the supply: the battery and the generator as one Thevenin source; the battery holds the output", async () => {
+    // Source: Thevenin's theorem (two-source-thevenin.ts, checked against ngspice on the two-source
+    // circuit): Vth(0+) = Vb + A·Rb/(Ri + Rb), Rth = Ri·Rb/(Ri + Rb), with Rb the requirement's
+    // sourceResistanceOhm (30 mOhm in the example) and Ri = 50 ohm, A = −150 V (ISO 7637-2 pulse 3a, 12 V).
+    const { r, c } = await reviewPfet(example.requirement.turnOff);
+    const p = c.pulseBackConduction?.find((x) => x.pulseId === "iso7637-2-pulse-3a-12v");
+    if (p?.outcome !== "assessed") throw new Error(`pulse 3a not assessed: ${JSON.stringify(p)}`);
+    const vb = r.requirement.supplyNominalV;
+    const rb = 0.03;
+    expect(p.batteryResistanceOhm).toBeCloseTo(rb, 12);
+    expect(p.loopResistanceOhm).toBeCloseTo((50 * rb) / (50 + rb), 12);
+    expect(p.inputAfterV).toBeCloseTo(vb, 9);
+    expect(p.inputPeakV).toBeCloseTo(vb - (150 * rb) / (50 + rb), 9);
+    // The battery holds the output: |Vgs| never falls below threshold, the channel conducts throughout.
+    expect(p.channel).toBe("conducts-throughout");
+    expect(p.channelOffS).toBeUndefined();
+    expect(p.outputMinV).toBeGreaterThan(vb - 1);
+    // Its figures reach the rules with the event's and pulse 1's: the largest of them.
+    const p1 = c.pulseBackConduction?.find((x) => x.pulseId === PULSE_1);
+    const ev = c.turnOff?.event;
+    if (p1?.outcome !== "assessed" || ev?.outcome !== "does-not-block") throw new Error("no pulse 1 or event");
+    expect(c.metrics["peakReverseCurrentA"]).toBe(
+      Math.max(
+        ev.gateTurnOff?.peakReverseCurrentA ?? ev.peakReverseCurrentA,
+        p1.peakReverseCurrentA,
+        p.peakReverseCurrentA,
+      ),
+    );
+    expect(r.assumptions.some((a) => a.includes("pulse 3a") && a.includes("Thevenin"))).toBe(true);
   });
 
   it("a large output capacitor: the peak and the channel's turn-off follow the R-C closed form under the decaying input", async () => {
