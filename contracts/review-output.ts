@@ -180,12 +180,9 @@ export const candidateResult = z.object({
           }),
           channelOffS: z.number().optional().meta({ description: "when the P-FET's gate turned its channel off" }),
           peakReverseCurrentA: z.number(),
-          peakReverseIsLowerBound: z
-            .literal(true)
-            .optional()
-            .meta({
-              description: "the current still rising at the end of the simulated span: the peak is a lower bound",
-            }),
+          peakReverseIsLowerBound: z.literal(true).optional().meta({
+            description: "the current still rising at the end of the simulated span: the peak is a lower bound",
+          }),
           chargeLostC: z
             .number()
             .meta({ description: "charge the output capacitor lost until the loop current stopped" }),
