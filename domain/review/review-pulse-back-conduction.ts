@@ -32,7 +32,7 @@ export type PulseBackConduction =
       readonly peakReverseCurrentA: number;
       /** The channel conducting throughout with the current still rising at the span's end: the peak is only a lower bound. */
       readonly peakReverseIsLowerBound?: true;
-      /** Charge the output capacitor lost until the loop current stopped, C. */
+      /** Charge the output capacitor lost until the loop current stopped, C (conducts-throughout: net, at the span's end). */
       readonly chargeLostC: number;
       /** The output's lowest voltage, V: below 0 the load sees reverse voltage. */
       readonly outputMinV: number;
@@ -104,12 +104,38 @@ export function pulseBackConduction(
       repetitive: false,
     };
     const { repetition: _omit, ...once } = event;
-    const e = reviewTurnOff(once, req, { stage }, undefined);
+    const e = reviewTurnOff(
+      once,
+      { ...req, loadMinV: searchFloorV(t.outputV, startV, th.finalV) },
+      { stage },
+      undefined,
+    );
+    if (e.result.outcome === "does-not-block" && e.result.fallsBelowMinS !== undefined) {
+      out.push({ pulseId: r.pulseId, outcome: "no-response", reason: BELOW_FLOOR });
+      continue;
+    }
     out.push(
       figures(r, { startV, finalV: th.finalV, ohm: th.resistanceOhm }, riding ? supply.resistanceOhm : undefined, e),
     );
   }
   return out;
+}
+
+const BELOW_FLOOR =
+  "the output fell below the searched floor (ten times the event's swing below its lowest input) with the channel still on: its lowest point is not found";
+
+/**
+ * The level below which the output's lowest point is searched. The turn-off event ends a falling
+ * input's window where the output crosses the load's minimum (the load has dropped out), but a
+ * pulse's input comes back: a channel that stays on (its lagged |Vgs| above threshold) can pull
+ * the output below 0 V and let it recover, so the window must run the whole span. The floor lies
+ * ten times the event's swing below its lowest input, beyond any overshoot of the loop (at most
+ * the swing itself for an undamped step); an output below it is reported as no response.
+ */
+function searchFloorV(outputV: number, startV: number, finalV: number): number {
+  const lo = Math.min(outputV, startV, finalV);
+  const hi = Math.max(outputV, startV, finalV);
+  return lo - 10 * (hi - lo) - 1;
 }
 
 function figures(

@@ -291,6 +291,36 @@ const pfetUnderPulse1 = (gateResistor: string): Obj =>
       ],
     }),
   );
+/**
+ * The negative 1 kV line-to-line surge of the industrial 24 V class (2 ohm, clamped at 48 V) riding
+ * on a 24 V supply fed over a long field cable (2 ohm: the battery side is no longer stiff) at a
+ * P-FET whose gate goes to ground through the given resistor (30 nC at 10 V), a 10 uF output; the
+ * requirement's turn-off event is damped (1 ohm of loop) into a resistive load.
+ */
+const pfetUnderSupplySurge = (gateResistor: string): Obj =>
+  review(
+    {
+      supply: { class: "industrial-24v" },
+      sourceResistanceOhm: "2 ohm",
+      load: { kind: "resistive", resistanceOhm: "10 ohm" },
+      ambient: { minC: -25, maxC: 60 },
+      inputClamp: { standoffV: 30, clampV: 48, peakCurrentA: 1000, energyJ: 100 },
+      turnOff: {
+        loop: { resistanceOhm: "1 ohm", inductanceH: "1 uH" },
+        capacitor: { capacitanceF: "10 uF", esrOhm: "20 mOhm" },
+        gateLag: { resistanceOhm: gateResistor, gateChargeC: "30 nC", atGateSourceV: "10 V" },
+        loadReverseLimitV: "0.5 V",
+      },
+    },
+    pfet({
+      avalancheCurrentA: "400 A",
+      avalancheEnergyJ: "1 J",
+      rdsOn: [
+        { gateSourceV: 4.5, rdsOnOhm: "19 mOhm" },
+        { gateSourceV: 6, rdsOnOhm: "12 mOhm" },
+      ],
+    }),
+  );
 /** A clamp's junction-to-ambient Foster network (invented): a fast die, a package, and its mounting's slow tail. */
 const clampNetwork = (mountingKPerW: number): Obj[] => [
   { rKPerW: 0.05, tauS: 1e-3 },
@@ -947,6 +977,21 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     rule: "load-reverse-voltage",
     bad: pfetUnderPulse1("100 kOhm"),
     twin: pfetUnderPulse1("100 Ohm"),
+  },
+  {
+    id: "pfet-output-below-zero-under-supply-surge",
+    hazard: "turn-off",
+    // Thevenin (two-source-thevenin.ts): the battery (24 V behind 2 ohm) and the surge generator
+    // (24 V − 1 kV behind 2 ohm) are 24 V − 500 V·e^(−t/τ) behind 1 ohm, clamped at −48 V, τ = 20 us/ln 2
+    // ≈ 29 us. A 100 kOhm / 30 nC (at 10 V) gate lags by 0.3 ms, far longer than the surge: |Vgs| never
+    // falls below threshold, the channel conducts backwards into the surge and the 10 uF output follows
+    // the input to about −17 V before the battery brings it back. A 100 ohm gate (0.3 us) lets go after
+    // about 5 us with the output at −0.35 V.
+    why: "a negative surge riding on a 24 V supply behind a 2 ohm field cable, through a P-FET whose gate goes to ground through 100 kOhm, pulls a 10 uF output to about −17 V (the channel stays on throughout), beyond the 0.5 V the load tolerates; through 100 ohm the channel lets go at about −0.35 V",
+    procedure: "review",
+    rule: "load-reverse-voltage",
+    bad: pfetUnderSupplySurge("100 kOhm"),
+    twin: pfetUnderSupplySurge("100 Ohm"),
   },
   {
     id: "bridge-element-peak-over-ifrm",

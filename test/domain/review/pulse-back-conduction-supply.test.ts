@@ -3,6 +3,8 @@ import { transientStress } from "../../../domain/checks/transient-stress.js";
 import { pulseBackConduction } from "../../../domain/review/review-pulse-back-conduction.js";
 import type { ReviewTurnOff } from "../../../domain/review/review-turn-off.js";
 import type { TransientPulse } from "../../../domain/review/transient-library.js";
+import { toolAvailable } from "../../helpers/external-tool.js";
+import { runNgspice } from "../../helpers/ngspice.js";
 import { relativeError } from "../../helpers/tolerance.js";
 import { pfetStage } from "../../fixtures/reverse-stages.js";
 
@@ -92,4 +94,54 @@ describe("a negative pulse riding on the supply at a P-FET", () => {
     // less severe than the generator alone: the battery holds part of the node
     expect(weak.peakReverseCurrentA).toBeLessThan(run(alone, 0).peakReverseCurrentA);
   });
+
+  // Source: ngspice on the two-source circuit: the battery 12 V behind 2 ohm, the generator an EXP
+  // source from −138 V back to 12 V (τ = 20 us) behind 10 ohm, a P-FET (switch on v(g) > 2 V, body
+  // diode) whose gate lags the output by 100 kOhm × 3 nF = 0.3 ms, 1 uF and a 1 A load.
+  const hasSpice = toolAvailable("ngspice");
+  it.skipIf(!hasSpice)(
+    "a slow gate: the channel conducts throughout, the output dips below 0 V and recovers; its lowest point within 1 % of ngspice",
+    () => {
+      const slow = pulseBackConduction(
+        { ...event, gateLagS: 3e-4 },
+        req,
+        pfetStage,
+        25,
+        { nominalV: VB, resistanceOhm: 2 },
+        [riding],
+        [transientStress(pfetStage, riding, ctx)],
+      )[0];
+      if (slow?.outcome !== "assessed") throw new Error(JSON.stringify(slow));
+      expect(slow.channel).toBe("conducts-throughout");
+      expect(slow.outputMinV).toBeLessThan(0);
+      const rows = runNgspice(`pfet slow gate two sources
+Vb bat 0 DC 12
+Rb bat in 2
+Vg gen 0 EXP(-138 12 0 20u 1 1)
+Ri gen in 10
+L1 in b 1n IC=1
+S1 b out g 0 smod
+D1 b out dbody
+C1 out 0 1u IC=12
+I1 out 0 DC 1
+E1 e 0 out 0 1
+Rg e g 100k
+Cg g 0 3n IC=12
+.model smod SW(VT=2 VH=0 RON=0.005 ROFF=1e9)
+.model dbody D(BV=60 IBV=1m N=1 RS=1m)
+.tran 2n 200u UIC
+.control
+set wr_singlescale
+run
+wrdata out.txt v(out) v(g) l1#branch
+quit
+.endc
+.end
+`);
+      const lowest = (xs: readonly number[]) => xs.reduce((a, b) => Math.min(a, b), Number.POSITIVE_INFINITY);
+      expect(lowest(rows.map((row) => row[2] ?? 0))).toBeGreaterThan(2);
+      expect(relativeError(slow.outputMinV, lowest(rows.map((row) => row[1] ?? 0)))).toBeLessThan(0.01);
+      expect(relativeError(slow.peakReverseCurrentA, -lowest(rows.map((row) => row[3] ?? 0)))).toBeLessThan(0.01);
+    },
+  );
 });
