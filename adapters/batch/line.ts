@@ -72,19 +72,15 @@ export function processLineNow(
   } catch (e) {
     return fail(null, { code: "malformed-line", message: `not JSON: ${(e as Error).message}`, issues: [] });
   }
-  let line: { id?: string | number | undefined; procedure: string; input?: unknown };
-  if (isBatchLine(parsedJson)) line = parsedJson;
-  else {
-    const checked = batchLine.safeParse(parsedJson); // a bad line: zod names what is wrong
-    if (!checked.success) {
-      const id =
-        typeof parsedJson === "object" && parsedJson !== null && "id" in parsedJson
-          ? idOf((parsedJson as { id: unknown }).id)
-          : null;
-      return fail(id, errorBodyOf(checked.error));
-    }
-    line = checked.data;
+  const checked = batchLine.safeParse(parsedJson); // a bad line: zod names what is wrong
+  if (!checked.success) {
+    const id =
+      typeof parsedJson === "object" && parsedJson !== null && "id" in parsedJson
+        ? idOf((parsedJson as { id: unknown }).id)
+        : null;
+    return fail(id, errorBodyOf(checked.error));
   }
+  const line = checked.data;
   const id = line.id ?? null;
   const invoke = invoker(line.procedure);
   if (invoke === undefined) {
@@ -107,24 +103,6 @@ export function processLineNow(
     );
   }
   return { id, line: lineNo, ok: true, result };
-}
-
-/**
- * What `batchLine` accepts, checked by hand for the common, valid line (zod's object parse costs
- * more than the rest of the line's bookkeeping): an object (not an array), `procedure` a string of
- * 1–200 characters, `input` present (any value), `id` absent, a string of at most 200 characters or a finite number (`1e400`
- * parses to Infinity, which zod refuses), and no other key (`batchLine` is strict). Anything else goes to `batchLine.safeParse`, so a bad line's error is zod's.
- * test/adapters/batch.test.ts checks the two agree.
- */
-export function isBatchLine(v: unknown): v is { id?: string | number; procedure: string; input: unknown } {
-  if (typeof v !== "object" || v === null || Array.isArray(v)) return false;
-  const { id, procedure, input } = v as { id?: unknown; procedure?: unknown; input?: unknown };
-  if (input === undefined) return false; // zod 4: a z.unknown() key must be there
-  if (typeof procedure !== "string" || procedure.length < 1 || procedure.length > 200) return false;
-  if (Object.keys(v).length !== (id === undefined ? 2 : 3)) return false;
-  return (
-    id === undefined || (typeof id === "number" && Number.isFinite(id)) || (typeof id === "string" && id.length <= 200)
-  );
 }
 
 function idOf(v: unknown): string | number | null {
