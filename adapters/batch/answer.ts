@@ -1,7 +1,7 @@
 import type { Invoke } from "../../api/procedure-registry.js";
 import type { Format } from "./formats.js";
 import { linesOf } from "./jsonl-chunk.js";
-import { type BatchOutputLine, isBlankLine, processLineNow } from "./line.js";
+import { type BatchOutputLine, isBlankLine, processLine } from "./line.js";
 
 /** A shard of the input: record n (1-based) belongs to shard (n - 1) mod count. */
 export interface Shard {
@@ -119,7 +119,7 @@ export function withReportFlag(
 }
 
 /**
- * Answer a chunk: each of its lines in the shard through `processLineNow` (blank lines skipped and
+ * Answer a chunk: each of its lines in the shard through `processLine` (blank lines skipped and
  * counted), written out with `line` (the output format) and encoded as UTF-8 into one buffer. The
  * same function runs in the worker threads and in the main thread, so both write the same bytes.
  * With `yieldEvery` > 0 it lets the event loop run (setImmediate) after every that many records.
@@ -150,10 +150,7 @@ export async function answerChunk(
         continue;
       }
       if (c.reportFlags !== undefined) ({ raw, procedure } = withReportFlag(raw, c.reportFlags));
-      const now = processLineNow(raw, lineNo, invoker);
-      // a synchronous answer without a turn of the microtask queue: no measurable effect on Node 22
-      // (row `batch-node22-now`); Invoke.now stays while /v1 uses it too (docs/performance.md)
-      o = now instanceof Promise ? await now : now;
+      o = await processLine(raw, lineNo, invoker);
     }
     if (o.ok) ok += 1;
     lines += 1;

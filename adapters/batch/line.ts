@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { errorBodyOf } from "../../api/error-body.js";
-import { type Invoke, isThenable } from "../../api/procedure-registry.js";
+import type { Invoke } from "../../api/procedure-registry.js";
 import type { ErrorBody } from "../../contracts/outcome.js";
 
 /** One input line: `{ "id"?: string|number, "procedure": "<router path>", "input": {...} }`. */
@@ -45,19 +45,6 @@ export async function processLine(
   lineNo: number,
   invoker: (path: string) => Invoke | undefined,
 ): Promise<BatchOutputLine> {
-  return processLineNow(raw, lineNo, invoker);
-}
-
-/**
- * As {@link processLine}, answered in this turn where the procedure answers synchronously (its
- * `Invoke.now`), else a promise of the record; never throws or rejects. The batch engine answers
- * its records with this and awaits only the promises (answer.ts).
- */
-export function processLineNow(
-  raw: string,
-  lineNo: number,
-  invoker: (path: string) => Invoke | undefined,
-): BatchOutputLine | Promise<BatchOutputLine> {
   let parsedJson: unknown;
   const fail = (id: string | number | null, error: ErrorBody): BatchOutputLine => ({
     id,
@@ -90,19 +77,11 @@ export function processLineNow(
       issues: [{ path: ["procedure"], message: "unknown procedure" }],
     });
   }
-  let result: unknown;
   try {
-    result = invoke.now(line.input);
+    return { id, line: lineNo, ok: true, result: await invoke(line.input) };
   } catch (e) {
     return fail(id, errorBodyOf(e));
   }
-  if (isThenable(result)) {
-    return Promise.resolve(result).then(
-      (r): BatchOutputLine => ({ id, line: lineNo, ok: true, result: r }),
-      (e: unknown) => fail(id, errorBodyOf(e)),
-    );
-  }
-  return { id, line: lineNo, ok: true, result };
 }
 
 function idOf(v: unknown): string | number | null {

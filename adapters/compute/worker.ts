@@ -9,14 +9,7 @@ import type { CatalogData } from "./pool.js";
 import { recordSignerOf } from "../record/signing-key.js";
 import { type ReportAnswer, type ReportTask, reportAnswer } from "./report-call.js";
 import { LIMITS } from "../../contracts/limits.js";
-import {
-  answerTooLarge,
-  boundedJsonAnswers,
-  type ItemJson,
-  type ItemResult,
-  callOneJsonNow,
-  callOneNow,
-} from "./call.js";
+import { answerTooLarge, boundedJsonAnswers, type ItemJson, type ItemResult, callOne, callOneJson } from "./call.js";
 
 /**
  * A worker thread of the compute pool (piscina): the same router, in this thread, with the catalog
@@ -56,8 +49,7 @@ export async function call({
   if (invoke === undefined) throw new Error(`no procedure ${path}`);
   const out: ItemResult[] = [];
   for (const input of inputs) {
-    const a = callOneNow(invoke, input);
-    const it = a instanceof Promise ? await a : a;
+    const it = await callOne(invoke, input);
     const chars = bounded === true && it.ok ? (JSON.stringify(it.result)?.length ?? 0) : 0;
     out.push(chars > LIMITS.maxAnswerBytes ? answerTooLarge(chars) : it);
   }
@@ -81,7 +73,7 @@ export async function report(task: ReportTask): Promise<ReportAnswer> {
 export async function callJson({ path, inputs }: { path: string; inputs: unknown[] }): Promise<ItemJson[]> {
   const invoke = invoker(path);
   if (invoke === undefined) throw new Error(`no procedure ${path}`);
-  return boundedJsonAnswers(inputs, (input) => callOneJsonNow(invoke, input));
+  return boundedJsonAnswers(inputs, (input) => callOneJson(invoke, input));
 }
 
 /**
