@@ -52,18 +52,10 @@ export function procedureEntry(path: string): ProcedureEntry | undefined {
   return procedureEntries().find((e) => e.path === path);
 }
 
-/**
- * A procedure called in process. `now` is the same call answered in this turn of the event loop
- * where the handler is synchronous (every procedure's today), or a promise where it is not; it
- * throws where the call would reject. A batch answers a record with `now` and skips the promise
- * and microtask turn a call costs.
- */
-export interface Invoke {
-  (input: unknown): Promise<unknown>;
-  readonly now: (input: unknown) => unknown;
-}
+/** A procedure called in process: a promise of its result, rejected where the call fails. */
+export type Invoke = (input: unknown) => Promise<unknown>;
 
-/** A promise (or any thenable): what `Invoke.now` returns where a procedure is asynchronous. */
+/** A promise (or any thenable): what a call returns where its handler is asynchronous. */
 export const isThenable = (v: unknown): v is PromiseLike<unknown> =>
   typeof v === "object" && v !== null && typeof (v as { then?: unknown }).then === "function";
 
@@ -159,11 +151,10 @@ export function procedureInvoker(ctx: Context): (path: string) => Invoke | undef
     if (invoke === undefined) {
       const d = definitions().get(path);
       if (d === undefined) return undefined;
-      const now =
+      invoke =
         ctx.observe === undefined
-          ? (raw: unknown) => callNow(d, ctx, raw)
-          : (raw: unknown) => observed(ctx, path, () => callNow(d, ctx, raw));
-      invoke = Object.assign(async (raw: unknown) => now(raw), { now });
+          ? async (raw: unknown) => callNow(d, ctx, raw)
+          : async (raw: unknown) => observed(ctx, path, () => callNow(d, ctx, raw));
       invokers.set(path, invoke);
     }
     return invoke;

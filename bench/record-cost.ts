@@ -12,7 +12,7 @@ import { loadavg } from "node:os";
 import { join } from "node:path";
 import { loadCatalogFile } from "../adapters/catalog/file-catalog.js";
 import { DEMO_CATALOG, projectRoot } from "../adapters/project-root.js";
-import { procedureInvoker } from "../api/procedure-registry.js";
+import { callProcedure } from "../api/procedure-registry.js";
 import { recordCall, sha256Of, withoutRecord } from "../api/record/verdict-record.js";
 import { operatingPointInput } from "../contracts/operating-point.js";
 import { canonicalJson } from "../domain/rules/rule-set-hash.js";
@@ -25,10 +25,8 @@ const example = JSON.parse(
 ) as { input: unknown };
 const sent = example.input;
 const ctx = { catalog: loadCatalogFile(DEMO_CATALOG()) };
-const invoke = procedureInvoker(ctx)("operatingPoint");
-if (invoke === undefined) throw new Error("no operatingPoint procedure");
 const understood = operatingPointInput.parse(sent);
-const answer = invoke.now(sent) as Record<string, unknown>;
+const answer = callProcedure("operatingPoint", ctx, sent) as Record<string, unknown>;
 const result = withoutRecord(answer);
 const part = ctx.catalog.find("demo-ideal-diode-60v-3mohm");
 
@@ -71,7 +69,7 @@ const steps: [string, () => unknown][] = [
     "the seal: the whole record added to a result",
     () => recordCall(ctx).seal("operatingPoint", sent, understood, result, []),
   ],
-  ["operatingPoint call with its record (invoke.now)", () => invoke.now(sent)],
+  ["operatingPoint call with its record (callProcedure)", () => callProcedure("operatingPoint", ctx, sent)],
 ];
 
 const load0 = loadavg().map((x) => x.toFixed(2));

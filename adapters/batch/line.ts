@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { errorBodyOf } from "../../api/error-body.js";
-import { type Invoke, isThenable } from "../../api/procedure-registry.js";
+import type { Invoke } from "../../api/procedure-registry.js";
 import type { ErrorBody } from "../../contracts/outcome.js";
 
 /** One input line: `{ "id"?: string|number, "procedure": "<router path>", "input": {...} }`. */
@@ -45,19 +45,6 @@ export async function processLine(
   lineNo: number,
   invoker: (path: string) => Invoke | undefined,
 ): Promise<BatchOutputLine> {
-  return processLineNow(raw, lineNo, invoker);
-}
-
-/**
- * As {@link processLine}, answered in this turn where the procedure answers synchronously (its
- * `Invoke.now`), else a promise of the record; never throws or rejects. The batch engine answers
- * its records with this and awaits only the promises (answer.ts).
- */
-export function processLineNow(
-  raw: string,
-  lineNo: number,
-  invoker: (path: string) => Invoke | undefined,
-): BatchOutputLine | Promise<BatchOutputLine> {
   let parsedJson: unknown;
   const fail = (id: string | number | null, error: ErrorBody): BatchOutputLine => ({
     id,
@@ -72,19 +59,15 @@ export function processLineNow(
   } catch (e) {
     return fail(null, { code: "malformed-line", message: `not JSON: ${(e as Error).message}`, issues: [] });
   }
-  let line: { id?: string | number | undefined; procedure: string; input?: unknown };
-  if (isBatchLine(parsedJson)) line = parsedJson;
-  else {
-    const checked = batchLine.safeParse(parsedJson); // a bad line: zod names what is wrong
-    if (!checked.success) {
-      const id =
-        typeof parsedJson === "object" && parsedJson !== null && "id" in parsedJson
-          ? idOf((parsedJson as { id: unknown }).id)
-          : null;
-      return fail(id, errorBodyOf(checked.error));
-    }
-    line = checked.data;
+  const checked = batchLine.safeParse(parsedJson); // a bad line: zod names what is wrong
+  if (!checked.success) {
+    const id =
+      typeof parsedJson === "object" && parsedJson !== null && "id" in parsedJson
+        ? idOf((parsedJson as { id: unknown }).id)
+        : null;
+    return fail(id, errorBodyOf(checked.error));
   }
+  const line = checked.data;
   const id = line.id ?? null;
   const invoke = invoker(line.procedure);
   if (invoke === undefined) {
@@ -94,37 +77,11 @@ export function processLineNow(
       issues: [{ path: ["procedure"], message: "unknown procedure" }],
     });
   }
-  let result: unknown;
   try {
-    result = invoke.now(line.input);
+    return { id, line: lineNo, ok: true, result: await invoke(line.input) };
   } catch (e) {
     return fail(id, errorBodyOf(e));
   }
-  if (isThenable(result)) {
-    return Promise.resolve(result).then(
-      (r): BatchOutputLine => ({ id, line: lineNo, ok: true, result: r }),
-      (e: unknown) => fail(id, errorBodyOf(e)),
-    );
-  }
-  return { id, line: lineNo, ok: true, result };
-}
-
-/**
- * What `batchLine` accepts, checked by hand for the common, valid line (zod's object parse costs
- * more than the rest of the line's bookkeeping): an object (not an array), `procedure` a string of
- * 1–200 characters, `input` present (any value), `id` absent, a string of at most 200 characters or a finite number (`1e400`
- * parses to Infinity, which zod refuses), and no other key (`batchLine` is strict). Anything else goes to `batchLine.safeParse`, so a bad line's error is zod's.
- * test/adapters/batch.test.ts checks the two agree.
- */
-export function isBatchLine(v: unknown): v is { id?: string | number; procedure: string; input: unknown } {
-  if (typeof v !== "object" || v === null || Array.isArray(v)) return false;
-  const { id, procedure, input } = v as { id?: unknown; procedure?: unknown; input?: unknown };
-  if (input === undefined) return false; // zod 4: a z.unknown() key must be there
-  if (typeof procedure !== "string" || procedure.length < 1 || procedure.length > 200) return false;
-  if (Object.keys(v).length !== (id === undefined ? 2 : 3)) return false;
-  return (
-    id === undefined || (typeof id === "number" && Number.isFinite(id)) || (typeof id === "string" && id.length <= 200)
-  );
 }
 
 function idOf(v: unknown): string | number | null {

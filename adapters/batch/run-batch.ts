@@ -5,7 +5,7 @@ import { streamBatch } from "./engine.js";
 import type { BatchCounts } from "./line.js";
 
 export { procedureInvoker };
-export { type BatchCounts, type BatchOutputLine, batchLine, isBatchLine, processLine } from "./line.js";
+export { type BatchCounts, type BatchOutputLine, batchLine, processLine } from "./line.js";
 
 /** JSON Lines in → one result or error line out per input line, in order, same id: the batch engine in this thread, written to a stream. */
 export async function runBatch(input: Readable, output: Writable, ctx: Context): Promise<BatchCounts> {

@@ -1,5 +1,5 @@
 import { errorBodyOf } from "../../api/error-body.js";
-import { httpStatusOf, type Invoke, isThenable } from "../../api/procedure-registry.js";
+import { httpStatusOf, type Invoke } from "../../api/procedure-registry.js";
 import { LIMITS } from "../../contracts/limits.js";
 import type { ErrorBody } from "../../contracts/outcome.js";
 
@@ -23,31 +23,14 @@ export function outcomeLabel(result: unknown): string {
   return typeof o === "string" && OUTCOME.test(o) ? o : "ok";
 }
 
-/** Call one procedure of the in-process router; never throws. */
+/** Call one procedure of the in-process router; never rejects. */
 export async function callOne(invoke: Invoke, input: unknown): Promise<ItemResult> {
-  return callOneNow(invoke, input);
-}
-
-/**
- * As {@link callOne}, answered in the same turn where the procedure answers synchronously
- * (`Invoke.now`), else a promise; never throws or rejects. The compute threads answer a bulk
- * request's items with it (no promise or microtask turn per item).
- */
-export function callOneNow(invoke: Invoke, input: unknown): ItemResult | Promise<ItemResult> {
   const t0 = performance.now();
-  let answer: unknown;
   try {
-    answer = invoke.now(input);
+    return succeeded(await invoke(input), t0);
   } catch (e) {
     return failed(e, t0);
   }
-  if (isThenable(answer)) {
-    return Promise.resolve(answer).then(
-      (result) => succeeded(result, t0),
-      (e: unknown) => failed(e, t0),
-    );
-  }
-  return succeeded(answer, t0);
 }
 
 function succeeded(result: unknown, t0: number): ItemResult {
@@ -79,13 +62,7 @@ export type ItemJson =
 
 /** {@link callOne}, the result written out as JSON (`JSON.stringify`, so the same bytes). */
 export async function callOneJson(invoke: Invoke, input: unknown): Promise<ItemJson> {
-  return asJson(await callOneNow(invoke, input));
-}
-
-/** {@link callOneNow}, the result written out as JSON. */
-export function callOneJsonNow(invoke: Invoke, input: unknown): ItemJson | Promise<ItemJson> {
-  const it = callOneNow(invoke, input);
-  return it instanceof Promise ? it.then(asJson) : asJson(it);
+  return asJson(await callOne(invoke, input));
 }
 
 function asJson(it: ItemResult): ItemJson {
@@ -110,13 +87,12 @@ export function answerTooLarge(chars: number): Extract<ItemResult, { ok: false }
  */
 export async function boundedJsonAnswers(
   inputs: readonly unknown[],
-  answer: (input: unknown) => ItemJson | Promise<ItemJson>,
+  answer: (input: unknown) => Promise<ItemJson>,
 ): Promise<ItemJson[]> {
   const out: ItemJson[] = [];
   let chars = 0;
   for (const input of inputs) {
-    const a = answer(input);
-    const it = a instanceof Promise ? await a : a;
+    const it = await answer(input);
     if (it.ok) chars += it.json?.length ?? 0;
     if (chars > LIMITS.maxAnswerBytes) {
       out.push(answerTooLarge(chars));

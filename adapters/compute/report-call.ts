@@ -1,7 +1,7 @@
 import type { Invoke } from "../../api/procedure-registry.js";
 import { LIMITS } from "../../contracts/limits.js";
 import { type ReportFormat, reportBody } from "../report/report-body.js";
-import { answerTooLarge, callOneNow, type ItemResult } from "./call.js";
+import { answerTooLarge, callOne, type ItemResult } from "./call.js";
 
 /** A report request: the procedure, its input (chart data asked for), the format and the report's id. */
 export interface ReportTask {
@@ -20,8 +20,7 @@ export type ReportAnswer = { readonly ok: true; readonly text: string } | Extrac
  * 422 `answer-too-large`. Never throws.
  */
 export async function reportAnswer(invoke: Invoke, task: ReportTask): Promise<ReportAnswer> {
-  const a = callOneNow(invoke, task.input);
-  const it = a instanceof Promise ? await a : a;
+  const it = await callOne(invoke, task.input);
   if (!it.ok) return it;
   const body = reportBody(task.procedure, it.result, task.format, task.id);
   if (!body.ok) return { ok: false, status: 422, error: body.error, outcome: body.error.code, seconds: it.seconds };

@@ -4,7 +4,7 @@ import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
 import { main } from "../../adapters/batch/cli.js";
 import { loadRuleSetStore } from "../../adapters/rulesets/registry.js";
-import { procedureInvoker } from "../../api/procedure-registry.js";
+import { callProcedure } from "../../api/procedure-registry.js";
 import { demoContext } from "../helpers/app.js";
 
 const root = mkdtempSync(join(tmpdir(), "backstop-verify-"));
@@ -59,10 +59,15 @@ describe("backstop verify over a 1,000-record file", () => {
   // tjWorstC = 20 + i/8 °C (exact in binary): 20 … 144.875
   const tj = (i: number) => 20 + i / 8;
   const v1 = ruleSetDir("v1", "1.0.0", 120);
-  const invoke = procedureInvoker({ ...demoContext(), ruleSets: loadRuleSetStore(v1) })("rules.evaluate");
+  const ctx1 = { ...demoContext(), ruleSets: loadRuleSetStore(v1) };
   const lines = Array.from({ length: 1000 }, (_, i) => {
     const input = { ruleSet: "acme", metrics: { tjWorstC: tj(i), lossWorstW: 1 }, part: {} };
-    return JSON.stringify({ id: `design-${i}`, procedure: "rules.evaluate", input, result: invoke?.now(input) });
+    return JSON.stringify({
+      id: `design-${i}`,
+      procedure: "rules.evaluate",
+      input,
+      result: callProcedure("rules.evaluate", ctx1, input),
+    });
   });
   const records = join(root, "records.jsonl");
   writeFileSync(records, `${lines.join("\n")}\n`);

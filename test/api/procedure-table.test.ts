@@ -106,7 +106,7 @@ describe("the procedure table", () => {
 
   it("a bad input is BAD_REQUEST (400) with the zod error as its cause; a handler's own throw is INTERNAL_SERVER_ERROR (500) with no message of its own", async () => {
     const invoke = procedureInvoker(demoContext())("operatingPoint");
-    const bad = await answer(() => invoke?.now(42));
+    const bad = await answer(() => invoke?.(42));
     expect(bad).toMatchObject({
       name: "TRPCError",
       code: "BAD_REQUEST",
@@ -124,7 +124,7 @@ describe("the procedure table", () => {
         stamp: { id: "broken", hash: "sha256:0", partCount: 0 },
       },
     })("operatingPoint");
-    const seen = await answer(() => broken?.now(base.find((c) => c.procedure === "operatingPoint")?.input));
+    const seen = await answer(() => broken?.(base.find((c) => c.procedure === "operatingPoint")?.input));
     expect(seen).toMatchObject({
       name: "TRPCError",
       code: "INTERNAL_SERVER_ERROR",
@@ -133,21 +133,5 @@ describe("the procedure table", () => {
       body: { code: "internal", issues: [] },
     });
     expect(JSON.stringify(seen)).not.toContain("disk on fire");
-  });
-
-  it("now: answers in the same turn (no promise) for every procedure, with the same results and errors as the promise form", async () => {
-    const invoker = procedureInvoker(demoContext()); // no observer: the batch's context
-    for (const c of cases) {
-      const invoke = invoker(c.procedure);
-      if (invoke === undefined) throw new Error(`no ${c.procedure}`);
-      let thenable = false;
-      const viaNow = await answer(() => {
-        const r = invoke.now(c.input); // throws here, not later, for a bad input
-        thenable = typeof (r as { then?: unknown } | null)?.then === "function";
-        return r;
-      });
-      expect(viaNow, c.id).toEqual(await answer(() => invoke(c.input)));
-      expect(thenable, c.id).toBe(false); // every procedure's contract and handler are synchronous today
-    }
   });
 });

@@ -6,7 +6,7 @@ import { describe, expect, it } from "vitest";
 import { createApp } from "../../../adapters/http/app.js";
 import { createLogger } from "../../../adapters/logging/logger.js";
 import { keyIdOf, recordKeyFromEnv, recordSignerOf } from "../../../adapters/record/signing-key.js";
-import { procedureInvoker } from "../../../api/procedure-registry.js";
+import { callProcedure, procedureInvoker } from "../../../api/procedure-registry.js";
 import { canonicalJson } from "../../../domain/rules/rule-set-hash.js";
 import { verdictRecord } from "../../../contracts/record.js";
 import type { VerifyOutput } from "../../../contracts/verify.js";
@@ -59,8 +59,7 @@ describe("signed verdict records", () => {
   const pem = pemOf();
   const signer = recordSignerOf(pem);
   const ctx = { ...demoContext(), recordSigner: signer };
-  const invoke = procedureInvoker(ctx);
-  const result = invoke("operatingPoint")?.now(example.input) as Rec;
+  const result = callProcedure("operatingPoint", ctx, example.input) as Rec;
   const record = verdictRecord.parse(result.record);
   const verifyOne = async (c: typeof ctx | ReturnType<typeof demoContext>, r: Rec, input: unknown = example.input) => {
     const verify = procedureInvoker(c)("verify");
@@ -81,7 +80,7 @@ describe("signed verdict records", () => {
     );
     expect(ok).toBe(true);
     // deterministic: the same call signs the same bytes
-    expect(JSON.stringify(invoke("operatingPoint")?.now(example.input))).toBe(JSON.stringify(result));
+    expect(JSON.stringify(callProcedure("operatingPoint", ctx, example.input))).toBe(JSON.stringify(result));
   });
 
   it("round trip: verify says valid; a changed signature or a changed record fails; another key is unknown", async () => {
@@ -98,7 +97,7 @@ describe("signed verdict records", () => {
   });
 
   it("an unsigned record checked by a service with a key: said unsigned, and checked by its digests", async () => {
-    const unsigned = procedureInvoker(demoContext())("operatingPoint")?.now(example.input) as Rec;
+    const unsigned = callProcedure("operatingPoint", demoContext(), example.input) as Rec;
     expect(await verifyOne(ctx, unsigned)).toMatchObject({ status: "unchanged", signature: "unsigned" });
   });
 

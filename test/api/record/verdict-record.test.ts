@@ -4,7 +4,8 @@ import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { catalogOf } from "../../../adapters/catalog/file-catalog.js";
 import { projectRoot } from "../../../adapters/project-root.js";
-import { procedureEntries, procedureInvoker } from "../../../api/procedure-registry.js";
+import type { Context } from "../../../api/context.js";
+import { callProcedure, procedureEntries } from "../../../api/procedure-registry.js";
 import { verdictRecord } from "../../../contracts/record.js";
 import type { VerifyOutput } from "../../../contracts/verify.js";
 import { demoContext } from "../../helpers/app.js";
@@ -28,11 +29,14 @@ const examples = readdirSync(dir)
   .filter((f) => f.endsWith(".json"))
   .map((f) => JSON.parse(readFileSync(join(dir, f), "utf8")) as { id: string; procedure: string; input: unknown });
 type Rec = Record<string, unknown>;
-type Invoker = ReturnType<typeof procedureInvoker>;
+type Invoker = (procedure: string, input: unknown) => unknown;
+// every handler is synchronous: callProcedure answers in this turn
+const procedureInvoker =
+  (ctx: Context): Invoker =>
+  (procedure, input) =>
+    callProcedure(procedure, ctx, input);
 function call(invoker: Invoker, procedure: string, input: unknown): Rec {
-  const invoke = invoker(procedure);
-  if (invoke === undefined) throw new Error(`no procedure ${procedure}`);
-  return invoke.now(input) as Rec;
+  return invoker(procedure, input) as Rec;
 }
 
 describe("verdict record on every analysis result", () => {

@@ -3,7 +3,7 @@ import { join } from "node:path";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { projectRoot } from "../../../adapters/project-root.js";
-import { procedureInvoker } from "../../../api/procedure-registry.js";
+import { callProcedure } from "../../../api/procedure-registry.js";
 import { canonicalJson } from "../../../domain/rules/rule-set-hash.js";
 import { demoContext } from "../../helpers/app.js";
 
@@ -58,10 +58,10 @@ describe("canonicalJson (one pass) writes the text its former map/join definitio
     const files = [...requests, ...jsonFiles("examples/catalog"), ...jsonFiles("rulesets")];
     expect(files.map((f) => f.name)).toContain("rulesets/default.json");
     for (const f of files) expect(canonicalJson(f.value), f.name).toBe(former(f.value));
-    const invoker = procedureInvoker(demoContext());
+    const ctx = demoContext();
     for (const { name, value } of requests) {
       const r = value as { procedure: string; input: unknown };
-      const answer = invoker(r.procedure)?.now(r.input);
+      const answer = callProcedure(r.procedure, ctx, r.input);
       expect(answer, name).toBeTypeOf("object");
       expect(canonicalJson(answer), name).toBe(former(answer));
     }
