@@ -52,6 +52,11 @@ export const review = defineProcedure({
           `${path.join(".")}: mosfet.thresholdTempCoVPerK not given: the gate threshold is held at its 25 °C value at every corner (a power MOSFET's falls about 2–7 mV/K, memory; it is highest at the coldest ambient ${req.model.ambientMinC} °C): give it or thresholdAtTj`,
         );
       }
+      if (stage.model.kind === "integrated-switch" && stage.model.thermalShutdownC !== undefined) {
+        assumptions.push(
+          `${path.join(".")}: a steady corner at or above the ${stage.model.thermalShutdownC} °C thermal shutdown is the switch turned off and the load unpowered (thermalShutdownInService), the part taken as latched off: the contract states no auto-retry`,
+        );
+      }
       const transientThermal = transientThermalOf(
         c.transientThermal,
         stage.model,

@@ -890,6 +890,21 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     ),
   },
   {
+    id: "switch-thermal-shutdown-in-service",
+    hazard: "thermal",
+    why: "an integrated switch rated to 175 °C with a 150 °C thermal shutdown carrying 5 A through 50 K/W: its hot corners settle near 158 °C (Tj = Ta + Rth·P, 85 °C + 50 K/W × about 1.47 W), inside the rating but past the shutdown, so the switch turns off and the load loses its supply in service (twin: 40 K/W, about 137 °C)",
+    procedure: "review",
+    rule: "switch-thermal-shutdown-in-service",
+    bad: review(
+      { ...req12, load: { kind: "constant-current", currentA: 5 } },
+      integratedSwitch({ tjMaxC: 175, thermalShutdownC: 150, thermal: { kind: "junction-ambient", rthJaKPerW: 50 } }),
+    ),
+    twin: review(
+      { ...req12, load: { kind: "constant-current", currentA: 5 } },
+      integratedSwitch({ tjMaxC: 175, thermalShutdownC: 150, thermal: { kind: "junction-ambient", rthJaKPerW: 40 } }),
+    ),
+  },
+  {
     id: "load-dump-reaches-the-load",
     hazard: "load",
     why: "a switch without an overvoltage cut-off passes the 35 V suppressed load dump to a load rated 32 V (twin: a 30 V cut-off opening in 10 us lets 30.1 V through)",
