@@ -10,7 +10,7 @@ import { type CandidateVerdict, rankCandidates } from "../../domain/review/ranki
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { formatQuantity } from "../../domain/rules/quantity-text.js";
 import type { RuleSetResult } from "../../domain/rules/rule-model.js";
-import { datasheetMaxScale, thresholdMinShiftV, worstTurnOffTiming } from "../map/datasheet-max.js";
+import { datasheetMaxScale, switchTolerance, thresholdMinShiftV, worstTurnOffTiming } from "../map/datasheet-max.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { controllerTiming } from "../map/reverse-inputs.js";
 import { turnOffEventFields } from "../map/turn-off-output.js";
@@ -81,6 +81,12 @@ export const review = defineProcedure({
         [...path.slice(0, 2), "datasheetMax"],
         assumptions,
       );
+      const switchTol = switchTolerance(
+        c.datasheetMax,
+        stage.model,
+        [...path.slice(0, 2), "datasheetMax"],
+        assumptions,
+      );
       const turnOffThresholdShiftV = c.datasheetMax
         ? thresholdMinShiftV(c.datasheetMax, stage.model, [...path.slice(0, 2), "datasheetMax"])
         : 0;
@@ -95,6 +101,7 @@ export const review = defineProcedure({
         ...(turnOffController ? { turnOffController } : {}),
         ...(turnOffThresholdShiftV === 0 ? {} : { turnOffThresholdShiftV }),
         ...(input.curves ? { turnOffWaveform: true } : {}),
+        ...(switchTol ? { switchTolerance: switchTol } : {}),
       });
       const ruleInput = reviewRuleInput(stage.model, req.model, flags, r);
       const rules = evaluateRuleSet(set, ruleInput);

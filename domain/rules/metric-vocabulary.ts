@@ -377,7 +377,8 @@ export const METRICS: readonly MetricDef[] = [
     name: "overvoltageCutoffV",
     type: "number",
     unit: "V",
-    meaning: "input voltage above which an integrated switch opens (its overvoltage cut-off threshold)",
+    meaning:
+      "input voltage above which an integrated switch opens (its overvoltage cut-off threshold), at its lowest: datasheetMax.overvoltageCutoffMinV, else the typical",
     stageKinds: ["integrated-switch"],
     providedBy: `${STAGE} (overvoltageCutoffV), in the review`,
   },
@@ -394,7 +395,7 @@ export const METRICS: readonly MetricDef[] = [
     name: "switchCurrentLimitA",
     type: "number",
     unit: "A",
-    meaning: "current an integrated switch limits to",
+    meaning: "current an integrated switch limits to, at its lowest: datasheetMax.currentLimitMinA, else the typical",
     stageKinds: ["integrated-switch"],
     providedBy: `${STAGE} (currentLimitA), in the review`,
   },
@@ -412,7 +413,7 @@ export const METRICS: readonly MetricDef[] = [
     type: "number",
     unit: "V",
     meaning:
-      "highest voltage the load sees: the highest steady supply, the steady overvoltages and every positive pulse after the design's clamp, each cut to an integrated switch's overvoltage threshold plus what the input rises in its response time",
+      "highest voltage the load sees: the highest steady supply, the steady overvoltages and every positive pulse after the design's clamp, each cut to an integrated switch's overvoltage threshold (at its highest: datasheetMax.overvoltageCutoffMaxV, else the typical) plus what the input rises in its response time",
     stageKinds: "all",
     providedBy: "review",
   },

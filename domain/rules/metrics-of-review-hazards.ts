@@ -96,10 +96,11 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
   }
   inrushMetrics(r, s);
   metrics["loadTransientVMaxV"] = r.loadOvervoltage.loadVMaxV;
-  const cutoff = r.loadOvervoltage.cutoff;
-  if (cutoff !== undefined) metrics["overvoltageCutoffV"] = cutoff.thresholdV;
+  // The lowest cut-off threshold against the steady supply (the load's figure above is at the highest).
+  const cutoffV = r.switchLimits.overvoltageCutoffV;
+  if (cutoffV !== undefined) metrics["overvoltageCutoffV"] = cutoffV;
   else notRequired["overvoltageCutoffV"] = "the stage has no overvoltage cut-off";
-  currentLimitMetrics(stage, r, s);
+  currentLimitMetrics(r, s);
   thermalShutdownMetrics(stage, r, s);
   if (req.loadMaxV !== undefined) metrics["loadMaxV"] = req.loadMaxV;
   else notRequired["loadMaxV"] = "the requirement states no highest load voltage (loadMaxV)";
@@ -228,10 +229,11 @@ function clampTrainMetrics(
  * needs the limit or more is held at it (the forward law limits, integrated-switch.ts), a resistive
  * load then at I_lim·R, a constant-current or constant-power one collapsing at the limit, which
  * counts as the limit reached. Any other corner without an operating point leaves the figure
- * unavailable.
+ * unavailable. The limit is the lowest (datasheetMax.currentLimitMinA, else the typical).
  */
-function currentLimitMetrics(stage: StageModel, r: CandidateReview, s: Scope): void {
-  const limitA = stage.kind === "integrated-switch" ? stage.currentLimitA : undefined;
+function currentLimitMetrics(r: CandidateReview, s: Scope): void {
+  // The lowest limit (datasheet minimum where given) against the corners' highest current.
+  const limitA = r.switchLimits.currentLimitA;
   if (limitA === undefined) {
     for (const n of ["stageCurrentMaxA", "switchCurrentLimitA"]) s.notRequired[n] = "the stage has no current limit";
     return;
