@@ -406,7 +406,7 @@ export const METRICS: readonly MetricDef[] = [
     meaning:
       "a steady corner heats an integrated switch to its thermal shutdown temperature (Tj = Ta + Rth·P at or above thermalShutdownC; at the current limit P = (V_in − V_load)·I_lim; a corner in thermal runaway counts where the shutdown lies within the search): the switch turns off and the load loses its supply, taken as latched off (no auto-retry is stated)",
     stageKinds: ["integrated-switch"],
-    providedBy: "review (its corners), for a stage with thermalShutdownC",
+    providedBy: `review (its corners); ${OP} (its point), for a stage with thermalShutdownC`,
   },
   {
     name: "loadTransientVMaxV",

@@ -73,7 +73,6 @@ export const ANALYSIS_ONLY_METRICS: Readonly<Record<string, readonly string[]>> 
     "overvoltageCutoffV",
     "stageCurrentMaxA",
     "switchCurrentLimitA",
-    "thermalShutdownInService",
   ],
   turnOff: [
     "peakReverseCurrentA",

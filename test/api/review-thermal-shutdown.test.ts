@@ -90,6 +90,29 @@ describe("review: an integrated switch's thermal shutdown in steady service", ()
     expect(shutdownRule(out.candidates[0])?.outcome).toBe("fail");
   });
 
+  it("the operating point at the limit: 12 V open circuit, 4 Ω, 2 A limit, 10 K/W at 85 °C is 85 + 10·(4·2 + Iq·12) °C", async () => {
+    const op = procedureInvoker(demoContext())("operatingPoint");
+    if (op === undefined) throw new Error("operatingPoint missing");
+    const at = async (thermalShutdownC: number) =>
+      (await op({
+        stage: sw({ currentLimitA: 2, thermalShutdownC, thermal: { kind: "junction-ambient", rthJaKPerW: 10 } }),
+        supplyV: 12,
+        load: { kind: "resistive", resistanceOhm: LOAD_OHM },
+        ambientC: 85,
+        ruleSet: "default",
+      })) as {
+        outcome: string;
+        point: { tjC: number };
+        rules: { verdicts: { ruleId: string; outcome: string }[] };
+      };
+    const hot = await at(160);
+    // the load at I_lim·R = 8 V, the switch dropping 12 − 8 = 4 V at 2 A: 8 W + 0.2 mA × 12 V
+    expect(hot.point.tjC).toBeCloseTo(85 + 10 * (4 * 2 + IQ_A * 12), 6);
+    const rule = (r: typeof hot) => r.rules.verdicts.find((v) => v.ruleId === "switch-thermal-shutdown-in-service");
+    expect(rule(hot)?.outcome).toBe("fail");
+    expect(rule(await at(170))?.outcome).toBe("pass");
+  });
+
   it("a switch without a thermal shutdown leaves the rule out of scope", async () => {
     const out = await call(input(sw({})));
     expect(shutdownRule(out.candidates[0])?.outcome).toBe("not-applicable");
