@@ -102,4 +102,12 @@ describe("review: an integrated switch's current limit and cut-off at their data
       .backstop.issues;
     expect(issues.map((i) => i.path.join("."))).toContain("candidates.0.datasheetMax.currentLimitMinA");
   });
+
+  it("sizing.catalog refuses a catalog-wide limit or cut-off tolerance, naming the field", async () => {
+    const r = await postTrpc(app, "sizing.catalog", { requirement: req, datasheetMax: dm({ currentLimitMinA: 5 }) });
+    expect(r.status).toBe(400);
+    const issues = (r.body as { error: { data: { backstop: { issues: { path: (string | number)[] }[] } } } }).error.data
+      .backstop.issues;
+    expect(issues.map((i) => i.path.join("."))).toContain("datasheetMax.currentLimitMinA");
+  });
 });
