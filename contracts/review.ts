@@ -47,6 +47,21 @@ export const candidate = z.strictObject({
         "datasheet maximum turn-off delay of the controller (the review's turn-off event uses it)",
         { ge: 0, le: 1 },
       ).optional(),
+      currentLimitMinA: quantity(
+        "A",
+        "datasheet minimum current limit of an integrated switch (the inrush charges at it and switch-current-limit-above-load reads it; absent: the typical currentLimitA)",
+        { gt: 0, le: 10_000 },
+      ).optional(),
+      overvoltageCutoffMinV: quantity(
+        "V",
+        "datasheet minimum overvoltage cut-off threshold of an integrated switch (switch-cutoff-above-supply reads it; absent: the typical overvoltageCutoffV)",
+        { ge: 0, le: 10_000 },
+      ).optional(),
+      overvoltageCutoffMaxV: quantity(
+        "V",
+        "datasheet maximum overvoltage cut-off threshold of an integrated switch (the voltage reaching the load, load-overvoltage, uses it; absent: the typical overvoltageCutoffV)",
+        { ge: 0, le: 10_000 },
+      ).optional(),
     })
     .optional()
     .meta({ description: "the datasheet-maximum tolerance corner (absent: typical values only)" }),

@@ -89,6 +89,7 @@ const RULE_HAZARDS: Readonly<Record<string, string>> = {
   "load-overvoltage": "load voltage",
   "switch-cutoff-above-supply": "load voltage",
   "switch-current-limit-above-load": "load voltage",
+  "switch-thermal-shutdown-in-service": "thermal (forward)",
   "reverse-current-blocking": "reverse current",
   "reverse-current-budget": "reverse current",
   "battery-back-drain": "reverse current",

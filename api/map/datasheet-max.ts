@@ -2,6 +2,7 @@ import { stageMosfet } from "../../domain/checks/breakdown-temperature.js";
 import { gateThresholdColdV, withThresholdShift } from "../../domain/checks/gate-threshold.js";
 import type { ControllerTurnOff } from "../../domain/checks/reverse-path.js";
 import { type StageScale, UNSCALED } from "../../domain/stages/scale-stage.js";
+import type { SwitchTolerance } from "../../domain/review/switch-tolerance.js";
 import { type StageModel, stageStartV } from "../../domain/stages/stage-model.js";
 import { inputProblem } from "../input-problem.js";
 
@@ -14,6 +15,9 @@ export interface DatasheetMaxSpec {
   readonly thresholdMinV?: number | undefined;
   readonly reverseThresholdV?: number | undefined;
   readonly turnOffDelayS?: number | undefined;
+  readonly currentLimitMinA?: number | undefined;
+  readonly overvoltageCutoffMinV?: number | undefined;
+  readonly overvoltageCutoffMaxV?: number | undefined;
 }
 
 /** The stage's own MOSFET gate threshold, V; undefined for a stage without a discrete MOSFET. */
@@ -141,4 +145,62 @@ export function noteThresholdCorners(
   assumptions.push(
     `${label}: gate threshold corners: the cold gate overdrive (gateOverdriveColdV) at ${high}, ${moved}: ${cold} V there; a turn-off event at ${low}`,
   );
+}
+
+/**
+ * An integrated switch's current limit and cut-off threshold at their datasheet extremes: the
+ * lowest limit (the inrush and the limit rule), the lowest threshold (the rule against the steady
+ * supply) and the highest (what reaches the load). Each not given is the typical value, said in
+ * `assumptions`. Refused, naming the field, on a stage without that protection or on the wrong
+ * side of the typical value.
+ */
+export function switchTolerance(
+  dm: DatasheetMaxSpec | undefined,
+  stage: StageModel,
+  path: (string | number)[],
+  assumptions: string[],
+): SwitchTolerance | undefined {
+  const limitA = stage.kind === "integrated-switch" ? stage.currentLimitA : undefined;
+  const cutoffV = stage.kind === "integrated-switch" ? stage.overvoltageCutoffV : undefined;
+  const at = path.join(".");
+  const check = (
+    field: "currentLimitMinA" | "overvoltageCutoffMinV" | "overvoltageCutoffMaxV",
+    typical: number | undefined,
+    what: string,
+    side: "min" | "max",
+    unit: string,
+  ): number | undefined => {
+    const v = dm?.[field];
+    if (v === undefined) return undefined;
+    if (typical === undefined)
+      throw inputProblem(
+        "invalid-input",
+        [...path, field],
+        `this ${stage.kind} stage has no ${what}: leave ${field} out`,
+      );
+    if (side === "min" ? v > typical : v < typical)
+      throw inputProblem(
+        "invalid-input",
+        [...path, field],
+        `the datasheet ${side === "min" ? "minimum" : "maximum"} ${v} ${unit} is ${side === "min" ? "above" : "below"} the stage's typical ${what} ${typical} ${unit}: give the ${side === "min" ? "minimum" : "maximum"} (at or ${side === "min" ? "below" : "above"} ${typical} ${unit})`,
+      );
+    return v;
+  };
+  const limitMinA = check("currentLimitMinA", limitA, "current limit", "min", "A");
+  const cutoffMinV = check("overvoltageCutoffMinV", cutoffV, "overvoltage cut-off", "min", "V");
+  const cutoffMaxV = check("overvoltageCutoffMaxV", cutoffV, "overvoltage cut-off", "max", "V");
+  if (limitA !== undefined && limitMinA === undefined)
+    assumptions.push(
+      `${at}: the current limit's tolerance not given (datasheetMax.currentLimitMinA): the inrush and switch-current-limit-above-load use the typical ${limitA} A`,
+    );
+  if (cutoffV !== undefined && (cutoffMinV === undefined || cutoffMaxV === undefined))
+    assumptions.push(
+      `${at}: the overvoltage cut-off's tolerance not given (datasheetMax.overvoltageCutoffMinV / overvoltageCutoffMaxV): the typical ${cutoffV} V stands for ${cutoffMinV === undefined && cutoffMaxV === undefined ? "both" : cutoffMinV === undefined ? "the lowest" : "the highest"} (switch-cutoff-above-supply reads the lowest, load-overvoltage the highest)`,
+    );
+  if (limitMinA === undefined && cutoffMinV === undefined && cutoffMaxV === undefined) return undefined;
+  return {
+    ...(limitMinA === undefined ? {} : { currentLimitMinA: limitMinA }),
+    ...(cutoffMinV === undefined ? {} : { overvoltageCutoffMinV: cutoffMinV }),
+    ...(cutoffMaxV === undefined ? {} : { overvoltageCutoffMaxV: cutoffMaxV }),
+  };
 }

@@ -9,6 +9,7 @@ import {
   type DatasheetMaxSpec,
   datasheetMaxScale,
   noteThresholdCorners,
+  switchTolerance,
   thresholdMinShiftV,
   worstTurnOffTiming,
 } from "./datasheet-max.js";
@@ -67,11 +68,13 @@ export function sizingContext(
     : undefined;
   const label = path.length > 0 ? path.join(".") : `part ${stage.partId ?? stage.spec.name ?? stage.model.kind}`;
   noteThresholdCorners(stage.model, cand.datasheetMax, req.model.ambientMinC, label, assumptions);
+  const switchTol = switchTolerance(cand.datasheetMax, stage.model, [...path, "datasheetMax"], assumptions);
   const assess = (s: StageModel) => {
     const review = reviewCandidate(searchReq, {
       stage: s,
       transientThermal,
       ...(datasheetMax ? { datasheetMax } : {}),
+      ...(switchTol ? { switchTolerance: switchTol } : {}),
     });
     return { review, input: reviewRuleInput(s, req.model, flags, review) };
   };

@@ -10,7 +10,7 @@ import { type CandidateVerdict, rankCandidates } from "../../domain/review/ranki
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { formatQuantity } from "../../domain/rules/quantity-text.js";
 import type { RuleSetResult } from "../../domain/rules/rule-model.js";
-import { datasheetMaxScale, thresholdMinShiftV, worstTurnOffTiming } from "../map/datasheet-max.js";
+import { datasheetMaxScale, switchTolerance, thresholdMinShiftV, worstTurnOffTiming } from "../map/datasheet-max.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { controllerTiming } from "../map/reverse-inputs.js";
 import { turnOffEventFields } from "../map/turn-off-output.js";
@@ -52,6 +52,11 @@ export const review = defineProcedure({
           `${path.join(".")}: mosfet.thresholdTempCoVPerK not given: the gate threshold is held at its 25 °C value at every corner (a power MOSFET's falls about 2–7 mV/K, memory; it is highest at the coldest ambient ${req.model.ambientMinC} °C): give it or thresholdAtTj`,
         );
       }
+      if (stage.model.kind === "integrated-switch" && stage.model.thermalShutdownC !== undefined) {
+        assumptions.push(
+          `${path.join(".")}: a steady corner at or above the ${stage.model.thermalShutdownC} °C thermal shutdown is the switch turned off and the load unpowered (thermalShutdownInService), the part taken as latched off: the contract states no auto-retry`,
+        );
+      }
       const transientThermal = transientThermalOf(
         c.transientThermal,
         stage.model,
@@ -76,6 +81,12 @@ export const review = defineProcedure({
         [...path.slice(0, 2), "datasheetMax"],
         assumptions,
       );
+      const switchTol = switchTolerance(
+        c.datasheetMax,
+        stage.model,
+        [...path.slice(0, 2), "datasheetMax"],
+        assumptions,
+      );
       const turnOffThresholdShiftV = c.datasheetMax
         ? thresholdMinShiftV(c.datasheetMax, stage.model, [...path.slice(0, 2), "datasheetMax"])
         : 0;
@@ -90,6 +101,7 @@ export const review = defineProcedure({
         ...(turnOffController ? { turnOffController } : {}),
         ...(turnOffThresholdShiftV === 0 ? {} : { turnOffThresholdShiftV }),
         ...(input.curves ? { turnOffWaveform: true } : {}),
+        ...(switchTol ? { switchTolerance: switchTol } : {}),
       });
       const ruleInput = reviewRuleInput(stage.model, req.model, flags, r);
       const rules = evaluateRuleSet(set, ruleInput);

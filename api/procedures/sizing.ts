@@ -9,6 +9,7 @@ import {
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { matchCatalog } from "../../domain/sizing/catalog-match.js";
 import { specifyStage } from "../../domain/sizing/stage-spec.js";
+import { inputProblem } from "../input-problem.js";
 import { toReviewRequirement } from "../map/requirement.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { stageLabel } from "../map/reverse-inputs.js";
@@ -66,6 +67,14 @@ export const sizing = [
       const req = toReviewRequirement(input.requirement, assumptions);
       const set = resolveRuleSet(input.ruleSet ?? "default", ctx, ["ruleSet"]);
       if (input.ruleSet === undefined) assumptions.push("rule set: the built-in default (common practice)");
+      const dm = input.datasheetMax;
+      for (const field of ["currentLimitMinA", "overvoltageCutoffMinV", "overvoltageCutoffMaxV"] as const)
+        if (dm?.[field] !== undefined)
+          throw inputProblem(
+            "invalid-input",
+            ["datasheetMax", field],
+            "one part's current limit or cut-off tolerance cannot stand for the whole catalog: leave it out here and give it per template (sizing.spec) or per candidate (review)",
+          );
       const wanted = input.kinds === undefined ? undefined : new Set<string>(input.kinds);
       const parts = ctx.catalog.list().filter((p) => wanted === undefined || wanted.has(p.stage.kind));
       const candidates = parts.map((p) => {

@@ -30,6 +30,7 @@ import { behaviourOf } from "../stages/stage-behaviours.js";
 import type { TransientPulse } from "./transient-library.js";
 import { type LoadOvervoltage, loadOvervoltage } from "../checks/load-overvoltage.js";
 import { type ReviewInrush, type ReviewInrushResult, reviewInrush } from "./review-inrush.js";
+import { atHighestCutoff, atLowestCurrentLimit, type SwitchTolerance, switchRuleLimits } from "./switch-tolerance.js";
 import { type PulseBackConduction, pulseBackConduction } from "./review-pulse-back-conduction.js";
 import { type ReviewTurnOff, type ReviewTurnOffResult, reviewTurnOff } from "./review-turn-off.js";
 
@@ -81,6 +82,8 @@ export interface ReviewCandidate {
   readonly turnOffThresholdShiftV?: number;
   /** Also sample the turn-off event (turn-off-waveform.ts), for charts. */
   readonly turnOffWaveform?: boolean;
+  /** An integrated switch's current limit and cut-off at their datasheet extremes (absent: typical). */
+  readonly switchTolerance?: SwitchTolerance;
 }
 
 export interface CandidateReview {
@@ -118,6 +121,8 @@ export interface CandidateReview {
   readonly inrush?: ReviewInrushResult;
   /** What reaches the load from the positive surges and steady overvoltages (an overvoltage cut-off opens above its threshold). */
   readonly loadOvervoltage: LoadOvervoltage;
+  /** The lowest current limit and cut-off threshold of an integrated switch, for its rules (switch-tolerance.ts). */
+  readonly switchLimits: { readonly currentLimitA?: number; readonly overvoltageCutoffV?: number };
 }
 
 /** Every check of one candidate against the requirement. Pure; deterministic. */
@@ -184,13 +189,17 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
     cand.transientAllowanceV ? { allowanceV: cand.transientAllowanceV } : {},
   );
   const transients = req.transients.flatMap((p) => sweptTransientStress(cand.stage, p, tctx));
-  const atLoad = loadOvervoltage(cand.stage, req.transients, transients, tctx);
+  // What reaches the load: through the cut-off at its highest threshold.
+  const atLoad = loadOvervoltage(atHighestCutoff(cand.stage, cand.switchTolerance), req.transients, transients, tctx);
 
   // Thermal sizing at the hot, full-load corner with the datasheet-maximum part, at the supply
   // whose corner ran hottest (every supply when none of those corners has a point).
   const sizingStage = cand.datasheetMax ? scaleStage(cand.stage, cand.datasheetMax) : cand.stage;
   // The inrush with the same datasheet-maximum part: a higher Rds(on) takes more of an uncontrolled charge's loss.
-  const inrush = req.inrush ? reviewInrush(req.inrush, sizingStage, cand.transientThermal) : undefined;
+  // An integrated switch charges at its lowest current limit: the longest charge (C·V/(I_lim − I_load)).
+  const inrush = req.inrush
+    ? reviewInrush(req.inrush, atLowestCurrentLimit(sizingStage, cand.switchTolerance), cand.transientThermal)
+    : undefined;
   const hotTolerance = cand.datasheetMax ? "datasheet-max" : "typical";
   let hottest: { supplyV: number; tjC: number } | undefined;
   for (const c of corners) {
@@ -272,6 +281,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
     ...(pulses.length > 0 ? { pulseBackConduction: pulses } : {}),
     ...(inrush ? { inrush } : {}),
     loadOvervoltage: atLoad,
+    switchLimits: switchRuleLimits(cand.stage, cand.switchTolerance),
   };
 }
 

@@ -377,7 +377,8 @@ export const METRICS: readonly MetricDef[] = [
     name: "overvoltageCutoffV",
     type: "number",
     unit: "V",
-    meaning: "input voltage above which an integrated switch opens (its overvoltage cut-off threshold)",
+    meaning:
+      "input voltage above which an integrated switch opens (its overvoltage cut-off threshold), at its lowest: datasheetMax.overvoltageCutoffMinV, else the typical",
     stageKinds: ["integrated-switch"],
     providedBy: `${STAGE} (overvoltageCutoffV), in the review`,
   },
@@ -394,16 +395,25 @@ export const METRICS: readonly MetricDef[] = [
     name: "switchCurrentLimitA",
     type: "number",
     unit: "A",
-    meaning: "current an integrated switch limits to",
+    meaning: "current an integrated switch limits to, at its lowest: datasheetMax.currentLimitMinA, else the typical",
     stageKinds: ["integrated-switch"],
     providedBy: `${STAGE} (currentLimitA), in the review`,
+  },
+  {
+    name: "thermalShutdownInService",
+    type: "boolean",
+    unit: "-",
+    meaning:
+      "a steady corner heats an integrated switch to its thermal shutdown temperature (Tj = Ta + Rth·P at or above thermalShutdownC; at the current limit P = (V_in − V_load)·I_lim; a corner in thermal runaway counts where the shutdown lies within the search): the switch turns off and the load loses its supply, taken as latched off (no auto-retry is stated)",
+    stageKinds: ["integrated-switch"],
+    providedBy: `review (its corners); ${OP} (its point), for a stage with thermalShutdownC`,
   },
   {
     name: "loadTransientVMaxV",
     type: "number",
     unit: "V",
     meaning:
-      "highest voltage the load sees: the highest steady supply, the steady overvoltages and every positive pulse after the design's clamp, each cut to an integrated switch's overvoltage threshold plus what the input rises in its response time",
+      "highest voltage the load sees: the highest steady supply, the steady overvoltages and every positive pulse after the design's clamp, each cut to an integrated switch's overvoltage threshold (at its highest: datasheetMax.overvoltageCutoffMaxV, else the typical) plus what the input rises in its response time",
     stageKinds: "all",
     providedBy: "review",
   },
@@ -764,6 +774,7 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
   overvoltageCutoffV: stageRole,
   stageCurrentMaxA: computed,
   switchCurrentLimitA: stageRole,
+  thermalShutdownInService: computed,
   loadTransientVMaxV: computed,
   loadMaxV: requirement,
   peakReverseCurrentA: {

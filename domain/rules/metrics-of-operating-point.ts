@@ -14,6 +14,7 @@ export const OPERATING_POINT_METRICS = [
   "loadVMinV",
   "gateDriveMinV",
   "startChatter",
+  "thermalShutdownInService",
 ] as const;
 
 /**
@@ -21,7 +22,9 @@ export const OPERATING_POINT_METRICS = [
  * corner the caller chose (lowest supply, highest current and ambient): tjWorstC = Tj,
  * lossWorstW = heat in the die, dropWorstV = forward drop, loadVMinV = load voltage,
  * gateDriveMinV = gate-source drive at this supply, startChatter = the point lies in the start
- * threshold's chatter band (a stage with a start voltage). Without a point (runaway, collapse, stage
+ * threshold's chatter band (a stage with a start voltage), thermalShutdownInService = an integrated
+ * switch's Tj at or above its thermal shutdown (thermal runaway counts where the search passes
+ * it; the switch then off, taken as latched). Without a point (runaway, collapse, stage
  * off) those names are marked unavailable with the outcome, so their rules are not applicable
  * and the set's outcome is at best "incomplete", never "pass".
  */
@@ -34,6 +37,7 @@ export function operatingPointRuleInput(
   const metrics: Record<string, number | boolean> = { ...callerMetrics, ...stageMetrics(stage) };
   if (load.kind === "constant-power") metrics["loadMinV"] = load.minVoltageV;
   const unavailable: Record<string, string> = {};
+  const notRequired: Record<string, string> = {};
   if (o.outcome === "solved" || o.outcome === "over-temperature" || o.outcome === "load-undervoltage") {
     const p = o.point;
     metrics["tjWorstC"] = p.tjC;
@@ -46,15 +50,36 @@ export function operatingPointRuleInput(
     // A stage with a start voltage: whether this supply lies in the start threshold's chatter band.
     if (stageStartV(stage) !== undefined) metrics["startChatter"] = p.startChatter !== undefined;
   } else {
-    for (const n of OPERATING_POINT_METRICS) unavailable[n] = `no operating point (${o.outcome}: ${o.reason})`;
+    for (const n of OPERATING_POINT_METRICS)
+      if (n !== "thermalShutdownInService") unavailable[n] = `no operating point (${o.outcome}: ${o.reason})`;
   }
+  const shutdown = thermalShutdownAt(stage, o);
+  if (typeof shutdown === "boolean") metrics["thermalShutdownInService"] = shutdown;
+  else if (shutdown.unavailable) unavailable["thermalShutdownInService"] = shutdown.why;
+  else notRequired["thermalShutdownInService"] = shutdown.why;
   return {
     stageKind: stage.kind,
     metrics,
     part: partParameters(stage),
     unavailable,
-    notRequired: otherAnalysesMetrics(metrics, "operatingPoint"),
+    notRequired: { ...otherAnalysesMetrics(metrics, "operatingPoint"), ...notRequired },
   };
+}
+
+/** Whether the point heats an integrated switch to its thermal shutdown, or why that is not said. */
+function thermalShutdownAt(
+  stage: StageModel,
+  o: OperatingPointOutcome,
+): boolean | { readonly unavailable: boolean; readonly why: string } {
+  const shutdownC = stage.kind === "integrated-switch" ? stage.thermalShutdownC : undefined;
+  if (shutdownC === undefined) return { unavailable: false, why: "the stage states no thermal shutdown temperature" };
+  if ("point" in o) {
+    const mode = o.point.forward.mode;
+    return mode !== "body-diode" && mode !== "junction" && o.point.tjC >= shutdownC;
+  }
+  if (o.outcome === "stage-off") return false;
+  if (o.outcome === "thermal-runaway" && o.evidence.searchedToC >= shutdownC) return true;
+  return { unavailable: true, why: `no operating point (${o.outcome}: ${o.reason})` };
 }
 
 export function stageMetrics(stage: StageModel): Record<string, number | boolean> {

@@ -44,6 +44,7 @@ export const REVIEW_COMPUTES = [
   "inrushSoaAllowedA",
   "loadTransientVMaxV",
   "stageCurrentMaxA",
+  "thermalShutdownInService",
 ] as const;
 
 export interface RequirementFlags {

@@ -905,6 +905,31 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     ),
   },
   {
+    id: "switch-current-limit-at-its-datasheet-minimum",
+    hazard: "load",
+    why: "an integrated switch limiting at 6 A typical but 5 A at its datasheet minimum ahead of a 5.5 A load: a part at the low end of the limit holds 5 A and the load collapses, although the typical part carries it (twin: a 5.8 A minimum)",
+    procedure: "review",
+    rule: "switch-current-limit-above-load",
+    bad: {
+      requirement: { ...req12, load: { kind: "constant-current", currentA: 5.5 } },
+      candidates: [
+        {
+          stage: integratedSwitch({ thermal: { kind: "junction-ambient", rthJaKPerW: 10 } }),
+          datasheetMax: { rdsOnFactor: 1, forwardVoltageFactor: 1, currentLimitMinA: 5 },
+        },
+      ],
+    },
+    twin: {
+      requirement: { ...req12, load: { kind: "constant-current", currentA: 5.5 } },
+      candidates: [
+        {
+          stage: integratedSwitch({ thermal: { kind: "junction-ambient", rthJaKPerW: 10 } }),
+          datasheetMax: { rdsOnFactor: 1, forwardVoltageFactor: 1, currentLimitMinA: 5.8 },
+        },
+      ],
+    },
+  },
+  {
     id: "switch-heats-at-its-current-limit",
     hazard: "thermal",
     why: "a 3 A current-limited switch ahead of a 4 ohm load on a 12 V code B supply: above 12 V the load would draw more than 3 A, the switch holds 3 A with the load at I_lim·R = 12 V and drops the rest, (16 V − 12 V) × 3 A = 12 W through 10 K/W: about 205 °C at 85 °C ambient (twin: a 6 A limit, never reached)",
@@ -917,6 +942,21 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     twin: review(
       { ...req12, load: { kind: "resistive", resistanceOhm: 4 } },
       integratedSwitch({ currentLimitA: 6, thermal: { kind: "junction-ambient", rthJaKPerW: 10 } }),
+    ),
+  },
+  {
+    id: "switch-thermal-shutdown-in-service",
+    hazard: "thermal",
+    why: "an integrated switch rated to 175 °C with a 150 °C thermal shutdown carrying 5 A through 50 K/W: its hot corners settle near 158 °C (Tj = Ta + Rth·P, 85 °C + 50 K/W × about 1.47 W), inside the rating but past the shutdown, so the switch turns off and the load loses its supply in service (twin: 40 K/W, about 137 °C)",
+    procedure: "review",
+    rule: "switch-thermal-shutdown-in-service",
+    bad: review(
+      { ...req12, load: { kind: "constant-current", currentA: 5 } },
+      integratedSwitch({ tjMaxC: 175, thermalShutdownC: 150, thermal: { kind: "junction-ambient", rthJaKPerW: 50 } }),
+    ),
+    twin: review(
+      { ...req12, load: { kind: "constant-current", currentA: 5 } },
+      integratedSwitch({ tjMaxC: 175, thermalShutdownC: 150, thermal: { kind: "junction-ambient", rthJaKPerW: 40 } }),
     ),
   },
   {

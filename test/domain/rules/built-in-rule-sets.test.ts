@@ -293,6 +293,12 @@ const DEFAULT: Record<string, RuleCases> = {
     pass: p("integrated-switch", { stageCurrentMaxA: 3, switchCurrentLimitA: 6 }, {}, 6, 3),
     violate: v("fail", p("integrated-switch", { stageCurrentMaxA: 8, switchCurrentLimitA: 6 }, {}, 6, -2)),
   },
+  // thermalShutdownInService: a corner at Tj = 85 + 5 K/W × 12 W = 145 °C against a 140 °C shutdown
+  // is true, against a 150 °C one false (the closed form of the review's metric).
+  "switch-thermal-shutdown-in-service": {
+    pass: p("integrated-switch", { thermalShutdownInService: false }, {}),
+    violate: v("fail", p("integrated-switch", { thermalShutdownInService: true }, {})),
+  },
   "switch-cutoff-above-supply": {
     pass: p("integrated-switch", { overvoltageCutoffV: 30, supplyMaxV: 16 }, {}, 16, 14),
     violate: v("fail", p("integrated-switch", { overvoltageCutoffV: 15, supplyMaxV: 16 }, {}, 16, -1)),
