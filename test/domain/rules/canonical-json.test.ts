@@ -4,7 +4,9 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { projectRoot } from "../../../adapters/project-root.js";
 import { callProcedure } from "../../../api/procedure-registry.js";
-import { canonicalJson } from "../../../domain/rules/rule-set-hash.js";
+import { createHash } from "node:crypto";
+import { sha256Of } from "../../../api/record/verdict-record.js";
+import { canonicalJson, canonicalJsonPieces } from "../../../domain/rules/rule-set-hash.js";
 import { demoContext } from "../../helpers/app.js";
 
 // The map/join definition canonicalJson had before the one-pass builder (commit 59a9cc0), kept here
@@ -90,5 +92,29 @@ describe("canonicalJson (one pass) writes the text its former map/join definitio
     ];
     for (const c of cases) expect(canonicalJson(c)).toBe(former(c));
     expect(canonicalJson({ b: [1, -0, 1e21], a: "\u2028\ud800" })).toBe('{"a":"\u2028\\ud800","b":[1,0,1e+21]}');
+  });
+});
+
+describe("canonical JSON in pieces, as a large value's digest takes it", () => {
+  const joined = (v: unknown, chars: number) => {
+    const pieces: string[] = [];
+    canonicalJsonPieces(v, (p) => pieces.push(p), chars);
+    return pieces;
+  };
+  it("joins to the same text at any piece size", () => {
+    fc.assert(
+      fc.property(tree, fc.integer({ min: 1, max: 64 }), (v, chars) => joined(v, chars).join("") === canonicalJson(v)),
+      { numRuns: 500, seed: 22 },
+    );
+  });
+  it("digests a review's answer (hundreds of kB, many pieces) as the SHA-256 of its whole text (FIPS 180-4 through node:crypto)", () => {
+    const review = JSON.parse(readFileSync(join(projectRoot(), "examples/requests/review.json"), "utf8")) as {
+      input: unknown;
+    };
+    const answer = callProcedure("review", demoContext(), review.input);
+    const text = canonicalJson(answer);
+    expect(joined(answer, 16_384).length).toBeGreaterThan(2);
+    expect(sha256Of(answer)).toBe(`sha256:${createHash("sha256").update(text).digest("hex")}`);
+    expect(sha256Of({ small: 1 })).toBe(`sha256:${createHash("sha256").update('{"small":1}').digest("hex")}`);
   });
 });
