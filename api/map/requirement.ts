@@ -1,9 +1,5 @@
 import type { Requirement } from "../../contracts/requirement.js";
 import type { ReviewRequirement } from "../../domain/review/candidate-review.js";
-import type { ReviewTurnOff } from "../../domain/review/review-turn-off.js";
-import type { ParallelLoad } from "../../domain/checks/clamp-energy.js";
-import type { ClampPowerRating } from "../../domain/checks/clamp-rating.js";
-import type { InputClamp } from "../../domain/checks/transient-stress.js";
 import {
   builtInProfile,
   type ProfilePoint,
@@ -14,8 +10,9 @@ import { findSupplyClass, SUPPLY_CLASSES, type SupplyClass } from "../../domain/
 import { findTransient, TRANSIENT_LIBRARY, type TransientPulse } from "../../domain/review/transient-library.js";
 import { unknownIdMessage } from "../../contracts/zod-messages.js";
 import { inputProblem } from "../input-problem.js";
-import { missingQrrSentence, ONE_OFF_EVENT } from "./reverse-inputs.js";
 import { reviewInrushOf } from "./inrush-requirement.js";
+import { inputClampOf, parallelLoadOf } from "./input-clamp-requirement.js";
+import { reviewTurnOffOf } from "./turn-off-requirement.js";
 
 /** Defaults of the design review [common practice], each recorded in `assumptions` when used. */
 export const REVIEW_DEFAULTS = {
@@ -230,59 +227,6 @@ function startProfileOf(
   return repeatedProfile(points, cranks, restS);
 }
 
-/** The input clamp: its law and power rating, defaults recorded (clamp-rating.ts). */
-function inputClampOf(c: NonNullable<Requirement["inputClamp"]>, assumptions: string[]): InputClamp {
-  if (c.breakdownV === undefined)
-    assumptions.push("inputClamp: no breakdownV, so a constant clamping voltage clampV (no dynamic resistance)");
-  else if (c.peakCurrentA === undefined)
-    assumptions.push(
-      "inputClamp: breakdownV without peakCurrentA gives no dynamic resistance: a constant clampV is used",
-    );
-  let power: ClampPowerRating | undefined;
-  if (c.peakPulsePowerW !== undefined) {
-    if (c.referencePulseS === undefined)
-      assumptions.push("inputClamp.referencePulseS: 1 ms (default: a 10/1000 us rating pulse, 1000 us to half value)");
-    if (c.tjMaxC === undefined) assumptions.push("inputClamp.tjMaxC: 150 degC (default, common practice)");
-    power = { peakPulsePowerW: c.peakPulsePowerW, referencePulseS: c.referencePulseS ?? 1e-3, tjMaxC: c.tjMaxC ?? 150 };
-    assumptions.push(
-      "inputClamp power: Ppp scaled by sqrt(reference width / the pulse's current half-width) (Wunsch-Bell) and derated linearly to 0 at tjMaxC from the highest ambient (common practice)",
-    );
-  }
-  if (c.thermal === undefined)
-    assumptions.push(
-      "inputClamp.thermal: not given, so the clamp's junction over each test's pulse train is not assessed (give its Foster network)",
-    );
-  else {
-    if (c.tjMaxC === undefined && power === undefined)
-      assumptions.push("inputClamp.tjMaxC: 150 degC (default, common practice)");
-    assumptions.push(
-      "inputClamp.thermal: each pulse as a rectangle at its peak power carrying its energy (an upper bound of its junction rise), repeated at the test's interval and count from the highest ambient (clamp-train.ts)",
-    );
-  }
-  return {
-    standoffV: c.standoffV,
-    clampV: c.clampV,
-    breakdownV: c.breakdownV,
-    peakCurrentA: c.peakCurrentA,
-    energyJ: c.energyJ,
-    tjMaxC: c.tjMaxC ?? 150,
-    ...(power ? { power } : {}),
-    ...(c.thermal === undefined ? {} : { thermal: c.thermal }),
-  };
-}
-
-/** The module's load in parallel with the clamp: a constant-power load as the least current it draws, at the clamping voltage (the clamp's share the larger). */
-function parallelLoadOf(load: Requirement["load"], clampV: number): ParallelLoad {
-  switch (load.kind) {
-    case "resistive":
-      return { kind: "resistive", resistanceOhm: load.resistanceOhm };
-    case "constant-current":
-      return { kind: "constant-current", currentA: load.currentA };
-    case "constant-power":
-      return { kind: "constant-current", currentA: load.powerW / clampV };
-  }
-}
-
 /** A steady overvoltage level: the caller's, else the class's where it lies above the (possibly overridden) highest supply. */
 function overvoltageOf(
   given: number | undefined,
@@ -298,65 +242,4 @@ function overvoltageOf(
       `the ${what} must be at least the highest steady supply (${maxV} V); got ${given} V`,
     );
   return given ?? (ofClass !== undefined && ofClass >= maxV ? ofClass : undefined);
-}
-
-/** The review's turn-off event: defaults recorded (a short from the nominal supply; Tj per candidate). */
-function reviewTurnOffOf(
-  t: NonNullable<Requirement["turnOff"]>,
-  nominalV: number,
-  assumptions: string[],
-): ReviewTurnOff {
-  if (t.inputAfterV === undefined) assumptions.push("turnOff.inputAfterV: 0 V (the input shorted)");
-  if (t.outputV === undefined) assumptions.push(`turnOff.outputV: the nominal supply ${nominalV} V before the event`);
-  if (t.tjC === undefined)
-    assumptions.push(
-      "turnOff.tjC: each candidate's worst-case junction temperature over the corners (the highest ambient where no corner solved)",
-    );
-  if (t.reverseRecoveryChargeC === undefined)
-    assumptions.push(missingQrrSentence("turnOff.reverseRecoveryChargeC", "diode"));
-  if (t.clampV === undefined)
-    assumptions.push(
-      "turnOff.clampV: the blocking element's rated voltage (a lower bound of its breakdown: the energy estimate is conservative)",
-    );
-  if (t.repetitive === undefined) assumptions.push(ONE_OFF_EVENT("turnOff.repetitive"));
-  if (t.gateLag === undefined)
-    assumptions.push(
-      "turnOff.gateLag: not given, so a P-FET candidate's gate follows the output at once (no gate resistor lag): the least reverse voltage at the load, in the turn-off event and in each negative pulse",
-    );
-  assumptions.push(
-    "negative pulses at a P-FET candidate: each is the turn-off event's input, decaying with the pulse's time constant from its start (limited by the clamp) to a constant; applied with the supply disconnected (ISO 7637-2 pulse 1) the generator alone, the loop's resistance the generator's Ri (the wiring not added: the larger reverse current); riding on the supply (ISO 7637-2 pulse 3a, a negative surge) the generator and the battery at the nominal supply behind requirement.sourceResistanceOhm as one Thevenin source, Vth = Vb + A·Rb/(Ri + Rb)·e^(−t/τ) behind Ri‖Rb (Rb = 0 holds the input at the supply); the output, capacitance, ESR, inductance and gate lag the turnOff event's",
-  );
-  const outputV = t.outputV ?? nominalV;
-  const inputAfterV = t.inputAfterV ?? 0;
-  if (!(inputAfterV < outputV))
-    throw inputProblem(
-      "invalid-input",
-      ["requirement", "turnOff", "inputAfterV"],
-      `must be below the output voltage before the event (${outputV} V)`,
-    );
-  const decay = t.inputDecay;
-  if (decay !== undefined && !(decay.startV < outputV))
-    throw inputProblem(
-      "invalid-input",
-      ["requirement", "turnOff", "inputDecay", "startV"],
-      `must be below the output voltage before the event (${outputV} V): the input falls at t = 0`,
-    );
-  return {
-    inputAfterV,
-    ...(decay === undefined ? {} : { inputDecay: { startV: decay.startV, tauS: decay.timeConstantS } }),
-    outputV,
-    loopResistanceOhm: t.loop.resistanceOhm,
-    loopInductanceH: t.loop.inductanceH,
-    capacitanceF: t.capacitor.capacitanceF,
-    esrOhm: t.capacitor.esrOhm,
-    ...(t.tjC === undefined ? {} : { tjC: t.tjC }),
-    ...(t.reverseRecoveryChargeC === undefined ? {} : { reverseRecoveryChargeC: t.reverseRecoveryChargeC }),
-    ...(t.clampV === undefined ? {} : { clampV: t.clampV }),
-    repetitive: t.repetitive ?? false,
-    ...(t.gateLag === undefined
-      ? {}
-      : { gateLagS: (t.gateLag.resistanceOhm * t.gateLag.gateChargeC) / t.gateLag.atGateSourceV }),
-    ...(t.loadReverseLimitV === undefined ? {} : { loadReverseLimitV: t.loadReverseLimitV }),
-    ...(t.repetition === undefined ? {} : { repetition: t.repetition }),
-  };
 }

@@ -1,0 +1,65 @@
+import type { Requirement } from "../../contracts/requirement.js";
+import type { ReviewTurnOff } from "../../domain/review/review-turn-off.js";
+import { inputProblem } from "../input-problem.js";
+import { missingQrrSentence, ONE_OFF_EVENT } from "./reverse-inputs.js";
+
+/** The review's turn-off event: defaults recorded (a short from the nominal supply; Tj per candidate). */
+export function reviewTurnOffOf(
+  t: NonNullable<Requirement["turnOff"]>,
+  nominalV: number,
+  assumptions: string[],
+): ReviewTurnOff {
+  if (t.inputAfterV === undefined) assumptions.push("turnOff.inputAfterV: 0 V (the input shorted)");
+  if (t.outputV === undefined) assumptions.push(`turnOff.outputV: the nominal supply ${nominalV} V before the event`);
+  if (t.tjC === undefined)
+    assumptions.push(
+      "turnOff.tjC: each candidate's worst-case junction temperature over the corners (the highest ambient where no corner solved)",
+    );
+  if (t.reverseRecoveryChargeC === undefined)
+    assumptions.push(missingQrrSentence("turnOff.reverseRecoveryChargeC", "diode"));
+  if (t.clampV === undefined)
+    assumptions.push(
+      "turnOff.clampV: the blocking element's rated voltage (a lower bound of its breakdown: the energy estimate is conservative)",
+    );
+  if (t.repetitive === undefined) assumptions.push(ONE_OFF_EVENT("turnOff.repetitive"));
+  if (t.gateLag === undefined)
+    assumptions.push(
+      "turnOff.gateLag: not given, so a P-FET candidate's gate follows the output at once (no gate resistor lag): the least reverse voltage at the load, in the turn-off event and in each negative pulse",
+    );
+  assumptions.push(
+    "negative pulses at a P-FET candidate: each is the turn-off event's input, decaying with the pulse's time constant from its start (limited by the clamp) to a constant; applied with the supply disconnected (ISO 7637-2 pulse 1) the generator alone, the loop's resistance the generator's Ri (the wiring not added: the larger reverse current); riding on the supply (ISO 7637-2 pulse 3a, a negative surge) the generator and the battery at the nominal supply behind requirement.sourceResistanceOhm as one Thevenin source, Vth = Vb + A·Rb/(Ri + Rb)·e^(−t/τ) behind Ri‖Rb (Rb = 0 holds the input at the supply); the output, capacitance, ESR, inductance and gate lag the turnOff event's",
+  );
+  const outputV = t.outputV ?? nominalV;
+  const inputAfterV = t.inputAfterV ?? 0;
+  if (!(inputAfterV < outputV))
+    throw inputProblem(
+      "invalid-input",
+      ["requirement", "turnOff", "inputAfterV"],
+      `must be below the output voltage before the event (${outputV} V)`,
+    );
+  const decay = t.inputDecay;
+  if (decay !== undefined && !(decay.startV < outputV))
+    throw inputProblem(
+      "invalid-input",
+      ["requirement", "turnOff", "inputDecay", "startV"],
+      `must be below the output voltage before the event (${outputV} V): the input falls at t = 0`,
+    );
+  return {
+    inputAfterV,
+    ...(decay === undefined ? {} : { inputDecay: { startV: decay.startV, tauS: decay.timeConstantS } }),
+    outputV,
+    loopResistanceOhm: t.loop.resistanceOhm,
+    loopInductanceH: t.loop.inductanceH,
+    capacitanceF: t.capacitor.capacitanceF,
+    esrOhm: t.capacitor.esrOhm,
+    ...(t.tjC === undefined ? {} : { tjC: t.tjC }),
+    ...(t.reverseRecoveryChargeC === undefined ? {} : { reverseRecoveryChargeC: t.reverseRecoveryChargeC }),
+    ...(t.clampV === undefined ? {} : { clampV: t.clampV }),
+    repetitive: t.repetitive ?? false,
+    ...(t.gateLag === undefined
+      ? {}
+      : { gateLagS: (t.gateLag.resistanceOhm * t.gateLag.gateChargeC) / t.gateLag.atGateSourceV }),
+    ...(t.loadReverseLimitV === undefined ? {} : { loadReverseLimitV: t.loadReverseLimitV }),
+    ...(t.repetition === undefined ? {} : { repetition: t.repetition }),
+  };
+}
