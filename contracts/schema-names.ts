@@ -76,7 +76,11 @@ export const pascalName = (path: string): string =>
  */
 const PARTS = (): readonly (readonly [z.ZodType, string])[] => {
   const blocks = turnOff.turnOffEventOutput.options[0].shape;
+  const doesNotBlock = turnOff.turnOffEventOutput.options[1].shape;
   return [
+    [review.candidate.shape.datasheetMax.unwrap(), "DatasheetMax"],
+    [blocks.clamp.unwrap(), "TurnOffClampPhase"],
+    [doesNotBlock.gateTurnOff.unwrap(), "TurnOffGateTurnOff"],
     [bridge.bridgeDcOutput.shape.bridge, "DcBridge"],
     [bridge.bridgeDcOutput.shape.bridge.shape.positive, "DcBridgePolarity"],
     [bridge.acBridgeOutcome.options[0].shape.steadyState, "AcBridgeSteadyState"],
