@@ -1,5 +1,6 @@
 import type { CompiledRuleSet } from "./compile-rule-set.js";
-import { evaluateRuleSet, summarizeVerdicts } from "./evaluate-rules.js";
+import { evaluateRuleSet } from "./evaluate-rules.js";
+import { summarizeVerdicts } from "./summarize-verdicts.js";
 import type { RuleInput, RuleSetResult, Verdict } from "./rule-model.js";
 
 /** One element of several (a bridge position, an ORing branch) with its own stage kind and values. */

@@ -2,12 +2,13 @@ import type { CompiledRule, CompiledRuleSet, NameRef, ResolvedScratch } from "./
 import type {
   NotApplicableCode,
   RuleInput,
-  RuleSetOutcome,
   RuleSetResult,
   Verdict,
   VerdictOutcome,
 } from "./rule-model.js";
 import { NON_FINITE } from "./sandbox.js";
+import { summarizeVerdicts } from "./summarize-verdicts.js";
+import { verdict } from "./verdict-literal.js";
 import { comparisonReason } from "./verdict-text.js";
 
 type Resolved = ResolvedScratch;
@@ -254,38 +255,6 @@ function preconditionOverFlags(
   return seen;
 }
 
-/** One literal with a fixed key order (stable JSON, and one object shape for the engine). */
-function verdict(
-  c: CompiledRule,
-  values: Readonly<Record<string, number | boolean>>,
-  outcome: VerdictOutcome,
-  op: string | null,
-  threshold: number,
-  margin: number,
-  reason: string | null,
-  notApplicableCode: NotApplicableCode | null,
-  ruleSet: CompiledRuleSet["stamp"],
-): Verdict {
-  const r = c.rule;
-  return {
-    ruleId: r.id,
-    title: r.title,
-    outcome,
-    severity: r.severity,
-    expression: r.expression,
-    values,
-    comparison: op,
-    threshold: op === null ? null : threshold,
-    margin: op === null ? null : margin,
-    relativeMargin: op === null || threshold === 0 ? null : margin / Math.abs(threshold),
-    source: r.source,
-    rationale: r.rationale,
-    reason,
-    notApplicableCode,
-    ruleSet,
-  };
-}
-
 /**
  * Evaluate every rule of a set, in the set's order. The set's outcome: fail if any rule failed,
  * else warn if any warned, else incomplete if any rule could not be evaluated (a missing or
@@ -300,29 +269,4 @@ export function evaluateRuleSet(set: CompiledRuleSet, input: RuleInput): RuleSet
     verdicts[i] = evaluateResolved(c, input, R, c.setIndex, set.stamp);
   }
   return summarizeVerdicts(set.stamp, verdicts);
-}
-
-/** The set's counts and outcome from its verdicts (fail > warn > incomplete > pass; not-applicable). */
-export function summarizeVerdicts(stamp: CompiledRuleSet["stamp"], verdicts: readonly Verdict[]): RuleSetResult {
-  const counts = { pass: 0, warn: 0, fail: 0, notApplicable: 0 };
-  let gaps = 0;
-  for (const v of verdicts) {
-    if (v.outcome === "not-applicable") {
-      counts.notApplicable += 1;
-      if (v.notApplicableCode === "missing-value" || v.notApplicableCode === "not-finite") gaps += 1;
-    } else if (v.outcome === "pass") counts.pass += 1;
-    else if (v.outcome === "warn") counts.warn += 1;
-    else counts.fail += 1;
-  }
-  const outcome: RuleSetOutcome =
-    counts.fail > 0
-      ? "fail"
-      : counts.warn > 0
-        ? "warn"
-        : gaps > 0
-          ? "incomplete"
-          : counts.pass > 0
-            ? "pass"
-            : "not-applicable";
-  return { ruleSet: stamp, outcome, counts, verdicts };
 }
