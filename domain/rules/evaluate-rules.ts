@@ -1,11 +1,5 @@
 import type { CompiledRule, CompiledRuleSet, NameRef, ResolvedScratch } from "./compile-rule-set.js";
-import type {
-  NotApplicableCode,
-  RuleInput,
-  RuleSetResult,
-  Verdict,
-  VerdictOutcome,
-} from "./rule-model.js";
+import type { NotApplicableCode, RuleInput, RuleSetResult, Verdict, VerdictOutcome } from "./rule-model.js";
 import { NON_FINITE } from "./sandbox.js";
 import { summarizeVerdicts } from "./summarize-verdicts.js";
 import { verdict } from "./verdict-literal.js";

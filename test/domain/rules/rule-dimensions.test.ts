@@ -3,7 +3,7 @@ import { ruleSetFromData } from "../../../adapters/rulesets/parse-rule-set.js";
 import { compileRuleSet } from "../../../domain/rules/compile-rule-set.js";
 import { evaluateRuleSet } from "../../../domain/rules/evaluate-rules.js";
 import { METRICS, PART_PARAMETERS } from "../../../domain/rules/metric-vocabulary.js";
-import { unitDimension } from "../../../domain/rules/rule-dimensions.js";
+import { unitDimension } from "../../../domain/rules/unit-dimensions.js";
 import type { RuleSet } from "../../../domain/rules/rule-model.js";
 import { compileExpression } from "../../../domain/rules/sandbox.js";
 
