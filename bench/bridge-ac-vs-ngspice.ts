@@ -22,7 +22,8 @@ import { execFileSync } from "node:child_process";
 import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { type BridgeAcModel, solveBridgeAcAt, steadyStateOf } from "../domain/checks/bridge-ac.js";
+import { type BridgeAcModel, solveBridgeAcAt } from "../domain/checks/bridge-ac.js";
+import { steadyStateOf } from "../domain/checks/bridge-ac-steady-state.js";
 import type { BridgeElements } from "../domain/checks/bridge-element.js";
 import { activeElement, demoPn, diodeElement, uniform } from "../test/helpers/bridge-parts.js";
 import {

@@ -6,27 +6,14 @@ import { SEARCH_ABOVE_LIMIT_K } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
 import { mirrorState, wholeFromHalf, wholeTraceFromHalf } from "../solve/ac-bridge-half-wave.js";
 import { newtonPredictor, type PeriodMap, shootPeriodic } from "../solve/periodic-shooting.js";
-import { SLOT, circuitMetrics, elementMetrics } from "./bridge-ac-metrics.js";
-import { acPeriodWaveform } from "./bridge-ac-waveform.js";
+import { SLOT } from "./bridge-ac-metrics.js";
 import { validateAcModel } from "./bridge-ac-validate.js";
 import { buildCircuit } from "./bridge-ac-laws.js";
-import {
-  BRIDGE_POSITIONS,
-  type BridgePosition,
-  elementLaw,
-  elementReverseRatingV,
-  elementRthKPerW,
-  elementTjMaxC,
-} from "./bridge-element.js";
+import { BRIDGE_POSITIONS, type BridgePosition, elementRthKPerW, elementTjMaxC } from "./bridge-element.js";
 
-import type {
-  AcElementResult,
-  AcSteadyState,
-  BridgeAcModel,
-  BridgeAcOptions,
-  BridgeAcOutcome,
-} from "./bridge-ac-types.js";
+import type { BridgeAcModel, BridgeAcOptions, BridgeAcOutcome } from "./bridge-ac-types.js";
 import { halfWaveSymmetric, partKeys } from "./bridge-ac-part-keys.js";
+import { steadyStateOf } from "./bridge-ac-steady-state.js";
 
 export type {
   AcElementResult,
@@ -64,7 +51,7 @@ const CURRENT_RTOL = 3e-3;
 const THERMAL_TOL_K = 1e-3;
 const THERMAL_MAX_ITER = 100;
 
-interface Isothermal {
+export interface Isothermal {
   readonly ok: true;
   readonly x: readonly number[];
   readonly integrals: PeriodIntegrals;
@@ -257,41 +244,6 @@ function finish(
     };
   }
   return { outcome: "solved", steadyState };
-}
-
-/** Assemble the reported steady state from an isothermal solution. */
-export function steadyStateOf(
-  m: BridgeAcModel,
-  iso: Isothermal,
-  temps: Readonly<Record<BridgePosition, number>>,
-  counts: { readonly thermalIterations: number; readonly periods: number },
-  waveformPoints?: number,
-): AcSteadyState {
-  const period = 1 / m.frequencyHz;
-  const circuit = circuitMetrics(iso.integrals, period, m.sourceRmsV, iso.storedJ);
-  const elements = BRIDGE_POSITIONS.map((position): AcElementResult => {
-    const e = m.elements[position];
-    return {
-      position,
-      mode: elementLaw(e, temps[position], circuit.dcOutputV).mode,
-      ...elementMetrics(iso.integrals, SLOT[position], period, iso.trace),
-      tjC: kToC(temps[position]),
-      tjMaxC: elementTjMaxC(e),
-      reverseRatingV: elementReverseRatingV(e),
-    };
-  });
-  return {
-    ...circuit,
-    elements,
-    totalElementLossW: elements.reduce((s, e) => s + e.lossW, 0),
-    solver: {
-      shootingIterations: iso.iterations,
-      periodsIntegrated: counts.periods,
-      stepsLastPeriod: iso.steps,
-      thermalIterations: counts.thermalIterations,
-    },
-    ...(waveformPoints === undefined ? {} : { waveform: acPeriodWaveform(iso.trace, period, waveformPoints) }),
-  };
 }
 
 /** A current scale for the error control: the load current at the source peak voltage. */

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { type BridgeAcModel, solveBridgeAcAt, steadyStateOf } from "../../../domain/checks/bridge-ac.js";
+import { type BridgeAcModel, solveBridgeAcAt } from "../../../domain/checks/bridge-ac.js";
+import { steadyStateOf } from "../../../domain/checks/bridge-ac-steady-state.js";
 import { cToK } from "../../../domain/physics/constants.js";
 import { activeElement, demoBridgeAc, demoPn, diodeElement, uniform } from "../../helpers/bridge-parts.js";
 import { bridgeNetlist, reduceBridgeRows, spiceBridgeOf } from "../../helpers/bridge-spice.js";

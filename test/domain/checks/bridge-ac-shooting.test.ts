@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { type BridgeAcModel, solveBridgeAcAt, steadyStateOf } from "../../../domain/checks/bridge-ac.js";
+import { type BridgeAcModel, solveBridgeAcAt } from "../../../domain/checks/bridge-ac.js";
+import { steadyStateOf } from "../../../domain/checks/bridge-ac-steady-state.js";
 import { type BridgeElements, junctionLaw } from "../../../domain/checks/bridge-element.js";
 import { integratePeriod } from "../../../domain/solve/ac-bridge-period.js";
 import { sourceAndFilterOf } from "../../../domain/solve/ac-bridge-circuit.js";

@@ -1,10 +1,6 @@
 import { describe, expect, it } from "vitest";
-import {
-  analyseBridgeAc,
-  type BridgeAcModel,
-  solveBridgeAcAt,
-  steadyStateOf,
-} from "../../../domain/checks/bridge-ac.js";
+import { analyseBridgeAc, type BridgeAcModel, solveBridgeAcAt } from "../../../domain/checks/bridge-ac.js";
+import { steadyStateOf } from "../../../domain/checks/bridge-ac-steady-state.js";
 import { BRIDGE_POSITIONS } from "../../../domain/checks/bridge-element.js";
 import { cToK } from "../../../domain/physics/constants.js";
 import { activeElement, demoBridgeAc, demoPn, diodeElement, uniform } from "../../helpers/bridge-parts.js";
