@@ -4,7 +4,8 @@ import {
   bridgeDcInput,
   bridgeDcOutput,
 } from "../../contracts/bridge.js";
-import { analyseBridgeDc, type BridgeDcResult } from "../../domain/checks/bridge-dc.js";
+import { analyseBridgeDc } from "../../domain/checks/bridge-dc.js";
+import type { BridgeDcResult } from "../../domain/checks/bridge-dc-types.js";
 import { dcSaving } from "../../domain/checks/bridge-saving.js";
 import { evaluateRuleSetOverElements } from "../../domain/rules/element-verdicts.js";
 import { ruleSetForAnalysis } from "../map/analysis-rule-set.js";

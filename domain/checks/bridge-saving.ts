@@ -1,5 +1,5 @@
 import type { BridgeAcOutcome } from "./bridge-ac.js";
-import type { DcPolarityOutcome } from "./bridge-dc.js";
+import type { DcPolarityOutcome } from "./bridge-dc-types.js";
 
 /** What a bridge saves against another: loss (W) and hottest junction (K); positive = it saves. */
 export interface BridgeSaving {

@@ -1,5 +1,5 @@
 import type { BridgeAcOutcome } from "../checks/bridge-ac.js";
-import type { BridgeDcResult } from "../checks/bridge-dc.js";
+import type { BridgeDcResult } from "../checks/bridge-dc-types.js";
 import { BRIDGE_POSITIONS, type BridgeElements } from "../checks/bridge-element.js";
 import { stagePeakRepetitiveCurrentA } from "../checks/stage-ratings.js";
 import type { ElementRuleInput } from "./element-verdicts.js";

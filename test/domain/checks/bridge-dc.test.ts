@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { analyseBridgeDc, type BridgeDcModel, type DcPolarityOutcome } from "../../../domain/checks/bridge-dc.js";
+import { analyseBridgeDc } from "../../../domain/checks/bridge-dc.js";
+import type { BridgeDcModel, DcPolarityOutcome } from "../../../domain/checks/bridge-dc-types.js";
 import type { BridgeElements } from "../../../domain/checks/bridge-element.js";
 import { cToK } from "../../../domain/physics/constants.js";
 import { diodeVoltageV } from "../../../domain/physics/diode.js";
