@@ -1,4 +1,4 @@
-import type { ChargingOutcome } from "../checks/battery-charging.js";
+import type { ChargingOutcome } from "../checks/battery-charging-types.js";
 import type { HoldUpOutcome } from "../checks/hold-up.js";
 import { blocksReverseCurrent } from "../checks/stage-ratings.js";
 import type { TurnOffOutcome } from "../checks/turn-off-event.js";

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { type ChargingModel, chargeBattery } from "../../../domain/checks/battery-charging.js";
+import { chargeBattery } from "../../../domain/checks/battery-charging.js";
+import type { ChargingModel } from "../../../domain/checks/battery-charging-types.js";
 import type { StageModel } from "../../../domain/stages/stage-model.js";
 import { relativeError } from "../../helpers/tolerance.js";
 import { idealDiodeStage, pfetStage, schottkyStage } from "../../fixtures/reverse-stages.js";
