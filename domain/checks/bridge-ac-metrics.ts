@@ -1,5 +1,5 @@
 import type { Snapshot } from "../solve/ac-bridge-circuit.js";
-import type { ElementSlot, PeriodIntegrals } from "../solve/ac-bridge-period.js";
+import type { ElementSlot, PeriodIntegrals } from "../solve/ac-bridge-period-types.js";
 import type { BridgePosition } from "./bridge-element.js";
 
 /** Slot of each position in the period accumulators: positive pair 0, 1; negative pair 2, 3. */

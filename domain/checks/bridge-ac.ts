@@ -1,6 +1,7 @@
 import { cToK, kToC } from "../physics/constants.js";
 import type { Snapshot } from "../solve/ac-bridge-circuit.js";
-import { integratePeriod, type PeriodIntegrals, type PeriodOptions } from "../solve/ac-bridge-period.js";
+import { integratePeriod } from "../solve/ac-bridge-period.js";
+import type { PeriodIntegrals, PeriodOptions } from "../solve/ac-bridge-period-types.js";
 import { fmt } from "../solve/electrical-point.js";
 import { SEARCH_ABOVE_LIMIT_K } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";

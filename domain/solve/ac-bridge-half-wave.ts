@@ -1,5 +1,5 @@
 import type { Snapshot } from "./ac-bridge-circuit.js";
-import type { PeriodIntegrals } from "./ac-bridge-period.js";
+import type { PeriodIntegrals } from "./ac-bridge-period-types.js";
 
 /**
  * Half-wave symmetry of a symmetric full bridge. The source is half-wave antisymmetric,
