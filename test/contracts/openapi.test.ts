@@ -90,7 +90,10 @@ describe("OpenAPI 3.1 document", () => {
     const doc = serviceOpenApi() as { paths: unknown; components: { schemas: Record<string, unknown> } };
     const seen = new Map<string, number>();
     const walk = (x: unknown, top: boolean): void => {
-      if (Array.isArray(x)) return x.forEach((y) => walk(y, false));
+      if (Array.isArray(x)) {
+        for (const y of x) walk(y, false);
+        return;
+      }
       if (x === null || typeof x !== "object") return;
       const o = x as Record<string, unknown>;
       if (!top && o.type === "object" && o.properties !== undefined) {
