@@ -37,7 +37,7 @@ const longTerm24 = "long-term overvoltage 36 V for 60 min, ISO 16750-2 clause 4.
 /** IEC 61000-4-5 on a DC power port: surges of both polarities (a negative one reverse-biases a series blocking element). */
 const surgeBothPolarities = ["iec61000-4-5-surge-1kv-line-line", "iec61000-4-5-surge-1kv-line-line-negative"];
 const surgeSource =
-  "surge IEC 61000-4-5 ±1 kV line to line: a DC power port takes five positive and five negative surges (clause 8.2 of the 2nd edition, docs/references.md [S, secondary]); the 1 kV level (memory)";
+  "surge IEC 61000-4-5 ±1 kV line to line: a DC power port takes five positive and five negative surges (clause 8.2 of the 2nd edition) and 1 kV is one of its test levels (docs/references.md [S, secondary]); 1 kV for a DC power port (memory: the product standard sets the level)";
 
 const vehicle12 = (code: string, minV: number): SupplyClass => ({
   id: `vehicle-12v-${code.toLowerCase()}`,

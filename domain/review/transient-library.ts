@@ -39,20 +39,36 @@ export interface TransientSweep {
   readonly peakV: readonly [number, number];
 }
 
-/** ISO 7637-2 repetition (memory: the 2011 edition's Annex A; the shortest interval of its range, the hottest train). */
+/**
+ * ISO 7637-2 repetition: the shortest interval of the test's range (the hottest train). Pulses 1 and 2a: the
+ * 2004 edition's 5000 pulses at 0.5-5 s and 0.2-5 s (docs/references.md [S, secondary]); the 2011 edition's
+ * smaller count (500, memory) is bounded by it, since a train's Tj rises with its count.
+ */
 const rep7637 = (periodS: number, count: number, what: string) => ({
   periodS,
   count,
-  source: `ISO 7637-2 ${what} (memory: confirm against the edition's Annex A); the shortest interval of the range`,
+  source: `ISO 7637-2 ${what}; the shortest interval of the range`,
 });
-const REP_PULSE_1 = rep7637(0.5, 500, "pulse 1: t1 0.5-5 s, 500 pulses");
-const REP_PULSE_2A = rep7637(0.2, 500, "pulse 2a: t1 0.2-5 s, 500 pulses");
-const REP_PULSE_2B = rep7637(0.5, 10, "pulse 2b: t1 0.5-5 s, 10 pulses");
+const REP_PULSE_1 = rep7637(
+  0.5,
+  5000,
+  "pulse 1: 5000 pulses 0.5-5 s apart (2004 edition table, docs/references.md [S, secondary]; the 2011 edition's 500 pulses, memory, are fewer)",
+);
+const REP_PULSE_2A = rep7637(
+  0.2,
+  5000,
+  "pulse 2a: 5000 pulses 0.2-5 s apart (2004 edition table, docs/references.md [S, secondary]; the 2011 edition's 500 pulses, memory, are fewer)",
+);
+const REP_PULSE_2B = rep7637(
+  0.5,
+  10,
+  "pulse 2b: t1 0.5-5 s, 10 pulses (memory: confirm against the 2011 edition's Annex A table)",
+);
 const REP_PULSE_3 = {
   periodS: 100e-6,
   count: 36_000_000,
   source:
-    "ISO 7637-2 pulses 3a/3b: t1 100 us in bursts of 10 ms every 100 ms, for 1 h (memory: confirm against the edition's Annex A); taken as a continuous 100 us train for 1 h, the gaps between bursts ignored (an upper bound)",
+    "ISO 7637-2 pulses 3a/3b: 1 h of bursts repeating every 90-100 ms (2004 edition table, docs/references.md [S, secondary]); t1 100 us and 10 ms bursts (memory: confirm against the edition's figure of pulses 3a/3b); taken as a continuous 100 us train for 1 h, the gaps between bursts ignored (an upper bound)",
 };
 /** ISO 16750-2 clause 4.6.4: 10 pulses at 1 min intervals (docs/references.md [S, secondary]). */
 const REP_LOAD_DUMP = {
@@ -61,7 +77,9 @@ const REP_LOAD_DUMP = {
   source: "ISO 16750-2 clause 4.6.4: 10 pulses at 1 min intervals (docs/references.md [S, secondary])",
 };
 
-const ed2011 = "ISO 7637-2:2011 Annex A, level IV (memory: confirm against the edition's table)";
+const ed2011 = "ISO 7637-2:2011 Annex A, level IV (memory: confirm against the edition's Annex A table)";
+/** The 2004 edition's table of test levels, read through two semiconductor datasheets (docs/references.md). */
+const ed2004 = "ISO 7637-2:2004 table of test levels (docs/references.md [S, secondary])";
 /** ISO 16750-2 UA: the generator's operating voltage, 14 V (12 V systems) / 28 V (24 V systems) (docs/references.md [S, secondary]). */
 const UA12 = 14;
 const UA24 = 28;
@@ -89,7 +107,7 @@ function surge(levelKV: number, coupling: "line-line" | "line-earth", polarity: 
       source:
         "IEC 61000-4-5 ed. 2 clause 8.2: five surges of each polarity on a DC power port, 1 min or less apart (docs/references.md [S, secondary]); 1 min taken, a faster test gives its own interval",
     },
-    source: `IEC 61000-4-5 combination wave: 1.2/50 us open circuit, 8/20 us short circuit, effective impedance 2 ohm (12 ohm line to earth), levels 0.5/1/2/4 kV (memory); a DC power port takes five surges of each polarity (clause 8.2, docs/references.md [S, secondary]); clamp current modelled as an instant rise and an exponential tail to half value at 20 us behind ${ohm} ohm, an upper bound of the 8/20 wave's charge (docs/references.md)`,
+    source: `IEC 61000-4-5 combination wave: 1.2/50 us open circuit, 8/20 us short circuit, effective impedance 2 ohm (docs/references.md [S, secondary]), 12 ohm line to earth (memory), levels 0.5/1/2/4 kV (docs/references.md [S, secondary]); a DC power port takes five surges of each polarity (clause 8.2, docs/references.md [S, secondary]); clamp current modelled as an instant rise and an exponential tail to half value at 20 us behind ${ohm} ohm, an upper bound of the 8/20 wave's charge (docs/references.md)`,
   };
 }
 
@@ -104,8 +122,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 1e-6,
     decayS: 2e-3,
     decayConvention: "to-10-percent",
-    source:
-      "ISO 7637-2 pulse 1, 12 V: −75 to −150 V, Ri 10 ohm, td 2 ms, tr 1 us (memory); applied with the supply disconnected (memory)",
+    source: `ISO 7637-2 pulse 1, 12 V: Ri 10 ohm, td 2 ms (${ed2004}); −150 V the most severe level of the current edition (an overview of the standard, docs/references.md [S, secondary]; the 2004 edition's levels III/IV are −75/−100 V); tr 1 us (memory); applied with the supply disconnected (memory)`,
   },
   {
     id: "iso7637-2-pulse-1-24v",
@@ -117,8 +134,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 3e-6,
     decayS: 1e-3,
     decayConvention: "to-10-percent",
-    source:
-      "ISO 7637-2 pulse 1, 24 V: up to −600 V, Ri 50 ohm, td 1 ms, tr 3 us (docs/references.md [S]); base 0 V (memory)",
+    source: `ISO 7637-2 pulse 1, 24 V: −600 V at level IV, Ri 50 ohm, td 1 ms (${ed2004}); tr 3 us (memory); base 0 V (memory)`,
   },
   {
     id: "iso7637-2-pulse-2a",
@@ -130,8 +146,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 1e-6,
     decayS: 50e-6,
     decayConvention: "to-10-percent",
-    source:
-      "ISO 7637-2 pulse 2a: +37 to +112 V, Ri 2 ohm, td 50 us, tr 1 us (docs/references.md [S]); riding on the nominal supply (memory)",
+    source: `ISO 7637-2 pulse 2a: Ri 2 ohm, td 50 us (${ed2004}, whose levels III/IV are +37/+50 V); +112 V (memory: taken as the 2011 edition's level IV; confirm against its Annex A table), tr 1 us (memory); riding on the nominal supply (memory)`,
   },
   {
     id: "iso7637-2-pulse-2b-12v",
@@ -159,7 +174,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
   },
   {
     id: "iso7637-2-pulse-3a",
-    title: "ISO 7637-2 pulse 3a (switching spikes), −220 V (2004 edition level)",
+    title: "ISO 7637-2 pulse 3a (switching spikes), −220 V",
     baseV: "supply",
     amplitudeV: -220,
     repetition: REP_PULSE_3,
@@ -167,8 +182,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 5e-9,
     decayS: 0.1e-6,
     decayConvention: "to-10-percent",
-    source:
-      "ISO 7637-2:2004 pulses 3a/3b: ±(75–220) V class levels, Ri 50 ohm, td 0.1 us, tr 5 ns (docs/references.md [S/M])",
+    source: `ISO 7637-2 pulse 3a: Ri 50 ohm, td 0.1 us (${ed2004}); −220 V (memory: taken as the 2011 edition's level IV for 12 V systems; confirm against its Annex A table; it is beyond the 2004 edition's level IV of −150 V on 12 V and −200 V on 24 V systems [S, secondary]); tr 5 ns (memory)`,
   },
   ...(
     [
@@ -188,7 +202,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
       riseS: 5e-9,
       decayS: 150e-9,
       decayConvention: "to-10-percent",
-      source: `${ed2011}: pulse ${pulse}, ${system === "12v" ? "12" : "24"} V: Us ${us} V, Ri 50 ohm, td 150 ns, tr 5 ns; on the supply`,
+      source: `ISO 7637-2 pulse ${pulse}, ${system === "12v" ? "12" : "24"} V: Us ${us} V at level IV and Ri 50 ohm (${ed2004}); td 150 ns (memory: the 2011 edition's; longer than the 2004 edition's 0.1 us, so the clamp's energy errs high), tr 5 ns (memory); on the supply`,
     }),
   ),
   {
