@@ -84,7 +84,7 @@ export const SUPPLY_CLASSES: readonly SupplyClass[] = [
     reverseV: 28.8,
     reverseDurationS: 3600,
     transients: surgeBothPolarities,
-    source: `IEC 61131-2 24 V DC steady range −15 %/+20 % of 24 V = 20.4–28.8 V (docs/references.md [S, secondary]); reverse: the full maximum reversed by miswiring (common practice); ${surgeSource}`,
+    source: `IEC 61131-2 24 V DC steady range −15 %/+20 % of 24 V = 20.4–28.8 V (docs/references.md [S, secondary, through an equipment manual's table]); reverse: the full maximum reversed by miswiring (common practice); ${surgeSource}`,
   },
   {
     id: "telecom-48v",
@@ -96,7 +96,7 @@ export const SUPPLY_CLASSES: readonly SupplyClass[] = [
     reverseDurationS: 3600,
     abnormalMaxV: 60,
     transients: surgeBothPolarities,
-    source: `ETSI EN 300 132-2 normal service range −40.5 to −57.0 V [S]; abnormal to −60 V (memory); nominal −54 V float (memory); reverse: feed wires swapped at the abnormal limit (common practice); ${surgeSource}`,
+    source: `ETSI EN 300 132-2 normal service range −40.5 to −57.0 V (memory: docs/references.md); abnormal to −60 V (memory); nominal −54 V float (memory); reverse: feed wires swapped at the abnormal limit (common practice); ${surgeSource}`,
   },
   ...[
     ["poe-pd-type-1", "Type 1", 37, 12.95],
@@ -114,7 +114,7 @@ export const SUPPLY_CLASSES: readonly SupplyClass[] = [
       reverseDurationS: 3600,
       transients: [],
       source:
-        "IEEE 802.3 PD input ranges (docs/references.md, secondary tables [S]); nominal 50 V (memory); the PD must accept either polarity (clause 33.3.1), so reverse = the full range reversed",
+        "IEEE 802.3 PD input ranges (memory: docs/references.md says what would confirm them); nominal 50 V (memory); the PD must accept either polarity (clause 33.3.1), so reverse = the full range reversed",
     }),
   ),
 ];
