@@ -40,35 +40,29 @@ export interface TransientSweep {
 }
 
 /**
- * ISO 7637-2 repetition: the shortest interval of the test's range (the hottest train). Pulses 1 and 2a: the
- * 2004 edition's 5000 pulses at 0.5-5 s and 0.2-5 s (docs/references.md [S, secondary]); the 2011 edition's
- * smaller count (500, memory) is bounded by it, since a train's Tj rises with its count.
+ * ISO 7637-2 repetition: the 2011 edition's minimum count at the shortest interval of its range (the hottest
+ * train), docs/references.md [S, secondary]. The 2004 edition asked 5000 pulses of pulses 1 and 2a, at its
+ * lower levels (−100 V / +50 V at level IV on 12 V systems).
  */
 const rep7637 = (periodS: number, count: number, what: string) => ({
   periodS,
   count,
-  source: `ISO 7637-2 ${what}; the shortest interval of the range`,
+  source: `ISO 7637-2:2011 ${what} (docs/references.md [S, secondary]); the shortest interval of the range`,
 });
-const REP_PULSE_1 = rep7637(
-  0.5,
-  5000,
-  "pulse 1: 5000 pulses 0.5-5 s apart (2004 edition table, docs/references.md [S, secondary]; the 2011 edition's 500 pulses, memory, are fewer)",
-);
-const REP_PULSE_2A = rep7637(
-  0.2,
-  5000,
-  "pulse 2a: 5000 pulses 0.2-5 s apart (2004 edition table, docs/references.md [S, secondary]; the 2011 edition's 500 pulses, memory, are fewer)",
-);
-const REP_PULSE_2B = rep7637(
-  0.5,
-  10,
-  "pulse 2b: t1 0.5-5 s, 10 pulses (memory: confirm against the 2011 edition's Annex A table)",
-);
+const REP_PULSE_1 = rep7637(0.5, 500, "pulse 1: 500 pulses, t1 from 0.5 s");
+const REP_PULSE_1_24V = {
+  periodS: 0.5,
+  count: 500,
+  source:
+    "ISO 7637-2 pulse 1, 24 V: 500 pulses from 0.5 s apart, the 2011 edition's count of its 12 V table (memory for 24 V systems: confirm against the edition's Annex A; the 2004 edition asked 5000 at 0.5-5 s, docs/references.md [S, secondary])",
+};
+const REP_PULSE_2A = rep7637(0.2, 500, "pulse 2a: 500 pulses, t1 0.2-5 s");
+const REP_PULSE_2B = rep7637(0.5, 10, "pulse 2b: 10 pulses, t1 0.5-5 s");
 const REP_PULSE_3 = {
   periodS: 100e-6,
   count: 36_000_000,
   source:
-    "ISO 7637-2 pulses 3a/3b: 1 h of bursts repeating every 90-100 ms (2004 edition table, docs/references.md [S, secondary]); t1 100 us and 10 ms bursts (memory: confirm against the edition's figure of pulses 3a/3b); taken as a continuous 100 us train for 1 h, the gaps between bursts ignored (an upper bound)",
+    "ISO 7637-2 pulses 3a/3b: 1 h of bursts repeating every 90-100 ms (2004 and 2011 editions, docs/references.md [S, secondary]); t1 100 us and 10 ms bursts (memory: confirm against the edition's figure of pulses 3a/3b); taken as a continuous 100 us train for 1 h, the gaps between bursts ignored (an upper bound)",
 };
 /** ISO 16750-2 clause 4.6.4: 10 pulses at 1 min intervals (docs/references.md [S, secondary]). */
 const REP_LOAD_DUMP = {
@@ -77,7 +71,8 @@ const REP_LOAD_DUMP = {
   source: "ISO 16750-2 clause 4.6.4: 10 pulses at 1 min intervals (docs/references.md [S, secondary])",
 };
 
-const ed2011 = "ISO 7637-2:2011 Annex A, level IV (memory: confirm against the edition's Annex A table)";
+/** The 2011 edition's test levels, read through a semiconductor datasheet's table (docs/references.md). */
+const ed2011 = "ISO 7637-2:2011 test levels (docs/references.md [S, secondary])";
 /** The 2004 edition's table of test levels, read through two semiconductor datasheets (docs/references.md). */
 const ed2004 = "ISO 7637-2:2004 table of test levels (docs/references.md [S, secondary])";
 /** ISO 16750-2 UA: the generator's operating voltage, 14 V (12 V systems) / 28 V (24 V systems) (docs/references.md [S, secondary]). */
@@ -122,14 +117,14 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 1e-6,
     decayS: 2e-3,
     decayConvention: "to-10-percent",
-    source: `ISO 7637-2 pulse 1, 12 V: Ri 10 ohm, td 2 ms (${ed2004}); −150 V the most severe level of the current edition (an overview of the standard, docs/references.md [S, secondary]; the 2004 edition's levels III/IV are −75/−100 V); tr 1 us (memory); applied with the supply disconnected (memory)`,
+    source: `ISO 7637-2 pulse 1, 12 V: −150 V at level IV (${ed2011}; the 2004 edition's levels III/IV are −75/−100 V); Ri 10 ohm, td 2 ms (${ed2004}); tr 1 us (memory); applied with the supply disconnected (memory)`,
   },
   {
     id: "iso7637-2-pulse-1-24v",
     title: "ISO 7637-2 pulse 1, 24 V system, −600 V",
     baseV: 0,
     amplitudeV: -600,
-    repetition: REP_PULSE_1,
+    repetition: REP_PULSE_1_24V,
     sourceResistanceOhm: 50,
     riseS: 3e-6,
     decayS: 1e-3,
@@ -146,7 +141,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 1e-6,
     decayS: 50e-6,
     decayConvention: "to-10-percent",
-    source: `ISO 7637-2 pulse 2a: Ri 2 ohm, td 50 us (${ed2004}, whose levels III/IV are +37/+50 V); +112 V (memory: taken as the 2011 edition's level IV; confirm against its Annex A table), tr 1 us (memory); riding on the nominal supply (memory)`,
+    source: `ISO 7637-2 pulse 2a: Ri 2 ohm, td 50 us (${ed2004}, whose levels III/IV are +37/+50 V); +112 V (memory: taken as the 2011 edition's level IV, above its level III of +55 V [S, secondary]; confirm against its Annex A table), tr 1 us (memory); riding on the nominal supply (memory)`,
   },
   {
     id: "iso7637-2-pulse-2b-12v",
@@ -158,7 +153,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 1e-3,
     decayS: 2,
     decayConvention: "to-10-percent",
-    source: `${ed2011}: pulse 2b, 12 V: Us 10 V, Ri 0–0.05 ohm, td 0.2–2 s, tr 1 ms; the model needs Ri > 0, so the upper 0.05 ohm with the longest td`,
+    source: `ISO 7637-2 pulse 2b, 12 V: Us +10 V at level IV (${ed2011}); Ri 0–0.05 ohm, td 0.2–2 s, tr 1 ms (memory: confirm against the 2011 edition's pulse 2b table); the model needs Ri > 0, so the upper 0.05 ohm with the longest td`,
   },
   {
     id: "iso7637-2-pulse-2b-24v",
@@ -170,7 +165,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 1e-3,
     decayS: 2,
     decayConvention: "to-10-percent",
-    source: `${ed2011}: pulse 2b, 24 V: Us 20 V, Ri 0–0.05 ohm, td 0.2–2 s, tr 1 ms; the upper 0.05 ohm with the longest td`,
+    source: `ISO 7637-2 pulse 2b, 24 V: Us +20 V, Ri 0–0.05 ohm, td 0.2–2 s, tr 1 ms (memory: confirm against the 2011 edition's Annex A and pulse 2b tables); the upper 0.05 ohm with the longest td`,
   },
   {
     id: "iso7637-2-pulse-3a",
@@ -182,17 +177,17 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 5e-9,
     decayS: 0.1e-6,
     decayConvention: "to-10-percent",
-    source: `ISO 7637-2 pulse 3a: Ri 50 ohm, td 0.1 us (${ed2004}); −220 V (memory: taken as the 2011 edition's level IV for 12 V systems; confirm against its Annex A table; it is beyond the 2004 edition's level IV of −150 V on 12 V and −200 V on 24 V systems [S, secondary]); tr 5 ns (memory)`,
+    source: `ISO 7637-2 pulse 3a: Ri 50 ohm, td 0.1 us (${ed2004}); −220 V (memory: taken as the 2011 edition's level IV for 12 V systems, beyond its level III of −165 V [S, secondary]; confirm against its Annex A table); tr 5 ns (memory)`,
   },
   ...(
     [
-      ["3a", "12v", -150],
-      ["3b", "12v", 100],
-      ["3a", "24v", -200],
-      ["3b", "24v", 200],
+      ["3a", "12v", -165, `level III (${ed2011})`],
+      ["3b", "12v", 112, `level III (${ed2011})`],
+      ["3a", "24v", -200, `level IV (${ed2004}; the 2011 edition's 24 V levels, memory, were not found)`],
+      ["3b", "24v", 200, `level IV (${ed2004}; the 2011 edition's 24 V levels, memory, were not found)`],
     ] as const
   ).map(
-    ([pulse, system, us]): TransientPulse => ({
+    ([pulse, system, us, level]): TransientPulse => ({
       id: `iso7637-2-pulse-${pulse}-${system}`,
       title: `ISO 7637-2 pulse ${pulse} (switching spikes), ${system === "12v" ? "12" : "24"} V system, ${us > 0 ? "+" : "−"}${Math.abs(us)} V`,
       baseV: "supply",
@@ -202,7 +197,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
       riseS: 5e-9,
       decayS: 150e-9,
       decayConvention: "to-10-percent",
-      source: `ISO 7637-2 pulse ${pulse}, ${system === "12v" ? "12" : "24"} V: Us ${us} V at level IV and Ri 50 ohm (${ed2004}); td 150 ns (memory: the 2011 edition's; longer than the 2004 edition's 0.1 us, so the clamp's energy errs high), tr 5 ns (memory); on the supply`,
+      source: `ISO 7637-2 pulse ${pulse}, ${system === "12v" ? "12" : "24"} V: Us ${us} V at ${level}; Ri 50 ohm (${ed2004}); td 150 ns (memory: the 2011 edition's; longer than the 2004 edition's 0.1 us, so the clamp's energy errs high), tr 5 ns (memory); on the supply`,
     }),
   ),
   {

@@ -657,10 +657,10 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     id: "clamp-hot-over-pulse-1-train",
     hazard: "clamp",
     // Closed forms (clamp-energy.ts, clamp-train.ts): pulse 1 (−150 V, 10 ohm, td 2 ms) into a 30 V clamp, about
-    // 0.19 J and 360 W a pulse, 5000 pulses 0.5 s apart (0.37 W on average for 2500 s) from 85 degC: through a
-    // 200 K/W, 60 s tail about 74 K of rise (mean power times R times 1 − e^(−2500/60)), through a 100 K/W one about
-    // 37 K, plus about 9 K of the last pulse in the fast terms.
-    why: "an input clamp well within its 100 J single-pulse rating reaches about 170 degC over ISO 7637-2 pulse 1's 5000-pulse train on a 200 K/W mounting; on a 100 K/W one it stays near 130 degC",
+    // 0.19 J and 360 W a pulse, 500 pulses 0.5 s apart (0.37 W on average for 250 s) from 85 degC: through a 200 K/W,
+    // 60 s tail about 74 K of rise (mean power times R times 1 − e^(−250/60)), through a 100 K/W one about 37 K,
+    // plus about 9 K of the last pulse in the fast terms.
+    why: "an input clamp well within its 100 J single-pulse rating reaches about 170 degC over ISO 7637-2 pulse 1's 500-pulse train on a 200 K/W mounting; on a 100 K/W one it stays near 130 degC",
     procedure: "review",
     rule: "clamp-train-tj",
     bad: review(
