@@ -64,11 +64,17 @@ const REP_PULSE_3 = {
   source:
     "ISO 7637-2 pulses 3a/3b: 1 h of bursts repeating every 90-100 ms (2004 and 2011 editions, docs/references.md [S, secondary]); t1 100 us and 10 ms bursts (memory: confirm against the edition's figure of pulses 3a/3b); taken as a continuous 100 us train for 1 h, the gaps between bursts ignored (an upper bound)",
 };
-/** ISO 16750-2 clause 4.6.4: 10 pulses at 1 min intervals (docs/references.md [S, secondary]). */
+/** ISO 16750-2 clause 4.6.4 test A: 10 pulses at 1 min intervals (docs/references.md [S, secondary]). */
 const REP_LOAD_DUMP = {
   periodS: 60,
   count: 10,
-  source: "ISO 16750-2 clause 4.6.4: 10 pulses at 1 min intervals (docs/references.md [S, secondary])",
+  source: "ISO 16750-2 clause 4.6.4 test A: 10 pulses at 1 min intervals (docs/references.md [S, secondary])",
+};
+/** ISO 16750-2 clause 4.6.4 test B: 5 pulses at 1 min intervals (docs/references.md [S, secondary]). */
+const REP_LOAD_DUMP_B = {
+  periodS: 60,
+  count: 5,
+  source: "ISO 16750-2 clause 4.6.4 test B: 5 pulses at 1 min intervals (docs/references.md [S, secondary])",
 };
 
 /** The 2011 edition's test levels, read through a semiconductor datasheet's table (docs/references.md). */
@@ -231,7 +237,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     title: "ISO 16750-2 load dump test B (centrally suppressed), 12 V: clamped to 35 V",
     baseV: UA12,
     amplitudeV: 101 - UA12,
-    repetition: REP_LOAD_DUMP,
+    repetition: REP_LOAD_DUMP_B,
     sourceResistanceOhm: 4,
     riseS: 10e-3,
     decayS: 400e-3,
@@ -245,7 +251,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     title: "ISO 16750-2 load dump test B (centrally suppressed), 24 V: clamped to about 58 V",
     baseV: UA24,
     amplitudeV: 202 - UA24,
-    repetition: REP_LOAD_DUMP,
+    repetition: REP_LOAD_DUMP_B,
     sourceResistanceOhm: 8,
     riseS: 10e-3,
     decayS: 350e-3,
