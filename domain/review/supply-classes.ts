@@ -26,8 +26,8 @@ export interface SupplyClass {
 const iso = "ISO 16750-2, supply voltage codes (docs/references.md [S])";
 const isoRev12 = "reversed voltage −14 V for 60 s, ISO 16750-2 clause 4.7 (memory)";
 const isoRev24 = "reversed voltage −28 V for 60 s, ISO 16750-2 clause 4.7 (memory)";
-const nominal12 = "nominal 13.5 V with the generator running (memory)";
-const nominal24 = "nominal 27 V with the generator running (memory)";
+const nominal12 = "nominal 13.5 V, ISO 7637-2's test supply voltage (docs/references.md [S, secondary])";
+const nominal24 = "nominal 27 V, ISO 7637-2's test supply voltage (docs/references.md [S, secondary])";
 const jump12 = "jump start 24 V for 60 s, ISO 16750-2 clause 4.3.1.2 (docs/references.md [S, secondary])";
 const jump24 =
   "jump start 36 V for 60 s (memory: the secondary source gives the jump-start test for 12 V systems only; 36 V equals the long-term overvoltage)";
