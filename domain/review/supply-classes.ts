@@ -26,8 +26,8 @@ export interface SupplyClass {
 const iso = "ISO 16750-2, supply voltage codes (docs/references.md [S])";
 const isoRev12 = "reversed voltage −14 V for 60 s, ISO 16750-2 clause 4.7 (memory)";
 const isoRev24 = "reversed voltage −28 V for 60 s, ISO 16750-2 clause 4.7 (memory)";
-const nominal12 = "nominal 13.5 V with the generator running (memory)";
-const nominal24 = "nominal 27 V with the generator running (memory)";
+const nominal12 = "nominal 13.5 V, ISO 7637-2's test supply voltage (docs/references.md [S, secondary])";
+const nominal24 = "nominal 27 V, ISO 7637-2's test supply voltage (docs/references.md [S, secondary])";
 const jump12 = "jump start 24 V for 60 s, ISO 16750-2 clause 4.3.1.2 (docs/references.md [S, secondary])";
 const jump24 =
   "jump start 36 V for 60 s (memory: the secondary source gives the jump-start test for 12 V systems only; 36 V equals the long-term overvoltage)";
@@ -37,7 +37,7 @@ const longTerm24 = "long-term overvoltage 36 V for 60 min, ISO 16750-2 clause 4.
 /** IEC 61000-4-5 on a DC power port: surges of both polarities (a negative one reverse-biases a series blocking element). */
 const surgeBothPolarities = ["iec61000-4-5-surge-1kv-line-line", "iec61000-4-5-surge-1kv-line-line-negative"];
 const surgeSource =
-  "surge IEC 61000-4-5 ±1 kV line to line: a DC power port takes five positive and five negative surges (clause 8.2 of the 2nd edition, docs/references.md [S, secondary]); the 1 kV level (memory)";
+  "surge IEC 61000-4-5 ±1 kV line to line: a DC power port takes five positive and five negative surges (clause 8.2 of the 2nd edition) and 1 kV is one of its test levels (docs/references.md [S, secondary]); 1 kV for a DC power port (memory: the product standard sets the level)";
 
 const vehicle12 = (code: string, minV: number): SupplyClass => ({
   id: `vehicle-12v-${code.toLowerCase()}`,
@@ -84,7 +84,7 @@ export const SUPPLY_CLASSES: readonly SupplyClass[] = [
     reverseV: 28.8,
     reverseDurationS: 3600,
     transients: surgeBothPolarities,
-    source: `IEC 61131-2 24 V DC steady range −15 %/+20 % of 24 V = 20.4–28.8 V (docs/references.md [S, secondary]); reverse: the full maximum reversed by miswiring (common practice); ${surgeSource}`,
+    source: `IEC 61131-2 24 V DC steady range −15 %/+20 % of 24 V = 20.4–28.8 V (docs/references.md [S, secondary, through an equipment manual's table]); reverse: the full maximum reversed by miswiring (common practice); ${surgeSource}`,
   },
   {
     id: "telecom-48v",
@@ -96,7 +96,7 @@ export const SUPPLY_CLASSES: readonly SupplyClass[] = [
     reverseDurationS: 3600,
     abnormalMaxV: 60,
     transients: surgeBothPolarities,
-    source: `ETSI EN 300 132-2 normal service range −40.5 to −57.0 V [S]; abnormal to −60 V (memory); nominal −54 V float (memory); reverse: feed wires swapped at the abnormal limit (common practice); ${surgeSource}`,
+    source: `ETSI EN 300 132-2 normal service range −40.5 to −57.0 V (memory: docs/references.md); abnormal to −60 V (memory); nominal −54 V float (memory); reverse: feed wires swapped at the abnormal limit (common practice); ${surgeSource}`,
   },
   ...[
     ["poe-pd-type-1", "Type 1", 37, 12.95],
@@ -114,7 +114,7 @@ export const SUPPLY_CLASSES: readonly SupplyClass[] = [
       reverseDurationS: 3600,
       transients: [],
       source:
-        "IEEE 802.3 PD input ranges (docs/references.md, secondary tables [S]); nominal 50 V (memory); the PD must accept either polarity (clause 33.3.1), so reverse = the full range reversed",
+        "IEEE 802.3 PD input ranges (memory: docs/references.md says what would confirm them); nominal 50 V (memory); the PD must accept either polarity (clause 33.3.1), so reverse = the full range reversed",
     }),
   ),
 ];

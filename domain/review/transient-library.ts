@@ -39,29 +39,48 @@ export interface TransientSweep {
   readonly peakV: readonly [number, number];
 }
 
-/** ISO 7637-2 repetition (memory: the 2011 edition's Annex A; the shortest interval of its range, the hottest train). */
+/**
+ * ISO 7637-2 repetition: the 2011 edition's minimum count at the shortest interval of its range (the hottest
+ * train), docs/references.md [S, secondary]. The 2004 edition asked 5000 pulses of pulses 1 and 2a, at its
+ * lower levels (−100 V / +50 V at level IV on 12 V systems).
+ */
 const rep7637 = (periodS: number, count: number, what: string) => ({
   periodS,
   count,
-  source: `ISO 7637-2 ${what} (memory: confirm against the edition's Annex A); the shortest interval of the range`,
+  source: `ISO 7637-2:2011 ${what} (docs/references.md [S, secondary]); the shortest interval of the range`,
 });
-const REP_PULSE_1 = rep7637(0.5, 500, "pulse 1: t1 0.5-5 s, 500 pulses");
-const REP_PULSE_2A = rep7637(0.2, 500, "pulse 2a: t1 0.2-5 s, 500 pulses");
-const REP_PULSE_2B = rep7637(0.5, 10, "pulse 2b: t1 0.5-5 s, 10 pulses");
+const REP_PULSE_1 = rep7637(0.5, 500, "pulse 1: 500 pulses, t1 from 0.5 s");
+const REP_PULSE_1_24V = {
+  periodS: 0.5,
+  count: 500,
+  source:
+    "ISO 7637-2 pulse 1, 24 V: 500 pulses from 0.5 s apart, the 2011 edition's count of its 12 V table (memory for 24 V systems: confirm against the edition's Annex A; the 2004 edition asked 5000 at 0.5-5 s, docs/references.md [S, secondary])",
+};
+const REP_PULSE_2A = rep7637(0.2, 500, "pulse 2a: 500 pulses, t1 0.2-5 s");
+const REP_PULSE_2B = rep7637(0.5, 10, "pulse 2b: 10 pulses, t1 0.5-5 s");
 const REP_PULSE_3 = {
   periodS: 100e-6,
   count: 36_000_000,
   source:
-    "ISO 7637-2 pulses 3a/3b: t1 100 us in bursts of 10 ms every 100 ms, for 1 h (memory: confirm against the edition's Annex A); taken as a continuous 100 us train for 1 h, the gaps between bursts ignored (an upper bound)",
+    "ISO 7637-2 pulses 3a/3b: 1 h of bursts repeating every 90-100 ms (2004 and 2011 editions, docs/references.md [S, secondary]); t1 100 us and 10 ms bursts (memory: confirm against the edition's figure of pulses 3a/3b); taken as a continuous 100 us train for 1 h, the gaps between bursts ignored (an upper bound)",
 };
-/** ISO 16750-2 clause 4.6.4: 10 pulses at 1 min intervals (docs/references.md [S, secondary]). */
+/** ISO 16750-2 clause 4.6.4 test A: 10 pulses at 1 min intervals (docs/references.md [S, secondary]). */
 const REP_LOAD_DUMP = {
   periodS: 60,
   count: 10,
-  source: "ISO 16750-2 clause 4.6.4: 10 pulses at 1 min intervals (docs/references.md [S, secondary])",
+  source: "ISO 16750-2 clause 4.6.4 test A: 10 pulses at 1 min intervals (docs/references.md [S, secondary])",
+};
+/** ISO 16750-2 clause 4.6.4 test B: 5 pulses at 1 min intervals (docs/references.md [S, secondary]). */
+const REP_LOAD_DUMP_B = {
+  periodS: 60,
+  count: 5,
+  source: "ISO 16750-2 clause 4.6.4 test B: 5 pulses at 1 min intervals (docs/references.md [S, secondary])",
 };
 
-const ed2011 = "ISO 7637-2:2011 Annex A, level IV (memory: confirm against the edition's table)";
+/** The 2011 edition's test levels, read through a semiconductor datasheet's table (docs/references.md). */
+const ed2011 = "ISO 7637-2:2011 test levels (docs/references.md [S, secondary])";
+/** The 2004 edition's table of test levels, read through two semiconductor datasheets (docs/references.md). */
+const ed2004 = "ISO 7637-2:2004 table of test levels (docs/references.md [S, secondary])";
 /** ISO 16750-2 UA: the generator's operating voltage, 14 V (12 V systems) / 28 V (24 V systems) (docs/references.md [S, secondary]). */
 const UA12 = 14;
 const UA24 = 28;
@@ -89,7 +108,7 @@ function surge(levelKV: number, coupling: "line-line" | "line-earth", polarity: 
       source:
         "IEC 61000-4-5 ed. 2 clause 8.2: five surges of each polarity on a DC power port, 1 min or less apart (docs/references.md [S, secondary]); 1 min taken, a faster test gives its own interval",
     },
-    source: `IEC 61000-4-5 combination wave: 1.2/50 us open circuit, 8/20 us short circuit, effective impedance 2 ohm (12 ohm line to earth), levels 0.5/1/2/4 kV (memory); a DC power port takes five surges of each polarity (clause 8.2, docs/references.md [S, secondary]); clamp current modelled as an instant rise and an exponential tail to half value at 20 us behind ${ohm} ohm, an upper bound of the 8/20 wave's charge (docs/references.md)`,
+    source: `IEC 61000-4-5 combination wave: 1.2/50 us open circuit, 8/20 us short circuit, effective impedance 2 ohm (docs/references.md [S, secondary]), 12 ohm line to earth (memory), levels 0.5/1/2/4 kV (docs/references.md [S, secondary]); a DC power port takes five surges of each polarity (clause 8.2, docs/references.md [S, secondary]); clamp current modelled as an instant rise and an exponential tail to half value at 20 us behind ${ohm} ohm, an upper bound of the 8/20 wave's charge (docs/references.md)`,
   };
 }
 
@@ -104,21 +123,19 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 1e-6,
     decayS: 2e-3,
     decayConvention: "to-10-percent",
-    source:
-      "ISO 7637-2 pulse 1, 12 V: −75 to −150 V, Ri 10 ohm, td 2 ms, tr 1 us (memory); applied with the supply disconnected (memory)",
+    source: `ISO 7637-2 pulse 1, 12 V: −150 V at level IV (${ed2011}; the 2004 edition's levels III/IV are −75/−100 V); Ri 10 ohm, td 2 ms (${ed2004}); tr 1 us (memory); applied with the supply disconnected (memory)`,
   },
   {
     id: "iso7637-2-pulse-1-24v",
     title: "ISO 7637-2 pulse 1, 24 V system, −600 V",
     baseV: 0,
     amplitudeV: -600,
-    repetition: REP_PULSE_1,
+    repetition: REP_PULSE_1_24V,
     sourceResistanceOhm: 50,
     riseS: 3e-6,
     decayS: 1e-3,
     decayConvention: "to-10-percent",
-    source:
-      "ISO 7637-2 pulse 1, 24 V: up to −600 V, Ri 50 ohm, td 1 ms, tr 3 us (docs/references.md [S]); base 0 V (memory)",
+    source: `ISO 7637-2 pulse 1, 24 V: −600 V at level IV, Ri 50 ohm, td 1 ms (${ed2004}); tr 3 us (memory); base 0 V (memory)`,
   },
   {
     id: "iso7637-2-pulse-2a",
@@ -130,8 +147,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 1e-6,
     decayS: 50e-6,
     decayConvention: "to-10-percent",
-    source:
-      "ISO 7637-2 pulse 2a: +37 to +112 V, Ri 2 ohm, td 50 us, tr 1 us (docs/references.md [S]); riding on the nominal supply (memory)",
+    source: `ISO 7637-2 pulse 2a: Ri 2 ohm, td 50 us (${ed2004}, whose levels III/IV are +37/+50 V); +112 V (memory: taken as the 2011 edition's level IV, above its level III of +55 V [S, secondary]; confirm against its Annex A table), tr 1 us (memory); riding on the nominal supply (memory)`,
   },
   {
     id: "iso7637-2-pulse-2b-12v",
@@ -143,7 +159,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 1e-3,
     decayS: 2,
     decayConvention: "to-10-percent",
-    source: `${ed2011}: pulse 2b, 12 V: Us 10 V, Ri 0–0.05 ohm, td 0.2–2 s, tr 1 ms; the model needs Ri > 0, so the upper 0.05 ohm with the longest td`,
+    source: `ISO 7637-2 pulse 2b, 12 V: Us +10 V at level IV (${ed2011}); Ri 0–0.05 ohm, td 0.2–2 s, tr 1 ms (memory: confirm against the 2011 edition's pulse 2b table); the model needs Ri > 0, so the upper 0.05 ohm with the longest td`,
   },
   {
     id: "iso7637-2-pulse-2b-24v",
@@ -155,11 +171,11 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 1e-3,
     decayS: 2,
     decayConvention: "to-10-percent",
-    source: `${ed2011}: pulse 2b, 24 V: Us 20 V, Ri 0–0.05 ohm, td 0.2–2 s, tr 1 ms; the upper 0.05 ohm with the longest td`,
+    source: `ISO 7637-2 pulse 2b, 24 V: Us +20 V, Ri 0–0.05 ohm, td 0.2–2 s, tr 1 ms (memory: confirm against the 2011 edition's Annex A and pulse 2b tables); the upper 0.05 ohm with the longest td`,
   },
   {
     id: "iso7637-2-pulse-3a",
-    title: "ISO 7637-2 pulse 3a (switching spikes), −220 V (2004 edition level)",
+    title: "ISO 7637-2 pulse 3a (switching spikes), −220 V",
     baseV: "supply",
     amplitudeV: -220,
     repetition: REP_PULSE_3,
@@ -167,18 +183,17 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     riseS: 5e-9,
     decayS: 0.1e-6,
     decayConvention: "to-10-percent",
-    source:
-      "ISO 7637-2:2004 pulses 3a/3b: ±(75–220) V class levels, Ri 50 ohm, td 0.1 us, tr 5 ns (docs/references.md [S/M])",
+    source: `ISO 7637-2 pulse 3a: Ri 50 ohm, td 0.1 us (${ed2004}); −220 V (memory: taken as the 2011 edition's level IV for 12 V systems, beyond its level III of −165 V [S, secondary]; confirm against its Annex A table); tr 5 ns (memory)`,
   },
   ...(
     [
-      ["3a", "12v", -150],
-      ["3b", "12v", 100],
-      ["3a", "24v", -200],
-      ["3b", "24v", 200],
+      ["3a", "12v", -165, `level III (${ed2011})`],
+      ["3b", "12v", 112, `level III (${ed2011})`],
+      ["3a", "24v", -200, `level IV (${ed2004}; the 2011 edition's 24 V levels, memory, were not found)`],
+      ["3b", "24v", 200, `level IV (${ed2004}; the 2011 edition's 24 V levels, memory, were not found)`],
     ] as const
   ).map(
-    ([pulse, system, us]): TransientPulse => ({
+    ([pulse, system, us, level]): TransientPulse => ({
       id: `iso7637-2-pulse-${pulse}-${system}`,
       title: `ISO 7637-2 pulse ${pulse} (switching spikes), ${system === "12v" ? "12" : "24"} V system, ${us > 0 ? "+" : "−"}${Math.abs(us)} V`,
       baseV: "supply",
@@ -188,7 +203,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
       riseS: 5e-9,
       decayS: 150e-9,
       decayConvention: "to-10-percent",
-      source: `${ed2011}: pulse ${pulse}, ${system === "12v" ? "12" : "24"} V: Us ${us} V, Ri 50 ohm, td 150 ns, tr 5 ns; on the supply`,
+      source: `ISO 7637-2 pulse ${pulse}, ${system === "12v" ? "12" : "24"} V: Us ${us} V at ${level}; Ri 50 ohm (${ed2004}); td 150 ns (memory: the 2011 edition's; longer than the 2004 edition's 0.1 us, so the clamp's energy errs high), tr 5 ns (memory); on the supply`,
     }),
   ),
   {
@@ -222,7 +237,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     title: "ISO 16750-2 load dump test B (centrally suppressed), 12 V: clamped to 35 V",
     baseV: UA12,
     amplitudeV: 101 - UA12,
-    repetition: REP_LOAD_DUMP,
+    repetition: REP_LOAD_DUMP_B,
     sourceResistanceOhm: 4,
     riseS: 10e-3,
     decayS: 400e-3,
@@ -236,7 +251,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
     title: "ISO 16750-2 load dump test B (centrally suppressed), 24 V: clamped to about 58 V",
     baseV: UA24,
     amplitudeV: 202 - UA24,
-    repetition: REP_LOAD_DUMP,
+    repetition: REP_LOAD_DUMP_B,
     sourceResistanceOhm: 8,
     riseS: 10e-3,
     decayS: 350e-3,

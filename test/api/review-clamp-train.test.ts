@@ -6,8 +6,8 @@ import { demoContext } from "../helpers/app.js";
 
 // The input clamp's junction over a test's pulse train through the review (issue 19 item 4):
 // ISO 7637-2 pulse 1 (12 V: −150 V, 10 ohm, td 2 ms) repeated every 0.5 s, 500 times (the
-// library's default, memory), into a 40 V clamp with a long thermal tail. The train's heat piles
-// up where one pulse does not; the figure is the closed form of domain/checks/clamp-train.ts
+// library's default: the 2011 edition's count, docs/references.md), into a 40 V clamp with a long
+// thermal tail. The train's heat piles up where one pulse does not; the figure is the closed form of domain/checks/clamp-train.ts
 // (itself checked against the geometric series and numerical integration in
 // test/domain/checks/clamp-train.test.ts).
 

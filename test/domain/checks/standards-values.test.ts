@@ -18,7 +18,7 @@ describe("built-in standard values cite their source", () => {
     expect(t.sourceResistanceOhm).toBeGreaterThan(0);
     expect(t.decayS).toBeGreaterThan(0);
   });
-  // The ranges given in docs/references.md [S]: ISO 16750-2 supply codes and the PoE PD input ranges.
+  // The ranges given in docs/references.md: ISO 16750-2 supply codes [S] and the PoE PD input ranges [M].
   it("carries the ISO 16750-2 codes and IEEE 802.3 PD ranges as published", () => {
     const byId = new Map(SUPPLY_CLASSES.map((c) => [c.id, c]));
     expect([
