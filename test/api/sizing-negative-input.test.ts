@@ -138,6 +138,22 @@ describe("sizing under a negative input after the turn-off event (the P-FET's ba
     expect(line(out.parts[0]?.items ?? [], "loadReverseVoltageMaxV").templateValue).toBe(r.metrics["loadReverseVMaxV"]);
   });
 
+  it("sizing.spec of the P-FET template: the same line, at the rule's limit, with the review's figure", async () => {
+    const s = sizingSpecOutput.parse(
+      await call("sizing.spec", {
+        requirement: requirement(-14),
+        templates: [{ stage: { kind: "catalog-part", partId: PFET } }],
+      }),
+    );
+    const l = line(s.specifications[0]?.items ?? [], "loadReverseVoltageMaxV");
+    const r = await review(PFET, -14);
+    expect(l.templateValue).toBe(r.metrics["loadReverseVMaxV"]);
+    expect(l.meets).toBe(false);
+    // The peak reverse current is the review's too, against the part's 400 A IAS.
+    const peak = line(s.specifications[0]?.items ?? [], "eventPeakReverseCurrentMaxA");
+    expect(peak.templateValue).toBe(r.metrics["peakReverseCurrentA"]);
+  });
+
   it("sizing's own turnOff event takes a negative and a decaying input through the requirement's definitions", async () => {
     const own = (extra: Record<string, unknown>) =>
       call("sizing.spec", {
