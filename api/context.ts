@@ -1,3 +1,4 @@
+import type { DatasheetMax } from "../contracts/datasheet-max.js";
 import type { StageSpec } from "../contracts/stage.js";
 import type { RuleSetStamp } from "../domain/rules/rule-model.js";
 import type { RuleSetStore } from "../domain/rules/rule-set-store.js";
@@ -7,6 +8,8 @@ export interface CatalogPart {
   readonly id: string;
   readonly description: string;
   readonly stage: StageSpec;
+  /** The part's own datasheet-maximum corner, where the catalog gives one. */
+  readonly datasheetMax?: DatasheetMax | undefined;
 }
 
 /**

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import "./zod-messages.js";
+import { datasheetMax } from "./datasheet-max.js";
 import { LIMITS, limitMessage } from "./limits.js";
 import { STAGE_KINDS, stageSpec } from "./stage.js";
 
@@ -7,6 +8,10 @@ export const catalogEntry = z.strictObject({
   id: z.string().regex(/^[a-z0-9][a-z0-9._-]{0,199}$/, "ids are lower-case letters, digits, '.', '_' and '-'"),
   description: z.string().min(1).max(500),
   stage: stageSpec,
+  datasheetMax: datasheetMax.optional().meta({
+    description:
+      "this part's datasheet-maximum tolerance corner (sizing.catalog judges the part at it; absent: typical values, unless the request gives a default)",
+  }),
 });
 export const catalogFile = z.strictObject({
   catalog: z.string().min(1).meta({ description: "name of this parts list" }),

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { datasheetMax } from "./datasheet-max.js";
 import { turnOffTiming } from "./turn-off.js";
 import { LIMITS, limitMessage } from "./limits.js";
 import { quantity, temperatureC } from "./quantity.js";
@@ -14,55 +15,7 @@ export const candidate = z.strictObject({
   label: z.string().min(1).max(200).optional(),
   stage: stageInput,
   thermal: thermalPath.optional().meta({ description: "overrides the stage's thermal path on this board" }),
-  datasheetMax: z
-    .strictObject({
-      rdsOnFactor: z.number().gte(1).lte(5).meta({ description: "datasheet maximum ÷ typical Rds(on)", unit: "1" }),
-      forwardVoltageFactor: z
-        .number()
-        .gte(1)
-        .lte(5)
-        .meta({ description: "datasheet maximum ÷ typical forward voltage", unit: "1" }),
-      startV: quantity(
-        "V",
-        "datasheet maximum start voltage of the controller or integrated switch (the start checks and the datasheet-maximum corners use it)",
-        { ge: 0, le: 10_000 },
-      ).optional(),
-      thresholdV: quantity(
-        "V",
-        "datasheet maximum gate threshold Vth(max) of the MOSFET, at 25 °C (the start checks, the cold gate overdrive of the review and the sizing, and the datasheet-maximum corners use it; the Monte Carlo draws Vth uniform up to it)",
-        { ge: 0, le: 100 },
-      ).optional(),
-      thresholdMinV: quantity(
-        "V",
-        "datasheet minimum gate threshold Vth(min) of the MOSFET, at 25 °C (the turn-off event of the review and the sizing uses it: a lower threshold keeps a P-FET's or low-side N-FET's channel conducting backwards longer; the Monte Carlo draws Vth uniform down to it)",
-        { ge: 0, le: 100 },
-      ).optional(),
-      reverseThresholdV: quantity(
-        "V",
-        "datasheet maximum reverse-current threshold of the controller (the review's turn-off event uses it)",
-        { ge: 0, le: 10 },
-      ).optional(),
-      turnOffDelayS: quantity(
-        "s",
-        "datasheet maximum turn-off delay of the controller (the review's turn-off event uses it)",
-        { ge: 0, le: 1 },
-      ).optional(),
-      currentLimitMinA: quantity(
-        "A",
-        "datasheet minimum current limit of an integrated switch (the inrush charges at it and switch-current-limit-above-load reads it; absent: the typical currentLimitA)",
-        { gt: 0, le: 10_000 },
-      ).optional(),
-      overvoltageCutoffMinV: quantity(
-        "V",
-        "datasheet minimum overvoltage cut-off threshold of an integrated switch (switch-cutoff-above-supply reads it; absent: the typical overvoltageCutoffV)",
-        { ge: 0, le: 10_000 },
-      ).optional(),
-      overvoltageCutoffMaxV: quantity(
-        "V",
-        "datasheet maximum overvoltage cut-off threshold of an integrated switch (the voltage reaching the load, load-overvoltage, uses it; absent: the typical overvoltageCutoffV)",
-        { ge: 0, le: 10_000 },
-      ).optional(),
-    })
+  datasheetMax: datasheetMax
     .optional()
     .meta({ description: "the datasheet-maximum tolerance corner (absent: typical values only)" }),
   transientThermal: transientThermal.optional(),

@@ -3,6 +3,7 @@ import * as batteryCharge from "./battery-charge.js";
 import * as bridge from "./bridge.js";
 import * as catalog from "./catalog.js";
 import * as curvePoints from "./curve-points.js";
+import * as datasheetMax from "./datasheet-max.js";
 import * as diode from "./diode.js";
 import * as fit from "./fit.js";
 import * as holdUp from "./hold-up.js";
@@ -39,6 +40,7 @@ const MODULES: readonly Record<string, unknown>[] = [
   bridge,
   catalog,
   curvePoints,
+  datasheetMax,
   diode,
   fit,
   holdUp,
@@ -78,7 +80,6 @@ const PARTS = (): readonly (readonly [z.ZodType, string])[] => {
   const blocks = turnOff.turnOffEventOutput.options[0].shape;
   const doesNotBlock = turnOff.turnOffEventOutput.options[1].shape;
   return [
-    [review.candidate.shape.datasheetMax.unwrap(), "DatasheetMax"],
     [blocks.clamp.unwrap(), "TurnOffClampPhase"],
     [doesNotBlock.gateTurnOff.unwrap(), "TurnOffGateTurnOff"],
     [bridge.bridgeDcOutput.shape.bridge, "DcBridge"],

@@ -1,11 +1,12 @@
 import { z } from "zod";
+import { datasheetMax } from "./datasheet-max.js";
 import { provenance } from "./outcome.js";
 import { quantity, temperatureC } from "./quantity.js";
 import { requirement } from "./requirement.js";
 import { candidate } from "./review.js";
 import { STAGE_KINDS } from "./stage.js";
 import { thermalPath } from "./thermal.js";
-import { holdUpCapacitor, reverseLoop } from "./turn-off.js";
+import { holdUpCapacitor, inputAfterField, inputDecayField, reverseLoop } from "./turn-off.js";
 
 /** The reverse-current event the controller's turn-off delay is sized for, with its limits. */
 export const sizingTurnOff = z
@@ -16,7 +17,8 @@ export const sizingTurnOff = z
       gt: 0,
       le: 10_000,
     }).optional(),
-    inputAfterV: quantity("V", "input from t = 0 on (default 0: a short)", { ge: 0, le: 10_000 }).optional(),
+    inputAfterV: inputAfterField.optional(),
+    inputDecay: inputDecayField.optional(),
     tjC: temperatureC("junction temperature at the event (default: the highest ambient)").optional(),
     reverseThresholdV: quantity("V", "reverse drop at which the controller trips (default: the part's)", {
       ge: 0,
@@ -67,7 +69,10 @@ export const sizingCatalogInput = z
     thermal: thermalPath
       .optional()
       .meta({ description: "the board's thermal path for every part (default: each part's own)" }),
-    datasheetMax: candidate.shape.datasheetMax,
+    datasheetMax: datasheetMax.optional().meta({
+      description:
+        "the datasheet-maximum corner for a part whose catalog entry carries none (a part's own datasheetMax takes precedence; absent: such a part at typical values)",
+    }),
   })
   .meta({ description: "the approved-parts catalog against the specification, ranked as the design review ranks" });
 export type SizingCatalogInput = z.input<typeof sizingCatalogInput>;

@@ -12,17 +12,22 @@ type Timing = {
   gateSinkCurrentA?: number | undefined;
 };
 
+/** Why a stage that turns off on reverse current has no timing: what to give. */
+export const MISSING_TIMING =
+  "required: this stage turns off on reverse current, give its reverseThresholdV and turnOffDelayS";
+
 /**
  * The controller's reverse turn-off timing: the request's `turnOff`, else the stage controller's
- * own reverseThresholdV and turnOffDelayS. Required for stages that turn off on reverse current.
+ * own reverseThresholdV and turnOffDelayS; `"missing"` for a stage that turns off on reverse
+ * current and has neither (controllerTiming refuses it).
  */
-export function controllerTiming(
+export function controllerTimingOf(
   spec: StageSpec,
   model: StageModel,
   given: Timing | undefined,
   path: (string | number)[],
   assumptions: string[],
-): ControllerTurnOff | undefined {
+): ControllerTurnOff | undefined | "missing" {
   const needs = behaviourOf(model).needsTurnOffTiming(model);
   if (!needs) return undefined;
   if (given !== undefined) {
@@ -40,11 +45,20 @@ export function controllerTiming(
     );
     return { reverseThresholdV: own.reverseThresholdV, turnOffDelayS: own.turnOffDelayS };
   }
-  throw inputProblem(
-    "invalid-input",
-    path,
-    "required: this stage turns off on reverse current, give its reverseThresholdV and turnOffDelayS",
-  );
+  return "missing";
+}
+
+/** controllerTimingOf, refusing a stage that needs a timing and has none (naming `path`). */
+export function controllerTiming(
+  spec: StageSpec,
+  model: StageModel,
+  given: Timing | undefined,
+  path: (string | number)[],
+  assumptions: string[],
+): ControllerTurnOff | undefined {
+  const t = controllerTimingOf(spec, model, given, path, assumptions);
+  if (t === "missing") throw inputProblem("invalid-input", path, MISSING_TIMING);
+  return t;
 }
 
 /** The load's minimum voltage: given, or a constant-power load's own minVoltageV. */

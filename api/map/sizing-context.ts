@@ -3,25 +3,24 @@ import type { StageSpec } from "../../contracts/stage.js";
 import { reviewCandidate } from "../../domain/review/candidate-review.js";
 import type { CompiledRuleSet } from "../../domain/rules/compile-rule-set.js";
 import type { SizingContext, TurnOffSizing } from "../../domain/sizing/assessment.js";
-import type { StageScale } from "../../domain/stages/scale-stage.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
 import {
   type DatasheetMaxSpec,
-  datasheetMaxScale,
   noteThresholdCorners,
-  switchTolerance,
   thresholdMinShiftV,
   worstTurnOffTiming,
 } from "./datasheet-max.js";
 import type { MappedRequirement } from "./requirement.js";
 import { reviewRuleInput } from "../../domain/rules/metrics-of-review.js";
-import { type TransientThermalInput, transientThermalOf } from "./transient-thermal.js";
+import { type CandidateInputs, reviewCandidateInputs } from "./review-candidate.js";
+import { fallingInputOf } from "./turn-off-requirement.js";
 
 export interface TurnOffRequest {
   loop: { resistanceOhm: number; inductanceH: number };
   capacitor: { capacitanceF: number; esrOhm: number };
   outputV?: number | undefined;
   inputAfterV?: number | undefined;
+  inputDecay?: { startV: number; timeConstantS: number } | undefined;
   tjC?: number | undefined;
   reverseThresholdV?: number | undefined;
   gateChargeC?: number | undefined;
@@ -45,10 +44,11 @@ export function sizingContext(
   req: MappedRequirement,
   set: CompiledRuleSet,
   stage: { spec: StageSpec; model: StageModel; partId?: string | undefined },
-  cand: { transientThermal?: TransientThermalInput; datasheetMax?: DatasheetMaxSpec | undefined },
+  cand: CandidateInputs,
   turnOff: TurnOffRequest | undefined,
   path: (string | number)[] = [],
   assumptions: string[] = [],
+  missingTiming: "refuse" | "report" = "refuse",
 ): SizingContext {
   const flags = {
     parallelSources: r.parallelSources ?? false,
@@ -57,25 +57,17 @@ export function sizingContext(
     ...(r.lossBudgetW === undefined ? {} : { lossBudgetW: r.lossBudgetW }),
   };
   const { mission: _mission, ...searchReq } = req.model;
-  const transientThermal = transientThermalOf(
-    cand.transientThermal,
-    stage.model,
-    [...path, "transientThermal"],
-    assumptions,
-  );
-  const datasheetMax: StageScale | undefined = cand.datasheetMax
-    ? datasheetMaxScale(cand.datasheetMax, stage.model, [...path, "datasheetMax"])
-    : undefined;
   const label = path.length > 0 ? path.join(".") : `part ${stage.partId ?? stage.spec.name ?? stage.model.kind}`;
+  // The part formed exactly as the review forms a candidate (its trial variants share it). A
+  // catalog part without a turn-off timing is reviewed without the requirement's event, and its
+  // event line says why (the review refuses such a candidate, naming the field).
+  const formed = reviewCandidateInputs(r, req, set, stage, cand, path, assumptions, missingTiming);
+  const inputs = formed.candidate;
+  const { turnOff: _event, ...withoutEvent } = searchReq;
+  const reviewed = formed.timingMissing === undefined ? searchReq : withoutEvent;
   noteThresholdCorners(stage.model, cand.datasheetMax, req.model.ambientMinC, label, assumptions);
-  const switchTol = switchTolerance(cand.datasheetMax, stage.model, [...path, "datasheetMax"], assumptions);
   const assess = (s: StageModel) => {
-    const review = reviewCandidate(searchReq, {
-      stage: s,
-      transientThermal,
-      ...(datasheetMax ? { datasheetMax } : {}),
-      ...(switchTol ? { switchTolerance: switchTol } : {}),
-    });
+    const review = reviewCandidate(reviewed, { stage: s, ...inputs });
     return { review, input: reviewRuleInput(s, req.model, flags, review) };
   };
   const t =
@@ -88,6 +80,11 @@ export function sizingContext(
     assess,
     ...(r.lossBudgetW === undefined ? {} : { lossBudgetW: r.lossBudgetW }),
     ...(t === undefined ? {} : typeof t === "string" ? { turnOffUnavailable: t } : { turnOff: t }),
+    ...(formed.timingMissing === undefined
+      ? {}
+      : {
+          eventUnavailable: `the requirement's turn-off event needs this part's reverse turn-off timing: ${formed.timingMissing.reason} (at ${formed.timingMissing.path.join(".")})`,
+        }),
   };
 }
 
@@ -120,8 +117,7 @@ function turnOffSizing(
     loopInductanceH: t.loop.inductanceH,
     capacitanceF: t.capacitor.capacitanceF,
     esrOhm: t.capacitor.esrOhm,
-    outputV: t.outputV ?? req.model.supplyNominalV,
-    inputAfterV: t.inputAfterV ?? 0,
+    ...fallingInputOf(t, req.model.supplyNominalV, ["turnOff"], assumptions),
     loadMinV: req.model.loadMinV ?? 0,
     tjC: t.tjC ?? r.ambient.maxC,
     timing: {

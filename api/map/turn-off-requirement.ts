@@ -3,14 +3,61 @@ import type { ReviewTurnOff } from "../../domain/review/review-turn-off.js";
 import { inputProblem } from "../input-problem.js";
 import { missingQrrSentence, ONE_OFF_EVENT } from "./reverse-inputs.js";
 
+/** What a turn-off event's input does: the output before it, the level after it and an optional decay to that level. */
+export interface FallingInput {
+  readonly outputV: number;
+  readonly inputAfterV: number;
+  readonly inputDecay?: { readonly startV: number; readonly tauS: number };
+}
+
+/**
+ * The one mapping of a turn-off event's input (the review's requirement.turnOff and sizing's
+ * turnOff): the output before the event (default the nominal supply) and the input after it
+ * (default 0 V, a short; a negative level allowed), with the decay from inputDecay.startV where
+ * given. Defaults said in `assumptions` (as `turnOff.<field>`); an input not below the output is
+ * refused, naming the field under `path`.
+ */
+export function fallingInputOf(
+  t: {
+    readonly outputV?: number | undefined;
+    readonly inputAfterV?: number | undefined;
+    readonly inputDecay?: { readonly startV: number; readonly timeConstantS: number } | undefined;
+  },
+  nominalV: number,
+  path: readonly string[],
+  assumptions: string[],
+): FallingInput {
+  if (t.inputAfterV === undefined) assumptions.push("turnOff.inputAfterV: 0 V (the input shorted)");
+  if (t.outputV === undefined) assumptions.push(`turnOff.outputV: the nominal supply ${nominalV} V before the event`);
+  const outputV = t.outputV ?? nominalV;
+  const inputAfterV = t.inputAfterV ?? 0;
+  if (!(inputAfterV < outputV))
+    throw inputProblem(
+      "invalid-input",
+      [...path, "inputAfterV"],
+      `must be below the output voltage before the event (${outputV} V)`,
+    );
+  const decay = t.inputDecay;
+  if (decay !== undefined && !(decay.startV < outputV))
+    throw inputProblem(
+      "invalid-input",
+      [...path, "inputDecay", "startV"],
+      `must be below the output voltage before the event (${outputV} V): the input falls at t = 0`,
+    );
+  return {
+    outputV,
+    inputAfterV,
+    ...(decay === undefined ? {} : { inputDecay: { startV: decay.startV, tauS: decay.timeConstantS } }),
+  };
+}
+
 /** The review's turn-off event: defaults recorded (a short from the nominal supply; Tj per candidate). */
 export function reviewTurnOffOf(
   t: NonNullable<Requirement["turnOff"]>,
   nominalV: number,
   assumptions: string[],
 ): ReviewTurnOff {
-  if (t.inputAfterV === undefined) assumptions.push("turnOff.inputAfterV: 0 V (the input shorted)");
-  if (t.outputV === undefined) assumptions.push(`turnOff.outputV: the nominal supply ${nominalV} V before the event`);
+  const input = fallingInputOf(t, nominalV, ["requirement", "turnOff"], assumptions);
   if (t.tjC === undefined)
     assumptions.push(
       "turnOff.tjC: each candidate's worst-case junction temperature over the corners (the highest ambient where no corner solved)",
@@ -29,25 +76,8 @@ export function reviewTurnOffOf(
   assumptions.push(
     "negative pulses at a P-FET candidate: each is the turn-off event's input, decaying with the pulse's time constant from its start (limited by the clamp) to a constant; applied with the supply disconnected (ISO 7637-2 pulse 1) the generator alone, the loop's resistance the generator's Ri (the wiring not added: the larger reverse current); riding on the supply (ISO 7637-2 pulse 3a, a negative surge) the generator and the battery at the nominal supply behind requirement.sourceResistanceOhm as one Thevenin source, Vth = Vb + A·Rb/(Ri + Rb)·e^(−t/τ) behind Ri‖Rb (Rb = 0 holds the input at the supply); the output, capacitance, ESR, inductance and gate lag the turnOff event's",
   );
-  const outputV = t.outputV ?? nominalV;
-  const inputAfterV = t.inputAfterV ?? 0;
-  if (!(inputAfterV < outputV))
-    throw inputProblem(
-      "invalid-input",
-      ["requirement", "turnOff", "inputAfterV"],
-      `must be below the output voltage before the event (${outputV} V)`,
-    );
-  const decay = t.inputDecay;
-  if (decay !== undefined && !(decay.startV < outputV))
-    throw inputProblem(
-      "invalid-input",
-      ["requirement", "turnOff", "inputDecay", "startV"],
-      `must be below the output voltage before the event (${outputV} V): the input falls at t = 0`,
-    );
   return {
-    inputAfterV,
-    ...(decay === undefined ? {} : { inputDecay: { startV: decay.startV, tauS: decay.timeConstantS } }),
-    outputV,
+    ...input,
     loopResistanceOhm: t.loop.resistanceOhm,
     loopInductanceH: t.loop.inductanceH,
     capacitanceF: t.capacitor.capacitanceF,

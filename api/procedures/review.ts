@@ -10,15 +10,12 @@ import { type CandidateVerdict, rankCandidates } from "../../domain/review/ranki
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { formatQuantity } from "../../domain/rules/quantity-text.js";
 import type { RuleSetResult } from "../../domain/rules/rule-model.js";
-import { datasheetMaxScale, switchTolerance, thresholdMinShiftV, worstTurnOffTiming } from "../map/datasheet-max.js";
 import { resolveStage } from "../map/resolve-stage.js";
-import { controllerTiming } from "../map/reverse-inputs.js";
+import { reviewCandidateInputs } from "../map/review-candidate.js";
 import { turnOffEventFields } from "../map/turn-off-output.js";
 import { toReviewRequirement } from "../map/requirement.js";
 import { reviewRuleInput } from "../../domain/rules/metrics-of-review.js";
 import { reviewMonteCarlo } from "../map/review-monte-carlo.js";
-import { transientAllowanceOf } from "../../domain/review/transient-allowance.js";
-import { transientThermalOf } from "../map/transient-thermal.js";
 import { resolveRuleSet } from "../map/rule-set.js";
 import { type Answer, defineProcedure } from "../define-procedure.js";
 
@@ -57,51 +54,20 @@ export const review = defineProcedure({
           `${path.join(".")}: a steady corner at or above the ${stage.model.thermalShutdownC} °C thermal shutdown is the switch turned off and the load unpowered (thermalShutdownInService), the part taken as latched off: the contract states no auto-retry`,
         );
       }
-      const transientThermal = transientThermalOf(
-        c.transientThermal,
-        stage.model,
-        [...path.slice(0, 2), "transientThermal"],
+      const { candidate: inputs } = reviewCandidateInputs(
+        input.requirement,
+        req,
+        set,
+        stage,
+        c,
+        path.slice(0, 2),
         assumptions,
       );
-      const datasheetMax = c.datasheetMax
-        ? datasheetMaxScale(c.datasheetMax, stage.model, [...path.slice(0, 2), "datasheetMax"])
-        : undefined;
-      const typicalTiming = req.model.turnOff
-        ? controllerTiming(
-            stage.spec,
-            stage.model,
-            c.turnOffTiming ?? input.requirement.turnOff?.timing,
-            c.turnOffTiming ? [...path.slice(0, 2), "turnOffTiming"] : ["requirement", "turnOff", "timing"],
-            assumptions,
-          )
-        : undefined;
-      const turnOffController = worstTurnOffTiming(
-        typicalTiming,
-        c.datasheetMax,
-        [...path.slice(0, 2), "datasheetMax"],
-        assumptions,
-      );
-      const switchTol = switchTolerance(
-        c.datasheetMax,
-        stage.model,
-        [...path.slice(0, 2), "datasheetMax"],
-        assumptions,
-      );
-      const turnOffThresholdShiftV = c.datasheetMax
-        ? thresholdMinShiftV(c.datasheetMax, stage.model, [...path.slice(0, 2), "datasheetMax"])
-        : 0;
-      // Unless the requirement sets its own derating, the clamp window follows the rule set.
-      const transientAllowanceV =
-        input.requirement.deratingFactor === undefined ? transientAllowanceOf(set, stage.model, req.model) : undefined;
+      const datasheetMax = inputs.datasheetMax;
       const r = reviewCandidate(req.model, {
         stage: stage.model,
-        transientThermal,
-        ...(transientAllowanceV ? { transientAllowanceV } : {}),
-        ...(datasheetMax ? { datasheetMax } : {}),
-        ...(turnOffController ? { turnOffController } : {}),
-        ...(turnOffThresholdShiftV === 0 ? {} : { turnOffThresholdShiftV }),
+        ...inputs,
         ...(input.curves ? { turnOffWaveform: true } : {}),
-        ...(switchTol ? { switchTolerance: switchTol } : {}),
       });
       const ruleInput = reviewRuleInput(stage.model, req.model, flags, r);
       const rules = evaluateRuleSet(set, ruleInput);

@@ -9,7 +9,9 @@ import {
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { matchCatalog } from "../../domain/sizing/catalog-match.js";
 import { specifyStage } from "../../domain/sizing/stage-spec.js";
+import type { CatalogPart } from "../context.js";
 import { inputProblem } from "../input-problem.js";
+import type { DatasheetMaxSpec } from "../map/datasheet-max.js";
 import { toReviewRequirement } from "../map/requirement.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { stageLabel } from "../map/reverse-inputs.js";
@@ -73,7 +75,7 @@ export const sizing = [
           throw inputProblem(
             "invalid-input",
             ["datasheetMax", field],
-            "one part's current limit or cut-off tolerance cannot stand for the whole catalog: leave it out here and give it per template (sizing.spec) or per candidate (review)",
+            "one part's current limit or cut-off tolerance cannot stand for the whole catalog: leave it out here and give it in the part's own catalog entry (datasheetMax), per template (sizing.spec) or per candidate (review)",
           );
       const wanted = input.kinds === undefined ? undefined : new Set<string>(input.kinds);
       const parts = ctx.catalog.list().filter((p) => wanted === undefined || wanted.has(p.stage.kind));
@@ -85,15 +87,17 @@ export const sizing = [
           assumptions,
           input.thermal,
         );
+        const corner = partCorner(p, dm, assumptions);
         const sctx = sizingContext(
           input.requirement,
           req,
           set,
           stage,
-          { datasheetMax: input.datasheetMax },
+          corner.datasheetMax === undefined ? {} : { datasheetMax: corner.datasheetMax },
           input.turnOff,
-          [],
+          corner.path,
           assumptions,
+          "report",
         );
         return {
           ctx: sctx,
@@ -115,3 +119,31 @@ export const sizing = [
     },
   }),
 ] as const;
+
+/**
+ * The datasheet-maximum corner a catalog part is judged at: its own (the catalog entry's
+ * datasheetMax), else the request's datasheetMax as the default, else typical values; which one,
+ * said in `assumptions`. `path` is where a refused value sits (the part's entry, or the request's).
+ */
+function partCorner(
+  p: CatalogPart,
+  requestDm: DatasheetMaxSpec | undefined,
+  assumptions: string[],
+): { datasheetMax?: DatasheetMaxSpec; path: (string | number)[] } {
+  if (p.datasheetMax !== undefined) {
+    assumptions.push(
+      `catalog.${p.id}: judged at its own datasheet-maximum corner (the catalog entry's datasheetMax)${requestDm === undefined ? "" : "; the request's datasheetMax is not applied to it"}`,
+    );
+    return { datasheetMax: p.datasheetMax, path: ["catalog", p.id] };
+  }
+  if (requestDm !== undefined) {
+    assumptions.push(
+      `catalog.${p.id}: its catalog entry carries no datasheetMax: judged at the request's datasheetMax (the default for such parts)`,
+    );
+    return { datasheetMax: requestDm, path: [] };
+  }
+  assumptions.push(
+    `catalog.${p.id}: its catalog entry carries no datasheetMax and the request gives none: judged at typical values only (no datasheet-maximum corner)`,
+  );
+  return { path: [] };
+}

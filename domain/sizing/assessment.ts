@@ -19,9 +19,11 @@ export interface TurnOffSizing {
   readonly loopInductanceH: number;
   readonly capacitanceF: number;
   readonly esrOhm: number;
-  /** Output voltage before the event, V, and the input from t = 0 on (0: a short), V. */
+  /** Output voltage before the event, V, and the input from t = 0 on (0: a short; negative: a reversed level), V. */
   readonly outputV: number;
   readonly inputAfterV: number;
+  /** An input decaying from startV to inputAfterV with time constant tauS (TurnOffModel.inputDecay). */
+  readonly inputDecay?: { readonly startV: number; readonly tauS: number };
   readonly loadMinV: number;
   readonly tjC: number;
   /** The template's timing: its threshold and gate discharge are held, its delay is what is sized. */
@@ -42,6 +44,8 @@ export interface SizingContext {
   /** The requirement's loss budget, W, used when no rule of the set reads the worst-case loss. */
   readonly lossBudgetW?: number;
   readonly turnOff?: TurnOffSizing;
+  /** Why the requirement's turn-off event cannot be run on this part (its review is then without it). */
+  readonly eventUnavailable?: string;
   /** Why the turn-off delay cannot be sized for this part (e.g. its trip threshold is unknown). */
   readonly turnOffUnavailable?: string;
 }

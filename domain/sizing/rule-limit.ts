@@ -8,7 +8,9 @@ import { fmt, limitItem, type SpecItem } from "./spec-item.js";
  * smallest of the upper bounds (or the largest of the lower bounds). The other names hold the
  * values of the template's review (`input`), so the limit is what this design needs of a part
  * otherwise like the template. A rule out of scope is skipped; when no rule is in scope the
- * line is "not-required"; when one applies but sets no threshold, "not-determined".
+ * line is "not-required"; when one applies but sets no threshold, "not-determined". Where the
+ * template misses a fail-severity bound, the line is the strictest of those (a stricter warn
+ * margin would otherwise report a failing part as only warned).
  */
 export function ruleLimitItem(
   set: CompiledRuleSet,
@@ -47,9 +49,15 @@ export function ruleLimitItem(
       reason: why.length > 0 ? why.join("; ") : `no rule of ${set.stamp.id} reads ${name}`,
     };
   }
-  const strictest = bounds.reduce((a, b) =>
-    (base.bound === "at-most" ? b.b.value < a.b.value : b.b.value > a.b.value) ? b : a,
-  );
+  const pick = (bs: typeof bounds) =>
+    bs.reduce((a, b) => ((base.bound === "at-most" ? b.b.value < a.b.value : b.b.value > a.b.value) ? b : a));
+  // The strictest bound, unless the part misses a fail-severity one: then the strictest of those,
+  // so that a part the review fails is not reported as only warned (a warn margin being stricter).
+  const fails = bounds.filter((f) => f.c.rule.severity === "fail");
+  const misses = (f: (typeof bounds)[number]) =>
+    templateValue !== undefined && limitItem(base, f.b.value, templateValue, { reason: "" }).meets === false;
+  const missedFails = fails.filter(misses);
+  const strictest = missedFails.length > 0 ? pick(missedFails) : pick(bounds);
   const r = strictest.c.rule;
   return limitItem(base, strictest.b.value, templateValue, {
     corner,

@@ -10,6 +10,7 @@ import { fmt, type SpecItem } from "./spec-item.js";
 import { startAlongProfileLimit } from "./start-limit.js";
 import { thermalSpec } from "./thermal-spec.js";
 import { turnOffDelayLimits } from "./turn-off-delay.js";
+import { turnOffEventItems } from "./turn-off-event-items.js";
 
 export interface StageSpecification {
   readonly stageKind: StageKind;
@@ -114,6 +115,7 @@ export function specifyStage(ctx: SizingContext, stage: StageModel): StageSpecif
   if (traits.control && startV !== undefined) items.push(...controllerItems(ctx, stage, startV, rule, part, metric));
   items.push(...thermalSpec(ctx, template.review.thermalSizing));
   items.push(...clampSpec(ctx, stage));
+  items.push(...turnOffEventItems(ctx, template));
   return { stageKind: stage.kind, items, template };
 }
 

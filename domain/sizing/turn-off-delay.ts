@@ -17,6 +17,7 @@ export function eventWithDelay(
     stage: withThresholdShift(stage, t.thresholdShiftV ?? 0),
     outputV: t.outputV,
     inputAfterV: t.inputAfterV,
+    ...(t.inputDecay === undefined ? {} : { inputDecay: t.inputDecay }),
     loopResistanceOhm: t.loopResistanceOhm,
     loopInductanceH: t.loopInductanceH,
     capacitanceF: t.capacitanceF,
@@ -41,10 +42,17 @@ export function eventWithDelay(
  * same way on the same interval.
  */
 export function turnOffDelayLimits(ctx: SizingContext, stage: StageModel, t: TurnOffSizing): SpecItem[] {
-  const corner = `input falls from ${fmt(t.outputV)} V to ${fmt(t.inputAfterV)} V, loop ${fmt(t.loopResistanceOhm)} Ω ${fmt(t.loopInductanceH)} H, ${fmt(t.capacitanceF)} F at the output, Tj ${fmt(t.tjC)} °C`;
+  const fall =
+    t.inputDecay === undefined
+      ? `input falls from ${fmt(t.outputV)} V to ${fmt(t.inputAfterV)} V`
+      : `input falls from ${fmt(t.outputV)} V to ${fmt(t.inputDecay.startV)} V and decays to ${fmt(t.inputAfterV)} V (τ ${fmt(t.inputDecay.tauS)} s)`;
+  const corner = `${fall}, loop ${fmt(t.loopResistanceOhm)} Ω ${fmt(t.loopInductanceH)} H, ${fmt(t.capacitanceF)} F at the output, Tj ${fmt(t.tjC)} °C`;
   const conditions = {
     outputV: t.outputV,
     inputAfterV: t.inputAfterV,
+    ...(t.inputDecay === undefined
+      ? {}
+      : { inputDecayStartV: t.inputDecay.startV, inputDecayTimeConstantS: t.inputDecay.tauS }),
     loopResistanceOhm: t.loopResistanceOhm,
     loopInductanceH: t.loopInductanceH,
     capacitanceF: t.capacitanceF,

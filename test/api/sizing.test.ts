@@ -239,7 +239,12 @@ describe("sizing.catalog", () => {
     const out = await catalog({ requirement: req, kinds: ["nfet-ideal-diode", "pfet-high-side"] });
     expect(out.parts.every((p) => p.stageKind === "nfet-ideal-diode" || p.stageKind === "pfet-high-side")).toBe(true);
     for (const p of out.parts) {
-      const r = await review({ requirement: req, candidates: [{ stage: { kind: "catalog-part", partId: p.partId } }] });
+      // At the part's own datasheet-maximum corner, as sizing.catalog judges it.
+      const dm = ctx.catalog.find(p.partId)?.datasheetMax;
+      const r = await review({
+        requirement: req,
+        candidates: [{ stage: { kind: "catalog-part", partId: p.partId }, ...(dm ? { datasheetMax: dm } : {}) }],
+      });
       const ruleFails = r.candidates[0]?.rules.verdicts.filter((v) => v.outcome === "fail").map((v) => v.ruleId) ?? [];
       const specRuleMisses = p.items
         .filter((i) => i.meets === false && i.source?.kind === "rule" && i.source.severity === "fail")
