@@ -1,4 +1,5 @@
 import { nearestName } from "../../contracts/zod-messages.js";
+import type { DatasheetMax } from "../../contracts/datasheet-max.js";
 import type { StageInput, StageSpec } from "../../contracts/stage.js";
 import type { ThermalPath } from "../../domain/physics/thermal-path.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
@@ -21,6 +22,8 @@ export interface ResolvedStage {
   readonly spec: StageSpec;
   readonly model: StageModel;
   readonly partId?: string;
+  /** A catalog part's own datasheet-maximum corner (its catalog entry's datasheetMax). */
+  readonly datasheetMax?: DatasheetMax;
 }
 
 /** The catalog's part of this id, or the `unknown-part` problem at `path`, with the nearest id ("did you mean"). */
@@ -66,10 +69,18 @@ export function resolveStage(
       }
       assumptions.push(...hit.assumptions);
       for (const f of hit.fits) noteFit(f);
-      return { spec: part.stage, model: hit.model, partId: part.id };
+      return { spec: part.stage, model: hit.model, partId: part.id, ...ownCorner(part) };
     }
     const thermal = thermalOverride ?? input.thermal ?? part.stage.thermal;
-    return { spec: part.stage, model: toStageModel(part.stage, thermal, [...path], assumptions), partId: part.id };
+    return {
+      spec: part.stage,
+      model: toStageModel(part.stage, thermal, [...path], assumptions),
+      partId: part.id,
+      ...ownCorner(part),
+    };
   }
   return { spec: input, model: toStageModel(input, thermalOverride ?? input.thermal, path, assumptions) };
 }
+
+const ownCorner = (part: CatalogPart): { datasheetMax?: DatasheetMax } =>
+  part.datasheetMax === undefined ? {} : { datasheetMax: part.datasheetMax };

@@ -10,6 +10,7 @@ import { type CandidateVerdict, rankCandidates } from "../../domain/review/ranki
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { formatQuantity } from "../../domain/rules/quantity-text.js";
 import type { RuleSetResult } from "../../domain/rules/rule-model.js";
+import { withPartCorner } from "../map/part-corner.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { reviewCandidateInputs } from "../map/review-candidate.js";
 import { turnOffEventFields } from "../map/turn-off-output.js";
@@ -35,9 +36,10 @@ export const review = defineProcedure({
       ...(input.requirement.lossBudgetW === undefined ? {} : { lossBudgetW: input.requirement.lossBudgetW }),
     };
 
-    const evaluated = input.candidates.map((c, index) => {
+    const evaluated = input.candidates.map((sent, index) => {
       const path = ["candidates", index, "stage"];
-      const stage = resolveStage(c.stage, ctx.catalog, path, assumptions, c.thermal);
+      const stage = resolveStage(sent.stage, ctx.catalog, path, assumptions, sent.thermal);
+      const c = withPartCorner(sent, stage, path, assumptions);
       const fet = stageMosfet(stage.model);
       if (fet !== undefined && fet.vdsTempCoPerK === undefined) {
         assumptions.push(

@@ -16,6 +16,7 @@ import { toReviewRequirement } from "../map/requirement.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { stageLabel } from "../map/reverse-inputs.js";
 import { resolveRuleSet } from "../map/rule-set.js";
+import { withPartCorner } from "../map/part-corner.js";
 import { sizingContext } from "../map/sizing-context.js";
 import { type Answer, defineProcedure } from "../define-procedure.js";
 
@@ -37,8 +38,10 @@ export const sizing = [
       const req = toReviewRequirement(input.requirement, assumptions);
       const set = resolveRuleSet(input.ruleSet ?? "default", ctx, ["ruleSet"]);
       if (input.ruleSet === undefined) assumptions.push("rule set: the built-in default (common practice)");
-      const specifications = input.templates.map((c, index) => {
-        const stage = resolveStage(c.stage, ctx.catalog, ["templates", index, "stage"], assumptions, c.thermal);
+      const specifications = input.templates.map((sent, index) => {
+        const path = ["templates", index, "stage"];
+        const stage = resolveStage(sent.stage, ctx.catalog, path, assumptions, sent.thermal);
+        const c = withPartCorner(sent, stage, path, assumptions);
         const sctx = sizingContext(
           input.requirement,
           req,

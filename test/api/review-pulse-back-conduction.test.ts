@@ -1,3 +1,4 @@
+import { TYPICAL } from "../helpers/stages.js";
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
@@ -18,7 +19,10 @@ async function reviewPfet(turnOffSection: object, extra: object = {}) {
   if (review === undefined) throw new Error("review missing");
   const requirement = { ...example.requirement, ...extra, transients: [PULSE_1, "iso7637-2-pulse-3a-12v"] };
   const r = reviewOutput.parse(
-    await review({ requirement: { ...requirement, turnOff: turnOffSection }, candidates: [{ stage: pfet }] }),
+    await review({
+      requirement: { ...requirement, turnOff: turnOffSection },
+      candidates: [{ stage: pfet, datasheetMax: TYPICAL }],
+    }),
   );
   const c = r.candidates[0];
   const p = c?.pulseBackConduction?.find((x) => x.pulseId === PULSE_1);

@@ -1,3 +1,4 @@
+import { TYPICAL } from "../helpers/stages.js";
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
@@ -76,7 +77,7 @@ describe("review with a turn-off section", () => {
   it("with a rating too small, the avalanche rule fails the candidate; without the section the rules are out of scope", async () => {
     if (review === undefined) throw new Error("review missing");
     const stage = { kind: "catalog-part", partId: "demo-ideal-diode-60v-3mohm" };
-    const base = { ...example, candidates: [{ stage }], monteCarlo: undefined };
+    const base = { ...example, candidates: [{ stage, datasheetMax: TYPICAL }], monteCarlo: undefined };
     const plain = reviewOutput.parse(
       await review({ ...base, requirement: { ...example.requirement, turnOff: undefined } }),
     );
@@ -122,7 +123,7 @@ describe("review with a turn-off section", () => {
       turnOff: { ...example.requirement.turnOff, inputAfterV: "-14 V", gateLag, loadReverseLimitV: "0.5 V" },
     };
     const pfet = { kind: "catalog-part", partId: "demo-pfet-40v-12mohm" };
-    const r = reviewOutput.parse(await review({ requirement, candidates: [{ stage: pfet }] }));
+    const r = reviewOutput.parse(await review({ requirement, candidates: [{ stage: pfet, datasheetMax: TYPICAL }] }));
     const c = r.candidates[0];
     const e = c?.turnOff?.event;
     if (c === undefined || e === undefined || e.outcome !== "does-not-block") throw new Error("no drain-back event");

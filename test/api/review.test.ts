@@ -1,3 +1,4 @@
+import { TYPICAL } from "../helpers/stages.js";
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
@@ -29,8 +30,8 @@ const base = {
   transients: [],
 };
 const schottky = { stage: { kind: "catalog-part", partId: "demo-schottky-10a-60v" } };
-const idealDiode = { stage: { kind: "catalog-part", partId: "demo-ideal-diode-60v-3mohm" } };
-const pfet = { stage: { kind: "catalog-part", partId: "demo-pfet-40v-12mohm" } };
+const idealDiode = { stage: { kind: "catalog-part", partId: "demo-ideal-diode-60v-3mohm" }, datasheetMax: TYPICAL };
+const pfet = { stage: { kind: "catalog-part", partId: "demo-pfet-40v-12mohm" }, datasheetMax: TYPICAL };
 
 describe("design review", () => {
   // Common practice (docs/references.md, facts of the trade): a Schottky drops about 0.5 V at 10 A, several watts; an ideal

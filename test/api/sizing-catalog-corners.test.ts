@@ -52,8 +52,10 @@ describe("sizing.catalog: each part at its own datasheet-maximum corner", () => 
     for (const id of [ideal, pfet]) {
       const p = out.parts.find((x) => x.partId === id);
       const atOwn = await reviewLoss(id, own(id));
-      const typical = await reviewLoss(id);
+      const typical = await reviewLoss(id, { rdsOnFactor: 1, forwardVoltageFactor: 1 });
       expect(p?.worstLossW).toBe(atOwn.loss);
+      // The review, too, takes the catalog part's own corner when the candidate gives none.
+      expect((await reviewLoss(id)).loss).toBe(atOwn.loss);
       // The corner matters: the typical part loses less.
       expect((typical.loss ?? 0) < (atOwn.loss ?? 0)).toBe(true);
       expect(out.assumptions).toContain(
@@ -94,5 +96,54 @@ describe("sizing.catalog: each part at its own datasheet-maximum corner", () => 
     expect(JSON.stringify(bad.error?.issues)).toContain("rdsOnMax");
     const low = catalogEntry.safeParse({ ...entry, datasheetMax: { rdsOnFactor: 0.9, forwardVoltageFactor: 1 } });
     expect(low.error?.issues[0]?.path).toEqual(["datasheetMax", "rdsOnFactor"]);
+  });
+});
+
+describe("review: a catalog part at its own datasheet-maximum corner", () => {
+  const ideal = "demo-ideal-diode-60v-3mohm";
+  const review = async (candidate: Record<string, unknown>) =>
+    (await call("review", {
+      requirement,
+      candidates: [{ stage: { kind: "catalog-part", partId: ideal }, ...candidate }],
+    })) as {
+      assumptions: string[];
+      candidates: { worst: { lossW?: { value: number } } }[];
+    };
+
+  it("takes the catalog entry's datasheetMax when the candidate gives none, and says so", async () => {
+    const r = await review({});
+    expect(r.assumptions).toContain(
+      `candidates.0.stage: judged at the catalog part's own datasheet-maximum corner (catalog ${ideal} datasheetMax)`,
+    );
+    const explicit = await review({ datasheetMax: own(ideal) });
+    expect(r.candidates[0]?.worst.lossW?.value).toBe(explicit.candidates[0]?.worst.lossW?.value);
+  });
+
+  it("the candidate's own datasheetMax wins over the catalog part's, said so", async () => {
+    const r = await review({ datasheetMax: { rdsOnFactor: 2, forwardVoltageFactor: 1 } });
+    expect(r.assumptions).toContain(
+      `candidates.0.stage: its own datasheetMax is used, not the catalog part's (catalog ${ideal})`,
+    );
+    const atOwn = await review({});
+    expect((r.candidates[0]?.worst.lossW?.value ?? 0) > (atOwn.candidates[0]?.worst.lossW?.value ?? 0)).toBe(true);
+  });
+});
+
+describe("sizing.spec: a catalog template at its own datasheet-maximum corner", () => {
+  it("takes the catalog entry's datasheetMax when the template gives none: the same specification as the explicit corner", async () => {
+    const ideal = "demo-ideal-diode-60v-3mohm";
+    const spec = async (template: Record<string, unknown>) =>
+      (await call("sizing.spec", {
+        requirement,
+        templates: [{ stage: { kind: "catalog-part", partId: ideal }, ...template }],
+      })) as { assumptions: string[]; specifications: { items: unknown[] }[] };
+    const implicit = await spec({});
+    const explicit = await spec({ datasheetMax: own(ideal) });
+    const typical = await spec({ datasheetMax: { rdsOnFactor: 1, forwardVoltageFactor: 1 } });
+    expect(implicit.assumptions).toContain(
+      `templates.0.stage: judged at the catalog part's own datasheet-maximum corner (catalog ${ideal} datasheetMax)`,
+    );
+    expect(implicit.specifications).toEqual(explicit.specifications);
+    expect(implicit.specifications).not.toEqual(typical.specifications);
   });
 });

@@ -1,3 +1,4 @@
+import { TYPICAL } from "../helpers/stages.js";
 import { describe, expect, it } from "vitest";
 import { procedureInvoker } from "../../adapters/batch/run-batch.js";
 import { sizingCatalogOutput, sizingSpecOutput } from "../../contracts/sizing.js";
@@ -65,7 +66,7 @@ const requirement = {
   inputClamp: { standoffV: 33, clampV: 45 },
   lossBudgetW: 0.6,
 };
-const idealTemplate = { stage: { kind: "catalog-part", partId: "demo-ideal-diode-60v-3mohm" } };
+const idealTemplate = { stage: { kind: "catalog-part", partId: "demo-ideal-diode-60v-3mohm" }, datasheetMax: TYPICAL };
 
 describe("sizing.spec round trip through the review", () => {
   // Source: the review procedure itself is the check — a part built exactly at the limit must put

@@ -66,3 +66,10 @@ export function lowSideFet(rdsOnOhm: number, rth: number, tempLaw: RdsTempLaw): 
     thermal: { kind: "junction-ambient", rthJaKPerW: rth },
   };
 }
+
+/**
+ * The typical corner, given explicitly: a catalog part that carries its own datasheetMax is
+ * otherwise judged at it (api/map/part-corner.ts); tests comparing with a typical-value model
+ * pin the candidate here.
+ */
+export const TYPICAL = { rdsOnFactor: 1, forwardVoltageFactor: 1 } as const;
