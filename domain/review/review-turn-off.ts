@@ -23,7 +23,7 @@ export interface ReviewTurnOff {
   readonly clampV?: number;
   /** The event repeats in service (its energy is held to the repetitive avalanche rating too). */
   readonly repetitive: boolean;
-  /** A P-FET candidate's gate lag, s (pfet-gate-off.ts). */
+  /** A P-FET's or low-side N-FET's gate lag, s (pfet-gate-off.ts). */
   readonly gateLagS?: number;
   /** The largest reverse voltage the load tolerates (magnitude), V. */
   readonly loadReverseLimitV?: number;
@@ -85,7 +85,7 @@ export function reviewTurnOff(
     ...(t.reverseRecoveryChargeC === undefined ? {} : { reverseRecoveryChargeC: t.reverseRecoveryChargeC }),
     ...(t.clampV === undefined ? {} : { clampV: t.clampV }),
     ...(avalancheRatingJ === undefined ? {} : { avalancheRatingJ }),
-    ...(t.gateLagS === undefined || cand.stage.kind !== "pfet-high-side" ? {} : { gateLagS: t.gateLagS }),
+    ...(t.gateLagS === undefined || !gateFollowsOutput(cand.stage) ? {} : { gateLagS: t.gateLagS }),
   };
   const result = turnOffEvent(model);
   const waveform = cand.turnOffWaveform ? turnOffWaveform(model, result) : undefined;
@@ -105,6 +105,11 @@ export function reviewTurnOff(
     ...(waveform ? { waveform } : {}),
     ...(train === undefined ? {} : { train }),
   };
+}
+
+/** A stage whose gate is fed from the supply, so that its gate-source sees the output (supply-gated-fet.ts). */
+export function gateFollowsOutput(stage: StageModel): boolean {
+  return stage.kind === "pfet-high-side" || stage.kind === "nfet-low-side";
 }
 
 /**
