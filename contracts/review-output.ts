@@ -196,7 +196,7 @@ export const candidateResult = z.object({
     .optional()
     .meta({
       description:
-        "with the requirement's turnOff, a P-FET candidate: each negative pulse as the turn-off event's input (a decaying level: the generator alone where the supply is disconnected, the generator and the battery as one Thevenin source where the pulse rides on the supply), the channel conducting backwards until its gate lets go",
+        "with the requirement's turnOff, a P-FET or low-side N-FET candidate (its gate-source sees the output): each negative pulse as the turn-off event's input (a decaying level: the generator alone where the supply is disconnected, the generator and the battery as one Thevenin source where the pulse rides on the supply), the channel conducting backwards until its gate lets go",
     }),
   reverse: z.unknown().meta({
     description: "steady reverse polarity: blocking element, voltage vs rating, leakage, junction temperature",

@@ -113,8 +113,9 @@ export interface CandidateReview {
   readonly blocksReverseCurrent: boolean;
   readonly turnOff?: ReviewTurnOffResult;
   /**
-   * With the requirement's turn-off event, a P-FET candidate: each negative pulse through the same
-   * event model (review-pulse-back-conduction.ts), its reverse current, charge lost and output minimum.
+   * With the requirement's turn-off event, a P-FET or low-side N-FET candidate: each negative pulse
+   * through the same event model (review-pulse-back-conduction.ts), its reverse current, charge lost
+   * and output minimum.
    */
   readonly pulseBackConduction?: readonly PulseBackConduction[];
   /** The start-up charge of the output capacitance (with the requirement's inrush). */
