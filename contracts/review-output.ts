@@ -178,7 +178,11 @@ export const candidateResult = z.object({
             description:
               "turned-off: the lagged |Vgs| fell below threshold; conducts-throughout: the output held it above (the battery holds the output), the channel conducting backwards into the pulse, its reverse peak the figure",
           }),
-          channelOffS: z.number().optional().meta({ description: "when the P-FET's gate turned its channel off" }),
+          channelOffS: z.number().optional().meta({ description: "when the FET's gate turned its channel off" }),
+          outputAtLetGoV: z.number().optional().meta({
+            description:
+              "once the channel let go and the loop current stopped: the output its body diode holds against the input (the element's transient stress adds it to the input's peak)",
+          }),
           peakReverseCurrentA: z.number(),
           peakReverseIsLowerBound: z.literal(true).optional().meta({
             description: "the current still rising at the end of the simulated span: the peak is a lower bound",

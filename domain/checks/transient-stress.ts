@@ -28,6 +28,12 @@ export interface TransientContext {
   readonly overvoltageV?: number;
   /** Voltage held at the output by the hold-up capacitor during a negative pulse, V. */
   readonly outputHeldV: number;
+  /**
+   * A stage that does not block reverse current (a supply-gated FET): the output its body diode
+   * holds once the channel let go in this pulse (the back-conduction model,
+   * review-pulse-back-conduction.ts), V; absent: the output taken at 0 V.
+   */
+  readonly letGoOutputV?: number;
   /** Share of a rating the design may use (e.g. 0.8), 0..1. */
   readonly deratingFactor: number;
   /** Smallest ratio of a clamp's clamping voltage to its standoff voltage (common practice, ~1.3). */
@@ -133,7 +139,16 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
     const dc = designClamp(mirrored);
     const magnitude = limitByClamp(-peak, dc);
     const { stress: rs } = reverseStress(stage, magnitude);
-    const held = blocks ? ctx.outputHeldV : 0;
+    // A stage that does not block reverse current (a P-FET with its gate at ground, a low-side
+    // N-FET with its gate from the positive rail) conducts backwards until its channel lets go
+    // (review-pulse-back-conduction.ts): until then Vds is the channel's small drop; afterwards the
+    // body diode holds the output at the let-go, V_out, against the input, whose most negative
+    // level is the peak. Kept: |peak| + max(V_out, 0), the conservative figure: at least the
+    // back-conduction's own V_out − V_in(let-go) (the input has recovered part-way by then) and at
+    // least the figure without the back-conduction (the output at 0 V against the peak), which
+    // stays where the channel conducts throughout or the model gave no let-go. The reverse drain
+    // current's peak is not held to a pulsed drain current rating: the MOSFET contract has none.
+    const held = blocks ? ctx.outputHeldV : Math.max(ctx.letGoOutputV ?? 0, 0);
     const stresses = [stress(rs.blockingElement, magnitude + held, rs.ratingV)];
     if (rs.controllerReverseV !== undefined) stresses.push(stress("controller-input", magnitude, rs.controllerRatingV));
     // Budget at the input: each element's allowance less what the held output adds to it.

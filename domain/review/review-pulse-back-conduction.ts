@@ -29,6 +29,8 @@ export type PulseBackConduction =
       readonly channel: "turned-off" | "conducts-throughout";
       /** The channel's turn-off by its gate, s (absent: it did not turn off over the span). */
       readonly channelOffS?: number;
+      /** Once the channel let go and the loop current stopped: the output its body diode holds against the input, V. */
+      readonly outputAtLetGoV?: number;
       readonly peakReverseCurrentA: number;
       /** The channel conducting throughout with the current still rising at the span's end: the peak is only a lower bound. */
       readonly peakReverseIsLowerBound?: true;
@@ -160,7 +162,7 @@ function figures(
     ...(batteryOhm === undefined ? {} : { batteryResistanceOhm: batteryOhm }),
     eventOutcome: x.outcome,
     channel: gate === undefined ? "conducts-throughout" : "turned-off",
-    ...(gate === undefined ? {} : { channelOffS: gate.channelOffS }),
+    ...(gate === undefined ? {} : { channelOffS: gate.channelOffS, outputAtLetGoV: gate.end.outputV }),
     peakReverseCurrentA: gate?.peakReverseCurrentA ?? x.peakReverseCurrentA,
     ...(gate === undefined && x.peakReverseIsLowerBound === true ? { peakReverseIsLowerBound: true as const } : {}),
     chargeLostC: gate?.chargeLostC ?? x.end.chargeLostC,

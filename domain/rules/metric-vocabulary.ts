@@ -114,7 +114,8 @@ export const METRICS: readonly MetricDef[] = [
     name: "reverseTransientVMaxV",
     type: "number",
     unit: "V",
-    meaning: "magnitude of the worst negative transient peak the blocking element sees, after any clamp",
+    meaning:
+      "magnitude of the worst negative transient peak the blocking element sees, after any clamp (plus the output it holds: a blocking stage's held output; a P-FET's or low-side N-FET's output where its channel let go)",
     stageKinds: "all",
     providedBy: REVIEW,
   },
