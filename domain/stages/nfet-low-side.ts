@@ -27,8 +27,9 @@ export const nfetLowSide: StageBehaviour<NFetLowSideStage> = {
       outputV,
       "a low-side N-FET with its gate fed from the positive rail keeps Vgs = V(output) (the rail against the module's ground, its source): it conducts backwards until the output falls below its threshold",
     ),
-  reverseConduction: (stage, leftV, _rightV, tK) =>
-    channelOrBodyDiode(stage, onOhm(stage.mosfet, clampV(leftV, stage.gateClampV), tK)),
+  // Steady reverse, the output above the input: the same gate reference, the output (rightV).
+  reverseConduction: (stage, _leftV, rightV, tK) =>
+    channelOrBodyDiode(stage, onOhm(stage.mosfet, clampV(rightV, stage.gateClampV), tK)),
   reverseStress: (stage, reverseV) => ({
     stress: {
       blockingElement: "body-diode",

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { transientStress } from "../../../domain/checks/transient-stress.js";
 import { turnOffEvent } from "../../../domain/checks/turn-off-event.js";
 import { pulseBackConduction } from "../../../domain/review/review-pulse-back-conduction.js";
+import { behaviourOf } from "../../../domain/stages/stage-behaviours.js";
 import type { ReviewTurnOff } from "../../../domain/review/review-turn-off.js";
 import type { TransientPulse } from "../../../domain/review/transient-library.js";
 import type { StageModel } from "../../../domain/stages/stage-model.js";
@@ -79,6 +80,12 @@ describe("a low-side N-FET under a negative pulse: its gate follows the output, 
     if (r.outcome !== "does-not-block") throw new Error(r.outcome);
     expect(r.gateTurnOff?.channelOffS).toBeGreaterThan(0);
     expect(r.gateTurnOff?.peakReverseCurrentA).toBeGreaterThan(IL);
+  });
+
+  it("steady reverse, the output at 12 V above a 0 V input: the output holds the channel on, as a P-FET's", () => {
+    const n = behaviourOf(stage).reverseConduction(stage, 0, V0, 298.15);
+    expect(n).toEqual({ kind: "channel", ohm: 0.005, bodyDiode: base.mosfet.bodyDiode });
+    expect(n).toEqual(behaviourOf(mirror).reverseConduction(mirror, 0, V0, 298.15));
   });
 
   it("the same figures as the P-FET with the same part: the loop and the gate's reference are the same", () => {
