@@ -5,6 +5,7 @@ import { stageAvalancheEnergyJ } from "../checks/stage-ratings.js";
 import { type TurnOffModel, type TurnOffOutcome, turnOffEvent } from "../checks/turn-off-event.js";
 import { type TurnOffWaveform, turnOffWaveform } from "../checks/turn-off-waveform.js";
 import type { LoadModel } from "../solve/load-model.js";
+import { behaviourOf } from "../stages/stage-behaviours.js";
 import type { StageModel } from "../stages/stage-model.js";
 
 /** The turn-off event of the review: the turnOff analysis's loop, with the output and Tj defaulted per candidate. */
@@ -107,9 +108,12 @@ export function reviewTurnOff(
   };
 }
 
-/** A stage whose gate is fed from the supply, so that its gate-source sees the output (supply-gated-fet.ts). */
+/**
+ * A FET whose gate is fed from the supply (a P-FET's gate to ground, a low-side N-FET's from the
+ * positive rail; supply-gated-fet.ts): its gate-source sees the output, lagged by its gate resistor.
+ */
 export function gateFollowsOutput(stage: StageModel): boolean {
-  return stage.kind === "pfet-high-side" || stage.kind === "nfet-low-side";
+  return behaviourOf(stage).sizing.gateFromSupply;
 }
 
 /**
