@@ -178,7 +178,11 @@ export const candidateResult = z.object({
             description:
               "turned-off: the lagged |Vgs| fell below threshold; conducts-throughout: the output held it above (the battery holds the output), the channel conducting backwards into the pulse, its reverse peak the figure",
           }),
-          channelOffS: z.number().optional().meta({ description: "when the P-FET's gate turned its channel off" }),
+          channelOffS: z.number().optional().meta({ description: "when the FET's gate turned its channel off" }),
+          outputAtLetGoV: z.number().optional().meta({
+            description:
+              "once the channel let go and the loop current stopped: the output its body diode holds against the input (the element's transient stress adds it to the input's peak)",
+          }),
           peakReverseCurrentA: z.number(),
           peakReverseIsLowerBound: z.literal(true).optional().meta({
             description: "the current still rising at the end of the simulated span: the peak is a lower bound",
@@ -196,7 +200,7 @@ export const candidateResult = z.object({
     .optional()
     .meta({
       description:
-        "with the requirement's turnOff, a P-FET candidate: each negative pulse as the turn-off event's input (a decaying level: the generator alone where the supply is disconnected, the generator and the battery as one Thevenin source where the pulse rides on the supply), the channel conducting backwards until its gate lets go",
+        "with the requirement's turnOff, a P-FET or low-side N-FET candidate (its gate-source sees the output): each negative pulse as the turn-off event's input (a decaying level: the generator alone where the supply is disconnected, the generator and the battery as one Thevenin source where the pulse rides on the supply), the channel conducting backwards until its gate lets go",
     }),
   reverse: z.unknown().meta({
     description: "steady reverse polarity: blocking element, voltage vs rating, leakage, junction temperature",

@@ -80,16 +80,23 @@ export const inputDecayField = z
       "the input after the event decays exponentially from startV to inputAfterV with time constant τ (a negative pulse's tail, a source's output capacitance discharging) instead of stepping to inputAfterV (absent: the input steps to inputAfterV)",
   });
 
-/** A P-FET's gate tied to ground through a resistor: how fast its |Vgs| follows the falling output. */
+/**
+ * A supply-gated FET's gate resistor (a P-FET's to ground, a low-side N-FET's from the positive
+ * rail): how fast its |Vgs| follows the falling output.
+ */
 export const pfetGateLag = z
   .strictObject({
-    resistanceOhm: quantity("ohm", "gate-to-ground resistance", { gt: 0, le: 1e9 }),
+    resistanceOhm: quantity(
+      "ohm",
+      "gate resistor (a P-FET's gate to ground, a low-side N-FET's gate from the positive rail)",
+      { gt: 0, le: 1e9 },
+    ),
     gateChargeC: quantity("C", "the MOSFET's total gate charge Qg", { gt: 0, le: 1e-3 }),
     atGateSourceV: quantity("V", "the gate-source voltage Qg is given at (magnitude)", { gt: 0, le: 100 }),
   })
   .meta({
     description:
-      "a P-FET's gate resistor and gate charge: its |Vgs| lags the output by Rg·Qg/Vgs, keeping the channel on (and the output following a negative input below 0 V) until it falls below threshold (default: no lag)",
+      "a P-FET's or low-side N-FET's gate resistor and gate charge: its |Vgs| lags the output by Rg·Qg/Vgs, keeping the channel on (and the output following a negative input below 0 V) until it falls below threshold (default: no lag)",
   });
 
 export const loadReverseLimitField = quantity(

@@ -1,7 +1,7 @@
 import type { Requirement } from "../../contracts/requirement.js";
 import type { ParallelLoad } from "../../domain/checks/clamp-energy.js";
 import type { ClampPowerRating } from "../../domain/checks/clamp-rating.js";
-import type { InputClamp } from "../../domain/checks/transient-stress.js";
+import type { InputClamp } from "../../domain/checks/transient-clamp.js";
 
 /** The input clamp: its law and power rating, defaults recorded (clamp-rating.ts). */
 export function inputClampOf(c: NonNullable<Requirement["inputClamp"]>, assumptions: string[]): InputClamp {

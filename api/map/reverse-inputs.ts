@@ -2,6 +2,7 @@ import { behaviourOf } from "../../domain/stages/stage-behaviours.js";
 import type { StageSpec } from "../../contracts/stage.js";
 import type { ControllerTurnOff } from "../../domain/checks/reverse-path.js";
 import type { LoadModel } from "../../domain/solve/load-model.js";
+import { gateFollowsOutput } from "../../domain/review/review-turn-off.js";
 import type { StageModel } from "../../domain/stages/stage-model.js";
 import { inputProblem } from "../input-problem.js";
 
@@ -96,9 +97,10 @@ export const ONE_OFF_EVENT = (field: string): string =>
   `${field}: false (a one-off event: its energy is held to the single-pulse avalanche rating, not to the repetitive one)`;
 
 /**
- * A P-FET's gate lag Rg·Qg/Vgs from the request's gateLag (pfet-gate-off.ts), with the sentence
- * for a P-FET stage that gives none (its gate then follows the output at once: the channel turns
- * off as soon as the output is below threshold, the least reverse voltage at the load).
+ * A supply-gated FET's gate lag Rg·Qg/Vgs from the request's gateLag (pfet-gate-off.ts), with the
+ * sentence for a P-FET or low-side N-FET stage that gives none (its gate then follows the output
+ * at once: the channel turns off as soon as the output is below threshold, the least reverse
+ * voltage at the load).
  */
 export function gateLagOf(
   given: { resistanceOhm: number; gateChargeC: number; atGateSourceV: number } | undefined,
@@ -107,9 +109,9 @@ export function gateLagOf(
   assumptions: string[],
 ): number | undefined {
   if (given !== undefined) return (given.resistanceOhm * given.gateChargeC) / given.atGateSourceV;
-  if (model.kind === "pfet-high-side")
+  if (gateFollowsOutput(model))
     assumptions.push(
-      `${field}: not given, so the P-FET's gate follows the output at once (no gate resistor lag): its channel turns off as soon as the output falls below threshold; a gate resistor keeps it on longer and lets a negative input pull the output lower`,
+      `${field}: not given, so the ${model.kind === "pfet-high-side" ? "P-FET" : "low-side N-FET"}'s gate follows the output at once (no gate resistor lag): its channel turns off as soon as the output falls below threshold; a gate resistor keeps it on longer and lets a negative input pull the output lower`,
     );
   return undefined;
 }

@@ -9,11 +9,9 @@ export { type ControllerTurnOff, gateDischargeS } from "../stages/turn-off-timin
  * - "controller": the channel conducts backwards until the reverse drop i·Rds reaches the
  *   comparator threshold, then turns off after the delay (plus gate discharge);
  * - "diode": conducts in reverse only while its stored (reverse-recovery) charge is removed;
- * - "channel-stays-on": a P-FET with its gate at ground keeps |Vgs| = V(output) and conducts
- *   backwards (it does not block); a low-side N-FET whose gate is held by a remaining input
- *   above threshold does the same;
- * - "gate-falls": a low-side N-FET whose input (its gate drive) fell below threshold turns off
- *   after the gate discharge; its body diode then blocks.
+ * - "channel-stays-on": a FET whose gate is fed from the supply (a P-FET with its gate at ground,
+ *   a low-side N-FET with its gate fed from the positive rail) keeps |Vgs| = V(output) and
+ *   conducts backwards (it does not block) until that, lagged, falls below threshold;
  * A MOSFET whose channel is already off before the event conducts through its body diode and
  * is treated as a diode. The channel resistance is taken at the pre-event gate drive and
  * junction temperature.
@@ -32,12 +30,12 @@ export type ReversePath =
       readonly thresholdV: number;
       readonly reason: string;
       /**
-       * A P-FET whose gate sits at ground: its |Vgs| is the output (up to its gate clamp), lagged
-       * by the gate's R·C, so the channel turns off once that falls below threshold.
+       * A FET whose gate is fed from the supply (supply-gated-fet.ts gateFromOutputPath): its |Vgs|
+       * is the output (up to its gate clamp), lagged by the gate's R·C, so the channel turns off
+       * once that falls below threshold.
        */
       readonly gateFromOutput?: { readonly clampV?: number | undefined };
-    }
-  | { readonly kind: "gate-falls"; readonly channelOhm: number; readonly offDelayS: number };
+    };
 
 /** inputBeforeV: input before the event (gate drive); inputAfterV: the input after it. */
 export function reversePath(

@@ -1,11 +1,18 @@
 import type { TransientPulse } from "../review/transient-library.js";
 import type { StageModel } from "../stages/stage-model.js";
-import { type ClampResult, clampExponential, clampPulse, type ParallelLoad, tauFromDecay } from "./clamp-energy.js";
-import { allowedPeakPowerW, type ClampPowerRating } from "./clamp-rating.js";
-import { type ClampTrain, clampTrainTj } from "./clamp-train.js";
-import type { FosterTerm } from "../physics/foster.js";
+import { type ParallelLoad, tauFromDecay } from "./clamp-energy.js";
 import { reverseStress } from "./reverse-steady.js";
 import { blocksReverseCurrent, forwardLimits } from "./stage-ratings.js";
+import {
+  type ClampDuty,
+  type ClampRequirement,
+  clampFor,
+  clampLawOf,
+  designClampDuty,
+  type InputClamp,
+} from "./transient-clamp.js";
+
+export type { ClampDuty, ClampRequirement } from "./transient-clamp.js";
 
 export interface TransientContext {
   /** Nominal supply, V: the base of pulses that ride on the supply. */
@@ -21,6 +28,12 @@ export interface TransientContext {
   readonly overvoltageV?: number;
   /** Voltage held at the output by the hold-up capacitor during a negative pulse, V. */
   readonly outputHeldV: number;
+  /**
+   * A stage that does not block reverse current (a supply-gated FET): the output its body diode
+   * holds once the channel let go in this pulse (the back-conduction model,
+   * review-pulse-back-conduction.ts), V; absent: the output taken at 0 V.
+   */
+  readonly letGoOutputV?: number;
   /** Share of a rating the design may use (e.g. 0.8), 0..1. */
   readonly deratingFactor: number;
   /** Smallest ratio of a clamp's clamping voltage to its standoff voltage (common practice, ~1.3). */
@@ -50,59 +63,12 @@ function allowanceKey(element: string, polarity: "negative" | "positive"): keyof
   return element === "gate-source" ? "gateSource" : undefined;
 }
 
-export interface InputClamp {
-  readonly standoffV: number;
-  /** Clamping voltage at the rated peak current (constant where no breakdown voltage is given), V. */
-  readonly clampV: number;
-  /** Breakdown voltage VBR; with the rated peak current it gives the dynamic resistance (clampV − VBR)/Ipp. */
-  readonly breakdownV?: number | undefined;
-  readonly peakCurrentA?: number | undefined;
-  readonly energyJ?: number | undefined;
-  /** Peak pulse power at its reference pulse, with its Tj(max) (clamp-rating.ts). */
-  readonly power?: ClampPowerRating | undefined;
-  /** The clamp's maximum junction temperature, °C. */
-  readonly tjMaxC?: number | undefined;
-  /** Junction-to-ambient Foster network of the clamp: its Tj over a pulse train (clamp-train.ts). */
-  readonly thermal?: readonly FosterTerm[] | undefined;
-}
-
-/** The clamp's law: breakdown and dynamic resistance where both are known, else the constant clamping voltage. */
-export function clampLawOf(c: InputClamp): { breakdownV: number; dynamicOhm: number } {
-  if (c.breakdownV === undefined || c.peakCurrentA === undefined) return { breakdownV: c.clampV, dynamicOhm: 0 };
-  return { breakdownV: c.breakdownV, dynamicOhm: (c.clampV - c.breakdownV) / c.peakCurrentA };
-}
-
-/** What the design's own clamp does in a pulse, against its ratings. */
-export interface ClampDuty {
-  readonly duty: ClampResult;
-  readonly withinPeakCurrent: boolean | undefined;
-  readonly withinEnergy: boolean | undefined;
-  /** Peak pulse power allowed at this pulse's width and the clamp's starting Tj, W (absent: no power rating). */
-  readonly allowedPeakPowerW?: number;
-  readonly withinPeakPower: boolean | undefined;
-  /** Its standoff must clear the steady supply and steady reverse voltage, or it conducts them. */
-  readonly standoffClearsSteady: boolean;
-  /** Its junction over the test's train of this pulse (with the clamp's thermal network and the pulse's repetition). */
-  readonly train?: ClampTrain;
-}
-
 export interface ElementStress {
   readonly element: string;
   readonly seenV: number;
   readonly ratingV: number | undefined;
   readonly allowedV: number | undefined;
   readonly exceeds: boolean;
-}
-
-export interface ClampRequirement {
-  /** The clamp must not conduct below this (steady supply or steady reverse), V. */
-  readonly standoffMinV: number;
-  /** The clamp must hold the input at or below this for every element to stay within its allowance, V. */
-  readonly clampMaxV: number;
-  readonly feasible: boolean;
-  /** The clamp's duty at clampMaxV (the least-current clamp inside the window). */
-  readonly atClampMax: ClampResult;
-  readonly note: string;
 }
 
 export interface TransientResult {
@@ -155,47 +121,8 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
   };
 
   const own = ctx.inputClamp;
-  const designClamp = (p: { baseV: number; amplitudeV: number }, load?: ParallelLoad): ClampDuty | undefined => {
-    if (own === undefined) return undefined;
-    const duty = clampPulse(
-      {
-        baseV: p.baseV,
-        amplitudeV: p.amplitudeV,
-        tauS,
-        sourceResistanceOhm: pulse.sourceResistanceOhm,
-        riseS: pulse.riseS,
-      },
-      clampLawOf(own),
-      load,
-    );
-    const allowedW =
-      own.power !== undefined && duty.conducts === true
-        ? allowedPeakPowerW(own.power, duty.currentHalfWidthS, ctx.clampTjC ?? 25)
-        : undefined;
-    // A clamp that conducts the supply the pulse rides on ("always") is within no rating.
-    const within = (rating: number | undefined, duty_: (d: Extract<ClampResult, { conducts: true }>) => number) =>
-      rating === undefined
-        ? undefined
-        : duty.conducts === false
-          ? true
-          : duty.conducts === true
-            ? duty_(duty) <= rating
-            : false;
-    const train =
-      own.thermal !== undefined && pulse.repetition !== undefined && duty.conducts === true
-        ? clampTrainTj(duty.energyJ, duty.peakPowerW, own.thermal, pulse.repetition, ctx.clampTjC ?? 25)
-        : undefined;
-    return {
-      duty,
-      ...(train === undefined ? {} : { train }),
-      withinPeakCurrent: within(own.peakCurrentA, (d) => d.peakCurrentA),
-      withinEnergy: within(own.energyJ, (d) => d.energyJ),
-      ...(allowedW === undefined ? {} : { allowedPeakPowerW: allowedW }),
-      withinPeakPower:
-        own.power === undefined ? undefined : within(allowedW ?? own.power.peakPulsePowerW, (d) => d.peakPowerW),
-      standoffClearsSteady: own.standoffV >= Math.max(ctx.supplyMaxV, ctx.reverseV, ctx.overvoltageV ?? 0),
-    };
-  };
+  const designClamp = (p: { baseV: number; amplitudeV: number }, load?: ParallelLoad): ClampDuty | undefined =>
+    own === undefined ? undefined : designClampDuty(own, { ...p, tauS, pulse }, ctx, load);
   // A module clamp below a central suppressor takes the generator's whole current: the central one
   // stops conducting once the line is below its level (ISO 16750-2 test B on the bench).
   // The input peak is the clamp's voltage at its peak current (above clampV when the pulse drives more than the rated current).
@@ -212,7 +139,16 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
     const dc = designClamp(mirrored);
     const magnitude = limitByClamp(-peak, dc);
     const { stress: rs } = reverseStress(stage, magnitude);
-    const held = blocks ? ctx.outputHeldV : 0;
+    // A stage that does not block reverse current (a P-FET with its gate at ground, a low-side
+    // N-FET with its gate from the positive rail) conducts backwards until its channel lets go
+    // (review-pulse-back-conduction.ts): until then Vds is the channel's small drop; afterwards the
+    // body diode holds the output at the let-go, V_out, against the input, whose most negative
+    // level is the peak. Kept: |peak| + max(V_out, 0), the conservative figure: at least the
+    // back-conduction's own V_out − V_in(let-go) (the input has recovered part-way by then) and at
+    // least the figure without the back-conduction (the output at 0 V against the peak), which
+    // stays where the channel conducts throughout or the model gave no let-go. The reverse drain
+    // current's peak is not held to a pulsed drain current rating: the MOSFET contract has none.
+    const held = blocks ? ctx.outputHeldV : Math.max(ctx.letGoOutputV ?? 0, 0);
     const stresses = [stress(rs.blockingElement, magnitude + held, rs.ratingV)];
     if (rs.controllerReverseV !== undefined) stresses.push(stress("controller-input", magnitude, rs.controllerRatingV));
     // Budget at the input: each element's allowance less what the held output adds to it.
@@ -276,33 +212,4 @@ export function transientStress(stage: StageModel, pulse: TransientPulse, ctx: T
     clamp,
     ...(dc ? { designClamp: dc } : {}),
   };
-}
-
-function clampFor(
-  pulse: { baseV: number; amplitudeV: number; tauS: number; sourceResistanceOhm: number },
-  standoffMinV: number,
-  clampMaxV: number,
-  ctx: TransientContext,
-): TransientResult["clamp"] {
-  if (!Number.isFinite(clampMaxV) || clampMaxV <= 0) {
-    return {
-      needed: "unmodelled",
-      note: "a part in the path states no rating for this polarity: no clamp window can be given",
-    };
-  }
-  const feasible = clampMaxV >= standoffMinV * ctx.clampToStandoffRatio;
-  return {
-    needed: true,
-    standoffMinV,
-    clampMaxV,
-    feasible,
-    atClampMax: clampExponential(pulse, clampMaxV),
-    note: feasible
-      ? `a clamp with standoff ≥ ${round(standoffMinV)} V clamping at ≤ ${round(clampMaxV)} V keeps every part within its allowance`
-      : `no clamp fits: it must stand off ${round(standoffMinV)} V yet clamp at ${round(clampMaxV)} V (clamping/standoff ratio ≥ ${ctx.clampToStandoffRatio}): choose parts with higher ratings`,
-  };
-}
-
-function round(v: number): number {
-  return Math.round(v * 100) / 100;
 }

@@ -55,12 +55,7 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   }
   const i0 = line.currentA + line.conductanceS * m.outputV;
   const vinBefore = m.outputV + i0 * m.loopResistanceOhm;
-  // A stage whose gate the remaining input drives (a low-side N-FET) is judged at the highest level
-  // the input holds after the event: a decaying input's start or its final level. The gate's
-  // turn-on or turn-off part-way through the decay is not modelled; taking the higher level keeps
-  // the channel on for the whole event, the worse answer for blocking.
-  const gateInputV = Math.max(m.inputAfterV, m.inputDecay?.startV ?? m.inputAfterV);
-  const path = reversePath(m.stage, tK, vinBefore, gateInputV, m.outputV, m.controller);
+  const path = reversePath(m.stage, tK, vinBefore, m.inputAfterV, m.outputV, m.controller);
   const stageOhm = path.kind === "diode" ? path.seriesOhm : path.channelOhm;
   const loop: RlcLoop = {
     sourceV: m.inputAfterV,
@@ -151,9 +146,6 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
       turnOffS = t + path.offDelayS;
       break;
     }
-    case "gate-falls":
-      turnOffS = path.offDelayS;
-      break;
     case "diode": {
       const t0 = firstCrossing(s, x0, [1, 0], 0, horizon);
       if (t0 === undefined)
@@ -182,7 +174,8 @@ export function inputDecayOf(m: TurnOffModel): Pick<RlcLoop, "sourceDecay"> {
 }
 
 /**
- * A P-FET with its gate at ground (pfet-gate-off.ts): the channel conducts backwards until its
+ * A FET whose gate sees the output (a P-FET with its gate at ground, a low-side N-FET with its gate
+ * fed from the positive rail; pfet-gate-off.ts): the channel conducts backwards until its
  * lagged |Vgs| falls below threshold, then the body diode blocks and the loop current is clamped
  * back to zero (clampPhase). The reverse-current peak up to the turn-off (the clamp then drives it
  * down), the charge the output capacitor lost by the end and the output's lowest point, which

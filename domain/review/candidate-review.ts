@@ -31,6 +31,7 @@ import type { TransientPulse } from "./transient-library.js";
 import { type LoadOvervoltage, loadOvervoltage } from "../checks/load-overvoltage.js";
 import { type ReviewInrush, type ReviewInrushResult, reviewInrush } from "./review-inrush.js";
 import { atHighestCutoff, atLowestCurrentLimit, type SwitchTolerance, switchRuleLimits } from "./switch-tolerance.js";
+import { stressAfterLetGo } from "./pulse-stress.js";
 import { type PulseBackConduction, pulseBackConduction } from "./review-pulse-back-conduction.js";
 import { type ReviewTurnOff, type ReviewTurnOffResult, reviewTurnOff } from "./review-turn-off.js";
 
@@ -113,8 +114,9 @@ export interface CandidateReview {
   readonly blocksReverseCurrent: boolean;
   readonly turnOff?: ReviewTurnOffResult;
   /**
-   * With the requirement's turn-off event, a P-FET candidate: each negative pulse through the same
-   * event model (review-pulse-back-conduction.ts), its reverse current, charge lost and output minimum.
+   * With the requirement's turn-off event, a P-FET or low-side N-FET candidate: each negative pulse
+   * through the same event model (review-pulse-back-conduction.ts), its reverse current, charge lost
+   * and output minimum.
    */
   readonly pulseBackConduction?: readonly PulseBackConduction[];
   /** The start-up charge of the output capacitance (with the requirement's inrush). */
@@ -245,6 +247,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
           transients,
         )
       : [];
+  const stressed = stressAfterLetGo(cand.stage, req.transients, transients, pulses, tctx);
   const energy = req.mission
     ? missionEnergy(cand.stage, req.mission, req.supplyNominalV, req.sourceResistanceOhm, req.load, req.pricePerKWh)
     : undefined;
@@ -272,7 +275,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
     ...(startVoltageV === undefined ? {} : { startVoltageV }),
     ...(gateThresholdColdV === undefined ? {} : { gateThresholdColdV }),
     reverse,
-    transients,
+    transients: stressed,
     thermalSizing: sizing,
     ...(energy ? { energy } : {}),
     standby: standbyDrain(cand.stage, req.loadStandbyA, req.battery),

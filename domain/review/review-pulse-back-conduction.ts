@@ -2,10 +2,10 @@ import type { TransientResult } from "../checks/transient-stress.js";
 import type { TurnOffOutcome } from "../checks/turn-off-event.js";
 import { twoSourceThevenin } from "../physics/two-source-thevenin.js";
 import type { StageModel } from "../stages/stage-model.js";
-import { type ReviewTurnOff, type ReviewTurnOffResult, reviewTurnOff } from "./review-turn-off.js";
+import { gateFollowsOutput, type ReviewTurnOff, type ReviewTurnOffResult, reviewTurnOff } from "./review-turn-off.js";
 import type { TransientPulse } from "./transient-library.js";
 
-/** A negative pulse through a P-FET candidate's back-conducting channel (the turn-off event model). */
+/** A negative pulse through a P-FET's or low-side N-FET's back-conducting channel (the turn-off event model). */
 export type PulseBackConduction =
   | {
       readonly pulseId: string;
@@ -29,6 +29,8 @@ export type PulseBackConduction =
       readonly channel: "turned-off" | "conducts-throughout";
       /** The channel's turn-off by its gate, s (absent: it did not turn off over the span). */
       readonly channelOffS?: number;
+      /** Once the channel let go and the loop current stopped: the output its body diode holds against the input, V. */
+      readonly outputAtLetGoV?: number;
       readonly peakReverseCurrentA: number;
       /** The channel conducting throughout with the current still rising at the span's end: the peak is only a lower bound. */
       readonly peakReverseIsLowerBound?: true;
@@ -62,8 +64,10 @@ export interface PulseSupply {
  * the input at Vb and the pulse does not move it. A P-FET with its gate at ground conducts
  * backwards until its lagged |Vgs| falls below threshold; where the output holds it above (the
  * battery holds the output) it conducts backwards into the pulse throughout and the reverse
- * current peak is the figure. Other stages: none (a low-side N-FET's gate follows the input, which
- * the pulse takes below threshold at once: it is the turn-off event's gate-falls case).
+ * current peak is the figure. A low-side N-FET takes the same path: its gate is fed from the
+ * positive rail and its source is the module's ground, so its Vgs is the output's, not the input's
+ * (ngspice on that circuit: test/domain/review/pulse-back-conduction-low-side.test.ts). Other
+ * stages: none.
  */
 export function pulseBackConduction(
   t: ReviewTurnOff,
@@ -74,7 +78,7 @@ export function pulseBackConduction(
   pulses: readonly TransientPulse[],
   results: readonly TransientResult[],
 ): readonly PulseBackConduction[] {
-  if (stage.kind !== "pfet-high-side") return [];
+  if (!gateFollowsOutput(stage)) return [];
   const out: PulseBackConduction[] = [];
   const seen = new Set<string>();
   for (const r of results) {
@@ -158,7 +162,7 @@ function figures(
     ...(batteryOhm === undefined ? {} : { batteryResistanceOhm: batteryOhm }),
     eventOutcome: x.outcome,
     channel: gate === undefined ? "conducts-throughout" : "turned-off",
-    ...(gate === undefined ? {} : { channelOffS: gate.channelOffS }),
+    ...(gate === undefined ? {} : { channelOffS: gate.channelOffS, outputAtLetGoV: gate.end.outputV }),
     peakReverseCurrentA: gate?.peakReverseCurrentA ?? x.peakReverseCurrentA,
     ...(gate === undefined && x.peakReverseIsLowerBound === true ? { peakReverseIsLowerBound: true as const } : {}),
     chargeLostC: gate?.chargeLostC ?? x.end.chargeLostC,

@@ -5,6 +5,7 @@ import { stageAvalancheEnergyJ } from "../checks/stage-ratings.js";
 import { type TurnOffModel, type TurnOffOutcome, turnOffEvent } from "../checks/turn-off-event.js";
 import { type TurnOffWaveform, turnOffWaveform } from "../checks/turn-off-waveform.js";
 import type { LoadModel } from "../solve/load-model.js";
+import { behaviourOf } from "../stages/stage-behaviours.js";
 import type { StageModel } from "../stages/stage-model.js";
 
 /** The turn-off event of the review: the turnOff analysis's loop, with the output and Tj defaulted per candidate. */
@@ -23,7 +24,7 @@ export interface ReviewTurnOff {
   readonly clampV?: number;
   /** The event repeats in service (its energy is held to the repetitive avalanche rating too). */
   readonly repetitive: boolean;
-  /** A P-FET candidate's gate lag, s (pfet-gate-off.ts). */
+  /** A P-FET's or low-side N-FET's gate lag, s (pfet-gate-off.ts). */
   readonly gateLagS?: number;
   /** The largest reverse voltage the load tolerates (magnitude), V. */
   readonly loadReverseLimitV?: number;
@@ -85,7 +86,7 @@ export function reviewTurnOff(
     ...(t.reverseRecoveryChargeC === undefined ? {} : { reverseRecoveryChargeC: t.reverseRecoveryChargeC }),
     ...(t.clampV === undefined ? {} : { clampV: t.clampV }),
     ...(avalancheRatingJ === undefined ? {} : { avalancheRatingJ }),
-    ...(t.gateLagS === undefined || cand.stage.kind !== "pfet-high-side" ? {} : { gateLagS: t.gateLagS }),
+    ...(t.gateLagS === undefined || !gateFollowsOutput(cand.stage) ? {} : { gateLagS: t.gateLagS }),
   };
   const result = turnOffEvent(model);
   const waveform = cand.turnOffWaveform ? turnOffWaveform(model, result) : undefined;
@@ -105,6 +106,14 @@ export function reviewTurnOff(
     ...(waveform ? { waveform } : {}),
     ...(train === undefined ? {} : { train }),
   };
+}
+
+/**
+ * A FET whose gate is fed from the supply (a P-FET's gate to ground, a low-side N-FET's from the
+ * positive rail; supply-gated-fet.ts): its gate-source sees the output, lagged by its gate resistor.
+ */
+export function gateFollowsOutput(stage: StageModel): boolean {
+  return behaviourOf(stage).sizing.gateFromSupply;
 }
 
 /**

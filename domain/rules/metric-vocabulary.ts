@@ -114,7 +114,8 @@ export const METRICS: readonly MetricDef[] = [
     name: "reverseTransientVMaxV",
     type: "number",
     unit: "V",
-    meaning: "magnitude of the worst negative transient peak the blocking element sees, after any clamp",
+    meaning:
+      "magnitude of the worst negative transient peak the blocking element sees, after any clamp (plus the output it holds: a blocking stage's held output; a P-FET's or low-side N-FET's output where its channel let go)",
     stageKinds: "all",
     providedBy: REVIEW,
   },
@@ -430,7 +431,7 @@ export const METRICS: readonly MetricDef[] = [
     type: "number",
     unit: "A",
     meaning:
-      "peak current flowing backwards through the stage when the input is shorted or steps lower (magnitude); in the review also the largest over the negative pulses at a P-FET (applied with the supply disconnected, ISO 7637-2 pulse 1, or riding on it through the battery's Thevenin equivalent, ISO 7637-2 pulse 3a)",
+      "peak current flowing backwards through the stage when the input is shorted or steps lower (magnitude); in the review also the largest over the negative pulses at a P-FET or low-side N-FET (applied with the supply disconnected, ISO 7637-2 pulse 1, or riding on it through the battery's Thevenin equivalent, ISO 7637-2 pulse 3a)",
     stageKinds: "all",
     providedBy: "turnOff",
   },
@@ -448,7 +449,7 @@ export const METRICS: readonly MetricDef[] = [
     type: "number",
     unit: "V",
     meaning:
-      "reverse voltage the output (the load's input) reaches during the turn-off event, magnitude: minus the output's lowest voltage, 0 when it stays at or above 0 V (a negative input pulling it below through a P-FET channel still on); in the review also the largest over the negative pulses at a P-FET (applied with the supply disconnected, ISO 7637-2 pulse 1, or riding on it through the battery's Thevenin equivalent, ISO 7637-2 pulse 3a)",
+      "reverse voltage the output (the load's input) reaches during the turn-off event, magnitude: minus the output's lowest voltage, 0 when it stays at or above 0 V (a negative input pulling it below through a P-FET's or low-side N-FET's channel still on); in the review also the largest over the negative pulses at a P-FET or low-side N-FET (applied with the supply disconnected, ISO 7637-2 pulse 1, or riding on it through the battery's Thevenin equivalent, ISO 7637-2 pulse 3a)",
     stageKinds: "all",
     providedBy: "turnOff",
   },

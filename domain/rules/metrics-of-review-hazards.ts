@@ -1,7 +1,7 @@
 import { behaviourOf } from "../stages/stage-behaviours.js";
 import { type CandidateReview, type ReviewRequirement, steadyOvervoltageV } from "../review/candidate-review.js";
 import type { StageModel } from "../stages/stage-model.js";
-import type { InputClamp } from "../checks/transient-stress.js";
+import type { InputClamp } from "../checks/transient-clamp.js";
 import type { SoaCheck } from "../checks/soa-lines.js";
 
 interface Scope {

@@ -149,7 +149,7 @@ export function reviewRuleInput(
 }
 
 /**
- * The negative pulses through a P-FET's back-conducting channel (review-pulse-back-conduction.ts)
+ * The negative pulses through a P-FET's or low-side N-FET's back-conducting channel (review-pulse-back-conduction.ts)
  * join the turn-off event's figures: loadReverseVMaxV and peakReverseCurrentA are the largest of
  * the event and every pulse (applied with the supply disconnected or riding on it); a pulse without
  * a response leaves both unavailable with why, and a reverse peak that is only a lower bound (the
@@ -164,14 +164,14 @@ function pulseMetrics(
   for (const p of r.pulseBackConduction ?? []) {
     if (p.outcome === "no-response") {
       for (const n of ["peakReverseCurrentA", "loadReverseVMaxV"]) {
-        unavailable[n] = `pulse ${p.pulseId} through the P-FET: ${p.reason}`;
+        unavailable[n] = `pulse ${p.pulseId} through the channel: ${p.reason}`;
         delete metrics[n];
       }
       continue;
     }
     if (p.peakReverseIsLowerBound === true) {
       unavailable["peakReverseCurrentA"] =
-        `pulse ${p.pulseId} through the P-FET: the reverse current is still rising at the end of the simulated span: ${p.peakReverseCurrentA.toPrecision(4)} A is only a lower bound of its peak`;
+        `pulse ${p.pulseId} through the channel: the reverse current is still rising at the end of the simulated span: ${p.peakReverseCurrentA.toPrecision(4)} A is only a lower bound of its peak`;
       delete metrics["peakReverseCurrentA"];
     }
     for (const [n, v] of [

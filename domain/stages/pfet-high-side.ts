@@ -1,9 +1,9 @@
-import { channelConductance25S, fullEnhancementV, thresholdAtV } from "../physics/mosfet-channel.js";
+import { channelConductance25S, fullEnhancementV } from "../physics/mosfet-channel.js";
 import { clampV } from "./gate-drive.js";
-import { bodyDiodePath, onOhm } from "./mosfet-stage.js";
+import { onOhm } from "./mosfet-stage.js";
 import { mosfetAt, mosfetForwardAt, withGateSourceV } from "./mosfet-forward.js";
 import type { StageBehaviour } from "./stage-behaviour.js";
-import { channelOrBodyDiode, supplyGated, supplyGateDrive } from "./supply-gated-fet.js";
+import { channelOrBodyDiode, gateFromOutputPath, supplyGated, supplyGateDrive } from "./supply-gated-fet.js";
 import type { PFetStage } from "./stage-model.js";
 
 /**
@@ -48,18 +48,13 @@ export const pfetHighSide: StageBehaviour<PFetStage> = {
   },
   ...supplyGated,
   driveAtInput: (stage, inputV, dropV) => supplyGateDrive(stage, inputV, inputV - dropV),
-  reversePath: (stage, tK, _before, _after, outputV) => {
-    const r = onOhm(stage.mosfet, clampV(outputV, stage.gateClampV), tK);
-    if (r === undefined) return bodyDiodePath(stage.mosfet);
-    return {
-      kind: "channel-stays-on",
-      channelOhm: r,
-      thresholdV: thresholdAtV(stage.mosfet.channel, tK),
-      reason:
-        "a P-FET with its gate at ground keeps |Vgs| = V(output): it conducts backwards until the output falls below its threshold",
-      gateFromOutput: { clampV: stage.gateClampV },
-    };
-  },
+  reversePath: (stage, tK, _before, _after, outputV) =>
+    gateFromOutputPath(
+      stage,
+      tK,
+      outputV,
+      "a P-FET with its gate at ground keeps |Vgs| = V(output): it conducts backwards until the output falls below its threshold",
+    ),
   reverseConduction: (stage, _leftV, rightV, tK) =>
     channelOrBodyDiode(stage, onOhm(stage.mosfet, clampV(rightV, stage.gateClampV), tK)),
   reverseStress: (stage, reverseV) => ({

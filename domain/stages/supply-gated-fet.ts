@@ -1,6 +1,7 @@
-import { fullEnhancementV } from "../physics/mosfet-channel.js";
+import type { ReversePath } from "../checks/reverse-path.js";
+import { fullEnhancementV, thresholdAtV } from "../physics/mosfet-channel.js";
 import { clampV } from "./gate-drive.js";
-import { mosfetMissing, mosfetPart, mosfetRatings, scaleMosfetStage } from "./mosfet-stage.js";
+import { bodyDiodePath, mosfetMissing, mosfetPart, mosfetRatings, onOhm, scaleMosfetStage } from "./mosfet-stage.js";
 import type { ReverseConduction } from "./stage-behaviour.js";
 import type { NFetLowSideStage, PFetStage } from "./stage-model.js";
 
@@ -58,4 +59,24 @@ export function channelOrBodyDiode(stage: SupplyGated, r: number | undefined): R
   if (r === undefined)
     return { kind: "junction", diode: stage.mosfet.bodyDiode, leakage: stage.mosfet.offStateLeakage };
   return { kind: "channel", ohm: r, bodyDiode: stage.mosfet.bodyDiode };
+}
+
+/**
+ * The reverse path of a FET whose gate is fed from the supply: its gate-source sees the output
+ * (a P-FET's gate at the module's ground, its source at the output; a low-side N-FET's gate fed
+ * from the positive rail, its source at the module's ground: both see the output capacitor's
+ * voltage, up to the clamp), lagged by the gate's R·C. With the output up the channel stays on and
+ * conducts backwards until that lagged voltage falls below threshold (pfet-gate-off.ts); a channel
+ * already off is its body diode.
+ */
+export function gateFromOutputPath(stage: SupplyGated, tK: number, outputV: number, reason: string): ReversePath {
+  const r = onOhm(stage.mosfet, clampV(outputV, stage.gateClampV), tK);
+  if (r === undefined) return bodyDiodePath(stage.mosfet);
+  return {
+    kind: "channel-stays-on",
+    channelOhm: r,
+    thresholdV: thresholdAtV(stage.mosfet.channel, tK),
+    reason,
+    gateFromOutput: { clampV: stage.gateClampV },
+  };
 }

@@ -267,9 +267,9 @@ describe("the Monte Carlo's Vth spans the datasheet's minimum to maximum where g
 });
 
 describe("the datasheet-minimum gate threshold in the review's turn-off event", () => {
-  // A low-side N-FET's gate is held by the remaining input: it conducts backwards while that input
-  // is above Vth(Tj) (nfet-low-side.ts; the threshold's linear law, docs/references.md). The input
-  // steps to 1.5 V: above a 1.2 V minimum, below the 2 V typical at 25 °C.
+  // A low-side N-FET's gate sees the output (nfet-low-side.ts): with no gate lag given it conducts
+  // backwards until the output falls below Vth(Tj) (the threshold's linear law, docs/references.md),
+  // so the output where the channel lets go is the threshold the event used. The input is shorted.
   const lowSide = (mosfet: Record<string, unknown> = {}) => ({
     kind: "nfet-low-side",
     mosfet: {
@@ -287,7 +287,7 @@ describe("the datasheet-minimum gate threshold in the review's turn-off event", 
   const event = async (stage: unknown, datasheetMax?: Record<string, unknown>, tjC = "25 degC") => {
     if (review === undefined) throw new Error("no review");
     const out = (await review({
-      requirement: { ...requirement, turnOff: { ...requirement.turnOff, inputAfterV: "1.5 V", tjC } },
+      requirement: { ...requirement, turnOff: { ...requirement.turnOff, inputAfterV: "0 V", tjC } },
       candidates: [
         {
           stage,
@@ -295,15 +295,16 @@ describe("the datasheet-minimum gate threshold in the review's turn-off event", 
         },
       ],
     })) as { candidates: Candidate[] };
-    return out.candidates[0]?.turnOff?.event["outcome"];
+    const e = out.candidates[0]?.turnOff?.event;
+    return (e?.["gateTurnOff"] as { outputAtOffV?: number } | undefined)?.outputAtOffV;
   };
-  it("a typical 2 V threshold lets the gate fall; the 1.2 V minimum keeps the channel on backwards", async () => {
-    expect(await event(lowSide())).toBe("blocks");
-    expect(await event(lowSide(), { thresholdMinV: "1.2 V" })).toBe("does-not-block");
+  it("a typical 2 V threshold lets the channel go at 2 V; with the 1.2 V minimum it holds on to 1.2 V", async () => {
+    expect(await event(lowSide())).toBeCloseTo(2, 6);
+    expect(await event(lowSide(), { thresholdMinV: "1.2 V" })).toBeCloseTo(1.2, 6);
   });
-  it("hot, the threshold's coefficient does the same: 2 V − 5 mV/K·90 K = 1.55 V at 115 °C (blocks), 1.45 V at 135 °C (does not)", async () => {
-    expect(await event(lowSide({ thresholdTempCoVPerK: -0.005 }), undefined, "115 degC")).toBe("blocks");
-    expect(await event(lowSide({ thresholdTempCoVPerK: -0.005 }), undefined, "135 degC")).toBe("does-not-block");
+  it("hot, the threshold's coefficient does the same: 2 V − 5 mV/K·90 K = 1.55 V at 115 °C, 1.45 V at 135 °C", async () => {
+    expect(await event(lowSide({ thresholdTempCoVPerK: -0.005 }), undefined, "115 degC")).toBeCloseTo(1.55, 6);
+    expect(await event(lowSide({ thresholdTempCoVPerK: -0.005 }), undefined, "135 degC")).toBeCloseTo(1.45, 6);
   });
   it("refuses a minimum above the typical value, naming the field", async () => {
     await expect(event(lowSide(), { thresholdMinV: "2.5 V" })).rejects.toThrow(

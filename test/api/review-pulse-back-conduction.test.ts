@@ -150,3 +150,50 @@ describe("the review's negative pulses through a P-FET candidate's back-conducti
     expect(p.chargeLostC / (0.1 * (v0 - p.outputMinV))).toBeCloseTo(1, 2);
   });
 });
+
+describe("the review's negative pulses through a low-side N-FET candidate", () => {
+  // Its Vgs is the positive rail against its source at the module's ground: the output's, as a
+  // P-FET's |Vgs| is (ngspice: test/domain/review/pulse-back-conduction-low-side.test.ts).
+  const lowSide = { kind: "catalog-part", partId: "demo-nfet-low-side-60v-4mohm" };
+  it("pulse 1 equals the turnOff procedure on the same decaying input; the body diode's stress adds the output at the let-go", async () => {
+    if (review === undefined || turnOff === undefined) throw new Error("procedures missing");
+    const gateLag = { resistanceOhm: "1 kOhm", gateChargeC: "30 nC", atGateSourceV: "10 V" };
+    const turnOffSection = { ...example.requirement.turnOff, gateLag };
+    const r = reviewOutput.parse(
+      await review({
+        requirement: { ...example.requirement, transients: [PULSE_1], turnOff: turnOffSection },
+        candidates: [{ stage: lowSide }],
+      }),
+    );
+    const c = r.candidates[0];
+    const p = c?.pulseBackConduction?.find((x) => x.pulseId === PULSE_1);
+    if (c === undefined || p?.outcome !== "assessed") throw new Error(`pulse 1 not assessed: ${JSON.stringify(p)}`);
+    const direct = turnOffOutput.parse(
+      await turnOff({
+        stage: lowSide,
+        outputV: r.requirement.supplyNominalV,
+        inputAfterV: 0,
+        inputDecay: { startV: p.inputPeakV, timeConstantS: p.tauS },
+        gateLag,
+        loop: { ...example.requirement.turnOff.loop, resistanceOhm: 10 },
+        capacitor: example.requirement.turnOff.capacitor,
+        load: example.requirement.load,
+        loadMinV: example.requirement.loadMinV,
+        tjC: c.turnOff?.tjC ?? 0,
+      }),
+    );
+    if (direct.outcome !== "does-not-block" || direct.gateTurnOff === undefined) throw new Error(direct.outcome);
+    expect(p.channel).toBe("turned-off");
+    expect(p.peakReverseCurrentA).toBe(direct.gateTurnOff.peakReverseCurrentA);
+    expect(p.chargeLostC).toBe(direct.gateTurnOff.chargeLostC);
+    expect(p.outputMinV).toBe(direct.outputMinV);
+    expect(p.outputAtLetGoV).toBe(direct.gateTurnOff.end.outputV);
+    expect(p.outputAtLetGoV).toBeGreaterThan(0);
+    const t = (c.transients as { pulseId: string; inputPeakV: number; stresses: { seenV: number }[] }[]).find(
+      (x) => x.pulseId === PULSE_1,
+    );
+    expect(t?.stresses[0]?.seenV).toBe(-(t?.inputPeakV ?? 0) + Math.max(p.outputAtLetGoV ?? 0, 0));
+    expect(c.metrics["loadReverseVMaxV"]).toBeGreaterThanOrEqual(Math.max(0, -p.outputMinV));
+    expect(r.assumptions.some((a) => a.includes("low-side N-FET candidate"))).toBe(true);
+  });
+});

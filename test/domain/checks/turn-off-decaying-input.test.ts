@@ -130,18 +130,21 @@ describe("a controller stage (clamp phase) under a decaying input", () => {
   });
 });
 
-describe("a low-side N-FET, whose gate the remaining input drives", () => {
-  // Circuit reasoning (its reverse path, domain/stages/nfet-low-side.ts): an input still above the
-  // threshold holds the channel on; a decay that starts there is judged at its start (conservative).
-  it("an input stepping to 0 V lets the gate fall (blocks); one decaying from 10 V to 0 V keeps it on (does-not-block)", () => {
+describe("a low-side N-FET, whose gate the output drives", () => {
+  // Circuit reasoning (its reverse path, domain/stages/nfet-low-side.ts; ngspice in
+  // test/domain/review/pulse-back-conduction-low-side.test.ts): its Vgs is the output's, so a step
+  // to 0 V and a decay from 10 V to 0 V both conduct backwards until the output crosses threshold,
+  // the decay later (it holds the output up longer).
+  it("an input stepping to 0 V and one decaying from 10 V to 0 V both turn the channel off at threshold, the decay later", () => {
     const step = turnOffEvent({ ...turnOffFixture, stage: lowSideStage });
     const decaying = turnOffEvent({
       ...turnOffFixture,
       stage: lowSideStage,
       inputDecay: { startV: 10, tauS: 50e-6 },
     });
-    expect(step.outcome).toBe("blocks");
-    expect(decaying.outcome).toBe("does-not-block");
+    if (step.outcome !== "does-not-block" || decaying.outcome !== "does-not-block") throw new Error("blocks");
+    expect(step.gateTurnOff?.channelOffS).toBeGreaterThan(0);
+    expect(decaying.gateTurnOff?.channelOffS).toBeGreaterThan(step.gateTurnOff?.channelOffS ?? Infinity);
   });
 });
 

@@ -255,9 +255,17 @@ describe("turn-off event", () => {
     expect(Math.abs(e.balanceResidual)).toBeLessThan(1e-9);
   });
 
-  it("low-side N-FET: a hard short removes its gate drive (blocks); a lower input keeps it on", () => {
-    expect(turnOffEvent({ ...event, stage: lowSideStage }).outcome).toBe("blocks");
-    expect(turnOffEvent({ ...event, stage: lowSideStage, inputAfterV: 10 }).outcome).toBe("does-not-block");
+  // Circuit reasoning (ngspice in test/domain/review/pulse-back-conduction-low-side.test.ts): a
+  // low-side N-FET's gate is fed from the positive rail against its source at the module's ground,
+  // so its Vgs is the output, as a P-FET's |Vgs| is: the same part in the same loop, the same event.
+  it("low-side N-FET: its gate sees the output, so a hard short turns it off as a P-FET's; a lower input keeps it on", () => {
+    const short = turnOffEvent({ ...event, stage: lowSideStage });
+    if (short.outcome !== "does-not-block") throw new Error(short.outcome);
+    expect(short.gateTurnOff?.outputAtOffV).toBeCloseTo(2, 6);
+    expect({ ...short, reason: "" }).toEqual({ ...turnOffEvent({ ...event, stage: pfetStage }), reason: "" });
+    const lower = turnOffEvent({ ...event, stage: lowSideStage, inputAfterV: 10 });
+    if (lower.outcome !== "does-not-block") throw new Error(lower.outcome);
+    expect(lower.gateTurnOff).toBeUndefined();
   });
 
   // Source: charge-control recovery: the reverse charge drawn after the zero crossing equals Qrr.
