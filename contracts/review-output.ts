@@ -25,7 +25,17 @@ export const cornerConditions = z.object({
   tolerance: z.enum(["typical", "datasheet-max"]),
 });
 
-export const cornerRow = z.object({ conditions: cornerConditions, ...pointFields });
+export const cornerRow = z.object({
+  conditions: cornerConditions,
+  ...pointFields,
+  hotterAtLimit: z
+    .object({ currentLimitA: z.number(), ...pointFields })
+    .optional()
+    .meta({
+      description:
+        "an integrated switch given a datasheet minimum current limit: the corner's point is solved at that minimum (the load's supply); this is the same corner at the typical limit where it heats the die more (the limiting loss (Vin − Ilim·R)·Ilim is not monotonic in Ilim): the corner's Tj and loss for the worst case and the rules",
+    }),
+});
 
 export const reviewCurves = z
   .object({

@@ -49,7 +49,7 @@ export const candidate = z.strictObject({
       ).optional(),
       currentLimitMinA: quantity(
         "A",
-        "datasheet minimum current limit of an integrated switch (the inrush charges at it and switch-current-limit-above-load reads it; absent: the typical currentLimitA)",
+        "datasheet minimum current limit of an integrated switch (the steady corners are solved at it, their Tj and loss at whichever of it and the typical limit heats more; the inrush charges at it and switch-current-limit-above-load reads it; absent: the typical currentLimitA)",
         { gt: 0, le: 10_000 },
       ).optional(),
       overvoltageCutoffMinV: quantity(

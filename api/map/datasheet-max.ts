@@ -191,7 +191,7 @@ export function switchTolerance(
   const cutoffMaxV = check("overvoltageCutoffMaxV", cutoffV, "overvoltage cut-off", "max", "V");
   if (limitA !== undefined && limitMinA === undefined)
     assumptions.push(
-      `${at}: the current limit's tolerance not given (datasheetMax.currentLimitMinA): the inrush and switch-current-limit-above-load use the typical ${limitA} A`,
+      `${at}: the current limit's tolerance not given (datasheetMax.currentLimitMinA): the steady corners, the inrush and switch-current-limit-above-load use the typical ${limitA} A`,
     );
   if (cutoffV !== undefined && (cutoffMinV === undefined || cutoffMaxV === undefined))
     assumptions.push(

@@ -1,17 +1,17 @@
 import type { ReviewOutput } from "../../contracts/review.js";
 import { DEFAULT_VDS_TEMPCO_PER_K, stageMosfet } from "../../domain/checks/breakdown-temperature.js";
 import { reviewInput, reviewOutput } from "../../contracts/review.js";
-import type { CornerResult } from "../../domain/checks/corners.js";
+import { type CornerResult, cornerUnsolved } from "../../domain/checks/corners.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { type CandidateReview, reviewCandidate } from "../../domain/review/candidate-review.js";
 import { reviewCurves } from "../../domain/review/curves.js";
-import type { OperatingPointOutcome } from "../../domain/solve/electrothermal-point.js";
 import { type CandidateVerdict, rankCandidates } from "../../domain/review/ranking.js";
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { formatQuantity } from "../../domain/rules/quantity-text.js";
 import type { RuleSetResult } from "../../domain/rules/rule-model.js";
 import { datasheetMaxScale, switchTolerance, thresholdMinShiftV, worstTurnOffTiming } from "../map/datasheet-max.js";
 import { resolveStage } from "../map/resolve-stage.js";
+import { cornerRow, pointRow } from "../map/review-rows.js";
 import { controllerTiming } from "../map/reverse-inputs.js";
 import { turnOffEventFields } from "../map/turn-off-output.js";
 import { toReviewRequirement } from "../map/requirement.js";
@@ -242,10 +242,11 @@ export const review = defineProcedure({
 function verdictOf(r: CandidateReview, rules: RuleSetResult): { verdict: CandidateVerdict; reason: string } {
   const first = r.worst.unsolvedCornerIndexes[0];
   const corner = first === undefined ? undefined : r.corners[first];
-  if (corner && !("point" in corner.result)) {
+  const unsolved = corner === undefined ? undefined : cornerUnsolved(corner);
+  if (corner && unsolved) {
     return {
       verdict: "fail",
-      reason: `fail: corner ${first} (${describe(corner)}) has no operating point: ${corner.result.reason}`,
+      reason: `fail: corner ${first} (${describe(corner)}) has no operating point: ${unsolved.reason}`,
     };
   }
   const failing = rules.verdicts.find((v) => v.outcome === "fail") ?? rules.verdicts.find((v) => v.outcome === "warn");
@@ -273,40 +274,4 @@ function verdictOf(r: CandidateReview, rules: RuleSetResult): { verdict: Candida
 function describe(c: CornerResult): string {
   const k = c.conditions;
   return `supply ${k.supply} ${k.supplyV} V, ambient ${k.ambient} ${k.ambientC} °C, load ×${k.loadScale}, ${k.tolerance}`;
-}
-
-function cornerRow(c: CornerResult) {
-  // Written out rather than spread from pointRow: 96 rows per review, and a spread into a literal
-  // takes V8's slow clone path. Same fields, same order.
-  const r = c.result;
-  if ("point" in r) {
-    const p = r.point;
-    return {
-      conditions: c.conditions,
-      outcome: r.outcome,
-      mode: p.forward.mode,
-      currentA: p.currentA,
-      dropV: p.forward.dropV,
-      lossW: p.dieLossW,
-      tjC: p.tjC,
-      loadV: p.loadV,
-    };
-  }
-  return { conditions: c.conditions, outcome: r.outcome, reason: r.reason };
-}
-
-function pointRow(r: OperatingPointOutcome) {
-  if ("point" in r) {
-    const p = r.point;
-    return {
-      outcome: r.outcome,
-      mode: p.forward.mode,
-      currentA: p.currentA,
-      dropV: p.forward.dropV,
-      lossW: p.dieLossW,
-      tjC: p.tjC,
-      loadV: p.loadV,
-    };
-  }
-  return { outcome: r.outcome, reason: r.reason };
 }

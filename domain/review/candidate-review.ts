@@ -16,20 +16,19 @@ import {
 } from "../checks/start-up.js";
 import type { ControllerTurnOff } from "../checks/reverse-path.js";
 import { blocksReverseCurrent } from "../checks/stage-ratings.js";
-import { thermalSizing, type ThermalSizing } from "../checks/thermal-sizing.js";
+import type { ThermalSizing } from "../checks/thermal-sizing.js";
 import type { TransientAllowance, TransientContext } from "../checks/transient-stress.js";
 import { type SweptTransientResult, sweptTransientStress } from "../checks/transient-sweep.js";
 import { gateThresholdColdV as coldThresholdV, withThresholdShift } from "../checks/gate-threshold.js";
-import { totalRthKPerW } from "../physics/thermal-path.js";
 import type { StartChatter } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
-import { scaleLoad } from "../solve/load-scale.js";
 import { type StageScale, scaleStage, UNSCALED } from "../stages/scale-stage.js";
-import { type StageModel, stageStartV, stageTjMaxC } from "../stages/stage-model.js";
+import { type StageModel, stageStartV } from "../stages/stage-model.js";
 import { behaviourOf } from "../stages/stage-behaviours.js";
 import type { TransientPulse } from "./transient-library.js";
 import { type LoadOvervoltage, loadOvervoltage } from "../checks/load-overvoltage.js";
 import { type ReviewInrush, type ReviewInrushResult, reviewInrush } from "./review-inrush.js";
+import { reviewThermalSizing } from "./review-thermal-sizing.js";
 import { atHighestCutoff, atLowestCurrentLimit, type SwitchTolerance, switchRuleLimits } from "./switch-tolerance.js";
 import { type PulseBackConduction, pulseBackConduction } from "./review-pulse-back-conduction.js";
 import { type ReviewTurnOff, type ReviewTurnOffResult, reviewTurnOff } from "./review-turn-off.js";
@@ -137,6 +136,9 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
     sourceResistanceOhm: req.sourceResistanceOhm,
     load: req.load,
     ...(cand.datasheetMax ? { datasheetMax: cand.datasheetMax } : {}),
+    ...(cand.switchTolerance?.currentLimitMinA === undefined
+      ? {}
+      : { currentLimitMinA: cand.switchTolerance.currentLimitMinA }),
   };
   const corners = solveCorners(cand.stage, space);
   const worst = worstCase(corners);
@@ -200,28 +202,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
   const inrush = req.inrush
     ? reviewInrush(req.inrush, atLowestCurrentLimit(sizingStage, cand.switchTolerance), cand.transientThermal)
     : undefined;
-  const hotTolerance = cand.datasheetMax ? "datasheet-max" : "typical";
-  let hottest: { supplyV: number; tjC: number } | undefined;
-  for (const c of corners) {
-    const k = c.conditions;
-    if (k.ambient !== "max" || k.loadScale !== fullScale || k.tolerance !== hotTolerance || !("point" in c.result))
-      continue;
-    if (hottest === undefined || c.result.point.tjC > hottest.tjC)
-      hottest = { supplyV: k.supplyV, tjC: c.result.point.tjC };
-  }
-  const sizingSupplies = hottest ? [hottest.supplyV] : [req.supplyMinV, req.supplyNominalV, req.supplyMaxV];
-  const sizing = thermalSizing(
-    sizingSupplies.map((supplyV) => ({
-      supplyV,
-      ambientC: req.ambientMaxC,
-      load: scaleLoad(req.load, fullScale),
-      sourceResistanceOhm: req.sourceResistanceOhm,
-      stage: sizingStage,
-    })),
-    cand.stage.thermal,
-    totalRthKPerW(cand.stage.thermal),
-    stageTjMaxC(cand.stage) - req.tjMarginK,
-  );
+  const sizing = reviewThermalSizing(req, cand, corners, sizingStage, fullScale);
 
   const eventReq = {
     load: req.load,

@@ -3,6 +3,7 @@ import { type CandidateReview, type ReviewRequirement, steadyOvervoltageV } from
 import type { StageModel } from "../stages/stage-model.js";
 import type { InputClamp } from "../checks/transient-stress.js";
 import type { SoaCheck } from "../checks/soa-lines.js";
+import { cornerThermal } from "../checks/corners.js";
 
 interface Scope {
   readonly metrics: Record<string, number | boolean>;
@@ -273,7 +274,8 @@ function thermalShutdownMetrics(stage: StageModel, r: CandidateReview, s: Scope)
   }
   let shutsDown = false;
   for (const [i, c] of r.corners.entries()) {
-    const res = c.result;
+    // at the current limit that heats the die more (corners.ts: cornerThermal)
+    const res = cornerThermal(c);
     if ("point" in res) {
       const mode = res.point.forward.mode;
       if (mode !== "body-diode" && mode !== "junction" && res.point.tjC >= shutdownC) shutsDown = true;
