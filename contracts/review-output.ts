@@ -86,6 +86,11 @@ export const reviewStartUp = z
             maxTjC: z.number(),
             bodyDiodeTimeS: z.number(),
             dropoutTimeS: z.number(),
+            thermalShutdownAtS: z.number().optional().meta({
+              description:
+                "an integrated switch with thermalShutdownC: when its junction first reached the shutdown along the profile (the switch then off, counted as dropout: latched for the rest, or until cooled by the auto-retry hysteresis)",
+              unit: "s",
+            }),
             thermalModel: z.string(),
           }),
         }),

@@ -53,8 +53,9 @@ export const review = defineProcedure({
         );
       }
       if (stage.model.kind === "integrated-switch" && stage.model.thermalShutdownC !== undefined) {
+        const after = stage.model.afterThermalShutdown;
         assumptions.push(
-          `${path.join(".")}: a steady corner at or above the ${stage.model.thermalShutdownC} °C thermal shutdown is the switch turned off and the load unpowered (thermalShutdownInService), the part taken as latched off: the contract states no auto-retry`,
+          `${path.join(".")}: a steady corner or a start-up profile at or above the ${stage.model.thermalShutdownC} °C thermal shutdown is the switch turned off and the load interrupted (thermalShutdownInService), ${after === undefined ? "the part taken as latched off: no afterThermalShutdown given" : after.mode === "latched" ? "the part latched off (afterThermalShutdown)" : `the part retrying once cooled by ${after.hysteresisK} K (afterThermalShutdown): it cycles, the load powered only part of the time`}`,
         );
       }
       const transientThermal = transientThermalOf(

@@ -28,6 +28,7 @@ import { behaviourOf } from "../stages/stage-behaviours.js";
 import type { TransientPulse } from "./transient-library.js";
 import { type LoadOvervoltage, loadOvervoltage } from "../checks/load-overvoltage.js";
 import { type ReviewInrush, type ReviewInrushResult, reviewInrush } from "./review-inrush.js";
+import { reviewCutoffHold } from "./review-cutoff-hold.js";
 import { reviewThermalSizing } from "./review-thermal-sizing.js";
 import { atHighestCutoff, atLowestCurrentLimit, type SwitchTolerance, switchRuleLimits } from "./switch-tolerance.js";
 import { type PulseBackConduction, pulseBackConduction } from "./review-pulse-back-conduction.js";
@@ -192,7 +193,9 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
   );
   const transients = req.transients.flatMap((p) => sweptTransientStress(cand.stage, p, tctx));
   // What reaches the load: through the cut-off at its highest threshold.
-  const atLoad = loadOvervoltage(atHighestCutoff(cand.stage, cand.switchTolerance), req.transients, transients, tctx);
+  const overAtLoad = loadOvervoltage(atHighestCutoff(cand.stage, cand.switchTolerance), req.transients, transients, tctx);
+  const hold = reviewCutoffHold(req, cand.stage, switchRuleLimits(cand.stage, cand.switchTolerance), overAtLoad);
+  const atLoad = hold === undefined ? overAtLoad : { ...overAtLoad, hold };
 
   // Thermal sizing at the hot, full-load corner with the datasheet-maximum part, at the supply
   // whose corner ran hottest (every supply when none of those corners has a point).

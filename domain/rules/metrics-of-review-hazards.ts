@@ -98,7 +98,10 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
   inrushMetrics(r, s);
   metrics["loadTransientVMaxV"] = r.loadOvervoltage.loadVMaxV;
   // The lowest cut-off threshold against the steady supply (the load's figure above is at the highest).
-  const cutoffV = r.switchLimits.overvoltageCutoffV;
+  // The lowest input at which the switch can be open in service: its lowest threshold, or after
+  // an excursion above it the level it recloses below (threshold − hysteresis, cutoff-hysteresis.ts).
+  const hold = r.loadOvervoltage.hold;
+  const cutoffV = hold?.excursion === undefined ? r.switchLimits.overvoltageCutoffV : hold.reclosesBelowV;
   if (cutoffV !== undefined) metrics["overvoltageCutoffV"] = cutoffV;
   else notRequired["overvoltageCutoffV"] = "the stage has no overvoltage cut-off";
   currentLimitMetrics(r, s);
