@@ -225,6 +225,10 @@ export const candidateResult = z.object({
     description:
       "what reaches the load per positive pulse (an overvoltage cut-off opens above its threshold after its response time) and the highest of them with the steady overvoltages",
   }),
+  thermalShutdownCycle: z.unknown().optional().meta({
+    description:
+      "an integrated switch with afterThermalShutdown auto-retry whose hottest steady corner reaches its shutdown: the corner, and the cycle between shutdown and shutdown − hysteresis (outcome cycles: the on loss, the duty the load gets, the average dissipation, the heating, cooling and period times through the Foster network; or stays-off, does-not-trip, not-converged with a reason). The load is interrupted either way: switch-thermal-shutdown-in-service fails",
+  }),
   thermalSizing: z.unknown(),
   energy: z.unknown().optional(),
   standby: z.unknown(),

@@ -195,10 +195,14 @@ export const stageSpec = z
             z.strictObject({ mode: z.literal("latched") }),
             z.strictObject({
               mode: z.literal("auto-retry"),
-              hysteresisK: quantity("K", "the junction cools by this below the shutdown before the switch turns on again", {
-                gt: 0,
-                le: 200,
-              }),
+              hysteresisK: quantity(
+                "K",
+                "the junction cools by this below the shutdown before the switch turns on again",
+                {
+                  gt: 0,
+                  le: 200,
+                },
+              ),
             }),
           ])
           .optional()
@@ -230,7 +234,8 @@ export const stageSpec = z
           ctx.addIssue({
             code: "custom",
             path: ["afterThermalShutdown"],
-            message: "a behaviour after thermal shutdown needs its temperature: give thermalShutdownC, or leave afterThermalShutdown out",
+            message:
+              "a behaviour after thermal shutdown needs its temperature: give thermalShutdownC, or leave afterThermalShutdown out",
           });
         }
         if (s.overvoltageHysteresisV !== undefined && s.overvoltageCutoffV === undefined) {

@@ -213,6 +213,7 @@ export const review = defineProcedure({
         transients: e.r.transients,
         ...(e.r.inrush === undefined ? {} : { inrush: e.r.inrush }),
         loadOvervoltage: e.r.loadOvervoltage,
+        ...(e.r.thermalShutdownCycle === undefined ? {} : { thermalShutdownCycle: e.r.thermalShutdownCycle }),
         thermalSizing: e.r.thermalSizing,
         ...(e.r.energy ? { energy: e.r.energy } : {}),
         standby: e.r.standby,

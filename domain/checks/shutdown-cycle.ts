@@ -64,7 +64,8 @@ export function shutdownCycle(
   const single = heatLn / (heatLn + coolLn);
   if ("rthKPerW" in thermal || thermal.foster.length === 1) {
     const tau = "rthKPerW" in thermal ? undefined : thermal.foster[0]?.tauS;
-    const times = tau === undefined ? {} : { heatS: tau * heatLn, coolS: tau * coolLn, periodS: tau * (heatLn + coolLn) };
+    const times =
+      tau === undefined ? {} : { heatS: tau * heatLn, coolS: tau * coolLn, periodS: tau * (heatLn + coolLn) };
     return {
       ...base,
       dutyOn: single,
@@ -125,5 +126,13 @@ export function shutdownCycle(
       reason: `the periodic state of the Foster network was not found (residual ${Math.hypot(g[0], g[1])} K): the cycle is not assessed`,
     };
   const dutyOn = heatS / (heatS + coolS);
-  return { ...base, dutyOn, averageLossW: onLossW * dutyOn, heatS, coolS, periodS: heatS + coolS, thermalModel: "foster" };
+  return {
+    ...base,
+    dutyOn,
+    averageLossW: onLossW * dutyOn,
+    heatS,
+    coolS,
+    periodS: heatS + coolS,
+    thermalModel: "foster",
+  };
 }

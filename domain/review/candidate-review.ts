@@ -29,6 +29,7 @@ import type { TransientPulse } from "./transient-library.js";
 import { type LoadOvervoltage, loadOvervoltage } from "../checks/load-overvoltage.js";
 import { type ReviewInrush, type ReviewInrushResult, reviewInrush } from "./review-inrush.js";
 import { reviewCutoffHold } from "./review-cutoff-hold.js";
+import { type ReviewShutdownCycle, reviewShutdownCycle } from "./review-shutdown-cycle.js";
 import { reviewThermalSizing } from "./review-thermal-sizing.js";
 import { atHighestCutoff, atLowestCurrentLimit, type SwitchTolerance, switchRuleLimits } from "./switch-tolerance.js";
 import { type PulseBackConduction, pulseBackConduction } from "./review-pulse-back-conduction.js";
@@ -121,6 +122,8 @@ export interface CandidateReview {
   readonly inrush?: ReviewInrushResult;
   /** What reaches the load from the positive surges and steady overvoltages (an overvoltage cut-off opens above its threshold). */
   readonly loadOvervoltage: LoadOvervoltage;
+  /** An auto-retrying integrated switch whose steady corner reaches its thermal shutdown: the on/off cycle it runs. */
+  readonly thermalShutdownCycle?: ReviewShutdownCycle;
   /** The lowest current limit and cut-off threshold of an integrated switch, for its rules (switch-tolerance.ts). */
   readonly switchLimits: { readonly currentLimitA?: number; readonly overvoltageCutoffV?: number };
 }
@@ -193,7 +196,12 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
   );
   const transients = req.transients.flatMap((p) => sweptTransientStress(cand.stage, p, tctx));
   // What reaches the load: through the cut-off at its highest threshold.
-  const overAtLoad = loadOvervoltage(atHighestCutoff(cand.stage, cand.switchTolerance), req.transients, transients, tctx);
+  const overAtLoad = loadOvervoltage(
+    atHighestCutoff(cand.stage, cand.switchTolerance),
+    req.transients,
+    transients,
+    tctx,
+  );
   const hold = reviewCutoffHold(req, cand.stage, switchRuleLimits(cand.stage, cand.switchTolerance), overAtLoad);
   const atLoad = hold === undefined ? overAtLoad : { ...overAtLoad, hold };
 
@@ -205,6 +213,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
   const inrush = req.inrush
     ? reviewInrush(req.inrush, atLowestCurrentLimit(sizingStage, cand.switchTolerance), cand.transientThermal)
     : undefined;
+  const shutdownCycle = reviewShutdownCycle(cand.stage, corners, cand.transientThermal);
   const sizing = reviewThermalSizing(req, cand, corners, sizingStage, fullScale);
 
   const eventReq = {
@@ -265,6 +274,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
     ...(pulses.length > 0 ? { pulseBackConduction: pulses } : {}),
     ...(inrush ? { inrush } : {}),
     loadOvervoltage: atLoad,
+    ...(shutdownCycle ? { thermalShutdownCycle: shutdownCycle } : {}),
     switchLimits: switchRuleLimits(cand.stage, cand.switchTolerance),
   };
 }

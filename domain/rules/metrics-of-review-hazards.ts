@@ -260,19 +260,26 @@ function currentLimitMetrics(r: CandidateReview, s: Scope): void {
 }
 
 /**
- * Whether a steady corner of the review heats an integrated switch to its thermal shutdown
- * temperature: Tj = Ta + Rth·P(Tj) at or above thermalShutdownC (at the current limit P is the
- * drop the load leaves times I_lim). The part then turns its channel off and the load loses its
- * supply; the contract states no auto-retry, so the switch is taken as latched off (a retrying
- * part would cycle on and off, the load unpowered most of the time either way). A corner in
- * thermal runaway heats the die until the shutdown trips when the shutdown lies within the
- * search; a corner whose load collapses at the current limit has no figure (the current-limit
- * rule fails it). A point below start (body diode, channel off) is not a shutdown.
+ * Whether an integrated switch reaches its thermal shutdown in service: a steady corner of the
+ * review with Tj = Ta + Rth·P(Tj) at or above thermalShutdownC (at the current limit P is the drop
+ * the load leaves times I_lim, at the limit that heats more: corners.ts cornerThermal), or the
+ * start-up profile's junction reaching it (start-up.ts: through the Foster network where given,
+ * else each instant's steady Tj, an upper bound). The part then turns its channel off and the
+ * load loses its supply: latched off, or cycling on and off when it retries (review-shutdown-cycle.ts),
+ * the load interrupted either way. A corner in thermal runaway heats the die until the shutdown
+ * trips when the shutdown lies within the search; a corner whose load collapses at the current
+ * limit has no figure (the current-limit rule fails it). A point below start (body diode, channel
+ * off) is not a shutdown.
  */
 function thermalShutdownMetrics(stage: StageModel, r: CandidateReview, s: Scope): void {
   const shutdownC = stage.kind === "integrated-switch" ? stage.thermalShutdownC : undefined;
   if (shutdownC === undefined) {
     s.notRequired["thermalShutdownInService"] = "the stage states no thermal shutdown temperature";
+    return;
+  }
+  const inProfile = r.startUp.profiles.some((p) => p.result.thermalShutdownAtS !== undefined);
+  if (inProfile) {
+    s.metrics["thermalShutdownInService"] = true;
     return;
   }
   let shutsDown = false;
