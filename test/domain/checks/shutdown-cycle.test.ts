@@ -62,7 +62,7 @@ describe("shutdownCycle", () => {
     while (edges.length < 400 && t < 200) {
       rises = stepFoster(net, rises, on ? P : 0, dt);
       t += dt;
-      const tj = TA + rises[0]! + rises[1]! + rises[2]!;
+      const tj = TA + rises.reduce((a, b) => a + b, 0);
       if (on && tj >= TSD) {
         on = false;
         edges.push({ t, on });
@@ -71,11 +71,12 @@ describe("shutdownCycle", () => {
         edges.push({ t, on });
       }
     }
-    const n = edges.length;
-    const last = edges.slice(n - 3); // off, on, off (or on, off, on)
-    const period = last[2]!.t - last[0]!.t;
-    expect(Math.abs(period - c.periodS!) / c.periodS!).toBeLessThan(2e-3);
-    const onTime = last[0]!.on ? last[1]!.t - last[0]!.t : last[2]!.t - last[1]!.t;
+    const [e0, e1, e2] = edges.slice(edges.length - 3); // off, on, off (or on, off, on)
+    if (e0 === undefined || e1 === undefined || e2 === undefined || c.periodS === undefined)
+      throw new Error("no cycle");
+    const period = e2.t - e0.t;
+    expect(Math.abs(period - c.periodS) / c.periodS).toBeLessThan(2e-3);
+    const onTime = e0.on ? e1.t - e0.t : e2.t - e1.t;
     expect(Math.abs(onTime / period - c.dutyOn)).toBeLessThan(2e-3);
   });
 
