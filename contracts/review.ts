@@ -16,12 +16,18 @@ export const candidate = z.strictObject({
   thermal: thermalPath.optional().meta({ description: "overrides the stage's thermal path on this board" }),
   datasheetMax: z
     .strictObject({
-      rdsOnFactor: z.number().gte(1).lte(5).meta({ description: "datasheet maximum ÷ typical Rds(on)", unit: "1" }),
+      rdsOnFactor: z
+        .number()
+        .gte(1)
+        .lte(5)
+        .optional()
+        .meta({ description: "datasheet maximum ÷ typical Rds(on) (absent: 1, the typical)", unit: "1" }),
       forwardVoltageFactor: z
         .number()
         .gte(1)
         .lte(5)
-        .meta({ description: "datasheet maximum ÷ typical forward voltage", unit: "1" }),
+        .optional()
+        .meta({ description: "datasheet maximum ÷ typical forward voltage (absent: 1, the typical)", unit: "1" }),
       startV: quantity(
         "V",
         "datasheet maximum start voltage of the controller or integrated switch (the start checks and the datasheet-maximum corners use it)",

@@ -64,7 +64,7 @@ export function sizingContext(
     assumptions,
   );
   const datasheetMax: StageScale | undefined = cand.datasheetMax
-    ? datasheetMaxScale(cand.datasheetMax, stage.model, [...path, "datasheetMax"])
+    ? datasheetMaxScale(cand.datasheetMax, stage.model, [...path, "datasheetMax"], assumptions)
     : undefined;
   const label = path.length > 0 ? path.join(".") : `part ${stage.partId ?? stage.spec.name ?? stage.model.kind}`;
   noteThresholdCorners(stage.model, cand.datasheetMax, req.model.ambientMinC, label, assumptions);

@@ -65,7 +65,7 @@ export const review = defineProcedure({
         assumptions,
       );
       const datasheetMax = c.datasheetMax
-        ? datasheetMaxScale(c.datasheetMax, stage.model, [...path.slice(0, 2), "datasheetMax"])
+        ? datasheetMaxScale(c.datasheetMax, stage.model, [...path.slice(0, 2), "datasheetMax"], assumptions)
         : undefined;
       const typicalTiming = req.model.turnOff
         ? controllerTiming(

@@ -122,3 +122,39 @@ describe("review: the steady corners at the worst current limit for each figure"
     expect(rule(twin, "load-voltage-min")).toBe("pass");
   });
 });
+
+describe("review: datasheetMax without its factors", () => {
+  it("takes rdsOnFactor and forwardVoltageFactor as 1, says so, and answers as with 1 and 1 given", async () => {
+    const given = input(4, 5, 2);
+    const bare = input(4, 5, undefined);
+    const cand = bare.candidates[0] as Record<string, unknown>;
+    cand["datasheetMax"] = { currentLimitMinA: 2 };
+    const a = (await call(given)) as Out & { assumptions: string[] };
+    const b = (await call(bare)) as Out & { assumptions: string[] };
+    expect(b.candidates[0]?.corners).toEqual(a.candidates[0]?.corners);
+    // the hot corner at the 2 A minimum: 85 + 5·((16 − 8)·2 + Iq·16) °C, as without the factors
+    expect(hotCorner(b.candidates[0])?.tjC).toBeCloseTo(tjAt(5, 16, 2, 4), 6);
+    const said = (o: { assumptions: string[] }) =>
+      o.assumptions.some(
+        (x) => x.includes("rdsOnFactor") && x.includes("forwardVoltageFactor") && x.includes("taken as 1"),
+      );
+    expect(said(b)).toBe(true);
+    expect(said(a)).toBe(false);
+  });
+
+  it("sizing.catalog takes a datasheetMax with only a start-voltage maximum", async () => {
+    const sizing = procedureInvoker(demoContext())("sizing.catalog");
+    if (sizing === undefined) throw new Error("sizing.catalog missing");
+    const out = (await sizing({
+      requirement: {
+        supply: { class: "vehicle-12v-b" },
+        load: { kind: "constant-current", currentA: 3 },
+        ambient: { minC: -40, maxC: 85 },
+        transients: [],
+      },
+      datasheetMax: { startV: "4 V" },
+      kinds: ["integrated-switch"],
+    })) as { assumptions: string[] };
+    expect(out.assumptions.some((x) => x.includes("rdsOnFactor") && x.includes("taken as 1"))).toBe(true);
+  });
+});
