@@ -41,7 +41,9 @@ export function datasheetMaxScale(
 ): StageScale {
   const missing = [
     ...(dm.rdsOnFactor === undefined ? ["rdsOnFactor (Rds(on), an integrated switch's on-resistance)"] : []),
-    ...(dm.forwardVoltageFactor === undefined ? ["forwardVoltageFactor (a diode's or body diode's forward voltage)"] : []),
+    ...(dm.forwardVoltageFactor === undefined
+      ? ["forwardVoltageFactor (a diode's or body diode's forward voltage)"]
+      : []),
   ];
   if (missing.length > 0)
     assumptions?.push(
