@@ -55,7 +55,9 @@ export interface ProfileResult {
  * junction follows the loss through a Foster network stepped exactly for the power held over each
  * step; without a transient model, the junction is the steady state of each instant's loss
  * (an upper bound for a dip shorter than the thermal time constants). Starts in thermal
- * equilibrium at the profile's first voltage.
+ * equilibrium at the profile's first voltage. An integrated switch's protections with memory
+ * act along it (switchGuard): its thermal shutdown (latched, or auto-retry below shutdown −
+ * hysteresis) and its cut-off's hysteresis hold it open, the load unpowered (dropout).
  */
 export function alongProfile(
   stage: StageModel,
@@ -109,6 +111,8 @@ export function alongProfile(
         thermalShutdownAtS ??= t;
       }
     }
+    // quasi-static: an open switch has no loss, its steady junction is the ambient (an auto-retrying
+    // part then turns on again at the next instant, and off again if that instant's steady Tj trips it)
     if (thermal.kind === "quasi-static" && held !== undefined) tjK = cToK(ambientC);
     const e = held === undefined ? solveElectrical({ stage, supplyV, sourceResistanceOhm, load }, tjK) : undefined;
     let sample: ProfileSample;
