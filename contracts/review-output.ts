@@ -88,7 +88,7 @@ export const reviewStartUp = z
             dropoutTimeS: z.number(),
             thermalShutdownAtS: z.number().optional().meta({
               description:
-                "an integrated switch with thermalShutdownC: when its junction first reached the shutdown along the profile (the switch then off, counted as dropout: latched for the rest, or until cooled by the auto-retry hysteresis)",
+                "an integrated switch with thermalShutdownC: when its junction first reached the shutdown along the profile (the switch then off, counted as dropout: latched for the rest, or until cooled by the auto-retry hysteresis). With datasheetMax.currentLimitMinA the samples, load voltage and dropout are at the minimum limit, this instant and maxTjC at whichever of it and the typical limit heats more",
               unit: "s",
             }),
             thermalModel: z.string(),

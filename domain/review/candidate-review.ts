@@ -7,13 +7,7 @@ import {
   type StandbyDrain,
   standbyDrain,
 } from "../checks/energy.js";
-import {
-  alongProfile,
-  type DriveAtInput,
-  driveAtInput,
-  type ProfileResult,
-  type TransientThermal,
-} from "../checks/start-up.js";
+import { type DriveAtInput, driveAtInput, type ProfileResult, type TransientThermal } from "../checks/start-up.js";
 import type { ControllerTurnOff } from "../checks/reverse-path.js";
 import { blocksReverseCurrent } from "../checks/stage-ratings.js";
 import type { ThermalSizing } from "../checks/thermal-sizing.js";
@@ -29,6 +23,7 @@ import type { TransientPulse } from "./transient-library.js";
 import { type LoadOvervoltage, loadOvervoltage } from "../checks/load-overvoltage.js";
 import { type ReviewInrush, type ReviewInrushResult, reviewInrush } from "./review-inrush.js";
 import { reviewCutoffHold } from "./review-cutoff-hold.js";
+import { profileAtWorstLimit } from "./review-start-profile.js";
 import { type ReviewShutdownCycle, reviewShutdownCycle } from "./review-shutdown-cycle.js";
 import { reviewThermalSizing } from "./review-thermal-sizing.js";
 import { atHighestCutoff, atLowestCurrentLimit, type SwitchTolerance, switchRuleLimits } from "./switch-tolerance.js";
@@ -169,14 +164,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
   const profiles = req.startProfile
     ? [req.ambientMinC, req.ambientMaxC].map((ambientC) => ({
         ambientC,
-        result: alongProfile(
-          startStage,
-          req.startProfile ?? [],
-          req.load,
-          req.sourceResistanceOhm,
-          ambientC,
-          cand.transientThermal,
-        ),
+        result: profileAtWorstLimit(startStage, req, req.startProfile ?? [], ambientC, cand),
       }))
     : [];
 

@@ -244,3 +244,36 @@ describe("review: the start-up profile's junction against the thermal shutdown",
     expect(rule(c, "switch-thermal-shutdown-in-service")).toBe("fail");
   });
 });
+
+describe("review: the start-up profile at the worst current limit for each figure", () => {
+  it("16 V into 2 Ω: the load at the 2 A minimum (4 V), the junction at the typical 3 A (30 W against 24 W through 2 K/W: 145 °C trips a 140 °C shutdown, 133 °C would not)", async () => {
+    const c = (
+      await call({
+        requirement: requirement({
+          load: { kind: "resistive", resistanceOhm: 2 },
+          startProfile: [
+            { timeS: 0, voltageV: 16 },
+            { timeS: 1, voltageV: 16 },
+          ],
+        }),
+        candidates: [
+          {
+            stage: sw({
+              currentLimitA: 3,
+              thermalShutdownC: 140,
+              thermal: { kind: "junction-ambient", rthJaKPerW: 2 },
+            }),
+            datasheetMax: { currentLimitMinA: 2 },
+            transientThermal: { kind: "foster", terms: [{ rKPerW: 2, tauS: 0.5 }] },
+          },
+        ],
+      })
+    ).candidates[0];
+    const hot = c?.startUp.profiles.find((p) => p.ambientC === 85)?.result;
+    expect(hot?.samples[0]?.lossW).toBeCloseTo((16 - 2 * 2) * 2 + IQ_A * 16, 9); // the samples at the minimum
+    // in equilibrium at 16 V from the start: 85 + 2·(30 + Iq·16) °C at the typical limit, tripped at once
+    expect(hot?.thermalShutdownAtS).toBe(0);
+    const cold = c?.startUp.profiles.find((p) => p.ambientC === -40)?.result;
+    expect(cold?.thermalShutdownAtS).toBeUndefined(); // −40 + 60 °C
+  });
+});
