@@ -89,6 +89,8 @@ export function solveCorners(stage: StageModel, space: CornerSpace): CornerResul
       });
     if (minA === undefined || typicalA === undefined) return { conditions: c, result: solve(s) };
     const atMin = solve(withCurrentLimit(s, minA));
+    // below the minimum limit the limit does not act: the typical one gives the same point
+    if ("point" in atMin && atMin.point.forward.mode !== "current-limit") return { conditions: c, result: atMin };
     const atTypical = solve(s);
     return hotter(atTypical, atMin)
       ? { conditions: c, result: atMin, hotterAtLimit: { currentLimitA: typicalA, result: atTypical } }
