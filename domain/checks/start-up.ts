@@ -97,16 +97,19 @@ export function alongProfile(
   const guard = switchGuard(stage);
   let held: "cut-off" | "thermal-shutdown" | undefined;
   let thermalShutdownAtS: number | undefined;
+  // whether the channel conducted the instant before (a body diode below start is not shut down)
+  let channelOn = true;
   for (let i = 0; i < times.length; i += 1) {
     const t = times[i] ?? 0;
     const supplyV = interpolate(pts, t);
-    held = guard === undefined ? undefined : nextHeld(guard, held, supplyV, kToC(tjK));
+    held = guard === undefined ? undefined : nextHeld(guard, held, supplyV, kToC(tjK), channelOn);
     if (held === "thermal-shutdown" && thermalShutdownAtS === undefined) thermalShutdownAtS = t;
     if (thermal.kind === "quasi-static" && held === undefined) {
       const q = solveOperatingPoint({ stage, supplyV, sourceResistanceOhm, load, ambientC, rthKPerW: rth });
       if ("point" in q) tjK = cToK(q.point.tjC);
       // the steady Tj of this instant's loss reaching the shutdown: the switch turns off now
-      if (guard !== undefined && nextHeld(guard, held, supplyV, kToC(tjK)) === "thermal-shutdown") {
+      const on = "point" in q && q.point.forward.mode !== "body-diode" && q.point.forward.mode !== "junction";
+      if (guard !== undefined && nextHeld(guard, held, supplyV, kToC(tjK), on) === "thermal-shutdown") {
         held = "thermal-shutdown";
         thermalShutdownAtS ??= t;
       }
@@ -134,6 +137,7 @@ export function alongProfile(
       };
     }
     samples.push(sample);
+    channelOn = sample.mode !== "body-diode" && sample.mode !== "junction";
     const next = times[i + 1];
     if (next === undefined) break;
     const dt = next - t;
@@ -180,7 +184,7 @@ function switchGuard(stage: StageModel): SwitchGuard | undefined {
 
 /**
  * Whether the switch is held open at this instant, from its state the instant before: the thermal
- * shutdown trips at its temperature and holds (latched) or releases below shutdown − hysteresis
+ * shutdown trips at its temperature (with its channel conducting) and holds (latched) or releases below shutdown − hysteresis
  * (auto-retry); the cut-off, once its input went above the threshold, holds until the input falls
  * below threshold − hysteresis (judged with the path open: the input is the supply). Above the
  * threshold itself the forward law opens the switch (integrated-switch.ts), so only the band is held here.
@@ -190,10 +194,11 @@ function nextHeld(
   held: "cut-off" | "thermal-shutdown" | undefined,
   supplyV: number,
   tjC: number,
+  channelOn: boolean,
 ): "cut-off" | "thermal-shutdown" | undefined {
   const sd = g.shutdown;
   if (sd !== undefined) {
-    if (held !== "thermal-shutdown" && tjC >= sd.atC) return "thermal-shutdown";
+    if (held !== "thermal-shutdown" && channelOn && tjC >= sd.atC) return "thermal-shutdown";
     if (held === "thermal-shutdown" && (sd.retryBelowC === undefined || tjC >= sd.retryBelowC)) return held;
   }
   const c = g.cutoff;
