@@ -7,12 +7,18 @@ import { quantity } from "./quantity.js";
  */
 export const datasheetMax = z
   .strictObject({
-    rdsOnFactor: z.number().gte(1).lte(5).meta({ description: "datasheet maximum ÷ typical Rds(on)", unit: "1" }),
+    rdsOnFactor: z
+      .number()
+      .gte(1)
+      .lte(5)
+      .optional()
+      .meta({ description: "datasheet maximum ÷ typical Rds(on) (absent: 1, the typical)", unit: "1" }),
     forwardVoltageFactor: z
       .number()
       .gte(1)
       .lte(5)
-      .meta({ description: "datasheet maximum ÷ typical forward voltage", unit: "1" }),
+      .optional()
+      .meta({ description: "datasheet maximum ÷ typical forward voltage (absent: 1, the typical)", unit: "1" }),
     startV: quantity(
       "V",
       "datasheet maximum start voltage of the controller or integrated switch (the start checks and the datasheet-maximum corners use it)",
@@ -40,7 +46,7 @@ export const datasheetMax = z
     ).optional(),
     currentLimitMinA: quantity(
       "A",
-      "datasheet minimum current limit of an integrated switch (the inrush charges at it and switch-current-limit-above-load reads it; absent: the typical currentLimitA)",
+      "datasheet minimum current limit of an integrated switch (the steady corners are solved at it, their Tj and loss at whichever of it and the typical limit heats more; the inrush charges at it and switch-current-limit-above-load reads it; absent: the typical currentLimitA)",
       { gt: 0, le: 10_000 },
     ).optional(),
     overvoltageCutoffMinV: quantity(

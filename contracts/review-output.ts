@@ -25,7 +25,17 @@ export const cornerConditions = z.object({
   tolerance: z.enum(["typical", "datasheet-max"]),
 });
 
-export const cornerRow = z.object({ conditions: cornerConditions, ...pointFields });
+export const cornerRow = z.object({
+  conditions: cornerConditions,
+  ...pointFields,
+  hotterAtLimit: z
+    .object({ currentLimitA: z.number(), ...pointFields })
+    .optional()
+    .meta({
+      description:
+        "an integrated switch given a datasheet minimum current limit: the corner's point is solved at that minimum (the load's supply); this is the same corner at the typical limit where it heats the die more (the limiting loss (Vin − Ilim·R)·Ilim is not monotonic in Ilim): the corner's Tj and loss for the worst case and the rules",
+    }),
+});
 
 export const reviewCurves = z
   .object({
@@ -76,6 +86,11 @@ export const reviewStartUp = z
             maxTjC: z.number(),
             bodyDiodeTimeS: z.number(),
             dropoutTimeS: z.number(),
+            thermalShutdownAtS: z.number().optional().meta({
+              description:
+                "an integrated switch with thermalShutdownC: when its junction first reached the shutdown along the profile (the switch then off, counted as dropout: latched for the rest, or until cooled by the auto-retry hysteresis). With datasheetMax.currentLimitMinA the samples, load voltage and dropout are at the minimum limit, this instant and maxTjC at whichever of it and the typical limit heats more",
+              unit: "s",
+            }),
             thermalModel: z.string(),
           }),
         }),
@@ -213,6 +228,10 @@ export const candidateResult = z.object({
   loadOvervoltage: z.unknown().optional().meta({
     description:
       "what reaches the load per positive pulse (an overvoltage cut-off opens above its threshold after its response time) and the highest of them with the steady overvoltages",
+  }),
+  thermalShutdownCycle: z.unknown().optional().meta({
+    description:
+      "an integrated switch with afterThermalShutdown auto-retry whose hottest steady corner reaches its shutdown: the corner, and the cycle between shutdown and shutdown − hysteresis (outcome cycles: the on loss, the duty the load gets, the average dissipation, the heating, cooling and period times through the Foster network; or stays-off, does-not-trip, not-converged with a reason). The load is interrupted either way: switch-thermal-shutdown-in-service fails",
   }),
   thermalSizing: z.unknown(),
   energy: z.unknown().optional(),

@@ -190,6 +190,26 @@ export const stageSpec = z
         thermalShutdownC: temperatureC(
           "junction temperature at which the switch shuts itself down (absent: no thermal shutdown)",
         ).optional(),
+        afterThermalShutdown: z
+          .discriminatedUnion("mode", [
+            z.strictObject({ mode: z.literal("latched") }),
+            z.strictObject({
+              mode: z.literal("auto-retry"),
+              hysteresisK: quantity(
+                "K",
+                "the junction cools by this below the shutdown before the switch turns on again",
+                {
+                  gt: 0,
+                  le: 200,
+                },
+              ),
+            }),
+          ])
+          .optional()
+          .meta({
+            description:
+              "after a thermal shutdown: latched off until power is cycled, or auto-retry once the junction has cooled by hysteresisK (absent: latched)",
+          }),
         overvoltageCutoffV: volts(
           "input voltage above which the switch opens, keeping a surge from the load (absent: no overvoltage cut-off)",
         ).optional(),
@@ -198,12 +218,42 @@ export const stageSpec = z
           "time from the input crossing the cut-off threshold to the switch open (absent: taken as instant)",
           { ge: 0, le: 1 },
         ).optional(),
+        overvoltageHysteresisV: quantity(
+          "V",
+          "hysteresis of the overvoltage cut-off: once open, the switch recloses only when its input falls below the threshold minus this (absent: 0)",
+          { ge: 0, le: 10_000 },
+        ).optional(),
         tjMaxC: temperatureC("maximum junction temperature"),
         thermal: thermalPath,
       })
       .superRefine((s, ctx) => {
         if (s.belowStart === "body-diode" && s.bodyDiode === undefined) {
           ctx.addIssue({ code: "custom", path: ["bodyDiode"], message: "required when belowStart is body-diode" });
+        }
+        if (s.afterThermalShutdown !== undefined && s.thermalShutdownC === undefined) {
+          ctx.addIssue({
+            code: "custom",
+            path: ["afterThermalShutdown"],
+            message:
+              "a behaviour after thermal shutdown needs its temperature: give thermalShutdownC, or leave afterThermalShutdown out",
+          });
+        }
+        if (s.overvoltageHysteresisV !== undefined && s.overvoltageCutoffV === undefined) {
+          ctx.addIssue({
+            code: "custom",
+            path: ["overvoltageHysteresisV"],
+            message: "a hysteresis needs its cut-off: give overvoltageCutoffV, or leave overvoltageHysteresisV out",
+          });
+        } else if (
+          s.overvoltageHysteresisV !== undefined &&
+          s.overvoltageCutoffV !== undefined &&
+          s.overvoltageHysteresisV >= s.overvoltageCutoffV
+        ) {
+          ctx.addIssue({
+            code: "custom",
+            path: ["overvoltageHysteresisV"],
+            message: `the hysteresis must be below the ${s.overvoltageCutoffV} V cut-off threshold (the switch recloses below threshold − hysteresis): give a smaller value`,
+          });
         }
       }),
   ])

@@ -39,11 +39,21 @@ export function cornerTable(c: Candidate): CornerCell[][] {
       cell(r.mode ?? (r.reason === undefined ? "–" : "no operating point")),
       cell(num(r.currentA)),
       cell(num(r.dropV), w.dropV?.corner === i),
-      cell(num(r.lossW), w.lossW?.corner === i),
-      cell(num(r.tjC), w.tjC?.corner === i),
+      // Tj and loss at the current limit that heats more where the switch has a minimum limit (hotterAtLimit)
+      cell(hotter(r.hotterAtLimit, r.hotterAtLimit?.lossW, r.lossW), w.lossW?.corner === i),
+      cell(hotter(r.hotterAtLimit, r.hotterAtLimit?.tjC, r.tjC), w.tjC?.corner === i),
       cell(num(r.loadV), w.loadMinV?.corner === i),
     ];
   });
+}
+
+/** A thermal figure of the corner: at the typical limit, so marked, where that heats more. */
+function hotter(
+  h: { readonly currentLimitA: number } | undefined,
+  atLimit: number | undefined,
+  own: number | undefined,
+) {
+  return h === undefined ? num(own) : `${num(atLimit)} (at ${num(h.currentLimitA)} A)`;
 }
 
 /** One line per worst-case metric, naming its corner. */

@@ -8,8 +8,8 @@ import { inputProblem } from "../input-problem.js";
 
 /** A candidate's datasheet-maximum tolerances as the contract gives them (contracts/review.ts). */
 export interface DatasheetMaxSpec {
-  readonly rdsOnFactor: number;
-  readonly forwardVoltageFactor: number;
+  readonly rdsOnFactor?: number | undefined;
+  readonly forwardVoltageFactor?: number | undefined;
   readonly startV?: number | undefined;
   readonly thresholdV?: number | undefined;
   readonly thresholdMinV?: number | undefined;
@@ -28,11 +28,27 @@ export function mosfetThresholdV(stage: StageModel): number | undefined {
 }
 
 /**
- * The datasheet-maximum corner of a candidate as a stage scale: the factors, and the start voltage
- * and gate threshold as shifts from the stage's typical values (max − typical). Refused, naming the
- * field, where the stage has no such parameter or the maximum is below the typical value.
+ * The datasheet-maximum corner of a candidate as a stage scale: the factors (each absent is 1, the
+ * typical value, said in `assumptions` where given), and the start voltage and gate threshold as
+ * shifts from the stage's typical values (max − typical). Refused, naming the field, where the
+ * stage has no such parameter or the maximum is below the typical value.
  */
-export function datasheetMaxScale(dm: DatasheetMaxSpec, stage: StageModel, path: (string | number)[]): StageScale {
+export function datasheetMaxScale(
+  dm: DatasheetMaxSpec,
+  stage: StageModel,
+  path: (string | number)[],
+  assumptions?: string[],
+): StageScale {
+  const missing = [
+    ...(dm.rdsOnFactor === undefined ? ["rdsOnFactor (Rds(on), an integrated switch's on-resistance)"] : []),
+    ...(dm.forwardVoltageFactor === undefined
+      ? ["forwardVoltageFactor (a diode's or body diode's forward voltage)"]
+      : []),
+  ];
+  if (missing.length > 0)
+    assumptions?.push(
+      `${path.join(".")}: ${missing.join(" and ")} not given: taken as 1, the datasheet-maximum corners at the typical value there`,
+    );
   const shift = (
     field: "startV" | "thresholdV",
     max: number | undefined,
@@ -56,8 +72,8 @@ export function datasheetMaxScale(dm: DatasheetMaxSpec, stage: StageModel, path:
   };
   return {
     ...UNSCALED,
-    rdsOnFactor: dm.rdsOnFactor,
-    forwardVoltageFactor: dm.forwardVoltageFactor,
+    rdsOnFactor: dm.rdsOnFactor ?? 1,
+    forwardVoltageFactor: dm.forwardVoltageFactor ?? 1,
     startShiftV: shift("startV", dm.startV, stageStartV(stage), "start voltage"),
     thresholdShiftV: shift("thresholdV", dm.thresholdV, mosfetThresholdV(stage), "MOSFET gate threshold"),
   };
@@ -191,7 +207,7 @@ export function switchTolerance(
   const cutoffMaxV = check("overvoltageCutoffMaxV", cutoffV, "overvoltage cut-off", "max", "V");
   if (limitA !== undefined && limitMinA === undefined)
     assumptions.push(
-      `${at}: the current limit's tolerance not given (datasheetMax.currentLimitMinA): the inrush and switch-current-limit-above-load use the typical ${limitA} A`,
+      `${at}: the current limit's tolerance not given (datasheetMax.currentLimitMinA): the steady corners, the inrush and switch-current-limit-above-load use the typical ${limitA} A`,
     );
   if (cutoffV !== undefined && (cutoffMinV === undefined || cutoffMaxV === undefined))
     assumptions.push(

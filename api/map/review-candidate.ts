@@ -58,7 +58,7 @@ export function reviewCandidateInputs(
     assumptions,
   );
   const dmPath = [...path, "datasheetMax"];
-  const datasheetMax = c.datasheetMax ? datasheetMaxScale(c.datasheetMax, stage.model, dmPath) : undefined;
+  const datasheetMax = c.datasheetMax ? datasheetMaxScale(c.datasheetMax, stage.model, dmPath, assumptions) : undefined;
   const timingPath = c.turnOffTiming ? [...path, "turnOffTiming"] : ["requirement", "turnOff", "timing"];
   const timing = req.model.turnOff
     ? controllerTimingOf(stage.spec, stage.model, c.turnOffTiming ?? r.turnOff?.timing, timingPath, assumptions)

@@ -94,6 +94,7 @@ export function toStageModel(
         ...(spec.avalancheEnergyJ === undefined ? {} : { avalancheEnergyJ: spec.avalancheEnergyJ }),
         ...(spec.currentLimitA === undefined ? {} : { currentLimitA: spec.currentLimitA }),
         ...(spec.thermalShutdownC === undefined ? {} : { thermalShutdownC: spec.thermalShutdownC }),
+        ...(spec.afterThermalShutdown === undefined ? {} : { afterThermalShutdown: spec.afterThermalShutdown }),
         ...overvoltageCutoff(spec, path, assumptions),
         tjMaxC: spec.tjMaxC,
         thermal,
@@ -108,15 +109,20 @@ function overvoltageCutoff(
   spec: Extract<StageSpec, { kind: "integrated-switch" }>,
   path: readonly (string | number)[],
   assumptions: string[],
-): { overvoltageCutoffV?: number; overvoltageResponseS?: number } {
+): { overvoltageCutoffV?: number; overvoltageResponseS?: number; overvoltageHysteresisV?: number } {
   if (spec.overvoltageCutoffV === undefined) return {};
   if (spec.overvoltageResponseS === undefined)
     assumptions.push(
       `${[...path, "overvoltageResponseS"].join(".")}: not given: the cut-off is taken as instant (the load sees its threshold ${spec.overvoltageCutoffV} V at most)`,
     );
+  if (spec.overvoltageHysteresisV === undefined)
+    assumptions.push(
+      `${[...path, "overvoltageHysteresisV"].join(".")}: not given: the cut-off's hysteresis is taken as 0 (the switch recloses as soon as its input is back below the ${spec.overvoltageCutoffV} V threshold)`,
+    );
   return {
     overvoltageCutoffV: spec.overvoltageCutoffV,
     ...(spec.overvoltageResponseS === undefined ? {} : { overvoltageResponseS: spec.overvoltageResponseS }),
+    ...(spec.overvoltageHysteresisV === undefined ? {} : { overvoltageHysteresisV: spec.overvoltageHysteresisV }),
   };
 }
 

@@ -1,11 +1,10 @@
 import type { ReviewOutput } from "../../contracts/review.js";
 import { DEFAULT_VDS_TEMPCO_PER_K, stageMosfet } from "../../domain/checks/breakdown-temperature.js";
 import { reviewInput, reviewOutput } from "../../contracts/review.js";
-import type { CornerResult } from "../../domain/checks/corners.js";
+import { type CornerResult, cornerUnsolved } from "../../domain/checks/corners.js";
 import { CAUTION, MODEL_VERSION } from "../../domain/provenance.js";
 import { type CandidateReview, reviewCandidate } from "../../domain/review/candidate-review.js";
 import { reviewCurves } from "../../domain/review/curves.js";
-import type { OperatingPointOutcome } from "../../domain/solve/electrothermal-point.js";
 import { type CandidateVerdict, rankCandidates } from "../../domain/review/ranking.js";
 import { evaluateRuleSet } from "../../domain/rules/evaluate-rules.js";
 import { formatQuantity } from "../../domain/rules/quantity-text.js";
@@ -13,6 +12,7 @@ import type { RuleSetResult } from "../../domain/rules/rule-model.js";
 import { withPartCorner } from "../map/part-corner.js";
 import { resolveStage } from "../map/resolve-stage.js";
 import { reviewCandidateInputs } from "../map/review-candidate.js";
+import { cornerRow, pointRow } from "../map/review-rows.js";
 import { turnOffEventFields } from "../map/turn-off-output.js";
 import { toReviewRequirement } from "../map/requirement.js";
 import { reviewRuleInput } from "../../domain/rules/metrics-of-review.js";
@@ -52,8 +52,9 @@ export const review = defineProcedure({
         );
       }
       if (stage.model.kind === "integrated-switch" && stage.model.thermalShutdownC !== undefined) {
+        const after = stage.model.afterThermalShutdown;
         assumptions.push(
-          `${path.join(".")}: a steady corner at or above the ${stage.model.thermalShutdownC} °C thermal shutdown is the switch turned off and the load unpowered (thermalShutdownInService), the part taken as latched off: the contract states no auto-retry`,
+          `${path.join(".")}: a steady corner or a start-up profile at or above the ${stage.model.thermalShutdownC} °C thermal shutdown is the switch turned off and the load interrupted (thermalShutdownInService), ${after === undefined ? "the part taken as latched off: no afterThermalShutdown given" : after.mode === "latched" ? "the part latched off (afterThermalShutdown)" : `the part retrying once cooled by ${after.hysteresisK} K (afterThermalShutdown): it cycles, the load powered only part of the time`}`,
         );
       }
       const { candidate: inputs } = reviewCandidateInputs(
@@ -180,6 +181,7 @@ export const review = defineProcedure({
         transients: e.r.transients,
         ...(e.r.inrush === undefined ? {} : { inrush: e.r.inrush }),
         loadOvervoltage: e.r.loadOvervoltage,
+        ...(e.r.thermalShutdownCycle === undefined ? {} : { thermalShutdownCycle: e.r.thermalShutdownCycle }),
         thermalSizing: e.r.thermalSizing,
         ...(e.r.energy ? { energy: e.r.energy } : {}),
         standby: e.r.standby,
@@ -210,10 +212,11 @@ export const review = defineProcedure({
 function verdictOf(r: CandidateReview, rules: RuleSetResult): { verdict: CandidateVerdict; reason: string } {
   const first = r.worst.unsolvedCornerIndexes[0];
   const corner = first === undefined ? undefined : r.corners[first];
-  if (corner && !("point" in corner.result)) {
+  const unsolved = corner === undefined ? undefined : cornerUnsolved(corner);
+  if (corner && unsolved) {
     return {
       verdict: "fail",
-      reason: `fail: corner ${first} (${describe(corner)}) has no operating point: ${corner.result.reason}`,
+      reason: `fail: corner ${first} (${describe(corner)}) has no operating point: ${unsolved.reason}`,
     };
   }
   const failing = rules.verdicts.find((v) => v.outcome === "fail") ?? rules.verdicts.find((v) => v.outcome === "warn");
@@ -241,40 +244,4 @@ function verdictOf(r: CandidateReview, rules: RuleSetResult): { verdict: Candida
 function describe(c: CornerResult): string {
   const k = c.conditions;
   return `supply ${k.supply} ${k.supplyV} V, ambient ${k.ambient} ${k.ambientC} °C, load ×${k.loadScale}, ${k.tolerance}`;
-}
-
-function cornerRow(c: CornerResult) {
-  // Written out rather than spread from pointRow: 96 rows per review, and a spread into a literal
-  // takes V8's slow clone path. Same fields, same order.
-  const r = c.result;
-  if ("point" in r) {
-    const p = r.point;
-    return {
-      conditions: c.conditions,
-      outcome: r.outcome,
-      mode: p.forward.mode,
-      currentA: p.currentA,
-      dropV: p.forward.dropV,
-      lossW: p.dieLossW,
-      tjC: p.tjC,
-      loadV: p.loadV,
-    };
-  }
-  return { conditions: c.conditions, outcome: r.outcome, reason: r.reason };
-}
-
-function pointRow(r: OperatingPointOutcome) {
-  if ("point" in r) {
-    const p = r.point;
-    return {
-      outcome: r.outcome,
-      mode: p.forward.mode,
-      currentA: p.currentA,
-      dropV: p.forward.dropV,
-      lossW: p.dieLossW,
-      tjC: p.tjC,
-      loadV: p.loadV,
-    };
-  }
-  return { outcome: r.outcome, reason: r.reason };
 }

@@ -16,8 +16,19 @@ export interface CornerConditions {
 
 export interface CornerResult {
   readonly conditions: CornerConditions;
-  /** The point without its loop gain: no corner check reads Rth·dP/dTj, so its probe is skipped. */
+  /**
+   * The point without its loop gain: no corner check reads Rth·dP/dTj, so its probe is skipped.
+   * An integrated switch with a datasheet minimum current limit is solved at that minimum here:
+   * the load's supply (I_lim·R) and a collapse are worst at the lowest limit.
+   */
   readonly result: OperatingPointOutcome<ThermalPoint>;
+  /**
+   * The same corner at the switch's typical current limit, where that heats the die more than the
+   * minimum (hotter point, or a runaway against a point): the limiting dissipation
+   * (V_in − I_lim·R)·I_lim peaks at I_lim = V_in/(2R), so it is not monotonic in I_lim. The
+   * corner's Tj and loss are this one's (cornerThermal); absent where the minimum is the hotter.
+   */
+  readonly hotterAtLimit?: { readonly currentLimitA: number; readonly result: OperatingPointOutcome<ThermalPoint> };
 }
 
 export interface CornerSpace {
@@ -31,6 +42,8 @@ export interface CornerSpace {
   readonly datasheetMax?: StageScale;
   readonly sourceResistanceOhm: number;
   readonly load: LoadModel;
+  /** An integrated switch's datasheet minimum current limit, A (below its typical); absent: the typical only. */
+  readonly currentLimitMinA?: number;
 }
 
 /** Every combination of supply (min, nominal, max) × ambient (min, max) × load level × tolerance. */
@@ -53,23 +66,60 @@ export function cornerConditions(space: CornerSpace): CornerConditions[] {
   return out;
 }
 
-/** Solve the stage at every corner. */
+/**
+ * Solve the stage at every corner. An integrated switch with a minimum current limit below its
+ * typical one is solved at both: the corner's point at the minimum (the load's supply, a
+ * collapse), its Tj and loss at whichever heats the die more (hotterAtLimit).
+ */
 export function solveCorners(stage: StageModel, space: CornerSpace): CornerResult[] {
   const maxStage = space.datasheetMax ? scaleStage(stage, space.datasheetMax) : stage;
+  const typicalA = stage.kind === "integrated-switch" ? stage.currentLimitA : undefined;
+  const minA =
+    typicalA !== undefined && (space.currentLimitMinA ?? typicalA) < typicalA ? space.currentLimitMinA : undefined;
   return cornerConditions(space).map((c) => {
     const s = c.tolerance === "typical" ? stage : maxStage;
-    return {
-      conditions: c,
-      result: solveThermalPoint({
-        stage: s,
+    const solve = (st: StageModel) =>
+      solveThermalPoint({
+        stage: st,
         supplyV: c.supplyV,
         sourceResistanceOhm: space.sourceResistanceOhm,
         load: scaleLoad(space.load, c.loadScale),
         ambientC: c.ambientC,
-        rthKPerW: totalRthKPerW(s.thermal),
-      }),
-    };
+        rthKPerW: totalRthKPerW(st.thermal),
+      });
+    if (minA === undefined || typicalA === undefined) return { conditions: c, result: solve(s) };
+    const atMin = solve(withCurrentLimit(s, minA));
+    // below the minimum limit the limit does not act: the typical one gives the same point
+    if ("point" in atMin && atMin.point.forward.mode !== "current-limit") return { conditions: c, result: atMin };
+    const atTypical = solve(s);
+    return hotter(atTypical, atMin)
+      ? { conditions: c, result: atMin, hotterAtLimit: { currentLimitA: typicalA, result: atTypical } }
+      : { conditions: c, result: atMin };
   });
+}
+
+function withCurrentLimit(stage: StageModel, currentLimitA: number): StageModel {
+  return stage.kind === "integrated-switch" ? { ...stage, currentLimitA } : stage;
+}
+
+/** Whether a heats the die more than b: a runaway against a point, or a higher Tj. */
+function hotter(a: OperatingPointOutcome<ThermalPoint>, b: OperatingPointOutcome<ThermalPoint>): boolean {
+  if ("point" in b) return "point" in a ? a.point.tjC > b.point.tjC : a.outcome === "thermal-runaway";
+  return false;
+}
+
+/** The corner's thermal figure (Tj, die loss): at the current limit that heats the die more (solveCorners). */
+export function cornerThermal(c: CornerResult): OperatingPointOutcome<ThermalPoint> {
+  return c.hotterAtLimit?.result ?? c.result;
+}
+
+/** The corner's outcome without an operating point (its point's, else its thermal figure's); undefined where both have one. */
+export function cornerUnsolved(
+  c: CornerResult,
+): Exclude<OperatingPointOutcome<ThermalPoint>, { readonly point: ThermalPoint }> | undefined {
+  if (!("point" in c.result)) return c.result;
+  const th = cornerThermal(c);
+  return "point" in th ? undefined : th;
 }
 
 export interface WorstOf {
@@ -86,7 +136,11 @@ export interface WorstCase {
   readonly unsolvedCornerIndexes: readonly number[];
 }
 
-/** The worst corner per metric, among the corners that have an operating point. */
+/**
+ * The worst corner per metric, among the corners that have an operating point: Tj and loss from
+ * each corner's thermal figure (cornerThermal), drop and load voltage from its point. A corner
+ * without either is unsolved.
+ */
 export function worstCase(corners: readonly CornerResult[]): WorstCase {
   // Scalars while scanning (one record per metric at the end, not one per improvement).
   let tjI = -1;
@@ -99,19 +153,21 @@ export function worstCase(corners: readonly CornerResult[]): WorstCase {
   let load = 0;
   const unsolved: number[] = [];
   for (let i = 0; i < corners.length; i += 1) {
-    const r = (corners[i] as CornerResult).result;
-    if (!("point" in r)) {
+    const c = corners[i] as CornerResult;
+    const r = c.result;
+    const th = cornerThermal(c);
+    if (!("point" in r) || !("point" in th)) {
       unsolved.push(i);
       continue;
     }
     const p = r.point;
-    if (tjI < 0 || p.tjC > tj) {
+    if (tjI < 0 || th.point.tjC > tj) {
       tjI = i;
-      tj = p.tjC;
+      tj = th.point.tjC;
     }
-    if (lossI < 0 || p.dieLossW > loss) {
+    if (lossI < 0 || th.point.dieLossW > loss) {
       lossI = i;
-      loss = p.dieLossW;
+      loss = th.point.dieLossW;
     }
     if (dropI < 0 || p.forward.dropV > drop) {
       dropI = i;

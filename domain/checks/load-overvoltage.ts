@@ -1,5 +1,6 @@
 import type { TransientPulse } from "../review/transient-library.js";
 import type { StageModel } from "../stages/stage-model.js";
+import type { CutoffHold } from "./cutoff-hysteresis.js";
 import type { TransientResult } from "./transient-stress.js";
 
 export interface LoadPeak {
@@ -18,6 +19,8 @@ export interface LoadOvervoltage {
   readonly pulses: readonly LoadPeak[];
   /** Highest voltage the load sees: steady supply, steady overvoltage (cut off above the threshold) and every positive pulse, V. */
   readonly loadVMaxV: number;
+  /** The cut-off's hysteresis after an excursion: which steady levels keep the switch open (cutoff-hysteresis.ts). */
+  readonly hold?: CutoffHold;
 }
 
 /**

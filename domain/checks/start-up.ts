@@ -30,7 +30,7 @@ export type TransientThermal =
 export interface ProfileSample {
   readonly timeS: number;
   readonly supplyV: number;
-  readonly mode: ConductionMode | "load-dropout" | "stage-off";
+  readonly mode: ConductionMode | "load-dropout" | "stage-off" | "thermal-shutdown";
   readonly loadV: number;
   readonly lossW: number;
   readonly tjC: number;
@@ -42,8 +42,10 @@ export interface ProfileResult {
   readonly maxTjC: number;
   /** Total time the stage conducted on its body diode (controller not running), s. */
   readonly bodyDiodeTimeS: number;
-  /** Total time the load had no operating point (collapse, undervoltage, stage off), s. */
+  /** Total time the load had no operating point (collapse, undervoltage, stage off, a switch held open), s. */
   readonly dropoutTimeS: number;
+  /** An integrated switch: when its junction first reached its thermal shutdown along the profile, s; absent: never. */
+  readonly thermalShutdownAtS?: number;
   readonly thermalModel: TransientThermal["kind"];
 }
 
@@ -53,7 +55,9 @@ export interface ProfileResult {
  * junction follows the loss through a Foster network stepped exactly for the power held over each
  * step; without a transient model, the junction is the steady state of each instant's loss
  * (an upper bound for a dip shorter than the thermal time constants). Starts in thermal
- * equilibrium at the profile's first voltage.
+ * equilibrium at the profile's first voltage. An integrated switch's protections with memory
+ * act along it (switchGuard): its thermal shutdown (latched, or auto-retry below shutdown −
+ * hysteresis) and its cut-off's hysteresis hold it open, the load unpowered (dropout).
  */
 export function alongProfile(
   stage: StageModel,
@@ -90,17 +94,36 @@ export function alongProfile(
   }
   times.push(profile[profile.length - 1]?.timeS ?? first.timeS);
   const pts = profile.map((p) => [p.timeS, p.voltageV] as const);
+  const guard = switchGuard(stage);
+  let held: "cut-off" | "thermal-shutdown" | undefined;
+  let thermalShutdownAtS: number | undefined;
+  // whether the channel conducted the instant before (a body diode below start is not shut down)
+  let channelOn = true;
   for (let i = 0; i < times.length; i += 1) {
     const t = times[i] ?? 0;
     const supplyV = interpolate(pts, t);
-    if (thermal.kind === "quasi-static") {
+    held = guard === undefined ? undefined : nextHeld(guard, held, supplyV, kToC(tjK), channelOn);
+    if (held === "thermal-shutdown" && thermalShutdownAtS === undefined) thermalShutdownAtS = t;
+    if (thermal.kind === "quasi-static" && held === undefined) {
       const q = solveOperatingPoint({ stage, supplyV, sourceResistanceOhm, load, ambientC, rthKPerW: rth });
       if ("point" in q) tjK = cToK(q.point.tjC);
+      // the steady Tj of this instant's loss reaching the shutdown: the switch turns off now
+      const on = "point" in q && q.point.forward.mode !== "body-diode" && q.point.forward.mode !== "junction";
+      if (guard !== undefined && nextHeld(guard, held, supplyV, kToC(tjK), on) === "thermal-shutdown") {
+        held = "thermal-shutdown";
+        thermalShutdownAtS ??= t;
+      }
     }
-    const e = solveElectrical({ stage, supplyV, sourceResistanceOhm, load }, tjK);
+    // quasi-static: an open switch has no loss, its steady junction is the ambient (an auto-retrying
+    // part then turns on again at the next instant, and off again if that instant's steady Tj trips it)
+    if (thermal.kind === "quasi-static" && held !== undefined) tjK = cToK(ambientC);
+    const e = held === undefined ? solveElectrical({ stage, supplyV, sourceResistanceOhm, load }, tjK) : undefined;
     let sample: ProfileSample;
     let lossW = 0;
-    if (e.ok && !(load.kind === "constant-power" && e.point.loadV < load.minVoltageV)) {
+    if (e === undefined) {
+      // the switch held open (cut-off hysteresis, thermal shutdown): no current, the load unpowered
+      sample = { timeS: t, supplyV, mode: held ?? "cut-off", loadV: 0, lossW: 0, tjC: kToC(tjK) };
+    } else if (e.ok && !(load.kind === "constant-power" && e.point.loadV < load.minVoltageV)) {
       lossW = dieLossW(stage, e.point);
       sample = { timeS: t, supplyV, mode: e.point.forward.mode, loadV: e.point.loadV, lossW, tjC: kToC(tjK) };
     } else {
@@ -114,11 +137,12 @@ export function alongProfile(
       };
     }
     samples.push(sample);
+    channelOn = sample.mode !== "body-diode" && sample.mode !== "junction";
     const next = times[i + 1];
     if (next === undefined) break;
     const dt = next - t;
     if (sample.mode === "body-diode") bodyDiodeTimeS += dt;
-    if (sample.mode === "load-dropout" || sample.mode === "stage-off") dropoutTimeS += dt;
+    if (e === undefined || sample.mode === "load-dropout" || sample.mode === "stage-off") dropoutTimeS += dt;
     if (thermal.kind === "foster") {
       rises = stepFoster(thermal.terms, rises, lossW, dt);
       tjK = cToK(ambientC) + rises.reduce((x, y) => x + y, 0);
@@ -130,6 +154,56 @@ export function alongProfile(
     maxTjC: Math.max(...samples.map((s) => s.tjC)),
     bodyDiodeTimeS,
     dropoutTimeS,
+    ...(thermalShutdownAtS === undefined ? {} : { thermalShutdownAtS }),
     thermalModel: thermal.kind,
   };
+}
+
+/** An integrated switch's protections that hold it open with memory: the cut-off's hysteresis, the thermal shutdown. */
+interface SwitchGuard {
+  readonly cutoff: { readonly thresholdV: number; readonly reclosesBelowV: number } | undefined;
+  readonly shutdown: { readonly atC: number; readonly retryBelowC?: number } | undefined;
+}
+
+function switchGuard(stage: StageModel): SwitchGuard | undefined {
+  if (stage.kind !== "integrated-switch") return undefined;
+  const h = stage.overvoltageHysteresisV ?? 0;
+  const cutoff =
+    stage.overvoltageCutoffV !== undefined && h > 0
+      ? { thresholdV: stage.overvoltageCutoffV, reclosesBelowV: stage.overvoltageCutoffV - h }
+      : undefined;
+  const after = stage.afterThermalShutdown;
+  const shutdown =
+    stage.thermalShutdownC === undefined
+      ? undefined
+      : after?.mode === "auto-retry"
+        ? { atC: stage.thermalShutdownC, retryBelowC: stage.thermalShutdownC - after.hysteresisK }
+        : { atC: stage.thermalShutdownC };
+  return cutoff === undefined && shutdown === undefined ? undefined : { cutoff, shutdown };
+}
+
+/**
+ * Whether the switch is held open at this instant, from its state the instant before: the thermal
+ * shutdown trips at its temperature (with its channel conducting) and holds (latched) or releases below shutdown − hysteresis
+ * (auto-retry); the cut-off, once its input went above the threshold, holds until the input falls
+ * below threshold − hysteresis (judged with the path open: the input is the supply). Above the
+ * threshold itself the forward law opens the switch (integrated-switch.ts), so only the band is held here.
+ */
+function nextHeld(
+  g: SwitchGuard,
+  held: "cut-off" | "thermal-shutdown" | undefined,
+  supplyV: number,
+  tjC: number,
+  channelOn: boolean,
+): "cut-off" | "thermal-shutdown" | undefined {
+  const sd = g.shutdown;
+  if (sd !== undefined) {
+    if (held !== "thermal-shutdown" && channelOn && tjC >= sd.atC) return "thermal-shutdown";
+    if (held === "thermal-shutdown" && (sd.retryBelowC === undefined || tjC >= sd.retryBelowC)) return held;
+  }
+  const c = g.cutoff;
+  if (c === undefined) return undefined;
+  if (supplyV > c.thresholdV) return "cut-off";
+  if (held === "cut-off" && supplyV >= c.reclosesBelowV) return "cut-off";
+  return undefined;
 }

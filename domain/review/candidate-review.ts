@@ -7,29 +7,25 @@ import {
   type StandbyDrain,
   standbyDrain,
 } from "../checks/energy.js";
-import {
-  alongProfile,
-  type DriveAtInput,
-  driveAtInput,
-  type ProfileResult,
-  type TransientThermal,
-} from "../checks/start-up.js";
+import { type DriveAtInput, driveAtInput, type ProfileResult, type TransientThermal } from "../checks/start-up.js";
 import type { ControllerTurnOff } from "../checks/reverse-path.js";
 import { blocksReverseCurrent } from "../checks/stage-ratings.js";
-import { thermalSizing, type ThermalSizing } from "../checks/thermal-sizing.js";
+import type { ThermalSizing } from "../checks/thermal-sizing.js";
 import type { TransientAllowance, TransientContext } from "../checks/transient-stress.js";
 import { type SweptTransientResult, sweptTransientStress } from "../checks/transient-sweep.js";
 import { gateThresholdColdV as coldThresholdV, withThresholdShift } from "../checks/gate-threshold.js";
-import { totalRthKPerW } from "../physics/thermal-path.js";
 import type { StartChatter } from "../solve/electrothermal-point.js";
 import type { LoadModel } from "../solve/load-model.js";
-import { scaleLoad } from "../solve/load-scale.js";
 import { type StageScale, scaleStage, UNSCALED } from "../stages/scale-stage.js";
-import { type StageModel, stageStartV, stageTjMaxC } from "../stages/stage-model.js";
+import { type StageModel, stageStartV } from "../stages/stage-model.js";
 import { behaviourOf } from "../stages/stage-behaviours.js";
 import type { TransientPulse } from "./transient-library.js";
 import { type LoadOvervoltage, loadOvervoltage } from "../checks/load-overvoltage.js";
 import { type ReviewInrush, type ReviewInrushResult, reviewInrush } from "./review-inrush.js";
+import { reviewCutoffHold } from "./review-cutoff-hold.js";
+import { profileAtWorstLimit } from "./review-start-profile.js";
+import { type ReviewShutdownCycle, reviewShutdownCycle } from "./review-shutdown-cycle.js";
+import { reviewThermalSizing } from "./review-thermal-sizing.js";
 import { atHighestCutoff, atLowestCurrentLimit, type SwitchTolerance, switchRuleLimits } from "./switch-tolerance.js";
 import { stressAfterLetGo } from "./pulse-stress.js";
 import { type PulseBackConduction, pulseBackConduction } from "./review-pulse-back-conduction.js";
@@ -123,6 +119,8 @@ export interface CandidateReview {
   readonly inrush?: ReviewInrushResult;
   /** What reaches the load from the positive surges and steady overvoltages (an overvoltage cut-off opens above its threshold). */
   readonly loadOvervoltage: LoadOvervoltage;
+  /** An auto-retrying integrated switch whose steady corner reaches its thermal shutdown: the on/off cycle it runs. */
+  readonly thermalShutdownCycle?: ReviewShutdownCycle;
   /** The lowest current limit and cut-off threshold of an integrated switch, for its rules (switch-tolerance.ts). */
   readonly switchLimits: { readonly currentLimitA?: number; readonly overvoltageCutoffV?: number };
 }
@@ -139,6 +137,9 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
     sourceResistanceOhm: req.sourceResistanceOhm,
     load: req.load,
     ...(cand.datasheetMax ? { datasheetMax: cand.datasheetMax } : {}),
+    ...(cand.switchTolerance?.currentLimitMinA === undefined
+      ? {}
+      : { currentLimitMinA: cand.switchTolerance.currentLimitMinA }),
   };
   const corners = solveCorners(cand.stage, space);
   const worst = worstCase(corners);
@@ -165,14 +166,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
   const profiles = req.startProfile
     ? [req.ambientMinC, req.ambientMaxC].map((ambientC) => ({
         ambientC,
-        result: alongProfile(
-          startStage,
-          req.startProfile ?? [],
-          req.load,
-          req.sourceResistanceOhm,
-          ambientC,
-          cand.transientThermal,
-        ),
+        result: profileAtWorstLimit(startStage, req, req.startProfile ?? [], ambientC, cand),
       }))
     : [];
 
@@ -192,7 +186,14 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
   );
   const transients = req.transients.flatMap((p) => sweptTransientStress(cand.stage, p, tctx));
   // What reaches the load: through the cut-off at its highest threshold.
-  const atLoad = loadOvervoltage(atHighestCutoff(cand.stage, cand.switchTolerance), req.transients, transients, tctx);
+  const overAtLoad = loadOvervoltage(
+    atHighestCutoff(cand.stage, cand.switchTolerance),
+    req.transients,
+    transients,
+    tctx,
+  );
+  const hold = reviewCutoffHold(req, cand.stage, switchRuleLimits(cand.stage, cand.switchTolerance), overAtLoad);
+  const atLoad = hold === undefined ? overAtLoad : { ...overAtLoad, hold };
 
   // Thermal sizing at the hot, full-load corner with the datasheet-maximum part, at the supply
   // whose corner ran hottest (every supply when none of those corners has a point).
@@ -202,28 +203,8 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
   const inrush = req.inrush
     ? reviewInrush(req.inrush, atLowestCurrentLimit(sizingStage, cand.switchTolerance), cand.transientThermal)
     : undefined;
-  const hotTolerance = cand.datasheetMax ? "datasheet-max" : "typical";
-  let hottest: { supplyV: number; tjC: number } | undefined;
-  for (const c of corners) {
-    const k = c.conditions;
-    if (k.ambient !== "max" || k.loadScale !== fullScale || k.tolerance !== hotTolerance || !("point" in c.result))
-      continue;
-    if (hottest === undefined || c.result.point.tjC > hottest.tjC)
-      hottest = { supplyV: k.supplyV, tjC: c.result.point.tjC };
-  }
-  const sizingSupplies = hottest ? [hottest.supplyV] : [req.supplyMinV, req.supplyNominalV, req.supplyMaxV];
-  const sizing = thermalSizing(
-    sizingSupplies.map((supplyV) => ({
-      supplyV,
-      ambientC: req.ambientMaxC,
-      load: scaleLoad(req.load, fullScale),
-      sourceResistanceOhm: req.sourceResistanceOhm,
-      stage: sizingStage,
-    })),
-    cand.stage.thermal,
-    totalRthKPerW(cand.stage.thermal),
-    stageTjMaxC(cand.stage) - req.tjMarginK,
-  );
+  const shutdownCycle = reviewShutdownCycle(cand.stage, corners, cand.transientThermal);
+  const sizing = reviewThermalSizing(req, cand, corners, sizingStage, fullScale);
 
   const eventReq = {
     load: req.load,
@@ -284,6 +265,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
     ...(pulses.length > 0 ? { pulseBackConduction: pulses } : {}),
     ...(inrush ? { inrush } : {}),
     loadOvervoltage: atLoad,
+    ...(shutdownCycle ? { thermalShutdownCycle: shutdownCycle } : {}),
     switchLimits: switchRuleLimits(cand.stage, cand.switchTolerance),
   };
 }

@@ -379,7 +379,7 @@ export const METRICS: readonly MetricDef[] = [
     type: "number",
     unit: "V",
     meaning:
-      "input voltage above which an integrated switch opens (its overvoltage cut-off threshold), at its lowest: datasheetMax.overvoltageCutoffMinV, else the typical",
+      "the lowest input at which an integrated switch can be open in service: its overvoltage cut-off threshold at its lowest (datasheetMax.overvoltageCutoffMinV, else the typical), or, where a surge or steady overvoltage takes the input above it, the level it recloses below (threshold − overvoltageHysteresisV)",
     stageKinds: ["integrated-switch"],
     providedBy: `${STAGE} (overvoltageCutoffV), in the review`,
   },
@@ -405,9 +405,9 @@ export const METRICS: readonly MetricDef[] = [
     type: "boolean",
     unit: "-",
     meaning:
-      "a steady corner heats an integrated switch to its thermal shutdown temperature (Tj = Ta + Rth·P at or above thermalShutdownC; at the current limit P = (V_in − V_load)·I_lim; a corner in thermal runaway counts where the shutdown lies within the search): the switch turns off and the load loses its supply, taken as latched off (no auto-retry is stated)",
+      "a steady corner or the start-up profile heats an integrated switch to its thermal shutdown temperature (Tj = Ta + Rth·P at or above thermalShutdownC; at the current limit P = (V_in − V_load)·I_lim, at the limit that heats more; a corner in thermal runaway counts where the shutdown lies within the search; the profile's junction through the Foster network, else each instant's steady Tj): the switch turns off and the load loses its supply, latched off or cycling when it retries (afterThermalShutdown)",
     stageKinds: ["integrated-switch"],
-    providedBy: `review (its corners); ${OP} (its point), for a stage with thermalShutdownC`,
+    providedBy: `review (its corners and start-up profiles); ${OP} (its point), for a stage with thermalShutdownC`,
   },
   {
     name: "loadTransientVMaxV",

@@ -3,8 +3,9 @@ import { type CandidateReview, type ReviewRequirement, steadyOvervoltageV } from
 import type { StageModel } from "../stages/stage-model.js";
 import type { InputClamp } from "../checks/transient-clamp.js";
 import type { SoaCheck } from "../checks/soa-lines.js";
+import { switchProtectionMetrics } from "./metrics-of-switch-protections.js";
 
-interface Scope {
+export interface Scope {
   readonly metrics: Record<string, number | boolean>;
   readonly unavailable: Record<string, string>;
   readonly notRequired: Record<string, string>;
@@ -96,12 +97,7 @@ export function reviewHazardMetrics(stage: StageModel, req: ReviewRequirement, r
   }
   inrushMetrics(r, s);
   metrics["loadTransientVMaxV"] = r.loadOvervoltage.loadVMaxV;
-  // The lowest cut-off threshold against the steady supply (the load's figure above is at the highest).
-  const cutoffV = r.switchLimits.overvoltageCutoffV;
-  if (cutoffV !== undefined) metrics["overvoltageCutoffV"] = cutoffV;
-  else notRequired["overvoltageCutoffV"] = "the stage has no overvoltage cut-off";
-  currentLimitMetrics(r, s);
-  thermalShutdownMetrics(stage, r, s);
+  switchProtectionMetrics(stage, r, s);
   if (req.loadMaxV !== undefined) metrics["loadMaxV"] = req.loadMaxV;
   else notRequired["loadMaxV"] = "the requirement states no highest load voltage (loadMaxV)";
 }
@@ -222,70 +218,4 @@ function clampTrainMetrics(
     tj = Math.max(tj, train.trainTjC);
   }
   s.metrics["clampTrainTjC"] = tj;
-}
-
-/**
- * An integrated switch's current limit against the highest current of the corners: a load that
- * needs the limit or more is held at it (the forward law limits, integrated-switch.ts), a resistive
- * load then at I_lim·R, a constant-current or constant-power one collapsing at the limit, which
- * counts as the limit reached. Any other corner without an operating point leaves the figure
- * unavailable. The limit is the lowest (datasheetMax.currentLimitMinA, else the typical).
- */
-function currentLimitMetrics(r: CandidateReview, s: Scope): void {
-  // The lowest limit (datasheet minimum where given) against the corners' highest current.
-  const limitA = r.switchLimits.currentLimitA;
-  if (limitA === undefined) {
-    for (const n of ["stageCurrentMaxA", "switchCurrentLimitA"]) s.notRequired[n] = "the stage has no current limit";
-    return;
-  }
-  s.metrics["switchCurrentLimitA"] = limitA;
-  let maxA = 0;
-  for (const [i, c] of r.corners.entries()) {
-    if (c.result.outcome === "load-collapse" && c.result.currentLimitA !== undefined) {
-      maxA = Math.max(maxA, c.result.currentLimitA);
-      continue;
-    }
-    if (!("point" in c.result)) {
-      s.unavailable["stageCurrentMaxA"] =
-        `corner ${i} has no operating point (${c.result.outcome}: ${c.result.reason})`;
-      return;
-    }
-    maxA = Math.max(maxA, c.result.point.currentA);
-  }
-  s.metrics["stageCurrentMaxA"] = maxA;
-}
-
-/**
- * Whether a steady corner of the review heats an integrated switch to its thermal shutdown
- * temperature: Tj = Ta + Rth·P(Tj) at or above thermalShutdownC (at the current limit P is the
- * drop the load leaves times I_lim). The part then turns its channel off and the load loses its
- * supply; the contract states no auto-retry, so the switch is taken as latched off (a retrying
- * part would cycle on and off, the load unpowered most of the time either way). A corner in
- * thermal runaway heats the die until the shutdown trips when the shutdown lies within the
- * search; a corner whose load collapses at the current limit has no figure (the current-limit
- * rule fails it). A point below start (body diode, channel off) is not a shutdown.
- */
-function thermalShutdownMetrics(stage: StageModel, r: CandidateReview, s: Scope): void {
-  const shutdownC = stage.kind === "integrated-switch" ? stage.thermalShutdownC : undefined;
-  if (shutdownC === undefined) {
-    s.notRequired["thermalShutdownInService"] = "the stage states no thermal shutdown temperature";
-    return;
-  }
-  let shutsDown = false;
-  for (const [i, c] of r.corners.entries()) {
-    const res = c.result;
-    if ("point" in res) {
-      const mode = res.point.forward.mode;
-      if (mode !== "body-diode" && mode !== "junction" && res.point.tjC >= shutdownC) shutsDown = true;
-      continue;
-    }
-    if (res.outcome === "stage-off") continue; // open switch: no current, no heat
-    if (res.outcome === "thermal-runaway" && res.evidence.searchedToC >= shutdownC) {
-      shutsDown = true;
-      continue;
-    }
-    s.unavailable["thermalShutdownInService"] = `corner ${i} has no operating point (${res.outcome}: ${res.reason})`;
-    return;
-  }
-  s.metrics["thermalShutdownInService"] = shutsDown;
 }

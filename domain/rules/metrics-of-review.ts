@@ -2,6 +2,7 @@ import { behaviourOf } from "../stages/stage-behaviours.js";
 import { type CandidateReview, type ReviewRequirement, steadyOvervoltageV } from "../review/candidate-review.js";
 import type { ReviewTurnOffResult } from "../review/review-turn-off.js";
 import { mosfetBreakdownColdV } from "../checks/breakdown-temperature.js";
+import { cornerUnsolved } from "../checks/corners.js";
 import type { RuleInput } from "./rule-model.js";
 import type { StageModel } from "../stages/stage-model.js";
 import { otherAnalysesMetrics, putEventAvalanche, putEventFigures } from "./rule-input-draft.js";
@@ -85,11 +86,11 @@ export function reviewRuleInput(
   else notRequired["lossBudgetW"] = "the requirement sets no loss budget";
 
   const unsolved = r.worst.unsolvedCornerIndexes;
-  const firstUnsolved = unsolved[0] === undefined ? undefined : r.corners[unsolved[0]];
-  const why =
-    firstUnsolved && !("point" in firstUnsolved.result)
-      ? `corner ${unsolved[0]} has no operating point (${firstUnsolved.result.outcome}: ${firstUnsolved.result.reason})`
-      : undefined;
+  const firstCorner = unsolved[0] === undefined ? undefined : r.corners[unsolved[0]];
+  const firstUnsolved = firstCorner === undefined ? undefined : cornerUnsolved(firstCorner);
+  const why = firstUnsolved
+    ? `corner ${unsolved[0]} has no operating point (${firstUnsolved.outcome}: ${firstUnsolved.reason})`
+    : undefined;
   const put = (name: string, v: number | undefined) => {
     if (why !== undefined) unavailable[name] = why;
     else if (v !== undefined) metrics[name] = v;

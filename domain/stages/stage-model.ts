@@ -102,6 +102,10 @@ export interface IdealDiodeStage {
 }
 
 /** Integrated switch: the MOSFET and its control on one die. */
+export type ThermalShutdownBehaviour =
+  | { readonly mode: "latched" }
+  | { readonly mode: "auto-retry"; readonly hysteresisK: number };
+
 export interface IntegratedSwitchStage {
   readonly kind: "integrated-switch";
   /** On-resistance at 25 °C, ohm, and its temperature law (channel with one point). */
@@ -124,10 +128,20 @@ export interface IntegratedSwitchStage {
   readonly currentLimitA?: number;
   /** Junction temperature at which the switch shuts itself down, °C; absent: no thermal shutdown. */
   readonly thermalShutdownC?: number;
+  /**
+   * What the switch does after a thermal shutdown: stays off until power is cycled (latched), or
+   * turns on again once its junction has cooled by hysteresisK (auto-retry); absent: latched (declared).
+   */
+  readonly afterThermalShutdown?: ThermalShutdownBehaviour;
   /** Input voltage above which the switch opens (overvoltage cut-off), V; absent: it passes every surge on. */
   readonly overvoltageCutoffV?: number;
   /** Time from the input crossing the cut-off to the switch open, s; absent: taken as instant (declared). */
   readonly overvoltageResponseS?: number;
+  /**
+   * Hysteresis of the overvoltage cut-off, V: once open, the switch recloses only when its input
+   * falls below the threshold − this; absent: 0 (declared).
+   */
+  readonly overvoltageHysteresisV?: number;
   readonly tjMaxC: number;
   readonly thermal: ThermalPath;
 }

@@ -66,7 +66,8 @@ describe("review: an integrated switch's current limit and cut-off at their data
     // (101 − 14) V over 10 ms = 8.7 V/ms: 34 V + 8.7 V/ms·2 us = 34.0174 V, above the load's 34 V.
     expect(p?.loadPeakV).toBeCloseTo(34 + 8.7e3 * 2e-6, 9);
     expect(verdictOf(c, "load-overvoltage")).toBe("fail");
-    expect(c?.metrics["overvoltageCutoffV"]).toBe(31);
+    // the lowest threshold, less the demo part's 1 V hysteresis after the load dump took the input above it
+    expect(c?.metrics["overvoltageCutoffV"]).toBe(30);
     const low = await call({
       requirement: req,
       candidates: [{ stage: demoSwitch, datasheetMax: dm({ overvoltageCutoffMinV: 15.5 }) }],

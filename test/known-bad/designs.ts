@@ -220,6 +220,14 @@ const soaLines: Obj[] = [
     ],
   },
 ];
+/** A start-up profile from 11 V stepping to 18 V for holdS and back. */
+const holdAt18V = (holdS: number): Obj[] => [
+  { timeS: 0, voltageV: 11 },
+  { timeS: 0.001, voltageV: 18 },
+  { timeS: 0.001 + holdS, voltageV: 18 },
+  { timeS: 0.002 + holdS, voltageV: 11 },
+  { timeS: 1 + holdS, voltageV: 11 },
+];
 const reviewZth = (requirement: Obj, stage: Obj, transientThermal: Obj): Obj => ({
   requirement,
   candidates: [{ stage, transientThermal }],
@@ -897,6 +905,65 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     rule: "switch-cutoff-above-supply",
     bad: review(req12, integratedSwitch({ overvoltageCutoffV: 15, overvoltageResponseS: "10 us" })),
     twin: review(req12, integratedSwitch({ overvoltageCutoffV: 30, overvoltageResponseS: "10 us" })),
+  },
+  {
+    id: "switch-cutoff-hysteresis-holds-supply-off",
+    hazard: "load",
+    why: "an integrated switch cutting off at 20 V with 5 V hysteresis on a 12 V code B supply: the 24 V jump start opens it, and it recloses only below 15 V, so at the supply's normal 16 V (and the 18 V long-term overvoltage) the load stays unpowered after the excursion (twin: 1 V hysteresis, recloses below 19 V)",
+    procedure: "review",
+    rule: "switch-cutoff-above-supply",
+    bad: review(req12, integratedSwitch({ overvoltageCutoffV: 20, overvoltageHysteresisV: 5 })),
+    twin: review(req12, integratedSwitch({ overvoltageCutoffV: 20, overvoltageHysteresisV: 1 })),
+  },
+  {
+    id: "switch-retries-after-thermal-shutdown-in-service",
+    hazard: "thermal",
+    why: "an auto-retrying integrated switch with a 150 °C shutdown and 20 K hysteresis carrying 5 A through 50 K/W: its hot corners settle near 158 °C, so it cycles between 130 and 150 °C and the load is powered only part of the time (twin: 40 K/W, about 137 °C, never trips)",
+    procedure: "review",
+    rule: "switch-thermal-shutdown-in-service",
+    bad: review(
+      { ...req12, load: { kind: "constant-current", currentA: 5 } },
+      integratedSwitch({
+        tjMaxC: 175,
+        thermalShutdownC: 150,
+        afterThermalShutdown: { mode: "auto-retry", hysteresisK: 20 },
+        thermal: { kind: "junction-ambient", rthJaKPerW: 50 },
+      }),
+    ),
+    twin: review(
+      { ...req12, load: { kind: "constant-current", currentA: 5 } },
+      integratedSwitch({
+        tjMaxC: 175,
+        thermalShutdownC: 150,
+        afterThermalShutdown: { mode: "auto-retry", hysteresisK: 20 },
+        thermal: { kind: "junction-ambient", rthJaKPerW: 40 },
+      }),
+    ),
+  },
+  {
+    id: "switch-thermal-shutdown-along-start-profile",
+    hazard: "start-up",
+    why: "a 4.2 A current-limited switch ahead of a 4 ohm load, its steady corners fully on (4 A at 16 V, about 88 °C), given a start-up profile that holds 18 V for 3 s: there it limits, (18 − 16.8) V × 4.2 A = 5 W through 5 K/W toward 110 °C, and its junction (one Foster pole, 0.5 s) reaches the 105 °C shutdown after about 0.8 s, dropping the load (twin: 0.2 s at 18 V, about 94 °C)",
+    procedure: "review",
+    rule: "switch-thermal-shutdown-in-service",
+    bad: reviewZth(
+      { ...req12, load: { kind: "resistive", resistanceOhm: 4 }, startProfile: holdAt18V(3) },
+      integratedSwitch({
+        currentLimitA: 4.2,
+        thermalShutdownC: 105,
+        thermal: { kind: "junction-ambient", rthJaKPerW: 5 },
+      }),
+      { kind: "foster", terms: [{ rKPerW: 5, tauS: 0.5 }] },
+    ),
+    twin: reviewZth(
+      { ...req12, load: { kind: "resistive", resistanceOhm: 4 }, startProfile: holdAt18V(0.2) },
+      integratedSwitch({
+        currentLimitA: 4.2,
+        thermalShutdownC: 105,
+        thermal: { kind: "junction-ambient", rthJaKPerW: 5 },
+      }),
+      { kind: "foster", terms: [{ rKPerW: 5, tauS: 0.5 }] },
+    ),
   },
   {
     id: "switch-current-limit-below-load",

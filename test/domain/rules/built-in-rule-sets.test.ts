@@ -300,8 +300,10 @@ const DEFAULT: Record<string, RuleCases> = {
     pass: p("integrated-switch", { thermalShutdownInService: false }, {}),
     violate: v("fail", p("integrated-switch", { thermalShutdownInService: true }, {})),
   },
+  // The lowest input at which the switch is open: its threshold, or after an excursion its re-close
+  // level, threshold − hysteresis (a 20 V cut-off with 5 V hysteresis after a 24 V jump start: 15 V).
   "switch-cutoff-above-supply": {
-    pass: p("integrated-switch", { overvoltageCutoffV: 30, supplyMaxV: 16 }, {}, 16, 14),
+    pass: p("integrated-switch", { overvoltageCutoffV: 19, supplyMaxV: 16 }, {}, 16, 3),
     violate: v("fail", p("integrated-switch", { overvoltageCutoffV: 15, supplyMaxV: 16 }, {}, 16, -1)),
   },
   "load-overvoltage": {
