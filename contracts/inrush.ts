@@ -8,10 +8,14 @@ export const reviewInrush = z
       gt: 0,
       le: 10,
     }),
-    inputV: quantity("V", "input the output charges to (default: the highest steady supply)", {
-      gt: 0,
-      le: 10_000,
-    }).optional(),
+    inputV: quantity(
+      "V",
+      "input the output charges to (default: the highest level the stage can be switched on at: the highest of the steady supply's top, the jump start, the long-term overvoltage and the abnormal limit)",
+      {
+        gt: 0,
+        le: 10_000,
+      },
+    ).optional(),
     slewVPerS: quantity(
       "V/s",
       "output slew rate a controller's soft start or a gate RC sets (absent: the channel turns fully on at once, an integrated switch limits at its currentLimitA)",

@@ -1,9 +1,20 @@
 import type { Requirement } from "../../contracts/requirement.js";
+import { steadyOvervoltageV } from "../../domain/review/candidate-review.js";
 import type { ReviewInrush } from "../../domain/review/review-inrush.js";
 
+/** The supply's levels the stage can be switched on at (the steady range's top and its steady overvoltages), V. */
+export interface InrushSupplyLevels {
+  readonly supplyMaxV: number;
+  readonly jumpStartV: number | undefined;
+  readonly longTermOvervoltageV: number | undefined;
+  readonly abnormalMaxV: number | undefined;
+}
+
 /**
- * The requirement's inrush → the review's: the input defaults to the highest steady supply (the
- * largest ½·C·V² and current), the loop adds the source resistance to the given one, the die
+ * The requirement's inrush → the review's: the input defaults to the highest level the stage can
+ * be switched on at, the highest of the steady supply's top, the jump start (a start at 24 V on a
+ * 12 V system), the long-term overvoltage and the abnormal service limit (the largest ½·C·V² and
+ * current; steadyOvervoltageV, the one definition the clamp's stand-off reads too), the loop adds the source resistance to the given one, the die
  * starts at the highest ambient, and the load during the charge defaults to the requirement's
  * load where it is constant-current or resistive; a constant-power load is not modelled in the
  * charge (its draw below its start voltage is not known): the inrush rules are then a gap.
@@ -11,10 +22,10 @@ import type { ReviewInrush } from "../../domain/review/review-inrush.js";
 export function reviewInrushOf(
   r: Requirement,
   i: NonNullable<Requirement["inrush"]>,
-  supplyMaxV: number,
+  levels: InrushSupplyLevels,
   assumptions: string[],
 ): ReviewInrush {
-  if (i.inputV === undefined) assumptions.push(`inrush.inputV: the highest steady supply ${supplyMaxV} V (default)`);
+  const inputV = i.inputV ?? defaultInrushInputV(levels, assumptions);
   if (i.loopResistanceOhm === undefined)
     assumptions.push("inrush.loopResistanceOhm: 0 ohm besides the source resistance (default)");
   assumptions.push(
@@ -33,10 +44,37 @@ export function reviewInrushOf(
   }
   return {
     capacitanceF: i.outputCapacitanceF,
-    inputV: i.inputV ?? supplyMaxV,
+    inputV,
     loopResistanceOhm: (r.sourceResistanceOhm ?? 0) + (i.loopResistanceOhm ?? 0),
     ...(i.slewVPerS === undefined ? {} : { slewVPerS: i.slewVPerS }),
     load,
     ambientC: r.ambient.maxC,
   };
+}
+
+/** The highest level the stage can be switched on at, and the sentence that says which one it is. */
+function defaultInrushInputV(l: InrushSupplyLevels, assumptions: string[]): number {
+  const over = steadyOvervoltageV(l);
+  if (over === undefined || over <= l.supplyMaxV) {
+    assumptions.push(
+      `inrush.inputV: the highest steady supply ${l.supplyMaxV} V (default; the supply has no higher steady level)`,
+    );
+    return l.supplyMaxV;
+  }
+  const which =
+    over === l.jumpStartV
+      ? "the jump start"
+      : over === l.longTermOvervoltageV
+        ? "the long-term overvoltage"
+        : "the abnormal service limit";
+  const named = [
+    `steady ${l.supplyMaxV} V`,
+    ...(l.jumpStartV === undefined ? [] : [`jump start ${l.jumpStartV} V`]),
+    ...(l.longTermOvervoltageV === undefined ? [] : [`long-term overvoltage ${l.longTermOvervoltageV} V`]),
+    ...(l.abnormalMaxV === undefined ? [] : [`abnormal limit ${l.abnormalMaxV} V`]),
+  ];
+  assumptions.push(
+    `inrush.inputV: ${which} ${over} V, the highest level the stage can be switched on at (default; of ${named.join(", ")})`,
+  );
+  return over;
 }

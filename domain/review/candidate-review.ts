@@ -287,7 +287,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
 
 /** The supply's highest steady overvoltage (jump start, long-term overvoltage, abnormal limit), V; undefined where it has none. */
 export function steadyOvervoltageV(
-  req: Pick<ReviewRequirement, "jumpStartV" | "longTermOvervoltageV" | "abnormalMaxV">,
+  req: { readonly [K in "jumpStartV" | "longTermOvervoltageV" | "abnormalMaxV"]?: number | undefined },
 ): number | undefined {
   const levels = [req.jumpStartV, req.longTermOvervoltageV, req.abnormalMaxV].filter(
     (v): v is number => v !== undefined,

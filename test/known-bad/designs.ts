@@ -836,12 +836,15 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     procedure: "review",
     rule: "inrush-tj",
     bad: reviewZth(
-      { ...req12, inrush: { outputCapacitanceF: "2200 uF", load: { kind: "none" } } },
+      { ...req12, inrush: { outputCapacitanceF: "2200 uF", inputV: "16 V", load: { kind: "none" } } },
       idealDiode(),
       fetZth,
     ),
     twin: reviewZth(
-      { ...req12, inrush: { outputCapacitanceF: "2200 uF", slewVPerS: "1000 V/s", load: { kind: "none" } } },
+      {
+        ...req12,
+        inrush: { outputCapacitanceF: "2200 uF", inputV: "16 V", slewVPerS: "1000 V/s", load: { kind: "none" } },
+      },
       idealDiode(),
       fetZth,
     ),
@@ -853,12 +856,18 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     procedure: "review",
     rule: "inrush-soa",
     bad: reviewZth(
-      { ...req12, inrush: { outputCapacitanceF: "2200 uF", slewVPerS: "1000 V/s", load: { kind: "none" } } },
+      {
+        ...req12,
+        inrush: { outputCapacitanceF: "2200 uF", inputV: "16 V", slewVPerS: "1000 V/s", load: { kind: "none" } },
+      },
       idealDiode({ soa: soaLines }),
       fetZth,
     ),
     twin: reviewZth(
-      { ...req12, inrush: { outputCapacitanceF: "2200 uF", slewVPerS: "500 V/s", load: { kind: "none" } } },
+      {
+        ...req12,
+        inrush: { outputCapacitanceF: "2200 uF", inputV: "16 V", slewVPerS: "500 V/s", load: { kind: "none" } },
+      },
       idealDiode({ soa: soaLines }),
       fetZth,
     ),
@@ -870,12 +879,29 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     procedure: "review",
     rule: "inrush-completes",
     bad: reviewZth(
-      { ...req12, inrush: { outputCapacitanceF: "4700 uF" } },
+      { ...req12, inrush: { outputCapacitanceF: "4700 uF", inputV: "16 V" } },
       integratedSwitch({ thermalShutdownC: 160 }),
       switchZth,
     ),
     twin: reviewZth(
+      { ...req12, inrush: { outputCapacitanceF: "470 uF", inputV: "16 V" } },
+      integratedSwitch({ thermalShutdownC: 160 }),
+      switchZth,
+    ),
+  },
+  {
+    id: "inrush-at-jump-start-thermal-shutdown",
+    hazard: "start-up",
+    why: "the same 6 A switch (160 °C shutdown) and 470 uF beside a 3 A load that completes at the steady 16 V, switched on at the 12 V system's 24 V jump start (the inrush's default input): C·V/(Ilim − IL) = 3.76 ms at up to 144 W, and it shuts down after about 0.95 ms (twin: 150 uF, 1.2 ms, Tj 134 °C)",
+    procedure: "review",
+    rule: "inrush-completes",
+    bad: reviewZth(
       { ...req12, inrush: { outputCapacitanceF: "470 uF" } },
+      integratedSwitch({ thermalShutdownC: 160 }),
+      switchZth,
+    ),
+    twin: reviewZth(
+      { ...req12, inrush: { outputCapacitanceF: "150 uF" } },
       integratedSwitch({ thermalShutdownC: 160 }),
       switchZth,
     ),
