@@ -37,11 +37,23 @@ export const reviewInrush = z
           kind: z.literal("resistive"),
           resistanceOhm: quantity("ohm", "load resistance during the charge", { gt: 0, le: 1e12 }),
         }),
+        z.strictObject({
+          kind: z.literal("constant-power"),
+          powerW: quantity("W", "input power the converter draws once running (P/V at its input)", {
+            gt: 0,
+            le: 1e6,
+          }),
+          startV: quantity(
+            "V",
+            "input voltage at which the converter starts drawing (its undervoltage lockout's rising threshold)",
+            { ge: 0, le: 1e4 },
+          ),
+        }),
       ])
       .optional()
       .meta({
         description:
-          "the load during the charge (default: the requirement's load where it is constant-current or resistive; a constant-power load needs it given)",
+          "the load during the charge (default: the requirement's load; a constant-power one starts drawing at its minVoltageV)",
       }),
   })
   .meta({

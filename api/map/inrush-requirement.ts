@@ -16,8 +16,7 @@ export interface InrushSupplyLevels {
  * 12 V system), the long-term overvoltage and the abnormal service limit (the largest ½·C·V² and
  * current; steadyOvervoltageV, the one definition the clamp's stand-off reads too), the loop adds the source resistance to the given one, the die
  * starts at the highest ambient, and the load during the charge defaults to the requirement's
- * load where it is constant-current or resistive; a constant-power load is not modelled in the
- * charge (its draw below its start voltage is not known): the inrush rules are then a gap.
+ * load; a constant-power one draws from its minVoltageV (the lowest start its lockout can have).
  */
 export function reviewInrushOf(
   r: Requirement,
@@ -33,12 +32,12 @@ export function reviewInrushOf(
   );
   let load: ReviewInrush["load"];
   if (i.load !== undefined) load = i.load;
-  else if (r.load.kind === "constant-power")
-    load = {
-      unmodelled:
-        "a constant-power load's draw during the charge is not modelled: give requirement.inrush.load (none, constant-current or resistive)",
-    };
-  else {
+  else if (r.load.kind === "constant-power") {
+    load = { kind: "constant-power", powerW: r.load.powerW, startV: r.load.minVoltageV };
+    assumptions.push(
+      `inrush.load: the requirement's ${r.load.powerW} W converter draws P/V from its minVoltageV ${r.load.minVoltageV} V during the charge (default; its undervoltage lockout starts it there or higher: starting lower, where P/V is largest, is the conservative end)`,
+    );
+  } else {
     load = r.load;
     assumptions.push("inrush.load: the requirement's load draws during the charge (default)");
   }

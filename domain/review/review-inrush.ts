@@ -17,8 +17,8 @@ export interface ReviewInrush {
   readonly loopResistanceOhm: number;
   /** The dV/dt a controller's soft start or a gate RC sets, V/s; absent: the channel turns fully on at once. */
   readonly slewVPerS?: number;
-  /** The load during the charge; undefined: the requirement's load cannot be modelled in it (reason). */
-  readonly load: InrushLoad | { readonly unmodelled: string };
+  /** The load during the charge. */
+  readonly load: InrushLoad;
   /** The die starts at this ambient, °C. */
   readonly ambientC: number;
 }
@@ -31,7 +31,7 @@ export type ReviewInrushResult =
       /** The pulse against the MOSFET's datasheet SOA lines (absent: the MOSFET gives none). */
       readonly soa?: SoaCheck;
     }
-  /** Not assessed: out of scope for the stage (a diode), or a gap (the load cannot be modelled in the charge). */
+  /** Not assessed: out of scope for the stage (a diode), or a gap (a constant-power load in a charge not modelled with it). */
   | { readonly assessed: false; readonly scope: "out" | "gap"; readonly reason: string };
 
 /**
@@ -50,16 +50,25 @@ export function reviewInrush(inrush: ReviewInrush, stage: StageModel, thermal: T
       scope: "out",
       reason: "a diode stage carries the inrush on its junction: its surge current rating is not modelled",
     };
-  if ("unmodelled" in inrush.load) return { assessed: false, scope: "gap", reason: inrush.load.unmodelled };
   const load = inrush.load;
   const limitA = stage.kind === "integrated-switch" ? stage.currentLimitA : undefined;
-  const loadAtInputA =
-    load.kind === "none" ? 0 : load.kind === "constant-current" ? load.currentA : inrush.inputV / load.resistanceOhm;
+  const loadPeakA = loadPeakCurrentA(load, inrush.inputV);
   const slew = inrush.slewVPerS;
-  const slewFits = slew !== undefined && (limitA === undefined || inrush.capacitanceF * slew + loadAtInputA <= limitA);
+  const slewFits =
+    slew !== undefined &&
+    (limitA === undefined || (loadPeakA !== undefined && inrush.capacitanceF * slew + loadPeakA <= limitA));
+  const cpGap = (why: string): ReviewInrushResult => ({
+    assessed: false,
+    scope: "gap",
+    reason: `a constant-power load ${why}: give requirement.inrush.load (its start voltage, or a constant-current or resistive load)`,
+  });
   let drive: InrushDrive;
-  if (slewFits && slew !== undefined) drive = { kind: "slew", slewVPerS: slew };
-  else if (limitA !== undefined) drive = { kind: "current-limit", limitA };
+  if (slewFits && slew !== undefined) {
+    if (loadPeakA === undefined) return cpGap("with no start voltage draws P/V without bound as the output leaves 0 V");
+    drive = { kind: "slew", slewVPerS: slew };
+  } else if (limitA !== undefined) drive = { kind: "current-limit", limitA };
+  else if (load.kind === "constant-power")
+    return cpGap("in a charge the channel's resistance alone limits (fully on at once) is not modelled");
   else {
     const rOhm = channelResistanceOhm(channel.params, channel.gateV, cToK(inrush.ambientC));
     if (rOhm === undefined)
@@ -98,6 +107,19 @@ export function reviewInrush(inrush: ReviewInrush, stage: StageModel, thermal: T
           inrush.ambientC,
         );
   return { assessed: true, drive: drive.kind, result, ...(soa === undefined ? {} : { soa }) };
+}
+
+/**
+ * The load's highest current during the charge, A: a resistor's at the input, a constant-power
+ * load's where it starts (P/Vs, its draw falls as the output rises); undefined where it has no
+ * bound (a constant-power load starting at 0 V).
+ */
+function loadPeakCurrentA(load: InrushLoad, inputV: number): number | undefined {
+  if (load.kind === "none") return 0;
+  if (load.kind === "constant-current") return load.currentA;
+  if (load.kind === "resistive") return inputV / load.resistanceOhm;
+  if (load.startV >= inputV) return 0;
+  return load.startV > 0 ? load.powerW / load.startV : undefined;
 }
 
 /** The stage's channel, its full drive and how many channels the current passes in series. */

@@ -95,7 +95,7 @@ describe("review: inrush into the output capacitance", () => {
     expect(custom.candidates[0]?.inrush?.result?.["chargeTimeS"]).toBeCloseTo((470e-6 * 14) / 3, 12);
   });
 
-  it("leaves the pulse's Tj open without a transient thermal network, and a constant-power load's charge open without inrush.load", async () => {
+  it("leaves the pulse's Tj open without a transient thermal network; a constant-power load draws P/V from its minVoltageV", async () => {
     const noZth = await call({
       requirement: { ...req, inrush: { outputCapacitanceF: "470 uF" } },
       candidates: [demoSwitch],
@@ -114,8 +114,16 @@ describe("review: inrush into the output capacitance", () => {
       },
       candidates: [{ ...demoSwitch, transientThermal: zth }],
     });
-    expect(cp.candidates[0]?.inrush).toMatchObject({ assessed: false, scope: "gap" });
-    expect(verdictOf(cp.candidates[0], "inrush-tj")?.notApplicableCode).toBe("missing-value");
+    // 6 A limit, 20 W from 8 V, to the 24 V jump start: C·Vs/I + (C/I)·[(Vin − Vs) + (P/I)·ln((I·Vin − P)/(I·Vs − P))].
+    const [C, I, P, VS, V] = [470e-6, 6, 20, 8, 24];
+    const t = (C * VS) / I + (C / I) * (V - VS + (P / I) * Math.log((I * V - P) / (I * VS - P)));
+    expect(cp.candidates[0]?.inrush).toMatchObject({ assessed: true, drive: "current-limit" });
+    expect(cp.candidates[0]?.inrush?.result?.["chargeTimeS"]).toBeCloseTo(t, 12);
+    expect(
+      cp.assumptions.some((a) =>
+        a.startsWith("inrush.load: the requirement's 20 W converter draws P/V from its minVoltageV 8 V"),
+      ),
+    ).toBe(true);
   });
 
   it("without requirement.inrush or loadMaxV the new rules are not required", async () => {

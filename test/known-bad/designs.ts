@@ -907,6 +907,31 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     ),
   },
   {
+    id: "inrush-converter-stalls-at-its-start",
+    hazard: "start-up",
+    why: "a 4.5 A current-limited switch ahead of a 30 W converter that starts at 6 V: its steady draw (30 W/8 V = 3.75 A at the class minimum) is within the limit, but at its start the converter takes 30 W/6 V = 5 A, more than the limit (4.5 A·6 V = 27 W), so the output falls back below its start each time and cycles at the converter's lockout, never reaching 24 V (twin: a 6 A limit, 36 W at 6 V: charges in 0.97 ms)",
+    procedure: "review",
+    rule: "inrush-completes",
+    bad: reviewZth(
+      {
+        ...req12,
+        load: { kind: "constant-power", powerW: 30, minVoltageV: 6 },
+        inrush: { outputCapacitanceF: "150 uF" },
+      },
+      integratedSwitch({ currentLimitA: 4.5 }),
+      switchZth,
+    ),
+    twin: reviewZth(
+      {
+        ...req12,
+        load: { kind: "constant-power", powerW: 30, minVoltageV: 6 },
+        inrush: { outputCapacitanceF: "150 uF" },
+      },
+      integratedSwitch({ currentLimitA: 6 }),
+      switchZth,
+    ),
+  },
+  {
     id: "switch-cutoff-inside-supply-range",
     hazard: "load",
     why: "an integrated switch whose overvoltage cut-off is 15 V on a 12 V code B supply that runs to 16 V: it opens in normal service (twin: 30 V)",

@@ -1,0 +1,147 @@
+import { describe, expect, it } from "vitest";
+import { type InrushCircuit, inrushCharge } from "../../../domain/checks/inrush.js";
+import { inrushSoa } from "../../../domain/checks/inrush-soa.js";
+import { relativeError } from "../../helpers/tolerance.js";
+
+// The charge beside a constant-power load (domain/checks/inrush-constant-power.ts) against outside
+// references (docs/references.md "Inrush"): RK4 of the circuit's own ODE, C·dV/dt = I − P/V above
+// the converter's start voltage, with the pass element's loss integrated alongside; the trapezoid
+// ∫P dt of the model's waveform; and conservation of energy, what the source gives = ½·C·V² into
+// the capacitor + what the converter takes + what the pass element dissipates.
+
+const C = 1e-3;
+const VIN = 24;
+const P = 40;
+const VS = 10;
+
+/** RK4 of [V, E] with dV/dt = (I − Iload(V))/C and dE/dt = (Vin − V)·I, until V reaches vEnd; the crossing interpolated. */
+function rk4Limit(limitA: number, vEnd: number, steps: number, tMax: number) {
+  const load = (v: number) => (v >= VS ? P / v : 0);
+  const f = (v: number): [number, number] => [(limitA - load(v)) / C, (VIN - v) * limitA];
+  const h = tMax / steps;
+  let v = 0;
+  let e = 0;
+  let t = 0;
+  const samples: [number, number][] = [];
+  for (let k = 0; k < steps; k += 1) {
+    const k1 = f(v);
+    const k2 = f(v + 0.5 * h * k1[0]);
+    const k3 = f(v + 0.5 * h * k2[0]);
+    const k4 = f(v + h * k3[0]);
+    const dv = (h / 6) * (k1[0] + 2 * k2[0] + 2 * k3[0] + k4[0]);
+    const de = (h / 6) * (k1[1] + 2 * k2[1] + 2 * k3[1] + k4[1]);
+    if (v + dv >= vEnd) {
+      const f0 = (vEnd - v) / dv;
+      return { tS: t + f0 * h, energyJ: e + f0 * de, samples };
+    }
+    v += dv;
+    e += de;
+    t += h;
+    if (k % 1000 === 0) samples.push([t, v]);
+  }
+  return { tS: Number.NaN, energyJ: Number.NaN, samples, vAtEnd: v };
+}
+
+function trapezoidJ(c: InrushCircuit, steps = 400_000): number {
+  const w = inrushCharge(c);
+  if (w.outcome !== "charges") throw new Error("no charge");
+  const dt = w.spanS / steps;
+  let e = 0;
+  for (let k = 0; k < steps; k += 1) e += 0.5 * dt * (w.powerW(k * dt) + w.powerW((k + 1) * dt));
+  return e;
+}
+
+const cp = { kind: "constant-power", powerW: P, startV: VS } as const;
+
+describe("inrush at a current limit beside a constant-power load", () => {
+  const c: InrushCircuit = { inputV: VIN, capacitanceF: C, load: cp, drive: { kind: "current-limit", limitA: 5 } };
+
+  it("charges in C·Vs/I + (C/I)·[(Vin − Vs) + (P/I)·ln((I·Vin − P)/(I·Vs − P))], as RK4 of C·dV/dt = I − P/V", () => {
+    const w = inrushCharge(c);
+    if (w.outcome !== "charges") throw new Error("expected a charge");
+    // 1 mF·10 V/5 A = 2 ms, then (1 mF/5 A)·[14 V + 8 V·ln(80/10)] = 6.127 ms: 8.127 ms in all.
+    const closed = (C * VS) / 5 + (C / 5) * (VIN - VS + (P / 5) * Math.log((5 * VIN - P) / (5 * VS - P)));
+    expect(w.chargeTimeS).toBeCloseTo(closed, 15);
+    expect(closed).toBeCloseTo(8.1271e-3, 6);
+    const rk = rk4Limit(5, VIN, 400_000, 0.02);
+    expect(relativeError(w.chargeTimeS, rk.tS)).toBeLessThan(1e-5);
+    expect(relativeError(w.energyJ, rk.energyJ)).toBeLessThan(1e-5);
+    // The waveform's V(t), inverted from t(V) by bisection, follows the integrated one.
+    for (const [t, v] of rk.samples.filter(([t]) => t < w.chargeTimeS)) expect(w.outputV(t)).toBeCloseTo(v, 3);
+  });
+
+  it("the switch's loss conserves energy: I·Vin·T = ½·C·Vin² + P·(time above Vs) + E, and equals ∫(Vin − V)·I dt", () => {
+    const w = inrushCharge(c);
+    if (w.outcome !== "charges") throw new Error("expected a charge");
+    const above = w.chargeTimeS - (C * VS) / 5;
+    expect(relativeError(w.energyJ, 5 * VIN * w.chargeTimeS - 0.5 * C * VIN ** 2 - P * above)).toBeLessThan(1e-12);
+    expect(relativeError(trapezoidJ(c), w.energyJ)).toBeLessThan(1e-6);
+    expect(w.peakPowerW).toBe(5 * VIN);
+    expect(w.currentA(w.chargeTimeS + 1e-6)).toBeCloseTo(P / VIN, 12);
+  });
+
+  it("tends to the no-load C·V/I as P → 0, and a converter that starts above the input never loads it", () => {
+    const tiny = inrushCharge({ ...c, load: { ...cp, powerW: 1e-9 } });
+    const high = inrushCharge({ ...c, load: { ...cp, startV: 30 } });
+    const none = inrushCharge({ ...c, load: { kind: "none" } });
+    if (tiny.outcome !== "charges" || high.outcome !== "charges" || none.outcome !== "charges")
+      throw new Error("charge");
+    expect(relativeError(tiny.chargeTimeS, (C * VIN) / 5)).toBeLessThan(1e-9);
+    expect(high.chargeTimeS).toBe(none.chargeTimeS);
+    expect(high.energyJ).toBe(none.energyJ);
+  });
+
+  it("a limit at or below P/Vs is an explicit stall at the converter's start (its lockout cycles), not NaN, and its Tj is finite", () => {
+    // 3 A·5 V = 15 W < 20 W: at 5 V the converter takes more than the limit, so C·dV/dt = 3 − 20/5 < 0 there.
+    const stall: InrushCircuit = {
+      ...c,
+      load: { kind: "constant-power", powerW: 20, startV: 5 },
+      drive: { kind: "current-limit", limitA: 3 },
+    };
+    const w = inrushCharge(stall);
+    expect(w).toMatchObject({ outcome: "stalls", stallV: 5, stallPowerW: (VIN - 5) * 3 });
+    if (w.outcome !== "stalls") throw new Error("expected a stall");
+    expect(w.reason).toContain("undervoltage lockout");
+    expect(3 - 20 / 5).toBeLessThan(0);
+    const soa = inrushSoa({ ...stall, ambientC: 85, thermal: { kind: "none", steadyRthKPerW: 40 } });
+    expect(soa).toMatchObject({ outcome: "does-not-charge", tjPeakC: 85 + 40 * 57 });
+    // Exactly at the boundary (I·Vs = P) the output cannot pass Vs either.
+    const edge = inrushCharge({ ...stall, load: { kind: "constant-power", powerW: 15, startV: 5 } });
+    expect(edge.outcome).toBe("stalls");
+    // A start at 0 V behind a limit: P/V is unbounded at once, a stall at 0 V.
+    expect(inrushCharge({ ...stall, load: { kind: "constant-power", powerW: 20, startV: 0 } })).toMatchObject({
+      outcome: "stalls",
+      stallV: 0,
+    });
+  });
+});
+
+describe("inrush under a slew beside a constant-power load", () => {
+  const c: InrushCircuit = { inputV: VIN, capacitanceF: C, load: cp, drive: { kind: "slew", slewVPerS: 1000 } };
+
+  it("loses ½·C·Vin² + (P/s)·[Vin·ln(Vin/Vs) − (Vin − Vs)], by ∫P dt and by conservation of energy", () => {
+    const w = inrushCharge(c);
+    if (w.outcome !== "charges") throw new Error("expected a charge");
+    const s = 1000;
+    const closed = 0.5 * C * VIN ** 2 + (P / s) * (VIN * Math.log(VIN / VS) - (VIN - VS));
+    expect(w.energyJ).toBeCloseTo(closed, 15);
+    expect(relativeError(trapezoidJ(c), w.energyJ)).toBeLessThan(1e-6);
+    // Source: Vin·∫(C·s + P/V) dt = Vin·C·Vin + Vin·(P/s)·ln(Vin/Vs); capacitor ½·C·Vin²; converter P·(Vin − Vs)/s.
+    const source = VIN * C * VIN + VIN * (P / s) * Math.log(VIN / VS);
+    const intoLoad = (P * (VIN - VS)) / s;
+    expect(relativeError(w.energyJ, source - 0.5 * C * VIN ** 2 - intoLoad)).toBeLessThan(1e-12);
+  });
+
+  it("peaks where the converter starts, (Vin − Vs)·(C·s + P/Vs), above the ramp's Vin·C·s; the current at C·s + P/Vs", () => {
+    const w = inrushCharge(c);
+    if (w.outcome !== "charges") throw new Error("expected a charge");
+    // (24 − 10)·(1 + 4) = 70 W against 24 W at 0 V.
+    expect(w.peakPowerW).toBeCloseTo(70, 12);
+    expect(w.peakPowerVdsV).toBe(VIN - VS);
+    expect(w.peakCurrentA).toBeCloseTo(5, 12);
+    let brute = 0;
+    for (let k = 0; k <= 100_000; k += 1) brute = Math.max(brute, w.powerW((k / 100_000) * w.chargeTimeS));
+    expect(w.peakPowerW).toBeGreaterThanOrEqual(brute - 1e-9);
+    expect(brute).toBeGreaterThan(w.peakPowerW * 0.999);
+  });
+});
