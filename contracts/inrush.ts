@@ -21,6 +21,11 @@ export const reviewInrush = z
       "output slew rate a controller's soft start or a gate RC sets (absent: the channel turns fully on at once, an integrated switch limits at its currentLimitA)",
       { gt: 0, le: 1e9 },
     ).optional(),
+    currentLimitA: quantity(
+      "A",
+      "current a controller holds while it charges the output (a hot-swap or inrush controller's limit through its sense resistor) for a MOSFET stage; an integrated switch limits at the lower of this and its own currentLimitA (absent: the stage's own limit, if any)",
+      { gt: 0, le: 1e5 },
+    ).optional(),
     loopResistanceOhm: quantity(
       "ohm",
       "resistance in the charging loop besides the source's and the stage's (wiring, capacitor ESR; default 0)",

@@ -46,6 +46,7 @@ export function reviewInrushOf(
     inputV,
     loopResistanceOhm: (r.sourceResistanceOhm ?? 0) + (i.loopResistanceOhm ?? 0),
     ...(i.slewVPerS === undefined ? {} : { slewVPerS: i.slewVPerS }),
+    ...(i.currentLimitA === undefined ? {} : { controllerLimitA: i.currentLimitA }),
     load,
     ambientC: r.ambient.maxC,
   };
@@ -76,4 +77,9 @@ function defaultInrushInputV(l: InrushSupplyLevels, assumptions: string[]): numb
     `inrush.inputV: ${which} ${over} V, the highest level the stage can be switched on at (default; of ${named.join(", ")})`,
   );
   return over;
+}
+
+/** The sentence a back-to-back pair's inrush adds: which FET carries the charge's drop (review-inrush.ts pairDissipation). */
+export function pairInrushAssumption(path: readonly (string | number)[]): string {
+  return `${path.join(".")}: inrush through a back-to-back pair: fully on at once each channel drops half; in a slew or at a current limit the input-side FET carries the whole drop and loss (the output-side FET conducts source to drain across its body diode: at most a diode drop; counted on the input-side FET, conservative), its SOA at the whole drop and its junction through the candidate's transientThermal taken as that FET's own`;
 }

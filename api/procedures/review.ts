@@ -12,6 +12,7 @@ import { formatQuantity } from "../../domain/rules/quantity-text.js";
 import type { RuleSetResult } from "../../domain/rules/rule-model.js";
 import { datasheetMaxScale, switchTolerance, thresholdMinShiftV, worstTurnOffTiming } from "../map/datasheet-max.js";
 import { resolveStage } from "../map/resolve-stage.js";
+import { pairInrushAssumption } from "../map/inrush-requirement.js";
 import { controllerTiming } from "../map/reverse-inputs.js";
 import { turnOffEventFields } from "../map/turn-off-output.js";
 import { toReviewRequirement } from "../map/requirement.js";
@@ -57,6 +58,7 @@ export const review = defineProcedure({
           `${path.join(".")}: a steady corner at or above the ${stage.model.thermalShutdownC} °C thermal shutdown is the switch turned off and the load unpowered (thermalShutdownInService), the part taken as latched off: the contract states no auto-retry`,
         );
       }
+      if (stage.model.kind === "nfet-back-to-back" && req.model.inrush) assumptions.push(pairInrushAssumption(path));
       const transientThermal = transientThermalOf(
         c.transientThermal,
         stage.model,

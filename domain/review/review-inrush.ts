@@ -17,6 +17,8 @@ export interface ReviewInrush {
   readonly loopResistanceOhm: number;
   /** The dV/dt a controller's soft start or a gate RC sets, V/s; absent: the channel turns fully on at once. */
   readonly slewVPerS?: number;
+  /** The current a controller holds during the charge (a hot-swap controller's limit), A; absent: the stage's own limit only. */
+  readonly controllerLimitA?: number;
   /** The load during the charge. */
   readonly load: InrushLoad;
   /** The die starts at this ambient, °C. */
@@ -28,6 +30,8 @@ export type ReviewInrushResult =
       readonly assessed: true;
       readonly drive: InrushDrive["kind"];
       readonly result: InrushResult;
+      /** A back-to-back pair: which FET the charge's drop and loss are put on (pairDissipation). */
+      readonly pairDissipation?: PairDissipation;
       /** The pulse against the MOSFET's datasheet SOA lines (absent: the MOSFET gives none). */
       readonly soa?: SoaCheck;
     }
@@ -36,8 +40,8 @@ export type ReviewInrushResult =
 
 /**
  * A candidate through the inrush (inrush-soa.ts). The drive follows the stage: an integrated
- * switch with a current limit limits (unless a given slew keeps the current below its limit); a
- * given slew sets dV/dt; otherwise the channel turns fully on at once and the loop's resistance
+ * switch's current limit or a controller's (the lower) limits (unless a given slew keeps the
+ * current below it); a given slew sets dV/dt; otherwise the channel turns fully on at once and the loop's resistance
  * limits the current (the channel at its best-characterised drive and the ambient's Rds(on); a
  * back-to-back pair has both channels in series). A diode stage carries the inrush on its
  * junction: its surge rating is not modelled here (not assessed).
@@ -51,7 +55,10 @@ export function reviewInrush(inrush: ReviewInrush, stage: StageModel, thermal: T
       reason: "a diode stage carries the inrush on its junction: its surge current rating is not modelled",
     };
   const load = inrush.load;
-  const limitA = stage.kind === "integrated-switch" ? stage.currentLimitA : undefined;
+  const limits = [stage.kind === "integrated-switch" ? stage.currentLimitA : undefined, inrush.controllerLimitA].filter(
+    (x): x is number => x !== undefined,
+  );
+  const limitA = limits.length === 0 ? undefined : Math.min(...limits);
   const loadPeakA = loadPeakCurrentA(load, inrush.inputV);
   const slew = inrush.slewVPerS;
   const slewFits =
@@ -90,6 +97,7 @@ export function reviewInrush(inrush: ReviewInrush, stage: StageModel, thermal: T
     thermal: th,
     ...(shutdownC === undefined ? {} : { thermalShutdownC: shutdownC }),
   });
+  const pair = stage.kind === "nfet-back-to-back" ? pairDissipation(drive) : undefined;
   const lines = stageMosfet(stage)?.soa;
   const soa =
     lines === undefined || result.outcome === "does-not-charge"
@@ -99,14 +107,36 @@ export function reviewInrush(inrush: ReviewInrush, stage: StageModel, thermal: T
           {
             energyJ: result.energyJ,
             peakPowerW: result.peakPowerW,
-            // A pair's channels share an uncontrolled charge's drop; in a slew or at a limit one FET may hold it all.
-            vdsAtPeakV: drive.kind === "uncontrolled" ? result.peakPowerVdsV / channel.count : result.peakPowerVdsV,
+            vdsAtPeakV: pair === "both-channels" ? result.peakPowerVdsV / channel.count : result.peakPowerVdsV,
             currentAtPeakA: result.peakPowerVdsV > 0 ? result.peakPowerW / result.peakPowerVdsV : 0,
           },
           stageTjMaxC(stage),
           inrush.ambientC,
         );
-  return { assessed: true, drive: drive.kind, result, ...(soa === undefined ? {} : { soa }) };
+  return {
+    assessed: true,
+    drive: drive.kind,
+    result,
+    ...(pair === undefined ? {} : { pairDissipation: pair }),
+    ...(soa === undefined ? {} : { soa }),
+  };
+}
+
+/**
+ * Where a back-to-back pair's inrush loss falls. Fully on at once, both channels carry the loop's
+ * current: each drops half (I·R each), so each FET's SOA is read at half the drop. In a slew or at
+ * a current limit the shared gate is held low: the input-side FET (drain to source) is the one in
+ * its linear region; the output-side FET conducts source to drain with its body diode across it,
+ * its channel enhanced by more than Vgs (its gate is referred to the lower drain), so it drops at
+ * most a diode's forward voltage. The whole drop and loss are put on the input-side FET
+ * (conservative: the output-side FET's few hundred mV·I are counted there too), its SOA read at
+ * the whole drop and its junction through the candidate's transient network (that FET's own).
+ * Checked against ngspice on the pair at a current limit (test/domain/checks/inrush-pair-spice.test.ts).
+ */
+export type PairDissipation = "both-channels" | "input-side-fet";
+
+function pairDissipation(drive: InrushDrive): PairDissipation {
+  return drive.kind === "uncontrolled" ? "both-channels" : "input-side-fet";
 }
 
 /**

@@ -188,6 +188,15 @@ const fetZth: Obj = {
     { rKPerW: 40.5, tauS: 10 },
   ],
 };
+/** The pair's: summing to its 40 K/W path, taken as the input-side FET's own network during the inrush. */
+const pairZth: Obj = {
+  kind: "foster",
+  terms: [
+    { rKPerW: 0.5, tauS: 1e-3 },
+    { rKPerW: 4, tauS: 0.05 },
+    { rKPerW: 35.5, tauS: 10 },
+  ],
+};
 const switchZth: Obj = {
   kind: "foster",
   terms: [
@@ -929,6 +938,23 @@ export const KNOWN_BAD: readonly KnownBad[] = [
       },
       integratedSwitch({ currentLimitA: 6 }),
       switchZth,
+    ),
+  },
+  {
+    id: "inrush-pair-limit-outside-soa",
+    hazard: "start-up",
+    why: "a back-to-back pair behind a hot-swap controller's 2 A limit charging 1 mF to the 24 V jump start: the shared gate leaves the input-side FET in its linear region holding the whole 24 V at 2 A for a 6 ms equivalent pulse (the output-side FET conducts across its body diode), where its SOA lines allow 1.44 A from 85 °C; read at half the drop each (12 V) it would seem to pass at 3.4 A (twin: a 0.5 A limit, 24 ms against 0.78 A)",
+    procedure: "review",
+    rule: "inrush-soa",
+    bad: reviewZth(
+      { ...req12, inrush: { outputCapacitanceF: "1 mF", currentLimitA: 2, load: { kind: "none" } } },
+      backToBack({ soa: soaLines }),
+      pairZth,
+    ),
+    twin: reviewZth(
+      { ...req12, inrush: { outputCapacitanceF: "1 mF", currentLimitA: 0.5, load: { kind: "none" } } },
+      backToBack({ soa: soaLines }),
+      pairZth,
     ),
   },
   {

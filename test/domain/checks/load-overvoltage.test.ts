@@ -93,6 +93,11 @@ describe("the review's inrush drive per stage (review-inrush.ts)", () => {
     expect(reviewInrush({ ...inrush, slewVPerS: 1000 }, { ...sw, currentLimitA: 5 }, quasi)).toMatchObject({
       drive: "slew",
     });
+    // A controller's limit beside the switch's: the lower holds, C·V/(I − IL) = 1 mF·12 V/(4 A − 2 A) = 6 ms.
+    const lower = reviewInrush({ ...inrush, controllerLimitA: 4 }, { ...sw, currentLimitA: 5 }, quasi);
+    expect(lower.assessed && lower.result.outcome === "charged" && lower.result.chargeTimeS).toBeCloseTo(6e-3, 12);
+    const higher = reviewInrush({ ...inrush, controllerLimitA: 8 }, { ...sw, currentLimitA: 5 }, quasi);
+    expect(higher.assessed && higher.result.outcome === "charged" && higher.result.chargeTimeS).toBeCloseTo(4e-3, 12);
     // 1 mF·4000 V/s + 2 A = 6 A > 5 A: the limit governs.
     expect(reviewInrush({ ...inrush, slewVPerS: 4000 }, { ...sw, currentLimitA: 5 }, quasi)).toMatchObject({
       drive: "current-limit",
