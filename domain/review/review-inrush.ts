@@ -29,6 +29,8 @@ export type ReviewInrushResult =
   | {
       readonly assessed: true;
       readonly drive: InrushDrive["kind"];
+      /** The input the output charges to, V: the requirement's, or an integrated switch's cut-off below it. */
+      readonly inputV: number;
       readonly result: InrushResult;
       /** A back-to-back pair: which FET the charge's drop and loss are put on (pairDissipation). */
       readonly pairDissipation?: PairDissipation;
@@ -43,7 +45,9 @@ export type ReviewInrushResult =
  * switch's current limit or a controller's (the lower) limits (unless a given slew keeps the
  * current below it); a given slew sets dV/dt; otherwise the channel turns fully on at once and the loop's resistance
  * limits the current (the channel at its best-characterised drive and the ambient's Rds(on); a
- * back-to-back pair has both channels in series). A diode stage carries the inrush on its
+ * back-to-back pair has both channels in series). An integrated switch with an overvoltage cut-off
+ * below the input is open there: it switches on, and charges, at most at its cut-off (the highest
+ * threshold where the datasheet gives one: candidate-review.ts). A diode stage carries the inrush on its
  * junction: its surge rating is not modelled here (not assessed).
  */
 export function reviewInrush(inrush: ReviewInrush, stage: StageModel, thermal: TransientThermal): ReviewInrushResult {
@@ -59,7 +63,10 @@ export function reviewInrush(inrush: ReviewInrush, stage: StageModel, thermal: T
     (x): x is number => x !== undefined,
   );
   const limitA = limits.length === 0 ? undefined : Math.min(...limits);
-  const loadPeakA = loadPeakCurrentA(load, inrush.inputV);
+  // An integrated switch is open above its overvoltage cut-off: it can switch on at most there.
+  const cutoffV = stage.kind === "integrated-switch" ? stage.overvoltageCutoffV : undefined;
+  const inputV = cutoffV !== undefined && cutoffV < inrush.inputV ? cutoffV : inrush.inputV;
+  const loadPeakA = loadPeakCurrentA(load, inputV);
   const slew = inrush.slewVPerS;
   const slewFits =
     slew !== undefined &&
@@ -89,7 +96,7 @@ export function reviewInrush(inrush: ReviewInrush, stage: StageModel, thermal: T
       : { kind: "none", steadyRthKPerW: steady };
   const shutdownC = stage.kind === "integrated-switch" ? stage.thermalShutdownC : undefined;
   const result = inrushSoa({
-    inputV: inrush.inputV,
+    inputV,
     capacitanceF: inrush.capacitanceF,
     load,
     drive,
@@ -116,6 +123,7 @@ export function reviewInrush(inrush: ReviewInrush, stage: StageModel, thermal: T
   return {
     assessed: true,
     drive: drive.kind,
+    inputV,
     result,
     ...(pair === undefined ? {} : { pairDissipation: pair }),
     ...(soa === undefined ? {} : { soa }),

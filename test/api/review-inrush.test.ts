@@ -74,7 +74,7 @@ describe("review: inrush into the output capacitance", () => {
         transients: [],
         inrush: { outputCapacitanceF: "100 uF", slewVPerS: "1000 V/s", load: { kind: "none" } },
       },
-      candidates: [{ ...demoSwitch, transientThermal: zth }],
+      candidates: [{ stage: { kind: "catalog-part", partId: "demo-ideal-diode-60v-3mohm" } }],
     });
     expect(telecom.assumptions.some((a) => a.startsWith("inrush.inputV: the abnormal service limit 60 V"))).toBe(true);
     // Slew into a bare capacitor: the pass element loses what the capacitor stores, ½·C·V² at 60 V = 0.18 J.
@@ -93,6 +93,29 @@ describe("review: inrush into the output capacitance", () => {
       "inrush.inputV: the highest steady supply 14 V (default; the supply has no higher steady level)",
     );
     expect(custom.candidates[0]?.inrush?.result?.["chargeTimeS"]).toBeCloseTo((470e-6 * 14) / 3, 12);
+  });
+
+  it("an integrated switch open above its cut-off switches on at most there: the 24 V class's 36 V jump start charges at 33 V", async () => {
+    const on24 = {
+      ...req,
+      supply: { class: "vehicle-24v-f" },
+      transients: [],
+      inrush: { outputCapacitanceF: "100 uF" },
+    };
+    const typical = await call({ requirement: on24, candidates: [{ ...demoSwitch, transientThermal: zth }] });
+    expect(typical.assumptions.some((a) => a.startsWith("inrush.inputV: the jump start 36 V"))).toBe(true);
+    // The demo switch's cut-off is 33 V: C·V/(Ilim − IL) = 100 uF·33 V/(6 A − 3 A) = 1.1 ms, peak 6 A·33 V.
+    const i = typical.candidates[0]?.inrush as { inputV?: number; result?: Record<string, number> } | undefined;
+    expect(i?.inputV).toBe(33);
+    expect(i?.result?.["chargeTimeS"]).toBeCloseTo((100e-6 * 33) / 3, 12);
+    expect(i?.result?.["peakPowerW"]).toBeCloseTo(6 * 33, 12);
+    // At its datasheet's highest threshold, 34 V.
+    const dm = { rdsOnFactor: 1, forwardVoltageFactor: 1, overvoltageCutoffMaxV: 34 };
+    const high = await call({
+      requirement: on24,
+      candidates: [{ ...demoSwitch, transientThermal: zth, datasheetMax: dm }],
+    });
+    expect((high.candidates[0]?.inrush as { inputV?: number } | undefined)?.inputV).toBe(34);
   });
 
   it("leaves the pulse's Tj open without a transient thermal network; a constant-power load draws P/V from its minVoltageV", async () => {
