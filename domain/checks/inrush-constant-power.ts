@@ -22,28 +22,36 @@ import type { InrushCharge, InrushCircuit } from "./inrush.js";
  *   falls back below its start, the converter stops, the output recharges to Vs and the cycle
  *   repeats at the lockout (with its hysteresis): the output never charges (stalls at Vs, the
  *   switch held limiting at (Vin − Vs)·I: conservative, the real duty is lower).
- * A start voltage at or above Vin: the converter never runs during the charge (no load).
- * Checked against RK4 of C·dV/dt = I − P/V, the trapezoid ∫P dt and conservation of energy
+ * - fully on at once through Rt = Rch + Rloop: an RC charge V = Vin·(1 − e^(−t/(Rt·C))) up to Vs,
+ *   then C·dV/dt = (Vin − V)/Rt − P/V = −(V − V1)(V − V2)/(Rt·V), V1,2 = [Vin ∓ √(Vin² − 4·P·Rt)]/2:
+ *   the output settles at V2 where it charges at all (V1 < Vs < V2), with
+ *   t(V) = t1 + Rt·C/(V2 − V1)·[V1·ln((V − V1)/(Vs − V1)) + V2·ln((V2 − Vs)/(V2 − V))], done at 99 %
+ *   of V2. The channel's loss above its steady I_ss²·Rch (I_ss = (Vin − V2)/Rt, the load's own
+ *   conduction, as for the other loads): (I² − I_ss²) = (V2 − V)(2·Vin − V − V2)/Rt² cancels the
+ *   root at V2, so E = Rch·(C/Rt)·[Vin·Vs − Vs²/2 + Vin·(V2 − Vs) − (V2² − Vs²)/2
+ *   + V1·Vin·ln((V2 − V1)/(Vs − V1))] − Rch·I_ss²·t1 (P → 0: ½·C·Vin²·Rch/Rt). No roots, or Vs
+ *   outside (V1, V2): the converter pulls the output back below its start, a stall at Vs.
+ * The dispatcher (inrush.ts) sends a converter that starts at or above Vin to the no-load charge.
+ * Checked against RK4 of the three ODEs, the trapezoid ∫P dt and conservation of energy
  * (source = capacitor + load + pass element) in test/domain/checks/inrush-constant-power.test.ts.
  */
 export function constantPowerCharge(c: InrushCircuit, powerW: number, startV: number): InrushCharge {
   const vin = c.inputV;
   const cap = c.capacitanceF;
   const d = c.drive;
-  const draws = startV < vin;
-  const loadA = (v: number) => (draws && v >= startV && v > 0 ? powerW / v : 0);
-  if (d.kind === "uncontrolled")
-    throw new Error("constantPowerCharge: an uncontrolled charge beside a constant-power load is not modelled");
+  if (!(startV < vin)) throw new Error("constantPowerCharge: the converter starts at or above the input");
+  const loadA = (v: number) => (v >= startV && v > 0 ? powerW / v : 0);
+  if (d.kind === "uncontrolled") return uncontrolledCharge(c, d.channelOhm, d.channelOhm + d.loopOhm, powerW, startV);
   if (d.kind === "slew") {
-    if (draws && !(startV > 0))
+    if (!(startV > 0))
       throw new Error("constantPowerCharge: a slew beside a constant-power load needs its start voltage above 0 V");
     const s = d.slewVPerS;
     const t1 = vin / s;
     const outputV = (t: number) => Math.min(vin, s * Math.max(0, t));
     const currentA = (t: number) => (t < t1 ? cap * s : 0) + loadA(outputV(t));
     const powerW_ = (t: number) => (vin - outputV(t)) * currentA(t);
-    const loadE = draws ? (powerW / s) * (vin * Math.log(vin / startV) - (vin - startV)) : 0;
-    const atStartW = draws ? (vin - startV) * (cap * s + powerW / startV) : 0;
+    const loadE = (powerW / s) * (vin * Math.log(vin / startV) - (vin - startV));
+    const atStartW = (vin - startV) * (cap * s + powerW / startV);
     const atZeroW = vin * cap * s;
     return {
       outcome: "charges",
@@ -53,13 +61,13 @@ export function constantPowerCharge(c: InrushCircuit, powerW: number, startV: nu
       currentA,
       powerW: powerW_,
       energyJ: 0.5 * cap * vin * vin + loadE,
-      peakCurrentA: cap * s + (draws ? powerW / startV : 0),
+      peakCurrentA: cap * s + powerW / startV,
       peakPowerW: Math.max(atZeroW, atStartW),
       peakPowerVdsV: atStartW > atZeroW ? vin - startV : vin,
     };
   }
   const lim = d.limitA;
-  if (draws && lim * startV <= powerW) {
+  if (lim * startV <= powerW) {
     return {
       outcome: "stalls",
       stallV: startV,
@@ -67,10 +75,10 @@ export function constantPowerCharge(c: InrushCircuit, powerW: number, startV: nu
       reason: `the converter draws ${round(powerW)} W, at its start voltage ${round(startV)} V at least the switch's current limit ${round(lim)} A (${round(lim * startV)} W there): each time it starts it pulls the output back below its start voltage, and the output cycles at the converter's undervoltage lockout instead of charging to ${round(vin)} V`,
     };
   }
-  const vs = draws ? startV : vin;
+  const vs = startV;
   const t1 = (cap * vs) / lim;
-  const logTerm = draws ? Math.log((lim * vin - powerW) / (lim * vs - powerW)) : 0;
-  const p = draws ? powerW : 0;
+  const logTerm = Math.log((lim * vin - powerW) / (lim * vs - powerW));
+  const p = powerW;
   const t2 = (cap / lim) * (vin - vs + (p / lim) * logTerm);
   const chargeTimeS = t1 + t2;
   /** Time at which the output reaches v (Vs ≤ v ≤ Vin): t1 + (C/I)·[(v − Vs) + (P/I)·ln((I·v − P)/(I·Vs − P))]. */
@@ -102,6 +110,64 @@ export function constantPowerCharge(c: InrushCircuit, powerW: number, startV: nu
     peakCurrentA: lim,
     peakPowerW: vin * lim,
     peakPowerVdsV: vin,
+  };
+}
+
+/** Fully on at once through the loop Rt (the channel Rch of it) beside the converter (see above). */
+function uncontrolledCharge(c: InrushCircuit, rch: number, rt: number, powerW: number, startV: number): InrushCharge {
+  const vin = c.inputV;
+  const tau = rt * c.capacitanceF;
+  const disc = vin * vin - 4 * powerW * rt;
+  const v1 = disc > 0 ? (vin - Math.sqrt(disc)) / 2 : vin / 2;
+  const v2 = disc > 0 ? (vin + Math.sqrt(disc)) / 2 : vin / 2;
+  if (!(disc > 0 && v1 < startV && startV < v2)) {
+    const atStartA = (vin - startV) / rt;
+    return {
+      outcome: "stalls",
+      stallV: startV,
+      stallPowerW: atStartA * atStartA * rch,
+      reason: `the converter draws ${round(powerW)} W from its start voltage ${round(startV)} V, more than the loop of ${round(rt)} ohm passes there (${round((vin - startV) * atStartA)} W less its own drop): each time it starts it pulls the output back below its start voltage, and the output cycles at the converter's undervoltage lockout instead of charging`,
+    };
+  }
+  const t1 = -tau * Math.log1p(-startV / vin);
+  const timeAtV = (v: number) =>
+    t1 + (tau / (v2 - v1)) * (v1 * Math.log((v - v1) / (startV - v1)) + v2 * Math.log((v2 - startV) / (v2 - v)));
+  const doneV = 0.99 * v2;
+  const chargeTimeS = doneV > startV ? timeAtV(doneV) : -tau * Math.log1p(-doneV / vin);
+  const spanS = timeAtV(v2 - 1e-6 * (v2 - startV));
+  const outputV = (t: number) => {
+    if (t <= 0) return 0;
+    if (t < t1) return -vin * Math.expm1(-t / tau);
+    let lo = startV;
+    let hi = v2;
+    for (let k = 0; k < 60; k += 1) {
+      const mid = 0.5 * (lo + hi);
+      if (timeAtV(mid) < t) lo = mid;
+      else hi = mid;
+    }
+    return 0.5 * (lo + hi);
+  };
+  const currentA = (t: number) => (vin - outputV(t)) / rt;
+  const iss = (vin - v2) / rt;
+  const i0 = vin / rt;
+  const squared =
+    (c.capacitanceF / rt) *
+    (vin * startV -
+      (startV * startV) / 2 +
+      vin * (v2 - startV) -
+      (v2 * v2 - startV * startV) / 2 +
+      v1 * vin * Math.log((v2 - v1) / (startV - v1)));
+  return {
+    outcome: "charges",
+    chargeTimeS,
+    spanS,
+    outputV,
+    currentA,
+    powerW: (t) => currentA(t) ** 2 * rch,
+    energyJ: rch * (squared - iss * iss * t1),
+    peakCurrentA: i0,
+    peakPowerW: i0 * i0 * rch,
+    peakPowerVdsV: i0 * rch,
   };
 }
 

@@ -81,7 +81,10 @@ function loadA(load: SimpleLoad, v: number): number {
 }
 
 export function inrushCharge(c: InrushCircuit): InrushCharge {
-  if (c.load.kind === "constant-power") return constantPowerCharge(c, c.load.powerW, c.load.startV);
+  if (c.load.kind === "constant-power")
+    return c.load.startV >= c.inputV
+      ? simpleCharge(c, { kind: "none" })
+      : constantPowerCharge(c, c.load.powerW, c.load.startV);
   return simpleCharge(c, c.load);
 }
 

@@ -37,7 +37,7 @@ export type ReviewInrushResult =
       /** The pulse against the MOSFET's datasheet SOA lines (absent: the MOSFET gives none). */
       readonly soa?: SoaCheck;
     }
-  /** Not assessed: out of scope for the stage (a diode), or a gap (a constant-power load in a charge not modelled with it). */
+  /** Not assessed: out of scope for the stage (a diode), or a gap (no on-resistance; a slew from a converter starting at 0 V). */
   | { readonly assessed: false; readonly scope: "out" | "gap"; readonly reason: string };
 
 /**
@@ -71,18 +71,17 @@ export function reviewInrush(inrush: ReviewInrush, stage: StageModel, thermal: T
   const slewFits =
     slew !== undefined &&
     (limitA === undefined || (loadPeakA !== undefined && inrush.capacitanceF * slew + loadPeakA <= limitA));
-  const cpGap = (why: string): ReviewInrushResult => ({
-    assessed: false,
-    scope: "gap",
-    reason: `a constant-power load ${why}: give requirement.inrush.load (its start voltage, or a constant-current or resistive load)`,
-  });
   let drive: InrushDrive;
   if (slewFits && slew !== undefined) {
-    if (loadPeakA === undefined) return cpGap("with no start voltage draws P/V without bound as the output leaves 0 V");
+    if (loadPeakA === undefined)
+      return {
+        assessed: false,
+        scope: "gap",
+        reason:
+          "a constant-power load with no start voltage draws P/V without bound as the output leaves 0 V: a slew cannot be held; give requirement.inrush.load with the converter's startV",
+      };
     drive = { kind: "slew", slewVPerS: slew };
   } else if (limitA !== undefined) drive = { kind: "current-limit", limitA };
-  else if (load.kind === "constant-power")
-    return cpGap("in a charge the channel's resistance alone limits (fully on at once) is not modelled");
   else {
     const rOhm = channelResistanceOhm(channel.params, channel.gateV, cToK(inrush.ambientC));
     if (rOhm === undefined)

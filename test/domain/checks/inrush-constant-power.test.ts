@@ -145,3 +145,69 @@ describe("inrush under a slew beside a constant-power load", () => {
     expect(brute).toBeGreaterThan(w.peakPowerW * 0.999);
   });
 });
+
+describe("inrush fully on at once beside a constant-power load", () => {
+  const [RCH, RLOOP] = [0.05, 0.45];
+  const RT = RCH + RLOOP;
+  const c: InrushCircuit = {
+    inputV: VIN,
+    capacitanceF: C,
+    load: cp,
+    drive: { kind: "uncontrolled", channelOhm: RCH, loopOhm: RLOOP },
+  };
+  // V1,2 = [Vin ∓ √(Vin² − 4·P·Rt)]/2 = [24 ∓ √(576 − 80)]/2: 0.864 V and 23.136 V.
+  const disc = Math.sqrt(VIN ** 2 - 4 * P * RT);
+  const [V1, V2] = [(VIN - disc) / 2, (VIN + disc) / 2];
+
+  /** RK4 of C·dV/dt = (Vin − V)/Rt − P/V (V ≥ Vs), with the channel's (I² − I_ss²)·Rch integrated beside it. */
+  function rk4(tEnd: number, steps: number, tAt: number) {
+    const iss = (VIN - V2) / RT;
+    const f = (v: number): [number, number] => {
+      const i = (VIN - v) / RT;
+      return [(i - (v >= VS ? P / v : 0)) / C, RCH * (i * i - iss * iss)];
+    };
+    const h = tEnd / steps;
+    let [v, e] = [0, 0];
+    let vAt = Number.NaN;
+    for (let k = 0; k < steps; k += 1) {
+      const k1 = f(v);
+      const k2 = f(v + 0.5 * h * k1[0]);
+      const k3 = f(v + 0.5 * h * k2[0]);
+      const k4 = f(v + h * k3[0]);
+      v += (h / 6) * (k1[0] + 2 * k2[0] + 2 * k3[0] + k4[0]);
+      e += (h / 6) * (k1[1] + 2 * k2[1] + 2 * k3[1] + k4[1]);
+      if (Number.isNaN(vAt) && (k + 1) * h >= tAt) vAt = v;
+    }
+    return { v, e, vAt };
+  }
+
+  it("settles at V2, reaches 99 % of it at the closed-form t(V), and loses the closed-form energy above the steady loss", () => {
+    const w = inrushCharge(c);
+    if (w.outcome !== "charges") throw new Error("expected a charge");
+    const t1 = -RT * C * Math.log(1 - VS / VIN);
+    const tDone =
+      t1 +
+      ((RT * C) / (V2 - V1)) * (V1 * Math.log((0.99 * V2 - V1) / (VS - V1)) + V2 * Math.log((V2 - VS) / (0.01 * V2)));
+    expect(w.chargeTimeS).toBeCloseTo(tDone, 15);
+    const rk = rk4(40 * RT * C, 400_000, w.chargeTimeS);
+    expect(rk.v).toBeCloseTo(V2, 6);
+    expect(relativeError(rk.vAt, 0.99 * V2)).toBeLessThan(1e-5);
+    expect(relativeError(w.energyJ, rk.e)).toBeLessThan(1e-5);
+    expect(w.peakCurrentA).toBeCloseTo(VIN / RT, 12);
+    // The waveform's V(t) follows the integrated one.
+    for (const t of [0.2e-3, 0.5e-3, 1e-3, 2e-3]) expect(w.outputV(t)).toBeCloseTo(rk4(t, 20_000, t).v, 4);
+  });
+
+  it("tends to the no-load ½·C·Vin²·Rch/Rt as P → 0; a converter starting below V1 or with no V2 stalls at its start", () => {
+    const tiny = inrushCharge({ ...c, load: { ...cp, powerW: 1e-9 } });
+    if (tiny.outcome !== "charges") throw new Error("expected a charge");
+    expect(relativeError(tiny.energyJ, (0.5 * C * VIN ** 2 * RCH) / RT)).toBeLessThan(1e-6);
+    // Below V1 = 0.864 V the loop passes less than P/V: C·dV/dt < 0 at the start, the lockout cycles.
+    const low = inrushCharge({ ...c, load: { ...cp, startV: 0.5 } });
+    expect(low).toMatchObject({ outcome: "stalls", stallV: 0.5 });
+    expect((VIN - 0.5) / RT - P / 0.5).toBeLessThan(0);
+    // 4·P·Rt > Vin²: no operating point at all (300 W through 0.5 ohm from 24 V).
+    expect(inrushCharge({ ...c, load: { ...cp, powerW: 300 } })).toMatchObject({ outcome: "stalls", stallV: VS });
+    expect(inrushCharge({ ...c, load: { ...cp, startV: 0 } })).toMatchObject({ outcome: "stalls", stallV: 0 });
+  });
+});

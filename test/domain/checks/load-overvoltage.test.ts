@@ -131,9 +131,9 @@ describe("the review's inrush drive per stage (review-inrush.ts)", () => {
       quasi,
     );
     expect(diode).toMatchObject({ assessed: false, scope: "out" });
-    // A converter's P/V in a charge the channel alone limits, or under a slew from a 0 V start: not modelled.
+    // A converter's P/V under a slew from a 0 V start: not modelled (unbounded); fully on at once it is.
     const cp = { kind: "constant-power", powerW: 20, startV: 8 } as const;
-    expect(reviewInrush({ ...inrush, load: cp }, sw, quasi)).toMatchObject({ assessed: false, scope: "gap" });
+    expect(reviewInrush({ ...inrush, load: cp }, sw, quasi)).toMatchObject({ assessed: true, drive: "uncontrolled" });
     const from0 = { ...inrush, load: { ...cp, startV: 0 }, slewVPerS: 1000 };
     expect(reviewInrush(from0, sw, quasi)).toMatchObject({ assessed: false, scope: "gap" });
     // Behind a 5 A limit the slew cannot be held from 0 V: the limit governs, and the output stalls at 0 V.
