@@ -1,3 +1,4 @@
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { type InrushCircuit, inrushCharge } from "../../../domain/checks/inrush.js";
 import { inrushSoa } from "../../../domain/checks/inrush-soa.js";
@@ -209,5 +210,50 @@ describe("inrush fully on at once beside a constant-power load", () => {
     // 4·P·Rt > Vin²: no operating point at all (300 W through 0.5 ohm from 24 V).
     expect(inrushCharge({ ...c, load: { ...cp, powerW: 300 } })).toMatchObject({ outcome: "stalls", stallV: VS });
     expect(inrushCharge({ ...c, load: { ...cp, startV: 0 } })).toMatchObject({ outcome: "stalls", stallV: 0 });
+  });
+});
+
+describe("inrush beside a constant-power load: no NaN or Infinity over random circuits", () => {
+  const drive = fc.oneof(
+    fc.record({ kind: fc.constant("slew" as const), slewVPerS: fc.double({ min: 1, max: 1e6, noNaN: true }) }),
+    fc.record({ kind: fc.constant("current-limit" as const), limitA: fc.double({ min: 0.01, max: 1e3, noNaN: true }) }),
+    fc.record({
+      kind: fc.constant("uncontrolled" as const),
+      channelOhm: fc.double({ min: 1e-4, max: 1, noNaN: true }),
+      loopOhm: fc.double({ min: 0, max: 10, noNaN: true }),
+    }),
+  );
+  it("every outcome's figures are finite, the loss and the charge time positive, the junction finite", () => {
+    fc.assert(
+      fc.property(
+        fc.double({ min: 1, max: 1000, noNaN: true }),
+        fc.double({ min: 1e-6, max: 1, noNaN: true }),
+        fc.double({ min: 0.01, max: 1e4, noNaN: true }),
+        fc.double({ min: 0.001, max: 1.2, noNaN: true }),
+        drive,
+        (inputV, capacitanceF, powerW, startShare, d) => {
+          const c: InrushCircuit = {
+            inputV,
+            capacitanceF,
+            load: { kind: "constant-power", powerW, startV: startShare * inputV },
+            drive: d,
+          };
+          const w = inrushCharge(c);
+          if (w.outcome === "stalls") {
+            expect(Number.isFinite(w.stallV) && Number.isFinite(w.stallPowerW)).toBe(true);
+            return;
+          }
+          for (const x of [w.chargeTimeS, w.spanS, w.energyJ, w.peakCurrentA, w.peakPowerW, w.peakPowerVdsV])
+            expect(Number.isFinite(x)).toBe(true);
+          expect(w.chargeTimeS).toBeGreaterThan(0);
+          expect(w.energyJ).toBeGreaterThan(0);
+          for (const f of [0.1, 0.5, 0.99]) expect(Number.isFinite(w.powerW(f * w.chargeTimeS))).toBe(true);
+          const th = { kind: "foster" as const, terms: [{ rKPerW: 2, tauS: 1e-3 }], steadyRthKPerW: 2 };
+          const soa = inrushSoa({ ...c, ambientC: 25, thermal: th });
+          expect(Number.isFinite(soa.tjPeakC ?? 0)).toBe(true);
+        },
+      ),
+      { numRuns: 1500, seed: 19 },
+    );
   });
 });
