@@ -1,3 +1,4 @@
+import { pairInrushAssumption } from "./inrush-requirement.js";
 import type { Requirement } from "../../contracts/requirement.js";
 import type { StageSpec } from "../../contracts/stage.js";
 import { reviewCandidate } from "../../domain/review/candidate-review.js";
@@ -68,6 +69,7 @@ export function sizingContext(
     : undefined;
   const label = path.length > 0 ? path.join(".") : `part ${stage.partId ?? stage.spec.name ?? stage.model.kind}`;
   noteThresholdCorners(stage.model, cand.datasheetMax, req.model.ambientMinC, label, assumptions);
+  if (stage.model.kind === "nfet-back-to-back" && req.model.inrush) assumptions.push(pairInrushAssumption([label]));
   const switchTol = switchTolerance(cand.datasheetMax, stage.model, [...path, "datasheetMax"], assumptions);
   const assess = (s: StageModel) => {
     const review = reviewCandidate(searchReq, {

@@ -147,3 +147,17 @@ describe("review: a back-to-back pair's inrush", () => {
     expect(halved.assessed && halved.allowedA).toBeCloseTo(3.36, 2);
   });
 });
+
+describe("sizing: a back-to-back family through the inrush", () => {
+  it("states which FET carries the drop, as the review does", async () => {
+    const sizing = procedureInvoker(demoContext())("sizing.spec");
+    if (sizing === undefined) throw new Error("sizing.spec missing");
+    const out = (await sizing({
+      requirement: requirement({ outputCapacitanceF: "470 uF", slewVPerS: "1000 V/s" }),
+      templates: [
+        { label: "back-to-back family", stage: { kind: "catalog-part", partId: "demo-back-to-back-40v-2x5mohm" } },
+      ],
+    })) as { assumptions: string[] };
+    expect(out.assumptions.some((a) => a.includes("the input-side FET carries the whole drop"))).toBe(true);
+  });
+});
