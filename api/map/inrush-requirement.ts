@@ -14,9 +14,10 @@ export interface InrushSupplyLevels {
  * The requirement's inrush → the review's: the input defaults to the highest level the stage can
  * be switched on at, the highest of the steady supply's top, the jump start (a start at 24 V on a
  * 12 V system), the long-term overvoltage and the abnormal service limit (the largest ½·C·V² and
- * current; steadyOvervoltageV, the one definition the clamp's stand-off reads too), the loop adds the source resistance to the given one, the die
- * starts at the highest ambient, and the load during the charge defaults to the requirement's
- * load; a constant-power one draws from its minVoltageV (the lowest start its lockout can have).
+ * current; steadyOvervoltageV, the one definition the clamp's stand-off reads too). The loop adds
+ * the source resistance to the given one, the die starts at the highest ambient, and the load
+ * during the charge defaults to the requirement's load; a constant-power one draws from its
+ * minVoltageV (the lowest start its lockout can have).
  */
 export function reviewInrushOf(
   r: Requirement,
@@ -79,7 +80,7 @@ function defaultInrushInputV(l: InrushSupplyLevels, assumptions: string[]): numb
   return over;
 }
 
-/** The sentence a back-to-back pair's inrush adds: which FET carries the charge's drop (review-inrush.ts pairDissipation). */
+/** The sentence a back-to-back pair's inrush adds: which FET carries the drop (review-inrush.ts pairDissipation). */
 export function pairInrushAssumption(path: readonly (string | number)[]): string {
   return `${path.join(".")}: inrush through a back-to-back pair: fully on at once each channel drops half; in a slew or at a current limit the input-side FET carries the whole drop and loss (the output-side FET conducts source to drain across its body diode: at most a diode drop; counted on the input-side FET, conservative), its SOA at the whole drop and its junction through the candidate's transientThermal taken as that FET's own`;
 }

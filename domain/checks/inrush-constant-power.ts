@@ -23,8 +23,9 @@ import type { InrushCharge, InrushCircuit } from "./inrush.js";
  *   repeats at the lockout (with its hysteresis): the output never charges (stalls at Vs, the
  *   switch held limiting at (Vin − Vs)·I: conservative, the real duty is lower).
  * - fully on at once through Rt = Rch + Rloop: an RC charge V = Vin·(1 − e^(−t/(Rt·C))) up to Vs,
- *   then C·dV/dt = (Vin − V)/Rt − P/V = −(V − V1)(V − V2)/(Rt·V), V1,2 = [Vin ∓ √(Vin² − 4·P·Rt)]/2:
- *   the output settles at V2 where it charges at all (V1 < Vs < V2), with
+ *   then C·dV/dt = (Vin − V)/Rt − P/V = −(V − V1)(V − V2)/(Rt·V) with the roots
+ *   V1,2 = [Vin ∓ √(Vin² − 4·P·Rt)]/2: the output settles at V2 where it charges at all
+ *   (V1 < Vs < V2), with
  *   t(V) = t1 + Rt·C/(V2 − V1)·[V1·ln((V − V1)/(Vs − V1)) + V2·ln((V2 − Vs)/(V2 − V))], done at 99 %
  *   of V2. The channel's loss above its steady I_ss²·Rch (I_ss = (Vin − V2)/Rt, the load's own
  *   conduction, as for the other loads): (I² − I_ss²) = (V2 − V)(2·Vin − V − V2)/Rt² cancels the
@@ -81,7 +82,7 @@ export function constantPowerCharge(c: InrushCircuit, powerW: number, startV: nu
   const p = powerW;
   const t2 = (cap / lim) * (vin - vs + (p / lim) * logTerm);
   const chargeTimeS = t1 + t2;
-  /** Time at which the output reaches v (Vs ≤ v ≤ Vin): t1 + (C/I)·[(v − Vs) + (P/I)·ln((I·v − P)/(I·Vs − P))]. */
+  /** Time the output reaches v (Vs ≤ v ≤ Vin): t1 + (C/I)·[(v − Vs) + (P/I)·ln((I·v − P)/(I·Vs − P))]. */
   const timeAtV = (v: number) => t1 + (cap / lim) * (v - vs + (p / lim) * Math.log((lim * v - p) / (lim * vs - p)));
   const outputV = (t: number) => {
     if (t <= 0) return 0;

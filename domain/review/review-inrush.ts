@@ -17,7 +17,7 @@ export interface ReviewInrush {
   readonly loopResistanceOhm: number;
   /** The dV/dt a controller's soft start or a gate RC sets, V/s; absent: the channel turns fully on at once. */
   readonly slewVPerS?: number;
-  /** The current a controller holds during the charge (a hot-swap controller's limit), A; absent: the stage's own limit only. */
+  /** The current a controller holds during the charge (a hot-swap controller's limit), A; absent: the stage's own. */
   readonly controllerLimitA?: number;
   /** The load during the charge. */
   readonly load: InrushLoad;
@@ -37,18 +37,18 @@ export type ReviewInrushResult =
       /** The pulse against the MOSFET's datasheet SOA lines (absent: the MOSFET gives none). */
       readonly soa?: SoaCheck;
     }
-  /** Not assessed: out of scope for the stage (a diode), or a gap (no on-resistance; a slew from a converter starting at 0 V). */
+  /** Not assessed: out of scope (a diode), or a gap (no on-resistance; a slew beside a converter starting at 0 V). */
   | { readonly assessed: false; readonly scope: "out" | "gap"; readonly reason: string };
 
 /**
  * A candidate through the inrush (inrush-soa.ts). The drive follows the stage: an integrated
  * switch's current limit or a controller's (the lower) limits (unless a given slew keeps the
- * current below it); a given slew sets dV/dt; otherwise the channel turns fully on at once and the loop's resistance
- * limits the current (the channel at its best-characterised drive and the ambient's Rds(on); a
- * back-to-back pair has both channels in series). An integrated switch with an overvoltage cut-off
- * below the input is open there: it switches on, and charges, at most at its cut-off (the highest
- * threshold where the datasheet gives one: candidate-review.ts). A diode stage carries the inrush on its
- * junction: its surge rating is not modelled here (not assessed).
+ * current below it); a given slew sets dV/dt; otherwise the channel turns fully on at once and
+ * the loop's resistance limits the current (the channel at its best-characterised drive and the
+ * ambient's Rds(on); a back-to-back pair has both channels in series). An integrated switch with
+ * an overvoltage cut-off below the input is open there: it switches on, and charges, at most at
+ * its cut-off (the highest threshold where the datasheet gives one: candidate-review.ts). A diode
+ * stage carries the inrush on its junction: its surge rating is not modelled here (not assessed).
  */
 export function reviewInrush(inrush: ReviewInrush, stage: StageModel, thermal: TransientThermal): ReviewInrushResult {
   const channel = stageChannel(stage);
