@@ -8,14 +8,23 @@ export const reviewInrush = z
       gt: 0,
       le: 10,
     }),
-    inputV: quantity("V", "input the output charges to (default: the highest steady supply)", {
-      gt: 0,
-      le: 10_000,
-    }).optional(),
+    inputV: quantity(
+      "V",
+      "input the output charges to (default: the highest level the stage can be switched on at: the highest of the steady supply's top, the jump start, the long-term overvoltage and the abnormal limit)",
+      {
+        gt: 0,
+        le: 10_000,
+      },
+    ).optional(),
     slewVPerS: quantity(
       "V/s",
       "output slew rate a controller's soft start or a gate RC sets (absent: the channel turns fully on at once, an integrated switch limits at its currentLimitA)",
       { gt: 0, le: 1e9 },
+    ).optional(),
+    currentLimitA: quantity(
+      "A",
+      "current a controller holds while it charges the output (a hot-swap or inrush controller's limit through its sense resistor) for a MOSFET stage; an integrated switch limits at the lower of this and its own currentLimitA (absent: the stage's own limit, if any)",
+      { gt: 0, le: 1e5 },
     ).optional(),
     loopResistanceOhm: quantity(
       "ohm",
@@ -33,11 +42,23 @@ export const reviewInrush = z
           kind: z.literal("resistive"),
           resistanceOhm: quantity("ohm", "load resistance during the charge", { gt: 0, le: 1e12 }),
         }),
+        z.strictObject({
+          kind: z.literal("constant-power"),
+          powerW: quantity("W", "input power the converter draws once running (P/V at its input)", {
+            gt: 0,
+            le: 1e6,
+          }),
+          startV: quantity(
+            "V",
+            "input voltage at which the converter starts drawing (its undervoltage lockout's rising threshold)",
+            { ge: 0, le: 1e4 },
+          ),
+        }),
       ])
       .optional()
       .meta({
         description:
-          "the load during the charge (default: the requirement's load where it is constant-current or resistive; a constant-power load needs it given)",
+          "the load during the charge (default: the requirement's load; a constant-power one starts drawing at its minVoltageV)",
       }),
   })
   .meta({

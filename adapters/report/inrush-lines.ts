@@ -19,7 +19,13 @@ export function inrushLines(c: Candidate): string[] {
       const soa = i.soa?.assessed
         ? `; SOA ${num(i.soa.currentA)} A at ${num(i.soa.vdsV)} V for ${num(i.soa.equivalentWidthS)} s against ${num(i.soa.allowedA)} A`
         : "";
-      lines.push(`inrush (${i.drive}): ${r.outcome}: ${body}${soa}`);
+      const pair =
+        i.pairDissipation === undefined
+          ? ""
+          : i.pairDissipation === "input-side-fet"
+            ? "; the whole drop on the pair's input-side FET"
+            : "; each of the pair's channels half the drop";
+      lines.push(`inrush (${i.drive}): ${r.outcome}: ${body}${soa}; input ${num(i.inputV)} V${pair}`);
     }
   }
   const lo = c.loadOvervoltage as LoadOvervoltage | undefined;

@@ -190,7 +190,16 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
       ...(r.battery ? { battery: r.battery } : {}),
       tjMarginK,
       ...(r.turnOff ? { turnOff: reviewTurnOffOf(r.turnOff, nominalV, assumptions) } : {}),
-      ...(r.inrush ? { inrush: reviewInrushOf(r, r.inrush, maxV, assumptions) } : {}),
+      ...(r.inrush
+        ? {
+            inrush: reviewInrushOf(
+              r,
+              r.inrush,
+              { supplyMaxV: maxV, jumpStartV, longTermOvervoltageV, abnormalMaxV },
+              assumptions,
+            ),
+          }
+        : {}),
       ...(r.loadMaxV === undefined ? {} : { loadMaxV: r.loadMaxV }),
     },
   };

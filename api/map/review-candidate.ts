@@ -13,6 +13,7 @@ import {
 } from "./datasheet-max.js";
 import type { MappedRequirement } from "./requirement.js";
 import { inputProblem } from "../input-problem.js";
+import { pairInrushAssumption } from "./inrush-requirement.js";
 import { controllerTimingOf, MISSING_TIMING } from "./reverse-inputs.js";
 import { type TransientThermalInput, transientThermalOf } from "./transient-thermal.js";
 
@@ -57,6 +58,7 @@ export function reviewCandidateInputs(
     [...path, "transientThermal"],
     assumptions,
   );
+  if (stage.model.kind === "nfet-back-to-back" && req.model.inrush) assumptions.push(pairInrushAssumption(path));
   const dmPath = [...path, "datasheetMax"];
   const datasheetMax = c.datasheetMax ? datasheetMaxScale(c.datasheetMax, stage.model, dmPath, assumptions) : undefined;
   const timingPath = c.turnOffTiming ? [...path, "turnOffTiming"] : ["requirement", "turnOff", "timing"];

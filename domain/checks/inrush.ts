@@ -1,3 +1,5 @@
+import { constantPowerCharge } from "./inrush-constant-power.js";
+
 /**
  * Start-up charge of the output capacitance through the stage (inrush), in closed form.
  *
@@ -20,12 +22,16 @@
  *   the whole limit before Vin (IL ≥ Ilim, or Ilim·RL ≤ Vin), the output stalls: it never charges.
  *   The charge is taken as done at Vin (the limit's release just below it is neglected: a longer,
  *   hotter charge).
+ * A constant-power load (a converter's input, drawing P/V above its start voltage) in the slew and
+ * current-limit drives: inrush-constant-power.ts.
  * Checked against these closed forms and ngspice on the same circuits (test/domain/checks/inrush*.test.ts).
  */
 export type InrushLoad =
   | { readonly kind: "none" }
   | { readonly kind: "constant-current"; readonly currentA: number }
-  | { readonly kind: "resistive"; readonly resistanceOhm: number };
+  | { readonly kind: "resistive"; readonly resistanceOhm: number }
+  /** A converter's input: nothing below its start voltage (its undervoltage lockout), P/V above it. */
+  | { readonly kind: "constant-power"; readonly powerW: number; readonly startV: number };
 
 export type InrushDrive =
   | { readonly kind: "uncontrolled"; readonly channelOhm: number; readonly loopOhm: number }
@@ -67,12 +73,22 @@ export type InrushCharge =
       readonly reason: string;
     };
 
-function loadA(load: InrushLoad, v: number): number {
+type SimpleLoad = Exclude<InrushLoad, { readonly kind: "constant-power" }>;
+
+function loadA(load: SimpleLoad, v: number): number {
   if (load.kind === "none") return 0;
   return load.kind === "constant-current" ? load.currentA : v / load.resistanceOhm;
 }
 
 export function inrushCharge(c: InrushCircuit): InrushCharge {
+  if (c.load.kind === "constant-power")
+    return c.load.startV >= c.inputV
+      ? simpleCharge(c, { kind: "none" })
+      : constantPowerCharge(c, c.load.powerW, c.load.startV);
+  return simpleCharge(c, c.load);
+}
+
+function simpleCharge(c: InrushCircuit, load: SimpleLoad): InrushCharge {
   const vin = c.inputV;
   const cap = c.capacitanceF;
   const d = c.drive;
@@ -81,10 +97,10 @@ export function inrushCharge(c: InrushCircuit): InrushCharge {
     const i0 = vin / rt;
     let iss = 0;
     let tau = rt * cap;
-    if (c.load.kind === "constant-current") iss = c.load.currentA;
-    if (c.load.kind === "resistive") {
-      iss = vin / (rt + c.load.resistanceOhm);
-      tau = (cap * rt * c.load.resistanceOhm) / (rt + c.load.resistanceOhm);
+    if (load.kind === "constant-current") iss = load.currentA;
+    if (load.kind === "resistive") {
+      iss = vin / (rt + load.resistanceOhm);
+      tau = (cap * rt * load.resistanceOhm) / (rt + load.resistanceOhm);
     }
     if (iss >= i0) {
       return {
@@ -115,16 +131,16 @@ export function inrushCharge(c: InrushCircuit): InrushCharge {
     const s = d.slewVPerS;
     const t1 = vin / s;
     const outputV = (t: number) => Math.min(vin, s * Math.max(0, t));
-    const currentA = (t: number) => (t < t1 ? cap * s : 0) + loadA(c.load, outputV(t));
+    const currentA = (t: number) => (t < t1 ? cap * s : 0) + loadA(load, outputV(t));
     const powerW = (t: number) => (vin - outputV(t)) * currentA(t);
     let energyJ = 0.5 * cap * vin * vin;
-    if (c.load.kind === "constant-current") energyJ += (c.load.currentA * vin * vin) / (2 * s);
-    if (c.load.kind === "resistive") energyJ += (vin * vin * vin) / (6 * c.load.resistanceOhm * s);
+    if (load.kind === "constant-current") energyJ += (load.currentA * vin * vin) / (2 * s);
+    if (load.kind === "resistive") energyJ += (vin * vin * vin) / (6 * load.resistanceOhm * s);
     // P = (Vin − v)(C·s + v/RL) peaks inside the ramp at v* = (Vin − C·s·RL)/2 where that is above 0.
     let peakPowerW = powerW(0);
     let peakPowerVdsV = vin;
-    if (c.load.kind === "resistive") {
-      const vStar = (vin - cap * s * c.load.resistanceOhm) / 2;
+    if (load.kind === "resistive") {
+      const vStar = (vin - cap * s * load.resistanceOhm) / 2;
       if (vStar > 0 && powerW(vStar / s) > peakPowerW) {
         peakPowerW = powerW(vStar / s);
         peakPowerVdsV = vin - vStar;
@@ -138,15 +154,15 @@ export function inrushCharge(c: InrushCircuit): InrushCharge {
       currentA,
       powerW,
       energyJ,
-      peakCurrentA: cap * s + loadA(c.load, vin),
+      peakCurrentA: cap * s + loadA(load, vin),
       peakPowerW,
       peakPowerVdsV,
     };
   }
   const lim = d.limitA;
-  const atVin = loadA(c.load, vin);
+  const atVin = loadA(load, vin);
   if (atVin >= lim) {
-    const stallV = c.load.kind === "resistive" ? Math.min(vin, lim * c.load.resistanceOhm) : 0;
+    const stallV = load.kind === "resistive" ? Math.min(vin, lim * load.resistanceOhm) : 0;
     return {
       outcome: "stalls",
       stallV,
@@ -157,20 +173,20 @@ export function inrushCharge(c: InrushCircuit): InrushCharge {
   let chargeTimeS: number;
   let outputV: (t: number) => number;
   let energyJ: number;
-  if (c.load.kind === "resistive") {
-    const rl = c.load.resistanceOhm;
+  if (load.kind === "resistive") {
+    const rl = load.resistanceOhm;
     const tau = rl * cap;
     chargeTimeS = -tau * Math.log1p(-vin / (lim * rl));
     outputV = (t) => Math.min(vin, -lim * rl * Math.expm1(-Math.max(0, t) / tau));
     energyJ = lim * (vin * chargeTimeS - lim * rl * chargeTimeS + rl * cap * vin);
   } else {
-    const net = lim - loadA(c.load, 0);
+    const net = lim - loadA(load, 0);
     chargeTimeS = (cap * vin) / net;
     outputV = (t) => Math.min(vin, (net * Math.max(0, t)) / cap);
     energyJ = (lim * vin * chargeTimeS) / 2;
   }
   const tEnd = chargeTimeS;
-  const currentA = (t: number) => (t < tEnd ? lim : loadA(c.load, vin));
+  const currentA = (t: number) => (t < tEnd ? lim : loadA(load, vin));
   return {
     outcome: "charges",
     chargeTimeS,

@@ -199,9 +199,14 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
   // whose corner ran hottest (every supply when none of those corners has a point).
   const sizingStage = cand.datasheetMax ? scaleStage(cand.stage, cand.datasheetMax) : cand.stage;
   // The inrush with the same datasheet-maximum part: a higher Rds(on) takes more of an uncontrolled charge's loss.
-  // An integrated switch charges at its lowest current limit: the longest charge (C·V/(I_lim − I_load)).
+  // An integrated switch charges at its lowest current limit: the longest charge (C·V/(I_lim − I_load)),
+  // from at most its highest cut-off threshold (it is open above it).
   const inrush = req.inrush
-    ? reviewInrush(req.inrush, atLowestCurrentLimit(sizingStage, cand.switchTolerance), cand.transientThermal)
+    ? reviewInrush(
+        req.inrush,
+        atHighestCutoff(atLowestCurrentLimit(sizingStage, cand.switchTolerance), cand.switchTolerance),
+        cand.transientThermal,
+      )
     : undefined;
   const shutdownCycle = reviewShutdownCycle(cand.stage, corners, cand.transientThermal);
   const sizing = reviewThermalSizing(req, cand, corners, sizingStage, fullScale);
@@ -272,7 +277,7 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
 
 /** The supply's highest steady overvoltage (jump start, long-term overvoltage, abnormal limit), V; undefined where it has none. */
 export function steadyOvervoltageV(
-  req: Pick<ReviewRequirement, "jumpStartV" | "longTermOvervoltageV" | "abnormalMaxV">,
+  req: { readonly [K in "jumpStartV" | "longTermOvervoltageV" | "abnormalMaxV"]?: number | undefined },
 ): number | undefined {
   const levels = [req.jumpStartV, req.longTermOvervoltageV, req.abnormalMaxV].filter(
     (v): v is number => v !== undefined,

@@ -41,25 +41,84 @@ const req = {
 };
 
 describe("review: inrush into the output capacitance", () => {
-  it("the switch charges at its 6 A limit beside the 3 A load in C·V/(Ilim − IL), the input defaulting to the highest steady supply", async () => {
+  it("the switch charges at its 6 A limit beside the 3 A load in C·V/(Ilim − IL), switched on at the 24 V jump start by default", async () => {
     const out = await call({
-      requirement: { ...req, inrush: { outputCapacitanceF: "470 uF" } },
+      requirement: { ...req, inrush: { outputCapacitanceF: "220 uF" } },
       candidates: [{ ...demoSwitch, transientThermal: zth }],
     });
     const c = out.candidates[0];
     expect(c?.inrush?.drive).toBe("current-limit");
-    // vehicle-12v-b's highest steady supply 16 V: 470 uF·16 V / 3 A = 2.507 ms; energy 6 A·16 V·T/2.
-    const t = (470e-6 * 16) / 3;
+    // vehicle-12v-b: steady to 16 V, jump start 24 V, long-term 18 V: 470 uF·24 V / 3 A = 3.76 ms; energy 6 A·24 V·T/2.
+    const t = (220e-6 * 24) / 3;
     expect(c?.inrush?.result?.["chargeTimeS"]).toBeCloseTo(t, 12);
-    expect(c?.inrush?.result?.["energyJ"]).toBeCloseTo((6 * 16 * t) / 2, 12);
+    expect(c?.inrush?.result?.["energyJ"]).toBeCloseTo((6 * 24 * t) / 2, 12);
+    expect(c?.inrush?.result?.["peakPowerW"]).toBeCloseTo(6 * 24, 12);
     expect(c?.metrics["inrushCharges"]).toBe(true);
     expect(c?.metrics["inrushTjC"]).toBeGreaterThan(85);
     expect(verdictOf(c, "inrush-tj")?.outcome).toBe("pass");
-    expect(out.assumptions.some((a) => a.startsWith("inrush.inputV: the highest steady supply 16 V"))).toBe(true);
+    expect(
+      out.assumptions.some((a) =>
+        a.startsWith(
+          "inrush.inputV: the jump start 24 V, the highest level the stage can be switched on at (default; of steady 16 V, jump start 24 V, long-term overvoltage 18 V)",
+        ),
+      ),
+    ).toBe(true);
     expect(out.assumptions.some((a) => a.startsWith("inrush.load: the requirement's load"))).toBe(true);
   });
 
-  it("leaves the pulse's Tj open without a transient thermal network, and a constant-power load's charge open without inrush.load", async () => {
+  it("the default input is the highest level of the class: the telecom abnormal limit, a custom supply's maximum", async () => {
+    const telecom = await call({
+      requirement: {
+        ...req,
+        supply: { class: "telecom-48v" },
+        transients: [],
+        inrush: { outputCapacitanceF: "100 uF", slewVPerS: "1000 V/s", load: { kind: "none" } },
+      },
+      candidates: [{ stage: { kind: "catalog-part", partId: "demo-ideal-diode-60v-3mohm" } }],
+    });
+    expect(telecom.assumptions.some((a) => a.startsWith("inrush.inputV: the abnormal service limit 60 V"))).toBe(true);
+    // Slew into a bare capacitor: the pass element loses what the capacitor stores, ½·C·V² at 60 V = 0.18 J.
+    expect(telecom.candidates[0]?.inrush?.result?.["energyJ"]).toBeCloseTo(0.5 * 100e-6 * 60 ** 2, 12);
+    const custom = await call({
+      requirement: {
+        ...req,
+        supply: { class: "custom", minV: 10, nominalV: 12, maxV: 14 },
+        reverse: { voltageV: 14, durationS: 60 },
+        transients: [],
+        inrush: { outputCapacitanceF: "470 uF" },
+      },
+      candidates: [{ ...demoSwitch, transientThermal: zth }],
+    });
+    expect(custom.assumptions).toContain(
+      "inrush.inputV: the highest steady supply 14 V (default; the supply has no higher steady level)",
+    );
+    expect(custom.candidates[0]?.inrush?.result?.["chargeTimeS"]).toBeCloseTo((470e-6 * 14) / 3, 12);
+  });
+
+  it("an integrated switch open above its cut-off switches on at most there: the 24 V class's 36 V jump start charges at 33 V", async () => {
+    const on24 = {
+      ...req,
+      supply: { class: "vehicle-24v-f" },
+      transients: [],
+      inrush: { outputCapacitanceF: "100 uF" },
+    };
+    const typical = await call({ requirement: on24, candidates: [{ ...demoSwitch, transientThermal: zth }] });
+    expect(typical.assumptions.some((a) => a.startsWith("inrush.inputV: the jump start 36 V"))).toBe(true);
+    // The demo switch's cut-off is 33 V: C·V/(Ilim − IL) = 100 uF·33 V/(6 A − 3 A) = 1.1 ms, peak 6 A·33 V.
+    const i = typical.candidates[0]?.inrush as { inputV?: number; result?: Record<string, number> } | undefined;
+    expect(i?.inputV).toBe(33);
+    expect(i?.result?.["chargeTimeS"]).toBeCloseTo((100e-6 * 33) / 3, 12);
+    expect(i?.result?.["peakPowerW"]).toBeCloseTo(6 * 33, 12);
+    // At its datasheet's highest threshold, 34 V.
+    const dm = { rdsOnFactor: 1, forwardVoltageFactor: 1, overvoltageCutoffMaxV: 34 };
+    const high = await call({
+      requirement: on24,
+      candidates: [{ ...demoSwitch, transientThermal: zth, datasheetMax: dm }],
+    });
+    expect((high.candidates[0]?.inrush as { inputV?: number } | undefined)?.inputV).toBe(34);
+  });
+
+  it("leaves the pulse's Tj open without a transient thermal network; a constant-power load draws P/V from its minVoltageV", async () => {
     const noZth = await call({
       requirement: { ...req, inrush: { outputCapacitanceF: "470 uF" } },
       candidates: [demoSwitch],
@@ -78,8 +137,16 @@ describe("review: inrush into the output capacitance", () => {
       },
       candidates: [{ ...demoSwitch, transientThermal: zth }],
     });
-    expect(cp.candidates[0]?.inrush).toMatchObject({ assessed: false, scope: "gap" });
-    expect(verdictOf(cp.candidates[0], "inrush-tj")?.notApplicableCode).toBe("missing-value");
+    // 6 A limit, 20 W from 8 V, to the 24 V jump start: C·Vs/I + (C/I)·[(Vin − Vs) + (P/I)·ln((I·Vin − P)/(I·Vs − P))].
+    const [C, I, P, VS, V] = [470e-6, 6, 20, 8, 24];
+    const t = (C * VS) / I + (C / I) * (V - VS + (P / I) * Math.log((I * V - P) / (I * VS - P)));
+    expect(cp.candidates[0]?.inrush).toMatchObject({ assessed: true, drive: "current-limit" });
+    expect(cp.candidates[0]?.inrush?.result?.["chargeTimeS"]).toBeCloseTo(t, 12);
+    expect(
+      cp.assumptions.some((a) =>
+        a.startsWith("inrush.load: the requirement's 20 W converter draws P/V from its minVoltageV 8 V"),
+      ),
+    ).toBe(true);
   });
 
   it("without requirement.inrush or loadMaxV the new rules are not required", async () => {
@@ -131,5 +198,29 @@ describe("review: the inrush pulse against the MOSFET's SOA lines", () => {
     expect(c?.metrics["inrushSoaCurrentA"]).toBeCloseTo(2.2, 9);
     expect(c?.metrics["inrushSoaAllowedA"]).toBeCloseTo(allowed, 9);
     expect(allowed).toBeCloseTo(2.08, 2);
+  });
+
+  it("at the jump start (no inputV): ½·C·V² at 24 V in the pass element, uncontrolled or slewed, the SOA read at Vds 24 V", async () => {
+    const at = async (id: string) => {
+      const d = KNOWN_BAD.find((x) => x.id === id);
+      if (d === undefined) throw new Error("design missing");
+      const input = structuredClone(d.bad) as { requirement: { inrush: Record<string, unknown> } };
+      delete input.requirement.inrush["inputV"];
+      return (await call(input)).candidates[0];
+    };
+    // Conservation of energy: a capacitor charged from 0 V through a resistance (here the channel alone:
+    // no source or loop resistance) or at a constant current loses ½·C·V² = ½·2200 uF·(24 V)² = 0.6336 J.
+    const full = await at("inrush-uncontrolled-into-2200uF");
+    expect(full?.inrush?.drive).toBe("uncontrolled");
+    expect(full?.inrush?.result?.["energyJ"]).toBeCloseTo(0.5 * 2200e-6 * 24 ** 2, 12);
+    const slew = await at("inrush-slew-outside-soa");
+    expect(slew?.inrush?.result?.["energyJ"]).toBeCloseTo(0.5 * 2200e-6 * 24 ** 2, 12);
+    expect(slew?.inrush?.result?.["peakPowerW"]).toBeCloseTo(2200e-6 * 1000 * 24, 12);
+    const soa = (slew?.inrush as { soa?: { vdsV: number; currentA: number; equivalentWidthS: number } } | undefined)
+      ?.soa;
+    expect(soa?.vdsV).toBe(24);
+    expect(soa?.currentA).toBeCloseTo(2.2, 12);
+    // E/Ppeak = (½·C·V²)/(C·s·V) = V/(2·s) = 12 ms.
+    expect(soa?.equivalentWidthS).toBeCloseTo(24 / 2000, 12);
   });
 });

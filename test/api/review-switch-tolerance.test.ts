@@ -35,16 +35,16 @@ const req = {
 };
 
 describe("review: an integrated switch's current limit and cut-off at their datasheet extremes", () => {
-  it("charges at the lowest limit: 470 uF·16 V / (5 A − 3 A) = 3.76 ms, and the limit rule reads 5 A", async () => {
+  it("charges at the lowest limit: 470 uF·24 V (the jump start) / (5 A − 3 A) = 5.64 ms, and the limit rule reads 5 A", async () => {
     const out = await call({
       requirement: { ...req, inrush: { outputCapacitanceF: "470 uF" } },
       candidates: [{ stage: demoSwitch, datasheetMax: dm({ currentLimitMinA: 5 }) }],
     });
     const c = out.candidates[0];
     expect(c?.inrush?.drive).toBe("current-limit");
-    const t = (470e-6 * 16) / (5 - 3);
+    const t = (470e-6 * 24) / (5 - 3);
     expect(c?.inrush?.result?.["chargeTimeS"]).toBeCloseTo(t, 12);
-    expect(c?.inrush?.result?.["energyJ"]).toBeCloseTo((5 * 16 * t) / 2, 12);
+    expect(c?.inrush?.result?.["energyJ"]).toBeCloseTo((5 * 24 * t) / 2, 12);
     expect(c?.metrics["switchCurrentLimitA"]).toBe(5);
     expect(out.assumptions.some((a) => a.includes("currentLimitMinA"))).toBe(false);
   });

@@ -188,6 +188,15 @@ const fetZth: Obj = {
     { rKPerW: 40.5, tauS: 10 },
   ],
 };
+/** The pair's: summing to its 40 K/W path, taken as the input-side FET's own network during the inrush. */
+const pairZth: Obj = {
+  kind: "foster",
+  terms: [
+    { rKPerW: 0.5, tauS: 1e-3 },
+    { rKPerW: 4, tauS: 0.05 },
+    { rKPerW: 35.5, tauS: 10 },
+  ],
+};
 const switchZth: Obj = {
   kind: "foster",
   terms: [
@@ -853,12 +862,15 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     procedure: "review",
     rule: "inrush-tj",
     bad: reviewZth(
-      { ...req12, inrush: { outputCapacitanceF: "2200 uF", load: { kind: "none" } } },
+      { ...req12, inrush: { outputCapacitanceF: "2200 uF", inputV: "16 V", load: { kind: "none" } } },
       idealDiode(),
       fetZth,
     ),
     twin: reviewZth(
-      { ...req12, inrush: { outputCapacitanceF: "2200 uF", slewVPerS: "1000 V/s", load: { kind: "none" } } },
+      {
+        ...req12,
+        inrush: { outputCapacitanceF: "2200 uF", inputV: "16 V", slewVPerS: "1000 V/s", load: { kind: "none" } },
+      },
       idealDiode(),
       fetZth,
     ),
@@ -870,12 +882,18 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     procedure: "review",
     rule: "inrush-soa",
     bad: reviewZth(
-      { ...req12, inrush: { outputCapacitanceF: "2200 uF", slewVPerS: "1000 V/s", load: { kind: "none" } } },
+      {
+        ...req12,
+        inrush: { outputCapacitanceF: "2200 uF", inputV: "16 V", slewVPerS: "1000 V/s", load: { kind: "none" } },
+      },
       idealDiode({ soa: soaLines }),
       fetZth,
     ),
     twin: reviewZth(
-      { ...req12, inrush: { outputCapacitanceF: "2200 uF", slewVPerS: "500 V/s", load: { kind: "none" } } },
+      {
+        ...req12,
+        inrush: { outputCapacitanceF: "2200 uF", inputV: "16 V", slewVPerS: "500 V/s", load: { kind: "none" } },
+      },
       idealDiode({ soa: soaLines }),
       fetZth,
     ),
@@ -887,14 +905,73 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     procedure: "review",
     rule: "inrush-completes",
     bad: reviewZth(
-      { ...req12, inrush: { outputCapacitanceF: "4700 uF" } },
+      { ...req12, inrush: { outputCapacitanceF: "4700 uF", inputV: "16 V" } },
       integratedSwitch({ thermalShutdownC: 160 }),
       switchZth,
     ),
     twin: reviewZth(
+      { ...req12, inrush: { outputCapacitanceF: "470 uF", inputV: "16 V" } },
+      integratedSwitch({ thermalShutdownC: 160 }),
+      switchZth,
+    ),
+  },
+  {
+    id: "inrush-at-jump-start-thermal-shutdown",
+    hazard: "start-up",
+    why: "the same 6 A switch (160 °C shutdown) and 470 uF beside a 3 A load that completes at the steady 16 V, switched on at the 12 V system's 24 V jump start (the inrush's default input): C·V/(Ilim − IL) = 3.76 ms at up to 144 W, and it shuts down after about 0.95 ms (twin: 150 uF, 1.2 ms, Tj 134 °C)",
+    procedure: "review",
+    rule: "inrush-completes",
+    bad: reviewZth(
       { ...req12, inrush: { outputCapacitanceF: "470 uF" } },
       integratedSwitch({ thermalShutdownC: 160 }),
       switchZth,
+    ),
+    twin: reviewZth(
+      { ...req12, inrush: { outputCapacitanceF: "150 uF" } },
+      integratedSwitch({ thermalShutdownC: 160 }),
+      switchZth,
+    ),
+  },
+  {
+    id: "inrush-converter-stalls-at-its-start",
+    hazard: "start-up",
+    why: "a 4.5 A current-limited switch ahead of a 30 W converter that starts at 6 V: its steady draw (30 W/8 V = 3.75 A at the class minimum) is within the limit, but at its start the converter takes 30 W/6 V = 5 A, more than the limit (4.5 A·6 V = 27 W), so the output falls back below its start each time and cycles at the converter's lockout, never reaching 24 V (twin: a 6 A limit, 36 W at 6 V: charges in 0.97 ms)",
+    procedure: "review",
+    rule: "inrush-completes",
+    bad: reviewZth(
+      {
+        ...req12,
+        load: { kind: "constant-power", powerW: 30, minVoltageV: 6 },
+        inrush: { outputCapacitanceF: "150 uF" },
+      },
+      integratedSwitch({ currentLimitA: 4.5 }),
+      switchZth,
+    ),
+    twin: reviewZth(
+      {
+        ...req12,
+        load: { kind: "constant-power", powerW: 30, minVoltageV: 6 },
+        inrush: { outputCapacitanceF: "150 uF" },
+      },
+      integratedSwitch({ currentLimitA: 6 }),
+      switchZth,
+    ),
+  },
+  {
+    id: "inrush-pair-limit-outside-soa",
+    hazard: "start-up",
+    why: "a back-to-back pair behind a hot-swap controller's 2 A limit charging 1 mF to the 24 V jump start: the shared gate leaves the input-side FET in its linear region holding the whole 24 V at 2 A for a 6 ms equivalent pulse (the output-side FET conducts across its body diode), where its SOA lines allow 1.44 A from 85 °C; read at half the drop each (12 V) it would seem to pass at 3.4 A (twin: a 0.5 A limit, 24 ms against 0.78 A)",
+    procedure: "review",
+    rule: "inrush-soa",
+    bad: reviewZth(
+      { ...req12, inrush: { outputCapacitanceF: "1 mF", currentLimitA: 2, load: { kind: "none" } } },
+      backToBack({ soa: soaLines }),
+      pairZth,
+    ),
+    twin: reviewZth(
+      { ...req12, inrush: { outputCapacitanceF: "1 mF", currentLimitA: 0.5, load: { kind: "none" } } },
+      backToBack({ soa: soaLines }),
+      pairZth,
     ),
   },
   {

@@ -80,6 +80,21 @@ const REVIEWS: readonly { readonly id: string; readonly rule: string; readonly i
     input: design("inrush-current-limit-thermal-shutdown"),
   },
   {
+    id: "switch-shuts-down-charging-470uF-at-the-24v-jump-start",
+    rule: "inrush-completes",
+    input: design("inrush-at-jump-start-thermal-shutdown"),
+  },
+  {
+    id: "switch-4.5a-limit-ahead-of-30w-converter-starting-at-6v",
+    rule: "inrush-completes",
+    input: design("inrush-converter-stalls-at-its-start"),
+  },
+  {
+    id: "back-to-back-pair-at-2a-limit-outside-soa-at-24v",
+    rule: "inrush-soa",
+    input: design("inrush-pair-limit-outside-soa"),
+  },
+  {
     id: "switch-cut-off-15v-inside-16v-supply",
     rule: "switch-cutoff-above-supply",
     input: design("switch-cutoff-inside-supply-range"),

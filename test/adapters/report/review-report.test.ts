@@ -218,6 +218,11 @@ describe("design-review report", () => {
       `inrush (${i.drive}): ${i.result.outcome}: charge ${Number(i.result.chargeTimeS.toPrecision(4))} s`,
     );
     expect(md).toContain("overvoltage cut-off at 33 V");
+    // The example's vehicle-12v-b charges at its 24 V jump start (the inrush's default input).
+    expect(md).toMatch(/inrush \(current-limit\): [^\n]*; input 24 V/);
+    const pair = result.candidates.find((c) => c.stage.partId === "demo-back-to-back-40v-2x5mohm");
+    expect(pair?.inrush).toMatchObject({ drive: "uncontrolled", pairDissipation: "both-channels" });
+    expect(md).toContain("each of the pair's channels half the drop");
   });
 
   it("shows the Monte Carlo spread exactly as the result states it", () => {

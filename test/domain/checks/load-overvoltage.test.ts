@@ -93,6 +93,11 @@ describe("the review's inrush drive per stage (review-inrush.ts)", () => {
     expect(reviewInrush({ ...inrush, slewVPerS: 1000 }, { ...sw, currentLimitA: 5 }, quasi)).toMatchObject({
       drive: "slew",
     });
+    // A controller's limit beside the switch's: the lower holds, C·V/(I − IL) = 1 mF·12 V/(4 A − 2 A) = 6 ms.
+    const lower = reviewInrush({ ...inrush, controllerLimitA: 4 }, { ...sw, currentLimitA: 5 }, quasi);
+    expect(lower.assessed && lower.result.outcome === "charged" && lower.result.chargeTimeS).toBeCloseTo(6e-3, 12);
+    const higher = reviewInrush({ ...inrush, controllerLimitA: 8 }, { ...sw, currentLimitA: 5 }, quasi);
+    expect(higher.assessed && higher.result.outcome === "charged" && higher.result.chargeTimeS).toBeCloseTo(4e-3, 12);
     // 1 mF·4000 V/s + 2 A = 6 A > 5 A: the limit governs.
     expect(reviewInrush({ ...inrush, slewVPerS: 4000 }, { ...sw, currentLimitA: 5 }, quasi)).toMatchObject({
       drive: "current-limit",
@@ -126,7 +131,13 @@ describe("the review's inrush drive per stage (review-inrush.ts)", () => {
       quasi,
     );
     expect(diode).toMatchObject({ assessed: false, scope: "out" });
-    const gap = reviewInrush({ ...inrush, load: { unmodelled: "constant power" } }, sw, quasi);
-    expect(gap).toMatchObject({ assessed: false, scope: "gap" });
+    // A converter's P/V under a slew from a 0 V start: not modelled (unbounded); fully on at once it is.
+    const cp = { kind: "constant-power", powerW: 20, startV: 8 } as const;
+    expect(reviewInrush({ ...inrush, load: cp }, sw, quasi)).toMatchObject({ assessed: true, drive: "uncontrolled" });
+    const from0 = { ...inrush, load: { ...cp, startV: 0 }, slewVPerS: 1000 };
+    expect(reviewInrush(from0, sw, quasi)).toMatchObject({ assessed: false, scope: "gap" });
+    // Behind a 5 A limit the slew cannot be held from 0 V: the limit governs, and the output stalls at 0 V.
+    const limited = reviewInrush(from0, { ...sw, currentLimitA: 5 }, quasi);
+    expect(limited).toMatchObject({ assessed: true, drive: "current-limit", result: { outcome: "does-not-charge" } });
   });
 });
