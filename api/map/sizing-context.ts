@@ -1,5 +1,7 @@
 import type { Requirement } from "../../contracts/requirement.js";
 import type { StageSpec } from "../../contracts/stage.js";
+import { inputFallIssues } from "../../contracts/turn-off.js";
+import { inputProblem } from "../input-problem.js";
 import { reviewCandidate } from "../../domain/review/candidate-review.js";
 import type { CompiledRuleSet } from "../../domain/rules/compile-rule-set.js";
 import type { SizingContext, TurnOffSizing } from "../../domain/sizing/assessment.js";
@@ -100,6 +102,12 @@ function turnOffSizing(
   path: (string | number)[],
   assumptions: string[],
 ): TurnOffSizing | string {
+  const outputV = t.outputV ?? req.model.supplyNominalV;
+  const [fall] = inputFallIssues(
+    { outputV, inputAfterV: t.inputAfterV ?? 0 },
+    t.outputV === undefined ? "the nominal supply" : "turnOff.outputV",
+  );
+  if (fall !== undefined) throw inputProblem("invalid-input", ["turnOff", ...fall.path], fall.message);
   const spec = stage.spec;
   const own = "controller" in spec ? spec.controller : undefined;
   // The event at the datasheet-minimum gate threshold, as the review takes it (thresholdMinShiftV).
@@ -120,7 +128,7 @@ function turnOffSizing(
     loopInductanceH: t.loop.inductanceH,
     capacitanceF: t.capacitor.capacitanceF,
     esrOhm: t.capacitor.esrOhm,
-    outputV: t.outputV ?? req.model.supplyNominalV,
+    outputV,
     inputAfterV: t.inputAfterV ?? 0,
     loadMinV: req.model.loadMinV ?? 0,
     tjC: t.tjC ?? r.ambient.maxC,
