@@ -2,11 +2,19 @@ import { initTRPC } from "@trpc/server";
 import { ZodError, type z } from "zod";
 import type { Context } from "./context.js";
 import type { ProcedureDefinition } from "./define-procedure.js";
+import { edgeBodyOf } from "./edge-refusal.js";
 import { errorBodyOf, UNPROCESSABLE_CODES } from "./error-body.js";
 import { runProcedure } from "./procedure-registry.js";
 
 const t = initTRPC.context<Context>().create({
   errorFormatter({ shape, error }) {
+    // a request the HTTP edge refused (no API key, a body too large) keeps the edge's code
+    const edge = edgeBodyOf(error);
+    if (edge !== undefined)
+      return {
+        ...shape,
+        data: { code: shape.data.code, httpStatus: shape.data.httpStatus, path: shape.data.path, backstop: edge },
+      };
     const backstop = errorBodyOf(error);
     // an internal error's own message may hold internals: the client gets the generic one
     // and a zod error's is all its issues as JSON (unbounded): the client gets the capped body's

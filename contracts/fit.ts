@@ -117,9 +117,12 @@ export const fitOutput = z.object({
     withinBound: z.boolean(),
     converged: z.boolean().meta({
       description:
-        "false: the solver stopped at its iteration cap before converging (such a fit is refused unless acceptFit)",
+        "true only when the solver's convergence test passed; false: it stopped at its iteration cap or stalled before (such a fit is refused unless acceptFit)",
     }),
     iterations: z.number().int().meta({ description: "iterations the solver took" }),
+    stopReason: z.string().optional().meta({
+      description: "why the solver stopped before converging: its cap, or a stall and where (absent when converged)",
+    }),
   }),
   residuals: z
     .array(z.object({ point: z.number().int(), measured: z.number(), modelled: z.number(), residual: z.number() }))

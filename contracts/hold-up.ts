@@ -5,7 +5,7 @@ import { metricRecord, ruleSetResultSchema } from "./rule-set.js";
 import { ruleSetRef } from "./rules.js";
 import { quantity, temperatureC } from "./quantity.js";
 import { stageInput } from "./stage.js";
-import { fallingInputFields, holdUpCapacitor } from "./turn-off.js";
+import { fallingInputFields, holdUpCapacitor, refineInputFalls } from "./turn-off.js";
 
 const { stage: _s, outputV: _o, capacitor: _c, load: _l, loadMinV: _m, tjC: _t, ...fallFields } = fallingInputFields;
 
@@ -48,12 +48,7 @@ export const holdUpInput = z
     }),
   })
   .superRefine((v, ctx) => {
-    if (v.input.kind === "falls" && v.input.inputDecay !== undefined && !(v.input.inputDecay.startV < v.outputV))
-      ctx.addIssue({
-        code: "custom",
-        path: ["input", "inputDecay", "startV"],
-        message: "must be below outputV: the input falls at t = 0 (give the level it jumps to, then decays from)",
-      });
+    if (v.input.kind === "falls") refineInputFalls({ ...v.input, outputV: v.outputV }, ctx, ["input"]);
   })
   .meta({ description: "time the output stays above the load's minimum after the input is lost, per stage" });
 export type HoldUpInput = z.input<typeof holdUpInput>;

@@ -10,6 +10,7 @@ import {
   inputDecayField,
   loadReverseLimitField,
   pfetGateLag,
+  refineInputFalls,
   repetitiveEvent,
   reverseLoop,
   reverseRecoveryChargeField,
@@ -293,12 +294,13 @@ export const requirement = z
       });
     }
     const t = r.turnOff;
-    if (t?.outputV !== undefined && t.inputAfterV !== undefined && !(t.inputAfterV < t.outputV))
-      ctx.addIssue({
-        code: "custom",
-        path: ["turnOff", "inputAfterV"],
-        message: "must be below turnOff.outputV: the input falls at t = 0",
-      });
+    if (t?.outputV !== undefined)
+      refineInputFalls(
+        { ...t, outputV: t.outputV, inputAfterV: t.inputAfterV ?? 0 },
+        ctx,
+        ["turnOff"],
+        "turnOff.outputV",
+      );
     const c = r.inputClamp;
     if (c && c.clampV <= c.standoffV)
       ctx.addIssue({ code: "custom", path: ["inputClamp", "clampV"], message: "must be above standoffV" });

@@ -129,6 +129,19 @@ export const candidateResult = z.object({
     dropV: worstOf.optional(),
     loadMinV: worstOf.optional(),
     unsolvedCorners: z.array(z.number().int()),
+    cornersWithoutOperatingPoint: z
+      .array(
+        z.object({
+          corner: z.number().int().meta({ description: "index into corners" }),
+          name: z.string().meta({ description: "the corner's supply, ambient, load and tolerance in words" }),
+          outcome: z.string(),
+          reason: z.string(),
+        }),
+      )
+      .meta({
+        description:
+          "each corner without an operating point and why (the rule corner-solves fails on them; the corner rules cannot be read there)",
+      }),
   }),
   corners: z.array(cornerRow),
   startUp: reviewStartUp,

@@ -105,6 +105,50 @@ export const loadReverseLimitField = quantity(
   { ge: 0, le: 10_000 },
 ).optional();
 
+/** One refusal of a falling input: the path below the event's own fields, and the message. */
+export interface InputFallIssue {
+  readonly path: readonly string[];
+  readonly message: string;
+}
+
+/**
+ * The one check that the input falls at t = 0 (turnOff, holdUp, the review's turnOff event): the level it
+ * steps to (`inputAfterV`) and a decay's start (`inputDecay.startV`) must lie below the output voltage before
+ * the event. `outputName` is the field the caller gave that voltage in (or where its default came from).
+ */
+export function inputFallIssues(
+  v: {
+    readonly outputV: number;
+    readonly inputAfterV: number;
+    readonly inputDecay?: { readonly startV: number } | undefined;
+  },
+  outputName = "outputV",
+): InputFallIssue[] {
+  const issues: InputFallIssue[] = [];
+  if (!(v.inputAfterV < v.outputV))
+    issues.push({
+      path: ["inputAfterV"],
+      message: `must be below the output voltage before the event, ${outputName} (${v.outputV} V): the input falls at t = 0`,
+    });
+  if (v.inputDecay !== undefined && !(v.inputDecay.startV < v.outputV))
+    issues.push({
+      path: ["inputDecay", "startV"],
+      message: `must be below the output voltage before the event, ${outputName} (${v.outputV} V): the input falls at t = 0 (give the level it jumps to, then decays from)`,
+    });
+  return issues;
+}
+
+/** `inputFallIssues` as issues of a zod refinement, under `at`. */
+export function refineInputFalls(
+  v: Parameters<typeof inputFallIssues>[0],
+  ctx: z.RefinementCtx,
+  at: readonly string[] = [],
+  outputName = "outputV",
+): void {
+  for (const issue of inputFallIssues(v, outputName))
+    ctx.addIssue({ code: "custom", path: [...at, ...issue.path], message: issue.message });
+}
+
 export const fallingInputFields = {
   stage: stageInput,
   outputV: quantity("V", "output voltage before the event (steady state)", { gt: 0, le: 10_000 }),
@@ -147,20 +191,7 @@ export const turnOffInput = z
         "also return the event as time samples (loop current, output and capacitor voltage), for charts (default false)",
     }),
   })
-  .superRefine((v, ctx) => {
-    if (!(v.inputAfterV < v.outputV))
-      ctx.addIssue({
-        code: "custom",
-        path: ["inputAfterV"],
-        message: "must be below outputV: the input falls at t = 0",
-      });
-    if (v.inputDecay !== undefined && !(v.inputDecay.startV < v.outputV))
-      ctx.addIssue({
-        code: "custom",
-        path: ["inputDecay", "startV"],
-        message: "must be below outputV: the input falls at t = 0 (give the level it jumps to, then decays from)",
-      });
-  })
+  .superRefine((v, ctx) => refineInputFalls(v, ctx))
   .meta({ description: "reverse current when the input falls: peak current, charge lost, turn-off energy" });
 export type TurnOffInput = z.input<typeof turnOffInput>;
 

@@ -48,6 +48,7 @@ export function metricsMarkdown(): string {
 
 /** The hazard each built-in rule assesses; a rule missing here makes the generator (and so the docs test) fail. */
 const RULE_HAZARDS: Readonly<Record<string, string>> = {
+  "corner-solves": "operating point (the stage carries the load)",
   "tj-limit": "thermal (forward)",
   "tj-margin": "thermal (forward)",
   "loss-budget": "thermal (forward)",

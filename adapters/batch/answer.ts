@@ -26,10 +26,11 @@ export interface RecordChunk {
   readonly answered?: readonly BatchOutputLine[] | undefined;
 }
 
-/** How every chunk of a run is answered: the output format, the procedure (CSV columns), the shard and the reports. */
+/** How every chunk of a run is answered: the output format, the procedures of its CSV columns, the shard and the reports. */
 export interface ChunkOptions {
   readonly outFormat: Format;
-  readonly procedure?: string | undefined;
+  /** the procedures whose result columns a CSV output holds (formats.ts `resultColumns`; absent: every procedure's) */
+  readonly columnsOf?: readonly string[] | undefined;
   readonly shard?: Shard | undefined;
   /**
    * Procedures whose answered rows are drawn as reports, each with the input flag that asks it for

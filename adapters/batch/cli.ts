@@ -13,6 +13,7 @@ import { recordKeyFromEnv, recordSignerOf } from "../record/signing-key.js";
 import { buildVersion } from "../../api/record/build-version.js";
 import { formatOf } from "./formats.js";
 import { mergeShards } from "./merge.js";
+import { proceduresNamedIn } from "./output-procedures.js";
 import type { BatchCounts } from "./line.js";
 import { REPORT_RENDERERS } from "../report/report-body.js";
 import { reportFailed, reportNamer, writeBridgeAcReport, writeReviewReport } from "../report/write-report.js";
@@ -118,6 +119,9 @@ async function batch(rest: string[]): Promise<number> {
     process.stderr.write(
       `backstop batch: rule set file ${r.file} refused: ${r.problems.map((p) => p.message).join("; ")}\n`,
     );
+  // a CSV output's header holds the result columns of the procedures the input names
+  const outputProcedures =
+    outFormat === "csv" && values.procedure === undefined ? await proceduresNamedIn(values.in, inFormat) : undefined;
   const input = createReadStream(values.in);
   const curveFolder = dirname(resolve(values.in));
   await new Promise<void>((resolve, reject) => {
@@ -167,6 +171,7 @@ async function batch(rest: string[]): Promise<number> {
           write,
           ctx: { catalog, ruleSets, recordSigner },
           procedure: values.procedure,
+          outputProcedures,
           shard,
           curveFolder,
           pool,

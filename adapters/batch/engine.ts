@@ -34,6 +34,11 @@ export interface StreamBatchOptions {
   readonly write: (chunk: string | Uint8Array) => Promise<void>;
   readonly ctx: Context;
   readonly procedure?: string | undefined;
+  /**
+   * Without `procedure`: the procedures the input names (output-procedures.ts), whose result columns a
+   * CSV output's header holds (absent: every procedure's)
+   */
+  readonly outputProcedures?: readonly string[] | undefined;
   readonly shard?: Shard | undefined;
   readonly pool?: ComputePool | undefined;
   readonly onProgress?: (counts: BatchCounts) => void;
@@ -77,11 +82,12 @@ interface Slot {
  */
 export async function streamBatch(o: StreamBatchOptions): Promise<BatchCounts> {
   const counts: BatchCounts = { lines: 0, ok: 0, failed: 0, blank: 0 };
-  const fmt = outputFormatter(o.outFormat, o.procedure);
+  const columnsOf = o.procedure === undefined ? o.outputProcedures : [o.procedure];
+  const fmt = outputFormatter(o.outFormat, columnsOf);
   if (fmt.header) await o.write(fmt.header);
   const options: ChunkOptions = {
     outFormat: o.outFormat,
-    procedure: o.procedure,
+    columnsOf,
     shard: o.shard,
     reportFlags: o.reports?.flags,
   };

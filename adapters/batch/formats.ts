@@ -189,11 +189,14 @@ function leaves(schema: Json, prefix: string, out: string[]): void {
 
 export const BASE_COLUMNS = ["line", "id", "ok", "error.code", "error.message", "error.issues"] as const;
 
-/** CSV result columns, derived from the output contracts of the procedure (or of all procedures). */
-export function resultColumns(procedure: string | undefined): string[] {
+/**
+ * CSV result columns, derived from the output contracts of the procedures given (in the procedure
+ * table's order, whatever the order given; undefined: of every procedure).
+ */
+export function resultColumns(procedures: readonly string[] | undefined): string[] {
   const out: string[] = [];
   for (const e of procedureEntries()) {
-    if (procedure !== undefined && e.path !== procedure) continue;
+    if (procedures !== undefined && !procedures.includes(e.path)) continue;
     if (e.output === undefined) {
       if (!out.includes("result")) out.push("result");
       continue;
@@ -215,13 +218,13 @@ function at(obj: unknown, dotted: string): unknown {
 const cell = (v: unknown): string =>
   v === undefined || v === null ? "" : typeof v === "object" ? JSON.stringify(v) : String(v);
 
-/** The output writer of a batch run: JSON Lines, or CSV with a header derived from the contracts. */
+/** The output writer of a batch run: JSON Lines, or CSV with a header derived from the contracts of `procedures`. */
 export function outputFormatter(
   format: Format,
-  procedure: string | undefined,
+  procedures: readonly string[] | undefined,
 ): { header: string; line: (o: BatchOutputLine) => string } {
   if (format === "jsonl") return { header: "", line: (o) => `${JSON.stringify(o)}\n` };
-  const cols = resultColumns(procedure);
+  const cols = resultColumns(procedures);
   const header = stringify([[...BASE_COLUMNS, ...cols]]);
   return {
     header,

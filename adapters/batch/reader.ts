@@ -2,13 +2,14 @@ import type { Readable } from "node:stream";
 import { parse } from "csv-parse";
 import { resolveCurveFiles } from "../curves/curve-files.js";
 import { inShard, type RecordChunk, type Shard } from "./answer.js";
+import { csvPlaceText, csvRowCounter } from "./csv-rows.js";
 import { csvHeaderProblem, csvRowToLine, type Format } from "./formats.js";
 import { type JsonlChunk, jsonlChunks, linesOf } from "./jsonl-chunk.js";
 import { type BatchOutputLine, overlongLine } from "./line.js";
 
 /**
  * The batch's one reader: the input (JSON Lines or CSV) as chunks of whole records of at least
- * `targetBytes` each, numbered by their line in the input (a CSV row by its row after the header),
+ * `targetBytes` each, numbered by their line in the input (a CSV row by its row after the header, csv-rows.ts),
  * so shards and merges agree on them. Only the bytes are looked at for JSON Lines: decoding,
  * parsing and answering happen where the chunk is answered (answer.ts); but with `curveFolder`
  * (the input file's folder), a line that may reference a curve file (its bytes hold `"csv"`) is
@@ -122,7 +123,8 @@ async function* csvChunks(
   shard: Shard | undefined,
   curveFolder: string | undefined,
 ): AsyncGenerator<RecordChunk> {
-  const parser = input.pipe(parse({ bom: true, relax_column_count: true, skip_empty_lines: false }));
+  const parser = input.pipe(parse({ bom: true, relax_column_count: true, skip_empty_lines: false, info: true }));
+  const placeOf = csvRowCounter();
   let header: string[] | undefined;
   let n = 0;
   let texts: string[] = [];
@@ -140,21 +142,26 @@ async function* csvChunks(
     chars = 0;
     return c;
   };
-  for await (const cells of parser as AsyncIterable<string[]>) {
-    if (header === undefined) {
+  for await (const { record: cells, info } of parser as AsyncIterable<{ record: string[]; info: { lines: number } }>) {
+    const place = placeOf(info.lines);
+    if (place === undefined || header === undefined) {
       header = cells.map((h) => h.trim());
       const problem = csvHeaderProblem(header, procedure);
       if (problem !== undefined) throw new Error(problem);
       continue;
     }
-    n += 1;
+    n = place.row;
+    // where the reader refuses a row it says which, as the catalog import does
+    const at = (message: string) => `${csvPlaceText(place)}: ${message}`;
     let text = "";
     if (inShard(n, shard) && !cells.every((c) => c.trim() === "")) {
       const r = csvRowToLine(header, cells, procedure);
       const curves = "raw" in r && curveFolder !== undefined ? withCurveFiles(r.raw, n, curveFolder) : undefined;
-      if (curves !== undefined && "answered" in curves) answered.push(curves.answered);
-      else if ("raw" in r) text = curves?.text ?? r.raw;
-      else answered.push({ id: r.id, line: n, ok: false, error: r.error });
+      if (curves !== undefined && "answered" in curves) {
+        const a = curves.answered;
+        answered.push(a.ok ? a : { ...a, error: { ...a.error, message: at(a.error.message) } });
+      } else if ("raw" in r) text = curves?.text ?? r.raw;
+      else answered.push({ id: r.id, line: n, ok: false, error: { ...r.error, message: at(r.error.message) } });
     }
     texts.push(text);
     chars += text.length + 1;

@@ -2,12 +2,13 @@ import { parse } from "csv-parse/sync";
 import type { z } from "zod";
 import { catalogEntry, type catalogFile } from "../../contracts/catalog.js";
 import { issuesOf } from "../../contracts/zod-messages.js";
+import { CSV_HEADER_TEXT, type CsvRowPlace, csvPlaceText, csvRowCounter } from "../batch/csv-rows.js";
 import { cellsToObject, columnPath } from "../batch/formats.js";
 
 /** A cell of the CSV that keeps the import from being written: where, what it held, what to type instead. */
 export interface CsvCellProblem {
-  /** the row as a spreadsheet numbers it: the header is row 1 */
-  readonly row: number;
+  /** the data row and the line of the file it starts on, as the batch numbers a CSV's rows (absent: the header) */
+  readonly place?: CsvRowPlace;
   /** the column's name (a dotted path, as in the batch's CSV), or the field's path where no column holds it */
   readonly column: string;
   /** the column's letter as a spreadsheet shows it (A, B, …, AA), absent where no column holds the field */
@@ -67,35 +68,40 @@ const shown = (cell: string) => (cell.length > 40 ? `${cell.slice(0, 37)}...` : 
  * row, with the contract's message (what to type instead); blank rows are skipped.
  */
 export function importCatalogCsv(text: string, name: string): CsvImport {
-  const records = parse(text, { bom: true, relax_column_count: true, skip_empty_lines: false }) as string[][];
+  const read = parse(text, { bom: true, relax_column_count: true, skip_empty_lines: false, info: true }) as unknown as {
+    record: string[];
+    info: { lines: number };
+  }[];
+  const placeOf = csvRowCounter();
+  const places = read.map((r) => placeOf(r.info.lines));
   const problems: CsvCellProblem[] = [];
-  const header = (records[0] ?? []).map((h) => h.trim());
+  const header = (read[0]?.record ?? []).map((h) => h.trim());
   const seen = new Map<string, number>();
   header.forEach((h, i) => {
     const letter = columnLetter(i);
-    if (h === "") problems.push({ row: 1, column: `(column ${letter})`, letter, message: "a column needs a name" });
+    if (h === "") problems.push({ column: `(column ${letter})`, letter, message: "a column needs a name" });
     else if (seen.has(h))
-      problems.push({ row: 1, column: h, letter, message: `also column ${columnLetter(seen.get(h) as number)}` });
+      problems.push({ column: h, letter, message: `also column ${columnLetter(seen.get(h) as number)}` });
     else seen.set(h, i);
   });
-  if (header.length === 0) problems.push({ row: 1, column: "(header)", message: "the CSV is empty: no header row" });
+  if (header.length === 0) problems.push({ column: "(header)", message: "the CSV is empty: no header row" });
   if (problems.length > 0) return { ok: false, problems, rows: 0 };
 
   const paths = header.map(columnPath);
   const parts: unknown[] = [];
-  const rowOfId = new Map<string, number>();
+  const rowOfId = new Map<string, CsvRowPlace>();
   let rows = 0;
-  for (let r = 1; r < records.length; r += 1) {
-    const cells = records[r] as string[];
-    const row = r + 1;
+  for (let r = 1; r < read.length; r += 1) {
+    const cells = read[r]?.record as string[];
+    const place = places[r] as CsvRowPlace;
     if (cells.every((c) => c.trim() === "")) continue;
     rows += 1;
     if (cells.length !== header.length) {
-      problems.push({ row, column: "(row)", message: `expected ${header.length} cells, found ${cells.length}` });
+      problems.push({ place, column: "(row)", message: `expected ${header.length} cells, found ${cells.length}` });
       continue;
     }
     const at = (index: number, message: string): CsvCellProblem => ({
-      row,
+      place,
       column: header[index] as string,
       letter: columnLetter(index),
       cell: shown(cells[index] as string),
@@ -108,8 +114,9 @@ export function importCatalogCsv(text: string, name: string): CsvImport {
     const id = value.id;
     if (typeof id === "string") {
       const first = rowOfId.get(id);
-      if (first !== undefined) problems.push(at(header.indexOf("id"), `duplicate id "${id}": also row ${first}`));
-      else rowOfId.set(id, row);
+      if (first !== undefined)
+        problems.push(at(header.indexOf("id"), `duplicate id "${id}": also ${csvPlaceText(first)}`));
+      else rowOfId.set(id, place);
     }
     const parsed = catalogEntry.safeParse(value);
     if (!parsed.success) {
@@ -117,7 +124,7 @@ export function importCatalogCsv(text: string, name: string): CsvImport {
         const index = columnOf(paths, issue.path);
         if (unread.has(index)) continue;
         const dotted = issue.path.join(".");
-        if (index < 0) problems.push({ row, column: dotted, message: `${issue.message} (add a column ${dotted})` });
+        if (index < 0) problems.push({ place, column: dotted, message: `${issue.message} (add a column ${dotted})` });
         else
           problems.push(
             at(index, pathsEqual(paths[index], issue.path) ? issue.message : `${dotted}: ${issue.message}`),
@@ -139,8 +146,9 @@ function pathsEqual(a: readonly (string | number)[] | undefined, b: readonly (st
   return a !== undefined && a.length === b.length && samePath(a, b, a.length);
 }
 
-/** One problem as a line: `row 18, column "stage.reverseRatingV" (F), cell "abc": expected …`. */
+/** One problem as a line: `row 17 (line 18 of the file), column "stage.reverseRatingV" (F), cell "abc": expected …`. */
 export function problemLine(p: CsvCellProblem): string {
-  const where = `row ${p.row}, column "${p.column}"${p.letter === undefined ? "" : ` (${p.letter})`}`;
+  const row = p.place === undefined ? CSV_HEADER_TEXT : csvPlaceText(p.place);
+  const where = `${row}, column "${p.column}"${p.letter === undefined ? "" : ` (${p.letter})`}`;
   return `${where}${p.cell === undefined ? "" : `, cell "${p.cell}"`}: ${p.message}`;
 }

@@ -8,7 +8,8 @@ import { catalogOf } from "./file-catalog.js";
 
 export const CATALOG_USAGE = `  backstop catalog import --csv parts.csv --out parts.json [--name "catalog name"]
   columns are dotted paths into a part, as the batch's CSV columns: id, description, stage.kind, stage.diode.model, ...
-  (rows numbered as a spreadsheet shows them, the header row 1); --name defaults to the CSV file's name.
+  (a row is named as the batch names a CSV's rows: row N counts the data rows from 1, then the line of the file it
+  starts on, "row 17 (line 18 of the file)"); --name defaults to the CSV file's name.
   every bad cell is listed (row, column, what to type instead) and nothing is written; exit 0 written, 1 refused, 2 could not run.`;
 
 /** `backstop catalog import …`: exit 0 written, 1 refused (every bad cell on stderr), 2 could not run. */

@@ -87,11 +87,11 @@ const FAULT = process.env.BACKSTOP_TEST_WORKER_FAULT;
 const FAULT_MARKER = "__backstop_test_worker_fault__";
 
 const formatters = new Map<string, ReturnType<typeof outputFormatter>>();
-const formatterOf = (outFormat: Format, procedure: string | undefined) => {
-  const key = `${outFormat}:${procedure ?? ""}`;
+const formatterOf = (outFormat: Format, columnsOf: readonly string[] | undefined) => {
+  const key = `${outFormat}:${columnsOf === undefined ? "*" : JSON.stringify(columnsOf)}`;
   let fmt = formatters.get(key);
   if (fmt === undefined) {
-    fmt = outputFormatter(outFormat, procedure);
+    fmt = outputFormatter(outFormat, columnsOf);
     formatters.set(key, fmt);
   }
   return fmt;
@@ -121,7 +121,7 @@ export async function batchChunk(task: ChunkTask): Promise<ChunkAnswer> {
     await testFault(
       Buffer.from(task.bytes.buffer, task.bytes.byteOffset, task.bytes.byteLength).includes(FAULT_MARKER),
     ); // no scan of every chunk in production
-  const answer = await answerChunk(task, formatterOf(task.outFormat, task.procedure).line, invoker);
+  const answer = await answerChunk(task, formatterOf(task.outFormat, task.columnsOf).line, invoker);
   return moved(answer, answer.bytes.buffer as ArrayBuffer);
 }
 

@@ -1,7 +1,8 @@
 import { fetchRequestHandler } from "@trpc/server/adapters/fetch";
-import { Hono } from "hono";
+import { type Context as HonoContext, Hono, type MiddlewareHandler } from "hono";
 import { bodyLimit } from "hono/body-limit";
 import type { Context } from "../../api/context.js";
+import { type EdgeRefusal, edgeTrpcError } from "../../api/edge-refusal.js";
 import { errorBodyOf } from "../../api/error-body.js";
 import { httpStatusOf } from "../../api/procedure-registry.js";
 import { appRouter } from "../../api/router.js";
@@ -34,6 +35,15 @@ export interface AppDeps {
 }
 
 const PROTECTED = /^\/(trpc|v1)(\/|$)/;
+const TRPC_PATH = /^\/trpc(\/|$)/;
+
+const UNAUTHORIZED: EdgeRefusal = {
+  status: 401,
+  code: "unauthorized",
+  trpcCode: "UNAUTHORIZED",
+  message: "a valid API key is required (Authorization: Bearer <key> or X-API-Key)",
+  headers: { "www-authenticate": 'Bearer realm="backstop"' },
+};
 
 /** The HTTP face of backstop: tRPC under /trpc, plain JSON under /v1, OpenAPI, probes, metrics, one log line per request. */
 export function createApp({
@@ -68,30 +78,80 @@ export function createApp({
     logRequest(logger, requestId, c.req.method, path, c.res.status, started);
   });
 
+  const offload = trpcOffload(pool, config);
+  // tRPC under /trpc; a request the edge refused (c.get("refusal")) fails where tRPC makes its
+  // context, so tRPC answers every call of it in its own shape (single, batch or stream) unread
+  const serveTrpc = (c: HonoContext<Env>) =>
+    fetchRequestHandler({
+      endpoint: "/trpc",
+      req: c.req.raw,
+      router: appRouter,
+      allowMethodOverride: true,
+      maxBatchSize: config.maxTrpcBatch,
+      createContext: () => {
+        const refusal = c.get("refusal");
+        if (refusal !== undefined) throw edgeTrpcError(refusal);
+        return {
+          ...ctx,
+          offload,
+          observe: (o) =>
+            metrics.observeProcedure(
+              "trpc",
+              o.path,
+              o.ok ? outcomeLabel(o.data) : errorBodyOf(o.error).code,
+              o.seconds,
+            ),
+        };
+      },
+      // the request id in tRPC's own response (adding it afterwards would copy the response through a web stream)
+      // and 422 for a single call refused over a limit (tRPC's own mapping has no such status)
+      responseMeta: ({ errors, info }) => {
+        const headers: Record<string, string> =
+          c.get("closing") === true
+            ? { "x-request-id": c.get("requestId"), connection: "close" }
+            : { "x-request-id": c.get("requestId") };
+        Object.assign(headers, c.get("refusal")?.headers);
+        const limited = info?.isBatchCall !== true && errors.length === 1 && httpStatusOf(errors[0]) === 422;
+        return limited ? { headers, status: 422 } : { headers };
+      },
+      onError: ({ error, path }) => {
+        // tRPC's own words do not say the limit; onError runs before the error is formatted
+        if (error.message === "Batch call exceeds maximum size")
+          error.message = `a tRPC batch holds at most ${config.maxTrpcBatch} calls (BACKSTOP_MAX_TRPC_BATCH): split it, or send many cases of one procedure to /v1/<procedure>/bulk`;
+        if (error.code === "INTERNAL_SERVER_ERROR")
+          logger.error({ requestId: c.get("requestId"), path, err: error.cause ?? error }, "procedure failed");
+      },
+    });
+  /** An edge refusal: problem+json, except under /trpc, where tRPC answers it as its error. */
+  const refuse = (c: HonoContext<Env>, r: EdgeRefusal) => {
+    if (TRPC_PATH.test(c.req.path)) {
+      c.set("refusal", r);
+      return serveTrpc(c);
+    }
+    return sendProblem(c, r.status, { code: r.code, message: r.message }, r.headers);
+  };
+
   // API keys guard the analyses only; probes, metrics and the OpenAPI document stay open.
   // (registered only when keys are configured: one middleware less on every request otherwise)
   if (checkKey !== undefined) {
     app.use("*", async (c, next) => {
       if (!PROTECTED.test(c.req.path)) return next();
       if (checkKey(presentedKey(c.req.header("authorization"), c.req.header("x-api-key")))) return next();
-      return sendProblem(
-        c,
-        401,
-        { code: "unauthorized", message: "a valid API key is required (Authorization: Bearer <key> or X-API-Key)" },
-        { "www-authenticate": 'Bearer realm="backstop"' },
-      );
+      return refuse(c, UNAUTHORIZED);
     });
   }
 
-  const tooLarge = (c: import("hono").Context<Env>) =>
-    sendProblem(c, 413, {
+  const tooLarge = (c: HonoContext<Env>) =>
+    refuse(c, {
+      status: 413,
       code: "payload-too-large",
+      trpcCode: "PAYLOAD_TOO_LARGE",
       message: `the request body exceeds ${config.maxBodyBytes} bytes (BACKSTOP_MAX_BODY_BYTES)`,
     });
   const streamedLimit = bodyLimit({ maxSize: config.maxBodyBytes, onError: tooLarge });
   // A declared length is checked from the header alone (hono's bodyLimit would first turn the body
   // into a web stream, a third of a small request's cost); a streamed body is counted as it comes.
-  const limit: import("hono").MiddlewareHandler<Env> = async (c, next) => {
+  const limit: MiddlewareHandler<Env> = async (c, next) => {
     const length = c.req.header("content-length");
     if (length !== undefined && c.req.header("transfer-encoding") === undefined)
       return Number(length) > config.maxBodyBytes ? tooLarge(c) : next();
@@ -139,39 +199,7 @@ export function createApp({
     return c.body(openapi, 200, { "content-type": "application/json" });
   });
 
-  const offload = trpcOffload(pool, config);
-  app.all("/trpc/*", (c) =>
-    fetchRequestHandler({
-      endpoint: "/trpc",
-      req: c.req.raw,
-      router: appRouter,
-      allowMethodOverride: true,
-      maxBatchSize: config.maxTrpcBatch,
-      createContext: () => ({
-        ...ctx,
-        offload,
-        observe: (o) =>
-          metrics.observeProcedure("trpc", o.path, o.ok ? outcomeLabel(o.data) : errorBodyOf(o.error).code, o.seconds),
-      }),
-      // the request id in tRPC's own response (adding it afterwards would copy the response through a web stream)
-      // and 422 for a single call refused over a limit (tRPC's own mapping has no such status)
-      responseMeta: ({ errors, info }) => {
-        const headers: Record<string, string> =
-          c.get("closing") === true
-            ? { "x-request-id": c.get("requestId"), connection: "close" }
-            : { "x-request-id": c.get("requestId") };
-        const limited = info?.isBatchCall !== true && errors.length === 1 && httpStatusOf(errors[0]) === 422;
-        return limited ? { headers, status: 422 } : { headers };
-      },
-      onError: ({ error, path }) => {
-        // tRPC's own words do not say the limit; onError runs before the error is formatted
-        if (error.message === "Batch call exceeds maximum size")
-          error.message = `a tRPC batch holds at most ${config.maxTrpcBatch} calls (BACKSTOP_MAX_TRPC_BATCH): split it, or send many cases of one procedure to /v1/<procedure>/bulk`;
-        if (error.code === "INTERNAL_SERVER_ERROR")
-          logger.error({ requestId: c.get("requestId"), path, err: error.cause ?? error }, "procedure failed");
-      },
-    }),
-  );
+  app.all("/trpc/*", serveTrpc);
 
   mountReviewReport(app, { ctx, logger, config, pool });
   mountBridgeAcReport(app, { ctx, logger, config, pool });

@@ -1,3 +1,4 @@
+import type { EdgeRefusal } from "../../api/edge-refusal.js";
 import type { Hono } from "hono";
 import { procedureEntries, procedureEntry, procedureInvoker } from "../../api/procedure-registry.js";
 import type { Context } from "../../api/context.js";
@@ -11,7 +12,14 @@ import { depthProblem, inputShape } from "./input-shape.js";
 import { computeTimeout, problemOf, sendProblem } from "./problem.js";
 import { utf8Join } from "../utf8-join.js";
 
-export type Env = { Variables: { requestId: string; closing: boolean } };
+export type Env = {
+  Variables: {
+    requestId: string;
+    closing: boolean;
+    /** set where the edge refused a /trpc request: tRPC answers it (adapters/http/app.ts) */
+    refusal?: EdgeRefusal;
+  };
+};
 
 /** A JSON answer: the request middleware has set its request id (and `connection: close` while draining). */
 function jsonAnswer(c: import("hono").Context<Env>, text: string | Uint8Array, status: 200): Response {

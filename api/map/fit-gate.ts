@@ -11,7 +11,7 @@ export function refusedFit(path: (string | number)[], message: string, points: r
 
 /**
  * The quality gate of a least-squares fit: beyond its bound it is refused, naming the worst point
- * and its residual, and so is a fit whose solver stopped at its iteration cap, unless the caller
+ * and its residual, and so is a fit whose solver stopped before converging (its cap, a stall), unless the caller
  * accepts it (acceptFit); either way the sentence for the result's `assumptions` comes back, and
  * the fit is noted for the call's verdict record.
  */

@@ -29,6 +29,7 @@ function qualityOf(q: FitQuality, unit: string): FitOutput["quality"] {
     withinBound: withinBound(q),
     converged: q.converged,
     iterations: q.iterations,
+    ...(q.stopReason === undefined ? {} : { stopReason: q.stopReason }),
   };
 }
 

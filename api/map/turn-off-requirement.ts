@@ -1,4 +1,5 @@
 import type { Requirement } from "../../contracts/requirement.js";
+import { inputFallIssues } from "../../contracts/turn-off.js";
 import type { ReviewTurnOff } from "../../domain/review/review-turn-off.js";
 import { inputProblem } from "../input-problem.js";
 import { missingQrrSentence, ONE_OFF_EVENT } from "./reverse-inputs.js";
@@ -31,19 +32,12 @@ export function fallingInputOf(
   if (t.outputV === undefined) assumptions.push(`turnOff.outputV: the nominal supply ${nominalV} V before the event`);
   const outputV = t.outputV ?? nominalV;
   const inputAfterV = t.inputAfterV ?? 0;
-  if (!(inputAfterV < outputV))
-    throw inputProblem(
-      "invalid-input",
-      [...path, "inputAfterV"],
-      `must be below the output voltage before the event (${outputV} V)`,
-    );
   const decay = t.inputDecay;
-  if (decay !== undefined && !(decay.startV < outputV))
-    throw inputProblem(
-      "invalid-input",
-      [...path, "inputDecay", "startV"],
-      `must be below the output voltage before the event (${outputV} V): the input falls at t = 0`,
-    );
+  const [issue] = inputFallIssues(
+    { outputV, inputAfterV, inputDecay: decay },
+    t.outputV === undefined ? "the nominal supply" : `${path.join(".")}.outputV`,
+  );
+  if (issue !== undefined) throw inputProblem("invalid-input", [...path, ...issue.path], issue.message);
   return {
     outputV,
     inputAfterV,

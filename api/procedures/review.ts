@@ -150,7 +150,15 @@ export const review = defineProcedure({
           e.r.worst.loadMinV
             ? { loadMinV: { value: e.r.worst.loadMinV.value, corner: e.r.worst.loadMinV.cornerIndex } }
             : {},
-          { unsolvedCorners: [...e.r.worst.unsolvedCornerIndexes] },
+          {
+            unsolvedCorners: [...e.r.worst.unsolvedCornerIndexes],
+            cornersWithoutOperatingPoint: e.r.worst.unsolvedCornerIndexes.flatMap((i) => {
+              const c = e.r.corners[i];
+              return c === undefined || "point" in c.result
+                ? []
+                : [{ corner: i, name: describe(c), outcome: c.result.outcome, reason: c.result.reason }];
+            }),
+          },
         ),
         corners: e.r.corners.map(cornerRow),
         startUp: e.r.startUp,

@@ -1,8 +1,10 @@
+import { iterationCapReason } from "./least-squares.js";
+
 /**
  * How well a fitted model reproduces the points it came from, in the curve's own unit: the RMS
  * of the residuals (model − point), and the worst point, judged by its residual as a share of the
  * point's value (the gates are stated as shares: 2 % of Vf, 5 % of Rds(on), 5 % of Zth); and
- * whether the solver converged or stopped at its iteration cap (least-squares.ts), its parameters
+ * whether the solver converged or stopped before (at its iteration cap, or stalled: least-squares.ts), its parameters
  * then being wherever the last step left them.
  */
 export interface FitQuality {
@@ -16,16 +18,19 @@ export interface FitQuality {
   readonly worstFraction: number;
   /** The stated bound on worstFraction. */
   readonly boundFraction: number;
-  /** False when the solver stopped at its iteration cap before converging. */
+  /** False when the solver stopped before its convergence test passed (its iteration cap, a stall). */
   readonly converged: boolean;
   /** Iterations the solver took. */
   readonly iterations: number;
+  /** Why the solver stopped before converging (absent when converged). */
+  readonly stopReason?: string;
 }
 
-/** What the solver says of its own run (least-squares.ts's `converged` and `iterations`). */
+/** What the solver says of its own run (least-squares.ts's `converged`, `iterations` and `stopReason`). */
 export interface SolverRun {
   readonly converged: boolean;
   readonly iterations: number;
+  readonly stopReason?: string | undefined;
 }
 
 export function fitQuality(
@@ -55,6 +60,7 @@ export function fitQuality(
     boundFraction,
     converged: run.converged,
     iterations: run.iterations,
+    ...(run.converged ? {} : { stopReason: run.stopReason ?? iterationCapReason(run.iterations) }),
   };
 }
 
@@ -63,8 +69,7 @@ export const withinBound = (q: FitQuality): boolean => q.worstFraction <= q.boun
 /** A fit the gate passes without the caller's acceptance: converged, and its worst residual within the bound. */
 export const fitPasses = (q: FitQuality): boolean => q.converged && withinBound(q);
 
-const CAPPED = (q: FitQuality) =>
-  `the solver stopped at its iteration cap (${q.iterations} iterations) before converging`;
+const CAPPED = (q: FitQuality) => q.stopReason ?? iterationCapReason(q.iterations);
 
 /** The sentence a result's `assumptions` carries for a fit: what was fitted and how well. */
 export function describeFit(what: string, q: FitQuality, unit: string, points: number): string {
@@ -80,7 +85,7 @@ export function describeFit(what: string, q: FitQuality, unit: string, points: n
 
 /**
  * Why a fit the gate does not pass is refused: the point, its residual and the bound; or, within
- * the bound, that the solver stopped at its cap (the parameters are not a converged minimum).
+ * the bound, that the solver stopped before converging (the parameters are not a converged minimum).
  */
 export function beyondBoundReason(q: FitQuality, unit: string, describePoint: (i: number) => string): string {
   if (withinBound(q))

@@ -40,8 +40,10 @@ export type LeastSquaresResult =
       readonly residuals: readonly number[];
       readonly sumSquares: number;
       readonly iterations: number;
-      /** False when the iteration limit stopped it. */
+      /** True only when the convergence test passed; false when the iteration cap or a stall stopped it. */
       readonly converged: boolean;
+      /** Why it stopped before converging (the cap, or a stall and where); absent when converged. */
+      readonly stopReason?: string;
       /** Standard error of each parameter; undefined on a bound, or with no degrees of freedom left. */
       readonly standardErrors: readonly (number | undefined)[];
       /** Which parameters ended on a bound (Levenberg–Marquardt only). */
@@ -49,6 +51,19 @@ export type LeastSquaresResult =
     }
   | { readonly outcome: "singular"; readonly reason: string }
   | { readonly outcome: "non-finite"; readonly reason: string };
+
+/** The reason a run that reached its cap gives. */
+export const iterationCapReason = (iterations: number): string =>
+  `the solver stopped at its iteration cap (${iterations} iterations) before converging`;
+
+/** `converged`, and the reason when not: the cap when it was reached, else the stall's own words. */
+const runEnd = (
+  converged: boolean,
+  iterations: number,
+  cap: number,
+  stall: string,
+): { converged: boolean; stopReason?: string } =>
+  converged ? { converged } : { converged, stopReason: iterations >= cap ? iterationCapReason(iterations) : stall };
 
 export function leastSquares(p: LeastSquaresProblem): LeastSquaresResult {
   const r0 = p.residuals(p.start);
@@ -83,7 +98,9 @@ function newtonRoot(p: LeastSquaresProblem, r0: readonly number[]): LeastSquares
   let r = r0;
   let norm = Math.hypot(...r);
   let iter = 0;
-  for (; iter < (p.maxIterations ?? 200) && norm > 1e-12; iter += 1) {
+  const cap = p.maxIterations ?? 200;
+  // The convergence test: the residual norm at or below 1e-12 (the points are met exactly).
+  for (; iter < cap && norm > 1e-12; iter += 1) {
     const jac = forwardJacobian(p, u, r);
     const step = solveLinear(
       jac,
@@ -118,7 +135,13 @@ function newtonRoot(p: LeastSquaresProblem, r0: readonly number[]): LeastSquares
     residuals: r,
     sumSquares: norm * norm,
     iterations: iter,
-    converged: norm <= 1e-12 || iter < (p.maxIterations ?? 200),
+    ...runEnd(
+      norm <= 1e-12,
+      iter,
+      cap,
+      `the solver stalled after ${iter} iterations: no step along the Newton direction (halved down to 1e-6 of it) ` +
+        `lowers the residual norm ${norm.toExponential(3)} towards the convergence test (at most 1e-12)`,
+    ),
     standardErrors: u.map(() => undefined),
     atBound: u.map(() => false),
   };
@@ -231,7 +254,12 @@ function levenbergMarquardt(p: LeastSquaresProblem): LeastSquaresResult {
     residuals: r,
     sumSquares: ssr,
     iterations: iter,
-    converged,
+    ...runEnd(
+      converged,
+      iter,
+      maxIter,
+      `the solver stalled after ${iter} iterations: its damping overflowed with no step that lowers the sum of squares`,
+    ),
     standardErrors: standardErrors(jac, ssr, atBound),
     atBound,
   };

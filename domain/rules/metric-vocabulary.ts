@@ -401,6 +401,15 @@ export const METRICS: readonly MetricDef[] = [
     providedBy: `${STAGE} (currentLimitA), in the review`,
   },
   {
+    name: "cornersWithoutOperatingPoint",
+    type: "number",
+    unit: "1",
+    meaning:
+      "how many corners of the review have no operating point (a collapse at a current limit, no steady state): the stage cannot carry the load there, so the corner figures (tjWorstC, loadVMinV, ...) are unavailable; the candidate's worst.cornersWithoutOperatingPoint names each corner and why",
+    stageKinds: "all",
+    providedBy: "review (its corners)",
+  },
+  {
     name: "thermalShutdownInService",
     type: "boolean",
     unit: "-",
@@ -776,6 +785,7 @@ export const METRIC_ROLES: Readonly<Record<string, MetricAssessment>> = {
   stageCurrentMaxA: computed,
   switchCurrentLimitA: stageRole,
   thermalShutdownInService: computed,
+  cornersWithoutOperatingPoint: computed,
   loadTransientVMaxV: computed,
   loadMaxV: requirement,
   peakReverseCurrentA: {

@@ -46,6 +46,7 @@ export const REVIEW_COMPUTES = [
   "loadTransientVMaxV",
   "stageCurrentMaxA",
   "thermalShutdownInService",
+  "cornersWithoutOperatingPoint",
 ] as const;
 
 export interface RequirementFlags {
@@ -58,7 +59,8 @@ export interface RequirementFlags {
 /**
  * A candidate's review → the rule vocabulary. The worst-corner figures come from the corners that
  * have an operating point; when any corner has none, they are marked unavailable (with the
- * corner's outcome), so their rules cannot pass.
+ * corner's outcome), so their rules cannot pass, and cornersWithoutOperatingPoint counts them, so
+ * that the rule reading it fails.
  */
 export function reviewRuleInput(
   stage: StageModel,
@@ -86,6 +88,8 @@ export function reviewRuleInput(
   else notRequired["lossBudgetW"] = "the requirement sets no loss budget";
 
   const unsolved = r.worst.unsolvedCornerIndexes;
+  // Counted, so that a rule fails by name (corner-solves) where the corner figures below cannot be read.
+  metrics["cornersWithoutOperatingPoint"] = unsolved.length;
   const firstCorner = unsolved[0] === undefined ? undefined : r.corners[unsolved[0]];
   const firstUnsolved = firstCorner === undefined ? undefined : cornerUnsolved(firstCorner);
   const why = firstUnsolved

@@ -73,6 +73,7 @@ export const ANALYSIS_ONLY_METRICS: Readonly<Record<string, readonly string[]>> 
     "overvoltageCutoffV",
     "stageCurrentMaxA",
     "switchCurrentLimitA",
+    "cornersWithoutOperatingPoint",
   ],
   turnOff: [
     "peakReverseCurrentA",

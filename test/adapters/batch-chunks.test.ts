@@ -10,7 +10,7 @@ import { cutAfter, jsonlChunks, lineCountOf, linesOf, MAX_LINE_BYTES } from "../
 import { type StreamBatchOptions, streamBatch } from "../../adapters/batch/engine.js";
 import { demoContext } from "../helpers/app.js";
 import { builtCli } from "../helpers/build-once.js";
-import { readlineOracle } from "../helpers/batch-oracle.js";
+import { proceduresNamedPlainly, readlineOracle } from "../helpers/batch-oracle.js";
 
 /**
  * The batch engine (input cut into chunks of whole lines as bytes, answered in worker threads or
@@ -310,7 +310,11 @@ describe("built CLI: in process, one worker thread and two write the same bytes"
         expect(r.status, r.stderr).toBe(1); // some rows rejected
         return readFileSync(out);
       });
-      const oracle = await readlineOracle(readFileSync(input), demoContext(), { outFormat: fmt as "jsonl" | "csv" });
+      // the command reads the whole input first for the procedures it names (a CSV output's columns)
+      const oracle = await readlineOracle(readFileSync(input), demoContext(), {
+        outFormat: fmt as "jsonl" | "csv",
+        outputProcedures: proceduresNamedPlainly(readFileSync(input)),
+      });
       for (const o of outs) expect(o.equals(oracle)).toBe(true);
     },
     120_000,

@@ -41,9 +41,9 @@ let refused = "";
 try {
   await createBackstopClient({ url: base ?? "" }).rules.list.query({});
 } catch (e) {
-  // the key check answers problem+json before tRPC runs: the client reports the HTTP status it got
-  const status = (e as { meta?: { response?: { status?: number } } }).meta?.response?.status;
-  refused = status === 401 ? "401" : \`\${String(e)} \${status}\`;
+  // the key check's refusal is a tRPC error under /trpc: the client reads its code and status
+  const data = (e as { data?: { code?: string; httpStatus?: number } }).data;
+  refused = \`\${data?.code} \${data?.httpStatus}\`;
 }
 console.log(JSON.stringify({ tjC: r.point.tjC, set: shown.ruleSet.id, refused }));
 `;
@@ -60,7 +60,7 @@ describe("backstop/client", () => {
     };
     expect(out.tjC).toBeGreaterThan(85);
     expect(out.set).toBe("default");
-    expect(out.refused).toBe("401"); // the same call without the key
+    expect(out.refused).toBe("UNAUTHORIZED 401"); // the same call without the key
   }, 120_000);
 
   it("the compiler refuses a call the router refuses", async () => {

@@ -110,7 +110,12 @@ describe("limits", () => {
     const { app: a } = app({ maxBodyBytes: 2000 });
     const big = { ...good, stage: { ...good.stage, partId: "x".repeat(5000) } };
     await expectProblem(await a.request("/v1/operatingPoint", json(big)), 413, "payload-too-large");
-    await expectProblem(await a.request("/trpc/operatingPoint", json(big)), 413, "payload-too-large");
+    // under /trpc the same refusal is a tRPC error (test/adapters/trpc-edge-errors.test.ts: @trpc/client reads it)
+    const trpc = await a.request("/trpc/operatingPoint", json(big));
+    expect(trpc.status).toBe(413);
+    const body = (await trpc.json()) as { error: { data: { code: string; backstop: { code: string } } } };
+    expect(body.error.data.code).toBe("PAYLOAD_TOO_LARGE");
+    expect(body.error.data.backstop.code).toBe("payload-too-large");
     const stream = new ReadableStream({
       start(c) {
         c.enqueue(new TextEncoder().encode(JSON.stringify(big)));

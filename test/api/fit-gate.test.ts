@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { gateFit } from "../../api/map/fit-gate.js";
 import { fitQuality } from "../../domain/fit/fit-quality.js";
+import { leastSquares } from "../../domain/fit/least-squares.js";
 
 // A fit 1 % off at its worst point, against a 5 % bound: within the bound.
 const modelled = [1.0, 2.02, 2.97];
@@ -27,6 +28,24 @@ describe("the fit gate reads whether the solver converged", () => {
     expect(message).toMatch(/acceptFit: true/);
     const accepted = gateFit(q, true, ["curve", "points"], "curve", "V", 3, describe_);
     expect(accepted).toMatch(/iteration cap \(500 iterations\).*accepted by the caller \(acceptFit\)/);
+  });
+
+  it("refuses a fit whose exact solver stalled before its cap, giving the stall, unless the caller accepts it", () => {
+    const stalled = leastSquares({
+      residuals: (u) => [Math.abs(u[0] ?? 0) + 1],
+      start: [2],
+      lower: [-10],
+      upper: [10],
+    });
+    if (stalled.outcome !== "solved") throw new Error(stalled.outcome);
+    const q = fitQuality(modelled, measured, 0.05, stalled);
+    expect(q.converged).toBe(false);
+    expect(() => gateFit(q, undefined, ["curve", "points"], "curve", "V", 3, describe_)).toThrow(
+      /the solver stalled after \d+ iterations.*so its parameters are not a converged least-squares solution.*acceptFit: true/,
+    );
+    expect(gateFit(q, true, ["curve", "points"], "curve", "V", 3, describe_)).toMatch(
+      /stalled after \d+ iterations.*accepted by the caller \(acceptFit\)/,
+    );
   });
 
   it("names both faults when a capped fit is also beyond its bound", () => {

@@ -160,6 +160,26 @@ describe("sizing.spec round trip through the review", () => {
     expect(dI.meets).toBe(false);
   });
 
+  it("refuses a turn-off event whose input does not fall (inputAfterV at or above outputV), as turnOff and holdUp do", async () => {
+    const turnOff = {
+      loop: { resistanceOhm: 0.02, inductanceH: 1e-6 },
+      capacitor: { capacitanceF: 470e-6, esrOhm: 0.03 },
+      peakReverseCurrentMaxA: 50,
+    };
+    const refusal = (input: unknown) =>
+      spec(input).then(
+        () => "accepted",
+        (e: unknown) => String((e as { message?: unknown }).message),
+      );
+    // against the nominal supply (its default outputV) and against a given outputV
+    expect(
+      await refusal({ requirement, templates: [idealTemplate], turnOff: { ...turnOff, inputAfterV: 40 } }),
+    ).toMatch(/must be below the output voltage before the event, the nominal supply/);
+    expect(
+      await refusal({ requirement, templates: [idealTemplate], turnOff: { ...turnOff, outputV: 12, inputAfterV: 12 } }),
+    ).toMatch(/must be below the output voltage before the event, turnOff\.outputV \(12 V\)/);
+  });
+
   it("the candidate check takes the datasheet-maximum turn-off delay: a 1.5 µs typical passes a limit its 4 µs maximum misses", async () => {
     const turnOff = {
       loop: { resistanceOhm: 0.02, inductanceH: 1e-6 },

@@ -113,4 +113,25 @@ describe("an input decaying after the event, through the procedures", () => {
       /startV|output voltage/,
     );
   });
+
+  it("holdUp: an inputAfterV at or above outputV is refused as turnOff refuses it, naming input.inputAfterV", async () => {
+    if (holdUp === undefined || turnOff === undefined) throw new Error("procedures missing");
+    const ex = read("holdUp");
+    const { inputDecay: _d, ...stepInput } = ex["input"];
+    const outputV = ex["outputV"];
+    const refusal = async (p: Promise<unknown>) => {
+      const e = await p.then(
+        () => undefined,
+        (err: unknown) => err,
+      );
+      if (e === undefined) throw new Error("accepted");
+      return String((e as { message?: unknown }).message);
+    };
+    const held = await refusal(holdUp({ ...ex, ruleSet: undefined, input: { ...stepInput, inputAfterV: outputV } }));
+    expect(held).toMatch(/input\.inputAfterV|"input",\s*"inputAfterV"/);
+    expect(held).toMatch(/must be below the output voltage before the event, outputV/);
+    const t = read("turnOff");
+    const direct = await refusal(turnOff({ ...t, inputAfterV: t["outputV"] }));
+    expect(direct).toMatch(/must be below the output voltage before the event, outputV/);
+  });
 });

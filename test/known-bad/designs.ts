@@ -1058,6 +1058,21 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     ),
   },
   {
+    id: "switch-collapses-at-the-lowest-supply",
+    hazard: "load",
+    why: "an integrated switch limiting at 6 A ahead of a 48 W constant-power load on a 12 V code B supply: at the 8 V bottom of the supply the load wants 6 A or more, the switch holds 6 A, and the load collapses at those corners only (no operating point; the corner rules cannot be read there, so the set was only incomplete); the twin's 10 A limit carries it",
+    procedure: "review",
+    rule: "corner-solves",
+    bad: review(
+      { ...req12, load: { kind: "constant-power", powerW: 48, minVoltageV: 5 } },
+      integratedSwitch({ thermal: { kind: "junction-ambient", rthJaKPerW: 10 } }),
+    ),
+    twin: review(
+      { ...req12, load: { kind: "constant-power", powerW: 48, minVoltageV: 5 } },
+      integratedSwitch({ currentLimitA: 10, thermal: { kind: "junction-ambient", rthJaKPerW: 10 } }),
+    ),
+  },
+  {
     id: "switch-current-limit-at-its-datasheet-minimum",
     hazard: "load",
     why: "an integrated switch limiting at 6 A typical but 5 A at its datasheet minimum ahead of a 5.5 A load: a part at the low end of the limit holds 5 A and the load collapses, although the typical part carries it (twin: a 5.8 A minimum)",

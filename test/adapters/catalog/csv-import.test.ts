@@ -3,7 +3,10 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { stringify } from "csv-stringify/sync";
 import { afterAll, describe, expect, it } from "vitest";
+import { Readable } from "node:stream";
 import { cellValue } from "../../../adapters/batch/formats.js";
+import type { BatchOutputLine } from "../../../adapters/batch/line.js";
+import { recordChunks } from "../../../adapters/batch/reader.js";
 import { main } from "../../../adapters/batch/cli.js";
 import { catalogOf, loadCatalogFile } from "../../../adapters/catalog/file-catalog.js";
 import { DEMO_CATALOG } from "../../../adapters/project-root.js";
@@ -112,9 +115,11 @@ describe("backstop catalog import --csv", () => {
     const listed = r.lines.slice(1);
     expect(listed).toHaveLength(3);
     bad.forEach((b, k) => {
-      // the spreadsheet's row: the header is row 1, part 0 row 2
+      // the batch's numbering: part 0 is data row 1, on line 2 of the file (the header is line 1)
       const letter = String.fromCharCode(65 + csv.header.indexOf(b.column)); // fewer than 26 columns precede these
-      expect(listed[k]).toContain(`row ${b.part + 2}, column "${b.column}" (${letter}), cell "${b.cell}": `);
+      expect(listed[k]).toContain(
+        `row ${b.part + 1} (line ${b.part + 2} of the file), column "${b.column}" (${letter}), cell "${b.cell}": `,
+      );
     });
     expect(listed[0]).toMatch(/voltage|V\b/); // what to type instead, in the contract's words
     expect(listed[1]).toMatch(/: expected one of .*schottky-diode.* \(got "schotky-diode"\)$/);
@@ -134,13 +139,36 @@ describe("backstop catalog import --csv", () => {
     const r = await runImport(text, join(dir, "few.json"));
     expect(r.code).toBe(1);
     const all = r.lines.join("\n");
-    expect(all).toContain('row 2, column "description": required (a string) (add a column description)');
-    expect(all).toMatch(
-      /row 2, column "stage.tjMaxC" \([A-Z]+\), cell "\[150": a cell starting with \[ is read as JSON/,
+    const r1 = "row 1 \\(line 2 of the file\\)";
+    expect(all).toContain(
+      'row 1 (line 2 of the file), column "description": required (a string) (add a column description)',
     );
-    expect(all).toMatch(/row 2, column "stage.reverseRatingV" \([A-Z]+\), cell "-5 V": /);
-    expect(all).not.toMatch(/row 2, column "stage.tjMaxC".*required/);
-    expect(all).toMatch(/row 4, column "stage.colour" \([A-Z]+\), cell "blue": unknown field `colour`/);
-    expect(all).toMatch(/row 3, column "id" \(A\), cell "[^"]+": duplicate id "[^"]+": also row 2/);
+    expect(all).toMatch(
+      new RegExp(`${r1}, column "stage.tjMaxC" \\([A-Z]+\\), cell "\\[150": a cell starting with \\[ is read as JSON`),
+    );
+    expect(all).toMatch(new RegExp(`${r1}, column "stage.reverseRatingV" \\([A-Z]+\\), cell "-5 V": `));
+    expect(all).not.toMatch(new RegExp(`${r1}, column "stage.tjMaxC".*required`));
+    expect(all).toMatch(
+      /row 3 \(line 4 of the file\), column "stage.colour" \([A-Z]+\), cell "blue": unknown field `colour`/,
+    );
+    expect(all).toMatch(
+      new RegExp(`row 2 \\(line 3 of the file\\), column "id" \\(A\\), cell "[^"]+": duplicate id "[^"]+": also ${r1}`),
+    );
+  });
+
+  it("names a row as the batch does: the data row (the batch's line) and the line of the file it starts on", async () => {
+    // line 1 the header, 2 row 1, 3 a blank row 2, 4-5 row 3 (a quoted cell over two lines), 6 row 4 (a cell short)
+    const text = 'id,procedure,description\na,operatingPoint,x\n\nb,operatingPoint,"two\nlines"\nc,operatingPoint\n';
+    const r = await runImport(text, join(dir, "places.json"));
+    expect(r.code).toBe(1);
+    expect(r.lines).toContain('  row 4 (line 6 of the file), column "(row)": expected 3 cells, found 2');
+    const answered: BatchOutputLine[] = [];
+    for await (const c of recordChunks(Readable.from([text]), "csv", { targetBytes: 1 << 20 }))
+      answered.push(...(c.answered ?? []));
+    expect(answered).toHaveLength(1);
+    const row = answered[0];
+    if (row === undefined || row.ok) throw new Error("the short row should be refused");
+    expect(row.line).toBe(4);
+    expect(row.error.message).toBe("row 4 (line 6 of the file): expected 3 cells, found 2");
   });
 });

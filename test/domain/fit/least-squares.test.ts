@@ -103,6 +103,33 @@ describe("bounded nonlinear least squares (the fitting core)", () => {
     expect(free_.iterations).toBeLessThan(500);
   });
 
+  it("an exact (square) system that stalls before its cap is not converged, and says where it stalled", () => {
+    // r(u) = |u| + 1 has no root: Newton from u = 2 reaches u = 0, where |r| = 1 is the least the
+    // residual can be, so no halved step lowers it (hand-traced: two accepted steps, then the stall).
+    const r = leastSquares({ residuals: (u) => [Math.abs(u[0] ?? 0) + 1], start: [2], lower: [-10], upper: [10] });
+    if (r.outcome !== "solved") throw new Error(r.outcome);
+    expect(r.method).toBe("newton");
+    expect(r.iterations).toBeLessThan(200);
+    expect(r.converged).toBe(false);
+    expect(r.stopReason).toMatch(/stalled after \d+ iterations: .*residual norm 1\.000e\+0 .*at most 1e-12/);
+    // The same law with a root (r = u − 1) converges, and says no reason.
+    const root = leastSquares({ residuals: (u) => [(u[0] ?? 0) - 1], start: [2], lower: [-10], upper: [10] });
+    if (root.outcome !== "solved") throw new Error(root.outcome);
+    expect(root.converged).toBe(true);
+    expect(root.stopReason).toBeUndefined();
+    // At the cap: the cap's reason.
+    const capped = leastSquares({
+      residuals: (u) => [(u[0] ?? 0) ** 3 - 8],
+      start: [100],
+      lower: [-1e3],
+      upper: [1e3],
+      maxIterations: 2,
+    });
+    if (capped.outcome !== "solved") throw new Error(capped.outcome);
+    expect(capped.converged).toBe(false);
+    expect(capped.stopReason).toBe("the solver stopped at its iteration cap (2 iterations) before converging");
+  });
+
   it("refuses fewer points than parameters, and a model not finite at the start", () => {
     expect(leastSquares({ residuals: () => [1], start: [0, 0], lower: free, upper: none }).outcome).toBe("singular");
     expect(leastSquares({ residuals: () => [Number.NaN, 1, 2], start: [0, 0], lower: free, upper: none }).outcome).toBe(

@@ -38,6 +38,11 @@ const AT_85C = 0.06;
 const NO_ENERGY = p("pn-diode", { absorbedEnergyJ: 0, avalancheEnergyAtTjJ: AT_85C }, {});
 
 const DEFAULT: Record<string, RuleCases> = {
+  // A count of corners without an operating point: 0 passes (threshold 0, margin 0); two fail (margin 0 − 2 = −2).
+  "corner-solves": {
+    pass: p("pn-diode", { cornersWithoutOperatingPoint: 0 }, {}, 0, 0),
+    violate: v("fail", p("integrated-switch", { cornersWithoutOperatingPoint: 2 }, {}, 0, -2)),
+  },
   "tj-limit": {
     pass: p("schottky-diode", { tjWorstC: 140 }, { tjMaxC: 150 }, 150, 10),
     violate: v("fail", p("schottky-diode", { tjWorstC: 151 }, { tjMaxC: 150 }, 150, -1)),
