@@ -49,10 +49,7 @@ export function clampPhase(m: TurnOffModel, loop: RlcLoop, xOff: Vec2, turnOffS:
     };
   }
   // From the turn-off on: a decaying input's part decayed to turnOffS (shiftLoop).
-  const clampLoop: RlcLoop = shiftLoop(
-    { ...loop, sourceV: m.inputAfterV + clampV, loopResistanceOhm: m.loopResistanceOhm },
-    turnOffS,
-  );
+  const clampLoop: RlcLoop = shiftLoop(withClampInLoop(m, loop, clampV), turnOffS);
   const sc = loopSystem(clampLoop);
   const cch = loopCharacter(sc);
   const ramp = (m.loopInductanceH * -xOff[0]) / (clampV - driveV);
@@ -80,6 +77,18 @@ export function clampPhase(m: TurnOffModel, loop: RlcLoop, xOff: Vec2, turnOffS:
     energies,
   };
   return { kind: "clamp", clamp, outputMinV: outputMinOver(clampLoop, xOff, end) };
+}
+
+/**
+ * The loop with the blocking element's clamp voltage in its source and the stage out of its
+ * resistance; an input clamp's hold (RlcLoop.hold) the same, its resistance less the stage's.
+ */
+export function withClampInLoop(m: TurnOffModel, loop: RlcLoop, clampV: number): RlcLoop {
+  const out: RlcLoop = { ...loop, sourceV: m.inputAfterV + clampV, loopResistanceOhm: m.loopResistanceOhm };
+  const h = loop.hold;
+  if (h === undefined) return out;
+  const stageOhm = loop.loopResistanceOhm - m.loopResistanceOhm;
+  return { ...out, hold: { ...h, sourceV: h.sourceV + clampV, loopResistanceOhm: h.loopResistanceOhm - stageOhm } };
 }
 
 /** The output's lowest value over [0, tEnd] of a loop from x0: the ends and the output's extrema between. */

@@ -1,10 +1,13 @@
 import {
   det2,
   gaussLegendre,
+  holdPiece,
   type Linear2,
   loopSystem,
   outputV,
   type RlcLoop,
+  releasedLoop,
+  shiftLoop,
   slowestDecayPerS,
   stateAt,
   stateIntegral,
@@ -79,6 +82,7 @@ export interface PhaseEnergies {
  * whole event started with (default: this phase's own start): the residual's floor is 1e-9 of it.
  */
 export function phaseEnergies(p: RlcLoop, x0: Vec2, t: number, clampV: number, eventStoredJ = 0): PhaseEnergies {
+  if (p.hold !== undefined) return heldEnergies(p, x0, t, clampV, eventStoredJ);
   const s = loopSystem(p);
   const x = stateAt(s, x0, t);
   const q = stateIntegral(s, x0, t);
@@ -135,6 +139,39 @@ export function phaseEnergies(p: RlcLoop, x0: Vec2, t: number, clampV: number, e
     clampJ,
     balanceResidual: (lost - used) / scale,
   };
+}
+
+/**
+ * A held start's energies: each piece's (the hold to its release, the released loop after), the
+ * state carried across, summed; the residual of the sums against the energy stored at the start.
+ */
+function heldEnergies(p: RlcLoop, x0: Vec2, t: number, clampV: number, eventStoredJ: number): PhaseEnergies {
+  const untilS = p.hold?.untilS ?? 0;
+  const stored = Math.max(0.5 * p.capacitanceF * x0[1] * x0[1] + 0.5 * p.inductanceH * x0[0] * x0[0], eventStoredJ);
+  const held = holdPiece(p);
+  const first = phaseEnergies(held, x0, Math.min(t, untilS), clampV, stored);
+  if (!(t > untilS)) return first;
+  const xB = stateAt(loopSystem(held), x0, untilS);
+  const later = phaseEnergies(shiftLoop(releasedLoop(p), untilS), xB, t - untilS, clampV, stored);
+  const sum = (k: Exclude<keyof PhaseEnergies, "balanceResidual">) => first[k] + later[k];
+  const e = {
+    capacitorLostJ: sum("capacitorLostJ"),
+    inductorLostJ: sum("inductorLostJ"),
+    sourceDeliveredJ: sum("sourceDeliveredJ"),
+    loopResistanceJ: sum("loopResistanceJ"),
+    esrJ: sum("esrJ"),
+    loadJ: sum("loadJ"),
+    clampJ: sum("clampJ"),
+  };
+  const lost = e.capacitorLostJ + e.inductorLostJ + e.sourceDeliveredJ;
+  const used = e.loopResistanceJ + e.esrJ + e.loadJ + e.clampJ;
+  const scale = Math.max(
+    Math.abs(first.capacitorLostJ) + Math.abs(first.inductorLostJ) + Math.abs(first.sourceDeliveredJ),
+    Math.abs(later.capacitorLostJ) + Math.abs(later.inductorLostJ) + Math.abs(later.sourceDeliveredJ),
+    1e-9 * stored,
+    1e-300,
+  );
+  return { ...e, balanceResidual: (lost - used) / scale };
 }
 
 /**
