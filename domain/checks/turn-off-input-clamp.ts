@@ -30,6 +30,25 @@ export interface InputClampHold {
   readonly releaseS?: number;
 }
 
+/**
+ * The source (sourceV + extraV·e^(−t/τ) behind sourceOhm, the loop's unclamped source) and the
+ * clamp (its level behind its dynamic resistance rd) as one Thevenin source (superposition):
+ * (Vth·rd + Vcl·R)/(R + rd) behind R·rd/(R + rd); rd = 0 gives the clamp's level behind nothing.
+ */
+export function clampThevenin(
+  clamp: InputNodeClamp,
+  loop: RlcLoop,
+  sourceOhm: number,
+): { readonly sourceV: number; readonly extraV: number; readonly resistanceOhm: number } {
+  const rd = Math.max(clamp.dynamicOhm, 0);
+  const k = rd / (sourceOhm + rd);
+  return {
+    sourceV: loop.sourceV * k + clamp.levelV * (1 - k),
+    extraV: (loop.sourceDecay?.extraV ?? 0) * k,
+    resistanceOhm: sourceOhm * k,
+  };
+}
+
 /** Points of the release search's grid over its span, geometric from 1e-9 of it (the loop's extrema come on top). */
 const RELEASE_GRID = 400;
 
@@ -60,16 +79,15 @@ export function heldStart(
   const vcl = clamp.levelV;
   const g = (t: number, i: number) => sourceAt(loop, t) - sourceOhm * i - vcl;
   if (!(g(0, x0[0]) < 0)) return undefined;
-  const rd = Math.max(clamp.dynamicOhm, 0);
-  const k = rd / (sourceOhm + rd);
+  const th = clampThevenin(clamp, loop, sourceOhm);
   const open: HeldStart = {
     untilS: Number.POSITIVE_INFINITY,
-    sourceV: loop.sourceV * k + vcl * (1 - k),
-    extraV: (loop.sourceDecay?.extraV ?? 0) * k,
-    loopResistanceOhm: sourceOhm * k + stageOhm,
+    sourceV: th.sourceV,
+    extraV: th.extraV,
+    loopResistanceOhm: th.resistanceOhm + stageOhm,
   };
   const s = loopSystem({ ...loop, hold: open });
-  const inputAtStartV = open.sourceV + open.extraV - sourceOhm * k * x0[0];
+  const inputAtStartV = open.sourceV + open.extraV - th.resistanceOhm * x0[0];
   const tau = loop.sourceDecay?.tauS ?? 0;
   const decay = slowestDecayPerS(s);
   const span = Math.max(60 * tau, decay > 0 ? 60 / decay : 0, 1e-12);

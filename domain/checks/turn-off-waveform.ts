@@ -9,7 +9,7 @@ import {
   type Vec2,
 } from "../physics/rlc-series.js";
 import { inputDecayOf, type TurnOffModel, type TurnOffOutcome } from "./turn-off-event.js";
-import { withClampInLoop } from "./turn-off-clamp-phase.js";
+import { clampPhaseLoop } from "./turn-off-clamp-phase.js";
 import { heldStart } from "./turn-off-input-clamp.js";
 import { loadLine } from "./turn-off-loop.js";
 
@@ -83,7 +83,7 @@ export function turnOffWaveform(
   push(loop, s, x0, 0, phaseTimes(s, x0, endS, n, extra));
   const clamp = r.outcome === "blocks" ? r.clamp : undefined;
   if (clamp === undefined || r.outcome !== "blocks") return { ...cols, pointsPerPhase: n };
-  const clampLoop: RlcLoop = shiftLoop(withClampInLoop(m, loop, clamp.clampV), r.turnOffS);
+  const clampLoop: RlcLoop = clampPhaseLoop(m, loop, clamp.clampV, r.turnOffS);
   const sc = loopSystem(clampLoop);
   const xOff = stateAt(s, x0, r.turnOffS);
   // The turn-off instant closes the conduction phase and opens the clamp phase (the state is continuous).

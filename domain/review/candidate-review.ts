@@ -17,7 +17,7 @@ import {
 import type { ControllerTurnOff } from "../checks/reverse-path.js";
 import { blocksReverseCurrent } from "../checks/stage-ratings.js";
 import { thermalSizing, type ThermalSizing } from "../checks/thermal-sizing.js";
-import type { TransientAllowance, TransientContext } from "../checks/transient-stress.js";
+import { clampLawOf, type TransientAllowance, type TransientContext } from "../checks/transient-stress.js";
 import { type SweptTransientResult, sweptTransientStress } from "../checks/transient-sweep.js";
 import { gateThresholdColdV as coldThresholdV, withThresholdShift } from "../checks/gate-threshold.js";
 import { totalRthKPerW } from "../physics/thermal-path.js";
@@ -233,18 +233,17 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
       ? cand
       : { ...cand, stage: withThresholdShift(cand.stage, cand.turnOffThresholdShiftV) };
   const turnOff = req.turnOff ? reviewTurnOff(req.turnOff, eventReq, eventCand, worst.tjC?.value) : undefined;
-  const pulses =
-    req.turnOff && turnOff
-      ? pulseBackConduction(
-          req.turnOff,
-          eventReq,
-          eventCand.stage,
-          turnOff.tjC,
-          { nominalV: req.supplyNominalV, resistanceOhm: req.sourceResistanceOhm },
-          req.transients,
-          transients,
-        )
-      : [];
+  const inputClamp = req.transientContext.inputClamp;
+  const pulses = pulseBackConduction(
+    req.turnOff,
+    eventReq,
+    eventCand.stage,
+    turnOff?.tjC ?? req.ambientMaxC,
+    { nominalV: req.supplyNominalV, resistanceOhm: req.sourceResistanceOhm },
+    req.transients,
+    transients,
+    inputClamp === undefined ? undefined : clampLawOf(inputClamp),
+  );
   const energy = req.mission
     ? missionEnergy(cand.stage, req.mission, req.supplyNominalV, req.sourceResistanceOhm, req.load, req.pricePerKWh)
     : undefined;

@@ -1,3 +1,4 @@
+import type { ClampLaw } from "../checks/clamp-energy.js";
 import type { TransientResult } from "../checks/transient-stress.js";
 import type { TurnOffOutcome } from "../checks/turn-off-event.js";
 import { twoSourceThevenin } from "../physics/two-source-thevenin.js";
@@ -36,9 +37,20 @@ export type PulseBackConduction =
       readonly chargeLostC: number;
       /** The output's lowest voltage, V: below 0 the load sees reverse voltage. */
       readonly outputMinV: number;
+      /**
+       * The design's input clamp held the input at its level at the start (turn-off-input-clamp.ts):
+       * its level and dynamic resistance, and when it let go (absent: it held over the whole span).
+       */
+      readonly clampHold?: { readonly levelV: number; readonly dynamicOhm: number; readonly releaseS?: number };
     }
   /** The event model gave no response for this input (clamp below the drive, an unstable loop): a gap. */
-  | { readonly pulseId: string; readonly outcome: "no-response"; readonly reason: string };
+  | { readonly pulseId: string; readonly outcome: "no-response"; readonly reason: string }
+  /** The requirement has no turn-off event (requirement.turnOff): the pulse's back-conduction is a gap, with what to add. */
+  | { readonly pulseId: string; readonly outcome: "not-assessed"; readonly reason: string };
+
+/** Why a negative pulse at a P-FET is not assessed without the requirement's turn-off event. */
+export const NO_TURN_OFF_REASON =
+  "the requirement has no turnOff section: the P-FET's channel conducts backwards into the negative pulse until its gate lets go, and the output capacitor (turnOff.capacitor), the loop (turnOff.loop), the gate lag (turnOff.gateLag) and the load's reverse-voltage limit (turnOff.loadReverseLimitV) decide the reverse current and how far below 0 V the output goes; add requirement.turnOff to assess it";
 
 /** The supply a pulse may ride on: the requirement's nominal battery behind its source resistance. */
 export interface PulseSupply {
@@ -66,13 +78,14 @@ export interface PulseSupply {
  * the pulse takes below threshold at once: it is the turn-off event's gate-falls case).
  */
 export function pulseBackConduction(
-  t: ReviewTurnOff,
+  t: ReviewTurnOff | undefined,
   req: Parameters<typeof reviewTurnOff>[1],
   stage: StageModel,
   tjC: number,
   supply: PulseSupply,
   pulses: readonly TransientPulse[],
   results: readonly TransientResult[],
+  clamp?: ClampLaw,
 ): readonly PulseBackConduction[] {
   if (stage.kind !== "pfet-high-side") return [];
   const out: PulseBackConduction[] = [];
@@ -82,6 +95,10 @@ export function pulseBackConduction(
     seen.add(r.pulseId);
     const pulse = pulses.find((p) => p.id === r.pulseId);
     if (pulse === undefined) continue;
+    if (t === undefined) {
+      out.push({ pulseId: r.pulseId, outcome: "not-assessed", reason: NO_TURN_OFF_REASON });
+      continue;
+    }
     const riding = pulse.baseV === "supply";
     const baseV = riding ? supply.nominalV : pulse.baseV;
     const amplitudeV = r.peakOpenCircuitV - baseV;
@@ -94,11 +111,14 @@ export function pulseBackConduction(
           generatorOhm: pulse.sourceResistanceOhm,
         })
       : { finalV: baseV, startV: baseV + amplitudeV, resistanceOhm: pulse.sourceResistanceOhm };
-    const startV = Math.max(th.startV, r.inputPeakV);
+    // The source unclamped; the design's clamp (bidirectional, as the transient check takes it)
+    // holds the input at −Vbr behind its dynamic resistance while the source is beyond it.
+    const startV = th.startV;
     const event: ReviewTurnOff = {
       ...t,
       inputAfterV: th.finalV,
       inputDecay: { startV, tauS: r.tauS },
+      ...(clamp === undefined ? {} : { inputClamp: { levelV: -clamp.breakdownV, dynamicOhm: clamp.dynamicOhm } }),
       loopResistanceOhm: th.resistanceOhm,
       tjC,
       repetitive: false,
@@ -148,10 +168,11 @@ function figures(
   if (x.outcome === "clamp-below-drive" || x.outcome === "invalid-load-line" || x.outcome === "unstable-loop")
     return { pulseId: r.pulseId, outcome: "no-response", reason: `${x.outcome}: ${x.reason}` };
   const gate = x.outcome === "does-not-block" ? x.gateTurnOff : undefined;
+  const hold = x.inputClampHold;
   return {
     pulseId: r.pulseId,
     outcome: "assessed",
-    inputPeakV: input.startV,
+    inputPeakV: hold?.inputAtStartV ?? input.startV,
     inputAfterV: input.finalV,
     tauS: r.tauS,
     loopResistanceOhm: input.ohm,
@@ -163,5 +184,14 @@ function figures(
     ...(gate === undefined && x.peakReverseIsLowerBound === true ? { peakReverseIsLowerBound: true as const } : {}),
     chargeLostC: gate?.chargeLostC ?? x.end.chargeLostC,
     outputMinV: x.outputMinV,
+    ...(hold === undefined
+      ? {}
+      : {
+          clampHold: {
+            levelV: hold.levelV,
+            dynamicOhm: hold.dynamicOhm,
+            ...(hold.releaseS === undefined ? {} : { releaseS: hold.releaseS }),
+          },
+        }),
   };
 }
