@@ -74,10 +74,26 @@ export const inputDecayField = z
       le: 10_000,
     }),
     timeConstantS: quantity("s", "time constant τ of the exponential decay", { gt: 0, le: 1e3 }),
+    clamp: z
+      .strictObject({
+        levelV: quantity("V", "the clamp's level: the input is held no lower than it (minus a TVS's breakdown)", {
+          ge: -10_000,
+          le: 10_000,
+        }),
+        dynamicResistanceOhm: quantity("ohm", "the clamp's dynamic resistance (default 0: a constant level)", {
+          ge: 0,
+          le: 1e3,
+        }).optional(),
+      })
+      .optional()
+      .meta({
+        description:
+          "a clamp at the input node: the decaying source is behind the loop's resistance, and while it would take the input below levelV the clamp holds the input there (its level plus its dynamic resistance's drop); it lets go where the source alone carries the loop current, and the input then follows the source (a held-then-decaying input)",
+      }),
   })
   .meta({
     description:
-      "the input after the event decays exponentially from startV to inputAfterV with time constant τ (a negative pulse's tail, a source's output capacitance discharging) instead of stepping to inputAfterV (absent: the input steps to inputAfterV)",
+      "the input after the event decays exponentially from startV to inputAfterV with time constant τ (a negative pulse's tail, a source's output capacitance discharging) instead of stepping to inputAfterV (absent: the input steps to inputAfterV); with clamp, startV is the source's unclamped start",
   });
 
 /** A P-FET's gate tied to ground through a resistor: how fast its |Vgs| follows the falling output. */

@@ -1,4 +1,6 @@
+import type { z } from "zod";
 import type { Requirement } from "../../contracts/requirement.js";
+import type { inputDecayField } from "../../contracts/turn-off.js";
 import type { ReviewTurnOff } from "../../domain/review/review-turn-off.js";
 import { inputProblem } from "../input-problem.js";
 import { missingQrrSentence, ONE_OFF_EVENT } from "./reverse-inputs.js";
@@ -46,7 +48,7 @@ export function reviewTurnOffOf(
     );
   return {
     inputAfterV,
-    ...(decay === undefined ? {} : { inputDecay: { startV: decay.startV, tauS: decay.timeConstantS } }),
+    ...decayingInput(decay),
     outputV,
     loopResistanceOhm: t.loop.resistanceOhm,
     loopInductanceH: t.loop.inductanceH,
@@ -61,5 +63,18 @@ export function reviewTurnOffOf(
       : { gateLagS: (t.gateLag.resistanceOhm * t.gateLag.gateChargeC) / t.gateLag.atGateSourceV }),
     ...(t.loadReverseLimitV === undefined ? {} : { loadReverseLimitV: t.loadReverseLimitV }),
     ...(t.repetition === undefined ? {} : { repetition: t.repetition }),
+  };
+}
+
+/** The contract's inputDecay (with its clamp at the input node) as the turn-off event's input: one mapping for turnOff and the review. */
+export function decayingInput(decay: z.output<typeof inputDecayField> | undefined): {
+  inputDecay?: { startV: number; tauS: number };
+  inputClamp?: { levelV: number; dynamicOhm: number };
+} {
+  if (decay === undefined) return {};
+  const c = decay.clamp;
+  return {
+    inputDecay: { startV: decay.startV, tauS: decay.timeConstantS },
+    ...(c === undefined ? {} : { inputClamp: { levelV: c.levelV, dynamicOhm: c.dynamicResistanceOhm ?? 0 } }),
   };
 }

@@ -82,7 +82,10 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   if (unstable !== undefined) return unstable;
   const ch = loopCharacter(s);
   const x0: Vec2 = [i0, m.outputV];
-  const horizon = ch.decayPerS > 0 ? 60 / ch.decayPerS : (400 * Math.PI) / Math.max(ch.naturalRadPerS, 1e-300);
+  const span = (c: ReturnType<typeof loopCharacter>) =>
+    c.decayPerS > 0 ? 60 / c.decayPerS : (400 * Math.PI) / Math.max(c.naturalRadPerS, 1e-300);
+  // A held start: the released loop's own span from its release on, where that is later.
+  const horizon = s.next === undefined ? span(ch) : Math.max(span(ch), s.next.atS + span(loopCharacter(s.next.system)));
   // tEnd: the end of the window; conducting: the stage still conducts there (it never blocks),
   // so the reverse current is followed on the same loop until it turns, up to the horizon.
   const common = (tEnd: number, conducting = false): TurnOffCommon => {

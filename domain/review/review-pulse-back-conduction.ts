@@ -114,8 +114,10 @@ export function pulseBackConduction(
     // The source unclamped; the design's clamp (bidirectional, as the transient check takes it)
     // holds the input at −Vbr behind its dynamic resistance while the source is beyond it.
     const startV = th.startV;
+    // The requirement's own event's input clamp is not the pulse's: only the design's clamp acts.
+    const { inputClamp: _own, ...own } = t;
     const event: ReviewTurnOff = {
-      ...t,
+      ...own,
       inputAfterV: th.finalV,
       inputDecay: { startV, tauS: r.tauS },
       ...(clamp === undefined ? {} : { inputClamp: { levelV: -clamp.breakdownV, dynamicOhm: clamp.dynamicOhm } }),
