@@ -2,7 +2,6 @@ import {
   extremaTimes,
   type Linear2,
   loopSystem,
-  shiftLoop,
   outputV,
   type RlcLoop,
   stateAt,

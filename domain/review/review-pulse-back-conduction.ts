@@ -76,6 +76,21 @@ export interface PulseSupply {
  * battery holds the output) it conducts backwards into the pulse throughout and the reverse
  * current peak is the figure. Other stages: none (a low-side N-FET's gate follows the input, which
  * the pulse takes below threshold at once: it is the turn-off event's gate-falls case).
+ *
+ * The design's input clamp (clamp: breakdown and dynamic resistance, symmetric as the transient
+ * check takes it) holds the input at −Vbr while the source behind Ri is beyond it and lets go where
+ * the generator alone carries the loop current (turn-off-input-clamp.ts): the source is the
+ * unclamped Vth(t), the clamp's hold its first piece. Left out, each on the conservative side
+ * (test/domain/review/pulse-clamp-hold.test.ts):
+ * - the body diode's forward drop: while reverse current flows through the channel its drop i·Rds
+ *   reverse-biases the diode, and in the clamp phase it is in avalanche; it could conduct forward
+ *   only with forward current (the input above the output), which returns charge to the output and
+ *   raises it, so without it the charge lost is no smaller and the output's lowest point no higher;
+ * - the I·R offset before the event: the output starts at the event's outputV (the nominal supply
+ *   by default), not Vb − I·(Rb + Rds); a higher start drives more reverse current and keeps the
+ *   lagged gate on longer, so all three figures are at least as severe as from the true start.
+ * Without requirement.turnOff (t undefined) each negative pulse at a P-FET is not-assessed, with
+ * what to add.
  */
 export function pulseBackConduction(
   t: ReviewTurnOff | undefined,

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { clampLawOf, transientStress } from "../../../domain/checks/transient-stress.js";
 import { type TurnOffModel, turnOffEvent } from "../../../domain/checks/turn-off-event.js";
+import { loopSystem, stateAt } from "../../../domain/physics/rlc-series.js";
 import { pulseBackConduction } from "../../../domain/review/review-pulse-back-conduction.js";
 import type { ReviewTurnOff } from "../../../domain/review/review-turn-off.js";
 import type { TransientPulse } from "../../../domain/review/transient-library.js";
@@ -174,5 +175,88 @@ quit
     expect(held.outputMinV).toBeLessThan(-9.5);
     expect(before.outputMinV).toBeGreaterThan(-1.5);
     expect(held.chargeLostC).toBeGreaterThan(1.5 * before.chargeLostC);
+  });
+
+  it("left out on the conservative side: the I·R offset before the event (the output starting at its nominal level)", () => {
+    // The true pre-event output is lower by I·(R + Rds), 3 A × 50 mOhm here: each figure from the
+    // nominal start is at least as severe (more reverse current, more charge lost, no higher minimum).
+    for (const [inductanceH, gateLagS, capacitanceF] of [
+      [1e-6, 1e-3, 470e-6],
+      [22e-6, 1e-4, 100e-6],
+      [1e-6, 3e-4, 47e-6],
+      [1e-6, 1e-6, 470e-6],
+    ] as const) {
+      const run = (outputV: number) => {
+        const r = pulseBackConduction(
+          { ...eventOf(inductanceH, gateLagS, capacitanceF), outputV },
+          { ...req, load: { kind: "constant-current", currentA: 3 } },
+          pfetStage,
+          25,
+          { nominalV: 12, resistanceOhm: 0 },
+          [pulse1],
+          [transientStress(pfetStage, pulse1, ctx)],
+          clampLawOf(tvs),
+        )[0];
+        if (r?.outcome !== "assessed") throw new Error(JSON.stringify(r));
+        return r;
+      };
+      const nominal = run(12);
+      const offset = run(12 - 3 * 0.05);
+      expect(nominal.peakReverseCurrentA).toBeGreaterThanOrEqual(offset.peakReverseCurrentA);
+      expect(nominal.chargeLostC).toBeGreaterThanOrEqual(offset.chargeLostC);
+      expect(nominal.outputMinV).toBeLessThanOrEqual(offset.outputMinV);
+    }
+  });
+
+  it("left out on the conservative side: the body diode's forward drop (reverse-biased while reverse current flows)", () => {
+    // While the channel carries reverse current its drop i·Rds puts the output above the diode's
+    // anode: the diode is reverse-biased over the whole window up to the turn-off, then in avalanche in
+    // the clamp phase, so it never conducts forward before the loop current stops (the ngspice
+    // circuits above include it and agree within 1 %). Over the window the loop current is reverse or
+    // zero: no forward current, which alone could bring the diode in (and would only raise the output).
+    const t = eventOf(1e-6, 1e-3, 470e-6);
+    const m: TurnOffModel = {
+      stage: pfetStage,
+      outputV: 12,
+      inputAfterV: 0,
+      inputDecay: { startV: -150, tauS: TAU },
+      inputClamp: { levelV: -28.9, dynamicOhm: 0.185 },
+      loopResistanceOhm: 10,
+      loopInductanceH: t.loopInductanceH,
+      capacitanceF: t.capacitanceF,
+      esrOhm: 0,
+      load: { kind: "constant-current", currentA: 1 },
+      loadMinV: -1e3,
+      tjC: 25,
+      gateLagS: t.gateLagS ?? 0,
+    };
+    const r = turnOffEvent(m);
+    if (r.outcome !== "does-not-block" || r.gateTurnOff === undefined) throw new Error(r.outcome);
+    const offS = r.gateTurnOff.channelOffS;
+    const s = loopSystem({
+      sourceV: 0,
+      sourceDecay: { extraV: -150, tauS: TAU },
+      loopResistanceOhm: r.loop.totalResistanceOhm,
+      inductanceH: m.loopInductanceH,
+      capacitanceF: m.capacitanceF,
+      esrOhm: 0,
+      loadCurrentA: 1,
+      loadConductanceS: 0,
+      ...(r.inputClampHold?.releaseS === undefined
+        ? {}
+        : {
+            hold: {
+              untilS: r.inputClampHold.releaseS,
+              sourceV: -28.9 * (10 / 10.185),
+              extraV: -150 * (0.185 / 10.185),
+              loopResistanceOhm: (10 * 0.185) / 10.185 + r.loop.stageResistanceOhm,
+            },
+          }),
+    });
+    // The loop current once it has reversed (after the load's 1 A at t = 0 turns within a fraction of a microsecond).
+    for (let k = 1; k <= 1000; k += 1) {
+      const time = (k / 1000) * offS;
+      if (time > 1e-6) expect(stateAt(s, [1, 12], time)[0]).toBeLessThan(0);
+    }
   });
 });

@@ -35,7 +35,7 @@ async function candidateOf(input: Obj, set: string): Promise<Candidate> {
 
 const design = pfetPulse1HeldByClamp("100 Ohm") as { requirement: Obj; candidates: Obj[] };
 const { turnOff: _t, ...noTurnOff } = design.requirement;
-const withThermal = {
+const withThermal: Obj = {
   ...design.requirement,
   inputClamp: {
     ...(design.requirement["inputClamp"] as Obj),
