@@ -169,6 +169,12 @@ export const turnOffInput = z
         path: ["inputDecay", "startV"],
         message: "must be below outputV: the input falls at t = 0 (give the level it jumps to, then decays from)",
       });
+    if (v.inputDecay?.clamp !== undefined && !(v.inputDecay.clamp.levelV < v.outputV))
+      ctx.addIssue({
+        code: "custom",
+        path: ["inputDecay", "clamp", "levelV"],
+        message: "must be below outputV: the clamp holds a falling input (give its level, minus a TVS's breakdown)",
+      });
   })
   .meta({ description: "reverse current when the input falls: peak current, charge lost, turn-off energy" });
 export type TurnOffInput = z.input<typeof turnOffInput>;

@@ -46,6 +46,12 @@ export function reviewTurnOffOf(
       ["requirement", "turnOff", "inputDecay", "startV"],
       `must be below the output voltage before the event (${outputV} V): the input falls at t = 0`,
     );
+  if (decay?.clamp !== undefined && !(decay.clamp.levelV < outputV))
+    throw inputProblem(
+      "invalid-input",
+      ["requirement", "turnOff", "inputDecay", "clamp", "levelV"],
+      `must be below the output voltage before the event (${outputV} V): the clamp holds a falling input`,
+    );
   return {
     inputAfterV,
     ...decayingInput(decay),

@@ -86,4 +86,19 @@ describe("pulse 1 held by the input clamp, at a P-FET with a slow gate", () => {
     expect(v?.reason).toContain("requirement.turnOff");
     expect(c.verdict).not.toBe("pass");
   });
+
+  it("refuses a clamp level at or above the output, naming the field", async () => {
+    await expect(direct({ startV: -150, timeConstantS: 1e-3, clamp: { levelV: 20 } }, 25)).rejects.toThrow(
+      /below outputV/,
+    );
+    if (review === undefined) throw new Error("review missing");
+    const bad = {
+      ...design,
+      requirement: {
+        ...req,
+        turnOff: { ...turnOffReq, inputDecay: { startV: -5, timeConstantS: 1e-3, clamp: { levelV: 20 } } },
+      },
+    };
+    await expect(review(bad)).rejects.toThrow(/clamp holds a falling input/);
+  });
 });
