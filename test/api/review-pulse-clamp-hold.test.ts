@@ -87,6 +87,40 @@ describe("pulse 1 held by the input clamp, at a P-FET with a slow gate", () => {
     expect(c.verdict).not.toBe("pass");
   });
 
+  it("the turnOff waveform on the held input follows the same pieces: its reverse peak and end state are the event's", async () => {
+    if (turnOff === undefined) throw new Error("turnOff missing");
+    const r = turnOffOutput.parse(
+      await turnOff({
+        stage,
+        outputV: 13.5,
+        inputAfterV: 0,
+        inputDecay: {
+          startV: -150,
+          timeConstantS: 2e-3 / Math.log(10),
+          clamp: { levelV: -28.9, dynamicResistanceOhm: 0.185 },
+        },
+        gateLag: turnOffReq["gateLag"],
+        loop: { resistanceOhm: 10, inductanceH: "1 uH" },
+        capacitor: turnOffReq["capacitor"],
+        load: req["load"],
+        loadMinV: 0,
+        tjC: 25,
+        waveform: true,
+      }),
+    );
+    if (r.outcome !== "does-not-block" || r.waveform === undefined) throw new Error(r.outcome);
+    const w = r.waveform;
+    const peakA = Math.max(...w.currentA.map((i) => -i));
+    expect(Math.abs(peakA / r.peakReverseCurrentA - 1)).toBeLessThan(1e-9);
+    // The waveform runs to the event's window end (the output crossing the load's minimum, 0 V here),
+    // through the clamp's release: its last sample is the event's end state.
+    expect(r.end.timeS).toBeGreaterThan(r.inputClampHold?.releaseS ?? Number.POSITIVE_INFINITY);
+    const last = w.timeS.findIndex((t) => t === r.end.timeS);
+    expect(last).toBeGreaterThan(0);
+    expect(Math.abs((w.outputV[last] ?? Number.NaN) - r.end.outputV)).toBeLessThan(1e-9);
+    expect(Math.abs((w.currentA[last] ?? Number.NaN) / r.end.currentA - 1)).toBeLessThan(1e-9);
+  });
+
   it("refuses a clamp level at or above the output, naming the field", async () => {
     await expect(direct({ startV: -150, timeConstantS: 1e-3, clamp: { levelV: 20 } }, 25)).rejects.toThrow(
       /below outputV/,
