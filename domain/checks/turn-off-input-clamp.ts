@@ -66,7 +66,11 @@ const RELEASE_GRID = 400;
  * form: the first sign change of Vth(t) − R·i(t) − Vcl over the loop current's extrema (between
  * them i is monotone) and a geometric grid of RELEASE_GRID points, closed by bisection. Returns
  * undefined where the clamp does not conduct at 0+ (the event starts released: the loop as it
- * is) or the source has no resistance (an ideal source no clamp can hold).
+ * is) or the source has no resistance (an ideal source no clamp can hold). Once released the
+ * clamp is not taken back in while the channel conducts (were the reverse current to fall while
+ * the source is still beyond the clamp, the modelled input would go below the clamp's level: more
+ * drive for the reverse current, a lower output, the conservative side); after the channel lets go
+ * the clamp phase takes it back (turn-off-clamp-phase.ts clampPhaseLoop).
  */
 export function heldStart(
   clamp: InputNodeClamp | undefined,

@@ -1,3 +1,4 @@
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { clampLawOf, transientStress } from "../../../domain/checks/transient-stress.js";
 import { type TurnOffModel, turnOffEvent } from "../../../domain/checks/turn-off-event.js";
@@ -258,5 +259,47 @@ quit
       const time = (k / 1000) * offS;
       if (time > 1e-6) expect(stateAt(s, [1, 12], time)[0]).toBeLessThan(0);
     }
+  });
+
+  it("every figure is finite over 100 random pulses, clamps and loops (no NaN or Infinity leaves the model)", () => {
+    const finite = (x: unknown): boolean =>
+      typeof x === "number"
+        ? Number.isFinite(x)
+        : typeof x === "object" && x !== null
+          ? Object.values(x).every(finite)
+          : true;
+    fc.assert(
+      fc.property(
+        fc.record({
+          amplitudeV: fc.double({ min: -600, max: -20, noNaN: true }),
+          riOhm: fc.double({ min: 0.5, max: 50, noNaN: true }),
+          decayS: fc.double({ min: 1e-5, max: 1e-2, noNaN: true }),
+          breakdownV: fc.double({ min: 15, max: 200, noNaN: true }),
+          rdOhm: fc.double({ min: 0, max: 2, noNaN: true }),
+          inductanceH: fc.double({ min: 1e-7, max: 1e-4, noNaN: true }),
+          capacitanceF: fc.double({ min: 1e-6, max: 1e-2, noNaN: true }),
+          gateLagS: fc.double({ min: 0, max: 3e-3, noNaN: true }),
+        }),
+        (k) => {
+          const pulse = { ...pulse1, amplitudeV: k.amplitudeV, sourceResistanceOhm: k.riOhm, decayS: k.decayS };
+          const clamp = { ...tvs, breakdownV: k.breakdownV, clampV: k.breakdownV + 60 * k.rdOhm };
+          const r = pulseBackConduction(
+            eventOf(k.inductanceH, k.gateLagS, k.capacitanceF),
+            req,
+            pfetStage,
+            25,
+            { nominalV: 12, resistanceOhm: 0 },
+            [pulse],
+            [transientStress(pfetStage, pulse, { ...ctx, inputClamp: clamp })],
+            clampLawOf(clamp),
+          )[0];
+          expect(r).toBeDefined();
+          expect(finite(r)).toBe(true);
+          if (r?.outcome === "assessed" && r.clampHold?.releaseS !== undefined)
+            expect(r.clampHold.releaseS).toBeGreaterThanOrEqual(0);
+        },
+      ),
+      { numRuns: 100, seed: 19 },
+    );
   });
 });
