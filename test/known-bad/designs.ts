@@ -123,6 +123,18 @@ const integratedSwitch = (o: Obj = {}): Obj => ({
   ...o,
 });
 
+/** A clamp's junction-to-ambient Foster network (invented): a fast die, a package, and its mounting's slow tail. */
+const clampNetwork = (mountingKPerW: number): Obj[] => [
+  { rKPerW: 0.05, tauS: 1e-3 },
+  { rKPerW: 0.5, tauS: 0.05 },
+  { rKPerW: mountingKPerW, tauS: 60 },
+];
+/** A load-dump suppressor's Foster network (invented): a large die on a heavy mounting. */
+const loadDumpClampNetwork: Obj[] = [
+  { rKPerW: 0.01, tauS: 0.01 },
+  { rKPerW: 0.05, tauS: 1 },
+  { rKPerW: 1, tauS: 100 },
+];
 const req12: Obj = {
   supply: { class: "vehicle-12v-b" },
   load: { kind: "constant-current", currentA: 3 },
@@ -146,7 +158,7 @@ const req24Industrial: Obj = {
   supply: { class: "industrial-24v" },
   load: { kind: "constant-current", currentA: 2 },
   ambient: { minC: -25, maxC: 60 },
-  inputClamp: { standoffV: 30, clampV: 48, peakCurrentA: 1000, energyJ: 100 },
+  inputClamp: { standoffV: 30, clampV: 48, peakCurrentA: 1000, energyJ: 100, thermal: clampNetwork(20) },
 };
 /** A MOSFET rated at 4.5 V of gate drive only (the controller's ~7 V pump drives it fully on a 5 V rail). */
 const logicLevel: Obj = { rdsOn: [{ gateSourceV: 4.5, rdsOnOhm: "4.5 mOhm" }] };
@@ -224,8 +236,18 @@ const reviewZth = (requirement: Obj, stage: Obj, transientThermal: Obj): Obj => 
   requirement,
   candidates: [{ stage, transientThermal }],
 });
-/** A bidirectional TVS-like input clamp: stand-off above jump start, clamping below the parts' ratings. */
-const clamp = (o: Obj = {}): Obj => ({ standoffV: 26, clampV: 40, peakCurrentA: 100, energyJ: 100, ...o });
+/**
+ * A bidirectional TVS-like input clamp: stand-off above jump start, clamping below the parts' ratings,
+ * with its Foster network on a 20 K/W mounting (invented): its junction over each pulse train is assessed.
+ */
+const clamp = (o: Obj = {}): Obj => ({
+  standoffV: 26,
+  clampV: 40,
+  peakCurrentA: 100,
+  energyJ: 100,
+  thermal: clampNetwork(20),
+  ...o,
+});
 /** The 10 uH cut of the ideal diode repeated every periodS, on a candidate with a junction-ambient Foster network. */
 const trainReview = (periodS: number): Obj => ({
   requirement: {
@@ -304,7 +326,7 @@ const pfetUnderSupplySurge = (gateResistor: string | undefined): Obj =>
       sourceResistanceOhm: "2 ohm",
       load: { kind: "resistive", resistanceOhm: "10 ohm" },
       ambient: { minC: -25, maxC: 60 },
-      inputClamp: { standoffV: 30, clampV: 48, peakCurrentA: 1000, energyJ: 100 },
+      inputClamp: { standoffV: 30, clampV: 48, peakCurrentA: 1000, energyJ: 100, thermal: clampNetwork(20) },
       turnOff: {
         loop: { resistanceOhm: "1 ohm", inductanceH: "1 uH" },
         capacitor: { capacitanceF: "10 uF", esrOhm: "20 mOhm" },
@@ -350,12 +372,6 @@ export const pfetPulse1HeldByClamp = (gateResistor: string): Obj =>
       ],
     }),
   );
-/** A clamp's junction-to-ambient Foster network (invented): a fast die, a package, and its mounting's slow tail. */
-const clampNetwork = (mountingKPerW: number): Obj[] => [
-  { rKPerW: 0.05, tauS: 1e-3 },
-  { rKPerW: 0.5, tauS: 0.05 },
-  { rKPerW: mountingKPerW, tauS: 60 },
-];
 const crank: Obj[] = [
   { timeS: 0, voltageV: 12 },
   { timeS: 0.005, voltageV: 4.5 },
@@ -610,11 +626,19 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     procedure: "review",
     rule: "clamp-energy",
     bad: review(
-      { ...req12, transients: ["iso16750-2-load-dump-a-12v"], inputClamp: clamp({ energyJ: 5, peakCurrentA: 30 }) },
+      {
+        ...req12,
+        transients: ["iso16750-2-load-dump-a-12v"],
+        inputClamp: clamp({ energyJ: 5, peakCurrentA: 30, thermal: loadDumpClampNetwork }),
+      },
       idealDiode(),
     ),
     twin: review(
-      { ...req12, transients: ["iso16750-2-load-dump-a-12v"], inputClamp: clamp({ energyJ: 300, peakCurrentA: 100 }) },
+      {
+        ...req12,
+        transients: ["iso16750-2-load-dump-a-12v"],
+        inputClamp: clamp({ energyJ: 300, peakCurrentA: 100, thermal: loadDumpClampNetwork }),
+      },
       idealDiode(),
     ),
   },
