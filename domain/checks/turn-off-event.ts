@@ -1,9 +1,7 @@
 import { cToK } from "../physics/constants.js";
 import {
-  det2,
   firstCrossing,
   extremaTimes,
-  type Linear2,
   loopSystem,
   outputV,
   type RlcLoop,
@@ -17,7 +15,7 @@ import { reversePath } from "./reverse-path.js";
 import { gateOffTime } from "./pfet-gate-off.js";
 import { clampPhase, outputMinOver, windowState } from "./turn-off-clamp-phase.js";
 import { heldStart } from "./turn-off-input-clamp.js";
-import { loadLine, loopCharacter, phaseEnergies } from "./turn-off-loop.js";
+import { loadLine, loopCharacter, phaseEnergies, unstableLoop } from "./turn-off-loop.js";
 
 import type { GateTurnOff, TurnOffCommon, TurnOffModel, TurnOffOutcome } from "./turn-off-event-types.js";
 
@@ -163,39 +161,6 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   if (after.kind === "below-drive") return after.outcome;
   if (after.kind === "none") return base;
   return { ...base, outputMinV: Math.min(base.outputMinV, after.outputMinV), clamp: after.clamp };
-}
-
-/** The loop's unstable outcome, if it is (each piece of a held start is checked). */
-function unstableLoop(
-  s: Linear2,
-  conductanceS: number,
-): Extract<TurnOffOutcome, { outcome: "unstable-loop" }> | undefined {
-  // A constant-power load is a negative incremental resistance −V²/P: its tangent can make the
-  // linearised loop unstable, by a real mode (det A ≤ 0: R·P/V² ≥ 1) or by negative damping
-  // (trace A > 0: P/V² > C·(R + ESR)/L, the negative-resistance oscillator; common practice for
-  // a converter input behind an L-C). No bounded response exists to report: its own outcome.
-  // At the real-mode boundary (det A → 0+) the slow mode's decay vanishes and the closed form is
-  // rounding (energy balances of 0.6-1000 within 1e-15 of it): det A within 0.1 % of |a12·a21|
-  // (R·P/V² ≥ 0.999 with no ESR) counts as diverging, as the ESR's edge above.
-  const ch = loopCharacter(s);
-  const diverges = !(det2(s) > 1e-3 * Math.abs(s.a12 * s.a21));
-  if (diverges || ch.dampingRatio < 0) {
-    const rNeg = conductanceS < 0 ? 1 / conductanceS : 0;
-    const m2 = (s.a11 + s.a22) / 2;
-    const growthPerS = diverges ? Math.max(0, m2 + Math.sqrt(Math.max(m2 * m2 - det2(s), 0))) : m2;
-    const reason = diverges
-      ? `the constant-power load's incremental resistance ${rNeg.toPrecision(4)} ohm outweighs the loop resistance, or comes within 0.1 % of it (R·P/V² >= 0.999 without ESR): the linearised loop diverges (growth ${growthPerS.toPrecision(3)} 1/s) and the output collapses`
-      : `the constant-power load's incremental resistance ${rNeg.toPrecision(4)} ohm gives the linearised loop negative damping (damping ratio ${ch.dampingRatio.toPrecision(3)}: P/V^2 > C·(R + ESR)/L): its oscillation grows at ${growthPerS.toPrecision(3)} 1/s, so there is no bounded response to report; damp the input filter (more loop resistance or ESR, less inductance or more capacitance)`;
-    return {
-      outcome: "unstable-loop",
-      reason,
-      mode: diverges ? "diverges" : "oscillation-grows",
-      dampingRatio: diverges ? 0 : ch.dampingRatio,
-      growthPerS,
-      loadIncrementalResistanceOhm: rNeg,
-    };
-  }
-  return undefined;
 }
 
 /** The loop source's decaying part for an input that decays after the event (none for a step). */
