@@ -81,7 +81,7 @@ export interface PulseSupply {
  * check takes it) holds the input at −Vbr while the source behind Ri is beyond it and lets go where
  * the generator alone carries the loop current (turn-off-input-clamp.ts): the source is the
  * unclamped Vth(t), the clamp's hold its first piece. Left out, each on the conservative side
- * (test/domain/review/pulse-clamp-hold.test.ts):
+ * (test/domain/review/pulse-clamp-hold-omissions.test.ts):
  * - the body diode's forward drop: while reverse current flows through the channel its drop i·Rds
  *   reverse-biases the diode, and in the clamp phase it is in avalanche; it could conduct forward
  *   only with forward current (the input above the output), which returns charge to the output and
