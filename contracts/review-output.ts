@@ -187,7 +187,7 @@ export const candidateResult = z.object({
           outcome: z.literal("assessed"),
           inputPeakV: z.number().meta({
             description:
-              "the input at the event's start: the Thevenin source's start (the pulse with the battery where it rides on the supply), or the clamp's level where that is less",
+              "the input at the event's start: the Thevenin source's start (the pulse with the battery where it rides on the supply), or, where the design's input clamp holds it, the input node at the clamp's level (its breakdown plus the dynamic resistance's drop at the current it carries)",
           }),
           inputAfterV: z
             .number()
@@ -221,14 +221,33 @@ export const candidateResult = z.object({
           outputMinV: z
             .number()
             .meta({ description: "the output's lowest voltage: below 0 the load sees reverse voltage" }),
+          clampHold: z
+            .object({
+              levelV: z.number().meta({ description: "the clamp's level at the input (minus its breakdown voltage)" }),
+              dynamicOhm: z.number().meta({ description: "the clamp's dynamic resistance (0: a constant level)" }),
+              releaseS: z.number().optional().meta({
+                description:
+                  "when the clamp let go, the generator alone carrying the loop current, and the input began to follow the source's decay (absent: it held over the whole searched span)",
+              }),
+            })
+            .optional()
+            .meta({
+              description:
+                "the design's input clamp held the input at its level at the start, while the unclamped source was beyond it; the loop's state carried on into the source's decay",
+            }),
         }),
         z.object({ pulseId: z.string(), outcome: z.literal("no-response"), reason: z.string() }),
+        z.object({
+          pulseId: z.string(),
+          outcome: z.literal("not-assessed"),
+          reason: z.string().meta({ description: "why, and what to add to the request (requirement.turnOff)" }),
+        }),
       ]),
     )
     .optional()
     .meta({
       description:
-        "with the requirement's turnOff, a P-FET or low-side N-FET candidate (its gate-source sees the output): each negative pulse as the turn-off event's input (a decaying level: the generator alone where the supply is disconnected, the generator and the battery as one Thevenin source where the pulse rides on the supply), the channel conducting backwards until its gate lets go",
+        "a P-FET or low-side N-FET candidate (its gate-source sees the output): each negative pulse as the turn-off event's input, with the requirement's turnOff (without it: not-assessed, with the reason) (a decaying level: the generator alone where the supply is disconnected, the generator and the battery as one Thevenin source where the pulse rides on the supply), the channel conducting backwards until its gate lets go",
     }),
   reverse: z.unknown().meta({
     description: "steady reverse polarity: blocking element, voltage vs rating, leakage, junction temperature",

@@ -94,6 +94,18 @@ const eventFields = {
     description:
       "the output's lowest voltage over the event (through the clamp phase where there is one): below 0 V the load sees reverse voltage",
   }),
+  inputClampHold: z
+    .object({
+      levelV: z.number(),
+      dynamicOhm: z.number(),
+      inputAtStartV: z.number().meta({ description: "the input node at t = 0+, held by the clamp" }),
+      releaseS: z.number().optional().meta({
+        description:
+          "when the clamp let go, the source alone carrying the loop current, and the input began to follow the source (absent: it held over the whole searched span)",
+      }),
+    })
+    .optional()
+    .meta({ description: "with inputDecay.clamp conducting at the start: how long it held the input at its level" }),
   metrics: turnOffMetrics,
   waveform: turnOffWaveformSchema.optional(),
 };

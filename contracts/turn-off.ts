@@ -74,10 +74,26 @@ export const inputDecayField = z
       le: 10_000,
     }),
     timeConstantS: quantity("s", "time constant τ of the exponential decay", { gt: 0, le: 1e3 }),
+    clamp: z
+      .strictObject({
+        levelV: quantity("V", "the clamp's level: the input is held no lower than it (minus a TVS's breakdown)", {
+          ge: -10_000,
+          le: 10_000,
+        }),
+        dynamicResistanceOhm: quantity("ohm", "the clamp's dynamic resistance (default 0: a constant level)", {
+          ge: 0,
+          le: 1e3,
+        }).optional(),
+      })
+      .optional()
+      .meta({
+        description:
+          "a clamp at the input node: the decaying source is behind the loop's resistance, and while it would take the input below levelV the clamp holds the input there (its level plus its dynamic resistance's drop); it lets go where the source alone carries the loop current, and the input then follows the source (a held-then-decaying input)",
+      }),
   })
   .meta({
     description:
-      "the input after the event decays exponentially from startV to inputAfterV with time constant τ (a negative pulse's tail, a source's output capacitance discharging) instead of stepping to inputAfterV (absent: the input steps to inputAfterV)",
+      "the input after the event decays exponentially from startV to inputAfterV with time constant τ (a negative pulse's tail, a source's output capacitance discharging) instead of stepping to inputAfterV (absent: the input steps to inputAfterV); with clamp, startV is the source's unclamped start",
   });
 
 /**
@@ -120,7 +136,9 @@ export function inputFallIssues(
   v: {
     readonly outputV: number;
     readonly inputAfterV: number;
-    readonly inputDecay?: { readonly startV: number } | undefined;
+    readonly inputDecay?:
+      | { readonly startV: number; readonly clamp?: { readonly levelV: number } | undefined }
+      | undefined;
   },
   outputName = "outputV",
 ): InputFallIssue[] {
@@ -134,6 +152,11 @@ export function inputFallIssues(
     issues.push({
       path: ["inputDecay", "startV"],
       message: `must be below the output voltage before the event, ${outputName} (${v.outputV} V): the input falls at t = 0 (give the level it jumps to, then decays from)`,
+    });
+  if (v.inputDecay?.clamp !== undefined && !(v.inputDecay.clamp.levelV < v.outputV))
+    issues.push({
+      path: ["inputDecay", "clamp", "levelV"],
+      message: `must be below the output voltage before the event, ${outputName} (${v.outputV} V): the clamp holds a falling input (give its level, minus a TVS's breakdown)`,
     });
   return issues;
 }

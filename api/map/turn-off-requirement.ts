@@ -1,5 +1,6 @@
+import type { z } from "zod";
 import type { Requirement } from "../../contracts/requirement.js";
-import { inputFallIssues } from "../../contracts/turn-off.js";
+import { inputFallIssues, type inputDecayField } from "../../contracts/turn-off.js";
 import type { ReviewTurnOff } from "../../domain/review/review-turn-off.js";
 import { inputProblem } from "../input-problem.js";
 import { missingQrrSentence, ONE_OFF_EVENT } from "./reverse-inputs.js";
@@ -9,20 +10,21 @@ export interface FallingInput {
   readonly outputV: number;
   readonly inputAfterV: number;
   readonly inputDecay?: { readonly startV: number; readonly tauS: number };
+  readonly inputClamp?: { readonly levelV: number; readonly dynamicOhm: number };
 }
 
 /**
  * The one mapping of a turn-off event's input (the review's requirement.turnOff and sizing's
  * turnOff): the output before the event (default the nominal supply) and the input after it
  * (default 0 V, a short; a negative level allowed), with the decay from inputDecay.startV where
- * given. Defaults said in `assumptions` (as `turnOff.<field>`); an input not below the output is
+ * given (held at inputDecay.clamp's level while the source is beyond it). Defaults said in `assumptions` (as `turnOff.<field>`); an input not below the output is
  * refused, naming the field under `path`.
  */
 export function fallingInputOf(
   t: {
     readonly outputV?: number | undefined;
     readonly inputAfterV?: number | undefined;
-    readonly inputDecay?: { readonly startV: number; readonly timeConstantS: number } | undefined;
+    readonly inputDecay?: z.output<typeof inputDecayField> | undefined;
   },
   nominalV: number,
   path: readonly string[],
@@ -38,11 +40,7 @@ export function fallingInputOf(
     t.outputV === undefined ? "the nominal supply" : `${path.join(".")}.outputV`,
   );
   if (issue !== undefined) throw inputProblem("invalid-input", [...path, ...issue.path], issue.message);
-  return {
-    outputV,
-    inputAfterV,
-    ...(decay === undefined ? {} : { inputDecay: { startV: decay.startV, tauS: decay.timeConstantS } }),
-  };
+  return { outputV, inputAfterV, ...decayingInput(decay) };
 }
 
 /** The review's turn-off event: defaults recorded (a short from the nominal supply; Tj per candidate). */
@@ -68,7 +66,7 @@ export function reviewTurnOffOf(
       "turnOff.gateLag: not given, so a P-FET or low-side N-FET candidate's gate follows the output at once (no gate resistor lag): the least reverse voltage at the load, in the turn-off event and in each negative pulse",
     );
   assumptions.push(
-    "negative pulses at a P-FET or low-side N-FET candidate (its gate-source sees the output): each is the turn-off event's input, decaying with the pulse's time constant from its start (limited by the clamp) to a constant; applied with the supply disconnected (ISO 7637-2 pulse 1) the generator alone, the loop's resistance the generator's Ri (the wiring not added: the larger reverse current); riding on the supply (ISO 7637-2 pulse 3a, a negative surge) the generator and the battery at the nominal supply behind requirement.sourceResistanceOhm as one Thevenin source, Vth = Vb + A·Rb/(Ri + Rb)·e^(−t/τ) behind Ri‖Rb (Rb = 0 holds the input at the supply); the output, capacitance, ESR, inductance and gate lag the turnOff event's",
+    "negative pulses at a P-FET or low-side N-FET candidate (its gate-source sees the output): each is the turn-off event's input, decaying with the pulse's time constant from its start to a constant; where the design's input clamp is below the source, the clamp holds the input at its level (breakdown and dynamic resistance) until the generator alone carries the loop current, then the input follows the source's decay, the loop's state carried across; applied with the supply disconnected (ISO 7637-2 pulse 1) the generator alone, the loop's resistance the generator's Ri (the wiring not added: the larger reverse current); riding on the supply (ISO 7637-2 pulse 3a, a negative surge) the generator and the battery at the nominal supply behind requirement.sourceResistanceOhm as one Thevenin source, Vth = Vb + A·Rb/(Ri + Rb)·e^(−t/τ) behind Ri‖Rb (Rb = 0 holds the input at the supply); the output, capacitance, ESR, inductance and gate lag the turnOff event's",
   );
   return {
     ...input,
@@ -85,5 +83,18 @@ export function reviewTurnOffOf(
       : { gateLagS: (t.gateLag.resistanceOhm * t.gateLag.gateChargeC) / t.gateLag.atGateSourceV }),
     ...(t.loadReverseLimitV === undefined ? {} : { loadReverseLimitV: t.loadReverseLimitV }),
     ...(t.repetition === undefined ? {} : { repetition: t.repetition }),
+  };
+}
+
+/** The contract's inputDecay (with its clamp at the input node) as the turn-off event's input: one mapping for turnOff and the review. */
+export function decayingInput(decay: z.output<typeof inputDecayField> | undefined): {
+  inputDecay?: { startV: number; tauS: number };
+  inputClamp?: { levelV: number; dynamicOhm: number };
+} {
+  if (decay === undefined) return {};
+  const c = decay.clamp;
+  return {
+    inputDecay: { startV: decay.startV, tauS: decay.timeConstantS },
+    ...(c === undefined ? {} : { inputClamp: { levelV: c.levelV, dynamicOhm: c.dynamicResistanceOhm ?? 0 } }),
   };
 }

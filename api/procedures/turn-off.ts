@@ -17,6 +17,7 @@ import {
   stageLabel,
 } from "../map/reverse-inputs.js";
 import { resolveStage } from "../map/resolve-stage.js";
+import { decayingInput } from "../map/turn-off-requirement.js";
 import { type Answer, defineProcedure } from "../define-procedure.js";
 
 export const turnOff = defineProcedure({
@@ -46,9 +47,7 @@ export const turnOff = defineProcedure({
       stage: stage.model,
       outputV: input.outputV,
       inputAfterV: input.inputAfterV,
-      ...(input.inputDecay === undefined
-        ? {}
-        : { inputDecay: { startV: input.inputDecay.startV, tauS: input.inputDecay.timeConstantS } }),
+      ...decayingInput(input.inputDecay),
       loopResistanceOhm: input.loop.resistanceOhm,
       loopInductanceH: input.loop.inductanceH,
       capacitanceF: input.capacitor.capacitanceF,

@@ -1,3 +1,4 @@
+import type { ClampResult } from "./clamp-energy.js";
 import { type FosterTerm, periodicTrainRiseK, zthKPerW } from "../physics/foster.js";
 
 /** How often a test repeats its pulse: every periodS, count times. */
@@ -68,4 +69,29 @@ export function clampTrainTj(
     trainTjC: startTjC + train.lastPeakK,
     steadyPeriodicTjC: startTjC + train.steadyPeakK,
   };
+}
+
+/** A train the clamp conducts in, without the clamp's thermal network: a gap, with what to add. */
+export interface ClampTrainNotAssessed {
+  readonly outcome: "not-assessed";
+  readonly reason: string;
+}
+
+export const NO_CLAMP_THERMAL_REASON =
+  "the input clamp conducts in this pulse's train and gives no thermal network: its junction over the train is not assessed; add inputClamp.thermal (the clamp's junction-to-ambient Foster network, from its datasheet's Zth)";
+
+/**
+ * The clamp's junction over a pulse's train where the clamp conducts in it: through its Foster
+ * network (clampTrainTj), or without one an explicit not-assessed outcome (a gap a release gate
+ * sees, never a silent absence). No repetition or no conduction: undefined (no train to follow).
+ */
+export function clampTrainOf(
+  duty: ClampResult,
+  thermal: readonly FosterTerm[] | undefined,
+  rep: PulseRepetition | undefined,
+  startTjC: number,
+): ClampTrain | ClampTrainNotAssessed | undefined {
+  if (rep === undefined || duty.conducts !== true) return undefined;
+  if (thermal === undefined) return { outcome: "not-assessed", reason: NO_CLAMP_THERMAL_REASON };
+  return clampTrainTj(duty.energyJ, duty.peakPowerW, thermal, rep, startTjC);
 }

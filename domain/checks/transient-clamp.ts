@@ -2,7 +2,7 @@ import type { FosterTerm } from "../physics/foster.js";
 import type { TransientPulse } from "../review/transient-library.js";
 import { type ClampResult, clampExponential, clampPulse, type ParallelLoad } from "./clamp-energy.js";
 import { allowedPeakPowerW, type ClampPowerRating } from "./clamp-rating.js";
-import { type ClampTrain, clampTrainTj } from "./clamp-train.js";
+import { type ClampTrain, type ClampTrainNotAssessed, clampTrainOf } from "./clamp-train.js";
 import type { TransientContext } from "./transient-stress.js";
 
 // The design's input clamp in a transient, and the clamp a transient needs (a move out of
@@ -41,7 +41,7 @@ export interface ClampDuty {
   /** Its standoff must clear the steady supply and steady reverse voltage, or it conducts them. */
   readonly standoffClearsSteady: boolean;
   /** Its junction over the test's train of this pulse (with the clamp's thermal network and the pulse's repetition). */
-  readonly train?: ClampTrain;
+  readonly train?: ClampTrain | ClampTrainNotAssessed;
 }
 
 export interface ClampRequirement {
@@ -98,10 +98,7 @@ export function designClampDuty(
         : duty.conducts === true
           ? duty_(duty) <= rating
           : false;
-  const train =
-    own.thermal !== undefined && pulse.repetition !== undefined && duty.conducts === true
-      ? clampTrainTj(duty.energyJ, duty.peakPowerW, own.thermal, pulse.repetition, ctx.clampTjC ?? 25)
-      : undefined;
+  const train = clampTrainOf(duty, own.thermal, pulse.repetition, ctx.clampTjC ?? 25);
   return {
     duty,
     ...(train === undefined ? {} : { train }),

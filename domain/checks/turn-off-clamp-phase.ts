@@ -4,12 +4,14 @@ import {
   loopSystem,
   outputV,
   type RlcLoop,
+  releasedLoop,
   shiftLoop,
   sourceAt,
   stateAt,
   type Vec2,
 } from "../physics/rlc-series.js";
 import { stageTjMaxC } from "../stages/stage-model.js";
+import { clampThevenin } from "./turn-off-input-clamp.js";
 import { avalancheEnergyAtTjJ } from "./avalanche-derating.js";
 import { stageBreakdownV } from "./reverse-path.js";
 import type { ClampPhase, TurnOffModel, TurnOffOutcome, WindowState } from "./turn-off-event-types.js";
@@ -35,7 +37,12 @@ export function clampPhase(m: TurnOffModel, loop: RlcLoop, xOff: Vec2, turnOffS:
   );
   if (!(xOff[0] < -1e-9 * currentScaleA)) return { kind: "none" };
   const clampV = m.clampV ?? stageBreakdownV(m.stage);
-  const driveV = outputV(loop, xOff) - sourceAt(loop, turnOffS);
+  // From the turn-off on: a decaying input's part decayed to turnOffS; an input clamp holding the input where the source is beyond it.
+  const clampLoop: RlcLoop = clampPhaseLoop(m, loop, clampV, turnOffS);
+  const driveV =
+    m.inputClamp === undefined
+      ? outputV(loop, xOff) - sourceAt(loop, turnOffS)
+      : outputV(loop, xOff) - (sourceAt(clampLoop, 0) - clampV);
   if (!(clampV > driveV)) {
     return {
       kind: "below-drive",
@@ -48,11 +55,6 @@ export function clampPhase(m: TurnOffModel, loop: RlcLoop, xOff: Vec2, turnOffS:
       },
     };
   }
-  // From the turn-off on: a decaying input's part decayed to turnOffS (shiftLoop).
-  const clampLoop: RlcLoop = shiftLoop(
-    { ...loop, sourceV: m.inputAfterV + clampV, loopResistanceOhm: m.loopResistanceOhm },
-    turnOffS,
-  );
   const sc = loopSystem(clampLoop);
   const cch = loopCharacter(sc);
   const ramp = (m.loopInductanceH * -xOff[0]) / (clampV - driveV);
@@ -80,6 +82,33 @@ export function clampPhase(m: TurnOffModel, loop: RlcLoop, xOff: Vec2, turnOffS:
     energies,
   };
   return { kind: "clamp", clamp, outputMinV: outputMinOver(clampLoop, xOff, end) };
+}
+
+/**
+ * The clamp phase's loop from the turn-off at turnOffS on: the blocking element's clamp voltage in
+ * its source, the stage out of its resistance, the source's decaying part decayed to turnOffS.
+ * With an input clamp (TurnOffModel.inputClamp) whose source is still beyond the clamp's level at
+ * the turn-off, the clamp holds the input for the whole phase (clampThevenin): as the loop current
+ * falls to zero the generator's current returns to the clamp, so it holds wherever it held or
+ * let go before; the phase lasts L·I/(Vcl − drive), microseconds against the pulse's decay of
+ * milliseconds, and taking the node at the clamp's level where the released node lay above it
+ * makes the drive larger, the current fall slower (the conservative side).
+ */
+export function clampPhaseLoop(m: TurnOffModel, loop: RlcLoop, clampV: number, turnOffS: number): RlcLoop {
+  const free = releasedLoop(loop);
+  const plain = shiftLoop(
+    { ...free, sourceV: m.inputAfterV + clampV, loopResistanceOhm: m.loopResistanceOhm },
+    turnOffS,
+  );
+  const c = m.inputClamp;
+  if (c === undefined || !(sourceAt(free, turnOffS) < c.levelV) || !(m.loopResistanceOhm > 0)) return plain;
+  const th = clampThevenin(c, shiftLoop(free, turnOffS), m.loopResistanceOhm);
+  return {
+    ...plain,
+    sourceV: th.sourceV + clampV,
+    loopResistanceOhm: th.resistanceOhm,
+    ...(plain.sourceDecay === undefined ? {} : { sourceDecay: { ...plain.sourceDecay, extraV: th.extraV } }),
+  };
 }
 
 /** The output's lowest value over [0, tEnd] of a loop from x0: the ends and the output's extrema between. */

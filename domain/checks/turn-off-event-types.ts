@@ -1,6 +1,7 @@
 import type { LoadModel } from "../solve/load-model.js";
 import type { StageModel } from "../stages/stage-model.js";
 import type { ControllerTurnOff } from "./reverse-path.js";
+import type { InputClampHold, InputNodeClamp } from "./turn-off-input-clamp.js";
 import type { LoopCharacter, PhaseEnergies } from "./turn-off-loop.js";
 
 export interface TurnOffModel {
@@ -14,6 +15,12 @@ export interface TurnOffModel {
    * (or rises) to inputAfterV as e^(−t/τ) (rlc-series.ts, exponential forcing). Absent: a step.
    */
   readonly inputDecay?: { readonly startV: number; readonly tauS: number };
+  /**
+   * A clamp at the input node (turn-off-input-clamp.ts): while the source behind the loop's
+   * resistance would take the input below its level it holds the input there, then lets the input
+   * follow the source (a held-then-decaying input). Absent: the input is the source's.
+   */
+  readonly inputClamp?: InputNodeClamp;
   /** Source and wiring resistance of the loop, without the stage, ohm. */
   readonly loopResistanceOhm: number;
   readonly loopInductanceH: number;
@@ -61,6 +68,8 @@ export interface TurnOffCommon {
   readonly energies: PhaseEnergies;
   /** The output's lowest voltage over the event (the window, and the clamp phase where there is one), V: below 0 the load sees reverse voltage. */
   readonly outputMinV: number;
+  /** The input clamp's hold at the start (TurnOffModel.inputClamp; absent: no clamp, or it did not conduct). */
+  readonly inputClampHold?: InputClampHold;
 }
 
 /** A P-FET's channel turned off by its gate (pfet-gate-off.ts), and what the event cost until the current stopped. */

@@ -1,6 +1,5 @@
 import { cToK } from "../physics/constants.js";
 import {
-  det2,
   firstCrossing,
   extremaTimes,
   loopSystem,
@@ -15,7 +14,8 @@ import {
 import { reversePath } from "./reverse-path.js";
 import { gateOffTime } from "./pfet-gate-off.js";
 import { clampPhase, outputMinOver, windowState } from "./turn-off-clamp-phase.js";
-import { loadLine, loopCharacter, phaseEnergies } from "./turn-off-loop.js";
+import { heldStart } from "./turn-off-input-clamp.js";
+import { loadLine, loopCharacter, phaseEnergies, unstableLoop } from "./turn-off-loop.js";
 
 import type { GateTurnOff, TurnOffCommon, TurnOffModel, TurnOffOutcome } from "./turn-off-event-types.js";
 
@@ -57,7 +57,7 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
   const vinBefore = m.outputV + i0 * m.loopResistanceOhm;
   const path = reversePath(m.stage, tK, vinBefore, m.inputAfterV, m.outputV, m.controller);
   const stageOhm = path.kind === "diode" ? path.seriesOhm : path.channelOhm;
-  const loop: RlcLoop = {
+  const free: RlcLoop = {
     sourceV: m.inputAfterV,
     ...inputDecayOf(m),
     loopResistanceOhm: m.loopResistanceOhm + stageOhm,
@@ -67,34 +67,18 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
     loadCurrentA: line.currentA,
     loadConductanceS: line.conductanceS,
   };
+  // An input clamp holding the input at the start: the loop's first piece (turn-off-input-clamp.ts).
+  const held = heldStart(m.inputClamp, free, m.loopResistanceOhm, stageOhm, [i0, m.outputV]);
+  const loop: RlcLoop = held === undefined ? free : { ...free, hold: held.held };
   const s = loopSystem(loop);
+  const unstable = unstableLoop(s, line.conductanceS) ?? (s.next && unstableLoop(s.next.system, line.conductanceS));
+  if (unstable !== undefined) return unstable;
   const ch = loopCharacter(s);
-  // A constant-power load is a negative incremental resistance −V²/P: its tangent can make the
-  // linearised loop unstable, by a real mode (det A ≤ 0: R·P/V² ≥ 1) or by negative damping
-  // (trace A > 0: P/V² > C·(R + ESR)/L, the negative-resistance oscillator; common practice for
-  // a converter input behind an L-C). No bounded response exists to report: its own outcome.
-  // At the real-mode boundary (det A → 0+) the slow mode's decay vanishes and the closed form is
-  // rounding (energy balances of 0.6-1000 within 1e-15 of it): det A within 0.1 % of |a12·a21|
-  // (R·P/V² ≥ 0.999 with no ESR) counts as diverging, as the ESR's edge above.
-  const diverges = !(det2(s) > 1e-3 * Math.abs(s.a12 * s.a21));
-  if (diverges || ch.dampingRatio < 0) {
-    const rNeg = line.conductanceS < 0 ? 1 / line.conductanceS : 0;
-    const m2 = (s.a11 + s.a22) / 2;
-    const growthPerS = diverges ? Math.max(0, m2 + Math.sqrt(Math.max(m2 * m2 - det2(s), 0))) : m2;
-    const reason = diverges
-      ? `the constant-power load's incremental resistance ${rNeg.toPrecision(4)} ohm outweighs the loop resistance, or comes within 0.1 % of it (R·P/V² >= 0.999 without ESR): the linearised loop diverges (growth ${growthPerS.toPrecision(3)} 1/s) and the output collapses`
-      : `the constant-power load's incremental resistance ${rNeg.toPrecision(4)} ohm gives the linearised loop negative damping (damping ratio ${ch.dampingRatio.toPrecision(3)}: P/V^2 > C·(R + ESR)/L): its oscillation grows at ${growthPerS.toPrecision(3)} 1/s, so there is no bounded response to report; damp the input filter (more loop resistance or ESR, less inductance or more capacitance)`;
-    return {
-      outcome: "unstable-loop",
-      reason,
-      mode: diverges ? "diverges" : "oscillation-grows",
-      dampingRatio: diverges ? 0 : ch.dampingRatio,
-      growthPerS,
-      loadIncrementalResistanceOhm: rNeg,
-    };
-  }
   const x0: Vec2 = [i0, m.outputV];
-  const horizon = ch.decayPerS > 0 ? 60 / ch.decayPerS : (400 * Math.PI) / Math.max(ch.naturalRadPerS, 1e-300);
+  const span = (c: ReturnType<typeof loopCharacter>) =>
+    c.decayPerS > 0 ? 60 / c.decayPerS : (400 * Math.PI) / Math.max(c.naturalRadPerS, 1e-300);
+  // A held start: the released loop's own span from its release on, where that is later.
+  const horizon = s.next === undefined ? span(ch) : Math.max(span(ch), s.next.atS + span(loopCharacter(s.next.system)));
   // tEnd: the end of the window; conducting: the stage still conducts there (it never blocks),
   // so the reverse current is followed on the same loop until it turns, up to the horizon.
   const common = (tEnd: number, conducting = false): TurnOffCommon => {
@@ -103,13 +87,17 @@ export function turnOffEvent(m: TurnOffModel): TurnOffOutcome {
       loop: { ...ch, totalResistanceOhm: loop.loopResistanceOhm, stageResistanceOhm: stageOhm },
       loadMethod: line.method,
       initialCurrentA: i0,
-      initialSlopeAPerS: (sourceAt(loop, 0) - vinBefore - i0 * stageOhm) / m.loopInductanceH,
+      initialSlopeAPerS:
+        loop.hold === undefined
+          ? (sourceAt(loop, 0) - vinBefore - i0 * stageOhm) / m.loopInductanceH
+          : (sourceAt(loop, 0) - m.outputV - i0 * loop.hold.loopResistanceOhm) / m.loopInductanceH,
       peakReverseCurrentA: peak.currentA,
       peakReverseTimeS: peak.timeS,
       ...(peak.lowerBound ? { peakReverseIsLowerBound: true as const } : {}),
       end: windowState(loop, x0, tEnd, m.outputV),
       energies: phaseEnergies(loop, x0, tEnd, 0),
       outputMinV: outputMinOver(loop, x0, tEnd),
+      ...(held === undefined ? {} : { inputClampHold: held.hold }),
     };
   };
 

@@ -1,10 +1,14 @@
+import type { TurnOffOutcome } from "./turn-off-event-types.js";
 import {
   det2,
   gaussLegendre,
+  holdPiece,
   type Linear2,
   loopSystem,
   outputV,
   type RlcLoop,
+  releasedLoop,
+  shiftLoop,
   slowestDecayPerS,
   stateAt,
   stateIntegral,
@@ -79,6 +83,7 @@ export interface PhaseEnergies {
  * whole event started with (default: this phase's own start): the residual's floor is 1e-9 of it.
  */
 export function phaseEnergies(p: RlcLoop, x0: Vec2, t: number, clampV: number, eventStoredJ = 0): PhaseEnergies {
+  if (p.hold !== undefined) return heldEnergies(p, x0, t, clampV, eventStoredJ);
   const s = loopSystem(p);
   const x = stateAt(s, x0, t);
   const q = stateIntegral(s, x0, t);
@@ -138,6 +143,39 @@ export function phaseEnergies(p: RlcLoop, x0: Vec2, t: number, clampV: number, e
 }
 
 /**
+ * A held start's energies: each piece's (the hold to its release, the released loop after), the
+ * state carried across, summed; the residual of the sums against the energy stored at the start.
+ */
+function heldEnergies(p: RlcLoop, x0: Vec2, t: number, clampV: number, eventStoredJ: number): PhaseEnergies {
+  const untilS = p.hold?.untilS ?? 0;
+  const stored = Math.max(0.5 * p.capacitanceF * x0[1] * x0[1] + 0.5 * p.inductanceH * x0[0] * x0[0], eventStoredJ);
+  const held = holdPiece(p);
+  const first = phaseEnergies(held, x0, Math.min(t, untilS), clampV, stored);
+  if (!(t > untilS)) return first;
+  const xB = stateAt(loopSystem(held), x0, untilS);
+  const later = phaseEnergies(shiftLoop(releasedLoop(p), untilS), xB, t - untilS, clampV, stored);
+  const sum = (k: Exclude<keyof PhaseEnergies, "balanceResidual">) => first[k] + later[k];
+  const e = {
+    capacitorLostJ: sum("capacitorLostJ"),
+    inductorLostJ: sum("inductorLostJ"),
+    sourceDeliveredJ: sum("sourceDeliveredJ"),
+    loopResistanceJ: sum("loopResistanceJ"),
+    esrJ: sum("esrJ"),
+    loadJ: sum("loadJ"),
+    clampJ: sum("clampJ"),
+  };
+  const lost = e.capacitorLostJ + e.inductorLostJ + e.sourceDeliveredJ;
+  const used = e.loopResistanceJ + e.esrJ + e.loadJ + e.clampJ;
+  const scale = Math.max(
+    Math.abs(first.capacitorLostJ) + Math.abs(first.inductorLostJ) + Math.abs(first.sourceDeliveredJ),
+    Math.abs(later.capacitorLostJ) + Math.abs(later.inductorLostJ) + Math.abs(later.sourceDeliveredJ),
+    1e-9 * stored,
+    1e-300,
+  );
+  return { ...e, balanceResidual: (lost - used) / scale };
+}
+
+/**
  * Gauss-Legendre segments [a, b, panels] over [0, t] for the dissipation integrals: one range
  * with panels for the fastest time scale (4 per unit of t·rate, at most 50,000), as long as that
  * cap does not bind. A stiff over-damped loop (a fast mode that dies within a sliver of a long
@@ -160,4 +198,37 @@ function quadratureSegments(s: Linear2, t: number, extraRate = 0): readonly (rea
     a = end;
   }
   return out;
+}
+
+/** The loop's unstable outcome, if it is (each piece of a held start is checked). */
+export function unstableLoop(
+  s: Linear2,
+  conductanceS: number,
+): Extract<TurnOffOutcome, { outcome: "unstable-loop" }> | undefined {
+  // A constant-power load is a negative incremental resistance −V²/P: its tangent can make the
+  // linearised loop unstable, by a real mode (det A ≤ 0: R·P/V² ≥ 1) or by negative damping
+  // (trace A > 0: P/V² > C·(R + ESR)/L, the negative-resistance oscillator; common practice for
+  // a converter input behind an L-C). No bounded response exists to report: its own outcome.
+  // At the real-mode boundary (det A → 0+) the slow mode's decay vanishes and the closed form is
+  // rounding (energy balances of 0.6-1000 within 1e-15 of it): det A within 0.1 % of |a12·a21|
+  // (R·P/V² ≥ 0.999 with no ESR) counts as diverging, as the ESR's edge above.
+  const ch = loopCharacter(s);
+  const diverges = !(det2(s) > 1e-3 * Math.abs(s.a12 * s.a21));
+  if (diverges || ch.dampingRatio < 0) {
+    const rNeg = conductanceS < 0 ? 1 / conductanceS : 0;
+    const m2 = (s.a11 + s.a22) / 2;
+    const growthPerS = diverges ? Math.max(0, m2 + Math.sqrt(Math.max(m2 * m2 - det2(s), 0))) : m2;
+    const reason = diverges
+      ? `the constant-power load's incremental resistance ${rNeg.toPrecision(4)} ohm outweighs the loop resistance, or comes within 0.1 % of it (R·P/V² >= 0.999 without ESR): the linearised loop diverges (growth ${growthPerS.toPrecision(3)} 1/s) and the output collapses`
+      : `the constant-power load's incremental resistance ${rNeg.toPrecision(4)} ohm gives the linearised loop negative damping (damping ratio ${ch.dampingRatio.toPrecision(3)}: P/V^2 > C·(R + ESR)/L): its oscillation grows at ${growthPerS.toPrecision(3)} 1/s, so there is no bounded response to report; damp the input filter (more loop resistance or ESR, less inductance or more capacitance)`;
+    return {
+      outcome: "unstable-loop",
+      reason,
+      mode: diverges ? "diverges" : "oscillation-grows",
+      dampingRatio: diverges ? 0 : ch.dampingRatio,
+      growthPerS,
+      loadIncrementalResistanceOhm: rNeg,
+    };
+  }
+  return undefined;
 }

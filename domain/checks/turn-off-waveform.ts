@@ -2,13 +2,14 @@ import {
   extremaTimes,
   type Linear2,
   loopSystem,
-  shiftLoop,
   outputV,
   type RlcLoop,
   stateAt,
   type Vec2,
 } from "../physics/rlc-series.js";
 import { inputDecayOf, type TurnOffModel, type TurnOffOutcome } from "./turn-off-event.js";
+import { clampPhaseLoop } from "./turn-off-clamp-phase.js";
+import { heldStart } from "./turn-off-input-clamp.js";
 import { loadLine } from "./turn-off-loop.js";
 
 /** Time samples of the turn-off event, column by column (same length each). */
@@ -47,7 +48,7 @@ export function turnOffWaveform(
     return undefined;
   const n = Math.max(2, Math.floor(points));
   const line = loadLine(m.load, m.outputV);
-  const loop: RlcLoop = {
+  const free: RlcLoop = {
     sourceV: m.inputAfterV,
     ...inputDecayOf(m),
     loopResistanceOhm: r.loop.totalResistanceOhm,
@@ -57,8 +58,11 @@ export function turnOffWaveform(
     loadCurrentA: line.currentA,
     loadConductanceS: line.conductanceS,
   };
-  const s = loopSystem(loop);
   const x0: Vec2 = [r.initialCurrentA, m.outputV];
+  // The input clamp's hold, as the event found it (the same function on the same loop).
+  const held = heldStart(m.inputClamp, free, m.loopResistanceOhm, r.loop.stageResistanceOhm, x0);
+  const loop: RlcLoop = held === undefined ? free : { ...free, hold: held.held };
+  const s = loopSystem(loop);
   // A stage that keeps conducting: to the end of the window or the reverse peak past it, whichever is later.
   const endS = r.outcome === "blocks" ? r.turnOffS : Math.max(r.end.timeS, r.peakReverseTimeS);
   const extra = [
@@ -78,10 +82,7 @@ export function turnOffWaveform(
   push(loop, s, x0, 0, phaseTimes(s, x0, endS, n, extra));
   const clamp = r.outcome === "blocks" ? r.clamp : undefined;
   if (clamp === undefined || r.outcome !== "blocks") return { ...cols, pointsPerPhase: n };
-  const clampLoop: RlcLoop = shiftLoop(
-    { ...loop, sourceV: m.inputAfterV + clamp.clampV, loopResistanceOhm: m.loopResistanceOhm },
-    r.turnOffS,
-  );
+  const clampLoop: RlcLoop = clampPhaseLoop(m, loop, clamp.clampV, r.turnOffS);
   const sc = loopSystem(clampLoop);
   const xOff = stateAt(s, x0, r.turnOffS);
   // The turn-off instant closes the conduction phase and opens the clamp phase (the state is continuous).

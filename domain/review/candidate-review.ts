@@ -11,6 +11,7 @@ import { type DriveAtInput, driveAtInput, type ProfileResult, type TransientTher
 import type { ControllerTurnOff } from "../checks/reverse-path.js";
 import { blocksReverseCurrent } from "../checks/stage-ratings.js";
 import type { ThermalSizing } from "../checks/thermal-sizing.js";
+import { clampLawOf } from "../checks/transient-clamp.js";
 import type { TransientAllowance, TransientContext } from "../checks/transient-stress.js";
 import { type SweptTransientResult, sweptTransientStress } from "../checks/transient-sweep.js";
 import { gateThresholdColdV as coldThresholdV, withThresholdShift } from "../checks/gate-threshold.js";
@@ -221,18 +222,17 @@ export function reviewCandidate(req: ReviewRequirement, cand: ReviewCandidate): 
       ? cand
       : { ...cand, stage: withThresholdShift(cand.stage, cand.turnOffThresholdShiftV) };
   const turnOff = req.turnOff ? reviewTurnOff(req.turnOff, eventReq, eventCand, worst.tjC?.value) : undefined;
-  const pulses =
-    req.turnOff && turnOff
-      ? pulseBackConduction(
-          req.turnOff,
-          eventReq,
-          eventCand.stage,
-          turnOff.tjC,
-          { nominalV: req.supplyNominalV, resistanceOhm: req.sourceResistanceOhm },
-          req.transients,
-          transients,
-        )
-      : [];
+  const inputClamp = req.transientContext.inputClamp;
+  const pulses = pulseBackConduction(
+    req.turnOff,
+    eventReq,
+    eventCand.stage,
+    turnOff?.tjC ?? req.ambientMaxC,
+    { nominalV: req.supplyNominalV, resistanceOhm: req.sourceResistanceOhm },
+    req.transients,
+    transients,
+    inputClamp === undefined ? undefined : clampLawOf(inputClamp),
+  );
   const stressed = stressAfterLetGo(cand.stage, req.transients, transients, pulses, tctx);
   const energy = req.mission
     ? missionEnergy(cand.stage, req.mission, req.supplyNominalV, req.sourceResistanceOhm, req.load, req.pricePerKWh)

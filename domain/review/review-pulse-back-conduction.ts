@@ -1,3 +1,4 @@
+import type { ClampLaw } from "../checks/clamp-energy.js";
 import type { TransientResult } from "../checks/transient-stress.js";
 import type { TurnOffOutcome } from "../checks/turn-off-event.js";
 import { twoSourceThevenin } from "../physics/two-source-thevenin.js";
@@ -38,9 +39,20 @@ export type PulseBackConduction =
       readonly chargeLostC: number;
       /** The output's lowest voltage, V: below 0 the load sees reverse voltage. */
       readonly outputMinV: number;
+      /**
+       * The design's input clamp held the input at its level at the start (turn-off-input-clamp.ts):
+       * its level and dynamic resistance, and when it let go (absent: it held over the whole span).
+       */
+      readonly clampHold?: { readonly levelV: number; readonly dynamicOhm: number; readonly releaseS?: number };
     }
   /** The event model gave no response for this input (clamp below the drive, an unstable loop): a gap. */
-  | { readonly pulseId: string; readonly outcome: "no-response"; readonly reason: string };
+  | { readonly pulseId: string; readonly outcome: "no-response"; readonly reason: string }
+  /** The requirement has no turn-off event (requirement.turnOff): the pulse's back-conduction is a gap, with what to add. */
+  | { readonly pulseId: string; readonly outcome: "not-assessed"; readonly reason: string };
+
+/** Why a negative pulse at a P-FET is not assessed without the requirement's turn-off event. */
+export const NO_TURN_OFF_REASON =
+  "the requirement has no turnOff section: the P-FET's channel conducts backwards into the negative pulse until its gate lets go, and the output capacitor (turnOff.capacitor), the loop (turnOff.loop), the gate lag (turnOff.gateLag) and the load's reverse-voltage limit (turnOff.loadReverseLimitV) decide the reverse current and how far below 0 V the output goes; add requirement.turnOff to assess it";
 
 /** The supply a pulse may ride on: the requirement's nominal battery behind its source resistance. */
 export interface PulseSupply {
@@ -57,9 +69,9 @@ export interface PulseSupply {
  * nominal supply behind the requirement's source resistance Rb, as one Thevenin source
  * (two-source-thevenin.ts): Vth(t) = Vb + A·Rb/(Ri + Rb)·e^(−t/τ) behind Ri‖Rb (g0 = Vb). A
  * pulse applied with the supply disconnected (ISO 7637-2 pulse 1) is its limit Rb → ∞: the
- * generator alone, Vth = g0 + A·e^(−t/τ) behind Ri. The input starts at Vth(0+), or at the
- * design's clamp where the transient check limits the peak to less, and decays to Vth's constant
- * part with the pulse's τ (inputDecay); the output, capacitance, ESR, inductance, gate lag and Tj
+ * generator alone, Vth = g0 + A·e^(−t/τ) behind Ri. The input starts at Vth(0+) (held by the
+ * design's clamp, below, while the source is beyond it) and decays to Vth's constant part with
+ * the pulse's τ (inputDecay); the output, capacitance, ESR, inductance, gate lag and Tj
  * are the requirement's turn-off event. With Rb = 0 (the requirement's default) the battery holds
  * the input at Vb and the pulse does not move it. A P-FET with its gate at ground conducts
  * backwards until its lagged |Vgs| falls below threshold; where the output holds it above (the
@@ -68,15 +80,31 @@ export interface PulseSupply {
  * positive rail and its source is the module's ground, so its Vgs is the output's, not the input's
  * (ngspice on that circuit: test/domain/review/pulse-back-conduction-low-side.test.ts). Other
  * stages: none.
+ *
+ * The design's input clamp (clamp: breakdown and dynamic resistance, symmetric as the transient
+ * check takes it) holds the input at −Vbr while the source behind Ri is beyond it and lets go where
+ * the generator alone carries the loop current (turn-off-input-clamp.ts): the source is the
+ * unclamped Vth(t), the clamp's hold its first piece. Left out, each on the conservative side
+ * (test/domain/review/pulse-clamp-hold-omissions.test.ts):
+ * - the body diode's forward drop: while reverse current flows through the channel its drop i·Rds
+ *   reverse-biases the diode, and in the clamp phase it is in avalanche; it could conduct forward
+ *   only with forward current (the input above the output), which returns charge to the output and
+ *   raises it, so without it the charge lost is no smaller and the output's lowest point no higher;
+ * - the I·R offset before the event: the output starts at the event's outputV (the nominal supply
+ *   by default), not Vb − I·(Rb + Rds); a higher start drives more reverse current and keeps the
+ *   lagged gate on longer, so all three figures are at least as severe as from the true start.
+ * Without requirement.turnOff (t undefined) each negative pulse at a P-FET or low-side N-FET is not-assessed, with
+ * what to add.
  */
 export function pulseBackConduction(
-  t: ReviewTurnOff,
+  t: ReviewTurnOff | undefined,
   req: Parameters<typeof reviewTurnOff>[1],
   stage: StageModel,
   tjC: number,
   supply: PulseSupply,
   pulses: readonly TransientPulse[],
   results: readonly TransientResult[],
+  clamp?: ClampLaw,
 ): readonly PulseBackConduction[] {
   if (!gateFollowsOutput(stage)) return [];
   const out: PulseBackConduction[] = [];
@@ -86,6 +114,10 @@ export function pulseBackConduction(
     seen.add(r.pulseId);
     const pulse = pulses.find((p) => p.id === r.pulseId);
     if (pulse === undefined) continue;
+    if (t === undefined) {
+      out.push({ pulseId: r.pulseId, outcome: "not-assessed", reason: NO_TURN_OFF_REASON });
+      continue;
+    }
     const riding = pulse.baseV === "supply";
     const baseV = riding ? supply.nominalV : pulse.baseV;
     const amplitudeV = r.peakOpenCircuitV - baseV;
@@ -98,11 +130,16 @@ export function pulseBackConduction(
           generatorOhm: pulse.sourceResistanceOhm,
         })
       : { finalV: baseV, startV: baseV + amplitudeV, resistanceOhm: pulse.sourceResistanceOhm };
-    const startV = Math.max(th.startV, r.inputPeakV);
+    // The source unclamped; the design's clamp (bidirectional, as the transient check takes it)
+    // holds the input at −Vbr behind its dynamic resistance while the source is beyond it.
+    const startV = th.startV;
+    // The requirement's own event's input clamp is not the pulse's: only the design's clamp acts.
+    const { inputClamp: _own, ...own } = t;
     const event: ReviewTurnOff = {
-      ...t,
+      ...own,
       inputAfterV: th.finalV,
       inputDecay: { startV, tauS: r.tauS },
+      ...(clamp === undefined ? {} : { inputClamp: { levelV: -clamp.breakdownV, dynamicOhm: clamp.dynamicOhm } }),
       loopResistanceOhm: th.resistanceOhm,
       tjC,
       repetitive: false,
@@ -152,10 +189,11 @@ function figures(
   if (x.outcome === "clamp-below-drive" || x.outcome === "invalid-load-line" || x.outcome === "unstable-loop")
     return { pulseId: r.pulseId, outcome: "no-response", reason: `${x.outcome}: ${x.reason}` };
   const gate = x.outcome === "does-not-block" ? x.gateTurnOff : undefined;
+  const hold = x.inputClampHold;
   return {
     pulseId: r.pulseId,
     outcome: "assessed",
-    inputPeakV: input.startV,
+    inputPeakV: hold?.inputAtStartV ?? input.startV,
     inputAfterV: input.finalV,
     tauS: r.tauS,
     loopResistanceOhm: input.ohm,
@@ -167,5 +205,14 @@ function figures(
     ...(gate === undefined && x.peakReverseIsLowerBound === true ? { peakReverseIsLowerBound: true as const } : {}),
     chargeLostC: gate?.chargeLostC ?? x.end.chargeLostC,
     outputMinV: x.outputMinV,
+    ...(hold === undefined
+      ? {}
+      : {
+          clampHold: {
+            levelV: hold.levelV,
+            dynamicOhm: hold.dynamicOhm,
+            ...(hold.releaseS === undefined ? {} : { releaseS: hold.releaseS }),
+          },
+        }),
   };
 }

@@ -2,6 +2,7 @@ import { type ClampTrain, clampTrainTj, type PulseRepetition } from "../checks/c
 import type { ControllerTurnOff } from "../checks/reverse-path.js";
 import type { TransientThermal } from "../checks/start-up.js";
 import { stageAvalancheEnergyJ } from "../checks/stage-ratings.js";
+import type { InputNodeClamp } from "../checks/turn-off-input-clamp.js";
 import { type TurnOffModel, type TurnOffOutcome, turnOffEvent } from "../checks/turn-off-event.js";
 import { type TurnOffWaveform, turnOffWaveform } from "../checks/turn-off-waveform.js";
 import type { LoadModel } from "../solve/load-model.js";
@@ -13,6 +14,8 @@ export interface ReviewTurnOff {
   readonly inputAfterV: number;
   /** An input decaying from startV to inputAfterV (TurnOffModel.inputDecay). */
   readonly inputDecay?: { readonly startV: number; readonly tauS: number };
+  /** A clamp at the input node holding the input at its level at the start (TurnOffModel.inputClamp). */
+  readonly inputClamp?: InputNodeClamp;
   readonly outputV: number;
   readonly loopResistanceOhm: number;
   readonly loopInductanceH: number;
@@ -75,6 +78,7 @@ export function reviewTurnOff(
     outputV: t.outputV,
     inputAfterV: t.inputAfterV,
     ...(t.inputDecay === undefined ? {} : { inputDecay: t.inputDecay }),
+    ...(t.inputClamp === undefined ? {} : { inputClamp: t.inputClamp }),
     loopResistanceOhm: t.loopResistanceOhm,
     loopInductanceH: t.loopInductanceH,
     capacitanceF: t.capacitanceF,

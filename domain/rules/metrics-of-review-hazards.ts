@@ -1,6 +1,7 @@
 import { behaviourOf } from "../stages/stage-behaviours.js";
 import { type CandidateReview, type ReviewRequirement, steadyOvervoltageV } from "../review/candidate-review.js";
 import type { StageModel } from "../stages/stage-model.js";
+import { NO_CLAMP_THERMAL_REASON } from "../checks/clamp-train.js";
 import type { InputClamp } from "../checks/transient-clamp.js";
 import type { SoaCheck } from "../checks/soa-lines.js";
 import { switchProtectionMetrics } from "./metrics-of-switch-protections.js";
@@ -197,9 +198,14 @@ function clampTrainMetrics(
   s: Scope,
 ): void {
   if (clamp.thermal === undefined) {
-    for (const n of ["clampTrainTjC", "clampTjMaxC"])
-      s.notRequired[n] =
-        "the input clamp gives no thermal network (inputClamp.thermal): its junction over the pulse trains is not assessed";
+    // A train the clamp conducts in is a gap (unavailable: its rule cannot pass); none: out of scope.
+    const gap = r.transients.find((t) => t.designClamp?.train?.outcome === "not-assessed");
+    for (const n of ["clampTrainTjC", "clampTjMaxC"]) {
+      if (gap !== undefined) s.unavailable[n] = `pulse ${gap.pulseId}: ${NO_CLAMP_THERMAL_REASON}`;
+      else
+        s.notRequired[n] =
+          "the input clamp gives no thermal network (inputClamp.thermal) and conducts in no pulse train: its junction over the trains is not assessed";
+    }
     return;
   }
   s.metrics["clampTjMaxC"] = clamp.tjMaxC ?? 150;
@@ -211,7 +217,7 @@ function clampTrainMetrics(
   for (const t of r.transients) {
     const train = t.designClamp?.train;
     if (train === undefined) continue;
-    if (train.outcome === "overlapping") {
+    if (train.outcome !== "computed") {
       s.unavailable["clampTrainTjC"] = `pulse ${t.pulseId}: ${train.reason}`;
       return;
     }

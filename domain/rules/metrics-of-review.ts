@@ -159,7 +159,8 @@ export function reviewRuleInput(
  * the event and every pulse (applied with the supply disconnected or riding on it); a pulse without
  * a response leaves both unavailable with why, and a reverse peak that is only a lower bound (the
  * channel conducting throughout, the current still rising at the span's end) leaves
- * peakReverseCurrentA unavailable so that no rule passes on it.
+ * peakReverseCurrentA unavailable so that no rule passes on it. A pulse not assessed (no
+ * requirement.turnOff) leaves both unavailable with what to add, and the load's limit with them.
  */
 function pulseMetrics(
   r: CandidateReview,
@@ -167,6 +168,17 @@ function pulseMetrics(
   unavailable: Record<string, string>,
 ): void {
   for (const p of r.pulseBackConduction ?? []) {
+    if (p.outcome === "not-assessed") {
+      // A gap, never out of scope: without the turn-off event the load's limit is not stated either,
+      // so the load-reverse-voltage rule is missing its values (incomplete), not "not required".
+      const why = `pulse ${p.pulseId} through the P-FET: ${p.reason}`;
+      for (const n of ["peakReverseCurrentA", "loadReverseVMaxV"]) {
+        unavailable[n] = why;
+        delete metrics[n];
+      }
+      if (!Object.hasOwn(metrics, "loadReverseLimitV")) unavailable["loadReverseLimitV"] = why;
+      continue;
+    }
     if (p.outcome === "no-response") {
       for (const n of ["peakReverseCurrentA", "loadReverseVMaxV"]) {
         unavailable[n] = `pulse ${p.pulseId} through the channel: ${p.reason}`;

@@ -35,11 +35,18 @@ describe("the review's negative pulses through a P-FET candidate's back-conducti
     if (turnOff === undefined) throw new Error("turnOff missing");
     const gateLag = { resistanceOhm: "10 kOhm", gateChargeC: "30 nC", atGateSourceV: "10 V" };
     const { r, c, p } = await reviewPfet({ ...example.requirement.turnOff, gateLag });
-    // The pulse's input is the transient check's own: its peak after the design's clamp and its τ.
+    // The pulse's input: the generator unclamped (−150 V, the transient check's τ) behind Ri, held by the
+    // design's clamp (VBR 28.9 V, 40 V at 60 A: rd = 0.185 ohm) at its level while the generator is beyond it.
     const t = (c.transients as { pulseId: string; inputPeakV: number; tauS: number }[]).find(
       (x) => x.pulseId === PULSE_1,
     );
-    expect(p.inputPeakV).toBe(t?.inputPeakV);
+    const clamp = example.requirement.inputClamp;
+    const rd = (clamp.clampV - clamp.breakdownV) / clamp.peakCurrentA;
+    expect(p.clampHold?.levelV).toBe(-clamp.breakdownV);
+    expect(p.clampHold?.dynamicOhm).toBeCloseTo(rd, 15);
+    // At 0+ the clamp carries the generator's current beyond it and the load's: within 1 % of the transient
+    // check's clamp voltage at its peak current (the generator's alone).
+    expect(Math.abs(p.inputPeakV / (t?.inputPeakV ?? 0) - 1)).toBeLessThan(0.02);
     expect(p.tauS).toBe(t?.tauS);
     expect(p.inputAfterV).toBe(0);
     expect(p.loopResistanceOhm).toBe(10); // pulse 1's Ri, 12 V system
@@ -48,7 +55,11 @@ describe("the review's negative pulses through a P-FET candidate's back-conducti
         stage: pfet,
         outputV: r.requirement.supplyNominalV,
         inputAfterV: 0,
-        inputDecay: { startV: p.inputPeakV, timeConstantS: p.tauS },
+        inputDecay: {
+          startV: -150,
+          timeConstantS: p.tauS,
+          clamp: { levelV: -clamp.breakdownV, dynamicResistanceOhm: rd },
+        },
         gateLag,
         loop: { ...example.requirement.turnOff.loop, resistanceOhm: 10 },
         capacitor: example.requirement.turnOff.capacitor,
@@ -117,12 +128,16 @@ describe("the review's negative pulses through a P-FET candidate's back-conducti
       { load: { kind: "constant-current", currentA: loadA } },
     );
     const v0 = r.requirement.supplyNominalV;
+    // The reverse current out of 100 mF takes the generator's whole current at once: the clamp lets go
+    // within a microsecond, and the input is the generator's, Vp = −150 V behind Ri, from then on.
+    expect(p.clampHold?.releaseS).toBeLessThan(1e-6);
+    const vp = -150;
     const direct = turnOffOutput.parse(
       await turnOff({
         stage: pfet,
         outputV: v0,
         inputAfterV: 0,
-        inputDecay: { startV: p.inputPeakV, timeConstantS: p.tauS },
+        inputDecay: { startV: vp, timeConstantS: p.tauS },
         loop: { ...example.requirement.turnOff.loop, resistanceOhm: 10 },
         capacitor: { capacitanceF: "100 mF", esrOhm: "1 mOhm" },
         load: { kind: "constant-current", currentA: loadA },
@@ -137,11 +152,11 @@ describe("the review's negative pulses through a P-FET candidate's back-conducti
     )
       throw new Error(direct.outcome);
     const rOhm = direct.loop.totalResistanceOhm + 1e-3; // loop, channel and the capacitor's ESR
-    expect(p.peakReverseCurrentA / ((v0 - p.inputPeakV) / rOhm - loadA) - 1).toBeLessThan(2e-3);
-    expect(p.peakReverseCurrentA / ((v0 - p.inputPeakV) / rOhm - loadA) - 1).toBeGreaterThan(-2e-3);
+    expect(p.peakReverseCurrentA / ((v0 - vp) / rOhm - loadA) - 1).toBeLessThan(2e-3);
+    expect(p.peakReverseCurrentA / ((v0 - vp) / rOhm - loadA) - 1).toBeGreaterThan(-2e-3);
     const tau = p.tauS;
     const T = rOhm * 0.1;
-    const b = (p.inputPeakV * tau) / (tau - T);
+    const b = (vp * tau) / (tau - T);
     const tOff = p.channelOffS ?? Number.NaN;
     const vAtOff = -loadA * rOhm + b * Math.exp(-tOff / tau) + (v0 + loadA * rOhm - b) * Math.exp(-tOff / T);
     // The gate follows the output at once (no gate lag given): the channel lets go at the output's lowest point.
