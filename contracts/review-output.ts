@@ -236,7 +236,15 @@ export const candidateResult = z.object({
                 "the design's input clamp held the input at its level at the start, while the unclamped source was beyond it; the loop's state carried on into the source's decay",
             }),
         }),
-        z.object({ pulseId: z.string(), outcome: z.literal("no-response"), reason: z.string() }),
+        z.object({
+          pulseId: z.string(),
+          outcome: z.literal("no-response"),
+          reason: z.string(),
+          driveV: z.number().optional().meta({
+            description:
+              "clamp-below-drive: the output-to-input voltage across the blocking element when the channel let go, beyond its breakdown (the body diode's stress reads it)",
+          }),
+        }),
         z.object({
           pulseId: z.string(),
           outcome: z.literal("not-assessed"),

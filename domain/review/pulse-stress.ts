@@ -8,7 +8,8 @@ import type { TransientPulse } from "./transient-library.js";
  * The negative pulses' element stresses and the back-conduction model telling one story: where a
  * supply-gated FET's channel let go with the output still above 0 V (review-pulse-back-conduction.ts),
  * that pulse's stresses again with the output its body diode then holds (transient-stress.ts
- * letGoOutputV: |peak| + V_out, the conservative figure); every other pulse as it was, in order.
+ * letGoOutputV: |peak| + V_out, the conservative figure), or where it let go with more than the
+ * element's breakdown across it (driveV, below); every other pulse as it was, in order.
  */
 export function stressAfterLetGo(
   stage: StageModel,
@@ -18,9 +19,17 @@ export function stressAfterLetGo(
   ctx: TransientContext,
 ): readonly SweptTransientResult[] {
   const held = new Map<string, number>();
-  for (const b of backConduction)
+  for (const b of backConduction) {
     if (b.outcome === "assessed" && b.outputAtLetGoV !== undefined && b.outputAtLetGoV > 0)
       held.set(b.pulseId, b.outputAtLetGoV);
+    // The channel let go with more across the element than its breakdown (clamp-below-drive): the
+    // output then is at least driveV − |peak| (driveV = V_out + |V_in| at the let-go, |V_in| ≤ |peak|),
+    // so the stress figure |peak| + V_out is at least driveV, the element's avalanche.
+    if (b.outcome === "no-response" && b.driveV !== undefined) {
+      const peakV = Math.max(0, ...transients.filter((t) => t.pulseId === b.pulseId).map((t) => -t.inputPeakV));
+      if (b.driveV - peakV > 0) held.set(b.pulseId, b.driveV - peakV);
+    }
+  }
   if (held.size === 0) return transients;
   return pulses.flatMap((p) => {
     const v = held.get(p.id);

@@ -46,7 +46,16 @@ export type PulseBackConduction =
       readonly clampHold?: { readonly levelV: number; readonly dynamicOhm: number; readonly releaseS?: number };
     }
   /** The event model gave no response for this input (clamp below the drive, an unstable loop): a gap. */
-  | { readonly pulseId: string; readonly outcome: "no-response"; readonly reason: string }
+  | {
+      readonly pulseId: string;
+      readonly outcome: "no-response";
+      readonly reason: string;
+      /**
+       * clamp-below-drive: the output-to-input voltage across the blocking element when the channel
+       * let go, V, beyond its breakdown (it avalanches with the reverse current not turned off).
+       */
+      readonly driveV?: number;
+    }
   /** The requirement has no turn-off event (requirement.turnOff): the pulse's back-conduction is a gap, with what to add. */
   | { readonly pulseId: string; readonly outcome: "not-assessed"; readonly reason: string };
 
@@ -187,7 +196,12 @@ function figures(
 ): PulseBackConduction {
   const x = e.result;
   if (x.outcome === "clamp-below-drive" || x.outcome === "invalid-load-line" || x.outcome === "unstable-loop")
-    return { pulseId: r.pulseId, outcome: "no-response", reason: `${x.outcome}: ${x.reason}` };
+    return {
+      pulseId: r.pulseId,
+      outcome: "no-response",
+      reason: `${x.outcome}: ${x.reason}`,
+      ...(x.outcome === "clamp-below-drive" ? { driveV: x.driveV } : {}),
+    };
   const gate = x.outcome === "does-not-block" ? x.gateTurnOff : undefined;
   const hold = x.inputClampHold;
   return {

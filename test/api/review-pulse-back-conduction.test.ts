@@ -188,7 +188,14 @@ describe("the review's negative pulses through a low-side N-FET candidate", () =
         stage: lowSide,
         outputV: r.requirement.supplyNominalV,
         inputAfterV: 0,
-        inputDecay: { startV: p.inputPeakV, timeConstantS: p.tauS },
+        inputDecay: {
+          startV: -150, // the generator unclamped, as at the P-FET above
+          timeConstantS: p.tauS,
+          // the design's clamp holds the input
+          ...(p.clampHold === undefined
+            ? {}
+            : { clamp: { levelV: p.clampHold.levelV, dynamicResistanceOhm: p.clampHold.dynamicOhm } }),
+        },
         gateLag,
         loop: { ...example.requirement.turnOff.loop, resistanceOhm: 10 },
         capacitor: example.requirement.turnOff.capacitor,

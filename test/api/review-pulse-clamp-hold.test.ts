@@ -123,7 +123,7 @@ describe("pulse 1 held by the input clamp, at a P-FET with a slow gate", () => {
 
   it("refuses a clamp level at or above the output, naming the field", async () => {
     await expect(direct({ startV: -150, timeConstantS: 1e-3, clamp: { levelV: 20 } }, 25)).rejects.toThrow(
-      /below outputV/,
+      /levelV[\s\S]*below the output voltage before the event/,
     );
     if (review === undefined) throw new Error("review missing");
     const bad = {

@@ -1258,12 +1258,12 @@ export const KNOWN_BAD: readonly KnownBad[] = [
     id: "pfet-body-diode-holds-output-under-pulse-1",
     hazard: "transient",
     // The back-conduction model (review-pulse-back-conduction.ts) with the 100 ohm gate of the design
-    // above: the channel lets go after 0.11 ms with the 47 uF output still at its 2 V threshold; the
-    // body diode then holds that output against pulse 1's clamped input: 36 V + 2.04 V = 38.0 V
-    // (transient-stress.ts: |peak| + the output at the let-go), beyond a 37 V Vds(max). The figure
-    // with the output taken at 0 V (36 V) passed this rule in the default and consumer sets (its
-    // cold-breakdown rule failed it there already). ngspice on the same loop kind:
-    // test/domain/review/pulse-stress.test.ts.
+    // above: the 36 V clamp holds pulse 1's input while the channel conducts backwards; it lets go
+    // with the 47 uF output still near its 2 V threshold, so the body diode must block 37.9 V, more
+    // than its 37 V breakdown (the event's clamp-below-drive: it avalanches; pulse-stress.ts takes
+    // that drive as the stress figure), beyond a 37 V Vds(max). The figure with the output taken at
+    // 0 V (36 V) passed this rule in the default and consumer sets (its cold-breakdown rule failed it
+    // there already). ngspice on the same loop kind: test/domain/review/pulse-stress.test.ts.
     why: "pulse 1 clamped at 36 V through a P-FET rated 37 V: its channel lets go with the output still at 2 V, so its body diode holds 38 V, beyond its 37 V Vds(max); a 48 V part holds it (within every set's share of it and of its cold breakdown)",
     procedure: "review",
     rule: "fet-vds-reverse-transient",
