@@ -139,7 +139,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
   },
   {
     id: "iso7637-2-pulse-1-24v",
-    title: "ISO 7637-2 pulse 1, 24 V system, −600 V",
+    title: "ISO 7637-2 pulse 1, 24 V system, −600 V (2011 level unconfirmed)",
     baseV: 0,
     amplitudeV: -600,
     repetition: REP_PULSE_1_24V,
@@ -152,7 +152,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
   },
   {
     id: "iso7637-2-pulse-2a",
-    title: "ISO 7637-2 pulse 2a (series inductance interrupted), +112 V on the supply",
+    title: "ISO 7637-2 pulse 2a (series inductance interrupted), +112 V on the supply (level unconfirmed)",
     baseV: "supply",
     amplitudeV: 112,
     repetition: REP_PULSE_2A,
@@ -178,7 +178,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
   },
   {
     id: "iso7637-2-pulse-2b-24v",
-    title: "ISO 7637-2 pulse 2b, 24 V: +20 V for 2 s",
+    title: "ISO 7637-2 pulse 2b, 24 V: +20 V for 2 s (level unconfirmed)",
     baseV: "supply",
     amplitudeV: 20,
     repetition: REP_PULSE_2B,
@@ -223,7 +223,7 @@ export const TRANSIENT_LIBRARY: readonly TransientPulse[] = [
   ).map(
     ([pulse, system, us, level, unconfirmed]): TransientPulse => ({
       id: `iso7637-2-pulse-${pulse}-${system}`,
-      title: `ISO 7637-2 pulse ${pulse} (switching spikes), ${system === "12v" ? "12" : "24"} V system, ${us > 0 ? "+" : "−"}${Math.abs(us)} V`,
+      title: `ISO 7637-2 pulse ${pulse} (switching spikes), ${system === "12v" ? "12" : "24"} V system, ${us > 0 ? "+" : "−"}${Math.abs(us)} V${unconfirmed ? " (2011 level unconfirmed)" : ""}`,
       baseV: "supply",
       amplitudeV: us,
       repetition: REP_PULSE_3,

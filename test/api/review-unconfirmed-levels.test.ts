@@ -49,6 +49,7 @@ describe("the review flags a built-in pulse level that is not confirmed", () => 
         "iso7637-2-pulse-3b-24v",
       ].sort(),
     );
+    for (const t of TRANSIENT_LIBRARY) expect(t.title.includes("unconfirmed")).toBe(t.unconfirmed !== undefined);
     const got = await assumptionsFor("vehicle-24v-h", [
       "iso7637-2-pulse-1-24v",
       "iso7637-2-pulse-2a",
