@@ -114,6 +114,8 @@ export function toReviewRequirement(r: Requirement, assumptions: string[]): Mapp
       pulses.push(repetition === undefined ? p : { ...p, repetition });
       sources.push(`${p.id}: ${p.source}`);
       if (repetition !== undefined) sources.push(`${p.id} repetition: ${repetition.source}`);
+      // A level not confirmed for the edition in force may be milder than the test: the caller must see it.
+      if (p.unconfirmed !== undefined) assumptions.push(`level unconfirmed, ${p.unconfirmed}`);
     } else {
       pulses.push({
         id: t.id,

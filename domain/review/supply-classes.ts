@@ -30,9 +30,10 @@ const nominal12 = "nominal 13.5 V, ISO 7637-2's test supply voltage (docs/refere
 const nominal24 = "nominal 27 V, ISO 7637-2's test supply voltage (docs/references.md [S, secondary])";
 const jump12 = "jump start 24 V for 60 s, ISO 16750-2 clause 4.3.1.2 (docs/references.md [S, secondary])";
 const jump24 =
-  "jump start 36 V for 60 s (memory: the secondary source gives the jump-start test for 12 V systems only; 36 V equals the long-term overvoltage)";
+  "jump start 36 V for 60 s (memory: the secondary sources give the jump-start test for 12 V systems only; 36 V is clause 4.3's overvoltage for 24 V systems, docs/references.md [S, secondary])";
 const longTerm12 = "long-term overvoltage 18 V for 60 min, ISO 16750-2 clause 4.3.1.1 (memory)";
-const longTerm24 = "long-term overvoltage 36 V for 60 min, ISO 16750-2 clause 4.3.1.1 (memory)";
+const longTerm24 =
+  "long-term overvoltage 36 V, ISO 16750-2 clause 4.3's level for 24 V systems (docs/references.md [S, secondary]), for 60 min (memory)";
 
 /** IEC 61000-4-5 on a DC power port: surges of both polarities (a negative one reverse-biases a series blocking element). */
 const surgeBothPolarities = ["iec61000-4-5-surge-1kv-line-line", "iec61000-4-5-surge-1kv-line-line-negative"];

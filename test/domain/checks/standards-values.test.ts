@@ -48,4 +48,14 @@ describe("built-in standard values cite their source", () => {
       expect(surges.map((p) => Math.abs(p?.amplitudeV ?? 0))).toEqual([1000, 1000]);
     }
   });
+  // ISO 7637-2:2011, 12 V systems, level IV (docs/references.md: three semiconductor datasheets' tables of the
+  // edition's tests): pulse 1 −150 V, pulses 3a/3b −220/+150 V, above the 2004 edition's −100 V and −150/+100 V.
+  // A release gate judges against the most severe published level, so the 12 V library is not milder than these.
+  it("the 12 V pulses 1, 3a and 3b are at the 2011 edition's level IV", () => {
+    const us = (id: string) => TRANSIENT_LIBRARY.find((t) => t.id === id)?.amplitudeV;
+    expect([us("iso7637-2-pulse-1-12v"), us("iso7637-2-pulse-3a-12v"), us("iso7637-2-pulse-3b-12v")]).toEqual([
+      -150, -220, 150,
+    ]);
+    expect(us("iso7637-2-pulse-3a")).toBe(-220);
+  });
 });
