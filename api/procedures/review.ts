@@ -14,6 +14,7 @@ import { datasheetMaxScale, switchTolerance, thresholdMinShiftV, worstTurnOffTim
 import { resolveStage } from "../map/resolve-stage.js";
 import { controllerTiming } from "../map/reverse-inputs.js";
 import { turnOffEventFields } from "../map/turn-off-output.js";
+import { startUpOutput } from "../map/start-up-output.js";
 import { toReviewRequirement } from "../map/requirement.js";
 import { reviewRuleInput } from "../../domain/rules/metrics-of-review.js";
 import { reviewMonteCarlo } from "../map/review-monte-carlo.js";
@@ -184,7 +185,7 @@ export const review = defineProcedure({
           { unsolvedCorners: [...e.r.worst.unsolvedCornerIndexes] },
         ),
         corners: e.r.corners.map(cornerRow),
-        startUp: e.r.startUp,
+        startUp: startUpOutput(e.r.startUp, input.curves ?? false),
         ...(e.curves === undefined
           ? {}
           : {
