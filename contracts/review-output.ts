@@ -81,9 +81,13 @@ export const reviewStartUp = z
         z.object({
           ambientC: z.number(),
           result: z.object({
-            samples: z.array(profileSample).readonly(),
-            minLoadV: z.number(),
-            maxTjC: z.number(),
+            samples: z
+              .array(profileSample)
+              .readonly()
+              .optional()
+              .meta({ description: "the profile's samples in time order, when the review was asked for curves" }),
+            minLoadV: z.number().meta({ description: "the lowest load voltage over the samples", unit: "V" }),
+            maxTjC: z.number().meta({ description: "the highest junction temperature over the samples", unit: "°C" }),
             bodyDiodeTimeS: z.number(),
             dropoutTimeS: z.number(),
             thermalShutdownAtS: z.number().optional().meta({
@@ -92,6 +96,9 @@ export const reviewStartUp = z
               unit: "s",
             }),
             thermalModel: z.string(),
+            sampleCount: z.number().int().meta({ description: "how many samples the profile was solved at" }),
+            lowestLoad: profileSample.meta({ description: "the first sample at the lowest load voltage" }),
+            hottest: profileSample.meta({ description: "the first sample at the highest junction temperature" }),
           }),
         }),
       )
@@ -111,7 +118,7 @@ export const reviewStartUp = z
   })
   .meta({
     description:
-      "drive at the lowest supply; the start-up profile samples per ambient; whether a corner sits in the start threshold's chatter band",
+      "drive at the lowest supply; the start-up profile per ambient (its figures and extreme samples; every sample when the review was asked for curves); whether a corner sits in the start threshold's chatter band",
   });
 
 const worstOf = z.object({ value: z.number(), corner: z.number().int() });

@@ -85,7 +85,7 @@ export const reviewInput = z
     monteCarlo: monteCarloSpec.optional(),
     curves: z.boolean().optional().meta({
       description:
-        "also return load and ambient sweeps through the worst corner, for charts (default false; reports ask for them)",
+        "also return the chart data: load and ambient sweeps through the worst corner, every start-up profile sample and the turn-off event's waveform (default false: each profile's figures and its lowest-load and hottest samples only; reports ask for them)",
     }),
   })
   .superRefine((r, ctx) => {

@@ -176,15 +176,17 @@ function curveCharts(c: Candidate, curves: Curves, add: AddChart): void {
   });
 }
 
-/** The start-up profile charts (present when the requirement gave a profile). */
+/** The start-up profile charts (present when the requirement gave a profile and the review was asked for curves). */
 function startUpCharts(c: Candidate, add: AddChart): void {
-  const profiles = c.startUp.profiles;
+  const profiles = c.startUp.profiles.flatMap((p) =>
+    p.result.samples === undefined ? [] : [{ ambientC: p.ambientC, samples: p.result.samples, result: p.result }],
+  );
   const first = profiles[0];
   if (first !== undefined) {
     const spacing = 24;
     const supply: ChartSeries = {
       name: "supply",
-      points: first.result.samples.map((s) => [s.timeS, s.supplyV]),
+      points: first.samples.map((s) => [s.timeS, s.supplyV]),
       markerSpacingPx: spacing,
     };
     add(
@@ -198,7 +200,7 @@ function startUpCharts(c: Candidate, add: AddChart): void {
           supply,
           ...profiles.map((p) => ({
             name: `load, ${num(p.ambientC)} °C`,
-            points: p.result.samples.map((s) => [s.timeS, s.loadV] as [number, number]),
+            points: p.samples.map((s) => [s.timeS, s.loadV] as [number, number]),
             markerSpacingPx: spacing,
           })),
         ],
@@ -210,7 +212,7 @@ function startUpCharts(c: Candidate, add: AddChart): void {
       yLabel: "Junction temperature (°C)",
       series: profiles.map((p) => ({
         name: `Tj, ${num(p.ambientC)} °C`,
-        points: p.result.samples.map((s) => [s.timeS, s.tjC] as [number, number]),
+        points: p.samples.map((s) => [s.timeS, s.tjC] as [number, number]),
         markerSpacingPx: spacing,
       })),
       limits: ruleLimits(c, LIMIT_METRIC["startup-tj"], "°C"),

@@ -14,6 +14,7 @@ import { resolveStage } from "../map/resolve-stage.js";
 import { reviewCandidateInputs } from "../map/review-candidate.js";
 import { cornerRow, pointRow } from "../map/review-rows.js";
 import { turnOffEventFields } from "../map/turn-off-output.js";
+import { startUpOutput } from "../map/start-up-output.js";
 import { toReviewRequirement } from "../map/requirement.js";
 import { reviewRuleInput } from "../../domain/rules/metrics-of-review.js";
 import { reviewMonteCarlo } from "../map/review-monte-carlo.js";
@@ -161,7 +162,7 @@ export const review = defineProcedure({
           },
         ),
         corners: e.r.corners.map(cornerRow),
-        startUp: e.r.startUp,
+        startUp: startUpOutput(e.r.startUp, input.curves ?? false),
         ...(e.curves === undefined
           ? {}
           : {

@@ -1,8 +1,8 @@
 import type { TurnOffOutcome } from "./turn-off-event-types.js";
 import {
   det2,
-  gaussLegendre,
   holdPiece,
+  gaussLegendreEach,
   type Linear2,
   loopSystem,
   outputV,
@@ -11,6 +11,7 @@ import {
   shiftLoop,
   slowestDecayPerS,
   stateAt,
+  stateFrom,
   stateIntegral,
   type Vec2,
 } from "../physics/rlc-series.js";
@@ -91,30 +92,29 @@ export function phaseEnergies(p: RlcLoop, x0: Vec2, t: number, clampV: number, e
   // A decaying source's rate 1/τ joins the loop's in the panel density.
   const segments = quadratureSegments(s, t, decay === undefined ? 0 : 1 / decay.tauS);
   const rLoop = p.loopResistanceOhm;
-  const dissip = (f: (xs: Vec2) => number): number => {
-    let sum = 0;
-    for (const [a, b, n] of segments) sum += gaussLegendre((tt) => f(stateAt(s, x0, tt)), a, b, n);
-    return sum;
-  };
   const loadA = (xs: Vec2): number => p.loadCurrentA + p.loadConductanceS * outputV(p, xs);
-  const loopResistanceJ = dissip((xs) => rLoop * xs[0] * xs[0]);
-  const esrJ = dissip((xs) => {
+  // The dissipations in the loop resistance, the ESR and the load, and a decaying source's
+  // ΔV·∫e^(−t/τ)·i dt (the clamp is part of sourceV in the loop equations; its term is split out
+  // below), by Gauss-Legendre on the closed form: one evaluation of the state a node for all four.
+  const state = stateFrom(s, x0);
+  const integrands = (tt: number, out: number[]): void => {
+    const xs = state(tt);
     const ic = xs[0] - loadA(xs);
-    return p.esrOhm * ic * ic;
-  });
-  const loadJ = dissip((xs) => outputV(p, xs) * loadA(xs));
+    out[0] = rLoop * xs[0] * xs[0];
+    out[1] = p.esrOhm * ic * ic;
+    out[2] = outputV(p, xs) * loadA(xs);
+    if (decay !== undefined) out[3] = decay.extraV * Math.exp(-tt / decay.tauS) * xs[0];
+  };
+  const totals = [0, 0, 0, 0];
+  for (const [a, b, n] of segments) {
+    const part = gaussLegendreEach(integrands, a, b, n, decay === undefined ? 3 : 4);
+    part.forEach((v, k) => {
+      totals[k] = (totals[k] ?? 0) + v;
+    });
+  }
+  const [loopResistanceJ = 0, esrJ = 0, loadJ = 0, decayingJ = 0] = totals;
   const capacitorLostJ = 0.5 * p.capacitanceF * (x0[1] * x0[1] - x[1] * x[1]);
   const inductorLostJ = 0.5 * p.inductanceH * (x0[0] * x0[0] - x[0] * x[0]);
-  // The clamp is part of sourceV in the loop equations; split it out of the source term. A
-  // decaying source adds ΔV·∫e^(−t/τ)·i dt (Gauss-Legendre on the closed form).
-  const decayingJ =
-    decay === undefined
-      ? 0
-      : segments.reduce(
-          (sum, [a, b, n]) =>
-            sum + gaussLegendre((tt) => decay.extraV * Math.exp(-tt / decay.tauS) * stateAt(s, x0, tt)[0], a, b, n),
-          0,
-        );
   const sourceDeliveredJ = (p.sourceV - clampV) * q[0] + decayingJ;
   const clampJ = -clampV * q[0];
   const lost = capacitorLostJ + inductorLostJ + sourceDeliveredJ;

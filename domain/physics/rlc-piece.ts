@@ -91,11 +91,19 @@ export function particular(s: Linear2): Vec2 {
 
 /** Exact state x(t). */
 export function pieceState(s: Linear2, x0: Vec2, t: number): Vec2 {
+  return pieceStateFrom(s, x0)(t);
+}
+
+/** pieceState as a function of t, its parts that do not depend on t computed once (rlc-series.ts stateFrom). */
+export function pieceStateFrom(s: Linear2, x0: Vec2): (t: number) => Vec2 {
   const xp = particular(s);
   const { xe, mu } = forcedPart(s);
-  const f = Math.exp(mu * t);
-  const y = expApply(s, t, [x0[0] - xp[0] - xe[0], x0[1] - xp[1] - xe[1]]);
-  return [xp[0] + xe[0] * f + y[0], xp[1] + xe[1] * f + y[1]];
+  const y0: Vec2 = [x0[0] - xp[0] - xe[0], x0[1] - xp[1] - xe[1]];
+  return (t) => {
+    const f = Math.exp(mu * t);
+    const y = expApply(s, t, y0);
+    return [xp[0] + xe[0] * f + y[0], xp[1] + xe[1] * f + y[1]];
+  };
 }
 
 /** The natural part's rate v = A·(x0 − xp − xe) = A·x0 + b + e − μ·xe: x'(t) = e^(At)·v + μ·xe·e^(μt). */

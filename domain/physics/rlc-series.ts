@@ -40,6 +40,7 @@ import {
   pieceIntegral,
   pieceRate,
   pieceState,
+  pieceStateFrom,
   shifted,
   type Vec2,
 } from "./rlc-piece.js";
@@ -176,9 +177,23 @@ export function outputV(p: RlcLoop, x: Vec2): number {
 
 /** Exact state x(t). */
 export function stateAt(s: Linear2, x0: Vec2, t: number): Vec2 {
+  return stateFrom(s, x0)(t);
+}
+
+/**
+ * Exact state x(t) from x0 as a function of t, piece by piece (a held start, then the source's
+ * decay): each piece's particular solution, forced part and natural part's start, which do not
+ * depend on t, are computed once. The energy quadrature evaluates the state at up to 250,000
+ * nodes a segment (turn-off-loop.ts); recomputing them there, about ten small objects a node for
+ * each of four integrands, was 89 % of what a review call allocated (bench/results.json, row
+ * review-allocation: 648 -> 133 MB a call with gaussLegendreEach).
+ */
+export function stateFrom(s: Linear2, x0: Vec2): (t: number) => Vec2 {
+  const first = pieceStateFrom(s, x0);
   const n = s.next;
-  if (n === undefined || !(t > n.atS)) return pieceState(s, x0, t);
-  return stateAt(n.system, pieceState(s, x0, n.atS), t - n.atS);
+  if (n === undefined) return first;
+  const rest = stateFrom(n.system, first(n.atS));
+  return (t) => (t > n.atS ? rest(t - n.atS) : first(t));
 }
 
 /** Exact derivative x'(t). */
@@ -219,13 +234,44 @@ export function firstCrossing(s: Linear2, x0: Vec2, w: Vec2, level: number, tMax
 
 /** Composite 5-point Gauss-Legendre quadrature of f on [a, b] with n panels. */
 export function gaussLegendre(f: (t: number) => number, a: number, b: number, n: number): number {
-  const xs = [0, -0.5384693101056831, 0.5384693101056831, -0.906179845938664, 0.906179845938664];
-  const ws = [0.5688888888888889, 0.4786286704993665, 0.4786286704993665, 0.2369268850561891, 0.2369268850561891];
+  return (
+    gaussLegendreEach(
+      (t, out) => {
+        out[0] = f(t);
+      },
+      a,
+      b,
+      n,
+      1,
+    )[0] ?? 0
+  );
+}
+
+const GL_X = [0, -0.5384693101056831, 0.5384693101056831, -0.906179845938664, 0.906179845938664];
+const GL_W = [0.5688888888888889, 0.4786286704993665, 0.4786286704993665, 0.2369268850561891, 0.2369268850561891];
+
+/**
+ * The same quadrature of `count` integrands at once: `f` writes their values at a node into `out`
+ * (one array for the whole quadrature), so integrands that share a costly part (the loop's state,
+ * turn-off-loop.ts) evaluate it once a node. Each sum is formed at the same nodes in the same order
+ * as for one integrand alone.
+ */
+export function gaussLegendreEach(
+  f: (t: number, out: number[]) => void,
+  a: number,
+  b: number,
+  n: number,
+  count: number,
+): number[] {
   const h = (b - a) / n;
-  let sum = 0;
+  const sums: number[] = new Array<number>(count).fill(0);
+  const v: number[] = new Array<number>(count).fill(0);
   for (let i = 0; i < n; i += 1) {
     const mid = a + (i + 0.5) * h;
-    for (let j = 0; j < 5; j += 1) sum += (ws[j] ?? 0) * f(mid + 0.5 * h * (xs[j] ?? 0));
+    for (let j = 0; j < 5; j += 1) {
+      f(mid + 0.5 * h * (GL_X[j] ?? 0), v);
+      for (let k = 0; k < count; k += 1) sums[k] = (sums[k] ?? 0) + (GL_W[j] ?? 0) * (v[k] ?? 0);
+    }
   }
-  return 0.5 * h * sum;
+  return sums.map((sum) => 0.5 * h * sum);
 }

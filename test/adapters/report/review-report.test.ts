@@ -50,20 +50,20 @@ function expectedSeries(c: Cand, kind: string, xUnit = "s"): Map<string, [number
         ["supply", (profiles[0]?.result.samples ?? []).map((s) => [s.timeS, s.supplyV] as [number, number])],
         ...profiles.map(
           (p) =>
-            [`load, ${minus(p.ambientC)} °C`, p.result.samples.map((s) => [s.timeS, s.loadV] as [number, number])] as [
-              string,
-              [number, number][],
-            ],
+            [
+              `load, ${minus(p.ambientC)} °C`,
+              (p.result.samples ?? []).map((s) => [s.timeS, s.loadV] as [number, number]),
+            ] as [string, [number, number][]],
         ),
       ]);
     case "startup-tj":
       return new Map(
         profiles.map(
           (p) =>
-            [`Tj, ${minus(p.ambientC)} °C`, p.result.samples.map((s) => [s.timeS, s.tjC] as [number, number])] as [
-              string,
-              [number, number][],
-            ],
+            [
+              `Tj, ${minus(p.ambientC)} °C`,
+              (p.result.samples ?? []).map((s) => [s.timeS, s.tjC] as [number, number]),
+            ] as [string, [number, number][]],
         ),
       );
     case "turnoff-current": {
