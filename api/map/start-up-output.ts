@@ -2,9 +2,10 @@ import type { ProfileResult, ProfileSample } from "../../domain/checks/start-up.
 import type { CandidateReview } from "../../domain/review/candidate-review.js";
 
 /**
- * A review candidate's start-up as answered. Each start-up profile keeps the figures the rules and
- * a gate read (the lowest load voltage and highest Tj, which metrics-of-review.ts takes into
- * loadVMinV and tjWorstC; the body-diode and dropout times; the thermal model), its number of
+ * A review candidate's start-up as answered. Each start-up profile keeps every figure of its result
+ * (among them what the rules and a gate read: the lowest load voltage and highest Tj, which
+ * metrics-of-review.ts takes into loadVMinV and tjWorstC; the body-diode, dropout and thermal
+ * shutdown times; the thermal model), its number of
  * samples, and the samples at its lowest load voltage and at its highest Tj (the first of equals).
  * The samples themselves come only with `points` (the review's `curves`, which reports ask for): a
  * built-in profile of two cranks is 441 samples an ambient, and they were 594 of the example
@@ -15,21 +16,18 @@ export function startUpOutput(s: CandidateReview["startUp"], points: boolean) {
 }
 
 function profileOutput(r: ProfileResult, points: boolean) {
+  const { samples, ...figures } = r;
   return {
-    ...(points ? { samples: r.samples } : {}),
-    minLoadV: r.minLoadV,
-    maxTjC: r.maxTjC,
-    bodyDiodeTimeS: r.bodyDiodeTimeS,
-    dropoutTimeS: r.dropoutTimeS,
-    thermalModel: r.thermalModel,
-    sampleCount: r.samples.length,
+    ...(points ? { samples } : {}),
+    ...figures,
+    sampleCount: samples.length,
     lowestLoad: firstExtreme(
-      r.samples,
+      samples,
       (s) => s.loadV,
       (a, b) => a < b,
     ),
     hottest: firstExtreme(
-      r.samples,
+      samples,
       (s) => s.tjC,
       (a, b) => a > b,
     ),

@@ -4,7 +4,7 @@ import { Agent, request } from "node:http";
 import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
 import { projectRoot } from "../../adapters/project-root.js";
-import { startBuiltServer } from "../helpers/built-server.js";
+import { startBuiltServer, untilLogged } from "../helpers/built-server.js";
 
 // The built server as a process on a loopback port (dist/ is built on first use, test/helpers/build-once.ts):
 // one HTTP process, as a container runs it (deploy/deployment.yaml).
@@ -223,6 +223,8 @@ describe("the server process", () => {
     expect(await exited(child)).toBe(2);
     expect(err).toMatch(/BACKSTOP_MAX_BODY_BYTES must be a positive integer/);
     const s = await start({ BACKSTOP_HTTP_PROCESSES: "4", BACKSTOP_WORKERS: "0" });
+    // the warning is its own log line, which may reach the pipe after the listening line
+    await untilLogged(s, "BACKSTOP_HTTP_PROCESSES is no longer read");
     expect(s.logs.join("")).toMatch(/BACKSTOP_HTTP_PROCESSES is no longer read/);
     s.child.kill("SIGTERM");
     expect(await exited(s.child)).toBe(0);

@@ -39,11 +39,14 @@ export function untilLogged(server: { child: ChildProcess; logs: string[] }, tex
     const look = () => {
       if (!server.logs.join("").includes(text)) return;
       server.child.stdout?.off("data", look);
+      server.child.stderr?.off("data", look);
       server.child.off("exit", gone);
       resolve();
     };
     const gone = () => reject(new Error(`the server exited before it logged "${text}": ${server.logs.join("")}`));
+    // after the output's own listeners (startBuiltServer's), which fill `logs`
     server.child.stdout?.on("data", look);
+    server.child.stderr?.on("data", look);
     server.child.once("exit", gone);
   });
 }

@@ -138,6 +138,7 @@ describe("limits on answers and time", () => {
       ...plainReview,
       requirement: { ...reviewRequirement, startProfile: profile(200) },
       candidates: reviewCandidates.slice(0, 1),
+      curves: true, // the profile's samples, so that the answer passes 1 MB
     };
     for (const path of ["/v1/review", "/trpc/review", "/v1/review/report?format=json"]) {
       const r = await post(path, big);
