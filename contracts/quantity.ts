@@ -135,3 +135,6 @@ export const ABSOLUTE_ZERO_C = -273.15;
 export const MAX_TEMPERATURE_C = 400;
 export const temperatureC = (description: string) =>
   quantity("degC", description, { gt: ABSOLUTE_ZERO_C, le: MAX_TEMPERATURE_C });
+
+/** A positive voltage of up to 10 kV, in V. */
+export const volts = (d: string) => quantity("V", d, { gt: 0, le: 10_000 });
